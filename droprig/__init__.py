@@ -1,0 +1,3 @@
+"""droprig: dropped-load assessment of floor framing under crane swing zones."""
+
+__version__ = "0.1.0"

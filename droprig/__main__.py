@@ -1,0 +1,3 @@
+from droprig.cli import main
+
+raise SystemExit(main())

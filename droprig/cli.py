@@ -1,0 +1,111 @@
+"""Command line: the same job headless.
+
+Each sub-command's work lives in ``droprig/commands/<name>.py`` (imported only
+when that command runs, so ``droprig --version`` stays fast and Qt is loaded
+only by ``gui``/``demo``). Bad input prints one clear message and exits 2;
+never a traceback.
+"""
+
+from __future__ import annotations
+
+import argparse
+import importlib
+import sys
+from collections.abc import Sequence
+
+from droprig import __version__
+
+EXIT_OK = 0
+EXIT_BAD_INPUT = 2
+
+CAUTION = (
+    "CAUTION: droprig is an aid to a competent person. Results must be reviewed against "
+    "local codes by the appointed lifting person and a licensed structural engineer; keep "
+    "people out from under the load path whatever the result."
+)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="droprig",
+        description="Dropped-load assessment of floor framing under crane swing zones.",
+        epilog=CAUTION,
+    )
+    p.add_argument("--version", action="version", version=f"droprig {__version__}")
+    sub = p.add_subparsers(dest="command", metavar="COMMAND")
+
+    s = sub.add_parser("validate", help="check a .droprig project file")
+    s.add_argument("file")
+
+    s = sub.add_parser("check", help="one member struck by one dropped load")
+    s.add_argument("--section", required=True, help="library name, e.g. W16X26 or IPE 300")
+    s.add_argument("--grade", required=True, help="e.g. A992, S355")
+    s.add_argument("--span", required=True, help="member span, e.g. 6m or 24 ft")
+    s.add_argument("--at", required=True, help="struck point measured from the origin end")
+    s.add_argument("--mass", required=True, help="dropped mass, e.g. 1500lb or 2 t")
+    s.add_argument("--drop", required=True, help="free-fall height, e.g. 300mm")
+    s.add_argument("--support", default="simple",
+                   choices=["simple", "fixed", "propped", "cantilever"])
+    s.add_argument("--code", choices=["aisc360", "en1993"], default=None,
+                   help="design basis (default: from the grade's family)")
+    s.add_argument("--bearing", default=None,
+                   help="bearing length along the member (default 0: a point contact)")
+    s.add_argument("--cushion-stiffness", default=None, help="spring mat stiffness, e.g. 2e6 N/m")
+    s.add_argument("--crush-force", default=None, help="crushable layer force, e.g. 50 kN")
+    s.add_argument("--crush-stroke", default=None, help="crushable layer stroke, e.g. 50mm")
+    s.add_argument("--udl", default=None, help="existing uniform load besides self-weight, "
+                   "e.g. 5 kN/m")
+    s.add_argument("--no-self-weight", action="store_true")
+    s.add_argument("--no-beam-mass", action="store_true",
+                   help="ignore the member's inertia (η = 1)")
+    s.add_argument("--units", choices=["SI", "US"], default=None,
+                   help="units of the printed table (default: from the grade's family)")
+    s.add_argument("--json", action="store_true", help="print one JSON object in SI units")
+
+    s = sub.add_parser("analyse", aliases=["analyze"], help="every drop point of every lift zone")
+    s.add_argument("file")
+    s.add_argument("--json", dest="json_out", default=None, metavar="OUT",
+                   help="write the results as JSON to OUT ('-' for stdout)")
+    s.add_argument("--csv", dest="csv_out", default=None, metavar="OUT",
+                   help="write one row per drop point to OUT")
+
+    s = sub.add_parser("report", help="the PDF annex for a lift permit")
+    s.add_argument("file")
+    s.add_argument("-o", "--output", required=True)
+    s.add_argument("--lift", default=None, help="only this lift zone id")
+
+    s = sub.add_parser("gui", help="open the desktop application")
+    s.add_argument("file", nargs="?")
+    s.add_argument("--screenshot", default=None, metavar="PNG",
+                   help="render, save a grab of the main window and exit")
+
+    s = sub.add_parser("demo", help="run the bundled demo (GUI when a display exists)")
+    s.add_argument("--headless", action="store_true")
+    s.add_argument("--out", default="out/demo", help="folder for headless outputs")
+    return p
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    if not args.command:
+        parser.print_help()
+        return EXIT_OK
+    name = {"analyze": "analyse"}.get(args.command, args.command)
+    module = importlib.import_module(f"droprig.commands.{name}")
+    try:
+        return int(module.run(args))
+    except BrokenPipeError:
+        return EXIT_OK
+    except KeyboardInterrupt:
+        print("droprig: interrupted", file=sys.stderr)
+        return 130
+    except Exception as exc:  # last line of defence: a message, never a traceback
+        from droprig.commands import describe_error
+
+        print(f"droprig {name}: {describe_error(exc)}", file=sys.stderr)
+        return EXIT_BAD_INPUT
+
+
+if __name__ == "__main__":
+    raise SystemExit(main())

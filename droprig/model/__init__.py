@@ -1,0 +1,45 @@
+"""Project model: plain frozen dataclasses in SI units. No Qt, no I/O, no numpy."""
+
+from droprig.model.errors import ModelError
+from droprig.model.framing import Bay, bays, default_labels, generate_level
+from droprig.model.project import (
+    END_CONDITIONS,
+    ColumnGrid,
+    Deck,
+    Level,
+    LiftLoad,
+    LiftZone,
+    Member,
+    Point,
+    Project,
+    ProjectInfo,
+    ProtectionArea,
+    Rect,
+    Settings,
+)
+from droprig.model.sections import E_STEEL, Concrete, Grade, Section
+
+__all__ = [
+    "END_CONDITIONS",
+    "E_STEEL",
+    "Bay",
+    "ColumnGrid",
+    "Concrete",
+    "Deck",
+    "Grade",
+    "Level",
+    "LiftLoad",
+    "LiftZone",
+    "Member",
+    "ModelError",
+    "Point",
+    "Project",
+    "ProjectInfo",
+    "ProtectionArea",
+    "Rect",
+    "Section",
+    "Settings",
+    "bays",
+    "default_labels",
+    "generate_level",
+]

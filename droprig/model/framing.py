@@ -1,0 +1,131 @@
+"""Bays and the framing generator (pure geometry, SI)."""
+
+from __future__ import annotations
+
+import math
+import string
+from dataclasses import dataclass
+from typing import Literal
+
+from droprig.model.errors import ModelError, check_range
+from droprig.model.project import ColumnGrid, Deck, Level, Member, Rect
+from droprig.model.sections import Grade, Section
+
+
+@dataclass(frozen=True)
+class Bay:
+    """A column bay: the deck panel between two adjacent grid lines each way.
+
+    This is the unit a safety officer reviews. ``id`` reads like
+    ``"1-2/A-B"`` (x-lines then y-lines).
+    """
+
+    id: str
+    level_id: str
+    i: int
+    j: int
+    rect: Rect
+
+
+def bays(level: Level) -> tuple[Bay, ...]:
+    """The column bays of a level, row by row (y outer, x inner)."""
+    g = level.grid
+    out = []
+    for j in range(len(g.y_lines) - 1):
+        for i in range(len(g.x_lines) - 1):
+            bay_id = f"{g.x_labels[i]}-{g.x_labels[i + 1]}/{g.y_labels[j]}-{g.y_labels[j + 1]}"
+            out.append(Bay(bay_id, level.id, i, j,
+                           Rect(g.x_lines[i], g.y_lines[j], g.x_lines[i + 1], g.y_lines[j + 1])))
+    return tuple(out)
+
+
+def default_labels(n: int, style: Literal["numbers", "letters"]) -> tuple[str, ...]:
+    """Grid labels 1, 2, 3 … or A, B, … Z, AA, AB … (I and O skipped, common practice,
+    no source)."""
+    if style == "numbers":
+        return tuple(str(i + 1) for i in range(n))
+    letters = [c for c in string.ascii_uppercase if c not in "IO"]
+    out: list[str] = []
+    k = 0
+    while len(out) < n:
+        out.append(letters[k] if k < len(letters) else
+                   letters[k // len(letters) - 1] + letters[k % len(letters)])
+        k += 1
+    return tuple(out)
+
+
+def generate_level(
+    *,
+    level_id: str,
+    name: str,
+    elevation: float,
+    x_spacings: tuple[float, ...],
+    y_spacings: tuple[float, ...],
+    girder_direction: Literal["x", "y"],
+    beam_spacing: float,
+    girder_section: Section,
+    beam_section: Section,
+    girder_grade: Grade,
+    beam_grade: Grade,
+    deck: Deck | None = None,
+    superimposed_dead: float = 1000.0,
+    live_in_place: float = 0.0,
+    x_labels: tuple[str, ...] | None = None,
+    y_labels: tuple[str, ...] | None = None,
+    origin: tuple[float, float] = (0.0, 0.0),
+) -> Level:
+    """Build a regularly framed level.
+
+    Girders run along ``girder_direction`` on every grid line of that direction,
+    spanning column to column. Infill beams run the other way between girders,
+    on every column line (framing column to column) and at equal spacing no
+    larger than ``beam_spacing`` inside each bay. The deck spans between the
+    beams, parallel to the girders. All members simply supported.
+    """
+    check_range("generator.beam_spacing", beam_spacing, 0.5, 10.0, unit="m")
+    if not x_spacings or not y_spacings:
+        raise ModelError("generator.spacings", (x_spacings, y_spacings),
+                         "at least one bay each way")
+    xs = [origin[0]]
+    for i, s in enumerate(x_spacings):
+        check_range(f"generator.x_spacings[{i}]", s, 0.5, 60.0, unit="m")
+        xs.append(xs[-1] + s)
+    ys = [origin[1]]
+    for i, s in enumerate(y_spacings):
+        check_range(f"generator.y_spacings[{i}]", s, 0.5, 60.0, unit="m")
+        ys.append(ys[-1] + s)
+    grid = ColumnGrid(
+        tuple(xs), tuple(ys),
+        x_labels or default_labels(len(xs), "numbers"),
+        y_labels or default_labels(len(ys), "letters"),
+    )
+    members: list[Member] = []
+    # Work in (u, v): u along girders, v across. Girders on the v-lines.
+    u_lines, v_lines = (xs, ys) if girder_direction == "x" else (ys, xs)
+    u_lab, v_lab = (grid.x_labels, grid.y_labels) if girder_direction == "x" else (
+        grid.y_labels, grid.x_labels)
+
+    def pt(u: float, v: float) -> tuple[float, float]:
+        return (u, v) if girder_direction == "x" else (v, u)
+
+    for j, v in enumerate(v_lines):
+        for i in range(len(u_lines) - 1):
+            members.append(Member(f"G{v_lab[j]}/{u_lab[i]}-{u_lab[i + 1]}", "girder",
+                                   pt(u_lines[i], v), pt(u_lines[i + 1], v),
+                                   girder_section, girder_grade))
+    for j in range(len(v_lines) - 1):
+        for i in range(len(u_lines)):
+            members.append(Member(f"B{u_lab[i]}/{v_lab[j]}-{v_lab[j + 1]}", "beam",
+                                  pt(u_lines[i], v_lines[j]), pt(u_lines[i], v_lines[j + 1]),
+                                  beam_section, beam_grade))
+            if i == len(u_lines) - 1:
+                continue
+            width = u_lines[i + 1] - u_lines[i]
+            n = max(1, math.ceil(width / beam_spacing - 1e-9))
+            for k in range(1, n):
+                u = u_lines[i] + width * k / n
+                members.append(Member(
+                    f"B{u_lab[i]}.{k}/{v_lab[j]}-{v_lab[j + 1]}", "beam",
+                    pt(u, v_lines[j]), pt(u, v_lines[j + 1]), beam_section, beam_grade))
+    return Level(level_id, name, elevation, grid, tuple(members), deck or Deck(),
+                 superimposed_dead, live_in_place)

@@ -1,0 +1,467 @@
+"""The droprig project: framing, lift zones, loads and protection (SI units).
+
+Plain frozen dataclasses; every constructor validates and raises
+:class:`~droprig.model.errors.ModelError` naming the field, value and range.
+Edit with :func:`dataclasses.replace`.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from typing import Literal
+
+from droprig.model.errors import (
+    ModelError,
+    check_choice,
+    check_finite,
+    check_positive,
+    check_range,
+    check_text,
+)
+from droprig.model.sections import Concrete, Grade, Section
+
+Point = tuple[float, float]
+EndCondition = Literal["simple", "fixed", "propped", "cantilever"]
+END_CONDITIONS: tuple[str, ...] = ("simple", "fixed", "propped", "cantilever")
+MemberRole = Literal["girder", "beam"]
+UnitSystem = Literal["SI", "US"]
+DesignBasis = Literal["aisc360", "en1993"]
+DeckKind = Literal["composite", "solid_slab"]
+MatKind = Literal["spring", "crushable"]
+LoadKind = Literal["load", "rigging"]
+
+GEOMETRY_TOL = 1e-6
+"""Two plan points closer than this (m) are the same point."""
+
+
+def _check_point(name: str, p: Point, lim: float = 10_000.0) -> Point:
+    if not (isinstance(p, tuple) and len(p) == 2):
+        raise ModelError(name, p, "a pair (x, y) of numbers in m")
+    return (
+        check_range(f"{name}.x", p[0], -lim, lim, unit="m"),
+        check_range(f"{name}.y", p[1], -lim, lim, unit="m"),
+    )
+
+
+@dataclass(frozen=True)
+class Rect:
+    """Axis-aligned rectangle in plan, m."""
+
+    x0: float
+    y0: float
+    x1: float
+    y1: float
+
+    def __post_init__(self) -> None:
+        for n in ("x0", "y0", "x1", "y1"):
+            check_range(f"rect.{n}", getattr(self, n), -10_000.0, 10_000.0, unit="m")
+        if self.x1 <= self.x0:
+            raise ModelError("rect.x1", self.x1, f"> x0 = {self.x0:g} m", "m")
+        if self.y1 <= self.y0:
+            raise ModelError("rect.y1", self.y1, f"> y0 = {self.y0:g} m", "m")
+
+    @property
+    def width(self) -> float:
+        return self.x1 - self.x0
+
+    @property
+    def height(self) -> float:
+        return self.y1 - self.y0
+
+    def contains(self, x: float, y: float) -> bool:
+        return self.x0 <= x <= self.x1 and self.y0 <= y <= self.y1
+
+
+@dataclass(frozen=True)
+class ProjectInfo:
+    """Title-block data."""
+
+    name: str = "Untitled lift"
+    site: str = ""
+    lift_reference: str = ""
+    revision: str = "A"
+    date: str = ""
+    prepared_by: str = ""
+    checked_by: str = ""
+    approved_by: str = ""
+    description: str = ""
+
+    def __post_init__(self) -> None:
+        check_text("info.name", self.name, required=True)
+        for n in ("site", "lift_reference", "revision", "date", "prepared_by", "checked_by",
+                  "approved_by"):
+            check_text(f"info.{n}", getattr(self, n))
+        check_text("info.description", self.description, max_len=4000)
+
+
+@dataclass(frozen=True)
+class Settings:
+    """Analysis settings.
+
+    resistance_factor: φ applied to every resistance (accidental situation: 1.0,
+    common practice, no source). dynamic_increase_factor: multiplies the yield
+    strength (UFC 3-340-02 gives values for blast strain rates; 1.0 default for
+    the slower strain rates of a dropped load, from memory). deflection_limit_ratio:
+    N in span/N (240, IBC Table 1604.3 dead + live; information only).
+    ductility_limit μ and rotation_limit θ (rad): NAVFAC DM-2.08 non-reusable
+    steel beams, μ = 6, θ = 2°. grid_resolution: drop-point spacing, m.
+    """
+
+    unit_system: UnitSystem = "SI"
+    design_basis: DesignBasis = "en1993"
+    resistance_factor: float = 1.0
+    dynamic_increase_factor: float = 1.0
+    deflection_limit_ratio: float = 240.0
+    ductility_limit: float = 6.0
+    rotation_limit: float = math.radians(2.0)
+    grid_resolution: float = 0.5
+    include_member_mass: bool = True
+    include_existing_loads: bool = True
+
+    def __post_init__(self) -> None:
+        check_choice("settings.unit_system", self.unit_system, ("SI", "US"))
+        check_choice("settings.design_basis", self.design_basis, ("aisc360", "en1993"))
+        check_range("settings.resistance_factor", self.resistance_factor, 0.5, 1.0)
+        check_range("settings.dynamic_increase_factor", self.dynamic_increase_factor, 1.0, 2.0)
+        check_range("settings.deflection_limit_ratio", self.deflection_limit_ratio, 60.0, 2000.0)
+        check_range("settings.ductility_limit", self.ductility_limit, 1.0, 30.0)
+        check_range("settings.rotation_limit", self.rotation_limit, math.radians(0.1),
+                    math.radians(15.0), unit="rad")
+        check_range("settings.grid_resolution", self.grid_resolution, 0.05, 5.0, unit="m")
+        for n in ("include_member_mass", "include_existing_loads"):
+            if not isinstance(getattr(self, n), bool):
+                raise ModelError(f"settings.{n}", getattr(self, n), "true or false")
+
+
+@dataclass(frozen=True)
+class ColumnGrid:
+    """Orthogonal column grid: lines x = x_lines[i] (labels x_labels) and
+    y = y_lines[j] (labels y_labels), strictly increasing. Columns stand at every
+    intersection and are taken as rigid supports."""
+
+    x_lines: tuple[float, ...]
+    y_lines: tuple[float, ...]
+    x_labels: tuple[str, ...]
+    y_labels: tuple[str, ...]
+
+    def __post_init__(self) -> None:
+        for axis in ("x", "y"):
+            lines = getattr(self, f"{axis}_lines")
+            labels = getattr(self, f"{axis}_labels")
+            if len(lines) < 2:
+                raise ModelError(f"grid.{axis}_lines", len(lines), "at least 2 grid lines")
+            if len(lines) > 60:
+                raise ModelError(f"grid.{axis}_lines", len(lines), "at most 60 grid lines")
+            if len(labels) != len(lines):
+                raise ModelError(f"grid.{axis}_labels", len(labels),
+                                 f"one label per grid line ({len(lines)})")
+            for i, v in enumerate(lines):
+                check_range(f"grid.{axis}_lines[{i}]", v, -10_000.0, 10_000.0, unit="m")
+            for i in range(1, len(lines)):
+                gap = lines[i] - lines[i - 1]
+                if gap < 0.5 or gap > 60.0:
+                    raise ModelError(f"grid.{axis}_lines[{i}]", lines[i],
+                                     f"0.5 m to 60 m after the previous line "
+                                     f"({lines[i - 1]:g} m)", "m")
+            if len(set(labels)) != len(labels):
+                raise ModelError(f"grid.{axis}_labels", labels, "unique labels")
+            for i, lab in enumerate(labels):
+                check_text(f"grid.{axis}_labels[{i}]", lab, required=True, max_len=8)
+
+    @property
+    def columns(self) -> tuple[Point, ...]:
+        return tuple((x, y) for y in self.y_lines for x in self.x_lines)
+
+    @property
+    def extent(self) -> Rect:
+        return Rect(self.x_lines[0], self.y_lines[0], self.x_lines[-1], self.y_lines[-1])
+
+
+@dataclass(frozen=True)
+class Member:
+    """A steel beam or girder in plan from ``start`` to ``end``.
+
+    End conditions: ``simple`` (pinned both ends), ``fixed`` (both ends),
+    ``propped`` (fixed at ``start``, pinned at ``end``), ``cantilever`` (fixed at
+    ``start``, free at ``end``). A member's ends rest on a column (grid
+    intersection) or on another member whose line passes through the end.
+    """
+
+    id: str
+    role: MemberRole
+    start: Point
+    end: Point
+    section: Section
+    grade: Grade
+    end_condition: EndCondition = "simple"
+
+    def __post_init__(self) -> None:
+        check_text("member.id", self.id, required=True, max_len=32)
+        check_choice(f"member {self.id}.role", self.role, ("girder", "beam"))
+        _check_point(f"member {self.id}.start", self.start)
+        _check_point(f"member {self.id}.end", self.end)
+        check_choice(f"member {self.id}.end_condition", self.end_condition, END_CONDITIONS)
+        span = self.span
+        if span < 0.5 or span > 60.0:
+            raise ModelError(f"member {self.id}.span", span, "0.5 m to 60 m", "m")
+        if abs(self.start[0] - self.end[0]) > GEOMETRY_TOL and abs(
+            self.start[1] - self.end[1]
+        ) > GEOMETRY_TOL:
+            raise ModelError(f"member {self.id}.end", self.end,
+                             "a member parallel to the x or y axis")
+
+    @property
+    def span(self) -> float:
+        return math.hypot(self.end[0] - self.start[0], self.end[1] - self.start[1])
+
+    @property
+    def axis(self) -> Literal["x", "y"]:
+        """Direction the member spans along."""
+        return "x" if abs(self.end[0] - self.start[0]) > abs(self.end[1] - self.start[1]) else "y"
+
+
+@dataclass(frozen=True)
+class Deck:
+    """Floor deck spanning one way between the members parallel to the infill
+    beams. thickness: total slab depth, m; cover to the bottom bars, m;
+    rebar_area: bottom reinforcement per metre width, m²/m."""
+
+    kind: DeckKind = "composite"
+    thickness: float = 0.13
+    concrete: Concrete = field(default_factory=Concrete)
+    cover: float = 0.025
+    rebar_area: float = 2.5e-4
+    openings: tuple[Rect, ...] = ()
+
+    def __post_init__(self) -> None:
+        check_choice("deck.kind", self.kind, ("composite", "solid_slab"))
+        check_range("deck.thickness", self.thickness, 0.05, 0.6, unit="m")
+        check_range("deck.cover", self.cover, 0.01, 0.1, unit="m")
+        if self.cover >= self.thickness / 2:
+            raise ModelError("deck.cover", self.cover,
+                             f"< thickness/2 = {self.thickness / 2:g} m", "m")
+        check_range("deck.rebar_area", self.rebar_area, 5e-5, 5e-3, unit="m²/m")
+
+    @property
+    def self_weight_pressure(self) -> float:
+        """Deck self-weight, Pa (thickness × density × g)."""
+        return self.thickness * self.concrete.density * 9.80665
+
+
+@dataclass(frozen=True)
+class Level:
+    """A framed floor or roof level at ``elevation`` (top of deck, m)."""
+
+    id: str
+    name: str
+    elevation: float
+    grid: ColumnGrid
+    members: tuple[Member, ...]
+    deck: Deck = field(default_factory=Deck)
+    superimposed_dead: float = 1000.0
+    live_in_place: float = 0.0
+
+    def __post_init__(self) -> None:
+        check_text("level.id", self.id, required=True, max_len=32)
+        check_text(f"level {self.id}.name", self.name)
+        check_range(f"level {self.id}.elevation", self.elevation, -500.0, 1000.0, unit="m")
+        check_range(f"level {self.id}.superimposed_dead", self.superimposed_dead, 0.0, 50e3,
+                    unit="Pa")
+        check_range(f"level {self.id}.live_in_place", self.live_in_place, 0.0, 50e3, unit="Pa")
+        ids = [m.id for m in self.members]
+        dup = {i for i in ids if ids.count(i) > 1}
+        if dup:
+            raise ModelError(f"level {self.id}.members", sorted(dup)[0], "unique member ids")
+
+    def member(self, member_id: str) -> Member:
+        for m in self.members:
+            if m.id == member_id:
+                return m
+        raise KeyError(member_id)
+
+
+@dataclass(frozen=True)
+class LiftLoad:
+    """A load (or a rigging item) that could drop.
+
+    Give either ``drop_height`` (m from the load's underside to the deck top or
+    mat top) or ``hook_elevation`` (m, same datum as level elevations) with
+    ``hang_length`` from the hook to the load's underside. Footprint is the plan
+    contact size of the load's underside, m.
+    """
+
+    name: str
+    mass: float
+    footprint_length: float = 1.0
+    footprint_width: float = 1.0
+    drop_height: float | None = 1.0
+    hook_elevation: float | None = None
+    hang_length: float = 0.0
+    kind: LoadKind = "load"
+
+    def __post_init__(self) -> None:
+        check_text("load.name", self.name, required=True, max_len=64)
+        check_range(f"load {self.name}.mass", self.mass, 1.0, 500_000.0, unit="kg")
+        check_range(f"load {self.name}.footprint_length", self.footprint_length, 0.01, 30.0,
+                    unit="m")
+        check_range(f"load {self.name}.footprint_width", self.footprint_width, 0.01, 30.0,
+                    unit="m")
+        check_choice(f"load {self.name}.kind", self.kind, ("load", "rigging"))
+        if (self.drop_height is None) == (self.hook_elevation is None):
+            raise ModelError(f"load {self.name}.drop_height", self.drop_height,
+                             "either a drop height or a hook elevation, not both")
+        if self.drop_height is not None:
+            check_range(f"load {self.name}.drop_height", self.drop_height, 0.0, 200.0, unit="m")
+        if self.hook_elevation is not None:
+            check_range(f"load {self.name}.hook_elevation", self.hook_elevation, -500.0,
+                        1500.0, unit="m")
+        check_range(f"load {self.name}.hang_length", self.hang_length, 0.0, 200.0, unit="m")
+
+    @property
+    def weight(self) -> float:
+        """W = M·g, N."""
+        return self.mass * 9.80665
+
+    def height_above(self, surface_elevation: float) -> float:
+        """Free-fall height onto a surface at ``surface_elevation`` (m), ≥ 0."""
+        if self.drop_height is not None:
+            return self.drop_height
+        assert self.hook_elevation is not None
+        h = self.hook_elevation - self.hang_length - surface_elevation
+        if h < 0:
+            raise ModelError(f"load {self.name}.hook_elevation", self.hook_elevation,
+                             f"≥ {surface_elevation + self.hang_length:g} m (load underside "
+                             "above the struck surface)", "m")
+        return h
+
+
+@dataclass(frozen=True)
+class LiftZone:
+    """A crane position and the plan region its load may pass over.
+
+    Region: annulus r_min ≤ r ≤ r_max around the crane centre, slewing
+    counter-clockwise from ``slew_start`` to ``slew_end`` (rad, from +x); equal
+    angles mod 2π mean a full circle. If ``corridor`` (polygon, ≥ 3 points) is
+    given, the region is the sector intersected with the corridor. The region
+    is widened by ``drift_margin`` (m) for load swing.
+    """
+
+    id: str
+    name: str
+    level_id: str
+    crane: Point
+    r_min: float
+    r_max: float
+    slew_start: float = 0.0
+    slew_end: float = 2 * math.pi
+    drift_margin: float = 0.5
+    corridor: tuple[Point, ...] = ()
+    loads: tuple[LiftLoad, ...] = ()
+
+    def __post_init__(self) -> None:
+        check_text("zone.id", self.id, required=True, max_len=32)
+        check_text(f"zone {self.id}.name", self.name)
+        check_text(f"zone {self.id}.level_id", self.level_id, required=True)
+        _check_point(f"zone {self.id}.crane", self.crane)
+        check_range(f"zone {self.id}.r_min", self.r_min, 0.0, 200.0, unit="m")
+        check_range(f"zone {self.id}.r_max", self.r_max, 0.5, 200.0, unit="m")
+        if self.r_max <= self.r_min:
+            raise ModelError(f"zone {self.id}.r_max", self.r_max,
+                             f"> r_min = {self.r_min:g} m", "m")
+        check_finite(f"zone {self.id}.slew_start", self.slew_start, "rad")
+        check_finite(f"zone {self.id}.slew_end", self.slew_end, "rad")
+        check_range(f"zone {self.id}.drift_margin", self.drift_margin, 0.0, 20.0, unit="m")
+        if self.corridor and len(self.corridor) < 3:
+            raise ModelError(f"zone {self.id}.corridor", len(self.corridor),
+                             "no corridor, or a polygon of at least 3 points")
+        for i, p in enumerate(self.corridor):
+            _check_point(f"zone {self.id}.corridor[{i}]", p)
+        names = [ld.name for ld in self.loads]
+        dup = {n for n in names if names.count(n) > 1}
+        if dup:
+            raise ModelError(f"zone {self.id}.loads", sorted(dup)[0], "unique load names")
+
+    @property
+    def slew_sweep(self) -> float:
+        """Counter-clockwise sweep from start to end, rad, in (0, 2π]."""
+        sweep = (self.slew_end - self.slew_start) % (2 * math.pi)
+        return 2 * math.pi if sweep < 1e-9 else sweep
+
+
+@dataclass(frozen=True)
+class ProtectionArea:
+    """A mat or protective layer laid over a rectangle of a level.
+
+    ``spring``: an elastic mat of plan stiffness ``stiffness`` (N/m, for the
+    load's footprint). ``crushable``: a layer that crushes at a constant
+    ``crush_force`` (N) over ``crush_stroke`` (m), then bottoms out.
+    ``thickness`` raises the struck surface (reduces the free fall) and spreads
+    the load at 1:1 to the deck below (common practice, no source).
+    """
+
+    id: str
+    name: str
+    level_id: str
+    area: Rect
+    kind: MatKind = "spring"
+    thickness: float = 0.2
+    stiffness: float | None = 50e6
+    crush_force: float | None = None
+    crush_stroke: float | None = None
+
+    def __post_init__(self) -> None:
+        check_text("protection.id", self.id, required=True, max_len=32)
+        check_text(f"protection {self.id}.name", self.name)
+        check_text(f"protection {self.id}.level_id", self.level_id, required=True)
+        check_choice(f"protection {self.id}.kind", self.kind, ("spring", "crushable"))
+        check_range(f"protection {self.id}.thickness", self.thickness, 0.0, 3.0, unit="m")
+        if self.kind == "spring":
+            if self.stiffness is None:
+                raise ModelError(f"protection {self.id}.stiffness", None, "> 0 N/m for a spring mat")
+            check_range(f"protection {self.id}.stiffness", self.stiffness, 1e3, 1e12, unit="N/m")
+        else:
+            if self.crush_force is None or self.crush_stroke is None:
+                raise ModelError(f"protection {self.id}.crush_force", self.crush_force,
+                                 "a crush force and a crush stroke for a crushable layer")
+            check_range(f"protection {self.id}.crush_force", self.crush_force, 1e2, 1e8,
+                        unit="N")
+            check_range(f"protection {self.id}.crush_stroke", self.crush_stroke, 1e-3, 3.0,
+                        unit="m")
+
+
+@dataclass(frozen=True)
+class Project:
+    info: ProjectInfo = field(default_factory=ProjectInfo)
+    settings: Settings = field(default_factory=Settings)
+    levels: tuple[Level, ...] = ()
+    lift_zones: tuple[LiftZone, ...] = ()
+    protection_areas: tuple[ProtectionArea, ...] = ()
+
+    def __post_init__(self) -> None:
+        level_ids = [lv.id for lv in self.levels]
+        for kind, ids in (("levels", level_ids), ("lift_zones", [z.id for z in self.lift_zones]),
+                          ("protection_areas", [p.id for p in self.protection_areas])):
+            dup = {i for i in ids if ids.count(i) > 1}
+            if dup:
+                raise ModelError(kind, sorted(dup)[0], "unique ids")
+        for z in self.lift_zones:
+            if z.level_id not in level_ids:
+                raise ModelError(f"zone {z.id}.level_id", z.level_id,
+                                 "the id of a level: " + ", ".join(level_ids))
+        for p in self.protection_areas:
+            if p.level_id not in level_ids:
+                raise ModelError(f"protection {p.id}.level_id", p.level_id,
+                                 "the id of a level: " + ", ".join(level_ids))
+
+    def level(self, level_id: str) -> Level:
+        for lv in self.levels:
+            if lv.id == level_id:
+                return lv
+        raise KeyError(level_id)
+
+    def zone(self, zone_id: str) -> LiftZone:
+        for z in self.lift_zones:
+            if z.id == zone_id:
+                return z
+        raise KeyError(zone_id)

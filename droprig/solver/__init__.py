@@ -1,0 +1,1 @@
+"""Impact solver: pure numpy, vectorised over drop points, SI units inside."""

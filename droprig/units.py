@@ -1,0 +1,148 @@
+"""Unit conversion at the edges (input fields, files, CLI, report) with pint.
+
+Core code never sees a unit string: :func:`parse` turns user text into an SI
+float for a named quantity, :func:`fmt` turns an SI float into text in the
+user's unit system.
+"""
+
+from __future__ import annotations
+
+import math
+from functools import lru_cache
+from typing import Literal
+
+import pint
+
+UnitSystem = Literal["SI", "US"]
+
+# quantity -> (SI base unit, SI display unit, US display unit, display decimals SI, US)
+QUANTITIES: dict[str, tuple[str, str, str, int, int]] = {
+    "length": ("m", "m", "ft", 3, 2),
+    "small_length": ("m", "mm", "in", 1, 2),
+    "force": ("N", "kN", "kip", 1, 2),
+    "mass": ("kg", "kg", "lb", 0, 0),
+    "moment": ("N*m", "kN*m", "kip*ft", 1, 1),
+    "stress": ("Pa", "MPa", "ksi", 0, 1),
+    "pressure": ("Pa", "kPa", "psf", 2, 1),
+    "stiffness": ("N/m", "kN/mm", "kip/in", 2, 1),
+    "compliance": ("m/N", "mm/kN", "in/kip", 4, 4),
+    "area": ("m**2", "cm**2", "in**2", 1, 2),
+    "inertia": ("m**4", "cm**4", "in**4", 0, 0),
+    "modulus": ("m**3", "cm**3", "in**3", 0, 1),
+    "angle": ("rad", "deg", "deg", 2, 2),
+    "line_load": ("N/m", "kN/m", "kip/ft", 2, 3),
+    "mass_per_length": ("kg/m", "kg/m", "lb/ft", 1, 1),
+    "dimensionless": ("", "", "", 3, 3),
+}
+
+
+class UnitError(ValueError):
+    """User text that is not a quantity of the expected kind."""
+
+
+@lru_cache(maxsize=1)
+def registry() -> pint.UnitRegistry:
+    ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
+    # pint's "t" is the metric tonne; "ton" alone is ambiguous and refused in parse().
+    return ureg
+
+
+_AMBIGUOUS = {"ton", "tons"}
+_ALIASES = {"kips": "kip", "lbs": "lb", "lbf": "lbf", "kn": "kN", "mpa": "MPa", "kpa": "kPa"}
+
+
+def _normalise(text: str) -> str:
+    t = text.strip().replace("²", "**2").replace("³", "**3").replace("⁴", "**4")
+    t = t.replace("·", "*").replace("°", " deg")
+    return t
+
+
+def parse(text: str | float, quantity: str, system: UnitSystem = "SI", *,
+          field: str = "value") -> float:
+    """Parse ``text`` (``"12 ft"``, ``"3.5 m"``, ``"4400 lb"``, ``"2 t"``,
+    ``"50 ksi"``, ``"2e6 N/m"``) as ``quantity`` and return SI base units.
+
+    A bare number takes the display unit of ``system``. Pound-mass and
+    pound-force are told apart by the quantity asked for (``lb`` is a mass for
+    ``mass`` and a force for ``force``).
+    """
+    if quantity not in QUANTITIES:
+        raise KeyError(quantity)
+    base, si_unit, us_unit, _, _ = QUANTITIES[quantity]
+    if isinstance(text, int | float) and not isinstance(text, bool):
+        value = float(text)
+        unit_text = si_unit if system == "SI" else us_unit
+        text_in = f"{value!r} {unit_text}"
+    else:
+        if not isinstance(text, str) or not text.strip():
+            raise UnitError(f"{field}: enter a {quantity.replace('_', ' ')} "
+                            f"(for example {_example(quantity, system)})")
+        text_in = _normalise(text)
+    ureg = registry()
+    try:
+        q = ureg.parse_expression(text_in)
+    except Exception as exc:  # pint raises several unrelated types
+        raise UnitError(f"{field}: cannot read {text!r} as a {quantity.replace('_', ' ')} "
+                        f"(for example {_example(quantity, system)})") from exc
+    if not isinstance(q, pint.Quantity):
+        q = ureg.Quantity(float(q), si_unit if system == "SI" else us_unit)
+    elif q.dimensionless and quantity != "dimensionless" and str(q.units) == "dimensionless":
+        q = ureg.Quantity(float(q.magnitude), si_unit if system == "SI" else us_unit)
+    units_text = str(q.units)
+    if any(w in _AMBIGUOUS for w in units_text.replace("*", " ").split()):
+        raise UnitError(f"{field}: 'ton' is ambiguous; write t (metric tonne), "
+                        "short_ton or long_ton")
+    if quantity == "force" and q.check("[mass]"):
+        q = (q * ureg.standard_gravity)
+    if quantity in ("stress", "pressure") and q.check("[mass]/[length]**2"):
+        q = q * ureg.standard_gravity
+    if quantity == "line_load" and q.check("[mass]/[length]"):
+        q = q * ureg.standard_gravity
+    if quantity == "stiffness" and q.check("[mass]/[length]"):
+        q = q * ureg.standard_gravity
+    try:
+        value = q.to(base).magnitude if base else q.to("dimensionless").magnitude
+    except pint.DimensionalityError as exc:
+        raise UnitError(f"{field}: {text!r} is not a {quantity.replace('_', ' ')} "
+                        f"(for example {_example(quantity, system)})") from exc
+    value = float(value)
+    if not math.isfinite(value):
+        raise UnitError(f"{field}: {text!r} is not a finite number")
+    return value
+
+
+def _example(quantity: str, system: UnitSystem) -> str:
+    _, si_unit, us_unit, _, _ = QUANTITIES[quantity]
+    u = si_unit if system == "SI" else us_unit
+    return f"'12 {u}'" if u else "'1.5'"
+
+
+def display_unit(quantity: str, system: UnitSystem) -> str:
+    """The unit label shown for ``quantity`` in ``system`` (pretty form)."""
+    _, si_unit, us_unit, _, _ = QUANTITIES[quantity]
+    u = si_unit if system == "SI" else us_unit
+    return u.replace("**2", "²").replace("**3", "³").replace("**4", "⁴").replace("*", "·")
+
+
+def to_display(value: float, quantity: str, system: UnitSystem) -> float:
+    """SI value -> magnitude in the display unit of ``system``."""
+    base, si_unit, us_unit, _, _ = QUANTITIES[quantity]
+    if not base:
+        return float(value)
+    ureg = registry()
+    return float(ureg.Quantity(value, base).to(si_unit if system == "SI" else us_unit).magnitude)
+
+
+def fmt(value: float | None, quantity: str, system: UnitSystem = "SI", *,
+        decimals: int | None = None, unit: bool = True) -> str:
+    """SI value -> text in the user's units; ``None`` / nan -> ``"none"``."""
+    if value is None or (isinstance(value, float) and math.isnan(value)):
+        return "none"
+    if isinstance(value, float) and math.isinf(value):
+        return "unlimited"
+    _, _, _, d_si, d_us = QUANTITIES[quantity]
+    d = decimals if decimals is not None else (d_si if system == "SI" else d_us)
+    mag = to_display(float(value), quantity, system)
+    text = f"{mag:,.{d}f}"
+    u = display_unit(quantity, system)
+    return f"{text} {u}" if unit and u else text
