@@ -1,0 +1,47 @@
+"""The core layers never import Qt (common practice, no source: keeps the
+solver usable headless and testable without a display)."""
+
+from __future__ import annotations
+
+import ast
+import pathlib
+
+import pytest
+
+ROOT = pathlib.Path(__file__).resolve().parents[1] / "droprig"
+CORE = ("model", "solver", "io", "report")
+
+
+def _imports(path: pathlib.Path) -> set[str]:
+    tree = ast.parse(path.read_text(encoding="utf-8"))
+    names: set[str] = set()
+    for node in ast.walk(tree):
+        if isinstance(node, ast.Import):
+            names.update(a.name.split(".")[0] for a in node.names)
+        elif isinstance(node, ast.ImportFrom) and node.module and node.level == 0:
+            names.add(node.module.split(".")[0])
+            if node.module.startswith("droprig."):
+                names.add(node.module)
+    return names
+
+
+@pytest.mark.parametrize("layer", CORE)
+def test_core_layers_do_not_import_qt(layer: str) -> None:
+    for path in (ROOT / layer).rglob("*.py"):
+        assert "PySide6" not in _imports(path), f"{path} imports PySide6"
+
+
+def test_model_imports_nothing_above_it() -> None:
+    for path in (ROOT / "model").rglob("*.py"):
+        imps = _imports(path)
+        assert "numpy" not in imps and "pint" not in imps, path
+        for bad in ("droprig.solver", "droprig.io", "droprig.report", "droprig.gui"):
+            assert not any(i.startswith(bad) for i in imps), f"{path} imports {bad}"
+
+
+def test_solver_imports_only_model_and_numpy() -> None:
+    for path in (ROOT / "solver").rglob("*.py"):
+        imps = _imports(path)
+        for bad in ("droprig.io", "droprig.report", "droprig.gui", "droprig.units",
+                    "matplotlib", "pint"):
+            assert not any(i.startswith(bad) for i in imps), f"{path} imports {bad}"
