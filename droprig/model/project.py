@@ -15,7 +15,6 @@ from droprig.model.errors import (
     ModelError,
     check_choice,
     check_finite,
-    check_positive,
     check_range,
     check_text,
 )
@@ -418,7 +417,8 @@ class ProtectionArea:
         check_range(f"protection {self.id}.thickness", self.thickness, 0.0, 3.0, unit="m")
         if self.kind == "spring":
             if self.stiffness is None:
-                raise ModelError(f"protection {self.id}.stiffness", None, "> 0 N/m for a spring mat")
+                raise ModelError(f"protection {self.id}.stiffness", None,
+                                 "> 0 N/m for a spring mat")
             check_range(f"protection {self.id}.stiffness", self.stiffness, 1e3, 1e12, unit="N/m")
         else:
             if self.crush_force is None or self.crush_stroke is None:
