@@ -25,8 +25,8 @@ demo: sysdeps $(STAMP)
 lint: $(STAMP)
 	$(PY) -m ruff check droprig tests benchmarks
 
-bench: $(STAMP)
-	$(PY) -m pytest benchmarks -q -s
+bench: sysdeps $(STAMP)
+	@for f in benchmarks/bench_*.py; do echo "== $$f"; QT_QPA_PLATFORM=offscreen $(PY) $$f || exit 1; done
 
 clean:
 	rm -rf $(VENV) build *.egg-info out
