@@ -1,0 +1,268 @@
+"""droprig's visual language: outcome colours, labels and hatches, overlay ramps.
+
+Shared by every view that shows a verdict (plan view, results table, legend,
+inspector) so an outcome always looks and reads the same.
+
+Design rules (our own):
+
+* Three outcome colours told apart by **lightness** as well as by a blue /
+  amber / plum hue split (the blue–yellow axis survives red-green colour
+  blindness), so they stay distinct under the common colour-vision deficiencies
+  and in greyscale print: mid blue, light amber, dark plum. Every pair differs
+  by a WCAG contrast ratio of at least ``MIN_OUTCOME_CONTRAST`` (tested).
+* Colour is never alone: every outcome also has a **text label**, a one-letter
+  **tag** drawn in the bay, and a **hatch** (no hatch / single diagonal /
+  cross-hatch, getting denser as the outcome gets worse).
+* "No result" (bay outside every zone, or analysis not run) is a neutral grey
+  with a dotted hatch and the word "not assessed" — never a good colour.
+"""
+
+from __future__ import annotations
+
+import itertools
+from dataclasses import dataclass
+
+from PySide6.QtCore import Qt
+from PySide6.QtGui import QBrush, QColor, QPen
+
+# ---------------------------------------------------------------- outcomes
+
+
+@dataclass(frozen=True)
+class OutcomeStyle:
+    """How one response state is drawn and named.
+
+    key: the solver's response string (``droprig.solver.results.RESPONSES``)
+    or ``"none"``. label: short words for tables and legends. tag: one
+    character drawn inside a bay. meaning: one sentence for tooltips and the
+    legend. fill/ink: hex colours (area fill, text and outline on that fill).
+    hatch: the Qt brush pattern laid over the fill.
+    """
+
+    key: str
+    label: str
+    tag: str
+    meaning: str
+    fill: str
+    edge: str
+    ink: str
+    hatch: Qt.BrushStyle
+
+    def fill_color(self, alpha: int = 255) -> QColor:
+        c = QColor(self.fill)
+        c.setAlpha(alpha)
+        return c
+
+    def fill_brush(self, alpha: int = 255) -> QBrush:
+        """Solid fill of the outcome colour."""
+        return QBrush(self.fill_color(alpha))
+
+    def hatch_brush(self, alpha: int = 200) -> QBrush:
+        """The hatch pattern in the outcome's edge colour (draw over the fill)."""
+        c = QColor(self.edge)
+        c.setAlpha(alpha)
+        return QBrush(c, self.hatch)
+
+    def edge_pen(self, width: float = 0.0) -> QPen:
+        pen = QPen(QColor(self.edge))
+        pen.setWidthF(width)
+        pen.setCosmetic(True)
+        return pen
+
+
+OUTCOME_NONE = "none"
+
+OUTCOMES: dict[str, OutcomeStyle] = {
+    "elastic": OutcomeStyle(
+        key="elastic",
+        label="Stays elastic",
+        tag="E",
+        meaning="Every check at or below 100 %: the framing springs back.",
+        fill="#4F8CC2",
+        edge="#173F66",
+        ink="#06182B",
+        hatch=Qt.BrushStyle.NoBrush,
+    ),
+    "plastic": OutcomeStyle(
+        key="plastic",
+        label="Yields, within limits",
+        tag="Y",
+        meaning="Bending capacity exceeded; permanent set within the ductility and "
+                "rotation limits. Expect damage to repair.",
+        fill="#F2C572",
+        edge="#8A5A00",
+        ink="#3D2800",
+        hatch=Qt.BrushStyle.BDiagPattern,
+    ),
+    "exceeds": OutcomeStyle(
+        key="exceeds",
+        label="Exceeds limits",
+        tag="X",
+        meaning="A brittle check fails, a limit is passed, the path collapses or the "
+                "load falls through an opening. Not acceptable as planned.",
+        fill="#7B2D5E",
+        edge="#3E0F2C",
+        ink="#FFFFFF",
+        hatch=Qt.BrushStyle.DiagCrossPattern,
+    ),
+    OUTCOME_NONE: OutcomeStyle(
+        key=OUTCOME_NONE,
+        label="Not assessed",
+        tag="–",
+        meaning="No drop point of any lift zone falls in this bay, or the analysis has "
+                "not run.",
+        fill="#E4E4E0",
+        edge="#8C8C86",
+        ink="#3A3A36",
+        hatch=Qt.BrushStyle.Dense7Pattern,
+    ),
+}
+"""Outcome styles by response key, best to worst, then ``"none"``."""
+
+OUTCOME_ORDER: tuple[str, ...] = ("elastic", "plastic", "exceeds")
+"""Response keys from best to worst (same order as the solver's RESPONSES)."""
+
+
+def outcome(key: str | None) -> OutcomeStyle:
+    """The style for a response key; unknown or ``None`` -> "not assessed"."""
+    return OUTCOMES.get(key or OUTCOME_NONE, OUTCOMES[OUTCOME_NONE])
+
+
+def worst(keys: list[str] | tuple[str, ...]) -> str:
+    """The worst of several response keys (``"none"`` if the list is empty)."""
+    ranked = [k for k in keys if k in OUTCOME_ORDER]
+    if not ranked:
+        return OUTCOME_NONE
+    return max(ranked, key=OUTCOME_ORDER.index)
+
+
+# ------------------------------------------------------------ overlay ramps
+
+# Sequential ramp for utilisation (0 → 1 → beyond): pale to deep, single hue
+# family (blue → plum) so it reads in greyscale; the step past 100 % jumps to
+# the "exceeds" colour and gains the cross-hatch.
+_UTIL_STOPS: tuple[tuple[float, str], ...] = (
+    (0.0, "#EEF3F8"),
+    (0.5, "#9CC6E8"),
+    (0.8, "#4F8CC2"),
+    (1.0, "#2B4F85"),
+)
+
+_DROP_STOPS: tuple[tuple[float, str], ...] = (
+    # allowable drop height (m): short is bad (dark), tall is good (pale)
+    (0.0, "#3E0F2C"),
+    (0.25, "#7B2D5E"),
+    (0.5, "#C0733A"),
+    (1.0, "#F2C572"),
+    (2.0, "#CFE3F1"),
+    (4.0, "#F4F8FB"),
+)
+
+
+def _lerp(stops: tuple[tuple[float, str], ...], v: float) -> QColor:
+    if v <= stops[0][0]:
+        return QColor(stops[0][1])
+    for (v0, c0), (v1, c1) in itertools.pairwise(stops):
+        if v <= v1:
+            t = (v - v0) / (v1 - v0)
+            a, b = QColor(c0), QColor(c1)
+            return QColor(round(a.red() + t * (b.red() - a.red())),
+                          round(a.green() + t * (b.green() - a.green())),
+                          round(a.blue() + t * (b.blue() - a.blue())))
+    return QColor(stops[-1][1])
+
+
+def utilisation_color(u: float | None) -> QColor:
+    """Fill colour for a maximum utilisation (dimensionless). Above 1.0 the
+    "exceeds" colour; ``None``/nan -> the "not assessed" grey."""
+    if u is None or u != u:
+        return QColor(OUTCOMES[OUTCOME_NONE].fill)
+    if u > 1.0:
+        return QColor(OUTCOMES["exceeds"].fill)
+    return _lerp(_UTIL_STOPS, max(0.0, u))
+
+
+def utilisation_hatch(u: float | None) -> Qt.BrushStyle:
+    if u is None or u != u:
+        return OUTCOMES[OUTCOME_NONE].hatch
+    return OUTCOMES["exceeds"].hatch if u > 1.0 else Qt.BrushStyle.NoBrush
+
+
+def drop_height_color(h: float | None) -> QColor:
+    """Fill colour for an allowable drop height (m). ``None``/nan (no height is
+    safe) -> the darkest stop."""
+    if h is None or h != h:
+        return QColor(_DROP_STOPS[0][1])
+    return _lerp(_DROP_STOPS, h)
+
+
+MIN_OUTCOME_CONTRAST = 1.8
+"""Least WCAG contrast ratio between any two outcome fills (our own target)."""
+
+
+def relative_luminance(color: QColor | str) -> float:
+    """Relative luminance L of an sRGB colour, 0..1 (W3C WCAG 2.1, definition
+    of "relative luminance")."""
+    c = QColor(color)
+
+    def lin(v: int) -> float:
+        x = v / 255.0
+        return x / 12.92 if x <= 0.04045 else ((x + 0.055) / 1.055) ** 2.4
+
+    return 0.2126 * lin(c.red()) + 0.7152 * lin(c.green()) + 0.0722 * lin(c.blue())
+
+
+def contrast_ratio(a: QColor | str, b: QColor | str) -> float:
+    """(L1 + 0.05) / (L2 + 0.05), L1 the lighter (W3C WCAG 2.1, "contrast ratio")."""
+    la, lb = relative_luminance(a), relative_luminance(b)
+    hi, lo = max(la, lb), min(la, lb)
+    return (hi + 0.05) / (lo + 0.05)
+
+
+def ink_on(color: QColor) -> QColor:
+    """Near-black or white text, whichever has the higher contrast on ``color``."""
+    dark, light = QColor("#101010"), QColor("#FFFFFF")
+    return dark if contrast_ratio(color, dark) >= contrast_ratio(color, light) else light
+
+
+OVERLAYS: dict[str, str] = {
+    "outcome": "Outcome",
+    "utilisation": "Max utilisation",
+    "drop_height": "Allowable drop height",
+}
+"""Plan overlay modes and their menu labels."""
+
+# ------------------------------------------------------------ plan chrome
+
+PLAN = {
+    "background": "#FBFBF8",
+    "grid_line": "#6F7A86",      # column grid lines (dash-dot)
+    "grid_label": "#26313C",     # grid bubble text
+    "girder": "#2A2A2A",
+    "beam": "#5C5C5C",
+    "opening": "#FFFFFF",        # deck opening fill (drawn with a heavy outline)
+    "column": "#1A1A1A",
+    "zone_edge": "#0E7C66",      # lift zone outline (teal; distinct from outcomes)
+    "zone_fill": "#0E7C6622",    # ARGB: faint teal wash
+    "crane": "#0E7C66",
+    "protection_edge": "#5A4A8A",
+    "protection_fill": "#5A4A8A33",
+    "selection": "#E0115F",      # selected bay/member outline (vivid, thick)
+    "hover": "#E0115F88",
+    "handle": "#0E7C66",
+}
+"""Colours of the non-verdict plan elements. Zone teal and selection magenta
+are kept away from the three outcome colours so neither reads as a verdict."""
+
+SELECTION_WIDTH_PX = 3.0
+HANDLE_SIZE_PX = 9.0
+
+CAUTION_SHORT = (
+    "Results are an aid for a competent person — review with the appointed lifting "
+    "person and a licensed engineer"
+)
+"""The caution shown permanently in the status bar (the full sentence is
+``droprig.cli.CAUTION``)."""
+
+APP_ORGANISATION = "Droprig Works"
+APP_NAME = "droprig"
