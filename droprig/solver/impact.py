@@ -1,0 +1,128 @@
+"""Impact of a falling load on an elastic structure (energy method).
+
+Vectorised over drop points; SI units (N, m, m/N, kg). The load of weight W falls
+freely through h onto the struck point, whose flexibility (compliance) is f (m/N,
+structure plus any spring mat in series). A share η of the load's kinetic energy
+is left after the perfectly inelastic contact with the struck member's effective
+mass (Rayleigh). Sources: Gere, *Mechanics of Materials* 7th ed., §9.10,
+Eq. 9-94 (dynamic factor); Timoshenko, *Strength of Materials* Part I (mass
+correction); Engineering ToolBox, "Impact Force" (average force over a stopping
+distance).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+__all__ = [
+    "G",
+    "crush_depth",
+    "deceleration_g",
+    "dynamic_factor",
+    "impact_crushable",
+    "impact_elastic",
+    "mass_efficiency",
+]
+
+G = 9.80665
+"""Standard gravity, m/s² (CGPM 1901; ISO 80000-3)."""
+
+
+def mass_efficiency(M: ArrayLike, m_e: ArrayLike) -> np.ndarray:
+    """Share of the load's kinetic energy left after a perfectly inelastic contact
+    with the struck member's effective mass: η = M/(M + m_e) (dimensionless; M, m_e
+    in kg). Momentum conservation M·v = (M + m_e)·v'; Timoshenko, *Strength of
+    Materials* Part I, impact with the mass of the beam considered. m_e = 0 gives 1.
+    """
+    M, m_e = np.asarray(M, float), np.asarray(m_e, float)
+    return M / (M + m_e)
+
+
+def dynamic_factor(h: ArrayLike, delta_st: ArrayLike, eta: ArrayLike = 1.0) -> np.ndarray:
+    """Dynamic (impact) factor K = 1 + √(1 + 2ηh/δst), dimensionless.
+
+    Gere 7th ed., §9.10, Eq. 9-94 (η = 1), with the struck-mass correction η of
+    Timoshenko Part I. h: free-fall height, m; δst = W·f: static deflection of the
+    struck point, m. h = 0 gives K = 2 (suddenly applied load). A rigid struck point
+    (δst = 0) gives K = ∞ when ηh > 0.
+    """
+    h, d, eta = np.broadcast_arrays(*(np.asarray(v, float) for v in (h, delta_st, eta)))
+    e = eta * h
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ratio = np.where(d > 0.0, 2.0 * e / np.where(d > 0.0, d, 1.0), np.inf)
+    ratio = np.where(e <= 0.0, 0.0, ratio)
+    return 1.0 + np.sqrt(1.0 + ratio)
+
+
+def impact_elastic(W: ArrayLike, h: ArrayLike, f: ArrayLike,
+                   eta: ArrayLike = 1.0) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Elastic impact of weight W (N) falling h (m) onto compliance f (m/N).
+
+    Energy balance ηWh + Wδ = δ²/(2f) gives (Gere §9.10, Eq. 9-94 with η):
+    δst = W·f; K = 1 + √(1 + 2ηh/δst); F_peak = K·W (N); δmax = K·δst (m).
+    Returns ``(K, F_peak, delta_max)``; δmax is the travel of the load after contact
+    (structure plus any series mat).
+    """
+    W, h, f, eta = (np.asarray(v, float) for v in (W, h, f, eta))
+    d_st = W * f
+    K = dynamic_factor(h, d_st, eta)
+    # δmax = δst + √(δst² + 2ηhδst) (same balance; finite for a rigid point, f = 0)
+    d_max = d_st + np.sqrt(d_st**2 + 2.0 * np.maximum(eta * h, 0.0) * d_st)
+    return K, K * W, d_max
+
+
+def crush_depth(W: ArrayLike, h: ArrayLike, f_s: ArrayLike, eta: ArrayLike,
+                F_c: ArrayLike) -> np.ndarray:
+    """Crush depth of an unlimited crushable layer of constant crush force F_c (N),
+    m; 0 where the elastic peak stays below F_c; ``inf`` where F_c ≤ W.
+
+    The layer is rigid until the force reaches F_c; the structure (compliance f_s,
+    m/N) then holds F_c while the layer crushes c. Energy balance:
+    ηWh + W(F_c·f_s + c) = F_c²·f_s/2 + F_c·c ⇒ c = (ηWh + W·F_c·f_s − F_c²f_s/2)/(F_c − W).
+    With f_s → 0: (F_c − W)·c = ηWh, i.e. the net decelerating force is the
+    kinetic energy over the stopping distance (Engineering ToolBox, "Impact Force").
+    """
+    W, h, f_s, eta, F_c = np.broadcast_arrays(*(np.asarray(v, float)
+                                                for v in (W, h, f_s, eta, F_c)))
+    num = eta * W * h + W * F_c * f_s - 0.5 * F_c**2 * f_s
+    with np.errstate(divide="ignore", invalid="ignore"):
+        c = num / (F_c - W)
+    c = np.where(F_c <= W, np.inf, c)
+    return np.maximum(c, 0.0)
+
+
+def impact_crushable(W: ArrayLike, h: ArrayLike, f_s: ArrayLike, eta: ArrayLike,
+                     F_c: ArrayLike, s_c: ArrayLike) -> tuple[np.ndarray, np.ndarray,
+                                                              np.ndarray]:
+    """Impact through a crushable layer (crush force F_c, N; stroke s_c, m) over a
+    structure of compliance f_s (m/N). Returns ``(F_peak, crush_depth, bottomed)``.
+
+    1. Elastic peak below F_c (crush depth c ≤ 0, see :func:`crush_depth`): the layer
+       stays rigid; F_peak = K·W with K = 1 + √(1 + 2ηh/(W·f_s)) (Gere §9.10).
+    2. 0 < c ≤ s_c: F_peak = F_c, crush depth c (energy balance above).
+    3. c > s_c (or F_c ≤ W): the layer bottoms out after absorbing F_c·s_c; the rest
+       is taken elastically: ηWh + W(δ + s_c) = δ²/(2f_s) + F_c·s_c, δ = F·f_s ⇒
+       F_peak = W + √(W² + 2(ηWh − (F_c − W)·s_c)/f_s), crush depth s_c, bottomed.
+    With f_s → 0 and no bottoming this is the average force over the stopping
+    distance (Engineering ToolBox, "Impact Force"). N, m.
+    """
+    W, h, f_s, eta, F_c, s_c = np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (W, h, f_s, eta, F_c, s_c)))
+    c = crush_depth(W, h, f_s, eta, F_c)
+    _, F_el, _ = impact_elastic(W, h, f_s, eta)
+    bottomed = c > s_c
+    residual = eta * W * h - (F_c - W) * s_c
+    with np.errstate(divide="ignore", invalid="ignore"):
+        F_bottom = W + np.sqrt(W**2 + 2.0 * np.maximum(residual, 0.0)
+                               / np.where(f_s > 0.0, f_s, 1.0))
+    F_bottom = np.where(f_s > 0.0, F_bottom, np.inf)
+    F = np.where(c <= 0.0, F_el, np.where(bottomed, np.maximum(F_bottom, F_c), F_c))
+    depth = np.where(bottomed, s_c, c)
+    return F, depth, bottomed
+
+
+def deceleration_g(F: ArrayLike, W: ArrayLike) -> np.ndarray:
+    """Peak deceleration of the load in g: a/g = F/W − 1 (Newton's second law,
+    M·a = F − W, with W = M·g), dimensionless."""
+    return np.asarray(F, float) / np.asarray(W, float) - 1.0
