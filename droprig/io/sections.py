@@ -179,12 +179,19 @@ def _catalogue() -> dict[str, Section]:
     return out
 
 
-@lru_cache(maxsize=1024)
 def get_section(name: str) -> Section:
     """The catalogue section called ``name`` (any spelling accepted by :func:`normalise_name`).
 
-    Raises :class:`SectionNotFound` naming the text and offering up to five close matches.
+    Raises :class:`SectionNotFound` naming the text and offering up to five close matches
+    (also for a name that is not text, e.g. ``None`` from an empty form field).
     """
+    if not isinstance(name, str):
+        raise SectionNotFound(repr(name), [])
+    return _get_section(name)
+
+
+@lru_cache(maxsize=1024)
+def _get_section(name: str) -> Section:
     cat = _catalogue()
     key = normalise_name(name)
     try:
@@ -286,7 +293,7 @@ section here). EN 1993-1-1 Table 3.1 allows 430 / 510 MPa for S275 / S355 at t �
 lower, product-standard value is kept because it is the safe side for a fracture check."""
 
 _ASTM = {
-    # name: (Fy ksi, Fu ksi, source)
+    # name: (minimum Fy ksi, minimum Fu ksi)
     "A36": (36.0, 58.0),  # ASTM A36: Fy 36 ksi for shapes, Fu 58–80 ksi
     "A992": (50.0, 65.0),  # ASTM A992: Fy 50–65 ksi, Fu ≥ 65 ksi
     "A572 Gr 50": (50.0, 65.0),  # ASTM A572 Grade 50: Fy 50 ksi, Fu 65 ksi

@@ -408,8 +408,11 @@ def test_unknown_section_names_text_and_suggests(text: str, expected_suggestion:
 def test_unknown_section_without_close_match() -> None:
     with pytest.raises(SectionNotFound, match="'zzz'"):
         get_section("zzz")
-    with pytest.raises(TypeError):
-        get_section(300)  # type: ignore[arg-type]
+    for not_text in (300, None, ["IPE 300"]):
+        with pytest.raises(SectionNotFound, match="not in the library"):
+            get_section(not_text)  # type: ignore[arg-type]
+    with pytest.raises(SectionNotFound, match="''"):
+        get_section("")
 
 
 def test_list_sections_families() -> None:
@@ -512,6 +515,17 @@ def test_grade_governing_thickness_of_a_section() -> None:
     assert s355.section_fy(get_section("HEB 200")) == pytest.approx(355 * MPA)
     assert get_section("HEM 300").tf == pytest.approx(39e-3)
     assert s355.section_fy(get_section("HEM 300")) == pytest.approx(345 * MPA)
+
+
+def test_library_names_round_trip() -> None:
+    # Project files store library items by display name (droprig API contract, no source):
+    # every listed name must resolve to the item that carries it.
+    for name in list_grades():
+        assert get_grade(name).name == name
+    for name in list_sections():
+        assert get_section(name).name == name
+    for name in list_concretes():
+        assert isinstance(get_concrete(name), Concrete)
 
 
 def test_unknown_grade() -> None:
