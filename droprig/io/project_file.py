@@ -1,0 +1,940 @@
+"""The ``.droprig`` project file: versioned JSON, checked against a JSON Schema.
+
+Layout (format 1, described by ``resources/droprig.schema.json`` and
+``docs/file_format.md``): one JSON object with ``format_version``,
+``application``, ``info``, ``settings``, ``levels``, ``lift_zones`` and
+``protection_areas``. Every number is SI with its unit in the key name
+(``elevation_m``, ``mass_kg``, ``fc_Pa``, ``stiffness_N_per_m``); angles are
+degrees (``slew_start_deg``). Library sections and grades are written by name,
+custom ones inline with all their properties.
+
+Loading collects every problem it can find, each prefixed with the JSON path of
+the offending value, and raises one :class:`ProjectFileError`. Saving is atomic
+(temporary file in the same folder, fsync, :func:`os.replace`) and keeps one
+``.bak`` of the previous file. No pickle, no eval: JSON text only.
+"""
+
+from __future__ import annotations
+
+import copy
+import decimal
+import hashlib
+import json
+import math
+import os
+import re
+import secrets
+import shutil
+from collections.abc import Callable, Iterable
+from decimal import Decimal
+from functools import lru_cache
+from pathlib import Path
+from typing import Any
+
+from droprig.model import (
+    ColumnGrid,
+    Concrete,
+    Deck,
+    Grade,
+    Level,
+    LiftLoad,
+    LiftZone,
+    Member,
+    ModelError,
+    Project,
+    ProjectInfo,
+    ProtectionArea,
+    Rect,
+    Section,
+    Settings,
+)
+
+FORMAT_VERSION = 1
+"""The file layout this droprig writes and the newest it reads."""
+
+APPLICATION = "droprig"
+SUFFIX = ".droprig"
+SCHEMA_PATH = Path(__file__).resolve().parents[2] / "resources" / "droprig.schema.json"
+
+__all__ = [
+    "FORMAT_VERSION",
+    "MIGRATIONS",
+    "SCHEMA_PATH",
+    "ProjectFileError",
+    "dumps_project",
+    "load_project",
+    "loads_project",
+    "project_fingerprint",
+    "save_project",
+]
+
+
+class ProjectFileError(ValueError):
+    """A project file that cannot be read. ``problems`` lists every problem
+    found, each starting with the JSON path of the offending value (``$`` is the
+    whole document); ``source`` names the file when one was read."""
+
+    def __init__(self, problems: Iterable[str], source: str | None = None) -> None:
+        self.problems: list[str] = list(problems) or ["unknown problem"]
+        self.source = source
+        where = f"{source}: " if source else ""
+        if len(self.problems) == 1:
+            text = f"{where}{self.problems[0]}"
+        else:
+            text = f"{where}{len(self.problems)} problems\n" + "\n".join(
+                f"  {p}" for p in self.problems)
+        super().__init__(text)
+
+
+# --------------------------------------------------------------------------- paths
+
+_IDENT = re.compile(r"^[A-Za-z_][A-Za-z0-9_]*$")
+
+
+def _json_path(parts: Iterable[str | int]) -> str:
+    out = "$"
+    for p in parts:
+        if isinstance(p, int):
+            out += f"[{p}]"
+        elif _IDENT.match(p):
+            out += f".{p}"
+        else:
+            out += "[" + json.dumps(p, ensure_ascii=False) + "]"
+    return out
+
+
+# --------------------------------------------------------------------------- angles
+# The model holds radians; the file holds degrees. A float written as its
+# shortest decimal in degrees does not always come back as the same radian float
+# (degree floats are sparser than radian floats), so the writer picks the
+# shortest decimal that reads back exactly, using more than 17 digits (read with
+# an exact π/180) only when no ordinary float will do. Round trip is exact.
+
+_PI_OVER_180 = Decimal(
+    "0.017453292519943295769236907684886127134428718885417254560971914401710091146")
+_EXACT_CONTEXT = decimal.Context(prec=80)
+_FLOAT_DIGITS = 17
+
+
+def _deg_to_rad(value: float | int | Decimal) -> float:
+    """Degrees (as read from the file) -> radians."""
+    if isinstance(value, Decimal) and len(value.as_tuple().digits) > _FLOAT_DIGITS:
+        return float(_EXACT_CONTEXT.multiply(value, _PI_OVER_180))
+    return math.radians(float(value))
+
+
+class _Raw(str):
+    """Number text written verbatim by :func:`_emit`."""
+
+
+def _rad_to_deg_text(rad: float) -> _Raw:
+    """Shortest decimal degree text that :func:`_deg_to_rad` maps back to ``rad``."""
+    deg = math.degrees(rad)
+    for n in range(1, _FLOAT_DIGITS + 1):
+        cand = float(f"{deg:.{n}g}")
+        if math.isfinite(cand) and math.radians(cand) == rad:
+            return _Raw(repr(cand))
+    exact = _EXACT_CONTEXT.divide(Decimal(rad), _PI_OVER_180)
+    for n in range(_FLOAT_DIGITS + 1, 60):
+        text = str(decimal.Context(prec=n).plus(exact))
+        if _deg_to_rad(Decimal(text)) == rad:
+            return _Raw(text)
+    raise AssertionError(f"cannot write angle {rad!r} exactly")  # pragma: no cover
+
+
+# --------------------------------------------------------------------------- writing
+
+def _emit(value: object, indent: int = 0) -> str:
+    """Stable JSON text: keys in the order built, indent 2, short lists of
+    scalars on one line."""
+    pad = "  " * indent
+    inner = "  " * (indent + 1)
+    if isinstance(value, _Raw):
+        return str(value)
+    if isinstance(value, dict):
+        if not value:
+            return "{}"
+        items = [f"{inner}{json.dumps(k, ensure_ascii=False)}: {_emit(v, indent + 1)}"
+                 for k, v in value.items()]
+        return "{\n" + ",\n".join(items) + "\n" + pad + "}"
+    if isinstance(value, list | tuple):
+        if not value:
+            return "[]"
+        if all(not isinstance(v, dict | list | tuple) for v in value):
+            return "[" + ", ".join(_emit(v) for v in value) + "]"
+        return "[\n" + ",\n".join(inner + _emit(v, indent + 1) for v in value) + "\n" + pad + "]"
+    if isinstance(value, bool) or value is None or isinstance(value, str | int):
+        return json.dumps(value, ensure_ascii=False)
+    if isinstance(value, float):
+        if not math.isfinite(value):
+            raise ValueError(f"cannot write the non-finite number {value!r}")
+        return repr(value)
+    raise TypeError(f"cannot write {type(value).__name__}")
+
+
+def _lib_section_name(sec: Section) -> str | None:
+    try:
+        from droprig.io import sections as lib
+
+        return sec.name if lib.get_section(sec.name) == sec else None
+    except (ImportError, ValueError, KeyError):
+        return None
+
+
+def _lib_grade_name(grade: Grade) -> str | None:
+    try:
+        from droprig.io import sections as lib
+
+        return grade.name if lib.get_grade(grade.name) == grade else None
+    except (ImportError, ValueError, KeyError):
+        return None
+
+
+def _section_doc(sec: Section) -> object:
+    name = _lib_section_name(sec)
+    if name is not None:
+        return name
+    return {
+        "name": sec.name, "family": sec.family,
+        "d_m": sec.d, "bf_m": sec.bf, "tw_m": sec.tw, "tf_m": sec.tf, "r_m": sec.r,
+        "A_m2": sec.A, "Ix_m4": sec.Ix, "Sx_m3": sec.Sx, "Zx_m3": sec.Zx, "Iy_m4": sec.Iy,
+        "mass_per_length_kg_per_m": sec.mass_per_length,
+    }
+
+
+def _grade_doc(grade: Grade) -> object:
+    name = _lib_grade_name(grade)
+    if name is not None:
+        return name
+    return {
+        "name": grade.name, "family": grade.family,
+        "fy_steps": [{"max_thickness_m": t, "fy_Pa": fy} for t, fy in grade.fy_steps],
+        "fu_Pa": grade.fu, "E_Pa": grade.E,
+    }
+
+
+def _rect_doc(r: Rect) -> dict[str, object]:
+    return {"x0_m": r.x0, "y0_m": r.y0, "x1_m": r.x1, "y1_m": r.y1}
+
+
+def _point_doc(p: tuple[float, float]) -> list[float]:
+    return [p[0], p[1]]
+
+
+def _level_doc(lv: Level, memo: dict[int, object]) -> dict[str, object]:
+    def cached(obj: Section | Grade, fn: Callable[[Any], object]) -> object:
+        key = id(obj)
+        if key not in memo:
+            memo[key] = (obj, fn(obj))  # keep obj alive so id() stays unique
+        return memo[key][1]  # type: ignore[index]
+
+    d = lv.deck
+    return {
+        "id": lv.id,
+        "name": lv.name,
+        "elevation_m": lv.elevation,
+        "grid": {
+            "x_lines_m": list(lv.grid.x_lines),
+            "y_lines_m": list(lv.grid.y_lines),
+            "x_labels": list(lv.grid.x_labels),
+            "y_labels": list(lv.grid.y_labels),
+        },
+        "deck": {
+            "kind": d.kind,
+            "thickness_m": d.thickness,
+            "cover_m": d.cover,
+            "rebar_area_m2_per_m": d.rebar_area,
+            "concrete": {
+                "fc_Pa": d.concrete.fc,
+                "density_kg_per_m3": d.concrete.density,
+                "fy_rebar_Pa": d.concrete.fy_rebar,
+            },
+            "openings": [_rect_doc(o) for o in d.openings],
+        },
+        "superimposed_dead_Pa": lv.superimposed_dead,
+        "live_in_place_Pa": lv.live_in_place,
+        "members": [
+            {
+                "id": m.id,
+                "role": m.role,
+                "start_m": _point_doc(m.start),
+                "end_m": _point_doc(m.end),
+                "section": cached(m.section, _section_doc),
+                "grade": cached(m.grade, _grade_doc),
+                "end_condition": m.end_condition,
+            }
+            for m in lv.members
+        ],
+    }
+
+
+def _load_doc(ld: LiftLoad) -> dict[str, object]:
+    out: dict[str, object] = {
+        "name": ld.name,
+        "kind": ld.kind,
+        "mass_kg": ld.mass,
+        "footprint_length_m": ld.footprint_length,
+        "footprint_width_m": ld.footprint_width,
+    }
+    if ld.drop_height is not None:
+        out["drop_height_m"] = ld.drop_height
+    if ld.hook_elevation is not None:
+        out["hook_elevation_m"] = ld.hook_elevation
+    out["hang_length_m"] = ld.hang_length
+    return out
+
+
+def _zone_doc(z: LiftZone) -> dict[str, object]:
+    return {
+        "id": z.id,
+        "name": z.name,
+        "level_id": z.level_id,
+        "crane_m": _point_doc(z.crane),
+        "r_min_m": z.r_min,
+        "r_max_m": z.r_max,
+        "slew_start_deg": _rad_to_deg_text(float(z.slew_start)),
+        "slew_end_deg": _rad_to_deg_text(float(z.slew_end)),
+        "drift_margin_m": z.drift_margin,
+        "corridor_m": [_point_doc(p) for p in z.corridor],
+        "loads": [_load_doc(ld) for ld in z.loads],
+    }
+
+
+def _protection_doc(p: ProtectionArea) -> dict[str, object]:
+    out: dict[str, object] = {
+        "id": p.id,
+        "name": p.name,
+        "level_id": p.level_id,
+        "area": _rect_doc(p.area),
+        "kind": p.kind,
+        "thickness_m": p.thickness,
+    }
+    for key, v in (("stiffness_N_per_m", p.stiffness), ("crush_force_N", p.crush_force),
+                   ("crush_stroke_m", p.crush_stroke)):
+        if v is not None:
+            out[key] = v
+    return out
+
+
+def project_to_document(project: Project) -> dict[str, object]:
+    """The JSON document (plain dicts and lists) for ``project``."""
+    i, s = project.info, project.settings
+    memo: dict[int, object] = {}
+    return {
+        "format_version": FORMAT_VERSION,
+        "application": APPLICATION,
+        "info": {
+            "name": i.name, "site": i.site, "lift_reference": i.lift_reference,
+            "revision": i.revision, "date": i.date, "prepared_by": i.prepared_by,
+            "checked_by": i.checked_by, "approved_by": i.approved_by,
+            "description": i.description,
+        },
+        "settings": {
+            "unit_system": s.unit_system,
+            "design_basis": s.design_basis,
+            "resistance_factor": s.resistance_factor,
+            "dynamic_increase_factor": s.dynamic_increase_factor,
+            "deflection_limit_ratio": s.deflection_limit_ratio,
+            "ductility_limit": s.ductility_limit,
+            "rotation_limit_deg": _rad_to_deg_text(float(s.rotation_limit)),
+            "grid_resolution_m": s.grid_resolution,
+            "include_member_mass": s.include_member_mass,
+            "include_existing_loads": s.include_existing_loads,
+        },
+        "levels": [_level_doc(lv, memo) for lv in project.levels],
+        "lift_zones": [_zone_doc(z) for z in project.lift_zones],
+        "protection_areas": [_protection_doc(p) for p in project.protection_areas],
+    }
+
+
+def dumps_project(project: Project) -> str:
+    """The file text for ``project``: fixed key order, indent 2, final newline.
+    ``loads_project(dumps_project(p)) == p``."""
+    return _emit(project_to_document(project)) + "\n"
+
+
+def save_project(project: Project, path: str | os.PathLike[str], *, backup: bool = True) -> None:
+    """Write ``project`` to ``path`` atomically.
+
+    The text goes to a temporary file in the same folder, is flushed and
+    fsync'ed, and then replaces ``path`` in one :func:`os.replace`; a failure
+    at any point leaves the previous file as it was and removes the temporary
+    file. With ``backup`` the previous file is first copied to ``<path>.bak``
+    (one backup, replaced each save). A symbolic link is followed: the file it
+    points to is replaced.
+    """
+    data = dumps_project(project).encode("utf-8")
+    target = Path(os.path.realpath(os.fspath(path)))
+    folder = target.parent
+    if backup and target.exists():
+        _atomic_write(folder, target.with_name(target.name + ".bak"), target.read_bytes(),
+                      like=target)
+    _atomic_write(folder, target, data, like=target if target.exists() else None)
+
+
+def _atomic_write(folder: Path, target: Path, data: bytes, *, like: Path | None) -> None:
+    tmp = folder / f".{target.name}.{secrets.token_hex(6)}.tmp"
+    # os.open with 0o666 lets the umask decide a new file's mode, like open() would.
+    fd = os.open(tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL | getattr(os, "O_BINARY", 0), 0o666)
+    try:
+        with os.fdopen(fd, "wb") as fh:
+            fh.write(data)
+            fh.flush()
+            os.fsync(fh.fileno())
+        if like is not None:
+            shutil.copymode(like, tmp)
+        os.replace(tmp, target)
+    except BaseException:
+        try:
+            tmp.unlink()
+        except FileNotFoundError:
+            pass
+        raise
+    _fsync_dir(folder)
+
+
+def _fsync_dir(folder: Path) -> None:
+    """Make the rename durable (POSIX); a no-op where folders cannot be opened."""
+    try:
+        fd = os.open(folder, os.O_RDONLY)
+    except OSError:
+        return
+    try:
+        os.fsync(fd)
+    except OSError:
+        pass
+    finally:
+        os.close(fd)
+
+
+def project_fingerprint(path: str | os.PathLike[str]) -> str:
+    """SHA-256 of the file's bytes, hex: names the exact input in a permit annex."""
+    return hashlib.sha256(Path(path).read_bytes()).hexdigest()
+
+
+# --------------------------------------------------------------------------- reading
+
+def _migrate_0_to_1(doc: dict[str, Any]) -> dict[str, Any]:
+    """Format 0 (pre-release draft): loads carried ``drop_height_mm`` in
+    millimetres and the file had no ``application`` key. Format 1 stores
+    ``drop_height_m`` in metres and names the application."""
+    for zone in doc.get("lift_zones", []) if isinstance(doc.get("lift_zones"), list) else []:
+        loads = zone.get("loads", []) if isinstance(zone, dict) else []
+        for ld in loads if isinstance(loads, list) else []:
+            if isinstance(ld, dict) and "drop_height_mm" in ld:
+                mm = ld.pop("drop_height_mm")
+                ld["drop_height_m"] = mm / 1000.0 if isinstance(mm, int | float) else mm
+    doc.setdefault("application", APPLICATION)
+    doc["format_version"] = 1
+    return doc
+
+
+MIGRATIONS: dict[int, Callable[[dict[str, Any]], dict[str, Any]]] = {0: _migrate_0_to_1}
+"""``MIGRATIONS[v]`` turns a format-``v`` document into a format-``v + 1`` one.
+Each step works on its own deep copy; a failing step leaves nothing half done."""
+
+
+def _reject_constant(name: str) -> float:
+    raise ValueError(f"{name} is not a number JSON allows")
+
+
+def _no_duplicates(pairs: list[tuple[str, Any]]) -> dict[str, Any]:
+    out: dict[str, Any] = {}
+    for k, v in pairs:
+        if k in out:
+            raise ValueError(f"the key {k!r} appears twice in one object")
+        out[k] = v
+    return out
+
+
+def _parse(text: str) -> Any:
+    try:
+        return json.loads(text, parse_float=Decimal, parse_constant=_reject_constant,
+                          object_pairs_hook=_no_duplicates)
+    except json.JSONDecodeError as exc:
+        end = " (the file looks truncated)" if exc.pos >= len(text.rstrip()) else ""
+        raise ProjectFileError(
+            [f"$: not a readable JSON file: {exc.msg} at line {exc.lineno}, column "
+             f"{exc.colno}{end}"]) from None
+    except (ValueError, RecursionError) as exc:
+        raise ProjectFileError([f"$: not a readable JSON file: {exc}"]) from None
+
+
+def _to_floats(value: Any, path: list[str | int], problems: list[str]) -> Any:
+    """Decimal -> float everywhere except under ``*_deg`` keys (kept exact for
+    :func:`_deg_to_rad`); numbers too large for a float are problems."""
+    if isinstance(value, dict):
+        return {k: (v if k.endswith("_deg") and isinstance(v, Decimal)
+                    else _to_floats(v, [*path, k], problems))
+                for k, v in value.items()}
+    if isinstance(value, list):
+        return [_to_floats(v, [*path, i], problems) for i, v in enumerate(value)]
+    if isinstance(value, Decimal):
+        f = float(value)
+        if not math.isfinite(f):
+            problems.append(f"{_json_path(path)}: {value} is too large a number")
+            return 0.0
+        return f
+    if isinstance(value, int) and not isinstance(value, bool) and abs(value) > 10**300:
+        problems.append(f"{_json_path(path)}: {value} is too large a number")
+        return 0
+    return value
+
+
+def _check_version(doc: Any) -> int:
+    if not isinstance(doc, dict):
+        raise ProjectFileError([f"$: a droprig project is a JSON object, not "
+                                f"{_json_type(doc)}"])
+    app = doc.get("application", APPLICATION)
+    if app != APPLICATION:
+        raise ProjectFileError([f"$.application: {app!r} — this is not a droprig project file"])
+    if "format_version" not in doc:
+        raise ProjectFileError(["$.format_version: missing; a droprig project file names its "
+                                "format version"])
+    v = doc["format_version"]
+    if isinstance(v, float) and v.is_integer():
+        v = int(v)
+    if isinstance(v, bool) or not isinstance(v, int):
+        raise ProjectFileError([f"$.format_version: {_shown(v)} is not a whole number"])
+    if v > FORMAT_VERSION:
+        raise ProjectFileError([
+            f"$.format_version: written by a newer droprig (format {v}); this droprig "
+            f"reads up to format {FORMAT_VERSION}. Open it with a newer droprig."])
+    if v < min(MIGRATIONS, default=FORMAT_VERSION):
+        raise ProjectFileError([f"$.format_version: format {v} is older than any this "
+                                f"droprig can convert (oldest {min(MIGRATIONS)})"])
+    return v
+
+
+def _migrate(doc: dict[str, Any], version: int) -> dict[str, Any]:
+    while version < FORMAT_VERSION:
+        step = MIGRATIONS.get(version)
+        if step is None:
+            raise ProjectFileError([f"$.format_version: no conversion from format {version}"])
+        try:
+            doc = step(copy.deepcopy(doc))
+        except Exception as exc:
+            raise ProjectFileError([f"$: cannot convert from format {version} to "
+                                    f"{version + 1}: {exc}"]) from None
+        version += 1
+        doc["format_version"] = version
+    return doc
+
+
+@lru_cache(maxsize=1)
+def _validator() -> Any:
+    import jsonschema
+
+    schema = json.loads(SCHEMA_PATH.read_text(encoding="utf-8"))
+    cls = jsonschema.Draft202012Validator
+    cls.check_schema(schema)
+    return cls(schema)
+
+
+def schema() -> dict[str, Any]:
+    """The published JSON Schema of the current format (a copy)."""
+    return copy.deepcopy(_validator().schema)
+
+
+def _json_type(v: object) -> str:
+    if isinstance(v, bool):
+        return "true/false"
+    if v is None:
+        return "null"
+    if isinstance(v, int | float | Decimal):
+        return "a number"
+    if isinstance(v, str):
+        return "text"
+    if isinstance(v, list):
+        return "a list"
+    return "an object"
+
+
+def _shown(v: object) -> str:
+    if isinstance(v, dict):
+        return "an object"
+    if isinstance(v, list):
+        return "a list"
+    if isinstance(v, Decimal):
+        return str(v)
+    text = json.dumps(v, ensure_ascii=False) if not isinstance(v, float) else repr(v)
+    return text if len(text) <= 60 else text[:57] + "..."
+
+
+_TYPE_WORDS = {"number": "a number", "string": "text", "object": "an object",
+               "array": "a list", "boolean": "true or false", "integer": "a whole number"}
+
+
+def _schema_problems(doc: dict[str, Any]) -> list[str]:
+    out: list[tuple[list[str | int], str]] = []
+    for err in _validator().iter_errors(doc):
+        path = list(err.absolute_path)
+        v = err.validator
+        if v == "additionalProperties" and isinstance(err.instance, dict):
+            allowed = sorted(err.schema.get("properties", {}))
+            for key in sorted(set(err.instance) - set(allowed)):
+                out.append(([*path, key], "unknown key; allowed keys here: "
+                             + ", ".join(allowed)))
+            continue
+        if v == "required":
+            key = re.search(r"'([^']+)'", err.message)
+            name = key.group(1) if key else "?"
+            out.append(([*path, name], "missing (required)"))
+            continue
+        if v == "type":
+            want = err.validator_value
+            want_t = " or ".join(_TYPE_WORDS.get(w, w) for w in (
+                want if isinstance(want, list) else [want]))
+            out.append((path, f"{_shown(err.instance)} is {_json_type(err.instance)}; "
+                              f"expected {want_t}"))
+            continue
+        if v == "const":
+            out.append((path, f"{_shown(err.instance)} is not allowed; expected "
+                              f"{_shown(err.validator_value)}"))
+            continue
+        out.append((path, err.message))
+    out.sort(key=lambda item: [(0, p, "") if isinstance(p, int) else (1, 0, p)
+                               for p in item[0]])
+    return [f"{_json_path(p)}: {m}" for p, m in out]
+
+
+def loads_project(text: str, *, source: str | None = None) -> Project:
+    """Parse, check, migrate and build a project from file text.
+
+    Raises :class:`ProjectFileError` listing every problem with its JSON path.
+    """
+    try:
+        problems: list[str] = []
+        raw = _to_floats(_parse(text), [], problems)
+        if problems:
+            raise ProjectFileError(problems)
+        doc = _migrate(raw, _check_version(raw))
+        problems = _schema_problems(doc)
+        if problems:
+            raise ProjectFileError(problems)
+        return _Builder().project(doc)
+    except ProjectFileError as exc:
+        if source is not None and exc.source is None:
+            raise ProjectFileError(exc.problems, source) from None
+        raise
+
+
+def load_project(path: str | os.PathLike[str]) -> Project:
+    """Read a ``.droprig`` file. Raises :class:`ProjectFileError` (bad content)
+    or :class:`OSError` (cannot read the file)."""
+    p = Path(path)
+    data = p.read_bytes()
+    try:
+        text = data.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise ProjectFileError([f"$: not UTF-8 text (byte {exc.start})"], str(p)) from None
+    return loads_project(text, source=str(p))
+
+
+# --------------------------------------------------------------------------- building
+
+_COMPONENT = {"x": "[0]", "y": "[1]"}
+_FIELD_TAIL = re.compile(r"\.([A-Za-z_][A-Za-z0-9_]*)(\[\d+\])?(?:\.([xy]))?$")
+
+_KEYS_MEMBER = {"id": "id", "role": "role", "start": "start_m", "end": "end_m",
+                "end_condition": "end_condition"}
+_KEYS_LEVEL = {"id": "id", "name": "name", "elevation": "elevation_m",
+               "superimposed_dead": "superimposed_dead_Pa",
+               "live_in_place": "live_in_place_Pa", "members": "members"}
+_KEYS_GRID = {"x_lines": "x_lines_m", "y_lines": "y_lines_m", "x_labels": "x_labels",
+              "y_labels": "y_labels"}
+_KEYS_DECK = {"kind": "kind", "thickness": "thickness_m", "cover": "cover_m",
+              "rebar_area": "rebar_area_m2_per_m"}
+_KEYS_CONCRETE = {"fc": "fc_Pa", "density": "density_kg_per_m3", "fy_rebar": "fy_rebar_Pa"}
+_KEYS_RECT = {"x0": "x0_m", "y0": "y0_m", "x1": "x1_m", "y1": "y1_m"}
+_KEYS_SECTION = {"name": "name", "d": "d_m", "bf": "bf_m", "tw": "tw_m", "tf": "tf_m",
+                 "r": "r_m", "A": "A_m2", "Ix": "Ix_m4", "Sx": "Sx_m3", "Zx": "Zx_m3",
+                 "Iy": "Iy_m4", "mass_per_length": "mass_per_length_kg_per_m"}
+_KEYS_GRADE = {"name": "name", "fu": "fu_Pa", "E": "E_Pa", "fy_steps": "fy_steps"}
+_KEYS_LOAD = {"name": "name", "mass": "mass_kg", "footprint_length": "footprint_length_m",
+              "footprint_width": "footprint_width_m", "drop_height": "drop_height_m",
+              "hook_elevation": "hook_elevation_m", "hang_length": "hang_length_m",
+              "kind": "kind"}
+_KEYS_ZONE = {"id": "id", "name": "name", "level_id": "level_id", "crane": "crane_m",
+              "r_min": "r_min_m", "r_max": "r_max_m", "slew_start": "slew_start_deg",
+              "slew_end": "slew_end_deg", "drift_margin": "drift_margin_m",
+              "corridor": "corridor_m", "loads": "loads"}
+_KEYS_PROTECTION = {"id": "id", "name": "name", "level_id": "level_id", "kind": "kind",
+                    "thickness": "thickness_m", "stiffness": "stiffness_N_per_m",
+                    "crush_force": "crush_force_N", "crush_stroke": "crush_stroke_m"}
+_KEYS_SETTINGS = {"unit_system": "unit_system", "design_basis": "design_basis",
+                  "resistance_factor": "resistance_factor",
+                  "dynamic_increase_factor": "dynamic_increase_factor",
+                  "deflection_limit_ratio": "deflection_limit_ratio",
+                  "ductility_limit": "ductility_limit", "rotation_limit": "rotation_limit_deg",
+                  "grid_resolution": "grid_resolution_m",
+                  "include_member_mass": "include_member_mass",
+                  "include_existing_loads": "include_existing_loads"}
+_KEYS_INFO = {k: k for k in ("name", "site", "lift_reference", "revision", "date",
+                             "prepared_by", "checked_by", "approved_by", "description")}
+
+
+def _point(v: list[float]) -> tuple[float, float]:
+    return (float(v[0]), float(v[1]))
+
+
+class _BuildFailedError(Exception):
+    """A child object could not be built (its problem is already recorded)."""
+
+
+class _Builder:
+    """Builds model objects from a schema-valid document, recording every
+    :class:`ModelError` with the JSON path it came from."""
+
+    def __init__(self) -> None:
+        self.problems: list[str] = []
+        self._sections: dict[str, Section | Exception] = {}
+        self._grades: dict[str, Grade | Exception] = {}
+
+    def _make(self, path: str, keys: dict[str, str], fn: Callable[[], Any]) -> Any:
+        try:
+            return fn()
+        except ModelError as exc:
+            where = path
+            m = _FIELD_TAIL.search(exc.field)
+            if m and m.group(1) in keys:
+                where = f"{path}.{keys[m.group(1)]}{m.group(2) or ''}"
+                if m.group(3):
+                    where += _COMPONENT[m.group(3)]
+            note = ""
+            if where.endswith("_deg") and isinstance(exc.value, float):
+                note = f" (the file gives degrees: {math.degrees(exc.value):.6g} deg)"
+            self.problems.append(f"{where}: {exc}{note}")
+            raise _BuildFailedError from None
+
+    def _collect(self, items: list[Any], path: str, fn: Callable[[Any, str], Any]) -> list[Any]:
+        out, failed = [], False
+        for i, item in enumerate(items):
+            try:
+                out.append(fn(item, f"{path}[{i}]"))
+            except _BuildFailedError:
+                failed = True
+        if failed:
+            raise _BuildFailedError
+        return out
+
+    def _duplicates(self, items: list[dict[str, Any]], key: str, path: str, what: str) -> bool:
+        """Record every repeated ``key``; True if there was one."""
+        seen: dict[str, int] = {}
+        found = False
+        for i, item in enumerate(items):
+            v = item.get(key)
+            if v in seen:
+                self.problems.append(f"{path}[{i}].{key}: {what} {v!r} is already used at "
+                                     f"{path}[{seen[v]}]")
+                found = True
+            else:
+                seen[v] = i
+        return found
+
+    # ---- leaves
+    def section(self, v: Any, path: str) -> Section:
+        if isinstance(v, str):
+            hit = self._sections.get(v)
+            if hit is None:
+                try:
+                    from droprig.io import sections as lib
+
+                    hit = lib.get_section(v)
+                except ImportError:
+                    hit = LookupError(f"section {v!r}: the section library is not available")
+                except ValueError as exc:  # SectionNotFound is a ValueError
+                    hit = exc
+                self._sections[v] = hit
+            if isinstance(hit, Exception):
+                self.problems.append(f"{path}: {hit}")
+                raise _BuildFailedError
+            return hit
+        return self._make(path, _KEYS_SECTION, lambda: Section(
+            name=v["name"], family=v["family"], d=v["d_m"], bf=v["bf_m"], tw=v["tw_m"],
+            tf=v["tf_m"], r=v["r_m"], A=v["A_m2"], Ix=v["Ix_m4"], Sx=v["Sx_m3"],
+            Zx=v["Zx_m3"], Iy=v["Iy_m4"], mass_per_length=v["mass_per_length_kg_per_m"]))
+
+    def grade(self, v: Any, path: str) -> Grade:
+        if isinstance(v, str):
+            hit = self._grades.get(v)
+            if hit is None:
+                try:
+                    from droprig.io import sections as lib
+
+                    hit = lib.get_grade(v)
+                except ImportError:
+                    hit = LookupError(f"grade {v!r}: the grade library is not available")
+                except ValueError as exc:  # GradeNotFound is a ValueError
+                    hit = exc
+                self._grades[v] = hit
+            if isinstance(hit, Exception):
+                self.problems.append(f"{path}: {hit}")
+                raise _BuildFailedError
+            return hit
+        kw: dict[str, Any] = {}
+        if "E_Pa" in v:
+            kw["E"] = v["E_Pa"]
+        steps = tuple((s["max_thickness_m"], s["fy_Pa"]) for s in v["fy_steps"])
+        return self._make(path, _KEYS_GRADE, lambda: Grade(
+            name=v["name"], family=v["family"], fy_steps=steps, fu=v["fu_Pa"], **kw))
+
+    def concrete(self, v: Any, path: str) -> Concrete:
+        if isinstance(v, str):
+            try:
+                from droprig.io import sections as lib
+
+                return lib.get_concrete(v)
+            except (ImportError, ValueError, KeyError) as exc:
+                self.problems.append(f"{path}: {exc}")
+                raise _BuildFailedError from None
+        return self._make(path, _KEYS_CONCRETE, lambda: Concrete(**_kwargs(v, _KEYS_CONCRETE)))
+
+    def rect(self, v: dict[str, Any], path: str) -> Rect:
+        return self._make(path, _KEYS_RECT, lambda: Rect(
+            v["x0_m"], v["y0_m"], v["x1_m"], v["y1_m"]))
+
+    # ---- composites
+    def member(self, v: dict[str, Any], path: str) -> Member:
+        sec_grade: list[Any] = []
+        failed = False
+        for key, fn in (("section", self.section), ("grade", self.grade)):
+            try:
+                sec_grade.append(fn(v[key], f"{path}.{key}"))
+            except _BuildFailedError:
+                failed = True
+        if failed:
+            raise _BuildFailedError
+        kw = {"end_condition": v["end_condition"]} if "end_condition" in v else {}
+        return self._make(path, _KEYS_MEMBER, lambda: Member(
+            v["id"], v["role"], _point(v["start_m"]), _point(v["end_m"]),
+            sec_grade[0], sec_grade[1], **kw))
+
+    def deck(self, v: dict[str, Any], path: str) -> Deck:
+        kw = _kwargs(v, _KEYS_DECK)
+        failed = False
+        if "concrete" in v:
+            try:
+                kw["concrete"] = self.concrete(v["concrete"], f"{path}.concrete")
+            except _BuildFailedError:
+                failed = True
+        if "openings" in v:
+            try:
+                kw["openings"] = tuple(self._collect(v["openings"], f"{path}.openings",
+                                                     self.rect))
+            except _BuildFailedError:
+                failed = True
+        if failed:
+            raise _BuildFailedError
+        return self._make(path, _KEYS_DECK, lambda: Deck(**kw))
+
+    def level(self, v: dict[str, Any], path: str) -> Level:
+        failed = False
+        g = v["grid"]
+        grid = deck = None
+        try:
+            grid = self._make(f"{path}.grid", _KEYS_GRID, lambda: ColumnGrid(
+                tuple(g["x_lines_m"]), tuple(g["y_lines_m"]), tuple(g["x_labels"]),
+                tuple(g["y_labels"])))
+        except _BuildFailedError:
+            failed = True
+        try:
+            deck = self.deck(v.get("deck", {}), f"{path}.deck")
+        except _BuildFailedError:
+            failed = True
+        if self._duplicates(v["members"], "id", f"{path}.members", "member id"):
+            failed = True
+        try:
+            members = self._collect(v["members"], f"{path}.members", self.member)
+        except _BuildFailedError:
+            failed = True
+        if failed:
+            raise _BuildFailedError
+        kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LEVEL.items()
+                         if k in ("superimposed_dead", "live_in_place")})
+        return self._make(path, _KEYS_LEVEL, lambda: Level(
+            v["id"], v.get("name", ""), v["elevation_m"], grid, tuple(members), deck, **kw))
+
+    def load(self, v: dict[str, Any], path: str) -> LiftLoad:
+        kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LOAD.items()
+                         if k in ("footprint_length", "footprint_width", "hang_length", "kind")})
+        return self._make(path, _KEYS_LOAD, lambda: LiftLoad(
+            name=v["name"], mass=v["mass_kg"], drop_height=v.get("drop_height_m"),
+            hook_elevation=v.get("hook_elevation_m"), **kw))
+
+    def zone(self, v: dict[str, Any], path: str) -> LiftZone:
+        failed = self._duplicates(v.get("loads", []), "name", f"{path}.loads", "load name")
+        try:
+            loads = self._collect(v.get("loads", []), f"{path}.loads", self.load)
+        except _BuildFailedError:
+            failed, loads = True, []
+        kw: dict[str, Any] = {}
+        for key, attr in (("slew_start_deg", "slew_start"), ("slew_end_deg", "slew_end")):
+            if key in v:
+                kw[attr] = _deg_to_rad(v[key])
+        if "drift_margin_m" in v:
+            kw["drift_margin"] = v["drift_margin_m"]
+        if "corridor_m" in v:
+            kw["corridor"] = tuple(_point(p) for p in v["corridor_m"])
+        zone = self._make(path, _KEYS_ZONE, lambda: LiftZone(
+            id=v["id"], name=v.get("name", ""), level_id=v["level_id"],
+            crane=_point(v["crane_m"]), r_min=v["r_min_m"], r_max=v["r_max_m"],
+            loads=() if failed else tuple(loads), **kw))
+        if failed:
+            raise _BuildFailedError
+        return zone
+
+    def protection(self, v: dict[str, Any], path: str) -> ProtectionArea:
+        area = self.rect(v["area"], f"{path}.area")
+        kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_PROTECTION.items()
+                         if k in ("kind", "thickness", "crush_force", "crush_stroke")})
+        kw["stiffness"] = v.get("stiffness_N_per_m")
+        return self._make(path, _KEYS_PROTECTION, lambda: ProtectionArea(
+            id=v["id"], name=v.get("name", ""), level_id=v["level_id"], area=area, **kw))
+
+    def project(self, doc: dict[str, Any]) -> Project:
+        parts: dict[str, Any] = {}
+        failed = False
+
+        def attempt(name: str, fn: Callable[[], Any]) -> None:
+            nonlocal failed
+            try:
+                parts[name] = fn()
+            except _BuildFailedError:
+                failed = True
+
+        attempt("info", lambda: self._make("$.info", _KEYS_INFO, lambda: ProjectInfo(
+            **_kwargs(doc.get("info", {}), _KEYS_INFO))))
+        st = dict(doc.get("settings", {}))
+        if "rotation_limit_deg" in st:
+            st["rotation_limit_deg"] = _deg_to_rad(st["rotation_limit_deg"])
+        attempt("settings", lambda: self._make("$.settings", _KEYS_SETTINGS, lambda: Settings(
+            **_kwargs(st, _KEYS_SETTINGS))))
+        levels = doc["levels"]
+        zones = doc.get("lift_zones", [])
+        prots = doc.get("protection_areas", [])
+        self._duplicates(levels, "id", "$.levels", "level id")
+        self._duplicates(zones, "id", "$.lift_zones", "lift zone id")
+        self._duplicates(prots, "id", "$.protection_areas", "protection area id")
+        level_ids = [lv["id"] for lv in levels]
+        for coll, name in ((zones, "lift_zones"), (prots, "protection_areas")):
+            for i, item in enumerate(coll):
+                if item["level_id"] not in level_ids:
+                    self.problems.append(
+                        f"$.{name}[{i}].level_id: {item['level_id']!r} is not the id of a "
+                        f"level in this file (levels: {', '.join(level_ids) or 'none'})")
+        attempt("levels", lambda: tuple(self._collect(levels, "$.levels", self.level)))
+        attempt("lift_zones", lambda: tuple(self._collect(zones, "$.lift_zones", self.zone)))
+        attempt("protection_areas", lambda: tuple(
+            self._collect(prots, "$.protection_areas", self.protection)))
+        if failed or self.problems:
+            raise ProjectFileError(self.problems)
+        try:
+            return Project(**parts)
+        except ModelError as exc:
+            raise ProjectFileError([f"$: {exc}"]) from None
+
+
+def _kwargs(v: dict[str, Any], keys: dict[str, str]) -> dict[str, Any]:
+    """Model keyword arguments for the file keys present in ``v``."""
+    return {attr: v[key] for attr, key in keys.items() if key in v}
