@@ -1,0 +1,994 @@
+"""The lift-permit annex: a PDF that goes with the permit.
+
+Pages, each section starting on a new page (every page carries the title block
+and "page x of y"):
+
+1. Summary — overall verdict, verdict per lift zone and load, caution.
+2. Summary by bay — every assessed bay, worst first (as many pages as rows need).
+3. Plan — one per level carrying a lift zone: grid, framing, cranes, swing
+   regions, drift margins, corridors, protection, bays by outcome, legend.
+4. Members — the member table (as many pages as rows need).
+5. Calculation sheets — one per governing drop point (continued on a further
+   page when the trace is long).
+6. Assumptions and limits of the method; hazard cautions.
+7. Input identification and sign-off.
+
+Each logical page is one :class:`KeepInFrame` (shrink) followed by a page break,
+so the page count follows from the content alone (see :func:`page_plan`) and no
+table ever spills onto a page that the title block does not name.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import hashlib
+import math
+import os
+import pathlib
+import secrets
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass
+
+from droprig import __version__
+from droprig.model import Level, LiftZone, Member, Project
+from droprig.report import content, fonts
+from droprig.report.text import esc, fmt_util, fmt_value, is_none, substitute
+from droprig.solver.results import CHECKS, DECK, CaseResult, Results, Trace
+
+Progress = Callable[[float, str], None]
+
+LIFT_ROWS_PER_PAGE = 10
+"""Zone × load verdict rows on a summary page."""
+BAY_ROWS_PER_PAGE = 24
+"""Bay rows on a 'Summary by bay' page."""
+MEMBER_ROWS_PER_PAGE = 34
+"""Member rows on a 'Members' page."""
+STEPS_PER_PAGE = 16
+"""Trace steps on one page of a calculation sheet."""
+
+HEADINGS = {
+    "summary": "Summary",
+    "bays": "Summary by bay",
+    "plan": "Plan",
+    "members": "Members",
+    "sheet": "Calculation sheet",
+    "assumptions": "Assumptions and limits of the method",
+    "cautions": "Hazard cautions",
+    "identification": "Input identification",
+    "signoff": "Sign-off",
+}
+
+ASSUMPTIONS: tuple[str, ...] = (
+    "The peak contact force is applied to the framing quasi-statically: member actions "
+    "are the peak force times the static actions of a unit load at the drop point "
+    "(energy method, Gere, Mechanics of Materials §9.10).",
+    "Contact is perfectly inelastic: the load and the struck framing move together after "
+    "contact; the share of kinetic energy left is η = M/(M + mₑ) with mₑ the Rayleigh "
+    "effective mass of the load path in its static deflected shape.",
+    "The load falls freely from the stated height (no drag, no hoist braking); the whole "
+    "load lands on one point of the deck.",
+    "Columns are rigid supports; the load path is deck → beams → girders → columns by "
+    "statics.",
+    "No membrane (catenary) action and no composite action of the deck with the steel is "
+    "counted; the deck spans one way between beams.",
+    "Members are taken as laterally restrained and compact: lateral-torsional buckling "
+    "and local buckling are not checked.",
+    "Existing loads (self-weight, superimposed dead and the live load left in place) are "
+    "as given in the project and are added to the impact actions.",
+    "Beyond yield, flexure is idealised elastic–perfectly plastic with the limits of "
+    "ductility and support rotation shown under Settings; shear, web and punching "
+    "failures are brittle and have no plastic reserve.",
+    "Deflection limits (span/N) are serviceability information, not pass criteria for "
+    "an accidental impact.",
+)
+
+NOT_CHECKED: tuple[str, ...] = (
+    "connections and their bolts or welds",
+    "columns, their bases and the foundations",
+    "the level below and anything on or under it",
+    "secondary impacts, rebound and a load that tips or rolls after landing",
+    "fragments, spilled contents and debris",
+    "the crane, its rigging, its outrigger or mat bearing and its own stability",
+    "vibration, fatigue and damage from earlier drops",
+)
+
+CAUTIONS: tuple[str, ...] = (
+    "Keep people out from under the load path and out of every swing zone shown in this "
+    "annex during the lift, whatever the result: a drop the framing survives can still "
+    "kill a person beneath it.",
+    "This annex supports the lift plan; it does not replace it. The lift plan, the "
+    "pre-lift meeting, the exclusion zones and the emergency arrangements remain the "
+    "responsibility of the appointed lifting person / appointed person.",
+    "Results are an aid to a competent person only. Defer to local codes and regulations, "
+    "the appointed lifting person and a licensed structural engineer, who must review "
+    "and accept them before the permit is signed.",
+    "Where a bay is marked 'Exceeds limits', do not carry the load over it as planned: "
+    "protect it, exclude it from the swing zone or lower the drop height, then re-run "
+    "the assessment. Where it is marked 'Yields', expect permanent damage and plan an "
+    "inspection after any drop.",
+    "The result holds only for the input named by the fingerprint on the last page. Any "
+    "change to the framing, the loads, the heights or the zones needs a new annex.",
+)
+
+
+# ----------------------------------------------------------------------- data
+
+
+@dataclass(frozen=True)
+class Fingerprint:
+    sha256: str
+    label: str
+    source: str
+
+
+def fingerprint(project: Project, project_path: str | os.PathLike[str] | None) -> Fingerprint:
+    """SHA-256 naming the exact input: of the project file's bytes, or (no file)
+    of droprig's canonical serialisation of the project, labelled as such."""
+    from droprig.io.project_file import dumps_project, project_fingerprint
+
+    if project_path is not None:
+        return Fingerprint(project_fingerprint(project_path), "SHA-256 of the project file",
+                           os.path.basename(os.fspath(project_path)))
+    data = dumps_project(project).encode("utf-8")
+    return Fingerprint(hashlib.sha256(data).hexdigest(),
+                       "SHA-256 of the canonical serialisation (project not read from a file)",
+                       "(unsaved project)")
+
+
+@dataclass(frozen=True)
+class Sheet:
+    """A calculation sheet: the point, its trace and the solver's arrays there."""
+
+    ref: content.SheetRef
+    trace: Trace
+    case: CaseResult | None
+    index: int | None
+
+    @property
+    def n_pages(self) -> int:
+        return max(1, math.ceil(len(self.trace.steps) / STEPS_PER_PAGE))
+
+
+def _point_index(case: CaseResult, x: float, y: float) -> int | None:
+    if case.n == 0:
+        return None
+    import numpy as np
+
+    d2 = (case.x - x) ** 2 + (case.y - y) ** 2
+    k = int(np.argmin(d2))
+    return k if d2[k] <= 1e-12 else None
+
+
+def _case(results: Results, zone_id: str, load_name: str) -> CaseResult | None:
+    for c in results.cases:
+        if c.zone_id == zone_id and c.load_name == load_name:
+            return c
+    return None
+
+
+def build_sheets(project: Project, results: Results, zones: Sequence[LiftZone],
+                 progress: Progress | None = None, span: tuple[float, float] = (0.0, 1.0)
+                 ) -> list[Sheet]:
+    """Trace every governing point (:func:`content.calc_sheets`)."""
+    from droprig.solver.trace import trace_point
+
+    refs = content.calc_sheets(results, tuple(zones))
+    out = []
+    for k, ref in enumerate(refs):
+        if progress:
+            progress(span[0] + (span[1] - span[0]) * k / max(1, len(refs)),
+                     f"Tracing drop point {k + 1} of {len(refs)}")
+        tr = trace_point(project, ref.zone_id, ref.load_name, ref.x, ref.y)
+        case = _case(results, ref.zone_id, ref.load_name)
+        idx = _point_index(case, ref.x, ref.y) if case is not None else None
+        out.append(Sheet(ref, tr, case, idx))
+    return out
+
+
+def member_rows(level: Level, project: Project) -> list[Member]:
+    return list(level.members)
+
+
+@dataclass(frozen=True)
+class PagePlan:
+    """How many pages each section takes (the annex's page count is the sum)."""
+
+    summary: int
+    bays: int
+    plans: int
+    members: int
+    sheets: int
+    assumptions: int = 1
+    signoff: int = 1
+
+    @property
+    def total(self) -> int:
+        return (self.summary + self.bays + self.plans + self.members + self.sheets
+                + self.assumptions + self.signoff)
+
+
+def page_plan(n_cases: int, n_bay_rows: int, n_levels: int, n_members: int,
+              sheet_steps: Sequence[int]) -> PagePlan:
+    """Pages each section needs, from the amount of content."""
+    return PagePlan(
+        summary=max(1, math.ceil(n_cases / LIFT_ROWS_PER_PAGE)),
+        bays=max(1, math.ceil(n_bay_rows / BAY_ROWS_PER_PAGE)),
+        plans=n_levels,
+        members=max(1, math.ceil(n_members / MEMBER_ROWS_PER_PAGE)) if n_members else 0,
+        sheets=sum(max(1, math.ceil(n / STEPS_PER_PAGE)) for n in sheet_steps),
+    )
+
+
+# ----------------------------------------------------------------------- layout
+
+
+def _chunks(seq: Sequence, n: int) -> list[Sequence]:
+    return [seq[i:i + n] for i in range(0, len(seq), n)] or [seq[:0]]
+
+
+class _Styles:
+    def __init__(self) -> None:
+        from reportlab.lib import colors
+        from reportlab.lib.styles import ParagraphStyle
+
+        base = ParagraphStyle("base", fontName=fonts.REGULAR, fontSize=8.5, leading=10.8,
+                              textColor=colors.HexColor("#111111"))
+        self.body = base
+        self.small = ParagraphStyle("small", parent=base, fontSize=7, leading=8.6)
+        self.tiny = ParagraphStyle("tiny", parent=base, fontSize=6.3, leading=7.6)
+        self.cell = ParagraphStyle("cell", parent=base, fontSize=7, leading=8.4)
+        self.cell_b = ParagraphStyle("cellb", parent=self.cell, fontName=fonts.BOLD)
+        self.head = ParagraphStyle("head", parent=self.cell, fontName=fonts.BOLD,
+                                   textColor=colors.white)
+        self.h1 = ParagraphStyle("h1", parent=base, fontName=fonts.BOLD, fontSize=14,
+                                 leading=17, spaceAfter=4)
+        self.h2 = ParagraphStyle("h2", parent=base, fontName=fonts.BOLD, fontSize=10,
+                                 leading=13, spaceBefore=6, spaceAfter=3)
+        self.verdict = ParagraphStyle("verdict", parent=base, fontName=fonts.BOLD,
+                                      fontSize=13, leading=16)
+        self.mono = ParagraphStyle("mono", parent=base, fontName=fonts.MONO, fontSize=8.5,
+                                   leading=11)
+        self.bullet = ParagraphStyle("bullet", parent=base, leftIndent=12, bulletIndent=2,
+                                     spaceAfter=2.5)
+        self.caution = ParagraphStyle("caution", parent=base, fontName=fonts.BOLD,
+                                      fontSize=8.5, leading=11)
+
+
+HEAD_BG = "#2E2E2E"
+ZEBRA = "#F1F1EE"
+
+
+def _table(rows: list[list[object]], widths: Sequence[float], *, header_rows: int = 1,
+           extra: Sequence[tuple] = ()) -> object:
+    from reportlab.lib import colors
+    from reportlab.platypus import Table, TableStyle
+
+    t = Table(rows, colWidths=list(widths), repeatRows=header_rows)
+    style = [
+        ("FONTNAME", (0, 0), (-1, -1), fonts.REGULAR),
+        ("FONTSIZE", (0, 0), (-1, -1), 7),
+        ("VALIGN", (0, 0), (-1, -1), "TOP"),
+        ("LINEBELOW", (0, header_rows), (-1, -1), 0.25, colors.HexColor("#9A9A95")),
+        ("BOX", (0, 0), (-1, -1), 0.6, colors.black),
+        ("LEFTPADDING", (0, 0), (-1, -1), 3),
+        ("RIGHTPADDING", (0, 0), (-1, -1), 3),
+        ("TOPPADDING", (0, 0), (-1, -1), 2),
+        ("BOTTOMPADDING", (0, 0), (-1, -1), 2),
+    ]
+    if header_rows:
+        style += [("BACKGROUND", (0, 0), (-1, header_rows - 1), colors.HexColor(HEAD_BG)),
+                  ("LINEBELOW", (0, header_rows - 1), (-1, header_rows - 1), 0.8, colors.black)]
+    for r in range(header_rows, len(rows)):
+        if (r - header_rows) % 2 == 1:
+            style.append(("BACKGROUND", (0, r), (-1, r), colors.HexColor(ZEBRA)))
+    style.extend(extra)
+    t.setStyle(TableStyle(style))
+    return t
+
+
+def _outcome_cell(response: str, st: _Styles, *, big: bool = False) -> object:
+    """Outcome word with its one-letter tag, on the outcome colour."""
+    from reportlab.lib.styles import ParagraphStyle
+    from reportlab.platypus import Paragraph
+
+    o = content.OUTCOMES.get(response, content.OUTCOMES[content.NOT_ASSESSED])
+    style = ParagraphStyle("o", parent=st.verdict if big else st.cell_b, textColor=o.ink)
+    return Paragraph(f"[{o.tag}] {esc(o.label)}", style)
+
+
+def _outcome_bg(response: str, col: int, row: int) -> tuple:
+    from reportlab.lib import colors
+
+    o = content.OUTCOMES.get(response, content.OUTCOMES[content.NOT_ASSESSED])
+    return ("BACKGROUND", (col, row), (col, row), colors.HexColor(o.fill))
+
+
+class _Marker:
+    """Zero-size flowable that tells the canvas which section the page is in."""
+
+    def __new__(cls, section: str) -> object:
+        from reportlab.platypus import Flowable
+
+        class Marker(Flowable):
+            def __init__(self, text: str) -> None:
+                super().__init__()
+                self.text = text
+                self.width = self.height = 0
+
+            def wrap(self, aw: float, ah: float) -> tuple[float, float]:
+                return (0, 0)
+
+            def draw(self) -> None:
+                self.canv._droprig_section = self.text
+
+        return Marker(section)
+
+
+@dataclass(frozen=True)
+class _Header:
+    project: str
+    site: str
+    lift: str
+    revision: str
+    date: str
+    version: str
+    sha: str
+    units: str
+
+
+def _canvas_class(header: _Header, counter: list[int]) -> type:
+    from reportlab.lib import colors
+    from reportlab.pdfgen.canvas import Canvas
+
+    def clip(c: Canvas, text: str, font: str, size: float, width: float) -> str:
+        if c.stringWidth(text, font, size) <= width:
+            return text
+        while text and c.stringWidth(text + "…", font, size) > width:
+            text = text[:-1]
+        return text + "…"
+
+    class AnnexCanvas(Canvas):
+        """Defers the title block until the page count is known ("page x of y")."""
+
+        def __init__(self, *a: object, **k: object) -> None:
+            super().__init__(*a, **k)
+            self._pages: list[dict] = []
+            self._droprig_section = ""
+
+        def showPage(self) -> None:
+            self._pages.append(dict(self.__dict__))
+            self._startPage()
+
+        def save(self) -> None:
+            total = len(self._pages)
+            counter[0] = total
+            for k, state in enumerate(self._pages):
+                self.__dict__.update(state)
+                self._title_block(k + 1, total)
+                super().showPage()
+            super().save()
+
+        def _cell(self, x: float, y: float, w: float, h: float, label: str, value: str,
+                  *, size: float = 8.0, bold: bool = False) -> None:
+            self.setStrokeColor(colors.black)
+            self.setLineWidth(0.5)
+            self.rect(x, y, w, h, stroke=1, fill=0)
+            self.setFont(fonts.REGULAR, 5.2)
+            self.setFillColor(colors.HexColor("#555555"))
+            self.drawString(x + 2.5, y + h - 6.2, label.upper())
+            self.setFillColor(colors.black)
+            font = fonts.BOLD if bold else fonts.REGULAR
+            self.setFont(font, size)
+            self.drawString(x + 2.5, y + 3.2, clip(self, value, font, size, w - 5))
+
+        def _title_block(self, page: int, total: int) -> None:
+            W, H = self._pagesize
+            m = MARGIN_X
+            w = W - 2 * m
+            top = H - MARGIN_TOP
+            # header band: a heavy rule, the document name, project, site
+            self.setFillColor(colors.black)
+            self.rect(m, top - 2.5, w, 2.5, stroke=0, fill=1)
+            self.setFont(fonts.BOLD, 6.5)
+            self.drawString(m, top - 11, "LIFT-PERMIT ANNEX · DROPPED-LOAD ASSESSMENT")
+            self.setFont(fonts.REGULAR, 6.5)
+            sec = getattr(self, "_droprig_section", "")
+            self.drawRightString(m + w, top - 11, clip(self, sec, fonts.REGULAR, 6.5, w / 2))
+            cw = [0.36 * w, 0.28 * w, 0.18 * w, 0.07 * w]
+            cw.append(w - sum(cw))
+            cells = [("Project", header.project, True), ("Site", header.site, False),
+                     ("Lift reference", header.lift, True), ("Rev", header.revision, True),
+                     ("Date", header.date, False)]
+            x = m
+            for (label, value, bold), cwi in zip(cells, cw, strict=True):
+                self._cell(x, top - 35, cwi, 20, label, value, size=8.5, bold=bold)
+                x += cwi
+            # footer band
+            y = MARGIN_BOTTOM
+            fw = [0.2 * w, 0.47 * w, 0.13 * w]
+            fw.append(w - sum(fw))
+            foot = [("Software", f"droprig {header.version}", False),
+                    ("Input SHA-256", header.sha, False),
+                    ("Units", header.units, False),
+                    ("Sheet", f"page {page} of {total}", True)]
+            x = m
+            for (label, value, bold), fwi in zip(foot, fw, strict=True):
+                self._cell(x, y, fwi, 18, label, value, size=7.5 if label != "Input SHA-256"
+                           else 5.6, bold=bold)
+                x += fwi
+            self.setFont(fonts.REGULAR, 5.2)
+            self.setFillColor(colors.HexColor("#444444"))
+            self.drawString(m, y - 7, clip(self, "Aid only — check against local codes with "
+                                           "the appointed lifting person and a licensed "
+                                           "engineer. Keep people out from under the load.",
+                                           fonts.REGULAR, 5.2, w))
+
+    return AnnexCanvas
+
+
+MARGIN_X = 40.0
+MARGIN_TOP = 30.0
+MARGIN_BOTTOM = 30.0
+HEADER_H = 44.0
+FOOTER_H = 26.0
+
+
+# ----------------------------------------------------------------------- pages
+
+
+class _Builder:
+    def __init__(self, project: Project, results: Results, zones: tuple[LiftZone, ...],
+                 fp: Fingerprint, frame_w: float, frame_h: float) -> None:
+        self.p = project
+        self.r = results
+        self.zones = zones
+        self.fp = fp
+        self.sys = project.settings.unit_system
+        self.w = frame_w
+        self.h = frame_h
+        self.st = _Styles()
+        self.pages: list[tuple[str, list[object]]] = []
+
+    def P(self, text: str, style: object | None = None) -> object:
+        from reportlab.platypus import Paragraph
+
+        return Paragraph(text, style or self.st.cell)
+
+    def v(self, value: float | None, quantity: str) -> str:
+        return fmt_value(value, quantity, self.sys)
+
+    def add(self, section: str, flow: list[object]) -> None:
+        self.pages.append((section, flow))
+
+    # -- summary
+    def summary(self, verdicts: Sequence[content.ZoneVerdict]) -> None:
+        from reportlab.lib import colors
+        from reportlab.platypus import Spacer
+
+        st = self.st
+        overall = content.overall_response(verdicts)
+        cases = [(zv, cv) for zv in verdicts for cv in zv.cases]
+        chunks = _chunks(cases, LIFT_ROWS_PER_PAGE)
+        for k, chunk in enumerate(chunks):
+            head = HEADINGS["summary"] + (f" (continued, {k + 1} of {len(chunks)})" if k else "")
+            flow: list[object] = [self.P(esc(head), st.h1)]
+            if k == 0:
+                o = content.OUTCOMES.get(overall, content.OUTCOMES[content.NOT_ASSESSED])
+                word = {"elastic": "ALL ASSESSED BAYS STAY ELASTIC",
+                        "plastic": "SOME BAYS YIELD — PROTECT OR ACCEPT DAMAGE",
+                        "exceeds": "NOT ACCEPTABLE AS PLANNED — PROTECT OR EXCLUDE",
+                        content.NOT_ASSESSED: "NOTHING ASSESSED"}[overall]
+                rows = [[_outcome_cell(overall, st, big=True),
+                         self.P(f"Overall verdict: {word}", st.verdict)]]
+                flow.append(_table(rows, [0.36 * self.w, 0.64 * self.w], header_rows=0, extra=[
+                    _outcome_bg(overall, 0, 0), ("VALIGN", (0, 0), (-1, -1), "MIDDLE"),
+                    ("BOX", (0, 0), (-1, -1), 1.5, colors.HexColor(o.edge)),
+                    ("TOPPADDING", (0, 0), (-1, -1), 6), ("BOTTOMPADDING", (0, 0), (-1, -1), 6)]))
+                flow.append(Spacer(1, 6))
+                n_zones = len(verdicts)
+                n_bays = sum(cv.n_bays for _, cv in cases)
+                flow.append(self.P(
+                    f"{n_zones} lift zone(s), {len(cases)} load case(s), {n_bays} bay "
+                    f"result(s), {self.r.n_points:,} drop points assessed. Design basis: "
+                    f"{esc(_basis(self.p))}. Units: {esc(_units(self.sys))}.", st.body))
+                flow.append(Spacer(1, 4))
+                flow.append(self.P(esc(_caution()), st.caution))
+                flow.append(Spacer(1, 6))
+            flow.append(self.P("Verdict per lift zone and load", st.h2))
+            hdr = ["Lift zone", "Load", "Verdict", "Max U", "Least allowable drop height",
+                   "Advice"]
+            rows = [[self.P(h, st.head) for h in hdr]]
+            extra = []
+            for i, (zv, cv) in enumerate(chunk):
+                z = zv.zone
+                rows.append([
+                    self.P(f"<b>{esc(z.id)}</b><br/>{esc(z.name)}"),
+                    self.P(f"<b>{esc(cv.load_name)}</b><br/>{self.v(cv.mass, 'mass')}; planned "
+                           f"drop {self.v(cv.planned_drop_height, 'length')}"),
+                    _outcome_cell(cv.response, st),
+                    self.P(fmt_util(cv.max_utilisation) + (
+                        f"<br/>worst bay {esc(cv.worst_bay.bay_id)}" if cv.worst_bay else "")),
+                    self.P(self.v(cv.least_allowable_drop_height, "length")),
+                    self.P(esc(cv.advice)),
+                ])
+                extra.append(_outcome_bg(cv.response, 2, i + 1))
+            w = self.w
+            flow.append(_table(rows, [0.12 * w, 0.17 * w, 0.15 * w, 0.1 * w, 0.12 * w,
+                                      0.34 * w], extra=extra))
+            self.add(head, flow)
+
+    def bay_pages(self, rows: list) -> None:
+        st = self.st
+        chunks = _chunks(rows, BAY_ROWS_PER_PAGE)
+        for k, chunk in enumerate(chunks):
+            head = HEADINGS["bays"] + (f" (continued, {k + 1} of {len(chunks)})" if k else "")
+            flow: list[object] = [self.P(esc(head), st.h1)]
+            if k == 0:
+                flow.append(self.P(
+                    "Every bay reached by a drop point, per lift zone and load, worst first. "
+                    "U: highest utilisation of any check at the bay's drop points. Allowable "
+                    "drop height: least over the bay (elastic limit; beyond yield within the "
+                    "ductility and rotation limits). 'none': no height is acceptable — the "
+                    "limit is passed even when the load is set down.", st.small))
+            hdr = ["Zone / load", "Bay", "Response", "Max U", "Governs (member · check at x, y)",
+                   "Allowable drop, elastic", "Allowable drop, plastic", "Advice"]
+            trs = [[self.P(h, st.head) for h in hdr]]
+            extra = []
+            if not chunk:
+                trs.append([self.P("No bay of any level is reached by a drop point.")] +
+                           [""] * 7)
+            for i, b in enumerate(chunk):
+                trs.append([
+                    self.P(f"{esc(b.zone_id)}<br/>{esc(b.load_name)}"),
+                    self.P(f"<b>{esc(b.bay_id)}</b>"),
+                    _outcome_cell(b.response, st),
+                    self.P(fmt_util(b.max_utilisation)),
+                    self.P(f"{esc(b.governing_member)} · {esc(b.governing_check)} at "
+                           f"({self.v(b.governing_x, 'length')}, "
+                           f"{self.v(b.governing_y, 'length')})"),
+                    self.P(self.v(b.allowable_drop_height, "length")),
+                    self.P(self.v(b.allowable_drop_height_plastic, "length")),
+                    self.P(esc(b.advice), st.tiny),
+                ])
+                extra.append(_outcome_bg(b.response, 2, i + 1))
+            w = self.w
+            flow.append(_table(trs, [0.1 * w, 0.09 * w, 0.13 * w, 0.06 * w, 0.2 * w,
+                                     0.09 * w, 0.09 * w, 0.24 * w], extra=extra))
+            self.add(head, flow)
+
+    # -- plan
+    def plan(self, level: Level) -> None:
+        from reportlab.platypus import Spacer
+
+        from droprig.report.figures import plan_drawing
+
+        st = self.st
+        zones = [z for z in self.zones if z.level_id == level.id]
+        prot = [p for p in self.p.protection_areas if p.level_id == level.id]
+        head = f"{HEADINGS['plan']} — level {level.id}"
+        flow: list[object] = [self.P(esc(f"{head}: {level.name}"), st.h1)]
+        desc = [f"Elevation {self.v(level.elevation, 'length')}"]
+        for z in zones:
+            desc.append(
+                f"zone <b>{esc(z.id)}</b> ({esc(z.name)}): crane at "
+                f"({self.v(z.crane[0], 'length')}, {self.v(z.crane[1], 'length')}), radius "
+                f"{self.v(z.r_min, 'length')} to {self.v(z.r_max, 'length')}, slew "
+                f"{_deg(z.slew_start)} to {_deg(z.slew_start + z.slew_sweep)}"
+                f"{' (full circle)' if z.slew_sweep >= 2 * math.pi - 1e-9 else ''}, drift "
+                f"margin {self.v(z.drift_margin, 'length')}"
+                f"{', corridor of ' + str(len(z.corridor)) + ' points' if z.corridor else ''}")
+        for p in prot:
+            desc.append(f"mat <b>{esc(p.id)}</b> ({esc(p.name)}, {esc(p.kind)}, "
+                        f"{self.v(p.thickness, 'length')} thick)")
+        flow.append(self.P("; ".join(desc) + ". Each bay shows its id, its worst outcome "
+                           "over the zones and loads of this annex, and its highest "
+                           "utilisation U. Plan north is +y; angles counter-clockwise from +x.",
+                           st.small))
+        flow.append(Spacer(1, 4))
+        outcomes = content.bay_outcomes(self.r, level, self.zones)
+        flow.append(plan_drawing(level, zones, prot, outcomes, self.sys, self.w,
+                                 self.h - 80))
+        self.add(head, flow)
+
+    # -- members
+    def members(self, levels: Sequence[Level]) -> None:
+        st = self.st
+        rows = [(lv, m) for lv in levels for m in lv.members]
+        if not rows:
+            return
+        chunks = _chunks(rows, MEMBER_ROWS_PER_PAGE)
+        many = len(levels) > 1
+        for k, chunk in enumerate(chunks):
+            head = HEADINGS["members"] + (f" (continued, {k + 1} of {len(chunks)})" if k else "")
+            flow: list[object] = [self.P(esc(head), st.h1)]
+            if k == 0:
+                flow.append(self.P(_resistance_note(self.p), st.small))
+                for lv in levels:
+                    dk = lv.deck
+                    flow.append(self.P(
+                        f"Deck of level <b>{esc(lv.id)}</b>: {esc(dk.kind.replace('_', ' '))}, "
+                        f"{self.v(dk.thickness, 'length')} thick, concrete "
+                        f"{self.v(dk.concrete.fc, 'stress')}, bottom bars "
+                        f"{self.v(dk.rebar_area, 'area')} per m width at "
+                        f"{self.v(dk.cover, 'length')} cover; {len(dk.openings)} opening(s). "
+                        f"Superimposed dead {self.v(lv.superimposed_dead, 'pressure')}, live "
+                        f"left in place {self.v(lv.live_in_place, 'pressure')}.", st.small))
+            hdr = ["Member", "Role", "Section", "Grade", "Span", "Ends", "fy",
+                   "Flexure resistance", "Shear resistance", "EI"]
+            trs = [[self.P(h, st.head) for h in hdr]]
+            for lv, m in chunk:
+                res = member_resistances(m, self.p)
+                trs.append([
+                    self.P(esc(f"{lv.id}: {m.id}" if many else m.id)),
+                    self.P(esc(m.role)),
+                    self.P(esc(m.section.name)),
+                    self.P(esc(m.grade.name)),
+                    self.P(self.v(m.span, "length")),
+                    self.P(esc(m.end_condition)),
+                    self.P(self.v(res.fy, "stress")),
+                    self.P(self.v(res.flexure, "moment")),
+                    self.P(self.v(res.shear, "force")),
+                    self.P(_ei(res.EI, self.sys)),
+                ])
+            w = self.w
+            flow.append(_table(trs, [0.15 * w, 0.07 * w, 0.12 * w, 0.08 * w, 0.09 * w,
+                                     0.08 * w, 0.08 * w, 0.11 * w, 0.11 * w, 0.11 * w]))
+            self.add(head, flow)
+
+    # -- calculation sheets
+    def sheets(self, sheets: Sequence[Sheet]) -> None:
+        st = self.st
+        for n, sh in enumerate(sheets):
+            steps = sh.trace.steps
+            parts = _chunks(steps, STEPS_PER_PAGE)
+            ref = sh.ref
+            for k, part in enumerate(parts):
+                head = (f"{HEADINGS['sheet']} {n + 1} of {len(sheets)}"
+                        + (f" (continued, {k + 1} of {len(parts)})" if k else ""))
+                flow: list[object] = [self.P(esc(head), st.h1)]
+                flow.append(self.P(
+                    f"Lift zone <b>{esc(ref.zone_id)}</b> · load <b>{esc(ref.load_name)}</b> "
+                    f"· bay <b>{esc(ref.bay_id)}</b> · drop point x = "
+                    f"{self.v(ref.x, 'length')}, y = {self.v(ref.y, 'length')}", st.body))
+                if k == 0:
+                    flow.append(self.P("Why this point: " + esc("; ".join(ref.reasons)) + ".",
+                                       st.small))
+                    flow.extend(self._sheet_inputs(sh))
+                flow.append(self.P("Calculation", st.h2))
+                hdr = ["No.", "Step, formula and numbers", "Result", "Source"]
+                trs = [[self.P(h, st.head) for h in hdr]]
+                base = k * STEPS_PER_PAGE
+                for i, s in enumerate(part):
+                    lhs = esc(s.symbol)
+                    formula = esc(s.formula)
+                    subst = esc(substitute(s.formula, s.inputs, self.sys))
+                    result = esc(self.v(s.value, s.quantity))
+                    trs.append([
+                        self.P(str(base + i + 1)),
+                        self.P(f"<b>{esc(s.title)}</b><br/>{lhs} = {formula}<br/>"
+                               f"{lhs} = {subst}"),
+                        self.P(f"<b>{lhs} = {result}</b>"),
+                        self.P(esc(s.source), st.tiny),
+                    ])
+                w = self.w
+                flow.append(_table(trs, [0.05 * w, 0.55 * w, 0.18 * w, 0.22 * w]))
+                if k == len(parts) - 1:
+                    flow.extend(self._sheet_outcome(sh))
+                self.add(head, flow)
+
+    def _sheet_inputs(self, sh: Sheet) -> list[object]:
+        st = self.st
+        z = self.p.zone(sh.ref.zone_id)
+        load = next(ld for ld in z.loads if ld.name == sh.ref.load_name)
+        level = self.p.level(z.level_id)
+        c, i = sh.case, sh.index
+        rows = [["Level", f"{level.id}: {level.name}"],
+                ["Load", f"{load.name} ({load.kind}), mass {self.v(load.mass, 'mass')}, "
+                 f"weight {self.v(load.weight, 'force')}, footprint "
+                 f"{self.v(load.footprint_length, 'length')} × "
+                 f"{self.v(load.footprint_width, 'length')}"]]
+        if c is not None and i is not None:
+            prot = int(c.protection[i])
+            rows.append(["Drop height at this point", self.v(float(c.drop_height[i]), "length")
+                         + f" (planned {self.v(c.planned_drop_height, 'length')})"])
+            rows.append(["Struck surface", "bare deck" if prot < 0 else
+                         f"mat {self.p.protection_areas[prot].id} "
+                         f"({self.p.protection_areas[prot].name})"])
+            gm = int(c.governing_member[i])
+            if gm != DECK and 0 <= gm < len(level.members):
+                m = level.members[gm]
+                rows.append(["Governing member", f"{m.id}: {m.section.name} {m.grade.name}, "
+                             f"span {self.v(m.span, 'length')}, {m.end_condition}"])
+            else:
+                rows.append(["Governing element", "deck"])
+        s = self.p.settings
+        rows.append(["Settings", f"{_basis(self.p)}; resistance factor "
+                     f"{s.resistance_factor:.2f}; dynamic increase on yield "
+                     f"{s.dynamic_increase_factor:.2f}; ductility limit {s.ductility_limit:g}; "
+                     f"rotation limit {_deg(s.rotation_limit)}; member mass "
+                     f"{'included' if s.include_member_mass else 'ignored'}; existing loads "
+                     f"{'included' if s.include_existing_loads else 'ignored'}"])
+        trs = [[self.P(f"<b>{esc(a)}</b>"), self.P(esc(b))] for a, b in rows]
+        return [self.P("Inputs", st.h2), _table(trs, [0.22 * self.w, 0.78 * self.w],
+                                                 header_rows=0)]
+
+    def _sheet_outcome(self, sh: Sheet) -> list[object]:
+        st = self.st
+        c, i = sh.case, sh.index
+        tr = sh.trace
+        rows = [[self.P(h, st.head) for h in ("Result at this point (solver)", "Value")]]
+        extra = []
+        if c is not None and i is not None:
+            vals = [
+                ("Dynamic factor K", fmt_value(float(c.dynamic_factor[i]), "dimensionless",
+                                               self.sys)),
+                ("Peak force F", self.v(float(c.peak_force[i]), "force")),
+                ("Peak deflection δmax", self.v(float(c.max_deflection[i]), "length")),
+                ("Utilisation U", fmt_util(float(c.utilisation[i]))),
+                ("Governing check", _check_name(int(c.governing_check[i]))),
+                ("Allowable drop height, elastic",
+                 self.v(float(c.allowable_drop_height[i]), "length")),
+                ("Allowable drop height, plastic",
+                 self.v(float(c.allowable_drop_height_plastic[i]), "length")),
+            ]
+            if not is_none(float(c.ductility[i])):
+                vals.append(("Ductility μ", fmt_value(float(c.ductility[i]), "dimensionless",
+                                                       self.sys)))
+            if not is_none(float(c.required_mat_stiffness[i])):
+                vals.append(("Spring mat needed to stay elastic",
+                             self.v(float(c.required_mat_stiffness[i]), "stiffness")))
+            if not is_none(float(c.required_crush_stroke[i])):
+                vals.append(("Crush stroke needed",
+                             self.v(float(c.required_crush_stroke[i]), "length")))
+            rows += [[self.P(a), self.P(f"<b>{esc(b)}</b>")] for a, b in vals]
+        rows.append([self.P("Response"), _outcome_cell(tr.response, st)])
+        extra.append(_outcome_bg(tr.response, 1, len(rows) - 1))
+        rows.append([self.P("Governing member · check"),
+                     self.P(esc(f"{tr.governing_member} · {tr.governing_check}"))])
+        rows.append([self.P("Advice for the bay"), self.P(esc(sh.ref.summary.advice))])
+        return [self.P("Outcome", st.h2),
+                _table(rows, [0.4 * self.w, 0.6 * self.w], extra=extra)]
+
+    # -- assumptions, cautions
+    def assumptions(self) -> None:
+        from reportlab.platypus import Spacer
+
+        st = self.st
+        head = f"{HEADINGS['assumptions']}; {HEADINGS['cautions'].lower()}"
+        flow: list[object] = [self.P(esc(HEADINGS["assumptions"]), st.h1)]
+        for a in ASSUMPTIONS:
+            flow.append(self.P(esc(a), st.bullet))
+        flow.append(self.P("Not checked", st.h2))
+        flow.append(self.P(esc("droprig does not check: " + "; ".join(NOT_CHECKED) + "."),
+                           st.body))
+        flow.append(self.P("Settings used", st.h2))
+        s = self.p.settings
+        rows = [
+            ("Design basis", _basis(self.p)),
+            ("Resistance factor (accidental situation)", f"{s.resistance_factor:.2f}"),
+            ("Dynamic increase factor on yield", f"{s.dynamic_increase_factor:.2f}"),
+            ("Ductility limit μ", f"{s.ductility_limit:g}"),
+            ("Support rotation limit θ", _deg(s.rotation_limit)),
+            ("Deflection limit (information only)", f"span / {s.deflection_limit_ratio:g}"),
+            ("Drop-point grid resolution", self.v(s.grid_resolution, "length")),
+            ("Member mass in the struck mass", "included" if s.include_member_mass
+             else "ignored (conservative for the force)"),
+            ("Existing loads", "included" if s.include_existing_loads else "ignored"),
+        ]
+        flow.append(_table([[self.P(esc(a)), self.P(esc(b))] for a, b in rows],
+                           [0.5 * self.w, 0.5 * self.w], header_rows=0))
+        if self.r.warnings:
+            flow.append(self.P("Analysis warnings", st.h2))
+            shown = self.r.warnings[:8]
+            for wmsg in shown:
+                flow.append(self.P(esc(wmsg), st.bullet))
+            if len(self.r.warnings) > len(shown):
+                flow.append(self.P(f"… and {len(self.r.warnings) - len(shown)} more.", st.small))
+        flow.append(Spacer(1, 6))
+        flow.append(self.P(esc(HEADINGS["cautions"]), st.h1))
+        for c in CAUTIONS:
+            flow.append(self.P(esc(c), st.bullet))
+        self.add(head, flow)
+
+    # -- identification, sign-off
+    def signoff(self) -> None:
+        from reportlab.platypus import Spacer
+
+        st = self.st
+        info = self.p.info
+        head = f"{HEADINGS['identification']} and {HEADINGS['signoff'].lower()}"
+        flow: list[object] = [self.P(esc(HEADINGS["identification"]), st.h1)]
+        now = _dt.datetime.now(_dt.UTC).strftime("%Y-%m-%d %H:%M UTC")
+        rows = [
+            ("Project", info.name), ("Site", info.site), ("Lift reference", info.lift_reference),
+            ("Revision", info.revision), ("Date", info.date),
+            ("Project file", self.fp.source),
+            ("Lift zones in this annex", ", ".join(z.id for z in self.zones) or "none"),
+            ("Software", f"droprig {__version__}"),
+            ("Annex generated", now),
+        ]
+        flow.append(_table([[self.P(f"<b>{esc(a)}</b>"), self.P(esc(b))] for a, b in rows],
+                           [0.3 * self.w, 0.7 * self.w], header_rows=0))
+        flow.append(Spacer(1, 6))
+        flow.append(self.P(esc(self.fp.label) + ":", st.body))
+        flow.append(self.P(self.fp.sha256, st.mono))
+        flow.append(self.P("Check the fingerprint before signing: any change to the input "
+                           f"changes it (e.g. <font name='{fonts.MONO}'>sha256sum FILE</font>).",
+                           st.small))
+        if info.description.strip():
+            flow.append(self.P("Description", st.h2))
+            flow.append(self.P(esc(info.description).replace("\n", "<br/>"), st.small))
+        flow.append(self.P(esc(HEADINGS["signoff"]), st.h1))
+        flow.append(self.P(esc(_caution()), st.caution))
+        flow.append(Spacer(1, 6))
+        hdr = ["Role", "Name", "Signature", "Date"]
+        srows = [[self.P(h, st.head) for h in hdr]]
+        for role, name in (("Prepared by", info.prepared_by), ("Checked by", info.checked_by),
+                           ("Approved by", info.approved_by)):
+            srows.append([self.P(f"<b>{role}</b>"), self.P(esc(name)), "", ""])
+        from reportlab.lib import colors
+
+        flow.append(_table(srows, [0.18 * self.w, 0.32 * self.w, 0.32 * self.w, 0.18 * self.w],
+                           extra=[("ROWBACKGROUNDS", (0, 1), (-1, -1), [colors.white]),
+                                  ("BOTTOMPADDING", (0, 1), (-1, -1), 22),
+                                  ("GRID", (0, 0), (-1, -1), 0.5, colors.black)]))
+        self.add(head, flow)
+
+
+@dataclass(frozen=True)
+class Resistances:
+    """Member properties and resistances shown in the member table (SI)."""
+
+    fy: float
+    flexure: float
+    shear: float
+    EI: float
+
+
+def member_resistances(m: Member, project: Project) -> Resistances:
+    """Design yield strength, flexural and shear resistance used for a member.
+
+    fy,d = φ·DIF·fy (the project's resistance and dynamic increase factors);
+    flexure Mp = fy,d·Zx (AISC 360-16 Eq. F2-1; EN 1993-1-1 Eq. 6.13 with
+    Wpl = Zx); shear AISC 360-16 Eq. G2-1 Vn = 0.6·fy,d·d·tw (Cv1 = 1) or
+    EN 1993-1-1 Eq. 6.18 Vpl = Av·fy,d/√3 with Av = A − 2·bf·tf + (tw + 2r)·tf,
+    not less than hw·tw (η = 1).
+    """
+    s = project.settings
+    sec = m.section
+    fy = m.grade.section_fy(sec) * s.resistance_factor * s.dynamic_increase_factor
+    flex = fy * sec.Zx
+    if s.design_basis == "aisc360":
+        shear = 0.6 * fy * sec.d * sec.tw
+    else:
+        av = max(sec.A - 2 * sec.bf * sec.tf + (sec.tw + 2 * sec.r) * sec.tf, sec.h_web * sec.tw)
+        shear = av * fy / math.sqrt(3.0)
+    return Resistances(fy, flex, shear, m.grade.E * sec.Ix)
+
+
+def _resistance_note(project: Project) -> str:
+    s = project.settings
+    if s.design_basis == "aisc360":
+        src = ("flexure Mp = fy·Zx (AISC 360-16 Eq. F2-1); shear Vn = 0.6·fy·d·tw "
+               "(AISC 360-16 Eq. G2-1, Cv1 = 1)")
+    else:
+        src = ("flexure Mpl = fy·Wpl (EN 1993-1-1 Eq. 6.13); shear Vpl = Av·fy/√3 "
+               "(EN 1993-1-1 Eq. 6.18)")
+    return (f"Resistances used, with fy multiplied by the resistance factor "
+            f"{s.resistance_factor:.2f} and the dynamic increase factor "
+            f"{s.dynamic_increase_factor:.2f}: {src}. Web yielding, web crippling / patch "
+            "loading and deck checks depend on the drop point and are shown on the "
+            "calculation sheets.")
+
+
+def _ei(value: float, system: str) -> str:
+    if system == "US":
+        return f"{value / 4448.2216152605 / 0.0254 ** 2 / 1e3:,.0f}×10³ kip·in²"
+    return f"{value / 1e3:,.0f} kN·m²"
+
+
+def _check_name(k: int) -> str:
+    return CHECKS[k].replace("_", " ") if 0 <= k < len(CHECKS) else "none"
+
+
+def _deg(rad: float) -> str:
+    return f"{math.degrees(rad):.1f}°"
+
+
+def _basis(project: Project) -> str:
+    return {"aisc360": "AISC 360-16 (US)", "en1993": "EN 1993-1-1 / EN 1993-1-5 (EU)"}[
+        project.settings.design_basis]
+
+
+def _units(system: str) -> str:
+    return "SI" if system == "SI" else "US customary"
+
+
+def _caution() -> str:
+    from droprig.cli import CAUTION
+
+    return CAUTION
+
+
+# ----------------------------------------------------------------------- entry
+
+
+def write_annex(project: Project, results: Results, path: str | os.PathLike[str], *,
+                project_path: str | os.PathLike[str] | None = None, lift: str | None = None,
+                progress: Progress | None = None) -> int:
+    """Write the lift-permit annex PDF for ``project`` and its ``results`` to ``path``.
+
+    ``project_path``: the ``.droprig`` file the project was read from (its SHA-256
+    is printed); ``lift``: only this lift zone id (``ModelError`` naming the ids
+    otherwise); ``progress(fraction, text)`` is called as the work advances.
+    The file is written atomically (temporary file in the same folder, then
+    :func:`os.replace`); on any error no file is left behind. Returns the page
+    count.
+    """
+    from reportlab.lib.pagesizes import A4, LETTER
+    from reportlab.platypus import BaseDocTemplate, Frame, KeepInFrame, PageBreak, PageTemplate
+
+    def tick(f: float, text: str) -> None:
+        if progress is not None:
+            progress(min(max(f, 0.0), 1.0), text)
+
+    tick(0.0, "Preparing the annex")
+    fonts.register()
+    zones = content.select_zones(project, lift)
+    fp = fingerprint(project, project_path)
+    verdicts = content.zone_verdicts(project, results, zones)
+    rows = content.bay_rows(results, zones)
+    sheets = build_sheets(project, results, zones, progress=progress, span=(0.05, 0.55))
+    levels = content.levels_of(project, zones)
+
+    system = project.settings.unit_system
+    pagesize = LETTER if system == "US" else A4
+    fw = pagesize[0] - 2 * MARGIN_X
+    fy0 = MARGIN_BOTTOM + FOOTER_H
+    fh = pagesize[1] - MARGIN_TOP - HEADER_H - fy0
+    tick(0.55, "Laying out pages")
+    b = _Builder(project, results, zones, fp, fw, fh)
+    b.summary(verdicts)
+    b.bay_pages(rows)
+    for lv in levels:
+        b.plan(lv)
+    b.members(levels)
+    b.sheets(sheets)
+    b.assumptions()
+    b.signoff()
+
+    story: list[object] = []
+    for k, (section, flow) in enumerate(b.pages):
+        story.append(_Marker(section))
+        story.append(KeepInFrame(fw, fh - 2, flow, mode="shrink"))
+        if k < len(b.pages) - 1:
+            story.append(PageBreak())
+
+    info = project.info
+    header = _Header(info.name, info.site, info.lift_reference, info.revision, info.date,
+                     __version__, fp.sha256, _units(system))
+    counter = [0]
+    target = pathlib.Path(os.fspath(path))
+    folder = target.parent if str(target.parent) else pathlib.Path(".")
+    tmp = folder / f".{target.name}.{secrets.token_hex(6)}.tmp"
+    try:
+        doc = BaseDocTemplate(
+            str(tmp), pagesize=pagesize, leftMargin=MARGIN_X, rightMargin=MARGIN_X,
+            topMargin=MARGIN_TOP + HEADER_H, bottomMargin=fy0,
+            title=f"Lift-permit annex — {info.name}", author=info.prepared_by,
+            subject=f"Dropped-load assessment, lift {info.lift_reference}",
+            creator=f"droprig {__version__}")
+        frame = Frame(MARGIN_X, fy0, fw, fh, leftPadding=0, rightPadding=0, topPadding=0,
+                      bottomPadding=0, id="body")
+        doc.addPageTemplates([PageTemplate(id="page", frames=[frame])])
+        tick(0.6, "Rendering PDF")
+        doc.build(story, canvasmaker=_canvas_class(header, counter))
+        os.replace(tmp, target)
+    except BaseException:
+        try:
+            tmp.unlink()
+        except FileNotFoundError:
+            pass
+        raise
+    tick(1.0, f"Annex written: {counter[0]} pages")
+    return counter[0]

@@ -1,0 +1,290 @@
+"""What the annex says, as plain data (no PDF): verdicts, tables and the list of
+calculation sheets. :mod:`droprig.report.annex` lays this out on pages.
+
+Kept separate from the layout so the choices a reviewer relies on — which bays
+are worst, which drop points get a calculation sheet, which overall verdict is
+printed — can be read and tested without parsing a PDF.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Iterable
+from dataclasses import dataclass
+
+from droprig.model import Level, LiftZone, ModelError, Project, bays
+from droprig.solver.results import RESPONSES, BaySummary, CaseResult, Results
+
+NOT_ASSESSED = "none"
+
+
+@dataclass(frozen=True)
+class OutcomeStyle:
+    """How an outcome is named and drawn in print.
+
+    The same visual language as the desktop plan (``droprig/gui/style.py``,
+    which this module cannot import because ``report`` must stay free of Qt):
+    blue / amber / plum told apart by lightness as well as hue, each paired with
+    a word, a one-letter tag and a hatch that gets denser as the outcome gets
+    worse, so the plan reads under colour-vision deficiency and in grey print.
+    """
+
+    key: str
+    label: str
+    tag: str
+    meaning: str
+    fill: str
+    edge: str
+    ink: str
+    hatch: str  # "none" | "diagonal" | "cross" | "dots"
+
+
+OUTCOMES: dict[str, OutcomeStyle] = {
+    "elastic": OutcomeStyle(
+        "elastic", "Stays elastic", "E",
+        "Every check at or below 100 %: the framing springs back.",
+        "#4F8CC2", "#173F66", "#06182B", "none"),
+    "plastic": OutcomeStyle(
+        "plastic", "Yields, within limits", "Y",
+        "Bending capacity exceeded; permanent set within the ductility and rotation "
+        "limits. Expect damage to repair.",
+        "#F2C572", "#8A5A00", "#3D2800", "diagonal"),
+    "exceeds": OutcomeStyle(
+        "exceeds", "Exceeds limits", "X",
+        "A brittle check fails, a limit is passed, the path collapses or the load falls "
+        "through an opening. Not acceptable as planned.",
+        "#7B2D5E", "#3E0F2C", "#FFFFFF", "cross"),
+    NOT_ASSESSED: OutcomeStyle(
+        NOT_ASSESSED, "Not assessed", "–",
+        "No drop point of the lift zones in this annex falls in this bay.",
+        "#E4E4E0", "#8C8C86", "#3A3A36", "dots"),
+}
+
+
+def rank(response: str) -> int:
+    """Severity of a response: elastic 0, plastic 1, exceeds 2; unknown -1."""
+    return RESPONSES.index(response) if response in RESPONSES else -1
+
+
+def worst_response(responses: Iterable[str]) -> str:
+    """The worst of several responses (``"none"`` when there are none)."""
+    ranked = [r for r in responses if r in RESPONSES]
+    return max(ranked, key=rank) if ranked else NOT_ASSESSED
+
+
+def _finite(v: float | None) -> float | None:
+    return None if v is None or (isinstance(v, float) and math.isnan(v)) else float(v)
+
+
+def severity_key(b: BaySummary) -> tuple[int, float]:
+    """Sort key, worst first: response rank, then maximum utilisation."""
+    u = b.max_utilisation
+    return (-rank(b.response), -(u if math.isfinite(u) else math.inf))
+
+
+def least_allowable(values: Iterable[float | None]) -> float | None:
+    """The least allowable drop height of several bays.
+
+    A bay with no allowable height (``None``: not even a load set down at
+    h = 0 stays within the limit) makes the least ``None`` — the blunt answer.
+    An empty set gives ``nan``-free ``None`` as well.
+    """
+    vals = list(values)
+    if not vals:
+        return None
+    out = math.inf
+    for v in vals:
+        f = _finite(v)
+        if f is None:
+            return None
+        out = min(out, f)
+    return out
+
+
+@dataclass(frozen=True)
+class CaseVerdict:
+    """Verdict for one load of one lift zone."""
+
+    zone_id: str
+    load_name: str
+    mass: float
+    planned_drop_height: float
+    response: str
+    max_utilisation: float
+    least_allowable_drop_height: float | None
+    n_bays: int
+    n_plastic: int
+    n_exceeds: int
+    worst_bay: BaySummary | None
+
+    @property
+    def advice(self) -> str:
+        return case_advice(self)
+
+
+@dataclass(frozen=True)
+class ZoneVerdict:
+    zone: LiftZone
+    response: str
+    cases: tuple[CaseVerdict, ...]
+
+
+def case_advice(c: CaseVerdict) -> str:
+    """Plain words for one load of one zone (what the lift planner must do)."""
+    h = c.least_allowable_drop_height
+    if c.response == NOT_ASSESSED:
+        return ("No drop point of this load falls on the framing of this level: nothing "
+                "assessed. Confirm the swing zone and the level.")
+    if c.response == "elastic":
+        return ("Framing stays elastic for the planned drop everywhere in the zone. "
+                "People must still be kept out from under the load path.")
+    if c.response == "plastic":
+        return (f"{c.n_plastic} bay(s) yield (within limits): protect them with mats or "
+                "lower the drop height, and inspect the framing after any drop.")
+    msg = (f"NOT ACCEPTABLE AS PLANNED: {c.n_exceeds} bay(s) exceed limits. Protect them "
+           "(mats) or exclude them from the swing zone")
+    if h is None:
+        msg += "; no drop height is safe over the worst bay."
+    else:
+        msg += "; or limit the drop height as shown."
+    return msg
+
+
+def _case_summaries(results: Results, zone_id: str, load_name: str) -> list[BaySummary]:
+    return [b for b in results.bays if b.zone_id == zone_id and b.load_name == load_name]
+
+
+def _case(results: Results, zone_id: str, load_name: str) -> CaseResult | None:
+    for c in results.cases:
+        if c.zone_id == zone_id and c.load_name == load_name:
+            return c
+    return None
+
+
+def select_zones(project: Project, lift: str | None) -> tuple[LiftZone, ...]:
+    """The lift zones the annex covers: all, or the one named ``lift``."""
+    if lift is None:
+        return project.lift_zones
+    for z in project.lift_zones:
+        if z.id == lift:
+            return (z,)
+    ids = ", ".join(z.id for z in project.lift_zones) or "(the project has no lift zones)"
+    raise ModelError("--lift", lift, f"the id of a lift zone: {ids}")
+
+
+def case_verdict(project: Project, results: Results, zone: LiftZone,
+                 load_name: str) -> CaseVerdict:
+    load = next(ld for ld in zone.loads if ld.name == load_name)
+    sums = _case_summaries(results, zone.id, load_name)
+    case = _case(results, zone.id, load_name)
+    if case is not None:
+        planned = case.planned_drop_height
+    else:
+        planned = load.height_above(project.level(zone.level_id).elevation)
+    worst = min(sums, key=severity_key) if sums else None
+    return CaseVerdict(
+        zone_id=zone.id,
+        load_name=load_name,
+        mass=load.mass,
+        planned_drop_height=planned,
+        response=worst_response(b.response for b in sums),
+        max_utilisation=max((b.max_utilisation for b in sums), default=math.nan),
+        least_allowable_drop_height=least_allowable(b.allowable_drop_height for b in sums),
+        n_bays=len(sums),
+        n_plastic=sum(b.response == "plastic" for b in sums),
+        n_exceeds=sum(b.response == "exceeds" for b in sums),
+        worst_bay=worst,
+    )
+
+
+def zone_verdicts(project: Project, results: Results,
+                  zones: tuple[LiftZone, ...]) -> tuple[ZoneVerdict, ...]:
+    out = []
+    for z in zones:
+        cases = tuple(case_verdict(project, results, z, ld.name) for ld in z.loads)
+        out.append(ZoneVerdict(z, worst_response(c.response for c in cases
+                                                 if c.response != NOT_ASSESSED), cases))
+    return tuple(out)
+
+
+def overall_response(verdicts: Iterable[ZoneVerdict]) -> str:
+    return worst_response(v.response for v in verdicts)
+
+
+def bay_rows(results: Results, zones: tuple[LiftZone, ...]) -> list[BaySummary]:
+    """Per-bay rows for the summary: zone by zone, load by load, worst bay first."""
+    rows: list[BaySummary] = []
+    for z in zones:
+        for ld in z.loads:
+            rows.extend(sorted(_case_summaries(results, z.id, ld.name),
+                               key=lambda b: (*severity_key(b), b.bay_id)))
+    return rows
+
+
+@dataclass(frozen=True)
+class SheetRef:
+    """One calculation sheet: the governing drop point of a bay for one load."""
+
+    zone_id: str
+    load_name: str
+    bay_id: str
+    x: float
+    y: float
+    reasons: tuple[str, ...]
+    summary: BaySummary
+
+
+def calc_sheets(results: Results, zones: tuple[LiftZone, ...]) -> list[SheetRef]:
+    """The drop points that get a calculation sheet.
+
+    Per zone × load: the governing point of the worst bay, then the governing
+    point of every other bay that is not elastic (worst first). A point shared
+    by two of these is printed once.
+    """
+    out: list[SheetRef] = []
+    for z in zones:
+        for ld in z.loads:
+            sums = sorted(_case_summaries(results, z.id, ld.name),
+                          key=lambda b: (*severity_key(b), b.bay_id))
+            if not sums:
+                continue
+            seen: dict[tuple[str, float, float], int] = {}
+            for k, b in enumerate(sums):
+                reasons = []
+                if k == 0:
+                    reasons.append("worst bay of this load")
+                if b.response != "elastic":
+                    reasons.append(f"governing point of a bay that {b.response}"
+                                   if b.response == "exceeds" else
+                                   "governing point of a bay that yields")
+                if not reasons:
+                    continue
+                key = (b.bay_id, round(b.governing_x, 6), round(b.governing_y, 6))
+                if key in seen:
+                    continue
+                seen[key] = len(out)
+                out.append(SheetRef(z.id, ld.name, b.bay_id, b.governing_x, b.governing_y,
+                                    tuple(reasons), b))
+    return out
+
+
+def levels_of(project: Project, zones: tuple[LiftZone, ...]) -> tuple[Level, ...]:
+    """Levels that carry at least one of ``zones``, in project order."""
+    ids = {z.level_id for z in zones}
+    return tuple(lv for lv in project.levels if lv.id in ids)
+
+
+def bay_outcomes(results: Results, level: Level,
+                 zones: tuple[LiftZone, ...]) -> dict[str, tuple[str, float]]:
+    """Worst response and highest utilisation per bay id of ``level`` over
+    ``zones`` and their loads; bays no zone reaches are ``("none", nan)``."""
+    zone_ids = {z.id for z in zones}
+    out: dict[str, tuple[str, float]] = {b.id: (NOT_ASSESSED, math.nan) for b in bays(level)}
+    for s in results.bays:
+        if s.level_id != level.id or s.zone_id not in zone_ids or s.bay_id not in out:
+            continue
+        r0, u0 = out[s.bay_id]
+        u = s.max_utilisation
+        response = s.response if rank(s.response) > rank(r0) else r0
+        out[s.bay_id] = (response, u if math.isnan(u0) or u > u0 else u0)
+    return out
