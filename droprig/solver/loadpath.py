@@ -1,0 +1,663 @@
+"""Load path of a unit load dropped on the deck, by statics, vectorised over drop points.
+
+A unit downward load at plan point p travels down the framing tree
+
+    deck strip -> the two deck-supporting members either side of p (lever rule)
+    -> their end reactions -> the members (or columns) their ends rest on -> … -> columns.
+
+Assumptions (stated once, used everywhere):
+
+* The deck spans one way between the two nearest members parallel to the infill
+  beams whose extent covers p, as a rigid strip simply supported on them: it
+  shares the unit load by the lever rule, (1 − t) to the member on one side and t
+  to the other, t = distance from the first member / strip span. The deck's own
+  bending adds no flexibility (conservative: a stiffer struck point gives a larger
+  impact force). Common practice for one-way decks, no source.
+* A member end that lies on a grid intersection rests on a column: a rigid
+  support. Otherwise it rests on the member perpendicular to it whose line passes
+  through the end (a "node" of that member). A cantilever's free end carries
+  nothing. Members do not resist torsion; end moments of fixed or propped ends are
+  taken by the connection and not passed on.
+* Each member deflects by its own bending under the loads it carries (closed-form
+  Green's function of its end condition, :mod:`droprig.solver.beam`) plus the
+  movement of its supports. The support movement is carried into the span by the
+  member's reaction influence line (Müller-Breslau principle): straight-line
+  interpolation for simple beams, a cubic for fixed or propped ends, rigid
+  translation for a cantilever. This keeps the deflection under the load equal to
+  the internal work of the unit-load system (Maxwell–Betti).
+
+Compliance (m/N): f(p) = Σ_m r_mᵀ G_m r_m over every member m that carries part of
+the unit load (r_m its point loads per unit load at p, G_m its Green's matrix),
+cross terms included when several point loads sit on one member. It is computed
+as f = Σ_k w_k² g_k(a_k, a_k) + rᵀ D r, with k the (at most two) deck-supporting
+members, w_k their lever-rule shares, r the end reactions they pass to the nodes
+and D = Tᵀ G_n T the node flexibility matrix of the level (T propagates node
+loads down the tree, G_n holds the Green's function values between nodes of the
+same member).
+
+Effective struck mass (kg), Rayleigh with the static deflected shape
+(Timoshenko, *Strength of Materials* Part I): m_e(p) = Σ_m ∫ μ_m (w_m(x)/w(p))² dx
+over the members carrying load (members that only ride along on a deflecting
+support are left out: less mass, larger impact force, conservative). Gauss–Legendre
+quadrature, 4 points between kinks (exact for the piecewise cubic shapes).
+
+Everything that does not depend on p is precomputed once per level
+(:func:`build_frame`); :func:`evaluate` then works on arrays of points.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from droprig.model import Level, ModelError
+from droprig.model.project import GEOMETRY_TOL
+from droprig.solver import beam
+
+COND_NAMES: tuple[str, ...] = ("simple", "fixed", "propped", "cantilever")
+"""Order of the integer end-condition codes used in the arrays below."""
+
+_GL_T, _GL_W = np.polynomial.legendre.leggauss(4)
+_GL_S = 0.5 * (_GL_T + 1.0)  # nodes on [0, 1]
+_GL_WS = 0.5 * _GL_W  # weights on [0, 1]
+
+SUPPORT_TOL = 1e-3
+"""A member end within this distance (m) of a column or of another member's line
+rests on it."""
+
+CHUNK = 1 << 16
+"""Drop points processed per block (bounds the memory of the gathers)."""
+
+
+# --------------------------------------------------------------------------- helpers
+def by_condition(fn, codes: np.ndarray, *args: np.ndarray):
+    """Evaluate ``fn(cond_name, *args)`` element-wise where ``codes`` holds the end
+    condition of each element (indices into :data:`COND_NAMES`). ``fn`` may return
+    an array or a tuple of arrays; all ``args`` broadcast with ``codes``."""
+    codes = np.asarray(codes)
+    lo, hi = int(codes.min()), int(codes.max())
+    if lo == hi:
+        return fn(COND_NAMES[lo], *args)
+    present = np.unique(codes)
+    shape = np.broadcast_shapes(codes.shape, *(np.shape(a) for a in args))
+    codes_b = np.broadcast_to(codes, shape)
+    args_b = [np.broadcast_to(np.asarray(a, float), shape) for a in args]
+    out = None
+    for c in present:
+        sel = codes_b == c
+        res = fn(COND_NAMES[int(c)], *(a[sel] for a in args_b))
+        if out is None:
+            out = (tuple(np.empty(shape) for _ in res) if isinstance(res, tuple)
+                   else np.empty(shape))
+        if isinstance(res, tuple):
+            for o, r in zip(out, res, strict=True):
+                o[sel] = r
+        else:
+            out[sel] = res
+    return out
+
+
+# --------------------------------------------------------------------------- mass integrals
+def _unit_integrals(cond: str, xi: float) -> tuple[float, float, float]:
+    """For a member of unit span and unit EI struck at ξ: ∫₀¹ ĝ(s, ξ)² ds and
+    ∫₀¹ ĝ(s, ξ)·R̂_e(s) ds (e = 0, 1), by 8-point Gauss–Legendre on [0, ξ] and
+    [ξ, 1] (exact: the integrands are polynomials of degree ≤ 6 on each piece)."""
+    t, w = np.polynomial.legendre.leggauss(8)
+    s = 0.5 * (t + 1.0)
+    xs = np.concatenate([xi * s, xi + (1.0 - xi) * s])
+    ws = np.concatenate([xi * 0.5 * w, (1.0 - xi) * 0.5 * w])
+    g = beam.green(cond, 1.0, 1.0, xs, xi)
+    R0, RL = beam.unit_reactions(cond, 1.0, xs)
+    return float(ws @ (g * g)), float(ws @ (g * R0)), float(ws @ (g * RL))
+
+
+_POLY_DEG = 16
+
+
+def _make_polys() -> dict[str, tuple[np.ndarray, np.ndarray, np.ndarray]]:
+    """Chebyshev interpolants on ξ ∈ [0, 1] of the integrals of :func:`_unit_integrals`.
+
+    Each integral is a polynomial in ξ of degree ≤ 13 (the Green's functions of
+    AISC Manual Table 3-23 are cubic in x and in a on each side of the load), so the
+    degree-16 interpolant reproduces it to rounding error. Scaling: with span L
+    and stiffness EI, ∫g² dx = L⁷/EI² · P_gg(a/L), ∫g·R_e dx = L⁴/EI · P_e(a/L).
+    """
+    nodes = 0.5 * (1.0 - np.cos(np.pi * (np.arange(_POLY_DEG + 1) + 0.5) / (_POLY_DEG + 1)))
+    out = {}
+    for cond in COND_NAMES:
+        vals = np.array([_unit_integrals(cond, float(x)) for x in nodes])
+        coefs = [np.polynomial.chebyshev.chebfit(2.0 * nodes - 1.0, vals[:, i], _POLY_DEG)
+                 for i in range(3)]
+        out[cond] = (coefs[0], coefs[1], coefs[2])
+    return out
+
+
+_POLYS = _make_polys()
+
+
+def _poly_gg(cond: str, xi: np.ndarray) -> np.ndarray:
+    return np.polynomial.chebyshev.chebval(2.0 * np.asarray(xi) - 1.0, _POLYS[cond][0])
+
+
+def _poly_gr(cond: str, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    z = 2.0 * np.asarray(xi) - 1.0
+    return (np.polynomial.chebyshev.chebval(z, _POLYS[cond][1]),
+            np.polynomial.chebyshev.chebval(z, _POLYS[cond][2]))
+
+
+# --------------------------------------------------------------------------- data
+@dataclass(frozen=True, eq=False)
+class Frame:
+    """Everything about one level's framing that does not depend on the drop point.
+
+    Arrays over members (index = position in ``level.members``): ``cond`` code,
+    ``L`` span (m), ``EI`` (N·m²), ``mu`` steel mass per length (kg/m), ``vs`` and
+    ``vdir`` (start coordinate along the member's axis and +1/−1 direction),
+    ``end_node`` (n_m, 2) node each end rests on (``n_nodes`` = rigid or free).
+    Nodes: ``node_member`` supporting member, ``node_pos`` position along it (m),
+    ``node_xy``. ``T`` and ``D``: (n_nodes + 1)² with a zero last row/column.
+    Deck: deck-supporting members span along ``deck_axis`` ("x" or "y"); the plan
+    is cut into cells by ``u_breaks`` (across the deck members) and ``v_breaks``
+    (along them); ``cell_pair`` gives the panel (pair of supporting members) of
+    each cell, −1 where no deck panel exists.
+    """
+
+    level: Level
+    cond: np.ndarray
+    L: np.ndarray
+    EI: np.ndarray
+    mu: np.ndarray
+    vs: np.ndarray
+    vdir: np.ndarray
+    cross: np.ndarray
+    end_node: np.ndarray
+    node_member: np.ndarray
+    node_pos: np.ndarray
+    node_xy: np.ndarray
+    nodes_on: tuple[np.ndarray, ...]
+    T: np.ndarray
+    D: np.ndarray
+    deck_axis: str
+    u_breaks: np.ndarray
+    v_breaks: np.ndarray
+    cell_pair: np.ndarray
+    pair_members: np.ndarray
+    pair_c: np.ndarray
+    pair_nodes: np.ndarray
+    pair_D: np.ndarray
+    pair_M: np.ndarray
+    pair_support: tuple[tuple[int, ...], ...]
+    N_R: np.ndarray
+    # support-member actions per pair (padded): member, stations, unit moment and
+    # end-reaction coefficients on the local reaction vector (4 entries)
+    pair_sup_member: np.ndarray
+    pair_sup_x: np.ndarray
+    pair_sup_mcoef: np.ndarray
+    pair_sup_rcoef: np.ndarray
+    warnings: tuple[str, ...] = field(default=())
+
+    @property
+    def n_members(self) -> int:
+        return int(self.L.shape[0])
+
+    @property
+    def n_nodes(self) -> int:
+        return int(self.node_member.shape[0])
+
+    @property
+    def n_pairs(self) -> int:
+        return int(self.pair_members.shape[0])
+
+
+# --------------------------------------------------------------------------- build
+def _is_column(level: Level, p: tuple[float, float]) -> bool:
+    g = level.grid
+    return (min(abs(p[0] - x) for x in g.x_lines) <= SUPPORT_TOL
+            and min(abs(p[1] - y) for y in g.y_lines) <= SUPPORT_TOL)
+
+
+def _find_support(level: Level, k: int, p: tuple[float, float]) -> tuple[int, float]:
+    """The member (index, position along it) that member ``k``'s end at ``p`` rests on."""
+    me = level.members[k]
+    best: tuple[int, float] | None = None
+    best_interior = False
+    for j, m in enumerate(level.members):
+        if j == k or m.axis == me.axis:
+            continue
+        ax = 0 if m.axis == "x" else 1
+        c = m.start[1 - ax]
+        if abs(p[1 - ax] - c) > SUPPORT_TOL:
+            continue
+        lo, hi = sorted((m.start[ax], m.end[ax]))
+        if not (lo - SUPPORT_TOL <= p[ax] <= hi + SUPPORT_TOL):
+            continue
+        s = min(max(abs(p[ax] - m.start[ax]), 0.0), m.span)
+        interior = lo + SUPPORT_TOL < p[ax] < hi - SUPPORT_TOL
+        if best is None or (interior and not best_interior):
+            best, best_interior = (j, s), interior
+    if best is None:
+        which = "start" if p == me.start else "end"
+        raise ModelError(f"level {level.id}.members[{me.id}].{which}", p,
+                         "a column (grid intersection) or a perpendicular member passing "
+                         "through the member end")
+    return best
+
+
+def _check_acyclic(level: Level, rests_on: dict[int, set[int]]) -> None:
+    state: dict[int, int] = {}
+
+    def visit(m: int, stack: list[int]) -> None:
+        st = state.get(m, 0)
+        if st == 2:
+            return
+        if st == 1:
+            cyc = [level.members[i].id for i in stack[stack.index(m):]]
+            raise ModelError(f"level {level.id}.members", " -> ".join(cyc),
+                             "members that rest on each other without a column below")
+        state[m] = 1
+        stack.append(m)
+        for s in rests_on.get(m, ()):
+            visit(s, stack)
+        stack.pop()
+        state[m] = 2
+
+    for m in range(len(level.members)):
+        visit(m, [])
+
+
+def _deck_axis(level: Level) -> str:
+    beams = [m.axis for m in level.members if m.role == "beam"]
+    if beams:
+        return max(("x", "y"), key=beams.count)
+    girders = [m.axis for m in level.members if m.role == "girder"]
+    if not girders:
+        raise ModelError(f"level {level.id}.members", 0, "at least one member")
+    return "y" if max(("x", "y"), key=girders.count) == "x" else "x"
+
+
+def build_frame(level: Level, *, include_member_mass: bool = True) -> Frame:
+    """Precompute the load-path data of ``level`` (see :class:`Frame`)."""
+    members = level.members
+    n_m = len(members)
+    if n_m == 0:
+        raise ModelError(f"level {level.id}.members", 0, "at least one member")
+    cond = np.array([COND_NAMES.index(m.end_condition) for m in members], dtype=np.int64)
+    L = np.array([m.span for m in members])
+    EI = np.array([m.grade.E * m.section.Ix for m in members])
+    mu = np.array([m.section.mass_per_length for m in members])
+    if not include_member_mass:
+        mu = np.zeros(n_m)
+    axis_idx = np.array([0 if m.axis == "x" else 1 for m in members])
+    vs = np.array([m.start[a] for m, a in zip(members, axis_idx, strict=True)])
+    vdir = np.array([1.0 if m.end[a] >= m.start[a] else -1.0
+                     for m, a in zip(members, axis_idx, strict=True)])
+    cross = np.array([m.start[1 - a] for m, a in zip(members, axis_idx, strict=True)])
+
+    # ---- nodes: member ends resting on other members
+    node_key: dict[tuple[int, int], int] = {}
+    node_member: list[int] = []
+    node_pos: list[float] = []
+    node_xy: list[tuple[float, float]] = []
+    end_ref: list[list[int]] = []
+    rests_on: dict[int, set[int]] = {}
+    for k, m in enumerate(members):
+        refs = []
+        for e, p in enumerate((m.start, m.end)):
+            if (m.end_condition == "cantilever" and e == 1) or _is_column(level, p):
+                refs.append(-1)
+                continue
+            j, s = _find_support(level, k, p)
+            key = (j, round(s / GEOMETRY_TOL))
+            if key not in node_key:
+                node_key[key] = len(node_member)
+                node_member.append(j)
+                node_pos.append(s)
+                node_xy.append(p)
+            refs.append(node_key[key])
+            rests_on.setdefault(k, set()).add(j)
+        end_ref.append(refs)
+    _check_acyclic(level, rests_on)
+    n_n = len(node_member)
+    end_node = np.array([[n_n if r < 0 else r for r in refs] for refs in end_ref],
+                        dtype=np.int64)
+    node_member_a = np.array(node_member, dtype=np.int64)
+    node_pos_a = np.array(node_pos, dtype=float)
+    nodes_on = tuple(np.flatnonzero(node_member_a == k) for k in range(n_m))
+
+    # ---- node propagation T and node flexibility D
+    P = np.zeros((n_n + 1, n_n + 1))
+    Gn = np.zeros((n_n + 1, n_n + 1))
+    for k in range(n_m):
+        on = nodes_on[k]
+        if on.size == 0:
+            continue
+        c = COND_NAMES[cond[k]]
+        s = node_pos_a[on]
+        R0, RL = beam.unit_reactions(c, L[k], s)
+        for e, R in ((0, R0), (1, RL)):
+            tgt = end_node[k, e]
+            if tgt < n_n:
+                P[tgt, on] += R
+        Gn[np.ix_(on, on)] = beam.green(c, L[k], EI[k], s[:, None], s[None, :])
+    T = np.linalg.inv(np.eye(n_n + 1) - P)
+    T[n_n, :] = 0.0
+    T[:, n_n] = 0.0
+    D = T.T @ Gn @ T
+    D = 0.5 * (D + D.T)
+
+    # ---- member quadrature data (support movement by the reaction influence line)
+    N_R = np.zeros((n_m, 2, 2))
+    quad: list[tuple[np.ndarray, np.ndarray]] = []
+    for k in range(n_m):
+        brk = np.unique(np.concatenate(([0.0, L[k]], node_pos_a[nodes_on[k]])))
+        seg0, seg1 = brk[:-1], brk[1:]
+        xq = (seg0[:, None] + (seg1 - seg0)[:, None] * _GL_S[None, :]).ravel()
+        wq = ((seg1 - seg0)[:, None] * _GL_WS[None, :]).ravel()
+        quad.append((xq, wq))
+        R0, RL = beam.unit_reactions(COND_NAMES[cond[k]], L[k], xq)
+        Rq = np.stack([R0, RL], axis=1)
+        N_R[k] = mu[k] * (Rq * wq[:, None]).T @ Rq
+
+    # ---- deck cells and panels
+    deck_axis = _deck_axis(level)
+    dk_idx = 0 if deck_axis == "x" else 1
+    deck_members = [k for k in range(n_m) if axis_idx[k] == dk_idx]
+    c_deck = cross[deck_members]
+    v_lo = np.minimum(vs[deck_members], vs[deck_members] + vdir[deck_members] * L[deck_members])
+    v_hi = np.maximum(vs[deck_members], vs[deck_members] + vdir[deck_members] * L[deck_members])
+    u_breaks = np.unique(np.round(c_deck / GEOMETRY_TOL) * GEOMETRY_TOL)
+    v_breaks = np.unique(np.round(np.concatenate([v_lo, v_hi]) / GEOMETRY_TOL) * GEOMETRY_TOL)
+    nu, nv = max(len(u_breaks) - 1, 0), max(len(v_breaks) - 1, 0)
+    cell_pair = -np.ones((nu, nv), dtype=np.int64)
+    pair_index: dict[tuple[int, int], int] = {}
+    for iv in range(nv):
+        vmid = 0.5 * (v_breaks[iv] + v_breaks[iv + 1])
+        cover = [(c_deck[i], deck_members[i]) for i in range(len(deck_members))
+                 if v_lo[i] - GEOMETRY_TOL <= vmid <= v_hi[i] + GEOMETRY_TOL]
+        for iu in range(nu):
+            ulo, uhi = u_breaks[iu], u_breaks[iu + 1]
+            left = [(c, k) for c, k in cover if c <= ulo + GEOMETRY_TOL]
+            right = [(c, k) for c, k in cover if c >= uhi - GEOMETRY_TOL]
+            if not left or not right:
+                continue
+            kl = max(left)[1]
+            kr = min(right)[1]
+            key = (kl, kr)
+            if key not in pair_index:
+                pair_index[key] = len(pair_index)
+            cell_pair[iu, iv] = pair_index[key]
+    pairs = np.array(list(pair_index), dtype=np.int64).reshape(-1, 2)
+    n_p = pairs.shape[0]
+    pair_c = cross[pairs] if n_p else np.zeros((0, 2))
+    pair_nodes = np.concatenate([end_node[pairs[:, 0]], end_node[pairs[:, 1]]], axis=1) \
+        if n_p else np.zeros((0, 4), dtype=np.int64)
+    pair_D = D[pair_nodes[:, :, None], pair_nodes[:, None, :]] if n_p else np.zeros((0, 4, 4))
+    pair_M = np.zeros((n_p, 4, 4))
+    support_lists: list[tuple[int, ...]] = []
+    for ip in range(n_p):
+        nl = pair_nodes[ip]
+        path: list[int] = []
+        todo = [int(n) for n in nl if n < n_n]
+        seen_nodes: set[int] = set()
+        while todo:
+            nd = todo.pop()
+            if nd in seen_nodes:
+                continue
+            seen_nodes.add(nd)
+            mm = int(node_member_a[nd])
+            if mm not in path:
+                path.append(mm)
+            todo.extend(int(x) for x in end_node[mm] if x < n_n)
+        kl, kr = int(pairs[ip, 0]), int(pairs[ip, 1])
+        for kk in (kl, kr):
+            if kk in path:
+                raise ModelError(
+                    f"level {level.id}.members[{members[kk].id}]", members[kk].id,
+                    "a deck-supporting member that does not also carry, in the same "
+                    "deck panel, the load of the members it supports")
+        path.sort()
+        support_lists.append(tuple(path))
+        Mloc = np.zeros((4, 4))
+        for mm in path:
+            xq, wq = quad[mm]
+            on = nodes_on[mm]
+            c = COND_NAMES[cond[mm]]
+            Phi = np.zeros((xq.size, 4))
+            if on.size:
+                g = beam.green(c, L[mm], EI[mm], xq[:, None], node_pos_a[on][None, :])
+                Phi += g @ T[np.ix_(on, nl)]
+            R0, RL = beam.unit_reactions(c, L[mm], xq)
+            Phi += R0[:, None] * D[end_node[mm, 0], nl][None, :]
+            Phi += RL[:, None] * D[end_node[mm, 1], nl][None, :]
+            Mloc += mu[mm] * (Phi * wq[:, None]).T @ Phi
+        pair_M[ip] = 0.5 * (Mloc + Mloc.T)
+
+    # ---- support-member unit actions per pair: stations, moments, reactions
+    def stations(k: int) -> np.ndarray:
+        pts = np.unique(np.concatenate(([0.0, L[k]], node_pos_a[nodes_on[k]])))
+        mids = 0.5 * (pts[:-1] + pts[1:])
+        return np.unique(np.concatenate([pts, mids]))
+
+    st = [stations(k) for k in range(n_m)]
+    n_sup = max((len(p) for p in support_lists), default=0)
+    n_st = max((len(st[k]) for p in support_lists for k in p), default=1)
+    sup_member = -np.ones((n_p, n_sup), dtype=np.int64)
+    sup_x = np.zeros((n_p, n_sup, n_st))
+    sup_m = np.zeros((n_p, n_sup, n_st, 4))
+    sup_r = np.zeros((n_p, n_sup, 2, 4))
+    for ip, path in enumerate(support_lists):
+        nl = pair_nodes[ip]
+        for jp, mm in enumerate(path):
+            on = nodes_on[mm]
+            c = COND_NAMES[cond[mm]]
+            xs = st[mm]
+            xs_pad = np.concatenate([xs, np.full(n_st - xs.size, xs[-1])])
+            sup_member[ip, jp] = mm
+            sup_x[ip, jp] = xs_pad
+            Tq = T[np.ix_(on, nl)]  # node loads on mm per local reaction
+            um = beam.unit_moment(c, L[mm], xs_pad[:, None], node_pos_a[on][None, :])
+            sup_m[ip, jp] = um @ Tq
+            R0, RL = beam.unit_reactions(c, L[mm], node_pos_a[on])
+            sup_r[ip, jp, 0] = R0 @ Tq
+            sup_r[ip, jp, 1] = RL @ Tq
+
+    return Frame(
+        level=level, cond=cond, L=L, EI=EI, mu=mu, vs=vs, vdir=vdir, cross=cross,
+        end_node=end_node, node_member=node_member_a, node_pos=node_pos_a,
+        node_xy=np.array(node_xy, dtype=float).reshape(-1, 2), nodes_on=nodes_on,
+        T=T, D=D, deck_axis=deck_axis, u_breaks=u_breaks, v_breaks=v_breaks,
+        cell_pair=cell_pair, pair_members=pairs, pair_c=pair_c, pair_nodes=pair_nodes,
+        pair_D=pair_D, pair_M=pair_M, pair_support=tuple(support_lists), N_R=N_R,
+        pair_sup_member=sup_member, pair_sup_x=sup_x, pair_sup_mcoef=sup_m,
+        pair_sup_rcoef=sup_r,
+    )
+
+
+# --------------------------------------------------------------------------- per point
+@dataclass(frozen=True, eq=False)
+class PathResult:
+    """Load path of a unit load at each drop point (arrays over points, SI).
+
+    ``pair`` panel index (−1: no deck panel: not assessed); ``members`` (n, 2)
+    the deck-supporting members, ``share`` (n, 2) their lever-rule shares w_k,
+    ``a`` (n, 2) positions along them (m), ``strip_span`` and ``strip_pos`` the
+    deck strip span and the distance of p from the first member (m), ``r`` (n, 4)
+    end reactions passed to the local nodes, ``u`` (n, 4) the node deflections
+    (m/N), ``f`` compliance (m/N), ``m_e`` effective mass (kg), ``g_own`` (n, 2)
+    own-bending deflection of each deck member under its share (m/N).
+    """
+
+    pair: np.ndarray
+    members: np.ndarray
+    share: np.ndarray
+    a: np.ndarray
+    strip_span: np.ndarray
+    strip_pos: np.ndarray
+    r: np.ndarray
+    u: np.ndarray
+    f: np.ndarray
+    m_e: np.ndarray
+    g_own: np.ndarray
+
+    @property
+    def supported(self) -> np.ndarray:
+        return self.pair >= 0
+
+
+def locate(frame: Frame, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+    """Panel index of each point (−1 outside every deck panel)."""
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    u, v = (y, x) if frame.deck_axis == "x" else (x, y)
+    ub, vb = frame.u_breaks, frame.v_breaks
+    if ub.size < 2 or vb.size < 2:
+        return -np.ones(x.shape, dtype=np.int64)
+    iu = np.searchsorted(ub, u, side="right") - 1
+    iv = np.searchsorted(vb, v, side="right") - 1
+    # points exactly on the last break belong to the last cell
+    iu = np.where(np.abs(u - ub[-1]) <= GEOMETRY_TOL, ub.size - 2, iu)
+    iv = np.where(np.abs(v - vb[-1]) <= GEOMETRY_TOL, vb.size - 2, iv)
+    inside = (iu >= 0) & (iu < ub.size - 1) & (iv >= 0) & (iv < vb.size - 1)
+    out = -np.ones(x.shape, dtype=np.int64)
+    out[inside] = frame.cell_pair[iu[inside], iv[inside]]
+    return out
+
+
+def evaluate(frame: Frame, x: Iterable[float] | np.ndarray,
+             y: Iterable[float] | np.ndarray, *, with_mass: bool = True) -> PathResult:
+    """Load path, compliance f(p) (m/N) and effective mass m_e(p) (kg) at each point.
+
+    Formulas in the module docstring. Points outside every deck panel get
+    ``pair = −1`` and nan for f and m_e.
+    """
+    x = np.atleast_1d(np.asarray(x, float))
+    y = np.atleast_1d(np.asarray(y, float))
+    n = x.size
+    pair = locate(frame, x, y)
+    out = {
+        "members": -np.ones((n, 2), dtype=np.int64), "share": np.zeros((n, 2)),
+        "a": np.zeros((n, 2)), "strip_span": np.full(n, np.nan),
+        "strip_pos": np.full(n, np.nan), "r": np.zeros((n, 4)), "u": np.zeros((n, 4)),
+        "f": np.full(n, np.nan), "m_e": np.full(n, np.nan), "g_own": np.zeros((n, 2)),
+    }
+    idx = np.flatnonzero(pair >= 0)
+    for s in range(0, idx.size, CHUNK):
+        sel = idx[s:s + CHUNK]
+        res = _evaluate_supported(frame, x[sel], y[sel], pair[sel], with_mass)
+        for k, v in res.items():
+            out[k][sel] = v
+    return PathResult(pair=pair, **out)
+
+
+def _evaluate_supported(frame: Frame, x: np.ndarray, y: np.ndarray, pair: np.ndarray,
+                        with_mass: bool) -> dict[str, np.ndarray]:
+    u, v = (y, x) if frame.deck_axis == "x" else (x, y)
+    mem = frame.pair_members[pair]  # (n, 2)
+    c = frame.pair_c[pair]
+    span = c[:, 1] - c[:, 0]
+    pos = np.clip(u - c[:, 0], 0.0, span)
+    t = np.where(span > 0, pos / np.where(span > 0, span, 1.0), 0.0)
+    share = np.stack([1.0 - t, t], axis=1)
+    Lm = frame.L[mem]
+    a = np.clip((v[:, None] - frame.vs[mem]) * frame.vdir[mem], 0.0, Lm)
+    cond = frame.cond[mem]
+    EI = frame.EI[mem]
+    g_aa = by_condition(beam.green, cond, Lm, EI, a, a)
+    R0, RL = by_condition(beam.unit_reactions, cond, Lm, a)
+    r = np.empty((x.size, 4))
+    r[:, 0] = share[:, 0] * R0[:, 0]
+    r[:, 1] = share[:, 0] * RL[:, 0]
+    r[:, 2] = share[:, 1] * R0[:, 1]
+    r[:, 3] = share[:, 1] * RL[:, 1]
+    Dl = frame.pair_D[pair]  # (n, 4, 4)
+    un = np.einsum("nij,nj->ni", Dl, r)
+    f = np.sum(share**2 * g_aa, axis=1) + np.einsum("ni,ni->n", r, un)
+    res = {"members": mem, "share": share, "a": a, "strip_span": span, "strip_pos": pos,
+           "r": r, "u": un, "f": f, "g_own": share * g_aa}
+    if not with_mass:
+        return res
+    # Rayleigh mass: loaded members by the exact polynomial integrals, support
+    # members by the precomputed quadratic form pair_M
+    xi = np.where(Lm > 0, a / Lm, 0.0)
+    I_gg = by_condition(_poly_gg, cond, xi) * Lm**7 / EI**2
+    J0, J1 = by_condition(_poly_gr, cond, xi)
+    J0 = J0 * Lm**4 / EI
+    J1 = J1 * Lm**4 / EI
+    mu = frame.mu[mem]
+    ue = un.reshape(-1, 2, 2)  # node deflections at the ends of each deck member
+    NR = frame.N_R[mem]  # (n, 2, 2, 2) -> already times mu
+    kin = mu * (share**2 * I_gg + 2.0 * share * (ue[..., 0] * J0 + ue[..., 1] * J1))
+    kin = kin.sum(axis=1) + np.einsum("nke,nkef,nkf->n", ue, NR, ue)
+    kin += np.einsum("ni,nij,nj->n", r, frame.pair_M[pair], r)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        m_e = np.where(f > 0.0, kin / np.where(f > 0.0, f, 1.0) ** 2, 0.0)
+    res["m_e"] = m_e
+    return res
+
+
+def deflected_shape(frame: Frame, path: PathResult, i: int, member: int,
+                    x: np.ndarray) -> np.ndarray:
+    """Deflection w_m(x) (m per N at p) of ``member`` for the unit load at point ``i``
+    of ``path`` (own bending plus support movement, see the module docstring).
+    Used by the trace and the tests; not vectorised over points."""
+    x = np.asarray(x, float)
+    c = COND_NAMES[frame.cond[member]]
+    Lm, EI = frame.L[member], frame.EI[member]
+    ip = int(path.pair[i])
+    nl = frame.pair_nodes[ip]
+    r = path.r[i]
+    q = frame.T[:, nl] @ r  # total node loads
+    uall = frame.D[:, nl] @ r  # node deflections
+    w = np.zeros_like(x)
+    for k in range(2):
+        if frame.pair_members[ip, k] == member:
+            w += path.share[i, k] * beam.green(c, Lm, EI, x, path.a[i, k])
+    on = frame.nodes_on[member]
+    if on.size:
+        w += beam.green(c, Lm, EI, x[:, None], frame.node_pos[on][None, :]) @ q[on]
+    R0, RL = beam.unit_reactions(c, Lm, x)
+    w += R0 * uall[frame.end_node[member, 0]] + RL * uall[frame.end_node[member, 1]]
+    return w
+
+
+def path_members(frame: Frame, pair: int) -> tuple[int, ...]:
+    """Every member that carries part of a load dropped in panel ``pair``."""
+    return tuple(sorted({int(k) for k in frame.pair_members[pair]}
+                        | set(frame.pair_support[pair])))
+
+
+def tributary_widths(frame: Frame) -> np.ndarray:
+    """Deck width carried by each member (m): half the strip span on each side for
+    the deck-supporting members, 0 for the others (one-way deck, lever rule)."""
+    trib = np.zeros(frame.n_members)
+    if frame.n_pairs == 0:
+        return trib
+    # each cell contributes its width × length / member length, shared half and half
+    ub, vb = frame.u_breaks, frame.v_breaks
+    for iu in range(frame.cell_pair.shape[0]):
+        for iv in range(frame.cell_pair.shape[1]):
+            ip = frame.cell_pair[iu, iv]
+            if ip < 0:
+                continue
+            du = ub[iu + 1] - ub[iu]
+            dv = vb[iv + 1] - vb[iv]
+            for k in frame.pair_members[ip]:
+                trib[k] += 0.5 * du * dv / frame.L[k]
+    return trib
+
+
+__all__ = [
+    "CHUNK",
+    "COND_NAMES",
+    "Frame",
+    "PathResult",
+    "build_frame",
+    "by_condition",
+    "deflected_shape",
+    "evaluate",
+    "locate",
+    "path_members",
+    "tributary_widths",
+]
