@@ -613,7 +613,7 @@ class _Builder:
                         f"{self.v(dk.cover, 'length')} cover; {len(dk.openings)} opening(s). "
                         f"Superimposed dead {self.v(lv.superimposed_dead, 'pressure')}, live "
                         f"left in place {self.v(lv.live_in_place, 'pressure')}.", st.small))
-            hdr = ["Member", "Role", "Section", "Grade", "Span", "Ends", "fy",
+            hdr = ["Member", "Role", "Section", "Grade", "Span", "Ends", "fy", "Class",
                    "Flexure resistance", "Shear resistance", "EI"]
             trs = [[self.P(h, st.head) for h in hdr]]
             for lv, m in chunk:
@@ -626,13 +626,17 @@ class _Builder:
                     self.P(self.v(m.span, "length")),
                     self.P(esc(m.end_condition)),
                     self.P(self.v(res.fy, "stress")),
-                    self.P(self.v(res.flexure, "moment")),
-                    self.P(self.v(res.shear, "force")),
+                    self.P(esc(_CLASS_TAG.get(res.section_class, res.section_class))),
+                    self.P(self.v(res.flexure, "moment") if res.flexure is not None
+                           else "out of scope"),
+                    self.P(self.v(res.shear, "force") if res.shear is not None
+                           else "out of scope"),
                     self.P(_ei(res.EI, self.sys)),
                 ])
             w = self.w
-            flow.append(_table(trs, [0.15 * w, 0.07 * w, 0.12 * w, 0.08 * w, 0.09 * w,
-                                     0.08 * w, 0.08 * w, 0.11 * w, 0.11 * w, 0.11 * w]))
+            flow.append(_table(trs, [0.14 * w, 0.07 * w, 0.11 * w, 0.07 * w, 0.09 * w,
+                                     0.08 * w, 0.08 * w, 0.06 * w, 0.1 * w, 0.1 * w,
+                                     0.1 * w]))
             self.add(head, flow)
 
     # -- calculation sheets
@@ -837,48 +841,61 @@ class _Builder:
 
 @dataclass(frozen=True)
 class Resistances:
-    """Member properties and resistances shown in the member table (SI)."""
+    """Member properties and resistances shown in the member table (SI; ``None``
+    where the solver rules the section out of scope)."""
 
     fy: float
-    flexure: float
-    shear: float
+    section_class: str
+    flexure: float | None
+    shear: float | None
     EI: float
 
 
 def member_resistances(m: Member, project: Project) -> Resistances:
-    """Design yield strength, flexural and shear resistance used for a member.
+    """The resistances the solver uses for ``m`` (:mod:`droprig.solver.capacity`):
+    flexure (AISC 360-16 F2/F3; EN 1993-1-1 Eq. 6.13/6.14) and shear (AISC 360-16
+    G2.1; EN 1993-1-1 Eq. 6.18 with EN 1993-1-5 §5), with the project's resistance
+    factor and dynamic increase factor on yield; fy is the static yield strength
+    of the governing (thicker) element, Pa."""
+    from droprig.solver import capacity
 
-    fy,d = φ·DIF·fy (the project's resistance and dynamic increase factors);
-    flexure Mp = fy,d·Zx (AISC 360-16 Eq. F2-1; EN 1993-1-1 Eq. 6.13 with
-    Wpl = Zx); shear AISC 360-16 Eq. G2-1 Vn = 0.6·fy,d·d·tw (Cv1 = 1) or
-    EN 1993-1-1 Eq. 6.18 Vpl = Av·fy,d/√3 with Av = A − 2·bf·tf + (tw + 2r)·tf,
-    not less than hw·tw (η = 1).
-    """
     s = project.settings
-    sec = m.section
-    fy = m.grade.section_fy(sec) * s.resistance_factor * s.dynamic_increase_factor
-    flex = fy * sec.Zx
-    if s.design_basis == "aisc360":
-        shear = 0.6 * fy * sec.d * sec.tw
-    else:
-        av = max(sec.A - 2 * sec.bf * sec.tf + (sec.tw + 2 * sec.r) * sec.tf, sec.h_web * sec.tw)
-        shear = av * fy / math.sqrt(3.0)
-    return Resistances(fy, flex, shear, m.grade.E * sec.Ix)
+    sec, grade, basis = m.section, m.grade, s.design_basis
+    kw = {"phi": s.resistance_factor, "dif": s.dynamic_increase_factor}
+    try:
+        cls = capacity.section_class(sec, grade, basis)
+    except ValueError:
+        cls = "?"
+    try:
+        flex: float | None = capacity.flexural_resistance(sec, grade, basis, **kw)
+    except ValueError:
+        flex = None
+    try:
+        shear: float | None = capacity.shear_resistance(sec, grade, basis, **kw)
+    except ValueError:
+        shear = None
+    return Resistances(grade.section_fy(sec), cls, flex, shear, grade.E * sec.Ix)
 
 
 def _resistance_note(project: Project) -> str:
     s = project.settings
     if s.design_basis == "aisc360":
-        src = ("flexure Mp = fy·Zx (AISC 360-16 Eq. F2-1); shear Vn = 0.6·fy·d·tw "
-               "(AISC 360-16 Eq. G2-1, Cv1 = 1)")
+        src = ("flexure Mn (AISC 360-16 F2.1 Eq. F2-1, noncompact flanges F3.2); shear "
+               "Vn = 0.6·Fy·Aw·Cv1 (AISC 360-16 Eq. G2-1); class: compact (C), "
+               "noncompact (N), slender (S) flange per Table B4.1b")
     else:
-        src = ("flexure Mpl = fy·Wpl (EN 1993-1-1 Eq. 6.13); shear Vpl = Av·fy/√3 "
-               "(EN 1993-1-1 Eq. 6.18)")
-    return (f"Resistances used, with fy multiplied by the resistance factor "
+        src = ("flexure Mc,Rd = Wpl·fy (Class 1, 2; EN 1993-1-1 Eq. 6.13) or Wel·fy "
+               "(Class 3, Eq. 6.14); shear Vpl,Rd = Av·fy/√3 (EN 1993-1-1 Eq. 6.18, "
+               "shear buckling EN 1993-1-5 §5); class per EN 1993-1-1 Table 5.2")
+    return (f"Resistances used by the solver, with the resistance factor "
             f"{s.resistance_factor:.2f} and the dynamic increase factor "
-            f"{s.dynamic_increase_factor:.2f}: {src}. Web yielding, web crippling / patch "
-            "loading and deck checks depend on the drop point and are shown on the "
+            f"{s.dynamic_increase_factor:.2f} on yield: {src}. 'out of scope': the section "
+            "is outside what droprig assesses. Web yielding, web crippling / patch "
+            "loading and the deck checks depend on the drop point and are shown on the "
             "calculation sheets.")
+
+
+_CLASS_TAG = {"compact": "C", "noncompact": "N", "slender": "S"}
 
 
 def _ei(value: float, system: str) -> str:

@@ -1,0 +1,85 @@
+"""``droprig report FILE -o annex.pdf [--lift ID]``: the lift-permit annex.
+
+Loads the project, analyses every drop point, writes the PDF atomically
+(temporary file in the output folder, then ``os.replace``: a failed run never
+leaves a half-written annex), and prints the output path, the page count and the
+overall verdict with the standard caution. Bad input (unreadable or invalid
+project, unknown lift zone, missing output folder, output that would overwrite
+the project) prints one clear message and exits 2.
+"""
+
+from __future__ import annotations
+
+import argparse
+import os
+import sys
+
+from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
+
+
+def _fail(message: str) -> int:
+    print(f"droprig report: {message}", file=sys.stderr)
+    return EXIT_BAD_INPUT
+
+
+def run(args: argparse.Namespace) -> int:
+    from droprig.commands import describe_error
+    from droprig.io.project_file import ProjectFileError, load_project
+    from droprig.model import ModelError
+    from droprig.report import content
+    from droprig.units import UnitError
+
+    path = args.file
+    out = args.output
+    lift = getattr(args, "lift", None)
+    if not out or not str(out).strip():
+        return _fail("-o/--output: give the path of the PDF to write, e.g. annex.pdf")
+    folder = os.path.dirname(os.path.abspath(out))
+    if not os.path.isdir(folder):
+        return _fail(f"-o/--output: folder {folder} does not exist")
+    if os.path.isdir(out):
+        return _fail(f"-o/--output: {out} is a folder; give a file name such as annex.pdf")
+    try:
+        if os.path.exists(path) and os.path.exists(out) and os.path.samefile(path, out):
+            return _fail(f"-o/--output: {out} is the project file itself; choose another name")
+    except OSError:
+        pass
+    try:
+        project = load_project(path)
+    except ProjectFileError as exc:
+        problems = getattr(exc, "problems", None) or [str(exc)]
+        lines = "\n  ".join(str(p) for p in problems)
+        return _fail(f"{path}: cannot read the project:\n  {lines}")
+    except (OSError, ValueError) as exc:
+        return _fail(f"{path}: {describe_error(exc)}")
+    try:
+        zones = content.select_zones(project, lift)
+    except ModelError as exc:
+        return _fail(str(exc))
+    if not zones:
+        return _fail(f"{path}: the project has no lift zone to report on")
+
+    from droprig.report.annex import write_annex
+    from droprig.solver.analysis import analyse
+
+    try:
+        results = analyse(project)
+    except (ModelError, UnitError) as exc:
+        return _fail(f"{path}: {exc}")
+    try:
+        pages = write_annex(project, results, out, project_path=path, lift=lift)
+    except (ModelError, UnitError) as exc:
+        return _fail(str(exc))
+    except OSError as exc:
+        return _fail(f"cannot write {out}: {describe_error(exc)}")
+    verdicts = content.zone_verdicts(project, results, zones)
+    overall = content.overall_response(verdicts)
+    style = content.OUTCOMES.get(overall, content.OUTCOMES[content.NOT_ASSESSED])
+    print(f"{os.path.abspath(out)} ({pages} pages)")
+    print(f"overall verdict: {style.label.upper()}" + (
+        f" ({overall})" if overall != content.NOT_ASSESSED else ""))
+    for zv in verdicts:
+        zs = content.OUTCOMES.get(zv.response, content.OUTCOMES[content.NOT_ASSESSED])
+        print(f"  lift zone {zv.zone.id}: {zs.label.lower()}")
+    print(CAUTION)
+    return EXIT_OK
