@@ -1,0 +1,205 @@
+"""``droprig check``: one member struck by one dropped load.
+
+Every value is read with :func:`droprig.units.parse` (a bare number takes the
+display unit of the unit system: m/ft for lengths, mm/in for ``--bearing`` and
+``--crush-stroke``), checked against its allowed range, and handed to
+:func:`droprig.solver.member.assess_member`. ``--json`` prints one JSON object in
+SI base units (``null`` where a value does not apply); otherwise a table in the
+grade family's units (or ``--units``) ending with the standard caution.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import math
+import sys
+from typing import Any
+
+from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
+from droprig.model import ModelError
+from droprig.units import UnitError, fmt, parse
+
+# Ranges match the project model (droprig.model.project) so a value accepted here
+# is also accepted in a project file.
+SPAN_RANGE = (0.5, 60.0)  # m, Member.span
+MASS_RANGE = (1.0, 500_000.0)  # kg, LiftLoad.mass
+DROP_RANGE = (0.0, 200.0)  # m, LiftLoad.drop_height
+STIFFNESS_RANGE = (1e3, 1e12)  # N/m, ProtectionArea.stiffness
+CRUSH_FORCE_RANGE = (1e2, 1e8)  # N, ProtectionArea.crush_force
+CRUSH_STROKE_RANGE = (1e-3, 3.0)  # m, ProtectionArea.crush_stroke
+UDL_RANGE = (0.0, 1e6)  # N/m
+
+# (key, label, quantity) of the printed table
+_ROWS: tuple[tuple[str, str, str], ...] = (
+    ("static_deflection", "static deflection δst (load at rest)", "small_length"),
+    ("effective_mass", "struck effective member mass", "mass"),
+    ("dynamic_factor", "dynamic factor K", "dimensionless"),
+    ("peak_force", "peak impact force", "force"),
+    ("deceleration_g", "peak deceleration of the load (g)", "dimensionless"),
+    ("max_moment", "max bending moment (with existing load)", "moment"),
+    ("max_shear", "max shear (with existing load)", "force"),
+    ("max_deflection", "max member deflection", "small_length"),
+    ("utilisation", "utilisation (elastic)", "dimensionless"),
+    ("plastic_deflection", "plastic deflection δm", "small_length"),
+    ("ductility", "ductility μ", "dimensionless"),
+    ("support_rotation", "support rotation θ", "angle"),
+    ("allowable_drop_height", "allowable drop height, elastic", "length"),
+    ("allowable_drop_height_plastic", "allowable drop height, plastic", "length"),
+)
+
+
+class _BadInputError(Exception):
+    pass
+
+
+def _range(field: str, value: float, lo: float, hi: float, quantity: str, system: str, *,
+           lo_open: bool = False) -> float:
+    bad = value < lo or value > hi or (lo_open and value <= lo)
+    if bad:
+        rel = ">" if lo_open else "from"
+        allowed = (f"{rel} {fmt(lo, quantity, system)} to {fmt(hi, quantity, system)}")
+        raise _BadInputError(f"{field}: {fmt(value, quantity, system)} is not allowed; "
+                        f"allowed: {allowed}")
+    return value
+
+
+def _parse(args: argparse.Namespace, name: str, quantity: str, system: str) -> float | None:
+    text = getattr(args, name.replace("-", "_"))
+    if text is None:
+        return None
+    return parse(text, quantity, system, field=f"--{name}")  # type: ignore[arg-type]
+
+
+def run(args: argparse.Namespace) -> int:
+    """Body of ``droprig check``; 0 on success, 2 on bad input (message on stderr)."""
+    try:
+        return _run(args)
+    except (_BadInputError, UnitError) as exc:
+        print(f"droprig check: {exc}", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    except ModelError as exc:
+        print(f"droprig check: --{exc}", file=sys.stderr)
+        return EXIT_BAD_INPUT
+
+
+def _run(args: argparse.Namespace) -> int:
+    from droprig.io.sections import GradeNotFound, SectionNotFound, get_grade, get_section
+    from droprig.solver import beam
+    from droprig.solver.member import RESULT_KEYS, assess_member
+
+    try:
+        section = get_section(args.section)
+    except SectionNotFound as exc:
+        raise _BadInputError(f"--section: {exc}") from exc
+    try:
+        grade = get_grade(args.grade)
+    except GradeNotFound as exc:
+        raise _BadInputError(f"--grade: {exc}") from exc
+    basis = args.code or ("aisc360" if grade.family == "ASTM" else "en1993")
+    system = args.units or ("US" if grade.family == "ASTM" else "SI")
+
+    span = _parse(args, "span", "length", system)
+    at = _parse(args, "at", "length", system)
+    mass = _parse(args, "mass", "mass", system)
+    drop = _parse(args, "drop", "length", system)
+    assert span is not None and at is not None and mass is not None and drop is not None
+    bearing = _parse(args, "bearing", "small_length", system)
+    k_c = _parse(args, "cushion-stiffness", "stiffness", system)
+    F_c = _parse(args, "crush-force", "force", system)
+    s_c = _parse(args, "crush-stroke", "small_length", system)
+    udl = _parse(args, "udl", "line_load", system)
+
+    _range("--span", span, *SPAN_RANGE, "length", system)
+    _range("--at", at, 0.0, span, "length", system)
+    _range("--mass", mass, *MASS_RANGE, "mass", system)
+    _range("--drop", drop, *DROP_RANGE, "length", system)
+    if bearing is not None:
+        _range("--bearing", bearing, 0.0, span, "small_length", system)
+    if k_c is not None:
+        _range("--cushion-stiffness", k_c, *STIFFNESS_RANGE, "stiffness", system)
+    if (F_c is None) != (s_c is None):
+        missing = "--crush-stroke" if s_c is None else "--crush-force"
+        raise _BadInputError(f"{missing}: missing; a crushable layer needs both --crush-force "
+                        "and --crush-stroke")
+    if F_c is not None and s_c is not None:
+        _range("--crush-force", F_c, *CRUSH_FORCE_RANGE, "force", system)
+        _range("--crush-stroke", s_c, *CRUSH_STROKE_RANGE, "small_length", system)
+    if udl is not None:
+        _range("--udl", udl, *UDL_RANGE, "line_load", system)
+    if float(beam.green(args.support, span, 1.0, at, at)) <= 0.0 and k_c is None \
+            and F_c is None:
+        raise _BadInputError(f"--at: {fmt(at, 'length', system)} is on a support of a "
+                        f"{args.support} member; supports are taken as rigid, so the "
+                        "impact force has no finite value there. Give --cushion-stiffness "
+                        "or --crush-force/--crush-stroke, or move the point")
+
+    try:
+        result = assess_member(
+            section, grade, args.support, span, at, mass, drop,
+            basis=basis,
+            bearing=bearing or 0.0,
+            cushion_stiffness=k_c,
+            crush_force=F_c,
+            crush_stroke=s_c,
+            udl=udl or 0.0,
+            self_weight=not args.no_self_weight,
+            beam_mass=not args.no_beam_mass,
+        )
+    except ValueError as exc:  # ModelError is handled by run(); out-of-scope sections here
+        if isinstance(exc, ModelError):
+            raise
+        raise _BadInputError(f"--section: {exc}") from exc
+
+    if args.json:
+        print(json.dumps({k: result[k] for k in RESULT_KEYS}, indent=2))
+        return EXIT_OK
+    print(_table(args, section.name, grade.name, basis, system, span, at, mass, drop,
+                 bearing or 0.0, k_c, F_c, s_c, udl or 0.0, result))
+    return EXIT_OK
+
+
+def _table(args: argparse.Namespace, section: str, grade: str, basis: str, system: str,
+           span: float, at: float, mass: float, drop: float, bearing: float,
+           k_c: float | None, F_c: float | None, s_c: float | None, udl: float,
+           r: dict[str, Any]) -> str:
+    code = {"aisc360": "AISC 360-16", "en1993": "EN 1993-1-1 / EN 1993-1-5"}[basis]
+    lines = [
+        f"droprig check — {section} {grade}, {args.support} span "
+        f"{fmt(span, 'length', system)}, struck at {fmt(at, 'length', system)} from the origin end",
+        f"load {fmt(mass, 'mass', system)} dropped {fmt(drop, 'length', system)}; "
+        f"bearing {fmt(bearing, 'small_length', system)}"
+        + (" (point contact, conservative)" if bearing == 0.0 else "")
+        + f"; design basis {code}, resistance factor 1.0 (accidental)",
+    ]
+    if k_c is not None:
+        lines.append(f"spring mat {fmt(k_c, 'stiffness', system)}")
+    if F_c is not None and s_c is not None:
+        lines.append(f"crushable layer {fmt(F_c, 'force', system)} over "
+                     f"{fmt(s_c, 'small_length', system)}")
+    existing = "self-weight" if not args.no_self_weight else "no self-weight"
+    if udl > 0.0:
+        existing += f" + {fmt(udl, 'line_load', system)}"
+    lines.append(f"existing load: {existing}; member mass "
+                 + ("ignored (η = 1)" if args.no_beam_mass else "included"))
+    lines.append("")
+    width = max(len(label) for _, label, _ in _ROWS)
+    for key, label, quantity in _ROWS:
+        value = r[key]
+        text = fmt(value, quantity, system) if value is not None else "none"
+        lines.append(f"  {label:<{width}}  {text}")
+    lines.append("")
+    limit = span / 240.0
+    defl = r["max_deflection"]
+    if defl is not None:
+        ratio = span / defl if defl > 0 else math.inf
+        lines.append(f"  deflection: span/{ratio:,.0f} against span/240 = "
+                     f"{fmt(limit, 'small_length', system)} — information only "
+                     "(a serviceability limit, not a criterion for an accidental impact)")
+    verdict = r["response"].upper()
+    lines.append(f"  RESPONSE: {verdict}  (governing: {r['governing_check'].replace('_', ' ')})")
+    lines.append("")
+    lines.append("Assumptions: member laterally restrained by the deck; rigid supports; "
+                 "static deflected shape for the struck mass (Rayleigh).")
+    lines.append(CAUTION)
+    return "\n".join(lines)
