@@ -1,0 +1,1140 @@
+"""Plan view of one level: framing, bays by outcome, lift zones and drop-point maps.
+
+Drawing language (our own, colours from :mod:`droprig.gui.style`):
+
+* column grid: thin dash-dot lines ending in round bubbles with the grid label
+  at both ends, dimension strings between adjacent lines (bottom and left);
+* columns small black squares, girders heavy lines, beams light lines, deck
+  openings white with an orthogonal cross-hatch, a heavy edge and both
+  diagonals;
+* bays filled by outcome **and** hatched **and** labelled in words with a
+  value (utilisation, or the allowable drop height in that overlay), so the
+  plan reads in greyscale and without colour vision;
+* overlay maps (utilisation / allowable drop height) as one raster image of
+  the drop points, worst value per cell, with its own ramp legend;
+* lift zone in teal: swing sector with dashed outer and inner arcs, the drift
+  margin as a fainter dotted band, corridor dash-dot; the crane as a ring with
+  four outrigger pads and a jib stroke towards the middle of the slew arc;
+* protection areas dashed violet rectangles with their name and kind;
+* north arrow (top left), legend (top right), scale bar (bottom left) and the
+  caution strip (bottom, whenever results are shown) fixed to the view.
+
+Scene coordinates are metres with y flipped (north up). All values shown are
+formatted with :func:`droprig.units.fmt` in the project's unit system.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+from dataclasses import dataclass
+
+import numpy as np
+from PySide6.QtCore import QEvent, QPoint, QPointF, QRectF, Qt, Signal
+from PySide6.QtGui import (
+    QBrush,
+    QColor,
+    QFontMetricsF,
+    QKeyEvent,
+    QLinearGradient,
+    QMouseEvent,
+    QPainter,
+    QPen,
+    QPixmap,
+    QPolygonF,
+    QResizeEvent,
+    QTransform,
+    QWheelEvent,
+)
+from PySide6.QtWidgets import (
+    QGraphicsPixmapItem,
+    QGraphicsRectItem,
+    QGraphicsScene,
+    QGraphicsSimpleTextItem,
+    QGraphicsView,
+    QWidget,
+)
+
+from droprig import units
+from droprig.cli import CAUTION
+from droprig.gui import style
+from droprig.gui.plan_items import (
+    DROP_RANGE,
+    HANDLE_KINDS,
+    UTIL_RANGE,
+    BayLabelsItem,
+    BaysItem,
+    BayState,
+    FramingItem,
+    HandleItem,
+    OpeningsItem,
+    ProtectionItem,
+    ZonesItem,
+    colour_values,
+    cosmetic_pen,
+    fmt_ratio,
+    from_scene,
+    handle_positions,
+    pixel_font,
+    raster_transform,
+    rasterise,
+    rect_to_scene,
+    to_scene,
+    zone_bounds,
+)
+from droprig.model import Level, LiftZone, ModelError, Project, Rect, bays
+from droprig.solver.results import RESPONSES, CaseResult, Results
+
+OVERLAY_MODES: tuple[str, ...] = ("outcome", "utilisation", "drop_height")
+EDIT_MODES: tuple[str, ...] = ("select", "draw_protection")
+
+MIN_BAND = 0.1
+"""Least radial width r_max − r_min a handle drag may leave, m."""
+MIN_SWEEP = math.radians(2.0)
+"""Least slew arc a handle drag may leave, rad."""
+ANGLE_SNAP = math.radians(1.0)
+"""Slew handles snap to whole degrees."""
+RADIUS_SNAP = {"SI": 0.05, "US": 0.1 * 0.3048}
+"""Radius handles snap to 50 mm (SI) or 0.1 ft (US), m."""
+R_LIMIT = 200.0
+"""Largest radius the model accepts, m (LiftZone validation)."""
+CLICK_SLOP_PX = 5
+"""A press and release closer than this are a click, not a drag."""
+PICK_PX = 14.0
+"""A click picks the nearest drop point within this many pixels (or 1.5 cells)."""
+MIN_ZOOM, MAX_ZOOM = 0.2, 4000.0
+"""Pixels per metre."""
+
+
+def _wrap(a: float) -> float:
+    """Angle wrapped into (−π, π]."""
+    return math.atan2(math.sin(a), math.cos(a))
+
+
+@dataclass
+class _Drag:
+    kind: str
+    origin: LiftZone
+    candidate: LiftZone
+    last_angle: float = 0.0
+    accum: float = 0.0
+
+
+def dragged_zone(zone: LiftZone, kind: str, x: float, y: float, *,
+                 accum_angle: float = 0.0, system: str = "SI") -> LiftZone:
+    """The zone after dragging handle ``kind`` to plan point (x, y), m.
+
+    Radius handles take the distance from the crane, snapped (RADIUS_SNAP) and
+    clamped so r_min ≥ 0, r_max ≤ 200 m and r_max − r_min ≥ MIN_BAND. Slew
+    handles take ``accum_angle``, the unwrapped angle (rad) the handle has
+    turned since the drag started (counter-clockwise positive): the start
+    handle shortens the arc as it turns counter-clockwise, the end handle
+    lengthens it; the sweep is kept within [MIN_SWEEP, 2π]. A result the model
+    refuses returns ``zone`` unchanged — never an exception.
+    """
+    cx, cy = zone.crane
+    try:
+        if kind in ("r_min", "r_max"):
+            snap = RADIUS_SNAP.get(system, 0.05)
+            r = round(math.hypot(x - cx, y - cy) / snap) * snap
+            if kind == "r_max":
+                r = min(max(r, zone.r_min + MIN_BAND, 0.5), R_LIMIT)
+                return dataclasses.replace(zone, r_max=r)
+            r = min(max(r, 0.0), zone.r_max - MIN_BAND)
+            return dataclasses.replace(zone, r_min=max(r, 0.0))
+        if kind in ("slew_start", "slew_end"):
+            sweep0 = zone.slew_sweep
+            d = round(accum_angle / ANGLE_SNAP) * ANGLE_SNAP
+            if kind == "slew_end":
+                sweep = min(max(sweep0 + d, MIN_SWEEP), 2 * math.pi)
+                start = zone.slew_start
+            else:
+                sweep = min(max(sweep0 - d, MIN_SWEEP), 2 * math.pi)
+                start = zone.slew_start + (sweep0 - sweep)
+            start = start % (2 * math.pi)
+            if sweep >= 2 * math.pi - 1e-9:
+                return dataclasses.replace(zone, slew_start=start, slew_end=start + 2 * math.pi)
+            return dataclasses.replace(zone, slew_start=start,
+                                       slew_end=(start + sweep) % (2 * math.pi))
+    except ModelError:
+        return zone
+    return zone
+
+
+def _nice_length(target: float) -> float:
+    """The largest 1, 2 or 5 × 10^k not above ``target`` (> 0)."""
+    k = math.floor(math.log10(target))
+    for m in (5.0, 2.0, 1.0):
+        if m * 10 ** k <= target:
+            return m * 10 ** k
+    return 10 ** k
+
+
+class PlanView(QGraphicsView):
+    """The plan of one level with its results (see the module docstring).
+
+    Signals: ``zone_changed(zone_id, LiftZone)`` once per released handle drag;
+    ``protection_drawn(Rect)`` after a rubber band in "draw_protection" mode;
+    ``bay_clicked(bay_id)``; ``point_clicked(zone_id, load_name, x, y)`` for the
+    nearest analysed drop point of the displayed case(s); ``hover_text(str)``.
+    """
+
+    zone_changed = Signal(str, object)
+    protection_drawn = Signal(object)
+    bay_clicked = Signal(str)
+    point_clicked = Signal(str, str, float, float)
+    hover_text = Signal(str)
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self._scene = QGraphicsScene(self)
+        self.setScene(self._scene)
+        self.setRenderHints(QPainter.RenderHint.Antialiasing
+                            | QPainter.RenderHint.TextAntialiasing)
+        self.setViewportUpdateMode(QGraphicsView.ViewportUpdateMode.FullViewportUpdate)
+        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorUnderMouse)
+        self.setResizeAnchor(QGraphicsView.ViewportAnchor.AnchorViewCenter)
+        self.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        self.setVerticalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        self.setBackgroundBrush(QColor(style.PLAN["background"]))
+        self.setMouseTracking(True)
+        self.viewport().setMouseTracking(True)
+        self.setFocusPolicy(Qt.FocusPolicy.StrongFocus)
+        self.setMinimumSize(320, 240)
+
+        self._project: Project | None = None
+        self._level: Level | None = None
+        self._results: Results | None = None
+        self._overlay = "outcome"
+        self._mode = "select"
+        self._case: tuple[str, str] | None = None
+        self._selected_bay: str | None = None
+        self._selected_zone: str | None = None
+        self._user_view = False
+        self._drag: _Drag | None = None
+        self._press: QPoint | None = None
+        self._pan_last: QPoint | None = None
+        self._space = False
+        self._band_origin: QPointF | None = None
+        self._last_hover = ""
+        self._raster_ok = False
+        self._cases: list[CaseResult] = []
+        self._px = np.zeros(0)
+        self._py = np.zeros(0)
+        self._pcase = np.zeros(0, dtype=np.int64)
+        self._pidx = np.zeros(0, dtype=np.int64)
+        self._pscore = np.zeros(0)
+
+        self._bays_item = BaysItem()
+        self._labels_item = BayLabelsItem(self._bays_item)
+        self._framing_item = FramingItem()
+        self._openings_item = OpeningsItem()
+        self._protection_item = ProtectionItem()
+        self._zones_item = ZonesItem()
+        self._overlay_item = QGraphicsPixmapItem()
+        self._overlay_item.setZValue(1)
+        self._overlay_item.setOpacity(0.9)
+        self._overlay_item.setTransformationMode(Qt.TransformationMode.FastTransformation)
+        self._overlay_item.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+        self._selection_item = QGraphicsRectItem()
+        self._selection_item.setPen(cosmetic_pen(style.PLAN["selection"],
+                                                 style.SELECTION_WIDTH_PX))
+        self._selection_item.setZValue(9)
+        self._selection_item.setVisible(False)
+        self._selection_item.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+        self._band_item = QGraphicsRectItem()
+        band_pen = cosmetic_pen(style.PLAN["protection_edge"], 1.5, Qt.PenStyle.DashLine)
+        self._band_item.setPen(band_pen)
+        fill = QColor(style.PLAN["protection_edge"])
+        fill.setAlpha(0x30)
+        self._band_item.setBrush(fill)
+        self._band_item.setZValue(11)
+        self._band_item.setVisible(False)
+        self._drag_label = QGraphicsSimpleTextItem()
+        self._drag_label.setFlag(
+            QGraphicsSimpleTextItem.GraphicsItemFlag.ItemIgnoresTransformations, True)
+        self._drag_label.setFont(pixel_font(12, True))
+        self._drag_label.setBrush(QColor(style.PLAN["selection"]))
+        self._drag_label.setZValue(12)
+        self._drag_label.setVisible(False)
+        self._handles = {k: HandleItem(k, self._on_handle_drag, self._on_handle_release)
+                         for k in HANDLE_KINDS}
+        for item in (self._bays_item, self._overlay_item, self._openings_item,
+                     self._framing_item, self._protection_item, self._zones_item,
+                     self._labels_item, self._selection_item, self._band_item,
+                     self._drag_label, *self._handles.values()):
+            self._scene.addItem(item)
+
+    # ------------------------------------------------------------- public API
+
+    @property
+    def project(self) -> Project | None:
+        return self._project
+
+    @property
+    def level(self) -> Level | None:
+        return self._level
+
+    @property
+    def overlay(self) -> str:
+        return self._overlay
+
+    @property
+    def mode(self) -> str:
+        return self._mode
+
+    @property
+    def unit_system(self) -> str:
+        return self._project.settings.unit_system if self._project else "SI"
+
+    def set_project(self, project: Project | None, level_id: str | None = None) -> None:
+        """Show ``level_id`` of ``project`` (first level if None or unknown).
+
+        The zoom is kept while the same level is re-shown after an edit and
+        fitted when the level changes.
+        """
+        old_level = self._level.id if self._level else None
+        self._project = project
+        level = None
+        if project is not None and project.levels:
+            try:
+                level = project.level(level_id) if level_id else project.levels[0]
+            except KeyError:
+                level = project.levels[0]
+        self._level = level
+        if self._drag is not None:
+            self._end_drag_visuals()
+        self._framing_item.set_level(level)
+        self._openings_item.set_openings(level.deck.openings if level else ())
+        lid = level.id if level else None
+        self._protection_item.set_areas(
+            [p for p in project.protection_areas if p.level_id == lid] if project else [])
+        self._zones_item.set_zones(
+            [z for z in project.lift_zones if z.level_id == lid] if project else [])
+        if self._selected_zone and not self._zone(self._selected_zone):
+            self._selected_zone = None
+        self._zones_item.set_selected(self._selected_zone)
+        self._update_scene_rect()
+        self._refresh_results()
+        self._place_handles()
+        if lid != old_level or not self._user_view:
+            self.fit()
+        self.viewport().update()
+
+    def set_results(self, results: Results | None) -> None:
+        """Colour the plan by ``results`` (None while analysing: "not assessed")."""
+        self._results = results
+        self._refresh_results()
+        self.viewport().update()
+
+    def set_overlay(self, mode: str) -> None:
+        """"outcome" (bays only), "utilisation" or "drop_height" (point map)."""
+        if mode not in OVERLAY_MODES:
+            raise ValueError(f"overlay mode {mode!r}; allowed: {', '.join(OVERLAY_MODES)}")
+        self._overlay = mode
+        self._refresh_overlay()
+        self.viewport().update()
+
+    def set_mode(self, mode: str) -> None:
+        """"select" (click, hover, handles) or "draw_protection" (rubber band)."""
+        if mode not in EDIT_MODES:
+            raise ValueError(f"edit mode {mode!r}; allowed: {', '.join(EDIT_MODES)}")
+        self._mode = mode
+        self._band_origin = None
+        self._band_item.setVisible(False)
+        self.viewport().setCursor(Qt.CursorShape.CrossCursor if mode == "draw_protection"
+                                  else Qt.CursorShape.ArrowCursor)
+
+    def set_case(self, zone_id: str | None, load_name: str | None = None) -> None:
+        """Colour the plan by one analysed case; ``None`` = worst per bay over all."""
+        self._case = (zone_id, load_name or "") if zone_id is not None else None
+        self._refresh_results()
+        self.viewport().update()
+
+    def select_bay(self, bay_id: str | None) -> None:
+        self._selected_bay = None
+        self._selection_item.setVisible(False)
+        if bay_id is None or self._level is None:
+            return
+        for b in bays(self._level):
+            if b.id == bay_id:
+                self._selected_bay = bay_id
+                self._selection_item.setRect(rect_to_scene(b.rect))
+                self._selection_item.setVisible(True)
+                return
+
+    @property
+    def selected_bay(self) -> str | None:
+        return self._selected_bay
+
+    def set_selected_zone(self, zone_id: str | None) -> None:
+        """Show the drag handles of ``zone_id`` (None hides them)."""
+        self._selected_zone = zone_id if zone_id and self._zone(zone_id) else None
+        self._zones_item.set_selected(self._selected_zone)
+        self._place_handles()
+
+    def handle(self, kind: str) -> HandleItem:
+        """The handle item ``r_min``, ``r_max``, ``slew_start`` or ``slew_end``."""
+        return self._handles[kind]
+
+    def fit(self) -> None:
+        """Zoom and centre so the grid, zones and protection fill the view."""
+        r = self._content_rect()
+        self._user_view = False
+        if r.isEmpty():
+            return
+        vw, vh = self.viewport().width(), self.viewport().height()
+        ml, mt = 72.0, 64.0
+        mr = 72.0 + (190.0 if vw > 760 else 0.0)
+        mb = 72.0 + self._caution_height()
+        s = min((vw - ml - mr) / max(r.width(), 1e-6), (vh - mt - mb) / max(r.height(), 1e-6))
+        s = min(max(s, MIN_ZOOM), MAX_ZOOM)
+        self.setTransform(QTransform.fromScale(s, s))
+        c = r.center()
+        self.centerOn(QPointF(c.x() + (mr - ml) / 2 / s, c.y() + (mb - mt) / 2 / s))
+        self._on_zoom()
+
+    def pixels_per_metre(self) -> float:
+        return float(self.transform().m11())
+
+    def view_pos(self, x: float, y: float) -> QPoint:
+        """Viewport pixel of plan point (x, y) in m (for tests and tools)."""
+        return self.mapFromScene(to_scene(x, y))
+
+    def bay_states(self) -> list[BayState]:
+        """What each bay currently shows (outcome, values)."""
+        return list(self._bays_item.states)
+
+    # ------------------------------------------------------------ internals
+
+    def _zone(self, zone_id: str) -> LiftZone | None:
+        for z in self._zones_item.shown_zones():
+            if z.id == zone_id:
+                return z
+        return None
+
+    def _content_rect(self) -> QRectF:
+        r = QRectF()
+        if self._level is not None:
+            r = rect_to_scene(self._level.grid.extent)
+        for z in self._zones_item.shown_zones():
+            r = r.united(zone_bounds(z))
+        for a in self._protection_item.areas:
+            r = r.united(rect_to_scene(a.area))
+        return r
+
+    def _update_scene_rect(self) -> None:
+        r = self._content_rect()
+        if r.isEmpty():
+            r = QRectF(-10, -10, 20, 20)
+        pad = max(r.width(), r.height()) * 4 + 50
+        self._scene.setSceneRect(r.adjusted(-pad, -pad, pad, pad))
+
+    def _on_zoom(self) -> None:
+        px = 1.0 / max(self.pixels_per_metre(), 1e-9)
+        for item in (self._bays_item, self._labels_item, self._framing_item,
+                     self._openings_item, self._protection_item, self._zones_item):
+            item.set_pixel_size(px)
+        self.viewport().update()
+
+    def _displayed_cases(self) -> list[CaseResult]:
+        if self._results is None or self._level is None:
+            return []
+        out = []
+        for c in self._results.cases:
+            if c.level_id != self._level.id:
+                continue
+            if self._case is not None and (c.zone_id, c.load_name) != self._case:
+                continue
+            out.append(c)
+        return out
+
+    def _refresh_results(self) -> None:
+        level = self._level
+        states: list[BayState] = []
+        if level is not None:
+            agg: dict[str, dict] = {}
+            if self._results is not None:
+                for s in self._results.bays:
+                    if s.level_id != level.id:
+                        continue
+                    if self._case is not None and (s.zone_id, s.load_name) != self._case:
+                        continue
+                    a = agg.setdefault(s.bay_id, {"keys": [], "u": [], "h": [], "hp": [],
+                                                  "n": 0})
+                    a["keys"].append(s.response)
+                    a["u"].append(s.max_utilisation)
+                    if s.allowable_drop_height is not None:
+                        a["h"].append(s.allowable_drop_height)
+                    if s.allowable_drop_height_plastic is not None:
+                        a["hp"].append(s.allowable_drop_height_plastic)
+                    a["n"] += s.n_points
+            for b in bays(level):
+                a = agg.get(b.id)
+                if a is None:
+                    states.append(BayState(b))
+                    continue
+                us = [u for u in a["u"] if u is not None and not math.isnan(u)]
+                states.append(BayState(
+                    b, style.worst(a["keys"]),
+                    max(us) if us else math.nan,
+                    min(a["h"]) if a["h"] else None,
+                    min(a["hp"]) if a["hp"] else None,
+                    a["n"]))
+        self._bays_item.set_states(states)
+        self._cases = self._displayed_cases()
+        self._build_point_index()
+        self._refresh_overlay()
+        self.select_bay(self._selected_bay)
+
+    def _build_point_index(self) -> None:
+        cs = self._cases
+        if not cs:
+            self._px = self._py = self._pscore = np.zeros(0)
+            self._pcase = self._pidx = np.zeros(0, dtype=np.int64)
+            return
+        self._px = np.concatenate([c.x for c in cs]).astype(float)
+        self._py = np.concatenate([c.y for c in cs]).astype(float)
+        self._pcase = np.concatenate([np.full(c.n, i, dtype=np.int64) for i, c in enumerate(cs)])
+        self._pidx = np.concatenate([np.arange(c.n, dtype=np.int64) for c in cs])
+        resp = np.concatenate([np.asarray(c.response, dtype=float) for c in cs])
+        u = np.concatenate([np.asarray(c.utilisation, dtype=float) for c in cs])
+        self._pscore = resp * 1e6 + np.clip(np.nan_to_num(u, nan=1e5, posinf=1e5), 0, 1e5)
+
+    def _refresh_overlay(self) -> None:
+        mode = self._overlay
+        self._bays_item.set_fill_alpha(255 if mode == "outcome" else 0)
+        if mode == "outcome":
+            self._labels_item.value_line = lambda s: f"U {fmt_ratio(s.max_utilisation)}"
+        elif mode == "utilisation":
+            self._labels_item.value_line = lambda s: f"U {fmt_ratio(s.max_utilisation)}"
+        else:
+            sysm = self.unit_system
+            self._labels_item.value_line = lambda s: "drop ≤ " + units.fmt(
+                s.allowable_drop_height, "length", sysm, decimals=2)
+        self._labels_item.update()
+        self._raster_ok = False
+        self._overlay_item.setVisible(False)
+        if mode == "outcome" or not self._cases or self._project is None:
+            return
+        field = "utilisation" if mode == "utilisation" else "allowable_drop_height"
+        values = np.concatenate([np.asarray(getattr(c, field), dtype=float)
+                                 for c in self._cases])
+        raster = rasterise(self._px, self._py, values, mode,
+                           self._project.settings.grid_resolution)
+        if raster is None:
+            return
+        self._overlay_item.setPixmap(QPixmap.fromImage(raster.image))
+        self._overlay_item.setTransform(raster_transform(raster))
+        self._overlay_item.setVisible(True)
+        self._raster_ok = True
+
+    @property
+    def overlay_visible(self) -> bool:
+        return self._overlay_item.isVisible()
+
+    def overlay_image(self) -> QPixmap:
+        return self._overlay_item.pixmap()
+
+    # --------------------------------------------------------------- handles
+
+    def _place_handles(self) -> None:
+        z = self._zone(self._selected_zone) if self._selected_zone else None
+        if self._drag is not None:
+            z = self._drag.candidate
+        for k, h in self._handles.items():
+            if z is None:
+                h.setVisible(False)
+                continue
+            h.setPos(to_scene(*handle_positions(z)[k]))
+            h.setVisible(True)
+
+    def _on_handle_drag(self, kind: str, x: float, y: float) -> None:
+        zone = self._zone(self._selected_zone) if self._selected_zone else None
+        if zone is None:
+            return
+        if self._drag is None or self._drag.kind != kind:
+            hx, hy = handle_positions(zone)[kind]
+            a0 = math.atan2(hy - zone.crane[1], hx - zone.crane[0])
+            self._drag = _Drag(kind, zone, zone, last_angle=a0)
+        d = self._drag
+        cx, cy = d.origin.crane
+        if kind.startswith("slew"):
+            a = math.atan2(y - cy, x - cx)
+            d.accum += _wrap(a - d.last_angle)
+            d.last_angle = a
+            cand = dragged_zone(d.origin, kind, x, y, accum_angle=d.accum,
+                                system=self.unit_system)
+            # keep the accumulated turn inside the clamped range so reversing
+            # direction responds at once
+            if kind == "slew_end":
+                d.accum = max(min(d.accum, 2 * math.pi - d.origin.slew_sweep),
+                              MIN_SWEEP - d.origin.slew_sweep)
+            else:
+                d.accum = max(min(d.accum, d.origin.slew_sweep - MIN_SWEEP),
+                              d.origin.slew_sweep - 2 * math.pi)
+        else:
+            cand = dragged_zone(d.origin, kind, x, y, system=self.unit_system)
+        d.candidate = cand
+        self._zones_item.set_preview(cand)
+        self._place_handles()
+        text = self._drag_text(kind, cand)
+        self._drag_label.setText(text)
+        self._drag_label.setPos(self._handles[kind].pos())
+        self._drag_label.setVisible(True)
+        self.hover_text.emit(text)
+
+    def _drag_text(self, kind: str, z: LiftZone) -> str:
+        s = self.unit_system
+        if kind == "r_min":
+            return f"  inner radius {units.fmt(z.r_min, 'length', s, decimals=2)}"
+        if kind == "r_max":
+            return f"  outer radius {units.fmt(z.r_max, 'length', s, decimals=2)}"
+        a = z.slew_start if kind == "slew_start" else z.slew_start + z.slew_sweep
+        return (f"  slew {'start' if kind == 'slew_start' else 'end'} "
+                f"{math.degrees(a) % 360:.0f}° (arc {math.degrees(z.slew_sweep):.0f}°)")
+
+    def _end_drag_visuals(self) -> None:
+        self._drag = None
+        self._zones_item.set_preview(None)
+        self._drag_label.setVisible(False)
+        self._place_handles()
+
+    def _on_handle_release(self, kind: str) -> None:
+        d = self._drag
+        self._end_drag_visuals()
+        if d is None:
+            return
+        new = d.candidate
+        if new == d.origin:
+            return
+        self.zone_changed.emit(new.id, new)
+
+    # ----------------------------------------------------------- mouse & keys
+
+    def wheelEvent(self, event: QWheelEvent) -> None:
+        dy = event.angleDelta().y()
+        if dy == 0:
+            return
+        s = self.pixels_per_metre()
+        f = 1.0015 ** dy
+        f = min(max(s * f, MIN_ZOOM), MAX_ZOOM) / s
+        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorUnderMouse)
+        self.scale(f, f)
+        self._user_view = True
+        self._on_zoom()
+        event.accept()
+
+    def zoom_by(self, factor: float) -> None:
+        """Zoom about the view centre (menu and keyboard)."""
+        s = self.pixels_per_metre()
+        f = min(max(s * factor, MIN_ZOOM), MAX_ZOOM) / s
+        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorViewCenter)
+        self.scale(f, f)
+        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorUnderMouse)
+        self._user_view = True
+        self._on_zoom()
+
+    def keyPressEvent(self, event: QKeyEvent) -> None:
+        if event.key() == Qt.Key.Key_Space and not event.isAutoRepeat():
+            self._space = True
+            self.viewport().setCursor(Qt.CursorShape.OpenHandCursor)
+            event.accept()
+            return
+        if event.key() == Qt.Key.Key_Escape:
+            if self._band_origin is not None:
+                self._band_origin = None
+                self._band_item.setVisible(False)
+            elif self._drag is not None:
+                self._end_drag_visuals()
+            event.accept()
+            return
+        super().keyPressEvent(event)
+
+    def keyReleaseEvent(self, event: QKeyEvent) -> None:
+        if event.key() == Qt.Key.Key_Space and not event.isAutoRepeat():
+            self._space = False
+            self.set_mode(self._mode)
+            event.accept()
+            return
+        super().keyReleaseEvent(event)
+
+    def focusOutEvent(self, event: QEvent) -> None:  # type: ignore[override]
+        self._space = False
+        super().focusOutEvent(event)
+
+    def mousePressEvent(self, event: QMouseEvent) -> None:
+        pos = event.position().toPoint()
+        if event.button() == Qt.MouseButton.MiddleButton or (
+                event.button() == Qt.MouseButton.LeftButton and self._space):
+            self._pan_last = pos
+            self.viewport().setCursor(Qt.CursorShape.ClosedHandCursor)
+            event.accept()
+            return
+        if event.button() != Qt.MouseButton.LeftButton:
+            super().mousePressEvent(event)
+            return
+        if self._mode == "draw_protection":
+            self._band_origin = self.mapToScene(pos)
+            self._band_item.setRect(QRectF(self._band_origin, self._band_origin))
+            self._band_item.setVisible(True)
+            event.accept()
+            return
+        if isinstance(self.itemAt(pos), HandleItem):
+            super().mousePressEvent(event)
+            return
+        self._press = pos
+        event.accept()
+
+    def mouseMoveEvent(self, event: QMouseEvent) -> None:
+        pos = event.position().toPoint()
+        if self._pan_last is not None:
+            delta = pos - self._pan_last
+            self._pan_last = pos
+            self.horizontalScrollBar().setValue(self.horizontalScrollBar().value() - delta.x())
+            self.verticalScrollBar().setValue(self.verticalScrollBar().value() - delta.y())
+            self._user_view = True
+            event.accept()
+            return
+        if self._band_origin is not None:
+            self._band_item.setRect(QRectF(self._band_origin, self.mapToScene(pos)).normalized())
+            r = self._band_item.rect()
+            s = self.unit_system
+            self.hover_text.emit(f"protection {units.fmt(r.width(), 'length', s, decimals=2)}"
+                                 f" × {units.fmt(r.height(), 'length', s, decimals=2)}")
+            event.accept()
+            return
+        super().mouseMoveEvent(event)
+        if self._drag is None and not any(h.dragging for h in self._handles.values()):
+            self._emit_hover(self.mapToScene(pos))
+
+    def mouseReleaseEvent(self, event: QMouseEvent) -> None:
+        pos = event.position().toPoint()
+        if self._pan_last is not None and event.button() in (
+                Qt.MouseButton.MiddleButton, Qt.MouseButton.LeftButton):
+            self._pan_last = None
+            self.viewport().setCursor(Qt.CursorShape.OpenHandCursor if self._space
+                                      else Qt.CursorShape.ArrowCursor)
+            self.set_mode(self._mode) if not self._space else None
+            event.accept()
+            return
+        if self._band_origin is not None and event.button() == Qt.MouseButton.LeftButton:
+            self._finish_band(self._band_origin, self.mapToScene(pos))
+            event.accept()
+            return
+        if any(h.dragging for h in self._handles.values()):
+            super().mouseReleaseEvent(event)
+            return
+        press, self._press = self._press, None
+        if (press is not None and event.button() == Qt.MouseButton.LeftButton
+                and (pos - press).manhattanLength() <= CLICK_SLOP_PX):
+            self._click(self.mapToScene(pos))
+            event.accept()
+            return
+        super().mouseReleaseEvent(event)
+
+    def _finish_band(self, a: QPointF, b: QPointF) -> None:
+        self._band_origin = None
+        self._band_item.setVisible(False)
+        (x0, y0), (x1, y1) = from_scene(a), from_scene(b)
+        x0, x1 = sorted((x0, x1))
+        y0, y1 = sorted((y0, y1))
+        min_m = 4.0 / max(self.pixels_per_metre(), 1e-9)
+        if x1 - x0 < max(min_m, 0.05) or y1 - y0 < max(min_m, 0.05):
+            self.hover_text.emit("protection not drawn: drag out a rectangle")
+            return
+        try:
+            rect = Rect(round(x0, 3), round(y0, 3), round(x1, 3), round(y1, 3))
+        except ModelError as exc:
+            self.hover_text.emit(f"protection not drawn: {exc}")
+            return
+        self.protection_drawn.emit(rect)
+
+    def _bay_at(self, x: float, y: float) -> BayState | None:
+        for s in self._bays_item.states:
+            if s.bay.rect.contains(x, y):
+                return s
+        return None
+
+    def nearest_point(self, x: float, y: float) -> tuple[CaseResult, int] | None:
+        """The analysed drop point of the displayed case(s) nearest to (x, y), m,
+        within PICK_PX pixels or 1.5 grid cells; ties (the same point in several
+        cases) go to the worst outcome, then the highest utilisation."""
+        if self._px.size == 0:
+            return None
+        d2 = (self._px - x) ** 2 + (self._py - y) ** 2
+        dmin = float(d2.min())
+        cell = self._project.settings.grid_resolution if self._project else 0.5
+        tol = max(PICK_PX / max(self.pixels_per_metre(), 1e-9), 1.5 * cell)
+        if dmin > tol * tol:
+            return None
+        near = np.flatnonzero(d2 <= dmin + 1e-9)
+        k = int(near[np.argmax(self._pscore[near])])
+        return self._cases[int(self._pcase[k])], int(self._pidx[k])
+
+    def _click(self, scene_pos: QPointF) -> None:
+        x, y = from_scene(scene_pos)
+        s = self._bay_at(x, y)
+        if s is not None:
+            self.select_bay(s.bay.id)
+            self.bay_clicked.emit(s.bay.id)
+        hit = self.nearest_point(x, y)
+        if hit is not None:
+            case, i = hit
+            self.point_clicked.emit(case.zone_id, case.load_name, float(case.x[i]),
+                                    float(case.y[i]))
+
+    def describe(self, x: float, y: float) -> str:
+        """The hover text for plan point (x, y), m."""
+        sysm = self.unit_system
+        parts: list[str] = []
+        s = self._bay_at(x, y)
+        if s is not None:
+            st = style.outcome(s.key)
+            if s.key == style.OUTCOME_NONE:
+                parts.append(f"Bay {s.bay.id}: {st.label.lower()}")
+            else:
+                parts.append(
+                    f"Bay {s.bay.id}: {st.label.lower()}, max U {fmt_ratio(s.max_utilisation)}, "
+                    f"allowable drop {units.fmt(s.allowable_drop_height, 'length', sysm)}"
+                    f" (yielding {units.fmt(s.allowable_drop_height_plastic, 'length', sysm)})")
+        hit = self.nearest_point(x, y)
+        if hit is not None:
+            c, i = hit
+            r = int(c.response[i])
+            resp = style.outcome(RESPONSES[r] if 0 <= r < len(RESPONSES) else None).label
+            parts.append(
+                f"point ({units.fmt(float(c.x[i]), 'length', sysm, decimals=2)}, "
+                f"{units.fmt(float(c.y[i]), 'length', sysm, decimals=2)}) "
+                f"{c.load_name} in {c.zone_id}: {resp.lower()}, "
+                f"U {fmt_ratio(float(c.utilisation[i]))}, "
+                f"allowable drop {units.fmt(float(c.allowable_drop_height[i]), 'length', sysm)}")
+        else:
+            parts.append(f"x {units.fmt(x, 'length', sysm, decimals=2)}, "
+                         f"y {units.fmt(y, 'length', sysm, decimals=2)}")
+        return " · ".join(parts)
+
+    def _emit_hover(self, scene_pos: QPointF) -> None:
+        if self._level is None:
+            return
+        text = self.describe(*from_scene(scene_pos))
+        if text != self._last_hover:
+            self._last_hover = text
+            self.hover_text.emit(text)
+
+    def resizeEvent(self, event: QResizeEvent) -> None:
+        super().resizeEvent(event)
+        if not self._user_view:
+            self.fit()
+
+    # ------------------------------------------------------------- foreground
+
+    def drawForeground(self, painter: QPainter, rect: QRectF) -> None:
+        painter.save()
+        painter.resetTransform()
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
+        painter.setRenderHint(QPainter.RenderHint.TextAntialiasing, True)
+        if self._level is not None:
+            self._paint_grid(painter)
+        self._paint_north(painter)
+        self._paint_scale_bar(painter)
+        self._paint_legend(painter)
+        self._paint_caution(painter)
+        painter.restore()
+
+    def _vp(self, x: float, y: float) -> QPointF:
+        return self.viewportTransform().map(to_scene(x, y))
+
+    def _paint_grid(self, p: QPainter) -> None:
+        assert self._level is not None
+        g = self._level.grid
+        sysm = self.unit_system
+        x0, x1, y0, y1 = g.x_lines[0], g.x_lines[-1], g.y_lines[0], g.y_lines[-1]
+        bub_off, bub_r, dim_off = 46.0, 11.0, 24.0
+        line_pen = cosmetic_pen(style.PLAN["grid_line"], 1.0, Qt.PenStyle.DashDotLine)
+        bub_pen = cosmetic_pen(style.PLAN["grid_label"], 1.4)
+        font = pixel_font(11, True)
+        dim_font = pixel_font(10)
+        fm = QFontMetricsF(dim_font)
+
+        def bubble(c: QPointF, text: str) -> None:
+            p.setPen(bub_pen)
+            p.setBrush(QColor("#FFFFFF"))
+            p.drawEllipse(c, bub_r, bub_r)
+            p.setFont(font)
+            p.setPen(QColor(style.PLAN["grid_label"]))
+            p.drawText(QRectF(c.x() - bub_r, c.y() - bub_r, 2 * bub_r, 2 * bub_r),
+                       Qt.AlignmentFlag.AlignCenter, text)
+
+        for x, lab in zip(g.x_lines, g.x_labels, strict=True):
+            top, bot = self._vp(x, y1), self._vp(x, y0)
+            a, b = QPointF(top.x(), top.y() - bub_off + bub_r), QPointF(bot.x(),
+                                                                         bot.y() + bub_off - bub_r)
+            p.setPen(line_pen)
+            p.drawLine(a, b)
+            bubble(QPointF(top.x(), top.y() - bub_off), lab)
+            bubble(QPointF(bot.x(), bot.y() + bub_off), lab)
+        for y, lab in zip(g.y_lines, g.y_labels, strict=True):
+            lft, rgt = self._vp(x0, y), self._vp(x1, y)
+            p.setPen(line_pen)
+            p.drawLine(QPointF(lft.x() - bub_off + bub_r, lft.y()),
+                       QPointF(rgt.x() + bub_off - bub_r, rgt.y()))
+            bubble(QPointF(lft.x() - bub_off, lft.y()), lab)
+            bubble(QPointF(rgt.x() + bub_off, rgt.y()), lab)
+        # dimension strings: x below the grid, y left of it
+        dim_pen = cosmetic_pen("#3A3A3A", 1.0)
+        p.setFont(dim_font)
+        base = self._vp(x0, y0).y() + dim_off
+        for xa, xb in zip(g.x_lines[:-1], g.x_lines[1:], strict=True):
+            a, b = self._vp(xa, y0).x(), self._vp(xb, y0).x()
+            p.setPen(dim_pen)
+            p.drawLine(QPointF(a, base), QPointF(b, base))
+            for t in (a, b):
+                p.drawLine(QPointF(t - 3, base + 3), QPointF(t + 3, base - 3))
+            text = units.fmt(xb - xa, "length", sysm, decimals=2)
+            if fm.horizontalAdvance(text) + 6 < b - a:
+                p.setPen(QColor("#222222"))
+                p.drawText(QRectF(a, base - 14, b - a, 13), Qt.AlignmentFlag.AlignCenter, text)
+        left = self._vp(x0, y0).x() - dim_off
+        for ya, yb in zip(g.y_lines[:-1], g.y_lines[1:], strict=True):
+            a, b = self._vp(x0, ya).y(), self._vp(x0, yb).y()
+            p.setPen(dim_pen)
+            p.drawLine(QPointF(left, a), QPointF(left, b))
+            for t in (a, b):
+                p.drawLine(QPointF(left - 3, t + 3), QPointF(left + 3, t - 3))
+            text = units.fmt(yb - ya, "length", sysm, decimals=2)
+            if fm.horizontalAdvance(text) + 6 < a - b:
+                p.save()
+                p.translate(left + 1, (a + b) / 2)
+                p.rotate(-90)
+                p.setPen(QColor("#222222"))
+                p.drawText(QRectF(-(a - b) / 2, 0, a - b, 13), Qt.AlignmentFlag.AlignCenter,
+                           text)
+                p.restore()
+
+    def _paint_north(self, p: QPainter) -> None:
+        c = QPointF(34, 44)
+        p.setPen(cosmetic_pen("#222222", 1.2))
+        p.setBrush(QColor(255, 255, 255, 220))
+        p.drawEllipse(c, 17, 17)
+        tip, tail = QPointF(c.x(), c.y() - 15), QPointF(c.x(), c.y() + 11)
+        p.setBrush(QColor("#222222"))
+        p.drawPolygon(QPolygonF([tip, QPointF(c.x() - 6, c.y() + 6), tail]))
+        p.setBrush(QColor("#FFFFFF"))
+        p.drawPolygon(QPolygonF([tip, QPointF(c.x() + 6, c.y() + 6), tail]))
+        p.setFont(pixel_font(12, True))
+        p.setPen(QColor("#222222"))
+        p.drawText(QRectF(c.x() - 10, c.y() - 36, 20, 16), Qt.AlignmentFlag.AlignCenter, "N")
+
+    def _paint_scale_bar(self, p: QPainter) -> None:
+        ppm = self.pixels_per_metre()
+        sysm = self.unit_system
+        unit_m = 1.0 if sysm == "SI" else 0.3048
+        length_u = _nice_length(140.0 / (ppm * unit_m))
+        length_px = length_u * unit_m * ppm
+        x0 = 16.0
+        y0 = self.viewport().height() - self._caution_height() - 26.0
+        seg = length_px / 4
+        p.setPen(cosmetic_pen("#222222", 1.0))
+        for k in range(4):
+            p.setBrush(QColor("#222222") if k % 2 == 0 else QColor("#FFFFFF"))
+            p.drawRect(QRectF(x0 + k * seg, y0, seg, 6))
+        p.setFont(pixel_font(10))
+        p.setPen(QColor("#222222"))
+        p.drawText(QRectF(x0 - 10, y0 + 7, 20, 13), Qt.AlignmentFlag.AlignCenter, "0")
+        unit = units.display_unit("length", sysm)  # type: ignore[arg-type]
+        label = f"{length_u:g} {unit}"
+        p.drawText(QRectF(x0 + length_px - 40, y0 + 7, 80, 13), Qt.AlignmentFlag.AlignCenter,
+                   label)
+
+    def _caution_lines(self) -> list[str]:
+        if self._results is None:
+            return []
+        fm = QFontMetricsF(pixel_font(10))
+        width = max(self.viewport().width() - 16, 100)
+        words, lines, cur = CAUTION.split(), [], ""
+        for w in words:
+            trial = f"{cur} {w}".strip()
+            if fm.horizontalAdvance(trial) > width and cur:
+                lines.append(cur)
+                cur = w
+            else:
+                cur = trial
+        if cur:
+            lines.append(cur)
+        return lines
+
+    def _caution_height(self) -> float:
+        n = len(self._caution_lines())
+        return 13.0 * n + 8 if n else 0.0
+
+    def _paint_caution(self, p: QPainter) -> None:
+        lines = self._caution_lines()
+        if not lines:
+            return
+        h = self._caution_height()
+        vw, vh = self.viewport().width(), self.viewport().height()
+        p.fillRect(QRectF(0, vh - h, vw, h), QColor("#FFF6D6"))
+        p.setPen(cosmetic_pen("#8A5A00", 1.0))
+        p.drawLine(QPointF(0, vh - h), QPointF(vw, vh - h))
+        p.setFont(pixel_font(10))
+        p.setPen(QColor("#3D2800"))
+        for i, line in enumerate(lines):
+            p.drawText(QRectF(8, vh - h + 4 + 13 * i, vw - 16, 13),
+                       Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignVCenter, line)
+
+    def case_caption(self) -> str:
+        if self._results is None:
+            return "No results (analysis not run or running)"
+        if self._case is None:
+            return "Worst of every load and zone"
+        return f"Zone {self._case[0]}, load {self._case[1]}"
+
+    def _paint_legend(self, p: QPainter) -> None:
+        vw = self.viewport().width()
+        w = 196.0
+        x = vw - w - 10
+        y = 10.0
+        rows: list[tuple[str, object]] = []
+        mode = self._overlay
+        if mode == "outcome":
+            for key in (*style.OUTCOME_ORDER, style.OUTCOME_NONE):
+                rows.append(("outcome", key))
+        else:
+            rows.append(("ramp", mode))
+        rows += [("sym", "girder"), ("sym", "beam"), ("sym", "zone"), ("sym", "drift"),
+                 ("sym", "crane")]
+        if self._protection_item.areas:
+            rows.append(("sym", "protection"))
+        if self._openings_item.count:
+            rows.append(("sym", "opening"))
+        heights = {"outcome": 18.0, "ramp": 58.0, "sym": 16.0}
+        h = 40.0 + sum(heights[k] for k, _ in rows)
+        p.setPen(cosmetic_pen("#9A9A94", 1.0))
+        p.setBrush(QColor(255, 255, 255, 235))
+        p.drawRoundedRect(QRectF(x, y, w, h), 4, 4)
+        p.setFont(pixel_font(11, True))
+        p.setPen(QColor("#222222"))
+        p.drawText(QRectF(x + 8, y + 5, w - 16, 14), Qt.AlignmentFlag.AlignLeft,
+                   style.OVERLAYS.get(mode, mode))
+        p.setFont(pixel_font(9))
+        p.setPen(QColor("#555555"))
+        p.drawText(QRectF(x + 8, y + 20, w - 16, 12), Qt.AlignmentFlag.AlignLeft,
+                   QFontMetricsF(pixel_font(9)).elidedText(
+                       self.case_caption(), Qt.TextElideMode.ElideRight, w - 16))
+        cy = y + 38
+        for kind, val in rows:
+            if kind == "outcome":
+                st = style.outcome(str(val))
+                sw = QRectF(x + 8, cy + 2, 26, 13)
+                p.fillRect(sw, st.fill_brush())
+                if st.hatch != Qt.BrushStyle.NoBrush:
+                    p.fillRect(sw, st.hatch_brush())
+                p.setPen(cosmetic_pen(st.edge, 1.0))
+                p.setBrush(Qt.BrushStyle.NoBrush)
+                p.drawRect(sw)
+                p.setFont(pixel_font(10))
+                p.setPen(QColor("#222222"))
+                p.drawText(QRectF(x + 40, cy + 1, w - 46, 15),
+                           Qt.AlignmentFlag.AlignVCenter, f"{st.tag}  {st.label}")
+            elif kind == "ramp":
+                self._paint_ramp(p, QRectF(x + 8, cy, w - 16, heights["ramp"]), str(val))
+            else:
+                self._paint_symbol_row(p, QRectF(x + 8, cy, w - 16, 16), str(val))
+            cy += heights[kind]
+
+    def _paint_ramp(self, p: QPainter, r: QRectF, mode: str) -> None:
+        sysm = self.unit_system
+        bar = QRectF(r.left(), r.top() + 2, r.width() - 44, 12)
+        lo, hi = UTIL_RANGE if mode == "utilisation" else DROP_RANGE
+        grad = QLinearGradient(bar.topLeft(), bar.topRight())
+        for k in range(11):
+            v = lo + (hi - lo) * k / 10
+            c = int(colour_values(mode, np.array([v]))[0])
+            grad.setColorAt(k / 10, QColor((c >> 16) & 255, (c >> 8) & 255, c & 255))
+        p.fillRect(bar, QBrush(grad))
+        p.setPen(cosmetic_pen("#555555", 1.0))
+        p.setBrush(Qt.BrushStyle.NoBrush)
+        p.drawRect(bar)
+        extra = QRectF(bar.right() + 6, bar.top(), 36, 12)
+        if mode == "utilisation":
+            st = style.outcome("exceeds")
+            p.fillRect(extra, st.fill_brush())
+            p.fillRect(extra, st.hatch_brush())
+            extra_text = "> 1"
+            ticks = [(0.0, "0"), (0.5, "0.5"), (1.0, "1.0")]
+            note = "utilisation, worst per cell"
+        else:
+            c = int(colour_values(mode, np.array([np.nan]))[0])
+            p.fillRect(extra, QColor((c >> 16) & 255, (c >> 8) & 255, c & 255))
+            extra_text = "none"
+            ticks = [(v, units.fmt(v, "length", sysm, decimals=1)) for v in (0.0, 2.0, 4.0)]
+            note = "elastic, least per cell; none = no safe height"
+        p.drawRect(extra)
+        p.setFont(pixel_font(9))
+        p.setPen(QColor("#222222"))
+        for v, t in ticks:
+            tx = bar.left() + (v - lo) / (hi - lo) * bar.width()
+            p.drawLine(QPointF(tx, bar.bottom()), QPointF(tx, bar.bottom() + 3))
+            p.drawText(QRectF(tx - 24, bar.bottom() + 3, 48, 12), Qt.AlignmentFlag.AlignCenter, t)
+        p.drawText(QRectF(extra.left() - 6, extra.bottom() + 3, 48, 12),
+                   Qt.AlignmentFlag.AlignCenter, extra_text)
+        p.setPen(QColor("#555555"))
+        p.drawText(QRectF(r.left(), bar.bottom() + 17, r.width(), 24),
+                   Qt.AlignmentFlag.AlignLeft | Qt.TextFlag.TextWordWrap, note)
+
+    def _paint_symbol_row(self, p: QPainter, r: QRectF, kind: str) -> None:
+        a = QPointF(r.left(), r.center().y())
+        b = QPointF(r.left() + 26, r.center().y())
+        teal = QColor(style.PLAN["zone_edge"])
+        label = kind
+        if kind == "girder":
+            p.setPen(cosmetic_pen(style.PLAN["girder"], 3.0))
+            p.drawLine(a, b)
+            label = "Girder"
+        elif kind == "beam":
+            p.setPen(cosmetic_pen(style.PLAN["beam"], 1.2))
+            p.drawLine(a, b)
+            label = "Beam"
+        elif kind == "zone":
+            p.setPen(cosmetic_pen(teal, 1.6, Qt.PenStyle.DashLine))
+            p.drawLine(a, b)
+            label = "Swing zone edge"
+        elif kind == "drift":
+            band = QColor(teal)
+            band.setAlpha(0x30)
+            p.fillRect(QRectF(a.x(), a.y() - 4, 26, 8), band)
+            p.setPen(cosmetic_pen(teal.lighter(130), 1.0, Qt.PenStyle.DotLine))
+            p.setBrush(Qt.BrushStyle.NoBrush)
+            p.drawRect(QRectF(a.x(), a.y() - 4, 26, 8))
+            label = "Drift margin"
+        elif kind == "crane":
+            c = QPointF(a.x() + 13, a.y())
+            p.setPen(cosmetic_pen(teal, 1.4))
+            p.setBrush(QColor("#FFFFFF"))
+            for k in range(4):
+                ang = math.radians(45 + 90 * k)
+                tip = QPointF(c.x() + 7 * math.cos(ang), c.y() - 7 * math.sin(ang))
+                p.drawLine(c, tip)
+                p.drawRect(QRectF(tip.x() - 2, tip.y() - 2, 4, 4))
+            p.drawEllipse(c, 4, 4)
+            label = "Crane position"
+        elif kind == "protection":
+            p.setPen(cosmetic_pen(style.PLAN["protection_edge"], 2.0, Qt.PenStyle.DashLine))
+            p.setBrush(Qt.BrushStyle.NoBrush)
+            p.drawRect(QRectF(a.x(), a.y() - 5, 26, 10))
+            label = "Mat / crush layer"
+        elif kind == "opening":
+            box = QRectF(a.x(), a.y() - 5, 26, 10)
+            p.fillRect(box, QColor("#FFFFFF"))
+            p.setPen(cosmetic_pen("#1A1A1A", 1.0))
+            p.drawLine(box.topLeft(), box.bottomRight())
+            p.drawLine(box.bottomLeft(), box.topRight())
+            p.setPen(QPen(QColor("#1A1A1A"), 2.0))
+            p.setBrush(Qt.BrushStyle.NoBrush)
+            p.drawRect(box)
+            label = "Deck opening"
+        p.setFont(pixel_font(10))
+        p.setPen(QColor("#222222"))
+        p.drawText(QRectF(r.left() + 32, r.top(), r.width() - 32, r.height()),
+                   Qt.AlignmentFlag.AlignVCenter, label)

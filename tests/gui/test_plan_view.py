@@ -1,0 +1,432 @@
+"""Plan view: geometry, outcome colours and labels, overlay raster, handles, clicks.
+
+The floor, zone and loads are invented demo scenarios (geometry only). Where a
+test builds a ``Results`` by hand it checks the view's plumbing — that the plan
+shows what the result contract says — never an engineering value; the
+end-to-end test with the real solver runs once ``droprig.solver.analysis`` exists.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+from PySide6.QtCore import QEvent, QPoint, QPointF, Qt
+from PySide6.QtGui import QColor, QFontMetricsF, QMouseEvent
+from PySide6.QtWidgets import QApplication
+
+from droprig.cli import CAUTION
+from droprig.gui import style
+from droprig.gui.plan_items import BayLabelsItem, colour_values, handle_positions, pixel_font
+from droprig.gui.plan_view import MIN_BAND, MIN_SWEEP, PlanView, dragged_zone
+from droprig.io.sections import get_grade, get_section
+from droprig.model import (
+    Deck,
+    LiftLoad,
+    LiftZone,
+    Project,
+    ProtectionArea,
+    Rect,
+    Settings,
+    bays,
+    generate_level,
+)
+from droprig.solver.results import RESPONSES, BaySummary, CaseResult, Results
+
+pytestmark = pytest.mark.gui
+
+LENGTH_TOL = 1e-9
+"""m; geometry copied through the view unchanged."""
+SNAP_TOL = 0.05 + 1e-9
+"""m; radius handles snap to 50 mm in SI."""
+COLOUR_TOL = 2
+"""8-bit channel steps lost to alpha premultiplication."""
+PIXEL_TOL_M = 0.25
+"""m; a few screen pixels at the test zoom (~15–20 px/m)."""
+
+
+@pytest.fixture
+def warehouse_floor() -> Project:
+    """Invented demo: 3 × 2 bays (7.5, 7.5, 9 m by 6, 8 m), girders along x,
+    beams at ≤ 2.5 m, one deck opening, a crane north of the floor swinging
+    over it, one timber mat."""
+    level = generate_level(
+        level_id="L2", name="Level 2", elevation=4.5,
+        x_spacings=(7.5, 7.5, 9.0), y_spacings=(6.0, 8.0),
+        girder_direction="x", beam_spacing=2.5,
+        girder_section=get_section("W21X44"), beam_section=get_section("W16X26"),
+        girder_grade=get_grade("A992"), beam_grade=get_grade("A992"),
+        deck=Deck(openings=(Rect(18.0, 8.0, 20.0, 10.0),)),
+    )
+    zone = LiftZone("Z1", "North crane", "L2", crane=(12.0, 20.0), r_min=4.0, r_max=14.0,
+                    slew_start=math.radians(200), slew_end=math.radians(340),
+                    drift_margin=1.0, loads=(LiftLoad("Pump skid", 1800.0, drop_height=1.0),))
+    mat = ProtectionArea("M1", "Timber mat", "L2", Rect(9.0, 7.0, 13.0, 10.0))
+    return Project(settings=Settings(grid_resolution=0.5), levels=(level,),
+                   lift_zones=(zone,), protection_areas=(mat,))
+
+
+@pytest.fixture
+def view(qtbot, warehouse_floor: Project) -> PlanView:
+    v = PlanView()
+    qtbot.addWidget(v)
+    v.resize(900, 640)
+    v.show()
+    qtbot.waitExposed(v)
+    v.set_project(warehouse_floor, "L2")
+    return v
+
+
+def _case(project: Project, pts: list[tuple[float, float, int, float, float]]) -> CaseResult:
+    """A CaseResult for the view's plumbing: (x, y, response, U, allowable h)."""
+    level = project.levels[0]
+    bl = bays(level)
+    x = np.array([p[0] for p in pts])
+    y = np.array([p[1] for p in pts])
+    n = len(pts)
+    bay = np.array([next((i for i, b in enumerate(bl) if b.rect.contains(px, py)), -1)
+                    for px, py in zip(x, y, strict=True)])
+    zeros = np.zeros(n)
+    h = np.array([p[4] for p in pts])
+    return CaseResult(
+        zone_id="Z1", load_name="Pump skid", level_id="L2", mass=1800.0, weight=1800 * 9.80665,
+        planned_drop_height=1.0, x=x, y=y, bay=bay, protection=-np.ones(n, dtype=int),
+        drop_height=zeros + 1.0, static_deflection=zeros, effective_mass=zeros,
+        dynamic_factor=zeros, peak_force=zeros, max_deflection=zeros, deceleration_g=zeros,
+        utilisation=np.array([p[3] for p in pts]), governing_member=np.zeros(n, dtype=int),
+        governing_check=np.zeros(n, dtype=int),
+        response=np.array([p[2] for p in pts], dtype=int), allowable_drop_height=h,
+        allowable_drop_height_plastic=h * 2, allowable_mass=zeros, plastic_deflection=zeros,
+        ductility=zeros, support_rotation=zeros, required_mat_stiffness=zeros,
+        required_crush_stroke=zeros)
+
+
+def _summaries(project: Project, case: CaseResult) -> tuple[BaySummary, ...]:
+    out = []
+    for i, b in enumerate(bays(project.levels[0])):
+        k = case.bay == i
+        if not k.any():
+            continue
+        j = int(np.argmax(case.utilisation[k]))
+        h = case.allowable_drop_height[k]
+        out.append(BaySummary(
+            "L2", b.id, case.zone_id, case.load_name, int(k.sum()),
+            float(case.utilisation[k].max()), RESPONSES[int(case.response[k].max())],
+            None if np.isnan(h).any() else float(h.min()), None,
+            float(case.x[k][j]), float(case.y[k][j]), "B1/A-B", "flexure", ""))
+    return tuple(out)
+
+
+@pytest.fixture
+def three_outcomes(warehouse_floor: Project) -> Results:
+    """One point per bay of the top row: elastic, plastic, exceeds (plumbing only)."""
+    case = _case(warehouse_floor, [(4.0, 10.0, 0, 0.61, 2.0), (11.0, 11.0, 1, 1.2, 0.6),
+                                   (19.0, 12.0, 2, 1.42, float("nan"))])
+    return Results((case,), _summaries(warehouse_floor, case))
+
+
+def _mouse(widget, etype: QEvent.Type, pos: QPoint, button: Qt.MouseButton,
+           buttons: Qt.MouseButton) -> None:
+    ev = QMouseEvent(etype, QPointF(pos), QPointF(widget.mapToGlobal(pos)), button, buttons,
+                     Qt.KeyboardModifier.NoModifier)
+    QApplication.sendEvent(widget, ev)
+
+
+def _drag(view: PlanView, a: QPoint, b: QPoint, steps: int = 6) -> None:
+    vp = view.viewport()
+    left = Qt.MouseButton.LeftButton
+    _mouse(vp, QEvent.Type.MouseButtonPress, a, left, left)
+    for k in range(1, steps + 1):
+        p = a + (b - a) * (k / steps)
+        _mouse(vp, QEvent.Type.MouseMove, p, Qt.MouseButton.NoButton, left)
+    _mouse(vp, QEvent.Type.MouseButtonRelease, b, left, Qt.MouseButton.NoButton)
+
+
+def _click(view: PlanView, pos: QPoint) -> None:
+    _drag(view, pos, pos, steps=0)
+
+
+# ---------------------------------------------------------------- geometry
+
+
+def test_framing_grid_and_bays_drawn(view: PlanView, warehouse_floor: Project) -> None:
+    level = warehouse_floor.levels[0]
+    girders, beams_, columns = view._framing_item.counts
+    assert girders == sum(m.role == "girder" for m in level.members)
+    assert beams_ == sum(m.role == "beam" for m in level.members)
+    assert columns == 4 * 3  # 4 x-lines × 3 y-lines: one column per intersection
+    assert [s.bay.id for s in view.bay_states()] == [b.id for b in bays(level)]
+    assert view._openings_item.count == 1
+    assert [a.id for a in view._protection_item.areas] == ["M1"]
+
+
+def test_without_results_every_bay_says_not_assessed(view: PlanView) -> None:
+    for s in view.bay_states():
+        assert s.key == style.OUTCOME_NONE
+        lines = view._labels_item.label_for(s, 200, 80)
+        assert lines == [style.outcome(None).label.upper()]
+
+
+def test_bays_follow_results_and_carry_words(view: PlanView, three_outcomes: Results) -> None:
+    view.set_results(three_outcomes)
+    by_id = {s.bay.id: s for s in view.bay_states()}
+    assert by_id["1-2/B-C"].key == "elastic"
+    assert by_id["2-3/B-C"].key == "plastic"
+    assert by_id["3-4/B-C"].key == "exceeds"
+    assert by_id["1-2/A-B"].key == style.OUTCOME_NONE
+    assert by_id["3-4/B-C"].max_utilisation == pytest.approx(1.42)
+    assert by_id["3-4/B-C"].allowable_drop_height is None  # nan point: none exists
+    lines = view._labels_item.label_for(by_id["3-4/B-C"], 300, 100)
+    assert lines == [style.outcome("exceeds").label.upper(), "U 1.42"]
+    lines = view._labels_item.label_for(by_id["1-2/B-C"], 300, 100)
+    assert lines == [style.outcome("elastic").label.upper(), "U 0.61"]
+
+
+@pytest.mark.parametrize(("lines", "height"), [
+    (["EXCEEDS LIMITS", "U 1.42"], 100),
+    (["EXCEEDS 1.42"], 40),
+    (["X 1.42"], 30),
+    (["X"], 20),
+])
+def test_bay_label_shrinks_but_keeps_words(view: PlanView, three_outcomes: Results,
+                                           lines: list[str], height: float) -> None:
+    """The widest line that fits is used; the words go first, the tag last."""
+    view.set_results(three_outcomes)
+    s = next(s for s in view.bay_states() if s.key == "exceeds")
+    labels: BayLabelsItem = view._labels_item
+    width = QFontMetricsF(pixel_font(11, True)).horizontalAdvance(lines[0]) + 12
+    assert labels.label_for(s, width, height) == lines
+    assert labels.label_for(s, 6, 6) == []
+
+
+def test_rendered_bay_pixel_has_outcome_fill(view: PlanView, three_outcomes: Results) -> None:
+    view.set_results(three_outcomes)
+    img = view.grab().toImage()
+    # a point inside bay 1-2/B-C away from the label plate, beams and zone wash:
+    p = view.view_pos(0.6, 13.4)
+    got = QColor(img.pixel(p))
+    want = QColor(style.outcome("elastic").fill)
+    assert abs(got.red() - want.red()) + abs(got.green() - want.green()) + \
+        abs(got.blue() - want.blue()) < 40
+
+
+def test_case_filter_and_reset(view: PlanView, three_outcomes: Results) -> None:
+    view.set_results(three_outcomes)
+    view.set_case("Z1", "Other load")
+    assert all(s.key == style.OUTCOME_NONE for s in view.bay_states())
+    view.set_case(None)
+    assert {s.key for s in view.bay_states()} == {"elastic", "plastic", "exceeds", "none"}
+
+
+def test_results_none_while_analysing(view: PlanView, three_outcomes: Results) -> None:
+    view.set_results(three_outcomes)
+    view.set_results(None)
+    assert all(s.key == style.OUTCOME_NONE for s in view.bay_states())
+    assert not view.overlay_visible
+
+
+# ----------------------------------------------------------------- overlay
+
+
+def test_overlay_raster_uses_style_ramp(view: PlanView, three_outcomes: Results) -> None:
+    view.set_results(three_outcomes)
+    view.set_overlay("utilisation")
+    assert view.overlay_visible
+    img = view.overlay_image().toImage()
+    # three points 0.5 m cells apart at least: three coloured cells, the rest clear
+    opaque = [(i, j) for i in range(img.width()) for j in range(img.height())
+              if QColor(img.pixelColor(i, j)).alpha() > 0]
+    assert len(opaque) == 3
+    got = sorted(QColor(img.pixelColor(i, j)).getRgb()[:3] for i, j in opaque)
+    want = sorted(QColor(int(c) & 0xFFFFFF).getRgb()[:3]
+                  for c in colour_values("utilisation", np.array([0.61, 1.2, 1.42])))
+    for g, w in zip(got, want, strict=True):  # alpha premultiplication rounds by 1
+        assert max(abs(a - b) for a, b in zip(g, w, strict=True)) <= COLOUR_TOL
+    for u in (0.0, 0.61, 1.0, 1.42):  # the raster ramp is the style.py ramp (LUT-quantised)
+        a = QColor(style.utilisation_color(u)).getRgb()[:3]
+        b = QColor(int(colour_values("utilisation", np.array([u]))[0]) & 0xFFFFFF).getRgb()[:3]
+        assert max(abs(p - q) for p, q in zip(a, b, strict=True)) <= COLOUR_TOL
+    view.set_overlay("outcome")
+    assert not view.overlay_visible
+    with pytest.raises(ValueError, match="allowed"):
+        view.set_overlay("rainbow")
+
+
+def test_overlay_handles_ten_thousand_points(view: PlanView, warehouse_floor: Project) -> None:
+    xs, ys = np.meshgrid(np.arange(0.0, 24.0, 0.25), np.arange(0.0, 14.0, 0.14))
+    pts = [(float(x), float(y), 0, float(x) / 24.0, 1.0)
+           for x, y in zip(xs.ravel(), ys.ravel(), strict=True)]
+    assert len(pts) >= 9000
+    case = _case(warehouse_floor, pts)
+    view.set_results(Results((case,), _summaries(warehouse_floor, case)))
+    view.set_overlay("drop_height")
+    assert view.overlay_visible
+    assert view._scene.items().__len__() < 30  # one raster item, not one item per point
+    assert not view.grab().isNull()
+
+
+# ----------------------------------------------------------------- handles
+
+
+def test_handle_drag_sets_outer_radius(view: PlanView, qtbot) -> None:
+    view.set_selected_zone("Z1")
+    zone = view.project.zone("Z1")
+    hx, hy = handle_positions(zone)["r_max"]
+    assert view.handle("r_max").isVisible()
+    mid = zone.slew_start + zone.slew_sweep / 2
+    target = (zone.crane[0] + 16.0 * math.cos(mid), zone.crane[1] + 16.0 * math.sin(mid))
+    with qtbot.waitSignal(view.zone_changed, timeout=1000) as sig:
+        _drag(view, view.view_pos(hx, hy), view.view_pos(*target))
+    zone_id, new = sig.args
+    assert zone_id == "Z1"
+    assert isinstance(new, LiftZone)
+    assert new.r_max == pytest.approx(16.0, abs=PIXEL_TOL_M)
+    assert new.r_min == zone.r_min
+    assert (new.slew_start, new.slew_end) == (zone.slew_start, zone.slew_end)
+
+
+def test_handle_drag_inside_inner_radius_is_clamped(view: PlanView, qtbot) -> None:
+    view.set_selected_zone("Z1")
+    zone = view.project.zone("Z1")
+    hx, hy = handle_positions(zone)["r_max"]
+    with qtbot.waitSignal(view.zone_changed, timeout=1000) as sig:
+        _drag(view, view.view_pos(hx, hy), view.view_pos(*zone.crane))
+    new = sig.args[1]
+    assert new.r_max == pytest.approx(zone.r_min + MIN_BAND, abs=SNAP_TOL)
+    assert new.r_max > new.r_min
+
+
+def test_click_without_move_on_handle_emits_nothing(view: PlanView, qtbot) -> None:
+    view.set_selected_zone("Z1")
+    zone = view.project.zone("Z1")
+    with qtbot.assertNotEmitted(view.zone_changed):
+        _click(view, view.view_pos(*handle_positions(zone)["r_min"]))
+
+
+@pytest.mark.parametrize(("kind", "turn_deg", "sweep_deg"), [
+    ("slew_end", 30.0, 170.0),    # end handle counter-clockwise lengthens the arc
+    ("slew_end", -30.0, 110.0),
+    ("slew_start", 30.0, 110.0),  # start handle counter-clockwise shortens it
+    ("slew_end", 400.0, 360.0),   # never more than a full circle
+    ("slew_start", 400.0, math.degrees(MIN_SWEEP)),  # never less than the minimum
+])
+def test_slew_drag_math(warehouse_floor: Project, kind: str, turn_deg: float,
+                        sweep_deg: float) -> None:
+    zone = warehouse_floor.zone("Z1")  # 200° → 340°, 140° of arc
+    new = dragged_zone(zone, kind, 0.0, 0.0, accum_angle=math.radians(turn_deg))
+    assert math.degrees(new.slew_sweep) == pytest.approx(sweep_deg, abs=1e-6)
+    if kind == "slew_end":
+        assert new.slew_start == pytest.approx(zone.slew_start)
+
+
+@pytest.mark.parametrize(("kind", "radius", "expected"), [
+    ("r_min", 20.0, 14.0 - MIN_BAND),
+    ("r_min", 2.03, 2.05),
+    ("r_max", 500.0, 200.0),
+    ("r_max", 1.0, 4.0 + MIN_BAND),
+])
+def test_radius_drag_math(warehouse_floor: Project, kind: str, radius: float,
+                          expected: float) -> None:
+    zone = warehouse_floor.zone("Z1")
+    new = dragged_zone(zone, kind, zone.crane[0] + radius, zone.crane[1])
+    assert getattr(new, kind) == pytest.approx(expected, abs=LENGTH_TOL)
+    assert new.r_max > new.r_min
+
+
+def test_slew_handle_drag_with_mouse(view: PlanView, qtbot) -> None:
+    view.set_selected_zone("Z1")
+    zone = view.project.zone("Z1")
+    hx, hy = handle_positions(zone)["slew_end"]
+    rm = (zone.r_min + zone.r_max) / 2
+    a = zone.slew_start + zone.slew_sweep - math.radians(40)
+    with qtbot.waitSignal(view.zone_changed, timeout=1000) as sig:
+        _drag(view, view.view_pos(hx, hy),
+              view.view_pos(zone.crane[0] + rm * math.cos(a), zone.crane[1] + rm * math.sin(a)))
+    assert math.degrees(sig.args[1].slew_sweep) == pytest.approx(100.0, abs=1.01)
+
+
+def test_set_project_during_zone_changed_is_safe(view: PlanView, qtbot,
+                                                 warehouse_floor: Project) -> None:
+    """The main window re-sets the project from inside the signal."""
+    import dataclasses
+
+    def apply(zone_id: str, zone: LiftZone) -> None:
+        p = dataclasses.replace(warehouse_floor, lift_zones=(zone,))
+        view.set_project(p, "L2")
+
+    view.zone_changed.connect(apply)
+    view.set_selected_zone("Z1")
+    zone = view.project.zone("Z1")
+    hx, hy = handle_positions(zone)["r_min"]
+    _drag(view, view.view_pos(hx, hy), view.view_pos(hx, hy + 2.0))
+    assert view.project.zone("Z1").r_min != zone.r_min
+    assert view.handle("r_min").isVisible()
+
+
+# ----------------------------------------------------------- clicks & hover
+
+
+def test_click_emits_bay_and_nearest_point(view: PlanView, qtbot,
+                                           three_outcomes: Results) -> None:
+    view.set_results(three_outcomes)
+    points: list[tuple] = []
+    view.point_clicked.connect(lambda *a: points.append(a))
+    with qtbot.waitSignal(view.bay_clicked, timeout=1000) as sig:
+        _click(view, view.view_pos(11.2, 10.9))
+    assert sig.args == ["2-3/B-C"]
+    assert points == [("Z1", "Pump skid", 11.0, 11.0)]
+    assert view.selected_bay == "2-3/B-C"
+
+
+def test_click_far_from_points_picks_no_point(view: PlanView, qtbot,
+                                              three_outcomes: Results) -> None:
+    view.set_results(three_outcomes)
+    with qtbot.assertNotEmitted(view.point_clicked):
+        _click(view, view.view_pos(3.0, 2.0))
+
+
+def test_hover_text_in_project_units(view: PlanView, three_outcomes: Results,
+                                     warehouse_floor: Project) -> None:
+    view.set_results(three_outcomes)
+    text = view.describe(11.0, 11.0)
+    assert "2-3/B-C" in text and "1.20" in text and "0.600 m" in text
+    import dataclasses
+
+    us = dataclasses.replace(warehouse_floor, settings=Settings(unit_system="US"))
+    view.set_project(us, "L2")
+    text = view.describe(11.0, 11.0)
+    assert "1.97 ft" in text  # 0.6 m = 1.9685 ft
+
+
+# ------------------------------------------------------------- protection
+
+
+def test_rubber_band_draws_protection(view: PlanView, qtbot) -> None:
+    view.set_mode("draw_protection")
+    with qtbot.waitSignal(view.protection_drawn, timeout=1000) as sig:
+        _drag(view, view.view_pos(2.0, 3.0), view.view_pos(6.0, 1.0))
+    r = sig.args[0]
+    assert isinstance(r, Rect)
+    assert (r.x0, r.y0, r.x1, r.y1) == pytest.approx((2.0, 1.0, 6.0, 3.0), abs=PIXEL_TOL_M)
+
+
+def test_tiny_rubber_band_is_refused(view: PlanView, qtbot) -> None:
+    view.set_mode("draw_protection")
+    with qtbot.assertNotEmitted(view.protection_drawn):
+        _drag(view, view.view_pos(2.0, 3.0), view.view_pos(2.05, 3.0))
+
+
+# ----------------------------------------------------------- view chrome
+
+
+def test_fit_zoom_and_caution(view: PlanView, three_outcomes: Results) -> None:
+    view.fit()
+    s0 = view.pixels_per_metre()
+    view.zoom_by(2.0)
+    assert view.pixels_per_metre() == pytest.approx(2 * s0)
+    view.fit()
+    assert view.pixels_per_metre() == pytest.approx(s0)
+    assert view._caution_lines() == []  # no verdict shown, no caution strip
+    view.set_results(three_outcomes)
+    assert " ".join(view._caution_lines()) == CAUTION
