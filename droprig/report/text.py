@@ -84,7 +84,9 @@ def substitute(formula: str, inputs: dict[str, tuple[float, str]], system: UnitS
     def repl(m: re.Match[str]) -> str:
         value, quantity = inputs[m.group(1)]
         text = fmt_value(value, quantity, system)
-        if " " in text or text.startswith("-"):
+        enclosed = (m.start() > 0 and m.string[m.start() - 1] == "("
+                    and m.end() < len(m.string) and m.string[m.end()] == ")")
+        if (" " in text or text.startswith("-")) and not enclosed:
             return f"({text})"
         return text
 

@@ -1,0 +1,58 @@
+"""Text helpers of the annex: escaping, unit formatting and number substitution.
+
+Conversion factors: 1 ft = 0.3048 m and 1 in = 25.4 mm exactly (international
+yard and pound agreement, 1959); 1 lbf = 4.4482216152605 N (NIST SP 811,
+Appendix B.8).
+"""
+
+from __future__ import annotations
+
+import pytest
+from reportlab.platypus import Paragraph
+
+from droprig.report.text import esc, fmt_util, fmt_value, substitute
+
+
+@pytest.mark.parametrize("raw", ["<b>Bay & Co</b>", "a < b > c & d", "&amp; stays &amp;",
+                                 "<font size=40>x</font>", "</para>"])
+def test_escaped_text_prints_literally_in_a_paragraph(raw: str) -> None:
+    # XML 1.0 §2.4: '<' and '&' must be escaped in character data (W3C)
+    p = Paragraph(esc(raw))
+    text = "".join(frag.text for frag in p.frags)
+    assert text == raw
+
+
+@pytest.mark.parametrize(("value", "quantity", "system", "expected"), [
+    (3.048, "length", "US", "10.00 ft"),        # 1 ft = 0.3048 m exactly
+    (0.0254, "length", "US", "1.00 in"),        # 1 in = 25.4 mm exactly (small length)
+    (0.0021, "length", "SI", "2.1 mm"),         # below 0.1 m prints in mm
+    (1.5, "length", "SI", "1.500 m"),
+    (4448.2216152605, "force", "US", "1.00 kip"),  # NIST SP 811 B.8: 1 lbf = 4.448 N
+    (None, "length", "SI", "none"),
+    (float("nan"), "force", "SI", "none"),
+])
+def test_fmt_value(value: float | None, quantity: str, system: str, expected: str) -> None:
+    assert fmt_value(value, quantity, system) == expected
+
+
+@pytest.mark.parametrize(("u", "expected"), [(1.3749, "1.37"), (0.5, "0.50"),
+                                             (float("nan"), "none"), (None, "none")])
+def test_fmt_util(u: float | None, expected: str) -> None:
+    # utilisation = demand/resistance printed to 2 decimals (common practice, no source)
+    assert fmt_util(u) == expected
+
+
+def test_substitute_replaces_whole_symbols_longest_first() -> None:
+    # Gere 7th ed. §9.10 Eq. 9-94 with the mass correction: K = 1 + √(1 + 2ηh/δst)
+    formula = "1 + √(1 + 2·η·h/δ_st)"
+    inputs = {"η": (0.5, "dimensionless"), "h": (0.3048, "length"),
+              "δ_st": (0.00254, "length")}
+    got = substitute(formula, inputs, "US")
+    # 0.3048 m = 1.00 ft; 2.54 mm = 0.10 in (exact conversions)
+    assert got == "1 + √(1 + 2·0.500·(1.00 ft)/(0.10 in))"
+
+
+def test_substitute_leaves_symbols_inside_words_alone() -> None:
+    # "h" must not be replaced inside "sqrt" or "h_w" (token rule, no source)
+    got = substitute("sqrt(h) + h_w", {"h": (2.0, "length")}, "SI")
+    assert got == "sqrt(2.000 m) + h_w"
