@@ -1,0 +1,195 @@
+"""Calculation trace of one drop point, as a readable sheet.
+
+Each :class:`droprig.solver.results.TraceStep` becomes one row: what is
+computed, the formula in symbols, the same formula with the numbers put in
+(in the user's units, :func:`droprig.units.fmt`), the result and the source.
+The verdict closes the sheet with the outcome words, tag and colour from
+:mod:`droprig.gui.style` and the standard caution. All text that comes from
+the project or the solver is escaped before it reaches the rich-text widget.
+"""
+
+from __future__ import annotations
+
+import html
+import math
+import re
+
+from PySide6.QtCore import Qt
+from PySide6.QtGui import QGuiApplication
+from PySide6.QtWidgets import (
+    QHBoxLayout,
+    QLabel,
+    QPushButton,
+    QTextBrowser,
+    QVBoxLayout,
+    QWidget,
+)
+
+from droprig import units
+from droprig.cli import CAUTION
+from droprig.gui import style
+from droprig.solver.results import Trace, TraceStep
+
+PLACEHOLDER = "Click a drop point in the plan to see how its result was worked out."
+
+
+def format_value(value: float, quantity: str, system: str) -> str:
+    """A number in the user's units; unknown quantities fall back to 4
+    significant figures; nan -> ``none``, ±inf -> ``unlimited``."""
+    if quantity in units.QUANTITIES:
+        return units.fmt(value, quantity, system)  # type: ignore[arg-type]
+    if value is None or (isinstance(value, float) and math.isnan(value)):
+        return "none"
+    if math.isinf(value):
+        return "unlimited"
+    return f"{value:.4g}"
+
+
+def substitute(formula: str, inputs: dict[str, tuple[float, str]], system: str) -> str:
+    """``formula`` with every whole-word input symbol replaced by its value in
+    the user's units (values with a unit are bracketed). Plain text; escape
+    before showing it as HTML."""
+    if not inputs:
+        return formula
+    keys = sorted(inputs, key=len, reverse=True)
+    pattern = re.compile(r"(?<![\w])(" + "|".join(re.escape(k) for k in keys) + r")(?![\w])")
+
+    def repl(m: re.Match[str]) -> str:
+        value, quantity = inputs[m.group(1)]
+        text = format_value(value, quantity, system)
+        return f"({text})" if " " in text else text
+
+    return pattern.sub(repl, formula)
+
+
+def _rhs(step: TraceStep) -> str:
+    """The formula's right-hand side (the symbol is shown separately)."""
+    f = step.formula.strip()
+    head = f"{step.symbol} ="
+    return f[len(head):].strip() if step.symbol and f.startswith(head) else f
+
+
+def step_rows(trace: Trace, system: str) -> list[tuple[str, str, str, str, str]]:
+    """(title, formula, with numbers, result, source) per step, plain text."""
+    rows = []
+    for s in trace.steps:
+        rhs = _rhs(s)
+        lhs = f"{s.symbol} = " if s.symbol else ""
+        rows.append((s.title, lhs + rhs, lhs + substitute(rhs, s.inputs, system),
+                     f"{lhs}{format_value(s.value, s.quantity, system)}", s.source))
+    return rows
+
+
+def trace_html(trace: Trace, system: str) -> str:
+    """The whole sheet as HTML (every project/solver string escaped)."""
+    e = html.escape
+    st = style.outcome(trace.response)
+    where = (f"({units.fmt(trace.x, 'length', system, decimals=2)}, "  # type: ignore[arg-type]
+             f"{units.fmt(trace.y, 'length', system, decimals=2)})")  # type: ignore[arg-type]
+    out = [
+        "<html><body style='font-family:sans-serif'>",
+        f"<h3 style='margin:2px 0'>Drop point {e(where)}</h3>",
+        f"<p style='margin:2px 0 8px 0;color:#444'>Load <b>{e(trace.load_name)}</b> in lift "
+        f"zone <b>{e(trace.zone_id)}</b> · units: {e(system)}</p>",
+        "<table cellspacing='0' cellpadding='4' width='100%' "
+        "style='border-collapse:collapse;border:1px solid #BBB'>",
+        "<tr style='background:#ECECE8'><th align='left'>#</th><th align='left'>Step</th>"
+        "<th align='left'>Formula</th><th align='left'>With numbers</th>"
+        "<th align='left'>Result</th><th align='left'>Source</th></tr>",
+    ]
+    for i, (title, formula, numbers, result, source) in enumerate(step_rows(trace, system), 1):
+        bg = "#FFFFFF" if i % 2 else "#F6F6F2"
+        out.append(
+            f"<tr style='background:{bg}'><td valign='top'>{i}</td>"
+            f"<td valign='top'>{e(title)}</td>"
+            f"<td valign='top'><code>{e(formula)}</code></td>"
+            f"<td valign='top'><code>{e(numbers)}</code></td>"
+            f"<td valign='top'><b>{e(result)}</b></td>"
+            f"<td valign='top' style='color:#555'>{e(source)}</td></tr>")
+    if not trace.steps:
+        out.append("<tr><td colspan='6'><i>The solver returned no steps for this point."
+                   "</i></td></tr>")
+    out.append("</table>")
+    ink = style.ink_on(st.fill_color()).name()
+    gov = []
+    if trace.governing_member:
+        gov.append(f"governing member <b>{e(trace.governing_member)}</b>")
+    if trace.governing_check:
+        gov.append(f"governing check <b>{e(trace.governing_check.replace('_', ' '))}</b>")
+    out.append(
+        "<table cellspacing='0' cellpadding='6' width='100%' style='margin-top:8px'><tr>"
+        f"<td width='34' align='center' style='background:{st.fill};color:{ink};"
+        f"border:1px solid {st.edge}'><b>{e(st.tag)}</b></td>"
+        f"<td style='border:1px solid {st.edge}'><b>Verdict: {e(st.label)}</b>"
+        f"{' — ' + ', '.join(gov) if gov else ''}<br>"
+        f"<span style='color:#444'>{e(st.meaning)}</span></td></tr></table>")
+    out.append(f"<p style='margin-top:8px;padding:4px;background:#FFF6D6;color:#3D2800'>"
+               f"{e(CAUTION)}</p>")
+    out.append("</body></html>")
+    return "".join(out)
+
+
+def trace_text(trace: Trace, system: str) -> str:
+    """The same sheet as plain text (for the clipboard)."""
+    st = style.outcome(trace.response)
+    lines = [f"Drop point ({units.fmt(trace.x, 'length', system)}, "  # type: ignore[arg-type]
+             f"{units.fmt(trace.y, 'length', system)}), "  # type: ignore[arg-type]
+             f"load {trace.load_name}, zone {trace.zone_id}"]
+    for i, (title, formula, numbers, result, source) in enumerate(step_rows(trace, system), 1):
+        lines += [f"{i}. {title}", f"   {formula}", f"   {numbers}", f"   {result}",
+                  f"   [{source}]"]
+    lines.append(f"Verdict: {st.label} ({st.tag}); governing member "
+                 f"{trace.governing_member or 'none'}, check {trace.governing_check or 'none'}")
+    lines.append(CAUTION)
+    return "\n".join(lines)
+
+
+class TracePanel(QWidget):
+    """Shows one calculation trace; ``show_trace(None, …)`` clears it."""
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self._trace: Trace | None = None
+        self._system = "SI"
+        self._title = QLabel("Calculation trace")
+        self._title.setStyleSheet("font-weight:bold")
+        self._copy = QPushButton("Copy as text")
+        self._copy.setToolTip("Copy the steps, the verdict and the caution to the clipboard")
+        self._copy.clicked.connect(self._on_copy)
+        self._copy.setEnabled(False)
+        self.browser = QTextBrowser()
+        self.browser.setOpenLinks(False)
+        self.browser.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse
+                                             | Qt.TextInteractionFlag.TextSelectableByKeyboard)
+        top = QHBoxLayout()
+        top.addWidget(self._title)
+        top.addStretch(1)
+        top.addWidget(self._copy)
+        lay = QVBoxLayout(self)
+        lay.setContentsMargins(4, 4, 4, 4)
+        lay.addLayout(top)
+        lay.addWidget(self.browser, 1)
+        self.show_trace(None)
+
+    @property
+    def trace(self) -> Trace | None:
+        return self._trace
+
+    def show_trace(self, trace: Trace | None, unit_system: str = "SI") -> None:
+        """Render ``trace`` in ``unit_system`` ("SI" or "US")."""
+        self._trace = trace
+        self._system = unit_system if unit_system in ("SI", "US") else "SI"
+        if trace is None:
+            self.browser.setHtml(f"<p style='color:#666'>{html.escape(PLACEHOLDER)}</p>")
+            self._copy.setEnabled(False)
+            return
+        self.browser.setHtml(trace_html(trace, self._system))
+        self._copy.setEnabled(True)
+
+    def plain_text(self) -> str:
+        return trace_text(self._trace, self._system) if self._trace else ""
+
+    def _on_copy(self) -> None:
+        cb = QGuiApplication.clipboard()
+        if cb is not None and self._trace is not None:
+            cb.setText(self.plain_text())
