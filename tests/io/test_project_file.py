@@ -421,6 +421,56 @@ def test_model_problems_in_different_objects_are_all_reported(
                for p in _problems(office_roof_doc))
 
 
+_JSON_VALUES = st.recursive(
+    st.none() | st.booleans() | st.integers(-10**6, 10**6)
+    | st.floats(-1e6, 1e6, allow_nan=False) | st.text(max_size=8),
+    lambda inner: st.lists(inner, max_size=3) | st.dictionaries(st.text(max_size=6), inner,
+                                                                 max_size=3),
+    max_leaves=6)
+
+
+def _paths(doc: Any, prefix: tuple[Any, ...] = ()) -> list[tuple[Any, ...]]:
+    out = [prefix] if prefix else []
+    if isinstance(doc, dict):
+        for k, v in doc.items():
+            out += _paths(v, (*prefix, k))
+    elif isinstance(doc, list):
+        for i, v in enumerate(doc):
+            out += _paths(v, (*prefix, i))
+    return out
+
+
+@settings(max_examples=60, deadline=None)
+@given(data=st.data())
+def test_any_edit_of_a_valid_file_loads_or_gives_problems_never_a_crash(
+        data: st.DataObject) -> None:
+    # Robustness (droprig/cli.py contract: bad input is a message, never a traceback).
+    lv = generate_level(
+        level_id="R", name="", elevation=3.0, x_spacings=(6.0,), y_spacings=(8.0,),
+        girder_direction="x", beam_spacing=4.0, girder_section=get_section("IPE 400"),
+        beam_section=get_section("IPE 300"), girder_grade=get_grade("S355"),
+        beam_grade=get_grade("S355"))
+    base = Project(levels=(lv,), lift_zones=(
+        LiftZone("Z", "", "R", (-3.0, 4.0), 2.0, 12.0, loads=(LiftLoad("a", 900.0),)),),
+        protection_areas=(ProtectionArea("P", "", "R", Rect(0.0, 0.0, 6.0, 8.0)),))
+    doc = json.loads(dumps_project(base))
+    for _ in range(data.draw(st.integers(1, 3))):
+        path = data.draw(st.sampled_from(_paths(doc)))
+        target = doc
+        for p in path[:-1]:
+            target = target[p]
+        if data.draw(st.booleans()) and isinstance(target, dict):
+            del target[path[-1]]
+        else:
+            target[path[-1]] = data.draw(_JSON_VALUES)
+    try:
+        project = loads_project(json.dumps(doc))
+    except ProjectFileError as exc:
+        assert exc.problems and all(p.startswith("$") for p in exc.problems), exc.problems
+    else:
+        assert loads_project(dumps_project(project)) == project
+
+
 def test_file_not_utf8(tmp_path: Path) -> None:
     path = tmp_path / "bad.droprig"
     path.write_bytes(b'{"format_version": 1, "name": "\xff"}')

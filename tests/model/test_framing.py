@@ -113,7 +113,7 @@ def test_members_end_on_grid_lines_or_girders(three_by_two_y: Level) -> None:
             assert m.start[0] in g.x_lines and m.end[0] in g.x_lines
 
 
-def test_origin_and_labels(two_by_one_x: Level) -> None:
+def test_origin_and_labels() -> None:
     lv = generate_level(
         level_id="L", name="", elevation=0.0, x_spacings=(6.0,), y_spacings=(8.0,),
         girder_direction="x", beam_spacing=6.0, girder_section=SEC_G, beam_section=SEC_B,
