@@ -114,8 +114,9 @@ def impact_crushable(W: ArrayLike, h: ArrayLike, f_s: ArrayLike, eta: ArrayLike,
     bottomed = c > s_c
     residual = eta * W * h - (F_c - W) * s_c
     with np.errstate(divide="ignore", invalid="ignore"):
-        F_bottom = W + np.sqrt(W**2 + 2.0 * np.maximum(residual, 0.0)
-                               / np.where(f_s > 0.0, f_s, 1.0))
+        # bottoming (c > s_c) makes the discriminant positive even when residual < 0
+        F_bottom = W + np.sqrt(np.maximum(W**2 + 2.0 * residual
+                                          / np.where(f_s > 0.0, f_s, 1.0), 0.0))
     F_bottom = np.where(f_s > 0.0, F_bottom, np.inf)
     F = np.where(c <= 0.0, F_el, np.where(bottomed, np.maximum(F_bottom, F_c), F_c))
     depth = np.where(bottomed, s_c, c)
