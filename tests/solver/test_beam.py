@@ -46,7 +46,7 @@ def _geometry(rng: np.random.Generator, n: int = 25) -> tuple[np.ndarray, ...]:
 
 # --------------------------------------------------------------------------- closed forms
 def test_simple_deflection_closed_form(rng: np.random.Generator) -> None:
-    L, a, x = _geometry(rng)
+    L, a, _x = _geometry(rng)
     b = L - a
     # AISC Manual Table 3-23 case 8: under the load Pa²b²/(3EIL)
     assert np.allclose(beam.green("simple", L, EI, a, a), a**2 * b**2 / (3 * EI * L),
@@ -58,7 +58,7 @@ def test_simple_deflection_closed_form(rng: np.random.Generator) -> None:
 
 
 def test_fixed_deflection_closed_form(rng: np.random.Generator) -> None:
-    L, a, x = _geometry(rng)
+    L, a, _x = _geometry(rng)
     b = L - a
     # AISC Manual Table 3-23 case 18 / Roark Table 8.1: under the load Pa³b³/(3EIL³)
     assert np.allclose(beam.green("fixed", L, EI, a, a), a**3 * b**3 / (3 * EI * L**3),
@@ -178,7 +178,8 @@ def _pynite(cond: str, L: float, a: float, xs: list[float], w: float = 0.0):
     m.add_section("sec", 1e-2, 1e-5, EI / 200e9, 1e-6)  # strong axis Iz (loads in Y)
     m.add_member("M", "N0", "N1", "steel", "sec")
     supports = {
-        "simple": ((True, True, True, True, False, False), (False, True, True, False, False, False)),
+        "simple": ((True, True, True, True, False, False),
+                   (False, True, True, False, False, False)),
         "fixed": ((True,) * 6, (True,) * 6),
         "propped": ((True,) * 6, (False, True, True, False, False, False)),
         "cantilever": ((True,) * 6, (False,) * 6),

@@ -129,7 +129,7 @@ def test_rigid_point_gives_infinite_force() -> None:
        st.floats(0.05, 1.0))
 def test_elastic_energy_balance(W: float, h: float, f: float, eta: float) -> None:
     # Gere §9.10: ηWh + Wδ = δ²/(2f) at the peak, F = δ/f
-    K, F, d = impact.impact_elastic(W, h, f, eta)
+    _K, F, d = impact.impact_elastic(W, h, f, eta)
     assert float(F) * f == pytest.approx(float(d), rel=1e-9)
     assert eta * W * h + W * float(d) == pytest.approx(float(d) ** 2 / (2 * f), rel=1e-9)
 
