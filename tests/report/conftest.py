@@ -94,17 +94,17 @@ def make_us_floor() -> Project:
     return Project(info, Settings(unit_system="US", design_basis="aisc360"), (level,), (z,))
 
 
-@pytest.fixture
+@pytest.fixture(scope="session")
 def small_level() -> Level:
     return make_small_level()
 
 
-@pytest.fixture
+@pytest.fixture(scope="session")
 def si_floor() -> Project:
     return make_si_floor()
 
 
-@pytest.fixture
+@pytest.fixture(scope="session")
 def us_floor() -> Project:
     return make_us_floor()
 
