@@ -243,10 +243,10 @@ PLAN = {
     "opening": "#FFFFFF",        # deck opening fill (drawn with a heavy outline)
     "column": "#1A1A1A",
     "zone_edge": "#0E7C66",      # lift zone outline (teal; distinct from outcomes)
-    "zone_fill": "#0E7C6622",    # ARGB: faint teal wash
+    "zone_fill": "#0E7C6622",    # #RRGGBBAA (alpha last): faint teal wash
     "crane": "#0E7C66",
     "protection_edge": "#5A4A8A",
-    "protection_fill": "#5A4A8A33",
+    "protection_fill": "#5A4A8A33",  # #RRGGBBAA
     "selection": "#E0115F",      # selected bay/member outline (vivid, thick)
     "hover": "#E0115F88",
     "handle": "#0E7C66",

@@ -1,0 +1,420 @@
+"""The open project: current :class:`Project`, file path, undo stack, selection,
+latest results, and the autosave / crash-recovery files.
+
+Widgets take a :class:`Document` and subscribe to its signals; they never keep a
+copy of the project. Every edit goes through :meth:`Document.edit`, which pushes a
+:class:`~droprig.gui.commands.ProjectEdit` (undoable).
+"""
+
+from __future__ import annotations
+
+import contextlib
+import json
+import os
+import time
+import uuid
+from dataclasses import dataclass
+from pathlib import Path
+
+from PySide6.QtCore import QLockFile, QObject, QTimer, Signal
+from PySide6.QtGui import QUndoStack
+
+from droprig.gui.commands import ProjectEdit
+from droprig.model import Level, Project, bays
+from droprig.solver.results import Results
+
+# ------------------------------------------------------------------ selection
+
+SELECTION_KINDS = ("info", "settings", "level", "deck", "opening", "member", "zone", "load",
+                   "protection", "bay")
+
+
+@dataclass(frozen=True)
+class Selection:
+    """What the user has selected, by ids (never by object, so it survives edits).
+
+    ``ids`` by kind: info/settings: (); level/deck: (level_id,);
+    opening: (level_id, index); member: (level_id, member_id); zone: (zone_id,);
+    load: (zone_id, load_name); protection: (protection_id,);
+    bay: (level_id, bay_id).
+    """
+
+    kind: str
+    ids: tuple[str, ...] = ()
+
+    def __post_init__(self) -> None:
+        if self.kind not in SELECTION_KINDS:
+            raise ValueError(f"selection kind {self.kind!r}; allowed: {SELECTION_KINDS}")
+
+
+def resolve(project: Project, sel: Selection | None) -> object | None:
+    """The model object ``sel`` points at in ``project``, or ``None`` if gone."""
+    if sel is None:
+        return None
+    try:
+        k, ids = sel.kind, sel.ids
+        if k == "info":
+            return project.info
+        if k == "settings":
+            return project.settings
+        if k == "level":
+            return project.level(ids[0])
+        if k == "deck":
+            return project.level(ids[0]).deck
+        if k == "opening":
+            return project.level(ids[0]).deck.openings[int(ids[1])]
+        if k == "member":
+            return project.level(ids[0]).member(ids[1])
+        if k == "zone":
+            return project.zone(ids[0])
+        if k == "load":
+            z = project.zone(ids[0])
+            return next(ld for ld in z.loads if ld.name == ids[1])
+        if k == "protection":
+            return next(a for a in project.protection_areas if a.id == ids[0])
+        if k == "bay":
+            return next(b for b in bays(project.level(ids[0])) if b.id == ids[1])
+    except (KeyError, IndexError, ValueError, StopIteration):
+        return None
+    return None
+
+
+def level_of(project: Project, sel: Selection | None) -> str | None:
+    """The level a selection lives on (to show it in the plan), if any."""
+    obj = resolve(project, sel)
+    if sel is None or obj is None:
+        return None
+    if sel.kind in ("level", "deck", "opening", "member", "bay"):
+        return sel.ids[0]
+    if sel.kind in ("zone", "load"):
+        return project.zone(sel.ids[0]).level_id
+    if sel.kind == "protection":
+        return obj.level_id  # type: ignore[attr-defined]
+    return None
+
+
+# ------------------------------------------------------------------ document
+
+
+class Document(QObject):
+    """One open project.
+
+    Signals: ``project_changed(Project)`` after every swap (edit, undo, redo,
+    open, new); ``results_changed(Results | None)`` when analysis results (or an
+    analysis error) arrive; ``selection_changed(Selection | None)``;
+    ``level_changed(str)`` when the level shown in the plan changes;
+    ``path_changed(Path | None)``; ``dirty_changed(bool)``.
+    """
+
+    project_changed = Signal(object)
+    results_changed = Signal(object)
+    selection_changed = Signal(object)
+    level_changed = Signal(str)
+    path_changed = Signal(object)
+    dirty_changed = Signal(bool)
+
+    def __init__(self, project: Project | None = None, path: Path | None = None,
+                 parent: QObject | None = None) -> None:
+        super().__init__(parent)
+        self._project = project if project is not None else Project()
+        self._path = Path(path) if path else None
+        self._selection: Selection | None = None
+        self._level_id = self._project.levels[0].id if self._project.levels else ""
+        self._results: Results | None = None
+        self._results_project: Project | None = None
+        self._analysis_error = ""
+        self.revision = 0
+        """Incremented on every swap (autosave writes only when it moved)."""
+        self.undo_stack = QUndoStack(self)
+        self.undo_stack.cleanChanged.connect(self._on_clean_changed)
+        self._force_dirty = False
+
+    # -------------------------------------------------------------- state
+
+    @property
+    def project(self) -> Project:
+        return self._project
+
+    @property
+    def path(self) -> Path | None:
+        return self._path
+
+    @property
+    def is_dirty(self) -> bool:
+        return self._force_dirty or not self.undo_stack.isClean()
+
+    @property
+    def title(self) -> str:
+        name = self._path.name if self._path else "untitled.droprig"
+        return name
+
+    @property
+    def selection(self) -> Selection | None:
+        return self._selection
+
+    @property
+    def level_id(self) -> str:
+        """The level shown in the plan ('' when the project has no level)."""
+        return self._level_id
+
+    @property
+    def level(self) -> Level | None:
+        try:
+            return self._project.level(self._level_id)
+        except KeyError:
+            return None
+
+    @property
+    def results(self) -> Results | None:
+        """Latest results, or ``None`` (not run yet, or the analysis failed)."""
+        return self._results
+
+    @property
+    def results_current(self) -> bool:
+        """True when :attr:`results` belong to the current project."""
+        return self._results is not None and self._results_project is self._project
+
+    @property
+    def analysis_error(self) -> str:
+        return self._analysis_error
+
+    # -------------------------------------------------------------- edits
+
+    def edit(self, after: Project, text: str) -> bool:
+        """Push an undoable swap to ``after``. Returns False (and pushes
+        nothing) if ``after`` equals the current project."""
+        if after == self._project:
+            return False
+        self.undo_stack.push(ProjectEdit(self, self._project, after, text))
+        return True
+
+    def _swap(self, project: Project) -> None:
+        """Install ``project`` (called by undo commands only)."""
+        self._project = project
+        self.revision += 1
+        if project.levels and self._level_id not in {lv.id for lv in project.levels}:
+            self._level_id = project.levels[0].id
+            self.level_changed.emit(self._level_id)
+        elif not project.levels and self._level_id:
+            self._level_id = ""
+            self.level_changed.emit("")
+        self.project_changed.emit(project)
+        if self._selection is not None and resolve(project, self._selection) is None:
+            self.select(None)
+
+    def reset(self, project: Project, path: Path | None = None, *, dirty: bool = False) -> None:
+        """Replace the whole document (open, new, recover): clears undo history."""
+        self.undo_stack.clear()
+        self._force_dirty = dirty
+        self._path = Path(path) if path else None
+        self._results = None
+        self._results_project = None
+        self._analysis_error = ""
+        self._selection = None
+        self._level_id = project.levels[0].id if project.levels else ""
+        self._swap(project)
+        self.level_changed.emit(self._level_id)
+        self.selection_changed.emit(None)
+        self.results_changed.emit(None)
+        self.path_changed.emit(self._path)
+        self.dirty_changed.emit(self.is_dirty)
+
+    # -------------------------------------------------------------- files
+
+    def open(self, path: str | Path) -> None:
+        """Load ``path``; raises ``ProjectFileError`` and leaves the document
+        unchanged if the file cannot be read."""
+        from droprig.io.project_file import load_project
+
+        project = load_project(Path(path))
+        self.reset(project, Path(path))
+
+    def save(self, path: str | Path | None = None) -> Path:
+        """Atomic save to ``path`` (default: the current path); marks clean."""
+        from droprig.io.project_file import save_project
+
+        target = Path(path) if path is not None else self._path
+        if target is None:
+            raise ValueError("no file name: use save as")
+        save_project(self._project, target)
+        changed = target != self._path
+        self._path = target
+        self._force_dirty = False
+        self.undo_stack.setClean()
+        if changed:
+            self.path_changed.emit(target)
+        self.dirty_changed.emit(False)
+        return target
+
+    def _on_clean_changed(self, clean: bool) -> None:
+        self.dirty_changed.emit(self.is_dirty)
+
+    # -------------------------------------------------------------- view state
+
+    def select(self, sel: Selection | None) -> None:
+        if sel is not None and resolve(self._project, sel) is None:
+            sel = None
+        if sel == self._selection:
+            return
+        self._selection = sel
+        lv = level_of(self._project, sel)
+        if lv and lv != self._level_id:
+            self.set_level(lv)
+        self.selection_changed.emit(sel)
+
+    def set_level(self, level_id: str) -> None:
+        if level_id == self._level_id:
+            return
+        self._project.level(level_id)  # KeyError if unknown
+        self._level_id = level_id
+        self.level_changed.emit(level_id)
+
+    def set_results(self, results: Results | None, error: str = "",
+                    project: Project | None = None) -> None:
+        """Install analysis results for ``project`` (default: the current one)."""
+        self._results = results
+        self._results_project = project if project is not None else self._project
+        self._analysis_error = error
+        self.results_changed.emit(results)
+
+
+# ------------------------------------------------------------------ autosave
+
+
+def recovery_dir(settings_dir: Path) -> Path:
+    return settings_dir / "recovery"
+
+
+@dataclass(frozen=True)
+class RecoveryCandidate:
+    """An autosave left behind by a session that did not close cleanly."""
+
+    project_file: Path
+    meta_file: Path
+    original_path: Path | None
+    saved_at: float
+
+
+class Autosaver(QObject):
+    """Writes the document to ``<settings>/recovery/<session>.droprig`` every
+    ``interval_ms`` (2 minutes) when it changed, plus a small JSON note with the
+    original file name. A lock file marks the session alive; a clean close
+    removes all three. A session that crashed leaves its autosave with a stale
+    lock, which :func:`find_recoverable` reports on the next start.
+    """
+
+    INTERVAL_MS = 120_000
+
+    def __init__(self, document: Document, settings_dir: Path,
+                 interval_ms: int = INTERVAL_MS, parent: QObject | None = None) -> None:
+        super().__init__(parent)
+        self._document = document
+        self._dir = recovery_dir(settings_dir)
+        self._session = uuid.uuid4().hex[:12]
+        self._lock: QLockFile | None = None
+        self._written_revision = -1
+        self.last_error = ""
+        self.timer = QTimer(self)
+        self.timer.setInterval(interval_ms)
+        self.timer.timeout.connect(self._on_timeout)
+        self.timer.start()
+
+    @property
+    def project_file(self) -> Path:
+        return self._dir / f"{self._session}.droprig"
+
+    @property
+    def meta_file(self) -> Path:
+        return self._dir / f"{self._session}.json"
+
+    @property
+    def lock_file(self) -> Path:
+        return self._dir / f"{self._session}.lock"
+
+    def _ensure_lock(self) -> None:
+        if self._lock is None:
+            self._dir.mkdir(parents=True, exist_ok=True)
+            self._lock = QLockFile(str(self.lock_file))
+            self._lock.setStaleLockTime(0)
+            self._lock.tryLock(0)
+
+    def _on_timeout(self) -> None:
+        self.write()
+
+    def write(self, *, force: bool = False) -> bool:
+        """Write the autosave if the document changed since the last one and has
+        unsaved changes. Returns True if a file was written."""
+        doc = self._document
+        if not force and (doc.revision == self._written_revision or not doc.is_dirty):
+            return False
+        from droprig.io.project_file import save_project
+
+        try:
+            self._ensure_lock()
+            save_project(doc.project, self.project_file, backup=False)
+            meta = {"original_path": str(doc.path) if doc.path else None,
+                    "saved_at": time.time(), "pid": os.getpid()}
+            tmp = self.meta_file.with_suffix(".json.tmp")
+            tmp.write_text(json.dumps(meta), encoding="utf-8")
+            os.replace(tmp, self.meta_file)
+        except Exception as exc:  # autosave must never take the application down
+            self.last_error = f"autosave failed: {exc}"
+            return False
+        self._written_revision = doc.revision
+        self.last_error = ""
+        return True
+
+    def discard(self) -> None:
+        """Remove this session's autosave (after a save or a clean close)."""
+        for f in (self.project_file, self.meta_file, self.project_file.with_suffix(".droprig.bak")):
+            with contextlib.suppress(FileNotFoundError):
+                f.unlink()
+        self._written_revision = -1
+
+    def close(self) -> None:
+        """Clean shutdown: stop the timer, remove the files and release the lock."""
+        self.timer.stop()
+        self.discard()
+        if self._lock is not None:
+            self._lock.unlock()
+            self._lock = None
+
+    def abandon(self) -> None:
+        """Stop without cleaning up, as a crash would (tests only)."""
+        self.timer.stop()
+        if self._lock is not None:
+            self._lock.unlock()  # a dead process's lock counts as stale anyway
+            self._lock = None
+
+
+def find_recoverable(settings_dir: Path) -> list[RecoveryCandidate]:
+    """Autosaves of sessions that are no longer running, newest first."""
+    d = recovery_dir(settings_dir)
+    out: list[RecoveryCandidate] = []
+    if not d.is_dir():
+        return out
+    for meta in d.glob("*.json"):
+        proj = meta.with_suffix(".droprig")
+        if not proj.is_file():
+            continue
+        lock = QLockFile(str(meta.with_suffix(".lock")))
+        lock.setStaleLockTime(0)  # stale only when its process is gone, never by age
+        if not lock.tryLock(0):  # held by a live session (this or another process)
+            continue
+        lock.unlock()
+        try:
+            info = json.loads(meta.read_text(encoding="utf-8"))
+            orig = info.get("original_path")
+            saved = float(info.get("saved_at", proj.stat().st_mtime))
+        except (OSError, ValueError, TypeError):
+            orig, saved = None, proj.stat().st_mtime
+        out.append(RecoveryCandidate(proj, meta, Path(orig) if orig else None, saved))
+    out.sort(key=lambda c: c.saved_at, reverse=True)
+    return out
+
+
+def discard_recoverable(c: RecoveryCandidate) -> None:
+    for f in (c.project_file, c.meta_file, c.project_file.with_suffix(".droprig.bak"),
+              c.meta_file.with_suffix(".lock")):
+        with contextlib.suppress(FileNotFoundError):
+            f.unlink()

@@ -1,0 +1,867 @@
+"""Inspector: edit every field of the selected object in the user's units.
+
+A form is a list of :class:`FieldSpec`: how to read a value from the model
+object, which unit quantity it is (``droprig.units``), and how to build the new
+object. On commit the text is parsed (``units.parse``), the new object is
+built with :func:`dataclasses.replace` (the model validates), the new project is
+pushed to the undo stack. Anything refused — unreadable text, a value outside
+the model's range — shows a message naming the field and the allowed range in
+the user's units, and the project stays exactly as it was.
+"""
+
+from __future__ import annotations
+
+import itertools
+import re
+from collections.abc import Callable
+from dataclasses import dataclass, field, replace
+from typing import Any
+
+from PySide6.QtCore import Qt, Signal
+from PySide6.QtGui import QAction
+from PySide6.QtWidgets import (
+    QCheckBox,
+    QComboBox,
+    QCompleter,
+    QDialog,
+    QDialogButtonBox,
+    QFormLayout,
+    QFrame,
+    QLabel,
+    QLineEdit,
+    QPlainTextEdit,
+    QPushButton,
+    QScrollArea,
+    QSizePolicy,
+    QVBoxLayout,
+    QWidget,
+)
+
+from droprig import units
+from droprig.gui import commands as ed
+from droprig.gui import style
+from droprig.gui.document import Document, Selection, resolve
+from droprig.model import (
+    END_CONDITIONS,
+    Deck,
+    Level,
+    LiftLoad,
+    LiftZone,
+    Member,
+    ModelError,
+    Project,
+    ProtectionArea,
+    Rect,
+)
+
+# ------------------------------------------------------------------ messages
+
+_SI_UNIT_QUANTITY = {"m": "length", "kg": "mass", "N": "force", "Pa": "stress",
+                     "N/m": "stiffness", "rad": "angle"}
+_NUM_UNIT = re.compile(
+    r"(?<![\w.])(-?\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)\s?(N/m|kg|Pa|rad|N|m)(?![\w²/])")
+
+
+def _quantity_for(si_unit: str, hint: str | None) -> str | None:
+    if hint and units.QUANTITIES.get(hint, ("",))[0] == si_unit.replace("²", "**2"):
+        return hint
+    return _SI_UNIT_QUANTITY.get(si_unit)
+
+
+def _in_user_units(text: str, system: units.UnitSystem, hint: str | None) -> str:
+    """Re-express every "<number> <SI unit>" in ``text`` in the user's units."""
+    def sub(m: re.Match[str]) -> str:
+        q = _quantity_for(m.group(2), hint)
+        if q is None:
+            return m.group(0)
+        return units.fmt(float(m.group(1)), q, system).replace(",", "")
+    return _NUM_UNIT.sub(sub, text)
+
+
+def describe_refusal(exc: Exception, label: str, system: units.UnitSystem,
+                     quantity: str | None = None) -> str:
+    """A one-paragraph message for a refused input, in the user's units."""
+    if isinstance(exc, ModelError):
+        value = exc.value
+        q = _quantity_for(exc.unit, quantity) if exc.unit else None
+        if q is not None and isinstance(value, int | float) and not isinstance(value, bool):
+            shown = units.fmt(float(value), q, system).replace(",", "")
+        elif isinstance(value, float):
+            shown = f"{value:g}"
+        else:
+            shown = repr(value)
+        allowed = _in_user_units(exc.allowed, system, quantity)
+        where = f" ({exc.field})" if exc.field else ""
+        return f"{label}: {shown} refused{where}. Allowed: {allowed}. Nothing was changed."
+    text = str(exc)
+    return f"{text}. Nothing was changed." if not text.endswith(".") else \
+        f"{text} Nothing was changed."
+
+
+def _edit_text(value: float | None, quantity: str, system: units.UnitSystem) -> str:
+    """Text for an input box: the display value without thousands separators."""
+    if value is None:
+        return ""
+    return units.fmt(value, quantity, system).replace(",", "")
+
+
+# ------------------------------------------------------------------ field specs
+
+Getter = Callable[[Any], Any]
+Setter = Callable[[Any, Any], Any]
+
+
+@dataclass(frozen=True)
+class FieldSpec:
+    """One row of a form.
+
+    kind: ``quantity`` (unit-aware number), ``optional`` (a quantity that may be
+    empty), ``text``, ``longtext``, ``choice`` (``choices`` = (value, label)
+    pairs), ``bool``, ``section`` (library search), ``readonly``.
+    ``get`` reads the value from the model object; ``set`` returns a new object
+    with the value (the model validates and may raise ModelError). For
+    ``readonly`` rows ``get`` returns display text.
+    """
+
+    key: str
+    label: str
+    kind: str
+    get: Getter
+    set: Setter | None = None
+    quantity: str = ""
+    choices: tuple[tuple[str, str], ...] = ()
+    tip: str = ""
+
+
+@dataclass
+class Form:
+    """A titled list of fields for one selected object and how to put the edited
+    object back into the project."""
+
+    title: str
+    subtitle: str
+    obj: Any
+    fields: list[FieldSpec]
+    commit: Callable[[Project, Any], Project] | None
+    notes: list[str] = field(default_factory=list)
+    buttons: list[str] = field(default_factory=list)
+    """Names of actions (``Inspector.actions``) offered as buttons."""
+
+    @property
+    def signature(self) -> tuple:
+        return (self.title, tuple((f.key, f.kind, f.choices) for f in self.fields),
+                tuple(self.buttons))
+
+
+def _q(key: str, label: str, quantity: str, tip: str = "") -> FieldSpec:
+    return FieldSpec(key, label, "quantity", lambda o: getattr(o, key),
+                     lambda o, v: replace(o, **{key: v}), quantity=quantity, tip=tip)
+
+
+def _t(key: str, label: str, kind: str = "text") -> FieldSpec:
+    return FieldSpec(key, label, kind, lambda o: getattr(o, key),
+                     lambda o, v: replace(o, **{key: v}))
+
+
+def _ro(key: str, label: str, get: Getter) -> FieldSpec:
+    return FieldSpec(key, label, "readonly", get)
+
+
+def _choice(key: str, label: str, choices: tuple[tuple[str, str], ...],
+            set_: Setter | None = None) -> FieldSpec:
+    return FieldSpec(key, label, "choice", lambda o: getattr(o, key),
+                     set_ or (lambda o, v: replace(o, **{key: v})), choices=choices)
+
+
+def _rect_fields(prefix: str, get_rect: Getter, set_rect: Setter) -> list[FieldSpec]:
+    out = []
+    for k, lab in (("x0", "West edge x"), ("y0", "South edge y"), ("x1", "East edge x"),
+                   ("y1", "North edge y")):
+        out.append(FieldSpec(
+            f"{prefix}{k}", lab, "quantity",
+            (lambda o, k=k: getattr(get_rect(o), k)),
+            (lambda o, v, k=k: set_rect(o, replace(get_rect(o), **{k: v}))),
+            quantity="length"))
+    return out
+
+
+def _spacings(lines: tuple[float, ...], system: units.UnitSystem) -> str:
+    gaps = [b - a for a, b in itertools.pairwise(lines)]
+    return ", ".join(units.fmt(g, "length", system, decimals=2) for g in gaps)
+
+
+# ------------------------------------------------------------------ forms per kind
+
+
+def build_form(project: Project, sel: Selection | None) -> Form | None:
+    """The form for ``sel`` in ``project`` (None: nothing selected / gone)."""
+    obj = resolve(project, sel)
+    if sel is None or obj is None:
+        return None
+    system = project.settings.unit_system
+    k, ids = sel.kind, sel.ids
+    level_choices = tuple((lv.id, f"{lv.name} ({lv.id})") for lv in project.levels)
+
+    if k == "info":
+        return Form("Project", "Title block of the permit annex", obj, [
+            _t("name", "Project name"), _t("site", "Site"),
+            _t("lift_reference", "Lift reference"), _t("revision", "Revision"),
+            _t("date", "Date"), _t("prepared_by", "Prepared by"),
+            _t("checked_by", "Checked by"), _t("approved_by", "Approved by"),
+            _t("description", "Description", "longtext"),
+        ], lambda p, o: ed.with_info(p, o))
+
+    if k == "settings":
+        return Form("Analysis settings", "Change them in the settings dialog", obj, [
+            _ro("u", "Units", lambda o: o.unit_system),
+            _ro("b", "Design basis", lambda o: o.design_basis),
+            _ro("phi", "Resistance factor φ", lambda o: f"{o.resistance_factor:.2f}"),
+            _ro("dif", "Dynamic increase factor", lambda o: f"{o.dynamic_increase_factor:.2f}"),
+            _ro("res", "Drop-point spacing",
+                lambda o: units.fmt(o.grid_resolution, "length", system)),
+        ], None, buttons=["settings"])
+
+    if k == "level":
+        lv: Level = obj
+        return Form(f"Level {lv.name}", f"id {lv.id} · {len(lv.members)} members", obj, [
+            _t("name", "Name"),
+            _q("elevation", "Top of deck elevation", "length"),
+            _q("superimposed_dead", "Superimposed dead load", "pressure",
+               "Finishes, services, ceilings: carried by the framing during the lift"),
+            _q("live_in_place", "Live load left in place", "pressure",
+               "Occupancy or stored material that stays on the floor during the lift"),
+            _ro("gx", "Grid spacings along x", lambda o: _spacings(o.grid.x_lines, system)),
+            _ro("gy", "Grid spacings along y", lambda o: _spacings(o.grid.y_lines, system)),
+            _ro("gl", "Grid labels", lambda o: f"{', '.join(o.grid.x_labels)} / "
+                                                f"{', '.join(o.grid.y_labels)}"),
+        ], lambda p, o: ed.with_level(p, ids[0], o), buttons=["generate", "add_opening"])
+
+    if k == "deck":
+        dk: Deck = obj
+
+        def set_conc(o: Deck, key: str, v: float) -> Deck:
+            return replace(o, concrete=replace(o.concrete, **{key: v}))
+
+        return Form("Deck", f"on level {ids[0]} · {len(dk.openings)} openings", obj, [
+            _choice("kind", "Deck type", (("composite", "Composite metal deck"),
+                                          ("solid_slab", "Solid slab"))),
+            _q("thickness", "Total thickness", "small_length"),
+            _q("cover", "Cover to bottom bars", "small_length"),
+            FieldSpec("rebar_area", "Bottom bars per metre width", "quantity",
+                      lambda o: o.rebar_area, lambda o, v: replace(o, rebar_area=v),
+                      quantity="area", tip="Area of bottom reinforcement in one metre "
+                                          "strip of slab"),
+            FieldSpec("fc", "Concrete strength f'c / fck", "quantity",
+                      lambda o: o.concrete.fc, lambda o, v: set_conc(o, "fc", v),
+                      quantity="stress"),
+            FieldSpec("fy_rebar", "Rebar yield strength", "quantity",
+                      lambda o: o.concrete.fy_rebar, lambda o, v: set_conc(o, "fy_rebar", v),
+                      quantity="stress"),
+        ], lambda p, o: ed.with_deck(p, ids[0], o), buttons=["add_opening"])
+
+    if k == "opening":
+        idx = int(ids[1])
+        return opening_form(obj, ids[0], idx,
+                            lambda p, o: ed.with_opening(p, ids[0], idx, o))
+
+    if k == "member":
+        m: Member = obj
+        sec = m.section
+        return Form(f"{m.role.capitalize()} {m.id}", f"level {ids[0]} · span "
+                    f"{units.fmt(m.span, 'length', system)}", obj, [
+            FieldSpec("section", "Section", "section", lambda o: o.section.name,
+                      lambda o, v: replace(o, section=v),
+                      tip="Type to search the section library (W, IPE, HEA, HEB, HEM)"),
+            FieldSpec("grade", "Steel grade", "choice", lambda o: o.grade.name,
+                      lambda o, v: replace(o, grade=_grade(v)),
+                      choices=tuple((g, g) for g in _grade_names(m.grade.name))),
+            _choice("end_condition", "End conditions",
+                    tuple((c, _END_LABELS.get(c, c)) for c in END_CONDITIONS)),
+            _ro("ends", "From → to", lambda o: f"({units.fmt(o.start[0], 'length', system)}, "
+                f"{units.fmt(o.start[1], 'length', system)}) → "
+                f"({units.fmt(o.end[0], 'length', system)}, "
+                f"{units.fmt(o.end[1], 'length', system)})"),
+            _ro("props", "Section properties",
+                lambda o: f"d {units.fmt(sec.d, 'small_length', system)} · "
+                          f"Ix {units.fmt(sec.Ix, 'inertia', system)} · "
+                          f"Zx {units.fmt(sec.Zx, 'modulus', system)} · "
+                          f"{units.fmt(sec.mass_per_length, 'mass_per_length', system)}"),
+            _ro("fy", "Yield strength used",
+                lambda o: units.fmt(o.grade.section_fy(o.section), "stress", system)),
+        ], lambda p, o: ed.with_member(p, ids[0], m.id, o), buttons=["apply_like"])
+
+    if k == "zone":
+        z: LiftZone = obj
+        return Form(f"Lift zone {z.id}", f"{len(z.loads)} load(s) · crane at "
+                    f"({units.fmt(z.crane[0], 'length', system)}, "
+                    f"{units.fmt(z.crane[1], 'length', system)})", obj, [
+            _t("name", "Name"),
+            _choice("level_id", "Level", level_choices),
+            FieldSpec("cx", "Crane centre x", "quantity", lambda o: o.crane[0],
+                      lambda o, v: replace(o, crane=(v, o.crane[1])), quantity="length"),
+            FieldSpec("cy", "Crane centre y", "quantity", lambda o: o.crane[1],
+                      lambda o, v: replace(o, crane=(o.crane[0], v)), quantity="length"),
+            _q("r_min", "Inner radius", "length", "Closest the load comes to the crane centre"),
+            _q("r_max", "Outer radius", "length", "Farthest the load goes from the crane centre"),
+            _q("slew_start", "Slew from (anticlockwise, from east)", "angle"),
+            _q("slew_end", "Slew to", "angle", "Same as 'from' (or 360° apart) for a full "
+                                              "circle"),
+            _q("drift_margin", "Load swing margin", "length",
+               "The region is widened by this much for load swing"),
+            _ro("corridor", "Corridor", lambda o: f"{len(o.corridor)}-point polygon"
+                if o.corridor else "none (whole sector)"),
+        ], lambda p, o: ed.with_zone(p, z.id, o), buttons=["add_load", "delete"])
+
+    if k == "load":
+        ld: LiftLoad = obj
+        zone = project.zone(ids[0])
+        elev = project.level(zone.level_id).elevation
+
+        def set_mode(o: LiftLoad, v: str) -> LiftLoad:
+            if v == "drop" and o.drop_height is None:
+                return replace(o, drop_height=o.height_above(elev), hook_elevation=None)
+            if v == "hook" and o.hook_elevation is None:
+                return replace(o, hook_elevation=elev + o.hang_length + (o.drop_height or 0.0),
+                               drop_height=None)
+            return o
+
+        fields = [
+            _t("name", "Name"),
+            _choice("kind", "Kind", (("load", "Lifted load"), ("rigging", "Rigging item"))),
+            _q("mass", "Mass", "mass"),
+            _q("footprint_length", "Footprint length", "length",
+               "Plan size of the load's underside"),
+            _q("footprint_width", "Footprint width", "length"),
+            FieldSpec("mode", "Height given as", "choice",
+                      lambda o: "drop" if o.drop_height is not None else "hook", set_mode,
+                      choices=(("drop", "Drop height above the deck"),
+                               ("hook", "Hook elevation"))),
+        ]
+        if ld.drop_height is not None:
+            fields.append(_q("drop_height", "Drop height", "length",
+                             "Free fall from the load's underside to the deck or mat top"))
+        else:
+            fields += [_q("hook_elevation", "Hook elevation", "length",
+                          "Same datum as level elevations"),
+                       _q("hang_length", "Hook to load underside", "length"),
+                       _ro("h", "Drop height onto deck",
+                           lambda o: _safe(lambda: units.fmt(o.height_above(elev), "length",
+                                                             system)))]
+        return Form(f"Load {ld.name}", f"in lift zone {zone.id} "
+                    f"({zone.name or 'unnamed'})", obj, fields,
+                    lambda p, o: ed.with_load(p, zone.id, ld.name, o), buttons=["delete"])
+
+    if k == "protection":
+        a: ProtectionArea = obj
+        return protection_form(a, project, lambda p, o: ed.with_protection(p, a.id, o))
+
+    if k == "bay":
+        return Form(f"Bay {ids[1]}", f"on level {ids[0]}", obj, [
+            _ro("size", "Size", lambda o: f"{units.fmt(o.rect.width, 'length', system)} × "
+                                          f"{units.fmt(o.rect.height, 'length', system)}"),
+        ], None, notes=[])
+    return None
+
+
+def protection_form(a: ProtectionArea, project: Project,
+                    commit: Callable[[Project, Any], Project] | None) -> Form:
+    """Form of a protection area (also used by the new-protection dialog)."""
+    level_choices = tuple((lv.id, f"{lv.name} ({lv.id})") for lv in project.levels)
+
+    def set_kind(o: ProtectionArea, v: str) -> ProtectionArea:
+        if v == "crushable":
+            return replace(o, kind=v, crush_force=o.crush_force or 200e3,
+                           crush_stroke=o.crush_stroke or 0.05)
+        return replace(o, kind=v, stiffness=o.stiffness or 50e6)
+
+    fields = [
+        _t("name", "Name"),
+        _choice("level_id", "Level", level_choices),
+        *_rect_fields("", lambda o: o.area, lambda o, r: replace(o, area=r)),
+        _choice("kind", "Mat behaviour", (("spring", "Elastic mat (spring)"),
+                                         ("crushable", "Crushable layer")), set_kind),
+        _q("thickness", "Thickness", "small_length",
+           "Raises the struck surface and spreads the load at 1:1"),
+    ]
+    if a.kind == "spring":
+        fields.append(_q("stiffness", "Mat stiffness", "stiffness",
+                         "Under the load's footprint"))
+    else:
+        fields += [_q("crush_force", "Crush force", "force",
+                      "Constant force while the layer crushes"),
+                   _q("crush_stroke", "Crush stroke", "small_length",
+                      "Depth the layer can crush before it bottoms out")]
+    return Form(f"Protection {a.id}", f"on level {a.level_id}", a, fields, commit,
+                buttons=["delete"] if commit else [])
+
+
+def opening_form(r: Rect, level_id: str, index: int | None,
+                 commit: Callable[[Project, Any], Project] | None) -> Form:
+    """Form of a deck opening (also used by the new-opening dialog)."""
+    title = "New deck opening" if index is None else f"Deck opening {index + 1}"
+    return Form(title, f"on level {level_id}: a load over it falls through", r,
+                _rect_fields("", lambda o: o, lambda o, new: new), commit,
+                buttons=["delete"] if commit else [])
+
+
+_END_LABELS = {"simple": "Simple (pinned both ends)", "fixed": "Fixed both ends",
+               "propped": "Fixed at start, pinned at end",
+               "cantilever": "Cantilever (fixed at start)"}
+
+
+def _safe(fn: Callable[[], str]) -> str:
+    try:
+        return fn()
+    except (ModelError, ValueError) as exc:
+        return f"— {exc}"
+
+
+def _grade_names(current: str) -> list[str]:
+    from droprig.io.sections import list_grades
+
+    names = list_grades()
+    return names if current in names else [current, *names]
+
+
+def _grade(name: str):
+    from droprig.io.sections import get_grade
+
+    return get_grade(name)
+
+
+def _section(name: str):
+    from droprig.io.sections import get_section
+
+    return get_section(name)
+
+
+# ------------------------------------------------------------------ widgets
+
+
+class _LongText(QPlainTextEdit):
+    """Multi-line text that commits when it loses focus."""
+
+    editingFinished = Signal()
+
+    def focusOutEvent(self, e: Any) -> None:
+        super().focusOutEvent(e)
+        self.editingFinished.emit()
+
+
+class FormEditor(QWidget):
+    """Input widgets for a :class:`Form` plus a message line for refusals.
+
+    ``apply(spec, new_obj)`` puts an edited object back (into the document, or
+    into a dialog's working copy); it may raise ModelError / ValueError, which
+    is shown as a refusal. Subclasses or owners set :attr:`apply`.
+    """
+
+    refused = Signal(str)
+
+    def __init__(self, system: Callable[[], units.UnitSystem],
+                 apply: Callable[[FieldSpec, Any], None],
+                 parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self._system_fn = system
+        self.apply = apply
+        self.form: Form | None = None
+        self._editors: dict[str, QWidget] = {}
+        self._signature: tuple | None = None
+        self._message = QLabel()
+        self._message.setObjectName("formMessage")
+        self._message.setWordWrap(True)
+        self._message.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+        self._message.setStyleSheet(
+            "background: #FBE9EC; color: #6B0F24; border: 1px solid #C98292;"
+            "border-radius: 3px; padding: 4px;")
+        self._message.hide()
+        self._layout = QFormLayout()
+        self._layout.setFieldGrowthPolicy(QFormLayout.FieldGrowthPolicy.AllNonFixedFieldsGrow)
+        self._layout.setRowWrapPolicy(QFormLayout.RowWrapPolicy.WrapLongRows)
+        v = QVBoxLayout(self)
+        v.setContentsMargins(0, 0, 0, 0)
+        v.addWidget(self._message)
+        v.addLayout(self._layout)
+
+    # -------------------------------------------------------------- public
+
+    @property
+    def message(self) -> str:
+        return self._message.text()
+
+    def editor(self, key: str) -> QWidget:
+        return self._editors[key]
+
+    def set_form(self, form: Form | None) -> None:
+        """Show ``form`` (re-using the widgets when the layout is the same)."""
+        self.form = form
+        if form is None:
+            self._signature = None
+            self._clear()
+            return
+        sig = (*form.signature, self._system_fn())
+        if sig != self._signature:
+            self._clear()
+            for spec in form.fields:
+                w = self._make_editor(spec)
+                lab = QLabel(spec.label)
+                if spec.tip:
+                    lab.setToolTip(spec.tip)
+                    w.setToolTip(spec.tip)
+                self._layout.addRow(lab, w)
+                self._editors[spec.key] = w
+            self._signature = sig
+        for spec in form.fields:
+            self._load_value(spec, self._editors[spec.key], form.obj)
+
+    def clear_message(self) -> None:
+        self._message.clear()
+        self._message.hide()
+
+    # -------------------------------------------------------------- building
+
+    def _clear(self) -> None:
+        while self._layout.rowCount():
+            self._layout.removeRow(0)
+        self._editors.clear()
+
+    def _make_editor(self, spec: FieldSpec) -> QWidget:
+        system = self._system_fn()
+        if spec.kind in ("quantity", "text", "section"):
+            w = QLineEdit()
+            if spec.kind == "quantity":
+                unit = units.display_unit(spec.quantity, system)
+                w.setPlaceholderText(f"e.g. 12 {unit}" if unit else "e.g. 1.0")
+            if spec.kind == "section":
+                from droprig.io.sections import list_sections
+
+                comp = QCompleter(list_sections(), w)
+                comp.setCaseSensitivity(Qt.CaseSensitivity.CaseInsensitive)
+                comp.setFilterMode(Qt.MatchFlag.MatchContains)
+                comp.setMaxVisibleItems(15)
+                w.setCompleter(comp)
+                comp.activated.connect(lambda _t, s=spec, w=w: self._commit_text(s, w))
+            w.editingFinished.connect(lambda s=spec, w=w: self._commit_text(s, w))
+            return w
+        if spec.kind == "longtext":
+            w = _LongText()
+            w.setFixedHeight(80)
+            w.editingFinished.connect(lambda s=spec, w=w: self._commit_text(s, w))
+            return w
+        if spec.kind == "choice":
+            w = QComboBox()
+            for value, label in spec.choices:
+                w.addItem(label, value)
+            w.activated.connect(lambda _i, s=spec, w=w: self.commit_value(s, w.currentData()))
+            return w
+        if spec.kind == "bool":
+            w = QCheckBox()
+            w.toggled.connect(lambda on, s=spec: self.commit_value(s, bool(on)))
+            return w
+        w = QLabel()
+        w.setWordWrap(True)
+        w.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+        w.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Preferred)
+        return w
+
+    def _load_value(self, spec: FieldSpec, w: QWidget, obj: Any) -> None:
+        v = spec.get(obj)
+        if isinstance(w, QLineEdit):
+            text = _edit_text(v, spec.quantity, self._system_fn()) \
+                if spec.kind == "quantity" else str(v)
+            if w.text() != text:
+                w.setText(text)
+                w.setCursorPosition(0)
+        elif isinstance(w, _LongText):
+            if w.toPlainText() != str(v):
+                w.setPlainText(str(v))
+        elif isinstance(w, QComboBox):
+            w.blockSignals(True)
+            w.setCurrentIndex(w.findData(v))
+            w.blockSignals(False)
+        elif isinstance(w, QCheckBox):
+            w.blockSignals(True)
+            w.setChecked(bool(v))
+            w.blockSignals(False)
+        elif isinstance(w, QLabel):
+            w.setText(str(v))
+
+    # -------------------------------------------------------------- commits
+
+    def _commit_text(self, spec: FieldSpec, w: QWidget) -> None:
+        form = self.form
+        if form is None or self._editors.get(spec.key) is not w:
+            return
+        text = w.toPlainText() if isinstance(w, _LongText) else w.text()  # type: ignore[attr-defined]
+        current = spec.get(form.obj)
+        system = self._system_fn()
+        if spec.kind == "quantity":
+            if text.strip() == _edit_text(current, spec.quantity, system):
+                return  # display text unchanged: keep the stored value unrounded
+            try:
+                value: Any = units.parse(text, spec.quantity, system, field=spec.label)
+            except units.UnitError as exc:
+                self.refuse(describe_refusal(exc, spec.label, system, spec.quantity), spec)
+                return
+        elif spec.kind == "section":
+            if text.strip() == current:
+                return
+            try:
+                value = _section(text)
+            except ValueError as exc:
+                self.refuse(f"Section: {exc}. Nothing was changed.", spec)
+                return
+        else:
+            if text == current:
+                return
+            value = text
+        self.commit_value(spec, value)
+
+    def commit_value(self, spec: FieldSpec, value: Any) -> None:
+        """Build the edited object and hand it to :attr:`apply`; refuse on error."""
+        form = self.form
+        if form is None or spec.set is None:
+            return
+        system = self._system_fn()
+        try:
+            new_obj = spec.set(form.obj, value)
+            if new_obj == form.obj:
+                self.clear_message()
+                return
+            self.apply(spec, new_obj)
+        except (ModelError, ValueError) as exc:
+            self.refuse(describe_refusal(exc, spec.label, system, spec.quantity or None), spec)
+            return
+        self.clear_message()
+
+    def refuse(self, message: str, spec: FieldSpec | None = None) -> None:
+        self._message.setText(message)
+        self._message.show()
+        self.refused.emit(message)
+        if self.form is not None and spec is not None and spec.key in self._editors:
+            self._load_value(spec, self._editors[spec.key], self.form.obj)
+
+
+class FormDialog(QDialog):
+    """Edit a new object before it is added (protection area, deck opening).
+
+    ``make_form(obj)`` returns the :class:`Form` for the working copy; every
+    field edit is validated at once; OK returns with :meth:`value`.
+    """
+
+    def __init__(self, title: str, obj: Any, make_form: Callable[[Any], Form],
+                 system: units.UnitSystem, intro: str = "",
+                 parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.setWindowTitle(title)
+        self._obj = obj
+        self._make_form = make_form
+        self.editor = FormEditor(lambda: system, self._apply, self)
+        lay = QVBoxLayout(self)
+        if intro:
+            lab = QLabel(intro)
+            lab.setWordWrap(True)
+            lay.addWidget(lab)
+        lay.addWidget(self.editor)
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Ok
+                                   | QDialogButtonBox.StandardButton.Cancel)
+        buttons.accepted.connect(self.accept)
+        buttons.rejected.connect(self.reject)
+        lay.addWidget(buttons)
+        self.setMinimumWidth(420)
+        self.editor.set_form(make_form(obj))
+
+    def _apply(self, spec: FieldSpec, new_obj: Any) -> None:
+        self._obj = new_obj
+        self.editor.set_form(self._make_form(new_obj))
+
+    def value(self) -> Any:
+        return self._obj
+
+
+class Inspector(QWidget):
+    """Form for ``document.selection``. ``actions`` maps names used in
+    :attr:`Form.buttons` (``settings``, ``generate``, ``add_opening``,
+    ``apply_like``, ``add_load``, ``delete``) to the window's QActions."""
+
+    refused = Signal(str)
+    """Emitted with the message when an input is refused."""
+
+    def __init__(self, document: Document, actions: dict[str, QAction] | None = None,
+                 parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self._doc = document
+        self._actions = actions or {}
+        self._buttons_sig: tuple = ()
+
+        self._title = QLabel()
+        self._title.setObjectName("inspectorTitle")
+        self._title.setStyleSheet("font-size: 14px; font-weight: 600;")
+        self._subtitle = QLabel()
+        self._subtitle.setWordWrap(True)
+        self._subtitle.setStyleSheet("color: #555;")
+        self.form_editor = FormEditor(self._system, self._apply)
+        self.form_editor.refused.connect(self.refused)
+        self._extra = QLabel()
+        self._extra.setWordWrap(True)
+        self._extra.setTextFormat(Qt.TextFormat.RichText)
+        self._buttons = QWidget()
+        self._buttons_layout = QVBoxLayout(self._buttons)
+        self._buttons_layout.setContentsMargins(0, 4, 0, 0)
+        self._empty = QLabel("Select something in the project tree, the plan or the "
+                             "results table to see and edit it here.")
+        self._empty.setWordWrap(True)
+        self._empty.setStyleSheet("color: #666;")
+
+        inner = QWidget()
+        v = QVBoxLayout(inner)
+        for w in (self._title, self._subtitle, self.form_editor, self._buttons, self._extra,
+                  self._empty):
+            v.addWidget(w)
+        v.addStretch(1)
+        scroll = QScrollArea()
+        scroll.setWidgetResizable(True)
+        scroll.setFrameShape(QFrame.Shape.NoFrame)
+        scroll.setWidget(inner)
+        outer = QVBoxLayout(self)
+        outer.setContentsMargins(0, 0, 0, 0)
+        outer.addWidget(scroll)
+
+        document.selection_changed.connect(self._on_selection_changed)
+        document.project_changed.connect(self._on_project_changed)
+        document.results_changed.connect(self._on_results_changed)
+        self._rebuild()
+
+    # -------------------------------------------------------------- public (tests, window)
+
+    @property
+    def form(self) -> Form | None:
+        return self.form_editor.form
+
+    def editor(self, key: str) -> QWidget:
+        """The input widget of field ``key`` of the current form."""
+        return self.form_editor.editor(key)
+
+    @property
+    def message(self) -> str:
+        return self.form_editor.message
+
+    # -------------------------------------------------------------- document events
+
+    def _on_selection_changed(self, sel: Selection | None) -> None:
+        self.form_editor.clear_message()
+        self._rebuild()
+
+    def _on_project_changed(self, project: Project) -> None:
+        self._rebuild()
+
+    def _on_results_changed(self, results: object) -> None:
+        self._refresh_extra()
+
+    # -------------------------------------------------------------- building
+
+    def _system(self) -> units.UnitSystem:
+        return self._doc.project.settings.unit_system
+
+    def _rebuild(self) -> None:
+        form = build_form(self._doc.project, self._doc.selection)
+        self._empty.setVisible(form is None)
+        for w in (self._title, self._subtitle, self.form_editor, self._buttons):
+            w.setVisible(form is not None)
+        self.form_editor.set_form(form)
+        if form is not None:
+            self._title.setText(form.title)
+            self._subtitle.setText(form.subtitle)
+            if tuple(form.buttons) != self._buttons_sig:
+                self._make_buttons(form)
+        else:
+            self._make_buttons(None)
+        self._refresh_extra()
+
+    def _make_buttons(self, form: Form | None) -> None:
+        while self._buttons_layout.count():
+            item = self._buttons_layout.takeAt(0)
+            if item.widget():
+                item.widget().deleteLater()
+        self._buttons_sig = tuple(form.buttons) if form else ()
+        for name in self._buttons_sig:
+            act = self._actions.get(name)
+            if act is None:
+                continue
+            b = QPushButton(act.text().replace("&", ""))
+            b.setToolTip(act.toolTip())
+            b.clicked.connect(act.trigger)
+            self._buttons_layout.addWidget(b)
+
+    # -------------------------------------------------------------- commits
+
+    def _apply(self, spec: FieldSpec, new_obj: Any) -> None:
+        form = self.form
+        if form is None or form.commit is None:
+            return
+        after = form.commit(self._doc.project, new_obj)  # may raise ModelError
+        self._doc.edit(after, f"{form.title}: {spec.label.lower()}")
+        sel = self._doc.selection
+        if sel is not None and sel.kind == "load" and spec.key == "name":
+            self._doc.select(Selection("load", (sel.ids[0], new_obj.name)))
+
+    # -------------------------------------------------------------- results details
+
+    def _refresh_extra(self) -> None:
+        sel = self._doc.selection
+        res = self._doc.results
+        if sel is None or sel.kind not in ("bay", "zone", "load"):
+            self._extra.setText("")
+            self._extra.setVisible(False)
+            return
+        system = self._system()
+        rows = []
+        if res is not None:
+            for b in res.bays:
+                if sel.kind == "bay" and (b.level_id, b.bay_id) != sel.ids:
+                    continue
+                if sel.kind == "zone" and b.zone_id != sel.ids[0]:
+                    continue
+                if sel.kind == "load" and (b.zone_id, b.load_name) != sel.ids:
+                    continue
+                rows.append(b)
+        if not rows:
+            msg = ("No results yet." if res is None else
+                   "No drop point of any lift zone falls in this bay.") \
+                if sel.kind == "bay" else ""
+            if self._doc.analysis_error:
+                msg = f"Analysis failed: {self._doc.analysis_error}"
+            self._extra.setText(f"<p>{msg}</p>" if msg else "")
+            self._extra.setVisible(bool(msg))
+            return
+        if sel.kind in ("zone", "load"):
+            counts: dict[str, int] = {}
+            for b in rows:
+                counts[b.response] = counts.get(b.response, 0) + 1
+            parts = []
+            for key in reversed(style.OUTCOME_ORDER):
+                if counts.get(key):
+                    st = style.outcome(key)
+                    parts.append(f"{_chip(st)} {counts[key]} bay(s): {st.label.lower()}")
+            html = "<p><b>Outcome by bay</b><br>" + "<br>".join(parts) + "</p>"
+        else:
+            html = "<p><b>Outcome in this bay</b></p>"
+            order = {k: i for i, k in enumerate(style.OUTCOME_ORDER)}
+            for b in sorted(rows, key=lambda r: -order.get(r.response, -1)):
+                st = style.outcome(b.response)
+                allow = units.fmt(b.allowable_drop_height, "length", system)
+                html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
+                         f"{b.load_name}<br>max utilisation {b.max_utilisation:.0%}; "
+                         f"allowable drop {allow}<br>governing: {b.governing_member} "
+                         f"({b.governing_check.replace('_', ' ')})<br><i>{b.advice}</i></p>")
+        html += f"<p style='color:#6B4E00'>⚠ {style.CAUTION_SHORT}.</p>"
+        self._extra.setText(html)
+        self._extra.setVisible(True)
+
+
+def _chip(st: style.OutcomeStyle) -> str:
+    return (f"<span style='background:{st.fill}; color:{st.ink}; "
+            f"border:1px solid {st.edge}'>&nbsp;{st.tag}&nbsp;</span>")
+
+
+__all__ = ["FieldSpec", "Form", "Inspector", "build_form", "describe_refusal"]

@@ -1,0 +1,911 @@
+"""The droprig main window: plan in the middle, project tree on the left,
+inspector on the right, results by bay and the calculation trace below.
+
+The window owns the document (project + undo stack + selection + results), the
+analysis runner and the autosaver; every panel takes the document and listens
+to it. Menus hold the file, edit, framing and lift actions with the standard
+shortcuts.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import math
+from dataclasses import replace
+from pathlib import Path
+
+from PySide6.QtCore import QByteArray, QSettings, Qt, QTimer
+from PySide6.QtGui import QAction, QCloseEvent, QKeySequence
+from PySide6.QtWidgets import (
+    QComboBox,
+    QDockWidget,
+    QFileDialog,
+    QHBoxLayout,
+    QLabel,
+    QMainWindow,
+    QMessageBox,
+    QProgressBar,
+    QToolButton,
+    QVBoxLayout,
+    QWidget,
+)
+
+from droprig import __version__
+from droprig.cli import CAUTION
+from droprig.gui import commands as ed
+from droprig.gui import style
+from droprig.gui.analysis_runner import AnalyseFn, AnalysisRunner
+from droprig.gui.document import (
+    Autosaver,
+    Document,
+    Selection,
+    discard_recoverable,
+    find_recoverable,
+)
+from droprig.gui.inspector import FormDialog, Inspector, opening_form, protection_form
+from droprig.gui.project_tree import ProjectTree
+from droprig.gui.results_table import ResultsTable
+from droprig.gui.settings_dialog import SettingsDialog
+from droprig.model import (
+    LiftLoad,
+    LiftZone,
+    ModelError,
+    Project,
+    ProtectionArea,
+    Rect,
+    bays,
+)
+from droprig.solver.results import Results
+
+FILE_FILTER = "droprig projects (*.droprig);;All files (*)"
+MAX_RECENT = 8
+BASIS_LABELS = {"en1993": "EN 1993-1-1", "aisc360": "AISC 360-16"}
+UNIT_LABELS = {"SI": "SI (m · kN · kg · MPa)", "US": "US (ft · kip · lb · ksi)"}
+
+
+def _describe(exc: BaseException) -> str:
+    from droprig.commands import describe_error
+
+    return describe_error(exc)
+
+
+class MainWindow(QMainWindow):
+    """The application window.
+
+    ``settings``: where geometry, state and recent files are kept (tests pass
+    an isolated one). ``settings_dir``: folder of the autosave / recovery files.
+    ``analyse``: the analysis function (default ``droprig.solver.analysis.analyse``).
+    ``threaded=False`` analyses on the UI thread (screenshots, benchmarks).
+    """
+
+    def __init__(self, document: Document | None = None, *,
+                 settings: QSettings | None = None, settings_dir: Path | None = None,
+                 analyse: AnalyseFn | None = None, threaded: bool = True,
+                 autosave: bool = True, debounce_ms: int = 150) -> None:
+        super().__init__()
+        from droprig.gui.app import make_settings
+        from droprig.gui.app import settings_dir as default_dir
+
+        self.doc = document or Document(Project())
+        self.doc.setParent(self)
+        self.qsettings = settings or make_settings()
+        self.settings_dir = settings_dir or default_dir()
+        self.runner = AnalysisRunner(self.doc, analyse=analyse, threaded=threaded,
+                                     debounce_ms=debounce_ms, parent=self)
+        self.autosaver = Autosaver(self.doc, self.settings_dir, parent=self) \
+            if autosave else None
+        self._settings_dialog: SettingsDialog | None = None
+        self._closing = False
+
+        self.setObjectName("droprigMainWindow")
+        self.setDockNestingEnabled(True)
+        self._make_actions()
+        self._make_central()
+        self._make_docks()
+        self._make_menus()
+        self._make_status_bar()
+        self._connect()
+        self._restore_geometry()
+        self._on_project_changed(self.doc.project)
+        self._on_path_changed(self.doc.path)
+        self._on_results_changed(self.doc.results)
+        self.runner.request()
+
+    # ================================================================ building
+
+    def _act(self, name: str, text: str, slot: object, shortcut: object = None,
+             tip: str = "") -> QAction:
+        a = QAction(text, self)
+        a.setObjectName(f"action_{name}")
+        if shortcut is not None:
+            a.setShortcut(shortcut)  # type: ignore[arg-type]
+        if tip:
+            a.setToolTip(tip)
+            a.setStatusTip(tip)
+        a.triggered.connect(slot)  # type: ignore[arg-type]
+        self.actions[name] = a
+        return a
+
+    def _make_actions(self) -> None:
+        self.actions: dict[str, QAction] = {}
+        K = QKeySequence.StandardKey
+        self._act("new", "&New", self._on_new, K.New, "Start a new, empty project")
+        self._act("open", "&Open…", self._on_open, K.Open, "Open a .droprig project")
+        self._act("save", "&Save", self.save, K.Save, "Save the project")
+        self._act("save_as", "Save &As…", self.save_as, K.SaveAs,
+                  "Save the project under a new name")
+        self._act("quit", "&Quit", self.close, K.Quit)
+        undo = self.doc.undo_stack.createUndoAction(self, "&Undo")
+        undo.setShortcut(K.Undo)
+        redo = self.doc.undo_stack.createRedoAction(self, "&Redo")
+        redo.setShortcut(K.Redo)
+        self.actions["undo"], self.actions["redo"] = undo, redo
+        self._act("delete", "&Delete", self.delete_selection, K.Delete,
+                  "Delete the selected lift zone, load, protection area, opening or level")
+        self._act("settings", "Analysis &settings…", self.show_settings, "Ctrl+,",
+                  "Units, design basis, factors and limits")
+        self._act("info", "Project &title block…", lambda: self.doc.select(Selection("info")))
+        self._act("generate", "&Generate framing…", self.generate_framing, "Ctrl+G",
+                  "Build a level's grid, girders, beams and deck from a few numbers")
+        self._act("apply_like", "Use this section for all like members", self.apply_like,
+                  tip="Give every member of the same role on this level the selected "
+                      "member's section, grade and end conditions")
+        self._act("add_opening", "Add deck &opening…", self.add_opening,
+                  tip="A hole in the deck: a load over it falls to the level below")
+        self._act("add_zone", "Add lift &zone", self.add_zone, "Ctrl+L",
+                  "A crane position and the region its load swings over")
+        self._act("add_load", "Add &load to zone", self.add_load, "Ctrl+Shift+L",
+                  "A load or rigging item that could drop inside the zone")
+        self._act("add_protection", "Add &protection area…", self.add_protection,
+                  tip="A crane mat or crushable layer over a rectangle")
+        draw = self._act("draw_protection", "&Draw protection area", self._on_draw_toggled,
+                         "Ctrl+D", "Drag a rectangle on the plan to lay a mat there")
+        draw.setCheckable(True)
+        self._act("fit", "Zoom to &fit", lambda: self.plan.fit(), "Ctrl+0",
+                  "Show the whole level")
+        for mode, label in style.OVERLAYS.items():
+            a = self._act(f"overlay_{mode}", f"Colour by {label.lower()}",
+                          lambda _c=False, m=mode: self.set_overlay(m))
+            a.setCheckable(True)
+        self._act("about", "&About droprig", self._on_about)
+        self._act("caution", "&Limits of use", self._on_caution)
+
+    def _make_central(self) -> None:
+        from droprig.gui.plan_view import PlanView
+
+        self.plan = PlanView()
+        self.plan.setObjectName("planView")
+
+        self.level_combo = QComboBox()
+        self.level_combo.setToolTip("Level shown in the plan")
+        self.overlay_combo = QComboBox()
+        for mode, label in style.OVERLAYS.items():
+            self.overlay_combo.addItem(label, mode)
+        self.overlay_combo.setToolTip("What the bays and drop points are coloured by")
+        self.case_combo = QComboBox()
+        self.case_combo.setToolTip("Which lift and load the plan shows")
+        self.case_combo.setMinimumContentsLength(22)
+        draw_btn = QToolButton()
+        draw_btn.setDefaultAction(self.actions["draw_protection"])
+        fit_btn = QToolButton()
+        fit_btn.setDefaultAction(self.actions["fit"])
+
+        bar = QWidget()
+        bar.setObjectName("viewBar")
+        h = QHBoxLayout(bar)
+        h.setContentsMargins(6, 4, 6, 4)
+        self._level_label = QLabel("Level:")
+        h.addWidget(self._level_label)
+        h.addWidget(self.level_combo)
+        h.addSpacing(10)
+        h.addWidget(QLabel("Colour by:"))
+        h.addWidget(self.overlay_combo)
+        h.addSpacing(10)
+        h.addWidget(QLabel("Lift:"))
+        h.addWidget(self.case_combo)
+        h.addStretch(1)
+        h.addWidget(draw_btn)
+        h.addWidget(fit_btn)
+
+        central = QWidget()
+        v = QVBoxLayout(central)
+        v.setContentsMargins(0, 0, 0, 0)
+        v.setSpacing(0)
+        v.addWidget(bar)
+        v.addWidget(self.plan, 1)
+        self.setCentralWidget(central)
+
+    def _dock(self, name: str, title: str, widget: QWidget,
+              area: Qt.DockWidgetArea) -> QDockWidget:
+        d = QDockWidget(title, self)
+        d.setObjectName(f"dock_{name}")
+        d.setWidget(widget)
+        d.setFeatures(QDockWidget.DockWidgetFeature.DockWidgetMovable
+                      | QDockWidget.DockWidgetFeature.DockWidgetFloatable
+                      | QDockWidget.DockWidgetFeature.DockWidgetClosable)
+        self.addDockWidget(area, d)
+        return d
+
+    def _make_docks(self) -> None:
+        from droprig.gui.trace_panel import TracePanel
+
+        self.tree = ProjectTree(self.doc, self.actions)
+        self.inspector = Inspector(self.doc, self.actions)
+        self.results_table = ResultsTable(self.doc)
+        self.trace_panel = TracePanel()
+        self.tree_dock = self._dock("project", "Project", self.tree,
+                                    Qt.DockWidgetArea.LeftDockWidgetArea)
+        self.inspector_dock = self._dock("inspector", "Inspector", self.inspector,
+                                         Qt.DockWidgetArea.RightDockWidgetArea)
+        self.results_dock = self._dock("results", "Results by bay", self.results_table,
+                                       Qt.DockWidgetArea.BottomDockWidgetArea)
+        self.trace_dock = self._dock("trace", "Calculation trace", self.trace_panel,
+                                     Qt.DockWidgetArea.BottomDockWidgetArea)
+        self.splitDockWidget(self.results_dock, self.trace_dock, Qt.Orientation.Horizontal)
+        self.resizeDocks([self.tree_dock, self.inspector_dock], [270, 330],
+                         Qt.Orientation.Horizontal)
+        self.resizeDocks([self.results_dock], [260], Qt.Orientation.Vertical)
+        self.resizeDocks([self.results_dock, self.trace_dock], [900, 560],
+                         Qt.Orientation.Horizontal)
+
+    def _make_menus(self) -> None:
+        a = self.actions
+        mb = self.menuBar()
+        m = mb.addMenu("&File")
+        m.addActions([a["new"], a["open"]])
+        self.recent_menu = m.addMenu("Open &recent")
+        self.recent_menu.aboutToShow.connect(self._fill_recent_menu)
+        m.addSeparator()
+        m.addActions([a["save"], a["save_as"]])
+        m.addSeparator()
+        m.addAction(a["info"])
+        m.addSeparator()
+        m.addAction(a["quit"])
+        m = mb.addMenu("&Edit")
+        m.addActions([a["undo"], a["redo"]])
+        m.addSeparator()
+        m.addAction(a["delete"])
+        m.addSeparator()
+        m.addAction(a["settings"])
+        m = mb.addMenu("F&raming")
+        m.addActions([a["generate"], a["add_opening"], a["apply_like"]])
+        m = mb.addMenu("&Lift")
+        m.addActions([a["add_zone"], a["add_load"]])
+        m.addSeparator()
+        m.addActions([a["add_protection"], a["draw_protection"]])
+        m = mb.addMenu("&View")
+        m.addAction(a["fit"])
+        m.addSeparator()
+        for mode in style.OVERLAYS:
+            m.addAction(a[f"overlay_{mode}"])
+        m.addSeparator()
+        for d in (self.tree_dock, self.inspector_dock, self.results_dock, self.trace_dock):
+            m.addAction(d.toggleViewAction())
+        m = mb.addMenu("&Help")
+        m.addActions([a["caution"], a["about"]])
+
+    def _make_status_bar(self) -> None:
+        sb = self.statusBar()
+        sb.setObjectName("statusBar")
+        self.units_label = QLabel()
+        self.units_label.setObjectName("unitsLabel")
+        self.basis_label = QLabel()
+        self.basis_label.setObjectName("basisLabel")
+        self.state_label = QLabel()
+        self.state_label.setObjectName("analysisState")
+        self.busy = QProgressBar()
+        self.busy.setObjectName("busyIndicator")
+        self.busy.setRange(0, 0)
+        self.busy.setFixedWidth(70)
+        self.busy.setFixedHeight(12)
+        self.busy.setTextVisible(False)
+        self.busy.hide()
+        self.caution_label = QLabel(f"⚠ {style.CAUTION_SHORT}")
+        self.caution_label.setObjectName("cautionLabel")
+        self.caution_label.setToolTip(CAUTION)
+        self.caution_label.setStyleSheet(
+            "QLabel#cautionLabel { background: #FFF1CC; color: #3D2800; "
+            "border: 1px solid #C9A23A; border-radius: 3px; padding: 1px 6px; "
+            "font-weight: 600; }")
+        for w in (self.units_label, self.basis_label, self.busy, self.state_label):
+            sb.addPermanentWidget(w)
+        sb.addPermanentWidget(self.caution_label, 1)
+
+    def _connect(self) -> None:
+        d = self.doc
+        d.project_changed.connect(self._on_project_changed)
+        d.results_changed.connect(self._on_results_changed)
+        d.selection_changed.connect(self._on_selection_changed)
+        d.level_changed.connect(self._on_level_changed)
+        d.path_changed.connect(self._on_path_changed)
+        d.dirty_changed.connect(self._on_dirty_changed)
+        self.runner.busy_changed.connect(self._on_busy_changed)
+        self.runner.finished.connect(self._on_analysis_finished)
+        self.plan.zone_changed.connect(self._on_zone_changed)
+        self.plan.protection_drawn.connect(self._on_protection_drawn)
+        self.plan.bay_clicked.connect(self._on_bay_clicked)
+        self.plan.point_clicked.connect(self._on_point_clicked)
+        self.plan.hover_text.connect(self._on_hover_text)
+        self.results_table.trace_requested.connect(self.show_trace)
+        self.inspector.refused.connect(lambda msg: self.statusBar().showMessage(msg, 10_000))
+        self.level_combo.activated.connect(
+            lambda _i: self.doc.set_level(self.level_combo.currentData()))
+        self.overlay_combo.activated.connect(
+            lambda _i: self.set_overlay(self.overlay_combo.currentData()))
+        self.case_combo.activated.connect(self._on_case_chosen)
+
+    # ================================================================ document events
+
+    def _on_project_changed(self, project: Project) -> None:
+        self.plan.set_project(project, self.doc.level_id or None)
+        # Bay results stay valid only while the level's framing is the same object.
+        self.plan.set_results(self._plan_results())
+        self._fill_level_combo()
+        self._fill_case_combo()
+        s = project.settings
+        self.units_label.setText(f"Units: {UNIT_LABELS.get(s.unit_system, s.unit_system)}")
+        self.basis_label.setText(f"Basis: {BASIS_LABELS.get(s.design_basis, s.design_basis)}")
+        self._update_actions()
+
+    def _plan_results(self) -> Results | None:
+        res = self.doc.results
+        if res is None:
+            return None
+        if self.doc.results_current:
+            return res
+        old = self.doc._results_project
+        try:
+            same = old is not None and old.level(self.doc.level_id) is \
+                self.doc.project.level(self.doc.level_id)
+        except KeyError:
+            same = False
+        return res if same else None
+
+    def _on_results_changed(self, results: Results | None) -> None:
+        self.plan.set_results(self._plan_results())
+        self._fill_case_combo()
+        self._update_state_label()
+
+    def _on_selection_changed(self, sel: Selection | None) -> None:
+        if sel is not None and sel.kind == "bay":
+            self.plan.select_bay(sel.ids[1])
+        else:
+            self.plan.select_bay(None)
+        zone = None
+        if sel is not None and sel.kind in ("zone", "load"):
+            zone = sel.ids[0]
+        self.plan.set_selected_zone(zone)
+        self._update_actions()
+
+    def _on_level_changed(self, level_id: str) -> None:
+        self.plan.set_project(self.doc.project, level_id or None)
+        self.plan.set_results(self._plan_results())
+        i = self.level_combo.findData(level_id)
+        if i >= 0:
+            self.level_combo.setCurrentIndex(i)
+
+    def _on_path_changed(self, path: Path | None) -> None:
+        self.setWindowTitle(f"{self.doc.title}[*] — droprig")
+        if path is not None:
+            self._add_recent(path)
+
+    def _on_dirty_changed(self, dirty: bool) -> None:
+        self.setWindowModified(dirty)
+
+    def _on_busy_changed(self, busy: bool) -> None:
+        self.busy.setVisible(busy)
+        self._update_state_label()
+
+    def _on_analysis_finished(self, seconds: float) -> None:
+        self._update_state_label()
+
+    def _update_state_label(self) -> None:
+        if self.runner.busy:
+            self.state_label.setText("Analysing…")
+            self.state_label.setStyleSheet("color: #173F66;")
+            return
+        if self.doc.analysis_error:
+            self.state_label.setText("Analysis failed — see the results panel")
+            self.state_label.setToolTip(self.doc.analysis_error)
+            self.state_label.setStyleSheet("color: #6B0F24; font-weight: 600;")
+            return
+        res = self.doc.results
+        self.state_label.setStyleSheet("")
+        self.state_label.setToolTip("")
+        if res is None:
+            self.state_label.setText("Not analysed")
+        elif not res.cases:
+            self.state_label.setText("Nothing to analyse")
+        else:
+            secs = self.runner.last_seconds
+            t = f" in {secs:.2f} s" if math.isfinite(secs) else ""
+            self.state_label.setText(f"Up to date · {res.n_points:,} drop points{t}")
+
+    def _fill_level_combo(self) -> None:
+        p = self.doc.project
+        self.level_combo.blockSignals(True)
+        self.level_combo.clear()
+        for lv in p.levels:
+            self.level_combo.addItem(lv.name, lv.id)
+        self.level_combo.setCurrentIndex(self.level_combo.findData(self.doc.level_id))
+        self.level_combo.blockSignals(False)
+        multi = len(p.levels) > 1
+        self.level_combo.setVisible(multi)
+        self._level_label.setVisible(multi)
+
+    def _fill_case_combo(self) -> None:
+        current = self.case_combo.currentData()
+        self.case_combo.blockSignals(True)
+        self.case_combo.clear()
+        self.case_combo.addItem("All lifts — worst per bay", None)
+        for z in self.doc.project.lift_zones:
+            for ld in z.loads:
+                label = f"{z.id} {z.name} · {ld.name}".replace("  ", " ")
+                self.case_combo.addItem(label, (z.id, ld.name))
+        self.case_combo.setCurrentIndex(max(0, self.case_combo.findData(current)))
+        self.case_combo.blockSignals(False)
+        if self.case_combo.currentData() != current:
+            self._on_case_chosen(self.case_combo.currentIndex())
+
+    def _on_case_chosen(self, _index: int) -> None:
+        data = self.case_combo.currentData()
+        if data is None:
+            self.plan.set_case(None)
+        else:
+            self.plan.set_case(data[0], data[1])
+        f = self.results_table.filter
+        i = f.findData(None if data is None else f"{data[0]}\x1f{data[1]}")
+        if i >= 0:
+            f.setCurrentIndex(i)
+
+    def set_overlay(self, mode: str) -> None:
+        self.plan.set_overlay(mode)
+        self.overlay_combo.setCurrentIndex(self.overlay_combo.findData(mode))
+        for m in style.OVERLAYS:
+            self.actions[f"overlay_{m}"].setChecked(m == mode)
+
+    def _update_actions(self) -> None:
+        sel = self.doc.selection
+        kind = sel.kind if sel else ""
+        self.actions["delete"].setEnabled(kind in ("zone", "load", "protection", "opening",
+                                                   "level"))
+        self.actions["apply_like"].setEnabled(kind == "member")
+        has_level = bool(self.doc.project.levels)
+        for n in ("add_zone", "add_opening", "add_protection", "draw_protection"):
+            self.actions[n].setEnabled(has_level)
+        self.actions["add_load"].setEnabled(bool(self.doc.project.lift_zones))
+        self.actions["overlay_" + self.plan.overlay].setChecked(True)
+
+    # ================================================================ plan events
+
+    def _on_zone_changed(self, zone_id: str, new_zone: LiftZone) -> None:
+        try:
+            after = ed.with_zone(self.doc.project, zone_id, new_zone)
+        except ModelError as exc:
+            self.statusBar().showMessage(f"Zone change refused: {exc}", 10_000)
+            self.plan.set_project(self.doc.project, self.doc.level_id)
+            return
+        self.doc.edit(after, f"Reshape lift zone {zone_id}")
+
+    def _on_bay_clicked(self, bay_id: str) -> None:
+        if self.doc.level_id:
+            self.doc.select(Selection("bay", (self.doc.level_id, bay_id)))
+
+    def _on_point_clicked(self, zone_id: str, load_name: str, x: float, y: float) -> None:
+        self.show_trace(zone_id, load_name, x, y)
+
+    def _on_hover_text(self, text: str) -> None:
+        if text:
+            self.statusBar().showMessage(text)
+        else:
+            self.statusBar().clearMessage()
+
+    def _on_protection_drawn(self, rect: Rect) -> None:
+        self.actions["draw_protection"].setChecked(False)
+        self.plan.set_mode("select")
+        self.add_protection(rect)
+
+    def _on_draw_toggled(self, on: bool) -> None:
+        self.plan.set_mode("draw_protection" if on else "select")
+        if on:
+            self.statusBar().showMessage("Drag a rectangle on the plan where the mat goes "
+                                         "(Esc or the button again to stop)", 8000)
+
+    # ================================================================ trace
+
+    def show_trace(self, zone_id: str, load_name: str, x: float, y: float) -> bool:
+        """Compute and show the calculation trace of one drop point."""
+        from droprig.solver.trace import trace_point
+
+        try:
+            trace = trace_point(self.doc.project, zone_id, load_name, x, y)
+        except Exception as exc:  # a message in the status bar, never a crash
+            self.statusBar().showMessage(f"Calculation trace: {_describe(exc)}", 10_000)
+            return False
+        self.trace_panel.show_trace(trace, self.doc.project.settings.unit_system)
+        self.trace_dock.show()
+        self.trace_dock.raise_()
+        return True
+
+    # ================================================================ editing actions
+
+    def _current_level_id(self) -> str | None:
+        return self.doc.level_id or None
+
+    def _selected_bay_rect(self) -> Rect | None:
+        sel = self.doc.selection
+        lv = self.doc.level
+        if lv is None:
+            return None
+        if sel is not None and sel.kind == "bay" and sel.ids[0] == lv.id:
+            for b in bays(lv):
+                if b.id == sel.ids[1]:
+                    return b.rect
+        return None
+
+    def generate_framing(self) -> None:
+        from droprig.gui.generator_dialog import GeneratorDialog
+
+        dlg = GeneratorDialog(self)
+        if not dlg.exec():
+            return
+        level = dlg.level()
+        p = self.doc.project
+        ids = [lv.id for lv in p.levels]
+        current = self.doc.level_id
+        if current:
+            box = QMessageBox(QMessageBox.Icon.Question, "Generated framing",
+                              f"Replace the framing of level {p.level(current).name}, or add "
+                              "the generated framing as a new level?", parent=self)
+            rep = box.addButton("Replace this level", QMessageBox.ButtonRole.AcceptRole)
+            add = box.addButton("Add a new level", QMessageBox.ButtonRole.ActionRole)
+            box.addButton(QMessageBox.StandardButton.Cancel)
+            box.exec()
+            clicked = box.clickedButton()
+            if clicked is rep:
+                self.replace_level_framing(current, level)
+                return
+            if clicked is not add:
+                return
+        if level.id in ids:
+            level = replace(level, id=ed.unique_id("L", ids))
+        self._edit(lambda p: ed.add_level(p, level), f"Add level {level.name}")
+        self.doc.set_level(level.id)
+
+    def replace_level_framing(self, level_id: str, level: object) -> bool:
+        """Swap in generated framing for ``level_id`` (zones and mats stay)."""
+        new = replace(level, id=level_id)  # type: ignore[type-var]
+        return self._edit(lambda p: ed.with_level(p, level_id, new),
+                          f"Regenerate framing of level {level_id}")
+
+    def _edit(self, fn: object, text: str) -> bool:
+        try:
+            after = fn(self.doc.project)  # type: ignore[operator]
+        except (ModelError, ValueError, KeyError) as exc:
+            QMessageBox.warning(self, "droprig", f"{text}: {_describe(exc)}")
+            return False
+        return self.doc.edit(after, text)
+
+    def add_zone(self) -> LiftZone | None:
+        lv = self.doc.level
+        if lv is None:
+            return None
+        p = self.doc.project
+        ext = lv.grid.extent
+        zid = ed.unique_id("Z", [z.id for z in p.lift_zones])
+        r = max(1.0, round(min(ext.width, ext.height) * 0.35, 1))
+        zone = LiftZone(id=zid, name=f"Lift {zid[1:]}", level_id=lv.id,
+                        crane=(ext.x0 + ext.width / 2, ext.y0 + ext.height / 2),
+                        r_min=0.0, r_max=r,
+                        loads=(LiftLoad(name="Load 1", mass=1000.0, drop_height=1.0),))
+        if self._edit(lambda p: ed.add_zone(p, zone), f"Add lift zone {zid}"):
+            self.doc.select(Selection("zone", (zid,)))
+            return zone
+        return None
+
+    def add_load(self) -> LiftLoad | None:
+        p = self.doc.project
+        sel = self.doc.selection
+        zid = None
+        if sel is not None and sel.kind in ("zone", "load"):
+            zid = sel.ids[0]
+        elif p.lift_zones:
+            here = [z for z in p.lift_zones if z.level_id == self.doc.level_id]
+            zid = (here or list(p.lift_zones))[0].id
+        if zid is None:
+            self.statusBar().showMessage("Add a lift zone first", 5000)
+            return None
+        name = ed.unique_name("Load 1", [ld.name for ld in p.zone(zid).loads])
+        load = LiftLoad(name=name, mass=1000.0, drop_height=1.0)
+        if self._edit(lambda p: ed.add_load(p, zid, load), f"Add load to zone {zid}"):
+            self.doc.select(Selection("load", (zid, name)))
+            return load
+        return None
+
+    def add_protection(self, rect: Rect | None = None) -> ProtectionArea | None:
+        lv = self.doc.level
+        if lv is None:
+            return None
+        p = self.doc.project
+        if not isinstance(rect, Rect):
+            rect = self._selected_bay_rect() or bays(lv)[0].rect
+        pid = ed.unique_id("P", [a.id for a in p.protection_areas])
+        area = ProtectionArea(id=pid, name=f"Mat {pid[1:]}", level_id=lv.id, area=rect)
+        dlg = FormDialog("New protection area", area,
+                         lambda a: protection_form(a, self.doc.project, None),
+                         p.settings.unit_system,
+                         "A crane mat (elastic) or a crushable layer laid on the deck. "
+                         "Edit the rectangle and the mat properties, then OK.", self)
+        if not dlg.exec():
+            return None
+        area = dlg.value()
+        if self._edit(lambda p: ed.add_protection(p, area), f"Add protection area {pid}"):
+            self.doc.select(Selection("protection", (pid,)))
+            return area
+        return None
+
+    def add_opening(self) -> Rect | None:
+        lv = self.doc.level
+        if lv is None:
+            return None
+        b = self._selected_bay_rect() or bays(lv)[0].rect
+        w, h = b.width / 3, b.height / 3
+        rect = Rect(b.x0 + w, b.y0 + h, b.x1 - w, b.y1 - h)
+        dlg = FormDialog("New deck opening", rect,
+                         lambda r: opening_form(r, lv.id, None, None),
+                         self.doc.project.settings.unit_system,
+                         "A hole in the deck (shaft, hatch, removed panel). A load over it "
+                         "falls through: those points are reported as exceeding.", self)
+        if not dlg.exec():
+            return None
+        rect = dlg.value()
+        n = len(lv.deck.openings)
+        if self._edit(lambda p: ed.add_opening(p, lv.id, rect), "Add deck opening"):
+            self.doc.select(Selection("opening", (lv.id, str(n))))
+            return rect
+        return None
+
+    def apply_like(self) -> bool:
+        sel = self.doc.selection
+        if sel is None or sel.kind != "member":
+            return False
+        lv = self.doc.project.level(sel.ids[0])
+        m = lv.member(sel.ids[1])
+        changed = {o.id: replace(o, section=m.section, grade=m.grade,
+                                 end_condition=m.end_condition)
+                   for o in lv.members if o.role == m.role and o.id != m.id}
+        return self._edit(lambda p: ed.with_members(p, lv.id, changed),
+                          f"{m.section.name} {m.grade.name} for every {m.role} on {lv.name}")
+
+    def delete_selection(self) -> bool:
+        sel = self.doc.selection
+        if sel is None:
+            return False
+        k, ids = sel.kind, sel.ids
+        p = self.doc.project
+        if k == "zone":
+            return self._edit(lambda p: ed.remove_zone(p, ids[0]), f"Delete lift zone {ids[0]}")
+        if k == "load":
+            return self._edit(lambda p: ed.remove_load(p, ids[0], ids[1]),
+                              f"Delete load {ids[1]}")
+        if k == "protection":
+            return self._edit(lambda p: ed.remove_protection(p, ids[0]),
+                              f"Delete protection area {ids[0]}")
+        if k == "opening":
+            return self._edit(lambda p: ed.remove_opening(p, ids[0], int(ids[1])),
+                              "Delete deck opening")
+        if k == "level":
+            n = sum(z.level_id == ids[0] for z in p.lift_zones)
+            if n and QMessageBox.question(
+                    self, "Delete level", f"Delete level {p.level(ids[0]).name} and the {n} "
+                    "lift zone(s) and protection areas on it?") != \
+                    QMessageBox.StandardButton.Yes:
+                return False
+            return self._edit(lambda p: ed.remove_level(p, ids[0]), f"Delete level {ids[0]}")
+        self.statusBar().showMessage("Members are edited, not deleted: regenerate the "
+                                     "framing to change the layout", 6000)
+        return False
+
+    def show_settings(self) -> SettingsDialog:
+        if self._settings_dialog is None:
+            self._settings_dialog = SettingsDialog(self.doc, self)
+        self._settings_dialog.show()
+        self._settings_dialog.raise_()
+        return self._settings_dialog
+
+    # ================================================================ files
+
+    def maybe_save(self) -> bool:
+        """Ask what to do with unsaved changes. True: go ahead (saved or
+        discarded); False: the user cancelled (or the save failed)."""
+        if not self.doc.is_dirty:
+            return True
+        ans = QMessageBox.warning(
+            self, "Unsaved changes",
+            f"{self.doc.title} has changes that are not saved.\nSave them first?",
+            QMessageBox.StandardButton.Save | QMessageBox.StandardButton.Discard
+            | QMessageBox.StandardButton.Cancel, QMessageBox.StandardButton.Save)
+        if ans == QMessageBox.StandardButton.Save:
+            return self.save()
+        return ans == QMessageBox.StandardButton.Discard
+
+    def _on_new(self) -> None:
+        if self.maybe_save():
+            self.doc.reset(Project())
+            if self.autosaver:
+                self.autosaver.discard()
+
+    def _on_open(self) -> None:
+        if not self.maybe_save():
+            return
+        start = str(self.doc.path.parent) if self.doc.path else ""
+        path, _ = QFileDialog.getOpenFileName(self, "Open project", start, FILE_FILTER)
+        if path:
+            self.open_path(path, ask=False)
+
+    def open_path(self, path: str | Path, *, ask: bool = True) -> bool:
+        """Open ``path`` (after the unsaved-changes prompt when ``ask``)."""
+        if ask and not self.maybe_save():
+            return False
+        try:
+            self.doc.open(path)
+        except Exception as exc:  # ProjectFileError, OSError: a message, never a crash
+            QMessageBox.critical(self, "Cannot open project", _describe(exc))
+            return False
+        if self.autosaver:
+            self.autosaver.discard()
+        self.plan.fit()
+        return True
+
+    def save(self) -> bool:
+        if self.doc.path is None:
+            return self.save_as()
+        return self._save_to(self.doc.path)
+
+    def save_as(self) -> bool:
+        start = str(self.doc.path) if self.doc.path else "untitled.droprig"
+        path, _ = QFileDialog.getSaveFileName(self, "Save project as", start, FILE_FILTER)
+        if not path:
+            return False
+        if not path.endswith(".droprig"):
+            path += ".droprig"
+        return self._save_to(Path(path))
+
+    def _save_to(self, path: Path) -> bool:
+        try:
+            self.doc.save(path)
+        except Exception as exc:  # the old file stays as it was (atomic save)
+            QMessageBox.critical(self, "Cannot save project",
+                                 f"{_describe(exc)}\nThe file on disk was not changed.")
+            return False
+        if self.autosaver:
+            self.autosaver.discard()
+        self.statusBar().showMessage(f"Saved {path}", 5000)
+        return True
+
+    # ---------------------------------------------------------------- recent files
+
+    def recent_files(self) -> list[str]:
+        v = self.qsettings.value("recent_files", [])
+        if isinstance(v, str):
+            v = [v]
+        return [str(x) for x in (v or [])]
+
+    def _add_recent(self, path: Path) -> None:
+        p = str(Path(path).resolve())
+        items = [p, *[x for x in self.recent_files() if x != p]][:MAX_RECENT]
+        self.qsettings.setValue("recent_files", items)
+
+    def _fill_recent_menu(self) -> None:
+        self.recent_menu.clear()
+        items = self.recent_files()
+        if not items:
+            a = self.recent_menu.addAction("(none)")
+            a.setEnabled(False)
+            return
+        for i, p in enumerate(items, 1):
+            a = self.recent_menu.addAction(f"&{i} {Path(p).name}")
+            a.setToolTip(p)
+            a.setEnabled(Path(p).is_file())
+            a.triggered.connect(lambda _c=False, p=p: self.open_path(p))
+        self.recent_menu.addSeparator()
+        clear = self.recent_menu.addAction("Clear list")
+        clear.triggered.connect(lambda: self.qsettings.setValue("recent_files", []))
+
+    # ---------------------------------------------------------------- recovery
+
+    def offer_recovery(self) -> bool:
+        """If a previous session crashed, offer its autosave. True if recovered."""
+        from droprig.io.project_file import load_project
+
+        found = find_recoverable(self.settings_dir)
+        if not found:
+            return False
+        c = found[0]
+        when = _dt.datetime.fromtimestamp(c.saved_at).strftime("%Y-%m-%d %H:%M")
+        name = c.original_path.name if c.original_path else "an unsaved project"
+        ans = QMessageBox.question(
+            self, "Recover unsaved work?",
+            f"droprig did not close normally last time. An autosave of {name} from "
+            f"{when} is available.\n\nRecover it? (No deletes the autosave.)",
+            QMessageBox.StandardButton.Yes | QMessageBox.StandardButton.No,
+            QMessageBox.StandardButton.Yes)
+        if ans != QMessageBox.StandardButton.Yes:
+            discard_recoverable(c)
+            return False
+        try:
+            project = load_project(c.project_file)
+        except Exception as exc:
+            QMessageBox.critical(self, "Cannot recover", _describe(exc))
+            return False
+        self.doc.reset(project, c.original_path, dirty=True)
+        discard_recoverable(c)
+        if self.autosaver:
+            self.autosaver.write(force=True)
+        self.statusBar().showMessage("Recovered from autosave — save to keep it", 10_000)
+        return True
+
+    # ================================================================ window state
+
+    def _restore_geometry(self) -> None:
+        geo = self.qsettings.value("window/geometry")
+        state = self.qsettings.value("window/state")
+        if isinstance(geo, QByteArray | bytes) and geo:
+            self.restoreGeometry(QByteArray(geo))
+        else:
+            self.resize(1600, 1000)
+        if isinstance(state, QByteArray | bytes) and state:
+            self.restoreState(QByteArray(state))
+        overlay = self.qsettings.value("view/overlay", "outcome")
+        if overlay in style.OVERLAYS:
+            self.set_overlay(str(overlay))
+
+    def save_window_state(self) -> None:
+        self.qsettings.setValue("window/geometry", self.saveGeometry())
+        self.qsettings.setValue("window/state", self.saveState())
+        self.qsettings.setValue("view/overlay", self.plan.overlay)
+        self.qsettings.sync()
+
+    def closeEvent(self, event: QCloseEvent) -> None:
+        if not self._closing and not self.maybe_save():
+            event.ignore()
+            return
+        self._closing = True
+        self.save_window_state()
+        self.runner.shutdown()
+        if self.autosaver:
+            self.autosaver.close()
+        if self._settings_dialog is not None:
+            self._settings_dialog.close()
+        event.accept()
+
+    # ================================================================ screenshots
+
+    def prepare_screenshot(self) -> None:
+        """Synchronous analysis, select the worst bay and show its governing
+        point's trace (so a grab shows every panel filled)."""
+        self.runner.run_now()
+        res = self.doc.results
+        if res is not None and res.bays:
+            order = {k: i for i, k in enumerate(style.OUTCOME_ORDER)}
+            worst = max(res.bays, key=lambda b: (order.get(b.response, -1),
+                                                 b.max_utilisation))
+            self.doc.select(Selection("bay", (worst.level_id, worst.bay_id)))
+            if math.isfinite(worst.governing_x):
+                self.show_trace(worst.zone_id, worst.load_name, worst.governing_x,
+                                worst.governing_y)
+        QTimer.singleShot(0, self.plan.fit)
+
+    # ================================================================ help
+
+    def _on_about(self) -> None:
+        QMessageBox.about(self, "About droprig",
+                          f"<b>droprig {__version__}</b><br>Dropped-load assessment of floor "
+                          "framing under crane swing zones.<br><br>" + CAUTION)
+
+    def _on_caution(self) -> None:
+        QMessageBox.information(
+            self, "Limits of use",
+            CAUTION + "\n\nThe assumptions and limits of the method are listed in the "
+            "README and in every permit annex. Keep people out from under the load path "
+            "whatever the result.")
