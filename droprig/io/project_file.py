@@ -65,7 +65,9 @@ __all__ = [
     "load_project",
     "loads_project",
     "project_fingerprint",
+    "project_to_document",
     "save_project",
+    "schema",
 ]
 
 
