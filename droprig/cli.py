@@ -92,8 +92,8 @@ def main(argv: Sequence[str] | None = None) -> int:
         parser.print_help()
         return EXIT_OK
     name = {"analyze": "analyse"}.get(args.command, args.command)
-    module = importlib.import_module(f"droprig.commands.{name}")
     try:
+        module = importlib.import_module(f"droprig.commands.{name}")
         return int(module.run(args))
     except BrokenPipeError:
         return EXIT_OK
