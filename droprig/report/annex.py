@@ -378,6 +378,8 @@ def _canvas_class(header: _Header, counter: list[int]) -> type:
             self.drawString(x + 2.5, y + h - 6.2, label.upper())
             self.setFillColor(colors.black)
             font = fonts.BOLD if bold else fonts.REGULAR
+            while size > 5.5 and self.stringWidth(value, font, size) > w - 5:
+                size -= 0.25
             self.setFont(font, size)
             self.drawString(x + 2.5, y + 3.2, clip(self, value, font, size, w - 5))
 

@@ -20,6 +20,10 @@ SMALL_LENGTH_BELOW = 0.1
 their significant figures (common practice, no source)."""
 
 
+PSF = 4.4482216152605 / 0.3048**2
+"""One pound-force per square foot, Pa (NIST SP 811, Appendix B.8)."""
+
+
 def esc(text: object) -> str:
     """User text made safe for a reportlab Paragraph (``& < >`` escaped)."""
     return escape(str(text))
@@ -46,6 +50,11 @@ def fmt_value(value: float | None, quantity: str, system: UnitSystem, *,
         quantity = "small_length"
     if quantity not in units.QUANTITIES:
         return f"{v:.4g}"
+    if quantity == "pressure" and system == "US" and math.isfinite(v):
+        # droprig.units cannot format psf (pint has no 'psf' unit); 1 psf = 1 lbf/ft²
+        # = 4.4482216152605 N / 0.09290304 m² (NIST SP 811 B.8).
+        d = units.QUANTITIES["pressure"][4]
+        return f"{v / PSF:,.{d}f} psf" if unit else f"{v / PSF:,.{d}f}"
     if quantity == "dimensionless" and math.isfinite(v):
         return f"{v:.3f}" if abs(v) < 1000 else f"{v:,.0f}"
     return units.fmt(v, quantity, system, unit=unit)

@@ -28,6 +28,8 @@ def test_escaped_text_prints_literally_in_a_paragraph(raw: str) -> None:
     (0.0021, "length", "SI", "2.1 mm"),         # below 0.1 m prints in mm
     (1.5, "length", "SI", "1.500 m"),
     (4448.2216152605, "force", "US", "1.00 kip"),  # NIST SP 811 B.8: 1 lbf = 4.448 N
+    (47.88025898033584, "pressure", "US", "1.0 psf"),  # NIST SP 811 B.8: 1 psf = 47.88 Pa
+    (2500.0, "pressure", "SI", "2.50 kPa"),
     (None, "length", "SI", "none"),
     (float("nan"), "force", "SI", "none"),
 ])
