@@ -1,0 +1,907 @@
+"""Floor-system analysis: every drop point of every load of every lift zone.
+
+For each drop point p (vectorised; SI units) and each load (mass M, W = M·g):
+
+1. Load path, compliance f_s(p) and Rayleigh effective mass m_e(p):
+   :mod:`droprig.solver.loadpath`. A spring mat covering p adds 1/k: f = f_s + 1/k
+   (series springs, Engineering ToolBox "Impact Force").
+2. Free fall h(p) onto the struck surface (deck top, or mat top where a
+   protection area covers p): ``LiftLoad.height_above``.
+3. Impact: η = M/(M + m_e), K = 1 + √(1 + 2ηh/(W f)), F = K·W, δmax = K·W·f
+   (Gere 7th ed. §9.10 Eq. 9-94 with Timoshenko's mass correction:
+   :mod:`droprig.solver.impact`); through a crushable layer
+   :func:`~droprig.solver.impact.impact_crushable`.
+4. Member actions at the peak = F × the unit-load actions + the actions of the
+   existing loads (member self-weight; deck self-weight, superimposed dead and the
+   live load left in place, by tributary width). Checks on every member of the
+   path: flexure, shear, web local yielding and crippling under the load (bearing
+   length = the smaller footprint side + 2 × mat thickness, 1:1 spread through the
+   mat, common practice, no source), deck flexure and punching
+   (:mod:`droprig.solver.capacity`, :mod:`droprig.solver.deck`). Each check is
+   linear in F: demand = F·unit + existing, so U = demand/resistance and the force
+   that a check allows is F_allow = (resistance − existing)/unit.
+5. Beyond yield (design notes §3): if only flexure exceeds, the path is taken as
+   elastic–perfectly-plastic with R_p = the lowest collapse load of its members
+   for a load at p (virtual work for fixed/propped members under the load; the
+   first-hinge load, which is the collapse load of a determinate member, for the
+   others — conservative) and δy = R_p·f; brittle checks are repeated at F = R_p;
+   ductility and support rotation against the settings (:mod:`droprig.solver.plastic`).
+6. Response, inverse answers (:mod:`droprig.solver.limits`), and a per-bay summary
+   with advice.
+
+The drop points are the zone grid plus the points that can govern
+(:mod:`droprig.solver.droppoints`), refined around the worst point of each bay.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from droprig.model import Level, LiftLoad, LiftZone, Project, Settings, bays
+from droprig.solver import beam, capacity, deck, droppoints, impact, limits, plastic
+from droprig.solver.loadpath import (
+    COND_NAMES,
+    Frame,
+    PathResult,
+    build_frame,
+    by_condition,
+    locate,
+    tributary_widths,
+)
+from droprig.solver.loadpath import evaluate as evaluate_path
+from droprig.solver.results import (
+    CHECKS,
+    DECK,
+    ELASTIC,
+    EXCEEDS,
+    PLASTIC,
+    RESPONSES,
+    BaySummary,
+    CaseResult,
+    Results,
+)
+
+__all__ = [
+    "MAX_MAT_TRAVEL",
+    "MIN_USEFUL_HEIGHT",
+    "REFINE_PASSES",
+    "FloorModel",
+    "analyse",
+    "analyse_zone",
+    "build_floor",
+    "evaluate_case",
+    "zone_points",
+]
+
+CHECK = {name: i for i, name in enumerate(CHECKS)}
+BRITTLE = ("shear", "web_yielding", "web_crippling", "deck_flexure", "deck_punching")
+"""Checks with no plastic reserve (design notes §3)."""
+
+REFINE_PASSES = 3
+"""Local refinement passes around the worst points of each bay (spacing ÷4 each)."""
+REFINE_TOP = 3
+"""Points per bay around which each pass refines."""
+MIN_USEFUL_HEIGHT = 0.05
+"""A drop height below this (m) is not offered as advice: it cannot be controlled on
+site (common practice, no source)."""
+MAX_MAT_TRAVEL = 0.3
+"""A spring mat is only offered when it need not compress more than this (m): the
+thickness of a stack of timber crane mats (common practice, no source)."""
+_TINY = 1e-300
+
+
+# --------------------------------------------------------------------------- floor model
+@dataclass(frozen=True, eq=False)
+class FloorModel:
+    """A level prepared for analysis under one set of settings (see :func:`build_floor`).
+
+    Per member: flexural and shear resistance ``Mr`` (N·m), ``Vr`` (N), existing
+    uniform load ``w0`` (N/m) and end reactions ``V0`` (N); existing loads at the
+    nodes ``P0`` (N); existing moments at the support-member stations of each
+    panel ``M0_sup`` (N·m). Deck: existing pressure ``q0`` (Pa) and moment
+    resistance per width ``deck_Mr`` (N·m/m).
+    """
+
+    level: Level
+    settings: Settings
+    frame: Frame
+    Mr: np.ndarray
+    Vr: np.ndarray
+    w0: np.ndarray
+    V0: np.ndarray
+    P0: np.ndarray
+    M0_sup: np.ndarray
+    q0: float
+    deck_Mr: float
+    group: np.ndarray
+    groups: tuple[tuple[object, object], ...]
+    warnings: tuple[str, ...] = field(default=())
+
+
+def build_floor(level: Level, settings: Settings) -> FloorModel:
+    """Load path, resistances and existing-load actions of ``level``."""
+    frame = build_frame(level, include_member_mass=settings.include_member_mass)
+    basis = settings.design_basis
+    phi, dif = settings.resistance_factor, settings.dynamic_increase_factor
+    n_m = frame.n_members
+    groups: list[tuple[object, object]] = []
+    gidx = np.zeros(n_m, dtype=np.int64)
+    Mr = np.zeros(n_m)
+    Vr = np.zeros(n_m)
+    cache: dict[tuple[object, object], tuple[float, float, int]] = {}
+    for k, m in enumerate(level.members):
+        key = (m.section, m.grade)
+        if key not in cache:
+            try:
+                mr = capacity.flexural_resistance(m.section, m.grade, basis, phi, dif)
+                vr = capacity.shear_resistance(m.section, m.grade, basis, phi, dif)
+            except ValueError as exc:
+                from droprig.model import ModelError
+
+                raise ModelError(f"level {level.id}.members[{m.id}].section", m.section.name,
+                                 f"a section droprig can check ({exc})") from exc
+            cache[key] = (mr, vr, len(groups))
+            groups.append(key)
+        Mr[k], Vr[k], gidx[k] = cache[key]
+    # existing loads
+    warnings: list[str] = []
+    g = impact.G
+    q0 = 0.0
+    w0 = np.zeros(n_m)
+    if settings.include_existing_loads:
+        q0 = level.deck.self_weight_pressure + level.superimposed_dead + level.live_in_place
+        w0 = np.array([m.section.mass_per_length * g for m in level.members])
+        w0 = w0 + q0 * tributary_widths(frame)
+    n_n = frame.n_nodes
+    b = np.zeros(n_n + 1)
+    udl_R = np.zeros((n_m, 2))
+    for k in range(n_m):
+        R0, RL = beam.udl_reactions(COND_NAMES[frame.cond[k]], frame.L[k], w0[k])
+        udl_R[k] = (R0, RL)
+        for e in range(2):
+            b[frame.end_node[k, e]] += udl_R[k, e]
+    b[n_n] = 0.0
+    P0 = frame.T @ b
+    V0 = udl_R.copy()
+    for k in range(n_m):
+        on = frame.nodes_on[k]
+        if on.size:
+            R0, RL = beam.unit_reactions(COND_NAMES[frame.cond[k]], frame.L[k], frame.node_pos[on])
+            V0[k, 0] += R0 @ P0[on]
+            V0[k, 1] += RL @ P0[on]
+    M0_sup = np.zeros(frame.pair_sup_x.shape)
+    for ip in range(frame.n_pairs):
+        for jp, mm in enumerate(frame.pair_sup_member[ip]):
+            if mm < 0:
+                continue
+            M0_sup[ip, jp] = existing_moment(frame, w0, P0, int(mm), frame.pair_sup_x[ip, jp])
+    # members already over capacity under the existing loads alone
+    for k, m in enumerate(level.members):
+        xs = np.linspace(0.0, frame.L[k], 21)
+        M_ex = np.max(np.abs(existing_moment(frame, w0, P0, k, xs)))
+        if M_ex > Mr[k] or np.max(V0[k]) > Vr[k]:
+            warnings.append(f"level {level.id}: member {m.id} is over capacity under the "
+                            "existing loads alone; every drop on its load path exceeds")
+    deck_Mr = deck.deck_flexure_resistance(level.deck, basis, phi)
+    return FloorModel(level=level, settings=settings, frame=frame, Mr=Mr, Vr=Vr, w0=w0,
+                      V0=V0, P0=P0, M0_sup=M0_sup, q0=q0, deck_Mr=deck_Mr, group=gidx,
+                      groups=tuple(groups), warnings=tuple(warnings))
+
+
+def existing_moment(frame: Frame, w0: np.ndarray, P0: np.ndarray, k: int,
+                    x: np.ndarray) -> np.ndarray:
+    """Moment (N·m, sagging +) at ``x`` of member ``k`` under its existing uniform load
+    and the existing loads of the members resting on it (statics, AISC Manual
+    Table 3-23 by superposition)."""
+    c = COND_NAMES[frame.cond[k]]
+    x = np.asarray(x, float)
+    M = beam.udl_moment(c, frame.L[k], w0[k], x)
+    on = frame.nodes_on[k]
+    if on.size:
+        M = M + beam.unit_moment(c, frame.L[k], x[..., None], frame.node_pos[on]) @ P0[on]
+    return M
+
+
+# --------------------------------------------------------------------------- checks
+def _demand(F: np.ndarray, unit: np.ndarray, exist: np.ndarray) -> np.ndarray:
+    """|F·unit + exist| with 0·∞ read as 0 (a rigid point puts no load on a member
+    that takes no share of it)."""
+    with np.errstate(invalid="ignore"):
+        prod = F * unit
+    prod = np.where(unit == 0.0, 0.0, prod)
+    return np.abs(prod + exist)
+
+
+def _f_allow(R: np.ndarray, unit: np.ndarray, exist: np.ndarray) -> np.ndarray:
+    """Largest F ≥ 0 with |F·unit + exist| ≤ R: (R − sign(unit)·exist)/|unit|; ∞ for
+    unit = 0 (and −1 if the existing load alone exceeds R)."""
+    au = np.abs(unit)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        fa = (R - np.sign(unit) * exist) / au
+    fa = np.where(au > _TINY, fa, np.where(np.abs(exist) <= R, np.inf, -1.0))
+    return np.where(np.abs(exist) > R, -1.0, fa)
+
+
+@dataclass
+class _Check:
+    """One check family over the points: U at the elastic peak, allowed force, unit
+    demand per N at p, existing demand, resistance and the member it governs on."""
+
+    name: str
+    U: np.ndarray
+    F_allow: np.ndarray
+    member: np.ndarray
+    unit: np.ndarray
+    exist: np.ndarray
+    resist: np.ndarray
+    U_at: Callable[[np.ndarray], np.ndarray]
+
+
+def _reduce(name: str, F: np.ndarray, unit: np.ndarray, exist: np.ndarray,
+            resist: np.ndarray, member: np.ndarray) -> _Check:
+    """Combine candidate demands (n, c) into one check: the governing candidate is
+    the one with the lowest allowed force (ties: largest utilisation)."""
+    Fcol = F[:, None]
+    U = _demand(Fcol, unit, exist) / resist
+    fa = _f_allow(resist, unit, exist)
+    # governing candidate: largest U; where every U is equal (e.g. inf), lowest F_allow
+    key = np.where(np.isfinite(U), U, np.inf)
+    j = np.argmax(key, axis=1)
+    jfa = np.argmin(fa, axis=1)
+    both_inf = ~np.isfinite(np.max(key, axis=1))
+    j = np.where(both_inf, jfa, j)
+    rows = np.arange(F.shape[0])
+
+    def U_at(Fx: np.ndarray) -> np.ndarray:
+        return np.max(_demand(Fx[:, None], unit, exist) / resist, axis=1)
+
+    return _Check(name, U[rows, j], np.min(fa, axis=1), member[rows, j], unit[rows, j],
+                  exist[rows, j], resist[rows, j], U_at)
+
+
+def _loaded_stations(a: np.ndarray, L: np.ndarray) -> np.ndarray:
+    """Stations along a deck-supporting member where the moment can peak under a
+    point load at a plus a uniform load: under the load, the ends, quarter points
+    and halfway between the load and midspan (n, ..., 7), m."""
+    return np.stack([a, 0.0 * a, L + 0.0 * a, 0.25 * L + 0.0 * a, 0.5 * L + 0.0 * a,
+                     0.75 * L + 0.0 * a, 0.5 * (a + 0.5 * L)], axis=-1)
+
+
+def _loaded_existing_moment(fm: FloorModel, mem: np.ndarray, xs: np.ndarray) -> np.ndarray:
+    fr = fm.frame
+    cond = fr.cond[mem][..., None]
+    M = by_condition(beam.udl_moment, cond, fr.L[mem][..., None], fm.w0[mem][..., None], xs)
+    carrying = [k for k in np.unique(mem) if fr.nodes_on[int(k)].size]
+    for k in carrying:
+        sel = mem == k
+        M[sel] = existing_moment(fr, fm.w0, fm.P0, int(k), xs[sel])
+    return M
+
+
+def _web_resistance(fm: FloorModel, fn: Callable[..., np.ndarray], mem: np.ndarray,
+                    bearing: np.ndarray, dist: np.ndarray) -> np.ndarray:
+    s = fm.settings
+    out = np.empty(mem.shape)
+    grp = fm.group[mem]
+    for gi in np.unique(grp):
+        sel = grp == gi
+        sec, grd = fm.groups[int(gi)]
+        out[sel] = fn(sec, grd, s.design_basis, bearing[sel], dist[sel],
+                      s.resistance_factor, s.dynamic_increase_factor)
+    return out
+
+
+# --------------------------------------------------------------------------- one case
+@dataclass(frozen=True, eq=False)
+class Geometry:
+    """Load-independent data of a set of drop points."""
+
+    x: np.ndarray
+    y: np.ndarray
+    path: PathResult
+    bay: np.ndarray
+    protection: np.ndarray
+    opening: np.ndarray
+
+
+def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarray) -> Geometry:
+    """Load path and plan attributes of drop points (bay, protection area, opening)."""
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    path = evaluate_path(fm.frame, x, y, with_mass=fm.settings.include_member_mass)
+    bay = droppoints.bay_index(fm.level, x, y)
+    prot = -np.ones(x.shape, dtype=np.int64)
+    for i in range(len(project.protection_areas) - 1, -1, -1):
+        pa = project.protection_areas[i]
+        if pa.level_id != fm.level.id:
+            continue
+        r = pa.area
+        inside = (x >= r.x0) & (x <= r.x1) & (y >= r.y0) & (y <= r.y1)
+        prot[inside] = i
+    opening = droppoints.in_openings(fm.level, x, y)
+    return Geometry(x, y, path, bay, prot, opening)
+
+
+def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
+                  geo: Geometry, load_index: np.ndarray | None = None) -> dict[str, np.ndarray]:
+    """Every quantity of the analysis of ``load`` at the points of ``geo``.
+
+    ``load`` may be a sequence of loads with ``load_index`` naming the load of each
+    point (several cases in one vectorised pass). Returns the :class:`CaseResult`
+    arrays under their field names plus the intermediate values the calculation
+    trace shows (keys starting with ``_``).
+    """
+    with np.errstate(all="ignore"):
+        return _evaluate_case(fm, project, load, geo, load_index)
+
+
+def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
+                   geo: Geometry, load_index: np.ndarray | None) -> dict[str, np.ndarray]:
+    s = fm.settings
+    fr = fm.frame
+    path = geo.path
+    n = geo.x.size
+    loads = [load] if isinstance(load, LiftLoad) else list(load)
+    li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
+    W = np.array([ld.weight for ld in loads])[li]
+    M = np.array([ld.mass for ld in loads])[li]
+    fl = np.array([ld.footprint_length for ld in loads])[li]
+    fw = np.array([ld.footprint_width for ld in loads])[li]
+    lv = fm.level
+    # ---- protection: thickness, spring compliance, crushable layer
+    t_mat = np.zeros(n)
+    f_mat = np.zeros(n)
+    F_c = np.full(n, np.inf)
+    s_c = np.zeros(n)
+    crushable = np.zeros(n, dtype=bool)
+    for i in np.unique(geo.protection):
+        if i < 0:
+            continue
+        pa = project.protection_areas[int(i)]
+        sel = geo.protection == i
+        t_mat[sel] = pa.thickness
+        if pa.kind == "spring":
+            f_mat[sel] = 1.0 / float(pa.stiffness)  # type: ignore[arg-type]
+        else:
+            crushable[sel] = True
+            F_c[sel] = float(pa.crush_force)  # type: ignore[arg-type]
+            s_c[sel] = float(pa.crush_stroke)  # type: ignore[arg-type]
+    # ---- drop height onto the struck surface
+    h = np.empty(n)
+    for tm in np.unique(t_mat):
+        for j, ld in enumerate(loads):
+            sel = (t_mat == tm) & (li == j)
+            if sel.any():
+                h[sel] = ld.height_above(lv.elevation + float(tm))
+    f_s = path.f
+    f = f_s + f_mat
+    m_e = path.m_e if s.include_member_mass else np.zeros(n)
+    m_e = np.where(np.isfinite(m_e), m_e, 0.0)
+    eta = impact.mass_efficiency(M, m_e)
+    K, F_el, d_max = impact.impact_elastic(W, h, f, eta)
+    F = F_el.copy()
+    crush = np.zeros(n)
+    bottomed = np.zeros(n, dtype=bool)
+    if crushable.any():
+        Fcr, dep, bot = impact.impact_crushable(W[crushable], h[crushable], f_s[crushable],
+                                                eta[crushable], F_c[crushable],
+                                                s_c[crushable])
+        F[crushable] = Fcr
+        crush[crushable] = dep
+        bottomed[crushable] = bot
+        K = np.where(crushable, F / W, K)
+        d_max = np.where(crushable, F * f_s + crush, d_max)
+    d_st = W * f
+    # ---- footprint and bearing
+    spread = 2.0 * t_mat
+    lb = np.minimum(fl, fw) + spread
+    # ---- loaded (deck-supporting) members
+    mem = path.members
+    share = path.share
+    a = path.a
+    Lm = fr.L[mem]
+    cond = fr.cond[mem]
+    xs = _loaded_stations(a, Lm)  # (n, 2, 7)
+    m_unit = share[..., None] * by_condition(beam.unit_moment, cond[..., None],
+                                             Lm[..., None], xs, a[..., None])
+    M0 = _loaded_existing_moment(fm, mem, xs)
+    Mr_l = np.broadcast_to(fm.Mr[mem][..., None], xs.shape)
+    mem_l = np.broadcast_to(mem[..., None], xs.shape)
+    R0, RL = by_condition(beam.unit_reactions, cond, Lm, a)
+    v_unit = np.stack([share * R0, share * RL], axis=-1)  # (n, 2, 2)
+    V0_l = fm.V0[mem]  # (n, 2, 2)
+    Vr_l = np.broadcast_to(fm.Vr[mem][..., None], v_unit.shape)
+    # ---- support members
+    pair = np.maximum(path.pair, 0)
+    sup = fr.pair_sup_member[pair]  # (n, P)
+    has_sup = sup.shape[1] > 0
+    if has_sup:
+        supm = np.maximum(sup, 0)
+        ms_unit = np.einsum("npsi,ni->nps", fr.pair_sup_mcoef[pair], path.r)
+        ms_unit = np.where((sup >= 0)[..., None], ms_unit, 0.0)
+        M0_s = np.where((sup >= 0)[..., None], fm.M0_sup[pair], 0.0)
+        Mr_s = np.broadcast_to(fm.Mr[supm][..., None], ms_unit.shape)
+        mem_s = np.broadcast_to(supm[..., None], ms_unit.shape)
+        vs_unit = np.einsum("npei,ni->npe", fr.pair_sup_rcoef[pair], path.r)
+        vs_unit = np.where((sup >= 0)[..., None], vs_unit, 0.0)
+        V0_s = np.where((sup >= 0)[..., None], fm.V0[supm], 0.0)
+        Vr_s = np.broadcast_to(fm.Vr[supm][..., None], vs_unit.shape)
+    # ---- flexure (all path members) and shear
+    if has_sup:
+        fl_unit = np.concatenate([m_unit.reshape(n, -1), ms_unit.reshape(n, -1)], axis=1)
+        fl_ex = np.concatenate([M0.reshape(n, -1), M0_s.reshape(n, -1)], axis=1)
+        fl_R = np.concatenate([Mr_l.reshape(n, -1), Mr_s.reshape(n, -1)], axis=1)
+        fl_m = np.concatenate([mem_l.reshape(n, -1), mem_s.reshape(n, -1)], axis=1)
+        sh_unit = np.concatenate([v_unit.reshape(n, -1), vs_unit.reshape(n, -1)], axis=1)
+        sh_ex = np.concatenate([V0_l.reshape(n, -1), V0_s.reshape(n, -1)], axis=1)
+        sh_R = np.concatenate([Vr_l.reshape(n, -1), Vr_s.reshape(n, -1)], axis=1)
+        sh_m = np.concatenate([np.broadcast_to(mem[..., None], v_unit.shape).reshape(n, -1),
+                               np.broadcast_to(supm[..., None], vs_unit.shape).reshape(n, -1)],
+                              axis=1)
+    else:
+        fl_unit, fl_ex = m_unit.reshape(n, -1), M0.reshape(n, -1)
+        fl_R, fl_m = Mr_l.reshape(n, -1), mem_l.reshape(n, -1)
+        sh_unit, sh_ex = v_unit.reshape(n, -1), V0_l.reshape(n, -1)
+        sh_R = Vr_l.reshape(n, -1)
+        sh_m = np.broadcast_to(mem[..., None], v_unit.shape).reshape(n, -1)
+    checks: dict[str, _Check] = {}
+    checks["flexure"] = _reduce("flexure", F, fl_unit, fl_ex, fl_R, fl_m)
+    checks["shear"] = _reduce("shear", F, sh_unit, sh_ex, sh_R, sh_m)
+    # ---- web checks under the load (each deck-supporting member, its share)
+    dist = np.maximum(np.minimum(a, Lm - a) - 0.5 * lb[:, None], 0.0)
+    lb_pts = np.broadcast_to(lb[:, None], mem.shape)
+    Rwy = _web_resistance(fm, capacity.web_local_yielding, mem, lb_pts, dist)
+    Rwc = _web_resistance(fm, capacity.web_crippling, mem, lb_pts, dist)
+    zero2 = np.zeros(mem.shape)
+    checks["web_yielding"] = _reduce("web_yielding", F, share, zero2, Rwy, mem)
+    checks["web_crippling"] = _reduce("web_crippling", F, share, zero2, Rwc, mem)
+    # ---- deck flexure (worse of the two footprint orientations) and punching
+    span = path.strip_span
+    pos = path.strip_pos
+    thick = lv.deck.thickness
+    mu1 = deck.deck_unit_moment_per_width(span, pos, fl + spread, fw + spread, thick)
+    mu2 = deck.deck_unit_moment_per_width(span, pos, fw + spread, fl + spread, thick)
+    m_deck = np.maximum(mu1, mu2)
+    M0_deck = deck.deck_existing_moment_per_width(span, fm.q0)
+    deckm = np.full((n, 1), DECK)
+    checks["deck_flexure"] = _reduce("deck_flexure", F, m_deck[:, None], M0_deck[:, None],
+                                     np.full((n, 1), fm.deck_Mr), deckm)
+    R_punch = deck.punching_resistance(lv.deck, fl + spread, fw + spread, s.design_basis,
+                                       s.resistance_factor)
+    checks["deck_punching"] = _reduce("deck_punching", F, np.ones((n, 1)), np.zeros((n, 1)),
+                                      np.broadcast_to(R_punch, (n,))[:, None], deckm)
+    # ---- overall elastic verdict
+    names = list(checks)
+    Ustack = np.stack([checks[c].U for c in names], axis=1)
+    FAstack = np.stack([checks[c].F_allow for c in names], axis=1)
+    Ukey = np.where(np.isnan(Ustack), -np.inf, Ustack)
+    gi = np.argmax(Ukey, axis=1)
+    rows = np.arange(n)
+    U = Ustack[rows, gi]
+    F_allow = np.min(FAstack, axis=1)
+    gov_check = np.array([CHECK[names[i]] for i in range(len(names))])[gi]
+    gov_member = np.stack([checks[c].member for c in names], axis=1)[rows, gi]
+    # ---- plastic reserve: R_p of the path for a load at p
+    # loaded members: virtual-work collapse load for fixed/propped, first hinge otherwise
+    Mp_eff = np.maximum(fm.Mr[mem] - np.abs(M0[..., 0]), 0.0)
+    Pc = by_condition(beam.plastic_collapse_load, cond, Lm, a, Mp_eff)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        Pc = np.where(share > 0, Pc / np.where(share > 0, share, 1.0), np.inf)
+    fa_l = _f_allow(Mr_l, m_unit, M0).min(axis=-1)  # (n, 2) first hinge per member
+    indeterminate = (cond == COND_NAMES.index("fixed")) | (cond == COND_NAMES.index("propped"))
+    Rp_l = np.where(indeterminate, np.maximum(fa_l, Pc), fa_l)
+    Rp_cands = [Rp_l]
+    Rp_member = [mem]
+    Rp_arm = [np.minimum(a, Lm - a)]
+    Rp_L = [Lm]
+    Rp_cond = [cond]
+    if has_sup:
+        fa_s_all = _f_allow(Mr_s, ms_unit, M0_s)  # (n, P, S)
+        j = np.argmin(fa_s_all, axis=-1)
+        fa_s = np.take_along_axis(fa_s_all, j[..., None], axis=-1)[..., 0]
+        fa_s = np.where(sup >= 0, fa_s, np.inf)
+        xst = np.take_along_axis(fr.pair_sup_x[pair], j[..., None], axis=-1)[..., 0]
+        Ls = fr.L[supm]
+        Rp_cands.append(fa_s)
+        Rp_member.append(supm)
+        Rp_arm.append(np.minimum(xst, Ls - xst))
+        Rp_L.append(Ls)
+        Rp_cond.append(fr.cond[supm])
+    Rp_all = np.concatenate(Rp_cands, axis=1)
+    jr = np.argmin(Rp_all, axis=1)
+    R_p = Rp_all[rows, jr]
+    rp_member = np.concatenate(Rp_member, axis=1)[rows, jr]
+    rp_arm = np.concatenate(Rp_arm, axis=1)[rows, jr]
+    rp_cond = np.concatenate(Rp_cond, axis=1)[rows, jr]
+    R_p = np.maximum(R_p, 0.0)
+    # brittle checks at the force the yielding path can pass on
+    F_cap = np.minimum(F, R_p)
+    Ub = np.stack([checks[c].U_at(F_cap) for c in BRITTLE], axis=1)
+    Ub_key = np.where(np.isnan(Ub), -np.inf, Ub)
+    jb = np.argmax(Ub_key, axis=1)
+    Ub_max = Ub[rows, jb]
+    brittle_member = np.stack([checks[c].member for c in BRITTLE], axis=1)[rows, jb]
+    brittle_check = np.array([CHECK[c] for c in BRITTLE])[jb]
+    # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
+    h_struct = h.copy()
+    crush_ok = crushable & (F_c < R_p) & bottomed
+    with np.errstate(divide="ignore", invalid="ignore"):
+        h_struct = np.where(crush_ok, np.maximum(h - (F_c - W) * s_c / (eta * W), 0.0),
+                            h_struct)
+    d_y = R_p * f
+    d_m, _mu_tot, collapsed = plastic.plastic_response(W, h_struct, eta, R_p, d_y)
+    with np.errstate(invalid="ignore"):
+        d_struct = np.maximum(d_m - R_p * f_mat, 0.0)
+        d_struct = np.where(np.isfinite(d_m), d_struct, np.inf)
+        d_y_s = R_p * f_s
+        ductility = np.where(d_y_s > 0, d_struct / np.where(d_y_s > 0, d_y_s, 1.0), np.inf)
+    theta = np.zeros(n)
+    for c in np.unique(rp_cond):
+        sel = rp_cond == c
+        Lsel = np.where(COND_NAMES[int(c)] == "cantilever", rp_arm[sel], 2 * rp_arm[sel])
+        theta[sel] = plastic.support_rotation(d_struct[sel], Lsel, rp_arm[sel],
+                                              COND_NAMES[int(c)])
+    # ---- response
+    flex_exceeded = checks["flexure"].U > 1.0
+    response = np.full(n, ELASTIC, dtype=np.int64)
+    over = U > 1.0
+    brittle_fail = over & (~flex_exceeded | (Ub_max > 1.0))
+    response[over] = EXCEEDS
+    pl = over & ~brittle_fail
+    gov_check = np.where(brittle_fail & flex_exceeded, brittle_check, gov_check)
+    gov_member = np.where(brittle_fail & flex_exceeded, brittle_member, gov_member)
+    col = pl & collapsed
+    duct = pl & ~collapsed & (ductility > s.ductility_limit)
+    rot = pl & ~collapsed & ~duct & (theta > s.rotation_limit)
+    ok_pl = pl & ~collapsed & ~duct & ~rot
+    response[ok_pl] = PLASTIC
+    gov_check = np.where(col, CHECK["collapse"], gov_check)
+    gov_check = np.where(duct, CHECK["ductility"], gov_check)
+    gov_check = np.where(rot, CHECK["rotation"], gov_check)
+    gov_check = np.where(ok_pl, CHECK["flexure"], gov_check)
+    gov_member = np.where(pl, rp_member, gov_member)
+    plastic_defl = np.where(pl, d_m, np.nan)
+    ductility_out = np.where(pl, ductility, np.nan)
+    rotation_out = np.where(pl, theta, np.nan)
+    # ---- inverse answers
+    Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
+    h_el = limits.allowable_drop_height_elastic(W, Fa_pos, d_st, eta)
+    crush_bonus = np.where(crushable & (F_c <= F_allow) & (F_c > W),
+                           (F_c - W) * s_c / (eta * W), 0.0)
+    h_el = h_el + crush_bonus
+    # plastic: ductility and rotation limits, brittle checks at R_p
+    Ub_Rp = np.max(np.stack([checks[c].U_at(R_p) for c in BRITTLE], axis=1), axis=1)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        d_rot = np.tan(s.rotation_limit) * np.where(rp_cond == COND_NAMES.index("cantilever"),
+                                                   rp_arm, rp_arm)
+        d_lim_s = np.minimum(s.ductility_limit * R_p * f_s, d_rot)
+        mu_tot = (d_lim_s + R_p * f_mat) / (R_p * f)
+    h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
+    h_pl = h_pl + np.where(crushable & (F_c < R_p) & (F_c > W),
+                           (F_c - W) * s_c / (eta * W), 0.0)
+    h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0), h_pl, np.nan)
+    h_pl = np.fmax(h_pl, h_el)
+    m_allow = limits.allowable_mass(Fa_pos, h, f, m_e)
+    k_req = limits.required_mat_stiffness(W, h, eta, Fa_pos, f_s)
+    k_req = np.where(np.isfinite(k_req) & (response != ELASTIC), k_req, np.nan)
+    s_req = limits.required_crush_stroke(W, h, eta, Fa_pos, f_s)
+    s_req = np.where((response != ELASTIC) & np.isfinite(s_req), s_req, np.nan)
+    # ---- openings: the load falls through
+    op = geo.opening
+    out = {
+        "x": geo.x, "y": geo.y, "bay": geo.bay, "protection": geo.protection,
+        "drop_height": h, "static_deflection": d_st, "effective_mass": m_e,
+        "dynamic_factor": K, "peak_force": F, "max_deflection": d_max,
+        "deceleration_g": impact.deceleration_g(F, W), "utilisation": U,
+        "governing_member": gov_member.astype(np.int64),
+        "governing_check": gov_check.astype(np.int64), "response": response,
+        "allowable_drop_height": h_el, "allowable_drop_height_plastic": h_pl,
+        "allowable_mass": m_allow, "plastic_deflection": plastic_defl,
+        "ductility": ductility_out, "support_rotation": rotation_out,
+        "required_mat_stiffness": k_req, "required_crush_stroke": s_req,
+    }
+    if op.any():
+        for k in ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
+                  "max_deflection", "deceleration_g", "allowable_drop_height",
+                  "allowable_drop_height_plastic", "allowable_mass", "plastic_deflection",
+                  "ductility", "support_rotation", "required_mat_stiffness",
+                  "required_crush_stroke"):
+            out[k] = np.where(op, np.nan, out[k])
+        out["utilisation"] = np.where(op, np.inf, out["utilisation"])
+        out["response"] = np.where(op, EXCEEDS, out["response"])
+        out["governing_check"] = np.where(op, CHECK["opening"], out["governing_check"])
+        out["governing_member"] = np.where(op, DECK, out["governing_member"])
+    # intermediates for the trace
+    out.update({
+        "_f_s": f_s, "_f_mat": f_mat, "_f": f, "_eta": eta, "_W": W,
+        "_t_mat": t_mat, "_lb": lb, "_F_allow": F_allow, "_R_p": R_p,
+        "_rp_member": rp_member, "_crush": crush, "_bottomed": bottomed,
+        "_h_struct": h_struct, "_d_m": d_m, "_theta": theta, "_ductility": ductility,
+        "_Ub_Rp": Ub_Rp, "_Ub_cap": Ub_max,
+    })
+    for c, chk in checks.items():
+        out[f"_{c}_U"] = chk.U
+        out[f"_{c}_Fa"] = chk.F_allow
+        out[f"_{c}_member"] = chk.member
+        out[f"_{c}_unit"] = chk.unit
+        out[f"_{c}_exist"] = chk.exist
+        out[f"_{c}_R"] = chk.resist
+    return out
+
+
+# --------------------------------------------------------------------------- cases
+_FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
+           "effective_mass", "dynamic_factor", "peak_force", "max_deflection",
+           "deceleration_g", "utilisation", "governing_member", "governing_check",
+           "response", "allowable_drop_height", "allowable_drop_height_plastic",
+           "allowable_mass", "plastic_deflection", "ductility", "support_rotation",
+           "required_mat_stiffness", "required_crush_stroke")
+
+
+def _severity(res: dict[str, np.ndarray]) -> np.ndarray:
+    """Sort key, larger = worse: response state, then utilisation."""
+    U = res["utilisation"]
+    U = np.where(np.isnan(U), 0.0, U)
+    return res["response"] * 1e6 + np.minimum(U, 1e5)
+
+
+def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
+            step: float) -> tuple[np.ndarray, np.ndarray]:
+    """Points on a 5 × 5 lattice of spacing ``step`` around the worst points of
+    each bay (for each load), inside the zone and over a deck panel."""
+    sev = _severity(res)
+    finite = np.isfinite(res["utilisation"])
+    bay = res["bay"]
+    li = res["_load"]
+    # worst REFINE_TOP points per (load, bay): sort by group then severity
+    group = li * (int(bay.max(initial=0)) + 2) + (bay + 1)
+    cand = np.flatnonzero(finite)
+    if cand.size == 0:
+        return np.zeros(0), np.zeros(0)
+    order = cand[np.lexsort((-sev[cand], group[cand]))]
+    g = group[order]
+    first = np.r_[True, g[1:] != g[:-1]]
+    start = np.maximum.accumulate(np.where(first, np.arange(g.size), 0))
+    top = order[(np.arange(g.size) - start) < REFINE_TOP]
+    off = np.arange(-2, 3) * step
+    OX, OY = np.meshgrid(off, off)
+    x = (res["x"][top][:, None] + OX.ravel()[None, :]).ravel()
+    y = (res["y"][top][:, None] + OY.ravel()[None, :]).ravel()
+    keep = droppoints.in_zone(zone, x, y) & (locate(fm.frame, x, y) >= 0)
+    return x[keep], y[keep]
+
+
+def _keys(x: np.ndarray, y: np.ndarray) -> np.ndarray:
+    return np.round(x, 7) + 1j * np.round(y, 7)
+
+
+def _merge(a: dict[str, np.ndarray], b: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    return {k: np.concatenate([a[k], b[k]]) for k in a}
+
+
+def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
+                base: Geometry) -> dict[str, np.ndarray]:
+    """Evaluate every load of ``zone`` at the base points, then refine around each
+    bay's worst points (:data:`REFINE_PASSES` passes, spacing resolution/4, /16, …).
+    All loads are evaluated together; ``_load`` names the load of each row."""
+    loads = list(zone.loads)
+    nl = len(loads)
+    nb = base.x.size
+    li = np.repeat(np.arange(nl), nb)
+    geo = _tile(base, nl)
+    res = evaluate_case(fm, project, loads, geo, li)
+    res["_load"] = li
+    step = fm.settings.grid_resolution
+    known = _keys(base.x, base.y)
+    for _ in range(REFINE_PASSES):
+        step /= 4.0
+        x, y = _refine(fm, zone, res, step)
+        if x.size == 0:
+            break
+        x, y = droppoints.dedupe(x, y)
+        k = _keys(x, y)
+        new = ~np.isin(k, known)
+        x, y = x[new], y[new]
+        if x.size == 0:
+            continue
+        known = np.concatenate([known, k[new]])
+        g1 = point_geometry(fm, project, x, y)
+        li2 = np.repeat(np.arange(nl), x.size)
+        r2 = evaluate_case(fm, project, loads, _tile(g1, nl), li2)
+        r2["_load"] = li2
+        res = _merge(res, r2)
+    return res
+
+
+def _tile(geo: Geometry, k: int) -> Geometry:
+    """``geo`` repeated ``k`` times (one copy per load)."""
+    if k == 1:
+        return geo
+    p = geo.path
+    path = PathResult(**{f: np.concatenate([getattr(p, f)] * k)
+                         for f in p.__dataclass_fields__})
+    return Geometry(np.tile(geo.x, k), np.tile(geo.y, k), path, np.tile(geo.bay, k),
+                    np.tile(geo.protection, k), np.tile(geo.opening, k))
+
+
+def _planned_height(load: LiftLoad, level: Level) -> float:
+    if load.drop_height is not None:
+        return float(load.drop_height)
+    return load.height_above(level.elevation)
+
+
+def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
+                 res: dict[str, np.ndarray]) -> CaseResult:
+    arrays = {k: np.ascontiguousarray(res[k]) for k in _FIELDS}
+    for k in ("bay", "protection", "governing_member", "governing_check", "response"):
+        arrays[k] = arrays[k].astype(np.int64)
+    return CaseResult(zone_id=zone.id, load_name=load.name, level_id=level.id,
+                      mass=load.mass, weight=load.weight,
+                      planned_drop_height=_planned_height(load, level), **arrays)
+
+
+# --------------------------------------------------------------------------- bay summaries
+_FT = 0.3048  # m per ft (exact, international foot)
+_IN = 0.0254  # m per in (exact)
+_KIP = 4448.2216152605  # N per kip (exact by definition of the pound-force)
+
+
+def _fmt_len(v: float, system: str) -> str:
+    return f"{v / _FT:.3g} ft" if system == "US" else f"{v:.3g} m"
+
+
+def _fmt_small(v: float, system: str) -> str:
+    return f"{v / _IN:.3g} in" if system == "US" else f"{v * 1e3:.3g} mm"
+
+
+def _fmt_stiff(v: float, system: str) -> str:
+    return f"{v * _IN / _KIP:.3g} kip/in" if system == "US" else f"{v / 1e6:.3g} kN/mm"
+
+
+def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
+               U: float, load: LiftLoad, planned: float, system: str,
+               mat_travel: float | None = None) -> str:
+    """The plain-language advice for one bay: no protection, a drop-height limit, a
+    spring mat (no stiffer than k; it compresses up to ``mat_travel``), or an
+    exclusion zone. Numbers in the project's unit system (SI or US customary)."""
+    if n_opening:
+        return ("Keep clear: exclusion zone. The load can fall through a deck opening; "
+                "cover the opening or keep the load path away from it.")
+    if resp == ELASTIC:
+        return (f"No protection needed: every checked member stays elastic for "
+                f"{load.name} dropped {_fmt_len(planned, system)} "
+                f"(largest utilisation {U:.2f}).")
+    lead = ("Members yield but stay within the ductility and rotation limits. "
+            if resp == PLASTIC else "")
+    options = []
+    if h_allow is not None and h_allow >= MIN_USEFUL_HEIGHT and resp == EXCEEDS:
+        options.append(f"limit the drop height to {_fmt_len(h_allow, system)}")
+    if (k_mat is not None and math.isfinite(k_mat) and k_mat > 0
+            and (mat_travel is None or mat_travel <= MAX_MAT_TRAVEL)):
+        travel = (f"; it must be able to compress {_fmt_small(mat_travel, system)}"
+                  if mat_travel is not None and math.isfinite(mat_travel) else "")
+        options.append(f"lay a spring mat no stiffer than {_fmt_stiff(k_mat, system)} "
+                       f"over the bay (any softer mat also works{travel})")
+    if resp == PLASTIC:
+        if options:
+            return lead + "For an elastic response: " + ", or ".join(options) + "."
+        return lead + "No mat keeps it elastic; accept only with the engineer's approval."
+    if options:
+        return "Protection needed: " + ", or ".join(options) + "."
+    return ("Keep clear: exclusion zone. No drop height or spring mat found that keeps "
+            "the members within their limits; keep people out and re-plan the lift.")
+
+
+def _least(v: np.ndarray) -> float | None:
+    """Smallest value, or None when any point has none (nan)."""
+    if v.size == 0 or np.any(np.isnan(v)):
+        return None
+    return float(np.min(v))
+
+
+def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
+              system: str, allowed_force: np.ndarray) -> list[BaySummary]:
+    """One :class:`BaySummary` per bay that holds drop points of ``case``
+    (``allowed_force``: the elastic F_allow of each point, N)."""
+    out = []
+    all_bays = bays(level)
+    members = level.members
+    sev = _severity({"utilisation": case.utilisation, "response": case.response})
+    for b in np.unique(case.bay):
+        if b < 0:
+            continue
+        idx = np.flatnonzero(case.bay == b)
+        i = idx[np.argmax(sev[idx])]
+        worst = int(np.max(case.response[idx]))
+        Ub = case.utilisation[idx]
+        U_max = float(np.max(np.where(np.isnan(Ub), -np.inf, Ub)))
+        U_max = U_max if U_max > -np.inf else float("inf")
+
+        h_el = _least(case.allowable_drop_height[idx])
+        h_pl = _least(case.allowable_drop_height_plastic[idx])
+        need = idx[case.response[idx] != ELASTIC]
+        k_mat: float | None = None
+        travel: float | None = None
+        if need.size:
+            kv = case.required_mat_stiffness[need]
+            if not np.any(np.isnan(kv)):
+                j = need[np.argmin(kv)]
+                k_mat = float(case.required_mat_stiffness[j])
+                # the mat carries the allowed force at its softest: travel = F_allow / k
+                travel = float(np.max(allowed_force[need] / k_mat))
+        gm = int(case.governing_member[i])
+        n_open = int(np.sum(case.governing_check[idx] == CHECK["opening"]))
+        advice = bay_advice(worst, n_open, h_pl if worst == EXCEEDS else h_el, k_mat, U_max,
+                            load, case.planned_drop_height, system, travel)
+        out.append(BaySummary(
+            level_id=level.id, bay_id=all_bays[int(b)].id, zone_id=zone.id,
+            load_name=load.name, n_points=int(idx.size), max_utilisation=U_max,
+            response=RESPONSES[worst], allowable_drop_height=h_el,
+            allowable_drop_height_plastic=h_pl, governing_x=float(case.x[i]),
+            governing_y=float(case.y[i]),
+            governing_member="deck" if gm == DECK else members[gm].id,
+            governing_check=CHECKS[int(case.governing_check[i])], advice=advice))
+    return out
+
+
+# --------------------------------------------------------------------------- entry points
+def _floor_cache(project: Project) -> Callable[[str], FloorModel]:
+    cache: dict[str, FloorModel] = {}
+
+    def get(level_id: str) -> FloorModel:
+        if level_id not in cache:
+            cache[level_id] = build_floor(project.level(level_id), project.settings)
+        return cache[level_id]
+
+    return get
+
+
+def analyse_zone(project: Project, zone_id: str,
+                 floor: Callable[[str], FloorModel] | None = None) -> Results:
+    """Every load of one lift zone (see :func:`analyse`)."""
+    floor = floor or _floor_cache(project)
+    zone = project.zone(zone_id)
+    fm = floor(zone.level_id)
+    level = fm.level
+    warnings = list(fm.warnings)
+    x, y = droppoints.base_points(fm.frame, zone, project.settings.grid_resolution)
+    if x.size == 0:
+        warnings.append(f"zone {zone.id}: no drop point over the deck of level {level.id}")
+    base = point_geometry(fm, project, x, y)
+    cases = []
+    summaries: list[BaySummary] = []
+    allres = zone_points(fm, project, zone, base) if zone.loads else {}
+    for j, load in enumerate(zone.loads):
+        sel = allres["_load"] == j
+        res = {k: v[sel] for k, v in allres.items()}
+        case = _case_result(zone, load, level, res)
+        cases.append(case)
+        summaries.extend(summarise(level, zone, load, case, project.settings.unit_system,
+                                   res["_F_allow"]))
+    if not zone.loads:
+        warnings.append(f"zone {zone.id}: no loads to assess")
+    return Results(tuple(cases), tuple(summaries), tuple(warnings))
+
+
+def analyse(project: Project) -> Results:
+    """Analyse every load of every lift zone of ``project``.
+
+    Returns one :class:`CaseResult` per (zone, load) with the arrays of the result
+    contract and one :class:`BaySummary` per (bay, zone, load). SI units. Raises
+    :class:`~droprig.model.ModelError` for framing the method cannot assess (a member
+    end resting on nothing, members resting on each other in a loop).
+    """
+    floor = _floor_cache(project)
+    cases: list[CaseResult] = []
+    summaries: list[BaySummary] = []
+    warnings: list[str] = []
+    for zone in project.lift_zones:
+        r = analyse_zone(project, zone.id, floor)
+        cases.extend(r.cases)
+        summaries.extend(r.bays)
+        warnings.extend(w for w in r.warnings if w not in warnings)
+    return Results(tuple(cases), tuple(summaries), tuple(warnings))

@@ -1,0 +1,277 @@
+"""Drop points of a lift zone over a level (plan geometry, vectorised, SI).
+
+Zone region: the annulus r_min ≤ r ≤ r_max around the crane, slewing
+counter-clockwise from ``slew_start`` to ``slew_end``, intersected with the
+corridor polygon when one is drawn; each part is widened by ``drift_margin``
+(the load may swing that far outside the path of the hook). Widening the sector
+and the corridor separately and intersecting gives a region at least as large as
+widening their intersection (conservative: more points, never fewer).
+
+The points assessed are the zone ∩ the deck panels of the level:
+
+* a square grid at ``settings.grid_resolution`` anchored on the first column line,
+* every point that can govern: along each member line inside the zone (deck
+  members carry the load directly, supports of the deck strips), along the deck
+  mid-strips, at member midspans and close to member ends (web checks), at the
+  columns, and along the zone boundary (the nearest approach to a stiff support),
+* later, :mod:`droprig.solver.analysis` refines around the worst point of each bay.
+
+Points inside a deck opening are kept: the load falls through (response
+"exceeds", check "opening").
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from droprig.model import Level, LiftZone
+from droprig.solver.loadpath import Frame, locate
+
+__all__ = [
+    "base_points",
+    "bay_index",
+    "in_openings",
+    "in_zone",
+    "line_points",
+    "zone_distance",
+]
+
+EDGE_TOL = 1e-9
+
+
+def _seg_dist(px: np.ndarray, py: np.ndarray, ax: float, ay: float, bx: float,
+              by: float) -> np.ndarray:
+    """Distance from points to the segment a–b, m."""
+    dx, dy = bx - ax, by - ay
+    ll = dx * dx + dy * dy
+    if ll <= 0.0:
+        return np.hypot(px - ax, py - ay)
+    t = np.clip(((px - ax) * dx + (py - ay) * dy) / ll, 0.0, 1.0)
+    return np.hypot(px - (ax + t * dx), py - (ay + t * dy))
+
+
+def sector_distance(zone: LiftZone, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+    """Distance (m) from each point to the annular sector of ``zone`` (0 inside)."""
+    cx, cy = zone.crane
+    dx, dy = x - cx, y - cy
+    r = np.hypot(dx, dy)
+    radial = np.maximum(np.maximum(zone.r_min - r, r - zone.r_max), 0.0)
+    sweep = zone.slew_sweep
+    if sweep >= 2 * math.pi - 1e-9:
+        return radial
+    ang = np.mod(np.arctan2(dy, dx) - zone.slew_start, 2 * math.pi)
+    inside_arc = ang <= sweep + 1e-12
+    out = radial.copy()
+    if not np.all(inside_arc):
+        d = np.full(x.shape, np.inf)
+        for th in (zone.slew_start, zone.slew_start + sweep):
+            c, s = math.cos(th), math.sin(th)
+            d = np.minimum(d, _seg_dist(x, y, cx + zone.r_min * c, cy + zone.r_min * s,
+                                        cx + zone.r_max * c, cy + zone.r_max * s))
+        out = np.where(inside_arc, radial, d)
+    return out
+
+
+def polygon_distance(poly: tuple[tuple[float, float], ...], x: np.ndarray,
+                     y: np.ndarray) -> np.ndarray:
+    """Distance (m) from each point to a simple polygon (0 inside; even–odd rule)."""
+    inside = np.zeros(x.shape, dtype=bool)
+    d = np.full(x.shape, np.inf)
+    n = len(poly)
+    for i in range(n):
+        ax, ay = poly[i]
+        bx, by = poly[(i + 1) % n]
+        d = np.minimum(d, _seg_dist(x, y, ax, ay, bx, by))
+        cond = (ay > y) != (by > y)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            xint = ax + (y - ay) * (bx - ax) / (by - ay)
+        inside ^= cond & (x < xint)
+    return np.where(inside, 0.0, d)
+
+
+def zone_distance(zone: LiftZone, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+    """How far (m) each point lies outside the un-widened zone: the larger of its
+    distances to the sector and to the corridor (0 inside both)."""
+    d = sector_distance(zone, x, y)
+    if zone.corridor:
+        d = np.maximum(d, polygon_distance(zone.corridor, x, y))
+    return d
+
+
+def in_zone(zone: LiftZone, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+    """True where the point lies in the zone widened by its drift margin."""
+    return zone_distance(zone, np.asarray(x, float), np.asarray(y, float)) \
+        <= zone.drift_margin + EDGE_TOL
+
+
+def in_openings(level: Level, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+    """True where the point lies inside a deck opening (edges included)."""
+    out = np.zeros(np.shape(x), dtype=bool)
+    for r in level.deck.openings:
+        out |= (x >= r.x0) & (x <= r.x1) & (y >= r.y0) & (y <= r.y1)
+    return out
+
+
+def bay_index(level: Level, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+    """Index into ``droprig.model.bays(level)`` (y outer, x inner); −1 outside."""
+    g = level.grid
+    xl, yl = np.asarray(g.x_lines), np.asarray(g.y_lines)
+    i = np.clip(np.searchsorted(xl, x, side="right") - 1, 0, xl.size - 2)
+    j = np.clip(np.searchsorted(yl, y, side="right") - 1, 0, yl.size - 2)
+    inside = (x >= xl[0] - EDGE_TOL) & (x <= xl[-1] + EDGE_TOL) & \
+        (y >= yl[0] - EDGE_TOL) & (y <= yl[-1] + EDGE_TOL)
+    return np.where(inside, j * (xl.size - 1) + i, -1)
+
+
+def _zone_bbox(zone: LiftZone) -> tuple[float, float, float, float]:
+    m = zone.drift_margin
+    cx, cy = zone.crane
+    x0, y0, x1, y1 = cx - zone.r_max, cy - zone.r_max, cx + zone.r_max, cy + zone.r_max
+    if zone.corridor:
+        px = [p[0] for p in zone.corridor]
+        py = [p[1] for p in zone.corridor]
+        x0, x1 = max(x0, min(px)), min(x1, max(px))
+        y0, y1 = max(y0, min(py)), min(y1, max(py))
+    return x0 - m, y0 - m, x1 + m, y1 + m
+
+
+def _samples(lo: float, hi: float, step: float) -> np.ndarray:
+    n = max(1, math.ceil((hi - lo) / step - 1e-9))
+    return np.linspace(lo, hi, n + 1)
+
+
+def line_points(frame: Frame, step: float) -> tuple[np.ndarray, np.ndarray]:
+    """Points along every member line, along each deck mid-strip, at member
+    midspans, at d/2, d and the ends of every member (web checks near supports)
+    and at every column, m."""
+    level = frame.level
+    xs: list[np.ndarray] = []
+    ys: list[np.ndarray] = []
+    for m in level.members:
+        (x0, y0), (x1, y1) = m.start, m.end
+        L = m.span
+        d = m.section.d
+        t = np.concatenate([_samples(0.0, 1.0, step / L),
+                            np.array([0.5, d / (2 * L), d / L, 1 - d / (2 * L), 1 - d / L])])
+        t = np.clip(t, 0.0, 1.0)
+        xs.append(x0 + (x1 - x0) * t)
+        ys.append(y0 + (y1 - y0) * t)
+    # deck mid-strips: halfway between the two members of each panel, over the cell
+    ub, vb = frame.u_breaks, frame.v_breaks
+    for iu in range(frame.cell_pair.shape[0]):
+        for iv in range(frame.cell_pair.shape[1]):
+            ip = frame.cell_pair[iu, iv]
+            if ip < 0:
+                continue
+            c0, c1 = frame.pair_c[ip]
+            um = 0.5 * (c0 + c1)
+            if not (ub[iu] - EDGE_TOL <= um <= ub[iu + 1] + EDGE_TOL):
+                continue
+            v = _samples(vb[iv], vb[iv + 1], step)
+            u = np.full(v.shape, um)
+            x, y = (v, u) if frame.deck_axis == "x" else (u, v)
+            xs.append(x)
+            ys.append(y)
+    cols = np.array(level.grid.columns, dtype=float).reshape(-1, 2)
+    xs.append(cols[:, 0])
+    ys.append(cols[:, 1])
+    return np.concatenate(xs), np.concatenate(ys)
+
+
+def boundary_points(zone: LiftZone, step: float) -> tuple[np.ndarray, np.ndarray]:
+    """Points on the boundary of the widened sector and of the widened corridor, m."""
+    m = zone.drift_margin
+    cx, cy = zone.crane
+    xs: list[np.ndarray] = []
+    ys: list[np.ndarray] = []
+    full = zone.slew_sweep >= 2 * math.pi - 1e-9
+    th0 = zone.slew_start
+    sweep = zone.slew_sweep
+    for r in (zone.r_min - m, zone.r_max + m):
+        if r <= 0:
+            continue
+        n = max(8, math.ceil(r * (2 * math.pi if full else sweep) / step))
+        th = th0 + np.linspace(0.0, 2 * math.pi if full else sweep, n + 1)
+        xs.append(cx + r * np.cos(th))
+        ys.append(cy + r * np.sin(th))
+    if not full:
+        for th, sgn in ((th0, -1.0), (th0 + sweep, 1.0)):
+            c, s = math.cos(th), math.sin(th)
+            nx, ny = -s * sgn, c * sgn  # outward normal of the straight edge
+            rr = _samples(max(zone.r_min, 0.0), zone.r_max, step)
+            xs.append(cx + rr * c + m * nx)
+            ys.append(cy + rr * s + m * ny)
+            for r in (zone.r_min, zone.r_max):  # rounded corners
+                if r <= 0 and m <= 0:
+                    continue
+                phi = np.linspace(0.0, 2 * math.pi, 17)
+                xs.append(cx + r * c + m * np.cos(phi))
+                ys.append(cy + r * s + m * np.sin(phi))
+    if zone.corridor:
+        poly = zone.corridor
+        for i in range(len(poly)):
+            (ax, ay), (bx, by) = poly[i], poly[(i + 1) % len(poly)]
+            ln = math.hypot(bx - ax, by - ay)
+            if ln <= 0:
+                continue
+            t = _samples(0.0, 1.0, step / ln)
+            nx, ny = (by - ay) / ln, -(bx - ax) / ln
+            for sgn in (1.0, -1.0):
+                xs.append(ax + (bx - ax) * t + sgn * m * nx)
+                ys.append(ay + (by - ay) * t + sgn * m * ny)
+            phi = np.linspace(0.0, 2 * math.pi, 17)
+            xs.append(ax + m * np.cos(phi))
+            ys.append(ay + m * np.sin(phi))
+    if not xs:
+        return np.zeros(0), np.zeros(0)
+    x, y = np.concatenate(xs), np.concatenate(ys)
+    # pull each point a hair inside so that rounding never drops it
+    d = zone_distance(zone, x, y)
+    keep = d <= m + 1e-6
+    return x[keep], y[keep]
+
+
+def base_points(frame: Frame, zone: LiftZone, resolution: float) -> tuple[np.ndarray,
+                                                                         np.ndarray]:
+    """Grid plus governing points of ``zone`` over ``frame``'s deck (see module
+    docstring), deduplicated to 1e-6 m. Points outside every deck panel and
+    outside the zone are dropped, except points in openings which are kept."""
+    level = frame.level
+    ext = level.grid.extent
+    bx0, by0, bx1, by1 = _zone_bbox(zone)
+    x0, y0 = max(bx0, ext.x0), max(by0, ext.y0)
+    x1, y1 = min(bx1, ext.x1), min(by1, ext.y1)
+    parts_x: list[np.ndarray] = []
+    parts_y: list[np.ndarray] = []
+    if x1 >= x0 and y1 >= y0:
+        gx0 = ext.x0 + math.floor((x0 - ext.x0) / resolution) * resolution
+        gy0 = ext.y0 + math.floor((y0 - ext.y0) / resolution) * resolution
+        gx = np.arange(gx0, x1 + resolution * 0.5, resolution)
+        gy = np.arange(gy0, y1 + resolution * 0.5, resolution)
+        GX, GY = np.meshgrid(gx, gy)
+        parts_x.append(GX.ravel())
+        parts_y.append(GY.ravel())
+    lx, ly = line_points(frame, resolution / 2.0)
+    parts_x.append(lx)
+    parts_y.append(ly)
+    zx, zy = boundary_points(zone, resolution / 2.0)
+    parts_x.append(zx)
+    parts_y.append(zy)
+    x = np.concatenate(parts_x)
+    y = np.concatenate(parts_y)
+    keep = in_zone(zone, x, y) & (locate(frame, x, y) >= 0)
+    x, y = x[keep], y[keep]
+    return dedupe(x, y)
+
+
+def dedupe(x: np.ndarray, y: np.ndarray, tol: float = 1e-6) -> tuple[np.ndarray, np.ndarray]:
+    """Remove repeated points (closer than ``tol`` on a lattice), keeping order by
+    (y, x)."""
+    if x.size == 0:
+        return x, y
+    key = np.stack([np.round(y / tol), np.round(x / tol)], axis=1)
+    _, idx = np.unique(key, axis=0, return_index=True)
+    idx = np.sort(idx)
+    return x[idx], y[idx]
