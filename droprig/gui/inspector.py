@@ -800,8 +800,8 @@ class Inspector(QWidget):
         if form is None or form.commit is None:
             return
         after = form.commit(self._doc.project, new_obj)  # may raise ModelError
-        self._doc.edit(after, f"{form.title}: {spec.label.lower()}")
         sel = self._doc.selection
+        self._doc.edit(after, f"{form.title}: {spec.label.lower()}")
         if sel is not None and sel.kind == "load" and spec.key == "name":
             self._doc.select(Selection("load", (sel.ids[0], new_obj.name)))
 
