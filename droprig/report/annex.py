@@ -32,7 +32,7 @@ from dataclasses import dataclass
 from droprig import __version__
 from droprig.model import Level, LiftZone, Member, Project
 from droprig.report import content, fonts
-from droprig.report.text import esc, fmt_util, fmt_value, is_none, substitute
+from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, is_none, substitute
 from droprig.solver.results import CHECKS, DECK, CaseResult, Results, Trace
 
 Progress = Callable[[float, str], None]
@@ -378,10 +378,24 @@ def _canvas_class(header: _Header, counter: list[int]) -> type:
             self.drawString(x + 2.5, y + h - 6.2, label.upper())
             self.setFillColor(colors.black)
             font = fonts.BOLD if bold else fonts.REGULAR
-            while size > 5.5 and self.stringWidth(value, font, size) > w - 5:
+            while size > 6.5 and self.stringWidth(value, font, size) > w - 5:
                 size -= 0.25
+            if self.stringWidth(value, font, size) <= w - 5:
+                self.setFont(font, size)
+                self.drawString(x + 2.5, y + 3.2, value)
+                return
+            # two lines at a smaller size, the second clipped if it must be
+            size = min(size, 6.0)
+            words = value.split(" ")
+            first = ""
+            while words and self.stringWidth((first + " " + words[0]).strip(), font,
+                                             size) <= w - 5:
+                first = (first + " " + words.pop(0)).strip()
+            if not first:  # one very long word
+                first, words = clip(self, value, font, size, w - 5), []
             self.setFont(font, size)
-            self.drawString(x + 2.5, y + 3.2, clip(self, value, font, size, w - 5))
+            self.drawString(x + 2.5, y + 3.0 + size + 1.0, first)
+            self.drawString(x + 2.5, y + 3.0, clip(self, " ".join(words), font, size, w - 5))
 
         def _title_block(self, page: int, total: int) -> None:
             W, H = self._pagesize
@@ -403,7 +417,7 @@ def _canvas_class(header: _Header, counter: list[int]) -> type:
                      ("Date", header.date, False)]
             x = m
             for (label, value, bold), cwi in zip(cells, cw, strict=True):
-                self._cell(x, top - 35, cwi, 20, label, value, size=8.5, bold=bold)
+                self._cell(x, top - 39, cwi, 24, label, value, size=8.5, bold=bold)
                 x += cwi
             # footer band
             y = MARGIN_BOTTOM
@@ -431,7 +445,7 @@ def _canvas_class(header: _Header, counter: list[int]) -> type:
 MARGIN_X = 40.0
 MARGIN_TOP = 30.0
 MARGIN_BOTTOM = 30.0
-HEADER_H = 44.0
+HEADER_H = 48.0
 FOOTER_H = 26.0
 
 
@@ -510,7 +524,7 @@ class _Builder:
                     _outcome_cell(cv.response, st),
                     self.P(fmt_util(cv.max_utilisation) + (
                         f"<br/>worst bay {esc(cv.worst_bay.bay_id)}" if cv.worst_bay else "")),
-                    self.P(self.v(cv.least_allowable_drop_height, "length")),
+                    self.P(fmt_allow(cv.least_allowable_drop_height, "length", self.sys)),
                     self.P(esc(cv.advice)),
                 ])
                 extra.append(_outcome_bg(cv.response, 2, i + 1))
@@ -548,8 +562,8 @@ class _Builder:
                     self.P(f"{esc(b.governing_member)} · {esc(b.governing_check)} at "
                            f"({self.v(b.governing_x, 'length')}, "
                            f"{self.v(b.governing_y, 'length')})"),
-                    self.P(self.v(b.allowable_drop_height, "length")),
-                    self.P(self.v(b.allowable_drop_height_plastic, "length")),
+                    self.P(fmt_allow(b.allowable_drop_height, "length", self.sys)),
+                    self.P(fmt_allow(b.allowable_drop_height_plastic, "length", self.sys)),
                     self.P(esc(b.advice), st.tiny),
                 ])
                 extra.append(_outcome_bg(b.response, 2, i + 1))
@@ -733,9 +747,11 @@ class _Builder:
                 ("Utilisation U", fmt_util(float(c.utilisation[i]))),
                 ("Governing check", _check_name(int(c.governing_check[i]))),
                 ("Allowable drop height, elastic",
-                 self.v(float(c.allowable_drop_height[i]), "length")),
+                 fmt_allow(float(c.allowable_drop_height[i]), "length", self.sys)),
                 ("Allowable drop height, plastic",
-                 self.v(float(c.allowable_drop_height_plastic[i]), "length")),
+                 fmt_allow(float(c.allowable_drop_height_plastic[i]), "length", self.sys)),
+                ("Allowable mass at the planned height",
+                 fmt_allow(float(c.allowable_mass[i]), "mass", self.sys)),
             ]
             if not is_none(float(c.ductility[i])):
                 vals.append(("Ductility μ", fmt_value(float(c.ductility[i]), "dimensionless",

@@ -48,6 +48,9 @@ def fmt_value(value: float | None, quantity: str, system: UnitSystem, *,
     v = float(value)
     if quantity == "length" and math.isfinite(v) and 0 < abs(v) < SMALL_LENGTH_BELOW:
         quantity = "small_length"
+    if math.isinf(v):
+        u = fmt_unit(quantity if quantity != "length" else "length", system)
+        return ("∞" if v > 0 else "-∞") + (f" {u}" if unit and u else "")
     if quantity not in units.QUANTITIES:
         return f"{v:.4g}"
     if quantity == "pressure" and system == "US" and math.isfinite(v):
@@ -60,6 +63,15 @@ def fmt_value(value: float | None, quantity: str, system: UnitSystem, *,
     return units.fmt(v, quantity, system, unit=unit)
 
 
+def fmt_allow(value: float | None, quantity: str, system: UnitSystem) -> str:
+    """An allowable value (drop height, mass): ``unlimited`` when infinite (no
+    limit is reached at any value), ``none`` when none is acceptable, otherwise
+    as :func:`fmt_value`."""
+    if not is_none(value) and math.isinf(float(value)) and float(value) > 0:  # type: ignore[arg-type]
+        return "unlimited"
+    return fmt_value(value, quantity, system)
+
+
 def fmt_unit(quantity: str, system: UnitSystem) -> str:
     """Display unit of ``quantity`` (empty for dimensionless)."""
     if quantity not in units.QUANTITIES:
@@ -68,12 +80,13 @@ def fmt_unit(quantity: str, system: UnitSystem) -> str:
 
 
 def fmt_util(u: float | None) -> str:
-    """Utilisation as a ratio with two decimals (``1.37``); ``none`` for nan."""
+    """Utilisation as a ratio with two decimals (``1.37``); ``none`` for nan; ``∞``
+    where the demand meets no resistance at all."""
     if is_none(u):
         return "none"
     assert u is not None
     if math.isinf(u):
-        return "unlimited"
+        return "∞" if u > 0 else "-∞"
     return f"{u:.2f}"
 
 

@@ -33,7 +33,7 @@ from pypdf import PdfReader
 
 from droprig.model import Project
 from droprig.report import annex
-from droprig.report.text import fmt_util, fmt_value
+from droprig.report.text import fmt_allow, fmt_util, fmt_value
 from droprig.solver.results import RESPONSES, BaySummary, Results
 
 analysis = pytest.importorskip("droprig.solver.analysis")
@@ -177,8 +177,8 @@ def test_governing_numbers_are_the_solvers(built: Annex) -> None:
     for b in r.bays:
         assert b.bay_id in bay_text
         assert fmt_util(b.max_utilisation) in bay_text
-        assert fmt_value(b.allowable_drop_height, "length", system) in bay_text
-        assert fmt_value(b.allowable_drop_height_plastic, "length", system) in bay_text
+        assert fmt_allow(b.allowable_drop_height, "length", system) in bay_text
+        assert fmt_allow(b.allowable_drop_height_plastic, "length", system) in bay_text
     # each calculation sheet prints the solver's peak force, dynamic factor and U there
     sheets = _sheet_points(r, built.project)
     for b in sheets:

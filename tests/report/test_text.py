@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 from reportlab.platypus import Paragraph
 
-from droprig.report.text import esc, fmt_util, fmt_value, substitute
+from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, substitute
 
 
 @pytest.mark.parametrize("raw", ["<b>Bay & Co</b>", "a < b > c & d", "&amp; stays &amp;",
@@ -30,6 +30,7 @@ def test_escaped_text_prints_literally_in_a_paragraph(raw: str) -> None:
     (4448.2216152605, "force", "US", "1.00 kip"),  # NIST SP 811 B.8: 1 lbf = 4.448 N
     (47.88025898033584, "pressure", "US", "1.0 psf"),  # NIST SP 811 B.8: 1 psf = 47.88 Pa
     (2500.0, "pressure", "SI", "2.50 kPa"),
+    (float("inf"), "force", "SI", "∞ kN"),
     (None, "length", "SI", "none"),
     (float("nan"), "force", "SI", "none"),
 ])
@@ -38,7 +39,8 @@ def test_fmt_value(value: float | None, quantity: str, system: str, expected: st
 
 
 @pytest.mark.parametrize(("u", "expected"), [(1.3749, "1.37"), (0.5, "0.50"),
-                                             (float("nan"), "none"), (None, "none")])
+                                             (float("nan"), "none"), (None, "none"),
+                                             (float("inf"), "∞")])
 def test_fmt_util(u: float | None, expected: str) -> None:
     # utilisation = demand/resistance printed to 2 decimals (common practice, no source)
     assert fmt_util(u) == expected
@@ -58,3 +60,11 @@ def test_substitute_leaves_symbols_inside_words_alone() -> None:
     # "h" must not be replaced inside "sqrt" or "h_w" (token rule, no source)
     got = substitute("sqrt(h) + h_w", {"h": (2.0, "length")}, "SI")
     assert got == "sqrt(2.000 m) + h_w"
+
+
+@pytest.mark.parametrize(("value", "expected"), [(float("inf"), "unlimited"), (None, "none"),
+                                                 (0.3048, "1.00 ft")])
+def test_fmt_allow(value: float | None, expected: str) -> None:
+    # an infinite allowable height means no limit is reached (common practice, no
+    # source); 1 ft = 0.3048 m exactly
+    assert fmt_allow(value, "length", "US") == expected
