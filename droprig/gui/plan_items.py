@@ -139,6 +139,12 @@ def fmt_ratio(u: float | None) -> str:
     return f"{u:.2f}"
 
 
+def utilisation_line(s: BayState) -> tuple[str, str]:
+    """(line under the outcome words, its compact form) for the utilisation."""
+    u = fmt_ratio(s.max_utilisation)
+    return f"U {u}", u
+
+
 class BaysItem(PixelSized, QGraphicsItem):
     """Bay panels filled with the outcome colour and hatch (z 0)."""
 
@@ -194,7 +200,7 @@ class BayLabelsItem(PixelSized, QGraphicsItem):
         QGraphicsItem.__init__(self)
         PixelSized.__init__(self)
         self._bays = bays_item
-        self.value_line: Callable[[BayState], str] = lambda s: f"U {fmt_ratio(s.max_utilisation)}"
+        self.value_line: Callable[[BayState], tuple[str, str]] = utilisation_line
         self.setZValue(8)
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
 
@@ -203,7 +209,8 @@ class BayLabelsItem(PixelSized, QGraphicsItem):
 
     def label_for(self, s: BayState, width_px: float, height_px: float) -> list[str]:
         """The lines that fit a bay of the given screen size (for tests too)."""
-        words, value = s.label_lines(self.value_line(s))
+        full, number = self.value_line(s)
+        words, value = s.label_lines(full)
         st = style.outcome(s.key)
         fm_b = QFontMetricsF(pixel_font(11, True))
         fm = QFontMetricsF(pixel_font(11))
@@ -211,7 +218,7 @@ class BayLabelsItem(PixelSized, QGraphicsItem):
         need_w = max(fm_b.horizontalAdvance(words), fm.horizontalAdvance(value)) + 10
         if need_w <= width_px and 15 * len(lines) + 6 <= height_px:
             return lines
-        number = value.split(" ", 1)[-1] if value else ""
+        number = number if value else ""
         for short in (f"{s.short_word()} {number}".strip(), f"{st.tag} {number}".strip()):
             if fm_b.horizontalAdvance(short) + 8 <= width_px and height_px >= 20:
                 return [short]

@@ -80,6 +80,7 @@ from droprig.gui.plan_items import (
     rasterise,
     rect_to_scene,
     to_scene,
+    utilisation_line,
     zone_bounds,
 )
 from droprig.model import Level, LiftZone, ModelError, Project, Rect, bays
@@ -504,14 +505,18 @@ class PlanView(QGraphicsView):
     def _refresh_overlay(self) -> None:
         mode = self._overlay
         self._bays_item.set_fill_alpha(255 if mode == "outcome" else 0)
-        if mode == "outcome":
-            self._labels_item.value_line = lambda s: f"U {fmt_ratio(s.max_utilisation)}"
-        elif mode == "utilisation":
-            self._labels_item.value_line = lambda s: f"U {fmt_ratio(s.max_utilisation)}"
-        else:
+        if mode == "drop_height":
             sysm = self.unit_system
-            self._labels_item.value_line = lambda s: "drop ≤ " + units.fmt(
-                s.allowable_drop_height, "length", sysm, decimals=2)
+
+            def drop_line(s: BayState) -> tuple[str, str]:
+                if s.allowable_drop_height is None:
+                    return "no safe drop", "none"
+                h = units.fmt(s.allowable_drop_height, "length", sysm, decimals=2)
+                return f"drop ≤ {h}", h
+
+            self._labels_item.value_line = drop_line
+        else:
+            self._labels_item.value_line = utilisation_line
         self._labels_item.update()
         self._raster_ok = False
         self._overlay_item.setVisible(False)
@@ -1045,7 +1050,7 @@ class PlanView(QGraphicsView):
 
     def _paint_ramp(self, p: QPainter, r: QRectF, mode: str) -> None:
         sysm = self.unit_system
-        bar = QRectF(r.left(), r.top() + 2, r.width() - 44, 12)
+        bar = QRectF(r.left() + 4, r.top() + 2, r.width() - 72, 12)
         lo, hi = UTIL_RANGE if mode == "utilisation" else DROP_RANGE
         grad = QLinearGradient(bar.topLeft(), bar.topRight())
         for k in range(11):
@@ -1056,11 +1061,10 @@ class PlanView(QGraphicsView):
         p.setPen(cosmetic_pen("#555555", 1.0))
         p.setBrush(Qt.BrushStyle.NoBrush)
         p.drawRect(bar)
-        extra = QRectF(bar.right() + 6, bar.top(), 36, 12)
+        extra = QRectF(bar.right() + 30, bar.top(), 34, 12)
         if mode == "utilisation":
             st = style.outcome("exceeds")
             p.fillRect(extra, st.fill_brush())
-            p.fillRect(extra, st.hatch_brush())
             extra_text = "> 1"
             ticks = [(0.0, "0"), (0.5, "0.5"), (1.0, "1.0")]
             note = "utilisation, worst per cell"
@@ -1073,11 +1077,18 @@ class PlanView(QGraphicsView):
         p.drawRect(extra)
         p.setFont(pixel_font(9))
         p.setPen(QColor("#222222"))
-        for v, t in ticks:
+        for k, (v, t) in enumerate(ticks):
             tx = bar.left() + (v - lo) / (hi - lo) * bar.width()
             p.drawLine(QPointF(tx, bar.bottom()), QPointF(tx, bar.bottom() + 3))
-            p.drawText(QRectF(tx - 24, bar.bottom() + 3, 48, 12), Qt.AlignmentFlag.AlignCenter, t)
-        p.drawText(QRectF(extra.left() - 6, extra.bottom() + 3, 48, 12),
+            if k == 0:
+                box, align = QRectF(tx - 3, bar.bottom() + 3, 48, 12), Qt.AlignmentFlag.AlignLeft
+            elif k == len(ticks) - 1:
+                t = f"≥ {t}" if mode == "drop_height" else t
+                box, align = QRectF(tx - 45, bar.bottom() + 3, 48, 12), Qt.AlignmentFlag.AlignRight
+            else:
+                box, align = QRectF(tx - 24, bar.bottom() + 3, 48, 12), Qt.AlignmentFlag.AlignCenter
+            p.drawText(box, align, t)
+        p.drawText(QRectF(extra.left() - 7, extra.bottom() + 3, 48, 12),
                    Qt.AlignmentFlag.AlignCenter, extra_text)
         p.setPen(QColor("#555555"))
         p.drawText(QRectF(r.left(), bar.bottom() + 17, r.width(), 24),
