@@ -14,8 +14,9 @@ and "page x of y"):
 7. Input identification and sign-off.
 
 Each logical page is one :class:`KeepInFrame` (shrink) followed by a page break,
-so the page count follows from the content alone (see :func:`page_plan`) and no
-table ever spills onto a page that the title block does not name.
+so the page count follows from the content alone (rows per page are the
+constants below) and no table ever spills onto a page that the title block does
+not name.
 """
 
 from __future__ import annotations
@@ -144,10 +145,6 @@ class Sheet:
     case: CaseResult | None
     index: int | None
 
-    @property
-    def n_pages(self) -> int:
-        return max(1, math.ceil(len(self.trace.steps) / STEPS_PER_PAGE))
-
 
 def _point_index(case: CaseResult, x: float, y: float) -> int | None:
     if case.n == 0:
@@ -183,40 +180,6 @@ def build_sheets(project: Project, results: Results, zones: Sequence[LiftZone],
         idx = _point_index(case, ref.x, ref.y) if case is not None else None
         out.append(Sheet(ref, tr, case, idx))
     return out
-
-
-def member_rows(level: Level, project: Project) -> list[Member]:
-    return list(level.members)
-
-
-@dataclass(frozen=True)
-class PagePlan:
-    """How many pages each section takes (the annex's page count is the sum)."""
-
-    summary: int
-    bays: int
-    plans: int
-    members: int
-    sheets: int
-    assumptions: int = 1
-    signoff: int = 1
-
-    @property
-    def total(self) -> int:
-        return (self.summary + self.bays + self.plans + self.members + self.sheets
-                + self.assumptions + self.signoff)
-
-
-def page_plan(n_cases: int, n_bay_rows: int, n_levels: int, n_members: int,
-              sheet_steps: Sequence[int]) -> PagePlan:
-    """Pages each section needs, from the amount of content."""
-    return PagePlan(
-        summary=max(1, math.ceil(n_cases / LIFT_ROWS_PER_PAGE)),
-        bays=max(1, math.ceil(n_bay_rows / BAY_ROWS_PER_PAGE)),
-        plans=n_levels,
-        members=max(1, math.ceil(n_members / MEMBER_ROWS_PER_PAGE)) if n_members else 0,
-        sheets=sum(max(1, math.ceil(n / STEPS_PER_PAGE)) for n in sheet_steps),
-    )
 
 
 # ----------------------------------------------------------------------- layout
@@ -465,10 +428,11 @@ class _Builder:
         self.st = _Styles()
         self.pages: list[tuple[str, list[object]]] = []
 
-    def P(self, text: str, style: object | None = None) -> object:
+    def P(self, text: str, style: object | None = None, bulletText: str | None = None
+          ) -> object:
         from reportlab.platypus import Paragraph
 
-        return Paragraph(text, style or self.st.cell)
+        return Paragraph(text, style or self.st.cell, bulletText=bulletText)
 
     def v(self, value: float | None, quantity: str) -> str:
         return fmt_value(value, quantity, self.sys)
@@ -779,7 +743,7 @@ class _Builder:
         head = f"{HEADINGS['assumptions']}; {HEADINGS['cautions'].lower()}"
         flow: list[object] = [self.P(esc(HEADINGS["assumptions"]), st.h1)]
         for a in ASSUMPTIONS:
-            flow.append(self.P(esc(a), st.bullet))
+            flow.append(self.P(esc(a), st.bullet, bulletText="•"))
         flow.append(self.P("Not checked", st.h2))
         flow.append(self.P(esc("droprig does not check: " + "; ".join(NOT_CHECKED) + "."),
                            st.body))
@@ -803,13 +767,13 @@ class _Builder:
             flow.append(self.P("Analysis warnings", st.h2))
             shown = self.r.warnings[:8]
             for wmsg in shown:
-                flow.append(self.P(esc(wmsg), st.bullet))
+                flow.append(self.P(esc(wmsg), st.bullet, bulletText="•"))
             if len(self.r.warnings) > len(shown):
                 flow.append(self.P(f"… and {len(self.r.warnings) - len(shown)} more.", st.small))
         flow.append(Spacer(1, 6))
         flow.append(self.P(esc(HEADINGS["cautions"]), st.h1))
         for c in CAUTIONS:
-            flow.append(self.P(esc(c), st.bullet))
+            flow.append(self.P(esc(c), st.bullet, bulletText="•"))
         self.add(head, flow)
 
     # -- identification, sign-off
@@ -1018,6 +982,10 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
         doc.addPageTemplates([PageTemplate(id="page", frames=[frame])])
         tick(0.6, "Rendering PDF")
         doc.build(story, canvasmaker=_canvas_class(header, counter))
+        if counter[0] != len(b.pages):  # one KeepInFrame per page: should not happen
+            raise RuntimeError(f"annex layout: {counter[0]} pages rendered for "
+                               f"{len(b.pages)} planned; please report this with the "
+                               "project file")
         os.replace(tmp, target)
     except BaseException:
         try:
