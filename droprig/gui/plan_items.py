@@ -374,12 +374,15 @@ class ProtectionItem(PixelSized, QGraphicsItem):
 
     margin_px = 4.0
 
-    def __init__(self) -> None:
+    def __init__(self, part: str = "area") -> None:
+        """``part``: "area" draws the rectangles (z 4), "label" the names (z 8.6,
+        above the bay labels)."""
         QGraphicsItem.__init__(self)
         PixelSized.__init__(self)
         self._areas: list[ProtectionArea] = []
         self._rect = QRectF()
-        self.setZValue(4)
+        self.part = part
+        self.setZValue(4 if part == "area" else 8.6)
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
 
     def set_areas(self, areas: Sequence[ProtectionArea]) -> None:
@@ -405,15 +408,17 @@ class ProtectionItem(PixelSized, QGraphicsItem):
 
     def paint(self, painter: QPainter, option: QStyleOptionGraphicsItem,
               widget: QWidget | None = None) -> None:
-        fill = QColor(style.PLAN["protection_fill"][:7])
-        fill.setAlpha(int(style.PLAN["protection_fill"][7:9], 16))
-        for a in self._areas:
-            r = rect_to_scene(a.area)
-            painter.fillRect(r, fill)
-            painter.setPen(cosmetic_pen(style.PLAN["protection_edge"], 2.0,
-                                        Qt.PenStyle.DashLine))
-            painter.setBrush(Qt.BrushStyle.NoBrush)
-            painter.drawRect(r)
+        if self.part == "area":
+            fill = QColor(style.PLAN["protection_fill"][:7])
+            fill.setAlpha(int(style.PLAN["protection_fill"][7:9], 16))
+            for a in self._areas:
+                r = rect_to_scene(a.area)
+                painter.fillRect(r, fill)
+                painter.setPen(cosmetic_pen(style.PLAN["protection_edge"], 2.0,
+                                            Qt.PenStyle.DashLine))
+                painter.setBrush(Qt.BrushStyle.NoBrush)
+                painter.drawRect(r)
+            return
         t = painter.worldTransform()
         painter.save()
         painter.resetTransform()
@@ -521,14 +526,17 @@ class ZonesItem(PixelSized, QGraphicsItem):
 
     margin_px = 160.0
 
-    def __init__(self) -> None:
+    def __init__(self, part: str = "area") -> None:
+        """``part``: "area" draws sectors, bands and corridors (z 5); "crane"
+        the crane symbols and labels (z 8.7, above the bay labels)."""
         QGraphicsItem.__init__(self)
         PixelSized.__init__(self)
         self._zones: list[LiftZone] = []
         self._preview: LiftZone | None = None
         self._selected: str | None = None
         self._rect = QRectF()
-        self.setZValue(5)
+        self.part = part
+        self.setZValue(5 if part == "area" else 8.7)
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
 
     def set_zones(self, zones: Sequence[LiftZone]) -> None:
@@ -565,6 +573,15 @@ class ZonesItem(PixelSized, QGraphicsItem):
     def paint(self, painter: QPainter, option: QStyleOptionGraphicsItem,
               widget: QWidget | None = None) -> None:
         painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
+        if self.part == "crane":
+            t = painter.worldTransform()
+            painter.save()
+            painter.resetTransform()
+            for z in self.shown_zones():
+                self._paint_crane(painter, t.map(to_scene(*z.crane)),
+                                  z.slew_start + z.slew_sweep / 2, z, z.id == self._selected)
+            painter.restore()
+            return
         teal = QColor(style.PLAN["zone_edge"])
         wash = QColor(teal)
         wash.setAlpha(0x22)
@@ -598,13 +615,6 @@ class ZonesItem(PixelSized, QGraphicsItem):
             if z.corridor:
                 painter.setPen(cosmetic_pen(teal, w, Qt.PenStyle.DashDotLine))
                 painter.drawPolygon(QPolygonF([to_scene(*p) for p in z.corridor]))
-        t = painter.worldTransform()
-        painter.save()
-        painter.resetTransform()
-        for z in self.shown_zones():
-            self._paint_crane(painter, t.map(to_scene(*z.crane)),
-                              z.slew_start + z.slew_sweep / 2, z, z.id == self._selected)
-        painter.restore()
 
     @staticmethod
     def crane_label(z: LiftZone) -> str:
@@ -629,8 +639,12 @@ class ZonesItem(PixelSized, QGraphicsItem):
         text = self.crane_label(z)
         fm = QFontMetricsF(painter.font())
         tw = fm.horizontalAdvance(text) + 8
-        # the label sits on the side away from the jib so it never covers the arc
-        ux, uy = -math.cos(mid), math.sin(mid)
+        # the label sits on the side away from the jib so it never covers the arc;
+        # for a full circle (handles east and west of the crane) it goes south
+        if z.slew_sweep >= 2 * math.pi - 1e-9:
+            ux, uy = 0.0, 1.0
+        else:
+            ux, uy = -math.cos(mid), math.sin(mid)
         cxl, cyl = p.x() + 30 * ux, p.y() + 30 * uy
         plate = QRectF(cxl - tw / 2 if abs(ux) < 0.5 else (cxl if ux > 0 else cxl - tw),
                        cyl - 7.5 if abs(uy) < 0.5 else (cyl if uy > 0 else cyl - 15), tw, 15)

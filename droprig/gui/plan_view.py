@@ -232,6 +232,8 @@ class PlanView(QGraphicsView):
         self._openings_item = OpeningsItem()
         self._protection_item = ProtectionItem()
         self._zones_item = ZonesItem()
+        self._cranes_item = ZonesItem("crane")
+        self._protection_labels = ProtectionItem("label")
         self._overlay_item = QGraphicsPixmapItem()
         self._overlay_item.setZValue(1)
         self._overlay_item.setOpacity(0.9)
@@ -243,6 +245,15 @@ class PlanView(QGraphicsView):
         self._selection_item.setZValue(9)
         self._selection_item.setVisible(False)
         self._selection_item.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+        self._hover_item = QGraphicsRectItem()
+        hover_pen = cosmetic_pen(style.PLAN["hover"][:7], 2.0)
+        c = QColor(style.PLAN["hover"][:7])
+        c.setAlpha(int(style.PLAN["hover"][7:9] or "ff", 16))
+        hover_pen.setColor(c)
+        self._hover_item.setPen(hover_pen)
+        self._hover_item.setZValue(8.5)
+        self._hover_item.setVisible(False)
+        self._hover_item.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
         self._band_item = QGraphicsRectItem()
         band_pen = cosmetic_pen(style.PLAN["protection_edge"], 1.5, Qt.PenStyle.DashLine)
         self._band_item.setPen(band_pen)
@@ -262,7 +273,9 @@ class PlanView(QGraphicsView):
                          for k in HANDLE_KINDS}
         for item in (self._bays_item, self._overlay_item, self._openings_item,
                      self._framing_item, self._protection_item, self._zones_item,
-                     self._labels_item, self._selection_item, self._band_item,
+                     self._labels_item, self._cranes_item, self._protection_labels,
+                     self._selection_item, self._hover_item,
+                     self._band_item,
                      self._drag_label, *self._handles.values()):
             self._scene.addItem(item)
 
@@ -308,13 +321,16 @@ class PlanView(QGraphicsView):
         self._framing_item.set_level(level)
         self._openings_item.set_openings(level.deck.openings if level else ())
         lid = level.id if level else None
-        self._protection_item.set_areas(
-            [p for p in project.protection_areas if p.level_id == lid] if project else [])
-        self._zones_item.set_zones(
-            [z for z in project.lift_zones if z.level_id == lid] if project else [])
+        areas = [p for p in project.protection_areas if p.level_id == lid] if project else []
+        zones = [z for z in project.lift_zones if z.level_id == lid] if project else []
+        for pitem in (self._protection_item, self._protection_labels):
+            pitem.set_areas(areas)
+        for zitem in (self._zones_item, self._cranes_item):
+            zitem.set_zones(zones)
         if self._selected_zone and not self._zone(self._selected_zone):
             self._selected_zone = None
         self._zones_item.set_selected(self._selected_zone)
+        self._cranes_item.set_selected(self._selected_zone)
         self._update_scene_rect()
         self._refresh_results()
         self._place_handles()
@@ -372,6 +388,7 @@ class PlanView(QGraphicsView):
         """Show the drag handles of ``zone_id`` (None hides them)."""
         self._selected_zone = zone_id if zone_id and self._zone(zone_id) else None
         self._zones_item.set_selected(self._selected_zone)
+        self._cranes_item.set_selected(self._selected_zone)
         self._place_handles()
 
     def handle(self, kind: str) -> HandleItem:
@@ -434,7 +451,8 @@ class PlanView(QGraphicsView):
     def _on_zoom(self) -> None:
         px = 1.0 / max(self.pixels_per_metre(), 1e-9)
         for item in (self._bays_item, self._labels_item, self._framing_item,
-                     self._openings_item, self._protection_item, self._zones_item):
+                     self._openings_item, self._protection_item, self._zones_item,
+                     self._cranes_item, self._protection_labels):
             item.set_pixel_size(px)
         self.viewport().update()
 
@@ -582,6 +600,7 @@ class PlanView(QGraphicsView):
             cand = dragged_zone(d.origin, kind, x, y, system=self.unit_system)
         d.candidate = cand
         self._zones_item.set_preview(cand)
+        self._cranes_item.set_preview(cand)
         self._place_handles()
         text = self._drag_text(kind, cand)
         self._drag_label.setText(text)
@@ -602,6 +621,7 @@ class PlanView(QGraphicsView):
     def _end_drag_visuals(self) -> None:
         self._drag = None
         self._zones_item.set_preview(None)
+        self._cranes_item.set_preview(None)
         self._drag_label.setVisible(False)
         self._place_handles()
 
@@ -822,10 +842,18 @@ class PlanView(QGraphicsView):
     def _emit_hover(self, scene_pos: QPointF) -> None:
         if self._level is None:
             return
+        bay = self._bay_at(*from_scene(scene_pos))
+        self._hover_item.setVisible(bay is not None)
+        if bay is not None:
+            self._hover_item.setRect(rect_to_scene(bay.bay.rect))
         text = self.describe(*from_scene(scene_pos))
         if text != self._last_hover:
             self._last_hover = text
             self.hover_text.emit(text)
+
+    def leaveEvent(self, event: QEvent) -> None:  # type: ignore[override]
+        self._hover_item.setVisible(False)
+        super().leaveEvent(event)
 
     def resizeEvent(self, event: QResizeEvent) -> None:
         super().resizeEvent(event)
@@ -1002,11 +1030,10 @@ class PlanView(QGraphicsView):
         y = 10.0
         rows: list[tuple[str, object]] = []
         mode = self._overlay
-        if mode == "outcome":
-            for key in (*style.OUTCOME_ORDER, style.OUTCOME_NONE):
-                rows.append(("outcome", key))
-        else:
+        if mode != "outcome":
             rows.append(("ramp", mode))
+        for key in (*style.OUTCOME_ORDER, style.OUTCOME_NONE):
+            rows.append(("outcome", key))
         rows += [("sym", "girder"), ("sym", "beam"), ("sym", "zone"), ("sym", "drift"),
                  ("sym", "crane")]
         if self._protection_item.areas:
