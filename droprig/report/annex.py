@@ -40,7 +40,7 @@ Progress = Callable[[float, str], None]
 
 LIFT_ROWS_PER_PAGE = 10
 """Zone × load verdict rows on a summary page."""
-BAY_ROWS_PER_PAGE = 24
+BAY_ROWS_PER_PAGE = 20
 """Bay rows on a 'Summary by bay' page."""
 MEMBER_ROWS_PER_PAGE = 34
 """Member rows on a 'Members' page."""
@@ -532,8 +532,8 @@ class _Builder:
                 ])
                 extra.append(_outcome_bg(b.response, 2, i + 1))
             w = self.w
-            flow.append(_table(trs, [0.1 * w, 0.09 * w, 0.13 * w, 0.06 * w, 0.2 * w,
-                                     0.09 * w, 0.09 * w, 0.24 * w], extra=extra))
+            flow.append(_table(trs, [0.11 * w, 0.08 * w, 0.11 * w, 0.07 * w, 0.17 * w,
+                                     0.08 * w, 0.08 * w, 0.30 * w], extra=extra))
             self.add(head, flow)
 
     # -- plan
