@@ -18,6 +18,7 @@ from typing import Any
 
 from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
 from droprig.model import ModelError
+from droprig.solver.member import DEFAULT_DEFLECTION_LIMIT_RATIO
 from droprig.units import UnitError, fmt, parse
 
 # Ranges match the project model (droprig.model.project) so a value accepted here
@@ -189,13 +190,15 @@ def _table(args: argparse.Namespace, section: str, grade: str, basis: str, syste
         text = fmt(value, quantity, system) if value is not None else "none"
         lines.append(f"  {label:<{width}}  {text}")
     lines.append("")
-    limit = span / 240.0
+    n_limit = DEFAULT_DEFLECTION_LIMIT_RATIO
+    limit = span / n_limit
     defl = r["max_deflection"]
     if defl is not None:
         ratio = span / defl if defl > 0 else math.inf
-        lines.append(f"  deflection: span/{ratio:,.0f} against span/240 = "
+        lines.append(f"  deflection: span/{ratio:,.0f} against span/{n_limit:g} = "
                      f"{fmt(limit, 'small_length', system)} — information only "
-                     "(a serviceability limit, not a criterion for an accidental impact)")
+                     "(IBC Table 1604.3 serviceability limit, not a criterion for an accidental "
+                     "impact)")
     verdict = r["response"].upper()
     lines.append(f"  RESPONSE: {verdict}  (governing: {r['governing_check'].replace('_', ' ')})")
     lines.append("")

@@ -38,7 +38,13 @@ import numpy as np
 from droprig.model import Grade, ModelError, Section
 from droprig.solver import beam, capacity, impact, limits, plastic
 
-__all__ = ["BRITTLE_CHECKS", "MEMBER_CHECKS", "RESULT_KEYS", "assess_member"]
+__all__ = [
+    "BRITTLE_CHECKS",
+    "DEFAULT_DEFLECTION_LIMIT_RATIO",
+    "MEMBER_CHECKS",
+    "RESULT_KEYS",
+    "assess_member",
+]
 
 MEMBER_CHECKS: tuple[str, ...] = ("flexure", "shear", "web_yielding", "web_crippling")
 BRITTLE_CHECKS: tuple[str, ...] = ("shear", "web_yielding", "web_crippling")
@@ -62,6 +68,9 @@ RESULT_KEYS: tuple[str, ...] = (
     "support_rotation",
 )
 """Keys of :func:`assess_member`'s result, in the order of ``droprig check --json``."""
+
+DEFAULT_DEFLECTION_LIMIT_RATIO = 240.0
+"""N in span/N: IBC Table 1604.3, dead + live (information only, see module docstring)."""
 
 _N_DEFLECTION_SAMPLES = 401
 
@@ -116,7 +125,7 @@ def assess_member(
     udl: float = 0.0,
     self_weight: bool = True,
     beam_mass: bool = True,
-    deflection_limit_ratio: float = 240.0,
+    deflection_limit_ratio: float = DEFAULT_DEFLECTION_LIMIT_RATIO,
     ductility_limit: float = 6.0,
     rotation_limit: float = math.radians(2.0),
 ) -> dict[str, Any]:
@@ -128,7 +137,9 @@ def assess_member(
     ``ductility``, ``rotation``; ``response`` ``elastic``/``plastic``/``exceeds``).
     Values that do not apply are ``None`` (never NaN or inf). ``utilisation`` is the
     elastic demand over resistance of the governing strength check (above 1 for a
-    plastic response: read ductility and rotation then). Raises
+    plastic response: read ductility and rotation then). ``deflection_limit_ratio`` is
+    validated but never changes the verdict (deflection is information only; the
+    edges compare ``max_deflection`` with span/N themselves). Raises
     :class:`~droprig.model.ModelError` naming the argument for inputs outside range.
     """
     if cond not in beam.END_CONDITIONS:
@@ -242,7 +253,9 @@ def assess_member(
         e_extra = 0.0
         if crushable and crush_force is not None and crush_stroke is not None \
                 and crush_force < R_p:
-            e_extra = (W - crush_force) * crush_stroke  # gravity work minus crush energy
+            # gravity work minus crush energy over the depth actually crushed
+            c = min(float(impact.crush_depth(W, h_, f, eta, crush_force)), crush_stroke)
+            e_extra = (W - crush_force) * c
         h_eff = (eta * W * h_ + e_extra) / W
         d_m, _, coll = plastic.plastic_response(W, max(h_eff, 0.0), 1.0, R_p, R_p * f)
         d_member = float(d_m) - R_p * f_c

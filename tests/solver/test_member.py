@@ -230,3 +230,18 @@ def test_all_end_conditions_run(cond: str, ipe300: Section, s355: Grade) -> None
 
 def test_checks_listed() -> None:
     assert set(member.BRITTLE_CHECKS) < set(member.MEMBER_CHECKS)
+
+
+def test_crushable_layer_then_plastic_energy_balance(ipe300: Section, s355: Grade) -> None:
+    """Layer crushing at 100 kN over 50 mm bottoms out, then the IPE 300 yields
+    (Ru = 4Mp/L = 148.6 kN). Conservation of energy (design notes §3, Biggs 1964):
+    W(h + s_c + δm) = F_c·s_c + Ru(δm − δe/2)."""
+    L, M, h, F_c, s_c = 6.0, 2000.0, 1.0, 100e3, 0.05
+    W = M * G
+    Ru = 4 * 628e-6 * 355e6 / L
+    de = Ru * L**3 / (48 * 210e9 * 8356e-8)
+    r = assess_member(ipe300, s355, "simple", L, L / 2, M, h, basis="en1993",
+                      crush_force=F_c, crush_stroke=s_c, self_weight=False, beam_mass=False)
+    dm = r["plastic_deflection"]
+    assert r["response"] in ("plastic", "exceeds") and dm is not None
+    assert W * (h + s_c + dm) == pytest.approx(F_c * s_c + Ru * (dm - de / 2), rel=1e-6)
