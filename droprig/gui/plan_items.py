@@ -637,22 +637,28 @@ class ZonesItem(PixelSized, QGraphicsItem):
         painter.drawLine(p, QPointF(p.x() + 24 * math.cos(mid), p.y() - 24 * math.sin(mid)))
         painter.setFont(pixel_font(11, True))
         text = self.crane_label(z)
-        fm = QFontMetricsF(painter.font())
-        tw = fm.horizontalAdvance(text) + 8
-        # the label sits on the side away from the jib so it never covers the arc;
-        # for a full circle (handles east and west of the crane) it goes south
-        if z.slew_sweep >= 2 * math.pi - 1e-9:
-            ux, uy = 0.0, 1.0
-        else:
-            ux, uy = -math.cos(mid), math.sin(mid)
-        cxl, cyl = p.x() + 30 * ux, p.y() + 30 * uy
-        plate = QRectF(cxl - tw / 2 if abs(ux) < 0.5 else (cxl if ux > 0 else cxl - tw),
-                       cyl - 7.5 if abs(uy) < 0.5 else (cyl if uy > 0 else cyl - 15), tw, 15)
+        plate = crane_label_rect(p, z)
         painter.setPen(cosmetic_pen(teal, 1.4 if selected else 1.0))
         painter.setBrush(QColor(255, 255, 255, 230))
         painter.drawRect(plate)
         painter.setPen(teal.darker(130))
         painter.drawText(plate, Qt.AlignmentFlag.AlignCenter, text)
+
+
+def crane_label_rect(p: QPointF, z: LiftZone) -> QRectF:
+    """Device rectangle of a crane's label for the crane drawn at pixel ``p``:
+    on the side away from the jib so it never covers the arc; below the crane
+    for a full circle (whose handles sit east and west of it)."""
+    text = ZonesItem.crane_label(z)
+    tw = QFontMetricsF(pixel_font(11, True)).horizontalAdvance(text) + 8
+    mid = z.slew_start + z.slew_sweep / 2
+    if z.slew_sweep >= 2 * math.pi - 1e-9:
+        ux, uy = 0.0, 1.0
+    else:
+        ux, uy = -math.cos(mid), math.sin(mid)
+    cxl, cyl = p.x() + 30 * ux, p.y() + 30 * uy
+    return QRectF(cxl - tw / 2 if abs(ux) < 0.5 else (cxl if ux > 0 else cxl - tw),
+                  cyl - 7.5 if abs(uy) < 0.5 else (cyl if uy > 0 else cyl - 15), tw, 15)
 
 
 # ------------------------------------------------------------------ handles

@@ -72,6 +72,7 @@ from droprig.gui.plan_items import (
     ZonesItem,
     colour_values,
     cosmetic_pen,
+    crane_label_rect,
     fmt_ratio,
     from_scene,
     handle_positions,
@@ -405,8 +406,22 @@ class PlanView(QGraphicsView):
         ml, mt = 72.0, 64.0
         mr = 72.0 + (190.0 if vw > 760 else 0.0)
         mb = 72.0 + self._caution_height()
-        s = min((vw - ml - mr) / max(r.width(), 1e-6), (vh - mt - mb) / max(r.height(), 1e-6))
-        s = min(max(s, MIN_ZOOM), MAX_ZOOM)
+
+        def scale() -> float:
+            s = min((vw - ml - mr) / max(r.width(), 1e-6),
+                    (vh - mt - mb) / max(r.height(), 1e-6))
+            return min(max(s, MIN_ZOOM), MAX_ZOOM)
+
+        s = scale()
+        # crane labels are fixed-size text: widen the margins so none is cut off
+        for z in self._cranes_item.shown_zones():
+            c = to_scene(*z.crane)
+            lab = crane_label_rect(QPointF((c.x() - r.left()) * s, (c.y() - r.top()) * s), z)
+            ml = max(ml, -lab.left() + 8)
+            mt = max(mt, -lab.top() + 8)
+            mr = max(mr, lab.right() - r.width() * s + 8)
+            mb = max(mb, lab.bottom() - r.height() * s + 8 + self._caution_height())
+        s = scale()
         self.setTransform(QTransform.fromScale(s, s))
         c = r.center()
         self.centerOn(QPointF(c.x() + (mr - ml) / 2 / s, c.y() + (mb - mt) / 2 / s))
