@@ -481,8 +481,10 @@ class _Builder:
             extra = []
             for i, (zv, cv) in enumerate(chunk):
                 z = zv.zone
+                zo = content.OUTCOMES.get(zv.response, content.OUTCOMES[content.NOT_ASSESSED])
                 rows.append([
-                    self.P(f"<b>{esc(z.id)}</b><br/>{esc(z.name)}"),
+                    self.P(f"<b>{esc(z.id)}</b><br/>{esc(z.name)}<br/><i>lift zone: "
+                           f"{esc(zo.label.lower())}</i>"),
                     self.P(f"<b>{esc(cv.load_name)}</b><br/>{self.v(cv.mass, 'mass')}; planned "
                            f"drop {self.v(cv.planned_drop_height, 'length')}"),
                     _outcome_cell(cv.response, st),
@@ -643,15 +645,16 @@ class _Builder:
                 trs = [[self.P(h, st.head) for h in hdr]]
                 base = k * STEPS_PER_PAGE
                 for i, s in enumerate(part):
-                    lhs = esc(s.symbol)
-                    formula = esc(s.formula)
-                    subst = esc(substitute(s.formula, s.inputs, self.sys))
+                    rhs = _rhs(s.symbol, s.formula)
+                    lhs = f"{esc(s.symbol)} = " if s.symbol else ""
+                    formula = esc(rhs)
+                    subst = esc(substitute(rhs, s.inputs, self.sys))
                     result = esc(self.v(s.value, s.quantity))
                     trs.append([
                         self.P(str(base + i + 1)),
-                        self.P(f"<b>{esc(s.title)}</b><br/>{lhs} = {formula}<br/>"
-                               f"{lhs} = {subst}"),
-                        self.P(f"<b>{lhs} = {result}</b>"),
+                        self.P(f"<b>{esc(s.title)}</b><br/>{lhs}{formula}<br/>"
+                               f"{lhs}{subst}"),
+                        self.P(f"<b>{lhs}{result}</b>"),
                         self.P(esc(s.source), st.tiny),
                     ])
                 w = self.w
@@ -884,6 +887,13 @@ def _ei(value: float, system: str) -> str:
     if system == "US":
         return f"{value / 4448.2216152605 / 0.0254 ** 2 / 1e3:,.0f}×10³ kip·in²"
     return f"{value / 1e3:,.0f} kN·m²"
+
+
+def _rhs(symbol: str, formula: str) -> str:
+    """The formula's right-hand side when it repeats ``symbol =`` at its start."""
+    f = formula.strip()
+    head = f"{symbol} ="
+    return f[len(head):].strip() if symbol and f.startswith(head) else f
 
 
 def _check_name(k: int) -> str:

@@ -249,8 +249,9 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
                    fillColor=None, strokeColor=MAT_INK, strokeWidth=0.6))
         tag = _fit(f"MAT {p.id}", 5.5, max(x1 - x0 - 6, 20))
         w = stringWidth(tag, fonts.BOLD, 5.5) + 4
-        labels.add(Rect(x0 + 3, y1 - 10, w, 8, fillColor=MAT_INK, strokeColor=None))
-        labels.add(_text(x0 + 5, y1 - 8, tag, 5.5, bold=True, color=colors.white))
+        # name tag just above the mat's top-left corner, clear of the bay's own label
+        labels.add(Rect(x0, y1 + 1.5, w, 8, fillColor=MAT_INK, strokeColor=None))
+        labels.add(_text(x0 + 2, y1 + 3.5, tag, 5.5, bold=True, color=colors.white))
 
     # Lift zones
     for z in zones:
