@@ -430,3 +430,63 @@ def test_fit_zoom_and_caution(view: PlanView, three_outcomes: Results) -> None:
     assert view._caution_lines() == []  # no verdict shown, no caution strip
     view.set_results(three_outcomes)
     assert " ".join(view._caution_lines()) == CAUTION
+
+
+# ------------------------------------------------------- with the real solver
+
+
+def _nearest_outcome(c: QColor) -> str:
+    def dist(key: str) -> int:
+        f = QColor(style.outcome(key).fill)
+        return abs(f.red() - c.red()) + abs(f.green() - c.green()) + abs(f.blue() - c.blue())
+
+    return min((*style.OUTCOME_ORDER, style.OUTCOME_NONE), key=dist)
+
+
+@pytest.mark.parametrize("case", [None, ("Z1", "Pump skid"), ("Z1", "Hand tools")])
+def test_plan_follows_the_solver(view: PlanView, qtbot, warehouse_floor: Project,
+                                 case: tuple[str, str] | None) -> None:
+    """Bays show the worst BaySummary response of droprig.solver.analysis.analyse for
+    the chosen case (or over all cases), in words and in paint; a click returns a
+    drop point the solver analysed."""
+    import dataclasses
+
+    from droprig.solver.analysis import analyse
+
+    zone = warehouse_floor.zone("Z1")
+    zone = dataclasses.replace(zone, loads=(*zone.loads,
+                                            LiftLoad("Hand tools", 20.0, drop_height=0.05)))
+    project = dataclasses.replace(warehouse_floor, lift_zones=(zone,))
+    results = analyse(project)
+    assert results.cases and results.bays
+    view.set_project(project, "L2")
+    view.set_results(results)
+    view.set_case(*(case or (None,)))
+    worst: dict[str, str] = {}
+    for s in results.bays:
+        if case is None or (s.zone_id, s.load_name) == case:
+            worst[s.bay_id] = style.worst([worst.get(s.bay_id, "none"), s.response])
+    img = view.grab().toImage()
+    labels = view._labels_item
+    for state in view.bay_states():
+        assert state.key == worst.get(state.bay.id, style.OUTCOME_NONE)
+        # most pixels of a patch near the bay's corner read as that outcome's colour
+        # (a majority, as hatch strokes, zone arcs and beams cross the patch)
+        r = state.bay.rect
+        p = view.view_pos(r.x0 + 0.1 * r.width, r.y0 + 0.2 * r.height)
+        votes = [_nearest_outcome(QColor(img.pixel(p.x() + i, p.y() + j)))
+                 for i in range(-4, 5) for j in range(-4, 5)]
+        assert max(set(votes), key=votes.count) == state.key
+        words = labels.label_for(state, 400, 100)
+        assert words[0] == style.outcome(state.key).label.upper()
+    shown = [c for c in results.cases if case is None or (c.zone_id, c.load_name) == case]
+    c0 = shown[-1]
+    k = int(np.argmax(np.nan_to_num(c0.utilisation, posinf=1e9)))
+    with qtbot.waitSignal(view.point_clicked, timeout=1000) as sig:
+        _click(view, view.view_pos(float(c0.x[k]), float(c0.y[k])))
+    zone_id, load, x, y = sig.args
+    hit = next(c for c in shown if (c.zone_id, c.load_name) == (zone_id, load))
+    assert any(math.isclose(x, float(a)) and math.isclose(y, float(b))
+               for a, b in zip(hit.x, hit.y, strict=True))
+    view.set_overlay("drop_height")
+    assert view.overlay_visible
