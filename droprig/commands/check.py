@@ -4,8 +4,10 @@ Every value is read with :func:`droprig.units.parse` (a bare number takes the
 display unit of the unit system: m/ft for lengths, mm/in for ``--bearing`` and
 ``--crush-stroke``), checked against its allowed range, and handed to
 :func:`droprig.solver.member.assess_member`. ``--json`` prints one JSON object in
-SI base units (``null`` where a value does not apply); otherwise a table in the
-grade family's units (or ``--units``) ending with the standard caution.
+SI base units (``null`` where a value does not apply, and for the force-driven
+values when a crushable layer bottoms out on a rigid support point, where the force
+is unbounded and the response ``exceeds``); otherwise a table in the grade family's
+units (or ``--units``) ending with the standard caution.
 """
 
 from __future__ import annotations
@@ -48,6 +50,10 @@ _ROWS: tuple[tuple[str, str, str], ...] = (
     ("allowable_drop_height", "allowable drop height, elastic", "length"),
     ("allowable_drop_height_plastic", "allowable drop height, plastic", "length"),
 )
+
+
+_FORCE_DRIVEN = frozenset({"dynamic_factor", "peak_force", "deceleration_g", "max_moment",
+                           "max_shear", "max_deflection", "utilisation"})
 
 
 class _BadInputError(Exception):
@@ -185,9 +191,15 @@ def _table(args: argparse.Namespace, section: str, grade: str, basis: str, syste
                  + ("ignored (η = 1)" if args.no_beam_mass else "included"))
     lines.append("")
     width = max(len(label) for _, label, _ in _ROWS)
+    unbounded = r["peak_force"] is None  # a bottomed layer on a rigid point
     for key, label, quantity in _ROWS:
         value = r[key]
-        text = fmt(value, quantity, system) if value is not None else "none"
+        if value is not None:
+            text = fmt(value, quantity, system)
+        elif unbounded and key in _FORCE_DRIVEN and r["response"] == "exceeds":
+            text = "unbounded (rigid point, layer bottomed out)"
+        else:
+            text = "none"
         lines.append(f"  {label:<{width}}  {text}")
     lines.append("")
     n_limit = DEFAULT_DEFLECTION_LIMIT_RATIO

@@ -185,10 +185,10 @@ def assess_member(
     f_s = float(beam.green(cond, L, EI, a, a))
     f_c = 1.0 / cushion_stiffness if cushion_stiffness is not None else 0.0
     f = f_s + f_c
-    if f <= 0.0:
+    if f <= 0.0 and not crushable:
         raise ModelError("at", a, "a point off the supports (droprig takes supports as "
                          "rigid, so a load landing on one has no finite force) — or give "
-                         "--cushion-stiffness", "m")
+                         "a cushion or a crushable layer", "m")
     m_e = (float(beam.rayleigh_mass_factor(cond, L, a)) * mu_l * L) if beam_mass else 0.0
     eta = 1.0 if cushioned else float(impact.mass_efficiency(mass, m_e))
     d_st = W * f
@@ -210,9 +210,20 @@ def assess_member(
     R_wy = float(capacity.web_local_yielding(section, grade, basis, bearing, dist, phi, dif))
     R_wc = float(capacity.web_crippling(section, grade, basis, bearing, dist, phi, dif))
 
+    def _unbounded(fn: Callable[[float], float]) -> Callable[[float], float]:
+        # an unbounded force (a bottomed layer on a rigid point) drives to inf only the
+        # actions it loads; the others keep their existing-load value
+        def wrapped(F: float) -> float:
+            if math.isfinite(F):
+                return fn(F)
+            return math.inf if fn(1.0) > fn(0.0) else fn(0.0)
+        return wrapped
+
+    @_unbounded
     def moment(F: float) -> float:
         return float(beam.max_abs_moment(cond, L, F, a, w0))
 
+    @_unbounded
     def shear(F: float) -> float:
         return float(beam.max_abs_shear(cond, L, F, a, w0))
 
@@ -224,7 +235,11 @@ def assess_member(
     }
 
     def utilisations(F: float) -> dict[str, float]:
-        return {k: fn(F) for k, fn in u_fun.items()}
+        # an unbounded force (a bottomed layer on a rigid point) gives U = inf for every
+        # check it loads and leaves the others at their existing-load value
+        if math.isfinite(F):
+            return {k: fn(F) for k, fn in u_fun.items()}
+        return {k: (math.inf if fn(1.0) > fn(0.0) else fn(0.0)) for k, fn in u_fun.items()}
 
     U_el = utilisations(F_el)
     gov_el = max(U_el, key=lambda k: U_el[k])
@@ -236,8 +251,9 @@ def assess_member(
             and crush_force < F_allow_min:
         # the layer crushes fully, then the structure takes the rest elastically:
         # ηWh + W(s_c + δ) = F_c·s_c + δ²/(2f), δ = F_allow·f
-        dA = F_allow_min * f
-        h_el = ((crush_force - W) * crush_stroke + dA**2 / (2.0 * f) - W * dA) / (eta * W)
+        # (δ²/(2f) = F_allow²·f/2, finite also for a rigid point f = 0)
+        h_el = ((crush_force - W) * crush_stroke + 0.5 * F_allow_min**2 * f
+                - W * F_allow_min * f) / (eta * W)
         h_allow = h_el if math.isfinite(h_el) and h_el >= 0.0 else math.nan
     else:
         h_allow = float(limits.allowable_drop_height_elastic(W, F_allow_min, d_st, eta))
@@ -268,6 +284,7 @@ def assess_member(
     out["effective_mass"] = m_e
     out["allowable_drop_height"] = h_allow
 
+    @_unbounded
     def deflection_at(F: float) -> float:
         x = np.linspace(0.0, L, _N_DEFLECTION_SAMPLES)
         x = np.append(x, a)

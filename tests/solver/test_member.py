@@ -15,6 +15,8 @@ import json
 import math
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from droprig.model import Grade, ModelError, Section
 from droprig.solver import member
@@ -245,3 +247,49 @@ def test_crushable_layer_then_plastic_energy_balance(ipe300: Section, s355: Grad
     dm = r["plastic_deflection"]
     assert r["response"] in ("plastic", "exceeds") and dm is not None
     assert W * (h + s_c + dm) == pytest.approx(F_c * s_c + Ru * (dm - de / 2), rel=1e-6)
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.sampled_from(["simple", "fixed", "propped", "cantilever"]), st.floats(1.0, 15.0),
+       st.floats(0.02, 1.0), st.floats(10.0, 20_000.0), st.floats(0.0, 5.0),
+       st.sampled_from([None, 5e5, 5e7]), st.booleans(), st.floats(0.0, 0.3))
+def test_never_nan_and_states_consistent(cond: str, L: float, ra: float, M: float, h: float,
+                                         k: float | None, crush: bool, lb: float) -> None:
+    """Result contract (droprig/solver/results.py): no NaN/inf, a known state, and the
+    plastic-only quantities present exactly for plastic-energy outcomes."""
+    sec = Section("IPE 300", "IPE", 0.300, 0.150, 0.0071, 0.0107, 0.015, 53.8e-4, 8356e-8,
+                  557e-6, 628e-6, 604e-8, 42.2)
+    gr = Grade("S355", "EN", ((0.016, 355e6), (0.04, 345e6)), 470e6, 210e9)
+    extra = {"crush_force": 60e3, "crush_stroke": 0.05} if crush else {}
+    on_support = ra == 1.0 and cond != "cantilever"
+    if on_support and k is None and not crush:
+        with pytest.raises(ModelError, match=r"^at:"):
+            assess_member(sec, gr, cond, L, L, M, h, basis="en1993", bearing=min(lb, L))
+        return
+    r = assess_member(sec, gr, cond, L, ra * L, M, h, basis="en1993", cushion_stiffness=k,
+                      bearing=min(lb, L), **extra)
+    json.dumps(r, allow_nan=False)
+    assert r["response"] in ("elastic", "plastic", "exceeds")
+    assert r["governing_check"] in (*member.MEMBER_CHECKS, "collapse", "ductility", "rotation")
+    if r["response"] == "elastic":
+        assert r["utilisation"] <= 1.0 and r["ductility"] is None
+    if r["response"] == "plastic":
+        assert r["ductility"] is not None and r["ductility"] <= 6.0
+        assert r["support_rotation"] <= math.radians(2.0)
+    if r["allowable_drop_height"] is not None and r["response"] == "elastic":
+        assert r["allowable_drop_height"] >= h * (1 - 1e-6)
+
+
+def test_bottomed_layer_on_rigid_support_is_unbounded(ipe300: Section, s355: Grade) -> None:
+    # a crushable layer on a support point (rigid, f = 0): below bottoming the force is the
+    # crush force; once it bottoms out the force is unbounded (design notes §3) → exceeds
+    kw = {"basis": "en1993", "crush_force": 60e3, "crush_stroke": 0.05}
+    soft = assess_member(ipe300, s355, "simple", 6.0, 0.0, 2000.0, 0.01, **kw)
+    assert soft["peak_force"] == pytest.approx(60e3) and soft["response"] == "elastic"
+    # allowable height: the layer's net work (F_c − W)·s_c over W, rigid point
+    assert soft["allowable_drop_height"] == pytest.approx((60e3 - 2000 * G) * 0.05
+                                                          / (2000 * G), rel=REL)
+    hard = assess_member(ipe300, s355, "simple", 6.0, 0.0, 2000.0, 3.0, **kw)
+    assert hard["response"] == "exceeds" and hard["peak_force"] is None
+    assert hard["max_moment"] is not None  # a support point adds no moment
+    json.dumps(hard, allow_nan=False)
