@@ -36,10 +36,16 @@ loads down the tree, G_n holds the Green's function values between nodes of the
 same member).
 
 Effective struck mass (kg), Rayleigh with the static deflected shape
-(Timoshenko, *Strength of Materials* Part I): m_e(p) = Σ_m ∫ μ_m (w_m(x)/w(p))² dx
+(Timoshenko, *Strength of Materials* Part I): m_e(p) = Σ_m ∫ μ_m (w_m(x)/w_ref)² dx
 over the members carrying load (members that only ride along on a deflecting
-support are left out: less mass, larger impact force, conservative). Gauss–Legendre
-quadrature, 4 points between kinks (exact for the piecewise cubic shapes).
+support are left out: less mass, larger impact force, conservative). The
+integrals are exact (Gauss–Legendre between kinks, Chebyshev tables for the deck
+members). The published form normalises by the struck point, w_ref = w(p); that
+mass grows without bound as p nears a support (w(p) → 0 while the rest of the
+path still moves), which would shrink the impact force. droprig normalises by
+w_ref = max(w(p), largest deflection sampled along the path): identical where the
+struck point moves most (17/35·μL at the midspan of a simple beam), never larger,
+hence a larger (conservative) impact force everywhere else.
 
 Everything that does not depend on p is precomputed once per level
 (:func:`build_frame`); :func:`evaluate` then works on arrays of points.
@@ -114,6 +120,10 @@ def _unit_integrals(cond: str, xi: float) -> tuple[float, float, float]:
 
 
 _POLY_DEG = 16
+
+_W_STATIONS = np.array([0.125, 0.25, 0.375, 0.5, 0.625, 0.75, 0.875])
+"""Stations (fractions of the span) where the deck members' deflection is sampled
+to find the largest deflection of the path."""
 
 
 def _make_polys() -> dict[str, tuple[np.ndarray, np.ndarray, np.ndarray]]:
@@ -196,6 +206,7 @@ class Frame:
     pair_sup_x: np.ndarray
     pair_sup_mcoef: np.ndarray
     pair_sup_rcoef: np.ndarray
+    pair_sup_wcoef: np.ndarray
     warnings: tuple[str, ...] = field(default=())
 
     @property
@@ -447,6 +458,7 @@ def build_frame(level: Level, *, include_member_mass: bool = True) -> Frame:
     sup_x = np.zeros((n_p, n_sup, n_st))
     sup_m = np.zeros((n_p, n_sup, n_st, 4))
     sup_r = np.zeros((n_p, n_sup, 2, 4))
+    sup_w = np.zeros((n_p, n_sup, n_st, 4))
     for ip, path in enumerate(support_lists):
         nl = pair_nodes[ip]
         for jp, mm in enumerate(path):
@@ -462,6 +474,15 @@ def build_frame(level: Level, *, include_member_mass: bool = True) -> Frame:
             R0, RL = beam.unit_reactions(c, L[mm], node_pos_a[on])
             sup_r[ip, jp, 0] = R0 @ Tq
             sup_r[ip, jp, 1] = RL @ Tq
+            # deflection at the stations per local reaction (own bending + supports)
+            Wc = np.zeros((n_st, 4))
+            if on.size:
+                Wc += beam.green(c, L[mm], EI[mm], xs_pad[:, None],
+                                 node_pos_a[on][None, :]) @ Tq
+            R0s, RLs = beam.unit_reactions(c, L[mm], xs_pad)
+            Wc += R0s[:, None] * D[end_node[mm, 0], nl][None, :]
+            Wc += RLs[:, None] * D[end_node[mm, 1], nl][None, :]
+            sup_w[ip, jp] = Wc
 
     return Frame(
         level=level, cond=cond, L=L, EI=EI, mu=mu, vs=vs, vdir=vdir, cross=cross,
@@ -471,7 +492,7 @@ def build_frame(level: Level, *, include_member_mass: bool = True) -> Frame:
         cell_pair=cell_pair, pair_members=pairs, pair_c=pair_c, pair_nodes=pair_nodes,
         pair_D=pair_D, pair_M=pair_M, pair_support=tuple(support_lists), N_R=N_R,
         pair_sup_member=sup_member, pair_sup_x=sup_x, pair_sup_mcoef=sup_m,
-        pair_sup_rcoef=sup_r,
+        pair_sup_rcoef=sup_r, pair_sup_wcoef=sup_w,
     )
 
 
@@ -486,7 +507,8 @@ class PathResult:
     deck strip span and the distance of p from the first member (m), ``r`` (n, 4)
     end reactions passed to the local nodes, ``u`` (n, 4) the node deflections
     (m/N), ``f`` compliance (m/N), ``m_e`` effective mass (kg), ``g_own`` (n, 2)
-    own-bending deflection of each deck member under its share (m/N).
+    own-bending deflection of each deck member under its share (m/N), ``w_ref``
+    the deflection that normalises the Rayleigh shape (m/N, ≥ f).
     """
 
     pair: np.ndarray
@@ -500,6 +522,7 @@ class PathResult:
     f: np.ndarray
     m_e: np.ndarray
     g_own: np.ndarray
+    w_ref: np.ndarray
 
     @property
     def supported(self) -> np.ndarray:
@@ -541,6 +564,7 @@ def evaluate(frame: Frame, x: Iterable[float] | np.ndarray,
         "a": np.zeros((n, 2)), "strip_span": np.full(n, np.nan),
         "strip_pos": np.full(n, np.nan), "r": np.zeros((n, 4)), "u": np.zeros((n, 4)),
         "f": np.full(n, np.nan), "m_e": np.full(n, np.nan), "g_own": np.zeros((n, 2)),
+        "w_ref": np.full(n, np.nan),
     }
     idx = np.flatnonzero(pair >= 0)
     for s in range(0, idx.size, CHUNK):
@@ -591,9 +615,22 @@ def _evaluate_supported(frame: Frame, x: np.ndarray, y: np.ndarray, pair: np.nda
     kin = mu * (share**2 * I_gg + 2.0 * share * (ue[..., 0] * J0 + ue[..., 1] * J1))
     kin = kin.sum(axis=1) + np.einsum("nke,nkef,nkf->n", ue, NR, ue)
     kin += np.einsum("ni,nij,nj->n", r, frame.pair_M[pair], r)
+    # normalising deflection: the larger of w(p) and the largest deflection found
+    # along the path (stations of the deck members and of the support members)
+    xw = np.clip(np.concatenate([Lm[..., None] * _W_STATIONS, a[..., None]], axis=-1),
+                 0.0, Lm[..., None])
+    gw = by_condition(beam.green, cond[..., None], Lm[..., None], EI[..., None], xw,
+                      a[..., None])
+    R0w, RLw = by_condition(beam.unit_reactions, cond[..., None], Lm[..., None], xw)
+    ww = share[..., None] * gw + R0w * ue[..., 0:1] + RLw * ue[..., 1:2]
+    w_ref = np.maximum(f, np.max(np.abs(ww), axis=(1, 2)))
+    if frame.pair_sup_wcoef.shape[1]:
+        ws = np.einsum("npsi,ni->nps", frame.pair_sup_wcoef[pair], r)
+        w_ref = np.maximum(w_ref, np.max(np.abs(ws), axis=(1, 2)))
     with np.errstate(divide="ignore", invalid="ignore"):
-        m_e = np.where(f > 0.0, kin / np.where(f > 0.0, f, 1.0) ** 2, 0.0)
+        m_e = np.where(w_ref > 0.0, kin / np.where(w_ref > 0.0, w_ref, 1.0) ** 2, 0.0)
     res["m_e"] = m_e
+    res["w_ref"] = w_ref
     return res
 
 

@@ -1,0 +1,196 @@
+"""Calculation trace of one drop point: every step of :func:`droprig.solver.analysis.analyse`
+at that point, with its symbol, formula, inputs (SI) and source.
+
+The numbers come from the very same vectorised evaluation as the analysis
+(:func:`droprig.solver.analysis.evaluate_case` on a one-point array), so the
+trace and the results agree to machine precision.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from droprig.model import ModelError, Project
+from droprig.solver import droppoints
+from droprig.solver.analysis import (
+    BRITTLE,
+    build_floor,
+    evaluate_case,
+    point_geometry,
+)
+from droprig.solver.loadpath import COND_NAMES
+from droprig.solver.results import CHECKS, DECK, RESPONSES, Trace, TraceStep
+
+__all__ = ["trace_point"]
+
+_SRC_PATH = ("lever rule over the one-way deck strip (common practice, no source); "
+             "statics of the member tree")
+_SRC_GREEN = "AISC Manual 15th ed. Table 3-23; Roark 7th ed. Table 8.1; Maxwell–Betti"
+_SRC_RAYLEIGH = "Rayleigh, static deflected shape (Timoshenko, Strength of Materials Part I)"
+_SRC_GERE = "Gere, Mechanics of Materials 7th ed., §9.10, Eq. 9-94"
+_SRC_ETA = "Timoshenko, Strength of Materials Part I (impact with the beam's mass)"
+_SRC_CHECK = {
+    "flexure": "AISC 360-16 F2.1 / EN 1993-1-1 Eq. 6.13 (droprig.solver.capacity)",
+    "shear": "AISC 360-16 G2.1 / EN 1993-1-1 Eq. 6.18 (droprig.solver.capacity)",
+    "web_yielding": "AISC 360-16 J10.2 / EN 1993-1-5 §6 (droprig.solver.capacity)",
+    "web_crippling": "AISC 360-16 J10.3 (droprig.solver.capacity)",
+    "deck_flexure": "ACI 318-19 §22.2 / EN 1992-1-1 §3.1.7 (droprig.solver.deck)",
+    "deck_punching": "ACI 318-19 §22.6 / EN 1992-1-1 §6.4.4 (droprig.solver.deck)",
+}
+_SRC_PLASTIC = "Biggs, Introduction to Structural Dynamics (1964); UFC 3-340-02 ch. 3"
+
+
+def _v(x: object) -> float:
+    return float(np.asarray(x).reshape(-1)[0])
+
+
+def trace_point(project: Project, zone_id: str, load_name: str, x: float,
+                y: float) -> Trace:
+    """Every step of the analysis of ``load_name`` of zone ``zone_id`` at plan point
+    (x, y) in m. Raises :class:`ModelError` for an unknown zone or load, or a point
+    that is not over a deck panel of the zone's level."""
+    try:
+        zone = project.zone(zone_id)
+    except KeyError:
+        raise ModelError("trace.zone", zone_id,
+                         "the id of a lift zone: " + ", ".join(z.id for z in project.lift_zones)
+                         ) from None
+    loads = {ld.name: ld for ld in zone.loads}
+    if load_name not in loads:
+        raise ModelError("trace.load", load_name,
+                         f"the name of a load of zone {zone.id}: " + ", ".join(loads))
+    load = loads[load_name]
+    fm = build_floor(project.level(zone.level_id), project.settings)
+    xa, ya = np.array([float(x)]), np.array([float(y)])
+    geo = point_geometry(fm, project, xa, ya)
+    if geo.path.pair[0] < 0:
+        raise ModelError("trace.point", (float(x), float(y)),
+                         f"a point over a deck panel of level {fm.level.id}")
+    r = evaluate_case(fm, project, load, geo)
+    lv = fm.level
+    members = lv.members
+    fr = fm.frame
+    steps: list[TraceStep] = []
+
+    def add(title: str, symbol: str, formula: str, inputs: dict[str, tuple[float, str]],
+            value: float, quantity: str, source: str) -> None:
+        steps.append(TraceStep(title, symbol, formula,
+                               {k: (float(v), q) for k, (v, q) in inputs.items()},
+                               float(value), quantity, source))
+
+    def mname(i: int) -> str:
+        return "deck" if i == DECK else members[int(i)].id
+
+    path = geo.path
+    in_zone = bool(droppoints.in_zone(zone, xa, ya)[0])
+    if not in_zone:
+        add("Point outside the lift zone (traced anyway)", "d_zone",
+            "distance from the zone beyond its drift margin",
+            {"margin": (zone.drift_margin, "length")},
+            _v(droppoints.zone_distance(zone, xa, ya)), "length", "plan geometry")
+    if geo.opening[0]:
+        add("Deck opening: the load falls through", "U", "U = ∞ (no deck to strike)", {},
+            math.inf, "dimensionless", "plan geometry")
+        return Trace(zone.id, load.name, float(x), float(y), tuple(steps), "exceeds", "deck",
+                     "opening")
+    # ---- load path
+    for k in range(2):
+        m = int(path.members[0, k])
+        add(f"Share of the unit load carried by {members[m].id}", f"w_{k + 1}",
+            "w_1 = 1 − t, w_2 = t, t = s / S",
+            {"s": (path.strip_pos[0], "length"), "S": (path.strip_span[0], "length")},
+            path.share[0, k], "dimensionless", _SRC_PATH)
+        add(f"Position of the load along {members[m].id} "
+            f"({COND_NAMES[fr.cond[m]]}, L = {fr.L[m]:.3f} m)", f"a_{k + 1}",
+            "a = distance from the member's start", {"L": (fr.L[m], "length")},
+            path.a[0, k], "length", _SRC_PATH)
+    g_own = path.g_own[0]
+    add("Compliance of the framing at p", "f_s",
+        "f_s = Σ_k w_k² g_k(a_k, a_k) + rᵀ D r (internal work of the unit-load system)",
+        {"w1·g1": (g_own[0], "compliance"), "w2·g2": (g_own[1], "compliance"),
+         "rᵀDr": (float(path.r[0] @ path.u[0]), "compliance")},
+        r["_f_s"][0], "compliance", _SRC_GREEN)
+    if r["_f_mat"][0] > 0:
+        add("Spring mat in series", "f", "f = f_s + 1/k_mat",
+            {"f_s": (r["_f_s"][0], "compliance"), "1/k_mat": (r["_f_mat"][0], "compliance")},
+            r["_f"][0], "compliance", "series springs (Engineering ToolBox, Impact Force)")
+    add("Effective struck mass", "m_e", "m_e = Σ_m ∫ μ_m (w_m(x)/w(p))² dx",
+        {}, r["effective_mass"][0], "mass", _SRC_RAYLEIGH)
+    M = load.mass
+    add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",
+        {"M": (M, "mass"), "m_e": (r["effective_mass"][0], "mass")}, r["_eta"][0],
+        "dimensionless", _SRC_ETA)
+    add("Free fall onto the struck surface", "h",
+        "h = drop height above the deck or mat top",
+        {"t_mat": (r["_t_mat"][0], "length")}, r["drop_height"][0], "length",
+        "load data (LiftLoad.height_above)")
+    W = load.weight
+    add("Static deflection", "δ_st", "δ_st = W·f",
+        {"W": (W, "force"), "f": (r["_f"][0], "compliance")}, r["static_deflection"][0],
+        "length", _SRC_GERE)
+    add("Dynamic factor", "K", "K = 1 + √(1 + 2ηh/δ_st)" if r["_f_mat"][0] >= 0 else "",
+        {"η": (r["_eta"][0], "dimensionless"), "h": (r["drop_height"][0], "length"),
+         "δ_st": (r["static_deflection"][0], "length")}, r["dynamic_factor"][0],
+        "dimensionless", _SRC_GERE)
+    add("Peak impact force", "F", "F = K·W" if r["_crush"][0] == 0 else
+        "F = crush force, or elastic after bottoming (droprig.solver.impact.impact_crushable)",
+        {"K": (r["dynamic_factor"][0], "dimensionless"), "W": (W, "force")},
+        r["peak_force"][0], "force", _SRC_GERE)
+    add("Peak deflection of the struck point", "δ_max", "δ_max = K·δ_st",
+        {"K": (r["dynamic_factor"][0], "dimensionless"),
+         "δ_st": (r["static_deflection"][0], "length")}, r["max_deflection"][0], "length",
+        _SRC_GERE)
+    add("Deceleration of the load", "a/g", "a/g = F/W − 1",
+        {"F": (r["peak_force"][0], "force"), "W": (W, "force")}, r["deceleration_g"][0],
+        "dimensionless", "Newton's second law")
+    # ---- checks
+    qty = {"flexure": "moment", "shear": "force", "web_yielding": "force",
+           "web_crippling": "force", "deck_flexure": "moment", "deck_punching": "force"}
+    for c in ("flexure", "shear", "web_yielding", "web_crippling", "deck_flexure",
+              "deck_punching"):
+        q = qty[c]
+        unit_q = "length" if q == "moment" else "dimensionless"
+        add(f"{c.replace('_', ' ').capitalize()} — {mname(r[f'_{c}_member'][0])}", f"U_{c}",
+            "U = |F·u + E| / R",
+            {"F": (r["peak_force"][0], "force"), "u": (r[f"_{c}_unit"][0], unit_q),
+             "E": (r[f"_{c}_exist"][0], q), "R": (r[f"_{c}_R"][0], q)},
+            r[f"_{c}_U"][0], "dimensionless", _SRC_CHECK[c])
+    add("Utilisation", "U", "U = max over the checks", {}, r["utilisation"][0],
+        "dimensionless", "design notes §3")
+    add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
+        {}, r["_F_allow"][0], "force", "linear checks")
+    add("Allowable drop height (elastic)", "h_allow",
+        "h = δ_st((K_a − 1)² − 1)/(2η), K_a = F_allow/W",
+        {"F_allow": (r["_F_allow"][0], "force"), "W": (W, "force"),
+         "δ_st": (r["static_deflection"][0], "length"), "η": (r["_eta"][0], "dimensionless")},
+        r["allowable_drop_height"][0], "length", _SRC_GERE + " solved for h")
+    add("Plastic collapse resistance of the path", "R_p",
+        "R_p = min over path members of the collapse load for a load at p",
+        {}, r["_R_p"][0], "force", "virtual work (Neal); droprig.solver.beam")
+    if r["response"][0] != 0 and r["_flexure_U"][0] > 1.0:
+        add("Brittle checks at the plastic force", "U_brittle", "U at F = min(F, R_p)",
+            {"R_p": (r["_R_p"][0], "force")}, r["_Ub_cap"][0], "dimensionless",
+            "design notes §3 (" + ", ".join(BRITTLE) + ")")
+        add("Plastic deflection", "δ_m", "R_p(δ_m − δ_y/2) = ηWh + Wδ_m",
+            {"R_p": (r["_R_p"][0], "force"), "δ_y": (r["_R_p"][0] * r["_f"][0], "length"),
+             "h": (r["_h_struct"][0], "length")}, r["_d_m"][0], "length", _SRC_PLASTIC)
+        add("Ductility", "μ", "μ = δ_m / δ_y", {"μ_lim": (project.settings.ductility_limit,
+                                                        "dimensionless")},
+            r["_ductility"][0], "dimensionless", _SRC_PLASTIC)
+        add("Support rotation", "θ", "θ = atan(δ_m / arm)",
+            {"θ_lim": (project.settings.rotation_limit, "angle")}, r["_theta"][0], "angle",
+            _SRC_PLASTIC)
+    add("Allowable drop height (beyond yield)", "h_allow,pl",
+        "h = δ_y(R_p(μ − ½) − Wμ)/(ηW)", {"R_p": (r["_R_p"][0], "force")},
+        r["allowable_drop_height_plastic"][0], "length", _SRC_PLASTIC)
+    add("Allowable mass at the planned height", "M_allow",
+        "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e))))", {}, r["allowable_mass"][0], "mass",
+        _SRC_GERE + " solved for M")
+    add("Spring mat that keeps the point elastic", "k_req", "k = 1/(f_req − f_s)", {},
+        r["required_mat_stiffness"][0], "stiffness", "series springs; " + _SRC_GERE)
+    gm = int(r["governing_member"][0])
+    return Trace(zone.id, load.name, float(x), float(y), tuple(steps),
+                 RESPONSES[int(r["response"][0])], mname(gm),
+                 CHECKS[int(r["governing_check"][0])])
