@@ -194,7 +194,7 @@ class PlanView(QGraphicsView):
         self.setRenderHints(QPainter.RenderHint.Antialiasing
                             | QPainter.RenderHint.TextAntialiasing)
         self.setViewportUpdateMode(QGraphicsView.ViewportUpdateMode.FullViewportUpdate)
-        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorUnderMouse)
+        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.NoAnchor)
         self.setResizeAnchor(QGraphicsView.ViewportAnchor.AnchorViewCenter)
         self.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         self.setVerticalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
@@ -656,24 +656,27 @@ class PlanView(QGraphicsView):
         dy = event.angleDelta().y()
         if dy == 0:
             return
+        self.zoom_at(event.position(), 1.0015 ** dy)
+        event.accept()
+
+    def zoom_at(self, pos: QPointF, factor: float) -> None:
+        """Zoom by ``factor`` keeping the plan point under viewport pixel ``pos``
+        where it is (the wheel's anchor), within MIN_ZOOM…MAX_ZOOM px/m."""
         s = self.pixels_per_metre()
-        f = 1.0015 ** dy
-        f = min(max(s * f, MIN_ZOOM), MAX_ZOOM) / s
-        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorUnderMouse)
+        f = min(max(s * factor, MIN_ZOOM), MAX_ZOOM) / s
+        anchor = self.mapToScene(pos.toPoint())
+        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.NoAnchor)
         self.scale(f, f)
+        moved = self.viewportTransform().map(anchor) - pos
+        self.horizontalScrollBar().setValue(self.horizontalScrollBar().value()
+                                            + round(moved.x()))
+        self.verticalScrollBar().setValue(self.verticalScrollBar().value() + round(moved.y()))
         self._user_view = True
         self._on_zoom()
-        event.accept()
 
     def zoom_by(self, factor: float) -> None:
         """Zoom about the view centre (menu and keyboard)."""
-        s = self.pixels_per_metre()
-        f = min(max(s * factor, MIN_ZOOM), MAX_ZOOM) / s
-        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorViewCenter)
-        self.scale(f, f)
-        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorUnderMouse)
-        self._user_view = True
-        self._on_zoom()
+        self.zoom_at(QPointF(self.viewport().rect().center()), factor)
 
     def keyPressEvent(self, event: QKeyEvent) -> None:
         if event.key() == Qt.Key.Key_Space and not event.isAutoRepeat():
@@ -685,8 +688,14 @@ class PlanView(QGraphicsView):
             if self._band_origin is not None:
                 self._band_origin = None
                 self._band_item.setVisible(False)
-            elif self._drag is not None:
+            elif self._drag is not None or any(h.dragging for h in self._handles.values()):
+                for h in self._handles.values():
+                    if h.dragging:
+                        h.dragging = False
+                        h.ungrabMouse()
+                        h.update()
                 self._end_drag_visuals()
+                self.hover_text.emit("drag cancelled")
             event.accept()
             return
         super().keyPressEvent(event)

@@ -13,7 +13,7 @@ import math
 import numpy as np
 import pytest
 from PySide6.QtCore import QEvent, QPoint, QPointF, Qt
-from PySide6.QtGui import QColor, QFontMetricsF, QMouseEvent
+from PySide6.QtGui import QColor, QFontMetricsF, QMouseEvent, QWheelEvent
 from PySide6.QtWidgets import QApplication
 
 from droprig.cli import CAUTION
@@ -430,6 +430,70 @@ def test_fit_zoom_and_caution(view: PlanView, three_outcomes: Results) -> None:
     assert view._caution_lines() == []  # no verdict shown, no caution strip
     view.set_results(three_outcomes)
     assert " ".join(view._caution_lines()) == CAUTION
+
+
+def test_wheel_zoom_keeps_point_under_mouse(view: PlanView) -> None:
+    pos = view.view_pos(20.0, 4.0)
+    before = view.mapToScene(pos)
+    s0 = view.pixels_per_metre()
+    ev = QWheelEvent(QPointF(pos), QPointF(view.viewport().mapToGlobal(pos)), QPoint(0, 0),
+                     QPoint(0, 240), Qt.MouseButton.NoButton, Qt.KeyboardModifier.NoModifier,
+                     Qt.ScrollPhase.NoScrollPhase, False)
+    QApplication.sendEvent(view.viewport(), ev)
+    assert view.pixels_per_metre() == pytest.approx(s0 * 1.0015 ** 240)
+    after = view.mapToScene(pos)
+    assert (after.x(), after.y()) == pytest.approx((before.x(), before.y()),
+                                                   abs=2 / view.pixels_per_metre())
+
+
+@pytest.mark.parametrize("how", ["middle", "space"])
+def test_pan_by_dragging(view: PlanView, qtbot, how: str) -> None:
+    a = view.view_pos(10.0, 5.0)
+    b = a + QPoint(60, -40)
+    before = view.mapToScene(a)
+    vp = view.viewport()
+    if how == "middle":
+        btn = Qt.MouseButton.MiddleButton
+    else:
+        btn = Qt.MouseButton.LeftButton
+        qtbot.keyPress(view, Qt.Key.Key_Space)
+    with qtbot.assertNotEmitted(view.bay_clicked):
+        _mouse(vp, QEvent.Type.MouseButtonPress, a, btn, btn)
+        _mouse(vp, QEvent.Type.MouseMove, b, Qt.MouseButton.NoButton, btn)
+        _mouse(vp, QEvent.Type.MouseButtonRelease, b, btn, Qt.MouseButton.NoButton)
+    if how == "space":
+        qtbot.keyRelease(view, Qt.Key.Key_Space)
+    after = view.mapToScene(b)
+    assert (after.x(), after.y()) == pytest.approx((before.x(), before.y()),
+                                                   abs=1.5 / view.pixels_per_metre())
+
+
+def test_hover_signal_on_mouse_move(view: PlanView, qtbot, three_outcomes: Results) -> None:
+    view.set_results(three_outcomes)
+    with qtbot.waitSignal(view.hover_text, timeout=1000) as sig:
+        _mouse(view.viewport(), QEvent.Type.MouseMove, view.view_pos(19.1, 12.1),
+               Qt.MouseButton.NoButton, Qt.MouseButton.NoButton)
+    assert "3-4/B-C" in sig.args[0] and "exceeds limits" in sig.args[0]
+    assert "allowable drop none" in sig.args[0]  # nan shown as a word, never "nan"
+
+
+def test_escape_cancels_handle_drag(view: PlanView, qtbot) -> None:
+    view.set_selected_zone("Z1")
+    zone = view.project.zone("Z1")
+    hx, hy = handle_positions(zone)["r_max"]
+    vp = view.viewport()
+    left = Qt.MouseButton.LeftButton
+    with qtbot.assertNotEmitted(view.zone_changed):
+        _mouse(vp, QEvent.Type.MouseButtonPress, view.view_pos(hx, hy), left, left)
+        _mouse(vp, QEvent.Type.MouseMove, view.view_pos(hx, hy - 3.0),
+               Qt.MouseButton.NoButton, left)
+        qtbot.keyPress(view, Qt.Key.Key_Escape)
+        _mouse(vp, QEvent.Type.MouseMove, view.view_pos(hx, hy - 4.0),
+               Qt.MouseButton.NoButton, left)
+        _mouse(vp, QEvent.Type.MouseButtonRelease, view.view_pos(hx, hy - 4.0), left,
+               Qt.MouseButton.NoButton)
+    p = view.handle("r_max").pos()
+    assert (p.x(), -p.y()) == pytest.approx((hx, hy), abs=LENGTH_TOL)
 
 
 # ------------------------------------------------------- with the real solver
