@@ -749,6 +749,40 @@ def handle_positions(z: LiftZone) -> dict[str, tuple[float, float]]:
             "slew_start": at(rm, z.slew_start), "slew_end": at(rm, z.slew_start + sweep)}
 
 
+class TagItem(QGraphicsItem):
+    """A short text on a white plate at a plan point, fixed size on screen, offset
+    down-right of the point (drag read-outs: radius, slew angle, mat size)."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self._text = ""
+        self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations, True)
+        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+        self.setZValue(12)
+        self.setVisible(False)
+
+    def text(self) -> str:
+        return self._text
+
+    def setText(self, text: str) -> None:
+        self.prepareGeometryChange()
+        self._text = text
+
+    def boundingRect(self) -> QRectF:
+        w = QFontMetricsF(pixel_font(12, True)).horizontalAdvance(self._text) + 12
+        return QRectF(12, 10, w, 20)
+
+    def paint(self, painter: QPainter, option: QStyleOptionGraphicsItem,
+              widget: QWidget | None = None) -> None:
+        r = self.boundingRect()
+        painter.setPen(cosmetic_pen(style.PLAN["selection"], 1.2))
+        painter.setBrush(QColor(255, 255, 255, 240))
+        painter.drawRect(r)
+        painter.setFont(pixel_font(12, True))
+        painter.setPen(QColor(style.PLAN["selection"]).darker(140))
+        painter.drawText(r, Qt.AlignmentFlag.AlignCenter, self._text)
+
+
 # --------------------------------------------------------------- overlay ramps
 
 _LUT_SIZE = 256

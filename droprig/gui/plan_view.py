@@ -50,7 +50,6 @@ from PySide6.QtWidgets import (
     QGraphicsPixmapItem,
     QGraphicsRectItem,
     QGraphicsScene,
-    QGraphicsSimpleTextItem,
     QGraphicsView,
     QWidget,
 )
@@ -69,6 +68,7 @@ from droprig.gui.plan_items import (
     HandleItem,
     OpeningsItem,
     ProtectionItem,
+    TagItem,
     ZonesItem,
     colour_values,
     cosmetic_pen,
@@ -97,7 +97,7 @@ MIN_SWEEP = math.radians(2.0)
 ANGLE_SNAP = math.radians(1.0)
 """Slew handles snap to whole degrees."""
 RADIUS_SNAP = {"SI": 0.05, "US": 0.1 * 0.3048}
-"""Radius handles snap to 50 mm (SI) or 0.1 ft (US), m."""
+"""Radius handles and drawn mats snap to 50 mm (SI) or 0.1 ft (US), m."""
 R_LIMIT = 200.0
 """Largest radius the model accepts, m (LiftZone validation)."""
 CLICK_SLOP_PX = 5
@@ -263,13 +263,7 @@ class PlanView(QGraphicsView):
         self._band_item.setBrush(fill)
         self._band_item.setZValue(11)
         self._band_item.setVisible(False)
-        self._drag_label = QGraphicsSimpleTextItem()
-        self._drag_label.setFlag(
-            QGraphicsSimpleTextItem.GraphicsItemFlag.ItemIgnoresTransformations, True)
-        self._drag_label.setFont(pixel_font(12, True))
-        self._drag_label.setBrush(QColor(style.PLAN["selection"]))
-        self._drag_label.setZValue(12)
-        self._drag_label.setVisible(False)
+        self._drag_label = TagItem()
         self._handles = {k: HandleItem(k, self._on_handle_drag, self._on_handle_release)
                          for k in HANDLE_KINDS}
         for item in (self._bays_item, self._overlay_item, self._openings_item,
@@ -360,6 +354,8 @@ class PlanView(QGraphicsView):
         self._mode = mode
         self._band_origin = None
         self._band_item.setVisible(False)
+        if self._drag is None:
+            self._drag_label.setVisible(False)
         self.viewport().setCursor(Qt.CursorShape.CrossCursor if mode == "draw_protection"
                                   else Qt.CursorShape.ArrowCursor)
 
@@ -626,12 +622,12 @@ class PlanView(QGraphicsView):
     def _drag_text(self, kind: str, z: LiftZone) -> str:
         s = self.unit_system
         if kind == "r_min":
-            return f"  inner radius {units.fmt(z.r_min, 'length', s, decimals=2)}"
+            return f"inner radius {units.fmt(z.r_min, 'length', s, decimals=2)}"
         if kind == "r_max":
-            return f"  outer radius {units.fmt(z.r_max, 'length', s, decimals=2)}"
+            return f"outer radius {units.fmt(z.r_max, 'length', s, decimals=2)}"
         a = z.slew_start if kind == "slew_start" else z.slew_start + z.slew_sweep
-        return (f"  slew {'start' if kind == 'slew_start' else 'end'} "
-                f"{math.degrees(a) % 360:.0f}° (arc {math.degrees(z.slew_sweep):.0f}°)")
+        return (f"slew {'start' if kind == 'slew_start' else 'end'} "
+                f"{math.degrees(a) % 360:.0f}° from east, arc {math.degrees(z.slew_sweep):.0f}°")
 
     def _end_drag_visuals(self) -> None:
         self._drag = None
@@ -688,6 +684,7 @@ class PlanView(QGraphicsView):
             if self._band_origin is not None:
                 self._band_origin = None
                 self._band_item.setVisible(False)
+                self._drag_label.setVisible(False)
             elif self._drag is not None or any(h.dragging for h in self._handles.values()):
                 for h in self._handles.values():
                     if h.dragging:
@@ -724,7 +721,7 @@ class PlanView(QGraphicsView):
             super().mousePressEvent(event)
             return
         if self._mode == "draw_protection":
-            self._band_origin = self.mapToScene(pos)
+            self._band_origin = self._snap(self.mapToScene(pos))
             self._band_item.setRect(QRectF(self._band_origin, self._band_origin))
             self._band_item.setVisible(True)
             event.accept()
@@ -746,11 +743,16 @@ class PlanView(QGraphicsView):
             event.accept()
             return
         if self._band_origin is not None:
-            self._band_item.setRect(QRectF(self._band_origin, self.mapToScene(pos)).normalized())
+            self._band_item.setRect(QRectF(self._band_origin,
+                                           self._snap(self.mapToScene(pos))).normalized())
             r = self._band_item.rect()
             s = self.unit_system
-            self.hover_text.emit(f"protection {units.fmt(r.width(), 'length', s, decimals=2)}"
-                                 f" × {units.fmt(r.height(), 'length', s, decimals=2)}")
+            text = (f"mat {units.fmt(r.width(), 'length', s, decimals=2)}"
+                    f" × {units.fmt(r.height(), 'length', s, decimals=2)}")
+            self._drag_label.setText(text)
+            self._drag_label.setPos(self.mapToScene(pos))
+            self._drag_label.setVisible(True)
+            self.hover_text.emit(text)
             event.accept()
             return
         super().mouseMoveEvent(event)
@@ -768,7 +770,7 @@ class PlanView(QGraphicsView):
             event.accept()
             return
         if self._band_origin is not None and event.button() == Qt.MouseButton.LeftButton:
-            self._finish_band(self._band_origin, self.mapToScene(pos))
+            self._finish_band(self._band_origin, self._snap(self.mapToScene(pos)))
             event.accept()
             return
         if any(h.dragging for h in self._handles.values()):
@@ -782,9 +784,15 @@ class PlanView(QGraphicsView):
             return
         super().mouseReleaseEvent(event)
 
+    def _snap(self, scene_pos: QPointF) -> QPointF:
+        """Snap a scene point to the radius snap step (50 mm SI, 0.1 ft US)."""
+        step = RADIUS_SNAP.get(self.unit_system, 0.05)
+        return QPointF(round(scene_pos.x() / step) * step, round(scene_pos.y() / step) * step)
+
     def _finish_band(self, a: QPointF, b: QPointF) -> None:
         self._band_origin = None
         self._band_item.setVisible(False)
+        self._drag_label.setVisible(False)
         (x0, y0), (x1, y1) = from_scene(a), from_scene(b)
         x0, x1 = sorted((x0, x1))
         y0, y1 = sorted((y0, y1))
@@ -793,7 +801,7 @@ class PlanView(QGraphicsView):
             self.hover_text.emit("protection not drawn: drag out a rectangle")
             return
         try:
-            rect = Rect(round(x0, 3), round(y0, 3), round(x1, 3), round(y1, 3))
+            rect = Rect(round(x0, 6), round(y0, 6), round(x1, 6), round(y1, 6))
         except ModelError as exc:
             self.hover_text.emit(f"protection not drawn: {exc}")
             return

@@ -409,6 +409,8 @@ def test_rubber_band_draws_protection(view: PlanView, qtbot) -> None:
     r = sig.args[0]
     assert isinstance(r, Rect)
     assert (r.x0, r.y0, r.x1, r.y1) == pytest.approx((2.0, 1.0, 6.0, 3.0), abs=PIXEL_TOL_M)
+    for v in (r.x0, r.y0, r.x1, r.y1):  # corners snap to 50 mm in SI
+        assert v / 0.05 == pytest.approx(round(v / 0.05), abs=1e-6)
 
 
 def test_tiny_rubber_band_is_refused(view: PlanView, qtbot) -> None:
