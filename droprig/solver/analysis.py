@@ -671,6 +671,9 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     OX, OY = np.meshgrid(off, off)
     x = (res["x"][top][:, None] + OX.ravel()[None, :]).ravel()
     y = (res["y"][top][:, None] + OY.ravel()[None, :]).ravel()
+    # lattice points beyond the zone edge move onto it: the worst point often lies
+    # on the edge nearest a stiff support
+    x, y = droppoints.project_into_zone(zone, x, y)
     keep = droppoints.in_zone(zone, x, y) & (locate(fm.frame, x, y) >= 0)
     return x[keep], y[keep]
 
@@ -811,10 +814,11 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
     all_bays = bays(level)
     members = level.members
     sev = _severity({"utilisation": case.utilisation, "response": case.response})
-    for b in np.unique(case.bay):
-        if b < 0:
+    for b in range(len(all_bays)):
+        # closed bay: points on its edges and corners count for it as well
+        idx = np.flatnonzero(droppoints.in_bay_rect(level, b, case.x, case.y))
+        if idx.size == 0:
             continue
-        idx = np.flatnonzero(case.bay == b)
         i = idx[np.argmax(sev[idx])]
         worst = int(np.max(case.response[idx]))
         Ub = case.utilisation[idx]
@@ -838,7 +842,7 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
         advice = bay_advice(worst, n_open, h_pl if worst == EXCEEDS else h_el, k_mat, U_max,
                             load, case.planned_drop_height, system, travel)
         out.append(BaySummary(
-            level_id=level.id, bay_id=all_bays[int(b)].id, zone_id=zone.id,
+            level_id=level.id, bay_id=all_bays[b].id, zone_id=zone.id,
             load_name=load.name, n_points=int(idx.size), max_utilisation=U_max,
             response=RESPONSES[worst], allowable_drop_height=h_el,
             allowable_drop_height_plastic=h_pl, governing_x=float(case.x[i]),

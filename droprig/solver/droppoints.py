@@ -32,13 +32,16 @@ from droprig.solver.loadpath import Frame, locate
 __all__ = [
     "base_points",
     "bay_index",
+    "in_bay_rect",
     "in_openings",
     "in_zone",
     "line_points",
+    "project_into_zone",
     "zone_distance",
 ]
 
-EDGE_TOL = 1e-9
+EDGE_TOL = 1e-7
+"""Points this close (m) outside the zone or a bay still count as inside."""
 
 
 def _seg_dist(px: np.ndarray, py: np.ndarray, ax: float, ay: float, bx: float,
@@ -100,6 +103,92 @@ def zone_distance(zone: LiftZone, x: np.ndarray, y: np.ndarray) -> np.ndarray:
     return d
 
 
+def _nearest_on_segment(px: np.ndarray, py: np.ndarray, ax: float, ay: float, bx: float,
+                        by: float) -> tuple[np.ndarray, np.ndarray]:
+    dx, dy = bx - ax, by - ay
+    ll = dx * dx + dy * dy
+    if ll <= 0.0:
+        return np.full(px.shape, ax), np.full(py.shape, ay)
+    t = np.clip(((px - ax) * dx + (py - ay) * dy) / ll, 0.0, 1.0)
+    return ax + t * dx, ay + t * dy
+
+
+def _nearest_in_sector(zone: LiftZone, x: np.ndarray, y: np.ndarray) -> tuple[np.ndarray,
+                                                                              np.ndarray]:
+    """Nearest point of the (un-widened) annular sector to each point."""
+    cx, cy = zone.crane
+    dx, dy = x - cx, y - cy
+    r = np.hypot(dx, dy)
+    safe = np.where(r > 0, r, 1.0)
+    ux = np.where(r > 0, dx / safe, math.cos(zone.slew_start))
+    uy = np.where(r > 0, dy / safe, math.sin(zone.slew_start))
+    rc = np.clip(r, zone.r_min, zone.r_max)
+    qx, qy = cx + rc * ux, cy + rc * uy
+    sweep = zone.slew_sweep
+    if sweep >= 2 * math.pi - 1e-9:
+        return qx, qy
+    ang = np.mod(np.arctan2(dy, dx) - zone.slew_start, 2 * math.pi)
+    inside_arc = ang <= sweep + 1e-12
+    best_d = np.full(x.shape, np.inf)
+    bx_, by_ = qx.copy(), qy.copy()
+    for th in (zone.slew_start, zone.slew_start + sweep):
+        c, s_ = math.cos(th), math.sin(th)
+        ex, ey = _nearest_on_segment(x, y, cx + zone.r_min * c, cy + zone.r_min * s_,
+                                     cx + zone.r_max * c, cy + zone.r_max * s_)
+        d = np.hypot(x - ex, y - ey)
+        better = d < best_d
+        bx_ = np.where(better, ex, bx_)
+        by_ = np.where(better, ey, by_)
+        best_d = np.minimum(best_d, d)
+    return np.where(inside_arc, qx, bx_), np.where(inside_arc, qy, by_)
+
+
+def _nearest_in_polygon(poly: tuple[tuple[float, float], ...], x: np.ndarray,
+                        y: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    inside = polygon_distance(poly, x, y) <= 0.0
+    best_d = np.full(x.shape, np.inf)
+    qx, qy = x.copy(), y.copy()
+    n = len(poly)
+    for i in range(n):
+        (ax, ay), (bx, by) = poly[i], poly[(i + 1) % n]
+        ex, ey = _nearest_on_segment(x, y, ax, ay, bx, by)
+        d = np.hypot(x - ex, y - ey)
+        better = d < best_d
+        qx = np.where(better, ex, qx)
+        qy = np.where(better, ey, qy)
+        best_d = np.minimum(best_d, d)
+    return np.where(inside, x, qx), np.where(inside, y, qy)
+
+
+def _pull(x: np.ndarray, y: np.ndarray, qx: np.ndarray, qy: np.ndarray,
+          margin: float) -> tuple[np.ndarray, np.ndarray]:
+    """Move each point to within ``margin`` of its nearest set point (qx, qy)."""
+    d = np.hypot(x - qx, y - qy)
+    k = np.where(d > margin, margin / np.where(d > 0, d, 1.0), 1.0)
+    return qx + (x - qx) * k, qy + (y - qy) * k
+
+
+def project_into_zone(zone: LiftZone, x: np.ndarray, y: np.ndarray,
+                      sweeps: int = 4) -> tuple[np.ndarray, np.ndarray]:
+    """Move points outside the widened zone onto its boundary (points inside stay).
+
+    Nearest-point projection onto the widened sector, then onto the widened
+    corridor, alternated ``sweeps`` times (alternating projections onto two
+    intersecting sets approach a point of their intersection). Used to refine the
+    search for the worst drop point right up to the zone's edge.
+    """
+    x = np.asarray(x, float).copy()
+    y = np.asarray(y, float).copy()
+    m = zone.drift_margin
+    for _ in range(sweeps if zone.corridor else 1):
+        qx, qy = _nearest_in_sector(zone, x, y)
+        x, y = _pull(x, y, qx, qy, m)
+        if zone.corridor:
+            qx, qy = _nearest_in_polygon(zone.corridor, x, y)
+            x, y = _pull(x, y, qx, qy, m)
+    return x, y
+
+
 def in_zone(zone: LiftZone, x: np.ndarray, y: np.ndarray) -> np.ndarray:
     """True where the point lies in the zone widened by its drift margin."""
     return zone_distance(zone, np.asarray(x, float), np.asarray(y, float)) \
@@ -123,6 +212,18 @@ def bay_index(level: Level, x: np.ndarray, y: np.ndarray) -> np.ndarray:
     inside = (x >= xl[0] - EDGE_TOL) & (x <= xl[-1] + EDGE_TOL) & \
         (y >= yl[0] - EDGE_TOL) & (y <= yl[-1] + EDGE_TOL)
     return np.where(inside, j * (xl.size - 1) + i, -1)
+
+
+def in_bay_rect(level: Level, bay: int, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+    """True where the point lies in bay ``bay`` including its edges (a point on a
+    shared grid line or at a column belongs to every bay it touches)."""
+    g = level.grid
+    nx = len(g.x_lines) - 1
+    i, j = bay % nx, bay // nx
+    x0, x1 = g.x_lines[i], g.x_lines[i + 1]
+    y0, y1 = g.y_lines[j], g.y_lines[j + 1]
+    return (x >= x0 - EDGE_TOL) & (x <= x1 + EDGE_TOL) & (y >= y0 - EDGE_TOL) & \
+        (y <= y1 + EDGE_TOL)
 
 
 def _zone_bbox(zone: LiftZone) -> tuple[float, float, float, float]:

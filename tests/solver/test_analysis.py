@@ -1,0 +1,374 @@
+"""Floor-system analysis: hand check of one bay, symmetry, result contract, mats,
+openings, beyond-yield response, grid refinement and the calculation trace.
+
+Sources: AISC *Steel Construction Manual* 15th ed., Table 3-23 (cases 7 and 8:
+simple beam, concentrated load at midspan / at any point); Gere, *Mechanics of
+Materials* 7th ed., §9.10, Eq. 9-94 (energy method); EN 1993-1-1 Eq. 6.13
+(Mc,Rd = Wpl·fy/γM0 for a Class 1 section), EN 10025-2 Table 7 (S355: 355 MPa up to
+16 mm); Engineering ToolBox "Impact Force" (series cushion 1/k_eff = 1/k_s + 1/k_c;
+average force over a stopping distance); Biggs, *Introduction to Structural
+Dynamics* (1964) energy balance beyond yield (from memory, as in references.md).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import replace
+
+import numpy as np
+import pytest
+
+from droprig.model import (
+    Deck,
+    Grade,
+    LiftLoad,
+    LiftZone,
+    Project,
+    ProtectionArea,
+    Rect,
+    Section,
+    Settings,
+    generate_level,
+)
+from droprig.solver import analysis, droppoints
+from droprig.solver.results import CHECKS, ELASTIC, EXCEEDS, PLASTIC, RESPONSES
+from droprig.solver.trace import trace_point
+
+REL = 1e-9  # closed forms in floating point
+G = 9.80665  # standard gravity (CGPM 1901)
+
+# EN 10025-2 Table 7: S355 355 MPa (t ≤ 16 mm), 345 MPa (16 < t ≤ 40 mm)
+S355 = Grade("S355", "EN", ((0.016, 355e6), (0.04, 345e6)), 470e6, E=210e9)
+# Custom section properties close to an IPE 300 / IPE 450 (inputs, not check values)
+BEAM = Section("B300", "custom", d=0.3, bf=0.15, tw=0.0071, tf=0.0107, r=0.015,
+               A=5.381e-3, Ix=8.356e-5, Sx=5.57e-4, Zx=6.28e-4, Iy=6.04e-6,
+               mass_per_length=42.2)
+GIRDER = Section("G450", "custom", d=0.45, bf=0.19, tw=0.0094, tf=0.0146, r=0.021,
+                 A=9.88e-3, Ix=3.374e-4, Sx=1.5e-3, Zx=1.702e-3, Iy=1.676e-5,
+                 mass_per_length=77.6)
+
+
+def _one_bay_level(**kw):
+    """9 m (x) × 6 m (y) bay: girders along x on y = 0 and 6, beams along y at
+    x = 0, 3, 6, 9 (beam spacing 3 m), 130 mm composite deck, 1 kPa superimposed dead."""
+    args = dict(level_id="L1", name="hand", elevation=10.0, x_spacings=(9.0,),
+                y_spacings=(6.0,), girder_direction="x", beam_spacing=3.0,
+                girder_section=GIRDER, beam_section=BEAM, girder_grade=S355,
+                beam_grade=S355, superimposed_dead=1000.0, live_in_place=0.0)
+    args.update(kw)
+    return generate_level(**args)
+
+
+def _project(level, zones, protection=(), **settings):
+    return Project(settings=Settings(**settings), levels=(level,), lift_zones=tuple(zones),
+                   protection_areas=tuple(protection))
+
+
+def _zone(loads, level_id="L1", centre=(4.5, 3.0), r_max=30.0, **kw):
+    return LiftZone("Z1", "zone", level_id, centre, 0.0, r_max, loads=tuple(loads), **kw)
+
+
+def _at(fm, project, load, xs, ys):
+    geo = analysis.point_geometry(fm, project, np.asarray(xs, float), np.asarray(ys, float))
+    return analysis.evaluate_case(fm, project, load, geo)
+
+
+# --------------------------------------------------------------------------- hand check
+def test_hand_check_one_bay():
+    """1000 kg dropped 0.1 m onto the midspan of the infill beam at x = 3 m.
+
+    By hand (η = 1: member mass left out, as a hand calculation would):
+    * beam, AISC Table 3-23 case 7: δ = PL³/(48EI) → f_b = 6³/(48·EI_b) = 4.5/EI_b
+    * the beam puts ½ on each girder at a = 3 m of a 9 m span; AISC case 8, under the
+      load δ = Pa²b²/(3EIL) → per girder (½)²·3²·6²/(3·EI_g·9) = 3/EI_g; two girders
+      6/EI_g
+    * f = 4.5/EI_b + 6/EI_g
+    * Gere Eq. 9-94: K = 1 + √(1 + 2h/(W·f)), F = K·W
+    * beam moment at midspan: F·L/4 + w0·L²/8 (case 7 and case 1), w0 = beam
+      self-weight + (deck 0.13 m × 2400 kg/m³ × g + 1 kPa) × 3 m tributary width
+    * Mc,Rd = Wpl·fy = 6.28e-4 m³ × 355 MPa (EN 1993-1-1 Eq. 6.13, Class 1)
+    """
+    level = _one_bay_level()
+    load = LiftLoad("crate", 1000.0, 1.0, 1.0, drop_height=0.1)
+    proj = _project(level, [_zone([load])], include_member_mass=False)
+    fm = analysis.build_floor(level, proj.settings)
+    r = _at(fm, proj, load, [3.0], [3.0])
+
+    EI_b = 210e9 * 8.356e-5
+    EI_g = 210e9 * 3.374e-4
+    f = 4.5 / EI_b + 6.0 / EI_g
+    W = 1000.0 * G
+    K = 1.0 + math.sqrt(1.0 + 2 * 0.1 / (W * f))
+    F = K * W
+    w0 = 42.2 * G + (0.13 * 2400.0 * G + 1000.0) * 3.0
+    M = F * 6.0 / 4.0 + w0 * 6.0**2 / 8.0
+    Mr = 6.28e-4 * 355e6
+    assert r["_f_s"][0] == pytest.approx(f, rel=REL)
+    assert r["dynamic_factor"][0] == pytest.approx(K, rel=REL)
+    assert r["peak_force"][0] == pytest.approx(F, rel=REL)
+    assert r["_flexure_U"][0] == pytest.approx(M / Mr, rel=REL)
+    # the beam's bending governs this point; the response is elastic
+    assert r["utilisation"][0] == pytest.approx(M / Mr, rel=REL)
+    assert CHECKS[r["governing_check"][0]] == "flexure"
+    assert level.members[r["governing_member"][0]].id == "B1.1/A-B"
+    assert r["response"][0] == ELASTIC
+    # allowable drop height: Gere Eq. 9-94 solved for h with F_allow = (Mr − M0)/(L/4)
+    Fa = (Mr - w0 * 6.0**2 / 8.0) / 1.5
+    h_allow = W * f * ((Fa / W - 1) ** 2 - 1) / 2
+    assert r["allowable_drop_height"][0] == pytest.approx(h_allow, rel=1e-7)
+
+
+def test_hand_check_spring_mat_in_series():
+    """Same point under a spring mat 0.2 m thick, k = 2 kN/mm: f = f_s + 1/k
+    (series springs, Engineering ToolBox "Impact Force"), free fall shortened by the
+    mat thickness (the load is given by hook elevation)."""
+    level = _one_bay_level()
+    load = LiftLoad("crate", 1000.0, 1.0, 1.0, drop_height=None, hook_elevation=13.0,
+                    hang_length=2.5)
+    mat = ProtectionArea("M1", "mat", "L1", Rect(2.0, 2.0, 4.0, 4.0), "spring", 0.2, 2e6)
+    proj = _project(level, [_zone([load])], [mat], include_member_mass=False)
+    fm = analysis.build_floor(level, proj.settings)
+    r = _at(fm, proj, load, [3.0, 3.0], [3.0, 5.0])
+    f_s = 4.5 / (210e9 * 8.356e-5) + 6.0 / (210e9 * 3.374e-4)
+    h = 13.0 - 2.5 - (10.0 + 0.2)
+    W = 1000.0 * G
+    K = 1.0 + math.sqrt(1.0 + 2 * h / (W * (f_s + 1 / 2e6)))
+    assert r["drop_height"][0] == pytest.approx(h, rel=REL)
+    assert r["drop_height"][1] == pytest.approx(0.5, rel=REL)  # bare deck
+    assert r["protection"][0] == 0 and r["protection"][1] == -1
+    assert r["peak_force"][0] == pytest.approx(K * W, rel=REL)
+
+
+@pytest.mark.parametrize("stroke", [0.25, 0.05])
+def test_crushable_layer(stroke):
+    """A crushable layer that does not bottom out passes on its crush force
+    (Engineering ToolBox "Impact Force": force over the stopping distance); one that
+    bottoms out leaves the energy ηWh − (F_c − W)s_c to the structure (energy balance
+    of design notes §3: ηWh + W(δ + s_c) = δ²/(2f) + F_c·s_c)."""
+    level = _one_bay_level()
+    load = LiftLoad("crate", 1000.0, 1.0, 1.0, drop_height=0.5)
+    pad = ProtectionArea("C1", "pad", "L1", Rect(2.0, 2.0, 4.0, 4.0), "crushable", 0.1,
+                         None, crush_force=40e3, crush_stroke=stroke)
+    proj = _project(level, [_zone([load])], [pad], include_member_mass=False)
+    fm = analysis.build_floor(level, proj.settings)
+    r = _at(fm, proj, load, [3.0], [3.0])
+    W, Fc = 1000.0 * G, 40e3
+    f_s = r["_f_s"][0]
+    # crush depth from ηWh + W(F_c·f + c) = F_c²f/2 + F_c·c (η = 1)
+    c = (W * 0.5 + W * Fc * f_s - 0.5 * Fc**2 * f_s) / (Fc - W)
+    if c <= stroke:
+        assert r["peak_force"][0] == pytest.approx(Fc, rel=REL)
+    else:
+        F = W + math.sqrt(W**2 + 2 * (W * 0.5 - (Fc - W) * stroke) / f_s)
+        assert r["peak_force"][0] == pytest.approx(F, rel=REL)
+    assert (c <= stroke) == (stroke == 0.25)
+
+
+# --------------------------------------------------------------------------- response states
+def test_opening_lets_the_load_fall_through():
+    level = _one_bay_level(deck=Deck(openings=(Rect(4.0, 2.0, 5.0, 3.0),)))
+    load = LiftLoad("crate", 500.0, 0.5, 0.5, drop_height=1.0)
+    proj = _project(level, [_zone([load])])
+    res = analysis.analyse(proj)
+    case = res.cases[0]
+    inside = (case.x >= 4.0) & (case.x <= 5.0) & (case.y >= 2.0) & (case.y <= 3.0)
+    assert inside.any()
+    assert np.all(case.response[inside] == EXCEEDS)
+    assert np.all(case.governing_check[inside] == CHECKS.index("opening"))
+    assert np.all(np.isnan(case.allowable_drop_height[inside]))  # none exists
+
+
+def test_beyond_yield_energy_balance():
+    """Find a point that yields in flexure only; its peak deflection follows the
+    elastic–perfectly-plastic balance R_p(δm − δy/2) = ηWh + Wδm (Biggs 1964)."""
+    level = _one_bay_level(superimposed_dead=0.0)
+    load = LiftLoad("block", 3000.0, 1.0, 1.0, drop_height=0.3)
+    proj = _project(level, [_zone([load])], include_member_mass=True,
+                    ductility_limit=30.0, rotation_limit=math.radians(15.0))
+    fm = analysis.build_floor(level, proj.settings)
+    r = _at(fm, proj, load, [3.0, 6.0], [3.0, 3.0])
+    assert np.all(r["_flexure_U"] > 1.0)
+    pl = r["response"] == PLASTIC
+    assert pl.any()
+    W = load.weight
+    eta = r["_eta"][pl]
+    Rp = r["_R_p"][pl]
+    dy = Rp * r["_f"][pl]
+    dm = (eta * W * 0.3 + Rp * dy / 2) / (Rp - W)
+    assert r["plastic_deflection"][pl] == pytest.approx(dm, rel=REL)
+    assert r["ductility"][pl] == pytest.approx(dm / dy, rel=REL)
+    # a simple beam struck at midspan by itself: R_p = (Mp − M0)/(L/4) (first hinge)
+    assert np.all(Rp <= (6.28e-4 * 355e6) / 1.5 + 1e-6)
+
+
+# --------------------------------------------------------------------------- contract
+MUST_EXIST = ("x", "y", "drop_height", "utilisation", "dynamic_factor", "peak_force",
+              "static_deflection", "effective_mass", "max_deflection", "deceleration_g")
+
+
+@pytest.fixture(scope="module")
+def busy_project():
+    """Two bays each way, a mat, a crushable pad, an opening, a hook-height load and
+    a corridor zone, US/AISC basis."""
+    w16 = replace(BEAM, name="B1")
+    level = _one_bay_level(x_spacings=(9.0, 7.5), y_spacings=(6.0, 8.0),
+                           deck=Deck(openings=(Rect(12.0, 8.0, 13.0, 9.0),)),
+                           beam_section=w16, live_in_place=500.0)
+    loads = (LiftLoad("pump", 1800.0, 1.2, 0.8, drop_height=1.5),
+             LiftLoad("sling", 60.0, 0.2, 0.2, drop_height=None, hook_elevation=20.0,
+                      hang_length=4.0, kind="rigging"))
+    zones = [LiftZone("Z1", "ring", "L1", (-3.0, 7.0), 2.0, 18.0, math.radians(-60),
+                      math.radians(70), 0.5, loads=loads),
+             LiftZone("Z2", "corridor", "L1", (8.0, -10.0), 5.0, 40.0, drift_margin=1.0,
+                      corridor=((2.0, 1.0), (14.0, 1.0), (14.0, 4.0), (2.0, 4.0)),
+                      loads=loads[:1])]
+    prot = (ProtectionArea("M", "mat", "L1", Rect(1.0, 1.0, 5.0, 5.0), "spring", 0.15, 5e6),
+            ProtectionArea("P", "pad", "L1", Rect(10.0, 1.0, 14.0, 5.0), "crushable", 0.1,
+                           None, crush_force=60e3, crush_stroke=0.1))
+    return _project(level, zones, prot, design_basis="aisc360", unit_system="US")
+
+
+def test_no_nan_where_a_value_must_exist(busy_project):
+    res = analysis.analyse(busy_project)
+    assert len(res.cases) == 3
+    for case in res.cases:
+        assert case.n > 0
+        opening = case.governing_check == CHECKS.index("opening")
+        for name in MUST_EXIST:
+            arr = getattr(case, name)
+            ok = ~np.isnan(arr) if name in ("x", "y", "drop_height", "utilisation") \
+                else ~np.isnan(arr) | opening
+            assert ok.all(), name
+        assert np.all(case.response >= 0) and np.all(case.response <= 2)
+        assert np.all(case.bay >= 0)
+        # allowable heights: nan only as "none exists", never negative
+        h = case.allowable_drop_height
+        assert np.all(np.isnan(h) | (h >= 0))
+    for b in res.bays:
+        assert not math.isnan(b.max_utilisation)
+        assert b.response in RESPONSES
+        assert b.advice
+        assert b.allowable_drop_height is None or b.allowable_drop_height >= 0
+
+
+def test_bay_summary_is_the_worst_point(busy_project):
+    res = analysis.analyse(busy_project)
+    for case in res.cases:
+        for b in (s for s in res.bays if s.zone_id == case.zone_id
+                  and s.load_name == case.load_name):
+            # a bay owns the points inside it and on its edges
+            sel = _closed_bay(busy_project, case, b.bay_id)
+            U = case.utilisation[sel]
+            assert b.n_points == sel.sum()
+            assert b.max_utilisation == np.max(U)
+            worst = RESPONSES[int(case.response[sel].max())]
+            assert b.response == worst
+
+
+def _closed_bay(project, case, bay_id):
+    from droprig.model import bays
+
+    r = next(b.rect for b in bays(project.level(case.level_id)) if b.id == bay_id)
+    tol = 1e-7
+    return ((case.x >= r.x0 - tol) & (case.x <= r.x1 + tol) & (case.y >= r.y0 - tol)
+            & (case.y <= r.y1 + tol))
+
+
+def test_symmetric_floor_gives_symmetric_results():
+    # a floor symmetric about x = 9 with a zone centred on it: mirrored drop points
+    # carry equal results (symmetry of the statics)
+    level = _one_bay_level(x_spacings=(9.0, 9.0), y_spacings=(6.0,))
+    load = LiftLoad("crate", 2000.0, 1.0, 1.0, drop_height=0.5)
+    proj = _project(level, [_zone([load], centre=(9.0, 3.0), r_max=20.0)])
+    fm = analysis.build_floor(level, proj.settings)
+    rng = np.random.default_rng(7)
+    xs, ys = rng.uniform(0.1, 8.9, 50), rng.uniform(0.1, 5.9, 50)
+    a = _at(fm, proj, load, xs, ys)
+    b = _at(fm, proj, load, 18.0 - xs, ys)
+    for k in ("utilisation", "peak_force", "effective_mass", "allowable_drop_height"):
+        assert np.allclose(a[k], b[k], rtol=1e-9, equal_nan=True), k
+    res = analysis.analyse(proj)
+    by_bay = {s.bay_id: s for s in res.bays}
+    assert by_bay["1-2/A-B"].max_utilisation == pytest.approx(
+        by_bay["2-3/A-B"].max_utilisation, rel=1e-9)
+
+
+# --------------------------------------------------------------------------- refinement
+HALVING_TOL = 0.01  # brief: halving the grid never finds a point > 1 % worse
+
+
+def _demo_like(kind: str):
+    """Two invented floors whose zones pass close to columns without containing one
+    (the worst points then sit on the zone edge nearest a column)."""
+    if kind == "SI":
+        level = _one_bay_level(x_spacings=(7.5, 7.5, 7.5), y_spacings=(9.0, 9.0),
+                               beam_spacing=2.5, girder_direction="y")
+        loads = (LiftLoad("unit", 1500.0, 2.0, 1.2, drop_height=0.6),)
+        zone = LiftZone("Z1", "band", "L1", (11.0, -30.0), 0.0, 60.0, drift_margin=0.5,
+                        corridor=((1.0, 2.0), (21.5, 2.0), (21.5, 7.0), (1.0, 7.0)),
+                        loads=loads)
+        return _project(level, [zone], grid_resolution=1.0)
+    level = _one_bay_level(x_spacings=(9.144, 9.144), y_spacings=(7.62, 7.62, 7.62),
+                           beam_spacing=3.05)
+    loads = (LiftLoad("bundle", 900.0, 3.0, 0.6, drop_height=0.9),)
+    zone = LiftZone("Z1", "ring", "L1", (-5.0, 11.0), 7.3, 11.0, drift_margin=0.6,
+                    loads=loads)
+    return _project(level, [zone], design_basis="aisc360", unit_system="US",
+                    grid_resolution=1.2)
+
+
+@pytest.mark.parametrize("kind", ["SI", "US"])
+def test_halving_the_grid_finds_nothing_worse(kind):
+    coarse = _demo_like(kind)
+    fine = replace(coarse, settings=replace(coarse.settings,
+                                            grid_resolution=coarse.settings.grid_resolution / 2))
+    rc, rf = analysis.analyse(coarse), analysis.analyse(fine)
+    worst_c = {(b.bay_id, b.load_name): b for b in rc.bays}
+    assert len(worst_c) >= 3
+    assert all(math.isfinite(b.max_utilisation) for b in rf.bays)
+    for b in rf.bays:
+        c = worst_c[(b.bay_id, b.load_name)]
+        assert b.max_utilisation <= c.max_utilisation * (1 + HALVING_TOL), b.bay_id
+
+
+def test_points_lie_in_the_zone_and_over_the_deck(busy_project):
+    res = analysis.analyse(busy_project)
+    level = busy_project.levels[0]
+    ext = level.grid.extent
+    for case in res.cases:
+        zone = busy_project.zone(case.zone_id)
+        assert np.all(droppoints.in_zone(zone, case.x, case.y))
+        assert np.all((case.x >= ext.x0 - 1e-9) & (case.x <= ext.x1 + 1e-9))
+        assert np.all((case.y >= ext.y0 - 1e-9) & (case.y <= ext.y1 + 1e-9))
+
+
+# --------------------------------------------------------------------------- trace
+def test_trace_agrees_with_analyse(busy_project):
+    res = analysis.analyse(busy_project)
+    case = res.cases[0]
+    rng = np.random.default_rng(3)
+    for i in rng.choice(case.n, 8, replace=False):
+        t = trace_point(busy_project, case.zone_id, case.load_name, case.x[i], case.y[i])
+        steps = {s.symbol: s.value for s in t.steps}
+        assert t.response == RESPONSES[case.response[i]]
+        assert t.governing_check == CHECKS[case.governing_check[i]]
+        if t.governing_check == "opening":
+            continue
+        for sym, field in (("U", "utilisation"), ("F", "peak_force"), ("K", "dynamic_factor"),
+                           ("m_e", "effective_mass"), ("δ_st", "static_deflection"),
+                           ("h_allow", "allowable_drop_height")):
+            v = getattr(case, field)[i]
+            assert steps[sym] == pytest.approx(v, rel=1e-12, nan_ok=True), sym
+        for s in t.steps:
+            assert s.source and s.formula is not None
+            for _, (val, qty) in s.inputs.items():
+                assert isinstance(val, float) and isinstance(qty, str)
+
+
+def test_trace_refuses_a_point_off_the_deck(busy_project):
+    from droprig.model import ModelError
+
+    with pytest.raises(ModelError, match="deck"):
+        trace_point(busy_project, "Z1", "pump", -50.0, -50.0)
+    with pytest.raises(ModelError, match="load"):
+        trace_point(busy_project, "Z1", "nothing", 3.0, 3.0)
