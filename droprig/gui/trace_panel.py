@@ -35,7 +35,12 @@ PLACEHOLDER = "Click a drop point in the plan to see how its result was worked o
 
 def format_value(value: float, quantity: str, system: str) -> str:
     """A number in the user's units; unknown quantities fall back to 4
-    significant figures; nan -> ``none``, ±inf -> ``unlimited``."""
+    significant figures; nan -> ``none``, ±inf -> ``unlimited``. Lengths under
+    0.1 m (deflections, thicknesses) are shown in mm / in so they keep their
+    digits."""
+    if (quantity == "length" and isinstance(value, int | float) and math.isfinite(value)
+            and 0 < abs(value) < 0.1):
+        quantity = "small_length"
     if quantity in units.QUANTITIES:
         return units.fmt(value, quantity, system)  # type: ignore[arg-type]
     if value is None or (isinstance(value, float) and math.isnan(value)):
@@ -45,38 +50,102 @@ def format_value(value: float, quantity: str, system: str) -> str:
     return f"{value:.4g}"
 
 
-def substitute(formula: str, inputs: dict[str, tuple[float, str]], system: str) -> str:
-    """``formula`` with every whole-word input symbol replaced by its value in
-    the user's units (values with a unit are bracketed). Plain text; escape
-    before showing it as HTML."""
-    if not inputs:
-        return formula
-    keys = sorted(inputs, key=len, reverse=True)
-    pattern = re.compile(r"(?<![\w])(" + "|".join(re.escape(k) for k in keys) + r")(?![\w])")
+_NUMBER = re.compile(r"\d+(?:\.\d+)?")
 
-    def repl(m: re.Match[str]) -> str:
-        value, quantity = inputs[m.group(1)]
-        text = format_value(value, quantity, system)
+
+def _decompose(run: str, keys: tuple[str, ...]) -> list[str] | None:
+    """Split a run of letters written without operators (``2ηh``, ``ηWh``) into
+    numbers and input symbols, or None when it is not made only of them (so a
+    plain word such as ``height`` is never touched)."""
+    n = len(run)
+    best: list[list[str] | None] = [None] * (n + 1)
+    best[n] = []
+    for i in range(n - 1, -1, -1):
+        m = _NUMBER.match(run, i)
+        options = [m.group(0)] if m else []
+        options += [k for k in keys if run.startswith(k, i)]
+        for tok in sorted(options, key=len, reverse=True):
+            rest = best[i + len(tok)]
+            if rest is not None:
+                best[i] = [tok, *rest]
+                break
+    return best[0]
+
+
+def _substitute(formula: str, inputs: dict[str, tuple[float, str]], system: str
+                ) -> tuple[str, list[str]]:
+    """(formula with the numbers put in, input symbols that were not found)."""
+    if not inputs:
+        return formula, []
+    plain = tuple(sorted((k for k in inputs if re.fullmatch(r"\w+", k)), key=len,
+                         reverse=True))
+    special = sorted((k for k in inputs if k not in plain), key=len, reverse=True)
+    alts = [r"(?<![\w])" + re.escape(k) + r"(?![\w])" for k in special]
+    pattern = re.compile("|".join([*alts, r"\w+"]))
+    used: set[str] = set()
+
+    def value(k: str) -> str:
+        used.add(k)
+        v, quantity = inputs[k]
+        text = format_value(v, quantity, system)
         return f"({text})" if " " in text else text
 
-    return pattern.sub(repl, formula)
+    def repl(m: re.Match[str]) -> str:
+        tok = m.group(0)
+        if tok in inputs:
+            return value(tok)
+        parts = _decompose(tok, plain)
+        if not parts or not any(p in inputs for p in parts):
+            return tok
+        return "·".join(value(p) if p in inputs else p for p in parts)
+
+    out = pattern.sub(repl, formula)
+    return out, [k for k in inputs if k not in used]
 
 
-def _rhs(step: TraceStep) -> str:
-    """The formula's right-hand side (the symbol is shown separately)."""
+def substitute(formula: str, inputs: dict[str, tuple[float, str]], system: str) -> str:
+    """``formula`` with every input symbol replaced by its value in the user's
+    units (values with a unit bracketed); runs written without operators such
+    as ``2ηh`` are split when they consist only of numbers and input symbols.
+    Inputs that do not appear in the formula are listed after it ("with …").
+    Plain text; escape before showing it as HTML."""
+    out, missing = _substitute(formula, inputs, system)
+    if missing:
+        where = ", ".join(
+            f"{k} = {format_value(inputs[k][0], inputs[k][1], system)}" for k in missing)
+        out = f"{out}   with {where}"
+    return out
+
+
+def split_formula(step: TraceStep) -> tuple[str, str]:
+    """(left side shown, right side) of a step's formula.
+
+    ``"K = 1 + …"`` for symbol ``K`` gives ``("K", "1 + …")``; a formula whose
+    left side is the symbol's base (``U = …`` for ``U_flexure``) is shown with
+    the full symbol; any other formula (an equation to solve, or a definition
+    in words) is kept whole with no left side. A formula without "=" is the
+    right side of the symbol.
+    """
     f = step.formula.strip()
-    head = f"{step.symbol} ="
-    return f[len(head):].strip() if step.symbol and f.startswith(head) else f
+    if "=" in f:
+        lhs, rhs = f.split("=", 1)
+        lhs = lhs.strip()
+        base = re.split(r"[_,]", step.symbol, maxsplit=1)[0] if step.symbol else ""
+        if lhs and lhs in (step.symbol, base):
+            return step.symbol, rhs.strip()
+        return "", f
+    return step.symbol, f
 
 
 def step_rows(trace: Trace, system: str) -> list[tuple[str, str, str, str, str]]:
     """(title, formula, with numbers, result, source) per step, plain text."""
     rows = []
     for s in trace.steps:
-        rhs = _rhs(s)
-        lhs = f"{s.symbol} = " if s.symbol else ""
-        rows.append((s.title, lhs + rhs, lhs + substitute(rhs, s.inputs, system),
-                     f"{lhs}{format_value(s.value, s.quantity, system)}", s.source))
+        lhs, rhs = split_formula(s)
+        head = f"{lhs} = " if lhs else ""
+        result = f"{s.symbol} = " if s.symbol else ""
+        rows.append((s.title, head + rhs, head + substitute(rhs, s.inputs, system),
+                     result + format_value(s.value, s.quantity, system), s.source))
     return rows
 
 

@@ -104,3 +104,73 @@ def test_clear_and_unknown_values(qtbot, beam_strike_trace: Trace) -> None:
     panel.show_trace(Trace("Z1", "L", 0.0, 0.0, (step,), "exceeds", "", ""), "SI")
     text = panel.browser.toPlainText()
     assert "h_a = none" in text and "nan" not in text.lower()
+
+
+@pytest.mark.parametrize(("formula", "inputs", "system", "expected"), [
+    # runs written without operators are split into input symbols and numbers
+    ("1 + sqrt(1 + 2ηh/δ_st)", {"η": (0.9, "dimensionless"), "h": (0.5, "length"),
+                                "δ_st": (0.002, "length")}, "SI",
+     "1 + sqrt(1 + 2·0.900·(0.500 m)/(2.0 mm))"),
+    # a plain word made of letters that are not all symbols is left alone
+    ("drop height above the deck", {"h": (1.0, "length")}, "SI",
+     "drop height above the deck   with h = 1.000 m"),
+    # an input that is not written in the formula is listed after it
+    ("|F·u + E| / R", {"F": (1000.0, "force"), "t_mat": (0.05, "length")}, "SI",
+     "|(1.0 kN)·u + E| / R   with t_mat = 50.0 mm"),
+    # 0.05 m = 1.97 in (1 in = 25.4 mm exactly, NIST SP 811)
+    ("W·f", {"W": (0.0, "force"), "f": (0.05, "length")}, "US", "(0.00 kip)·(1.97 in)"),
+])
+def test_substitute_cases(formula: str, inputs: dict, system: str, expected: str) -> None:
+    assert substitute(formula, inputs, system) == expected
+
+
+def test_formula_left_side_and_symbol() -> None:
+    from droprig.gui.trace_panel import split_formula
+
+    def step(symbol: str, formula: str) -> TraceStep:
+        return TraceStep("t", symbol, formula, {}, 1.0, "dimensionless", "s")
+
+    assert split_formula(step("K", "K = 1 + x")) == ("K", "1 + x")
+    assert split_formula(step("U_flexure", "U = |F·u + E| / R")) == ("U_flexure",
+                                                                     "|F·u + E| / R")
+    # an equation to solve keeps both sides and no extra symbol
+    assert split_formula(step("δ_m", "R_p(δ_m − δ_y/2) = ηWh + Wδ_m")) == (
+        "", "R_p(δ_m − δ_y/2) = ηWh + Wδ_m")
+    # another quantity's definition is not relabelled
+    assert split_formula(step("M_allow", "F_allow = M·g")) == ("", "F_allow = M·g")
+    assert split_formula(step("F", "K·W")) == ("F", "K·W")
+
+
+def test_real_trace_of_the_solver(qtbot) -> None:
+    """A trace from droprig.solver.trace renders every step, its verdict and the
+    caution, with no raw nan and the point's coordinates."""
+    import math as _m
+
+    import numpy as np
+
+    from droprig.io.sections import get_grade, get_section
+    from droprig.model import LiftLoad, LiftZone, Project, generate_level
+    from droprig.solver.analysis import analyse
+    from droprig.solver.trace import trace_point
+
+    level = generate_level(
+        level_id="L1", name="Level 1", elevation=0.0, x_spacings=(6.0, 6.0),
+        y_spacings=(6.0,), girder_direction="x", beam_spacing=2.0,
+        girder_section=get_section("IPE 400"), beam_section=get_section("IPE 270"),
+        girder_grade=get_grade("S355"), beam_grade=get_grade("S355"))
+    zone = LiftZone("Z1", "Demo", "L1", crane=(6.0, 10.0), r_min=2.0, r_max=8.0,
+                    slew_start=_m.radians(230), slew_end=_m.radians(310),
+                    loads=(LiftLoad("Crate", 200.0, drop_height=0.3),))
+    project = Project(levels=(level,), lift_zones=(zone,))
+    case = analyse(project).cases[0]
+    k = int(np.argmax(np.nan_to_num(case.utilisation, posinf=1e9)))
+    trace = trace_point(project, "Z1", "Crate", float(case.x[k]), float(case.y[k]))
+    panel = TracePanel()
+    qtbot.addWidget(panel)
+    panel.show_trace(trace, "SI")
+    text = panel.browser.toPlainText()
+    for step in trace.steps:
+        assert step.title in text
+    assert style.outcome(trace.response).label in text
+    assert CAUTION in text
+    assert " nan" not in text.lower() and "(nan" not in text.lower()
