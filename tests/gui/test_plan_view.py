@@ -498,6 +498,25 @@ def test_escape_cancels_handle_drag(view: PlanView, qtbot) -> None:
     assert (p.x(), -p.y()) == pytest.approx((hx, hy), abs=LENGTH_TOL)
 
 
+def test_empty_and_odd_inputs_never_raise(qtbot, warehouse_floor: Project) -> None:
+    v = PlanView()
+    qtbot.addWidget(v)
+    v.resize(500, 400)
+    for project, level in ((None, None), (Project(), None), (warehouse_floor, "no-such")):
+        v.set_project(project, level)
+        v.set_results(Results())
+        v.set_overlay("utilisation")
+        v.set_case("Z9", "nothing")
+        v.select_bay("9-9/Z-Z")
+        v.set_selected_zone("Z9")
+        v.fit()
+        assert not v.grab().isNull()
+        _click(v, QPoint(100, 100))
+        v.set_overlay("outcome")
+    assert v.level is not None and v.level.id == "L2"  # unknown id: the first level
+    assert not any(v.handle(k).isVisible() for k in ("r_min", "r_max"))
+
+
 # ------------------------------------------------------- with the real solver
 
 
