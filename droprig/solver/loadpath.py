@@ -55,6 +55,7 @@ from __future__ import annotations
 
 from collections.abc import Iterable
 from dataclasses import dataclass, field
+from functools import cache
 
 import numpy as np
 
@@ -73,8 +74,9 @@ SUPPORT_TOL = 1e-3
 """A member end within this distance (m) of a column or of another member's line
 rests on it."""
 
-CHUNK = 1 << 16
-"""Drop points processed per block (bounds the memory of the gathers)."""
+CHUNK = 1 << 14
+"""Drop points processed per block (keeps the working set in cache and bounds the
+memory of the gathers)."""
 
 
 # --------------------------------------------------------------------------- helpers
@@ -121,9 +123,50 @@ def _unit_integrals(cond: str, xi: float) -> tuple[float, float, float]:
 
 _POLY_DEG = 16
 
-_W_STATIONS = np.array([0.125, 0.25, 0.375, 0.5, 0.625, 0.75, 0.875])
-"""Stations (fractions of the span) where the deck members' deflection is sampled
-to find the largest deflection of the path."""
+_XI = np.linspace(0.0, 1.0, 16385)
+"""Nodes of the tables of the mass integrals over ξ = a/L (linear interpolation
+between nodes: relative error below 1e-7 for these smooth polynomials)."""
+
+
+def _gmax(cond: str, xi: np.ndarray) -> np.ndarray:
+    """Largest deflection along a member of unit span and unit EI under a unit load
+    at ξ: max over x of ĝ(x, ξ) (dense sampling refined around the peak)."""
+    xs = np.linspace(0.0, 1.0, 401)
+    g = beam.green(cond, 1.0, 1.0, xs[None, :], xi[:, None])
+    j = np.argmax(g, axis=1)
+    lo = xs[np.maximum(j - 1, 0)]
+    hi = xs[np.minimum(j + 1, xs.size - 1)]
+    fine = lo[:, None] + (hi - lo)[:, None] * np.linspace(0.0, 1.0, 201)[None, :]
+    return np.max(beam.green(cond, 1.0, 1.0, fine, xi[:, None]), axis=1)
+
+
+@cache
+def _tables(cond: str) -> np.ndarray:
+    """(4, n) tables on :data:`_XI`: P_gg, P_0, P_1 (exact polynomials) and the
+    largest deflection ĝ_max (sampled on 1025 nodes, interpolated)."""
+    z = 2.0 * _XI - 1.0
+    c = _POLYS[cond]
+    coarse = np.linspace(0.0, 1.0, 1025)
+    gm = np.interp(_XI, coarse, _gmax(cond, coarse))
+    return np.stack([np.polynomial.chebyshev.chebval(z, c[0]),
+                     np.polynomial.chebyshev.chebval(z, c[1]),
+                     np.polynomial.chebyshev.chebval(z, c[2]), gm])
+
+
+def _mass_tables(cond: str, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray,
+                                                     np.ndarray]:
+    """The four tables of :func:`_tables` interpolated linearly at ξ (uniform nodes:
+    the cell index is computed, not searched)."""
+    t = _tables(cond)
+    n = _XI.size - 1
+    z = np.clip(np.asarray(xi, float), 0.0, 1.0) * n
+    i = np.minimum(z.astype(np.intp), n - 1)
+    w = z - i
+    out = []
+    for k in range(4):
+        lo = t[k][i]
+        out.append(lo + (t[k][i + 1] - lo) * w)
+    return out[0], out[1], out[2], out[3]
 
 
 def _make_polys() -> dict[str, tuple[np.ndarray, np.ndarray, np.ndarray]]:
@@ -207,6 +250,10 @@ class Frame:
     pair_sup_mcoef: np.ndarray
     pair_sup_rcoef: np.ndarray
     pair_sup_wcoef: np.ndarray
+    pair_D16: np.ndarray
+    pair_M16: np.ndarray
+    pair_wmax: np.ndarray
+    N_R16: np.ndarray
     warnings: tuple[str, ...] = field(default=())
 
     @property
@@ -223,6 +270,18 @@ class Frame:
 
 
 # --------------------------------------------------------------------------- build
+def _support_deflection(c: str, L: float, EI: float, x: np.ndarray, s_on: np.ndarray,
+                        Tq: np.ndarray, d0: np.ndarray, dL: np.ndarray) -> np.ndarray:
+    """Deflection (m/N) at ``x`` of a support member per local reaction (columns):
+    own bending under its node loads Tq plus its ends' movement d0, dL carried by the
+    reaction influence lines."""
+    W = np.zeros((x.size, Tq.shape[1]))
+    if s_on.size:
+        W += beam.green(c, L, EI, x[:, None], s_on[None, :]) @ Tq
+    R0, RL = beam.unit_reactions(c, L, x)
+    return W + R0[:, None] * d0[None, :] + RL[:, None] * dL[None, :]
+
+
 def _is_column(level: Level, p: tuple[float, float]) -> bool:
     g = level.grid
     return (min(abs(p[0] - x) for x in g.x_lines) <= SUPPORT_TOL
@@ -459,6 +518,7 @@ def build_frame(level: Level, *, include_member_mass: bool = True) -> Frame:
     sup_m = np.zeros((n_p, n_sup, n_st, 4))
     sup_r = np.zeros((n_p, n_sup, 2, 4))
     sup_w = np.zeros((n_p, n_sup, n_st, 4))
+    sup_wmax = np.zeros((n_p, 4))
     for ip, path in enumerate(support_lists):
         nl = pair_nodes[ip]
         for jp, mm in enumerate(path):
@@ -475,14 +535,13 @@ def build_frame(level: Level, *, include_member_mass: bool = True) -> Frame:
             sup_r[ip, jp, 0] = R0 @ Tq
             sup_r[ip, jp, 1] = RL @ Tq
             # deflection at the stations per local reaction (own bending + supports)
-            Wc = np.zeros((n_st, 4))
-            if on.size:
-                Wc += beam.green(c, L[mm], EI[mm], xs_pad[:, None],
-                                 node_pos_a[on][None, :]) @ Tq
-            R0s, RLs = beam.unit_reactions(c, L[mm], xs_pad)
-            Wc += R0s[:, None] * D[end_node[mm, 0], nl][None, :]
-            Wc += RLs[:, None] * D[end_node[mm, 1], nl][None, :]
-            sup_w[ip, jp] = Wc
+            sup_w[ip, jp] = _support_deflection(c, L[mm], EI[mm], xs_pad,
+                                                node_pos_a[on], Tq,
+                                                D[end_node[mm, 0], nl], D[end_node[mm, 1], nl])
+            dense = np.unique(np.concatenate([np.linspace(0.0, L[mm], 257), xs]))
+            Wd = _support_deflection(c, L[mm], EI[mm], dense, node_pos_a[on], Tq,
+                                     D[end_node[mm, 0], nl], D[end_node[mm, 1], nl])
+            sup_wmax[ip] = np.maximum(sup_wmax[ip], np.maximum(Wd, 0.0).max(axis=0))
 
     return Frame(
         level=level, cond=cond, L=L, EI=EI, mu=mu, vs=vs, vdir=vdir, cross=cross,
@@ -493,6 +552,10 @@ def build_frame(level: Level, *, include_member_mass: bool = True) -> Frame:
         pair_D=pair_D, pair_M=pair_M, pair_support=tuple(support_lists), N_R=N_R,
         pair_sup_member=sup_member, pair_sup_x=sup_x, pair_sup_mcoef=sup_m,
         pair_sup_rcoef=sup_r, pair_sup_wcoef=sup_w,
+        pair_D16=np.ascontiguousarray(pair_D.reshape(n_p, 16).T),
+        pair_M16=np.ascontiguousarray(pair_M.reshape(n_p, 16).T),
+        pair_wmax=np.ascontiguousarray(sup_wmax.T),
+        N_R16=np.ascontiguousarray(N_R.reshape(n_m, 4).T),
     )
 
 
@@ -569,6 +632,8 @@ def evaluate(frame: Frame, x: Iterable[float] | np.ndarray,
     idx = np.flatnonzero(pair >= 0)
     for s in range(0, idx.size, CHUNK):
         sel = idx[s:s + CHUNK]
+        if sel[-1] - sel[0] == sel.size - 1:  # a run of points: slices, no gathers
+            sel = slice(int(sel[0]), int(sel[-1]) + 1)
         res = _evaluate_supported(frame, x[sel], y[sel], pair[sel], with_mass)
         for k, v in res.items():
             out[k][sel] = v
@@ -577,56 +642,56 @@ def evaluate(frame: Frame, x: Iterable[float] | np.ndarray,
 
 def _evaluate_supported(frame: Frame, x: np.ndarray, y: np.ndarray, pair: np.ndarray,
                         with_mass: bool) -> dict[str, np.ndarray]:
+    """Kernel of :func:`evaluate` for points over a deck panel. Arrays are laid out
+    component-first, (k, n), so every operation runs over contiguous memory."""
     u, v = (y, x) if frame.deck_axis == "x" else (x, y)
-    mem = frame.pair_members[pair]  # (n, 2)
-    c = frame.pair_c[pair]
-    span = c[:, 1] - c[:, 0]
-    pos = np.clip(u - c[:, 0], 0.0, span)
-    t = np.where(span > 0, pos / np.where(span > 0, span, 1.0), 0.0)
-    share = np.stack([1.0 - t, t], axis=1)
-    Lm = frame.L[mem]
-    a = np.clip((v[:, None] - frame.vs[mem]) * frame.vdir[mem], 0.0, Lm)
-    cond = frame.cond[mem]
-    EI = frame.EI[mem]
-    g_aa = by_condition(beam.green, cond, Lm, EI, a, a)
-    R0, RL = by_condition(beam.unit_reactions, cond, Lm, a)
-    r = np.empty((x.size, 4))
-    r[:, 0] = share[:, 0] * R0[:, 0]
-    r[:, 1] = share[:, 0] * RL[:, 0]
-    r[:, 2] = share[:, 1] * R0[:, 1]
-    r[:, 3] = share[:, 1] * RL[:, 1]
-    Dl = frame.pair_D[pair]  # (n, 4, 4)
-    un = np.einsum("nij,nj->ni", Dl, r)
-    f = np.sum(share**2 * g_aa, axis=1) + np.einsum("ni,ni->n", r, un)
-    res = {"members": mem, "share": share, "a": a, "strip_span": span, "strip_pos": pos,
-           "r": r, "u": un, "f": f, "g_own": share * g_aa}
+    memT = frame.pair_members.T[:, pair]  # (2, n)
+    c0 = frame.pair_c[pair, 0]
+    span = frame.pair_c[pair, 1] - c0
+    pos = np.clip(u - c0, 0.0, span)
+    t = pos / span  # span > 0: the two members of a panel are distinct lines
+    share = np.stack([1.0 - t, t])
+    L = frame.L[memT]
+    a = np.clip((v - frame.vs[memT]) * frame.vdir[memT], 0.0, L)
+    cond = frame.cond[memT]
+    EI = frame.EI[memT]
+    g_aa = by_condition(beam.green, cond, L, EI, a, a)
+    R0, RL = by_condition(beam.unit_reactions, cond, L, a)
+    r = np.stack([share[0] * R0[0], share[0] * RL[0], share[1] * R0[1], share[1] * RL[1]])
+    Dl = frame.pair_D16[:, pair]  # (16, n)
+    un = np.empty_like(r)
+    for i in range(4):
+        un[i] = Dl[4 * i] * r[0] + Dl[4 * i + 1] * r[1] + Dl[4 * i + 2] * r[2] \
+            + Dl[4 * i + 3] * r[3]
+    gs = share * g_aa
+    f = share[0] * gs[0] + share[1] * gs[1] + (r * un).sum(axis=0)
+    res = {"members": memT.T, "share": share.T, "a": a.T, "strip_span": span,
+           "strip_pos": pos, "r": r.T, "u": un.T, "f": f, "g_own": gs.T}
     if not with_mass:
         return res
-    # Rayleigh mass: loaded members by the exact polynomial integrals, support
+    # Rayleigh mass: deck members by the exact integrals (tabulated on a/L), support
     # members by the precomputed quadratic form pair_M
-    xi = np.where(Lm > 0, a / Lm, 0.0)
-    I_gg = by_condition(_poly_gg, cond, xi) * Lm**7 / EI**2
-    J0, J1 = by_condition(_poly_gr, cond, xi)
-    J0 = J0 * Lm**4 / EI
-    J1 = J1 * Lm**4 / EI
-    mu = frame.mu[mem]
-    ue = un.reshape(-1, 2, 2)  # node deflections at the ends of each deck member
-    NR = frame.N_R[mem]  # (n, 2, 2, 2) -> already times mu
-    kin = mu * (share**2 * I_gg + 2.0 * share * (ue[..., 0] * J0 + ue[..., 1] * J1))
-    kin = kin.sum(axis=1) + np.einsum("nke,nkef,nkf->n", ue, NR, ue)
-    kin += np.einsum("ni,nij,nj->n", r, frame.pair_M[pair], r)
-    # normalising deflection: the larger of w(p) and the largest deflection found
-    # along the path (stations of the deck members and of the support members)
-    xw = np.clip(np.concatenate([Lm[..., None] * _W_STATIONS, a[..., None]], axis=-1),
-                 0.0, Lm[..., None])
-    gw = by_condition(beam.green, cond[..., None], Lm[..., None], EI[..., None], xw,
-                      a[..., None])
-    R0w, RLw = by_condition(beam.unit_reactions, cond[..., None], Lm[..., None], xw)
-    ww = share[..., None] * gw + R0w * ue[..., 0:1] + RLw * ue[..., 1:2]
-    w_ref = np.maximum(f, np.max(np.abs(ww), axis=(1, 2)))
-    if frame.pair_sup_wcoef.shape[1]:
-        ws = np.einsum("npsi,ni->nps", frame.pair_sup_wcoef[pair], r)
-        w_ref = np.maximum(w_ref, np.max(np.abs(ws), axis=(1, 2)))
+    xi = a / L
+    I_gg, J0, J1, Gmax = by_condition(_mass_tables, cond, xi)
+    L3EI = L**3 / EI
+    I_gg *= L * L3EI**2
+    J0 *= L * L3EI
+    J1 *= L * L3EI
+    mu = frame.mu[memT]
+    ue0, ue1 = un[0::2], un[1::2]  # node deflections at each deck member's two ends
+    NR = frame.N_R16[:, memT]  # (4, 2, n): N00, N01, N10, N11 (already × μ)
+    kin = (mu * (share * share * I_gg + 2.0 * share * (ue0 * J0 + ue1 * J1))
+           + ue0 * ue0 * NR[0] + 2.0 * ue0 * ue1 * NR[1] + ue1 * ue1 * NR[3]).sum(axis=0)
+    Ml = frame.pair_M16[:, pair]
+    for i in range(4):
+        kin += r[i] * (Ml[4 * i] * r[0] + Ml[4 * i + 1] * r[1] + Ml[4 * i + 2] * r[2]
+                       + Ml[4 * i + 3] * r[3])
+    # normalising deflection: the larger of w(p) and an upper bound of the largest
+    # deflection along the path (own bending maximum + largest end movement for the
+    # deck members; Σ_i r_i·max_s W_s,i for the support members, W ≥ 0)
+    w_deck = share * Gmax * L3EI + np.maximum(np.abs(ue0), np.abs(ue1))
+    w_sup = (frame.pair_wmax[:, pair] * r).sum(axis=0)
+    w_ref = np.maximum(np.maximum(f, w_sup), np.maximum(w_deck[0], w_deck[1]))
     with np.errstate(divide="ignore", invalid="ignore"):
         m_e = np.where(w_ref > 0.0, kin / np.where(w_ref > 0.0, w_ref, 1.0) ** 2, 0.0)
     res["m_e"] = m_e

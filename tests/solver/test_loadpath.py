@@ -115,17 +115,17 @@ def _quadrature_check(frame, res, i):
     return w_p, kin, w_max
 
 
-SAMPLED_MAX_REL = 0.03
-"""The largest deflection of the path is found at sampled stations: within 3 % of
-the true maximum (a smooth peak sampled at ≤ L/8; common practice, no source)."""
+BOUND_REL = 1e-3
+"""The normalising deflection is an upper bound of the path's largest deflection,
+built from tabulated maxima (interpolated) — allowed to fall short by 0.1 %."""
 
 
 def _check_mass(res, i, w_p, kin, w_max):
-    # m_e = ∫μw² / w_ref², w_ref = max(w(p), sampled largest deflection of the path)
+    # m_e = ∫μw² / w_ref², w_ref = max(w(p), bound of the path's largest deflection)
     assert res.m_e[i] * res.w_ref[i] ** 2 == pytest.approx(kin, rel=QUAD_REL)
     assert res.w_ref[i] >= w_p * (1 - REL)
-    assert res.w_ref[i] <= w_max * (1 + QUAD_REL)
-    assert res.w_ref[i] >= (1 - SAMPLED_MAX_REL) * w_max
+    assert res.w_ref[i] >= w_max * (1 - BOUND_REL)
+    assert res.w_ref[i] <= 2.0 * w_max
 
 
 @pytest.mark.parametrize("p", [(4.0, 3.0), (2.0, 0.4), (10.3, 12.6), (12.0, 7.7),
@@ -224,7 +224,8 @@ def test_chunked_evaluation_matches(floor, monkeypatch):
 
 
 def test_mass_polynomials_match_quadrature():
-    # the Chebyshev tables reproduce the exact Gauss–Legendre integrals
+    # the Chebyshev polynomials reproduce the exact Gauss–Legendre integrals, and
+    # their interpolated tables stay within 1e-6
     for cond in loadpath.COND_NAMES:
         for xi in (0.0, 0.13, 0.5, 0.77, 1.0):
             gg, g0, g1 = loadpath._unit_integrals(cond, xi)
@@ -233,3 +234,6 @@ def test_mass_polynomials_match_quadrature():
             p0, p1 = loadpath._poly_gr(cond, np.array(xi))
             assert float(p0) == pytest.approx(g0, rel=1e-9, abs=1e-15)
             assert float(p1) == pytest.approx(g1, rel=1e-9, abs=1e-15)
+            t = loadpath._mass_tables(cond, np.array(xi))
+            assert float(t[0]) == pytest.approx(gg, rel=1e-6, abs=1e-12)
+            assert float(t[1]) == pytest.approx(g0, rel=1e-6, abs=1e-12)
