@@ -33,7 +33,7 @@ from dataclasses import dataclass
 from droprig import __version__
 from droprig.model import Level, LiftZone, Member, Project
 from droprig.report import content, fonts
-from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, is_none, substitute
+from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, is_none, substitute_all
 from droprig.solver.results import CHECKS, DECK, CaseResult, Results, Trace
 
 Progress = Callable[[float, str], None]
@@ -535,7 +535,7 @@ class _Builder:
                 extra.append(_outcome_bg(b.response, 2, i + 1))
             w = self.w
             flow.append(_table(trs, [0.11 * w, 0.08 * w, 0.11 * w, 0.07 * w, 0.17 * w,
-                                     0.08 * w, 0.08 * w, 0.30 * w], extra=extra))
+                                     0.09 * w, 0.09 * w, 0.28 * w], extra=extra))
             self.add(head, flow)
 
     # -- plan
@@ -645,15 +645,13 @@ class _Builder:
                 trs = [[self.P(h, st.head) for h in hdr]]
                 base = k * STEPS_PER_PAGE
                 for i, s in enumerate(part):
-                    rhs = _rhs(s.symbol, s.formula)
+                    lines = [f"<b>{esc(s.title)}</b>"] + [
+                        esc(t) for t in step_lines(s.symbol, s.formula, s.inputs, self.sys)]
                     lhs = f"{esc(s.symbol)} = " if s.symbol else ""
-                    formula = esc(rhs)
-                    subst = esc(substitute(rhs, s.inputs, self.sys))
                     result = esc(self.v(s.value, s.quantity))
                     trs.append([
                         self.P(str(base + i + 1)),
-                        self.P(f"<b>{esc(s.title)}</b><br/>{lhs}{formula}<br/>"
-                               f"{lhs}{subst}"),
+                        self.P("<br/>".join(lines)),
                         self.P(f"<b>{lhs}{result}</b>"),
                         self.P(esc(s.source), st.tiny),
                     ])
@@ -889,11 +887,33 @@ def _ei(value: float, system: str) -> str:
     return f"{value / 1e3:,.0f} kN·m²"
 
 
-def _rhs(symbol: str, formula: str) -> str:
-    """The formula's right-hand side when it repeats ``symbol =`` at its start."""
+def step_lines(symbol: str, formula: str, inputs: dict[str, tuple[float, str]],
+               system: str) -> list[str]:
+    """Plain-text lines of one calculation step: the formula, the formula with
+    the numbers put in (when it has inputs), and the inputs it does not name.
+
+    A formula that begins with ``symbol =`` or has no ``=`` is shown as
+    ``symbol = …``; a formula with its own left side (``U = |F·u + E| / R`` for
+    the step ``U_flexure``) is shown as written.
+    """
     f = formula.strip()
     head = f"{symbol} ="
-    return f[len(head):].strip() if symbol and f.startswith(head) else f
+    if symbol and f.startswith(head):
+        lhs, rhs = f"{symbol} = ", f[len(head):].strip()
+    elif symbol and "=" not in f:
+        lhs, rhs = f"{symbol} = ", f
+    else:
+        lhs, rhs = "", f
+    lines = [lhs + rhs]
+    if inputs:
+        subst, unused = substitute_all(rhs, inputs, system)  # type: ignore[arg-type]
+        if subst != rhs:
+            lines.append(lhs + subst)
+        if unused:
+            lines.append("with " + ", ".join(
+                f"{k} = {fmt_value(inputs[k][0], inputs[k][1], system)}"  # type: ignore[arg-type]
+                for k in unused))
+    return lines
 
 
 def _check_name(k: int) -> str:

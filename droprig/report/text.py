@@ -20,6 +20,10 @@ SMALL_LENGTH_BELOW = 0.1
 their significant figures (common practice, no source)."""
 
 
+UTIL_CAP = 1000.0
+"""Utilisations from this value print as ``> 999``."""
+HUGE = 1e9
+"""Display magnitudes from this size print in powers of ten (no 19-digit numbers)."""
 PSF = 4.4482216152605 / 0.3048**2
 """One pound-force per square foot, Pa (NIST SP 811, Appendix B.8)."""
 
@@ -58,8 +62,14 @@ def fmt_value(value: float | None, quantity: str, system: UnitSystem, *,
         # = 4.4482216152605 N / 0.09290304 m² (NIST SP 811 B.8).
         d = units.QUANTITIES["pressure"][4]
         return f"{v / PSF:,.{d}f} psf" if unit else f"{v / PSF:,.{d}f}"
-    if quantity == "dimensionless" and math.isfinite(v):
+    if quantity == "dimensionless":
+        if abs(v) >= HUGE:
+            return f"{v:.3e}"
         return f"{v:.3f}" if abs(v) < 1000 else f"{v:,.0f}"
+    mag = units.to_display(v, quantity, system)
+    if abs(mag) >= HUGE:  # a degenerate value: keep it short and plainly odd
+        u = fmt_unit(quantity, system)
+        return f"{mag:.3e}" + (f" {u}" if unit and u else "")
     return units.fmt(v, quantity, system, unit=unit)
 
 
@@ -80,36 +90,86 @@ def fmt_unit(quantity: str, system: UnitSystem) -> str:
 
 
 def fmt_util(u: float | None) -> str:
-    """Utilisation as a ratio with two decimals (``1.37``); ``none`` for nan; ``∞``
-    where the demand meets no resistance at all."""
+    """Utilisation as a ratio with two decimals (``1.37``), whole from 100,
+    ``> 999`` from :data:`UTIL_CAP` (the exact figure no longer matters and must
+    fit a narrow column); ``none`` for nan; ``∞`` where the demand meets no
+    resistance at all."""
     if is_none(u):
         return "none"
     assert u is not None
     if math.isinf(u):
         return "∞" if u > 0 else "-∞"
+    if u >= UTIL_CAP:
+        return f"> {UTIL_CAP - 1:.0f}"
+    if abs(u) >= 100:
+        return f"{u:.0f}"
     return f"{u:.2f}"
 
 
-def substitute(formula: str, inputs: dict[str, tuple[float, str]], system: UnitSystem) -> str:
-    """``formula`` with each input symbol replaced by its value in project units.
+_NUMBER = re.compile(r"\d+(?:\.\d+)?")
 
-    Symbols are matched as whole tokens (longest first, so ``δ_st`` is not read
-    as ``δ``); a value carrying a unit or a minus sign is bracketed so the
-    expression stays readable: ``K = 1 + √(1 + 2·0.612·(1.000 m)/(2.4 mm))``.
+
+def _split_run(run: str, symbols: tuple[str, ...]) -> list[str] | None:
+    """Split a run written without operators (``2ηh``, ``ηWh``) into numbers and
+    input symbols; ``None`` when the run is not made only of them, so an ordinary
+    word (``height``, ``max``) is never touched."""
+    n = len(run)
+    tail: list[list[str] | None] = [None] * (n + 1)
+    tail[n] = []
+    for i in range(n - 1, -1, -1):
+        m = _NUMBER.match(run, i)
+        options = [m.group(0)] if m else []
+        options += [k for k in symbols if run.startswith(k, i)]
+        for tok in sorted(options, key=len, reverse=True):
+            rest = tail[i + len(tok)]
+            if rest is not None:
+                tail[i] = [tok, *rest]
+                break
+    return tail[0]
+
+
+def substitute_all(formula: str, inputs: dict[str, tuple[float, str]], system: UnitSystem
+                   ) -> tuple[str, list[str]]:
+    """``formula`` with each input symbol replaced by its value in project units,
+    and the input symbols that do not appear in it (to be listed beside it).
+
+    Symbols are matched as whole tokens, longest first (``δ_st`` is not read as
+    ``δ``); a run written without operators (``2ηh``) is split into its symbols
+    and joined with ``·``; a value with a unit or a sign is bracketed unless it
+    already stands alone in brackets: ``K = 1 + √(1 + 2·1.000·(2.900 m)/(2.4 mm))``.
     """
     if not inputs:
-        return formula
-    symbols = sorted(inputs, key=len, reverse=True)
-    pattern = re.compile(
-        r"(?<![\w.])(" + "|".join(re.escape(s) for s in symbols) + r")(?![\w])")
+        return formula, []
+    plain = tuple(sorted((k for k in inputs if re.fullmatch(r"\w+", k)), key=len,
+                         reverse=True))
+    special = sorted((k for k in inputs if k not in plain), key=len, reverse=True)
+    alternatives = [r"(?<![\w.])" + re.escape(k) + r"(?![\w])" for k in special]
+    pattern = re.compile("|".join([*alternatives, r"\w+"]))
+    used: set[str] = set()
 
-    def repl(m: re.Match[str]) -> str:
-        value, quantity = inputs[m.group(1)]
-        text = fmt_value(value, quantity, system)
-        enclosed = (m.start() > 0 and m.string[m.start() - 1] == "("
-                    and m.end() < len(m.string) and m.string[m.end()] == ")")
+    def value(k: str, enclosed: bool) -> str:
+        used.add(k)
+        v, quantity = inputs[k]
+        text = fmt_value(v, quantity, system)
         if (" " in text or text.startswith("-")) and not enclosed:
             return f"({text})"
         return text
 
-    return pattern.sub(repl, formula)
+    def repl(m: re.Match[str]) -> str:
+        tok = m.group(0)
+        enclosed = (m.start() > 0 and m.string[m.start() - 1] == "("
+                    and m.end() < len(m.string) and m.string[m.end()] == ")")
+        if tok in inputs:
+            return value(tok, enclosed)
+        parts = _split_run(tok, plain)
+        if not parts or not any(p in inputs for p in parts):
+            return tok
+        return "·".join(value(p, False) if p in inputs else p for p in parts)
+
+    out = pattern.sub(repl, formula)
+    return out, [k for k in inputs if k not in used]
+
+
+def substitute(formula: str, inputs: dict[str, tuple[float, str]], system: UnitSystem) -> str:
+    """``formula`` with the numbers put in (see :func:`substitute_all`)."""
+    return substitute_all(formula, inputs, system)[0]

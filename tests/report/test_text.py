@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 from reportlab.platypus import Paragraph
 
-from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, substitute
+from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, substitute, substitute_all
 
 
 @pytest.mark.parametrize("raw", ["<b>Bay & Co</b>", "a < b > c & d", "&amp; stays &amp;",
@@ -31,6 +31,7 @@ def test_escaped_text_prints_literally_in_a_paragraph(raw: str) -> None:
     (47.88025898033584, "pressure", "US", "1.0 psf"),  # NIST SP 811 B.8: 1 psf = 47.88 Pa
     (2500.0, "pressure", "SI", "2.50 kPa"),
     (float("inf"), "force", "SI", "∞ kN"),
+    (2.5e12, "force", "SI", "2.500e+09 kN"),  # 1 kN = 1000 N
     (None, "length", "SI", "none"),
     (float("nan"), "force", "SI", "none"),
 ])
@@ -40,7 +41,8 @@ def test_fmt_value(value: float | None, quantity: str, system: str, expected: st
 
 @pytest.mark.parametrize(("u", "expected"), [(1.3749, "1.37"), (0.5, "0.50"),
                                              (float("nan"), "none"), (None, "none"),
-                                             (float("inf"), "∞")])
+                                             (float("inf"), "∞"), (123.4, "123"),
+                                             (31994980.66, "> 999")])
 def test_fmt_util(u: float | None, expected: str) -> None:
     # utilisation = demand/resistance printed to 2 decimals (common practice, no source)
     assert fmt_util(u) == expected
@@ -68,3 +70,20 @@ def test_fmt_allow(value: float | None, expected: str) -> None:
     # an infinite allowable height means no limit is reached (common practice, no
     # source); 1 ft = 0.3048 m exactly
     assert fmt_allow(value, "length", "US") == expected
+
+
+def test_runs_without_operators_are_split_into_symbols() -> None:
+    # Gere 7th ed. §9.10 Eq. 9-94 as written in the solver's trace: 2ηh/δ_st
+    inputs = {"η": (1.0, "dimensionless"), "h": (2.9, "length"),
+              "δ_st": (0.0024, "length"), "L": (9.0, "length")}
+    got, unused = substitute_all("1 + √(1 + 2ηh/δ_st)", inputs, "SI")
+    assert got == "1 + √(1 + 2·1.000·(2.900 m)/(2.4 mm))"
+    # an input the formula does not name is reported, to be listed beside it
+    assert unused == ["L"]
+
+
+def test_words_are_not_split() -> None:
+    # "height" is not h·e·i·g·h·t even when h, e, t are inputs (token rule, no source)
+    inputs = {"h": (1.0, "length"), "e": (2.0, "length"), "t": (3.0, "length")}
+    got, _ = substitute_all("drop height h", inputs, "SI")
+    assert got == "drop height (1.000 m)"
