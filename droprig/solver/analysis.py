@@ -74,6 +74,7 @@ __all__ = [
     "analyse_zone",
     "build_floor",
     "evaluate_case",
+    "floor_model",
     "zone_points",
 ]
 
@@ -207,23 +208,26 @@ def existing_moment(frame: Frame, w0: np.ndarray, P0: np.ndarray, k: int,
 
 
 # --------------------------------------------------------------------------- checks
+_F_HUGE = 1e300
+"""Stands in for an unbounded force so that 0·∞ reads as 0 (a rigid point puts no
+load on a member that takes no share of it) while any share of it stays ∞."""
+
+
 def _demand(F: np.ndarray, unit: np.ndarray, exist: np.ndarray) -> np.ndarray:
-    """|F·unit + exist| with 0·∞ read as 0 (a rigid point puts no load on a member
-    that takes no share of it)."""
-    with np.errstate(invalid="ignore"):
-        prod = F * unit
-    prod = np.where(unit == 0.0, 0.0, prod)
-    return np.abs(prod + exist)
+    """|F·unit + exist|."""
+    d = np.minimum(F, _F_HUGE) * unit
+    d += exist
+    return np.abs(d, out=d)
 
 
 def _f_allow(R: np.ndarray, unit: np.ndarray, exist: np.ndarray) -> np.ndarray:
     """Largest F ≥ 0 with |F·unit + exist| ≤ R: (R − sign(unit)·exist)/|unit|; ∞ for
-    unit = 0 (and −1 if the existing load alone exceeds R)."""
+    unit = 0; −1 where the existing load alone exceeds R."""
     au = np.abs(unit)
     with np.errstate(divide="ignore", invalid="ignore"):
         fa = (R - np.sign(unit) * exist) / au
-    fa = np.where(au > _TINY, fa, np.where(np.abs(exist) <= R, np.inf, -1.0))
-    return np.where(np.abs(exist) > R, -1.0, fa)
+        fa = np.where(np.abs(exist) > R, -1.0, fa)
+    return np.where(np.isnan(fa), np.inf, fa)
 
 
 @dataclass
@@ -239,36 +243,44 @@ class _Check:
     exist: np.ndarray
     resist: np.ndarray
     U_at: Callable[[np.ndarray], np.ndarray]
+    fa_all: np.ndarray | None = None
 
 
 def _reduce(name: str, F: np.ndarray, unit: np.ndarray, exist: np.ndarray,
             resist: np.ndarray, member: np.ndarray) -> _Check:
     """Combine candidate demands (n, c) into one check: the governing candidate is
-    the one with the lowest allowed force (ties: largest utilisation)."""
-    Fcol = F[:, None]
-    U = _demand(Fcol, unit, exist) / resist
+    the one with the largest utilisation (where it is unbounded: the lowest allowed
+    force)."""
+    U_all = _demand(F[:, None], unit, exist)
+    U_all /= resist
     fa = _f_allow(resist, unit, exist)
-    # governing candidate: largest U; where every U is equal (e.g. inf), lowest F_allow
-    key = np.where(np.isfinite(U), U, np.inf)
-    j = np.argmax(key, axis=1)
-    jfa = np.argmin(fa, axis=1)
-    both_inf = ~np.isfinite(np.max(key, axis=1))
-    j = np.where(both_inf, jfa, j)
+    j = np.argmax(U_all, axis=1)
     rows = np.arange(F.shape[0])
+    U = U_all[rows, j]
+    unbounded = np.isinf(U)
+    if unbounded.any():
+        j = np.where(unbounded, np.argmin(fa, axis=1), j)
 
     def U_at(Fx: np.ndarray) -> np.ndarray:
-        return np.max(_demand(Fx[:, None], unit, exist) / resist, axis=1)
+        d = _demand(Fx[:, None], unit, exist)
+        d /= resist
+        return np.max(d, axis=1)
 
-    return _Check(name, U[rows, j], np.min(fa, axis=1), member[rows, j], unit[rows, j],
-                  exist[rows, j], resist[rows, j], U_at)
+    chk = _Check(name, U, np.min(fa, axis=1), member[rows, j], unit[rows, j],
+                 exist[rows, j], resist[rows, j], U_at)
+    chk.fa_all = fa
+    return chk
 
 
-def _loaded_stations(a: np.ndarray, L: np.ndarray) -> np.ndarray:
+def _loaded_stations(a: np.ndarray, L: np.ndarray, ends: bool) -> np.ndarray:
     """Stations along a deck-supporting member where the moment can peak under a
-    point load at a plus a uniform load: under the load, the ends, quarter points
-    and halfway between the load and midspan (n, ..., 7), m."""
-    return np.stack([a, 0.0 * a, L + 0.0 * a, 0.25 * L + 0.0 * a, 0.5 * L + 0.0 * a,
-                     0.75 * L + 0.0 * a, 0.5 * (a + 0.5 * L)], axis=-1)
+    point load at a plus a uniform load: under the load, the quarter points, halfway
+    between the load and midspan, and the ends when a member has a fixed end
+    (n, ..., 5 or 7), m."""
+    cols = [a, 0.25 * L, 0.5 * L, 0.75 * L, 0.5 * (a + 0.5 * L)]
+    if ends:
+        cols += [0.0 * a, L + 0.0 * a]
+    return np.stack(np.broadcast_arrays(*cols), axis=-1)
 
 
 def _loaded_existing_moment(fm: FloorModel, mem: np.ndarray, xs: np.ndarray) -> np.ndarray:
@@ -327,16 +339,49 @@ def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarra
 
 
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
-                  geo: Geometry, load_index: np.ndarray | None = None) -> dict[str, np.ndarray]:
+                  geo: Geometry, load_index: np.ndarray | None = None, *,
+                  detail: bool = False) -> dict[str, np.ndarray]:
     """Every quantity of the analysis of ``load`` at the points of ``geo``.
 
     ``load`` may be a sequence of loads with ``load_index`` naming the load of each
     point (several cases in one vectorised pass). Returns the :class:`CaseResult`
-    arrays under their field names plus the intermediate values the calculation
-    trace shows (keys starting with ``_``).
+    arrays under their field names and ``_F_allow`` (N); with ``detail`` also the
+    intermediate values the calculation trace shows (other keys starting with ``_``).
     """
+    n = geo.x.size
+    chunk = loadpath_chunk()
+    keep = None if detail else {*_FIELDS, "_F_allow"}
     with np.errstate(all="ignore"):
-        return _evaluate_case(fm, project, load, geo, load_index)
+        if n <= chunk:
+            return _select(_evaluate_case(fm, project, load, geo, load_index), keep)
+        out: dict[str, np.ndarray] = {}
+        for s in range(0, n, chunk):
+            sl = slice(s, min(s + chunk, n))
+            li = None if load_index is None else load_index[sl]
+            part = _select(_evaluate_case(fm, project, load, _slice_geo(geo, sl), li), keep)
+            for k, v in part.items():
+                if k not in out:
+                    out[k] = np.empty((n, *v.shape[1:]), dtype=v.dtype)
+                out[k][sl] = v
+    return out
+
+
+def _select(d: dict[str, np.ndarray], keep: set[str] | None) -> dict[str, np.ndarray]:
+    return d if keep is None else {k: v for k, v in d.items() if k in keep}
+
+
+def loadpath_chunk() -> int:
+    """Points per block of the vectorised evaluation (cache-sized)."""
+    from droprig.solver import loadpath
+
+    return int(loadpath.CHUNK)
+
+
+def _slice_geo(geo: Geometry, sl: slice) -> Geometry:
+    p = geo.path
+    path = PathResult(**{f: getattr(p, f)[sl] for f in p.__dataclass_fields__})
+    return Geometry(geo.x[sl], geo.y[sl], path, geo.bay[sl], geo.protection[sl],
+                    geo.opening[sl])
 
 
 def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
@@ -405,7 +450,7 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     a = path.a
     Lm = fr.L[mem]
     cond = fr.cond[mem]
-    xs = _loaded_stations(a, Lm)  # (n, 2, 7)
+    xs = _loaded_stations(a, Lm, bool(np.any(fr.cond != 0)))  # (n, 2, S_l)
     m_unit = share[..., None] * by_condition(beam.unit_moment, cond[..., None],
                                              Lm[..., None], xs, a[..., None])
     M0 = _loaded_existing_moment(fm, mem, xs)
@@ -491,7 +536,9 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     Pc = by_condition(beam.plastic_collapse_load, cond, Lm, a, Mp_eff)
     with np.errstate(divide="ignore", invalid="ignore"):
         Pc = np.where(share > 0, Pc / np.where(share > 0, share, 1.0), np.inf)
-    fa_l = _f_allow(Mr_l, m_unit, M0).min(axis=-1)  # (n, 2) first hinge per member
+    fa_fl = checks["flexure"].fa_all
+    n_l = m_unit.shape[1] * m_unit.shape[2]
+    fa_l = fa_fl[:, :n_l].reshape(m_unit.shape).min(axis=-1)  # (n, 2) first hinge
     indeterminate = (cond == COND_NAMES.index("fixed")) | (cond == COND_NAMES.index("propped"))
     Rp_l = np.where(indeterminate, np.maximum(fa_l, Pc), fa_l)
     Rp_cands = [Rp_l]
@@ -500,7 +547,7 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     Rp_L = [Lm]
     Rp_cond = [cond]
     if has_sup:
-        fa_s_all = _f_allow(Mr_s, ms_unit, M0_s)  # (n, P, S)
+        fa_s_all = fa_fl[:, n_l:].reshape(ms_unit.shape)  # (n, P, S)
         j = np.argmin(fa_s_all, axis=-1)
         fa_s = np.take_along_axis(fa_s_all, j[..., None], axis=-1)[..., 0]
         fa_s = np.where(sup >= 0, fa_s, np.inf)
@@ -650,9 +697,10 @@ def _severity(res: dict[str, np.ndarray]) -> np.ndarray:
 
 
 def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
-            step: float) -> tuple[np.ndarray, np.ndarray]:
+            step: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Points on a 5 × 5 lattice of spacing ``step`` around the worst points of
-    each bay (for each load), inside the zone and over a deck panel."""
+    each bay for each load, moved into the zone where they fall outside it, kept
+    where they lie over a deck panel. Returns x, y and the load index of each."""
     sev = _severity(res)
     finite = np.isfinite(res["utilisation"])
     bay = res["bay"]
@@ -661,7 +709,7 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     group = li * (int(bay.max(initial=0)) + 2) + (bay + 1)
     cand = np.flatnonzero(finite)
     if cand.size == 0:
-        return np.zeros(0), np.zeros(0)
+        return np.zeros(0), np.zeros(0), np.zeros(0, dtype=np.int64)
     order = cand[np.lexsort((-sev[cand], group[cand]))]
     g = group[order]
     first = np.r_[True, g[1:] != g[:-1]]
@@ -671,15 +719,17 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     OX, OY = np.meshgrid(off, off)
     x = (res["x"][top][:, None] + OX.ravel()[None, :]).ravel()
     y = (res["y"][top][:, None] + OY.ravel()[None, :]).ravel()
+    lj = np.repeat(li[top], OX.size)
     # lattice points beyond the zone edge move onto it: the worst point often lies
     # on the edge nearest a stiff support
     x, y = droppoints.project_into_zone(zone, x, y)
     keep = droppoints.in_zone(zone, x, y) & (locate(fm.frame, x, y) >= 0)
-    return x[keep], y[keep]
+    return x[keep], y[keep], lj[keep]
 
 
-def _keys(x: np.ndarray, y: np.ndarray) -> np.ndarray:
-    return np.round(x, 7) + 1j * np.round(y, 7)
+def _keys(x: np.ndarray, y: np.ndarray, li: np.ndarray) -> np.ndarray:
+    """One complex key per (point, load), equal to 1e-7 m."""
+    return (np.round(x, 7) + 1e5 * li) + 1j * np.round(y, 7)
 
 
 def _merge(a: dict[str, np.ndarray], b: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
@@ -689,33 +739,30 @@ def _merge(a: dict[str, np.ndarray], b: dict[str, np.ndarray]) -> dict[str, np.n
 def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
                 base: Geometry) -> dict[str, np.ndarray]:
     """Evaluate every load of ``zone`` at the base points, then refine around each
-    bay's worst points (:data:`REFINE_PASSES` passes, spacing resolution/4, /16, …).
-    All loads are evaluated together; ``_load`` names the load of each row."""
+    bay's worst points of each load (:data:`REFINE_PASSES` passes, spacing
+    resolution/4, /16, …). ``_load`` names the load of each row."""
     loads = list(zone.loads)
     nl = len(loads)
     nb = base.x.size
     li = np.repeat(np.arange(nl), nb)
-    geo = _tile(base, nl)
-    res = evaluate_case(fm, project, loads, geo, li)
+    res = evaluate_case(fm, project, loads, _tile(base, nl), li)
     res["_load"] = li
     step = fm.settings.grid_resolution
-    known = _keys(base.x, base.y)
+    known = _keys(res["x"], res["y"], li)
     for _ in range(REFINE_PASSES):
         step /= 4.0
-        x, y = _refine(fm, zone, res, step)
+        x, y, lj = _refine(fm, zone, res, step)
         if x.size == 0:
             break
-        x, y = droppoints.dedupe(x, y)
-        k = _keys(x, y)
-        new = ~np.isin(k, known)
-        x, y = x[new], y[new]
-        if x.size == 0:
+        k, first = np.unique(_keys(x, y, lj), return_index=True)
+        new = first[~np.isin(k, known)]
+        if new.size == 0:
             continue
-        known = np.concatenate([known, k[new]])
-        g1 = point_geometry(fm, project, x, y)
-        li2 = np.repeat(np.arange(nl), x.size)
-        r2 = evaluate_case(fm, project, loads, _tile(g1, nl), li2)
-        r2["_load"] = li2
+        x, y, lj = x[new], y[new], lj[new]
+        known = np.concatenate([known, _keys(x, y, lj)])
+        geo = point_geometry(fm, project, x, y)
+        r2 = evaluate_case(fm, project, loads, geo, lj)
+        r2["_load"] = lj
         res = _merge(res, r2)
     return res
 
@@ -853,13 +900,27 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
 
 
 # --------------------------------------------------------------------------- entry points
-def _floor_cache(project: Project) -> Callable[[str], FloorModel]:
-    cache: dict[str, FloorModel] = {}
+_FLOORS: dict[tuple[Level, Settings], FloorModel] = {}
+_FLOORS_MAX = 8
+"""Prepared floors kept between analyses (keyed by value: an edited level or changed
+settings builds afresh). Live re-analysis after a zone or load edit reuses them."""
 
+
+def floor_model(level: Level, settings: Settings) -> FloorModel:
+    """:func:`build_floor`, remembered for the last few (level, settings) pairs."""
+    key = (level, settings)
+    fm = _FLOORS.get(key)
+    if fm is None:
+        fm = build_floor(level, settings)
+        if len(_FLOORS) >= _FLOORS_MAX:
+            _FLOORS.pop(next(iter(_FLOORS)))
+        _FLOORS[key] = fm
+    return fm
+
+
+def _floor_cache(project: Project) -> Callable[[str], FloorModel]:
     def get(level_id: str) -> FloorModel:
-        if level_id not in cache:
-            cache[level_id] = build_floor(project.level(level_id), project.settings)
-        return cache[level_id]
+        return floor_model(project.level(level_id), project.settings)
 
     return get
 

@@ -179,13 +179,18 @@ def project_into_zone(zone: LiftZone, x: np.ndarray, y: np.ndarray,
     """
     x = np.asarray(x, float).copy()
     y = np.asarray(y, float).copy()
+    out = ~in_zone(zone, x, y)
+    if not out.any():
+        return x, y
+    px, py = x[out], y[out]
     m = zone.drift_margin
     for _ in range(sweeps if zone.corridor else 1):
-        qx, qy = _nearest_in_sector(zone, x, y)
-        x, y = _pull(x, y, qx, qy, m)
+        qx, qy = _nearest_in_sector(zone, px, py)
+        px, py = _pull(px, py, qx, qy, m)
         if zone.corridor:
-            qx, qy = _nearest_in_polygon(zone.corridor, x, y)
-            x, y = _pull(x, y, qx, qy, m)
+            qx, qy = _nearest_in_polygon(zone.corridor, px, py)
+            px, py = _pull(px, py, qx, qy, m)
+    x[out], y[out] = px, py
     return x, y
 
 

@@ -506,9 +506,14 @@ def build_frame(level: Level, *, include_member_mass: bool = True) -> Frame:
 
     # ---- support-member unit actions per pair: stations, moments, reactions
     def stations(k: int) -> np.ndarray:
+        """Ends, nodes and midpoints between them; a simple member's ends carry no
+        moment and are left out."""
         pts = np.unique(np.concatenate(([0.0, L[k]], node_pos_a[nodes_on[k]])))
         mids = 0.5 * (pts[:-1] + pts[1:])
-        return np.unique(np.concatenate([pts, mids]))
+        st = np.unique(np.concatenate([pts, mids]))
+        if COND_NAMES[cond[k]] == "simple":
+            st = st[(st > 0.0) & (st < L[k])]
+        return st
 
     st = [stations(k) for k in range(n_m)]
     n_sup = max((len(p) for p in support_lists), default=0)

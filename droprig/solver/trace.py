@@ -16,8 +16,8 @@ from droprig.model import ModelError, Project
 from droprig.solver import droppoints
 from droprig.solver.analysis import (
     BRITTLE,
-    build_floor,
     evaluate_case,
+    floor_model,
     point_geometry,
 )
 from droprig.solver.loadpath import COND_NAMES
@@ -62,13 +62,13 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         raise ModelError("trace.load", load_name,
                          f"the name of a load of zone {zone.id}: " + ", ".join(loads))
     load = loads[load_name]
-    fm = build_floor(project.level(zone.level_id), project.settings)
+    fm = floor_model(project.level(zone.level_id), project.settings)
     xa, ya = np.array([float(x)]), np.array([float(y)])
     geo = point_geometry(fm, project, xa, ya)
     if geo.path.pair[0] < 0:
         raise ModelError("trace.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}")
-    r = evaluate_case(fm, project, load, geo)
+    r = evaluate_case(fm, project, load, geo, detail=True)
     lv = fm.level
     members = lv.members
     fr = fm.frame

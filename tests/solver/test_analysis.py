@@ -70,7 +70,7 @@ def _zone(loads, level_id="L1", centre=(4.5, 3.0), r_max=30.0, **kw):
 
 def _at(fm, project, load, xs, ys):
     geo = analysis.point_geometry(fm, project, np.asarray(xs, float), np.asarray(ys, float))
-    return analysis.evaluate_case(fm, project, load, geo)
+    return analysis.evaluate_case(fm, project, load, geo, detail=True)
 
 
 # --------------------------------------------------------------------------- hand check
