@@ -1,0 +1,252 @@
+"""Speed of the floor-system solver (prints figures and ratios; not part of ``make test``).
+
+Run: ``.venv/bin/python benchmarks/bench_solver.py [--quick]``
+
+1. drop-point × member evaluations per second (load path + compliance + Rayleigh
+   mass; and the full per-point analysis with every check);
+2. the demo projects' full ``analyse`` (median; cold = floor prepared afresh,
+   warm = prepared floor reused as in live re-analysis);
+3. 10⁶ drop points: time and peak traced memory (tracemalloc);
+4. against a naive per-point Python loop over the same code;
+5. against building and solving a PyNiteFEA grillage per drop point.
+
+Targets from the brief: demo ≤ 30 ms median, 10⁶ points ≤ 1 s and ≤ 500 MB,
+≥ 200× a naive loop, ≥ 10⁴× PyNiteFEA per point.
+"""
+
+from __future__ import annotations
+
+import argparse
+import statistics
+import sys
+import time
+import tracemalloc
+from pathlib import Path
+
+import numpy as np
+
+ROOT = Path(__file__).resolve().parents[1]
+sys.path.insert(0, str(ROOT))
+
+from droprig.io.project_file import load_project  # noqa: E402
+from droprig.solver import analysis, loadpath  # noqa: E402
+
+DEMOS = sorted((ROOT / "demo_projects").glob("*.droprig"))
+
+
+def _median_time(fn, runs: int) -> float:
+    ts = []
+    for _ in range(runs):
+        t = time.perf_counter()
+        fn()
+        ts.append(time.perf_counter() - t)
+    return statistics.median(ts)
+
+
+def _random_points(level, n: int, seed: int = 0) -> tuple[np.ndarray, np.ndarray]:
+    ext = level.grid.extent
+    rng = np.random.default_rng(seed)
+    return rng.uniform(ext.x0, ext.x1, n), rng.uniform(ext.y0, ext.y1, n)
+
+
+def _members_per_point(fm, geo) -> float:
+    pairs = geo.path.pair[geo.path.pair >= 0]
+    counts = np.array([len(loadpath.path_members(fm.frame, int(p)))
+                       for p in range(fm.frame.n_pairs)])
+    return float(np.mean(counts[pairs]))
+
+
+def bench_throughput(project, n: int) -> dict[str, float]:
+    zone = project.lift_zones[0]
+    fm = analysis.floor_model(project.level(zone.level_id), project.settings)
+    x, y = _random_points(fm.level, n)
+    analysis.point_geometry(fm, project, x[:1000], y[:1000])  # warm the tables
+    t = time.perf_counter()
+    geo = analysis.point_geometry(fm, project, x, y)
+    t_geo = time.perf_counter() - t
+    t = time.perf_counter()
+    analysis.evaluate_case(fm, project, zone.loads[0], geo)
+    t_case = time.perf_counter() - t
+    mpp = _members_per_point(fm, geo)
+    return {"points": n, "members_per_point": mpp, "t_path": t_geo, "t_checks": t_case,
+            "evals_per_s_path": n * mpp / t_geo, "evals_per_s_full": n * mpp / (t_geo + t_case)}
+
+
+def bench_million(project, n: int) -> dict[str, float]:
+    zone = project.lift_zones[0]
+    fm = analysis.floor_model(project.level(zone.level_id), project.settings)
+    x, y = _random_points(fm.level, n, seed=1)
+    t = time.perf_counter()
+    geo = analysis.point_geometry(fm, project, x, y)
+    t_geo = time.perf_counter() - t
+    t = time.perf_counter()
+    analysis.evaluate_case(fm, project, zone.loads[0], geo)
+    t_case = time.perf_counter() - t
+    del geo
+    tracemalloc.start()
+    geo = analysis.point_geometry(fm, project, x, y)
+    _, peak_geo = tracemalloc.get_traced_memory()
+    analysis.evaluate_case(fm, project, zone.loads[0], geo)
+    _, peak = tracemalloc.get_traced_memory()
+    tracemalloc.stop()
+    return {"points": n, "t_path": t_geo, "t_full": t_geo + t_case,
+            "peak_MB_path": peak_geo / 1e6, "peak_MB_full": peak / 1e6}
+
+
+def bench_naive(project, n_loop: int, n_vec: int) -> dict[str, float]:
+    """The same code called once per drop point from a Python loop."""
+    zone = project.lift_zones[0]
+    load = zone.loads[0]
+    fm = analysis.floor_model(project.level(zone.level_id), project.settings)
+    x, y = _random_points(fm.level, max(n_loop, n_vec), seed=2)
+    t = time.perf_counter()
+    for i in range(n_loop):
+        g = analysis.point_geometry(fm, project, x[i:i + 1], y[i:i + 1])
+        analysis.evaluate_case(fm, project, load, g)
+    per_loop = (time.perf_counter() - t) / n_loop
+    t = time.perf_counter()
+    g = analysis.point_geometry(fm, project, x[:n_vec], y[:n_vec])
+    analysis.evaluate_case(fm, project, load, g)
+    per_vec = (time.perf_counter() - t) / n_vec
+    return {"per_point_loop_us": per_loop * 1e6, "per_point_vectorised_us": per_vec * 1e6,
+            "ratio": per_loop / per_vec}
+
+
+def _pynite_compliance(level, loads) -> float:
+    """Build and solve a PyNiteFEA grillage of ``level`` for unit point loads
+    [(member index, position, magnitude)]; return Σ P·δ (same model as
+    tests/solver/test_grillage_pynite.py)."""
+    from Pynite import FEModel3D
+
+    m = FEModel3D()
+    names: dict[tuple[float, float], str] = {}
+
+    def node(px: float, py: float) -> str:
+        key = (round(px, 6), round(py, 6))
+        if key not in names:
+            names[key] = f"N{len(names)}"
+            m.add_node(names[key], px, 0.0, py)
+        return names[key]
+
+    splits = {k: {0.0, mb.span} for k, mb in enumerate(level.members)}
+    for k, mb in enumerate(level.members):
+        ax = 0 if mb.axis == "x" else 1
+        for j, other in enumerate(level.members):
+            if j == k or other.axis == mb.axis:
+                continue
+            for p in (other.start, other.end):
+                if abs(p[1 - ax] - mb.start[1 - ax]) < 1e-6:
+                    s = abs(p[ax] - mb.start[ax])
+                    if 1e-6 < s < mb.span - 1e-6:
+                        splits[k].add(s)
+    for k, s, _ in loads:
+        splits[k].add(s)
+    cols = {(round(px, 6), round(py, 6)) for px, py in level.grid.columns}
+    loaded = []
+    for k, mb in enumerate(level.members):
+        mat = f"E{mb.grade.E:.6g}"
+        if mat not in m.materials:
+            m.add_material(mat, mb.grade.E, mb.grade.E / 2.6, 0.3, 7850.0)
+        m.add_section(f"S{k}", mb.section.A, mb.section.Iy, mb.section.Ix, 1e-6)
+        ss = sorted(splits[k])
+        (x0, y0), (x1, y1) = mb.start, mb.end
+        for i in range(len(ss) - 1):
+            a, b = ss[i] / mb.span, ss[i + 1] / mb.span
+            nm = f"M{k}_{i}"
+            m.add_member(nm, node(x0 + (x1 - x0) * a, y0 + (y1 - y0) * a),
+                         node(x0 + (x1 - x0) * b, y0 + (y1 - y0) * b), mat, f"S{k}")
+            m.def_releases(nm, Rxi=i == 0, Rzi=i == 0, Rzj=i == len(ss) - 2)
+        for kk, s, P in loads:
+            if kk == k:
+                t = s / mb.span
+                loaded.append((node(x0 + (x1 - x0) * t, y0 + (y1 - y0) * t), P))
+    for key, nm in names.items():
+        if key in cols:
+            m.def_support(nm, True, True, True, True, True, True)
+    for nm, P in loaded:
+        m.add_node_load(nm, "FY", -P)
+    m.analyze_linear(check_statics=False)
+    return sum(-P * m.nodes[nm].DY["Combo 1"] for nm, P in loaded)
+
+
+def bench_pynite(project, n_fe: int, n_vec: int) -> dict[str, float]:
+    zone = project.lift_zones[0]
+    fm = analysis.floor_model(project.level(zone.level_id), project.settings)
+    x, y = _random_points(fm.level, n_vec, seed=3)
+    res = loadpath.evaluate(fm.frame, x, y)
+    ok = np.flatnonzero(res.pair >= 0)[:n_fe]
+    t = time.perf_counter()
+    worst = 0.0
+    for i in ok:
+        loads = [(int(res.members[i, k]), float(res.a[i, k]), float(res.share[i, k]))
+                 for k in range(2) if res.share[i, k] > 0]
+        f_fe = _pynite_compliance(fm.level, loads)
+        worst = max(worst, abs(f_fe - res.f[i]) / f_fe)
+    per_fe = (time.perf_counter() - t) / ok.size
+    t = time.perf_counter()
+    loadpath.evaluate(fm.frame, x, y)
+    per_vec = (time.perf_counter() - t) / n_vec
+    return {"per_point_pynite_ms": per_fe * 1e3, "per_point_vectorised_us": per_vec * 1e6,
+            "ratio": per_fe / per_vec, "max_rel_difference": worst}
+
+
+def main(argv: list[str] | None = None) -> dict[str, object]:
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--quick", action="store_true", help="small sizes (smoke run)")
+    args = ap.parse_args(argv)
+    q = args.quick
+    out: dict[str, object] = {}
+    projects = [(p.name, load_project(p)) for p in DEMOS]
+    if not projects:
+        print("no demo projects found in demo_projects/")
+        return out
+    name0, proj0 = projects[0]
+    print(f"droprig solver benchmarks — {'quick' if q else 'full'} run")
+    tp = bench_throughput(proj0, 20_000 if q else 200_000)
+    out["throughput"] = tp
+    print(f"\n1. throughput on {name0} ({tp['points']} points, "
+          f"{tp['members_per_point']:.2f} members per path)")
+    print(f"   load path + compliance + mass: {tp['evals_per_s_path']:.3g} point×member/s")
+    print(f"   full analysis with all checks: {tp['evals_per_s_full']:.3g} point×member/s")
+    print("\n2. demo projects, full analyse() (median)")
+    for name, proj in projects:
+        def cold(proj=proj):
+            analysis._FLOORS.clear()
+            analysis.analyse(proj)
+
+        analysis.analyse(proj)
+        warm = _median_time(lambda proj=proj: analysis.analyse(proj), 5 if q else 21)
+        t_cold = _median_time(cold, 3 if q else 11)
+        npts = analysis.analyse(proj).n_points
+        out[f"demo:{name}"] = {"warm_s": warm, "cold_s": t_cold, "points": npts}
+        print(f"   {name}: {warm * 1e3:.1f} ms warm, {t_cold * 1e3:.1f} ms cold "
+              f"({npts} drop points × loads)  target ≤ 30 ms")
+    n = 100_000 if q else 1_000_000
+    mil = bench_million(proj0, n)
+    out["million"] = mil
+    print(f"\n3. {n} drop points on {name0}")
+    print(f"   load path + compliance + mass: {mil['t_path']:.2f} s, "
+          f"peak {mil['peak_MB_path']:.0f} MB")
+    print(f"   full analysis with all checks: {mil['t_full']:.2f} s, "
+          f"peak {mil['peak_MB_full']:.0f} MB  target ≤ 1 s, ≤ 500 MB")
+    nv = analysis.loadpath_chunk()
+    naive = bench_naive(proj0, 100 if q else 500, nv)
+    out["naive"] = naive
+    print(f"\n4. naive per-point loop: {naive['per_point_loop_us']:.0f} µs/point vs "
+          f"{naive['per_point_vectorised_us']:.2f} µs/point vectorised → "
+          f"{naive['ratio']:.0f}×  target ≥ 200×")
+    try:
+        fe = bench_pynite(proj0, 3 if q else 10, 100_000)
+    except ImportError:
+        print("\n5. PyNiteFEA not installed: skipped")
+    else:
+        out["pynite"] = fe
+        print(f"\n5. PyNiteFEA grillage per point: {fe['per_point_pynite_ms']:.0f} ms vs "
+              f"{fe['per_point_vectorised_us']:.2f} µs/point vectorised compliance → "
+              f"{fe['ratio']:.3g}×  target ≥ 1e4× (largest difference "
+              f"{fe['max_rel_difference']:.1e})")
+    return out
+
+
+if __name__ == "__main__":
+    main()
