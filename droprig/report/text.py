@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import math
 import re
+from functools import lru_cache
 from xml.sax.saxutils import escape
 
 from droprig import units
@@ -66,11 +67,21 @@ def fmt_value(value: float | None, quantity: str, system: UnitSystem, *,
         if abs(v) >= HUGE:
             return f"{v:.3e}"
         return f"{v:.3f}" if abs(v) < 1000 else f"{v:,.0f}"
-    mag = units.to_display(v, quantity, system)
+    mag = v * _factor(quantity, system)
+    u = fmt_unit(quantity, system)
     if abs(mag) >= HUGE:  # a degenerate value: keep it short and plainly odd
-        u = fmt_unit(quantity, system)
         return f"{mag:.3e}" + (f" {u}" if unit and u else "")
-    return units.fmt(v, quantity, system, unit=unit)
+    _, _, _, d_si, d_us = units.QUANTITIES[quantity]
+    text = f"{mag:,.{d_si if system == 'SI' else d_us}f}"
+    return f"{text} {u}" if unit and u else text
+
+
+@lru_cache(maxsize=64)
+def _factor(quantity: str, system: UnitSystem) -> float:
+    """SI -> display-unit factor, from :func:`droprig.units.to_display` once per
+    quantity (every droprig quantity converts by a factor; a report formats
+    thousands of values and pint is slow per call)."""
+    return units.to_display(1.0, quantity, system)
 
 
 def fmt_allow(value: float | None, quantity: str, system: UnitSystem) -> str:
@@ -82,6 +93,7 @@ def fmt_allow(value: float | None, quantity: str, system: UnitSystem) -> str:
     return fmt_value(value, quantity, system)
 
 
+@lru_cache(maxsize=64)
 def fmt_unit(quantity: str, system: UnitSystem) -> str:
     """Display unit of ``quantity`` (empty for dimensionless)."""
     if quantity not in units.QUANTITIES:

@@ -87,3 +87,25 @@ def test_words_are_not_split() -> None:
     inputs = {"h": (1.0, "length"), "e": (2.0, "length"), "t": (3.0, "length")}
     got, _ = substitute_all("drop height h", inputs, "SI")
     assert got == "drop height (1.000 m)"
+
+
+@pytest.mark.parametrize("system", ["SI", "US"])
+@pytest.mark.parametrize("quantity", ["length", "small_length", "force", "mass", "moment",
+                                      "stress", "stiffness", "compliance", "area",
+                                      "inertia", "modulus", "line_load"])
+@pytest.mark.parametrize("value", [0.37, 1234.5678, 2.5e5, 3.1e-5])
+def test_fast_formatting_matches_droprig_units(system: str, quantity: str,
+                                               value: float) -> None:
+    # the report's cached conversion factor gives droprig.units.fmt's text (pint,
+    # whose definitions follow NIST SP 811)
+    from droprig import units
+    from droprig.report.text import HUGE, SMALL_LENGTH_BELOW
+
+    if quantity == "length" and value < SMALL_LENGTH_BELOW:
+        quantity_shown = "small_length"  # short lengths print in mm / in on purpose
+        assert fmt_value(value, quantity, system) == units.fmt(value, quantity_shown, system)
+    elif abs(units.to_display(value, quantity, system)) >= HUGE:
+        # degenerate magnitudes print in powers of ten on purpose
+        assert "e+" in fmt_value(value, quantity, system)
+    else:
+        assert fmt_value(value, quantity, system) == units.fmt(value, quantity, system)
