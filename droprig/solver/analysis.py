@@ -84,8 +84,8 @@ BRITTLE = ("shear", "web_yielding", "web_crippling", "deck_flexure", "deck_punch
 
 REFINE_PASSES = 3
 """Local refinement passes around the worst points of each bay (spacing ÷4 each)."""
-REFINE_TOP = 3
-"""Points per bay around which each pass refines."""
+REFINE_TOP = (2, 1, 1)
+"""Points per bay and load around which each pass refines."""
 MIN_USEFUL_HEIGHT = 0.05
 """A drop height below this (m) is not offered as advice: it cannot be controlled on
 site (common practice, no source)."""
@@ -272,6 +272,134 @@ def _reduce(name: str, F: np.ndarray, unit: np.ndarray, exist: np.ndarray,
     return chk
 
 
+class _Family:
+    """Load-independent candidates of one check family over the points, laid out
+    (C, n): demand per unit force at p divided by the resistance (``ut``), existing
+    demand divided by the resistance (``Et``), resistance ``R`` and member. The
+    allowed force ``F_allow`` = min_c (1 − sign(ut)·Et)/|ut| is load-independent."""
+
+    def __init__(self, unit: np.ndarray, exist: np.ndarray, resist: np.ndarray,
+                 member: np.ndarray) -> None:
+        self.R = np.ascontiguousarray(resist, dtype=float)
+        self.ut = np.ascontiguousarray(unit) / self.R
+        self.Et = np.ascontiguousarray(exist) / self.R
+        self.member = np.ascontiguousarray(member)
+        fa = _f_allow(np.ones_like(self.ut), self.ut, self.Et)
+        self.fa = fa
+        self.F_allow = fa.min(axis=0)
+
+    def U_at(self, F: np.ndarray) -> np.ndarray:
+        return _demand(F[None, :], self.ut, self.Et).max(axis=0)
+
+    def check(self, name: str, F: np.ndarray) -> _Check:
+        D = _demand(F[None, :], self.ut, self.Et)
+        j = np.argmax(D, axis=0)
+        cols = np.arange(F.size)
+        U = D[j, cols]
+        unbounded = np.isinf(U)
+        if unbounded.any():
+            j = np.where(unbounded, np.argmin(self.fa, axis=0), j)
+        R = self.R[j, cols]
+        return _Check(name, U, self.F_allow, self.member[j, cols], self.ut[j, cols] * R,
+                      self.Et[j, cols] * R, R, self.U_at)
+
+
+def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
+    """Everything per drop point that does not depend on the load: the flexure and
+    shear candidates of every path member and the plastic reserve R_p of the path
+    (cached on ``geo``)."""
+    ua = geo.cache.get("ua")
+    if ua is not None:
+        return ua
+    fr = fm.frame
+    path = geo.path
+    n = geo.x.size
+    mem = path.members
+    share = path.share
+    a = path.a
+    Lm = fr.L[mem]
+    cond = fr.cond[mem]
+    xs = _loaded_stations(a, Lm, bool(np.any(fr.cond != 0)))  # (n, 2, S_l)
+    m_unit = share[..., None] * by_condition(beam.unit_moment, cond[..., None],
+                                             Lm[..., None], xs, a[..., None])
+    M0 = _loaded_existing_moment(fm, mem, xs)
+    R0, RL = by_condition(beam.unit_reactions, cond, Lm, a)
+    fl_u = [m_unit.reshape(n, -1).T]
+    fl_e = [M0.reshape(n, -1).T]
+    fl_r = [np.repeat(fm.Mr[mem].T, xs.shape[-1], axis=0)]
+    fl_m = [np.repeat(mem.T, xs.shape[-1], axis=0)]
+    sh_u = [np.concatenate([(share * R0).T, (share * RL).T])]
+    sh_e = [np.concatenate([fm.V0[mem][..., 0].T, fm.V0[mem][..., 1].T])]
+    sh_r = [np.concatenate([fm.Vr[mem].T, fm.Vr[mem].T])]
+    sh_m = [np.concatenate([mem.T, mem.T])]
+    pair = np.maximum(path.pair, 0)
+    sup = fr.pair_sup_member[pair]  # (n, P)
+    P = sup.shape[1]
+    rT = np.ascontiguousarray(path.r.T)
+    if P:
+        supm = np.maximum(sup, 0)
+        valid = (sup >= 0).T  # (P, n)
+        S = fr.pair_sup_mcoef.shape[2]
+        mc = fr.pair_sup_mcoef[pair]  # (n, P, S, 4)
+        ms = (mc[..., 0] * path.r[:, None, None, 0] + mc[..., 1] * path.r[:, None, None, 1]
+              + mc[..., 2] * path.r[:, None, None, 2] + mc[..., 3] * path.r[:, None, None, 3])
+        ms = ms.reshape(n, -1).T * np.repeat(valid, S, axis=0)
+        fl_u.append(ms)
+        fl_e.append(fm.M0_sup[pair].reshape(n, -1).T * np.repeat(valid, S, axis=0))
+        fl_r.append(np.repeat(fm.Mr[supm].T, S, axis=0))
+        fl_m.append(np.repeat(supm.T, S, axis=0))
+        rc = fr.pair_sup_rcoef[pair]  # (n, P, 2, 4)
+        vs = np.einsum("npei,in->pen", rc, rT).reshape(2 * P, n)
+        vmask = np.repeat(valid, 2, axis=0)
+        sh_u.append(vs * vmask)
+        sh_e.append(fm.V0[supm].transpose(1, 2, 0).reshape(2 * P, n) * vmask)
+        sh_r.append(np.repeat(fm.Vr[supm].T, 2, axis=0))
+        sh_m.append(np.repeat(supm.T, 2, axis=0))
+    flex = _Family(np.concatenate(fl_u), np.concatenate(fl_e), np.concatenate(fl_r),
+                   np.concatenate(fl_m))
+    shear = _Family(np.concatenate(sh_u), np.concatenate(sh_e), np.concatenate(sh_r),
+                    np.concatenate(sh_m))
+    # plastic reserve: R_p of the path for a load at p. Deck members: virtual-work
+    # collapse load for fixed/propped, first hinge (= collapse of a determinate
+    # member) otherwise; support members: first hinge (conservative)
+    n_l = xs.shape[1] * xs.shape[2]
+    fa_l = flex.fa[:n_l].reshape(2, xs.shape[2], n).min(axis=1).T  # (n, 2)
+    Mp_eff = np.maximum(fm.Mr[mem] - np.abs(M0[..., 0]), 0.0)
+    Pc = by_condition(beam.plastic_collapse_load, cond, Lm, a, Mp_eff)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        Pc = np.where(share > 0, Pc / np.where(share > 0, share, 1.0), np.inf)
+    indeterminate = (cond == COND_NAMES.index("fixed")) | (cond == COND_NAMES.index("propped"))
+    Rp_l = np.where(indeterminate, np.maximum(fa_l, Pc), fa_l)
+    Rp_c = [Rp_l]
+    Rp_member = [mem]
+    Rp_arm = [np.minimum(a, Lm - a)]
+    Rp_cond = [cond]
+    if P:
+        S = fr.pair_sup_mcoef.shape[2]
+        fa_s_all = flex.fa[n_l:].reshape(P, S, n)
+        j = np.argmin(fa_s_all, axis=1)  # (P, n)
+        fa_s = np.take_along_axis(fa_s_all, j[:, None, :], axis=1)[:, 0, :].T
+        fa_s = np.where(sup >= 0, fa_s, np.inf)
+        xst = np.take_along_axis(fr.pair_sup_x[pair], j.T[..., None], axis=-1)[..., 0]
+        Ls = fr.L[supm]
+        Rp_c.append(fa_s)
+        Rp_member.append(supm)
+        Rp_arm.append(np.minimum(xst, Ls - xst))
+        Rp_cond.append(fr.cond[supm])
+    Rp_all = np.concatenate(Rp_c, axis=1)
+    jr = np.argmin(Rp_all, axis=1)
+    rows = np.arange(n)
+    ua = {
+        "flexure": flex, "shear": shear,
+        "R_p": np.maximum(Rp_all[rows, jr], 0.0),
+        "rp_member": np.concatenate(Rp_member, axis=1)[rows, jr],
+        "rp_arm": np.concatenate(Rp_arm, axis=1)[rows, jr],
+        "rp_cond": np.concatenate(Rp_cond, axis=1)[rows, jr],
+    }
+    geo.cache["ua"] = ua
+    return ua
+
+
 def _loaded_stations(a: np.ndarray, L: np.ndarray, ends: bool) -> np.ndarray:
     """Stations along a deck-supporting member where the moment can peak under a
     point load at a plus a uniform load: under the load, the quarter points, halfway
@@ -318,6 +446,7 @@ class Geometry:
     bay: np.ndarray
     protection: np.ndarray
     opening: np.ndarray
+    cache: dict = field(default_factory=dict, repr=False)
 
 
 def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarray) -> Geometry:
@@ -358,7 +487,10 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
         for s in range(0, n, chunk):
             sl = slice(s, min(s + chunk, n))
             li = None if load_index is None else load_index[sl]
-            part = _select(_evaluate_case(fm, project, load, _slice_geo(geo, sl), li), keep)
+            sub = geo.cache.get(("slice", s))
+            if sub is None:
+                sub = geo.cache[("slice", s)] = _slice_geo(geo, sl)
+            part = _select(_evaluate_case(fm, project, load, sub, li), keep)
             for k, v in part.items():
                 if k not in out:
                     out[k] = np.empty((n, *v.shape[1:]), dtype=v.dtype)
@@ -444,58 +576,15 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     # ---- footprint and bearing
     spread = 2.0 * t_mat
     lb = np.minimum(fl, fw) + spread
-    # ---- loaded (deck-supporting) members
+    # ---- path members: flexure and shear (load-independent candidates)
+    ua = _unit_actions(fm, geo)
     mem = path.members
     share = path.share
     a = path.a
     Lm = fr.L[mem]
-    cond = fr.cond[mem]
-    xs = _loaded_stations(a, Lm, bool(np.any(fr.cond != 0)))  # (n, 2, S_l)
-    m_unit = share[..., None] * by_condition(beam.unit_moment, cond[..., None],
-                                             Lm[..., None], xs, a[..., None])
-    M0 = _loaded_existing_moment(fm, mem, xs)
-    Mr_l = np.broadcast_to(fm.Mr[mem][..., None], xs.shape)
-    mem_l = np.broadcast_to(mem[..., None], xs.shape)
-    R0, RL = by_condition(beam.unit_reactions, cond, Lm, a)
-    v_unit = np.stack([share * R0, share * RL], axis=-1)  # (n, 2, 2)
-    V0_l = fm.V0[mem]  # (n, 2, 2)
-    Vr_l = np.broadcast_to(fm.Vr[mem][..., None], v_unit.shape)
-    # ---- support members
-    pair = np.maximum(path.pair, 0)
-    sup = fr.pair_sup_member[pair]  # (n, P)
-    has_sup = sup.shape[1] > 0
-    if has_sup:
-        supm = np.maximum(sup, 0)
-        ms_unit = np.einsum("npsi,ni->nps", fr.pair_sup_mcoef[pair], path.r)
-        ms_unit = np.where((sup >= 0)[..., None], ms_unit, 0.0)
-        M0_s = np.where((sup >= 0)[..., None], fm.M0_sup[pair], 0.0)
-        Mr_s = np.broadcast_to(fm.Mr[supm][..., None], ms_unit.shape)
-        mem_s = np.broadcast_to(supm[..., None], ms_unit.shape)
-        vs_unit = np.einsum("npei,ni->npe", fr.pair_sup_rcoef[pair], path.r)
-        vs_unit = np.where((sup >= 0)[..., None], vs_unit, 0.0)
-        V0_s = np.where((sup >= 0)[..., None], fm.V0[supm], 0.0)
-        Vr_s = np.broadcast_to(fm.Vr[supm][..., None], vs_unit.shape)
-    # ---- flexure (all path members) and shear
-    if has_sup:
-        fl_unit = np.concatenate([m_unit.reshape(n, -1), ms_unit.reshape(n, -1)], axis=1)
-        fl_ex = np.concatenate([M0.reshape(n, -1), M0_s.reshape(n, -1)], axis=1)
-        fl_R = np.concatenate([Mr_l.reshape(n, -1), Mr_s.reshape(n, -1)], axis=1)
-        fl_m = np.concatenate([mem_l.reshape(n, -1), mem_s.reshape(n, -1)], axis=1)
-        sh_unit = np.concatenate([v_unit.reshape(n, -1), vs_unit.reshape(n, -1)], axis=1)
-        sh_ex = np.concatenate([V0_l.reshape(n, -1), V0_s.reshape(n, -1)], axis=1)
-        sh_R = np.concatenate([Vr_l.reshape(n, -1), Vr_s.reshape(n, -1)], axis=1)
-        sh_m = np.concatenate([np.broadcast_to(mem[..., None], v_unit.shape).reshape(n, -1),
-                               np.broadcast_to(supm[..., None], vs_unit.shape).reshape(n, -1)],
-                              axis=1)
-    else:
-        fl_unit, fl_ex = m_unit.reshape(n, -1), M0.reshape(n, -1)
-        fl_R, fl_m = Mr_l.reshape(n, -1), mem_l.reshape(n, -1)
-        sh_unit, sh_ex = v_unit.reshape(n, -1), V0_l.reshape(n, -1)
-        sh_R = Vr_l.reshape(n, -1)
-        sh_m = np.broadcast_to(mem[..., None], v_unit.shape).reshape(n, -1)
     checks: dict[str, _Check] = {}
-    checks["flexure"] = _reduce("flexure", F, fl_unit, fl_ex, fl_R, fl_m)
-    checks["shear"] = _reduce("shear", F, sh_unit, sh_ex, sh_R, sh_m)
+    checks["flexure"] = ua["flexure"].check("flexure", F)  # type: ignore[attr-defined]
+    checks["shear"] = ua["shear"].check("shear", F)  # type: ignore[attr-defined]
     # ---- web checks under the load (each deck-supporting member, its share)
     dist = np.maximum(np.minimum(a, Lm - a) - 0.5 * lb[:, None], 0.0)
     lb_pts = np.broadcast_to(lb[:, None], mem.shape)
@@ -531,40 +620,10 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     gov_check = np.array([CHECK[names[i]] for i in range(len(names))])[gi]
     gov_member = np.stack([checks[c].member for c in names], axis=1)[rows, gi]
     # ---- plastic reserve: R_p of the path for a load at p
-    # loaded members: virtual-work collapse load for fixed/propped, first hinge otherwise
-    Mp_eff = np.maximum(fm.Mr[mem] - np.abs(M0[..., 0]), 0.0)
-    Pc = by_condition(beam.plastic_collapse_load, cond, Lm, a, Mp_eff)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        Pc = np.where(share > 0, Pc / np.where(share > 0, share, 1.0), np.inf)
-    fa_fl = checks["flexure"].fa_all
-    n_l = m_unit.shape[1] * m_unit.shape[2]
-    fa_l = fa_fl[:, :n_l].reshape(m_unit.shape).min(axis=-1)  # (n, 2) first hinge
-    indeterminate = (cond == COND_NAMES.index("fixed")) | (cond == COND_NAMES.index("propped"))
-    Rp_l = np.where(indeterminate, np.maximum(fa_l, Pc), fa_l)
-    Rp_cands = [Rp_l]
-    Rp_member = [mem]
-    Rp_arm = [np.minimum(a, Lm - a)]
-    Rp_L = [Lm]
-    Rp_cond = [cond]
-    if has_sup:
-        fa_s_all = fa_fl[:, n_l:].reshape(ms_unit.shape)  # (n, P, S)
-        j = np.argmin(fa_s_all, axis=-1)
-        fa_s = np.take_along_axis(fa_s_all, j[..., None], axis=-1)[..., 0]
-        fa_s = np.where(sup >= 0, fa_s, np.inf)
-        xst = np.take_along_axis(fr.pair_sup_x[pair], j[..., None], axis=-1)[..., 0]
-        Ls = fr.L[supm]
-        Rp_cands.append(fa_s)
-        Rp_member.append(supm)
-        Rp_arm.append(np.minimum(xst, Ls - xst))
-        Rp_L.append(Ls)
-        Rp_cond.append(fr.cond[supm])
-    Rp_all = np.concatenate(Rp_cands, axis=1)
-    jr = np.argmin(Rp_all, axis=1)
-    R_p = Rp_all[rows, jr]
-    rp_member = np.concatenate(Rp_member, axis=1)[rows, jr]
-    rp_arm = np.concatenate(Rp_arm, axis=1)[rows, jr]
-    rp_cond = np.concatenate(Rp_cond, axis=1)[rows, jr]
-    R_p = np.maximum(R_p, 0.0)
+    R_p = ua["R_p"]
+    rp_member = ua["rp_member"]
+    rp_arm = ua["rp_arm"]
+    rp_cond = ua["rp_cond"]
     # brittle checks at the force the yielding path can pass on
     F_cap = np.minimum(F, R_p)
     Ub = np.stack([checks[c].U_at(F_cap) for c in BRITTLE], axis=1)
@@ -697,7 +756,7 @@ def _severity(res: dict[str, np.ndarray]) -> np.ndarray:
 
 
 def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
-            step: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+            step: float, n_top: int) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Points on a 5 × 5 lattice of spacing ``step`` around the worst points of
     each bay for each load, moved into the zone where they fall outside it, kept
     where they lie over a deck panel. Returns x, y and the load index of each."""
@@ -705,7 +764,7 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     finite = np.isfinite(res["utilisation"])
     bay = res["bay"]
     li = res["_load"]
-    # worst REFINE_TOP points per (load, bay): sort by group then severity
+    # worst n_top points per (load, bay): sort by group then severity
     group = li * (int(bay.max(initial=0)) + 2) + (bay + 1)
     cand = np.flatnonzero(finite)
     if cand.size == 0:
@@ -714,7 +773,7 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     g = group[order]
     first = np.r_[True, g[1:] != g[:-1]]
     start = np.maximum.accumulate(np.where(first, np.arange(g.size), 0))
-    top = order[(np.arange(g.size) - start) < REFINE_TOP]
+    top = order[(np.arange(g.size) - start) < n_top]
     off = np.arange(-2, 3) * step
     OX, OY = np.meshgrid(off, off)
     x = (res["x"][top][:, None] + OX.ravel()[None, :]).ravel()
@@ -745,13 +804,16 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
     nl = len(loads)
     nb = base.x.size
     li = np.repeat(np.arange(nl), nb)
-    res = evaluate_case(fm, project, loads, _tile(base, nl), li)
+    # one pass per load over the same points: the load-independent actions are
+    # computed once and cached on ``base``
+    parts = [evaluate_case(fm, project, ld, base) for ld in loads]
+    res = {k: np.concatenate([p[k] for p in parts]) for k in parts[0]}
     res["_load"] = li
     step = fm.settings.grid_resolution
     known = _keys(res["x"], res["y"], li)
-    for _ in range(REFINE_PASSES):
+    for k in range(REFINE_PASSES):
         step /= 4.0
-        x, y, lj = _refine(fm, zone, res, step)
+        x, y, lj = _refine(fm, zone, res, step, REFINE_TOP[min(k, len(REFINE_TOP) - 1)])
         if x.size == 0:
             break
         k, first = np.unique(_keys(x, y, lj), return_index=True)
@@ -765,17 +827,6 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
         r2["_load"] = lj
         res = _merge(res, r2)
     return res
-
-
-def _tile(geo: Geometry, k: int) -> Geometry:
-    """``geo`` repeated ``k`` times (one copy per load)."""
-    if k == 1:
-        return geo
-    p = geo.path
-    path = PathResult(**{f: np.concatenate([getattr(p, f)] * k)
-                         for f in p.__dataclass_fields__})
-    return Geometry(np.tile(geo.x, k), np.tile(geo.y, k), path, np.tile(geo.bay, k),
-                    np.tile(geo.protection, k), np.tile(geo.opening, k))
 
 
 def _planned_height(load: LiftLoad, level: Level) -> float:
