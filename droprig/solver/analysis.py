@@ -214,10 +214,14 @@ load on a member that takes no share of it) while any share of it stays ∞."""
 
 
 def _demand(F: np.ndarray, unit: np.ndarray, exist: np.ndarray) -> np.ndarray:
-    """|F·unit + exist|."""
+    """|F·unit + exist|; ∞ where F is unbounded and the candidate takes a share."""
     d = np.minimum(F, _F_HUGE) * unit
     d += exist
-    return np.abs(d, out=d)
+    np.abs(d, out=d)
+    inf = np.isinf(F)
+    if inf.any():
+        d = np.where(inf & (unit != 0.0), np.inf, d)
+    return d
 
 
 def _f_allow(R: np.ndarray, unit: np.ndarray, exist: np.ndarray) -> np.ndarray:
@@ -372,7 +376,8 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     Rp_l = np.where(indeterminate, np.maximum(fa_l, Pc), fa_l)
     Rp_c = [Rp_l]
     Rp_member = [mem]
-    Rp_arm = [np.minimum(a, Lm - a)]
+    cant = cond == COND_NAMES.index("cantilever")
+    Rp_arm = [np.where(cant, a, np.minimum(a, Lm - a))]  # hinge arm (root for a cantilever)
     Rp_cond = [cond]
     if P:
         S = fr.pair_sup_mcoef.shape[2]
@@ -384,7 +389,8 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
         Ls = fr.L[supm]
         Rp_c.append(fa_s)
         Rp_member.append(supm)
-        Rp_arm.append(np.minimum(xst, Ls - xst))
+        Rp_arm.append(np.where(fr.cond[supm] == COND_NAMES.index("cantilever"), xst,
+                               np.minimum(xst, Ls - xst)))
         Rp_cond.append(fr.cond[supm])
     Rp_all = np.concatenate(Rp_c, axis=1)
     jr = np.argmin(Rp_all, axis=1)

@@ -142,6 +142,15 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         {"K": (r["dynamic_factor"][0], "dimensionless"),
          "δ_st": (r["static_deflection"][0], "length")}, r["max_deflection"][0], "length",
         _SRC_GERE)
+    m1 = int(path.members[0, 0]) if path.share[0, 0] >= path.share[0, 1] else \
+        int(path.members[0, 1])
+    limit = fr.L[m1] / project.settings.deflection_limit_ratio
+    add(f"Deflection against span/{project.settings.deflection_limit_ratio:g} of "
+        f"{members[m1].id} (information only, not a pass criterion)", "δ_max/δ_lim",
+        "δ_max / (L/N)", {"δ_max": (r["max_deflection"][0], "length"),
+                          "L/N": (limit, "length")},
+        r["max_deflection"][0] / limit, "dimensionless",
+        "IBC Table 1604.3 (serviceability; information for an accidental impact)")
     add("Deceleration of the load", "a/g", "a/g = F/W − 1",
         {"F": (r["peak_force"][0], "force"), "W": (W, "force")}, r["deceleration_g"][0],
         "dimensionless", "Newton's second law")

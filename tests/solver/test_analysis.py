@@ -201,6 +201,22 @@ def test_beyond_yield_energy_balance():
     assert np.all(Rp <= (6.28e-4 * 355e6) / 1.5 + 1e-6)
 
 
+def test_rigid_point_is_unbounded_not_a_large_number():
+    """Over a column the framing gives no deflection: the energy method's force is
+    unbounded for any free fall (Gere Eq. 9-94 with δst = 0); droprig says so
+    (U = ∞, exceeds) and still offers the spring mat that would make it finite."""
+    level = _one_bay_level()
+    load = LiftLoad("crate", 1000.0, 1.0, 1.0, drop_height=0.5)
+    proj = _project(level, [_zone([load])])
+    fm = analysis.build_floor(level, proj.settings)
+    r = _at(fm, proj, load, [0.0], [0.0])
+    assert r["_f_s"][0] == 0.0
+    assert math.isinf(r["peak_force"][0]) and math.isinf(r["utilisation"][0])
+    assert r["response"][0] == EXCEEDS
+    assert r["allowable_drop_height"][0] == 0.0
+    assert np.isfinite(r["required_mat_stiffness"][0])
+
+
 # --------------------------------------------------------------------------- contract
 MUST_EXIST = ("x", "y", "drop_height", "utilisation", "dynamic_factor", "peak_force",
               "static_deflection", "effective_mass", "max_deflection", "deceleration_g")
