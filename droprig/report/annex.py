@@ -13,7 +13,7 @@ and "page x of y"):
 6. Assumptions and limits of the method; hazard cautions.
 7. Input identification and sign-off.
 
-Each logical page is one :class:`KeepInFrame` (shrink) followed by a page break,
+Each logical page is one :class:`_Page` (shrunk to fit) followed by a page break,
 so the page count follows from the content alone (rows per page are the
 constants below) and no table ever spills onto a page that the title block does
 not name.
@@ -264,6 +264,61 @@ def _outcome_bg(response: str, col: int, row: int) -> tuple:
 
     o = content.OUTCOMES.get(response, content.OUTCOMES[content.NOT_ASSESSED])
     return ("BACKGROUND", (col, row), (col, row), colors.HexColor(o.fill))
+
+
+class _Page:
+    """One annex page: its flowables laid out top-down once, scaled down as a
+    whole if they are taller than the frame (so a page never spills over).
+
+    Like reportlab's ``KeepInFrame(mode="shrink")`` but each child is wrapped
+    only once (tables of paragraphs are the bulk of the annex's run time).
+    """
+
+    def __new__(cls, content: list[object], width: float, height: float) -> object:
+        from reportlab.platypus import Flowable
+
+        class Page(Flowable):
+            def __init__(self) -> None:
+                super().__init__()
+                self._content = content
+                self._box = (width, height)
+                self._laid: list[tuple[object, float, float, float]] | None = None
+                self._natural = 0.0
+
+            def _layout(self) -> None:
+                w_max = self._box[0]
+                y = 0.0
+                prev_after = 0.0
+                laid = []
+                for k, c in enumerate(self._content):
+                    cw, ch = c.wrapOn(self.canv, w_max, 0xFFFFFFF)
+                    if k:
+                        y += max(prev_after, c.getSpaceBefore())
+                    align = getattr(c, "hAlign", "LEFT")
+                    dx = {"CENTER": 0.5, "CENTRE": 0.5, "RIGHT": 1.0}.get(align, 0.0)
+                    laid.append((c, (w_max - cw) * dx, y, ch))
+                    y += ch
+                    prev_after = c.getSpaceAfter()
+                self._laid = laid
+                self._natural = y
+
+            def wrap(self, aw: float, ah: float) -> tuple[float, float]:
+                if self._laid is None:
+                    self._layout()
+                self.scale = min(1.0, self._box[1] / self._natural) if self._natural else 1.0
+                return (self._box[0], self._natural * self.scale)
+
+            def draw(self) -> None:
+                assert self._laid is not None
+                c = self.canv
+                c.saveState()
+                c.translate(0, self._natural * self.scale)
+                c.scale(self.scale, self.scale)
+                for f, x, y, h in self._laid:
+                    f.drawOn(c, x, -y - h)
+                c.restoreState()
+
+        return Page()
 
 
 class _Marker:
@@ -524,12 +579,12 @@ class _Builder:
                     self.P(f"{esc(b.zone_id)}<br/>{esc(b.load_name)}"),
                     self.P(f"<b>{esc(b.bay_id)}</b>"),
                     _outcome_cell(b.response, st),
-                    self.P(fmt_util(b.max_utilisation)),
+                    fmt_util(b.max_utilisation),
                     self.P(f"{esc(b.governing_member)} · {esc(b.governing_check)} at "
                            f"({self.v(b.governing_x, 'length')}, "
                            f"{self.v(b.governing_y, 'length')})"),
-                    self.P(fmt_allow(b.allowable_drop_height, "length", self.sys)),
-                    self.P(fmt_allow(b.allowable_drop_height_plastic, "length", self.sys)),
+                    fmt_allow(b.allowable_drop_height, "length", self.sys),
+                    fmt_allow(b.allowable_drop_height_plastic, "length", self.sys),
                     self.P(esc(b.advice), st.tiny),
                 ])
                 extra.append(_outcome_bg(b.response, 2, i + 1))
@@ -602,13 +657,13 @@ class _Builder:
                 res = member_resistances(m, self.p)
                 trs.append([
                     self.P(esc(f"{lv.id}: {m.id}" if many else m.id)),
-                    self.P(esc(m.role)),
+                    m.role,
                     self.P(esc(m.section.name)),
                     self.P(esc(m.grade.name)),
-                    self.P(self.v(m.span, "length")),
-                    self.P(esc(m.end_condition)),
-                    self.P(self.v(res.fy, "stress")),
-                    self.P(esc(_CLASS_TAG.get(res.section_class, res.section_class))),
+                    self.v(m.span, "length"),
+                    m.end_condition,
+                    self.v(res.fy, "stress"),
+                    _CLASS_TAG.get(res.section_class, res.section_class),
                     self.P(self.v(res.flexure, "moment") if res.flexure is not None
                            else "out of scope"),
                     self.P(self.v(res.shear, "force") if res.shear is not None
@@ -650,7 +705,7 @@ class _Builder:
                     lhs = f"{esc(s.symbol)} = " if s.symbol else ""
                     result = esc(self.v(s.value, s.quantity))
                     trs.append([
-                        self.P(str(base + i + 1)),
+                        str(base + i + 1),
                         self.P("<br/>".join(lines)),
                         self.P(f"<b>{lhs}{result}</b>"),
                         self.P(esc(s.source), st.tiny),
@@ -955,7 +1010,7 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
     count.
     """
     from reportlab.lib.pagesizes import A4, LETTER
-    from reportlab.platypus import BaseDocTemplate, Frame, KeepInFrame, PageBreak, PageTemplate
+    from reportlab.platypus import BaseDocTemplate, Frame, PageBreak, PageTemplate
 
     def tick(f: float, text: str) -> None:
         if progress is not None:
@@ -989,7 +1044,7 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
     story: list[object] = []
     for k, (section, flow) in enumerate(b.pages):
         story.append(_Marker(section))
-        story.append(KeepInFrame(fw, fh - 2, flow, mode="shrink"))
+        story.append(_Page(flow, fw, fh - 2))
         if k < len(b.pages) - 1:
             story.append(PageBreak())
 
@@ -1012,7 +1067,7 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
         doc.addPageTemplates([PageTemplate(id="page", frames=[frame])])
         tick(0.6, "Rendering PDF")
         doc.build(story, canvasmaker=_canvas_class(header, counter))
-        if counter[0] != len(b.pages):  # one KeepInFrame per page: should not happen
+        if counter[0] != len(b.pages):  # one _Page per page: should not happen
             raise RuntimeError(f"annex layout: {counter[0]} pages rendered for "
                                f"{len(b.pages)} planned; please report this with the "
                                "project file")
