@@ -354,7 +354,8 @@ class _Header:
     units: str
 
 
-def _canvas_class(header: _Header, counter: list[int]) -> type:
+def _canvas_class(header: _Header, counter: list[int],
+                  on_page: Callable[[int], None] | None = None) -> type:
     from reportlab.lib import colors
     from reportlab.pdfgen.canvas import Canvas
 
@@ -376,6 +377,8 @@ def _canvas_class(header: _Header, counter: list[int]) -> type:
         def showPage(self) -> None:
             self._pages.append(dict(self.__dict__))
             self._startPage()
+            if on_page is not None:
+                on_page(len(self._pages))
 
         def save(self) -> None:
             total = len(self._pages)
@@ -1066,7 +1069,10 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
                       bottomPadding=0, id="body")
         doc.addPageTemplates([PageTemplate(id="page", frames=[frame])])
         tick(0.6, "Rendering PDF")
-        doc.build(story, canvasmaker=_canvas_class(header, counter))
+        n_planned = len(b.pages)
+        doc.build(story, canvasmaker=_canvas_class(
+            header, counter,
+            lambda k: tick(0.6 + 0.38 * k / n_planned, f"Rendering page {k} of {n_planned}")))
         if counter[0] != len(b.pages):  # one _Page per page: should not happen
             raise RuntimeError(f"annex layout: {counter[0]} pages rendered for "
                                f"{len(b.pages)} planned; please report this with the "
