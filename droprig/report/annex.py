@@ -674,9 +674,9 @@ class _Builder:
                     self.P(_ei(res.EI, self.sys)),
                 ])
             w = self.w
-            flow.append(_table(trs, [0.14 * w, 0.07 * w, 0.11 * w, 0.07 * w, 0.09 * w,
-                                     0.08 * w, 0.08 * w, 0.06 * w, 0.1 * w, 0.1 * w,
-                                     0.1 * w]))
+            flow.append(_table(trs, [0.13 * w, 0.06 * w, 0.1 * w, 0.1 * w, 0.08 * w,
+                                     0.07 * w, 0.08 * w, 0.05 * w, 0.11 * w, 0.1 * w,
+                                     0.12 * w]))
             self.add(head, flow)
 
     # -- calculation sheets
@@ -940,8 +940,10 @@ _CLASS_TAG = {"compact": "C", "noncompact": "N", "slender": "S"}
 
 
 def _ei(value: float, system: str) -> str:
+    """Flexural rigidity E·I: kN·m² (SI) or 10⁶ kip·in² (US; 1 kip = 4448.2216 N,
+    1 in = 0.0254 m, NIST SP 811 B.8)."""
     if system == "US":
-        return f"{value / 4448.2216152605 / 0.0254 ** 2 / 1e3:,.0f}×10³ kip·in²"
+        return f"{value / 4448.2216152605 / 0.0254 ** 2 / 1e6:,.1f}×10⁶ kip·in²"
     return f"{value / 1e3:,.0f} kN·m²"
 
 
