@@ -51,9 +51,10 @@ A992 = Grade("A992", "ASTM", ((1.0, 50 * KSI),), 65 * KSI, 29000 * KSI)
 MARKUP = "<b>Bay & Co</b>"
 
 
-def make_small_level() -> Level:
+def make_small_level(level_id: str = "R", elevation: float = 15.0) -> Level:
     return generate_level(
-        level_id="R", name="Roof", elevation=15.0, x_spacings=(8.0, 8.0, 6.0),
+        level_id=level_id, name=f"Level {level_id}", elevation=elevation,
+        x_spacings=(8.0, 8.0, 6.0),
         y_spacings=(7.0, 7.0), girder_direction="x", beam_spacing=2.8,
         girder_section=HEB400, beam_section=IPE300, girder_grade=S355, beam_grade=S355)
 
@@ -77,6 +78,18 @@ def make_si_floor() -> Project:
                        checked_by="B. Checker & Sons", approved_by="C. Approver")
     return Project(info, Settings(unit_system="SI", design_basis="en1993"), (level,),
                    (z1, z2), (mat,))
+
+
+def make_two_levels() -> Project:
+    """Two framed levels, one lift zone over each (one plan page per level)."""
+    lower, upper = make_small_level("L2", 8.0), make_small_level("R", 15.0)
+    z1 = LiftZone("A", "Tower crane, roof", "R", (11.0, -6.0), 4.0, 16.0,
+                  math.radians(45.0), math.radians(135.0), 0.5,
+                  loads=(LiftLoad("Pump skid", 900.0, 1.2, 0.8, drop_height=0.5),))
+    z2 = LiftZone("B", "Tower crane, level 2", "L2", (11.0, 7.0), 0.0, 6.0, 0.0, 2 * math.pi,
+                  0.5, loads=(LiftLoad("Valve", 150.0, 0.4, 0.4, drop_height=None,
+                                     hook_elevation=9.5, hang_length=0.3),))
+    return Project(ProjectInfo(name="Two levels"), Settings(), (lower, upper), (z1, z2))
 
 
 def make_us_floor() -> Project:
@@ -112,3 +125,8 @@ def us_floor() -> Project:
 @pytest.fixture
 def markup() -> str:
     return MARKUP
+
+
+@pytest.fixture(scope="session")
+def two_levels() -> Project:
+    return make_two_levels()

@@ -81,7 +81,7 @@ def _sheet_points(results: Results, project: Project) -> list[BaySummary]:
     return out
 
 
-CASES = [f"demo:{p.stem}" for p in DEMOS] + ["si_floor", "us_floor"]
+CASES = [f"demo:{p.stem}" for p in DEMOS] + ["si_floor", "us_floor", "two_levels"]
 
 
 @pytest.fixture(scope="module", params=CASES)
@@ -95,10 +95,10 @@ def built(request: pytest.FixtureRequest, tmp_path_factory: pytest.TempPathFacto
         project = load_project(src)
         project_path: pathlib.Path | None = src
         sha = hashlib.sha256(src.read_bytes()).hexdigest()
-    elif name == "si_floor":
+    elif name in ("si_floor", "two_levels"):
         # saved to a file and read back: the fingerprint is the file's
-        src = folder / "si_floor.droprig"
-        save_project(request.getfixturevalue("si_floor"), src)
+        src = folder / f"{name}.droprig"
+        save_project(request.getfixturevalue(name), src)
         project = load_project(src)
         project_path = src
         sha = hashlib.sha256(src.read_bytes()).hexdigest()
