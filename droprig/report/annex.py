@@ -123,17 +123,34 @@ class Fingerprint:
 
 
 def fingerprint(project: Project, project_path: str | os.PathLike[str] | None) -> Fingerprint:
-    """SHA-256 naming the exact input: of the project file's bytes, or (no file)
-    of droprig's canonical serialisation of the project, labelled as such."""
-    from droprig.io.project_file import dumps_project, project_fingerprint
+    """SHA-256 naming the exact input.
 
+    With ``project_path``: the SHA-256 of the file's bytes, provided the file
+    still holds ``project`` (it is read back and compared); a project edited
+    since it was saved must not be signed under the old file's name, so then,
+    as without a file, the SHA-256 of droprig's canonical serialisation of the
+    project is printed and labelled as such.
+    """
+    from droprig.io.project_file import dumps_project, load_project, project_fingerprint
+
+    canonical = "SHA-256 of the canonical serialisation"
     if project_path is not None:
-        return Fingerprint(project_fingerprint(project_path), "SHA-256 of the project file",
-                           os.path.basename(os.fspath(project_path)))
+        name = os.path.basename(os.fspath(project_path))
+        try:
+            same = load_project(project_path) == project
+        except (OSError, ValueError):
+            same = False
+        if same:
+            return Fingerprint(project_fingerprint(project_path),
+                               "SHA-256 of the project file", name)
+        label = (f"{canonical} of the project as analysed — it differs from the saved "
+                 f"file {name}; save the project and print the annex again to name the file")
+        source = f"{name} (edited since saved)"
+    else:
+        label = f"{canonical} (project not read from a file)"
+        source = "(unsaved project)"
     data = dumps_project(project).encode("utf-8")
-    return Fingerprint(hashlib.sha256(data).hexdigest(),
-                       "SHA-256 of the canonical serialisation (project not read from a file)",
-                       "(unsaved project)")
+    return Fingerprint(hashlib.sha256(data).hexdigest(), label, source)
 
 
 @dataclass(frozen=True)

@@ -287,3 +287,23 @@ def test_report_package_imports_neither_matplotlib_nor_qt() -> None:
     run = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                          timeout=60, cwd=ROOT)
     assert run.returncode == 0, run.stdout + run.stderr
+
+
+def test_edited_project_is_not_signed_under_the_saved_file(si_floor: Project,
+                                                           tmp_path: pathlib.Path) -> None:
+    # the fingerprint must name the input actually analysed (issue 5); FIPS 180-4
+    # SHA-256 via hashlib
+    import dataclasses
+
+    from droprig.io.project_file import dumps_project, save_project
+
+    src = tmp_path / "saved.droprig"
+    save_project(si_floor, src)
+    edited = dataclasses.replace(si_floor, info=dataclasses.replace(si_floor.info,
+                                                                    revision="D"))
+    out = tmp_path / "edited.pdf"
+    annex.write_annex(edited, analysis.analyse(edited), out, project_path=src)
+    last = _norm(PdfReader(str(out)).pages[-1].extract_text())
+    assert hashlib.sha256(dumps_project(edited).encode("utf-8")).hexdigest() in last
+    assert hashlib.sha256(src.read_bytes()).hexdigest() not in last
+    assert "differs from the saved file saved.droprig" in last
