@@ -691,8 +691,8 @@ class _Builder:
                     self.P(_ei(res.EI, self.sys)),
                 ])
             w = self.w
-            flow.append(_table(trs, [0.13 * w, 0.06 * w, 0.1 * w, 0.1 * w, 0.08 * w,
-                                     0.07 * w, 0.08 * w, 0.05 * w, 0.11 * w, 0.1 * w,
+            flow.append(_table(trs, [0.12 * w, 0.06 * w, 0.1 * w, 0.1 * w, 0.08 * w,
+                                     0.07 * w, 0.08 * w, 0.06 * w, 0.11 * w, 0.1 * w,
                                      0.12 * w]))
             self.add(head, flow)
 
