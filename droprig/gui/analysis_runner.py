@@ -83,6 +83,7 @@ class AnalysisRunner(QObject):
         self._running = False
         self._pending = False
         self._busy = False
+        self._stopped = False
         self.last_seconds = float("nan")
         self._pool = QThreadPool(self)
         self._pool.setMaxThreadCount(1)
@@ -113,7 +114,8 @@ class AnalysisRunner(QObject):
     # -------------------------------------------------------------- requests
 
     def _on_project_changed(self, project: Project) -> None:
-        self.request()
+        if not self._stopped:
+            self.request()
 
     def request(self) -> None:
         """Analyse the current project soon (throttled as described above)."""
@@ -182,14 +184,21 @@ class AnalysisRunner(QObject):
         self.finished.emit(self.last_seconds)
 
     def wait_idle(self, timeout_ms: int = 60_000) -> bool:
-        """Block until the worker thread is idle (does not process queued results)."""
-        return self._pool.waitForDone(timeout_ms)
+        """Block until the worker thread is idle (does not process queued results).
+
+        Polls with :func:`time.sleep`, which releases the GIL: a blocking
+        ``QThreadPool.waitForDone`` would hold it and deadlock a worker that is
+        still running Python code.
+        """
+        deadline = time.monotonic() + timeout_ms / 1000
+        while self._pool.activeThreadCount() > 0:
+            if time.monotonic() > deadline:
+                return False
+            time.sleep(0.002)
+        return True
 
     def shutdown(self) -> None:
         """Stop timers and wait for a running job (call before the window goes)."""
+        self._stopped = True
         self._cooldown.stop()
-        try:
-            self._document.project_changed.disconnect(self._on_project_changed)
-        except (RuntimeError, TypeError):
-            pass
-        self._pool.waitForDone(30_000)
+        self.wait_idle(30_000)

@@ -41,6 +41,7 @@ from droprig import units
 from droprig.gui import commands as ed
 from droprig.gui import style
 from droprig.gui.document import Document, Selection, resolve
+from droprig.gui.results_table import fmt_utilisation
 from droprig.model import (
     END_CONDITIONS,
     Deck,
@@ -74,7 +75,7 @@ def _in_user_units(text: str, system: units.UnitSystem, hint: str | None) -> str
         q = _quantity_for(m.group(2), hint)
         if q is None:
             return m.group(0)
-        return units.fmt(float(m.group(1)), q, system).replace(",", "")
+        return fmt_q(float(m.group(1)), q, system).replace(",", "")
     return _NUM_UNIT.sub(sub, text)
 
 
@@ -85,7 +86,7 @@ def describe_refusal(exc: Exception, label: str, system: units.UnitSystem,
         value = exc.value
         q = _quantity_for(exc.unit, quantity) if exc.unit else None
         if q is not None and isinstance(value, int | float) and not isinstance(value, bool):
-            shown = units.fmt(float(value), q, system).replace(",", "")
+            shown = fmt_q(float(value), q, system).replace(",", "")
         elif isinstance(value, float):
             shown = f"{value:g}"
         else:
@@ -98,11 +99,35 @@ def describe_refusal(exc: Exception, label: str, system: units.UnitSystem,
         f"{text} Nothing was changed."
 
 
+PSF = 4.4482216152605 / 0.3048**2
+"""1 psf = 1 lbf/ft² in Pa (lbf = 4.4482216152605 N, ft = 0.3048 m: NIST SP 811 B.8).
+``droprig.units`` cannot handle psf (pint has no such unit), so pressure in US
+units is read and written here."""
+_PSF_WORD = re.compile(r"\bpsf\b", re.IGNORECASE)
+
+
+def fmt_q(value: float | None, quantity: str, system: units.UnitSystem) -> str:
+    """``units.fmt`` plus US pressure in psf."""
+    if quantity == "pressure" and system == "US" and value is not None and value == value:
+        return f"{value / PSF:,.1f} psf"
+    return units.fmt(value, quantity, system)
+
+
+def parse_q(text: str, quantity: str, system: units.UnitSystem, *, field: str) -> float:
+    """``units.parse`` plus psf (a bare number is psf for US pressure)."""
+    if quantity == "pressure":
+        t = text.strip()
+        if system == "US" and re.fullmatch(r"[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?", t):
+            t = f"{t} psf"
+        text = _PSF_WORD.sub("lbf/ft**2", t)
+    return units.parse(text, quantity, system, field=field)
+
+
 def _edit_text(value: float | None, quantity: str, system: units.UnitSystem) -> str:
     """Text for an input box: the display value without thousands separators."""
     if value is None:
         return ""
-    return units.fmt(value, quantity, system).replace(",", "")
+    return fmt_q(value, quantity, system).replace(",", "")
 
 
 # ------------------------------------------------------------------ field specs
@@ -599,7 +624,7 @@ class FormEditor(QWidget):
             if text.strip() == _edit_text(current, spec.quantity, system):
                 return  # display text unchanged: keep the stored value unrounded
             try:
-                value: Any = units.parse(text, spec.quantity, system, field=spec.label)
+                value: Any = parse_q(text, spec.quantity, system, field=spec.label)
             except units.UnitError as exc:
                 self.refuse(describe_refusal(exc, spec.label, system, spec.quantity), spec)
                 return
@@ -851,7 +876,7 @@ class Inspector(QWidget):
                 st = style.outcome(b.response)
                 allow = units.fmt(b.allowable_drop_height, "length", system)
                 html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
-                         f"{b.load_name}<br>max utilisation {b.max_utilisation:.0%}; "
+                         f"{b.load_name}<br>max utilisation {fmt_utilisation(b.max_utilisation)}; "
                          f"allowable drop {allow}<br>governing: {b.governing_member} "
                          f"({b.governing_check.replace('_', ' ')})<br><i>{b.advice}</i></p>")
         html += f"<p style='color:#6B4E00'>⚠ {style.CAUTION_SHORT}.</p>"

@@ -515,9 +515,9 @@ class MainWindow(QMainWindow):
 
     def show_trace(self, zone_id: str, load_name: str, x: float, y: float) -> bool:
         """Compute and show the calculation trace of one drop point."""
-        from droprig.solver.trace import trace_point
-
         try:
+            from droprig.solver.trace import trace_point
+
             trace = trace_point(self.doc.project, zone_id, load_name, x, y)
         except Exception as exc:  # a message in the status bar, never a crash
             self.statusBar().showMessage(f"Calculation trace: {_describe(exc)}", 10_000)
@@ -546,13 +546,19 @@ class MainWindow(QMainWindow):
     def generate_framing(self) -> None:
         from droprig.gui.generator_dialog import GeneratorDialog
 
-        dlg = GeneratorDialog(self)
-        if not dlg.exec():
-            return
-        level = dlg.level()
         p = self.doc.project
         ids = [lv.id for lv in p.levels]
         current = self.doc.level_id
+        cur = p.level(current) if current else None
+        dlg = GeneratorDialog(self, unit_system=p.settings.unit_system,
+                              level_id=cur.id if cur else ed.unique_id("L", ids),
+                              level_name=cur.name if cur else "Level 1",
+                              existing_level_ids=tuple(i for i in ids if i != current))
+        if not dlg.exec():
+            return
+        level = dlg.level()
+        if level is None:
+            return
         if current:
             box = QMessageBox(QMessageBox.Icon.Question, "Generated framing",
                               f"Replace the framing of level {p.level(current).name}, or add "

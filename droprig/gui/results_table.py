@@ -81,6 +81,18 @@ def outcome_icon(key: str, size: int = 14) -> QIcon:
     return QIcon(pm)
 
 
+def fmt_utilisation(u: float | None) -> str:
+    """Utilisation as a percentage; above 999 % just "> 999 %", infinite (no
+    capacity left for the impact) "no capacity", nan "none"."""
+    if u is None or u != u:
+        return "none"
+    if math.isinf(u):
+        return "no capacity"
+    if u > 9.99:
+        return "> 999 %"
+    return f"{u:.0%}".replace("%", " %")
+
+
 def _fin(v: float | None) -> float | None:
     return None if v is None or (isinstance(v, float) and math.isnan(v)) else v
 
@@ -178,8 +190,7 @@ class BayResultsModel(QAbstractTableModel):
             st = style.outcome(b.response)
             return f"{st.tag}  {st.label}"
         if key == "util":
-            u = _fin(b.max_utilisation)
-            return "none" if u is None else f"{u:.0%}"
+            return fmt_utilisation(b.max_utilisation)
         if key == "allow":
             el = units.fmt(_fin(b.allowable_drop_height), "length", s)
             pl = _fin(b.allowable_drop_height_plastic)
@@ -261,9 +272,12 @@ class ResultsTable(QWidget):
         hh = self.view.horizontalHeader()
         hh.setSectionResizeMode(QHeaderView.ResizeMode.Interactive)
         hh.setStretchLastSection(True)
-        for key, w in (("bay", 80), ("zone", 70), ("load", 130), ("outcome", 160),
-                       ("util", 100), ("allow", 150), ("planned", 95), ("governing", 190)):
-            self.view.setColumnWidth(COL[key], w)
+        hh.setMinimumSectionSize(48)
+        fm = self.view.fontMetrics()
+        for key, w in (("bay", 70), ("zone", 60), ("load", 130), ("outcome", 150),
+                       ("util", 80), ("allow", 140), ("planned", 80), ("governing", 170)):
+            header = COLUMNS[COL[key]][1]
+            self.view.setColumnWidth(COL[key], max(w, fm.horizontalAdvance(header) + 28))
         self.view.sortByColumn(COL["outcome"], Qt.SortOrder.DescendingOrder)
         self.view.selectionModel().selectionChanged.connect(self._on_row_selection_changed)
 
