@@ -1,0 +1,192 @@
+"""Desktop application timings (a script: ``python benchmarks/bench_gui.py``).
+
+1. Zone edit -> repainted bay outcomes, on the SI demo project: a finished
+   handle drag (the plan's ``zone_changed``) goes through the undo stack, the
+   threaded analysis runner, the plan and the results table, until the plan's
+   viewport has painted the new outcomes. Median of N edits; target ≤ 100 ms.
+   Edits are spaced beyond the 150 ms throttle window, as separate drags are.
+   Also reported: the same with an edit inside the throttle window (coalesced
+   at the trailing edge), and the analysis alone.
+2. Cold start: a fresh interpreter until the main window is shown (empty, and
+   with the demo project opened) and until the demo's first results are
+   painted. Median of a few runs; target ≤ 1.5 s to a shown window.
+
+Runs offscreen unless a display is set.
+"""
+
+from __future__ import annotations
+
+import os
+import statistics
+import subprocess
+import sys
+import textwrap
+import time
+from dataclasses import replace
+from pathlib import Path
+
+os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+
+ROOT = Path(__file__).resolve().parents[1]
+DEMO = ROOT / "demo_projects" / "rooftop_plant_swap.droprig"
+N_EDITS = 21
+N_STARTS = 5
+TARGET_EDIT_S = 0.100
+TARGET_START_S = 1.5
+
+
+def _isolate_settings() -> None:
+    import tempfile
+
+    os.environ["DROPRIG_SETTINGS_DIR"] = tempfile.mkdtemp(prefix="droprig-bench-")
+
+
+def bench_zone_edit() -> dict[str, float]:
+    from PySide6.QtCore import QEvent, QObject
+    from PySide6.QtWidgets import QApplication
+
+    from droprig.gui.app import create_app
+    from droprig.gui.document import Document
+    from droprig.gui.main_window import MainWindow
+    from droprig.io.project_file import load_project
+
+    app = create_app()
+    doc = Document(load_project(DEMO), DEMO)
+    win = MainWindow(doc, autosave=False)
+    win.resize(1600, 1000)
+    win.show()
+
+    class PaintCounter(QObject):
+        n = 0
+
+        def eventFilter(self, obj: QObject, ev: QEvent) -> bool:  # noqa: N802
+            if ev.type() == QEvent.Type.Paint:
+                PaintCounter.n += 1
+            return False
+
+    counter = PaintCounter()
+    win.plan.viewport().installEventFilter(counter)
+
+    def settle() -> None:
+        while win.runner.busy or not doc.results_current:
+            app.processEvents()
+            time.sleep(0.0005)
+
+    def wait_paint(after: int) -> None:
+        while PaintCounter.n <= after:
+            app.processEvents()
+
+    def pause(seconds: float) -> None:
+        end = time.perf_counter() + seconds
+        while time.perf_counter() < end:
+            app.processEvents()
+            time.sleep(0.002)
+
+    settle()
+    pause(0.3)
+    zone = doc.project.lift_zones[0]
+    radii = (zone.r_max * 0.8, zone.r_max)
+    single, coalesced, analysis = [], [], []
+    for i in range(N_EDITS):
+        z = doc.project.zone(zone.id)
+        new = replace(z, r_max=radii[i % 2])
+        painted = PaintCounter.n
+        t0 = time.perf_counter()
+        win.plan.zone_changed.emit(zone.id, new)
+        settle()
+        wait_paint(painted)
+        single.append(time.perf_counter() - t0)
+        analysis.append(win.runner.last_seconds)
+        assert {s.bay.id for s in win.plan.bay_states()}  # outcomes on screen
+        pause(0.2)  # beyond the throttle window: the next drag is a separate edit
+    for i in range(7):
+        # Two edits 20 ms apart: the second waits for the trailing edge.
+        z = doc.project.zone(zone.id)
+        win.plan.zone_changed.emit(zone.id, replace(z, r_max=radii[i % 2]))
+        pause(0.02)
+        painted = PaintCounter.n
+        t0 = time.perf_counter()
+        win.plan.zone_changed.emit(zone.id, replace(z, r_max=radii[(i + 1) % 2]))
+        settle()
+        wait_paint(painted)
+        coalesced.append(time.perf_counter() - t0)
+        pause(0.2)
+    win._closing = True
+    win.close()
+    QApplication.processEvents()
+    return {
+        "edit_to_paint_median_s": statistics.median(single),
+        "edit_to_paint_max_s": max(single),
+        "analysis_median_s": statistics.median(analysis),
+        "edit_in_throttle_window_median_s": statistics.median(coalesced),
+        "drop_points": float(doc.results.n_points if doc.results else 0),
+    }
+
+
+_CHILD = textwrap.dedent("""
+    import sys, time
+    from droprig.gui.app import create_app
+    from droprig.gui.main_window import MainWindow
+    app = create_app()
+    win = MainWindow(autosave=False)
+    path = sys.argv[1]
+    if path:
+        win.open_path(path, ask=False)
+    win.resize(1600, 1000)
+    win.show()
+    app.processEvents()
+    print("shown", time.time(), flush=True)
+    if path:
+        while win.runner.busy or not win.doc.results_current:
+            app.processEvents()
+            time.sleep(0.0005)
+        win.plan.viewport().repaint()
+        print("results", time.time(), flush=True)
+    win._closing = True
+    win.close()
+""")
+
+
+def bench_cold_start() -> dict[str, float]:
+    out: dict[str, list[float]] = {"empty_shown_s": [], "demo_shown_s": [],
+                                   "demo_results_painted_s": []}
+    env = dict(os.environ)
+    for _ in range(N_STARTS):
+        for path in ("", str(DEMO)):
+            t0 = time.time()
+            proc = subprocess.run([sys.executable, "-c", _CHILD, path], env=env,
+                                  capture_output=True, text=True, check=True)
+            stamps = {ln.split()[0]: float(ln.split()[1]) for ln in proc.stdout.splitlines()
+                      if ln.split() and ln.split()[0] in ("shown", "results")}
+            if path:
+                out["demo_shown_s"].append(stamps["shown"] - t0)
+                out["demo_results_painted_s"].append(stamps["results"] - t0)
+            else:
+                out["empty_shown_s"].append(stamps["shown"] - t0)
+    return {k: statistics.median(v) for k, v in out.items()}
+
+
+def main() -> int:
+    _isolate_settings()
+    print(f"droprig GUI benchmark — {DEMO.name}, platform {os.environ['QT_QPA_PLATFORM']}, "
+          f"{os.cpu_count()} CPUs")
+    edit = bench_zone_edit()
+    print(f"  zone edit -> bay outcomes repainted: median {edit['edit_to_paint_median_s'] * 1e3:.0f}"
+          f" ms (max {edit['edit_to_paint_max_s'] * 1e3:.0f} ms, target ≤ "
+          f"{TARGET_EDIT_S * 1e3:.0f} ms) over {N_EDITS} edits")
+    print(f"    of which analysis (worker thread): median "
+          f"{edit['analysis_median_s'] * 1e3:.0f} ms for {edit['drop_points']:,.0f} drop points")
+    print(f"    second edit inside the 150 ms throttle window: median "
+          f"{edit['edit_in_throttle_window_median_s'] * 1e3:.0f} ms")
+    start = bench_cold_start()
+    print(f"  cold start to a shown window: empty {start['empty_shown_s']:.2f} s, with the demo "
+          f"{start['demo_shown_s']:.2f} s (target ≤ {TARGET_START_S} s); first results "
+          f"painted {start['demo_results_painted_s']:.2f} s (median of {N_STARTS})")
+    ok = edit["edit_to_paint_median_s"] <= TARGET_EDIT_S and \
+        start["demo_shown_s"] <= TARGET_START_S
+    print("  targets met" if ok else "  TARGET MISSED")
+    return 0
+
+
+if __name__ == "__main__":
+    raise SystemExit(main())
