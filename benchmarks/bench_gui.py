@@ -59,7 +59,7 @@ def bench_zone_edit() -> dict[str, float]:
     class PaintCounter(QObject):
         n = 0
 
-        def eventFilter(self, obj: QObject, ev: QEvent) -> bool:  # noqa: N802
+        def eventFilter(self, obj: QObject, ev: QEvent) -> bool:
             if ev.type() == QEvent.Type.Paint:
                 PaintCounter.n += 1
             return False
@@ -171,8 +171,9 @@ def main() -> int:
     print(f"droprig GUI benchmark — {DEMO.name}, platform {os.environ['QT_QPA_PLATFORM']}, "
           f"{os.cpu_count()} CPUs")
     edit = bench_zone_edit()
-    print(f"  zone edit -> bay outcomes repainted: median {edit['edit_to_paint_median_s'] * 1e3:.0f}"
-          f" ms (max {edit['edit_to_paint_max_s'] * 1e3:.0f} ms, target ≤ "
+    med = edit["edit_to_paint_median_s"] * 1e3
+    print(f"  zone edit -> bay outcomes repainted: median {med:.0f} ms "
+          f"(max {edit['edit_to_paint_max_s'] * 1e3:.0f} ms, target ≤ "
           f"{TARGET_EDIT_S * 1e3:.0f} ms) over {N_EDITS} edits")
     print(f"    of which analysis (worker thread): median "
           f"{edit['analysis_median_s'] * 1e3:.0f} ms for {edit['drop_points']:,.0f} drop points")
