@@ -217,7 +217,10 @@ def test_plan_is_vector_and_names_every_bay(built: Annex) -> None:
     from droprig.model import bays
 
     for page in built.reader.pages:
-        assert not page.images  # no raster anywhere
+        # no raster anywhere: no image XObject on any page (ISO 32000-1 §8.9.5)
+        xobjects = page["/Resources"].get("/XObject") or {}
+        for ref in xobjects.values():
+            assert ref.get_object().get("/Subtype") != "/Image"
     plan_text = " ".join(t for t in built.texts if annex.HEADINGS["plan"] + " — level" in t)
     for z in built.project.lift_zones:
         assert f"CRANE {z.id}" in plan_text
