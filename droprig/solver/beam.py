@@ -185,61 +185,53 @@ def udl_shear(cond: EndCondition, L: ArrayLike, w: ArrayLike, x: ArrayLike) -> n
 
 
 # --------------------------------------------------------------------------- deflection
-def _simple_green(L: np.ndarray, x: np.ndarray, a: np.ndarray) -> np.ndarray:
-    """EI × simple-beam deflection: b·x(L² − b² − x²)/(6L) for x ≤ a, mirrored beyond."""
-    lo = np.minimum(x, a)
-    hi = np.maximum(x, a)
-    # For x ≤ a: x·(L−a)·(L² − (L−a)² − x²)/(6L); symmetric in (x, a) written with lo/hi.
-    return lo * (L - hi) * (L**2 - (L - hi) ** 2 - lo**2) / (6.0 * L)
-
-
-def _end_moment_shape_0(L: np.ndarray, x: np.ndarray) -> np.ndarray:
-    """EI × deflection of a simple beam from a unit sagging end moment at x = 0:
-    x(L − x)(2L − x)/(6L) (AISC Manual Table 3-23 case 10 with its sign made sagging)."""
-    return x * (L - x) * (2.0 * L - x) / (6.0 * L)
-
-
-def _end_moment_shape_L(L: np.ndarray, x: np.ndarray) -> np.ndarray:
-    """EI × deflection of a simple beam from a unit sagging end moment at x = L:
-    x(L² − x²)/(6L)."""
-    return x * (L**2 - x**2) / (6.0 * L)
-
-
 def green(cond: EndCondition, L: ArrayLike, EI: ArrayLike, x: ArrayLike,
           a: ArrayLike) -> np.ndarray:
     """Deflection at ``x`` (downward +) from a unit downward load at ``a``, m/N.
 
-    simple: b·x(L² − b² − x²)/(6EIL) for x ≤ a (mirror for x > a); under the load
-    a²b²/(3EIL) (AISC Manual Table 3-23 case 8). fixed: b²x²(3aL − 3ax − bx)/(6EIL³)
-    for x ≤ a; under the load a³b³/(3EIL³) (case 18; Roark Table 8.1 case 1d).
-    propped (fixed at 0): simple-beam value plus the end moment's deflection
-    M0·x(L − x)(2L − x)/(6EIL); under the load a³b²(4L − a)/(12EIL³), the
-    published Pa'²b'³(3L + a')/(12EIL³) with a' = L − a (case 14; Roark 1c).
-    cantilever (fixed at 0): x²(3a − x)/(6EI) for x ≤ a, a²(3x − a)/(6EI) beyond;
-    a³/(3EI) under the load (case 22). Symmetric in x and a (Maxwell–Betti).
+    Published forms (x ≤ a; the other side follows from Maxwell–Betti symmetry
+    green(x, a) = green(a, x)):
+    simple: b·x(L² − b² − x²)/(6EIL); under the load a²b²/(3EIL) (AISC Manual
+    Table 3-23 case 8). fixed: b²x²(3aL − 3ax − bx)/(6EIL³); under the load
+    a³b³/(3EIL³) (case 18; Roark Table 8.1 case 1d). propped (fixed at 0): the
+    simple-beam value plus the end moment's M0·x(L − x)(2L − x)/(6EIL), which
+    simplifies to b·x²[a(2L − a)(3L − x) − 2L²x]/(12EIL³); under the load
+    a³b²(4L − a)/(12EIL³), the published Pa'²b'³(3L + a')/(12EIL³) with a' = L − a
+    (case 14; Roark 1c). cantilever (fixed at 0): x²(3a − x)/(6EI); a³/(3EI) under
+    the load (case 22).
+    Evaluated with lo = min(x, a), hi = max(x, a), β = L − hi, λ = L − lo, and the
+    brackets rearranged into sums of non-negative terms (no cancellation next to
+    the supports): simple L² − b² − x² = (hi − lo)(hi + lo) + 2·hi·β; fixed
+    3aL − 3ax − bx = 3·hi·λ − β·lo; propped bracket = 3L²λ − 2Lβ² − β²λ (used for
+    hi > L/2) or hi(2L − hi)(3L − lo) − 2L²·lo (hi ≤ L/2).
     """
     _check(cond)
     L, EI, x, a = _arr(L, EI, x, a)
+    lo = np.minimum(x, a)
+    hi = np.maximum(x, a)
+    beta = L - hi
     if cond == "cantilever":
-        lo = np.minimum(x, a)
-        hi = np.maximum(x, a)
         return lo**2 * (3.0 * hi - lo) / (6.0 * EI)
-    y = _simple_green(L, x, a)
-    if cond != "simple":
-        M0, ML = unit_end_moments(cond, L, a)
-        y = y + M0 * _end_moment_shape_0(L, x) + ML * _end_moment_shape_L(L, x)
-    return y / EI
+    if cond == "simple":
+        return lo * beta * ((hi - lo) * (hi + lo) + 2.0 * hi * beta) / (6.0 * L * EI)
+    lam = L - lo
+    if cond == "fixed":
+        return beta**2 * lo**2 * (3.0 * hi * lam - beta * lo) / (6.0 * L**3 * EI)
+    bracket = np.where(hi > 0.5 * L,
+                       3.0 * L**2 * lam - 2.0 * L * beta**2 - beta**2 * lam,
+                       hi * (2.0 * L - hi) * (3.0 * L - lo) - 2.0 * L**2 * lo)
+    return beta * lo**2 * bracket / (12.0 * L**3 * EI)
 
 
 def udl_deflection(cond: EndCondition, L: ArrayLike, EI: ArrayLike, w: ArrayLike,
                    x: ArrayLike) -> np.ndarray:
     """Deflection at ``x`` (downward +) from a full-length UDL ``w`` (N/m), m.
 
-    simple: w·x(L³ − 2Lx² + x³)/(24EI) (AISC Manual Table 3-23 case 1); fixed:
-    w·x²(L − x)²/(24EI) (case 15); propped (fixed at 0): w·ξ(L³ − 3Lξ² + 2ξ³)/(48EI)
-    with ξ = L − x from the pinned end (case 12), computed as the simple value plus
-    the end moment's M0·x(L − x)(2L − x)/(6EIL), M0 = −wL²/8; cantilever (fixed at 0):
-    w·x²(6L² − 4Lx + x²)/(24EI) (case 19).
+    simple: w·x(L³ − 2Lx² + x³)/(24EI) = w·x(L − x)(L² + Lx − x²)/(24EI) (AISC Manual
+    Table 3-23 case 1); fixed: w·x²(L − x)²/(24EI) (case 15); propped (fixed at 0):
+    w·ξ(L³ − 3Lξ² + 2ξ³)/(48EI) with ξ = L − x from the pinned end (case 12),
+    = w·(L − x)·x²·(3L − 2x)/(48EI); cantilever (fixed at 0):
+    w·x²(6L² − 4Lx + x²)/(24EI) (case 19). Factored forms avoid cancellation.
     """
     _check(cond)
     L, EI, w, x = _arr(L, EI, w, x)
@@ -247,10 +239,9 @@ def udl_deflection(cond: EndCondition, L: ArrayLike, EI: ArrayLike, w: ArrayLike
         return w * x**2 * (6.0 * L**2 - 4.0 * L * x + x**2) / (24.0 * EI)
     if cond == "fixed":
         return w * x**2 * (L - x) ** 2 / (24.0 * EI)
-    y = w * x * (L**3 - 2.0 * L * x**2 + x**3) / 24.0
     if cond == "propped":
-        y = y - w * L**2 / 8.0 * _end_moment_shape_0(L, x)
-    return y / EI
+        return w * (L - x) * x**2 * (3.0 * L - 2.0 * x) / (48.0 * EI)
+    return w * x * (L - x) * (L**2 + L * x - x**2) / (24.0 * EI)
 
 
 # --------------------------------------------------------------------------- envelopes

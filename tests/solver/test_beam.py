@@ -144,6 +144,42 @@ def test_udl_closed_forms(cond: str, R0_coef: float, M0_coef: float,
         mid_defl_coef * w * L**4 / EI, rel=REL_CLOSED_FORM)
 
 
+@pytest.mark.parametrize("cond", ("simple", "fixed", "propped"))
+def test_precision_next_to_supports(cond: str) -> None:
+    """The published closed forms (AISC Manual Table 3-23 cases 8, 18, 14 as transcribed in
+    the references; propped mapped to fixed-at-0) evaluated in exact rational arithmetic:
+    no cancellation within a nanometre of a support."""
+    from fractions import Fraction
+
+    L = Fraction(6)
+
+    def exact(x: Fraction, a: Fraction) -> Fraction:
+        lo, hi = min(x, a), max(x, a)
+        b = L - hi
+        if cond == "simple":  # b·x(L² − b² − x²)/(6L)
+            return b * lo * (L**2 - b**2 - lo**2) / (6 * L)
+        if cond == "fixed":  # b²x²(3aL − 3ax − bx)/(6L³)
+            return b**2 * lo**2 * (3 * hi * L - 3 * hi * lo - b * lo) / (6 * L**3)
+        # propped, published with a' = L − a from the simple support: under the load
+        # a'²b'³(3L + a')/(12L³); away from it the simple value + M0·x(L − x)(2L − x)/(6L)
+        M0 = -hi * b * (2 * L - hi) / (2 * L**2)
+        simple = b * lo * (L**2 - b**2 - lo**2) / (6 * L)
+        return simple + M0 * lo * (L - lo) * (2 * L - lo) / (6 * L)
+
+    pts = [Fraction(v) for v in (1e-9, 1e-6, 1e-3, 0.3, 2.9, 3.1, 5.9)]
+    pts += [L - Fraction(v) for v in (1e-3, 1e-6, 1e-9)]
+    pts = [Fraction(float(p)) for p in pts]  # the exact value of the float we pass
+    for x in pts:
+        for a in pts:
+            assert float(beam.green(cond, 6.0, 1.0, float(x), float(a))) == pytest.approx(
+                float(exact(x, a)), rel=1e-13)
+    a_pub = L - Fraction(1, 10**6)  # propped: the published form under the load
+    if cond == "propped":
+        b_pub = L - a_pub
+        assert float(beam.green(cond, 6.0, 1.0, float(b_pub), float(b_pub))) == pytest.approx(
+            float(a_pub**2 * b_pub**3 * (3 * L + a_pub) / (12 * L**3)), rel=1e-12)
+
+
 @pytest.mark.parametrize("cond", CONDS)
 def test_maxwell_reciprocity(cond: str, rng: np.random.Generator) -> None:
     # Maxwell–Betti reciprocal theorem: green(x, a) = green(a, x)
