@@ -44,6 +44,8 @@ class UnitError(ValueError):
 def registry() -> pint.UnitRegistry:
     ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
     # pint's "t" is the metric tonne; "ton" alone is ambiguous and refused in parse().
+    # Pounds per square foot, the US unit of floor pressure (ASCE 7 tables).
+    ureg.define("psf = lbf / foot ** 2")
     return ureg
 
 
