@@ -15,7 +15,7 @@ from dataclasses import replace
 from pathlib import Path
 
 from PySide6.QtCore import QByteArray, QSettings, Qt, QTimer
-from PySide6.QtGui import QAction, QCloseEvent, QKeySequence
+from PySide6.QtGui import QAction, QCloseEvent, QKeySequence, QShowEvent
 from PySide6.QtWidgets import (
     QComboBox,
     QDockWidget,
@@ -63,6 +63,14 @@ BASIS_LABELS = {"en1993": "EN 1993-1-1", "aisc360": "AISC 360-16"}
 UNIT_LABELS = {"SI": "SI (m · kN · kg · MPa)", "US": "US (ft · kip · lb · ksi)"}
 
 
+STALE_GRACE_MS = 300
+"""How long the plan may keep showing the previous results after an edit."""
+
+
+def _cases(p: Project) -> tuple[tuple[str, str, str], ...]:
+    return tuple((z.id, z.level_id, ld.name) for z in p.lift_zones for ld in z.loads)
+
+
 def _describe(exc: BaseException) -> str:
     from droprig.commands import describe_error
 
@@ -96,6 +104,10 @@ class MainWindow(QMainWindow):
             if autosave else None
         self._settings_dialog: SettingsDialog | None = None
         self._closing = False
+        self._stale_timer = QTimer(self)
+        self._stale_timer.setSingleShot(True)
+        self._stale_timer.setInterval(STALE_GRACE_MS)
+        self._stale_timer.timeout.connect(self._on_stale_timeout)
 
         self.setObjectName("droprigMainWindow")
         self.setDockNestingEnabled(True)
@@ -242,11 +254,23 @@ class MainWindow(QMainWindow):
         self.trace_dock = self._dock("trace", "Calculation trace", self.trace_panel,
                                      Qt.DockWidgetArea.BottomDockWidgetArea)
         self.splitDockWidget(self.results_dock, self.trace_dock, Qt.Orientation.Horizontal)
-        self.resizeDocks([self.tree_dock, self.inspector_dock], [270, 330],
+        self._default_layout_pending = True
+
+    def _apply_default_dock_sizes(self) -> None:
+        """First start (no saved layout): proportions that suit a wide screen."""
+        w = max(self.width(), 800)
+        self.resizeDocks([self.tree_dock, self.inspector_dock],
+                         [int(w * 0.16), int(w * 0.21)], Qt.Orientation.Horizontal)
+        self.resizeDocks([self.results_dock], [int(self.height() * 0.32)],
+                         Qt.Orientation.Vertical)
+        self.resizeDocks([self.results_dock, self.trace_dock], [int(w * 0.62), int(w * 0.38)],
                          Qt.Orientation.Horizontal)
-        self.resizeDocks([self.results_dock], [260], Qt.Orientation.Vertical)
-        self.resizeDocks([self.results_dock, self.trace_dock], [900, 560],
-                         Qt.Orientation.Horizontal)
+
+    def showEvent(self, event: QShowEvent) -> None:
+        super().showEvent(event)
+        if self._default_layout_pending:
+            self._default_layout_pending = False
+            self._apply_default_dock_sizes()
 
     def _make_menus(self) -> None:
         a = self.actions
@@ -337,6 +361,7 @@ class MainWindow(QMainWindow):
     # ================================================================ document events
 
     def _on_project_changed(self, project: Project) -> None:
+        self._stale_timer.start()
         self.plan.set_project(project, self.doc.level_id or None)
         # Bay results stay valid only while the level's framing is the same object.
         self.plan.set_results(self._plan_results())
@@ -348,18 +373,30 @@ class MainWindow(QMainWindow):
         self._update_actions()
 
     def _plan_results(self) -> Results | None:
+        """Results the plan may show: current ones; or, for at most
+        STALE_GRACE_MS after an edit, the previous ones if the level's framing
+        and the set of zones and loads are unchanged (so bays and cases still
+        match) — this avoids a grey flash on every edit; after that the plan
+        shows "not assessed" until the new results arrive."""
         res = self.doc.results
         if res is None:
             return None
         if self.doc.results_current:
             return res
+        if not self._stale_timer.isActive():
+            return None
         old = self.doc._results_project
+        new = self.doc.project
         try:
             same = old is not None and old.level(self.doc.level_id) is \
-                self.doc.project.level(self.doc.level_id)
+                new.level(self.doc.level_id) and _cases(old) == _cases(new)
         except KeyError:
             same = False
         return res if same else None
+
+    def _on_stale_timeout(self) -> None:
+        if not self.doc.results_current:
+            self.plan.set_results(None)
 
     def _on_results_changed(self, results: Results | None) -> None:
         self.plan.set_results(self._plan_results())
@@ -860,8 +897,9 @@ class MainWindow(QMainWindow):
             self.restoreGeometry(QByteArray(geo))
         else:
             self.resize(1600, 1000)
-        if isinstance(state, QByteArray | bytes) and state:
-            self.restoreState(QByteArray(state))
+        if isinstance(state, QByteArray | bytes) and state and \
+                self.restoreState(QByteArray(state)):
+            self._default_layout_pending = False
         overlay = self.qsettings.value("view/overlay", "outcome")
         if overlay in style.OVERLAYS:
             self.set_overlay(str(overlay))

@@ -44,11 +44,11 @@ ROW_ROLE = Qt.ItemDataRole.UserRole + 2
 
 COLUMNS: tuple[tuple[str, str], ...] = (
     ("bay", "Bay"),
-    ("zone", "Lift zone"),
+    ("zone", "Zone"),
     ("load", "Load"),
     ("outcome", "Outcome"),
     ("util", "Max utilisation"),
-    ("allow", "Allowable drop"),
+    ("allow", "Allowable drop (yielding)"),
     ("planned", "Planned drop"),
     ("governing", "Governing member · check"),
     ("advice", "Advice"),
@@ -59,8 +59,9 @@ _TIPS = {
     "outcome": "Worst response of any drop point in the bay. E: stays elastic, "
                "Y: yields within limits, X: exceeds limits.",
     "util": "Largest demand / capacity of any check at any drop point in the bay",
-    "allow": "Greatest free fall that keeps every point elastic; in brackets the one "
-             "that stays within the plastic limits",
+    "allow": "Greatest free fall that keeps every point of the bay elastic; in brackets "
+             "the greatest that keeps it within the ductility and rotation limits, where "
+             "that is more",
     "planned": "Free-fall height of the load as planned (onto the deck or mat top)",
 }
 
@@ -194,7 +195,9 @@ class BayResultsModel(QAbstractTableModel):
         if key == "allow":
             el = units.fmt(_fin(b.allowable_drop_height), "length", s)
             pl = _fin(b.allowable_drop_height_plastic)
-            return el if pl is None else f"{el}  ({units.fmt(pl, 'length', s)})"
+            if pl is None or units.fmt(pl, "length", s) == el:
+                return el
+            return f"{el}  ({units.fmt(pl, 'length', s)})"
         if key == "planned":
             return units.fmt(self._planned.get((b.zone_id, b.load_name)), "length", s)
         if key == "governing":
@@ -274,8 +277,8 @@ class ResultsTable(QWidget):
         hh.setStretchLastSection(True)
         hh.setMinimumSectionSize(48)
         fm = self.view.fontMetrics()
-        for key, w in (("bay", 70), ("zone", 60), ("load", 130), ("outcome", 150),
-                       ("util", 80), ("allow", 140), ("planned", 80), ("governing", 170)):
+        for key, w in (("bay", 64), ("zone", 48), ("load", 130), ("outcome", 170),
+                       ("util", 80), ("allow", 120), ("planned", 80), ("governing", 200)):
             header = COLUMNS[COL[key]][1]
             self.view.setColumnWidth(COL[key], max(w, fm.horizontalAdvance(header) + 28))
         self.view.sortByColumn(COL["outcome"], Qt.SortOrder.DescendingOrder)
@@ -362,10 +365,11 @@ class ResultsTable(QWidget):
         if not res.bays:
             self.summary.setText("No drop points: add a lift zone with a load.")
             return
-        parts = [f"{counts[k]} {style.outcome(k).label.lower()}"
+        parts = [f"{style.outcome(k).label}: {counts[k]}"
                  for k in reversed(style.OUTCOME_ORDER) if counts.get(k)]
         stale = "  (updating…)" if not self._doc.results_current else ""
-        self.summary.setText(f"{len(res.bays)} bay rows: " + ", ".join(parts) + stale)
+        self.summary.setText(f"{len(res.bays)} rows, one per bay and load — "
+                             + " · ".join(parts) + stale)
 
     # -------------------------------------------------------------- selection sync
 
