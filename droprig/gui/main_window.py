@@ -597,23 +597,29 @@ class MainWindow(QMainWindow):
         if level is None:
             return
         if current:
-            box = QMessageBox(QMessageBox.Icon.Question, "Generated framing",
-                              f"Replace the framing of level {p.level(current).name}, or add "
-                              "the generated framing as a new level?", parent=self)
-            rep = box.addButton("Replace this level", QMessageBox.ButtonRole.AcceptRole)
-            add = box.addButton("Add a new level", QMessageBox.ButtonRole.ActionRole)
-            box.addButton(QMessageBox.StandardButton.Cancel)
-            box.exec()
-            clicked = box.clickedButton()
-            if clicked is rep:
+            choice = self.ask_replace_or_add(p.level(current).name)
+            if choice == "replace":
                 self.replace_level_framing(current, level)
                 return
-            if clicked is not add:
+            if choice != "add":
                 return
         if level.id in ids:
             level = replace(level, id=ed.unique_id("L", ids))
         self._edit(lambda p: ed.add_level(p, level), f"Add level {level.name}")
         self.doc.set_level(level.id)
+
+    def ask_replace_or_add(self, level_name: str) -> str | None:
+        """"replace", "add" or None (cancelled)."""
+        box = QMessageBox(QMessageBox.Icon.Question, "Generated framing",
+                          f"Replace the framing of level {level_name} (its lift zones and "
+                          "protection areas stay), or add the generated framing as a new "
+                          "level?", parent=self)
+        rep = box.addButton("Replace this level", QMessageBox.ButtonRole.AcceptRole)
+        add = box.addButton("Add a new level", QMessageBox.ButtonRole.ActionRole)
+        box.addButton(QMessageBox.StandardButton.Cancel)
+        box.exec()
+        clicked = box.clickedButton()
+        return "replace" if clicked is rep else "add" if clicked is add else None
 
     def replace_level_framing(self, level_id: str, level: object) -> bool:
         """Swap in generated framing for ``level_id`` (zones and mats stay)."""

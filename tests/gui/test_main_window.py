@@ -200,6 +200,102 @@ def test_open_a_broken_file_shows_a_message_and_keeps_the_project(
     assert shown and "broken.droprig" in shown[0]
 
 
+def test_generator_dialog_adds_then_replaces_framing(qtbot, window: MainWindow,
+                                                     monkeypatch: pytest.MonkeyPatch) -> None:
+    from droprig.gui.generator_dialog import GeneratorDialog
+
+    monkeypatch.setattr(GeneratorDialog, "exec", lambda self: 1)  # OK with its defaults
+    window.actions["generate"].trigger()
+    assert len(window.doc.project.levels) == 1
+    first = window.doc.project.levels[0]
+    window.actions["add_zone"].trigger()
+    zone = window.doc.project.lift_zones[0]
+
+    monkeypatch.setattr(MainWindow, "ask_replace_or_add", lambda self, name: "replace")
+    window.actions["generate"].trigger()
+    assert len(window.doc.project.levels) == 1
+    assert window.doc.project.zone(zone.id) == zone  # the zone stays on the level
+    monkeypatch.setattr(MainWindow, "ask_replace_or_add", lambda self, name: "add")
+    window.actions["generate"].trigger()
+    ids = [lv.id for lv in window.doc.project.levels]
+    assert len(ids) == 2 and len(set(ids)) == 2 and ids[0] == first.id
+    assert window.doc.level_id == ids[1]  # the plan shows the new level
+    assert window.level_combo.isVisible()
+
+
+def test_drawn_protection_area_goes_through_the_dialog(qtbot, window: MainWindow,
+                                                       monkeypatch: pytest.MonkeyPatch) -> None:
+    from droprig.gui.inspector import FormDialog
+    from droprig.model import Rect
+
+    _framed_with_crane(qtbot, window)
+    window.actions["draw_protection"].trigger()
+    assert window.plan.mode == "draw_protection"
+    monkeypatch.setattr(FormDialog, "exec", lambda self: 1)
+    window.plan.protection_drawn.emit(Rect(1.0, 1.0, 4.0, 3.0))
+    assert window.plan.mode == "select"
+    (area,) = window.doc.project.protection_areas
+    assert area.area == Rect(1.0, 1.0, 4.0, 3.0) and area.level_id == "L1"
+    assert window.doc.selection == Selection("protection", (area.id,))
+    _settle(qtbot, window)
+    window.actions["undo"].trigger()
+    assert window.doc.project.protection_areas == ()
+
+
+def test_clicked_point_shows_its_trace(qtbot, window: MainWindow) -> None:
+    _framed_with_crane(qtbot, window)
+    b = max(window.doc.results.bays, key=lambda r: r.max_utilisation)
+    window.plan.point_clicked.emit(b.zone_id, b.load_name, b.governing_x, b.governing_y)
+    trace = window.trace_panel.trace
+    assert trace is not None
+    assert (trace.zone_id, trace.load_name) == (b.zone_id, b.load_name)
+    assert trace.steps
+
+
+def test_selecting_a_row_traces_its_governing_point(qtbot, window: MainWindow) -> None:
+    _framed_with_crane(qtbot, window)
+    window.results_table.select_row(0)
+    row = window.results_table.selected_row()
+    trace = window.trace_panel.trace
+    assert trace is not None
+    assert (trace.x, trace.y) == (row.governing_x, row.governing_y)
+    # The trace of the governing point reaches the bay's verdict (same solver).
+    assert trace.response == row.response
+
+
+def test_utilisation_column_sorts_by_number(qtbot, window: MainWindow) -> None:
+    from PySide6.QtCore import Qt
+
+    from droprig.gui.results_table import COL
+
+    zone = _framed_with_crane(qtbot, window)
+    window.plan.zone_changed.emit(zone.id, replace(zone, r_max=30.0))
+    _settle(qtbot, window)
+    view = window.results_table.view
+    view.sortByColumn(COL["util"], Qt.SortOrder.AscendingOrder)
+    table = window.results_table
+    us = [table.model.row(table.proxy.mapToSource(table.proxy.index(r, 0)).row())
+          .max_utilisation for r in range(table.proxy.rowCount())]
+    assert len(us) > 2
+    assert us == sorted(us)
+
+
+def test_lift_choice_filters_the_table_and_the_plan(qtbot, window: MainWindow) -> None:
+    _framed_with_crane(qtbot, window)
+    window.actions["add_load"].trigger()
+    _settle(qtbot, window)
+    combo = window.case_combo
+    assert combo.count() == 3  # all, and one per load
+    combo.setCurrentIndex(2)
+    combo.activated.emit(2)
+    zid, name = combo.currentData()
+    rows = [window.results_table.model.row(
+        window.results_table.proxy.mapToSource(window.results_table.proxy.index(r, 0)).row())
+        for r in range(window.results_table.proxy.rowCount())]
+    assert rows and all((r.zone_id, r.load_name) == (zid, name) for r in rows)
+    assert window.plan.case_caption().endswith(name)
+
+
 # ------------------------------------------------------------------ unsaved changes
 
 
