@@ -98,7 +98,7 @@ def impact_crushable(W: ArrayLike, h: ArrayLike, f_s: ArrayLike, eta: ArrayLike,
     """Impact through a crushable layer (crush force F_c, N; stroke s_c, m) over a
     structure of compliance f_s (m/N). Returns ``(F_peak, crush_depth, bottomed)``.
 
-    1. Elastic peak below F_c (crush depth c ≤ 0, see :func:`crush_depth`): the layer
+    1. Elastic peak ≤ F_c (crush depth c ≤ 0, see :func:`crush_depth`): the layer
        stays rigid; F_peak = K·W with K = 1 + √(1 + 2ηh/(W·f_s)) (Gere §9.10).
     2. 0 < c ≤ s_c: F_peak = F_c, crush depth c (energy balance above).
     3. c > s_c (or F_c ≤ W): the layer bottoms out after absorbing F_c·s_c; the rest
@@ -118,8 +118,12 @@ def impact_crushable(W: ArrayLike, h: ArrayLike, f_s: ArrayLike, eta: ArrayLike,
         F_bottom = W + np.sqrt(np.maximum(W**2 + 2.0 * residual
                                           / np.where(f_s > 0.0, f_s, 1.0), 0.0))
     F_bottom = np.where(f_s > 0.0, F_bottom, np.inf)
-    F = np.where(c <= 0.0, F_el, np.where(bottomed, np.maximum(F_bottom, F_c), F_c))
-    depth = np.where(bottomed, s_c, c)
+    # elastic when the layer's crush force is never reached (equivalently c ≤ 0; the
+    # force test also covers the degenerate rigid, h = 0 case)
+    elastic = F_el <= F_c
+    bottomed = bottomed & ~elastic
+    F = np.where(elastic, F_el, np.where(bottomed, np.maximum(F_bottom, F_c), F_c))
+    depth = np.where(elastic, 0.0, np.where(bottomed, s_c, c))
     return F, depth, bottomed
 
 

@@ -137,7 +137,9 @@ def assess_member(
     ``ductility``, ``rotation``; ``response`` ``elastic``/``plastic``/``exceeds``).
     Values that do not apply are ``None`` (never NaN or inf). ``utilisation`` is the
     elastic demand over resistance of the governing strength check (above 1 for a
-    plastic response: read ductility and rotation then). ``deflection_limit_ratio`` is
+    plastic response: read ductility and rotation then). ``effective_mass`` is the
+    member's Rayleigh mass, reported even where it is not used (η = 1 with a mat or a
+    crushable layer). ``deflection_limit_ratio`` is
     validated but never changes the verdict (deflection is information only; the
     edges compare ``max_deflection`` with span/N themselves). Raises
     :class:`~droprig.model.ModelError` naming the argument for inputs outside range.
