@@ -219,11 +219,25 @@ class MainWindow(QMainWindow):
         h.addWidget(draw_btn)
         h.addWidget(fit_btn)
 
+        self.guide = QWidget()
+        self.guide.setObjectName("guideBar")
+        self.guide.setStyleSheet("QWidget#guideBar { background: #E3EEF7; "
+                                 "border-bottom: 1px solid #9CB8D3; }")
+        g = QHBoxLayout(self.guide)
+        g.setContentsMargins(8, 5, 8, 5)
+        self.guide_text = QLabel()
+        self.guide_text.setObjectName("guideText")
+        self.guide_text.setStyleSheet("color: #0B2E4F;")
+        self.guide_button = QToolButton()
+        g.addWidget(self.guide_text, 1)
+        g.addWidget(self.guide_button)
+
         central = QWidget()
         v = QVBoxLayout(central)
         v.setContentsMargins(0, 0, 0, 0)
         v.setSpacing(0)
         v.addWidget(bar)
+        v.addWidget(self.guide)
         v.addWidget(self.plan, 1)
         self.setCentralWidget(central)
 
@@ -367,10 +381,30 @@ class MainWindow(QMainWindow):
         self.plan.set_results(self._plan_results())
         self._fill_level_combo()
         self._fill_case_combo()
+        self._update_guide()
         s = project.settings
         self.units_label.setText(f"Units: {UNIT_LABELS.get(s.unit_system, s.unit_system)}")
         self.basis_label.setText(f"Basis: {BASIS_LABELS.get(s.design_basis, s.design_basis)}")
         self._update_actions()
+
+    def _update_guide(self) -> None:
+        """Tell a new user the next step until the project can be assessed."""
+        p = self.doc.project
+        if not p.levels:
+            text, action = ("<b>Start here:</b> build the floor from its column grid and "
+                            "sections, or open a saved project (File › Open).", "generate")
+        elif not any(z.level_id == self.doc.level_id for z in p.lift_zones):
+            text, action = ("<b>Next:</b> place the crane and the region its load swings "
+                            "over this level.", "add_zone")
+        elif not any(z.loads for z in p.lift_zones):
+            text, action = ("<b>Next:</b> give the lift zone the load (and rigging) that "
+                            "could drop.", "add_load")
+        else:
+            self.guide.hide()
+            return
+        self.guide_text.setText(text)
+        self.guide_button.setDefaultAction(self.actions[action])
+        self.guide.show()
 
     def _plan_results(self) -> Results | None:
         """Results the plan may show: current ones; or, for at most
@@ -415,6 +449,7 @@ class MainWindow(QMainWindow):
         self._update_actions()
 
     def _on_level_changed(self, level_id: str) -> None:
+        self._update_guide()
         self.plan.set_project(self.doc.project, level_id or None)
         self.plan.set_results(self._plan_results())
         i = self.level_combo.findData(level_id)
@@ -546,7 +581,7 @@ class MainWindow(QMainWindow):
         self.plan.set_mode("draw_protection" if on else "select")
         if on:
             self.statusBar().showMessage("Drag a rectangle on the plan where the mat goes "
-                                         "(Esc or the button again to stop)", 8000)
+                                         "(press Draw protection area again to stop)", 8000)
 
     # ================================================================ trace
 

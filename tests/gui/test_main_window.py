@@ -487,3 +487,13 @@ def test_document_passed_in_is_shown(qtbot) -> None:
     assert win.plan.level is not None and win.plan.level.id == "L1"
     assert win.tree.item_for(Selection("level", ("L1",))) is not None
     win.close()
+
+
+def test_guide_bar_leads_a_new_user_to_an_assessable_project(qtbot, window: MainWindow) -> None:
+    assert window.guide.isVisible()
+    assert window.guide_button.defaultAction() is window.actions["generate"]
+    window.doc.edit(ed.add_level(window.doc.project, _level()), "Generate framing")
+    assert window.guide_button.defaultAction() is window.actions["add_zone"]
+    window.guide_button.click()
+    assert window.doc.project.lift_zones
+    assert not window.guide.isVisible()
