@@ -497,3 +497,20 @@ def test_guide_bar_leads_a_new_user_to_an_assessable_project(qtbot, window: Main
     window.guide_button.click()
     assert window.doc.project.lift_zones
     assert not window.guide.isVisible()
+
+
+def test_failed_analysis_shows_no_verdict_until_fixed(qtbot, window: MainWindow) -> None:
+    zone = _framed_with_crane(qtbot, window)
+    load = zone.loads[0]
+    # Hook below the roof: the model refuses the drop height (load underside under the deck).
+    bad = replace(load, drop_height=None, hook_elevation=5.0, hang_length=1.0)
+    window.doc.edit(ed.with_load(window.doc.project, zone.id, load.name, bad), "Hook below")
+    qtbot.waitUntil(lambda: not window.runner.busy, timeout=WAIT_MS)
+    assert window.doc.results is None and "hook_elevation" in window.doc.analysis_error
+    assert "failed" in window.state_label.text()
+    assert "failed" in window.results_table.summary.text()
+    assert window.results_table.model.rowCount() == 0
+    assert set(_plan_outcomes(window).values()) == {style.OUTCOME_NONE}
+    window.actions["undo"].trigger()
+    _settle(qtbot, window)
+    assert window.doc.analysis_error == "" and window.doc.results.bays
