@@ -49,7 +49,8 @@ def build_parser() -> argparse.ArgumentParser:
     s.add_argument("--code", choices=["aisc360", "en1993"], default=None,
                    help="design basis (default: from the grade's family)")
     s.add_argument("--bearing", default=None,
-                   help="bearing length along the member (default 0: a point contact)")
+                   help="bearing length along the member (default 0: a point contact, "
+                   "conservative for the web checks)")
     s.add_argument("--cushion-stiffness", default=None, help="spring mat stiffness, e.g. 2e6 N/m")
     s.add_argument("--crush-force", default=None, help="crushable layer force, e.g. 50 kN")
     s.add_argument("--crush-stroke", default=None, help="crushable layer stroke, e.g. 50mm")
