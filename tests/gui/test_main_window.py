@@ -514,3 +514,17 @@ def test_failed_analysis_shows_no_verdict_until_fixed(qtbot, window: MainWindow)
     window.actions["undo"].trigger()
     _settle(qtbot, window)
     assert window.doc.analysis_error == "" and window.doc.results.bays
+
+
+def test_project_tree_and_selection_follow_each_other(qtbot, window: MainWindow) -> None:
+    zone = _framed_with_crane(qtbot, window)
+    tree = window.tree
+    item = tree.item_for(Selection("load", (zone.id, zone.loads[0].name)))
+    assert item is not None
+    tree.setCurrentItem(item)  # the user clicks the load
+    assert window.doc.selection == Selection("load", (zone.id, zone.loads[0].name))
+    assert window.inspector.form is not None and "Load" in window.inspector.form.title
+    member = window.doc.project.levels[0].members[3]
+    window.doc.select(Selection("member", ("L1", member.id)))  # e.g. from the plan
+    assert tree.currentItem() is tree.item_for(Selection("member", ("L1", member.id)))
+    assert tree.currentItem().parent().isExpanded()
