@@ -12,6 +12,7 @@ the user's units, and the project stays exactly as it was.
 from __future__ import annotations
 
 import itertools
+import math
 import re
 from collections.abc import Callable
 from dataclasses import dataclass, field, replace
@@ -106,20 +107,55 @@ units is read and written here."""
 _PSF_WORD = re.compile(r"\bpsf\b", re.IGNORECASE)
 
 
+REBAR = "rebar_area"
+"""Local quantity: reinforcement area per width, SI m²/m, shown as mm²/m or in²/ft."""
+_REBAR_UNITS = {"SI": ("mm**2/m", "mm²/m", 0), "US": ("inch**2/ft", "in²/ft", 3)}
+_NUMBER = re.compile(r"[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?")
+
+
+def unit_label(quantity: str, system: units.UnitSystem) -> str:
+    if quantity == REBAR:
+        return _REBAR_UNITS[system][1]
+    if quantity == "pressure" and system == "US":
+        return "psf"
+    return units.display_unit(quantity, system)
+
+
 def fmt_q(value: float | None, quantity: str, system: units.UnitSystem) -> str:
-    """``units.fmt`` plus US pressure in psf."""
-    if quantity == "pressure" and system == "US" and value is not None and value == value:
-        return f"{value / PSF:,.1f} psf"
+    """``units.fmt`` plus US pressure in psf and reinforcement per width."""
+    if value is not None and value == value:
+        if quantity == "pressure" and system == "US":
+            return f"{value / PSF:,.1f} psf"
+        if quantity == REBAR:
+            unit, label, d = _REBAR_UNITS[system]
+            mag = units.registry().Quantity(value, "m**2/m").to(unit).magnitude
+            return f"{mag:,.{d}f} {label}"
     return units.fmt(value, quantity, system)
 
 
 def parse_q(text: str, quantity: str, system: units.UnitSystem, *, field: str) -> float:
-    """``units.parse`` plus psf (a bare number is psf for US pressure)."""
+    """``units.parse`` plus psf (a bare number is psf for US pressure) and
+    reinforcement per width (a bare number is mm²/m or in²/ft)."""
+    t = text.strip()
     if quantity == "pressure":
-        t = text.strip()
-        if system == "US" and re.fullmatch(r"[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?", t):
+        if system == "US" and _NUMBER.fullmatch(t):
             t = f"{t} psf"
-        text = _PSF_WORD.sub("lbf/ft**2", t)
+        return units.parse(_PSF_WORD.sub("lbf/ft**2", t), quantity, system, field=field)
+    if quantity == REBAR:
+        unit, label, _ = _REBAR_UNITS[system]
+        example = f"(for example '300 {label}')"
+        if _NUMBER.fullmatch(t):
+            t = f"{t} {unit}"
+        t = re.sub(r"\b(mm|cm|in|ft|m)2\b", r"\1**2", t)  # "mm2/m", "in2/ft"
+        try:
+            q = units.registry().parse_expression(units._normalise(t))
+            value = float(q.to("m**2/m").magnitude)
+        except Exception as exc:  # pint raises several unrelated types
+            raise units.UnitError(f"{field}: cannot read {text!r} as an area per width "
+                                  f"{example}") from exc
+        if not math.isfinite(value):
+            raise units.UnitError(f"{field}: {text!r} is not a finite number")
+        return value
     return units.parse(text, quantity, system, field=field)
 
 
@@ -272,9 +308,9 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                                           ("solid_slab", "Solid slab"))),
             _q("thickness", "Total thickness", "small_length"),
             _q("cover", "Cover to bottom bars", "small_length"),
-            FieldSpec("rebar_area", "Bottom bars per metre width", "quantity",
+            FieldSpec("rebar_area", "Bottom bars per width", "quantity",
                       lambda o: o.rebar_area, lambda o, v: replace(o, rebar_area=v),
-                      quantity="area", tip="Area of bottom reinforcement in one metre "
+                      quantity=REBAR, tip="Area of bottom reinforcement in one metre "
                                           "strip of slab"),
             FieldSpec("fc", "Concrete strength f'c / fck", "quantity",
                       lambda o: o.concrete.fc, lambda o, v: set_conc(o, "fc", v),
@@ -555,7 +591,7 @@ class FormEditor(QWidget):
         if spec.kind in ("quantity", "text", "section"):
             w = QLineEdit()
             if spec.kind == "quantity":
-                unit = units.display_unit(spec.quantity, system)
+                unit = unit_label(spec.quantity, system)
                 w.setPlaceholderText(f"e.g. 12 {unit}" if unit else "e.g. 1.0")
             if spec.kind == "section":
                 from droprig.io.sections import list_sections

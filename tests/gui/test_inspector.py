@@ -288,3 +288,40 @@ def test_settings_form_is_read_only_with_a_button(qtbot, doc: Document) -> None:
     doc.select(Selection("settings"))
     assert isinstance(w.editor("u"), QLabel)
     assert w.form.buttons == ["settings"]
+
+
+# ------------------------------------------------------------------ quantities droprig.units lacks
+
+LBF = 0.45359237 * 9.80665  # N, exact: lb × standard gravity (NIST SP 811 B.8)
+PSF = LBF / FT**2  # Pa
+IN2_PER_FT = 0.0254**2 / FT  # m²/m
+
+
+@pytest.mark.parametrize(("system", "text", "expected_pa"), [
+    ("SI", "1.5 kPa", 1500.0),
+    ("US", "25", 25 * PSF),
+    ("US", "25 psf", 25 * PSF),
+    ("SI", "25 psf", 25 * PSF),
+])
+def test_level_loads_in_kpa_and_psf(qtbot, system: str, text: str, expected_pa: float) -> None:
+    doc = Document(_roof(system))
+    w = Inspector(doc)
+    qtbot.addWidget(w)
+    doc.select(Selection("level", ("L1",)))
+    _enter(w.editor("superimposed_dead"), text)
+    assert math.isclose(doc.project.level("L1").superimposed_dead, expected_pa, rel_tol=REL)
+
+
+@pytest.mark.parametrize(("system", "text", "expected"), [
+    ("SI", "300", 300e-6),
+    ("SI", "3 cm2/m", 300e-6),
+    ("US", "0.2", 0.2 * IN2_PER_FT),
+    ("US", "0.2 in²/ft", 0.2 * IN2_PER_FT),
+])
+def test_deck_bars_per_width(qtbot, system: str, text: str, expected: float) -> None:
+    doc = Document(_roof(system))
+    w = Inspector(doc)
+    qtbot.addWidget(w)
+    doc.select(Selection("deck", ("L1",)))
+    _enter(w.editor("rebar_area"), text)
+    assert math.isclose(doc.project.level("L1").deck.rebar_area, expected, rel_tol=REL)
