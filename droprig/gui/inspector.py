@@ -100,13 +100,6 @@ def describe_refusal(exc: Exception, label: str, system: units.UnitSystem,
         f"{text} Nothing was changed."
 
 
-PSF = 4.4482216152605 / 0.3048**2
-"""1 psf = 1 lbf/ft² in Pa (lbf = 4.4482216152605 N, ft = 0.3048 m: NIST SP 811 B.8).
-``droprig.units`` cannot handle psf (pint has no such unit), so pressure in US
-units is read and written here."""
-_PSF_WORD = re.compile(r"\bpsf\b", re.IGNORECASE)
-
-
 REBAR = "rebar_area"
 """Local quantity: reinforcement area per width, SI m²/m, shown as mm²/m or in²/ft."""
 _REBAR_UNITS = {"SI": ("mm**2/m", "mm²/m", 0), "US": ("inch**2/ft", "in²/ft", 3)}
@@ -116,16 +109,12 @@ _NUMBER = re.compile(r"[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?")
 def unit_label(quantity: str, system: units.UnitSystem) -> str:
     if quantity == REBAR:
         return _REBAR_UNITS[system][1]
-    if quantity == "pressure" and system == "US":
-        return "psf"
     return units.display_unit(quantity, system)
 
 
 def fmt_q(value: float | None, quantity: str, system: units.UnitSystem) -> str:
-    """``units.fmt`` plus US pressure in psf and reinforcement per width."""
+    """``units.fmt`` plus reinforcement area per width (not a droprig.units quantity)."""
     if value is not None and value == value:
-        if quantity == "pressure" and system == "US":
-            return f"{value / PSF:,.1f} psf"
         if quantity == REBAR:
             unit, label, d = _REBAR_UNITS[system]
             mag = units.registry().Quantity(value, "m**2/m").to(unit).magnitude
@@ -134,13 +123,9 @@ def fmt_q(value: float | None, quantity: str, system: units.UnitSystem) -> str:
 
 
 def parse_q(text: str, quantity: str, system: units.UnitSystem, *, field: str) -> float:
-    """``units.parse`` plus psf (a bare number is psf for US pressure) and
-    reinforcement per width (a bare number is mm²/m or in²/ft)."""
+    """``units.parse`` plus reinforcement area per width (a bare number is mm²/m
+    or in²/ft)."""
     t = text.strip()
-    if quantity == "pressure":
-        if system == "US" and _NUMBER.fullmatch(t):
-            t = f"{t} psf"
-        return units.parse(_PSF_WORD.sub("lbf/ft**2", t), quantity, system, field=field)
     if quantity == REBAR:
         unit, label, _ = _REBAR_UNITS[system]
         example = f"(for example '300 {label}')"
