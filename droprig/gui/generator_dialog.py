@@ -22,6 +22,7 @@ range in the same units, and OK stays disabled until every field is usable.
 
 from __future__ import annotations
 
+import itertools
 import math
 import re
 from collections.abc import Callable
@@ -149,7 +150,8 @@ def format_spacings(widths: tuple[float, ...], system: str = "SI") -> str:
         j = i
         while j + 1 < len(widths) and math.isclose(widths[j + 1], widths[i], abs_tol=1e-9):
             j += 1
-        w = units.fmt(widths[i], "length", system).replace(",", "")  # type: ignore[arg-type]
+        w = units.fmt(widths[i], "length", system,  # type: ignore[arg-type]
+                      decimals=4).replace(",", "")
         num, unit = w.split(" ", 1)
         num = num.rstrip("0").rstrip(".") if "." in num else num
         w = f"{num} {unit}"
@@ -502,6 +504,54 @@ class GeneratorDialog(QDialog):
             f"{len(g.columns)} columns, {n_g} girders, {n_b} beams.")
 
     # ------------------------------------------------------------- public
+
+    def prefill(self, level: Level) -> None:
+        """Fill the fields from an existing level (to regenerate its framing):
+        spacings (runs collapsed), labels, girder direction, the sections and
+        grades of its first girder and beam, deck and existing loads. The beam
+        spacing is the widest gap between parallel beams inside a bay."""
+        s = self.system
+        g = level.grid
+        xs = tuple(b - a for a, b in zip(g.x_lines[:-1], g.x_lines[1:], strict=True))
+        ys = tuple(b - a for a, b in zip(g.y_lines[:-1], g.y_lines[1:], strict=True))
+        self.level_id.setText(level.id)
+        self.level_name.setText(level.name)
+        self.elevation.setText(fmt_value(level.elevation, "length", s).replace(",", ""))
+        self.x_spacings.setText(format_spacings(xs, s))
+        self.y_spacings.setText(format_spacings(ys, s))
+        self.x_labels.setText(", ".join(g.x_labels))
+        self.y_labels.setText(", ".join(g.y_labels))
+        girders = [m for m in level.members if m.role == "girder"]
+        beams = [m for m in level.members if m.role == "beam"]
+        if girders:
+            self.girder_direction.setCurrentIndex(0 if girders[0].axis == "x" else 1)
+            self.girder_section.setText(girders[0].section.name)
+            self.girder_grade.setCurrentText(girders[0].grade.name)
+        if beams:
+            self.beam_section.setText(beams[0].section.name)
+            self.beam_grade.setCurrentText(beams[0].grade.name)
+            along = "x" if beams[0].axis == "y" else "y"
+            pos = sorted({round(m.start[0] if along == "x" else m.start[1], 6) for m in beams})
+            gaps = [b - a for a, b in itertools.pairwise(pos)]
+            if gaps:
+                spacing = min(max(max(gaps), BEAM_SPACING_RANGE[0]), BEAM_SPACING_RANGE[1])
+                # rounded up in the shown unit: a shown value a hair under the gap
+                # would add a beam when the framing is regenerated
+                d = 3 if s == "SI" else 2
+                mag = units.to_display(spacing, "length", s)  # type: ignore[arg-type]
+                mag = math.ceil(mag * 10 ** d - 1e-6) / 10 ** d
+                unit = units.display_unit("length", s)  # type: ignore[arg-type]
+                self.beam_spacing.setText(f"{mag:.{d}f} {unit}")
+        d = level.deck
+        self.deck_kind.setCurrentIndex(0 if d.kind == "composite" else 1)
+        self.deck_thickness.setText(fmt_value(d.thickness, "small_length", s).replace(",", ""))
+        for name in lib.list_concretes():
+            if lib.get_concrete(name) == d.concrete:
+                self.concrete.setCurrentText(name)
+                break
+        self.superimposed_dead.setText(fmt_value(level.superimposed_dead, "pressure", s))
+        self.live_in_place.setText(fmt_value(level.live_in_place, "pressure", s))
+        self._revalidate()
 
     def errors(self) -> dict[str, str]:
         """Field key -> message for every field that cannot be used."""

@@ -188,3 +188,34 @@ def test_model_level_error_shown(qtbot) -> None:
     d.deck_thickness.setText("50 mm")  # cover 25 mm is not < 50/2 mm
     assert not _ok(d)
     assert "deck.cover" in d.errors()["level"]
+
+
+@pytest.mark.parametrize("system", ["SI", "US"])
+def test_prefill_from_a_generated_level_round_trips(qtbot, system: str) -> None:
+    """Prefilling from a level built by generate_level and pressing OK rebuilds the
+    same framing (grid, labels, direction, members, deck, loads)."""
+    from droprig.io.sections import get_concrete
+    from droprig.model import Deck
+
+    original = generate_level(
+        level_id="L3", name="Level 3", elevation=8.0, x_spacings=(6.0, 6.0, 8.0),
+        y_spacings=(7.0, 7.0), girder_direction="y", beam_spacing=2.0,
+        girder_section=get_section("HEB 300"), beam_section=get_section("IPE 240"),
+        girder_grade=get_grade("S275"), beam_grade=get_grade("S355"),
+        deck=Deck(kind="solid_slab", thickness=0.2, concrete=get_concrete("C30/37")),
+        superimposed_dead=1500.0, live_in_place=500.0,
+        x_labels=("A1", "A2", "A3", "A4"), y_labels=("N", "M", "S"))
+    d = GeneratorDialog(unit_system=system)
+    qtbot.addWidget(d)
+    d.prefill(original)
+    assert _ok(d), d.errors()
+    rebuilt = d.level()
+    assert rebuilt is not None
+    assert rebuilt.grid.x_labels == original.grid.x_labels
+    assert rebuilt.grid.y_labels == original.grid.y_labels
+    assert rebuilt.grid.x_lines == pytest.approx(original.grid.x_lines, abs=1e-4)
+    assert [m.id for m in rebuilt.members] == [m.id for m in original.members]
+    assert rebuilt.deck.kind == "solid_slab"
+    assert rebuilt.deck.thickness == pytest.approx(0.2, abs=0.001)
+    assert rebuilt.superimposed_dead == pytest.approx(1500.0, rel=0.01)
+    assert rebuilt.members[0].section.name == original.members[0].section.name
