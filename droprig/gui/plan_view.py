@@ -680,6 +680,14 @@ class PlanView(QGraphicsView):
             self.viewport().setCursor(Qt.CursorShape.OpenHandCursor)
             event.accept()
             return
+        if event.key() in (Qt.Key.Key_Plus, Qt.Key.Key_Equal):
+            self.zoom_by(1.25)
+            event.accept()
+            return
+        if event.key() in (Qt.Key.Key_Minus, Qt.Key.Key_Underscore):
+            self.zoom_by(0.8)
+            event.accept()
+            return
         if event.key() == Qt.Key.Key_Escape:
             if self._band_origin is not None:
                 self._band_origin = None

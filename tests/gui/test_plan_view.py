@@ -422,12 +422,16 @@ def test_tiny_rubber_band_is_refused(view: PlanView, qtbot) -> None:
 # ----------------------------------------------------------- view chrome
 
 
-def test_fit_zoom_and_caution(view: PlanView, three_outcomes: Results) -> None:
+def test_fit_zoom_and_caution(view: PlanView, qtbot, three_outcomes: Results) -> None:
     view.fit()
     s0 = view.pixels_per_metre()
     view.zoom_by(2.0)
     assert view.pixels_per_metre() == pytest.approx(2 * s0)
     view.fit()
+    assert view.pixels_per_metre() == pytest.approx(s0)
+    qtbot.keyClick(view, Qt.Key.Key_Plus)
+    assert view.pixels_per_metre() == pytest.approx(1.25 * s0)
+    qtbot.keyClick(view, Qt.Key.Key_Minus)
     assert view.pixels_per_metre() == pytest.approx(s0)
     assert view._caution_lines() == []  # no verdict shown, no caution strip
     view.set_results(three_outcomes)
