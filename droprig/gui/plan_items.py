@@ -18,7 +18,7 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 import numpy as np
-from PySide6.QtCore import QPointF, QRectF, Qt
+from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import (
     QBrush,
     QColor,
@@ -298,8 +298,6 @@ class FramingItem(PixelSized, QGraphicsItem):
 
     def paint(self, painter: QPainter, option: QStyleOptionGraphicsItem,
               widget: QWidget | None = None) -> None:
-        from PySide6.QtCore import QLineF
-
         painter.setPen(cosmetic_pen(style.PLAN["beam"], 1.2))
         painter.drawLines([QLineF(a, b) for a, b in self._beams])
         painter.setPen(cosmetic_pen(style.PLAN["girder"], 3.0))

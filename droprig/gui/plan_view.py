@@ -34,6 +34,7 @@ from PySide6.QtCore import QEvent, QPoint, QPointF, QRectF, Qt, Signal
 from PySide6.QtGui import (
     QBrush,
     QColor,
+    QFocusEvent,
     QFontMetricsF,
     QKeyEvent,
     QLinearGradient,
@@ -713,12 +714,13 @@ class PlanView(QGraphicsView):
             return
         super().keyReleaseEvent(event)
 
-    def focusOutEvent(self, event: QEvent) -> None:  # type: ignore[override]
+    def focusOutEvent(self, event: QFocusEvent) -> None:
         self._space = False
         super().focusOutEvent(event)
 
     def mousePressEvent(self, event: QMouseEvent) -> None:
         pos = event.position().toPoint()
+        self.setFocus(Qt.FocusReason.MouseFocusReason)  # so Space and Esc reach the view
         if event.button() == Qt.MouseButton.MiddleButton or (
                 event.button() == Qt.MouseButton.LeftButton and self._space):
             self._pan_last = pos
@@ -772,9 +774,10 @@ class PlanView(QGraphicsView):
         if self._pan_last is not None and event.button() in (
                 Qt.MouseButton.MiddleButton, Qt.MouseButton.LeftButton):
             self._pan_last = None
-            self.viewport().setCursor(Qt.CursorShape.OpenHandCursor if self._space
-                                      else Qt.CursorShape.ArrowCursor)
-            self.set_mode(self._mode) if not self._space else None
+            if self._space:
+                self.viewport().setCursor(Qt.CursorShape.OpenHandCursor)
+            else:
+                self.set_mode(self._mode)  # restores the mode's cursor
             event.accept()
             return
         if self._band_origin is not None and event.button() == Qt.MouseButton.LeftButton:
