@@ -616,7 +616,9 @@ class ZonesItem(PixelSized, QGraphicsItem):
 
     @staticmethod
     def crane_label(z: LiftZone) -> str:
-        return f"CRANE {z.id}" + (f" · {z.name}" if z.name and z.name != z.id else "")
+        name = z.name if len(z.name) <= CRANE_LABEL_CHARS else \
+            z.name[:CRANE_LABEL_CHARS - 1].rstrip() + "…"
+        return f"CRANE {z.id}" + (f" · {name}" if name and z.name != z.id else "")
 
     def _paint_crane(self, painter: QPainter, p: QPointF, mid: float, z: LiftZone,
                      selected: bool) -> None:
@@ -643,20 +645,22 @@ class ZonesItem(PixelSized, QGraphicsItem):
         painter.drawText(plate, Qt.AlignmentFlag.AlignCenter, text)
 
 
+CRANE_LABEL_CHARS = 30
+"""Longest zone name shown beside a crane (the rest elided; the full name is in
+the project tree and the hover text)."""
+
+
 def crane_label_rect(p: QPointF, z: LiftZone) -> QRectF:
     """Device rectangle of a crane's label for the crane drawn at pixel ``p``:
-    on the side away from the jib so it never covers the arc; below the crane
-    for a full circle (whose handles sit east and west of it)."""
+    centred under (or over) the crane, on the side away from the jib's vertical
+    direction, so it never covers the arc and needs little room sideways."""
     text = ZonesItem.crane_label(z)
     tw = QFontMetricsF(pixel_font(11, True)).horizontalAdvance(text) + 8
     mid = z.slew_start + z.slew_sweep / 2
-    if z.slew_sweep >= 2 * math.pi - 1e-9:
-        ux, uy = 0.0, 1.0
-    else:
-        ux, uy = -math.cos(mid), math.sin(mid)
-    cxl, cyl = p.x() + 30 * ux, p.y() + 30 * uy
-    return QRectF(cxl - tw / 2 if abs(ux) < 0.5 else (cxl if ux > 0 else cxl - tw),
-                  cyl - 7.5 if abs(uy) < 0.5 else (cyl if uy > 0 else cyl - 15), tw, 15)
+    below = z.slew_sweep >= 2 * math.pi - 1e-9 or math.sin(mid) >= -0.2
+    # plan +y is screen up: a jib pointing north (sin > 0) puts the label below
+    top = p.y() + 22 if below else p.y() - 22 - 15
+    return QRectF(p.x() - tw / 2, top, tw, 15)
 
 
 # ------------------------------------------------------------------ handles

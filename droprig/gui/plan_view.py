@@ -105,6 +105,8 @@ CLICK_SLOP_PX = 5
 """A press and release closer than this are a click, not a drag."""
 PICK_PX = 14.0
 """A click picks the nearest drop point within this many pixels (or 1.5 cells)."""
+LEGEND_WIDTH = 196.0
+"""px; the legend box in the top right corner."""
 MIN_ZOOM, MAX_ZOOM = 0.2, 4000.0
 """Pixels per metre."""
 
@@ -401,7 +403,7 @@ class PlanView(QGraphicsView):
             return
         vw, vh = self.viewport().width(), self.viewport().height()
         ml, mt = 72.0, 64.0
-        mr = 72.0 + (190.0 if vw > 760 else 0.0)
+        mr = 72.0 + (LEGEND_WIDTH + 14.0 if vw > 760 else 0.0)
         mb = 72.0 + self._caution_height()
 
         def scale() -> float:
@@ -1068,7 +1070,7 @@ class PlanView(QGraphicsView):
 
     def _paint_legend(self, p: QPainter) -> None:
         vw = self.viewport().width()
-        w = 196.0
+        w = LEGEND_WIDTH
         x = vw - w - 10
         y = 10.0
         rows: list[tuple[str, object]] = []
