@@ -485,7 +485,9 @@ class GeneratorDialog(QDialog):
         f.error.setVisible(bool(text))
         if isinstance(f.widget, QLineEdit):
             f.widget.setStyleSheet("border:1px solid #A4003A" if text else "")
-            f.widget.setToolTip(text or f.widget.toolTip())
+            if f.widget.property("help") is None:
+                f.widget.setProperty("help", f.widget.toolTip())
+            f.widget.setToolTip(text or str(f.widget.property("help")))
 
     def _update_summary(self) -> None:
         lv = self._level

@@ -123,8 +123,10 @@ def test_bad_spacing_disables_ok_with_message(qtbot) -> None:
     msg = d.errors()["x_spacings"]
     assert "70.000 m" in msg and "0.500 m to 60.000 m" in msg
     assert d._fields["x_spacings"].error.isVisibleTo(d)
+    assert "0.500 m to 60.000 m" in d.x_spacings.toolTip()
     d.x_spacings.setText("3@7 m")
     assert _ok(d) and "x_spacings" not in d.errors()
+    assert "60" not in d.x_spacings.toolTip() and "n@width" in d.x_spacings.toolTip()
 
 
 def test_us_units_and_girders_along_y(qtbot) -> None:
