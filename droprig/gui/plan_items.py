@@ -373,14 +373,15 @@ class ProtectionItem(PixelSized, QGraphicsItem):
     margin_px = 4.0
 
     def __init__(self, part: str = "area") -> None:
-        """``part``: "area" draws the rectangles (z 4), "label" the names (z 8.6,
-        above the bay labels)."""
+        """``part``: "area" draws the rectangles (z 4), "label" the names (z 7.9,
+        above the overlay and framing but under the bay verdict labels, which
+        matter more where the two meet)."""
         QGraphicsItem.__init__(self)
         PixelSized.__init__(self)
         self._areas: list[ProtectionArea] = []
         self._rect = QRectF()
         self.part = part
-        self.setZValue(4 if part == "area" else 8.6)
+        self.setZValue(4 if part == "area" else 7.9)
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
 
     def set_areas(self, areas: Sequence[ProtectionArea]) -> None:
@@ -431,7 +432,7 @@ class ProtectionItem(PixelSized, QGraphicsItem):
             if dr.width() < 30 or dr.height() < 18:
                 continue
             w = fm.horizontalAdvance(text) + 6
-            plate = QRectF(dr.left() + 3, dr.top() + 3, w, 14)
+            plate = QRectF(dr.left() + 3, dr.bottom() - 17, w, 14)  # clear of bay centres
             painter.fillRect(plate, QColor(255, 255, 255, 220))
             painter.setPen(QColor(style.PLAN["protection_edge"]))
             painter.drawText(plate, Qt.AlignmentFlag.AlignCenter, text)
