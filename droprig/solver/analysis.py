@@ -2,9 +2,13 @@
 
 For each drop point p (vectorised; SI units) and each load (mass M, W = M·g):
 
-1. Load path, compliance f_s(p) and Rayleigh effective mass m_e(p):
-   :mod:`droprig.solver.loadpath`. A spring mat covering p adds 1/k: f = f_s + 1/k
-   (series springs, Engineering ToolBox "Impact Force").
+1. Load path, framing compliance f_s(p) and Rayleigh effective mass m_e(p):
+   :mod:`droprig.solver.loadpath`. The deck itself adds its local indentation under
+   the footprint and the bending of the one-way strip between its two beams,
+   f_deck (:mod:`droprig.solver.contact`), which keeps the force finite over a
+   column or a beam line; a spring mat covering p adds 1/k (series springs,
+   Engineering ToolBox "Impact Force"): f = f_s + f_deck + 1/k. Under a mat or a
+   crushable layer the framing's mass share is not taken (η = 1, conservative).
 2. Free fall h(p) onto the struck surface (deck top, or mat top where a
    protection area covers p): ``LiftLoad.height_above``.
 3. Impact: η = M/(M + m_e), K = 1 + √(1 + 2ηh/(W f)), F = K·W, δmax = K·W·f
@@ -42,7 +46,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from droprig.model import Level, LiftLoad, LiftZone, Project, Settings, bays
-from droprig.solver import beam, capacity, deck, droppoints, impact, limits, plastic
+from droprig.solver import beam, capacity, contact, deck, droppoints, impact, limits, plastic
 from droprig.solver.loadpath import (
     COND_NAMES,
     Frame,
@@ -560,28 +564,41 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
             sel = (t_mat == tm) & (li == j)
             if sel.any():
                 h[sel] = ld.height_above(lv.elevation + float(tm))
+    # ---- footprint on the deck (spread 1:1 through a mat) and bearing on a flange
+    spread = 2.0 * t_mat
+    lb = np.minimum(fl, fw) + spread
+    foot_l, foot_w = fl + spread, fw + spread
+    # ---- compliance: framing + deck (indentation and strip bending) + spring mat
     f_s = path.f
-    f = f_s + f_mat
+    span = path.strip_span
+    pos = path.strip_pos
+    width = deck.deck_effective_width(span, pos, np.maximum(foot_l, foot_w),
+                                      lv.deck.thickness)
+    f_deck = contact.deck_contact_compliance(lv.deck, span, pos, width, foot_l, foot_w,
+                                             s.design_basis)
+    f_struct = f_s + f_deck  # what stands behind a mat
+    f_series = f_deck + f_mat  # elastic springs in series with the yielding framing
+    f = f_struct + f_mat
     m_e = path.m_e if s.include_member_mass else np.zeros(n)
     m_e = np.where(np.isfinite(m_e), m_e, 0.0)
+    # under a mat or a crushable layer the hit on the framing is no longer perfectly
+    # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
+    m_e = np.where(geo.protection >= 0, 0.0, m_e)
     eta = impact.mass_efficiency(M, m_e)
     K, F_el, d_max = impact.impact_elastic(W, h, f, eta)
     F = F_el.copy()
     crush = np.zeros(n)
     bottomed = np.zeros(n, dtype=bool)
     if crushable.any():
-        Fcr, dep, bot = impact.impact_crushable(W[crushable], h[crushable], f_s[crushable],
-                                                eta[crushable], F_c[crushable],
-                                                s_c[crushable])
+        Fcr, dep, bot = impact.impact_crushable(W[crushable], h[crushable],
+                                                f_struct[crushable], eta[crushable],
+                                                F_c[crushable], s_c[crushable])
         F[crushable] = Fcr
         crush[crushable] = dep
         bottomed[crushable] = bot
         K = np.where(crushable, F / W, K)
-        d_max = np.where(crushable, F * f_s + crush, d_max)
+        d_max = np.where(crushable, F * f_struct + crush, d_max)
     d_st = W * f
-    # ---- footprint and bearing
-    spread = 2.0 * t_mat
-    lb = np.minimum(fl, fw) + spread
     # ---- path members: flexure and shear (load-independent candidates)
     ua = _unit_actions(fm, geo)
     mem = path.members
@@ -600,8 +617,6 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     checks["web_yielding"] = _reduce("web_yielding", F, share, zero2, Rwy, mem)
     checks["web_crippling"] = _reduce("web_crippling", F, share, zero2, Rwc, mem)
     # ---- deck flexure (worse of the two footprint orientations) and punching
-    span = path.strip_span
-    pos = path.strip_pos
     thick = lv.deck.thickness
     mu1 = deck.deck_unit_moment_per_width(span, pos, fl + spread, fw + spread, thick)
     mu2 = deck.deck_unit_moment_per_width(span, pos, fw + spread, fl + spread, thick)
@@ -647,7 +662,7 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     d_y = R_p * f
     d_m, _mu_tot, collapsed = plastic.plastic_response(W, h_struct, eta, R_p, d_y)
     with np.errstate(invalid="ignore"):
-        d_struct = np.maximum(d_m - R_p * f_mat, 0.0)
+        d_struct = np.maximum(d_m - R_p * f_series, 0.0)
         d_struct = np.where(np.isfinite(d_m), d_struct, np.inf)
         d_y_s = R_p * f_s
         ductility = np.where(d_y_s > 0, d_struct / np.where(d_y_s > 0, d_y_s, 1.0), np.inf)
@@ -691,16 +706,16 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
         d_rot = np.tan(s.rotation_limit) * np.where(rp_cond == COND_NAMES.index("cantilever"),
                                                    rp_arm, rp_arm)
         d_lim_s = np.minimum(s.ductility_limit * R_p * f_s, d_rot)
-        mu_tot = (d_lim_s + R_p * f_mat) / (R_p * f)
+        mu_tot = (d_lim_s + R_p * f_series) / (R_p * f)
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     h_pl = h_pl + np.where(crushable & (F_c < R_p) & (F_c > W),
                            (F_c - W) * s_c / (eta * W), 0.0)
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0), h_pl, np.nan)
     h_pl = np.fmax(h_pl, h_el)
     m_allow = limits.allowable_mass(Fa_pos, h, f, m_e)
-    k_req = limits.required_mat_stiffness(W, h, eta, Fa_pos, f_s)
+    k_req = limits.required_mat_stiffness(W, h, eta, Fa_pos, f_struct)
     k_req = np.where(np.isfinite(k_req) & (response != ELASTIC), k_req, np.nan)
-    s_req = limits.required_crush_stroke(W, h, eta, Fa_pos, f_s)
+    s_req = limits.required_crush_stroke(W, h, eta, Fa_pos, f_struct)
     s_req = np.where((response != ELASTIC) & np.isfinite(s_req), s_req, np.nan)
     # ---- openings: the load falls through
     op = geo.opening
@@ -729,7 +744,7 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
         out["governing_member"] = np.where(op, DECK, out["governing_member"])
     # intermediates for the trace
     out.update({
-        "_f_s": f_s, "_f_mat": f_mat, "_f": f, "_eta": eta, "_W": W,
+        "_f_s": f_s, "_f_deck": f_deck, "_f_mat": f_mat, "_f": f, "_eta": eta, "_W": W,
         "_t_mat": t_mat, "_lb": lb, "_F_allow": F_allow, "_R_p": R_p,
         "_rp_member": rp_member, "_crush": crush, "_bottomed": bottomed,
         "_h_struct": h_struct, "_d_m": d_m, "_theta": theta, "_ductility": ductility,

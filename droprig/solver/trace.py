@@ -112,10 +112,16 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         {"w1·g1": (g_own[0], "compliance"), "w2·g2": (g_own[1], "compliance"),
          "rᵀDr": (float(path.r[0] @ path.u[0]), "compliance")},
         r["_f_s"][0], "compliance", _SRC_GREEN)
-    if r["_f_mat"][0] > 0:
-        add("Spring mat in series", "f", "f = f_s + 1/k_mat",
-            {"f_s": (r["_f_s"][0], "compliance"), "1/k_mat": (r["_f_mat"][0], "compliance")},
-            r["_f"][0], "compliance", "series springs (Engineering ToolBox, Impact Force)")
+    add("Deck compliance: indentation under the footprint + strip bending", "f_deck",
+        "f_deck = 1/(2a·E/(1 − ν²)) + s²(S − s)²/(3·E·I·S)",
+        {"s": (path.strip_pos[0], "length"), "S": (path.strip_span[0], "length")},
+        r["_f_deck"][0], "compliance",
+        "Sneddon 1965 / Johnson, Contact Mechanics §3.8; AISC Manual Table 3-23 case 8 "
+        "(droprig.solver.contact)")
+    add("Compliance of the struck point", "f", "f = f_s + f_deck + 1/k_mat",
+        {"f_s": (r["_f_s"][0], "compliance"), "f_deck": (r["_f_deck"][0], "compliance"),
+         "1/k_mat": (r["_f_mat"][0], "compliance")},
+        r["_f"][0], "compliance", "series springs (Engineering ToolBox, Impact Force)")
     add("Effective struck mass", "m_e", "m_e = Σ_m ∫ μ_m (w_m(x)/w(p))² dx",
         {}, r["effective_mass"][0], "mass", _SRC_RAYLEIGH)
     M = load.mass
