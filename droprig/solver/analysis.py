@@ -488,6 +488,10 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     intermediate values the calculation trace shows (other keys starting with ``_``).
     """
     n = geo.x.size
+    if n == 0:
+        ints = {"bay", "protection", "governing_member", "governing_check", "response"}
+        return {k: np.zeros(0, dtype=np.int64 if k in ints else float)
+                for k in (*_FIELDS, "_F_allow")}
     chunk = loadpath_chunk()
     keep = None if detail else {*_FIELDS, "_F_allow"}
     with np.errstate(all="ignore"):

@@ -85,6 +85,8 @@ def by_condition(fn, codes: np.ndarray, *args: np.ndarray):
     condition of each element (indices into :data:`COND_NAMES`). ``fn`` may return
     an array or a tuple of arrays; all ``args`` broadcast with ``codes``."""
     codes = np.asarray(codes)
+    if codes.size == 0:
+        return fn(COND_NAMES[0], *args)
     lo, hi = int(codes.min()), int(codes.max())
     if lo == hi:
         return fn(COND_NAMES[lo], *args)

@@ -282,6 +282,18 @@ def test_no_nan_where_a_value_must_exist(busy_project):
         assert b.allowable_drop_height is None or b.allowable_drop_height >= 0
 
 
+def test_nothing_to_assess_gives_empty_results_with_a_warning():
+    level = _one_bay_level()
+    assert analysis.analyse(_project(level, [])).cases == ()
+    res = analysis.analyse(_project(level, [_zone([])]))
+    assert res.cases == () and any("no loads" in w for w in res.warnings)
+    far = LiftZone("Z1", "far", "L1", (500.0, 500.0), 0.0, 5.0,
+                   loads=(LiftLoad("crate", 100.0),))
+    res = analysis.analyse(_project(level, [far]))
+    assert res.cases[0].n == 0 and res.bays == ()
+    assert any("no drop point" in w for w in res.warnings)
+
+
 def test_bay_summary_is_the_worst_point(busy_project):
     res = analysis.analyse(busy_project)
     for case in res.cases:
