@@ -93,6 +93,10 @@ REFINE_TOP = (2, 1, 1)
 MIN_USEFUL_HEIGHT = 0.05
 """A drop height below this (m) is not offered as advice: it cannot be controlled on
 site (common practice, no source)."""
+CACHE_MAX_POINTS = 200_000
+"""Up to this many drop points the load-independent member actions are kept between
+the loads of a zone (about 40 doubles per point); beyond, they are recomputed per
+load so that memory stays bounded."""
 MAX_MAT_TRAVEL = 0.3
 """A spring mat is only offered when it need not compress more than this (m): the
 thickness of a stack of timber crane mats (common practice, no source)."""
@@ -436,10 +440,16 @@ def _web_resistance(fm: FloorModel, fn: Callable[..., np.ndarray], mem: np.ndarr
                     bearing: np.ndarray, dist: np.ndarray) -> np.ndarray:
     s = fm.settings
     out = np.empty(mem.shape)
+    if len(fm.groups) == 1:
+        sec, grd = fm.groups[0]
+        return fn(sec, grd, s.design_basis, bearing, dist, s.resistance_factor,
+                  s.dynamic_increase_factor)
     grp = fm.group[mem]
-    for gi in np.unique(grp):
+    for gi in range(len(fm.groups)):
         sel = grp == gi
-        sec, grd = fm.groups[int(gi)]
+        if not sel.any():
+            continue
+        sec, grd = fm.groups[gi]
         out[sel] = fn(sec, grd, s.design_basis, bearing[sel], dist[sel],
                       s.resistance_factor, s.dynamic_increase_factor)
     return out
@@ -503,7 +513,9 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
             li = None if load_index is None else load_index[sl]
             sub = geo.cache.get(("slice", s))
             if sub is None:
-                sub = geo.cache[("slice", s)] = _slice_geo(geo, sl)
+                sub = _slice_geo(geo, sl)
+                if n <= CACHE_MAX_POINTS:  # keep per-point actions for the next load
+                    geo.cache[("slice", s)] = sub
             part = _select(_evaluate_case(fm, project, load, sub, li), keep)
             for k, v in part.items():
                 if k not in out:
@@ -549,11 +561,13 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     F_c = np.full(n, np.inf)
     s_c = np.zeros(n)
     crushable = np.zeros(n, dtype=bool)
-    for i in np.unique(geo.protection):
-        if i < 0:
+    any_mat = bool(np.any(geo.protection >= 0))
+    for i, pa in enumerate(project.protection_areas):
+        if not any_mat or pa.level_id != lv.id:
             continue
-        pa = project.protection_areas[int(i)]
         sel = geo.protection == i
+        if not sel.any():
+            continue
         t_mat[sel] = pa.thickness
         if pa.kind == "spring":
             f_mat[sel] = 1.0 / float(pa.stiffness)  # type: ignore[arg-type]
@@ -563,11 +577,14 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
             s_c[sel] = float(pa.crush_stroke)  # type: ignore[arg-type]
     # ---- drop height onto the struck surface
     h = np.empty(n)
-    for tm in np.unique(t_mat):
-        for j, ld in enumerate(loads):
-            sel = (t_mat == tm) & (li == j)
-            if sel.any():
-                h[sel] = ld.height_above(lv.elevation + float(tm))
+    for j, ld in enumerate(loads):
+        sel = li == j if len(loads) > 1 else slice(None)
+        if ld.drop_height is not None:
+            h[sel] = ld.drop_height
+            continue
+        surf = lv.elevation + t_mat[sel]
+        ld.height_above(float(np.max(surf, initial=lv.elevation)))  # refuses h < 0
+        h[sel] = ld.hook_elevation - ld.hang_length - surf
     # ---- footprint on the deck (spread 1:1 through a mat) and bearing on a flange
     spread = 2.0 * t_mat
     lb = np.minimum(fl, fw) + spread
