@@ -907,7 +907,7 @@ def _fmt_stiff(v: float, system: str) -> str:
 
 def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
                U: float, load: LiftLoad, planned: float, system: str,
-               mat_travel: float | None = None) -> str:
+               mat_travel: float | None = None, h_elastic: float | None = None) -> str:
     """The plain-language advice for one bay: no protection, a drop-height limit, a
     spring mat (no stiffer than k; it compresses up to ``mat_travel``), or an
     exclusion zone. Numbers in the project's unit system (SI or US customary)."""
@@ -922,7 +922,11 @@ def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | 
             if resp == PLASTIC else "")
     options = []
     if h_allow is not None and h_allow >= MIN_USEFUL_HEIGHT and resp == EXCEEDS:
-        options.append(f"limit the drop height to {_fmt_len(h_allow, system)}")
+        text = f"limit the drop height to {_fmt_len(h_allow, system)}"
+        if h_elastic is not None and h_allow > 1.01 * h_elastic:
+            text += (" (members may then yield within the ductility and rotation limits; "
+                     f"{_fmt_len(h_elastic, system)} keeps them elastic)")
+        options.append(text)
     if (k_mat is not None and math.isfinite(k_mat) and k_mat > 0
             and (mat_travel is None or mat_travel <= MAX_MAT_TRAVEL)):
         travel = (f"; it must be able to compress {_fmt_small(mat_travel, system)}"
@@ -980,7 +984,7 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
         gm = int(case.governing_member[i])
         n_open = int(np.sum(case.governing_check[idx] == CHECK["opening"]))
         advice = bay_advice(worst, n_open, h_pl if worst == EXCEEDS else h_el, k_mat, U_max,
-                            load, case.planned_drop_height, system, travel)
+                            load, case.planned_drop_height, system, travel, h_el)
         out.append(BaySummary(
             level_id=level.id, bay_id=all_bays[b].id, zone_id=zone.id,
             load_name=load.name, n_points=int(idx.size), max_utilisation=U_max,

@@ -282,6 +282,23 @@ def test_no_nan_where_a_value_must_exist(busy_project):
         assert b.allowable_drop_height is None or b.allowable_drop_height >= 0
 
 
+@pytest.mark.parametrize("resp, n_open, h, k, travel, words", [
+    (ELASTIC, 0, 2.0, None, None, "No protection needed"),
+    (EXCEEDS, 0, 0.4, None, None, "limit the drop height to 0.4 m"),
+    (EXCEEDS, 0, None, 3e6, 0.05, "no stiffer than 3 kN/mm"),
+    (EXCEEDS, 0, None, 3e6, 2.0, "Keep clear: exclusion zone"),  # mat would bottom out
+    (EXCEEDS, 0, 0.01, None, None, "Keep clear: exclusion zone"),  # uncontrollable height
+    (EXCEEDS, 2, 1.0, 3e6, 0.05, "deck opening"),
+    (PLASTIC, 0, 0.5, 3e6, 0.05, "Members yield but stay within"),
+])
+def test_bay_advice_wording(resp, n_open, h, k, travel, words):
+    # plain-language outcomes for a safety officer (team brief; common practice,
+    # no source for the 0.05 m and 0.3 m practicality thresholds)
+    load = LiftLoad("crate", 500.0)
+    text = analysis.bay_advice(resp, n_open, h, k, 1.5, load, 1.0, "SI", travel)
+    assert words in text
+
+
 def test_nothing_to_assess_gives_empty_results_with_a_warning():
     level = _one_bay_level()
     assert analysis.analyse(_project(level, [])).cases == ()
