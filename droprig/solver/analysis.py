@@ -438,20 +438,32 @@ def _loaded_existing_moment(fm: FloorModel, mem: np.ndarray, xs: np.ndarray) -> 
 
 def _web_resistance(fm: FloorModel, fn: Callable[..., np.ndarray], mem: np.ndarray,
                     bearing: np.ndarray, dist: np.ndarray) -> np.ndarray:
+    """Web resistance of each deck member under the load (N). Beyond twice the
+    section depth from an end every clause used gives its interior value (AISC
+    360-16 J10.2 beyond d, J10.3 beyond d/2; EN 1993-1-5 §6 type (c) only within
+    c < 2h_w/3 − s_s), so that value is computed once per (section, bearing) and the
+    clause is evaluated point by point only near the ends."""
     s = fm.settings
     out = np.empty(mem.shape)
-    if len(fm.groups) == 1:
-        sec, grd = fm.groups[0]
-        return fn(sec, grd, s.design_basis, bearing, dist, s.resistance_factor,
-                  s.dynamic_increase_factor)
-    grp = fm.group[mem]
+    grp = fm.group[mem] if len(fm.groups) > 1 else np.zeros(mem.shape, dtype=np.int64)
     for gi in range(len(fm.groups)):
         sel = grp == gi
         if not sel.any():
             continue
         sec, grd = fm.groups[gi]
-        out[sel] = fn(sec, grd, s.design_basis, bearing[sel], dist[sel],
-                      s.resistance_factor, s.dynamic_increase_factor)
+        b, d = bearing[sel], dist[sel]
+        r = np.empty(b.shape)
+        near = d < 2.0 * sec.d  # type: ignore[attr-defined]
+        if near.any():
+            r[near] = fn(sec, grd, s.design_basis, b[near], d[near], s.resistance_factor,
+                         s.dynamic_increase_factor)
+        far = ~near
+        if far.any():
+            ub, inv = np.unique(b[far], return_inverse=True)
+            r_int = fn(sec, grd, s.design_basis, ub, np.full(ub.shape, 1e3),
+                       s.resistance_factor, s.dynamic_increase_factor)
+            r[far] = np.asarray(r_int)[inv]
+        out[sel] = r
     return out
 
 

@@ -299,6 +299,28 @@ def test_bay_advice_wording(resp, n_open, h, k, travel, words):
     assert words in text
 
 
+@pytest.mark.parametrize("basis", ["aisc360", "en1993"])
+def test_web_resistance_shortcut_equals_the_clause(basis):
+    # away from the ends AISC 360-16 J10.2/J10.3 and EN 1993-1-5 §6 give their
+    # interior values; the shortcut must reproduce the clause everywhere
+    from droprig.solver import capacity
+
+    level = _one_bay_level()
+    fm = analysis.build_floor(level, Settings(design_basis=basis))
+    rng = np.random.default_rng(5)
+    n = 400
+    mem = rng.integers(0, len(level.members), (n, 2))
+    lb = np.repeat(rng.choice([0.1, 0.5, 1.2], n)[:, None], 2, axis=1)
+    dist = rng.uniform(0.0, 3.0, (n, 2))
+    for fn in (capacity.web_local_yielding, capacity.web_crippling):
+        got = analysis._web_resistance(fm, fn, mem, lb, dist)
+        for i in range(0, n, 37):
+            for k in range(2):
+                m = level.members[mem[i, k]]
+                want = fn(m.section, m.grade, basis, lb[i, k], dist[i, k])
+                assert got[i, k] == pytest.approx(float(want), rel=1e-12)
+
+
 def test_nothing_to_assess_gives_empty_results_with_a_warning():
     level = _one_bay_level()
     assert analysis.analyse(_project(level, [])).cases == ()
