@@ -296,7 +296,15 @@ class _Family:
         self.ut = np.ascontiguousarray(unit) / self.R
         self.Et = np.ascontiguousarray(exist) / self.R
         self.member = np.ascontiguousarray(member)
-        fa = _f_allow(np.ones_like(self.ut), self.ut, self.Et)
+        # F_allow per candidate with R = 1: (1 − sign(ut)·Et)/|ut|, ∞ where ut = 0,
+        # −1 where the existing demand alone exceeds the resistance
+        au = np.abs(self.ut)
+        num = np.sign(self.ut)
+        num *= self.Et
+        np.subtract(1.0, num, out=num)
+        fa = np.full(au.shape, np.inf)
+        np.divide(num, au, out=fa, where=au > 0.0)
+        fa[np.abs(self.Et) > 1.0] = -1.0
         self.fa = fa
         self.F_allow = fa.min(axis=0)
 
