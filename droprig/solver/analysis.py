@@ -1053,6 +1053,9 @@ def analyse_zone(project: Project, zone_id: str,
     x, y = droppoints.base_points(fm.frame, zone, project.settings.grid_resolution)
     if x.size == 0:
         warnings.append(f"zone {zone.id}: no drop point over the deck of level {level.id}")
+    elif droppoints.reaches_off_deck(fm.frame, zone, project.settings.grid_resolution):
+        warnings.append(f"zone {zone.id}: part of the zone lies beyond the deck of level "
+                        f"{level.id}; drops there are not assessed by droprig")
     base = point_geometry(fm, project, x, y)
     cases = []
     summaries: list[BaySummary] = []

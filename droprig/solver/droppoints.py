@@ -37,6 +37,7 @@ __all__ = [
     "in_zone",
     "line_points",
     "project_into_zone",
+    "reaches_off_deck",
     "zone_distance",
 ]
 
@@ -370,6 +371,20 @@ def base_points(frame: Frame, zone: LiftZone, resolution: float) -> tuple[np.nda
     keep = in_zone(zone, x, y) & (locate(frame, x, y) >= 0)
     x, y = x[keep], y[keep]
     return dedupe(x, y)
+
+
+def reaches_off_deck(frame: Frame, zone: LiftZone, resolution: float) -> bool:
+    """True when part of the widened zone lies beyond the deck panels of the level
+    (sampled on a grid of ``resolution``, or coarser for a large zone — at most about
+    150 × 150 samples): drops there are not assessed here."""
+    bx0, by0, bx1, by1 = _zone_bbox(zone)
+    step = max(resolution, (bx1 - bx0) / 150.0, (by1 - by0) / 150.0)
+    gx = np.arange(bx0, bx1 + step, step)
+    gy = np.arange(by0, by1 + step, step)
+    GX, GY = np.meshgrid(gx, gy)
+    x, y = GX.ravel(), GY.ravel()
+    inz = in_zone(zone, x, y)
+    return bool(np.any(inz & (locate(frame, x, y) < 0)))
 
 
 def dedupe(x: np.ndarray, y: np.ndarray, tol: float = 1e-6) -> tuple[np.ndarray, np.ndarray]:

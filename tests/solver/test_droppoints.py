@@ -132,3 +132,10 @@ def test_zone_off_the_deck_has_no_points(frame):
     z = LiftZone("Z", "z", "L", (100.0, 100.0), 0.0, 5.0)
     x, _ = droppoints.base_points(frame, z, 0.5)
     assert x.size == 0
+
+
+def test_zone_reaching_beyond_the_deck_is_flagged(frame):
+    inside = LiftZone("Z", "z", "L", (8.0, 6.0), 0.0, 3.0, drift_margin=0.0)
+    outside = LiftZone("Z", "z", "L", (15.0, 6.0), 0.0, 3.0, drift_margin=0.0)
+    assert not droppoints.reaches_off_deck(frame, inside, 0.5)
+    assert droppoints.reaches_off_deck(frame, outside, 0.5)
