@@ -866,10 +866,13 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
     nl = len(loads)
     nb = base.x.size
     li = np.repeat(np.arange(nl), nb)
-    # one pass per load over the same points: the load-independent actions are
-    # computed once and cached on ``base``
-    parts = [evaluate_case(fm, project, ld, base) for ld in loads]
-    res = {k: np.concatenate([p[k] for p in parts]) for k in parts[0]}
+    # all loads in one pass over the base points repeated once per load; the
+    # load-independent actions are computed once and repeated with them
+    if nb <= CACHE_MAX_POINTS:
+        res = evaluate_case(fm, project, loads, _tile(fm, base, nl), li)
+    else:
+        parts = [evaluate_case(fm, project, ld, base) for ld in loads]
+        res = {k: np.concatenate([p[k] for p in parts]) for k in parts[0]}
     res["_load"] = li
     step = fm.settings.grid_resolution
     known = _keys(res["x"], res["y"], li)
@@ -889,6 +892,31 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
         r2["_load"] = lj
         res = _merge(res, r2)
     return res
+
+
+def _tile(fm: FloorModel, geo: Geometry, k: int) -> Geometry:
+    """``geo`` repeated ``k`` times (one copy per load), with its load-independent
+    member actions computed once and repeated alongside."""
+    if k == 1:
+        return geo
+    ua = _unit_actions(fm, geo)
+    p = geo.path
+    path = PathResult(**{f: np.concatenate([getattr(p, f)] * k)
+                         for f in p.__dataclass_fields__})
+    out = Geometry(np.tile(geo.x, k), np.tile(geo.y, k), path, np.tile(geo.bay, k),
+                   np.tile(geo.protection, k), np.tile(geo.opening, k))
+    tiled: dict[str, object] = {}
+    for key, v in ua.items():
+        if isinstance(v, _Family):
+            fam = object.__new__(_Family)
+            for attr in ("R", "ut", "Et", "member", "fa"):
+                setattr(fam, attr, np.tile(getattr(v, attr), (1, k)))
+            fam.F_allow = np.tile(v.F_allow, k)
+            tiled[key] = fam
+        else:
+            tiled[key] = np.tile(v, k)  # type: ignore[arg-type]
+    out.cache["ua"] = tiled
+    return out
 
 
 def _planned_height(load: LiftLoad, level: Level) -> float:
