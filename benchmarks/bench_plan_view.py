@@ -58,7 +58,7 @@ def _results(project, n: int):
         np.zeros(k, dtype=int), np.where(u > 1.3, 2, np.where(u > 1.0, 1, 0)),
         3.0 - 2 * u, 3.5 - 2 * u, z, z, z, z, z, z)
     sums = tuple(BaySummary("R", b.id, "Z1", "Demo load", 1, 0.5, "elastic", 1.0, 1.0,
-                            b.rect.x0, b.rect.y0, "", "flexure", "") for b in bl)
+                            b.rect.x0, b.rect.y0, "", "flexure", "none") for b in bl)
     return Results((case,), sums)
 
 

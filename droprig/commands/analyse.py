@@ -62,10 +62,20 @@ def _clean(obj: Any) -> Any:
 
 
 def results_document(project: Any, results: Any) -> dict[str, Any]:
-    """The JSON document of ``droprig analyse --json`` (SI units)."""
+    """The JSON document of ``droprig analyse --json`` (SI units).
+
+    Per bay: the :class:`~droprig.solver.results.BaySummary` fields (SI; the
+    structured advice is ``advice_kind`` with ``height_limit``,
+    ``height_limit_yields``, ``mat_stiffness_max``, ``mat_travel`` and
+    ``planned_drop_height``) and ``advice``: the words, with numbers in the
+    project's unit system (:func:`droprig.advice.advice_text`)."""
+    from droprig.advice import advice_text
+
+    system = project.settings.unit_system
     bays_out = []
     for b in results.bays:
         d = asdict(b)
+        d["advice"] = advice_text(b, system)
         d["lift"] = b.zone_id
         d["level"] = b.level_id
         d["max_utilisation_unbounded"] = not math.isfinite(b.max_utilisation)
@@ -120,6 +130,8 @@ def csv_text(project: Any, results: Any) -> str:
 
 def table_text(project: Any, results: Any) -> str:
     """Readable per-bay table in the project's unit system."""
+    from droprig.advice import advice_text
+    from droprig.outcomes import fmt_utilisation
     from droprig.units import fmt
 
     system = project.settings.unit_system
@@ -127,9 +139,8 @@ def table_text(project: Any, results: Any) -> str:
             "Governing")
     rows = []
     for b in results.bays:
-        U = b.max_utilisation
         rows.append((b.zone_id, b.load_name, b.bay_id, str(b.n_points),
-                     f"{U:.2f}" if math.isfinite(U) else "unbounded", b.response,
+                     fmt_utilisation(b.max_utilisation), b.response,
                      fmt(b.allowable_drop_height, "length", system),
                      f"{b.governing_member} / {b.governing_check.replace('_', ' ')}"))
     widths = [max(len(h), *(len(r[i]) for r in rows)) if rows else len(h)
@@ -144,7 +155,7 @@ def table_text(project: Any, results: Any) -> str:
     out.append("")
     out.append("Advice per bay:")
     for b in results.bays:
-        out.append(f"  {b.zone_id} / {b.load_name} / {b.bay_id}: {b.advice}")
+        out.append(f"  {b.zone_id} / {b.load_name} / {b.bay_id}: {advice_text(b, system)}")
     for wmsg in results.warnings:
         out.append(f"Warning: {wmsg}")
     out.append("")

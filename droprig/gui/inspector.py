@@ -16,6 +16,7 @@ import math
 import re
 from collections.abc import Callable
 from dataclasses import dataclass, field, replace
+from html import escape as html_escape
 from typing import Any
 
 from PySide6.QtCore import Qt, Signal
@@ -39,10 +40,10 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
+from droprig.advice import advice_text
 from droprig.gui import commands as ed
 from droprig.gui import style
 from droprig.gui.document import Document, Selection, resolve
-from droprig.gui.results_table import fmt_utilisation
 from droprig.model import (
     END_CONDITIONS,
     Deck,
@@ -55,6 +56,7 @@ from droprig.model import (
     ProtectionArea,
     Rect,
 )
+from droprig.outcomes import fmt_utilisation
 
 # ------------------------------------------------------------------ messages
 
@@ -897,9 +899,10 @@ class Inspector(QWidget):
                 st = style.outcome(b.response)
                 allow = units.fmt(b.allowable_drop_height, "length", system)
                 html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
-                         f"{b.load_name}<br>max utilisation {fmt_utilisation(b.max_utilisation)}; "
+                         f"{b.load_name}<br>max U {fmt_utilisation(b.max_utilisation)}; "
                          f"allowable drop {allow}<br>governing: {b.governing_member} "
-                         f"({b.governing_check.replace('_', ' ')})<br><i>{b.advice}</i></p>")
+                         f"({b.governing_check.replace('_', ' ')})<br>"
+                         f"<i>{html_escape(advice_text(b, system))}</i></p>")
         html += f"<p style='color:#6B4E00'>⚠ {style.CAUTION_SHORT}.</p>"
         self._extra.setText(html)
         self._extra.setVisible(True)

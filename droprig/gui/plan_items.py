@@ -40,6 +40,7 @@ from PySide6.QtWidgets import (
 
 from droprig.gui import style
 from droprig.model import Bay, Level, LiftZone, ProtectionArea, Rect
+from droprig.outcomes import fmt_utilisation
 
 # ------------------------------------------------------------------ helpers
 
@@ -131,12 +132,8 @@ class BayState:
 
 
 def fmt_ratio(u: float | None) -> str:
-    """Utilisation as text: two decimals, ``none`` for missing, ``>99`` for huge."""
-    if u is None or (isinstance(u, float) and math.isnan(u)):
-        return "none"
-    if math.isinf(u) or u > 99.0:
-        return ">99"
-    return f"{u:.2f}"
+    """Utilisation as text everywhere in droprig (:func:`droprig.outcomes.fmt_utilisation`)."""
+    return fmt_utilisation(u)
 
 
 def utilisation_line(s: BayState) -> tuple[str, str]:

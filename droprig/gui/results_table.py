@@ -34,9 +34,11 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
+from droprig.advice import advice_text
 from droprig.gui import style
 from droprig.gui.document import Document, Selection
 from droprig.model import Project
+from droprig.outcomes import fmt_utilisation
 from droprig.solver.results import BaySummary, Results
 
 SORT_ROLE = Qt.ItemDataRole.UserRole + 1
@@ -47,7 +49,7 @@ COLUMNS: tuple[tuple[str, str], ...] = (
     ("zone", "Zone"),
     ("load", "Load"),
     ("outcome", "Outcome"),
-    ("util", "Max utilisation"),
+    ("util", "Max U"),
     ("allow", "Allowable drop (yielding)"),
     ("planned", "Planned drop"),
     ("governing", "Governing member · check"),
@@ -58,7 +60,8 @@ COL = {key: i for i, (key, _) in enumerate(COLUMNS)}
 _TIPS = {
     "outcome": "Worst response of any drop point in the bay. E: stays elastic, "
                "Y: yields within limits, X: exceeds limits.",
-    "util": "Largest demand / capacity of any check at any drop point in the bay",
+    "util": "Maximum utilisation U = demand / resistance of any check at any drop point "
+            "in the bay, as a ratio: above 1.00 a check is exceeded; '> 99' beyond 99",
     "allow": "Greatest free fall that keeps every point of the bay elastic; in brackets "
              "the greatest that keeps it within the ductility and rotation limits, where "
              "that is more",
@@ -80,18 +83,6 @@ def outcome_icon(key: str, size: int = 14) -> QIcon:
     p.drawRect(r)
     p.end()
     return QIcon(pm)
-
-
-def fmt_utilisation(u: float | None) -> str:
-    """Utilisation as a percentage; above 999 % just "> 999 %", infinite (no
-    capacity left for the impact) "no capacity", nan "none"."""
-    if u is None or u != u:
-        return "none"
-    if math.isinf(u):
-        return "no capacity"
-    if u > 9.99:
-        return "> 999 %"
-    return f"{u:.0%}".replace("%", " %")
 
 
 def _fin(v: float | None) -> float | None:
@@ -165,7 +156,9 @@ class BayResultsModel(QAbstractTableModel):
             if key == "outcome":
                 return style.outcome(b.response).meaning
             if key == "advice":
-                return b.advice
+                return advice_text(b, self._system)
+            if key == "util":
+                return _TIPS["util"]
             return None
         if role == Qt.ItemDataRole.FontRole and key in ("outcome", "util") and (
                 b.response == "exceeds" or b.max_utilisation > 1.0):
@@ -203,7 +196,7 @@ class BayResultsModel(QAbstractTableModel):
         if key == "governing":
             return f"{b.governing_member} · {b.governing_check.replace('_', ' ')}"
         if key == "advice":
-            return b.advice
+            return advice_text(b, s)
         return ""
 
     def _sort(self, b: BaySummary, key: str) -> Any:

@@ -1,7 +1,10 @@
-"""droprig's visual language: outcome colours, labels and hatches, overlay ramps.
+"""droprig's visual language in Qt: outcome colours, labels and hatches, overlay ramps.
 
-Shared by every view that shows a verdict (plan view, results table, legend,
-inspector) so an outcome always looks and reads the same.
+The data (names, words, tags, hex colours, hatch kinds, ramps) live in the Qt-free
+:mod:`droprig.outcomes`, which the printed annex reads as well; this module turns
+them into QColors, brushes and pens. Shared by every view that shows a verdict
+(plan view, results table, legend, inspector) so an outcome always looks and
+reads the same.
 
 Design rules (our own):
 
@@ -25,18 +28,25 @@ from dataclasses import dataclass
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QBrush, QColor, QPen
 
+from droprig import outcomes
+
 # ---------------------------------------------------------------- outcomes
+
+HATCH_STYLE: dict[str, Qt.BrushStyle] = {
+    "none": Qt.BrushStyle.NoBrush,
+    "diagonal": Qt.BrushStyle.BDiagPattern,
+    "cross": Qt.BrushStyle.DiagCrossPattern,
+    "dots": Qt.BrushStyle.Dense7Pattern,
+}
+"""Qt brush pattern of each hatch kind of :mod:`droprig.outcomes`."""
 
 
 @dataclass(frozen=True)
 class OutcomeStyle:
-    """How one response state is drawn and named.
+    """One outcome of :mod:`droprig.outcomes` with its Qt brushes and pens.
 
-    key: the solver's response string (``droprig.solver.results.RESPONSES``)
-    or ``"none"``. label: short words for tables and legends. tag: one
-    character drawn inside a bay. meaning: one sentence for tooltips and the
-    legend. fill/ink: hex colours (area fill, text and outline on that fill).
-    hatch: the Qt brush pattern laid over the fill.
+    key, label, tag, meaning, fill, edge, ink: as :class:`droprig.outcomes.Outcome`;
+    hatch: the Qt brush pattern of its hatch kind (``hatch_kind``).
     """
 
     key: str
@@ -47,6 +57,12 @@ class OutcomeStyle:
     edge: str
     ink: str
     hatch: Qt.BrushStyle
+    hatch_kind: str
+
+    @classmethod
+    def of(cls, o: outcomes.Outcome) -> OutcomeStyle:
+        return cls(o.key, o.label, o.tag, o.meaning, o.fill, o.edge, o.ink,
+                   HATCH_STYLE[o.hatch], o.hatch)
 
     def fill_color(self, alpha: int = 255) -> QColor:
         c = QColor(self.fill)
@@ -70,56 +86,13 @@ class OutcomeStyle:
         return pen
 
 
-OUTCOME_NONE = "none"
+OUTCOME_NONE = outcomes.NOT_ASSESSED
 
-OUTCOMES: dict[str, OutcomeStyle] = {
-    "elastic": OutcomeStyle(
-        key="elastic",
-        label="Stays elastic",
-        tag="E",
-        meaning="Every check at or below 100 %: the framing springs back.",
-        fill="#4F8CC2",
-        edge="#173F66",
-        ink="#06182B",
-        hatch=Qt.BrushStyle.NoBrush,
-    ),
-    "plastic": OutcomeStyle(
-        key="plastic",
-        label="Yields, within limits",
-        tag="Y",
-        meaning="Bending capacity exceeded; permanent set within the ductility and "
-                "rotation limits. Expect damage to repair.",
-        fill="#F2C572",
-        edge="#8A5A00",
-        ink="#3D2800",
-        hatch=Qt.BrushStyle.BDiagPattern,
-    ),
-    "exceeds": OutcomeStyle(
-        key="exceeds",
-        label="Exceeds limits",
-        tag="X",
-        meaning="A brittle check fails, a limit is passed, the path collapses or the "
-                "load falls through an opening. Not acceptable as planned.",
-        fill="#7B2D5E",
-        edge="#3E0F2C",
-        ink="#FFFFFF",
-        hatch=Qt.BrushStyle.DiagCrossPattern,
-    ),
-    OUTCOME_NONE: OutcomeStyle(
-        key=OUTCOME_NONE,
-        label="Not assessed",
-        tag="–",
-        meaning="No drop point of any lift zone falls in this bay, or the analysis has "
-                "not run.",
-        fill="#E4E4E0",
-        edge="#8C8C86",
-        ink="#3A3A36",
-        hatch=Qt.BrushStyle.Dense7Pattern,
-    ),
-}
-"""Outcome styles by response key, best to worst, then ``"none"``."""
+OUTCOMES: dict[str, OutcomeStyle] = {k: OutcomeStyle.of(o) for k, o in outcomes.OUTCOMES.items()}
+"""Outcome styles by response key, best to worst, then ``"none"`` (from
+:data:`droprig.outcomes.OUTCOMES`)."""
 
-OUTCOME_ORDER: tuple[str, ...] = ("elastic", "plastic", "exceeds")
+OUTCOME_ORDER: tuple[str, ...] = outcomes.ORDER
 """Response keys from best to worst (same order as the solver's RESPONSES)."""
 
 
@@ -130,33 +103,15 @@ def outcome(key: str | None) -> OutcomeStyle:
 
 def worst(keys: list[str] | tuple[str, ...]) -> str:
     """The worst of several response keys (``"none"`` if the list is empty)."""
-    ranked = [k for k in keys if k in OUTCOME_ORDER]
-    if not ranked:
-        return OUTCOME_NONE
-    return max(ranked, key=OUTCOME_ORDER.index)
+    return outcomes.worst(keys)
 
 
 # ------------------------------------------------------------ overlay ramps
 
-# Sequential ramp for utilisation (0 → 1 → beyond): pale to deep, single hue
-# family (blue → plum) so it reads in greyscale; the step past 100 % jumps to
-# the "exceeds" colour and gains the cross-hatch.
-_UTIL_STOPS: tuple[tuple[float, str], ...] = (
-    (0.0, "#EEF3F8"),
-    (0.5, "#9CC6E8"),
-    (0.8, "#4F8CC2"),
-    (1.0, "#2B4F85"),
-)
-
-_DROP_STOPS: tuple[tuple[float, str], ...] = (
-    # allowable drop height (m): short is bad (dark), tall is good (pale)
-    (0.0, "#3E0F2C"),
-    (0.25, "#7B2D5E"),
-    (0.5, "#C0733A"),
-    (1.0, "#F2C572"),
-    (2.0, "#CFE3F1"),
-    (4.0, "#F4F8FB"),
-)
+# Ramps of droprig.outcomes: utilisation pale to deep (past 1.0 the "exceeds"
+# colour and cross-hatch); allowable drop height dark (short) to pale (tall).
+_UTIL_STOPS = outcomes.UTILISATION_STOPS
+_DROP_STOPS = outcomes.DROP_HEIGHT_STOPS
 
 
 def _lerp(stops: tuple[tuple[float, str], ...], v: float) -> QColor:

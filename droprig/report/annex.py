@@ -31,6 +31,7 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 from droprig import __version__
+from droprig.advice import advice_text
 from droprig.model import Level, LiftZone, Member, Project
 from droprig.report import content, fonts
 from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, is_none, substitute_all
@@ -605,7 +606,7 @@ class _Builder:
                            f"{self.v(b.governing_y, 'length')})"),
                     fmt_allow(b.allowable_drop_height, "length", self.sys),
                     fmt_allow(b.allowable_drop_height_plastic, "length", self.sys),
-                    self.P(esc(b.advice), st.tiny),
+                    self.P(esc(advice_text(b, self.sys)), st.tiny),
                 ])
                 extra.append(_outcome_bg(b.response, 2, i + 1))
             w = self.w
@@ -807,7 +808,8 @@ class _Builder:
         extra.append(_outcome_bg(tr.response, 1, len(rows) - 1))
         rows.append([self.P("Governing member · check"),
                      self.P(esc(f"{tr.governing_member} · {tr.governing_check}"))])
-        rows.append([self.P("Advice for the bay"), self.P(esc(sh.ref.summary.advice))])
+        rows.append([self.P("Advice for the bay"),
+                     self.P(esc(advice_text(sh.ref.summary, self.sys)))])
         return [self.P("Outcome", st.h2),
                 _table(rows, [0.4 * self.w, 0.6 * self.w], extra=extra)]
 

@@ -12,53 +12,17 @@ import math
 from collections.abc import Iterable
 from dataclasses import dataclass
 
+from droprig import outcomes
 from droprig.model import Level, LiftZone, ModelError, Project, bays
 from droprig.solver.results import RESPONSES, BaySummary, CaseResult, Results
 
-NOT_ASSESSED = "none"
+NOT_ASSESSED = outcomes.NOT_ASSESSED
 
+OutcomeStyle = outcomes.Outcome
+"""How an outcome is named and drawn in print: :class:`droprig.outcomes.Outcome`,
+the same visual language as the desktop plan."""
 
-@dataclass(frozen=True)
-class OutcomeStyle:
-    """How an outcome is named and drawn in print.
-
-    The same visual language as the desktop plan (``droprig/gui/style.py``,
-    which this module cannot import because ``report`` must stay free of Qt):
-    blue / amber / plum told apart by lightness as well as hue, each paired with
-    a word, a one-letter tag and a hatch that gets denser as the outcome gets
-    worse, so the plan reads under colour-vision deficiency and in grey print.
-    """
-
-    key: str
-    label: str
-    tag: str
-    meaning: str
-    fill: str
-    edge: str
-    ink: str
-    hatch: str  # "none" | "diagonal" | "cross" | "dots"
-
-
-OUTCOMES: dict[str, OutcomeStyle] = {
-    "elastic": OutcomeStyle(
-        "elastic", "Stays elastic", "E",
-        "Every check at or below 100 %: the framing springs back.",
-        "#4F8CC2", "#173F66", "#06182B", "none"),
-    "plastic": OutcomeStyle(
-        "plastic", "Yields, within limits", "Y",
-        "Bending capacity exceeded; permanent set within the ductility and rotation "
-        "limits. Expect damage to repair.",
-        "#F2C572", "#8A5A00", "#3D2800", "diagonal"),
-    "exceeds": OutcomeStyle(
-        "exceeds", "Exceeds limits", "X",
-        "A brittle check fails, a limit is passed, the path collapses or the load falls "
-        "through an opening. Not acceptable as planned.",
-        "#7B2D5E", "#3E0F2C", "#FFFFFF", "cross"),
-    NOT_ASSESSED: OutcomeStyle(
-        NOT_ASSESSED, "Not assessed", "–",
-        "No drop point of the lift zones in this annex falls in this bay.",
-        "#E4E4E0", "#8C8C86", "#3A3A36", "dots"),
-}
+OUTCOMES: dict[str, OutcomeStyle] = outcomes.OUTCOMES
 
 
 def rank(response: str) -> int:

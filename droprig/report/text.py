@@ -14,6 +14,7 @@ from functools import lru_cache
 from xml.sax.saxutils import escape
 
 from droprig import units
+from droprig.outcomes import fmt_utilisation
 from droprig.units import UnitSystem
 
 SMALL_LENGTH_BELOW = 0.1
@@ -21,8 +22,6 @@ SMALL_LENGTH_BELOW = 0.1
 their significant figures (common practice, no source)."""
 
 
-UTIL_CAP = 1000.0
-"""Utilisations from this value print as ``> 999``."""
 HUGE = 1e9
 """Display magnitudes from this size print in powers of ten (no 19-digit numbers)."""
 PSF = 4.4482216152605 / 0.3048**2
@@ -102,20 +101,9 @@ def fmt_unit(quantity: str, system: UnitSystem) -> str:
 
 
 def fmt_util(u: float | None) -> str:
-    """Utilisation as a ratio with two decimals (``1.37``), whole from 100,
-    ``> 999`` from :data:`UTIL_CAP` (the exact figure no longer matters and must
-    fit a narrow column); ``none`` for nan; ``∞`` where the demand meets no
-    resistance at all."""
-    if is_none(u):
-        return "none"
-    assert u is not None
-    if math.isinf(u):
-        return "∞" if u > 0 else "-∞"
-    if u >= UTIL_CAP:
-        return f"> {UTIL_CAP - 1:.0f}"
-    if abs(u) >= 100:
-        return f"{u:.0f}"
-    return f"{u:.2f}"
+    """Utilisation as everywhere in droprig: :func:`droprig.outcomes.fmt_utilisation`
+    (a ratio with two decimals, ``> 99`` beyond 99, ``none`` for nan)."""
+    return fmt_utilisation(u)
 
 
 _NUMBER = re.compile(r"\d+(?:\.\d+)?")

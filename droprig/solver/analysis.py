@@ -31,7 +31,8 @@ For each drop point p (vectorised; SI units) and each load (mass M, W = M·g):
    others — conservative) and δy = R_p·f; brittle checks are repeated at F = R_p;
    ductility and support rotation against the settings (:mod:`droprig.solver.plastic`).
 6. Response, inverse answers (:mod:`droprig.solver.limits`), and a per-bay summary
-   with advice.
+   with structured advice (:func:`bay_advice`; the words are written at the edges by
+   :mod:`droprig.advice`).
 
 The drop points are the zone grid plus the points that can govern
 (:mod:`droprig.solver.droppoints`), refined around the worst point of each bay.
@@ -58,24 +59,29 @@ from droprig.solver.loadpath import (
 )
 from droprig.solver.loadpath import evaluate as evaluate_path
 from droprig.solver.results import (
+    ADVICE_KINDS,
     CHECKS,
     DECK,
     ELASTIC,
     EXCEEDS,
     PLASTIC,
     RESPONSES,
+    AdviceKind,
     BaySummary,
     CaseResult,
     Results,
 )
 
 __all__ = [
+    "ADVICE_KINDS",
     "MAX_MAT_TRAVEL",
     "MIN_USEFUL_HEIGHT",
     "REFINE_PASSES",
+    "Advice",
     "FloorModel",
     "analyse",
     "analyse_zone",
+    "bay_advice",
     "build_floor",
     "evaluate_case",
     "floor_model",
@@ -936,59 +942,56 @@ def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
 
 
 # --------------------------------------------------------------------------- bay summaries
-_FT = 0.3048  # m per ft (exact, international foot)
-_IN = 0.0254  # m per in (exact)
-_KIP = 4448.2216152605  # N per kip (exact by definition of the pound-force)
+@dataclass(frozen=True)
+class Advice:
+    """What a bay needs, as data (the words are written at the edges,
+    :mod:`droprig.advice`). ``kind`` is one of :data:`ADVICE_KINDS`; lengths in m,
+    stiffness in N/m; ``None`` where the option is not offered."""
 
-
-def _fmt_len(v: float, system: str) -> str:
-    return f"{v / _FT:.3g} ft" if system == "US" else f"{v:.3g} m"
-
-
-def _fmt_small(v: float, system: str) -> str:
-    return f"{v / _IN:.3g} in" if system == "US" else f"{v * 1e3:.3g} mm"
-
-
-def _fmt_stiff(v: float, system: str) -> str:
-    return f"{v * _IN / _KIP:.3g} kip/in" if system == "US" else f"{v / 1e6:.3g} kN/mm"
+    kind: AdviceKind
+    height_limit: float | None = None
+    height_limit_yields: bool = False
+    mat_stiffness_max: float | None = None
+    mat_travel: float | None = None
 
 
 def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
-               U: float, load: LiftLoad, planned: float, system: str,
-               mat_travel: float | None = None, h_elastic: float | None = None) -> str:
-    """The plain-language advice for one bay: no protection, a drop-height limit, a
-    spring mat (no stiffer than k; it compresses up to ``mat_travel``), or an
-    exclusion zone. Numbers in the project's unit system (SI or US customary)."""
+               mat_travel: float | None = None, h_elastic: float | None = None) -> Advice:
+    """What one bay needs: no protection, a drop-height limit ``h_allow`` (offered
+    from :data:`MIN_USEFUL_HEIGHT` up, and only when the bay exceeds its limits), a
+    spring mat no stiffer than ``k_mat`` (offered while it need not compress more
+    than :data:`MAX_MAT_TRAVEL`), acceptance of yielding with the engineer's
+    approval, or an exclusion zone (deck opening, or no option found).
+    ``height_limit_yields``: the height limit lets members yield (it exceeds the
+    elastic height ``h_elastic`` by more than 1 %). SI units (m, N/m)."""
     if n_opening:
-        return ("Keep clear: exclusion zone. The load can fall through a deck opening; "
-                "cover the opening or keep the load path away from it.")
+        return Advice("opening")
     if resp == ELASTIC:
-        return (f"No protection needed: every checked member stays elastic for "
-                f"{load.name} dropped {_fmt_len(planned, system)} "
-                f"(largest utilisation {U:.2f}).")
-    lead = ("Members yield but stay within the ductility and rotation limits. "
-            if resp == PLASTIC else "")
-    options = []
+        return Advice("none")
+    h: float | None = None
+    yields = False
     if h_allow is not None and h_allow >= MIN_USEFUL_HEIGHT and resp == EXCEEDS:
-        text = f"limit the drop height to {_fmt_len(h_allow, system)}"
-        if h_elastic is not None and h_allow > 1.01 * h_elastic:
-            text += (" (members may then yield within the ductility and rotation limits; "
-                     f"{_fmt_len(h_elastic, system)} keeps them elastic)")
-        options.append(text)
+        h = float(h_allow)
+        yields = h_elastic is not None and h_allow > 1.01 * h_elastic
+    k: float | None = None
+    travel: float | None = None
     if (k_mat is not None and math.isfinite(k_mat) and k_mat > 0
             and (mat_travel is None or mat_travel <= MAX_MAT_TRAVEL)):
-        travel = (f"; it must be able to compress {_fmt_small(mat_travel, system)}"
-                  if mat_travel is not None and math.isfinite(mat_travel) else "")
-        options.append(f"lay a spring mat no stiffer than {_fmt_stiff(k_mat, system)} "
-                       f"over the bay (any softer mat also works{travel})")
+        k = float(k_mat)
+        travel = float(mat_travel) if mat_travel is not None and math.isfinite(mat_travel) \
+            else None
     if resp == PLASTIC:
-        if options:
-            return lead + "For an elastic response: " + ", or ".join(options) + "."
-        return lead + "No mat keeps it elastic; accept only with the engineer's approval."
-    if options:
-        return "Protection needed: " + ", or ".join(options) + "."
-    return ("Keep clear: exclusion zone. No drop height or spring mat found that keeps "
-            "the members within their limits; keep people out and re-plan the lift.")
+        return Advice("plastic_mat", mat_stiffness_max=k, mat_travel=travel) if k \
+            else Advice("plastic_accept")
+    if h is not None and k is not None:
+        kind: AdviceKind = "limit_or_mat"
+    elif h is not None:
+        kind = "limit_height"
+    elif k is not None:
+        kind = "mat"
+    else:
+        return Advice("keep_clear")
+    return Advice(kind, h, yields, k, travel)
 
 
 def _least(v: np.ndarray) -> float | None:
@@ -999,7 +1002,7 @@ def _least(v: np.ndarray) -> float | None:
 
 
 def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
-              system: str, allowed_force: np.ndarray) -> list[BaySummary]:
+              allowed_force: np.ndarray) -> list[BaySummary]:
     """One :class:`BaySummary` per bay that holds drop points of ``case``
     (``allowed_force``: the elastic F_allow of each point, N)."""
     out = []
@@ -1031,8 +1034,8 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
                 travel = float(np.max(allowed_force[need] / k_mat))
         gm = int(case.governing_member[i])
         n_open = int(np.sum(case.governing_check[idx] == CHECK["opening"]))
-        advice = bay_advice(worst, n_open, h_pl if worst == EXCEEDS else h_el, k_mat, U_max,
-                            load, case.planned_drop_height, system, travel, h_el)
+        adv = bay_advice(worst, n_open, h_pl if worst == EXCEEDS else h_el, k_mat, travel,
+                         h_el)
         out.append(BaySummary(
             level_id=level.id, bay_id=all_bays[b].id, zone_id=zone.id,
             load_name=load.name, n_points=int(idx.size), max_utilisation=U_max,
@@ -1040,7 +1043,10 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
             allowable_drop_height_plastic=h_pl, governing_x=float(case.x[i]),
             governing_y=float(case.y[i]),
             governing_member="deck" if gm == DECK else members[gm].id,
-            governing_check=CHECKS[int(case.governing_check[i])], advice=advice))
+            governing_check=CHECKS[int(case.governing_check[i])], advice_kind=adv.kind,
+            height_limit=adv.height_limit, height_limit_yields=adv.height_limit_yields,
+            mat_stiffness_max=adv.mat_stiffness_max, mat_travel=adv.mat_travel,
+            planned_drop_height=case.planned_drop_height))
     return out
 
 
@@ -1093,8 +1099,7 @@ def analyse_zone(project: Project, zone_id: str,
         res = {k: v[sel] for k, v in allres.items()}
         case = _case_result(zone, load, level, res)
         cases.append(case)
-        summaries.extend(summarise(level, zone, load, case, project.settings.unit_system,
-                                   res["_F_allow"]))
+        summaries.extend(summarise(level, zone, load, case, res["_F_allow"]))
     if not zone.loads:
         warnings.append(f"zone {zone.id}: no loads to assess")
     return Results(tuple(cases), tuple(summaries), tuple(warnings))

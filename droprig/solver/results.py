@@ -8,6 +8,7 @@ an explicit word (``none``) or JSON ``null`` — never prints a bare NaN.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from typing import Literal
 
 import numpy as np
 
@@ -32,6 +33,26 @@ CHECKS: tuple[str, ...] = (
     "opening",
 )
 """Names of the checks; ``governing_check`` arrays hold indices into this tuple."""
+
+AdviceKind = Literal["none", "limit_height", "mat", "limit_or_mat", "plastic_mat",
+                     "plastic_accept", "keep_clear", "opening"]
+ADVICE_KINDS: tuple[AdviceKind, ...] = ("none", "limit_height", "mat", "limit_or_mat",
+                                        "plastic_mat", "plastic_accept", "keep_clear",
+                                        "opening")
+"""What a bay needs (``BaySummary.advice_kind``); the words are written at the
+edges (:mod:`droprig.advice`).
+
+* ``none``: every point stays elastic, no protection needed.
+* ``limit_height``: exceeds; limit the drop height to ``height_limit``.
+* ``mat``: exceeds; a spring mat no stiffer than ``mat_stiffness_max`` that can
+  compress ``mat_travel``.
+* ``limit_or_mat``: exceeds; either of the two above.
+* ``plastic_mat``: yields within limits; such a mat would keep it elastic.
+* ``plastic_accept``: yields within limits; no mat keeps it elastic — accept only
+  with the engineer's approval.
+* ``keep_clear``: exceeds and neither option works: exclusion zone.
+* ``opening``: the load can fall through a deck opening: exclusion zone.
+"""
 
 DECK = -1
 """``governing_member`` value when the deck governs (or no member is involved)."""
@@ -84,7 +105,16 @@ class CaseResult:
 
 @dataclass(frozen=True)
 class BaySummary:
-    """The worst outcome in one column bay for one load of one lift zone."""
+    """The worst outcome in one column bay for one load of one lift zone.
+
+    ``advice_kind`` (one of :data:`ADVICE_KINDS`) says what the bay needs, with its
+    numbers in SI: ``height_limit`` (m, the drop height offered as a limit;
+    ``height_limit_yields`` when members then yield within the limits and
+    ``allowable_drop_height`` keeps them elastic), ``mat_stiffness_max`` (N/m, the
+    stiffest spring mat that works) and ``mat_travel`` (m, how far it must be able
+    to compress); ``None`` where not offered. ``planned_drop_height`` (m): the
+    load's planned free fall. Text for people: :func:`droprig.advice.advice_text`.
+    """
 
     level_id: str
     bay_id: str
@@ -99,7 +129,12 @@ class BaySummary:
     governing_y: float
     governing_member: str
     governing_check: str
-    advice: str
+    advice_kind: AdviceKind
+    height_limit: float | None = None
+    height_limit_yields: bool = False
+    mat_stiffness_max: float | None = None
+    mat_travel: float | None = None
+    planned_drop_height: float | None = None
 
 
 @dataclass(frozen=True)

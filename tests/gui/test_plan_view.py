@@ -114,7 +114,7 @@ def _summaries(project: Project, case: CaseResult) -> tuple[BaySummary, ...]:
             "L2", b.id, case.zone_id, case.load_name, int(k.sum()),
             float(case.utilisation[k].max()), RESPONSES[int(case.response[k].max())],
             None if np.isnan(h).any() else float(h.min()), None,
-            float(case.x[k][j]), float(case.y[k][j]), "B1/A-B", "flexure", ""))
+            float(case.x[k][j]), float(case.y[k][j]), "B1/A-B", "flexure", "none"))
     return tuple(out)
 
 

@@ -22,7 +22,7 @@ from droprig.solver.results import BaySummary, Results
 def _bay(bay: str, response: str, u: float, *, zone: str = "Z1", load: str = "L",
          x: float = 1.0, y: float = 1.0, h: float | None = 1.0) -> BaySummary:
     return BaySummary("L1", bay, zone, load, 5, u, response, h, None, x, y, "B1", "flexure",
-                      "advice")
+                      "none")
 
 
 @pytest.mark.parametrize(("responses", "expected"), [

@@ -49,9 +49,15 @@ def test_tag_is_readable_on_its_fill() -> None:
         assert _contrast(o.ink, o.fill) >= 4.5, o.key
 
 
-def test_same_visual_language_as_the_desktop_plan() -> None:
+def test_print_and_screen_read_one_palette() -> None:
+    # one Qt-free source (droprig.outcomes) for the annex and the desktop plan
+    from droprig import outcomes
+
+    assert OUTCOMES is outcomes.OUTCOMES
     style = pytest.importorskip("droprig.gui.style")
-    for key, o in OUTCOMES.items():
+    for key, o in outcomes.OUTCOMES.items():
         g = style.OUTCOMES[key]
-        assert (o.label, o.tag, o.fill.upper(), o.edge.upper(), o.ink.upper()) == (
-            g.label, g.tag, g.fill.upper(), g.edge.upper(), g.ink.upper()), key
+        assert (g.label, g.tag, g.meaning, g.fill, g.edge, g.ink, g.hatch_kind) == (
+            o.label, o.tag, o.meaning, o.fill, o.edge, o.ink, o.hatch), key
+    assert style._UTIL_STOPS is outcomes.UTILISATION_STOPS
+    assert style._DROP_STOPS is outcomes.DROP_HEIGHT_STOPS

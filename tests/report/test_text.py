@@ -41,8 +41,8 @@ def test_fmt_value(value: float | None, quantity: str, system: str, expected: st
 
 @pytest.mark.parametrize(("u", "expected"), [(1.3749, "1.37"), (0.5, "0.50"),
                                              (float("nan"), "none"), (None, "none"),
-                                             (float("inf"), "∞"), (123.4, "123"),
-                                             (31994980.66, "> 999")])
+                                             (float("inf"), "> 99"), (99.0, "99.00"),
+                                             (123.4, "> 99"), (31994980.66, "> 99")])
 def test_fmt_util(u: float | None, expected: str) -> None:
     # utilisation = demand/resistance printed to 2 decimals (common practice, no source)
     assert fmt_util(u) == expected

@@ -1,0 +1,97 @@
+"""Advice for a bay in plain words, in the user's units (an edge module).
+
+The solver says *what* a bay needs as data (``BaySummary.advice_kind`` and its SI
+numbers, :data:`droprig.solver.results.ADVICE_KINDS`); this module writes it for a
+lift planner or safety officer. Used by the command line, the desktop app and the
+annex so the wording is the same everywhere.
+
+Limits are rounded towards the safe side for display: a drop-height limit and the
+stiffest acceptable mat are rounded down, the travel a mat must allow is rounded
+up (common practice, no source), so a printed figure never promises more than the
+analysis found.
+"""
+
+from __future__ import annotations
+
+import math
+
+from droprig import units
+from droprig.outcomes import fmt_utilisation
+from droprig.solver.results import BaySummary
+from droprig.units import UnitSystem
+
+__all__ = ["advice_text", "fmt_down", "fmt_up"]
+
+OPENING = ("Keep clear: exclusion zone. The load can fall through a deck opening; "
+           "cover the opening or keep the load path away from it.")
+KEEP_CLEAR = ("Keep clear: exclusion zone. No drop height or spring mat found that keeps "
+              "the members within their limits; keep people out and re-plan the lift.")
+YIELDS = "Members yield but stay within the ductility and rotation limits. "
+ACCEPT = "No mat keeps it elastic; accept only with the engineer's approval."
+
+
+def _rounded(value: float, quantity: str, system: UnitSystem, direction: int) -> str:
+    _, _, _, d_si, d_us = units.QUANTITIES[quantity]
+    d = d_si if system == "SI" else d_us
+    mag = units.to_display(value, quantity, system) * 10**d
+    # a hair of slack so an exact display value (0.4 m) is not pushed a step away
+    mag = math.floor(mag + 1e-9) if direction < 0 else math.ceil(mag - 1e-9)
+    text = f"{mag / 10**d:,.{d}f}"
+    u = units.display_unit(quantity, system)
+    return f"{text} {u}" if u else text
+
+
+def fmt_down(value: float, quantity: str, system: UnitSystem = "SI") -> str:
+    """``value`` (SI) in the display unit of ``system``, rounded down to the display
+    decimals of :data:`droprig.units.QUANTITIES` (for limits not to be exceeded)."""
+    return _rounded(value, quantity, system, -1)
+
+
+def fmt_up(value: float, quantity: str, system: UnitSystem = "SI") -> str:
+    """As :func:`fmt_down`, rounded up (for amounts that must at least be provided)."""
+    return _rounded(value, quantity, system, +1)
+
+
+def _height(b: BaySummary, system: UnitSystem) -> str:
+    assert b.height_limit is not None
+    text = f"limit the drop height to {fmt_down(b.height_limit, 'length', system)}"
+    if b.height_limit_yields and b.allowable_drop_height is not None:
+        text += (" (members may then yield within the ductility and rotation limits; "
+                 f"{fmt_down(b.allowable_drop_height, 'length', system)} keeps them "
+                 "elastic)")
+    return text
+
+
+def _mat(b: BaySummary, system: UnitSystem) -> str:
+    assert b.mat_stiffness_max is not None
+    travel = (f"; it must be able to compress {fmt_up(b.mat_travel, 'small_length', system)}"
+              if b.mat_travel is not None else "")
+    return (f"lay a spring mat no stiffer than "
+            f"{fmt_down(b.mat_stiffness_max, 'stiffness', system)} over the bay "
+            f"(any softer mat also works{travel})")
+
+
+def advice_text(b: BaySummary, system: UnitSystem = "SI") -> str:
+    """What the bay needs, in one or two sentences with numbers in ``system``."""
+    kind = b.advice_kind
+    if kind == "opening":
+        return OPENING
+    if kind == "none":
+        planned = (f" dropped {units.fmt(b.planned_drop_height, 'length', system)}"
+                   if b.planned_drop_height is not None else "")
+        return (f"No protection needed: every checked member stays elastic for "
+                f"{b.load_name}{planned} "
+                f"(largest utilisation {fmt_utilisation(b.max_utilisation)}).")
+    if kind == "plastic_mat":
+        return YIELDS + "For an elastic response: " + _mat(b, system) + "."
+    if kind == "plastic_accept":
+        return YIELDS + ACCEPT
+    if kind == "limit_height":
+        return "Protection needed: " + _height(b, system) + "."
+    if kind == "mat":
+        return "Protection needed: " + _mat(b, system) + "."
+    if kind == "limit_or_mat":
+        return "Protection needed: " + _height(b, system) + ", or " + _mat(b, system) + "."
+    if kind == "keep_clear":
+        return KEEP_CLEAR
+    raise ValueError(f"advice_kind {kind!r}; allowed: see droprig.solver.results.ADVICE_KINDS")
