@@ -52,6 +52,9 @@ def build_parser() -> argparse.ArgumentParser:
                    help="bearing length along the member (default 0: a point contact, "
                    "conservative for the web checks)")
     s.add_argument("--cushion-stiffness", default=None, help="spring mat stiffness, e.g. 2e6 N/m")
+    s.add_argument("--load-stiffness", default=None,
+                   help="stiffness of the load's own underside (skid, base frame, dunnage) "
+                   "in series, e.g. 50 kN/mm (default: rigid load, conservative)")
     s.add_argument("--crush-force", default=None, help="crushable layer force, e.g. 50 kN")
     s.add_argument("--crush-stroke", default=None, help="crushable layer stroke, e.g. 50mm")
     s.add_argument("--udl", default=None, help="existing uniform load besides self-weight, "

@@ -19,7 +19,7 @@ import sys
 from typing import Any
 
 from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
-from droprig.model import ModelError
+from droprig.model import CONTACT_STIFFNESS_RANGE, ModelError
 from droprig.solver.member import DEFAULT_DEFLECTION_LIMIT_RATIO
 from droprig.units import UnitError, fmt, parse
 
@@ -29,6 +29,7 @@ SPAN_RANGE = (0.5, 60.0)  # m, Member.span
 MASS_RANGE = (1.0, 500_000.0)  # kg, LiftLoad.mass
 DROP_RANGE = (0.0, 200.0)  # m, LiftLoad.drop_height
 STIFFNESS_RANGE = (1e3, 1e12)  # N/m, ProtectionArea.stiffness
+LOAD_STIFFNESS_RANGE = CONTACT_STIFFNESS_RANGE  # N/m, LiftLoad.contact_stiffness
 CRUSH_FORCE_RANGE = (1e2, 1e8)  # N, ProtectionArea.crush_force
 CRUSH_STROKE_RANGE = (1e-3, 3.0)  # m, ProtectionArea.crush_stroke
 UDL_RANGE = (0.0, 1e6)  # N/m
@@ -113,6 +114,7 @@ def _run(args: argparse.Namespace) -> int:
     assert span is not None and at is not None and mass is not None and drop is not None
     bearing = _parse(args, "bearing", "small_length", system)
     k_c = _parse(args, "cushion-stiffness", "stiffness", system)
+    k_load = _parse(args, "load-stiffness", "stiffness", system)
     F_c = _parse(args, "crush-force", "force", system)
     s_c = _parse(args, "crush-stroke", "small_length", system)
     udl = _parse(args, "udl", "line_load", system)
@@ -125,6 +127,8 @@ def _run(args: argparse.Namespace) -> int:
         _range("--bearing", bearing, 0.0, span, "small_length", system)
     if k_c is not None:
         _range("--cushion-stiffness", k_c, *STIFFNESS_RANGE, "stiffness", system)
+    if k_load is not None:
+        _range("--load-stiffness", k_load, *LOAD_STIFFNESS_RANGE, "stiffness", system)
     if (F_c is None) != (s_c is None):
         missing = "--crush-stroke" if s_c is None else "--crush-force"
         raise _BadInputError(f"{missing}: missing; a crushable layer needs both --crush-force "
@@ -135,11 +139,11 @@ def _run(args: argparse.Namespace) -> int:
     if udl is not None:
         _range("--udl", udl, *UDL_RANGE, "line_load", system)
     if float(beam.green(args.support, span, 1.0, at, at)) <= 0.0 and k_c is None \
-            and F_c is None:
+            and F_c is None and k_load is None:
         raise _BadInputError(f"--at: {fmt(at, 'length', system)} is on a support of a "
                         f"{args.support} member; supports are taken as rigid, so the "
-                        "impact force has no finite value there. Give --cushion-stiffness "
-                        "or --crush-force/--crush-stroke, or move the point")
+                        "impact force has no finite value there. Give --cushion-stiffness, "
+                        "--load-stiffness or --crush-force/--crush-stroke, or move the point")
 
     try:
         result = assess_member(
@@ -147,6 +151,7 @@ def _run(args: argparse.Namespace) -> int:
             basis=basis,
             bearing=bearing or 0.0,
             cushion_stiffness=k_c,
+            load_stiffness=k_load,
             crush_force=F_c,
             crush_stroke=s_c,
             udl=udl or 0.0,
@@ -162,14 +167,14 @@ def _run(args: argparse.Namespace) -> int:
         print(json.dumps({k: result[k] for k in RESULT_KEYS}, indent=2))
         return EXIT_OK
     print(_table(args, section.name, grade.name, basis, system, span, at, mass, drop,
-                 bearing or 0.0, k_c, F_c, s_c, udl or 0.0, result))
+                 bearing or 0.0, k_c, F_c, s_c, udl or 0.0, result, k_load))
     return EXIT_OK
 
 
 def _table(args: argparse.Namespace, section: str, grade: str, basis: str, system: str,
            span: float, at: float, mass: float, drop: float, bearing: float,
            k_c: float | None, F_c: float | None, s_c: float | None, udl: float,
-           r: dict[str, Any]) -> str:
+           r: dict[str, Any], k_load: float | None = None) -> str:
     code = {"aisc360": "AISC 360-16", "en1993": "EN 1993-1-1 / EN 1993-1-5"}[basis]
     lines = [
         f"droprig check — {section} {grade}, {args.support} span "
@@ -181,6 +186,9 @@ def _table(args: argparse.Namespace, section: str, grade: str, basis: str, syste
     ]
     if k_c is not None:
         lines.append(f"spring mat {fmt(k_c, 'stiffness', system)}")
+    lines.append("load underside (skid, base frame, dunnage) "
+                 + (f"{fmt(k_load, 'stiffness', system)} in series" if k_load is not None
+                    else "rigid (conservative)"))
     if F_c is not None and s_c is not None:
         lines.append(f"crushable layer {fmt(F_c, 'force', system)} over "
                      f"{fmt(s_c, 'small_length', system)}")

@@ -164,7 +164,8 @@ class FieldSpec:
     """One row of a form.
 
     kind: ``quantity`` (unit-aware number), ``optional`` (a quantity that may be
-    empty), ``text``, ``longtext``, ``choice`` (``choices`` = (value, label)
+    left empty: the model value ``None``, meaning ``empty``),
+    ``text``, ``longtext``, ``choice`` (``choices`` = (value, label)
     pairs), ``bool``, ``section`` (library search), ``readonly``.
     ``get`` reads the value from the model object; ``set`` returns a new object
     with the value (the model validates and may raise ModelError). For
@@ -179,6 +180,8 @@ class FieldSpec:
     quantity: str = ""
     choices: tuple[tuple[str, str], ...] = ()
     tip: str = ""
+    empty: str = ""
+    """For ``optional``: what an empty box means (shown as the placeholder)."""
 
 
 @dataclass
@@ -380,6 +383,13 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
             _q("footprint_length", "Footprint length", "length",
                "Plan size of the load's underside"),
             _q("footprint_width", "Footprint width", "length"),
+            FieldSpec("contact_stiffness", "Underside stiffness", "optional",
+                      lambda o: o.contact_stiffness,
+                      lambda o, v: replace(o, contact_stiffness=v), quantity="stiffness",
+                      tip="Stiffness of the load's own underside where it lands (skid, base "
+                          "frame, timber dunnage), in series with the deck. Leave empty to "
+                          "take the load as rigid (highest force, conservative).",
+                      empty="empty = rigid (conservative)"),
             FieldSpec("mode", "Height given as", "choice",
                       lambda o: "drop" if o.drop_height is not None else "hook", set_mode,
                       choices=(("drop", "Drop height above the deck"),
@@ -575,11 +585,13 @@ class FormEditor(QWidget):
 
     def _make_editor(self, spec: FieldSpec) -> QWidget:
         system = self._system_fn()
-        if spec.kind in ("quantity", "text", "section"):
+        if spec.kind in ("quantity", "optional", "text", "section"):
             w = QLineEdit()
             if spec.kind == "quantity":
                 unit = unit_label(spec.quantity, system)
                 w.setPlaceholderText(f"e.g. 12 {unit}" if unit else "e.g. 1.0")
+            elif spec.kind == "optional":
+                w.setPlaceholderText(spec.empty or "empty = none")
             if spec.kind == "section":
                 from droprig.io.sections import list_sections
 
@@ -616,7 +628,7 @@ class FormEditor(QWidget):
         v = spec.get(obj)
         if isinstance(w, QLineEdit):
             text = _edit_text(v, spec.quantity, self._system_fn()) \
-                if spec.kind == "quantity" else str(v)
+                if spec.kind in ("quantity", "optional") else str(v)
             if w.text() != text:
                 w.setText(text)
                 w.setCursorPosition(0)
@@ -643,11 +655,15 @@ class FormEditor(QWidget):
         text = w.toPlainText() if isinstance(w, _LongText) else w.text()  # type: ignore[attr-defined]
         current = spec.get(form.obj)
         system = self._system_fn()
-        if spec.kind == "quantity":
+        if spec.kind == "optional" and not text.strip():
+            if current is None:
+                return
+            value: Any = None  # empty box: no value (e.g. a rigid load)
+        elif spec.kind in ("quantity", "optional"):
             if text.strip() == _edit_text(current, spec.quantity, system):
                 return  # display text unchanged: keep the stored value unrounded
             try:
-                value: Any = parse_q(text, spec.quantity, system, field=spec.label)
+                value = parse_q(text, spec.quantity, system, field=spec.label)
             except units.UnitError as exc:
                 self.refuse(describe_refusal(exc, spec.label, system, spec.quantity), spec)
                 return

@@ -283,6 +283,8 @@ def _load_doc(ld: LiftLoad) -> dict[str, object]:
     if ld.hook_elevation is not None:
         out["hook_elevation_m"] = ld.hook_elevation
     out["hang_length_m"] = ld.hang_length
+    if ld.contact_stiffness is not None:
+        out["contact_stiffness_N_per_m"] = ld.contact_stiffness
     return out
 
 
@@ -656,7 +658,7 @@ _KEYS_GRADE = {"name": "name", "fu": "fu_Pa", "E": "E_Pa", "fy_steps": "fy_steps
 _KEYS_LOAD = {"name": "name", "mass": "mass_kg", "footprint_length": "footprint_length_m",
               "footprint_width": "footprint_width_m", "drop_height": "drop_height_m",
               "hook_elevation": "hook_elevation_m", "hang_length": "hang_length_m",
-              "kind": "kind"}
+              "kind": "kind", "contact_stiffness": "contact_stiffness_N_per_m"}
 _KEYS_ZONE = {"id": "id", "name": "name", "level_id": "level_id", "crane": "crane_m",
               "r_min": "r_min_m", "r_max": "r_max_m", "slew_start": "slew_start_deg",
               "slew_end": "slew_end_deg", "drift_margin": "drift_margin_m",
@@ -859,7 +861,8 @@ class _Builder:
 
     def load(self, v: dict[str, Any], path: str) -> LiftLoad:
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LOAD.items()
-                         if k in ("footprint_length", "footprint_width", "hang_length", "kind")})
+                         if k in ("footprint_length", "footprint_width", "hang_length", "kind",
+                                  "contact_stiffness")})
         return self._make(path, _KEYS_LOAD, lambda: LiftLoad(
             name=v["name"], mass=v["mass_kg"], drop_height=v.get("drop_height_m"),
             hook_elevation=v.get("hook_elevation_m"), **kw))

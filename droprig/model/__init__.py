@@ -3,6 +3,7 @@
 from droprig.model.errors import ModelError
 from droprig.model.framing import Bay, bays, default_labels, generate_level
 from droprig.model.project import (
+    CONTACT_STIFFNESS_RANGE,
     END_CONDITIONS,
     ColumnGrid,
     Deck,
@@ -20,6 +21,7 @@ from droprig.model.project import (
 from droprig.model.sections import E_STEEL, Concrete, Grade, Section
 
 __all__ = [
+    "CONTACT_STIFFNESS_RANGE",
     "END_CONDITIONS",
     "E_STEEL",
     "Bay",

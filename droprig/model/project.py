@@ -30,6 +30,10 @@ DeckKind = Literal["composite", "solid_slab"]
 MatKind = Literal["spring", "crushable"]
 LoadKind = Literal["load", "rigging"]
 
+CONTACT_STIFFNESS_RANGE = (1e4, 1e12)
+"""Allowed stiffness of a load's own underside, N/m: from a very soft timber-and-rubber
+bearer (10 kN/m) to practically rigid steel (1e12 N/m)."""
+
 GEOMETRY_TOL = 1e-6
 """Two plan points closer than this (m) are the same point."""
 
@@ -288,6 +292,12 @@ class LiftLoad:
     mat top) or ``hook_elevation`` (m, same datum as level elevations) with
     ``hang_length`` from the hook to the load's underside. Footprint is the plan
     contact size of the load's underside, m.
+
+    ``contact_stiffness`` (N/m): stiffness of the load's own underside where it
+    strikes — skid, base frame, timber dunnage or bearers — acting in series with
+    the deck and the framing (springs in series, Gere §9.10 energy method:
+    1/k_eff = Σ 1/k). ``None`` takes the load as rigid, which gives the highest
+    impact force (conservative).
     """
 
     name: str
@@ -298,6 +308,7 @@ class LiftLoad:
     hook_elevation: float | None = None
     hang_length: float = 0.0
     kind: LoadKind = "load"
+    contact_stiffness: float | None = None
 
     def __post_init__(self) -> None:
         check_text("load.name", self.name, required=True, max_len=64)
@@ -316,6 +327,9 @@ class LiftLoad:
             check_range(f"load {self.name}.hook_elevation", self.hook_elevation, -500.0,
                         1500.0, unit="m")
         check_range(f"load {self.name}.hang_length", self.hang_length, 0.0, 200.0, unit="m")
+        if self.contact_stiffness is not None:
+            check_range(f"load {self.name}.contact_stiffness", self.contact_stiffness,
+                        CONTACT_STIFFNESS_RANGE[0], CONTACT_STIFFNESS_RANGE[1], unit="N/m")
 
     @property
     def weight(self) -> float:

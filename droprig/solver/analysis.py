@@ -7,8 +7,11 @@ For each drop point p (vectorised; SI units) and each load (mass M, W = M·g):
    the footprint and the bending of the one-way strip between its two beams,
    f_deck (:mod:`droprig.solver.contact`), which keeps the force finite over a
    column or a beam line; a spring mat covering p adds 1/k (series springs,
-   Engineering ToolBox "Impact Force"): f = f_s + f_deck + 1/k. Under a mat or a
-   crushable layer the framing's mass share is not taken (η = 1, conservative).
+   Engineering ToolBox "Impact Force"), and so does the load's own underside
+   (skid, base frame, dunnage; ``LiftLoad.contact_stiffness``, 1/k_load; none =
+   rigid): f = f_s + f_deck + 1/k_load + 1/k (springs in series, 1/k_eff = Σ 1/k_i;
+   Gere §9.10 energy method). Under a mat or a crushable layer the framing's mass
+   share is not taken (η = 1, conservative).
 2. Free fall h(p) onto the struck surface (deck top, or mat top where a
    protection area covers p): ``LiftLoad.height_above``.
 3. Impact: η = M/(M + m_e), K = 1 + √(1 + 2ηh/(W f)), F = K·W, δmax = K·W·f
@@ -24,7 +27,9 @@ For each drop point p (vectorised; SI units) and each load (mass M, W = M·g):
    (:mod:`droprig.solver.capacity`, :mod:`droprig.solver.deck`). Each check is
    linear in F: demand = F·unit + existing, so U = demand/resistance and the force
    that a check allows is F_allow = (resistance − existing)/unit.
-5. Beyond yield (design notes §3): if only flexure exceeds, the path is taken as
+5. Beyond yield (design notes §3): if only flexure exceeds, and only on members
+   whose sections can form a plastic hinge (``capacity.plastic_hinge_capable``:
+   AISC 360-16 App. 1 / EN 1993-1-1 Class 1, as ``droprig check``), the path is taken as
    elastic–perfectly-plastic with R_p = the lowest collapse load of its members
    for a load at p (virtual work for fixed/propped members under the load; the
    first-hinge load, which is the collapse load of a determinate member, for the
@@ -118,7 +123,8 @@ class FloorModel:
     uniform load ``w0`` (N/m) and end reactions ``V0`` (N); existing loads at the
     nodes ``P0`` (N); existing moments at the support-member stations of each
     panel ``M0_sup`` (N·m). Deck: existing pressure ``q0`` (Pa) and moment
-    resistance per width ``deck_Mr`` (N·m/m).
+    resistance per width ``deck_Mr`` (N·m/m). ``hinge``: per member, can its section
+    form a plastic hinge (AISC 360-16 App. 1 / EN 1993-1-1 Class 1)?
     """
 
     level: Level
@@ -135,6 +141,7 @@ class FloorModel:
     group: np.ndarray
     groups: tuple[tuple[object, object], ...]
     warnings: tuple[str, ...] = field(default=())
+    hinge: np.ndarray | None = None
 
 
 def build_floor(level: Level, settings: Settings) -> FloorModel:
@@ -147,21 +154,23 @@ def build_floor(level: Level, settings: Settings) -> FloorModel:
     gidx = np.zeros(n_m, dtype=np.int64)
     Mr = np.zeros(n_m)
     Vr = np.zeros(n_m)
-    cache: dict[tuple[object, object], tuple[float, float, int]] = {}
+    hinge = np.ones(n_m, dtype=bool)
+    cache: dict[tuple[object, object], tuple[float, float, int, bool]] = {}
     for k, m in enumerate(level.members):
         key = (m.section, m.grade)
         if key not in cache:
             try:
                 mr = capacity.flexural_resistance(m.section, m.grade, basis, phi, dif)
                 vr = capacity.shear_resistance(m.section, m.grade, basis, phi, dif)
+                hk = capacity.plastic_hinge_capable(m.section, m.grade, basis)
             except ValueError as exc:
                 from droprig.model import ModelError
 
                 raise ModelError(f"level {level.id}.members[{m.id}].section", m.section.name,
                                  f"a section droprig can check ({exc})") from exc
-            cache[key] = (mr, vr, len(groups))
+            cache[key] = (mr, vr, len(groups), hk)
             groups.append(key)
-        Mr[k], Vr[k], gidx[k] = cache[key]
+        Mr[k], Vr[k], gidx[k], hinge[k] = cache[key]
     # existing loads
     warnings: list[str] = []
     g = impact.G
@@ -204,7 +213,7 @@ def build_floor(level: Level, settings: Settings) -> FloorModel:
     deck_Mr = deck.deck_flexure_resistance(level.deck, basis, phi)
     return FloorModel(level=level, settings=settings, frame=frame, Mr=Mr, Vr=Vr, w0=w0,
                       V0=V0, P0=P0, M0_sup=M0_sup, q0=q0, deck_Mr=deck_Mr, group=gidx,
-                      groups=tuple(groups), warnings=tuple(warnings))
+                      groups=tuple(groups), warnings=tuple(warnings), hinge=hinge)
 
 
 def existing_moment(frame: Frame, w0: np.ndarray, P0: np.ndarray, k: int,
@@ -417,12 +426,23 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     Rp_all = np.concatenate(Rp_c, axis=1)
     jr = np.argmin(Rp_all, axis=1)
     rows = np.arange(n)
+    # members that cannot form a plastic hinge: the least force that takes one of
+    # them to its flexural resistance (inf where the path has none)
+    nh_fa = np.full(n, np.inf)
+    nh_member = np.full(n, -1, dtype=np.int64)
+    hinge = fm.hinge
+    if hinge is not None and not bool(np.all(hinge)):
+        fa_nh = np.where(hinge[flex.member], np.inf, flex.fa)  # (C, n)
+        jn = np.argmin(fa_nh, axis=0)
+        nh_fa = fa_nh[jn, rows]
+        nh_member = flex.member[jn, rows]
     ua = {
         "flexure": flex, "shear": shear,
         "R_p": np.maximum(Rp_all[rows, jr], 0.0),
         "rp_member": np.concatenate(Rp_member, axis=1)[rows, jr],
         "rp_arm": np.concatenate(Rp_arm, axis=1)[rows, jr],
         "rp_cond": np.concatenate(Rp_cond, axis=1)[rows, jr],
+        "nh_fa": nh_fa, "nh_member": nh_member,
     }
     geo.cache["ua"] = ua
     return ua
@@ -580,6 +600,9 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     M = np.array([ld.mass for ld in loads])[li]
     fl = np.array([ld.footprint_length for ld in loads])[li]
     fw = np.array([ld.footprint_width for ld in loads])[li]
+    # the load's own underside (skid, base frame, dunnage) in series: 1/k_load, 0 = rigid
+    f_load = np.array([0.0 if ld.contact_stiffness is None else 1.0 / ld.contact_stiffness
+                       for ld in loads])[li]
     lv = fm.level
     # ---- protection: thickness, spring compliance, crushable layer
     t_mat = np.zeros(n)
@@ -615,7 +638,8 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     spread = 2.0 * t_mat
     lb = np.minimum(fl, fw) + spread
     foot_l, foot_w = fl + spread, fw + spread
-    # ---- compliance: framing + deck (indentation and strip bending) + spring mat
+    # ---- compliance: framing + deck (indentation and strip bending) + the load's
+    # underside + spring mat, all in series (1/k_eff = Σ 1/k_i; Gere §9.10)
     f_s = path.f
     span = path.strip_span
     pos = path.strip_pos
@@ -623,8 +647,8 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
                                       lv.deck.thickness)
     f_deck = contact.deck_contact_compliance(lv.deck, span, pos, width, foot_l, foot_w,
                                              s.design_basis)
-    f_struct = f_s + f_deck  # what stands behind a mat
-    f_series = f_deck + f_mat  # elastic springs in series with the yielding framing
+    f_struct = f_s + f_deck + f_load  # everything in series with a mat
+    f_series = f_deck + f_load + f_mat  # elastic springs in series with the yielding framing
     f = f_struct + f_mat
     m_e = path.m_e if s.include_member_mass else np.zeros(n)
     m_e = np.where(np.isfinite(m_e), m_e, 0.0)
@@ -732,12 +756,20 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     duct = pl & ~collapsed & (ductility > s.ductility_limit)
     rot = pl & ~collapsed & ~duct & (theta > s.rotation_limit)
     ok_pl = pl & ~collapsed & ~duct & ~rot
+    # flexure beyond the resistance of a member that cannot form a plastic hinge
+    # (AISC 360-16 App. 1 / EN 1993-1-1 Class 1): no plastic reserve, exceeds (as in
+    # droprig check, droprig.solver.member)
+    nh_fa = ua["nh_fa"]
+    no_hinge = ok_pl & (F > nh_fa)
+    ok_pl = ok_pl & ~no_hinge
     response[ok_pl] = PLASTIC
     gov_check = np.where(col, CHECK["collapse"], gov_check)
     gov_check = np.where(duct, CHECK["ductility"], gov_check)
     gov_check = np.where(rot, CHECK["rotation"], gov_check)
     gov_check = np.where(ok_pl, CHECK["flexure"], gov_check)
     gov_member = np.where(pl, rp_member, gov_member)
+    gov_check = np.where(no_hinge, CHECK["flexure"], gov_check)
+    gov_member = np.where(no_hinge, ua["nh_member"], gov_member)
     plastic_defl = np.where(pl, d_m, np.nan)
     ductility_out = np.where(pl, ductility, np.nan)
     rotation_out = np.where(pl, theta, np.nan)
@@ -757,7 +789,9 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     h_pl = h_pl + np.where(crushable & (F_c < R_p) & (F_c > W),
                            (F_c - W) * s_c / (eta * W), 0.0)
-    h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0), h_pl, np.nan)
+    # beyond yield only where the mechanism forms before a member without hinge
+    # capacity reaches its flexural resistance
+    h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (nh_fa > R_p), h_pl, np.nan)
     h_pl = np.fmax(h_pl, h_el)
     m_allow = limits.allowable_mass(Fa_pos, h, f, m_e)
     k_req = limits.required_mat_stiffness(W, h, eta, Fa_pos, f_struct)
@@ -791,7 +825,8 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
         out["governing_member"] = np.where(op, DECK, out["governing_member"])
     # intermediates for the trace
     out.update({
-        "_f_s": f_s, "_f_deck": f_deck, "_f_mat": f_mat, "_f": f, "_eta": eta, "_W": W,
+        "_f_s": f_s, "_f_deck": f_deck, "_f_load": f_load, "_f_mat": f_mat, "_f": f,
+        "_eta": eta, "_W": W, "_no_hinge": no_hinge, "_nh_fa": nh_fa,
         "_t_mat": t_mat, "_lb": lb, "_F_allow": F_allow, "_R_p": R_p,
         "_rp_member": rp_member, "_crush": crush, "_bottomed": bottomed,
         "_h_struct": h_struct, "_d_m": d_m, "_theta": theta, "_ductility": ductility,

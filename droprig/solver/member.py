@@ -4,7 +4,8 @@ check`` (and a reference for the floor-level analysis).
 Method (droprig design notes §3; every step's source is in the docstring of the
 function it calls):
 
-1. Struck-point compliance f = green(a, a) (+ 1/k of a spring mat); effective
+1. Struck-point compliance f = green(a, a) (+ 1/k of a spring mat + 1/k_load of the
+   load's own underside: springs in series, Gere §9.10 energy method); effective
    member mass m_e = β·μ·L (Rayleigh, :func:`beam.rayleigh_mass_factor`), share of
    kinetic energy η = M/(M + m_e).
 2. Elastic impact (Gere §9.10) or a crushable layer; peak force F.
@@ -120,6 +121,7 @@ def assess_member(
     dif: float = 1.0,
     bearing: float = 0.0,
     cushion_stiffness: float | None = None,
+    load_stiffness: float | None = None,
     crush_force: float | None = None,
     crush_stroke: float | None = None,
     udl: float = 0.0,
@@ -139,7 +141,9 @@ def assess_member(
     elastic demand over resistance of the governing strength check (above 1 for a
     plastic response: read ductility and rotation then). ``effective_mass`` is the
     member's Rayleigh mass, reported even where it is not used (η = 1 with a mat or a
-    crushable layer). ``deflection_limit_ratio`` is
+    crushable layer). ``load_stiffness`` (N/m): the load's own underside (skid, base
+    frame, dunnage) in series with the member; ``None`` = rigid (conservative); it
+    does not change η. ``deflection_limit_ratio`` is
     validated but never changes the verdict (deflection is information only; the
     edges compare ``max_deflection`` with span/N themselves). Raises
     :class:`~droprig.model.ModelError` naming the argument for inputs outside range.
@@ -162,6 +166,9 @@ def assess_member(
     if cushion_stiffness is not None and not (math.isfinite(cushion_stiffness)
                                               and cushion_stiffness > 0.0):
         raise ModelError("cushion-stiffness", cushion_stiffness, "> 0 N/m", "N/m")
+    if load_stiffness is not None and not (math.isfinite(load_stiffness)
+                                           and load_stiffness > 0.0):
+        raise ModelError("load-stiffness", load_stiffness, "> 0 N/m", "N/m")
     if (crush_force is None) != (crush_stroke is None):
         raise ModelError("crush-force", crush_force,
                          "a crush force and a crush stroke together, or neither")
@@ -185,7 +192,10 @@ def assess_member(
 
     # 1. compliance, effective mass
     f_s = float(beam.green(cond, L, EI, a, a))
+    # elastic springs in series with the member: the mat and the load's underside
     f_c = 1.0 / cushion_stiffness if cushion_stiffness is not None else 0.0
+    if load_stiffness is not None:
+        f_c += 1.0 / load_stiffness
     f = f_s + f_c
     if f <= 0.0 and not crushable:
         raise ModelError("at", a, "a point off the supports (droprig takes supports as "

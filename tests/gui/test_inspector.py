@@ -325,3 +325,46 @@ def test_deck_bars_per_width(qtbot, system: str, text: str, expected: float) -> 
     doc.select(Selection("deck", ("L1",)))
     _enter(w.editor("rebar_area"), text)
     assert math.isclose(doc.project.level("L1").deck.rebar_area, expected, rel_tol=REL)
+
+
+KIP_PER_IN = 4448.2216152605 / 0.0254  # N/m per kip/in (NIST SP 811 B.8, exact)
+
+
+@pytest.mark.parametrize(("system", "text", "expected"), [
+    ("SI", "50", 50e6),          # bare number: kN/mm, the SI display unit
+    ("SI", "50 kN/mm", 50e6),
+    ("US", "300", 300 * KIP_PER_IN),
+    ("US", "2e7 N/m", 2e7),
+])
+def test_load_underside_stiffness_edit_empty_and_undo(qtbot, system: str, text: str,
+                                                      expected: float) -> None:
+    doc = Document(_roof(system))
+    w = Inspector(doc)
+    qtbot.addWidget(w)
+    doc.select(Selection("load", ("Z1", "Pump skid")))
+    box = w.editor("contact_stiffness")
+    assert isinstance(box, QLineEdit)
+    assert box.text() == "" and "rigid" in box.placeholderText()  # None: a rigid load
+    _enter(box, text)
+    assert math.isclose(doc.project.zone("Z1").loads[0].contact_stiffness, expected,
+                        rel_tol=REL)
+    assert w.message == ""
+    _enter(w.editor("contact_stiffness"), "")  # empty again: rigid
+    assert doc.project.zone("Z1").loads[0].contact_stiffness is None
+    assert doc.undo_stack.count() == 2
+    doc.undo_stack.undo()
+    assert math.isclose(doc.project.zone("Z1").loads[0].contact_stiffness, expected,
+                        rel_tol=REL)
+    doc.undo_stack.undo()
+    assert doc.project.zone("Z1").loads[0].contact_stiffness is None
+    assert w.editor("contact_stiffness").text() == ""
+
+
+def test_load_underside_stiffness_out_of_range_is_refused(inspector: Inspector,
+                                                          doc: Document) -> None:
+    doc.select(Selection("load", ("Z1", "Pump skid")))
+    _enter(inspector.editor("contact_stiffness"), "1 N/m")
+    assert doc.project.zone("Z1").loads[0].contact_stiffness is None
+    assert doc.undo_stack.count() == 0
+    assert "Underside stiffness" in inspector.message and "Allowed" in inspector.message
+    assert inspector.editor("contact_stiffness").text() == ""

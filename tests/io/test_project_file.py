@@ -14,6 +14,7 @@ import hashlib
 import json
 import math
 import os
+from dataclasses import replace
 from pathlib import Path
 from typing import Any
 
@@ -138,7 +139,8 @@ def loads(draw: st.DrawFn, name: str) -> LiftLoad:
     return LiftLoad(name, draw(_f(1.0, 500_000.0)), draw(_f(0.01, 30.0)), draw(_f(0.01, 30.0)),
                     draw(_f(0.0, 200.0)) if by_drop else None,
                     None if by_drop else draw(_f(-500.0, 1500.0)), draw(_f(0.0, 200.0)),
-                    draw(st.sampled_from(["load", "rigging"])))
+                    draw(st.sampled_from(["load", "rigging"])),
+                    draw(st.one_of(st.none(), _f(1e4, 1e12))))
 
 
 @st.composite
@@ -306,6 +308,24 @@ def test_hand_written_minimal_file_uses_model_defaults() -> None:
     assert p.settings == Settings() and p.info == ProjectInfo()
 
 
+def test_load_contact_stiffness_is_optional_and_round_trips(office_roof: Project,
+                                                           office_roof_doc: dict[str, Any]
+                                                           ) -> None:
+    # A file written before the key existed (no contact_stiffness_N_per_m) reads as a
+    # rigid load; a given stiffness is written in N/m and read back exactly.
+    load_doc = office_roof_doc["lift_zones"][0]["loads"][0]
+    assert "contact_stiffness_N_per_m" not in load_doc
+    assert loads_project(json.dumps(office_roof_doc)).lift_zones[0].loads[0] \
+        .contact_stiffness is None
+    zone = office_roof.lift_zones[0]
+    soft = replace(zone.loads[0], contact_stiffness=3.7e7)
+    p = replace(office_roof, lift_zones=(replace(zone, loads=(soft,)),))
+    doc = json.loads(dumps_project(p))
+    assert doc["lift_zones"][0]["loads"][0]["contact_stiffness_N_per_m"] == 3.7e7
+    jsonschema.Draft202012Validator(pf.schema()).validate(doc)
+    assert loads_project(dumps_project(p)) == p
+
+
 # --------------------------------------------------------------------------- bad files
 
 def test_truncated_file_gives_line_and_column(office_roof: Project) -> None:
@@ -392,6 +412,9 @@ def test_every_schema_problem_is_reported_at_once(office_roof_doc: dict[str, Any
      "$.levels[0].members[4].id: member id 'BA/1-2' is already used at $.levels[0].members[3]"),
     (["lift_zones", 0, "level_id"], "L9",
      "$.lift_zones[0].level_id: 'L9' is not the id of a level in this file"),
+    (["lift_zones", 0, "loads", 0, "contact_stiffness_N_per_m"], 50.0,
+     "$.lift_zones[0].loads[0].contact_stiffness_N_per_m: load unit.contact_stiffness: 50 N/m "
+     "is not allowed"),
     (["lift_zones", 0, "corridor_m"], [[0, 0], [1e5, 0], [1, 1]],
      "$.lift_zones[0].corridor_m[1][0]: zone Z1.corridor[1].x: 100000 m is not allowed"),
     (["protection_areas", 0, "area", "x1_m"], -1.0,
