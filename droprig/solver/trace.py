@@ -1,6 +1,10 @@
 """Calculation trace of one drop point: every step of :func:`droprig.solver.analysis.analyse`
 at that point, with its symbol, formula, inputs (SI) and source.
 
+Step titles hold names only (members, checks, span types), never a number: every
+value a step depends on is one of its ``inputs`` (value SI, quantity), so the
+edges write it in the user's units.
+
 The numbers come from the very same vectorised evaluation as the analysis
 (:func:`droprig.solver.analysis.evaluate_case` on a one-point array), so the
 trace and the results agree to machine precision.
@@ -102,8 +106,8 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
             "w_1 = 1 − t, w_2 = t, t = s / S",
             {"s": (path.strip_pos[0], "length"), "S": (path.strip_span[0], "length")},
             path.share[0, k], "dimensionless", _SRC_PATH)
-        add(f"Position of the load along {members[m].id} "
-            f"({COND_NAMES[fr.cond[m]]}, L = {fr.L[m]:.3f} m)", f"a_{k + 1}",
+        add(f"Position of the load along {members[m].id} ({COND_NAMES[fr.cond[m]]} span)",
+            f"a_{k + 1}",
             "a = distance from the member's start", {"L": (fr.L[m], "length")},
             path.a[0, k], "length", _SRC_PATH)
     g_own = path.g_own[0]
@@ -151,10 +155,11 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     m1 = int(path.members[0, 0]) if path.share[0, 0] >= path.share[0, 1] else \
         int(path.members[0, 1])
     limit = fr.L[m1] / project.settings.deflection_limit_ratio
-    add(f"Deflection against span/{project.settings.deflection_limit_ratio:g} of "
-        f"{members[m1].id} (information only, not a pass criterion)", "δ_max/δ_lim",
+    add(f"Deflection against the limit span/N of {members[m1].id} "
+        "(information only, not a pass criterion)", "δ_max/δ_lim",
         "δ_max / (L/N)", {"δ_max": (r["max_deflection"][0], "length"),
-                          "L/N": (limit, "length")},
+                          "L/N": (limit, "length"),
+                          "N": (project.settings.deflection_limit_ratio, "dimensionless")},
         r["max_deflection"][0] / limit, "dimensionless",
         "IBC Table 1604.3 (serviceability; information for an accidental impact)")
     add("Deceleration of the load", "a/g", "a/g = F/W − 1",
