@@ -43,6 +43,10 @@ _SRC_CHECK = {
     "deck_flexure": "ACI 318-19 §22.2 / EN 1992-1-1 §3.1.7 (droprig.solver.deck)",
     "deck_punching": "ACI 318-19 §22.6 / EN 1992-1-1 §6.4.4 (droprig.solver.deck)",
 }
+_SRC_SERIES = ("springs in series, 1/k_eff = Σ 1/k_i (Gere, Mechanics of Materials 7th ed., "
+               "§9.10 energy method)")
+_SRC_HINGE = ("AISC 360-16 Appendix 1 §1.3.2b / EN 1993-1-1 §5.6 Class 1 "
+              "(droprig.solver.capacity.plastic_hinge_capable)")
 _SRC_PLASTIC = "Biggs, Introduction to Structural Dynamics (1964); UFC 3-340-02 ch. 3"
 
 
@@ -122,10 +126,17 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         r["_f_deck"][0], "compliance",
         "Sneddon 1965 / Johnson, Contact Mechanics §3.8; AISC Manual Table 3-23 case 8 "
         "(droprig.solver.contact)")
-    add("Compliance of the struck point", "f", "f = f_s + f_deck + 1/k_mat",
+    k_load = load.contact_stiffness
+    add("Compliance of the load's underside (skid, base frame, dunnage)"
+        + ("" if k_load is not None else ": none given, load taken as rigid (conservative)"),
+        "1/k_load", "1/k_load (0 for a rigid load)",
+        {"k_load": (k_load, "stiffness")} if k_load is not None else {},
+        r["_f_load"][0], "compliance", _SRC_SERIES)
+    add("Compliance of the struck point", "f", "f = f_s + f_deck + 1/k_load + 1/k_mat",
         {"f_s": (r["_f_s"][0], "compliance"), "f_deck": (r["_f_deck"][0], "compliance"),
+         "1/k_load": (r["_f_load"][0], "compliance"),
          "1/k_mat": (r["_f_mat"][0], "compliance")},
-        r["_f"][0], "compliance", "series springs (Engineering ToolBox, Impact Force)")
+        r["_f"][0], "compliance", _SRC_SERIES + "; Engineering ToolBox, Impact Force")
     add("Effective struck mass", "m_e", "m_e = Σ_m ∫ μ_m (w_m(x)/w(p))² dx",
         {}, r["effective_mass"][0], "mass", _SRC_RAYLEIGH)
     M = load.mass
@@ -189,6 +200,12 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     add("Plastic collapse resistance of the path", "R_p",
         "R_p = min over path members of the collapse load for a load at p",
         {}, r["_R_p"][0], "force", "virtual work (Neal); droprig.solver.beam")
+    if r["_no_hinge"][0]:
+        add("Flexure beyond the resistance of a section that cannot form a plastic hinge "
+            f"({mname(r['governing_member'][0])}): no plastic reserve, exceeds",
+            "F/F_allow,nh", "F / F_allow of the members without hinge capacity",
+            {"F": (r["peak_force"][0], "force"), "F_allow,nh": (r["_nh_fa"][0], "force")},
+            r["peak_force"][0] / r["_nh_fa"][0], "dimensionless", _SRC_HINGE)
     if r["response"][0] != 0 and r["_flexure_U"][0] > 1.0:
         add("Brittle checks at the plastic force", "U_brittle", "U at F = min(F, R_p)",
             {"R_p": (r["_R_p"][0], "force")}, r["_Ub_cap"][0], "dimensionless",
