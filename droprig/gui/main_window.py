@@ -10,9 +10,11 @@ shortcuts.
 from __future__ import annotations
 
 import datetime as _dt
+import html
 import math
 from dataclasses import replace
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from PySide6.QtCore import QByteArray, QSettings, Qt, QTimer
 from PySide6.QtGui import QAction, QCloseEvent, QKeySequence, QShowEvent
@@ -30,7 +32,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from droprig import __version__
+from droprig import __version__, units
 from droprig.cli import CAUTION
 from droprig.gui import commands as ed
 from droprig.gui import style
@@ -43,6 +45,9 @@ from droprig.gui.document import (
     find_recoverable,
 )
 from droprig.gui.inspector import FormDialog, Inspector, opening_form, protection_form
+
+if TYPE_CHECKING:
+    from droprig.gui.generator_dialog import GeneratorDialog
 from droprig.gui.project_tree import ProjectTree
 from droprig.gui.results_table import ResultsTable
 from droprig.gui.settings_dialog import SettingsDialog
@@ -232,11 +237,20 @@ class MainWindow(QMainWindow):
         g.addWidget(self.guide_text, 1)
         g.addWidget(self.guide_button)
 
+        self.plan_heading = QLabel()
+        self.plan_heading.setObjectName("planHeading")
+        self.plan_heading.setWordWrap(True)
+        self.plan_heading.setTextFormat(Qt.TextFormat.RichText)
+        self.plan_heading.setStyleSheet("QLabel#planHeading { background: #F4F4F0; "
+                                        "color: #1E1E1E; padding: 3px 8px; "
+                                        "border-bottom: 1px solid #CFCFC8; }")
+
         central = QWidget()
         v = QVBoxLayout(central)
         v.setContentsMargins(0, 0, 0, 0)
         v.setSpacing(0)
         v.addWidget(bar)
+        v.addWidget(self.plan_heading)
         v.addWidget(self.guide)
         v.addWidget(self.plan, 1)
         self.setCentralWidget(central)
@@ -361,6 +375,7 @@ class MainWindow(QMainWindow):
         self.runner.finished.connect(self._on_analysis_finished)
         self.plan.zone_changed.connect(self._on_zone_changed)
         self.plan.protection_drawn.connect(self._on_protection_drawn)
+        self.plan.mode_changed.connect(self._on_plan_mode_changed)
         self.plan.bay_clicked.connect(self._on_bay_clicked)
         self.plan.point_clicked.connect(self._on_point_clicked)
         self.plan.hover_text.connect(self._on_hover_text)
@@ -382,6 +397,7 @@ class MainWindow(QMainWindow):
         self._fill_level_combo()
         self._fill_case_combo()
         self._update_guide()
+        self._update_heading()
         s = project.settings
         self.units_label.setText(f"Units: {UNIT_LABELS.get(s.unit_system, s.unit_system)}")
         self.basis_label.setText(f"Basis: {BASIS_LABELS.get(s.design_basis, s.design_basis)}")
@@ -436,6 +452,7 @@ class MainWindow(QMainWindow):
         self.plan.set_results(self._plan_results())
         self._fill_case_combo()
         self._update_state_label()
+        self._update_heading()
 
     def _on_selection_changed(self, sel: Selection | None) -> None:
         if sel is not None and sel.kind == "bay":
@@ -455,6 +472,7 @@ class MainWindow(QMainWindow):
         i = self.level_combo.findData(level_id)
         if i >= 0:
             self.level_combo.setCurrentIndex(i)
+        self._update_heading()
 
     def _on_path_changed(self, path: Path | None) -> None:
         self.setWindowTitle(f"{self.doc.title}[*] — droprig")
@@ -514,7 +532,10 @@ class MainWindow(QMainWindow):
             for ld in z.loads:
                 label = f"{z.id} {z.name} · {ld.name}".replace("  ", " ")
                 self.case_combo.addItem(label, (z.id, ld.name))
-        self.case_combo.setCurrentIndex(max(0, self.case_combo.findData(current)))
+        # QComboBox.findData compares Python tuples by identity: match by value
+        keep = next((i for i in range(self.case_combo.count())
+                     if self.case_combo.itemData(i) == current), 0)
+        self.case_combo.setCurrentIndex(keep)
         self.case_combo.blockSignals(False)
         if self.case_combo.currentData() != current:
             self._on_case_chosen(self.case_combo.currentIndex())
@@ -529,12 +550,57 @@ class MainWindow(QMainWindow):
         i = f.findData(None if data is None else f"{data[0]}\x1f{data[1]}")
         if i >= 0:
             f.setCurrentIndex(i)
+        self._update_heading()
 
     def set_overlay(self, mode: str) -> None:
         self.plan.set_overlay(mode)
         self.overlay_combo.setCurrentIndex(self.overlay_combo.findData(mode))
         for m in style.OVERLAYS:
             self.actions[f"overlay_{m}"].setChecked(m == mode)
+        self._update_heading()
+
+    def plan_heading_text(self) -> str:
+        """One line over the plan saying what it shows, in plain words: the level,
+        what the colours stand for, which lift and load, and where the key and the
+        caution are (for a first-time reader). Plain text."""
+        p = self.doc.project
+        lv = self.doc.level
+        if lv is None:
+            return "No level yet: build the floor framing first."
+        shown = {"outcome": "bays coloured by outcome (E stays elastic, Y yields within "
+                            "limits, X exceeds limits)",
+                 "utilisation": "drop points coloured by utilisation U = demand / "
+                                "resistance (above 1.00 a check is exceeded)",
+                 "drop_height": "drop points coloured by the allowable drop height"
+                 }.get(self.plan.overlay, self.plan.overlay)
+        data = self.case_combo.currentData()
+        if data is None:
+            n = sum(len(z.loads) for z in p.lift_zones if z.level_id == lv.id)
+            which = (f"worst of all {n} load(s) of every lift zone on this level"
+                     if n else "no lift zone with a load on this level yet")
+        else:
+            zid, load_name = data
+            which = f"lift {zid}, load {load_name}"
+            try:
+                z = p.zone(zid)
+                ld = next(x for x in z.loads if x.name == load_name)
+                which = (f"lift {z.id} ({z.name}), load {ld.name}: "
+                         f"{units.fmt(ld.mass, 'mass', p.settings.unit_system)}")
+                case = next((c for c in (self.doc.results.cases if self.doc.results else ())
+                             if (c.zone_id, c.load_name) == data), None)
+                if case is not None:
+                    which += (", planned drop "
+                              + units.fmt(case.planned_drop_height, "length",
+                                          p.settings.unit_system))
+            except (KeyError, StopIteration):
+                pass
+        state = "" if self.doc.results_current else " Results are being updated."
+        return (f"Level {lv.name}: {shown}; {which}. Key at the top right of the plan; "
+                f"the caution is under the plan.{state}")
+
+    def _update_heading(self) -> None:
+        if hasattr(self, "plan_heading"):
+            self.plan_heading.setText(html.escape(self.plan_heading_text()))
 
     def _update_actions(self) -> None:
         sel = self.doc.selection
@@ -580,8 +646,16 @@ class MainWindow(QMainWindow):
     def _on_draw_toggled(self, on: bool) -> None:
         self.plan.set_mode("draw_protection" if on else "select")
         if on:
+            self.plan.setFocus()  # so Esc reaches the plan at once
             self.statusBar().showMessage("Drag a rectangle on the plan where the mat goes "
-                                         "(press Draw protection area again to stop)", 8000)
+                                         "(Esc, or Draw protection area again, to stop)", 8000)
+
+    def _on_plan_mode_changed(self, mode: str) -> None:
+        act = self.actions["draw_protection"]
+        if act.isChecked() != (mode == "draw_protection"):
+            act.blockSignals(True)
+            act.setChecked(mode == "draw_protection")
+            act.blockSignals(False)
 
     # ================================================================ trace
 
@@ -616,32 +690,49 @@ class MainWindow(QMainWindow):
         return None
 
     def generate_framing(self) -> None:
-        from droprig.gui.generator_dialog import GeneratorDialog
-
+        """Generate floor framing. With a level on the plan, first ask whether to
+        replace its framing (the dialog then opens filled from that level) or to
+        add a new level; the dialog works in the project's unit system."""
         p = self.doc.project
         ids = [lv.id for lv in p.levels]
         current = self.doc.level_id
-        cur = p.level(current) if current else None
-        dlg = GeneratorDialog(self, unit_system=p.settings.unit_system,
-                              level_id=cur.id if cur else ed.unique_id("L", ids),
-                              level_name=cur.name if cur else "Level 1",
-                              existing_level_ids=tuple(i for i in ids if i != current))
+        choice = "add"
+        if current:
+            choice = self.ask_replace_or_add(p.level(current).name) or ""
+            if choice not in ("replace", "add"):
+                return
+        dlg = self.generator_dialog(replace_level=current if choice == "replace" else None)
         if not dlg.exec():
             return
         level = dlg.level()
         if level is None:
             return
-        if current:
-            choice = self.ask_replace_or_add(p.level(current).name)
-            if choice == "replace":
-                self.replace_level_framing(current, level)
-                return
-            if choice != "add":
-                return
+        if choice == "replace" and current:
+            self.replace_level_framing(current, level)
+            return
         if level.id in ids:
             level = replace(level, id=ed.unique_id("L", ids))
         self._edit(lambda p: ed.add_level(p, level), f"Add level {level.name}")
         self.doc.set_level(level.id)
+
+    def generator_dialog(self, replace_level: str | None = None) -> GeneratorDialog:
+        """The framing generator in the project's unit system: filled from level
+        ``replace_level`` (to regenerate it), or for a new level with a free id."""
+        from droprig.gui.generator_dialog import GeneratorDialog
+
+        p = self.doc.project
+        ids = [lv.id for lv in p.levels]
+        if replace_level is not None:
+            cur = p.level(replace_level)
+            dlg = GeneratorDialog(self, unit_system=p.settings.unit_system, level_id=cur.id,
+                                  level_name=cur.name,
+                                  existing_level_ids=tuple(i for i in ids if i != cur.id))
+            dlg.prefill(cur)
+            return dlg
+        return GeneratorDialog(self, unit_system=p.settings.unit_system,
+                               level_id=ed.unique_id("L", ids),
+                               level_name=f"Level {len(ids) + 1}",
+                               existing_level_ids=tuple(ids))
 
     def ask_replace_or_add(self, level_name: str) -> str | None:
         """"replace", "add" or None (cancelled)."""

@@ -571,11 +571,13 @@ class ZonesItem(PixelSized, QGraphicsItem):
         painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
         if self.part == "crane":
             t = painter.worldTransform()
+            bounds = QRectF(widget.rect()) if widget is not None else None
             painter.save()
             painter.resetTransform()
             for z in self.shown_zones():
                 self._paint_crane(painter, t.map(to_scene(*z.crane)),
-                                  z.slew_start + z.slew_sweep / 2, z, z.id == self._selected)
+                                  z.slew_start + z.slew_sweep / 2, z, z.id == self._selected,
+                                  bounds)
             painter.restore()
             return
         teal = QColor(style.PLAN["zone_edge"])
@@ -619,7 +621,7 @@ class ZonesItem(PixelSized, QGraphicsItem):
         return f"CRANE {z.id}" + (f" · {name}" if name and z.name != z.id else "")
 
     def _paint_crane(self, painter: QPainter, p: QPointF, mid: float, z: LiftZone,
-                     selected: bool) -> None:
+                     selected: bool, bounds: QRectF | None = None) -> None:
         teal = QColor(style.PLAN["crane"])
         painter.setPen(cosmetic_pen(teal, 2.0))
         painter.setBrush(QColor(255, 255, 255, 235))
@@ -634,8 +636,9 @@ class ZonesItem(PixelSized, QGraphicsItem):
         painter.setPen(cosmetic_pen(teal, 3.0))
         painter.drawLine(p, QPointF(p.x() + 24 * math.cos(mid), p.y() - 24 * math.sin(mid)))
         painter.setFont(pixel_font(11, True))
-        text = self.crane_label(z)
-        plate = crane_label_rect(p, z)
+        plate = keep_inside(crane_label_rect(p, z), bounds)
+        text = QFontMetricsF(pixel_font(11, True)).elidedText(
+            self.crane_label(z), Qt.TextElideMode.ElideRight, plate.width() - 6)
         painter.setPen(cosmetic_pen(teal, 1.4 if selected else 1.0))
         painter.setBrush(QColor(255, 255, 255, 230))
         painter.drawRect(plate)
@@ -659,6 +662,26 @@ def crane_label_rect(p: QPointF, z: LiftZone) -> QRectF:
     # plan +y is screen up: a jib pointing north (sin > 0) puts the label below
     top = p.y() + 22 if below else p.y() - 22 - 15
     return QRectF(p.x() - tw / 2, top, tw, 15)
+
+
+LABEL_MARGIN_PX = 4.0
+"""Least gap between a fixed-size label and the edge of the view (pixels)."""
+
+
+def keep_inside(rect: QRectF, bounds: QRectF | None,
+                margin: float = LABEL_MARGIN_PX) -> QRectF:
+    """``rect`` moved (and, if wider or taller than ``bounds``, shrunk) so that it lies
+    inside ``bounds`` less ``margin`` on every side; unchanged when ``bounds`` is
+    None. Device pixels. Keeps crane labels readable when the crane stands near or
+    beyond the edge of the view."""
+    if bounds is None or bounds.isEmpty():
+        return QRectF(rect)
+    inner = bounds.adjusted(margin, margin, -margin, -margin)
+    w = min(rect.width(), max(inner.width(), 1.0))
+    h = min(rect.height(), max(inner.height(), 1.0))
+    x = min(max(rect.left(), inner.left()), inner.right() - w)
+    y = min(max(rect.top(), inner.top()), inner.bottom() - h)
+    return QRectF(x, y, w, h)
 
 
 # ------------------------------------------------------------------ handles

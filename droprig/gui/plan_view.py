@@ -181,7 +181,9 @@ class PlanView(QGraphicsView):
     Signals: ``zone_changed(zone_id, LiftZone)`` once per released handle drag;
     ``protection_drawn(Rect)`` after a rubber band in "draw_protection" mode;
     ``bay_clicked(bay_id)``; ``point_clicked(zone_id, load_name, x, y)`` for the
-    nearest analysed drop point of the displayed case(s); ``hover_text(str)``.
+    nearest analysed drop point of the displayed case(s); ``hover_text(str)``;
+    ``mode_changed(mode)`` when the edit mode changes (also when Esc leaves the
+    draw-protection mode).
     """
 
     zone_changed = Signal(str, object)
@@ -189,6 +191,7 @@ class PlanView(QGraphicsView):
     bay_clicked = Signal(str)
     point_clicked = Signal(str, str, float, float)
     hover_text = Signal(str)
+    mode_changed = Signal(str)
 
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent)
@@ -354,6 +357,7 @@ class PlanView(QGraphicsView):
         """"select" (click, hover, handles) or "draw_protection" (rubber band)."""
         if mode not in EDIT_MODES:
             raise ValueError(f"edit mode {mode!r}; allowed: {', '.join(EDIT_MODES)}")
+        changed = mode != getattr(self, "_mode", mode)
         self._mode = mode
         self._band_origin = None
         self._band_item.setVisible(False)
@@ -361,6 +365,8 @@ class PlanView(QGraphicsView):
             self._drag_label.setVisible(False)
         self.viewport().setCursor(Qt.CursorShape.CrossCursor if mode == "draw_protection"
                                   else Qt.CursorShape.ArrowCursor)
+        if changed:
+            self.mode_changed.emit(mode)
 
     def set_case(self, zone_id: str | None, load_name: str | None = None) -> None:
         """Colour the plan by one analysed case; ``None`` = worst per bay over all."""
@@ -704,6 +710,9 @@ class PlanView(QGraphicsView):
                         h.update()
                 self._end_drag_visuals()
                 self.hover_text.emit("drag cancelled")
+            elif self._mode == "draw_protection":
+                self.set_mode("select")
+                self.hover_text.emit("drawing a protection area ended")
             event.accept()
             return
         super().keyPressEvent(event)
