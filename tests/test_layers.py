@@ -43,5 +43,19 @@ def test_solver_imports_only_model_and_numpy() -> None:
     for path in (ROOT / "solver").rglob("*.py"):
         imps = _imports(path)
         for bad in ("droprig.io", "droprig.report", "droprig.gui", "droprig.units",
-                    "matplotlib", "pint"):
+                    "droprig.advice", "droprig.outcomes", "matplotlib", "pint"):
             assert not any(i.startswith(bad) for i in imps), f"{path} imports {bad}"
+
+
+@pytest.mark.parametrize("module", ["outcomes.py", "advice.py"])
+def test_shared_edge_modules_are_qt_free(module: str) -> None:
+    # read by the desktop app, the annex and the command line alike
+    imps = _imports(ROOT / module)
+    assert "PySide6" not in imps and "matplotlib" not in imps and "reportlab" not in imps
+    assert not any(i.startswith("droprig.gui") or i.startswith("droprig.report")
+                   for i in imps)
+
+
+def test_outcome_palette_needs_nothing_but_the_standard_library() -> None:
+    assert not any(i.startswith("droprig") or i in ("numpy", "pint")
+                   for i in _imports(ROOT / "outcomes.py"))
