@@ -8,12 +8,11 @@ annex so the wording is the same everywhere.
 Limits are rounded towards the safe side for display: a drop-height limit and the
 stiffest acceptable mat are rounded down, the travel a mat must allow is rounded
 up (common practice, no source), so a printed figure never promises more than the
-analysis found.
+analysis found. Allowable heights elsewhere on screen and in print are rounded down
+the same way, so the advice and the tables agree.
 """
 
 from __future__ import annotations
-
-import math
 
 from droprig import units
 from droprig.outcomes import fmt_utilisation
@@ -30,26 +29,15 @@ YIELDS = "Members yield but stay within the ductility and rotation limits. "
 ACCEPT = "No mat keeps it elastic; accept only with the engineer's approval."
 
 
-def _rounded(value: float, quantity: str, system: UnitSystem, direction: int) -> str:
-    _, _, _, d_si, d_us = units.QUANTITIES[quantity]
-    d = d_si if system == "SI" else d_us
-    mag = units.to_display(value, quantity, system) * 10**d
-    # a hair of slack so an exact display value (0.4 m) is not pushed a step away
-    mag = math.floor(mag + 1e-9) if direction < 0 else math.ceil(mag - 1e-9)
-    text = f"{mag / 10**d:,.{d}f}"
-    u = units.display_unit(quantity, system)
-    return f"{text} {u}" if u else text
-
-
 def fmt_down(value: float, quantity: str, system: UnitSystem = "SI") -> str:
     """``value`` (SI) in the display unit of ``system``, rounded down to the display
     decimals of :data:`droprig.units.QUANTITIES` (for limits not to be exceeded)."""
-    return _rounded(value, quantity, system, -1)
+    return units.fmt(value, quantity, system, rounding="down")
 
 
 def fmt_up(value: float, quantity: str, system: UnitSystem = "SI") -> str:
     """As :func:`fmt_down`, rounded up (for amounts that must at least be provided)."""
-    return _rounded(value, quantity, system, +1)
+    return units.fmt(value, quantity, system, rounding="up")
 
 
 def _height(b: BaySummary, system: UnitSystem) -> str:

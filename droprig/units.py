@@ -135,16 +135,33 @@ def to_display(value: float, quantity: str, system: UnitSystem) -> float:
     return float(ureg.Quantity(value, base).to(si_unit if system == "SI" else us_unit).magnitude)
 
 
+Rounding = Literal["nearest", "down", "up"]
+
+
+def round_display(mag: float, decimals: int, rounding: Rounding = "nearest") -> float:
+    """``mag`` rounded to ``decimals``: to the nearest, or down / up for a limit that
+    must not be overstated (an allowable height) or an amount that must at least be
+    provided (a mat's travel). A hair of slack keeps an exact value (0.4) where it is."""
+    if rounding == "nearest" or not math.isfinite(mag):
+        return mag
+    k = 10.0**decimals
+    return (math.floor(mag * k + 1e-9) if rounding == "down"
+            else math.ceil(mag * k - 1e-9)) / k
+
+
 def fmt(value: float | None, quantity: str, system: UnitSystem = "SI", *,
-        decimals: int | None = None, unit: bool = True) -> str:
-    """SI value -> text in the user's units; ``None`` / nan -> ``"none"``."""
+        decimals: int | None = None, unit: bool = True,
+        rounding: Rounding = "nearest") -> str:
+    """SI value -> text in the user's units; ``None`` / nan -> ``"none"``.
+    ``rounding="down"`` for limits (allowable heights, the stiffest mat), ``"up"``
+    for amounts that must at least be provided (:func:`round_display`)."""
     if value is None or (isinstance(value, float) and math.isnan(value)):
         return "none"
     if isinstance(value, float) and math.isinf(value):
         return "unlimited"
     _, _, _, d_si, d_us = QUANTITIES[quantity]
     d = decimals if decimals is not None else (d_si if system == "SI" else d_us)
-    mag = to_display(float(value), quantity, system)
+    mag = round_display(to_display(float(value), quantity, system), d, rounding)
     text = f"{mag:,.{d}f}"
     u = display_unit(quantity, system)
     return f"{text} {u}" if unit and u else text

@@ -76,3 +76,20 @@ def test_limits_round_towards_the_safe_side(value, quantity, system, down, up):
     # a limit printed must never exceed the computed one (common practice, no source)
     assert fmt_down(value, quantity, system) == down
     assert fmt_up(value, quantity, system) == up
+
+
+@pytest.mark.parametrize("value, system, nearest, down", [
+    (0.2374, "US", "0.78 ft", "0.77 ft"),  # 0.2374 m = 0.7789 ft
+    (1.2346, "SI", "1.235 m", "1.234 m"),
+    (0.4, "SI", "0.400 m", "0.400 m"),
+])
+def test_allowable_heights_print_like_the_advice(value, system, nearest, down):
+    # the tables round allowable heights down as the advice does, so the two agree
+    # (common practice, no source); 1 ft = 0.3048 m (NIST SP 811 B.8)
+    from droprig import units
+    from droprig.report.text import fmt_allow
+
+    assert units.fmt(value, "length", system) == nearest
+    assert units.fmt(value, "length", system, rounding="down") == down
+    assert fmt_allow(value, "length", system) == down
+    assert fmt_down(value, "length", system) == down

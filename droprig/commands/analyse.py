@@ -141,7 +141,7 @@ def table_text(project: Any, results: Any) -> str:
     for b in results.bays:
         rows.append((b.zone_id, b.load_name, b.bay_id, str(b.n_points),
                      fmt_utilisation(b.max_utilisation), b.response,
-                     fmt(b.allowable_drop_height, "length", system),
+                     fmt(b.allowable_drop_height, "length", system, rounding="down"),
                      f"{b.governing_member} / {b.governing_check.replace('_', ' ')}"))
     widths = [max(len(h), *(len(r[i]) for r in rows)) if rows else len(h)
               for i, h in enumerate(head)]

@@ -913,7 +913,7 @@ class Inspector(QWidget):
             order = {k: i for i, k in enumerate(style.OUTCOME_ORDER)}
             for b in sorted(rows, key=lambda r: -order.get(r.response, -1)):
                 st = style.outcome(b.response)
-                allow = units.fmt(b.allowable_drop_height, "length", system)
+                allow = units.fmt(b.allowable_drop_height, "length", system, rounding="down")
                 html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
                          f"{b.load_name}<br>max U {fmt_utilisation(b.max_utilisation)}; "
                          f"allowable drop {allow}<br>governing: {b.governing_member} "

@@ -549,7 +549,8 @@ class PlanView(QGraphicsView):
             def drop_line(s: BayState) -> tuple[str, str]:
                 if s.allowable_drop_height is None:
                     return "no safe drop", "none"
-                h = units.fmt(s.allowable_drop_height, "length", sysm, decimals=2)
+                h = units.fmt(s.allowable_drop_height, "length", sysm, decimals=2,
+                              rounding="down")
                 return f"drop ≤ {h}", h
 
             self._labels_item.value_line = drop_line
@@ -873,10 +874,12 @@ class PlanView(QGraphicsView):
             if s.key == style.OUTCOME_NONE:
                 parts.append(f"Bay {s.bay.id}: {st.label.lower()}")
             else:
+                h_el = units.fmt(s.allowable_drop_height, "length", sysm, rounding="down")
+                h_pl = units.fmt(s.allowable_drop_height_plastic, "length", sysm,
+                                 rounding="down")
                 parts.append(
                     f"Bay {s.bay.id}: {st.label.lower()}, max U {fmt_ratio(s.max_utilisation)}, "
-                    f"allowable drop {units.fmt(s.allowable_drop_height, 'length', sysm)}"
-                    f" (yielding {units.fmt(s.allowable_drop_height_plastic, 'length', sysm)})")
+                    f"allowable drop {h_el} (yielding {h_pl})")
         hit = self.nearest_point(x, y)
         if hit is not None:
             c, i = hit
@@ -887,7 +890,8 @@ class PlanView(QGraphicsView):
                 f"{units.fmt(float(c.y[i]), 'length', sysm, decimals=2)}) "
                 f"{c.load_name} in {c.zone_id}: {resp.lower()}, "
                 f"U {fmt_ratio(float(c.utilisation[i]))}, "
-                f"allowable drop {units.fmt(float(c.allowable_drop_height[i]), 'length', sysm)}")
+                f"allowable drop "
+                f"{units.fmt(float(c.allowable_drop_height[i]), 'length', sysm, rounding='down')}")
         else:
             parts.append(f"x {units.fmt(x, 'length', sysm, decimals=2)}, "
                          f"y {units.fmt(y, 'length', sysm, decimals=2)}")

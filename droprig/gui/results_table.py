@@ -186,11 +186,12 @@ class BayResultsModel(QAbstractTableModel):
         if key == "util":
             return fmt_utilisation(b.max_utilisation)
         if key == "allow":
-            el = units.fmt(_fin(b.allowable_drop_height), "length", s)
+            el = units.fmt(_fin(b.allowable_drop_height), "length", s, rounding="down")
             pl = _fin(b.allowable_drop_height_plastic)
-            if pl is None or units.fmt(pl, "length", s) == el:
+            pl_text = units.fmt(pl, "length", s, rounding="down")
+            if pl is None or pl_text == el:
                 return el
-            return f"{el}  ({units.fmt(pl, 'length', s)})"
+            return f"{el}  ({pl_text})"
         if key == "planned":
             return units.fmt(self._planned.get((b.zone_id, b.load_name)), "length", s)
         if key == "governing":

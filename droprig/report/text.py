@@ -38,7 +38,7 @@ def is_none(value: float | None) -> bool:
 
 
 def fmt_value(value: float | None, quantity: str, system: UnitSystem, *,
-              unit: bool = True) -> str:
+              unit: bool = True, rounding: units.Rounding = "nearest") -> str:
     """An SI value as text in the project's unit system.
 
     Delegates to :func:`droprig.units.fmt`; lengths under
@@ -71,7 +71,8 @@ def fmt_value(value: float | None, quantity: str, system: UnitSystem, *,
     if abs(mag) >= HUGE:  # a degenerate value: keep it short and plainly odd
         return f"{mag:.3e}" + (f" {u}" if unit and u else "")
     _, _, _, d_si, d_us = units.QUANTITIES[quantity]
-    text = f"{mag:,.{d_si if system == 'SI' else d_us}f}"
+    d = d_si if system == "SI" else d_us
+    text = f"{units.round_display(mag, d, rounding):,.{d}f}"
     return f"{text} {u}" if unit and u else text
 
 
@@ -86,10 +87,11 @@ def _factor(quantity: str, system: UnitSystem) -> float:
 def fmt_allow(value: float | None, quantity: str, system: UnitSystem) -> str:
     """An allowable value (drop height, mass): ``unlimited`` when infinite (no
     limit is reached at any value), ``none`` when none is acceptable, otherwise
-    as :func:`fmt_value`."""
+    as :func:`fmt_value` rounded down (a limit is never overstated, as in
+    :mod:`droprig.advice`)."""
     if not is_none(value) and math.isinf(float(value)) and float(value) > 0:  # type: ignore[arg-type]
         return "unlimited"
-    return fmt_value(value, quantity, system)
+    return fmt_value(value, quantity, system, rounding="down")
 
 
 @lru_cache(maxsize=64)
