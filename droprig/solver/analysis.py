@@ -143,6 +143,12 @@ class FloorModel:
     warnings: tuple[str, ...] = field(default=())
     hinge: np.ndarray | None = None
 
+    @property
+    def frame_mass(self) -> float:
+        """Mass of all members of the level, kg (an upper bound of any Rayleigh
+        effective mass of a load path)."""
+        return float(sum(m.section.mass_per_length * m.span for m in self.level.members))
+
 
 def build_floor(level: Level, settings: Settings) -> FloorModel:
     """Load path, resistances and existing-load actions of ``level``."""
@@ -651,7 +657,12 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     f_series = f_deck + f_load + f_mat  # elastic springs in series with the yielding framing
     f = f_struct + f_mat
     m_e = path.m_e if s.include_member_mass else np.zeros(n)
-    m_e = np.where(np.isfinite(m_e), m_e, 0.0)
+    # A Rayleigh mass Σ∫μ(w/w_ref)² dx with |w| ≤ w_ref cannot be negative nor exceed
+    # the mass of the members (Timoshenko Part I); at points a rounding error away
+    # from a column w_ref is itself rounding noise and the ratio is meaningless:
+    # there the framing's mass share is not taken (η = 1, conservative)
+    m_bound = fm.frame_mass
+    m_e = np.where(np.isfinite(m_e) & (m_e >= 0.0) & (m_e <= m_bound), m_e, 0.0)
     # under a mat or a crushable layer the hit on the framing is no longer perfectly
     # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
     m_e = np.where(geo.protection >= 0, 0.0, m_e)

@@ -195,3 +195,33 @@ def test_check_and_analyse_agree_on_a_section_without_hinge_capacity(
     if gate:  # no plastic height offered beyond the elastic one
         assert r["allowable_drop_height_plastic"][0] == pytest.approx(
             r["allowable_drop_height"][0], rel=REL)
+
+
+# --------------------------------------------------------------------------- struck mass
+def test_struck_mass_a_rounding_error_from_a_column_stays_physical() -> None:
+    """Rayleigh: m_e = Σ∫μ(w/w_ref)² dx with |w| ≤ w_ref, so 0 ≤ m_e ≤ the members'
+    mass (Timoshenko, Strength of Materials Part I). A drop point 4e-15 m from a
+    column (a grid line written in feet) must not give a negative or astronomical
+    mass, which would make η ≈ 0 and K ≈ 2 (an unconservative force)."""
+    ft = 0.3048
+    a992 = get_grade("A992")
+    level = generate_level(
+        level_id="L1", name="test", elevation=0.0, x_spacings=(30 * ft, 30 * ft),
+        y_spacings=(30 * ft, 30 * ft), girder_direction="y", beam_spacing=10 * ft,
+        girder_section=get_section("W24X55"), beam_section=get_section("W21X44"),
+        girder_grade=a992, beam_grade=a992)
+    load = LiftLoad("welder", 520.0, 1.5, 0.75, drop_height=0.9, contact_stiffness=1e7)
+    proj = Project(settings=Settings(unit_system="US", design_basis="aisc360"),
+                   levels=(level,), lift_zones=(
+        LiftZone("Z", "zone", "L1", (0.0, 0.0), 0.0, 40.0, loads=(load,)),))
+    fm = analysis.build_floor(level, proj.settings)
+    xs = np.array([30 * ft, 30 * ft, 0.0])
+    ys = np.array([30 * ft + 4e-15, 30 * ft - 4e-15, 30 * ft + 4e-15])
+    r = analysis.evaluate_case(fm, proj, load, analysis.point_geometry(fm, proj, xs, ys),
+                               detail=True)
+    total = sum(m.section.mass_per_length * m.span for m in level.members)
+    assert np.all(r["effective_mass"] >= 0.0) and np.all(r["effective_mass"] <= total)
+    # Gere Eq. 9-94 with η from that mass: K = 1 + √(1 + 2ηh/δst)
+    K = 1 + np.sqrt(1 + 2 * r["_eta"] * 0.9 / r["static_deflection"])
+    np.testing.assert_allclose(r["dynamic_factor"], K, rtol=REL)
+    assert np.all(r["dynamic_factor"] > 10.0)  # a hard landing near a column, not K ≈ 2
