@@ -595,7 +595,8 @@ class MainWindow(QMainWindow):
             except (KeyError, StopIteration):
                 pass
         state = "" if self.doc.results_current else " Results are being updated."
-        return (f"Level {lv.name}: {shown}; {which}. Key at the top right of the plan; "
+        name = lv.name if lv.name.lower().startswith("level") else f"Level {lv.name}"
+        return (f"{name}: {shown}; {which}. Key at the top right of the plan; "
                 f"the caution is under the plan.{state}")
 
     def _update_heading(self) -> None:

@@ -214,3 +214,10 @@ def test_chosen_lift_stays_chosen_after_an_edit(qtbot, window: MainWindow) -> No
     _settle(qtbot, window)
     assert combo.currentData() == ("Z1", "Pump")
     assert "load Pump" in window.plan_heading.text()
+
+
+def test_heading_does_not_repeat_the_word_level(qtbot, window: MainWindow) -> None:
+    lv = replace(_level(), name="Level 3")
+    window.doc.edit(ed.add_level(window.doc.project, lv), "Generate framing")
+    window.doc.set_level("L1")
+    assert window.plan_heading.text().startswith("Level 3:")
