@@ -71,8 +71,7 @@ OUTCOMES: dict[str, Outcome] = {
         "#7B2D5E", "#3E0F2C", "#FFFFFF", "cross"),
     NOT_ASSESSED: Outcome(
         NOT_ASSESSED, "Not assessed", "–",
-        "No drop point of the lift zones considered falls in this bay (or there are no "
-        "results yet).",
+        "No drop point of the lift zones considered falls in this bay.",
         "#E4E4E0", "#8C8C86", "#3A3A36", "dots"),
 }
 """Outcomes by response key, best to worst, then ``"none"``."""
