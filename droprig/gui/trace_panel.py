@@ -84,16 +84,18 @@ def _substitute(formula: str, inputs: dict[str, tuple[float, str]], system: str
     pattern = re.compile("|".join([*alts, r"\w+"]))
     used: set[str] = set()
 
-    def value(k: str) -> str:
+    def value(k: str, enclosed: bool = False) -> str:
         used.add(k)
         v, quantity = inputs[k]
         text = format_value(v, quantity, system)
-        return f"({text})" if " " in text else text
+        return f"({text})" if " " in text and not enclosed else text
 
     def repl(m: re.Match[str]) -> str:
         tok = m.group(0)
+        enclosed = (m.start() > 0 and m.string[m.start() - 1] == "("
+                    and m.end() < len(m.string) and m.string[m.end()] == ")")
         if tok in inputs:
-            return value(tok)
+            return value(tok, enclosed)
         parts = _decompose(tok, plain)
         if not parts or not any(p in inputs for p in parts):
             return tok

@@ -119,6 +119,10 @@ def test_clear_and_unknown_values(qtbot, beam_strike_trace: Trace) -> None:
      "|(1.0 kN)·u + E| / R   with t_mat = 50.0 mm"),
     # 0.05 m = 1.97 in (1 in = 25.4 mm exactly, NIST SP 811)
     ("W·f", {"W": (0.0, "force"), "f": (0.05, "length")}, "US", "(0.00 kip)·(1.97 in)"),
+    # a value already alone in brackets gets no second pair (3 in = 0.0762 m, 1.5 in =
+    # 0.0381 m exactly, NIST SP 811)
+    ("δ_max / (L/N)", {"δ_max": (0.0762, "length"), "L/N": (0.0381, "length")}, "US",
+     "(3.00 in) / (1.50 in)"),
 ])
 def test_substitute_cases(formula: str, inputs: dict, system: str, expected: str) -> None:
     assert substitute(formula, inputs, system) == expected
