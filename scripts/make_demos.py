@@ -30,6 +30,19 @@ from droprig.model import (
 
 OUT = Path(__file__).resolve().parents[1] / "demo_projects"
 
+DECK_AS_SI = 9.0e-4
+"""Bottom reinforcement of the SI roof deck, m²/m: the 1.0 mm profiled steel sheet
+(about 1300 mm²/m at 350 MPa) acts as the slab's bottom reinforcement; entered as
+the equivalent area of 500 MPa bars, 1300 × 350/500 ≈ 900 mm²/m (common practice,
+no source)."""
+
+HOOK_CLEAR = 0.8
+"""Planned clearance of the air-handling units' underside over the roof deck, m."""
+US_CLEAR = 3.0 * 0.3048
+"""Planned clearance of a pick's underside over the level 3 floor, m (3 ft)."""
+AHU_HANG = 5.5
+"""Hook to the underside of an air-handling unit (hook block, spreader, slings), m."""
+
 # Exact conversions to SI.
 FT = 0.3048
 INCH = 0.0254
@@ -50,7 +63,7 @@ def rooftop_plant_swap() -> Project:
         girder_direction="x", beam_spacing=2.5,
         girder_section=get_section("HEB 400"), beam_section=get_section("IPE 360"),
         girder_grade=s355, beam_grade=s355,
-        deck=Deck("composite", 0.13, get_concrete("C30/37"), 0.025, 2.5e-4),
+        deck=Deck("composite", 0.13, get_concrete("C30/37"), 0.025, DECK_AS_SI),
         superimposed_dead=1500.0,  # finishes, insulation, services
         live_in_place=0.0,         # roof closed to other work during the lift
     )
@@ -64,22 +77,45 @@ def rooftop_plant_swap() -> Project:
         for m in roof.members
     )
     roof = dataclasses.replace(roof, members=members)
+    # Hook height over the roof is limited by the lift plan: the units travel with
+    # their underside HOOK_CLEAR above the roof deck (the hook block, slings and
+    # spreader hang above them).
+    roof_top = roof.elevation
+    hook = roof_top + HOOK_CLEAR + AHU_HANG
     zone = LiftZone(
         id="MC1", name="All-terrain crane on Quayside Road (west)", level_id="RF",
         crane=(-8.0, 9.0), r_min=14.0, r_max=26.0,
         slew_start=math.radians(-35.0), slew_end=math.radians(35.0), drift_margin=1.0,
         loads=(
-            LiftLoad("AHU-3 (new)", 4200.0, 3.0, 2.0, hook_elevation=27.0, hang_length=5.5,
-                     drop_height=None),
-            LiftLoad("AHU-3 (old, drained)", 3650.0, 2.8, 1.9, hook_elevation=27.0,
-                     hang_length=5.5, drop_height=None),
-            LiftLoad("Spreader beam 4 m", 300.0, 4.0, 0.3, hook_elevation=27.0,
-                     hang_length=1.5, drop_height=None, kind="rigging"),
+            # Both units stand on bolted steel channel base rails. Order of magnitude
+            # of their contact stiffness: a unit of ~4 t sags a millimetre or two on
+            # its own rails when set down, i.e. some 20-40 kN/mm; 25 kN/mm taken for
+            # the new unit, 20 kN/mm for the old one (lighter, worn rails)
+            # (common practice, no source).
+            LiftLoad("AHU-3 (new)", 4200.0, 3.0, 2.0, hook_elevation=hook,
+                     hang_length=AHU_HANG, drop_height=None, contact_stiffness=2.5e7),
+            LiftLoad("AHU-3 (old, drained)", 3650.0, 2.8, 1.9, hook_elevation=hook,
+                     hang_length=AHU_HANG, drop_height=None, contact_stiffness=2.0e7),
+            # The spreader beam is rigid steel with a small footprint and rides
+            # 4 m above the unit's underside: no contact stiffness (rigid).
+            LiftLoad("Spreader beam 4 m", 300.0, 4.0, 0.3, hook_elevation=hook,
+                     hang_length=AHU_HANG - 4.0, drop_height=None, kind="rigging"),
         ),
     )
+    # Landing bay 2-3/A-B: a crushable pad of timber sleepers over foam blocks laid
+    # over the whole bay and 0.3 m past its inner beam lines. Its crush force stays below the deck's punching resistance
+    # and the beams' capacity, and its stroke absorbs a unit dropped from the
+    # planned clearance onto the pad: (F_c - W)·c = W·h gives c = 41 kN × 0.4 m /
+    # 109 kN ≈ 0.15 m of the 0.25 m available (energy balance).
     mat = ProtectionArea(
-        id="MAT1", name="Timber crane mats, two layers, landing bay 2-3/A-B", level_id="RF",
-        area=Rect(8.0, 0.5, 14.5, 8.5), kind="spring", thickness=0.3, stiffness=1.2e8)
+        id="MAT1", name="Timber-and-foam landing pad, bay 2-3/A-B", level_id="RF",
+        area=Rect(7.2, 0.0, 15.3, 9.3), kind="crushable", thickness=0.5, stiffness=None,
+        crush_force=90e3, crush_stroke=0.35)
+    # The units come in over the parapet through bay 1-2/A-B: the same pad there.
+    approach = ProtectionArea(
+        id="MAT2", name="Timber-and-foam pad, approach bay 1-2/A-B", level_id="RF",
+        area=Rect(0.0, 0.0, 7.2, 9.3), kind="crushable", thickness=0.5, stiffness=None,
+        crush_force=90e3, crush_stroke=0.35)
     info = ProjectInfo(
         name="Harrowgate Clinic - roof plant replacement",
         site="Harrowgate Clinic, 12 Quayside Road, Port Ellery (fictional)",
@@ -92,11 +128,14 @@ def rooftop_plant_swap() -> Project:
         description=(
             "Removal of the existing air-handling unit AHU-3 and placing of its replacement "
             "on the plinth in roof bay 2-3/A-B. 90 t all-terrain crane on outriggers in the "
-            "closed lane of Quayside Road; loads pass over roof bays 1-2 and 2-3 only. Roof "
-            "cleared of people under the swing zone for the duration of the lift."),
+            "closed lane of Quayside Road. The units come in over the parapet through bay "
+            "1-2/A-B and travel with their underside at most 0.8 m above the roof; both "
+            "bays of row A-B are covered by timber-and-foam crushable pads. Roof cleared of "
+            "people under the swing zone for the duration of the lift; the other bays are "
+            "exclusion zones while a load or the spreader beam is over them."),
     )
     settings = Settings(unit_system="SI", design_basis="en1993", grid_resolution=0.5)
-    return Project(info, settings, (roof,), (zone,), (mat,))
+    return Project(info, settings, (roof,), (zone,), (mat, approach))
 
 
 def steel_erection_floor() -> Project:
@@ -110,11 +149,14 @@ def steel_erection_floor() -> Project:
         girder_direction="y", beam_spacing=10.0 * FT,
         girder_section=get_section("W24X55"), beam_section=get_section("W21X44"),
         girder_grade=a992, beam_grade=a992,
-        # 3.25 in normal-weight topping on 3 in composite deck: 6.25 in total,
-        # 6x6 W2.9xW2.9 welded wire reinforcement (0.058 in²/ft) at 3/4 in cover.
+        # 3.25 in normal-weight topping on 3 in 20 gauge composite deck: 6.25 in
+        # total. The deck sheet (about 0.5 in²/ft at 50 ksi) is the slab's bottom
+        # reinforcement: entered as the equivalent area of 65 ksi bars,
+        # 0.5 × 50/65 ≈ 0.38 in²/ft, with its centroid 1.5 in above the soffit
+        # (mid-depth of the ribs) (common practice, no source).
         deck=Deck("composite", 6.25 * INCH,
                   dataclasses.replace(get_concrete("4000 psi"), fy_rebar=65_000 * PSI),
-                  0.75 * INCH, 0.058 * INCH**2 / FT),
+                  1.25 * INCH, 0.38 * INCH**2 / FT),
         superimposed_dead=15.0 * PSF,
         live_in_place=20.0 * PSF,  # construction materials left on the floor
     )
@@ -140,17 +182,37 @@ def steel_erection_floor() -> Project:
         crane=(-45.0 * FT, 45.0 * FT), r_min=30.0 * FT, r_max=140.0 * FT,
         slew_start=math.radians(-40.0), slew_end=math.radians(40.0), drift_margin=2.0 * FT,
         corridor=corridor,
+        # The lift plan holds every pick at most US_CLEAR above the level 3 floor
+        # while it crosses the building (taglines, a signaller on the floor).
         loads=(
-            LiftLoad("Joist bundle J-7", 4000.0 * LB, 20.0 * FT, 2.0 * FT, 6.0 * FT),
-            LiftLoad("Engine-driven welder", 1150.0 * LB, 5.0 * FT, 2.5 * FT, 4.0 * FT),
-            LiftLoad("Spreader bar 12 ft", 250.0 * LB, 12.0 * FT, 0.5 * FT, 10.0 * FT,
-                     kind="rigging"),
+            # Joists banded on two 4x4 timber dunnage sticks: the long, flexible
+            # bundle bending between its dunnage and the crushing of the timber make
+            # its underside soft, of the order of 30 kip/in (5e6 N/m)
+            # (common practice, no source).
+            LiftLoad("Joist bundle J-7", 4000.0 * LB, 20.0 * FT, 2.0 * FT, US_CLEAR,
+                     contact_stiffness=5e6),
+            # Welder on its steel skid with rubber feet: of the order of 60 kip/in
+            # (1e7 N/m) (common practice, no source). Being light and compact it is
+            # walked across lower, 2 ft above the floor.
+            LiftLoad("Engine-driven welder", 1150.0 * LB, 5.0 * FT, 2.5 * FT, 2.0 * FT,
+                     contact_stiffness=1e7),
+            # The spreader bar rides 10 ft above the load it carries; solid steel
+            # pipe: rigid.
+            LiftLoad("Spreader bar 12 ft", 250.0 * LB, 12.0 * FT, 0.5 * FT,
+                     US_CLEAR + 10.0 * FT, kind="rigging"),
         ),
     )
+    # Laydown bay 3-4/B-C at the hoist landing: a crushable pad of plywood over EPS
+    # foam blocks over the whole bay and 1 ft past its inner beam lines. Crush force 25 kip, below the W21X44 infill
+    # beams' remaining flexural capacity at midspan (about 35 kip with the floor's
+    # existing load), and 8 in of stroke for a bundle dropped from the planned
+    # clearance onto the pad: (F_c - W)·c = W·h gives c = 4 kip × 2 ft / 21 kip
+    # ≈ 4.6 in (energy balance).
     pad = ProtectionArea(
-        id="PAD1", name="EPS foam landing pad under plywood, bay 3-4/B-C", level_id="L3",
-        area=Rect(62.0 * FT, 32.0 * FT, 88.0 * FT, 58.0 * FT), kind="crushable",
-        thickness=6.0 * INCH, stiffness=None, crush_force=40.0 * KIP, crush_stroke=4.0 * INCH)
+        id="PAD1", name="Plywood over EPS foam landing pad, bay 3-4/B-C", level_id="L3",
+        area=Rect(59.0 * FT, 29.0 * FT, 90.0 * FT, 61.0 * FT), kind="crushable",
+        thickness=12.0 * INCH, stiffness=None, crush_force=25.0 * KIP,
+        crush_stroke=8.0 * INCH)
     info = ProjectInfo(
         name="Cedar Fork Logistics Office - steel erection, level 3",
         site="Lot 7, Cedar Fork Business Park, Millbrook (fictional)",
@@ -162,9 +224,11 @@ def steel_erection_floor() -> Project:
         approved_by="T. Yamada, lift director",
         description=(
             "Crawler crane at the west laydown area slews joist bundles, a welder and its "
-            "rigging over the completed level 3 floor to the east hoist landing. The load "
-            "path is held to the agreed corridor by taglines; level 3 is closed to the "
-            "trades under the corridor during picks."),
+            "rigging over the completed level 3 floor to the east hoist landing, where a "
+            "crushable plywood-over-foam pad covers bay 3-4/B-C. Bundles travel at most "
+            "3 ft, the welder 2 ft above the floor. The load path is held to the agreed "
+            "corridor by taglines; level 3 is closed to the trades under the corridor "
+            "during picks."),
     )
     settings = Settings(unit_system="US", design_basis="aisc360", grid_resolution=2.0 * FT)
     return Project(info, settings, (floor,), (zone,), (pad,))
