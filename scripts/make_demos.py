@@ -39,6 +39,8 @@ no source)."""
 HOOK_CLEAR = 0.8
 """Planned clearance of the air-handling units' underside over the roof deck, m."""
 US_CLEAR = 3.0 * 0.3048
+WELDER_CLEAR = 2.5 * 0.3048
+"""Planned clearance of the welder's skid over the level 3 floor, m (2.5 ft)."""
 """Planned clearance of a pick's underside over the level 3 floor, m (3 ft)."""
 AHU_HANG = 5.5
 """Hook to the underside of an air-handling unit (hook block, spreader, slings), m."""
@@ -193,8 +195,8 @@ def steel_erection_floor() -> Project:
                      contact_stiffness=5e6),
             # Welder on its steel skid with rubber feet: of the order of 60 kip/in
             # (1e7 N/m) (common practice, no source). Being light and compact it is
-            # walked across lower, 2 ft above the floor.
-            LiftLoad("Engine-driven welder", 1150.0 * LB, 5.0 * FT, 2.5 * FT, 2.0 * FT,
+            # walked across lower, WELDER_CLEAR above the floor.
+            LiftLoad("Engine-driven welder", 1150.0 * LB, 5.0 * FT, 2.5 * FT, WELDER_CLEAR,
                      contact_stiffness=1e7),
             # The spreader bar rides 10 ft above the load it carries; solid steel
             # pipe: rigid.
@@ -226,7 +228,7 @@ def steel_erection_floor() -> Project:
             "Crawler crane at the west laydown area slews joist bundles, a welder and its "
             "rigging over the completed level 3 floor to the east hoist landing, where a "
             "crushable plywood-over-foam pad covers bay 3-4/B-C. Bundles travel at most "
-            "3 ft, the welder 2 ft above the floor. The load path is held to the agreed "
+            "3 ft, the welder 2.5 ft above the floor. The load path is held to the agreed "
             "corridor by taglines; level 3 is closed to the trades under the corridor "
             "during picks."),
     )
