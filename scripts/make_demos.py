@@ -105,10 +105,13 @@ def rooftop_plant_swap() -> Project:
         ),
     )
     # Landing bay 2-3/A-B: a crushable pad of timber sleepers over foam blocks laid
-    # over the whole bay and 0.3 m past its inner beam lines. Its crush force stays below the deck's punching resistance
-    # and the beams' capacity, and its stroke absorbs a unit dropped from the
-    # planned clearance onto the pad: (F_c - W)·c = W·h gives c = 41 kN × 0.4 m /
-    # 109 kN ≈ 0.15 m of the 0.25 m available (energy balance).
+    # over the whole bay and 0.3 m past its inner beam lines. Its crush force, 90 kN,
+    # stays below the deck's punching and flexural resistance under the spread
+    # footprint and below the remaining capacity of the IPE 360 beams at midspan
+    # (about 100 kN with the roof's existing load); its stroke absorbs a unit dropped
+    # from the planned clearance onto the pad top (0.8 m - 0.5 m = 0.3 m):
+    # (F_c - W)·c = W·h gives c = 41 kN × 0.3 m / 49 kN ≈ 0.25 m of the 0.35 m
+    # available (energy balance).
     mat = ProtectionArea(
         id="MAT1", name="Timber-and-foam landing pad, bay 2-3/A-B", level_id="RF",
         area=Rect(7.2, 0.0, 15.3, 9.3), kind="crushable", thickness=0.5, stiffness=None,
@@ -205,11 +208,11 @@ def steel_erection_floor() -> Project:
         ),
     )
     # Laydown bay 3-4/B-C at the hoist landing: a crushable pad of plywood over EPS
-    # foam blocks over the whole bay and 1 ft past its inner beam lines. Crush force 25 kip, below the W21X44 infill
-    # beams' remaining flexural capacity at midspan (about 35 kip with the floor's
-    # existing load), and 8 in of stroke for a bundle dropped from the planned
-    # clearance onto the pad: (F_c - W)·c = W·h gives c = 4 kip × 2 ft / 21 kip
-    # ≈ 4.6 in (energy balance).
+    # foam blocks over the whole bay and 1 ft past its inner beam lines. Crush force
+    # 25 kip, below the W21X44 infill beams' remaining flexural capacity at midspan
+    # (about 35 kip with the floor's existing load), and 8 in of stroke for a bundle
+    # dropped from the planned clearance onto the pad top (3 ft - 1 ft = 2 ft):
+    # (F_c - W)·c = W·h gives c = 4 kip × 2 ft / 21 kip ≈ 4.6 in (energy balance).
     pad = ProtectionArea(
         id="PAD1", name="Plywood over EPS foam landing pad, bay 3-4/B-C", level_id="L3",
         area=Rect(59.0 * FT, 29.0 * FT, 90.0 * FT, 61.0 * FT), kind="crushable",
