@@ -651,17 +651,33 @@ CRANE_LABEL_CHARS = 30
 the project tree and the hover text)."""
 
 
+CRANE_LABEL_SIDE_COS = 0.5
+"""A jib within 60° of east or west puts the crane label on the far side of the crane."""
+CRANE_LABEL_OVERHANG_PX = 18.0
+"""How far such a label reaches past the crane centre, towards the jib (pixels)."""
+
+
 def crane_label_rect(p: QPointF, z: LiftZone) -> QRectF:
     """Device rectangle of a crane's label for the crane drawn at pixel ``p``:
-    centred under (or over) the crane, on the side away from the jib's vertical
-    direction, so it never covers the arc and needs little room sideways."""
+    under (or over) the crane, on the side away from the jib's vertical direction,
+    so it never covers the arc; when the jib points mostly east or west the label
+    runs from the crane away from the jib (so it stays off the floor the crane
+    swings over), otherwise it is centred."""
     text = ZonesItem.crane_label(z)
     tw = QFontMetricsF(pixel_font(11, True)).horizontalAdvance(text) + 8
+    full = z.slew_sweep >= 2 * math.pi - 1e-9
     mid = z.slew_start + z.slew_sweep / 2
-    below = z.slew_sweep >= 2 * math.pi - 1e-9 or math.sin(mid) >= -0.2
+    below = full or math.sin(mid) >= -0.2
     # plan +y is screen up: a jib pointing north (sin > 0) puts the label below
     top = p.y() + 22 if below else p.y() - 22 - 15
-    return QRectF(p.x() - tw / 2, top, tw, 15)
+    east = 0.0 if full else math.cos(mid)
+    if east > CRANE_LABEL_SIDE_COS:
+        left = p.x() + CRANE_LABEL_OVERHANG_PX - tw
+    elif east < -CRANE_LABEL_SIDE_COS:
+        left = p.x() - CRANE_LABEL_OVERHANG_PX
+    else:
+        left = p.x() - tw / 2
+    return QRectF(left, top, tw, 15)
 
 
 LABEL_MARGIN_PX = 4.0

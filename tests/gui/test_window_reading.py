@@ -221,3 +221,20 @@ def test_heading_does_not_repeat_the_word_level(qtbot, window: MainWindow) -> No
     window.doc.edit(ed.add_level(window.doc.project, lv), "Generate framing")
     window.doc.set_level("L1")
     assert window.plan_heading.text().startswith("Level 3:")
+
+
+@pytest.mark.parametrize("slew_deg, side", [((-60, 60), "west"), ((120, 240), "east"),
+                                            ((30, 150), "centred"), ((0, 360), "centred")])
+def test_crane_label_stays_off_the_floor_the_jib_swings_over(slew_deg, side) -> None:
+    # the plan is where the jib points: a label on the far side keeps bays readable
+    z = LiftZone("CC1", "Crawler crane at the west laydown yard", "L1", crane=(0.0, 0.0),
+                 r_min=0.0, r_max=9.0, slew_start=math.radians(slew_deg[0]),
+                 slew_end=math.radians(slew_deg[1]))
+    p = QPointF(300.0, 200.0)
+    r = crane_label_rect(p, z)
+    if side == "west":
+        assert r.right() <= p.x() + 20
+    elif side == "east":
+        assert r.left() >= p.x() - 20
+    else:
+        assert r.center().x() == pytest.approx(p.x())
