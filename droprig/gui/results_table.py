@@ -381,15 +381,18 @@ class ResultsTable(QWidget):
         cur = self.selected_row()
         if cur is not None and (cur.level_id, cur.bay_id) == sel.ids:
             return
-        best, best_rank = None, -2
+        # the worst row of the bay: worst outcome, then the highest utilisation (the
+        # same order as the plan and the screenshot's trace use)
+        best, best_key = None, (-2, -math.inf)
         for r in range(self.model.rowCount()):
             b = self.model.row(r)
             if (b.level_id, b.bay_id) != sel.ids:
                 continue
             rank = style.OUTCOME_ORDER.index(b.response) if b.response in \
                 style.OUTCOME_ORDER else -1
-            if rank > best_rank:
-                best, best_rank = r, rank
+            u = b.max_utilisation if b.max_utilisation == b.max_utilisation else -math.inf
+            if (rank, u) > best_key:
+                best, best_key = r, (rank, u)
         if best is None:
             sm.clearSelection()
             return

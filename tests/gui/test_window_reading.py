@@ -238,3 +238,22 @@ def test_crane_label_stays_off_the_floor_the_jib_swings_over(slew_deg, side) -> 
         assert r.left() >= p.x() - 20
     else:
         assert r.center().x() == pytest.approx(p.x())
+
+
+def test_selecting_a_bay_picks_its_worst_row_then_highest_utilisation(
+        qtbot, window: MainWindow) -> None:
+    from droprig.gui.document import Selection
+
+    win = window
+    win.doc.edit(ed.add_level(win.doc.project, _level()), "Generate framing")
+    zone = LiftZone("Z1", "Lift 1", "L1", crane=(-4.0, 5.0), r_min=0.0, r_max=7.0,
+                    loads=(LiftLoad("Light", 200.0, drop_height=0.5),
+                           LiftLoad("Heavy", 3000.0, drop_height=0.5)))
+    win.doc.edit(ed.add_zone(win.doc.project, zone), "Add zone")
+    _settle(qtbot, win)
+    bays = [b for b in win.doc.results.bays if b.bay_id == win.doc.results.bays[0].bay_id]
+    order = ("elastic", "plastic", "exceeds")
+    want = max(bays, key=lambda b: (order.index(b.response), b.max_utilisation))
+    win.doc.select(Selection("bay", (want.level_id, want.bay_id)))
+    got = win.results_table.selected_row()
+    assert got is not None and got.load_name == want.load_name
