@@ -40,7 +40,11 @@ Effective struck mass (kg), Rayleigh with the static deflected shape
 over the members carrying load (members that only ride along on a deflecting
 support are left out: less mass, larger impact force, conservative). The
 integrals are exact (Gauss–Legendre between kinks, Chebyshev tables for the deck
-members). The published form normalises by the struck point, w_ref = w(p); that
+members; next to a member end, where the tabulated integrals vanish like a power
+of the distance to the end, the tables are interpolated in factored form, so that a
+point a rounding error from a column gets the limit its neighbours tend to rather
+than rounding noise divided by rounding noise). The published form normalises by
+the struck point, w_ref = w(p); that
 mass grows without bound as p nears a support (w(p) → 0 while the rest of the
 path still moves), which would shrink the impact force. droprig normalises by
 w_ref = max(w(p), largest deflection sampled along the path): identical where the
@@ -142,14 +146,35 @@ def _gmax(cond: str, xi: np.ndarray) -> np.ndarray:
     return np.max(beam.green(cond, 1.0, 1.0, fine, xi[:, None]), axis=1)
 
 
+END_ORDER: dict[str, tuple[int, int]] = {
+    "simple": (1, 1), "fixed": (2, 2), "propped": (2, 1), "cantilever": (2, 0)}
+"""Order p at which the own-bending deflection of a member vanishes as the load
+nears each end (x = 0, x = L): the Green's functions of AISC Manual Table 3-23
+are ∝ ξ at a pinned end, ∝ ξ² at a fixed end and finite at a free end. The
+integrals ∫ĝ² vanish as ξ^(2p), ∫ĝ·R̂_e and ĝ_max as ξ^p."""
+
+_LIMIT_EPS = 1e-6
+"""ξ at which the end limits of the tables are taken (relative error O(ξ))."""
+
+
+def _gmax_at(cond: str, xi: np.ndarray) -> np.ndarray:
+    """:func:`_gmax` in blocks (bounded memory)."""
+    return np.concatenate([_gmax(cond, xi[i:i + 1024]) for i in range(0, xi.size, 1024)])
+
+
 @cache
 def _tables(cond: str) -> np.ndarray:
     """(4, n) tables on :data:`_XI`: P_gg, P_0, P_1 (exact polynomials) and the
-    largest deflection ĝ_max (sampled on 1025 nodes, interpolated)."""
+    largest deflection ĝ_max (sampled on 1025 nodes, interpolated; computed at
+    every node of the first and last of those 1025 cells, where ĝ_max bends most
+    sharply towards 0)."""
     z = 2.0 * _XI - 1.0
     c = _POLYS[cond]
     coarse = np.linspace(0.0, 1.0, 1025)
     gm = np.interp(_XI, coarse, _gmax(cond, coarse))
+    m = (_XI.size - 1) // (coarse.size - 1)
+    for sl in (slice(1, m), slice(_XI.size - m, _XI.size - 1)):
+        gm[sl] = _gmax_at(cond, _XI[sl])
     return np.stack([np.polynomial.chebyshev.chebval(z, c[0]),
                      np.polynomial.chebyshev.chebval(z, c[1]),
                      np.polynomial.chebyshev.chebval(z, c[2]), gm])
@@ -158,7 +183,8 @@ def _tables(cond: str) -> np.ndarray:
 def _mass_tables(cond: str, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray,
                                                      np.ndarray]:
     """The four tables of :func:`_tables` interpolated linearly at ξ (uniform nodes:
-    the cell index is computed, not searched)."""
+    the cell index is computed, not searched); in the first and last cell, where
+    they vanish like a power of the distance to the end, by :func:`_end_cells`."""
     t = _tables(cond)
     n = _XI.size - 1
     z = np.clip(np.asarray(xi, float), 0.0, 1.0) * n
@@ -167,8 +193,42 @@ def _mass_tables(cond: str, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.
     out = []
     for k in range(4):
         lo = t[k][i]
-        out.append(lo + (t[k][i + 1] - lo) * w)
+        out.append(np.asarray(lo + (t[k][i + 1] - lo) * w))
+    end = (i == 0) | (i == n - 1)
+    if np.any(end):
+        q, lim = _end_cells(cond)
+        first = i[end] == 0
+        we = w[end]
+        s = np.where(first, we, 1.0 - we)  # distance to the end, in cells
+        for k in range(4):
+            h_end = np.where(first, lim[k, 0], lim[k, 1])
+            h_in = np.where(first, t[k][1], t[k][n - 1])
+            qk = np.where(first, q[0, k], q[1, k])
+            out[k][end] = s ** qk * (h_end + (h_in - h_end) * s)
     return out[0], out[1], out[2], out[3]
+
+
+@cache
+def _end_cells(cond: str) -> tuple[np.ndarray, np.ndarray]:
+    """Data of the first and last table cells, where the four tabulated functions
+    vanish like a power of the distance to the member end (:data:`END_ORDER`) and a
+    straight line between the nodes would be wrong by a factor up to ~1/ξ. There
+    each function is written φ(s)·H with s the distance to the end in units of
+    the cell, φ = s^q, and H is interpolated linearly between its end limit
+    lim P/s^q (taken at ξ = :data:`_LIMIT_EPS`) and the table value at the inner
+    node (so the value there, and continuity with the next cell, is exact).
+    Returns the (4,) orders q and (4, 2) end limits H at the ends ξ = 0 and ξ = 1."""
+    t = _tables(cond)
+    h = 1.0 / (_XI.size - 1)
+    p0, p1 = END_ORDER[cond]
+    q = np.array([[2 * p0, p0, p0, p0], [2 * p1, p1, p1, p1]], dtype=float)  # (end, k)
+    lim = np.empty((4, 2))
+    for e, xi_e in ((0, _LIMIT_EPS), (1, 1.0 - _LIMIT_EPS)):
+        vals = np.array([*_unit_integrals(cond, xi_e), _gmax(cond, np.array([xi_e]))[0]])
+        lim[:, e] = vals / (_LIMIT_EPS / h) ** q[e]
+    # a free end (q = 0): the table's own end value
+    lim[:, 1] = np.where(q[1] == 0.0, t[:, -1], lim[:, 1])
+    return q, lim
 
 
 def _make_polys() -> dict[str, tuple[np.ndarray, np.ndarray, np.ndarray]]:
