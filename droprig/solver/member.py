@@ -1,7 +1,7 @@
 """One member struck by one dropped load: the whole chain of checks for ``droprig
 check`` (and a reference for the floor-level analysis).
 
-Method (droprig design notes §3; every step's source is in the docstring of the
+Method (README, 'What it computes'; every step's source is in the docstring of the
 function it calls):
 
 1. Struck-point compliance f = green(a, a) (+ 1/k of a spring mat + 1/k_load of the

@@ -189,7 +189,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
              "E": (r[f"_{c}_exist"][0], q), "R": (r[f"_{c}_R"][0], q)},
             r[f"_{c}_U"][0], "dimensionless", _SRC_CHECK[c])
     add("Utilisation", "U", "U = max over the checks", {}, r["utilisation"][0],
-        "dimensionless", "design notes §3")
+        "dimensionless", "largest demand/resistance ratio (common practice, no source)")
     add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
         {}, r["_F_allow"][0], "force", "linear checks")
     add("Allowable drop height (elastic)", "h_allow",
@@ -209,7 +209,8 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     if r["response"][0] != 0 and r["_flexure_U"][0] > 1.0:
         add("Brittle checks at the plastic force", "U_brittle", "U at F = min(F, R_p)",
             {"R_p": (r["_R_p"][0], "force")}, r["_Ub_cap"][0], "dimensionless",
-            "design notes §3 (" + ", ".join(BRITTLE) + ")")
+            "no plastic reserve in " + ", ".join(BRITTLE)
+            + " (DNV-RP-C204 accidental limit state, from memory)")
         add("Plastic deflection", "δ_m", "R_p(δ_m − δ_y/2) = ηWh + Wδ_m",
             {"R_p": (r["_R_p"][0], "force"), "δ_y": (r["_R_p"][0] * r["_f"][0], "length"),
              "h": (r["_h_struct"][0], "length")}, r["_d_m"][0], "length", _SRC_PLASTIC)
