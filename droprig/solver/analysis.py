@@ -381,9 +381,18 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
         supm = np.maximum(sup, 0)
         valid = (sup >= 0).T  # (P, n)
         S = fr.pair_sup_mcoef.shape[2]
-        mc = fr.pair_sup_mcoef[pair]  # (n, P, S, 4)
-        ms = (mc[..., 0] * path.r[:, None, None, 0] + mc[..., 1] * path.r[:, None, None, 1]
-              + mc[..., 2] * path.r[:, None, None, 2] + mc[..., 3] * path.r[:, None, None, 3])
+        # support-member moments per unit force: Σ_i coef_i·r_i, panel by panel (the
+        # coefficients depend on the panel only, so they are not gathered per point)
+        ms = np.empty((n, P, S))
+        rr = path.r
+        for ip in np.unique(pair):
+            sel = np.flatnonzero(pair == ip)
+            mc = fr.pair_sup_mcoef[ip]  # (P, S, 4)
+            r_s = rr[sel]
+            ms[sel] = (mc[None, :, :, 0] * r_s[:, None, None, 0]
+                       + mc[None, :, :, 1] * r_s[:, None, None, 1]
+                       + mc[None, :, :, 2] * r_s[:, None, None, 2]
+                       + mc[None, :, :, 3] * r_s[:, None, None, 3])
         ms = ms.reshape(n, -1).T * np.repeat(valid, S, axis=0)
         fl_u.append(ms)
         fl_e.append(fm.M0_sup[pair].reshape(n, -1).T * np.repeat(valid, S, axis=0))
