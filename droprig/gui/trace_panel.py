@@ -25,7 +25,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from droprig import units
+from droprig import tracefmt, units
 from droprig.cli import CAUTION
 from droprig.gui import style
 from droprig.solver.results import Trace, TraceStep
@@ -50,59 +50,11 @@ def format_value(value: float, quantity: str, system: str) -> str:
     return f"{value:.4g}"
 
 
-_NUMBER = re.compile(r"\d+(?:\.\d+)?")
-
-
-def _decompose(run: str, keys: tuple[str, ...]) -> list[str] | None:
-    """Split a run of letters written without operators (``2ηh``, ``ηWh``) into
-    numbers and input symbols, or None when it is not made only of them (so a
-    plain word such as ``height`` is never touched)."""
-    n = len(run)
-    best: list[list[str] | None] = [None] * (n + 1)
-    best[n] = []
-    for i in range(n - 1, -1, -1):
-        m = _NUMBER.match(run, i)
-        options = [m.group(0)] if m else []
-        options += [k for k in keys if run.startswith(k, i)]
-        for tok in sorted(options, key=len, reverse=True):
-            rest = best[i + len(tok)]
-            if rest is not None:
-                best[i] = [tok, *rest]
-                break
-    return best[0]
-
-
 def _substitute(formula: str, inputs: dict[str, tuple[float, str]], system: str
                 ) -> tuple[str, list[str]]:
     """(formula with the numbers put in, input symbols that were not found)."""
-    if not inputs:
-        return formula, []
-    plain = tuple(sorted((k for k in inputs if re.fullmatch(r"\w+", k)), key=len,
-                         reverse=True))
-    special = sorted((k for k in inputs if k not in plain), key=len, reverse=True)
-    alts = [r"(?<![\w])" + re.escape(k) + r"(?![\w])" for k in special]
-    pattern = re.compile("|".join([*alts, r"\w+"]))
-    used: set[str] = set()
-
-    def value(k: str, enclosed: bool = False) -> str:
-        used.add(k)
-        v, quantity = inputs[k]
-        text = format_value(v, quantity, system)
-        return f"({text})" if " " in text and not enclosed else text
-
-    def repl(m: re.Match[str]) -> str:
-        tok = m.group(0)
-        enclosed = (m.start() > 0 and m.string[m.start() - 1] == "("
-                    and m.end() < len(m.string) and m.string[m.end()] == ")")
-        if tok in inputs:
-            return value(tok, enclosed)
-        parts = _decompose(tok, plain)
-        if not parts or not any(p in inputs for p in parts):
-            return tok
-        return "·".join(value(p) if p in inputs else p for p in parts)
-
-    out = pattern.sub(repl, formula)
-    return out, [k for k in inputs if k not in used]
+    return tracefmt.substitute_all(formula, inputs,
+                                   lambda v, q: format_value(v, q, system))
 
 
 def substitute(formula: str, inputs: dict[str, tuple[float, str]], system: str) -> str:
