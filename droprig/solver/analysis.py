@@ -385,7 +385,7 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
         # coefficients depend on the panel only, so they are not gathered per point)
         ms = np.empty((n, P, S))
         rr = path.r
-        for ip in np.unique(pair):
+        for ip in np.flatnonzero(np.bincount(pair)):
             sel = np.flatnonzero(pair == ip)
             mc = fr.pair_sup_mcoef[ip]  # (P, S, 4)
             r_s = rr[sel]
@@ -500,7 +500,8 @@ def _web_resistance(fm: FloorModel, fn: Callable[..., np.ndarray], mem: np.ndarr
         if not sel.any():
             continue
         sec, grd = fm.groups[gi]
-        b, d = bearing[sel], dist[sel]
+        whole = len(fm.groups) == 1
+        b, d = (bearing.ravel(), dist.ravel()) if whole else (bearing[sel], dist[sel])
         r = np.empty(b.shape)
         near = d < 2.0 * sec.d  # type: ignore[attr-defined]
         if near.any():
@@ -508,12 +509,35 @@ def _web_resistance(fm: FloorModel, fn: Callable[..., np.ndarray], mem: np.ndarr
                          s.dynamic_increase_factor)
         far = ~near
         if far.any():
-            ub, inv = np.unique(b[far], return_inverse=True)
+            ub, inv = _distinct(b[far])
             r_int = fn(sec, grd, s.design_basis, ub, np.full(ub.shape, 1e3),
                        s.resistance_factor, s.dynamic_increase_factor)
             r[far] = np.asarray(r_int)[inv]
+        if whole:
+            return r.reshape(mem.shape)
         out[sel] = r
     return out
+
+
+def _distinct(b: np.ndarray, limit: int = 16) -> tuple[np.ndarray, np.ndarray]:
+    """``np.unique(b, return_inverse=True)`` for a 1-D array holding few distinct
+    values (a bearing length per load and mat thickness): the values are found in
+    ascending order by repeated masked minima instead of a sort of every point."""
+    if b.size == 0:
+        return np.unique(b, return_inverse=True)
+    v = b.min()
+    vals = [v]
+    while np.isfinite(v):
+        v = np.min(b, where=b > v, initial=np.inf)
+        if not np.isfinite(v):
+            break
+        vals.append(v)
+        if len(vals) > limit:
+            break
+    u = np.array(vals)
+    if len(vals) > limit or not np.isfinite(u[-1]) or b.max() > u[-1]:
+        return np.unique(b, return_inverse=True)
+    return u, np.searchsorted(u, b)
 
 
 # --------------------------------------------------------------------------- one case

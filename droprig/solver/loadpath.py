@@ -94,7 +94,7 @@ def by_condition(fn, codes: np.ndarray, *args: np.ndarray):
     lo, hi = int(codes.min()), int(codes.max())
     if lo == hi:
         return fn(COND_NAMES[lo], *args)
-    present = np.unique(codes)
+    present = np.flatnonzero(np.bincount(codes.ravel(), minlength=len(COND_NAMES)))
     shape = np.broadcast_shapes(codes.shape, *(np.shape(a) for a in args))
     codes_b = np.broadcast_to(codes, shape)
     args_b = [np.broadcast_to(np.asarray(a, float), shape) for a in args]
