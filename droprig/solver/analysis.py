@@ -312,20 +312,30 @@ class _Family:
     allowed force ``F_allow`` = min_c (1 − sign(ut)·Et)/|ut| is load-independent."""
 
     def __init__(self, unit: np.ndarray, exist: np.ndarray, resist: np.ndarray,
-                 member: np.ndarray) -> None:
+                 member: np.ndarray, *, owned: bool = False) -> None:
+        """``owned``: ``unit`` and ``exist`` are fresh float arrays of this family,
+        divided by the resistance in place (no new arrays of the full size)."""
         self.R = np.ascontiguousarray(resist, dtype=float)
-        self.ut = np.ascontiguousarray(unit) / self.R
-        self.Et = np.ascontiguousarray(exist) / self.R
+        if owned:
+            self.ut = np.divide(unit, self.R, out=unit)
+            self.Et = np.divide(exist, self.R, out=exist)
+        else:
+            self.ut = np.ascontiguousarray(unit) / self.R
+            self.Et = np.ascontiguousarray(exist) / self.R
         self.member = np.ascontiguousarray(member)
         # F_allow per candidate with R = 1: (1 − sign(ut)·Et)/|ut|, ∞ where ut = 0,
         # −1 where the existing demand alone exceeds the resistance
+        # (in place, few passes: where ut = 0 the numerator is 1 − 0·Et = 1 and 1/0 = ∞)
         au = np.abs(self.ut)
-        num = np.sign(self.ut)
-        num *= self.Et
-        np.subtract(1.0, num, out=num)
-        fa = np.full(au.shape, np.inf)
-        np.divide(num, au, out=fa, where=au > 0.0)
-        fa[np.abs(self.Et) > 1.0] = -1.0
+        fa = np.sign(self.ut)
+        fa *= self.Et
+        np.subtract(1.0, fa, out=fa)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            np.divide(fa, au, out=fa)
+        if np.isnan(fa).any():  # a NaN unit demand sets no limit (∞), as the where=au > 0
+            fa[np.isnan(self.ut)] = np.inf
+        np.abs(self.Et, out=au)
+        np.copyto(fa, -1.0, where=au > 1.0)
         self.fa = fa
         self.F_allow = fa.min(axis=0)
 
@@ -405,10 +415,10 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
         sh_e.append(fm.V0[supm].transpose(1, 2, 0).reshape(2 * P, n) * vmask)
         sh_r.append(np.repeat(fm.Vr[supm].T, 2, axis=0))
         sh_m.append(np.repeat(supm.T, 2, axis=0))
-    flex = _Family(np.concatenate(fl_u), np.concatenate(fl_e), np.concatenate(fl_r),
-                   np.concatenate(fl_m))
-    shear = _Family(np.concatenate(sh_u), np.concatenate(sh_e), np.concatenate(sh_r),
-                    np.concatenate(sh_m))
+    flex = _Family(np.concatenate(fl_u, dtype=float), np.concatenate(fl_e, dtype=float),
+                   np.concatenate(fl_r), np.concatenate(fl_m), owned=True)
+    shear = _Family(np.concatenate(sh_u, dtype=float), np.concatenate(sh_e, dtype=float),
+                    np.concatenate(sh_r), np.concatenate(sh_m), owned=True)
     # plastic reserve: R_p of the path for a load at p. Deck members: virtual-work
     # collapse load for fixed/propped, first hinge (= collapse of a determinate
     # member) otherwise; support members: first hinge (conservative)

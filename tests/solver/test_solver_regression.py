@@ -109,3 +109,24 @@ def test_outputs_unchanged_by_the_speed_work(name):
     for key in ("effective_mass", "dynamic_factor", "peak_force", "utilisation",
                 "allowable_drop_height"):
         np.testing.assert_allclose(res[key], ref[key], rtol=REL, atol=0.0, err_msg=key)
+
+
+def test_allowed_force_of_a_check_family_follows_its_definition():
+    # F_allow per candidate = (R − sign(unit)·exist)/|unit| (linear check
+    # |F·unit + exist| ≤ R solved for F; common practice, no source), ∞ where the
+    # candidate takes no share (unit = 0), −1 where the existing demand alone exceeds R
+    rng = np.random.default_rng(7)
+    unit = rng.normal(size=(6, 50))
+    unit[0, :10] = 0.0
+    unit[1, :5] = -0.0
+    exist = rng.normal(scale=2.0, size=(6, 50))
+    resist = rng.uniform(0.5, 3.0, size=(6, 50))
+    member = np.zeros((6, 50), dtype=np.int64)
+    with np.errstate(divide="ignore"):
+        want = np.where(unit == 0.0, np.inf,
+                        (resist - np.sign(unit) * exist) / np.abs(unit))
+    want = np.where(np.abs(exist) > resist, -1.0, want)
+    for owned in (False, True):
+        fam = analysis._Family(unit.copy(), exist.copy(), resist, member, owned=owned)
+        np.testing.assert_allclose(fam.fa, want, rtol=1e-14)
+        np.testing.assert_array_equal(fam.F_allow, fam.fa.min(axis=0))
