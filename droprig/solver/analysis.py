@@ -970,23 +970,32 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
         res = {k: np.concatenate([p[k] for p in parts]) for k in parts[0]}
     res["_load"] = li
     step = fm.settings.grid_resolution
-    known = _keys(res["x"], res["y"], li)
+    known = np.sort(_keys(res["x"], res["y"], li))  # sorted: membership by bisection
     for k in range(REFINE_PASSES):
         step /= 4.0
         x, y, lj = _refine(fm, zone, res, step, REFINE_TOP[min(k, len(REFINE_TOP) - 1)])
         if x.size == 0:
             break
         k, first = np.unique(_keys(x, y, lj), return_index=True)
-        new = first[~np.isin(k, known)]
+        new = first[~_in_sorted(known, k)]
         if new.size == 0:
             continue
         x, y, lj = x[new], y[new], lj[new]
-        known = np.concatenate([known, _keys(x, y, lj)])
+        known = np.sort(np.concatenate([known, _keys(x, y, lj)]))
         geo = point_geometry(fm, project, x, y)
         r2 = evaluate_case(fm, project, loads, geo, lj)
         r2["_load"] = lj
         res = _merge(res, r2)
     return res
+
+
+def _in_sorted(sorted_keys: np.ndarray, keys: np.ndarray) -> np.ndarray:
+    """``np.isin(keys, sorted_keys)`` for an already sorted ``sorted_keys`` (one
+    bisection per key instead of sorting both arrays)."""
+    if sorted_keys.size == 0:
+        return np.zeros(keys.shape, dtype=bool)
+    i = np.minimum(np.searchsorted(sorted_keys, keys), sorted_keys.size - 1)
+    return sorted_keys[i] == keys
 
 
 def _tile(fm: FloorModel, geo: Geometry, k: int) -> Geometry:
