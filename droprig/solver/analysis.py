@@ -701,9 +701,9 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     f = f_struct + f_mat
     m_e = path.m_e if s.include_member_mass else np.zeros(n)
     # A Rayleigh mass Σ∫μ(w/w_ref)² dx with |w| ≤ w_ref cannot be negative nor exceed
-    # the mass of the members (Timoshenko Part I); at points a rounding error away
-    # from a column w_ref is itself rounding noise and the ratio is meaningless:
-    # there the framing's mass share is not taken (η = 1, conservative)
+    # the mass of the members (Timoshenko Part I). loadpath keeps it finite and
+    # continuous up to a column (factored end tables); should a value outside that
+    # bound ever appear, the framing's mass share is not taken (η = 1, conservative)
     m_bound = fm.frame_mass
     m_e = np.where(np.isfinite(m_e) & (m_e >= 0.0) & (m_e <= m_bound), m_e, 0.0)
     # under a mat or a crushable layer the hit on the framing is no longer perfectly
