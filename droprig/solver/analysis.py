@@ -380,7 +380,8 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     fl_r = [np.repeat(fm.Mr[mem].T, xs.shape[-1], axis=0)]
     fl_m = [np.repeat(mem.T, xs.shape[-1], axis=0)]
     sh_u = [np.concatenate([(share * R0).T, (share * RL).T])]
-    sh_e = [np.concatenate([fm.V0[mem][..., 0].T, fm.V0[mem][..., 1].T])]
+    V0T = np.ascontiguousarray(fm.V0.T)  # (2, members): existing end shears
+    sh_e = [np.concatenate([V0T[0][mem].T, V0T[1][mem].T])]
     sh_r = [np.concatenate([fm.Vr[mem].T, fm.Vr[mem].T])]
     sh_m = [np.concatenate([mem.T, mem.T])]
     pair = np.maximum(path.pair, 0)
@@ -391,21 +392,21 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
         supm = np.maximum(sup, 0)
         valid = (sup >= 0).T  # (P, n)
         S = fr.pair_sup_mcoef.shape[2]
-        # support-member moments per unit force: Σ_i coef_i·r_i, panel by panel (the
-        # coefficients depend on the panel only, so they are not gathered per point)
-        ms = np.empty((n, P, S))
-        rr = path.r
-        for ip in np.flatnonzero(np.bincount(pair)):
-            sel = np.flatnonzero(pair == ip)
-            mc = fr.pair_sup_mcoef[ip]  # (P, S, 4)
-            r_s = rr[sel]
-            ms[sel] = (mc[None, :, :, 0] * r_s[:, None, None, 0]
-                       + mc[None, :, :, 1] * r_s[:, None, None, 1]
-                       + mc[None, :, :, 2] * r_s[:, None, None, 2]
-                       + mc[None, :, :, 3] * r_s[:, None, None, 3])
-        ms = ms.reshape(n, -1).T * np.repeat(valid, S, axis=0)
+        # support-member moments per unit force: Σ_i coef_i·r_i over the 4 local
+        # reactions, one coefficient row per point and term taken from a (4, panel,
+        # P·S) table (contiguous rows; same sums in the same order as before)
+        coef = np.ascontiguousarray(np.moveaxis(fr.pair_sup_mcoef, 3, 0)).reshape(
+            4, fr.n_pairs, P * S)
+        ms = np.take(coef[0], pair, axis=0)
+        ms *= rT[0][:, None]
+        for i in (1, 2, 3):
+            term = np.take(coef[i], pair, axis=0)
+            term *= rT[i][:, None]
+            ms += term
+        ms = ms.T * np.repeat(valid, S, axis=0)
         fl_u.append(ms)
-        fl_e.append(fm.M0_sup[pair].reshape(n, -1).T * np.repeat(valid, S, axis=0))
+        fl_e.append(np.take(fm.M0_sup.reshape(fr.n_pairs, -1), pair, axis=0).T
+                    * np.repeat(valid, S, axis=0))
         fl_r.append(np.repeat(fm.Mr[supm].T, S, axis=0))
         fl_m.append(np.repeat(supm.T, S, axis=0))
         rc = fr.pair_sup_rcoef[pair]  # (n, P, 2, 4)
