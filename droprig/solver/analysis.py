@@ -707,6 +707,15 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     # bound ever appear, the framing's mass share is not taken (η = 1, conservative)
     m_bound = fm.frame_mass
     m_e = np.where(np.isfinite(m_e) & (m_e >= 0.0) & (m_e <= m_bound), m_e, 0.0)
+    # The Rayleigh shape is scaled to 1 at the point the load strikes. The load's
+    # displacement is W·f with f = f_s + f_deck + 1/k_load (springs in series) while
+    # the framing under it moves only W·f_s, so the framing's share is
+    # m_e·(f_s/f)² (Rayleigh with the struck point's own deflection; Timoshenko
+    # Part I, from memory). Near a column f_s → 0 and the framing mass drops out
+    # (η → 1, conservative) instead of being credited for framing that barely moves.
+    with np.errstate(divide="ignore", invalid="ignore"):
+        share = np.where(f_struct > 0.0, f_s / f_struct, 0.0)
+    m_e = m_e * share**2
     # under a mat or a crushable layer the hit on the framing is no longer perfectly
     # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
     m_e = np.where(geo.protection >= 0, 0.0, m_e)

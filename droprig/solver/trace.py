@@ -137,7 +137,8 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
          "1/k_load": (r["_f_load"][0], "compliance"),
          "1/k_mat": (r["_f_mat"][0], "compliance")},
         r["_f"][0], "compliance", _SRC_SERIES + "; Engineering ToolBox, Impact Force")
-    add("Effective struck mass", "m_e", "m_e = Σ_m ∫ μ_m (w_m(x)/w(p))² dx",
+    add("Effective struck mass", "m_e",
+        "m_e = (f_s/(f_s + f_deck + 1/k_load))²·Σ_m ∫ μ_m (w_m(x)/w_s(p))² dx",
         {}, r["effective_mass"][0], "mass", _SRC_RAYLEIGH)
     M = load.mass
     add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",

@@ -1,0 +1,56 @@
+"""The framing's Rayleigh mass is scaled to the struck point's own deflection.
+
+Rayleigh's method takes the kinetic energy of the struck members in their static
+deflected shape, normalised to 1 at the point the load strikes (Timoshenko,
+*Strength of Materials* Part I, impact chapter — from memory). With the deck and
+the load's underside as springs in series above the framing (Gere, *Mechanics of
+Materials* 7th ed. §9.10), the load moves W·f while the framing under it moves
+W·f_s, so the framing's share is m_e·(f_s/f)².
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from droprig.io.project_file import load_project
+from droprig.solver import analysis
+
+ROOT = Path(__file__).resolve().parents[2]
+REL = 1e-12
+
+
+@pytest.mark.parametrize("name", ["rooftop_plant_swap", "steel_erection_floor"])
+def test_mass_share_follows_the_series_springs(name: str) -> None:
+    project = load_project(ROOT / "demo_projects" / f"{name}.droprig")
+    zone = project.lift_zones[0]
+    level = project.level(zone.level_id)
+    fm = analysis.build_floor(level, project.settings)
+    g = level.grid
+    # bay-interior points away from any protection area (bare deck)
+    xs = np.linspace(g.x_lines[0], g.x_lines[-1], 23)[1:-1]
+    ys = np.full_like(xs, 0.5 * (g.y_lines[0] + g.y_lines[1]))
+    geo = analysis.point_geometry(fm, project, xs, ys)
+    bare = geo.protection < 0
+    assert bare.any()
+    for load in zone.loads:
+        r = analysis.evaluate_case(fm, project, load, geo, detail=True)
+        f_s, f = r["_f_s"], r["_f_s"] + r["_f_deck"] + r["_f_load"]
+        expected = geo.path.m_e * (f_s / f) ** 2
+        np.testing.assert_allclose(r["effective_mass"][bare], expected[bare], rtol=REL)
+        # the share is a fraction: never more than the framing's own Rayleigh mass
+        assert np.all(r["effective_mass"] <= geo.path.m_e * (1 + REL))
+
+
+def test_a_drop_over_a_column_takes_no_framing_mass() -> None:
+    # over a rigid column the framing does not move (f_s = 0): η = 1, conservative
+    project = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    zone = project.lift_zones[0]
+    level = project.level(zone.level_id)
+    fm = analysis.build_floor(level, project.settings)
+    x, y = np.array([level.grid.x_lines[1]]), np.array([level.grid.y_lines[1]])
+    geo = analysis.point_geometry(fm, project, x, y)
+    r = analysis.evaluate_case(fm, project, zone.loads[0], geo, detail=True)
+    assert r["effective_mass"][0] == pytest.approx(0.0, abs=1e-6)
