@@ -3,8 +3,9 @@ bays of the demo projects (member positions 0.23–0.81 of the span, away from e
 member end), recorded from the previous implementation before the speed work and
 the near-column mass fix (the final outputs re-recorded when the framing's Rayleigh
 mass was scaled to the struck point's own deflection, (f_s/f)²). They are not a
-source: the physics is checked against published values elsewhere (test_loadpath.py, test_analysis.py); this file guards
-that optimisations change no result.
+source: the physics is checked against published values elsewhere
+(test_loadpath.py, test_analysis.py); this file guards that optimisations change no
+result.
 """
 
 from __future__ import annotations
