@@ -27,7 +27,7 @@ For each drop point p (vectorised; SI units) and each load (mass M, W = M·g):
    (:mod:`droprig.solver.capacity`, :mod:`droprig.solver.deck`). Each check is
    linear in F: demand = F·unit + existing, so U = demand/resistance and the force
    that a check allows is F_allow = (resistance − existing)/unit.
-5. Beyond yield (design notes §3): if only flexure exceeds, and only on members
+5. Beyond yield (README, "What it computes"): if only flexure exceeds, and only on members
    whose sections can form a plastic hinge (``capacity.plastic_hinge_capable``:
    AISC 360-16 App. 1 / EN 1993-1-1 Class 1, as ``droprig check``), the path is taken as
    elastic–perfectly-plastic with R_p = the lowest collapse load of its members
@@ -95,7 +95,7 @@ __all__ = [
 
 CHECK = {name: i for i, name in enumerate(CHECKS)}
 BRITTLE = ("shear", "web_yielding", "web_crippling", "deck_flexure", "deck_punching")
-"""Checks with no plastic reserve (design notes §3)."""
+"""Checks with no plastic reserve (DNV-RP-C204 accidental limit state, from memory)."""
 
 REFINE_PASSES = 3
 """Local refinement passes around the worst points of each bay (spacing ÷4 each)."""
