@@ -61,7 +61,7 @@ def run(args: argparse.Namespace) -> int:
         rc = main(["report", str(path), "-o", str(out / f"{stem}_annex.pdf")])
         status = status or rc
         # The screenshot runs in a child process so Qt renders offscreen cleanly.
-        env = dict(os.environ, QT_QPA_PLATFORM="offscreen")
+        env = dict(os.environ, QT_QPA_PLATFORM="offscreen", QT_LOGGING_RULES="qt.qpa.*=false")
         shot = out / f"{stem}_window.png"
         rc = subprocess.call([sys.executable, "-m", "droprig", "gui", str(path),
                               "--screenshot", str(shot)], env=env)
