@@ -88,6 +88,18 @@ def run(path: str | None = None) -> int:
     return app.exec()
 
 
+def _quiet_offscreen_plugin() -> None:
+    """Drop the offscreen platform's harmless "does not support propagateSizeHints"
+    line from a headless screenshot run; every other Qt message still reaches stderr."""
+    from PySide6.QtCore import qInstallMessageHandler
+
+    def handler(_mode: object, _context: object, message: str) -> None:
+        if "propagateSizeHints" not in message:
+            sys.stderr.write(message + "\n")
+
+    qInstallMessageHandler(handler)
+
+
 def screenshot(path: str | None, png: str, size: tuple[int, int] = SCREENSHOT_SIZE) -> int:
     """Open ``path``, analyse synchronously, render and save a grab of the main
     window to ``png``. Settings and autosaves are not touched."""
@@ -96,6 +108,7 @@ def screenshot(path: str | None, png: str, size: tuple[int, int] = SCREENSHOT_SI
     from droprig.model import Project
 
     app = create_app()
+    _quiet_offscreen_plugin()
     doc = Document(Project())
     if path:
         from droprig.io.project_file import load_project
