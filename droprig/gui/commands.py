@@ -176,6 +176,13 @@ def with_zone(p: Project, zone_id: str, zone: LiftZone) -> Project:
     return replace(p, lift_zones=_swap_at(p.lift_zones, i, zone))
 
 
+def with_corridor(p: Project, zone_id: str, corridor: Iterable[tuple[float, float]]) -> Project:
+    """Zone ``zone_id`` with ``corridor`` (plan polygon, m; empty = whole sector).
+    The model refuses a polygon of fewer than 3 points or points out of range."""
+    pts = tuple((float(x), float(y)) for x, y in corridor)
+    return with_zone(p, zone_id, replace(p.zone(zone_id), corridor=pts))
+
+
 def add_zone(p: Project, zone: LiftZone) -> Project:
     return replace(p, lift_zones=(*p.lift_zones, zone))
 

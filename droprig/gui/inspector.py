@@ -66,6 +66,19 @@ _NUM_UNIT = re.compile(
     r"(?<![\w.])(-?\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)\s?(N/m|kg|Pa|rad|N|m)(?![\w²/])")
 
 
+FIELD_MIN_WIDTH_CAP = 240
+"""px: an edit box never asks for more than this, so the inspector stays narrow."""
+
+
+def _fit_width(w: QLineEdit, *samples: str) -> None:
+    """Give ``w`` a minimum width that shows the longest of ``samples`` (its value,
+    its placeholder, a typical quantity) uncut, up to :data:`FIELD_MIN_WIDTH_CAP`;
+    the form then moves the box under its label rather than cutting the text."""
+    fm = w.fontMetrics()
+    need = max((fm.horizontalAdvance(t) for t in samples if t), default=0) + 18
+    w.setMinimumWidth(min(max(need, w.minimumWidth()), FIELD_MIN_WIDTH_CAP))
+
+
 def _quantity_for(si_unit: str, hint: str | None) -> str | None:
     if hint and units.QUANTITIES.get(hint, ("",))[0] == si_unit.replace("²", "**2"):
         return hint
@@ -602,6 +615,7 @@ class FormEditor(QWidget):
                 w.setCompleter(comp)
                 comp.activated.connect(lambda _t, s=spec, w=w: self._commit_text(s, w))
             w.editingFinished.connect(lambda s=spec, w=w: self._commit_text(s, w))
+            _fit_width(w, w.placeholderText(), "-000.000 mm")
             return w
         if spec.kind == "longtext":
             w = _LongText()
@@ -632,6 +646,7 @@ class FormEditor(QWidget):
             if w.text() != text:
                 w.setText(text)
                 w.setCursorPosition(0)
+                _fit_width(w, text, w.placeholderText(), "-000.000 mm")
         elif isinstance(w, _LongText):
             if w.toPlainText() != str(v):
                 w.setPlainText(str(v))
@@ -913,7 +928,7 @@ class Inspector(QWidget):
             order = {k: i for i, k in enumerate(style.OUTCOME_ORDER)}
             for b in sorted(rows, key=lambda r: -order.get(r.response, -1)):
                 st = style.outcome(b.response)
-                allow = units.fmt(b.allowable_drop_height, "length", system, rounding="down")
+                allow = style.fmt_drop(b.allowable_drop_height, system)
                 html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
                          f"{b.load_name}<br>max U {fmt_utilisation(b.max_utilisation)}; "
                          f"allowable drop {allow}<br>governing: {b.governing_member} "

@@ -178,6 +178,13 @@ class MainWindow(QMainWindow):
         draw = self._act("draw_protection", "&Draw protection area", self._on_draw_toggled,
                          "Ctrl+D", "Drag a rectangle on the plan to lay a mat there")
         draw.setCheckable(True)
+        corr = self._act("draw_corridor", "Draw lift &corridor", self._on_corridor_toggled,
+                         "Ctrl+Shift+D",
+                         "Click the corners of the selected zone's corridor on the plan; "
+                         "double-click or Enter to finish")
+        corr.setCheckable(True)
+        self._act("clear_corridor", "Clear lift co&rridor", self.clear_corridor,
+                  tip="Remove the selected zone's corridor (the whole swing sector counts)")
         self._act("fit", "Zoom to &fit", lambda: self.plan.fit(), "Ctrl+0",
                   "Show the whole level")
         for mode, label in style.OVERLAYS.items():
@@ -324,6 +331,8 @@ class MainWindow(QMainWindow):
         m = mb.addMenu("&Lift")
         m.addActions([a["add_zone"], a["add_load"]])
         m.addSeparator()
+        m.addActions([a["draw_corridor"], a["clear_corridor"]])
+        m.addSeparator()
         m.addActions([a["add_protection"], a["draw_protection"]])
         m = mb.addMenu("&View")
         m.addAction(a["fit"])
@@ -375,6 +384,7 @@ class MainWindow(QMainWindow):
         self.runner.finished.connect(self._on_analysis_finished)
         self.plan.zone_changed.connect(self._on_zone_changed)
         self.plan.protection_drawn.connect(self._on_protection_drawn)
+        self.plan.corridor_drawn.connect(self._on_corridor_drawn)
         self.plan.mode_changed.connect(self._on_plan_mode_changed)
         self.plan.bay_clicked.connect(self._on_bay_clicked)
         self.plan.point_clicked.connect(self._on_point_clicked)
@@ -613,6 +623,9 @@ class MainWindow(QMainWindow):
         for n in ("add_zone", "add_opening", "add_protection", "draw_protection"):
             self.actions[n].setEnabled(has_level)
         self.actions["add_load"].setEnabled(bool(self.doc.project.lift_zones))
+        zone = self._selected_zone()
+        self.actions["draw_corridor"].setEnabled(zone is not None)
+        self.actions["clear_corridor"].setEnabled(zone is not None and bool(zone.corridor))
         self.actions["overlay_" + self.plan.overlay].setChecked(True)
 
     # ================================================================ plan events
@@ -652,11 +665,53 @@ class MainWindow(QMainWindow):
                                          "(Esc, or Draw protection area again, to stop)", 8000)
 
     def _on_plan_mode_changed(self, mode: str) -> None:
-        act = self.actions["draw_protection"]
-        if act.isChecked() != (mode == "draw_protection"):
-            act.blockSignals(True)
-            act.setChecked(mode == "draw_protection")
-            act.blockSignals(False)
+        for name in ("draw_protection", "draw_corridor"):
+            act = self.actions[name]
+            if act.isChecked() != (mode == name):
+                act.blockSignals(True)
+                act.setChecked(mode == name)
+                act.blockSignals(False)
+
+    def _selected_zone(self) -> LiftZone | None:
+        sel = self.doc.selection
+        if sel is None or sel.kind not in ("zone", "load"):
+            return None
+        try:
+            return self.doc.project.zone(sel.ids[0])
+        except KeyError:
+            return None
+
+    def _on_corridor_toggled(self, on: bool) -> None:
+        if not on:
+            self.plan.set_mode("select")
+            return
+        zone = self._selected_zone()
+        if zone is not None and zone.level_id != self.doc.level_id:
+            self.doc.set_level(zone.level_id)
+        try:
+            self.plan.set_mode("draw_corridor")
+        except ValueError as exc:
+            self._on_plan_mode_changed(self.plan.mode)
+            self.statusBar().showMessage(f"Draw lift corridor: {exc}", 8000)
+            return
+        self.plan.setFocus()  # so Enter, Backspace and Esc reach the plan at once
+        self.statusBar().showMessage(
+            f"Click the corners of zone {zone.id if zone else ''}'s corridor on the plan; "
+            "double-click or Enter to finish, Backspace removes the last corner, "
+            "Esc cancels", 10_000)
+
+    def _on_corridor_drawn(self, zone_id: str, points: tuple) -> None:
+        self._edit(lambda p: ed.with_corridor(p, zone_id, points),
+                   f"Draw corridor of lift zone {zone_id}")
+
+    def clear_corridor(self) -> bool:
+        """Remove the selected zone's corridor (one undo step)."""
+        zone = self._selected_zone()
+        if zone is None or not zone.corridor:
+            self.statusBar().showMessage("Select a lift zone with a corridor first", 5000)
+            return False
+        return self._edit(lambda p: ed.with_corridor(p, zone.id, ()),
+                          f"Clear corridor of lift zone {zone.id}")
 
     # ================================================================ trace
 

@@ -410,7 +410,8 @@ class PlanView(QGraphicsView):
         vw, vh = self.viewport().width(), self.viewport().height()
         ml, mt = 72.0, 64.0
         mr = 72.0 + (LEGEND_WIDTH + 14.0 if vw > 760 else 0.0)
-        mb = 72.0 + self._caution_height()
+        # the bottom bubbles (57 px below the grid) clear the scale bar (26 px band)
+        mb = 96.0 + self._caution_height()
 
         def scale() -> float:
             s = min((vw - ml - mr) / max(r.width(), 1e-6),
@@ -549,8 +550,7 @@ class PlanView(QGraphicsView):
             def drop_line(s: BayState) -> tuple[str, str]:
                 if s.allowable_drop_height is None:
                     return "no safe drop", "none"
-                h = units.fmt(s.allowable_drop_height, "length", sysm, decimals=2,
-                              rounding="down")
+                h = style.fmt_drop(s.allowable_drop_height, sysm)
                 return f"drop ≤ {h}", h
 
             self._labels_item.value_line = drop_line
@@ -874,9 +874,8 @@ class PlanView(QGraphicsView):
             if s.key == style.OUTCOME_NONE:
                 parts.append(f"Bay {s.bay.id}: {st.label.lower()}")
             else:
-                h_el = units.fmt(s.allowable_drop_height, "length", sysm, rounding="down")
-                h_pl = units.fmt(s.allowable_drop_height_plastic, "length", sysm,
-                                 rounding="down")
+                h_el = style.fmt_drop(s.allowable_drop_height, sysm)
+                h_pl = style.fmt_drop(s.allowable_drop_height_plastic, sysm)
                 parts.append(
                     f"Bay {s.bay.id}: {st.label.lower()}, max U {fmt_ratio(s.max_utilisation)}, "
                     f"allowable drop {h_el} (yielding {h_pl})")
@@ -891,7 +890,7 @@ class PlanView(QGraphicsView):
                 f"{c.load_name} in {c.zone_id}: {resp.lower()}, "
                 f"U {fmt_ratio(float(c.utilisation[i]))}, "
                 f"allowable drop "
-                f"{units.fmt(float(c.allowable_drop_height[i]), 'length', sysm, rounding='down')}")
+                f"{style.fmt_drop(float(c.allowable_drop_height[i]), sysm)}")
         else:
             parts.append(f"x {units.fmt(x, 'length', sysm, decimals=2)}, "
                          f"y {units.fmt(y, 'length', sysm, decimals=2)}")

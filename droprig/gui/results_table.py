@@ -50,7 +50,7 @@ COLUMNS: tuple[tuple[str, str], ...] = (
     ("load", "Load"),
     ("outcome", "Outcome"),
     ("util", "Max U"),
-    ("allow", "Allowable drop (yielding)"),
+    ("allow", "Allowable drop: elastic (yielding)"),
     ("planned", "Planned drop"),
     ("governing", "Governing member · check"),
     ("advice", "Advice"),
@@ -186,9 +186,9 @@ class BayResultsModel(QAbstractTableModel):
         if key == "util":
             return fmt_utilisation(b.max_utilisation)
         if key == "allow":
-            el = units.fmt(_fin(b.allowable_drop_height), "length", s, rounding="down")
+            el = style.fmt_drop(_fin(b.allowable_drop_height), s)
             pl = _fin(b.allowable_drop_height_plastic)
-            pl_text = units.fmt(pl, "length", s, rounding="down")
+            pl_text = style.fmt_drop(pl, s)
             if pl is None or pl_text == el:
                 return el
             return f"{el}  ({pl_text})"

@@ -28,7 +28,7 @@ from dataclasses import dataclass
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QBrush, QColor, QPen
 
-from droprig import outcomes
+from droprig import outcomes, units
 
 # ---------------------------------------------------------------- outcomes
 
@@ -221,3 +221,14 @@ CAUTION_SHORT = (
 
 APP_ORGANISATION = "Droprig Works"
 APP_NAME = "droprig"
+
+
+SHORT_DROP_M = 0.5
+"""m: allowable drops below this are shown in mm / in, not m / ft."""
+
+
+def fmt_drop(height: float | None, system: units.UnitSystem) -> str:
+    """An allowable drop height, rounded down. Below :data:`SHORT_DROP_M` it is
+    given in mm or in, so a drop of a few millimetres does not read as "0.00 ft"."""
+    q = "small_length" if height is not None and height < SHORT_DROP_M else "length"
+    return units.fmt(height, q, system, rounding="down")

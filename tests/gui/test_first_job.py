@@ -1,0 +1,148 @@
+"""A first job from an empty project, as a new lift planner walks it: generated
+framing, a lift zone, a load, the bay outcomes, a protection area, US units.
+Each test pins one thing that read wrong or was cut off on screen.
+
+Unit conversion: 1 in = 25.4 mm exactly (NIST SP 811, 2008 ed., Appendix B.8).
+Everything else here is screen behaviour: ``# common practice, no source``.
+The framing is a scenario.
+"""
+
+from __future__ import annotations
+
+import pytest
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import QLineEdit, QMessageBox
+
+from droprig.gui import style
+from droprig.gui.document import Selection
+from droprig.gui.main_window import MainWindow
+from droprig.gui.results_table import COL, COLUMNS
+from droprig.io.sections import get_grade, get_section
+from droprig.model import bays, generate_level
+
+pytestmark = pytest.mark.gui
+
+WAIT_MS = 20_000
+
+
+def _level():
+    """Three by two bays of 6 m × 5 m (scenario), as the generator makes them."""
+    return generate_level(
+        level_id="L1", name="Level 1", elevation=0.0, x_spacings=(6.0, 6.0, 6.0),
+        y_spacings=(5.0, 5.0), girder_direction="x", beam_spacing=2.5,
+        girder_section=get_section("IPE 450"), beam_section=get_section("IPE 300"),
+        girder_grade=get_grade("S355"), beam_grade=get_grade("S355"))
+
+
+@pytest.fixture(autouse=True)
+def _no_modal_dialogs(monkeypatch: pytest.MonkeyPatch) -> None:
+    def unexpected(*args: object, **kwargs: object) -> None:
+        pytest.fail(f"unexpected message box: {args[1:3]}")
+
+    for name in ("warning", "question", "critical", "information"):
+        monkeypatch.setattr(QMessageBox, name, unexpected)
+
+
+@pytest.fixture
+def window(qtbot) -> MainWindow:
+    win = MainWindow(debounce_ms=30)
+
+    def no_prompt(w: MainWindow) -> None:
+        w._closing = True
+
+    qtbot.addWidget(win, before_close_func=no_prompt)
+    win.resize(1600, 1000)
+    win.show()
+    qtbot.waitExposed(win)
+    return win
+
+
+def _framed_zone(window: MainWindow) -> None:
+    from droprig.gui import commands as ed
+
+    window.doc.edit(ed.add_level(window.doc.project, _level()), "Generate framing")
+    window.actions["add_zone"].trigger()
+
+
+# ------------------------------------------------------------------ inspector
+
+
+def test_inspector_boxes_show_their_whole_text(qtbot, window: MainWindow) -> None:
+    """A narrow inspector moves a box under its label instead of cutting its
+    value ("360.00 deg") or its hint ("empty = rigid (conservative)")."""
+    _framed_zone(window)
+    window.resizeDocks([window.inspector_dock], [300], Qt.Orientation.Horizontal)
+    for sel in (window.doc.selection,
+                Selection("load", (window.doc.project.lift_zones[0].id, "Load 1"))):
+        window.doc.select(sel)
+        qtbot.wait(50)
+        edits = [w for w in window.inspector.findChildren(QLineEdit) if w.isVisible()]
+        assert edits
+        for w in edits:
+            text = w.text() or w.placeholderText()
+            need = w.fontMetrics().horizontalAdvance(text)
+            # common practice, no source: a value or hint is read whole, not guessed at
+            assert need <= w.width() - 8 or w.width() >= 240, (text, w.width())
+
+
+# ------------------------------------------------------------------ results
+
+
+@pytest.mark.parametrize(("height", "system", "expected"), [
+    (0.0114, "SI", "11.4 mm"),
+    (0.0114, "US", "0.44 in"),  # 11.4 / 25.4 = 0.4488 in, rounded down (NIST SP 811 B.8)
+    (2.5, "SI", "2.500 m"),
+    (None, "US", "none"),
+])
+def test_short_allowable_drop_in_mm_or_in(height: float | None, system: str,
+                                          expected: str) -> None:
+    """An allowable drop of a few millimetres reads as such, not as "0.00 ft"
+    (rounded down: it is a limit). Common practice, no source."""
+    assert style.fmt_drop(height, system) == expected  # type: ignore[arg-type]
+
+
+def test_allowable_drop_header_names_both_values() -> None:
+    """The column gives the elastic limit and, in brackets, the yielding one: the
+    header says both. Common practice, no source."""
+    header = dict(COLUMNS)["allow"]
+    assert "elastic" in header and "(yielding)" in header
+    assert COL["allow"] == [k for k, _ in COLUMNS].index("allow")
+
+
+# ------------------------------------------------------------------ protection
+
+
+def test_new_protection_area_sits_under_the_crane(qtbot, window: MainWindow,
+                                                  monkeypatch: pytest.MonkeyPatch) -> None:
+    """With no bay selected, a new mat starts on the bay under the crane of the
+    selected zone, not on the first bay of the grid. Common practice, no source."""
+    from droprig.gui.inspector import FormDialog
+
+    _framed_zone(window)
+    zone = window.doc.project.lift_zones[0]
+    monkeypatch.setattr(FormDialog, "exec", lambda self: 1)
+    window.actions["add_protection"].trigger()
+    (area,) = window.doc.project.protection_areas
+    x, y = zone.crane
+    r = area.area
+    assert r.x0 <= x <= r.x1 and r.y0 <= y <= r.y1
+    assert r in [b.rect for b in bays(window.doc.level)]
+
+
+# ------------------------------------------------------------------ plan
+
+
+def test_zoom_to_fit_keeps_grid_bubbles_clear_of_the_scale_bar(qtbot,
+                                                               window: MainWindow) -> None:
+    """After Zoom to fit the bottom grid bubbles sit above the scale bar
+    (geometry of PlanView._paint_grid and _paint_scale_bar). Common practice,
+    no source."""
+    _framed_zone(window)
+    qtbot.waitUntil(lambda: not window.runner.busy and window.doc.results_current,
+                    timeout=WAIT_MS)
+    plan = window.plan
+    plan.fit()
+    lv = window.doc.level
+    bubble_bottom = plan._vp(lv.grid.x_lines[0], lv.grid.y_lines[0]).y() + 46.0 + 11.0
+    scale_top = plan.viewport().height() - plan._caution_height() - 26.0
+    assert bubble_bottom < scale_top
