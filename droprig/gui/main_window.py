@@ -745,6 +745,24 @@ class MainWindow(QMainWindow):
                     return b.rect
         return None
 
+    def _zone_bay_rect(self) -> Rect | None:
+        """The bay under the crane of the selected lift zone (or of the first
+        zone on the level shown): where a new mat is most likely needed."""
+        lv = self.doc.level
+        if lv is None:
+            return None
+        sel = self.doc.selection
+        zones = [z for z in self.doc.project.lift_zones if z.level_id == lv.id]
+        if sel is not None and sel.kind in ("zone", "load"):
+            zones = [z for z in zones if z.id == sel.ids[0]] or zones
+        for z in zones:
+            x, y = z.crane
+            for b in bays(lv):
+                r = b.rect
+                if r.x0 <= x <= r.x1 and r.y0 <= y <= r.y1:
+                    return r
+        return None
+
     def generate_framing(self) -> None:
         """Generate floor framing. With a level on the plan, first ask whether to
         replace its framing (the dialog then opens filled from that level) or to
@@ -859,7 +877,7 @@ class MainWindow(QMainWindow):
             return None
         p = self.doc.project
         if not isinstance(rect, Rect):
-            rect = self._selected_bay_rect() or bays(lv)[0].rect
+            rect = self._selected_bay_rect() or self._zone_bay_rect() or bays(lv)[0].rect
         pid = ed.unique_id("P", [a.id for a in p.protection_areas])
         area = ProtectionArea(id=pid, name=f"Mat {pid[1:]}", level_id=lv.id, area=rect)
         dlg = FormDialog("New protection area", area,
