@@ -166,6 +166,46 @@ def _edit_text(value: float | None, quantity: str, system: units.UnitSystem) -> 
     return fmt_q(value, quantity, system).replace(",", "")
 
 
+# ------------------------------------------------------------------ corridor text
+
+
+def _corridor_allowed(system: units.UnitSystem) -> str:
+    unit = units.display_unit("length", system)
+    return (f"empty (no corridor: the whole swing sector), or at least 3 corner points "
+            f"x,y in {unit} separated by ';', for example 0,0; 12,0; 12,6")
+
+
+def corridor_text(corridor: tuple[tuple[float, float], ...], system: units.UnitSystem) -> str:
+    """``"0,0; 12,0; 12,6"``: the corridor's corners in the display length unit."""
+    def num(v: float) -> str:
+        t = f"{units.to_display(v, 'length', system):.3f}".rstrip("0").rstrip(".")
+        return "0" if t in ("-0", "") else t
+    return "; ".join(f"{num(x)},{num(y)}" for x, y in corridor)
+
+
+def parse_corridor(text: str, system: units.UnitSystem) -> tuple[tuple[float, float], ...]:
+    """Corner points (m) from ``"x,y; x,y; …"`` in the display length unit (a
+    number may carry its own unit, ``"40 ft"``). Empty text: no corridor.
+    Raises ValueError naming what is allowed."""
+    if not text.strip():
+        return ()
+    pts = []
+    for part in [q for q in text.split(";") if q.strip()]:
+        xy = part.split(",")
+        if len(xy) != 2:
+            raise ValueError(f"Corridor: cannot read {part.strip()!r} as a point. Allowed: "
+                             f"{_corridor_allowed(system)}")
+        try:
+            pts.append(tuple(units.parse(v, "length", system, field="Corridor") for v in xy))
+        except units.UnitError as exc:
+            raise ValueError(f"Corridor: cannot read {part.strip()!r} as a point. Allowed: "
+                             f"{_corridor_allowed(system)}") from exc
+    if len(pts) < 3:
+        raise ValueError(f"Corridor: {len(pts)} point(s) refused. Allowed: "
+                         f"{_corridor_allowed(system)}")
+    return tuple(pts)  # type: ignore[return-value]
+
+
 # ------------------------------------------------------------------ field specs
 
 Getter = Callable[[Any], Any]
@@ -194,7 +234,7 @@ class FieldSpec:
     choices: tuple[tuple[str, str], ...] = ()
     tip: str = ""
     empty: str = ""
-    """For ``optional``: what an empty box means (shown as the placeholder)."""
+    """What an empty box means (``optional`` and ``text``; shown as the placeholder)."""
 
 
 @dataclass
@@ -372,9 +412,16 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                                               "circle"),
             _q("drift_margin", "Load swing margin", "length",
                "The region is widened by this much for load swing"),
-            _ro("corridor", "Corridor", lambda o: f"{len(o.corridor)}-point polygon"
-                if o.corridor else "none (whole sector)"),
-        ], lambda p, o: ed.with_zone(p, z.id, o), buttons=["add_load", "delete"])
+            FieldSpec("corridor", f"Corridor ({units.display_unit('length', system)})",
+                      "text", lambda o: corridor_text(o.corridor, system),
+                      lambda o, v: replace(o, corridor=parse_corridor(v, system)),
+                      tip="Plan polygon the load stays inside (the region is the swing "
+                          "sector within it): corner points x,y separated by ';', e.g. "
+                          "0,0; 12,0; 12,6. Empty for the whole sector. Or draw it on "
+                          "the plan.",
+                      empty="none: the whole swing sector"),
+        ], lambda p, o: ed.with_zone(p, z.id, o),
+            buttons=["add_load", "draw_corridor", "clear_corridor", "delete"])
 
     if k == "load":
         ld: LiftLoad = obj
@@ -605,6 +652,8 @@ class FormEditor(QWidget):
                 w.setPlaceholderText(f"e.g. 12 {unit}" if unit else "e.g. 1.0")
             elif spec.kind == "optional":
                 w.setPlaceholderText(spec.empty or "empty = none")
+            elif spec.empty:
+                w.setPlaceholderText(spec.empty)
             if spec.kind == "section":
                 from droprig.io.sections import list_sections
 

@@ -16,6 +16,9 @@ Drawing language (our own, colours from :mod:`droprig.gui.style`):
   margin as a fainter dotted band, corridor dash-dot; the crane as a ring with
   four outrigger pads and a jib stroke towards the middle of the slew arc;
 * protection areas dashed violet rectangles with their name and kind;
+* a corridor being drawn as a heavy teal polyline through the clicked corners,
+  a thin line on to the pointer and a dotted closing edge back to the first
+  corner (drawn over the plan, fixed-size corner squares);
 * north arrow (top left), legend (top right), scale bar (bottom left) and the
   caution strip (bottom, whenever results are shown) fixed to the view.
 
@@ -89,7 +92,7 @@ from droprig.model import Level, LiftZone, ModelError, Project, Rect, bays
 from droprig.solver.results import RESPONSES, CaseResult, Results
 
 OVERLAY_MODES: tuple[str, ...] = ("outcome", "utilisation", "drop_height")
-EDIT_MODES: tuple[str, ...] = ("select", "draw_protection")
+EDIT_MODES: tuple[str, ...] = ("select", "draw_protection", "draw_corridor")
 
 MIN_BAND = 0.1
 """Least radial width r_max − r_min a handle drag may leave, m."""
@@ -183,7 +186,8 @@ class PlanView(QGraphicsView):
     ``bay_clicked(bay_id)``; ``point_clicked(zone_id, load_name, x, y)`` for the
     nearest analysed drop point of the displayed case(s); ``hover_text(str)``;
     ``mode_changed(mode)`` when the edit mode changes (also when Esc leaves the
-    draw-protection mode).
+    draw-protection mode); ``corridor_drawn(zone_id, points)`` with the corner
+    points (m) of a corridor finished in "draw_corridor" mode.
     """
 
     zone_changed = Signal(str, object)
@@ -192,6 +196,7 @@ class PlanView(QGraphicsView):
     point_clicked = Signal(str, str, float, float)
     hover_text = Signal(str)
     mode_changed = Signal(str)
+    corridor_drawn = Signal(str, object)
 
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent)
@@ -224,6 +229,9 @@ class PlanView(QGraphicsView):
         self._pan_last: QPoint | None = None
         self._space = False
         self._band_origin: QPointF | None = None
+        self._corridor_zone: str | None = None
+        self._corridor_pts: list[QPointF] = []
+        self._corridor_cursor: QPointF | None = None
         self._last_hover = ""
         self._raster_ok = False
         self._cases: list[CaseResult] = []
@@ -330,6 +338,8 @@ class PlanView(QGraphicsView):
             zitem.set_zones(zones)
         if self._selected_zone and not self._zone(self._selected_zone):
             self._selected_zone = None
+        if self._mode == "draw_corridor" and self._selected_zone != self._corridor_zone:
+            self.set_mode("select")
         self._zones_item.set_selected(self._selected_zone)
         self._cranes_item.set_selected(self._selected_zone)
         self._update_scene_rect()
@@ -354,19 +364,33 @@ class PlanView(QGraphicsView):
         self.viewport().update()
 
     def set_mode(self, mode: str) -> None:
-        """"select" (click, hover, handles) or "draw_protection" (rubber band)."""
+        """"select" (click, hover, handles), "draw_protection" (rubber band) or
+        "draw_corridor" (click the corners of the selected zone's corridor;
+        ValueError if no zone is selected)."""
         if mode not in EDIT_MODES:
             raise ValueError(f"edit mode {mode!r}; allowed: {', '.join(EDIT_MODES)}")
+        if mode == "draw_corridor" and self._selected_zone is None:
+            raise ValueError("select a lift zone on this level first")
         changed = mode != getattr(self, "_mode", mode)
         self._mode = mode
         self._band_origin = None
         self._band_item.setVisible(False)
+        if changed:
+            self._corridor_zone = self._selected_zone if mode == "draw_corridor" else None
+            self._corridor_pts = []
+            self._corridor_cursor = None
+            self.viewport().update()
         if self._drag is None:
             self._drag_label.setVisible(False)
-        self.viewport().setCursor(Qt.CursorShape.CrossCursor if mode == "draw_protection"
+        self.viewport().setCursor(Qt.CursorShape.CrossCursor if mode.startswith("draw_")
                                   else Qt.CursorShape.ArrowCursor)
         if changed:
             self.mode_changed.emit(mode)
+
+    @property
+    def corridor_points(self) -> list[tuple[float, float]]:
+        """Corners (m) clicked so far in "draw_corridor" mode."""
+        return [from_scene(q) for q in self._corridor_pts]
 
     def set_case(self, zone_id: str | None, load_name: str | None = None) -> None:
         """Colour the plan by one analysed case; ``None`` = worst per bay over all."""
@@ -391,8 +415,11 @@ class PlanView(QGraphicsView):
         return self._selected_bay
 
     def set_selected_zone(self, zone_id: str | None) -> None:
-        """Show the drag handles of ``zone_id`` (None hides them)."""
+        """Show the drag handles of ``zone_id`` (None hides them). Another zone
+        ends a corridor being drawn."""
         self._selected_zone = zone_id if zone_id and self._zone(zone_id) else None
+        if self._mode == "draw_corridor" and self._selected_zone != self._corridor_zone:
+            self.set_mode("select")
         self._zones_item.set_selected(self._selected_zone)
         self._cranes_item.set_selected(self._selected_zone)
         self._place_handles()
@@ -698,8 +725,22 @@ class PlanView(QGraphicsView):
             self.zoom_by(0.8)
             event.accept()
             return
+        if self._mode == "draw_corridor" and event.key() in (
+                Qt.Key.Key_Return, Qt.Key.Key_Enter, Qt.Key.Key_Backspace):
+            if event.key() == Qt.Key.Key_Backspace:
+                if self._corridor_pts:
+                    self._corridor_pts.pop()
+                    self.viewport().update()
+                self.hover_text.emit(self._corridor_hint())
+            else:
+                self.finish_corridor()
+            event.accept()
+            return
         if event.key() == Qt.Key.Key_Escape:
-            if self._band_origin is not None:
+            if self._mode == "draw_corridor":
+                self.set_mode("select")
+                self.hover_text.emit("drawing the corridor cancelled; nothing was changed")
+            elif self._band_origin is not None:
                 self._band_origin = None
                 self._band_item.setVisible(False)
                 self._drag_label.setVisible(False)
@@ -742,6 +783,15 @@ class PlanView(QGraphicsView):
         if event.button() != Qt.MouseButton.LeftButton:
             super().mousePressEvent(event)
             return
+        if self._mode == "draw_corridor":
+            q = self._snap(self.mapToScene(pos))
+            if not self._corridor_pts or self._corridor_pts[-1] != q:
+                self._corridor_pts.append(q)
+            self._corridor_cursor = q
+            self.viewport().update()
+            self.hover_text.emit(self._corridor_hint())
+            event.accept()
+            return
         if self._mode == "draw_protection":
             self._band_origin = self._snap(self.mapToScene(pos))
             self._band_item.setRect(QRectF(self._band_origin, self._band_origin))
@@ -762,6 +812,11 @@ class PlanView(QGraphicsView):
             self.horizontalScrollBar().setValue(self.horizontalScrollBar().value() - delta.x())
             self.verticalScrollBar().setValue(self.verticalScrollBar().value() - delta.y())
             self._user_view = True
+            event.accept()
+            return
+        if self._mode == "draw_corridor":
+            self._corridor_cursor = self._snap(self.mapToScene(pos))
+            self.viewport().update()
             event.accept()
             return
         if self._band_origin is not None:
@@ -792,6 +847,9 @@ class PlanView(QGraphicsView):
                 self.set_mode(self._mode)  # restores the mode's cursor
             event.accept()
             return
+        if self._mode == "draw_corridor" and event.button() == Qt.MouseButton.LeftButton:
+            event.accept()
+            return
         if self._band_origin is not None and event.button() == Qt.MouseButton.LeftButton:
             self._finish_band(self._band_origin, self._snap(self.mapToScene(pos)))
             event.accept()
@@ -806,6 +864,45 @@ class PlanView(QGraphicsView):
             event.accept()
             return
         super().mouseReleaseEvent(event)
+
+    def mouseDoubleClickEvent(self, event: QMouseEvent) -> None:
+        if self._mode == "draw_corridor" and event.button() == Qt.MouseButton.LeftButton:
+            q = self._snap(self.mapToScene(event.position().toPoint()))
+            if not self._corridor_pts or self._corridor_pts[-1] != q:
+                self._corridor_pts.append(q)
+            self.finish_corridor()
+            event.accept()
+            return
+        super().mouseDoubleClickEvent(event)
+
+    def _corridor_hint(self) -> str:
+        n = len(self._corridor_pts)
+        s = self.unit_system
+        last = ""
+        if n:
+            x, y = from_scene(self._corridor_pts[-1])
+            last = (f", last ({units.fmt(x, 'length', s, decimals=2)}, "
+                    f"{units.fmt(y, 'length', s, decimals=2)})")
+        more = "" if n >= 3 else f"; {3 - n} more to make a polygon"
+        return (f"corridor of zone {self._corridor_zone}: {n} corner(s){last}{more} · "
+                "double-click or Enter to finish, Backspace removes the last corner, "
+                "Esc cancels")
+
+    def finish_corridor(self) -> bool:
+        """End "draw_corridor" mode with the clicked corners: emits
+        ``corridor_drawn`` and returns True if there are at least 3; otherwise
+        keeps drawing and says so."""
+        if self._mode != "draw_corridor" or self._corridor_zone is None:
+            return False
+        pts = [(round(x, 6), round(y, 6)) for x, y in self.corridor_points]
+        if len(pts) < 3:
+            self.hover_text.emit(f"corridor not finished: {len(pts)} corner(s) clicked, "
+                                 "at least 3 needed (Esc cancels)")
+            return False
+        zone_id = self._corridor_zone
+        self.set_mode("select")
+        self.corridor_drawn.emit(zone_id, tuple(pts))
+        return True
 
     def _snap(self, scene_pos: QPointF) -> QPointF:
         """Snap a scene point to the radius snap step (50 mm SI, 0.1 ft US)."""
@@ -926,6 +1023,7 @@ class PlanView(QGraphicsView):
         painter.setRenderHint(QPainter.RenderHint.TextAntialiasing, True)
         if self._level is not None:
             self._paint_grid(painter)
+        self._paint_corridor_preview(painter)
         self._paint_north(painter)
         self._paint_scale_bar(painter)
         self._paint_legend(painter)
@@ -1001,6 +1099,32 @@ class PlanView(QGraphicsView):
                 p.drawText(QRectF(-(a - b) / 2, 0, a - b, 13), Qt.AlignmentFlag.AlignCenter,
                            text)
                 p.restore()
+
+    def _paint_corridor_preview(self, p: QPainter) -> None:
+        if self._mode != "draw_corridor" or not self._corridor_pts:
+            return
+        vt = self.viewportTransform()
+        pts = [vt.map(q) for q in self._corridor_pts]
+        teal = QColor(style.PLAN["zone_edge"])
+        p.setBrush(Qt.BrushStyle.NoBrush)
+        if self._corridor_cursor is not None:
+            cur = vt.map(self._corridor_cursor)
+            p.setPen(cosmetic_pen(teal, 1.2))
+            p.drawLine(pts[-1], cur)
+            if len(pts) >= 2:
+                p.setPen(cosmetic_pen(teal, 1.0, Qt.PenStyle.DotLine))
+                p.drawLine(cur, pts[0])
+        elif len(pts) >= 3:
+            p.setPen(cosmetic_pen(teal, 1.0, Qt.PenStyle.DotLine))
+            p.drawLine(pts[-1], pts[0])
+        p.setPen(cosmetic_pen("#FFFFFF", 5.0))  # halo: readable over any bay fill
+        p.drawPolyline(QPolygonF(pts))
+        p.setPen(cosmetic_pen(teal, 2.6, Qt.PenStyle.DashDotLine))
+        p.drawPolyline(QPolygonF(pts))
+        p.setPen(cosmetic_pen(teal, 1.4))
+        for i, q in enumerate(pts):
+            p.setBrush(teal if i == 0 else QColor("#FFFFFF"))
+            p.drawRect(QRectF(q.x() - 4, q.y() - 4, 8, 8))
 
     def _paint_north(self, p: QPainter) -> None:
         c = QPointF(34, 44)
