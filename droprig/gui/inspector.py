@@ -79,6 +79,12 @@ def _fit_width(w: QLineEdit, *samples: str) -> None:
     w.setMinimumWidth(min(max(need, w.minimumWidth()), FIELD_MIN_WIDTH_CAP))
 
 
+def titled(kind: str, name: str) -> str:
+    """Heading for an object of ``kind`` called ``name``: "Load 2" for a load
+    named "Load 2" (not "Load Load 2"), "Level Roof" for a level named "Roof"."""
+    return name if name.lower().startswith(kind.lower()) else f"{kind} {name}"
+
+
 def _quantity_for(si_unit: str, hint: str | None) -> str | None:
     if hint and units.QUANTITIES.get(hint, ("",))[0] == si_unit.replace("²", "**2"):
         return hint
@@ -327,7 +333,7 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
 
     if k == "level":
         lv: Level = obj
-        return Form(f"Level {lv.name}", f"id {lv.id} · {len(lv.members)} members", obj, [
+        return Form(titled("Level", lv.name), f"id {lv.id} · {len(lv.members)} members", obj, [
             _t("name", "Name"),
             _q("elevation", "Top of deck elevation", "length"),
             _q("superimposed_dead", "Superimposed dead load", "pressure",
@@ -465,7 +471,7 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                        _ro("h", "Drop height onto deck",
                            lambda o: _safe(lambda: units.fmt(o.height_above(elev), "length",
                                                              system)))]
-        return Form(f"Load {ld.name}", f"in lift zone {zone.id} "
+        return Form(titled("Load", ld.name), f"in lift zone {zone.id} "
                     f"({zone.name or 'unnamed'})", obj, fields,
                     lambda p, o: ed.with_load(p, zone.id, ld.name, o), buttons=["delete"])
 

@@ -146,3 +146,18 @@ def test_zoom_to_fit_keeps_grid_bubbles_clear_of_the_scale_bar(qtbot,
     bubble_bottom = plan._vp(lv.grid.x_lines[0], lv.grid.y_lines[0]).y() + 46.0 + 11.0
     scale_top = plan.viewport().height() - plan._caution_height() - 26.0
     assert bubble_bottom < scale_top
+
+
+def test_inspector_heading_does_not_repeat_the_kind(qtbot, window: MainWindow) -> None:
+    """A load named "Load 2" is headed "Load 2", not "Load Load 2"; a level named
+    "Roof" keeps its kind, "Level Roof". Common practice, no source."""
+    from droprig.gui.inspector import titled
+
+    _framed_zone(window)
+    window.actions["add_load"].trigger()
+    sel = window.doc.selection
+    assert sel is not None and sel.kind == "load"
+    assert window.inspector.form is not None
+    assert window.inspector.form.title == sel.ids[1] == "Load 2"
+    assert titled("Level", "Roof") == "Level Roof"
+    assert titled("Level", "Level 1") == "Level 1"
