@@ -611,8 +611,11 @@ class ZonesItem(PixelSized, QGraphicsItem):
                                      to_scene(cx + z.r_max * math.cos(a),
                                               cy + z.r_max * math.sin(a)))
             if z.corridor:
-                painter.setPen(cosmetic_pen(teal, w, Qt.PenStyle.DashDotLine))
-                painter.drawPolygon(QPolygonF([to_scene(*p) for p in z.corridor]))
+                poly = QPolygonF([to_scene(*p) for p in z.corridor])
+                painter.setPen(cosmetic_pen("#FFFFFF", w + 2.5))  # halo over dark bay fills
+                painter.drawPolygon(poly)
+                painter.setPen(cosmetic_pen(teal, w + 0.6, Qt.PenStyle.DashDotLine))
+                painter.drawPolygon(poly)
 
     @staticmethod
     def crane_label(z: LiftZone) -> str:

@@ -1217,6 +1217,9 @@ class PlanView(QGraphicsView):
             rows.append(("outcome", key))
         rows += [("sym", "girder"), ("sym", "beam"), ("sym", "zone"), ("sym", "drift"),
                  ("sym", "crane")]
+        if any(z.corridor for z in self._zones_item.shown_zones()) or (
+                self._mode == "draw_corridor"):
+            rows.append(("sym", "corridor"))
         if self._protection_item.areas:
             rows.append(("sym", "protection"))
         if self._openings_item.count:
@@ -1327,6 +1330,12 @@ class PlanView(QGraphicsView):
             p.setBrush(Qt.BrushStyle.NoBrush)
             p.drawRect(QRectF(a.x(), a.y() - 4, 26, 8))
             label = "Drift margin"
+        elif kind == "corridor":
+            p.setPen(cosmetic_pen("#FFFFFF", 4.0))
+            p.drawLine(a, b)
+            p.setPen(cosmetic_pen(teal, 2.0, Qt.PenStyle.DashDotLine))
+            p.drawLine(a, b)
+            label = "Lift corridor"
         elif kind == "crane":
             c = QPointF(a.x() + 13, a.y())
             p.setPen(cosmetic_pen(teal, 1.4))
