@@ -969,15 +969,24 @@ class Inspector(QWidget):
             self._extra.setVisible(bool(msg))
             return
         if sel.kind in ("zone", "load"):
-            counts: dict[str, int] = {}
+            # each bay once, by its worst outcome over the loads of the zone
+            rank = {k: i for i, k in enumerate(style.OUTCOME_ORDER)}
+            worst: dict[tuple[str, str], str] = {}
             for b in rows:
-                counts[b.response] = counts.get(b.response, 0) + 1
+                key = (b.level_id, b.bay_id)
+                if key not in worst or rank.get(b.response, -1) > rank.get(worst[key], -1):
+                    worst[key] = b.response
+            counts: dict[str, int] = {}
+            for resp in worst.values():
+                counts[resp] = counts.get(resp, 0) + 1
             parts = []
             for key in reversed(style.OUTCOME_ORDER):
                 if counts.get(key):
                     st = style.outcome(key)
                     parts.append(f"{_chip(st)} {counts[key]} bay(s): {st.label.lower()}")
-            html = "<p><b>Outcome by bay</b><br>" + "<br>".join(parts) + "</p>"
+            n_loads = len({b.load_name for b in rows})
+            head = "Outcome by bay" + (f" (worst of {n_loads} loads)" if n_loads > 1 else "")
+            html = f"<p><b>{head}</b><br>" + "<br>".join(parts) + "</p>"
         else:
             html = "<p><b>Outcome in this bay</b></p>"
             order = {k: i for i, k in enumerate(style.OUTCOME_ORDER)}

@@ -9,6 +9,8 @@ The framing is a scenario.
 
 from __future__ import annotations
 
+import re
+
 import pytest
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QLineEdit, QMessageBox
@@ -161,3 +163,24 @@ def test_inspector_heading_does_not_repeat_the_kind(qtbot, window: MainWindow) -
     assert window.inspector.form.title == sel.ids[1] == "Load 2"
     assert titled("Level", "Roof") == "Level Roof"
     assert titled("Level", "Level 1") == "Level 1"
+
+
+def test_zone_outcome_counts_each_bay_once(qtbot, window: MainWindow) -> None:
+    """A zone over 6 bays with 2 loads reports 6 bays (the worst of the loads in
+    each), not 12. Common practice, no source."""
+    _framed_zone(window)
+    zid = window.doc.project.lift_zones[0].id
+    window.actions["add_load"].trigger()
+    qtbot.waitUntil(lambda: not window.runner.busy and window.doc.results_current,
+                    timeout=WAIT_MS)
+    res = window.doc.results
+    assert res is not None
+    n_bays = len({b.bay_id for b in res.bays if b.zone_id == zid})
+    assert len([b for b in res.bays if b.zone_id == zid]) == 2 * n_bays
+    window.doc.select(Selection("zone", (zid,)))
+    qtbot.wait(50)
+    text = window.inspector._extra.text()
+    counted = sum(int(n) for n in re.findall(r"(\d+) bay\(s\)", text))
+    assert counted == n_bays
+    assert "worst of 2 loads" in text
+    assert style.CAUTION_SHORT in text  # verdict panel keeps the caution
