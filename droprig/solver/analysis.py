@@ -781,8 +781,13 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     rp_arm = ua["rp_arm"]
     rp_cond = ua["rp_cond"]
     # brittle checks at the force the yielding path can pass on
-    F_cap = np.minimum(F, R_p)
-    Ub = np.stack([checks[c].U_at(F_cap) for c in BRITTLE], axis=1)
+    # U at F_cap = min(F, R_p) is U at F where F_cap is F (F ≤ R_p or F is NaN) and
+    # U at R_p elsewhere: each brittle family is evaluated at R_p once, for this and
+    # for the plastic inverse answer below (same values as evaluating at F_cap)
+    Ub_at_Rp = [checks[c].U_at(R_p) for c in BRITTLE]
+    at_F = (F <= R_p) | np.isnan(F)
+    Ub = np.stack([np.where(at_F, checks[c].U, u)
+                   for c, u in zip(BRITTLE, Ub_at_Rp, strict=True)], axis=1)
     Ub_key = np.where(np.isnan(Ub), -np.inf, Ub)
     jb = np.argmax(Ub_key, axis=1)
     Ub_max = Ub[rows, jb]
@@ -844,7 +849,7 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
                            (F_c - W) * s_c / (eta * W), 0.0)
     h_el = h_el + crush_bonus
     # plastic: ductility and rotation limits, brittle checks at R_p
-    Ub_Rp = np.max(np.stack([checks[c].U_at(R_p) for c in BRITTLE], axis=1), axis=1)
+    Ub_Rp = np.max(np.stack(Ub_at_Rp, axis=1), axis=1)
     with np.errstate(divide="ignore", invalid="ignore"):
         d_rot = np.tan(s.rotation_limit) * np.where(rp_cond == COND_NAMES.index("cantilever"),
                                                    rp_arm, rp_arm)
