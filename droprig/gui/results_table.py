@@ -21,7 +21,7 @@ from PySide6.QtCore import (
     Qt,
     Signal,
 )
-from PySide6.QtGui import QColor, QFont, QIcon, QPainter, QPixmap
+from PySide6.QtGui import QColor, QFont, QFontMetrics, QIcon, QPainter, QPixmap
 from PySide6.QtWidgets import (
     QAbstractItemView,
     QComboBox,
@@ -67,6 +67,17 @@ _TIPS = {
              "that is more",
     "planned": "Free-fall height of the load as planned (onto the deck or mat top)",
 }
+
+
+HEADER_PADDING_PX = 40
+"""Room beside a column title for the section padding and the sort arrow."""
+
+
+def header_font(hh: QHeaderView) -> QFont:
+    """The font the header draws its titles in (Fusion draws them bold)."""
+    f = QFont(hh.font())
+    f.setBold(True)
+    return f
 
 
 def outcome_icon(key: str, size: int = 14) -> QIcon:
@@ -270,11 +281,13 @@ class ResultsTable(QWidget):
         hh.setSectionResizeMode(QHeaderView.ResizeMode.Interactive)
         hh.setStretchLastSection(True)
         hh.setMinimumSectionSize(48)
-        fm = self.view.fontMetrics()
+        hfm = QFontMetrics(header_font(hh))
         for key, w in (("bay", 64), ("zone", 48), ("load", 130), ("outcome", 170),
                        ("util", 80), ("allow", 120), ("planned", 80), ("governing", 200)):
             header = COLUMNS[COL[key]][1]
-            self.view.setColumnWidth(COL[key], max(w, fm.horizontalAdvance(header) + 28))
+            # the header's own (bold) font, its padding and the sort arrow
+            self.view.setColumnWidth(COL[key], max(w, hfm.horizontalAdvance(header)
+                                                   + HEADER_PADDING_PX))
         self.view.sortByColumn(COL["outcome"], Qt.SortOrder.DescendingOrder)
         self.view.selectionModel().selectionChanged.connect(self._on_row_selection_changed)
 

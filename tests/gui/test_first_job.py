@@ -184,3 +184,18 @@ def test_zone_outcome_counts_each_bay_once(qtbot, window: MainWindow) -> None:
     assert counted == n_bays
     assert "worst of 2 loads" in text
     assert style.CAUTION_SHORT in text  # verdict panel keeps the caution
+
+
+def test_results_headers_are_not_cut(qtbot, window: MainWindow) -> None:
+    """Every sized column of the results table is wide enough for its bold title,
+    the section padding and the sort arrow. Common practice, no source."""
+    from PySide6.QtGui import QFontMetrics
+
+    from droprig.gui.results_table import HEADER_PADDING_PX, header_font
+
+    view = window.results_table.view
+    hh = view.horizontalHeader()
+    fm = QFontMetrics(header_font(hh))
+    for key in ("bay", "zone", "load", "outcome", "util", "allow", "planned", "governing"):
+        title = COLUMNS[COL[key]][1]
+        assert view.columnWidth(COL[key]) >= fm.horizontalAdvance(title) + HEADER_PADDING_PX
