@@ -266,21 +266,23 @@ def _f_allow(R: np.ndarray, unit: np.ndarray, exist: np.ndarray) -> np.ndarray:
 @dataclass
 class _Check:
     """One check family over the points: U at the elastic peak, allowed force, unit
-    demand per N at p, existing demand, resistance and the member it governs on."""
+    demand per N at p, existing demand, resistance and the member it governs on
+    (unit, existing demand and resistance of the governing candidate are gathered only
+    for the calculation trace; None otherwise)."""
 
     name: str
     U: np.ndarray
     F_allow: np.ndarray
     member: np.ndarray
-    unit: np.ndarray
-    exist: np.ndarray
-    resist: np.ndarray
+    unit: np.ndarray | None
+    exist: np.ndarray | None
+    resist: np.ndarray | None
     U_at: Callable[[np.ndarray], np.ndarray]
     fa_all: np.ndarray | None = None
 
 
 def _reduce(name: str, F: np.ndarray, unit: np.ndarray, exist: np.ndarray,
-            resist: np.ndarray, member: np.ndarray) -> _Check:
+            resist: np.ndarray, member: np.ndarray, detail: bool = True) -> _Check:
     """Combine candidate demands (n, c) into one check: the governing candidate is
     the one with the largest utilisation (where it is unbounded: the lowest allowed
     force)."""
@@ -299,8 +301,11 @@ def _reduce(name: str, F: np.ndarray, unit: np.ndarray, exist: np.ndarray,
         d /= resist
         return np.max(d, axis=1)
 
-    chk = _Check(name, U, np.min(fa, axis=1), member[rows, j], unit[rows, j],
-                 exist[rows, j], resist[rows, j], U_at)
+    if detail:
+        chk = _Check(name, U, np.min(fa, axis=1), member[rows, j], unit[rows, j],
+                     exist[rows, j], resist[rows, j], U_at)
+    else:
+        chk = _Check(name, U, np.min(fa, axis=1), member[rows, j], None, None, None, U_at)
     chk.fa_all = fa
     return chk
 
@@ -342,7 +347,7 @@ class _Family:
     def U_at(self, F: np.ndarray) -> np.ndarray:
         return _demand(F[None, :], self.ut, self.Et).max(axis=0)
 
-    def check(self, name: str, F: np.ndarray) -> _Check:
+    def check(self, name: str, F: np.ndarray, detail: bool = True) -> _Check:
         D = _demand(F[None, :], self.ut, self.Et)
         j = np.argmax(D, axis=0)
         cols = np.arange(F.size)
@@ -350,6 +355,9 @@ class _Family:
         unbounded = np.isinf(U)
         if unbounded.any():
             j = np.where(unbounded, np.argmin(self.fa, axis=0), j)
+        if not detail:
+            return _Check(name, U, self.F_allow, self.member[j, cols], None, None, None,
+                          self.U_at)
         R = self.R[j, cols]
         return _Check(name, U, self.F_allow, self.member[j, cols], self.ut[j, cols] * R,
                       self.Et[j, cols] * R, R, self.U_at)
@@ -602,7 +610,8 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     keep = None if detail else {*_FIELDS, "_F_allow"}
     with np.errstate(all="ignore"):
         if n <= chunk:
-            return _select(_evaluate_case(fm, project, load, geo, load_index), keep)
+            return _select(_evaluate_case(fm, project, load, geo, load_index, detail),
+                           keep)
         out: dict[str, np.ndarray] = {}
         for s in range(0, n, chunk):
             sl = slice(s, min(s + chunk, n))
@@ -612,7 +621,7 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
                 sub = _slice_geo(geo, sl)
                 if n <= CACHE_MAX_POINTS:  # keep per-point actions for the next load
                     geo.cache[("slice", s)] = sub
-            part = _select(_evaluate_case(fm, project, load, sub, li), keep)
+            part = _select(_evaluate_case(fm, project, load, sub, li, detail), keep)
             for k, v in part.items():
                 if k not in out:
                     out[k] = np.empty((n, *v.shape[1:]), dtype=v.dtype)
@@ -639,7 +648,8 @@ def _slice_geo(geo: Geometry, sl: slice) -> Geometry:
 
 
 def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
-                   geo: Geometry, load_index: np.ndarray | None) -> dict[str, np.ndarray]:
+                   geo: Geometry, load_index: np.ndarray | None,
+                   detail: bool = True) -> dict[str, np.ndarray]:
     s = fm.settings
     fr = fm.frame
     path = geo.path
@@ -741,16 +751,16 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     a = path.a
     Lm = fr.L[mem]
     checks: dict[str, _Check] = {}
-    checks["flexure"] = ua["flexure"].check("flexure", F)  # type: ignore[attr-defined]
-    checks["shear"] = ua["shear"].check("shear", F)  # type: ignore[attr-defined]
+    checks["flexure"] = ua["flexure"].check("flexure", F, detail)  # type: ignore[attr-defined]
+    checks["shear"] = ua["shear"].check("shear", F, detail)  # type: ignore[attr-defined]
     # ---- web checks under the load (each deck-supporting member, its share)
     dist = np.maximum(np.minimum(a, Lm - a) - 0.5 * lb[:, None], 0.0)
     lb_pts = np.broadcast_to(lb[:, None], mem.shape)
     Rwy = _web_resistance(fm, capacity.web_local_yielding, mem, lb_pts, dist)
     Rwc = _web_resistance(fm, capacity.web_crippling, mem, lb_pts, dist)
     zero2 = np.zeros(mem.shape)
-    checks["web_yielding"] = _reduce("web_yielding", F, share, zero2, Rwy, mem)
-    checks["web_crippling"] = _reduce("web_crippling", F, share, zero2, Rwc, mem)
+    checks["web_yielding"] = _reduce("web_yielding", F, share, zero2, Rwy, mem, detail)
+    checks["web_crippling"] = _reduce("web_crippling", F, share, zero2, Rwc, mem, detail)
     # ---- deck flexure (worse of the two footprint orientations) and punching
     thick = lv.deck.thickness
     mu1 = deck.deck_unit_moment_per_width(span, pos, fl + spread, fw + spread, thick)
@@ -759,11 +769,12 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     M0_deck = deck.deck_existing_moment_per_width(span, fm.q0)
     deckm = np.full((n, 1), DECK)
     checks["deck_flexure"] = _reduce("deck_flexure", F, m_deck[:, None], M0_deck[:, None],
-                                     np.full((n, 1), fm.deck_Mr), deckm)
+                                     np.full((n, 1), fm.deck_Mr), deckm, detail)
     R_punch = deck.punching_resistance(lv.deck, fl + spread, fw + spread, s.design_basis,
                                        s.resistance_factor)
     checks["deck_punching"] = _reduce("deck_punching", F, np.ones((n, 1)), np.zeros((n, 1)),
-                                      np.broadcast_to(R_punch, (n,))[:, None], deckm)
+                                      np.broadcast_to(R_punch, (n,))[:, None], deckm,
+                                      detail)
     # ---- overall elastic verdict
     names = list(checks)
     Ustack = np.stack([checks[c].U for c in names], axis=1)
@@ -905,9 +916,10 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
         out[f"_{c}_U"] = chk.U
         out[f"_{c}_Fa"] = chk.F_allow
         out[f"_{c}_member"] = chk.member
-        out[f"_{c}_unit"] = chk.unit
-        out[f"_{c}_exist"] = chk.exist
-        out[f"_{c}_R"] = chk.resist
+        if detail:
+            out[f"_{c}_unit"] = chk.unit  # type: ignore[assignment]
+            out[f"_{c}_exist"] = chk.exist  # type: ignore[assignment]
+            out[f"_{c}_R"] = chk.resist  # type: ignore[assignment]
     return out
 
 
