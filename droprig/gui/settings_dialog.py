@@ -52,6 +52,18 @@ _BASES = (("en1993", "EN 1993-1-1 (Eurocode 3)"), ("aisc360", "AISC 360-16"))
 _SYSTEMS = (("SI", "SI — m, kN, kg, MPa"), ("US", "US customary — ft, kip, lb, ksi"))
 
 
+def basis_note(unit_system: str, design_basis: str) -> str:
+    """A reminder when the units are not the ones the design basis is usually
+    used with: units change only how values are shown and typed, never which
+    code's checks are made. Empty when they go together."""
+    usual = {"en1993": "SI", "aisc360": "US"}
+    if usual.get(design_basis, unit_system) == unit_system:
+        return ""
+    name = dict(_BASES).get(design_basis, design_basis)
+    return (f"Units change only how values are shown and typed: the checks still "
+            f"follow {name}. Choose the design basis your local code requires.")
+
+
 class SettingsDialog(QDialog):
     """Edit ``document.project.settings``. Takes the document; holds no copy."""
 
@@ -76,6 +88,11 @@ class SettingsDialog(QDialog):
         form = QFormLayout()
         form.addRow("Units", self.units)
         form.addRow("Design basis", self.basis)
+        self.basis_note = QLabel()
+        self.basis_note.setObjectName("basisNote")
+        self.basis_note.setWordWrap(True)
+        self.basis_note.setStyleSheet("color: #555;")
+        form.addRow(self.basis_note)
         for key, label, quantity, tip in _NUMBERS:
             e = QLineEdit()
             e.setToolTip(tip)
@@ -124,6 +141,12 @@ class SettingsDialog(QDialog):
         sys_ = s.unit_system
         self.units.setCurrentIndex(self.units.findData(s.unit_system))
         self.basis.setCurrentIndex(self.basis.findData(s.design_basis))
+        note = basis_note(s.unit_system, s.design_basis)
+        self.basis_note.setVisible(bool(note))
+        if note != self.basis_note.text():
+            self.basis_note.setText(note)
+            self.layout().activate()
+            self.resize(self.width(), self.sizeHint().height())  # room for the note
         for key, _label, quantity, _tip in _NUMBERS:
             e = self.edits[key]
             text = self._text(getattr(s, key), quantity, sys_)

@@ -199,3 +199,21 @@ def test_results_headers_are_not_cut(qtbot, window: MainWindow) -> None:
     for key in ("bay", "zone", "load", "outcome", "util", "allow", "planned", "governing"):
         title = COLUMNS[COL[key]][1]
         assert view.columnWidth(COL[key]) >= fm.horizontalAdvance(title) + HEADER_PADDING_PX
+
+
+def test_settings_say_units_do_not_change_the_design_basis(qtbot, window: MainWindow) -> None:
+    """Switching to US units keeps the EN 1993-1-1 checks; the dialog says so
+    instead of leaving a planner to assume AISC 360. Common practice, no source."""
+    dlg = window.show_settings()
+    assert not dlg.basis_note.isVisible()  # SI with EN 1993-1-1: nothing to say
+    dlg.units.setCurrentIndex(dlg.units.findData("US"))
+    dlg.units.activated.emit(dlg.units.currentIndex())
+    assert window.doc.project.settings.unit_system == "US"
+    assert dlg.basis_note.isVisible() and "EN 1993-1-1" in dlg.basis_note.text()
+    qtbot.wait(20)
+    note = dlg.basis_note  # the whole note is shown, not clipped by the dialog
+    assert note.height() >= note.heightForWidth(note.width())
+    dlg.basis.setCurrentIndex(dlg.basis.findData("aisc360"))
+    dlg.basis.activated.emit(dlg.basis.currentIndex())
+    assert not dlg.basis_note.isVisible()
+    dlg.close()
