@@ -263,6 +263,36 @@ def _f_allow(R: np.ndarray, unit: np.ndarray, exist: np.ndarray) -> np.ndarray:
     return np.where(np.isnan(fa), np.inf, fa)
 
 
+def _first_at(D: np.ndarray, V: np.ndarray, axis: int) -> np.ndarray:
+    """Index along ``axis`` of the first entry of ``D`` equal to ``V`` (``V`` = the max
+    or min of ``D`` over ``axis``): ``np.argmax``/``np.argmin`` over a leading axis
+    without the transposed copy numpy makes for it. Where ``V`` holds a NaN the
+    answer is the first NaN: callers hand those to numpy."""
+    D = np.moveaxis(D, axis, 0)
+    j = np.zeros(V.shape, dtype=np.intp)
+    m = np.empty(V.shape, dtype=bool)
+    for c in range(D.shape[0] - 1, -1, -1):  # the lowest matching index written last
+        np.equal(D[c], V, out=m)
+        np.copyto(j, c, where=m)
+    return j
+
+
+def _argmax0(D: np.ndarray, U: np.ndarray) -> np.ndarray:
+    """``np.argmax(D, axis=0)`` given ``U = D.max(axis=0)`` (same index, first maximum;
+    first NaN where a column holds one)."""
+    if np.isnan(U).any():
+        return np.argmax(D, axis=0)
+    return _first_at(D, U, 0)
+
+
+def _argmin_axis(D: np.ndarray, V: np.ndarray, axis: int) -> np.ndarray:
+    """``np.argmin(D, axis=axis)`` given ``V = D.min(axis=axis)`` (same index, first
+    minimum; first NaN where the reduced line holds one)."""
+    if np.isnan(V).any():
+        return np.argmin(D, axis=axis)
+    return _first_at(D, V, axis)
+
+
 @dataclass
 class _Check:
     """One check family over the points: U at the elastic peak, allowed force, unit
@@ -349,9 +379,9 @@ class _Family:
 
     def check(self, name: str, F: np.ndarray, detail: bool = True) -> _Check:
         D = _demand(F[None, :], self.ut, self.Et)
-        j = np.argmax(D, axis=0)
+        U = D.max(axis=0)
+        j = _argmax0(D, U)
         cols = np.arange(F.size)
-        U = D[j, cols]
         unbounded = np.isinf(U)
         if unbounded.any():
             j = np.where(unbounded, np.argmin(self.fa, axis=0), j)
@@ -447,8 +477,9 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     if P:
         S = fr.pair_sup_mcoef.shape[2]
         fa_s_all = flex.fa[n_l:].reshape(P, S, n)
-        j = np.argmin(fa_s_all, axis=1)  # (P, n)
-        fa_s = np.take_along_axis(fa_s_all, j[:, None, :], axis=1)[:, 0, :].T
+        fa_s = fa_s_all.min(axis=1)  # (P, n)
+        j = _argmin_axis(fa_s_all, fa_s, 1)  # (P, n)
+        fa_s = fa_s.T
         fa_s = np.where(sup >= 0, fa_s, np.inf)
         xst = np.take_along_axis(fr.pair_sup_x[pair], j.T[..., None], axis=-1)[..., 0]
         Ls = fr.L[supm]
