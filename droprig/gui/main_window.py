@@ -76,6 +76,17 @@ def _cases(p: Project) -> tuple[tuple[str, str, str], ...]:
     return tuple((z.id, z.level_id, ld.name) for z in p.lift_zones for ld in z.loads)
 
 
+def placeholder_load(name: str) -> LiftLoad:
+    """The load a new zone or "Add load" starts with: 1 t falling 1 m, rigid,
+    1 m × 1 m footprint. Round numbers to be replaced, never a recommendation."""
+    return LiftLoad(name=name, mass=1000.0, drop_height=1.0)
+
+
+def is_placeholder(load: LiftLoad) -> bool:
+    """True while ``load`` still has every value of :func:`placeholder_load`."""
+    return load == placeholder_load(load.name)
+
+
 def _describe(exc: BaseException) -> str:
     from droprig.commands import describe_error
 
@@ -173,6 +184,8 @@ class MainWindow(QMainWindow):
                   "A crane position and the region its load swings over")
         self._act("add_load", "Add &load to zone", self.add_load, "Ctrl+Shift+L",
                   "A load or rigging item that could drop inside the zone")
+        self._act("edit_load", "Enter the load", self.edit_placeholder_load,
+                  tip="Show the load that still has its starting values in the inspector")
         self._act("add_protection", "Add &protection area…", self.add_protection,
                   tip="A crane mat or crushable layer over a rectangle")
         draw = self._act("draw_protection", "&Draw protection area", self._on_draw_toggled,
@@ -240,6 +253,7 @@ class MainWindow(QMainWindow):
         self.guide_text = QLabel()
         self.guide_text.setObjectName("guideText")
         self.guide_text.setStyleSheet("color: #0B2E4F;")
+        self.guide_text.setWordWrap(True)  # a long hint wraps, never widens the window
         self.guide_button = QToolButton()
         g.addWidget(self.guide_text, 1)
         g.addWidget(self.guide_button)
@@ -425,12 +439,40 @@ class MainWindow(QMainWindow):
         elif not any(z.loads for z in p.lift_zones):
             text, action = ("<b>Next:</b> give the lift zone the load (and rigging) that "
                             "could drop.", "add_load")
+        elif self._placeholder() is not None:
+            zid, ld = self._placeholder()  # type: ignore[misc]
+            s = p.settings.unit_system
+            text, action = (
+                f"<b>Next:</b> {html.escape(ld.name)} (zone {html.escape(zid)}) still has "
+                f"its starting values: {units.fmt(ld.mass, 'mass', s)}, "
+                f"{units.fmt(ld.drop_height, 'length', s)} fall, rigid, "
+                f"{units.fmt(ld.footprint_length, 'length', s)} × "
+                f"{units.fmt(ld.footprint_width, 'length', s)} footprint. Enter the "
+                "planned load.", "edit_load")
         else:
             self.guide.hide()
             return
         self.guide_text.setText(text)
         self.guide_button.setDefaultAction(self.actions[action])
         self.guide.show()
+
+    def _placeholder(self) -> tuple[str, LiftLoad] | None:
+        """(zone id, load) of the first load on the level shown that still has
+        the starting values of :func:`placeholder_load`."""
+        for z in self.doc.project.lift_zones:
+            if z.level_id == self.doc.level_id:
+                for ld in z.loads:
+                    if is_placeholder(ld):
+                        return z.id, ld
+        return None
+
+    def edit_placeholder_load(self) -> None:
+        """Select the load that still has its starting values, for the inspector."""
+        found = self._placeholder()
+        if found is not None:
+            self.doc.select(Selection("load", (found[0], found[1].name)))
+            self.inspector_dock.show()
+            self.inspector_dock.raise_()
 
     def _plan_results(self) -> Results | None:
         """Results the plan may show: current ones; or, for at most
@@ -846,7 +888,7 @@ class MainWindow(QMainWindow):
         zone = LiftZone(id=zid, name=f"Lift {zid[1:]}", level_id=lv.id,
                         crane=(ext.x0 + ext.width / 2, ext.y0 + ext.height / 2),
                         r_min=0.0, r_max=r,
-                        loads=(LiftLoad(name="Load 1", mass=1000.0, drop_height=1.0),))
+                        loads=(placeholder_load("Load 1"),))
         if self._edit(lambda p: ed.add_zone(p, zone), f"Add lift zone {zid}"):
             self.doc.select(Selection("zone", (zid,)))
             return zone
@@ -865,7 +907,7 @@ class MainWindow(QMainWindow):
             self.statusBar().showMessage("Add a lift zone first", 5000)
             return None
         name = ed.unique_name("Load 1", [ld.name for ld in p.zone(zid).loads])
-        load = LiftLoad(name=name, mass=1000.0, drop_height=1.0)
+        load = placeholder_load(name)
         if self._edit(lambda p: ed.add_load(p, zid, load), f"Add load to zone {zid}"):
             self.doc.select(Selection("load", (zid, name)))
             return load

@@ -217,3 +217,36 @@ def test_settings_say_units_do_not_change_the_design_basis(qtbot, window: MainWi
     dlg.basis.activated.emit(dlg.basis.currentIndex())
     assert not dlg.basis_note.isVisible()
     dlg.close()
+
+
+def test_guide_asks_for_the_real_load_until_it_is_entered(qtbot, window: MainWindow) -> None:
+    """A new zone starts with a placeholder load (1 t, 1 m, rigid); until the
+    planner changes it, the guide above the plan says so and its button opens
+    that load. Common practice, no source: a verdict on invented numbers must
+    not pass for one on the planned lift."""
+    from dataclasses import replace
+
+    from droprig.gui import commands as ed
+
+    _framed_zone(window)
+    zone = window.doc.project.lift_zones[0]
+    assert window.guide.isVisible()
+    text = window.guide_text.text()
+    assert "Load 1" in text and "1,000 kg" in text and "footprint" in text
+    window.doc.select(None)
+    window.guide_button.click()
+    assert window.doc.selection == Selection("load", (zone.id, "Load 1"))
+    real = replace(zone.loads[0], mass=2400.0, drop_height=0.3)
+    window.doc.edit(ed.with_zone(window.doc.project, zone.id,
+                                 replace(zone, loads=(real,))), "Load 1: mass")
+    assert not window.guide.isVisible()
+
+
+def test_long_guide_text_wraps_instead_of_widening_the_window(qtbot,
+                                                              window: MainWindow) -> None:
+    """The guide above the plan wraps; the docks keep their width. Common
+    practice, no source."""
+    _framed_zone(window)
+    qtbot.wait(50)
+    assert window.guide.isVisible() and window.guide_text.wordWrap()
+    assert window.inspector_dock.width() > 200

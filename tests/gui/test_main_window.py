@@ -496,7 +496,10 @@ def test_guide_bar_leads_a_new_user_to_an_assessable_project(qtbot, window: Main
     assert window.guide_button.defaultAction() is window.actions["add_zone"]
     window.guide_button.click()
     assert window.doc.project.lift_zones
-    assert not window.guide.isVisible()
+    # the new zone's load still has its starting values: enter the real one
+    assert window.guide_button.defaultAction() is window.actions["edit_load"]
+    window.guide_button.click()
+    assert window.doc.selection is not None and window.doc.selection.kind == "load"
 
 
 def test_failed_analysis_shows_no_verdict_until_fixed(qtbot, window: MainWindow) -> None:
