@@ -1006,8 +1006,16 @@ def _keys(x: np.ndarray, y: np.ndarray, li: np.ndarray) -> np.ndarray:
     return (np.round(x, 7) + 1e5 * li) + 1j * np.round(y, 7)
 
 
-def _merge(a: dict[str, np.ndarray], b: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
-    return {k: np.concatenate([a[k], b[k]]) for k in a}
+_REFINE_KEYS = ("x", "y", "bay", "utilisation", "response", "_load")
+"""The fields :func:`_refine` reads (merged after every pass; the others once)."""
+
+
+def _merge(parts: list[dict[str, np.ndarray]], keys: Sequence[str] | None = None,
+           ) -> dict[str, np.ndarray]:
+    """Rows of ``parts`` one after the other (all fields, or only ``keys``)."""
+    if len(parts) == 1:
+        return dict(parts[0]) if keys is None else {k: parts[0][k] for k in keys}
+    return {k: np.concatenate([p[k] for p in parts]) for k in (keys or parts[0])}
 
 
 def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
@@ -1029,6 +1037,7 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
     res["_load"] = li
     step = fm.settings.grid_resolution
     known = np.sort(_keys(res["x"], res["y"], li))  # sorted: membership by bisection
+    parts = [res]
     for k in range(REFINE_PASSES):
         step /= 4.0
         x, y, lj = _refine(fm, zone, res, step, REFINE_TOP[min(k, len(REFINE_TOP) - 1)])
@@ -1043,8 +1052,9 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
         geo = point_geometry(fm, project, x, y)
         r2 = evaluate_case(fm, project, loads, geo, lj)
         r2["_load"] = lj
-        res = _merge(res, r2)
-    return res
+        parts.append(r2)
+        res = _merge(parts, _REFINE_KEYS)
+    return _merge(parts)
 
 
 def _in_sorted(sorted_keys: np.ndarray, keys: np.ndarray) -> np.ndarray:
