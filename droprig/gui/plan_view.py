@@ -350,9 +350,13 @@ class PlanView(QGraphicsView):
         self.viewport().update()
 
     def set_results(self, results: Results | None) -> None:
-        """Colour the plan by ``results`` (None while analysing: "not assessed")."""
+        """Colour the plan by ``results`` (None while analysing: "not assessed").
+        The caution strip comes and goes with the results: a fitted view is
+        fitted again so the grid keeps clear of it and of the scale bar."""
         self._results = results
         self._refresh_results()
+        if not self._user_view:
+            self.fit()
         self.viewport().update()
 
     def set_overlay(self, mode: str) -> None:
