@@ -1029,7 +1029,8 @@ class PlanView(QGraphicsView):
             self._paint_grid(painter)
         self._paint_corridor_preview(painter)
         self._paint_north(painter)
-        self._paint_scale_bar(painter)
+        if self._level is not None:  # an empty plan has nothing to measure
+            self._paint_scale_bar(painter)
         self._paint_legend(painter)
         self._paint_caution(painter)
         painter.restore()

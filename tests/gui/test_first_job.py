@@ -250,3 +250,24 @@ def test_long_guide_text_wraps_instead_of_widening_the_window(qtbot,
     qtbot.wait(50)
     assert window.guide.isVisible() and window.guide_text.wordWrap()
     assert window.inspector_dock.width() > 200
+
+
+def _dark_pixels_in_scale_bar_band(window: MainWindow) -> int:
+    plan = window.plan
+    img = plan.viewport().grab().toImage()
+    vh = plan.viewport().height()
+    y0 = int(vh - plan._caution_height() - 26.0)  # PlanView._paint_scale_bar geometry
+    return sum(1 for x in range(16, 150, 2) for y in range(y0, y0 + 6)
+               if img.pixelColor(x, y).lightness() < 80)
+
+
+def test_empty_plan_has_no_scale_bar(qtbot, window: MainWindow) -> None:
+    """A new, empty project shows no scale bar ("0 — 100 m" of nothing); the
+    framed plan does. Common practice, no source."""
+    qtbot.wait(50)
+    assert _dark_pixels_in_scale_bar_band(window) == 0
+    _framed_zone(window)
+    qtbot.waitUntil(lambda: not window.runner.busy and window.doc.results_current,
+                    timeout=WAIT_MS)
+    qtbot.wait(50)
+    assert _dark_pixels_in_scale_bar_band(window) > 0
