@@ -537,36 +537,53 @@ def _loaded_existing_moment(fm: FloorModel, mem: np.ndarray, xs: np.ndarray) -> 
 
 def _web_resistance(fm: FloorModel, fn: Callable[..., np.ndarray], mem: np.ndarray,
                     bearing: np.ndarray, dist: np.ndarray) -> np.ndarray:
-    """Web resistance of each deck member under the load (N). Beyond twice the
-    section depth from an end every clause used gives its interior value (AISC
-    360-16 J10.2 beyond d, J10.3 beyond d/2; EN 1993-1-5 §6 type (c) only within
-    c < 2h_w/3 − s_s), so that value is computed once per (section, bearing) and the
-    clause is evaluated point by point only near the ends."""
+    """Web resistance of each deck member under the load (N) by the clause function
+    ``fn`` (see :func:`_web_resistances`)."""
+    return _web_resistances(fm, (fn,), mem, bearing, dist)[0]
+
+
+def _web_resistances(fm: FloorModel, fns: Sequence[Callable[..., np.ndarray]],
+                     mem: np.ndarray, bearing: np.ndarray, dist: np.ndarray,
+                     ) -> list[np.ndarray]:
+    """Web resistance of each deck member under the load (N), one array per clause
+    function in ``fns``. Beyond twice the section depth from an end every clause used
+    gives its interior value (AISC 360-16 J10.2 beyond d, J10.3 beyond d/2;
+    EN 1993-1-5 §6 type (c) only within c < 2h_w/3 − s_s), so that value is computed
+    once per (section, bearing) and the clause is evaluated point by point only near
+    the ends. The grouping by section and by distinct bearing is shared by the
+    clauses."""
     s = fm.settings
-    out = np.empty(mem.shape)
+    outs = [np.empty(mem.shape) for _ in fns]
     grp = fm.group[mem] if len(fm.groups) > 1 else np.zeros(mem.shape, dtype=np.int64)
+    whole = len(fm.groups) == 1
     for gi in range(len(fm.groups)):
         sel = grp == gi
         if not sel.any():
             continue
         sec, grd = fm.groups[gi]
-        whole = len(fm.groups) == 1
         b, d = (bearing.ravel(), dist.ravel()) if whole else (bearing[sel], dist[sel])
-        r = np.empty(b.shape)
         near = d < 2.0 * sec.d  # type: ignore[attr-defined]
-        if near.any():
-            r[near] = fn(sec, grd, s.design_basis, b[near], d[near], s.resistance_factor,
-                         s.dynamic_increase_factor)
         far = ~near
-        if far.any():
+        any_near, any_far = bool(near.any()), bool(far.any())
+        if any_near:
+            b_near, d_near = b[near], d[near]
+        if any_far:
             ub, inv = _distinct(b[far])
-            r_int = fn(sec, grd, s.design_basis, ub, np.full(ub.shape, 1e3),
-                       s.resistance_factor, s.dynamic_increase_factor)
-            r[far] = np.asarray(r_int)[inv]
-        if whole:
-            return r.reshape(mem.shape)
-        out[sel] = r
-    return out
+            d_int = np.full(ub.shape, 1e3)
+        for i, fn in enumerate(fns):
+            r = np.empty(b.shape)
+            if any_near:
+                r[near] = fn(sec, grd, s.design_basis, b_near, d_near, s.resistance_factor,
+                             s.dynamic_increase_factor)
+            if any_far:
+                r_int = fn(sec, grd, s.design_basis, ub, d_int, s.resistance_factor,
+                           s.dynamic_increase_factor)
+                r[far] = np.asarray(r_int)[inv]
+            if whole:
+                outs[i] = r.reshape(mem.shape)
+            else:
+                outs[i][sel] = r
+    return outs
 
 
 def _distinct(b: np.ndarray, limit: int = 16) -> tuple[np.ndarray, np.ndarray]:
@@ -787,8 +804,8 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     # ---- web checks under the load (each deck-supporting member, its share)
     dist = np.maximum(np.minimum(a, Lm - a) - 0.5 * lb[:, None], 0.0)
     lb_pts = np.broadcast_to(lb[:, None], mem.shape)
-    Rwy = _web_resistance(fm, capacity.web_local_yielding, mem, lb_pts, dist)
-    Rwc = _web_resistance(fm, capacity.web_crippling, mem, lb_pts, dist)
+    Rwy, Rwc = _web_resistances(fm, (capacity.web_local_yielding, capacity.web_crippling),
+                                mem, lb_pts, dist)
     zero2 = np.zeros(mem.shape)
     checks["web_yielding"] = _reduce("web_yielding", F, share, zero2, Rwy, mem, detail)
     checks["web_crippling"] = _reduce("web_crippling", F, share, zero2, Rwc, mem, detail)
