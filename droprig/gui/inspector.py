@@ -657,7 +657,10 @@ class FormEditor(QWidget):
                 unit = unit_label(spec.quantity, system)
                 w.setPlaceholderText(f"e.g. 12 {unit}" if unit else "e.g. 1.0")
             elif spec.kind == "optional":
-                w.setPlaceholderText(spec.empty or "empty = none")
+                # an empty box shows no value, so the hint names the unit to type in
+                unit = unit_label(spec.quantity, system)
+                hint = spec.empty or "empty = none"
+                w.setPlaceholderText(f"{hint}; or in {unit}" if unit else hint)
             elif spec.empty:
                 w.setPlaceholderText(spec.empty)
             if spec.kind == "section":

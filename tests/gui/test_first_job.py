@@ -271,3 +271,24 @@ def test_empty_plan_has_no_scale_bar(qtbot, window: MainWindow) -> None:
                     timeout=WAIT_MS)
     qtbot.wait(50)
     assert _dark_pixels_in_scale_bar_band(window) > 0
+
+
+@pytest.mark.parametrize(("system", "unit"), [("SI", "kN/mm"), ("US", "kip/in")])
+def test_empty_underside_stiffness_names_its_unit(qtbot, window: MainWindow, system: str,
+                                                  unit: str) -> None:
+    """The underside stiffness box is empty by default (rigid load); its hint says
+    what empty means and which unit a value is typed in. Common practice, no
+    source."""
+    from dataclasses import replace
+
+    from droprig.gui import commands as ed
+
+    _framed_zone(window)
+    p = window.doc.project
+    window.doc.edit(ed.with_settings(p, replace(p.settings, unit_system=system)), "Units")
+    zid = window.doc.project.lift_zones[0].id
+    window.doc.select(Selection("load", (zid, "Load 1")))
+    qtbot.wait(20)
+    box = window.inspector.editor("contact_stiffness")
+    assert isinstance(box, QLineEdit) and box.text() == ""
+    assert "rigid" in box.placeholderText() and unit in box.placeholderText()
