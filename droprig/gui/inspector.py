@@ -508,8 +508,9 @@ def protection_form(a: ProtectionArea, project: Project,
            "Raises the struck surface and spreads the load at 1:1"),
     ]
     if a.kind == "spring":
-        fields.append(_q("stiffness", "Mat stiffness", "stiffness",
-                         "Under the load's footprint"))
+        fields.append(_q("stiffness", "Mat stiffness under the load", "stiffness",
+                         "Spring stiffness of the mat under the load's footprint "
+                         "(not per unit area, not for the whole mat)"))
     else:
         fields += [_q("crush_force", "Crush force", "force",
                       "Constant force while the layer crushes"),

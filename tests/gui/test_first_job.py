@@ -292,3 +292,19 @@ def test_empty_underside_stiffness_names_its_unit(qtbot, window: MainWindow, sys
     box = window.inspector.editor("contact_stiffness")
     assert isinstance(box, QLineEdit) and box.text() == ""
     assert "rigid" in box.placeholderText() and unit in box.placeholderText()
+
+
+def test_mat_stiffness_label_says_where_it_acts(qtbot, window: MainWindow) -> None:
+    """A mat's stiffness is the spring under the load's footprint (model:
+    ProtectionArea.stiffness); the label says so, not only the tooltip. Common
+    practice, no source."""
+    from droprig.gui.inspector import protection_form
+    from droprig.model import ProtectionArea
+
+    _framed_zone(window)
+
+    lv = window.doc.level
+    area = ProtectionArea(id="P1", name="Mat 1", level_id=lv.id, area=bays(lv)[0].rect)
+    form = protection_form(area, window.doc.project, None)
+    (spec,) = [f for f in form.fields if f.key == "stiffness"]
+    assert "under the load" in spec.label
