@@ -481,7 +481,10 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
         j = _argmin_axis(fa_s_all, fa_s, 1)  # (P, n)
         fa_s = fa_s.T
         fa_s = np.where(sup >= 0, fa_s, np.inf)
-        xst = np.take_along_axis(fr.pair_sup_x[pair], j.T[..., None], axis=-1)[..., 0]
+        # station of the governing section: pair_sup_x[pair, p, j] gathered by flat index
+        # (without gathering every station of every point first)
+        xst = np.take(fr.pair_sup_x.reshape(-1),
+                      (pair[:, None] * P + np.arange(P)) * S + j.T)
         Ls = fr.L[supm]
         Rp_c.append(fa_s)
         Rp_member.append(supm)
