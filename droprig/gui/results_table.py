@@ -164,13 +164,14 @@ class BayResultsModel(QAbstractTableModel):
         if role == Qt.ItemDataRole.DecorationRole and key == "outcome":
             return outcome_icon(b.response)
         if role == Qt.ItemDataRole.ToolTipRole:
-            if key == "outcome":
-                return style.outcome(b.response).meaning
-            if key == "advice":
-                return advice_text(b, self._system)
             if key == "util":
                 return _TIPS["util"]
-            return None
+            # the advice column is often scrolled out of view: every other cell
+            # of the row gives it on hover
+            advice = advice_text(b, self._system)
+            if key == "outcome":
+                return f"{style.outcome(b.response).meaning}\n{advice}"
+            return advice
         if role == Qt.ItemDataRole.FontRole and key in ("outcome", "util") and (
                 b.response == "exceeds" or b.max_utilisation > 1.0):
             f = QFont()

@@ -308,3 +308,18 @@ def test_mat_stiffness_label_says_where_it_acts(qtbot, window: MainWindow) -> No
     form = protection_form(area, window.doc.project, None)
     (spec,) = [f for f in form.fields if f.key == "stiffness"]
     assert "under the load" in spec.label
+
+
+def test_every_result_cell_gives_the_advice_on_hover(qtbot, window: MainWindow) -> None:
+    """The advice column sits at the far right, often out of view: hovering any
+    other cell of the row (except Max U, which explains U) shows it. Common
+    practice, no source."""
+    _framed_zone(window)
+    qtbot.waitUntil(lambda: not window.runner.busy and window.doc.results_current,
+                    timeout=WAIT_MS)
+    model = window.results_table.model
+    assert model.rowCount() > 0
+    for key in ("bay", "zone", "load", "outcome", "allow", "planned", "governing"):
+        tip = model.data(model.index(0, COL[key]), Qt.ItemDataRole.ToolTipRole)
+        advice = model.data(model.index(0, COL["advice"]), Qt.ItemDataRole.DisplayRole)
+        assert advice and advice in tip, key
