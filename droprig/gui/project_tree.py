@@ -112,8 +112,12 @@ class ProjectTree(QTreeWidget):
                 h = (f"drop {units.fmt(ld.drop_height, 'length', system)}"
                      if ld.drop_height is not None else
                      f"hook at {units.fmt(ld.hook_elevation, 'length', system)}")
-                self._add(zi, f"{ld.name}  ·  {units.fmt(ld.mass, 'mass', system)}  ·  {h}",
-                          Selection("load", (z.id, ld.name)))
+                text = f"{ld.name}  ·  {units.fmt(ld.mass, 'mass', system)}  ·  {h}"
+                # the dock is narrow and cuts this line: the tip gives it whole
+                foot = (f"{units.fmt(ld.footprint_length, 'length', system)} × "
+                        f"{units.fmt(ld.footprint_width, 'length', system)}")
+                self._add(zi, text, Selection("load", (z.id, ld.name)),
+                          tip=f"{text}  ·  footprint {foot}")
         prots = self._add(self, f"Protection areas ({len(p.protection_areas)})",
                           group="protection")
         for a in p.protection_areas:

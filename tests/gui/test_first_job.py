@@ -323,3 +323,16 @@ def test_every_result_cell_gives_the_advice_on_hover(qtbot, window: MainWindow) 
         tip = model.data(model.index(0, COL[key]), Qt.ItemDataRole.ToolTipRole)
         advice = model.data(model.index(0, COL["advice"]), Qt.ItemDataRole.DisplayRole)
         assert advice and advice in tip, key
+
+
+def test_cut_load_line_in_the_tree_has_the_whole_text_as_tip(qtbot,
+                                                              window: MainWindow) -> None:
+    """The project tree cuts "Load 1 · 1,000 kg · drop 1.000 m" in its narrow
+    dock; the tip gives the whole line and the footprint. Common practice, no
+    source."""
+    _framed_zone(window)
+    zid = window.doc.project.lift_zones[0].id
+    item = window.tree.item_for(Selection("load", (zid, "Load 1")))
+    assert item is not None
+    tip = item.toolTip(0)
+    assert item.text(0) in tip and "1,000 kg" in tip and "footprint 1.000 m × 1.000 m" in tip
