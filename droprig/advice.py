@@ -23,8 +23,10 @@ __all__ = ["advice_text", "fmt_down", "fmt_up"]
 
 OPENING = ("Keep clear: exclusion zone. The load can fall through a deck opening; "
            "cover the opening or keep the load path away from it.")
-KEEP_CLEAR = ("Keep clear: exclusion zone. No drop height or spring mat found that keeps "
-              "the members within their limits; keep people out and re-plan the lift.")
+KEEP_CLEAR = ("Keep clear: exclusion zone. No practical drop-height limit (50 mm or more) "
+              "and no spring mat (compressing 0.3 m at most) keeps the members and deck "
+              "within their limits; keep people out, protect the bay with a crushable pad "
+              "designed for this load, or re-plan the lift.")
 YIELDS = "Members yield but stay within the ductility and rotation limits. "
 ACCEPT = "No mat keeps it elastic; accept only with the engineer's approval."
 

@@ -93,3 +93,15 @@ def test_allowable_heights_print_like_the_advice(value, system, nearest, down):
     assert units.fmt(value, "length", system, rounding="down") == down
     assert fmt_allow(value, "length", system) == down
     assert fmt_down(value, "length", system) == down
+
+
+def test_keep_clear_names_the_thresholds_it_used() -> None:
+    # The exclusion advice must not contradict a tiny allowable height shown beside
+    # it: it names the smallest height limit and largest mat travel droprig offers
+    # (analysis.MIN_USEFUL_HEIGHT, MAX_MAT_TRAVEL; common practice, no source).
+    from droprig import advice
+    from droprig.solver import analysis
+
+    assert analysis.MIN_USEFUL_HEIGHT == 0.05
+    assert analysis.MAX_MAT_TRAVEL == 0.3
+    assert "50 mm" in advice.KEEP_CLEAR and "0.3 m" in advice.KEEP_CLEAR
