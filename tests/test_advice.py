@@ -49,7 +49,7 @@ def _bay(kind: str, **kw: object) -> BaySummary:
      ["limit the drop height to 6.00 ft", "no stiffer than 10.0 kip/in", "compress 2.00 in"]),
 ])
 def test_advice_words(kind, fields, system, words):
-    # plain-language outcomes for a safety officer (team brief; common practice, no source)
+    # plain-language outcomes for a safety officer (DEVELOPERS.md; common practice, no source)
     text = advice_text(_bay(kind, **fields), system)
     for w in words:
         assert w in text

@@ -295,7 +295,7 @@ def test_no_nan_where_a_value_must_exist(busy_project):
     (PLASTIC, 0, 0.5, None, None, 0.5, analysis.Advice("plastic_accept")),
 ])
 def test_bay_advice_kind(resp, n_open, h, k, travel, h_el, want):
-    # what a bay needs, as data (team brief; common practice, no source for the
+    # what a bay needs, as data (DEVELOPERS.md; common practice, no source for the
     # 0.05 m and 0.3 m practicality thresholds and the 1 % elastic-height margin)
     assert analysis.bay_advice(resp, n_open, h, k, travel, h_el) == want
     assert want.kind in ADVICE_KINDS

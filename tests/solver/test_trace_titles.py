@@ -1,5 +1,6 @@
 """Trace step titles carry names only; every number is an input (value SI, quantity)
-so the edges write it in the user's units (droprig.units at the edges, team brief)."""
+so the edges write it in the user's units (units at the edges, DEVELOPERS.md;
+common practice, no source)."""
 
 from __future__ import annotations
 
