@@ -13,11 +13,8 @@ import csv
 import io
 import json
 import math
-import os
 import sys
-import tempfile
 from dataclasses import asdict
-from pathlib import Path
 from typing import Any
 
 from droprig import __version__
@@ -168,17 +165,9 @@ def _write(target: str, text: str) -> None:
     if target == "-":
         sys.stdout.write(text)
         return
-    path = Path(target)
-    folder = path.parent if str(path.parent) else Path(".")
-    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="") as fh:
-            fh.write(text)
-        os.replace(tmp, path)
-    except BaseException:
-        if os.path.exists(tmp):
-            os.unlink(tmp)
-        raise
+    from droprig.io.atomic import atomic_write_bytes
+
+    atomic_write_bytes(target, text.encode("utf-8"))
 
 
 def run(args: argparse.Namespace) -> int:

@@ -347,6 +347,7 @@ class Autosaver(QObject):
         doc = self._document
         if not force and (doc.revision == self._written_revision or not doc.is_dirty):
             return False
+        from droprig.io.atomic import atomic_write_bytes
         from droprig.io.project_file import save_project
 
         try:
@@ -354,9 +355,7 @@ class Autosaver(QObject):
             save_project(doc.project, self.project_file, backup=False)
             meta = {"original_path": str(doc.path) if doc.path else None,
                     "saved_at": time.time(), "pid": os.getpid()}
-            tmp = self.meta_file.with_suffix(".json.tmp")
-            tmp.write_text(json.dumps(meta), encoding="utf-8")
-            os.replace(tmp, self.meta_file)
+            atomic_write_bytes(self.meta_file, json.dumps(meta).encode("utf-8"))
         except Exception as exc:  # autosave must never take the application down
             self.last_error = f"autosave failed: {exc}"
             return False

@@ -23,14 +23,13 @@ import json
 import math
 import os
 import re
-import secrets
-import shutil
 from collections.abc import Callable, Iterable
 from decimal import Decimal
 from functools import lru_cache
 from pathlib import Path
 from typing import Any
 
+from droprig.io.atomic import atomic_write_bytes
 from droprig.model import (
     ColumnGrid,
     Concrete,
@@ -369,46 +368,12 @@ def save_project(project: Project, path: str | os.PathLike[str], *, backup: bool
     """
     data = dumps_project(project).encode("utf-8")
     target = Path(os.path.realpath(os.fspath(path)))
-    folder = target.parent
     if backup and target.exists():
-        _atomic_write(folder, target.with_name(target.name + ".bak"), target.read_bytes(),
-                      like=target)
-    _atomic_write(folder, target, data, like=target if target.exists() else None)
+        atomic_write_bytes(target.with_name(target.name + ".bak"), target.read_bytes(),
+                           like=target)
+    atomic_write_bytes(target, data, like=target if target.exists() else None)
 
 
-def _atomic_write(folder: Path, target: Path, data: bytes, *, like: Path | None) -> None:
-    tmp = folder / f".{target.name}.{secrets.token_hex(6)}.tmp"
-    # os.open with 0o666 lets the umask decide a new file's mode, like open() would.
-    fd = os.open(tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL | getattr(os, "O_BINARY", 0), 0o666)
-    try:
-        with os.fdopen(fd, "wb") as fh:
-            fh.write(data)
-            fh.flush()
-            os.fsync(fh.fileno())
-        if like is not None:
-            shutil.copymode(like, tmp)
-        os.replace(tmp, target)
-    except BaseException:
-        try:
-            tmp.unlink()
-        except FileNotFoundError:
-            pass
-        raise
-    _fsync_dir(folder)
-
-
-def _fsync_dir(folder: Path) -> None:
-    """Make the rename durable (POSIX); a no-op where folders cannot be opened."""
-    try:
-        fd = os.open(folder, os.O_RDONLY)
-    except OSError:
-        return
-    try:
-        os.fsync(fd)
-    except OSError:
-        pass
-    finally:
-        os.close(fd)
 
 
 def project_fingerprint(path: str | os.PathLike[str]) -> str:

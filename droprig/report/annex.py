@@ -25,13 +25,12 @@ import datetime as _dt
 import hashlib
 import math
 import os
-import pathlib
-import secrets
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 from droprig import __version__
 from droprig.advice import advice_text
+from droprig.io.atomic import atomic_path
 from droprig.model import Level, LiftZone, Member, Project
 from droprig.report import content, fonts
 from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, is_none, substitute_all
@@ -1076,10 +1075,7 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
     header = _Header(info.name, info.site, info.lift_reference, info.revision, info.date,
                      __version__, fp.sha256, _units(system))
     counter = [0]
-    target = pathlib.Path(os.fspath(path))
-    folder = target.parent if str(target.parent) else pathlib.Path(".")
-    tmp = folder / f".{target.name}.{secrets.token_hex(6)}.tmp"
-    try:
+    with atomic_path(path) as tmp:
         doc = BaseDocTemplate(
             str(tmp), pagesize=pagesize, leftMargin=MARGIN_X, rightMargin=MARGIN_X,
             topMargin=MARGIN_TOP + HEADER_H, bottomMargin=fy0,
@@ -1098,12 +1094,5 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
             raise RuntimeError(f"annex layout: {counter[0]} pages rendered for "
                                f"{len(b.pages)} planned; please report this with the "
                                "project file")
-        os.replace(tmp, target)
-    except BaseException:
-        try:
-            tmp.unlink()
-        except FileNotFoundError:
-            pass
-        raise
     tick(1.0, f"Annex written: {counter[0]} pages")
     return counter[0]
