@@ -165,3 +165,13 @@ def fmt(value: float | None, quantity: str, system: UnitSystem = "SI", *,
     text = f"{mag:,.{d}f}"
     u = display_unit(quantity, system)
     return f"{text} {u}" if unit and u else text
+
+
+def nice_length(target: float) -> float:
+    """The largest 1, 2 or 5 × 10^k not above ``target`` (> 0): a round length
+    for a scale bar (common practice, no source)."""
+    k = math.floor(math.log10(target))
+    for m in (5.0, 2.0, 1.0):
+        if m * 10 ** k <= target:
+            return m * 10 ** k
+    return 10.0 ** k

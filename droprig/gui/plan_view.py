@@ -169,15 +169,6 @@ def dragged_zone(zone: LiftZone, kind: str, x: float, y: float, *,
     return zone
 
 
-def _nice_length(target: float) -> float:
-    """The largest 1, 2 or 5 × 10^k not above ``target`` (> 0)."""
-    k = math.floor(math.log10(target))
-    for m in (5.0, 2.0, 1.0):
-        if m * 10 ** k <= target:
-            return m * 10 ** k
-    return 10 ** k
-
-
 class PlanView(QGraphicsView):
     """The plan of one level with its results (see the module docstring).
 
@@ -1149,7 +1140,7 @@ class PlanView(QGraphicsView):
         ppm = self.pixels_per_metre()
         sysm = self.unit_system
         unit_m = 1.0 if sysm == "SI" else 0.3048
-        length_u = _nice_length(140.0 / (ppm * unit_m))
+        length_u = units.nice_length(140.0 / (ppm * unit_m))
         length_px = length_u * unit_m * ppm
         x0 = 16.0
         y0 = self.viewport().height() - self._caution_height() - 26.0

@@ -21,6 +21,7 @@ from reportlab.graphics.shapes import Circle, Drawing, Group, Line, Polygon, Pol
 from reportlab.lib import colors
 from reportlab.pdfbase.pdfmetrics import stringWidth
 
+from droprig import units
 from droprig.model import Level, LiftZone, ProtectionArea, bays
 from droprig.report import fonts
 from droprig.report.content import NOT_ASSESSED, OUTCOMES, OutcomeStyle
@@ -72,15 +73,6 @@ def swatch(style: OutcomeStyle, w: float = 22.0, h: float = 12.0) -> Drawing:
     _hatch(g, style, 0, 0, w, h, 0.8)
     d.add(g)
     return d
-
-
-def _nice_length(target: float) -> float:
-    """1, 2 or 5 × 10^k not above ``target`` (> 0)."""
-    k = math.floor(math.log10(target))
-    for m in (5, 2, 1):
-        if m * 10 ** k <= target:
-            return m * 10 ** k
-    return 10 ** k
 
 
 def _text(x: float, y: float, text: str, size: float, *, anchor: str = "start",
@@ -295,7 +287,7 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
 def _north_and_scale(d: Drawing, s: float, system: UnitSystem, width: float,
                      y: float) -> None:
     unit_m = 0.3048 if system == "US" else 1.0
-    length = _nice_length(80.0 / (s * unit_m)) * unit_m  # ≤ 80 pt long
+    length = units.nice_length(80.0 / (s * unit_m)) * unit_m  # ≤ 80 pt long
     seg = length * s / 2
     x0 = width - 2 * seg - 40
     for k in range(2):
