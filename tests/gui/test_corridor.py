@@ -16,7 +16,7 @@ from pathlib import Path
 
 import pytest
 from PySide6.QtCore import Qt
-from PySide6.QtWidgets import QLineEdit, QMessageBox
+from PySide6.QtWidgets import QLineEdit
 
 from droprig.gui import commands as ed
 from droprig.gui.document import Document, Selection
@@ -48,28 +48,9 @@ def _level():
         girder_grade=get_grade("S355"), beam_grade=get_grade("S355"))
 
 
-@pytest.fixture(autouse=True)
-def _no_modal_dialogs(monkeypatch: pytest.MonkeyPatch) -> None:
-    """A modal message box would wait forever offscreen: fail instead."""
-    def unexpected(*args: object, **kwargs: object) -> None:
-        pytest.fail(f"unexpected message box: {args[1:3]}")
-
-    for name in ("warning", "question", "critical", "information"):
-        monkeypatch.setattr(QMessageBox, name, unexpected)
-
-
 @pytest.fixture
-def window(qtbot) -> MainWindow:
-    win = MainWindow(debounce_ms=30)
-
-    def no_prompt(w: MainWindow = win) -> None:
-        w._closing = True  # the tests answer the unsaved-changes prompt themselves
-
-    qtbot.addWidget(win, before_close_func=no_prompt)
-    win.resize(1280, 800)
-    win.show()
-    qtbot.waitExposed(win)
-    return win
+def window(open_window) -> MainWindow:
+    return open_window((1280, 800))
 
 
 def _settle(qtbot, win: MainWindow) -> None:

@@ -13,7 +13,7 @@ import re
 
 import pytest
 from PySide6.QtCore import Qt
-from PySide6.QtWidgets import QLineEdit, QMessageBox
+from PySide6.QtWidgets import QLineEdit
 
 from droprig.gui import style
 from droprig.gui.document import Selection
@@ -36,27 +36,9 @@ def _level():
         girder_grade=get_grade("S355"), beam_grade=get_grade("S355"))
 
 
-@pytest.fixture(autouse=True)
-def _no_modal_dialogs(monkeypatch: pytest.MonkeyPatch) -> None:
-    def unexpected(*args: object, **kwargs: object) -> None:
-        pytest.fail(f"unexpected message box: {args[1:3]}")
-
-    for name in ("warning", "question", "critical", "information"):
-        monkeypatch.setattr(QMessageBox, name, unexpected)
-
-
 @pytest.fixture
-def window(qtbot) -> MainWindow:
-    win = MainWindow(debounce_ms=30)
-
-    def no_prompt(w: MainWindow) -> None:
-        w._closing = True
-
-    qtbot.addWidget(win, before_close_func=no_prompt)
-    win.resize(1600, 1000)
-    win.show()
-    qtbot.waitExposed(win)
-    return win
+def window(open_window) -> MainWindow:
+    return open_window((1600, 1000))
 
 
 def _framed_zone(window: MainWindow) -> None:

@@ -42,17 +42,6 @@ def _no_prompt(win: MainWindow) -> None:
     win._closing = True  # tests answer the unsaved-changes prompt themselves
 
 
-@pytest.fixture(autouse=True)
-def _no_modal_dialogs(monkeypatch: pytest.MonkeyPatch) -> None:
-    """A modal message box would wait forever offscreen: fail instead. Tests that
-    expect one patch it again with their answer."""
-    def unexpected(*args: object, **kwargs: object) -> None:
-        pytest.fail(f"unexpected message box: {args[1:3]}")
-
-    for name in ("warning", "question", "critical", "information"):
-        monkeypatch.setattr(QMessageBox, name, unexpected)
-
-
 def _window(qtbot, **kwargs: object) -> MainWindow:
     win = MainWindow(**kwargs)  # type: ignore[arg-type]
     qtbot.addWidget(win, before_close_func=_no_prompt)

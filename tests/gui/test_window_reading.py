@@ -9,7 +9,6 @@ from dataclasses import replace
 
 import pytest
 from PySide6.QtCore import QPointF, QRectF, Qt
-from PySide6.QtWidgets import QMessageBox
 
 from droprig.gui import commands as ed
 from droprig.gui.main_window import MainWindow
@@ -33,25 +32,9 @@ def _level(level_id: str = "L1"):
         girder_grade=get_grade("S355"), beam_grade=get_grade("S355"))
 
 
-@pytest.fixture(autouse=True)
-def _no_modal_dialogs(monkeypatch: pytest.MonkeyPatch) -> None:
-    def unexpected(*args: object, **kwargs: object) -> None:
-        pytest.fail(f"unexpected message box: {args[1:3]}")
-
-    for name in ("warning", "question", "critical", "information"):
-        monkeypatch.setattr(QMessageBox, name, unexpected)
-
-
 @pytest.fixture
-def window(qtbot) -> MainWindow:
-    win = MainWindow(debounce_ms=30)
-
-    def no_prompt(w: MainWindow = win) -> None:
-        w._closing = True
-
-    qtbot.addWidget(win, before_close_func=no_prompt)
-    win.show()
-    return win
+def window(open_window) -> MainWindow:
+    return open_window(exposed=False)
 
 
 def _settle(qtbot, win: MainWindow) -> None:
