@@ -702,23 +702,26 @@ class _Builder:
         return found
 
     # ---- leaves
+    def _library(self, name: str, path: str, cache: dict[str, Any], getter: str) -> Any:
+        """A section or grade by library name (cached per file, misses included);
+        an unknown name is a problem at ``path``."""
+        hit = cache.get(name)
+        if hit is None:
+            from droprig.io import sections as lib
+
+            try:
+                hit = getattr(lib, getter)(name)
+            except ValueError as exc:  # SectionNotFound / GradeNotFound
+                hit = exc
+            cache[name] = hit
+        if isinstance(hit, Exception):
+            self.problems.append(f"{path}: {hit}")
+            raise _BuildFailedError
+        return hit
+
     def section(self, v: Any, path: str) -> Section:
         if isinstance(v, str):
-            hit = self._sections.get(v)
-            if hit is None:
-                try:
-                    from droprig.io import sections as lib
-
-                    hit = lib.get_section(v)
-                except ImportError:
-                    hit = LookupError(f"section {v!r}: the section library is not available")
-                except ValueError as exc:  # SectionNotFound is a ValueError
-                    hit = exc
-                self._sections[v] = hit
-            if isinstance(hit, Exception):
-                self.problems.append(f"{path}: {hit}")
-                raise _BuildFailedError
-            return hit
+            return self._library(v, path, self._sections, "get_section")
         return self._make(path, _KEYS_SECTION, lambda: Section(
             name=v["name"], family=v["family"], d=v["d_m"], bf=v["bf_m"], tw=v["tw_m"],
             tf=v["tf_m"], r=v["r_m"], A=v["A_m2"], Ix=v["Ix_m4"], Sx=v["Sx_m3"],
@@ -726,21 +729,7 @@ class _Builder:
 
     def grade(self, v: Any, path: str) -> Grade:
         if isinstance(v, str):
-            hit = self._grades.get(v)
-            if hit is None:
-                try:
-                    from droprig.io import sections as lib
-
-                    hit = lib.get_grade(v)
-                except ImportError:
-                    hit = LookupError(f"grade {v!r}: the grade library is not available")
-                except ValueError as exc:  # GradeNotFound is a ValueError
-                    hit = exc
-                self._grades[v] = hit
-            if isinstance(hit, Exception):
-                self.problems.append(f"{path}: {hit}")
-                raise _BuildFailedError
-            return hit
+            return self._library(v, path, self._grades, "get_grade")
         kw: dict[str, Any] = {}
         if "E_Pa" in v:
             kw["E"] = v["E_Pa"]
