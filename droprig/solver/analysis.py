@@ -52,7 +52,18 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from droprig.model import Level, LiftLoad, LiftZone, Project, Settings, bays
-from droprig.solver import beam, capacity, contact, deck, droppoints, impact, limits, plastic
+from droprig.solver import (
+    beam,
+    capacity,
+    contact,
+    deck,
+    droppoints,
+    impact,
+    limits,
+    memory,
+    plastic,
+)
+from droprig.solver.linear_checks import Check, Family, argmax0, argmin_axis, small_check
 from droprig.solver.loadpath import (
     COND_NAMES,
     Frame,
@@ -63,6 +74,7 @@ from droprig.solver.loadpath import (
     tributary_widths,
 )
 from droprig.solver.loadpath import evaluate as evaluate_path
+from droprig.solver.parallel import for_blocks
 from droprig.solver.results import (
     ADVICE_KINDS,
     CHECKS,
@@ -142,12 +154,17 @@ class FloorModel:
     groups: tuple[tuple[object, object], ...]
     warnings: tuple[str, ...] = field(default=())
     hinge: np.ndarray | None = None
+    tables: CandidateTables | None = None
+    _mass: float | None = field(default=None, repr=False)
 
     @property
     def frame_mass(self) -> float:
         """Mass of all members of the level, kg (an upper bound of any Rayleigh
         effective mass of a load path)."""
-        return float(sum(m.section.mass_per_length * m.span for m in self.level.members))
+        if self._mass is None:
+            object.__setattr__(self, "_mass", float(sum(
+                m.section.mass_per_length * m.span for m in self.level.members)))
+        return self._mass  # type: ignore[return-value]
 
 
 def build_floor(level: Level, settings: Settings) -> FloorModel:
@@ -219,7 +236,8 @@ def build_floor(level: Level, settings: Settings) -> FloorModel:
     deck_Mr = deck.deck_flexure_resistance(level.deck, basis, phi)
     return FloorModel(level=level, settings=settings, frame=frame, Mr=Mr, Vr=Vr, w0=w0,
                       V0=V0, P0=P0, M0_sup=M0_sup, q0=q0, deck_Mr=deck_Mr, group=gidx,
-                      groups=tuple(groups), warnings=tuple(warnings), hinge=hinge)
+                      groups=tuple(groups), warnings=tuple(warnings), hinge=hinge,
+                      tables=candidate_tables(frame, Mr, Vr, V0, M0_sup))
 
 
 def existing_moment(frame: Frame, w0: np.ndarray, P0: np.ndarray, k: int,
@@ -237,305 +255,246 @@ def existing_moment(frame: Frame, w0: np.ndarray, P0: np.ndarray, k: int,
 
 
 # --------------------------------------------------------------------------- checks
-_F_HUGE = 1e300
-"""Stands in for an unbounded force so that 0·∞ reads as 0 (a rigid point puts no
-load on a member that takes no share of it) while any share of it stays ∞."""
+@dataclass(frozen=True, eq=False)
+class CandidateTables:
+    """Load-independent tables of the check candidates of a prepared floor.
 
+    Support members of each panel (``P`` per panel, ``S`` moment stations each):
+    flexure rows p·S + s and shear rows p·2 + e, each a linear combination of the four
+    local reactions r_i of the panel's deck members (``m_coef``/``v_coef``, (rows, 4,
+    panels), zero for a panel with fewer supports; ``m_terms``/``v_terms``: per
+    support, the reactions that ever enter), existing demand over resistance
+    (``m_Et``/``v_Et``, (rows, panels)) and resistance per support (``m_R``/``v_R``,
+    (P, panels)); ``member``/``valid`` (P, panels). Deck members: existing end shear
+    over shear resistance ``V_Et`` (2, members).
+    """
 
-def _demand(F: np.ndarray, unit: np.ndarray, exist: np.ndarray) -> np.ndarray:
-    """|F·unit + exist|; ∞ where F is unbounded and the candidate takes a share."""
-    d = np.minimum(F, _F_HUGE) * unit
-    d += exist
-    np.abs(d, out=d)
-    inf = np.isinf(F)
-    if inf.any():
-        d = np.where(inf & (unit != 0.0), np.inf, d)
-    return d
-
-
-def _f_allow(R: np.ndarray, unit: np.ndarray, exist: np.ndarray) -> np.ndarray:
-    """Largest F ≥ 0 with |F·unit + exist| ≤ R: (R − sign(unit)·exist)/|unit|; ∞ for
-    unit = 0; −1 where the existing load alone exceeds R."""
-    au = np.abs(unit)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        fa = (R - np.sign(unit) * exist) / au
-        fa = np.where(np.abs(exist) > R, -1.0, fa)
-    return np.where(np.isnan(fa), np.inf, fa)
-
-
-def _first_at(D: np.ndarray, V: np.ndarray, axis: int) -> np.ndarray:
-    """Index along ``axis`` of the first entry of ``D`` equal to ``V`` (``V`` = the max
-    or min of ``D`` over ``axis``): ``np.argmax``/``np.argmin`` over a leading axis
-    without the transposed copy numpy makes for it. Where ``V`` holds a NaN the
-    answer is the first NaN: callers hand those to numpy."""
-    D = np.moveaxis(D, axis, 0)
-    j = np.zeros(V.shape, dtype=np.intp)
-    m = np.empty(V.shape, dtype=bool)
-    for c in range(D.shape[0] - 1, -1, -1):  # the lowest matching index written last
-        np.equal(D[c], V, out=m)
-        np.copyto(j, c, where=m)
-    return j
-
-
-def _argmax0(D: np.ndarray, U: np.ndarray) -> np.ndarray:
-    """``np.argmax(D, axis=0)`` given ``U = D.max(axis=0)`` (same index, first maximum;
-    first NaN where a column holds one)."""
-    if np.isnan(U).any():
-        return np.argmax(D, axis=0)
-    return _first_at(D, U, 0)
-
-
-def _argmin_axis(D: np.ndarray, V: np.ndarray, axis: int) -> np.ndarray:
-    """``np.argmin(D, axis=axis)`` given ``V = D.min(axis=axis)`` (same index, first
-    minimum; first NaN where the reduced line holds one)."""
-    if np.isnan(V).any():
-        return np.argmin(D, axis=axis)
-    return _first_at(D, V, axis)
-
-
-@dataclass
-class _Check:
-    """One check family over the points: U at the elastic peak, allowed force, unit
-    demand per N at p, existing demand, resistance and the member it governs on
-    (unit, existing demand and resistance of the governing candidate are gathered only
-    for the calculation trace; None otherwise)."""
-
-    name: str
-    U: np.ndarray
-    F_allow: np.ndarray
+    P: int
+    S: int
+    m_coef: np.ndarray
+    m_terms: tuple[tuple[int, ...], ...]
+    m_Et: np.ndarray
+    m_R: np.ndarray
+    v_coef: np.ndarray
+    v_terms: tuple[tuple[int, ...], ...]
+    v_Et: np.ndarray
+    v_R: np.ndarray
     member: np.ndarray
-    unit: np.ndarray | None
-    exist: np.ndarray | None
-    resist: np.ndarray | None
-    U_at: Callable[[np.ndarray], np.ndarray]
-    fa_all: np.ndarray | None = None
+    valid: np.ndarray
+    V_Et: np.ndarray
 
 
-def _reduce(name: str, F: np.ndarray, unit: np.ndarray, exist: np.ndarray,
-            resist: np.ndarray, member: np.ndarray, detail: bool = True) -> _Check:
-    """Combine candidate demands (n, c) into one check: the governing candidate is
-    the one with the largest utilisation (where it is unbounded: the lowest allowed
-    force)."""
-    U_all = _demand(F[:, None], unit, exist)
-    U_all /= resist
-    fa = _f_allow(resist, unit, exist)
-    j = np.argmax(U_all, axis=1)
-    rows = np.arange(F.shape[0])
-    U = U_all[rows, j]
-    unbounded = np.isinf(U)
-    if unbounded.any():
-        j = np.where(unbounded, np.argmin(fa, axis=1), j)
+def candidate_tables(frame: Frame, Mr: np.ndarray, Vr: np.ndarray, V0: np.ndarray,
+                     M0_sup: np.ndarray) -> CandidateTables:
+    """:class:`CandidateTables` of a frame with its resistances and existing actions."""
+    sup = frame.pair_sup_member
+    n_p, P = sup.shape
+    S = frame.pair_sup_mcoef.shape[2]
+    supm = np.maximum(sup, 0)
+    valid = sup >= 0
+    vf = valid.astype(float)
+    mc = frame.pair_sup_mcoef * vf[:, :, None, None]  # (panels, P, S, 4)
+    vc = frame.pair_sup_rcoef * vf[:, :, None, None]  # (panels, P, 2, 4)
 
-    def U_at(Fx: np.ndarray) -> np.ndarray:
-        d = _demand(Fx[:, None], unit, exist)
-        d /= resist
-        return np.max(d, axis=1)
+    def terms(c: np.ndarray) -> tuple[tuple[int, ...], ...]:
+        return tuple(tuple(i for i in range(4) if np.any(c[:, p, :, i] != 0.0))
+                     for p in range(P))
 
-    if detail:
-        chk = _Check(name, U, np.min(fa, axis=1), member[rows, j], unit[rows, j],
-                     exist[rows, j], resist[rows, j], U_at)
-    else:
-        chk = _Check(name, U, np.min(fa, axis=1), member[rows, j], None, None, None, U_at)
-    chk.fa_all = fa
-    return chk
+    with np.errstate(divide="ignore", invalid="ignore"):
+        m_Et = (M0_sup * vf[:, :, None]) / Mr[supm][:, :, None]
+        v_Et = (V0[supm] * vf[:, :, None]) / Vr[supm][:, :, None]
+        V_Et = (V0 / Vr[:, None]).T
+    return CandidateTables(
+        P=P, S=S,
+        m_coef=np.ascontiguousarray(mc.transpose(1, 2, 3, 0)).reshape(P * S, 4, n_p),
+        m_terms=terms(mc), m_Et=np.ascontiguousarray(m_Et.transpose(1, 2, 0)).reshape(
+            P * S, n_p),
+        m_R=np.ascontiguousarray(Mr[supm].T),
+        v_coef=np.ascontiguousarray(vc.transpose(1, 2, 3, 0)).reshape(P * 2, 4, n_p),
+        v_terms=terms(vc), v_Et=np.ascontiguousarray(v_Et.transpose(1, 2, 0)).reshape(
+            P * 2, n_p),
+        v_R=np.ascontiguousarray(Vr[supm].T), member=np.ascontiguousarray(supm.T),
+        valid=np.ascontiguousarray(valid.T), V_Et=np.ascontiguousarray(V_Et))
 
 
-class _Family:
-    """Load-independent candidates of one check family over the points, laid out
-    (C, n): demand per unit force at p divided by the resistance (``ut``), existing
-    demand divided by the resistance (``Et``), resistance ``R`` and member. The
-    allowed force ``F_allow`` = min_c (1 − sign(ut)·Et)/|ut| is load-independent."""
-
-    def __init__(self, unit: np.ndarray, exist: np.ndarray, resist: np.ndarray,
-                 member: np.ndarray, *, owned: bool = False) -> None:
-        """``owned``: ``unit`` and ``exist`` are fresh float arrays of this family,
-        divided by the resistance in place (no new arrays of the full size)."""
-        self.R = np.ascontiguousarray(resist, dtype=float)
-        if owned:
-            self.ut = np.divide(unit, self.R, out=unit)
-            self.Et = np.divide(exist, self.R, out=exist)
-        else:
-            self.ut = np.ascontiguousarray(unit) / self.R
-            self.Et = np.ascontiguousarray(exist) / self.R
-        self.member = np.ascontiguousarray(member)
-        # F_allow per candidate with R = 1: (1 − sign(ut)·Et)/|ut|, ∞ where ut = 0,
-        # −1 where the existing demand alone exceeds the resistance
-        # (in place, few passes: where ut = 0 the numerator is 1 − 0·Et = 1 and 1/0 = ∞)
-        au = np.abs(self.ut)
-        fa = np.sign(self.ut)
-        fa *= self.Et
-        np.subtract(1.0, fa, out=fa)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            np.divide(fa, au, out=fa)
-        if np.isnan(fa).any():  # a NaN unit demand sets no limit (∞), as the where=au > 0
-            fa[np.isnan(self.ut)] = np.inf
-        np.abs(self.Et, out=au)
-        np.copyto(fa, -1.0, where=au > 1.0)
-        self.fa = fa
-        self.F_allow = fa.min(axis=0)
-
-    def U_at(self, F: np.ndarray) -> np.ndarray:
-        return _demand(F[None, :], self.ut, self.Et).max(axis=0)
-
-    def check(self, name: str, F: np.ndarray, detail: bool = True) -> _Check:
-        D = _demand(F[None, :], self.ut, self.Et)
-        U = D.max(axis=0)
-        j = _argmax0(D, U)
-        cols = np.arange(F.size)
-        unbounded = np.isinf(U)
-        if unbounded.any():
-            j = np.where(unbounded, np.argmin(self.fa, axis=0), j)
-        if not detail:
-            return _Check(name, U, self.F_allow, self.member[j, cols], None, None, None,
-                          self.U_at)
-        R = self.R[j, cols]
-        return _Check(name, U, self.F_allow, self.member[j, cols], self.ut[j, cols] * R,
-                      self.Et[j, cols] * R, R, self.U_at)
+def _combine(out: np.ndarray, coef: np.ndarray, terms: tuple[int, ...], pair: np.ndarray,
+             rT: np.ndarray) -> None:
+    """out = Σ_i coef_i[pair]·r_i over ``terms`` (in order; the reactions whose
+    coefficients are all zero add exactly nothing and are skipped)."""
+    if not terms:
+        out[...] = 0.0
+        return
+    i0, *rest = terms
+    np.multiply(np.take(coef[i0], pair), rT[i0], out=out)
+    for i in rest:
+        term = np.take(coef[i], pair)
+        term *= rT[i]
+        out += term
 
 
 def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     """Everything per drop point that does not depend on the load: the flexure and
-    shear candidates of every path member and the plastic reserve R_p of the path
-    (cached on ``geo``)."""
+    shear candidates of every path member (:class:`~droprig.solver.linear_checks.Family`)
+    and the plastic reserve R_p of the path (cached on ``geo``).
+
+    Flexure: at the stations of each deck member (:func:`_loaded_stations`) the unit
+    moment share·M(x; a) and the existing moment; at the stations of each support
+    member Σ_i coef_i·r_i and its existing moment. Shear: the end reactions of each
+    deck member share·R(a) and of each support member Σ_i coef_i·r_i, with the
+    existing end shears (AISC Manual Table 3-23 by superposition)."""
     ua = geo.cache.get("ua")
     if ua is not None:
         return ua
     fr = fm.frame
+    tb = fm.tables
     path = geo.path
     n = geo.x.size
-    mem = path.members
-    share = path.share
-    a = path.a
-    Lm = fr.L[mem]
-    cond = fr.cond[mem]
-    xs = _loaded_stations(a, Lm, bool(np.any(fr.cond != 0)))  # (n, 2, S_l)
-    m_unit = share[..., None] * by_condition(beam.unit_moment, cond[..., None],
-                                             Lm[..., None], xs, a[..., None])
-    M0 = _loaded_existing_moment(fm, mem, xs)
-    R0, RL = by_condition(beam.unit_reactions, cond, Lm, a)
-    fl_u = [m_unit.reshape(n, -1).T]
-    fl_e = [M0.reshape(n, -1).T]
-    fl_r = [np.repeat(fm.Mr[mem].T, xs.shape[-1], axis=0)]
-    fl_m = [np.repeat(mem.T, xs.shape[-1], axis=0)]
-    sh_u = [np.concatenate([(share * R0).T, (share * RL).T])]
-    V0T = np.ascontiguousarray(fm.V0.T)  # (2, members): existing end shears
-    sh_e = [np.concatenate([V0T[0][mem].T, V0T[1][mem].T])]
-    sh_r = [np.concatenate([fm.Vr[mem].T, fm.Vr[mem].T])]
-    sh_m = [np.concatenate([mem.T, mem.T])]
+    memT = np.ascontiguousarray(path.members.T)  # (2, n)
+    shareT = np.ascontiguousarray(path.share.T)
+    aT = np.ascontiguousarray(path.a.T)
+    LT = fr.L[memT]
+    condT = fr.cond[memT]
     pair = np.maximum(path.pair, 0)
-    sup = fr.pair_sup_member[pair]  # (n, P)
-    P = sup.shape[1]
-    rT = np.ascontiguousarray(path.r.T)
-    if P:
-        supm = np.maximum(sup, 0)
-        valid = (sup >= 0).T  # (P, n)
-        S = fr.pair_sup_mcoef.shape[2]
-        # support-member moments per unit force: Σ_i coef_i·r_i over the 4 local
-        # reactions, one coefficient row per point and term taken from a (4, panel,
-        # P·S) table (contiguous rows; same sums in the same order as before)
-        coef = np.ascontiguousarray(np.moveaxis(fr.pair_sup_mcoef, 3, 0)).reshape(
-            4, fr.n_pairs, P * S)
-        ms = np.take(coef[0], pair, axis=0)
-        ms *= rT[0][:, None]
-        for i in (1, 2, 3):
-            term = np.take(coef[i], pair, axis=0)
-            term *= rT[i][:, None]
-            ms += term
-        ms = ms.T * np.repeat(valid, S, axis=0)
-        fl_u.append(ms)
-        fl_e.append(np.take(fm.M0_sup.reshape(fr.n_pairs, -1), pair, axis=0).T
-                    * np.repeat(valid, S, axis=0))
-        fl_r.append(np.repeat(fm.Mr[supm].T, S, axis=0))
-        fl_m.append(np.repeat(supm.T, S, axis=0))
-        rc = fr.pair_sup_rcoef[pair]  # (n, P, 2, 4)
-        vs = np.einsum("npei,in->pen", rc, rT).reshape(2 * P, n)
-        vmask = np.repeat(valid, 2, axis=0)
-        sh_u.append(vs * vmask)
-        sh_e.append(fm.V0[supm].transpose(1, 2, 0).reshape(2 * P, n) * vmask)
-        sh_r.append(np.repeat(fm.Vr[supm].T, 2, axis=0))
-        sh_m.append(np.repeat(supm.T, 2, axis=0))
-    flex = _Family(np.concatenate(fl_u, dtype=float), np.concatenate(fl_e, dtype=float),
-                   np.concatenate(fl_r), np.concatenate(fl_m), owned=True)
-    shear = _Family(np.concatenate(sh_u, dtype=float), np.concatenate(sh_e, dtype=float),
-                    np.concatenate(sh_r), np.concatenate(sh_m), owned=True)
-    # plastic reserve: R_p of the path for a load at p. Deck members: virtual-work
+    rT = np.ascontiguousarray(path.r.T)  # (4, n)
+    P, S = tb.P, tb.S
+    supm = np.take(tb.member, pair, axis=1) if P else np.zeros((0, n), dtype=np.int64)
+    members = np.concatenate([memT, supm])  # (K, n): the source members
+    cols = np.arange(n)
+    # ---- flexure: deck members (2, S_l stations) then support members (P, S)
+    xs = _loaded_stations(aT[:, None, :], LT[:, None, :], bool(np.any(fr.cond != 0)))
+    S_l = xs.shape[1]
+    C = 2 * S_l + P * S
+    ut = np.empty((C, n))
+    Et = np.empty((C, n))
+    u = by_condition(beam.unit_moment, condT[:, None, :], LT[:, None, :], xs,
+                     aT[:, None, :])
+    u *= shareT[:, None, :]
+    M0 = _loaded_existing_moment(fm, memT, xs)
+    Rd = fm.Mr[memT][:, None, :]
+    np.divide(u, Rd, out=ut[:2 * S_l].reshape(2, S_l, n))
+    np.divide(M0, Rd, out=Et[:2 * S_l].reshape(2, S_l, n))
+    m_R = np.take(tb.m_R, pair, axis=1)  # (P, n)
+    for p in range(P):
+        for s in range(S):
+            c = p * S + s
+            row = 2 * S_l + c
+            _combine(ut[row], tb.m_coef[c], tb.m_terms[p], pair, rT)
+            ut[row] /= m_R[p]
+            np.take(tb.m_Et[c], pair, out=Et[row])
+    flex = Family(ut, Et, members, np.concatenate([fm.Mr[memT], m_R]),
+                  np.repeat(np.arange(2 + P), [S_l, S_l] + [S] * P), _runs(S_l, P, S))
+    # ---- shear: deck member ends (rows m0·R0, m1·R0, m0·RL, m1·RL), support ends
+    R0, RL = by_condition(beam.unit_reactions, condT, LT, aT)
+    Vd = fm.Vr[memT]
+    C = 4 + 2 * P
+    vt = np.empty((C, n))
+    vE = np.empty((C, n))
+    np.multiply(shareT, R0, out=vt[0:2])
+    np.multiply(shareT, RL, out=vt[2:4])
+    vt[0:2] /= Vd
+    vt[2:4] /= Vd
+    np.take(tb.V_Et[0], memT, out=vE[0:2])
+    np.take(tb.V_Et[1], memT, out=vE[2:4])
+    v_R = np.take(tb.v_R, pair, axis=1)
+    for p in range(P):
+        for e in range(2):
+            c = 2 * p + e
+            _combine(vt[4 + c], tb.v_coef[c], tb.v_terms[p], pair, rT)
+            vt[4 + c] /= v_R[p]
+            np.take(tb.v_Et[c], pair, out=vE[4 + c])
+    shear = Family(vt, vE, members, np.concatenate([Vd, v_R]),
+                   np.array([0, 1, 0, 1] + [2 + p for p in range(P) for _ in range(2)]))
+    # ---- plastic reserve: R_p of the path for a load at p. Deck members: virtual-work
     # collapse load for fixed/propped, first hinge (= collapse of a determinate
     # member) otherwise; support members: first hinge (conservative)
-    n_l = xs.shape[1] * xs.shape[2]
-    fa_l = flex.fa[:n_l].reshape(2, xs.shape[2], n).min(axis=1).T  # (n, 2)
-    Mp_eff = np.maximum(fm.Mr[mem] - np.abs(M0[..., 0]), 0.0)
-    Pc = by_condition(beam.plastic_collapse_load, cond, Lm, a, Mp_eff)
+    assert flex.gmin is not None
+    fa_l = flex.gmin[:2]  # (2, n)
+    Mp_eff = np.maximum(fm.Mr[memT] - np.abs(M0[:, 0, :]), 0.0)
+    Pc = by_condition(beam.plastic_collapse_load, condT, LT, aT, Mp_eff)
     with np.errstate(divide="ignore", invalid="ignore"):
-        Pc = np.where(share > 0, Pc / np.where(share > 0, share, 1.0), np.inf)
-    indeterminate = (cond == COND_NAMES.index("fixed")) | (cond == COND_NAMES.index("propped"))
-    Rp_l = np.where(indeterminate, np.maximum(fa_l, Pc), fa_l)
-    Rp_c = [Rp_l]
-    Rp_member = [mem]
-    cant = cond == COND_NAMES.index("cantilever")
-    Rp_arm = [np.where(cant, a, np.minimum(a, Lm - a))]  # hinge arm (root for a cantilever)
-    Rp_cond = [cond]
-    if P:
-        S = fr.pair_sup_mcoef.shape[2]
-        fa_s_all = flex.fa[n_l:].reshape(P, S, n)
-        fa_s = fa_s_all.min(axis=1)  # (P, n)
-        j = _argmin_axis(fa_s_all, fa_s, 1)  # (P, n)
-        fa_s = fa_s.T
-        fa_s = np.where(sup >= 0, fa_s, np.inf)
-        # station of the governing section: pair_sup_x[pair, p, j] gathered by flat index
-        # (without gathering every station of every point first)
-        xst = np.take(fr.pair_sup_x.reshape(-1),
-                      (pair[:, None] * P + np.arange(P)) * S + j.T)
-        Ls = fr.L[supm]
-        Rp_c.append(fa_s)
-        Rp_member.append(supm)
-        Rp_arm.append(np.where(fr.cond[supm] == COND_NAMES.index("cantilever"), xst,
-                               np.minimum(xst, Ls - xst)))
-        Rp_cond.append(fr.cond[supm])
-    Rp_all = np.concatenate(Rp_c, axis=1)
-    jr = np.argmin(Rp_all, axis=1)
-    rows = np.arange(n)
+        Pc = np.where(shareT > 0, Pc / np.where(shareT > 0, shareT, 1.0), np.inf)
+    indeterminate = (condT == COND_NAMES.index("fixed")) | (condT == COND_NAMES.index(
+        "propped"))
+    Rp_all = np.empty((2 + P, n))
+    Rp_all[:2] = np.where(indeterminate, np.maximum(fa_l, Pc), fa_l)
+    arm = np.empty((2 + P, n))
+    cant = condT == COND_NAMES.index("cantilever")
+    arm[:2] = np.where(cant, aT, np.minimum(aT, LT - aT))  # hinge arm (root for a cantilever)
+    rp_cond = np.concatenate([condT, fr.cond[supm]])
+    for p in range(P):
+        a0 = 2 * S_l + p * S
+        fa_p = flex.gmin[2 + p]
+        j = argmin_axis(flex.fa[a0:a0 + S], fa_p, 0)
+        Rp_all[2 + p] = np.where(np.take(tb.valid[p], pair), fa_p, np.inf)
+        # station of the governing section: pair_sup_x[pair, p, j] by flat index
+        xst = np.take(fr.pair_sup_x.reshape(-1), (pair * P + p) * S + j)
+        Ls = fr.L[supm[p]]
+        arm[2 + p] = np.where(rp_cond[2 + p] == COND_NAMES.index("cantilever"), xst,
+                              np.minimum(xst, Ls - xst))
+    jr = argmin_axis(Rp_all, Rp_all.min(axis=0), 0)
     # members that cannot form a plastic hinge: the least force that takes one of
     # them to its flexural resistance (inf where the path has none)
     nh_fa = np.full(n, np.inf)
     nh_member = np.full(n, -1, dtype=np.int64)
     hinge = fm.hinge
     if hinge is not None and not bool(np.all(hinge)):
-        fa_nh = np.where(hinge[flex.member], np.inf, flex.fa)  # (C, n)
-        jn = np.argmin(fa_nh, axis=0)
-        nh_fa = fa_nh[jn, rows]
-        nh_member = flex.member[jn, rows]
+        g_nh = np.where(hinge[members], np.inf, flex.gmin)  # (K, n)
+        jn = np.argmin(g_nh, axis=0)
+        nh_fa = g_nh[jn, cols]
+        nh_member = members[jn, cols]
     ua = {
         "flexure": flex, "shear": shear,
-        "R_p": np.maximum(Rp_all[rows, jr], 0.0),
-        "rp_member": np.concatenate(Rp_member, axis=1)[rows, jr],
-        "rp_arm": np.concatenate(Rp_arm, axis=1)[rows, jr],
-        "rp_cond": np.concatenate(Rp_cond, axis=1)[rows, jr],
+        "R_p": np.maximum(Rp_all[jr, cols], 0.0),
+        "rp_member": members[jr, cols],
+        "rp_arm": arm[jr, cols],
+        "rp_cond": rp_cond[jr, cols],
         "nh_fa": nh_fa, "nh_member": nh_member,
     }
     geo.cache["ua"] = ua
     return ua
 
 
+def _runs(S_l: int, P: int, S: int) -> tuple[tuple[int, int], ...]:
+    """(start, stop) of the flexure rows of each source: two deck members of S_l
+    stations, then P support members of S stations."""
+    starts = [0, S_l] + [2 * S_l + p * S for p in range(P)]
+    lens = [S_l, S_l] + [S] * P
+    return tuple((s, s + k) for s, k in zip(starts, lens, strict=True))
+
+
 def _loaded_stations(a: np.ndarray, L: np.ndarray, ends: bool) -> np.ndarray:
     """Stations along a deck-supporting member where the moment can peak under a
     point load at a plus a uniform load: under the load, the quarter points, halfway
-    between the load and midspan, and the ends when a member has a fixed end
-    (n, ..., 5 or 7), m."""
+    between the load and midspan, and the ends when a member has a fixed end; stacked
+    along the second axis of ``a`` (shape (2, 1, n) → (2, 5 or 7, n)), m."""
     cols = [a, 0.25 * L, 0.5 * L, 0.75 * L, 0.5 * (a + 0.5 * L)]
     if ends:
         cols += [0.0 * a, L + 0.0 * a]
-    return np.stack(np.broadcast_arrays(*cols), axis=-1)
+    return np.concatenate(np.broadcast_arrays(*cols), axis=1)
 
 
-def _loaded_existing_moment(fm: FloorModel, mem: np.ndarray, xs: np.ndarray) -> np.ndarray:
+def _loaded_existing_moment(fm: FloorModel, memT: np.ndarray, xs: np.ndarray) -> np.ndarray:
+    """Existing moment (N·m) at the stations ``xs`` (2, S, n) of the deck members
+    ``memT`` (2, n)."""
     fr = fm.frame
-    cond = fr.cond[mem][..., None]
-    M = by_condition(beam.udl_moment, cond, fr.L[mem][..., None], fm.w0[mem][..., None], xs)
-    carrying = [k for k in np.unique(mem) if fr.nodes_on[int(k)].size]
-    for k in carrying:
-        sel = mem == k
-        M[sel] = existing_moment(fr, fm.w0, fm.P0, int(k), xs[sel])
+    M = by_condition(beam.udl_moment, fr.cond[memT][:, None, :], fr.L[memT][:, None, :],
+                     fm.w0[memT][:, None, :], xs)
+    carrying = [k for k in np.unique(memT) if fr.nodes_on[int(k)].size]
+    if carrying:
+        Mv = np.moveaxis(M, 1, -1)  # (2, n, S) view
+        xv = np.moveaxis(xs, 1, -1)
+        for k in carrying:
+            sel = memT == k
+            Mv[sel] = existing_moment(fr, fm.w0, fm.P0, int(k), xv[sel])
     return M
+
+
+def _argmax_nan_low(D: np.ndarray) -> np.ndarray:
+    """Row of the largest entry of each column of ``D`` (k, n), a NaN counting as
+    lowest (first of equal maxima)."""
+    if np.isnan(D).any():
+        return np.argmax(np.where(np.isnan(D), -np.inf, D), axis=0)
+    return argmax0(D, D.max(axis=0))
 
 
 def _web_resistance(fm: FloorModel, fn: Callable[..., np.ndarray], mem: np.ndarray,
@@ -552,40 +511,33 @@ def _web_resistances(fm: FloorModel, fns: Sequence[Callable[..., np.ndarray]],
     function in ``fns``. Beyond twice the section depth from an end every clause used
     gives its interior value (AISC 360-16 J10.2 beyond d, J10.3 beyond d/2;
     EN 1993-1-5 §6 type (c) only within c < 2h_w/3 − s_s), so that value is computed
-    once per (section, bearing) and the clause is evaluated point by point only near
-    the ends. The grouping by section and by distinct bearing is shared by the
-    clauses."""
+    once per (section, bearing) — a small table gathered for every point — and the
+    clause is evaluated point by point only near the ends."""
     s = fm.settings
-    outs = [np.empty(mem.shape) for _ in fns]
-    grp = fm.group[mem] if len(fm.groups) > 1 else np.zeros(mem.shape, dtype=np.int64)
-    whole = len(fm.groups) == 1
-    for gi in range(len(fm.groups)):
-        sel = grp == gi
-        if not sel.any():
-            continue
-        sec, grd = fm.groups[gi]
-        b, d = (bearing.ravel(), dist.ravel()) if whole else (bearing[sel], dist[sel])
-        near = d < 2.0 * sec.d  # type: ignore[attr-defined]
-        far = ~near
-        any_near, any_far = bool(near.any()), bool(far.any())
-        if any_near:
-            b_near, d_near = b[near], d[near]
-        if any_far:
-            ub, inv = _distinct(b[far])
-            d_int = np.full(ub.shape, 1e3)
-        for i, fn in enumerate(fns):
-            r = np.empty(b.shape)
-            if any_near:
-                r[near] = fn(sec, grd, s.design_basis, b_near, d_near, s.resistance_factor,
-                             s.dynamic_increase_factor)
-            if any_far:
-                r_int = fn(sec, grd, s.design_basis, ub, d_int, s.resistance_factor,
-                           s.dynamic_increase_factor)
-                r[far] = np.asarray(r_int)[inv]
-            if whole:
-                outs[i] = r.reshape(mem.shape)
-            else:
-                outs[i][sel] = r
+    mem, bearing, dist = np.broadcast_arrays(mem, bearing, dist)
+    ub, inv = _distinct(bearing.ravel())
+    ng = len(fm.groups)
+    grp = fm.group[mem] if ng > 1 else np.zeros(mem.shape, dtype=np.int64)
+    d_int = np.full(ub.shape, 1e3)
+    depth2 = np.array([2.0 * sec.d for sec, _ in fm.groups])  # type: ignore[attr-defined]
+    near = dist < depth2[grp]
+    idx = np.flatnonzero(near) if near.any() else None
+    outs = []
+    for fn in fns:
+        table = np.concatenate([np.broadcast_to(np.asarray(
+            fn(sec, grd, s.design_basis, ub, d_int, s.resistance_factor,
+               s.dynamic_increase_factor), float), ub.shape) for sec, grd in fm.groups])
+        r = np.take(table, grp.ravel() * ub.size + inv).reshape(mem.shape)
+        if idx is not None:
+            g_near = grp.ravel()[idx]
+            b_near, d_near = bearing.ravel()[idx], dist.ravel()[idx]
+            rv = r.reshape(-1)
+            for gi in np.unique(g_near) if ng > 1 else (0,):
+                sel = g_near == gi if ng > 1 else slice(None)
+                sec, grd = fm.groups[int(gi)]
+                rv[idx[sel]] = fn(sec, grd, s.design_basis, b_near[sel], d_near[sel],
+                                  s.resistance_factor, s.dynamic_increase_factor)
+        outs.append(r)
     return outs
 
 
@@ -626,6 +578,7 @@ class Geometry:
 
 def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarray) -> Geometry:
     """Load path and plan attributes of drop points (bay, protection area, opening)."""
+    memory.keep_freed_memory()
     x = np.asarray(x, float)
     y = np.asarray(y, float)
     path = evaluate_path(fm.frame, x, y, with_mass=fm.settings.include_member_mass)
@@ -653,6 +606,7 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     intermediate values the calculation trace shows (other keys starting with ``_``).
     """
     n = geo.x.size
+    memory.keep_freed_memory()
     if n == 0:
         ints = {"bay", "protection", "governing_member", "governing_check", "response"}
         return {k: np.zeros(0, dtype=np.int64 if k in ints else float)
@@ -664,19 +618,27 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
             return _select(_evaluate_case(fm, project, load, geo, load_index, detail),
                            keep)
         out: dict[str, np.ndarray] = {}
-        for s in range(0, n, chunk):
-            sl = slice(s, min(s + chunk, n))
+
+        def block(s: int, e: int) -> None:
+            sl = slice(s, e)
             li = None if load_index is None else load_index[sl]
             sub = geo.cache.get(("slice", s))
             if sub is None:
                 sub = _slice_geo(geo, sl)
                 if n <= CACHE_MAX_POINTS:  # keep per-point actions for the next load
                     geo.cache[("slice", s)] = sub
-            part = _select(_evaluate_case(fm, project, load, sub, li, detail), keep)
+            with np.errstate(all="ignore"):
+                part = _select(_evaluate_case(fm, project, load, sub, li, detail), keep)
             for k, v in part.items():
-                if k not in out:
+                if k not in out:  # the first block runs alone: allocation is not shared
                     out[k] = np.empty((n, *v.shape[1:]), dtype=v.dtype)
                 out[k][sl] = v
+
+        # the first block alone (it allocates the outputs), the others on all cores
+        block(0, chunk)
+        for_blocks(lambda s, e: block(chunk + s, chunk + e), n - chunk, chunk)
+    if n > CACHE_MAX_POINTS:
+        memory.release_memory()
     return out
 
 
@@ -797,46 +759,47 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     d_st = W * f
     # ---- path members: flexure and shear (load-independent candidates)
     ua = _unit_actions(fm, geo)
-    mem = path.members
-    share = path.share
-    a = path.a
-    Lm = fr.L[mem]
-    checks: dict[str, _Check] = {}
+    memT = np.ascontiguousarray(path.members.T)
+    shareT = np.ascontiguousarray(path.share.T)
+    aT = np.ascontiguousarray(path.a.T)
+    LT = fr.L[memT]
+    checks: dict[str, Check] = {}
     checks["flexure"] = ua["flexure"].check("flexure", F, detail)  # type: ignore[attr-defined]
     checks["shear"] = ua["shear"].check("shear", F, detail)  # type: ignore[attr-defined]
     # ---- web checks under the load (each deck-supporting member, its share)
-    dist = np.maximum(np.minimum(a, Lm - a) - 0.5 * lb[:, None], 0.0)
-    lb_pts = np.broadcast_to(lb[:, None], mem.shape)
+    dist = np.maximum(np.minimum(aT, LT - aT) - 0.5 * lb, 0.0)
+    lb_pts = np.broadcast_to(lb, memT.shape)
     Rwy, Rwc = _web_resistances(fm, (capacity.web_local_yielding, capacity.web_crippling),
-                                mem, lb_pts, dist)
-    zero2 = np.zeros(mem.shape)
-    checks["web_yielding"] = _reduce("web_yielding", F, share, zero2, Rwy, mem, detail)
-    checks["web_crippling"] = _reduce("web_crippling", F, share, zero2, Rwc, mem, detail)
+                                memT, lb_pts, dist)
+    checks["web_yielding"] = small_check("web_yielding", F, shareT, None, Rwy, memT, detail)
+    checks["web_crippling"] = small_check("web_crippling", F, shareT, None, Rwc, memT,
+                                          detail)
     # ---- deck flexure (worse of the two footprint orientations) and punching
     thick = lv.deck.thickness
     mu1 = deck.deck_unit_moment_per_width(span, pos, fl + spread, fw + spread, thick)
     mu2 = deck.deck_unit_moment_per_width(span, pos, fw + spread, fl + spread, thick)
     m_deck = np.maximum(mu1, mu2)
     M0_deck = deck.deck_existing_moment_per_width(span, fm.q0)
-    deckm = np.full((n, 1), DECK)
-    checks["deck_flexure"] = _reduce("deck_flexure", F, m_deck[:, None], M0_deck[:, None],
-                                     np.full((n, 1), fm.deck_Mr), deckm, detail)
+    deckm = np.full((1, n), DECK)
+    checks["deck_flexure"] = small_check("deck_flexure", F, m_deck[None, :],
+                                         np.broadcast_to(M0_deck, (n,))[None, :],
+                                         np.full((1, n), fm.deck_Mr), deckm, detail)
     R_punch = deck.punching_resistance(lv.deck, fl + spread, fw + spread, s.design_basis,
                                        s.resistance_factor)
-    checks["deck_punching"] = _reduce("deck_punching", F, np.ones((n, 1)), np.zeros((n, 1)),
-                                      np.broadcast_to(R_punch, (n,))[:, None], deckm,
-                                      detail)
+    checks["deck_punching"] = small_check("deck_punching", F, np.ones((1, n)), None,
+                                          np.broadcast_to(R_punch, (n,))[None, :], deckm,
+                                          detail)
     # ---- overall elastic verdict
     names = list(checks)
-    Ustack = np.stack([checks[c].U for c in names], axis=1)
-    FAstack = np.stack([checks[c].F_allow for c in names], axis=1)
-    Ukey = np.where(np.isnan(Ustack), -np.inf, Ustack)
-    gi = np.argmax(Ukey, axis=1)
+    Ustack = np.stack([checks[c].U for c in names])
     rows = np.arange(n)
-    U = Ustack[rows, gi]
-    F_allow = np.min(FAstack, axis=1)
+    gi = _argmax_nan_low(Ustack)
+    U = Ustack[gi, rows]
+    F_allow = checks[names[0]].F_allow
+    for c in names[1:]:
+        F_allow = np.minimum(F_allow, checks[c].F_allow)
     gov_check = np.array([CHECK[names[i]] for i in range(len(names))])[gi]
-    gov_member = np.stack([checks[c].member for c in names], axis=1)[rows, gi]
+    gov_member = np.stack([checks[c].member for c in names])[gi, rows]
     # ---- plastic reserve: R_p of the path for a load at p
     R_p = ua["R_p"]
     rp_member = ua["rp_member"]
@@ -849,11 +812,10 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     Ub_at_Rp = [checks[c].U_at(R_p) for c in BRITTLE]
     at_F = (F <= R_p) | np.isnan(F)
     Ub = np.stack([np.where(at_F, checks[c].U, u)
-                   for c, u in zip(BRITTLE, Ub_at_Rp, strict=True)], axis=1)
-    Ub_key = np.where(np.isnan(Ub), -np.inf, Ub)
-    jb = np.argmax(Ub_key, axis=1)
-    Ub_max = Ub[rows, jb]
-    brittle_member = np.stack([checks[c].member for c in BRITTLE], axis=1)[rows, jb]
+                   for c, u in zip(BRITTLE, Ub_at_Rp, strict=True)])
+    jb = _argmax_nan_low(Ub)
+    Ub_max = Ub[jb, rows]
+    brittle_member = np.stack([checks[c].member for c in BRITTLE])[jb, rows]
     brittle_check = np.array([CHECK[c] for c in BRITTLE])[jb]
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
     h_struct = h.copy()
@@ -911,7 +873,9 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
                            (F_c - W) * s_c / (eta * W), 0.0)
     h_el = h_el + crush_bonus
     # plastic: ductility and rotation limits, brittle checks at R_p
-    Ub_Rp = np.max(np.stack(Ub_at_Rp, axis=1), axis=1)
+    Ub_Rp = Ub_at_Rp[0]
+    for u in Ub_at_Rp[1:]:
+        Ub_Rp = np.maximum(Ub_Rp, u)
     with np.errstate(divide="ignore", invalid="ignore"):
         d_rot = np.tan(s.rotation_limit) * np.where(rp_cond == COND_NAMES.index("cantilever"),
                                                    rp_arm, rp_arm)
@@ -1099,12 +1063,8 @@ def _tile(fm: FloorModel, geo: Geometry, k: int) -> Geometry:
                    np.tile(geo.protection, k), np.tile(geo.opening, k))
     tiled: dict[str, object] = {}
     for key, v in ua.items():
-        if isinstance(v, _Family):
-            fam = object.__new__(_Family)
-            for attr in ("R", "ut", "Et", "member", "fa"):
-                setattr(fam, attr, np.tile(getattr(v, attr), (1, k)))
-            fam.F_allow = np.tile(v.F_allow, k)
-            tiled[key] = fam
+        if isinstance(v, Family):
+            tiled[key] = v.tiled(k)
         else:
             tiled[key] = np.tile(v, k)  # type: ignore[arg-type]
     out.cache["ua"] = tiled

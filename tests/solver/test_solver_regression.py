@@ -17,6 +17,7 @@ import pytest
 
 from droprig.io.project_file import load_project
 from droprig.solver import analysis
+from droprig.solver.linear_checks import Family
 
 ROOT = Path(__file__).resolve().parents[2]
 REL = 1e-12  # same arithmetic up to reordering of floating-point sums
@@ -129,7 +130,10 @@ def test_allowed_force_of_a_check_family_follows_its_definition():
         want = np.where(unit == 0.0, np.inf,
                         (resist - np.sign(unit) * exist) / np.abs(unit))
     want = np.where(np.abs(exist) > resist, -1.0, want)
-    for owned in (False, True):
-        fam = analysis._Family(unit.copy(), exist.copy(), resist, member, owned=owned)
-        np.testing.assert_allclose(fam.fa, want, rtol=1e-14)
-        np.testing.assert_array_equal(fam.F_allow, fam.fa.min(axis=0))
+    fam = Family.from_candidates(unit.copy(), exist.copy(), resist, member)
+    np.testing.assert_allclose(fam.fa, want, rtol=1e-14)
+    np.testing.assert_array_equal(fam.F_allow, fam.fa.min(axis=0))
+    # a NaN unit demand sets no limit; a NaN existing demand gives no allowed force
+    unit[2, 0], exist[3, 1] = np.nan, np.nan
+    fam = Family.from_candidates(unit.copy(), exist.copy(), resist, member)
+    assert fam.fa[2, 0] == np.inf and np.isnan(fam.fa[3, 1])

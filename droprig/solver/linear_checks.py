@@ -1,0 +1,272 @@
+"""Checks whose demand is linear in the impact force.
+
+Every check of a member or of the deck at a drop point has a demand that is linear in
+the peak force F: demand = F·u + E, with u the demand per newton at the point (from
+the load path) and E the demand of the existing loads. Against a resistance R the
+utilisation is U = |F·u + E|/R and the largest force the check allows is
+
+    F_allow = (R − sign(u)·E)/|u|   (∞ where u = 0; −1 where |E| > R already)
+
+(the linear inequality |F·u + E| ≤ R solved for F ≥ 0; common practice, no source).
+A check family (flexure at every station of every member of the load path, shear at
+every member end, …) has many such candidates per point; the family's U is the largest
+and its F_allow the smallest over the candidates, and the candidate with the largest U
+names the governing member.
+
+Arrays are laid out candidate-first, (C, n), so that every operation runs over
+contiguous rows of drop points.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass
+
+import numpy as np
+
+__all__ = ["F_HUGE", "Check", "Family", "argmax0", "argmin_axis", "demand", "first_at",
+           "small_check"]
+
+F_HUGE = 1e300
+"""Stands in for an unbounded force so that 0·∞ reads as 0 (a rigid point puts no
+load on a member that takes no share of it) while any share of it stays ∞."""
+
+
+def demand(F: np.ndarray, unit: np.ndarray, exist: np.ndarray | None) -> np.ndarray:
+    """|F·unit + exist| (``exist`` None: no existing demand); ∞ where F is unbounded and
+    the candidate takes a share."""
+    d = np.minimum(F, F_HUGE) * unit
+    if exist is not None:
+        d += exist
+    np.abs(d, out=d)
+    inf = np.isinf(F)
+    if inf.any():
+        d = np.where(inf & (unit != 0.0), np.inf, d)
+    return d
+
+
+def first_at(D: np.ndarray, V: np.ndarray, axis: int) -> np.ndarray:
+    """Index along ``axis`` of the first entry of ``D`` equal to ``V`` (``V`` = the max
+    or min of ``D`` over ``axis``): ``np.argmax``/``np.argmin`` over a leading axis
+    without the transposed copy numpy makes for it. Where ``V`` holds a NaN the
+    answer is the first NaN: callers hand those to numpy."""
+    D = np.moveaxis(D, axis, 0)
+    j = np.zeros(V.shape, dtype=np.intp)
+    m = np.empty(V.shape, dtype=bool)
+    for c in range(D.shape[0] - 1, -1, -1):  # the lowest matching index written last
+        np.equal(D[c], V, out=m)
+        np.copyto(j, c, where=m)
+    return j
+
+
+def argmax0(D: np.ndarray, U: np.ndarray) -> np.ndarray:
+    """``np.argmax(D, axis=0)`` given ``U = D.max(axis=0)`` (same index, first maximum;
+    first NaN where a column holds one)."""
+    if D.shape[0] == 1:
+        return np.zeros(U.shape, dtype=np.intp)
+    if np.isnan(U).any():
+        return np.argmax(D, axis=0)
+    return first_at(D, U, 0)
+
+
+def argmin_axis(D: np.ndarray, V: np.ndarray, axis: int) -> np.ndarray:
+    """``np.argmin(D, axis=axis)`` given ``V = D.min(axis=axis)`` (same index, first
+    minimum; first NaN where the reduced line holds one)."""
+    if np.isnan(V).any():
+        return np.argmin(D, axis=axis)
+    return first_at(D, V, axis)
+
+
+@dataclass
+class Check:
+    """One check family over the points: U at the elastic peak, allowed force and the
+    member it governs on; for the calculation trace also the governing candidate's
+    demand per N, existing demand and resistance (None otherwise). ``U_at(F)``: the
+    family's U at another force."""
+
+    name: str
+    U: np.ndarray
+    F_allow: np.ndarray
+    member: np.ndarray
+    unit: np.ndarray | None
+    exist: np.ndarray | None
+    resist: np.ndarray | None
+    U_at: Callable[[np.ndarray], np.ndarray]
+
+
+def small_check(name: str, F: np.ndarray, unit: np.ndarray, exist: np.ndarray | None,
+                resist: np.ndarray, member: np.ndarray, detail: bool = True) -> Check:
+    """A family of a few candidates given as (k, n) arrays (``exist`` None: no existing
+    demand): U = max_c |F·u_c + E_c|/R_c, F_allow = min_c (R_c − sign(u_c)·E_c)/|u_c|.
+    The governing candidate has the largest U (where U is unbounded: the lowest
+    allowed force)."""
+    D = demand(F[None, :], unit, exist)
+    D /= resist
+    U = D.max(axis=0)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        if exist is None:
+            fa = resist / np.abs(unit)
+        else:
+            fa = (resist - np.sign(unit) * exist) / np.abs(unit)
+            fa = np.where(np.abs(exist) > resist, -1.0, fa)
+    fa = np.where(np.isnan(fa), np.inf, fa)
+    F_allow = fa.min(axis=0)
+    if not detail and D.shape[0] == 1:
+        j = np.zeros(U.shape, dtype=np.intp)
+    else:
+        j = argmax0(D, U)
+        unbounded = np.isinf(U)
+        if unbounded.any():
+            j = np.where(unbounded, np.argmin(fa, axis=0), j)
+    cols = np.arange(F.size)
+    shape = D.shape
+
+    def U_at(Fx: np.ndarray) -> np.ndarray:
+        d = demand(Fx[None, :], unit, exist)
+        d /= resist
+        return d.max(axis=0)
+
+    mem = np.broadcast_to(member, shape)[j, cols]
+    if not detail:
+        return Check(name, U, F_allow, mem, None, None, None, U_at)
+    ex = np.zeros(shape) if exist is None else np.broadcast_to(exist, shape)
+    return Check(name, U, F_allow, mem, np.broadcast_to(unit, shape)[j, cols],
+                 ex[j, cols], np.broadcast_to(resist, shape)[j, cols], U_at)
+
+
+class Family:
+    """Load-independent candidates of one check family over n points.
+
+    ``ut`` (C, n): demand per unit force at p divided by the resistance; ``Et`` (C, n):
+    existing demand divided by the resistance; ``src`` (C,): the source of each row,
+    an index into ``members`` (K, n) and ``resist`` (K, n), the member and resistance
+    per point. ``groups``: the rows of each source as consecutive (start, stop) runs in
+    source order, when the rows are laid out so (else None). The allowed force per
+    candidate, ``fa`` = (1 − sign(ut)·Et)/|ut| (∞ where ut = 0, −1 where |Et| > 1), and
+    its minimum ``F_allow`` do not depend on the load; ``gmin`` (K, n) is the minimum
+    per source when ``groups`` is given.
+    """
+
+    def __init__(self, ut: np.ndarray, Et: np.ndarray, members: np.ndarray,
+                 resist: np.ndarray, src: np.ndarray,
+                 groups: tuple[tuple[int, int], ...] | None = None) -> None:
+        self.ut = ut
+        self.Et = Et
+        self.members = members
+        self.resist = resist
+        self.src = np.asarray(src, dtype=np.intp)
+        self.groups = groups
+        self._allowed()
+
+    @classmethod
+    def from_candidates(cls, unit: np.ndarray, exist: np.ndarray, resist: np.ndarray,
+                        member: np.ndarray) -> Family:
+        """A family from plain (C, n) arrays of demand per N, existing demand,
+        resistance and member (one source per row)."""
+        R = np.ascontiguousarray(resist, dtype=float)
+        return cls(np.ascontiguousarray(unit) / R, np.ascontiguousarray(exist) / R,
+                   np.ascontiguousarray(member), R, np.arange(R.shape[0]))
+
+    def _allowed(self) -> None:
+        # (1 − sign(ut)·Et)/|ut| written as (copysign(1, ut) − Et)/ut: the same value
+        # bit for bit (−(1 + Et)/(−|ut|) for ut < 0); ut = ±0 gives ±(1 ∓ Et)/±0 = ∞
+        # while |Et| < 1, and the NaN of |Et| = 1 over ut = 0 is set to ∞ below
+        ut, Et = self.ut, self.Et
+        fa = np.empty_like(ut)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            for c in range(ut.shape[0]):
+                row = fa[c]
+                np.copysign(1.0, ut[c], out=row)
+                row -= Et[c]
+                row /= ut[c]
+        # (a NaN in Et reads as over: the exact test below then runs)
+        over = bool(Et.size) and not (Et.max() <= 1.0 and Et.min() >= -1.0)
+        self.fa = fa
+        self._reduce_fa()
+        if np.isnan(self.F_allow).any():
+            # a NaN unit demand sets no limit (∞); nor does ut = 0 with |Et| = 1
+            np.copyto(fa, np.inf, where=np.isnan(fa) & (np.isnan(ut) | ~np.isnan(Et)))
+            over = True
+        if over:  # the existing demand alone exceeds the resistance
+            np.copyto(fa, -1.0, where=np.abs(Et) > 1.0)
+            self._reduce_fa()
+
+    def _reduce_fa(self) -> None:
+        fa = self.fa
+        if self.groups is None:
+            self.gmin = None
+            self.F_allow = fa.min(axis=0)
+            return
+        self.gmin = np.stack([fa[a:b].min(axis=0) for a, b in self.groups])
+        self.F_allow = self.gmin.min(axis=0)
+
+    # ----------------------------------------------------------------- at a force
+    def _rows_max(self, F: np.ndarray, rows: range, out: np.ndarray,
+                  buf: np.ndarray, inf: np.ndarray | None) -> None:
+        """out = max over ``rows`` of |F·ut + Et| (streamed row by row)."""
+        ut, Et = self.ut, self.Et
+        for i, c in enumerate(rows):
+            dst = out if i == 0 else buf
+            np.multiply(F, ut[c], out=dst)
+            dst += Et[c]
+            np.abs(dst, out=dst)
+            if inf is not None:
+                np.copyto(dst, np.inf, where=inf & (ut[c] != 0.0))
+            if i:
+                np.maximum(out, buf, out=out)
+
+    def U_at(self, F: np.ndarray) -> np.ndarray:
+        """max_c |F·ut_c + Et_c| (∞ where F is unbounded and a candidate takes a share)."""
+        inf = np.isinf(F)
+        has_inf = bool(inf.any())
+        Fm = np.minimum(F, F_HUGE) if has_inf else F
+        out = np.empty(F.shape)
+        self._rows_max(Fm, range(self.ut.shape[0]), out, np.empty(F.shape),
+                       inf if has_inf else None)
+        return out
+
+    def check(self, name: str, F: np.ndarray, detail: bool = True) -> Check:
+        """The family at force F: U, the governing member, and for ``detail`` the
+        governing candidate's demand per N, existing demand and resistance."""
+        n = F.size
+        cols = np.arange(n)
+        inf = np.isinf(F)
+        has_inf = bool(inf.any())
+        Fm = np.minimum(F, F_HUGE) if has_inf else F
+        if self.groups is not None and not detail:
+            # the first row with the largest U lies in the first source with it
+            gmax = np.empty((len(self.groups), n))
+            buf = np.empty(n)
+            for g, (a, b) in enumerate(self.groups):
+                self._rows_max(Fm, range(a, b), gmax[g], buf, inf if has_inf else None)
+            U = gmax.max(axis=0)
+            g = argmax0(gmax, U)
+            unbounded = np.isinf(U)
+            if unbounded.any():
+                g = np.where(unbounded, np.argmin(self.gmin, axis=0), g)
+            return Check(name, U, self.F_allow, self.members[g, cols], None, None, None,
+                         self.U_at)
+        D = demand(F[None, :], self.ut, self.Et)
+        U = D.max(axis=0)
+        j = argmax0(D, U)
+        unbounded = np.isinf(U)
+        if unbounded.any():
+            j = np.where(unbounded, np.argmin(self.fa, axis=0), j)
+        s = self.src[j]
+        member = self.members[s, cols]
+        if not detail:
+            return Check(name, U, self.F_allow, member, None, None, None, self.U_at)
+        R = self.resist[s, cols]
+        return Check(name, U, self.F_allow, member, self.ut[j, cols] * R,
+                     self.Et[j, cols] * R, R, self.U_at)
+
+    def tiled(self, k: int) -> Family:
+        """This family repeated ``k`` times along the points (one copy per load)."""
+        fam = object.__new__(Family)
+        for attr in ("ut", "Et", "members", "resist", "fa"):
+            setattr(fam, attr, np.tile(getattr(self, attr), (1, k)))
+        fam.src = self.src
+        fam.groups = self.groups
+        fam.gmin = None if self.gmin is None else np.tile(self.gmin, (1, k))
+        fam.F_allow = np.tile(self.F_allow, k)
+        return fam
