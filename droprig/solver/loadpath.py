@@ -66,6 +66,7 @@ import numpy as np
 from droprig.model import Level, ModelError
 from droprig.model.project import GEOMETRY_TOL
 from droprig.solver import beam
+from droprig.solver.parallel import for_blocks
 
 COND_NAMES: tuple[str, ...] = ("simple", "fixed", "propped", "cantilever")
 """Order of the integer end-condition codes used in the arrays below."""
@@ -180,22 +181,39 @@ def _tables(cond: str) -> np.ndarray:
                      np.polynomial.chebyshev.chebval(z, c[2]), gm])
 
 
+@cache
+def _cell_tables(cond: str) -> np.ndarray:
+    """The tables of :func:`_tables` by cell, (8, n): rows 2k and 2k + 1 hold table k
+    at the first and the second node of each cell, so that one gather fetches both
+    ends of every table's cell."""
+    t = _tables(cond)
+    out = np.empty((8, _XI.size - 1))
+    for k in range(4):
+        out[2 * k] = t[k][:-1]
+        out[2 * k + 1] = t[k][1:]
+    return out
+
+
 def _mass_tables(cond: str, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray,
                                                      np.ndarray]:
     """The four tables of :func:`_tables` interpolated linearly at ξ (uniform nodes:
     the cell index is computed, not searched); in the first and last cell, where
     they vanish like a power of the distance to the end, by :func:`_end_cells`."""
-    t = _tables(cond)
     n = _XI.size - 1
     z = np.clip(np.asarray(xi, float), 0.0, 1.0) * n
     i = np.minimum(z.astype(np.intp), n - 1)
     w = z - i
+    g = _cell_tables(cond).take(i, axis=1)  # (8, *xi.shape): both nodes of each cell
     out = []
     for k in range(4):
-        lo = t[k][i]
-        out.append(np.asarray(lo + (t[k][i + 1] - lo) * w))
+        lo, hi = g[2 * k], g[2 * k + 1]
+        hi = np.subtract(hi, lo, out=hi if isinstance(hi, np.ndarray) else None)
+        hi *= w
+        hi += lo  # lo + (hi − lo)·w, the interpolation between the cell's nodes
+        out.append(np.asarray(hi))
     end = (i == 0) | (i == n - 1)
     if np.any(end):
+        t = _tables(cond)
         q, lim = _end_cells(cond)
         first = i[end] == 0
         we = w[end]
@@ -659,23 +677,118 @@ class PathResult:
         return self.pair >= 0
 
 
+@dataclass(frozen=True, eq=False)
+class _PointTables:
+    """Per-panel copies of the frame data the point kernel reads, laid out
+    (quantity, panel) so that one ``take`` along the panel axis fetches a block of
+    quantities for every point. Every entry is a copy of a frame value or the same
+    floating-point expression of frame values that the kernel would otherwise
+    evaluate per point, so the results do not change."""
+
+    cond: str | None
+    """The end condition shared by every member (None: mixed; see ``codes``)."""
+    codes: np.ndarray
+    """(2, n_p) end-condition codes of the two deck members of each panel."""
+    members: np.ndarray
+    """(n_p, 2) the two deck members of each panel (row per panel)."""
+    geo: np.ndarray
+    """(10, n_p): c0, strip span, then per deck member (2 rows each) L, vs, vdir, EI."""
+    mass: np.ndarray
+    """(12, n_p) per deck member: μ, L⁴/EI, L⁷/EI², N00, N01 and N11 of ``N_R``."""
+    l3ei: np.ndarray
+    """(2, n_p) per deck member: L³/EI."""
+    d_rows: np.ndarray
+    d_map: tuple[int, ...]
+    """Distinct rows of ``pair_D16`` and the row of each of its 16 entries (the node
+    flexibility matrix is symmetric: 10 of 16 are distinct)."""
+    m_rows: np.ndarray
+    m_map: tuple[int, ...]
+    wmax: np.ndarray
+    """(4, n_p) ``pair_wmax``."""
+    cells: np.ndarray | None
+    """Panel of each cell padded with −1 on every side, flat, (n_u + 2)·(n_v + 2)
+    (None: no deck cells)."""
+
+
+def _distinct_rows(t: np.ndarray) -> tuple[np.ndarray, tuple[int, ...]]:
+    rows: list[np.ndarray] = []
+    where: list[int] = []
+    for r in t:
+        for j, q in enumerate(rows):
+            if np.array_equal(q, r):
+                where.append(j)
+                break
+        else:
+            where.append(len(rows))
+            rows.append(r)
+    return np.array(rows).reshape(len(rows), t.shape[1]), tuple(where)
+
+
+def _point_tables(frame: Frame) -> _PointTables:
+    """The :class:`_PointTables` of ``frame`` (built once, kept on the frame)."""
+    pt = frame.__dict__.get("_point_tables")
+    if pt is not None:
+        return pt
+    pm = frame.pair_members  # (n_p, 2)
+    memT = np.ascontiguousarray(pm.T)
+    L, EI = frame.L, frame.EI
+    l3ei = L**3 / EI
+    NR = frame.N_R16
+    codes = frame.cond[memT]
+    uniform = frame.cond.size > 0 and int(frame.cond.min()) == int(frame.cond.max())
+    geo = np.concatenate([frame.pair_c[:, :1].T, (frame.pair_c[:, 1] - frame.pair_c[:, 0])[None],
+                          L[memT], frame.vs[memT], frame.vdir[memT], EI[memT]])
+    mass = np.concatenate([frame.mu[memT], (L * l3ei)[memT], (L * l3ei**2)[memT],
+                           NR[0][memT], NR[1][memT], NR[3][memT]])
+    d_rows, d_map = _distinct_rows(frame.pair_D16)
+    m_rows, m_map = _distinct_rows(frame.pair_M16)
+    cells = None
+    if frame.u_breaks.size >= 2 and frame.v_breaks.size >= 2:
+        cp = frame.cell_pair
+        pad = -np.ones((cp.shape[0] + 2, cp.shape[1] + 2), dtype=np.int64)
+        pad[1:-1, 1:-1] = cp
+        cells = pad.ravel()
+    pt = _PointTables(
+        cond=COND_NAMES[int(frame.cond[0])] if uniform else None, codes=codes,
+        members=np.ascontiguousarray(pm), geo=np.ascontiguousarray(geo),
+        mass=np.ascontiguousarray(mass), l3ei=np.ascontiguousarray(l3ei[memT]),
+        d_rows=d_rows, d_map=d_map, m_rows=m_rows, m_map=m_map,
+        wmax=np.ascontiguousarray(frame.pair_wmax), cells=cells)
+    object.__setattr__(frame, "_point_tables", pt)  # a cache: the frame is immutable
+    return pt
+
+
 def locate(frame: Frame, x: np.ndarray, y: np.ndarray) -> np.ndarray:
     """Panel index of each point (−1 outside every deck panel)."""
     x = np.asarray(x, float)
     y = np.asarray(y, float)
+    shape = np.broadcast_shapes(x.shape, y.shape)
+    pt = _point_tables(frame)
+    if pt.cells is None:
+        return -np.ones(shape, dtype=np.int64)
     u, v = (y, x) if frame.deck_axis == "x" else (x, y)
     ub, vb = frame.u_breaks, frame.v_breaks
-    if ub.size < 2 or vb.size < 2:
-        return -np.ones(x.shape, dtype=np.int64)
-    iu = np.searchsorted(ub, u, side="right") - 1
-    iv = np.searchsorted(vb, v, side="right") - 1
-    # points exactly on the last break belong to the last cell
-    iu = np.where(np.abs(u - ub[-1]) <= GEOMETRY_TOL, ub.size - 2, iu)
-    iv = np.where(np.abs(v - vb[-1]) <= GEOMETRY_TOL, vb.size - 2, iv)
-    inside = (iu >= 0) & (iu < ub.size - 1) & (iv >= 0) & (iv < vb.size - 1)
-    out = -np.ones(x.shape, dtype=np.int64)
-    out[inside] = frame.cell_pair[iu[inside], iv[inside]]
-    return out
+    u = np.broadcast_to(u, shape).reshape(-1)
+    v = np.broadcast_to(v, shape).reshape(-1)
+    # cell index + 1 along each axis: 0 before the first break, size − 1 beyond the
+    # last; points exactly on the last break belong to the last cell
+    iu = np.searchsorted(ub, u, side="right")
+    iv = np.searchsorted(vb, v, side="right")
+    iu[np.abs(u - ub[-1]) <= GEOMETRY_TOL] = ub.size - 1
+    iv[np.abs(v - vb[-1]) <= GEOMETRY_TOL] = vb.size - 1
+    iu *= vb.size + 1
+    iu += iv
+    return pt.cells.take(iu).reshape(shape)
+
+
+_FILL: dict[str, tuple[tuple[int, ...], type, float]] = {
+    "members": ((2,), np.int64, -1), "share": ((2,), float, 0.0), "a": ((2,), float, 0.0),
+    "strip_span": ((), float, np.nan), "strip_pos": ((), float, np.nan),
+    "r": ((4,), float, 0.0), "u": ((4,), float, 0.0), "f": ((), float, np.nan),
+    "m_e": ((), float, np.nan), "g_own": ((2,), float, 0.0), "w_ref": ((), float, np.nan),
+}
+"""Shape per point, dtype and value off the deck panels of each :class:`PathResult`
+array."""
 
 
 def evaluate(frame: Frame, x: Iterable[float] | np.ndarray,
@@ -683,87 +796,177 @@ def evaluate(frame: Frame, x: Iterable[float] | np.ndarray,
     """Load path, compliance f(p) (m/N) and effective mass m_e(p) (kg) at each point.
 
     Formulas in the module docstring. Points outside every deck panel get
-    ``pair = −1`` and nan for f and m_e.
+    ``pair = −1`` and nan for f and m_e. Blocks of :data:`CHUNK` points run on
+    several threads (:func:`droprig.solver.parallel.for_blocks`); every point is
+    computed by the same operations whatever its block, so the results do not
+    depend on the number of threads.
     """
     x = np.atleast_1d(np.asarray(x, float))
     y = np.atleast_1d(np.asarray(y, float))
     n = x.size
-    pair = locate(frame, x, y)
-    out = {
-        "members": -np.ones((n, 2), dtype=np.int64), "share": np.zeros((n, 2)),
-        "a": np.zeros((n, 2)), "strip_span": np.full(n, np.nan),
-        "strip_pos": np.full(n, np.nan), "r": np.zeros((n, 4)), "u": np.zeros((n, 4)),
-        "f": np.full(n, np.nan), "m_e": np.full(n, np.nan), "g_own": np.zeros((n, 2)),
-        "w_ref": np.full(n, np.nan),
-    }
-    idx = np.flatnonzero(pair >= 0)
-    for s in range(0, idx.size, CHUNK):
-        sel = idx[s:s + CHUNK]
-        if sel[-1] - sel[0] == sel.size - 1:  # a run of points: slices, no gathers
-            sel = slice(int(sel[0]), int(sel[-1]) + 1)
-        res = _evaluate_supported(frame, x[sel], y[sel], pair[sel], with_mass)
-        for k, v in res.items():
-            out[k][sel] = v
+    pt = _point_tables(frame)
+    pair = np.empty(n, dtype=np.int64)
+    out = {k: np.empty((n, *sh), dtype=dt) for k, (sh, dt, _) in _FILL.items()}
+
+    def block(s: int, e: int) -> None:
+        p = locate(frame, x[s:e], y[s:e])
+        pair[s:e] = p
+        idx = np.flatnonzero(p >= 0)
+        if idx.size < e - s:
+            for k, (_, _, fill) in _FILL.items():
+                out[k][s:e] = fill
+            if idx.size == 0:
+                return
+        if idx.size == e - s:
+            sel: slice | np.ndarray = slice(s, e)
+        elif idx[-1] - idx[0] == idx.size - 1:  # a run of points: slices, no gathers
+            sel = slice(s + int(idx[0]), s + int(idx[-1]) + 1)
+            p = p[idx[0]:idx[-1] + 1]
+        else:
+            sel = idx + s
+            p = p[idx]
+        _evaluate_supported(frame, pt, x[sel], y[sel], p, with_mass, out, sel)
+
+    for_blocks(block, n, CHUNK)
     return PathResult(pair=pair, **out)
 
 
-def _evaluate_supported(frame: Frame, x: np.ndarray, y: np.ndarray, pair: np.ndarray,
-                        with_mass: bool) -> dict[str, np.ndarray]:
-    """Kernel of :func:`evaluate` for points over a deck panel. Arrays are laid out
-    component-first, (k, n), so every operation runs over contiguous memory."""
+def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.ndarray,
+                        pair: np.ndarray, with_mass: bool, out: dict[str, np.ndarray],
+                        sel: slice | np.ndarray) -> None:
+    """Kernel of :func:`evaluate` for points over a deck panel; writes rows ``sel``
+    of ``out``. Arrays are laid out component-first, (k, n), so every operation runs
+    over contiguous memory; sums run in the order of the formulas in the comments
+    (floating-point addition is not associative: the order is part of the result)."""
     u, v = (y, x) if frame.deck_axis == "x" else (x, y)
-    memT = frame.pair_members.T[:, pair]  # (2, n)
-    c0 = frame.pair_c[pair, 0]
-    span = frame.pair_c[pair, 1] - c0
-    pos = np.clip(u - c0, 0.0, span)
-    t = pos / span  # span > 0: the two members of a panel are distinct lines
-    share = np.stack([1.0 - t, t])
-    L = frame.L[memT]
-    a = np.clip((v - frame.vs[memT]) * frame.vdir[memT], 0.0, L)
-    cond = frame.cond[memT]
-    EI = frame.EI[memT]
-    g_aa = by_condition(beam.green, cond, L, EI, a, a)
-    R0, RL = by_condition(beam.unit_reactions, cond, L, a)
-    r = np.stack([share[0] * R0[0], share[0] * RL[0], share[1] * R0[1], share[1] * RL[1]])
-    Dl = frame.pair_D16[:, pair]  # (16, n)
-    un = np.empty_like(r)
+    n = pair.size
+    out["members"][sel] = pt.members.take(pair, axis=0)
+    G = pt.geo.take(pair, axis=1)
+    c0, span = G[0], G[1]
+    L, vs, vdir, EI = G[2:4], G[4:6], G[6:8], G[8:10]
+    # pos = clip(u − c0, 0, span)
+    pos = np.subtract(u, c0)
+    np.maximum(pos, 0.0, out=pos)
+    np.minimum(pos, span, out=pos)
+    share = np.empty((2, n))  # lever rule: 1 − t, t
+    np.divide(pos, span, out=share[1])  # span > 0: distinct member lines
+    np.subtract(1.0, share[1], out=share[0])
+    # a = clip((v − vs)·vdir, 0, L)
+    a = np.subtract(v, vs)
+    a *= vdir
+    np.maximum(a, 0.0, out=a)
+    np.minimum(a, L, out=a)
+    if pt.cond is not None:
+        g_aa = beam.green(pt.cond, L, EI, a, a)
+        R0, RL = beam.unit_reactions(pt.cond, L, a)
+    else:
+        cond = pt.codes.take(pair, axis=1)
+        g_aa = by_condition(beam.green, cond, L, EI, a, a)
+        R0, RL = by_condition(beam.unit_reactions, cond, L, a)
+    r = np.empty((4, n))
+    np.multiply(share[0], R0[0], out=r[0])
+    np.multiply(share[0], RL[0], out=r[1])
+    np.multiply(share[1], R0[1], out=r[2])
+    np.multiply(share[1], RL[1], out=r[3])
+    tmp = np.empty(n)
+
+    def quad4(rows: np.ndarray, where: tuple[int, ...], i: int, dst: np.ndarray) -> None:
+        """dst = ((A_i0·r0 + A_i1·r1) + A_i2·r2) + A_i3·r3"""
+        np.multiply(rows[where[4 * i]], r[0], out=dst)
+        for j in (1, 2, 3):
+            np.multiply(rows[where[4 * i + j]], r[j], out=tmp)
+            dst += tmp
+
+    Dl = pt.d_rows.take(pair, axis=1)
+    un = np.empty((4, n))
     for i in range(4):
-        un[i] = Dl[4 * i] * r[0] + Dl[4 * i + 1] * r[1] + Dl[4 * i + 2] * r[2] \
-            + Dl[4 * i + 3] * r[3]
-    gs = share * g_aa
-    f = share[0] * gs[0] + share[1] * gs[1] + (r * un).sum(axis=0)
-    res = {"members": memT.T, "share": share.T, "a": a.T, "strip_span": span,
-           "strip_pos": pos, "r": r.T, "u": un.T, "f": f, "g_own": gs.T}
+        quad4(Dl, pt.d_map, i, un[i])
+    del Dl
+    gs = np.multiply(share, g_aa, out=g_aa)  # g_own
+    # f = (w0·g0 + w1·g1) + (((r0·u0 + r1·u1) + r2·u2) + r3·u3)
+    f = np.multiply(share[0], gs[0])
+    np.multiply(share[1], gs[1], out=tmp)
+    f += tmp
+    ru = np.multiply(r[0], un[0])
+    for j in (1, 2, 3):
+        np.multiply(r[j], un[j], out=tmp)
+        ru += tmp
+    f += ru
+    for key, val in (("share", share), ("a", a), ("strip_span", span), ("strip_pos", pos),
+                     ("r", r), ("u", un), ("f", f), ("g_own", gs)):
+        _put(out[key], sel, val)
     if not with_mass:
-        return res
+        return
     # Rayleigh mass: deck members by the exact integrals (tabulated on a/L), support
     # members by the precomputed quadratic form pair_M
-    xi = a / L
-    I_gg, J0, J1, Gmax = by_condition(_mass_tables, cond, xi)
-    L3EI = L**3 / EI
-    I_gg *= L * L3EI**2
-    J0 *= L * L3EI
-    J1 *= L * L3EI
-    mu = frame.mu[memT]
+    xi = np.divide(a, L, out=a)  # a is not needed any more
+    if pt.cond is not None:
+        I_gg, J0, J1, Gmax = _mass_tables(pt.cond, xi)
+    else:
+        I_gg, J0, J1, Gmax = by_condition(_mass_tables, cond, xi)
+    M = pt.mass.take(pair, axis=1)
+    mu, L4EI, L7EI2 = M[0:2], M[2:4], M[4:6]
+    N00, N01, N11 = M[6:8], M[8:10], M[10:12]
+    I_gg *= L7EI2  # L·(L³/EI)²
+    J0 *= L4EI  # L·(L³/EI)
+    J1 *= L4EI
     ue0, ue1 = un[0::2], un[1::2]  # node deflections at each deck member's two ends
-    NR = frame.N_R16[:, memT]  # (4, 2, n): N00, N01, N10, N11 (already × μ)
-    kin = (mu * (share * share * I_gg + 2.0 * share * (ue0 * J0 + ue1 * J1))
-           + ue0 * ue0 * NR[0] + 2.0 * ue0 * ue1 * NR[1] + ue1 * ue1 * NR[3]).sum(axis=0)
-    Ml = frame.pair_M16[:, pair]
-    for i in range(4):
-        kin += r[i] * (Ml[4 * i] * r[0] + Ml[4 * i + 1] * r[1] + Ml[4 * i + 2] * r[2]
-                       + Ml[4 * i + 3] * r[3])
+    # per deck member: ((μ·(w²·I_gg + 2w·(ue0·J0 + ue1·J1)) + ue0²·N00)
+    #                   + 2·ue0·ue1·N01) + ue1²·N11
+    A = np.multiply(share, share)
+    A *= I_gg
+    B = np.multiply(ue0, J0, out=J0)
+    B += np.multiply(ue1, J1, out=J1)
+    C = np.multiply(2.0, share)
+    C *= B
+    A += C
+    A *= mu
+    np.multiply(ue0, ue0, out=C)
+    C *= N00
+    A += C
+    np.multiply(2.0, ue0, out=C)
+    C *= ue1
+    C *= N01
+    A += C
+    np.multiply(ue1, ue1, out=C)
+    C *= N11
+    A += C
+    kin = np.add(A[0], A[1])
+    Ml = pt.m_rows.take(pair, axis=1)
+    q = np.empty(n)
+    for i in range(4):  # kin += r_i·(M r)_i
+        quad4(Ml, pt.m_map, i, q)
+        q *= r[i]
+        kin += q
+    del Ml
     # normalising deflection: the larger of w(p) and an upper bound of the largest
     # deflection along the path (own bending maximum + largest end movement for the
     # deck members; Σ_i r_i·max_s W_s,i for the support members, W ≥ 0)
-    w_deck = share * Gmax * L3EI + np.maximum(np.abs(ue0), np.abs(ue1))
-    w_sup = (frame.pair_wmax[:, pair] * r).sum(axis=0)
+    w_deck = np.multiply(share, Gmax, out=Gmax)
+    w_deck *= pt.l3ei.take(pair, axis=1)
+    w_deck += np.maximum(np.abs(ue0), np.abs(ue1))
+    W = pt.wmax.take(pair, axis=1)
+    w_sup = np.multiply(W[0], r[0])
+    for j in (1, 2, 3):
+        np.multiply(W[j], r[j], out=tmp)
+        w_sup += tmp
     w_ref = np.maximum(np.maximum(f, w_sup), np.maximum(w_deck[0], w_deck[1]))
+    m_e = np.zeros(n)
     with np.errstate(divide="ignore", invalid="ignore"):
-        m_e = np.where(w_ref > 0.0, kin / np.where(w_ref > 0.0, w_ref, 1.0) ** 2, 0.0)
-    res["m_e"] = m_e
-    res["w_ref"] = w_ref
-    return res
+        np.divide(kin, np.square(w_ref), out=m_e, where=w_ref > 0.0)
+    _put(out["m_e"], sel, m_e)
+    _put(out["w_ref"], sel, w_ref)
+
+
+def _put(dst: np.ndarray, sel: slice | np.ndarray, val: np.ndarray) -> None:
+    """dst[sel] = val.T for a (k, n) ``val`` (one component at a time: a strided
+    copy of each is much faster than one transposing copy), dst[sel] = val for (n,)."""
+    if val.ndim == 1:
+        dst[sel] = val
+        return
+    dT = dst.T
+    for j in range(val.shape[0]):
+        dT[j][sel] = val[j]
 
 
 def deflected_shape(frame: Frame, path: PathResult, i: int, member: int,
