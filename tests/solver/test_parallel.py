@@ -1,0 +1,78 @@
+"""Blocks of drop points on several threads, and the allocator setting: results must
+not depend on either (properties of the implementation, no engineering source)."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from droprig.io.project_file import load_project
+from droprig.solver import analysis, loadpath, memory, parallel
+
+ROOT = Path(__file__).resolve().parents[2]
+
+
+def test_blocks_cover_the_range_once_and_keep_errstate():
+    seen = np.zeros(1000, dtype=int)
+    out = np.empty(1000)
+
+    def fn(s: int, e: int) -> None:
+        seen[s:e] += 1
+        out[s:e] = np.log(np.zeros(e - s))  # would warn (an error under pytest) outside
+
+    with np.errstate(divide="ignore"):
+        parallel.for_blocks(fn, 1000, 64)
+    assert np.all(seen == 1)
+    assert np.all(out == -np.inf)
+
+
+def test_an_error_in_a_block_reaches_the_caller():
+    def fn(s: int, e: int) -> None:
+        if s >= 500:
+            raise ValueError("block failed")
+
+    with pytest.raises(ValueError, match="block failed"):
+        parallel.for_blocks(fn, 1000, 50)
+
+
+def test_thread_count_from_the_environment(monkeypatch):
+    monkeypatch.setenv("DROPRIG_THREADS", "1")
+    assert parallel.workers() == 1
+    monkeypatch.setenv("DROPRIG_THREADS", "3")
+    assert parallel.workers() == 3
+    monkeypatch.setenv("DROPRIG_THREADS", "many")
+    assert 1 <= parallel.workers() <= 8
+
+
+@pytest.mark.parametrize("name", ["rooftop_plant_swap", "steel_erection_floor"])
+def test_results_do_not_depend_on_threads_or_block_size(monkeypatch, name):
+    project = load_project(ROOT / "demo_projects" / f"{name}.droprig")
+    zone = project.lift_zones[0]
+    fm = analysis.build_floor(project.level(zone.level_id), project.settings)
+    ext = fm.level.grid.extent
+    rng = np.random.default_rng(11)
+    x = rng.uniform(ext.x0, ext.x1, 6000)
+    y = rng.uniform(ext.y0, ext.y1, 6000)
+    li = rng.integers(0, len(zone.loads), x.size)
+
+    def run(threads: str, block: int) -> dict[str, np.ndarray]:
+        monkeypatch.setenv("DROPRIG_THREADS", threads)
+        monkeypatch.setattr(loadpath, "CHUNK", block)
+        geo = analysis.point_geometry(fm, project, x, y)
+        return analysis.evaluate_case(fm, project, list(zone.loads), geo, li)
+
+    ref = run("1", 1 << 14)  # one block
+    for threads, block in (("1", 700), ("2", 700), ("4", 512)):
+        got = run(threads, block)
+        for k, v in ref.items():
+            np.testing.assert_array_equal(got[k], v, err_msg=f"{k} {threads} {block}")
+
+
+def test_allocator_setting_is_idempotent_and_harmless():
+    first = memory.keep_freed_memory()
+    assert memory.keep_freed_memory() is first
+    memory.release_memory()
+    a = np.ones(1 << 20)
+    assert a.sum() == float(1 << 20)
