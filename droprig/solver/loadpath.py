@@ -57,9 +57,11 @@ Everything that does not depend on p is precomputed once per level
 
 from __future__ import annotations
 
-from collections.abc import Iterable
+import threading
+from collections.abc import Callable, Hashable, Iterable
 from dataclasses import dataclass, field
 from functools import cache
+from typing import TypeVar
 
 import numpy as np
 
@@ -67,6 +69,8 @@ from droprig.model import Level, ModelError
 from droprig.model.project import GEOMETRY_TOL
 from droprig.solver import beam
 from droprig.solver.parallel import for_blocks
+
+T = TypeVar("T")
 
 COND_NAMES: tuple[str, ...] = ("simple", "fixed", "propped", "cantilever")
 """Order of the integer end-condition codes used in the arrays below."""
@@ -335,6 +339,10 @@ class Frame:
     pair_wmax: np.ndarray
     N_R16: np.ndarray
     warnings: tuple[str, ...] = field(default=())
+    memo: dict = field(default_factory=dict, repr=False)
+    """Point-independent tables derived from this frame, built on first use and kept
+    with it (the frame is immutable, so they never go stale): see
+    :func:`frame_memo`."""
 
     @property
     def n_members(self) -> int:
@@ -347,6 +355,38 @@ class Frame:
     @property
     def n_pairs(self) -> int:
         return int(self.pair_members.shape[0])
+
+
+MEMO_MAX = 32
+"""Entries kept in a frame's :attr:`Frame.memo` (the oldest tuple key is dropped
+first)."""
+
+_MEMO_LOCK = threading.Lock()
+
+
+def frame_memo(frame: Frame, key: Hashable, make: Callable[[], T]) -> T:
+    """``make()``, remembered in ``frame.memo`` under ``key`` (built once per frame
+    and key; a key that cannot be hashed is not remembered). ``key`` must name
+    everything besides the frame that the value depends on."""
+    memo = frame.memo
+    try:
+        return memo[key]
+    except KeyError:
+        pass
+    except TypeError:  # unhashable key
+        return make()
+    value = make()
+    with _MEMO_LOCK:
+        if key not in memo:
+            # drop the oldest tuple keys (per zone, step, …); the few per-frame
+            # tables under plain names stay
+            while len(memo) >= MEMO_MAX:
+                old = next((k for k in memo if isinstance(k, tuple)), None)
+                if old is None:
+                    break
+                del memo[old]
+            memo[key] = value
+    return memo.get(key, value)
 
 
 # --------------------------------------------------------------------------- build
@@ -726,9 +766,10 @@ def _distinct_rows(t: np.ndarray) -> tuple[np.ndarray, tuple[int, ...]]:
 
 def _point_tables(frame: Frame) -> _PointTables:
     """The :class:`_PointTables` of ``frame`` (built once, kept on the frame)."""
-    pt = frame.__dict__.get("_point_tables")
-    if pt is not None:
-        return pt
+    return frame_memo(frame, "point_tables", lambda: _build_point_tables(frame))
+
+
+def _build_point_tables(frame: Frame) -> _PointTables:
     pm = frame.pair_members  # (n_p, 2)
     memT = np.ascontiguousarray(pm.T)
     L, EI = frame.L, frame.EI
@@ -754,7 +795,6 @@ def _point_tables(frame: Frame) -> _PointTables:
         mass=np.ascontiguousarray(mass), l3ei=np.ascontiguousarray(l3ei[memT]),
         d_rows=d_rows, d_map=d_map, m_rows=m_rows, m_map=m_map,
         wmax=np.ascontiguousarray(frame.pair_wmax), cells=cells)
-    object.__setattr__(frame, "_point_tables", pt)  # a cache: the frame is immutable
     return pt
 
 
@@ -1029,6 +1069,7 @@ __all__ = [
     "by_condition",
     "deflected_shape",
     "evaluate",
+    "frame_memo",
     "locate",
     "path_members",
     "tributary_widths",
