@@ -23,11 +23,14 @@ Points inside a deck opening are kept: the load falls through (response
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
+from functools import lru_cache
 
 import numpy as np
 
 from droprig.model import Level, LiftZone
-from droprig.solver.loadpath import Frame, locate
+from droprig.solver.loadpath import Frame, frame_memo, locate
+from droprig.solver.parallel import for_blocks
 
 __all__ = [
     "base_points",
@@ -43,6 +46,9 @@ __all__ = [
 
 EDGE_TOL = 1e-7
 """Points this close (m) outside the zone or a bay still count as inside."""
+
+BLOCK = 1 << 15
+"""Points per block of the plan tests on many points (run on several threads)."""
 
 
 def _seg_dist(px: np.ndarray, py: np.ndarray, ax: float, ay: float, bx: float,
@@ -80,7 +86,91 @@ def sector_distance(zone: LiftZone, x: np.ndarray, y: np.ndarray) -> np.ndarray:
 
 def polygon_distance(poly: tuple[tuple[float, float], ...], x: np.ndarray,
                      y: np.ndarray) -> np.ndarray:
-    """Distance (m) from each point to a simple polygon (0 inside; even–odd rule)."""
+    """Distance (m) from each point to a simple polygon (0 inside; even–odd rule).
+
+    Every edge at once, laid out (edge, point); each distance and crossing is the
+    same floating-point expression as for one edge at a time (:func:`_seg_dist`)."""
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    if x.ndim != 1 or x.shape != y.shape or not poly:
+        return _polygon_distance_by_edge(poly, x, y)
+    e = _edges(tuple((float(px), float(py)) for px, py in poly))
+    out = np.empty(x.shape)
+
+    def block(s: int, t: int) -> None:
+        px, py = x[s:t], y[s:t]
+        out[s:t] = np.where(_inside(e, px, py), 0.0, _edge_distance(e, px, py))
+
+    for_blocks(block, x.size, max(256, (1 << 17) // len(poly)))
+    return out
+
+
+@dataclass(frozen=True)
+class _Edges:
+    """Edges of a polygon as (n, 1) columns: start a, end b, d = b − a, |d|² (1 for a
+    zero-length edge, flagged in ``degenerate``), sx = bx − ax, sy = by − ay."""
+
+    ax: np.ndarray
+    ay: np.ndarray
+    by: np.ndarray
+    dx: np.ndarray
+    dy: np.ndarray
+    ll: np.ndarray
+    sx: np.ndarray
+    sy: np.ndarray
+    degenerate: np.ndarray | None
+
+
+@lru_cache(maxsize=64)
+def _edges(poly: tuple[tuple[float, float], ...]) -> _Edges:
+    p = np.array(poly, dtype=float).reshape(-1, 2)
+    ax, ay = p[:, 0], p[:, 1]
+    bx, by = np.roll(ax, -1), np.roll(ay, -1)
+    dx, dy = bx - ax, by - ay
+    ll = dx * dx + dy * dy
+    deg = ll <= 0.0
+    col = lambda v: np.ascontiguousarray(v, dtype=float).reshape(-1, 1)  # noqa: E731
+    return _Edges(col(ax), col(ay), col(by), col(dx), col(dy), col(np.where(deg, 1.0, ll)),
+                  col(dx), col(dy), deg if deg.any() else None)
+
+
+def _edge_distance(e: _Edges, px: np.ndarray, py: np.ndarray) -> np.ndarray:
+    """Distance from each point to the nearest edge (the boundary), :func:`_seg_dist`
+    for every edge at once."""
+    ex = np.subtract(px, e.ax)  # (edge, point)
+    ey = np.subtract(py, e.ay)
+    # nearest point of each edge: t = clip(((p − a)·d)/|d|², 0, 1)
+    tt = np.multiply(ex, e.dx)
+    tt += np.multiply(ey, e.dy, out=ex)
+    tt /= e.ll
+    np.clip(tt, 0.0, 1.0, out=tt)
+    if e.degenerate is not None:
+        tt[e.degenerate] = 0.0  # a zero-length edge: its point a
+    qx = np.multiply(tt, e.dx, out=ex)
+    qx += e.ax
+    np.subtract(px, qx, out=qx)
+    qy = np.multiply(tt, e.dy, out=tt)
+    qy += e.ay
+    np.subtract(py, qy, out=qy)
+    return np.hypot(qx, qy, out=qx).min(axis=0)
+
+
+def _inside(e: _Edges, px: np.ndarray, py: np.ndarray) -> np.ndarray:
+    """Even–odd rule: an odd number of edges cross the horizontal line through p,
+    right of p."""
+    cross = np.greater(e.ay, py)
+    cross ^= np.greater(e.by, py)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        xint = np.subtract(py, e.ay)
+        xint *= e.sx
+        xint /= e.sy
+        xint += e.ax
+    cross &= np.less(px, xint)
+    return np.logical_xor.reduce(cross, axis=0)
+
+
+def _polygon_distance_by_edge(poly: tuple[tuple[float, float], ...], x: np.ndarray,
+                              y: np.ndarray) -> np.ndarray:
     inside = np.zeros(x.shape, dtype=bool)
     d = np.full(x.shape, np.inf)
     n = len(poly)
@@ -196,16 +286,58 @@ def project_into_zone(zone: LiftZone, x: np.ndarray, y: np.ndarray,
 
 
 def in_zone(zone: LiftZone, x: np.ndarray, y: np.ndarray) -> np.ndarray:
-    """True where the point lies in the zone widened by its drift margin."""
-    return zone_distance(zone, np.asarray(x, float), np.asarray(y, float)) \
-        <= zone.drift_margin + EDGE_TOL
+    """True where the point lies in the zone widened by its drift margin.
+
+    :func:`zone_distance` ≤ margin, evaluated as sector distance ≤ margin and (where
+    that holds) corridor distance ≤ margin: the same test, as max(a, b) ≤ c exactly
+    when a ≤ c and b ≤ c (a nan fails both forms)."""
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    lim = zone.drift_margin + EDGE_TOL
+    ok = sector_distance(zone, x, y) <= lim
+    if not zone.corridor:
+        return ok
+    if ok.ndim != 1 or x.shape != y.shape:
+        return ok & (polygon_distance(zone.corridor, x, y) <= lim)
+    # corridor distance ≤ margin: 0 inside the polygon, else the distance to its edges
+    idx = np.flatnonzero(ok)
+    e = _edges(tuple((float(px), float(py)) for px, py in zone.corridor))
+
+    def block(s: int, t: int) -> None:
+        sub = idx[s:t]
+        px, py = x[sub], y[sub]
+        res = np.full(sub.size, 0.0 <= lim)
+        out = np.flatnonzero(~_inside(e, px, py))
+        res[out] = _edge_distance(e, px[out], py[out]) <= lim
+        ok[sub] = res
+
+    for_blocks(block, idx.size, max(256, (1 << 17) // len(zone.corridor)))
+    return ok
 
 
 def in_openings(level: Level, x: np.ndarray, y: np.ndarray) -> np.ndarray:
     """True where the point lies inside a deck opening (edges included)."""
     out = np.zeros(np.shape(x), dtype=bool)
-    for r in level.deck.openings:
-        out |= (x >= r.x0) & (x <= r.x1) & (y >= r.y0) & (y <= r.y1)
+    if not level.deck.openings:
+        return out
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    if out.ndim != 1 or x.shape != y.shape:
+        for r in level.deck.openings:
+            out |= (x >= r.x0) & (x <= r.x1) & (y >= r.y0) & (y <= r.y1)
+        return out
+
+    def block(s: int, e: int) -> None:
+        xb, yb, ob = x[s:e], y[s:e], out[s:e]
+        t = np.empty(e - s, dtype=bool)
+        for r in level.deck.openings:
+            ins = np.greater_equal(xb, r.x0)
+            ins &= np.less_equal(xb, r.x1, out=t)
+            ins &= np.greater_equal(yb, r.y0, out=t)
+            ins &= np.less_equal(yb, r.y1, out=t)
+            ob |= ins
+
+    for_blocks(block, out.size, BLOCK)
     return out
 
 
@@ -213,11 +345,38 @@ def bay_index(level: Level, x: np.ndarray, y: np.ndarray) -> np.ndarray:
     """Index into ``droprig.model.bays(level)`` (y outer, x inner); −1 outside."""
     g = level.grid
     xl, yl = np.asarray(g.x_lines), np.asarray(g.y_lines)
-    i = np.clip(np.searchsorted(xl, x, side="right") - 1, 0, xl.size - 2)
-    j = np.clip(np.searchsorted(yl, y, side="right") - 1, 0, yl.size - 2)
-    inside = (x >= xl[0] - EDGE_TOL) & (x <= xl[-1] + EDGE_TOL) & \
-        (y >= yl[0] - EDGE_TOL) & (y <= yl[-1] + EDGE_TOL)
-    return np.where(inside, j * (xl.size - 1) + i, -1)
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    if x.ndim != 1 or x.shape != y.shape:
+        i = np.clip(np.searchsorted(xl, x, side="right") - 1, 0, xl.size - 2)
+        j = np.clip(np.searchsorted(yl, y, side="right") - 1, 0, yl.size - 2)
+        inside = (x >= xl[0] - EDGE_TOL) & (x <= xl[-1] + EDGE_TOL) & \
+            (y >= yl[0] - EDGE_TOL) & (y <= yl[-1] + EDGE_TOL)
+        return np.where(inside, j * (xl.size - 1) + i, -1)
+    out = np.empty(x.shape, dtype=np.intp)
+    x_lo, x_hi = xl[0] - EDGE_TOL, xl[-1] + EDGE_TOL
+    y_lo, y_hi = yl[0] - EDGE_TOL, yl[-1] + EDGE_TOL
+
+    def block(s: int, e: int) -> None:
+        xb, yb = x[s:e], y[s:e]
+        i = np.searchsorted(xl, xb, side="right")
+        i -= 1
+        np.clip(i, 0, xl.size - 2, out=i)
+        j = np.searchsorted(yl, yb, side="right")
+        j -= 1
+        np.clip(j, 0, yl.size - 2, out=j)
+        j *= xl.size - 1
+        j += i
+        t = np.empty(e - s, dtype=bool)
+        inside = np.greater_equal(xb, x_lo)
+        inside &= np.less_equal(xb, x_hi, out=t)
+        inside &= np.greater_equal(yb, y_lo, out=t)
+        inside &= np.less_equal(yb, y_hi, out=t)
+        j[~inside] = -1
+        out[s:e] = j
+
+    for_blocks(block, x.size, BLOCK)
+    return out
 
 
 def in_bay_rect(level: Level, bay: int, x: np.ndarray, y: np.ndarray) -> np.ndarray:
@@ -252,7 +411,18 @@ def _samples(lo: float, hi: float, step: float) -> np.ndarray:
 def line_points(frame: Frame, step: float) -> tuple[np.ndarray, np.ndarray]:
     """Points along every member line, along each deck mid-strip, at member
     midspans, at d/2, d and the ends of every member (web checks near supports)
-    and at every column, m."""
+    and at every column, m. Built once per frame and step (read-only arrays)."""
+    return frame_memo(frame, ("line_points", float(step)),
+                      lambda: _frozen(*_line_points(frame, step)))
+
+
+def _frozen(*arrays: np.ndarray) -> tuple[np.ndarray, ...]:
+    for a in arrays:
+        a.setflags(write=False)
+    return arrays
+
+
+def _line_points(frame: Frame, step: float) -> tuple[np.ndarray, np.ndarray]:
     level = frame.level
     xs: list[np.ndarray] = []
     ys: list[np.ndarray] = []
@@ -344,7 +514,15 @@ def base_points(frame: Frame, zone: LiftZone, resolution: float) -> tuple[np.nda
                                                                          np.ndarray]:
     """Grid plus governing points of ``zone`` over ``frame``'s deck (see module
     docstring), deduplicated to 1e-6 m. Points outside every deck panel and
-    outside the zone are dropped, except points in openings which are kept."""
+    outside the zone are dropped, except points in openings which are kept.
+    Remembered per frame, zone and resolution (the caller gets its own copies)."""
+    x, y = frame_memo(frame, ("base_points", zone, float(resolution)),
+                      lambda: _frozen(*_base_points(frame, zone, resolution)))
+    return x.copy(), y.copy()
+
+
+def _base_points(frame: Frame, zone: LiftZone, resolution: float) -> tuple[np.ndarray,
+                                                                          np.ndarray]:
     level = frame.level
     ext = level.grid.extent
     bx0, by0, bx1, by1 = _zone_bbox(zone)
@@ -368,23 +546,31 @@ def base_points(frame: Frame, zone: LiftZone, resolution: float) -> tuple[np.nda
     parts_y.append(zy)
     x = np.concatenate(parts_x)
     y = np.concatenate(parts_y)
-    keep = in_zone(zone, x, y) & (locate(frame, x, y) >= 0)
-    x, y = x[keep], y[keep]
-    return dedupe(x, y)
+    # over a deck panel, then in the zone (the zone test on those points only)
+    idx = np.flatnonzero(locate(frame, x, y) >= 0)
+    x, y = x[idx], y[idx]
+    keep = in_zone(zone, x, y)
+    return dedupe(x[keep], y[keep])
 
 
 def reaches_off_deck(frame: Frame, zone: LiftZone, resolution: float) -> bool:
     """True when part of the widened zone lies beyond the deck panels of the level
     (sampled on a grid of ``resolution``, or coarser for a large zone — at most about
-    150 × 150 samples): drops there are not assessed here."""
+    150 × 150 samples): drops there are not assessed here. Remembered per frame,
+    zone and resolution."""
+    return frame_memo(frame, ("reaches_off_deck", zone, float(resolution)),
+                      lambda: _reaches_off_deck(frame, zone, resolution))
+
+
+def _reaches_off_deck(frame: Frame, zone: LiftZone, resolution: float) -> bool:
     bx0, by0, bx1, by1 = _zone_bbox(zone)
     step = max(resolution, (bx1 - bx0) / 150.0, (by1 - by0) / 150.0)
     gx = np.arange(bx0, bx1 + step, step)
     gy = np.arange(by0, by1 + step, step)
     GX, GY = np.meshgrid(gx, gy)
     x, y = GX.ravel(), GY.ravel()
-    inz = in_zone(zone, x, y)
-    return bool(np.any(inz & (locate(frame, x, y) < 0)))
+    off = np.flatnonzero(locate(frame, x, y) < 0)
+    return bool(np.any(in_zone(zone, x[off], y[off])))
 
 
 def dedupe(x: np.ndarray, y: np.ndarray, tol: float = 1e-6) -> tuple[np.ndarray, np.ndarray]:
@@ -392,7 +578,14 @@ def dedupe(x: np.ndarray, y: np.ndarray, tol: float = 1e-6) -> tuple[np.ndarray,
     (y, x)."""
     if x.size == 0:
         return x, y
-    key = np.stack([np.round(y / tol), np.round(x / tol)], axis=1)
-    _, idx = np.unique(key, axis=0, return_index=True)
-    idx = np.sort(idx)
+    ky, kx = np.round(y / tol), np.round(x / tol)
+    # the first point of each run of equal (ky, kx) in a stable sort: the first
+    # occurrence of each lattice key, as np.unique(..., axis=0, return_index=True)
+    order = np.lexsort((kx, ky))
+    sy, sx = ky[order], kx[order]
+    first = np.empty(order.size, dtype=bool)
+    first[0] = True
+    np.not_equal(sy[1:], sy[:-1], out=first[1:])
+    first[1:] |= sx[1:] != sx[:-1]
+    idx = np.sort(order[first])
     return x[idx], y[idx]
