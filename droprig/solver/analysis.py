@@ -156,6 +156,9 @@ class FloorModel:
     hinge: np.ndarray | None = None
     tables: CandidateTables | None = None
     _mass: float | None = field(default=None, repr=False)
+    _memo: dict = field(default_factory=dict, repr=False)
+    """Small load-independent tables computed on first use (web resistances per
+    bearing length)."""
 
     @property
     def frame_mass(self) -> float:
@@ -261,8 +264,8 @@ class CandidateTables:
 
     Support members of each panel (``P`` per panel, ``S`` moment stations each):
     flexure rows p·S + s and shear rows p·2 + e, each a linear combination of the four
-    local reactions r_i of the panel's deck members (``m_coef``/``v_coef``, (rows, 4,
-    panels), zero for a panel with fewer supports; ``m_terms``/``v_terms``: per
+    local reactions r_i of the panel's deck members (``m_coef``/``v_coef``, (P, 4, S or
+    2, panels), zero for a panel with fewer supports; ``m_terms``/``v_terms``: per
     support, the reactions that ever enter), existing demand over resistance
     (``m_Et``/``v_Et``, (rows, panels)) and resistance per support (``m_R``/``v_R``,
     (P, panels)); ``member``/``valid`` (P, panels). Deck members: existing end shear
@@ -306,11 +309,11 @@ def candidate_tables(frame: Frame, Mr: np.ndarray, Vr: np.ndarray, V0: np.ndarra
         V_Et = (V0 / Vr[:, None]).T
     return CandidateTables(
         P=P, S=S,
-        m_coef=np.ascontiguousarray(mc.transpose(1, 2, 3, 0)).reshape(P * S, 4, n_p),
+        m_coef=np.ascontiguousarray(mc.transpose(1, 3, 2, 0)),
         m_terms=terms(mc), m_Et=np.ascontiguousarray(m_Et.transpose(1, 2, 0)).reshape(
             P * S, n_p),
         m_R=np.ascontiguousarray(Mr[supm].T),
-        v_coef=np.ascontiguousarray(vc.transpose(1, 2, 3, 0)).reshape(P * 2, 4, n_p),
+        v_coef=np.ascontiguousarray(vc.transpose(1, 3, 2, 0)),
         v_terms=terms(vc), v_Et=np.ascontiguousarray(v_Et.transpose(1, 2, 0)).reshape(
             P * 2, n_p),
         v_R=np.ascontiguousarray(Vr[supm].T), member=np.ascontiguousarray(supm.T),
@@ -319,15 +322,15 @@ def candidate_tables(frame: Frame, Mr: np.ndarray, Vr: np.ndarray, V0: np.ndarra
 
 def _combine(out: np.ndarray, coef: np.ndarray, terms: tuple[int, ...], pair: np.ndarray,
              rT: np.ndarray) -> None:
-    """out = Σ_i coef_i[pair]·r_i over ``terms`` (in order; the reactions whose
-    coefficients are all zero add exactly nothing and are skipped)."""
+    """out (rows, n) = Σ_i coef[i][:, pair]·r_i over ``terms`` (in order; the reactions
+    whose coefficients are all zero add exactly nothing and are skipped)."""
     if not terms:
         out[...] = 0.0
         return
     i0, *rest = terms
-    np.multiply(np.take(coef[i0], pair), rT[i0], out=out)
+    np.multiply(np.take(coef[i0], pair, axis=1), rT[i0], out=out)
     for i in rest:
-        term = np.take(coef[i], pair)
+        term = np.take(coef[i], pair, axis=1)
         term *= rT[i]
         out += term
 
@@ -375,12 +378,10 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     np.divide(M0, Rd, out=Et[:2 * S_l].reshape(2, S_l, n))
     m_R = np.take(tb.m_R, pair, axis=1)  # (P, n)
     for p in range(P):
-        for s in range(S):
-            c = p * S + s
-            row = 2 * S_l + c
-            _combine(ut[row], tb.m_coef[c], tb.m_terms[p], pair, rT)
-            ut[row] /= m_R[p]
-            np.take(tb.m_Et[c], pair, out=Et[row])
+        rows = ut[2 * S_l + p * S:2 * S_l + (p + 1) * S]
+        _combine(rows, tb.m_coef[p], tb.m_terms[p], pair, rT)
+        rows /= m_R[p]
+    np.take(tb.m_Et, pair, axis=1, out=Et[2 * S_l:])
     flex = Family(ut, Et, members, np.concatenate([fm.Mr[memT], m_R]),
                   np.repeat(np.arange(2 + P), [S_l, S_l] + [S] * P), _runs(S_l, P, S))
     # ---- shear: deck member ends (rows m0·R0, m1·R0, m0·RL, m1·RL), support ends
@@ -397,11 +398,10 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     np.take(tb.V_Et[1], memT, out=vE[2:4])
     v_R = np.take(tb.v_R, pair, axis=1)
     for p in range(P):
-        for e in range(2):
-            c = 2 * p + e
-            _combine(vt[4 + c], tb.v_coef[c], tb.v_terms[p], pair, rT)
-            vt[4 + c] /= v_R[p]
-            np.take(tb.v_Et[c], pair, out=vE[4 + c])
+        rows = vt[4 + 2 * p:6 + 2 * p]
+        _combine(rows, tb.v_coef[p], tb.v_terms[p], pair, rT)
+        rows /= v_R[p]
+    np.take(tb.v_Et, pair, axis=1, out=vE[4:])
     shear = Family(vt, vE, members, np.concatenate([Vd, v_R]),
                    np.array([0, 1, 0, 1] + [2 + p for p in range(P) for _ in range(2)]))
     # ---- plastic reserve: R_p of the path for a load at p. Deck members: virtual-work
@@ -479,7 +479,11 @@ def _loaded_existing_moment(fm: FloorModel, memT: np.ndarray, xs: np.ndarray) ->
     fr = fm.frame
     M = by_condition(beam.udl_moment, fr.cond[memT][:, None, :], fr.L[memT][:, None, :],
                      fm.w0[memT][:, None, :], xs)
-    carrying = [k for k in np.unique(memT) if fr.nodes_on[int(k)].size]
+    carries = fm._memo.get("carries")
+    if carries is None:
+        carries = fm._memo["carries"] = np.flatnonzero(
+            [fr.nodes_on[k].size > 0 for k in range(fr.n_members)])
+    carrying = [k for k in carries if np.any(memT == k)] if carries.size else []
     if carrying:
         Mv = np.moveaxis(M, 1, -1)  # (2, n, S) view
         xv = np.moveaxis(xs, 1, -1)
@@ -508,35 +512,48 @@ def _web_resistances(fm: FloorModel, fns: Sequence[Callable[..., np.ndarray]],
                      mem: np.ndarray, bearing: np.ndarray, dist: np.ndarray,
                      ) -> list[np.ndarray]:
     """Web resistance of each deck member under the load (N), one array per clause
-    function in ``fns``. Beyond twice the section depth from an end every clause used
+    function in ``fns``. More than the section depth d from an end every clause used
     gives its interior value (AISC 360-16 J10.2 beyond d, J10.3 beyond d/2;
-    EN 1993-1-5 §6 type (c) only within c < 2h_w/3 − s_s), so that value is computed
-    once per (section, bearing) — a small table gathered for every point — and the
-    clause is evaluated point by point only near the ends."""
+    EN 1993-1-5 §6 type (c) only within c < 2h_w/3 − s_s < d), so that value is
+    computed once per (section, bearing) — a small table gathered for every point —
+    and the clause is evaluated point by point only near the ends."""
     s = fm.settings
     mem, bearing, dist = np.broadcast_arrays(mem, bearing, dist)
-    ub, inv = _distinct(bearing.ravel())
+    if bearing.ndim == 2 and bearing.strides[0] == 0:  # one bearing per point
+        ub, inv = _distinct(bearing[0])
+        inv = np.broadcast_to(inv, mem.shape)
+    else:
+        ub, inv = _distinct(bearing.ravel())
+        inv = inv.reshape(mem.shape)
     ng = len(fm.groups)
     grp = fm.group[mem] if ng > 1 else np.zeros(mem.shape, dtype=np.int64)
     d_int = np.full(ub.shape, 1e3)
-    depth2 = np.array([2.0 * sec.d for sec, _ in fm.groups])  # type: ignore[attr-defined]
-    near = dist < depth2[grp]
+    depth = np.array([sec.d for sec, _ in fm.groups])  # type: ignore[attr-defined]
+    near = dist <= depth[grp]
     idx = np.flatnonzero(near) if near.any() else None
+    if idx is not None:
+        g_near = grp.ravel()[idx]
+        b_near, d_near = bearing.ravel()[idx], dist.ravel()[idx]
+        sels = [(gi, g_near == gi) for gi in range(ng)] if ng > 1 else [(0, slice(None))]
     outs = []
     for fn in fns:
-        table = np.concatenate([np.broadcast_to(np.asarray(
-            fn(sec, grd, s.design_basis, ub, d_int, s.resistance_factor,
-               s.dynamic_increase_factor), float), ub.shape) for sec, grd in fm.groups])
-        r = np.take(table, grp.ravel() * ub.size + inv).reshape(mem.shape)
+        key = ("web", fn, ub.tobytes())
+        table = fm._memo.get(key)
+        if table is None:
+            table = np.concatenate([np.broadcast_to(np.asarray(
+                fn(sec, grd, s.design_basis, ub, d_int, s.resistance_factor,
+                   s.dynamic_increase_factor), float), ub.shape) for sec, grd in fm.groups])
+            if len(fm._memo) < 256:
+                fm._memo[key] = table
+        r = np.take(table, grp * ub.size + inv)
         if idx is not None:
-            g_near = grp.ravel()[idx]
-            b_near, d_near = bearing.ravel()[idx], dist.ravel()[idx]
             rv = r.reshape(-1)
-            for gi in np.unique(g_near) if ng > 1 else (0,):
-                sel = g_near == gi if ng > 1 else slice(None)
-                sec, grd = fm.groups[int(gi)]
-                rv[idx[sel]] = fn(sec, grd, s.design_basis, b_near[sel], d_near[sel],
-                                  s.resistance_factor, s.dynamic_increase_factor)
+            for gi, sel in sels:
+                ii = idx[sel]
+                if ii.size:
+                    sec, grd = fm.groups[gi]
+                    rv[ii] = fn(sec, grd, s.design_basis, b_near[sel], d_near[sel],
+                                s.resistance_factor, s.dynamic_increase_factor)
         outs.append(r)
     return outs
 
