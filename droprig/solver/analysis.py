@@ -372,10 +372,18 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     u = by_condition(beam.unit_moment, condT[:, None, :], LT[:, None, :], xs,
                      aT[:, None, :])
     u *= shareT[:, None, :]
-    M0 = _loaded_existing_moment(fm, memT, xs)
     Rd = fm.Mr[memT][:, None, :]
     np.divide(u, Rd, out=ut[:2 * S_l].reshape(2, S_l, n))
-    np.divide(M0, Rd, out=Et[:2 * S_l].reshape(2, S_l, n))
+    # existing moment: at the stations that move with the load per point, at the
+    # fixed ones (quarter points, ends) from a table per member
+    M0 = _loaded_existing_moment(fm, memT, xs[:, _MOVING, :])  # (2, 2, n)
+    E3 = Et[:2 * S_l].reshape(2, S_l, n)
+    for i, st in enumerate(_MOVING):
+        np.divide(M0[:, i, :], Rd[:, 0, :], out=E3[:, st, :])
+    tab = _fixed_station_table(fm, S_l)
+    for st in range(S_l):
+        if st not in _MOVING:
+            np.take(tab[st], memT, out=E3[:, st, :])
     m_R = np.take(tb.m_R, pair, axis=1)  # (P, n)
     for p in range(P):
         rows = ut[2 * S_l + p * S:2 * S_l + (p + 1) * S]
@@ -409,7 +417,7 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     # member) otherwise; support members: first hinge (conservative)
     assert flex.gmin is not None
     fa_l = flex.gmin[:2]  # (2, n)
-    Mp_eff = np.maximum(fm.Mr[memT] - np.abs(M0[:, 0, :]), 0.0)
+    Mp_eff = np.maximum(fm.Mr[memT] - np.abs(M0[:, 0, :]), 0.0)  # under the load
     Pc = by_condition(beam.plastic_collapse_load, condT, LT, aT, Mp_eff)
     with np.errstate(divide="ignore", invalid="ignore"):
         Pc = np.where(shareT > 0, Pc / np.where(shareT > 0, shareT, 1.0), np.inf)
@@ -471,6 +479,27 @@ def _loaded_stations(a: np.ndarray, L: np.ndarray, ends: bool) -> np.ndarray:
     if ends:
         cols += [0.0 * a, L + 0.0 * a]
     return np.concatenate(np.broadcast_arrays(*cols), axis=1)
+
+
+_MOVING = (0, 4)
+"""The stations of :func:`_loaded_stations` that move with the load (under it, and
+halfway between it and midspan); the others are fixed on the member."""
+
+
+def _fixed_station_table(fm: FloorModel, S_l: int) -> np.ndarray:
+    """Existing moment over flexural resistance at the fixed stations of every member
+    (S_l, members); rows of the moving stations unused (kept on the floor)."""
+    key = ("fixed_stations", S_l)
+    tab = fm._memo.get(key)
+    if tab is None:
+        fr = fm.frame
+        tab = np.zeros((S_l, fr.n_members))
+        for k in range(fr.n_members):
+            L = np.array([fr.L[k]])
+            x = _loaded_stations(np.zeros((1, 1, 1)), L[:, None, None], S_l > 5)[0, :, 0]
+            tab[:, k] = existing_moment(fr, fm.w0, fm.P0, k, x) / fm.Mr[k]
+        fm._memo[key] = tab
+    return tab
 
 
 def _loaded_existing_moment(fm: FloorModel, memT: np.ndarray, xs: np.ndarray) -> np.ndarray:
@@ -840,19 +869,6 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     with np.errstate(divide="ignore", invalid="ignore"):
         h_struct = np.where(crush_ok, np.maximum(h - (F_c - W) * s_c / (eta * W), 0.0),
                             h_struct)
-    d_y = R_p * f
-    d_m, _mu_tot, collapsed = plastic.plastic_response(W, h_struct, eta, R_p, d_y)
-    with np.errstate(invalid="ignore"):
-        d_struct = np.maximum(d_m - R_p * f_series, 0.0)
-        d_struct = np.where(np.isfinite(d_m), d_struct, np.inf)
-        d_y_s = R_p * f_s
-        ductility = np.where(d_y_s > 0, d_struct / np.where(d_y_s > 0, d_y_s, 1.0), np.inf)
-    theta = np.zeros(n)
-    for c in np.unique(rp_cond):
-        sel = rp_cond == c
-        Lsel = np.where(COND_NAMES[int(c)] == "cantilever", rp_arm[sel], 2 * rp_arm[sel])
-        theta[sel] = plastic.support_rotation(d_struct[sel], Lsel, rp_arm[sel],
-                                              COND_NAMES[int(c)])
     # ---- response
     flex_exceeded = checks["flexure"].U > 1.0
     response = np.full(n, ELASTIC, dtype=np.int64)
@@ -862,6 +878,30 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     pl = over & ~brittle_fail
     gov_check = np.where(brittle_fail & flex_exceeded, brittle_check, gov_check)
     gov_member = np.where(brittle_fail & flex_exceeded, brittle_member, gov_member)
+    # ---- beyond yield: the energy balance where the path yields (every point for the
+    # calculation trace)
+    sub = slice(None) if detail or bool(pl.all()) else np.flatnonzero(pl)
+    R_ps, f_s_s = R_p[sub], f_s[sub]
+    d_m_s, _mu_tot, coll_s = plastic.plastic_response(W[sub], h_struct[sub], eta[sub],
+                                                      R_ps, R_ps * f[sub])
+    with np.errstate(invalid="ignore"):
+        d_struct = np.maximum(d_m_s - R_ps * f_series[sub], 0.0)
+        d_struct = np.where(np.isfinite(d_m_s), d_struct, np.inf)
+        d_y_s = R_ps * f_s_s
+        duct_s = np.where(d_y_s > 0, d_struct / np.where(d_y_s > 0, d_y_s, 1.0), np.inf)
+    theta_s = np.zeros(d_struct.shape)
+    cond_s, arm_s = rp_cond[sub], rp_arm[sub]
+    for c in np.unique(cond_s):
+        sel = cond_s == c
+        Lsel = np.where(COND_NAMES[int(c)] == "cantilever", arm_s[sel], 2 * arm_s[sel])
+        theta_s[sel] = plastic.support_rotation(d_struct[sel], Lsel, arm_s[sel],
+                                                COND_NAMES[int(c)])
+    if isinstance(sub, slice):
+        d_m, collapsed, ductility, theta = d_m_s, coll_s, duct_s, theta_s
+    else:
+        d_m, ductility, theta = (np.full(n, np.nan) for _ in range(3))
+        collapsed = np.zeros(n, dtype=bool)
+        d_m[sub], collapsed[sub], ductility[sub], theta[sub] = d_m_s, coll_s, duct_s, theta_s
     col = pl & collapsed
     duct = pl & ~collapsed & (ductility > s.ductility_limit)
     rot = pl & ~collapsed & ~duct & (theta > s.rotation_limit)

@@ -48,22 +48,47 @@ def demand(F: np.ndarray, unit: np.ndarray, exist: np.ndarray | None) -> np.ndar
 def first_at(D: np.ndarray, V: np.ndarray, axis: int) -> np.ndarray:
     """Index along ``axis`` of the first entry of ``D`` equal to ``V`` (``V`` = the max
     or min of ``D`` over ``axis``): ``np.argmax``/``np.argmin`` over a leading axis
-    without the transposed copy numpy makes for it. Where ``V`` holds a NaN the
-    answer is the first NaN: callers hand those to numpy."""
+    without the transposed copy numpy makes for it. Up to 8 entries: the matches are
+    packed as bits (first entry = highest bit) and the highest set bit is looked up.
+    Where ``V`` holds a NaN the answer is the first NaN: callers hand those to numpy."""
     D = np.moveaxis(D, axis, 0)
+    S = D.shape[0]
+    if S <= 8:
+        e = np.equal(D, V).view(np.uint8)
+        w = (np.uint8(1) << np.arange(S - 1, -1, -1, dtype=np.uint8)).reshape(
+            (S,) + (1,) * (D.ndim - 1))
+        e *= w
+        code = e.sum(axis=0, dtype=np.uint8)
+        return np.take(_FIRST_BIT[S], code)
     j = np.zeros(V.shape, dtype=np.intp)
     m = np.empty(V.shape, dtype=bool)
-    for c in range(D.shape[0] - 1, -1, -1):  # the lowest matching index written last
+    for c in range(S - 1, -1, -1):  # the lowest matching index written last
         np.equal(D[c], V, out=m)
         np.copyto(j, c, where=m)
     return j
+
+
+def _first_bit_tables() -> dict[int, np.ndarray]:
+    """For S entries packed as bits (entry c → bit S−1−c): the entry of the highest
+    set bit of each code (0 where none is set)."""
+    out = {}
+    for S in range(1, 9):
+        codes = np.arange(1 << S)
+        hb = np.zeros(codes.size, dtype=np.intp)
+        nz = codes > 0
+        hb[nz] = S - 1 - np.floor(np.log2(codes[nz])).astype(np.intp)
+        out[S] = hb
+    return out
+
+
+_FIRST_BIT = _first_bit_tables()
 
 
 SMALL = 2048
 """Up to this many points numpy's own argmax/argmin over a leading axis is faster
 than :func:`first_at` (fewer calls); both give the same index."""
 
-ROW_BLOCK = 32768
+ROW_BLOCK = 1 << 18
 """Elements per operation when rows of a (C, n) family are processed a few at a time
 (about 256 KiB: the operands stay in the core's cache)."""
 

@@ -83,7 +83,7 @@ SUPPORT_TOL = 1e-3
 """A member end within this distance (m) of a column or of another member's line
 rests on it."""
 
-CHUNK = 1 << 14
+CHUNK = 1 << 15
 """Drop points processed per block (keeps the working set in cache and bounds the
 memory of the gathers)."""
 
