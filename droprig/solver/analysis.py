@@ -1025,6 +1025,7 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     cand = np.flatnonzero(finite)
     if cand.size == 0:
         return np.zeros(0), np.zeros(0), np.zeros(0, dtype=np.int64)
+    cand = cand[_top_candidates(sev[cand], group[cand], n_top)]
     order = cand[np.lexsort((-sev[cand], group[cand]))]
     g = group[order]
     first = np.r_[True, g[1:] != g[:-1]]
@@ -1040,6 +1041,27 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     x, y = droppoints.project_into_zone(zone, x, y)
     keep = droppoints.in_zone(zone, x, y) & (locate(fm.frame, x, y) >= 0)
     return x[keep], y[keep], lj[keep]
+
+
+def _top_candidates(sev: np.ndarray, group: np.ndarray, n_top: int) -> np.ndarray:
+    """Positions (ascending) of the points that can be among the ``n_top`` worst of
+    their group: severity at least the group's ``n_top``-th distinct largest value
+    (a superset of the top points, in the original order, so that sorting it gives the
+    same top points as sorting everything)."""
+    if sev.size <= 64:
+        return np.arange(sev.size)
+    G = int(group.max()) + 1
+    floor = np.full(G, np.inf)
+    keep = np.zeros(sev.size, dtype=bool)
+    for _ in range(n_top):
+        below = sev < floor[group]
+        if not below.any():
+            break
+        gmax = np.full(G, -np.inf)
+        np.maximum.at(gmax, group[below], sev[below])
+        floor = np.where(gmax > -np.inf, gmax, floor)
+        keep |= below & (sev >= floor[group])
+    return np.flatnonzero(keep)
 
 
 def _keys(x: np.ndarray, y: np.ndarray, li: np.ndarray) -> np.ndarray:
@@ -1207,43 +1229,61 @@ def _least(v: np.ndarray) -> float | None:
 def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
               allowed_force: np.ndarray) -> list[BaySummary]:
     """One :class:`BaySummary` per bay that holds drop points of ``case``
-    (``allowed_force``: the elastic F_allow of each point, N)."""
-    out = []
-    all_bays = bays(level)
+    (``allowed_force``: the elastic F_allow of each point, N). A point on a shared grid
+    line or at a column counts for every bay it touches (closed bays). All bays are
+    reduced at once over a (bay, point) membership matrix."""
+    out: list[BaySummary] = []
+    all_bays = _bays(level)
     members = level.members
+    n = case.x.size
+    if n == 0 or not all_bays:
+        return out
+    g = level.grid
+    xl, yl = np.asarray(g.x_lines, float), np.asarray(g.y_lines, float)
+    tol = droppoints.EDGE_TOL
+    x, y = case.x, case.y
+    Mx = (x >= xl[:-1, None] - tol) & (x <= xl[1:, None] + tol)  # (nx, n)
+    My = (y >= yl[:-1, None] - tol) & (y <= yl[1:, None] + tol)  # (ny, n)
+    M = (My[:, None, :] & Mx[None, :, :]).reshape(-1, n)  # (bays, n), b = j·nx + i
+    count = M.sum(axis=1)
     sev = _severity({"utilisation": case.utilisation, "response": case.response})
-    for b in range(len(all_bays)):
-        # closed bay: points on its edges and corners count for it as well
-        idx = np.flatnonzero(droppoints.in_bay_rect(level, b, case.x, case.y))
-        if idx.size == 0:
-            continue
-        i = idx[np.argmax(sev[idx])]
-        worst = int(np.max(case.response[idx]))
-        Ub = case.utilisation[idx]
-        U_max = float(np.max(np.where(np.isnan(Ub), -np.inf, Ub)))
-        U_max = U_max if U_max > -np.inf else float("inf")
+    resp = case.response
+    gov = np.argmax(np.where(M, sev, -np.inf), axis=1)  # first worst point per bay
+    worst = np.where(M, resp, -1).max(axis=1)
+    U = case.utilisation
+    U_max = np.where(M, np.where(np.isnan(U), -np.inf, U), -np.inf).max(axis=1)
 
-        h_el = _least(case.allowable_drop_height[idx])
-        h_pl = _least(case.allowable_drop_height_plastic[idx])
-        need = idx[case.response[idx] != ELASTIC]
-        k_mat: float | None = None
-        travel: float | None = None
-        if need.size:
-            kv = case.required_mat_stiffness[need]
-            if not np.any(np.isnan(kv)):
-                j = need[np.argmin(kv)]
-                k_mat = float(case.required_mat_stiffness[j])
-                # the mat carries the allowed force at its softest: travel = F_allow / k
-                travel = float(np.max(allowed_force[need] / k_mat))
+    def least(v: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """Smallest value per bay and whether any point of the bay has none (nan)."""
+        return np.where(M, v, np.inf).min(axis=1), (M & np.isnan(v)).any(axis=1)
+
+    h_el, h_el_none = least(case.allowable_drop_height)
+    h_pl, h_pl_none = least(case.allowable_drop_height_plastic)
+    Mn = M & (resp != ELASTIC)  # points that need protection
+    kv = case.required_mat_stiffness
+    has_need = Mn.any(axis=1)
+    k_ok = has_need & ~(Mn & np.isnan(kv)).any(axis=1)
+    k_min = np.where(Mn, kv, np.inf).min(axis=1)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        # the mat carries the allowed force at its softest: travel = F_allow / k
+        travel_all = np.where(Mn, allowed_force[None, :] / k_min[:, None], -np.inf).max(axis=1)
+    n_open = (M & (case.governing_check == CHECK["opening"])).sum(axis=1)
+    for b in np.flatnonzero(count):
+        i = int(gov[b])
+        wst = int(worst[b])
+        u_b = float(U_max[b])
+        u_b = u_b if u_b > -np.inf else float("inf")
+        he = None if h_el_none[b] else float(h_el[b])
+        hp = None if h_pl_none[b] else float(h_pl[b])
+        k_mat = float(k_min[b]) if k_ok[b] else None
+        travel = float(travel_all[b]) if k_ok[b] else None
         gm = int(case.governing_member[i])
-        n_open = int(np.sum(case.governing_check[idx] == CHECK["opening"]))
-        adv = bay_advice(worst, n_open, h_pl if worst == EXCEEDS else h_el, k_mat, travel,
-                         h_el)
+        adv = bay_advice(wst, int(n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he)
         out.append(BaySummary(
             level_id=level.id, bay_id=all_bays[b].id, zone_id=zone.id,
-            load_name=load.name, n_points=int(idx.size), max_utilisation=U_max,
-            response=RESPONSES[worst], allowable_drop_height=h_el,
-            allowable_drop_height_plastic=h_pl, governing_x=float(case.x[i]),
+            load_name=load.name, n_points=int(count[b]), max_utilisation=u_b,
+            response=RESPONSES[wst], allowable_drop_height=he,
+            allowable_drop_height_plastic=hp, governing_x=float(case.x[i]),
             governing_y=float(case.y[i]),
             governing_member="deck" if gm == DECK else members[gm].id,
             governing_check=CHECKS[int(case.governing_check[i])], advice_kind=adv.kind,
@@ -1251,6 +1291,20 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
             mat_stiffness_max=adv.mat_stiffness_max, mat_travel=adv.mat_travel,
             planned_drop_height=case.planned_drop_height))
     return out
+
+
+_BAYS: dict[Level, tuple] = {}
+
+
+def _bays(level: Level) -> tuple:
+    """:func:`droprig.model.bays`, remembered for the last few levels."""
+    got = _BAYS.get(level)
+    if got is None:
+        got = bays(level)
+        if len(_BAYS) >= _FLOORS_MAX:
+            _BAYS.pop(next(iter(_BAYS)))
+        _BAYS[level] = got
+    return got
 
 
 # --------------------------------------------------------------------------- entry points
