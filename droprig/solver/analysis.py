@@ -46,6 +46,7 @@ The drop points are the zone grid plus the points that can govern
 from __future__ import annotations
 
 import math
+import threading
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 
@@ -101,6 +102,7 @@ __all__ = [
     "bay_advice",
     "build_floor",
     "evaluate_case",
+    "evaluate_points",
     "floor_model",
     "zone_points",
 ]
@@ -675,14 +677,15 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
                     geo.cache[("slice", s)] = sub
             with np.errstate(all="ignore"):
                 part = _select(_evaluate_case(fm, project, load, sub, li, detail), keep)
+            with lock:  # the first block to finish allocates the outputs
+                for k, v in part.items():
+                    if k not in out:
+                        out[k] = np.empty((n, *v.shape[1:]), dtype=v.dtype)
             for k, v in part.items():
-                if k not in out:  # the first block runs alone: allocation is not shared
-                    out[k] = np.empty((n, *v.shape[1:]), dtype=v.dtype)
                 out[k][sl] = v
 
-        # the first block alone (it allocates the outputs), the others on all cores
-        block(0, chunk)
-        for_blocks(lambda s, e: block(chunk + s, chunk + e), n - chunk, chunk)
+        lock = threading.Lock()
+        for_blocks(block, n, chunk)
     if n > CACHE_MAX_POINTS:
         memory.release_memory()
     return out
@@ -1081,22 +1084,61 @@ def _merge(parts: list[dict[str, np.ndarray]], keys: Sequence[str] | None = None
     return {k: np.concatenate([p[k] for p in parts]) for k in (keys or parts[0])}
 
 
+def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
+                    x: np.ndarray, y: np.ndarray) -> dict[str, np.ndarray]:
+    """Every load at every point, load by load ((len(loads)·n) rows, load-major):
+    :func:`point_geometry` and :func:`evaluate_case` block by block on all cores,
+    each block's load path and load-independent member actions shared by the loads.
+    The path for large sets of points: nothing of the size of all points is kept
+    but the results. Same values as the two functions called on all points."""
+    memory.keep_freed_memory()
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    n, nl = x.size, len(loads)
+    keep = {*_FIELDS, "_F_allow"}
+    if n == 0 or nl == 0:
+        return evaluate_case(fm, project, list(loads), point_geometry(fm, project, x, y),
+                             np.zeros(0, dtype=np.int64))
+    out: dict[str, np.ndarray] = {}
+    lock = threading.Lock()
+
+    def block(s: int, e: int) -> None:
+        geo = point_geometry(fm, project, x[s:e], y[s:e])
+        with np.errstate(all="ignore"):
+            parts = [_select(_evaluate_case(fm, project, ld, geo, None, False), keep)
+                     for ld in loads]
+        with lock:  # the first block to finish allocates the outputs
+            for k, v in parts[0].items():
+                if k not in out:
+                    out[k] = np.empty((nl * n, *v.shape[1:]), dtype=v.dtype)
+        for j, part in enumerate(parts):
+            for k, v in part.items():
+                out[k][j * n + s:j * n + e] = v
+
+    for_blocks(block, n, loadpath_chunk())
+    if n > CACHE_MAX_POINTS:
+        memory.release_memory()
+    return out
+
+
 def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
-                base: Geometry) -> dict[str, np.ndarray]:
-    """Evaluate every load of ``zone`` at the base points, then refine around each
-    bay's worst points of each load (:data:`REFINE_PASSES` passes, spacing
-    resolution/4, /16, …). ``_load`` names the load of each row."""
+                base: Geometry | tuple[np.ndarray, np.ndarray]) -> dict[str, np.ndarray]:
+    """Evaluate every load of ``zone`` at the base points (a :class:`Geometry`, or x
+    and y), then refine around each bay's worst points of each load
+    (:data:`REFINE_PASSES` passes, spacing resolution/4, /16, …). ``_load`` names the
+    load of each row."""
     loads = list(zone.loads)
     nl = len(loads)
-    nb = base.x.size
+    bx, by = (base.x, base.y) if isinstance(base, Geometry) else base
+    nb = bx.size
     li = np.repeat(np.arange(nl), nb)
-    # all loads in one pass over the base points repeated once per load; the
-    # load-independent actions are computed once and repeated with them
     if nb <= CACHE_MAX_POINTS:
-        res = evaluate_case(fm, project, loads, _tile(fm, base, nl), li)
-    else:
-        parts = [evaluate_case(fm, project, ld, base) for ld in loads]
-        res = {k: np.concatenate([p[k] for p in parts]) for k in parts[0]}
+        # all loads in one pass over the base points repeated once per load; the
+        # load-independent actions are computed once and repeated with them
+        geo = base if isinstance(base, Geometry) else point_geometry(fm, project, bx, by)
+        res = evaluate_case(fm, project, loads, _tile(fm, geo, nl), li)
+    else:  # block by block, each block's path shared by the loads
+        res = evaluate_points(fm, project, loads, bx, by)
     res["_load"] = li
     step = fm.settings.grid_resolution
     known = np.sort(_keys(res["x"], res["y"], li))  # sorted: membership by bisection
@@ -1347,10 +1389,9 @@ def analyse_zone(project: Project, zone_id: str,
     elif droppoints.reaches_off_deck(fm.frame, zone, project.settings.grid_resolution):
         warnings.append(f"zone {zone.id}: part of the zone lies beyond the deck of level "
                         f"{level.id}; drops there are not assessed by droprig")
-    base = point_geometry(fm, project, x, y)
     cases = []
     summaries: list[BaySummary] = []
-    allres = zone_points(fm, project, zone, base) if zone.loads else {}
+    allres = zone_points(fm, project, zone, (x, y)) if zone.loads else {}
     for j, load in enumerate(zone.loads):
         sel = allres["_load"] == j
         res = {k: v[sel] for k, v in allres.items()}

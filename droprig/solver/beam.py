@@ -122,8 +122,13 @@ def unit_moment(cond: EndCondition, L: ArrayLike, x: ArrayLike, a: ArrayLike) ->
     """
     L, x, a = _arr(L, x, a)
     R0, _ = unit_reactions(cond, L, a)
-    M0, _ = unit_end_moments(cond, L, a)
-    return M0 + R0 * x - np.maximum(x - a, 0.0)
+    if cond == "simple":  # M0 = 0
+        M = R0 * x
+    else:
+        M0, _ = unit_end_moments(cond, L, a)
+        M = M0 + R0 * x
+    M -= np.maximum(x - a, 0.0)
+    return M
 
 
 def unit_shear(cond: EndCondition, L: ArrayLike, x: ArrayLike, a: ArrayLike) -> np.ndarray:

@@ -216,9 +216,13 @@ class Family:
         with np.errstate(divide="ignore", invalid="ignore"):
             for rows in _row_blocks(0, ut.shape[0], ut.shape[1]):
                 blk = fa[rows]
-                np.copysign(1.0, ut[rows], out=blk)
-                blk -= Et[rows]
-                blk /= ut[rows]
+                u = ut[rows]
+                if u.size and u.min() > 0.0:  # sagging only: copysign(1, ut) = 1
+                    np.subtract(1.0, Et[rows], out=blk)
+                else:
+                    np.copysign(1.0, u, out=blk)
+                    blk -= Et[rows]
+                blk /= u
         # (a NaN in Et reads as over: the exact test below then runs)
         over = bool(Et.size) and not (Et.max() <= 1.0 and Et.min() >= -1.0)
         self.fa = fa
