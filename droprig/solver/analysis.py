@@ -718,13 +718,17 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     n = geo.x.size
     loads = [load] if isinstance(load, LiftLoad) else list(load)
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
-    W = np.array([ld.weight for ld in loads])[li]
-    M = np.array([ld.mass for ld in loads])[li]
-    fl = np.array([ld.footprint_length for ld in loads])[li]
-    fw = np.array([ld.footprint_width for ld in loads])[li]
+
+    def per_point(values: list[float]) -> np.ndarray:
+        return np.full(n, values[0]) if len(values) == 1 else np.array(values)[li]
+
+    W = per_point([ld.weight for ld in loads])
+    M = per_point([ld.mass for ld in loads])
+    fl = per_point([ld.footprint_length for ld in loads])
+    fw = per_point([ld.footprint_width for ld in loads])
     # the load's own underside (skid, base frame, dunnage) in series: 1/k_load, 0 = rigid
-    f_load = np.array([0.0 if ld.contact_stiffness is None else 1.0 / ld.contact_stiffness
-                       for ld in loads])[li]
+    f_load = per_point([0.0 if ld.contact_stiffness is None else 1.0 / ld.contact_stiffness
+                        for ld in loads])
     lv = fm.level
     # ---- protection: thickness, spring compliance, crushable layer
     t_mat = np.zeros(n)
