@@ -1,7 +1,15 @@
 """Project model: plain frozen dataclasses in SI units. No Qt, no I/O, no numpy."""
 
 from droprig.model.errors import ModelError
-from droprig.model.framing import Bay, bays, default_labels, generate_level
+from droprig.model.framing import (
+    Bay,
+    bays,
+    default_labels,
+    generate_level,
+    resting_on,
+    without_members,
+)
+from droprig.model.polygon import CORRIDOR_ALLOWED, check_corridor, corridor_problem
 from droprig.model.project import (
     CONTACT_STIFFNESS_RANGE,
     END_CONDITIONS,
@@ -22,6 +30,7 @@ from droprig.model.sections import E_STEEL, Concrete, Grade, Section
 
 __all__ = [
     "CONTACT_STIFFNESS_RANGE",
+    "CORRIDOR_ALLOWED",
     "END_CONDITIONS",
     "E_STEEL",
     "Bay",
@@ -42,6 +51,10 @@ __all__ = [
     "Section",
     "Settings",
     "bays",
+    "check_corridor",
+    "corridor_problem",
     "default_labels",
     "generate_level",
+    "resting_on",
+    "without_members",
 ]

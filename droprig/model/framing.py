@@ -1,10 +1,11 @@
-"""Bays and the framing generator (pure geometry, SI)."""
+"""Bays, the framing generator and removing members (pure geometry, SI)."""
 
 from __future__ import annotations
 
 import math
 import string
-from dataclasses import dataclass
+from collections.abc import Iterable
+from dataclasses import dataclass, replace
 from typing import Literal
 
 from droprig.model.errors import ModelError, check_range
@@ -129,3 +130,78 @@ def generate_level(
                     pt(u, v_lines[j]), pt(u, v_lines[j + 1]), beam_section, beam_grade))
     return Level(level_id, name, elevation, grid, tuple(members), deck or Deck(),
                  superimposed_dead, live_in_place)
+
+
+# ------------------------------------------------------------------ removing members
+
+SUPPORT_TOL = 1e-3
+"""m; a member end this close to a grid intersection rests on a column, and this close
+to a perpendicular member's line (within its length) rests on that member. The same
+tolerance as the load path (``droprig.solver.loadpath.SUPPORT_TOL``)."""
+
+
+def _on_column(level: Level, p: tuple[float, float]) -> bool:
+    g = level.grid
+    return (min(abs(p[0] - x) for x in g.x_lines) <= SUPPORT_TOL
+            and min(abs(p[1] - y) for y in g.y_lines) <= SUPPORT_TOL)
+
+
+def _carriers(level: Level, me: Member, p: tuple[float, float]) -> list[str]:
+    """Ids of the members perpendicular to ``me`` whose line passes through ``p``
+    (within their length): what that end of ``me`` may rest on."""
+    out = []
+    for m in level.members:
+        if m.id == me.id or m.axis == me.axis:
+            continue
+        ax = 0 if m.axis == "x" else 1
+        if abs(p[1 - ax] - m.start[1 - ax]) > SUPPORT_TOL:
+            continue
+        lo, hi = sorted((m.start[ax], m.end[ax]))
+        if lo - SUPPORT_TOL <= p[ax] <= hi + SUPPORT_TOL:
+            out.append(m.id)
+    return out
+
+
+def resting_on(level: Level, member_ids: Iterable[str]) -> tuple[str, ...]:
+    """Members of ``level`` that would rest on nothing once ``member_ids`` are removed:
+    an end that needs a support (not on a column, not the free end of a cantilever)
+    whose every carrier is removed; then, in turn, what rests only on those. In level
+    order, without ``member_ids`` themselves. An end that rests on nothing already is
+    not counted (the removal did not cause it). Raises ModelError for an unknown id."""
+    ids = list(member_ids)
+    known = {m.id for m in level.members}
+    for mid in ids:
+        if mid not in known:
+            raise ModelError(f"level {level.id}.members", mid,
+                             "the id of a member on level " + level.id)
+    needs: dict[str, list[list[str]]] = {}
+    for m in level.members:
+        ends = [m.start] if m.end_condition == "cantilever" else [m.start, m.end]
+        needs[m.id] = [c for c in (_carriers(level, m, p) for p in ends
+                                   if not _on_column(level, p)) if c]
+    gone = set(ids)
+    changed = True
+    while changed:
+        changed = False
+        for m in level.members:
+            if m.id not in gone and any(all(c in gone for c in cs) for cs in needs[m.id]):
+                gone.add(m.id)
+                changed = True
+    return tuple(m.id for m in level.members if m.id in gone and m.id not in ids)
+
+
+def without_members(level: Level, member_ids: Iterable[str]) -> Level:
+    """``level`` without ``member_ids`` (the others keep their order). Refuses
+    (ModelError naming them) if another member would then rest on nothing — remove
+    those too, in the same call — or if no member would be left."""
+    ids = list(member_ids)
+    left_over = resting_on(level, ids)
+    if left_over:
+        raise ModelError(f"level {level.id}.members", ", ".join(left_over),
+                         "removing members nothing else rests on; these rest on "
+                         + ", ".join(ids) + ": remove them with it")
+    kept = tuple(m for m in level.members if m.id not in set(ids))
+    if not kept:
+        raise ModelError(f"level {level.id}.members", 0,
+                         "at least one member (delete the level instead)")
+    return replace(level, members=kept)
