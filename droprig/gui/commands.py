@@ -30,6 +30,8 @@ from droprig.model import (
     ProtectionArea,
     Rect,
     Settings,
+    check_corridor,
+    without_members,
 )
 
 if TYPE_CHECKING:
@@ -138,6 +140,14 @@ def with_member(p: Project, level_id: str, member_id: str, member: Member) -> Pr
     return with_level(p, level_id, replace(lv, members=_swap_at(lv.members, i, member)))
 
 
+def remove_members(p: Project, level_id: str, member_ids: Iterable[str]) -> Project:
+    """Level ``level_id`` without ``member_ids`` (one undo step for all of them). The
+    model refuses (ModelError naming them) if another member would be left resting
+    on nothing, or if no member would be left; see
+    :func:`droprig.model.without_members`."""
+    return with_level(p, level_id, without_members(p.level(level_id), member_ids))
+
+
 def with_members(p: Project, level_id: str, members: dict[str, Member]) -> Project:
     """Replace several members of one level at once (one undo step)."""
     lv = p.level(level_id)
@@ -178,8 +188,10 @@ def with_zone(p: Project, zone_id: str, zone: LiftZone) -> Project:
 
 def with_corridor(p: Project, zone_id: str, corridor: Iterable[tuple[float, float]]) -> Project:
     """Zone ``zone_id`` with ``corridor`` (plan polygon, m; empty = whole sector).
-    The model refuses a polygon of fewer than 3 points or points out of range."""
-    pts = tuple((float(x), float(y)) for x, y in corridor)
+    Refused (ModelError): fewer than 3 corners, a polygon that crosses or touches
+    itself or encloses no area (:func:`droprig.model.check_corridor`), points out of
+    range."""
+    pts = check_corridor(f"zone {zone_id}.corridor", tuple(corridor))
     return with_zone(p, zone_id, replace(p.zone(zone_id), corridor=pts))
 
 

@@ -45,6 +45,7 @@ from droprig.gui import commands as ed
 from droprig.gui import style
 from droprig.gui.document import Document, Selection, resolve
 from droprig.model import (
+    CORRIDOR_ALLOWED,
     END_CONDITIONS,
     Deck,
     Level,
@@ -55,6 +56,7 @@ from droprig.model import (
     Project,
     ProtectionArea,
     Rect,
+    corridor_problem,
 )
 from droprig.outcomes import fmt_utilisation
 
@@ -178,7 +180,8 @@ def _edit_text(value: float | None, quantity: str, system: units.UnitSystem) -> 
 def _corridor_allowed(system: units.UnitSystem) -> str:
     unit = units.display_unit("length", system)
     return (f"empty (no corridor: the whole swing sector), or at least 3 corner points "
-            f"x,y in {unit} separated by ';', for example 0,0; 12,0; 12,6")
+            f"x,y in {unit} separated by ';', for example 0,0; 12,0; 12,6, making "
+            f"{CORRIDOR_ALLOWED}")
 
 
 def corridor_text(corridor: tuple[tuple[float, float], ...], system: units.UnitSystem) -> str:
@@ -208,6 +211,10 @@ def parse_corridor(text: str, system: units.UnitSystem) -> tuple[tuple[float, fl
                              f"{_corridor_allowed(system)}") from exc
     if len(pts) < 3:
         raise ValueError(f"Corridor: {len(pts)} point(s) refused. Allowed: "
+                         f"{_corridor_allowed(system)}")
+    problem = corridor_problem(pts)  # type: ignore[arg-type]
+    if problem is not None:
+        raise ValueError(f"Corridor: {problem}, refused. Allowed: "
                          f"{_corridor_allowed(system)}")
     return tuple(pts)  # type: ignore[return-value]
 
@@ -398,7 +405,7 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                           f"{units.fmt(sec.mass_per_length, 'mass_per_length', system)}"),
             _ro("fy", "Yield strength used",
                 lambda o: units.fmt(o.grade.section_fy(o.section), "stress", system)),
-        ], lambda p, o: ed.with_member(p, ids[0], m.id, o), buttons=["apply_like"])
+        ], lambda p, o: ed.with_member(p, ids[0], m.id, o), buttons=["apply_like", "delete"])
 
     if k == "zone":
         z: LiftZone = obj

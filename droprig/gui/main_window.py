@@ -16,7 +16,7 @@ from dataclasses import replace
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from PySide6.QtCore import QByteArray, QSettings, Qt, QTimer
+from PySide6.QtCore import QByteArray, QPoint, QSettings, Qt, QTimer
 from PySide6.QtGui import QAction, QCloseEvent, QKeySequence, QShowEvent
 from PySide6.QtWidgets import (
     QComboBox,
@@ -25,6 +25,7 @@ from PySide6.QtWidgets import (
     QHBoxLayout,
     QLabel,
     QMainWindow,
+    QMenu,
     QMessageBox,
     QProgressBar,
     QToolButton,
@@ -44,7 +45,13 @@ from droprig.gui.document import (
     discard_recoverable,
     find_recoverable,
 )
-from droprig.gui.inspector import FormDialog, Inspector, opening_form, protection_form
+from droprig.gui.inspector import (
+    FormDialog,
+    Inspector,
+    describe_refusal,
+    opening_form,
+    protection_form,
+)
 
 if TYPE_CHECKING:
     from droprig.gui.generator_dialog import GeneratorDialog
@@ -59,6 +66,7 @@ from droprig.model import (
     ProtectionArea,
     Rect,
     bays,
+    resting_on,
 )
 from droprig.solver.results import Results
 
@@ -85,6 +93,22 @@ def placeholder_load(name: str) -> LiftLoad:
 def is_placeholder(load: LiftLoad) -> bool:
     """True while ``load`` still has every value of :func:`placeholder_load`."""
     return load == placeholder_load(load.name)
+
+
+MAX_LISTED = 12
+"""Members named one by one in the delete question; the rest are counted."""
+
+
+def _check_framing(before: Project, after: Project, level_id: str) -> None:
+    """Raise the solver's ModelError if level ``level_id`` could be analysed in
+    ``before`` but not in ``after`` (a framing the load path cannot follow)."""
+    from droprig.solver.loadpath import build_frame
+
+    try:
+        build_frame(before.level(level_id))
+    except ModelError:
+        return  # not analysable before this edit either: not this edit's doing
+    build_frame(after.level(level_id))
 
 
 def _describe(exc: BaseException) -> str:
@@ -120,6 +144,8 @@ class MainWindow(QMainWindow):
             if autosave else None
         self._settings_dialog: SettingsDialog | None = None
         self._closing = False
+        self.plan_menu: QMenu | None = None
+        """The right-click menu of the plan (made on first use)."""
         self._stale_timer = QTimer(self)
         self._stale_timer.setSingleShot(True)
         self._stale_timer.setInterval(STALE_GRACE_MS)
@@ -169,7 +195,8 @@ class MainWindow(QMainWindow):
         redo.setShortcut(K.Redo)
         self.actions["undo"], self.actions["redo"] = undo, redo
         self._act("delete", "&Delete", self.delete_selection, K.Delete,
-                  "Delete the selected lift zone, load, protection area, opening or level")
+                  "Delete the selected girder or beam, lift zone, load, protection area, "
+                  "opening or level")
         self._act("settings", "Analysis &settings…", self.show_settings, "Ctrl+,",
                   "Units, design basis, factors and limits")
         self._act("info", "Project &title block…", lambda: self.doc.select(Selection("info")))
@@ -399,6 +426,9 @@ class MainWindow(QMainWindow):
         self.plan.zone_changed.connect(self._on_zone_changed)
         self.plan.protection_drawn.connect(self._on_protection_drawn)
         self.plan.corridor_drawn.connect(self._on_corridor_drawn)
+        self.plan.corridor_changed.connect(self._on_corridor_dragged)
+        self.plan.member_clicked.connect(self._on_member_clicked)
+        self.plan.context_requested.connect(self._on_plan_context)
         self.plan.mode_changed.connect(self._on_plan_mode_changed)
         self.plan.bay_clicked.connect(self._on_bay_clicked)
         self.plan.point_clicked.connect(self._on_point_clicked)
@@ -515,6 +545,8 @@ class MainWindow(QMainWindow):
         if sel is not None and sel.kind in ("zone", "load"):
             zone = sel.ids[0]
         self.plan.set_selected_zone(zone)
+        self.plan.set_selected_member(sel.ids[1] if sel is not None and sel.kind == "member"
+                                      and sel.ids[0] == self.doc.level_id else None)
         self._update_actions()
 
     def _on_level_changed(self, level_id: str) -> None:
@@ -658,8 +690,8 @@ class MainWindow(QMainWindow):
     def _update_actions(self) -> None:
         sel = self.doc.selection
         kind = sel.kind if sel else ""
-        self.actions["delete"].setEnabled(kind in ("zone", "load", "protection", "opening",
-                                                   "level"))
+        self.actions["delete"].setEnabled(kind in ("member", "zone", "load", "protection",
+                                                   "opening", "level"))
         self.actions["apply_like"].setEnabled(kind == "member")
         has_level = bool(self.doc.project.levels)
         for n in ("add_zone", "add_opening", "add_protection", "draw_protection"):
@@ -680,6 +712,26 @@ class MainWindow(QMainWindow):
             self.plan.set_project(self.doc.project, self.doc.level_id)
             return
         self.doc.edit(after, f"Reshape lift zone {zone_id}")
+
+    def _on_member_clicked(self, member_id: str) -> None:
+        if self.doc.level_id:
+            self.doc.select(Selection("member", (self.doc.level_id, member_id)))
+
+    def plan_context_actions(self) -> list[QAction]:
+        """What a right click on the plan offers for the current selection."""
+        sel = self.doc.selection
+        names = ["delete", "apply_like"] if sel is not None and sel.kind == "member" else []
+        return [self.actions[n] for n in names]
+
+    def _on_plan_context(self, global_pos: QPoint, member_id: str) -> None:
+        acts = self.plan_context_actions() if member_id else []
+        if not acts:
+            return
+        if self.plan_menu is None:
+            self.plan_menu = QMenu(self)
+        self.plan_menu.clear()
+        self.plan_menu.addActions(acts)
+        self.plan_menu.popup(global_pos)
 
     def _on_bay_clicked(self, bay_id: str) -> None:
         if self.doc.level_id:
@@ -745,6 +797,28 @@ class MainWindow(QMainWindow):
     def _on_corridor_drawn(self, zone_id: str, points: tuple) -> None:
         self._edit(lambda p: ed.with_corridor(p, zone_id, points),
                    f"Draw corridor of lift zone {zone_id}")
+
+    def _on_corridor_dragged(self, zone_id: str, points: tuple) -> bool:
+        """A corridor corner dragged on the plan: one undo step, validated as the
+        typed corridor is; a refusal leaves the corridor as it was and says why in the
+        status bar and beside the corner."""
+        p = self.doc.project
+        try:
+            after = ed.with_corridor(p, zone_id, points)
+        except (ModelError, KeyError) as exc:
+            msg = describe_refusal(exc, "Corridor corner", p.settings.unit_system, "length") \
+                if isinstance(exc, ModelError) else f"Corridor corner: {exc}"
+            self.statusBar().showMessage(msg, 15_000)
+            try:
+                old = p.zone(zone_id).corridor
+                moved = next((q for q, o in zip(points, old, strict=False) if q != o),
+                             points[0])
+                problem = exc.value if isinstance(exc, ModelError) else str(exc)
+                self.plan.show_note(f"refused: {problem}", *moved)
+            except (KeyError, IndexError):
+                pass
+            return False
+        return self.doc.edit(after, f"Move corridor corner of lift zone {zone_id}")
 
     def clear_corridor(self) -> bool:
         """Remove the selected zone's corridor (one undo step)."""
@@ -993,9 +1067,52 @@ class MainWindow(QMainWindow):
                     QMessageBox.StandardButton.Yes:
                 return False
             return self._edit(lambda p: ed.remove_level(p, ids[0]), f"Delete level {ids[0]}")
-        self.statusBar().showMessage("Members are edited, not deleted: regenerate the "
-                                     "framing to change the layout", 6000)
+        if k == "member":
+            return self.delete_member(ids[0], ids[1])
         return False
+
+    def delete_member(self, level_id: str, member_id: str) -> bool:
+        """Delete a girder or beam (one undo step). Members that rest on it (their
+        ends on nothing once it is gone) are named, and deleted with it only if the
+        user agrees; otherwise nothing changes. A deletion that would leave the level
+        unanalysable is refused with the solver's reason."""
+        p = self.doc.project
+        try:
+            lv = p.level(level_id)
+            m = lv.member(member_id)
+            carried = resting_on(lv, [member_id])
+        except (KeyError, ModelError) as exc:
+            self.statusBar().showMessage(f"Delete member: {_describe(exc)}", 8000)
+            return False
+        what = f"{m.role} {m.id}"
+        text = f"Delete {what}"
+        if carried:
+            n = len(carried)
+            shown = ", ".join(carried[:MAX_LISTED]) + (
+                f" and {n - MAX_LISTED} more" if n > MAX_LISTED else "")
+            ans = QMessageBox.question(
+                self, "Delete member",
+                f"{n} member(s) rest on {what}: {shown}.\n\nWithout {m.id} their ends "
+                "would rest on nothing, so droprig cannot keep them. Delete "
+                f"{m.id} and these {n} member(s) together? (One step: Edit › Undo "
+                "brings them all back.)\n\nCancel leaves the framing as it is.",
+                QMessageBox.StandardButton.Yes | QMessageBox.StandardButton.Cancel,
+                QMessageBox.StandardButton.Cancel)
+            if ans != QMessageBox.StandardButton.Yes:
+                self.statusBar().showMessage(f"Nothing deleted: {shown} rest on {m.id}", 8000)
+                return False
+            text += f" and the {n} member(s) resting on it"
+        try:
+            after = ed.remove_members(p, level_id, [member_id, *carried])
+            _check_framing(p, after, level_id)
+        except ModelError as exc:
+            QMessageBox.warning(self, "Delete member",
+                                f"{text}: refused. {_describe(exc)}\nNothing was changed.")
+            return False
+        if not self.doc.edit(after, text):
+            return False
+        self.statusBar().showMessage(f"{text} (Edit › Undo restores)", 8000)
+        return True
 
     def show_settings(self) -> SettingsDialog:
         if self._settings_dialog is None:

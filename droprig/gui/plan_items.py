@@ -706,11 +706,25 @@ def keep_inside(rect: QRectF, bounds: QRectF | None,
 # ------------------------------------------------------------------ handles
 
 HANDLE_KINDS: tuple[str, ...] = ("r_min", "r_max", "slew_start", "slew_end")
+CORNER_PREFIX = "corner_"
+"""Kind of a corridor-corner handle: ``corner_0``, ``corner_1`` … (corner index)."""
+
+
+def corner_kind(i: int) -> str:
+    return f"{CORNER_PREFIX}{i}"
+
+
+def corner_index(kind: str) -> int:
+    """The corner index of a ``corner_<i>`` handle kind, −1 for any other kind."""
+    if kind.startswith(CORNER_PREFIX) and kind[len(CORNER_PREFIX):].isdigit():
+        return int(kind[len(CORNER_PREFIX):])
+    return -1
 
 
 class HandleItem(QGraphicsItem):
     """A drag handle of the selected lift zone, a fixed-size square (radius
-    handles) or diamond (slew handles) in screen pixels (z 10).
+    handles), diamond (slew handles) or disc (corridor corners, kind
+    ``corner_<i>``) in screen pixels (z 10).
 
     The item reports drags to ``on_drag(kind, x, y)`` and ``on_release(kind)``
     in plan metres; the view turns them into a validated LiftZone.
@@ -729,10 +743,12 @@ class HandleItem(QGraphicsItem):
         self.setCursor(Qt.CursorShape.SizeAllCursor)
         self.setZValue(10)
         self.setVisible(False)
-        self.setToolTip({"r_min": "Drag: inner radius of the swing zone",
-                         "r_max": "Drag: outer radius of the swing zone",
-                         "slew_start": "Drag: start of the slew arc",
-                         "slew_end": "Drag: end of the slew arc"}[kind])
+        tips = {"r_min": "Drag: inner radius of the swing zone",
+                "r_max": "Drag: outer radius of the swing zone",
+                "slew_start": "Drag: start of the slew arc",
+                "slew_end": "Drag: end of the slew arc"}
+        corner = corner_index(kind)
+        self.setToolTip(tips.get(kind, f"Drag: corner {corner + 1} of the lift corridor"))
 
     def boundingRect(self) -> QRectF:
         h = style.HANDLE_SIZE_PX / 2 + 3
@@ -747,6 +763,8 @@ class HandleItem(QGraphicsItem):
                                 else style.PLAN["handle"]))
         if self.kind.startswith("r_"):
             painter.drawRect(QRectF(-h, -h, 2 * h, 2 * h))
+        elif self.kind.startswith(CORNER_PREFIX):
+            painter.drawEllipse(QPointF(0, 0), h, h)
         else:
             painter.drawPolygon(QPolygonF([QPointF(0, -h - 1.5), QPointF(h + 1.5, 0),
                                            QPointF(0, h + 1.5), QPointF(-h - 1.5, 0)]))

@@ -16,6 +16,10 @@ Drawing language (our own, colours from :mod:`droprig.gui.style`):
   margin as a fainter dotted band, corridor dash-dot; the crane as a ring with
   four outrigger pads and a jib stroke towards the middle of the slew arc;
 * protection areas dashed violet rectangles with their name and kind;
+* the selected girder or beam outlined in the selection colour (a click on a member
+  selects it, a click between members the bay; a right click offers its actions);
+* drag handles of the selected zone: squares for the radii, diamonds for the slew
+  ends, discs on the corridor corners;
 * a corridor being drawn as a heavy teal polyline through the clicked corners,
   a thin line on to the pointer and a dotted closing edge back to the first
   corner (drawn over the plan, fixed-size corner squares);
@@ -33,10 +37,11 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
-from PySide6.QtCore import QEvent, QPoint, QPointF, QRectF, Qt, Signal
+from PySide6.QtCore import QEvent, QLineF, QPoint, QPointF, QRectF, Qt, QTimer, Signal
 from PySide6.QtGui import (
     QBrush,
     QColor,
+    QContextMenuEvent,
     QFocusEvent,
     QFontMetricsF,
     QKeyEvent,
@@ -51,6 +56,7 @@ from PySide6.QtGui import (
     QWheelEvent,
 )
 from PySide6.QtWidgets import (
+    QGraphicsLineItem,
     QGraphicsPixmapItem,
     QGraphicsRectItem,
     QGraphicsScene,
@@ -75,6 +81,8 @@ from droprig.gui.plan_items import (
     TagItem,
     ZonesItem,
     colour_values,
+    corner_index,
+    corner_kind,
     cosmetic_pen,
     crane_label_rect,
     fmt_ratio,
@@ -88,7 +96,7 @@ from droprig.gui.plan_items import (
     utilisation_line,
     zone_bounds,
 )
-from droprig.model import Level, LiftZone, ModelError, Project, Rect, bays
+from droprig.model import Level, LiftZone, Member, ModelError, Project, Rect, bays, corridor_problem
 from droprig.solver.results import RESPONSES, CaseResult, Results
 
 OVERLAY_MODES: tuple[str, ...] = ("outcome", "utilisation", "drop_height")
@@ -108,6 +116,13 @@ CLICK_SLOP_PX = 5
 """A press and release closer than this are a click, not a drag."""
 PICK_PX = 14.0
 """A click picks the nearest drop point within this many pixels (or 1.5 cells)."""
+MEMBER_PICK_PX = 5.0
+"""A click this close (pixels) to a girder or beam selects the member, not the bay…"""
+MEMBER_PICK_M = 0.3
+"""… but never farther than this, m: zoomed out, where members are a few pixels
+apart, a click between them still picks the bay."""
+NOTE_MS = 6000
+"""How long a refusal note stays beside a released corridor corner, ms."""
 LEGEND_WIDTH = 196.0
 """px; the legend box in the top right corner."""
 MIN_ZOOM, MAX_ZOOM = 0.2, 4000.0
@@ -178,7 +193,12 @@ class PlanView(QGraphicsView):
     nearest analysed drop point of the displayed case(s); ``hover_text(str)``;
     ``mode_changed(mode)`` when the edit mode changes (also when Esc leaves the
     draw-protection mode); ``corridor_drawn(zone_id, points)`` with the corner
-    points (m) of a corridor finished in "draw_corridor" mode.
+    points (m) of a corridor finished in "draw_corridor" mode;
+    ``corridor_changed(zone_id, points)`` once per released corridor-corner drag (the
+    receiver validates: the view only says in the drag read-out what will be refused);
+    ``member_clicked(member_id)`` for a click on a girder or beam (instead of
+    ``bay_clicked``); ``context_requested(global QPoint, member_id)`` for a right click
+    (member id "" when not on a member).
     """
 
     zone_changed = Signal(str, object)
@@ -188,6 +208,9 @@ class PlanView(QGraphicsView):
     hover_text = Signal(str)
     mode_changed = Signal(str)
     corridor_drawn = Signal(str, object)
+    corridor_changed = Signal(str, object)
+    member_clicked = Signal(str)
+    context_requested = Signal(object, str)
 
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent)
@@ -214,6 +237,7 @@ class PlanView(QGraphicsView):
         self._case: tuple[str, str] | None = None
         self._selected_bay: str | None = None
         self._selected_zone: str | None = None
+        self._selected_member: str | None = None
         self._user_view = False
         self._drag: _Drag | None = None
         self._press: QPoint | None = None
@@ -268,13 +292,25 @@ class PlanView(QGraphicsView):
         self._band_item.setBrush(fill)
         self._band_item.setZValue(11)
         self._band_item.setVisible(False)
+        self._member_item = QGraphicsLineItem()
+        self._member_item.setPen(cosmetic_pen(style.PLAN["selection"], 6.0))
+        self._member_item.setZValue(9)
+        self._member_item.setVisible(False)
+        self._member_item.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
         self._drag_label = TagItem()
+        self._note_timer = QTimer(self)
+        self._note_timer.setSingleShot(True)
+        self._note_timer.setInterval(NOTE_MS)
+        self._note_timer.timeout.connect(self._hide_note)
         self._handles = {k: HandleItem(k, self._on_handle_drag, self._on_handle_release)
                          for k in HANDLE_KINDS}
+        self._corner_handles: list[HandleItem] = []
+        """Corridor-corner handles, grown on demand and only ever hidden (never
+        deleted: a handle may be handling its own mouse event)."""
         for item in (self._bays_item, self._overlay_item, self._openings_item,
                      self._framing_item, self._protection_item, self._zones_item,
                      self._labels_item, self._cranes_item, self._protection_labels,
-                     self._selection_item, self._hover_item,
+                     self._selection_item, self._hover_item, self._member_item,
                      self._band_item,
                      self._drag_label, *self._handles.values()):
             self._scene.addItem(item)
@@ -333,6 +369,7 @@ class PlanView(QGraphicsView):
             self.set_mode("select")
         self._zones_item.set_selected(self._selected_zone)
         self._cranes_item.set_selected(self._selected_zone)
+        self.set_selected_member(self._selected_member)
         self._update_scene_rect()
         self._refresh_results()
         self._place_handles()
@@ -377,6 +414,7 @@ class PlanView(QGraphicsView):
             self.viewport().update()
         if self._drag is None:
             self._drag_label.setVisible(False)
+        self._place_handles()
         self.viewport().setCursor(Qt.CursorShape.CrossCursor if mode.startswith("draw_")
                                   else Qt.CursorShape.ArrowCursor)
         if changed:
@@ -420,8 +458,53 @@ class PlanView(QGraphicsView):
         self._place_handles()
 
     def handle(self, kind: str) -> HandleItem:
-        """The handle item ``r_min``, ``r_max``, ``slew_start`` or ``slew_end``."""
-        return self._handles[kind]
+        """The handle item ``r_min``, ``r_max``, ``slew_start``, ``slew_end`` or
+        ``corner_<i>`` (corner i of the selected zone's corridor; KeyError if the
+        corridor has no such corner)."""
+        i = corner_index(kind)
+        if i < 0:
+            return self._handles[kind]
+        if i >= len(self._corner_handles) or not self._corner_handles[i].isVisible():
+            raise KeyError(kind)
+        return self._corner_handles[i]
+
+    def _all_handles(self) -> list[HandleItem]:
+        return [*self._handles.values(), *self._corner_handles]
+
+    def set_selected_member(self, member_id: str | None) -> None:
+        """Outline member ``member_id`` of the level shown (None, or a member not on
+        it, hides the outline)."""
+        m = self._member(member_id) if member_id else None
+        self._selected_member = m.id if m is not None else None
+        self._member_item.setVisible(m is not None)
+        if m is not None:
+            self._member_item.setLine(QLineF(to_scene(*m.start), to_scene(*m.end)))
+
+    @property
+    def selected_member(self) -> str | None:
+        return self._selected_member
+
+    def _member(self, member_id: str) -> Member | None:
+        if self._level is None:
+            return None
+        return next((m for m in self._level.members if m.id == member_id), None)
+
+    def member_at(self, x: float, y: float) -> Member | None:
+        """The girder or beam nearest plan point (x, y), m, within MEMBER_PICK_PX
+        pixels and MEMBER_PICK_M (girders win a tie: they are drawn on top)."""
+        if self._level is None:
+            return None
+        tol = min(MEMBER_PICK_PX / max(self.pixels_per_metre(), 1e-9), MEMBER_PICK_M)
+        best: tuple[float, int, Member] | None = None
+        for m in self._level.members:
+            (x0, y0), (x1, y1) = m.start, m.end
+            dx, dy = x1 - x0, y1 - y0
+            t = min(max(((x - x0) * dx + (y - y0) * dy) / (dx * dx + dy * dy), 0.0), 1.0)
+            d = math.hypot(x - (x0 + t * dx), y - (y0 + t * dy))
+            key = (d, 0 if m.role == "girder" else 1, m)
+            if d <= tol and (best is None or key[:2] < best[:2]):
+                best = key
+        return best[2] if best is not None else None
 
     def fit(self) -> None:
         """Zoom and centre so the grid, zones and protection fill the view."""
@@ -614,10 +697,70 @@ class PlanView(QGraphicsView):
                 continue
             h.setPos(to_scene(*handle_positions(z)[k]))
             h.setVisible(True)
+        corners = z.corridor if z is not None and self._mode != "draw_corridor" else ()
+        while len(self._corner_handles) < len(corners):
+            h = HandleItem(corner_kind(len(self._corner_handles)), self._on_handle_drag,
+                           self._on_handle_release)
+            self._scene.addItem(h)
+            self._corner_handles.append(h)
+        for i, h in enumerate(self._corner_handles):
+            if i < len(corners):
+                h.setPos(to_scene(*corners[i]))
+                h.setVisible(True)
+            elif not h.dragging:
+                h.setVisible(False)
+
+    def _on_corner_drag(self, zone: LiftZone, kind: str, x: float, y: float) -> None:
+        i = corner_index(kind)
+        if self._drag is None or self._drag.kind != kind:
+            if not 0 <= i < len(zone.corridor):
+                return
+            self._drag = _Drag(kind, zone, zone)
+        d = self._drag
+        step = RADIUS_SNAP.get(self.unit_system, 0.05)
+        q = (round(round(x / step) * step, 6), round(round(y / step) * step, 6))
+        pts = list(d.origin.corridor)
+        pts[i] = q
+        try:
+            d.candidate = dataclasses.replace(d.origin, corridor=tuple(pts))
+        except ModelError:
+            pass  # out of the model's range: keep the last candidate
+        self._zones_item.set_preview(d.candidate)
+        self._place_handles()
+        s = self.unit_system
+        cx, cy = d.candidate.corridor[i]
+        text = (f"corner {i + 1}: ({units.fmt(cx, 'length', s, decimals=2)}, "
+                f"{units.fmt(cy, 'length', s, decimals=2)})")
+        problem = corridor_problem(d.candidate.corridor)
+        self._note_timer.stop()
+        # the tag beside the corner stays short; the status line says why
+        self._drag_label.setText(text + (" — will be refused" if problem else ""))
+        self._drag_label.setPos(to_scene(cx, cy))
+        self._drag_label.setVisible(True)
+        self.hover_text.emit(text + (f" — {problem}: will be refused" if problem else ""))
+
+    def show_note(self, text: str, x: float, y: float) -> None:
+        """A short note (a refused drag) beside plan point (x, y) for NOTE_MS."""
+        self._drag_label.setText(text)
+        self._drag_label.setPos(to_scene(x, y))
+        self._drag_label.setVisible(True)
+        self._note_timer.start()
+
+    def _hide_note(self) -> None:
+        if self._drag is None:
+            self._drag_label.setVisible(False)
+
+    @property
+    def note(self) -> str:
+        """The note or drag read-out shown on the plan ('' when none)."""
+        return self._drag_label.text() if self._drag_label.isVisible() else ""
 
     def _on_handle_drag(self, kind: str, x: float, y: float) -> None:
         zone = self._zone(self._selected_zone) if self._selected_zone else None
         if zone is None:
+            return
+        if corner_index(kind) >= 0:
+            self._on_corner_drag(zone, kind, x, y)
             return
         if self._drag is None or self._drag.kind != kind:
             hx, hy = handle_positions(zone)[kind]
@@ -675,6 +818,9 @@ class PlanView(QGraphicsView):
             return
         new = d.candidate
         if new == d.origin:
+            return
+        if corner_index(kind) >= 0:
+            self.corridor_changed.emit(new.id, new.corridor)
             return
         self.zone_changed.emit(new.id, new)
 
@@ -739,8 +885,8 @@ class PlanView(QGraphicsView):
                 self._band_origin = None
                 self._band_item.setVisible(False)
                 self._drag_label.setVisible(False)
-            elif self._drag is not None or any(h.dragging for h in self._handles.values()):
-                for h in self._handles.values():
+            elif self._drag is not None or any(h.dragging for h in self._all_handles()):
+                for h in self._all_handles():
                     if h.dragging:
                         h.dragging = False
                         h.ungrabMouse()
@@ -828,7 +974,7 @@ class PlanView(QGraphicsView):
             event.accept()
             return
         super().mouseMoveEvent(event)
-        if self._drag is None and not any(h.dragging for h in self._handles.values()):
+        if self._drag is None and not any(h.dragging for h in self._all_handles()):
             self._emit_hover(self.mapToScene(pos))
 
     def mouseReleaseEvent(self, event: QMouseEvent) -> None:
@@ -849,7 +995,7 @@ class PlanView(QGraphicsView):
             self._finish_band(self._band_origin, self._snap(self.mapToScene(pos)))
             event.accept()
             return
-        if any(h.dragging for h in self._handles.values()):
+        if any(h.dragging for h in self._all_handles()):
             super().mouseReleaseEvent(event)
             return
         press, self._press = self._press, None
@@ -946,8 +1092,13 @@ class PlanView(QGraphicsView):
 
     def _click(self, scene_pos: QPointF) -> None:
         x, y = from_scene(scene_pos)
-        s = self._bay_at(x, y)
-        if s is not None:
+        m = self.member_at(x, y)
+        s = self._bay_at(x, y) if m is None else None
+        if m is not None:
+            self.select_bay(None)
+            self.set_selected_member(m.id)
+            self.member_clicked.emit(m.id)
+        elif s is not None:
             self.select_bay(s.bay.id)
             self.bay_clicked.emit(s.bay.id)
         hit = self.nearest_point(x, y)
@@ -956,10 +1107,27 @@ class PlanView(QGraphicsView):
             self.point_clicked.emit(case.zone_id, case.load_name, float(case.x[i]),
                                     float(case.y[i]))
 
+    def contextMenuEvent(self, event: QContextMenuEvent) -> None:
+        """Right click: select the member under the pointer (if any) and ask the
+        window for a menu (``context_requested``)."""
+        if self._mode != "select" or self._level is None:
+            event.ignore()
+            return
+        m = self.member_at(*from_scene(self.mapToScene(event.pos())))
+        if m is not None:
+            self.set_selected_member(m.id)
+            self.member_clicked.emit(m.id)
+        self.context_requested.emit(event.globalPos(), m.id if m is not None else "")
+        event.accept()
+
     def describe(self, x: float, y: float) -> str:
         """The hover text for plan point (x, y), m."""
         sysm = self.unit_system
         parts: list[str] = []
+        m = self.member_at(x, y)
+        if m is not None:
+            parts.append(f"{m.role.capitalize()} {m.id} {m.section.name} {m.grade.name} "
+                         "(click to select)")
         s = self._bay_at(x, y)
         if s is not None:
             st = style.outcome(s.key)

@@ -19,7 +19,7 @@ _GROUP_ROLE = Qt.ItemDataRole.UserRole + 1
 class ProjectTree(QTreeWidget):
     """Tree view of ``document.project``. ``actions`` are offered in the context
     menu (``add_zone``, ``add_load``, ``add_protection``, ``add_opening``,
-    ``generate``, ``delete``)."""
+    ``generate``, ``apply_like``, ``delete``)."""
 
     def __init__(self, document: Document, actions: dict[str, QAction] | None = None,
                  parent: QWidget | None = None) -> None:
@@ -191,7 +191,7 @@ class ProjectTree(QTreeWidget):
             names = {"zone": ["add_load", "delete"], "load": ["delete"],
                      "protection": ["delete"], "opening": ["delete"],
                      "level": ["generate", "add_opening", "delete"],
-                     "deck": ["add_opening"], "member": ["apply_like"]}.get(sel.kind, [])
+                     "deck": ["add_opening"], "member": ["apply_like", "delete"]}.get(sel.kind, [])
         acts = [self._actions[n] for n in names if n in self._actions]
         if not acts:
             return

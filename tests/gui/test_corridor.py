@@ -1,7 +1,8 @@
 """Lift zone corridor edited in the GUI: drawn on the plan with the mouse
-(click the corners, Enter or double-click to finish, Backspace, Esc), typed in
-the inspector in the user's units, cleared from the Lift menu; every change is
-one undo step and the bays are re-analysed.
+(click the corners, Enter or double-click to finish, Backspace, Esc), its corners
+dragged by their handles, typed in the inspector in the user's units, cleared from
+the Lift menu; every change is one undo step and the bays are re-analysed; a polygon
+that crosses or touches itself or encloses no area is refused however it is entered.
 
 Workflow tests compare the application with itself (before / after an edit,
 undone); they use no expected engineering numbers. The framing and the crane
@@ -15,8 +16,9 @@ from dataclasses import replace
 from pathlib import Path
 
 import pytest
-from PySide6.QtCore import Qt
-from PySide6.QtWidgets import QLineEdit
+from PySide6.QtCore import QEvent, QPoint, QPointF, Qt
+from PySide6.QtGui import QMouseEvent
+from PySide6.QtWidgets import QApplication, QLineEdit, QMessageBox
 
 from droprig.gui import commands as ed
 from droprig.gui.document import Document, Selection
@@ -255,3 +257,164 @@ def test_corridor_text_in_feet() -> None:
     assert flat == pytest.approx([0.0, 0.0, 40 * FT, 0.0, 40 * FT, 20 * FT, 3.0, 20 * FT],
                                  abs=1e-12)
     assert corridor_text(pts[:3], "US") == "0,0; 40,0; 40,20"
+
+
+# ------------------------------------------------------------------ corner handles
+
+
+def _mouse(widget, etype: QEvent.Type, pos: QPoint, button: Qt.MouseButton,
+           buttons: Qt.MouseButton) -> None:
+    ev = QMouseEvent(etype, QPointF(pos), QPointF(widget.mapToGlobal(pos)), button, buttons,
+                     Qt.KeyboardModifier.NoModifier)
+    QApplication.sendEvent(widget, ev)
+
+
+def _drag(win: MainWindow, a: tuple[float, float], b: tuple[float, float],
+          steps: int = 6, release: bool = True) -> None:
+    vp = win.plan.viewport()
+    left = Qt.MouseButton.LeftButton
+    pa, pb = win.plan.view_pos(*a), win.plan.view_pos(*b)
+    _mouse(vp, QEvent.Type.MouseButtonPress, pa, left, left)
+    for k in range(1, steps + 1):
+        _mouse(vp, QEvent.Type.MouseMove, pa + (pb - pa) * (k / steps),
+               Qt.MouseButton.NoButton, left)
+    if release:
+        _mouse(vp, QEvent.Type.MouseButtonRelease, pb, left, Qt.MouseButton.NoButton)
+
+
+def _with_corridor(qtbot, win: MainWindow) -> LiftZone:
+    zone = _with_crane(qtbot, win)
+    win.doc.edit(ed.with_corridor(win.doc.project, zone.id, CORNERS), "corridor")
+    _settle(qtbot, win)
+    return win.doc.project.zone(zone.id)
+
+
+def test_corner_handles_sit_on_the_corners(qtbot, window: MainWindow) -> None:
+    zone = _with_corridor(qtbot, window)
+    for i, (x, y) in enumerate(CORNERS):
+        h = window.plan.handle(f"corner_{i}")
+        assert h.isVisible()
+        assert (h.pos().x(), -h.pos().y()) == pytest.approx((x, y), abs=1e-9)
+        assert f"corner {i + 1}" in h.toolTip()
+    with pytest.raises(KeyError):
+        window.plan.handle("corner_4")
+    window.doc.select(None)  # handles belong to the selected zone only
+    assert not window.plan.handle("r_max").isVisible()
+    with pytest.raises(KeyError):
+        window.plan.handle("corner_0")
+    window.doc.select(Selection("zone", (zone.id,)))
+    assert window.plan.handle("corner_0").isVisible()
+
+
+def test_corner_drag_is_one_undo_step_and_reanalyses(qtbot, window: MainWindow) -> None:
+    zone = _with_corridor(qtbot, window)
+    before = window.doc.results
+    depth = window.doc.undo_stack.count()
+    window.doc.undo_stack.setClean()
+    # corner 3 out of the south-west bay, into the bay north of it (scenario)
+    _drag(window, CORNERS[2], (4.0, 7.0))
+    corridor = window.doc.project.zone(zone.id).corridor
+    assert window.doc.undo_stack.count() == depth + 1
+    assert window.doc.undo_stack.undoText() == f"Move corridor corner of lift zone {zone.id}"
+    assert window.isWindowModified()
+    assert corridor[2] == pytest.approx((4.0, 7.0), abs=PIXEL_TOL_M)
+    for v in corridor[2]:  # snapped like drawn corners (50 mm in SI)
+        assert v / SNAP_M == pytest.approx(round(v / SNAP_M), abs=1e-6)
+    assert corridor[:2] == CORNERS[:2] and corridor[3] == CORNERS[3]
+    h = window.plan.handle("corner_2")
+    assert (h.pos().x(), -h.pos().y()) == pytest.approx(corridor[2], abs=1e-9)
+    _settle(qtbot, window)
+    # common practice, no source: a corridor reaching into the next bay north adds it
+    assert _south_west_bay(window) in _reached_bays(window)
+    assert len(_reached_bays(window)) == 2
+
+    window.actions["undo"].trigger()
+    assert window.doc.project.zone(zone.id) == zone
+    _settle(qtbot, window)
+    assert {(b.bay_id, b.response) for b in window.doc.results.bays} == \
+        {(b.bay_id, b.response) for b in before.bays}
+    window.actions["redo"].trigger()
+    assert window.doc.project.zone(zone.id).corridor == corridor
+
+
+def test_a_crossing_drag_is_refused_and_the_corridor_stays(qtbot, window: MainWindow) -> None:
+    zone = _with_corridor(qtbot, window)
+    before = window.doc.project
+    depth = window.doc.undo_stack.count()
+    # corner 4 dragged east past edge 2–3: a bow tie
+    _drag(window, CORNERS[3], (5.0, 2.0), release=False)
+    assert "will be refused" in window.plan.note  # said while dragging
+    _mouse(window.plan.viewport(), QEvent.Type.MouseButtonRelease,
+           window.plan.view_pos(5.0, 2.0), Qt.MouseButton.LeftButton, Qt.MouseButton.NoButton)
+    assert window.doc.project is before
+    assert window.doc.undo_stack.count() == depth
+    msg = window.statusBar().currentMessage()
+    assert "Corridor corner" in msg and "crosses or touches" in msg
+    assert "simple polygon" in msg and "Nothing was changed" in msg
+    assert "refused" in window.plan.note  # and beside the corner
+    h = window.plan.handle("corner_3")
+    assert (h.pos().x(), -h.pos().y()) == pytest.approx(CORNERS[3], abs=1e-9)
+    assert window.doc.project.zone(zone.id).corridor == CORNERS
+
+
+def test_corner_onto_its_neighbour_is_refused(qtbot, window: MainWindow) -> None:
+    zone = _with_corridor(qtbot, window)
+    before = window.doc.project
+    plan = window.plan  # close in: one pixel well under the 50 mm snap
+    plan.zoom_at(QPointF(plan.view_pos(2.5, 2.0)), 40.0 / plan.pixels_per_metre())
+    _drag(window, CORNERS[1], CORNERS[2])
+    assert window.doc.project is before
+    assert "same place" in window.statusBar().currentMessage()
+    assert window.doc.project.zone(zone.id).corridor == CORNERS
+
+
+def test_escape_cancels_a_corner_drag(qtbot, window: MainWindow) -> None:
+    zone = _with_corridor(qtbot, window)
+    before = window.doc.project
+    _drag(window, CORNERS[0], (0.0, 0.0), release=False)
+    qtbot.keyPress(window.plan, Qt.Key.Key_Escape)
+    _mouse(window.plan.viewport(), QEvent.Type.MouseButtonRelease,
+           window.plan.view_pos(0.0, 0.0), Qt.MouseButton.LeftButton, Qt.MouseButton.NoButton)
+    assert window.doc.project is before
+    assert window.doc.project.zone(zone.id).corridor == CORNERS
+
+
+def test_no_corner_handles_while_drawing(qtbot, window: MainWindow) -> None:
+    _with_corridor(qtbot, window)
+    window.actions["draw_corridor"].trigger()
+    with pytest.raises(KeyError):
+        window.plan.handle("corner_0")
+    qtbot.keyClick(window.plan, Qt.Key.Key_Escape)
+    assert window.plan.handle("corner_0").isVisible()
+
+
+@pytest.mark.parametrize(("text", "says"), [
+    ("1,1; 4,1; 4,3.5; 5,2", "edge 2–3 crosses or touches edge 4–1"),
+    ("1,1; 4,1; 4,1; 1,3.5", "corners 2 and 3 are at the same place"),
+    ("0,0; 2,0; 4,0", "folds back"),
+])
+def test_typed_self_crossing_corridor_is_refused(inspector: Inspector, text: str,
+                                                 says: str) -> None:
+    doc = inspector._doc
+    doc.edit(ed.with_corridor(doc.project, "Z1", CORNERS), "corridor")
+    before = doc.project
+    _enter(inspector.editor("corridor"), text)
+    assert doc.project is before
+    assert says in inspector.message and "simple polygon" in inspector.message
+    assert "Nothing was changed" in inspector.message
+
+
+def test_drawn_self_crossing_corridor_is_refused(qtbot, window: MainWindow,
+                                                 monkeypatch: pytest.MonkeyPatch) -> None:
+    zone = _with_crane(qtbot, window)
+    warned: list[str] = []
+    monkeypatch.setattr(QMessageBox, "warning",
+                        lambda parent, title, text, *a, **k: warned.append(text))
+    before = window.doc.project
+    window.actions["draw_corridor"].trigger()
+    for x, y in ((1.0, 1.0), (4.0, 1.0), (1.0, 3.5), (4.0, 3.5)):  # a bow tie
+        _click(qtbot, window, x, y)
+    qtbot.keyClick(window.plan, Qt.Key.Key_Return)
+    assert window.doc.project is before
+    assert window.doc.project.zone(zone.id).corridor == ()
+    assert len(warned) == 1 and "crosses or touches" in warned[0]
