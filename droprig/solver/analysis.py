@@ -686,8 +686,6 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
 
         lock = threading.Lock()
         for_blocks(block, n, chunk)
-    if n > CACHE_MAX_POINTS:
-        memory.release_memory()
     return out
 
 
@@ -1103,25 +1101,25 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
     if n == 0 or nl == 0:
         return evaluate_case(fm, project, list(loads), point_geometry(fm, project, x, y),
                              np.zeros(0, dtype=np.int64))
-    out: dict[str, np.ndarray] = {}
-    lock = threading.Lock()
+    # the outputs are allocated here, by the calling thread (its heap is reused from
+    # one large job to the next; memory first touched in a worker's heap is not):
+    # their fields and types from one point
+    with np.errstate(all="ignore"):
+        probe = _select(_evaluate_case(fm, project, loads[0],
+                                       point_geometry(fm, project, x[:1], y[:1]), None,
+                                       False), keep)
+    out = {k: np.empty((nl * n, *v.shape[1:]), dtype=v.dtype) for k, v in probe.items()}
 
     def block(s: int, e: int) -> None:
         geo = point_geometry(fm, project, x[s:e], y[s:e])
         with np.errstate(all="ignore"):
             parts = [_select(_evaluate_case(fm, project, ld, geo, None, False), keep)
                      for ld in loads]
-        with lock:  # the first block to finish allocates the outputs
-            for k, v in parts[0].items():
-                if k not in out:
-                    out[k] = np.empty((nl * n, *v.shape[1:]), dtype=v.dtype)
         for j, part in enumerate(parts):
             for k, v in part.items():
                 out[k][j * n + s:j * n + e] = v
 
     for_blocks(block, n, loadpath_chunk())
-    if n > CACHE_MAX_POINTS:
-        memory.release_memory()
     return out
 
 
@@ -1424,4 +1422,6 @@ def analyse(project: Project) -> Results:
         cases.extend(r.cases)
         summaries.extend(r.bays)
         warnings.extend(w for w in r.warnings if w not in warnings)
+    if sum(c.x.size for c in cases) > CACHE_MAX_POINTS:
+        memory.release_memory()  # hand the temporaries of a large job back
     return Results(tuple(cases), tuple(summaries), tuple(warnings))
