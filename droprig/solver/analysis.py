@@ -265,20 +265,23 @@ class CandidateTables:
     """Load-independent tables of the check candidates of a prepared floor.
 
     Support members of each panel (``P`` per panel, ``S`` moment stations each):
-    flexure rows p·S + s and shear rows p·2 + e, each a linear combination of the four
-    local reactions r_i of the panel's deck members (``m_coef``/``v_coef``, (P, 4, S or
-    2, panels), zero for a panel with fewer supports; ``m_terms``/``v_terms``: per
-    support, the reactions that ever enter), existing demand over resistance
-    (``m_Et``/``v_Et``, (rows, panels)) and resistance per support (``m_R``/``v_R``,
-    (P, panels)); ``member``/``valid`` (P, panels). Deck members: existing end shear
-    over shear resistance ``V_Et`` (2, members).
+    flexure rows (support p, station s) and shear rows (p, end e), each a linear
+    combination of the four local reactions r_i of the panel's deck members
+    (``m_coef``: per support (4, stations kept, panels); ``v_coef`` (P, 4, 2, panels);
+    zero for a panel with fewer supports; ``m_terms``/``v_terms``: per support, the
+    reactions that ever enter), existing demand over resistance (``m_Et``: per support
+    (stations kept, panels); ``v_Et`` (P·2, panels)) and resistance per support
+    (``m_R``/``v_R``, (P, panels)); ``member``/``valid`` (P, panels). ``m_keep``: per
+    support, the stations kept — a station whose demand can never exceed another's
+    is left out (:func:`_dominated_stations`). Deck members: existing end shear over
+    shear resistance ``V_Et`` (2, members).
     """
 
     P: int
     S: int
-    m_coef: np.ndarray
+    m_coef: tuple[np.ndarray, ...]
     m_terms: tuple[tuple[int, ...], ...]
-    m_Et: np.ndarray
+    m_Et: tuple[np.ndarray, ...]
     m_R: np.ndarray
     v_coef: np.ndarray
     v_terms: tuple[tuple[int, ...], ...]
@@ -287,6 +290,31 @@ class CandidateTables:
     member: np.ndarray
     valid: np.ndarray
     V_Et: np.ndarray
+    m_keep: tuple[np.ndarray, ...] = ()
+
+
+def _dominated_stations(coef: np.ndarray, Et: np.ndarray) -> np.ndarray:
+    """Stations of one support member that never govern, (S,) bool.
+
+    The local reactions r_i of a panel are never negative (a downward load between
+    the supports of a deck member; AISC Manual Table 3-23), so where station s'
+    has coefficients c'_i ≥ |c_i| of station s for every reaction and every panel and
+    an existing demand E' ≥ |E|, then |F·Σc_i·r_i + E| ≤ F·Σc'_i·r_i + E' for every
+    F ≥ 0: s never has the larger utilisation nor the smaller allowed force (the
+    same holds for the rounded values: rounding is monotonic). Of two stations that
+    dominate each other the first is kept. ``coef`` (4, S, panels), ``Et`` (S,
+    panels)."""
+    S = coef.shape[1]
+    out = np.zeros(S, dtype=bool)
+
+    def dom(s2: int, s: int) -> bool:
+        return bool(np.all(coef[:, s2, :] >= np.abs(coef[:, s, :]))
+                    and np.all(Et[s2] >= np.abs(Et[s])))
+
+    for s in range(S):
+        out[s] = any(s2 != s and dom(s2, s) and (s2 < s or not dom(s, s2))
+                     for s2 in range(S))
+    return out
 
 
 def candidate_tables(frame: Frame, Mr: np.ndarray, Vr: np.ndarray, V0: np.ndarray,
@@ -309,11 +337,15 @@ def candidate_tables(frame: Frame, Mr: np.ndarray, Vr: np.ndarray, V0: np.ndarra
         m_Et = (M0_sup * vf[:, :, None]) / Mr[supm][:, :, None]
         v_Et = (V0[supm] * vf[:, :, None]) / Vr[supm][:, :, None]
         V_Et = (V0 / Vr[:, None]).T
+    coef_all = np.ascontiguousarray(mc.transpose(1, 3, 2, 0))  # (P, 4, S, panels)
+    Et_all = np.ascontiguousarray(m_Et.transpose(1, 2, 0))  # (P, S, panels)
+    keep = tuple(np.flatnonzero(~_dominated_stations(coef_all[p], Et_all[p]))
+                 for p in range(P))
     return CandidateTables(
-        P=P, S=S,
-        m_coef=np.ascontiguousarray(mc.transpose(1, 3, 2, 0)),
-        m_terms=terms(mc), m_Et=np.ascontiguousarray(m_Et.transpose(1, 2, 0)).reshape(
-            P * S, n_p),
+        P=P, S=S, m_keep=keep,
+        m_coef=tuple(np.ascontiguousarray(coef_all[p][:, k]) for p, k in enumerate(keep)),
+        m_terms=terms(mc),
+        m_Et=tuple(np.ascontiguousarray(Et_all[p][k]) for p, k in enumerate(keep)),
         m_R=np.ascontiguousarray(Mr[supm].T),
         v_coef=np.ascontiguousarray(vc.transpose(1, 3, 2, 0)),
         v_terms=terms(vc), v_Et=np.ascontiguousarray(v_Et.transpose(1, 2, 0)).reshape(
@@ -368,7 +400,8 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     # ---- flexure: deck members (2, S_l stations) then support members (P, S)
     xs = _loaded_stations(aT[:, None, :], LT[:, None, :], bool(np.any(fr.cond != 0)))
     S_l = xs.shape[1]
-    C = 2 * S_l + P * S
+    S_p = [k.size for k in tb.m_keep]  # stations kept per support member
+    C = 2 * S_l + sum(S_p)
     ut = np.empty((C, n))
     Et = np.empty((C, n))
     u = by_condition(beam.unit_moment, condT[:, None, :], LT[:, None, :], xs,
@@ -387,13 +420,14 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
         if st not in _MOVING:
             np.take(tab[st], memT, out=E3[:, st, :])
     m_R = np.take(tb.m_R, pair, axis=1)  # (P, n)
+    runs = _runs([S_l, S_l, *S_p])
     for p in range(P):
-        rows = ut[2 * S_l + p * S:2 * S_l + (p + 1) * S]
-        _combine(rows, tb.m_coef[p], tb.m_terms[p], pair, rT)
-        rows /= m_R[p]
-    np.take(tb.m_Et, pair, axis=1, out=Et[2 * S_l:])
+        a0, a1 = runs[2 + p]
+        _combine(ut[a0:a1], tb.m_coef[p], tb.m_terms[p], pair, rT)
+        ut[a0:a1] /= m_R[p]
+        np.take(tb.m_Et[p], pair, axis=1, out=Et[a0:a1])
     flex = Family(ut, Et, members, np.concatenate([fm.Mr[memT], m_R]),
-                  np.repeat(np.arange(2 + P), [S_l, S_l] + [S] * P), _runs(S_l, P, S))
+                  np.repeat(np.arange(2 + P), [S_l, S_l, *S_p]), runs)
     # ---- shear: deck member ends (rows m0·R0, m1·R0, m0·RL, m1·RL), support ends
     R0, RL = by_condition(beam.unit_reactions, condT, LT, aT)
     Vd = fm.Vr[memT]
@@ -432,9 +466,9 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     arm[:2] = np.where(cant, aT, np.minimum(aT, LT - aT))  # hinge arm (root for a cantilever)
     rp_cond = np.concatenate([condT, fr.cond[supm]])
     for p in range(P):
-        a0 = 2 * S_l + p * S
+        a0, a1 = runs[2 + p]
         fa_p = flex.gmin[2 + p]
-        j = argmin_axis(flex.fa[a0:a0 + S], fa_p, 0)
+        j = tb.m_keep[p][argmin_axis(flex.fa[a0:a1], fa_p, 0)]
         Rp_all[2 + p] = np.where(np.take(tb.valid[p], pair), fa_p, np.inf)
         # station of the governing section: pair_sup_x[pair, p, j] by flat index
         xst = np.take(fr.pair_sup_x.reshape(-1), (pair * P + p) * S + j)
@@ -464,12 +498,11 @@ def _unit_actions(fm: FloorModel, geo: Geometry) -> dict[str, object]:
     return ua
 
 
-def _runs(S_l: int, P: int, S: int) -> tuple[tuple[int, int], ...]:
-    """(start, stop) of the flexure rows of each source: two deck members of S_l
-    stations, then P support members of S stations."""
-    starts = [0, S_l] + [2 * S_l + p * S for p in range(P)]
-    lens = [S_l, S_l] + [S] * P
-    return tuple((s, s + k) for s, k in zip(starts, lens, strict=True))
+def _runs(lens: Sequence[int]) -> tuple[tuple[int, int], ...]:
+    """(start, stop) of consecutive runs of rows of the given lengths (the flexure
+    rows of each source: two deck members, then the support members)."""
+    ends = np.cumsum(lens).tolist()
+    return tuple((e - k, e) for e, k in zip(ends, lens, strict=True))
 
 
 def _loaded_stations(a: np.ndarray, L: np.ndarray, ends: bool) -> np.ndarray:
