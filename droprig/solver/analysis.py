@@ -929,9 +929,10 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
         duct_s = np.where(d_y_s > 0, d_struct / np.where(d_y_s > 0, d_y_s, 1.0), np.inf)
     theta_s = np.zeros(d_struct.shape)
     cond_s, arm_s = rp_cond[sub], rp_arm[sub]
-    for c in np.unique(cond_s):
-        sel = cond_s == c
-        Lsel = np.where(COND_NAMES[int(c)] == "cantilever", arm_s[sel], 2 * arm_s[sel])
+    one = not cond_s.size or cond_s.min() == cond_s.max()
+    for c in cond_s[:1] if one else np.unique(cond_s):
+        sel = slice(None) if one else cond_s == c
+        Lsel = arm_s[sel] if COND_NAMES[int(c)] == "cantilever" else 2 * arm_s[sel]
         theta_s[sel] = plastic.support_rotation(d_struct[sel], Lsel, arm_s[sel],
                                                 COND_NAMES[int(c)])
     if isinstance(sub, slice):

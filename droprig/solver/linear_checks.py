@@ -35,12 +35,13 @@ load on a member that takes no share of it) while any share of it stays ∞."""
 def demand(F: np.ndarray, unit: np.ndarray, exist: np.ndarray | None) -> np.ndarray:
     """|F·unit + exist| (``exist`` None: no existing demand); ∞ where F is unbounded and
     the candidate takes a share."""
-    d = np.minimum(F, F_HUGE) * unit
+    inf = np.isinf(F)
+    has_inf = bool(inf.any())
+    d = (np.minimum(F, F_HUGE) if has_inf else F) * unit
     if exist is not None:
         d += exist
     np.abs(d, out=d)
-    inf = np.isinf(F)
-    if inf.any():
+    if has_inf:
         d = np.where(inf & (unit != 0.0), np.inf, d)
     return d
 
@@ -166,7 +167,8 @@ def small_check(name: str, F: np.ndarray, unit: np.ndarray, exist: np.ndarray | 
         d /= resist
         return d.max(axis=0)
 
-    mem = np.broadcast_to(member, shape)[j, cols]
+    mem = (np.broadcast_to(member, shape)[0] if shape[0] == 1
+           else np.broadcast_to(member, shape)[j, cols])
     if not detail:
         return Check(name, U, F_allow, mem, None, None, None, U_at)
     ex = np.zeros(shape) if exist is None else np.broadcast_to(exist, shape)
