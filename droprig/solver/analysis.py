@@ -46,7 +46,6 @@ The drop points are the zone grid plus the points that can govern
 from __future__ import annotations
 
 import math
-import threading
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 
@@ -698,9 +697,8 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
         if n <= chunk:
             return _select(_evaluate_case(fm, project, load, geo, load_index, detail),
                            keep)
-        out: dict[str, np.ndarray] = {}
 
-        def block(s: int, e: int) -> None:
+        def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
             sl = slice(s, e)
             li = None if load_index is None else load_index[sl]
             sub = geo.cache.get(("slice", s))
@@ -709,16 +707,30 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
                 if n <= CACHE_MAX_POINTS:  # keep per-point actions for the next load
                     geo.cache[("slice", s)] = sub
             with np.errstate(all="ignore"):
-                part = _select(_evaluate_case(fm, project, load, sub, li, detail), keep)
-            with lock:  # the first block to finish allocates the outputs
-                for k, v in part.items():
-                    if k not in out:
-                        out[k] = np.empty((n, *v.shape[1:]), dtype=v.dtype)
-            for k, v in part.items():
-                out[k][sl] = v
+                return [_select(_evaluate_case(fm, project, load, sub, li, detail), keep)]
 
-        lock = threading.Lock()
-        for_blocks(block, n, chunk)
+        li0 = None if load_index is None else load_index[:1]
+        probe = _select(_evaluate_case(fm, project, load, _slice_geo(geo, slice(0, 1)),
+                                       li0, detail), keep)
+        return _blockwise(n, 1, chunk, block, probe)
+
+
+def _blockwise(n: int, n_sets: int, chunk: int,
+               block: Callable[[int, int], list[dict[str, np.ndarray]]],
+               probe: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    """Outputs of ``n_sets`` sets of ``n`` rows (set-major) computed block by block on
+    all cores: ``block(s, e)`` returns each set's arrays for rows s..e. The outputs are
+    allocated by the calling thread, their fields and types taken from ``probe`` (its
+    heap is reused from one large job to the next; memory first touched in a worker's
+    heap is not)."""
+    out = {k: np.empty((n_sets * n, *v.shape[1:]), dtype=v.dtype) for k, v in probe.items()}
+
+    def run(s: int, e: int) -> None:
+        for j, part in enumerate(block(s, e)):
+            for k, v in part.items():
+                out[k][j * n + s:j * n + e] = v
+
+    for_blocks(run, n, chunk)
     return out
 
 
@@ -1135,26 +1147,18 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
     if n == 0 or nl == 0:
         return evaluate_case(fm, project, list(loads), point_geometry(fm, project, x, y),
                              np.zeros(0, dtype=np.int64))
-    # the outputs are allocated here, by the calling thread (its heap is reused from
-    # one large job to the next; memory first touched in a worker's heap is not):
-    # their fields and types from one point
+
+    def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
+        geo = point_geometry(fm, project, x[s:e], y[s:e])
+        with np.errstate(all="ignore"):
+            return [_select(_evaluate_case(fm, project, ld, geo, None, False), keep)
+                    for ld in loads]
+
     with np.errstate(all="ignore"):
         probe = _select(_evaluate_case(fm, project, loads[0],
                                        point_geometry(fm, project, x[:1], y[:1]), None,
                                        False), keep)
-    out = {k: np.empty((nl * n, *v.shape[1:]), dtype=v.dtype) for k, v in probe.items()}
-
-    def block(s: int, e: int) -> None:
-        geo = point_geometry(fm, project, x[s:e], y[s:e])
-        with np.errstate(all="ignore"):
-            parts = [_select(_evaluate_case(fm, project, ld, geo, None, False), keep)
-                     for ld in loads]
-        for j, part in enumerate(parts):
-            for k, v in part.items():
-                out[k][j * n + s:j * n + e] = v
-
-    for_blocks(block, n, loadpath_chunk())
-    return out
+    return _blockwise(n, nl, loadpath_chunk(), block, probe)
 
 
 def zone_points(fm: FloorModel, project: Project, zone: LiftZone,

@@ -21,6 +21,7 @@ MIN_PARALLEL_BLOCKS = 4
 than it saves)."""
 
 _POOL: ThreadPoolExecutor | None = None
+_POOL_SIZE = 0
 _POOL_LOCK = threading.Lock()
 _LOCAL = threading.local()
 
@@ -42,12 +43,13 @@ def workers() -> int:
 
 
 def _pool(n: int) -> ThreadPoolExecutor:
-    global _POOL
+    global _POOL, _POOL_SIZE
     with _POOL_LOCK:
-        if _POOL is None or _POOL._max_workers != n:
+        if _POOL is None or _POOL_SIZE != n:
             if _POOL is not None:
                 _POOL.shutdown(wait=False)
             _POOL = ThreadPoolExecutor(max_workers=n, thread_name_prefix="droprig-block")
+            _POOL_SIZE = n
         return _POOL
 
 
