@@ -1189,11 +1189,13 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
         if x.size == 0:
             break
         k, first = np.unique(_keys(x, y, lj), return_index=True)
-        new = first[~_in_sorted(known, k)]
+        fresh = ~_in_sorted(known, k)
+        new = first[fresh]
         if new.size == 0:
             continue
         x, y, lj = x[new], y[new], lj[new]
-        known = np.sort(np.concatenate([known, _keys(x, y, lj)]))
+        # merged into the sorted known keys (k is sorted: no sort of the whole again)
+        known = np.insert(known, np.searchsorted(known, k[fresh]), k[fresh])
         geo = point_geometry(fm, project, x, y)
         r2 = evaluate_case(fm, project, loads, geo, lj)
         r2["_load"] = lj
