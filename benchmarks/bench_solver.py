@@ -56,6 +56,24 @@ def _members_per_point(fm, geo) -> float:
     return float(np.mean(counts[pairs]))
 
 
+def bench_reference(runs: int = 7) -> float:
+    """A fixed numpy workload (s, median): the machine's own speed at the time of the
+    run, to read the other figures against (shared machines vary by tens of % from
+    one minute to the next)."""
+    rng = np.random.default_rng(0)
+    a, b = rng.random(1 << 15), rng.random(1 << 15)
+
+    def work() -> None:
+        for _ in range(300):
+            c = a * b
+            c += a
+            np.abs(c, out=c)
+            np.sqrt(c, out=c)
+            c.max()
+
+    return _median_time(work, runs)
+
+
 def bench_throughput(project, n: int) -> dict[str, float]:
     zone = project.lift_zones[0]
     fm = analysis.floor_model(project.level(zone.level_id), project.settings)
@@ -205,6 +223,9 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
         return out
     name0, proj0 = projects[0]
     print(f"droprig solver benchmarks — {'quick' if q else 'full'} run")
+    ref = bench_reference()
+    out["reference_s"] = ref
+    print(f"\n0. machine reference (fixed numpy workload, one thread): {ref * 1e3:.1f} ms")
     tp = bench_throughput(proj0, 20_000 if q else 200_000)
     out["throughput"] = tp
     print(f"\n1. throughput on {name0} ({tp['points']} points, "
