@@ -51,7 +51,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from droprig.model import Level, LiftLoad, LiftZone, Project, Settings, bays
+from droprig.model import Level, LiftLoad, LiftZone, Project, Settings, bays, corridor_problem
 from droprig.solver import (
     beam,
     capacity,
@@ -1425,6 +1425,9 @@ def analyse_zone(project: Project, zone_id: str,
     fm = floor(zone.level_id)
     level = fm.level
     warnings = list(fm.warnings)
+    if zone.corridor and (problem := corridor_problem(zone.corridor)) is not None:
+        warnings.append(f"zone {zone.id}: the lift corridor is not a simple polygon "
+                        f"({problem}); check the drop points it covers")
     x, y = droppoints.base_points(fm.frame, zone, project.settings.grid_resolution)
     if x.size == 0:
         warnings.append(f"zone {zone.id}: no drop point over the deck of level {level.id}")

@@ -475,3 +475,18 @@ def test_trace_refuses_a_point_off_the_deck(busy_project):
         trace_point(busy_project, "Z1", "pump", -50.0, -50.0)
     with pytest.raises(ModelError, match="load"):
         trace_point(busy_project, "Z1", "nothing", 3.0, 3.0)
+
+
+def test_self_crossing_corridor_is_reported():
+    # a bow-tie corridor (edges 1-2 and 3-4 cross) is not a simple polygon: the
+    # analysis still runs (files that hold one keep opening) and says so
+    # (common practice, no source)
+    level = _one_bay_level()
+    load = LiftLoad("unit", 500.0, 0.5, 0.5, drop_height=0.3)
+    bow = ((1.0, 1.0), (8.0, 5.0), (8.0, 1.0), (1.0, 5.0))
+    zone = LiftZone("Z1", "bow", "L1", (4.5, -10.0), 0.0, 40.0, corridor=bow, loads=(load,))
+    res = analysis.analyse(_project(level, [zone]))
+    assert any("not a simple polygon" in w for w in res.warnings)
+    plain = replace(zone, corridor=((1.0, 1.0), (8.0, 1.0), (8.0, 5.0), (1.0, 5.0)))
+    res = analysis.analyse(_project(level, [plain]))
+    assert not any("not a simple polygon" in w for w in res.warnings)
