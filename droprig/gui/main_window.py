@@ -593,7 +593,15 @@ class MainWindow(QMainWindow):
         else:
             secs = self.runner.last_seconds
             t = f" in {secs:.2f} s" if math.isfinite(secs) else ""
-            self.state_label.setText(f"Up to date · {res.n_points:,} drop points{t}")
+            text = f"Up to date · {res.n_points:,} drop points{t}"
+            if res.warnings:
+                # what the analysis could not assess or found already over capacity:
+                # said on screen, listed on hover (also in the annex and the CLI)
+                n = len(res.warnings)
+                text += f" · ⚠ {n} warning{'s' if n > 1 else ''}"
+                self.state_label.setStyleSheet("color: #6B4A00; font-weight: 600;")
+                self.state_label.setToolTip("\n".join(f"• {w}" for w in res.warnings))
+            self.state_label.setText(text)
 
     def _fill_level_combo(self) -> None:
         p = self.doc.project

@@ -375,6 +375,16 @@ def test_declined_recovery_deletes_the_autosave(qtbot, monkeypatch: pytest.Monke
 # ------------------------------------------------------------------ chrome
 
 
+def test_analysis_warnings_are_said_in_the_status_bar(qtbot, window: MainWindow) -> None:
+    # the crane of this scenario swings partly beyond the roof's edge: drops there are
+    # not assessed, and the window must say so, not only the annex
+    _framed_with_crane(qtbot, window)
+    res = window.doc.results
+    assert res is not None and any("beyond the deck" in w for w in res.warnings)
+    assert "warning" in window.state_label.text()
+    assert "beyond the deck" in window.state_label.toolTip()
+
+
 def test_status_bar_shows_units_basis_state_and_caution(qtbot, window: MainWindow) -> None:
     _framed_with_crane(qtbot, window)
     assert "SI" in window.units_label.text()
