@@ -48,6 +48,7 @@ from __future__ import annotations
 import math
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
+from typing import Any
 
 import numpy as np
 
@@ -1382,13 +1383,7 @@ _BAYS: dict[Level, tuple] = {}
 
 def _bays(level: Level) -> tuple:
     """:func:`droprig.model.bays`, remembered for the last few levels."""
-    got = _BAYS.get(level)
-    if got is None:
-        got = bays(level)
-        if len(_BAYS) >= _FLOORS_MAX:
-            _BAYS.pop(next(iter(_BAYS)))
-        _BAYS[level] = got
-    return got
+    return _remember(_BAYS, level, lambda: bays(level))
 
 
 # --------------------------------------------------------------------------- entry points
@@ -1400,14 +1395,19 @@ settings builds afresh). Live re-analysis after a zone or load edit reuses them.
 
 def floor_model(level: Level, settings: Settings) -> FloorModel:
     """:func:`build_floor`, remembered for the last few (level, settings) pairs."""
-    key = (level, settings)
-    fm = _FLOORS.get(key)
-    if fm is None:
-        fm = build_floor(level, settings)
-        if len(_FLOORS) >= _FLOORS_MAX:
-            _FLOORS.pop(next(iter(_FLOORS)))
-        _FLOORS[key] = fm
-    return fm
+    return _remember(_FLOORS, (level, settings), lambda: build_floor(level, settings))
+
+
+def _remember(cache: dict, key: object, make: Callable[[], object]) -> Any:
+    """``cache[key]``, made by ``make()`` when missing; the oldest of more than
+    :data:`_FLOORS_MAX` entries is dropped."""
+    got = cache.get(key)
+    if got is None:
+        got = make()
+        if len(cache) >= _FLOORS_MAX:
+            cache.pop(next(iter(cache)))
+        cache[key] = got
+    return got
 
 
 def _floor_cache(project: Project) -> Callable[[str], FloorModel]:
