@@ -21,6 +21,7 @@ source edition writes neither PDF/A nor tagged PDF.
 
 from __future__ import annotations
 
+import dataclasses
 import datetime as _dt
 import hashlib
 import math
@@ -35,7 +36,7 @@ from droprig.io.atomic import atomic_path
 from droprig.model import Level, LiftZone, Member, ModelError, Project, bays
 from droprig.report import content, fonts, references
 from droprig.report.formula import SIG, evaluate, fmt_sig, printed_tolerance
-from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, is_none
+from droprig.report.text import esc, fmt_util, fmt_value, is_none
 from droprig.solver.results import CHECKS, DECK, CaseResult, Results, Trace, TraceStep
 
 Progress = Callable[[float, str], None]
@@ -215,6 +216,38 @@ def permit_conditions(project: Project, results: Results) -> object:
     return derive_conditions(project, results)
 
 
+def _merge_key(c: object) -> tuple:
+    """A condition without its bays: conditions equal in all else merge."""
+    if dataclasses.is_dataclass(c):
+        d = {f.name: getattr(c, f.name) for f in dataclasses.fields(c)
+             if f.name not in ("bays", "region")}
+        return tuple(sorted((k, repr(v)) for k, v in d.items()))
+    return (repr(c),)
+
+
+def merge_conditions(conds: Sequence[object]) -> tuple[list[object], dict[tuple, int]]:
+    """The permit's conditions with those that differ only in their bays merged
+    into one (its ``bays`` the union, in order), so a rule that holds for ten bays
+    is printed once; and merge key -> printed number (1-based). The sentence of a
+    merged condition is still the conditions engine's own
+    (``Condition.sentence``)."""
+    merged: dict[tuple, object] = {}
+    for c in conds:
+        k = _merge_key(c)
+        if k not in merged:
+            merged[k] = c
+            continue
+        m = merged[k]
+        bays_ = tuple(dict.fromkeys((*m.bays, *c.bays)))  # type: ignore[attr-defined]
+        if dataclasses.is_dataclass(m) and "region" in {f.name for f in
+                                                        dataclasses.fields(m)}:
+            merged[k] = dataclasses.replace(m, bays=bays_, region=None)  # type: ignore
+        elif dataclasses.is_dataclass(m):
+            merged[k] = dataclasses.replace(m, bays=bays_)  # type: ignore
+    out = list(merged.values())
+    return out, {k: n + 1 for n, k in enumerate(merged)}
+
+
 # ----------------------------------------------------------------------- data
 
 
@@ -302,7 +335,8 @@ class _Styles:
         from reportlab.lib import colors
         from reportlab.lib.styles import ParagraphStyle
 
-        base = ParagraphStyle("base", fontName=fonts.REGULAR, fontSize=8.5, leading=10.6,
+        base = ParagraphStyle("base", fontName=fonts.REGULAR, bulletFontName=fonts.REGULAR,
+                              fontSize=8.5, leading=10.6,
                               textColor=colors.HexColor("#111111"))
         self.body = base
         self.small = ParagraphStyle("small", parent=base, fontSize=7.5, leading=9.2)
@@ -446,6 +480,8 @@ def _canvas_class(header: _Header, book: _Book,
         """Defers the title block until the page count is known ("page x of y")."""
 
         def __init__(self, *a: object, **k: object) -> None:
+            k["initialFontName"] = fonts.REGULAR
+            k["initialFontSize"] = 8.5
             super().__init__(*a, **k)
             self._pages: list[dict] = []
             self._droprig_section = ""
@@ -656,8 +692,7 @@ class _Builder:
         zone_ids = {z.id for z in zones}
         conds = [c for c in permit.conditions  # type: ignore[attr-defined]
                  if c.zone_id in zone_ids]
-        self.conditions = conds
-        self.cond_no = {id(c): k + 1 for k, c in enumerate(conds)}
+        self.conditions, self._merged_no = merge_conditions(conds)
         self.sheet_titles: list[str] = []
 
     # helpers
@@ -668,6 +703,10 @@ class _Builder:
         return Paragraph(text, style or self.st.cell, bulletText=bulletText)
 
     def v(self, value: float | None, quantity: str) -> str:
+        """A value in the project's units; an exact zero prints as ``0 m`` (never
+        ``0.000 m``, which reads as a rounded small number)."""
+        if value is not None and value == 0:
+            return "0 " + fmt_value(1.0, quantity, self.sys).split(" ", 1)[-1]
         return fmt_value(value, quantity, self.sys)
 
     def ref(self, key: str) -> str:
@@ -684,13 +723,8 @@ class _Builder:
         self.story.append(self.P(esc(title), self.st.h1))
 
     def cond_numbers(self, conds: Sequence[object]) -> list[int]:
-        out = []
-        for c in conds:
-            for k, cc in enumerate(self.conditions):
-                if cc == c:
-                    out.append(k + 1)
-                    break
-        return sorted(set(out))
+        return sorted({self._merged_no[_merge_key(c)] for c in conds
+                       if _merge_key(c) in self._merged_no})
 
     def load_verdicts(self) -> list[object]:
         zone_ids = {z.id for z in self.zones}
@@ -731,8 +765,11 @@ class _Builder:
             "Drop heights are the load's underside above the finished surface of the "
             "level.", st.small))
         # per load
-        hdr = ["Zone", "Load", "Mass", "Planned drop height", "Verdict", "Max U",
-               "Least allowable drop height", "Conditions"]
+        small = "in" if self.sys == "US" else "mm"
+        big = "ft" if self.sys == "US" else "m"
+        mass_u = "lb" if self.sys == "US" else "kg"
+        hdr = ["Zone", "Load", f"Mass, {mass_u}", f"Planned drop height, {big}", "Verdict",
+               "Max U", f"Least allowable drop height, {small}", "Conditions"]
         rows: list[list[object]] = [hdr]
         extra = []
         verdicts = {(cv.zone_id, cv.load_name): cv
@@ -743,11 +780,12 @@ class _Builder:
             nums = self.cond_numbers(lv.conditions)
             rows.append([
                 lv.zone_id, self.P(esc(lv.load_name)),
-                self.v(cv.mass, "mass") if cv else "",
-                self.v(cv.planned_drop_height, "length") if cv else "",
+                self.v(cv.mass, "mass").split(" ")[0] if cv else "",
+                fmt_value(cv.planned_drop_height, "length", self.sys).split(" ")[0]
+                if cv else "",
                 self.P(f"<b>{esc(VERDICT_WORDS[lv.verdict])}</b>"),
                 fmt_util(cv.max_utilisation) if cv else "",
-                fmt_allow(cv.least_allowable_drop_height, "length", self.sys) if cv else "",
+                _h_small(cv.least_allowable_drop_height, self.sys) if cv else "",
                 self.P(", ".join(f"C{n}" for n in nums) or "none"),
             ])
             extra.append(_outcome_bg(_VERDICT_STYLE[lv.verdict], 4, i + 1))
@@ -1295,22 +1333,31 @@ def step_text(step: TraceStep, system: str, project: Project) -> SheetLine:
     re-evaluated from its printed numbers before it is printed."""
     from droprig import tracefmt
 
-    formula = _REWRITE.get(step.symbol, step.formula).strip()
+    formula = references.strip_internal(_REWRITE.get(step.symbol, step.formula)).strip()
     sym = step.symbol
     if sym and formula.startswith(f"{sym} ="):
         lhs, rhs = f"{sym} = ", formula[len(sym) + 2:].strip()
     elif sym and "=" not in formula:
         lhs, rhs = f"{sym} = ", formula
+    elif " = " in formula:  # the formula's own left side (U = … for U_flexure)
+        head, rhs = formula.split(" = ", 1)
+        lhs = f"{head} = "
     else:
         lhs, rhs = "", formula
     result = fmt_sig(step.value, step.quantity, system)  # type: ignore[arg-type]
     lines = [lhs + rhs]
     checked = False
-    inputs = {k: v for k, v in step.inputs.items()}
+    inputs = dict(step.inputs)
+
+    def listed(keys: Sequence[str]) -> str:
+        return "with " + ", ".join(
+            f"{k} = {fmt_sig(inputs[k][0], inputs[k][1], system)}"  # type: ignore[arg-type]
+            for k in keys)
+
     if inputs:
         subst, unused = tracefmt.substitute_all(
             rhs, inputs, lambda v, q: fmt_sig(v, q, system))  # type: ignore[arg-type]
-        val = evaluate(subst) if subst != rhs and not unused else None
+        val = evaluate(subst) if subst != rhs else None
         ok = False
         if val is not None and math.isfinite(step.value):
             tol = REL_TOL + printed_tolerance(result)
@@ -1318,17 +1365,18 @@ def step_text(step: TraceStep, system: str, project: Project) -> SheetLine:
                 step.value == 0 and abs(val) < 1e-12)
         if ok:
             lines = [f"{lhs}{rhs} = {subst} = {result}"]
+            if unused:
+                lines.append(listed(unused))
             checked = True
         else:
-            shown = ", ".join(f"{k} = {fmt_sig(v, q, system)}"  # type: ignore[arg-type]
-                              for k, (v, q) in inputs.items())
-            lines.append(f"with {shown}")
+            lines.append(listed(list(inputs)))
             if val is not None:
                 lines.append("The result comes from the analysis at this point: another "
                              "branch of the method governs here (a crushable layer, a "
-                             "limit of another check), so the formula above does not give "
-                             "it from these numbers.")
-    return SheetLine(step.title, tuple(lines), f"{sym} = {result}" if sym else result,
+                             "limit of another check), so the formula above does not "
+                             "give it from these numbers.")
+    return SheetLine(references.strip_internal(step.title), tuple(lines),
+                     f"{sym} = {result}" if sym else result,
                      references.cite(step.source, project), checked)
 
 

@@ -53,6 +53,11 @@ def register() -> None:
     addMapping(REGULAR, 1, 0, BOLD)
     addMapping(REGULAR, 0, 1, ITALIC)
     addMapping(REGULAR, 1, 1, BOLD)
+    # reportlab.graphics starts every drawing in Helvetica (not embedded); droprig
+    # draws nothing but its own embedded fonts
+    from reportlab.graphics import shapes
+
+    shapes.STATE_DEFAULTS["fontName"] = REGULAR
 
 
 

@@ -161,6 +161,11 @@ def cite(source: str, project: Project) -> str:
     return text
 
 
+def strip_internal(text: str) -> str:
+    """``text`` without internal names of droprig's code (module paths)."""
+    return re.sub(r"\s+", " ", _INTERNAL.sub("", text))
+
+
 def cited_numbers(text: str) -> list[int]:
     """The reference numbers a printed source cites (``[3] …; [7]`` -> [3, 7])."""
     return [int(n) for n in re.findall(r"\[(\d+)\]", text)]

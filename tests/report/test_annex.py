@@ -35,7 +35,7 @@ from pypdf import PdfReader
 
 from droprig.model import ModelError, Project
 from droprig.report import annex
-from droprig.report.text import fmt_allow, fmt_util
+from droprig.report.text import fmt_util
 from droprig.solver.results import Results
 
 analysis = pytest.importorskip("droprig.solver.analysis")
@@ -104,9 +104,11 @@ def built(request: pytest.FixtureRequest, tmp_path_factory: pytest.TempPathFacto
 
 
 def _first_page(built: Annex, heading: str) -> int:
-    """1-based page where ``heading`` is first printed as a section title."""
+    """1-based page where ``heading`` is first printed as a section title (the
+    contents page, which lists every heading, is skipped)."""
+    contents = annex.HEADINGS["contents"]
     for k, t in enumerate(built.texts):
-        if heading in t:
+        if heading in t and (heading == contents or not t.startswith(contents)):
             return k + 1
     raise AssertionError(f"{heading!r} not printed")
 
@@ -142,10 +144,11 @@ def test_sign_off_on_page_one_or_two(built: Annex) -> None:
 
 
 def test_contents_page_numbers_are_right(built: Annex) -> None:
-    contents = built.texts[_first_page(built, annex.HEADINGS["contents"]) - 1]
+    page = built.reader.pages[_first_page(built, annex.HEADINGS["contents"]) - 1]
+    contents = page.extract_text(extraction_mode="layout")
     for key in ("verdict", "bays", "inputs", "sheets", "references", "revisions"):
         heading = annex.HEADINGS[key]
-        m = re.search(re.escape(heading) + r" (\d+)", contents)
+        m = re.search(re.escape(heading) + r"[ .]*(\d+)\s*$", contents, re.M)
         assert m, heading
         assert int(m.group(1)) == _first_page(built, heading), heading
 
@@ -265,7 +268,7 @@ def test_governing_numbers_are_the_solvers(built: Annex) -> None:
     for zv in content.zone_verdicts(built.project, r, built.project.lift_zones):
         for cv in zv.cases:
             assert fmt_util(cv.max_utilisation) in p1
-            assert fmt_allow(cv.least_allowable_drop_height, "length", system) in p1
+            assert _h_expected(cv.least_allowable_drop_height, system) in p1
     page = built.texts[_first_page(built, annex.HEADINGS["bays"]) - 1]
     for b in r.bays:
         row = re.search(re.escape(b.bay_id) + r"(?: \(\w+\))? (.*?)(?=\d-\d/|Governing)", page)
@@ -317,7 +320,7 @@ def _evaluate(expr: str) -> float | None:
         return None
     try:
         return float(eval(s, {"__builtins__": {}}, {"sqrt": math.sqrt, "abs": abs}))
-    except (SyntaxError, ZeroDivisionError, TypeError):
+    except (SyntaxError, ZeroDivisionError, TypeError, NameError):
         return None
 
 
@@ -421,14 +424,22 @@ def test_plan_regions_read_apart_in_greyscale(tmp_path: pathlib.Path) -> None:
     ids = [b.id for b in bays(level)]
     rects = {b.id: b.rect for b in bays(level)}
     pads = {q.area for q in p.protection_areas}
-    bare = [i for i in ids if not any(a.x0 < rects[i].x1 and a.x1 > rects[i].x0
-                                      and a.y0 < rects[i].y1 and a.y1 > rects[i].y0
-                                      for a in pads)]
+    def centre_on_pad(r: object) -> bool:
+        cx, cy = (r.x0 + r.x1) / 2, (r.y0 + r.y1) / 2  # type: ignore[attr-defined]
+        return any(a.x0 <= cx <= a.x1 and a.y0 <= cy <= a.y1 for a in pads)
+
+    bare = [i for i in ids if not centre_on_pad(rects[i])]
     assert len(bare) >= 4
     outcome = {bare[0]: ("elastic", 0.5), bare[1]: ("plastic", 1.2),
                bare[2]: ("exceeds", 2.0), bare[3]: ("exceeds", 2.0)}
     marks = {bare[3]: BayMark(excluded=True, conditions=("C1",))}
-    d = plan_drawing(level, p.lift_zones, p.protection_areas, outcome, "SI", 500, 600,
+    # a zone that reaches the whole level, so every bay's fill is drawn in full
+    ext = level.grid.extent
+    zone = dataclasses.replace(p.lift_zones[0], crane=((ext.x0 + ext.x1) / 2,
+                                                       (ext.y0 + ext.y1) / 2),
+                               r_min=0.0, r_max=100.0, slew_start=0.0,
+                               slew_end=2 * math.pi, corridor=())
+    d = plan_drawing(level, [zone], p.protection_areas, outcome, "SI", 500, 600,
                      marks=marks)
     pdf = tmp_path / "plan.pdf"
     renderPDF.drawToFile(d, str(pdf))
@@ -453,19 +464,24 @@ def test_plan_regions_read_apart_in_greyscale(tmp_path: pathlib.Path) -> None:
         w, h = r.x1 - r.x0, r.y1 - r.y0
         return region(r.x0 + 0.12 * w, r.y0 + 0.12 * h, r.x0 + 0.3 * w, r.y0 + 0.3 * h)
 
-    stats = {}
-    for name, patch in (("elastic", corner(bare[0])), ("plastic", corner(bare[1])),
-                        ("exceeds", corner(bare[2])), ("excluded", corner(bare[3]))):
-        stats[name] = (float(patch.mean()), float(patch.std()))
+    def stats_of(patch: np.ndarray) -> tuple[float, float]:
+        # median grey, and the share of pixels far from it (beam lines crossing a
+        # uniform fill stay a small share; a hatch is a large one)
+        med = float(np.median(patch))
+        return med, float((np.abs(patch - med) > 0.2).mean())
+
+    stats = {name: stats_of(corner(b)) for name, b in (
+        ("elastic", bare[0]), ("plastic", bare[1]), ("exceeds", bare[2]),
+        ("excluded", bare[3]))}
     a = next(iter(p.protection_areas)).area
     w, h = a.x1 - a.x0, a.y1 - a.y0
-    pad = region(a.x0 + 0.6 * w, a.y0 + 0.1 * h, a.x0 + 0.9 * w, a.y0 + 0.3 * h)
-    stats["pad"] = (float(pad.mean()), float(pad.std()))
+    stats["pad"] = stats_of(region(a.x0 + 0.6 * w, a.y0 + 0.1 * h, a.x0 + 0.9 * w,
+                                   a.y0 + 0.3 * h))
     uniform = ("elastic", "plastic", "exceeds", "pad")
-    means = sorted(stats[n][0] for n in uniform)
-    assert all(b - a_ >= 0.08 for a_, b in itertools.pairwise(means)), stats
+    meds = sorted(stats[n][0] for n in uniform)
+    assert all(b - a_ >= 0.08 for a_, b in itertools.pairwise(meds)), stats
     for n in uniform:
-        assert stats[n][1] < 0.12, (n, stats)
+        assert stats[n][1] < 0.15, (n, stats)
     assert stats["excluded"][1] > 0.25, stats  # black hatch on white
 
 
