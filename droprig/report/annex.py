@@ -365,9 +365,14 @@ ZEBRA = "#F1F1EE"
 
 
 def _table(rows: list[list[object]], widths: Sequence[float], *, header_rows: int = 1,
-           extra: Sequence[tuple] = (), zebra: bool = True) -> object:
+           extra: Sequence[tuple] = (), zebra: bool = True, wrap: bool = True) -> object:
     from reportlab.lib import colors
     from reportlab.platypus import Table, TableStyle
+
+    if wrap:  # plain strings do not wrap by themselves: break them to the column
+        rows = [[wrap_text(c, fonts.REGULAR, MIN_PT, widths[k] - 6)
+                 if isinstance(c, str) and c and r >= header_rows else c
+                 for k, c in enumerate(row)] for r, row in enumerate(rows)]
 
     if header_rows:
         from reportlab.platypus import Paragraph
@@ -839,8 +844,8 @@ class _Builder:
              f"{info.lift_reference or NOT_GIVEN} rev {info.revision or NOT_GIVEN}"],
             ["Crane and configuration", f"{crane}. Model, boom, counterweight and "
              f"outrigger set-up: {blank}"],
-            ["Valid from / to", f"{blank} to {blank}, and only for the input with the "
-             f"SHA-256 {self.fp.sha256[:16]}… in the footer ({self.fp.source})"],
+            ["Valid from / to", f"{blank} to {blank}, and only for the input whose SHA-256 "
+             f"is printed in the footer of every page ({self.fp.source})"],
             ["This annex is void after", "; ".join(INVALIDATES) + "."],
             ["After a drop", " ".join(AFTER_A_DROP)],
         ]
@@ -859,7 +864,7 @@ class _Builder:
         flow.append(_table(srows, [0.12 * w, 0.34 * w, 0.18 * w, 0.18 * w, 0.18 * w],
                            zebra=False,
                            extra=[("GRID", (0, 0), (-1, -1), 0.5, colors.black),
-                                  ("BOTTOMPADDING", (0, 1), (-1, -1), 6)]))
+                                  ("BOTTOMPADDING", (0, 1), (-1, -1), 16)]))
         return flow
 
     # ------------------------------------------------------------ 2 plan
@@ -1201,8 +1206,8 @@ class _Builder:
         if doc.omitted:
             rows.append(["", "", fit("Not applicable under " + _basis(self.p) + ": "
                                      + ", ".join(doc.omitted) + ".", R, 2), "", ""])
-        return _table(rows, cw, extra=[("FONTNAME", (1, 1), (1, -1), B),
-                                       ("FONTNAME", (3, 1), (3, -1), B)])
+        return _table(rows, cw, wrap=False, extra=[("FONTNAME", (1, 1), (1, -1), B),
+                                                   ("FONTNAME", (3, 1), (3, -1), B)])
 
     def _sheet_outcome(self, doc: SheetDoc) -> list[object]:
         c, i = doc.case, doc.index

@@ -348,7 +348,7 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
                         strokeWidth=0.6))
         for k, t in enumerate(lines):
             labels.add(_text(x0 + 3, y1 - 1 - (k + 1) * MIN_PT * 1.2 + 1, t, MIN_PT,
-                             color=colors.white, bold=k == 0))
+                             color=colors.white))
     d.add(labels)
     _north_and_scale(d, s, system, width, LEGEND_HEIGHT + 8)
     _legend(d, width)
