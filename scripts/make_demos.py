@@ -113,13 +113,14 @@ def rooftop_plant_swap() -> Project:
         crane_configuration=(
             "Main boom 38.4 m, no jib; 26 t counterweight; outriggers fully extended "
             "8.6 m x 8.3 m on 1.2 m x 1.2 m timber outrigger pads; 360° slewing duty chart"),
-        # The old unit goes from its plinth to trailer T2, the new one from trailer T1
-        # onto the plinth (both trailers in the closed lane west of the building).
+        # The old unit goes from its plinth (south-west of bay 2-3/A-B) to trailer
+        # T2, the new one from trailer T1 onto the plinth (both trailers in the
+        # closed lane west of the building).
         lift_points=(
-            LiftPoint("pick_up", (11.9, 4.5), "old AHU-3 on the plinth"),
+            LiftPoint("pick_up", (10.2, 1.4), "old AHU-3 on the plinth"),
             LiftPoint("set_down", (-17.0, 1.0), "old unit onto trailer T2"),
             LiftPoint("pick_up", (-13.0, -4.0), "new AHU-3 on trailer T1"),
-            LiftPoint("set_down", (10.6, 4.5), "new unit onto the plinth"),
+            LiftPoint("set_down", (8.2, 1.4), "new unit onto the plinth"),
         ),
     )
     # Landing bay 2-3/A-B: a crushable pad of timber sleepers over foam blocks laid
@@ -237,7 +238,7 @@ def steel_erection_floor() -> Project:
             "standard boom duty chart"),
         lift_points=(
             LiftPoint("pick_up", (-25.0 * FT, 22.0 * FT), "laydown area, west"),
-            LiftPoint("set_down", (76.0 * FT, 45.0 * FT), "hoist landing, bay 3-4/B-C"),
+            LiftPoint("set_down", (84.0 * FT, 35.0 * FT), "hoist landing, bay 3-4/B-C"),
         ),
     )
     # Laydown bay 3-4/B-C at the hoist landing: a crushable pad of plywood over EPS

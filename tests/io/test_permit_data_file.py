@@ -16,6 +16,7 @@ References:
 from __future__ import annotations
 
 import dataclasses
+import datetime
 import json
 import math
 from pathlib import Path
@@ -23,6 +24,8 @@ from typing import Any
 
 import jsonschema
 import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
 
 from droprig.io import project_file as pf
 from droprig.io.project_file import (
@@ -200,3 +203,44 @@ def test_a_newer_format_is_refused_by_version() -> None:
     problems = _problems(raw)
     assert problems == ["$.format_version: written by a newer droprig (format 3); this "
                         "droprig reads up to format 2. Open it with a newer droprig."]
+
+
+# ----------------------------------------------------------------- random permit data
+
+_LINE = st.text(st.characters(blacklist_categories=("Cc", "Cf", "Cs", "Co")),
+                max_size=40).map(str.strip)
+_COORD = st.floats(-10_000.0, 10_000.0, allow_nan=False)
+_DATES = st.dates(min_value=datetime.date(2000, 1, 1),
+                  max_value=datetime.date(2099, 12, 31))
+
+
+@st.composite
+def _permit_projects(draw: st.DrawFn, base: Project) -> Project:
+    start = draw(_DATES)
+    end = start + datetime.timedelta(days=draw(st.integers(0, 30)))
+    with_time = draw(st.booleans())
+    info = dataclasses.replace(
+        base.info, permit_number=draw(_LINE), lift_plan_revision=draw(_LINE),
+        valid_from=f"{start.isoformat()} 06:00" if with_time else draw(
+            st.sampled_from(["", start.isoformat()])),
+        valid_to=draw(st.sampled_from(["", end.isoformat()])))
+    z = base.lift_zones[0]
+    points = tuple(LiftPoint(draw(st.sampled_from(["pick_up", "set_down"])),
+                             (draw(_COORD), draw(_COORD)),
+                             draw(_LINE.map(lambda t: t[:64].strip())))
+                   for _ in range(draw(st.integers(0, 5))))
+    loads = tuple(dataclasses.replace(ld, mass_source=draw(st.sampled_from(
+        [None, "weighed", "data_plate", "drawing", "estimate"]))) for ld in z.loads)
+    z = dataclasses.replace(z, loads=loads, lift_points=points,
+                            crane_description=draw(_LINE), crane_configuration=draw(_LINE))
+    return dataclasses.replace(base, info=info, lift_zones=(z,))
+
+
+@settings(max_examples=60, deadline=None, suppress_health_check=[
+    HealthCheck.too_slow, HealthCheck.function_scoped_fixture])
+@given(data=st.data())
+def test_random_permit_data_round_trips(permit_roof: Project, data: st.DataObject) -> None:
+    p = data.draw(_permit_projects(permit_roof))
+    text = dumps_project(p)
+    jsonschema.Draft202012Validator(pf.schema()).validate(json.loads(text))
+    assert loads_project(text) == p
