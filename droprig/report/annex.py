@@ -31,10 +31,17 @@ from dataclasses import dataclass
 from droprig import __version__
 from droprig.advice import advice_text
 from droprig.io.atomic import atomic_path
-from droprig.model import Level, LiftZone, Member, Project
+from droprig.model import Level, LiftZone, Project
 from droprig.report import content, fonts
 from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, is_none, substitute_all
-from droprig.solver.results import CHECKS, DECK, CaseResult, Results, Trace
+from droprig.solver import (
+    CHECKS,
+    DECK,
+    CaseResult,
+    Results,
+    Trace,
+    member_resistances,
+)
 
 Progress = Callable[[float, str], None]
 
@@ -184,7 +191,7 @@ def build_sheets(project: Project, results: Results, zones: Sequence[LiftZone],
                  progress: Progress | None = None, span: tuple[float, float] = (0.0, 1.0)
                  ) -> list[Sheet]:
     """Trace every governing point (:func:`content.calc_sheets`)."""
-    from droprig.solver.trace import trace_point
+    from droprig.solver import trace_point
 
     refs = content.calc_sheets(results, tuple(zones))
     out = []
@@ -674,7 +681,7 @@ class _Builder:
                    "Flexure resistance", "Shear resistance", "EI"]
             trs = [[self.P(h, st.head) for h in hdr]]
             for lv, m in chunk:
-                res = member_resistances(m, self.p)
+                res = member_resistances(m, self.p.settings)
                 trs.append([
                     self.P(esc(f"{lv.id}: {m.id}" if many else m.id)),
                     m.role,
@@ -898,44 +905,6 @@ class _Builder:
         self.add(head, flow)
 
 
-@dataclass(frozen=True)
-class Resistances:
-    """Member properties and resistances shown in the member table (SI; ``None``
-    where the solver rules the section out of scope)."""
-
-    fy: float
-    section_class: str
-    flexure: float | None
-    shear: float | None
-    EI: float
-
-
-def member_resistances(m: Member, project: Project) -> Resistances:
-    """The resistances the solver uses for ``m`` (:mod:`droprig.solver.capacity`):
-    flexure (AISC 360-16 F2/F3; EN 1993-1-1 Eq. 6.13/6.14) and shear (AISC 360-16
-    G2.1; EN 1993-1-1 Eq. 6.18 with EN 1993-1-5 §5), with the project's resistance
-    factor and dynamic increase factor on yield; fy is the static yield strength
-    of the governing (thicker) element, Pa."""
-    from droprig.solver import capacity
-
-    s = project.settings
-    sec, grade, basis = m.section, m.grade, s.design_basis
-    kw = {"phi": s.resistance_factor, "dif": s.dynamic_increase_factor}
-    try:
-        cls = capacity.section_class(sec, grade, basis)
-    except ValueError:
-        cls = "?"
-    try:
-        flex: float | None = capacity.flexural_resistance(sec, grade, basis, **kw)
-    except ValueError:
-        flex = None
-    try:
-        shear: float | None = capacity.shear_resistance(sec, grade, basis, **kw)
-    except ValueError:
-        shear = None
-    return Resistances(grade.section_fy(sec), cls, flex, shear, grade.E * sec.Ix)
-
-
 def _resistance_note(project: Project) -> str:
     s = project.settings
     if s.design_basis == "aisc360":
@@ -1012,7 +981,7 @@ def _units(system: str) -> str:
 
 
 def _caution() -> str:
-    from droprig.cli import CAUTION
+    from droprig.texts import CAUTION
 
     return CAUTION
 
