@@ -512,6 +512,9 @@ def beyond_yield(c: Chain) -> BeyondYield:
         Lsel = arm_s[sel] if COND_NAMES[int(cc)] == "cantilever" else 2 * arm_s[sel]
         theta_s[sel] = plastic.support_rotation(d_struct[sel], Lsel, arm_s[sel],
                                                 COND_NAMES[int(cc)])
+    d_m: np.ndarray
+    ductility: np.ndarray
+    theta: np.ndarray
     if isinstance(sub, slice):
         d_m, collapsed, ductility, theta = d_m_s, coll_s, duct_s, theta_s
     else:
