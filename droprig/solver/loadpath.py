@@ -936,7 +936,9 @@ def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.nda
     for key, val in (("share", share), ("a", a), ("strip_span", span), ("strip_pos", pos),
                      ("r", r), ("u", un), ("f", f), ("g_own", gs)):
         _put(out[key], sel, val)
-    if not with_mass:
+    if not with_mass:  # no mass asked for: none given (never uninitialised memory)
+        out["m_e"][sel] = np.nan
+        out["w_ref"][sel] = np.nan
         return
     # Rayleigh mass: deck members by the exact integrals (tabulated on a/L), support
     # members by the precomputed quadratic form pair_M
