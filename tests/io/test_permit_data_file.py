@@ -122,6 +122,18 @@ def test_not_recorded_fields_are_not_written(permit_roof: Project) -> None:
     assert loads_project(dumps_project(bare)) == bare
 
 
+def test_longest_allowed_texts_pass_the_schema(permit_roof: Project) -> None:
+    # the limits the model states (permit_data.PERMIT_TEXT_MAX, CRANE_CONFIGURATION_MAX)
+    z = dataclasses.replace(permit_roof.lift_zones[0], crane_description="d" * 200,
+                            crane_configuration="c" * 600,
+                            lift_points=(LiftPoint("pick_up", (0.0, 0.0), "l" * 64),))
+    p = dataclasses.replace(permit_roof, lift_zones=(z,), info=dataclasses.replace(
+        permit_roof.info, permit_number="n" * 200, lift_plan_revision="r" * 200))
+    text = dumps_project(p)
+    jsonschema.Draft202012Validator(pf.schema()).validate(json.loads(text))
+    assert loads_project(text) == p
+
+
 # ----------------------------------------------------------------- bad values in a file
 
 
