@@ -1130,19 +1130,19 @@ class _Builder:
     def point_inputs(self) -> list[object]:
         """The zones' pick-up and set-down points (none recorded: page 1 says so)."""
         w = self.w
-        pts = permit_fields.point_rows(self.zones)
+        pts = permit_fields.point_rows(self.p, self.zones)
         if not pts:
             return []
         flow: list[object] = [self.P("Pick-up and set-down points (symbols on the "
                                      "conditions plan)", self.st.h2)]
         big = "ft" if self.sys == "US" else "m"
-        rows = [["Zone", "Point", "Kind", "Description", f"x, {big}", f"y, {big}"]]
+        rows = [["Zone", "Point", "Kind", "Description", f"x, {big}", f"y, {big}", "Bay"]]
         for r in pts:
             rows.append([r.zone_id, r.tag, r.kind, self.P(esc(r.label) or "–"),
                          self.v(r.x, "length").split(" ")[0],
-                         self.v(r.y, "length").split(" ")[0]])
-        flow.append(_table(rows, [0.06 * w, 0.08 * w, 0.1 * w, 0.52 * w, 0.12 * w,
-                                  0.12 * w]))
+                         self.v(r.y, "length").split(" ")[0], self.P(esc(r.bay))])
+        flow.append(_table(rows, [0.06 * w, 0.07 * w, 0.09 * w, 0.4 * w, 0.11 * w,
+                                  0.11 * w, 0.16 * w]))
         return flow
 
     # ------------------------------------------------------------ contents

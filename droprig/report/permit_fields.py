@@ -11,7 +11,14 @@ from __future__ import annotations
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
-from droprig.model import MASS_SOURCE_WORDS, LiftLoad, LiftZone, Project, lift_point_tags
+from droprig.model import (
+    MASS_SOURCE_WORDS,
+    LiftLoad,
+    LiftZone,
+    Project,
+    bays,
+    lift_point_tags,
+)
 from droprig.model.permit_data import LIFT_POINT_WORDS
 
 NOT_RECORDED = "NOT RECORDED"
@@ -63,14 +70,22 @@ class PointRow:
     label: str
     x: float
     y: float
+    bay: str
+    """The bay of the zone's level the point lies in (on a shared edge: the first
+    in grid order), or ``"off the framing"``."""
 
 
-def point_rows(zones: Sequence[LiftZone]) -> list[PointRow]:
+OFF_FRAMING = "off the framing"
+
+
+def point_rows(project: Project, zones: Sequence[LiftZone]) -> list[PointRow]:
     out = []
     for z in zones:
+        level_bays = bays(project.level(z.level_id))
         for tag, p in zip(lift_point_tags(z), z.lift_points, strict=True):
+            bay = next((b.id for b in level_bays if b.rect.contains(*p.at)), OFF_FRAMING)
             out.append(PointRow(z.id, tag, LIFT_POINT_WORDS[p.kind], p.label, p.at[0],
-                                p.at[1]))
+                                p.at[1], bay))
     return out
 
 

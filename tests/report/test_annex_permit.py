@@ -123,8 +123,10 @@ def test_inputs_print_mass_sources_crane_and_points(
         assert _squash(words) in inputs
     assert _squash("Test crane TC-9 (80 t)") in inputs
     # points: tag, kind, label and coordinates in the project's units (m, 3 decimals)
-    assert _squash("P1 pick-up trailer north end -12.500 -3.500") in inputs
-    assert _squash("S1 set-down plinth grid line 2½ 11.000 1.500") in inputs
+    # and the bay each lies in: (11.0, 1.5) is inside bay 2-3/A-B of the file's grid
+    # (x lines 0, 7.5, 15, 22.5 m; y lines 0, 9, 18 m — its inputs)
+    assert _squash("P1 pick-up trailer north end -12.500 -3.500 off the framing") in inputs
+    assert _squash("S1 set-down plinth grid line 2½ 11.000 1.500 2-3/A-B") in inputs
 
 
 def test_plan_tags_the_points(recorded: tuple[Project, list[str]]) -> None:
