@@ -480,6 +480,7 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                                               "circle"),
             _q("drift_margin", "Load swing margin", "length",
                "The region is widened by this much for load swing"),
+            *_crane_fields(system),
             FieldSpec("corridor", f"Corridor ({units.display_unit('length', system)})",
                       "text", lambda o: corridor_text(o.corridor, system),
                       lambda o, v: replace(o, corridor=parse_corridor(v, system)),
@@ -488,7 +489,6 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                           "0,0; 12,0; 12,6. Empty for the whole sector. Or draw it on "
                           "the plan.",
                       empty="none: the whole swing sector"),
-            *_crane_fields(system),
         ], lambda p, o: ed.with_zone(p, z.id, o),
             buttons=["add_load", "draw_corridor", "clear_corridor", "delete"])
 
