@@ -852,13 +852,22 @@ class _Builder:
         return out
 
     def permit_flags(self) -> list[object]:
-        """Page 1: the permit data the project file does not record (never filled in)."""
+        """Page 1: the permit data the project file does not record (never filled in),
+        and any pick-up or set-down point inside an exclusion area."""
+        out = []
         missing = permit_fields.not_recorded(self.p, self.zones)
-        if not missing:
-            return []
-        return [self.P(f"<b>{permit_fields.NOT_RECORDED}</b> in the project file: "
-                       + esc("; ".join(missing)) + ". Write each in by hand in the sign-off "
-                       "block and confirm it before signing.", self.st.caution)]
+        if missing:
+            out.append(self.P(
+                f"<b>{permit_fields.NOT_RECORDED}</b> in the project file: "
+                + esc("; ".join(missing)) + ". Write each in by hand in the sign-off block "
+                "and confirm it before signing.", self.st.caution))
+        clash = permit_fields.points_in_exclusions(self.p, self.zones, self.conditions)
+        if clash:
+            out.append(self.P(
+                "<b>LIFT PLAN AND CONDITIONS DISAGREE</b>: " + esc("; ".join(clash))
+                + ". Move the point or change the plan, and assess again before signing.",
+                self.st.caution))
+        return out
 
     def signoff_rows(self) -> list[list[str]]:
         """Permit number, lift plan, crane, validity: recorded values or write-ins."""

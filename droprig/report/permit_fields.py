@@ -117,3 +117,28 @@ def not_recorded(project: Project, zones: Sequence[LiftZone]) -> list[str]:
         if loads:
             out.append(f"mass source of {', '.join(loads)} (zone {z.id})")
     return out
+
+
+def points_in_exclusions(project: Project, zones: Sequence[LiftZone],
+                         conditions: Sequence[object]) -> list[str]:
+    """Pick-up or set-down points that lie in a bay an ``exclude_area`` permit
+    condition of the same zone keeps the load away from — the lift plan and the
+    conditions then contradict each other. ``conditions`` are numbered from 1 as
+    printed (C1, C2 …); a condition with no bays covers the whole zone."""
+    out = []
+    rows = point_rows(project, zones)
+    for r in rows:
+        if r.bay == OFF_FRAMING:
+            continue
+        for n, c in enumerate(conditions, start=1):
+            if (getattr(c, "kind", "") != "exclude_area"
+                    or getattr(c, "zone_id", None) != r.zone_id):
+                continue
+            covered = getattr(c, "bays", ())
+            if covered and r.bay not in covered:
+                continue
+            load = getattr(c, "load_name", None) or "every load"
+            name = f"{r.tag} ({r.label})" if r.label else r.tag
+            out.append(f"{r.kind} point {name} of zone {r.zone_id} lies in bay {r.bay}, "
+                       f"an exclusion area for {load} (C{n})")
+    return out

@@ -105,6 +105,7 @@ def test_nothing_is_flagged_when_everything_is_recorded(
         recorded: tuple[Project, list[str]]) -> None:
     _, texts = recorded
     assert "in the project file:" not in texts[0]
+    assert "DISAGREE" not in texts[0]  # its points lie in no excluded bay
 
 
 def test_title_block_names_the_lift_plan_revision(recorded: tuple[Project, list[str]]) -> None:
@@ -181,6 +182,28 @@ def test_not_recorded_list_follows_the_model() -> None:
                              crane_description="crane")
     got = permit_fields.not_recorded(dataclasses.replace(p, lift_zones=(z2,)), (z2,))
     assert "zone MC1: crane configuration, pick-up points" in got
+
+
+def test_point_inside_an_exclusion_area_is_flagged(tmp_path: pathlib.Path) -> None:
+    from droprig.model import bays
+
+    p = load_project(FORMAT1)
+    results = analysis.analyse(p)
+    permit = annex.permit_conditions(p, results)
+    excl = [c for c in permit.conditions if c.kind == "exclude_area" and c.bays]
+    assert excl, "the engine excludes no bay on this file: the test needs one"
+    bay = next(b for b in bays(p.levels[0]) if b.id == excl[0].bays[0])
+    centre = ((bay.rect.x0 + bay.rect.x1) / 2, (bay.rect.y0 + bay.rect.y1) / 2)
+    z = dataclasses.replace(p.lift_zones[0], lift_points=(
+        LiftPoint("set_down", centre, "landing"), LiftPoint("pick_up", (-12.0, -3.0))))
+    p = dataclasses.replace(p, lift_zones=(z,))
+    out = tmp_path / "clash.pdf"
+    annex.write_annex(p, analysis.analyse(p), out)
+    first = _texts(out)[0]
+    assert "LIFT PLAN AND CONDITIONS DISAGREE" in first
+    assert (f"set-down point S1 (landing) of zone MC1 lies in bay {bay.id}, an exclusion "
+            f"area for {excl[0].load_name}") in first
+    assert "pick-up point P1" not in first  # off the framing: no clash
 
 
 # ----------------------------------------------------------------- refusals
