@@ -861,6 +861,11 @@ class _Builder:
                 f"<b>{permit_fields.NOT_RECORDED}</b> in the project file: "
                 + esc("; ".join(missing)) + ". Write each in by hand in the sign-off block "
                 "and confirm it before signing.", self.st.caution))
+        ended = permit_fields.window_ended(self.p, _dt.datetime.now(_dt.UTC))
+        if ended:
+            out.append(self.P("<b>VALIDITY ENDED</b>: " + esc(ended) + ". Do not sign; "
+                              "renew the permit and print the annex again.",
+                              self.st.caution))
         clash = permit_fields.points_in_exclusions(self.p, self.zones, self.conditions)
         if clash:
             out.append(self.P(

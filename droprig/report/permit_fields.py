@@ -8,6 +8,7 @@ signer completes it by hand (:mod:`droprig.model.permit_data`).
 
 from __future__ import annotations
 
+import datetime as _dt
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
@@ -19,7 +20,7 @@ from droprig.model import (
     bays,
     lift_point_tags,
 )
-from droprig.model.permit_data import LIFT_POINT_WORDS
+from droprig.model.permit_data import LIFT_POINT_WORDS, parse_permit_date
 
 NOT_RECORDED = "NOT RECORDED"
 BLANK = "________________________"
@@ -142,3 +143,28 @@ def points_in_exclusions(project: Project, zones: Sequence[LiftZone],
             out.append(f"{r.kind} point {name} of zone {r.zone_id} lies in bay {r.bay}, "
                        f"an exclusion area for {load} (C{n})")
     return out
+
+
+WINDOW_MARGIN = _dt.timedelta(hours=14)
+"""The validity window is local site time without a time zone: it counts as ended
+only when it has ended in every time zone (UTC−12 is the latest civil time, UTC+14
+the earliest; 14 h covers both — IANA time zone database, Etc/GMT+12)."""
+
+
+def window_ended(project: Project, now_utc: _dt.datetime) -> str | None:
+    """A sentence if the permit's validity window ended before ``now_utc`` (an
+    aware or naive UTC date-time), else None (not recorded or not yet ended). A
+    bare ``valid_to`` date runs to the end of that day."""
+    info = project.info
+    if not info.valid_to:
+        return None
+    end = parse_permit_date("info.valid_to", info.valid_to)
+    if end is None:  # pragma: no cover - empty handled above
+        return None
+    if len(info.valid_to) == 10:
+        end += _dt.timedelta(days=1)
+    now = now_utc.replace(tzinfo=None)
+    if now - WINDOW_MARGIN <= end:
+        return None
+    return (f"the validity window ended {info.valid_to}, before this annex was printed "
+            f"({now:%Y-%m-%d %H:%M} UTC)")

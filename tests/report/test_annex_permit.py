@@ -206,6 +206,37 @@ def test_point_inside_an_exclusion_area_is_flagged(tmp_path: pathlib.Path) -> No
     assert "pick-up point P1" not in first  # off the framing: no clash
 
 
+@pytest.mark.parametrize("valid_to, now, ended", [
+    ("2026-12-06", "2026-12-07T13:59", False),        # bare date: to the end of the day,
+    ("2026-12-06", "2026-12-07T14:01", True),         # + 14 h for any time zone
+    ("2026-12-06 18:00", "2026-12-07T07:59", False),
+    ("2026-12-06 18:00", "2026-12-07T08:01", True),
+    ("", "2099-01-01T00:00", False),                  # not recorded: flagged elsewhere
+])
+def test_window_ended_only_when_ended_in_every_time_zone(valid_to: str, now: str,
+                                                         ended: bool) -> None:
+    # UTC-12 is the latest civil time zone (IANA tz database, Etc/GMT+12), UTC+14 the
+    # earliest: a naive site time has certainly passed once UTC is 14 h beyond it
+    import datetime as dt
+
+    from droprig.model import ProjectInfo
+
+    p = Project(ProjectInfo("Roof", valid_to=valid_to))
+    got = permit_fields.window_ended(p, dt.datetime.fromisoformat(now))
+    assert (got is not None) == ended, got
+
+
+def test_annex_of_an_ended_window_says_do_not_sign(tmp_path: pathlib.Path) -> None:
+    p = load_project(FORMAT1)
+    p = dataclasses.replace(p, info=dataclasses.replace(
+        p.info, valid_from="2001-05-01 06:00", valid_to="2001-05-01 18:00"))
+    out = tmp_path / "ended.pdf"
+    annex.write_annex(p, analysis.analyse(p), out)
+    first = _texts(out)[0]
+    assert "VALIDITY ENDED: the validity window ended 2001-05-01 18:00" in first
+    assert "Do not sign" in first
+
+
 # ----------------------------------------------------------------- refusals
 
 
