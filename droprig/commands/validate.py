@@ -41,7 +41,7 @@ def run(args: argparse.Namespace) -> int:
     try:
         project = load_project(path)
     except ProjectFileError as exc:
-        n = len(exc.problems)
+        n = getattr(exc, "total", len(exc.problems))
         print(f"{path}: {_plural(n, 'problem')}")
         for problem in exc.problems:
             print(f"  {problem}")

@@ -35,6 +35,7 @@ from droprig.io.project_file import (
     save_project,
 )
 from droprig.io.sections import get_grade, get_section, list_grades, list_sections
+from droprig.model.errors import BIDI_CONTROLS
 from droprig.model import (
     END_CONDITIONS,
     ColumnGrid,
@@ -59,8 +60,12 @@ ROOT = Path(__file__).resolve().parents[2]
 # --------------------------------------------------------------------------- strategies
 # Random *valid* model objects, inside the ranges droprig.model enforces.
 
-_SAFE_TEXT = st.text(st.characters(codec="utf-8", exclude_categories=("Cs",)), max_size=30)
-_ID = st.text(st.characters(codec="utf-8", exclude_categories=("Cs", "Z", "Cc")),
+# droprig text holds no lone surrogate, control or bidi-override character (issue 16)
+_SAFE_TEXT = st.text(st.characters(codec="utf-8", exclude_categories=("Cs", "Cc"),
+                                   exclude_characters=BIDI_CONTROLS) | st.sampled_from("\t\n"),
+                     max_size=30)
+_ID = st.text(st.characters(codec="utf-8", exclude_categories=("Cs", "Z", "Cc"),
+                            exclude_characters=BIDI_CONTROLS),
               min_size=1, max_size=12)
 
 
