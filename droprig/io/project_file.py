@@ -622,6 +622,8 @@ def _shown(v: object) -> str:
         return "a list"
     if isinstance(v, Decimal):
         return str(v)
+    if isinstance(v, str) and len(v) > 60:
+        return json.dumps(v[:57], ensure_ascii=False)[:-1] + f'…" ({len(v):,} characters)'
     text = json.dumps(v, ensure_ascii=False) if not isinstance(v, float) else repr(v)
     return text if len(text) <= 60 else text[:57] + "..."
 
@@ -657,6 +659,11 @@ def _schema_problems(doc: dict[str, Any]) -> list[str]:
             out.append((path, f"{_shown(err.instance)} is not allowed; expected "
                               f"{_shown(err.validator_value)}"))
             continue
+        if v in ("maxLength", "minLength") and isinstance(err.instance, str):
+            word = "at most" if v == "maxLength" else "at least"
+            out.append((path, f"{_shown(err.instance)} is {len(err.instance):,} characters; "
+                              f"{word} {err.validator_value} allowed"))
+            continue
         msg = err.message
         if len(msg) > 2 * QUOTE_MAX:  # the schema's own text echoes a long value
             msg = f"{_shown(err.instance)} fails the {err.validator} rule of the format"
@@ -674,14 +681,15 @@ def loads_project(text: str, *, source: str | None = None) -> Project:
     try:
         if len(text) > bounds.MAX_FILE_BYTES:
             raise ProjectFileError([_too_large(len(text))])
-        problems: list[str] = []
-        raw = _to_floats(_parse(text), [], problems)
+        parsed = _parse(text)
+        # counts first: a file of 200,000 members is refused before it is walked
+        problems = _count_problems(parsed) if isinstance(parsed, dict) else []
+        if problems:
+            raise ProjectFileError(problems)
+        raw = _to_floats(parsed, [], problems)
         if problems:
             raise ProjectFileError(problems)
         doc = _migrate(raw, _check_version(raw))
-        problems = _count_problems(doc)
-        if problems:
-            raise ProjectFileError(problems)
         problems = _schema_problems(doc)
         if problems:
             raise ProjectFileError(problems)
