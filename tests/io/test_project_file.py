@@ -35,7 +35,6 @@ from droprig.io.project_file import (
     save_project,
 )
 from droprig.io.sections import get_grade, get_section, list_grades, list_sections
-from droprig.model.errors import BIDI_CONTROLS
 from droprig.model import (
     END_CONDITIONS,
     ColumnGrid,
@@ -54,6 +53,7 @@ from droprig.model import (
     Settings,
     generate_level,
 )
+from droprig.model.errors import BIDI_CONTROLS
 
 ROOT = Path(__file__).resolve().parents[2]
 
