@@ -176,11 +176,10 @@ def _write(target: str, text: str, project_path: str = "", *, force: bool = Fals
 
 def run(args: argparse.Namespace) -> int:
     from droprig.commands import describe_error
+    from droprig.io.atomic import OutputRefusedError, check_output
     from droprig.io.project_file import ProjectFileError, load_project
     from droprig.model import ModelError
     from droprig.solver.analysis import analyse
-
-    from droprig.io.atomic import OutputRefusedError, check_output
 
     json_out = getattr(args, "json_out", None)
     csv_out = getattr(args, "csv_out", None)
