@@ -197,8 +197,15 @@ def run(args: argparse.Namespace) -> int:
     except OutputRefusedError as exc:
         print(f"droprig analyse: {exc}", file=sys.stderr)
         return EXIT_BAD_INPUT
+    from droprig.preflight import analysis_problems
+
     try:
         project = load_project(args.file)
+        problems = analysis_problems(project)
+        if problems:
+            print(f"droprig analyse: {args.file}: {len(problems)} problem(s)\n  "
+                  + "\n  ".join(problems), file=sys.stderr)
+            return EXIT_BAD_INPUT
         results = analyse(project)
     except (ProjectFileError, ModelError, OSError, ValueError) as exc:
         print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)

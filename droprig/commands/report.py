@@ -61,9 +61,13 @@ def run(args: argparse.Namespace) -> int:
     if not zones:
         return _fail(f"{path}: the project has no lift zone to report on")
 
+    from droprig.preflight import analysis_problems
     from droprig.report.annex import write_annex
     from droprig.solver.analysis import analyse
 
+    problems = analysis_problems(project)
+    if problems:
+        return _fail(f"{path}: cannot analyse the project:\n  " + "\n  ".join(problems))
     try:
         results = analyse(project)
     except (ModelError, UnitError) as exc:
