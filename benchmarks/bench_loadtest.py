@@ -6,7 +6,8 @@ Run: ``.venv/bin/python benchmarks/bench_loadtest.py [--no-annex] [--save FILE]`
 The project is invented (regular framing from :func:`droprig.model.generate_level`,
 two zones of two loads per level, grid resolution 0.5 m). Peak memory is the
 process's maximum resident set (``resource.getrusage``, Linux kilobytes) after each
-step, and the peak traced by :mod:`tracemalloc` during the analysis.
+step (tracemalloc is not used: it slows the allocation-heavy solver several times).
+Timings on a shared machine are noisy; read them with the load average printed.
 """
 
 from __future__ import annotations
