@@ -65,6 +65,34 @@ def load_test_project(levels: int = 10, zones_per_level: int = 2) -> Project:
                    Settings(grid_resolution=0.5), tuple(lvls), tuple(zones), tuple(pads))
 
 
+def _cancel_latency(project: Project, after: float = 3.0) -> float:
+    """Seconds from cancelling a running analysis to its end (the window's cancel)."""
+    import threading
+
+    from droprig.solver import analysis
+    from droprig.solver.cancel import AnalysisCancelledError, CancelToken, cancellable
+
+    analysis._FLOORS.clear()
+    token = CancelToken()
+    stopped: list[float] = []
+
+    def work() -> None:
+        try:
+            with cancellable(token):
+                analysis.analyse(project)
+        except AnalysisCancelledError:
+            pass
+        stopped.append(time.perf_counter())
+
+    th = threading.Thread(target=work)
+    th.start()
+    time.sleep(after)
+    t_cancel = time.perf_counter()
+    token.cancel()
+    th.join()
+    return stopped[0] - t_cancel
+
+
 def _rss_mb() -> float:
     return resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
 
@@ -92,6 +120,11 @@ def main() -> int:
     problems = analysis_problems(project)
     print(f"  preflight (prepared floors): {time.perf_counter() - t0:.2f} s, "
           f"{len(problems)} problems")
+    print(f"  cancel: stopped {_cancel_latency(project):.2f} s after the cancel "
+          "(issue 16: < 1 s)")
+    from droprig.solver import analysis as _analysis
+
+    _analysis._FLOORS.clear()  # the timed run prepares its floors afresh
     t0 = time.perf_counter()
     results = analyse(project)
     dt = time.perf_counter() - t0

@@ -55,6 +55,7 @@ import numpy as np
 from droprig.model import Level, LiftLoad, LiftZone, Project, Settings, bays, corridor_problem
 from droprig.solver import (
     beam,
+    cancel,
     capacity,
     contact,
     deck,
@@ -233,6 +234,8 @@ def build_floor(level: Level, settings: Settings) -> FloorModel:
             M0_sup[ip, jp] = existing_moment(frame, w0, P0, int(mm), frame.pair_sup_x[ip, jp])
     # members already over capacity under the existing loads alone
     for k, m in enumerate(level.members):
+        if k % 64 == 0:
+            cancel.check()  # stops a cancelled analysis (solver/cancel.py)
         xs = np.linspace(0.0, frame.L[k], 21)
         M_ex = np.max(np.abs(existing_moment(frame, w0, P0, k, xs)))
         if M_ex > Mr[k] or np.max(V0[k]) > Vr[k]:
@@ -1420,6 +1423,7 @@ def _floor_cache(project: Project) -> Callable[[str], FloorModel]:
 def analyse_zone(project: Project, zone_id: str,
                  floor: Callable[[str], FloorModel] | None = None) -> Results:
     """Every load of one lift zone (see :func:`analyse`)."""
+    cancel.check()
     floor = floor or _floor_cache(project)
     zone = project.zone(zone_id)
     fm = floor(zone.level_id)
