@@ -47,7 +47,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from typing import Any
 
 import numpy as np
@@ -679,6 +679,20 @@ def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarra
     return Geometry(x, y, path, bay, prot, opening)
 
 
+def _with_crush_energy(h_allow: np.ndarray, where: np.ndarray, F_c: np.ndarray,
+                       s_c: np.ndarray, W: np.ndarray, eta: np.ndarray) -> np.ndarray:
+    """An allowable height over a crushable layer that bottoms out, m: the layer takes
+    (F_c − W)·s_c of the energy ηWh (:func:`droprig.solver.impact.impact_crushable`,
+    case 3, solved for h: h = h_allow + (F_c − W)·s_c/(ηW)). A layer weaker than the
+    load's weight (F_c ≤ W) crushes under the weight alone and *adds* (W − F_c)·s_c:
+    the height shrinks, and where it would fall below 0 no height is allowed (nan),
+    so an inverse answer never claims a margin the forward analysis does not give."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        bonus = np.where(where, (F_c - W) * s_c / (eta * W), 0.0)
+        out = h_allow + bonus
+    return np.where(np.isfinite(out) & (out >= 0.0), out, np.nan)
+
+
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                   geo: Geometry, load_index: np.ndarray | None = None, *,
                   detail: bool = False) -> dict[str, np.ndarray]:
@@ -981,9 +995,7 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     # ---- inverse answers
     Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, d_st, eta)
-    crush_bonus = np.where(crushable & (F_c <= F_allow) & (F_c > W),
-                           (F_c - W) * s_c / (eta * W), 0.0)
-    h_el = h_el + crush_bonus
+    h_el = _with_crush_energy(h_el, crushable & (F_c <= F_allow), F_c, s_c, W, eta)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = Ub_at_Rp[0]
     for u in Ub_at_Rp[1:]:
@@ -994,16 +1006,17 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
         d_lim_s = np.minimum(s.ductility_limit * R_p * f_s, d_rot)
         mu_tot = (d_lim_s + R_p * f_series) / (R_p * f)
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
-    h_pl = h_pl + np.where(crushable & (F_c < R_p) & (F_c > W),
-                           (F_c - W) * s_c / (eta * W), 0.0)
+    h_pl = _with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (nh_fa > R_p), h_pl, np.nan)
     h_pl = np.fmax(h_pl, h_el)
     m_allow = limits.allowable_mass(Fa_pos, h, f, m_e)
-    k_req = limits.required_mat_stiffness(W, h, eta, Fa_pos, f_struct)
+    # advice for a mat or a layer still to be laid: under it η = 1 (the framing's mass
+    # share is not taken, as in the forward analysis above), not the bare deck's η
+    k_req = limits.required_mat_stiffness(W, h, 1.0, Fa_pos, f_struct)
     k_req = np.where(np.isfinite(k_req) & (response != ELASTIC), k_req, np.nan)
-    s_req = limits.required_crush_stroke(W, h, eta, Fa_pos, f_struct)
+    s_req = limits.required_crush_stroke(W, h, 1.0, Fa_pos, f_struct)
     s_req = np.where((response != ELASTIC) & np.isfinite(s_req), s_req, np.nan)
     # ---- openings: the load falls through
     op = geo.opening
@@ -1441,6 +1454,8 @@ def analyse_zone(project: Project, zone_id: str,
     cases = []
     summaries: list[BaySummary] = []
     allres = zone_points(fm, project, zone, (x, y)) if zone.loads else {}
+    if zone.loads:
+        confirm_plastic_heights(fm, project, zone, allres)
     for j, load in enumerate(zone.loads):
         sel = allres["_load"] == j
         res = {k: v[sel] for k, v in allres.items()}
@@ -1449,7 +1464,65 @@ def analyse_zone(project: Project, zone_id: str,
         summaries.extend(summarise(level, zone, load, case, res["_F_allow"]))
     if not zone.loads:
         warnings.append(f"zone {zone.id}: no loads to assess")
+    warnings.extend(useless_layers(project, zone))
     return Results(tuple(cases), tuple(summaries), tuple(warnings))
+
+
+CONFIRM_FACTORS = (0.99, 1.0)
+"""Fractions of a plastic allowable height at which the forward analysis must not
+exceed before the height is reported (issue 16: evaluated at 0.99 × the height)."""
+
+_CONFIRM_BLOCK = 256
+"""Points per forward check (each point carries its own trial load)."""
+
+
+def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
+                            res: dict[str, np.ndarray]) -> None:
+    """Keep a plastic allowable height only where the forward analysis confirms it.
+
+    The plastic inverse (:func:`droprig.solver.plastic.allowable_height_plastic` with
+    the brittle checks at R_p) is an energy estimate; a height it gives above the
+    elastic one is checked by analysing each such point again with the load dropped
+    from :data:`CONFIRM_FACTORS` × that height. Where any trial exceeds, the height
+    falls back to the elastic allowable height (closed form, Gere §9.10), so no
+    reported height claims a margin the forward analysis does not give. In place on
+    ``res`` (the rows of :func:`zone_points`)."""
+    h_pl = res["allowable_drop_height_plastic"]
+    h_el = res["allowable_drop_height"]
+    idx = np.flatnonzero(np.isfinite(h_pl) & ~(h_pl <= h_el))
+    if idx.size == 0:
+        return
+    loads = list(zone.loads)
+    ok = np.ones(idx.size, dtype=bool)
+    for s0 in range(0, idx.size, _CONFIRM_BLOCK):
+        cancel.check()
+        part = idx[s0:s0 + _CONFIRM_BLOCK]
+        geo = point_geometry(fm, project, res["x"][part], res["y"][part])
+        for factor in CONFIRM_FACTORS:
+            trial = [replace(loads[int(j)], drop_height=min(factor * float(hp), 200.0),
+                             hook_elevation=None, hang_length=0.0)
+                     for j, hp in zip(res["_load"][part], h_pl[part], strict=True)]
+            r = evaluate_case(fm, project, trial, geo, np.arange(part.size))
+            ok[s0:s0 + part.size] &= r["response"] != EXCEEDS
+    bad = idx[~ok]
+    h_pl[bad] = h_el[bad]
+
+
+def useless_layers(project: Project, zone: LiftZone) -> list[str]:
+    """Warnings for crushable layers on the zone's level whose crush force is at most
+    a load's weight: the layer crushes under the load's own weight and protects
+    nothing (its stroke adds to the fall; common practice, no source)."""
+    out = []
+    for pa in project.protection_areas:
+        if pa.level_id != zone.level_id or pa.kind != "crushable" or pa.crush_force is None:
+            continue
+        for ld in zone.loads:
+            if pa.crush_force <= ld.weight:
+                out.append(f"protection {pa.id}: its crush force ({pa.crush_force:g} N) is "
+                           f"not above the weight of {ld.name} in zone {zone.id} "
+                           f"({ld.weight:.0f} N); the layer crushes under the load alone "
+                           "and gives no protection from it")
+    return out
 
 
 def analyse(project: Project) -> Results:
