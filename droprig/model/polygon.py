@@ -101,7 +101,7 @@ def _box_pairs(pts: list[Corner], edges: list[tuple[int, int]]) -> list[tuple[in
     order = sorted(range(len(edges)), key=lambda e: box[e][0])
     out = []
     for pos, a in enumerate(order):
-        ax0, ax1, ay0, ay1 = box[a]
+        _, ax1, ay0, ay1 = box[a]
         for b in order[pos + 1:]:
             bx0, _, by0, by1 = box[b]
             if bx0 > ax1:
