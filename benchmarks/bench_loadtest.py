@@ -69,10 +69,10 @@ def _cancel_latency(project: Project, after: float = 3.0) -> float:
     """Seconds from cancelling a running analysis to its end (the window's cancel)."""
     import threading
 
-    from droprig.solver import analysis
+    from droprig.solver import analysis, floor
     from droprig.solver.cancel import AnalysisCancelledError, CancelToken, cancellable
 
-    analysis._FLOORS.clear()
+    floor._FLOORS.clear()
     token = CancelToken()
     stopped: list[float] = []
 
@@ -122,9 +122,9 @@ def main() -> int:
           f"{len(problems)} problems")
     print(f"  cancel: stopped {_cancel_latency(project):.2f} s after the cancel "
           "(issue 16: < 1 s)")
-    from droprig.solver import analysis as _analysis
+    from droprig.solver import floor as _floor
 
-    _analysis._FLOORS.clear()  # the timed run prepares its floors afresh
+    _floor._FLOORS.clear()  # the timed run prepares its floors afresh
     t0 = time.perf_counter()
     results = analyse(project)
     dt = time.perf_counter() - t0

@@ -26,7 +26,7 @@ from hypothesis import strategies as st
 
 from droprig.io.project_file import load_project, loads_project
 from droprig.model import LiftLoad, Project, ProtectionArea, Rect
-from droprig.solver import analysis
+from droprig.solver import analysis, evaluate
 from droprig.solver.results import ELASTIC, EXCEEDS
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -67,7 +67,7 @@ def _check_project(project: Project) -> int:
             loads = [replace(load, drop_height=min(SLACK * float(h_a[i]), 200.0))
                      for i in idx]
             geo = analysis.point_geometry(fm, project, case.x[idx], case.y[idx])
-            r = analysis.evaluate_case(fm, project, loads, geo, np.arange(idx.size))
+            r = evaluate.evaluate_case(fm, project, loads, geo, np.arange(idx.size))
             good = ok(r)
             bad = idx[~good]
             assert bad.size == 0, (
@@ -168,7 +168,7 @@ def test_advised_mat_stiffness_works_when_laid() -> None:
             q = replace(p, protection_areas=(mat,))
             fm = analysis.floor_model(q.level(zone.level_id), q.settings)
             load = next(ld for ld in zone.loads if ld.name == case.load_name)
-            r = analysis.evaluate_case(fm, q, load, analysis.point_geometry(
+            r = evaluate.evaluate_case(fm, q, load, analysis.point_geometry(
                 fm, q, np.array([x]), np.array([y])))
             assert r["utilisation"][0] <= 1.0 + 1e-9, (x, y, r["utilisation"][0])
             tried += 1
