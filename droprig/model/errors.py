@@ -57,7 +57,7 @@ def text_char_problem(c: str) -> str | None:
     return None
 
 
-_PLAIN = re.compile(r"[\t\n\x20-\x7e\u00a0-\u060b\u060d-\u200d\u2010-\u2029"
+_PLAIN = re.compile(r"[\t\n\x20-\x7e\u00a0-\u061b\u061d-\u200d\u2010-\u2029"
                     r"\u202f-\u2065\u206a-\ud7ff\ue000-\U0010ffff]*")
 
 
