@@ -1,7 +1,7 @@
 """Unit conversion at the edges (input fields, files, CLI, report) with pint.
 
 Core code never sees a unit string: :func:`parse` turns user text into an SI
-float for a named quantity, :func:`fmt` turns an SI float into text in the
+float for a named quantity (by a grammar, never by evaluating an expression), :func:`fmt` turns an SI float into text in the
 user's unit system.
 """
 
@@ -87,7 +87,9 @@ def parse(text: str | float, quantity: str, system: UnitSystem = "SI", *,
 
     A bare number takes the display unit of ``system``. Pound-mass and
     pound-force are told apart by the quantity asked for (``lb`` is a mass for
-    ``mass`` and a force for ``force``).
+    ``mass`` and a force for ``force``). The text is read by the grammar
+    :data:`_QUANTITY` (number, optional exponent, unit), never evaluated; numbers
+    beyond :data:`MAX_MAGNITUDE` are refused (:class:`UnitError` naming ``field``).
     """
     if quantity not in QUANTITIES:
         raise KeyError(quantity)
