@@ -161,41 +161,67 @@ def table_text(project: Any, results: Any) -> str:
     return "\n".join(out) + "\n"
 
 
-def _write(target: str, text: str) -> None:
-    """Write ``text`` to ``target`` atomically ('-' is stdout)."""
+def _write(target: str, text: str, project_path: str = "", *, force: bool = False,
+           option: str = "output") -> None:
+    """Write ``text`` to ``target`` atomically ('-' is stdout), never over the project
+    file, over another ``.droprig`` file only with ``force``; a replaced file is kept
+    as ``.bak`` (:func:`droprig.io.atomic.write_output`)."""
     if target == "-":
         sys.stdout.write(text)
         return
-    from droprig.io.atomic import atomic_write_bytes
+    from droprig.io.atomic import write_output
 
-    atomic_write_bytes(target, text.encode("utf-8"))
+    write_output(target, text.encode("utf-8"), (project_path,) if project_path else (),
+                 force=force, option=option)
 
 
 def run(args: argparse.Namespace) -> int:
+    from droprig.io.atomic import OutputRefusedError, check_output
     from droprig.io.project_file import ProjectFileError, load_project
     from droprig.model import ModelError
     from droprig.solver import analyse
     from droprig.texts import describe_error
 
-    try:
-        project = load_project(args.file)
-        results = analyse(project)
-    except (ProjectFileError, ModelError, OSError, ValueError) as exc:
-        print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
-        return EXIT_BAD_INPUT
     json_out = getattr(args, "json_out", None)
     csv_out = getattr(args, "csv_out", None)
+    force = bool(getattr(args, "force", False))
     if json_out == "-" and csv_out == "-":
         print("droprig analyse: --json and --csv cannot both write to stdout (-)",
               file=sys.stderr)
         return EXIT_BAD_INPUT
+    try:  # refused before the (possibly long) analysis
+        for out, option in ((json_out, "--json"), (csv_out, "--csv")):
+            if out and out != "-":
+                check_output(out, (args.file,), force=force, option=option)
+        if json_out and csv_out and json_out != "-" and json_out == csv_out:
+            raise OutputRefusedError("--json and --csv name the same file; give two names")
+    except OutputRefusedError as exc:
+        print(f"droprig analyse: {exc}", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    from droprig.preflight import analysis_problems
+
+    try:
+        project = load_project(args.file)
+        problems = analysis_problems(project)
+        if problems:
+            print(f"droprig analyse: {args.file}: {len(problems)} problem(s)\n  "
+                  + "\n  ".join(problems), file=sys.stderr)
+            return EXIT_BAD_INPUT
+        results = analyse(project)
+    except (ProjectFileError, ModelError, OSError, ValueError) as exc:
+        print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
+        return EXIT_BAD_INPUT
     try:
         if csv_out:
-            _write(csv_out, csv_text(project, results))
+            _write(csv_out, csv_text(project, results), args.file, force=force,
+                   option="--csv")
         if json_out:
             doc = results_document(project, results)
             _write(json_out, json.dumps(doc, indent=2, ensure_ascii=False, allow_nan=False)
-                   + "\n")
+                   + "\n", args.file, force=force, option="--json")
+    except OutputRefusedError as exc:
+        print(f"droprig analyse: {exc}", file=sys.stderr)
+        return EXIT_BAD_INPUT
     except OSError as exc:
         print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
         return EXIT_BAD_INPUT
