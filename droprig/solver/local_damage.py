@@ -46,7 +46,7 @@ from typing import Literal
 import numpy as np
 from numpy.typing import ArrayLike
 
-from droprig.model import STRIKE_ORIENTATIONS, ModelError
+from droprig.model import STRIKE_ORIENTATIONS, Deck, LiftLoad, ModelError
 
 __all__ = [
     "BRL_STEEL",
@@ -58,6 +58,7 @@ __all__ = [
     "UKAEA_BARR",
     "ConcreteDamage",
     "G",
+    "LoadDamage",
     "PlateDamage",
     "Validity",
     "barr_ballistic_limit",
@@ -72,14 +73,17 @@ __all__ = [
     "drop_height_for_speed",
     "equivalent_diameter",
     "impact_speed",
+    "is_hard",
     "kennedy_perforation_thickness",
     "kennedy_scabbing_thickness",
+    "load_local_damage",
     "ndrc_G",
     "ndrc_penetration",
     "ndrc_perforation_velocity",
     "ndrc_scabbing_velocity",
     "plate_local_damage",
     "residual_velocity",
+    "slab_reinforcement_percent",
     "strike_geometry",
     "ukaea_penetration",
 ]
@@ -546,3 +550,79 @@ def plate_local_damage(M: ArrayLike, d: ArrayLike, v: ArrayLike, t: ArrayLike,
                        h_perforation=drop_height_for_speed(np.maximum(v_bl, v0), v0),
                        v_ballistic=v_bl, v_residual=residual_velocity(v, v_bl),
                        extrapolated=BRL_STEEL.extrapolated(v))
+
+
+# --- a load on a deck ------------------------------------------------------------
+
+@dataclass(frozen=True)
+class LoadDamage:
+    """Local damage of a deck by one hard load at each drop point, worst over the
+    strike orientations checked.
+
+    orientations: the orientations checked (the load's ``strike_orientations``);
+    reason: why some were left out ("" when all three). by_orientation: the
+    :class:`ConcreteDamage` of each. The worst-case arrays: penetration (deepest),
+    scabbing / perforation (any orientation), h_scabbing / h_perforation (lowest
+    start height, m), v_residual (highest, m/s), extrapolated (any), and
+    governing: index into ``orientations`` of the orientation with the lowest
+    perforation height at each point.
+    """
+
+    orientations: tuple[str, ...]
+    reason: str
+    by_orientation: tuple[ConcreteDamage, ...]
+    penetration: np.ndarray
+    scabbing: np.ndarray
+    perforation: np.ndarray
+    h_scabbing: np.ndarray
+    h_perforation: np.ndarray
+    v_residual: np.ndarray
+    extrapolated: np.ndarray
+    governing: np.ndarray
+
+
+def is_hard(load: LiftLoad) -> bool:
+    """A load is a hard object for local damage unless its own underside is
+    declared soft (``contact_stiffness`` given: skid, dunnage, bearers), whose
+    crushing spreads the contact; such loads are judged by the contact and slab
+    checks instead (common practice, no source)."""
+    return load.contact_stiffness is None
+
+
+def slab_reinforcement_percent(deck: Deck) -> float:
+    """Bending reinforcement of the slab in percent of its section, for Barr's
+    formula: 100·A_s/t (A_s bottom bars per metre width, m²/m; t slab depth, m).
+    Only the bottom layer is declared, so this undercounts a slab with top bars
+    (conservative: a lower ballistic limit)."""
+    return 100.0 * deck.rebar_area / deck.thickness
+
+
+def load_local_damage(load: LiftLoad, deck: Deck, h: ArrayLike,
+                      v0: ArrayLike = 0.0) -> LoadDamage:
+    """Local damage of ``deck`` by ``load`` falling h (m, per drop point) from a
+    downward speed v0 (m/s): :func:`concrete_local_damage` for each of the load's
+    strike orientations (:func:`strike_geometry` from its footprint and edge
+    width), the worst governing at each point. The slab is the deck's full
+    depth with its concrete and bottom reinforcement."""
+    h = np.asarray(h, float)
+    v = impact_speed(h, v0)
+    fc, rho = deck.concrete.fc, deck.concrete.density
+    r = slab_reinforcement_percent(deck)
+    parts = []
+    for o in load.strike_orientations:
+        d, p, n = strike_geometry(o, load.footprint_length, load.footprint_width,
+                                  load.edge_width)
+        parts.append(concrete_local_damage(load.mass, d, p, v, deck.thickness, fc, rho, r,
+                                           n, v0))
+    h_perf = np.stack([c.h_perforation for c in parts])
+    return LoadDamage(
+        orientations=tuple(load.strike_orientations), reason=load.strike_reason,
+        by_orientation=tuple(parts),
+        penetration=np.max(np.stack([c.penetration for c in parts]), axis=0),
+        scabbing=np.any(np.stack([c.scabbing for c in parts]), axis=0),
+        perforation=np.any(np.stack([c.perforation for c in parts]), axis=0),
+        h_scabbing=np.min(np.stack([c.h_scabbing for c in parts]), axis=0),
+        h_perforation=np.min(h_perf, axis=0),
+        v_residual=np.max(np.stack([c.v_residual for c in parts]), axis=0),
+        extrapolated=np.any(np.stack([c.extrapolated for c in parts]), axis=0),
+        governing=np.argmin(h_perf, axis=0))

@@ -246,3 +246,32 @@ def test_bad_input_names_the_field() -> None:
         ld.concrete_local_damage(100.0, 0.2, 0.6, 10.0, 0.0, 30e6)
     with pytest.raises(ModelError, match="load mass"):
         ld.concrete_local_damage(np.array([100.0, np.nan]), 0.2, 0.6, 10.0, 0.15, 30e6)
+
+
+def test_load_local_damage_takes_the_worst_orientation() -> None:
+    from droprig.model import Deck, LiftLoad
+
+    deck = Deck(thickness=0.13)
+    bar = LiftLoad("bar", 300.0, 4.0, 0.3, 4.8, kind="rigging")
+    h = np.array([0.3, 1.0, 4.8, 40.0])
+    r = ld.load_local_damage(bar, deck, h)
+    assert r.orientations == ("flat", "edge", "corner") and ld.is_hard(bar)
+    for k, o in enumerate(r.orientations):
+        d, p, n = ld.strike_geometry(o, 4.0, 0.3, bar.edge_width)
+        one = ld.concrete_local_damage(300.0, d, p, ld.impact_speed(h), 0.13, deck.concrete.fc,
+                                       deck.concrete.density,
+                                       ld.slab_reinforcement_percent(deck), n)
+        assert np.array_equal(r.by_orientation[k].h_perforation, one.h_perforation)
+        assert np.all(r.h_perforation <= one.h_perforation)
+        assert np.all(r.perforation >= one.perforation)
+    assert np.array_equal(r.h_perforation,
+                          [r.by_orientation[int(g)].h_perforation[i]
+                           for i, g in enumerate(r.governing)])
+    # a restricted set is honoured and its reason kept for the annex
+    flat_only = LiftLoad("bar", 300.0, 4.0, 0.3, 4.8, kind="rigging",
+                         strike_orientations=("flat",), strike_reason="guided descent")
+    rf = ld.load_local_damage(flat_only, deck, h)
+    assert rf.orientations == ("flat",) and rf.reason == "guided descent"
+    assert np.all(rf.h_perforation >= r.h_perforation)
+    # a declared soft underside is not a hard object
+    assert not ld.is_hard(LiftLoad("unit", 3000.0, contact_stiffness=2e7))
