@@ -23,13 +23,14 @@ memory); v = ω·R for the slew.
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass
 
 import numpy as np
 from numpy.typing import ArrayLike
 
-from droprig.model import LiftZone
+from droprig.model import LiftZone, Project
 
 __all__ = [
     "Drift",
@@ -37,6 +38,7 @@ __all__ = [
     "fall_time",
     "landing_drift",
     "radial_drift",
+    "resolve_drift",
     "slew_drift",
     "swing_drift",
     "zone_drift_margin",
@@ -124,3 +126,21 @@ def zone_drift_margin(zone: LiftZone, surface_elevation: float) -> float:
     if not math.isfinite(worst):
         raise ValueError(f"zone {zone.id}: drift margin is not finite")
     return worst
+
+
+def resolve_drift(project: Project) -> Project:
+    """The project with every ``computed`` zone's ``drift_margin`` replaced by
+    :func:`zone_drift_margin` on its own level, so that the drop points, the plan
+    and the annex all use the computed margin. Zones in ``given`` mode are left
+    as entered. A computed margin beyond the model's range raises the model's
+    :class:`~droprig.model.ModelError` naming the zone's ``drift_margin``."""
+    zones = []
+    changed = False
+    for z in project.lift_zones:
+        if z.drift_mode == "computed":
+            m = zone_drift_margin(z, project.level(z.level_id).elevation)
+            if m != z.drift_margin:
+                z = dataclasses.replace(z, drift_margin=m)
+                changed = True
+        zones.append(z)
+    return dataclasses.replace(project, lift_zones=tuple(zones)) if changed else project

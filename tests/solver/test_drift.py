@@ -89,3 +89,22 @@ def test_zone_drift_margin_given_and_computed() -> None:
     # bar: falls 30 − 2 − 10 = 18 m, t = √(36/9.80665) = 1.91601 s; at r_max = 20 m
     # and 0.1 rad/s: 2 m/s × 1.91601 = 3.8320 m (worse than the unit's 1.9993 m)
     assert drift.zone_drift_margin(zc, 10.0) == pytest.approx(3.8320, rel=HAND)
+
+
+def test_resolve_drift_fills_computed_zones_only() -> None:
+    from droprig.model import ColumnGrid, Level, ModelError, Project
+
+    grid = ColumnGrid((0.0, 6.0), (0.0, 8.0), ("1", "2"), ("A", "B"))
+    level = Level("L1", "roof", 10.0, grid, ())
+    given = _zone(drift_margin=0.7)
+    computed = dataclasses.replace(_zone(), id="Z2", drift_mode="computed", slew_speed=0.1)
+    p = Project(levels=(level,), lift_zones=(given, computed))
+    r = drift.resolve_drift(p)
+    assert r.lift_zones[0] == given
+    assert r.lift_zones[1].drift_margin == pytest.approx(3.8320, rel=HAND)  # as above
+    only_given = Project(levels=(level,), lift_zones=(given,))
+    assert drift.resolve_drift(only_given) is only_given  # nothing to compute
+    # a computed margin past the model's 20 m is refused naming the field
+    fast = dataclasses.replace(computed, slew_speed=0.35, r_max=150.0)
+    with pytest.raises(ModelError, match="drift_margin"):
+        drift.resolve_drift(Project(levels=(level,), lift_zones=(fast,)))
