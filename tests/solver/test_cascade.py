@@ -1,0 +1,49 @@
+"""The level below: selection and the strike on it after a perforation.
+
+Sources: uniform acceleration (Meriam & Kraige, *Engineering Mechanics:
+Dynamics*, ch. 2 — from memory), checked against scipy ``solve_ivp``.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+from scipy.integrate import solve_ivp
+
+from droprig.model import ColumnGrid, Deck, Level, Project
+from droprig.solver import cascade
+
+G = 9.80665
+ODE = 1e-6
+
+
+def _level(lid: str, z: float, x0: float = 0.0, t: float = 0.15) -> Level:
+    grid = ColumnGrid((x0, x0 + 6.0), (0.0, 8.0), ("1", "2"), ("A", "B"))
+    return Level(lid, lid, z, grid, (), Deck(thickness=t))
+
+
+def test_level_below_is_the_next_lower_overlapping_level() -> None:
+    roof, l3, l2, aside = _level("R", 12.0), _level("L3", 8.0), _level("L2", 4.0), \
+        _level("X", 9.0, x0=100.0)
+    p = Project(levels=(l2, roof, aside, l3))
+    below = cascade.level_below(p, "R")
+    assert below is not None and below.id == "L3"  # X is higher but not under the roof
+    below2 = cascade.level_below(p, "L2")
+    assert below2 is None
+
+
+def test_equivalent_height_against_integration() -> None:
+    roof, l3 = _level("R", 12.0, t=0.15), _level("L3", 8.0)
+    assert cascade.clear_height_below(roof, l3) == pytest.approx(3.85)
+    vr = 6.0
+    h_eq = float(cascade.equivalent_drop_height_below(vr, roof, l3))
+
+    def hit(_t: float, y: list[float]) -> float:
+        return y[0] - 3.85
+
+    hit.terminal = True  # type: ignore[attr-defined]
+    sol = solve_ivp(lambda _t, y: [y[1], G], (0.0, 10.0), [0.0, vr], events=hit, rtol=1e-10,
+                    atol=1e-12)
+    v_hit = sol.y_events[0][0][1]
+    assert np.sqrt(2 * G * h_eq) == pytest.approx(v_hit, rel=ODE)
+    assert np.isnan(cascade.equivalent_drop_height_below(0.0, roof, l3))
