@@ -55,6 +55,8 @@ __all__ = [
     "NDRC_KENNEDY",
     "NOSE_FACTOR",
     "ORIENTATIONS",
+    "PERFORATION_MARGIN",
+    "SCABBING_MARGIN",
     "UKAEA_BARR",
     "ConcreteDamage",
     "G",
@@ -136,6 +138,14 @@ CHANG = Validity(
 BRL_STEEL = Validity(
     "BRL steel plate", 60.0, 1000.0, 0.0, math.inf,
     "BRL formula, ballistic test range (from memory)")
+
+SCABBING_MARGIN = 1.1
+"""A slab prevents scabbing when at least 1.1 × the scabbing thickness
+(DOE-STD-3014 App. C, after Eq. C-66)."""
+
+PERFORATION_MARGIN = 1.2
+"""A slab prevents perforation when at least 1.2 × the perforation thickness
+(DOE-STD-3014 App. C, after Eq. C-614)."""
 
 _CHANG_U = 60.96
 """Chang's reference speed u = 200 ft/s in m/s (Chang 1981 — from memory)."""
@@ -243,8 +253,8 @@ def ndrc_penetration(M: ArrayLike, d: ArrayLike, v: ArrayLike, fc: ArrayLike,
 
 
 def kennedy_scabbing_thickness(x: ArrayLike, d: ArrayLike) -> np.ndarray:
-    """Least slab thickness that does not scab, m (Kennedy 1976; Li et al. 2005
-    — from memory):
+    """Least slab thickness that does not scab, m (Kennedy 1976; DOE-STD-3014
+    App. C, Eqs. C-65 and C-66):
 
     h_s/d = 7.91·(x/d) − 5.06·(x/d)² for x/d ≤ 0.65;
     h_s/d = 2.12 + 1.36·(x/d) for 0.65 < x/d ≤ 11.75 (extended beyond).
@@ -463,6 +473,12 @@ def concrete_local_damage(M: ArrayLike, d: ArrayLike, perimeter: ArrayLike,
     at the lowest ballistic limit of the three; the penetration is the deepest of
     families 1 and 2, capped at t. Heights: h = (V² − v0²)/(2g) with v0 the
     downward speed at release (hoist lowering). Units as in the module docstring.
+
+    The slab counts against scabbing only with t/1.1 and against perforation only
+    with t/1.2: DOE-STD-3014 App. C asks for a thickness of at least 1.1·t_s to
+    prevent scabbing and 1.2·t_p to prevent perforation (``SCABBING_MARGIN``,
+    ``PERFORATION_MARGIN``, applied here to every family). The residual speed is
+    taken over the ballistic limit so reduced (more speed for the level below).
     """
     M, d, p, v, t, fc, rho, r, N, v0 = _arr(M, d, perimeter, v, t, fc, rho_c, r_percent,
                                            N, v0)
@@ -472,11 +488,12 @@ def concrete_local_damage(M: ArrayLike, d: ArrayLike, perimeter: ArrayLike,
         _require_positive(name, a, unit)
     x = np.minimum(np.maximum(ndrc_penetration(M, d, v, fc, N),
                               ukaea_penetration(M, d, v, fc, N)), t)
-    v_scab = np.minimum(ndrc_scabbing_velocity(M, d, t, fc, N),
-                        chang_scabbing_velocity(M, d, t, fc))
-    v_perf_all = np.stack([ndrc_perforation_velocity(M, d, t, fc, N),
-                           barr_ballistic_limit(M, p, t, fc, rho, r),
-                           chang_perforation_velocity(M, d, t, fc)])
+    ts, tp = t / SCABBING_MARGIN, t / PERFORATION_MARGIN
+    v_scab = np.minimum(ndrc_scabbing_velocity(M, d, ts, fc, N),
+                        chang_scabbing_velocity(M, d, ts, fc))
+    v_perf_all = np.stack([ndrc_perforation_velocity(M, d, tp, fc, N),
+                           barr_ballistic_limit(M, p, tp, fc, rho, r),
+                           chang_perforation_velocity(M, d, tp, fc)])
     gov = np.argmin(v_perf_all, axis=0)
     v_bl = np.min(v_perf_all, axis=0)
     v_scab = np.minimum(v_scab, v_bl)  # a perforated slab has scabbed

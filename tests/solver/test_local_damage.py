@@ -11,7 +11,10 @@ Sources:
   SI form G = 3.8·10⁻⁵·N*·M/(d√f_c)·(V/d)^1.8; UKAEA, Barr, Chang, BRL formulas
   (from memory; the team's references list the same review as Li, Reid, Wen,
   Zhang, Ma, *Int. J. Impact Eng.* 31 (2005)).
-* US DOE, DOE-STD-3014 Appendix C (public reproduction) — ACE perforation
+* US DOE, DOE-STD-3014 Appendix C (public reproduction) — scabbing t_s/D =
+  2.12 + 1.36·x/D for 0.65 < x/D < 11.75, 7.91·x/D − 5.06·(x/D)² for x/D < 0.65
+  (Eqs. C-65, C-66), and a thickness ≥ 1.1·t_s against scabbing, ≥ 1.2·t_p
+  against perforation; ACE perforation
   e/d = 1.32 + 1.24·x/d for 1.35 < x/d < 13.5, i.e. 3 < e/d < 18; Degen
   Eqs. C-613/C-614: e/d = 0.69 + 1.29·x/d for 2.65 ≤ e/d ≤ 18, e/d = 2.2·x/d −
   0.3·(x/d)² for x/d ≤ 1.52.
@@ -79,7 +82,8 @@ def test_ndrc_penetration_branches() -> None:
 @pytest.mark.parametrize(
     ("func", "x_over_d", "published"),
     [
-        # Kennedy 1976: the scabbing branches meet at x/d = 0.65, h_s/d = 3.00 (from memory)
+        # DOE-STD-3014 App. C, Eqs. C-65/C-66: the scabbing branches meet at x/d = 0.65
+        # (h_s/d = 3.00)
         (ld.kennedy_scabbing_thickness, 0.65, 3.00),
         # ACE perforation, DOE-STD-3014 App. C: x/d = 1.35 ↔ e/d = 3, x/d = 13.5 ↔ e/d = 18
         (ld.kennedy_perforation_thickness, 1.35, 3.0),
@@ -210,6 +214,22 @@ def test_concrete_local_damage_states_and_heights() -> None:
     # drops of a few metres are far below every family's test speeds
     assert np.all(r.extrapolated)
     assert r.families[int(r.governing_family[0])] in r.families
+
+
+def test_doe_thickness_margins_are_applied() -> None:
+    # DOE-STD-3014 App. C: a slab of exactly 1.1·t_s just prevents scabbing and
+    # one of exactly 1.2·t_p just prevents perforation; here the NDRC + Kennedy family
+    # governs (Chang and Barr need more speed for this 300 kg, 0.3 m missile)
+    M, d, fc, v = 300.0, 0.3, 30e6, 9.7
+    x = ld.ndrc_penetration(M, d, v, fc)
+    ts = float(ld.kennedy_scabbing_thickness(x, d))
+    tp = float(ld.kennedy_perforation_thickness(x, d))
+    r = ld.concrete_local_damage(M, d, math.pi * d, v, 1.1 * ts, fc)
+    assert float(r.h_scabbing) == pytest.approx(float(ld.drop_height_for_speed(v)), rel=1e-9)
+    r = ld.concrete_local_damage(M, d, math.pi * d, v, 1.1 * ts * 1.01, fc)
+    assert not bool(r.scabbing)
+    r = ld.concrete_local_damage(M, d, math.pi * d, v, 1.2 * tp * 0.99, fc)
+    assert bool(r.perforation)
 
 
 def test_extrapolation_flag_inside_range() -> None:
