@@ -348,7 +348,8 @@ def ukaea_penetration(M: ArrayLike, d: ArrayLike, v: ArrayLike, fc: ArrayLike,
     low = 0.275 - np.sqrt(np.maximum(0.0756 - Gv, 0.0))
     mid = np.sqrt(np.maximum(4.0 * Gv - 0.242, 0.0))
     r = np.where(Gv <= 0.0726, low, np.where(Gv <= 1.0605, mid, Gv + 0.9395))
-    return np.maximum(r, 0.0) * d
+    # the fit leaves 5·10⁻⁵·d at G = 0; no speed, no crater
+    return np.where(Gv > 0.0, np.maximum(r, 0.0), 0.0) * d
 
 
 def barr_ballistic_limit(M: ArrayLike, perimeter: ArrayLike, t: ArrayLike,

@@ -33,6 +33,8 @@ import math
 
 import numpy as np
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 from scipy.optimize import brentq
 
 from droprig.model import ModelError
@@ -295,3 +297,18 @@ def test_load_local_damage_takes_the_worst_orientation() -> None:
     assert np.all(rf.h_perforation >= r.h_perforation)
     # a declared soft underside is not a hard object
     assert not ld.is_hard(LiftLoad("unit", 3000.0, contact_stiffness=2e7))
+
+
+@settings(max_examples=200, deadline=None)
+@given(M=st.floats(1.0, 500_000.0), L=st.floats(0.01, 30.0), W=st.floats(0.01, 30.0),
+       b=st.floats(0.002, 1.0), h=st.floats(0.0, 200.0), t=st.floats(0.05, 0.6),
+       fc=st.floats(15e6, 100e6), o=st.sampled_from(["flat", "edge", "corner"]))
+def test_no_nan_over_the_model_ranges(M: float, L: float, W: float, b: float, h: float,
+                                      t: float, fc: float, o: str) -> None:
+    # every input the model accepts (LiftLoad, Deck, Concrete ranges) gives numbers,
+    # never NaN: a silent NaN would read as "no damage"
+    d, p, n = ld.strike_geometry(o, L, W, b)
+    r = ld.concrete_local_damage(M, d, p, ld.impact_speed(h), t, fc, N=n)
+    for a in (r.penetration, r.h_scabbing, r.h_perforation, r.v_ballistic, r.v_residual):
+        assert not np.any(np.isnan(a))
+    assert float(ld.ukaea_penetration(M, d, 0.0, fc)) == 0.0
