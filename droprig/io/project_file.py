@@ -290,6 +290,8 @@ def _load_doc(ld: LiftLoad) -> dict[str, object]:
         out["strike_reason"] = ld.strike_reason
     if ld.edge_width != _DEFAULT_LOAD.edge_width:
         out["edge_width_m"] = ld.edge_width
+    if ld.hard is not None:
+        out["hard"] = ld.hard
     return out
 
 
@@ -645,7 +647,7 @@ _KEYS_LOAD = {"name": "name", "mass": "mass_kg", "footprint_length": "footprint_
               "hook_elevation": "hook_elevation_m", "hang_length": "hang_length_m",
               "kind": "kind", "contact_stiffness": "contact_stiffness_N_per_m",
               "strike_orientations": "strike_orientations", "strike_reason": "strike_reason",
-              "edge_width": "edge_width_m"}
+              "edge_width": "edge_width_m", "hard": "hard"}
 _KEYS_ZONE = {"id": "id", "name": "name", "level_id": "level_id", "crane": "crane_m",
               "r_min": "r_min_m", "r_max": "r_max_m", "slew_start": "slew_start_deg",
               "slew_end": "slew_end_deg", "drift_margin": "drift_margin_m",
@@ -841,7 +843,8 @@ class _Builder:
     def load(self, v: dict[str, Any], path: str) -> LiftLoad:
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LOAD.items()
                          if k in ("footprint_length", "footprint_width", "hang_length", "kind",
-                                  "contact_stiffness", "strike_reason", "edge_width")})
+                                  "contact_stiffness", "strike_reason", "edge_width",
+                                  "hard")})
         if "strike_orientations" in v:
             kw["strike_orientations"] = tuple(v["strike_orientations"])
         return self._make(path, _KEYS_LOAD, lambda: LiftLoad(

@@ -306,7 +306,10 @@ class LiftLoad:
     an edge and on a corner (``strike_orientations``); ``edge_width`` (m) is the
     bearing width of its edges (a flange or plate thickness). Restricting the
     orientations (e.g. a spreader that cannot land on a corner) needs a
-    ``strike_reason``, which the annex prints.
+    ``strike_reason``, which the annex prints. ``hard``: whether the item is a
+    hard object for local damage; ``None`` decides by kind — a rigging item
+    (spreader, shackle, hook block) with no declared soft underside is hard, a load
+    is not (its own structure crushes first; common practice, no source).
     """
 
     name: str
@@ -321,6 +324,7 @@ class LiftLoad:
     strike_orientations: tuple[StrikeOrientation, ...] = ("flat", "edge", "corner")
     strike_reason: str = ""
     edge_width: float = 0.02
+    hard: bool | None = None
 
     def __post_init__(self) -> None:
         check_text("load.name", self.name, required=True, max_len=64)
@@ -357,6 +361,8 @@ class LiftLoad:
                              "a reason when not every strike orientation (flat, edge, "
                              "corner) is checked")
         check_range(f"load {self.name}.edge_width", self.edge_width, 0.002, 1.0, unit="m")
+        if self.hard is not None and not isinstance(self.hard, bool):
+            raise ModelError(f"load {self.name}.hard", self.hard, "true, false or none")
 
     @property
     def weight(self) -> float:

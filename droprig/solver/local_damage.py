@@ -600,11 +600,14 @@ class LoadDamage:
 
 
 def is_hard(load: LiftLoad) -> bool:
-    """A load is a hard object for local damage unless its own underside is
-    declared soft (``contact_stiffness`` given: skid, dunnage, bearers), whose
-    crushing spreads the contact; such loads are judged by the contact and slab
-    checks instead (common practice, no source)."""
-    return load.contact_stiffness is None
+    """Whether a load is a hard object for local damage: ``load.hard`` when given;
+    otherwise a rigging item (spreader, shackle, hook block) whose underside is not
+    declared soft (no ``contact_stiffness``: skid, dunnage, bearers). A load's own
+    structure (a unit, a crate, a bundle) crushes before it punches a hole; it is
+    judged by the contact and slab checks instead (common practice, no source)."""
+    if load.hard is not None:
+        return load.hard
+    return load.kind == "rigging" and load.contact_stiffness is None
 
 
 def slab_reinforcement_percent(deck: Deck) -> float:

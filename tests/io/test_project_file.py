@@ -340,7 +340,8 @@ def test_strike_and_drift_data_are_optional_and_round_trip(office_roof: Project,
     assert zone.loads[0].strike_orientations == ("flat", "edge", "corner")
     assert "drift_mode" not in json.loads(dumps_project(office_roof))["lift_zones"][0]
     bar = replace(zone.loads[0], strike_orientations=("flat", "edge"),
-                  strike_reason="long spreader cannot land on a corner", edge_width=0.025)
+                  strike_reason="long spreader cannot land on a corner", edge_width=0.025,
+                  hard=True)
     z2 = replace(zone, loads=(bar,), drift_mode="computed", slew_speed=0.08, hoist_speed=0.5,
                  radial_speed=0.2, swing_angle=math.radians(7.5), swing_length=25.0)
     p = replace(office_roof, lift_zones=(z2,))
@@ -348,7 +349,7 @@ def test_strike_and_drift_data_are_optional_and_round_trip(office_roof: Project,
     zd = doc["lift_zones"][0]
     assert zd["drift_mode"] == "computed" and zd["swing_angle_deg"] == 7.5
     assert zd["loads"][0]["strike_orientations"] == ["flat", "edge"]
-    assert zd["loads"][0]["edge_width_m"] == 0.025
+    assert zd["loads"][0]["edge_width_m"] == 0.025 and zd["loads"][0]["hard"] is True
     jsonschema.Draft202012Validator(pf.schema()).validate(doc)
     assert loads_project(dumps_project(p)) == p
 

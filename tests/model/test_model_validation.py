@@ -177,6 +177,7 @@ CASES: dict[str, Case] = {
                            "is checked"),
     "load edge width": (lambda: replace(LOAD, edge_width=0.001), "load crate.edge_width",
                         "≥ 0.002 m and ≤ 1 m"),
+    "load hard": (lambda: replace(LOAD, hard="yes"), "load crate.hard", "true, false or none"),
     "zone drift mode": (lambda: replace(ZONE, drift_mode="guess"), "zone Z1.drift_mode",
                         "one of given, computed"),
     "zone slew speed": (lambda: replace(ZONE, slew_speed=1.0), "zone Z1.slew_speed",

@@ -295,8 +295,12 @@ def test_load_local_damage_takes_the_worst_orientation() -> None:
     rf = ld.load_local_damage(flat_only, deck, h)
     assert rf.orientations == ("flat",) and rf.reason == "guided descent"
     assert np.all(rf.h_perforation >= r.h_perforation)
-    # a declared soft underside is not a hard object
-    assert not ld.is_hard(LiftLoad("unit", 3000.0, contact_stiffness=2e7))
+    # a declared soft underside is not a hard object, nor a load by default; the
+    # user's choice wins
+    assert not ld.is_hard(LiftLoad("bar", 300.0, kind="rigging", contact_stiffness=2e7))
+    assert not ld.is_hard(LiftLoad("unit", 3000.0))
+    assert ld.is_hard(LiftLoad("unit", 3000.0, hard=True))
+    assert not ld.is_hard(LiftLoad("bar", 300.0, kind="rigging", hard=False))
 
 
 @settings(max_examples=200, deadline=None)
