@@ -9,10 +9,13 @@ names from ``droprig.solver`` and nothing from its modules
 * :func:`assess_member` — one member struck by one dropped load (``droprig check``);
 * :func:`member_resistances`, :func:`check_framing`, :func:`on_rigid_support` —
   framing questions without a drop;
+* :func:`resolve_drift`, :func:`zone_drift_margin` — the landing drift margin of a
+  lift zone (computed from the crane's motion, or as entered);
 * the result types and their code tables.
 """
 
 from droprig.solver.analysis import analyse
+from droprig.solver.drift import resolve_drift, zone_drift_margin
 from droprig.solver.framing import (
     Resistances,
     check_framing,
@@ -26,10 +29,12 @@ from droprig.solver.results import (
     DECK,
     ELASTIC,
     EXCEEDS,
+    PERFORATES,
     PLASTIC,
     RESPONSES,
     AdviceKind,
     BaySummary,
+    Cascade,
     CaseResult,
     Results,
     Trace,
@@ -44,11 +49,13 @@ __all__ = [
     "DEFAULT_DEFLECTION_LIMIT_RATIO",
     "ELASTIC",
     "EXCEEDS",
+    "PERFORATES",
     "PLASTIC",
     "RESPONSES",
     "RESULT_KEYS",
     "AdviceKind",
     "BaySummary",
+    "Cascade",
     "CaseResult",
     "Resistances",
     "Results",
@@ -59,5 +66,7 @@ __all__ = [
     "check_framing",
     "member_resistances",
     "on_rigid_support",
+    "resolve_drift",
     "trace_point",
+    "zone_drift_margin",
 ]

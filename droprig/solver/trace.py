@@ -30,6 +30,7 @@ from droprig.solver.chain import (
     StruckMass,
     outputs,
 )
+from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import evaluate_chain
 from droprig.solver.floor import floor_model
 from droprig.solver.geometry import point_geometry
@@ -74,6 +75,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     """Every step of the analysis of ``load_name`` of zone ``zone_id`` at plan point
     (x, y) in m. Raises :class:`ModelError` for an unknown zone or load, or a point
     that is not over a deck panel of the zone's level."""
+    project = resolve_drift(project)
     try:
         zone = project.zone(zone_id)
     except KeyError:

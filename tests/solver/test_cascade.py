@@ -47,3 +47,37 @@ def test_equivalent_height_against_integration() -> None:
     v_hit = sol.y_events[0][0][1]
     assert np.sqrt(2 * G * h_eq) == pytest.approx(v_hit, rel=ODE)
     assert np.isnan(cascade.equivalent_drop_height_below(0.0, roof, l3))
+
+
+def test_two_level_project_passes_a_perforating_drop_down() -> None:
+    # A hard rigging item that perforates the roof deck strikes the floor below in the
+    # same run: its strike there is the residual speed plus the clear fall (Recht &
+    # Ipson 1963 with the plug neglected; kinematics), and that level gets its own bay
+    # outcomes. Input: the invented two-level demo; the expected values are derived
+    # from the run's own roof results, never from the demo.
+    from pathlib import Path
+
+    from droprig.io.project_file import load_project
+    from droprig.solver import PERFORATES, analyse
+
+    root = Path(__file__).resolve().parents[2]
+    project = load_project(root / "demo_projects" / "two_level_rigging.droprig")
+    res = analyse(project)
+    roof, below = project.level("RF"), project.level("L3")
+    assert cascade.level_below(project, "RF") == below
+    assert res.cascade, "the demo's rigging perforates the roof deck"
+    for fall in res.cascade:
+        case = next(c for c in res.cases if c.load_name == fall.load_name)
+        hit = case.response == PERFORATES
+        h_eq = np.nanmax(cascade.equivalent_drop_height_below(case.residual_velocity[hit],
+                                                              roof, below))
+        assert fall.equivalent_height == pytest.approx(h_eq, rel=1e-12)
+        assert (fall.from_level, fall.level_id) == ("RF", "L3")
+        assert fall.case.level_id == "L3" and fall.case.n > 0
+        assert np.allclose(fall.case.drop_height, h_eq)
+        assert fall.bays and all(b.level_id == "L3" for b in fall.bays)
+        # the roof's bays name the level below as the exclusion zone
+        roof_bays = [b for b in res.bays if b.load_name == fall.load_name
+                     and b.response == "perforates"]
+        assert roof_bays and all(b.level_below == "L3" and b.advice_kind == "level_below"
+                                 for b in roof_bays)
