@@ -532,6 +532,8 @@ class _Builder:
                 word = {"elastic": "ALL ASSESSED BAYS STAY ELASTIC",
                         "plastic": "SOME BAYS YIELD — PROTECT OR ACCEPT DAMAGE",
                         "exceeds": "NOT ACCEPTABLE AS PLANNED — PROTECT OR EXCLUDE",
+                        "perforates": "NOT ACCEPTABLE AS PLANNED — A HARD ITEM MAY GO "
+                                      "THROUGH THE DECK; KEEP THE LEVEL BELOW CLEAR",
                         content.NOT_ASSESSED: "NOTHING ASSESSED"}[overall]
                 rows = [[_outcome_cell(overall, st, big=True),
                          self.P(f"Overall verdict: {word}", st.verdict)]]

@@ -74,7 +74,8 @@ class CaseResult:
     ``project.protection_areas`` (``-1`` for bare deck).
 
     Local damage of the deck by a hard load (bare deck only; nan / False / −1 where
-    not assessed): ``penetration`` (m), ``scabbing`` (bool), ``scabbing_height`` and
+    not assessed, and at every point when not given): ``penetration`` (m),
+    ``scabbing`` (bool), ``scabbing_height`` and
     ``perforation_height`` (free fall at which each starts, m), ``residual_velocity``
     (m/s after perforation, 0 when not perforated), ``local_extrapolated`` (bool: the
     strike speed is outside the formulas' test range) and ``strike_orientation``
@@ -110,13 +111,25 @@ class CaseResult:
     support_rotation: np.ndarray
     required_mat_stiffness: np.ndarray
     required_crush_stroke: np.ndarray
-    penetration: np.ndarray
-    scabbing: np.ndarray
-    scabbing_height: np.ndarray
-    perforation_height: np.ndarray
-    residual_velocity: np.ndarray
-    local_extrapolated: np.ndarray
-    strike_orientation: np.ndarray
+    penetration: np.ndarray = None  # type: ignore[assignment]
+    scabbing: np.ndarray = None  # type: ignore[assignment]
+    scabbing_height: np.ndarray = None  # type: ignore[assignment]
+    perforation_height: np.ndarray = None  # type: ignore[assignment]
+    residual_velocity: np.ndarray = None  # type: ignore[assignment]
+    local_extrapolated: np.ndarray = None  # type: ignore[assignment]
+    strike_orientation: np.ndarray = None  # type: ignore[assignment]
+
+    def __post_init__(self) -> None:
+        # local-damage arrays not given: "not assessed" at every point
+        n = int(self.x.shape[0])
+        fill = {"penetration": np.full(n, np.nan), "scabbing": np.zeros(n, dtype=bool),
+                "scabbing_height": np.full(n, np.nan),
+                "perforation_height": np.full(n, np.nan), "residual_velocity": np.zeros(n),
+                "local_extrapolated": np.zeros(n, dtype=bool),
+                "strike_orientation": np.full(n, -1, dtype=np.int64)}
+        for k, v in fill.items():
+            if getattr(self, k) is None:
+                object.__setattr__(self, k, v)
 
     @property
     def n(self) -> int:
