@@ -16,7 +16,7 @@ import math
 
 import numpy as np
 
-from droprig.model import ModelError, Project
+from droprig.model import STRIKE_ORIENTATIONS, ModelError, Project
 from droprig.solver import droppoints
 from droprig.solver.chain import (
     BRITTLE,
@@ -27,6 +27,7 @@ from droprig.solver.chain import (
     Impact,
     InverseAnswers,
     LoadInputs,
+    LocalDamage,
     StruckMass,
     outputs,
 )
@@ -249,7 +250,22 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         _SRC_GERE + " solved for M")
     add("Spring mat that keeps the point elastic", "k_req", "k = 1/(f_req − f_s)", {},
         inv.k_req[0], "stiffness", "series springs; " + _SRC_GERE)
+    ld = chain[LocalDamage]
+    if ld.assessed[0]:
+        so = STRIKE_ORIENTATIONS[int(ld.orientation[0])]
+        src = ("Kennedy 1976; Li et al. 2005; DOE-STD-3014 App. C"
+               + ("; extrapolated below the test speeds" if ld.extrapolated[0] else ""))
+        add(f"Local damage: penetration of the deck ({so} strike governs)", "x",
+            "x/d = 2√G or G + 1, G = 3.8·10⁻⁵·N*·M/(d√f_c)·(V/d)^1.8; UKAEA",
+            {"t": (lv.deck.thickness, "length"), "h": (inp.h[0], "length")},
+            ld.penetration[0], "length", src)
+        add("Drop height at which the soffit starts to scab", "h_s",
+            "t = 1.1·t_s(V), V = √(2gh) (Kennedy, Chang)", {"t": (lv.deck.thickness, "length")},
+            ld.h_scab[0], "length", src)
+        add("Drop height at which the load perforates the deck", "h_p",
+            "t = 1.2·t_p(V), V = √(2gh) (Kennedy/ACE, Barr, Chang)",
+            {"t": (lv.deck.thickness, "length")}, ld.h_perf[0], "length", src)
     gm = int(by.gov_member[0])
     return Trace(zone.id, load.name, float(x), float(y), tuple(steps),
-                 RESPONSES[int(by.response[0])], mname(gm),
+                 RESPONSES[int(out["response"][0])], mname(gm),
                  CHECKS[int(by.gov_check[0])])

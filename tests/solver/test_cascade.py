@@ -81,3 +81,23 @@ def test_two_level_project_passes_a_perforating_drop_down() -> None:
                      and b.response == "perforates"]
         assert roof_bays and all(b.level_below == "L3" and b.advice_kind == "level_below"
                                  for b in roof_bays)
+
+
+def test_trace_shows_the_local_damage_the_analysis_found() -> None:
+    # the trace reads the same chain step as the analysis (same numbers)
+    from pathlib import Path
+
+    from droprig.io.project_file import load_project
+    from droprig.solver import analyse, trace_point
+
+    root = Path(__file__).resolve().parents[2]
+    project = load_project(root / "demo_projects" / "two_level_rigging.droprig")
+    res = analyse(project)
+    case = res.cases[1]
+    i = int(np.flatnonzero(case.perforation_height <= case.drop_height)[0])
+    t = trace_point(project, case.zone_id, case.load_name, float(case.x[i]), float(case.y[i]))
+    assert t.response == "perforates"
+    by_symbol = {s.symbol: s.value for s in t.steps}
+    assert by_symbol["h_p"] == pytest.approx(case.perforation_height[i], rel=1e-12)
+    assert by_symbol["h_s"] == pytest.approx(case.scabbing_height[i], rel=1e-12)
+    assert by_symbol["x"] == pytest.approx(case.penetration[i], rel=1e-12)
