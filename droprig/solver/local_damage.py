@@ -41,6 +41,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import lru_cache
 from typing import Literal
 
 import numpy as np
@@ -481,23 +482,44 @@ def concrete_local_damage(M: ArrayLike, d: ArrayLike, perimeter: ArrayLike,
     ``PERFORATION_MARGIN``, applied here to every family). The residual speed is
     taken over the ballistic limit so reduced (more speed for the level below).
     """
-    M, d, p, v, t, fc, rho, r, N, v0 = _arr(M, d, perimeter, v, t, fc, rho_c, r_percent,
-                                           N, v0)
+    # the start speeds depend on the load and the slab only: computed at the shape of
+    # those inputs (often one value for many points), then broadcast against V
+    M, d, p, t, fc, rho, r, N = _arr(M, d, perimeter, t, fc, rho_c, r_percent, N)
     for name, a, unit in (("load mass", M, "kg"), ("missile diameter", d, "m"),
                           ("contact perimeter", p, "m"), ("slab thickness", t, "m"),
                           ("concrete strength", fc, "Pa"), ("concrete density", rho, "kg/m³")):
         _require_positive(name, a, unit)
+    v, v0 = (np.asarray(a, float) for a in (v, v0))
     x = np.minimum(np.maximum(ndrc_penetration(M, d, v, fc, N),
                               ukaea_penetration(M, d, v, fc, N)), t)
+    v = np.broadcast_to(v, x.shape)
+    v_scab, v_bl, gov = _start_speeds(M, d, p, t, fc, rho, r, N)
+    return _damage(x, v, v0, v_scab, v_bl, gov)
+
+
+def _start_speeds(M: np.ndarray, d: np.ndarray, p: np.ndarray, t: np.ndarray,
+                  fc: np.ndarray, rho: np.ndarray, r: np.ndarray, N: np.ndarray
+                  ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Scabbing speed, ballistic limit (m/s) and the index of the governing family of
+    :func:`concrete_local_damage` (the slab's DOE margins applied)."""
     ts, tp = t / SCABBING_MARGIN, t / PERFORATION_MARGIN
     v_scab = np.minimum(ndrc_scabbing_velocity(M, d, ts, fc, N),
                         chang_scabbing_velocity(M, d, ts, fc))
     v_perf_all = np.stack([ndrc_perforation_velocity(M, d, tp, fc, N),
                            barr_ballistic_limit(M, p, tp, fc, rho, r),
                            chang_perforation_velocity(M, d, tp, fc)])
-    gov = np.argmin(v_perf_all, axis=0)
     v_bl = np.min(v_perf_all, axis=0)
-    v_scab = np.minimum(v_scab, v_bl)  # a perforated slab has scabbed
+    return np.minimum(v_scab, v_bl), v_bl, np.argmin(v_perf_all, axis=0)  # perforated ⇒ scabbed
+
+
+def _damage(x: np.ndarray, v: np.ndarray, v0: ArrayLike, v_scab: ArrayLike,
+            v_bl: ArrayLike, gov: ArrayLike) -> ConcreteDamage:
+    """:class:`ConcreteDamage` from the penetration x (m) and strike speed v (m/s) at
+    each point and the start speeds of :func:`_start_speeds`."""
+    gov = np.array(np.broadcast_to(gov, x.shape))
+    v_bl = np.array(np.broadcast_to(v_bl, x.shape))
+    v_scab = np.broadcast_to(v_scab, x.shape)
+    v0 = np.broadcast_to(np.asarray(v0, float), x.shape)
     perforation = v >= v_bl
     scabbing = v >= v_scab
     extrapolated = (NDRC_KENNEDY.extrapolated(v) | UKAEA_BARR.extrapolated(v)
@@ -618,6 +640,23 @@ def slab_reinforcement_percent(deck: Deck) -> float:
     return 100.0 * deck.rebar_area / deck.thickness
 
 
+@lru_cache(maxsize=256)
+def _load_start_speeds(load: LiftLoad, deck: Deck
+                       ) -> tuple[tuple[float, float, float, float, int], ...]:
+    """Per strike orientation of ``load``: (d_eq m, N*, scabbing speed m/s, ballistic
+    limit m/s, governing family) on ``deck`` — they depend on the load and the slab
+    only, so they are worked out once (frozen, hashable model objects)."""
+    out = []
+    for o in load.strike_orientations:
+        d, p, n = strike_geometry(o, load.footprint_length, load.footprint_width,
+                                  load.edge_width)
+        args = _arr(load.mass, d, p, deck.thickness, deck.concrete.fc,
+                    deck.concrete.density, slab_reinforcement_percent(deck), n)
+        v_scab, v_bl, gov = _start_speeds(*args)
+        out.append((d, n, float(v_scab), float(v_bl), int(gov)))
+    return tuple(out)
+
+
 def load_local_damage(load: LiftLoad, deck: Deck, h: ArrayLike,
                       v0: ArrayLike = 0.0) -> LoadDamage:
     """Local damage of ``deck`` by ``load`` falling h (m, per drop point) from a
@@ -627,14 +666,12 @@ def load_local_damage(load: LiftLoad, deck: Deck, h: ArrayLike,
     depth with its concrete and bottom reinforcement."""
     h = np.asarray(h, float)
     v = impact_speed(h, v0)
-    fc, rho = deck.concrete.fc, deck.concrete.density
-    r = slab_reinforcement_percent(deck)
+    fc = deck.concrete.fc
     parts = []
-    for o in load.strike_orientations:
-        d, p, n = strike_geometry(o, load.footprint_length, load.footprint_width,
-                                  load.edge_width)
-        parts.append(concrete_local_damage(load.mass, d, p, v, deck.thickness, fc, rho, r,
-                                           n, v0))
+    for d, n, v_scab, v_bl, gov in _load_start_speeds(load, deck):
+        x = np.minimum(np.maximum(ndrc_penetration(load.mass, d, v, fc, n),
+                                  ukaea_penetration(load.mass, d, v, fc, n)), deck.thickness)
+        parts.append(_damage(x, v, v0, v_scab, v_bl, gov))
     h_perf = np.stack([c.h_perforation for c in parts])
     return LoadDamage(
         orientations=tuple(load.strike_orientations), reason=load.strike_reason,
