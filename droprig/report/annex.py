@@ -660,7 +660,7 @@ def _units(system: str) -> str:
 
 
 def _caution() -> str:
-    from droprig.cli import CAUTION
+    from droprig.texts import CAUTION
 
     return CAUTION
 
