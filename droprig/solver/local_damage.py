@@ -382,8 +382,8 @@ def chang_perforation_thickness(M: ArrayLike, d: ArrayLike, v: ArrayLike,
     e/d = (u/V)^0.25 · (M·V²/(d³·f_c))^0.5, u = 60.96 m/s (200 ft/s).
     """
     M, d, v, fc = _arr(M, d, v, fc)
-    v = np.maximum(v, 1e-12)
-    return (_CHANG_U / v) ** 0.25 * np.sqrt(M * v**2 / (d**3 * fc)) * d
+    w: np.ndarray = np.maximum(v, 1e-12)
+    return (_CHANG_U / w) ** 0.25 * np.sqrt(M * w**2 / (d**3 * fc)) * d
 
 
 def chang_scabbing_thickness(M: ArrayLike, d: ArrayLike, v: ArrayLike,
@@ -394,8 +394,8 @@ def chang_scabbing_thickness(M: ArrayLike, d: ArrayLike, v: ArrayLike,
     h_s/d = 1.84 · (u/V)^0.13 · (M·V²/(d³·f_c))^0.4, u = 60.96 m/s.
     """
     M, d, v, fc = _arr(M, d, v, fc)
-    v = np.maximum(v, 1e-12)
-    return 1.84 * (_CHANG_U / v) ** 0.13 * (M * v**2 / (d**3 * fc)) ** 0.4 * d
+    w: np.ndarray = np.maximum(v, 1e-12)
+    return 1.84 * (_CHANG_U / w) ** 0.13 * (M * w**2 / (d**3 * fc)) ** 0.4 * d
 
 
 def chang_perforation_velocity(M: ArrayLike, d: ArrayLike, t: ArrayLike,
