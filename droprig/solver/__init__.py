@@ -10,7 +10,8 @@ names from ``droprig.solver`` and nothing from its modules
 * :func:`member_resistances`, :func:`check_framing`, :func:`on_rigid_support` —
   framing questions without a drop;
 * :func:`resolve_drift`, :func:`zone_drift_margin` — the landing drift margin of a
-  lift zone (computed from the crane's motion, or as entered);
+  lift zone (computed from the crane's motion, or as entered); :func:`is_hard` —
+  whether a load is checked for local damage of the deck;
 * the result types and their code tables.
 """
 
@@ -22,6 +23,7 @@ from droprig.solver.framing import (
     member_resistances,
     on_rigid_support,
 )
+from droprig.solver.local_damage import is_hard
 from droprig.solver.member import DEFAULT_DEFLECTION_LIMIT_RATIO, RESULT_KEYS, assess_member
 from droprig.solver.results import (
     ADVICE_KINDS,
@@ -64,6 +66,7 @@ __all__ = [
     "analyse",
     "assess_member",
     "check_framing",
+    "is_hard",
     "member_resistances",
     "on_rigid_support",
     "resolve_drift",
