@@ -20,6 +20,7 @@ from droprig.model.polygon import CORRIDOR_ALLOWED, check_corridor, corridor_pro
 from droprig.model.project import (
     CONTACT_STIFFNESS_RANGE,
     END_CONDITIONS,
+    STRIKE_ORIENTATIONS,
     ColumnGrid,
     Deck,
     Level,
@@ -43,6 +44,7 @@ __all__ = [
     "LIFT_POINT_KINDS",
     "MASS_SOURCES",
     "MASS_SOURCE_WORDS",
+    "STRIKE_ORIENTATIONS",
     "Bay",
     "ColumnGrid",
     "Concrete",
