@@ -998,18 +998,10 @@ def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.nda
     np.multiply(share[1], R0[1], out=r[2])
     np.multiply(share[1], RL[1], out=r[3])
     tmp = np.empty(n)
-
-    def quad4(rows: np.ndarray, where: tuple[int, ...], i: int, dst: np.ndarray) -> None:
-        """dst = ((A_i0·r0 + A_i1·r1) + A_i2·r2) + A_i3·r3"""
-        np.multiply(rows[where[4 * i]], r[0], out=dst)
-        for j in (1, 2, 3):
-            np.multiply(rows[where[4 * i + j]], r[j], out=tmp)
-            dst += tmp
-
     Dl = pt.d_rows.take(pair, axis=1)
     un = np.empty((4, n))
     for i in range(4):
-        quad4(Dl, pt.d_map, i, un[i])
+        _quad4(Dl, pt.d_map, i, r, un[i], tmp)
     del Dl
     gs = np.multiply(share, g_aa, out=g_aa)  # g_own
     # f = (w0·g0 + w1·g1) + (((r0·u0 + r1·u1) + r2·u2) + r3·u3)
@@ -1028,12 +1020,36 @@ def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.nda
         out["m_e"][sel] = np.nan
         out["w_ref"][sel] = np.nan
         return
+    m_e, w_ref = _kernel_mass(pt, pair, None if pt.cond is not None else cond, a, L, share,
+                              un, r, f, tmp)
+    _put(out["m_e"], sel, m_e)
+    _put(out["w_ref"], sel, w_ref)
+
+
+def _quad4(rows: np.ndarray, where: tuple[int, ...], i: int, r: np.ndarray, dst: np.ndarray,
+           tmp: np.ndarray) -> None:
+    """dst = ((A_i0·r0 + A_i1·r1) + A_i2·r2) + A_i3·r3 (``tmp``: scratch, (n,))."""
+    np.multiply(rows[where[4 * i]], r[0], out=dst)
+    for j in (1, 2, 3):
+        np.multiply(rows[where[4 * i + j]], r[j], out=tmp)
+        dst += tmp
+
+
+def _kernel_mass(pt: _PointTables, pair: np.ndarray, cond: np.ndarray | None,
+                 a: np.ndarray, L: np.ndarray, share: np.ndarray, un: np.ndarray,
+                 r: np.ndarray, f: np.ndarray, tmp: np.ndarray,
+                 ) -> tuple[np.ndarray, np.ndarray]:
+    """Rayleigh mass m_e (kg) and normalising deflection w_ref (m/N) of the points of
+    :func:`_evaluate_supported` (``cond``: the end-condition codes when mixed; ``a``
+    is overwritten)."""
+    n = pair.size
     # Rayleigh mass: deck members by the exact integrals (tabulated on a/L), support
     # members by the precomputed quadratic form pair_M
     xi = np.divide(a, L, out=a)  # a is not needed any more
     if pt.cond is not None:
         I_gg, J0, J1, Gmax = _mass_tables(pt.cond, xi)
     else:
+        assert cond is not None
         I_gg, J0, J1, Gmax = by_condition(_mass_tables, cond, xi)
     M = pt.mass.take(pair, axis=1)
     mu, L4EI, L7EI2 = M[0:2], M[2:4], M[4:6]
@@ -1066,7 +1082,7 @@ def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.nda
     Ml = pt.m_rows.take(pair, axis=1)
     q = np.empty(n)
     for i in range(4):  # kin += r_i·(M r)_i
-        quad4(Ml, pt.m_map, i, q)
+        _quad4(Ml, pt.m_map, i, r, q, tmp)
         q *= r[i]
         kin += q
     del Ml
@@ -1085,8 +1101,7 @@ def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.nda
     m_e = np.zeros(n)
     with np.errstate(divide="ignore", invalid="ignore"):
         np.divide(kin, np.square(w_ref), out=m_e, where=w_ref > 0.0)
-    _put(out["m_e"], sel, m_e)
-    _put(out["w_ref"], sel, w_ref)
+    return m_e, w_ref
 
 
 def _put(dst: np.ndarray, sel: slice | np.ndarray, val: np.ndarray) -> None:
