@@ -794,16 +794,16 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
             crushable[sel] = True
             F_c[sel] = float(pa.crush_force)  # type: ignore[arg-type]
             s_c[sel] = float(pa.crush_stroke)  # type: ignore[arg-type]
-    # ---- drop height onto the struck surface
-    h = np.empty(n)
+    # ---- drop height: one datum, the load's underside above the finished surface
+    # of the level (``drop_height``, or hook elevation − hang length − level
+    # elevation); the free fall onto a pad or mat is that less its thickness
+    H = np.empty(n)
     for j, ld in enumerate(loads):
         sel = li == j if len(loads) > 1 else slice(None)
-        if ld.drop_height is not None:
-            h[sel] = ld.drop_height
-            continue
-        surf = lv.elevation + t_mat[sel]
-        ld.height_above(float(np.max(surf, initial=lv.elevation)))  # refuses h < 0
-        h[sel] = ld.hook_elevation - ld.hang_length - surf
+        H[sel] = planned_height(ld, lv)
+    h = H - t_mat
+    if n and float(np.min(h)) < 0.0:
+        _refuse_below_pad(loads, li, lv, t_mat, H)
     # ---- footprint on the deck (spread 1:1 through a mat) and bearing on a flange
     spread = 2.0 * t_mat
     lb = np.minimum(fl, fw) + spread
@@ -996,22 +996,49 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (nh_fa > R_p), h_pl, np.nan)
+    # what sets the plastic height: the ductility or the rotation limit, or the
+    # elastic height where that is larger
+    with np.errstate(invalid="ignore"):
+        hp_check = np.where(s.ductility_limit * R_p * f_s <= d_rot, CHECK["ductility"],
+                            CHECK["rotation"])
+    hp_check = np.where(np.isnan(h_pl) | (h_el >= h_pl), -1, hp_check)
     h_pl = np.fmax(h_pl, h_el)
     m_allow = limits.allowable_mass(Fa_pos, h, f, m_e)
-    k_req = limits.required_mat_stiffness(W, h, eta, Fa_pos, f_struct)
-    k_req = np.where(np.isfinite(k_req) & (response != ELASTIC), k_req, np.nan)
-    s_req = limits.required_crush_stroke(W, h, eta, Fa_pos, f_struct)
-    s_req = np.where((response != ELASTIC) & np.isfinite(s_req), s_req, np.nan)
+    if crushable.any():
+        # through the crushable layer that lies there (η = 1 under a layer)
+        m_allow[crushable] = limits.allowable_mass_crushable(
+            Fa_pos[crushable], h[crushable], f_struct[crushable], F_c[crushable],
+            s_c[crushable])
+    # a mat or layer laid over the point takes the framing's mass share away (η = 1,
+    # as the forward model does under protection), so the mat or stroke that keeps
+    # the point elastic is found with η = 1; inf where the structure alone suffices
+    # (a mat laid on the finished surface: the fall is the datum height H)
+    k_req = limits.required_mat_stiffness(W, H, 1.0, Fa_pos, f_struct)
+    k_req = np.where(np.isnan(Fa_pos), np.nan, k_req)
+    s_req = limits.required_crush_stroke(W, H, 1.0, Fa_pos, f_struct)
+    s_req = np.where(np.isfinite(s_req), s_req, np.nan)
+    # the check that sets the allowable height: the least allowed force
+    Fa_stack = np.stack([checks[c].F_allow for c in names])
+    ai = np.argmin(np.where(np.isnan(Fa_stack), np.inf, Fa_stack), axis=0)
+    h_check = np.array([CHECK[c] for c in names])[ai]
+    h_member = np.stack([checks[c].member for c in names])[ai, rows]
     # ---- openings: the load falls through
     op = geo.opening
     out = {
         "x": geo.x, "y": geo.y, "bay": geo.bay, "protection": geo.protection,
-        "drop_height": h, "static_deflection": d_st, "effective_mass": m_e,
+        "drop_height": H, "fall_height": h, "structure_compliance": f_struct,
+        "static_deflection": d_st,
+        "effective_mass": m_e,
         "dynamic_factor": K, "peak_force": F, "max_deflection": d_max,
         "deceleration_g": impact.deceleration_g(F, W), "utilisation": U,
         "governing_member": gov_member.astype(np.int64),
         "governing_check": gov_check.astype(np.int64), "response": response,
-        "allowable_drop_height": h_el, "allowable_drop_height_plastic": h_pl,
+        # allowable heights on the datum: the fall they allow plus the pad's thickness
+        "allowable_drop_height": h_el + t_mat, "allowable_drop_height_plastic": h_pl + t_mat,
+        "allowable_height_check": h_check.astype(np.int64),
+        "allowable_height_member": h_member.astype(np.int64),
+        # -1: the elastic check (allowable_height_check) sets the plastic height too
+        "allowable_height_plastic_check": hp_check.astype(np.int64),
         "allowable_mass": m_allow, "plastic_deflection": plastic_defl,
         "ductility": ductility_out, "support_rotation": rotation_out,
         "required_mat_stiffness": k_req, "required_crush_stroke": s_req,
@@ -1027,10 +1054,13 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
         out["response"] = np.where(op, EXCEEDS, out["response"])
         out["governing_check"] = np.where(op, CHECK["opening"], out["governing_check"])
         out["governing_member"] = np.where(op, DECK, out["governing_member"])
+        out["allowable_height_check"] = np.where(op, CHECK["opening"],
+                                                 out["allowable_height_check"])
+        out["allowable_height_member"] = np.where(op, DECK, out["allowable_height_member"])
     # intermediates for the trace
     out.update({
         "_f_s": f_s, "_f_deck": f_deck, "_f_load": f_load, "_f_mat": f_mat, "_f": f,
-        "_eta": eta, "_W": W, "_no_hinge": no_hinge, "_nh_fa": nh_fa,
+        "_eta": eta, "_W": W, "_h_allow_fall": h_el, "_no_hinge": no_hinge, "_nh_fa": nh_fa,
         "_t_mat": t_mat, "_lb": lb, "_F_allow": F_allow, "_R_p": R_p,
         "_rp_member": rp_member, "_crush": crush, "_bottomed": bottomed,
         "_h_struct": h_struct, "_d_m": d_m, "_theta": theta, "_ductility": ductility,
@@ -1048,12 +1078,14 @@ def _evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
 
 
 # --------------------------------------------------------------------------- cases
-_FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
+_FIELDS = ("x", "y", "bay", "protection", "drop_height", "fall_height",
+           "structure_compliance", "static_deflection",
            "effective_mass", "dynamic_factor", "peak_force", "max_deflection",
            "deceleration_g", "utilisation", "governing_member", "governing_check",
            "response", "allowable_drop_height", "allowable_drop_height_plastic",
            "allowable_mass", "plastic_deflection", "ductility", "support_rotation",
-           "required_mat_stiffness", "required_crush_stroke")
+           "required_mat_stiffness", "required_crush_stroke", "allowable_height_check",
+           "allowable_height_member", "allowable_height_plastic_check")
 
 
 def _severity(res: dict[str, np.ndarray]) -> np.ndarray:
@@ -1235,20 +1267,45 @@ def _tile(fm: FloorModel, geo: Geometry, k: int) -> Geometry:
     return out
 
 
-def _planned_height(load: LiftLoad, level: Level) -> float:
+def planned_height(load: LiftLoad, level: Level) -> float:
+    """The load's planned drop height H (m) on droprig's one datum: its underside
+    above the finished surface (top of deck) of ``level``. Given directly
+    (``drop_height``) or as hook elevation − hang length − level elevation; both
+    input modes mean the same physical height. The free fall onto a pad or mat of
+    thickness t is H − t."""
     if load.drop_height is not None:
         return float(load.drop_height)
     return load.height_above(level.elevation)
 
 
+def _refuse_below_pad(loads: Sequence[LiftLoad], li: np.ndarray, level: Level,
+                      t_mat: np.ndarray, H: np.ndarray) -> None:
+    """A planned height below the top of a pad or mat the load can pass over is not a
+    drop: name the load's field and the height it must reach."""
+    from droprig.model import ModelError
+
+    bad = int(np.argmin(H - t_mat))
+    ld = loads[int(li[bad])] if len(loads) > 1 else loads[0]
+    need = float(t_mat[bad])
+    if ld.drop_height is not None:
+        raise ModelError(f"load {ld.name}.drop_height", ld.drop_height,
+                         f"≥ {need:g} m (the load's underside above the top of a pad or "
+                         f"mat on level {level.id})", "m")
+    raise ModelError(f"load {ld.name}.hook_elevation", ld.hook_elevation,
+                     f"≥ {level.elevation + ld.hang_length + need:g} m (the load's "
+                     f"underside above the top of a pad or mat on level {level.id})", "m")
+
+
 def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
                  res: dict[str, np.ndarray]) -> CaseResult:
     arrays = {k: np.ascontiguousarray(res[k]) for k in _FIELDS}
-    for k in ("bay", "protection", "governing_member", "governing_check", "response"):
+    for k in ("bay", "protection", "governing_member", "governing_check", "response",
+              "allowable_height_check", "allowable_height_member",
+              "allowable_height_plastic_check"):
         arrays[k] = arrays[k].astype(np.int64)
     return CaseResult(zone_id=zone.id, load_name=load.name, level_id=level.id,
                       mass=load.mass, weight=load.weight,
-                      planned_drop_height=_planned_height(load, level), **arrays)
+                      planned_drop_height=planned_height(load, level), **arrays)
 
 
 # --------------------------------------------------------------------------- bay summaries
@@ -1312,11 +1369,15 @@ def _least(v: np.ndarray) -> float | None:
 
 
 def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
-              allowed_force: np.ndarray) -> list[BaySummary]:
+              allowed_force: np.ndarray,
+              protection_ids: Sequence[str] = ()) -> list[BaySummary]:
     """One :class:`BaySummary` per bay that holds drop points of ``case``
-    (``allowed_force``: the elastic F_allow of each point, N). A point on a shared grid
-    line or at a column counts for every bay it touches (closed bays). All bays are
-    reduced at once over a (bay, point) membership matrix."""
+    (``allowed_force``: the elastic F_allow of each point, N; ``protection_ids``: the
+    ids of ``project.protection_areas``). A point on a shared grid line or at a column
+    counts for every bay it touches (closed bays). All bays are reduced at once over
+    a (bay, point) membership matrix. Each quantity is reported with the point and
+    the check that set it (the least allowable height need not come from the point
+    of largest utilisation)."""
     out: list[BaySummary] = []
     all_bays = _bays(level)
     members = level.members
@@ -1336,45 +1397,90 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
     gov = np.argmax(np.where(M, sev, -np.inf), axis=1)  # first worst point per bay
     worst = np.where(M, resp, -1).max(axis=1)
     U = case.utilisation
-    U_max = np.where(M, np.where(np.isnan(U), -np.inf, U), -np.inf).max(axis=1)
+    U_m = np.where(M, np.where(np.isnan(U), -np.inf, U), -np.inf)
+    U_max = U_m.max(axis=1)
+    u_at = U_m.argmax(axis=1)
 
-    def least(v: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-        """Smallest value per bay and whether any point of the bay has none (nan)."""
-        return np.where(M, v, np.inf).min(axis=1), (M & np.isnan(v)).any(axis=1)
+    def least(v: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """Smallest value per bay, the point that has it, and whether any point of the
+        bay has none (nan)."""
+        vm = np.where(M, np.where(np.isnan(v), np.inf, v), np.inf)
+        return vm.min(axis=1), vm.argmin(axis=1), (M & np.isnan(v)).any(axis=1)
 
-    h_el, h_el_none = least(case.allowable_drop_height)
-    h_pl, h_pl_none = least(case.allowable_drop_height_plastic)
-    Mn = M & (resp != ELASTIC)  # points that need protection
+    h_el, h_el_at, h_el_none = least(case.allowable_drop_height)
+    h_pl, h_pl_at, h_pl_none = least(case.allowable_drop_height_plastic)
+    m_al, m_al_at, m_al_none = least(case.allowable_mass)
+    # the stiffest mat laid over the whole bay that keeps every point of it elastic
+    # (η = 1 under a mat, so points that stay elastic on bare deck count as well)
+    # (offered where no pad lies: a mat does not replace a pad's design)
     kv = case.required_mat_stiffness
-    has_need = Mn.any(axis=1)
-    k_ok = has_need & ~(Mn & np.isnan(kv)).any(axis=1)
-    k_min = np.where(Mn, kv, np.inf).min(axis=1)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        # the mat carries the allowed force at its softest: travel = F_allow / k
-        travel_all = np.where(Mn, allowed_force[None, :] / k_min[:, None], -np.inf).max(axis=1)
+    k_ok = ~(M & (np.isnan(kv) | (case.protection >= 0))).any(axis=1)
+    k_min = np.where(M, kv, np.inf).min(axis=1)
+    travel_all = np.full(k_min.shape, -np.inf)
+    fs_pts = case.structure_compliance
+    for b in np.flatnonzero(k_ok & np.isfinite(k_min) & (k_min > 0)):
+        # how far the mat compresses: F/k at each point with the mat in series
+        # (Gere §9.10, η = 1 under a mat), the largest over the bay
+        sel = M[b]
+        f_pts = (fs_pts[sel] if fs_pts is not None else 0.0) + 1.0 / k_min[b]
+        _, F_pts, _ = impact.impact_elastic(case.weight, case.drop_height[sel], f_pts, 1.0)
+        travel_all[b] = float(np.max(F_pts)) / k_min[b]
     n_open = (M & (case.governing_check == CHECK["opening"])).sum(axis=1)
+    h_chk = case.allowable_height_check
+    h_mem = case.allowable_height_member
+    hp_chk = case.allowable_height_plastic_check
+    prot = case.protection
+
+    def mname(gm: int) -> str:
+        return "deck" if gm == DECK else members[gm].id
+
     for b in np.flatnonzero(count):
         i = int(gov[b])
         wst = int(worst[b])
         u_b = float(U_max[b])
         u_b = u_b if u_b > -np.inf else float("inf")
+        iu = int(u_at[b])
         he = None if h_el_none[b] else float(h_el[b])
         hp = None if h_pl_none[b] else float(h_pl[b])
-        k_mat = float(k_min[b]) if k_ok[b] else None
-        travel = float(travel_all[b]) if k_ok[b] else None
+        ih, ihp = int(h_el_at[b]), int(h_pl_at[b])
+        k_mat = float(k_min[b]) if k_ok[b] and wst != ELASTIC else None
+        travel = float(travel_all[b]) if k_mat is not None and \
+            math.isfinite(float(travel_all[b])) and travel_all[b] > 0 else None
         gm = int(case.governing_member[i])
         adv = bay_advice(wst, int(n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he)
+        lim_at = ihp if wst == EXCEEDS else ih
+        if adv.height_limit is None:
+            lim_chk = ""
+        elif wst == EXCEEDS and hp_chk is not None and int(hp_chk[ihp]) >= 0:
+            lim_chk = CHECKS[int(hp_chk[ihp])]
+        else:
+            lim_chk = CHECKS[int(h_chk[lim_at])] if h_chk is not None else ""
+        pads = sorted({int(p) for p in prot[M[b]] if p >= 0})
         out.append(BaySummary(
             level_id=level.id, bay_id=all_bays[b].id, zone_id=zone.id,
             load_name=load.name, n_points=int(count[b]), max_utilisation=u_b,
             response=RESPONSES[wst], allowable_drop_height=he,
             allowable_drop_height_plastic=hp, governing_x=float(case.x[i]),
             governing_y=float(case.y[i]),
-            governing_member="deck" if gm == DECK else members[gm].id,
+            governing_member=mname(gm),
             governing_check=CHECKS[int(case.governing_check[i])], advice_kind=adv.kind,
             height_limit=adv.height_limit, height_limit_yields=adv.height_limit_yields,
             mat_stiffness_max=adv.mat_stiffness_max, mat_travel=adv.mat_travel,
-            planned_drop_height=case.planned_drop_height))
+            planned_drop_height=case.planned_drop_height,
+            utilisation_x=float(case.x[iu]), utilisation_y=float(case.y[iu]),
+            utilisation_member=mname(int(case.governing_member[iu])),
+            utilisation_check=CHECKS[int(case.governing_check[iu])],
+            height_x=None if he is None else float(case.x[ih]),
+            height_y=None if he is None else float(case.y[ih]),
+            height_member="" if he is None or h_mem is None else mname(int(h_mem[ih])),
+            height_check="" if he is None or h_chk is None else CHECKS[int(h_chk[ih])],
+            height_limit_x=None if not lim_chk else float(case.x[lim_at]),
+            height_limit_y=None if not lim_chk else float(case.y[lim_at]),
+            height_limit_check=lim_chk,
+            protections=tuple(protection_ids[p] for p in pads if p < len(protection_ids)),
+            allowable_mass=None if m_al_none[b] else float(m_al[b]),
+            allowable_mass_x=None if m_al_none[b] else float(case.x[int(m_al_at[b])]),
+            allowable_mass_y=None if m_al_none[b] else float(case.y[int(m_al_at[b])])))
     return out
 
 
@@ -1442,7 +1548,8 @@ def analyse_zone(project: Project, zone_id: str,
         res = {k: v[sel] for k, v in allres.items()}
         case = _case_result(zone, load, level, res)
         cases.append(case)
-        summaries.extend(summarise(level, zone, load, case, res["_F_allow"]))
+        summaries.extend(summarise(level, zone, load, case, res["_F_allow"],
+                                   [p.id for p in project.protection_areas]))
     if not zone.loads:
         warnings.append(f"zone {zone.id}: no loads to assess")
     return Results(tuple(cases), tuple(summaries), tuple(warnings))

@@ -62,7 +62,21 @@ DECK = -1
 class CaseResult:
     """All drop points of one load in one lift zone.
 
-    Every array has shape (n,). ``bay`` indexes ``Results.bays_of(level_id)``
+    Every array has shape (n,). Heights are on droprig's one datum: the load's
+    underside above the finished surface (top of deck) of the level —
+    ``drop_height`` (the planned height), ``allowable_drop_height`` and
+    ``allowable_drop_height_plastic``; ``fall_height`` is the free fall onto the
+    struck surface (the datum height less the thickness of a pad or mat there).
+    ``structure_compliance`` (m/N): framing, deck and the load's underside in series,
+    without any mat (what a mat laid there would be in series with).
+    ``allowable_height_check`` / ``allowable_height_member``: the check (index into
+    :data:`CHECKS`) and member that set the elastic allowable height (the least
+    allowed force). ``required_mat_stiffness``: the stiffest spring mat laid over the
+    point that keeps it elastic (η = 1 under a mat; ``inf`` where the structure
+    alone suffices). ``allowable_height_plastic_check``: ``ductility`` or ``rotation``
+    (index into :data:`CHECKS`) where that limit sets the height beyond yield, -1 where
+    the elastic height is the larger. ``allowable_mass`` accounts for a pad or mat at the point.
+    ``bay`` indexes ``Results.bays_of(level_id)``
     order (``droprig.model.bays``), ``-1`` outside any bay; ``governing_member``
     indexes ``level.members`` (``DECK`` for the deck); ``protection`` indexes
     ``project.protection_areas`` (``-1`` for bare deck).
@@ -97,6 +111,11 @@ class CaseResult:
     support_rotation: np.ndarray
     required_mat_stiffness: np.ndarray
     required_crush_stroke: np.ndarray
+    fall_height: np.ndarray | None = None
+    structure_compliance: np.ndarray | None = None
+    allowable_height_check: np.ndarray | None = None
+    allowable_height_member: np.ndarray | None = None
+    allowable_height_plastic_check: np.ndarray | None = None
 
     @property
     def n(self) -> int:
@@ -113,7 +132,20 @@ class BaySummary:
     ``allowable_drop_height`` keeps them elastic), ``mat_stiffness_max`` (N/m, the
     stiffest spring mat that works) and ``mat_travel`` (m, how far it must be able
     to compress); ``None`` where not offered. ``planned_drop_height`` (m): the
-    load's planned free fall. Text for people: :func:`droprig.advice.advice_text`.
+    load's planned drop height. Text for people: :func:`droprig.advice.advice_text`.
+
+    Every height is on droprig's one datum: the load's underside above the finished
+    surface of the level (a fall onto a pad is that less the pad's thickness).
+
+    Each quantity carries its own governing point and check: ``max_utilisation`` at
+    (``utilisation_x``, ``utilisation_y``) by ``utilisation_check`` of
+    ``utilisation_member``; ``allowable_drop_height`` (the least elastic one) at
+    (``height_x``, ``height_y``), set by ``height_check`` of ``height_member``;
+    ``height_limit`` at (``height_limit_x``, ``height_limit_y``) set by
+    ``height_limit_check``; ``allowable_mass`` (kg, the least over the bay at the
+    planned height, through any pad there) at (``allowable_mass_x``,
+    ``allowable_mass_y``). ``governing_*`` is the worst point (response, then U).
+    ``protections``: ids of the pads and mats the bay's drop points lie on.
     """
 
     level_id: str
@@ -135,6 +167,21 @@ class BaySummary:
     mat_stiffness_max: float | None = None
     mat_travel: float | None = None
     planned_drop_height: float | None = None
+    utilisation_x: float | None = None
+    utilisation_y: float | None = None
+    utilisation_member: str = ""
+    utilisation_check: str = ""
+    height_x: float | None = None
+    height_y: float | None = None
+    height_member: str = ""
+    height_check: str = ""
+    height_limit_x: float | None = None
+    height_limit_y: float | None = None
+    height_limit_check: str = ""
+    protections: tuple[str, ...] = ()
+    allowable_mass: float | None = None
+    allowable_mass_x: float | None = None
+    allowable_mass_y: float | None = None
 
 
 @dataclass(frozen=True)

@@ -144,16 +144,16 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",
         {"M": (M, "mass"), "m_e": (r["effective_mass"][0], "mass")}, r["_eta"][0],
         "dimensionless", _SRC_ETA)
-    add("Free fall onto the struck surface", "h",
-        "h = drop height above the deck or mat top",
-        {"t_mat": (r["_t_mat"][0], "length")}, r["drop_height"][0], "length",
-        "load data (LiftLoad.height_above)")
+    add("Free fall onto the struck surface (drop height above the finished surface less "
+        "the pad or mat thickness)", "h", "h = H − t_mat",
+        {"H": (r["drop_height"][0], "length"), "t_mat": (r["_t_mat"][0], "length")},
+        r["fall_height"][0], "length", "load data (droprig.solver.analysis.planned_height)")
     W = load.weight
     add("Static deflection", "δ_st", "δ_st = W·f",
         {"W": (W, "force"), "f": (r["_f"][0], "compliance")}, r["static_deflection"][0],
         "length", _SRC_GERE)
     add("Dynamic factor", "K", "K = 1 + √(1 + 2ηh/δ_st)" if r["_f_mat"][0] >= 0 else "",
-        {"η": (r["_eta"][0], "dimensionless"), "h": (r["drop_height"][0], "length"),
+        {"η": (r["_eta"][0], "dimensionless"), "h": (r["fall_height"][0], "length"),
          "δ_st": (r["static_deflection"][0], "length")}, r["dynamic_factor"][0],
         "dimensionless", _SRC_GERE)
     add("Peak impact force", "F", "F = K·W" if r["_crush"][0] == 0 else
@@ -193,11 +193,15 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         "dimensionless", "largest demand/resistance ratio (common practice, no source)")
     add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
         {}, r["_F_allow"][0], "force", "linear checks")
-    add("Allowable drop height (elastic)", "h_allow",
+    add("Allowable free fall (elastic)", "h_allow",
         "h = δ_st((K_a − 1)² − 1)/(2η), K_a = F_allow/W",
         {"F_allow": (r["_F_allow"][0], "force"), "W": (W, "force"),
          "δ_st": (r["static_deflection"][0], "length"), "η": (r["_eta"][0], "dimensionless")},
-        r["allowable_drop_height"][0], "length", _SRC_GERE + " solved for h")
+        r["_h_allow_fall"][0], "length", _SRC_GERE + " solved for h")
+    add("Allowable drop height above the finished surface (elastic)", "H_allow",
+        "H_allow = h_allow + t_mat",
+        {"h_allow": (r["_h_allow_fall"][0], "length"), "t_mat": (r["_t_mat"][0], "length")},
+        r["allowable_drop_height"][0], "length", "datum of droprig (finished surface)")
     add("Plastic collapse resistance of the path", "R_p",
         "R_p = min over path members of the collapse load for a load at p",
         {}, r["_R_p"][0], "force", "virtual work (Neal); droprig.solver.beam")
