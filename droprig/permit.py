@@ -96,6 +96,11 @@ SIG_HEIGHT = 3
 SIG_MASS = 3
 SIG_STIFFNESS = 3
 
+YIELD_AT_LIMIT = ("a drop from the height limit lets members yield within the ductility "
+                  "and rotation limits")
+YIELDS_AS_PLANNED = ("a drop as planned lets members yield within the ductility and "
+                     "rotation limits")
+
 _THROUGH = ("deck_punching", "collapse", "opening", "ductility", "rotation")
 """Governing checks after which the load or debris can reach the level below
 (punching through the deck, a collapsing path, an opening, members beyond their
@@ -221,7 +226,11 @@ class Condition:
             return (f"Keep {below} clear of people under {self.where()} while "
                     f"{self.load_name or 'the load'} is lifted: a drop there can break "
                     "through the deck or bring the framing down.")
-        if self.kind in ("not_assessed", "separate_signoff"):
+        if self.kind == "separate_signoff":
+            return (f"Over {self.where()}{self._for()}, {self.detail}; accept only with the "
+                    "engineer's separate sign-off, and inspect the framing and the level "
+                    "below after any drop.")
+        if self.kind == "not_assessed":
             return self.detail
         raise ValueError(f"condition kind {self.kind!r}; allowed: {CONDITION_KINDS}")
 
@@ -356,6 +365,13 @@ def _union_rect(rects: list[Rect]) -> tuple[tuple[float, float], ...] | None:
     return ((x0, y0), (x1, y0), (x1, y1), (x0, y1))
 
 
+def _overlaps(a: Rect, b: Rect) -> bool:
+    """Whether two rectangles share an area (not only an edge): a pad that only
+    touches a bay's edge belongs to the next bay."""
+    tol = 1e-6
+    return min(a.x1, b.x1) - max(a.x0, b.x0) > tol and min(a.y1, b.y1) - max(a.y0, b.y0) > tol
+
+
 def _pad_at(project: Project, level_id: str, x: float | None, y: float | None
             ) -> ProtectionArea | None:
     """The pad or mat the analysis found at (x, y) (the first that covers it)."""
@@ -380,14 +396,25 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
     def hook(h: float | None) -> float | None:
         return None if h is None else level.elevation + load.hang_length + h
 
+    def _cap_on_pads(conds: list[Condition], pads: dict[str, ProtectionArea],
+                     h: float | None) -> None:
+        """A bay that is acceptable because pads lie on it is acceptable up to its
+        allowable height only (a pad's crush capacity is finite): state that height
+        as a hook limit."""
+        if pads and h is not None and math.isfinite(h):
+            conds.append(Condition("cap_hook", max_drop_height=h,  # type: ignore[arg-type]
+                                   max_hook_elevation=hook(h), hang_length=load.hang_length,
+                                   region=region, **base))
+
     conds: list[Condition] = []
-    pads = {pa.id: pa for pa in project.protection_areas}
-    for pid in b.protections:
+    pads = {pa.id: pa for pa in project.protection_areas
+            if pa.id in b.protections and _overlaps(pa.area, rect)}
+    for pid, pa in pads.items():
         conds.append(Condition("lay_protection", protection_id=pid,  # type: ignore[arg-type]
-                               protection=pads.get(pid), **base))
+                               protection=pa, **base))
     kind = b.advice_kind
     verdict: Verdict = "acceptable_with_conditions"
-    thickest = max((pads[p].thickness for p in b.protections if p in pads), default=0.0)
+    thickest = max((pa.thickness for pa in pads.values()), default=0.0)
     if kind in ("limit_height", "limit_or_mat") and b.height_limit is not None and \
             b.height_limit <= thickest:
         # the limit lies below the top of a pad in the bay: no practical hook limit
@@ -397,21 +424,22 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
                                max_hook_elevation=hook(b.height_limit),
                                hang_length=load.hang_length, region=region, **base))
         if b.height_limit_yields:
-            conds.append(_signoff(b, f"Over bay {b.bay_id} of level {b.level_id} for "
-                                     f"{b.load_name}, a drop from the height limit lets "
-                                     "members yield within the ductility and rotation "
-                                     "limits", base))
+            conds.append(Condition("separate_signoff", detail=YIELD_AT_LIMIT,  # type: ignore
+                                   **base))
     elif kind == "mat":
         conds.append(Condition("lay_protection", mat_stiffness_max=b.mat_stiffness_max,
                                mat_travel=b.mat_travel, region=region,  # type: ignore
                                **base))
     elif kind in ("plastic_mat", "plastic_accept"):
-        conds.append(_signoff(
-            b, f"Bay {b.bay_id} of level {b.level_id} for {b.load_name}: members yield "
-               "within the ductility and rotation limits (largest utilisation "
-               f"{fmt_utilisation(b.max_utilisation)})", base))
+        conds.append(Condition("separate_signoff", detail=YIELDS_AS_PLANNED,  # type: ignore
+                               **base))
+        _cap_on_pads(conds, pads, b.allowable_drop_height_plastic)
+    elif kind == "none":
+        _cap_on_pads(conds, pads, b.allowable_drop_height)
     elif kind in ("keep_clear", "opening"):
         verdict = "not_acceptable"
+        # the load is kept off the bay: nothing on it is relied on
+        conds = [c for c in conds if c.kind != "lay_protection"]
         conds.append(Condition("exclude_area", region=region, **base))  # type: ignore
         if b.governing_check in _THROUGH or b.utilisation_check in _THROUGH:
             conds.append(Condition("exclude_level_below", region=region,  # type: ignore
@@ -433,12 +461,6 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
         max_utilisation=b.max_utilisation, utilisation_check=b.utilisation_check)
 
 
-def _signoff(b: BaySummary, what: str, base: dict[str, object]) -> Condition:
-    return Condition("separate_signoff", detail=(  # type: ignore[arg-type]
-        f"{what}; accept only with the engineer's separate sign-off, and inspect the "
-        "framing and the level below after any drop."), **base)
-
-
 def _merge_key(c: Condition) -> tuple[object, ...]:
     """Conditions that differ only in their bays are one condition over the bays."""
     def r(v: float | None) -> float | None:
@@ -447,8 +469,7 @@ def _merge_key(c: Condition) -> tuple[object, ...]:
 
     return (c.kind, c.zone_id, c.load_name, c.level_id, c.protection_id,
             r(c.max_drop_height), r(c.max_hook_elevation), r(c.mat_stiffness_max),
-            r(c.mat_travel), c.hang_length, c.below_level_id, c.protection,
-            c.detail if c.kind not in ("separate_signoff",) else "")
+            r(c.mat_travel), c.hang_length, c.below_level_id, c.protection, c.detail)
 
 
 def _merge(conds: Iterable[Condition], rects: dict[tuple[str, str], Rect],
@@ -459,7 +480,7 @@ def _merge(conds: Iterable[Condition], rects: dict[tuple[str, str], Rect],
     for c in conds:
         if across_loads and c.kind == "lay_protection" and c.protection_id is not None:
             c = replace(c, load_name=None)
-        if c.kind == "separate_signoff" or c.kind == "not_assessed":
+        if c.kind == "not_assessed":
             key: tuple[object, ...] = (c.kind, c.zone_id, c.load_name, c.detail)
         else:
             key = _merge_key(c)
@@ -467,7 +488,7 @@ def _merge(conds: Iterable[Condition], rects: dict[tuple[str, str], Rect],
     out: list[Condition] = []
     for group in groups.values():
         first = group[0]
-        if first.kind in ("separate_signoff", "not_assessed"):
+        if first.kind == "not_assessed":
             out.append(first)
             continue
         names: list[str] = []
