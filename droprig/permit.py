@@ -38,7 +38,7 @@ from typing import Literal
 from droprig import units
 from droprig.model import Project, ProtectionArea, Rect, bays
 from droprig.outcomes import fmt_utilisation
-from droprig.solver.results import BaySummary, Results
+from droprig.solver.results import LIMIT_MARGIN, BaySummary, Results
 from droprig.units import UnitSystem
 
 __all__ = [
@@ -197,7 +197,8 @@ class Condition:
         if self.kind == "lay_protection":
             if self.protection_id is not None:
                 return (f"Lay pad {self.protection_id} ({self.spec(system)}) before the "
-                        f"lift and keep it in place: {self.where()}{self._for()} rely on it.")
+                        f"lift and keep it in place: {self.where()}{self._for()} "
+                        f"{'relies' if len(self.bays) == 1 else 'rely'} on it.")
             stiff = units.fmt_sig(self.mat_stiffness_max, "stiffness", system,
                                   sig=SIG_STIFFNESS, rounding="down")
             travel = ("" if self.mat_travel is None else
@@ -400,8 +401,10 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
                      h: float | None) -> None:
         """A bay that is acceptable because pads lie on it is acceptable up to its
         allowable height only (a pad's crush capacity is finite): state that height
-        as a hook limit."""
+        (× :data:`~droprig.solver.results.LIMIT_MARGIN`, never below the planned
+        height, which the analysis found acceptable) as a hook limit."""
         if pads and h is not None and math.isfinite(h):
+            h = max(LIMIT_MARGIN * h, b.planned_drop_height or 0.0)
             conds.append(Condition("cap_hook", max_drop_height=h,  # type: ignore[arg-type]
                                    max_hook_elevation=hook(h), hang_length=load.hang_length,
                                    region=region, **base))

@@ -82,6 +82,7 @@ from droprig.solver.results import (
     DECK,
     ELASTIC,
     EXCEEDS,
+    LIMIT_MARGIN,
     PLASTIC,
     RESPONSES,
     AdviceKind,
@@ -1324,10 +1325,11 @@ class Advice:
 
 def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
                mat_travel: float | None = None, h_elastic: float | None = None) -> Advice:
-    """What one bay needs: no protection, a drop-height limit ``h_allow`` (offered
-    from :data:`MIN_USEFUL_HEIGHT` up, and only when the bay exceeds its limits), a
-    spring mat no stiffer than ``k_mat`` (offered while it need not compress more
-    than :data:`MAX_MAT_TRAVEL`), acceptance of yielding with the engineer's
+    """What one bay needs: no protection, a drop-height limit of :data:`LIMIT_MARGIN`
+    × ``h_allow`` (offered from :data:`MIN_USEFUL_HEIGHT` up, and only when the bay
+    exceeds its limits), a spring mat no stiffer than :data:`LIMIT_MARGIN` × ``k_mat``
+    (offered while it need not compress more than :data:`MAX_MAT_TRAVEL`; ``mat_travel``
+    is its compression), acceptance of yielding with the engineer's
     approval, or an exclusion zone (deck opening, or no option found).
     ``height_limit_yields``: the height limit lets members yield (it exceeds the
     elastic height ``h_elastic`` by more than 1 %). SI units (m, N/m)."""
@@ -1337,14 +1339,15 @@ def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | 
         return Advice("none")
     h: float | None = None
     yields = False
-    if h_allow is not None and h_allow >= MIN_USEFUL_HEIGHT and resp == EXCEEDS:
-        h = float(h_allow)
-        yields = h_elastic is not None and h_allow > 1.01 * h_elastic
+    if h_allow is not None and LIMIT_MARGIN * h_allow >= MIN_USEFUL_HEIGHT and \
+            resp == EXCEEDS:
+        h = LIMIT_MARGIN * float(h_allow)
+        yields = h_elastic is None or h > 1.01 * h_elastic
     k: float | None = None
     travel: float | None = None
     if (k_mat is not None and math.isfinite(k_mat) and k_mat > 0
             and (mat_travel is None or mat_travel <= MAX_MAT_TRAVEL)):
-        k = float(k_mat)
+        k = LIMIT_MARGIN * float(k_mat)
         travel = float(mat_travel) if mat_travel is not None and math.isfinite(mat_travel) \
             else None
     if resp == PLASTIC:
@@ -1422,9 +1425,10 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
         # how far the mat compresses: F/k at each point with the mat in series
         # (Gere §9.10, η = 1 under a mat), the largest over the bay
         sel = M[b]
-        f_pts = (fs_pts[sel] if fs_pts is not None else 0.0) + 1.0 / k_min[b]
+        k_adv = LIMIT_MARGIN * k_min[b]  # the mat offered (bay_advice)
+        f_pts = (fs_pts[sel] if fs_pts is not None else 0.0) + 1.0 / k_adv
         _, F_pts, _ = impact.impact_elastic(case.weight, case.drop_height[sel], f_pts, 1.0)
-        travel_all[b] = float(np.max(F_pts)) / k_min[b]
+        travel_all[b] = float(np.max(F_pts)) / k_adv
     n_open = (M & (case.governing_check == CHECK["opening"])).sum(axis=1)
     h_chk = case.allowable_height_check
     h_mem = case.allowable_height_member

@@ -54,6 +54,16 @@ edges (:mod:`droprig.advice`).
 * ``opening``: the load can fall through a deck opening: exclusion zone.
 """
 
+LIMIT_MARGIN = 0.9
+"""A limit offered as a condition (a drop-height limit, the stiffest spring mat) is this
+share of the least value found at the drop points. The limit is exact at the points
+analysed; between them, and where the grid refinement (which closes in on the
+highest utilisation, not on the least allowable height) did not reach, a point may
+need a little less — up to about 1 % of the allowed force on random floors (the
+closed-loop test, tests/test_permit.py). 90 % of a height or a stiffness keeps
+roughly 5 % of force in hand (F grows with √h and √k; Gere §9.10 Eq. 9-94; the
+margin itself is common practice, no source)."""
+
 DECK = -1
 """``governing_member`` value when the deck governs (or no member is involved)."""
 

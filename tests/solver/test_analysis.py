@@ -31,7 +31,15 @@ from droprig.model import (
     generate_level,
 )
 from droprig.solver import analysis, droppoints
-from droprig.solver.results import ADVICE_KINDS, CHECKS, ELASTIC, EXCEEDS, PLASTIC, RESPONSES
+from droprig.solver.results import (
+    ADVICE_KINDS,
+    CHECKS,
+    ELASTIC,
+    EXCEEDS,
+    LIMIT_MARGIN,
+    PLASTIC,
+    RESPONSES,
+)
 from droprig.solver.trace import trace_point
 
 REL = 1e-9  # closed forms in floating point
@@ -289,16 +297,22 @@ def test_no_nan_where_a_value_must_exist(busy_project):
         assert b.allowable_drop_height is None or b.allowable_drop_height >= 0
 
 
+M = LIMIT_MARGIN  # limits offered are this share of the least value found
+
+
 @pytest.mark.parametrize("resp, n_open, h, k, travel, h_el, want", [
     (ELASTIC, 0, 2.0, None, None, 2.0, analysis.Advice("none")),
-    (EXCEEDS, 0, 0.4, None, None, 0.4, analysis.Advice("limit_height", 0.4)),
-    (EXCEEDS, 0, 0.6, None, None, 0.4, analysis.Advice("limit_height", 0.6, True)),
-    (EXCEEDS, 0, None, 3e6, 0.05, None, analysis.Advice("mat", None, False, 3e6, 0.05)),
-    (EXCEEDS, 0, 0.4, 3e6, 0.05, 0.4, analysis.Advice("limit_or_mat", 0.4, False, 3e6, 0.05)),
+    (EXCEEDS, 0, 0.4, None, None, 0.4, analysis.Advice("limit_height", M * 0.4)),
+    (EXCEEDS, 0, 0.6, None, None, 0.4, analysis.Advice("limit_height", M * 0.6, True)),
+    (EXCEEDS, 0, 0.4, None, None, None, analysis.Advice("limit_height", M * 0.4, True)),
+    (EXCEEDS, 0, None, 3e6, 0.05, None, analysis.Advice("mat", None, False, M * 3e6, 0.05)),
+    (EXCEEDS, 0, 0.4, 3e6, 0.05, 0.4,
+     analysis.Advice("limit_or_mat", M * 0.4, False, M * 3e6, 0.05)),
     (EXCEEDS, 0, None, 3e6, 2.0, None, analysis.Advice("keep_clear")),  # mat bottoms out
     (EXCEEDS, 0, 0.01, None, None, None, analysis.Advice("keep_clear")),  # uncontrollable h
     (EXCEEDS, 2, 1.0, 3e6, 0.05, 1.0, analysis.Advice("opening")),
-    (PLASTIC, 0, 0.5, 3e6, 0.05, 0.5, analysis.Advice("plastic_mat", None, False, 3e6, 0.05)),
+    (PLASTIC, 0, 0.5, 3e6, 0.05, 0.5,
+     analysis.Advice("plastic_mat", None, False, M * 3e6, 0.05)),
     (PLASTIC, 0, 0.5, None, None, 0.5, analysis.Advice("plastic_accept")),
 ])
 def test_bay_advice_kind(resp, n_open, h, k, travel, h_el, want):
