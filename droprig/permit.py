@@ -249,8 +249,11 @@ class BayVerdict:
     Heights on the datum (m): ``planned_drop_height``, ``allowable_drop_height``
     (the least elastic one, set by ``allowable_check`` at (``allowable_x``,
     ``allowable_y``)); ``allowable_fall`` (m) the fall onto the pad that lies at that
-    point (``allowable_pad``), else ``None``; ``max_hook_elevation`` (m) the hook
-    elevation that puts the load's underside at the allowable height.
+    point (``allowable_pad``), else ``None``; ``max_hook_elevation`` (m) the highest
+    hook elevation over the bay: the hook limit of its conditions, else the hook
+    elevation of :data:`~droprig.solver.results.LIMIT_MARGIN` × the allowable height
+    (never below the planned height, found acceptable); ``None`` where the load must
+    be kept off the bay.
     """
 
     zone_id: str
@@ -450,6 +453,15 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
                                    **base))
     if not conds:
         verdict = "acceptable"
+    caps = [c.max_hook_elevation for c in conds
+            if c.kind == "cap_hook" and c.max_hook_elevation is not None]
+    if caps:
+        hook_limit: float | None = min(caps)
+    elif verdict != "not_acceptable" and b.allowable_drop_height is not None:
+        hook_limit = hook(max(LIMIT_MARGIN * b.allowable_drop_height,
+                              b.planned_drop_height or 0.0))
+    else:
+        hook_limit = None
     pad = _pad_at(project, b.level_id, b.height_x, b.height_y)
     fall = (None if pad is None or b.allowable_drop_height is None
             else b.allowable_drop_height - pad.thickness)
@@ -460,7 +472,7 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
         allowable_drop_height=b.allowable_drop_height, allowable_check=b.height_check,
         allowable_x=b.height_x, allowable_y=b.height_y,
         allowable_pad=None if pad is None else pad.id, allowable_fall=fall,
-        max_hook_elevation=hook(b.allowable_drop_height),
+        max_hook_elevation=hook_limit,
         max_utilisation=b.max_utilisation, utilisation_check=b.utilisation_check)
 
 
@@ -556,6 +568,8 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
             everything.extend(conds)
     not_checked = list(NOT_CHECKED)
     for w in results.warnings:
+        if "beyond the deck" in w:
+            continue  # a condition of its own (not_assessed)
         text = w[0].upper() + w[1:] + ("" if w.endswith(".") else ".")
         if text not in not_checked:
             not_checked.append(text)

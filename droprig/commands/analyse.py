@@ -1,9 +1,14 @@
-"""``droprig analyse FILE [--json OUT|-] [--csv OUT]``: every drop point of every lift zone.
+"""``droprig analyse FILE [--json OUT|-] [--csv OUT] [--bays-csv OUT]``: every drop
+point of every lift zone, and the permit verdict and conditions.
 
-Without ``--json``/``--csv`` a per-bay table is printed in the project's unit
-system, followed by the caution. ``--json`` writes the per-bay summaries (SI,
-``null`` where no value exists, never NaN); ``--csv`` one row per drop point with
-the SI unit in each column name. Bad input: one message on stderr, exit 2.
+Without an output option a per-bay table is printed in the project's unit system,
+then the permit verdict, its conditions, what is not checked, and the caution.
+``--json`` writes the per-bay summaries (SI, ``null`` where no value exists, never
+NaN) with each bay's permit cells and the permit (:mod:`droprig.permit`);
+``--csv`` one row per drop point with the SI unit in each column name;
+``--bays-csv`` one row per bay and load with the permit verdict, SI figures and the
+same cell text as the table. Every text with a number comes from
+:mod:`droprig.permit`. Bad input: one message on stderr, exit 2.
 """
 
 from __future__ import annotations
@@ -24,6 +29,7 @@ CSV_COLUMNS: tuple[tuple[str, str], ...] = (
     ("x", "x_m"),
     ("y", "y_m"),
     ("drop_height", "drop_height_m"),
+    ("fall_height", "fall_onto_struck_surface_m"),
     ("static_deflection", "static_deflection_m"),
     ("effective_mass", "effective_mass_kg"),
     ("dynamic_factor", "dynamic_factor"),
@@ -58,21 +64,52 @@ def _clean(obj: Any) -> Any:
     return _finite_or_none(obj)
 
 
-def results_document(project: Any, results: Any) -> dict[str, Any]:
+def _condition_doc(c: Any, system: str) -> dict[str, Any]:
+    d = {k: v for k, v in asdict(c).items() if k != "protection"}
+    d["region"] = [list(p) for p in c.region] if c.region else None
+    d["sentence"] = c.sentence(system)
+    return d
+
+
+def permit_document(project: Any, permit: Any) -> dict[str, Any]:
+    """The permit part of the JSON document: verdict, conditions (SI fields and the
+    one sentence of each, in the project's units), per-load verdicts, not checked."""
+    system = project.settings.unit_system
+    return {
+        "verdict": permit.verdict,
+        "verdict_words": permit.verdict_words,
+        "conditions": [_condition_doc(c, system) for c in permit.conditions],
+        "loads": [{"lift": lv.zone_id, "load": lv.load_name, "verdict": lv.verdict,
+                   "conditions": [c.sentence(system) for c in lv.conditions]}
+                  for lv in permit.loads],
+        "not_checked": list(permit.not_checked),
+    }
+
+
+def results_document(project: Any, results: Any, permit: Any = None) -> dict[str, Any]:
     """The JSON document of ``droprig analyse --json`` (SI units).
 
-    Per bay: the :class:`~droprig.solver.results.BaySummary` fields (SI; the
-    structured advice is ``advice_kind`` with ``height_limit``,
-    ``height_limit_yields``, ``mat_stiffness_max``, ``mat_travel`` and
-    ``planned_drop_height``) and ``advice``: the words, with numbers in the
-    project's unit system (:func:`droprig.advice.advice_text`)."""
-    from droprig.advice import advice_text
+    Per bay: the :class:`~droprig.solver.results.BaySummary` fields (SI; every height
+    on the datum of the finished surface; each quantity with its own point and check),
+    the permit ``verdict``, ``cells`` (the table text of
+    :meth:`droprig.permit.BayVerdict.cells`, in the project's unit system),
+    ``conditions`` (one sentence each) and ``advice`` (the conditions as one text).
+    ``permit``: :func:`permit_document`."""
+    from droprig.permit import derive_conditions
 
     system = project.settings.unit_system
+    permit = permit if permit is not None else derive_conditions(project, results)
+    verdicts = {(v.zone_id, v.load_name, v.bay_id): v for v in permit.bays}
     bays_out = []
     for b in results.bays:
         d = asdict(b)
-        d["advice"] = advice_text(b, system)
+        v = verdicts[(b.zone_id, b.load_name, b.bay_id)]
+        cells = v.cells(system)
+        d["verdict"] = v.verdict
+        d["cells"] = cells
+        d["conditions"] = [c.sentence(system) for c in v.conditions]
+        d["advice"] = cells["conditions"]
+        d["max_hook_elevation"] = v.max_hook_elevation
         d["lift"] = b.zone_id
         d["level"] = b.level_id
         d["max_utilisation_unbounded"] = not math.isfinite(b.max_utilisation)
@@ -83,6 +120,7 @@ def results_document(project: Any, results: Any) -> dict[str, Any]:
         "lift_reference": project.info.lift_reference,
         "revision": project.info.revision,
         "points": int(results.n_points),
+        "permit": permit_document(project, permit),
         "bays": bays_out,
         "warnings": list(results.warnings),
         "caution": CAUTION,
@@ -125,21 +163,55 @@ def csv_text(project: Any, results: Any) -> str:
     return buf.getvalue()
 
 
-def table_text(project: Any, results: Any) -> str:
-    """Readable per-bay table in the project's unit system."""
-    from droprig.advice import advice_text
-    from droprig.outcomes import fmt_utilisation
-    from droprig.units import fmt
+BAY_CSV_COLUMNS: tuple[str, ...] = (
+    "lift", "load", "level", "bay", "verdict", "response", "planned_drop_height_m",
+    "allowable_drop_height_m", "allowable_check", "allowable_pad",
+    "allowable_fall_onto_pad_m", "max_hook_elevation_m", "max_utilisation",
+    "utilisation_check", "verdict_text", "planned_text", "allowable_text", "hook_text",
+    "utilisation_text", "conditions_text")
+"""Columns of ``--bays-csv``: SI figures (unit in the name, empty = none) and the
+permit cells as printed (``*_text``, in the project's unit system)."""
+
+
+def bays_csv_text(project: Any, results: Any, permit: Any = None) -> str:
+    """One row per bay and load: the permit verdict, SI figures on the datum of the
+    finished surface, and the same cell text the table and the annex print."""
+    from droprig.permit import derive_conditions
 
     system = project.settings.unit_system
-    head = ("Lift", "Load", "Bay", "Points", "Max U", "Response", "Allowable drop",
-            "Governing")
+    permit = permit if permit is not None else derive_conditions(project, results)
+    buf = io.StringIO()
+    w = csv.writer(buf, lineterminator="\n")
+    w.writerow(BAY_CSV_COLUMNS)
+
+    def num(v: float | None) -> str:
+        return "" if v is None else _cell(float(v))
+
+    for v in permit.bays:
+        c = v.cells(system)
+        w.writerow([v.zone_id, v.load_name, v.level_id, v.bay_id, v.verdict, v.response,
+                    num(v.planned_drop_height), num(v.allowable_drop_height),
+                    v.allowable_check, v.allowable_pad or "", num(v.allowable_fall),
+                    num(v.max_hook_elevation), num(v.max_utilisation),
+                    v.utilisation_check, c["verdict"], c["planned"], c["allowable"],
+                    c["hook"], c["utilisation"], c["conditions"]])
+    return buf.getvalue()
+
+
+def table_text(project: Any, results: Any, permit: Any = None) -> str:
+    """Readable per-bay table in the project's unit system, then the permit."""
+    from droprig.permit import derive_conditions
+
+    system = project.settings.unit_system
+    permit = permit if permit is not None else derive_conditions(project, results)
+    verdicts = {(v.zone_id, v.load_name, v.bay_id): v for v in permit.bays}
+    head = ("Lift", "Load", "Bay", "Points", "Verdict", "Max U (check)",
+            "Allowable drop height, elastic (check)", "Max hook elevation", "Planned drop")
     rows = []
     for b in results.bays:
-        rows.append((b.zone_id, b.load_name, b.bay_id, str(b.n_points),
-                     fmt_utilisation(b.max_utilisation), b.response,
-                     fmt(b.allowable_drop_height, "length", system, rounding="down"),
-                     f"{b.governing_member} / {b.governing_check.replace('_', ' ')}"))
+        c = verdicts[(b.zone_id, b.load_name, b.bay_id)].cells(system)
+        rows.append((b.zone_id, b.load_name, b.bay_id, str(b.n_points), c["verdict"],
+                     c["utilisation"], c["allowable"], c["hook"], c["planned"]))
     widths = [max(len(h), *(len(r[i]) for r in rows)) if rows else len(h)
               for i, h in enumerate(head)]
     out = [f"droprig {__version__} — {project.info.name}"
@@ -150,9 +222,17 @@ def table_text(project: Any, results: Any) -> str:
     for r in rows:
         out.append("  ".join(c.ljust(wd) for c, wd in zip(r, widths, strict=True)))
     out.append("")
-    out.append("Advice per bay:")
-    for b in results.bays:
-        out.append(f"  {b.zone_id} / {b.load_name} / {b.bay_id}: {advice_text(b, system)}")
+    out.append("Heights are the load's underside above the finished surface of the level; "
+               "a fall onto a pad is that less the pad's thickness.")
+    out.append("")
+    out.append(f"Permit verdict: {permit.verdict_words.upper()}")
+    if permit.conditions:
+        out.append("Conditions:")
+        for i, sentence in enumerate(permit.sentences(system), 1):
+            out.append(f"  {i}. {sentence}")
+    out.append("Not checked (separate sign-off):")
+    for item in permit.not_checked:
+        out.append(f"  - {item}")
     for wmsg in results.warnings:
         out.append(f"Warning: {wmsg}")
     out.append("")
@@ -182,26 +262,33 @@ def run(args: argparse.Namespace) -> int:
     except (ProjectFileError, ModelError, OSError, ValueError) as exc:
         print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
         return EXIT_BAD_INPUT
+    from droprig.permit import derive_conditions
+
     json_out = getattr(args, "json_out", None)
     csv_out = getattr(args, "csv_out", None)
-    if json_out == "-" and csv_out == "-":
-        print("droprig analyse: --json and --csv cannot both write to stdout (-)",
-              file=sys.stderr)
+    bays_out = getattr(args, "bays_csv_out", None)
+    if [json_out, csv_out, bays_out].count("-") > 1:
+        print("droprig analyse: only one of --json, --csv and --bays-csv can write to "
+              "stdout (-)", file=sys.stderr)
         return EXIT_BAD_INPUT
+    permit = derive_conditions(project, results)
     try:
         if csv_out:
             _write(csv_out, csv_text(project, results))
+        if bays_out:
+            _write(bays_out, bays_csv_text(project, results, permit))
         if json_out:
-            doc = results_document(project, results)
+            doc = results_document(project, results, permit)
             _write(json_out, json.dumps(doc, indent=2, ensure_ascii=False, allow_nan=False)
                    + "\n")
     except OSError as exc:
         print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
         return EXIT_BAD_INPUT
-    if not json_out and not csv_out:
-        sys.stdout.write(table_text(project, results))
-    elif "-" not in (json_out, csv_out):
-        written = ", ".join(x for x in (json_out, csv_out) if x)
-        print(f"droprig analyse: {results.n_points} drop points; wrote {written}")
+    if not json_out and not csv_out and not bays_out:
+        sys.stdout.write(table_text(project, results, permit))
+    elif "-" not in (json_out, csv_out, bays_out):
+        written = ", ".join(x for x in (json_out, csv_out, bays_out) if x)
+        print(f"droprig analyse: {results.n_points} drop points; permit verdict: "
+              f"{permit.verdict_words}; wrote {written}")
         print(CAUTION)
     return EXIT_OK

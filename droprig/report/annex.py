@@ -29,9 +29,9 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 from droprig import __version__
-from droprig.advice import advice_text
 from droprig.io.atomic import atomic_path
 from droprig.model import Level, LiftZone, Member, Project
+from droprig.permit import VERDICT_WORDS, PermitConditions, derive_conditions
 from droprig.report import content, fonts
 from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, is_none, substitute_all
 from droprig.solver.results import CHECKS, DECK, CaseResult, Results, Trace
@@ -492,9 +492,13 @@ FOOTER_H = 26.0
 
 class _Builder:
     def __init__(self, project: Project, results: Results, zones: tuple[LiftZone, ...],
-                 fp: Fingerprint, frame_w: float, frame_h: float) -> None:
+                 fp: Fingerprint, frame_w: float, frame_h: float,
+                 permit: PermitConditions | None = None) -> None:
         self.p = project
         self.r = results
+        self.permit = permit if permit is not None else _permit_for(project, results, zones)
+        self.bay_verdicts = {(v.zone_id, v.load_name, v.bay_id): v
+                             for v in self.permit.bays}
         self.zones = zones
         self.fp = fp
         self.sys = project.settings.unit_system
@@ -528,13 +532,13 @@ class _Builder:
             head = HEADINGS["summary"] + (f" (continued, {k + 1} of {len(chunks)})" if k else "")
             flow: list[object] = [self.P(esc(head), st.h1)]
             if k == 0:
+                # the permit's verdict (droprig.permit), drawn in the outcome colour
+                # of the same severity
+                overall = VERDICT_OUTCOME[self.permit.verdict] if cases else overall
                 o = content.OUTCOMES.get(overall, content.OUTCOMES[content.NOT_ASSESSED])
-                word = {"elastic": "ALL ASSESSED BAYS STAY ELASTIC",
-                        "plastic": "SOME BAYS YIELD — PROTECT OR ACCEPT DAMAGE",
-                        "exceeds": "NOT ACCEPTABLE AS PLANNED — PROTECT OR EXCLUDE",
-                        content.NOT_ASSESSED: "NOTHING ASSESSED"}[overall]
+                word = self.permit.verdict_words.upper() if cases else "NOTHING ASSESSED"
                 rows = [[_outcome_cell(overall, st, big=True),
-                         self.P(f"Overall verdict: {word}", st.verdict)]]
+                         self.P(f"Permit verdict: {esc(word)}", st.verdict)]]
                 flow.append(_table(rows, [0.36 * self.w, 0.64 * self.w], header_rows=0, extra=[
                     _outcome_bg(overall, 0, 0), ("VALIGN", (0, 0), (-1, -1), "MIDDLE"),
                     ("BOX", (0, 0), (-1, -1), 1.5, colors.HexColor(o.edge)),
@@ -549,26 +553,32 @@ class _Builder:
                 flow.append(Spacer(1, 4))
                 flow.append(self.P(esc(_caution()), st.caution))
                 flow.append(Spacer(1, 6))
+                flow.extend(self._conditions())
             flow.append(self.P("Verdict per lift zone and load", st.h2))
             hdr = ["Lift zone", "Load", "Verdict", "Max U", "Least allowable drop height",
-                   "Advice"]
+                   "Permit conditions for this load"]
             rows = [[self.P(h, st.head) for h in hdr]]
             extra = []
+            loads = {(lv.zone_id, lv.load_name): lv for lv in self.permit.loads}
             for i, (zv, cv) in enumerate(chunk):
                 z = zv.zone
+                lv = loads.get((cv.zone_id, cv.load_name))
                 zo = content.OUTCOMES.get(zv.response, content.OUTCOMES[content.NOT_ASSESSED])
                 rows.append([
                     self.P(f"<b>{esc(z.id)}</b><br/>{esc(z.name)}<br/><i>lift zone: "
                            f"{esc(zo.label.lower())}</i>"),
                     self.P(f"<b>{esc(cv.load_name)}</b><br/>{self.v(cv.mass, 'mass')}; planned "
                            f"drop {self.v(cv.planned_drop_height, 'length')}"),
-                    _outcome_cell(cv.response, st),
+                    self.P(esc(VERDICT_WORDS[lv.verdict]) if lv is not None
+                           else esc(content.OUTCOMES[content.NOT_ASSESSED].label)),
                     self.P(fmt_util(cv.max_utilisation) + (
                         f"<br/>worst bay {esc(cv.worst_bay.bay_id)}" if cv.worst_bay else "")),
                     self.P(fmt_allow(cv.least_allowable_drop_height, "length", self.sys)),
-                    self.P(esc(cv.advice)),
+                    self.P(esc(" ".join(c.sentence(self.sys) for c in lv.conditions)
+                               if lv is not None and lv.conditions else cv.advice), st.tiny),
                 ])
-                extra.append(_outcome_bg(cv.response, 2, i + 1))
+                extra.append(_outcome_bg(VERDICT_OUTCOME[lv.verdict] if lv is not None
+                                         else cv.response, 2, i + 1))
             w = self.w
             flow.append(_table(rows, [0.12 * w, 0.17 * w, 0.15 * w, 0.1 * w, 0.12 * w,
                                       0.34 * w], extra=extra))
@@ -583,35 +593,63 @@ class _Builder:
             if k == 0:
                 flow.append(self.P(
                     "Every bay reached by a drop point, per lift zone and load, worst first. "
-                    "U: highest utilisation of any check at the bay's drop points. Allowable "
-                    "drop height: least over the bay (elastic limit; beyond yield within the "
-                    "ductility and rotation limits). 'none': no height is acceptable — the "
-                    "limit is passed even when the load is set down.", st.small))
-            hdr = ["Zone / load", "Bay", "Response", "Max U", "Governs (member · check at x, y)",
-                   "Allowable drop, elastic", "Allowable drop, plastic", "Advice"]
+                    "U: highest utilisation of any check at the bay's drop points, with that "
+                    "check. Heights are the load's underside above the finished surface of "
+                    "the level; a fall onto a pad is that less its thickness. Allowable drop "
+                    "height: least over the bay that keeps it elastic, with the check that "
+                    "sets it. Max hook elevation: the hook limit over the bay. 'none': no "
+                    "height is acceptable — the limit is passed even when the load is set "
+                    "down.", st.small))
+            hdr = ["Zone / load", "Bay", "Verdict", "Response", "Max U (check)",
+                   "Allowable drop height, elastic (check)", "Max hook elevation",
+                   "Permit conditions"]
             trs = [[self.P(h, st.head) for h in hdr]]
             extra = []
             if not chunk:
                 trs.append([self.P("No bay of any level is reached by a drop point.")] +
                            [""] * 7)
             for i, b in enumerate(chunk):
+                cells = self.bay_cells(b)
                 trs.append([
                     self.P(f"{esc(b.zone_id)}<br/>{esc(b.load_name)}"),
                     self.P(f"<b>{esc(b.bay_id)}</b>"),
+                    self.P(esc(cells["verdict"])),
                     _outcome_cell(b.response, st),
-                    fmt_util(b.max_utilisation),
-                    self.P(f"{esc(b.governing_member)} · {esc(b.governing_check)} at "
-                           f"({self.v(b.governing_x, 'length')}, "
-                           f"{self.v(b.governing_y, 'length')})"),
-                    fmt_allow(b.allowable_drop_height, "length", self.sys),
-                    fmt_allow(b.allowable_drop_height_plastic, "length", self.sys),
-                    self.P(esc(advice_text(b, self.sys)), st.tiny),
+                    self.P(esc(cells["utilisation"])),
+                    self.P(esc(cells["allowable"])),
+                    self.P(esc(cells["hook"])),
+                    self.P(esc(cells["conditions"]), st.tiny),
                 ])
-                extra.append(_outcome_bg(b.response, 2, i + 1))
+                extra.append(_outcome_bg(b.response, 3, i + 1))
             w = self.w
-            flow.append(_table(trs, [0.11 * w, 0.08 * w, 0.11 * w, 0.07 * w, 0.17 * w,
-                                     0.09 * w, 0.09 * w, 0.28 * w], extra=extra))
+            flow.append(_table(trs, [0.1 * w, 0.07 * w, 0.1 * w, 0.1 * w, 0.09 * w,
+                                     0.14 * w, 0.09 * w, 0.31 * w], extra=extra))
             self.add(head, flow)
+
+    def bay_cells(self, b: object) -> dict[str, str]:
+        """The permit cells of a bay summary (droprig.permit; the same text as the
+        window's table and the command line)."""
+        key = (b.zone_id, b.load_name, b.bay_id)  # type: ignore[attr-defined]
+        v = self.bay_verdicts.get(key)
+        if v is None:
+            return {k: "none" for k in ("verdict", "planned", "allowable", "hook",
+                                        "utilisation", "conditions")}
+        return v.cells(self.sys)
+
+    def _conditions(self) -> list[object]:
+        """The permit conditions in reading order, and what is not checked."""
+        st = self.st
+        flow: list[object] = [self.P("Permit conditions", st.h2)]
+        sentences = self.permit.sentences(self.sys)
+        if not sentences:
+            flow.append(self.P("None: every assessed bay stays elastic on bare deck as "
+                               "planned.", st.body))
+        for k, sentence in enumerate(sentences, 1):
+            flow.append(self.P(esc(sentence), st.bullet, bulletText=f"{k}."))
+        flow.append(self.P("Not checked; needs a separate sign-off", st.h2))
+        for item in self.permit.not_checked:
+            flow.append(self.P(esc(item), st.bullet, bulletText="•"))
+        return flow
 
     # -- plan
     def plan(self, level: Level) -> None:
@@ -807,8 +845,8 @@ class _Builder:
         extra.append(_outcome_bg(tr.response, 1, len(rows) - 1))
         rows.append([self.P("Governing member · check"),
                      self.P(esc(f"{tr.governing_member} · {tr.governing_check}"))])
-        rows.append([self.P("Advice for the bay"),
-                     self.P(esc(advice_text(sh.ref.summary, self.sys)))])
+        rows.append([self.P("Permit conditions for the bay"),
+                     self.P(esc(self.bay_cells(sh.ref.summary)["conditions"]))])
         return [self.P("Outcome", st.h2),
                 _table(rows, [0.4 * self.w, 0.6 * self.w], extra=extra)]
 
@@ -1018,6 +1056,29 @@ def _caution() -> str:
 
 
 # ----------------------------------------------------------------------- entry
+VERDICT_OUTCOME = {"acceptable": "elastic", "acceptable_with_conditions": "plastic",
+                   "not_acceptable": "exceeds"}
+"""The outcome colour a permit verdict is drawn in (the same severity)."""
+
+
+def _permit_for(project: Project, results: Results,
+                zones: tuple[LiftZone, ...]) -> PermitConditions:
+    """The permit (droprig.permit) of the zones this annex covers."""
+    from dataclasses import replace
+
+    ids = {z.id for z in zones}
+    permit = derive_conditions(project, results)
+    if ids == {z.id for z in project.lift_zones}:
+        return permit
+    loads = tuple(lv for lv in permit.loads if lv.zone_id in ids)
+    from droprig.permit import worst_verdict
+
+    conds = tuple(c for c in permit.conditions if c.zone_id in ids)
+    verdict = worst_verdict(lv.verdict for lv in loads)
+    if verdict == "acceptable" and conds:
+        verdict = "acceptable_with_conditions"
+    return replace(permit, verdict=verdict, loads=loads, conditions=conds)
+
 
 
 def write_annex(project: Project, results: Results, path: str | os.PathLike[str], *,
@@ -1054,7 +1115,7 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
     fy0 = MARGIN_BOTTOM + FOOTER_H
     fh = pagesize[1] - MARGIN_TOP - HEADER_H - fy0
     tick(0.55, "Laying out pages")
-    b = _Builder(project, results, zones, fp, fw, fh)
+    b = _Builder(project, results, zones, fp, fw, fh, _permit_for(project, results, zones))
     b.summary(verdicts)
     b.bay_pages(rows)
     for lv in levels:

@@ -32,8 +32,9 @@ import pytest
 from pypdf import PdfReader
 
 from droprig.model import Project
+from droprig.permit import derive_conditions
 from droprig.report import annex
-from droprig.report.text import fmt_allow, fmt_util, fmt_value
+from droprig.report.text import fmt_util, fmt_value
 from droprig.solver.results import RESPONSES, BaySummary, Results
 
 analysis = pytest.importorskip("droprig.solver.analysis")
@@ -174,11 +175,14 @@ def test_governing_numbers_are_the_solvers(built: Annex) -> None:
     system = built.project.settings.unit_system
     r = built.results
     bay_text = " ".join(t for t in built.texts if annex.HEADINGS["bays"] in t)
+    permit = derive_conditions(built.project, r)
     for b in r.bays:
         assert b.bay_id in bay_text
         assert fmt_util(b.max_utilisation) in bay_text
-        assert fmt_allow(b.allowable_drop_height, "length", system) in bay_text
-        assert fmt_allow(b.allowable_drop_height_plastic, "length", system) in bay_text
+        # the permit's cells (droprig.permit): the same text as the window and the CLI
+        cells = permit.bay(b.zone_id, b.load_name, b.bay_id).cells(system)
+        for key in ("verdict", "utilisation", "allowable", "hook"):
+            assert _norm(cells[key]) in bay_text, (key, cells[key])
     # each calculation sheet prints the solver's peak force, dynamic factor and U there
     sheets = _sheet_points(r, built.project)
     for b in sheets:
