@@ -38,7 +38,7 @@ from typing import Literal
 from droprig import units
 from droprig.model import Project, ProtectionArea, Rect, bays
 from droprig.outcomes import fmt_utilisation
-from droprig.solver.results import LIMIT_MARGIN, BaySummary, Results
+from droprig.solver import LIMIT_MARGIN, BaySummary, Results
 from droprig.units import UnitSystem
 
 __all__ = [

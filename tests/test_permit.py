@@ -28,8 +28,8 @@ from droprig.permit import (
     derive_conditions,
     fmt_height,
 )
-from droprig.solver import analysis
-from droprig.solver.analysis import MIN_USEFUL_HEIGHT, analyse
+from droprig.solver import analyse, planned_height
+from droprig.solver.summary import MIN_USEFUL_HEIGHT
 from tests.permit_projects import random_project
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -202,15 +202,15 @@ def test_hook_elevation_and_drop_height_mean_the_same(seed):
     z = project.lift_zones[0]
     as_drop, as_hook = [], []
     for ld in z.loads:
-        H = analysis.planned_height(ld, lv)
+        H = planned_height(ld, lv)
         hang = ld.hang_length or 2.0
         as_drop.append(replace(ld, drop_height=H, hook_elevation=None))
         as_hook.append(replace(ld, drop_height=None, hang_length=hang,
                                hook_elevation=lv.elevation + hang + H))
     # the hook form must give back the same H to the last bit for identical results
     for a, b in zip(as_drop, as_hook, strict=True):
-        assert analysis.planned_height(b, lv) == pytest.approx(a.drop_height, rel=1e-14)
-        as_drop[as_drop.index(a)] = replace(a, drop_height=analysis.planned_height(b, lv))
+        assert planned_height(b, lv) == pytest.approx(a.drop_height, rel=1e-14)
+        as_drop[as_drop.index(a)] = replace(a, drop_height=planned_height(b, lv))
     p1 = replace(project, lift_zones=(replace(z, loads=tuple(as_drop)),))
     p2 = replace(project, lift_zones=(replace(z, loads=tuple(as_hook)),))
     r1, r2 = analyse(p1), analyse(p2)
