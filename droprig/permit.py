@@ -555,8 +555,10 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
     for zone in project.lift_zones:
         for ld in zone.loads:
             summaries = by_load.get((zone.id, ld.name), [])
+            # (results a step behind an edited project: bays no longer on the grid
+            # are left out)
             bvs = tuple(_bay_verdict(project, b, rects[(b.level_id, b.bay_id)])
-                        for b in summaries)
+                        for b in summaries if (b.level_id, b.bay_id) in rects)
             conds = _merge((c for bv in bvs for c in bv.conditions), rects)
             if bvs and all(bv.verdict == "not_acceptable" for bv in bvs):
                 verdict: Verdict = "not_acceptable"
