@@ -82,5 +82,9 @@ def random_project(seed: int, *, pads: bool = True) -> Project:
         else:
             prot.append(ProtectionArea("MAT", "mat", "L1", rect, "spring", t,
                                        float(rng.uniform(2e6, 5e7))))
-    return Project(settings=Settings(grid_resolution=1.0), levels=tuple(levels),
+    # every third project in US units on the AISC basis (the words and rounding of the
+    # other unit system)
+    settings = Settings(grid_resolution=1.0, unit_system="US", design_basis="aisc360") \
+        if seed % 3 == 0 else Settings(grid_resolution=1.0)
+    return Project(settings=settings, levels=tuple(levels),
                    lift_zones=(zone,), protection_areas=tuple(prot))
