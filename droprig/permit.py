@@ -210,11 +210,13 @@ class Condition:
         if self.kind == "cap_hook":
             hook = ""
             if self.max_hook_elevation is not None:
-                hang = ("" if self.hang_length is None else
-                        f" with the {units.fmt(self.hang_length, 'length', system)} hang "
-                        "length")
-                hook = (f": the hook at or below elevation "
-                        f"{fmt_elevation(self.max_hook_elevation, system)}{hang}")
+                elev = fmt_elevation(self.max_hook_elevation, system)
+                if self.hang_length:
+                    hook = (f": the hook at or below elevation {elev} with the "
+                            f"{units.fmt(self.hang_length, 'length', system)} hang length")
+                else:  # no hang length given (a drop-height load): the underside itself
+                    hook = (f": its underside at or below elevation {elev} (add the hang "
+                            "length for the hook)")
             return (f"Over {self.where()}{self._for()}: keep the load's underside no more "
                     f"than {fmt_height(self.max_drop_height, system)} above the finished "
                     f"surface{hook}.")
