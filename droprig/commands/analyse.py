@@ -256,14 +256,17 @@ def run(args: argparse.Namespace) -> int:
     from droprig.model import ModelError
     from droprig.solver.analysis import analyse
 
+    notes: list[str] = []
     try:
-        project = load_project(args.file)
+        project = load_project(args.file, notes=notes)
         results = analyse(project)
     except (ProjectFileError, ModelError, OSError, ValueError) as exc:
         print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
         return EXIT_BAD_INPUT
     from droprig.permit import derive_conditions
 
+    for note in notes:  # an older format converted: what changed in meaning
+        print(f"droprig analyse: note: {note}", file=sys.stderr)
     json_out = getattr(args, "json_out", None)
     csv_out = getattr(args, "csv_out", None)
     bays_out = getattr(args, "bays_csv_out", None)

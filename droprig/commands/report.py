@@ -44,8 +44,9 @@ def run(args: argparse.Namespace) -> int:
             return _fail(f"-o/--output: {out} is the project file itself; choose another name")
     except OSError:
         pass
+    notes: list[str] = []
     try:
-        project = load_project(path)
+        project = load_project(path, notes=notes)
     except ProjectFileError as exc:
         problems = getattr(exc, "problems", None) or [str(exc)]
         lines = "\n  ".join(str(p) for p in problems)
@@ -76,6 +77,8 @@ def run(args: argparse.Namespace) -> int:
 
     permit = permit_conditions(project, results)
     print(f"{os.path.abspath(out)} ({pages} pages)")
+    for note in notes:  # an older format converted: what changed in meaning
+        print(f"note: {note}")
     print(f"overall verdict: {VERDICT_WORDS[permit.verdict].upper()}")  # type: ignore[attr-defined]
     verdicts = content.zone_verdicts(project, results, zones)
     for zv in verdicts:

@@ -38,8 +38,9 @@ def run(args: argparse.Namespace) -> int:
     from droprig.io.project_file import ProjectFileError, load_project
 
     path = args.file
+    notes: list[str] = []
     try:
-        project = load_project(path)
+        project = load_project(path, notes=notes)
     except ProjectFileError as exc:
         n = len(exc.problems)
         print(f"{path}: {_plural(n, 'problem')}")
@@ -51,4 +52,6 @@ def run(args: argparse.Namespace) -> int:
         return EXIT_BAD_INPUT
     print("ok")
     print(f"{path}: {summary(project)}")
+    for note in notes:  # an older format converted: what changed in meaning
+        print(f"note: {note}")
     return EXIT_OK
