@@ -239,7 +239,7 @@ class Condition:
 
 
 CELL_KEYS: tuple[str, ...] = ("verdict", "planned", "allowable", "hook", "utilisation",
-                              "conditions")
+                              "conditions", "mass")
 """Keys of :meth:`BayVerdict.cells`, in table order."""
 
 
@@ -255,7 +255,8 @@ class BayVerdict:
     hook elevation over the bay: the hook limit of its conditions, else the hook
     elevation of :data:`~droprig.solver.results.LIMIT_MARGIN` × the allowable height
     (never below the planned height, found acceptable); ``None`` where the load must
-    be kept off the bay.
+    be kept off the bay. ``allowable_mass`` (kg): the least over the bay of the mass
+    that keeps it elastic from the planned height, through any pad there.
     """
 
     zone_id: str
@@ -275,6 +276,7 @@ class BayVerdict:
     max_hook_elevation: float | None
     max_utilisation: float
     utilisation_check: str
+    allowable_mass: float | None = None
 
     def cells(self, system: UnitSystem = "SI") -> dict[str, str]:
         """The table cells of this bay (keys :data:`CELL_KEYS`), the one text every
@@ -298,6 +300,8 @@ class BayVerdict:
             "hook": fmt_elevation(self.max_hook_elevation, system),
             "utilisation": util,
             "conditions": " ".join(c.sentence(system) for c in self.conditions) or "none",
+            "mass": units.fmt_sig(self.allowable_mass, "mass", system, sig=SIG_MASS,
+                                  rounding="down"),
         }
 
 
@@ -475,7 +479,8 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
         allowable_x=b.height_x, allowable_y=b.height_y,
         allowable_pad=None if pad is None else pad.id, allowable_fall=fall,
         max_hook_elevation=hook_limit,
-        max_utilisation=b.max_utilisation, utilisation_check=b.utilisation_check)
+        max_utilisation=b.max_utilisation, utilisation_check=b.utilisation_check,
+        allowable_mass=b.allowable_mass)
 
 
 def _merge_key(c: Condition) -> tuple[object, ...]:

@@ -167,8 +167,8 @@ BAY_CSV_COLUMNS: tuple[str, ...] = (
     "lift", "load", "level", "bay", "verdict", "response", "planned_drop_height_m",
     "allowable_drop_height_m", "allowable_check", "allowable_pad",
     "allowable_fall_onto_pad_m", "max_hook_elevation_m", "max_utilisation",
-    "utilisation_check", "verdict_text", "planned_text", "allowable_text", "hook_text",
-    "utilisation_text", "conditions_text")
+    "utilisation_check", "allowable_mass_kg", "verdict_text", "planned_text",
+    "allowable_text", "hook_text", "utilisation_text", "mass_text", "conditions_text")
 """Columns of ``--bays-csv``: SI figures (unit in the name, empty = none) and the
 permit cells as printed (``*_text``, in the project's unit system)."""
 
@@ -193,8 +193,9 @@ def bays_csv_text(project: Any, results: Any, permit: Any = None) -> str:
                     num(v.planned_drop_height), num(v.allowable_drop_height),
                     v.allowable_check, v.allowable_pad or "", num(v.allowable_fall),
                     num(v.max_hook_elevation), num(v.max_utilisation),
-                    v.utilisation_check, c["verdict"], c["planned"], c["allowable"],
-                    c["hook"], c["utilisation"], c["conditions"]])
+                    v.utilisation_check, num(v.allowable_mass), c["verdict"], c["planned"],
+                    c["allowable"], c["hook"], c["utilisation"], c["mass"],
+                    c["conditions"]])
     return buf.getvalue()
 
 
@@ -206,12 +207,13 @@ def table_text(project: Any, results: Any, permit: Any = None) -> str:
     permit = permit if permit is not None else derive_conditions(project, results)
     verdicts = {(v.zone_id, v.load_name, v.bay_id): v for v in permit.bays}
     head = ("Lift", "Load", "Bay", "Points", "Verdict", "Max U (check)",
-            "Allowable drop height, elastic (check)", "Max hook elevation", "Planned drop")
+            "Allowable drop height, elastic (check)", "Max hook elevation", "Planned drop",
+            "Allowable mass")
     rows = []
     for b in results.bays:
         c = verdicts[(b.zone_id, b.load_name, b.bay_id)].cells(system)
         rows.append((b.zone_id, b.load_name, b.bay_id, str(b.n_points), c["verdict"],
-                     c["utilisation"], c["allowable"], c["hook"], c["planned"]))
+                     c["utilisation"], c["allowable"], c["hook"], c["planned"], c["mass"]))
     widths = [max(len(h), *(len(r[i]) for r in rows)) if rows else len(h)
               for i, h in enumerate(head)]
     out = [f"droprig {__version__} — {project.info.name}"
