@@ -34,12 +34,12 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
-from droprig.cli import CAUTION
 from droprig.gui import style
 from droprig.gui.document import Document, Selection
 from droprig.model import Project
 from droprig.permit import BayVerdict, PermitConditions, derive_conditions
-from droprig.solver.results import BaySummary, Results
+from droprig.solver import BaySummary, Results
+from droprig.texts import CAUTION
 
 SORT_ROLE = Qt.ItemDataRole.UserRole + 1
 ROW_ROLE = Qt.ItemDataRole.UserRole + 2
