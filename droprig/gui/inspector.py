@@ -470,7 +470,9 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
         ]
         if ld.drop_height is not None:
             fields.append(_q("drop_height", "Drop height", "length",
-                             "Free fall from the load's underside to the deck or mat top"))
+                             "Height of the load's underside above the finished surface "
+                             "(top of deck); over a pad the fall is this less its "
+                             "thickness"))
         else:
             fields += [_q("hook_elevation", "Hook elevation", "length",
                           "Same datum as level elevations"),
