@@ -390,3 +390,21 @@ def test_every_condition_has_a_sentence():
 
 def test_zone_is_the_zone():
     assert isinstance(random_project(0).lift_zones[0], LiftZone)
+
+
+def test_rooftop_demo_by_drop_height_reads_the_same():
+    """The rooftop demo's loads re-entered as drop heights above the roof (the same
+    0.8 m and 4.8 m: hook elevation − hang length − roof elevation) give the same
+    verdicts and heights bay by bay — the 0.8 m is no longer measured to the pad top."""
+    project = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    lv = project.level("RF")
+    z = project.lift_zones[0]
+    as_drop = tuple(replace(ld, drop_height=planned_height(ld, lv), hook_elevation=None)
+                    for ld in z.loads)
+    other = replace(project, lift_zones=(replace(z, loads=as_drop),))
+    a = derive_conditions(project, analyse(project))
+    b = derive_conditions(other, analyse(other))
+    assert [ld.drop_height for ld in as_drop] == pytest.approx([0.8, 0.8, 4.8], rel=1e-12)
+    assert [(v.bay_id, v.verdict, v.allowable_drop_height) for v in a.bays] == \
+        [(v.bay_id, v.verdict, v.allowable_drop_height) for v in b.bays]
+    assert a.verdict == b.verdict == "acceptable_with_conditions"
