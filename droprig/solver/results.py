@@ -142,7 +142,8 @@ class BaySummary:
     ``allowable_drop_height`` keeps them elastic), ``mat_stiffness_max`` (N/m, the
     stiffest spring mat that works) and ``mat_travel`` (m, how far it must be able
     to compress); ``None`` where not offered. ``planned_drop_height`` (m): the
-    load's planned drop height. Text for people: :func:`droprig.advice.advice_text`.
+    load's planned drop height. Words for people: :mod:`droprig.permit` (the conditions
+    and cells every surface prints).
 
     Every height is on droprig's one datum: the load's underside above the finished
     surface of the level (a fall onto a pad is that less the pad's thickness).
