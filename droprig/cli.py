@@ -71,11 +71,15 @@ def build_parser() -> argparse.ArgumentParser:
     s.add_argument("--bays-csv", dest="bays_csv_out", default=None, metavar="OUT",
                    help="write one row per bay and load (permit verdict, heights, hook "
                         "elevation, conditions) to OUT")
+    s.add_argument("--force", action="store_true",
+                   help="allow an output name ending in .droprig (never the project itself)")
 
     s = sub.add_parser("report", help="the PDF annex for a lift permit")
     s.add_argument("file")
     s.add_argument("-o", "--output", required=True)
     s.add_argument("--lift", default=None, help="only this lift zone id")
+    s.add_argument("--force", action="store_true",
+                   help="allow an output name ending in .droprig (never the project itself)")
 
     s = sub.add_parser("gui", help="open the desktop application")
     s.add_argument("file", nargs="?")

@@ -243,50 +243,79 @@ def table_text(project: Any, results: Any, permit: Any = None) -> str:
     return "\n".join(out) + "\n"
 
 
-def _write(target: str, text: str) -> None:
-    """Write ``text`` to ``target`` atomically ('-' is stdout)."""
+def _write(target: str, text: str, project_path: str = "", *, force: bool = False,
+           option: str = "output") -> None:
+    """Write ``text`` to ``target`` atomically ('-' is stdout), never over the project
+    file, over another ``.droprig`` file only with ``force``; a replaced file is kept
+    as ``.bak`` (:func:`droprig.io.atomic.write_output`)."""
     if target == "-":
         sys.stdout.write(text)
         return
-    from droprig.io.atomic import atomic_write_bytes
+    from droprig.io.atomic import write_output
 
-    atomic_write_bytes(target, text.encode("utf-8"))
+    write_output(target, text.encode("utf-8"), (project_path,) if project_path else (),
+                 force=force, option=option)
 
 
 def run(args: argparse.Namespace) -> int:
+    from droprig.io.atomic import OutputRefusedError, check_output
     from droprig.io.project_file import ProjectFileError, load_project
     from droprig.model import ModelError
+    from droprig.permit import derive_conditions
     from droprig.solver import analyse
     from droprig.texts import describe_error
 
-    notes: list[str] = []
-    try:
-        project = load_project(args.file, notes=notes)
-        results = analyse(project)
-    except (ProjectFileError, ModelError, OSError, ValueError) as exc:
-        print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
-        return EXIT_BAD_INPUT
-    from droprig.permit import derive_conditions
-
-    for note in notes:  # an older format converted: what changed in meaning
-        print(f"droprig analyse: note: {note}", file=sys.stderr)
     json_out = getattr(args, "json_out", None)
     csv_out = getattr(args, "csv_out", None)
     bays_out = getattr(args, "bays_csv_out", None)
+    force = bool(getattr(args, "force", False))
+    outs = ((json_out, "--json"), (csv_out, "--csv"), (bays_out, "--bays-csv"))
     if [json_out, csv_out, bays_out].count("-") > 1:
         print("droprig analyse: only one of --json, --csv and --bays-csv can write to "
               "stdout (-)", file=sys.stderr)
         return EXIT_BAD_INPUT
+    try:  # refused before the (possibly long) analysis
+        for out, option in outs:
+            if out and out != "-":
+                check_output(out, (args.file,), force=force, option=option)
+        files = [o for o, _ in outs if o and o != "-"]
+        if len(set(files)) < len(files):
+            raise OutputRefusedError("--json, --csv and --bays-csv name the same file; "
+                                     "give each its own name")
+    except OutputRefusedError as exc:
+        print(f"droprig analyse: {exc}", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    from droprig.preflight import analysis_problems
+
+    notes: list[str] = []
+    try:
+        project = load_project(args.file, notes=notes)
+        problems = analysis_problems(project)
+        if problems:
+            print(f"droprig analyse: {args.file}: {len(problems)} problem(s)\n  "
+                  + "\n  ".join(problems), file=sys.stderr)
+            return EXIT_BAD_INPUT
+        results = analyse(project)
+    except (ProjectFileError, ModelError, OSError, ValueError) as exc:
+        print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    for note in notes:  # an older format converted: what changed in meaning
+        print(f"droprig analyse: note: {note}", file=sys.stderr)
     permit = derive_conditions(project, results)
     try:
         if csv_out:
-            _write(csv_out, csv_text(project, results))
+            _write(csv_out, csv_text(project, results), args.file, force=force,
+                   option="--csv")
         if bays_out:
-            _write(bays_out, bays_csv_text(project, results, permit))
+            _write(bays_out, bays_csv_text(project, results, permit), args.file,
+                   force=force, option="--bays-csv")
         if json_out:
             doc = results_document(project, results, permit)
             _write(json_out, json.dumps(doc, indent=2, ensure_ascii=False, allow_nan=False)
-                   + "\n")
+                   + "\n", args.file, force=force, option="--json")
+    except OutputRefusedError as exc:
+        print(f"droprig analyse: {exc}", file=sys.stderr)
+        return EXIT_BAD_INPUT
     except OSError as exc:
         print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
         return EXIT_BAD_INPUT

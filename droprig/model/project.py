@@ -8,9 +8,11 @@ Edit with :func:`dataclasses.replace`.
 from __future__ import annotations
 
 import math
+from collections.abc import Iterable
 from dataclasses import dataclass, field
 from typing import Literal
 
+from droprig.model import bounds
 from droprig.model.errors import (
     ModelError,
     check_choice,
@@ -36,6 +38,15 @@ bearer (10 kN/m) to practically rigid steel (1e12 N/m)."""
 
 GEOMETRY_TOL = 1e-6
 """Two plan points closer than this (m) are the same point."""
+
+
+def _repeated(ids: Iterable[str]) -> str | None:
+    """The smallest id that appears more than once, or None (linear time)."""
+    seen: set[str] = set()
+    dup: set[str] = set()
+    for i in ids:
+        (dup if i in seen else seen).add(i)
+    return min(dup) if dup else None
 
 
 def _check_point(name: str, p: Point, lim: float = 10_000.0) -> Point:
@@ -272,10 +283,12 @@ class Level:
         check_range(f"level {self.id}.superimposed_dead", self.superimposed_dead, 0.0, 50e3,
                     unit="Pa")
         check_range(f"level {self.id}.live_in_place", self.live_in_place, 0.0, 50e3, unit="Pa")
-        ids = [m.id for m in self.members]
-        dup = {i for i in ids if ids.count(i) > 1}
-        if dup:
-            raise ModelError(f"level {self.id}.members", sorted(dup)[0], "unique member ids")
+        if len(self.members) > bounds.MAX_MEMBERS_PER_LEVEL:
+            raise ModelError(f"level {self.id}.members", len(self.members),
+                             f"at most {bounds.MAX_MEMBERS_PER_LEVEL:,} members on one level")
+        dup = _repeated(m.id for m in self.members)
+        if dup is not None:
+            raise ModelError(f"level {self.id}.members", dup, "unique member ids")
 
     def member(self, member_id: str) -> Member:
         for m in self.members:
@@ -390,15 +403,21 @@ class LiftZone:
         check_finite(f"zone {self.id}.slew_start", self.slew_start, "rad")
         check_finite(f"zone {self.id}.slew_end", self.slew_end, "rad")
         check_range(f"zone {self.id}.drift_margin", self.drift_margin, 0.0, 20.0, unit="m")
+        if len(self.loads) > bounds.MAX_LOADS_PER_ZONE:
+            raise ModelError(f"zone {self.id}.loads", len(self.loads),
+                             f"at most {bounds.MAX_LOADS_PER_ZONE} loads in one lift zone")
+        if len(self.corridor) > bounds.MAX_CORRIDOR_CORNERS:
+            raise ModelError(f"zone {self.id}.corridor", len(self.corridor),
+                             f"at most {bounds.MAX_CORRIDOR_CORNERS} corners: simplify the "
+                             "corridor (a few corners follow a real lift path)")
         if self.corridor and len(self.corridor) < 3:
             raise ModelError(f"zone {self.id}.corridor", len(self.corridor),
                              "no corridor, or a polygon of at least 3 points")
         for i, p in enumerate(self.corridor):
             _check_point(f"zone {self.id}.corridor[{i}]", p)
-        names = [ld.name for ld in self.loads]
-        dup = {n for n in names if names.count(n) > 1}
-        if dup:
-            raise ModelError(f"zone {self.id}.loads", sorted(dup)[0], "unique load names")
+        dup = _repeated(ld.name for ld in self.loads)
+        if dup is not None:
+            raise ModelError(f"zone {self.id}.loads", dup, "unique load names")
 
     @property
     def slew_sweep(self) -> float:
@@ -458,20 +477,23 @@ class Project:
     protection_areas: tuple[ProtectionArea, ...] = ()
 
     def __post_init__(self) -> None:
+        bounds.check_counts(self)
         level_ids = [lv.id for lv in self.levels]
+        known = set(level_ids)
         for kind, ids in (("levels", level_ids), ("lift_zones", [z.id for z in self.lift_zones]),
                           ("protection_areas", [p.id for p in self.protection_areas])):
-            dup = {i for i in ids if ids.count(i) > 1}
-            if dup:
-                raise ModelError(kind, sorted(dup)[0], "unique ids")
+            dup = _repeated(ids)
+            if dup is not None:
+                raise ModelError(kind, dup, "unique ids")
         for z in self.lift_zones:
-            if z.level_id not in level_ids:
+            if z.level_id not in known:
                 raise ModelError(f"zone {z.id}.level_id", z.level_id,
                                  "the id of a level: " + ", ".join(level_ids))
         for p in self.protection_areas:
-            if p.level_id not in level_ids:
+            if p.level_id not in known:
                 raise ModelError(f"protection {p.id}.level_id", p.level_id,
                                  "the id of a level: " + ", ".join(level_ids))
+        bounds.check_drop_points(self)
 
     def level(self, level_id: str) -> Level:
         for lv in self.levels:

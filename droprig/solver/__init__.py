@@ -14,7 +14,8 @@ names from ``droprig.solver`` and nothing from its modules
 * the result types and their code tables.
 """
 
-from droprig.solver.analysis import analyse
+from droprig.solver.analysis import analyse, floor_model
+from droprig.solver.cancel import AnalysisCancelledError, CancelToken, cancellable
 from droprig.solver.chain import planned_height
 from droprig.solver.framing import (
     Resistances,
@@ -53,7 +54,9 @@ __all__ = [
     "RESPONSES",
     "RESULT_KEYS",
     "AdviceKind",
+    "AnalysisCancelledError",
     "BaySummary",
+    "CancelToken",
     "CaseResult",
     "Resistances",
     "Results",
@@ -61,7 +64,9 @@ __all__ = [
     "TraceStep",
     "analyse",
     "assess_member",
+    "cancellable",
     "check_framing",
+    "floor_model",
     "member_resistances",
     "on_rigid_support",
     "planned_height",

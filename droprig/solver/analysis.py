@@ -47,11 +47,12 @@ The drop points are the zone grid plus the points that can govern
 from __future__ import annotations
 
 from collections.abc import Callable
+from dataclasses import replace
 
 import numpy as np
 
 from droprig.model import Level, LiftLoad, LiftZone, Project, corridor_problem
-from droprig.solver import droppoints, evaluate, memory, refine
+from droprig.solver import cancel, droppoints, evaluate, memory, refine
 from droprig.solver.chain import FIELDS, planned_height
 from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_model
 from droprig.solver.geometry import Geometry, point_geometry
@@ -88,6 +89,7 @@ def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
 def analyse_zone(project: Project, zone_id: str,
                  floor: Callable[[str], FloorModel] | None = None) -> Results:
     """Every load of one lift zone (see :func:`analyse`)."""
+    cancel.check()
     floor = floor or floor_cache(project)
     zone = project.zone(zone_id)
     fm = floor(zone.level_id)
@@ -105,6 +107,8 @@ def analyse_zone(project: Project, zone_id: str,
     cases = []
     summaries: list[BaySummary] = []
     allres = refine.zone_points(fm, project, zone, (x, y)) if zone.loads else {}
+    if zone.loads:
+        confirm_plastic_heights(fm, project, zone, allres)
     for j, load in enumerate(zone.loads):
         sel = allres["load_index"] == j
         res = {k: v[sel] for k, v in allres.items()}
@@ -114,7 +118,70 @@ def analyse_zone(project: Project, zone_id: str,
                                    [p.id for p in project.protection_areas]))
     if not zone.loads:
         warnings.append(f"zone {zone.id}: no loads to assess")
+    warnings.extend(useless_layers(project, zone))
     return Results(tuple(cases), tuple(summaries), tuple(warnings))
+
+
+CONFIRM_FACTORS = (0.99, 1.0)
+"""Fractions of a plastic allowable height at which the forward analysis must not
+exceed before the height is reported (issue 16: evaluated at 0.99 × the height)."""
+
+_CONFIRM_BLOCK = 256
+"""Points per forward check (each point carries its own trial load)."""
+
+
+def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
+                            res: dict[str, np.ndarray]) -> None:
+    """Keep a plastic allowable height only where the forward analysis confirms it.
+
+    The plastic inverse (:func:`droprig.solver.plastic.allowable_height_plastic` with
+    the brittle checks at R_p) is an energy estimate; a height it gives above the
+    elastic one is checked by analysing each such point again with the load dropped
+    from :data:`CONFIRM_FACTORS` × that height. Where any trial exceeds, the height
+    falls back to the elastic allowable height (closed form, Gere §9.10), so no
+    reported height claims a margin the forward analysis does not give (issue 16).
+    In place on ``res`` (the rows of :func:`droprig.solver.refine.zone_points`)."""
+    from droprig.solver.results import EXCEEDS
+
+    h_pl = res["allowable_drop_height_plastic"]
+    h_el = res["allowable_drop_height"]
+    idx = np.flatnonzero(np.isfinite(h_pl) & ~(h_pl <= h_el))
+    if idx.size == 0:
+        return
+    loads = list(zone.loads)
+    ok = np.ones(idx.size, dtype=bool)
+    for s0 in range(0, idx.size, _CONFIRM_BLOCK):
+        cancel.check()
+        part = idx[s0:s0 + _CONFIRM_BLOCK]
+        geo = point_geometry(fm, project, res["x"][part], res["y"][part])
+        for factor in CONFIRM_FACTORS:
+            trial = [replace(loads[int(j)], drop_height=min(factor * float(hp), 200.0),
+                             hook_elevation=None, hang_length=0.0)
+                     for j, hp in zip(res["load_index"][part], h_pl[part], strict=True)]
+            r = evaluate.evaluate_case(fm, project, trial, geo, np.arange(part.size))
+            ok[s0:s0 + part.size] &= r["response"] != EXCEEDS
+    bad = idx[~ok]
+    if bad.size:
+        h_pl = h_pl.copy()
+        h_pl[bad] = h_el[bad]
+        res["allowable_drop_height_plastic"] = h_pl
+
+
+def useless_layers(project: Project, zone: LiftZone) -> list[str]:
+    """Warnings for crushable layers on the zone's level whose crush force is at most
+    a load's weight: the layer crushes under the load's own weight and protects
+    nothing (its stroke adds to the fall; common practice, no source)."""
+    out = []
+    for pa in project.protection_areas:
+        if pa.level_id != zone.level_id or pa.kind != "crushable" or pa.crush_force is None:
+            continue
+        for ld in zone.loads:
+            if pa.crush_force <= ld.weight:
+                out.append(f"protection {pa.id}: its crush force ({pa.crush_force:g} N) is "
+                           f"not above the weight of {ld.name} in zone {zone.id} "
+                           f"({ld.weight:.0f} N); the layer crushes under the load alone "
+                           "and gives no protection from it")
+    return out
 
 
 def analyse(project: Project) -> Results:

@@ -607,6 +607,20 @@ class InverseAnswers:
     hp_check: np.ndarray
 
 
+def with_crush_energy(h_allow: np.ndarray, where: np.ndarray, F_c: np.ndarray,
+                      s_c: np.ndarray, W: np.ndarray, eta: np.ndarray) -> np.ndarray:
+    """An allowable height over a crushable layer that bottoms out, m: the layer takes
+    (F_c − W)·s_c of the energy ηWh (:func:`droprig.solver.impact.impact_crushable`,
+    case 3, solved for h: h = h_allow + (F_c − W)·s_c/(ηW)). A layer weaker than the
+    load's weight (F_c ≤ W) crushes under the weight alone and *adds* (W − F_c)·s_c:
+    the height shrinks, and where it would fall below 0 no height is allowed (nan),
+    so an inverse answer never claims a margin the forward chain does not give."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        bonus = np.where(where, (F_c - W) * s_c / (eta * W), 0.0)
+        out = h_allow + bonus
+    return np.where(np.isfinite(out) & (out >= 0.0), out, np.nan)
+
+
 def inverse_answers(c: Chain) -> InverseAnswers:
     """Gere Eq. 9-94 solved for h, M, k and a crush stroke
     (:mod:`droprig.solver.limits`); beyond yield the energy balance at the ductility
@@ -619,9 +633,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     F_allow, R_p, f_s, f = ck.F_allow, by.R_p, comp.f_s, comp.f
     Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
-    crush_bonus = np.where(crushable & (F_c <= F_allow) & (F_c > W),
-                           (F_c - W) * s_c / (eta * W), 0.0)
-    h_el = h_el + crush_bonus
+    h_el = with_crush_energy(h_el, crushable & (F_c <= F_allow), F_c, s_c, W, eta)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
     for u in ck.Ub_at_Rp[1:]:
@@ -632,8 +644,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
         d_lim_s = np.minimum(s.ductility_limit * R_p * f_s, d_rot)
         mu_tot = (d_lim_s + R_p * comp.f_series) / (R_p * f)
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
-    h_pl = h_pl + np.where(crushable & (F_c < R_p) & (F_c > W),
-                           (F_c - W) * s_c / (eta * W), 0.0)
+    h_pl = with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
