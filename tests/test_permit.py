@@ -168,8 +168,11 @@ def _check_exclusion_needed(project: Project, bv) -> None:
     offered from 50 mm up (and never below the top of a pad on the bay) at
     LIMIT_MARGIN × the least allowable height found; so a bay is excluded when that
     least height is below max(50 mm, pad top) / LIMIT_MARGIN — and with the load just
-    above that (2 % more, for the sampling of drop points) the bay exceeds its limits.
-    Run on the zone's own region, with the pads that touch the bay."""
+    above that (2 % more, for the sampling of drop points) the bay is beyond its
+    elastic limits. (Whether it would stay within the plastic limits there is not
+    claimed: a plastic height the forward analysis does not confirm falls back to the
+    elastic one, droprig.solver.analysis.confirm_plastic_heights.) Run on the zone's
+    own region, with the pads that touch the bay."""
     rect = _bay_rect(project, bv.level_id, bv.bay_id)
     z = project.zone(bv.zone_id)
     load = next(ld for ld in z.loads if ld.name == bv.load_name)
@@ -188,7 +191,7 @@ def _check_exclusion_needed(project: Project, bv) -> None:
         ld for ld in p.zone(bv.zone_id).loads if ld.name == bv.load_name))
     s = _summary(analyse(replace(p, lift_zones=(zone,))), bv.zone_id, bv.load_name,
                  bv.bay_id)
-    assert s is not None and s.response == "exceeds", (bv.bay_id, s)
+    assert s is not None and s.response != "elastic", (bv.bay_id, s)
 
 
 @pytest.mark.parametrize("chunk", range(0, N_LOOP, 10))

@@ -154,10 +154,15 @@ def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
         cancel.check()
         part = idx[s0:s0 + _CONFIRM_BLOCK]
         geo = point_geometry(fm, project, res["x"][part], res["y"][part])
+        # heights are above the finished surface; the factor applies to the fall onto
+        # a pad (t + factor·(h − t), issue 13)
+        t_pad = res["drop_height"][part] - res["fall_height"][part]
         for factor in CONFIRM_FACTORS:
-            trial = [replace(loads[int(j)], drop_height=min(factor * float(hp), 200.0),
+            trial = [replace(loads[int(j)],
+                             drop_height=min(t + factor * (float(hp) - t), 200.0),
                              hook_elevation=None, hang_length=0.0)
-                     for j, hp in zip(res["load_index"][part], h_pl[part], strict=True)]
+                     for j, hp, t in zip(res["load_index"][part], h_pl[part], t_pad,
+                                         strict=True)]
             r = evaluate.evaluate_case(fm, project, trial, geo, np.arange(part.size))
             ok[s0:s0 + part.size] &= r["response"] != EXCEEDS
     bad = idx[~ok]
