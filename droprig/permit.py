@@ -431,6 +431,18 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
             b.height_limit <= thickest:
         # the limit lies below the top of a pad in the bay: no practical hook limit
         kind = "mat" if kind == "limit_or_mat" else "keep_clear"
+    if b.response == "perforates" or b.scabbing:
+        # a hard load may go through the deck or knock concrete off its soffit
+        # (local damage): keep the level below clear under the bay
+        conds.append(Condition("exclude_level_below", region=region,  # type: ignore
+                               below_level_id=b.level_below or _level_below(project,
+                                                                            b.level_id),
+                               **base))
+    if kind == "level_below" and b.height_limit is not None and b.height_limit > thickest:
+        # the drop height under which neither scabbing nor perforation starts
+        conds.append(Condition("cap_hook", max_drop_height=b.height_limit,  # type: ignore
+                               max_hook_elevation=hook(b.height_limit),
+                               hang_length=load.hang_length, region=region, **base))
     if kind == "limit_height" or (kind == "limit_or_mat" and b.height_limit is not None):
         conds.append(Condition("cap_hook", max_drop_height=b.height_limit,  # type: ignore
                                max_hook_elevation=hook(b.height_limit),

@@ -9,6 +9,8 @@ NaN) with each bay's permit cells and the permit (:mod:`droprig.permit`);
 ``--bays-csv`` one row per bay and load with the permit verdict, SI figures and the
 same cell text as the table. Every text with a number comes from
 :mod:`droprig.permit`. Bad input: one message on stderr, exit 2.
+``level_below`` (JSON): the loads that perforate a deck, passed to the level below
+and assessed there; ``through_level`` (CSV): the level a cascaded row came through.
 """
 
 from __future__ import annotations
@@ -46,6 +48,10 @@ CSV_COLUMNS: tuple[tuple[str, str], ...] = (
     ("support_rotation", "support_rotation_rad"),
     ("required_mat_stiffness", "required_mat_stiffness_N_per_m"),
     ("required_crush_stroke", "required_crush_stroke_m"),
+    ("penetration", "penetration_m"),
+    ("scabbing_height", "scabbing_height_m"),
+    ("perforation_height", "perforation_height_m"),
+    ("residual_velocity", "residual_velocity_m_per_s"),
 )
 """(CaseResult field, CSV column name with its SI unit)."""
 
@@ -101,8 +107,11 @@ def results_document(project: Any, results: Any, permit: Any = None) -> dict[str
     system = project.settings.unit_system
     permit = permit if permit is not None else derive_conditions(project, results)
     verdicts = {(v.zone_id, v.load_name, v.bay_id): v for v in permit.bays}
-    bays_out = []
-    for b in results.bays:
+
+    def bay_doc(b: Any) -> dict[str, Any]:
+        v = verdicts.get((b.zone_id, b.load_name, b.bay_id))
+        if v is None:  # a bay of the level below, reached through a perforated deck
+            return _cascade_bay_doc(b, system)
         d = asdict(b)
         v = verdicts[(b.zone_id, b.load_name, b.bay_id)]
         cells = v.cells(system)
@@ -114,7 +123,13 @@ def results_document(project: Any, results: Any, permit: Any = None) -> dict[str
         d["lift"] = b.zone_id
         d["level"] = b.level_id
         d["max_utilisation_unbounded"] = not math.isfinite(b.max_utilisation)
-        bays_out.append(d)
+        return d
+
+    bays_out = [bay_doc(b) for b in results.bays]
+    cascade_out = [{"lift": f.zone_id, "load": f.load_name, "from_level": f.from_level,
+                    "level": f.level_id, "equivalent_drop_height": f.equivalent_height,
+                    "points": int(f.case.n), "bays": [bay_doc(b) for b in f.bays]}
+                   for f in getattr(results, "cascade", ())]
     return _clean({
         "droprig_version": __version__,
         "project": project.info.name,
@@ -123,9 +138,23 @@ def results_document(project: Any, results: Any, permit: Any = None) -> dict[str
         "points": int(results.n_points),
         "permit": permit_document(project, permit),
         "bays": bays_out,
+        "level_below": cascade_out,
         "warnings": list(results.warnings),
         "caution": CAUTION,
     })
+
+
+def _cascade_bay_doc(b: Any, system: str) -> dict[str, Any]:
+    """A bay of the level below (cascade through a perforated deck): its summary and
+    advice; the permit of the level above names the level below as a condition."""
+    from droprig.advice import advice_text
+
+    d = asdict(b)
+    d["advice"] = advice_text(b, system)
+    d["lift"] = b.zone_id
+    d["level"] = b.level_id
+    d["max_utilisation_unbounded"] = not math.isfinite(b.max_utilisation)
+    return d
 
 
 def _cell(v: float) -> str:
@@ -143,10 +172,15 @@ def csv_text(project: Any, results: Any) -> str:
 
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
+    from droprig.model import STRIKE_ORIENTATIONS
+
     w.writerow(["lift", "load", "level", "bay", "protection", *[c for _, c in CSV_COLUMNS],
-                "governing_member", "governing_check", "response"])
+                "governing_member", "governing_check", "response", "scabbing",
+                "local_extrapolated", "strike_orientation", "through_level"])
     prot_ids = [p.id for p in project.protection_areas]
-    for case in results.cases:
+    rows = [(c, "") for c in results.cases]
+    rows += [(f.case, f.from_level) for f in getattr(results, "cascade", ())]
+    for case, through in rows:
         level = project.level(case.level_id)
         bay_ids = [b.id for b in bays(level)]
         mem_ids = [m.id for m in level.members]
@@ -160,7 +194,11 @@ def csv_text(project: Any, results: Any) -> str:
                         *[_cell(float(c[i])) for c in cols],
                         "deck" if g == DECK else mem_ids[g],
                         CHECKS[int(case.governing_check[i])],
-                        RESPONSES[int(case.response[i])]])
+                        RESPONSES[int(case.response[i])],
+                        "true" if case.scabbing[i] else "false",
+                        "true" if case.local_extrapolated[i] else "false",
+                        STRIKE_ORIENTATIONS[int(case.strike_orientation[i])]
+                        if case.strike_orientation[i] >= 0 else "", through])
     return buf.getvalue()
 
 
@@ -202,7 +240,10 @@ def bays_csv_text(project: Any, results: Any, permit: Any = None) -> str:
 
 def table_text(project: Any, results: Any, permit: Any = None) -> str:
     """Readable per-bay table in the project's unit system, then the permit."""
+    from droprig.advice import advice_text
+    from droprig.outcomes import fmt_utilisation
     from droprig.permit import derive_conditions
+    from droprig.units import fmt
 
     system = project.settings.unit_system
     permit = permit if permit is not None else derive_conditions(project, results)
@@ -236,6 +277,14 @@ def table_text(project: Any, results: Any, permit: Any = None) -> str:
     out.append("Not checked (separate sign-off):")
     for item in permit.not_checked:
         out.append(f"  - {item}")
+    for f in getattr(results, "cascade", ()):
+        out.append("")
+        out.append(f"Through the deck of level {f.from_level} to level {f.level_id}: "
+                   f"{f.load_name} ({f.zone_id}) strikes as if dropped "
+                   f"{fmt(f.equivalent_height, 'length', system)}")
+        for b in f.bays:
+            out.append(f"  {b.bay_id}: {b.response}, max U "
+                       f"{fmt_utilisation(b.max_utilisation)}; {advice_text(b, system)}")
     for wmsg in results.warnings:
         out.append(f"Warning: {wmsg}")
     out.append("")

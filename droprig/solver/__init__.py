@@ -11,18 +11,23 @@ names from ``droprig.solver`` and nothing from its modules
 * :func:`assess_member` — one member struck by one dropped load (``droprig check``);
 * :func:`member_resistances`, :func:`check_framing`, :func:`on_rigid_support` —
   framing questions without a drop;
+* :func:`resolve_drift`, :func:`zone_drift_margin` — the landing drift margin of a
+  lift zone (computed from the crane's motion, or as entered); :func:`is_hard` —
+  whether a load is checked for local damage of the deck;
 * the result types and their code tables.
 """
 
 from droprig.solver.analysis import analyse, floor_model
 from droprig.solver.cancel import AnalysisCancelledError, CancelToken, cancellable
 from droprig.solver.chain import planned_height
+from droprig.solver.drift import resolve_drift, zone_drift_margin
 from droprig.solver.framing import (
     Resistances,
     check_framing,
     member_resistances,
     on_rigid_support,
 )
+from droprig.solver.local_damage import is_hard
 from droprig.solver.member import DEFAULT_DEFLECTION_LIMIT_RATIO, RESULT_KEYS, assess_member
 from droprig.solver.results import (
     ADVICE_KINDS,
@@ -31,10 +36,12 @@ from droprig.solver.results import (
     ELASTIC,
     EXCEEDS,
     LIMIT_MARGIN,
+    PERFORATES,
     PLASTIC,
     RESPONSES,
     AdviceKind,
     BaySummary,
+    Cascade,
     CaseResult,
     Results,
     Trace,
@@ -50,6 +57,7 @@ __all__ = [
     "ELASTIC",
     "EXCEEDS",
     "LIMIT_MARGIN",
+    "PERFORATES",
     "PLASTIC",
     "RESPONSES",
     "RESULT_KEYS",
@@ -57,6 +65,7 @@ __all__ = [
     "AnalysisCancelledError",
     "BaySummary",
     "CancelToken",
+    "Cascade",
     "CaseResult",
     "Resistances",
     "Results",
@@ -67,8 +76,11 @@ __all__ = [
     "cancellable",
     "check_framing",
     "floor_model",
+    "is_hard",
     "member_resistances",
     "on_rigid_support",
     "planned_height",
+    "resolve_drift",
     "trace_point",
+    "zone_drift_margin",
 ]

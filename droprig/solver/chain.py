@@ -32,6 +32,11 @@ returns a small frozen dataclass of numpy arrays, one value per point:
    (:mod:`~droprig.solver.plastic`), on sections able to form a hinge only.
 8. :func:`inverse_answers` → :class:`InverseAnswers`: allowable drop heights, mass,
    mat stiffness, crush stroke (:mod:`~droprig.solver.limits`).
+9. :func:`local_damage` → :class:`LocalDamage`: penetration, scabbing and perforation
+   of the bare deck by a hard load, flat, on an edge and on a corner, the worst
+   governing (modified NDRC + Kennedy, UKAEA/Barr, Chang;
+   :mod:`~droprig.solver.local_damage`); a point that perforates reads
+   ``perforates`` whatever the framing does.
 
 :func:`run_chain` runs :data:`STEPS` in order; :func:`outputs` writes the
 :class:`~droprig.solver.results.CaseResult` arrays from a chain. A new physics step is
@@ -51,11 +56,12 @@ import numpy as np
 from droprig.model import Level, LiftLoad, ModelError, Project
 from droprig.solver import capacity, contact, deck, limits, plastic
 from droprig.solver import impact as impact_mod
+from droprig.solver import local_damage as local_damage_mod
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry
 from droprig.solver.linear_checks import Check, small_check
 from droprig.solver.loadpath import COND_NAMES
-from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PLASTIC
+from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PERFORATES, PLASTIC
 from droprig.solver.unit_actions import (
     UnitActions,
     argmax_nan_low,
@@ -76,6 +82,7 @@ __all__ = [
     "Impact",
     "InverseAnswers",
     "LoadInputs",
+    "LocalDamage",
     "StruckMass",
     "outputs",
     "planned_height",
@@ -91,7 +98,9 @@ FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
           "deceleration_g", "utilisation", "governing_member", "governing_check",
           "response", "allowable_drop_height", "allowable_drop_height_plastic",
           "allowable_mass", "plastic_deflection", "ductility", "support_rotation",
-          "required_mat_stiffness", "required_crush_stroke", "fall_height",
+          "required_mat_stiffness", "required_crush_stroke", "penetration", "scabbing",
+          "scabbing_height", "perforation_height", "residual_velocity",
+          "local_extrapolated", "strike_orientation", "fall_height",
           "structure_compliance", "allowable_height_check", "allowable_height_member",
           "allowable_height_plastic_check")
 """The :class:`~droprig.solver.results.CaseResult` arrays, in order."""
@@ -100,7 +109,8 @@ _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "pe
                     "max_deflection", "deceleration_g", "allowable_drop_height",
                     "allowable_drop_height_plastic", "allowable_mass",
                     "plastic_deflection", "ductility", "support_rotation",
-                    "required_mat_stiffness", "required_crush_stroke")
+                    "required_mat_stiffness", "required_crush_stroke", "penetration",
+                    "scabbing_height", "perforation_height", "residual_velocity")
 
 
 # --------------------------------------------------------------------------- the runner
@@ -680,6 +690,65 @@ def inverse_answers(c: Chain) -> InverseAnswers:
                           hp_check=hp_check)
 
 
+# --------------------------------------------------------------------------- 9. local damage
+@dataclass(frozen=True, eq=False)
+class LocalDamage:
+    """Per point: local damage of the bare deck by a hard load (worst of its strike
+    orientations; :func:`~droprig.solver.local_damage.load_local_damage`).
+    ``assessed``: a hard load on bare deck (no mat or crushable layer, no opening, no
+    declared soft underside). ``penetration`` (m), ``scabbing`` / ``perforation``
+    (bool), ``h_scab`` / ``h_perf`` (free fall at which each starts, m),
+    ``v_res`` (m/s after perforation), ``extrapolated`` (outside the formulas'
+    test speeds) and ``orientation`` (index into ``STRIKE_ORIENTATIONS``, −1 where
+    not assessed); nan / False elsewhere."""
+
+    assessed: np.ndarray
+    penetration: np.ndarray
+    scabbing: np.ndarray
+    perforation: np.ndarray
+    h_scab: np.ndarray
+    h_perf: np.ndarray
+    v_res: np.ndarray
+    extrapolated: np.ndarray
+    orientation: np.ndarray
+
+
+def local_damage(c: Chain) -> LocalDamage:
+    """:class:`LocalDamage` of the drop: each hard load
+    (:func:`~droprig.solver.local_damage.is_hard`) at its points on bare deck, free
+    fall ``LoadInputs.h``, the level's deck (full depth, its concrete and bottom
+    bars). Under a mat or a crushable layer the layer spreads the strike and the
+    deck is not assessed for local damage here (the contact checks judge it)."""
+    d, inp = c.drop, c[LoadInputs]
+    n = d.n
+    nan = np.full(n, np.nan)
+    out = {"assessed": np.zeros(n, dtype=bool), "penetration": nan.copy(),
+           "scabbing": np.zeros(n, dtype=bool), "perforation": np.zeros(n, dtype=bool),
+           "h_scab": nan.copy(), "h_perf": nan.copy(), "v_res": np.zeros(n),
+           "extrapolated": np.zeros(n, dtype=bool),
+           "orientation": np.full(n, -1, dtype=np.int64)}
+    bare = (inp.t_mat <= 0.0) & ~inp.crushable & ~d.geo.opening
+    deck_ = d.fm.level.deck
+    for j, load in enumerate(d.loads):
+        if not local_damage_mod.is_hard(load):
+            continue
+        sel = bare & (d.li == j) if len(d.loads) > 1 else bare
+        if not sel.any():
+            continue
+        r = local_damage_mod.load_local_damage(load, deck_, inp.h[sel])
+        orient = np.array([local_damage_mod.ORIENTATIONS.index(o) for o in r.orientations])
+        out["assessed"][sel] = True
+        out["penetration"][sel] = r.penetration
+        out["scabbing"][sel] = r.scabbing
+        out["perforation"][sel] = r.perforation
+        out["h_scab"][sel] = r.h_scabbing
+        out["h_perf"][sel] = r.h_perforation
+        out["v_res"][sel] = r.v_residual
+        out["extrapolated"][sel] = r.extrapolated
+        out["orientation"][sel] = orient[r.governing]
+    return LocalDamage(**out)
+
+
 # --------------------------------------------------------------------------- run
 STEPS: tuple[Callable[[Chain], object], ...] = (
     load_inputs,
@@ -690,6 +759,7 @@ STEPS: tuple[Callable[[Chain], object], ...] = (
     checks,
     beyond_yield,
     inverse_answers,
+    local_damage,
 )
 """The steps of the chain, in order (each reads only the results before it)."""
 
@@ -707,7 +777,7 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
     field names, and ``F_allow`` (N); at a deck opening the load falls through
     (U = ∞, exceeds, governing check ``opening``, no other value)."""
     d, inp, sm, imp = c.drop, c[LoadInputs], c[StruckMass], c[Impact]
-    ck, by, inv = c[Checks], c[BeyondYield], c[InverseAnswers]
+    ck, by, inv, ld = c[Checks], c[BeyondYield], c[InverseAnswers], c[LocalDamage]
     geo = d.geo
     comp = c[Compliance]
     out = {
@@ -727,7 +797,14 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "allowable_mass": inv.m_allow, "plastic_deflection": by.plastic_deflection,
         "ductility": by.ductility_out, "support_rotation": by.rotation_out,
         "required_mat_stiffness": inv.k_req, "required_crush_stroke": inv.s_req,
+        "penetration": ld.penetration, "scabbing": ld.scabbing,
+        # on the datum too: the fall at which each starts plus the pad's thickness
+        "scabbing_height": ld.h_scab + inp.t_mat, "perforation_height": ld.h_perf + inp.t_mat,
+        "residual_velocity": ld.v_res, "local_extrapolated": ld.extrapolated,
+        "strike_orientation": ld.orientation,
     }
+    if ld.perforation.any():
+        out["response"] = np.where(ld.perforation, PERFORATES, out["response"])
     op = geo.opening
     if op.any():
         for k in _NONE_AT_OPENING:

@@ -12,7 +12,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from droprig.model import Level, LiftLoad, LiftZone, bays
+from droprig.model import STRIKE_ORIENTATIONS, Level, LiftLoad, LiftZone, bays
 from droprig.solver import droppoints, impact
 from droprig.solver.floor import remember
 from droprig.solver.refine import severity
@@ -22,6 +22,7 @@ from droprig.solver.results import (
     ELASTIC,
     EXCEEDS,
     LIMIT_MARGIN,
+    PERFORATES,
     PLASTIC,
     RESPONSES,
     AdviceKind,
@@ -53,7 +54,8 @@ class Advice:
 
 
 def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
-               mat_travel: float | None = None, h_elastic: float | None = None) -> Advice:
+               mat_travel: float | None = None, h_elastic: float | None = None,
+               h_local: float | None = None) -> Advice:
     """What one bay needs: no protection, a drop-height limit of :data:`LIMIT_MARGIN`
     × ``h_allow`` (offered from :data:`MIN_USEFUL_HEIGHT` up, and only when the bay
     exceeds its limits), a spring mat no stiffer than :data:`LIMIT_MARGIN` × ``k_mat``
@@ -61,9 +63,16 @@ def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | 
     is its compression), acceptance of yielding with the engineer's
     approval, or an exclusion zone (deck opening, or no option found).
     ``height_limit_yields``: the height limit lets members yield (it exceeds the
-    elastic height ``h_elastic`` by more than 1 %). SI units (m, N/m)."""
+    elastic height ``h_elastic`` by more than 1 %). A hard load that perforates the
+    deck makes the level below an exclusion zone (``level_below``), with the drop
+    height ``h_local`` under which neither scabbing nor perforation starts offered as
+    a limit. SI units (m, N/m)."""
     if n_opening:
         return Advice("opening")
+    if resp == PERFORATES:
+        hl = LIMIT_MARGIN * float(h_local) if h_local is not None and \
+            LIMIT_MARGIN * h_local >= MIN_USEFUL_HEIGHT else None
+        return Advice("level_below", height_limit=hl)
     if resp == ELASTIC:
         return Advice("none")
     h: float | None = None
@@ -94,15 +103,16 @@ def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | 
 
 
 def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
-              allowed_force: np.ndarray,
+              allowed_force: np.ndarray, level_below: str | None = None,
               protection_ids: Sequence[str] = ()) -> list[BaySummary]:
     """One :class:`BaySummary` per bay that holds drop points of ``case``
-    (``allowed_force``: the elastic F_allow of each point, N; ``protection_ids``: the
-    ids of ``project.protection_areas``). A point on a shared grid line or at a column
-    counts for every bay it touches (closed bays). All bays are reduced at once over
-    a (bay, point) membership matrix. Each quantity is reported with the point and
-    the check that set it (the least allowable height need not come from the point
-    of largest utilisation)."""
+    (``allowed_force``: the elastic F_allow of each point, N; ``level_below``: id of
+    the level under this one, if the project holds it; ``protection_ids``: the ids of
+    ``project.protection_areas``). A point on a shared grid line or at a column counts
+    for every bay it touches (closed bays). All bays are reduced at once over a (bay,
+    point) membership matrix. Each quantity is reported with the point and the check
+    that set it (the least allowable height need not come from the point of largest
+    utilisation)."""
     out: list[BaySummary] = []
     all_bays = _bays(level)
     members = level.members
@@ -160,6 +170,12 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
     def mname(gm: int) -> str:
         return "deck" if gm == DECK else members[gm].id
 
+    scab = (M & case.scabbing).any(axis=1)
+    extrap = (M & case.local_extrapolated).any(axis=1)
+    h_scab = np.where(M, np.where(np.isnan(case.scabbing_height), np.inf,
+                                  case.scabbing_height), np.inf).min(axis=1)
+    h_perf = np.where(M, np.where(np.isnan(case.perforation_height), np.inf,
+                                  case.perforation_height), np.inf).min(axis=1)
     for b in np.flatnonzero(count):
         i = int(gov[b])
         wst = int(worst[b])
@@ -173,7 +189,11 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
         travel = float(travel_all[b]) if k_mat is not None and \
             math.isfinite(float(travel_all[b])) and travel_all[b] > 0 else None
         gm = int(case.governing_member[i])
-        adv = bay_advice(wst, int(n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he)
+        hs = float(h_scab[b]) if np.isfinite(h_scab[b]) else None
+        hpf = float(h_perf[b]) if np.isfinite(h_perf[b]) else None
+        adv = bay_advice(wst, int(n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he,
+                         min((v for v in (hs, hpf) if v is not None), default=None))
+        so = int(case.strike_orientation[i])
         lim_at = ihp if wst == EXCEEDS else ih
         if adv.height_limit is None:
             lim_chk = ""
@@ -206,7 +226,11 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
             protections=tuple(protection_ids[p] for p in pads if p < len(protection_ids)),
             allowable_mass=None if m_al_none[b] else float(m_al[b]),
             allowable_mass_x=None if m_al_none[b] else float(case.x[int(m_al_at[b])]),
-            allowable_mass_y=None if m_al_none[b] else float(case.y[int(m_al_at[b])])))
+            allowable_mass_y=None if m_al_none[b] else float(case.y[int(m_al_at[b])]),
+            scabbing=bool(scab[b]), scabbing_height=hs, perforation_height=hpf,
+            local_extrapolated=bool(extrap[b]),
+            strike_orientation=STRIKE_ORIENTATIONS[so] if so >= 0 else None,
+            level_below=level_below))
     return out
 
 
