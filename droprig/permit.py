@@ -96,6 +96,10 @@ SIG_HEIGHT = 3
 SIG_MASS = 3
 SIG_STIFFNESS = 3
 
+MIN_USEFUL_HEIGHT = 0.05
+"""A hook limit below this (m, above the finished surface) cannot be kept on site
+(common practice, no source; as droprig.solver's advice)."""
+
 YIELD_AT_LIMIT = ("a drop from the height limit lets members yield within the ductility "
                   "and rotation limits")
 YIELDS_AS_PLANNED = ("a drop as planned lets members yield within the ductility and "
@@ -438,11 +442,25 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
                                below_level_id=b.level_below or _level_below(project,
                                                                             b.level_id),
                                **base))
-    if kind == "level_below" and b.height_limit is not None and b.height_limit > thickest:
-        # the drop height under which neither scabbing nor perforation starts
-        conds.append(Condition("cap_hook", max_drop_height=b.height_limit,  # type: ignore
-                               max_hook_elevation=hook(b.height_limit),
-                               hang_length=load.hang_length, region=region, **base))
+    if kind == "level_below":
+        # a hard load perforates the deck as planned: a hook limit must keep it under
+        # the height where scabbing or perforation starts *and* within the framing's
+        # limits (90 % of the least plastic, else elastic, height); below 50 mm or
+        # under a pad's top no limit is practical and the bay is excluded
+        struct = b.allowable_drop_height_plastic if b.allowable_drop_height_plastic \
+            is not None else b.allowable_drop_height
+        lims = [v for v in (b.height_limit,
+                            None if struct is None else LIMIT_MARGIN * struct)]
+        cap = None if None in lims else min(lims)  # type: ignore[type-var]
+        if cap is not None and cap >= MIN_USEFUL_HEIGHT and cap > thickest:
+            conds.append(Condition("cap_hook", max_drop_height=cap,  # type: ignore
+                                   max_hook_elevation=hook(cap),
+                                   hang_length=load.hang_length, region=region, **base))
+            if b.allowable_drop_height is None or cap > 1.01 * b.allowable_drop_height:
+                conds.append(Condition("separate_signoff", detail=YIELD_AT_LIMIT,  # type: ignore
+                                       **base))
+        else:
+            kind = "keep_clear"
     if kind == "limit_height" or (kind == "limit_or_mat" and b.height_limit is not None):
         conds.append(Condition("cap_hook", max_drop_height=b.height_limit,  # type: ignore
                                max_hook_elevation=hook(b.height_limit),

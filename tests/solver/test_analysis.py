@@ -350,7 +350,7 @@ def test_bay_advice_kind(resp, n_open, h, k, travel, h_el, want):
 
 
 @pytest.mark.parametrize("h_local, want", [
-    (0.8, analysis.Advice("level_below", 0.8)), (0.01, analysis.Advice("level_below")),
+    (0.8, analysis.Advice("level_below", M * 0.8)), (0.01, analysis.Advice("level_below")),
     (None, analysis.Advice("level_below"))])
 def test_perforating_bay_names_the_level_below(h_local, want):
     # a perforating hard load: the level below is an exclusion zone whatever the
