@@ -68,6 +68,9 @@ def build_parser() -> argparse.ArgumentParser:
                    help="write the results as JSON to OUT ('-' for stdout)")
     s.add_argument("--csv", dest="csv_out", default=None, metavar="OUT",
                    help="write one row per drop point to OUT")
+    s.add_argument("--bays-csv", dest="bays_csv_out", default=None, metavar="OUT",
+                   help="write one row per bay and load (permit verdict, heights, hook "
+                        "elevation, conditions) to OUT")
     s.add_argument("--force", action="store_true",
                    help="allow an output name ending in .droprig (never the project itself)")
 

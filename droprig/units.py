@@ -215,6 +215,33 @@ def fmt(value: float | None, quantity: str, system: UnitSystem = "SI", *,
     return f"{text} {u}" if unit and u else text
 
 
+def sig_decimals(mag: float, sig: int) -> int:
+    """Decimals that show ``mag`` to ``sig`` significant figures (never fewer than 0):
+    0.0700 → 4, 0.930 → 3, 10.8 → 1, 4,980 → 0 (common practice, no source)."""
+    if mag == 0.0 or not math.isfinite(mag):
+        return max(sig - 1, 0)
+    return max(sig - 1 - math.floor(math.log10(abs(mag))), 0)
+
+
+def fmt_sig(value: float | None, quantity: str, system: UnitSystem = "SI", *,
+            sig: int = 3, unit: bool = True, rounding: Rounding = "nearest") -> str:
+    """As :func:`fmt`, to ``sig`` significant figures in the display unit (a small
+    allowable height keeps its digits: ``0.0176 m`` rather than ``0.018 m`` or
+    ``0.0 mm``; a large one does not print six of them). The rounding happens at the
+    shown digits, down for limits and up for amounts to provide."""
+    if value is None or (isinstance(value, float) and math.isnan(value)):
+        return "none"
+    if isinstance(value, float) and math.isinf(value):
+        return "unlimited"
+    mag = to_display(float(value), quantity, system)
+    d = sig_decimals(mag, sig)
+    mag = round_display(mag, d, rounding)
+    d = sig_decimals(mag, sig) if mag != 0.0 else d  # 0.0999 rounded up to 0.1
+    text = f"{mag:,.{d}f}"
+    u = display_unit(quantity, system)
+    return f"{text} {u}" if unit and u else text
+
+
 def nice_length(target: float) -> float:
     """The largest 1, 2 or 5 × 10^k not above ``target`` (> 0): a round length
     for a scale bar (common practice, no source)."""

@@ -40,7 +40,6 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
-from droprig.advice import advice_text
 from droprig.gui import commands as ed
 from droprig.gui import style
 from droprig.gui.document import Document, Selection, resolve
@@ -62,6 +61,7 @@ from droprig.model import (
     lift_point_tags,
 )
 from droprig.outcomes import fmt_utilisation
+from droprig.permit import derive_conditions
 
 # ------------------------------------------------------------------ messages
 
@@ -532,7 +532,9 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
         ]
         if ld.drop_height is not None:
             fields.append(_q("drop_height", "Drop height", "length",
-                             "Free fall from the load's underside to the deck or mat top"))
+                             "Height of the load's underside above the finished surface "
+                             "(top of deck); over a pad the fall is this less its "
+                             "thickness"))
         else:
             fields += [_q("hook_elevation", "Hook elevation", "length",
                           "Same datum as level elevations"),
@@ -1063,14 +1065,24 @@ class Inspector(QWidget):
         else:
             html = "<p><b>Outcome in this bay</b></p>"
             order = {k: i for i, k in enumerate(style.OUTCOME_ORDER)}
+            # the permit's words and figures (droprig.permit), as in the results table
+            permit = derive_conditions(self._doc.project, res) if res is not None else None
+            verdicts = {(v.zone_id, v.load_name, v.bay_id): v
+                        for v in (permit.bays if permit is not None else ())}
             for b in sorted(rows, key=lambda r: -order.get(r.response, -1)):
                 st = style.outcome(b.response)
-                allow = style.fmt_drop(b.allowable_drop_height, system)
+                v = verdicts.get((b.zone_id, b.load_name, b.bay_id))
+                cells = v.cells(system) if v is not None else None
+                allow = cells["allowable"] if cells else "none"
                 html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
                          f"{b.load_name}<br>max U {fmt_utilisation(b.max_utilisation)}; "
-                         f"allowable drop {allow}<br>governing: {b.governing_member} "
-                         f"({b.governing_check.replace('_', ' ')})<br>"
-                         f"<i>{html_escape(advice_text(b, system))}</i></p>")
+                         f"allowable drop {html_escape(allow)}<br>governing: "
+                         f"{b.governing_member} ({b.governing_check.replace('_', ' ')})")
+                if cells:
+                    html += (f"<br><b>{html_escape(cells['verdict'])}</b>; max hook "
+                             f"elevation {html_escape(cells['hook'])}<br>"
+                             f"<i>{html_escape(cells['conditions'])}</i>")
+                html += "</p>"
         html += f"<p style='color:#6B4E00'>⚠ {style.CAUTION_SHORT}.</p>"
         self._extra.setText(html)
         self._extra.setVisible(True)

@@ -34,12 +34,12 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
-from droprig.advice import advice_text
 from droprig.gui import style
 from droprig.gui.document import Document, Selection
 from droprig.model import Project
-from droprig.outcomes import fmt_utilisation
+from droprig.permit import BayVerdict, PermitConditions, derive_conditions
 from droprig.solver import BaySummary, Results
+from droprig.texts import CAUTION
 
 SORT_ROLE = Qt.ItemDataRole.UserRole + 1
 ROW_ROLE = Qt.ItemDataRole.UserRole + 2
@@ -48,13 +48,19 @@ COLUMNS: tuple[tuple[str, str], ...] = (
     ("bay", "Bay"),
     ("zone", "Zone"),
     ("load", "Load"),
+    ("verdict", "Verdict"),
     ("outcome", "Outcome"),
-    ("util", "Max U"),
-    ("allow", "Allowable drop: elastic (yielding)"),
-    ("planned", "Planned drop"),
-    ("governing", "Governing member · check"),
-    ("advice", "Advice"),
+    ("util", "Max U (check)"),
+    ("allow", "Allowable drop height, elastic (check)"),
+    ("hook", "Max hook elevation"),
+    ("planned", "Planned drop height"),
+    ("governing", "Worst point: member · check"),
+    ("advice", "Permit conditions"),
 )
+"""Columns; the verdict, U, heights, hook elevation and conditions are the cells of
+:meth:`droprig.permit.BayVerdict.cells` (the same text the CLI and the annex print)."""
+CELL_OF = {"verdict": "verdict", "util": "utilisation", "allow": "allowable", "hook": "hook",
+           "planned": "planned", "advice": "conditions"}
 COL = {key: i for i, (key, _) in enumerate(COLUMNS)}
 
 _TIPS = {
@@ -62,10 +68,15 @@ _TIPS = {
                "Y: yields within limits, X: exceeds limits.",
     "util": "Maximum utilisation U = demand / resistance of any check at any drop point "
             "in the bay, as a ratio: above 1.00 a check is exceeded; '> 99' beyond 99",
-    "allow": "Greatest free fall that keeps every point of the bay elastic; in brackets "
-             "the greatest that keeps it within the ductility and rotation limits, where "
-             "that is more",
-    "planned": "Free-fall height of the load as planned (onto the deck or mat top)",
+    "allow": "Greatest drop height (load underside above the finished surface) that keeps "
+             "every point of the bay elastic, with the check that sets it; where a pad "
+             "lies at that point, the fall onto the pad",
+    "hook": "Hook elevation that puts the load's underside at the allowable drop height "
+            "(level elevation + hang length + allowable height)",
+    "planned": "Drop height as planned: the load's underside above the finished surface",
+    "verdict": "Acceptable; acceptable with the permit conditions; not acceptable (keep the "
+               "load off the bay). Defer to local codes, the appointed lifting person and a "
+               "licensed engineer.",
 }
 
 
@@ -106,7 +117,8 @@ class BayResultsModel(QAbstractTableModel):
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent)
         self._rows: tuple[BaySummary, ...] = ()
-        self._planned: dict[tuple[str, str], float] = {}
+        self._verdicts: dict[tuple[str, str, str], BayVerdict] = {}
+        self.permit: PermitConditions | None = None
         self._system: units.UnitSystem = "SI"
         self._level_names: dict[str, str] = {}
         self._stale = False
@@ -114,8 +126,9 @@ class BayResultsModel(QAbstractTableModel):
     def set_data(self, results: Results | None, project: Project, stale: bool = False) -> None:
         self.beginResetModel()
         self._rows = results.bays if results is not None else ()
-        self._planned = {(c.zone_id, c.load_name): c.planned_drop_height
-                         for c in (results.cases if results is not None else ())}
+        self.permit = derive_conditions(project, results) if results is not None else None
+        self._verdicts = {(v.zone_id, v.load_name, v.bay_id): v
+                          for v in (self.permit.bays if self.permit is not None else ())}
         self._system = project.settings.unit_system
         self._level_names = {lv.id: lv.name for lv in project.levels} \
             if len(project.levels) > 1 else {}
@@ -131,6 +144,15 @@ class BayResultsModel(QAbstractTableModel):
 
     def row(self, i: int) -> BaySummary:
         return self._rows[i]
+
+    def verdict(self, b: BaySummary) -> BayVerdict | None:
+        """The permit verdict of a row (None if the results no longer hold it)."""
+        return self._verdicts.get((b.zone_id, b.load_name, b.bay_id))
+
+    def cell(self, b: BaySummary, key: str) -> str:
+        """The permit cell ``key`` of :data:`CELL_OF` for a row."""
+        v = self.verdict(b)
+        return v.cells(self._system)[CELL_OF[key]] if v is not None else "none"
 
     def rowCount(self, parent: QModelIndex | QPersistentModelIndex = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(self._rows)
@@ -166,9 +188,9 @@ class BayResultsModel(QAbstractTableModel):
         if role == Qt.ItemDataRole.ToolTipRole:
             if key == "util":
                 return _TIPS["util"]
-            # the advice column is often scrolled out of view: every other cell
+            # the conditions column is often scrolled out of view: every other cell
             # of the row gives it on hover
-            advice = advice_text(b, self._system)
+            advice = self.cell(b, "advice")
             if key == "outcome":
                 return f"{style.outcome(b.response).meaning}\n{advice}"
             return advice
@@ -179,12 +201,12 @@ class BayResultsModel(QAbstractTableModel):
             return f
         if role == Qt.ItemDataRole.ForegroundRole and self._stale:
             return QColor("#9A9A9A")
-        if role == Qt.ItemDataRole.TextAlignmentRole and key in ("util", "allow", "planned"):
+        if role == Qt.ItemDataRole.TextAlignmentRole and key in ("util", "allow", "planned",
+                                                                  "hook"):
             return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
         return None
 
     def _text(self, b: BaySummary, key: str) -> str:
-        s = self._system
         if key == "bay":
             lv = self._level_names.get(b.level_id)
             return f"{lv}: {b.bay_id}" if lv else b.bay_id
@@ -195,21 +217,10 @@ class BayResultsModel(QAbstractTableModel):
         if key == "outcome":
             st = style.outcome(b.response)
             return f"{st.tag}  {st.label}"
-        if key == "util":
-            return fmt_utilisation(b.max_utilisation)
-        if key == "allow":
-            el = style.fmt_drop(_fin(b.allowable_drop_height), s)
-            pl = _fin(b.allowable_drop_height_plastic)
-            pl_text = style.fmt_drop(pl, s)
-            if pl is None or pl_text == el:
-                return el
-            return f"{el}  ({pl_text})"
-        if key == "planned":
-            return units.fmt(self._planned.get((b.zone_id, b.load_name)), "length", s)
+        if key in CELL_OF:
+            return self.cell(b, key)
         if key == "governing":
             return f"{b.governing_member} · {b.governing_check.replace('_', ' ')}"
-        if key == "advice":
-            return advice_text(b, s)
         return ""
 
     def _sort(self, b: BaySummary, key: str) -> Any:
@@ -222,8 +233,15 @@ class BayResultsModel(QAbstractTableModel):
             v = _fin(b.allowable_drop_height)
             return -1.0 if v is None else v
         if key == "planned":
-            v = self._planned.get((b.zone_id, b.load_name))
-            return -1.0 if v is None else v
+            return -1.0 if b.planned_drop_height is None else b.planned_drop_height
+        if key == "hook":
+            bv = self.verdict(b)
+            h = None if bv is None else bv.max_hook_elevation
+            return -math.inf if h is None else h
+        if key == "verdict":
+            bv = self.verdict(b)
+            return -1 if bv is None else ("acceptable", "acceptable_with_conditions",
+                                          "not_acceptable").index(bv.verdict)
         return self._text(b, key)
 
 
@@ -283,8 +301,9 @@ class ResultsTable(QWidget):
         hh.setStretchLastSection(True)
         hh.setMinimumSectionSize(48)
         hfm = QFontMetrics(header_font(hh))
-        for key, w in (("bay", 64), ("zone", 48), ("load", 130), ("outcome", 170),
-                       ("util", 80), ("allow", 120), ("planned", 80), ("governing", 200)):
+        for key, w in (("bay", 64), ("zone", 48), ("load", 130), ("verdict", 150),
+                       ("outcome", 130), ("util", 110), ("allow", 180), ("hook", 100),
+                       ("planned", 80), ("governing", 180)):
             header = COLUMNS[COL[key]][1]
             # the header's own (bold) font, its padding and the sort arrow
             self.view.setColumnWidth(COL[key], max(w, hfm.horizontalAdvance(header)
@@ -376,8 +395,13 @@ class ResultsTable(QWidget):
         parts = [f"{style.outcome(k).label}: {counts[k]}"
                  for k in reversed(style.OUTCOME_ORDER) if counts.get(k)]
         stale = "  (updating…)" if not self._doc.results_current else ""
-        self.summary.setText(f"{len(res.bays)} rows, one per bay and load — "
+        permit = self.model.permit
+        verdict = f"<b>{permit.verdict_words}</b> — " if permit is not None else ""
+        self.summary.setText(f"{verdict}{len(res.bays)} rows, one per bay and load — "
                              + " · ".join(parts) + stale)
+        # the caution stands in the window's status bar beside every verdict; here
+        # on hover
+        self.summary.setToolTip(CAUTION)
 
     # -------------------------------------------------------------- selection sync
 

@@ -61,6 +61,7 @@ SCHEMA_PATH = Path(__file__).resolve().parents[2] / "resources" / "droprig.schem
 __all__ = [
     "FORMAT_VERSION",
     "MIGRATIONS",
+    "MIGRATION_NOTES",
     "SCHEMA_PATH",
     "ProjectFileError",
     "dumps_project",
@@ -457,20 +458,57 @@ def _migrate_0_to_1(doc: dict[str, Any]) -> dict[str, Any]:
 
 
 def _migrate_1_to_2(doc: dict[str, Any]) -> dict[str, Any]:
-    """Format 2 adds optional permit data: ``info.permit_number``,
-    ``info.lift_plan_revision``, ``info.valid_from`` / ``valid_to``; per lift
-    zone ``crane_description``, ``crane_configuration`` and ``lift_points``; per
-    load ``mass_source``. A format-1 file recorded none of them: nothing is
-    added (absent = not recorded, which the annex flags on page 1); no value is
-    guessed."""
+    """Format 2: one drop-height datum. ``drop_height_m`` is the height of the load's
+    underside above the finished surface of the level (format 1 measured it to the
+    deck or to the top of a pad or mat, whichever was struck). The numbers are kept;
+    where a pad or mat lies on the zone's level the fall onto it is now the value less
+    the pad's thickness, which :func:`migration_notes` tells the user. Format 2 also
+    adds optional permit data (``info.permit_number``, ``info.lift_plan_revision``,
+    ``info.valid_from`` / ``valid_to``; per zone ``crane_description``,
+    ``crane_configuration``, ``lift_points``; per load ``mass_source``): a format-1
+    file recorded none of them, so nothing is added (absent = not recorded, flagged
+    on page 1 of the annex); no value is guessed."""
     doc["format_version"] = 2
     return doc
+
+
+def _notes_1_to_2(doc: dict[str, Any]) -> list[str]:
+    """What the format 1 → 2 step changes in meaning: one note per load given by drop
+    height on a level that carries a pad or mat (hook-elevation loads read the same)."""
+    pads: dict[str, list[str]] = {}
+    for pa in _list(doc.get("protection_areas")):
+        if isinstance(pa, dict):
+            t = pa.get("thickness_m", 0.2)
+            pads.setdefault(str(pa.get("level_id")), []).append(
+                f"{pa.get('id')} ({t:g} m)" if isinstance(t, int | float) else str(pa.get("id")))
+    notes = []
+    for zone in _list(doc.get("lift_zones")):
+        if not isinstance(zone, dict):
+            continue
+        on = pads.get(str(zone.get("level_id")))
+        for ld in _list(zone.get("loads")):
+            if isinstance(ld, dict) and "drop_height_m" in ld and on:
+                notes.append(
+                    f"load {ld.get('name')} (zone {zone.get('id')}): its drop height "
+                    f"{ld['drop_height_m']:g} m is now measured from the finished surface "
+                    f"of level {zone.get('level_id')}, no longer from the top of a pad or "
+                    f"mat; over {', '.join(on)} the fall is that much less. Check the "
+                    "value and save the project to keep the new meaning.")
+    return notes
+
+
+def _list(v: Any) -> list[Any]:
+    return v if isinstance(v, list) else []
 
 
 MIGRATIONS: dict[int, Callable[[dict[str, Any]], dict[str, Any]]] = {
     0: _migrate_0_to_1, 1: _migrate_1_to_2}
 """``MIGRATIONS[v]`` turns a format-``v`` document into a format-``v + 1`` one.
 Each step works on its own deep copy; a failing step leaves nothing half done."""
+
+MIGRATION_NOTES: dict[int, Callable[[dict[str, Any]], list[str]]] = {1: _notes_1_to_2}
+"""``MIGRATION_NOTES[v]``: what the step from format ``v`` changes in meaning, in
+words for the user (read from the format-``v`` document)."""
 
 
 def _reject_constant(name: str) -> float:
@@ -633,9 +671,16 @@ def _check_version(doc: Any) -> int:
     return v
 
 
-def _migrate(doc: dict[str, Any], version: int) -> dict[str, Any]:
+def _migrate(doc: dict[str, Any], version: int,
+             notes: list[str] | None = None) -> dict[str, Any]:
     while version < FORMAT_VERSION:
         step = MIGRATIONS.get(version)
+        if notes is not None and version in MIGRATION_NOTES:
+            try:
+                notes.extend(MIGRATION_NOTES[version](doc))
+            except Exception:  # a note must never stop a file from opening
+                notes.append(f"the file was converted from format {version}; check its "
+                             "loads' drop heights")
         if step is None:
             raise ProjectFileError([f"$.format_version: no conversion from format {version}"])
         try:
@@ -735,10 +780,13 @@ def _schema_problems(doc: dict[str, Any]) -> list[str]:
     return [f"{_json_path(p)}: {m}" for p, m in out]
 
 
-def loads_project(text: str, *, source: str | None = None) -> Project:
+def loads_project(text: str, *, source: str | None = None,
+                  notes: list[str] | None = None) -> Project:
     """Parse, check, migrate and build a project from file text.
 
     Raises :class:`ProjectFileError` listing every problem with its JSON path.
+    ``notes``, if given, receives what a migration from an older format changed in
+    meaning (for the user to check; :data:`MIGRATION_NOTES`).
     """
     try:
         if len(text) > bounds.MAX_FILE_BYTES:
@@ -751,7 +799,7 @@ def loads_project(text: str, *, source: str | None = None) -> Project:
         raw = _to_floats(parsed, [], problems)
         if problems:
             raise ProjectFileError(problems)
-        doc = _migrate(raw, _check_version(raw))
+        doc = _migrate(raw, _check_version(raw), notes)
         problems = _schema_problems(doc)
         if problems:
             raise ProjectFileError(problems)
@@ -767,10 +815,10 @@ def _too_large(n: int) -> str:
             f"{bounds.MAX_FILE_BYTES:,} bytes")
 
 
-def load_project(path: str | os.PathLike[str]) -> Project:
+def load_project(path: str | os.PathLike[str], *, notes: list[str] | None = None) -> Project:
     """Read a ``.droprig`` file of at most :data:`~droprig.model.bounds.MAX_FILE_BYTES`.
     Raises :class:`ProjectFileError` (bad content) or :class:`OSError` (cannot read
-    the file)."""
+    the file). ``notes``: see :func:`loads_project`."""
     p = Path(path)
     with open(p, "rb") as fh:
         data = fh.read(bounds.MAX_FILE_BYTES + 1)
@@ -781,7 +829,7 @@ def load_project(path: str | os.PathLike[str]) -> Project:
         text = data.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
         raise ProjectFileError([f"$: not UTF-8 text (byte {exc.start})"], str(p)) from None
-    return loads_project(text, source=str(p))
+    return loads_project(text, source=str(p), notes=notes)
 
 
 # --------------------------------------------------------------------------- building

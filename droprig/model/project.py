@@ -323,10 +323,13 @@ class Level:
 class LiftLoad:
     """A load (or a rigging item) that could drop.
 
-    Give either ``drop_height`` (m from the load's underside to the deck top or
-    mat top) or ``hook_elevation`` (m, same datum as level elevations) with
-    ``hang_length`` from the hook to the load's underside. Footprint is the plan
-    contact size of the load's underside, m.
+    Give either ``drop_height`` (m, the load's underside above the finished surface
+    — top of deck — of the zone's level) or ``hook_elevation`` (m, same datum as
+    level elevations) with ``hang_length`` from the hook to the load's underside;
+    both mean the same height (drop height = hook elevation − hang length − level
+    elevation), droprig's one datum. Over a pad or mat the load falls that height
+    less the pad's thickness. Footprint is the plan contact size of the load's
+    underside, m.
 
     ``contact_stiffness`` (N/m): stiffness of the load's own underside where it
     strikes — skid, base frame, timber dunnage or bearers — acting in series with
@@ -406,7 +409,9 @@ class LiftLoad:
         return self.mass * 9.80665
 
     def height_above(self, surface_elevation: float) -> float:
-        """Free-fall height onto a surface at ``surface_elevation`` (m), ≥ 0."""
+        """Height of the load's underside above the level's finished surface at
+        ``surface_elevation`` (m, the level's elevation), ≥ 0: ``drop_height`` as
+        given, or hook elevation − hang length − ``surface_elevation``."""
         if self.drop_height is not None:
             return self.drop_height
         assert self.hook_elevation is not None

@@ -31,9 +31,10 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 
 from droprig import __version__
-from droprig.advice import advice_text
 from droprig.io.atomic import atomic_path
 from droprig.model import Level, LiftZone, ModelError, Project, bays
+from droprig.permit import VERDICT_WORDS as _PERMIT_WORDS
+from droprig.permit import derive_conditions
 from droprig.report import content, fonts, permit_fields, references
 from droprig.report.formula import SIG, evaluate, fmt_sig, printed_tolerance
 from droprig.report.text import esc, fmt_util, fmt_value, is_none
@@ -136,92 +137,19 @@ SIGNATURES: tuple[tuple[str, str, str], ...] = (
 # --------------------------------------------------------------- permit conditions
 
 
-@dataclass(frozen=True)
-class _FallbackCondition:
-    """A stand-in for ``droprig.permit.Condition`` used only while that module is
-    not installed: the bay advice as a condition."""
-
-    kind: str
-    zone_id: str
-    load_name: str | None
-    level_id: str
-    bays: tuple[str, ...] = ()
-    protection_id: str | None = None
-    max_hook_elevation: float | None = None
-    max_drop_height: float | None = None
-    text: str = ""
-
-    def sentence(self, system: str = "SI") -> str:
-        return self.text
-
-
-@dataclass(frozen=True)
-class _FallbackLoad:
-    zone_id: str
-    load_name: str
-    verdict: str
-    conditions: tuple[_FallbackCondition, ...]
-
-
-@dataclass(frozen=True)
-class _FallbackPermit:
-    verdict: str
-    loads: tuple[_FallbackLoad, ...]
-    conditions: tuple[_FallbackCondition, ...]
-    not_checked: tuple[str, ...] = ()
-
-    @property
-    def verdict_words(self) -> str:
-        return VERDICT_WORDS[self.verdict]
-
-
-VERDICT_WORDS = {"acceptable": "Acceptable",
-                 "acceptable_with_conditions": "Acceptable with conditions",
-                 "not_acceptable": "Not acceptable"}
+VERDICT_WORDS = _PERMIT_WORDS
+"""The verdict words (droprig.permit)."""
 _VERDICT_RANK = ("acceptable", "acceptable_with_conditions", "not_acceptable")
 _VERDICT_STYLE = {"acceptable": "elastic", "acceptable_with_conditions": "plastic",
                   "not_acceptable": "exceeds"}
 
 
-def _fallback_conditions(project: Project, results: Results) -> _FallbackPermit:
-    loads, every = [], []
-    for z in project.lift_zones:
-        for ld in z.loads:
-            conds = []
-            sums = [b for b in results.bays if b.zone_id == z.id and b.load_name == ld.name]
-            excluded = 0
-            for b in sums:
-                if b.advice_kind == "none":
-                    continue
-                kind = {"keep_clear": "exclude_area", "opening": "exclude_area",
-                        "limit_height": "cap_hook", "mat": "lay_protection",
-                        "limit_or_mat": "cap_hook"}.get(b.advice_kind, "separate_signoff")
-                excluded += kind == "exclude_area"
-                conds.append(_FallbackCondition(
-                    kind, z.id, ld.name, b.level_id, (b.bay_id,),
-                    max_drop_height=b.height_limit,
-                    text=f"Bay {b.bay_id} of level {b.level_id}, {ld.name}: "
-                         + advice_text(b, project.settings.unit_system)))
-            verdict = ("not_acceptable" if sums and excluded == len(sums) else
-                       "acceptable_with_conditions" if conds else "acceptable")
-            loads.append(_FallbackLoad(z.id, ld.name, verdict, tuple(conds)))
-            every.extend(conds)
-    worst = max((lv.verdict for lv in loads), key=_VERDICT_RANK.index, default="acceptable")
-    return _FallbackPermit(worst, tuple(loads), tuple(every))
-
-
 def permit_conditions(project: Project, results: Results) -> object:
-    """THE ONE PLACE the annex gets its verdict and permit conditions from.
-
+    """THE ONE PLACE the annex gets its verdict and permit conditions from:
     ``droprig.permit.derive_conditions`` (the conditions engine shared with the
-    window and the command line) when it is installed; until then a stand-in that
-    turns each bay's advice into a condition. The annex prints the objects'
+    window and the command line). The annex prints the objects'
     ``sentence(system)`` and composes no condition sentence of its own.
     """
-    try:
-        from droprig.permit import derive_conditions  # type: ignore[import-not-found]
-    except ImportError:
-        return _fallback_conditions(project, results)
     return derive_conditions(project, results)
 
 
@@ -1007,8 +935,11 @@ class _Builder:
                         o = content.OUTCOMES.get(b.response,
                                                  content.OUTCOMES[content.NOT_ASSESSED])
                         nums = sorted(set(conds_of.get((z.id, ld.name, bay.id), [])))
+                        # max U with its own check (the worst point's check can
+                        # differ: droprig.solver.results.BaySummary)
+                        u_chk = b.utilisation_check or b.governing_check
                         row += [o.tag, self.P(f"{fmt_util(b.max_utilisation)} "
-                                              f"{esc(b.governing_check.replace('_', ' '))}"),
+                                              f"{esc(u_chk.replace('_', ' '))}"),
                                 _h_small(b.allowable_drop_height, self.sys),
                                 self.P(" ".join(f"C{n}" for n in nums))]
                         r = len(rows)

@@ -85,11 +85,12 @@ def test_short_allowable_drop_in_mm_or_in(height: float | None, system: str,
     assert style.fmt_drop(height, system) == expected  # type: ignore[arg-type]
 
 
-def test_allowable_drop_header_names_both_values() -> None:
-    """The column gives the elastic limit and, in brackets, the yielding one: the
-    header says both. Common practice, no source."""
+def test_allowable_drop_header_names_its_check() -> None:
+    """The column gives the elastic allowable height and, in brackets, the check that
+    sets it (each quantity with its own check); the height a yielding bay may be
+    dropped from is a permit condition. Common practice, no source."""
     header = dict(COLUMNS)["allow"]
-    assert "elastic" in header and "(yielding)" in header
+    assert "elastic" in header and "(check)" in header
     assert COL["allow"] == [k for k, _ in COLUMNS].index("allow")
 
 
