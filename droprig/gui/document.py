@@ -3,7 +3,8 @@ latest results, and the autosave / crash-recovery files.
 
 Widgets take a :class:`Document` and subscribe to its signals; they never keep a
 copy of the project. Every edit goes through :meth:`Document.edit`, which pushes a
-:class:`~droprig.gui.commands.ProjectEdit` (undoable).
+:class:`~droprig.gui.commands.ProjectEdit` (undoable); the edits themselves are
+pure functions in :mod:`droprig.gui.edits`.
 """
 
 from __future__ import annotations
@@ -180,17 +181,28 @@ class Document(QObject):
 
     # -------------------------------------------------------------- edits
 
-    def edit(self, after: Project, text: str) -> bool:
+    def edit(self, after: Project, text: str, *, select: Selection | None = None) -> bool:
         """Push an undoable swap to ``after``. Returns False (and pushes
-        nothing) if ``after`` equals the current project."""
+        nothing) if ``after`` equals the current project.
+
+        ``select``: the selection that goes with ``after`` when the edit changes
+        the selected object's ids (a load renamed). It is installed before any
+        panel hears of the new project, so no panel sees a selection that points
+        at nothing; undo brings the old selection back with the old project."""
         if after == self._project:
             return False
-        self.undo_stack.push(ProjectEdit(self, self._project, after, text))
+        before_sel = self._selection if select is not None else None
+        self.undo_stack.push(ProjectEdit(self, self._project, after, text,
+                                         before_sel, select))
         return True
 
-    def _swap(self, project: Project) -> None:
-        """Install ``project`` (called by undo commands only)."""
+    def _swap(self, project: Project, selection: object = None) -> None:
+        """Install ``project`` (called by undo commands only), with ``selection``
+        when given (see :meth:`edit`)."""
         self._project = project
+        old_sel = self._selection
+        if isinstance(selection, Selection) and resolve(project, selection) is not None:
+            self._selection = selection
         self.revision += 1
         if project.levels and self._level_id not in {lv.id for lv in project.levels}:
             self._level_id = project.levels[0].id
@@ -201,6 +213,8 @@ class Document(QObject):
         self.project_changed.emit(project)
         if self._selection is not None and resolve(project, self._selection) is None:
             self.select(None)
+        elif self._selection != old_sel:
+            self.selection_changed.emit(self._selection)
 
     def reset(self, project: Project, path: Path | None = None, *, dirty: bool = False) -> None:
         """Replace the whole document (open, new, recover): clears undo history."""

@@ -35,7 +35,7 @@ from PySide6.QtWidgets import (
 
 from droprig import __version__, units
 from droprig.cli import CAUTION
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui import style
 from droprig.gui.analysis_runner import AnalyseFn, AnalysisRunner
 from droprig.gui.document import (
