@@ -639,6 +639,7 @@ class FormEditor(QWidget):
         if sig != self._signature:
             focus = QApplication.focusWidget()
             focus_key = next((k for k, w in self._editors.items() if w is focus), None)
+            focus_key = focus_key if focus_key in {f.key for f in form.fields} else None
             self._clear()
             for spec in form.fields:
                 w = self._make_editor(spec)
@@ -669,6 +670,7 @@ class FormEditor(QWidget):
         objects Qt was still using: a double free. Here they are hidden,
         detached from the focus chain and handed to ``deleteLater``; the focus,
         if it was in the form, is parked on the editor itself."""
+        self._editors.clear()  # first: a box losing the focus below commits nothing
         focus = QApplication.focusWidget()
         had_focus = focus is not None and (focus is self or self.isAncestorOf(focus))
         if had_focus:
@@ -681,7 +683,6 @@ class FormEditor(QWidget):
                     w.hide()
                     w.setEnabled(False)
                     w.deleteLater()
-        self._editors.clear()
 
     def _make_editor(self, spec: FieldSpec) -> QWidget:
         system = self._system_fn()

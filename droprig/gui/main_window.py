@@ -111,6 +111,23 @@ def _check_framing(before: Project, after: Project, level_id: str) -> None:
     build_frame(after.level(level_id))
 
 
+def redo_keys() -> list[QKeySequence]:
+    """The platform's redo keys plus the other common one: Ctrl+Y and
+    Ctrl+Shift+Z both redo on Linux and Windows (macOS: Cmd+Shift+Z)."""
+    keys = QKeySequence.keyBindings(QKeySequence.StandardKey.Redo)
+    for extra in ("Ctrl+Y", "Ctrl+Shift+Z"):
+        k = QKeySequence(extra)
+        if k not in keys:
+            keys.append(k)
+    return keys
+
+
+def quit_keys() -> list[QKeySequence]:
+    """The platform's quit keys, with Ctrl+Q where the platform has none (Windows)."""
+    keys = QKeySequence.keyBindings(QKeySequence.StandardKey.Quit)
+    return keys or [QKeySequence("Ctrl+Q")]
+
+
 def _describe(exc: BaseException) -> str:
     from droprig.commands import describe_error
 
@@ -171,7 +188,9 @@ class MainWindow(QMainWindow):
              tip: str = "") -> QAction:
         a = QAction(text, self)
         a.setObjectName(f"action_{name}")
-        if shortcut is not None:
+        if isinstance(shortcut, QKeySequence.StandardKey):
+            a.setShortcuts(shortcut)  # every platform binding (Close: Ctrl+F4 and Ctrl+W)
+        elif shortcut is not None:
             a.setShortcut(shortcut)  # type: ignore[arg-type]
         if tip:
             a.setToolTip(tip)
@@ -188,11 +207,14 @@ class MainWindow(QMainWindow):
         self._act("save", "&Save", self.save, K.Save, "Save the project")
         self._act("save_as", "Save &As…", self.save_as, K.SaveAs,
                   "Save the project under a new name")
+        self._act("close", "&Close", self.close_project, K.Close,
+                  "Close this project (asks first if it has unsaved changes)")
         self._act("quit", "&Quit", self.close, K.Quit)
+        self.actions["quit"].setShortcuts(quit_keys())
         undo = self.doc.undo_stack.createUndoAction(self, "&Undo")
-        undo.setShortcut(K.Undo)
+        undo.setShortcuts(K.Undo)
         redo = self.doc.undo_stack.createRedoAction(self, "&Redo")
-        redo.setShortcut(K.Redo)
+        redo.setShortcuts(redo_keys())
         self.actions["undo"], self.actions["redo"] = undo, redo
         self._act("delete", "&Delete", self.delete_selection, K.Delete,
                   "Delete the selected girder or beam, lift zone, load, protection area, "
@@ -360,7 +382,7 @@ class MainWindow(QMainWindow):
         m.addSeparator()
         m.addAction(a["info"])
         m.addSeparator()
-        m.addAction(a["quit"])
+        m.addActions([a["close"], a["quit"]])
         m = mb.addMenu("&Edit")
         m.addActions([a["undo"], a["redo"]])
         m.addSeparator()
@@ -454,6 +476,9 @@ class MainWindow(QMainWindow):
         self._update_heading()
         s = project.settings
         self.units_label.setText(f"Units: {UNIT_LABELS.get(s.unit_system, s.unit_system)}")
+        tp = self.trace_panel
+        if tp.trace is not None and tp.unit_system != s.unit_system:
+            tp.show_trace(tp.trace, s.unit_system)  # the same point in the new units
         self.basis_label.setText(f"Basis: {BASIS_LABELS.get(s.design_basis, s.design_basis)}")
         self._update_actions()
 
@@ -1148,8 +1173,25 @@ class MainWindow(QMainWindow):
     def _on_new(self) -> None:
         if self.maybe_save():
             self.doc.reset(Project())
+            self._forget_views()
             if self.autosaver:
                 self.autosaver.discard()
+
+    def close_project(self) -> bool:
+        """File › Close: after the unsaved-changes question, an empty project
+        (the window stays open, the guide shows the first step)."""
+        if not self.maybe_save():
+            return False
+        self.doc.reset(Project())
+        self._forget_views()
+        if self.autosaver:
+            self.autosaver.discard()
+        self.statusBar().showMessage("Project closed", 4000)
+        return True
+
+    def _forget_views(self) -> None:
+        """After new / open / close: nothing of the previous project stays on show."""
+        self.trace_panel.show_trace(None)
 
     def _on_open(self) -> None:
         if not self.maybe_save():
@@ -1170,6 +1212,7 @@ class MainWindow(QMainWindow):
             return False
         if self.autosaver:
             self.autosaver.discard()
+        self._forget_views()
         self.plan.fit()
         return True
 
