@@ -160,6 +160,7 @@ class MainWindow(QMainWindow):
         self.autosaver = Autosaver(self.doc, self.settings_dir, parent=self) \
             if autosave else None
         self._settings_dialog: SettingsDialog | None = None
+        self._annex_job: object = None
         self._closing = False
         self.plan_menu: QMenu | None = None
         """The right-click menu of the plan (made on first use)."""
@@ -207,6 +208,8 @@ class MainWindow(QMainWindow):
         self._act("save", "&Save", self.save, K.Save, "Save the project")
         self._act("save_as", "Save &As…", self.save_as, K.SaveAs,
                   "Save the project under a new name")
+        self._act("export_annex", "&Export permit annex…", self.export_annex, "Ctrl+E",
+                  "Write the lift-permit annex PDF (the same as 'droprig report')")
         self._act("close", "&Close", self.close_project, K.Close,
                   "Close this project (asks first if it has unsaved changes)")
         self._act("quit", "&Quit", self.close, K.Quit)
@@ -381,6 +384,7 @@ class MainWindow(QMainWindow):
         m.addActions([a["save"], a["save_as"]])
         m.addSeparator()
         m.addAction(a["info"])
+        m.addAction(a["export_annex"])
         m.addSeparator()
         m.addActions([a["close"], a["quit"]])
         m = mb.addMenu("&Edit")
@@ -1176,6 +1180,43 @@ class MainWindow(QMainWindow):
             self._forget_views()
             if self.autosaver:
                 self.autosaver.discard()
+
+    def export_annex(self, options: object = None) -> object:
+        """File › Export permit annex…: ask for the options (unless ``options``, an
+        :class:`~droprig.gui.annex_export.ExportOptions`, are given), then write
+        the PDF on a worker thread behind a progress dialog. Returns the running
+        :class:`~droprig.gui.annex_export.AnnexExport` (None if not started)."""
+        from droprig.gui.annex_export import AnnexExport, ExportDialog, ExportOptions
+
+        p = self.doc.project
+        if not p.lift_zones:
+            QMessageBox.information(self, "Export permit annex",
+                                    "The project has no lift zone to report on yet: add a "
+                                    "lift zone and its load first (Lift menu).")
+            return None
+        if not isinstance(options, ExportOptions):
+            base = self.doc.path or Path.home() / "droprig"
+            suggested = base.with_name(base.stem + "_annex.pdf")
+            dlg = ExportDialog(p, suggested, self)
+            if not dlg.exec():
+                return None
+            options = dlg.options()
+        results = self.doc.results if self.doc.results_current else None
+        src = self.doc.path if self.doc.path is not None and not self.doc.is_dirty else None
+        job = AnnexExport(p, results, options, src, self)
+        job.done.connect(self._on_annex_done)
+        self._annex_job = job
+        job.start()
+        return job
+
+    def _on_annex_done(self, path: Path, pages: int, error: str) -> None:
+        if error == "cancelled":
+            self.statusBar().showMessage("Annex export cancelled; no file was written", 8000)
+        elif error:
+            QMessageBox.critical(self, "Cannot export the annex",
+                                 f"{error}\n\nNo file was written.")
+        else:
+            self.statusBar().showMessage(f"Annex written: {path} ({pages} pages)", 15_000)
 
     def close_project(self) -> bool:
         """File › Close: after the unsaved-changes question, an empty project
