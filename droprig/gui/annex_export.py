@@ -42,7 +42,7 @@ PAPERS = (("A4", "A4 (210 × 297 mm)"), ("Letter", "US Letter (8.5 × 11 in)"))
 Progress = Callable[[float, str], None]
 
 
-class ExportCancelled(Exception):
+class ExportCancelledError(Exception):
     """Raised inside the worker when the user cancels; nothing is written."""
 
 
@@ -175,8 +175,8 @@ class _Worker(QObject):
 
     def _progress(self, fraction: float, text: str) -> None:
         if self.cancel.is_set():
-            raise ExportCancelled
-        self.progressed.emit(int(round(fraction * 1000)), text)
+            raise ExportCancelledError
+        self.progressed.emit(round(fraction * 1000), text)
 
     def run(self) -> None:
         from droprig.commands import describe_error
@@ -186,7 +186,7 @@ class _Worker(QObject):
                                     lift=self._opts.lift, paper=self._opts.paper,
                                     project_path=self._project_path,
                                     progress=self._progress)
-        except ExportCancelled:
+        except ExportCancelledError:
             self.finished.emit(0, "cancelled")
             return
         except Exception as exc:  # a message in the window, never a crash

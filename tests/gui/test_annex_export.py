@@ -15,9 +15,9 @@ import sys
 from pathlib import Path
 
 import pytest
+from pypdf import PdfReader
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QApplication, QMessageBox
-from pypdf import PdfReader
 
 from droprig.gui import annex_export
 from droprig.gui.annex_export import ExportDialog, ExportOptions
