@@ -161,6 +161,8 @@ class MainWindow(QMainWindow):
             if autosave else None
         self._settings_dialog: SettingsDialog | None = None
         self._annex_job: object = None
+        self.help_window: QWidget | None = None
+        self.limits_dialog: QWidget | None = None
         self._closing = False
         self.plan_menu: QMenu | None = None
         """The right-click menu of the plan (made on first use)."""
@@ -258,6 +260,10 @@ class MainWindow(QMainWindow):
             a.setCheckable(True)
         self._act("about", "&About droprig", self._on_about)
         self._act("caution", "&Limits of use", self._on_caution)
+        self._act("help", "droprig &user guide", self.show_help, K.HelpContents,
+                  "The user guide, at the section of the panel you are in")
+        # F1 also in the settings and generator dialogs
+        self.actions["help"].setShortcutContext(Qt.ShortcutContext.ApplicationShortcut)
 
     def _make_central(self) -> None:
         from droprig.gui.plan_view import PlanView
@@ -410,7 +416,7 @@ class MainWindow(QMainWindow):
         for d in (self.tree_dock, self.inspector_dock, self.results_dock, self.trace_dock):
             m.addAction(d.toggleViewAction())
         m = mb.addMenu("&Help")
-        m.addActions([a["caution"], a["about"]])
+        m.addActions([a["help"], a["caution"], a["about"]])
 
     def _make_status_bar(self) -> None:
         sb = self.statusBar()
@@ -1378,6 +1384,8 @@ class MainWindow(QMainWindow):
             self.autosaver.close()
         if self._settings_dialog is not None:
             self._settings_dialog.close()
+        if self.help_window is not None:
+            self.help_window.close()
         event.accept()
 
     # ================================================================ screenshots
@@ -1405,8 +1413,41 @@ class MainWindow(QMainWindow):
                           "framing under crane swing zones.<br><br>" + CAUTION)
 
     def _on_caution(self) -> None:
-        QMessageBox.information(
-            self, "Limits of use",
-            CAUTION + "\n\nThe assumptions and limits of the method are listed in the "
-            "README and in every permit annex. Keep people out from under the load path "
-            "whatever the result.")
+        from droprig.gui.help_window import LimitsDialog
+
+        self.limits_dialog = LimitsDialog(self)
+        self.limits_dialog.show()
+
+    def focused_panel(self) -> str:
+        """The guide section of the panel holding the keyboard focus ('start' if none)."""
+        from PySide6.QtWidgets import QApplication
+
+        from droprig.gui.generator_dialog import GeneratorDialog
+
+        w = QApplication.focusWidget() or QApplication.activeWindow()
+        panels = (("plan", self.plan), ("project", self.tree), ("inspector", self.inspector),
+                  ("results", self.results_table), ("trace", self.trace_panel))
+        while w is not None:
+            for key, panel in panels:
+                if w is panel:
+                    return key
+            if isinstance(w, SettingsDialog):
+                return "settings"
+            if isinstance(w, GeneratorDialog):
+                return "generator"
+            w = w.parentWidget()
+        return "start"
+
+    def show_help(self, section: object = None) -> object:
+        """F1: the user guide at the section of the focused panel (or ``section``)."""
+        from droprig.gui.help_window import HelpWindow
+
+        key = section if isinstance(section, str) else self.focused_panel()
+        if not isinstance(self.help_window, HelpWindow):
+            self.help_window = HelpWindow()
+            self.help_window.setAttribute(Qt.WidgetAttribute.WA_QuitOnClose, False)
+        hw = self.help_window
+        hw.show()
+        hw.raise_()
+        hw.show_section(key)
+        return hw
