@@ -460,6 +460,7 @@ class MainWindow(QMainWindow):
         self.plan.corridor_drawn.connect(self._on_corridor_drawn)
         self.plan.corridor_changed.connect(self._on_corridor_dragged)
         self.plan.member_clicked.connect(self._on_member_clicked)
+        self.plan.zone_clicked.connect(lambda zid: self.doc.select(Selection("zone", (zid,))))
         self.plan.context_requested.connect(self._on_plan_context)
         self.plan.mode_changed.connect(self._on_plan_mode_changed)
         self.plan.bay_clicked.connect(self._on_bay_clicked)
