@@ -111,6 +111,13 @@ def _check_framing(before: Project, after: Project, level_id: str) -> None:
     build_frame(after.level(level_id))
 
 
+def screen_scale_tag(screen: object) -> str:
+    """``"scale150"`` for a screen at 150 % (device pixel ratio 1.5); ``"scale100"``
+    when there is no screen."""
+    dpr = float(screen.devicePixelRatio()) if screen is not None else 1.0  # type: ignore[attr-defined]
+    return f"scale{round(dpr * 100)}"
+
+
 def redo_keys() -> list[QKeySequence]:
     """The platform's redo keys plus the other common one: Ctrl+Y and
     Ctrl+Shift+Z both redo on Linux and Windows (macOS: Cmd+Shift+Z)."""
@@ -361,17 +368,39 @@ class MainWindow(QMainWindow):
         self.trace_dock = self._dock("trace", "Calculation trace", self.trace_panel,
                                      Qt.DockWidgetArea.BottomDockWidgetArea)
         self.splitDockWidget(self.results_dock, self.trace_dock, Qt.Orientation.Horizontal)
+        self._set_dock_minimums()
         self._default_layout_pending = True
 
     def _apply_default_dock_sizes(self) -> None:
-        """First start (no saved layout): proportions that suit a wide screen."""
+        """First start at this screen scale (no saved layout): side panels wide
+        enough for their titles and a form, the results a third of the height on
+        a tall window and 27 % on a short one (1280 × 720, or a large screen
+        at 150–200 %), the rest to the plan."""
         w = max(self.width(), 800)
-        self.resizeDocks([self.tree_dock, self.inspector_dock],
-                         [int(w * 0.16), int(w * 0.21)], Qt.Orientation.Horizontal)
-        self.resizeDocks([self.results_dock], [int(self.height() * 0.32)],
+        h = max(self.height(), 480)
+        tree_w = max(int(w * 0.15), self.tree_dock.minimumWidth())
+        insp_w = max(int(w * 0.21), self.inspector_dock.minimumWidth())
+        self.resizeDocks([self.tree_dock, self.inspector_dock], [tree_w, insp_w],
+                         Qt.Orientation.Horizontal)
+        self.resizeDocks([self.results_dock], [int(h * (0.32 if h >= 900 else 0.27))],
                          Qt.Orientation.Vertical)
         self.resizeDocks([self.results_dock, self.trace_dock], [int(w * 0.62), int(w * 0.38)],
                          Qt.Orientation.Horizontal)
+
+    def _set_dock_minimums(self) -> None:
+        """No panel narrower than its title and buttons (titles are never cut to
+        "…"), and the side forms wide enough for a label and a value."""
+        for d in (self.tree_dock, self.inspector_dock, self.results_dock, self.trace_dock):
+            fm = d.fontMetrics()
+            bold = d.font()
+            bold.setBold(True)
+            from PySide6.QtGui import QFontMetrics
+
+            title = QFontMetrics(bold).horizontalAdvance(d.windowTitle())
+            d.setMinimumWidth(title + 2 * fm.height() + 40)  # float + close buttons
+        em = self.fontMetrics().averageCharWidth()
+        self.tree_dock.setMinimumWidth(max(self.tree_dock.minimumWidth(), 18 * em))
+        self.inspector_dock.setMinimumWidth(max(self.inspector_dock.minimumWidth(), 30 * em))
 
     def showEvent(self, event: QShowEvent) -> None:
         super().showEvent(event)
@@ -724,7 +753,7 @@ class MainWindow(QMainWindow):
                 pass
         state = "" if self.doc.results_current else " Results are being updated."
         name = lv.name if lv.name.lower().startswith("level") else f"Level {lv.name}"
-        return (f"{name}: {shown}; {which}. Key at the top right of the plan; "
+        return (f"{name}: {shown}; {which}. Key in a corner of the plan; "
                 f"the caution is under the plan.{state}")
 
     def _update_heading(self) -> None:
@@ -1354,13 +1383,22 @@ class MainWindow(QMainWindow):
 
     # ================================================================ window state
 
+    def _geometry_key(self) -> str:
+        """Settings group of the window geometry for the screen's scale: a size
+        saved at 150 % is not reused at 100 %."""
+        return f"window/{screen_scale_tag(self.screen())}"
+
     def _restore_geometry(self) -> None:
-        geo = self.qsettings.value("window/geometry")
-        state = self.qsettings.value("window/state")
+        key = self._geometry_key()
+        geo = self.qsettings.value(f"{key}/geometry")
+        state = self.qsettings.value(f"{key}/state")
         if isinstance(geo, QByteArray | bytes) and geo:
             self.restoreGeometry(QByteArray(geo))
-        else:
-            self.resize(1600, 1000)
+        else:  # 1600 × 1000, or what the screen has room for
+            avail = self.screen().availableGeometry() if self.screen() else None
+            w = min(1600, int(avail.width() * 0.96)) if avail else 1600
+            h = min(1000, int(avail.height() * 0.94)) if avail else 1000
+            self.resize(max(w, 640), max(h, 480))
         if isinstance(state, QByteArray | bytes) and state and \
                 self.restoreState(QByteArray(state)):
             self._default_layout_pending = False
@@ -1369,8 +1407,9 @@ class MainWindow(QMainWindow):
             self.set_overlay(str(overlay))
 
     def save_window_state(self) -> None:
-        self.qsettings.setValue("window/geometry", self.saveGeometry())
-        self.qsettings.setValue("window/state", self.saveState())
+        key = self._geometry_key()
+        self.qsettings.setValue(f"{key}/geometry", self.saveGeometry())
+        self.qsettings.setValue(f"{key}/state", self.saveState())
         self.qsettings.setValue("view/overlay", self.plan.overlay)
         self.qsettings.sync()
 

@@ -1523,6 +1523,16 @@ class PlanView(QGraphicsView):
         pad = 60.0 if self._level is not None else 8.0  # grid bubbles and dimensions
         return QRectF(v).adjusted(-pad, -pad, pad, pad)
 
+    def content_obstacles(self) -> list[QRectF]:
+        """Viewport rectangles the legend must not cover: the plan's content
+        (:meth:`content_viewport_rect`), each crane with its label."""
+        out = [self.content_viewport_rect()]
+        for z in self._cranes_item.shown_zones():
+            c = QPointF(self.mapFromScene(to_scene(*z.crane)))
+            out.append(QRectF(c.x() - 30, c.y() - 30, 60, 60))
+            out.append(crane_label_rect(c, z))
+        return [r for r in out if not r.isEmpty()]
+
     def _legend_size(self) -> tuple[float, float]:
         rows = self._legend_rows()
         heights = {"outcome": 18.0, "ramp": 58.0, "sym": 16.0}
@@ -1539,13 +1549,13 @@ class PlanView(QGraphicsView):
         bottom = vh - self._caution_height() - 40.0  # above the scale bar
         corners = [QRectF(vw - w - 10, 10, w, h), QRectF(vw - w - 10, bottom - h, w, h),
                    QRectF(70, 10, w, h), QRectF(10, bottom - 40 - h, w, h)]
-        content = self.content_viewport_rect()
+        content = self.content_obstacles()
         self.legend_collapsed = False
         if self._legend_open:
             return corners[0]
         for r in corners:
             if r.top() >= 0 and r.left() >= 0 and r.bottom() <= bottom and \
-                    r.right() <= vw and not r.intersects(content):
+                    r.right() <= vw and not any(r.intersects(c) for c in content):
                 return r
         self.legend_collapsed = True
         return QRectF(vw - 64, 10, 54, 20)
