@@ -113,6 +113,9 @@ class Document(QObject):
     level_changed = Signal(str)
     path_changed = Signal(object)
     dirty_changed = Signal(bool)
+    case_changed = Signal(object)
+    """The lift and load the plan and the results table show: ``(zone_id,
+    load_name)``, or ``None`` for all lifts (worst per bay)."""
 
     def __init__(self, project: Project | None = None, path: Path | None = None,
                  parent: QObject | None = None) -> None:
@@ -121,6 +124,7 @@ class Document(QObject):
         self._path = Path(path) if path else None
         self._selection: Selection | None = None
         self._level_id = self._project.levels[0].id if self._project.levels else ""
+        self._case: tuple[str, str] | None = None
         self._results: Results | None = None
         self._results_project: Project | None = None
         self._analysis_error = ""
@@ -210,6 +214,11 @@ class Document(QObject):
         elif not project.levels and self._level_id:
             self._level_id = ""
             self.level_changed.emit("")
+        if self._case is not None:
+            zones = {z.id: {ld.name for ld in z.loads} for z in project.lift_zones}
+            if self._case[1] not in zones.get(self._case[0], set()):
+                self._case = None
+                self.case_changed.emit(None)
         self.project_changed.emit(project)
         if self._selection is not None and resolve(project, self._selection) is None:
             self.select(None)
@@ -275,6 +284,23 @@ class Document(QObject):
         if lv and lv != self._level_id:
             self.set_level(lv)
         self.selection_changed.emit(sel)
+
+    @property
+    def case(self) -> tuple[str, str] | None:
+        """The one lift / load filter shared by the plan and the results table."""
+        return self._case
+
+    def set_case(self, case: tuple[str, str] | None) -> None:
+        """Show ``(zone_id, load_name)`` only, or every lift (``None``). A case
+        that is not in the project falls back to ``None``."""
+        if case is not None:
+            zones = {z.id: {ld.name for ld in z.loads} for z in self._project.lift_zones}
+            if case[1] not in zones.get(case[0], set()):
+                case = None
+        if case == self._case:
+            return
+        self._case = case
+        self.case_changed.emit(case)
 
     def set_level(self, level_id: str) -> None:
         if level_id == self._level_id:

@@ -502,6 +502,7 @@ class MainWindow(QMainWindow):
         self.overlay_combo.activated.connect(
             lambda _i: self.set_overlay(self.overlay_combo.currentData()))
         self.case_combo.activated.connect(self._on_case_chosen)
+        d.case_changed.connect(self._on_case_changed)
 
     # ================================================================ document events
 
@@ -681,7 +682,7 @@ class MainWindow(QMainWindow):
         self._level_label.setVisible(multi)
 
     def _fill_case_combo(self) -> None:
-        current = self.case_combo.currentData()
+        current = self.doc.case
         self.case_combo.blockSignals(True)
         self.case_combo.clear()
         self.case_combo.addItem("All lifts — worst per bay", None)
@@ -699,14 +700,21 @@ class MainWindow(QMainWindow):
 
     def _on_case_chosen(self, _index: int) -> None:
         data = self.case_combo.currentData()
-        if data is None:
+        self.doc.set_case(None if data is None else (data[0], data[1]))
+
+    def _on_case_changed(self, case: tuple[str, str] | None) -> None:
+        """The one lift / load filter changed (here or in the table): plan, combo
+        and heading follow."""
+        if case is None:
             self.plan.set_case(None)
         else:
-            self.plan.set_case(data[0], data[1])
-        f = self.results_table.filter
-        i = f.findData(None if data is None else f"{data[0]}\x1f{data[1]}")
-        if i >= 0:
-            f.setCurrentIndex(i)
+            self.plan.set_case(case[0], case[1])
+        i = next((k for k in range(self.case_combo.count())
+                  if self.case_combo.itemData(k) == case), 0)
+        if i != self.case_combo.currentIndex():
+            self.case_combo.blockSignals(True)
+            self.case_combo.setCurrentIndex(i)
+            self.case_combo.blockSignals(False)
         self._update_heading()
 
     def set_overlay(self, mode: str) -> None:
