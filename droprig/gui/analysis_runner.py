@@ -18,13 +18,13 @@ from PySide6.QtCore import QObject, QRunnable, QThreadPool, QTimer, Signal
 
 from droprig.gui.document import Document
 from droprig.model import Project
-from droprig.solver.results import Results
+from droprig.solver import Results
 
 AnalyseFn = Callable[[Project], Results]
 
 
 def _default_analyse(project: Project) -> Results:
-    from droprig.solver.analysis import analyse
+    from droprig.solver import analyse
 
     return analyse(project)
 

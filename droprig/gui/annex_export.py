@@ -36,7 +36,7 @@ from PySide6.QtWidgets import (
 
 from droprig.gui import style
 from droprig.model import Project
-from droprig.solver.results import Results
+from droprig.solver import Results
 
 PAPERS = (("A4", "A4 (210 × 297 mm)"), ("Letter", "US Letter (8.5 × 11 in)"))
 Progress = Callable[[float, str], None]
@@ -61,7 +61,7 @@ def write_annex_pdf(project: Project, results: Results | None, path: str | os.Pa
     from droprig.report.annex import write_annex
 
     if results is None:
-        from droprig.solver.analysis import analyse
+        from droprig.solver import analyse
 
         if progress is not None:
             progress(0.0, "Analysing every drop point")

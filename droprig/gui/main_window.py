@@ -68,7 +68,7 @@ from droprig.model import (
     bays,
     resting_on,
 )
-from droprig.solver.results import Results
+from droprig.solver import Results
 
 FILE_FILTER = "droprig projects (*.droprig);;All files (*)"
 MAX_RECENT = 8
@@ -102,13 +102,13 @@ MAX_LISTED = 12
 def _check_framing(before: Project, after: Project, level_id: str) -> None:
     """Raise the solver's ModelError if level ``level_id`` could be analysed in
     ``before`` but not in ``after`` (a framing the load path cannot follow)."""
-    from droprig.solver.loadpath import build_frame
+    from droprig.solver import check_framing
 
     try:
-        build_frame(before.level(level_id))
+        check_framing(before.level(level_id))
     except ModelError:
         return  # not analysable before this edit either: not this edit's doing
-    build_frame(after.level(level_id))
+    check_framing(after.level(level_id))
 
 
 def screen_scale_tag(screen: object) -> str:
@@ -915,7 +915,7 @@ class MainWindow(QMainWindow):
     def show_trace(self, zone_id: str, load_name: str, x: float, y: float) -> bool:
         """Compute and show the calculation trace of one drop point."""
         try:
-            from droprig.solver.trace import trace_point
+            from droprig.solver import trace_point
 
             trace = trace_point(self.doc.project, zone_id, load_name, x, y)
         except Exception as exc:  # a message in the status bar, never a crash

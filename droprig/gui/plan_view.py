@@ -98,7 +98,7 @@ from droprig.gui.plan_items import (
     zone_bounds,
 )
 from droprig.model import Level, LiftZone, Member, ModelError, Project, Rect, bays, corridor_problem
-from droprig.solver.results import RESPONSES, CaseResult, Results
+from droprig.solver import RESPONSES, CaseResult, Results
 
 OVERLAY_MODES: tuple[str, ...] = ("outcome", "utilisation", "drop_height")
 EDIT_MODES: tuple[str, ...] = ("select", "draw_protection", "draw_corridor")

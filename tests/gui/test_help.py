@@ -22,6 +22,8 @@ from droprig.outcomes import OUTCOMES
 
 pytestmark = pytest.mark.gui
 
+GUI_DIR = GUIDE.parents[1] / "droprig" / "gui"
+
 
 def test_every_section_the_window_names_is_in_the_guide() -> None:
     for key in SECTIONS:
@@ -98,3 +100,15 @@ def test_limits_of_use_shows_the_text(qtbot, open_window) -> None:
     assert "README" not in text
     assert "not checked" in text
     dlg.close()
+
+
+def test_the_window_imports_only_the_solver_face() -> None:
+    """Issue 9 layer rule: droprig/gui takes solver names from ``droprig.solver`` only."""
+    import ast
+
+    gui = GUI_DIR
+    for path in gui.glob("*.py"):
+        tree = ast.parse(path.read_text(encoding="utf-8"))
+        for node in ast.walk(tree):
+            if isinstance(node, ast.ImportFrom) and node.module:
+                assert not node.module.startswith("droprig.solver."), (path.name, node.module)
