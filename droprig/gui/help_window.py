@@ -74,11 +74,38 @@ class HelpWindow(QWidget):
         self.browser.setSearchPaths([str(GUIDE.parent)])
         self.browser.document().setBaseUrl(QUrl.fromLocalFile(str(GUIDE.parent) + "/"))
         self.browser.setMarkdown(guide_text())
+        self._fit_images(700)
         lay = QVBoxLayout(self)
         lay.setContentsMargins(0, 0, 0, 0)
         lay.addWidget(self.browser)
         self.resize(760, 640)
         self.section = "start"
+
+    def _fit_images(self, width: int) -> None:
+        """Screenshots at most ``width`` px wide (aspect kept), so the guide reads
+        without sideways scrolling."""
+        from PySide6.QtGui import QImage
+
+        doc = self.browser.document()
+        block = doc.begin()
+        while block.isValid():
+            it = block.begin()
+            while not it.atEnd():
+                frag = it.fragment()
+                fmt = frag.charFormat()
+                if fmt.isImageFormat():
+                    img_fmt = fmt.toImageFormat()
+                    img = QImage(str(GUIDE.parent / img_fmt.name()))
+                    if not img.isNull() and img.width() > width:
+                        img_fmt.setWidth(width)
+                        img_fmt.setHeight(img.height() * width / img.width())
+                        cur = QTextCursor(doc)
+                        cur.setPosition(frag.position())
+                        cur.setPosition(frag.position() + frag.length(),
+                                        QTextCursor.MoveMode.KeepAnchor)
+                        cur.setCharFormat(img_fmt)
+                it += 1
+            block = block.next()
 
     def show_section(self, key: str) -> bool:
         """Scroll so the heading of section ``key`` is at the top. False if the

@@ -69,7 +69,7 @@ _NUM_UNIT = re.compile(
     r"(?<![\w.])(-?\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)\s?(N/m|kg|Pa|rad|N|m)(?![\w²/])")
 
 
-FIELD_MIN_WIDTH_CAP = 240
+FIELD_MIN_WIDTH_CAP = 220
 """px: an edit box never asks for more than this, so the inspector stays narrow."""
 
 

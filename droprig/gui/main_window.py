@@ -379,7 +379,7 @@ class MainWindow(QMainWindow):
         w = max(self.width(), 800)
         h = max(self.height(), 480)
         tree_w = max(int(w * 0.15), self.tree_dock.minimumWidth())
-        insp_w = max(int(w * 0.21), self.inspector_dock.minimumWidth())
+        insp_w = max(int(w * 0.23), self.inspector_dock.minimumWidth())
         self.resizeDocks([self.tree_dock, self.inspector_dock], [tree_w, insp_w],
                          Qt.Orientation.Horizontal)
         self.resizeDocks([self.results_dock], [int(h * (0.32 if h >= 900 else 0.27))],
