@@ -596,7 +596,28 @@ class MainWindow(QMainWindow):
         if not self.doc.results_current:
             self.plan.set_results(None)
 
+    def _refresh_trace(self) -> None:
+        """The trace on show follows the project: re-worked for the same point once
+        new results are in, cleared when its lift or load is gone."""
+        t = self.trace_panel.trace
+        if t is None or not self.doc.results_current:
+            return
+        p = self.doc.project
+        if not any(z.id == t.zone_id and any(ld.name == t.load_name for ld in z.loads)
+                   for z in p.lift_zones):
+            self.trace_panel.show_trace(None)
+            return
+        try:
+            from droprig.solver import trace_point
+
+            new = trace_point(p, t.zone_id, t.load_name, t.x, t.y)
+        except Exception:  # the point may have left the zone: nothing stale stays
+            self.trace_panel.show_trace(None)
+            return
+        self.trace_panel.show_trace(new, p.settings.unit_system)
+
     def _on_results_changed(self, results: Results | None) -> None:
+        self._refresh_trace()
         self.plan.set_results(self._plan_results())
         self._fill_case_combo()
         self._update_state_label()

@@ -103,3 +103,21 @@ def test_trace_follows_the_unit_system(qtbot, win) -> None:
     assert win.trace_panel.unit_system == "US"
     assert " ft" in win.trace_panel.plain_text() or " in" in win.trace_panel.plain_text()
     win.doc.select(Selection("zone", ("Z1",)))
+
+
+def test_trace_follows_edits_and_clears_when_its_load_goes(qtbot, win) -> None:
+    win.runner.run_now()
+    win.show_trace("Z1", "Skid", 3.0, 2.5)
+    before = win.trace_panel.plain_text()
+    z = win.doc.project.zone("Z1")
+    heavier = replace(z.loads[0], mass=3000.0)
+    win.doc.edit(ed.with_load(win.doc.project, "Z1", "Skid", heavier), "mass")
+    win.runner.run_now()
+    qtbot.waitUntil(lambda: win.doc.results_current)
+    after = win.trace_panel.plain_text()
+    assert after and after != before  # re-worked for the new mass
+    renamed = replace(heavier, name="Skid B")
+    win.doc.edit(ed.with_load(win.doc.project, "Z1", "Skid", renamed), "rename")
+    win.runner.run_now()
+    qtbot.waitUntil(lambda: win.doc.results_current)
+    assert win.trace_panel.trace is None  # no trace of a load that no longer exists
