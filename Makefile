@@ -23,6 +23,7 @@ sysdeps-test:
 	@sh scripts/sysdeps.sh $(PYTHON) $(QT_DEBS) $(X_DEBS)
 
 test: sysdeps-test $(STAMP)
+	$(PY) -m mypy
 	QT_QPA_PLATFORM=offscreen $(PY) -m pytest -q
 
 demo: sysdeps $(STAMP)
@@ -30,6 +31,7 @@ demo: sysdeps $(STAMP)
 
 lint: $(STAMP)
 	$(PY) -m ruff check droprig tests benchmarks
+	$(PY) -m mypy
 
 bench: sysdeps $(STAMP)
 	@for f in benchmarks/bench_*.py; do echo "== $$f"; QT_QPA_PLATFORM=offscreen $(PY) $$f || exit 1; done

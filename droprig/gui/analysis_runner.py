@@ -31,7 +31,7 @@ def _default_analyse(project: Project) -> Results:
 
 def describe_analysis_error(exc: BaseException) -> str:
     """One line for the status bar / results panel."""
-    from droprig.commands import describe_error
+    from droprig.texts import describe_error
 
     return describe_error(exc)
 

@@ -179,7 +179,7 @@ class _Worker(QObject):
         self.progressed.emit(round(fraction * 1000), text)
 
     def run(self) -> None:
-        from droprig.commands import describe_error
+        from droprig.texts import describe_error
 
         try:
             pages = write_annex_pdf(self._project, self._results, self._opts.path,

@@ -21,7 +21,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from droprig.cli import CAUTION
+from droprig.texts import CAUTION
 
 GUIDE = Path(__file__).resolve().parents[2] / "docs" / "user_guide.md"
 

@@ -34,7 +34,6 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import __version__, units
-from droprig.cli import CAUTION
 from droprig.gui import edits as ed
 from droprig.gui import style
 from droprig.gui.analysis_runner import AnalyseFn, AnalysisRunner
@@ -52,6 +51,7 @@ from droprig.gui.inspector import (
     opening_form,
     protection_form,
 )
+from droprig.texts import CAUTION
 
 if TYPE_CHECKING:
     from droprig.gui.generator_dialog import GeneratorDialog
@@ -136,7 +136,7 @@ def quit_keys() -> list[QKeySequence]:
 
 
 def _describe(exc: BaseException) -> str:
-    from droprig.commands import describe_error
+    from droprig.texts import describe_error
 
     return describe_error(exc)
 

@@ -15,10 +15,10 @@ import pytest
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QApplication
 
-from droprig.cli import CAUTION
 from droprig.gui.help_window import GUIDE, SECTIONS, HelpWindow, section_text
 from droprig.model import Settings
 from droprig.outcomes import OUTCOMES
+from droprig.texts import CAUTION
 
 pytestmark = pytest.mark.gui
 
