@@ -286,6 +286,11 @@ class Document(QObject):
         self.selection_changed.emit(sel)
 
     @property
+    def results_project(self) -> Project | None:
+        """The project the results on hand were worked out for."""
+        return self._results_project
+
+    @property
     def case(self) -> tuple[str, str] | None:
         """The one lift / load filter shared by the plan and the results table."""
         return self._case

@@ -76,14 +76,6 @@ BASIS_LABELS = {"en1993": "EN 1993-1-1", "aisc360": "AISC 360-16"}
 UNIT_LABELS = {"SI": "SI (m · kN · kg · MPa)", "US": "US (ft · kip · lb · ksi)"}
 
 
-STALE_GRACE_MS = 300
-"""How long the plan may keep showing the previous results after an edit."""
-
-
-def _cases(p: Project) -> tuple[tuple[str, str, str], ...]:
-    return tuple((z.id, z.level_id, ld.name) for z in p.lift_zones for ld in z.loads)
-
-
 def placeholder_load(name: str) -> LiftLoad:
     """The load a new zone or "Add load" starts with: 1 t falling 1 m, rigid,
     1 m × 1 m footprint. Round numbers to be replaced, never a recommendation."""
@@ -173,10 +165,6 @@ class MainWindow(QMainWindow):
         self._closing = False
         self.plan_menu: QMenu | None = None
         """The right-click menu of the plan (made on first use)."""
-        self._stale_timer = QTimer(self)
-        self._stale_timer.setSingleShot(True)
-        self._stale_timer.setInterval(STALE_GRACE_MS)
-        self._stale_timer.timeout.connect(self._on_stale_timeout)
 
         self.setObjectName("droprigMainWindow")
         self.setDockNestingEnabled(True)
@@ -275,7 +263,7 @@ class MainWindow(QMainWindow):
     def _make_central(self) -> None:
         from droprig.gui.plan_view import PlanView
 
-        self.plan = PlanView()
+        self.plan = PlanView(self.doc)
         self.plan.setObjectName("planView")
 
         self.level_combo = QComboBox()
@@ -488,11 +476,8 @@ class MainWindow(QMainWindow):
         self.plan.protection_drawn.connect(self._on_protection_drawn)
         self.plan.corridor_drawn.connect(self._on_corridor_drawn)
         self.plan.corridor_changed.connect(self._on_corridor_dragged)
-        self.plan.member_clicked.connect(self._on_member_clicked)
-        self.plan.zone_clicked.connect(lambda zid: self.doc.select(Selection("zone", (zid,))))
         self.plan.context_requested.connect(self._on_plan_context)
         self.plan.mode_changed.connect(self._on_plan_mode_changed)
-        self.plan.bay_clicked.connect(self._on_bay_clicked)
         self.plan.point_clicked.connect(self._on_point_clicked)
         self.plan.hover_text.connect(self._on_hover_text)
         self.results_table.trace_requested.connect(self.show_trace)
@@ -507,10 +492,6 @@ class MainWindow(QMainWindow):
     # ================================================================ document events
 
     def _on_project_changed(self, project: Project) -> None:
-        self._stale_timer.start()
-        self.plan.set_project(project, self.doc.level_id or None)
-        # Bay results stay valid only while the level's framing is the same object.
-        self.plan.set_results(self._plan_results())
         self._fill_level_combo()
         self._fill_case_combo()
         self._update_guide()
@@ -570,32 +551,6 @@ class MainWindow(QMainWindow):
             self.inspector_dock.show()
             self.inspector_dock.raise_()
 
-    def _plan_results(self) -> Results | None:
-        """Results the plan may show: current ones; or, for at most
-        STALE_GRACE_MS after an edit, the previous ones if the level's framing
-        and the set of zones and loads are unchanged (so bays and cases still
-        match) — this avoids a grey flash on every edit; after that the plan
-        shows "not assessed" until the new results arrive."""
-        res = self.doc.results
-        if res is None:
-            return None
-        if self.doc.results_current:
-            return res
-        if not self._stale_timer.isActive():
-            return None
-        old = self.doc._results_project
-        new = self.doc.project
-        try:
-            same = old is not None and old.level(self.doc.level_id) is \
-                new.level(self.doc.level_id) and _cases(old) == _cases(new)
-        except KeyError:
-            same = False
-        return res if same else None
-
-    def _on_stale_timeout(self) -> None:
-        if not self.doc.results_current:
-            self.plan.set_results(None)
-
     def _refresh_trace(self) -> None:
         """The trace on show follows the project: re-worked for the same point once
         new results are in, cleared when its lift or load is gone."""
@@ -618,28 +573,15 @@ class MainWindow(QMainWindow):
 
     def _on_results_changed(self, results: Results | None) -> None:
         self._refresh_trace()
-        self.plan.set_results(self._plan_results())
         self._fill_case_combo()
         self._update_state_label()
         self._update_heading()
 
     def _on_selection_changed(self, sel: Selection | None) -> None:
-        if sel is not None and sel.kind == "bay":
-            self.plan.select_bay(sel.ids[1])
-        else:
-            self.plan.select_bay(None)
-        zone = None
-        if sel is not None and sel.kind in ("zone", "load"):
-            zone = sel.ids[0]
-        self.plan.set_selected_zone(zone)
-        self.plan.set_selected_member(sel.ids[1] if sel is not None and sel.kind == "member"
-                                      and sel.ids[0] == self.doc.level_id else None)
-        self._update_actions()
+        self._update_actions()  # the plan follows the selection itself
 
     def _on_level_changed(self, level_id: str) -> None:
         self._update_guide()
-        self.plan.set_project(self.doc.project, level_id or None)
-        self.plan.set_results(self._plan_results())
         i = self.level_combo.findData(level_id)
         if i >= 0:
             self.level_combo.setCurrentIndex(i)
@@ -724,12 +666,8 @@ class MainWindow(QMainWindow):
         self.doc.set_case(None if data is None else (data[0], data[1]))
 
     def _on_case_changed(self, case: tuple[str, str] | None) -> None:
-        """The one lift / load filter changed (here or in the table): plan, combo
-        and heading follow."""
-        if case is None:
-            self.plan.set_case(None)
-        else:
-            self.plan.set_case(case[0], case[1])
+        """The one lift / load filter changed: the combo and the heading follow
+        (the plan and the table follow the document themselves)."""
         i = next((k for k in range(self.case_combo.count())
                   if self.case_combo.itemData(k) == case), 0)
         if i != self.case_combo.currentIndex():
@@ -815,10 +753,6 @@ class MainWindow(QMainWindow):
             return
         self.doc.edit(after, f"Reshape lift zone {zone_id}")
 
-    def _on_member_clicked(self, member_id: str) -> None:
-        if self.doc.level_id:
-            self.doc.select(Selection("member", (self.doc.level_id, member_id)))
-
     def plan_context_actions(self) -> list[QAction]:
         """What a right click on the plan offers for the current selection."""
         sel = self.doc.selection
@@ -834,10 +768,6 @@ class MainWindow(QMainWindow):
         self.plan_menu.clear()
         self.plan_menu.addActions(acts)
         self.plan_menu.popup(global_pos)
-
-    def _on_bay_clicked(self, bay_id: str) -> None:
-        if self.doc.level_id:
-            self.doc.select(Selection("bay", (self.doc.level_id, bay_id)))
 
     def _on_point_clicked(self, zone_id: str, load_name: str, x: float, y: float) -> None:
         self.show_trace(zone_id, load_name, x, y)

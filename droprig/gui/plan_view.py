@@ -66,6 +66,7 @@ from PySide6.QtWidgets import (
 
 from droprig import units
 from droprig.gui import style
+from droprig.gui.document import Document, Selection
 from droprig.gui.plan_items import (
     DROP_RANGE,
     HANDLE_KINDS,
@@ -99,6 +100,14 @@ from droprig.gui.plan_items import (
 from droprig.model import Level, LiftZone, Member, ModelError, Project, Rect, bays, corridor_problem
 from droprig.solver import RESPONSES, CaseResult, Results
 from droprig.texts import CAUTION
+
+STALE_GRACE_MS = 300
+"""How long the plan may keep showing the previous results after an edit."""
+
+
+def _cases(p: Project) -> tuple[tuple[str, str, str], ...]:
+    return tuple((z.id, z.level_id, ld.name) for z in p.lift_zones for ld in z.loads)
+
 
 OVERLAY_MODES: tuple[str, ...] = ("outcome", "utilisation", "drop_height")
 EDIT_MODES: tuple[str, ...] = ("select", "draw_protection", "draw_corridor")
@@ -217,7 +226,8 @@ class PlanView(QGraphicsView):
     zone_clicked = Signal(str)
     context_requested = Signal(object, str)
 
-    def __init__(self, parent: QWidget | None = None) -> None:
+    def __init__(self, document: Document | None = None,
+                 parent: QWidget | None = None) -> None:
         super().__init__(parent)
         self._scene = QGraphicsScene(self)
         self.setScene(self._scene)
@@ -322,6 +332,96 @@ class PlanView(QGraphicsView):
                      self._band_item,
                      self._drag_label, *self._handles.values()):
             self._scene.addItem(item)
+        self._doc: Document | None = None
+        self._stale_timer = QTimer(self)
+        self._stale_timer.setSingleShot(True)
+        self._stale_timer.setInterval(STALE_GRACE_MS)
+        self._stale_timer.timeout.connect(self._on_stale_timeout)
+        if document is not None:
+            self.bind(document)
+
+    # ------------------------------------------------------------- the document
+
+    def bind(self, document: Document) -> None:
+        """Follow ``document`` as the other panels do: its project, level,
+        results, selection and lift filter; a click selects through it."""
+        self._doc = document
+        document.project_changed.connect(self._on_project_changed)
+        document.level_changed.connect(self._on_level_changed)
+        document.results_changed.connect(self._on_results_changed)
+        document.selection_changed.connect(self._on_selection_changed)
+        document.case_changed.connect(self._on_case_changed)
+        self.bay_clicked.connect(self._on_bay_clicked)
+        self.member_clicked.connect(self._on_member_clicked)
+        self.zone_clicked.connect(
+            lambda zid: document.select(Selection("zone", (zid,))))
+        self.set_project(document.project, document.level_id or None)
+        self.set_results(self.shown_results())
+        self._on_selection_changed(document.selection)
+
+    def shown_results(self) -> Results | None:
+        """Results the plan may show: current ones; or, for at most
+        STALE_GRACE_MS after an edit, the previous ones if the level's framing
+        and the set of zones and loads are unchanged (so bays and cases still
+        match) — this avoids a grey flash on every edit; after that the plan
+        shows "not assessed" until the new results arrive."""
+        doc = self._doc
+        if doc is None:
+            return self._results
+        res = doc.results
+        if res is None:
+            return None
+        if doc.results_current:
+            return res
+        if not self._stale_timer.isActive():
+            return None
+        old, new = doc.results_project, doc.project
+        try:
+            same = old is not None and old.level(doc.level_id) is \
+                new.level(doc.level_id) and _cases(old) == _cases(new)
+        except KeyError:
+            same = False
+        return res if same else None
+
+    def _on_project_changed(self, project: Project) -> None:
+        assert self._doc is not None
+        self._stale_timer.start()
+        self.set_project(project, self._doc.level_id or None)
+        self.set_results(self.shown_results())
+
+    def _on_level_changed(self, level_id: str) -> None:
+        assert self._doc is not None
+        self.set_project(self._doc.project, level_id or None)
+        self.set_results(self.shown_results())
+
+    def _on_results_changed(self, _results: object) -> None:
+        self.set_results(self.shown_results())
+
+    def _on_stale_timeout(self) -> None:
+        if self._doc is not None and not self._doc.results_current:
+            self.set_results(None)
+
+    def _on_selection_changed(self, sel: Selection | None) -> None:
+        assert self._doc is not None
+        self.select_bay(sel.ids[1] if sel is not None and sel.kind == "bay" else None)
+        self.set_selected_zone(sel.ids[0] if sel is not None and sel.kind in ("zone", "load")
+                               else None)
+        self.set_selected_member(sel.ids[1] if sel is not None and sel.kind == "member"
+                                 and sel.ids[0] == self._doc.level_id else None)
+
+    def _on_case_changed(self, case: tuple[str, str] | None) -> None:
+        if case is None:
+            self.set_case(None)
+        else:
+            self.set_case(case[0], case[1])
+
+    def _on_bay_clicked(self, bay_id: str) -> None:
+        if self._doc is not None and self._doc.level_id:
+            self._doc.select(Selection("bay", (self._doc.level_id, bay_id)))
+
+    def _on_member_clicked(self, member_id: str) -> None:
+        if self._doc is not None and self._doc.level_id:
+            self._doc.select(Selection("member", (self._doc.level_id, member_id)))
 
     # ------------------------------------------------------------- public API
 

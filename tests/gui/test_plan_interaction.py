@@ -136,3 +136,35 @@ def test_drawing_shows_its_instruction_on_the_plan(win) -> None:
     assert "corner 2" in win.plan.instruction()
     win.plan.set_mode("select")
     assert win.plan.instruction() == ""
+
+
+def test_the_plan_follows_the_document_without_the_window(qtbot) -> None:
+    """PlanView(document) subscribes like the other panels: no relay needed."""
+    from droprig.gui.document import Document
+    from droprig.gui.plan_view import PlanView
+    from droprig.model import bays
+
+    doc = Document(_project())
+    plan = PlanView(doc)
+    qtbot.addWidget(plan)
+    plan.resize(800, 600)
+    plan.show()
+    qtbot.waitExposed(plan)
+    plan.fit()
+    bay = bays(doc.project.level("L1"))[1]
+    doc.select(Selection("bay", ("L1", bay.id)))
+    assert plan.selected_bay == bay.id
+    doc.select(Selection("zone", ("Z1",)))
+    assert plan.selected_bay is None and plan.handle("r_max").isVisible()
+    doc.set_case(("Z1", "Skid"))
+    assert "Skid" in plan.case_caption() or plan._case == ("Z1", "Skid")
+    first = bays(doc.project.level("L1"))[0]
+    cx, cy = (first.rect.x0 + first.rect.x1) / 2, first.rect.y0 + 0.25 * first.rect.height
+    p = plan.view_pos(cx, cy)
+    left = Qt.MouseButton.LeftButton
+    vp = plan.viewport()
+    for kind, b, bs in ((QEvent.Type.MouseButtonPress, left, left),
+                        (QEvent.Type.MouseButtonRelease, left, Qt.MouseButton.NoButton)):
+        QApplication.sendEvent(vp, QMouseEvent(kind, QPointF(p), QPointF(vp.mapToGlobal(p)),
+                                               b, bs, Qt.KeyboardModifier.NoModifier))
+    assert doc.selection == Selection("bay", ("L1", first.id))
