@@ -332,6 +332,8 @@ class PlanView(QGraphicsView):
                      self._band_item,
                      self._drag_label, *self._handles.values()):
             self._scene.addItem(item)
+        self._labels_item.avoid = self.handle_rects
+        self._dim_plate = QColor(style.PLAN["background"])
         self._doc: Document | None = None
         self._stale_timer = QTimer(self)
         self._stale_timer.setSingleShot(True)
@@ -575,6 +577,20 @@ class PlanView(QGraphicsView):
         if i >= len(self._corner_handles) or not self._corner_handles[i].isVisible():
             raise KeyError(kind)
         return self._corner_handles[i]
+
+    def handle_rects(self) -> list[QRectF]:
+        """Viewport rectangles of the visible handles (bay tags keep clear of them)."""
+        out = []
+        for h in self._all_handles():
+            if h.isVisible():
+                c = QPointF(self.mapFromScene(h.pos()))
+                r = style.HANDLE_SIZE_PX
+                out.append(QRectF(c.x() - r, c.y() - r, 2 * r, 2 * r))
+        return out
+
+    def bay_tag_rects(self) -> list[QRectF]:
+        """Where the bay tags are drawn (viewport px; tests)."""
+        return [r for _s, _l, r in self._labels_item.plates(self.viewportTransform())]
 
     def _all_handles(self) -> list[HandleItem]:
         return [*self._handles.values(), *self._corner_handles]
@@ -1490,6 +1506,9 @@ class PlanView(QGraphicsView):
                 p.drawLine(QPointF(t - 3, base + 3), QPointF(t + 3, base - 3))
             text = units.fmt(xb - xa, "length", sysm, decimals=2)
             if fm.horizontalAdvance(text) + 6 < b - a:
+                # on a plate of the background colour: the drift band never crosses it
+                tw = fm.horizontalAdvance(text) + 6
+                p.fillRect(QRectF((a + b - tw) / 2, base - 14, tw, 13), self._dim_plate)
                 p.setPen(QColor("#222222"))
                 p.drawText(QRectF(a, base - 14, b - a, 13), Qt.AlignmentFlag.AlignCenter, text)
         left = self._vp(x0, y0).x() - dim_off
@@ -1504,6 +1523,8 @@ class PlanView(QGraphicsView):
                 p.save()
                 p.translate(left + 1, (a + b) / 2)
                 p.rotate(-90)
+                tw = fm.horizontalAdvance(text) + 6
+                p.fillRect(QRectF(-tw / 2, 0, tw, 13), self._dim_plate)
                 p.setPen(QColor("#222222"))
                 p.drawText(QRectF(-(a - b) / 2, 0, a - b, 13), Qt.AlignmentFlag.AlignCenter,
                            text)

@@ -168,3 +168,29 @@ def test_the_plan_follows_the_document_without_the_window(qtbot) -> None:
         QApplication.sendEvent(vp, QMouseEvent(kind, QPointF(p), QPointF(vp.mapToGlobal(p)),
                                                b, bs, Qt.KeyboardModifier.NoModifier))
     assert doc.selection == Selection("bay", ("L1", first.id))
+
+
+def test_bay_tags_keep_clear_of_the_zone_handles(win) -> None:
+    """A selected zone's handles sit on the floor (here the outer-radius handle
+    in bay 1-2); no bay tag is drawn under a handle."""
+    win.doc.select(Selection("zone", ("Z1",)))
+    QApplication.processEvents()
+    handles = win.plan.handle_rects()
+    assert handles
+    for tag in win.plan.bay_tag_rects():
+        assert not any(tag.intersects(h) for h in handles), (tag, handles)
+
+
+def test_place_moves_a_plate_off_an_obstacle_inside_its_bay() -> None:
+    from PySide6.QtCore import QRectF
+
+    from droprig.gui.plan_items import BayLabelsItem
+
+    bay = QRectF(0, 0, 100, 100)
+    plate = QRectF(30, 43, 40, 14)
+    handle = QRectF(45, 45, 10, 10)
+    moved = BayLabelsItem.place(plate, bay, [handle])
+    assert not moved.intersects(handle) and bay.contains(moved)
+    assert moved.width() == plate.width()
+    # the nearest free place: the plate moves no further than the handle needs
+    assert abs(moved.center().y() - plate.center().y()) <= handle.height() + plate.height()
