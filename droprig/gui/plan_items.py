@@ -242,7 +242,14 @@ class BayLabelsItem(PixelSized, QGraphicsItem):
             w = max(fm.horizontalAdvance(t_) for fm, t_ in zip(fms, lines, strict=True)) + 8
             h = 14.0 * len(lines) + 4
             plate = QRectF(dr.center().x() - w / 2, dr.center().y() - h / 2, w, h)
-            out.append((s, lines, self.place(plate, dr, avoid)))
+            placed = self.place(plate, dr, avoid)
+            if any(placed.intersects(a) for a in avoid) and lines != [style.outcome(s.key).tag]:
+                # no free place for the whole label: the outcome tag alone, placed
+                tag = style.outcome(s.key).tag
+                tw = QFontMetricsF(bold).horizontalAdvance(tag) + 8
+                small = QRectF(dr.center().x() - tw / 2, dr.center().y() - 9, tw, 18)
+                lines, placed = [tag], self.place(small, dr, avoid)
+            out.append((s, lines, placed))
         return out
 
     def label_for(self, s: BayState, width_px: float, height_px: float) -> list[str]:
