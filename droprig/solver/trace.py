@@ -18,7 +18,7 @@ import math
 
 import numpy as np
 
-from droprig.model import LiftLoad, ModelError, Project
+from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
 from droprig.solver import droppoints
 from droprig.solver.chain import (
     BRITTLE,
@@ -30,9 +30,11 @@ from droprig.solver.chain import (
     Impact,
     InverseAnswers,
     LoadInputs,
+    LocalDamage,
     StruckMass,
     outputs,
 )
+from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import evaluate_chain
 from droprig.solver.floor import FloorModel, floor_model
 from droprig.solver.geometry import Geometry, point_geometry
@@ -77,6 +79,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     """Every step of the analysis of ``load_name`` of zone ``zone_id`` at plan point
     (x, y) in m. Raises :class:`ModelError` for an unknown zone or load, or a point
     that is not over a deck panel of the zone's level."""
+    project = resolve_drift(project)
     try:
         zone = project.zone(zone_id)
     except KeyError:
@@ -111,10 +114,11 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     _path_steps(sheet)
     _impact_steps(sheet)
     _check_steps(sheet)
+    _local_damage_steps(sheet)
     by = sheet.by
     gm = int(by.gov_member[0])
     return Trace(zone.id, load.name, float(x), float(y), tuple(sheet.steps),
-                 RESPONSES[int(by.response[0])], sheet.mname(gm),
+                 RESPONSES[int(sheet.out["response"][0])], sheet.mname(gm),
                  CHECKS[int(by.gov_check[0])])
 
 
@@ -130,6 +134,7 @@ class _Sheet:
         self.dem, self.ck = chain[Demands], chain[Checks]
         self.by, self.inv = chain[BeyondYield], chain[InverseAnswers]
         self.out = outputs(chain)
+        self.chain, self.level = chain, fm.level
         self.steps: list[TraceStep] = []
 
     def add(self, title: str, symbol: str, formula: str,
@@ -288,3 +293,23 @@ def _check_steps(sheet: _Sheet) -> None:
         _SRC_GERE + " solved for M")
     add("Spring mat that keeps the point elastic", "k_req", "k = 1/(f_req − f_s)", {},
         inv.k_req[0], "stiffness", "series springs; " + _SRC_GERE)
+
+
+def _local_damage_steps(sheet: _Sheet) -> None:
+    """Penetration, scabbing and perforation of the deck by a hard item."""
+    add, lv, inp = sheet.add, sheet.level, sheet.inp
+    ld = sheet.chain[LocalDamage]
+    if ld.assessed[0]:
+        so = STRIKE_ORIENTATIONS[int(ld.orientation[0])]
+        src = ("Kennedy 1976; Li et al. 2005; DOE-STD-3014 App. C"
+               + ("; extrapolated below the test speeds" if ld.extrapolated[0] else ""))
+        add(f"Local damage: penetration of the deck ({so} strike governs)", "x",
+            "x/d = 2√G or G + 1, G = 3.8·10⁻⁵·N*·M/(d√f_c)·(V/d)^1.8; UKAEA",
+            {"t": (lv.deck.thickness, "length"), "h": (inp.h[0], "length")},
+            ld.penetration[0], "length", src)
+        add("Drop height at which the soffit starts to scab", "h_s",
+            "t = 1.1·t_s(V), V = √(2gh) (Kennedy, Chang)", {"t": (lv.deck.thickness, "length")},
+            ld.h_scab[0], "length", src)
+        add("Drop height at which the load perforates the deck", "h_p",
+            "t = 1.2·t_p(V), V = √(2gh) (Kennedy/ACE, Barr, Chang)",
+            {"t": (lv.deck.thickness, "length")}, ld.h_perf[0], "length", src)
