@@ -99,6 +99,9 @@ def main(argv: Sequence[str] | None = None) -> int:
         parser.print_help()
         return EXIT_OK
     name = {"analyze": "analyse"}.get(args.command, args.command)
+    from droprig import units
+
+    units.set_decimal_mark(units.system_decimal_mark())  # "1,5 m" where ',' is decimal
     try:
         module = importlib.import_module(f"droprig.commands.{name}")
         return int(module.run(args))

@@ -22,6 +22,7 @@ from typing import Any
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtGui import QAction
 from PySide6.QtWidgets import (
+    QApplication,
     QCheckBox,
     QComboBox,
     QCompleter,
@@ -40,7 +41,7 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui import style
 from droprig.gui.document import Document, Selection, resolve
 from droprig.model import (
@@ -71,7 +72,7 @@ _NUM_UNIT = re.compile(
     r"(?<![\w.])(-?\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)\s?(N/m|kg|Pa|rad|N|m)(?![\w²/])")
 
 
-FIELD_MIN_WIDTH_CAP = 240
+FIELD_MIN_WIDTH_CAP = 220
 """px: an edit box never asks for more than this, so the inspector stays narrow."""
 
 
@@ -274,8 +275,10 @@ class Form:
 
     @property
     def signature(self) -> tuple:
-        return (self.title, tuple((f.key, f.kind, f.choices) for f in self.fields),
-                tuple(self.buttons))
+        """The shape of the form: its rows (key, kind, label) and buttons. Not the
+        title nor a combo box's choices: renaming an object changes those, and the
+        widgets then stay (see :meth:`FormEditor.set_form`)."""
+        return (tuple((f.key, f.kind, f.label) for f in self.fields), tuple(self.buttons))
 
 
 def _q(key: str, label: str, quantity: str, tip: str = "") -> FieldSpec:
@@ -671,6 +674,7 @@ class FormEditor(QWidget):
             "background: #FBE9EC; color: #6B0F24; border: 1px solid #C98292;"
             "border-radius: 3px; padding: 4px;")
         self._message.hide()
+        self.setFocusPolicy(Qt.FocusPolicy.ClickFocus)  # holds the focus during a rebuild
         self._layout = QFormLayout()
         self._layout.setFieldGrowthPolicy(QFormLayout.FieldGrowthPolicy.AllNonFixedFieldsGrow)
         self._layout.setRowWrapPolicy(QFormLayout.RowWrapPolicy.WrapLongRows)
@@ -697,6 +701,9 @@ class FormEditor(QWidget):
             return
         sig = (*form.signature, self._system_fn())
         if sig != self._signature:
+            focus = QApplication.focusWidget()
+            focus_key = next((k for k, w in self._editors.items() if w is focus), None)
+            focus_key = focus_key if focus_key in {f.key for f in form.fields} else None
             self._clear()
             for spec in form.fields:
                 w = self._make_editor(spec)
@@ -707,6 +714,8 @@ class FormEditor(QWidget):
                 self._layout.addRow(lab, w)
                 self._editors[spec.key] = w
             self._signature = sig
+            if focus_key in self._editors:  # same field in the new shape: keep typing
+                self._editors[focus_key].setFocus(Qt.FocusReason.OtherFocusReason)
         for spec in form.fields:
             self._load_value(spec, self._editors[spec.key], form.obj)
 
@@ -717,9 +726,27 @@ class FormEditor(QWidget):
     # -------------------------------------------------------------- building
 
     def _clear(self) -> None:
+        """Take every row out of the layout and delete its widgets *later*.
+
+        A form is rebuilt from inside a widget's own signal (a line edit's
+        ``editingFinished`` during its focus-out, while Qt is moving the focus to
+        the next box on Tab). Deleting the widgets there (``removeRow``) freed
+        objects Qt was still using: a double free. Here they are hidden,
+        detached from the focus chain and handed to ``deleteLater``; the focus,
+        if it was in the form, is parked on the editor itself."""
+        self._editors.clear()  # first: a box losing the focus below commits nothing
+        focus = QApplication.focusWidget()
+        had_focus = focus is not None and (focus is self or self.isAncestorOf(focus))
+        if had_focus:
+            self.setFocus(Qt.FocusReason.OtherFocusReason)
         while self._layout.rowCount():
-            self._layout.removeRow(0)
-        self._editors.clear()
+            row = self._layout.takeRow(0)
+            for item in (row.labelItem, row.fieldItem):
+                w = item.widget() if item is not None else None
+                if w is not None:
+                    w.hide()
+                    w.setEnabled(False)
+                    w.deleteLater()
 
     def _make_editor(self, spec: FieldSpec) -> QWidget:
         system = self._system_fn()
@@ -782,6 +809,11 @@ class FormEditor(QWidget):
                 w.setPlainText(str(v))
         elif isinstance(w, QComboBox):
             w.blockSignals(True)
+            have = tuple((w.itemData(i), w.itemText(i)) for i in range(w.count()))
+            if have != tuple(spec.choices):  # e.g. a level renamed: new labels
+                w.clear()
+                for value, label in spec.choices:
+                    w.addItem(label, value)
             w.setCurrentIndex(w.findData(v))
             w.blockSignals(False)
         elif isinstance(w, QCheckBox):
@@ -1010,9 +1042,10 @@ class Inspector(QWidget):
             return
         after = form.commit(self._doc.project, new_obj)  # may raise ModelError
         sel = self._doc.selection
-        self._doc.edit(after, f"{form.title}: {spec.label.lower()}")
+        follow = None
         if sel is not None and sel.kind == "load" and spec.key == "name":
-            self._doc.select(Selection("load", (sel.ids[0], new_obj.name)))
+            follow = Selection("load", (sel.ids[0], new_obj.name))
+        self._doc.edit(after, f"{form.title}: {spec.label.lower()}", select=follow)
 
     # -------------------------------------------------------------- results details
 

@@ -8,6 +8,7 @@ bay elsewhere selects its worst row here.
 from __future__ import annotations
 
 import math
+from html import escape as html_escape
 from typing import Any
 
 from PySide6.QtCore import (
@@ -24,7 +25,6 @@ from PySide6.QtCore import (
 from PySide6.QtGui import QColor, QFont, QFontMetrics, QIcon, QPainter, QPixmap
 from PySide6.QtWidgets import (
     QAbstractItemView,
-    QComboBox,
     QHBoxLayout,
     QHeaderView,
     QLabel,
@@ -271,6 +271,89 @@ class _LiftFilter(QSortFilterProxyModel):
         return (b.zone_id, b.load_name) == self.key
 
 
+class _FrozenColumns:
+    """Keep ``columns`` (the first ones) in place while the table scrolls sideways:
+    a second view over the same model, showing only those columns, laid over the
+    left edge of the main view and scrolled with it vertically (Qt's frozen-column
+    pattern)."""
+
+    def __init__(self, view: QTableView, columns: tuple[int, ...]) -> None:
+        self.main = view
+        self.columns = columns
+        f = QTableView(view)
+        f.setObjectName("frozenColumns")
+        f.setModel(view.model())
+        f.setSelectionModel(view.selectionModel())
+        f.setFocusPolicy(Qt.FocusPolicy.NoFocus)
+        f.verticalHeader().hide()
+        f.verticalHeader().setDefaultSectionSize(view.verticalHeader().defaultSectionSize())
+        f.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.Fixed)
+        f.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        f.setVerticalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        f.setSelectionBehavior(view.selectionBehavior())
+        f.setAlternatingRowColors(view.alternatingRowColors())
+        f.setIconSize(view.iconSize())
+        f.setWordWrap(False)
+        f.setSortingEnabled(True)
+        f.horizontalHeader().setSortIndicatorShown(False)
+        f.horizontalHeader().sectionClicked.connect(
+            lambda c: view.sortByColumn(c, Qt.SortOrder.AscendingOrder
+                                        if view.horizontalHeader().sortIndicatorOrder()
+                                        == Qt.SortOrder.DescendingOrder
+                                        else Qt.SortOrder.DescendingOrder))
+        f.setStyleSheet("QTableView#frozenColumns { border: none; "
+                        "border-right: 1px solid #9A9A94; }")
+        self.view = f
+        fh, mh = f.horizontalHeader(), view.horizontalHeader()
+        for visual in range(mh.count()):  # the same column order as the main view
+            logical = mh.logicalIndex(visual)
+            fh.moveSection(fh.visualIndex(logical), visual)
+        self._sync_columns()
+        view.viewport().stackUnder(f)
+        f.verticalScrollBar().valueChanged.connect(view.verticalScrollBar().setValue)
+        view.verticalScrollBar().valueChanged.connect(f.verticalScrollBar().setValue)
+        view.horizontalHeader().sectionResized.connect(self._on_resized)
+        view.model().modelReset.connect(self._sync_columns)
+        view.model().layoutChanged.connect(self._sync_columns)
+        view.installEventFilter(_Relayout(self, view))
+        f.show()
+        self.relayout()
+
+    def _sync_columns(self, *_: object) -> None:
+        model = self.main.model()
+        for c in range(model.columnCount()):
+            self.view.setColumnHidden(c, c not in self.columns)
+            if c in self.columns:
+                self.view.setColumnWidth(c, self.main.columnWidth(c))
+
+    def _on_resized(self, col: int, _old: int, new: int) -> None:
+        if col in self.columns:
+            self.view.setColumnWidth(col, new)
+            self.relayout()
+
+    def width(self) -> int:
+        return sum(self.main.columnWidth(c) for c in self.columns)
+
+    def relayout(self) -> None:
+        m = self.main
+        self.view.setGeometry(m.frameWidth(), m.frameWidth(), self.width(),
+                              m.viewport().height() + m.horizontalHeader().height())
+
+
+class _Relayout(QWidget):
+    """Event filter: re-lay the frozen columns when the main view resizes."""
+
+    def __init__(self, frozen: _FrozenColumns, parent: QWidget) -> None:
+        super().__init__(parent)
+        self.hide()
+        self._frozen = frozen
+
+    def eventFilter(self, obj: object, event: Any) -> bool:
+        if event.type() in (event.Type.Resize, event.Type.Show, event.Type.LayoutRequest):
+            self._frozen.relayout()
+        return False
+
+
 class ResultsTable(QWidget):
     """Sortable table of bay outcomes with a lift filter. Emits
     ``trace_requested(zone_id, load_name, x, y)`` for the governing point of the
@@ -311,26 +394,35 @@ class ResultsTable(QWidget):
         self.view.sortByColumn(COL["outcome"], Qt.SortOrder.DescendingOrder)
         self.view.selectionModel().selectionChanged.connect(self._on_row_selection_changed)
 
-        self.filter = QComboBox()
-        self.filter.setMinimumContentsLength(18)
-        self.filter.currentIndexChanged.connect(self._on_filter_changed)
         self.summary = QLabel()
         self.summary.setObjectName("resultsSummary")
+        self.summary.setToolTip("The lift shown is chosen above the plan (Lift:); the plan "
+                                "and this table always show the same lift")
         top = QHBoxLayout()
         top.setContentsMargins(4, 2, 4, 2)
-        top.addWidget(QLabel("Show:"))
-        top.addWidget(self.filter)
-        top.addSpacing(12)
         top.addWidget(self.summary, 1)
+        # the whole advice of the selected row, wrapped (a cell shows its start)
+        self.detail = QLabel()
+        self.detail.setObjectName("resultsDetail")
+        self.detail.setWordWrap(True)
+        self.detail.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+        self.detail.setStyleSheet("QLabel#resultsDetail { background: #F6F7F9; "
+                                  "border-top: 1px solid #CFD1CA; padding: 3px 6px; }")
+        self.detail.hide()
         lay = QVBoxLayout(self)
         lay.setContentsMargins(0, 0, 0, 0)
         lay.setSpacing(0)
         lay.addLayout(top)
-        lay.addWidget(self.view)
+        lay.addWidget(self.view, 1)
+        lay.addWidget(self.detail)
+        # Bay and Load first and frozen: they stay in view while the table scrolls
+        hh.moveSection(hh.visualIndex(COL["load"]), 1)
+        self._frozen = _FrozenColumns(self.view, (COL["bay"], COL["load"]))
 
         document.results_changed.connect(self._on_results_changed)
         document.project_changed.connect(self._on_project_changed)
         document.selection_changed.connect(self._on_selection_changed)
+        document.case_changed.connect(self._on_case_changed)
         self._on_results_changed(document.results)
 
     # -------------------------------------------------------------- document events
@@ -353,29 +445,14 @@ class ResultsTable(QWidget):
         self._syncing = False
 
     def _fill_filter(self, results: Results | None) -> None:
-        current = self.filter.currentData()
-        self.filter.blockSignals(True)
-        self.filter.clear()
-        self.filter.addItem("All lifts and loads", None)
-        seen = []
-        for b in results.bays if results is not None else ():
-            if (b.zone_id, b.load_name) not in seen:
-                seen.append((b.zone_id, b.load_name))
-        for z, ld in seen:
-            self.filter.addItem(f"{z} · {ld}", f"{z}\x1f{ld}")
-        i = self.filter.findData(current)
-        self.filter.setCurrentIndex(max(0, i))
-        self.filter.blockSignals(False)
         self._apply_filter()
 
-    def _on_filter_changed(self, _i: int) -> None:
+    def _on_case_changed(self, case: tuple[str, str] | None) -> None:
         self._apply_filter()
         self._update_summary()
 
     def _apply_filter(self) -> None:
-        data = self.filter.currentData()
-        key = tuple(data.split("\x1f")) if data else None
-        self.proxy.set_key(key)  # type: ignore[arg-type]
+        self.proxy.set_key(self._doc.case)
 
     def _update_summary(self) -> None:
         res = self._doc.results
@@ -397,7 +474,10 @@ class ResultsTable(QWidget):
         stale = "  (updating…)" if not self._doc.results_current else ""
         permit = self.model.permit
         verdict = f"<b>{permit.verdict_words}</b> — " if permit is not None else ""
-        self.summary.setText(f"{verdict}{len(res.bays)} rows, one per bay and load — "
+        case = self._doc.case
+        which = "all lifts and loads" if case is None else f"lift {case[0]} · {case[1]}"
+        self.summary.setText(f"{verdict}Showing {which}: {self.proxy.rowCount()} of "
+                             f"{len(res.bays)} rows, one per bay and load — "
                              + " · ".join(parts) + stale)
         # the caution stands in the window's status bar beside every verdict; here
         # on hover
@@ -439,7 +519,35 @@ class ResultsTable(QWidget):
                   | QItemSelectionModel.SelectionFlag.Rows)
         self.view.scrollTo(pidx)
 
+    def _show_detail(self, b: BaySummary | None) -> None:
+        if b is None:
+            self.detail.clear()
+            self.detail.hide()
+            return
+        system = self._doc.project.settings.unit_system
+        st = style.outcome(b.response)
+        v = self.model.verdict(b)
+        said = ("" if v is None else
+                " ".join(c.sentence(system) for c in v.conditions)
+                or v.cells(system)["verdict"])
+        self.detail.setText(f"<b>{b.bay_id}</b> · {b.zone_id} · {html_escape(b.load_name)} — "
+                            f"{st.label}: {html_escape(said)}")
+        self._place_detail()
+
+    DETAIL_MIN_HEIGHT = 280
+    """px: below this the table keeps its rows and the whole advice is read in the
+    inspector, which lists every load's advice for the selected bay."""
+
+    def _place_detail(self) -> None:
+        self.detail.setVisible(bool(self.detail.text())
+                               and self.height() >= self.DETAIL_MIN_HEIGHT)
+
+    def resizeEvent(self, event: Any) -> None:
+        super().resizeEvent(event)
+        self._place_detail()
+
     def _on_row_selection_changed(self, *_: object) -> None:
+        self._show_detail(self.selected_row())
         if self._syncing:
             return
         b = self.selected_row()

@@ -42,7 +42,7 @@ def window(open_window) -> MainWindow:
 
 
 def _framed_zone(window: MainWindow) -> None:
-    from droprig.gui import commands as ed
+    from droprig.gui import edits as ed
 
     window.doc.edit(ed.add_level(window.doc.project, _level()), "Generate framing")
     window.actions["add_zone"].trigger()
@@ -209,7 +209,7 @@ def test_guide_asks_for_the_real_load_until_it_is_entered(qtbot, window: MainWin
     not pass for one on the planned lift."""
     from dataclasses import replace
 
-    from droprig.gui import commands as ed
+    from droprig.gui import edits as ed
 
     _framed_zone(window)
     zone = window.doc.project.lift_zones[0]
@@ -264,7 +264,7 @@ def test_empty_underside_stiffness_names_its_unit(qtbot, window: MainWindow, sys
     source."""
     from dataclasses import replace
 
-    from droprig.gui import commands as ed
+    from droprig.gui import edits as ed
 
     _framed_zone(window)
     p = window.doc.project

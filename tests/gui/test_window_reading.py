@@ -10,7 +10,7 @@ from dataclasses import replace
 import pytest
 from PySide6.QtCore import QPointF, QRectF, Qt
 
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui.main_window import MainWindow
 from droprig.gui.plan_items import ZonesItem, crane_label_rect, keep_inside
 from droprig.gui.results_table import COL
