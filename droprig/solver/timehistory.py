@@ -147,7 +147,7 @@ def mode_shapes(cond: str, lam: np.ndarray, xi: ArrayLike) -> tuple[np.ndarray, 
     s_c = -ez + ch
     phi = c_s - np.cos(z) + sigma * np.sin(z)
     d2 = lam**2 * (c_s + np.cos(z) - sigma * np.sin(z))
-    d3 = lam**3 * (s_c + np.sin(z) + sigma * np.cos(z))
+    d3 = lam**3 * (s_c - np.sin(z) - sigma * np.cos(z))
     return phi, d2, d3
 
 
