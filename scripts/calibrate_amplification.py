@@ -27,7 +27,8 @@ SAMPLES = 4
 MARGIN = 1.05  # the time history converges to a few per cent (tests/solver/test_timehistory.py)
 
 
-def _cell_range(edges: tuple[float, ...], i: int, lo_floor: float, hi_cap: float) -> tuple[float, float]:
+def _cell_range(edges: tuple[float, ...], i: int, lo_floor: float,
+                hi_cap: float) -> tuple[float, float]:
     lo = edges[i] if edges[i] > 0 else lo_floor
     hi = edges[i + 1] if math.isfinite(edges[i + 1]) else hi_cap
     return lo, hi

