@@ -25,19 +25,8 @@ CAUTION = (
 )
 
 
-def build_parser() -> argparse.ArgumentParser:
-    p = argparse.ArgumentParser(
-        prog="droprig",
-        description="Dropped-load assessment of floor framing under crane swing zones.",
-        epilog=CAUTION,
-    )
-    p.add_argument("--version", action="version", version=f"droprig {__version__}")
-    sub = p.add_subparsers(dest="command", metavar="COMMAND")
-
-    s = sub.add_parser("validate", help="check a .droprig project file")
-    s.add_argument("file")
-
-    s = sub.add_parser("check", help="one member struck by one dropped load")
+def _member_options(s: argparse.ArgumentParser) -> None:
+    """The member and load options shared by ``check`` and ``verify``."""
     s.add_argument("--section", required=True, help="library name, e.g. W16X26 or IPE 300")
     s.add_argument("--grade", required=True, help="e.g. A992, S355")
     s.add_argument("--span", required=True, help="member span, e.g. 6m or 24 ft")
@@ -65,6 +54,28 @@ def build_parser() -> argparse.ArgumentParser:
     s.add_argument("--units", choices=["SI", "US"], default=None,
                    help="units of the printed table (default: from the grade's family)")
     s.add_argument("--json", action="store_true", help="print one JSON object in SI units")
+
+
+def build_parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="droprig",
+        description="Dropped-load assessment of floor framing under crane swing zones.",
+        epilog=CAUTION,
+    )
+    p.add_argument("--version", action="version", version=f"droprig {__version__}")
+    sub = p.add_subparsers(dest="command", metavar="COMMAND")
+
+    s = sub.add_parser("validate", help="check a .droprig project file")
+    s.add_argument("file")
+
+    s = sub.add_parser("check", help="one member struck by one dropped load")
+    _member_options(s)
+
+    s = sub.add_parser("verify", help="time history of one member struck by one dropped "
+                       "load, beside the energy method")
+    _member_options(s)
+    s.add_argument("--plots", default=None, metavar="DIR",
+                   help="write force-, deflection- and moment-time plots (PNG) here")
 
     s = sub.add_parser("analyse", aliases=["analyze"], help="every drop point of every lift zone")
     s.add_argument("file")

@@ -24,7 +24,11 @@ R_EDGES = (0.0, 0.03, 0.1, 0.3, 1.0, 3.0, 10.0, 30.0, 100.0, math.inf)
 K_EDGES = (0.0, 0.003, 0.01, 0.03, 0.1, 0.3, 1.0, 3.0, math.inf)
 CONDS = ("simple", "fixed", "propped", "cantilever")
 SAMPLES = 4
-MARGIN = 1.05  # the time history converges to a few per cent (tests/solver/test_timehistory.py)
+MARGIN = 1.10  # the time history's convergence (3 %) and the sampling of 4 members per cell
+MARGIN_SHEAR = 1.15  # shear converges within 8 % in modes (tests/solver/test_timehistory.py)
+# ``--eta-one``: calibrate against the energy method with η = 1 (droprig's rule under
+# mats and crushable layers) instead of the Rayleigh struck-mass share
+ETA_ONE = "--eta-one" in sys.argv
 
 
 def _cell_range(edges: tuple[float, ...], i: int, lo_floor: float,
@@ -50,7 +54,7 @@ def _case(args: tuple[int, int, str, int]) -> tuple[int, int, str, list[float]]:
     m_e = float(beam.rayleigh_mass_factor(cond, L, a)) * mu * L
     M = r * m_e
     f_c = kap * f_s
-    e = timehistory.energy_method_peaks(cond, L, EI, mu, a, M, h, f_c)
+    e = timehistory.energy_method_peaks(cond, L, EI, mu, a, M, h, f_c, struck_mass=not ETA_ONE)
     t = timehistory.time_history(cond, L, EI, mu, a, M, h, f_c)
     W = M * 9.80665
     F_base = W * (1.0 + math.sqrt(1.0 + 2.0 * h / (W * f_c)))
@@ -78,15 +82,17 @@ def main() -> int:
         for ik in range(nk):
             sl = raw[:, max(ir - 1, 0):ir + 2, max(ik - 1, 0):ik + 2]
             table[:, ir, ik] = np.max(sl, axis=(1, 2))
-    table = np.ceil(np.maximum(table * MARGIN, 1.0) * 100.0) / 100.0
+    margin = np.array([MARGIN, MARGIN, MARGIN_SHEAR, MARGIN])[:, None, None]
+    table = np.ceil(np.maximum(table * margin, 1.0) * 100.0) / 100.0
     print(f"# largest time-history contact force ÷ rigid-base bound: {worst_base:.3f}")
     print("# raw cell maxima (time history ÷ energy method):")
     for q, name in enumerate(("force", "moment", "shear", "deflection")):
         print(f"# {name}")
         for ir in range(nr):
             print("#  ", " ".join(f"{v:5.2f}" for v in raw[q, ir]))
+    suffix = "_ETA_ONE" if ETA_ONE else ""
     for q, name in enumerate(("FORCE", "MOMENT", "SHEAR", "DEFLECTION")):
-        print(f"_{name} = (")
+        print(f"_{name}{suffix} = (")
         for ir in range(nr):
             print("    (" + ", ".join(f"{v:.2f}" for v in table[q, ir]) + "),")
         print(")")
