@@ -100,6 +100,53 @@ _DEFLECTION: tuple[tuple[float, ...], ...] = (
 )
 
 
+# against the energy method with η = 1 (droprig's rule under mats and crushable layers)
+_FORCE_ETA_ONE: tuple[tuple[float, ...], ...] = (
+    (28.74, 28.74, 16.84, 9.86, 5.66, 3.38, 2.19, 1.48),
+    (28.74, 28.74, 16.84, 9.86, 5.66, 3.38, 2.19, 1.48),
+    (28.74, 28.74, 14.66, 9.19, 5.10, 3.32, 2.00, 1.46),
+    (25.89, 25.89, 11.85, 6.83, 5.10, 2.75, 1.90, 1.46),
+    (13.19, 13.19, 10.87, 5.76, 4.21, 2.45, 1.60, 1.30),
+    (13.19, 13.19, 6.44, 4.57, 4.21, 2.13, 1.58, 1.22),
+    (7.11, 7.11, 5.12, 4.28, 2.13, 1.77, 1.34, 1.22),
+    (4.63, 4.63, 3.17, 2.36, 1.91, 1.52, 1.28, 1.19),
+    (3.28, 3.28, 2.87, 1.97, 1.48, 1.44, 1.19, 1.15),
+)
+_MOMENT_ETA_ONE: tuple[tuple[float, ...], ...] = (
+    (3.00, 3.00, 2.23, 1.78, 1.78, 1.75, 2.30, 2.30),
+    (3.05, 3.05, 2.30, 2.25, 2.25, 2.25, 2.67, 2.67),
+    (3.05, 3.05, 2.30, 2.25, 2.25, 2.25, 2.67, 2.67),
+    (3.05, 3.05, 2.30, 2.25, 2.25, 2.25, 2.67, 2.67),
+    (2.32, 2.32, 2.08, 1.99, 1.89, 1.91, 1.97, 1.97),
+    (2.18, 2.18, 1.87, 1.85, 1.79, 1.72, 1.72, 1.72),
+    (1.91, 1.91, 1.65, 1.59, 1.59, 1.57, 1.31, 1.31),
+    (1.57, 1.57, 1.57, 1.38, 1.35, 1.27, 1.27, 1.27),
+    (1.39, 1.39, 1.39, 1.26, 1.24, 1.20, 1.17, 1.17),
+)
+_SHEAR_ETA_ONE: tuple[tuple[float, ...], ...] = (
+    (30.84, 30.84, 15.91, 10.98, 9.32, 6.53, 3.36, 3.01),
+    (30.84, 30.84, 15.91, 14.30, 9.32, 6.53, 3.36, 3.01),
+    (30.84, 30.84, 15.21, 14.30, 7.78, 3.78, 3.25, 3.01),
+    (21.68, 21.68, 14.30, 14.30, 7.78, 3.33, 3.12, 2.76),
+    (17.43, 17.43, 11.87, 6.18, 3.90, 3.28, 2.89, 2.53),
+    (17.43, 17.43, 6.82, 6.18, 3.90, 2.65, 2.05, 2.05),
+    (8.46, 8.46, 5.75, 3.32, 3.13, 2.45, 1.44, 1.44),
+    (5.25, 5.25, 5.25, 3.32, 2.18, 1.49, 1.41, 1.33),
+    (3.62, 3.62, 3.57, 2.04, 1.66, 1.48, 1.28, 1.27),
+)
+_DEFLECTION_ETA_ONE: tuple[tuple[float, ...], ...] = (
+    (1.11, 1.11, 1.11, 1.11, 1.15, 1.19, 2.92, 2.92),
+    (1.11, 1.11, 1.11, 1.11, 1.18, 1.67, 3.02, 3.02),
+    (1.18, 1.18, 1.15, 1.16, 1.32, 1.79, 3.02, 3.02),
+    (1.38, 1.38, 1.37, 1.51, 1.60, 1.80, 3.02, 3.02),
+    (1.38, 1.38, 1.59, 1.59, 1.69, 1.80, 2.28, 2.28),
+    (1.50, 1.50, 1.62, 1.62, 1.69, 1.80, 1.80, 1.80),
+    (1.50, 1.50, 1.62, 1.62, 1.69, 1.69, 1.69, 1.58),
+    (1.50, 1.50, 1.62, 1.62, 1.62, 1.56, 1.29, 1.29),
+    (1.17, 1.23, 1.26, 1.26, 1.26, 1.26, 1.26, 1.23),
+)
+
+
 @dataclass(frozen=True)
 class Amplification:
     """Factors (≥ 1, dimensionless) on the energy method's impact demands: contact
@@ -116,8 +163,8 @@ class Amplification:
     beyond_table: np.ndarray
 
 
-def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike,
-                  f_s: ArrayLike) -> Amplification:
+def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, *,
+                  struck_mass: ArrayLike = True) -> Amplification:
     """Amplification factors for a load of mass M (kg) on a struck path of Rayleigh
     effective mass mₑ (kg) and compliance f_s (m/N) through a contact compliance f_c
     (m/N). Vectorised; a demand is max(energy, factor × energy) = factor × energy.
@@ -125,9 +172,13 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike,
     Table lookup by cell (no interpolation): r = M/mₑ (mₑ = 0: a massless path, the
     energy method is exact and every factor is 1), κ = f_c/f_s (f_s = 0: κ = ∞,
     the load rests on a rigid point and the contact spring alone is loaded — the
-    energy method is exact). Calibration and sources in the module docstring.
+    energy method is exact). ``struck_mass``: whether the energy method took the
+    struck-mass share η = M/(M + mₑ) (per case); where it took η = 1 (droprig's rule
+    under mats and crushable layers) the η = 1 tables apply, with the path's Rayleigh
+    mass still giving r. Calibration and sources in the module docstring.
     """
-    M, m_e, f_c, f_s = np.broadcast_arrays(*(np.asarray(v, float) for v in (M, m_e, f_c, f_s)))
+    M, m_e, f_c, f_s, sm = np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (M, m_e, f_c, f_s)), np.asarray(struck_mass, bool))
     with np.errstate(divide="ignore", invalid="ignore"):
         r = np.where(m_e > 0.0, M / np.where(m_e > 0.0, m_e, 1.0), np.inf)
         kappa = np.where(f_s > 0.0, f_c / np.where(f_s > 0.0, f_s, 1.0), np.inf)
@@ -135,12 +186,16 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike,
     ik = np.searchsorted(COMPLIANCE_RATIO_EDGES, kappa, side="right")
     exact = ~np.isfinite(r) | ~np.isfinite(kappa)
 
-    def look(table: tuple[tuple[float, ...], ...]) -> np.ndarray:
-        t = np.asarray(table, float)
-        return np.where(exact, 1.0, t[ir, ik])
+    def look(table: tuple[tuple[float, ...], ...],
+             table_one: tuple[tuple[float, ...], ...]) -> np.ndarray:
+        t = np.where(sm, np.asarray(table, float)[ir, ik], np.asarray(table_one, float)[ir, ik])
+        return np.where(exact, 1.0, t)
 
-    return Amplification(force=look(_FORCE), moment=look(_MOMENT), shear=look(_SHEAR),
-                         deflection=look(_DEFLECTION), mass_ratio=r, compliance_ratio=kappa,
+    return Amplification(force=look(_FORCE, _FORCE_ETA_ONE),
+                         moment=look(_MOMENT, _MOMENT_ETA_ONE),
+                         shear=look(_SHEAR, _SHEAR_ETA_ONE),
+                         deflection=look(_DEFLECTION, _DEFLECTION_ETA_ONE),
+                         mass_ratio=r, compliance_ratio=kappa,
                          beyond_table=(kappa < KAPPA_MIN) & ~exact)
 
 
