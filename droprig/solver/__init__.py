@@ -9,6 +9,8 @@ names from ``droprig.solver`` and nothing from its modules
 * :func:`assess_member` — one member struck by one dropped load (``droprig check``);
 * :func:`member_resistances`, :func:`check_framing`, :func:`on_rigid_support` —
   framing questions without a drop;
+* :func:`verify_member`, :func:`verify_point`, :func:`verification_table` — the
+  time history beside the energy method (``droprig verify``, the annex's table);
 * the result types and their code tables.
 """
 
@@ -36,6 +38,13 @@ from droprig.solver.results import (
     TraceStep,
 )
 from droprig.solver.trace import trace_point
+from droprig.solver.verification import (
+    PointVerification,
+    Verification,
+    verification_table,
+    verify_member,
+    verify_point,
+)
 
 __all__ = [
     "ADVICE_KINDS",
@@ -50,14 +59,19 @@ __all__ = [
     "AdviceKind",
     "BaySummary",
     "CaseResult",
+    "PointVerification",
     "Resistances",
     "Results",
     "Trace",
     "TraceStep",
+    "Verification",
     "analyse",
     "assess_member",
     "check_framing",
     "member_resistances",
     "on_rigid_support",
     "trace_point",
+    "verification_table",
+    "verify_member",
+    "verify_point",
 ]

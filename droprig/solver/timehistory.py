@@ -225,19 +225,23 @@ class TimeHistoryPeaks:
 # --------------------------------------------------------------------------- energy
 def energy_method_peaks(cond: str, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
                         a: ArrayLike, M: ArrayLike, h: ArrayLike,
-                        f_c: ArrayLike = 0.0, *, struck_mass: bool = True) -> EnergyPeaks:
+                        f_c: ArrayLike = 0.0, *, struck_mass: bool = True,
+                        scaled_mass: bool = False) -> EnergyPeaks:
     """The energy method's peaks for the same cases (Gere 7th ed., §9.10, Eq. 9-94
     with Timoshenko's struck-mass share η = M/(M + mₑ), mₑ = β·μ·L from
     :func:`beam.rayleigh_mass_factor`): f = G(a, a) + f_c, δst = W·f,
     K = 1 + √(1 + 2ηh/δst), F = K·W; moment, shear and deflection are F times the
     unit-load envelopes (AISC Manual Table 3-23). N, N·m, m, kg. ``struck_mass=False``
-    takes η = 1 (droprig's rule under mats and crushable layers); mₑ is still reported."""
+    takes η = 1 (droprig's rule under mats and crushable layers); mₑ is still reported.
+    ``scaled_mass``: the floor chain's rule, η from mₑ·(f_s/(f_s + f_c))² (the struck
+    mass referred to the load's own displacement; droprig.solver.chain.struck_mass)."""
     L, EI, mu, a, M, h, f_c = np.broadcast_arrays(
         *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c)))
     W = M * impact.G
     f_s = beam.green(cond, L, EI, a, a)
     m_e = beam.rayleigh_mass_factor(cond, L, a) * mu * L
-    eta = impact.mass_efficiency(M, m_e) if struck_mass else 1.0
+    m_eta = m_e * (f_s / (f_s + f_c)) ** 2 if scaled_mass else m_e
+    eta = impact.mass_efficiency(M, m_eta) if struck_mass else 1.0
     _, F, _ = impact.impact_elastic(W, h, f_s + f_c, eta)
     xi = np.linspace(0.0, 1.0, 401)
     x = L[..., None] * xi
