@@ -89,3 +89,51 @@ def test_point_on_support_refused(capsys: pytest.CaptureFixture[str]) -> None:
     argv[argv.index("9ft")] = "0ft"
     rc, _, err = _run(argv, capsys)
     assert rc == 2 and "--at" in err
+
+
+# --------------------------------------------------------------------------- project mode
+DEMO = str(Path(__file__).resolve().parents[1] / "demo_projects" / "rooftop_plant_swap.droprig")
+
+
+def test_project_table_every_bay(capsys: pytest.CaptureFixture[str]) -> None:
+    rc, out, err = _run(["verify", DEMO], capsys)
+    assert rc == 0, err
+    assert CAUTION in out
+    assert "energy method ÷ time history" in out
+
+
+def test_project_one_point_json_and_plots(tmp_path: Path,
+                                          capsys: pytest.CaptureFixture[str]) -> None:
+    rc, out, err = _run(["verify", DEMO, "--bay", "1-2/B-C", "--load", "AHU-3 (old, drained)",
+                         "--plots", str(tmp_path), "--json"], capsys)
+    assert rc == 0, err
+    data = json.loads(out)
+    assert len(data["points"]) == 1 and data["caution"] == CAUTION
+    pt = data["points"][0]
+    # on a beam line the modelled member carries the whole load: the energy column is
+    # the floor chain's own peak force (Gere §9.10 on the same compliance)
+    assert pt["energy_method"]["force"] == pytest.approx(pt["chain_peak_force"], rel=1e-3)
+    for key in ("force", "moment", "shear", "deflection"):
+        assert pt["amplified_demand"][key] >= pt["time_history"][key]
+    assert len(data["plots"]) == 3
+    for p in data["plots"]:
+        assert Path(p).read_bytes()[:8] == PNG_SIGNATURE
+
+
+@pytest.mark.parametrize(("extra", "field"), [
+    (["--lift", "NOPE"], "--lift"),
+    (["--bay", "9-9/Z-Z"], "--bay"),
+    (["--section", "W16X26"], "--section"),
+    (["--plots", "unused"], "--plots"),  # more than one point selected
+])
+def test_project_bad_input_names_the_field(extra: list[str], field: str,
+                                           capsys: pytest.CaptureFixture[str]) -> None:
+    rc, _, err = _run(["verify", DEMO, *extra], capsys)
+    assert rc == 2 and field in err and "Traceback" not in err
+
+
+def test_member_options_or_file_required(capsys: pytest.CaptureFixture[str]) -> None:
+    rc, _, err = _run(["verify"], capsys)
+    assert rc == 2 and "--section" in err
+    rc, _, err = _run(["verify", "--bay", "1-2/A-B"], capsys)
+    assert rc == 2 and "--bay" in err

@@ -1,7 +1,9 @@
-"""``droprig verify``: the time history of one member struck by one dropped load,
-beside the energy method that ``droprig check`` uses.
+"""``droprig verify``: the time history beside the energy method.
 
-Takes ``droprig check``'s options (same units, ranges and messages). Prints, for the
+``droprig verify FILE [--lift ID] [--bay ID] [--load NAME]``: the governing point of
+each bay of a project's analysis (:func:`droprig.solver.verification_table`); with one
+point selected, the full comparison (and ``--plots``). Without FILE, one member with
+``droprig check``'s options (same units, ranges and messages). Prints, for the
 impact alone (existing loads excluded, they are static and add the same to both), the
 energy method's peak contact force, member moment, shear and deflection, the time
 history's (:mod:`droprig.solver.timehistory`), their ratio, and the amplified demand
@@ -14,10 +16,8 @@ from __future__ import annotations
 
 import argparse
 import json
-import math
 import sys
-from dataclasses import dataclass
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
 from droprig.commands.check import (
@@ -33,6 +33,9 @@ from droprig.commands.check import (
 from droprig.model import ModelError
 from droprig.units import UnitError, fmt
 
+if TYPE_CHECKING:
+    from droprig.solver import Verification
+
 QUANTITIES: tuple[tuple[str, str, str], ...] = (
     ("force", "peak contact force", "force"),
     ("moment", "peak member moment", "moment"),
@@ -40,23 +43,6 @@ QUANTITIES: tuple[tuple[str, str, str], ...] = (
     ("deflection", "peak member deflection", "small_length"),
 )
 """(key, label, unit quantity) of the compared peaks, in print and JSON order."""
-
-
-@dataclass(frozen=True)
-class MemberVerification:
-    """Everything ``verify`` reports for one member (SI units)."""
-
-    energy: dict[str, float]
-    time_history: dict[str, float]
-    amplification: dict[str, float]
-    mass_ratio: float
-    compliance_ratio: float
-    contact_compliance: float
-    contact_assumed: bool
-    modes: int
-    time_step: float
-    separation_time: float | None
-    history: Any
 
 
 def run(args: argparse.Namespace) -> int:
@@ -75,52 +61,33 @@ def run(args: argparse.Namespace) -> int:
         return EXIT_BAD_INPUT
 
 
-def verify_member(section: Any, grade: Any, cond: str, L: float, a: float, mass: float,
-                  h: float, *, cushion_stiffness: float | None = None,
-                  load_stiffness: float | None = None,
-                  beam_mass: bool = True) -> MemberVerification:
-    """Energy method and time history of one member (SI inputs as for
-    :func:`droprig.solver.member.assess_member`). The contact compliance is
-    1/k_cushion + 1/k_load; with neither (a rigid load on the bare member) it is taken
-    as :data:`~droprig.solver.amplification.KAPPA_MIN` × the member's compliance, since
-    an Euler–Bernoulli member struck rigidly has no converged contact force
-    (``contact_assumed``)."""
-    from droprig.solver import amplification, beam, timehistory
-
-    EI = grade.E * section.Ix
-    mu = section.mass_per_length
-    f_s = float(beam.green(cond, L, EI, a, a))
-    f_c = 0.0
-    if cushion_stiffness is not None:
-        f_c += 1.0 / cushion_stiffness
-    if load_stiffness is not None:
-        f_c += 1.0 / load_stiffness
-    assumed = f_c <= amplification.KAPPA_MIN * f_s
-    f_th = max(f_c, amplification.KAPPA_MIN * f_s)
-    # droprig's energy rule: η from the struck mass unless a mat is in the path
-    e = timehistory.energy_method_peaks(cond, L, EI, mu, a, mass, h, f_c,
-                                        struck_mass=beam_mass and cushion_stiffness is None)
-    t = timehistory.time_history(cond, L, EI, mu, a, mass, h, f_th, record=True)
-    m_e = float(e.effective_mass)
-    amp = amplification.amplification(mass, m_e, f_c, f_s)
-    energy = {"force": float(e.force), "moment": float(e.moment), "shear": float(e.shear),
-              "deflection": float(e.deflection)}
-    th = {"force": float(t.force[0]), "moment": float(t.moment[0]),
-          "shear": float(t.shear[0]), "deflection": float(t.deflection[0])}
-    factors = {"force": float(amp.force), "moment": float(amp.moment),
-               "shear": float(amp.shear), "deflection": float(amp.deflection)}
-    t_sep = float(t.t_separation[0])
-    return MemberVerification(
-        energy=energy, time_history=th, amplification=factors,
-        mass_ratio=float(amp.mass_ratio), compliance_ratio=f_c / f_s,
-        contact_compliance=f_th, contact_assumed=assumed, modes=int(t.modes[0]),
-        time_step=float(t.dt[0]), separation_time=t_sep if math.isfinite(t_sep) else None,
-        history=t.history)
+_MEMBER_REQUIRED = ("section", "grade", "span", "at", "mass", "drop")
+_MEMBER_ONLY = (*_MEMBER_REQUIRED, "bearing", "cushion_stiffness", "load_stiffness",
+                "crush_force", "crush_stroke", "udl")
 
 
 def _run(args: argparse.Namespace) -> int:
+    if args.file is not None:
+        given = [n for n in _MEMBER_ONLY if getattr(args, n) is not None]
+        if given:
+            raise _BadInputError(f"--{given[0].replace('_', '-')}: member options are for "
+                                 "verifying one member without a project file; with FILE "
+                                 "use --lift, --bay and --load")
+        return _run_project(args)
+    for n in ("lift", "bay", "load"):
+        if getattr(args, n) is not None:
+            raise _BadInputError(f"--{n}: needs a project FILE")
+    missing = [n for n in _MEMBER_REQUIRED if getattr(args, n) is None]
+    if missing:
+        raise _BadInputError(f"--{missing[0]}: missing; give a project FILE, or the member "
+                             "options --section, --grade, --span, --at, --mass, --drop")
+    return _run_member(args)
+
+
+def _run_member(args: argparse.Namespace) -> int:
     from droprig.io.sections import GradeNotFound, SectionNotFound, get_grade, get_section
-    from droprig.solver import beam
+    from droprig.solver import verify_member
+    from droprig.solver.beam import green
 
     try:
         section = get_section(args.section)
@@ -150,7 +117,7 @@ def _run(args: argparse.Namespace) -> int:
         raise _BadInputError("--crush-force: the time history models an elastic contact "
                              "only; verify without the crushable layer, or with "
                              "--cushion-stiffness for an elastic mat")
-    if float(beam.green(args.support, span, 1.0, at, at)) <= 0.0:
+    if float(green(args.support, span, 1.0, at, at)) <= 0.0:
         raise _BadInputError(f"--at: {fmt(at, 'length', system)} is on a support of a "
                              f"{args.support} member, which does not move; move the point")
 
@@ -164,8 +131,7 @@ def _run(args: argparse.Namespace) -> int:
         title = (f"{section.name}, {args.support} {fmt(span, 'length', system)}, "
                  f"{fmt(mass, 'mass', system)} from {fmt(drop, 'length', system)}")
         data = VerificationPlotData(history=v.history, energy_force=v.energy["force"],
-                                    energy_deflection=_energy_at_point(v, section, grade,
-                                                                       args.support, span, at),
+                                    energy_deflection=v.energy_deflection_at_point,
                                     energy_moment=v.energy["moment"], title=title)
         plots = [str(p) for p in write_verification_pngs(data, args.plots, system)]
     if args.json:
@@ -175,16 +141,7 @@ def _run(args: argparse.Namespace) -> int:
     return EXIT_OK
 
 
-def _energy_at_point(v: MemberVerification, section: Any, grade: Any, cond: str, L: float,
-                     a: float) -> float:
-    """The energy method's deflection at the struck point, F·G(a, a) (m), for the plot
-    of the struck point's deflection."""
-    from droprig.solver import beam
-
-    return v.energy["force"] * float(beam.green(cond, L, grade.E * section.Ix, a, a))
-
-
-def _as_json(v: MemberVerification, plots: list[str]) -> dict[str, Any]:
+def _as_json(v: Verification, plots: list[str]) -> dict[str, Any]:
     ratio = {k: (v.energy[k] / v.time_history[k] if v.time_history[k] > 0 else None)
              for k, _, _ in QUANTITIES}
     return {
@@ -206,7 +163,7 @@ def _as_json(v: MemberVerification, plots: list[str]) -> dict[str, Any]:
 
 
 def _table(args: argparse.Namespace, section: str, grade: str, system: str, span: float,
-           at: float, mass: float, drop: float, v: MemberVerification,
+           at: float, mass: float, drop: float, v: Verification,
            plots: list[str]) -> str:
     sysu: Any = system
     lines = [
@@ -243,3 +200,84 @@ def _table(args: argparse.Namespace, section: str, grade: str, system: str, span
         lines.append(f"plot written: {p}")
     lines.append(CAUTION)
     return "\n".join(lines)
+
+
+def _run_project(args: argparse.Namespace) -> int:
+    from droprig.commands import describe_error
+    from droprig.io.project_file import ProjectFileError, load_project
+    from droprig.solver import analyse, verification_table
+
+    try:
+        project = load_project(args.file)
+    except (ProjectFileError, OSError, ValueError) as exc:
+        raise _BadInputError(f"{args.file}: {describe_error(exc)}") from exc
+    zones = [z.id for z in project.lift_zones]
+    if args.lift is not None and args.lift not in zones:
+        raise _BadInputError(f"--lift: {args.lift!r} is not a lift zone of the project; "
+                             "allowed: " + ", ".join(zones))
+    results = analyse(project)
+    bays = [b for b in results.bays
+            if (args.lift is None or b.zone_id == args.lift)
+            and (args.bay is None or b.bay_id == args.bay)
+            and (args.load is None or b.load_name == args.load)]
+    if not bays:
+        known = sorted({b.bay_id for b in results.bays})
+        raise _BadInputError("--bay: no analysed bay matches"
+                             + (f" {args.bay!r}" if args.bay else "")
+                             + (f" for load {args.load!r}" if args.load else "")
+                             + "; bays: " + ", ".join(known))
+    selected = type(results)(cases=results.cases, bays=tuple(bays),
+                             warnings=results.warnings)
+    rows = verification_table(project, selected)
+    system: Any = project.settings.unit_system
+    plots: list[str] = []
+    if args.plots:
+        if len(rows) != 1:
+            raise _BadInputError(f"--plots: {len(rows)} points selected; narrow to one with "
+                                 "--lift, --bay and --load")
+        from droprig.report.verify_plots import VerificationPlotData, write_verification_pngs
+
+        r = rows[0]
+        v = r.verification
+        data = VerificationPlotData(
+            history=v.history, energy_force=v.energy["force"],
+            energy_deflection=v.energy_deflection_at_point,
+            energy_moment=v.energy["moment"],
+            title=f"{r.zone_id} {r.bay_id}, {r.load_name} on {r.member_id}")
+        plots = [str(p) for p in write_verification_pngs(data, args.plots, system)]
+    if args.json:
+        doc = [{"zone": r.zone_id, "load": r.load_name, "bay": r.bay_id, "x": r.x, "y": r.y,
+                "member": r.member_id, "support": r.cond, "span": r.L, "at": r.a,
+                "chain_peak_force": r.chain_peak_force, **_as_json(r.verification, [])}
+               for r in rows]
+        print(json.dumps({"points": doc, "plots": plots, "skipped": len(bays) - len(rows),
+                          "caution": CAUTION}, indent=2))
+        return EXIT_OK
+    lines = [f"droprig verify — {args.file}: governing point of each bay, impact alone; "
+             "the struck member modelled alone with the whole load, the rest of the path "
+             "(other framing, deck, load underside, mat) as a spring in series", ""]
+    lines.append(f"  {'':<48}{'':>19}   energy method ÷ time history")
+    head = (f"  {'zone':<6}{'bay':<10}{'load':<22}{'member':<10}{'r = M/mₑ':>10}"
+            f"{'κ':>9}   {'force':>6}{'moment':>8}{'shear':>7}{'defl.':>7}")
+    lines.append(head)
+    for r in rows:
+        v = r.verification
+        rat = [v.ratio(k) for k, _, _ in QUANTITIES]
+        txt = "".join(f"{(f'{x:.2f}' if x is not None else 'none'):>{w}}"
+                      for x, w in zip(rat, (6, 8, 7, 7), strict=True))
+        lines.append(f"  {r.zone_id:<6}{r.bay_id:<10}{r.load_name[:21]:<22}"
+                     f"{r.member_id:<10}{v.mass_ratio:>10.3g}{v.compliance_ratio:>9.3g}"
+                     f"   {txt}")
+    skipped = len(bays) - len(rows)
+    if skipped:
+        lines.append(f"  ({skipped} bays not verified: governing point under a crushable "
+                     "layer or on a support)")
+    lines.append("")
+    lines.append("A ratio below 1: the energy method reads lower than the time history there; "
+                 "with the project setting dynamic_amplification the checks use the "
+                 "calibrated factors (README, 'Dynamic amplification').")
+    for p in plots:
+        lines.append(f"plot written: {p}")
+    lines.append(CAUTION)
+    print("\n".join(lines))
+    return EXIT_OK

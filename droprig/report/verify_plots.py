@@ -61,7 +61,9 @@ def verification_figures(data: VerificationPlotData,
     figs: list[Figure] = []
     for key, title, quantity in PLOTS:
         y, e = series[key]
-        fig = Figure(figsize=(6.4, 3.6), dpi=100, layout="constrained")
+        fig = Figure(figsize=(6.4, 3.8), dpi=100, layout="constrained")
+        # leave a strip at the bottom for the caution
+        fig.get_layout_engine().set(rect=(0.0, 0.05, 1.0, 0.95))  # type: ignore[union-attr]
         ax = fig.add_subplot()
         yd = [to_display(float(v), quantity, system) for v in y]
         ed = to_display(float(e), quantity, system)
@@ -72,7 +74,7 @@ def verification_figures(data: VerificationPlotData,
         ax.set_title(f"{title} — {data.title}", fontsize=9)
         ax.grid(True, lw=0.3)
         ax.legend(fontsize=8, loc="upper right")
-        fig.text(0.01, 0.005, CAUTION_SHORT, fontsize=6, color="#555555")
+        fig.text(0.01, 0.012, CAUTION_SHORT, fontsize=6.5, color="#555555")
         figs.append(fig)
     return figs
 
