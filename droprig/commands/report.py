@@ -72,14 +72,14 @@ def run(args: argparse.Namespace) -> int:
         return _fail(str(exc))
     except OSError as exc:
         return _fail(f"cannot write {out}: {describe_error(exc)}")
-    verdicts = content.zone_verdicts(project, results, zones)
-    overall = content.overall_response(verdicts)
-    style = content.OUTCOMES.get(overall, content.OUTCOMES[content.NOT_ASSESSED])
+    from droprig.report.annex import VERDICT_WORDS, permit_conditions
+
+    permit = permit_conditions(project, results)
     print(f"{os.path.abspath(out)} ({pages} pages)")
-    print(f"overall verdict: {style.label.upper()}" + (
-        f" ({overall})" if overall != content.NOT_ASSESSED else ""))
+    print(f"overall verdict: {VERDICT_WORDS[permit.verdict].upper()}")  # type: ignore[attr-defined]
+    verdicts = content.zone_verdicts(project, results, zones)
     for zv in verdicts:
         zs = content.OUTCOMES.get(zv.response, content.OUTCOMES[content.NOT_ASSESSED])
-        print(f"  lift zone {zv.zone.id}: {zs.label.lower()}")
+        print(f"  lift zone {zv.zone.id}: worst response {zs.label.lower()}")
     print(CAUTION)
     return EXIT_OK
