@@ -24,6 +24,7 @@ from droprig.solver.chain import (
     Checks,
     Compliance,
     Demands,
+    DynamicAmplification,
     Impact,
     InverseAnswers,
     LoadInputs,
@@ -195,6 +196,25 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     add("Deceleration of the load", "a/g", "a/g = F/W − 1",
         {"F": (imp.F[0], "force"), "W": (W, "force")}, out["deceleration_g"][0],
         "dimensionless", "Newton's second law")
+    # ---- dynamic amplification (project setting; factors 1 when off)
+    amp = chain[DynamicAmplification]
+    on = project.settings.dynamic_amplification
+    if on:
+        src_amp = ("time-history calibration, droprig.solver.amplification (Euler–Bernoulli "
+                   "modes, Blevins 1979 Table 8-1; Newmark, Chopra §5.4)")
+        add("Load mass over the path's struck mass", "r", "r = M / m_e,path",
+            {"M": (M, "mass")}, amp.mass_ratio[0], "dimensionless", src_amp)
+        add("Contact over framing compliance", "κ", "κ = (f − f_s) / f_s",
+            {"f": (comp.f[0], "compliance"), "f_s": (comp.f_s[0], "compliance")},
+            amp.compliance_ratio[0], "dimensionless", src_amp)
+        add("Amplification of the member moment", "A_M", "A_M = table(r, κ)", {},
+            amp.A_moment[0], "dimensionless", src_amp)
+        add("Amplification of the member shear", "A_V", "A_V = table(r, κ)", {},
+            amp.A_shear[0], "dimensionless", src_amp)
+        add("Amplification of the contact force (web and deck checks)", "A_F",
+            "A_F = min(table(r, κ), F_bound/F), F_bound = 1.05·W(1 + √(1 + 2h/(W(f − f_s))))",
+            {"F_bound": (amp.F_bound[0], "force"), "F": (imp.F[0], "force")},
+            amp.factor["web_yielding"][0], "dimensionless", src_amp + "; Gere §9.10")
     # ---- checks
     qty = {"flexure": "moment", "shear": "force", "web_yielding": "force",
            "web_crippling": "force", "deck_flexure": "moment", "deck_punching": "force"}
@@ -203,8 +223,9 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         q = qty[c]
         unit_q = "length" if q == "moment" else "dimensionless"
         add(f"{c.replace('_', ' ').capitalize()} — {mname(dem.checks[c].member[0])}", f"U_{c}",
-            "U = |F·u + E| / R",
-            {"F": (imp.F[0], "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
+            "U = |A·F·u + E| / R" if on else "U = |F·u + E| / R",
+            {**({"A": (amp.factor[c][0], "dimensionless")} if on else {}),
+             "F": (imp.F[0], "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
              "E": (_detail(dem.checks[c].exist)[0], q), "R": (_detail(dem.checks[c].resist)[0], q)},
             dem.checks[c].U[0], "dimensionless", _SRC_CHECK[c])
     add("Utilisation", "U", "U = max over the checks", {}, ck.U[0],
