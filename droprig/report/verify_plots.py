@@ -21,9 +21,12 @@ from droprig.units import UnitSystem, display_unit, to_display
 if TYPE_CHECKING:
     from matplotlib.figure import Figure
 
+    from droprig.model import Project
+    from droprig.solver import PointVerification
     from droprig.solver.timehistory import History
 
-__all__ = ["PLOTS", "VerificationPlotData", "verification_figures", "write_verification_pngs"]
+__all__ = ["PLOTS", "VerificationPlotData", "point_verification_figures",
+           "verification_figures", "write_verification_pngs"]
 
 PLOTS: tuple[tuple[str, str, str], ...] = (
     ("force", "contact force", "force"),
@@ -98,3 +101,20 @@ def write_verification_pngs(data: VerificationPlotData, folder: str | os.PathLik
         atomic_write_bytes(target, buf.getvalue())
         paths.append(target)
     return paths
+
+
+def point_verification_figures(project: Project, zone_id: str, load_name: str, x: float,
+                               y: float) -> tuple[PointVerification, list[Figure]]:
+    """For the window's trace panel: the time-history verification of a drop point
+    (:func:`droprig.solver.verify_point`) and its three figures in the project's unit
+    system. Raises :class:`~droprig.model.ModelError` naming the zone, load or point
+    when the point cannot be verified (no deck panel, an opening, a crushable layer)."""
+    from droprig.solver import verify_point
+
+    pv = verify_point(project, zone_id, load_name, x, y)
+    v = pv.verification
+    data = VerificationPlotData(
+        history=v.history, energy_force=v.energy["force"],
+        energy_deflection=v.energy_deflection_at_point, energy_moment=v.energy["moment"],
+        title=f"{pv.zone_id} {pv.bay_id}, {pv.load_name} on {pv.member_id}")
+    return pv, verification_figures(data, project.settings.unit_system)
