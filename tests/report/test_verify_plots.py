@@ -40,3 +40,18 @@ def test_unverifiable_point_names_the_field() -> None:
     project = load_project(DEMO)
     with pytest.raises(ModelError, match=r"verify\.lift"):
         point_verification_figures(project, "NOPE", "x", 0.0, 0.0)
+
+
+def test_annex_rows_match_the_solver_table() -> None:
+    from droprig.report.verification import VERIFICATION_HEADER, verification_rows
+    from droprig.solver import analyse, verification_table
+
+    project = load_project(DEMO)
+    res = analyse(project)
+    rows = verification_rows(project, res)
+    table = verification_table(project, res)
+    assert len(rows) == len(table) > 0
+    for row, pv in zip(rows, table, strict=True):
+        assert len(row) == len(VERIFICATION_HEADER)
+        assert row[1] == pv.bay_id and row[3] == pv.member_id
+        assert float(row[11]) == pytest.approx(pv.verification.ratio("moment"), abs=0.005)
