@@ -35,15 +35,22 @@ def _random_case(rng: np.random.Generator) -> tuple[str, float, float, float, fl
     return cond, L, EI, mu, a, r * m_e, h, f_c
 
 
-def test_amplified_demand_never_below_time_history() -> None:
-    rng = np.random.default_rng(20261203)
+@pytest.mark.parametrize(("struck_mass", "n_cases", "seed"), [
+    (True, N_CASES, 20261203),  # the energy method with η = M/(M + mₑ)
+    (False, N_CASES // 2, 20261204),  # η = 1, droprig's rule under mats
+])
+def test_amplified_demand_never_below_time_history(struck_mass: bool, n_cases: int,
+                                                   seed: int) -> None:
+    rng = np.random.default_rng(seed)
     worst = {"force": 0.0, "moment": 0.0, "shear": 0.0, "deflection": 0.0}
-    for _ in range(N_CASES):
+    for _ in range(n_cases):
         cond, L, EI, mu, a, M, h, f_c = _random_case(rng)
-        e = timehistory.energy_method_peaks(cond, L, EI, mu, a, M, h, f_c)
+        e = timehistory.energy_method_peaks(cond, L, EI, mu, a, M, h, f_c,
+                                            struck_mass=struck_mass)
         t = timehistory.time_history(cond, L, EI, mu, a, M, h, f_c)
         amp = amplification.amplification(M, e.effective_mass, f_c,
-                                          beam.green(cond, L, EI, a, a))
+                                          beam.green(cond, L, EI, a, a),
+                                          struck_mass=struck_mass)
         bound = float(amplification.contact_force_bound(M * impact.G, h, f_c))
         for key in worst:
             demand = float(getattr(amp, key)) * float(getattr(e, key))
@@ -52,9 +59,9 @@ def test_amplified_demand_never_below_time_history() -> None:
             th = float(getattr(t, key)[0])
             worst[key] = max(worst[key], th / demand)
             assert demand >= th, (key, cond, L, EI, mu, a, M, h, f_c)
-    # and the table is not needlessly loose somewhere: each quantity comes within
-    # 25 % of the time history on some case
-    assert min(worst.values()) > 0.75, worst
+    # and the table is not loose everywhere: each quantity comes within 40 % of the
+    # time history on some case (cell maxima + neighbours + 10–15 % margin)
+    assert min(worst.values()) > 0.6, worst
 
 
 def test_heavy_load_factors_are_the_least() -> None:
