@@ -19,7 +19,7 @@ import json
 import sys
 from typing import TYPE_CHECKING, Any
 
-from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
+from droprig.cli import EXIT_BAD_INPUT, EXIT_OK
 from droprig.commands.check import (
     DROP_RANGE,
     LOAD_STIFFNESS_RANGE,
@@ -31,6 +31,7 @@ from droprig.commands.check import (
     _range,
 )
 from droprig.model import ModelError
+from droprig.texts import CAUTION
 from droprig.units import UnitError, fmt
 
 if TYPE_CHECKING:
@@ -86,8 +87,7 @@ def _run(args: argparse.Namespace) -> int:
 
 def _run_member(args: argparse.Namespace) -> int:
     from droprig.io.sections import GradeNotFound, SectionNotFound, get_grade, get_section
-    from droprig.solver import verify_member
-    from droprig.solver.beam import green
+    from droprig.solver import on_rigid_support, verify_member
 
     try:
         section = get_section(args.section)
@@ -117,7 +117,7 @@ def _run_member(args: argparse.Namespace) -> int:
         raise _BadInputError("--crush-force: the time history models an elastic contact "
                              "only; verify without the crushable layer, or with "
                              "--cushion-stiffness for an elastic mat")
-    if float(green(args.support, span, 1.0, at, at)) <= 0.0:
+    if on_rigid_support(args.support, span, at):
         raise _BadInputError(f"--at: {fmt(at, 'length', system)} is on a support of a "
                              f"{args.support} member, which does not move; move the point")
 

@@ -22,8 +22,7 @@ if TYPE_CHECKING:
     from matplotlib.figure import Figure
 
     from droprig.model import Project
-    from droprig.solver import PointVerification
-    from droprig.solver.timehistory import History
+    from droprig.solver import History, PointVerification
 
 __all__ = ["PLOTS", "VerificationPlotData", "point_verification_figures",
            "verification_figures", "write_verification_pngs"]

@@ -37,6 +37,7 @@ from droprig.solver.results import (
     Trace,
     TraceStep,
 )
+from droprig.solver.timehistory import History
 from droprig.solver.trace import trace_point
 from droprig.solver.verification import (
     PointVerification,
@@ -59,6 +60,7 @@ __all__ = [
     "AdviceKind",
     "BaySummary",
     "CaseResult",
+    "History",
     "PointVerification",
     "Resistances",
     "Results",

@@ -12,8 +12,8 @@
 Both methods are run on the same idealisation so that their ratio shows the method,
 not the idealisation: the energy method of :func:`timehistory.energy_method_peaks`
 (Gere 7th ed. §9.10 with the Rayleigh struck mass, as droprig applies it: η = 1 under
-mats; for a project point the floor chain's mₑ·(f_s/f)², for one member droprig check's
-mₑ) and the time history of :func:`timehistory.time_history` (Euler–Bernoulli
+mats; the struck mass referred to the load, mₑ·(f_s/f)², as the floor chain and
+droprig check take it) and the time history of :func:`timehistory.time_history` (Euler–Bernoulli
 modes, Blevins 1979 Table 8-1; Newmark average acceleration, Chopra §5.4). A rigid
 contact is given KAPPA_MIN × the member's compliance (an Euler–Bernoulli member struck
 rigidly has no converged contact force; moment and deflection do not depend on it).
@@ -126,7 +126,8 @@ def verify_member(section: Section, grade: Grade, cond: str, L: float, a: float,
                   beam_mass: bool = True) -> Verification:
     """One member (SI inputs as :func:`droprig.solver.member.assess_member`): contact
     compliance 1/k_cushion + 1/k_load in series; the energy method with the struck-mass
-    share unless a mat is given or ``beam_mass`` is off (droprig check's rule)."""
+    share mₑ·(f_s/f)² unless a mat is given or ``beam_mass`` is off (droprig check's
+    rule)."""
     if cond not in beam.END_CONDITIONS:
         raise ModelError("support", cond, "one of " + ", ".join(beam.END_CONDITIONS))
     f_c = 0.0
@@ -135,7 +136,7 @@ def verify_member(section: Section, grade: Grade, cond: str, L: float, a: float,
     if load_stiffness is not None:
         f_c += 1.0 / load_stiffness
     return _verify(cond, L, grade.E * section.Ix, section.mass_per_length, a, mass, h, f_c,
-                   beam_mass and cushion_stiffness is None)
+                   beam_mass and cushion_stiffness is None, scaled_mass=True)
 
 
 def verify_point(project: Project, zone_id: str, load_name: str, x: float,
