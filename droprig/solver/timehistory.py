@@ -45,9 +45,9 @@ from dataclasses import dataclass
 
 import numpy as np
 from numpy.typing import ArrayLike
-from scipy.optimize import brentq
 
 from droprig.solver import beam, impact
+from droprig.solver.beam import EndCondition
 
 __all__ = [
     "DEFAULT_CUTOFF",
@@ -88,8 +88,9 @@ def eigenvalue_parameters(cond: str, n: int) -> np.ndarray:
 
     Blevins 1979, Table 8-1: pinned–pinned λₙ = nπ; clamped–clamped cos λ·cosh λ = 1
     (4.73004, 7.85320, …); clamped–pinned tan λ = tanh λ (3.92660, 7.06858, …);
-    clamped–free cos λ·cosh λ = −1 (1.87510, 4.69409, …). Roots by Brent's method
-    within ±0.4 of the asymptotes (2n + 1)π/2, (4n + 1)π/4 and (2n − 1)π/2.
+    clamped–free cos λ·cosh λ = −1 (1.87510, 4.69409, …). Roots
+    by bisection within ±0.4 of the asymptotes (2n + 1)π/2, (4n + 1)π/4 and
+    (2n − 1)π/2.
     """
     if cond not in beam.END_CONDITIONS:
         raise ValueError(f"end condition: {cond!r} is not allowed; allowed: "
@@ -99,8 +100,22 @@ def eigenvalue_parameters(cond: str, n: int) -> np.ndarray:
         return k * math.pi
     asym = {"fixed": (2 * k + 1) * math.pi / 2, "propped": (4 * k + 1) * math.pi / 4,
             "cantilever": (2 * k - 1) * math.pi / 2}[cond]
-    return np.array([brentq(lambda x: _char(cond, x), s - 0.4, s + 0.4, xtol=1e-14)
-                     for s in asym])
+    return np.array([_bisect(cond, s - 0.4, s + 0.4) for s in asym])
+
+
+def _bisect(cond: str, lo: float, hi: float) -> float:
+    """The root of :func:`_char` in [lo, hi] (one sign change), by bisection to 1e-14."""
+    f_lo = _char(cond, lo)
+    for _ in range(200):
+        mid = 0.5 * (lo + hi)
+        f_mid = _char(cond, mid)
+        if (f_mid < 0.0) == (f_lo < 0.0):
+            lo, f_lo = mid, f_mid
+        else:
+            hi = mid
+        if hi - lo <= 1e-14:
+            break
+    return 0.5 * (lo + hi)
 
 
 def natural_frequencies(cond: str, L: float, EI: float, mu: float, n: int) -> np.ndarray:
@@ -223,7 +238,7 @@ class TimeHistoryPeaks:
 
 
 # --------------------------------------------------------------------------- energy
-def energy_method_peaks(cond: str, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
+def energy_method_peaks(cond: EndCondition, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
                         a: ArrayLike, M: ArrayLike, h: ArrayLike,
                         f_c: ArrayLike = 0.0, *, struck_mass: bool = True,
                         scaled_mass: bool = False) -> EnergyPeaks:
@@ -253,7 +268,7 @@ def energy_method_peaks(cond: str, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
 
 
 # --------------------------------------------------------------------------- history
-def time_history(cond: str, L: ArrayLike, EI: ArrayLike, mu: ArrayLike, a: ArrayLike,
+def time_history(cond: EndCondition, L: ArrayLike, EI: ArrayLike, mu: ArrayLike, a: ArrayLike,
                  M: ArrayLike, h: ArrayLike, f_c: ArrayLike = 0.0, *,
                  n_modes: int = DEFAULT_MODES, cutoff: float = DEFAULT_CUTOFF,
                  steps_per_period: int = DEFAULT_STEPS_PER_PERIOD,

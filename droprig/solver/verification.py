@@ -27,8 +27,10 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from droprig.model import Grade, ModelError, Project, Section
+from droprig.model import Grade, Level, ModelError, Project, Section
 from droprig.solver import amplification, beam, timehistory
+from droprig.solver.beam import EndCondition
+from droprig.solver.geometry import Geometry
 
 __all__ = [
     "QUANTITIES",
@@ -94,7 +96,7 @@ class PointVerification:
     verification: Verification
 
 
-def _verify(cond: str, L: float, EI: float, mu: float, a: float, M: float, h: float,
+def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
             f_c: float, struck_mass: bool, scaled_mass: bool = False) -> Verification:
     f_s = float(beam.green(cond, L, EI, a, a))
     if f_s <= 0.0:
@@ -120,7 +122,7 @@ def _verify(cond: str, L: float, EI: float, mu: float, a: float, M: float, h: fl
         history=t.history)
 
 
-def verify_member(section: Section, grade: Grade, cond: str, L: float, a: float,
+def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, a: float,
                   mass: float, h: float, *, cushion_stiffness: float | None = None,
                   load_stiffness: float | None = None,
                   beam_mass: bool = True) -> Verification:
@@ -193,12 +195,12 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
                              verification=ver)
 
 
-def _bay_name(level: object, geo: object) -> str:
+def _bay_name(level: Level, geo: Geometry) -> str:
     """The id of the column bay (droprig.model.bays) the point lies in, '' if none."""
     from droprig.model import bays
 
     b = int(geo.bay[0])
-    all_bays = bays(level)  # type: ignore[arg-type]
+    all_bays = bays(level)
     return all_bays[b].id if 0 <= b < len(all_bays) else ""
 
 
