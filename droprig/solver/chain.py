@@ -30,7 +30,8 @@ returns a small frozen dataclass of numpy arrays, one value per point:
 5b. :func:`amplified_demands` → :class:`Demands` (replacing step 5's): every check
    family at its amplified force — flexure at A_M·F, shear at A_V·F, web, deck
    flexure and punching at min(A_F·F, bound) — so the checks use the larger of the
-   energy method and the time-history-based demand.
+   energy method and the time-history-based demand; beyond yield (steps 7 and 8) the
+   kinetic energy is scaled by A_δ².
 6. :func:`checks` → :class:`Checks`: the elastic verdict (largest U, least F_allow,
    governing member and check) and the brittle checks at the force the yielding path
    can pass on, R_p (DNV-RP-C204 accidental limit state, from memory).
@@ -602,6 +603,10 @@ def beyond_yield(c: Chain) -> BeyondYield:
     with np.errstate(divide="ignore", invalid="ignore"):
         h_struct = np.where(crush_ok, np.maximum(h - (F_c - W) * s_c / (eta * W), 0.0),
                             h_struct)
+    # dynamic amplification: the energy the structure takes is scaled by A_δ² so that
+    # an elastic response would deflect A_δ times the energy method's (δ ∝ √E; an
+    # approximation beyond yield, stated in the README); × 1 when the setting is off
+    h_struct = h_struct * c[DynamicAmplification].A_deflection ** 2
     over = ck.U > 1.0
     pl = over & ~ck.brittle_fail
     sub = slice(None) if d.detail or bool(pl.all()) else np.flatnonzero(pl)
@@ -700,6 +705,8 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     h_pl = h_pl + np.where(crushable & (F_c < R_p) & (F_c > W),
                            (F_c - W) * s_c / (eta * W), 0.0)
+    # the drop height that gives the structure that energy after amplification (A_δ²)
+    h_pl = h_pl / c[DynamicAmplification].A_deflection ** 2
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)

@@ -111,3 +111,20 @@ def test_setting_must_be_a_bool(bad: object) -> None:
     p = _project(False)
     with pytest.raises(ModelError, match="dynamic_amplification"):
         replace(p.settings, dynamic_amplification=bad)
+
+
+def test_on_beyond_yield_takes_the_amplified_energy() -> None:
+    # Biggs (1964) elastic–plastic energy balance with the kinetic energy × A_δ²: more
+    # energy gives a larger plastic deflection and a lower allowable plastic height
+    from droprig.solver.chain import BeyondYield, InverseAnswers
+
+    for c0, c1 in zip(_chains(False), _chains(True), strict=True):
+        A = c1[DynamicAmplification].A_deflection
+        np.testing.assert_allclose(c1[BeyondYield].h_struct, c0[BeyondYield].h_struct * A**2,
+                                   rtol=REL)
+        d0, d1 = c0[BeyondYield].d_m, c1[BeyondYield].d_m
+        both = np.isfinite(d0) & np.isfinite(d1)
+        assert np.all(d1[both] >= d0[both] * (1 - REL))
+        h0, h1 = c0[InverseAnswers].h_pl, c1[InverseAnswers].h_pl
+        both = np.isfinite(h0) & np.isfinite(h1)
+        assert np.all(h1[both] <= h0[both] * (1 + REL))
