@@ -12,7 +12,6 @@ from pathlib import Path
 import pytest
 from PySide6.QtWidgets import QApplication, QTableView
 
-from droprig.advice import advice_text
 from droprig.gui.results_table import COL
 
 pytestmark = pytest.mark.gui
@@ -87,5 +86,9 @@ def test_the_whole_advice_of_the_selected_row_is_shown(qtbot, win) -> None:
     system = win.doc.project.settings.unit_system
     from html import escape
 
-    assert escape(advice_text(b, system)) in text and t.detail.isVisible()
+    # the detail pane prints the permit's own condition sentences (issue 13: one truth)
+    v = t.model.verdict(b)
+    assert v is not None
+    said = " ".join(c.sentence(system) for c in v.conditions) or v.cells(system)["verdict"]
+    assert escape(said) in text and t.detail.isVisible()
     assert t.detail.wordWrap()
