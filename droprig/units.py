@@ -1,8 +1,8 @@
 """Unit conversion at the edges (input fields, files, CLI, report) with pint.
 
 Core code never sees a unit string: :func:`parse` turns user text into an SI
-float for a named quantity (by a grammar, never by evaluating an expression), :func:`fmt` turns an SI float into text in the
-user's unit system.
+float for a named quantity (by a grammar, never by evaluating an expression),
+:func:`fmt` turns an SI float into text in the user's unit system.
 """
 
 from __future__ import annotations
