@@ -14,7 +14,7 @@ from pathlib import Path
 
 import pytest
 
-from droprig.cli import CAUTION, main
+from droprig.cli import main
 from droprig.io.project_file import save_project
 from droprig.model import (
     ColumnGrid,
@@ -29,6 +29,7 @@ from droprig.model import (
     Settings,
     generate_level,
 )
+from droprig.texts import CAUTION
 
 GRADE = Grade("S355", "EN", ((0.016, 355e6), (0.04, 345e6)), 470e6)
 SEC = Section("C1", "custom", d=0.3, bf=0.15, tw=0.0071, tf=0.0107, r=0.015, A=5.381e-3,
@@ -110,6 +111,38 @@ def test_json_and_csv_files(project_file, tmp_path, capsys):
         assert "nan" not in r.values()
         float(r["x_m"])
         float(r["peak_force_N"])
+
+
+def test_local_damage_and_level_below_reach_json_and_csv(tmp_path, capsys):
+    # the two-level demo (invented input): perforation, scabbing and the cascade to
+    # the level below appear in both outputs, SI, never NaN
+    from pathlib import Path
+
+    demo = Path(__file__).resolve().parents[1] / "demo_projects" / "two_level_rigging.droprig"
+    jpath, cpath = tmp_path / "r.json", tmp_path / "r.csv"
+    assert main(["analyse", str(demo), "--json", str(jpath), "--csv", str(cpath)]) == 0
+    out = capsys.readouterr().out
+    assert CAUTION in out
+    assert main(["analyse", str(demo)]) == 0
+    table = capsys.readouterr().out
+    assert "Through the deck of level RF to level L3" in table and CAUTION in table
+    doc = _no_nan(jpath.read_text(encoding="utf-8"))
+    perf = [b for b in doc["bays"] if b["response"] == "perforates"]
+    assert perf and all(b["level_below"] == "L3" and b["advice_kind"] == "level_below"
+                        and "level L3" in b["advice"] for b in perf)
+    assert doc["level_below"] and all(f["level"] == "L3" and f["bays"]
+                                      for f in doc["level_below"])
+    with cpath.open(encoding="utf-8", newline="") as fh:
+        rows = list(csv.DictReader(fh))
+    through = [r for r in rows if r["through_level"] == "RF"]
+    assert len(rows) - len(through) == doc["points"]
+    assert len(through) == sum(f["points"] for f in doc["level_below"])
+    assert all(r["level"] == "L3" for r in through)
+    for col in ("penetration_m", "scabbing_height_m", "perforation_height_m",
+                "residual_velocity_m_per_s", "scabbing", "strike_orientation"):
+        assert col in rows[0]
+    assert {r["response"] for r in rows} <= {"elastic", "plastic", "exceeds", "perforates"}
+    assert all("nan" not in r.values() for r in rows)
 
 
 @pytest.mark.parametrize("content", ["not json at all", "{}", '{"format_version": 99}'])

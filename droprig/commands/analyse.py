@@ -2,8 +2,10 @@
 
 Without ``--json``/``--csv`` a per-bay table is printed in the project's unit
 system, followed by the caution. ``--json`` writes the per-bay summaries (SI,
-``null`` where no value exists, never NaN); ``--csv`` one row per drop point with
-the SI unit in each column name. Bad input: one message on stderr, exit 2.
+``null`` where no value exists, never NaN; ``level_below``: the loads that
+perforate a deck, passed to the level below and assessed there); ``--csv`` one row
+per drop point with the SI unit in each column name (``through_level``: the level
+a cascaded row came through). Bad input: one message on stderr, exit 2.
 """
 
 from __future__ import annotations
@@ -18,7 +20,8 @@ from dataclasses import asdict
 from typing import Any
 
 from droprig import __version__
-from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
+from droprig.cli import EXIT_BAD_INPUT, EXIT_OK
+from droprig.texts import CAUTION
 
 CSV_COLUMNS: tuple[tuple[str, str], ...] = (
     ("x", "x_m"),
@@ -39,6 +42,10 @@ CSV_COLUMNS: tuple[tuple[str, str], ...] = (
     ("support_rotation", "support_rotation_rad"),
     ("required_mat_stiffness", "required_mat_stiffness_N_per_m"),
     ("required_crush_stroke", "required_crush_stroke_m"),
+    ("penetration", "penetration_m"),
+    ("scabbing_height", "scabbing_height_m"),
+    ("perforation_height", "perforation_height_m"),
+    ("residual_velocity", "residual_velocity_m_per_s"),
 )
 """(CaseResult field, CSV column name with its SI unit)."""
 
@@ -69,14 +76,20 @@ def results_document(project: Any, results: Any) -> dict[str, Any]:
     from droprig.advice import advice_text
 
     system = project.settings.unit_system
-    bays_out = []
-    for b in results.bays:
+
+    def bay_doc(b: Any) -> dict[str, Any]:
         d = asdict(b)
         d["advice"] = advice_text(b, system)
         d["lift"] = b.zone_id
         d["level"] = b.level_id
         d["max_utilisation_unbounded"] = not math.isfinite(b.max_utilisation)
-        bays_out.append(d)
+        return d
+
+    bays_out = [bay_doc(b) for b in results.bays]
+    cascade_out = [{"lift": f.zone_id, "load": f.load_name, "from_level": f.from_level,
+                    "level": f.level_id, "equivalent_drop_height": f.equivalent_height,
+                    "points": int(f.case.n), "bays": [bay_doc(b) for b in f.bays]}
+                   for f in getattr(results, "cascade", ())]
     return _clean({
         "droprig_version": __version__,
         "project": project.info.name,
@@ -84,6 +97,7 @@ def results_document(project: Any, results: Any) -> dict[str, Any]:
         "revision": project.info.revision,
         "points": int(results.n_points),
         "bays": bays_out,
+        "level_below": cascade_out,
         "warnings": list(results.warnings),
         "caution": CAUTION,
     })
@@ -100,14 +114,19 @@ def _cell(v: float) -> str:
 def csv_text(project: Any, results: Any) -> str:
     """One row per drop point (SI units named in the header; empty cell = none)."""
     from droprig.model import bays
-    from droprig.solver.results import CHECKS, DECK, RESPONSES
+    from droprig.solver import CHECKS, DECK, RESPONSES
 
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
+    from droprig.model import STRIKE_ORIENTATIONS
+
     w.writerow(["lift", "load", "level", "bay", "protection", *[c for _, c in CSV_COLUMNS],
-                "governing_member", "governing_check", "response"])
+                "governing_member", "governing_check", "response", "scabbing",
+                "local_extrapolated", "strike_orientation", "through_level"])
     prot_ids = [p.id for p in project.protection_areas]
-    for case in results.cases:
+    rows = [(c, "") for c in results.cases]
+    rows += [(f.case, f.from_level) for f in getattr(results, "cascade", ())]
+    for case, through in rows:
         level = project.level(case.level_id)
         bay_ids = [b.id for b in bays(level)]
         mem_ids = [m.id for m in level.members]
@@ -121,7 +140,11 @@ def csv_text(project: Any, results: Any) -> str:
                         *[_cell(float(c[i])) for c in cols],
                         "deck" if g == DECK else mem_ids[g],
                         CHECKS[int(case.governing_check[i])],
-                        RESPONSES[int(case.response[i])]])
+                        RESPONSES[int(case.response[i])],
+                        "true" if case.scabbing[i] else "false",
+                        "true" if case.local_extrapolated[i] else "false",
+                        STRIKE_ORIENTATIONS[int(case.strike_orientation[i])]
+                        if case.strike_orientation[i] >= 0 else "", through])
     return buf.getvalue()
 
 
@@ -153,6 +176,14 @@ def table_text(project: Any, results: Any) -> str:
     out.append("Advice per bay:")
     for b in results.bays:
         out.append(f"  {b.zone_id} / {b.load_name} / {b.bay_id}: {advice_text(b, system)}")
+    for f in getattr(results, "cascade", ()):
+        out.append("")
+        out.append(f"Through the deck of level {f.from_level} to level {f.level_id}: "
+                   f"{f.load_name} ({f.zone_id}) strikes as if dropped "
+                   f"{fmt(f.equivalent_height, 'length', system)}")
+        for b in f.bays:
+            out.append(f"  {b.bay_id}: {b.response}, max U "
+                       f"{fmt_utilisation(b.max_utilisation)}; {advice_text(b, system)}")
     for wmsg in results.warnings:
         out.append(f"Warning: {wmsg}")
     out.append("")
@@ -175,11 +206,11 @@ def _write(target: str, text: str, project_path: str = "", *, force: bool = Fals
 
 
 def run(args: argparse.Namespace) -> int:
-    from droprig.commands import describe_error
     from droprig.io.atomic import OutputRefusedError, check_output
     from droprig.io.project_file import ProjectFileError, load_project
     from droprig.model import ModelError
-    from droprig.solver.analysis import analyse
+    from droprig.solver import analyse
+    from droprig.texts import describe_error
 
     json_out = getattr(args, "json_out", None)
     csv_out = getattr(args, "csv_out", None)

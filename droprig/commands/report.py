@@ -14,7 +14,8 @@ import argparse
 import os
 import sys
 
-from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
+from droprig.cli import EXIT_BAD_INPUT, EXIT_OK
+from droprig.texts import CAUTION
 
 
 def _fail(message: str) -> int:
@@ -23,10 +24,10 @@ def _fail(message: str) -> int:
 
 
 def run(args: argparse.Namespace) -> int:
-    from droprig.commands import describe_error
     from droprig.io.project_file import ProjectFileError, load_project
     from droprig.model import ModelError
     from droprig.report import content
+    from droprig.texts import describe_error
     from droprig.units import UnitError
 
     path = args.file
@@ -63,7 +64,7 @@ def run(args: argparse.Namespace) -> int:
 
     from droprig.preflight import analysis_problems
     from droprig.report.annex import write_annex
-    from droprig.solver.analysis import analyse
+    from droprig.solver import analyse
 
     problems = analysis_problems(project)
     if problems:

@@ -36,6 +36,7 @@ HATCH_STYLE: dict[str, Qt.BrushStyle] = {
     "none": Qt.BrushStyle.NoBrush,
     "diagonal": Qt.BrushStyle.BDiagPattern,
     "cross": Qt.BrushStyle.DiagCrossPattern,
+    "grid": Qt.BrushStyle.CrossPattern,
     "dots": Qt.BrushStyle.Dense7Pattern,
 }
 """Qt brush pattern of each hatch kind of :mod:`droprig.outcomes`."""
@@ -217,7 +218,7 @@ CAUTION_SHORT = (
     "person and a licensed engineer"
 )
 """The caution shown permanently in the status bar (the full sentence is
-``droprig.cli.CAUTION``)."""
+``droprig.texts.CAUTION``)."""
 
 APP_ORGANISATION = "Droprig Works"
 APP_NAME = "droprig"

@@ -292,11 +292,25 @@ def _load_doc(ld: LiftLoad) -> dict[str, object]:
     out["hang_length_m"] = ld.hang_length
     if ld.contact_stiffness is not None:
         out["contact_stiffness_N_per_m"] = ld.contact_stiffness
+    # strike data only when not the defaults, so older files round-trip unchanged
+    if ld.strike_orientations != _DEFAULT_LOAD.strike_orientations or ld.strike_reason:
+        out["strike_orientations"] = list(ld.strike_orientations)
+        out["strike_reason"] = ld.strike_reason
+    if ld.edge_width != _DEFAULT_LOAD.edge_width:
+        out["edge_width_m"] = ld.edge_width
+    if ld.hard is not None:
+        out["hard"] = ld.hard
     return out
 
 
+_DEFAULT_LOAD = LiftLoad(name="default", mass=1.0)
+_ZONE_DRIFT_KEYS = (("slew_speed", "slew_speed_rad_per_s"), ("hoist_speed", "hoist_speed_m_per_s"),
+                    ("radial_speed", "radial_speed_m_per_s"),
+                    ("swing_length", "swing_length_m"))
+
+
 def _zone_doc(z: LiftZone) -> dict[str, object]:
-    return {
+    out: dict[str, object] = {
         "id": z.id,
         "name": z.name,
         "level_id": z.level_id,
@@ -309,6 +323,14 @@ def _zone_doc(z: LiftZone) -> dict[str, object]:
         "corridor_m": [_point_doc(p) for p in z.corridor],
         "loads": [_load_doc(ld) for ld in z.loads],
     }
+    # drift data only when computed or entered, so older files round-trip unchanged
+    if z.drift_mode != "given" or any(getattr(z, a) for a, _ in _ZONE_DRIFT_KEYS) \
+            or z.swing_angle:
+        out["drift_mode"] = z.drift_mode
+        for attr, key in _ZONE_DRIFT_KEYS:
+            out[key] = getattr(z, attr)
+        out["swing_angle_deg"] = _rad_to_deg_text(float(z.swing_angle))
+    return out
 
 
 def _protection_doc(p: ProtectionArea) -> dict[str, object]:
@@ -680,7 +702,7 @@ def _schema_problems(doc: dict[str, Any]) -> list[str]:
             continue
         if v == "type":
             want = err.validator_value
-            want_t = " or ".join(_TYPE_WORDS.get(w, w) for w in (
+            want_t = " or ".join(str(_TYPE_WORDS.get(w, w)) for w in (
                 want if isinstance(want, list) else [want]))
             out.append((path, f"{_shown(err.instance)} is {_json_type(err.instance)}; "
                               f"expected {want_t}"))
@@ -775,11 +797,16 @@ _KEYS_GRADE = {"name": "name", "fu": "fu_Pa", "E": "E_Pa", "fy_steps": "fy_steps
 _KEYS_LOAD = {"name": "name", "mass": "mass_kg", "footprint_length": "footprint_length_m",
               "footprint_width": "footprint_width_m", "drop_height": "drop_height_m",
               "hook_elevation": "hook_elevation_m", "hang_length": "hang_length_m",
-              "kind": "kind", "contact_stiffness": "contact_stiffness_N_per_m"}
+              "kind": "kind", "contact_stiffness": "contact_stiffness_N_per_m",
+              "strike_orientations": "strike_orientations", "strike_reason": "strike_reason",
+              "edge_width": "edge_width_m", "hard": "hard"}
 _KEYS_ZONE = {"id": "id", "name": "name", "level_id": "level_id", "crane": "crane_m",
               "r_min": "r_min_m", "r_max": "r_max_m", "slew_start": "slew_start_deg",
               "slew_end": "slew_end_deg", "drift_margin": "drift_margin_m",
-              "corridor": "corridor_m", "loads": "loads"}
+              "corridor": "corridor_m", "loads": "loads", "drift_mode": "drift_mode",
+              "slew_speed": "slew_speed_rad_per_s", "hoist_speed": "hoist_speed_m_per_s",
+              "radial_speed": "radial_speed_m_per_s", "swing_angle": "swing_angle_deg",
+              "swing_length": "swing_length_m"}
 _KEYS_PROTECTION = {"id": "id", "name": "name", "level_id": "level_id", "kind": "kind",
                     "thickness": "thickness_m", "stiffness": "stiffness_N_per_m",
                     "crush_force": "crush_force_N", "crush_stroke": "crush_stroke_m"}
@@ -841,7 +868,7 @@ class _Builder:
 
     def _duplicates(self, items: list[dict[str, Any]], key: str, path: str, what: str) -> bool:
         """Record every repeated ``key``; True if there was one."""
-        seen: dict[str, int] = {}
+        seen: dict[Any, int] = {}
         found = False
         for i, item in enumerate(items):
             v = item.get(key)
@@ -960,6 +987,7 @@ class _Builder:
             failed = True
         if failed:
             raise _BuildFailedError
+        assert grid is not None and deck is not None  # built, or failed above
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LEVEL.items()
                          if k in ("superimposed_dead", "live_in_place")})
         return self._make(path, _KEYS_LEVEL, lambda: Level(
@@ -968,7 +996,10 @@ class _Builder:
     def load(self, v: dict[str, Any], path: str) -> LiftLoad:
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LOAD.items()
                          if k in ("footprint_length", "footprint_width", "hang_length", "kind",
-                                  "contact_stiffness")})
+                                  "contact_stiffness", "strike_reason", "edge_width",
+                                  "hard")})
+        if "strike_orientations" in v:
+            kw["strike_orientations"] = tuple(v["strike_orientations"])
         return self._make(path, _KEYS_LOAD, lambda: LiftLoad(
             name=v["name"], mass=v["mass_kg"], drop_height=v.get("drop_height_m"),
             hook_elevation=v.get("hook_elevation_m"), **kw))
@@ -985,6 +1016,13 @@ class _Builder:
                 kw[attr] = _deg_to_rad(v[key])
         if "drift_margin_m" in v:
             kw["drift_margin"] = v["drift_margin_m"]
+        if "drift_mode" in v:
+            kw["drift_mode"] = v["drift_mode"]
+        for attr, key in _ZONE_DRIFT_KEYS:
+            if key in v:
+                kw[attr] = v[key]
+        if "swing_angle_deg" in v:
+            kw["swing_angle"] = _deg_to_rad(v["swing_angle_deg"])
         if "corridor_m" in v:
             kw["corridor"] = tuple(_point(p) for p in v["corridor_m"])
         zone = self._make(path, _KEYS_ZONE, lambda: LiftZone(

@@ -33,11 +33,20 @@ from dataclasses import dataclass, field
 from droprig import __version__
 from droprig.advice import advice_text
 from droprig.io.atomic import atomic_path
-from droprig.model import Level, LiftZone, Member, ModelError, Project, bays
+from droprig.model import Level, LiftZone, ModelError, Project, bays
 from droprig.report import content, fonts, references
 from droprig.report.formula import SIG, evaluate, fmt_sig, printed_tolerance
 from droprig.report.text import esc, fmt_util, fmt_value, is_none
-from droprig.solver.results import CHECKS, DECK, CaseResult, Results, Trace, TraceStep
+from droprig.solver import (
+    CHECKS,
+    DECK,
+    CaseResult,
+    Results,
+    Trace,
+    TraceStep,
+    is_hard,
+    member_resistances,
+)
 
 Progress = Callable[[float, str], None]
 
@@ -652,7 +661,7 @@ def _units(system: str) -> str:
 
 
 def _caution() -> str:
-    from droprig.cli import CAUTION
+    from droprig.texts import CAUTION
 
     return CAUTION
 
@@ -1009,6 +1018,18 @@ class _Builder:
                 ])
         self.story.append(_table(rows, [0.06 * w, 0.14 * w, 0.07 * w, 0.08 * w, 0.15 * w,
                                         0.12 * w, 0.11 * w, 0.08 * w, 0.09 * w, 0.1 * w]))
+        hard = [(z, ld) for z in self.zones for ld in z.loads if is_hard(ld)]
+        if hard:
+            self.story.append(self.P("Hard items: local damage of the deck", st.h2))
+            for z, ld in hard:
+                left = [o for o in ("flat", "edge", "corner")
+                        if o not in ld.strike_orientations]
+                why = (f"; {', '.join(left)} left out: {esc(ld.strike_reason)}"
+                       if left else "")
+                self.story.append(self.P(
+                    f"{esc(z.id)} / {esc(ld.name)}: checked striking "
+                    f"{', '.join(ld.strike_orientations)}{why}; edge bearing width "
+                    f"{self.v(ld.edge_width, 'small_length')}."))
         prot = [p for p in self.p.protection_areas
                 if p.level_id in {z.level_id for z in self.zones}]
         self.story.append(self.P("Pads and mats", st.h2))
@@ -1114,7 +1135,7 @@ class _Builder:
         many = len(levels) > 1
         for lv in levels:
             for m in lv.members:
-                res = member_resistances(m, self.p)
+                res = member_resistances(m, self.p.settings)
                 rows.append([
                     f"{lv.id}: {m.id}" if many else m.id, m.role, m.section.name,
                     m.grade.name, self.v(m.span, "length").split(" ")[0], m.end_condition,
@@ -1386,7 +1407,7 @@ def step_text(step: TraceStep, system: str, project: Project) -> SheetLine:
 
 
 def sheet_doc(project: Project, results: Results, group: content.SheetGroup) -> SheetDoc:
-    from droprig.solver.trace import trace_point
+    from droprig.solver import trace_point
 
     tr = trace_point(project, group.zone_id, group.load_name, group.x, group.y)
     case = content._case(results, group.zone_id, group.load_name)
@@ -1435,44 +1456,6 @@ def _allow_sig(v: float, system: str, quantity: str = "length") -> str:
 
 
 # ----------------------------------------------------------------------- members
-
-
-@dataclass(frozen=True)
-class Resistances:
-    """Member properties and resistances shown in the member table (SI; ``None``
-    where the solver rules the section out of scope)."""
-
-    fy: float
-    section_class: str
-    flexure: float | None
-    shear: float | None
-    EI: float
-
-
-def member_resistances(m: Member, project: Project) -> Resistances:
-    """The resistances the solver uses for ``m``: flexure (AISC 360-16 F2/F3;
-    EN 1993-1-1 Eq. 6.13/6.14) and shear (AISC 360-16 G2.1; EN 1993-1-1 Eq. 6.18
-    with EN 1993-1-5 §5), with the project's resistance factor and dynamic
-    increase factor on yield; fy is the static yield strength of the governing
-    (thicker) element, Pa."""
-    from droprig.solver import capacity
-
-    s = project.settings
-    sec, grade, basis = m.section, m.grade, s.design_basis
-    kw = {"phi": s.resistance_factor, "dif": s.dynamic_increase_factor}
-    try:
-        cls = capacity.section_class(sec, grade, basis)
-    except ValueError:
-        cls = "?"
-    try:
-        flex: float | None = capacity.flexural_resistance(sec, grade, basis, **kw)
-    except ValueError:
-        flex = None
-    try:
-        shear: float | None = capacity.shear_resistance(sec, grade, basis, **kw)
-    except ValueError:
-        shear = None
-    return Resistances(grade.section_fy(sec), cls, flex, shear, grade.E * sec.Ix)
 
 
 def _resistance_note(project: Project) -> str:

@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 from droprig import outcomes
 from droprig.model import Level, LiftZone, ModelError, Project, bays
-from droprig.solver.results import RESPONSES, BaySummary, CaseResult, Results
+from droprig.solver import RESPONSES, BaySummary, CaseResult, Results
 
 NOT_ASSESSED = outcomes.NOT_ASSESSED
 

@@ -51,11 +51,12 @@ from dataclasses import replace
 import numpy as np
 
 from droprig.model import Level, LiftLoad, LiftZone, Project, corridor_problem
-from droprig.solver import cancel, droppoints, evaluate, memory, refine
+from droprig.solver import cancel, cascade, droppoints, evaluate, memory, refine
 from droprig.solver.chain import FIELDS
+from droprig.solver.drift import resolve_drift
 from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_model
 from droprig.solver.geometry import Geometry, point_geometry
-from droprig.solver.results import BaySummary, CaseResult, Results
+from droprig.solver.results import PERFORATES, BaySummary, Cascade, CaseResult, Results
 from droprig.solver.summary import Advice, bay_advice, summarise
 
 __all__ = [
@@ -80,8 +81,11 @@ def _planned_height(load: LiftLoad, level: Level) -> float:
 def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
                  res: dict[str, np.ndarray]) -> CaseResult:
     arrays = {k: np.ascontiguousarray(res[k]) for k in FIELDS}
-    for k in ("bay", "protection", "governing_member", "governing_check", "response"):
+    for k in ("bay", "protection", "governing_member", "governing_check", "response",
+              "strike_orientation"):
         arrays[k] = arrays[k].astype(np.int64)
+    for k in ("scabbing", "local_extrapolated"):
+        arrays[k] = arrays[k].astype(bool)
     return CaseResult(zone_id=zone.id, load_name=load.name, level_id=level.id,
                       mass=load.mass, weight=load.weight,
                       planned_drop_height=_planned_height(load, level), **arrays)
@@ -92,6 +96,7 @@ def analyse_zone(project: Project, zone_id: str,
                  floor: Callable[[str], FloorModel] | None = None) -> Results:
     """Every load of one lift zone (see :func:`analyse`)."""
     cancel.check()
+    project = resolve_drift(project)
     floor = floor or floor_cache(project)
     zone = project.zone(zone_id)
     fm = floor(zone.level_id)
@@ -108,6 +113,8 @@ def analyse_zone(project: Project, zone_id: str,
                         f"{level.id}; drops there are not assessed by droprig")
     cases = []
     summaries: list[BaySummary] = []
+    falls: list[Cascade] = []
+    below = cascade.level_below(project, level.id)
     allres = refine.zone_points(fm, project, zone, (x, y)) if zone.loads else {}
     if zone.loads:
         confirm_plastic_heights(fm, project, zone, allres)
@@ -116,11 +123,40 @@ def analyse_zone(project: Project, zone_id: str,
         res = {k: v[sel] for k, v in allres.items()}
         case = _case_result(zone, load, level, res)
         cases.append(case)
-        summaries.extend(summarise(level, zone, load, case, res["F_allow"]))
+        summaries.extend(summarise(level, zone, load, case, res["F_allow"],
+                                   below.id if below is not None else None))
+        if below is not None:
+            fall = _cascade(project, zone, load, case, below, floor)
+            if fall is not None:
+                falls.append(fall)
     if not zone.loads:
         warnings.append(f"zone {zone.id}: no loads to assess")
     warnings.extend(useless_layers(project, zone))
-    return Results(tuple(cases), tuple(summaries), tuple(warnings))
+    return Results(tuple(cases), tuple(summaries), tuple(warnings), tuple(falls))
+
+
+def _cascade(project: Project, zone: LiftZone, load: LiftLoad, case: CaseResult,
+             below: Level, floor: Callable[[str], FloorModel]) -> Cascade | None:
+    """The level below a perforated deck, struck at the perforating points by the
+    same load from the equivalent height h_eq = V_r²/(2g) + Δ (the largest over
+    those points; :mod:`droprig.solver.cascade`), assessed in the same run with its
+    own bay outcomes. ``None`` where nothing perforates."""
+    hit = case.response == PERFORATES
+    if not hit.any():
+        return None
+    level = project.level(case.level_id)
+    h_eq = float(np.nanmax(cascade.equivalent_drop_height_below(
+        case.residual_velocity[hit], level, below)))
+    h_eq = min(max(h_eq, 0.0), 200.0)  # LiftLoad's drop-height range
+    falling = replace(load, drop_height=h_eq, hook_elevation=None)
+    fm = floor(below.id)
+    res = evaluate.evaluate_points(fm, project, [falling], case.x[hit], case.y[hit])
+    inside = res["bay"] >= 0
+    res = {k: v[inside] for k, v in res.items()}
+    lower = _case_result(zone, falling, below, res)
+    bays_below = summarise(below, zone, falling, lower, res["F_allow"],
+                           lv.id if (lv := cascade.level_below(project, below.id)) else None)
+    return Cascade(zone.id, load.name, level.id, below.id, h_eq, lower, tuple(bays_below))
 
 
 CONFIRM_FACTORS = (0.99, 1.0)
@@ -193,15 +229,18 @@ def analyse(project: Project) -> Results:
     :class:`~droprig.model.ModelError` for framing the method cannot assess (a member
     end resting on nothing, members resting on each other in a loop).
     """
+    project = resolve_drift(project)
     floor = floor_cache(project)
     cases: list[CaseResult] = []
     summaries: list[BaySummary] = []
     warnings: list[str] = []
+    falls: list[Cascade] = []
     for zone in project.lift_zones:
         r = analyse_zone(project, zone.id, floor)
         cases.extend(r.cases)
         summaries.extend(r.bays)
+        falls.extend(r.cascade)
         warnings.extend(w for w in r.warnings if w not in warnings)
     if sum(c.x.size for c in cases) > evaluate.CACHE_MAX_POINTS:
         memory.release_memory()  # hand the temporaries of a large job back
-    return Results(tuple(cases), tuple(summaries), tuple(warnings))
+    return Results(tuple(cases), tuple(summaries), tuple(warnings), tuple(falls))

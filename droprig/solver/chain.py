@@ -30,6 +30,11 @@ returns a small frozen dataclass of numpy arrays, one value per point:
    (:mod:`~droprig.solver.plastic`), on sections able to form a hinge only.
 8. :func:`inverse_answers` → :class:`InverseAnswers`: allowable drop heights, mass,
    mat stiffness, crush stroke (:mod:`~droprig.solver.limits`).
+9. :func:`local_damage` → :class:`LocalDamage`: penetration, scabbing and perforation
+   of the bare deck by a hard load, flat, on an edge and on a corner, the worst
+   governing (modified NDRC + Kennedy, UKAEA/Barr, Chang;
+   :mod:`~droprig.solver.local_damage`); a point that perforates reads
+   ``perforates`` whatever the framing does.
 
 :func:`run_chain` runs :data:`STEPS` in order; :func:`outputs` writes the
 :class:`~droprig.solver.results.CaseResult` arrays from a chain. A new physics step is
@@ -49,11 +54,12 @@ import numpy as np
 from droprig.model import LiftLoad, Project
 from droprig.solver import capacity, contact, deck, limits, plastic
 from droprig.solver import impact as impact_mod
+from droprig.solver import local_damage as local_damage_mod
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry
 from droprig.solver.linear_checks import Check, small_check
 from droprig.solver.loadpath import COND_NAMES
-from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PLASTIC
+from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PERFORATES, PLASTIC
 from droprig.solver.unit_actions import (
     UnitActions,
     argmax_nan_low,
@@ -74,6 +80,7 @@ __all__ = [
     "Impact",
     "InverseAnswers",
     "LoadInputs",
+    "LocalDamage",
     "StruckMass",
     "outputs",
     "run_chain",
@@ -88,14 +95,17 @@ FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
           "deceleration_g", "utilisation", "governing_member", "governing_check",
           "response", "allowable_drop_height", "allowable_drop_height_plastic",
           "allowable_mass", "plastic_deflection", "ductility", "support_rotation",
-          "required_mat_stiffness", "required_crush_stroke")
+          "required_mat_stiffness", "required_crush_stroke", "penetration", "scabbing",
+          "scabbing_height", "perforation_height", "residual_velocity",
+          "local_extrapolated", "strike_orientation")
 """The :class:`~droprig.solver.results.CaseResult` arrays, in order."""
 
 _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
                     "max_deflection", "deceleration_g", "allowable_drop_height",
                     "allowable_drop_height_plastic", "allowable_mass",
                     "plastic_deflection", "ductility", "support_rotation",
-                    "required_mat_stiffness", "required_crush_stroke")
+                    "required_mat_stiffness", "required_crush_stroke", "penetration",
+                    "scabbing_height", "perforation_height", "residual_velocity")
 
 
 # --------------------------------------------------------------------------- the runner
@@ -280,14 +290,8 @@ def struck_mass(c: Chain) -> StruckMass:
     # bound ever appear, the framing's mass share is not taken (η = 1, conservative)
     m_bound = d.fm.frame_mass
     m_e = np.where(np.isfinite(m_e) & (m_e >= 0.0) & (m_e <= m_bound), m_e, 0.0)
-    # The Rayleigh shape is scaled to 1 at the point the load strikes. The load's
-    # displacement is W·f with f = f_s + f_deck + 1/k_load (springs in series) while
-    # the framing under it moves only W·f_s, so the framing's share is
-    # m_e·(f_s/f)². Near a column f_s → 0 and the framing mass drops out
-    # (η → 1, conservative) instead of being credited for framing that barely moves.
-    with np.errstate(divide="ignore", invalid="ignore"):
-        share = np.where(comp.f_struct > 0.0, comp.f_s / comp.f_struct, 0.0)
-    m_e = m_e * share**2
+    # the load moves W·f (f = f_s + f_deck + 1/k_load), the framing under it W·f_s
+    m_e = impact_mod.struck_point_mass(m_e, comp.f_s, comp.f_struct)
     # under a mat or a crushable layer the hit on the framing is no longer perfectly
     # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
     m_e = np.where(d.geo.protection >= 0, 0.0, m_e)
@@ -518,6 +522,9 @@ def beyond_yield(c: Chain) -> BeyondYield:
         Lsel = arm_s[sel] if COND_NAMES[int(cc)] == "cantilever" else 2 * arm_s[sel]
         theta_s[sel] = plastic.support_rotation(d_struct[sel], Lsel, arm_s[sel],
                                                 COND_NAMES[int(cc)])
+    d_m: np.ndarray
+    ductility: np.ndarray
+    theta: np.ndarray
     if isinstance(sub, slice):
         d_m, collapsed, ductility, theta = d_m_s, coll_s, duct_s, theta_s
     else:
@@ -620,6 +627,65 @@ def inverse_answers(c: Chain) -> InverseAnswers:
                           Ub_Rp=Ub_Rp)
 
 
+# --------------------------------------------------------------------------- 9. local damage
+@dataclass(frozen=True, eq=False)
+class LocalDamage:
+    """Per point: local damage of the bare deck by a hard load (worst of its strike
+    orientations; :func:`~droprig.solver.local_damage.load_local_damage`).
+    ``assessed``: a hard load on bare deck (no mat or crushable layer, no opening, no
+    declared soft underside). ``penetration`` (m), ``scabbing`` / ``perforation``
+    (bool), ``h_scab`` / ``h_perf`` (free fall at which each starts, m),
+    ``v_res`` (m/s after perforation), ``extrapolated`` (outside the formulas'
+    test speeds) and ``orientation`` (index into ``STRIKE_ORIENTATIONS``, −1 where
+    not assessed); nan / False elsewhere."""
+
+    assessed: np.ndarray
+    penetration: np.ndarray
+    scabbing: np.ndarray
+    perforation: np.ndarray
+    h_scab: np.ndarray
+    h_perf: np.ndarray
+    v_res: np.ndarray
+    extrapolated: np.ndarray
+    orientation: np.ndarray
+
+
+def local_damage(c: Chain) -> LocalDamage:
+    """:class:`LocalDamage` of the drop: each hard load
+    (:func:`~droprig.solver.local_damage.is_hard`) at its points on bare deck, free
+    fall ``LoadInputs.h``, the level's deck (full depth, its concrete and bottom
+    bars). Under a mat or a crushable layer the layer spreads the strike and the
+    deck is not assessed for local damage here (the contact checks judge it)."""
+    d, inp = c.drop, c[LoadInputs]
+    n = d.n
+    nan = np.full(n, np.nan)
+    out = {"assessed": np.zeros(n, dtype=bool), "penetration": nan.copy(),
+           "scabbing": np.zeros(n, dtype=bool), "perforation": np.zeros(n, dtype=bool),
+           "h_scab": nan.copy(), "h_perf": nan.copy(), "v_res": np.zeros(n),
+           "extrapolated": np.zeros(n, dtype=bool),
+           "orientation": np.full(n, -1, dtype=np.int64)}
+    bare = (inp.t_mat <= 0.0) & ~inp.crushable & ~d.geo.opening
+    deck_ = d.fm.level.deck
+    for j, load in enumerate(d.loads):
+        if not local_damage_mod.is_hard(load):
+            continue
+        sel = bare & (d.li == j) if len(d.loads) > 1 else bare
+        if not sel.any():
+            continue
+        r = local_damage_mod.load_local_damage(load, deck_, inp.h[sel])
+        orient = np.array([local_damage_mod.ORIENTATIONS.index(o) for o in r.orientations])
+        out["assessed"][sel] = True
+        out["penetration"][sel] = r.penetration
+        out["scabbing"][sel] = r.scabbing
+        out["perforation"][sel] = r.perforation
+        out["h_scab"][sel] = r.h_scabbing
+        out["h_perf"][sel] = r.h_perforation
+        out["v_res"][sel] = r.v_residual
+        out["extrapolated"][sel] = r.extrapolated
+        out["orientation"][sel] = orient[r.governing]
+    return LocalDamage(**out)
+
+
 # --------------------------------------------------------------------------- run
 STEPS: tuple[Callable[[Chain], object], ...] = (
     load_inputs,
@@ -630,6 +696,7 @@ STEPS: tuple[Callable[[Chain], object], ...] = (
     checks,
     beyond_yield,
     inverse_answers,
+    local_damage,
 )
 """The steps of the chain, in order (each reads only the results before it)."""
 
@@ -647,7 +714,7 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
     field names, and ``F_allow`` (N); at a deck opening the load falls through
     (U = ∞, exceeds, governing check ``opening``, no other value)."""
     d, inp, sm, imp = c.drop, c[LoadInputs], c[StruckMass], c[Impact]
-    ck, by, inv = c[Checks], c[BeyondYield], c[InverseAnswers]
+    ck, by, inv, ld = c[Checks], c[BeyondYield], c[InverseAnswers], c[LocalDamage]
     geo = d.geo
     out = {
         "x": geo.x, "y": geo.y, "bay": geo.bay, "protection": geo.protection,
@@ -660,7 +727,13 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "allowable_mass": inv.m_allow, "plastic_deflection": by.plastic_deflection,
         "ductility": by.ductility_out, "support_rotation": by.rotation_out,
         "required_mat_stiffness": inv.k_req, "required_crush_stroke": inv.s_req,
+        "penetration": ld.penetration, "scabbing": ld.scabbing,
+        "scabbing_height": ld.h_scab, "perforation_height": ld.h_perf,
+        "residual_velocity": ld.v_res, "local_extrapolated": ld.extrapolated,
+        "strike_orientation": ld.orientation,
     }
+    if ld.perforation.any():
+        out["response"] = np.where(ld.perforation, PERFORATES, out["response"])
     op = geo.opening
     if op.any():
         for k in _NONE_AT_OPENING:

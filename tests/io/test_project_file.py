@@ -10,6 +10,7 @@ implemented by ``hashlib``. Model ranges come from ``droprig.model``.
 
 from __future__ import annotations
 
+import copy
 import hashlib
 import json
 import math
@@ -334,6 +335,42 @@ def test_load_contact_stiffness_is_optional_and_round_trips(office_roof: Project
     assert doc["lift_zones"][0]["loads"][0]["contact_stiffness_N_per_m"] == 3.7e7
     jsonschema.Draft202012Validator(pf.schema()).validate(doc)
     assert loads_project(dumps_project(p)) == p
+
+
+def test_strike_and_drift_data_are_optional_and_round_trip(office_roof: Project,
+                                                           office_roof_doc: dict[str, Any]
+                                                           ) -> None:
+    # Files without the keys read with the defaults (all three orientations, the
+    # given drift margin) and are written back without them; entered values are
+    # written in SI with degrees for the swing angle and read back exactly.
+    zone_doc = office_roof_doc["lift_zones"][0]
+    assert "drift_mode" not in zone_doc and "strike_orientations" not in zone_doc["loads"][0]
+    zone = office_roof.lift_zones[0]
+    assert zone.drift_mode == "given"
+    assert zone.loads[0].strike_orientations == ("flat", "edge", "corner")
+    assert "drift_mode" not in json.loads(dumps_project(office_roof))["lift_zones"][0]
+    bar = replace(zone.loads[0], strike_orientations=("flat", "edge"),
+                  strike_reason="long spreader cannot land on a corner", edge_width=0.025,
+                  hard=True)
+    z2 = replace(zone, loads=(bar,), drift_mode="computed", slew_speed=0.08, hoist_speed=0.5,
+                 radial_speed=0.2, swing_angle=math.radians(7.5), swing_length=25.0)
+    p = replace(office_roof, lift_zones=(z2,))
+    doc = json.loads(dumps_project(p))
+    zd = doc["lift_zones"][0]
+    assert zd["drift_mode"] == "computed" and zd["swing_angle_deg"] == 7.5
+    assert zd["loads"][0]["strike_orientations"] == ["flat", "edge"]
+    assert zd["loads"][0]["edge_width_m"] == 0.025 and zd["loads"][0]["hard"] is True
+    jsonschema.Draft202012Validator(pf.schema()).validate(doc)
+    assert loads_project(dumps_project(p)) == p
+
+
+def test_strike_restriction_without_reason_is_refused(office_roof_doc: dict[str, Any]) -> None:
+    doc = copy.deepcopy(office_roof_doc)
+    doc["lift_zones"][0]["loads"][0]["strike_orientations"] = ["flat"]
+    with pytest.raises(ProjectFileError) as info:
+        loads_project(json.dumps(doc))
+    (msg,) = info.value.problems
+    assert "strike_reason" in msg and "a reason" in msg
 
 
 # --------------------------------------------------------------------------- bad files
