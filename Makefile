@@ -4,8 +4,11 @@ VENV := .venv
 PY := $(VENV)/bin/python
 STAMP := $(VENV)/.installed
 QT_DEBS := libglib2.0-0 libgl1 libegl1 libfontconfig1 libxkbcommon0 libdbus-1-3 poppler-utils
+# the X server and the xcb libraries for the scripted run of the real window (make test)
+X_DEBS := xvfb xdotool libxkbcommon-x11-0 libxcb-cursor0 libxcb-icccm4 libxcb-keysyms1 \
+	libxcb-shape0 libxcb-randr0 libxcb-render-util0 libxcb-image0 libxcb-xinerama0
 
-.PHONY: demo test lint bench sysdeps clean
+.PHONY: demo test lint bench sysdeps sysdeps-test clean
 
 $(STAMP): pyproject.toml
 	@test -x $(PY) || $(PYTHON) -m venv $(VENV)
@@ -14,9 +17,12 @@ $(STAMP): pyproject.toml
 	@touch $(STAMP)
 
 sysdeps:
-	@sh scripts/sysdeps.sh $(QT_DEBS)
+	@sh scripts/sysdeps.sh $(PYTHON) $(QT_DEBS)
 
-test: sysdeps $(STAMP)
+sysdeps-test:
+	@sh scripts/sysdeps.sh $(PYTHON) $(QT_DEBS) $(X_DEBS)
+
+test: sysdeps-test $(STAMP)
 	$(PY) -m mypy
 	QT_QPA_PLATFORM=offscreen $(PY) -m pytest -q
 

@@ -68,6 +68,9 @@ def build_parser() -> argparse.ArgumentParser:
                    help="write the results as JSON to OUT ('-' for stdout)")
     s.add_argument("--csv", dest="csv_out", default=None, metavar="OUT",
                    help="write one row per drop point to OUT")
+    s.add_argument("--bays-csv", dest="bays_csv_out", default=None, metavar="OUT",
+                   help="write one row per bay and load (permit verdict, heights, hook "
+                        "elevation, conditions) to OUT")
     s.add_argument("--force", action="store_true",
                    help="allow an output name ending in .droprig (never the project itself)")
 
@@ -96,6 +99,9 @@ def main(argv: Sequence[str] | None = None) -> int:
         parser.print_help()
         return EXIT_OK
     name = {"analyze": "analyse"}.get(args.command, args.command)
+    from droprig import units
+
+    units.set_decimal_mark(units.system_decimal_mark())  # "1,5 m" where ',' is decimal
     try:
         module = importlib.import_module(f"droprig.commands.{name}")
         return int(module.run(args))

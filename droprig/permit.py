@@ -9,40 +9,53 @@ turns the results into those conditions and one verdict:
 
 * ``acceptable`` — every assessed bay stays elastic on bare deck;
 * ``acceptable_with_conditions`` — acceptable when every listed condition is kept;
-* ``not_acceptable`` — no practical condition makes the lift acceptable.
+* ``not_acceptable`` — no practical condition makes the lift acceptable (every bay
+  the load can reach must be excluded).
 
-Every sentence with a number is written here (:meth:`Condition.sentence`); the
-desktop app, the command line and the annex print these objects and compose no
-such sentence of their own.
+A bay's own verdict (:class:`BayVerdict`) is ``not_acceptable`` where the load must
+not be carried over it (exclusion), ``acceptable_with_conditions`` where a pad, a
+mat, a hook limit or the engineer's sign-off makes it acceptable.
+
+Every sentence and table cell with a number is written here
+(:meth:`Condition.sentence`, :meth:`BayVerdict.cells`); the desktop app, the command
+line and the annex print these objects and compose no such text of their own.
 
 Drop-height datum (one everywhere): the height of the load's underside above the
 finished surface of the level (top of deck); a fall onto a pad or mat is that height
 less the pad's thickness. A maximum hook elevation is that height plus the level's
-elevation plus the load's hang length (hook to load underside).
+elevation plus the load's hang length (hook to load underside). Limits are rounded
+down and amounts to provide rounded up where they are printed (common practice, no
+source), so a printed figure never promises more than the analysis found.
 """
 
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from collections.abc import Iterable
+from dataclasses import dataclass, replace
 from typing import Literal
 
 from droprig import units
-from droprig.model import Project, bays
+from droprig.model import Project, ProtectionArea, Rect, bays
 from droprig.outcomes import fmt_utilisation
-from droprig.solver import BaySummary, CaseResult, Results
+from droprig.solver import LIMIT_MARGIN, BaySummary, Results
 from droprig.units import UnitSystem
 
 __all__ = [
+    "CELL_KEYS",
     "CONDITION_KINDS",
+    "NOT_CHECKED",
     "VERDICTS",
     "VERDICT_WORDS",
+    "BayVerdict",
     "Condition",
     "ConditionKind",
     "LoadVerdict",
     "PermitConditions",
     "Verdict",
     "derive_conditions",
+    "fmt_elevation",
+    "fmt_height",
     "worst_verdict",
 ]
 
@@ -62,7 +75,7 @@ ConditionKind = Literal["lay_protection", "exclude_area", "exclude_level_below",
                         "cap_hook", "not_assessed", "separate_signoff"]
 CONDITION_KINDS: tuple[ConditionKind, ...] = (
     "lay_protection", "cap_hook", "exclude_area", "exclude_level_below",
-    "not_assessed", "separate_signoff")
+    "separate_signoff", "not_assessed")
 """Condition kinds in reading order."""
 
 NOT_CHECKED: tuple[str, ...] = (
@@ -70,29 +83,76 @@ NOT_CHECKED: tuple[str, ...] = (
     "accessories are not checked by droprig.",
     "Columns, connections, walls and foundations below the struck framing are not "
     "checked; the columns are taken as rigid supports.",
+    "That the pick-up and set-down points and the path between them keep every "
+    "condition (exclusion areas, hook limits, pads in place) is for the appointed "
+    "lifting person to confirm.",
     "Secondary effects of a drop (a load toppling or sliding after impact, debris, "
     "fire or spill) are not checked.",
 )
 """What droprig never checks, printed on every permit (common practice, no source)."""
 
+SIG_HEIGHT = 3
+"""Significant figures of a drop height (m or ft): 0.0700 m, 0.930 m, 10.8 m."""
+SIG_MASS = 3
+SIG_STIFFNESS = 3
 
-def _length(value: float, system: UnitSystem, rounding: units.Rounding) -> str:
-    return units.fmt(value, "length", system, rounding=rounding)
+MIN_USEFUL_HEIGHT = 0.05
+"""A hook limit below this (m, above the finished surface) cannot be kept on site
+(common practice, no source; as droprig.solver's advice)."""
+
+YIELD_AT_LIMIT = ("a drop from the height limit lets members yield within the ductility "
+                  "and rotation limits")
+YIELDS_AS_PLANNED = ("a drop as planned lets members yield within the ductility and "
+                     "rotation limits")
+
+_THROUGH = ("deck_punching", "collapse", "opening", "ductility", "rotation")
+"""Governing checks after which the load or debris can reach the level below
+(punching through the deck, a collapsing path, an opening, members beyond their
+ductility or rotation limits)."""
+
+
+def fmt_height(value: float | None, system: UnitSystem = "SI", *,
+               rounding: units.Rounding = "down") -> str:
+    """A drop height on the datum, to :data:`SIG_HEIGHT` significant figures,
+    rounded down by default (a limit)."""
+    return units.fmt_sig(value, "length", system, sig=SIG_HEIGHT, rounding=rounding)
+
+
+def fmt_elevation(value: float | None, system: UnitSystem = "SI") -> str:
+    """An elevation limit to the display decimals of a length (mm or 0.01 ft),
+    rounded down."""
+    return units.fmt(value, "length", system, rounding="down")
+
+
+def _join(words: Iterable[str]) -> str:
+    w = list(words)
+    return w[0] if len(w) == 1 else ", ".join(w[:-1]) + " and " + w[-1]
+
+
+def _rect_text(r: Rect, system: UnitSystem) -> str:
+    def f(v: float) -> str:
+        return units.fmt(v, "length", system, unit=False)
+
+    u = units.display_unit("length", system)
+    return f"x {f(r.x0)}–{f(r.x1)} {u}, y {f(r.y0)}–{f(r.y1)} {u}"
 
 
 @dataclass(frozen=True)
 class Condition:
-    """One permit condition for one lift zone, load and level.
+    """One permit condition for one lift zone (and load) on one level.
 
     ``kind``: one of :data:`CONDITION_KINDS`. ``bays``: the bay names it applies to
     (empty = the whole zone). ``protection_id``: the pad or mat to lay
-    (``lay_protection``). ``max_hook_elevation`` (m, the project's elevation datum)
-    and ``max_drop_height`` (m, load underside above the finished surface of the
-    level) for ``cap_hook``. ``region``: plan polygon (m) where the condition
-    applies, if any. ``detail``: words for ``not_assessed`` / ``separate_signoff``
-    that carry no number. ``spec`` (for ``lay_protection`` of a mat not yet in the
-    project): the stiffest acceptable spring mat, N/m, and the travel it must allow,
-    m.
+    (``lay_protection`` of a pad in the project); a mat not yet in the project is
+    given by ``mat_stiffness_max`` (N/m, the stiffest that works) and ``mat_travel``
+    (m, how far it must be able to compress). ``max_drop_height`` (m, load underside
+    above the finished surface of the level) and ``max_hook_elevation`` (m, the
+    project's elevation datum, with ``hang_length`` m from hook to load underside)
+    for ``cap_hook``. ``region``: plan polygon (m) where the condition applies, if
+    one rectangle holds it. ``below_level_id``: the level to keep clear
+    (``exclude_level_below``; ``None`` = the space below, no level in the project).
+    ``detail``: words without numbers for ``not_assessed`` / ``separate_signoff``.
+    ``protection``: the pad or mat itself, for its specification in the sentence.
     """
 
     kind: ConditionKind
@@ -107,70 +167,158 @@ class Condition:
     detail: str = ""
     mat_stiffness_max: float | None = None
     mat_travel: float | None = None
-    protection_spec: str = ""
+    hang_length: float | None = None
     below_level_id: str | None = None
+    protection: ProtectionArea | None = None
 
     def where(self) -> str:
         """The bays (or the whole zone) the condition covers, in words."""
         if not self.bays:
-            return f"the whole of lift zone {self.zone_id} on level {self.level_id}"
+            return f"lift zone {self.zone_id} on level {self.level_id}"
         word = "bay" if len(self.bays) == 1 else "bays"
-        return f"{word} {', '.join(self.bays)} of level {self.level_id}"
+        return f"{word} {_join(self.bays)} of level {self.level_id}"
+
+    def _for(self) -> str:
+        return f" for {self.load_name}" if self.load_name else ""
+
+    def spec(self, system: UnitSystem = "SI") -> str:
+        """The specification of the pad or mat of a ``lay_protection`` condition."""
+        pa = self.protection
+        if pa is None:
+            return ""
+        t = units.fmt(pa.thickness, "small_length", system)
+        if pa.kind == "crushable":
+            body = (f"crushable, {t} thick, crushing at "
+                    f"{units.fmt_sig(pa.crush_force, 'force', system)} over a stroke of "
+                    f"{units.fmt_sig(pa.crush_stroke, 'small_length', system)}")
+        else:
+            body = (f"spring mat, {t} thick, stiffness "
+                    f"{units.fmt_sig(pa.stiffness, 'stiffness', system)}")
+        return f"{pa.name + ': ' if pa.name else ''}{body}; {_rect_text(pa.area, system)}"
 
     def sentence(self, system: UnitSystem = "SI") -> str:
-        """The one wording of this condition, with its numbers in ``system``.
-
-        Limits are rounded down and amounts to provide rounded up (common practice,
-        no source), so a printed figure never promises more than the analysis found.
-        """
-        load = f" for {self.load_name}" if self.load_name else ""
+        """The one wording of this condition, with its numbers in ``system``."""
         if self.kind == "lay_protection":
             if self.protection_id is not None:
-                spec = f" ({self.protection_spec})" if self.protection_spec else ""
-                return (f"Lay pad {self.protection_id}{spec} over {self.where()} "
-                        f"before the lift{load}, and keep it in place.")
-            stiff = units.fmt(self.mat_stiffness_max, "stiffness", system, rounding="down")
+                return (f"Lay pad {self.protection_id} ({self.spec(system)}) before the "
+                        f"lift and keep it in place: {self.where()}{self._for()} "
+                        f"{'relies' if len(self.bays) == 1 else 'rely'} on it.")
+            stiff = units.fmt_sig(self.mat_stiffness_max, "stiffness", system,
+                                  sig=SIG_STIFFNESS, rounding="down")
             travel = ("" if self.mat_travel is None else
-                      "; it must be able to compress "
-                      + units.fmt(self.mat_travel, "small_length", system, rounding="up"))
-            return (f"Lay a spring mat no stiffer than {stiff} over {self.where()}{load} "
-                    f"(any softer mat also works{travel}).")
+                      " and able to compress at least "
+                      + units.fmt_sig(self.mat_travel, "small_length", system,
+                                      rounding="up"))
+            return (f"Lay a spring mat no stiffer than {stiff}{travel} over the whole of "
+                    f"{self.where()}{self._for()} (a softer mat also works).")
         if self.kind == "cap_hook":
-            parts = []
+            hook = ""
             if self.max_hook_elevation is not None:
-                parts.append("keep the hook at or below elevation "
-                             + _length(self.max_hook_elevation, system, "down"))
-            if self.max_drop_height is not None:
-                parts.append("the load's underside no more than "
-                             + _length(self.max_drop_height, system, "down")
-                             + " above the finished surface")
-            return f"Over {self.where()}{load}: " + ", ".join(parts) + "."
+                elev = fmt_elevation(self.max_hook_elevation, system)
+                if self.hang_length:
+                    hook = (f": the hook at or below elevation {elev} with the "
+                            f"{units.fmt(self.hang_length, 'length', system)} hang length")
+                else:  # no hang length given (a drop-height load): the underside itself
+                    hook = (f": its underside at or below elevation {elev} (add the hang "
+                            "length for the hook)")
+            return (f"Over {self.where()}{self._for()}: keep the load's underside no more "
+                    f"than {fmt_height(self.max_drop_height, system)} above the finished "
+                    f"surface{hook}.")
         if self.kind == "exclude_area":
             return (f"Do not carry {self.load_name or 'any load'} over {self.where()}; "
                     "keep that area clear of people while the load is lifted.")
         if self.kind == "exclude_level_below":
             below = (f"level {self.below_level_id}" if self.below_level_id
-                     else "the space below level " + self.level_id)
+                     else f"the space below level {self.level_id}")
             return (f"Keep {below} clear of people under {self.where()} while "
-                    f"{self.load_name or 'the load'} is over it: a drop there can "
-                    "break through or bring the framing down.")
-        if self.kind == "not_assessed":
-            return self.detail or (f"Part of lift zone {self.zone_id} is not assessed; "
-                                   "do not carry the load there without a separate check.")
+                    f"{self.load_name or 'the load'} is lifted: a drop there can break "
+                    "through the deck or bring the framing down.")
         if self.kind == "separate_signoff":
-            return self.detail or (f"{self.where().capitalize()}{load}: needs the "
-                                   "engineer's separate sign-off.")
+            return (f"Over {self.where()}{self._for()}, {self.detail}; accept only with the "
+                    "engineer's separate sign-off, and inspect the framing and the level "
+                    "below after any drop.")
+        if self.kind == "not_assessed":
+            return self.detail
         raise ValueError(f"condition kind {self.kind!r}; allowed: {CONDITION_KINDS}")
+
+
+CELL_KEYS: tuple[str, ...] = ("verdict", "planned", "allowable", "hook", "utilisation",
+                              "conditions", "mass")
+"""Keys of :meth:`BayVerdict.cells`, in table order."""
+
+
+@dataclass(frozen=True)
+class BayVerdict:
+    """The verdict for one bay and load of a lift zone, with the figures a table
+    shows and the conditions that apply to the bay.
+
+    Heights on the datum (m): ``planned_drop_height``, ``allowable_drop_height``
+    (the least elastic one, set by ``allowable_check`` at (``allowable_x``,
+    ``allowable_y``)); ``allowable_fall`` (m) the fall onto the pad that lies at that
+    point (``allowable_pad``), else ``None``; ``max_hook_elevation`` (m) the highest
+    hook elevation over the bay: the hook limit of its conditions, else the hook
+    elevation of :data:`~droprig.solver.results.LIMIT_MARGIN` × the allowable height
+    (never below the planned height, found acceptable); ``None`` where the load must
+    be kept off the bay. ``allowable_mass`` (kg): the least over the bay of the mass
+    that keeps it elastic from the planned height, through any pad there.
+    """
+
+    zone_id: str
+    load_name: str
+    level_id: str
+    bay_id: str
+    verdict: Verdict
+    response: str
+    conditions: tuple[Condition, ...]
+    planned_drop_height: float | None
+    allowable_drop_height: float | None
+    allowable_check: str
+    allowable_x: float | None
+    allowable_y: float | None
+    allowable_pad: str | None
+    allowable_fall: float | None
+    max_hook_elevation: float | None
+    max_utilisation: float
+    utilisation_check: str
+    allowable_mass: float | None = None
+
+    def cells(self, system: UnitSystem = "SI") -> dict[str, str]:
+        """The table cells of this bay (keys :data:`CELL_KEYS`), the one text every
+        surface prints."""
+        if self.allowable_drop_height is None:
+            allow = "none"
+        else:
+            allow = fmt_height(self.allowable_drop_height, system)
+            if self.allowable_check:
+                allow += f" ({self.allowable_check.replace('_', ' ')})"
+            if self.allowable_pad is not None and self.allowable_fall is not None:
+                allow += (f"; fall onto pad {self.allowable_pad} "
+                          f"{fmt_height(self.allowable_fall, system)}")
+        util = fmt_utilisation(self.max_utilisation)
+        if self.utilisation_check:
+            util += f" ({self.utilisation_check.replace('_', ' ')})"
+        return {
+            "verdict": VERDICT_WORDS[self.verdict],
+            "planned": fmt_height(self.planned_drop_height, system, rounding="nearest"),
+            "allowable": allow,
+            "hook": fmt_elevation(self.max_hook_elevation, system),
+            "utilisation": util,
+            "conditions": " ".join(c.sentence(system) for c in self.conditions) or "none",
+            "mass": units.fmt_sig(self.allowable_mass, "mass", system, sig=SIG_MASS,
+                                  rounding="down"),
+        }
 
 
 @dataclass(frozen=True)
 class LoadVerdict:
-    """The verdict for one load of one lift zone, with its own conditions."""
+    """The verdict for one load of one lift zone, with its own conditions
+    (merged over its bays) and its bays' verdicts."""
 
     zone_id: str
     load_name: str
     verdict: Verdict
     conditions: tuple[Condition, ...]
+    bays: tuple[BayVerdict, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -188,114 +336,251 @@ class PermitConditions:
     def verdict_words(self) -> str:
         return VERDICT_WORDS[self.verdict]
 
+    @property
+    def bays(self) -> tuple[BayVerdict, ...]:
+        """Every bay verdict, load by load."""
+        return tuple(b for lv in self.loads for b in lv.bays)
 
-def worst_verdict(verdicts: object) -> Verdict:
+    def bay(self, zone_id: str, load_name: str, bay_id: str) -> BayVerdict:
+        for b in self.bays:
+            if (b.zone_id, b.load_name, b.bay_id) == (zone_id, load_name, bay_id):
+                return b
+        raise KeyError((zone_id, load_name, bay_id))
+
+    def sentences(self, system: UnitSystem = "SI") -> tuple[str, ...]:
+        """The conditions in reading order, one sentence each."""
+        return tuple(c.sentence(system) for c in self.conditions)
+
+
+def worst_verdict(verdicts: Iterable[str]) -> Verdict:
     """The worst of several verdicts (``acceptable`` when there are none)."""
-    ranked = [v for v in verdicts if v in VERDICTS]  # type: ignore[attr-defined]
-    return max(ranked, key=VERDICTS.index) if ranked else "acceptable"
+    ranked = [v for v in verdicts if v in VERDICTS]
+    return max(ranked, key=VERDICTS.index) if ranked else "acceptable"  # type: ignore
 
 
 # --------------------------------------------------------------------------- derivation
-def _protections_in_bay(case: CaseResult, rect: object) -> tuple[int, ...]:
-    x0, y0, x1, y1 = (getattr(rect, k) for k in ("x0", "y0", "x1", "y1"))
-    tol = 1e-6
-    inside = (case.x >= x0 - tol) & (case.x <= x1 + tol) & (case.y >= y0 - tol) & \
-        (case.y <= y1 + tol)
-    found = sorted({int(p) for p in case.protection[inside] if int(p) >= 0})
-    return tuple(found)
-
-
 def _level_below(project: Project, level_id: str) -> str | None:
     lv = project.level(level_id)
     lower = [o for o in project.levels if o.elevation < lv.elevation]
     return max(lower, key=lambda o: o.elevation).id if lower else None
 
 
-def _hook_elevation(project: Project, b: BaySummary, drop_height: float) -> float | None:
-    zone = project.zone(b.zone_id)
-    load = next((ld for ld in zone.loads if ld.name == b.load_name), None)
-    if load is None:
+def _union_rect(rects: list[Rect]) -> tuple[tuple[float, float], ...] | None:
+    """The corners of the union of grid-bay rectangles when it is one rectangle."""
+    if not rects:
         return None
-    return project.level(b.level_id).elevation + load.hang_length + drop_height
+    x0 = min(r.x0 for r in rects)
+    y0 = min(r.y0 for r in rects)
+    x1 = max(r.x1 for r in rects)
+    y1 = max(r.y1 for r in rects)
+    area = sum(r.width * r.height for r in rects)
+    if abs(area - (x1 - x0) * (y1 - y0)) > 1e-6 * max(area, 1.0):
+        return None
+    return ((x0, y0), (x1, y0), (x1, y1), (x0, y1))
 
 
-_THROUGH = ("deck_punching", "collapse", "opening", "ductility", "rotation")
-"""Governing checks after which the load or debris can reach the level below."""
+def _overlaps(a: Rect, b: Rect) -> bool:
+    """Whether two rectangles share an area (not only an edge): a pad that only
+    touches a bay's edge belongs to the next bay."""
+    tol = 1e-6
+    return min(a.x1, b.x1) - max(a.x0, b.x0) > tol and min(a.y1, b.y1) - max(a.y0, b.y0) > tol
 
 
-def _bay_conditions(project: Project, b: BaySummary, case: CaseResult | None,
-                    rect: object) -> tuple[list[Condition], bool]:
-    """Conditions for one bay summary and whether the bay can be made acceptable."""
+def _pad_at(project: Project, level_id: str, x: float | None, y: float | None
+            ) -> ProtectionArea | None:
+    """The pad or mat the analysis found at (x, y) (the first that covers it)."""
+    if x is None or y is None:
+        return None
+    for pa in project.protection_areas:
+        if pa.level_id == level_id and pa.area.x0 <= x <= pa.area.x1 and \
+                pa.area.y0 <= y <= pa.area.y1:
+            return pa
+    return None
+
+
+def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
+    """The conditions and verdict of one bay summary."""
+    zone = project.zone(b.zone_id)
+    load = next(ld for ld in zone.loads if ld.name == b.load_name)
+    level = project.level(b.level_id)
     base = dict(zone_id=b.zone_id, load_name=b.load_name, level_id=b.level_id,
                 bays=(b.bay_id,))
+    region = ((rect.x0, rect.y0), (rect.x1, rect.y0), (rect.x1, rect.y1), (rect.x0, rect.y1))
+
+    def hook(h: float | None) -> float | None:
+        return None if h is None else level.elevation + load.hang_length + h
+
+    def _cap_on_pads(conds: list[Condition], pads: dict[str, ProtectionArea],
+                     h: float | None) -> None:
+        """A bay that is acceptable because pads lie on it is acceptable up to its
+        allowable height only (a pad's crush capacity is finite): state that height
+        (× :data:`~droprig.solver.results.LIMIT_MARGIN`, never below the planned
+        height, which the analysis found acceptable) as a hook limit."""
+        if pads and h is not None and math.isfinite(h):
+            h = max(LIMIT_MARGIN * h, b.planned_drop_height or 0.0)
+            conds.append(Condition("cap_hook", max_drop_height=h,  # type: ignore[arg-type]
+                                   max_hook_elevation=hook(h), hang_length=load.hang_length,
+                                   region=region, **base))
+
     conds: list[Condition] = []
-    region = tuple((float(px), float(py)) for px, py in (
-        (rect.x0, rect.y0), (rect.x1, rect.y0), (rect.x1, rect.y1),  # type: ignore
-        (rect.x0, rect.y1)))  # type: ignore[attr-defined]
-    pads = _protections_in_bay(case, rect) if case is not None else ()
-    for p in pads:
-        pa = project.protection_areas[p]
-        conds.append(Condition("lay_protection", protection_id=pa.id, **base))  # type: ignore
+    pads = {pa.id: pa for pa in project.protection_areas
+            if pa.id in b.protections and _overlaps(pa.area, rect)}
+    for pid, pa in pads.items():
+        conds.append(Condition("lay_protection", protection_id=pid,  # type: ignore[arg-type]
+                               protection=pa, **base))
     kind = b.advice_kind
+    verdict: Verdict = "acceptable_with_conditions"
+    thickest = max((pa.thickness for pa in pads.values()), default=0.0)
+    if kind in ("limit_height", "limit_or_mat") and b.height_limit is not None and \
+            b.height_limit <= thickest:
+        # the limit lies below the top of a pad in the bay: no practical hook limit
+        kind = "mat" if kind == "limit_or_mat" else "keep_clear"
     if b.response == "perforates" or b.scabbing:
         # a hard load may go through the deck or knock concrete off its soffit
         # (local damage): keep the level below clear under the bay
-        conds.append(Condition("exclude_level_below", region=region,
+        conds.append(Condition("exclude_level_below", region=region,  # type: ignore
                                below_level_id=b.level_below or _level_below(project,
                                                                             b.level_id),
-                               **base))  # type: ignore[arg-type]
-    if kind == "none":
-        return conds, True
-    if kind in ("limit_height", "limit_or_mat") and b.height_limit is not None:
-        conds.append(Condition("cap_hook", max_drop_height=b.height_limit,
-                               max_hook_elevation=_hook_elevation(project, b, b.height_limit),
-                               region=region, **base))  # type: ignore[arg-type]
-        return conds, True
-    if kind == "mat" and b.mat_stiffness_max is not None:
+                               **base))
+    if kind == "level_below":
+        # a hard load perforates the deck as planned: a hook limit must keep it under
+        # the height where scabbing or perforation starts *and* within the framing's
+        # limits (90 % of the least plastic, else elastic, height); below 50 mm or
+        # under a pad's top no limit is practical and the bay is excluded
+        struct = b.allowable_drop_height_plastic if b.allowable_drop_height_plastic \
+            is not None else b.allowable_drop_height
+        lims = [v for v in (b.height_limit,
+                            None if struct is None else LIMIT_MARGIN * struct)]
+        cap = None if None in lims else min(lims)  # type: ignore[type-var]
+        if cap is not None and cap >= MIN_USEFUL_HEIGHT and cap > thickest:
+            conds.append(Condition("cap_hook", max_drop_height=cap,  # type: ignore
+                                   max_hook_elevation=hook(cap),
+                                   hang_length=load.hang_length, region=region, **base))
+            if b.allowable_drop_height is None or cap > 1.01 * b.allowable_drop_height:
+                conds.append(Condition("separate_signoff", detail=YIELD_AT_LIMIT,  # type: ignore
+                                       **base))
+        else:
+            kind = "keep_clear"
+    if kind == "limit_height" or (kind == "limit_or_mat" and b.height_limit is not None):
+        conds.append(Condition("cap_hook", max_drop_height=b.height_limit,  # type: ignore
+                               max_hook_elevation=hook(b.height_limit),
+                               hang_length=load.hang_length, region=region, **base))
+        if b.height_limit_yields:
+            conds.append(Condition("separate_signoff", detail=YIELD_AT_LIMIT,  # type: ignore
+                                   **base))
+    elif kind == "mat":
         conds.append(Condition("lay_protection", mat_stiffness_max=b.mat_stiffness_max,
-                               mat_travel=b.mat_travel, region=region,
-                               **base))  # type: ignore[arg-type]
-        return conds, True
-    if kind in ("plastic_mat", "plastic_accept"):
-        conds.append(Condition(
-            "separate_signoff", detail=(
-                f"Bay {b.bay_id} of level {b.level_id} for {b.load_name}: members yield "
-                "within the ductility and rotation limits (largest utilisation "
-                f"{fmt_utilisation(b.max_utilisation)}); accept only with the engineer's "
-                "separate sign-off and inspect the framing after any drop."),
-            **base))  # type: ignore[arg-type]
-        return conds, True
-    # keep_clear / opening: the load must not be carried over the bay
-    conds.append(Condition("exclude_area", region=region, **base))  # type: ignore[arg-type]
-    if b.governing_check in _THROUGH:
-        conds.append(Condition("exclude_level_below", region=region,
-                               below_level_id=_level_below(project, b.level_id),
-                               **base))  # type: ignore[arg-type]
-    return conds, True
+                               mat_travel=b.mat_travel, region=region,  # type: ignore
+                               **base))
+    elif kind in ("plastic_mat", "plastic_accept"):
+        conds.append(Condition("separate_signoff", detail=YIELDS_AS_PLANNED,  # type: ignore
+                               **base))
+        _cap_on_pads(conds, pads, b.allowable_drop_height_plastic)
+    elif kind == "none":
+        _cap_on_pads(conds, pads, b.allowable_drop_height)
+    elif kind in ("keep_clear", "opening"):
+        verdict = "not_acceptable"
+        # the load is kept off the bay: nothing on it is relied on
+        conds = [c for c in conds if c.kind != "lay_protection"]
+        conds.append(Condition("exclude_area", region=region, **base))  # type: ignore
+        if b.governing_check in _THROUGH or b.utilisation_check in _THROUGH:
+            conds.append(Condition("exclude_level_below", region=region,  # type: ignore
+                                   below_level_id=_level_below(project, b.level_id),
+                                   **base))
+    if not conds:
+        verdict = "acceptable"
+    caps = [c.max_hook_elevation for c in conds
+            if c.kind == "cap_hook" and c.max_hook_elevation is not None]
+    if caps:
+        hook_limit: float | None = min(caps)
+    elif verdict != "not_acceptable" and b.allowable_drop_height is not None:
+        hook_limit = hook(max(LIMIT_MARGIN * b.allowable_drop_height,
+                              b.planned_drop_height or 0.0))
+    else:
+        hook_limit = None
+    pad = _pad_at(project, b.level_id, b.height_x, b.height_y)
+    fall = (None if pad is None or b.allowable_drop_height is None
+            else b.allowable_drop_height - pad.thickness)
+    return BayVerdict(
+        zone_id=b.zone_id, load_name=b.load_name, level_id=b.level_id, bay_id=b.bay_id,
+        verdict=verdict, response=b.response, conditions=tuple(conds),
+        planned_drop_height=b.planned_drop_height,
+        allowable_drop_height=b.allowable_drop_height, allowable_check=b.height_check,
+        allowable_x=b.height_x, allowable_y=b.height_y,
+        allowable_pad=None if pad is None else pad.id, allowable_fall=fall,
+        max_hook_elevation=hook_limit,
+        max_utilisation=b.max_utilisation, utilisation_check=b.utilisation_check,
+        allowable_mass=b.allowable_mass)
 
 
-def _dedupe(conds: list[Condition]) -> tuple[Condition, ...]:
-    seen: set[Condition] = set()
-    out = []
+def _merge_key(c: Condition) -> tuple[object, ...]:
+    """Conditions that differ only in their bays are one condition over the bays."""
+    def r(v: float | None) -> float | None:
+        # limits equal but for floating-point noise are one limit (the least is kept)
+        return None if v is None else round(v, 9)
+
+    return (c.kind, c.zone_id, c.load_name, c.level_id, c.protection_id,
+            r(c.max_drop_height), r(c.max_hook_elevation), r(c.mat_stiffness_max),
+            r(c.mat_travel), c.hang_length, c.below_level_id, c.protection, c.detail)
+
+
+def _merge(conds: Iterable[Condition], rects: dict[tuple[str, str], Rect],
+           across_loads: bool = False) -> tuple[Condition, ...]:
+    """Merge conditions over bays (and, for pads to lay, over loads), de-duplicate,
+    and sort in reading order (kind, then first appearance)."""
+    groups: dict[tuple[object, ...], list[Condition]] = {}
     for c in conds:
-        if c not in seen:
-            seen.add(c)
-            out.append(c)
-    return tuple(sorted(out, key=lambda c: CONDITION_KINDS.index(c.kind)))
+        if across_loads and c.kind == "lay_protection" and c.protection_id is not None:
+            c = replace(c, load_name=None)
+        if c.kind == "not_assessed":
+            key: tuple[object, ...] = (c.kind, c.zone_id, c.load_name, c.detail)
+        else:
+            key = _merge_key(c)
+        groups.setdefault(key, []).append(c)
+    out: list[Condition] = []
+    for group in groups.values():
+        first = group[0]
+        if first.kind == "not_assessed":
+            out.append(first)
+            continue
+        names: list[str] = []
+        for c in group:
+            names.extend(n for n in c.bays if n not in names)
+        region = first.region
+        if first.kind != "lay_protection" or first.protection_id is None:
+            region = _union_rect([rects[(first.level_id, n)] for n in names]) \
+                if len(names) > 1 else first.region
+        elif first.protection is not None:
+            r = first.protection.area
+            region = ((r.x0, r.y0), (r.x1, r.y0), (r.x1, r.y1), (r.x0, r.y1))
+        least = {}
+        for name in ("max_drop_height", "max_hook_elevation", "mat_stiffness_max"):
+            vals = [getattr(c, name) for c in group if getattr(c, name) is not None]
+            if vals:
+                least[name] = min(vals)
+        travel = [c.mat_travel for c in group if c.mat_travel is not None]
+        if travel:
+            least["mat_travel"] = max(travel)
+        out.append(replace(first, bays=tuple(names), region=region, **least))
+    order = {k: i for i, k in enumerate(CONDITION_KINDS)}
+    return tuple(sorted(out, key=lambda c: order[c.kind]))
 
 
 def derive_conditions(project: Project, results: Results) -> PermitConditions:
     """The permit conditions and verdict for ``project`` from its ``results``.
 
-    Per (zone, load): a bay that stays elastic on bare deck needs nothing; a bay
-    that stays elastic on a pad lists that pad; a bay that exceeds gets a hook cap
-    (the drop-height limit), a spring mat, or is excluded from the load's path (and
-    the level below is kept clear where the governing check lets the load or debris
-    through); a bay that yields within limits needs the engineer's sign-off. A load
-    is ``not_acceptable`` when every bay it can reach must be excluded.
+    Per (zone, load) and bay: a bay that stays elastic on bare deck needs nothing;
+    every pad or mat the bay's drop points lie on is a condition (the results assume
+    it); a bay that exceeds gets a hook limit (its drop-height limit on the datum, from
+    50 mm up), else a spring mat laid over the whole bay, else it is excluded from
+    the load's path — with the level below kept clear where the governing check lets
+    the load or debris through; a bay that yields within limits, or whose height
+    limit lets members yield, needs the engineer's separate sign-off. A load is
+    ``not_acceptable`` when every bay it can reach must be excluded; the permit's
+    verdict is the worst over the loads. Parts of a zone beyond the deck are not
+    assessed and are a condition of their own.
     """
-    cases = {(c.zone_id, c.load_name): c for c in results.cases}
-    rects = {}
+    rects: dict[tuple[str, str], Rect] = {}
     for lv in project.levels:
         for bay in bays(lv):
             rects[(lv.id, bay.id)] = bay.rect
@@ -307,42 +592,40 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
     for zone in project.lift_zones:
         for ld in zone.loads:
             summaries = by_load.get((zone.id, ld.name), [])
-            conds: list[Condition] = []
-            excluded = 0
-            for b in summaries:
-                c, _ = _bay_conditions(project, b, cases.get((zone.id, ld.name)),
-                                       rects[(b.level_id, b.bay_id)])
-                conds.extend(c)
-                excluded += any(x.kind == "exclude_area" for x in c)
-            if summaries and excluded == len(summaries):
+            # (results a step behind an edited project: bays no longer on the grid
+            # are left out)
+            bvs = tuple(_bay_verdict(project, b, rects[(b.level_id, b.bay_id)])
+                        for b in summaries if (b.level_id, b.bay_id) in rects)
+            conds = _merge((c for bv in bvs for c in bv.conditions), rects)
+            if bvs and all(bv.verdict == "not_acceptable" for bv in bvs):
                 verdict: Verdict = "not_acceptable"
             elif conds:
                 verdict = "acceptable_with_conditions"
             else:
                 verdict = "acceptable"
-            dd = _dedupe(conds)
-            loads.append(LoadVerdict(zone.id, ld.name, verdict, dd))
-            everything.extend(dd)
+            loads.append(LoadVerdict(zone.id, ld.name, verdict, conds, bvs))
+            everything.extend(conds)
     not_checked = list(NOT_CHECKED)
     for w in results.warnings:
-        not_checked.append(w[0].upper() + w[1:] + ("" if w.endswith(".") else "."))
-    for w in results.warnings:
-        if "not assessed" in w and w.startswith("zone "):
-            zid = w.split()[1].rstrip(":")
-            try:
-                zone = project.zone(zid)
-            except KeyError:
-                continue
+        if "beyond the deck" in w:
+            continue  # a condition of its own (not_assessed)
+        text = w[0].upper() + w[1:] + ("" if w.endswith(".") else ".")
+        if text not in not_checked:
+            not_checked.append(text)
+    for zone in project.lift_zones:
+        if any(w.startswith(f"zone {zone.id}: part of the zone lies beyond the deck")
+               for w in results.warnings):
             everything.append(Condition(
-                "not_assessed", zone_id=zid, load_name=None, level_id=zone.level_id,
-                detail=(f"Part of lift zone {zid} lies beyond the deck of level "
-                        f"{zone.level_id}; drops there are not assessed by droprig. Keep "
-                        "the load over the deck there, or have that part checked "
-                        "separately.")))
+                "not_assessed", zone_id=zone.id, load_name=None, level_id=zone.level_id,
+                detail=(f"Part of lift zone {zone.id} lies beyond the deck of level "
+                        f"{zone.level_id}; drops there are not assessed by droprig. Do "
+                        "not carry a load there unless that area is checked separately "
+                        "and kept clear of people.")))
     verdict = worst_verdict(lv.verdict for lv in loads)
-    if any(c.kind == "not_assessed" for c in everything) and verdict == "acceptable":
+    merged = _merge(everything, rects, across_loads=True)
+    if verdict == "acceptable" and merged:
         verdict = "acceptable_with_conditions"
-    return PermitConditions(verdict, tuple(loads), _dedupe(everything), tuple(not_checked))
+    return PermitConditions(verdict, tuple(loads), merged, tuple(not_checked))
 
 
 def _is_finite(v: float | None) -> bool:

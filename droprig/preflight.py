@@ -4,8 +4,9 @@
 A project file can be readable (:func:`droprig.io.project_file.load_project`
 builds it) and still hold framing the method cannot assess: a member end resting
 on nothing, members resting on each other in a loop, a level with a lift zone
-(or the level below one) but no members, a section the capacity checks cannot take, a hook below the
-struck surface. The analysis refuses those with a
+(or the level below one) but no members, a section the capacity checks cannot
+take, a hook or a drop height below the struck surface (the top of a pad or mat).
+The analysis refuses those with a
 :class:`~droprig.model.ModelError`; :func:`analysis_problems` runs the same
 checks — the same solver functions, so the same messages — and gives each with
 the JSON path of the value to change. Every command that analyses runs it first,
@@ -101,9 +102,17 @@ def analysis_problems(project: Project) -> list[str]:
         level = project.level(zone.level_id)
         top = _surface_top(project, level, zone)
         for j, load in enumerate(zone.loads):
-            if load.hook_elevation is None:
-                continue
             try:
+                if load.hook_elevation is None:
+                    # one datum (issue 13): a drop height is measured from the finished
+                    # surface, and must reach the top of a pad the load passes over
+                    pad = top - level.elevation
+                    if load.drop_height is not None and load.drop_height < pad:
+                        raise ModelError(
+                            f"load {load.name}.drop_height", load.drop_height,
+                            f"≥ {pad:g} m (the load's underside above the top of a pad "
+                            f"or mat on level {level.id})", "m")
+                    continue
                 load.height_above(top)
             except ModelError as exc:
                 out.append(f"{json_path_of(project, exc.field, zone, j)}: {exc}")

@@ -74,6 +74,77 @@ or ``2**1000000`` do not match and are refused at once."""
 _ALIASES = {"kips": "kip", "lbs": "lb", "lbf": "lbf", "kn": "kN", "mpa": "MPa", "kpa": "kPa"}
 
 
+DECIMAL_MARK: str = "."
+"""The decimal mark of the user's locale ("." or ","): set once at start by the
+window (from the system locale) and the command line (from ``LC_NUMERIC``); see
+:func:`normalise_decimal`."""
+
+_NUMBER_TOKEN = re.compile(r"(?<![\w.,])\d[\d.,]*(?![\w.,])|(?<![\w.,])\d[\d.,]*(?=[eE][-+]?\d)")
+
+
+def set_decimal_mark(mark: str) -> None:
+    """Set :data:`DECIMAL_MARK` ("." or ","; anything else is taken as ".")."""
+    global DECIMAL_MARK
+    DECIMAL_MARK = "," if mark == "," else "."
+
+
+def system_decimal_mark() -> str:
+    """The decimal mark of the process's numeric locale (``LC_ALL`` /
+    ``LC_NUMERIC`` / ``LANG``), "." when that locale is unknown here."""
+    import locale as _locale
+
+    try:
+        old = _locale.setlocale(_locale.LC_NUMERIC)
+        try:
+            _locale.setlocale(_locale.LC_NUMERIC, "")
+            mark = _locale.localeconv()["decimal_point"]
+        finally:
+            _locale.setlocale(_locale.LC_NUMERIC, old)
+    except _locale.Error:
+        return "."
+    return "," if mark == "," else "."
+
+
+def normalise_decimal(text: str, locale: str | None = None) -> str:
+    """``text`` with every number written with a decimal point, or
+    :class:`UnitError` when a number could be read two ways.
+
+    ``locale``: the decimal mark of the user's locale, "." or "," (default
+    :data:`DECIMAL_MARK`). Thousands separators are never guessed:
+
+    - a number with one mark followed by other than three digits has only one
+      reading: ``1,5`` and ``1.5`` are 1.5 and ``0,125`` is 0.125 in any locale;
+    - one mark followed by exactly three digits (``1,500``, ``1.500``) is the
+      decimal mark when it is the locale's mark, and otherwise could be a
+      thousands separator: refused;
+    - a number with several marks (``1,500,000``, ``1.500,5``) holds a thousands
+      separator: refused (write the number without one).
+    """
+    mark = "," if (locale or DECIMAL_MARK) == "," else "."
+
+    def fix(m: re.Match[str]) -> str:
+        tok = m.group(0)
+        seps = [c for c in tok if c in ".,"]
+        if not seps:
+            return tok
+        if len(seps) > 1:
+            head, _, tail = tok.rpartition(seps[-1])
+            plain = head.replace(",", "").replace(".", "") + (f".{tail}" if tail else "")
+            raise UnitError(f"{tok!r} holds a thousands separator; write numbers without "
+                            f"one and with a single decimal mark, e.g. '{plain}'")
+        whole, frac = tok.split(seps[0])
+        if not frac:
+            return whole
+        if seps[0] != mark and len(frac) == 3 and whole not in ("", "0"):
+            dec = f"{whole}.{frac}".rstrip("0").rstrip(".")
+            raise UnitError(f"{tok!r} is ambiguous: '{seps[0]}' may separate thousands "
+                            f"({whole}{frac}) or decimals ({dec}); write '{whole}{frac}' "
+                            f"or '{dec}'")
+        return f"{whole}.{frac}"
+
+    return _NUMBER_TOKEN.sub(fix, text)
+
+
 def _normalise(text: str) -> str:
     t = text.strip().replace("²", "**2").replace("³", "**3").replace("⁴", "**4")
     t = t.replace("·", "*").replace("°", " deg")
@@ -102,7 +173,10 @@ def parse(text: str | float, quantity: str, system: UnitSystem = "SI", *,
         if not isinstance(text, str) or not text.strip():
             raise UnitError(f"{field}: enter a {quantity.replace('_', ' ')} "
                             f"(for example {_example(quantity, system)})")
-        text_in = _normalise(text)
+        try:
+            text_in = _normalise(normalise_decimal(text))
+        except UnitError as exc:
+            raise UnitError(f"{field}: {exc}") from None
     ureg = registry()
     q = _read(text_in, text, quantity, system, field)
     units_text = str(q.units)
@@ -210,6 +284,33 @@ def fmt(value: float | None, quantity: str, system: UnitSystem = "SI", *,
     _, _, _, d_si, d_us = QUANTITIES[quantity]
     d = decimals if decimals is not None else (d_si if system == "SI" else d_us)
     mag = round_display(to_display(float(value), quantity, system), d, rounding)
+    text = f"{mag:,.{d}f}"
+    u = display_unit(quantity, system)
+    return f"{text} {u}" if unit and u else text
+
+
+def sig_decimals(mag: float, sig: int) -> int:
+    """Decimals that show ``mag`` to ``sig`` significant figures (never fewer than 0):
+    0.0700 → 4, 0.930 → 3, 10.8 → 1, 4,980 → 0 (common practice, no source)."""
+    if mag == 0.0 or not math.isfinite(mag):
+        return max(sig - 1, 0)
+    return max(sig - 1 - math.floor(math.log10(abs(mag))), 0)
+
+
+def fmt_sig(value: float | None, quantity: str, system: UnitSystem = "SI", *,
+            sig: int = 3, unit: bool = True, rounding: Rounding = "nearest") -> str:
+    """As :func:`fmt`, to ``sig`` significant figures in the display unit (a small
+    allowable height keeps its digits: ``0.0176 m`` rather than ``0.018 m`` or
+    ``0.0 mm``; a large one does not print six of them). The rounding happens at the
+    shown digits, down for limits and up for amounts to provide."""
+    if value is None or (isinstance(value, float) and math.isnan(value)):
+        return "none"
+    if isinstance(value, float) and math.isinf(value):
+        return "unlimited"
+    mag = to_display(float(value), quantity, system)
+    d = sig_decimals(mag, sig)
+    mag = round_display(mag, d, rounding)
+    d = sig_decimals(mag, sig) if mag != 0.0 else d  # 0.0999 rounded up to 0.1
     text = f"{mag:,.{d}f}"
     u = display_unit(quantity, system)
     return f"{text} {u}" if unit and u else text

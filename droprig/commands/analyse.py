@@ -1,11 +1,16 @@
-"""``droprig analyse FILE [--json OUT|-] [--csv OUT]``: every drop point of every lift zone.
+"""``droprig analyse FILE [--json OUT|-] [--csv OUT] [--bays-csv OUT]``: every drop
+point of every lift zone, and the permit verdict and conditions.
 
-Without ``--json``/``--csv`` a per-bay table is printed in the project's unit
-system, followed by the caution. ``--json`` writes the per-bay summaries (SI,
-``null`` where no value exists, never NaN; ``level_below``: the loads that
-perforate a deck, passed to the level below and assessed there); ``--csv`` one row
-per drop point with the SI unit in each column name (``through_level``: the level
-a cascaded row came through). Bad input: one message on stderr, exit 2.
+Without an output option a per-bay table is printed in the project's unit system,
+then the permit verdict, its conditions, what is not checked, and the caution.
+``--json`` writes the per-bay summaries (SI, ``null`` where no value exists, never
+NaN) with each bay's permit cells and the permit (:mod:`droprig.permit`);
+``--csv`` one row per drop point with the SI unit in each column name;
+``--bays-csv`` one row per bay and load with the permit verdict, SI figures and the
+same cell text as the table. Every text with a number comes from
+:mod:`droprig.permit`. Bad input: one message on stderr, exit 2.
+``level_below`` (JSON): the loads that perforate a deck, passed to the level below
+and assessed there; ``through_level`` (CSV): the level a cascaded row came through.
 """
 
 from __future__ import annotations
@@ -27,6 +32,7 @@ CSV_COLUMNS: tuple[tuple[str, str], ...] = (
     ("x", "x_m"),
     ("y", "y_m"),
     ("drop_height", "drop_height_m"),
+    ("fall_height", "fall_onto_struck_surface_m"),
     ("static_deflection", "static_deflection_m"),
     ("effective_mass", "effective_mass_kg"),
     ("dynamic_factor", "dynamic_factor"),
@@ -65,21 +71,55 @@ def _clean(obj: Any) -> Any:
     return _finite_or_none(obj)
 
 
-def results_document(project: Any, results: Any) -> dict[str, Any]:
+def _condition_doc(c: Any, system: str) -> dict[str, Any]:
+    d = {k: v for k, v in asdict(c).items() if k != "protection"}
+    d["region"] = [list(p) for p in c.region] if c.region else None
+    d["sentence"] = c.sentence(system)
+    return d
+
+
+def permit_document(project: Any, permit: Any) -> dict[str, Any]:
+    """The permit part of the JSON document: verdict, conditions (SI fields and the
+    one sentence of each, in the project's units), per-load verdicts, not checked."""
+    system = project.settings.unit_system
+    return {
+        "verdict": permit.verdict,
+        "verdict_words": permit.verdict_words,
+        "conditions": [_condition_doc(c, system) for c in permit.conditions],
+        "loads": [{"lift": lv.zone_id, "load": lv.load_name, "verdict": lv.verdict,
+                   "conditions": [c.sentence(system) for c in lv.conditions]}
+                  for lv in permit.loads],
+        "not_checked": list(permit.not_checked),
+    }
+
+
+def results_document(project: Any, results: Any, permit: Any = None) -> dict[str, Any]:
     """The JSON document of ``droprig analyse --json`` (SI units).
 
-    Per bay: the :class:`~droprig.solver.results.BaySummary` fields (SI; the
-    structured advice is ``advice_kind`` with ``height_limit``,
-    ``height_limit_yields``, ``mat_stiffness_max``, ``mat_travel`` and
-    ``planned_drop_height``) and ``advice``: the words, with numbers in the
-    project's unit system (:func:`droprig.advice.advice_text`)."""
-    from droprig.advice import advice_text
+    Per bay: the :class:`~droprig.solver.results.BaySummary` fields (SI; every height
+    on the datum of the finished surface; each quantity with its own point and check),
+    the permit ``verdict``, ``cells`` (the table text of
+    :meth:`droprig.permit.BayVerdict.cells`, in the project's unit system),
+    ``conditions`` (one sentence each) and ``advice`` (the conditions as one text).
+    ``permit``: :func:`permit_document`."""
+    from droprig.permit import derive_conditions
 
     system = project.settings.unit_system
+    permit = permit if permit is not None else derive_conditions(project, results)
+    verdicts = {(v.zone_id, v.load_name, v.bay_id): v for v in permit.bays}
 
     def bay_doc(b: Any) -> dict[str, Any]:
+        v = verdicts.get((b.zone_id, b.load_name, b.bay_id))
+        if v is None:  # a bay of the level below, reached through a perforated deck
+            return _cascade_bay_doc(b, system)
         d = asdict(b)
-        d["advice"] = advice_text(b, system)
+        v = verdicts[(b.zone_id, b.load_name, b.bay_id)]
+        cells = v.cells(system)
+        d["verdict"] = v.verdict
+        d["cells"] = cells
+        d["conditions"] = [c.sentence(system) for c in v.conditions]
+        d["advice"] = cells["conditions"]
+        d["max_hook_elevation"] = v.max_hook_elevation
         d["lift"] = b.zone_id
         d["level"] = b.level_id
         d["max_utilisation_unbounded"] = not math.isfinite(b.max_utilisation)
@@ -96,11 +136,25 @@ def results_document(project: Any, results: Any) -> dict[str, Any]:
         "lift_reference": project.info.lift_reference,
         "revision": project.info.revision,
         "points": int(results.n_points),
+        "permit": permit_document(project, permit),
         "bays": bays_out,
         "level_below": cascade_out,
         "warnings": list(results.warnings),
         "caution": CAUTION,
     })
+
+
+def _cascade_bay_doc(b: Any, system: str) -> dict[str, Any]:
+    """A bay of the level below (cascade through a perforated deck): its summary and
+    advice; the permit of the level above names the level below as a condition."""
+    from droprig.advice import advice_text
+
+    d = asdict(b)
+    d["advice"] = advice_text(b, system)
+    d["lift"] = b.zone_id
+    d["level"] = b.level_id
+    d["max_utilisation_unbounded"] = not math.isfinite(b.max_utilisation)
+    return d
 
 
 def _cell(v: float) -> str:
@@ -148,21 +202,60 @@ def csv_text(project: Any, results: Any) -> str:
     return buf.getvalue()
 
 
-def table_text(project: Any, results: Any) -> str:
-    """Readable per-bay table in the project's unit system."""
+BAY_CSV_COLUMNS: tuple[str, ...] = (
+    "lift", "load", "level", "bay", "verdict", "response", "planned_drop_height_m",
+    "allowable_drop_height_m", "allowable_check", "allowable_pad",
+    "allowable_fall_onto_pad_m", "max_hook_elevation_m", "max_utilisation",
+    "utilisation_check", "allowable_mass_kg", "verdict_text", "planned_text",
+    "allowable_text", "hook_text", "utilisation_text", "mass_text", "conditions_text")
+"""Columns of ``--bays-csv``: SI figures (unit in the name, empty = none) and the
+permit cells as printed (``*_text``, in the project's unit system)."""
+
+
+def bays_csv_text(project: Any, results: Any, permit: Any = None) -> str:
+    """One row per bay and load: the permit verdict, SI figures on the datum of the
+    finished surface, and the same cell text the table and the annex print."""
+    from droprig.permit import derive_conditions
+
+    system = project.settings.unit_system
+    permit = permit if permit is not None else derive_conditions(project, results)
+    buf = io.StringIO()
+    w = csv.writer(buf, lineterminator="\n")
+    w.writerow(BAY_CSV_COLUMNS)
+
+    def num(v: float | None) -> str:
+        return "" if v is None else _cell(float(v))
+
+    for v in permit.bays:
+        c = v.cells(system)
+        w.writerow([v.zone_id, v.load_name, v.level_id, v.bay_id, v.verdict, v.response,
+                    num(v.planned_drop_height), num(v.allowable_drop_height),
+                    v.allowable_check, v.allowable_pad or "", num(v.allowable_fall),
+                    num(v.max_hook_elevation), num(v.max_utilisation),
+                    v.utilisation_check, num(v.allowable_mass), c["verdict"], c["planned"],
+                    c["allowable"], c["hook"], c["utilisation"], c["mass"],
+                    c["conditions"]])
+    return buf.getvalue()
+
+
+def table_text(project: Any, results: Any, permit: Any = None) -> str:
+    """Readable per-bay table in the project's unit system, then the permit."""
     from droprig.advice import advice_text
     from droprig.outcomes import fmt_utilisation
+    from droprig.permit import derive_conditions
     from droprig.units import fmt
 
     system = project.settings.unit_system
-    head = ("Lift", "Load", "Bay", "Points", "Max U", "Response", "Allowable drop",
-            "Governing")
+    permit = permit if permit is not None else derive_conditions(project, results)
+    verdicts = {(v.zone_id, v.load_name, v.bay_id): v for v in permit.bays}
+    head = ("Lift", "Load", "Bay", "Points", "Verdict", "Max U (check)",
+            "Allowable drop height, elastic (check)", "Max hook elevation", "Planned drop",
+            "Allowable mass")
     rows = []
     for b in results.bays:
-        rows.append((b.zone_id, b.load_name, b.bay_id, str(b.n_points),
-                     fmt_utilisation(b.max_utilisation), b.response,
-                     fmt(b.allowable_drop_height, "length", system, rounding="down"),
-                     f"{b.governing_member} / {b.governing_check.replace('_', ' ')}"))
+        c = verdicts[(b.zone_id, b.load_name, b.bay_id)].cells(system)
+        rows.append((b.zone_id, b.load_name, b.bay_id, str(b.n_points), c["verdict"],
+                     c["utilisation"], c["allowable"], c["hook"], c["planned"], c["mass"]))
     widths = [max(len(h), *(len(r[i]) for r in rows)) if rows else len(h)
               for i, h in enumerate(head)]
     out = [f"droprig {__version__} — {project.info.name}"
@@ -173,9 +266,17 @@ def table_text(project: Any, results: Any) -> str:
     for r in rows:
         out.append("  ".join(c.ljust(wd) for c, wd in zip(r, widths, strict=True)))
     out.append("")
-    out.append("Advice per bay:")
-    for b in results.bays:
-        out.append(f"  {b.zone_id} / {b.load_name} / {b.bay_id}: {advice_text(b, system)}")
+    out.append("Heights are the load's underside above the finished surface of the level; "
+               "a fall onto a pad is that less the pad's thickness.")
+    out.append("")
+    out.append(f"Permit verdict: {permit.verdict_words.upper()}")
+    if permit.conditions:
+        out.append("Conditions:")
+        for i, sentence in enumerate(permit.sentences(system), 1):
+            out.append(f"  {i}. {sentence}")
+    out.append("Not checked (separate sign-off):")
+    for item in permit.not_checked:
+        out.append(f"  - {item}")
     for f in getattr(results, "cascade", ()):
         out.append("")
         out.append(f"Through the deck of level {f.from_level} to level {f.level_id}: "
@@ -209,29 +310,35 @@ def run(args: argparse.Namespace) -> int:
     from droprig.io.atomic import OutputRefusedError, check_output
     from droprig.io.project_file import ProjectFileError, load_project
     from droprig.model import ModelError
+    from droprig.permit import derive_conditions
     from droprig.solver import analyse
     from droprig.texts import describe_error
 
     json_out = getattr(args, "json_out", None)
     csv_out = getattr(args, "csv_out", None)
+    bays_out = getattr(args, "bays_csv_out", None)
     force = bool(getattr(args, "force", False))
-    if json_out == "-" and csv_out == "-":
-        print("droprig analyse: --json and --csv cannot both write to stdout (-)",
-              file=sys.stderr)
+    outs = ((json_out, "--json"), (csv_out, "--csv"), (bays_out, "--bays-csv"))
+    if [json_out, csv_out, bays_out].count("-") > 1:
+        print("droprig analyse: only one of --json, --csv and --bays-csv can write to "
+              "stdout (-)", file=sys.stderr)
         return EXIT_BAD_INPUT
     try:  # refused before the (possibly long) analysis
-        for out, option in ((json_out, "--json"), (csv_out, "--csv")):
+        for out, option in outs:
             if out and out != "-":
                 check_output(out, (args.file,), force=force, option=option)
-        if json_out and csv_out and json_out != "-" and json_out == csv_out:
-            raise OutputRefusedError("--json and --csv name the same file; give two names")
+        files = [o for o, _ in outs if o and o != "-"]
+        if len(set(files)) < len(files):
+            raise OutputRefusedError("--json, --csv and --bays-csv name the same file; "
+                                     "give each its own name")
     except OutputRefusedError as exc:
         print(f"droprig analyse: {exc}", file=sys.stderr)
         return EXIT_BAD_INPUT
     from droprig.preflight import analysis_problems
 
+    notes: list[str] = []
     try:
-        project = load_project(args.file)
+        project = load_project(args.file, notes=notes)
         problems = analysis_problems(project)
         if problems:
             print(f"droprig analyse: {args.file}: {len(problems)} problem(s)\n  "
@@ -241,12 +348,18 @@ def run(args: argparse.Namespace) -> int:
     except (ProjectFileError, ModelError, OSError, ValueError) as exc:
         print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
         return EXIT_BAD_INPUT
+    for note in notes:  # an older format converted: what changed in meaning
+        print(f"droprig analyse: note: {note}", file=sys.stderr)
+    permit = derive_conditions(project, results)
     try:
         if csv_out:
             _write(csv_out, csv_text(project, results), args.file, force=force,
                    option="--csv")
+        if bays_out:
+            _write(bays_out, bays_csv_text(project, results, permit), args.file,
+                   force=force, option="--bays-csv")
         if json_out:
-            doc = results_document(project, results)
+            doc = results_document(project, results, permit)
             _write(json_out, json.dumps(doc, indent=2, ensure_ascii=False, allow_nan=False)
                    + "\n", args.file, force=force, option="--json")
     except OutputRefusedError as exc:
@@ -255,10 +368,11 @@ def run(args: argparse.Namespace) -> int:
     except OSError as exc:
         print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
         return EXIT_BAD_INPUT
-    if not json_out and not csv_out:
-        sys.stdout.write(table_text(project, results))
-    elif "-" not in (json_out, csv_out):
-        written = ", ".join(x for x in (json_out, csv_out) if x)
-        print(f"droprig analyse: {results.n_points} drop points; wrote {written}")
+    if not json_out and not csv_out and not bays_out:
+        sys.stdout.write(table_text(project, results, permit))
+    elif "-" not in (json_out, csv_out, bays_out):
+        written = ", ".join(x for x in (json_out, csv_out, bays_out) if x)
+        print(f"droprig analyse: {results.n_points} drop points; permit verdict: "
+              f"{permit.verdict_words}; wrote {written}")
         print(CAUTION)
     return EXIT_OK

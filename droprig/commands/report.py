@@ -47,8 +47,9 @@ def run(args: argparse.Namespace) -> int:
                      option="-o/--output")
     except OutputRefusedError as exc:
         return _fail(str(exc))
+    notes: list[str] = []
     try:
-        project = load_project(path)
+        project = load_project(path, notes=notes)
     except ProjectFileError as exc:
         problems = getattr(exc, "problems", None) or [str(exc)]
         lines = "\n  ".join(str(p) for p in problems)
@@ -84,6 +85,8 @@ def run(args: argparse.Namespace) -> int:
 
     permit = permit_conditions(project, results)
     print(f"{os.path.abspath(out)} ({pages} pages)")
+    for note in notes:  # an older format converted: what changed in meaning
+        print(f"note: {note}")
     print(f"overall verdict: {VERDICT_WORDS[permit.verdict].upper()}")  # type: ignore[attr-defined]
     verdicts = content.zone_verdicts(project, results, zones)
     for zv in verdicts:

@@ -40,8 +40,9 @@ def run(args: argparse.Namespace) -> int:
     from droprig.io.project_file import ProjectFileError, load_project
 
     path = args.file
+    notes: list[str] = []
     try:
-        project = load_project(path)
+        project = load_project(path, notes=notes)
     except ProjectFileError as exc:
         n = getattr(exc, "total", len(exc.problems))
         print(f"{path}: {_plural(n, 'problem')}")
@@ -61,4 +62,6 @@ def run(args: argparse.Namespace) -> int:
         return EXIT_BAD_INPUT
     print("ok")
     print(f"{path}: {summary(project)}")
+    for note in notes:  # an older format converted: what changed in meaning
+        print(f"note: {note}")
     return EXIT_OK

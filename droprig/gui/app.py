@@ -55,6 +55,11 @@ def create_app(argv: list[str] | None = None) -> QApplication:
     app.setApplicationDisplayName("droprig")
     app.setApplicationVersion(__version__)
     app.setStyle("Fusion")
+    from PySide6.QtCore import QLocale
+
+    from droprig import units
+
+    units.set_decimal_mark(QLocale().decimalPoint())  # the user's decimal mark
     pal = app.palette()
     pal.setColor(QPalette.ColorRole.Window, QColor("#F3F3EF"))
     pal.setColor(QPalette.ColorRole.Base, QColor("#FFFFFF"))

@@ -3,7 +3,8 @@ latest results, and the autosave / crash-recovery files.
 
 Widgets take a :class:`Document` and subscribe to its signals; they never keep a
 copy of the project. Every edit goes through :meth:`Document.edit`, which pushes a
-:class:`~droprig.gui.commands.ProjectEdit` (undoable).
+:class:`~droprig.gui.commands.ProjectEdit` (undoable); the edits themselves are
+pure functions in :mod:`droprig.gui.edits`.
 """
 
 from __future__ import annotations
@@ -112,6 +113,9 @@ class Document(QObject):
     level_changed = Signal(str)
     path_changed = Signal(object)
     dirty_changed = Signal(bool)
+    case_changed = Signal(object)
+    """The lift and load the plan and the results table show: ``(zone_id,
+    load_name)``, or ``None`` for all lifts (worst per bay)."""
 
     def __init__(self, project: Project | None = None, path: Path | None = None,
                  parent: QObject | None = None) -> None:
@@ -120,6 +124,7 @@ class Document(QObject):
         self._path = Path(path) if path else None
         self._selection: Selection | None = None
         self._level_id = self._project.levels[0].id if self._project.levels else ""
+        self._case: tuple[str, str] | None = None
         self._results: Results | None = None
         self._results_project: Project | None = None
         self._analysis_error = ""
@@ -180,17 +185,28 @@ class Document(QObject):
 
     # -------------------------------------------------------------- edits
 
-    def edit(self, after: Project, text: str) -> bool:
+    def edit(self, after: Project, text: str, *, select: Selection | None = None) -> bool:
         """Push an undoable swap to ``after``. Returns False (and pushes
-        nothing) if ``after`` equals the current project."""
+        nothing) if ``after`` equals the current project.
+
+        ``select``: the selection that goes with ``after`` when the edit changes
+        the selected object's ids (a load renamed). It is installed before any
+        panel hears of the new project, so no panel sees a selection that points
+        at nothing; undo brings the old selection back with the old project."""
         if after == self._project:
             return False
-        self.undo_stack.push(ProjectEdit(self, self._project, after, text))
+        before_sel = self._selection if select is not None else None
+        self.undo_stack.push(ProjectEdit(self, self._project, after, text,
+                                         before_sel, select))
         return True
 
-    def _swap(self, project: Project) -> None:
-        """Install ``project`` (called by undo commands only)."""
+    def _swap(self, project: Project, selection: object = None) -> None:
+        """Install ``project`` (called by undo commands only), with ``selection``
+        when given (see :meth:`edit`)."""
         self._project = project
+        old_sel = self._selection
+        if isinstance(selection, Selection) and resolve(project, selection) is not None:
+            self._selection = selection
         self.revision += 1
         if project.levels and self._level_id not in {lv.id for lv in project.levels}:
             self._level_id = project.levels[0].id
@@ -198,9 +214,16 @@ class Document(QObject):
         elif not project.levels and self._level_id:
             self._level_id = ""
             self.level_changed.emit("")
+        if self._case is not None:
+            zones = {z.id: {ld.name for ld in z.loads} for z in project.lift_zones}
+            if self._case[1] not in zones.get(self._case[0], set()):
+                self._case = None
+                self.case_changed.emit(None)
         self.project_changed.emit(project)
         if self._selection is not None and resolve(project, self._selection) is None:
             self.select(None)
+        elif self._selection != old_sel:
+            self.selection_changed.emit(self._selection)
 
     def reset(self, project: Project, path: Path | None = None, *, dirty: bool = False) -> None:
         """Replace the whole document (open, new, recover): clears undo history."""
@@ -299,6 +322,28 @@ class Document(QObject):
         if lv and lv != self._level_id:
             self.set_level(lv)
         self.selection_changed.emit(sel)
+
+    @property
+    def results_project(self) -> Project | None:
+        """The project the results on hand were worked out for."""
+        return self._results_project
+
+    @property
+    def case(self) -> tuple[str, str] | None:
+        """The one lift / load filter shared by the plan and the results table."""
+        return self._case
+
+    def set_case(self, case: tuple[str, str] | None) -> None:
+        """Show ``(zone_id, load_name)`` only, or every lift (``None``). A case
+        that is not in the project falls back to ``None``."""
+        if case is not None:
+            zones = {z.id: {ld.name for ld in z.loads} for z in self._project.lift_zones}
+            if case[1] not in zones.get(case[0], set()):
+                case = None
+        if case == self._case:
+            return
+        self._case = case
+        self.case_changed.emit(case)
 
     def set_level(self, level_id: str) -> None:
         if level_id == self._level_id:

@@ -22,6 +22,7 @@ from typing import Any
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtGui import QAction
 from PySide6.QtWidgets import (
+    QApplication,
     QCheckBox,
     QComboBox,
     QCompleter,
@@ -40,13 +41,14 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
-from droprig.advice import advice_text
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui import style
 from droprig.gui.document import Document, Selection, resolve
 from droprig.model import (
     CORRIDOR_ALLOWED,
     END_CONDITIONS,
+    MASS_SOURCE_WORDS,
+    MASS_SOURCES,
     Deck,
     Level,
     LiftLoad,
@@ -57,8 +59,10 @@ from droprig.model import (
     ProtectionArea,
     Rect,
     corridor_problem,
+    lift_point_tags,
 )
 from droprig.outcomes import fmt_utilisation
+from droprig.permit import derive_conditions
 
 # ------------------------------------------------------------------ messages
 
@@ -68,7 +72,7 @@ _NUM_UNIT = re.compile(
     r"(?<![\w.])(-?\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)\s?(N/m|kg|Pa|rad|N|m)(?![\w²/])")
 
 
-FIELD_MIN_WIDTH_CAP = 240
+FIELD_MIN_WIDTH_CAP = 220
 """px: an edit box never asks for more than this, so the inspector stays narrow."""
 
 
@@ -271,8 +275,10 @@ class Form:
 
     @property
     def signature(self) -> tuple:
-        return (self.title, tuple((f.key, f.kind, f.choices) for f in self.fields),
-                tuple(self.buttons))
+        """The shape of the form: its rows (key, kind, label) and buttons. Not the
+        title nor a combo box's choices: renaming an object changes those, and the
+        widgets then stay (see :meth:`FormEditor.set_form`)."""
+        return (tuple((f.key, f.kind, f.label) for f in self.fields), tuple(self.buttons))
 
 
 def _q(key: str, label: str, quantity: str, tip: str = "") -> FieldSpec:
@@ -293,6 +299,57 @@ def _choice(key: str, label: str, choices: tuple[tuple[str, str], ...],
             set_: Setter | None = None) -> FieldSpec:
     return FieldSpec(key, label, "choice", lambda o: getattr(o, key),
                      set_ or (lambda o, v: replace(o, **{key: v})), choices=choices)
+
+
+_NOT_RECORDED_HINT = "empty = not recorded (flagged in the annex)"
+
+
+def _permit_info_fields() -> list[FieldSpec]:
+    """Permit number, lift-plan revision, validity window: plain text boxes."""
+    out = []
+    for key, label in (("permit_number", "Permit number"),
+                       ("lift_plan_revision", "Lift-plan revision")):
+        out.append(FieldSpec(key, label, "text", lambda o, k=key: getattr(o, k),
+                             lambda o, v, k=key: replace(o, **{k: v}),
+                             empty=_NOT_RECORDED_HINT))
+    for key, label in (("valid_from", "Valid from"), ("valid_to", "Valid to")):
+        out.append(FieldSpec(key, label, "text", lambda o, k=key: getattr(o, k),
+                             lambda o, v, k=key: replace(o, **{k: v}),
+                             tip="YYYY-MM-DD or YYYY-MM-DD HH:MM",
+                             empty="YYYY-MM-DD HH:MM; empty = not recorded"))
+    return out
+
+
+def _crane_fields(system: units.UnitSystem) -> list[FieldSpec]:
+    """The zone's crane and configuration (text) and its lift points (read only)."""
+    def points(o: LiftZone) -> str:
+        if not o.lift_points:
+            return "not recorded"
+        return "; ".join(
+            f"{tag} {'pick-up' if p.kind == 'pick_up' else 'set-down'} "
+            f"({units.fmt(p.at[0], 'length', system)}, {units.fmt(p.at[1], 'length', system)})"
+            + (f" {p.label}" if p.label else "")
+            for tag, p in zip(lift_point_tags(o), o.lift_points, strict=True))
+
+    return [
+        FieldSpec("crane_description", "Crane", "text", lambda o: o.crane_description,
+                  lambda o, v: replace(o, crane_description=v),
+                  tip="Type, capacity, fleet number", empty=_NOT_RECORDED_HINT),
+        FieldSpec("crane_configuration", "Crane configuration", "text",
+                  lambda o: o.crane_configuration,
+                  lambda o, v: replace(o, crane_configuration=v),
+                  tip="Boom and jib, counterweight, outriggers or tracks, duty chart",
+                  empty=_NOT_RECORDED_HINT),
+        _ro("lift_points", "Pick-up / set-down points", points),
+    ]
+
+
+def _mass_source_field() -> FieldSpec:
+    return FieldSpec("mass_source", "Mass source", "choice",
+                     lambda o: o.mass_source or "",
+                     lambda o, v: replace(o, mass_source=v or None),
+                     choices=(("", "not recorded"),
+                              *((k, MASS_SOURCE_WORDS[k]) for k in MASS_SOURCES)))
 
 
 def _rect_fields(prefix: str, get_rect: Getter, set_rect: Setter) -> list[FieldSpec]:
@@ -327,10 +384,11 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
     if k == "info":
         return Form("Project", "Title block of the permit annex", obj, [
             _t("name", "Project name"), _t("site", "Site"),
-            _t("lift_reference", "Lift reference"), _t("revision", "Revision"),
+            _t("lift_reference", "Lift-plan reference"), _t("revision", "Annex revision"),
             _t("date", "Date"), _t("prepared_by", "Prepared by"),
             _t("checked_by", "Checked by"), _t("approved_by", "Approved by"),
             _t("description", "Description", "longtext"),
+            *_permit_info_fields(),
         ], lambda p, o: ed.with_info(p, o))
 
     if k == "settings":
@@ -430,6 +488,7 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                                               "circle"),
             _q("drift_margin", "Load swing margin", "length",
                "The region is widened by this much for load swing"),
+            *_crane_fields(system),
             FieldSpec("corridor", f"Corridor ({units.display_unit('length', system)})",
                       "text", lambda o: corridor_text(o.corridor, system),
                       lambda o, v: replace(o, corridor=parse_corridor(v, system)),
@@ -468,6 +527,7 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                           "frame, timber dunnage), in series with the deck. Leave empty to "
                           "take the load as rigid (highest force, conservative).",
                       empty="empty = rigid (conservative)"),
+            _mass_source_field(),
             FieldSpec("mode", "Height given as", "choice",
                       lambda o: "drop" if o.drop_height is not None else "hook", set_mode,
                       choices=(("drop", "Drop height above the deck"),
@@ -475,7 +535,9 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
         ]
         if ld.drop_height is not None:
             fields.append(_q("drop_height", "Drop height", "length",
-                             "Free fall from the load's underside to the deck or mat top"))
+                             "Height of the load's underside above the finished surface "
+                             "(top of deck); over a pad the fall is this less its "
+                             "thickness"))
         else:
             fields += [_q("hook_elevation", "Hook elevation", "length",
                           "Same datum as level elevations"),
@@ -612,6 +674,7 @@ class FormEditor(QWidget):
             "background: #FBE9EC; color: #6B0F24; border: 1px solid #C98292;"
             "border-radius: 3px; padding: 4px;")
         self._message.hide()
+        self.setFocusPolicy(Qt.FocusPolicy.ClickFocus)  # holds the focus during a rebuild
         self._layout = QFormLayout()
         self._layout.setFieldGrowthPolicy(QFormLayout.FieldGrowthPolicy.AllNonFixedFieldsGrow)
         self._layout.setRowWrapPolicy(QFormLayout.RowWrapPolicy.WrapLongRows)
@@ -638,6 +701,9 @@ class FormEditor(QWidget):
             return
         sig = (*form.signature, self._system_fn())
         if sig != self._signature:
+            focus = QApplication.focusWidget()
+            focus_key = next((k for k, w in self._editors.items() if w is focus), None)
+            focus_key = focus_key if focus_key in {f.key for f in form.fields} else None
             self._clear()
             for spec in form.fields:
                 w = self._make_editor(spec)
@@ -648,6 +714,8 @@ class FormEditor(QWidget):
                 self._layout.addRow(lab, w)
                 self._editors[spec.key] = w
             self._signature = sig
+            if focus_key in self._editors:  # same field in the new shape: keep typing
+                self._editors[focus_key].setFocus(Qt.FocusReason.OtherFocusReason)
         for spec in form.fields:
             self._load_value(spec, self._editors[spec.key], form.obj)
 
@@ -658,9 +726,27 @@ class FormEditor(QWidget):
     # -------------------------------------------------------------- building
 
     def _clear(self) -> None:
+        """Take every row out of the layout and delete its widgets *later*.
+
+        A form is rebuilt from inside a widget's own signal (a line edit's
+        ``editingFinished`` during its focus-out, while Qt is moving the focus to
+        the next box on Tab). Deleting the widgets there (``removeRow``) freed
+        objects Qt was still using: a double free. Here they are hidden,
+        detached from the focus chain and handed to ``deleteLater``; the focus,
+        if it was in the form, is parked on the editor itself."""
+        self._editors.clear()  # first: a box losing the focus below commits nothing
+        focus = QApplication.focusWidget()
+        had_focus = focus is not None and (focus is self or self.isAncestorOf(focus))
+        if had_focus:
+            self.setFocus(Qt.FocusReason.OtherFocusReason)
         while self._layout.rowCount():
-            self._layout.removeRow(0)
-        self._editors.clear()
+            row = self._layout.takeRow(0)
+            for item in (row.labelItem, row.fieldItem):
+                w = item.widget() if item is not None else None
+                if w is not None:
+                    w.hide()
+                    w.setEnabled(False)
+                    w.deleteLater()
 
     def _make_editor(self, spec: FieldSpec) -> QWidget:
         system = self._system_fn()
@@ -723,6 +809,11 @@ class FormEditor(QWidget):
                 w.setPlainText(str(v))
         elif isinstance(w, QComboBox):
             w.blockSignals(True)
+            have = tuple((w.itemData(i), w.itemText(i)) for i in range(w.count()))
+            if have != tuple(spec.choices):  # e.g. a level renamed: new labels
+                w.clear()
+                for value, label in spec.choices:
+                    w.addItem(label, value)
             w.setCurrentIndex(w.findData(v))
             w.blockSignals(False)
         elif isinstance(w, QCheckBox):
@@ -951,9 +1042,10 @@ class Inspector(QWidget):
             return
         after = form.commit(self._doc.project, new_obj)  # may raise ModelError
         sel = self._doc.selection
-        self._doc.edit(after, f"{form.title}: {spec.label.lower()}")
+        follow = None
         if sel is not None and sel.kind == "load" and spec.key == "name":
-            self._doc.select(Selection("load", (sel.ids[0], new_obj.name)))
+            follow = Selection("load", (sel.ids[0], new_obj.name))
+        self._doc.edit(after, f"{form.title}: {spec.label.lower()}", select=follow)
 
     # -------------------------------------------------------------- results details
 
@@ -1006,14 +1098,24 @@ class Inspector(QWidget):
         else:
             html = "<p><b>Outcome in this bay</b></p>"
             order = {k: i for i, k in enumerate(style.OUTCOME_ORDER)}
+            # the permit's words and figures (droprig.permit), as in the results table
+            permit = derive_conditions(self._doc.project, res) if res is not None else None
+            verdicts = {(v.zone_id, v.load_name, v.bay_id): v
+                        for v in (permit.bays if permit is not None else ())}
             for b in sorted(rows, key=lambda r: -order.get(r.response, -1)):
                 st = style.outcome(b.response)
-                allow = style.fmt_drop(b.allowable_drop_height, system)
+                v = verdicts.get((b.zone_id, b.load_name, b.bay_id))
+                cells = v.cells(system) if v is not None else None
+                allow = cells["allowable"] if cells else "none"
                 html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
                          f"{b.load_name}<br>max U {fmt_utilisation(b.max_utilisation)}; "
-                         f"allowable drop {allow}<br>governing: {b.governing_member} "
-                         f"({b.governing_check.replace('_', ' ')})<br>"
-                         f"<i>{html_escape(advice_text(b, system))}</i></p>")
+                         f"allowable drop {html_escape(allow)}<br>governing: "
+                         f"{b.governing_member} ({b.governing_check.replace('_', ' ')})")
+                if cells:
+                    html += (f"<br><b>{html_escape(cells['verdict'])}</b>; max hook "
+                             f"elevation {html_escape(cells['hook'])}<br>"
+                             f"<i>{html_escape(cells['conditions'])}</i>")
+                html += "</p>"
         html += f"<p style='color:#6B4E00'>⚠ {style.CAUTION_SHORT}.</p>"
         self._extra.setText(html)
         self._extra.setVisible(True)

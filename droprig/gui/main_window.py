@@ -34,7 +34,7 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import __version__, units
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui import style
 from droprig.gui.analysis_runner import AnalyseFn, AnalysisRunner
 from droprig.gui.document import (
@@ -76,14 +76,6 @@ BASIS_LABELS = {"en1993": "EN 1993-1-1", "aisc360": "AISC 360-16"}
 UNIT_LABELS = {"SI": "SI (m · kN · kg · MPa)", "US": "US (ft · kip · lb · ksi)"}
 
 
-STALE_GRACE_MS = 300
-"""How long the plan may keep showing the previous results after an edit."""
-
-
-def _cases(p: Project) -> tuple[tuple[str, str, str], ...]:
-    return tuple((z.id, z.level_id, ld.name) for z in p.lift_zones for ld in z.loads)
-
-
 def placeholder_load(name: str) -> LiftLoad:
     """The load a new zone or "Add load" starts with: 1 t falling 1 m, rigid,
     1 m × 1 m footprint. Round numbers to be replaced, never a recommendation."""
@@ -102,13 +94,37 @@ MAX_LISTED = 12
 def _check_framing(before: Project, after: Project, level_id: str) -> None:
     """Raise the solver's ModelError if level ``level_id`` could be analysed in
     ``before`` but not in ``after`` (a framing the load path cannot follow)."""
-    from droprig.solver import check_framing as build_frame
+    from droprig.solver import check_framing
 
     try:
-        build_frame(before.level(level_id))
+        check_framing(before.level(level_id))
     except ModelError:
         return  # not analysable before this edit either: not this edit's doing
-    build_frame(after.level(level_id))
+    check_framing(after.level(level_id))
+
+
+def screen_scale_tag(screen: object) -> str:
+    """``"scale150"`` for a screen at 150 % (device pixel ratio 1.5); ``"scale100"``
+    when there is no screen."""
+    dpr = float(screen.devicePixelRatio()) if screen is not None else 1.0  # type: ignore[attr-defined]
+    return f"scale{round(dpr * 100)}"
+
+
+def redo_keys() -> list[QKeySequence]:
+    """The platform's redo keys plus the other common one: Ctrl+Y and
+    Ctrl+Shift+Z both redo on Linux and Windows (macOS: Cmd+Shift+Z)."""
+    keys = QKeySequence.keyBindings(QKeySequence.StandardKey.Redo)
+    for extra in ("Ctrl+Y", "Ctrl+Shift+Z"):
+        k = QKeySequence(extra)
+        if k not in keys:
+            keys.append(k)
+    return keys
+
+
+def quit_keys() -> list[QKeySequence]:
+    """The platform's quit keys, with Ctrl+Q where the platform has none (Windows)."""
+    keys = QKeySequence.keyBindings(QKeySequence.StandardKey.Quit)
+    return keys or [QKeySequence("Ctrl+Q")]
 
 
 def _describe(exc: BaseException) -> str:
@@ -151,13 +167,12 @@ class MainWindow(QMainWindow):
                 self.doc.project_changed, saver.write, lambda: saver.last_error,
                 lambda msg: self.statusBar().showMessage(msg, 15_000), parent=self)
         self._settings_dialog: SettingsDialog | None = None
+        self._annex_job: object = None
+        self.help_window: QWidget | None = None
+        self.limits_dialog: QWidget | None = None
         self._closing = False
         self.plan_menu: QMenu | None = None
         """The right-click menu of the plan (made on first use)."""
-        self._stale_timer = QTimer(self)
-        self._stale_timer.setSingleShot(True)
-        self._stale_timer.setInterval(STALE_GRACE_MS)
-        self._stale_timer.timeout.connect(self._on_stale_timeout)
 
         self.setObjectName("droprigMainWindow")
         self.setDockNestingEnabled(True)
@@ -179,7 +194,9 @@ class MainWindow(QMainWindow):
              tip: str = "") -> QAction:
         a = QAction(text, self)
         a.setObjectName(f"action_{name}")
-        if shortcut is not None:
+        if isinstance(shortcut, QKeySequence.StandardKey):
+            a.setShortcuts(shortcut)  # every platform binding (Close: Ctrl+F4 and Ctrl+W)
+        elif shortcut is not None:
             a.setShortcut(shortcut)  # type: ignore[arg-type]
         if tip:
             a.setToolTip(tip)
@@ -196,11 +213,16 @@ class MainWindow(QMainWindow):
         self._act("save", "&Save", self.save, K.Save, "Save the project")
         self._act("save_as", "Save &As…", self.save_as, K.SaveAs,
                   "Save the project under a new name")
+        self._act("export_annex", "&Export permit annex…", self.export_annex, "Ctrl+E",
+                  "Write the lift-permit annex PDF (the same as 'droprig report')")
+        self._act("close", "&Close", self.close_project, K.Close,
+                  "Close this project (asks first if it has unsaved changes)")
         self._act("quit", "&Quit", self.close, K.Quit)
+        self.actions["quit"].setShortcuts(quit_keys())
         undo = self.doc.undo_stack.createUndoAction(self, "&Undo")
-        undo.setShortcut(K.Undo)
+        undo.setShortcuts(K.Undo)
         redo = self.doc.undo_stack.createRedoAction(self, "&Redo")
-        redo.setShortcut(K.Redo)
+        redo.setShortcuts(redo_keys())
         self.actions["undo"], self.actions["redo"] = undo, redo
         self._act("delete", "&Delete", self.delete_selection, K.Delete,
                   "Delete the selected girder or beam, lift zone, load, protection area, "
@@ -241,11 +263,15 @@ class MainWindow(QMainWindow):
             a.setCheckable(True)
         self._act("about", "&About droprig", self._on_about)
         self._act("caution", "&Limits of use", self._on_caution)
+        self._act("help", "droprig &user guide", self.show_help, K.HelpContents,
+                  "The user guide, at the section of the panel you are in")
+        # F1 also in the settings and generator dialogs
+        self.actions["help"].setShortcutContext(Qt.ShortcutContext.ApplicationShortcut)
 
     def _make_central(self) -> None:
         from droprig.gui.plan_view import PlanView
 
-        self.plan = PlanView()
+        self.plan = PlanView(self.doc)
         self.plan.setObjectName("planView")
 
         self.level_combo = QComboBox()
@@ -338,17 +364,39 @@ class MainWindow(QMainWindow):
         self.trace_dock = self._dock("trace", "Calculation trace", self.trace_panel,
                                      Qt.DockWidgetArea.BottomDockWidgetArea)
         self.splitDockWidget(self.results_dock, self.trace_dock, Qt.Orientation.Horizontal)
+        self._set_dock_minimums()
         self._default_layout_pending = True
 
     def _apply_default_dock_sizes(self) -> None:
-        """First start (no saved layout): proportions that suit a wide screen."""
+        """First start at this screen scale (no saved layout): side panels wide
+        enough for their titles and a form, the results a third of the height on
+        a tall window and 27 % on a short one (1280 × 720, or a large screen
+        at 150–200 %), the rest to the plan."""
         w = max(self.width(), 800)
-        self.resizeDocks([self.tree_dock, self.inspector_dock],
-                         [int(w * 0.16), int(w * 0.21)], Qt.Orientation.Horizontal)
-        self.resizeDocks([self.results_dock], [int(self.height() * 0.32)],
+        h = max(self.height(), 480)
+        tree_w = max(int(w * 0.15), self.tree_dock.minimumWidth())
+        insp_w = max(int(w * 0.23), self.inspector_dock.minimumWidth())
+        self.resizeDocks([self.tree_dock, self.inspector_dock], [tree_w, insp_w],
+                         Qt.Orientation.Horizontal)
+        self.resizeDocks([self.results_dock], [int(h * (0.32 if h >= 900 else 0.27))],
                          Qt.Orientation.Vertical)
         self.resizeDocks([self.results_dock, self.trace_dock], [int(w * 0.62), int(w * 0.38)],
                          Qt.Orientation.Horizontal)
+
+    def _set_dock_minimums(self) -> None:
+        """No panel narrower than its title and buttons (titles are never cut to
+        "…"), and the side forms wide enough for a label and a value."""
+        for d in (self.tree_dock, self.inspector_dock, self.results_dock, self.trace_dock):
+            fm = d.fontMetrics()
+            bold = d.font()
+            bold.setBold(True)
+            from PySide6.QtGui import QFontMetrics
+
+            title = QFontMetrics(bold).horizontalAdvance(d.windowTitle())
+            d.setMinimumWidth(title + 2 * fm.height() + 40)  # float + close buttons
+        em = self.fontMetrics().averageCharWidth()
+        self.tree_dock.setMinimumWidth(max(self.tree_dock.minimumWidth(), 18 * em))
+        self.inspector_dock.setMinimumWidth(max(self.inspector_dock.minimumWidth(), 30 * em))
 
     def showEvent(self, event: QShowEvent) -> None:
         super().showEvent(event)
@@ -367,8 +415,9 @@ class MainWindow(QMainWindow):
         m.addActions([a["save"], a["save_as"]])
         m.addSeparator()
         m.addAction(a["info"])
+        m.addAction(a["export_annex"])
         m.addSeparator()
-        m.addAction(a["quit"])
+        m.addActions([a["close"], a["quit"]])
         m = mb.addMenu("&Edit")
         m.addActions([a["undo"], a["redo"]])
         m.addSeparator()
@@ -392,7 +441,7 @@ class MainWindow(QMainWindow):
         for d in (self.tree_dock, self.inspector_dock, self.results_dock, self.trace_dock):
             m.addAction(d.toggleViewAction())
         m = mb.addMenu("&Help")
-        m.addActions([a["caution"], a["about"]])
+        m.addActions([a["help"], a["caution"], a["about"]])
 
     def _make_status_bar(self) -> None:
         sb = self.statusBar()
@@ -435,10 +484,8 @@ class MainWindow(QMainWindow):
         self.plan.protection_drawn.connect(self._on_protection_drawn)
         self.plan.corridor_drawn.connect(self._on_corridor_drawn)
         self.plan.corridor_changed.connect(self._on_corridor_dragged)
-        self.plan.member_clicked.connect(self._on_member_clicked)
         self.plan.context_requested.connect(self._on_plan_context)
         self.plan.mode_changed.connect(self._on_plan_mode_changed)
-        self.plan.bay_clicked.connect(self._on_bay_clicked)
         self.plan.point_clicked.connect(self._on_point_clicked)
         self.plan.hover_text.connect(self._on_hover_text)
         self.results_table.trace_requested.connect(self.show_trace)
@@ -448,20 +495,20 @@ class MainWindow(QMainWindow):
         self.overlay_combo.activated.connect(
             lambda _i: self.set_overlay(self.overlay_combo.currentData()))
         self.case_combo.activated.connect(self._on_case_chosen)
+        d.case_changed.connect(self._on_case_changed)
 
     # ================================================================ document events
 
     def _on_project_changed(self, project: Project) -> None:
-        self._stale_timer.start()
-        self.plan.set_project(project, self.doc.level_id or None)
-        # Bay results stay valid only while the level's framing is the same object.
-        self.plan.set_results(self._plan_results())
         self._fill_level_combo()
         self._fill_case_combo()
         self._update_guide()
         self._update_heading()
         s = project.settings
         self.units_label.setText(f"Units: {UNIT_LABELS.get(s.unit_system, s.unit_system)}")
+        tp = self.trace_panel
+        if tp.trace is not None and tp.unit_system != s.unit_system:
+            tp.show_trace(tp.trace, s.unit_system)  # the same point in the new units
         self.basis_label.setText(f"Basis: {BASIS_LABELS.get(s.design_basis, s.design_basis)}")
         self._update_actions()
 
@@ -512,55 +559,37 @@ class MainWindow(QMainWindow):
             self.inspector_dock.show()
             self.inspector_dock.raise_()
 
-    def _plan_results(self) -> Results | None:
-        """Results the plan may show: current ones; or, for at most
-        STALE_GRACE_MS after an edit, the previous ones if the level's framing
-        and the set of zones and loads are unchanged (so bays and cases still
-        match) — this avoids a grey flash on every edit; after that the plan
-        shows "not assessed" until the new results arrive."""
-        res = self.doc.results
-        if res is None:
-            return None
-        if self.doc.results_current:
-            return res
-        if not self._stale_timer.isActive():
-            return None
-        old = self.doc._results_project
-        new = self.doc.project
+    def _refresh_trace(self) -> None:
+        """The trace on show follows the project: re-worked for the same point once
+        new results are in, cleared when its lift or load is gone."""
+        t = self.trace_panel.trace
+        if t is None or not self.doc.results_current:
+            return
+        p = self.doc.project
+        if not any(z.id == t.zone_id and any(ld.name == t.load_name for ld in z.loads)
+                   for z in p.lift_zones):
+            self.trace_panel.show_trace(None)
+            return
         try:
-            same = old is not None and old.level(self.doc.level_id) is \
-                new.level(self.doc.level_id) and _cases(old) == _cases(new)
-        except KeyError:
-            same = False
-        return res if same else None
+            from droprig.solver import trace_point
 
-    def _on_stale_timeout(self) -> None:
-        if not self.doc.results_current:
-            self.plan.set_results(None)
+            new = trace_point(p, t.zone_id, t.load_name, t.x, t.y)
+        except Exception:  # the point may have left the zone: nothing stale stays
+            self.trace_panel.show_trace(None)
+            return
+        self.trace_panel.show_trace(new, p.settings.unit_system)
 
     def _on_results_changed(self, results: Results | None) -> None:
-        self.plan.set_results(self._plan_results())
+        self._refresh_trace()
         self._fill_case_combo()
         self._update_state_label()
         self._update_heading()
 
     def _on_selection_changed(self, sel: Selection | None) -> None:
-        if sel is not None and sel.kind == "bay":
-            self.plan.select_bay(sel.ids[1])
-        else:
-            self.plan.select_bay(None)
-        zone = None
-        if sel is not None and sel.kind in ("zone", "load"):
-            zone = sel.ids[0]
-        self.plan.set_selected_zone(zone)
-        self.plan.set_selected_member(sel.ids[1] if sel is not None and sel.kind == "member"
-                                      and sel.ids[0] == self.doc.level_id else None)
-        self._update_actions()
+        self._update_actions()  # the plan follows the selection itself
 
     def _on_level_changed(self, level_id: str) -> None:
         self._update_guide()
-        self.plan.set_project(self.doc.project, level_id or None)
-        self.plan.set_results(self._plan_results())
         i = self.level_combo.findData(level_id)
         if i >= 0:
             self.level_combo.setCurrentIndex(i)
@@ -624,7 +653,7 @@ class MainWindow(QMainWindow):
         self._level_label.setVisible(multi)
 
     def _fill_case_combo(self) -> None:
-        current = self.case_combo.currentData()
+        current = self.doc.case
         self.case_combo.blockSignals(True)
         self.case_combo.clear()
         self.case_combo.addItem("All lifts — worst per bay", None)
@@ -642,14 +671,17 @@ class MainWindow(QMainWindow):
 
     def _on_case_chosen(self, _index: int) -> None:
         data = self.case_combo.currentData()
-        if data is None:
-            self.plan.set_case(None)
-        else:
-            self.plan.set_case(data[0], data[1])
-        f = self.results_table.filter
-        i = f.findData(None if data is None else f"{data[0]}\x1f{data[1]}")
-        if i >= 0:
-            f.setCurrentIndex(i)
+        self.doc.set_case(None if data is None else (data[0], data[1]))
+
+    def _on_case_changed(self, case: tuple[str, str] | None) -> None:
+        """The one lift / load filter changed: the combo and the heading follow
+        (the plan and the table follow the document themselves)."""
+        i = next((k for k in range(self.case_combo.count())
+                  if self.case_combo.itemData(k) == case), 0)
+        if i != self.case_combo.currentIndex():
+            self.case_combo.blockSignals(True)
+            self.case_combo.setCurrentIndex(i)
+            self.case_combo.blockSignals(False)
         self._update_heading()
 
     def set_overlay(self, mode: str) -> None:
@@ -696,7 +728,7 @@ class MainWindow(QMainWindow):
                 pass
         state = "" if self.doc.results_current else " Results are being updated."
         name = lv.name if lv.name.lower().startswith("level") else f"Level {lv.name}"
-        return (f"{name}: {shown}; {which}. Key at the top right of the plan; "
+        return (f"{name}: {shown}; {which}. Key in a corner of the plan; "
                 f"the caution is under the plan.{state}")
 
     def _update_heading(self) -> None:
@@ -729,10 +761,6 @@ class MainWindow(QMainWindow):
             return
         self.doc.edit(after, f"Reshape lift zone {zone_id}")
 
-    def _on_member_clicked(self, member_id: str) -> None:
-        if self.doc.level_id:
-            self.doc.select(Selection("member", (self.doc.level_id, member_id)))
-
     def plan_context_actions(self) -> list[QAction]:
         """What a right click on the plan offers for the current selection."""
         sel = self.doc.selection
@@ -748,10 +776,6 @@ class MainWindow(QMainWindow):
         self.plan_menu.clear()
         self.plan_menu.addActions(acts)
         self.plan_menu.popup(global_pos)
-
-    def _on_bay_clicked(self, bay_id: str) -> None:
-        if self.doc.level_id:
-            self.doc.select(Selection("bay", (self.doc.level_id, bay_id)))
 
     def _on_point_clicked(self, zone_id: str, load_name: str, x: float, y: float) -> None:
         self.show_trace(zone_id, load_name, x, y)
@@ -1156,8 +1180,62 @@ class MainWindow(QMainWindow):
     def _on_new(self) -> None:
         if self.maybe_save():
             self.doc.reset(Project())
+            self._forget_views()
             if self.autosaver:
                 self.autosaver.discard()
+
+    def export_annex(self, options: object = None) -> object:
+        """File › Export permit annex…: ask for the options (unless ``options``, an
+        :class:`~droprig.gui.annex_export.ExportOptions`, are given), then write
+        the PDF on a worker thread behind a progress dialog. Returns the running
+        :class:`~droprig.gui.annex_export.AnnexExport` (None if not started)."""
+        from droprig.gui.annex_export import AnnexExport, ExportDialog, ExportOptions
+
+        p = self.doc.project
+        if not p.lift_zones:
+            QMessageBox.information(self, "Export permit annex",
+                                    "The project has no lift zone to report on yet: add a "
+                                    "lift zone and its load first (Lift menu).")
+            return None
+        if not isinstance(options, ExportOptions):
+            base = self.doc.path or Path.home() / "droprig"
+            suggested = base.with_name(base.stem + "_annex.pdf")
+            dlg = ExportDialog(p, suggested, self)
+            if not dlg.exec():
+                return None
+            options = dlg.options()
+        results = self.doc.results if self.doc.results_current else None
+        src = self.doc.path if self.doc.path is not None and not self.doc.is_dirty else None
+        job = AnnexExport(p, results, options, src, self)
+        job.done.connect(self._on_annex_done)
+        self._annex_job = job
+        job.start()
+        return job
+
+    def _on_annex_done(self, path: Path, pages: int, error: str) -> None:
+        if error == "cancelled":
+            self.statusBar().showMessage("Annex export cancelled; no file was written", 8000)
+        elif error:
+            QMessageBox.critical(self, "Cannot export the annex",
+                                 f"{error}\n\nNo file was written.")
+        else:
+            self.statusBar().showMessage(f"Annex written: {path} ({pages} pages)", 15_000)
+
+    def close_project(self) -> bool:
+        """File › Close: after the unsaved-changes question, an empty project
+        (the window stays open, the guide shows the first step)."""
+        if not self.maybe_save():
+            return False
+        self.doc.reset(Project())
+        self._forget_views()
+        if self.autosaver:
+            self.autosaver.discard()
+        self.statusBar().showMessage("Project closed", 4000)
+        return True
+
+    def _forget_views(self) -> None:
+        """After new / open / close: nothing of the previous project stays on show."""
+        self.trace_panel.show_trace(None)
 
     def _on_open(self) -> None:
         if not self.maybe_save():
@@ -1178,6 +1256,7 @@ class MainWindow(QMainWindow):
             return False
         if self.autosaver:
             self.autosaver.discard()
+        self._forget_views()
         if self.doc.lock_warning:  # a second window on the same file (file_guard)
             self.statusBar().showMessage(self.doc.lock_warning, 30_000)
         self.plan.fit()
@@ -1273,13 +1352,22 @@ class MainWindow(QMainWindow):
 
     # ================================================================ window state
 
+    def _geometry_key(self) -> str:
+        """Settings group of the window geometry for the screen's scale: a size
+        saved at 150 % is not reused at 100 %."""
+        return f"window/{screen_scale_tag(self.screen())}"
+
     def _restore_geometry(self) -> None:
-        geo = self.qsettings.value("window/geometry")
-        state = self.qsettings.value("window/state")
+        key = self._geometry_key()
+        geo = self.qsettings.value(f"{key}/geometry")
+        state = self.qsettings.value(f"{key}/state")
         if isinstance(geo, QByteArray | bytes) and geo:
             self.restoreGeometry(QByteArray(geo))
-        else:
-            self.resize(1600, 1000)
+        else:  # 1600 × 1000, or what the screen has room for
+            avail = self.screen().availableGeometry() if self.screen() else None
+            w = min(1600, int(avail.width() * 0.96)) if avail else 1600
+            h = min(1000, int(avail.height() * 0.94)) if avail else 1000
+            self.resize(max(w, 640), max(h, 480))
         if isinstance(state, QByteArray | bytes) and state and \
                 self.restoreState(QByteArray(state)):
             self._default_layout_pending = False
@@ -1288,8 +1376,9 @@ class MainWindow(QMainWindow):
             self.set_overlay(str(overlay))
 
     def save_window_state(self) -> None:
-        self.qsettings.setValue("window/geometry", self.saveGeometry())
-        self.qsettings.setValue("window/state", self.saveState())
+        key = self._geometry_key()
+        self.qsettings.setValue(f"{key}/geometry", self.saveGeometry())
+        self.qsettings.setValue(f"{key}/state", self.saveState())
         self.qsettings.setValue("view/overlay", self.plan.overlay)
         self.qsettings.sync()
 
@@ -1307,6 +1396,8 @@ class MainWindow(QMainWindow):
         self.doc.release_lock()
         if self._settings_dialog is not None:
             self._settings_dialog.close()
+        if self.help_window is not None:
+            self.help_window.close()
         event.accept()
 
     # ================================================================ screenshots
@@ -1334,8 +1425,41 @@ class MainWindow(QMainWindow):
                           "framing under crane swing zones.<br><br>" + CAUTION)
 
     def _on_caution(self) -> None:
-        QMessageBox.information(
-            self, "Limits of use",
-            CAUTION + "\n\nThe assumptions and limits of the method are listed in the "
-            "README and in every permit annex. Keep people out from under the load path "
-            "whatever the result.")
+        from droprig.gui.help_window import LimitsDialog
+
+        self.limits_dialog = LimitsDialog(self)
+        self.limits_dialog.show()
+
+    def focused_panel(self) -> str:
+        """The guide section of the panel holding the keyboard focus ('start' if none)."""
+        from PySide6.QtWidgets import QApplication
+
+        from droprig.gui.generator_dialog import GeneratorDialog
+
+        w = QApplication.focusWidget() or QApplication.activeWindow()
+        panels = (("plan", self.plan), ("project", self.tree), ("inspector", self.inspector),
+                  ("results", self.results_table), ("trace", self.trace_panel))
+        while w is not None:
+            for key, panel in panels:
+                if w is panel:
+                    return key
+            if isinstance(w, SettingsDialog):
+                return "settings"
+            if isinstance(w, GeneratorDialog):
+                return "generator"
+            w = w.parentWidget()
+        return "start"
+
+    def show_help(self, section: object = None) -> object:
+        """F1: the user guide at the section of the focused panel (or ``section``)."""
+        from droprig.gui.help_window import HelpWindow
+
+        key = section if isinstance(section, str) else self.focused_panel()
+        if not isinstance(self.help_window, HelpWindow):
+            self.help_window = HelpWindow()
+            self.help_window.setAttribute(Qt.WidgetAttribute.WA_QuitOnClose, False)
+        hw = self.help_window
+        hw.show()
+        hw.raise_()
+        hw.show_section(key)
+        return hw

@@ -198,11 +198,59 @@ class BayLabelsItem(PixelSized, QGraphicsItem):
         PixelSized.__init__(self)
         self._bays = bays_item
         self.value_line: Callable[[BayState], tuple[str, str]] = utilisation_line
+        self.avoid: Callable[[], list[QRectF]] = list
+        """Device rectangles a bay tag must not cover (the zone's handles)."""
         self.setZValue(8)
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
 
     def boundingRect(self) -> QRectF:
         return self._bays.boundingRect()
+
+    @staticmethod
+    def place(plate: QRectF, bay: QRectF, avoid: list[QRectF]) -> QRectF:
+        """``plate`` (centred in ``bay``) moved up or down, then sideways, inside
+        the bay, in steps, until it covers none of ``avoid``; where no place is
+        free it stays centred."""
+        if not any(plate.intersects(a) for a in avoid):
+            return plate
+        # every place inside the bay on a 3 px lattice, nearest to the centre first
+        free = []
+        nx = int((bay.width() - plate.width()) / 3)
+        ny = int((bay.height() - plate.height()) / 3)
+        for i in range(nx + 1):
+            for j in range(ny + 1):
+                r = QRectF(bay.left() + 3 * i, bay.top() + 3 * j, plate.width(),
+                           plate.height())
+                if not any(r.intersects(a) for a in avoid):
+                    d = (r.center().x() - plate.center().x()) ** 2 + \
+                        (r.center().y() - plate.center().y()) ** 2
+                    free.append((d, r))
+        return min(free, key=lambda t: t[0])[1] if free else plate
+
+    def plates(self, t: QTransform) -> list[tuple[BayState, list[str], QRectF]]:
+        """Each labelled bay with its lines and its plate (device px), placed
+        clear of :attr:`avoid`."""
+        bold, plain = pixel_font(11, True), pixel_font(11)
+        avoid = [a.adjusted(-2, -2, 2, 2) for a in self.avoid()]
+        out = []
+        for s in self._bays.states:
+            dr = t.mapRect(rect_to_scene(s.bay.rect))
+            lines = self.label_for(s, dr.width(), dr.height())
+            if not lines:
+                continue
+            fms = [QFontMetricsF(bold if i == 0 else plain) for i in range(len(lines))]
+            w = max(fm.horizontalAdvance(t_) for fm, t_ in zip(fms, lines, strict=True)) + 8
+            h = 14.0 * len(lines) + 4
+            plate = QRectF(dr.center().x() - w / 2, dr.center().y() - h / 2, w, h)
+            placed = self.place(plate, dr, avoid)
+            if any(placed.intersects(a) for a in avoid) and lines != [style.outcome(s.key).tag]:
+                # no free place for the whole label: the outcome tag alone, placed
+                tag = style.outcome(s.key).tag
+                tw = QFontMetricsF(bold).horizontalAdvance(tag) + 8
+                small = QRectF(dr.center().x() - tw / 2, dr.center().y() - 9, tw, 18)
+                lines, placed = [tag], self.place(small, dr, avoid)
+            out.append((s, lines, placed))
+        return out
 
     def label_for(self, s: BayState, width_px: float, height_px: float) -> list[str]:
         """The lines that fit a bay of the given screen size (for tests too)."""
@@ -231,16 +279,9 @@ class BayLabelsItem(PixelSized, QGraphicsItem):
         painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
         painter.setRenderHint(QPainter.RenderHint.TextAntialiasing, True)
         bold, plain = pixel_font(11, True), pixel_font(11)
-        for s in self._bays.states:
-            dr = t.mapRect(rect_to_scene(s.bay.rect))
-            lines = self.label_for(s, dr.width(), dr.height())
-            if not lines:
-                continue
+        for s, lines, plate in self.plates(t):
             st = style.outcome(s.key)
-            fms = [QFontMetricsF(bold if i == 0 else plain) for i in range(len(lines))]
-            w = max(fm.horizontalAdvance(t_) for fm, t_ in zip(fms, lines, strict=True)) + 8
-            h = 14.0 * len(lines) + 4
-            plate = QRectF(dr.center().x() - w / 2, dr.center().y() - h / 2, w, h)
+            w = plate.width()
             painter.setPen(cosmetic_pen(st.edge, 1.0))
             painter.setBrush(QColor(255, 255, 255, 225))
             painter.drawRoundedRect(plate, 3, 3)

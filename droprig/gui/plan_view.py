@@ -66,6 +66,7 @@ from PySide6.QtWidgets import (
 
 from droprig import units
 from droprig.gui import style
+from droprig.gui.document import Document, Selection
 from droprig.gui.plan_items import (
     DROP_RANGE,
     HANDLE_KINDS,
@@ -91,6 +92,7 @@ from droprig.gui.plan_items import (
     raster_transform,
     rasterise,
     rect_to_scene,
+    sector_path,
     to_scene,
     utilisation_line,
     zone_bounds,
@@ -98,6 +100,14 @@ from droprig.gui.plan_items import (
 from droprig.model import Level, LiftZone, Member, ModelError, Project, Rect, bays, corridor_problem
 from droprig.solver import RESPONSES, CaseResult, Results
 from droprig.texts import CAUTION
+
+STALE_GRACE_MS = 300
+"""How long the plan may keep showing the previous results after an edit."""
+
+
+def _cases(p: Project) -> tuple[tuple[str, str, str], ...]:
+    return tuple((z.id, z.level_id, ld.name) for z in p.lift_zones for ld in z.loads)
+
 
 OVERLAY_MODES: tuple[str, ...] = ("outcome", "utilisation", "drop_height")
 EDIT_MODES: tuple[str, ...] = ("select", "draw_protection", "draw_corridor")
@@ -116,11 +126,14 @@ CLICK_SLOP_PX = 5
 """A press and release closer than this are a click, not a drag."""
 PICK_PX = 14.0
 """A click picks the nearest drop point within this many pixels (or 1.5 cells)."""
-MEMBER_PICK_PX = 5.0
+MEMBER_PICK_PX = 3.0
 """A click this close (pixels) to a girder or beam selects the member, not the bay…"""
 MEMBER_PICK_M = 0.3
 """… but never farther than this, m: zoomed out, where members are a few pixels
 apart, a click between them still picks the bay."""
+CRANE_PICK_PX = 17.0
+"""px: a press this close to a crane's centre picks the crane (its symbol is ~30 px)."""
+
 NOTE_MS = 6000
 """How long a refusal note stays beside a released corridor corner, ms."""
 LEGEND_WIDTH = 196.0
@@ -210,9 +223,11 @@ class PlanView(QGraphicsView):
     corridor_drawn = Signal(str, object)
     corridor_changed = Signal(str, object)
     member_clicked = Signal(str)
+    zone_clicked = Signal(str)
     context_requested = Signal(object, str)
 
-    def __init__(self, parent: QWidget | None = None) -> None:
+    def __init__(self, document: Document | None = None,
+                 parent: QWidget | None = None) -> None:
         super().__init__(parent)
         self._scene = QGraphicsScene(self)
         self.setScene(self._scene)
@@ -241,6 +256,9 @@ class PlanView(QGraphicsView):
         self._user_view = False
         self._drag: _Drag | None = None
         self._press: QPoint | None = None
+        self._crane_press: str | None = None
+        self._legend_open = False
+        self.legend_collapsed = False
         self._pan_last: QPoint | None = None
         self._space = False
         self._band_origin: QPointF | None = None
@@ -314,6 +332,98 @@ class PlanView(QGraphicsView):
                      self._band_item,
                      self._drag_label, *self._handles.values()):
             self._scene.addItem(item)
+        self._labels_item.avoid = self.handle_rects
+        self._dim_plate = QColor(style.PLAN["background"])
+        self._doc: Document | None = None
+        self._stale_timer = QTimer(self)
+        self._stale_timer.setSingleShot(True)
+        self._stale_timer.setInterval(STALE_GRACE_MS)
+        self._stale_timer.timeout.connect(self._on_stale_timeout)
+        if document is not None:
+            self.bind(document)
+
+    # ------------------------------------------------------------- the document
+
+    def bind(self, document: Document) -> None:
+        """Follow ``document`` as the other panels do: its project, level,
+        results, selection and lift filter; a click selects through it."""
+        self._doc = document
+        document.project_changed.connect(self._on_project_changed)
+        document.level_changed.connect(self._on_level_changed)
+        document.results_changed.connect(self._on_results_changed)
+        document.selection_changed.connect(self._on_selection_changed)
+        document.case_changed.connect(self._on_case_changed)
+        self.bay_clicked.connect(self._on_bay_clicked)
+        self.member_clicked.connect(self._on_member_clicked)
+        self.zone_clicked.connect(
+            lambda zid: document.select(Selection("zone", (zid,))))
+        self.set_project(document.project, document.level_id or None)
+        self.set_results(self.shown_results())
+        self._on_selection_changed(document.selection)
+
+    def shown_results(self) -> Results | None:
+        """Results the plan may show: current ones; or, for at most
+        STALE_GRACE_MS after an edit, the previous ones if the level's framing
+        and the set of zones and loads are unchanged (so bays and cases still
+        match) — this avoids a grey flash on every edit; after that the plan
+        shows "not assessed" until the new results arrive."""
+        doc = self._doc
+        if doc is None:
+            return self._results
+        res = doc.results
+        if res is None:
+            return None
+        if doc.results_current:
+            return res
+        if not self._stale_timer.isActive():
+            return None
+        old, new = doc.results_project, doc.project
+        try:
+            same = old is not None and old.level(doc.level_id) is \
+                new.level(doc.level_id) and _cases(old) == _cases(new)
+        except KeyError:
+            same = False
+        return res if same else None
+
+    def _on_project_changed(self, project: Project) -> None:
+        assert self._doc is not None
+        self._stale_timer.start()
+        self.set_project(project, self._doc.level_id or None)
+        self.set_results(self.shown_results())
+
+    def _on_level_changed(self, level_id: str) -> None:
+        assert self._doc is not None
+        self.set_project(self._doc.project, level_id or None)
+        self.set_results(self.shown_results())
+
+    def _on_results_changed(self, _results: object) -> None:
+        self.set_results(self.shown_results())
+
+    def _on_stale_timeout(self) -> None:
+        if self._doc is not None and not self._doc.results_current:
+            self.set_results(None)
+
+    def _on_selection_changed(self, sel: Selection | None) -> None:
+        assert self._doc is not None
+        self.select_bay(sel.ids[1] if sel is not None and sel.kind == "bay" else None)
+        self.set_selected_zone(sel.ids[0] if sel is not None and sel.kind in ("zone", "load")
+                               else None)
+        self.set_selected_member(sel.ids[1] if sel is not None and sel.kind == "member"
+                                 and sel.ids[0] == self._doc.level_id else None)
+
+    def _on_case_changed(self, case: tuple[str, str] | None) -> None:
+        if case is None:
+            self.set_case(None)
+        else:
+            self.set_case(case[0], case[1])
+
+    def _on_bay_clicked(self, bay_id: str) -> None:
+        if self._doc is not None and self._doc.level_id:
+            self._doc.select(Selection("bay", (self._doc.level_id, bay_id)))
+
+    def _on_member_clicked(self, member_id: str) -> None:
+        if self._doc is not None and self._doc.level_id:
+            self._doc.select(Selection("member", (self._doc.level_id, member_id)))
 
     # ------------------------------------------------------------- public API
 
@@ -468,6 +578,20 @@ class PlanView(QGraphicsView):
             raise KeyError(kind)
         return self._corner_handles[i]
 
+    def handle_rects(self) -> list[QRectF]:
+        """Viewport rectangles of the visible handles (bay tags keep clear of them)."""
+        out = []
+        for h in self._all_handles():
+            if h.isVisible():
+                c = QPointF(self.mapFromScene(h.pos()))
+                r = style.HANDLE_SIZE_PX
+                out.append(QRectF(c.x() - r, c.y() - r, 2 * r, 2 * r))
+        return out
+
+    def bay_tag_rects(self) -> list[QRectF]:
+        """Where the bay tags are drawn (viewport px; tests)."""
+        return [r for _s, _l, r in self._labels_item.plates(self.viewportTransform())]
+
     def _all_handles(self) -> list[HandleItem]:
         return [*self._handles.values(), *self._corner_handles]
 
@@ -513,17 +637,38 @@ class PlanView(QGraphicsView):
         if r.isEmpty():
             return
         vw, vh = self.viewport().width(), self.viewport().height()
-        ml, mt = 72.0, 64.0
-        mr = 72.0 + (LEGEND_WIDTH + 14.0 if vw > 760 else 0.0)
-        # the bottom bubbles (57 px below the grid) clear the scale bar (26 px band)
-        mb = 96.0 + self._caution_height()
+        # the legend gets its own strip only where the plan stays wide; otherwise it
+        # finds a free corner or folds to a tab (legend_rect)
+        legend = LEGEND_WIDTH + 14.0 if vw > 1000 else 0.0
+        g = rect_to_scene(self._level.grid.extent) if self._level is not None else None
+        caution = self._caution_height()
+
+        def margins(s: float) -> tuple[float, float, float, float]:
+            """Left, top, right, bottom px: the grid's bubbles and dimensions (about
+            60 px outside the grid; the bottom ones clear the 26 px scale-bar band)
+            only where the zones do not already leave that room."""
+            need = (72.0, 64.0, 72.0, 96.0)
+            base = (16.0, 16.0, 16.0, 40.0)
+            if g is None:
+                gaps = (0.0, 0.0, 0.0, 0.0)
+                need = base
+            else:
+                gaps = (g.left() - r.left(), g.top() - r.top(), r.right() - g.right(),
+                        r.bottom() - g.bottom())
+            ml, mt, mr, mb = (max(b, n - gap * s) for b, n, gap in zip(base, need, gaps,
+                                                                        strict=True))
+            return ml, mt, mr + legend, mb + caution
 
         def scale() -> float:
             s = min((vw - ml - mr) / max(r.width(), 1e-6),
                     (vh - mt - mb) / max(r.height(), 1e-6))
             return min(max(s, MIN_ZOOM), MAX_ZOOM)
 
+        ml, mt, mr, mb = 72.0, 64.0, 72.0 + legend, 96.0 + caution
         s = scale()
+        for _ in range(3):  # the margins depend on the scale: settle them
+            ml, mt, mr, mb = margins(s)
+            s = scale()
         # crane labels are fixed-size text: widen the margins so none is cut off
         for z in self._cranes_item.shown_zones():
             c = to_scene(*z.crane)
@@ -915,6 +1060,13 @@ class PlanView(QGraphicsView):
     def mousePressEvent(self, event: QMouseEvent) -> None:
         pos = event.position().toPoint()
         self.setFocus(Qt.FocusReason.MouseFocusReason)  # so Space and Esc reach the view
+        if event.button() == Qt.MouseButton.LeftButton and (
+                self.legend_collapsed or self._legend_open) and \
+                self.legend_rect().contains(QPointF(pos)):
+            self._legend_open = not self._legend_open  # the Key tab opens / closes it
+            self.viewport().update()
+            event.accept()
+            return
         if event.button() == Qt.MouseButton.MiddleButton or (
                 event.button() == Qt.MouseButton.LeftButton and self._space):
             self._pan_last = pos
@@ -943,6 +1095,7 @@ class PlanView(QGraphicsView):
             super().mousePressEvent(event)
             return
         self._press = pos
+        self._crane_press = self.crane_at(pos)
         event.accept()
 
     def mouseMoveEvent(self, event: QMouseEvent) -> None:
@@ -973,6 +1126,13 @@ class PlanView(QGraphicsView):
             self.hover_text.emit(text)
             event.accept()
             return
+        if (self._crane_press is not None and self._press is not None
+                and event.buttons() & Qt.MouseButton.LeftButton
+                and (self._drag is not None
+                     or (pos - self._press).manhattanLength() > CLICK_SLOP_PX)):
+            self._on_crane_drag(self._crane_press, self._snap(self.mapToScene(pos)))
+            event.accept()
+            return
         super().mouseMoveEvent(event)
         if self._drag is None and not any(h.dragging for h in self._all_handles()):
             self._emit_hover(self.mapToScene(pos))
@@ -997,6 +1157,12 @@ class PlanView(QGraphicsView):
             return
         if any(h.dragging for h in self._all_handles()):
             super().mouseReleaseEvent(event)
+            return
+        crane, self._crane_press = self._crane_press, None
+        if crane is not None and self._drag is not None and self._drag.kind == "crane":
+            self._press = None
+            self._on_handle_release("crane")
+            event.accept()
             return
         press, self._press = self._press, None
         if (press is not None and event.button() == Qt.MouseButton.LeftButton
@@ -1090,10 +1256,61 @@ class PlanView(QGraphicsView):
         k = int(near[np.argmax(self._pscore[near])])
         return self._cases[int(self._pcase[k])], int(self._pidx[k])
 
+    def crane_at(self, pos: QPoint) -> str | None:
+        """The lift zone whose crane symbol or crane label is under viewport pixel
+        ``pos`` (the nearest crane wins), or None."""
+        best: tuple[float, str] | None = None
+        for z in self._cranes_item.shown_zones():
+            c = QPointF(self.mapFromScene(to_scene(*z.crane)))
+            d = math.hypot(pos.x() - c.x(), pos.y() - c.y())
+            on_label = crane_label_rect(c, z).contains(QPointF(pos))
+            if (d <= CRANE_PICK_PX or on_label) and (best is None or d < best[0]):
+                best = (d, z.id)
+        return best[1] if best is not None else None
+
+    def zone_at(self, x: float, y: float) -> str | None:
+        """The lift zone whose swing region (sector, corridor and margin aside)
+        holds plan point (x, y), m; the selected zone first."""
+        zones = sorted(self._zones_item.shown_zones(),
+                       key=lambda z: z.id != self._selected_zone)
+        for z in zones:
+            path = sector_path(z.crane[0], z.crane[1], z.r_min, z.r_max, z.slew_start,
+                               z.slew_sweep)
+            if path.contains(to_scene(x, y)):
+                return z.id
+        return None
+
+    def _on_crane_drag(self, zone_id: str, scene_pos: QPointF) -> None:
+        zone = self._zone(zone_id)
+        if zone is None:
+            return
+        if self._drag is None or self._drag.kind != "crane":
+            self._drag = _Drag("crane", zone, zone)
+            self.set_selected_zone(zone_id)
+            self.zone_clicked.emit(zone_id)
+        d = self._drag
+        x, y = from_scene(scene_pos)
+        try:
+            d.candidate = dataclasses.replace(d.origin, crane=(round(x, 6), round(y, 6)))
+        except ModelError:
+            pass  # out of the model's range: keep the last candidate
+        self._zones_item.set_preview(d.candidate)
+        self._cranes_item.set_preview(d.candidate)
+        self._place_handles()
+        s = self.unit_system
+        text = (f"crane {zone_id} at ({units.fmt(d.candidate.crane[0], 'length', s, decimals=2)}"
+                f", {units.fmt(d.candidate.crane[1], 'length', s, decimals=2)})")
+        self._drag_label.setText(text)
+        self._drag_label.setPos(to_scene(*d.candidate.crane))
+        self._drag_label.setVisible(True)
+        self.hover_text.emit(text)
+
     def _click(self, scene_pos: QPointF) -> None:
         x, y = from_scene(scene_pos)
-        m = self.member_at(x, y)
-        s = self._bay_at(x, y) if m is None else None
+        crane = self.crane_at(self.mapFromScene(scene_pos))
+        m = self.member_at(x, y) if crane is None else None
+        s = self._bay_at(x, y) if m is None and crane is None else None
+        zone = self.zone_at(x, y) if crane is None and m is None and s is None else crane
         if m is not None:
             self.select_bay(None)
             self.set_selected_member(m.id)
@@ -1101,6 +1318,12 @@ class PlanView(QGraphicsView):
         elif s is not None:
             self.select_bay(s.bay.id)
             self.bay_clicked.emit(s.bay.id)
+        elif zone is not None:
+            self.select_bay(None)
+            self.set_selected_member(None)
+            self.set_selected_zone(zone)
+            self.zone_clicked.emit(zone)
+            return
         hit = self.nearest_point(x, y)
         if hit is not None:
             case, i = hit
@@ -1192,7 +1415,45 @@ class PlanView(QGraphicsView):
             self._paint_scale_bar(painter)
         self._paint_legend(painter)
         self._paint_caution(painter)
+        self._paint_instruction(painter)
         painter.restore()
+
+    def instruction(self) -> str:
+        """What the next click does while drawing ('' in select mode); painted on
+        the plan itself, where the eye is."""
+        if self._mode == "draw_protection":
+            if self._band_origin is None:
+                return ("Drawing a protection area: press and drag out the mat's rectangle "
+                        "· Esc ends")
+            return "Release to lay the mat here · Esc cancels"
+        if self._mode == "draw_corridor":
+            n = len(self._corridor_pts)
+            if n == 0:
+                return (f"Corridor of zone {self._corridor_zone}: click its first corner "
+                        "· Esc cancels")
+            if n < 3:
+                return (f"Click corner {n + 1} ({3 - n} more needed) · Backspace removes "
+                        "the last · Esc cancels")
+            return (f"Click corner {n + 1}, or double-click / Enter to finish with {n} "
+                    "· Backspace removes the last · Esc cancels")
+        return ""
+
+    def _paint_instruction(self, p: QPainter) -> None:
+        text = self.instruction()
+        if not text:
+            return
+        font = pixel_font(12, True)
+        fm = QFontMetricsF(font)
+        vw = self.viewport().width()
+        text = fm.elidedText(text, Qt.TextElideMode.ElideRight, vw - 40)
+        w = fm.horizontalAdvance(text) + 24
+        r = QRectF((vw - w) / 2, 8, w, fm.height() + 10)
+        p.setPen(cosmetic_pen("#0B2E4F", 1.0))
+        p.setBrush(QColor(227, 238, 247, 240))
+        p.drawRoundedRect(r, 5, 5)
+        p.setFont(font)
+        p.setPen(QColor("#0B2E4F"))
+        p.drawText(r, Qt.AlignmentFlag.AlignCenter, text)
 
     def _vp(self, x: float, y: float) -> QPointF:
         return self.viewportTransform().map(to_scene(x, y))
@@ -1245,6 +1506,9 @@ class PlanView(QGraphicsView):
                 p.drawLine(QPointF(t - 3, base + 3), QPointF(t + 3, base - 3))
             text = units.fmt(xb - xa, "length", sysm, decimals=2)
             if fm.horizontalAdvance(text) + 6 < b - a:
+                # on a plate of the background colour: the drift band never crosses it
+                tw = fm.horizontalAdvance(text) + 6
+                p.fillRect(QRectF((a + b - tw) / 2, base - 14, tw, 13), self._dim_plate)
                 p.setPen(QColor("#222222"))
                 p.drawText(QRectF(a, base - 14, b - a, 13), Qt.AlignmentFlag.AlignCenter, text)
         left = self._vp(x0, y0).x() - dim_off
@@ -1259,6 +1523,8 @@ class PlanView(QGraphicsView):
                 p.save()
                 p.translate(left + 1, (a + b) / 2)
                 p.rotate(-90)
+                tw = fm.horizontalAdvance(text) + 6
+                p.fillRect(QRectF(-tw / 2, 0, tw, 13), self._dim_plate)
                 p.setPen(QColor("#222222"))
                 p.drawText(QRectF(-(a - b) / 2, 0, a - b, 13), Qt.AlignmentFlag.AlignCenter,
                            text)
@@ -1368,11 +1634,54 @@ class PlanView(QGraphicsView):
             return "Worst of every load and zone"
         return f"Zone {self._case[0]}, load {self._case[1]}"
 
-    def _paint_legend(self, p: QPainter) -> None:
-        vw = self.viewport().width()
-        w = LEGEND_WIDTH
-        x = vw - w - 10
-        y = 10.0
+    def content_viewport_rect(self) -> QRectF:
+        """Viewport rectangle of the plan's content: the grid with its bubbles
+        and dimension lines, the swing zones and the protection areas."""
+        r = self._content_rect()
+        if r.isEmpty():
+            return QRectF()
+        v = self.mapFromScene(r).boundingRect()
+        pad = 60.0 if self._level is not None else 8.0  # grid bubbles and dimensions
+        return QRectF(v).adjusted(-pad, -pad, pad, pad)
+
+    def content_obstacles(self) -> list[QRectF]:
+        """Viewport rectangles the legend must not cover: the plan's content
+        (:meth:`content_viewport_rect`), each crane with its label."""
+        out = [self.content_viewport_rect()]
+        for z in self._cranes_item.shown_zones():
+            c = QPointF(self.mapFromScene(to_scene(*z.crane)))
+            out.append(QRectF(c.x() - 30, c.y() - 30, 60, 60))
+            out.append(crane_label_rect(c, z))
+        return [r for r in out if not r.isEmpty()]
+
+    def _legend_size(self) -> tuple[float, float]:
+        rows = self._legend_rows()
+        heights = {"outcome": 18.0, "ramp": 58.0, "sym": 16.0}
+        return LEGEND_WIDTH, 40.0 + sum(heights[k] for k, _ in rows)
+
+    def legend_rect(self) -> QRectF:
+        """Where the legend is drawn (viewport px): the first free corner — top
+        right, bottom right, top left, bottom left — that covers none of the plan's
+        content, the north arrow, the scale bar or the caution; when no corner is
+        free, a small "Key" tab at the top right that opens the legend on a click
+        (:attr:`legend_collapsed`)."""
+        vw, vh = self.viewport().width(), self.viewport().height()
+        w, h = self._legend_size()
+        bottom = vh - self._caution_height() - 40.0  # above the scale bar
+        corners = [QRectF(vw - w - 10, 10, w, h), QRectF(vw - w - 10, bottom - h, w, h),
+                   QRectF(70, 10, w, h), QRectF(10, bottom - 40 - h, w, h)]
+        content = self.content_obstacles()
+        self.legend_collapsed = False
+        if self._legend_open:
+            return corners[0]
+        for r in corners:
+            if r.top() >= 0 and r.left() >= 0 and r.bottom() <= bottom and \
+                    r.right() <= vw and not any(r.intersects(c) for c in content):
+                return r
+        self.legend_collapsed = True
+        return QRectF(vw - 64, 10, 54, 20)
+
+    def _legend_rows(self) -> list[tuple[str, object]]:
         rows: list[tuple[str, object]] = []
         mode = self._overlay
         if mode != "outcome":
@@ -1388,8 +1697,22 @@ class PlanView(QGraphicsView):
             rows.append(("sym", "protection"))
         if self._openings_item.count:
             rows.append(("sym", "opening"))
+        return rows
+
+    def _paint_legend(self, p: QPainter) -> None:
+        r = self.legend_rect()
+        mode = self._overlay
+        if self.legend_collapsed:
+            p.setPen(cosmetic_pen("#9A9A94", 1.0))
+            p.setBrush(QColor(255, 255, 255, 235))
+            p.drawRoundedRect(r, 4, 4)
+            p.setFont(pixel_font(11, True))
+            p.setPen(QColor("#222222"))
+            p.drawText(r, Qt.AlignmentFlag.AlignCenter, "Key ▾")
+            return
+        x, y, w, h = r.x(), r.y(), r.width(), r.height()
+        rows = self._legend_rows()
         heights = {"outcome": 18.0, "ramp": 58.0, "sym": 16.0}
-        h = 40.0 + sum(heights[k] for k, _ in rows)
         p.setPen(cosmetic_pen("#9A9A94", 1.0))
         p.setBrush(QColor(255, 255, 255, 235))
         p.drawRoundedRect(QRectF(x, y, w, h), 4, 4)

@@ -8,6 +8,7 @@ bay elsewhere selects its worst row here.
 from __future__ import annotations
 
 import math
+from html import escape as html_escape
 from typing import Any
 
 from PySide6.QtCore import (
@@ -24,7 +25,6 @@ from PySide6.QtCore import (
 from PySide6.QtGui import QColor, QFont, QFontMetrics, QIcon, QPainter, QPixmap
 from PySide6.QtWidgets import (
     QAbstractItemView,
-    QComboBox,
     QHBoxLayout,
     QHeaderView,
     QLabel,
@@ -34,12 +34,12 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
-from droprig.advice import advice_text
 from droprig.gui import style
 from droprig.gui.document import Document, Selection
 from droprig.model import Project
-from droprig.outcomes import fmt_utilisation
+from droprig.permit import BayVerdict, PermitConditions, derive_conditions
 from droprig.solver import BaySummary, Results
+from droprig.texts import CAUTION
 
 SORT_ROLE = Qt.ItemDataRole.UserRole + 1
 ROW_ROLE = Qt.ItemDataRole.UserRole + 2
@@ -48,13 +48,19 @@ COLUMNS: tuple[tuple[str, str], ...] = (
     ("bay", "Bay"),
     ("zone", "Zone"),
     ("load", "Load"),
+    ("verdict", "Verdict"),
     ("outcome", "Outcome"),
-    ("util", "Max U"),
-    ("allow", "Allowable drop: elastic (yielding)"),
-    ("planned", "Planned drop"),
-    ("governing", "Governing member · check"),
-    ("advice", "Advice"),
+    ("util", "Max U (check)"),
+    ("allow", "Allowable drop height, elastic (check)"),
+    ("hook", "Max hook elevation"),
+    ("planned", "Planned drop height"),
+    ("governing", "Worst point: member · check"),
+    ("advice", "Permit conditions"),
 )
+"""Columns; the verdict, U, heights, hook elevation and conditions are the cells of
+:meth:`droprig.permit.BayVerdict.cells` (the same text the CLI and the annex print)."""
+CELL_OF = {"verdict": "verdict", "util": "utilisation", "allow": "allowable", "hook": "hook",
+           "planned": "planned", "advice": "conditions"}
 COL = {key: i for i, (key, _) in enumerate(COLUMNS)}
 
 _TIPS = {
@@ -62,10 +68,15 @@ _TIPS = {
                "Y: yields within limits, X: exceeds limits.",
     "util": "Maximum utilisation U = demand / resistance of any check at any drop point "
             "in the bay, as a ratio: above 1.00 a check is exceeded; '> 99' beyond 99",
-    "allow": "Greatest free fall that keeps every point of the bay elastic; in brackets "
-             "the greatest that keeps it within the ductility and rotation limits, where "
-             "that is more",
-    "planned": "Free-fall height of the load as planned (onto the deck or mat top)",
+    "allow": "Greatest drop height (load underside above the finished surface) that keeps "
+             "every point of the bay elastic, with the check that sets it; where a pad "
+             "lies at that point, the fall onto the pad",
+    "hook": "Hook elevation that puts the load's underside at the allowable drop height "
+            "(level elevation + hang length + allowable height)",
+    "planned": "Drop height as planned: the load's underside above the finished surface",
+    "verdict": "Acceptable; acceptable with the permit conditions; not acceptable (keep the "
+               "load off the bay). Defer to local codes, the appointed lifting person and a "
+               "licensed engineer.",
 }
 
 
@@ -106,7 +117,8 @@ class BayResultsModel(QAbstractTableModel):
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent)
         self._rows: tuple[BaySummary, ...] = ()
-        self._planned: dict[tuple[str, str], float] = {}
+        self._verdicts: dict[tuple[str, str, str], BayVerdict] = {}
+        self.permit: PermitConditions | None = None
         self._system: units.UnitSystem = "SI"
         self._level_names: dict[str, str] = {}
         self._stale = False
@@ -114,8 +126,9 @@ class BayResultsModel(QAbstractTableModel):
     def set_data(self, results: Results | None, project: Project, stale: bool = False) -> None:
         self.beginResetModel()
         self._rows = results.bays if results is not None else ()
-        self._planned = {(c.zone_id, c.load_name): c.planned_drop_height
-                         for c in (results.cases if results is not None else ())}
+        self.permit = derive_conditions(project, results) if results is not None else None
+        self._verdicts = {(v.zone_id, v.load_name, v.bay_id): v
+                          for v in (self.permit.bays if self.permit is not None else ())}
         self._system = project.settings.unit_system
         self._level_names = {lv.id: lv.name for lv in project.levels} \
             if len(project.levels) > 1 else {}
@@ -131,6 +144,15 @@ class BayResultsModel(QAbstractTableModel):
 
     def row(self, i: int) -> BaySummary:
         return self._rows[i]
+
+    def verdict(self, b: BaySummary) -> BayVerdict | None:
+        """The permit verdict of a row (None if the results no longer hold it)."""
+        return self._verdicts.get((b.zone_id, b.load_name, b.bay_id))
+
+    def cell(self, b: BaySummary, key: str) -> str:
+        """The permit cell ``key`` of :data:`CELL_OF` for a row."""
+        v = self.verdict(b)
+        return v.cells(self._system)[CELL_OF[key]] if v is not None else "none"
 
     def rowCount(self, parent: QModelIndex | QPersistentModelIndex = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(self._rows)
@@ -166,9 +188,9 @@ class BayResultsModel(QAbstractTableModel):
         if role == Qt.ItemDataRole.ToolTipRole:
             if key == "util":
                 return _TIPS["util"]
-            # the advice column is often scrolled out of view: every other cell
+            # the conditions column is often scrolled out of view: every other cell
             # of the row gives it on hover
-            advice = advice_text(b, self._system)
+            advice = self.cell(b, "advice")
             if key == "outcome":
                 return f"{style.outcome(b.response).meaning}\n{advice}"
             return advice
@@ -179,12 +201,12 @@ class BayResultsModel(QAbstractTableModel):
             return f
         if role == Qt.ItemDataRole.ForegroundRole and self._stale:
             return QColor("#9A9A9A")
-        if role == Qt.ItemDataRole.TextAlignmentRole and key in ("util", "allow", "planned"):
+        if role == Qt.ItemDataRole.TextAlignmentRole and key in ("util", "allow", "planned",
+                                                                  "hook"):
             return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
         return None
 
     def _text(self, b: BaySummary, key: str) -> str:
-        s = self._system
         if key == "bay":
             lv = self._level_names.get(b.level_id)
             return f"{lv}: {b.bay_id}" if lv else b.bay_id
@@ -195,21 +217,10 @@ class BayResultsModel(QAbstractTableModel):
         if key == "outcome":
             st = style.outcome(b.response)
             return f"{st.tag}  {st.label}"
-        if key == "util":
-            return fmt_utilisation(b.max_utilisation)
-        if key == "allow":
-            el = style.fmt_drop(_fin(b.allowable_drop_height), s)
-            pl = _fin(b.allowable_drop_height_plastic)
-            pl_text = style.fmt_drop(pl, s)
-            if pl is None or pl_text == el:
-                return el
-            return f"{el}  ({pl_text})"
-        if key == "planned":
-            return units.fmt(self._planned.get((b.zone_id, b.load_name)), "length", s)
+        if key in CELL_OF:
+            return self.cell(b, key)
         if key == "governing":
             return f"{b.governing_member} · {b.governing_check.replace('_', ' ')}"
-        if key == "advice":
-            return advice_text(b, s)
         return ""
 
     def _sort(self, b: BaySummary, key: str) -> Any:
@@ -222,8 +233,15 @@ class BayResultsModel(QAbstractTableModel):
             v = _fin(b.allowable_drop_height)
             return -1.0 if v is None else v
         if key == "planned":
-            v = self._planned.get((b.zone_id, b.load_name))
-            return -1.0 if v is None else v
+            return -1.0 if b.planned_drop_height is None else b.planned_drop_height
+        if key == "hook":
+            bv = self.verdict(b)
+            h = None if bv is None else bv.max_hook_elevation
+            return -math.inf if h is None else h
+        if key == "verdict":
+            bv = self.verdict(b)
+            return -1 if bv is None else ("acceptable", "acceptable_with_conditions",
+                                          "not_acceptable").index(bv.verdict)
         return self._text(b, key)
 
 
@@ -251,6 +269,89 @@ class _LiftFilter(QSortFilterProxyModel):
         assert isinstance(model, BayResultsModel)
         b = model.row(source_row)
         return (b.zone_id, b.load_name) == self.key
+
+
+class _FrozenColumns:
+    """Keep ``columns`` (the first ones) in place while the table scrolls sideways:
+    a second view over the same model, showing only those columns, laid over the
+    left edge of the main view and scrolled with it vertically (Qt's frozen-column
+    pattern)."""
+
+    def __init__(self, view: QTableView, columns: tuple[int, ...]) -> None:
+        self.main = view
+        self.columns = columns
+        f = QTableView(view)
+        f.setObjectName("frozenColumns")
+        f.setModel(view.model())
+        f.setSelectionModel(view.selectionModel())
+        f.setFocusPolicy(Qt.FocusPolicy.NoFocus)
+        f.verticalHeader().hide()
+        f.verticalHeader().setDefaultSectionSize(view.verticalHeader().defaultSectionSize())
+        f.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.Fixed)
+        f.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        f.setVerticalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        f.setSelectionBehavior(view.selectionBehavior())
+        f.setAlternatingRowColors(view.alternatingRowColors())
+        f.setIconSize(view.iconSize())
+        f.setWordWrap(False)
+        f.setSortingEnabled(True)
+        f.horizontalHeader().setSortIndicatorShown(False)
+        f.horizontalHeader().sectionClicked.connect(
+            lambda c: view.sortByColumn(c, Qt.SortOrder.AscendingOrder
+                                        if view.horizontalHeader().sortIndicatorOrder()
+                                        == Qt.SortOrder.DescendingOrder
+                                        else Qt.SortOrder.DescendingOrder))
+        f.setStyleSheet("QTableView#frozenColumns { border: none; "
+                        "border-right: 1px solid #9A9A94; }")
+        self.view = f
+        fh, mh = f.horizontalHeader(), view.horizontalHeader()
+        for visual in range(mh.count()):  # the same column order as the main view
+            logical = mh.logicalIndex(visual)
+            fh.moveSection(fh.visualIndex(logical), visual)
+        self._sync_columns()
+        view.viewport().stackUnder(f)
+        f.verticalScrollBar().valueChanged.connect(view.verticalScrollBar().setValue)
+        view.verticalScrollBar().valueChanged.connect(f.verticalScrollBar().setValue)
+        view.horizontalHeader().sectionResized.connect(self._on_resized)
+        view.model().modelReset.connect(self._sync_columns)
+        view.model().layoutChanged.connect(self._sync_columns)
+        view.installEventFilter(_Relayout(self, view))
+        f.show()
+        self.relayout()
+
+    def _sync_columns(self, *_: object) -> None:
+        model = self.main.model()
+        for c in range(model.columnCount()):
+            self.view.setColumnHidden(c, c not in self.columns)
+            if c in self.columns:
+                self.view.setColumnWidth(c, self.main.columnWidth(c))
+
+    def _on_resized(self, col: int, _old: int, new: int) -> None:
+        if col in self.columns:
+            self.view.setColumnWidth(col, new)
+            self.relayout()
+
+    def width(self) -> int:
+        return sum(self.main.columnWidth(c) for c in self.columns)
+
+    def relayout(self) -> None:
+        m = self.main
+        self.view.setGeometry(m.frameWidth(), m.frameWidth(), self.width(),
+                              m.viewport().height() + m.horizontalHeader().height())
+
+
+class _Relayout(QWidget):
+    """Event filter: re-lay the frozen columns when the main view resizes."""
+
+    def __init__(self, frozen: _FrozenColumns, parent: QWidget) -> None:
+        super().__init__(parent)
+        self.hide()
+        self._frozen = frozen
+
+    def eventFilter(self, obj: object, event: Any) -> bool:
+        if event.type() in (event.Type.Resize, event.Type.Show, event.Type.LayoutRequest):
+            self._frozen.relayout()
+        return False
 
 
 class ResultsTable(QWidget):
@@ -283,8 +384,9 @@ class ResultsTable(QWidget):
         hh.setStretchLastSection(True)
         hh.setMinimumSectionSize(48)
         hfm = QFontMetrics(header_font(hh))
-        for key, w in (("bay", 64), ("zone", 48), ("load", 130), ("outcome", 170),
-                       ("util", 80), ("allow", 120), ("planned", 80), ("governing", 200)):
+        for key, w in (("bay", 64), ("zone", 48), ("load", 130), ("verdict", 150),
+                       ("outcome", 130), ("util", 110), ("allow", 180), ("hook", 100),
+                       ("planned", 80), ("governing", 180)):
             header = COLUMNS[COL[key]][1]
             # the header's own (bold) font, its padding and the sort arrow
             self.view.setColumnWidth(COL[key], max(w, hfm.horizontalAdvance(header)
@@ -292,26 +394,35 @@ class ResultsTable(QWidget):
         self.view.sortByColumn(COL["outcome"], Qt.SortOrder.DescendingOrder)
         self.view.selectionModel().selectionChanged.connect(self._on_row_selection_changed)
 
-        self.filter = QComboBox()
-        self.filter.setMinimumContentsLength(18)
-        self.filter.currentIndexChanged.connect(self._on_filter_changed)
         self.summary = QLabel()
         self.summary.setObjectName("resultsSummary")
+        self.summary.setToolTip("The lift shown is chosen above the plan (Lift:); the plan "
+                                "and this table always show the same lift")
         top = QHBoxLayout()
         top.setContentsMargins(4, 2, 4, 2)
-        top.addWidget(QLabel("Show:"))
-        top.addWidget(self.filter)
-        top.addSpacing(12)
         top.addWidget(self.summary, 1)
+        # the whole advice of the selected row, wrapped (a cell shows its start)
+        self.detail = QLabel()
+        self.detail.setObjectName("resultsDetail")
+        self.detail.setWordWrap(True)
+        self.detail.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+        self.detail.setStyleSheet("QLabel#resultsDetail { background: #F6F7F9; "
+                                  "border-top: 1px solid #CFD1CA; padding: 3px 6px; }")
+        self.detail.hide()
         lay = QVBoxLayout(self)
         lay.setContentsMargins(0, 0, 0, 0)
         lay.setSpacing(0)
         lay.addLayout(top)
-        lay.addWidget(self.view)
+        lay.addWidget(self.view, 1)
+        lay.addWidget(self.detail)
+        # Bay and Load first and frozen: they stay in view while the table scrolls
+        hh.moveSection(hh.visualIndex(COL["load"]), 1)
+        self._frozen = _FrozenColumns(self.view, (COL["bay"], COL["load"]))
 
         document.results_changed.connect(self._on_results_changed)
         document.project_changed.connect(self._on_project_changed)
         document.selection_changed.connect(self._on_selection_changed)
+        document.case_changed.connect(self._on_case_changed)
         self._on_results_changed(document.results)
 
     # -------------------------------------------------------------- document events
@@ -334,29 +445,14 @@ class ResultsTable(QWidget):
         self._syncing = False
 
     def _fill_filter(self, results: Results | None) -> None:
-        current = self.filter.currentData()
-        self.filter.blockSignals(True)
-        self.filter.clear()
-        self.filter.addItem("All lifts and loads", None)
-        seen = []
-        for b in results.bays if results is not None else ():
-            if (b.zone_id, b.load_name) not in seen:
-                seen.append((b.zone_id, b.load_name))
-        for z, ld in seen:
-            self.filter.addItem(f"{z} · {ld}", f"{z}\x1f{ld}")
-        i = self.filter.findData(current)
-        self.filter.setCurrentIndex(max(0, i))
-        self.filter.blockSignals(False)
         self._apply_filter()
 
-    def _on_filter_changed(self, _i: int) -> None:
+    def _on_case_changed(self, case: tuple[str, str] | None) -> None:
         self._apply_filter()
         self._update_summary()
 
     def _apply_filter(self) -> None:
-        data = self.filter.currentData()
-        key = tuple(data.split("\x1f")) if data else None
-        self.proxy.set_key(key)  # type: ignore[arg-type]
+        self.proxy.set_key(self._doc.case)
 
     def _update_summary(self) -> None:
         res = self._doc.results
@@ -376,8 +472,16 @@ class ResultsTable(QWidget):
         parts = [f"{style.outcome(k).label}: {counts[k]}"
                  for k in reversed(style.OUTCOME_ORDER) if counts.get(k)]
         stale = "  (updating…)" if not self._doc.results_current else ""
-        self.summary.setText(f"{len(res.bays)} rows, one per bay and load — "
+        permit = self.model.permit
+        verdict = f"<b>{permit.verdict_words}</b> — " if permit is not None else ""
+        case = self._doc.case
+        which = "all lifts and loads" if case is None else f"lift {case[0]} · {case[1]}"
+        self.summary.setText(f"{verdict}Showing {which}: {self.proxy.rowCount()} of "
+                             f"{len(res.bays)} rows, one per bay and load — "
                              + " · ".join(parts) + stale)
+        # the caution stands in the window's status bar beside every verdict; here
+        # on hover
+        self.summary.setToolTip(CAUTION)
 
     # -------------------------------------------------------------- selection sync
 
@@ -415,7 +519,35 @@ class ResultsTable(QWidget):
                   | QItemSelectionModel.SelectionFlag.Rows)
         self.view.scrollTo(pidx)
 
+    def _show_detail(self, b: BaySummary | None) -> None:
+        if b is None:
+            self.detail.clear()
+            self.detail.hide()
+            return
+        system = self._doc.project.settings.unit_system
+        st = style.outcome(b.response)
+        v = self.model.verdict(b)
+        said = ("" if v is None else
+                " ".join(c.sentence(system) for c in v.conditions)
+                or v.cells(system)["verdict"])
+        self.detail.setText(f"<b>{b.bay_id}</b> · {b.zone_id} · {html_escape(b.load_name)} — "
+                            f"{st.label}: {html_escape(said)}")
+        self._place_detail()
+
+    DETAIL_MIN_HEIGHT = 280
+    """px: below this the table keeps its rows and the whole advice is read in the
+    inspector, which lists every load's advice for the selected bay."""
+
+    def _place_detail(self) -> None:
+        self.detail.setVisible(bool(self.detail.text())
+                               and self.height() >= self.DETAIL_MIN_HEIGHT)
+
+    def resizeEvent(self, event: Any) -> None:
+        super().resizeEvent(event)
+        self._place_detail()
+
     def _on_row_selection_changed(self, *_: object) -> None:
+        self._show_detail(self.selected_row())
         if self._syncing:
             return
         b = self.selected_row()

@@ -26,7 +26,7 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui.document import Document
 from droprig.gui.inspector import describe_refusal
 from droprig.model import ModelError, Project, Settings

@@ -209,6 +209,10 @@ class TracePanel(QWidget):
         self.browser.setHtml(trace_html(trace, self._system))
         self._copy.setEnabled(True)
 
+    @property
+    def unit_system(self) -> str:
+        return self._system
+
     def plain_text(self) -> str:
         return trace_text(self._trace, self._system) if self._trace else ""
 

@@ -20,6 +20,13 @@ from droprig.model.errors import (
     check_range,
     check_text,
 )
+from droprig.model.permit_data import (
+    LiftPoint,
+    MassSource,
+    check_mass_source,
+    check_permit_info,
+    check_zone_permit,
+)
 from droprig.model.sections import Concrete, Grade, Section
 
 Point = tuple[float, float]
@@ -92,7 +99,14 @@ class Rect:
 
 @dataclass(frozen=True)
 class ProjectInfo:
-    """Title-block data."""
+    """Title-block data.
+
+    ``lift_reference`` is the lift-plan reference and ``lift_plan_revision``
+    its revision; ``revision`` and ``date`` are those of this assessment.
+    Permit fields (:mod:`droprig.model.permit_data`): ``permit_number``,
+    ``lift_plan_revision``, ``valid_from`` / ``valid_to`` (ISO 8601 date or
+    date and time). Empty text: not recorded.
+    """
 
     name: str = "Untitled lift"
     site: str = ""
@@ -103,8 +117,13 @@ class ProjectInfo:
     checked_by: str = ""
     approved_by: str = ""
     description: str = ""
+    permit_number: str = ""
+    lift_plan_revision: str = ""
+    valid_from: str = ""
+    valid_to: str = ""
 
     def __post_init__(self) -> None:
+        check_permit_info(self)
         check_text("info.name", self.name, required=True)
         for n in ("site", "lift_reference", "revision", "date", "prepared_by", "checked_by",
                   "approved_by"):
@@ -304,10 +323,13 @@ class Level:
 class LiftLoad:
     """A load (or a rigging item) that could drop.
 
-    Give either ``drop_height`` (m from the load's underside to the deck top or
-    mat top) or ``hook_elevation`` (m, same datum as level elevations) with
-    ``hang_length`` from the hook to the load's underside. Footprint is the plan
-    contact size of the load's underside, m.
+    Give either ``drop_height`` (m, the load's underside above the finished surface
+    — top of deck — of the zone's level) or ``hook_elevation`` (m, same datum as
+    level elevations) with ``hang_length`` from the hook to the load's underside;
+    both mean the same height (drop height = hook elevation − hang length − level
+    elevation), droprig's one datum. Over a pad or mat the load falls that height
+    less the pad's thickness. Footprint is the plan contact size of the load's
+    underside, m.
 
     ``contact_stiffness`` (N/m): stiffness of the load's own underside where it
     strikes — skid, base frame, timber dunnage or bearers — acting in series with
@@ -338,9 +360,13 @@ class LiftLoad:
     strike_reason: str = ""
     edge_width: float = 0.02
     hard: bool | None = None
+    mass_source: MassSource | None = None
+    """Where ``mass`` comes from (:data:`~droprig.model.permit_data.MASS_SOURCES`);
+    None: not recorded."""
 
     def __post_init__(self) -> None:
         check_text("load.name", self.name, required=True, max_len=64)
+        check_mass_source(self)
         check_range(f"load {self.name}.mass", self.mass, 1.0, 500_000.0, unit="kg")
         check_range(f"load {self.name}.footprint_length", self.footprint_length, 0.01, 30.0,
                     unit="m")
@@ -383,7 +409,9 @@ class LiftLoad:
         return self.mass * 9.80665
 
     def height_above(self, surface_elevation: float) -> float:
-        """Free-fall height onto a surface at ``surface_elevation`` (m), ≥ 0."""
+        """Height of the load's underside above the level's finished surface at
+        ``surface_elevation`` (m, the level's elevation), ≥ 0: ``drop_height`` as
+        given, or hook elevation − hang length − ``surface_elevation``."""
         if self.drop_height is not None:
             return self.drop_height
         assert self.hook_elevation is not None
@@ -428,9 +456,17 @@ class LiftZone:
     radial_speed: float = 0.0
     swing_angle: float = 0.0
     swing_length: float = 0.0
+    crane_description: str = ""
+    """The crane: type, capacity, owner's or fleet number. Empty: not recorded."""
+    crane_configuration: str = ""
+    """Boom and jib, counterweight, outrigger or track set-up, duty chart used.
+    Empty: not recorded."""
+    lift_points: tuple[LiftPoint, ...] = ()
+    """Pick-up and set-down points in plan (m)."""
 
     def __post_init__(self) -> None:
         check_text("zone.id", self.id, required=True, max_len=32)
+        check_zone_permit(self)
         check_text(f"zone {self.id}.name", self.name)
         check_text(f"zone {self.id}.level_id", self.level_id, required=True)
         _check_point(f"zone {self.id}.crane", self.crane)

@@ -6,6 +6,8 @@ names from ``droprig.solver`` and nothing from its modules
 
 * :func:`analyse` — every drop point of every load of every lift zone of a project;
 * :func:`trace_point` — the calculation trace of one drop point;
+* :func:`planned_height` — a load's drop height on droprig's one datum (load
+  underside above the finished surface of the level);
 * :func:`assess_member` — one member struck by one dropped load (``droprig check``);
 * :func:`member_resistances`, :func:`check_framing`, :func:`on_rigid_support` —
   framing questions without a drop;
@@ -17,6 +19,7 @@ names from ``droprig.solver`` and nothing from its modules
 
 from droprig.solver.analysis import analyse, floor_model
 from droprig.solver.cancel import AnalysisCancelledError, CancelToken, cancellable
+from droprig.solver.chain import planned_height
 from droprig.solver.drift import resolve_drift, zone_drift_margin
 from droprig.solver.framing import (
     Resistances,
@@ -32,6 +35,7 @@ from droprig.solver.results import (
     DECK,
     ELASTIC,
     EXCEEDS,
+    LIMIT_MARGIN,
     PERFORATES,
     PLASTIC,
     RESPONSES,
@@ -52,6 +56,7 @@ __all__ = [
     "DEFAULT_DEFLECTION_LIMIT_RATIO",
     "ELASTIC",
     "EXCEEDS",
+    "LIMIT_MARGIN",
     "PERFORATES",
     "PLASTIC",
     "RESPONSES",
@@ -74,6 +79,7 @@ __all__ = [
     "is_hard",
     "member_resistances",
     "on_rigid_support",
+    "planned_height",
     "resolve_drift",
     "trace_point",
     "zone_drift_margin",

@@ -12,8 +12,9 @@ For each drop point p (vectorised; SI units) and each load (mass M, W = M·g):
    rigid): f = f_s + f_deck + 1/k_load + 1/k (springs in series, 1/k_eff = Σ 1/k_i;
    Gere §9.10 energy method). Under a mat or a crushable layer the framing's mass
    share is not taken (η = 1, conservative).
-2. Free fall h(p) onto the struck surface (deck top, or mat top where a
-   protection area covers p): ``LiftLoad.height_above``.
+2. Drop height on one datum, the load's underside above the finished surface of the
+   level (:func:`planned_height`); the free fall h(p) onto the struck surface is
+   that less the thickness of a pad or mat covering p.
 3. Impact: η = M/(M + m_e), K = 1 + √(1 + 2ηh/(W f)), F = K·W, δmax = K·W·f
    (Gere 7th ed. §9.10 Eq. 9-94 with Timoshenko's mass correction:
    :mod:`droprig.solver.impact`); through a crushable layer
@@ -52,7 +53,7 @@ import numpy as np
 
 from droprig.model import Level, LiftLoad, LiftZone, Project, corridor_problem
 from droprig.solver import cancel, cascade, droppoints, evaluate, memory, refine
-from droprig.solver.chain import FIELDS
+from droprig.solver.chain import FIELDS, planned_height
 from droprig.solver.drift import resolve_drift
 from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_model
 from droprig.solver.geometry import Geometry, point_geometry
@@ -68,27 +69,23 @@ __all__ = [
     "bay_advice",
     "build_floor",
     "floor_model",
+    "planned_height",
     "point_geometry",
 ]
-
-
-def _planned_height(load: LiftLoad, level: Level) -> float:
-    if load.drop_height is not None:
-        return float(load.drop_height)
-    return load.height_above(level.elevation)
 
 
 def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
                  res: dict[str, np.ndarray]) -> CaseResult:
     arrays = {k: np.ascontiguousarray(res[k]) for k in FIELDS}
     for k in ("bay", "protection", "governing_member", "governing_check", "response",
-              "strike_orientation"):
+              "allowable_height_check", "allowable_height_member",
+              "allowable_height_plastic_check", "strike_orientation"):
         arrays[k] = arrays[k].astype(np.int64)
     for k in ("scabbing", "local_extrapolated"):
         arrays[k] = arrays[k].astype(bool)
     return CaseResult(zone_id=zone.id, load_name=load.name, level_id=level.id,
                       mass=load.mass, weight=load.weight,
-                      planned_drop_height=_planned_height(load, level), **arrays)
+                      planned_drop_height=planned_height(load, level), **arrays)
 
 
 
@@ -124,7 +121,8 @@ def analyse_zone(project: Project, zone_id: str,
         case = _case_result(zone, load, level, res)
         cases.append(case)
         summaries.extend(summarise(level, zone, load, case, res["F_allow"],
-                                   below.id if below is not None else None))
+                                   below.id if below is not None else None,
+                                   [p.id for p in project.protection_areas]))
         if below is not None:
             fall = _cascade(project, zone, load, case, below, floor)
             if fall is not None:
@@ -191,10 +189,15 @@ def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
         cancel.check()
         part = idx[s0:s0 + _CONFIRM_BLOCK]
         geo = point_geometry(fm, project, res["x"][part], res["y"][part])
+        # heights are above the finished surface; the factor applies to the fall onto
+        # a pad (t + factor·(h − t), issue 13)
+        t_pad = res["drop_height"][part] - res["fall_height"][part]
         for factor in CONFIRM_FACTORS:
-            trial = [replace(loads[int(j)], drop_height=min(factor * float(hp), 200.0),
+            trial = [replace(loads[int(j)],
+                             drop_height=min(t + factor * (float(hp) - t), 200.0),
                              hook_elevation=None, hang_length=0.0)
-                     for j, hp in zip(res["load_index"][part], h_pl[part], strict=True)]
+                     for j, hp, t in zip(res["load_index"][part], h_pl[part], t_pad,
+                                         strict=True)]
             r = evaluate.evaluate_case(fm, project, trial, geo, np.arange(part.size))
             ok[s0:s0 + part.size] &= r["response"] != EXCEEDS
     bad = idx[~ok]

@@ -5,9 +5,11 @@ function that reads the results of the steps before it from the :class:`Chain` a
 returns a small frozen dataclass of numpy arrays, one value per point:
 
 1. :func:`load_inputs` → :class:`LoadInputs`: weight, footprint, the load's own
-   underside, protection (mat thickness and springs, crushable layer) and free fall
-   onto the struck surface (``LiftLoad.height_above``; mat top where a protection
-   area covers p); footprint spread 1:1 through a mat (common practice, no source).
+   underside, protection (mat thickness and springs, crushable layer), the drop
+   height H on one datum (load underside above the finished surface of the level,
+   :func:`droprig.solver.analysis.planned_height`) and the free fall onto the struck
+   surface h = H − t_mat (mat top where a protection area covers p); footprint spread
+   1:1 through a mat (common practice, no source).
 2. :func:`compliance` → :class:`Compliance`: framing f_s (:mod:`~droprig.solver.loadpath`),
    deck indentation and strip bending f_deck (:mod:`~droprig.solver.contact`), the
    load's underside 1/k_load and a spring mat 1/k, in series (1/k_eff = Σ 1/k_i;
@@ -51,7 +53,7 @@ from typing import TypeVar, cast
 
 import numpy as np
 
-from droprig.model import LiftLoad, Project
+from droprig.model import Level, LiftLoad, ModelError, Project
 from droprig.solver import capacity, contact, deck, limits, plastic
 from droprig.solver import impact as impact_mod
 from droprig.solver import local_damage as local_damage_mod
@@ -83,6 +85,7 @@ __all__ = [
     "LocalDamage",
     "StruckMass",
     "outputs",
+    "planned_height",
     "run_chain",
 ]
 
@@ -97,7 +100,9 @@ FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
           "allowable_mass", "plastic_deflection", "ductility", "support_rotation",
           "required_mat_stiffness", "required_crush_stroke", "penetration", "scabbing",
           "scabbing_height", "perforation_height", "residual_velocity",
-          "local_extrapolated", "strike_orientation")
+          "local_extrapolated", "strike_orientation", "fall_height",
+          "structure_compliance", "allowable_height_check", "allowable_height_member",
+          "allowable_height_plastic_check")
 """The :class:`~droprig.solver.results.CaseResult` arrays, in order."""
 
 _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
@@ -162,8 +167,9 @@ class LoadInputs:
     """Per point: weight ``W`` (N), mass ``M`` (kg), footprint ``fl`` × ``fw`` (m),
     the load's underside compliance ``f_load`` (m/N, 0 = rigid); protection: mat
     thickness ``t_mat`` (m), spring mat compliance ``f_mat`` (m/N), crushable layer
-    ``crushable`` with crush force ``F_c`` (N, ∞ none) and stroke ``s_c`` (m); free
-    fall ``h`` onto the struck surface (m); footprint on the deck ``foot_l`` ×
+    ``crushable`` with crush force ``F_c`` (N, ∞ none) and stroke ``s_c`` (m); drop
+    height ``H`` above the finished surface (m, the datum) and the free fall ``h`` =
+    H − t_mat onto the struck surface (m); footprint on the deck ``foot_l`` ×
     ``foot_w`` (spread 1:1 through a mat, m) and bearing length on a flange ``lb``
     (smaller footprint side + 2 × mat thickness, m)."""
 
@@ -178,6 +184,7 @@ class LoadInputs:
     s_c: np.ndarray
     crushable: np.ndarray
     h: np.ndarray
+    H: np.ndarray
     foot_l: np.ndarray
     foot_w: np.ndarray
     lb: np.ndarray
@@ -214,21 +221,49 @@ def load_inputs(c: Chain) -> LoadInputs:
             crushable[sel] = True
             F_c[sel] = float(pa.crush_force)  # type: ignore[arg-type]
             s_c[sel] = float(pa.crush_stroke)  # type: ignore[arg-type]
-    h = np.empty(n)
+    # one datum: the load's underside above the finished surface of the level (given,
+    # or hook elevation − hang length − level elevation); the fall onto a pad or mat
+    # is that less its thickness
+    H = np.empty(n)
     for j, ld in enumerate(loads):
         sel = li == j if len(loads) > 1 else slice(None)
-        if ld.drop_height is not None:
-            h[sel] = ld.drop_height
-            continue
-        surf = lv.elevation + t_mat[sel]
-        ld.height_above(float(np.max(surf, initial=lv.elevation)))  # refuses h < 0
-        assert ld.hook_elevation is not None
-        h[sel] = ld.hook_elevation - ld.hang_length - surf
+        H[sel] = planned_height(ld, lv)
+    h = H - t_mat
+    if n and float(np.min(h)) < 0.0:
+        _refuse_below_pad(loads, li, lv, t_mat, H)
     spread = 2.0 * t_mat
     lb = np.minimum(fl, fw) + spread
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
-                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, foot_l=fl + spread,
+                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=fl + spread,
                       foot_w=fw + spread, lb=lb)
+
+
+def planned_height(load: LiftLoad, level: Level) -> float:
+    """The load's planned drop height H (m) on droprig's one datum: its underside
+    above the finished surface (top of deck) of ``level``. Given directly
+    (``drop_height``) or as hook elevation − hang length − level elevation
+    (``LiftLoad.height_above`` refuses a load below the surface); both input modes
+    mean the same physical height. The free fall onto a pad or mat of thickness t is
+    H − t."""
+    if load.drop_height is not None:
+        return float(load.drop_height)
+    return load.height_above(level.elevation)
+
+
+def _refuse_below_pad(loads: tuple[LiftLoad, ...], li: np.ndarray, level: Level,
+                      t_mat: np.ndarray, H: np.ndarray) -> None:
+    """A planned height below the top of a pad or mat the load can pass over is not a
+    drop: name the load's field and the height it must reach."""
+    bad = int(np.argmin(H - t_mat))
+    ld = loads[int(li[bad])] if len(loads) > 1 else loads[0]
+    need = float(t_mat[bad])
+    if ld.drop_height is not None:
+        raise ModelError(f"load {ld.name}.drop_height", ld.drop_height,
+                         f"≥ {need:g} m (the load's underside above the top of a pad or "
+                         f"mat on level {level.id})", "m")
+    raise ModelError(f"load {ld.name}.hook_elevation", ld.hook_elevation,
+                     f"≥ {level.elevation + ld.hang_length + need:g} m (the load's "
+                     f"underside above the top of a pad or mat on level {level.id})", "m")
 
 
 # --------------------------------------------------------------------------- 2. compliance
@@ -562,9 +597,14 @@ def beyond_yield(c: Chain) -> BeyondYield:
 @dataclass(frozen=True, eq=False)
 class InverseAnswers:
     """Per point: allowable drop heights ``h_el`` (elastic) and ``h_pl`` (beyond yield
-    within the limits), m; allowable mass ``m_allow`` (kg); required mat stiffness
-    ``k_req`` (N/m) and crush stroke ``s_req`` (m) where the point needs protection
-    (NaN where none exists); ``Ub_Rp``: the largest brittle utilisation at R_p."""
+    within the limits), m, as falls onto the struck surface; allowable mass
+    ``m_allow`` (kg, through a crushable layer where one lies); the stiffest spring
+    mat laid on the finished surface that keeps the point elastic ``k_req`` (N/m, η =
+    1 under a mat, ∞ where the structure alone suffices) and the crush stroke
+    ``s_req`` (m) (NaN where none exists); ``Ub_Rp``: the largest brittle utilisation
+    at R_p; ``h_check`` / ``h_member``: the check (index into CHECKS) and member of
+    the least allowed force, which set ``h_el``; ``hp_check``: ``ductility`` or
+    ``rotation`` where that limit sets ``h_pl``, -1 where ``h_el`` is the larger."""
 
     h_el: np.ndarray
     h_pl: np.ndarray
@@ -572,6 +612,9 @@ class InverseAnswers:
     k_req: np.ndarray
     s_req: np.ndarray
     Ub_Rp: np.ndarray
+    h_check: np.ndarray
+    h_member: np.ndarray
+    hp_check: np.ndarray
 
 
 def with_crush_energy(h_allow: np.ndarray, where: np.ndarray, F_c: np.ndarray,
@@ -615,16 +658,36 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
+    # what sets the plastic height: the ductility or the rotation limit, or the
+    # elastic height where that is larger
+    with np.errstate(invalid="ignore"):
+        hp_check = np.where(s.ductility_limit * R_p * f_s <= d_rot, CHECK["ductility"],
+                            CHECK["rotation"])
+    hp_check = np.where(np.isnan(h_pl) | (h_el >= h_pl), -1, hp_check)
     h_pl = np.fmax(h_pl, h_el)
     m_allow = limits.allowable_mass(Fa_pos, inp.h, f, sm.m_e)
-    # advice for a mat or a layer still to be laid: under it η = 1 (the framing's mass
-    # share is not taken, as in the forward chain), not the bare deck's η (issue 16)
-    k_req = limits.required_mat_stiffness(W, inp.h, 1.0, Fa_pos, comp.f_struct)
-    k_req = np.where(np.isfinite(k_req) & (by.response != ELASTIC), k_req, np.nan)
-    s_req = limits.required_crush_stroke(W, inp.h, 1.0, Fa_pos, comp.f_struct)
-    s_req = np.where((by.response != ELASTIC) & np.isfinite(s_req), s_req, np.nan)
+    if crushable.any():
+        # through the crushable layer that lies there (η = 1 under a layer)
+        m_allow[crushable] = limits.allowable_mass_crushable(
+            Fa_pos[crushable], inp.h[crushable], comp.f_struct[crushable], F_c[crushable],
+            s_c[crushable])
+    # a mat laid on the finished surface over the point: the fall is the datum height
+    # H, and the framing's mass share is not taken (η = 1, as the forward model does
+    # under protection); inf where the structure alone suffices
+    k_req = limits.required_mat_stiffness(W, inp.H, 1.0, Fa_pos, comp.f_struct)
+    k_req = np.where(np.isnan(Fa_pos), np.nan, k_req)
+    s_req = limits.required_crush_stroke(W, inp.H, 1.0, Fa_pos, comp.f_struct)
+    s_req = np.where(np.isfinite(s_req), s_req, np.nan)
+    # the check that sets the allowable height: the least allowed force
+    chk = c[Demands].checks
+    names = list(chk)
+    Fa_stack = np.stack([chk[k].F_allow for k in names])
+    ai = np.argmin(np.where(np.isnan(Fa_stack), np.inf, Fa_stack), axis=0)
+    h_check = np.array([CHECK[k] for k in names])[ai]
+    h_member = np.stack([chk[k].member for k in names])[ai, np.arange(d.n)]
     return InverseAnswers(h_el=h_el, h_pl=h_pl, m_allow=m_allow, k_req=k_req, s_req=s_req,
-                          Ub_Rp=Ub_Rp)
+                          Ub_Rp=Ub_Rp, h_check=h_check, h_member=h_member,
+                          hp_check=hp_check)
 
 
 # --------------------------------------------------------------------------- 9. local damage
@@ -716,19 +779,27 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
     d, inp, sm, imp = c.drop, c[LoadInputs], c[StruckMass], c[Impact]
     ck, by, inv, ld = c[Checks], c[BeyondYield], c[InverseAnswers], c[LocalDamage]
     geo = d.geo
+    comp = c[Compliance]
     out = {
         "x": geo.x, "y": geo.y, "bay": geo.bay, "protection": geo.protection,
-        "drop_height": inp.h, "static_deflection": imp.d_st, "effective_mass": sm.m_e,
+        "drop_height": inp.H, "fall_height": inp.h, "structure_compliance": comp.f_struct,
+        "static_deflection": imp.d_st, "effective_mass": sm.m_e,
         "dynamic_factor": imp.K, "peak_force": imp.F, "max_deflection": imp.d_max,
         "deceleration_g": impact_mod.deceleration_g(imp.F, inp.W), "utilisation": ck.U,
         "governing_member": by.gov_member.astype(np.int64),
         "governing_check": by.gov_check.astype(np.int64), "response": by.response,
-        "allowable_drop_height": inv.h_el, "allowable_drop_height_plastic": inv.h_pl,
+        # allowable heights on the datum: the fall they allow plus the pad's thickness
+        "allowable_drop_height": inv.h_el + inp.t_mat,
+        "allowable_drop_height_plastic": inv.h_pl + inp.t_mat,
+        "allowable_height_check": inv.h_check.astype(np.int64),
+        "allowable_height_member": inv.h_member.astype(np.int64),
+        "allowable_height_plastic_check": inv.hp_check.astype(np.int64),
         "allowable_mass": inv.m_allow, "plastic_deflection": by.plastic_deflection,
         "ductility": by.ductility_out, "support_rotation": by.rotation_out,
         "required_mat_stiffness": inv.k_req, "required_crush_stroke": inv.s_req,
         "penetration": ld.penetration, "scabbing": ld.scabbing,
-        "scabbing_height": ld.h_scab, "perforation_height": ld.h_perf,
+        # on the datum too: the fall at which each starts plus the pad's thickness
+        "scabbing_height": ld.h_scab + inp.t_mat, "perforation_height": ld.h_perf + inp.t_mat,
         "residual_velocity": ld.v_res, "local_extrapolated": ld.extrapolated,
         "strike_orientation": ld.orientation,
     }
@@ -742,5 +813,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         out["response"] = np.where(op, EXCEEDS, out["response"])
         out["governing_check"] = np.where(op, CHECK["opening"], out["governing_check"])
         out["governing_member"] = np.where(op, DECK, out["governing_member"])
+        out["allowable_height_check"] = np.where(op, CHECK["opening"],
+                                                 out["allowable_height_check"])
+        out["allowable_height_member"] = np.where(op, DECK, out["allowable_height_member"])
     out["F_allow"] = ck.F_allow
     return out

@@ -51,7 +51,11 @@ def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarra
         if pa.level_id != fm.level.id:
             continue
         r = pa.area
-        inside = (x >= r.x0) & (x <= r.x1) & (y >= r.y0) & (y <= r.y1)
+        # the same edge tolerance as the zone and the bays: a pad laid to a grid line
+        # or the deck edge covers the points refined onto that line
+        tol = droppoints.EDGE_TOL
+        inside = (x >= r.x0 - tol) & (x <= r.x1 + tol) & (y >= r.y0 - tol) & \
+            (y <= r.y1 + tol)
         prot[inside] = i
     opening = droppoints.in_openings(fm.level, x, y)
     return Geometry(x, y, path, bay, prot, opening)

@@ -18,6 +18,7 @@ from droprig.solver.impact import G, crush_depth
 __all__ = [
     "allowable_drop_height_elastic",
     "allowable_mass",
+    "allowable_mass_crushable",
     "required_crush_stroke",
     "required_mat_stiffness",
 ]
@@ -60,6 +61,29 @@ def allowable_mass(F_allow: ArrayLike, h: ArrayLike, f: ArrayLike,
         p = 2.0 * A + c
         q = A**2 - 2.0 * A * m_e
         M = (q + np.sqrt(q**2 + 4.0 * p * A**2 * m_e)) / (2.0 * p)
+    return np.where((F > 0.0) & np.isfinite(M), M, np.nan)
+
+
+def allowable_mass_crushable(F_allow: ArrayLike, h: ArrayLike, f_s: ArrayLike,
+                             F_c: ArrayLike, s_c: ArrayLike, g: float = G) -> np.ndarray:
+    """Largest mass M (kg) dropped h (m) onto a crushable layer (crush force F_c, N;
+    stroke s_c, m) over a structure of compliance f_s (m/N) with a peak force ≤
+    F_allow (N); η = 1 under the layer.
+
+    Inverts :func:`droprig.solver.impact.impact_crushable` (energy balance, Gere
+    §9.10 with a constant-force layer; Engineering ToolBox "Impact Force"). The peak
+    force grows with M. Where F_c > F_allow the layer never crushes below F_allow and
+    the elastic answer :func:`allowable_mass` (m_e = 0) holds. Where F_c ≤ F_allow
+    the peak reaches F_allow only after the layer bottoms out:
+    F_allow = W + √(W² + 2(Wh − (F_c − W)s_c)/f_s) solved for W gives
+    W = (F_allow²·f_s + 2F_c·s_c) / (2(F_allow·f_s + h + s_c)) (derived), M = W/g.
+    nan where F_allow ≤ 0.
+    """
+    F, h, f, Fc, sc = _b(F_allow, h, f_s, F_c, s_c)
+    elastic = allowable_mass(F, h, f, 0.0, g)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        W = (F**2 * f + 2.0 * Fc * sc) / (2.0 * (F * f + h + sc))
+    M = np.where(Fc <= F, W / g, elastic)
     return np.where((F > 0.0) & np.isfinite(M), M, np.nan)
 
 

@@ -60,6 +60,16 @@ edges (:mod:`droprig.advice`).
   neither perforation nor scabbing starts.
 """
 
+LIMIT_MARGIN = 0.9
+"""A limit offered as a condition (a drop-height limit, the stiffest spring mat) is this
+share of the least value found at the drop points. The limit is exact at the points
+analysed; between them, and where the grid refinement (which closes in on the
+highest utilisation, not on the least allowable height) did not reach, a point may
+need a little less — up to about 1 % of the allowed force on random floors (the
+closed-loop test, tests/test_permit.py). 90 % of a height or a stiffness keeps
+roughly 5 % of force in hand (F grows with √h and √k; Gere §9.10 Eq. 9-94; the
+margin itself is common practice, no source)."""
+
 DECK = -1
 """``governing_member`` value when the deck governs (or no member is involved)."""
 
@@ -68,7 +78,21 @@ DECK = -1
 class CaseResult:
     """All drop points of one load in one lift zone.
 
-    Every array has shape (n,). ``bay`` indexes ``Results.bays_of(level_id)``
+    Every array has shape (n,). Heights are on droprig's one datum: the load's
+    underside above the finished surface (top of deck) of the level —
+    ``drop_height`` (the planned height), ``allowable_drop_height`` and
+    ``allowable_drop_height_plastic``; ``fall_height`` is the free fall onto the
+    struck surface (the datum height less the thickness of a pad or mat there).
+    ``structure_compliance`` (m/N): framing, deck and the load's underside in series,
+    without any mat (what a mat laid there would be in series with).
+    ``allowable_height_check`` / ``allowable_height_member``: the check (index into
+    :data:`CHECKS`) and member that set the elastic allowable height (the least
+    allowed force). ``required_mat_stiffness``: the stiffest spring mat laid over the
+    point that keeps it elastic (η = 1 under a mat; ``inf`` where the structure
+    alone suffices). ``allowable_height_plastic_check``: ``ductility`` or ``rotation``
+    (index into :data:`CHECKS`) where that limit sets the height beyond yield, -1 where
+    the elastic height is the larger. ``allowable_mass`` accounts for a pad or mat at the point.
+    ``bay`` indexes ``Results.bays_of(level_id)``
     order (``droprig.model.bays``), ``-1`` outside any bay; ``governing_member``
     indexes ``level.members`` (``DECK`` for the deck); ``protection`` indexes
     ``project.protection_areas`` (``-1`` for bare deck).
@@ -119,6 +143,12 @@ class CaseResult:
     local_extrapolated: np.ndarray = None  # type: ignore[assignment]
     strike_orientation: np.ndarray = None  # type: ignore[assignment]
 
+    fall_height: np.ndarray | None = None
+    structure_compliance: np.ndarray | None = None
+    allowable_height_check: np.ndarray | None = None
+    allowable_height_member: np.ndarray | None = None
+    allowable_height_plastic_check: np.ndarray | None = None
+
     def __post_init__(self) -> None:
         # local-damage arrays not given: "not assessed" at every point
         n = int(self.x.shape[0])
@@ -146,14 +176,29 @@ class BaySummary:
     ``allowable_drop_height`` keeps them elastic), ``mat_stiffness_max`` (N/m, the
     stiffest spring mat that works) and ``mat_travel`` (m, how far it must be able
     to compress); ``None`` where not offered. ``planned_drop_height`` (m): the
-    load's planned free fall. Text for people: :func:`droprig.advice.advice_text`.
+    load's planned drop height. Words for people: :mod:`droprig.permit` (the conditions
+    and cells every surface prints).
+
+    Every height is on droprig's one datum: the load's underside above the finished
+    surface of the level (a fall onto a pad is that less the pad's thickness).
+
+    Each quantity carries its own governing point and check: ``max_utilisation`` at
+    (``utilisation_x``, ``utilisation_y``) by ``utilisation_check`` of
+    ``utilisation_member``; ``allowable_drop_height`` (the least elastic one) at
+    (``height_x``, ``height_y``), set by ``height_check`` of ``height_member``;
+    ``height_limit`` at (``height_limit_x``, ``height_limit_y``) set by
+    ``height_limit_check``; ``allowable_mass`` (kg, the least over the bay at the
+    planned height, through any pad there) at (``allowable_mass_x``,
+    ``allowable_mass_y``). ``governing_*`` is the worst point (response, then U).
+    ``protections``: ids of the pads and mats the bay's drop points lie on.
 
     Local damage (hard loads): ``scabbing`` (some point of the bay may scab the
-    soffit), ``scabbing_height`` / ``perforation_height`` (least free fall at which
-    each starts in the bay, m; ``None`` where not assessed), ``local_extrapolated``
-    (the answer lies outside the formulas' test speeds), ``strike_orientation`` (the
-    governing one at the worst point) and ``level_below`` (id of the level under this
-    one in the project, ``None`` when the project does not hold it).
+    soffit), ``scabbing_height`` / ``perforation_height`` (least drop height, on the
+    same datum, at which each starts in the bay, m; ``None`` where not assessed),
+    ``local_extrapolated`` (the answer lies outside the formulas' test speeds),
+    ``strike_orientation`` (the governing one at the worst point) and ``level_below``
+    (id of the level under this one in the project, ``None`` when the project does not
+    hold it).
     """
 
     level_id: str
@@ -175,6 +220,21 @@ class BaySummary:
     mat_stiffness_max: float | None = None
     mat_travel: float | None = None
     planned_drop_height: float | None = None
+    utilisation_x: float | None = None
+    utilisation_y: float | None = None
+    utilisation_member: str = ""
+    utilisation_check: str = ""
+    height_x: float | None = None
+    height_y: float | None = None
+    height_member: str = ""
+    height_check: str = ""
+    height_limit_x: float | None = None
+    height_limit_y: float | None = None
+    height_limit_check: str = ""
+    protections: tuple[str, ...] = ()
+    allowable_mass: float | None = None
+    allowable_mass_x: float | None = None
+    allowable_mass_y: float | None = None
     scabbing: bool = False
     scabbing_height: float | None = None
     perforation_height: float | None = None

@@ -7,12 +7,13 @@ SI units (m, N/m)."""
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
 
 from droprig.model import STRIKE_ORIENTATIONS, Level, LiftLoad, LiftZone, bays
-from droprig.solver import droppoints
+from droprig.solver import droppoints, impact
 from droprig.solver.floor import remember
 from droprig.solver.refine import severity
 from droprig.solver.results import (
@@ -20,6 +21,7 @@ from droprig.solver.results import (
     DECK,
     ELASTIC,
     EXCEEDS,
+    LIMIT_MARGIN,
     PERFORATES,
     PLASTIC,
     RESPONSES,
@@ -54,10 +56,11 @@ class Advice:
 def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
                mat_travel: float | None = None, h_elastic: float | None = None,
                h_local: float | None = None) -> Advice:
-    """What one bay needs: no protection, a drop-height limit ``h_allow`` (offered
-    from :data:`MIN_USEFUL_HEIGHT` up, and only when the bay exceeds its limits), a
-    spring mat no stiffer than ``k_mat`` (offered while it need not compress more
-    than :data:`MAX_MAT_TRAVEL`), acceptance of yielding with the engineer's
+    """What one bay needs: no protection, a drop-height limit of :data:`LIMIT_MARGIN`
+    × ``h_allow`` (offered from :data:`MIN_USEFUL_HEIGHT` up, and only when the bay
+    exceeds its limits), a spring mat no stiffer than :data:`LIMIT_MARGIN` × ``k_mat``
+    (offered while it need not compress more than :data:`MAX_MAT_TRAVEL`; ``mat_travel``
+    is its compression), acceptance of yielding with the engineer's
     approval, or an exclusion zone (deck opening, or no option found).
     ``height_limit_yields``: the height limit lets members yield (it exceeds the
     elastic height ``h_elastic`` by more than 1 %). A hard load that perforates the
@@ -67,20 +70,22 @@ def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | 
     if n_opening:
         return Advice("opening")
     if resp == PERFORATES:
-        hl = float(h_local) if h_local is not None and h_local >= MIN_USEFUL_HEIGHT else None
+        hl = LIMIT_MARGIN * float(h_local) if h_local is not None and \
+            LIMIT_MARGIN * h_local >= MIN_USEFUL_HEIGHT else None
         return Advice("level_below", height_limit=hl)
     if resp == ELASTIC:
         return Advice("none")
     h: float | None = None
     yields = False
-    if h_allow is not None and h_allow >= MIN_USEFUL_HEIGHT and resp == EXCEEDS:
-        h = float(h_allow)
-        yields = h_elastic is not None and h_allow > 1.01 * h_elastic
+    if h_allow is not None and LIMIT_MARGIN * h_allow >= MIN_USEFUL_HEIGHT and \
+            resp == EXCEEDS:
+        h = LIMIT_MARGIN * float(h_allow)
+        yields = h_elastic is None or h > 1.01 * h_elastic
     k: float | None = None
     travel: float | None = None
     if (k_mat is not None and math.isfinite(k_mat) and k_mat > 0
             and (mat_travel is None or mat_travel <= MAX_MAT_TRAVEL)):
-        k = float(k_mat)
+        k = LIMIT_MARGIN * float(k_mat)
         travel = float(mat_travel) if mat_travel is not None and math.isfinite(mat_travel) \
             else None
     if resp == PLASTIC:
@@ -98,13 +103,16 @@ def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | 
 
 
 def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
-              allowed_force: np.ndarray, level_below: str | None = None
-              ) -> list[BaySummary]:
+              allowed_force: np.ndarray, level_below: str | None = None,
+              protection_ids: Sequence[str] = ()) -> list[BaySummary]:
     """One :class:`BaySummary` per bay that holds drop points of ``case``
     (``allowed_force``: the elastic F_allow of each point, N; ``level_below``: id of
-    the level under this one, if the project holds it). A point on a shared grid
-    line or at a column counts for every bay it touches (closed bays). All bays are
-    reduced at once over a (bay, point) membership matrix."""
+    the level under this one, if the project holds it; ``protection_ids``: the ids of
+    ``project.protection_areas``). A point on a shared grid line or at a column counts
+    for every bay it touches (closed bays). All bays are reduced at once over a (bay,
+    point) membership matrix. Each quantity is reported with the point and the check
+    that set it (the least allowable height need not come from the point of largest
+    utilisation)."""
     out: list[BaySummary] = []
     all_bays = _bays(level)
     members = level.members
@@ -124,55 +132,102 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
     gov = np.argmax(np.where(M, sev, -np.inf), axis=1)  # first worst point per bay
     worst = np.where(M, resp, -1).max(axis=1)
     U = case.utilisation
-    U_max = np.where(M, np.where(np.isnan(U), -np.inf, U), -np.inf).max(axis=1)
+    U_m = np.where(M, np.where(np.isnan(U), -np.inf, U), -np.inf)
+    U_max = U_m.max(axis=1)
+    u_at = U_m.argmax(axis=1)
 
-    def least(v: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-        """Smallest value per bay and whether any point of the bay has none (nan)."""
-        return np.where(M, v, np.inf).min(axis=1), (M & np.isnan(v)).any(axis=1)
+    def least(v: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """Smallest value per bay, the point that has it, and whether any point of the
+        bay has none (nan)."""
+        vm = np.where(M, np.where(np.isnan(v), np.inf, v), np.inf)
+        return vm.min(axis=1), vm.argmin(axis=1), (M & np.isnan(v)).any(axis=1)
 
-    h_el, h_el_none = least(case.allowable_drop_height)
-    h_pl, h_pl_none = least(case.allowable_drop_height_plastic)
-    Mn = M & (resp != ELASTIC)  # points that need protection
+    h_el, h_el_at, h_el_none = least(case.allowable_drop_height)
+    h_pl, h_pl_at, h_pl_none = least(case.allowable_drop_height_plastic)
+    m_al, m_al_at, m_al_none = least(case.allowable_mass)
+    # the stiffest mat laid over the whole bay that keeps every point of it elastic
+    # (η = 1 under a mat, so points that stay elastic on bare deck count as well)
+    # (offered where no pad lies: a mat does not replace a pad's design)
     kv = case.required_mat_stiffness
-    has_need = Mn.any(axis=1)
-    k_ok = has_need & ~(Mn & np.isnan(kv)).any(axis=1)
-    k_min = np.where(Mn, kv, np.inf).min(axis=1)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        # the mat carries the allowed force at its softest: travel = F_allow / k
-        travel_all = np.where(Mn, allowed_force[None, :] / k_min[:, None], -np.inf).max(axis=1)
+    k_ok = ~(M & (np.isnan(kv) | (case.protection >= 0))).any(axis=1)
+    k_min = np.where(M, kv, np.inf).min(axis=1)
+    travel_all = np.full(k_min.shape, -np.inf)
+    fs_pts = case.structure_compliance
+    for b in np.flatnonzero(k_ok & np.isfinite(k_min) & (k_min > 0)):
+        # how far the mat compresses: F/k at each point with the mat in series
+        # (Gere §9.10, η = 1 under a mat), the largest over the bay
+        sel = M[b]
+        k_adv = LIMIT_MARGIN * k_min[b]  # the mat offered (bay_advice)
+        f_pts = (fs_pts[sel] if fs_pts is not None else 0.0) + 1.0 / k_adv
+        _, F_pts, _ = impact.impact_elastic(case.weight, case.drop_height[sel], f_pts, 1.0)
+        travel_all[b] = float(np.max(F_pts)) / k_adv
     n_open = (M & (case.governing_check == CHECKS.index("opening"))).sum(axis=1)
+    h_chk = case.allowable_height_check
+    h_mem = case.allowable_height_member
+    hp_chk = case.allowable_height_plastic_check
+    prot = case.protection
+
+    def mname(gm: int) -> str:
+        return "deck" if gm == DECK else members[gm].id
+
     scab = (M & case.scabbing).any(axis=1)
     extrap = (M & case.local_extrapolated).any(axis=1)
-    h_scab, _ = least(np.where(np.isnan(case.scabbing_height), np.inf, case.scabbing_height))
-    h_perf, _ = least(np.where(np.isnan(case.perforation_height), np.inf,
-                               case.perforation_height))
+    h_scab = np.where(M, np.where(np.isnan(case.scabbing_height), np.inf,
+                                  case.scabbing_height), np.inf).min(axis=1)
+    h_perf = np.where(M, np.where(np.isnan(case.perforation_height), np.inf,
+                                  case.perforation_height), np.inf).min(axis=1)
     for b in np.flatnonzero(count):
         i = int(gov[b])
         wst = int(worst[b])
         u_b = float(U_max[b])
         u_b = u_b if u_b > -np.inf else float("inf")
+        iu = int(u_at[b])
         he = None if h_el_none[b] else float(h_el[b])
         hp = None if h_pl_none[b] else float(h_pl[b])
-        k_mat = float(k_min[b]) if k_ok[b] else None
-        travel = float(travel_all[b]) if k_ok[b] else None
+        ih, ihp = int(h_el_at[b]), int(h_pl_at[b])
+        k_mat = float(k_min[b]) if k_ok[b] and wst != ELASTIC else None
+        travel = float(travel_all[b]) if k_mat is not None and \
+            math.isfinite(float(travel_all[b])) and travel_all[b] > 0 else None
         gm = int(case.governing_member[i])
         hs = float(h_scab[b]) if np.isfinite(h_scab[b]) else None
         hpf = float(h_perf[b]) if np.isfinite(h_perf[b]) else None
         adv = bay_advice(wst, int(n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he,
                          min((v for v in (hs, hpf) if v is not None), default=None))
         so = int(case.strike_orientation[i])
+        lim_at = ihp if wst == EXCEEDS else ih
+        if adv.height_limit is None:
+            lim_chk = ""
+        elif wst == EXCEEDS and hp_chk is not None and int(hp_chk[ihp]) >= 0:
+            lim_chk = CHECKS[int(hp_chk[ihp])]
+        else:
+            lim_chk = CHECKS[int(h_chk[lim_at])] if h_chk is not None else ""
+        pads = sorted({int(p) for p in prot[M[b]] if p >= 0})
         out.append(BaySummary(
             level_id=level.id, bay_id=all_bays[b].id, zone_id=zone.id,
             load_name=load.name, n_points=int(count[b]), max_utilisation=u_b,
             response=RESPONSES[wst], allowable_drop_height=he,
             allowable_drop_height_plastic=hp, governing_x=float(case.x[i]),
             governing_y=float(case.y[i]),
-            governing_member="deck" if gm == DECK else members[gm].id,
+            governing_member=mname(gm),
             governing_check=CHECKS[int(case.governing_check[i])], advice_kind=adv.kind,
             height_limit=adv.height_limit, height_limit_yields=adv.height_limit_yields,
             mat_stiffness_max=adv.mat_stiffness_max, mat_travel=adv.mat_travel,
-            planned_drop_height=case.planned_drop_height, scabbing=bool(scab[b]),
-            scabbing_height=hs, perforation_height=hpf,
+            planned_drop_height=case.planned_drop_height,
+            utilisation_x=float(case.x[iu]), utilisation_y=float(case.y[iu]),
+            utilisation_member=mname(int(case.governing_member[iu])),
+            utilisation_check=CHECKS[int(case.governing_check[iu])],
+            height_x=None if he is None else float(case.x[ih]),
+            height_y=None if he is None else float(case.y[ih]),
+            height_member="" if he is None or h_mem is None else mname(int(h_mem[ih])),
+            height_check="" if he is None or h_chk is None else CHECKS[int(h_chk[ih])],
+            height_limit_x=None if not lim_chk else float(case.x[lim_at]),
+            height_limit_y=None if not lim_chk else float(case.y[lim_at]),
+            height_limit_check=lim_chk,
+            protections=tuple(protection_ids[p] for p in pads if p < len(protection_ids)),
+            allowable_mass=None if m_al_none[b] else float(m_al[b]),
+            allowable_mass_x=None if m_al_none[b] else float(case.x[int(m_al_at[b])]),
+            allowable_mass_y=None if m_al_none[b] else float(case.y[int(m_al_at[b])]),
+            scabbing=bool(scab[b]), scabbing_height=hs, perforation_height=hpf,
             local_extrapolated=bool(extrap[b]),
             strike_orientation=STRIKE_ORIENTATIONS[so] if so >= 0 else None,
             level_below=level_below))

@@ -200,10 +200,10 @@ def _impact_steps(sheet: _Sheet) -> None:
     add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",
         {"M": (M, "mass"), "m_e": (sm.m_e[0], "mass")}, sm.eta[0],
         "dimensionless", _SRC_ETA)
-    add("Free fall onto the struck surface", "h",
-        "h = drop height above the deck or mat top",
-        {"t_mat": (inp.t_mat[0], "length")}, inp.h[0], "length",
-        "load data (LiftLoad.height_above)")
+    add("Free fall onto the struck surface (drop height above the finished surface less "
+        "the pad or mat thickness)", "h", "h = H − t_mat",
+        {"H": (inp.H[0], "length"), "t_mat": (inp.t_mat[0], "length")}, inp.h[0],
+        "length", "load data (droprig.solver.chain.planned_height)")
     W = load.weight
     add("Static deflection", "δ_st", "δ_st = W·f",
         {"W": (W, "force"), "f": (comp.f[0], "compliance")}, imp.d_st[0],
@@ -257,11 +257,15 @@ def _check_steps(sheet: _Sheet) -> None:
         "dimensionless", "largest demand/resistance ratio (common practice, no source)")
     add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
         {}, ck.F_allow[0], "force", "linear checks")
-    add("Allowable drop height (elastic)", "h_allow",
+    add("Allowable free fall (elastic)", "h_allow",
         "h = δ_st((K_a − 1)² − 1)/(2η), K_a = F_allow/W",
         {"F_allow": (ck.F_allow[0], "force"), "W": (W, "force"),
          "δ_st": (imp.d_st[0], "length"), "η": (sm.eta[0], "dimensionless")},
         inv.h_el[0], "length", _SRC_GERE + " solved for h")
+    add("Allowable drop height above the finished surface (elastic)", "H_allow",
+        "H_allow = h_allow + t_mat",
+        {"h_allow": (inv.h_el[0], "length"), "t_mat": (sheet.inp.t_mat[0], "length")},
+        inv.h_el[0] + sheet.inp.t_mat[0], "length", "datum of droprig (finished surface)")
     add("Plastic collapse resistance of the path", "R_p",
         "R_p = min over path members of the collapse load for a load at p",
         {}, by.R_p[0], "force", "virtual work (Neal); droprig.solver.beam")

@@ -20,7 +20,7 @@ from PySide6.QtCore import QEvent, QPoint, QPointF, Qt
 from PySide6.QtGui import QMouseEvent
 from PySide6.QtWidgets import QApplication, QLineEdit, QMessageBox
 
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui.document import Document, Selection
 from droprig.gui.inspector import Inspector, corridor_text, parse_corridor
 from droprig.gui.main_window import MainWindow

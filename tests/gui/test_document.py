@@ -16,7 +16,7 @@ from pathlib import Path
 
 import pytest
 
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui.analysis_runner import AnalysisRunner
 from droprig.gui.document import (
     Autosaver,

@@ -42,7 +42,7 @@ def window(open_window) -> MainWindow:
 
 
 def _framed_zone(window: MainWindow) -> None:
-    from droprig.gui import commands as ed
+    from droprig.gui import edits as ed
 
     window.doc.edit(ed.add_level(window.doc.project, _level()), "Generate framing")
     window.actions["add_zone"].trigger()
@@ -85,11 +85,12 @@ def test_short_allowable_drop_in_mm_or_in(height: float | None, system: str,
     assert style.fmt_drop(height, system) == expected  # type: ignore[arg-type]
 
 
-def test_allowable_drop_header_names_both_values() -> None:
-    """The column gives the elastic limit and, in brackets, the yielding one: the
-    header says both. Common practice, no source."""
+def test_allowable_drop_header_names_its_check() -> None:
+    """The column gives the elastic allowable height and, in brackets, the check that
+    sets it (each quantity with its own check); the height a yielding bay may be
+    dropped from is a permit condition. Common practice, no source."""
     header = dict(COLUMNS)["allow"]
-    assert "elastic" in header and "(yielding)" in header
+    assert "elastic" in header and "(check)" in header
     assert COL["allow"] == [k for k, _ in COLUMNS].index("allow")
 
 
@@ -208,7 +209,7 @@ def test_guide_asks_for_the_real_load_until_it_is_entered(qtbot, window: MainWin
     not pass for one on the planned lift."""
     from dataclasses import replace
 
-    from droprig.gui import commands as ed
+    from droprig.gui import edits as ed
 
     _framed_zone(window)
     zone = window.doc.project.lift_zones[0]
@@ -263,7 +264,7 @@ def test_empty_underside_stiffness_names_its_unit(qtbot, window: MainWindow, sys
     source."""
     from dataclasses import replace
 
-    from droprig.gui import commands as ed
+    from droprig.gui import edits as ed
 
     _framed_zone(window)
     p = window.doc.project

@@ -14,7 +14,7 @@ from dataclasses import replace
 import pytest
 from PySide6.QtWidgets import QComboBox, QLabel, QLineEdit
 
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui.document import Document, Selection
 from droprig.gui.inspector import FormDialog, Inspector, describe_refusal, protection_form
 from droprig.io.sections import get_grade, get_section

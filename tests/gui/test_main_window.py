@@ -16,7 +16,7 @@ from pathlib import Path
 import pytest
 from PySide6.QtWidgets import QMessageBox
 
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui import style
 from droprig.gui.document import Document, Selection, find_recoverable
 from droprig.gui.main_window import MainWindow

@@ -19,7 +19,7 @@ from PySide6.QtCore import QPointF, Qt
 from PySide6.QtGui import QContextMenuEvent
 from PySide6.QtWidgets import QApplication, QMessageBox
 
-from droprig.gui import commands as ed
+from droprig.gui import edits as ed
 from droprig.gui.document import Selection
 from droprig.gui.main_window import MainWindow
 from droprig.io.sections import get_grade, get_section

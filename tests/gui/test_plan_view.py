@@ -544,7 +544,7 @@ def test_plan_follows_the_solver(view: PlanView, qtbot, warehouse_floor: Project
 
     zone = warehouse_floor.zone("Z1")
     zone = dataclasses.replace(zone, loads=(*zone.loads,
-                                            LiftLoad("Hand tools", 20.0, drop_height=0.05)))
+                                            LiftLoad("Hand tools", 20.0, drop_height=0.25)))
     project = dataclasses.replace(warehouse_floor, lift_zones=(zone,))
     results = analyse(project)
     assert results.cases and results.bays

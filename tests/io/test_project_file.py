@@ -253,7 +253,7 @@ def test_whole_degrees_are_written_as_typed(deg: float) -> None:
 
 def test_file_is_json_with_units_in_the_keys_and_library_names(office_roof: Project) -> None:
     doc = json.loads(dumps_project(office_roof))
-    assert doc["format_version"] == FORMAT_VERSION == 1
+    assert doc["format_version"] == FORMAT_VERSION == 2
     assert doc["application"] == "droprig"
     member = doc["levels"][0]["members"][0]
     assert member["section"] == "HEB 400" and member["grade"] == "S355"
@@ -555,7 +555,7 @@ def test_newer_format_is_refused_by_name(office_roof_doc: dict[str, Any]) -> Non
     office_roof_doc["format_version"] = 3
     assert _problems(office_roof_doc) == [
         "$.format_version: written by a newer droprig (format 3); this droprig reads up to "
-        "format 1. Open it with a newer droprig."]
+        "format 2. Open it with a newer droprig."]
 
 
 def _format0_doc(doc1: dict[str, Any]) -> dict[str, Any]:
@@ -579,7 +579,7 @@ def test_format0_file_is_migrated(office_roof: Project, office_roof_doc: dict[st
 def test_migration_does_not_touch_its_input(office_roof_doc: dict[str, Any]) -> None:
     doc0 = _format0_doc(office_roof_doc)
     before = json.dumps(doc0)
-    assert pf._migrate(doc0, 0)["format_version"] == 1
+    assert pf._migrate(doc0, 0)["format_version"] == FORMAT_VERSION
     assert json.dumps(doc0) == before
 
 
@@ -716,3 +716,36 @@ def test_fingerprint_is_sha256_of_the_bytes(office_roof: Project, tmp_path: Path
     abc.write_bytes(b"abc")
     assert project_fingerprint(abc) == (
         "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad")  # FIPS 180-2 App. B.1
+
+
+# ------------------------------------------------------------ format 1 -> 2: one datum
+def _format1_doc(doc2: dict[str, Any], with_pad: bool) -> dict[str, Any]:
+    doc1 = json.loads(json.dumps(doc2))
+    doc1["format_version"] = 1
+    level = doc1["lift_zones"][0]["level_id"]
+    doc1["protection_areas"] = [
+        {"id": "P9", "name": "pad", "level_id": level,
+         "area": {"x0_m": 1.0, "y0_m": 1.0, "x1_m": 3.0, "y1_m": 3.0}, "kind": "crushable",
+         "thickness_m": 0.25, "crush_force_N": 5e4, "crush_stroke_m": 0.1}] if with_pad else []
+    return doc1
+
+
+@pytest.mark.parametrize("with_pad", [True, False])
+def test_format1_drop_heights_keep_their_numbers_with_a_note(
+        office_roof_doc: dict[str, Any], with_pad: bool) -> None:
+    """Format 1 measured a drop height to the deck or to a pad's top; format 2 to the
+    finished surface (droprig's one datum). The numbers are kept; a load given by
+    drop height on a level with a pad gets a note naming the load, the pad and its
+    thickness (common practice for a format change that alters meaning, no source)."""
+    doc1 = _format1_doc(office_roof_doc, with_pad)
+    notes: list[str] = []
+    project = loads_project(json.dumps(doc1), notes=notes)
+    ld = doc1["lift_zones"][0]["loads"][0]
+    assert project.lift_zones[0].loads[0].drop_height == ld["drop_height_m"]
+    if with_pad:
+        assert len(notes) == sum("drop_height_m" in x for x in doc1["lift_zones"][0]["loads"])
+        assert ld["name"] in notes[0] and "P9 (0.25 m)" in notes[0]
+        assert "finished surface" in notes[0]
+    else:
+        assert notes == []
+    assert json.loads(dumps_project(project))["format_version"] == 2

@@ -1,0 +1,132 @@
+"""Layout on small screens and at 150–200 % scaling: at 1280 × 720 logical
+pixels (a 1280 × 720 screen at 100 %, 1920 × 1080 at 150 %, 2560 × 1440 at
+200 %) the plan keeps most of the window, no panel title is cut, the results
+show several rows, the legend covers none of the plan's content; the window
+geometry is kept per screen scale.
+
+Each scale runs in a fresh process (Qt reads QT_SCALE_FACTOR once, at start).
+Behaviour of the window only; the demo project is an invented scenario.
+"""
+
+from __future__ import annotations
+
+import json
+import os
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+from PySide6.QtCore import QSettings
+
+from droprig.gui import main_window as mw
+
+pytestmark = [pytest.mark.gui, pytest.mark.slow]
+
+ROOT = Path(__file__).resolve().parents[2]
+DEMO = ROOT / "demo_projects" / "rooftop_plant_swap.droprig"
+
+PROBE = r"""
+import json, sys, tempfile
+from pathlib import Path
+from PySide6.QtCore import QSettings
+from PySide6.QtGui import QFontMetrics
+from droprig.gui.app import create_app
+from droprig.gui.document import Document
+from droprig.gui.main_window import MainWindow
+from droprig.io.project_file import load_project
+
+app = create_app()
+tmp = tempfile.mkdtemp()
+scratch = QSettings(str(Path(tmp) / "s.ini"), QSettings.Format.IniFormat)
+src = sys.argv[1]
+w, h = int(sys.argv[2]), int(sys.argv[3])
+win = MainWindow(Document(load_project(src), Path(src)), settings=scratch,
+                 settings_dir=Path(tmp), threaded=False, autosave=False)
+win.resize(w, h)
+win.show()
+app.processEvents()
+win.prepare_screenshot()
+for _ in range(3):
+    app.processEvents()
+win.plan.fit()
+app.processEvents()
+vp = win.plan.viewport()
+titles = {}
+for d in (win.tree_dock, win.inspector_dock, win.results_dock, win.trace_dock):
+    f = d.font(); f.setBold(True)
+    need = QFontMetrics(f).horizontalAdvance(d.windowTitle()) + 2 * d.fontMetrics().height()
+    titles[d.windowTitle()] = [d.width(), need, d.isVisible()]
+t = win.results_table
+view = t.findChild(__import__("PySide6.QtWidgets", fromlist=["QTableView"]).QTableView)
+rows = view.viewport().height() / max(view.verticalHeader().defaultSectionSize(), 1)
+title = win.inspector._title
+legend = win.plan.legend_rect()
+covers = [o for o in win.plan.content_obstacles() if legend.intersects(o)]
+print(json.dumps({
+    "window": [win.width(), win.height()], "plan": [vp.width(), vp.height()],
+    "dpr": win.devicePixelRatioF(), "titles": titles, "rows": rows,
+    "inspector_title": [title.width(), title.sizeHint().width(), title.text()],
+    "legend_collapsed": win.plan.legend_collapsed, "legend_covers": len(covers),
+}))
+win._closing = True
+win.close()
+"""
+
+
+def _probe(scale: str, size: tuple[int, int]) -> dict:
+    env = dict(os.environ, QT_QPA_PLATFORM="offscreen", QT_SCALE_FACTOR=scale)
+    r = subprocess.run([sys.executable, "-c", PROBE, str(DEMO), str(size[0]), str(size[1])],
+                       capture_output=True, text=True, env=env, timeout=300)
+    assert r.returncode == 0, r.stderr
+    return json.loads(r.stdout.strip().splitlines()[-1])
+
+
+@pytest.mark.parametrize("scale", ["1", "1.5", "2"])
+def test_1280x720_logical_at_each_scale(scale: str) -> None:
+    m = _probe(scale, (1280, 720))
+    assert m["dpr"] == pytest.approx(float(scale))
+    W, H = m["window"]
+    pw, ph = m["plan"]
+    # the plan keeps over half of the window each way (it was ~240 px tall)
+    assert ph >= 0.5 * H and pw >= 0.55 * W, m
+    for name, (width, need, visible) in m["titles"].items():
+        assert visible and width >= need, f"{name!r} cut: {width} px < {need} px"
+    assert m["rows"] >= 4, m  # several result rows, not two
+    iw, ineed, text = m["inspector_title"]
+    assert iw >= ineed, f"inspector title {text!r} cut"
+    assert m["legend_covers"] == 0 or m["legend_collapsed"], m
+
+
+def test_small_logical_screen_keeps_panel_titles() -> None:
+    """A 1280 × 720 screen at 150 % is 853 × 480 logical: cramped, but no title cut
+    and the plan still the largest panel."""
+    m = _probe("1.5", (853, 480))
+    for name, (width, need, visible) in m["titles"].items():
+        assert not visible or width >= need, f"{name!r} cut: {width} px < {need} px"
+    pw, ph = m["plan"]
+    assert pw * ph >= 0.2 * m["window"][0] * m["window"][1], m
+
+
+def test_geometry_is_kept_per_screen_scale(qtbot, tmp_path: Path, monkeypatch) -> None:
+    settings = QSettings(str(tmp_path / "s.ini"), QSettings.Format.IniFormat)
+
+    def window() -> mw.MainWindow:
+        w = mw.MainWindow(settings=settings, settings_dir=tmp_path, autosave=False)
+        qtbot.addWidget(w, before_close_func=lambda x: setattr(x, "_closing", True))
+        return w
+
+    monkeypatch.setattr(mw, "screen_scale_tag", lambda screen: "scale150")
+    a = window()
+    a.resize(700, 500)
+    a.save_window_state()
+    a._closing = True
+    a.close()
+    b = window()  # same scale: the saved size comes back
+    assert (b.width(), b.height()) == (700, 500)
+    b._closing = True
+    b.close()
+    monkeypatch.setattr(mw, "screen_scale_tag", lambda screen: "scale100")
+    c = window()  # another scale: not the size saved at 150 %
+    assert (c.width(), c.height()) != (700, 500)
+    assert settings.value("window/scale150/geometry") is not None
