@@ -127,9 +127,16 @@ def test_rename_and_tab_under_a_real_x_server(xserver: dict[str, str],
             return [ld["name"] for z in json.loads(project.read_text())["lift_zones"]
                     for ld in z["loads"]]
 
-        end = time.monotonic() + 15
-        while "Unit 12" not in names() and time.monotonic() < end:
-            time.sleep(0.3)
+        # under a loaded machine the last edit can reach the document after the first
+        # save's keystroke: save again (up to three times) before judging the file
+        for _attempt in range(3):
+            end = time.monotonic() + 8
+            while "Unit 12" not in names() and time.monotonic() < end:
+                time.sleep(0.3)
+            if "Unit 12" in names():
+                break
+            click(900, 420)
+            key("ctrl+s")
         zones = [z["name"] for z in json.loads(project.read_text())["lift_zones"]]
         assert "Unit 12" in names(), (names(), zones)
         key("F1")
