@@ -79,8 +79,7 @@ def analysis_problems(project: Project) -> list[str]:
     ``"<JSON path>: <message>"`` (empty: the analysis accepts the project).
     Builds the prepared floors the analysis then reuses (same cache), so running
     it first costs nothing extra."""
-    from droprig.solver import floor_model
-    from droprig.solver.cascade import level_below
+    from droprig.solver import floor_model, level_below
 
     out: list[str] = []
     seen: set[str] = set()

@@ -21,6 +21,7 @@ names from ``droprig.solver`` and nothing from its modules
 
 from droprig.solver.analysis import analyse, floor_model
 from droprig.solver.cancel import AnalysisCancelledError, CancelToken, cancellable
+from droprig.solver.cascade import level_below
 from droprig.solver.chain import planned_height
 from droprig.solver.drift import resolve_drift, zone_drift_margin
 from droprig.solver.framing import (
@@ -90,6 +91,7 @@ __all__ = [
     "check_framing",
     "floor_model",
     "is_hard",
+    "level_below",
     "member_resistances",
     "on_rigid_support",
     "planned_height",
