@@ -193,9 +193,12 @@ def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
         # a pad (t + factor·(h − t), issue 13)
         t_pad = res["drop_height"][part] - res["fall_height"][part]
         for factor in CONFIRM_FACTORS:
+            # the structural response alone (hard=False: no local-damage step), so a
+            # trial that exceeds is never reported as 'perforates' and let through;
+            # the deck's local damage has its own allowable heights
             trial = [replace(loads[int(j)],
                              drop_height=min(t + factor * (float(hp) - t), 200.0),
-                             hook_elevation=None, hang_length=0.0)
+                             hook_elevation=None, hang_length=0.0, hard=False)
                      for j, hp, t in zip(res["load_index"][part], h_pl[part], t_pad,
                                          strict=True)]
             r = evaluate.evaluate_case(fm, project, trial, geo, np.arange(part.size))
