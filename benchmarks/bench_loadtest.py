@@ -137,7 +137,12 @@ def main() -> int:
     with tempfile.TemporaryDirectory() as tmp:
         out = Path(tmp) / "annex.pdf"
         t0 = time.perf_counter()
-        pages = write_annex(project, results, out)
+        try:
+            pages = write_annex(project, results, out)
+        except Exception as exc:  # a figure to report, not a crash of the benchmark
+            print(f"  annex: FAILED after {time.perf_counter() - t0:.0f} s: "
+                  f"{type(exc).__name__}: {str(exc)[:200]}")
+            return 1
         dt = time.perf_counter() - t0
         size = os.path.getsize(out)
     print(f"  annex: {dt:.1f} s, {pages} pages, {size / 1e6:.1f} MB; max RSS {_rss_mb():.0f} MB")

@@ -21,25 +21,15 @@ EXIT_BAD_INPUT = 2
 
 
 
-def build_parser() -> argparse.ArgumentParser:
-    p = argparse.ArgumentParser(
-        prog="droprig",
-        description="Dropped-load assessment of floor framing under crane swing zones.",
-        epilog=CAUTION,
-    )
-    p.add_argument("--version", action="version", version=f"droprig {__version__}")
-    sub = p.add_subparsers(dest="command", metavar="COMMAND")
-
-    s = sub.add_parser("validate", help="check a .droprig project file")
-    s.add_argument("file")
-
-    s = sub.add_parser("check", help="one member struck by one dropped load")
-    s.add_argument("--section", required=True, help="library name, e.g. W16X26 or IPE 300")
-    s.add_argument("--grade", required=True, help="e.g. A992, S355")
-    s.add_argument("--span", required=True, help="member span, e.g. 6m or 24 ft")
-    s.add_argument("--at", required=True, help="struck point measured from the origin end")
-    s.add_argument("--mass", required=True, help="dropped mass, e.g. 1500lb or 2 t")
-    s.add_argument("--drop", required=True, help="free-fall height, e.g. 300mm")
+def _member_options(s: argparse.ArgumentParser, required: bool = True) -> None:
+    """The member and load options shared by ``check`` and ``verify`` (``verify``
+    takes them only without a project file, so there they are checked by hand)."""
+    s.add_argument("--section", required=required, help="library name, e.g. W16X26 or IPE 300")
+    s.add_argument("--grade", required=required, help="e.g. A992, S355")
+    s.add_argument("--span", required=required, help="member span, e.g. 6m or 24 ft")
+    s.add_argument("--at", required=required, help="struck point measured from the origin end")
+    s.add_argument("--mass", required=required, help="dropped mass, e.g. 1500lb or 2 t")
+    s.add_argument("--drop", required=required, help="free-fall height, e.g. 300mm")
     s.add_argument("--support", default="simple",
                    choices=["simple", "fixed", "propped", "cantilever"])
     s.add_argument("--code", choices=["aisc360", "en1993"], default=None,
@@ -61,6 +51,33 @@ def build_parser() -> argparse.ArgumentParser:
     s.add_argument("--units", choices=["SI", "US"], default=None,
                    help="units of the printed table (default: from the grade's family)")
     s.add_argument("--json", action="store_true", help="print one JSON object in SI units")
+
+
+def build_parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="droprig",
+        description="Dropped-load assessment of floor framing under crane swing zones.",
+        epilog=CAUTION,
+    )
+    p.add_argument("--version", action="version", version=f"droprig {__version__}")
+    sub = p.add_subparsers(dest="command", metavar="COMMAND")
+
+    s = sub.add_parser("validate", help="check a .droprig project file")
+    s.add_argument("file")
+
+    s = sub.add_parser("check", help="one member struck by one dropped load")
+    _member_options(s)
+
+    s = sub.add_parser("verify", help="time history beside the energy method: a project's "
+                       "governing points (FILE), or one member (check's options)")
+    s.add_argument("file", nargs="?", help="a .droprig project: verify the governing point "
+                   "of each bay (narrow with --lift, --bay, --load)")
+    s.add_argument("--lift", default=None, help="only this lift zone id")
+    s.add_argument("--bay", default=None, help="only this bay, e.g. 2-3/B-C")
+    s.add_argument("--load", default=None, help="only this load name")
+    _member_options(s, required=False)
+    s.add_argument("--plots", default=None, metavar="DIR",
+                   help="write force-, deflection- and moment-time plots (PNG) here")
 
     s = sub.add_parser("analyse", aliases=["analyze"], help="every drop point of every lift zone")
     s.add_argument("file")

@@ -4,8 +4,9 @@
 A project file can be readable (:func:`droprig.io.project_file.load_project`
 builds it) and still hold framing the method cannot assess: a member end resting
 on nothing, members resting on each other in a loop, a level with a lift zone
-but no members, a section the capacity checks cannot take, a hook or a drop height
-below the struck surface (the top of a pad or mat). The analysis refuses those with a
+(or the level below one) but no members, a section the capacity checks cannot
+take, a hook or a drop height below the struck surface (the top of a pad or mat).
+The analysis refuses those with a
 :class:`~droprig.model.ModelError`; :func:`analysis_problems` runs the same
 checks — the same solver functions, so the same messages — and gives each with
 the JSON path of the value to change. Every command that analyses runs it first,
@@ -79,14 +80,20 @@ def analysis_problems(project: Project) -> list[str]:
     Builds the prepared floors the analysis then reuses (same cache), so running
     it first costs nothing extra."""
     from droprig.solver import floor_model
+    from droprig.solver.cascade import level_below
 
     out: list[str] = []
     seen: set[str] = set()
+    # the zones' levels, and the level below each: a load that perforates a deck
+    # is assessed on the level below in the same run (droprig.solver.cascade)
+    wanted: list[Level] = []
     for zone in project.lift_zones:
-        if zone.level_id in seen:
-            continue
-        seen.add(zone.level_id)
         level = project.level(zone.level_id)
+        for lv in (level, level_below(project, level.id)):
+            if lv is not None and lv.id not in seen:
+                seen.add(lv.id)
+                wanted.append(lv)
+    for level in wanted:
         try:
             floor_model(level, project.settings)
         except ModelError as exc:

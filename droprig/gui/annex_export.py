@@ -58,8 +58,11 @@ def write_annex_pdf(project: Project, results: Results | None, path: str | os.Pa
     """Analyse (unless ``results`` are given for ``project``) and write the annex
     with the report package's ``write_annex`` — the code ``droprig report`` runs.
     ``paper`` is passed on when the report code takes it. Returns the page count."""
+    from droprig.io.atomic import check_output, keep_backup
     from droprig.report.annex import write_annex
 
+    # never over the project (links resolved) nor any .droprig file (issue 16)
+    check_output(path, (project_path,) if project_path else (), option="Annex file")
     if results is None:
         from droprig.solver import analyse
 
@@ -70,6 +73,7 @@ def write_annex_pdf(project: Project, results: Results | None, path: str | os.Pa
                                  "progress": progress}
     if paper is not None and "paper" in inspect.signature(write_annex).parameters:
         kwargs["paper"] = paper
+    keep_backup(path)  # the annex it replaces is kept as .bak
     return write_annex(project, results, path, **kwargs)  # type: ignore[arg-type]
 
 

@@ -142,6 +142,9 @@ class Settings:
     N in span/N (240, IBC Table 1604.3 dead + live; information only).
     ductility_limit μ and rotation_limit θ (rad): NAVFAC DM-2.08 non-reusable
     steel beams, μ = 6, θ = 2°. grid_resolution: drop-point spacing, m.
+    dynamic_amplification: the checks use the larger of the energy method and the
+    time-history-based demand (droprig.solver.amplification); off by default until
+    the calibrated factors are reviewed (README, "Dynamic amplification").
     """
 
     unit_system: UnitSystem = "SI"
@@ -154,6 +157,7 @@ class Settings:
     grid_resolution: float = 0.5
     include_member_mass: bool = True
     include_existing_loads: bool = True
+    dynamic_amplification: bool = False
 
     def __post_init__(self) -> None:
         check_choice("settings.unit_system", self.unit_system, ("SI", "US"))
@@ -165,7 +169,7 @@ class Settings:
         check_range("settings.rotation_limit", self.rotation_limit, math.radians(0.1),
                     math.radians(15.0), unit="rad")
         check_range("settings.grid_resolution", self.grid_resolution, 0.05, 5.0, unit="m")
-        for n in ("include_member_mass", "include_existing_loads"):
+        for n in ("include_member_mass", "include_existing_loads", "dynamic_amplification"):
             if not isinstance(getattr(self, n), bool):
                 raise ModelError(f"settings.{n}", getattr(self, n), "true or false")
 

@@ -11,6 +11,8 @@ names from ``droprig.solver`` and nothing from its modules
 * :func:`assess_member` — one member struck by one dropped load (``droprig check``);
 * :func:`member_resistances`, :func:`check_framing`, :func:`on_rigid_support` —
   framing questions without a drop;
+* :func:`verify_member`, :func:`verify_point`, :func:`verification_table` — the
+  time history beside the energy method (``droprig verify``, the annex's table);
 * :func:`resolve_drift`, :func:`zone_drift_margin` — the landing drift margin of a
   lift zone (computed from the crane's motion, or as entered); :func:`is_hard` —
   whether a load is checked for local damage of the deck;
@@ -47,7 +49,15 @@ from droprig.solver.results import (
     Trace,
     TraceStep,
 )
+from droprig.solver.timehistory import History
 from droprig.solver.trace import trace_point
+from droprig.solver.verification import (
+    PointVerification,
+    Verification,
+    verification_table,
+    verify_member,
+    verify_point,
+)
 
 __all__ = [
     "ADVICE_KINDS",
@@ -67,10 +77,13 @@ __all__ = [
     "CancelToken",
     "Cascade",
     "CaseResult",
+    "History",
+    "PointVerification",
     "Resistances",
     "Results",
     "Trace",
     "TraceStep",
+    "Verification",
     "analyse",
     "assess_member",
     "cancellable",
@@ -82,5 +95,8 @@ __all__ = [
     "planned_height",
     "resolve_drift",
     "trace_point",
+    "verification_table",
+    "verify_member",
+    "verify_point",
     "zone_drift_margin",
 ]

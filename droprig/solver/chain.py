@@ -24,6 +24,16 @@ returns a small frozen dataclass of numpy arrays, one value per point:
 5. :func:`demands` → :class:`Demands`: every check family at F (flexure, shear, web
    yielding and crippling under the load, deck flexure and punching), each linear in
    F: demand = F·unit + existing (:mod:`~droprig.solver.linear_checks`).
+5a. :func:`dynamic_amplification` → :class:`DynamicAmplification`: factors ≥ 1 on
+   the energy method's contact force, member moment and shear from the time-history
+   calibration of :mod:`~droprig.solver.amplification` (the energy method reads low
+   for loads light against the struck mass); the contact force also bounded by the
+   load on its contact spring against an immovable point.
+5b. :func:`amplified_demands` → :class:`Demands` (replacing step 5's): every check
+   family at its amplified force — flexure at A_M·F, shear at A_V·F, web, deck
+   flexure and punching at min(A_F·F, bound) — so the checks use the larger of the
+   energy method and the time-history-based demand; beyond yield (steps 7 and 8) the
+   kinetic energy is scaled by A_δ².
 6. :func:`checks` → :class:`Checks`: the elastic verdict (largest U, least F_allow,
    governing member and check) and the brittle checks at the force the yielding path
    can pass on, R_p (DNV-RP-C204 accidental limit state, from memory).
@@ -54,6 +64,7 @@ from typing import TypeVar, cast
 import numpy as np
 
 from droprig.model import Level, LiftLoad, ModelError, Project
+from droprig.solver import amplification as amp_mod
 from droprig.solver import capacity, contact, deck, limits, plastic
 from droprig.solver import impact as impact_mod
 from droprig.solver import local_damage as local_damage_mod
@@ -79,11 +90,14 @@ __all__ = [
     "Compliance",
     "Demands",
     "Drop",
+    "DynamicAmplification",
     "Impact",
     "InverseAnswers",
     "LoadInputs",
     "LocalDamage",
     "StruckMass",
+    "amplified_demands",
+    "dynamic_amplification",
     "outputs",
     "planned_height",
     "run_chain",
@@ -432,6 +446,102 @@ def demands(c: Chain) -> Demands:
     return Demands(checks=out, actions=ua)
 
 
+# --------------------------------------------------------------------------- 5a. amplification
+@dataclass(frozen=True, eq=False)
+class DynamicAmplification:
+    """Per point: load mass ÷ struck mass of the path ``mass_ratio`` (r = M/mₑ with
+    the path's Rayleigh mass at the struck framing point), contact ÷ framing
+    compliance ``compliance_ratio`` (κ = (f − f_s)/f_s), the factors on the energy
+    method's contact force ``A_force``, member moment ``A_moment``, shear ``A_shear``
+    and deflection ``A_deflection`` (dimensionless, ≥ 1), the contact-force bound
+    ``F_bound`` (N) and the factor each check family takes, ``factor`` by check name
+    (for the local checks min(A_force, F_bound/F), never below 1)."""
+
+    mass_ratio: np.ndarray
+    compliance_ratio: np.ndarray
+    A_force: np.ndarray
+    A_moment: np.ndarray
+    A_shear: np.ndarray
+    A_deflection: np.ndarray
+    F_bound: np.ndarray
+    factor: dict[str, np.ndarray]
+
+
+_CRUSHABLE_KAPPA = 1e3
+"""Contact ÷ framing compliance a crushable layer's points are looked up at (softest
+column of the amplification tables)."""
+
+
+def dynamic_amplification(c: Chain) -> DynamicAmplification:
+    """Table lookup of :func:`droprig.solver.amplification.amplification` (calibrated
+    on the time history of :mod:`droprig.solver.timehistory`: Euler–Bernoulli modes,
+    Blevins 1979 Table 8-1; Newmark average acceleration, Chopra §5.4) against the
+    energy method as this chain applies it: with the struck-mass share where η < 1,
+    with η = 1 under mats and crushable layers. A crushable layer is not in the
+    calibration: its points take the η = 1 table at the softest contact (an
+    assumption, stated in the README). Contact-force bound: the load on its contact
+    springs against an immovable point (Gere 7th ed. §9.10, η = 1, +5 %)."""
+    d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+    if not d.fm.settings.dynamic_amplification:
+        one = np.ones(d.n)
+        names = ("flexure", "shear", "web_yielding", "web_crippling", "deck_flexure",
+                 "deck_punching")
+        return DynamicAmplification(mass_ratio=np.full(d.n, np.nan),
+                                    compliance_ratio=np.full(d.n, np.nan), A_force=one,
+                                    A_moment=one, A_shear=one, A_deflection=one,
+                                    F_bound=np.full(d.n, np.inf),
+                                    factor=dict.fromkeys(names, one))
+    m_path = d.geo.path.m_e
+    m_path = np.where(np.isfinite(m_path) & (m_path > 0.0), m_path, 0.0)
+    # a crushable layer: the softest column of the η = 1 tables (not calibrated)
+    f_contact = np.where(inp.crushable, _CRUSHABLE_KAPPA * comp.f_s, comp.f - comp.f_s)
+    a = amp_mod.amplification(inp.M, m_path, f_contact, comp.f_s,
+                              struck_mass=sm.m_e > 0.0)
+    bound = np.where(inp.crushable, np.inf,
+                     amp_mod.contact_force_bound(inp.W, inp.h, comp.f - comp.f_s))
+    F = imp.F
+    with np.errstate(divide="ignore", invalid="ignore"):
+        local = np.where(F > 0.0, np.minimum(a.force, bound / np.where(F > 0.0, F, 1.0)),
+                         a.force)
+    local = np.where(np.isfinite(local), np.maximum(local, 1.0), a.force)
+    factor = {"flexure": a.moment, "shear": a.shear, "web_yielding": local,
+              "web_crippling": local, "deck_flexure": local, "deck_punching": local}
+    return DynamicAmplification(mass_ratio=a.mass_ratio, compliance_ratio=a.compliance_ratio,
+                                A_force=a.force, A_moment=a.moment, A_shear=a.shear,
+                                A_deflection=a.deflection, F_bound=bound, factor=factor)
+
+
+def _scaled(chk: Check, A: np.ndarray) -> Check:
+    """``chk`` evaluated at the force A·F: U = U_at(A·F) for the impact force F the
+    chain's Impact step gives, allowed (energy-method) force F_allow/A; the governing
+    candidate's detail is kept (its demand per N of the amplified force)."""
+    U_at = chk.U_at
+
+    def at(Fx: np.ndarray) -> np.ndarray:
+        return U_at(A * Fx)
+
+    return Check(name=chk.name, U=chk.U, F_allow=chk.F_allow / A, member=chk.member,
+                 unit=chk.unit, exist=chk.exist, resist=chk.resist, U_at=at)
+
+
+def amplified_demands(c: Chain) -> Demands:
+    """Every check family of :class:`Demands` at its amplified force A·F (linear in F:
+    U = |A·F·u + E|/R; F_allow/A in terms of the energy method's force), so the
+    checks use max(energy method, time-history-based demand) — A ≥ 1. With the
+    project setting ``dynamic_amplification`` off, step 5's demands unchanged."""
+    imp, dem, amp = c[Impact], c[Demands], c[DynamicAmplification]
+    if not c.drop.fm.settings.dynamic_amplification:
+        return dem  # the energy method's demands, unchanged
+    out: dict[str, Check] = {}
+    for name, chk in dem.checks.items():
+        A = amp.factor[name]
+        scaled = _scaled(chk, A)
+        out[name] = Check(name=scaled.name, U=scaled.U_at(imp.F), F_allow=scaled.F_allow,
+                          member=chk.member, unit=chk.unit, exist=chk.exist,
+                          resist=chk.resist, U_at=scaled.U_at)
+    return Demands(checks=out, actions=dem.actions)
+
+
 # --------------------------------------------------------------------------- 6. checks
 @dataclass(frozen=True, eq=False)
 class Checks:
@@ -538,6 +648,10 @@ def beyond_yield(c: Chain) -> BeyondYield:
     with np.errstate(divide="ignore", invalid="ignore"):
         h_struct = np.where(crush_ok, np.maximum(h - (F_c - W) * s_c / (eta * W), 0.0),
                             h_struct)
+    # dynamic amplification: the energy the structure takes is scaled by A_δ² so that
+    # an elastic response would deflect A_δ times the energy method's (δ ∝ √E; an
+    # approximation beyond yield, stated in the README); × 1 when the setting is off
+    h_struct = h_struct * c[DynamicAmplification].A_deflection ** 2
     over = ck.U > 1.0
     pl = over & ~ck.brittle_fail
     sub = slice(None) if d.detail or bool(pl.all()) else np.flatnonzero(pl)
@@ -655,6 +769,8 @@ def inverse_answers(c: Chain) -> InverseAnswers:
         mu_tot = (d_lim_s + R_p * comp.f_series) / (R_p * f)
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     h_pl = with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
+    # the drop height that gives the structure that energy after amplification (A_δ²)
+    h_pl = h_pl / c[DynamicAmplification].A_deflection ** 2
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
@@ -756,6 +872,8 @@ STEPS: tuple[Callable[[Chain], object], ...] = (
     struck_mass,
     impact,
     demands,
+    dynamic_amplification,
+    amplified_demands,
     checks,
     beyond_yield,
     inverse_answers,

@@ -27,6 +27,7 @@ from droprig.solver.chain import (
     Checks,
     Compliance,
     Demands,
+    DynamicAmplification,
     Impact,
     InverseAnswers,
     LoadInputs,
@@ -113,6 +114,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
                      "deck", "opening")
     _path_steps(sheet)
     _impact_steps(sheet)
+    _amplification_steps(sheet)
     _check_steps(sheet)
     _local_damage_steps(sheet)
     by = sheet.by
@@ -235,12 +237,39 @@ def _impact_steps(sheet: _Sheet) -> None:
         "dimensionless", "Newton's second law")
 
 
+def _amplification_steps(sheet: _Sheet) -> None:
+    """The dynamic amplification factors (project setting; nothing when off)."""
+    if not sheet.project.settings.dynamic_amplification:
+        return
+    add, comp, imp = sheet.add, sheet.comp, sheet.imp
+    amp = sheet.chain[DynamicAmplification]
+    src_amp = ("time-history calibration, droprig.solver.amplification (Euler–Bernoulli "
+               "modes, Blevins 1979 Table 8-1; Newmark, Chopra §5.4)")
+    add("Load mass over the path's struck mass", "r", "r = M / m_e,path",
+        {"M": (sheet.load.mass, "mass")}, amp.mass_ratio[0], "dimensionless", src_amp)
+    add("Contact over framing compliance", "κ", "κ = (f − f_s) / f_s",
+        {"f": (comp.f[0], "compliance"), "f_s": (comp.f_s[0], "compliance")},
+        amp.compliance_ratio[0], "dimensionless", src_amp)
+    add("Amplification of the member moment", "A_M", "A_M = table(r, κ)", {},
+        amp.A_moment[0], "dimensionless", src_amp)
+    add("Amplification of the member shear", "A_V", "A_V = table(r, κ)", {},
+        amp.A_shear[0], "dimensionless", src_amp)
+    add("Amplification of the contact force (web and deck checks)", "A_F",
+        "A_F = min(table(r, κ), F_bound/F), F_bound = 1.05·W(1 + √(1 + 2h/(W(f − f_s))))",
+        {"F_bound": (amp.F_bound[0], "force"), "F": (imp.F[0], "force")},
+        amp.factor["web_yielding"][0], "dimensionless", src_amp + "; Gere §9.10")
+    add("Amplification of the energy beyond yield", "A_δ²", "A_δ = table(r, κ)", {},
+        amp.A_deflection[0] ** 2, "dimensionless", src_amp)
+
+
 def _check_steps(sheet: _Sheet) -> None:
     """Checks, verdict, beyond yield and the inverse answers."""
     add, mname, comp, sm = sheet.add, sheet.mname, sheet.comp, sheet.sm
     imp, dem, ck, by = sheet.imp, sheet.dem, sheet.ck, sheet.by
     inv, project = sheet.inv, sheet.project
     W = sheet.load.weight
+    amp = sheet.chain[DynamicAmplification]
+    on = project.settings.dynamic_amplification
     # ---- checks
     qty = {"flexure": "moment", "shear": "force", "web_yielding": "force",
            "web_crippling": "force", "deck_flexure": "moment", "deck_punching": "force"}
@@ -249,8 +278,9 @@ def _check_steps(sheet: _Sheet) -> None:
         q = qty[c]
         unit_q = "length" if q == "moment" else "dimensionless"
         add(f"{c.replace('_', ' ').capitalize()} — {mname(dem.checks[c].member[0])}", f"U_{c}",
-            "U = |F·u + E| / R",
-            {"F": (imp.F[0], "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
+            "U = |A·F·u + E| / R" if on else "U = |F·u + E| / R",
+            {**({"A": (amp.factor[c][0], "dimensionless")} if on else {}),
+             "F": (imp.F[0], "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
              "E": (_detail(dem.checks[c].exist)[0], q), "R": (_detail(dem.checks[c].resist)[0], q)},
             dem.checks[c].U[0], "dimensionless", _SRC_CHECK[c])
     add("Utilisation", "U", "U = max over the checks", {}, ck.U[0],

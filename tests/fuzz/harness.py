@@ -224,9 +224,15 @@ def mutate(doc: dict[str, Any], rng: random.Random, n: int = 1) -> bytes:
             if op < 0.45:
                 c[k] = rng.choice(EDGE_NUMBERS)
             elif op < 0.75:
-                c[k] = v * rng.choice([-1, 0.1, 0.5, 2, 10, 1000, 1e-6])
+                try:
+                    c[k] = v * rng.choice([-1, 0.1, 0.5, 2, 10, 1000, 1e-6])
+                except OverflowError:  # an earlier mutation left a huge integer
+                    c[k] = rng.choice(EDGE_NUMBERS)
             elif op < 0.85:
-                c[k] = v + rng.uniform(-3, 3)
+                try:
+                    c[k] = v + rng.uniform(-3, 3)
+                except OverflowError:
+                    c[k] = rng.choice(EDGE_NUMBERS)
             else:
                 c[k] = rng.choice([None, "12", [], {}, True])
         elif isinstance(v, str):

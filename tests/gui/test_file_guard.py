@@ -157,3 +157,20 @@ def test_autosave_soon_after_the_first_edit_and_failures_reported(qtbot) -> None
     nudge.tick()
     assert reports and "Autosave failed" in reports[-1] and "No space" in reports[-1]
     nudge.stop()
+
+
+def test_the_window_annex_export_never_overwrites_the_project(qtbot, project_file: Path,
+                                                              tmp_path: Path) -> None:
+    """Outputs never clobber inputs (issue 16, item 3): the window's annex export."""
+    from droprig.gui.annex_export import write_annex_pdf
+    from droprig.io.atomic import OutputRefusedError
+    from droprig.io.project_file import load_project
+
+    before = project_file.read_bytes()
+    project = load_project(project_file)
+    link = tmp_path / "annex.pdf"
+    link.symlink_to(project_file)
+    for target in (project_file, link, tmp_path / "other.droprig"):
+        with pytest.raises(OutputRefusedError):
+            write_annex_pdf(project, None, target, project_path=project_file)
+    assert project_file.read_bytes() == before

@@ -1,0 +1,57 @@
+"""The annex's verification table: for each bay's governing point, the energy method
+beside the time history (Qt-free, no reportlab: rows of text the annex lays out).
+
+Numbers from :func:`droprig.solver.verification_table` (the struck member alone with
+the whole load, the rest of the path as a spring in series; Euler–Bernoulli modes,
+Blevins 1979 Table 8-1; Newmark average acceleration, Chopra §5.4; the energy method
+of Gere 7th ed. §9.10 with the Rayleigh struck mass). Units: the project's system.
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+from droprig.units import fmt
+
+__all__ = ["VERIFICATION_HEADER", "VERIFICATION_NOTE", "verification_rows"]
+
+VERIFICATION_HEADER: tuple[str, ...] = (
+    "zone", "bay", "load", "member", "r = M/mₑ", "κ = f_c/f_s",
+    "F energy", "F time history", "M energy", "M time history",
+    "F ratio", "M ratio", "δ ratio")
+"""Column titles; the ratios are energy method ÷ time history (below 1: the energy
+method reads low there)."""
+
+VERIFICATION_NOTE = (
+    "Time-history check of the energy method at each bay's governing point (impact alone): "
+    "the struck member's Euler–Bernoulli modes (Blevins Table 8-1), the load on a "
+    "compression-only contact spring, Newmark integration through the rebound. A ratio "
+    "below 1 means the energy method reads lower than the time history. Check aid only: "
+    "review against local codes with the appointed lifting person and a licensed "
+    "structural engineer.")
+
+
+def verification_rows(project: Any, results: Any, *,
+                      zone_id: str | None = None) -> list[tuple[str, ...]]:
+    """One row of text per verified bay summary, in :data:`VERIFICATION_HEADER` order;
+    bays whose governing point cannot be verified (crushable layer, support) are left
+    out. ``zone_id`` keeps one lift zone."""
+    from droprig.solver import verification_table
+
+    system = project.settings.unit_system
+    rows: list[tuple[str, ...]] = []
+    for pv in verification_table(project, results, zone_id=zone_id):
+        v = pv.verification
+
+        def ratio(key: str, v: Any = v) -> str:
+            r = v.ratio(key)
+            return "none" if r is None else f"{r:.2f}"
+
+        rows.append((pv.zone_id, pv.bay_id, pv.load_name, pv.member_id,
+                     f"{v.mass_ratio:.3g}", f"{v.compliance_ratio:.3g}",
+                     fmt(v.energy["force"], "force", system),
+                     fmt(v.time_history["force"], "force", system),
+                     fmt(v.energy["moment"], "moment", system),
+                     fmt(v.time_history["moment"], "moment", system),
+                     ratio("force"), ratio("moment"), ratio("deflection")))
+    return rows

@@ -1,0 +1,222 @@
+"""Time-history verification of the energy method for one member or one drop point.
+
+* :func:`verify_member` — one member struck by one load (``droprig verify`` with
+  ``droprig check``'s options);
+* :func:`verify_point` — a drop point of a project: the struck member (the member of
+  the load path carrying the larger share of the load) modelled alone with the whole
+  load, the rest of the path (other framing, deck indentation and strip, the load's
+  underside, a spring mat) as a massless spring in series with the contact;
+* :func:`verification_table` — one row per bay summary, at the bay's governing point
+  (the annex prints it).
+
+Both methods are run on the same idealisation so that their ratio shows the method,
+not the idealisation: the energy method of :func:`timehistory.energy_method_peaks`
+(Gere 7th ed. §9.10 with the Rayleigh struck mass, as droprig applies it: η = 1 under
+mats; the struck mass referred to the load, mₑ·(f_s/f)², as the floor chain and
+droprig check take it) and the time history of :func:`timehistory.time_history` (Euler–Bernoulli
+modes, Blevins 1979 Table 8-1; Newmark average acceleration, Chopra §5.4). A rigid
+contact is given KAPPA_MIN × the member's compliance (an Euler–Bernoulli member struck
+rigidly has no converged contact force; moment and deflection do not depend on it).
+SI units throughout.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from droprig.model import Grade, Level, ModelError, Project, Section
+from droprig.solver import amplification, beam, timehistory
+from droprig.solver.beam import EndCondition
+from droprig.solver.geometry import Geometry
+
+__all__ = [
+    "QUANTITIES",
+    "PointVerification",
+    "Verification",
+    "verification_table",
+    "verify_member",
+    "verify_point",
+]
+
+QUANTITIES: tuple[str, ...] = ("force", "moment", "shear", "deflection")
+"""Compared peaks: contact force (N), member moment (N·m), shear (N), deflection (m)."""
+
+
+@dataclass(frozen=True)
+class Verification:
+    """Energy method and time history of one struck member, impact alone (SI).
+
+    ``energy``, ``time_history``, ``amplification`` map :data:`QUANTITIES` to the
+    energy method's peak, the time history's peak and the calibrated factor;
+    ``energy_deflection_at_point`` (m) is F·G(a, a) for the plot of the struck
+    point; ``mass_ratio`` r = M/mₑ, ``compliance_ratio`` κ = f_c/f_s;
+    ``contact_compliance`` (m/N) the contact spring the time history used
+    (``contact_assumed`` when a rigid contact was given KAPPA_MIN × f_s); ``modes``
+    integrated in time, ``time_step`` (s), ``separation_time`` (s, None if the load
+    stays in contact); ``history``: the recorded histories."""
+
+    energy: dict[str, float]
+    time_history: dict[str, float]
+    amplification: dict[str, float]
+    energy_deflection_at_point: float
+    mass_ratio: float
+    compliance_ratio: float
+    contact_compliance: float
+    contact_assumed: bool
+    modes: int
+    time_step: float
+    separation_time: float | None
+    history: timehistory.History
+
+    def ratio(self, key: str) -> float | None:
+        """Energy method ÷ time history of ``key`` (None where the history is 0)."""
+        t = self.time_history[key]
+        return self.energy[key] / t if t > 0 else None
+
+
+@dataclass(frozen=True)
+class PointVerification:
+    """:class:`Verification` of a project drop point: zone, load, point (m), bay,
+    the member modelled (id, end condition, span L and position a in m) and the
+    chain's own energy-method peak force there (N, the whole path)."""
+
+    zone_id: str
+    load_name: str
+    x: float
+    y: float
+    bay_id: str
+    member_id: str
+    cond: str
+    L: float
+    a: float
+    chain_peak_force: float
+    verification: Verification
+
+
+def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
+            f_c: float, struck_mass: bool, scaled_mass: bool = False) -> Verification:
+    f_s = float(beam.green(cond, L, EI, a, a))
+    if f_s <= 0.0:
+        raise ModelError("at", a, "a point off the supports (the member does not move "
+                         "there)", "m")
+    assumed = f_c <= amplification.KAPPA_MIN * f_s
+    f_th = max(f_c, amplification.KAPPA_MIN * f_s)
+    e = timehistory.energy_method_peaks(cond, L, EI, mu, a, M, h, f_c,
+                                        struck_mass=struck_mass, scaled_mass=scaled_mass)
+    t = timehistory.time_history(cond, L, EI, mu, a, M, h, f_th, record=True)
+    amp = amplification.amplification(M, float(e.effective_mass), f_c, f_s,
+                                      struck_mass=struck_mass)
+    assert t.history is not None
+    t_sep = float(t.t_separation[0])
+    return Verification(
+        energy={k: float(getattr(e, k)) for k in QUANTITIES},
+        time_history={k: float(getattr(t, k)[0]) for k in QUANTITIES},
+        amplification={k: float(getattr(amp, k)) for k in QUANTITIES},
+        energy_deflection_at_point=float(e.force) * f_s,
+        mass_ratio=float(amp.mass_ratio), compliance_ratio=f_c / f_s,
+        contact_compliance=f_th, contact_assumed=assumed, modes=int(t.modes[0]),
+        time_step=float(t.dt[0]), separation_time=t_sep if math.isfinite(t_sep) else None,
+        history=t.history)
+
+
+def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, a: float,
+                  mass: float, h: float, *, cushion_stiffness: float | None = None,
+                  load_stiffness: float | None = None,
+                  beam_mass: bool = True) -> Verification:
+    """One member (SI inputs as :func:`droprig.solver.member.assess_member`): contact
+    compliance 1/k_cushion + 1/k_load in series; the energy method with the struck-mass
+    share mₑ·(f_s/f)² unless a mat is given or ``beam_mass`` is off (droprig check's
+    rule)."""
+    if cond not in beam.END_CONDITIONS:
+        raise ModelError("support", cond, "one of " + ", ".join(beam.END_CONDITIONS))
+    f_c = 0.0
+    if cushion_stiffness is not None:
+        f_c += 1.0 / cushion_stiffness
+    if load_stiffness is not None:
+        f_c += 1.0 / load_stiffness
+    return _verify(cond, L, grade.E * section.Ix, section.mass_per_length, a, mass, h, f_c,
+                   beam_mass and cushion_stiffness is None, scaled_mass=True)
+
+
+def verify_point(project: Project, zone_id: str, load_name: str, x: float,
+                 y: float) -> PointVerification:
+    """A drop point (x, y in m) of load ``load_name`` of lift zone ``zone_id`` (see the
+    module docstring for the idealisation). Raises :class:`ModelError` naming the
+    zone, load or point when they do not exist or the point is not over a deck panel,
+    over an opening, or under a crushable layer (not modelled by the time history)."""
+    from droprig.solver.chain import Compliance, LoadInputs, StruckMass
+    from droprig.solver.evaluate import evaluate_chain
+    from droprig.solver.floor import floor_model
+    from droprig.solver.geometry import point_geometry
+    from droprig.solver.loadpath import COND_NAMES
+
+    zones = {z.id: z for z in project.lift_zones}
+    if zone_id not in zones:
+        raise ModelError("verify.lift", zone_id, "the id of a lift zone: " + ", ".join(zones))
+    zone = zones[zone_id]
+    loads = {ld.name: ld for ld in zone.loads}
+    if load_name not in loads:
+        raise ModelError("verify.load", load_name,
+                         f"the name of a load of zone {zone_id}: " + ", ".join(loads))
+    load = loads[load_name]
+    fm = floor_model(project.level(zone.level_id), project.settings)
+    geo = point_geometry(fm, project, np.array([float(x)]), np.array([float(y)]))
+    if geo.path.pair[0] < 0 or bool(geo.opening[0]):
+        raise ModelError("verify.point", (float(x), float(y)),
+                         f"a point over a deck panel of level {fm.level.id}")
+    chain = evaluate_chain(fm, project, load, geo, detail=True)
+    inp, comp, sm = chain[LoadInputs], chain[Compliance], chain[StruckMass]
+    if bool(inp.crushable[0]):
+        raise ModelError("verify.point", (float(x), float(y)),
+                         "a point outside crushable layers (the time history models an "
+                         "elastic contact only)")
+    path, fr = geo.path, fm.frame
+    k = 0 if path.share[0, 0] >= path.share[0, 1] else 1
+    m = int(path.members[0, k])
+    cond = COND_NAMES[int(fr.cond[m])]
+    member = fm.level.members[m]
+    L = float(fr.L[m])
+    a = float(path.a[0, k])
+    section, grade = member.section, member.grade
+    EI = grade.E * section.Ix
+    g_m = float(beam.green(cond, L, EI, a, a))
+    # the rest of the path in series: everything but the modelled member's own spring
+    f_c = max(float(comp.f[0]) - g_m, 0.0) if g_m > 0 else float(comp.f[0])
+    ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), float(inp.h[0]),
+                  f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True)
+    from droprig.solver.chain import Impact
+
+    return PointVerification(zone_id=zone_id, load_name=load_name, x=float(x), y=float(y),
+                             bay_id=_bay_name(fm.level, geo), member_id=member.id, cond=cond,
+                             L=L, a=a, chain_peak_force=float(chain[Impact].F[0]),
+                             verification=ver)
+
+
+def _bay_name(level: Level, geo: Geometry) -> str:
+    """The id of the column bay (droprig.model.bays) the point lies in, '' if none."""
+    from droprig.model import bays
+
+    b = int(geo.bay[0])
+    all_bays = bays(level)
+    return all_bays[b].id if 0 <= b < len(all_bays) else ""
+
+
+def verification_table(project: Project, results: object, *,
+                       zone_id: str | None = None) -> tuple[PointVerification, ...]:
+    """One :class:`PointVerification` per bay summary of ``results`` (a
+    :class:`~droprig.solver.results.Results`), at the bay's governing point; bays whose
+    governing point cannot be verified (a crushable layer, a support point) are left
+    out. ``zone_id`` keeps one lift zone."""
+    rows: list[PointVerification] = []
+    for b in getattr(results, "bays", ()):
+        if zone_id is not None and b.zone_id != zone_id:
+            continue
+        try:
+            pv = verify_point(project, b.zone_id, b.load_name, b.governing_x, b.governing_y)
+        except ModelError:
+            continue
+        rows.append(PointVerification(**{**pv.__dict__, "bay_id": b.bay_id}))
+    return tuple(rows)

@@ -1,0 +1,130 @@
+"""The dynamic-amplification steps of the chain (project setting
+``dynamic_amplification``).
+
+Sources: the factors are those of droprig.solver.amplification (checked against the
+time history, itself checked against Blevins 1979 Table 8-1 and Gere 7th ed. §9.10,
+in tests/solver/test_amplification.py and test_timehistory.py); each check is linear
+in the force, U = |F·u + E|/R (AISC 360-16 / EN 1993-1-1 checks as in
+droprig.solver.linear_checks), so the amplified check is U = |A·F·u + E|/R. The demo
+project is an invented scenario used as input only.
+"""
+
+from __future__ import annotations
+
+from dataclasses import replace
+
+import numpy as np
+import pytest
+
+from droprig.commands.demo import demo_dir
+from droprig.io.project_file import dumps_project, load_project, loads_project
+from droprig.solver import amplification, analysis
+from droprig.solver import chain as chain_mod
+from droprig.solver.chain import (
+    Compliance,
+    Demands,
+    DynamicAmplification,
+    Impact,
+    LoadInputs,
+    StruckMass,
+)
+from droprig.solver.evaluate import evaluate_chain
+
+REL = 1e-9
+
+
+def _project(on: bool):
+    p = load_project(demo_dir() / "rooftop_plant_swap.droprig")
+    return replace(p, settings=replace(p.settings, dynamic_amplification=on))
+
+
+def _grid(p) -> tuple[np.ndarray, np.ndarray]:
+    members = p.level(p.lift_zones[0].level_id).members
+    xs = [c for m in members for c in (m.start[0], m.end[0])]
+    ys = [c for m in members for c in (m.start[1], m.end[1])]
+    X, Y = np.meshgrid(np.linspace(min(xs), max(xs), 11)[1:-1],
+                       np.linspace(min(ys), max(ys), 9)[1:-1])
+    return X.ravel(), Y.ravel()
+
+
+def _chains(on: bool):
+    p = _project(on)
+    zone = p.lift_zones[0]
+    fm = analysis.build_floor(p.level(zone.level_id), p.settings)
+    geo = analysis.point_geometry(fm, p, *_grid(p))
+    return [evaluate_chain(fm, p, ld, geo) for ld in zone.loads]
+
+
+def test_off_is_the_energy_method_unchanged() -> None:
+    for ch in _chains(False):
+        amp = ch[DynamicAmplification]
+        assert np.all(amp.A_moment == 1.0) and np.all(amp.A_force == 1.0)
+        # the replaced Demands is step 5's own object
+        dems = [r for r in ch.history if isinstance(r, Demands)]
+        assert dems[-1] is dems[0]
+
+
+def test_on_checks_use_the_amplified_force() -> None:
+    off, on = _chains(False), _chains(True)
+    for c0, c1 in zip(off, on, strict=True):
+        inp, comp, sm, imp = c1[LoadInputs], c1[Compliance], c1[StruckMass], c1[Impact]
+        amp = c1[DynamicAmplification]
+        ok = np.isfinite(imp.F)
+        # the factors are the table's for this path (r, κ as the step defines them)
+        m_path = np.where(np.isfinite(c1.drop.geo.path.m_e), c1.drop.geo.path.m_e, 0.0)
+        # a crushable layer is looked up in the softest column (stated assumption)
+        f_c = np.where(inp.crushable, chain_mod._CRUSHABLE_KAPPA * comp.f_s, comp.f - comp.f_s)
+        ref = amplification.amplification(inp.M, m_path, f_c, comp.f_s,
+                                          struck_mass=sm.m_e > 0.0)
+        np.testing.assert_array_equal(amp.A_moment[ok], ref.moment[ok])
+        # amplified check = the energy-method check at A·F (linear in F)
+        for name in ("flexure", "shear", "web_yielding", "deck_punching"):
+            A = amp.factor[name]
+            U_ref = c0[Demands].checks[name].U_at(A * imp.F)
+            np.testing.assert_allclose(c1[Demands].checks[name].U[ok], U_ref[ok], rtol=REL)
+            assert np.all(c1[Demands].checks[name].U[ok]
+                          >= c0[Demands].checks[name].U[ok] * (1 - REL))
+            assert np.all(A >= 1.0)
+        # contact-force factor of the local checks never beyond the rigid-base bound
+        F_loc = amp.factor["web_yielding"] * imp.F
+        assert np.all(F_loc[ok] <= np.maximum(amp.F_bound[ok], imp.F[ok]) * (1 + REL))
+
+
+def test_on_never_reads_lower_than_off() -> None:
+    r0 = analysis.analyse(_project(False))
+    r1 = analysis.analyse(_project(True))
+    for b0, b1 in zip(r0.bays, r1.bays, strict=True):
+        assert b1.max_utilisation >= b0.max_utilisation * (1 - REL)
+
+
+def test_setting_round_trips_and_is_omitted_when_off() -> None:
+    p = _project(True)
+    text = dumps_project(p)
+    assert '"dynamic_amplification": true' in text
+    assert loads_project(text).settings.dynamic_amplification is True
+    assert "dynamic_amplification" not in dumps_project(_project(False))
+
+
+@pytest.mark.parametrize("bad", ["yes", 1])
+def test_setting_must_be_a_bool(bad: object) -> None:
+    from droprig.model import ModelError
+    p = _project(False)
+    with pytest.raises(ModelError, match="dynamic_amplification"):
+        replace(p.settings, dynamic_amplification=bad)
+
+
+def test_on_beyond_yield_takes_the_amplified_energy() -> None:
+    # Biggs (1964) elastic–plastic energy balance with the kinetic energy × A_δ²: more
+    # energy gives a larger plastic deflection and a lower allowable plastic height
+    from droprig.solver.chain import BeyondYield, InverseAnswers
+
+    for c0, c1 in zip(_chains(False), _chains(True), strict=True):
+        A = c1[DynamicAmplification].A_deflection
+        np.testing.assert_allclose(c1[BeyondYield].h_struct, c0[BeyondYield].h_struct * A**2,
+                                   rtol=REL)
+        d0, d1 = c0[BeyondYield].d_m, c1[BeyondYield].d_m
+        both = np.isfinite(d0) & np.isfinite(d1)
+        assert np.all(d1[both] >= d0[both] * (1 - REL))
+        h0, h1 = c0[InverseAnswers].h_pl, c1[InverseAnswers].h_pl
+        both = np.isfinite(h0) & np.isfinite(h1)
+        assert np.all(h1[both] <= h0[both] * (1 + REL))

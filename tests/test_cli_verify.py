@@ -1,0 +1,139 @@
+"""``droprig verify`` through :func:`droprig.cli.main`.
+
+Sources: the command contract is droprig's own (0 ok, 2 bad input naming the field);
+the energy column is droprig check's peak force (Gere 7th ed. §9.10, tested in
+tests/solver/test_member.py); the time history is tested against Blevins Table 8-1
+and Gere §9.10 in tests/solver/test_timehistory.py; PNG files start with the
+8-byte signature of the PNG specification (ISO/IEC 15948:2004 §5.2).
+"""
+
+from __future__ import annotations
+
+import json
+from pathlib import Path
+
+import pytest
+
+from droprig.cli import CAUTION, main
+from droprig.io.sections import get_grade, get_section
+from droprig.solver.member import assess_member
+
+FT, IN, LB = 0.3048, 0.0254, 0.45359237
+REL = 1e-9
+PNG_SIGNATURE = b"\x89PNG\r\n\x1a\n"
+
+# an invented demo case: a light shackle-and-sling set on a 24 ft floor beam
+EXAMPLE = ["verify", "--section", "W16X26", "--grade", "A992", "--span", "24ft", "--at",
+           "9ft", "--mass", "60lb", "--drop", "3ft", "--load-stiffness", "20 kN/mm"]
+
+
+def _run(argv: list[str], capsys: pytest.CaptureFixture[str]) -> tuple[int, str, str]:
+    rc = main(argv)
+    out, err = capsys.readouterr()
+    return rc, out, err
+
+
+def test_json_energy_column_is_droprig_check(capsys: pytest.CaptureFixture[str]) -> None:
+    rc, out, err = _run([*EXAMPLE, "--json"], capsys)
+    assert rc == 0, err
+    data = json.loads(out)
+    ref = assess_member(get_section("W16X26"), get_grade("A992"), "simple", 24 * FT, 9 * FT,
+                        60 * LB, 36 * IN, basis="aisc360", load_stiffness=20e6)
+    assert data["energy_method"]["force"] == pytest.approx(ref["peak_force"], rel=REL)
+    assert data["caution"] == CAUTION
+    for key in ("force", "moment", "shear", "deflection"):
+        th = data["time_history"][key]
+        assert th > 0
+        assert data["energy_over_time_history"][key] == pytest.approx(
+            data["energy_method"][key] / th, rel=REL)
+        # the amplified demand is never below the time history
+        assert data["amplified_demand"][key] >= th
+    # a 60 lb set on a 26 lb/ft, 24 ft beam: light — the energy method reads low
+    assert data["mass_ratio"] < 1.0
+    assert data["energy_over_time_history"]["moment"] < 1.0
+
+
+def test_table_carries_caution_and_plots(tmp_path: Path,
+                                         capsys: pytest.CaptureFixture[str]) -> None:
+    rc, out, err = _run([*EXAMPLE, "--plots", str(tmp_path / "plots")], capsys)
+    assert rc == 0, err
+    assert CAUTION in out
+    for name in ("verify_force.png", "verify_deflection.png", "verify_moment.png"):
+        p = tmp_path / "plots" / name
+        assert p.read_bytes()[:8] == PNG_SIGNATURE
+        assert str(p) in out
+    assert not list((tmp_path / "plots").glob(".*.tmp"))
+
+
+def test_rigid_contact_is_stated(capsys: pytest.CaptureFixture[str]) -> None:
+    argv = [a for a in EXAMPLE if a not in ("--load-stiffness", "20 kN/mm")]
+    rc, out, err = _run(argv, capsys)
+    assert rc == 0, err
+    assert "rigid contact" in out
+
+
+@pytest.mark.parametrize(("extra", "field"), [
+    (["--crush-force", "50kN", "--crush-stroke", "50mm"], "--crush-force"),
+    (["--mass", "0.1kg"], "--mass"),
+])
+def test_bad_input_names_the_field(extra: list[str], field: str,
+                                   capsys: pytest.CaptureFixture[str]) -> None:
+    rc, out, err = _run([*EXAMPLE, *extra], capsys)
+    assert rc == 2
+    assert field in err and "Traceback" not in err
+    assert out == ""
+
+
+def test_point_on_support_refused(capsys: pytest.CaptureFixture[str]) -> None:
+    argv = list(EXAMPLE)
+    argv[argv.index("9ft")] = "0ft"
+    rc, _, err = _run(argv, capsys)
+    assert rc == 2 and "--at" in err
+
+
+# --------------------------------------------------------------------------- project mode
+DEMO = str(Path(__file__).resolve().parents[1] / "demo_projects" / "rooftop_plant_swap.droprig")
+
+
+def test_project_table_every_bay(capsys: pytest.CaptureFixture[str]) -> None:
+    rc, out, err = _run(["verify", DEMO], capsys)
+    assert rc == 0, err
+    assert CAUTION in out
+    assert "energy method ÷ time history" in out
+
+
+def test_project_one_point_json_and_plots(tmp_path: Path,
+                                          capsys: pytest.CaptureFixture[str]) -> None:
+    rc, out, err = _run(["verify", DEMO, "--bay", "1-2/B-C", "--load", "AHU-3 (old, drained)",
+                         "--plots", str(tmp_path), "--json"], capsys)
+    assert rc == 0, err
+    data = json.loads(out)
+    assert len(data["points"]) == 1 and data["caution"] == CAUTION
+    pt = data["points"][0]
+    # on a beam line the modelled member carries the whole load: the energy column is
+    # the floor chain's own peak force (Gere §9.10 on the same compliance)
+    assert pt["energy_method"]["force"] == pytest.approx(pt["chain_peak_force"], rel=1e-3)
+    for key in ("force", "moment", "shear", "deflection"):
+        assert pt["amplified_demand"][key] >= pt["time_history"][key]
+    assert len(data["plots"]) == 3
+    for p in data["plots"]:
+        assert Path(p).read_bytes()[:8] == PNG_SIGNATURE
+
+
+@pytest.mark.parametrize(("extra", "field"), [
+    (["--lift", "NOPE"], "--lift"),
+    (["--bay", "9-9/Z-Z"], "--bay"),
+    (["--section", "W16X26"], "--section"),
+    (["--plots", "unused"], "--plots"),  # more than one point selected
+])
+def test_project_bad_input_names_the_field(extra: list[str], field: str,
+                                           capsys: pytest.CaptureFixture[str]) -> None:
+    rc, _, err = _run(["verify", DEMO, *extra], capsys)
+    assert rc == 2 and field in err and "Traceback" not in err
+
+
+def test_member_options_or_file_required(capsys: pytest.CaptureFixture[str]) -> None:
+    rc, _, err = _run(["verify"], capsys)
+    assert rc == 2 and "--section" in err
+    rc, _, err = _run(["verify", "--bay", "1-2/A-B"], capsys)
+    assert rc == 2 and "--bay" in err
