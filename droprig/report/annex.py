@@ -1211,8 +1211,7 @@ class _Builder:
             self.story.append(_marker(f"sheet:{n + 1}",
                                       f"{HEADINGS['sheets']} — B.{n + 1}", self.book))
             self.story.append(self.P(esc(title), st.h2))
-            covers = "; ".join(f"{c.load_name}: bay {c.bay_id} ({c.reason})"
-                               for c in g.covers)
+            covers = covers_text(g.covers)
             self.story.append(self.P(
                 f"Lift zone <b>{esc(g.zone_id)}</b> · load <b>{esc(g.load_name)}</b> · "
                 f"drop point x = {self.v(g.x, 'length')}, y = {self.v(g.y, 'length')} "
@@ -1338,6 +1337,25 @@ def _mass_source_cell(ld: object) -> str:
     if words == permit_fields.NOT_RECORDED:
         return f"{_NOT_RECORDED_CELL}: confirm (weighed, data plate, drawing)"
     return esc(words)
+
+
+def covers_text(covers: Sequence[content.Covered]) -> str:
+    """What a calculation sheet stands for, one clause per (load, reason) with its
+    bays in first-seen order: "pallet: bays A-B/1-2, B-C/1-2 (governing point)".
+
+    Linear in the number of covered (load, bay, reason) triples; a sheet covering
+    hundreds of bays prints each bay id once per reason instead of repeating the
+    load name and reason beside every bay. The text is a top-level paragraph of
+    the sheet, so a long list wraps and splits across pages.
+    """
+    groups: dict[tuple[str, str], dict[str, None]] = {}
+    for c in covers:
+        groups.setdefault((c.load_name, c.reason), {})[c.bay_id] = None
+    parts = []
+    for (load, reason), bay_ids in groups.items():
+        word = "bay" if len(bay_ids) == 1 else "bays"
+        parts.append(f"{load}: {word} {', '.join(bay_ids)} ({reason})")
+    return "; ".join(parts)
 
 
 def wrap_text(text: str, font: str, size: float, width: float) -> str:

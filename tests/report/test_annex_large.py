@@ -157,3 +157,20 @@ def test_merge_conditions_keeps_every_bay_once() -> None:
     assert first.bays == tuple(f"b{k}" for k in range(401))  # type: ignore[attr-defined]
     assert first.region is None  # type: ignore[attr-defined]
     assert merged[1] == conds[-1]
+
+
+def test_covers_text_lists_every_bay_once_per_reason() -> None:
+    """Every (load, bay, reason) a sheet stands for is printed, each once, grouped
+    by load and reason (issue 14: a sheet lists the bays and loads it covers)."""
+    triples = [("pallet", f"B{k % 7}", "governing point" if k % 2 else "least height")
+               for k in range(300)] + [("bundle", "B1", "governing point")]
+    covers = [content.Covered("Z1", ld, bay, 0.0, 0.0, why) for ld, bay, why in triples]
+    text = annex.covers_text(covers)
+    clauses = text.split("; ")
+    assert len(clauses) == len(set((ld, why) for ld, _, why in triples)) == 3
+    for ld, bay, why in set(triples):
+        clause = next(c for c in clauses if c.startswith(f"{ld}: ") and
+                      c.endswith(f"({why})"))
+        ids = clause[len(ld) + 2:-len(why) - 3].split(" ", 1)[1].split(", ")
+        assert ids.count(bay) == 1
+    assert clauses[-1] == "bundle: bay B1 (governing point)"
