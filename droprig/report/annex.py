@@ -52,6 +52,8 @@ from droprig.solver import (
 Progress = Callable[[float, str], None]
 
 MIN_PT = 7.0
+IN_ROW_MIN = 26.0
+"""Least part height, pt, when a table row splits across pages (3 lines of 8.4 pt)."""
 """Smallest text size anywhere in the annex, pt."""
 LOADS_PER_TABLE = 3
 """Loads side by side in the bay × load table (more loads: a further table)."""
@@ -343,7 +345,11 @@ def _table(rows: list[list[object]], widths: Sequence[float], *, header_rows: in
         hs = _Styles.shared().head
         rows = [[Paragraph(esc(c), hs) if isinstance(c, str) and c else c for c in row]
                 if r < header_rows else row for r, row in enumerate(rows)]
-    t = Table(rows, colWidths=list(widths), repeatRows=header_rows, splitByRow=1)
+    # rows split between rows first; a row taller than what is left of the page
+    # (a long cell on a large project) splits inside itself, at least three
+    # lines a part, instead of stopping the layout (reportlab LayoutError)
+    t = Table(rows, colWidths=list(widths), repeatRows=header_rows, splitByRow=1,
+              splitInRow=IN_ROW_MIN)
     style = [
         ("FONTNAME", (0, 0), (-1, -1), fonts.REGULAR),
         ("FONTSIZE", (0, 0), (-1, -1), MIN_PT),

@@ -174,3 +174,24 @@ def test_covers_text_lists_every_bay_once_per_reason() -> None:
         ids = clause[len(ld) + 2:-len(why) - 3].split(" ", 1)[1].split(", ")
         assert ids.count(bay) == 1
     assert clauses[-1] == "bundle: bay B1 (governing point)"
+
+
+def test_table_row_taller_than_a_page_splits(tmp_path: pathlib.Path) -> None:
+    """A cell listing 900 bays (taller than an A4 frame) splits across pages at
+    7 pt instead of stopping the layout (before: reportlab LayoutError)."""
+    from reportlab.lib.pagesizes import A4
+    from reportlab.platypus import SimpleDocTemplate
+
+    from droprig.report import fonts
+
+    fonts.register()
+    long_cell = "\n".join(f"bay {k}-{k + 1}/A-B" for k in range(900))
+    t = annex._table([["Load", "Bays"], ["pallet", long_cell]], [100.0, 300.0])
+    out = tmp_path / "tall.pdf"
+    SimpleDocTemplate(str(out), pagesize=A4).build([t])
+    reader = PdfReader(str(out))
+    assert len(reader.pages) >= 2
+    text = "".join(p.extract_text() or "" for p in reader.pages)
+    assert all(f"bay {k}-{k + 1}/A-B" in text for k in range(900))
+    for page in reader.pages:
+        assert min(_text_sizes(page)) >= MIN_PT - 1e-6
