@@ -52,6 +52,8 @@ from droprig.solver import (
 Progress = Callable[[float, str], None]
 
 MIN_PT = 7.0
+IN_ROW_MIN = 26.0
+"""Least part height, pt, when a table row splits across pages (3 lines of 8.4 pt)."""
 """Smallest text size anywhere in the annex, pt."""
 LOADS_PER_TABLE = 3
 """Loads side by side in the bay × load table (more loads: a further table)."""
@@ -168,18 +170,30 @@ def merge_conditions(conds: Sequence[object]) -> tuple[list[object], dict[tuple,
     is printed once; and merge key -> printed number (1-based). The sentence of a
     merged condition is still the conditions engine's own
     (``Condition.sentence``)."""
-    merged: dict[tuple, object] = {}
+    # bays gathered per key first and the merged condition built once: replacing
+    # the dataclass at every merge copied the growing bay tuple each time
+    # (quadratic in the bays of a large project)
+    first: dict[tuple, object] = {}
+    bays_of: dict[tuple, dict[str, None]] = {}
+    count: dict[tuple, int] = {}
     for c in conds:
         k = _merge_key(c)
-        if k not in merged:
-            merged[k] = c
+        if k not in first:
+            first[k] = c
+            bays_of[k] = dict.fromkeys(getattr(c, "bays", ()))
+            count[k] = 1
             continue
-        m = merged[k]
-        bays_ = tuple(dict.fromkeys((*m.bays, *c.bays)))  # type: ignore[attr-defined]
-        if dataclasses.is_dataclass(m) and "region" in {f.name for f in
-                                                        dataclasses.fields(m)}:
+        bays_of[k].update(dict.fromkeys(c.bays))  # type: ignore[attr-defined]
+        count[k] += 1
+    merged: dict[tuple, object] = {}
+    for k, m in first.items():
+        if count[k] == 1 or not dataclasses.is_dataclass(m):
+            merged[k] = m
+            continue
+        bays_ = tuple(bays_of[k])
+        if "region" in {f.name for f in dataclasses.fields(m)}:
             merged[k] = dataclasses.replace(m, bays=bays_, region=None)  # type: ignore
-        elif dataclasses.is_dataclass(m):
+        else:
             merged[k] = dataclasses.replace(m, bays=bays_)  # type: ignore
     out = list(merged.values())
     return out, {k: n + 1 for n, k in enumerate(merged)}
@@ -331,7 +345,11 @@ def _table(rows: list[list[object]], widths: Sequence[float], *, header_rows: in
         hs = _Styles.shared().head
         rows = [[Paragraph(esc(c), hs) if isinstance(c, str) and c else c for c in row]
                 if r < header_rows else row for r, row in enumerate(rows)]
-    t = Table(rows, colWidths=list(widths), repeatRows=header_rows, splitByRow=1)
+    # rows split between rows first; a row taller than what is left of the page
+    # (a long cell on a large project) splits inside itself, at least three
+    # lines a part, instead of stopping the layout (reportlab LayoutError)
+    t = Table(rows, colWidths=list(widths), repeatRows=header_rows, splitByRow=1,
+              splitInRow=IN_ROW_MIN)
     style = [
         ("FONTNAME", (0, 0), (-1, -1), fonts.REGULAR),
         ("FONTSIZE", (0, 0), (-1, -1), MIN_PT),
@@ -560,22 +578,37 @@ def _marker(key: str, title: str, book: _Book) -> object:
 
 
 def _contents(entries: Sequence[tuple[str, str]], width: float, book: _Book) -> object:
-    """The contents list; page numbers are written by the canvas once known."""
+    """The contents list; page numbers are written by the canvas once known.
+
+    The list splits across pages (one 13 pt line per entry): a project with
+    hundreds of calculation sheets has a contents list longer than a page, which a
+    flowable that cannot split stops the layout with (reportlab ``LayoutError``).
+    """
     from reportlab.platypus import Flowable
 
     class Contents(Flowable):
         line = 13.0
 
+        def __init__(self, items: Sequence[tuple[str, str]]) -> None:
+            super().__init__()
+            self.items = list(items)
+
         def wrap(self, aw: float, ah: float) -> tuple[float, float]:
-            return (width, self.line * len(entries))
+            return (width, self.line * len(self.items))
+
+        def split(self, aw: float, ah: float) -> list[Flowable]:
+            n = int(ah // self.line)
+            if n < 1 or n >= len(self.items):
+                return []
+            return [Contents(self.items[:n]), Contents(self.items[n:])]
 
         def draw(self) -> None:
             c = self.canv
             page = c.droprig_page()
             c.setFont(fonts.REGULAR, 8.5)
             ox, oy = c.absolutePosition(0, 0)
-            for k, (key, title) in enumerate(entries):
-                y = self.line * (len(entries) - k - 1) + 3
+            for k, (key, title) in enumerate(self.items):
+                y = self.line * (len(self.items) - k - 1) + 3
                 c.drawString(0, y, title)
                 tw = c.stringWidth(title, fonts.REGULAR, 8.5)
                 c.setDash(1, 2)
@@ -584,7 +617,7 @@ def _contents(entries: Sequence[tuple[str, str]], width: float, book: _Book) -> 
                 c.setDash()
                 book.wanted.append((page, ox + width, oy + y, key))
 
-    return Contents()
+    return Contents(entries)
 
 
 # ----------------------------------------------------------------------- builder
@@ -861,13 +894,20 @@ class _Builder:
             zones = [z for z in self.zones if z.level_id == level.id]
             prot = [p for p in self.p.protection_areas if p.level_id == level.id]
             marks: dict[str, BayMark] = {}
+            # bay -> conditions in one pass over the conditions' bay lists (not
+            # bays × conditions × a tuple search: cubic on a large level)
+            nums_of: dict[str, list[str]] = {}
+            excl: set[str] = set()
+            for n, c in enumerate(self.conditions):
+                if c.level_id != level.id:
+                    continue
+                for bay_id in dict.fromkeys(c.bays):
+                    nums_of.setdefault(bay_id, []).append(f"C{n + 1}")
+                    if c.kind == "exclude_area":
+                        excl.add(bay_id)
             for b in bays(level):
-                nums, excluded = [], False
-                for n, c in enumerate(self.conditions):
-                    if c.level_id == level.id and b.id in c.bays:
-                        nums.append(f"C{n + 1}")
-                        excluded |= c.kind == "exclude_area"
-                marks[b.id] = BayMark(excluded, tuple(dict.fromkeys(nums)))
+                marks[b.id] = BayMark(b.id in excl,
+                                      tuple(dict.fromkeys(nums_of.get(b.id, []))))
             desc = [f"Level elevation {self.v(level.elevation, 'length')}."]
             for z in zones:
                 desc.append(
@@ -1177,8 +1217,7 @@ class _Builder:
             self.story.append(_marker(f"sheet:{n + 1}",
                                       f"{HEADINGS['sheets']} — B.{n + 1}", self.book))
             self.story.append(self.P(esc(title), st.h2))
-            covers = "; ".join(f"{c.load_name}: bay {c.bay_id} ({c.reason})"
-                               for c in g.covers)
+            covers = covers_text(g.covers)
             self.story.append(self.P(
                 f"Lift zone <b>{esc(g.zone_id)}</b> · load <b>{esc(g.load_name)}</b> · "
                 f"drop point x = {self.v(g.x, 'length')}, y = {self.v(g.y, 'length')} "
@@ -1304,6 +1343,25 @@ def _mass_source_cell(ld: object) -> str:
     if words == permit_fields.NOT_RECORDED:
         return f"{_NOT_RECORDED_CELL}: confirm (weighed, data plate, drawing)"
     return esc(words)
+
+
+def covers_text(covers: Sequence[content.Covered]) -> str:
+    """What a calculation sheet stands for, one clause per (load, reason) with its
+    bays in first-seen order: "pallet: bays A-B/1-2, B-C/1-2 (governing point)".
+
+    Linear in the number of covered (load, bay, reason) triples; a sheet covering
+    hundreds of bays prints each bay id once per reason instead of repeating the
+    load name and reason beside every bay. The text is a top-level paragraph of
+    the sheet, so a long list wraps and splits across pages.
+    """
+    groups: dict[tuple[str, str], dict[str, None]] = {}
+    for c in covers:
+        groups.setdefault((c.load_name, c.reason), {})[c.bay_id] = None
+    parts = []
+    for (load, reason), bay_ids in groups.items():
+        word = "bay" if len(bay_ids) == 1 else "bays"
+        parts.append(f"{load}: {word} {', '.join(bay_ids)} ({reason})")
+    return "; ".join(parts)
 
 
 def wrap_text(text: str, font: str, size: float, width: float) -> str:

@@ -322,6 +322,7 @@ def sheet_groups(project: Project, results: Results,
     groups: dict[tuple, list[Covered]] = {}
     reps: dict[tuple, tuple[CaseResult, int, str]] = {}
     order: list[tuple] = []
+    seen: dict[tuple, set[tuple[str, str, str]]] = {}
 
     def add(case: CaseResult, i: int, bay_id: str, reason: str) -> None:
         key = case_key(case, i)
@@ -329,10 +330,13 @@ def sheet_groups(project: Project, results: Results,
                       float(case.y[i]), reason)
         if key not in groups:
             groups[key] = []
+            seen[key] = set()
             reps[key] = (case, i, bay_id)
             order.append(key)
-        if all((c.load_name, c.bay_id, c.reason) != (cov.load_name, cov.bay_id, cov.reason)
-               for c in groups[key]):
+        # a set, not a scan of the group: a sheet can cover hundreds of bays
+        tag = (cov.load_name, cov.bay_id, cov.reason)
+        if tag not in seen[key]:
+            seen[key].add(tag)
             groups[key].append(cov)
 
     zone_ids = {z.id for z in zones}
@@ -341,6 +345,7 @@ def sheet_groups(project: Project, results: Results,
             continue
         level = project.level(case.level_id)
         ids = [b.id for b in level_bays(level)]
+        index_of = {bay_id: k for k, bay_id in enumerate(ids)}
         sums = sorted(_case_summaries(results, case.zone_id, case.load_name),
                       key=lambda b: (*severity_key(b), b.bay_id))
         for b in sums:
@@ -348,8 +353,8 @@ def sheet_groups(project: Project, results: Results,
             i = int(np.argmin(d2))
             if d2[i] <= 1e-12:
                 add(case, i, b.bay_id, "highest utilisation")
-            if b.bay_id in ids:
-                sel = np.flatnonzero(case.bay == ids.index(b.bay_id))
+            if b.bay_id in index_of:
+                sel = np.flatnonzero(case.bay == index_of[b.bay_id])
                 if sel.size:
                     h = np.where(np.isnan(case.allowable_drop_height[sel]), -np.inf,
                                  case.allowable_drop_height[sel])
