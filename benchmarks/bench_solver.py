@@ -29,7 +29,7 @@ ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT))
 
 from droprig.io.project_file import load_project  # noqa: E402
-from droprig.solver import analysis, loadpath, parallel  # noqa: E402
+from droprig.solver import analysis, evaluate, floor, loadpath, parallel  # noqa: E402
 
 DEMOS = sorted((ROOT / "demo_projects").glob("*.droprig"))
 
@@ -83,7 +83,7 @@ def bench_throughput(project, n: int) -> dict[str, float]:
     geo = analysis.point_geometry(fm, project, x, y)
     t_geo = time.perf_counter() - t
     t = time.perf_counter()
-    analysis.evaluate_case(fm, project, zone.loads[0], geo)
+    evaluate.evaluate_case(fm, project, zone.loads[0], geo)
     t_case = time.perf_counter() - t
     mpp = _members_per_point(fm, geo)
     return {"points": n, "members_per_point": mpp, "t_path": t_geo, "t_checks": t_case,
@@ -93,20 +93,20 @@ def bench_throughput(project, n: int) -> dict[str, float]:
 def bench_million(project, n: int, runs: int = 3) -> dict[str, float]:
     """10⁶ random drop points of the first load of the first zone: the load path
     alone, and the full analysis as ``analyse`` runs a large zone
-    (:func:`analysis.evaluate_points`: geometry and checks block by block on all
+    (:func:`evaluate.evaluate_points`: geometry and checks block by block on all
     cores); median of ``runs`` after one warm-up; peak traced memory of one run."""
     zone = project.lift_zones[0]
     load = zone.loads[0]
     fm = analysis.floor_model(project.level(zone.level_id), project.settings)
     x, y = _random_points(fm.level, n, seed=1)
-    analysis.evaluate_points(fm, project, [load], x[:100_000], y[:100_000])  # warm-up
+    evaluate.evaluate_points(fm, project, [load], x[:100_000], y[:100_000])  # warm-up
     t_path = _median_time(lambda: analysis.point_geometry(fm, project, x, y), runs)
-    t_full = _median_time(lambda: analysis.evaluate_points(fm, project, [load], x, y), runs)
+    t_full = _median_time(lambda: evaluate.evaluate_points(fm, project, [load], x, y), runs)
     tracemalloc.start()
     analysis.point_geometry(fm, project, x, y)
     _, peak_geo = tracemalloc.get_traced_memory()
     tracemalloc.reset_peak()
-    analysis.evaluate_points(fm, project, [load], x, y)
+    evaluate.evaluate_points(fm, project, [load], x, y)
     _, peak = tracemalloc.get_traced_memory()
     tracemalloc.stop()
     return {"points": n, "t_path": t_path, "t_full": t_full,
@@ -123,11 +123,11 @@ def bench_naive(project, n_loop: int, n_vec: int) -> dict[str, float]:
     t = time.perf_counter()
     for i in range(n_loop):
         g = analysis.point_geometry(fm, project, x[i:i + 1], y[i:i + 1])
-        analysis.evaluate_case(fm, project, load, g)
+        evaluate.evaluate_case(fm, project, load, g)
     per_loop = (time.perf_counter() - t) / n_loop
     t = time.perf_counter()
     g = analysis.point_geometry(fm, project, x[:n_vec], y[:n_vec])
-    analysis.evaluate_case(fm, project, load, g)
+    evaluate.evaluate_case(fm, project, load, g)
     per_vec = (time.perf_counter() - t) / n_vec
     return {"per_point_loop_us": per_loop * 1e6, "per_point_vectorised_us": per_vec * 1e6,
             "ratio": per_loop / per_vec}
@@ -235,7 +235,7 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
     print("\n2. demo projects, full analyse() (median)")
     for name, proj in projects:
         def cold(proj=proj):
-            analysis._FLOORS.clear()
+            floor._FLOORS.clear()
             analysis.analyse(proj)
 
         analysis.analyse(proj)
@@ -253,7 +253,7 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
           f"peak {mil['peak_MB_path']:.0f} MB")
     print(f"   full analysis with all checks: {mil['t_full']:.2f} s, "
           f"peak {mil['peak_MB_full']:.0f} MB  target ≤ 1 s, ≤ 500 MB")
-    nv = analysis.loadpath_chunk()
+    nv = evaluate.loadpath_chunk()
     naive = bench_naive(proj0, 100 if q else 500, nv)
     out["naive"] = naive
     print(f"\n4. naive per-point loop: {naive['per_point_loop_us']:.0f} µs/point vs "

@@ -98,10 +98,10 @@ def test_allowable_heights_print_like_the_advice(value, system, nearest, down):
 def test_keep_clear_names_the_thresholds_it_used() -> None:
     # The exclusion advice must not contradict a tiny allowable height shown beside
     # it: it names the smallest height limit and largest mat travel droprig offers
-    # (analysis.MIN_USEFUL_HEIGHT, MAX_MAT_TRAVEL; common practice, no source).
+    # (summary.MIN_USEFUL_HEIGHT, MAX_MAT_TRAVEL; common practice, no source).
     from droprig import advice
-    from droprig.solver import analysis
+    from droprig.solver import summary
 
-    assert analysis.MIN_USEFUL_HEIGHT == 0.05
-    assert analysis.MAX_MAT_TRAVEL == 0.3
+    assert summary.MIN_USEFUL_HEIGHT == 0.05
+    assert summary.MAX_MAT_TRAVEL == 0.3
     assert "50 mm" in advice.KEEP_CLEAR and "0.3 m" in advice.KEEP_CLEAR

@@ -5,9 +5,9 @@ Step titles hold names only (members, checks, span types), never a number: every
 value a step depends on is one of its ``inputs`` (value SI, quantity), so the
 edges write it in the user's units.
 
-The numbers come from the very same vectorised evaluation as the analysis
-(:func:`droprig.solver.analysis.evaluate_case` on a one-point array), so the
-trace and the results agree to machine precision.
+The numbers are the step results of the very same chain as the analysis
+(:func:`droprig.solver.evaluate.evaluate_chain` on a one-point array,
+:mod:`droprig.solver.chain`), so the trace and the results agree to machine precision.
 """
 
 from __future__ import annotations
@@ -18,12 +18,21 @@ import numpy as np
 
 from droprig.model import ModelError, Project
 from droprig.solver import droppoints
-from droprig.solver.analysis import (
+from droprig.solver.chain import (
     BRITTLE,
-    evaluate_case,
-    floor_model,
-    point_geometry,
+    BeyondYield,
+    Checks,
+    Compliance,
+    Demands,
+    Impact,
+    InverseAnswers,
+    LoadInputs,
+    StruckMass,
+    outputs,
 )
+from droprig.solver.evaluate import evaluate_chain
+from droprig.solver.floor import floor_model
+from droprig.solver.geometry import point_geometry
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, RESPONSES, Trace, TraceStep
 
@@ -54,6 +63,12 @@ def _v(x: object) -> float:
     return float(np.asarray(x).reshape(-1)[0])
 
 
+def _detail(a: np.ndarray | None) -> np.ndarray:
+    """A value the chain keeps for the trace (run with ``detail``)."""
+    assert a is not None, "the chain was run without detail"
+    return a
+
+
 def trace_point(project: Project, zone_id: str, load_name: str, x: float,
                 y: float) -> Trace:
     """Every step of the analysis of ``load_name`` of zone ``zone_id`` at plan point
@@ -76,7 +91,10 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     if geo.path.pair[0] < 0:
         raise ModelError("trace.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}")
-    r = evaluate_case(fm, project, load, geo, detail=True)
+    chain = evaluate_chain(fm, project, load, geo, detail=True)
+    inp, comp, sm, imp = chain[LoadInputs], chain[Compliance], chain[StruckMass], chain[Impact]
+    dem, ck, by, inv = chain[Demands], chain[Checks], chain[BeyondYield], chain[InverseAnswers]
+    out = outputs(chain)
     lv = fm.level
     members = lv.members
     fr = fm.frame
@@ -119,11 +137,11 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         "f_s = Σ_k w_k² g_k(a_k, a_k) + rᵀ D r (internal work of the unit-load system)",
         {"w1·g1": (g_own[0], "compliance"), "w2·g2": (g_own[1], "compliance"),
          "rᵀDr": (float(path.r[0] @ path.u[0]), "compliance")},
-        r["_f_s"][0], "compliance", _SRC_GREEN)
+        comp.f_s[0], "compliance", _SRC_GREEN)
     add("Deck compliance: indentation under the footprint + strip bending", "f_deck",
         "f_deck = 1/(2a·E/(1 − ν²)) + s²(S − s)²/(3·E·I·S)",
         {"s": (path.strip_pos[0], "length"), "S": (path.strip_span[0], "length")},
-        r["_f_deck"][0], "compliance",
+        comp.f_deck[0], "compliance",
         "Sneddon 1965 / Johnson, Contact Mechanics §3.8; AISC Manual Table 3-23 case 8 "
         "(droprig.solver.contact)")
     k_load = load.contact_stiffness
@@ -131,51 +149,51 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         + ("" if k_load is not None else ": none given, load taken as rigid (conservative)"),
         "1/k_load", "1/k_load (0 for a rigid load)",
         {"k_load": (k_load, "stiffness")} if k_load is not None else {},
-        r["_f_load"][0], "compliance", _SRC_SERIES)
+        inp.f_load[0], "compliance", _SRC_SERIES)
     add("Compliance of the struck point", "f", "f = f_s + f_deck + 1/k_load + 1/k_mat",
-        {"f_s": (r["_f_s"][0], "compliance"), "f_deck": (r["_f_deck"][0], "compliance"),
-         "1/k_load": (r["_f_load"][0], "compliance"),
-         "1/k_mat": (r["_f_mat"][0], "compliance")},
-        r["_f"][0], "compliance", _SRC_SERIES + "; Engineering ToolBox, Impact Force")
+        {"f_s": (comp.f_s[0], "compliance"), "f_deck": (comp.f_deck[0], "compliance"),
+         "1/k_load": (inp.f_load[0], "compliance"),
+         "1/k_mat": (inp.f_mat[0], "compliance")},
+        comp.f[0], "compliance", _SRC_SERIES + "; Engineering ToolBox, Impact Force")
     add("Effective struck mass", "m_e",
         "m_e = (f_s/(f_s + f_deck + 1/k_load))²·Σ_m ∫ μ_m (w_m(x)/w_s(p))² dx",
-        {}, r["effective_mass"][0], "mass", _SRC_RAYLEIGH)
+        {}, sm.m_e[0], "mass", _SRC_RAYLEIGH)
     M = load.mass
     add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",
-        {"M": (M, "mass"), "m_e": (r["effective_mass"][0], "mass")}, r["_eta"][0],
+        {"M": (M, "mass"), "m_e": (sm.m_e[0], "mass")}, sm.eta[0],
         "dimensionless", _SRC_ETA)
     add("Free fall onto the struck surface", "h",
         "h = drop height above the deck or mat top",
-        {"t_mat": (r["_t_mat"][0], "length")}, r["drop_height"][0], "length",
+        {"t_mat": (inp.t_mat[0], "length")}, inp.h[0], "length",
         "load data (LiftLoad.height_above)")
     W = load.weight
     add("Static deflection", "δ_st", "δ_st = W·f",
-        {"W": (W, "force"), "f": (r["_f"][0], "compliance")}, r["static_deflection"][0],
+        {"W": (W, "force"), "f": (comp.f[0], "compliance")}, imp.d_st[0],
         "length", _SRC_GERE)
-    add("Dynamic factor", "K", "K = 1 + √(1 + 2ηh/δ_st)" if r["_f_mat"][0] >= 0 else "",
-        {"η": (r["_eta"][0], "dimensionless"), "h": (r["drop_height"][0], "length"),
-         "δ_st": (r["static_deflection"][0], "length")}, r["dynamic_factor"][0],
+    add("Dynamic factor", "K", "K = 1 + √(1 + 2ηh/δ_st)" if inp.f_mat[0] >= 0 else "",
+        {"η": (sm.eta[0], "dimensionless"), "h": (inp.h[0], "length"),
+         "δ_st": (imp.d_st[0], "length")}, imp.K[0],
         "dimensionless", _SRC_GERE)
-    add("Peak impact force", "F", "F = K·W" if r["_crush"][0] == 0 else
+    add("Peak impact force", "F", "F = K·W" if imp.crush[0] == 0 else
         "F = crush force, or elastic after bottoming (droprig.solver.impact.impact_crushable)",
-        {"K": (r["dynamic_factor"][0], "dimensionless"), "W": (W, "force")},
-        r["peak_force"][0], "force", _SRC_GERE)
+        {"K": (imp.K[0], "dimensionless"), "W": (W, "force")},
+        imp.F[0], "force", _SRC_GERE)
     add("Peak deflection of the struck point", "δ_max", "δ_max = K·δ_st",
-        {"K": (r["dynamic_factor"][0], "dimensionless"),
-         "δ_st": (r["static_deflection"][0], "length")}, r["max_deflection"][0], "length",
+        {"K": (imp.K[0], "dimensionless"),
+         "δ_st": (imp.d_st[0], "length")}, imp.d_max[0], "length",
         _SRC_GERE)
     m1 = int(path.members[0, 0]) if path.share[0, 0] >= path.share[0, 1] else \
         int(path.members[0, 1])
     limit = fr.L[m1] / project.settings.deflection_limit_ratio
     add(f"Deflection against the limit span/N of {members[m1].id} "
         "(information only, not a pass criterion)", "δ_max/δ_lim",
-        "δ_max / (L/N)", {"δ_max": (r["max_deflection"][0], "length"),
+        "δ_max / (L/N)", {"δ_max": (imp.d_max[0], "length"),
                           "L/N": (limit, "length"),
                           "N": (project.settings.deflection_limit_ratio, "dimensionless")},
-        r["max_deflection"][0] / limit, "dimensionless",
+        imp.d_max[0] / limit, "dimensionless",
         "IBC Table 1604.3 (serviceability; information for an accidental impact)")
     add("Deceleration of the load", "a/g", "a/g = F/W − 1",
-        {"F": (r["peak_force"][0], "force"), "W": (W, "force")}, r["deceleration_g"][0],
+        {"F": (imp.F[0], "force"), "W": (W, "force")}, out["deceleration_g"][0],
         "dimensionless", "Newton's second law")
     # ---- checks
     qty = {"flexure": "moment", "shear": "force", "web_yielding": "force",
@@ -184,52 +202,52 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
               "deck_punching"):
         q = qty[c]
         unit_q = "length" if q == "moment" else "dimensionless"
-        add(f"{c.replace('_', ' ').capitalize()} — {mname(r[f'_{c}_member'][0])}", f"U_{c}",
+        add(f"{c.replace('_', ' ').capitalize()} — {mname(dem.checks[c].member[0])}", f"U_{c}",
             "U = |F·u + E| / R",
-            {"F": (r["peak_force"][0], "force"), "u": (r[f"_{c}_unit"][0], unit_q),
-             "E": (r[f"_{c}_exist"][0], q), "R": (r[f"_{c}_R"][0], q)},
-            r[f"_{c}_U"][0], "dimensionless", _SRC_CHECK[c])
-    add("Utilisation", "U", "U = max over the checks", {}, r["utilisation"][0],
+            {"F": (imp.F[0], "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
+             "E": (_detail(dem.checks[c].exist)[0], q), "R": (_detail(dem.checks[c].resist)[0], q)},
+            dem.checks[c].U[0], "dimensionless", _SRC_CHECK[c])
+    add("Utilisation", "U", "U = max over the checks", {}, ck.U[0],
         "dimensionless", "largest demand/resistance ratio (common practice, no source)")
     add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
-        {}, r["_F_allow"][0], "force", "linear checks")
+        {}, ck.F_allow[0], "force", "linear checks")
     add("Allowable drop height (elastic)", "h_allow",
         "h = δ_st((K_a − 1)² − 1)/(2η), K_a = F_allow/W",
-        {"F_allow": (r["_F_allow"][0], "force"), "W": (W, "force"),
-         "δ_st": (r["static_deflection"][0], "length"), "η": (r["_eta"][0], "dimensionless")},
-        r["allowable_drop_height"][0], "length", _SRC_GERE + " solved for h")
+        {"F_allow": (ck.F_allow[0], "force"), "W": (W, "force"),
+         "δ_st": (imp.d_st[0], "length"), "η": (sm.eta[0], "dimensionless")},
+        inv.h_el[0], "length", _SRC_GERE + " solved for h")
     add("Plastic collapse resistance of the path", "R_p",
         "R_p = min over path members of the collapse load for a load at p",
-        {}, r["_R_p"][0], "force", "virtual work (Neal); droprig.solver.beam")
-    if r["_no_hinge"][0]:
+        {}, by.R_p[0], "force", "virtual work (Neal); droprig.solver.beam")
+    if by.no_hinge[0]:
         add("Flexure beyond the resistance of a section that cannot form a plastic hinge "
-            f"({mname(r['governing_member'][0])}): no plastic reserve, exceeds",
+            f"({mname(by.gov_member[0])}): no plastic reserve, exceeds",
             "F/F_allow,nh", "F / F_allow of the members without hinge capacity",
-            {"F": (r["peak_force"][0], "force"), "F_allow,nh": (r["_nh_fa"][0], "force")},
-            r["peak_force"][0] / r["_nh_fa"][0], "dimensionless", _SRC_HINGE)
-    if r["response"][0] != 0 and r["_flexure_U"][0] > 1.0:
+            {"F": (imp.F[0], "force"), "F_allow,nh": (by.nh_fa[0], "force")},
+            imp.F[0] / by.nh_fa[0], "dimensionless", _SRC_HINGE)
+    if by.response[0] != 0 and dem.checks["flexure"].U[0] > 1.0:
         add("Brittle checks at the plastic force", "U_brittle", "U at F = min(F, R_p)",
-            {"R_p": (r["_R_p"][0], "force")}, r["_Ub_cap"][0], "dimensionless",
+            {"R_p": (by.R_p[0], "force")}, ck.Ub_cap[0], "dimensionless",
             "no plastic reserve in " + ", ".join(BRITTLE)
             + " (DNV-RP-C204 accidental limit state, from memory)")
         add("Plastic deflection", "δ_m", "R_p(δ_m − δ_y/2) = ηWh + Wδ_m",
-            {"R_p": (r["_R_p"][0], "force"), "δ_y": (r["_R_p"][0] * r["_f"][0], "length"),
-             "h": (r["_h_struct"][0], "length")}, r["_d_m"][0], "length", _SRC_PLASTIC)
+            {"R_p": (by.R_p[0], "force"), "δ_y": (by.R_p[0] * comp.f[0], "length"),
+             "h": (by.h_struct[0], "length")}, by.d_m[0], "length", _SRC_PLASTIC)
         add("Ductility", "μ", "μ = δ_m / δ_y", {"μ_lim": (project.settings.ductility_limit,
                                                         "dimensionless")},
-            r["_ductility"][0], "dimensionless", _SRC_PLASTIC)
+            by.ductility[0], "dimensionless", _SRC_PLASTIC)
         add("Support rotation", "θ", "θ = atan(δ_m / arm)",
-            {"θ_lim": (project.settings.rotation_limit, "angle")}, r["_theta"][0], "angle",
+            {"θ_lim": (project.settings.rotation_limit, "angle")}, by.theta[0], "angle",
             _SRC_PLASTIC)
     add("Allowable drop height (beyond yield)", "h_allow,pl",
-        "h = δ_y(R_p(μ − ½) − Wμ)/(ηW)", {"R_p": (r["_R_p"][0], "force")},
-        r["allowable_drop_height_plastic"][0], "length", _SRC_PLASTIC)
+        "h = δ_y(R_p(μ − ½) − Wμ)/(ηW)", {"R_p": (by.R_p[0], "force")},
+        inv.h_pl[0], "length", _SRC_PLASTIC)
     add("Allowable mass at the planned height", "M_allow",
-        "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e))))", {}, r["allowable_mass"][0], "mass",
+        "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e))))", {}, inv.m_allow[0], "mass",
         _SRC_GERE + " solved for M")
     add("Spring mat that keeps the point elastic", "k_req", "k = 1/(f_req − f_s)", {},
-        r["required_mat_stiffness"][0], "stiffness", "series springs; " + _SRC_GERE)
-    gm = int(r["governing_member"][0])
+        inv.k_req[0], "stiffness", "series springs; " + _SRC_GERE)
+    gm = int(by.gov_member[0])
     return Trace(zone.id, load.name, float(x), float(y), tuple(steps),
-                 RESPONSES[int(r["response"][0])], mname(gm),
-                 CHECKS[int(r["governing_check"][0])])
+                 RESPONSES[int(by.response[0])], mname(gm),
+                 CHECKS[int(by.gov_check[0])])

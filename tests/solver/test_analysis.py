@@ -30,13 +30,34 @@ from droprig.model import (
     Settings,
     generate_level,
 )
-from droprig.solver import analysis, droppoints
+from droprig.solver import analysis, droppoints, summary, unit_actions
+from droprig.solver.chain import (
+    BeyondYield,
+    Chain,
+    Compliance,
+    Demands,
+    StruckMass,
+    outputs,
+)
+from droprig.solver.evaluate import evaluate_chain
 from droprig.solver.results import ADVICE_KINDS, CHECKS, ELASTIC, EXCEEDS, PLASTIC, RESPONSES
 from droprig.solver.trace import trace_point
 
 REL = 1e-9  # closed forms in floating point
 G = 9.80665  # standard gravity (CGPM 1901)
 
+
+
+class _AtPoints:
+    """The chain of the analysis at some points: public outputs by field name
+    (``r["peak_force"]``), step results on ``r.chain`` (``r.chain[Compliance].f_s``)."""
+
+    def __init__(self, chain: Chain) -> None:
+        self.chain = chain
+        self.out = outputs(chain)
+
+    def __getitem__(self, key: str) -> np.ndarray:
+        return self.out[key]
 
 def _indentation(area: float, fck: float = 30e6) -> float:
     """Deck indentation compliance under a rigid flat footprint of ``area`` (m/N):
@@ -79,7 +100,7 @@ def _zone(loads, level_id="L1", centre=(4.5, 3.0), r_max=30.0, **kw):
 
 def _at(fm, project, load, xs, ys):
     geo = analysis.point_geometry(fm, project, np.asarray(xs, float), np.asarray(ys, float))
-    return analysis.evaluate_case(fm, project, load, geo, detail=True)
+    return _AtPoints(evaluate_chain(fm, project, load, geo))
 
 
 # --------------------------------------------------------------------------- hand check
@@ -114,11 +135,11 @@ def test_hand_check_one_bay():
     w0 = 42.2 * G + (0.13 * 2400.0 * G + 1000.0) * 3.0
     M = F * 6.0 / 4.0 + w0 * 6.0**2 / 8.0
     Mr = 6.28e-4 * 355e6
-    assert r["_f_s"][0] == pytest.approx(f_s, rel=REL)
-    assert r["_f"][0] == pytest.approx(f, rel=REL)
+    assert r.chain[Compliance].f_s[0] == pytest.approx(f_s, rel=REL)
+    assert r.chain[Compliance].f[0] == pytest.approx(f, rel=REL)
     assert r["dynamic_factor"][0] == pytest.approx(K, rel=REL)
     assert r["peak_force"][0] == pytest.approx(F, rel=REL)
-    assert r["_flexure_U"][0] == pytest.approx(M / Mr, rel=REL)
+    assert r.chain[Demands].checks["flexure"].U[0] == pytest.approx(M / Mr, rel=REL)
     # the beam's bending governs this point; the response is elastic
     assert r["utilisation"][0] == pytest.approx(M / Mr, rel=REL)
     assert CHECKS[r["governing_check"][0]] == "flexure"
@@ -166,7 +187,8 @@ def test_crushable_layer(stroke):
     fm = analysis.build_floor(level, proj.settings)
     r = _at(fm, proj, load, [3.0], [3.0])
     W, Fc = 1000.0 * G, 40e3
-    f_s = r["_f_s"][0] + r["_f_deck"][0]  # framing and deck behind the layer
+    comp = r.chain[Compliance]
+    f_s = comp.f_s[0] + comp.f_deck[0]  # framing and deck behind the layer
     # crush depth from ηWh + W(F_c·f + c) = F_c²f/2 + F_c·c (η = 1)
     c = (W * 0.5 + W * Fc * f_s - 0.5 * Fc**2 * f_s) / (Fc - W)
     if c <= stroke:
@@ -200,17 +222,17 @@ def test_beyond_yield_energy_balance():
                     ductility_limit=30.0, rotation_limit=math.radians(15.0))
     fm = analysis.build_floor(level, proj.settings)
     r = _at(fm, proj, load, [3.0, 6.0], [3.0, 3.0])
-    assert np.all(r["_flexure_U"] > 1.0)
+    assert np.all(r.chain[Demands].checks["flexure"].U > 1.0)
     pl = r["response"] == PLASTIC
     assert pl.any()
     W = load.weight
-    eta = r["_eta"][pl]
-    Rp = r["_R_p"][pl]
-    dy = Rp * r["_f"][pl]
+    eta = r.chain[StruckMass].eta[pl]
+    Rp = r.chain[BeyondYield].R_p[pl]
+    dy = Rp * r.chain[Compliance].f[pl]
     dm = (eta * W * 0.3 + Rp * dy / 2) / (Rp - W)
     assert r["plastic_deflection"][pl] == pytest.approx(dm, rel=REL)
     # ductility of the framing: the deck's elastic travel R_p·f_deck is taken out
-    f_s, f = r["_f_s"][pl], r["_f"][pl]
+    f_s, f = r.chain[Compliance].f_s[pl], r.chain[Compliance].f[pl]
     assert r["ductility"][pl] == pytest.approx((dm - Rp * (f - f_s)) / (Rp * f_s), rel=REL)
     # a simple beam struck at midspan by itself: R_p = (Mp − M0)/(L/4) (first hinge)
     assert np.all(Rp <= (6.28e-4 * 355e6) / 1.5 + 1e-6)
@@ -224,7 +246,7 @@ def test_drop_over_a_column_is_finite():
     proj = _project(level, [_zone([load])])
     fm = analysis.build_floor(level, proj.settings)
     r = _at(fm, proj, load, [0.0], [0.0])
-    assert r["_f_s"][0] == 0.0
+    assert r.chain[Compliance].f_s[0] == 0.0
     W = 1000.0 * G
     f = _indentation(1.0)
     K = 1.0 + math.sqrt(1.0 + 2 * 0.5 / (W * f))
@@ -309,12 +331,12 @@ def test_bay_summaries_carry_advice_numbers(busy_project):
         assert b.planned_drop_height == case.planned_drop_height
         if b.advice_kind in ("limit_height", "limit_or_mat"):
             assert b.height_limit is not None
-            assert b.height_limit >= analysis.MIN_USEFUL_HEIGHT
+            assert b.height_limit >= summary.MIN_USEFUL_HEIGHT
         else:
             assert b.height_limit is None
         if b.advice_kind in ("mat", "limit_or_mat", "plastic_mat"):
             assert b.mat_stiffness_max is not None and b.mat_stiffness_max > 0
-            assert b.mat_travel is None or b.mat_travel <= analysis.MAX_MAT_TRAVEL
+            assert b.mat_travel is None or b.mat_travel <= summary.MAX_MAT_TRAVEL
         else:
             assert b.mat_stiffness_max is None
         assert (b.advice_kind == "none") == (b.response == "elastic")
@@ -334,7 +356,7 @@ def test_web_resistance_shortcut_equals_the_clause(basis):
     lb = np.repeat(rng.choice([0.1, 0.5, 1.2], n)[:, None], 2, axis=1)
     dist = rng.uniform(0.0, 3.0, (n, 2))
     for fn in (capacity.web_local_yielding, capacity.web_crippling):
-        got = analysis._web_resistance(fm, fn, mem, lb, dist)
+        (got,) = unit_actions.web_resistances(fm, (fn,), mem, lb, dist)
         for i in range(0, n, 37):
             for k in range(2):
                 m = level.members[mem[i, k]]

@@ -30,6 +30,15 @@ from droprig.model import (
     generate_level,
 )
 from droprig.solver import analysis, capacity
+from droprig.solver.chain import (
+    Chain,
+    Compliance,
+    Demands,
+    LoadInputs,
+    StruckMass,
+    outputs,
+)
+from droprig.solver.evaluate import evaluate_chain
 from droprig.solver.member import assess_member
 from droprig.solver.results import CHECKS, RESPONSES
 from droprig.solver.trace import trace_point
@@ -38,6 +47,18 @@ G = 9.80665  # standard gravity (CGPM 1901)
 REL = 1e-9  # closed forms in floating point
 SPAN = 6.0  # m, infill beam span of the test floor
 K_SKID = 5e7  # N/m: a stiffness in the range of a steel skid (input only)
+
+
+class _AtPoints:
+    """The chain of the analysis at some points: public outputs by field name
+    (``r["peak_force"]``), step results on ``r.chain`` (``r.chain[Compliance].f_s``)."""
+
+    def __init__(self, chain: Chain) -> None:
+        self.chain = chain
+        self.out = outputs(chain)
+
+    def __getitem__(self, key: str) -> np.ndarray:
+        return self.out[key]
 
 
 @pytest.fixture(scope="module")
@@ -60,7 +81,7 @@ def _evaluate(level, load, **settings):
         LiftZone("Z", "zone", level.id, (3.0, 3.0), 0.0, 10.0, loads=(load,)),))
     fm = analysis.build_floor(level, proj.settings)
     geo = analysis.point_geometry(fm, proj, np.array([3.0]), np.array([3.0]))
-    return proj, analysis.evaluate_case(fm, proj, load, geo, detail=True)
+    return proj, _AtPoints(evaluate_chain(fm, proj, load, geo))
 
 
 # --------------------------------------------------------------------------- model
@@ -85,10 +106,11 @@ def test_load_spring_adds_its_compliance_in_series(single_beam_floor) -> None:
     soft = LiftLoad("skid", 2000.0, 0.5, 0.5, drop_height=0.1, contact_stiffness=K_SKID)
     _, r0 = _evaluate(single_beam_floor, rigid)
     _, r1 = _evaluate(single_beam_floor, soft)
-    assert r0["_f_load"][0] == 0.0
-    assert r0["_f"][0] == pytest.approx(r0["_f_s"][0] + r0["_f_deck"][0], rel=REL)
-    f = r0["_f"][0] + 1.0 / K_SKID
-    assert r1["_f"][0] == pytest.approx(f, rel=REL)
+    assert r0.chain[LoadInputs].f_load[0] == 0.0
+    c0 = r0.chain[Compliance]
+    assert c0.f[0] == pytest.approx(c0.f_s[0] + c0.f_deck[0], rel=REL)
+    f = r0.chain[Compliance].f[0] + 1.0 / K_SKID
+    assert r1.chain[Compliance].f[0] == pytest.approx(f, rel=REL)
     W = 2000.0 * G
     K = 1.0 + math.sqrt(1.0 + 2.0 * 0.1 / (W * f))
     assert r1["dynamic_factor"][0] == pytest.approx(K, rel=REL)
@@ -101,8 +123,8 @@ def test_rigid_default_keeps_the_beam_hand_check(single_beam_floor) -> None:
     load adds nothing."""
     w16 = get_section("W16X26")
     _, r = _evaluate(single_beam_floor, LiftLoad("skid", 2000.0, 0.5, 0.5, drop_height=0.1))
-    assert r["_f_s"][0] == pytest.approx(SPAN**3 / (48 * 200e9 * w16.Ix), rel=0.01)
-    assert r["_f_load"][0] == 0.0
+    assert r.chain[Compliance].f_s[0] == pytest.approx(SPAN**3 / (48 * 200e9 * w16.Ix), rel=0.01)
+    assert r.chain[LoadInputs].f_load[0] == 0.0
 
 
 @pytest.mark.parametrize("k", [1e10, 1e9, 1e8, 1e7, 1e6])
@@ -127,7 +149,7 @@ def test_trace_shows_the_load_spring_with_its_source(single_beam_floor) -> None:
     assert step.inputs["k_load"][0] == K_SKID
     assert "series" in step.source and "Gere" in step.source
     f_step = next(s for s in tr.steps if s.symbol == "f")
-    assert f_step.value == pytest.approx(r["_f"][0], rel=REL)
+    assert f_step.value == pytest.approx(r.chain[Compliance].f[0], rel=REL)
 
 
 # --------------------------------------------------------------------------- droprig check
@@ -186,7 +208,7 @@ def test_check_and_analyse_agree_on_a_section_without_hinge_capacity(
     chk = assess_member(get_section("W16X26"), get_grade("A992"), "simple", SPAN, SPAN / 2,
                         2000.0, 0.2, basis="aisc360", bearing=0.5, self_weight=False,
                         beam_mass=False)
-    assert r["_flexure_U"][0] > 1.0 and chk["utilisation"] > 1.0
+    assert r.chain[Demands].checks["flexure"].U[0] > 1.0 and chk["utilisation"] > 1.0
     want = "exceeds" if gate else "plastic"
     assert chk["response"] == want
     assert RESPONSES[r["response"][0]] == want
@@ -217,11 +239,10 @@ def test_struck_mass_a_rounding_error_from_a_column_stays_physical() -> None:
     fm = analysis.build_floor(level, proj.settings)
     xs = np.array([30 * ft, 30 * ft, 0.0])
     ys = np.array([30 * ft + 4e-15, 30 * ft - 4e-15, 30 * ft + 4e-15])
-    r = analysis.evaluate_case(fm, proj, load, analysis.point_geometry(fm, proj, xs, ys),
-                               detail=True)
+    r = _AtPoints(evaluate_chain(fm, proj, load, analysis.point_geometry(fm, proj, xs, ys)))
     total = sum(m.section.mass_per_length * m.span for m in level.members)
     assert np.all(r["effective_mass"] >= 0.0) and np.all(r["effective_mass"] <= total)
     # Gere Eq. 9-94 with η from that mass: K = 1 + √(1 + 2ηh/δst)
-    K = 1 + np.sqrt(1 + 2 * r["_eta"] * 0.9 / r["static_deflection"])
+    K = 1 + np.sqrt(1 + 2 * r.chain[StruckMass].eta * 0.9 / r["static_deflection"])
     np.testing.assert_allclose(r["dynamic_factor"], K, rtol=REL)
     assert np.all(r["dynamic_factor"] > 10.0)  # a hard landing near a column, not K ≈ 2

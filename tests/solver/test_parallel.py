@@ -9,7 +9,8 @@ import numpy as np
 import pytest
 
 from droprig.io.project_file import load_project
-from droprig.solver import analysis, loadpath, memory, parallel
+from droprig.solver import analysis, evaluate, floor, loadpath, memory, parallel
+from droprig.solver.chain import FIELDS
 
 ROOT = Path(__file__).resolve().parents[2]
 
@@ -61,7 +62,7 @@ def test_results_do_not_depend_on_threads_or_block_size(monkeypatch, name):
         monkeypatch.setenv("DROPRIG_THREADS", threads)
         monkeypatch.setattr(loadpath, "CHUNK", block)
         geo = analysis.point_geometry(fm, project, x, y)
-        return analysis.evaluate_case(fm, project, list(zone.loads), geo, li)
+        return evaluate.evaluate_case(fm, project, list(zone.loads), geo, li)
 
     ref = run("1", 1 << 14)  # one block
     for threads, block in (("1", 700), ("2", 700), ("4", 512)):
@@ -84,12 +85,12 @@ def test_block_path_for_large_zones_gives_the_same_results(monkeypatch, name):
     # the loads): the results equal the tiled path of smaller zones bit for bit
     project = load_project(ROOT / "demo_projects" / f"{name}.droprig")
     ref = analysis.analyse(project)
-    monkeypatch.setattr(analysis, "CACHE_MAX_POINTS", 100)
+    monkeypatch.setattr(evaluate, "CACHE_MAX_POINTS", 100)
     monkeypatch.setattr(loadpath, "CHUNK", 1000)
     monkeypatch.setenv("DROPRIG_THREADS", "2")
-    analysis._FLOORS.clear()
+    floor._FLOORS.clear()
     got = analysis.analyse(project)
     assert got.bays == ref.bays
     for c_ref, c_got in zip(ref.cases, got.cases, strict=True):
-        for k in analysis._FIELDS:
+        for k in FIELDS:
             np.testing.assert_array_equal(getattr(c_got, k), getattr(c_ref, k), err_msg=k)

@@ -16,7 +16,7 @@ import numpy as np
 import pytest
 
 from droprig.io.project_file import load_project
-from droprig.solver import analysis
+from droprig.solver import analysis, evaluate
 from droprig.solver.linear_checks import Family
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -109,7 +109,7 @@ def test_outputs_unchanged_by_the_speed_work(name):
     geo = analysis.point_geometry(fm, project, x, y)
     np.testing.assert_allclose(geo.path.f, ref["f"], rtol=REL, atol=0.0)
     np.testing.assert_allclose(geo.path.m_e, ref["m_e"], rtol=REL, atol=0.0)
-    res = analysis.evaluate_case(fm, project, zone.loads[0], geo)
+    res = evaluate.evaluate_case(fm, project, zone.loads[0], geo)
     for key in ("effective_mass", "dynamic_factor", "peak_force", "utilisation",
                 "allowable_drop_height"):
         np.testing.assert_allclose(res[key], ref[key], rtol=REL, atol=0.0, err_msg=key)

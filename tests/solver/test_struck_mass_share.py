@@ -17,12 +17,32 @@ import pytest
 
 from droprig.io.project_file import load_project
 from droprig.solver import analysis
+from droprig.solver.chain import (
+    Chain,
+    Compliance,
+    LoadInputs,
+    outputs,
+)
+from droprig.solver.evaluate import evaluate_chain
 
 ROOT = Path(__file__).resolve().parents[2]
 REL = 1e-12
 
 
+class _AtPoints:
+    """The chain of the analysis at some points: public outputs by field name
+    (``r["peak_force"]``), step results on ``r.chain`` (``r.chain[Compliance].f_s``)."""
+
+    def __init__(self, chain: Chain) -> None:
+        self.chain = chain
+        self.out = outputs(chain)
+
+    def __getitem__(self, key: str) -> np.ndarray:
+        return self.out[key]
+
+
 @pytest.mark.parametrize("name", ["rooftop_plant_swap", "steel_erection_floor"])
+
 def test_mass_share_follows_the_series_springs(name: str) -> None:
     project = load_project(ROOT / "demo_projects" / f"{name}.droprig")
     zone = project.lift_zones[0]
@@ -36,8 +56,9 @@ def test_mass_share_follows_the_series_springs(name: str) -> None:
     bare = geo.protection < 0
     assert bare.any()
     for load in zone.loads:
-        r = analysis.evaluate_case(fm, project, load, geo, detail=True)
-        f_s, f = r["_f_s"], r["_f_s"] + r["_f_deck"] + r["_f_load"]
+        r = _AtPoints(evaluate_chain(fm, project, load, geo))
+        comp = r.chain[Compliance]
+        f_s, f = comp.f_s, comp.f_s + comp.f_deck + r.chain[LoadInputs].f_load
         expected = geo.path.m_e * (f_s / f) ** 2
         np.testing.assert_allclose(r["effective_mass"][bare], expected[bare], rtol=REL)
         # the share is a fraction: never more than the framing's own Rayleigh mass
@@ -52,5 +73,5 @@ def test_a_drop_over_a_column_takes_no_framing_mass() -> None:
     fm = analysis.build_floor(level, project.settings)
     x, y = np.array([level.grid.x_lines[1]]), np.array([level.grid.y_lines[1]])
     geo = analysis.point_geometry(fm, project, x, y)
-    r = analysis.evaluate_case(fm, project, zone.loads[0], geo, detail=True)
+    r = _AtPoints(evaluate_chain(fm, project, zone.loads[0], geo))
     assert r["effective_mass"][0] == pytest.approx(0.0, abs=1e-6)

@@ -1,0 +1,660 @@
+"""The per-point chain of the floor analysis, written once as named steps.
+
+For the drop points of a :class:`Drop` (vectorised; SI units) every step is one
+function that reads the results of the steps before it from the :class:`Chain` and
+returns a small frozen dataclass of numpy arrays, one value per point:
+
+1. :func:`load_inputs` → :class:`LoadInputs`: weight, footprint, the load's own
+   underside, protection (mat thickness and springs, crushable layer) and free fall
+   onto the struck surface (``LiftLoad.height_above``; mat top where a protection
+   area covers p); footprint spread 1:1 through a mat (common practice, no source).
+2. :func:`compliance` → :class:`Compliance`: framing f_s (:mod:`~droprig.solver.loadpath`),
+   deck indentation and strip bending f_deck (:mod:`~droprig.solver.contact`), the
+   load's underside 1/k_load and a spring mat 1/k, in series (1/k_eff = Σ 1/k_i;
+   Gere 7th ed. §9.10 energy method).
+3. :func:`struck_mass` → :class:`StruckMass`: Rayleigh mass of the path scaled to
+   the struck point's own deflection, m_e·(f_s/f)² with f = f_s + f_deck + 1/k_load
+   (Timoshenko, Strength of Materials Part I, from memory); zero under a mat or a
+   crushable layer (η = 1, conservative); η = M/(M + m_e).
+4. :func:`impact` → :class:`Impact`: K = 1 + √(1 + 2ηh/(W f)), F = K·W, δmax = K·W·f
+   (Gere Eq. 9-94 with Timoshenko's mass correction, :mod:`~droprig.solver.impact`);
+   a crushable layer by :func:`~droprig.solver.impact.impact_crushable`.
+5. :func:`demands` → :class:`Demands`: every check family at F (flexure, shear, web
+   yielding and crippling under the load, deck flexure and punching), each linear in
+   F: demand = F·unit + existing (:mod:`~droprig.solver.linear_checks`).
+6. :func:`checks` → :class:`Checks`: the elastic verdict (largest U, least F_allow,
+   governing member and check) and the brittle checks at the force the yielding path
+   can pass on, R_p (DNV-RP-C204 accidental limit state, from memory).
+7. :func:`beyond_yield` → :class:`BeyondYield`: elastic–perfectly-plastic energy
+   balance (Biggs 1964), ductility and support rotation against the settings
+   (:mod:`~droprig.solver.plastic`), on sections able to form a hinge only.
+8. :func:`inverse_answers` → :class:`InverseAnswers`: allowable drop heights, mass,
+   mat stiffness, crush stroke (:mod:`~droprig.solver.limits`).
+
+:func:`run_chain` runs :data:`STEPS` in order; :func:`outputs` writes the
+:class:`~droprig.solver.results.CaseResult` arrays from a chain. A new physics step is
+one function and one dataclass, and one line in :data:`STEPS` (see DEVELOPERS.md,
+"Adding a step to the chain"). A step may return the type of an earlier step to
+replace it for the steps after it (e.g. a refined :class:`Compliance`).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass
+from typing import TypeVar, cast
+
+import numpy as np
+
+from droprig.model import LiftLoad, Project
+from droprig.solver import capacity, contact, deck, limits, plastic
+from droprig.solver import impact as impact_mod
+from droprig.solver.floor import FloorModel
+from droprig.solver.geometry import Geometry
+from droprig.solver.linear_checks import Check, small_check
+from droprig.solver.loadpath import COND_NAMES
+from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PLASTIC
+from droprig.solver.unit_actions import (
+    UnitActions,
+    argmax_nan_low,
+    unit_actions,
+    web_resistances,
+)
+
+__all__ = [
+    "BRITTLE",
+    "CHECK",
+    "STEPS",
+    "BeyondYield",
+    "Chain",
+    "Checks",
+    "Compliance",
+    "Demands",
+    "Drop",
+    "Impact",
+    "InverseAnswers",
+    "LoadInputs",
+    "StruckMass",
+    "outputs",
+    "run_chain",
+]
+
+CHECK = {name: i for i, name in enumerate(CHECKS)}
+BRITTLE = ("shear", "web_yielding", "web_crippling", "deck_flexure", "deck_punching")
+"""Checks with no plastic reserve (DNV-RP-C204 accidental limit state, from memory)."""
+
+FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
+          "effective_mass", "dynamic_factor", "peak_force", "max_deflection",
+          "deceleration_g", "utilisation", "governing_member", "governing_check",
+          "response", "allowable_drop_height", "allowable_drop_height_plastic",
+          "allowable_mass", "plastic_deflection", "ductility", "support_rotation",
+          "required_mat_stiffness", "required_crush_stroke")
+"""The :class:`~droprig.solver.results.CaseResult` arrays, in order."""
+
+_NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
+                    "max_deflection", "deceleration_g", "allowable_drop_height",
+                    "allowable_drop_height_plastic", "allowable_mass",
+                    "plastic_deflection", "ductility", "support_rotation",
+                    "required_mat_stiffness", "required_crush_stroke")
+
+
+# --------------------------------------------------------------------------- the runner
+@dataclass(frozen=True, eq=False)
+class Drop:
+    """What is dropped where: the points of ``geo`` on the prepared floor ``fm``, the
+    load of each point ``loads[li]``; ``detail`` keeps what the calculation trace shows
+    (the governing candidate of every check, beyond yield at every point)."""
+
+    fm: FloorModel
+    project: Project
+    geo: Geometry
+    loads: tuple[LiftLoad, ...]
+    li: np.ndarray
+    detail: bool = False
+
+    @property
+    def n(self) -> int:
+        return int(self.geo.x.size)
+
+    def per_point(self, values: list[float]) -> np.ndarray:
+        """One value per load, spread to the points (n,)."""
+        n = self.n
+        return np.full(n, values[0]) if len(values) == 1 else np.array(values)[self.li]
+
+
+S = TypeVar("S")
+
+
+class Chain:
+    """The results of the steps run so far for one :class:`Drop`, by step type:
+    ``chain[Compliance]``. A step that returns the type of an earlier step replaces
+    it for the steps after it; ``history`` keeps every result in order."""
+
+    def __init__(self, drop: Drop) -> None:
+        self.drop = drop
+        self._by_type: dict[type, object] = {}
+        self.history: list[object] = []
+
+    def __getitem__(self, kind: type[S]) -> S:
+        return cast(S, self._by_type[kind])
+
+    def __contains__(self, kind: type) -> bool:
+        return kind in self._by_type
+
+    def add(self, result: object) -> None:
+        self._by_type[type(result)] = result
+        self.history.append(result)
+
+
+# --------------------------------------------------------------------------- 1. inputs
+@dataclass(frozen=True, eq=False)
+class LoadInputs:
+    """Per point: weight ``W`` (N), mass ``M`` (kg), footprint ``fl`` × ``fw`` (m),
+    the load's underside compliance ``f_load`` (m/N, 0 = rigid); protection: mat
+    thickness ``t_mat`` (m), spring mat compliance ``f_mat`` (m/N), crushable layer
+    ``crushable`` with crush force ``F_c`` (N, ∞ none) and stroke ``s_c`` (m); free
+    fall ``h`` onto the struck surface (m); footprint on the deck ``foot_l`` ×
+    ``foot_w`` (spread 1:1 through a mat, m) and bearing length on a flange ``lb``
+    (smaller footprint side + 2 × mat thickness, m)."""
+
+    W: np.ndarray
+    M: np.ndarray
+    fl: np.ndarray
+    fw: np.ndarray
+    f_load: np.ndarray
+    t_mat: np.ndarray
+    f_mat: np.ndarray
+    F_c: np.ndarray
+    s_c: np.ndarray
+    crushable: np.ndarray
+    h: np.ndarray
+    foot_l: np.ndarray
+    foot_w: np.ndarray
+    lb: np.ndarray
+
+
+def load_inputs(c: Chain) -> LoadInputs:
+    """:class:`LoadInputs` of the drop (common practice for the 1:1 spread, no source)."""
+    d = c.drop
+    n, loads, li, geo = d.n, d.loads, d.li, d.geo
+    lv = d.fm.level
+    W = d.per_point([ld.weight for ld in loads])
+    M = d.per_point([ld.mass for ld in loads])
+    fl = d.per_point([ld.footprint_length for ld in loads])
+    fw = d.per_point([ld.footprint_width for ld in loads])
+    # the load's own underside (skid, base frame, dunnage) in series: 1/k_load, 0 = rigid
+    f_load = d.per_point([0.0 if ld.contact_stiffness is None else 1.0 / ld.contact_stiffness
+                          for ld in loads])
+    t_mat = np.zeros(n)
+    f_mat = np.zeros(n)
+    F_c = np.full(n, np.inf)
+    s_c = np.zeros(n)
+    crushable = np.zeros(n, dtype=bool)
+    any_mat = bool(np.any(geo.protection >= 0))
+    for i, pa in enumerate(d.project.protection_areas):
+        if not any_mat or pa.level_id != lv.id:
+            continue
+        sel = geo.protection == i
+        if not sel.any():
+            continue
+        t_mat[sel] = pa.thickness
+        if pa.kind == "spring":
+            f_mat[sel] = 1.0 / float(pa.stiffness)  # type: ignore[arg-type]
+        else:
+            crushable[sel] = True
+            F_c[sel] = float(pa.crush_force)  # type: ignore[arg-type]
+            s_c[sel] = float(pa.crush_stroke)  # type: ignore[arg-type]
+    h = np.empty(n)
+    for j, ld in enumerate(loads):
+        sel = li == j if len(loads) > 1 else slice(None)
+        if ld.drop_height is not None:
+            h[sel] = ld.drop_height
+            continue
+        surf = lv.elevation + t_mat[sel]
+        ld.height_above(float(np.max(surf, initial=lv.elevation)))  # refuses h < 0
+        assert ld.hook_elevation is not None
+        h[sel] = ld.hook_elevation - ld.hang_length - surf
+    spread = 2.0 * t_mat
+    lb = np.minimum(fl, fw) + spread
+    return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
+                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, foot_l=fl + spread,
+                      foot_w=fw + spread, lb=lb)
+
+
+# --------------------------------------------------------------------------- 2. compliance
+@dataclass(frozen=True, eq=False)
+class Compliance:
+    """Per point (m/N): framing ``f_s``, deck ``f_deck`` (indentation and one-way strip
+    bending), everything in series with a mat ``f_struct`` = f_s + f_deck + f_load,
+    the elastic springs in series with the yielding framing ``f_series`` = f_deck +
+    f_load + f_mat, and the total ``f`` = f_struct + f_mat. Deck strip span
+    ``strip_span`` and position ``strip_pos`` (m)."""
+
+    f_s: np.ndarray
+    f_deck: np.ndarray
+    f_struct: np.ndarray
+    f_series: np.ndarray
+    f: np.ndarray
+    strip_span: np.ndarray
+    strip_pos: np.ndarray
+
+
+def compliance(c: Chain) -> Compliance:
+    """Springs in series, 1/k_eff = Σ 1/k_i (Gere 7th ed. §9.10 energy method); deck
+    by :func:`droprig.solver.contact.deck_contact_compliance`."""
+    d, inp = c.drop, c[LoadInputs]
+    lv, path = d.fm.level, d.geo.path
+    span, pos = path.strip_span, path.strip_pos
+    width = deck.deck_effective_width(span, pos, np.maximum(inp.foot_l, inp.foot_w),
+                                      lv.deck.thickness)
+    f_deck = contact.deck_contact_compliance(lv.deck, span, pos, width, inp.foot_l,
+                                             inp.foot_w, d.fm.settings.design_basis)
+    f_s = path.f
+    f_struct = f_s + f_deck + inp.f_load
+    f_series = f_deck + inp.f_load + inp.f_mat
+    return Compliance(f_s=f_s, f_deck=f_deck, f_struct=f_struct, f_series=f_series,
+                      f=f_struct + inp.f_mat, strip_span=span, strip_pos=pos)
+
+
+# --------------------------------------------------------------------------- 3. struck mass
+@dataclass(frozen=True, eq=False)
+class StruckMass:
+    """Per point: the path's Rayleigh mass scaled to the struck point ``m_e`` (kg;
+    zero under a mat or a crushable layer, or where the framing mass is not taken) and
+    the share of kinetic energy kept by the hit ``eta`` = M/(M + m_e)."""
+
+    m_e: np.ndarray
+    eta: np.ndarray
+
+
+def struck_mass(c: Chain) -> StruckMass:
+    """m_e·(f_s/f_struct)² (Rayleigh with the struck point's own deflection; Timoshenko,
+    Strength of Materials Part I, from memory), η = M/(M + m_e)
+    (:func:`droprig.solver.impact.mass_efficiency`)."""
+    d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
+    n = d.n
+    m_e = d.geo.path.m_e if d.fm.settings.include_member_mass else np.zeros(n)
+    # A Rayleigh mass Σ∫μ(w/w_ref)² dx with |w| ≤ w_ref cannot be negative nor exceed
+    # the mass of the members (Timoshenko Part I). loadpath keeps it finite and
+    # continuous up to a column (factored end tables); should a value outside that
+    # bound ever appear, the framing's mass share is not taken (η = 1, conservative)
+    m_bound = d.fm.frame_mass
+    m_e = np.where(np.isfinite(m_e) & (m_e >= 0.0) & (m_e <= m_bound), m_e, 0.0)
+    # The Rayleigh shape is scaled to 1 at the point the load strikes. The load's
+    # displacement is W·f with f = f_s + f_deck + 1/k_load (springs in series) while
+    # the framing under it moves only W·f_s, so the framing's share is
+    # m_e·(f_s/f)². Near a column f_s → 0 and the framing mass drops out
+    # (η → 1, conservative) instead of being credited for framing that barely moves.
+    with np.errstate(divide="ignore", invalid="ignore"):
+        share = np.where(comp.f_struct > 0.0, comp.f_s / comp.f_struct, 0.0)
+    m_e = m_e * share**2
+    # under a mat or a crushable layer the hit on the framing is no longer perfectly
+    # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
+    m_e = np.where(d.geo.protection >= 0, 0.0, m_e)
+    return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e))
+
+
+# --------------------------------------------------------------------------- 4. impact
+@dataclass(frozen=True, eq=False)
+class Impact:
+    """Per point: dynamic factor ``K`` = F/W, peak force ``F`` (N), peak deflection of
+    the load ``d_max`` (m), static deflection ``d_st`` = W·f (m); through a crushable
+    layer its crushed depth ``crush`` (m) and whether it bottomed out ``bottomed``."""
+
+    K: np.ndarray
+    F: np.ndarray
+    d_max: np.ndarray
+    d_st: np.ndarray
+    crush: np.ndarray
+    bottomed: np.ndarray
+
+
+def impact(c: Chain) -> Impact:
+    """Gere 7th ed. §9.10 Eq. 9-94 with Timoshenko's mass correction
+    (:func:`droprig.solver.impact.impact_elastic`); a crushable layer by the energy
+    balance of :func:`droprig.solver.impact.impact_crushable`."""
+    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
+    n = d.n
+    W, crushable = inp.W, inp.crushable
+    K, F_el, d_max = impact_mod.impact_elastic(W, inp.h, comp.f, sm.eta)
+    F = F_el.copy()
+    crush = np.zeros(n)
+    bottomed = np.zeros(n, dtype=bool)
+    if crushable.any():
+        Fcr, dep, bot = impact_mod.impact_crushable(W[crushable], inp.h[crushable],
+                                                    comp.f_struct[crushable],
+                                                    sm.eta[crushable], inp.F_c[crushable],
+                                                    inp.s_c[crushable])
+        F[crushable] = Fcr
+        crush[crushable] = dep
+        bottomed[crushable] = bot
+        K = np.where(crushable, F / W, K)
+        d_max = np.where(crushable, F * comp.f_struct + crush, d_max)
+    return Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed)
+
+
+# --------------------------------------------------------------------------- 5. demands
+@dataclass(frozen=True, eq=False)
+class Demands:
+    """Every check family at the peak force: ``checks`` by name (in
+    :data:`~droprig.solver.results.CHECKS` order), each a
+    :class:`~droprig.solver.linear_checks.Check` (U, F_allow, governing member; with
+    ``detail`` the governing candidate's demand per N, existing demand and
+    resistance); ``actions``: the load-independent member actions and plastic reserve
+    of the path (:class:`~droprig.solver.unit_actions.UnitActions`)."""
+
+    checks: dict[str, Check]
+    actions: UnitActions
+
+
+def demands(c: Chain) -> Demands:
+    """Member actions by AISC Manual Table 3-23 superposition
+    (:mod:`droprig.solver.unit_actions`); web local yielding and crippling under the
+    load (AISC 360-16 J10.2/J10.3, EN 1993-1-5 §6; :mod:`droprig.solver.capacity`);
+    deck flexure (worse footprint orientation) and punching (ACI 318-19 §22.2/§22.6,
+    EN 1992-1-1 §6.4.4; :mod:`droprig.solver.deck`)."""
+    d, inp, comp, imp = c.drop, c[LoadInputs], c[Compliance], c[Impact]
+    fm, geo, detail, n = d.fm, d.geo, d.detail, d.n
+    F = imp.F
+    ua = unit_actions(fm, geo)
+    path = geo.path
+    memT = np.ascontiguousarray(path.members.T)
+    shareT = np.ascontiguousarray(path.share.T)
+    aT = np.ascontiguousarray(path.a.T)
+    LT = fm.frame.L[memT]
+    out: dict[str, Check] = {}
+    out["flexure"] = ua.flexure.check("flexure", F, detail)
+    out["shear"] = ua.shear.check("shear", F, detail)
+    # web checks under the load (each deck-supporting member, its share)
+    lb = inp.lb
+    dist = np.maximum(np.minimum(aT, LT - aT) - 0.5 * lb, 0.0)
+    lb_pts = np.broadcast_to(lb, memT.shape)
+    Rwy, Rwc = web_resistances(fm, (capacity.web_local_yielding, capacity.web_crippling),
+                               memT, lb_pts, dist)
+    out["web_yielding"] = small_check("web_yielding", F, shareT, None, Rwy, memT, detail)
+    out["web_crippling"] = small_check("web_crippling", F, shareT, None, Rwc, memT, detail)
+    # deck flexure (worse of the two footprint orientations) and punching
+    lv, s = fm.level, fm.settings
+    span, pos = comp.strip_span, comp.strip_pos
+    thick = lv.deck.thickness
+    mu1 = deck.deck_unit_moment_per_width(span, pos, inp.foot_l, inp.foot_w, thick)
+    mu2 = deck.deck_unit_moment_per_width(span, pos, inp.foot_w, inp.foot_l, thick)
+    m_deck = np.maximum(mu1, mu2)
+    M0_deck = deck.deck_existing_moment_per_width(span, fm.q0)
+    deckm = np.full((1, n), DECK)
+    out["deck_flexure"] = small_check("deck_flexure", F, m_deck[None, :],
+                                      np.broadcast_to(M0_deck, (n,))[None, :],
+                                      np.full((1, n), fm.deck_Mr), deckm, detail)
+    R_punch = deck.punching_resistance(lv.deck, inp.foot_l, inp.foot_w, s.design_basis,
+                                       s.resistance_factor)
+    out["deck_punching"] = small_check("deck_punching", F, np.ones((1, n)), None,
+                                       np.broadcast_to(R_punch, (n,))[None, :], deckm,
+                                       detail)
+    return Demands(checks=out, actions=ua)
+
+
+# --------------------------------------------------------------------------- 6. checks
+@dataclass(frozen=True, eq=False)
+class Checks:
+    """Per point, the elastic verdict: largest utilisation ``U``, least allowed force
+    ``F_allow`` (N), governing check (index into CHECKS) and member, ``response``
+    (elastic or exceeds; plastic is decided by :func:`beyond_yield`), and the brittle
+    checks at the force the yielding path can pass on: at min(F, R_p) their largest
+    ``Ub_cap`` (member ``brittle_member``, check ``brittle_check``), at R_p each
+    ``Ub_at_Rp`` (in :data:`BRITTLE` order)."""
+
+    U: np.ndarray
+    F_allow: np.ndarray
+    gov_check: np.ndarray
+    gov_member: np.ndarray
+    response: np.ndarray
+    flex_exceeded: np.ndarray
+    brittle_fail: np.ndarray
+    Ub_cap: np.ndarray
+    Ub_at_Rp: tuple[np.ndarray, ...]
+
+
+def checks(c: Chain) -> Checks:
+    """U = max over checks; F_allow = min over checks (linear in F, common practice, no
+    source); brittle checks at R_p where F > R_p (DNV-RP-C204, from memory)."""
+    d, imp, dem = c.drop, c[Impact], c[Demands]
+    n, F, chk = d.n, imp.F, dem.checks
+    names = list(chk)
+    Ustack = np.stack([chk[k].U for k in names])
+    rows = np.arange(n)
+    gi = argmax_nan_low(Ustack)
+    U = Ustack[gi, rows]
+    F_allow = chk[names[0]].F_allow
+    for k in names[1:]:
+        F_allow = np.minimum(F_allow, chk[k].F_allow)
+    gov_check = np.array([CHECK[names[i]] for i in range(len(names))])[gi]
+    gov_member = np.stack([chk[k].member for k in names])[gi, rows]
+    R_p = dem.actions.R_p
+    # U at F_cap = min(F, R_p) is U at F where F_cap is F (F ≤ R_p or F is NaN) and
+    # U at R_p elsewhere: each brittle family is evaluated at R_p once, for this and
+    # for the plastic inverse answer (same values as evaluating at F_cap)
+    Ub_at_Rp = tuple(chk[k].U_at(R_p) for k in BRITTLE)
+    at_F = (F <= R_p) | np.isnan(F)
+    Ub = np.stack([np.where(at_F, chk[k].U, u) for k, u in zip(BRITTLE, Ub_at_Rp, strict=True)])
+    jb = argmax_nan_low(Ub)
+    Ub_max = Ub[jb, rows]
+    brittle_member = np.stack([chk[k].member for k in BRITTLE])[jb, rows]
+    brittle_check = np.array([CHECK[k] for k in BRITTLE])[jb]
+    flex_exceeded = chk["flexure"].U > 1.0
+    response = np.full(n, ELASTIC, dtype=np.int64)
+    over = U > 1.0
+    brittle_fail = over & (~flex_exceeded | (Ub_max > 1.0))
+    response[over] = EXCEEDS
+    gov_check = np.where(brittle_fail & flex_exceeded, brittle_check, gov_check)
+    gov_member = np.where(brittle_fail & flex_exceeded, brittle_member, gov_member)
+    return Checks(U=U, F_allow=F_allow, gov_check=gov_check, gov_member=gov_member,
+                  response=response, flex_exceeded=flex_exceeded, brittle_fail=brittle_fail,
+                  Ub_cap=Ub_max, Ub_at_Rp=Ub_at_Rp)
+
+
+# --------------------------------------------------------------------------- 7. beyond yield
+@dataclass(frozen=True, eq=False)
+class BeyondYield:
+    """Per point: the path as elastic–perfectly-plastic with resistance ``R_p`` (N,
+    by member ``rp_member``); the drop height left for the structure ``h_struct`` (m;
+    a bottomed crushable layer's work taken out); peak deflection ``d_m`` (m),
+    ``collapsed``, framing ductility and support rotation (rad) — computed where
+    the path yields (every point with ``detail``), NaN elsewhere; ``no_hinge``: flexure
+    beyond the resistance of a member that cannot form a hinge (least such force
+    ``nh_fa``, N). ``response``, ``gov_check``, ``gov_member``: the verdict after
+    yielding; ``plastic_deflection``, ``ductility_out``, ``rotation_out``: the
+    outputs (NaN where the path does not yield)."""
+
+    R_p: np.ndarray
+    rp_member: np.ndarray
+    h_struct: np.ndarray
+    d_m: np.ndarray
+    collapsed: np.ndarray
+    ductility: np.ndarray
+    theta: np.ndarray
+    no_hinge: np.ndarray
+    nh_fa: np.ndarray
+    response: np.ndarray
+    gov_check: np.ndarray
+    gov_member: np.ndarray
+    plastic_deflection: np.ndarray
+    ductility_out: np.ndarray
+    rotation_out: np.ndarray
+
+
+def beyond_yield(c: Chain) -> BeyondYield:
+    """Where only flexure exceeds on hinge-capable members (AISC 360-16 App. 1 /
+    EN 1993-1-1 Class 1): R_p(δm − δy/2) = ηW h + W δm with δy = R_p·f (Biggs 1964,
+    :func:`droprig.solver.plastic.plastic_response`); ductility of the framing
+    (δm − R_p·f_series)/(R_p·f_s); support rotation
+    (:func:`droprig.solver.plastic.support_rotation`)."""
+    d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+    ua, ck = c[Demands].actions, c[Checks]
+    s, n = d.fm.settings, d.n
+    W, h, F_c, s_c, eta = inp.W, inp.h, inp.F_c, inp.s_c, sm.eta
+    R_p, f_s, f = ua.R_p, comp.f_s, comp.f
+    # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
+    h_struct = h.copy()
+    crush_ok = inp.crushable & (F_c < R_p) & imp.bottomed
+    with np.errstate(divide="ignore", invalid="ignore"):
+        h_struct = np.where(crush_ok, np.maximum(h - (F_c - W) * s_c / (eta * W), 0.0),
+                            h_struct)
+    over = ck.U > 1.0
+    pl = over & ~ck.brittle_fail
+    sub = slice(None) if d.detail or bool(pl.all()) else np.flatnonzero(pl)
+    R_ps, f_s_s = R_p[sub], f_s[sub]
+    d_m_s, _mu_tot, coll_s = plastic.plastic_response(W[sub], h_struct[sub], eta[sub],
+                                                      R_ps, R_ps * f[sub])
+    with np.errstate(invalid="ignore"):
+        d_struct = np.maximum(d_m_s - R_ps * comp.f_series[sub], 0.0)
+        d_struct = np.where(np.isfinite(d_m_s), d_struct, np.inf)
+        d_y_s = R_ps * f_s_s
+        duct_s = np.where(d_y_s > 0, d_struct / np.where(d_y_s > 0, d_y_s, 1.0), np.inf)
+    theta_s = np.zeros(d_struct.shape)
+    cond_s, arm_s = ua.rp_cond[sub], ua.rp_arm[sub]
+    one = not cond_s.size or cond_s.min() == cond_s.max()
+    for cc in cond_s[:1] if one else np.unique(cond_s):
+        sel = slice(None) if one else cond_s == cc
+        Lsel = arm_s[sel] if COND_NAMES[int(cc)] == "cantilever" else 2 * arm_s[sel]
+        theta_s[sel] = plastic.support_rotation(d_struct[sel], Lsel, arm_s[sel],
+                                                COND_NAMES[int(cc)])
+    if isinstance(sub, slice):
+        d_m, collapsed, ductility, theta = d_m_s, coll_s, duct_s, theta_s
+    else:
+        d_m, ductility, theta = (np.full(n, np.nan) for _ in range(3))
+        collapsed = np.zeros(n, dtype=bool)
+        d_m[sub], collapsed[sub], ductility[sub], theta[sub] = d_m_s, coll_s, duct_s, theta_s
+    col = pl & collapsed
+    duct = pl & ~collapsed & (ductility > s.ductility_limit)
+    rot = pl & ~collapsed & ~duct & (theta > s.rotation_limit)
+    ok_pl = pl & ~collapsed & ~duct & ~rot
+    # flexure beyond the resistance of a member that cannot form a plastic hinge
+    # (AISC 360-16 App. 1 / EN 1993-1-1 Class 1): no plastic reserve, exceeds (as in
+    # droprig check, droprig.solver.member)
+    no_hinge = ok_pl & (imp.F > ua.nh_fa)
+    ok_pl = ok_pl & ~no_hinge
+    response = ck.response.copy()
+    response[ok_pl] = PLASTIC
+    gov_check = np.where(col, CHECK["collapse"], ck.gov_check)
+    gov_check = np.where(duct, CHECK["ductility"], gov_check)
+    gov_check = np.where(rot, CHECK["rotation"], gov_check)
+    gov_check = np.where(ok_pl, CHECK["flexure"], gov_check)
+    gov_member = np.where(pl, ua.rp_member, ck.gov_member)
+    gov_check = np.where(no_hinge, CHECK["flexure"], gov_check)
+    gov_member = np.where(no_hinge, ua.nh_member, gov_member)
+    return BeyondYield(R_p=R_p, rp_member=ua.rp_member, h_struct=h_struct, d_m=d_m,
+                       collapsed=collapsed, ductility=ductility, theta=theta,
+                       no_hinge=no_hinge, nh_fa=ua.nh_fa, response=response,
+                       gov_check=gov_check, gov_member=gov_member,
+                       plastic_deflection=np.where(pl, d_m, np.nan),
+                       ductility_out=np.where(pl, ductility, np.nan),
+                       rotation_out=np.where(pl, theta, np.nan))
+
+
+# --------------------------------------------------------------------------- 8. inverse
+@dataclass(frozen=True, eq=False)
+class InverseAnswers:
+    """Per point: allowable drop heights ``h_el`` (elastic) and ``h_pl`` (beyond yield
+    within the limits), m; allowable mass ``m_allow`` (kg); required mat stiffness
+    ``k_req`` (N/m) and crush stroke ``s_req`` (m) where the point needs protection
+    (NaN where none exists); ``Ub_Rp``: the largest brittle utilisation at R_p."""
+
+    h_el: np.ndarray
+    h_pl: np.ndarray
+    m_allow: np.ndarray
+    k_req: np.ndarray
+    s_req: np.ndarray
+    Ub_Rp: np.ndarray
+
+
+def inverse_answers(c: Chain) -> InverseAnswers:
+    """Gere Eq. 9-94 solved for h, M, k and a crush stroke
+    (:mod:`droprig.solver.limits`); beyond yield the energy balance at the ductility
+    and rotation limits (:func:`droprig.solver.plastic.allowable_height_plastic`)."""
+    d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+    ck, by = c[Checks], c[BeyondYield]
+    ua = c[Demands].actions
+    s = d.fm.settings
+    W, eta, F_c, s_c, crushable = inp.W, sm.eta, inp.F_c, inp.s_c, inp.crushable
+    F_allow, R_p, f_s, f = ck.F_allow, by.R_p, comp.f_s, comp.f
+    Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
+    h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
+    crush_bonus = np.where(crushable & (F_c <= F_allow) & (F_c > W),
+                           (F_c - W) * s_c / (eta * W), 0.0)
+    h_el = h_el + crush_bonus
+    # plastic: ductility and rotation limits, brittle checks at R_p
+    Ub_Rp = ck.Ub_at_Rp[0]
+    for u in ck.Ub_at_Rp[1:]:
+        Ub_Rp = np.maximum(Ub_Rp, u)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        d_rot = np.tan(s.rotation_limit) * np.where(
+            ua.rp_cond == COND_NAMES.index("cantilever"), ua.rp_arm, ua.rp_arm)
+        d_lim_s = np.minimum(s.ductility_limit * R_p * f_s, d_rot)
+        mu_tot = (d_lim_s + R_p * comp.f_series) / (R_p * f)
+    h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
+    h_pl = h_pl + np.where(crushable & (F_c < R_p) & (F_c > W),
+                           (F_c - W) * s_c / (eta * W), 0.0)
+    # beyond yield only where the mechanism forms before a member without hinge
+    # capacity reaches its flexural resistance
+    h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
+    h_pl = np.fmax(h_pl, h_el)
+    m_allow = limits.allowable_mass(Fa_pos, inp.h, f, sm.m_e)
+    k_req = limits.required_mat_stiffness(W, inp.h, eta, Fa_pos, comp.f_struct)
+    k_req = np.where(np.isfinite(k_req) & (by.response != ELASTIC), k_req, np.nan)
+    s_req = limits.required_crush_stroke(W, inp.h, eta, Fa_pos, comp.f_struct)
+    s_req = np.where((by.response != ELASTIC) & np.isfinite(s_req), s_req, np.nan)
+    return InverseAnswers(h_el=h_el, h_pl=h_pl, m_allow=m_allow, k_req=k_req, s_req=s_req,
+                          Ub_Rp=Ub_Rp)
+
+
+# --------------------------------------------------------------------------- run
+STEPS: tuple[Callable[[Chain], object], ...] = (
+    load_inputs,
+    compliance,
+    struck_mass,
+    impact,
+    demands,
+    checks,
+    beyond_yield,
+    inverse_answers,
+)
+"""The steps of the chain, in order (each reads only the results before it)."""
+
+
+def run_chain(drop: Drop) -> Chain:
+    """Every step of :data:`STEPS` for ``drop``."""
+    chain = Chain(drop)
+    for step in STEPS:
+        chain.add(step(chain))
+    return chain
+
+
+def outputs(c: Chain) -> dict[str, np.ndarray]:
+    """The :class:`~droprig.solver.results.CaseResult` arrays of a chain under their
+    field names, and ``F_allow`` (N); at a deck opening the load falls through
+    (U = ∞, exceeds, governing check ``opening``, no other value)."""
+    d, inp, sm, imp = c.drop, c[LoadInputs], c[StruckMass], c[Impact]
+    ck, by, inv = c[Checks], c[BeyondYield], c[InverseAnswers]
+    geo = d.geo
+    out = {
+        "x": geo.x, "y": geo.y, "bay": geo.bay, "protection": geo.protection,
+        "drop_height": inp.h, "static_deflection": imp.d_st, "effective_mass": sm.m_e,
+        "dynamic_factor": imp.K, "peak_force": imp.F, "max_deflection": imp.d_max,
+        "deceleration_g": impact_mod.deceleration_g(imp.F, inp.W), "utilisation": ck.U,
+        "governing_member": by.gov_member.astype(np.int64),
+        "governing_check": by.gov_check.astype(np.int64), "response": by.response,
+        "allowable_drop_height": inv.h_el, "allowable_drop_height_plastic": inv.h_pl,
+        "allowable_mass": inv.m_allow, "plastic_deflection": by.plastic_deflection,
+        "ductility": by.ductility_out, "support_rotation": by.rotation_out,
+        "required_mat_stiffness": inv.k_req, "required_crush_stroke": inv.s_req,
+    }
+    op = geo.opening
+    if op.any():
+        for k in _NONE_AT_OPENING:
+            out[k] = np.where(op, np.nan, out[k])
+        out["utilisation"] = np.where(op, np.inf, out["utilisation"])
+        out["response"] = np.where(op, EXCEEDS, out["response"])
+        out["governing_check"] = np.where(op, CHECK["opening"], out["governing_check"])
+        out["governing_member"] = np.where(op, DECK, out["governing_member"])
+    out["F_allow"] = ck.F_allow
+    return out

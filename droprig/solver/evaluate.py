@@ -1,0 +1,157 @@
+"""Run the per-point chain (:mod:`droprig.solver.chain`) over many drop points: block
+by block on all cores (:mod:`droprig.solver.parallel`), the outputs allocated by the
+calling thread, the load-independent member actions shared by the loads of a zone.
+
+Every function here gives the same values as :func:`~droprig.solver.chain.run_chain`
+on all points at once (``tests/solver/test_parallel.py``). SI units.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Sequence
+
+import numpy as np
+
+from droprig.model import LiftLoad, Project
+from droprig.solver import loadpath, memory
+from droprig.solver.chain import FIELDS, Chain, Drop, outputs, run_chain
+from droprig.solver.floor import FloorModel
+from droprig.solver.geometry import Geometry, point_geometry, slice_geo
+from droprig.solver.loadpath import PathResult
+from droprig.solver.parallel import for_blocks
+from droprig.solver.unit_actions import unit_actions
+
+__all__ = ["CACHE_MAX_POINTS", "OUTPUTS", "evaluate_case", "evaluate_chain",
+           "evaluate_points", "tile"]
+
+CACHE_MAX_POINTS = 200_000
+"""Up to this many drop points the load-independent member actions are kept between
+the loads of a zone (about 40 doubles per point); beyond, they are recomputed per
+load so that memory stays bounded."""
+
+OUTPUTS = (*FIELDS, "F_allow")
+"""The keys of :func:`evaluate_case`'s result."""
+
+_INTS = {"bay", "protection", "governing_member", "governing_check", "response"}
+
+
+def _loads(load: LiftLoad | Sequence[LiftLoad]) -> tuple[LiftLoad, ...]:
+    return (load,) if isinstance(load, LiftLoad) else tuple(load)
+
+
+def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
+                   geo: Geometry, load_index: np.ndarray | None = None, *,
+                   detail: bool = True) -> Chain:
+    """Every step of the chain for ``load`` at the points of ``geo`` (one block, all
+    points; the calculation trace and the tests read the step results). ``load`` may
+    be a sequence of loads with ``load_index`` naming the load of each point."""
+    memory.keep_freed_memory()
+    n = geo.x.size
+    li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
+    with np.errstate(all="ignore"):
+        return run_chain(Drop(fm, project, geo, _loads(load), li, detail))
+
+
+def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
+             geo: Geometry, load_index: np.ndarray | None) -> dict[str, np.ndarray]:
+    n = geo.x.size
+    li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
+    return outputs(run_chain(Drop(fm, project, geo, _loads(load), li, False)))
+
+
+def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
+                  geo: Geometry, load_index: np.ndarray | None = None,
+                  ) -> dict[str, np.ndarray]:
+    """The :class:`~droprig.solver.results.CaseResult` arrays of ``load`` at the points
+    of ``geo`` under their field names, and ``F_allow`` (N, the elastic allowed force).
+
+    ``load`` may be a sequence of loads with ``load_index`` naming the load of each
+    point (several cases in one vectorised pass)."""
+    n = geo.x.size
+    memory.keep_freed_memory()
+    if n == 0:
+        return {k: np.zeros(0, dtype=np.int64 if k in _INTS else float) for k in OUTPUTS}
+    chunk = loadpath_chunk()
+    with np.errstate(all="ignore"):
+        if n <= chunk:
+            return _outputs(fm, project, load, geo, load_index)
+
+        def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
+            sl = slice(s, e)
+            li = None if load_index is None else load_index[sl]
+            sub = geo.cache.get(("slice", s))
+            if sub is None:
+                sub = slice_geo(geo, sl)
+                if n <= CACHE_MAX_POINTS:  # keep per-point actions for the next load
+                    geo.cache[("slice", s)] = sub
+            with np.errstate(all="ignore"):
+                return [_outputs(fm, project, load, sub, li)]
+
+        li0 = None if load_index is None else load_index[:1]
+        probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0)
+        return _blockwise(n, 1, chunk, block, probe)
+
+
+def _blockwise(n: int, n_sets: int, chunk: int,
+               block: Callable[[int, int], list[dict[str, np.ndarray]]],
+               probe: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    """Outputs of ``n_sets`` sets of ``n`` rows (set-major) computed block by block on
+    all cores: ``block(s, e)`` returns each set's arrays for rows s..e. The outputs are
+    allocated by the calling thread, their fields and types taken from ``probe`` (its
+    heap is reused from one large job to the next; memory first touched in a worker's
+    heap is not)."""
+    out = {k: np.empty((n_sets * n, *v.shape[1:]), dtype=v.dtype) for k, v in probe.items()}
+
+    def run(s: int, e: int) -> None:
+        for j, part in enumerate(block(s, e)):
+            for k, v in part.items():
+                out[k][j * n + s:j * n + e] = v
+
+    for_blocks(run, n, chunk)
+    return out
+
+
+def loadpath_chunk() -> int:
+    """Points per block of the vectorised evaluation (cache-sized)."""
+    return int(loadpath.CHUNK)
+
+
+def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
+                    x: np.ndarray, y: np.ndarray) -> dict[str, np.ndarray]:
+    """Every load at every point, load by load ((len(loads)·n) rows, load-major):
+    :func:`point_geometry` and :func:`evaluate_case` block by block on all cores,
+    each block's load path and load-independent member actions shared by the loads.
+    The path for large sets of points: nothing of the size of all points is kept
+    but the results. Same values as the two functions called on all points."""
+    memory.keep_freed_memory()
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    n, nl = x.size, len(loads)
+    if n == 0 or nl == 0:
+        return evaluate_case(fm, project, list(loads), point_geometry(fm, project, x, y),
+                             np.zeros(0, dtype=np.int64))
+
+    def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
+        geo = point_geometry(fm, project, x[s:e], y[s:e])
+        with np.errstate(all="ignore"):
+            return [_outputs(fm, project, ld, geo, None) for ld in loads]
+
+    with np.errstate(all="ignore"):
+        probe = _outputs(fm, project, loads[0], point_geometry(fm, project, x[:1], y[:1]),
+                         None)
+    return _blockwise(n, nl, loadpath_chunk(), block, probe)
+
+
+def tile(fm: FloorModel, geo: Geometry, k: int) -> Geometry:
+    """``geo`` repeated ``k`` times (one copy per load), with its load-independent
+    member actions computed once and repeated alongside."""
+    if k == 1:
+        return geo
+    ua = unit_actions(fm, geo)
+    p = geo.path
+    path = PathResult(**{f: np.concatenate([getattr(p, f)] * k)
+                         for f in p.__dataclass_fields__})
+    out = Geometry(np.tile(geo.x, k), np.tile(geo.y, k), path, np.tile(geo.bay, k),
+                   np.tile(geo.protection, k), np.tile(geo.opening, k))
+    out.cache["ua"] = ua.tiled(k)
+    return out

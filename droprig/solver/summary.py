@@ -1,0 +1,166 @@
+"""Per-bay summaries of a case: the worst point of each column bay and what the bay
+needs, as data (:class:`Advice`; the words are written at the edges by
+:mod:`droprig.advice`).
+
+SI units (m, N/m)."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from droprig.model import Level, LiftLoad, LiftZone, bays
+from droprig.solver import droppoints
+from droprig.solver.floor import remember
+from droprig.solver.refine import severity
+from droprig.solver.results import (
+    CHECKS,
+    DECK,
+    ELASTIC,
+    EXCEEDS,
+    PLASTIC,
+    RESPONSES,
+    AdviceKind,
+    BaySummary,
+    CaseResult,
+)
+
+__all__ = ["MAX_MAT_TRAVEL", "MIN_USEFUL_HEIGHT", "Advice", "bay_advice", "summarise"]
+
+MIN_USEFUL_HEIGHT = 0.05
+"""A drop height below this (m) is not offered as advice: it cannot be controlled on
+site (common practice, no source)."""
+MAX_MAT_TRAVEL = 0.3
+"""A spring mat is only offered when it need not compress more than this (m): the
+thickness of a stack of timber crane mats (common practice, no source)."""
+
+
+@dataclass(frozen=True)
+class Advice:
+    """What a bay needs, as data (the words are written at the edges,
+    :mod:`droprig.advice`). ``kind`` is one of :data:`ADVICE_KINDS`; lengths in m,
+    stiffness in N/m; ``None`` where the option is not offered."""
+
+    kind: AdviceKind
+    height_limit: float | None = None
+    height_limit_yields: bool = False
+    mat_stiffness_max: float | None = None
+    mat_travel: float | None = None
+
+
+def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
+               mat_travel: float | None = None, h_elastic: float | None = None) -> Advice:
+    """What one bay needs: no protection, a drop-height limit ``h_allow`` (offered
+    from :data:`MIN_USEFUL_HEIGHT` up, and only when the bay exceeds its limits), a
+    spring mat no stiffer than ``k_mat`` (offered while it need not compress more
+    than :data:`MAX_MAT_TRAVEL`), acceptance of yielding with the engineer's
+    approval, or an exclusion zone (deck opening, or no option found).
+    ``height_limit_yields``: the height limit lets members yield (it exceeds the
+    elastic height ``h_elastic`` by more than 1 %). SI units (m, N/m)."""
+    if n_opening:
+        return Advice("opening")
+    if resp == ELASTIC:
+        return Advice("none")
+    h: float | None = None
+    yields = False
+    if h_allow is not None and h_allow >= MIN_USEFUL_HEIGHT and resp == EXCEEDS:
+        h = float(h_allow)
+        yields = h_elastic is not None and h_allow > 1.01 * h_elastic
+    k: float | None = None
+    travel: float | None = None
+    if (k_mat is not None and math.isfinite(k_mat) and k_mat > 0
+            and (mat_travel is None or mat_travel <= MAX_MAT_TRAVEL)):
+        k = float(k_mat)
+        travel = float(mat_travel) if mat_travel is not None and math.isfinite(mat_travel) \
+            else None
+    if resp == PLASTIC:
+        return Advice("plastic_mat", mat_stiffness_max=k, mat_travel=travel) if k \
+            else Advice("plastic_accept")
+    if h is not None and k is not None:
+        kind: AdviceKind = "limit_or_mat"
+    elif h is not None:
+        kind = "limit_height"
+    elif k is not None:
+        kind = "mat"
+    else:
+        return Advice("keep_clear")
+    return Advice(kind, h, yields, k, travel)
+
+
+def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
+              allowed_force: np.ndarray) -> list[BaySummary]:
+    """One :class:`BaySummary` per bay that holds drop points of ``case``
+    (``allowed_force``: the elastic F_allow of each point, N). A point on a shared grid
+    line or at a column counts for every bay it touches (closed bays). All bays are
+    reduced at once over a (bay, point) membership matrix."""
+    out: list[BaySummary] = []
+    all_bays = _bays(level)
+    members = level.members
+    n = case.x.size
+    if n == 0 or not all_bays:
+        return out
+    g = level.grid
+    xl, yl = np.asarray(g.x_lines, float), np.asarray(g.y_lines, float)
+    tol = droppoints.EDGE_TOL
+    x, y = case.x, case.y
+    Mx = (x >= xl[:-1, None] - tol) & (x <= xl[1:, None] + tol)  # (nx, n)
+    My = (y >= yl[:-1, None] - tol) & (y <= yl[1:, None] + tol)  # (ny, n)
+    M = (My[:, None, :] & Mx[None, :, :]).reshape(-1, n)  # (bays, n), b = j·nx + i
+    count = M.sum(axis=1)
+    sev = severity(case.utilisation, case.response)
+    resp = case.response
+    gov = np.argmax(np.where(M, sev, -np.inf), axis=1)  # first worst point per bay
+    worst = np.where(M, resp, -1).max(axis=1)
+    U = case.utilisation
+    U_max = np.where(M, np.where(np.isnan(U), -np.inf, U), -np.inf).max(axis=1)
+
+    def least(v: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """Smallest value per bay and whether any point of the bay has none (nan)."""
+        return np.where(M, v, np.inf).min(axis=1), (M & np.isnan(v)).any(axis=1)
+
+    h_el, h_el_none = least(case.allowable_drop_height)
+    h_pl, h_pl_none = least(case.allowable_drop_height_plastic)
+    Mn = M & (resp != ELASTIC)  # points that need protection
+    kv = case.required_mat_stiffness
+    has_need = Mn.any(axis=1)
+    k_ok = has_need & ~(Mn & np.isnan(kv)).any(axis=1)
+    k_min = np.where(Mn, kv, np.inf).min(axis=1)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        # the mat carries the allowed force at its softest: travel = F_allow / k
+        travel_all = np.where(Mn, allowed_force[None, :] / k_min[:, None], -np.inf).max(axis=1)
+    n_open = (M & (case.governing_check == CHECKS.index("opening"))).sum(axis=1)
+    for b in np.flatnonzero(count):
+        i = int(gov[b])
+        wst = int(worst[b])
+        u_b = float(U_max[b])
+        u_b = u_b if u_b > -np.inf else float("inf")
+        he = None if h_el_none[b] else float(h_el[b])
+        hp = None if h_pl_none[b] else float(h_pl[b])
+        k_mat = float(k_min[b]) if k_ok[b] else None
+        travel = float(travel_all[b]) if k_ok[b] else None
+        gm = int(case.governing_member[i])
+        adv = bay_advice(wst, int(n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he)
+        out.append(BaySummary(
+            level_id=level.id, bay_id=all_bays[b].id, zone_id=zone.id,
+            load_name=load.name, n_points=int(count[b]), max_utilisation=u_b,
+            response=RESPONSES[wst], allowable_drop_height=he,
+            allowable_drop_height_plastic=hp, governing_x=float(case.x[i]),
+            governing_y=float(case.y[i]),
+            governing_member="deck" if gm == DECK else members[gm].id,
+            governing_check=CHECKS[int(case.governing_check[i])], advice_kind=adv.kind,
+            height_limit=adv.height_limit, height_limit_yields=adv.height_limit_yields,
+            mat_stiffness_max=adv.mat_stiffness_max, mat_travel=adv.mat_travel,
+            planned_drop_height=case.planned_drop_height))
+    return out
+
+
+_BAYS: dict[Level, tuple] = {}
+
+
+def _bays(level: Level) -> tuple:
+    """:func:`droprig.model.bays`, remembered for the last few levels."""
+    return remember(_BAYS, level, lambda: bays(level))
+
+

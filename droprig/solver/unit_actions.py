@@ -1,0 +1,332 @@
+"""The load-independent actions of the path members at each drop point: the flexure
+and shear candidates of every member of the load path (a
+:class:`~droprig.solver.linear_checks.Family` each) and the plastic reserve R_p of the
+path, plus the web resistances under the load. Written for speed (in-place ufuncs,
+candidate-first (C, n) layout, small tables per floor); the formulas are those of
+:mod:`droprig.solver.beam` (AISC Manual Table 3-23 by superposition) and
+:mod:`droprig.solver.capacity`.
+
+SI units (N, N·m, m)."""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+import numpy as np
+
+from droprig.solver import beam
+from droprig.solver.floor import FloorModel, existing_moment
+from droprig.solver.linear_checks import Family, argmax0, argmin_axis
+from droprig.solver.loadpath import COND_NAMES, by_condition
+
+if TYPE_CHECKING:
+    from droprig.solver.geometry import Geometry
+
+__all__ = ["UnitActions", "argmax_nan_low", "unit_actions", "web_resistances"]
+
+
+@dataclass(frozen=True, eq=False)
+class UnitActions:
+    """Per drop point, independent of the load: the check families ``flexure`` and
+    ``shear`` of the path members; the plastic reserve of the path ``R_p`` (N), the
+    member that sets it ``rp_member``, its hinge arm ``rp_arm`` (m) and end
+    condition ``rp_cond``; the least force that takes a member unable to form a
+    hinge to its flexural resistance ``nh_fa`` (N, ∞ none) and that member
+    ``nh_member`` (-1 none)."""
+
+    flexure: Family
+    shear: Family
+    R_p: np.ndarray
+    rp_member: np.ndarray
+    rp_arm: np.ndarray
+    rp_cond: np.ndarray
+    nh_fa: np.ndarray
+    nh_member: np.ndarray
+
+    def tiled(self, k: int) -> UnitActions:
+        """These actions repeated ``k`` times along the points (one copy per load)."""
+        return UnitActions(self.flexure.tiled(k), self.shear.tiled(k),
+                           *(np.tile(getattr(self, f), k) for f in
+                             ("R_p", "rp_member", "rp_arm", "rp_cond", "nh_fa",
+                              "nh_member")))
+
+
+def _combine(out: np.ndarray, coef: np.ndarray, terms: tuple[int, ...], pair: np.ndarray,
+             rT: np.ndarray) -> None:
+    """out (rows, n) = Σ_i coef[i][:, pair]·r_i over ``terms`` (in order; the reactions
+    whose coefficients are all zero add exactly nothing and are skipped)."""
+    if not terms:
+        out[...] = 0.0
+        return
+    i0, *rest = terms
+    np.multiply(np.take(coef[i0], pair, axis=1), rT[i0], out=out)
+    for i in rest:
+        term = np.take(coef[i], pair, axis=1)
+        term *= rT[i]
+        out += term
+
+
+def unit_actions(fm: FloorModel, geo: Geometry) -> UnitActions:
+    """Everything per drop point that does not depend on the load: the flexure and
+    shear candidates of every path member (:class:`~droprig.solver.linear_checks.Family`)
+    and the plastic reserve R_p of the path (cached on ``geo``).
+
+    Flexure: at the stations of each deck member (:func:`_loaded_stations`) the unit
+    moment share·M(x; a) and the existing moment; at the stations of each support
+    member Σ_i coef_i·r_i and its existing moment. Shear: the end reactions of each
+    deck member share·R(a) and of each support member Σ_i coef_i·r_i, with the
+    existing end shears (AISC Manual Table 3-23 by superposition)."""
+    ua = geo.cache.get("ua")
+    if ua is not None:
+        return ua
+    fr = fm.frame
+    tb = fm.tables
+    path = geo.path
+    n = geo.x.size
+    memT = np.ascontiguousarray(path.members.T)  # (2, n)
+    shareT = np.ascontiguousarray(path.share.T)
+    aT = np.ascontiguousarray(path.a.T)
+    LT = fr.L[memT]
+    condT = fr.cond[memT]
+    pair = np.maximum(path.pair, 0)
+    rT = np.ascontiguousarray(path.r.T)  # (4, n)
+    P, S = tb.P, tb.S
+    supm = np.take(tb.member, pair, axis=1) if P else np.zeros((0, n), dtype=np.int64)
+    members = np.concatenate([memT, supm])  # (K, n): the source members
+    cols = np.arange(n)
+    # ---- flexure: deck members (2, S_l stations) then support members (P, S)
+    xs = _loaded_stations(aT[:, None, :], LT[:, None, :], bool(np.any(fr.cond != 0)))
+    S_l = xs.shape[1]
+    S_p = [k.size for k in tb.m_keep]  # stations kept per support member
+    C = 2 * S_l + sum(S_p)
+    ut = np.empty((C, n))
+    Et = np.empty((C, n))
+    u = by_condition(beam.unit_moment, condT[:, None, :], LT[:, None, :], xs,
+                     aT[:, None, :])
+    u *= shareT[:, None, :]
+    Rd = fm.Mr[memT][:, None, :]
+    np.divide(u, Rd, out=ut[:2 * S_l].reshape(2, S_l, n))
+    # existing moment: at the stations that move with the load per point, at the
+    # fixed ones (quarter points, ends) from a table per member
+    M0 = _loaded_existing_moment(fm, memT, xs[:, _MOVING, :])  # (2, 2, n)
+    E3 = Et[:2 * S_l].reshape(2, S_l, n)
+    for i, st in enumerate(_MOVING):
+        np.divide(M0[:, i, :], Rd[:, 0, :], out=E3[:, st, :])
+    tab = _fixed_station_table(fm, S_l)
+    for st in range(S_l):
+        if st not in _MOVING:
+            np.take(tab[st], memT, out=E3[:, st, :])
+    m_R = np.take(tb.m_R, pair, axis=1)  # (P, n)
+    runs = _runs([S_l, S_l, *S_p])
+    for p in range(P):
+        a0, a1 = runs[2 + p]
+        _combine(ut[a0:a1], tb.m_coef[p], tb.m_terms[p], pair, rT)
+        ut[a0:a1] /= m_R[p]
+        np.take(tb.m_Et[p], pair, axis=1, out=Et[a0:a1])
+    flex = Family(ut, Et, members, np.concatenate([fm.Mr[memT], m_R]),
+                  np.repeat(np.arange(2 + P), [S_l, S_l, *S_p]), runs)
+    # ---- shear: deck member ends (rows m0·R0, m1·R0, m0·RL, m1·RL), support ends
+    R0, RL = by_condition(beam.unit_reactions, condT, LT, aT)
+    Vd = fm.Vr[memT]
+    C = 4 + 2 * P
+    vt = np.empty((C, n))
+    vE = np.empty((C, n))
+    np.multiply(shareT, R0, out=vt[0:2])
+    np.multiply(shareT, RL, out=vt[2:4])
+    vt[0:2] /= Vd
+    vt[2:4] /= Vd
+    np.take(tb.V_Et[0], memT, out=vE[0:2])
+    np.take(tb.V_Et[1], memT, out=vE[2:4])
+    v_R = np.take(tb.v_R, pair, axis=1)
+    for p in range(P):
+        rows = vt[4 + 2 * p:6 + 2 * p]
+        _combine(rows, tb.v_coef[p], tb.v_terms[p], pair, rT)
+        rows /= v_R[p]
+    np.take(tb.v_Et, pair, axis=1, out=vE[4:])
+    shear = Family(vt, vE, members, np.concatenate([Vd, v_R]),
+                   np.array([0, 1, 0, 1] + [2 + p for p in range(P) for _ in range(2)]))
+    # ---- plastic reserve: R_p of the path for a load at p. Deck members: virtual-work
+    # collapse load for fixed/propped, first hinge (= collapse of a determinate
+    # member) otherwise; support members: first hinge (conservative)
+    assert flex.gmin is not None
+    fa_l = flex.gmin[:2]  # (2, n)
+    Mp_eff = np.maximum(fm.Mr[memT] - np.abs(M0[:, 0, :]), 0.0)  # under the load
+    Pc = by_condition(beam.plastic_collapse_load, condT, LT, aT, Mp_eff)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        Pc = np.where(shareT > 0, Pc / np.where(shareT > 0, shareT, 1.0), np.inf)
+    indeterminate = (condT == COND_NAMES.index("fixed")) | (condT == COND_NAMES.index(
+        "propped"))
+    Rp_all = np.empty((2 + P, n))
+    Rp_all[:2] = np.where(indeterminate, np.maximum(fa_l, Pc), fa_l)
+    arm = np.empty((2 + P, n))
+    cant = condT == COND_NAMES.index("cantilever")
+    arm[:2] = np.where(cant, aT, np.minimum(aT, LT - aT))  # hinge arm (root for a cantilever)
+    rp_cond = np.concatenate([condT, fr.cond[supm]])
+    for p in range(P):
+        a0, a1 = runs[2 + p]
+        fa_p = flex.gmin[2 + p]
+        j = tb.m_keep[p][argmin_axis(flex.fa[a0:a1], fa_p, 0)]
+        Rp_all[2 + p] = np.where(np.take(tb.valid[p], pair), fa_p, np.inf)
+        # station of the governing section: pair_sup_x[pair, p, j] by flat index
+        xst = np.take(fr.pair_sup_x.reshape(-1), (pair * P + p) * S + j)
+        Ls = fr.L[supm[p]]
+        arm[2 + p] = np.where(rp_cond[2 + p] == COND_NAMES.index("cantilever"), xst,
+                              np.minimum(xst, Ls - xst))
+    jr = argmin_axis(Rp_all, Rp_all.min(axis=0), 0)
+    # members that cannot form a plastic hinge: the least force that takes one of
+    # them to its flexural resistance (inf where the path has none)
+    nh_fa = np.full(n, np.inf)
+    nh_member = np.full(n, -1, dtype=np.int64)
+    hinge = fm.hinge
+    if hinge is not None and not bool(np.all(hinge)):
+        g_nh = np.where(hinge[members], np.inf, flex.gmin)  # (K, n)
+        jn = np.argmin(g_nh, axis=0)
+        nh_fa = g_nh[jn, cols]
+        nh_member = members[jn, cols]
+    ua = UnitActions(flexure=flex, shear=shear, R_p=np.maximum(Rp_all[jr, cols], 0.0),
+                     rp_member=members[jr, cols], rp_arm=arm[jr, cols],
+                     rp_cond=rp_cond[jr, cols], nh_fa=nh_fa, nh_member=nh_member)
+    geo.cache["ua"] = ua
+    return ua
+
+
+def _runs(lens: Sequence[int]) -> tuple[tuple[int, int], ...]:
+    """(start, stop) of consecutive runs of rows of the given lengths (the flexure
+    rows of each source: two deck members, then the support members)."""
+    ends = np.cumsum(lens).tolist()
+    return tuple((e - k, e) for e, k in zip(ends, lens, strict=True))
+
+
+def _loaded_stations(a: np.ndarray, L: np.ndarray, ends: bool) -> np.ndarray:
+    """Stations along a deck-supporting member where the moment can peak under a
+    point load at a plus a uniform load: under the load, the quarter points, halfway
+    between the load and midspan, and the ends when a member has a fixed end; stacked
+    along the second axis of ``a`` (shape (2, 1, n) → (2, 5 or 7, n)), m."""
+    cols = [a, 0.25 * L, 0.5 * L, 0.75 * L, 0.5 * (a + 0.5 * L)]
+    if ends:
+        cols += [0.0 * a, L + 0.0 * a]
+    return np.concatenate(np.broadcast_arrays(*cols), axis=1)
+
+
+_MOVING = (0, 4)
+"""The stations of :func:`_loaded_stations` that move with the load (under it, and
+halfway between it and midspan); the others are fixed on the member."""
+
+
+def _fixed_station_table(fm: FloorModel, S_l: int) -> np.ndarray:
+    """Existing moment over flexural resistance at the fixed stations of every member
+    (S_l, members); rows of the moving stations unused (kept on the floor)."""
+    key = ("fixed_stations", S_l)
+    tab = fm._memo.get(key)
+    if tab is None:
+        fr = fm.frame
+        tab = np.zeros((S_l, fr.n_members))
+        for k in range(fr.n_members):
+            L = np.array([fr.L[k]])
+            x = _loaded_stations(np.zeros((1, 1, 1)), L[:, None, None], S_l > 5)[0, :, 0]
+            tab[:, k] = existing_moment(fr, fm.w0, fm.P0, k, x) / fm.Mr[k]
+        fm._memo[key] = tab
+    return tab
+
+
+def _loaded_existing_moment(fm: FloorModel, memT: np.ndarray, xs: np.ndarray) -> np.ndarray:
+    """Existing moment (N·m) at the stations ``xs`` (2, S, n) of the deck members
+    ``memT`` (2, n)."""
+    fr = fm.frame
+    M = by_condition(beam.udl_moment, fr.cond[memT][:, None, :], fr.L[memT][:, None, :],
+                     fm.w0[memT][:, None, :], xs)
+    carries = fm._memo.get("carries")
+    if carries is None:
+        carries = fm._memo["carries"] = np.flatnonzero(
+            [fr.nodes_on[k].size > 0 for k in range(fr.n_members)])
+    carrying = [k for k in carries if np.any(memT == k)] if carries.size else []
+    if carrying:
+        Mv = np.moveaxis(M, 1, -1)  # (2, n, S) view
+        xv = np.moveaxis(xs, 1, -1)
+        for k in carrying:
+            sel = memT == k
+            Mv[sel] = existing_moment(fr, fm.w0, fm.P0, int(k), xv[sel])
+    return M
+
+
+def argmax_nan_low(D: np.ndarray) -> np.ndarray:
+    """Row of the largest entry of each column of ``D`` (k, n), a NaN counting as
+    lowest (first of equal maxima)."""
+    if np.isnan(D).any():
+        return np.argmax(np.where(np.isnan(D), -np.inf, D), axis=0)
+    return argmax0(D, D.max(axis=0))
+
+
+def web_resistances(fm: FloorModel, fns: Sequence[Callable[..., np.ndarray]],
+                     mem: np.ndarray, bearing: np.ndarray, dist: np.ndarray,
+                     ) -> list[np.ndarray]:
+    """Web resistance of each deck member under the load (N), one array per clause
+    function in ``fns``. More than the section depth d from an end every clause used
+    gives its interior value (AISC 360-16 J10.2 beyond d, J10.3 beyond d/2;
+    EN 1993-1-5 §6 type (c) only within c < 2h_w/3 − s_s < d), so that value is
+    computed once per (section, bearing) — a small table gathered for every point —
+    and the clause is evaluated point by point only near the ends."""
+    s = fm.settings
+    mem, bearing, dist = np.broadcast_arrays(mem, bearing, dist)
+    if bearing.ndim == 2 and bearing.strides[0] == 0:  # one bearing per point
+        ub, inv = _distinct(bearing[0])
+        inv = np.broadcast_to(inv, mem.shape)
+    else:
+        ub, inv = _distinct(bearing.ravel())
+        inv = inv.reshape(mem.shape)
+    ng = len(fm.groups)
+    grp = fm.group[mem] if ng > 1 else np.zeros(mem.shape, dtype=np.int64)
+    d_int = np.full(ub.shape, 1e3)
+    depth = np.array([sec.d for sec, _ in fm.groups])  # type: ignore[attr-defined]
+    near = dist <= depth[grp]
+    idx = np.flatnonzero(near) if near.any() else None
+    if idx is not None:
+        g_near = grp.ravel()[idx]
+        b_near, d_near = bearing.ravel()[idx], dist.ravel()[idx]
+        sels = [(gi, g_near == gi) for gi in range(ng)] if ng > 1 else [(0, slice(None))]
+    outs = []
+    for fn in fns:
+        key = ("web", fn, ub.tobytes())
+        table = fm._memo.get(key)
+        if table is None:
+            table = np.concatenate([np.broadcast_to(np.asarray(
+                fn(sec, grd, s.design_basis, ub, d_int, s.resistance_factor,
+                   s.dynamic_increase_factor), float), ub.shape) for sec, grd in fm.groups])
+            if len(fm._memo) < 256:
+                fm._memo[key] = table
+        r = np.take(table, grp * ub.size + inv)
+        if idx is not None:
+            rv = r.reshape(-1)
+            for gi, sel in sels:
+                ii = idx[sel]
+                if ii.size:
+                    sec, grd = fm.groups[gi]
+                    rv[ii] = fn(sec, grd, s.design_basis, b_near[sel], d_near[sel],
+                                s.resistance_factor, s.dynamic_increase_factor)
+        outs.append(r)
+    return outs
+
+
+def _distinct(b: np.ndarray, limit: int = 16) -> tuple[np.ndarray, np.ndarray]:
+    """``np.unique(b, return_inverse=True)`` for a 1-D array holding few distinct
+    values (a bearing length per load and mat thickness): the values are found in
+    ascending order by repeated masked minima instead of a sort of every point."""
+    if b.size == 0:
+        return np.unique(b, return_inverse=True)
+    v = b.min()
+    vals = [v]
+    while np.isfinite(v):
+        v = np.min(b, where=b > v, initial=np.inf)
+        if not np.isfinite(v):
+            break
+        vals.append(v)
+        if len(vals) > limit:
+            break
+    u = np.array(vals)
+    if len(vals) > limit or not np.isfinite(u[-1]) or b.max() > u[-1]:
+        return np.unique(b, return_inverse=True)
+    return u, np.searchsorted(u, b)
+
+
