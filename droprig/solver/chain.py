@@ -47,7 +47,17 @@ from typing import TypeVar, cast
 import numpy as np
 
 from droprig.model import LiftLoad, Project
-from droprig.solver import capacity, contact, deck, limits, plastic
+from droprig.solver import (
+    capacity,
+    columns,
+    contact,
+    crushing,
+    deck,
+    limits,
+    pads,
+    plastic,
+    slab,
+)
 from droprig.solver import impact as impact_mod
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry
@@ -198,11 +208,24 @@ def load_inputs(c: Chain) -> LoadInputs:
         if not sel.any():
             continue
         t_mat[sel] = pa.thickness
+        # pads by area: the part of the footprint on the pad, the less of the two
+        # footprint orientations (conservative)
+        A_fp = fl[sel] * fw[sel]
+        r = pa.area
+        A_ov = np.minimum(
+            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], fl[sel],
+                                                       fw[sel], True), (r.x0, r.y0, r.x1, r.y1)),
+            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], fl[sel],
+                                                       fw[sel], False), (r.x0, r.y0, r.x1, r.y1)))
         if pa.kind == "spring":
-            f_mat[sel] = 1.0 / float(pa.stiffness)  # type: ignore[arg-type]
+            if pa.modulus is not None:
+                k = pads.spring_mat_stiffness(pa.modulus, pa.thickness, A_ov)
+            else:  # older files: the stiffness for the load's own footprint
+                k = float(pa.stiffness) * A_ov / A_fp  # type: ignore[arg-type]
+            f_mat[sel] = np.where(k > 0.0, 1.0 / np.where(k > 0.0, k, 1.0), 0.0)
         else:
             crushable[sel] = True
-            F_c[sel] = float(pa.crush_force)  # type: ignore[arg-type]
+            F_c[sel] = pads.crushable_pad_force(pad_crush_stress(d.project, pa), A_ov)
             s_c[sel] = float(pa.crush_stroke)  # type: ignore[arg-type]
     h = np.empty(n)
     for j, ld in enumerate(loads):
@@ -221,6 +244,20 @@ def load_inputs(c: Chain) -> LoadInputs:
                       foot_w=fw + spread, lb=lb)
 
 
+def pad_crush_stress(project: Project, pa: object) -> float:
+    """Crush stress of a crushable layer, Pa: its own, or for older projects its crush
+    force over the largest declared footprint of the loads on its level
+    (:func:`droprig.solver.pads.crush_stress_from_force`; the analysis warns)."""
+    stress = getattr(pa, "crush_stress", None)
+    if stress is not None:
+        return float(stress)
+    level_id = getattr(pa, "level_id", None)
+    areas = [ld.footprint_length * ld.footprint_width for z in project.lift_zones
+             if z.level_id == level_id for ld in z.loads]
+    return pads.crush_stress_from_force(float(getattr(pa, "crush_force")),  # noqa: B009
+                                        max(areas, default=1.0))
+
+
 # --------------------------------------------------------------------------- 2. compliance
 @dataclass(frozen=True, eq=False)
 class Compliance:
@@ -228,7 +265,10 @@ class Compliance:
     bending), everything in series with a mat ``f_struct`` = f_s + f_deck + f_load,
     the elastic springs in series with the yielding framing ``f_series`` = f_deck +
     f_load + f_mat, and the total ``f`` = f_struct + f_mat. Deck strip span
-    ``strip_span`` and position ``strip_pos`` (m)."""
+    ``strip_span`` and position ``strip_pos`` (m); ``f_col`` (m/N): the columns'
+    axial springs, part of ``f_s``; ``k_left``, ``k_right`` (N·m/rad): the rotational
+    restraint of the continuous deck strip at its two supports (0 at a deck edge).
+    """
 
     f_s: np.ndarray
     f_deck: np.ndarray
@@ -237,23 +277,56 @@ class Compliance:
     f: np.ndarray
     strip_span: np.ndarray
     strip_pos: np.ndarray
+    f_col: np.ndarray
+    k_left: np.ndarray
+    k_right: np.ndarray
+
+
+def strip_restraint(c: Chain, EI: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Rotational restraint of the deck strip at its two supports, N·m/rad: the far
+    spans of a continuous slab, K = 2√3·EI/L (:data:`droprig.solver.slab.K_INTERIOR`,
+    equal spans), where the deck goes on beyond the support; 0 at a deck edge."""
+    d = c.drop
+    path, frame = d.geo.path, d.fm.frame
+    span = path.strip_span
+    ext = d.fm.level.grid.extent
+    lo, hi = (ext.y0, ext.y1) if frame.deck_axis == "x" else (ext.x0, ext.x1)
+    tol = 1e-3
+    mem = np.where(path.members >= 0, path.members, 0)
+    u1, u2 = frame.cross[mem[:, 0]], frame.cross[mem[:, 1]]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        K = np.where(span > 0.0, slab.K_INTERIOR * EI / np.where(span > 0.0, span, 1.0), 0.0)
+    k_first = np.where((u1 > lo + tol) & (u1 < hi - tol), K, 0.0)
+    k_second = np.where((u2 > lo + tol) & (u2 < hi - tol), K, 0.0)
+    return k_first, k_second
 
 
 def compliance(c: Chain) -> Compliance:
-    """Springs in series, 1/k_eff = Σ 1/k_i (Gere 7th ed. §9.10 energy method); deck
-    by :func:`droprig.solver.contact.deck_contact_compliance`."""
+    """Springs in series, 1/k_eff = Σ 1/k_i (Gere 7th ed. §9.10 energy method): the
+    framing with the columns' axial springs (:mod:`droprig.solver.columns`), the deck's
+    local indentation (:func:`droprig.solver.contact.deck_local_compliance`) and the
+    continuous deck strip (:func:`droprig.solver.slab.continuous_strip_compliance`,
+    gross section, restrained by the spans beyond its supports), the load's underside
+    and a mat."""
     d, inp = c.drop, c[LoadInputs]
     lv, path = d.fm.level, d.geo.path
     span, pos = path.strip_span, path.strip_pos
+    basis = d.fm.settings.design_basis
     width = deck.deck_effective_width(span, pos, np.maximum(inp.foot_l, inp.foot_w),
                                       lv.deck.thickness)
-    f_deck = contact.deck_contact_compliance(lv.deck, span, pos, width, inp.foot_l,
-                                             inp.foot_w, d.fm.settings.design_basis)
-    f_s = path.f
+    EI = contact.concrete_modulus(lv.deck.concrete.fc, basis) * width \
+        * lv.deck.thickness**3 / 12.0
+    k_l, k_r = strip_restraint(c, EI)
+    f_strip = np.where(span > 0.0, slab.continuous_strip_compliance(
+        np.where(span > 0.0, span, 1.0), pos, EI, k_l, k_r), 0.0)
+    f_deck = contact.deck_local_compliance(lv.deck, inp.foot_l, inp.foot_w, basis) + f_strip
+    f_col = columns.column_compliance(d.fm.frame, path, columns.level_column_compliance(lv))
+    f_s = path.f + f_col
     f_struct = f_s + f_deck + inp.f_load
     f_series = f_deck + inp.f_load + inp.f_mat
     return Compliance(f_s=f_s, f_deck=f_deck, f_struct=f_struct, f_series=f_series,
-                      f=f_struct + inp.f_mat, strip_span=span, strip_pos=pos)
+                      f=f_struct + inp.f_mat, strip_span=span, strip_pos=pos, f_col=f_col,
+                      k_left=k_l, k_right=k_r)
 
 
 # --------------------------------------------------------------------------- 3. struck mass
@@ -299,7 +372,10 @@ def struck_mass(c: Chain) -> StruckMass:
 class Impact:
     """Per point: dynamic factor ``K`` = F/W, peak force ``F`` (N), peak deflection of
     the load ``d_max`` (m), static deflection ``d_st`` = W·f (m); through a crushable
-    layer its crushed depth ``crush`` (m) and whether it bottomed out ``bottomed``."""
+    layer its crushed depth ``crush`` (m) and whether it bottomed out ``bottomed``;
+    ``F_crush`` (N): the force at which the deck concrete under the footprint crushes
+    (the bound on the contact force), ``deck_crush`` (m) how deep it crushed and
+    ``deck_through`` whether the crushing passed the cover."""
 
     K: np.ndarray
     F: np.ndarray
@@ -307,6 +383,9 @@ class Impact:
     d_st: np.ndarray
     crush: np.ndarray
     bottomed: np.ndarray
+    F_crush: np.ndarray
+    deck_crush: np.ndarray
+    deck_through: np.ndarray
 
 
 def impact(c: Chain) -> Impact:
@@ -330,7 +409,28 @@ def impact(c: Chain) -> Impact:
         bottomed[crushable] = bot
         K = np.where(crushable, F / W, K)
         d_max = np.where(crushable, F * comp.f_struct + crush, d_max)
-    return Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed)
+    # contact force bounded by the crushing of the deck concrete under the footprint
+    # (EN 1992-1-1 §6.7 / ACI 318-19 §22.8.3.2 as an upper estimate,
+    # droprig.solver.crushing); the crushing absorbs F_crush·c; crushing deeper than
+    # the cover reaches the bars: the rest of the energy is then taken elastically
+    lv = d.fm.level
+    F_crush = crushing.concrete_bearing_pressure(
+        lv.deck.concrete.fc, inp.foot_l, inp.foot_w, lv.deck.thickness,
+        d.fm.settings.design_basis) * inp.foot_l * inp.foot_w
+    deck_crush = np.zeros(n)
+    deck_through = np.zeros(n, dtype=bool)
+    cap = ~crushable & (F > F_crush)
+    if cap.any():
+        Fb, dep, thr = crushing.crushing_limited_impact(W[cap], inp.h[cap], comp.f[cap],
+                                                        sm.eta[cap], F_crush[cap],
+                                                        lv.deck.cover)
+        F[cap] = Fb
+        deck_crush[cap] = dep
+        deck_through[cap] = thr
+        K = np.where(cap, F / W, K)
+        d_max = np.where(cap, F * comp.f + deck_crush, d_max)
+    return Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed,
+                  F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through)
 
 
 # --------------------------------------------------------------------------- 5. demands
@@ -379,7 +479,10 @@ def demands(c: Chain) -> Demands:
     thick = lv.deck.thickness
     mu1 = deck.deck_unit_moment_per_width(span, pos, inp.foot_l, inp.foot_w, thick)
     mu2 = deck.deck_unit_moment_per_width(span, pos, inp.foot_w, inp.foot_l, thick)
-    m_deck = np.maximum(mu1, mu2)
+    # the strip is continuous over its supports: the sagging moment under the load is
+    # that of a span restrained by the spans beyond (droprig.solver.slab), zero on a
+    # support line (the load bears on the steel there)
+    m_deck = np.maximum(mu1, mu2) * continuity_ratio(comp)
     M0_deck = deck.deck_existing_moment_per_width(span, fm.q0)
     deckm = np.full((1, n), DECK)
     out["deck_flexure"] = small_check("deck_flexure", F, m_deck[None, :],
@@ -391,6 +494,24 @@ def demands(c: Chain) -> Demands:
                                        np.broadcast_to(R_punch, (n,))[None, :], deckm,
                                        detail)
     return Demands(checks=out, actions=ua)
+
+
+def continuity_ratio(comp: Compliance) -> np.ndarray:
+    """Sagging moment under a load at ``strip_pos`` of the restrained strip over that of
+    the simply supported strip, a·b/L (dimensionless, 0 on a support line):
+    :func:`droprig.solver.slab.continuous_strip_sagging_moment` with the restraints
+    K of :func:`strip_restraint` (both scale with EI, so EI = 1 with K/EI)."""
+    span, pos = comp.strip_span, comp.strip_pos
+    ok = span > 0.0
+    L = np.where(ok, span, 1.0)
+    x = np.clip(pos, 0.0, L)
+    K = np.where(ok, slab.K_INTERIOR / L, 0.0)
+    kl = np.where(comp.k_left > 0.0, K, 0.0)
+    kr = np.where(comp.k_right > 0.0, K, 0.0)
+    M = slab.continuous_strip_sagging_moment(L, x, 1.0, kl, kr)
+    M_ss = x * (L - x) / L
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return np.where(ok & (M_ss > 0.0), M / np.where(M_ss > 0.0, M_ss, 1.0), 0.0)
 
 
 # --------------------------------------------------------------------------- 6. checks
