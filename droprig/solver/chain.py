@@ -482,18 +482,67 @@ def demands(c: Chain) -> Demands:
     # the strip is continuous over its supports: the sagging moment under the load is
     # that of a span restrained by the spans beyond (droprig.solver.slab), zero on a
     # support line (the load bears on the steel there)
-    m_deck = np.maximum(mu1, mu2) * continuity_ratio(comp)
+    # near a girder the panel also carries load across to it: crossing strips share the
+    # load by their deflections (two_way_share); the cross strip is checked with the
+    # distribution steel, 20 % of the main bars (EN 1992-1-1 §9.3.1.1(2), as punching)
+    share_x, Ly, yb = two_way_share(c)
+    m_x = np.maximum(mu1, mu2) * continuity_ratio(comp) * share_x
+    my1 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_l, inp.foot_w, thick)
+    my2 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_w, inp.foot_l, thick)
+    # where the footprint reaches over the girder line its base bears on the girder
+    # (rigid base on the stiffer support, common practice, no source): no cross-strip
+    # bending there, for each orientation of the footprint
+    ey = np.minimum(yb, Ly - yb)
+    m_y = np.maximum(np.where(ey > 0.5 * inp.foot_l, my1, 0.0),
+                     np.where(ey > 0.5 * inp.foot_w, my2, 0.0)) * (1.0 - share_x)
     M0_deck = deck.deck_existing_moment_per_width(span, fm.q0)
-    deckm = np.full((1, n), DECK)
-    out["deck_flexure"] = small_check("deck_flexure", F, m_deck[None, :],
-                                      np.broadcast_to(M0_deck, (n,))[None, :],
-                                      np.full((1, n), fm.deck_Mr), deckm, detail)
+    out["deck_flexure"] = small_check(
+        "deck_flexure", F, np.stack([m_x, m_y]),
+        np.stack([np.broadcast_to(M0_deck, (n,)), np.zeros(n)]),
+        np.stack([np.full(n, fm.deck_Mr), np.full(n, DISTRIBUTION_SHARE * fm.deck_Mr)]),
+        np.full((2, n), DECK), detail)
     R_punch = deck.punching_resistance(lv.deck, inp.foot_l, inp.foot_w, s.design_basis,
                                        s.resistance_factor)
+    deckm = np.full((1, n), DECK)
     out["deck_punching"] = small_check("deck_punching", F, np.ones((1, n)), None,
                                        np.broadcast_to(R_punch, (n,))[None, :], deckm,
                                        detail)
     return Demands(checks=out, actions=ua)
+
+
+DISTRIBUTION_SHARE = 0.2
+"""Distribution (cross) steel of the deck as a share of its main bars: the minimum of
+EN 1992-1-1 §9.3.1.1(2), 20 % (the same assumption as the punching check)."""
+
+
+def two_way_share(c: Chain) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Share of the load carried by the deck strip between the beams, the rest going
+    along the cross strip to the girders, by equal deflection of two crossing strips
+    at the load (Rankine–Grashof crossing-strip method; Reynolds, *Reinforced Concrete
+    Designer's Handbook*, two-way slabs — from memory): share = g_y/(g_x + g_y),
+    g_x the restrained main strip's deflection under a unit load
+    (:func:`droprig.solver.slab.continuous_strip_compliance`, same EI both ways),
+    g_y = y²(Ly − y)²/(3·Ly) of the cross strip simply supported on the girders
+    (AISC Manual Table 3-23 case 8; conservative for the main strip). On a girder
+    line g_y = 0: the load bears on the girder. Returns (share, Ly, y) with Ly the
+    girder spacing (the deck beams' span, m) and y the position along it (m)."""
+    d, comp = c.drop, c[Compliance]
+    path, frame = d.geo.path, d.fm.frame
+    span, pos = comp.strip_span, comp.strip_pos
+    mem = np.where(path.members[:, 0] >= 0, path.members[:, 0], 0)
+    Ly = frame.L[mem]
+    yb = np.clip(path.a[:, 0], 0.0, Ly)
+    ok = span > 0.0
+    L = np.where(ok, span, 1.0)
+    K = slab.K_INTERIOR / L
+    gx = slab.continuous_strip_compliance(L, np.clip(pos, 0.0, L), 1.0,
+                                          np.where(comp.k_left > 0.0, K, 0.0),
+                                          np.where(comp.k_right > 0.0, K, 0.0))
+    gy = yb**2 * (Ly - yb) ** 2 / (3.0 * Ly)
+    tot = gx + gy
+    with np.errstate(divide="ignore", invalid="ignore"):
+        share = np.where(tot > 0.0, gy / np.where(tot > 0.0, tot, 1.0), 0.0)
+    return np.where(ok, share, 0.0), Ly, yb
 
 
 def continuity_ratio(comp: Compliance) -> np.ndarray:
