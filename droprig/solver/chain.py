@@ -42,11 +42,12 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from dataclasses import dataclass
+from types import SimpleNamespace
 from typing import TypeVar, cast
 
 import numpy as np
 
-from droprig.model import LiftLoad, Project
+from droprig.model import Deck, LiftLoad, Project
 from droprig.solver import (
     capacity,
     columns,
@@ -474,7 +475,7 @@ def demands(c: Chain) -> Demands:
     out["web_yielding"] = small_check("web_yielding", F, shareT, None, Rwy, memT, detail)
     out["web_crippling"] = small_check("web_crippling", F, shareT, None, Rwc, memT, detail)
     # deck flexure (worse of the two footprint orientations) and punching
-    lv, s = fm.level, fm.settings
+    lv = fm.level
     span, pos = comp.strip_span, comp.strip_pos
     thick = lv.deck.thickness
     mu1 = deck.deck_unit_moment_per_width(span, pos, inp.foot_l, inp.foot_w, thick)
@@ -501,13 +502,52 @@ def demands(c: Chain) -> Demands:
         np.stack([np.broadcast_to(M0_deck, (n,)), np.zeros(n)]),
         np.stack([np.full(n, fm.deck_Mr), np.full(n, DISTRIBUTION_SHARE * fm.deck_Mr)]),
         np.full((2, n), DECK), detail)
-    R_punch = deck.punching_resistance(lv.deck, inp.foot_l, inp.foot_w, s.design_basis,
-                                       s.resistance_factor)
+    R_punch = punching_resistance_at(c)
     deckm = np.full((1, n), DECK)
     out["deck_punching"] = small_check("deck_punching", F, np.ones((1, n)), None,
                                        np.broadcast_to(R_punch, (n,))[None, :], deckm,
                                        detail)
     return Demands(checks=out, actions=ua)
+
+
+def punching_resistance_at(c: Chain) -> np.ndarray:
+    """Punching resistance of the deck under the footprint at each point, N.
+
+    :func:`droprig.solver.deck.punching_resistance` with the concrete over the ribs
+    of a composite deck (h − rib height, EN 1994-1-1 §9.7.6, from memory), scaled by
+    the share of the control perimeter u1 left beside a deck opening within 6d: the
+    part between the tangents from the loaded area's centre to the opening is
+    ineffective (EN 1992-1-1 §6.4.2(3), Fig. 6.14); the worse footprint orientation
+    is taken (conservative; the same geometry is used for the ACI basis, whose
+    perimeter is at d/2). The deck's outline rests on edge members in droprig's
+    model (a supported edge, where the load bears on the steel), so the free-edge
+    perimeters of §6.4.2(4) apply at openings only — through the tangent rule."""
+    d, inp = c.drop, c[LoadInputs]
+    lv, s = d.fm.level, d.fm.settings
+    dk = lv.deck
+    dk_p = dk if dk.rib_height <= 0.0 else cast(
+        Deck, SimpleNamespace(thickness=dk.thickness - dk.rib_height, cover=dk.cover,
+                              rebar_area=dk.rebar_area, concrete=dk.concrete))
+    R = np.broadcast_to(deck.punching_resistance(dk_p, inp.foot_l, inp.foot_w,
+                                                 s.design_basis, s.resistance_factor),
+                        (d.n,))
+    if not dk.openings:
+        return R
+    dd = max(deck.effective_depth(dk_p), 1e-3)
+    x, y = d.geo.x, d.geo.y
+    ratio = np.ones(d.n)
+    for lx, ly in ((inp.foot_l, inp.foot_w), (inp.foot_w, inp.foot_l)):
+        u1 = slab.control_perimeter_edges(lx, ly, dd)
+        cut = np.zeros(d.n)
+        for op in dk.openings:
+            reach = 8.0 * dd  # 6d from the loaded area plus the 2d of u1
+            near = ((x + lx / 2 + reach >= op.x0) & (x - lx / 2 - reach <= op.x1)
+                    & (y + ly / 2 + reach >= op.y0) & (y - ly / 2 - reach <= op.y1))
+            if near.any():
+                cut[near] += slab.opening_ineffective_length(
+                    x[near], y[near], lx[near], ly[near], dd, (op.x0, op.y0, op.x1, op.y1))
+        ratio = np.minimum(ratio, np.maximum(u1 - cut, 0.0) / u1)
+    return R * ratio
 
 
 DISTRIBUTION_SHARE = 0.2

@@ -21,8 +21,8 @@ import pytest
 
 from droprig.io.project_file import load_project
 from droprig.model import ProtectionArea, Rect
-from droprig.solver import CHECKS, analyse, analysis, evaluate
-from droprig.solver.chain import Compliance, Impact, LoadInputs, outputs
+from droprig.solver import CHECKS, analyse, analysis, deck, evaluate
+from droprig.solver.chain import Compliance, Demands, Impact, LoadInputs, outputs
 from droprig.solver.impact import G
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -211,3 +211,34 @@ def test_girder_line_points_never_governed_by_deck_flexure(name, roof, steel):
         assert not np.any(gov == CHECKS.index("deck_flexure"))
         on_line_total += int(on.sum())
     assert on_line_total > 0
+
+
+def test_punching_beside_an_opening_and_over_ribs(roof):
+    # EN 1992-1-1 §6.4.2(3), Fig. 6.14: a 0.2 × 0.2 m load at p, an opening from
+    # x = p + 0.5 to p + 0.7 m, |y − p_y| ≤ 0.05 m: tangents at ±atan(0.05/0.5); they
+    # cut the straight face of u1 at x = 0.1 + 2d over |y| ≤ (0.1 + 2d)·0.1, so
+    # 2·(0.1 + 2d)·0.1 of u1 = 2(0.2 + 0.2) + 4πd is ineffective (d = 0.13 − 0.025
+    # − 0.006 = 0.099 m, as test_deck)
+    px, py = 11.25, 13.5
+    lv = roof.levels[0]
+    crate = replace(roof.lift_zones[0].loads[0], name="crate", footprint_length=0.2,
+                    footprint_width=0.2, contact_stiffness=None)
+    hole = Rect(px + 0.5, py - 0.05, px + 0.7, py + 0.05)
+    with_hole = replace(roof, levels=(replace(lv, deck=replace(lv.deck, openings=(hole,))),),
+                        protection_areas=())
+    bare = replace(roof, protection_areas=())
+    R0 = _chain(bare, crate, [px], [py])[Demands].checks["deck_punching"]
+    R1 = _chain(with_hole, crate, [px], [py])[Demands].checks["deck_punching"]
+    d = 0.099
+    u1 = 2 * 0.4 + 4 * math.pi * d
+    cut = 2 * (0.1 + 2 * d) * 0.1
+    assert R1.F_allow[0] / R0.F_allow[0] == pytest.approx(1 - cut / u1, rel=5e-3)
+    # EN 1994-1-1 §9.7.6 (from memory): over 60 mm ribs the depth is that of the
+    # 70 mm topping: the resistance is that of a 70 mm slab (EN 1992-1-1 §6.4.4 as
+    # checked in test_deck)
+    ribbed = replace(bare, levels=(replace(lv, deck=replace(lv.deck, rib_height=0.06)),))
+    R2 = _chain(ribbed, crate, [px], [py])[Demands].checks["deck_punching"]
+    topping = replace(lv.deck, thickness=0.07, cover=0.025)
+    R_top = deck.punching_resistance(topping, 0.2, 0.2, roof.settings.design_basis)
+    assert R2.F_allow[0] == pytest.approx(float(R_top), rel=1e-9)
+    assert R2.F_allow[0] < 0.6 * R0.F_allow[0]
