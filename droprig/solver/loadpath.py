@@ -467,15 +467,18 @@ def _deck_axis(level: Level) -> str:
     return "y" if max(("x", "y"), key=girders.count) == "x" else "x"
 
 
-def build_frame(level: Level, *, include_member_mass: bool = True) -> Frame:
-    """Precompute the load-path data of ``level`` (see :class:`Frame`)."""
+def build_frame(level: Level, *, include_member_mass: bool = True,
+                EI: np.ndarray | None = None) -> Frame:
+    """Precompute the load-path data of ``level`` (see :class:`Frame`). ``EI``
+    (N·m², per member) replaces the steel sections' E·Ix (composite members)."""
     members = level.members
     n_m = len(members)
     if n_m == 0:
         raise ModelError(f"level {level.id}.members", 0, "at least one member")
     cond = np.array([COND_NAMES.index(m.end_condition) for m in members], dtype=np.int64)
     L = np.array([m.span for m in members])
-    EI = np.array([m.grade.E * m.section.Ix for m in members])
+    EI = (np.array([m.grade.E * m.section.Ix for m in members]) if EI is None
+          else np.asarray(EI, float).copy())
     mu = np.array([m.section.mass_per_length for m in members])
     if not include_member_mass:
         mu = np.zeros(n_m)

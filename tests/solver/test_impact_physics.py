@@ -242,3 +242,30 @@ def test_punching_beside_an_opening_and_over_ribs(roof):
     R_top = deck.punching_resistance(topping, 0.2, 0.2, roof.settings.design_basis)
     assert R2.F_allow[0] == pytest.approx(float(R_top), rel=1e-9)
     assert R2.F_allow[0] < 0.6 * R0.F_allow[0]
+
+
+def test_composite_beam_by_hand(roof):
+    # EN 1994-1-1 §6.2.1.2 (full connection, PNA in the slab): IPE 360 (A = 72.7 cm²,
+    # EN 10365, from memory), S355, under the 130 mm solid roof slab; b_eff = 2 × min(L/8,
+    # half the 2.5 m spacing) = 2.25 m (§5.4.1.2); 0.85·fck/γc = 0.85 × 30/1.2 = 21.25 MPa
+    # → C_c,max = 6.22 MN > A·fy = 2.58 MN, a = 2.58e6/(21.25e6 × 2.25) = 54 mm,
+    # Mpl = A·fy·(h + d/2 − a/2)
+    lv = roof.levels[0]
+    k = next(i for i, m in enumerate(lv.members) if m.id == "B2.1/B-C")
+    m = lv.members[k]
+    assert m.section.A == pytest.approx(72.7e-4, rel=3e-3)
+    members = tuple(replace(mm, composite=True) if i == k else mm
+                    for i, mm in enumerate(lv.members))
+    fm0 = analysis.build_floor(lv, roof.settings)
+    fm1 = analysis.build_floor(replace(lv, members=members), roof.settings)
+    Ts = m.section.A * 355e6
+    a = Ts / (0.85 * 30e6 / 1.2 * 2.25)
+    assert fm1.Mr[k] == pytest.approx(Ts * (0.13 + m.section.d / 2 - a / 2), rel=1e-9)
+    assert fm1.Mr[k] > 1.9 * fm0.Mr[k]
+    # stiffer with the slab (transformed section, E_a/E_cm; Gere §12.5): more force
+    assert fm1.frame.EI[k] > 3 * fm0.frame.EI[k]
+    # a fixed-ended member keeps steel alone, with a warning
+    fixed = tuple(replace(mm, composite=True, end_condition="fixed") if i == k else mm
+                  for i, mm in enumerate(lv.members))
+    fm2 = analysis.build_floor(replace(lv, members=fixed), roof.settings)
+    assert any("composite action" in w for w in fm2.warnings)
