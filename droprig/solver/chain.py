@@ -51,6 +51,7 @@ from droprig.model import Deck, LiftLoad, Project
 from droprig.solver import (
     capacity,
     columns,
+    composite,
     contact,
     crushing,
     deck,
@@ -62,7 +63,7 @@ from droprig.solver import (
 from droprig.solver import impact as impact_mod
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry
-from droprig.solver.linear_checks import Check, small_check
+from droprig.solver.linear_checks import Check, Family, small_check
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PLASTIC
 from droprig.solver.unit_actions import (
@@ -91,7 +92,8 @@ __all__ = [
 ]
 
 CHECK = {name: i for i, name in enumerate(CHECKS)}
-BRITTLE = ("shear", "web_yielding", "web_crippling", "deck_flexure", "deck_punching")
+BRITTLE = ("shear", "web_yielding", "web_crippling", "deck_flexure", "deck_punching",
+           "connection")
 """Checks with no plastic reserve (DNV-RP-C204 accidental limit state, from memory)."""
 
 FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
@@ -466,6 +468,7 @@ def demands(c: Chain) -> Demands:
     out: dict[str, Check] = {}
     out["flexure"] = ua.flexure.check("flexure", F, detail)
     out["shear"] = ua.shear.check("shear", F, detail)
+    out["connection"] = connection_family(fm, ua.shear).check("connection", F, detail)
     # web checks under the load (each deck-supporting member, its share)
     lb = inp.lb
     dist = np.maximum(np.minimum(aT, LT - aT) - 0.5 * lb, 0.0)
@@ -508,6 +511,25 @@ def demands(c: Chain) -> Demands:
                                        np.broadcast_to(R_punch, (n,))[None, :], deckm,
                                        detail)
     return Demands(checks=out, actions=ua)
+
+
+def connection_family(fm: FloorModel, shear: Family) -> Family:
+    """End shear of every path member against its end connections: the shear
+    family's end candidates (AISC Manual Table 3-23 end reactions) with the
+    connection capacity ``Member.connection_capacity`` in place of the web's
+    resistance, or the stated default
+    :data:`droprig.solver.composite.CONNECTION_DEFAULT_FRACTION` of it
+    (:func:`droprig.solver.composite.connection_capacity`). Brittle (bolts, welds)."""
+    Vc = np.array([composite.connection_capacity(float(fm.Vr[k]), m.connection_capacity)
+                   for k, m in enumerate(fm.level.members)])
+    mem = shear.members
+    Vc_pts = np.where(mem >= 0, Vc[np.where(mem >= 0, mem, 0)], np.inf)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        scale = np.where(np.isfinite(Vc_pts), shear.resist / Vc_pts, 1.0)
+    rows = scale[shear.src]
+    return Family(shear.ut * rows, shear.Et * rows, mem,
+                  np.where(np.isfinite(Vc_pts), Vc_pts, shear.resist), shear.src,
+                  shear.groups)
 
 
 def punching_resistance_at(c: Chain) -> np.ndarray:

@@ -269,3 +269,25 @@ def test_composite_beam_by_hand(roof):
                   for i, mm in enumerate(lv.members))
     fm2 = analysis.build_floor(replace(lv, members=fixed), roof.settings)
     assert any("composite action" in w for w in fm2.warnings)
+
+
+def test_connection_end_shear_by_hand(roof):
+    # the unit over bay 2-3/B-C at (11.25, 13.5): beam B2.1/B-C takes F/2 at midspan, so
+    # each end connection carries F/4 + w0·L/2 (AISC Manual Table 3-23 cases 1 and 7),
+    # w0 = 57.1 kg/m·g + (0.13 × 2400 × g + 1500 Pa) × 2.5 m; against a 100 kN connection
+    # (the other members given ample connections)
+    lv = roof.levels[0]
+    members = tuple(replace(m, connection_capacity=(1e5 if m.id == "B2.1/B-C" else 1e8))
+                    for m in lv.members)
+    p = replace(roof, levels=(replace(lv, members=members),))
+    c = _chain(p, roof.lift_zones[0].loads[0], [11.25], [13.5])
+    F = float(c[Impact].F[0])
+    w0 = 57.1 * G + (0.13 * 2400.0 * G + 1500.0) * 2.5
+    U = (F / 4 + w0 * 9.0 / 2) / 1e5
+    chk = c[Demands].checks["connection"]
+    assert chk.U[0] == pytest.approx(U, rel=1e-3)
+    assert lv.members[int(chk.member[0])].id == "B2.1/B-C"
+    # no capacity given: half the web's plastic shear resistance (stated default)
+    c0 = _chain(roof, roof.lift_zones[0].loads[0], [11.25], [13.5])
+    d0 = c0[Demands].checks
+    assert d0["connection"].U[0] == pytest.approx(2.0 * d0["shear"].U[0], rel=1e-9)
