@@ -17,6 +17,7 @@ sysdeps:
 	@sh scripts/sysdeps.sh $(QT_DEBS)
 
 test: sysdeps $(STAMP)
+	$(PY) -m mypy
 	QT_QPA_PLATFORM=offscreen $(PY) -m pytest -q
 
 demo: sysdeps $(STAMP)
@@ -24,6 +25,7 @@ demo: sysdeps $(STAMP)
 
 lint: $(STAMP)
 	$(PY) -m ruff check droprig tests benchmarks
+	$(PY) -m mypy
 
 bench: sysdeps $(STAMP)
 	@for f in benchmarks/bench_*.py; do echo "== $$f"; QT_QPA_PLATFORM=offscreen $(PY) $$f || exit 1; done

@@ -16,7 +16,7 @@ from __future__ import annotations
 
 from droprig import units
 from droprig.outcomes import fmt_utilisation
-from droprig.solver.results import BaySummary
+from droprig.solver import BaySummary
 from droprig.units import UnitSystem
 
 __all__ = ["advice_text", "fmt_down", "fmt_up"]

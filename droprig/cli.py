@@ -14,15 +14,11 @@ import sys
 from collections.abc import Sequence
 
 from droprig import __version__
+from droprig.texts import CAUTION
 
 EXIT_OK = 0
 EXIT_BAD_INPUT = 2
 
-CAUTION = (
-    "CAUTION: droprig is an aid to a competent person. Results must be reviewed against "
-    "local codes by the appointed lifting person and a licensed structural engineer; keep "
-    "people out from under the load path whatever the result."
-)
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -105,7 +101,7 @@ def main(argv: Sequence[str] | None = None) -> int:
         print("droprig: interrupted", file=sys.stderr)
         return 130
     except Exception as exc:  # last line of defence: a message, never a traceback
-        from droprig.commands import describe_error
+        from droprig.texts import describe_error
 
         print(f"droprig {name}: {describe_error(exc)}", file=sys.stderr)
         return EXIT_BAD_INPUT

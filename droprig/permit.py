@@ -30,7 +30,7 @@ from typing import Literal
 from droprig import units
 from droprig.model import Project, bays
 from droprig.outcomes import fmt_utilisation
-from droprig.solver.results import BaySummary, CaseResult, Results
+from droprig.solver import BaySummary, CaseResult, Results
 from droprig.units import UnitSystem
 
 __all__ = [

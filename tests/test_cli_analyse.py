@@ -14,7 +14,7 @@ from pathlib import Path
 
 import pytest
 
-from droprig.cli import CAUTION, main
+from droprig.cli import main
 from droprig.io.project_file import save_project
 from droprig.model import (
     ColumnGrid,
@@ -29,6 +29,7 @@ from droprig.model import (
     Settings,
     generate_level,
 )
+from droprig.texts import CAUTION
 
 GRADE = Grade("S355", "EN", ((0.016, 355e6), (0.04, 345e6)), 470e6)
 SEC = Section("C1", "custom", d=0.3, bf=0.15, tw=0.0071, tf=0.0107, r=0.015, A=5.381e-3,

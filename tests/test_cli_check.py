@@ -13,9 +13,10 @@ import json
 
 import pytest
 
-from droprig.cli import CAUTION, main
+from droprig.cli import main
 from droprig.io.sections import get_grade, get_section
 from droprig.solver.member import RESULT_KEYS, assess_member
+from droprig.texts import CAUTION
 
 FT, IN, LB = 0.3048, 0.0254, 0.45359237
 REL = 1e-12

@@ -47,7 +47,41 @@ def test_solver_imports_only_model_and_numpy() -> None:
             assert not any(i.startswith(bad) for i in imps), f"{path} imports {bad}"
 
 
-@pytest.mark.parametrize("module", ["outcomes.py", "advice.py"])
+def _outer_files() -> list[pathlib.Path]:
+    return [p for p in ROOT.rglob("*.py") if (ROOT / "solver") not in p.parents]
+
+
+def test_outer_layers_use_only_the_solver_face() -> None:
+    # GUI, CLI, report and the shared edge modules import the solver's public names
+    # from ``droprig.solver`` and nothing from its modules
+    for path in _outer_files():
+        deep = sorted(i for i in _imports(path) if i.startswith("droprig.solver."))
+        assert not deep, f"{path.relative_to(ROOT)} imports {deep}"
+
+
+def test_solver_face_names_exist() -> None:
+    import droprig.solver as solver
+
+    assert solver.__all__, "the solver's public face is empty"
+    for name in solver.__all__:
+        assert hasattr(solver, name), name
+    for name in ("analyse", "trace_point", "assess_member", "member_resistances",
+                 "check_framing", "Results", "CaseResult", "BaySummary", "Trace"):
+        assert name in solver.__all__, name
+
+
+def test_nothing_imports_the_command_line_but_itself() -> None:
+    # the caution and error texts live in droprig.texts; no arrow runs back up
+    for path in _outer_files():
+        rel = path.relative_to(ROOT)
+        if rel.parts[0] == "commands" or rel.name in ("cli.py", "__main__.py"):
+            continue
+        bad = [i for i in _imports(path) if i in ("droprig.cli", "droprig.commands")
+               or i.startswith("droprig.commands.")]
+        assert not bad, f"{rel} imports {bad}"
+
+
+@pytest.mark.parametrize("module", ["outcomes.py", "advice.py", "texts.py"])
 def test_shared_edge_modules_are_qt_free(module: str) -> None:
     # read by the desktop app, the annex and the command line alike
     imps = _imports(ROOT / module)

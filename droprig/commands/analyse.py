@@ -18,7 +18,8 @@ from dataclasses import asdict
 from typing import Any
 
 from droprig import __version__
-from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
+from droprig.cli import EXIT_BAD_INPUT, EXIT_OK
+from droprig.texts import CAUTION
 
 CSV_COLUMNS: tuple[tuple[str, str], ...] = (
     ("x", "x_m"),
@@ -100,7 +101,7 @@ def _cell(v: float) -> str:
 def csv_text(project: Any, results: Any) -> str:
     """One row per drop point (SI units named in the header; empty cell = none)."""
     from droprig.model import bays
-    from droprig.solver.results import CHECKS, DECK, RESPONSES
+    from droprig.solver import CHECKS, DECK, RESPONSES
 
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
@@ -171,10 +172,10 @@ def _write(target: str, text: str) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from droprig.commands import describe_error
     from droprig.io.project_file import ProjectFileError, load_project
     from droprig.model import ModelError
-    from droprig.solver.analysis import analyse
+    from droprig.solver import analyse
+    from droprig.texts import describe_error
 
     try:
         project = load_project(args.file)

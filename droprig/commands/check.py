@@ -18,9 +18,10 @@ import math
 import sys
 from typing import Any
 
-from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
+from droprig.cli import EXIT_BAD_INPUT, EXIT_OK
 from droprig.model import CONTACT_STIFFNESS_RANGE, ModelError
-from droprig.solver.member import DEFAULT_DEFLECTION_LIMIT_RATIO
+from droprig.solver import DEFAULT_DEFLECTION_LIMIT_RATIO
+from droprig.texts import CAUTION
 from droprig.units import UnitError, fmt, parse
 
 # Ranges match the project model (droprig.model.project) so a value accepted here
@@ -93,8 +94,7 @@ def run(args: argparse.Namespace) -> int:
 
 def _run(args: argparse.Namespace) -> int:
     from droprig.io.sections import GradeNotFound, SectionNotFound, get_grade, get_section
-    from droprig.solver import beam
-    from droprig.solver.member import RESULT_KEYS, assess_member
+    from droprig.solver import RESULT_KEYS, assess_member, on_rigid_support
 
     try:
         section = get_section(args.section)
@@ -138,7 +138,7 @@ def _run(args: argparse.Namespace) -> int:
         _range("--crush-stroke", s_c, *CRUSH_STROKE_RANGE, "small_length", system)
     if udl is not None:
         _range("--udl", udl, *UDL_RANGE, "line_load", system)
-    if float(beam.green(args.support, span, 1.0, at, at)) <= 0.0 and k_c is None \
+    if on_rigid_support(args.support, span, at) and k_c is None \
             and F_c is None and k_load is None:
         raise _BadInputError(f"--at: {fmt(at, 'length', system)} is on a support of a "
                         f"{args.support} member; supports are taken as rigid, so the "

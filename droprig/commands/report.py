@@ -14,7 +14,8 @@ import argparse
 import os
 import sys
 
-from droprig.cli import CAUTION, EXIT_BAD_INPUT, EXIT_OK
+from droprig.cli import EXIT_BAD_INPUT, EXIT_OK
+from droprig.texts import CAUTION
 
 
 def _fail(message: str) -> int:
@@ -23,10 +24,10 @@ def _fail(message: str) -> int:
 
 
 def run(args: argparse.Namespace) -> int:
-    from droprig.commands import describe_error
     from droprig.io.project_file import ProjectFileError, load_project
     from droprig.model import ModelError
     from droprig.report import content
+    from droprig.texts import describe_error
     from droprig.units import UnitError
 
     path = args.file
@@ -60,7 +61,7 @@ def run(args: argparse.Namespace) -> int:
         return _fail(f"{path}: the project has no lift zone to report on")
 
     from droprig.report.annex import write_annex
-    from droprig.solver.analysis import analyse
+    from droprig.solver import analyse
 
     try:
         results = analyse(project)
@@ -72,14 +73,14 @@ def run(args: argparse.Namespace) -> int:
         return _fail(str(exc))
     except OSError as exc:
         return _fail(f"cannot write {out}: {describe_error(exc)}")
-    verdicts = content.zone_verdicts(project, results, zones)
-    overall = content.overall_response(verdicts)
-    style = content.OUTCOMES.get(overall, content.OUTCOMES[content.NOT_ASSESSED])
+    from droprig.report.annex import VERDICT_WORDS, permit_conditions
+
+    permit = permit_conditions(project, results)
     print(f"{os.path.abspath(out)} ({pages} pages)")
-    print(f"overall verdict: {style.label.upper()}" + (
-        f" ({overall})" if overall != content.NOT_ASSESSED else ""))
+    print(f"overall verdict: {VERDICT_WORDS[permit.verdict].upper()}")  # type: ignore[attr-defined]
+    verdicts = content.zone_verdicts(project, results, zones)
     for zv in verdicts:
         zs = content.OUTCOMES.get(zv.response, content.OUTCOMES[content.NOT_ASSESSED])
-        print(f"  lift zone {zv.zone.id}: {zs.label.lower()}")
+        print(f"  lift zone {zv.zone.id}: worst response {zs.label.lower()}")
     print(CAUTION)
     return EXIT_OK

@@ -18,20 +18,20 @@ from PySide6.QtCore import QObject, QRunnable, QThreadPool, QTimer, Signal
 
 from droprig.gui.document import Document
 from droprig.model import Project
-from droprig.solver.results import Results
+from droprig.solver import Results
 
 AnalyseFn = Callable[[Project], Results]
 
 
 def _default_analyse(project: Project) -> Results:
-    from droprig.solver.analysis import analyse
+    from droprig.solver import analyse
 
     return analyse(project)
 
 
 def describe_analysis_error(exc: BaseException) -> str:
     """One line for the status bar / results panel."""
-    from droprig.commands import describe_error
+    from droprig.texts import describe_error
 
     return describe_error(exc)
 

@@ -21,7 +21,7 @@ from PySide6.QtGui import QUndoStack
 
 from droprig.gui.commands import ProjectEdit
 from droprig.model import Level, Project, bays
-from droprig.solver.results import Results
+from droprig.solver import Results
 
 # ------------------------------------------------------------------ selection
 

@@ -44,10 +44,10 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
-from droprig.cli import CAUTION
 from droprig.io import sections as lib
 from droprig.model import Deck, Level, ModelError, default_labels, generate_level
 from droprig.model.sections import Grade, Section
+from droprig.texts import CAUTION
 
 SPACING_RANGE = (0.5, 60.0)
 """Bay width limits, m (ColumnGrid and generate_level validation)."""

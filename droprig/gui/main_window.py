@@ -34,7 +34,6 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import __version__, units
-from droprig.cli import CAUTION
 from droprig.gui import commands as ed
 from droprig.gui import style
 from droprig.gui.analysis_runner import AnalyseFn, AnalysisRunner
@@ -52,6 +51,7 @@ from droprig.gui.inspector import (
     opening_form,
     protection_form,
 )
+from droprig.texts import CAUTION
 
 if TYPE_CHECKING:
     from droprig.gui.generator_dialog import GeneratorDialog
@@ -68,7 +68,7 @@ from droprig.model import (
     bays,
     resting_on,
 )
-from droprig.solver.results import Results
+from droprig.solver import Results
 
 FILE_FILTER = "droprig projects (*.droprig);;All files (*)"
 MAX_RECENT = 8
@@ -102,7 +102,7 @@ MAX_LISTED = 12
 def _check_framing(before: Project, after: Project, level_id: str) -> None:
     """Raise the solver's ModelError if level ``level_id`` could be analysed in
     ``before`` but not in ``after`` (a framing the load path cannot follow)."""
-    from droprig.solver.loadpath import build_frame
+    from droprig.solver import check_framing as build_frame
 
     try:
         build_frame(before.level(level_id))
@@ -112,7 +112,7 @@ def _check_framing(before: Project, after: Project, level_id: str) -> None:
 
 
 def _describe(exc: BaseException) -> str:
-    from droprig.commands import describe_error
+    from droprig.texts import describe_error
 
     return describe_error(exc)
 
@@ -842,7 +842,7 @@ class MainWindow(QMainWindow):
     def show_trace(self, zone_id: str, load_name: str, x: float, y: float) -> bool:
         """Compute and show the calculation trace of one drop point."""
         try:
-            from droprig.solver.trace import trace_point
+            from droprig.solver import trace_point
 
             trace = trace_point(self.doc.project, zone_id, load_name, x, y)
         except Exception as exc:  # a message in the status bar, never a crash

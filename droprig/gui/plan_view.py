@@ -65,7 +65,6 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import units
-from droprig.cli import CAUTION
 from droprig.gui import style
 from droprig.gui.plan_items import (
     DROP_RANGE,
@@ -97,7 +96,8 @@ from droprig.gui.plan_items import (
     zone_bounds,
 )
 from droprig.model import Level, LiftZone, Member, ModelError, Project, Rect, bays, corridor_problem
-from droprig.solver.results import RESPONSES, CaseResult, Results
+from droprig.solver import RESPONSES, CaseResult, Results
+from droprig.texts import CAUTION
 
 OVERLAY_MODES: tuple[str, ...] = ("outcome", "utilisation", "drop_height")
 EDIT_MODES: tuple[str, ...] = ("select", "draw_protection", "draw_corridor")

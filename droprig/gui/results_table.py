@@ -39,7 +39,7 @@ from droprig.gui import style
 from droprig.gui.document import Document, Selection
 from droprig.model import Project
 from droprig.outcomes import fmt_utilisation
-from droprig.solver.results import BaySummary, Results
+from droprig.solver import BaySummary, Results
 
 SORT_ROLE = Qt.ItemDataRole.UserRole + 1
 ROW_ROLE = Qt.ItemDataRole.UserRole + 2

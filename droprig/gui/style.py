@@ -217,7 +217,7 @@ CAUTION_SHORT = (
     "person and a licensed engineer"
 )
 """The caution shown permanently in the status bar (the full sentence is
-``droprig.cli.CAUTION``)."""
+``droprig.texts.CAUTION``)."""
 
 APP_ORGANISATION = "Droprig Works"
 APP_NAME = "droprig"

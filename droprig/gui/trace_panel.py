@@ -26,9 +26,9 @@ from PySide6.QtWidgets import (
 )
 
 from droprig import tracefmt, units
-from droprig.cli import CAUTION
 from droprig.gui import style
-from droprig.solver.results import Trace, TraceStep
+from droprig.solver import Trace, TraceStep
+from droprig.texts import CAUTION
 
 PLACEHOLDER = "Click a drop point in the plan to see how its result was worked out."
 

@@ -577,7 +577,7 @@ def _schema_problems(doc: dict[str, Any]) -> list[str]:
             continue
         if v == "type":
             want = err.validator_value
-            want_t = " or ".join(_TYPE_WORDS.get(w, w) for w in (
+            want_t = " or ".join(str(_TYPE_WORDS.get(w, w)) for w in (
                 want if isinstance(want, list) else [want]))
             out.append((path, f"{_shown(err.instance)} is {_json_type(err.instance)}; "
                               f"expected {want_t}"))
@@ -718,7 +718,7 @@ class _Builder:
 
     def _duplicates(self, items: list[dict[str, Any]], key: str, path: str, what: str) -> bool:
         """Record every repeated ``key``; True if there was one."""
-        seen: dict[str, int] = {}
+        seen: dict[Any, int] = {}
         found = False
         for i, item in enumerate(items):
             v = item.get(key)
@@ -838,6 +838,7 @@ class _Builder:
             failed = True
         if failed:
             raise _BuildFailedError
+        assert grid is not None and deck is not None  # built, or failed above
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LEVEL.items()
                          if k in ("superimposed_dead", "live_in_place", "column_area",
                                   "column_height")})

@@ -1,73 +1,82 @@
-"""The lift-permit annex: a PDF that goes with the permit.
+"""The lift-permit annex: the PDF a lift permit is signed with.
 
-Pages, each section starting on a new page (every page carries the title block
-and "page x of y"):
+Body (at most six pages; each section starts on a new page):
 
-1. Summary — overall verdict, verdict per lift zone and load, caution.
-2. Summary by bay — every assessed bay, worst first (as many pages as rows need).
-3. Plan — one per level carrying a lift zone: grid, framing, cranes, swing
-   regions, drift margins, corridors, protection, bays by outcome, legend.
-4. Members — the member table (as many pages as rows need).
-5. Calculation sheets — one per governing drop point (continued on a further
-   page when the trace is long).
-6. Assumptions and limits of the method; hazard cautions.
-7. Input identification and sign-off.
+1. Verdict and permit conditions, with the sign-off block (what each signature
+   means, accept / accept with conditions / reject, permit number, lift-plan
+   reference and revision, crane and configuration, validity and what
+   invalidates the annex, actions after a drop).
+2. Conditions plan, one per level carrying a lift zone.
+3. Bays and loads: one compact table, a row per bay, columns per load.
+4. Inputs, design criteria, assumptions and what is not checked.
 
-Each logical page is one :class:`_Page` (shrunk to fit) followed by a page break,
-so the page count follows from the content alone (rows per page are the
-constants below) and no table ever spills onto a page that the title block does
-not name.
+Appendices: contents; A members; B calculation sheets, de-duplicated, citing
+the numbered references; C references; D revision history.
+
+Tables flow across pages with their header repeated (never shrunk); nothing is
+printed below 7 pt; every page carries the title block and "page x of y". The
+fonts (DejaVu, shipped in ``resources/fonts``) are embedded. reportlab's open
+source edition writes neither PDF/A nor tagged PDF.
 """
 
 from __future__ import annotations
 
+import dataclasses
 import datetime as _dt
 import hashlib
 import math
 import os
+import unicodedata
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from droprig import __version__
 from droprig.advice import advice_text
 from droprig.io.atomic import atomic_path
-from droprig.model import Level, LiftZone, Member, Project
-from droprig.report import content, fonts
-from droprig.report.text import esc, fmt_allow, fmt_util, fmt_value, is_none, substitute_all
-from droprig.solver.results import CHECKS, DECK, CaseResult, Results, Trace
+from droprig.model import Level, LiftZone, ModelError, Project, bays
+from droprig.report import content, fonts, references
+from droprig.report.formula import SIG, evaluate, fmt_sig, printed_tolerance
+from droprig.report.text import esc, fmt_util, fmt_value, is_none
+from droprig.solver import (
+    CHECKS,
+    DECK,
+    CaseResult,
+    Results,
+    Trace,
+    TraceStep,
+    member_resistances,
+)
 
 Progress = Callable[[float, str], None]
 
-LIFT_ROWS_PER_PAGE = 10
-"""Zone × load verdict rows on a summary page."""
-BAY_ROWS_PER_PAGE = 20
-"""Bay rows on a 'Summary by bay' page."""
-MEMBER_ROWS_PER_PAGE = 34
-"""Member rows on a 'Members' page."""
-STEPS_PER_PAGE = 16
-"""Trace steps on one page of a calculation sheet."""
+MIN_PT = 7.0
+"""Smallest text size anywhere in the annex, pt."""
+LOADS_PER_TABLE = 3
+"""Loads side by side in the bay × load table (more loads: a further table)."""
 
 HEADINGS = {
-    "summary": "Summary",
-    "bays": "Summary by bay",
-    "plan": "Plan",
-    "members": "Members",
-    "sheet": "Calculation sheet",
-    "assumptions": "Assumptions and limits of the method",
-    "cautions": "Hazard cautions",
-    "identification": "Input identification",
-    "signoff": "Sign-off",
+    "verdict": "1 Verdict and permit conditions",
+    "plan": "2 Conditions plan",
+    "bays": "3 Bays and loads",
+    "inputs": "4 Inputs, assumptions and what is not checked",
+    "contents": "Contents",
+    "members": "Appendix A Members",
+    "sheets": "Appendix B Calculation sheets",
+    "references": "Appendix C References",
+    "revisions": "Appendix D Revision history",
 }
+BODY_SECTIONS = ("verdict", "plan", "bays", "inputs")
 
 ASSUMPTIONS: tuple[str, ...] = (
     "The peak contact force is applied to the framing quasi-statically: member actions "
     "are the peak force times the static actions of a unit load at the drop point "
-    "(energy method, Gere, Mechanics of Materials §9.10).",
+    "(energy method, [{gere}]).",
     "Contact is perfectly inelastic: the load and the struck framing move together after "
     "contact; the share of kinetic energy left is η = M/(M + mₑ) with mₑ the Rayleigh "
-    "effective mass of the load path in its static deflected shape.",
-    "The load falls freely from the stated height (no drag, no hoist braking); the whole "
-    "load lands on one point of the deck.",
+    "effective mass of the load path in its static deflected shape ([{timoshenko}]).",
+    "The load falls freely from the stated height (no drag, no hoist braking) and lands "
+    "flat on one point of the deck. Drop height: the load's underside above the finished "
+    "surface of the level; the fall onto a pad or mat is that height less its thickness.",
     "Columns are rigid supports; the load path is deck → beams → girders → columns by "
     "statics.",
     "No membrane (catenary) action and no composite action of the deck with the steel is "
@@ -76,11 +85,11 @@ ASSUMPTIONS: tuple[str, ...] = (
     "and local buckling are not checked.",
     "Existing loads (self-weight, superimposed dead and the live load left in place) are "
     "as given in the project and are added to the impact actions.",
-    "Beyond yield, flexure is idealised elastic–perfectly plastic with the limits of "
-    "ductility and support rotation shown under Settings; shear, web and punching "
-    "failures are brittle and have no plastic reserve.",
-    "Deflection limits (span/N) are serviceability information, not pass criteria for "
-    "an accidental impact.",
+    "Beyond yield, flexure is idealised elastic–perfectly plastic within the ductility and "
+    "rotation limits below ([{biggs}], [{ufc}]); shear, web and punching failures are "
+    "brittle and have no plastic reserve.",
+    "Deflection limits (span/N) are serviceability information, not pass criteria for an "
+    "accidental impact.",
 )
 
 NOT_CHECKED: tuple[str, ...] = (
@@ -93,23 +102,158 @@ NOT_CHECKED: tuple[str, ...] = (
     "vibration, fatigue and damage from earlier drops",
 )
 
-CAUTIONS: tuple[str, ...] = (
-    "Keep people out from under the load path and out of every swing zone shown in this "
-    "annex during the lift, whatever the result: a drop the framing survives can still "
-    "kill a person beneath it.",
-    "This annex supports the lift plan; it does not replace it. The lift plan, the "
-    "pre-lift meeting, the exclusion zones and the emergency arrangements remain the "
-    "responsibility of the appointed lifting person / appointed person.",
-    "Results are an aid to a competent person only. Defer to local codes and regulations, "
-    "the appointed lifting person and a licensed structural engineer, who must review "
-    "and accept them before the permit is signed.",
-    "Where a bay is marked 'Exceeds limits', do not carry the load over it as planned: "
-    "protect it, exclude it from the swing zone or lower the drop height, then re-run "
-    "the assessment. Where it is marked 'Yields', expect permanent damage and plan an "
-    "inspection after any drop.",
-    "The result holds only for the input named by the fingerprint on the last page. Any "
-    "change to the framing, the loads, the heights or the zones needs a new annex.",
+INVALIDATES: tuple[str, ...] = (
+    "any change to the framing, the loads, their masses or rigging, the hook elevations, "
+    "the crane position or configuration, the swing zone, or the pads and mats — the "
+    "SHA-256 in the footer then no longer matches the project file",
+    "a pad or mat not laid as specified, moved, or damaged",
+    "damage to the framing found before the lift, or a drop during the lift",
+    "the end of the validity window written above",
 )
+
+AFTER_A_DROP: tuple[str, ...] = (
+    "Stop all lifting; keep everyone out of the struck bay and off the level below it.",
+    "Clear and barricade the level below the struck bay until the engineer releases it.",
+    "Have the framing, deck, connections and any pad inspected by a competent person "
+    "before any further load is carried over it; record the drop and the findings.",
+    "A new assessment is needed before lifting resumes over a damaged or repaired bay.",
+)
+
+SIGNATURES: tuple[tuple[str, str, str], ...] = (
+    ("Prepared by", "prepared_by",
+     "The inputs (framing, loads with their mass source, hook elevations, crane, pads) "
+     "match the lift plan and the site."),
+    ("Checked by", "checked_by",
+     "Engineer: the method, the inputs and the results are checked and the conditions "
+     "below are sufficient for this framing."),
+    ("Approved by", "approved_by",
+     "Appointed lifting person: the conditions will be set up and kept on site for the "
+     "whole lift."),
+)
+
+
+# --------------------------------------------------------------- permit conditions
+
+
+@dataclass(frozen=True)
+class _FallbackCondition:
+    """A stand-in for ``droprig.permit.Condition`` used only while that module is
+    not installed: the bay advice as a condition."""
+
+    kind: str
+    zone_id: str
+    load_name: str | None
+    level_id: str
+    bays: tuple[str, ...] = ()
+    protection_id: str | None = None
+    max_hook_elevation: float | None = None
+    max_drop_height: float | None = None
+    text: str = ""
+
+    def sentence(self, system: str = "SI") -> str:
+        return self.text
+
+
+@dataclass(frozen=True)
+class _FallbackLoad:
+    zone_id: str
+    load_name: str
+    verdict: str
+    conditions: tuple[_FallbackCondition, ...]
+
+
+@dataclass(frozen=True)
+class _FallbackPermit:
+    verdict: str
+    loads: tuple[_FallbackLoad, ...]
+    conditions: tuple[_FallbackCondition, ...]
+    not_checked: tuple[str, ...] = ()
+
+    @property
+    def verdict_words(self) -> str:
+        return VERDICT_WORDS[self.verdict]
+
+
+VERDICT_WORDS = {"acceptable": "Acceptable",
+                 "acceptable_with_conditions": "Acceptable with conditions",
+                 "not_acceptable": "Not acceptable"}
+_VERDICT_RANK = ("acceptable", "acceptable_with_conditions", "not_acceptable")
+_VERDICT_STYLE = {"acceptable": "elastic", "acceptable_with_conditions": "plastic",
+                  "not_acceptable": "exceeds"}
+
+
+def _fallback_conditions(project: Project, results: Results) -> _FallbackPermit:
+    loads, every = [], []
+    for z in project.lift_zones:
+        for ld in z.loads:
+            conds = []
+            sums = [b for b in results.bays if b.zone_id == z.id and b.load_name == ld.name]
+            excluded = 0
+            for b in sums:
+                if b.advice_kind == "none":
+                    continue
+                kind = {"keep_clear": "exclude_area", "opening": "exclude_area",
+                        "limit_height": "cap_hook", "mat": "lay_protection",
+                        "limit_or_mat": "cap_hook"}.get(b.advice_kind, "separate_signoff")
+                excluded += kind == "exclude_area"
+                conds.append(_FallbackCondition(
+                    kind, z.id, ld.name, b.level_id, (b.bay_id,),
+                    max_drop_height=b.height_limit,
+                    text=f"Bay {b.bay_id} of level {b.level_id}, {ld.name}: "
+                         + advice_text(b, project.settings.unit_system)))
+            verdict = ("not_acceptable" if sums and excluded == len(sums) else
+                       "acceptable_with_conditions" if conds else "acceptable")
+            loads.append(_FallbackLoad(z.id, ld.name, verdict, tuple(conds)))
+            every.extend(conds)
+    worst = max((lv.verdict for lv in loads), key=_VERDICT_RANK.index, default="acceptable")
+    return _FallbackPermit(worst, tuple(loads), tuple(every))
+
+
+def permit_conditions(project: Project, results: Results) -> object:
+    """THE ONE PLACE the annex gets its verdict and permit conditions from.
+
+    ``droprig.permit.derive_conditions`` (the conditions engine shared with the
+    window and the command line) when it is installed; until then a stand-in that
+    turns each bay's advice into a condition. The annex prints the objects'
+    ``sentence(system)`` and composes no condition sentence of its own.
+    """
+    try:
+        from droprig.permit import derive_conditions  # type: ignore[import-not-found]
+    except ImportError:
+        return _fallback_conditions(project, results)
+    return derive_conditions(project, results)
+
+
+def _merge_key(c: object) -> tuple:
+    """A condition without its bays: conditions equal in all else merge."""
+    if dataclasses.is_dataclass(c):
+        d = {f.name: getattr(c, f.name) for f in dataclasses.fields(c)
+             if f.name not in ("bays", "region")}
+        return tuple(sorted((k, repr(v)) for k, v in d.items()))
+    return (repr(c),)
+
+
+def merge_conditions(conds: Sequence[object]) -> tuple[list[object], dict[tuple, int]]:
+    """The permit's conditions with those that differ only in their bays merged
+    into one (its ``bays`` the union, in order), so a rule that holds for ten bays
+    is printed once; and merge key -> printed number (1-based). The sentence of a
+    merged condition is still the conditions engine's own
+    (``Condition.sentence``)."""
+    merged: dict[tuple, object] = {}
+    for c in conds:
+        k = _merge_key(c)
+        if k not in merged:
+            merged[k] = c
+            continue
+        m = merged[k]
+        bays_ = tuple(dict.fromkeys((*m.bays, *c.bays)))  # type: ignore[attr-defined]
+        if dataclasses.is_dataclass(m) and "region" in {f.name for f in
+                                                        dataclasses.fields(m)}:
+            merged[k] = dataclasses.replace(m, bays=bays_, region=None)  # type: ignore
+        elif dataclasses.is_dataclass(m):
+            merged[k] = dataclasses.replace(m, bays=bays_)  # type: ignore
+    out = list(merged.values())
+    return out, {k: n + 1 for n, k in enumerate(merged)}
 
 
 # ----------------------------------------------------------------------- data
@@ -153,85 +297,75 @@ def fingerprint(project: Project, project_path: str | os.PathLike[str] | None) -
     return Fingerprint(hashlib.sha256(data).hexdigest(), label, source)
 
 
-@dataclass(frozen=True)
-class Sheet:
-    """A calculation sheet: the point, its trace and the solver's arrays there."""
-
-    ref: content.SheetRef
-    trace: Trace
-    case: CaseResult | None
-    index: int | None
-
-
-def _point_index(case: CaseResult, x: float, y: float) -> int | None:
-    if case.n == 0:
-        return None
-    import numpy as np
-
-    d2 = (case.x - x) ** 2 + (case.y - y) ** 2
-    k = int(np.argmin(d2))
-    return k if d2[k] <= 1e-12 else None
-
-
-def _case(results: Results, zone_id: str, load_name: str) -> CaseResult | None:
-    for c in results.cases:
-        if c.zone_id == zone_id and c.load_name == load_name:
-            return c
-    return None
-
-
-def build_sheets(project: Project, results: Results, zones: Sequence[LiftZone],
-                 progress: Progress | None = None, span: tuple[float, float] = (0.0, 1.0)
-                 ) -> list[Sheet]:
-    """Trace every governing point (:func:`content.calc_sheets`)."""
-    from droprig.solver.trace import trace_point
-
-    refs = content.calc_sheets(results, tuple(zones))
-    out = []
-    for k, ref in enumerate(refs):
-        if progress:
-            progress(span[0] + (span[1] - span[0]) * k / max(1, len(refs)),
-                     f"Tracing drop point {k + 1} of {len(refs)}")
-        tr = trace_point(project, ref.zone_id, ref.load_name, ref.x, ref.y)
-        case = _case(results, ref.zone_id, ref.load_name)
-        idx = _point_index(case, ref.x, ref.y) if case is not None else None
-        out.append(Sheet(ref, tr, case, idx))
-    return out
+def check_printable(project: Project) -> None:
+    """Refuse text the annex cannot print faithfully: control characters (other
+    than line breaks in the description) and characters the embedded font lacks.
+    Raises :class:`ModelError` naming the field."""
+    info = project.info
+    fields: list[tuple[str, str, bool]] = [
+        (f"info.{k}", getattr(info, k), k == "description")
+        for k in ("name", "site", "lift_reference", "revision", "date", "prepared_by",
+                  "checked_by", "approved_by", "description")]
+    for lv in project.levels:
+        fields.append((f"level {lv.id}.name", lv.name, False))
+    for z in project.lift_zones:
+        fields.append((f"zone {z.id}.name", z.name, False))
+        for ld in z.loads:
+            fields.append((f"zone {z.id}.load name", ld.name, False))
+    for p in project.protection_areas:
+        fields.append((f"protection {p.id}.name", p.name, False))
+    for name, text, multiline in fields:
+        for ch in text:
+            if ch in "\n\r\t" and multiline:
+                continue
+            if unicodedata.category(ch) in ("Cc", "Cf", "Cs", "Co"):
+                raise ModelError(name, text, "printable text without control characters "
+                                 f"(found U+{ord(ch):04X})")
+        bad = fonts.unsupported(text)
+        if bad:
+            raise ModelError(name, text, "characters the annex font (DejaVu Sans: Latin, "
+                             f"Greek, Cyrillic) can print; cannot print {bad!r}")
 
 
-# ----------------------------------------------------------------------- layout
-
-
-def _chunks(seq: Sequence, n: int) -> list[Sequence]:
-    return [seq[i:i + n] for i in range(0, len(seq), n)] or [seq[:0]]
+# ----------------------------------------------------------------------- styles
 
 
 class _Styles:
+    _shared: _Styles | None = None
+
+    @classmethod
+    def shared(cls) -> _Styles:
+        if cls._shared is None:
+            cls._shared = cls()
+        return cls._shared
+
     def __init__(self) -> None:
         from reportlab.lib import colors
         from reportlab.lib.styles import ParagraphStyle
 
-        base = ParagraphStyle("base", fontName=fonts.REGULAR, fontSize=8.5, leading=10.8,
+        base = ParagraphStyle("base", fontName=fonts.REGULAR, bulletFontName=fonts.REGULAR,
+                              fontSize=8.5, leading=10.6,
                               textColor=colors.HexColor("#111111"))
         self.body = base
-        self.small = ParagraphStyle("small", parent=base, fontSize=7, leading=8.6)
-        self.tiny = ParagraphStyle("tiny", parent=base, fontSize=6.3, leading=7.6)
-        self.cell = ParagraphStyle("cell", parent=base, fontSize=7, leading=8.4)
+        self.small = ParagraphStyle("small", parent=base, fontSize=7.5, leading=9.2)
+        self.cell = ParagraphStyle("cell", parent=base, fontSize=MIN_PT, leading=8.4)
         self.cell_b = ParagraphStyle("cellb", parent=self.cell, fontName=fonts.BOLD)
         self.head = ParagraphStyle("head", parent=self.cell, fontName=fonts.BOLD,
                                    textColor=colors.white)
-        self.h1 = ParagraphStyle("h1", parent=base, fontName=fonts.BOLD, fontSize=14,
-                                 leading=17, spaceAfter=4)
-        self.h2 = ParagraphStyle("h2", parent=base, fontName=fonts.BOLD, fontSize=10,
-                                 leading=13, spaceBefore=6, spaceAfter=3)
+        self.h1 = ParagraphStyle("h1", parent=base, fontName=fonts.BOLD, fontSize=13,
+                                 leading=16, spaceAfter=4)
+        self.h2 = ParagraphStyle("h2", parent=base, fontName=fonts.BOLD, fontSize=9.5,
+                                 leading=12, spaceBefore=5, spaceAfter=2.5)
         self.verdict = ParagraphStyle("verdict", parent=base, fontName=fonts.BOLD,
-                                      fontSize=13, leading=16)
-        self.mono = ParagraphStyle("mono", parent=base, fontName=fonts.MONO, fontSize=8.5,
-                                   leading=11)
-        self.bullet = ParagraphStyle("bullet", parent=base, leftIndent=12, bulletIndent=2,
-                                     spaceAfter=2.5)
+                                      fontSize=14, leading=17)
+        self.mono = ParagraphStyle("mono", parent=base, fontName=fonts.MONO, fontSize=7.5,
+                                   leading=9.5)
+        self.bullet = ParagraphStyle("bullet", parent=base, fontSize=8, leading=10,
+                                     leftIndent=11, bulletIndent=1, spaceAfter=1.5)
+        self.cond = ParagraphStyle("cond", parent=base, fontSize=8.5, leading=10.6,
+                                   leftIndent=24, firstLineIndent=-24, spaceAfter=2.5)
         self.caution = ParagraphStyle("caution", parent=base, fontName=fonts.BOLD,
-                                      fontSize=8.5, leading=11)
+                                      fontSize=8, leading=10)
 
 
 HEAD_BG = "#2E2E2E"
@@ -239,14 +373,26 @@ ZEBRA = "#F1F1EE"
 
 
 def _table(rows: list[list[object]], widths: Sequence[float], *, header_rows: int = 1,
-           extra: Sequence[tuple] = ()) -> object:
+           extra: Sequence[tuple] = (), zebra: bool = True, wrap: bool = True) -> object:
     from reportlab.lib import colors
     from reportlab.platypus import Table, TableStyle
 
-    t = Table(rows, colWidths=list(widths), repeatRows=header_rows)
+    if wrap:  # plain strings do not wrap by themselves: break them to the column
+        rows = [[wrap_text(c, fonts.REGULAR, MIN_PT, widths[k] - 6)
+                 if isinstance(c, str) and c and r >= header_rows else c
+                 for k, c in enumerate(row)] for r, row in enumerate(rows)]
+
+    if header_rows:
+        from reportlab.platypus import Paragraph
+
+        hs = _Styles.shared().head
+        rows = [[Paragraph(esc(c), hs) if isinstance(c, str) and c else c for c in row]
+                if r < header_rows else row for r, row in enumerate(rows)]
+    t = Table(rows, colWidths=list(widths), repeatRows=header_rows, splitByRow=1)
     style = [
         ("FONTNAME", (0, 0), (-1, -1), fonts.REGULAR),
-        ("FONTSIZE", (0, 0), (-1, -1), 7),
+        ("FONTSIZE", (0, 0), (-1, -1), MIN_PT),
+        ("LEADING", (0, 0), (-1, -1), 8.4),
         ("VALIGN", (0, 0), (-1, -1), "TOP"),
         ("LINEBELOW", (0, header_rows), (-1, -1), 0.25, colors.HexColor("#9A9A95")),
         ("BOX", (0, 0), (-1, -1), 0.6, colors.black),
@@ -257,23 +403,17 @@ def _table(rows: list[list[object]], widths: Sequence[float], *, header_rows: in
     ]
     if header_rows:
         style += [("BACKGROUND", (0, 0), (-1, header_rows - 1), colors.HexColor(HEAD_BG)),
-                  ("LINEBELOW", (0, header_rows - 1), (-1, header_rows - 1), 0.8, colors.black)]
-    for r in range(header_rows, len(rows)):
-        if (r - header_rows) % 2 == 1:
-            style.append(("BACKGROUND", (0, r), (-1, r), colors.HexColor(ZEBRA)))
+                  ("TEXTCOLOR", (0, 0), (-1, header_rows - 1), colors.white),
+                  ("FONTNAME", (0, 0), (-1, header_rows - 1), fonts.BOLD),
+                  ("LINEBELOW", (0, header_rows - 1), (-1, header_rows - 1), 0.8,
+                   colors.black)]
+    if zebra:
+        for r in range(header_rows, len(rows)):
+            if (r - header_rows) % 2 == 1:
+                style.append(("BACKGROUND", (0, r), (-1, r), colors.HexColor(ZEBRA)))
     style.extend(extra)
     t.setStyle(TableStyle(style))
     return t
-
-
-def _outcome_cell(response: str, st: _Styles, *, big: bool = False) -> object:
-    """Outcome word with its one-letter tag, on the outcome colour."""
-    from reportlab.lib.styles import ParagraphStyle
-    from reportlab.platypus import Paragraph
-
-    o = content.OUTCOMES.get(response, content.OUTCOMES[content.NOT_ASSESSED])
-    style = ParagraphStyle("o", parent=st.verdict if big else st.cell_b, textColor=o.ink)
-    return Paragraph(f"[{o.tag}] {esc(o.label)}", style)
 
 
 def _outcome_bg(response: str, col: int, row: int) -> tuple:
@@ -283,80 +423,21 @@ def _outcome_bg(response: str, col: int, row: int) -> tuple:
     return ("BACKGROUND", (col, row), (col, row), colors.HexColor(o.fill))
 
 
-class _Page:
-    """One annex page: its flowables laid out top-down once, scaled down as a
-    whole if they are taller than the frame (so a page never spills over).
+def _outcome_ink(response: str, col: int, row: int) -> tuple:
+    from reportlab.lib import colors
 
-    Like reportlab's ``KeepInFrame(mode="shrink")`` but each child is wrapped
-    only once (tables of paragraphs are the bulk of the annex's run time).
-    """
-
-    def __new__(cls, content: list[object], width: float, height: float) -> object:
-        from reportlab.platypus import Flowable
-
-        class Page(Flowable):
-            def __init__(self) -> None:
-                super().__init__()
-                self._content = content
-                self._box = (width, height)
-                self._laid: list[tuple[object, float, float, float]] | None = None
-                self._natural = 0.0
-
-            def _layout(self) -> None:
-                w_max = self._box[0]
-                y = 0.0
-                prev_after = 0.0
-                laid = []
-                for k, c in enumerate(self._content):
-                    cw, ch = c.wrapOn(self.canv, w_max, 0xFFFFFFF)
-                    if k:
-                        y += max(prev_after, c.getSpaceBefore())
-                    align = getattr(c, "hAlign", "LEFT")
-                    dx = {"CENTER": 0.5, "CENTRE": 0.5, "RIGHT": 1.0}.get(align, 0.0)
-                    laid.append((c, (w_max - cw) * dx, y, ch))
-                    y += ch
-                    prev_after = c.getSpaceAfter()
-                self._laid = laid
-                self._natural = y
-
-            def wrap(self, aw: float, ah: float) -> tuple[float, float]:
-                if self._laid is None:
-                    self._layout()
-                self.scale = min(1.0, self._box[1] / self._natural) if self._natural else 1.0
-                return (self._box[0], self._natural * self.scale)
-
-            def draw(self) -> None:
-                assert self._laid is not None
-                c = self.canv
-                c.saveState()
-                c.translate(0, self._natural * self.scale)
-                c.scale(self.scale, self.scale)
-                for f, x, y, h in self._laid:
-                    f.drawOn(c, x, -y - h)
-                c.restoreState()
-
-        return Page()
+    o = content.OUTCOMES.get(response, content.OUTCOMES[content.NOT_ASSESSED])
+    return ("TEXTCOLOR", (col, row), (col, row), colors.HexColor(o.ink))
 
 
-class _Marker:
-    """Zero-size flowable that tells the canvas which section the page is in."""
+# ----------------------------------------------------------------------- canvas
 
-    def __new__(cls, section: str) -> object:
-        from reportlab.platypus import Flowable
 
-        class Marker(Flowable):
-            def __init__(self, text: str) -> None:
-                super().__init__()
-                self.text = text
-                self.width = self.height = 0
-
-            def wrap(self, aw: float, ah: float) -> tuple[float, float]:
-                return (0, 0)
-
-            def draw(self) -> None:
-                self.canv._droprig_section = self.text
-
-        return Marker(section)
+MARGIN_X = 40.0
+MARGIN_TOP = 26.0
+MARGIN_BOTTOM = 20.0
+HEADER_H = 50.0
+FOOTER_H = 44.0
 
 
 @dataclass(frozen=True)
@@ -371,25 +452,56 @@ class _Header:
     units: str
 
 
-def _canvas_class(header: _Header, counter: list[int],
+@dataclass
+class _Book:
+    """What the canvas learns while drawing: the first page of each section and
+    the places where the contents page wants those page numbers."""
+
+    marks: dict[str, int] = field(default_factory=dict)
+    wanted: list[tuple[int, float, float, str]] = field(default_factory=list)
+    pages: int = 0
+
+
+NOT_GIVEN = "NOT GIVEN"
+
+
+def _canvas_class(header: _Header, book: _Book,
                   on_page: Callable[[int], None] | None = None) -> type:
     from reportlab.lib import colors
     from reportlab.pdfgen.canvas import Canvas
 
-    def clip(c: Canvas, text: str, font: str, size: float, width: float) -> str:
-        if c.stringWidth(text, font, size) <= width:
-            return text
-        while text and c.stringWidth(text + "…", font, size) > width:
-            text = text[:-1]
-        return text + "…"
+    def wrap(c: Canvas, text: str, font: str, size: float, width: float) -> list[str]:
+        words, lines, cur = text.split(" "), [], ""
+        for w in words:
+            trial = f"{cur} {w}".strip()
+            if cur and c.stringWidth(trial, font, size) > width:
+                lines.append(cur)
+                cur = w
+            else:
+                cur = trial
+            while c.stringWidth(cur, font, size) > width and len(cur) > 1:
+                k = len(cur)
+                while k > 1 and c.stringWidth(cur[:k], font, size) > width:
+                    k -= 1
+                lines.append(cur[:k])
+                cur = cur[k:]
+        if cur:
+            lines.append(cur)
+        return lines
 
     class AnnexCanvas(Canvas):
         """Defers the title block until the page count is known ("page x of y")."""
 
         def __init__(self, *a: object, **k: object) -> None:
+            k["initialFontName"] = fonts.REGULAR
+            k["initialFontSize"] = 8.5
             super().__init__(*a, **k)
             self._pages: list[dict] = []
             self._droprig_section = ""
+            self.setLineCap(0)
+
+        def droprig_page(self) -> int:
+            return len(self._pages) + 1
 
         def showPage(self) -> None:
             self._pages.append(dict(self.__dict__))
@@ -399,603 +511,139 @@ def _canvas_class(header: _Header, counter: list[int],
 
         def save(self) -> None:
             total = len(self._pages)
-            counter[0] = total
+            book.pages = total
             for k, state in enumerate(self._pages):
                 self.__dict__.update(state)
                 self._title_block(k + 1, total)
+                for page, x, y, key in book.wanted:
+                    if page == k + 1:
+                        self.setFont(fonts.REGULAR, 8.5)
+                        self.setFillColor(colors.black)
+                        self.drawRightString(x, y, str(book.marks.get(key, "–")))
                 super().showPage()
             super().save()
 
         def _cell(self, x: float, y: float, w: float, h: float, label: str, value: str,
-                  *, size: float = 8.0, bold: bool = False) -> None:
+                  *, size: float = 8.0, bold: bool = False, font: str | None = None
+                  ) -> None:
             self.setStrokeColor(colors.black)
             self.setLineWidth(0.5)
+            missing = not value.strip()
             self.rect(x, y, w, h, stroke=1, fill=0)
-            self.setFont(fonts.REGULAR, 5.2)
-            self.setFillColor(colors.HexColor("#555555"))
-            self.drawString(x + 2.5, y + h - 6.2, label.upper())
+            self.setFont(fonts.REGULAR, MIN_PT)
+            self.setFillColor(colors.HexColor("#4A4A4A"))
+            self.drawString(x + 2.5, y + h - 8.0, label.upper())
             self.setFillColor(colors.black)
-            font = fonts.BOLD if bold else fonts.REGULAR
-            while size > 6.5 and self.stringWidth(value, font, size) > w - 5:
-                size -= 0.25
-            if self.stringWidth(value, font, size) <= w - 5:
-                self.setFont(font, size)
-                self.drawString(x + 2.5, y + 3.2, value)
+            if missing:
+                self.setFont(fonts.BOLD, 8.0)
+                self.drawString(x + 2.5, y + 3.5, NOT_GIVEN)
                 return
-            # two lines at a smaller size, the second clipped if it must be
-            size = min(size, 6.0)
-            words = value.split(" ")
-            first = ""
-            while words and self.stringWidth((first + " " + words[0]).strip(), font,
-                                             size) <= w - 5:
-                first = (first + " " + words.pop(0)).strip()
-            if not first:  # one very long word
-                first, words = clip(self, value, font, size, w - 5), []
-            self.setFont(font, size)
-            self.drawString(x + 2.5, y + 3.0 + size + 1.0, first)
-            self.drawString(x + 2.5, y + 3.0, clip(self, " ".join(words), font, size, w - 5))
+            fnt = font or (fonts.BOLD if bold else fonts.REGULAR)
+            room = h - 10.0
+            for sz in (size, 7.5, MIN_PT):
+                lines = wrap(self, value, fnt, sz, w - 5)
+                if len(lines) * (sz + 1.0) <= room:
+                    break
+            lead = sz + 1.0
+            n_fit = max(1, int(room // lead))
+            if len(lines) > n_fit:  # would need more room: last line says so
+                lines = lines[:n_fit]
+                lines[-1] = lines[-1][: max(1, len(lines[-1]) - 14)] + " (continued)"
+            self.setFont(fnt, sz)
+            top = y + h - 10.0 - sz + 0.5
+            for i, ln in enumerate(lines):
+                self.drawString(x + 2.5, top - i * lead, ln)
 
         def _title_block(self, page: int, total: int) -> None:
             W, H = self._pagesize
             m = MARGIN_X
             w = W - 2 * m
             top = H - MARGIN_TOP
-            # header band: a heavy rule, the document name, project, site
             self.setFillColor(colors.black)
             self.rect(m, top - 2.5, w, 2.5, stroke=0, fill=1)
-            self.setFont(fonts.BOLD, 6.5)
+            self.setFont(fonts.BOLD, MIN_PT)
             self.drawString(m, top - 11, "LIFT-PERMIT ANNEX · DROPPED-LOAD ASSESSMENT")
-            self.setFont(fonts.REGULAR, 6.5)
+            self.setFont(fonts.REGULAR, MIN_PT)
             sec = getattr(self, "_droprig_section", "")
-            self.drawRightString(m + w, top - 11, clip(self, sec, fonts.REGULAR, 6.5, w / 2))
-            cw = [0.36 * w, 0.28 * w, 0.18 * w, 0.07 * w]
+            self.drawRightString(m + w, top - 11, sec)
+            cw = [0.33 * w, 0.29 * w, 0.2 * w, 0.06 * w]
             cw.append(w - sum(cw))
             cells = [("Project", header.project, True), ("Site", header.site, False),
                      ("Lift reference", header.lift, True), ("Rev", header.revision, True),
                      ("Date", header.date, False)]
             x = m
             for (label, value, bold), cwi in zip(cells, cw, strict=True):
-                self._cell(x, top - 39, cwi, 24, label, value, size=8.5, bold=bold)
+                self._cell(x, top - HEADER_H, cwi, HEADER_H - 14, label, value, size=8.0,
+                           bold=bold)
                 x += cwi
-            # footer band
-            y = MARGIN_BOTTOM
-            fw = [0.2 * w, 0.47 * w, 0.13 * w]
+            y = MARGIN_BOTTOM + 18
+            fw = [0.17 * w, 0.56 * w, 0.12 * w]
             fw.append(w - sum(fw))
-            foot = [("Software", f"droprig {header.version}", False),
-                    ("Input SHA-256", header.sha, False),
-                    ("Units", header.units, False),
-                    ("Sheet", f"page {page} of {total}", True)]
+            foot = [("Software", f"droprig {header.version}", False, None),
+                    ("Input SHA-256", header.sha, False, fonts.MONO),
+                    ("Units", header.units, False, None),
+                    ("Sheet", f"page {page} of {total}", True, None)]
             x = m
-            for (label, value, bold), fwi in zip(foot, fw, strict=True):
-                self._cell(x, y, fwi, 18, label, value, size=7.5 if label != "Input SHA-256"
-                           else 5.6, bold=bold)
+            for (label, value, bold, font), fwi in zip(foot, fw, strict=True):
+                self._cell(x, y, fwi, FOOTER_H - 20, label, value, size=MIN_PT if font
+                           else 8.0, bold=bold, font=font)
                 x += fwi
-            self.setFont(fonts.REGULAR, 5.2)
-            self.setFillColor(colors.HexColor("#444444"))
-            self.drawString(m, y - 7, clip(self, "Aid only — check against local codes with "
-                                           "the appointed lifting person and a licensed "
-                                           "engineer. Keep people out from under the load.",
-                                           fonts.REGULAR, 5.2, w))
+            self.setFont(fonts.REGULAR, MIN_PT)
+            self.setFillColor(colors.HexColor("#333333"))
+            lines = wrap(self, "Aid only: check against local codes with the appointed "
+                         "lifting person and a licensed engineer. Keep people out from "
+                         "under the load.", fonts.REGULAR, MIN_PT, w)
+            for i, ln in enumerate(lines[:2]):
+                self.drawString(m, y - 8 - i * 8, ln)
 
     return AnnexCanvas
 
 
-MARGIN_X = 40.0
-MARGIN_TOP = 30.0
-MARGIN_BOTTOM = 30.0
-HEADER_H = 48.0
-FOOTER_H = 26.0
+def _marker(key: str, title: str, book: _Book) -> object:
+    from reportlab.platypus import Flowable
+
+    class Marker(Flowable):
+        """Zero-size: names the section in the title block and records its page."""
+
+        def wrap(self, aw: float, ah: float) -> tuple[float, float]:
+            return (0, 0)
+
+        def draw(self) -> None:
+            self.canv._droprig_section = title
+            book.marks.setdefault(key, self.canv.droprig_page())
+
+    return Marker()
 
 
-# ----------------------------------------------------------------------- pages
+def _contents(entries: Sequence[tuple[str, str]], width: float, book: _Book) -> object:
+    """The contents list; page numbers are written by the canvas once known."""
+    from reportlab.platypus import Flowable
+
+    class Contents(Flowable):
+        line = 13.0
+
+        def wrap(self, aw: float, ah: float) -> tuple[float, float]:
+            return (width, self.line * len(entries))
+
+        def draw(self) -> None:
+            c = self.canv
+            page = c.droprig_page()
+            c.setFont(fonts.REGULAR, 8.5)
+            ox, oy = c.absolutePosition(0, 0)
+            for k, (key, title) in enumerate(entries):
+                y = self.line * (len(entries) - k - 1) + 3
+                c.drawString(0, y, title)
+                tw = c.stringWidth(title, fonts.REGULAR, 8.5)
+                c.setDash(1, 2)
+                c.setLineWidth(0.4)
+                c.line(tw + 4, y + 1, width - 24, y + 1)
+                c.setDash()
+                book.wanted.append((page, ox + width, oy + y, key))
+
+    return Contents()
 
 
-class _Builder:
-    def __init__(self, project: Project, results: Results, zones: tuple[LiftZone, ...],
-                 fp: Fingerprint, frame_w: float, frame_h: float) -> None:
-        self.p = project
-        self.r = results
-        self.zones = zones
-        self.fp = fp
-        self.sys = project.settings.unit_system
-        self.w = frame_w
-        self.h = frame_h
-        self.st = _Styles()
-        self.pages: list[tuple[str, list[object]]] = []
-
-    def P(self, text: str, style: object | None = None, bulletText: str | None = None
-          ) -> object:
-        from reportlab.platypus import Paragraph
-
-        return Paragraph(text, style or self.st.cell, bulletText=bulletText)
-
-    def v(self, value: float | None, quantity: str) -> str:
-        return fmt_value(value, quantity, self.sys)
-
-    def add(self, section: str, flow: list[object]) -> None:
-        self.pages.append((section, flow))
-
-    # -- summary
-    def summary(self, verdicts: Sequence[content.ZoneVerdict]) -> None:
-        from reportlab.lib import colors
-        from reportlab.platypus import Spacer
-
-        st = self.st
-        overall = content.overall_response(verdicts)
-        cases = [(zv, cv) for zv in verdicts for cv in zv.cases]
-        chunks = _chunks(cases, LIFT_ROWS_PER_PAGE)
-        for k, chunk in enumerate(chunks):
-            head = HEADINGS["summary"] + (f" (continued, {k + 1} of {len(chunks)})" if k else "")
-            flow: list[object] = [self.P(esc(head), st.h1)]
-            if k == 0:
-                o = content.OUTCOMES.get(overall, content.OUTCOMES[content.NOT_ASSESSED])
-                word = {"elastic": "ALL ASSESSED BAYS STAY ELASTIC",
-                        "plastic": "SOME BAYS YIELD — PROTECT OR ACCEPT DAMAGE",
-                        "exceeds": "NOT ACCEPTABLE AS PLANNED — PROTECT OR EXCLUDE",
-                        content.NOT_ASSESSED: "NOTHING ASSESSED"}[overall]
-                rows = [[_outcome_cell(overall, st, big=True),
-                         self.P(f"Overall verdict: {word}", st.verdict)]]
-                flow.append(_table(rows, [0.36 * self.w, 0.64 * self.w], header_rows=0, extra=[
-                    _outcome_bg(overall, 0, 0), ("VALIGN", (0, 0), (-1, -1), "MIDDLE"),
-                    ("BOX", (0, 0), (-1, -1), 1.5, colors.HexColor(o.edge)),
-                    ("TOPPADDING", (0, 0), (-1, -1), 6), ("BOTTOMPADDING", (0, 0), (-1, -1), 6)]))
-                flow.append(Spacer(1, 6))
-                n_zones = len(verdicts)
-                n_bays = sum(cv.n_bays for _, cv in cases)
-                flow.append(self.P(
-                    f"{n_zones} lift zone(s), {len(cases)} load case(s), {n_bays} bay "
-                    f"result(s), {self.r.n_points:,} drop points assessed. Design basis: "
-                    f"{esc(_basis(self.p))}. Units: {esc(_units(self.sys))}.", st.body))
-                flow.append(Spacer(1, 4))
-                flow.append(self.P(esc(_caution()), st.caution))
-                flow.append(Spacer(1, 6))
-            flow.append(self.P("Verdict per lift zone and load", st.h2))
-            hdr = ["Lift zone", "Load", "Verdict", "Max U", "Least allowable drop height",
-                   "Advice"]
-            rows = [[self.P(h, st.head) for h in hdr]]
-            extra = []
-            for i, (zv, cv) in enumerate(chunk):
-                z = zv.zone
-                zo = content.OUTCOMES.get(zv.response, content.OUTCOMES[content.NOT_ASSESSED])
-                rows.append([
-                    self.P(f"<b>{esc(z.id)}</b><br/>{esc(z.name)}<br/><i>lift zone: "
-                           f"{esc(zo.label.lower())}</i>"),
-                    self.P(f"<b>{esc(cv.load_name)}</b><br/>{self.v(cv.mass, 'mass')}; planned "
-                           f"drop {self.v(cv.planned_drop_height, 'length')}"),
-                    _outcome_cell(cv.response, st),
-                    self.P(fmt_util(cv.max_utilisation) + (
-                        f"<br/>worst bay {esc(cv.worst_bay.bay_id)}" if cv.worst_bay else "")),
-                    self.P(fmt_allow(cv.least_allowable_drop_height, "length", self.sys)),
-                    self.P(esc(cv.advice)),
-                ])
-                extra.append(_outcome_bg(cv.response, 2, i + 1))
-            w = self.w
-            flow.append(_table(rows, [0.12 * w, 0.17 * w, 0.15 * w, 0.1 * w, 0.12 * w,
-                                      0.34 * w], extra=extra))
-            self.add(head, flow)
-
-    def bay_pages(self, rows: list) -> None:
-        st = self.st
-        chunks = _chunks(rows, BAY_ROWS_PER_PAGE)
-        for k, chunk in enumerate(chunks):
-            head = HEADINGS["bays"] + (f" (continued, {k + 1} of {len(chunks)})" if k else "")
-            flow: list[object] = [self.P(esc(head), st.h1)]
-            if k == 0:
-                flow.append(self.P(
-                    "Every bay reached by a drop point, per lift zone and load, worst first. "
-                    "U: highest utilisation of any check at the bay's drop points. Allowable "
-                    "drop height: least over the bay (elastic limit; beyond yield within the "
-                    "ductility and rotation limits). 'none': no height is acceptable — the "
-                    "limit is passed even when the load is set down.", st.small))
-            hdr = ["Zone / load", "Bay", "Response", "Max U", "Governs (member · check at x, y)",
-                   "Allowable drop, elastic", "Allowable drop, plastic", "Advice"]
-            trs = [[self.P(h, st.head) for h in hdr]]
-            extra = []
-            if not chunk:
-                trs.append([self.P("No bay of any level is reached by a drop point.")] +
-                           [""] * 7)
-            for i, b in enumerate(chunk):
-                trs.append([
-                    self.P(f"{esc(b.zone_id)}<br/>{esc(b.load_name)}"),
-                    self.P(f"<b>{esc(b.bay_id)}</b>"),
-                    _outcome_cell(b.response, st),
-                    fmt_util(b.max_utilisation),
-                    self.P(f"{esc(b.governing_member)} · {esc(b.governing_check)} at "
-                           f"({self.v(b.governing_x, 'length')}, "
-                           f"{self.v(b.governing_y, 'length')})"),
-                    fmt_allow(b.allowable_drop_height, "length", self.sys),
-                    fmt_allow(b.allowable_drop_height_plastic, "length", self.sys),
-                    self.P(esc(advice_text(b, self.sys)), st.tiny),
-                ])
-                extra.append(_outcome_bg(b.response, 2, i + 1))
-            w = self.w
-            flow.append(_table(trs, [0.11 * w, 0.08 * w, 0.11 * w, 0.07 * w, 0.17 * w,
-                                     0.09 * w, 0.09 * w, 0.28 * w], extra=extra))
-            self.add(head, flow)
-
-    # -- plan
-    def plan(self, level: Level) -> None:
-        from reportlab.platypus import Spacer
-
-        from droprig.report.figures import plan_drawing
-
-        st = self.st
-        zones = [z for z in self.zones if z.level_id == level.id]
-        prot = [p for p in self.p.protection_areas if p.level_id == level.id]
-        head = f"{HEADINGS['plan']} — level {level.id}"
-        flow: list[object] = [self.P(esc(f"{head}: {level.name}"), st.h1)]
-        desc = [f"Elevation {self.v(level.elevation, 'length')}"]
-        for z in zones:
-            desc.append(
-                f"zone <b>{esc(z.id)}</b> ({esc(z.name)}): crane at "
-                f"({self.v(z.crane[0], 'length')}, {self.v(z.crane[1], 'length')}), radius "
-                f"{self.v(z.r_min, 'length')} to {self.v(z.r_max, 'length')}, slew "
-                f"{_deg(z.slew_start)} to {_deg(z.slew_start + z.slew_sweep)}"
-                f"{' (full circle)' if z.slew_sweep >= 2 * math.pi - 1e-9 else ''}, drift "
-                f"margin {self.v(z.drift_margin, 'length')}"
-                f"{', corridor of ' + str(len(z.corridor)) + ' points' if z.corridor else ''}")
-        for p in prot:
-            desc.append(f"mat <b>{esc(p.id)}</b> ({esc(p.name)}, {esc(p.kind)}, "
-                        f"{self.v(p.thickness, 'length')} thick)")
-        flow.append(self.P("; ".join(desc) + ". Each bay shows its id, its worst outcome "
-                           "over the zones and loads of this annex, and its highest "
-                           "utilisation U. Plan north is +y; angles counter-clockwise from +x.",
-                           st.small))
-        flow.append(Spacer(1, 4))
-        outcomes = content.bay_outcomes(self.r, level, self.zones)
-        flow.append(plan_drawing(level, zones, prot, outcomes, self.sys, self.w,
-                                 self.h - 80))
-        self.add(head, flow)
-
-    # -- members
-    def members(self, levels: Sequence[Level]) -> None:
-        st = self.st
-        rows = [(lv, m) for lv in levels for m in lv.members]
-        if not rows:
-            return
-        chunks = _chunks(rows, MEMBER_ROWS_PER_PAGE)
-        many = len(levels) > 1
-        for k, chunk in enumerate(chunks):
-            head = HEADINGS["members"] + (f" (continued, {k + 1} of {len(chunks)})" if k else "")
-            flow: list[object] = [self.P(esc(head), st.h1)]
-            if k == 0:
-                flow.append(self.P(_resistance_note(self.p), st.small))
-                for lv in levels:
-                    dk = lv.deck
-                    flow.append(self.P(
-                        f"Deck of level <b>{esc(lv.id)}</b>: {esc(dk.kind.replace('_', ' '))}, "
-                        f"{self.v(dk.thickness, 'length')} thick, concrete "
-                        f"{self.v(dk.concrete.fc, 'stress')}, bottom bars "
-                        f"{self.v(dk.rebar_area, 'area')} per m width at "
-                        f"{self.v(dk.cover, 'length')} cover; {len(dk.openings)} opening(s). "
-                        f"Superimposed dead {self.v(lv.superimposed_dead, 'pressure')}, live "
-                        f"left in place {self.v(lv.live_in_place, 'pressure')}.", st.small))
-            hdr = ["Member", "Role", "Section", "Grade", "Span", "Ends", "fy", "Class",
-                   "Flexure resistance", "Shear resistance", "EI"]
-            trs = [[self.P(h, st.head) for h in hdr]]
-            for lv, m in chunk:
-                res = member_resistances(m, self.p)
-                trs.append([
-                    self.P(esc(f"{lv.id}: {m.id}" if many else m.id)),
-                    m.role,
-                    self.P(esc(m.section.name)),
-                    self.P(esc(m.grade.name)),
-                    self.v(m.span, "length"),
-                    m.end_condition,
-                    self.v(res.fy, "stress"),
-                    _CLASS_TAG.get(res.section_class, res.section_class),
-                    self.P(self.v(res.flexure, "moment") if res.flexure is not None
-                           else "out of scope"),
-                    self.P(self.v(res.shear, "force") if res.shear is not None
-                           else "out of scope"),
-                    self.P(_ei(res.EI, self.sys)),
-                ])
-            w = self.w
-            flow.append(_table(trs, [0.12 * w, 0.06 * w, 0.1 * w, 0.1 * w, 0.08 * w,
-                                     0.07 * w, 0.08 * w, 0.06 * w, 0.11 * w, 0.1 * w,
-                                     0.12 * w]))
-            self.add(head, flow)
-
-    # -- calculation sheets
-    def sheets(self, sheets: Sequence[Sheet]) -> None:
-        st = self.st
-        for n, sh in enumerate(sheets):
-            steps = sh.trace.steps
-            parts = _chunks(steps, STEPS_PER_PAGE)
-            ref = sh.ref
-            for k, part in enumerate(parts):
-                head = (f"{HEADINGS['sheet']} {n + 1} of {len(sheets)}"
-                        + (f" (continued, {k + 1} of {len(parts)})" if k else ""))
-                flow: list[object] = [self.P(esc(head), st.h1)]
-                flow.append(self.P(
-                    f"Lift zone <b>{esc(ref.zone_id)}</b> · load <b>{esc(ref.load_name)}</b> "
-                    f"· bay <b>{esc(ref.bay_id)}</b> · drop point x = "
-                    f"{self.v(ref.x, 'length')}, y = {self.v(ref.y, 'length')}", st.body))
-                if k == 0:
-                    flow.append(self.P("Why this point: " + esc("; ".join(ref.reasons)) + ".",
-                                       st.small))
-                    flow.extend(self._sheet_inputs(sh))
-                flow.append(self.P("Calculation", st.h2))
-                hdr = ["No.", "Step, formula and numbers", "Result", "Source"]
-                trs = [[self.P(h, st.head) for h in hdr]]
-                base = k * STEPS_PER_PAGE
-                for i, s in enumerate(part):
-                    lines = [f"<b>{esc(s.title)}</b>"] + [
-                        esc(t) for t in step_lines(s.symbol, s.formula, s.inputs, self.sys)]
-                    lhs = f"{esc(s.symbol)} = " if s.symbol else ""
-                    result = esc(self.v(s.value, s.quantity))
-                    trs.append([
-                        str(base + i + 1),
-                        self.P("<br/>".join(lines)),
-                        self.P(f"<b>{lhs}{result}</b>"),
-                        self.P(esc(s.source), st.tiny),
-                    ])
-                w = self.w
-                flow.append(_table(trs, [0.05 * w, 0.55 * w, 0.18 * w, 0.22 * w]))
-                if k == len(parts) - 1:
-                    flow.extend(self._sheet_outcome(sh))
-                self.add(head, flow)
-
-    def _sheet_inputs(self, sh: Sheet) -> list[object]:
-        st = self.st
-        z = self.p.zone(sh.ref.zone_id)
-        load = next(ld for ld in z.loads if ld.name == sh.ref.load_name)
-        level = self.p.level(z.level_id)
-        c, i = sh.case, sh.index
-        rows = [["Level", f"{level.id}: {level.name}"],
-                ["Load", f"{load.name} ({load.kind}), mass {self.v(load.mass, 'mass')}, "
-                 f"weight {self.v(load.weight, 'force')}, footprint "
-                 f"{self.v(load.footprint_length, 'length')} × "
-                 f"{self.v(load.footprint_width, 'length')}"]]
-        if c is not None and i is not None:
-            prot = int(c.protection[i])
-            rows.append(["Drop height at this point", self.v(float(c.drop_height[i]), "length")
-                         + f" (planned {self.v(c.planned_drop_height, 'length')})"])
-            rows.append(["Struck surface", "bare deck" if prot < 0 else
-                         f"mat {self.p.protection_areas[prot].id} "
-                         f"({self.p.protection_areas[prot].name})"])
-            gm = int(c.governing_member[i])
-            if gm != DECK and 0 <= gm < len(level.members):
-                m = level.members[gm]
-                rows.append(["Governing member", f"{m.id}: {m.section.name} {m.grade.name}, "
-                             f"span {self.v(m.span, 'length')}, {m.end_condition}"])
-            else:
-                rows.append(["Governing element", "deck"])
-        s = self.p.settings
-        rows.append(["Settings", f"{_basis(self.p)}; resistance factor "
-                     f"{s.resistance_factor:.2f}; dynamic increase on yield "
-                     f"{s.dynamic_increase_factor:.2f}; ductility limit {s.ductility_limit:g}; "
-                     f"rotation limit {_deg(s.rotation_limit)}; member mass "
-                     f"{'included' if s.include_member_mass else 'ignored'}; existing loads "
-                     f"{'included' if s.include_existing_loads else 'ignored'}"])
-        trs = [[self.P(f"<b>{esc(a)}</b>"), self.P(esc(b))] for a, b in rows]
-        return [self.P("Inputs", st.h2), _table(trs, [0.22 * self.w, 0.78 * self.w],
-                                                 header_rows=0)]
-
-    def _sheet_outcome(self, sh: Sheet) -> list[object]:
-        st = self.st
-        c, i = sh.case, sh.index
-        tr = sh.trace
-        rows = [[self.P(h, st.head) for h in ("Result at this point (solver)", "Value")]]
-        extra = []
-        if c is not None and i is not None:
-            vals = [
-                ("Dynamic factor K", fmt_value(float(c.dynamic_factor[i]), "dimensionless",
-                                               self.sys)),
-                ("Peak force F", self.v(float(c.peak_force[i]), "force")),
-                ("Peak deflection δmax", self.v(float(c.max_deflection[i]), "length")),
-                ("Utilisation U", fmt_util(float(c.utilisation[i]))),
-                ("Governing check", _check_name(int(c.governing_check[i]))),
-                ("Allowable drop height, elastic",
-                 fmt_allow(float(c.allowable_drop_height[i]), "length", self.sys)),
-                ("Allowable drop height, plastic",
-                 fmt_allow(float(c.allowable_drop_height_plastic[i]), "length", self.sys)),
-                ("Allowable mass at the planned height",
-                 fmt_allow(float(c.allowable_mass[i]), "mass", self.sys)),
-            ]
-            if not is_none(float(c.ductility[i])):
-                vals.append(("Ductility μ", fmt_value(float(c.ductility[i]), "dimensionless",
-                                                       self.sys)))
-            if not is_none(float(c.required_mat_stiffness[i])):
-                vals.append(("Spring mat needed to stay elastic",
-                             self.v(float(c.required_mat_stiffness[i]), "stiffness")))
-            if not is_none(float(c.required_crush_stroke[i])):
-                vals.append(("Crush stroke needed",
-                             self.v(float(c.required_crush_stroke[i]), "length")))
-            rows += [[self.P(a), self.P(f"<b>{esc(b)}</b>")] for a, b in vals]
-        rows.append([self.P("Response"), _outcome_cell(tr.response, st)])
-        extra.append(_outcome_bg(tr.response, 1, len(rows) - 1))
-        rows.append([self.P("Governing member · check"),
-                     self.P(esc(f"{tr.governing_member} · {tr.governing_check}"))])
-        rows.append([self.P("Advice for the bay"),
-                     self.P(esc(advice_text(sh.ref.summary, self.sys)))])
-        return [self.P("Outcome", st.h2),
-                _table(rows, [0.4 * self.w, 0.6 * self.w], extra=extra)]
-
-    # -- assumptions, cautions
-    def assumptions(self) -> None:
-        from reportlab.platypus import Spacer
-
-        st = self.st
-        head = f"{HEADINGS['assumptions']}; {HEADINGS['cautions'].lower()}"
-        flow: list[object] = [self.P(esc(HEADINGS["assumptions"]), st.h1)]
-        for a in ASSUMPTIONS:
-            flow.append(self.P(esc(a), st.bullet, bulletText="•"))
-        flow.append(self.P("Not checked", st.h2))
-        flow.append(self.P(esc("droprig does not check: " + "; ".join(NOT_CHECKED) + "."),
-                           st.body))
-        flow.append(self.P("Settings used", st.h2))
-        s = self.p.settings
-        rows = [
-            ("Design basis", _basis(self.p)),
-            ("Resistance factor (accidental situation)", f"{s.resistance_factor:.2f}"),
-            ("Dynamic increase factor on yield", f"{s.dynamic_increase_factor:.2f}"),
-            ("Ductility limit μ", f"{s.ductility_limit:g}"),
-            ("Support rotation limit θ", _deg(s.rotation_limit)),
-            ("Deflection limit (information only)", f"span / {s.deflection_limit_ratio:g}"),
-            ("Drop-point grid resolution", self.v(s.grid_resolution, "length")),
-            ("Member mass in the struck mass", "included" if s.include_member_mass
-             else "ignored (conservative for the force)"),
-            ("Existing loads", "included" if s.include_existing_loads else "ignored"),
-        ]
-        flow.append(_table([[self.P(esc(a)), self.P(esc(b))] for a, b in rows],
-                           [0.5 * self.w, 0.5 * self.w], header_rows=0))
-        if self.r.warnings:
-            flow.append(self.P("Analysis warnings", st.h2))
-            shown = self.r.warnings[:8]
-            for wmsg in shown:
-                flow.append(self.P(esc(wmsg), st.bullet, bulletText="•"))
-            if len(self.r.warnings) > len(shown):
-                flow.append(self.P(f"… and {len(self.r.warnings) - len(shown)} more.", st.small))
-        flow.append(Spacer(1, 6))
-        flow.append(self.P(esc(HEADINGS["cautions"]), st.h1))
-        for c in CAUTIONS:
-            flow.append(self.P(esc(c), st.bullet, bulletText="•"))
-        self.add(head, flow)
-
-    # -- identification, sign-off
-    def signoff(self) -> None:
-        from reportlab.platypus import Spacer
-
-        st = self.st
-        info = self.p.info
-        head = f"{HEADINGS['identification']} and {HEADINGS['signoff'].lower()}"
-        flow: list[object] = [self.P(esc(HEADINGS["identification"]), st.h1)]
-        now = _dt.datetime.now(_dt.UTC).strftime("%Y-%m-%d %H:%M UTC")
-        rows = [
-            ("Project", info.name), ("Site", info.site), ("Lift reference", info.lift_reference),
-            ("Revision", info.revision), ("Date", info.date),
-            ("Project file", self.fp.source),
-            ("Lift zones in this annex", ", ".join(z.id for z in self.zones) or "none"),
-            ("Software", f"droprig {__version__}"),
-            ("Annex generated", now),
-        ]
-        flow.append(_table([[self.P(f"<b>{esc(a)}</b>"), self.P(esc(b))] for a, b in rows],
-                           [0.3 * self.w, 0.7 * self.w], header_rows=0))
-        flow.append(Spacer(1, 6))
-        flow.append(self.P(esc(self.fp.label) + ":", st.body))
-        flow.append(self.P(self.fp.sha256, st.mono))
-        flow.append(self.P("Check the fingerprint before signing: any change to the input "
-                           f"changes it (e.g. <font name='{fonts.MONO}'>sha256sum FILE</font>).",
-                           st.small))
-        if info.description.strip():
-            flow.append(self.P("Description", st.h2))
-            flow.append(self.P(esc(info.description).replace("\n", "<br/>"), st.small))
-        flow.append(self.P(esc(HEADINGS["signoff"]), st.h1))
-        flow.append(self.P(esc(_caution()), st.caution))
-        flow.append(Spacer(1, 6))
-        hdr = ["Role", "Name", "Signature", "Date"]
-        srows = [[self.P(h, st.head) for h in hdr]]
-        for role, name in (("Prepared by", info.prepared_by), ("Checked by", info.checked_by),
-                           ("Approved by", info.approved_by)):
-            srows.append([self.P(f"<b>{role}</b>"), self.P(esc(name)), "", ""])
-        from reportlab.lib import colors
-
-        flow.append(_table(srows, [0.18 * self.w, 0.32 * self.w, 0.32 * self.w, 0.18 * self.w],
-                           extra=[("ROWBACKGROUNDS", (0, 1), (-1, -1), [colors.white]),
-                                  ("BOTTOMPADDING", (0, 1), (-1, -1), 22),
-                                  ("GRID", (0, 0), (-1, -1), 0.5, colors.black)]))
-        self.add(head, flow)
-
-
-@dataclass(frozen=True)
-class Resistances:
-    """Member properties and resistances shown in the member table (SI; ``None``
-    where the solver rules the section out of scope)."""
-
-    fy: float
-    section_class: str
-    flexure: float | None
-    shear: float | None
-    EI: float
-
-
-def member_resistances(m: Member, project: Project) -> Resistances:
-    """The resistances the solver uses for ``m`` (:mod:`droprig.solver.capacity`):
-    flexure (AISC 360-16 F2/F3; EN 1993-1-1 Eq. 6.13/6.14) and shear (AISC 360-16
-    G2.1; EN 1993-1-1 Eq. 6.18 with EN 1993-1-5 §5), with the project's resistance
-    factor and dynamic increase factor on yield; fy is the static yield strength
-    of the governing (thicker) element, Pa."""
-    from droprig.solver import capacity
-
-    s = project.settings
-    sec, grade, basis = m.section, m.grade, s.design_basis
-    kw = {"phi": s.resistance_factor, "dif": s.dynamic_increase_factor}
-    try:
-        cls = capacity.section_class(sec, grade, basis)
-    except ValueError:
-        cls = "?"
-    try:
-        flex: float | None = capacity.flexural_resistance(sec, grade, basis, **kw)
-    except ValueError:
-        flex = None
-    try:
-        shear: float | None = capacity.shear_resistance(sec, grade, basis, **kw)
-    except ValueError:
-        shear = None
-    return Resistances(grade.section_fy(sec), cls, flex, shear, grade.E * sec.Ix)
-
-
-def _resistance_note(project: Project) -> str:
-    s = project.settings
-    if s.design_basis == "aisc360":
-        src = ("flexure Mn (AISC 360-16 F2.1 Eq. F2-1, noncompact flanges F3.2); shear "
-               "Vn = 0.6·Fy·Aw·Cv1 (AISC 360-16 Eq. G2-1); class: compact (C), "
-               "noncompact (N), slender (S) flange per Table B4.1b")
-    else:
-        src = ("flexure Mc,Rd = Wpl·fy (Class 1, 2; EN 1993-1-1 Eq. 6.13) or Wel·fy "
-               "(Class 3, Eq. 6.14); shear Vpl,Rd = Av·fy/√3 (EN 1993-1-1 Eq. 6.18, "
-               "shear buckling EN 1993-1-5 §5); class per EN 1993-1-1 Table 5.2")
-    return (f"Resistances used by the solver, with the resistance factor "
-            f"{s.resistance_factor:.2f} and the dynamic increase factor "
-            f"{s.dynamic_increase_factor:.2f} on yield: {src}. 'out of scope': the section "
-            "is outside what droprig assesses. Web yielding, web crippling / patch "
-            "loading and the deck checks depend on the drop point and are shown on the "
-            "calculation sheets.")
-
-
-_CLASS_TAG = {"compact": "C", "noncompact": "N", "slender": "S"}
-
-
-def _ei(value: float, system: str) -> str:
-    """Flexural rigidity E·I: kN·m² (SI) or 10⁶ kip·in² (US; 1 kip = 4448.2216 N,
-    1 in = 0.0254 m, NIST SP 811 B.8)."""
-    if system == "US":
-        return f"{value / 4448.2216152605 / 0.0254 ** 2 / 1e6:,.1f}×10⁶ kip·in²"
-    return f"{value / 1e3:,.0f} kN·m²"
-
-
-def step_lines(symbol: str, formula: str, inputs: dict[str, tuple[float, str]],
-               system: str) -> list[str]:
-    """Plain-text lines of one calculation step: the formula, the formula with
-    the numbers put in (when it has inputs), and the inputs it does not name.
-
-    A formula that begins with ``symbol =`` or has no ``=`` is shown as
-    ``symbol = …``; a formula with its own left side (``U = |F·u + E| / R`` for
-    the step ``U_flexure``) is shown as written.
-    """
-    f = formula.strip()
-    head = f"{symbol} ="
-    if symbol and f.startswith(head):
-        lhs, rhs = f"{symbol} = ", f[len(head):].strip()
-    elif symbol and "=" not in f:
-        lhs, rhs = f"{symbol} = ", f
-    else:
-        lhs, rhs = "", f
-    lines = [lhs + rhs]
-    if inputs:
-        subst, unused = substitute_all(rhs, inputs, system)  # type: ignore[arg-type]
-        if subst != rhs:
-            lines.append(lhs + subst)
-        if unused:
-            lines.append("with " + ", ".join(
-                f"{k} = {fmt_value(inputs[k][0], inputs[k][1], system)}"  # type: ignore[arg-type]
-                for k in unused))
-    return lines
-
-
-def _check_name(k: int) -> str:
-    return CHECKS[k].replace("_", " ") if 0 <= k < len(CHECKS) else "none"
+# ----------------------------------------------------------------------- builder
 
 
 def _deg(rad: float) -> str:
@@ -1012,87 +660,902 @@ def _units(system: str) -> str:
 
 
 def _caution() -> str:
-    from droprig.cli import CAUTION
+    from droprig.texts import CAUTION
 
     return CAUTION
 
 
+def _check_name(k: int) -> str:
+    return CHECKS[k].replace("_", " ") if 0 <= k < len(CHECKS) else "none"
+
+
+def pad_spec(p: object, system: str) -> str:
+    """A pad's or mat's specification in words (kind, thickness, stiffness or crush
+    resistance and stroke, extent)."""
+    a = p.area  # type: ignore[attr-defined]
+    ext = (f"{fmt_value(a.x1 - a.x0, 'length', system)} × "  # type: ignore[arg-type]
+           f"{fmt_value(a.y1 - a.y0, 'length', system)}")  # type: ignore[arg-type]
+    th = fmt_value(p.thickness, "length", system)  # type: ignore[attr-defined,arg-type]
+    if p.kind == "crushable":  # type: ignore[attr-defined]
+        area = (a.x1 - a.x0) * (a.y1 - a.y0)
+        return (f"crushable, {th} thick, {ext}; crush force "
+                f"{fmt_sig(p.crush_force, 'force', system, 3)}"  # type: ignore[attr-defined,arg-type]
+                f" ({fmt_sig(p.crush_force / area, 'pressure', system, 3)}),"  # type: ignore[attr-defined,arg-type]
+                f" stroke {fmt_sig(p.crush_stroke, 'length', system, 3)}")  # type: ignore[attr-defined,arg-type]
+    return (f"spring mat, {th} thick, {ext}; stiffness "
+            f"{fmt_sig(p.stiffness, 'stiffness', system, 3)}")  # type: ignore[attr-defined,arg-type]
+
+
+class _Builder:
+    def __init__(self, project: Project, results: Results, zones: tuple[LiftZone, ...],
+                 fp: Fingerprint, permit: object, frame_w: float, frame_h: float,
+                 book: _Book) -> None:
+        self.p = project
+        self.r = results
+        self.zones = zones
+        self.fp = fp
+        self.permit = permit
+        self.sys = project.settings.unit_system
+        self.w = frame_w
+        self.h = frame_h
+        self.book = book
+        self.st = _Styles()
+        self.story: list[object] = []
+        self.refs = references.numbers(project)
+        zone_ids = {z.id for z in zones}
+        conds = [c for c in permit.conditions  # type: ignore[attr-defined]
+                 if c.zone_id in zone_ids]
+        self.conditions, self._merged_no = merge_conditions(conds)
+        self.sheet_titles: list[str] = []
+
+    # helpers
+    def P(self, text: str, style: object | None = None, bulletText: str | None = None
+          ) -> object:
+        from reportlab.platypus import Paragraph
+
+        return Paragraph(text, style or self.st.cell, bulletText=bulletText)
+
+    def v(self, value: float | None, quantity: str) -> str:
+        """A value in the project's units; an exact zero prints as ``0 m`` (never
+        ``0.000 m``, which reads as a rounded small number)."""
+        if value is not None and value == 0:
+            return "0 " + fmt_value(1.0, quantity, self.sys).split(" ", 1)[-1]
+        return fmt_value(value, quantity, self.sys)
+
+    def ref(self, key: str) -> str:
+        return str(self.refs.get(key, "?"))
+
+    def section(self, key: str, title: str | None = None, *, new_page: bool = True,
+                short: str | None = None) -> None:
+        from reportlab.platypus import PageBreak
+
+        if new_page and self.story:
+            self.story.append(PageBreak())
+        title = title or HEADINGS[key]
+        self.story.append(_marker(key, short or title, self.book))
+        self.story.append(self.P(esc(title), self.st.h1))
+
+    def cond_numbers(self, conds: Sequence[object]) -> list[int]:
+        return sorted({self._merged_no[_merge_key(c)] for c in conds
+                       if _merge_key(c) in self._merged_no})
+
+    def load_verdicts(self) -> list[object]:
+        zone_ids = {z.id for z in self.zones}
+        return [lv for lv in self.permit.loads  # type: ignore[attr-defined]
+                if lv.zone_id in zone_ids]
+
+    # ------------------------------------------------------------ 1 verdict
+    def verdict_page(self) -> None:
+        from reportlab.lib import colors
+        from reportlab.platypus import KeepTogether, Spacer
+
+        st = self.st
+        self.section("verdict")
+        lvs = self.load_verdicts()
+        verdict = max((lv.verdict for lv in lvs), key=_VERDICT_RANK.index,
+                      default="acceptable")
+        style = content.OUTCOMES[_VERDICT_STYLE[verdict]]
+        n_cond = len(self.conditions)
+        words = VERDICT_WORDS[verdict].upper()
+        if verdict == "acceptable_with_conditions":
+            words += f" — {n_cond} CONDITION{'S' if n_cond != 1 else ''} BELOW"
+        elif verdict == "not_acceptable":
+            words += " AS PLANNED — NO PRACTICAL CONDITION MAKES IT ACCEPTABLE"
+        vstyle = self.P(esc(words), st.verdict)
+        self.story.append(_table([[vstyle]], [self.w], header_rows=0, zebra=False, extra=[
+            ("BACKGROUND", (0, 0), (-1, -1), colors.HexColor(style.fill)),
+            ("BOX", (0, 0), (-1, -1), 2.0, colors.HexColor(style.edge)),
+            ("TOPPADDING", (0, 0), (-1, -1), 6), ("BOTTOMPADDING", (0, 0), (-1, -1), 6)]))
+        vstyle.style = vstyle.style.clone("v2", textColor=colors.HexColor(style.ink))
+        info = self.p.info
+        self.story.append(Spacer(1, 4))
+        ref, rev = esc(info.lift_reference) or NOT_GIVEN, esc(info.revision) or NOT_GIVEN
+        self.story.append(self.P(
+            f"Dropped-load assessment of the framing under lift <b>{ref}</b> rev "
+            f"<b>{rev}</b>: "
+            f"{len(self.zones)} lift zone(s), {sum(len(z.loads) for z in self.zones)} "
+            f"load(s), {self.r.n_points:,} drop points. Design basis {esc(_basis(self.p))}. "
+            "Drop heights are the load's underside above the finished surface of the "
+            "level.", st.small))
+        # per load
+        small = "in" if self.sys == "US" else "mm"
+        big = "ft" if self.sys == "US" else "m"
+        mass_u = "lb" if self.sys == "US" else "kg"
+        hdr = ["Zone", "Load", f"Mass, {mass_u}", f"Planned drop height, {big}", "Verdict",
+               "Max U", f"Least allowable drop height, {small}", "Conditions"]
+        rows: list[list[object]] = [hdr]
+        extra = []
+        verdicts = {(cv.zone_id, cv.load_name): cv
+                    for zv in content.zone_verdicts(self.p, self.r, self.zones)
+                    for cv in zv.cases}
+        for i, lv in enumerate(lvs):
+            cv = verdicts.get((lv.zone_id, lv.load_name))
+            nums = self.cond_numbers(lv.conditions)
+            rows.append([
+                lv.zone_id, self.P(esc(lv.load_name)),
+                self.v(cv.mass, "mass").split(" ")[0] if cv else "",
+                fmt_value(cv.planned_drop_height, "length", self.sys).split(" ")[0]
+                if cv else "",
+                self.P(f"<b>{esc(VERDICT_WORDS[lv.verdict])}</b>"),
+                fmt_util(cv.max_utilisation) if cv else "",
+                _h_small(cv.least_allowable_drop_height, self.sys) if cv else "",
+                self.P(", ".join(f"C{n}" for n in nums) or "none"),
+            ])
+            extra.append(_outcome_bg(_VERDICT_STYLE[lv.verdict], 4, i + 1))
+            extra.append(_outcome_ink(_VERDICT_STYLE[lv.verdict], 4, i + 1))
+        w = self.w
+        self.story.append(Spacer(1, 3))
+        self.story.append(_table(rows, [0.07 * w, 0.2 * w, 0.09 * w, 0.11 * w, 0.16 * w,
+                                        0.07 * w, 0.13 * w, 0.17 * w], extra=extra))
+        # conditions
+        self.story.append(self.P("Permit conditions", st.h2))
+        if not self.conditions:
+            self.story.append(self.P("None: every assessed bay stays elastic on the bare "
+                                     "deck for every load.", st.body))
+        for k, c in enumerate(self.conditions):
+            self.story.append(self.P(f"<b>C{k + 1}</b>&nbsp;&nbsp;"
+                                     + esc(c.sentence(self.sys)), st.cond))
+        flags = self.title_flags()
+        if flags:
+            self.story.append(self.P("Title block incomplete: " + esc("; ".join(flags))
+                                     + ". Complete it by hand before signing.", st.caution))
+        self.story.append(Spacer(1, 3))
+        self.story.append(self.P(esc(_caution()), st.caution))
+        self.story.append(KeepTogether(self.signoff()))
+
+    def title_flags(self) -> list[str]:
+        info = self.p.info
+        out = []
+        for label, value in (("permit / lift reference", info.lift_reference),
+                             ("revision", info.revision), ("date", info.date),
+                             ("project name", info.name), ("site", info.site)):
+            if not value.strip():
+                out.append(f"{label} not given")
+        return out
+
+    def signoff(self) -> list[object]:
+        from reportlab.lib import colors
+        from reportlab.platypus import Spacer
+
+        st = self.st
+        info = self.p.info
+        w = self.w
+        flow: list[object] = [self.P("Sign-off", st.h2)]
+        crane = "; ".join(f"{z.id}: {z.name}, at ({self.v(z.crane[0], 'length')}, "
+                          f"{self.v(z.crane[1], 'length')}), radius "
+                          f"{self.v(z.r_min, 'length')} to {self.v(z.r_max, 'length')}"
+                          for z in self.zones)
+        blank = "________________________"
+        rows = [
+            ["Permit number", blank + " (write in)"],
+            ["Lift-plan reference and revision",
+             f"{info.lift_reference or NOT_GIVEN} rev {info.revision or NOT_GIVEN}"],
+            ["Crane and configuration", f"{crane}. Model, boom, counterweight and "
+             f"outrigger set-up: {blank}"],
+            ["Valid from / to", f"{blank} to {blank}, and only for the input whose SHA-256 "
+             f"is printed in the footer of every page ({self.fp.source})"],
+            ["This annex is void after", "; ".join(INVALIDATES) + "."],
+            ["After a drop", " ".join(AFTER_A_DROP)],
+        ]
+        flow.append(_table([[self.P(f"<b>{esc(a)}</b>"), self.P(esc(b))] for a, b in rows],
+                           [0.2 * w, 0.8 * w], header_rows=0, zebra=False))
+        flow.append(Spacer(1, 4))
+        box = "☐"
+        hdr = ["Role", "What this signature means", "Name", "Decision", "Signature / date"]
+        srows: list[list[object]] = [hdr]
+        for role, attr, meaning in SIGNATURES:
+            name = getattr(info, attr)
+            srows.append([self.P(f"<b>{role}</b>"), self.P(esc(meaning)),
+                          self.P(esc(name) if name.strip() else f"<b>{NOT_GIVEN}</b>"),
+                          self.P(f"{box} accept<br/>{box} accept with the conditions<br/>"
+                                 f"{box} reject"), ""])
+        flow.append(_table(srows, [0.12 * w, 0.34 * w, 0.18 * w, 0.18 * w, 0.18 * w],
+                           zebra=False,
+                           extra=[("GRID", (0, 0), (-1, -1), 0.5, colors.black),
+                                  ("BOTTOMPADDING", (0, 1), (-1, -1), 16)]))
+        return flow
+
+    # ------------------------------------------------------------ 2 plan
+    def plan_pages(self) -> None:
+        from reportlab.platypus import Spacer
+
+        from droprig.report.figures import BayMark, plan_drawing
+
+        for k, level in enumerate(content.levels_of(self.p, self.zones)):
+            title = f"{HEADINGS['plan']} — level {level.id}: {level.name}"
+            self.section("plan" if k == 0 else f"plan:{level.id}", title,
+                         short=f"{HEADINGS['plan']} — level {level.id}")
+            zones = [z for z in self.zones if z.level_id == level.id]
+            prot = [p for p in self.p.protection_areas if p.level_id == level.id]
+            marks: dict[str, BayMark] = {}
+            for b in bays(level):
+                nums, excluded = [], False
+                for n, c in enumerate(self.conditions):
+                    if c.level_id == level.id and b.id in c.bays:
+                        nums.append(f"C{n + 1}")
+                        excluded |= c.kind == "exclude_area"
+                marks[b.id] = BayMark(excluded, tuple(dict.fromkeys(nums)))
+            desc = [f"Level elevation {self.v(level.elevation, 'length')}."]
+            for z in zones:
+                desc.append(
+                    f"Lift zone <b>{esc(z.id)}</b> ({esc(z.name)}): crane at "
+                    f"({self.v(z.crane[0], 'length')}, {self.v(z.crane[1], 'length')}), "
+                    f"radius {self.v(z.r_min, 'length')} to {self.v(z.r_max, 'length')}, "
+                    f"slew {_deg(z.slew_start)} to {_deg(z.slew_start + z.slew_sweep)}, "
+                    f"drift margin {self.v(z.drift_margin, 'length')}.")
+            desc.append("Each bay: id, worst outcome over the loads, highest U and the "
+                        "numbers of the permit conditions that apply (page 1). Plan north "
+                        "is +y; angles counter-clockwise from +x.")
+            self.story.append(self.P(" ".join(desc), self.st.small))
+            self.story.append(Spacer(1, 3))
+            outcomes = content.bay_outcomes(self.r, level, self.zones)
+            specs = {p.id: pad_spec(p, self.sys) for p in prot}
+            self.story.append(plan_drawing(level, zones, prot, outcomes, self.sys, self.w,
+                                           self.h - 95, marks=marks, pad_specs=specs))
+
+    # ------------------------------------------------------------ 3 bays × loads
+    def bay_table(self) -> None:
+        from reportlab.platypus import Spacer
+
+        st = self.st
+        self.section("bays")
+        small = "in" if self.sys == "US" else "mm"
+        self.story.append(self.P(
+            "Per bay and load: outcome (E stays elastic, Y yields within limits, X exceeds "
+            f"limits, – not reached), highest utilisation U and the check that sets it, the "
+            f"least allowable drop height in {small} (above the finished surface, rounded "
+            "down; 'none': not even a load set down is within the limits; 'no limit': no "
+            "height reaches a limit) and the permit conditions that apply.", st.small))
+        cases = [(z, ld) for z in self.zones for ld in z.loads]
+        by = {(b.zone_id, b.load_name, b.level_id, b.bay_id): b for b in self.r.bays}
+        conds_of: dict[tuple[str, str, str], list[int]] = {}
+        for n, c in enumerate(self.conditions):
+            for bay_id in c.bays:
+                conds_of.setdefault((c.zone_id, c.load_name or "", bay_id), []).append(n + 1)
+        for start in range(0, len(cases), LOADS_PER_TABLE):
+            group = cases[start:start + LOADS_PER_TABLE]
+            levels = content.levels_of(self.p, tuple(z for z, _ in group))
+            hdr1: list[object] = ["Bay"]
+            hdr2: list[object] = [""]
+            spans = []
+            for k, (z, ld) in enumerate(group):
+                hdr1 += [self.P(f"<b>{esc(z.id)}: {esc(ld.name)}</b>", st.head), "", "", ""]
+                hdr2 += ["", "U · check", f"h allow, {small}", "Cond."]
+                spans.append(("SPAN", (1 + 4 * k, 0), (4 + 4 * k, 0)))
+            rows: list[list[object]] = [hdr1, hdr2]
+            extra: list[tuple] = list(spans)
+            for lv in levels:
+                for bay in bays(lv):
+                    row: list[object] = [self.P(f"<b>{esc(bay.id)}</b>"
+                                                + (f" ({esc(lv.id)})" if len(levels) > 1
+                                                   else ""))]
+                    any_result = False
+                    for k, (z, ld) in enumerate(group):
+                        if z.level_id != lv.id:
+                            row += ["", "", "", ""]
+                            continue
+                        b = by.get((z.id, ld.name, lv.id, bay.id))
+                        if b is None:
+                            row += ["–", "", "", ""]
+                            continue
+                        any_result = True
+                        o = content.OUTCOMES.get(b.response,
+                                                 content.OUTCOMES[content.NOT_ASSESSED])
+                        nums = sorted(set(conds_of.get((z.id, ld.name, bay.id), [])))
+                        row += [o.tag, self.P(f"{fmt_util(b.max_utilisation)} "
+                                              f"{esc(b.governing_check.replace('_', ' '))}"),
+                                _h_small(b.allowable_drop_height, self.sys),
+                                self.P(" ".join(f"C{n}" for n in nums))]
+                        r = len(rows)
+                        extra.append(_outcome_bg(b.response, 1 + 4 * k, r))
+                        extra.append(_outcome_ink(b.response, 1 + 4 * k, r))
+                    if any_result:
+                        rows.append(row)
+            w = self.w
+            cw = [0.13 * w]
+            for _ in group:
+                cw += [0.035 * w, 0.13 * w, 0.07 * w, 0.055 * w]
+            scale = w / sum(cw) if len(group) == LOADS_PER_TABLE else 1.0
+            cw = [c * scale for c in cw]
+            extra += [("ALIGN", (1, 1), (-1, -1), "CENTER"),
+                      ("BACKGROUND", (0, 0), (-1, 1), "#2E2E2E")]
+            self.story.append(_table(rows, cw, header_rows=2, extra=extra))
+            self.story.append(Spacer(1, 6))
+        self.story.append(self.P(
+            "Governing points and every step of the calculation: appendix B. The least "
+            "allowable height of a bay is the least over its drop points, each with its "
+            "own governing check.", st.small))
+
+    # ------------------------------------------------------------ 4 inputs
+    def inputs(self) -> None:
+        from reportlab.platypus import Spacer
+
+        st = self.st
+        w = self.w
+        self.section("inputs")
+        self.story.append(self.P("Loads", st.h2))
+        hdr = ["Zone", "Load", "Kind", "Mass", "Mass source", "Footprint L × W",
+               "Hook elevation", "Hang length", "Drop height", "Underside"]
+        rows: list[list[object]] = [hdr]
+        for z in self.zones:
+            lv = self.p.level(z.level_id)
+            for ld in z.loads:
+                try:
+                    h = self.v(ld.height_above(lv.elevation), "length")
+                except ModelError:
+                    h = "below the surface"
+                rows.append([
+                    z.id, self.P(esc(ld.name)), ld.kind, self.v(ld.mass, "mass"),
+                    self.P("<b>not recorded</b>: confirm (weighed, certified, drawing)"),
+                    f"{self.v(ld.footprint_length, 'length')} × "
+                    f"{self.v(ld.footprint_width, 'length')}",
+                    self.v(ld.hook_elevation, "length") if ld.hook_elevation is not None
+                    else "not given (drop height given)",
+                    self.v(ld.hang_length, "length"), h,
+                    self.P("rigid" if ld.contact_stiffness is None else
+                           fmt_sig(ld.contact_stiffness, "stiffness", self.sys, 3)),
+                ])
+        self.story.append(_table(rows, [0.06 * w, 0.14 * w, 0.07 * w, 0.08 * w, 0.15 * w,
+                                        0.12 * w, 0.11 * w, 0.08 * w, 0.09 * w, 0.1 * w]))
+        prot = [p for p in self.p.protection_areas
+                if p.level_id in {z.level_id for z in self.zones}]
+        self.story.append(self.P("Pads and mats", st.h2))
+        if prot:
+            rows = [["Id", "Name", "Level", "Extent x (from–to)", "Extent y (from–to)",
+                     "Specification"]]
+            for p in prot:
+                a = p.area
+                rows.append([p.id, self.P(esc(p.name)), p.level_id,
+                             f"{self.v(a.x0, 'length')} – {self.v(a.x1, 'length')}",
+                             f"{self.v(a.y0, 'length')} – {self.v(a.y1, 'length')}",
+                             self.P(esc(pad_spec(p, self.sys)))])
+            self.story.append(_table(rows, [0.07 * w, 0.2 * w, 0.07 * w, 0.14 * w, 0.14 * w,
+                                            0.38 * w]))
+        else:
+            self.story.append(self.P("None.", st.body))
+        self.story.append(self.P("Crane zones", st.h2))
+        rows = [["Zone", "Crane", "Level", "Crane at (x, y)", "Radius", "Slew arc",
+                 "Drift margin", "Corridor"]]
+        for z in self.zones:
+            rows.append([z.id, self.P(esc(z.name)), z.level_id,
+                         f"{self.v(z.crane[0], 'length')}, {self.v(z.crane[1], 'length')}",
+                         f"{self.v(z.r_min, 'length')} – {self.v(z.r_max, 'length')}",
+                         f"{_deg(z.slew_start)} – {_deg(z.slew_start + z.slew_sweep)}",
+                         self.v(z.drift_margin, "length"),
+                         f"{len(z.corridor)} points" if z.corridor else "none"])
+        self.story.append(_table(rows, [0.06 * w, 0.25 * w, 0.06 * w, 0.15 * w, 0.14 * w,
+                                        0.13 * w, 0.1 * w, 0.11 * w]))
+        self.story.append(self.P("Design criteria and settings", st.h2))
+        s = self.p.settings
+        crit = [
+            ("Design basis", _basis(self.p)),
+            ("Resistance factor (accidental situation)", f"{s.resistance_factor:.2f}"),
+            ("Dynamic increase factor on yield", f"{s.dynamic_increase_factor:.2f}"),
+            ("Ductility limit μ; support rotation limit θ",
+             f"{s.ductility_limit:g}; {_deg(s.rotation_limit)}"),
+            ("Deflection limit (information only)", f"span / {s.deflection_limit_ratio:g}"),
+            ("Drop-point grid", self.v(s.grid_resolution, "length")),
+            ("Member mass in the struck mass; existing loads",
+             ("included" if s.include_member_mass else "ignored") + "; "
+             + ("included" if s.include_existing_loads else "ignored")),
+        ]
+        half = (len(crit) + 1) // 2
+        rows2 = []
+        for k in range(half):
+            a = crit[k]
+            b = crit[k + half] if k + half < len(crit) else ("", "")
+            rows2.append([self.P(esc(a[0])), self.P(f"<b>{esc(a[1])}</b>"),
+                          self.P(esc(b[0])), self.P(f"<b>{esc(b[1])}</b>")])
+        self.story.append(_table(rows2, [0.3 * w, 0.2 * w, 0.3 * w, 0.2 * w], header_rows=0))
+        self.story.append(self.P("Assumptions", st.h2))
+        for a in ASSUMPTIONS:
+            self.story.append(self.P(esc(a.format(**{k: self.ref(k) for k in self.refs})),
+                                     st.bullet, bulletText="•"))
+        self.story.append(self.P("Not checked by droprig (needs a separate check and "
+                                 "sign-off)", st.h2))
+        items = list(getattr(self.permit, "not_checked", ()) or ())
+        if not items:
+            items = [n[0].upper() + n[1:] + "." for n in NOT_CHECKED]
+        else:
+            items += [n[0].upper() + n[1:] + "." for n in NOT_CHECKED[2:3]]
+        for n in dict.fromkeys(items):
+            self.story.append(self.P(esc(n), st.bullet, bulletText="•"))
+        if self.r.warnings:
+            self.story.append(self.P("Analysis warnings", st.h2))
+            for wmsg in self.r.warnings:
+                self.story.append(self.P(esc(wmsg[0].upper() + wmsg[1:]), st.bullet,
+                                         bulletText="•"))
+        self.story.append(Spacer(1, 3))
+        self.story.append(self.P(esc(_caution()), st.caution))
+
+    # ------------------------------------------------------------ contents
+    def contents(self, sheets: Sequence[SheetDoc]) -> None:
+        entries = [(k, HEADINGS[k]) for k in BODY_SECTIONS]
+        entries += [(k, HEADINGS[k]) for k in ("members", "sheets")]
+        entries += [(f"sheet:{n + 1}", f"      {title}") for n, title in
+                    enumerate(self.sheet_titles)]
+        entries += [(k, HEADINGS[k]) for k in ("references", "revisions")]
+        self.section("contents")
+        self.story.append(_contents(entries, self.w, self.book))
+
+    # ------------------------------------------------------------ A members
+    def members(self, levels: Sequence[Level]) -> None:
+        st = self.st
+        self.section("members")
+        self.story.append(self.P(_resistance_note(self.p), st.small))
+        for lv in levels:
+            dk = lv.deck
+            self.story.append(self.P(
+                f"Deck of level <b>{esc(lv.id)}</b>: {esc(dk.kind.replace('_', ' '))}, "
+                f"{self.v(dk.thickness, 'length')} thick, concrete "
+                f"{self.v(dk.concrete.fc, 'stress')}, bottom bars "
+                f"{self.v(dk.rebar_area, 'area')} per m width at "
+                f"{self.v(dk.cover, 'length')} cover; {len(dk.openings)} opening(s). "
+                f"Superimposed dead {self.v(lv.superimposed_dead, 'pressure')}, live "
+                f"left in place {self.v(lv.live_in_place, 'pressure')}.", st.small))
+        su = {"SI": ("m", "MPa", "kN·m", "kN", "kN·m²"),
+              "US": ("ft", "ksi", "kip·ft", "kip", "10⁶ kip·in²")}[self.sys]
+        hdr = ["Member", "Role", "Section", "Grade", f"Span, {su[0]}", "Ends", f"fy, {su[1]}",
+               "Class", f"Flexure resistance, {su[2]}", f"Shear resistance, {su[3]}",
+               f"EI, {su[4]}"]
+        rows: list[list[object]] = [hdr]
+        many = len(levels) > 1
+        for lv in levels:
+            for m in lv.members:
+                res = member_resistances(m, self.p.settings)
+                rows.append([
+                    f"{lv.id}: {m.id}" if many else m.id, m.role, m.section.name,
+                    m.grade.name, self.v(m.span, "length").split(" ")[0], m.end_condition,
+                    self.v(res.fy, "stress").split(" ")[0],
+                    _CLASS_TAG.get(res.section_class, res.section_class),
+                    self.v(res.flexure, "moment").split(" ")[0] if res.flexure is not None
+                    else "out of scope",
+                    self.v(res.shear, "force").split(" ")[0] if res.shear is not None
+                    else "out of scope",
+                    _ei(res.EI, self.sys),
+                ])
+        w = self.w
+        self.story.append(_table(rows, [0.12 * w, 0.07 * w, 0.1 * w, 0.07 * w, 0.07 * w,
+                                        0.08 * w, 0.07 * w, 0.06 * w, 0.12 * w, 0.12 * w,
+                                        0.12 * w],
+                                 extra=[("ALIGN", (4, 1), (-1, -1), "RIGHT")]))
+
+    # ------------------------------------------------------------ B sheets
+    def sheets(self, docs: Sequence[SheetDoc]) -> None:
+        from reportlab.platypus import CondPageBreak, Spacer
+
+        st = self.st
+        self.section("sheets")
+        self.story.append(self.P(
+            "One sheet per distinct governing case: drop points whose results print the "
+            f"same to {SIG} significant figures share a sheet, which lists every load, bay "
+            "and reason it stands for. Every substituted formula gives the printed result "
+            "from the printed numbers; where a step's result does not follow from its "
+            "formula alone, the sheet says so. Sources are cited by their number in "
+            "appendix C.", st.small))
+        for n, doc in enumerate(docs):
+            g = doc.group
+            if n:
+                self.story.append(CondPageBreak(0.45 * self.h))
+                self.story.append(Spacer(1, 8))
+            title = self.sheet_titles[n]
+            self.story.append(_marker(f"sheet:{n + 1}",
+                                      f"{HEADINGS['sheets']} — B.{n + 1}", self.book))
+            self.story.append(self.P(esc(title), st.h2))
+            covers = "; ".join(f"{c.load_name}: bay {c.bay_id} ({c.reason})"
+                               for c in g.covers)
+            self.story.append(self.P(
+                f"Lift zone <b>{esc(g.zone_id)}</b> · load <b>{esc(g.load_name)}</b> · "
+                f"drop point x = {self.v(g.x, 'length')}, y = {self.v(g.y, 'length')} "
+                f"(bay {esc(g.bay_id)}). <b>Covers</b>: {esc(covers)}.", st.small))
+            self.story.extend(self._sheet_inputs(doc))
+            self.story.append(self._sheet_steps(doc))
+            self.story.extend(self._sheet_outcome(doc))
+
+    def _sheet_inputs(self, doc: SheetDoc) -> list[object]:
+        g = doc.group
+        z = self.p.zone(g.zone_id)
+        load = next(ld for ld in z.loads if ld.name == g.load_name)
+        level = self.p.level(z.level_id)
+        c, i = doc.case, doc.index
+        parts = [f"Level {level.id}: {level.name}",
+                 f"load mass {fmt_sig(load.mass, 'mass', self.sys)}, weight W = "
+                 f"{fmt_sig(load.weight, 'force', self.sys)}, footprint "
+                 f"{self.v(load.footprint_length, 'length')} × "
+                 f"{self.v(load.footprint_width, 'length')}"]
+        if c is not None and i is not None:
+            prot = int(c.protection[i])
+            parts.append("struck surface: bare deck" if prot < 0 else
+                         f"struck surface: pad {self.p.protection_areas[prot].id} "
+                         f"({pad_spec(self.p.protection_areas[prot], self.sys)})")
+            gm = int(c.governing_member[i])
+            if gm != DECK and 0 <= gm < len(level.members):
+                m = level.members[gm]
+                parts.append(f"governing member {m.id}: {m.section.name} {m.grade.name}, "
+                             f"span {self.v(m.span, 'length')}, {m.end_condition}")
+            else:
+                parts.append("governing element: deck")
+        return [self.P(esc("; ".join(parts)) + ".", self.st.small)]
+
+    def _sheet_steps(self, doc: SheetDoc) -> object:
+        w = self.w
+        cw = [0.04 * w, 0.2 * w, 0.44 * w, 0.14 * w, 0.18 * w]
+        R, B = fonts.REGULAR, fonts.BOLD
+
+        def fit(text: str, font: str, k: int) -> str:
+            return wrap_text(text, font, MIN_PT, cw[k] - 6)
+
+        rows: list[list[object]] = [["No.", "Step", "Formula = numbers = result",
+                                     "Result", "Source"]]
+        for k, ln in enumerate(doc.lines):
+            rows.append([str(k + 1), fit(ln.title, B, 1),
+                         "\n".join(fit(t, R, 2) for t in ln.lines), fit(ln.result, B, 3),
+                         fit(ln.source, R, 4)])
+        if doc.omitted:
+            rows.append(["", "", fit("Not applicable under " + _basis(self.p) + ": "
+                                     + ", ".join(doc.omitted) + ".", R, 2), "", ""])
+        return _table(rows, cw, wrap=False, extra=[("FONTNAME", (1, 1), (1, -1), B),
+                                                   ("FONTNAME", (3, 1), (3, -1), B)])
+
+    def _sheet_outcome(self, doc: SheetDoc) -> list[object]:
+        c, i = doc.case, doc.index
+        tr = doc.trace
+        vals: list[tuple[str, str]] = []
+        if c is not None and i is not None:
+            vals = [
+                ("Utilisation U", fmt_util(float(c.utilisation[i]))),
+                ("Governing member · check", f"{tr.governing_member} · "
+                 f"{tr.governing_check.replace('_', ' ')}"),
+                ("Response", content.OUTCOMES.get(tr.response,
+                                                  content.OUTCOMES["none"]).label),
+                ("Allowable drop height (elastic), above the finished surface",
+                 _allow_sig(float(c.allowable_drop_height[i]), self.sys)),
+                ("Allowable drop height (beyond yield)",
+                 _allow_sig(float(c.allowable_drop_height_plastic[i]), self.sys)),
+                ("Allowable mass at the planned height",
+                 _allow_sig(float(c.allowable_mass[i]), self.sys, "mass")),
+            ]
+        rows = [[self.P(esc(a)), self.P(f"<b>{esc(b)}</b>")] for a, b in vals]
+        extra = []
+        for k, (a, _) in enumerate(vals):
+            if a == "Response":
+                extra += [_outcome_bg(tr.response, 1, k), _outcome_ink(tr.response, 1, k)]
+        return [_table(rows, [0.5 * self.w, 0.5 * self.w], header_rows=0, extra=extra)]
+
+    # ------------------------------------------------------------ C, D
+    def references_page(self) -> None:
+        self.section("references")
+        self.story.append(self.P(
+            "Cited on the calculation sheets and in the assumptions by number. Clauses of "
+            "the design basis the project does not use are not listed.", self.st.small))
+        for k, r in enumerate(references.applicable(self.p)):
+            self.story.append(self.P(f"[{k + 1}]&nbsp;&nbsp;" + esc(r.text), self.st.cond))
+
+    def revisions(self) -> None:
+        from reportlab.platypus import Spacer
+
+        self.section("revisions")
+        info = self.p.info
+        now = _dt.datetime.now(_dt.UTC).strftime("%Y-%m-%d %H:%M UTC")
+        rows = [["Rev", "Date", "Description", "Prepared by"],
+                [info.revision or NOT_GIVEN, info.date or NOT_GIVEN,
+                 self.P(esc(f"This annex, generated {now} by droprig {__version__} from "
+                            f"{self.fp.source}.")), self.P(esc(info.prepared_by or NOT_GIVEN))]]
+        for _ in range(3):
+            rows.append(["", "", "", ""])
+        w = self.w
+        self.story.append(_table(rows, [0.08 * w, 0.14 * w, 0.56 * w, 0.22 * w],
+                                 extra=[("BOTTOMPADDING", (0, 2), (-1, -1), 10)]))
+        self.story.append(Spacer(1, 4))
+        self.story.append(self.P(
+            "Earlier revisions are not recorded in the project file: enter them by hand. "
+            f"{esc(self.fp.label)}:", self.st.small))
+        self.story.append(self.P(self.fp.sha256, self.st.mono))
+        if info.description.strip():
+            self.story.append(self.P("Description of the lift (as entered)", self.st.h2))
+            self.story.append(self.P(esc(info.description).replace("\n", "<br/>"),
+                                     self.st.small))
+
+
+# ----------------------------------------------------------------------- sheets
+
+
+def wrap_text(text: str, font: str, size: float, width: float) -> str:
+    """``text`` broken into lines of at most ``width`` pt (greedy, at spaces; a word
+    longer than a line is broken inside). Plain strings in table cells draw far
+    faster than paragraphs, and a sheet has hundreds of them."""
+    from reportlab.pdfbase.pdfmetrics import stringWidth
+
+    out: list[str] = []
+    for para in text.split("\n"):
+        cur = ""
+        for word in para.split(" "):
+            trial = f"{cur} {word}" if cur else word
+            if stringWidth(trial, font, size) <= width:
+                cur = trial
+                continue
+            if cur:
+                out.append(cur)
+            cur = word
+            while stringWidth(cur, font, size) > width and len(cur) > 1:
+                k = len(cur) - 1
+                while k > 1 and stringWidth(cur[:k], font, size) > width:
+                    k -= 1
+                out.append(cur[:k])
+                cur = cur[k:]
+        out.append(cur)
+    return "\n".join(out)
+
+
+
+@dataclass(frozen=True)
+class SheetLine:
+    """One printed step: title, lines (formula = numbers), result, cited source."""
+
+    title: str
+    lines: tuple[str, ...]
+    result: str
+    source: str
+    checked: bool
+
+
+@dataclass(frozen=True)
+class SheetDoc:
+    group: content.SheetGroup
+    trace: Trace
+    case: CaseResult | None
+    index: int | None
+    lines: tuple[SheetLine, ...]
+    omitted: tuple[str, ...]
+
+
+_REWRITE = {
+    # trace formulas written so the printed numbers can be put straight in
+    "h_allow": "h_allow = δ_st·((F_allow/W − 1)² − 1)/(2η)",
+    "δ_max/δ_lim": "δ_max/δ_lim = δ_max/(L/N)",
+}
+
+REL_TOL = 3e-3
+"""A substituted formula must give the printed result within this relative
+difference plus half a unit of the result's last printed digit: 4 significant
+figures on every input (common practice, no source)."""
+
+
+def step_text(step: TraceStep, system: str, project: Project) -> SheetLine:
+    """The lines of one step as a sheet prints them, each substituted formula
+    re-evaluated from its printed numbers before it is printed."""
+    from droprig import tracefmt
+
+    formula = references.strip_internal(_REWRITE.get(step.symbol, step.formula)).strip()
+    sym = step.symbol
+    if sym and formula.startswith(f"{sym} ="):
+        lhs, rhs = f"{sym} = ", formula[len(sym) + 2:].strip()
+    elif sym and "=" not in formula:
+        lhs, rhs = f"{sym} = ", formula
+    elif " = " in formula:  # the formula's own left side (U = … for U_flexure)
+        head, rhs = formula.split(" = ", 1)
+        lhs = f"{head} = "
+    else:
+        lhs, rhs = "", formula
+    result = fmt_sig(step.value, step.quantity, system)  # type: ignore[arg-type]
+    lines = [lhs + rhs]
+    checked = False
+    inputs = dict(step.inputs)
+
+    def listed(keys: Sequence[str]) -> str:
+        return "with " + ", ".join(
+            f"{k} = {fmt_sig(inputs[k][0], inputs[k][1], system)}"  # type: ignore[arg-type]
+            for k in keys)
+
+    if inputs:
+        subst, unused = tracefmt.substitute_all(
+            rhs, inputs, lambda v, q: fmt_sig(v, q, system))  # type: ignore[arg-type]
+        val = evaluate(subst) if subst != rhs else None
+        ok = False
+        if val is not None and math.isfinite(step.value):
+            tol = REL_TOL + printed_tolerance(result)
+            ok = abs(val - step.value) <= tol * max(abs(step.value), 1e-300) or (
+                step.value == 0 and abs(val) < 1e-12)
+        if ok:
+            lines = [f"{lhs}{rhs} = {subst} = {result}"]
+            if unused:
+                lines.append(listed(unused))
+            checked = True
+        else:
+            lines.append(listed(list(inputs)))
+            if val is not None:
+                lines.append("The result comes from the analysis at this point: another "
+                             "branch of the method governs here (a crushable layer, a "
+                             "limit of another check), so the formula above does not "
+                             "give it from these numbers.")
+    return SheetLine(references.strip_internal(step.title), tuple(lines),
+                     f"{sym} = {result}" if sym else result,
+                     references.cite(step.source, project), checked)
+
+
+def sheet_doc(project: Project, results: Results, group: content.SheetGroup) -> SheetDoc:
+    from droprig.solver import trace_point
+
+    tr = trace_point(project, group.zone_id, group.load_name, group.x, group.y)
+    case = content._case(results, group.zone_id, group.load_name)
+    idx = None
+    if case is not None and case.n:
+        import numpy as np
+
+        d2 = (case.x - group.x) ** 2 + (case.y - group.y) ** 2
+        k = int(np.argmin(d2))
+        idx = k if d2[k] <= 1e-12 else None
+    system = project.settings.unit_system
+    lines, omitted = [], []
+    for s in tr.steps:
+        r = s.inputs.get("R")
+        if s.symbol.startswith("U_") and r is not None and math.isinf(r[0]):
+            omitted.append(s.symbol[2:].replace("_", " "))
+            continue
+        if s.symbol == "k_req" and not math.isfinite(s.value):
+            continue
+        lines.append(step_text(s, system, project))
+    return SheetDoc(group, tr, case, idx, tuple(lines), tuple(omitted))
+
+
+def _h_small(h: float | None, system: str) -> str:
+    """An allowable drop height in mm / in, 3 significant figures rounded down."""
+    if is_none(h):
+        return "none"
+    assert h is not None
+    if math.isinf(h):
+        return "no limit"
+    mag = h / (0.0254 if system == "US" else 1e-3)
+    if mag <= 0:
+        return "0"
+    e = math.floor(math.log10(mag))
+    d = max(0, 2 - e)
+    q = 10.0 ** d
+    return f"{math.floor(mag * q + 1e-9) / q:.{d}f}"
+
+
+def _allow_sig(v: float, system: str, quantity: str = "length") -> str:
+    if is_none(v):
+        return "none"
+    if math.isinf(v):
+        return "no limit"
+    return fmt_sig(v, quantity, system)  # type: ignore[arg-type]
+
+
+# ----------------------------------------------------------------------- members
+
+
+def _resistance_note(project: Project) -> str:
+    s = project.settings
+    n = references.numbers(project)
+    if s.design_basis == "aisc360":
+        src = (f"flexure Mn [{n['aisc360']}] F2.1 Eq. F2-1, noncompact flanges F3.2; shear "
+               f"Vn = 0.6·Fy·Aw·Cv1 [{n['aisc360']}] Eq. G2-1; class: compact (C), "
+               "noncompact (N), slender (S) flange per Table B4.1b")
+    else:
+        src = (f"flexure Mc,Rd = Wpl·fy (Class 1, 2; [{n['en1993_1_1']}] Eq. 6.13) or "
+               f"Wel·fy (Class 3, Eq. 6.14); shear Vpl,Rd = Av·fy/√3 ([{n['en1993_1_1']}] "
+               f"Eq. 6.18, shear buckling [{n['en1993_1_5']}] §5); class per "
+               f"[{n['en1993_1_1']}] Table 5.2")
+    return (f"Resistances used in the analysis, with the resistance factor "
+            f"{s.resistance_factor:.2f} and the dynamic increase factor "
+            f"{s.dynamic_increase_factor:.2f} on yield: {src}. 'out of scope': the section "
+            "is outside what droprig assesses. Web and deck checks depend on the drop "
+            "point and are on the calculation sheets (appendix B).")
+
+
+_CLASS_TAG = {"compact": "C", "noncompact": "N", "slender": "S"}
+
+
+def _ei(value: float, system: str) -> str:
+    """Flexural rigidity E·I: kN·m² (SI) or 10⁶ kip·in² (US; 1 kip = 4448.2216 N,
+    1 in = 0.0254 m, NIST SP 811 B.8), number only (the unit is in the header)."""
+    if system == "US":
+        return f"{value / 4448.2216152605 / 0.0254 ** 2 / 1e6:.1f}"
+    return f"{value / 1e3:.0f}"
+
+
 # ----------------------------------------------------------------------- entry
+
+PAPER = {"A4": None, "Letter": None}
 
 
 def write_annex(project: Project, results: Results, path: str | os.PathLike[str], *,
                 project_path: str | os.PathLike[str] | None = None, lift: str | None = None,
-                progress: Progress | None = None) -> int:
+                paper: str | None = None, progress: Progress | None = None) -> int:
     """Write the lift-permit annex PDF for ``project`` and its ``results`` to ``path``.
 
     ``project_path``: the ``.droprig`` file the project was read from (its SHA-256
     is printed); ``lift``: only this lift zone id (``ModelError`` naming the ids
-    otherwise); ``progress(fraction, text)`` is called as the work advances.
-    The file is written atomically (temporary file in the same folder, then
+    otherwise); ``paper``: ``"A4"`` or ``"Letter"`` (default: Letter for US units,
+    A4 otherwise); ``progress(fraction, text)`` is called as the work advances
+    (safe to call from a worker thread: no Qt, no shared state). The file is
+    written atomically (temporary file in the same folder, then
     :func:`os.replace`); on any error no file is left behind. Returns the page
     count.
     """
     from reportlab.lib.pagesizes import A4, LETTER
-    from reportlab.platypus import BaseDocTemplate, Frame, PageBreak, PageTemplate
+    from reportlab.platypus import BaseDocTemplate, Frame, PageTemplate
 
     def tick(f: float, text: str) -> None:
         if progress is not None:
             progress(min(max(f, 0.0), 1.0), text)
 
+    system = project.settings.unit_system
+    if paper is None:
+        paper = "Letter" if system == "US" else "A4"
+    if paper not in PAPER:
+        raise ModelError("paper", paper, "A4 or Letter")
     tick(0.0, "Preparing the annex")
     fonts.register()
+    check_printable(project)
     zones = content.select_zones(project, lift)
     fp = fingerprint(project, project_path)
-    verdicts = content.zone_verdicts(project, results, zones)
-    rows = content.bay_rows(results, zones)
-    sheets = build_sheets(project, results, zones, progress=progress, span=(0.05, 0.55))
+    permit = permit_conditions(project, results)
+    groups = content.sheet_groups(project, results, zones)
+    docs = []
+    for k, g in enumerate(groups):
+        tick(0.05 + 0.3 * k / max(1, len(groups)), f"Calculation sheet {k + 1} of "
+             f"{len(groups)}")
+        docs.append(sheet_doc(project, results, g))
     levels = content.levels_of(project, zones)
 
-    system = project.settings.unit_system
-    pagesize = LETTER if system == "US" else A4
+    pagesize = LETTER if paper == "Letter" else A4
     fw = pagesize[0] - 2 * MARGIN_X
     fy0 = MARGIN_BOTTOM + FOOTER_H
-    fh = pagesize[1] - MARGIN_TOP - HEADER_H - fy0
-    tick(0.55, "Laying out pages")
-    b = _Builder(project, results, zones, fp, fw, fh)
-    b.summary(verdicts)
-    b.bay_pages(rows)
-    for lv in levels:
-        b.plan(lv)
-    b.members(levels)
-    b.sheets(sheets)
-    b.assumptions()
-    b.signoff()
-
-    story: list[object] = []
-    for k, (section, flow) in enumerate(b.pages):
-        story.append(_Marker(section))
-        story.append(_Page(flow, fw, fh - 2))
-        if k < len(b.pages) - 1:
-            story.append(PageBreak())
+    fh = pagesize[1] - MARGIN_TOP - HEADER_H - 6 - fy0
+    tick(0.35, "Laying out pages")
+    book = _Book()
+    b = _Builder(project, results, zones, fp, permit, fw, fh, book)
+    b.sheet_titles = [f"B.{n + 1}  {d.group.load_name}, bay {d.group.bay_id}: "
+                      f"{content.OUTCOMES[d.trace.response].label.lower()}, U "
+                      f"{fmt_util(d.group.utilisation)}" for n, d in enumerate(docs)]
+    b.verdict_page()
+    b.plan_pages()
+    b.bay_table()
+    b.inputs()
+    b.contents(docs)
+    if levels and any(lv.members for lv in levels):
+        b.members(levels)
+    b.sheets(docs)
+    b.references_page()
+    b.revisions()
 
     info = project.info
     header = _Header(info.name, info.site, info.lift_reference, info.revision, info.date,
                      __version__, fp.sha256, _units(system))
-    counter = [0]
     with atomic_path(path) as tmp:
         doc = BaseDocTemplate(
             str(tmp), pagesize=pagesize, leftMargin=MARGIN_X, rightMargin=MARGIN_X,
-            topMargin=MARGIN_TOP + HEADER_H, bottomMargin=fy0,
+            topMargin=MARGIN_TOP + HEADER_H + 6, bottomMargin=fy0,
             title=f"Lift-permit annex — {info.name}", author=info.prepared_by,
             subject=f"Dropped-load assessment, lift {info.lift_reference}",
-            creator=f"droprig {__version__}")
+            creator=f"droprig {__version__}", lang="en")
         frame = Frame(MARGIN_X, fy0, fw, fh, leftPadding=0, rightPadding=0, topPadding=0,
                       bottomPadding=0, id="body")
         doc.addPageTemplates([PageTemplate(id="page", frames=[frame])])
-        tick(0.6, "Rendering PDF")
-        n_planned = len(b.pages)
-        doc.build(story, canvasmaker=_canvas_class(
-            header, counter,
-            lambda k: tick(0.6 + 0.38 * k / n_planned, f"Rendering page {k} of {n_planned}")))
-        if counter[0] != len(b.pages):  # one _Page per page: should not happen
-            raise RuntimeError(f"annex layout: {counter[0]} pages rendered for "
-                               f"{len(b.pages)} planned; please report this with the "
-                               "project file")
-    tick(1.0, f"Annex written: {counter[0]} pages")
-    return counter[0]
+        tick(0.4, "Rendering PDF")
+        doc.build(b.story, canvasmaker=_canvas_class(
+            header, book, lambda k: tick(min(0.98, 0.4 + 0.012 * k), f"Rendering page {k}")))
+    tick(1.0, f"Annex written: {book.pages} pages")
+    return book.pages

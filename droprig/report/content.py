@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 from droprig import outcomes
 from droprig.model import Level, LiftZone, ModelError, Project, bays
-from droprig.solver.results import RESPONSES, BaySummary, CaseResult, Results
+from droprig.solver import RESPONSES, BaySummary, CaseResult, Results
 
 NOT_ASSESSED = outcomes.NOT_ASSESSED
 
@@ -251,4 +251,123 @@ def bay_outcomes(results: Results, level: Level,
         u = s.max_utilisation
         response = s.response if rank(s.response) > rank(r0) else r0
         out[s.bay_id] = (response, u if math.isnan(u0) or u > u0 else u0)
+    return out
+
+
+# ------------------------------------------------------- de-duplicated sheets
+
+
+@dataclass(frozen=True)
+class Covered:
+    """One (load, bay, reason) a calculation sheet stands for."""
+
+    zone_id: str
+    load_name: str
+    bay_id: str
+    x: float
+    y: float
+    reason: str
+
+
+@dataclass(frozen=True)
+class SheetGroup:
+    """One calculation sheet of appendix B: a representative drop point and every
+    (load, bay, reason) whose governing case prints the same numbers."""
+
+    zone_id: str
+    load_name: str
+    bay_id: str
+    x: float
+    y: float
+    response: str
+    utilisation: float
+    covers: tuple[Covered, ...]
+
+
+def _sig(v: float, n: int = 4) -> float | str:
+    f = float(v)
+    if math.isnan(f):
+        return "nan"
+    if math.isinf(f) or f == 0:
+        return f
+    return float(f"{f:.{n - 1}e}")
+
+
+def case_key(case: CaseResult, i: int) -> tuple:
+    """What makes two drop points the same calculation as printed (4 significant
+    figures of every result a sheet prints, the check, the response, the surface)."""
+    arrays = (case.drop_height, case.static_deflection, case.effective_mass,
+              case.dynamic_factor, case.peak_force, case.max_deflection, case.utilisation,
+              case.allowable_drop_height, case.allowable_drop_height_plastic,
+              case.allowable_mass, case.ductility)
+    return (case.zone_id, case.load_name, int(case.governing_check[i]),
+            int(case.response[i]), int(case.protection[i]),
+            *(_sig(a[i]) for a in arrays))
+
+
+def sheet_groups(project: Project, results: Results,
+                 zones: tuple[LiftZone, ...]) -> list[SheetGroup]:
+    """The calculation sheets of appendix B, de-duplicated.
+
+    Candidates, per zone × load: every bay's governing point (highest U), every
+    bay's point of least allowable drop height, and for every pad or mat the
+    point on it with the highest U (the pad's acceptance). Candidates whose
+    printed results agree to 4 significant figures (:func:`case_key`) share one
+    sheet, which lists them all. Worst first.
+    """
+    import numpy as np
+
+    from droprig.model import bays as level_bays
+
+    groups: dict[tuple, list[Covered]] = {}
+    reps: dict[tuple, tuple[CaseResult, int, str]] = {}
+    order: list[tuple] = []
+
+    def add(case: CaseResult, i: int, bay_id: str, reason: str) -> None:
+        key = case_key(case, i)
+        cov = Covered(case.zone_id, case.load_name, bay_id, float(case.x[i]),
+                      float(case.y[i]), reason)
+        if key not in groups:
+            groups[key] = []
+            reps[key] = (case, i, bay_id)
+            order.append(key)
+        if all((c.load_name, c.bay_id, c.reason) != (cov.load_name, cov.bay_id, cov.reason)
+               for c in groups[key]):
+            groups[key].append(cov)
+
+    zone_ids = {z.id for z in zones}
+    for case in results.cases:
+        if case.zone_id not in zone_ids or case.n == 0:
+            continue
+        level = project.level(case.level_id)
+        ids = [b.id for b in level_bays(level)]
+        sums = sorted(_case_summaries(results, case.zone_id, case.load_name),
+                      key=lambda b: (*severity_key(b), b.bay_id))
+        for b in sums:
+            d2 = (case.x - b.governing_x) ** 2 + (case.y - b.governing_y) ** 2
+            i = int(np.argmin(d2))
+            if d2[i] <= 1e-12:
+                add(case, i, b.bay_id, "highest utilisation")
+            if b.bay_id in ids:
+                sel = np.flatnonzero(case.bay == ids.index(b.bay_id))
+                if sel.size:
+                    h = np.where(np.isnan(case.allowable_drop_height[sel]), -np.inf,
+                                 case.allowable_drop_height[sel])
+                    j = int(sel[int(np.argmin(h))])
+                    add(case, j, b.bay_id, "least allowable drop height")
+        for p in range(len(project.protection_areas)):
+            sel = np.flatnonzero(case.protection == p)
+            if sel.size:
+                j = int(sel[int(np.argmax(case.utilisation[sel]))])
+                bay_k = int(case.bay[j])
+                bay_id = ids[bay_k] if 0 <= bay_k < len(ids) else "?"
+                add(case, j, bay_id, f"acceptance of pad {project.protection_areas[p].id}")
+    out = []
+    for key in order:
+        case, i, bay_id = reps[key]
+        out.append(SheetGroup(case.zone_id, case.load_name, bay_id, float(case.x[i]),
+                              float(case.y[i]), RESPONSES[int(case.response[i])],
+                              float(case.utilisation[i]), tuple(groups[key])))
+    out.sort(key=lambda g: (-rank(g.response), -(g.utilisation if math.isfinite(g.utilisation)
+                                                 else 1e300)))
     return out

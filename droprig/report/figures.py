@@ -6,16 +6,21 @@ stays vector, its text stays searchable (a reviewer can find a bay id), it uses
 the annex's embedded font and there is no second PDF to merge. matplotlib would
 add ~0.5 s of import and a pypdf merge for no gain in a figure this simple.
 
-Visual language (shared with the desktop plan): outcome fill + hatch + text in
-every bay; girders heavy, beams light, grid lines dash-dot with label bubbles,
-swing region solid, drift margin dashed, corridor dash-dot, protection areas
-double-outlined and named. Everything is labelled, nothing relies on colour.
+The conditions plan shows what the permit asks for: the outcome fill (and its
+tag in words) only over the part of each bay the load can reach; exclusion areas
+hatched heavy black over white; pads and mats filled dark and labelled with their
+specification; each bay labelled with its id, outcome, utilisation and the numbers
+of the permit conditions that apply to it (hook caps among them). Girders heavy
+solid, beams light solid, the reachable edge long-dashed with a halo, the drift
+margin dotted, the corridor dash-dot, columns as filled squares. Every text is at
+least 7 pt; nothing relies on colour alone (greyscale-safe).
 """
 
 from __future__ import annotations
 
 import math
 from collections.abc import Sequence
+from dataclasses import dataclass
 
 from reportlab.graphics.shapes import Circle, Drawing, Group, Line, Polygon, PolyLine, Rect, String
 from reportlab.lib import colors
@@ -25,7 +30,13 @@ from droprig import units
 from droprig.model import Level, LiftZone, ProtectionArea, bays
 from droprig.report import fonts
 from droprig.report.content import NOT_ASSESSED, OUTCOMES, OutcomeStyle
-from droprig.report.geometry import clip_polyline, drift_outlines, hatch_segments, swing_outlines
+from droprig.report.geometry import (
+    clip_polygon,
+    clip_polyline,
+    drift_outlines,
+    hatch_segments,
+    swing_outlines,
+)
 from droprig.report.text import fmt_util, fmt_value
 from droprig.units import UnitSystem
 
@@ -33,7 +44,7 @@ INK = colors.HexColor("#1A1A1A")
 GRID_INK = colors.HexColor("#5A5A5A")
 ZONE_INK = colors.HexColor("#101010")
 MAT_INK = colors.HexColor("#1B6B4A")
-LEGEND_HEIGHT = 118.0
+LEGEND_HEIGHT = 112.0
 """Height of the legend strip under the plan, pt."""
 MARGIN = 26.0
 """Paper margin around the plan for grid bubbles, pt."""
@@ -115,22 +126,54 @@ def _fit(text: str, size: float, width: float, font: str = fonts.REGULAR) -> str
     return text + "…"
 
 
+MIN_PT = 7.0
+"""Smallest text size on the plan, pt."""
+PAD_FILL = colors.HexColor("#14261D")
+"""Pads and mats: a near-black green fill (greyscale ≈ 12 %, darker than the
+"exceeds" fill at ≈ 29 %), white label."""
+EXCL_INK = colors.black
+REACH_DASH = [7, 2.5]
+DRIFT_DASH = [1, 2]
+
+
+@dataclass(frozen=True)
+class BayMark:
+    """What the conditions plan writes in one bay: excluded (hatched) and the
+    labels of the permit conditions that apply (``"C3"``)."""
+
+    excluded: bool = False
+    conditions: tuple[str, ...] = ()
+
+
+def reach_polygons(zone: LiftZone) -> tuple[list[list[tuple[float, float]]],
+                                            list[list[tuple[float, float]]]]:
+    """(outer, holes) polygons of the area a load of ``zone`` can reach: the
+    corridor when one is drawn, else the swing region widened by the drift
+    margin."""
+    if zone.corridor:
+        return [list(zone.corridor)], []
+    outs = drift_outlines(zone)
+    return outs[:1], outs[1:]
+
+
 def plan_drawing(level: Level, zones: Sequence[LiftZone],
                  protections: Sequence[ProtectionArea],
                  outcomes: dict[str, tuple[str, float]], system: UnitSystem,
-                 width: float, height: float) -> Drawing:
-    """Plan of ``level`` with framing, bays by outcome, lift zones, protection and
-    a legend, fitted in ``width`` × ``height`` pt.
+                 width: float, height: float, *,
+                 marks: dict[str, BayMark] | None = None,
+                 pad_specs: dict[str, str] | None = None) -> Drawing:
+    """Conditions plan of ``level`` fitted in ``width`` × ``height`` pt.
 
-    ``outcomes`` maps bay id -> (response, max utilisation) as from
-    :func:`droprig.report.content.bay_outcomes`.
+    ``outcomes``: bay id -> (response, max utilisation)
+    (:func:`droprig.report.content.bay_outcomes`); ``marks``: bay id ->
+    :class:`BayMark`; ``pad_specs``: protection id -> its specification in words.
     """
     fonts.register()
+    marks = marks or {}
+    pad_specs = pad_specs or {}
     d = Drawing(width, height)
     g = level.grid
     ext = g.extent
-    # World window: the framing, the cranes and the mats, with a margin; swing
-    # outlines beyond it are clipped (a 40 m radius must not shrink the floor).
     xs = [ext.x0, ext.x1] + [z.crane[0] for z in zones]
     ys = [ext.y0, ext.y1] + [z.crane[1] for z in zones]
     for p in protections:
@@ -144,11 +187,13 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
     box = (min(xs) - pad, min(ys) - pad, max(xs) + pad, max(ys) + pad)
     plan_h = height - LEGEND_HEIGHT
     s = min((width - 2 * MARGIN) / (box[2] - box[0]), (plan_h - 2 * MARGIN) / (box[3] - box[1]))
-    # Trim the drawing to what the plan needs, so it sits under the page text.
     height = LEGEND_HEIGHT + s * (box[3] - box[1]) + 2 * MARGIN
     d.height = height
     ox = (width - s * (box[2] - box[0])) / 2 - s * box[0]
     oy = LEGEND_HEIGHT + MARGIN - s * box[1]
+    # plan (x, y) in m -> drawing (ox + s·x, oy + s·y) in pt, for tests and callers
+    # (reportlab's Drawing refuses unknown attributes through setattr)
+    d.__dict__["plan_transform"] = (s, ox, oy)
 
     def P(x: float, y: float) -> tuple[float, float]:
         return (ox + s * x, oy + s * y)
@@ -159,39 +204,47 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
             out += list(P(x, y))
         return out
 
-    # Bays by outcome
+    reach = [reach_polygons(z) for z in zones]
     labels = Group()
-    for b in bays(level):
-        resp, u = outcomes.get(b.id, (NOT_ASSESSED, math.nan))
-        st = OUTCOMES.get(resp, OUTCOMES[NOT_ASSESSED])
+    bay_list = bays(level)
+    # 1. bays: white, then the outcome fill over the reachable part only
+    for b in bay_list:
         x0, y0 = P(b.rect.x0, b.rect.y0)
         x1, y1 = P(b.rect.x1, b.rect.y1)
-        d.add(Rect(x0, y0, x1 - x0, y1 - y0, fillColor=_hex(st.fill), strokeColor=None))
-        hg = Group()
-        _hatch(hg, st, x0, y0, x1, y1)
-        d.add(hg)
-        lines = [(b.id, True), (f"{st.tag} {st.label}", False)]
-        if resp != NOT_ASSESSED:
-            lines.append((f"U = {fmt_util(u)}", False))
-        size = 6.5
-        bw, bh = x1 - x0, y1 - y0
-        while size > 4.0 and (max(stringWidth(t, fonts.BOLD, size) for t, _ in lines) + 6 > bw
-                              or len(lines) * size * 1.25 + 4 > bh):
-            size -= 0.5
-        if len(lines) * size * 1.25 + 4 > bh or size * 2 + 6 > bw:
-            lines = [(st.tag, True)]
-            size = min(6.5, max(3.5, bh * 0.6))
-        tw = max(stringWidth(t, fonts.BOLD if bold else fonts.REGULAR, size)
-                 for t, bold in lines) + 4
-        th = len(lines) * size * 1.25 + 2
-        cx, cy = (x0 + x1) / 2, (y0 + y1) / 2
-        labels.add(Rect(cx - tw / 2, cy - th / 2, tw, th, fillColor=colors.white,
-                        strokeColor=_hex(st.edge), strokeWidth=0.5))
-        for k, (t, bold) in enumerate(lines):
-            labels.add(_text(cx, cy + th / 2 - (k + 1) * size * 1.25 + size * 0.3, t, size,
-                             anchor="middle", bold=bold))
-
-    # Deck openings
+        d.add(Rect(x0, y0, x1 - x0, y1 - y0, fillColor=colors.white, strokeColor=None))
+        resp, _ = outcomes.get(b.id, (NOT_ASSESSED, math.nan))
+        st = OUTCOMES.get(resp, OUTCOMES[NOT_ASSESSED])
+        if resp == NOT_ASSESSED:
+            continue
+        rb = (b.rect.x0, b.rect.y0, b.rect.x1, b.rect.y1)
+        for outer, holes in reach:
+            for poly in outer:
+                part = clip_polygon(poly, rb)
+                if part:
+                    d.add(Polygon(flat(part), fillColor=_hex(st.fill), strokeColor=None))
+            for poly in holes:
+                part = clip_polygon(poly, rb)
+                if part:
+                    d.add(Polygon(flat(part), fillColor=colors.white, strokeColor=None))
+    # 2. exclusion areas: white, heavy black hatch, heavy outline
+    for b in bay_list:
+        mk = marks.get(b.id)
+        if mk is None or not mk.excluded:
+            continue
+        x0, y0 = P(b.rect.x0, b.rect.y0)
+        x1, y1 = P(b.rect.x1, b.rect.y1)
+        d.add(Rect(x0, y0, x1 - x0, y1 - y0, fillColor=colors.white, strokeColor=None))
+        for xa, ya, xb, yb in hatch_segments(x0, y0, x1, y1, 5.0, 1):
+            d.add(Line(xa, ya, xb, yb, strokeColor=EXCL_INK, strokeWidth=1.3))
+        d.add(Rect(x0 + 1, y0 + 1, x1 - x0 - 2, y1 - y0 - 2, fillColor=None,
+                   strokeColor=EXCL_INK, strokeWidth=2.0))
+    # 3. pads and mats: dark solid fill
+    for p in protections:
+        x0, y0 = P(p.area.x0, p.area.y0)
+        x1, y1 = P(p.area.x1, p.area.y1)
+        d.add(Rect(x0, y0, x1 - x0, y1 - y0, fillColor=PAD_FILL, strokeColor=colors.black,
+                   strokeWidth=0.8))
+    # deck openings
     for o in level.deck.openings:
         x0, y0 = P(o.x0, o.y0)
         x1, y1 = P(o.x1, o.y1)
@@ -199,19 +252,18 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
                    strokeWidth=0.8))
         d.add(Line(x0, y0, x1, y1, strokeColor=INK, strokeWidth=0.6))
         d.add(Line(x0, y1, x1, y0, strokeColor=INK, strokeWidth=0.6))
-        labels.add(_text((x0 + x1) / 2, y1 + 2, "opening", 5.5, anchor="middle"))
-
-    # Grid lines with bubbles (top and left)
+        labels.add(_text((x0 + x1) / 2, y1 + 2, "opening", MIN_PT, anchor="middle"))
+    # grid lines with bubbles
     gx0, gy0 = P(box[0], box[1])
     gx1, gy1 = P(box[2], box[3])
-    r_b = 6.5
+    r_b = 7.5
     for x, lab in zip(g.x_lines, g.x_labels, strict=True):
         px, _ = P(x, 0)
         d.add(Line(px, gy0 - 4, px, gy1 + 4, strokeColor=GRID_INK, strokeWidth=0.4,
                    strokeDashArray=[6, 2, 1, 2]))
         d.add(Circle(px, gy1 + 4 + r_b, r_b, fillColor=colors.white, strokeColor=INK,
                      strokeWidth=0.6))
-        d.add(_text(px, gy1 + 4 + r_b - 2.3, _fit(lab, 6.0, 2 * r_b - 1), 6.0,
+        d.add(_text(px, gy1 + 4 + r_b - 2.5, _fit(lab, MIN_PT, 2 * r_b - 1), MIN_PT,
                     anchor="middle", bold=True))
     for y, lab in zip(g.y_lines, g.y_labels, strict=True):
         _, py = P(0, y)
@@ -219,40 +271,26 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
                    strokeDashArray=[6, 2, 1, 2]))
         d.add(Circle(gx0 - 4 - r_b, py, r_b, fillColor=colors.white, strokeColor=INK,
                      strokeWidth=0.6))
-        d.add(_text(gx0 - 4 - r_b, py - 2.3, _fit(lab, 6.0, 2 * r_b - 1), 6.0,
+        d.add(_text(gx0 - 4 - r_b, py - 2.5, _fit(lab, MIN_PT, 2 * r_b - 1), MIN_PT,
                     anchor="middle", bold=True))
-
-    # Framing
+    # framing: girders heavy, beams light, columns filled squares
     for m in level.members:
         (ax, ay), (bx, by) = P(*m.start), P(*m.end)
         girder = m.role == "girder"
-        _halo_line(d, [ax, ay, bx, by], INK, 1.6 if girder else 0.6, halo=0.9)
+        _halo_line(d, [ax, ay, bx, by], INK, 2.2 if girder else 0.6, halo=0.9)
     for cx, cy in g.columns:
         px, py = P(cx, cy)
-        d.add(Rect(px - 2.2, py - 2.2, 4.4, 4.4, fillColor=INK, strokeColor=None))
-
-    # Protection areas: double outline and a name tag
-    for p in protections:
-        x0, y0 = P(p.area.x0, p.area.y0)
-        x1, y1 = P(p.area.x1, p.area.y1)
-        d.add(Rect(x0, y0, x1 - x0, y1 - y0, fillColor=None, strokeColor=MAT_INK,
-                   strokeWidth=2.2))
-        d.add(Rect(x0 + 2.4, y0 + 2.4, max(x1 - x0 - 4.8, 0.1), max(y1 - y0 - 4.8, 0.1),
-                   fillColor=None, strokeColor=MAT_INK, strokeWidth=0.6))
-        tag = _fit(f"MAT {p.id}", 5.5, max(x1 - x0 - 6, 20))
-        w = stringWidth(tag, fonts.BOLD, 5.5) + 4
-        # name tag just above the mat's top-left corner, clear of the bay's own label
-        labels.add(Rect(x0, y1 + 1.5, w, 8, fillColor=MAT_INK, strokeColor=None))
-        labels.add(_text(x0 + 2, y1 + 3.5, tag, 5.5, bold=True, color=colors.white))
-
-    # Lift zones
+        d.add(Rect(px - 3, py - 3, 6, 6, fillColor=INK, strokeColor=colors.white,
+                   strokeWidth=0.6))
+    # reachable edge (long dash), drift margin (dotted), corridor (dash-dot)
     for z in zones:
-        for pts in drift_outlines(z):
-            for part in clip_polyline(pts, box):
-                _halo_line(d, flat(part), ZONE_INK, 0.7, dash=[3, 2])
+        if z.drift_margin > 0:
+            for pts in drift_outlines(z):
+                for part in clip_polyline(pts, box):
+                    _halo_line(d, flat(part), ZONE_INK, 0.9, dash=DRIFT_DASH)
         for pts in swing_outlines(z):
             for part in clip_polyline(pts, box):
-                _halo_line(d, flat(part), ZONE_INK, 1.4)
+                _halo_line(d, flat(part), ZONE_INK, 1.2, dash=REACH_DASH)
         if z.corridor:
             ring = [*z.corridor, z.corridor[0]]
             for part in clip_polyline(ring, box):
@@ -262,22 +300,55 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
                      strokeWidth=1.2))
         d.add(Line(cx - 7, cy, cx + 7, cy, strokeColor=ZONE_INK, strokeWidth=0.8))
         d.add(Line(cx, cy - 7, cx, cy + 7, strokeColor=ZONE_INK, strokeWidth=0.8))
-        tag = _fit(f"CRANE {z.id}", 6.0, 120)
-        w = stringWidth(tag, fonts.BOLD, 6.0) + 4
-        labels.add(Rect(cx + 7, cy + 4, w, 9, fillColor=ZONE_INK, strokeColor=None))
-        labels.add(_text(cx + 9, cy + 6.3, tag, 6.0, bold=True, color=colors.white))
-        # zone id on the outer arc, at mid-slew if that point is in the window
-        a_mid = z.slew_start + z.slew_sweep / 2
-        mx = z.crane[0] + z.r_max * math.cos(a_mid)
-        my = z.crane[1] + z.r_max * math.sin(a_mid)
-        if box[0] <= mx <= box[2] and box[1] <= my <= box[3]:
-            px, py = P(mx, my)
-            t = _fit(f"{z.id} r ≤ {fmt_value(z.r_max, 'length', system)}", 5.5, 120)
-            w = stringWidth(t, fonts.REGULAR, 5.5) + 4
-            labels.add(Rect(px - w / 2, py - 4, w, 8, fillColor=colors.white,
-                            strokeColor=ZONE_INK, strokeWidth=0.4))
-            labels.add(_text(px, py - 2, t, 5.5, anchor="middle"))
-
+        tag = _fit(f"CRANE {z.id}", MIN_PT, 140)
+        w = stringWidth(tag, fonts.BOLD, MIN_PT) + 4
+        labels.add(Rect(cx + 7, cy + 4, w, 10, fillColor=ZONE_INK, strokeColor=None))
+        labels.add(_text(cx + 9, cy + 6.5, tag, MIN_PT, bold=True, color=colors.white))
+    # bay labels
+    for b in bay_list:
+        resp, u = outcomes.get(b.id, (NOT_ASSESSED, math.nan))
+        st = OUTCOMES.get(resp, OUTCOMES[NOT_ASSESSED])
+        mk = marks.get(b.id, BayMark())
+        x0, y0 = P(b.rect.x0, b.rect.y0)
+        x1, y1 = P(b.rect.x1, b.rect.y1)
+        lines = [(b.id, True), (f"{st.tag} {st.label}" if resp != NOT_ASSESSED
+                                else "not reached", False)]
+        if resp != NOT_ASSESSED:
+            lines.append((f"U = {fmt_util(u)}", False))
+        if mk.excluded:
+            lines.append(("EXCLUDED", True))
+        if mk.conditions:
+            lines.append((" ".join(mk.conditions), True))
+        bw = x1 - x0 - 4
+        lines = [(_fit(t, MIN_PT, bw, fonts.BOLD if bold else fonts.REGULAR), bold)
+                 for t, bold in lines]
+        size = MIN_PT
+        while lines and len(lines) * size * 1.2 + 3 > (y1 - y0) - 4:
+            lines.pop(2 if len(lines) > 2 else -1)
+        if not lines:
+            continue
+        tw = max(stringWidth(t, fonts.BOLD if bold else fonts.REGULAR, size)
+                 for t, bold in lines) + 4
+        th = len(lines) * size * 1.2 + 3
+        cx, cy = (x0 + x1) / 2, (y0 + y1) / 2
+        labels.add(Rect(cx - tw / 2, cy - th / 2, tw, th, fillColor=colors.white,
+                        strokeColor=_hex(st.edge), strokeWidth=0.6))
+        for k, (t, bold) in enumerate(lines):
+            labels.add(_text(cx, cy + th / 2 - (k + 1) * size * 1.2 + size * 0.28, t, size,
+                             anchor="middle", bold=bold))
+    # pad labels: id and specification, on the pad's top edge
+    for p in protections:
+        x0, y0 = P(p.area.x0, p.area.y0)
+        x1, y1 = P(p.area.x1, p.area.y1)
+        text = f"PAD {p.id}: {pad_specs.get(p.id, p.kind)}"
+        lines = _wrap(text, MIN_PT, max(x1 - x0 - 8, 60))[:6]
+        tw = max(stringWidth(t, fonts.REGULAR, MIN_PT) for t in lines) + 6
+        th = len(lines) * MIN_PT * 1.2 + 3
+        labels.add(Rect(x0, y1 - th - 1, tw, th, fillColor=PAD_FILL, strokeColor=colors.white,
+                        strokeWidth=0.6))
+        for k, t in enumerate(lines):
+            labels.add(_text(x0 + 3, y1 - 1 - (k + 1) * MIN_PT * 1.2 + 1, t, MIN_PT,
+                             color=colors.white))
     d.add(labels)
     _north_and_scale(d, s, system, width, LEGEND_HEIGHT + 8)
     _legend(d, width)
@@ -293,52 +364,62 @@ def _north_and_scale(d: Drawing, s: float, system: UnitSystem, width: float,
     for k in range(2):
         d.add(Rect(x0 + k * seg, y, seg, 3.5, fillColor=INK if k == 0 else colors.white,
                    strokeColor=INK, strokeWidth=0.5))
-    d.add(_text(x0, y + 6, "0", 5.5, anchor="middle"))
+    d.add(_text(x0, y + 6, "0", MIN_PT, anchor="middle"))
     d.add(_text(x0 + 2 * seg, y + 6, fmt_value(length, "length", system).replace(".000", "")
-                .replace(".00", ""), 5.5, anchor="middle"))
-    # North arrow: +y is plan north
+                .replace(".00", ""), MIN_PT, anchor="middle"))
     nx, ny = width - 18, y
     d.add(Polygon([nx, ny + 18, nx - 4, ny + 4, nx, ny + 7, nx + 4, ny + 4],
                   fillColor=INK, strokeColor=INK, strokeWidth=0.5))
-    d.add(_text(nx, ny + 20, "N", 6.5, anchor="middle", bold=True))
+    d.add(_text(nx, ny + 20, "N", 8.0, anchor="middle", bold=True))
 
 
 def _legend(d: Drawing, width: float) -> None:
     top = LEGEND_HEIGHT - 6
     d.add(Line(0, top + 2, width, top + 2, strokeColor=GRID_INK, strokeWidth=0.4))
-    d.add(_text(0, top - 8, "Legend", 7.0, bold=True))
-    y = top - 22
-    col_w = width / 2
-    for k, key in enumerate(("elastic", "plastic", "exceeds", NOT_ASSESSED)):
-        st = OUTCOMES[key]
-        yy = y - k * 21
-        g = Group()
-        g.add(Rect(0, yy - 3, 22, 12, fillColor=_hex(st.fill), strokeColor=_hex(st.edge),
-                   strokeWidth=0.6))
-        _hatch(g, st, 0, yy - 3, 22, yy + 9, 0.8)
-        d.add(g)
-        d.add(_text(27, yy + 4, f"{st.tag}  {st.label}", 6.5, bold=True))
-        for i, line in enumerate(_wrap(st.meaning, 5.0, col_w - 34)[:2]):
-            d.add(_text(27, yy - 2.5 - 5.6 * i, line, 5.0))
-    x = col_w + 6
-    items = [
-        ("girder", lambda yy: Line(x, yy + 3, x + 22, yy + 3, strokeColor=INK, strokeWidth=1.6)),
-        ("beam", lambda yy: Line(x, yy + 3, x + 22, yy + 3, strokeColor=INK, strokeWidth=0.6)),
-        ("grid line and label", lambda yy: Line(x, yy + 3, x + 22, yy + 3, strokeColor=GRID_INK,
-                                                strokeWidth=0.4, strokeDashArray=[6, 2, 1, 2])),
-        ("swing region (radius band × slew arc)",
-         lambda yy: Line(x, yy + 3, x + 22, yy + 3, strokeColor=ZONE_INK, strokeWidth=1.4)),
-        ("drift margin for load swing",
-         lambda yy: Line(x, yy + 3, x + 22, yy + 3, strokeColor=ZONE_INK, strokeWidth=0.7,
-                         strokeDashArray=[3, 2])),
-        ("corridor", lambda yy: Line(x, yy + 3, x + 22, yy + 3, strokeColor=ZONE_INK,
-                                     strokeWidth=1.0, strokeDashArray=[8, 2, 2, 2])),
-        ("protection area (mat)", lambda yy: Rect(x, yy - 1, 22, 8, fillColor=None,
-                                                  strokeColor=MAT_INK, strokeWidth=1.6)),
-        ("crane position / column", lambda yy: Circle(x + 11, yy + 3, 4, fillColor=colors.white,
-                                                      strokeColor=ZONE_INK, strokeWidth=1.0)),
+    d.add(_text(0, top - 9, "Legend", 8.0, bold=True))
+    col_w = width / 3
+    row = 12.5
+
+    def sw_rect(x: float, yy: float, fill: colors.Color) -> Rect:
+        return Rect(x, yy - 2, 22, 9, fillColor=fill, strokeColor=INK, strokeWidth=0.5)
+
+    def excl(x: float, yy: float) -> Group:
+        gr = Group()
+        gr.add(Rect(x, yy - 2, 22, 9, fillColor=colors.white, strokeColor=EXCL_INK,
+                    strokeWidth=1.2))
+        for xa, ya, xb, yb in hatch_segments(x, yy - 2, x + 22, yy + 7, 4.0, 1):
+            gr.add(Line(xa, ya, xb, yb, strokeColor=EXCL_INK, strokeWidth=1.0))
+        return gr
+
+    def line(x: float, yy: float, w: float, dash: list[float] | None,
+             ink: colors.Color = INK) -> Line:
+        return Line(x, yy + 2.5, x + 22, yy + 2.5, strokeColor=ink, strokeWidth=w,
+                    strokeDashArray=dash)
+
+    cols: list[list[tuple[str, object]]] = [
+        [(f"{OUTCOMES[k].tag} {OUTCOMES[k].label} (reachable part)",
+          lambda x, yy, k=k: sw_rect(x, yy, _hex(OUTCOMES[k].fill)))
+         for k in ("elastic", "plastic", "exceeds")]
+        + [("not reached by the load", lambda x, yy: sw_rect(x, yy, colors.white))],
+        [("exclusion area: do not carry the load over it", excl),
+         ("pad or mat to lay (specification on it)",
+          lambda x, yy: sw_rect(x, yy, PAD_FILL)),
+         ("C3: permit condition no. 3 applies", lambda x, yy: _text(x + 2, yy, "C3", MIN_PT,
+                                                                    bold=True)),
+         ("column", lambda x, yy: Rect(x + 8, yy - 0.5, 6, 6, fillColor=INK,
+                                       strokeColor=None))],
+        [("girder", lambda x, yy: line(x, yy, 2.2, None)),
+         ("beam", lambda x, yy: line(x, yy, 0.6, None)),
+         ("edge of the swing region", lambda x, yy: line(x, yy, 1.2, REACH_DASH, ZONE_INK)),
+         ("drift margin (load swing)", lambda x, yy: line(x, yy, 0.9, DRIFT_DASH, ZONE_INK)),
+         ("corridor", lambda x, yy: line(x, yy, 1.0, [8, 2, 2, 2], ZONE_INK)),
+         ("crane position", lambda x, yy: Circle(x + 11, yy + 2.5, 4, fillColor=colors.white,
+                                                 strokeColor=ZONE_INK, strokeWidth=1.0))],
     ]
-    for k, (label, make) in enumerate(items):
-        yy = top - 18 - k * 11.5
-        d.add(make(yy))
-        d.add(_text(x + 27, yy + 1, label, 6.0))
+    for c, items in enumerate(cols):
+        x = c * col_w
+        for k, (label, make) in enumerate(items):
+            yy = top - 24 - k * row
+            d.add(make(x, yy))  # type: ignore[operator]
+            for i, t in enumerate(_wrap(label, MIN_PT, col_w - 32)[:1]):
+                d.add(_text(x + 27, yy - i * 8, t, MIN_PT))

@@ -1,14 +1,14 @@
 """Fonts for the annex: DejaVu Sans (embedded, subset), so Greek symbols, ≤, √, ²
 and other characters of the calculation sheets print as themselves.
 
-The TrueType files are taken from the system (Debian ``fonts-dejavu-core``) or
-from the copy matplotlib ships in ``mpl-data`` (found without importing
-matplotlib). Registration happens once per process.
+The TrueType files ship with droprig in ``resources/fonts`` (DejaVu 2.37 from the
+Debian package ``fonts-dejavu-core``; Bitstream Vera licence, which allows
+redistribution — ``resources/fonts/LICENSE-DejaVu.txt``), so every annex embeds
+the same font on every machine. Registration happens once per process.
 """
 
 from __future__ import annotations
 
-import importlib.util
 import pathlib
 from functools import lru_cache
 
@@ -16,6 +16,9 @@ REGULAR = "DroprigSans"
 BOLD = "DroprigSans-Bold"
 ITALIC = "DroprigSans-Oblique"
 MONO = "DroprigMono"
+
+FONT_DIR = pathlib.Path(__file__).resolve().parents[2] / "resources" / "fonts"
+"""Where the shipped TrueType files are."""
 
 _FILES = {
     REGULAR: "DejaVuSans.ttf",
@@ -26,26 +29,15 @@ _FILES = {
 
 
 class FontNotFoundError(RuntimeError):
-    """No DejaVu font could be found to embed in the PDF."""
+    """A shipped font file is missing from ``resources/fonts``."""
 
 
-def _search_dirs() -> list[pathlib.Path]:
-    dirs = [pathlib.Path("/usr/share/fonts/truetype/dejavu"),
-            pathlib.Path("/usr/share/fonts/dejavu"),
-            pathlib.Path("/usr/local/share/fonts")]
-    spec = importlib.util.find_spec("matplotlib")
-    if spec is not None and spec.submodule_search_locations:
-        for loc in spec.submodule_search_locations:
-            dirs.append(pathlib.Path(loc) / "mpl-data" / "fonts" / "ttf")
-    return dirs
-
-
-def _find(filename: str) -> pathlib.Path:
-    for d in _search_dirs():
-        p = d / filename
-        if p.is_file():
-            return p
-    raise FontNotFoundError(f"font file {filename} not found (install fonts-dejavu-core)")
+def font_path(filename: str) -> pathlib.Path:
+    p = FONT_DIR / filename
+    if not p.is_file():
+        raise FontNotFoundError(f"font file {p} is missing: droprig's resources/fonts "
+                                "folder is incomplete; reinstall droprig")
+    return p
 
 
 @lru_cache(maxsize=1)
@@ -56,8 +48,30 @@ def register() -> None:
     from reportlab.pdfbase.ttfonts import TTFont
 
     for name, filename in _FILES.items():
-        pdfmetrics.registerFont(TTFont(name, str(_find(filename))))
+        pdfmetrics.registerFont(TTFont(name, str(font_path(filename))))
     addMapping(REGULAR, 0, 0, REGULAR)
     addMapping(REGULAR, 1, 0, BOLD)
     addMapping(REGULAR, 0, 1, ITALIC)
     addMapping(REGULAR, 1, 1, BOLD)
+    # reportlab.graphics starts every drawing in Helvetica (not embedded); droprig
+    # draws nothing but its own embedded fonts
+    from reportlab.graphics import shapes
+
+    shapes.STATE_DEFAULTS["fontName"] = REGULAR
+
+
+
+def unsupported(text: str) -> str:
+    """The characters of ``text`` the annex font cannot draw ('' when all are fine)."""
+    from reportlab.pdfbase import pdfmetrics
+
+    register()
+    face = pdfmetrics.getFont(REGULAR).face
+    widths = face.charWidths
+    out = []
+    for ch in text:
+        if ch in "\n\t" or ord(ch) in widths:
+            continue
+        if ch not in out:
+            out.append(ch)
+    return "".join(out)

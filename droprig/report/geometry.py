@@ -168,3 +168,40 @@ def hatch_segments(x0: float, y0: float, x1: float, y1: float, spacing: float,
         if xb - xa > 1e-9:
             out.append((xa, ya, xb, yb))
     return out
+
+
+def clip_polygon(poly: list[Pt], box: tuple[float, float, float, float]) -> list[Pt]:
+    """The part of polygon ``poly`` inside the rectangle ``box`` = (x0, y0, x1, y1)
+    (Sutherland–Hodgman: the clip window is convex, the polygon may be any simple
+    polygon; a non-convex one may come back with zero-width bridges, harmless for a
+    fill). Empty list when nothing is inside."""
+    x0, y0, x1, y1 = box
+    def at_x(a: Pt, b: Pt, x: float) -> Pt:
+        return (x, a[1] + (b[1] - a[1]) * (x - a[0]) / (b[0] - a[0]))
+
+    def at_y(a: Pt, b: Pt, y: float) -> Pt:
+        return (a[0] + (b[0] - a[0]) * (y - a[1]) / (b[1] - a[1]), y)
+
+    edges = (
+        (lambda p: p[0] >= x0, lambda a, b: at_x(a, b, x0)),
+        (lambda p: p[0] <= x1, lambda a, b: at_x(a, b, x1)),
+        (lambda p: p[1] >= y0, lambda a, b: at_y(a, b, y0)),
+        (lambda p: p[1] <= y1, lambda a, b: at_y(a, b, y1)),
+    )
+    out = [p for k, p in enumerate(poly) if k == 0 or p != poly[k - 1]]
+    if len(out) > 1 and out[0] == out[-1]:
+        out = out[:-1]
+    for inside, cross in edges:
+        if not out:
+            break
+        src, out = out, []
+        prev = src[-1]
+        for cur in src:
+            if inside(cur):
+                if not inside(prev):
+                    out.append(cross(prev, cur))
+                out.append(cur)
+            elif inside(prev):
+                out.append(cross(prev, cur))
+            prev = cur
+    return out if len(out) >= 3 else []

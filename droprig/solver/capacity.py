@@ -19,6 +19,7 @@ report. Resistances in N (forces) and N·m (moments); inputs in SI.
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 from typing import Literal
 
 import numpy as np
@@ -226,7 +227,7 @@ def patch_loading_resistance(section: Section, grade: Grade, bearing: ArrayLike,
     m1 = fyf * bf / (fyw * tw)
     m2_full = 0.02 * (hw / tf) ** 2
 
-    def resist(kF: np.ndarray, ly_of_m2) -> np.ndarray:  # type: ignore[no-untyped-def]
+    def resist(kF: np.ndarray, ly_of_m2: Callable[[float], np.ndarray]) -> np.ndarray:
         Fcr = 0.9 * kF * E * tw**3 / hw
         ly = ly_of_m2(m2_full)
         lam = np.sqrt(ly * tw * fyw / Fcr)

@@ -356,14 +356,8 @@ def struck_mass(c: Chain) -> StruckMass:
     # bound ever appear, the framing's mass share is not taken (η = 1, conservative)
     m_bound = d.fm.frame_mass
     m_e = np.where(np.isfinite(m_e) & (m_e >= 0.0) & (m_e <= m_bound), m_e, 0.0)
-    # The Rayleigh shape is scaled to 1 at the point the load strikes. The load's
-    # displacement is W·f with f = f_s + f_deck + 1/k_load (springs in series) while
-    # the framing under it moves only W·f_s, so the framing's share is
-    # m_e·(f_s/f)². Near a column f_s → 0 and the framing mass drops out
-    # (η → 1, conservative) instead of being credited for framing that barely moves.
-    with np.errstate(divide="ignore", invalid="ignore"):
-        share = np.where(comp.f_struct > 0.0, comp.f_s / comp.f_struct, 0.0)
-    m_e = m_e * share**2
+    # the load moves W·f (f = f_s + f_deck + 1/k_load), the framing under it W·f_s
+    m_e = impact_mod.struck_point_mass(m_e, comp.f_s, comp.f_struct)
     # under a mat or a crushable layer the hit on the framing is no longer perfectly
     # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
     m_e = np.where(d.geo.protection >= 0, 0.0, m_e)
@@ -750,6 +744,9 @@ def beyond_yield(c: Chain) -> BeyondYield:
         Lsel = arm_s[sel] if COND_NAMES[int(cc)] == "cantilever" else 2 * arm_s[sel]
         theta_s[sel] = plastic.support_rotation(d_struct[sel], Lsel, arm_s[sel],
                                                 COND_NAMES[int(cc)])
+    d_m: np.ndarray
+    ductility: np.ndarray
+    theta: np.ndarray
     if isinstance(sub, slice):
         d_m, collapsed, ductility, theta = d_m_s, coll_s, duct_s, theta_s
     else:

@@ -416,10 +416,10 @@ def line_points(frame: Frame, step: float) -> tuple[np.ndarray, np.ndarray]:
                       lambda: _frozen(*_line_points(frame, step)))
 
 
-def _frozen(*arrays: np.ndarray) -> tuple[np.ndarray, ...]:
-    for a in arrays:
+def _frozen(x: np.ndarray, y: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    for a in (x, y):
         a.setflags(write=False)
-    return arrays
+    return x, y
 
 
 def _line_points(frame: Frame, step: float) -> tuple[np.ndarray, np.ndarray]:
@@ -474,8 +474,8 @@ def boundary_points(zone: LiftZone, step: float) -> tuple[np.ndarray, np.ndarray
         xs.append(cx + r * np.cos(th))
         ys.append(cy + r * np.sin(th))
     if not full:
-        for th, sgn in ((th0, -1.0), (th0 + sweep, 1.0)):
-            c, s = math.cos(th), math.sin(th)
+        for th_e, sgn in ((th0, -1.0), (th0 + sweep, 1.0)):
+            c, s = math.cos(th_e), math.sin(th_e)
             nx, ny = -s * sgn, c * sgn  # outward normal of the straight edge
             rr = _samples(max(zone.r_min, 0.0), zone.r_max, step)
             xs.append(cx + rr * c + m * nx)

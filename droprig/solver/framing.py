@@ -57,7 +57,7 @@ def member_resistances(m: Member, settings: Settings) -> Resistances:
     return Resistances(grade.section_fy(sec), cls, flex, shear, grade.E * sec.Ix)
 
 
-def on_rigid_support(cond: str, L: float, a: float) -> bool:
+def on_rigid_support(cond: beam.EndCondition, L: float, a: float) -> bool:
     """Does a load at ``a`` (m) of a member of span ``L`` (m) with end condition
     ``cond`` land on a support (zero flexibility: the influence function g(a, a) of
     AISC Manual Table 3-23 / Roark Table 8.1 vanishes there)?"""

@@ -14,6 +14,7 @@ from droprig.solver import droppoints, memory
 from droprig.solver.floor import FloorModel
 from droprig.solver.loadpath import PathResult
 from droprig.solver.loadpath import evaluate as evaluate_path
+from droprig.solver.reference import path_reference
 
 __all__ = ["Geometry", "point_geometry", "slice_geo"]
 
@@ -31,12 +32,18 @@ class Geometry:
     cache: dict = field(default_factory=dict, repr=False)
 
 
-def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarray) -> Geometry:
-    """Load path and plan attributes of drop points (bay, protection area, opening)."""
+def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarray, *,
+                   reference: bool = False) -> Geometry:
+    """Load path and plan attributes of drop points (bay, protection area, opening).
+    The load path by the fast kernel (:func:`droprig.solver.loadpath.evaluate`), or
+    with ``reference`` by the plain formulas
+    (:func:`droprig.solver.reference.path_reference`; the calculation trace)."""
     memory.keep_freed_memory()
     x = np.asarray(x, float)
     y = np.asarray(y, float)
-    path = evaluate_path(fm.frame, x, y, with_mass=fm.settings.include_member_mass)
+    with_mass = fm.settings.include_member_mass
+    path = (path_reference(fm.frame, x, y, with_mass=with_mass) if reference
+            else evaluate_path(fm.frame, x, y, with_mass=with_mass))
     bay = droppoints.bay_index(fm.level, x, y)
     prot = -np.ones(x.shape, dtype=np.int64)
     for i in range(len(project.protection_areas) - 1, -1, -1):

@@ -39,6 +39,25 @@ def mass_efficiency(M: ArrayLike, m_e: ArrayLike) -> np.ndarray:
     return M / (M + m_e)
 
 
+def struck_point_mass(m_rayleigh: ArrayLike, f_s: ArrayLike, f_struct: ArrayLike,
+                      ) -> np.ndarray:
+    """Mass of the framing struck by the load, kg: m_e·(f_s/f)².
+
+    The Rayleigh mass m_e (kg) of the framing is taken with its static deflected shape
+    scaled to 1 at the struck point of the framing, which moves W·f_s, while the load
+    moves W·f with f = f_s + the springs in series between them (deck, the load's
+    underside; m/N). With the shape scaled to the load's displacement the framing's
+    share is m_e·(f_s/f)² (Rayleigh's method, Timoshenko, *Strength of Materials*
+    Part I, impact with the mass of the beam considered — from memory). Near a
+    support f_s → 0 and the framing mass drops out (η → 1, conservative). Zero where
+    f ≤ 0 (a rigid point)."""
+    m_rayleigh = np.asarray(m_rayleigh, float)
+    f_s, f_struct = np.asarray(f_s, float), np.asarray(f_struct, float)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        share = np.where(f_struct > 0.0, f_s / f_struct, 0.0)
+    return m_rayleigh * share**2
+
+
 def dynamic_factor(h: ArrayLike, delta_st: ArrayLike, eta: ArrayLike = 1.0) -> np.ndarray:
     """Dynamic (impact) factor K = 1 + √(1 + 2ηh/δst), dimensionless.
 

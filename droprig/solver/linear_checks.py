@@ -282,12 +282,13 @@ class Family:
         if self.groups is not None and not detail:
             # the first row with the largest U lies in the first source with it
             gmax = np.empty((len(self.groups), n))
-            for g, (a, b) in enumerate(self.groups):
-                self._rows_max(Fm, a, b, gmax[g], inf if has_inf else None)
+            for gi, (a, b) in enumerate(self.groups):
+                self._rows_max(Fm, a, b, gmax[gi], inf if has_inf else None)
             U = gmax.max(axis=0)
             g = argmax0(gmax, U)
             unbounded = np.isinf(U)
             if unbounded.any():
+                assert self.gmin is not None  # set with the groups
                 g = np.where(unbounded, np.argmin(self.gmin, axis=0), g)
             return Check(name, U, self.F_allow, self.members[g, cols], None, None, None,
                          self.U_at)

@@ -61,7 +61,7 @@ import threading
 from collections.abc import Callable, Hashable, Iterable
 from dataclasses import dataclass, field
 from functools import cache
-from typing import TypeVar
+from typing import Any, TypeVar
 
 import numpy as np
 
@@ -72,7 +72,7 @@ from droprig.solver.parallel import for_blocks
 
 T = TypeVar("T")
 
-COND_NAMES: tuple[str, ...] = ("simple", "fixed", "propped", "cantilever")
+COND_NAMES: tuple[beam.EndCondition, ...] = ("simple", "fixed", "propped", "cantilever")
 """Order of the integer end-condition codes used in the arrays below."""
 
 _GL_T, _GL_W = np.polynomial.legendre.leggauss(4)
@@ -103,7 +103,7 @@ def by_condition(fn, codes: np.ndarray, *args: np.ndarray):
     shape = np.broadcast_shapes(codes.shape, *(np.shape(a) for a in args))
     codes_b = np.broadcast_to(codes, shape)
     args_b = [np.broadcast_to(np.asarray(a, float), shape) for a in args]
-    out = None
+    out: Any = None
     for c in present:
         sel = codes_b == c
         res = fn(COND_NAMES[int(c)], *(a[sel] for a in args_b))
@@ -119,7 +119,7 @@ def by_condition(fn, codes: np.ndarray, *args: np.ndarray):
 
 
 # --------------------------------------------------------------------------- mass integrals
-def _unit_integrals(cond: str, xi: float) -> tuple[float, float, float]:
+def _unit_integrals(cond: beam.EndCondition, xi: float) -> tuple[float, float, float]:
     """For a member of unit span and unit EI struck at ξ: ∫₀¹ ĝ(s, ξ)² ds and
     ∫₀¹ ĝ(s, ξ)·R̂_e(s) ds (e = 0, 1), by 8-point Gauss–Legendre on [0, ξ] and
     [ξ, 1] (exact: the integrands are polynomials of degree ≤ 6 on each piece)."""
@@ -139,7 +139,7 @@ _XI = np.linspace(0.0, 1.0, 16385)
 between nodes: relative error below 1e-7 for these smooth polynomials)."""
 
 
-def _gmax(cond: str, xi: np.ndarray) -> np.ndarray:
+def _gmax(cond: beam.EndCondition, xi: np.ndarray) -> np.ndarray:
     """Largest deflection along a member of unit span and unit EI under a unit load
     at ξ: max over x of ĝ(x, ξ) (dense sampling refined around the peak)."""
     xs = np.linspace(0.0, 1.0, 401)
@@ -162,13 +162,13 @@ _LIMIT_EPS = 1e-6
 """ξ at which the end limits of the tables are taken (relative error O(ξ))."""
 
 
-def _gmax_at(cond: str, xi: np.ndarray) -> np.ndarray:
+def _gmax_at(cond: beam.EndCondition, xi: np.ndarray) -> np.ndarray:
     """:func:`_gmax` in blocks (bounded memory)."""
     return np.concatenate([_gmax(cond, xi[i:i + 1024]) for i in range(0, xi.size, 1024)])
 
 
 @cache
-def _tables(cond: str) -> np.ndarray:
+def _tables(cond: beam.EndCondition) -> np.ndarray:
     """(4, n) tables on :data:`_XI`: P_gg, P_0, P_1 (exact polynomials) and the
     largest deflection ĝ_max (sampled on 1025 nodes, interpolated; computed at
     every node of the first and last of those 1025 cells, where ĝ_max bends most
@@ -186,7 +186,7 @@ def _tables(cond: str) -> np.ndarray:
 
 
 @cache
-def _cell_tables(cond: str) -> np.ndarray:
+def _cell_tables(cond: beam.EndCondition) -> np.ndarray:
     """The tables of :func:`_tables` by cell, (8, n): rows 2k and 2k + 1 hold table k
     at the first and the second node of each cell, so that one gather fetches both
     ends of every table's cell."""
@@ -198,8 +198,8 @@ def _cell_tables(cond: str) -> np.ndarray:
     return out
 
 
-def _mass_tables(cond: str, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray,
-                                                     np.ndarray]:
+def _mass_tables(cond: beam.EndCondition, xi: np.ndarray,
+                 ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """The four tables of :func:`_tables` interpolated linearly at ξ (uniform nodes:
     the cell index is computed, not searched); in the first and last cell, where
     they vanish like a power of the distance to the end, by :func:`_end_cells`."""
@@ -231,7 +231,7 @@ def _mass_tables(cond: str, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.
 
 
 @cache
-def _end_cells(cond: str) -> tuple[np.ndarray, np.ndarray]:
+def _end_cells(cond: beam.EndCondition) -> tuple[np.ndarray, np.ndarray]:
     """Data of the first and last table cells, where the four tabulated functions
     vanish like a power of the distance to the member end (:data:`END_ORDER`) and a
     straight line between the nodes would be wrong by a factor up to ~1/ξ. There
@@ -253,7 +253,7 @@ def _end_cells(cond: str) -> tuple[np.ndarray, np.ndarray]:
     return q, lim
 
 
-def _make_polys() -> dict[str, tuple[np.ndarray, np.ndarray, np.ndarray]]:
+def _make_polys() -> dict[beam.EndCondition, tuple[np.ndarray, np.ndarray, np.ndarray]]:
     """Chebyshev interpolants on ξ ∈ [0, 1] of the integrals of :func:`_unit_integrals`.
 
     Each integral is a polynomial in ξ of degree ≤ 13 (the Green's functions of
@@ -274,11 +274,11 @@ def _make_polys() -> dict[str, tuple[np.ndarray, np.ndarray, np.ndarray]]:
 _POLYS = _make_polys()
 
 
-def _poly_gg(cond: str, xi: np.ndarray) -> np.ndarray:
+def _poly_gg(cond: beam.EndCondition, xi: np.ndarray) -> np.ndarray:
     return np.polynomial.chebyshev.chebval(2.0 * np.asarray(xi) - 1.0, _POLYS[cond][0])
 
 
-def _poly_gr(cond: str, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+def _poly_gr(cond: beam.EndCondition, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     z = 2.0 * np.asarray(xi) - 1.0
     return (np.polynomial.chebyshev.chebval(z, _POLYS[cond][1]),
             np.polynomial.chebyshev.chebval(z, _POLYS[cond][2]))
@@ -390,7 +390,7 @@ def frame_memo(frame: Frame, key: Hashable, make: Callable[[], T]) -> T:
 
 
 # --------------------------------------------------------------------------- build
-def _support_deflection(c: str, L: float, EI: float, x: np.ndarray, s_on: np.ndarray,
+def _support_deflection(c: beam.EndCondition, L: float, EI: float, x: np.ndarray, s_on: np.ndarray,
                         Tq: np.ndarray, d0: np.ndarray, dL: np.ndarray) -> np.ndarray:
     """Deflection (m/N) at ``x`` of a support member per local reaction (columns):
     own bending under its node loads Tq plus its ends' movement d0, dL carried by the
@@ -458,10 +458,10 @@ def _check_acyclic(level: Level, rests_on: dict[int, set[int]]) -> None:
 
 
 def _deck_axis(level: Level) -> str:
-    beams = [m.axis for m in level.members if m.role == "beam"]
+    beams: list[str] = [m.axis for m in level.members if m.role == "beam"]
     if beams:
         return max(("x", "y"), key=beams.count)
-    girders = [m.axis for m in level.members if m.role == "girder"]
+    girders: list[str] = [m.axis for m in level.members if m.role == "girder"]
     if not girders:
         raise ModelError(f"level {level.id}.members", 0, "at least one member")
     return "y" if max(("x", "y"), key=girders.count) == "x" else "x"
@@ -527,13 +527,13 @@ def build_frame(level: Level, *, include_member_mass: bool = True,
         if on.size == 0:
             continue
         c = COND_NAMES[cond[k]]
-        s = node_pos_a[on]
-        R0, RL = beam.unit_reactions(c, L[k], s)
+        s_on = node_pos_a[on]
+        R0, RL = beam.unit_reactions(c, L[k], s_on)
         for e, R in ((0, R0), (1, RL)):
             tgt = end_node[k, e]
             if tgt < n_n:
                 P[tgt, on] += R
-        Gn[np.ix_(on, on)] = beam.green(c, L[k], EI[k], s[:, None], s[None, :])
+        Gn[np.ix_(on, on)] = beam.green(c, L[k], EI[k], s_on[:, None], s_on[None, :])
     T = np.linalg.inv(np.eye(n_n + 1) - P)
     T[n_n, :] = 0.0
     T[:, n_n] = 0.0
@@ -647,9 +647,9 @@ def build_frame(level: Level, *, include_member_mass: bool = True,
     sup_r = np.zeros((n_p, n_sup, 2, 4))
     sup_w = np.zeros((n_p, n_sup, n_st, 4))
     sup_wmax = np.zeros((n_p, 4))
-    for ip, path in enumerate(support_lists):
+    for ip, sup_path in enumerate(support_lists):
         nl = pair_nodes[ip]
-        for jp, mm in enumerate(path):
+        for jp, mm in enumerate(sup_path):
             on = nodes_on[mm]
             c = COND_NAMES[cond[mm]]
             xs = st[mm]
@@ -728,7 +728,7 @@ class _PointTables:
     floating-point expression of frame values that the kernel would otherwise
     evaluate per point, so the results do not change."""
 
-    cond: str | None
+    cond: beam.EndCondition | None
     """The end condition shared by every member (None: mixed; see ``codes``)."""
     codes: np.ndarray
     """(2, n_p) end-condition codes of the two deck members of each panel."""
@@ -849,7 +849,8 @@ def evaluate(frame: Frame, x: Iterable[float] | np.ndarray,
     n = x.size
     pt = _point_tables(frame)
     pair = np.empty(n, dtype=np.int64)
-    out = {k: np.empty((n, *sh), dtype=dt) for k, (sh, dt, _) in _FILL.items()}
+    out: dict[str, np.ndarray] = {k: np.empty((n, *sh), dtype=dt)
+                                  for k, (sh, dt, _) in _FILL.items()}
 
     def block(s: int, e: int) -> None:
         p = locate(frame, x[s:e], y[s:e])
@@ -938,7 +939,9 @@ def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.nda
     for key, val in (("share", share), ("a", a), ("strip_span", span), ("strip_pos", pos),
                      ("r", r), ("u", un), ("f", f), ("g_own", gs)):
         _put(out[key], sel, val)
-    if not with_mass:
+    if not with_mass:  # no mass asked for: none given (never uninitialised memory)
+        out["m_e"][sel] = np.nan
+        out["w_ref"][sel] = np.nan
         return
     # Rayleigh mass: deck members by the exact integrals (tabulated on a/L), support
     # members by the precomputed quadratic form pair_M

@@ -6,7 +6,9 @@ function it calls):
 
 1. Struck-point compliance f = green(a, a) (+ 1/k of a spring mat + 1/k_load of the
    load's own underside: springs in series, Gere §9.10 energy method); effective
-   member mass m_e = β·μ·L (Rayleigh, :func:`beam.rayleigh_mass_factor`), share of
+   member mass m_e = β·μ·L·(f_s/f_struct)², f_struct = f_s + 1/k_load (Rayleigh,
+   :func:`beam.rayleigh_mass_factor`, scaled to the struck point's own deflection as
+   in the floor analysis: :func:`droprig.solver.impact.struck_point_mass`), share of
    kinetic energy η = M/(M + m_e).
 2. Elastic impact (Gere §9.10) or a crushable layer; peak force F.
 3. Actions at the peak: F × unit actions + the existing load (self-weight and a
@@ -110,13 +112,13 @@ def _clean(v: float | None) -> float | None:
 def assess_member(
     section: Section,
     grade: Grade,
-    cond: str,
+    cond: beam.EndCondition,
     L: float,
     a: float,
     mass: float,
     h: float,
     *,
-    basis: str,
+    basis: capacity.Basis,
     phi: float = 1.0,
     dif: float = 1.0,
     bearing: float = 0.0,
@@ -140,7 +142,8 @@ def assess_member(
     Values that do not apply are ``None`` (never NaN or inf). ``utilisation`` is the
     elastic demand over resistance of the governing strength check (above 1 for a
     plastic response: read ductility and rotation then). ``effective_mass`` is the
-    member's Rayleigh mass, reported even where it is not used (η = 1 with a mat or a
+    member's Rayleigh mass scaled to the struck point, m_e·(f_s/f_struct)² (as the
+    floor analysis), reported even where it is not used (η = 1 with a mat or a
     crushable layer). ``load_stiffness`` (N/m): the load's own underside (skid, base
     frame, dunnage) in series with the member; ``None`` = rigid (conservative); it
     does not change η. ``deflection_limit_ratio`` is
@@ -201,7 +204,12 @@ def assess_member(
         raise ModelError("at", a, "a point off the supports (droprig takes supports as "
                          "rigid, so a load landing on one has no finite force) — or give "
                          "a cushion or a crushable layer", "m")
-    m_e = (float(beam.rayleigh_mass_factor(cond, L, a)) * mu_l * L) if beam_mass else 0.0
+    # Rayleigh mass of the member scaled to the struck point: the load moves W·f_struct
+    # (member and the load's underside in series), the member under it W·f_s
+    m_rayleigh = (float(beam.rayleigh_mass_factor(cond, L, a)) * mu_l * L) if beam_mass \
+        else 0.0
+    f_struct = f_s + (1.0 / load_stiffness if load_stiffness is not None else 0.0)
+    m_e = float(impact.struck_point_mass(m_rayleigh, f_s, f_struct))
     eta = 1.0 if cushioned else float(impact.mass_efficiency(mass, m_e))
     d_st = W * f
 
@@ -287,7 +295,8 @@ def assess_member(
         h_eff = (eta * W * h_ + e_extra) / W
         d_m, _, coll = plastic.plastic_response(W, max(h_eff, 0.0), 1.0, R_p, R_p * f)
         d_member = float(d_m) - R_p * f_c
-        mu_m = d_member / (R_p * f_s) if f_s > 0 else math.inf
+        # no reserve left by the existing load (R_p = 0): no finite ductility
+        mu_m = d_member / (R_p * f_s) if R_p * f_s > 0 else math.inf
         return d_member, mu_m, bool(coll)
 
     out: dict[str, Any] = dict.fromkeys(RESULT_KEYS)

@@ -7,7 +7,9 @@ edges write it in the user's units.
 
 The numbers are the step results of the very same chain as the analysis
 (:func:`droprig.solver.evaluate.evaluate_chain` on a one-point array,
-:mod:`droprig.solver.chain`), so the trace and the results agree to machine precision.
+:mod:`droprig.solver.chain`), the load path by its plain formulas
+(:func:`droprig.solver.reference.path_reference`, which the fast kernel is tested
+against), so the trace and the results agree to machine precision.
 """
 
 from __future__ import annotations
@@ -87,7 +89,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     load = loads[load_name]
     fm = floor_model(project.level(zone.level_id), project.settings)
     xa, ya = np.array([float(x)]), np.array([float(y)])
-    geo = point_geometry(fm, project, xa, ya)
+    geo = point_geometry(fm, project, xa, ya, reference=True)
     if geo.path.pair[0] < 0:
         raise ModelError("trace.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}")

@@ -83,6 +83,7 @@ def unit_actions(fm: FloorModel, geo: Geometry) -> UnitActions:
         return ua
     fr = fm.frame
     tb = fm.tables
+    assert tb is not None, "a floor prepared by build_floor has its candidate tables"
     path = geo.path
     n = geo.x.size
     memT = np.ascontiguousarray(path.members.T)  # (2, n)

@@ -16,7 +16,6 @@ from PySide6.QtCore import QEvent, QPoint, QPointF, Qt
 from PySide6.QtGui import QColor, QFontMetricsF, QMouseEvent, QWheelEvent
 from PySide6.QtWidgets import QApplication
 
-from droprig.cli import CAUTION
 from droprig.gui import style
 from droprig.gui.plan_items import BayLabelsItem, colour_values, handle_positions, pixel_font
 from droprig.gui.plan_view import MIN_BAND, MIN_SWEEP, PlanView, dragged_zone
@@ -33,6 +32,7 @@ from droprig.model import (
     generate_level,
 )
 from droprig.solver.results import RESPONSES, BaySummary, CaseResult, Results
+from droprig.texts import CAUTION
 
 pytestmark = pytest.mark.gui
 

@@ -10,10 +10,10 @@ from __future__ import annotations
 
 import pytest
 
-from droprig.cli import CAUTION
 from droprig.gui import style
 from droprig.gui.trace_panel import TracePanel, substitute, trace_html
 from droprig.solver.results import Trace, TraceStep
+from droprig.texts import CAUTION
 
 pytestmark = pytest.mark.gui
 

@@ -12,7 +12,8 @@ import pathlib
 
 import pytest
 
-from droprig.cli import CAUTION, main
+from droprig.cli import main
+from droprig.texts import CAUTION
 
 pytest.importorskip("droprig.solver.analysis")
 pytest.importorskip("droprig.solver.trace")

@@ -85,6 +85,51 @@ def test_simple_midspan_hand(w16x26: Section, a992: Grade) -> None:
     assert r["governing_check"] == "flexure" and r["response"] == "elastic"
 
 
+def test_struck_mass_scaled_to_the_struck_point_with_a_soft_load(w16x26: Section,
+                                                                  a992: Grade) -> None:
+    """A load with a soft underside (k_load) strikes the midspan of a simple beam: the
+    load moves W·(f_s + 1/k_load), the beam under it only W·f_s, so the beam's struck
+    mass is the Rayleigh mass 17/35·μL (Timoshenko Part I) times (f_s/f)², the same
+    rule as the floor analysis (droprig.solver.chain.struck_mass). By hand:
+    f_s = L³/(48EI) (AISC Manual Table 3-23 case 7), f = f_s + 1/k_load,
+    η = M/(M + m_e), K = 1 + √(1 + 2ηh/(W·f)) (Gere 7th ed. §9.10 Eq. 9-94), F = K·W."""
+    L, M, h, k_load = 20 * FT, 2000 * LB, 4 * IN, 2e7
+    mu = 26 * LB / FT
+    r = assess_member(w16x26, a992, "simple", L, L / 2, M, h, basis="aisc360",
+                      load_stiffness=k_load, self_weight=False)
+    EI = 29000 * KSI * 301 * IN**4  # AISC 360-16 E = 29 000 ksi
+    f_s = L**3 / (48 * EI)
+    f = f_s + 1 / k_load
+    m_e = 17 / 35 * mu * L * (f_s / f) ** 2
+    W = M * G
+    K = 1 + math.sqrt(1 + 2 * (M / (M + m_e)) * h / (W * f))
+    assert r["effective_mass"] == pytest.approx(m_e, rel=REL)
+    assert r["static_deflection"] == pytest.approx(W * f, rel=REL)
+    assert r["dynamic_factor"] == pytest.approx(K, rel=REL)
+    assert r["peak_force"] == pytest.approx(K * W, rel=REL)
+    # the scaling matters here: the unscaled mass would give a different force
+    K_unscaled = 1 + math.sqrt(1 + 2 * (M / (M + 17 / 35 * mu * L)) * h / (W * f))
+    assert abs(K_unscaled - K) > 1e-3 * K
+
+
+def test_no_plastic_reserve_left_by_the_existing_load_is_collapse() -> None:
+    """A simple Class 1 beam whose existing UDL alone already exceeds its plastic
+    moment (wL²/8 > Mp: AISC Manual Table 3-23 case 1; Mp = Wpl·fy, EN 1993-1-1
+    Eq. 6.13), struck off midspan: no plastic reserve is left (R_p = 0), the beam
+    exceeds — a verdict, not a division by zero."""
+    # EN 10025-2 Table 7: S355 355 MPa (t ≤ 16 mm); properties close to an IPE 300
+    s355 = Grade("S355", "EN", ((0.016, 355e6), (0.04, 345e6)), 470e6, E=210e9)
+    ipe = Section("B300", "custom", d=0.3, bf=0.15, tw=0.0071, tf=0.0107, r=0.015,
+                  A=5.381e-3, Ix=8.356e-5, Sx=5.57e-4, Zx=6.28e-4, Iy=6.04e-6,
+                  mass_per_length=42.2)
+    L = 6.0
+    w = 8 * 6.28e-4 * 355e6 / L**2 * 1.05
+    r = assess_member(ipe, s355, "simple", L, 0.66 * L, 500.0, 0.3, basis="en1993",
+                      udl=w, self_weight=False)
+    assert r["response"] == "exceeds"
+    assert r["governing_check"] == "collapse"
+
+
 def test_member_mass_and_existing_load(w16x26: Section, a992: Grade) -> None:
     L, M, h = 24 * FT, 1500 * LB, 6 * IN
     mu = 26 * LB / FT
