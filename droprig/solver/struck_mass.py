@@ -117,10 +117,16 @@ def two_mass_impact(M: ArrayLike, v0: ArrayLike, k_c: ArrayLike, m2: ArrayLike,
     half over one period of the slow one), within a horizon of two periods of
     the slow mode; the peaks are taken over all of them.
     """
-    M, v0, kc, m2, k2 = np.broadcast_arrays(*(np.asarray(v, float)
-                                              for v in (M, v0, k_c, m2, k2)))
-    shape = M.shape
-    M, v0, kc, m2, k2 = (a.reshape(-1, 1) for a in (M, v0, kc, m2, k2))
+    arrs = np.broadcast_arrays(*(np.asarray(v, float) for v in (M, v0, k_c, m2, k2)))
+    shape = arrs[0].shape
+    Mc, v0c, kc, m2c, k2c = (a.reshape(-1, 1) for a in arrs)
+    return _two_mass(Mc, v0c, kc, m2c, k2c, n_time, episodes, shape)
+
+
+def _two_mass(M: np.ndarray, v0: np.ndarray, kc: np.ndarray, m2: np.ndarray,
+              k2: np.ndarray, n_time: int, episodes: int,
+              shape: tuple[int, ...]) -> tuple[np.ndarray, np.ndarray]:
+    """:func:`two_mass_impact` on (n, 1) arrays."""
     m2 = np.maximum(m2, 1e-9 * M)  # a massless structure: the series-spring limit
     b = kc * m2 + (kc + k2) * M
     disc = np.sqrt(np.maximum(b * b - 4.0 * M * m2 * kc * k2, 0.0))
