@@ -270,7 +270,9 @@ class Compliance:
     f_load + f_mat, and the total ``f`` = f_struct + f_mat. Deck strip span
     ``strip_span`` and position ``strip_pos`` (m); ``f_col`` (m/N): the columns'
     axial springs, part of ``f_s``; ``k_left``, ``k_right`` (N·m/rad): the rotational
-    restraint of the continuous deck strip at its two supports (0 at a deck edge).
+    restraint of the continuous deck strip at its two supports (0 at a deck edge);
+    ``g_strip`` (m³, times 1/EI gives m/N) its deflection under a unit load at EI = 1,
+    ``cont_ratio`` its sagging moment under the load over the simple span's a·b/L.
     """
 
     f_s: np.ndarray
@@ -283,6 +285,8 @@ class Compliance:
     f_col: np.ndarray
     k_left: np.ndarray
     k_right: np.ndarray
+    g_strip: np.ndarray
+    cont_ratio: np.ndarray
 
 
 def strip_restraint(c: Chain, EI: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -320,8 +324,23 @@ def compliance(c: Chain) -> Compliance:
     EI = contact.concrete_modulus(lv.deck.concrete.fc, basis) * width \
         * lv.deck.thickness**3 / 12.0
     k_l, k_r = strip_restraint(c, EI)
-    f_strip = np.where(span > 0.0, slab.continuous_strip_compliance(
-        np.where(span > 0.0, span, 1.0), pos, EI, k_l, k_r), 0.0)
+    # the restrained strip once, at EI = 1 (K/EI): deflection and moment under the load
+    # (slab.continuous_strip_end_moments; the compliance scales as 1/EI)
+    ok = span > 0.0
+    L = np.where(ok, span, 1.0)
+    x = np.clip(pos, 0.0, L)
+    b = L - x
+    Kn = slab.K_INTERIOR / L
+    MA, MB = slab.continuous_strip_end_moments(L, x, 1.0, np.where(k_l > 0.0, Kn, 0.0),
+                                               np.where(k_r > 0.0, Kn, 0.0))
+    g1 = np.where(ok, np.maximum(x**2 * b**2 / (3.0 * L) - MA * x * b * (L + b) / (6.0 * L)
+                                 - MB * x * b * (L + x) / (6.0 * L), 0.0), 0.0)
+    M_ss = x * b / L
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ratio = np.where(ok & (M_ss > 0.0),
+                         np.maximum(M_ss - (MA * b + MB * x) / L, 0.0)
+                         / np.where(M_ss > 0.0, M_ss, 1.0), 0.0)
+    f_strip = g1 / EI
     f_deck = contact.deck_local_compliance(lv.deck, inp.foot_l, inp.foot_w, basis) + f_strip
     f_col = columns.column_compliance(d.fm.frame, path, columns.level_column_compliance(lv))
     f_s = path.f + f_col
@@ -329,7 +348,7 @@ def compliance(c: Chain) -> Compliance:
     f_series = f_deck + inp.f_load + inp.f_mat
     return Compliance(f_s=f_s, f_deck=f_deck, f_struct=f_struct, f_series=f_series,
                       f=f_struct + inp.f_mat, strip_span=span, strip_pos=pos, f_col=f_col,
-                      k_left=k_l, k_right=k_r)
+                      k_left=k_l, k_right=k_r, g_strip=g1, cont_ratio=ratio)
 
 
 # --------------------------------------------------------------------------- 3. struck mass
@@ -484,7 +503,7 @@ def demands(c: Chain) -> Demands:
     # load by their deflections (two_way_share); the cross strip is checked with the
     # distribution steel, 20 % of the main bars (EN 1992-1-1 §9.3.1.1(2), as punching)
     share_x, Ly, yb = two_way_share(c)
-    m_x = np.maximum(mu1, mu2) * continuity_ratio(comp) * share_x
+    m_x = np.maximum(mu1, mu2) * comp.cont_ratio * share_x
     my1 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_l, inp.foot_w, thick)
     my2 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_w, inp.foot_l, thick)
     # where the footprint reaches over the girder line its base bears on the girder
@@ -584,39 +603,17 @@ def two_way_share(c: Chain) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     girder spacing (the deck beams' span, m) and y the position along it (m)."""
     d, comp = c.drop, c[Compliance]
     path, frame = d.geo.path, d.fm.frame
-    span, pos = comp.strip_span, comp.strip_pos
+    span = comp.strip_span
     mem = np.where(path.members[:, 0] >= 0, path.members[:, 0], 0)
     Ly = frame.L[mem]
     yb = np.clip(path.a[:, 0], 0.0, Ly)
     ok = span > 0.0
-    L = np.where(ok, span, 1.0)
-    K = slab.K_INTERIOR / L
-    gx = slab.continuous_strip_compliance(L, np.clip(pos, 0.0, L), 1.0,
-                                          np.where(comp.k_left > 0.0, K, 0.0),
-                                          np.where(comp.k_right > 0.0, K, 0.0))
+    gx = comp.g_strip
     gy = yb**2 * (Ly - yb) ** 2 / (3.0 * Ly)
     tot = gx + gy
     with np.errstate(divide="ignore", invalid="ignore"):
         share = np.where(tot > 0.0, gy / np.where(tot > 0.0, tot, 1.0), 0.0)
     return np.where(ok, share, 0.0), Ly, yb
-
-
-def continuity_ratio(comp: Compliance) -> np.ndarray:
-    """Sagging moment under a load at ``strip_pos`` of the restrained strip over that of
-    the simply supported strip, a·b/L (dimensionless, 0 on a support line):
-    :func:`droprig.solver.slab.continuous_strip_sagging_moment` with the restraints
-    K of :func:`strip_restraint` (both scale with EI, so EI = 1 with K/EI)."""
-    span, pos = comp.strip_span, comp.strip_pos
-    ok = span > 0.0
-    L = np.where(ok, span, 1.0)
-    x = np.clip(pos, 0.0, L)
-    K = np.where(ok, slab.K_INTERIOR / L, 0.0)
-    kl = np.where(comp.k_left > 0.0, K, 0.0)
-    kr = np.where(comp.k_right > 0.0, K, 0.0)
-    M = slab.continuous_strip_sagging_moment(L, x, 1.0, kl, kr)
-    M_ss = x * (L - x) / L
-    with np.errstate(divide="ignore", invalid="ignore"):
-        return np.where(ok & (M_ss > 0.0), M / np.where(M_ss > 0.0, M_ss, 1.0), 0.0)
 
 
 # --------------------------------------------------------------------------- 6. checks
