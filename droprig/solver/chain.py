@@ -272,7 +272,8 @@ class Compliance:
     axial springs, part of ``f_s``; ``k_left``, ``k_right`` (N·m/rad): the rotational
     restraint of the continuous deck strip at its two supports (0 at a deck edge);
     ``g_strip`` (m³, times 1/EI gives m/N) its deflection under a unit load at EI = 1,
-    ``cont_ratio`` its sagging moment under the load over the simple span's a·b/L.
+    ``cont_ratio`` its sagging moment under the load over the simple span's a·b/L;
+    ``f_deck_local`` (m/N) the indentation part of ``f_deck``.
     """
 
     f_s: np.ndarray
@@ -287,6 +288,7 @@ class Compliance:
     k_right: np.ndarray
     g_strip: np.ndarray
     cont_ratio: np.ndarray
+    f_deck_local: np.ndarray
 
 
 def strip_restraint(c: Chain, EI: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -341,14 +343,16 @@ def compliance(c: Chain) -> Compliance:
                          np.maximum(M_ss - (MA * b + MB * x) / L, 0.0)
                          / np.where(M_ss > 0.0, M_ss, 1.0), 0.0)
     f_strip = g1 / EI
-    f_deck = contact.deck_local_compliance(lv.deck, inp.foot_l, inp.foot_w, basis) + f_strip
+    f_local = contact.deck_local_compliance(lv.deck, inp.foot_l, inp.foot_w, basis)
+    f_deck = f_local + f_strip
     f_col = columns.column_compliance(d.fm.frame, path, columns.level_column_compliance(lv))
     f_s = path.f + f_col
     f_struct = f_s + f_deck + inp.f_load
     f_series = f_deck + inp.f_load + inp.f_mat
     return Compliance(f_s=f_s, f_deck=f_deck, f_struct=f_struct, f_series=f_series,
                       f=f_struct + inp.f_mat, strip_span=span, strip_pos=pos, f_col=f_col,
-                      k_left=k_l, k_right=k_r, g_strip=g1, cont_ratio=ratio)
+                      k_left=k_l, k_right=k_r, g_strip=g1, cont_ratio=ratio,
+                      f_deck_local=f_local)
 
 
 # --------------------------------------------------------------------------- 3. struck mass
