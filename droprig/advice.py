@@ -19,7 +19,7 @@ from droprig.outcomes import fmt_utilisation
 from droprig.solver import BaySummary
 from droprig.units import UnitSystem
 
-__all__ = ["advice_text", "fmt_down", "fmt_up"]
+__all__ = ["advice_text", "fmt_down", "fmt_up", "local_damage_text"]
 
 OPENING = ("Keep clear: exclusion zone. The load can fall through a deck opening; "
            "cover the opening or keep the load path away from it.")
@@ -61,9 +61,51 @@ def _mat(b: BaySummary, system: UnitSystem) -> str:
             f"(any softer mat also works{travel})")
 
 
+def _below(b: BaySummary) -> str:
+    return f"level {b.level_below}" if b.level_below else "the level below"
+
+
+def local_damage_text(b: BaySummary, system: UnitSystem = "SI") -> str:
+    """The level-below sentence of a bay a hard load may perforate or scab ("" for
+    neither): what starts from which drop height, the exclusion of the level below,
+    and the extrapolation caution."""
+    if b.response != "perforates" and not b.scabbing:
+        return ""
+    parts = []
+    how = f" on a {b.strike_orientation} strike" if b.strike_orientation else ""
+    if b.response == "perforates":
+        h = (f" from a drop of {fmt_down(b.perforation_height, 'length', system)}"
+             if b.perforation_height is not None else "")
+        parts.append(f"the load may go through the deck{how}{h}")
+    if b.scabbing:
+        h = (f" from {fmt_down(b.scabbing_height, 'length', system)}"
+             if b.scabbing_height is not None else "")
+        parts.append(f"concrete may scab off the soffit{h}")
+    text = ("Local damage: " + " and ".join(parts) + f"; keep {_below(b)} clear under "
+            "this bay (exclusion zone).")
+    if b.local_extrapolated:
+        text += (" The penetration formulas are used below the impact speeds they were "
+                 "tested at: an estimate for the appointed lifting person and a licensed "
+                 "engineer to judge, never a pass.")
+    return text
+
+
 def advice_text(b: BaySummary, system: UnitSystem = "SI") -> str:
-    """What the bay needs, in one or two sentences with numbers in ``system``."""
+    """What the bay needs, in one or two sentences with numbers in ``system`` (and
+    the level-below sentence of :func:`local_damage_text` where a hard load may
+    perforate or scab the deck)."""
+    text = _framing_text(b, system)
+    extra = local_damage_text(b, system)
+    return f"{text} {extra}" if extra and b.advice_kind != "level_below" else text
+
+
+def _framing_text(b: BaySummary, system: UnitSystem) -> str:
     kind = b.advice_kind
+    if kind == "level_below":
+        limit = (f" Below a drop of {fmt_down(b.height_limit, 'length', system)} neither "
+                 "perforation nor scabbing is expected."
+                 if b.height_limit is not None else "")
+        return "Keep clear: exclusion zone below. " + local_damage_text(b, system) + limit
     if kind == "opening":
         return OPENING
     if kind == "none":

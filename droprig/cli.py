@@ -68,11 +68,15 @@ def build_parser() -> argparse.ArgumentParser:
                    help="write the results as JSON to OUT ('-' for stdout)")
     s.add_argument("--csv", dest="csv_out", default=None, metavar="OUT",
                    help="write one row per drop point to OUT")
+    s.add_argument("--force", action="store_true",
+                   help="allow an output name ending in .droprig (never the project itself)")
 
     s = sub.add_parser("report", help="the PDF annex for a lift permit")
     s.add_argument("file")
     s.add_argument("-o", "--output", required=True)
     s.add_argument("--lift", default=None, help="only this lift zone id")
+    s.add_argument("--force", action="store_true",
+                   help="allow an output name ending in .droprig (never the project itself)")
 
     s = sub.add_parser("gui", help="open the desktop application")
     s.add_argument("file", nargs="?")

@@ -7,13 +7,15 @@ looks and reads the same on screen and on paper.
 
 Design rules (our own):
 
-* Three outcome colours told apart by **lightness** as well as by a blue /
+* Four outcome colours told apart by **lightness** as well as by a blue /
   amber / plum hue split (the blue–yellow axis survives red-green colour
   blindness), so they stay distinct under the common colour-vision deficiencies
-  and in greyscale print: mid blue, light amber, dark plum.
+  and in greyscale print: mid blue, light amber, dark plum, near-black.
 * Colour is never alone: every outcome also has a **label**, a one-letter **tag**
   drawn in the bay, and a **hatch** that gets denser as the outcome gets worse
-  (none / single diagonal / cross-hatch; dots for "not assessed").
+  (none / single diagonal / cross-hatch / square grid; dots for "not assessed").
+* Scabbing of the soffit is a **flag**, not an outcome: a small mark (``SCABBING``)
+  added to whatever outcome the bay has.
 * "No result" is a neutral grey with the word "not assessed" — never a good colour.
 """
 
@@ -23,8 +25,8 @@ import math
 from dataclasses import dataclass
 from typing import Literal
 
-Hatch = Literal["none", "diagonal", "cross", "dots"]
-HATCHES: tuple[Hatch, ...] = ("none", "diagonal", "cross", "dots")
+Hatch = Literal["none", "diagonal", "cross", "grid", "dots"]
+HATCHES: tuple[Hatch, ...] = ("none", "diagonal", "cross", "grid", "dots")
 
 
 @dataclass(frozen=True)
@@ -51,7 +53,7 @@ class Outcome:
 NOT_ASSESSED = "none"
 """Key of the "not assessed" outcome (no drop point in the bay, or no results)."""
 
-ORDER: tuple[str, ...] = ("elastic", "plastic", "exceeds")
+ORDER: tuple[str, ...] = ("elastic", "plastic", "exceeds", "perforates")
 """Response keys from best to worst (the solver's RESPONSES order)."""
 
 OUTCOMES: dict[str, Outcome] = {
@@ -69,12 +71,37 @@ OUTCOMES: dict[str, Outcome] = {
         "A brittle check fails, a limit is passed, the path collapses or the load falls "
         "through an opening. Not acceptable as planned.",
         "#7B2D5E", "#3E0F2C", "#FFFFFF", "cross"),
+    "perforates": Outcome(
+        "perforates", "May go through", "P",
+        "A hard load may perforate the deck here (local damage, estimated beyond the "
+        "formulas' test speeds): keep the level below clear.",
+        "#1E1A24", "#A49DB3", "#FFFFFF", "grid"),
     NOT_ASSESSED: Outcome(
         NOT_ASSESSED, "Not assessed", "–",
         "No drop point of the lift zones considered falls in this bay.",
         "#E4E4E0", "#8C8C86", "#3A3A36", "dots"),
 }
 """Outcomes by response key, best to worst, then ``"none"``."""
+
+
+@dataclass(frozen=True)
+class Flag:
+    """A mark added to a bay's outcome: ``label`` for tables and legends, ``tag`` a
+    character drawn beside the outcome tag, ``meaning`` one sentence, ``ink`` its
+    colour (#RRGGBB)."""
+
+    key: str
+    label: str
+    tag: str
+    meaning: str
+    ink: str
+
+
+SCABBING = Flag(
+    "scabbing", "Soffit may scab", "s",
+    "A hard load may knock concrete off the underside of the deck here: keep the level "
+    "below clear.", "#C0733A")
+"""The scabbing flag (our own mark: a lower-case s in burnt orange)."""
 
 
 def outcome(key: str | None) -> Outcome:

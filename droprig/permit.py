@@ -237,6 +237,13 @@ def _bay_conditions(project: Project, b: BaySummary, case: CaseResult | None,
         pa = project.protection_areas[p]
         conds.append(Condition("lay_protection", protection_id=pa.id, **base))  # type: ignore
     kind = b.advice_kind
+    if b.response == "perforates" or b.scabbing:
+        # a hard load may go through the deck or knock concrete off its soffit
+        # (local damage): keep the level below clear under the bay
+        conds.append(Condition("exclude_level_below", region=region,
+                               below_level_id=b.level_below or _level_below(project,
+                                                                            b.level_id),
+                               **base))  # type: ignore[arg-type]
     if kind == "none":
         return conds, True
     if kind in ("limit_height", "limit_or_mat") and b.height_limit is not None:

@@ -1,17 +1,20 @@
 """Unit conversion at the edges (input fields, files, CLI, report) with pint.
 
 Core code never sees a unit string: :func:`parse` turns user text into an SI
-float for a named quantity, :func:`fmt` turns an SI float into text in the
-user's unit system.
+float for a named quantity (by a grammar, never by evaluating an expression),
+:func:`fmt` turns an SI float into text in the user's unit system.
 """
 
 from __future__ import annotations
 
 import math
+import re
 from functools import lru_cache
 from typing import Literal
 
 import pint
+
+from droprig.model.errors import quote
 
 UnitSystem = Literal["SI", "US"]
 
@@ -50,6 +53,24 @@ def registry() -> pint.UnitRegistry:
 
 
 _AMBIGUOUS = {"ton", "tons"}
+
+MAX_MAGNITUDE = 1e15
+"""Largest number (in the unit typed) read from text; anything larger is refused with a
+message, never evaluated (the largest realistic input, a mat stiffness of 1e12 N/m,
+stays well inside)."""
+
+MAX_TEXT = 100
+"""Longest text read as a quantity, characters."""
+
+_NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d{1,3})?"
+_NAME = r"[A-Za-zµμΩ_][A-Za-zµμΩ_]*"
+_FACTOR = rf"{_NAME}(?:\s*(?:\*\*|\^)\s*[+-]?\d)?"
+_UNIT = rf"{_FACTOR}(?:\s*(?:\*|/|\s)\s*{_FACTOR})*"
+_QUANTITY = re.compile(rf"^\s*(?P<num>{_NUMBER})?\s*(?P<unit>{_UNIT})?\s*$")
+"""The grammar of a quantity: an optional number (decimal, optional exponent of at most
+three digits) and an optional unit — unit names joined by ``*``, ``/`` or a space, each
+with an optional one-digit power (``**2``, ``^3``). Nothing is evaluated: ``9**9**9``
+or ``2**1000000`` do not match and are refused at once."""
 _ALIASES = {"kips": "kip", "lbs": "lb", "lbf": "lbf", "kn": "kN", "mpa": "MPa", "kpa": "kPa"}
 
 
@@ -66,7 +87,9 @@ def parse(text: str | float, quantity: str, system: UnitSystem = "SI", *,
 
     A bare number takes the display unit of ``system``. Pound-mass and
     pound-force are told apart by the quantity asked for (``lb`` is a mass for
-    ``mass`` and a force for ``force``).
+    ``mass`` and a force for ``force``). The text is read by the grammar
+    :data:`_QUANTITY` (number, optional exponent, unit), never evaluated; numbers
+    beyond :data:`MAX_MAGNITUDE` are refused (:class:`UnitError` naming ``field``).
     """
     if quantity not in QUANTITIES:
         raise KeyError(quantity)
@@ -81,15 +104,7 @@ def parse(text: str | float, quantity: str, system: UnitSystem = "SI", *,
                             f"(for example {_example(quantity, system)})")
         text_in = _normalise(text)
     ureg = registry()
-    try:
-        q = ureg.parse_expression(text_in)
-    except Exception as exc:  # pint raises several unrelated types
-        raise UnitError(f"{field}: cannot read {text!r} as a {quantity.replace('_', ' ')} "
-                        f"(for example {_example(quantity, system)})") from exc
-    if not isinstance(q, pint.Quantity):
-        q = ureg.Quantity(float(q), si_unit if system == "SI" else us_unit)
-    elif q.dimensionless and quantity != "dimensionless" and str(q.units) == "dimensionless":
-        q = ureg.Quantity(float(q.magnitude), si_unit if system == "SI" else us_unit)
+    q = _read(text_in, text, quantity, system, field)
     units_text = str(q.units)
     if any(w in _AMBIGUOUS for w in units_text.replace("*", " ").split()):
         raise UnitError(f"{field}: 'ton' is ambiguous; write t (metric tonne), "
@@ -105,12 +120,45 @@ def parse(text: str | float, quantity: str, system: UnitSystem = "SI", *,
     try:
         value = q.to(base).magnitude if base else q.to("dimensionless").magnitude
     except pint.DimensionalityError as exc:
-        raise UnitError(f"{field}: {text!r} is not a {quantity.replace('_', ' ')} "
+        raise UnitError(f"{field}: {_shown(text)} is not a {quantity.replace('_', ' ')} "
                         f"(for example {_example(quantity, system)})") from exc
     value = float(value)
     if not math.isfinite(value):
-        raise UnitError(f"{field}: {text!r} is not a finite number")
+        raise UnitError(f"{field}: {_shown(text)} is not a finite number")
     return value
+
+
+def _shown(text: object) -> str:
+    return quote(text) if isinstance(text, str) else repr(text)
+
+
+def _read(text_in: str, text: object, quantity: str, system: UnitSystem,
+          field: str) -> pint.Quantity:
+    """``text_in`` read by the grammar :data:`_QUANTITY` into a pint quantity (a
+    bare number takes the display unit of ``system``); :class:`UnitError` naming
+    ``field`` for anything else."""
+    what = quantity.replace("_", " ")
+    shown = _shown(text)
+    m = _QUANTITY.match(text_in) if len(text_in) <= MAX_TEXT else None
+    if m is None or (m.group("num") is None):
+        raise UnitError(f"{field}: cannot read {shown} as a {what}: write a number and a "
+                        f"unit (for example {_example(quantity, system)})")
+    value = float(m.group("num"))
+    if not math.isfinite(value) or abs(value) > MAX_MAGNITUDE:
+        raise UnitError(f"{field}: {shown} is too large a number; at most "
+                        f"{MAX_MAGNITUDE:g} in the unit typed")
+    ureg = registry()
+    unit_text = m.group("unit")
+    if not unit_text:
+        _, si_unit, us_unit, _, _ = QUANTITIES[quantity]
+        unit_text = si_unit if system == "SI" else us_unit
+    try:
+        unit = ureg.parse_units(unit_text) if unit_text else ureg.dimensionless
+    except Exception as exc:  # pint raises several unrelated types
+        raise UnitError(f"{field}: cannot read {shown} as a {what}: unknown unit "
+                        f"{quote(unit_text)} (for example {_example(quantity, system)})"
+                        ) from exc
+    return ureg.Quantity(value, unit)
 
 
 def _example(quantity: str, system: UnitSystem) -> str:

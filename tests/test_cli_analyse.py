@@ -113,6 +113,38 @@ def test_json_and_csv_files(project_file, tmp_path, capsys):
         float(r["peak_force_N"])
 
 
+def test_local_damage_and_level_below_reach_json_and_csv(tmp_path, capsys):
+    # the two-level demo (invented input): perforation, scabbing and the cascade to
+    # the level below appear in both outputs, SI, never NaN
+    from pathlib import Path
+
+    demo = Path(__file__).resolve().parents[1] / "demo_projects" / "two_level_rigging.droprig"
+    jpath, cpath = tmp_path / "r.json", tmp_path / "r.csv"
+    assert main(["analyse", str(demo), "--json", str(jpath), "--csv", str(cpath)]) == 0
+    out = capsys.readouterr().out
+    assert CAUTION in out
+    assert main(["analyse", str(demo)]) == 0
+    table = capsys.readouterr().out
+    assert "Through the deck of level RF to level L3" in table and CAUTION in table
+    doc = _no_nan(jpath.read_text(encoding="utf-8"))
+    perf = [b for b in doc["bays"] if b["response"] == "perforates"]
+    assert perf and all(b["level_below"] == "L3" and b["advice_kind"] == "level_below"
+                        and "level L3" in b["advice"] for b in perf)
+    assert doc["level_below"] and all(f["level"] == "L3" and f["bays"]
+                                      for f in doc["level_below"])
+    with cpath.open(encoding="utf-8", newline="") as fh:
+        rows = list(csv.DictReader(fh))
+    through = [r for r in rows if r["through_level"] == "RF"]
+    assert len(rows) - len(through) == doc["points"]
+    assert len(through) == sum(f["points"] for f in doc["level_below"])
+    assert all(r["level"] == "L3" for r in through)
+    for col in ("penetration_m", "scabbing_height_m", "perforation_height_m",
+                "residual_velocity_m_per_s", "scabbing", "strike_orientation"):
+        assert col in rows[0]
+    assert {r["response"] for r in rows} <= {"elastic", "plastic", "exceeds", "perforates"}
+    assert all("nan" not in r.values() for r in rows)
+
+
 @pytest.mark.parametrize("content", ["not json at all", "{}", '{"format_version": 99}'])
 def test_bad_file_exits_2_without_traceback(tmp_path, capsys, content):
     path = tmp_path / "bad.droprig"

@@ -43,7 +43,8 @@ def test_solver_imports_only_model_and_numpy() -> None:
     for path in (ROOT / "solver").rglob("*.py"):
         imps = _imports(path)
         for bad in ("droprig.io", "droprig.report", "droprig.gui", "droprig.units",
-                    "droprig.advice", "droprig.outcomes", "matplotlib", "pint"):
+                    "droprig.advice", "droprig.outcomes", "droprig.texts", "matplotlib",
+                    "pint", "scipy"):
             assert not any(i.startswith(bad) for i in imps), f"{path} imports {bad}"
 
 

@@ -32,7 +32,7 @@ def test_every_response_has_an_outcome_and_unknown_is_not_assessed():
 def test_hatch_gets_denser_as_the_outcome_gets_worse():
     # never colour alone (team style rule, our own)
     assert [outcomes.OUTCOMES[k].hatch for k in outcomes.ORDER] == ["none", "diagonal",
-                                                                   "cross"]
+                                                                   "cross", "grid"]
     assert all(o.hatch in outcomes.HATCHES for o in outcomes.OUTCOMES.values())
 
 
@@ -45,3 +45,15 @@ def test_gui_and_report_modules_do_not_restate_the_palette():
         text = (root / rel).read_text(encoding="utf-8")
         for o in outcomes.OUTCOMES.values():
             assert o.fill.upper() not in text.upper(), (rel, o.key)
+
+
+def test_perforates_is_the_worst_and_scabbing_is_a_flag():
+    # our own language: perforation outranks every framing outcome; scabbing is a
+    # mark beside the outcome, never an outcome of its own
+    assert outcomes.ORDER[-1] == "perforates"
+    assert outcomes.worst(["exceeds", "perforates", "elastic"]) == "perforates"
+    assert outcomes.SCABBING.key not in outcomes.OUTCOMES
+    fills = [o.fill for o in outcomes.OUTCOMES.values()]
+    assert len(set(fills)) == len(fills)
+    tags = [o.tag for o in outcomes.OUTCOMES.values()] + [outcomes.SCABBING.tag]
+    assert len(set(tags)) == len(tags)

@@ -2,8 +2,10 @@
 
 Without ``--json``/``--csv`` a per-bay table is printed in the project's unit
 system, followed by the caution. ``--json`` writes the per-bay summaries (SI,
-``null`` where no value exists, never NaN); ``--csv`` one row per drop point with
-the SI unit in each column name. Bad input: one message on stderr, exit 2.
+``null`` where no value exists, never NaN; ``level_below``: the loads that
+perforate a deck, passed to the level below and assessed there); ``--csv`` one row
+per drop point with the SI unit in each column name (``through_level``: the level
+a cascaded row came through). Bad input: one message on stderr, exit 2.
 """
 
 from __future__ import annotations
@@ -40,6 +42,10 @@ CSV_COLUMNS: tuple[tuple[str, str], ...] = (
     ("support_rotation", "support_rotation_rad"),
     ("required_mat_stiffness", "required_mat_stiffness_N_per_m"),
     ("required_crush_stroke", "required_crush_stroke_m"),
+    ("penetration", "penetration_m"),
+    ("scabbing_height", "scabbing_height_m"),
+    ("perforation_height", "perforation_height_m"),
+    ("residual_velocity", "residual_velocity_m_per_s"),
 )
 """(CaseResult field, CSV column name with its SI unit)."""
 
@@ -70,14 +76,20 @@ def results_document(project: Any, results: Any) -> dict[str, Any]:
     from droprig.advice import advice_text
 
     system = project.settings.unit_system
-    bays_out = []
-    for b in results.bays:
+
+    def bay_doc(b: Any) -> dict[str, Any]:
         d = asdict(b)
         d["advice"] = advice_text(b, system)
         d["lift"] = b.zone_id
         d["level"] = b.level_id
         d["max_utilisation_unbounded"] = not math.isfinite(b.max_utilisation)
-        bays_out.append(d)
+        return d
+
+    bays_out = [bay_doc(b) for b in results.bays]
+    cascade_out = [{"lift": f.zone_id, "load": f.load_name, "from_level": f.from_level,
+                    "level": f.level_id, "equivalent_drop_height": f.equivalent_height,
+                    "points": int(f.case.n), "bays": [bay_doc(b) for b in f.bays]}
+                   for f in getattr(results, "cascade", ())]
     return _clean({
         "droprig_version": __version__,
         "project": project.info.name,
@@ -85,6 +97,7 @@ def results_document(project: Any, results: Any) -> dict[str, Any]:
         "revision": project.info.revision,
         "points": int(results.n_points),
         "bays": bays_out,
+        "level_below": cascade_out,
         "warnings": list(results.warnings),
         "caution": CAUTION,
     })
@@ -105,10 +118,15 @@ def csv_text(project: Any, results: Any) -> str:
 
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
+    from droprig.model import STRIKE_ORIENTATIONS
+
     w.writerow(["lift", "load", "level", "bay", "protection", *[c for _, c in CSV_COLUMNS],
-                "governing_member", "governing_check", "response"])
+                "governing_member", "governing_check", "response", "scabbing",
+                "local_extrapolated", "strike_orientation", "through_level"])
     prot_ids = [p.id for p in project.protection_areas]
-    for case in results.cases:
+    rows = [(c, "") for c in results.cases]
+    rows += [(f.case, f.from_level) for f in getattr(results, "cascade", ())]
+    for case, through in rows:
         level = project.level(case.level_id)
         bay_ids = [b.id for b in bays(level)]
         mem_ids = [m.id for m in level.members]
@@ -122,7 +140,11 @@ def csv_text(project: Any, results: Any) -> str:
                         *[_cell(float(c[i])) for c in cols],
                         "deck" if g == DECK else mem_ids[g],
                         CHECKS[int(case.governing_check[i])],
-                        RESPONSES[int(case.response[i])]])
+                        RESPONSES[int(case.response[i])],
+                        "true" if case.scabbing[i] else "false",
+                        "true" if case.local_extrapolated[i] else "false",
+                        STRIKE_ORIENTATIONS[int(case.strike_orientation[i])]
+                        if case.strike_orientation[i] >= 0 else "", through])
     return buf.getvalue()
 
 
@@ -154,6 +176,14 @@ def table_text(project: Any, results: Any) -> str:
     out.append("Advice per bay:")
     for b in results.bays:
         out.append(f"  {b.zone_id} / {b.load_name} / {b.bay_id}: {advice_text(b, system)}")
+    for f in getattr(results, "cascade", ()):
+        out.append("")
+        out.append(f"Through the deck of level {f.from_level} to level {f.level_id}: "
+                   f"{f.load_name} ({f.zone_id}) strikes as if dropped "
+                   f"{fmt(f.equivalent_height, 'length', system)}")
+        for b in f.bays:
+            out.append(f"  {b.bay_id}: {b.response}, max U "
+                       f"{fmt_utilisation(b.max_utilisation)}; {advice_text(b, system)}")
     for wmsg in results.warnings:
         out.append(f"Warning: {wmsg}")
     out.append("")
@@ -161,41 +191,67 @@ def table_text(project: Any, results: Any) -> str:
     return "\n".join(out) + "\n"
 
 
-def _write(target: str, text: str) -> None:
-    """Write ``text`` to ``target`` atomically ('-' is stdout)."""
+def _write(target: str, text: str, project_path: str = "", *, force: bool = False,
+           option: str = "output") -> None:
+    """Write ``text`` to ``target`` atomically ('-' is stdout), never over the project
+    file, over another ``.droprig`` file only with ``force``; a replaced file is kept
+    as ``.bak`` (:func:`droprig.io.atomic.write_output`)."""
     if target == "-":
         sys.stdout.write(text)
         return
-    from droprig.io.atomic import atomic_write_bytes
+    from droprig.io.atomic import write_output
 
-    atomic_write_bytes(target, text.encode("utf-8"))
+    write_output(target, text.encode("utf-8"), (project_path,) if project_path else (),
+                 force=force, option=option)
 
 
 def run(args: argparse.Namespace) -> int:
+    from droprig.io.atomic import OutputRefusedError, check_output
     from droprig.io.project_file import ProjectFileError, load_project
     from droprig.model import ModelError
     from droprig.solver import analyse
     from droprig.texts import describe_error
 
-    try:
-        project = load_project(args.file)
-        results = analyse(project)
-    except (ProjectFileError, ModelError, OSError, ValueError) as exc:
-        print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
-        return EXIT_BAD_INPUT
     json_out = getattr(args, "json_out", None)
     csv_out = getattr(args, "csv_out", None)
+    force = bool(getattr(args, "force", False))
     if json_out == "-" and csv_out == "-":
         print("droprig analyse: --json and --csv cannot both write to stdout (-)",
               file=sys.stderr)
         return EXIT_BAD_INPUT
+    try:  # refused before the (possibly long) analysis
+        for out, option in ((json_out, "--json"), (csv_out, "--csv")):
+            if out and out != "-":
+                check_output(out, (args.file,), force=force, option=option)
+        if json_out and csv_out and json_out != "-" and json_out == csv_out:
+            raise OutputRefusedError("--json and --csv name the same file; give two names")
+    except OutputRefusedError as exc:
+        print(f"droprig analyse: {exc}", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    from droprig.preflight import analysis_problems
+
+    try:
+        project = load_project(args.file)
+        problems = analysis_problems(project)
+        if problems:
+            print(f"droprig analyse: {args.file}: {len(problems)} problem(s)\n  "
+                  + "\n  ".join(problems), file=sys.stderr)
+            return EXIT_BAD_INPUT
+        results = analyse(project)
+    except (ProjectFileError, ModelError, OSError, ValueError) as exc:
+        print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
+        return EXIT_BAD_INPUT
     try:
         if csv_out:
-            _write(csv_out, csv_text(project, results))
+            _write(csv_out, csv_text(project, results), args.file, force=force,
+                   option="--csv")
         if json_out:
             doc = results_document(project, results)
             _write(json_out, json.dumps(doc, indent=2, ensure_ascii=False, allow_nan=False)
-                   + "\n")
+                   + "\n", args.file, force=force, option="--json")
+    except OutputRefusedError as exc:
+        print(f"droprig analyse: {exc}", file=sys.stderr)
+        return EXIT_BAD_INPUT
     except OSError as exc:
         print(f"droprig analyse: {describe_error(exc)}", file=sys.stderr)
         return EXIT_BAD_INPUT

@@ -40,11 +40,13 @@ def run(args: argparse.Namespace) -> int:
         return _fail(f"-o/--output: folder {folder} does not exist")
     if os.path.isdir(out):
         return _fail(f"-o/--output: {out} is a folder; give a file name such as annex.pdf")
+    from droprig.io.atomic import OutputRefusedError, check_output, keep_backup
+
     try:
-        if os.path.exists(path) and os.path.exists(out) and os.path.samefile(path, out):
-            return _fail(f"-o/--output: {out} is the project file itself; choose another name")
-    except OSError:
-        pass
+        check_output(out, (path,), force=bool(getattr(args, "force", False)),
+                     option="-o/--output")
+    except OutputRefusedError as exc:
+        return _fail(str(exc))
     try:
         project = load_project(path)
     except ProjectFileError as exc:
@@ -60,14 +62,19 @@ def run(args: argparse.Namespace) -> int:
     if not zones:
         return _fail(f"{path}: the project has no lift zone to report on")
 
+    from droprig.preflight import analysis_problems
     from droprig.report.annex import write_annex
     from droprig.solver import analyse
 
+    problems = analysis_problems(project)
+    if problems:
+        return _fail(f"{path}: cannot analyse the project:\n  " + "\n  ".join(problems))
     try:
         results = analyse(project)
     except (ModelError, UnitError) as exc:
         return _fail(f"{path}: {exc}")
     try:
+        keep_backup(out)
         pages = write_annex(project, results, out, project_path=path, lift=lift)
     except (ModelError, UnitError) as exc:
         return _fail(str(exc))

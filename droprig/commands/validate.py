@@ -1,7 +1,9 @@
 """``droprig validate FILE``: check a project file without analysing it.
 
 Prints ``ok`` and a one-line summary and returns 0, or prints every problem
-(each with its JSON path) and returns 2. A valid file says nothing about the
+(each with its JSON path) and returns 2: what the loader refuses and what the
+analysis would refuse (:func:`droprig.preflight.analysis_problems`), so ``ok``
+means ``droprig analyse`` accepts the file. A valid file says nothing about the
 safety of a lift; it only means droprig can read it.
 """
 
@@ -41,13 +43,21 @@ def run(args: argparse.Namespace) -> int:
     try:
         project = load_project(path)
     except ProjectFileError as exc:
-        n = len(exc.problems)
+        n = getattr(exc, "total", len(exc.problems))
         print(f"{path}: {_plural(n, 'problem')}")
         for problem in exc.problems:
             print(f"  {problem}")
         return EXIT_BAD_INPUT
     except (OSError, ValueError) as exc:
         print(f"{path}: {describe_error(exc)}", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    from droprig.preflight import analysis_problems
+
+    problems = analysis_problems(project)
+    if problems:
+        print(f"{path}: {_plural(len(problems), 'problem')}")
+        for problem in problems:
+            print(f"  {problem}")
         return EXIT_BAD_INPUT
     print("ok")
     print(f"{path}: {summary(project)}")

@@ -18,7 +18,7 @@ from PySide6.QtCore import QObject, QRunnable, QThreadPool, QTimer, Signal
 
 from droprig.gui.document import Document
 from droprig.model import Project
-from droprig.solver import Results
+from droprig.solver import AnalysisCancelledError, CancelToken, Results, cancellable
 
 AnalyseFn = Callable[[Project], Results]
 
@@ -42,9 +42,10 @@ class _JobSignals(QObject):
 
 class _Job(QRunnable):
     def __init__(self, fn: AnalyseFn, project: Project, generation: int,
-                 signals: _JobSignals) -> None:
+                 signals: _JobSignals, token: CancelToken | None = None) -> None:
         super().__init__()
         self.setAutoDelete(True)
+        self._token = token or CancelToken()
         self._fn = fn
         self._project = project
         self._generation = generation
@@ -54,7 +55,10 @@ class _Job(QRunnable):
         t0 = time.perf_counter()
         results, error = None, ""
         try:
-            results = self._fn(self._project)
+            with cancellable(self._token):
+                results = self._fn(self._project)
+        except AnalysisCancelledError:  # overtaken by an edit or the window closing
+            results, error = None, ""
         except Exception as exc:  # reported in the window, never raised in the worker
             error = describe_analysis_error(exc)
             if "unexpected error" in error:
@@ -84,6 +88,7 @@ class AnalysisRunner(QObject):
         self._pending = False
         self._busy = False
         self._stopped = False
+        self._token = CancelToken()
         self.last_seconds = float("nan")
         self._pool = QThreadPool(self)
         self._pool.setMaxThreadCount(1)
@@ -122,6 +127,8 @@ class AnalysisRunner(QObject):
         self._generation += 1
         self._pending = True
         self._set_busy(True)
+        if self._running:
+            self._token.cancel()  # the running analysis is stale: stop it (< 1 s)
         if not self._running and not self._cooldown.isActive():
             self._launch()
 
@@ -137,10 +144,11 @@ class AnalysisRunner(QObject):
             self._after_install(0.0)
             return
         self._running = True
+        self._token = CancelToken()
         if self._threaded:
-            self._pool.start(_Job(self._analyse, project, gen, self._signals))
+            self._pool.start(_Job(self._analyse, project, gen, self._signals, self._token))
         else:
-            _Job(self._analyse, project, gen, self._signals).run()
+            _Job(self._analyse, project, gen, self._signals, self._token).run()
 
     def _on_job_done(self, generation: int, results: Results | None, error: str,
                      seconds: float) -> None:
@@ -201,4 +209,5 @@ class AnalysisRunner(QObject):
         """Stop timers and wait for a running job (call before the window goes)."""
         self._stopped = True
         self._cooldown.stop()
-        self.wait_idle(30_000)
+        self._token.cancel()  # a running analysis stops at its next block (< 1 s)
+        self.wait_idle(5_000)

@@ -204,6 +204,9 @@ class Document(QObject):
 
     def reset(self, project: Project, path: Path | None = None, *, dirty: bool = False) -> None:
         """Replace the whole document (open, new, recover): clears undo history."""
+        if path is None or (self._path is not None and Path(path) != self._path):
+            self.release_lock()
+            self._disk = None
         self.undo_stack.clear()
         self._force_dirty = dirty
         self._path = Path(path) if path else None
@@ -228,15 +231,26 @@ class Document(QObject):
 
         project = load_project(Path(path))
         self.reset(project, Path(path))
+        self._guard_opened(Path(path))
 
-    def save(self, path: str | Path | None = None) -> Path:
-        """Atomic save to ``path`` (default: the current path); marks clean."""
+    def save(self, path: str | Path | None = None, *, force: bool = False) -> Path:
+        """Atomic save to ``path`` (default: the current path); marks clean. Refuses
+        (:class:`droprig.gui.file_guard.SaveGuardError`) a read-only file or one that
+        changed on disk since it was opened or saved here, unless ``force``."""
         from droprig.io.project_file import save_project
 
         target = Path(path) if path is not None else self._path
         if target is None:
             raise ValueError("no file name: use save as")
+        if not force:  # changed on disk since opened, or read-only: refused (file_guard)
+            from droprig.gui.file_guard import save_problem
+
+            same = self._path is not None and target.resolve() == self._path.resolve()
+            problem = save_problem(target, self._disk if same else None)
+            if problem is not None:
+                raise problem
         save_project(self._project, target)
+        self._guard_opened(target)
         changed = target != self._path
         self._path = target
         self._force_dirty = False
@@ -248,6 +262,30 @@ class Document(QObject):
 
     def _on_clean_changed(self, clean: bool) -> None:
         self.dirty_changed.emit(self.is_dirty)
+
+    # -------------------------------------------------------------- file guard hooks
+    _disk = None
+    _lock = None
+    lock_warning = ""
+
+    def _guard_opened(self, path: Path) -> None:
+        """Remember the file as on disk now, hold its lock (a second window is warned:
+        ``lock_warning``) and remove temporary files a killed save left beside it."""
+        from droprig.gui.file_guard import ProjectLock, clean_stale_temps, disk_stamp
+
+        self._disk = disk_stamp(path)
+        if self._lock is None or self._lock.path != ProjectLock(path).path:
+            self.release_lock()
+            self._lock = ProjectLock(path)
+            self.lock_warning = self._lock.acquire() or ""
+        clean_stale_temps(path.parent)
+
+    def release_lock(self) -> None:
+        """Let go of the open file's lock (window closed, another file opened)."""
+        if self._lock is not None:
+            self._lock.release()
+            self._lock = None
+        self.lock_warning = ""
 
     # -------------------------------------------------------------- view state
 

@@ -106,6 +106,11 @@ def _in_user_units(text: str, system: units.UnitSystem, hint: str | None) -> str
 def describe_refusal(exc: Exception, label: str, system: units.UnitSystem,
                      quantity: str | None = None) -> str:
     """A one-paragraph message for a refused input, in the user's units."""
+    from droprig.model.bounds import BudgetError
+    from droprig.model.errors import quote
+
+    if isinstance(exc, BudgetError):  # the same words as droprig validate / analyse
+        return f"{label}: {exc}. Nothing was changed."
     if isinstance(exc, ModelError):
         value = exc.value
         q = _quantity_for(exc.unit, quantity) if exc.unit else None
@@ -114,7 +119,7 @@ def describe_refusal(exc: Exception, label: str, system: units.UnitSystem,
         elif isinstance(value, float):
             shown = f"{value:g}"
         else:
-            shown = repr(value)
+            shown = quote(value)
         allowed = _in_user_units(exc.allowed, system, quantity)
         where = f" ({exc.field})" if exc.field else ""
         return f"{label}: {shown} refused{where}. Allowed: {allowed}. Nothing was changed."

@@ -142,6 +142,14 @@ class MainWindow(QMainWindow):
                                      debounce_ms=debounce_ms, parent=self)
         self.autosaver = Autosaver(self.doc, self.settings_dir, parent=self) \
             if autosave else None
+        self.autosave_nudge = None
+        if self.autosaver is not None:  # soon after the first edit, then each minute
+            from droprig.gui.file_guard import AutosaveNudge
+
+            saver = self.autosaver
+            self.autosave_nudge = AutosaveNudge(
+                self.doc.project_changed, saver.write, lambda: saver.last_error,
+                lambda msg: self.statusBar().showMessage(msg, 15_000), parent=self)
         self._settings_dialog: SettingsDialog | None = None
         self._closing = False
         self.plan_menu: QMenu | None = None
@@ -1170,6 +1178,8 @@ class MainWindow(QMainWindow):
             return False
         if self.autosaver:
             self.autosaver.discard()
+        if self.doc.lock_warning:  # a second window on the same file (file_guard)
+            self.statusBar().showMessage(self.doc.lock_warning, 30_000)
         self.plan.fit()
         return True
 
@@ -1290,8 +1300,11 @@ class MainWindow(QMainWindow):
         self._closing = True
         self.save_window_state()
         self.runner.shutdown()
+        if self.autosave_nudge is not None:
+            self.autosave_nudge.stop()
         if self.autosaver:
             self.autosaver.close()
+        self.doc.release_lock()
         if self._settings_dialog is not None:
             self._settings_dialog.close()
         event.accept()

@@ -102,7 +102,7 @@ class PixelSized:
 
 
 SHORT_WORDS = {"elastic": "ELASTIC", "plastic": "YIELDS", "exceeds": "EXCEEDS",
-               style.OUTCOME_NONE: "N/A"}
+               "perforates": "GOES THROUGH", style.OUTCOME_NONE: "N/A"}
 """One-word bay labels when the full outcome words do not fit."""
 
 

@@ -188,12 +188,13 @@ class SettingsDialog(QDialog):
         p = self._doc.project
         try:
             new: Settings = replace(p.settings, **{key: value})
+            after = ed.with_settings(p, new)  # a work budget may refuse the whole project
         except ModelError as exc:
             self._refuse(describe_refusal(exc, label, p.settings.unit_system, quantity))
             return
         self.message.hide()
         self.message.clear()
-        self._doc.edit(ed.with_settings(p, new), f"Settings: {label.lower()}")
+        self._doc.edit(after, f"Settings: {label.lower()}")
 
     def _refuse(self, text: str) -> None:
         self.message.setText(text)

@@ -36,6 +36,7 @@ HATCH_STYLE: dict[str, Qt.BrushStyle] = {
     "none": Qt.BrushStyle.NoBrush,
     "diagonal": Qt.BrushStyle.BDiagPattern,
     "cross": Qt.BrushStyle.DiagCrossPattern,
+    "grid": Qt.BrushStyle.CrossPattern,
     "dots": Qt.BrushStyle.Dense7Pattern,
 }
 """Qt brush pattern of each hatch kind of :mod:`droprig.outcomes`."""

@@ -14,7 +14,8 @@ from collections.abc import Iterator
 from contextlib import contextmanager
 from pathlib import Path
 
-__all__ = ["atomic_path", "atomic_write_bytes"]
+__all__ = ["OutputRefusedError", "atomic_path", "atomic_write_bytes", "check_output",
+           "keep_backup", "write_output"]
 
 
 def _temp_beside(target: Path) -> Path:
@@ -69,3 +70,60 @@ def _fsync_dir(folder: Path) -> None:
         pass
     finally:
         os.close(fd)
+
+
+class OutputRefusedError(ValueError):
+    """An output path that would overwrite an input or a project file."""
+
+
+PROJECT_SUFFIX = ".droprig"
+
+
+def _same_file(a: Path, b: Path) -> bool:
+    try:
+        if a.exists() and b.exists():
+            return os.path.samefile(a, b)
+    except OSError:
+        pass
+    return os.path.realpath(a) == os.path.realpath(b)
+
+
+def check_output(target: str | os.PathLike[str], inputs: tuple[str | os.PathLike[str], ...],
+                 *, force: bool = False, option: str = "output") -> None:
+    """Refuse (:class:`OutputRefusedError`) an output ``target`` that is one of the
+    ``inputs`` (the same file after resolving links, hard links included) — always —
+    or, unless ``force``, any existing or new ``.droprig`` file: results must never
+    replace a project. ``option`` names the command-line option in the message."""
+    t = Path(os.fspath(target))
+    for src in inputs:
+        if _same_file(t, Path(os.fspath(src))):
+            raise OutputRefusedError(
+                f"{option}: {os.fspath(target)} is the project file itself; the results "
+                "would replace the project. Choose another name")
+    if not force and os.path.realpath(t).lower().endswith(PROJECT_SUFFIX):
+        raise OutputRefusedError(
+            f"{option}: {os.fspath(target)} is a {PROJECT_SUFFIX} project file name; results "
+            "are not written over a project (give --force to do it anyway)")
+
+
+def keep_backup(target: str | os.PathLike[str]) -> Path | None:
+    """Copy an existing regular file ``target`` to ``<target>.bak`` (atomically,
+    replacing an older backup) before it is replaced; returns the backup path or
+    None when there was nothing to keep."""
+    t = Path(os.path.realpath(os.fspath(target)))
+    if not t.is_file():
+        return None
+    bak = t.with_name(t.name + ".bak")
+    atomic_write_bytes(bak, t.read_bytes(), like=t)
+    return bak
+
+
+def write_output(target: str | os.PathLike[str], data: bytes,
+                 inputs: tuple[str | os.PathLike[str], ...] = (), *, force: bool = False,
+                 option: str = "output") -> None:
+    """:func:`check_output`, then :func:`keep_backup`, then
+    :func:`atomic_write_bytes`: an output never clobbers an input, and the file it
+    replaces is kept as ``.bak``."""
+    check_output(target, inputs, force=force, option=option)
+    keep_backup(target)
+    atomic_write_bytes(target, data)

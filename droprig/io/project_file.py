@@ -46,7 +46,9 @@ from droprig.model import (
     Rect,
     Section,
     Settings,
+    bounds,
 )
+from droprig.model.errors import QUOTE_MAX, quote, text_problem
 
 FORMAT_VERSION = 1
 """The file layout this droprig writes and the newest it reads."""
@@ -76,13 +78,19 @@ class ProjectFileError(ValueError):
     whole document); ``source`` names the file when one was read."""
 
     def __init__(self, problems: Iterable[str], source: str | None = None) -> None:
-        self.problems: list[str] = list(problems) or ["unknown problem"]
+        found = list(problems) or ["unknown problem"]
+        self.total = getattr(problems, "total", len(found))
+        limit = bounds.MAX_PROBLEMS_SHOWN
+        if len(found) > limit:
+            more = self.total - limit
+            found = [*found[:limit], f"… and {more:,} more problem(s) not listed"]
+        self.problems: list[str] = found
         self.source = source
         where = f"{source}: " if source else ""
         if len(self.problems) == 1:
             text = f"{where}{self.problems[0]}"
         else:
-            text = f"{where}{len(self.problems)} problems\n" + "\n".join(
+            text = f"{where}{self.total} problems\n" + "\n".join(
                 f"  {p}" for p in self.problems)
         super().__init__(text)
 
@@ -308,11 +316,25 @@ def _load_doc(ld: LiftLoad) -> dict[str, object]:
     out["hang_length_m"] = ld.hang_length
     if ld.contact_stiffness is not None:
         out["contact_stiffness_N_per_m"] = ld.contact_stiffness
+    # strike data only when not the defaults, so older files round-trip unchanged
+    if ld.strike_orientations != _DEFAULT_LOAD.strike_orientations or ld.strike_reason:
+        out["strike_orientations"] = list(ld.strike_orientations)
+        out["strike_reason"] = ld.strike_reason
+    if ld.edge_width != _DEFAULT_LOAD.edge_width:
+        out["edge_width_m"] = ld.edge_width
+    if ld.hard is not None:
+        out["hard"] = ld.hard
     return out
 
 
+_DEFAULT_LOAD = LiftLoad(name="default", mass=1.0)
+_ZONE_DRIFT_KEYS = (("slew_speed", "slew_speed_rad_per_s"), ("hoist_speed", "hoist_speed_m_per_s"),
+                    ("radial_speed", "radial_speed_m_per_s"),
+                    ("swing_length", "swing_length_m"))
+
+
 def _zone_doc(z: LiftZone) -> dict[str, object]:
-    return {
+    out: dict[str, object] = {
         "id": z.id,
         "name": z.name,
         "level_id": z.level_id,
@@ -325,6 +347,14 @@ def _zone_doc(z: LiftZone) -> dict[str, object]:
         "corridor_m": [_point_doc(p) for p in z.corridor],
         "loads": [_load_doc(ld) for ld in z.loads],
     }
+    # drift data only when computed or entered, so older files round-trip unchanged
+    if z.drift_mode != "given" or any(getattr(z, a) for a, _ in _ZONE_DRIFT_KEYS) \
+            or z.swing_angle:
+        out["drift_mode"] = z.drift_mode
+        for attr, key in _ZONE_DRIFT_KEYS:
+            out[key] = getattr(z, attr)
+        out["swing_angle_deg"] = _rad_to_deg_text(float(z.swing_angle))
+    return out
 
 
 def _protection_doc(p: ProtectionArea) -> dict[str, object]:
@@ -450,29 +480,117 @@ def _parse(text: str) -> Any:
         raise ProjectFileError(
             [f"$: not a readable JSON file: {exc.msg} at line {exc.lineno}, column "
              f"{exc.colno}{end}"]) from None
-    except (ValueError, RecursionError) as exc:
+    except RecursionError:
+        raise ProjectFileError([f"$: lists and objects nested too deep (droprig reads up to "
+                                f"{bounds.MAX_NESTING} levels)"]) from None
+    except ValueError as exc:
         raise ProjectFileError([f"$: not a readable JSON file: {exc}"]) from None
 
 
 def _to_floats(value: Any, path: list[str | int], problems: list[str]) -> Any:
     """Decimal -> float everywhere except under ``*_deg`` keys (kept exact for
-    :func:`_deg_to_rad`); numbers too large for a float are problems."""
-    if isinstance(value, dict):
-        return {k: (v if k.endswith("_deg") and isinstance(v, Decimal)
-                    else _to_floats(v, [*path, k], problems))
-                for k, v in value.items()}
-    if isinstance(value, list):
-        return [_to_floats(v, [*path, i], problems) for i, v in enumerate(value)]
-    if isinstance(value, Decimal):
-        f = float(value)
-        if not math.isfinite(f):
-            problems.append(f"{_json_path(path)}: {value} is too large a number")
-            return 0.0
-        return f
-    if isinstance(value, int) and not isinstance(value, bool) and abs(value) > 10**300:
-        problems.append(f"{_json_path(path)}: {value} is too large a number")
-        return 0
-    return value
+    :func:`_deg_to_rad`); numbers too large for a float, text droprig does not hold
+    (:func:`droprig.model.errors.text_problem`, in keys too) and nesting deeper than
+    :data:`~droprig.model.bounds.MAX_NESTING` are problems. Iterative (no recursion
+    limit can be reached from a file) and linear in the size of the document; the
+    containers are converted in place."""
+    root: list[Any] = [value]
+    # (container, key or index, path, depth)
+    stack: list[tuple[Any, Any, list[str | int], int]] = [(root, 0, path, 0)]
+    deep = False
+    while stack:
+        holder, key, where, depth = stack.pop()
+        v = holder[key]
+        if isinstance(v, dict):
+            if depth >= bounds.MAX_NESTING:
+                if not deep:
+                    problems.append(f"{_json_path(where)}: lists and objects nested more "
+                                    f"than {bounds.MAX_NESTING} deep")
+                deep = True
+                holder[key] = None
+                continue
+            for k in list(v):
+                why = text_problem(k)
+                if why is not None:
+                    problems.append(f"{_json_path(where)}: the key {quote(k)} holds {why}")
+                    continue
+                if k.endswith("_deg") and isinstance(v[k], Decimal):
+                    continue
+                stack.append((v, k, [*where, k], depth + 1))
+        elif isinstance(v, list):
+            if depth >= bounds.MAX_NESTING:
+                if not deep:
+                    problems.append(f"{_json_path(where)}: lists and objects nested more "
+                                    f"than {bounds.MAX_NESTING} deep")
+                deep = True
+                holder[key] = None
+                continue
+            for i in range(len(v) - 1, -1, -1):
+                stack.append((v, i, [*where, i], depth + 1))
+        elif isinstance(v, Decimal):
+            f = float(v)
+            if not math.isfinite(f):
+                text = str(v)
+                shown = text if len(text) <= 40 else f"a {len(text):,}-character number"
+                problems.append(f"{_json_path(where)}: {shown} is too large a number")
+                f = 0.0
+            holder[key] = f
+        elif isinstance(v, int) and not isinstance(v, bool) and abs(v) > 10**300:
+            problems.append(f"{_json_path(where)}: the number is too large")
+            holder[key] = 0
+        elif isinstance(v, str):
+            why = text_problem(v)
+            if why is not None:
+                problems.append(f"{_json_path(where)}: {quote(v)} holds {why}; droprig text "
+                                "holds no control, bidi-override or lone-surrogate "
+                                "characters")
+    return root[0]
+
+
+def _count_problems(doc: dict[str, Any]) -> list[str]:
+    """Counts over the limits of :mod:`droprig.model.bounds`, each with its JSON path,
+    found before the schema check (a file of 200,000 members is refused at once)."""
+    out: list[str] = []
+
+    def lst(v: Any) -> list[Any]:
+        return v if isinstance(v, list) else []
+
+    def over(path: str, n: int, limit: int, what: str, advice: str) -> None:
+        if n > limit:
+            out.append(f"{path}: {n:,} {what}; the limit is {limit:,}: {advice}")
+
+    levels = lst(doc.get("levels"))
+    zones = lst(doc.get("lift_zones"))
+    over("$.levels", len(levels), bounds.MAX_LEVELS, "levels", "split the project")
+    total = 0
+    for i, lv in enumerate(levels[: bounds.MAX_LEVELS]):
+        if not isinstance(lv, dict):
+            continue
+        n = len(lst(lv.get("members")))
+        total += n
+        over(f"$.levels[{i}].members", n, bounds.MAX_MEMBERS_PER_LEVEL, "members on one level",
+             "split the level")
+        deck = lv.get("deck")
+        if isinstance(deck, dict):
+            over(f"$.levels[{i}].deck.openings", len(lst(deck.get("openings"))),
+                 bounds.MAX_OPENINGS_PER_LEVEL, "deck openings", "merge neighbouring openings")
+    over("$.levels", total, bounds.MAX_MEMBERS, "members in all", "split the project")
+    over("$.lift_zones", len(zones), bounds.MAX_LIFT_ZONES, "lift zones", "split the project")
+    n_loads = 0
+    for i, z in enumerate(zones[: bounds.MAX_LIFT_ZONES]):
+        if not isinstance(z, dict):
+            continue
+        n = len(lst(z.get("loads")))
+        n_loads += n
+        over(f"$.lift_zones[{i}].loads", n, bounds.MAX_LOADS_PER_ZONE, "loads in one lift zone",
+             "split the zone")
+        over(f"$.lift_zones[{i}].corridor_m", len(lst(z.get("corridor_m"))),
+             bounds.MAX_CORRIDOR_CORNERS, "corridor corners",
+             "simplify the corridor (a few corners follow a real lift path)")
+    over("$.lift_zones", n_loads, bounds.MAX_LOADS, "loads in all", "split the project")
+    over("$.protection_areas", len(lst(doc.get("protection_areas"))),
+         bounds.MAX_PROTECTION_AREAS, "protection areas", "merge neighbouring mats")
+    return out
 
 
 def _check_version(doc: Any) -> int:
@@ -551,6 +669,8 @@ def _shown(v: object) -> str:
         return "a list"
     if isinstance(v, Decimal):
         return str(v)
+    if isinstance(v, str) and len(v) > 60:
+        return json.dumps(v[:57], ensure_ascii=False)[:-1] + f'…" ({len(v):,} characters)'
     text = json.dumps(v, ensure_ascii=False) if not isinstance(v, float) else repr(v)
     return text if len(text) <= 60 else text[:57] + "..."
 
@@ -586,7 +706,15 @@ def _schema_problems(doc: dict[str, Any]) -> list[str]:
             out.append((path, f"{_shown(err.instance)} is not allowed; expected "
                               f"{_shown(err.validator_value)}"))
             continue
-        out.append((path, err.message))
+        if v in ("maxLength", "minLength") and isinstance(err.instance, str):
+            word = "at most" if v == "maxLength" else "at least"
+            out.append((path, f"{_shown(err.instance)} is {len(err.instance):,} characters; "
+                              f"{word} {err.validator_value} allowed"))
+            continue
+        msg = err.message
+        if len(msg) > 2 * QUOTE_MAX:  # the schema's own text echoes a long value
+            msg = f"{_shown(err.instance)} fails the {err.validator} rule of the format"
+        out.append((path, msg))
     out.sort(key=lambda item: [(0, p, "") if isinstance(p, int) else (1, 0, p)
                                for p in item[0]])
     return [f"{_json_path(p)}: {m}" for p, m in out]
@@ -598,8 +726,14 @@ def loads_project(text: str, *, source: str | None = None) -> Project:
     Raises :class:`ProjectFileError` listing every problem with its JSON path.
     """
     try:
-        problems: list[str] = []
-        raw = _to_floats(_parse(text), [], problems)
+        if len(text) > bounds.MAX_FILE_BYTES:
+            raise ProjectFileError([_too_large(len(text))])
+        parsed = _parse(text)
+        # counts first: a file of 200,000 members is refused before it is walked
+        problems = _count_problems(parsed) if isinstance(parsed, dict) else []
+        if problems:
+            raise ProjectFileError(problems)
+        raw = _to_floats(parsed, [], problems)
         if problems:
             raise ProjectFileError(problems)
         doc = _migrate(raw, _check_version(raw))
@@ -613,11 +747,21 @@ def loads_project(text: str, *, source: str | None = None) -> Project:
         raise
 
 
+def _too_large(n: int) -> str:
+    return (f"$: the file is {n:,} bytes; droprig reads project files up to "
+            f"{bounds.MAX_FILE_BYTES:,} bytes")
+
+
 def load_project(path: str | os.PathLike[str]) -> Project:
-    """Read a ``.droprig`` file. Raises :class:`ProjectFileError` (bad content)
-    or :class:`OSError` (cannot read the file)."""
+    """Read a ``.droprig`` file of at most :data:`~droprig.model.bounds.MAX_FILE_BYTES`.
+    Raises :class:`ProjectFileError` (bad content) or :class:`OSError` (cannot read
+    the file)."""
     p = Path(path)
-    data = p.read_bytes()
+    with open(p, "rb") as fh:
+        data = fh.read(bounds.MAX_FILE_BYTES + 1)
+        if len(data) > bounds.MAX_FILE_BYTES:
+            size = max(os.fstat(fh.fileno()).st_size, len(data))
+            raise ProjectFileError([_too_large(size)], str(p))
     try:
         text = data.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
@@ -651,11 +795,16 @@ _KEYS_GRADE = {"name": "name", "fu": "fu_Pa", "E": "E_Pa", "fy_steps": "fy_steps
 _KEYS_LOAD = {"name": "name", "mass": "mass_kg", "footprint_length": "footprint_length_m",
               "footprint_width": "footprint_width_m", "drop_height": "drop_height_m",
               "hook_elevation": "hook_elevation_m", "hang_length": "hang_length_m",
-              "kind": "kind", "contact_stiffness": "contact_stiffness_N_per_m"}
+              "kind": "kind", "contact_stiffness": "contact_stiffness_N_per_m",
+              "strike_orientations": "strike_orientations", "strike_reason": "strike_reason",
+              "edge_width": "edge_width_m", "hard": "hard"}
 _KEYS_ZONE = {"id": "id", "name": "name", "level_id": "level_id", "crane": "crane_m",
               "r_min": "r_min_m", "r_max": "r_max_m", "slew_start": "slew_start_deg",
               "slew_end": "slew_end_deg", "drift_margin": "drift_margin_m",
-              "corridor": "corridor_m", "loads": "loads"}
+              "corridor": "corridor_m", "loads": "loads", "drift_mode": "drift_mode",
+              "slew_speed": "slew_speed_rad_per_s", "hoist_speed": "hoist_speed_m_per_s",
+              "radial_speed": "radial_speed_m_per_s", "swing_angle": "swing_angle_deg",
+              "swing_length": "swing_length_m"}
 _KEYS_PROTECTION = {"id": "id", "name": "name", "level_id": "level_id", "kind": "kind",
                     "thickness": "thickness_m", "stiffness": "stiffness_N_per_m",
                     "crush_force": "crush_force_N", "crush_stroke": "crush_stroke_m",
@@ -848,7 +997,10 @@ class _Builder:
     def load(self, v: dict[str, Any], path: str) -> LiftLoad:
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LOAD.items()
                          if k in ("footprint_length", "footprint_width", "hang_length", "kind",
-                                  "contact_stiffness")})
+                                  "contact_stiffness", "strike_reason", "edge_width",
+                                  "hard")})
+        if "strike_orientations" in v:
+            kw["strike_orientations"] = tuple(v["strike_orientations"])
         return self._make(path, _KEYS_LOAD, lambda: LiftLoad(
             name=v["name"], mass=v["mass_kg"], drop_height=v.get("drop_height_m"),
             hook_elevation=v.get("hook_elevation_m"), **kw))
@@ -865,6 +1017,13 @@ class _Builder:
                 kw[attr] = _deg_to_rad(v[key])
         if "drift_margin_m" in v:
             kw["drift_margin"] = v["drift_margin_m"]
+        if "drift_mode" in v:
+            kw["drift_mode"] = v["drift_mode"]
+        for attr, key in _ZONE_DRIFT_KEYS:
+            if key in v:
+                kw[attr] = v[key]
+        if "swing_angle_deg" in v:
+            kw["swing_angle"] = _deg_to_rad(v["swing_angle_deg"])
         if "corridor_m" in v:
             kw["corridor"] = tuple(_point(p) for p in v["corridor_m"])
         zone = self._make(path, _KEYS_ZONE, lambda: LiftZone(
@@ -924,7 +1083,22 @@ class _Builder:
         try:
             return Project(**parts)
         except ModelError as exc:
-            raise ProjectFileError([f"$: {exc}"]) from None
+            raise ProjectFileError([f"{_project_field_path(doc, exc.field)}: {exc}"]) from None
+
+
+def _project_field_path(doc: dict[str, Any], field: str) -> str:
+    """JSON path of a project-wide :class:`ModelError` field (``zone Z1`` ->
+    ``$.lift_zones[0]``, ``levels`` -> ``$.levels``); ``$`` when unknown."""
+    if field in ("levels", "lift_zones", "protection_areas"):
+        return f"$.{field}"
+    m = re.match(r"^(zone|level|protection) (.+?)(?:\.([A-Za-z_]+))?$", field)
+    if m:
+        coll = {"zone": "lift_zones", "level": "levels", "protection": "protection_areas"}[
+            m.group(1)]
+        for i, item in enumerate(doc.get(coll, [])):
+            if isinstance(item, dict) and item.get("id") == m.group(2):
+                return f"$.{coll}[{i}]"
+    return "$"
 
 
 def _kwargs(v: dict[str, Any], keys: dict[str, str]) -> dict[str, Any]:

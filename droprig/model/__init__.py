@@ -13,6 +13,7 @@ from droprig.model.polygon import CORRIDOR_ALLOWED, check_corridor, corridor_pro
 from droprig.model.project import (
     CONTACT_STIFFNESS_RANGE,
     END_CONDITIONS,
+    STRIKE_ORIENTATIONS,
     ColumnGrid,
     Deck,
     Level,
@@ -33,6 +34,7 @@ __all__ = [
     "CORRIDOR_ALLOWED",
     "END_CONDITIONS",
     "E_STEEL",
+    "STRIKE_ORIENTATIONS",
     "Bay",
     "ColumnGrid",
     "Concrete",

@@ -3,6 +3,76 @@
 from __future__ import annotations
 
 import math
+import re
+import unicodedata
+
+QUOTE_MAX = 80
+"""At most this many characters of a user value are quoted in a message (a 50 MB
+description must not be printed whole)."""
+
+
+def quote(value: object, limit: int = QUOTE_MAX) -> str:
+    """``repr(value)`` cut to about ``limit`` characters (``…`` and the full length
+    when cut), with characters that cannot be printed (lone surrogates, control and
+    bidi-override characters) shown as ``\\u`` escapes so the message itself is
+    always printable and reads in its own direction."""
+    if isinstance(value, str):
+        n = len(value)
+        head = value[:limit]
+        text = "'" + "".join(_escape(c) for c in head) + "'"
+        return text if n <= limit else f"{text[:-1]}…' ({n:,} characters)"
+    if isinstance(value, tuple | list) and len(value) > 8:
+        return f"{type(value).__name__} of {len(value):,} items"
+    text = repr(value)
+    if len(text) > limit:
+        return text[:limit] + "…"
+    return "".join(_escape(c) for c in text)
+
+
+def _escape(c: str) -> str:
+    return f"\\u{ord(c):04x}" if text_char_problem(c) else c
+
+
+BIDI_CONTROLS = frozenset("\u202a\u202b\u202c\u202d\u202e\u2066\u2067\u2068\u2069"
+                          "\u200e\u200f\u061c")
+"""Unicode bidirectional formatting characters (Unicode Standard Annex #9, Table 1
+'explicit directional embeddings, overrides and isolates' and the marks): they can
+make a name read differently from what is stored (CVE-2021-42574 'Trojan Source')."""
+
+
+def text_char_problem(c: str) -> str | None:
+    """Why one character may not appear in droprig text, or None.
+
+    Refused: lone surrogates (U+D800–U+DFFF: not characters; no UTF-8 encoding
+    exists, Unicode Standard §3.9 D76), control characters (general category Cc)
+    other than tab and line feed, and the bidi formatting characters
+    (:data:`BIDI_CONTROLS`)."""
+    o = ord(c)
+    if 0xD800 <= o <= 0xDFFF:
+        return "a lone surrogate (not a character)"
+    if c in BIDI_CONTROLS:
+        return "a bidirectional-override character"
+    if c not in "\t\n" and unicodedata.category(c) == "Cc":
+        return "a control character"
+    return None
+
+
+_PLAIN = re.compile(r"[\t\n\x20-\x7e\u00a0-\u061b\u061d-\u200d\u2010-\u2029"
+                    r"\u202f-\u2065\u206a-\ud7ff\ue000-\U0010ffff]*")
+
+
+def text_problem(value: str) -> str | None:
+    """The first character of ``value`` that droprig text may not hold, described
+    with its position (``a control character U+0007 at character 5``), or None.
+    Linear in the length of the text."""
+    m = _PLAIN.match(value)
+    if m is not None and m.end() == len(value):
+        return None
+    for i, c in enumerate(value):
+        why = text_char_problem(c)
+        if why:
+            return f"{why} U+{ord(c):04X} at character {i + 1}"
+    return None
 
 
 class ModelError(ValueError):
@@ -19,7 +89,7 @@ class ModelError(ValueError):
         self.value = value
         self.allowed = allowed
         self.unit = unit
-        shown = f"{value:g}" if isinstance(value, float) else repr(value)
+        shown = f"{value:g}" if isinstance(value, float) else quote(value)
         suffix = f" {unit}" if unit and isinstance(value, int | float) else ""
         super().__init__(f"{field}: {shown}{suffix} is not allowed; allowed: {allowed}")
 
@@ -76,5 +146,8 @@ def check_text(field: str, value: object, *, required: bool = False, max_len: in
     if required and not value.strip():
         raise ModelError(field, value, "non-empty text")
     if len(value) > max_len:
-        raise ModelError(field, f"{value[:20]}…", f"at most {max_len} characters")
+        raise ModelError(field, value, f"at most {max_len} characters")
+    problem = text_problem(value)
+    if problem is not None:
+        raise ModelError(field, value, f"printable text ({problem} is not)")
     return value

@@ -69,6 +69,49 @@ def polygon_area(points: Sequence[Corner]) -> float:
                      - points[(i + 1) % n][0] * points[i][1] for i in range(n))
 
 
+def _first_close_pair(pts: list[Corner]) -> tuple[int, int] | None:
+    """The first pair (i < j, in lexicographic order) of corners within GEOMETRY_TOL
+    of each other in x and in y, or None. Sorted by x, each corner is compared only
+    with the corners after it within the tolerance: O(n log n) for any corridor
+    whose corners are not piled on one vertical line."""
+    t = GEOMETRY_TOL
+    order = sorted(range(len(pts)), key=lambda i: pts[i][0])
+    best: tuple[int, int] | None = None
+    for a, i in enumerate(order):
+        xi, yi = pts[i]
+        for j in order[a + 1:]:
+            if pts[j][0] - xi > t:
+                break
+            if abs(pts[j][1] - yi) <= t:
+                pair = (min(i, j), max(i, j))
+                if best is None or pair < best:
+                    best = pair
+    return best
+
+
+def _box_pairs(pts: list[Corner], edges: list[tuple[int, int]]) -> list[tuple[int, int]]:
+    """Pairs (a < b) of edges whose bounding boxes, widened by GEOMETRY_TOL, overlap,
+    in lexicographic order: a sweep over the edges sorted by their left end (the
+    classic sort-and-sweep broad phase; O(n log n + k) for k overlapping pairs)."""
+    t = GEOMETRY_TOL
+    box = []
+    for i, j in edges:
+        (x0, y0), (x1, y1) = pts[i], pts[j]
+        box.append((min(x0, x1) - t, max(x0, x1) + t, min(y0, y1) - t, max(y0, y1) + t))
+    order = sorted(range(len(edges)), key=lambda e: box[e][0])
+    out = []
+    for pos, a in enumerate(order):
+        _, ax1, ay0, ay1 = box[a]
+        for b in order[pos + 1:]:
+            bx0, _, by0, by1 = box[b]
+            if bx0 > ax1:
+                break
+            if by0 <= ay1 and ay0 <= by1:
+                out.append((min(a, b), max(a, b)))
+    out.sort()
+    return out
+
+
 def corridor_problem(points: Sequence[Corner]) -> str | None:
     """Why ``points`` (plan corners, m, in order) is not an acceptable corridor, in
     words naming the corners (numbered from 1), or None if it is. An empty list is
@@ -79,32 +122,32 @@ def corridor_problem(points: Sequence[Corner]) -> str | None:
         return None
     if n < 3:
         return f"{n} corner(s)"
-    for i in range(n):
-        for j in range(i + 1, n):
-            if abs(pts[i][0] - pts[j][0]) <= GEOMETRY_TOL and \
-                    abs(pts[i][1] - pts[j][1]) <= GEOMETRY_TOL:
-                return f"corners {i + 1} and {j + 1} are at the same place"
+    same = _first_close_pair(pts)
+    if same is not None:
+        return f"corners {same[0] + 1} and {same[1] + 1} are at the same place"
     edges = [(i, (i + 1) % n) for i in range(n)]
 
     def name(e: tuple[int, int]) -> str:
         return f"{e[0] + 1}–{e[1] + 1}"
 
-    for a in range(n):
-        for b in range(a + 1, n):
-            (i, j), (k, m) = edges[a], edges[b]
-            shared = {i, j} & {k, m}
-            if not shared:
-                if _segments_meet(pts[i], pts[j], pts[k], pts[m]):
-                    return f"edge {name(edges[a])} crosses or touches edge {name(edges[b])}"
-                continue
-            # adjacent edges: they may not fold back over each other
-            v = shared.pop()
-            p = pts[j] if v == i else pts[i]
-            q = pts[m] if v == k else pts[k]
-            o = pts[v]
-            if _side(o, p, q, _len(o, p)) == 0 and \
-                    (p[0] - o[0]) * (q[0] - o[0]) + (p[1] - o[1]) * (q[1] - o[1]) > 0:
-                return f"edge {name(edges[b])} folds back over edge {name(edges[a])}"
+    # only pairs of edges whose boxes (widened by the tolerance) overlap can meet:
+    # found by a sweep along x, tested in the order of the full pairwise loop so the
+    # message names the same pair
+    for a, b in _box_pairs(pts, edges):
+        (i, j), (k, m) = edges[a], edges[b]
+        shared = {i, j} & {k, m}
+        if not shared:
+            if _segments_meet(pts[i], pts[j], pts[k], pts[m]):
+                return f"edge {name(edges[a])} crosses or touches edge {name(edges[b])}"
+            continue
+        # adjacent edges: they may not fold back over each other
+        v = shared.pop()
+        p = pts[j] if v == i else pts[i]
+        q = pts[m] if v == k else pts[k]
+        o = pts[v]
+        if _side(o, p, q, _len(o, p)) == 0 and \
+                (p[0] - o[0]) * (q[0] - o[0]) + (p[1] - o[1]) * (q[1] - o[1]) > 0:
+            return f"edge {name(edges[b])} folds back over edge {name(edges[a])}"
     area = abs(polygon_area(pts))
     perimeter = sum(_dist(pts[i], pts[(i + 1) % n]) for i in range(n))
     if area <= GEOMETRY_TOL * perimeter:

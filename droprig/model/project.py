@@ -8,9 +8,11 @@ Edit with :func:`dataclasses.replace`.
 from __future__ import annotations
 
 import math
+from collections.abc import Iterable
 from dataclasses import dataclass, field
 from typing import Literal
 
+from droprig.model import bounds
 from droprig.model.errors import (
     ModelError,
     check_choice,
@@ -29,6 +31,9 @@ DesignBasis = Literal["aisc360", "en1993"]
 DeckKind = Literal["composite", "solid_slab"]
 MatKind = Literal["spring", "crushable"]
 LoadKind = Literal["load", "rigging"]
+StrikeOrientation = Literal["flat", "edge", "corner"]
+STRIKE_ORIENTATIONS: tuple[str, ...] = ("flat", "edge", "corner")
+DriftMode = Literal["given", "computed"]
 
 CONTACT_STIFFNESS_RANGE = (1e4, 1e12)
 """Allowed stiffness of a load's own underside, N/m: from a very soft timber-and-rubber
@@ -36,6 +41,15 @@ bearer (10 kN/m) to practically rigid steel (1e12 N/m)."""
 
 GEOMETRY_TOL = 1e-6
 """Two plan points closer than this (m) are the same point."""
+
+
+def _repeated(ids: Iterable[str]) -> str | None:
+    """The smallest id that appears more than once, or None (linear time)."""
+    seen: set[str] = set()
+    dup: set[str] = set()
+    for i in ids:
+        (dup if i in seen else seen).add(i)
+    return min(dup) if dup else None
 
 
 def _check_point(name: str, p: Point, lim: float = 10_000.0) -> Point:
@@ -311,10 +325,12 @@ class Level:
         check_range(f"level {self.id}.superimposed_dead", self.superimposed_dead, 0.0, 50e3,
                     unit="Pa")
         check_range(f"level {self.id}.live_in_place", self.live_in_place, 0.0, 50e3, unit="Pa")
-        ids = [m.id for m in self.members]
-        dup = {i for i in ids if ids.count(i) > 1}
-        if dup:
-            raise ModelError(f"level {self.id}.members", sorted(dup)[0], "unique member ids")
+        if len(self.members) > bounds.MAX_MEMBERS_PER_LEVEL:
+            raise ModelError(f"level {self.id}.members", len(self.members),
+                             f"at most {bounds.MAX_MEMBERS_PER_LEVEL:,} members on one level")
+        dup = _repeated(m.id for m in self.members)
+        if dup is not None:
+            raise ModelError(f"level {self.id}.members", dup, "unique member ids")
 
     def member(self, member_id: str) -> Member:
         for m in self.members:
@@ -337,6 +353,15 @@ class LiftLoad:
     the deck and the framing (springs in series, Gere §9.10 energy method:
     1/k_eff = Σ 1/k). ``None`` takes the load as rigid, which gives the highest
     impact force (conservative).
+
+    Local damage of the deck by a hard item is checked for it striking flat, on
+    an edge and on a corner (``strike_orientations``); ``edge_width`` (m) is the
+    bearing width of its edges (a flange or plate thickness). Restricting the
+    orientations (e.g. a spreader that cannot land on a corner) needs a
+    ``strike_reason``, which the annex prints. ``hard``: whether the item is a
+    hard object for local damage; ``None`` decides by kind — a rigging item
+    (spreader, shackle, hook block) with no declared soft underside is hard, a load
+    is not (its own structure crushes first; common practice, no source).
     """
 
     name: str
@@ -348,6 +373,10 @@ class LiftLoad:
     hang_length: float = 0.0
     kind: LoadKind = "load"
     contact_stiffness: float | None = None
+    strike_orientations: tuple[StrikeOrientation, ...] = ("flat", "edge", "corner")
+    strike_reason: str = ""
+    edge_width: float = 0.02
+    hard: bool | None = None
 
     def __post_init__(self) -> None:
         check_text("load.name", self.name, required=True, max_len=64)
@@ -369,6 +398,23 @@ class LiftLoad:
         if self.contact_stiffness is not None:
             check_range(f"load {self.name}.contact_stiffness", self.contact_stiffness,
                         CONTACT_STIFFNESS_RANGE[0], CONTACT_STIFFNESS_RANGE[1], unit="N/m")
+        orient = self.strike_orientations
+        if not isinstance(orient, tuple) or not orient:
+            raise ModelError(f"load {self.name}.strike_orientations", orient,
+                             "one or more of " + ", ".join(STRIKE_ORIENTATIONS))
+        for o in orient:
+            check_choice(f"load {self.name}.strike_orientations", o, STRIKE_ORIENTATIONS)
+        if len(set(orient)) != len(orient):
+            raise ModelError(f"load {self.name}.strike_orientations", orient,
+                             "each orientation once")
+        check_text(f"load {self.name}.strike_reason", self.strike_reason, max_len=400)
+        if set(orient) != set(STRIKE_ORIENTATIONS) and not self.strike_reason.strip():
+            raise ModelError(f"load {self.name}.strike_reason", self.strike_reason,
+                             "a reason when not every strike orientation (flat, edge, "
+                             "corner) is checked")
+        check_range(f"load {self.name}.edge_width", self.edge_width, 0.002, 1.0, unit="m")
+        if self.hard is not None and not isinstance(self.hard, bool):
+            raise ModelError(f"load {self.name}.hard", self.hard, "true, false or none")
 
     @property
     def weight(self) -> float:
@@ -396,7 +442,12 @@ class LiftZone:
     counter-clockwise from ``slew_start`` to ``slew_end`` (rad, from +x); equal
     angles mod 2π mean a full circle. If ``corridor`` (polygon, ≥ 3 points) is
     given, the region is the sector intersected with the corridor. The region
-    is widened by ``drift_margin`` (m) for load swing.
+    is widened by a drift margin for where a released load lands:
+    ``drift_mode = "given"`` uses ``drift_margin`` (m) as entered;
+    ``"computed"`` works it out (``droprig.solver.drift``) from ``slew_speed``
+    (rad/s), ``hoist_speed`` (lowering, m/s), ``radial_speed`` (luffing or
+    trolleying, m/s) and the pendulum swing (``swing_angle``, rad, on a rope of
+    ``swing_length``, m).
     """
 
     id: str
@@ -410,6 +461,12 @@ class LiftZone:
     drift_margin: float = 0.5
     corridor: tuple[Point, ...] = ()
     loads: tuple[LiftLoad, ...] = ()
+    drift_mode: DriftMode = "given"
+    slew_speed: float = 0.0
+    hoist_speed: float = 0.0
+    radial_speed: float = 0.0
+    swing_angle: float = 0.0
+    swing_length: float = 0.0
 
     def __post_init__(self) -> None:
         check_text("zone.id", self.id, required=True, max_len=32)
@@ -424,15 +481,30 @@ class LiftZone:
         check_finite(f"zone {self.id}.slew_start", self.slew_start, "rad")
         check_finite(f"zone {self.id}.slew_end", self.slew_end, "rad")
         check_range(f"zone {self.id}.drift_margin", self.drift_margin, 0.0, 20.0, unit="m")
+        if len(self.loads) > bounds.MAX_LOADS_PER_ZONE:
+            raise ModelError(f"zone {self.id}.loads", len(self.loads),
+                             f"at most {bounds.MAX_LOADS_PER_ZONE} loads in one lift zone")
+        if len(self.corridor) > bounds.MAX_CORRIDOR_CORNERS:
+            raise ModelError(f"zone {self.id}.corridor", len(self.corridor),
+                             f"at most {bounds.MAX_CORRIDOR_CORNERS} corners: simplify the "
+                             "corridor (a few corners follow a real lift path)")
+        check_choice(f"zone {self.id}.drift_mode", self.drift_mode, ("given", "computed"))
+        # crane slew up to ~3 rev/min, hoist and radial speeds up to 5 m/s
+        # (common practice, no source)
+        check_range(f"zone {self.id}.slew_speed", self.slew_speed, 0.0, 0.35, unit="rad/s")
+        check_range(f"zone {self.id}.hoist_speed", self.hoist_speed, 0.0, 5.0, unit="m/s")
+        check_range(f"zone {self.id}.radial_speed", self.radial_speed, 0.0, 5.0, unit="m/s")
+        check_range(f"zone {self.id}.swing_angle", self.swing_angle, 0.0, math.radians(30.0),
+                    unit="rad")
+        check_range(f"zone {self.id}.swing_length", self.swing_length, 0.0, 300.0, unit="m")
         if self.corridor and len(self.corridor) < 3:
             raise ModelError(f"zone {self.id}.corridor", len(self.corridor),
                              "no corridor, or a polygon of at least 3 points")
         for i, p in enumerate(self.corridor):
             _check_point(f"zone {self.id}.corridor[{i}]", p)
-        names = [ld.name for ld in self.loads]
-        dup = {n for n in names if names.count(n) > 1}
-        if dup:
-            raise ModelError(f"zone {self.id}.loads", sorted(dup)[0], "unique load names")
+        dup = _repeated(ld.name for ld in self.loads)
+        if dup is not None:
+            raise ModelError(f"zone {self.id}.loads", dup, "unique load names")
 
     @property
     def slew_sweep(self) -> float:
@@ -511,20 +583,23 @@ class Project:
     protection_areas: tuple[ProtectionArea, ...] = ()
 
     def __post_init__(self) -> None:
+        bounds.check_counts(self)
         level_ids = [lv.id for lv in self.levels]
+        known = set(level_ids)
         for kind, ids in (("levels", level_ids), ("lift_zones", [z.id for z in self.lift_zones]),
                           ("protection_areas", [p.id for p in self.protection_areas])):
-            dup = {i for i in ids if ids.count(i) > 1}
-            if dup:
-                raise ModelError(kind, sorted(dup)[0], "unique ids")
+            dup = _repeated(ids)
+            if dup is not None:
+                raise ModelError(kind, dup, "unique ids")
         for z in self.lift_zones:
-            if z.level_id not in level_ids:
+            if z.level_id not in known:
                 raise ModelError(f"zone {z.id}.level_id", z.level_id,
                                  "the id of a level: " + ", ".join(level_ids))
         for p in self.protection_areas:
-            if p.level_id not in level_ids:
+            if p.level_id not in known:
                 raise ModelError(f"protection {p.id}.level_id", p.level_id,
                                  "the id of a level: " + ", ".join(level_ids))
+        bounds.check_drop_points(self)
 
     def level(self, level_id: str) -> Level:
         for lv in self.levels:

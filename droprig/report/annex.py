@@ -44,6 +44,7 @@ from droprig.solver import (
     Results,
     Trace,
     TraceStep,
+    is_hard,
     member_resistances,
 )
 
@@ -1017,6 +1018,18 @@ class _Builder:
                 ])
         self.story.append(_table(rows, [0.06 * w, 0.14 * w, 0.07 * w, 0.08 * w, 0.15 * w,
                                         0.12 * w, 0.11 * w, 0.08 * w, 0.09 * w, 0.1 * w]))
+        hard = [(z, ld) for z in self.zones for ld in z.loads if is_hard(ld)]
+        if hard:
+            self.story.append(self.P("Hard items: local damage of the deck", st.h2))
+            for z, ld in hard:
+                left = [o for o in ("flat", "edge", "corner")
+                        if o not in ld.strike_orientations]
+                why = (f"; {', '.join(left)} left out: {esc(ld.strike_reason)}"
+                       if left else "")
+                self.story.append(self.P(
+                    f"{esc(z.id)} / {esc(ld.name)}: checked striking "
+                    f"{', '.join(ld.strike_orientations)}{why}; edge bearing width "
+                    f"{self.v(ld.edge_width, 'small_length')}."))
         prot = [p for p in self.p.protection_areas
                 if p.level_id in {z.level_id for z in self.zones}]
         self.story.append(self.P("Pads and mats", st.h2))

@@ -63,6 +63,16 @@ def _hatch(group: Group, style: OutcomeStyle, x0: float, y0: float, x1: float, y
         for slope in slopes:
             for xa, ya, xb, yb in hatch_segments(x0, y0, x1, y1, spacing, slope):
                 group.add(Line(xa, ya, xb, yb, strokeColor=ink, strokeWidth=0.45 * scale))
+    elif style.hatch == "grid":
+        spacing = 3.5 * scale
+        xs = x0 + spacing
+        while xs < x1:
+            group.add(Line(xs, y0, xs, y1, strokeColor=ink, strokeWidth=0.45 * scale))
+            xs += spacing
+        ys = y0 + spacing
+        while ys < y1:
+            group.add(Line(x0, ys, x1, ys, strokeColor=ink, strokeWidth=0.45 * scale))
+            ys += spacing
     elif style.hatch == "dots":
         step = 6.0 * scale
         nx, ny = int((x1 - x0) / step), int((y1 - y0) / step)

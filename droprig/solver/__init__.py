@@ -9,16 +9,22 @@ names from ``droprig.solver`` and nothing from its modules
 * :func:`assess_member` — one member struck by one dropped load (``droprig check``);
 * :func:`member_resistances`, :func:`check_framing`, :func:`on_rigid_support` —
   framing questions without a drop;
+* :func:`resolve_drift`, :func:`zone_drift_margin` — the landing drift margin of a
+  lift zone (computed from the crane's motion, or as entered); :func:`is_hard` —
+  whether a load is checked for local damage of the deck;
 * the result types and their code tables.
 """
 
-from droprig.solver.analysis import analyse
+from droprig.solver.analysis import analyse, floor_model
+from droprig.solver.cancel import AnalysisCancelledError, CancelToken, cancellable
+from droprig.solver.drift import resolve_drift, zone_drift_margin
 from droprig.solver.framing import (
     Resistances,
     check_framing,
     member_resistances,
     on_rigid_support,
 )
+from droprig.solver.local_damage import is_hard
 from droprig.solver.member import DEFAULT_DEFLECTION_LIMIT_RATIO, RESULT_KEYS, assess_member
 from droprig.solver.results import (
     ADVICE_KINDS,
@@ -26,10 +32,12 @@ from droprig.solver.results import (
     DECK,
     ELASTIC,
     EXCEEDS,
+    PERFORATES,
     PLASTIC,
     RESPONSES,
     AdviceKind,
     BaySummary,
+    Cascade,
     CaseResult,
     Results,
     Trace,
@@ -44,11 +52,15 @@ __all__ = [
     "DEFAULT_DEFLECTION_LIMIT_RATIO",
     "ELASTIC",
     "EXCEEDS",
+    "PERFORATES",
     "PLASTIC",
     "RESPONSES",
     "RESULT_KEYS",
     "AdviceKind",
+    "AnalysisCancelledError",
     "BaySummary",
+    "CancelToken",
+    "Cascade",
     "CaseResult",
     "Resistances",
     "Results",
@@ -56,8 +68,13 @@ __all__ = [
     "TraceStep",
     "analyse",
     "assess_member",
+    "cancellable",
     "check_framing",
+    "floor_model",
+    "is_hard",
     "member_resistances",
     "on_rigid_support",
+    "resolve_drift",
     "trace_point",
+    "zone_drift_margin",
 ]

@@ -46,15 +46,17 @@ The drop points are the zone grid plus the points that can govern
 from __future__ import annotations
 
 from collections.abc import Callable
+from dataclasses import replace
 
 import numpy as np
 
 from droprig.model import Level, LiftLoad, LiftZone, Project, corridor_problem
-from droprig.solver import droppoints, evaluate, memory, refine
+from droprig.solver import cancel, cascade, droppoints, evaluate, memory, refine
 from droprig.solver.chain import FIELDS
+from droprig.solver.drift import resolve_drift
 from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_model
 from droprig.solver.geometry import Geometry, point_geometry
-from droprig.solver.results import BaySummary, CaseResult, Results
+from droprig.solver.results import PERFORATES, BaySummary, Cascade, CaseResult, Results
 from droprig.solver.summary import Advice, bay_advice, summarise
 
 __all__ = [
@@ -79,8 +81,11 @@ def _planned_height(load: LiftLoad, level: Level) -> float:
 def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
                  res: dict[str, np.ndarray]) -> CaseResult:
     arrays = {k: np.ascontiguousarray(res[k]) for k in FIELDS}
-    for k in ("bay", "protection", "governing_member", "governing_check", "response"):
+    for k in ("bay", "protection", "governing_member", "governing_check", "response",
+              "strike_orientation"):
         arrays[k] = arrays[k].astype(np.int64)
+    for k in ("scabbing", "local_extrapolated"):
+        arrays[k] = arrays[k].astype(bool)
     return CaseResult(zone_id=zone.id, load_name=load.name, level_id=level.id,
                       mass=load.mass, weight=load.weight,
                       planned_drop_height=_planned_height(load, level), **arrays)
@@ -90,6 +95,8 @@ def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
 def analyse_zone(project: Project, zone_id: str,
                  floor: Callable[[str], FloorModel] | None = None) -> Results:
     """Every load of one lift zone (see :func:`analyse`)."""
+    cancel.check()
+    project = resolve_drift(project)
     floor = floor or floor_cache(project)
     zone = project.zone(zone_id)
     fm = floor(zone.level_id)
@@ -113,16 +120,112 @@ def analyse_zone(project: Project, zone_id: str,
                         f"{level.id}; drops there are not assessed by droprig")
     cases = []
     summaries: list[BaySummary] = []
+    falls: list[Cascade] = []
+    below = cascade.level_below(project, level.id)
     allres = refine.zone_points(fm, project, zone, (x, y)) if zone.loads else {}
+    if zone.loads:
+        confirm_plastic_heights(fm, project, zone, allres)
     for j, load in enumerate(zone.loads):
         sel = allres["load_index"] == j
         res = {k: v[sel] for k, v in allres.items()}
         case = _case_result(zone, load, level, res)
         cases.append(case)
-        summaries.extend(summarise(level, zone, load, case, res["F_allow"]))
+        summaries.extend(summarise(level, zone, load, case, res["F_allow"],
+                                   below.id if below is not None else None))
+        if below is not None:
+            fall = _cascade(project, zone, load, case, below, floor)
+            if fall is not None:
+                falls.append(fall)
     if not zone.loads:
         warnings.append(f"zone {zone.id}: no loads to assess")
-    return Results(tuple(cases), tuple(summaries), tuple(warnings))
+    warnings.extend(useless_layers(project, zone))
+    return Results(tuple(cases), tuple(summaries), tuple(warnings), tuple(falls))
+
+
+def _cascade(project: Project, zone: LiftZone, load: LiftLoad, case: CaseResult,
+             below: Level, floor: Callable[[str], FloorModel]) -> Cascade | None:
+    """The level below a perforated deck, struck at the perforating points by the
+    same load from the equivalent height h_eq = V_r²/(2g) + Δ (the largest over
+    those points; :mod:`droprig.solver.cascade`), assessed in the same run with its
+    own bay outcomes. ``None`` where nothing perforates."""
+    hit = case.response == PERFORATES
+    if not hit.any():
+        return None
+    level = project.level(case.level_id)
+    h_eq = float(np.nanmax(cascade.equivalent_drop_height_below(
+        case.residual_velocity[hit], level, below)))
+    h_eq = min(max(h_eq, 0.0), 200.0)  # LiftLoad's drop-height range
+    falling = replace(load, drop_height=h_eq, hook_elevation=None)
+    fm = floor(below.id)
+    res = evaluate.evaluate_points(fm, project, [falling], case.x[hit], case.y[hit])
+    inside = res["bay"] >= 0
+    res = {k: v[inside] for k, v in res.items()}
+    lower = _case_result(zone, falling, below, res)
+    bays_below = summarise(below, zone, falling, lower, res["F_allow"],
+                           lv.id if (lv := cascade.level_below(project, below.id)) else None)
+    return Cascade(zone.id, load.name, level.id, below.id, h_eq, lower, tuple(bays_below))
+
+
+CONFIRM_FACTORS = (0.99, 1.0)
+"""Fractions of a plastic allowable height at which the forward analysis must not
+exceed before the height is reported (issue 16: evaluated at 0.99 × the height)."""
+
+_CONFIRM_BLOCK = 256
+"""Points per forward check (each point carries its own trial load)."""
+
+
+def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
+                            res: dict[str, np.ndarray]) -> None:
+    """Keep a plastic allowable height only where the forward analysis confirms it.
+
+    The plastic inverse (:func:`droprig.solver.plastic.allowable_height_plastic` with
+    the brittle checks at R_p) is an energy estimate; a height it gives above the
+    elastic one is checked by analysing each such point again with the load dropped
+    from :data:`CONFIRM_FACTORS` × that height. Where any trial exceeds, the height
+    falls back to the elastic allowable height (closed form, Gere §9.10), so no
+    reported height claims a margin the forward analysis does not give (issue 16).
+    In place on ``res`` (the rows of :func:`droprig.solver.refine.zone_points`)."""
+    from droprig.solver.results import EXCEEDS
+
+    h_pl = res["allowable_drop_height_plastic"]
+    h_el = res["allowable_drop_height"]
+    idx = np.flatnonzero(np.isfinite(h_pl) & ~(h_pl <= h_el))
+    if idx.size == 0:
+        return
+    loads = list(zone.loads)
+    ok = np.ones(idx.size, dtype=bool)
+    for s0 in range(0, idx.size, _CONFIRM_BLOCK):
+        cancel.check()
+        part = idx[s0:s0 + _CONFIRM_BLOCK]
+        geo = point_geometry(fm, project, res["x"][part], res["y"][part])
+        for factor in CONFIRM_FACTORS:
+            trial = [replace(loads[int(j)], drop_height=min(factor * float(hp), 200.0),
+                             hook_elevation=None, hang_length=0.0)
+                     for j, hp in zip(res["load_index"][part], h_pl[part], strict=True)]
+            r = evaluate.evaluate_case(fm, project, trial, geo, np.arange(part.size))
+            ok[s0:s0 + part.size] &= r["response"] != EXCEEDS
+    bad = idx[~ok]
+    if bad.size:
+        h_pl = h_pl.copy()
+        h_pl[bad] = h_el[bad]
+        res["allowable_drop_height_plastic"] = h_pl
+
+
+def useless_layers(project: Project, zone: LiftZone) -> list[str]:
+    """Warnings for crushable layers on the zone's level whose crush force is at most
+    a load's weight: the layer crushes under the load's own weight and protects
+    nothing (its stroke adds to the fall; common practice, no source)."""
+    out = []
+    for pa in project.protection_areas:
+        if pa.level_id != zone.level_id or pa.kind != "crushable" or pa.crush_force is None:
+            continue
+        for ld in zone.loads:
+            if pa.crush_force <= ld.weight:
+                out.append(f"protection {pa.id}: its crush force ({pa.crush_force:g} N) is "
+                           f"not above the weight of {ld.name} in zone {zone.id} "
+                           f"({ld.weight:.0f} N); the layer crushes under the load alone "
+                           "and gives no protection from it")
+    return out
 
 
 def analyse(project: Project) -> Results:
@@ -133,15 +236,18 @@ def analyse(project: Project) -> Results:
     :class:`~droprig.model.ModelError` for framing the method cannot assess (a member
     end resting on nothing, members resting on each other in a loop).
     """
+    project = resolve_drift(project)
     floor = floor_cache(project)
     cases: list[CaseResult] = []
     summaries: list[BaySummary] = []
     warnings: list[str] = []
+    falls: list[Cascade] = []
     for zone in project.lift_zones:
         r = analyse_zone(project, zone.id, floor)
         cases.extend(r.cases)
         summaries.extend(r.bays)
+        falls.extend(r.cascade)
         warnings.extend(w for w in r.warnings if w not in warnings)
     if sum(c.x.size for c in cases) > evaluate.CACHE_MAX_POINTS:
         memory.release_memory()  # hand the temporaries of a large job back
-    return Results(tuple(cases), tuple(summaries), tuple(warnings))
+    return Results(tuple(cases), tuple(summaries), tuple(warnings), tuple(falls))

@@ -30,6 +30,11 @@ returns a small frozen dataclass of numpy arrays, one value per point:
    (:mod:`~droprig.solver.plastic`), on sections able to form a hinge only.
 8. :func:`inverse_answers` → :class:`InverseAnswers`: allowable drop heights, mass,
    mat stiffness, crush stroke (:mod:`~droprig.solver.limits`).
+9. :func:`local_damage` → :class:`LocalDamage`: penetration, scabbing and perforation
+   of the bare deck by a hard load, flat, on an edge and on a corner, the worst
+   governing (modified NDRC + Kennedy, UKAEA/Barr, Chang;
+   :mod:`~droprig.solver.local_damage`); a point that perforates reads
+   ``perforates`` whatever the framing does.
 
 :func:`run_chain` runs :data:`STEPS` in order; :func:`outputs` writes the
 :class:`~droprig.solver.results.CaseResult` arrays from a chain. A new physics step is
@@ -61,11 +66,12 @@ from droprig.solver import (
     slab,
 )
 from droprig.solver import impact as impact_mod
+from droprig.solver import local_damage as local_damage_mod
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry
 from droprig.solver.linear_checks import Check, Family, small_check
 from droprig.solver.loadpath import COND_NAMES
-from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PLASTIC
+from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PERFORATES, PLASTIC
 from droprig.solver.unit_actions import (
     UnitActions,
     argmax_nan_low,
@@ -86,6 +92,7 @@ __all__ = [
     "Impact",
     "InverseAnswers",
     "LoadInputs",
+    "LocalDamage",
     "StruckMass",
     "outputs",
     "run_chain",
@@ -101,14 +108,17 @@ FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
           "deceleration_g", "utilisation", "governing_member", "governing_check",
           "response", "allowable_drop_height", "allowable_drop_height_plastic",
           "allowable_mass", "plastic_deflection", "ductility", "support_rotation",
-          "required_mat_stiffness", "required_crush_stroke")
+          "required_mat_stiffness", "required_crush_stroke", "penetration", "scabbing",
+          "scabbing_height", "perforation_height", "residual_velocity",
+          "local_extrapolated", "strike_orientation")
 """The :class:`~droprig.solver.results.CaseResult` arrays, in order."""
 
 _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
                     "max_deflection", "deceleration_g", "allowable_drop_height",
                     "allowable_drop_height_plastic", "allowable_mass",
                     "plastic_deflection", "ductility", "support_rotation",
-                    "required_mat_stiffness", "required_crush_stroke")
+                    "required_mat_stiffness", "required_crush_stroke", "penetration",
+                    "scabbing_height", "perforation_height", "residual_velocity")
 
 
 # --------------------------------------------------------------------------- the runner
@@ -797,6 +807,20 @@ class InverseAnswers:
     Ub_Rp: np.ndarray
 
 
+def with_crush_energy(h_allow: np.ndarray, where: np.ndarray, F_c: np.ndarray,
+                      s_c: np.ndarray, W: np.ndarray, eta: np.ndarray) -> np.ndarray:
+    """An allowable height over a crushable layer that bottoms out, m: the layer takes
+    (F_c − W)·s_c of the energy ηWh (:func:`droprig.solver.impact.impact_crushable`,
+    case 3, solved for h: h = h_allow + (F_c − W)·s_c/(ηW)). A layer weaker than the
+    load's weight (F_c ≤ W) crushes under the weight alone and *adds* (W − F_c)·s_c:
+    the height shrinks, and where it would fall below 0 no height is allowed (nan),
+    so an inverse answer never claims a margin the forward chain does not give."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        bonus = np.where(where, (F_c - W) * s_c / (eta * W), 0.0)
+        out = h_allow + bonus
+    return np.where(np.isfinite(out) & (out >= 0.0), out, np.nan)
+
+
 def inverse_answers(c: Chain) -> InverseAnswers:
     """Gere Eq. 9-94 solved for h, M, k and a crush stroke
     (:mod:`droprig.solver.limits`); beyond yield the energy balance at the ductility
@@ -809,9 +833,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     F_allow, R_p, f_s, f = ck.F_allow, by.R_p, comp.f_s, comp.f
     Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
-    crush_bonus = np.where(crushable & (F_c <= F_allow) & (F_c > W),
-                           (F_c - W) * s_c / (eta * W), 0.0)
-    h_el = h_el + crush_bonus
+    h_el = with_crush_energy(h_el, crushable & (F_c <= F_allow), F_c, s_c, W, eta)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
     for u in ck.Ub_at_Rp[1:]:
@@ -822,19 +844,79 @@ def inverse_answers(c: Chain) -> InverseAnswers:
         d_lim_s = np.minimum(s.ductility_limit * R_p * f_s, d_rot)
         mu_tot = (d_lim_s + R_p * comp.f_series) / (R_p * f)
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
-    h_pl = h_pl + np.where(crushable & (F_c < R_p) & (F_c > W),
-                           (F_c - W) * s_c / (eta * W), 0.0)
+    h_pl = with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
     h_pl = np.fmax(h_pl, h_el)
     m_allow = limits.allowable_mass(Fa_pos, inp.h, f, sm.m_e)
-    k_req = limits.required_mat_stiffness(W, inp.h, eta, Fa_pos, comp.f_struct)
+    # advice for a mat or a layer still to be laid: under it η = 1 (the framing's mass
+    # share is not taken, as in the forward chain), not the bare deck's η (issue 16)
+    k_req = limits.required_mat_stiffness(W, inp.h, 1.0, Fa_pos, comp.f_struct)
     k_req = np.where(np.isfinite(k_req) & (by.response != ELASTIC), k_req, np.nan)
-    s_req = limits.required_crush_stroke(W, inp.h, eta, Fa_pos, comp.f_struct)
+    s_req = limits.required_crush_stroke(W, inp.h, 1.0, Fa_pos, comp.f_struct)
     s_req = np.where((by.response != ELASTIC) & np.isfinite(s_req), s_req, np.nan)
     return InverseAnswers(h_el=h_el, h_pl=h_pl, m_allow=m_allow, k_req=k_req, s_req=s_req,
                           Ub_Rp=Ub_Rp)
+
+
+# --------------------------------------------------------------------------- 9. local damage
+@dataclass(frozen=True, eq=False)
+class LocalDamage:
+    """Per point: local damage of the bare deck by a hard load (worst of its strike
+    orientations; :func:`~droprig.solver.local_damage.load_local_damage`).
+    ``assessed``: a hard load on bare deck (no mat or crushable layer, no opening, no
+    declared soft underside). ``penetration`` (m), ``scabbing`` / ``perforation``
+    (bool), ``h_scab`` / ``h_perf`` (free fall at which each starts, m),
+    ``v_res`` (m/s after perforation), ``extrapolated`` (outside the formulas'
+    test speeds) and ``orientation`` (index into ``STRIKE_ORIENTATIONS``, −1 where
+    not assessed); nan / False elsewhere."""
+
+    assessed: np.ndarray
+    penetration: np.ndarray
+    scabbing: np.ndarray
+    perforation: np.ndarray
+    h_scab: np.ndarray
+    h_perf: np.ndarray
+    v_res: np.ndarray
+    extrapolated: np.ndarray
+    orientation: np.ndarray
+
+
+def local_damage(c: Chain) -> LocalDamage:
+    """:class:`LocalDamage` of the drop: each hard load
+    (:func:`~droprig.solver.local_damage.is_hard`) at its points on bare deck, free
+    fall ``LoadInputs.h``, the level's deck (full depth, its concrete and bottom
+    bars). Under a mat or a crushable layer the layer spreads the strike and the
+    deck is not assessed for local damage here (the contact checks judge it)."""
+    d, inp = c.drop, c[LoadInputs]
+    n = d.n
+    nan = np.full(n, np.nan)
+    out = {"assessed": np.zeros(n, dtype=bool), "penetration": nan.copy(),
+           "scabbing": np.zeros(n, dtype=bool), "perforation": np.zeros(n, dtype=bool),
+           "h_scab": nan.copy(), "h_perf": nan.copy(), "v_res": np.zeros(n),
+           "extrapolated": np.zeros(n, dtype=bool),
+           "orientation": np.full(n, -1, dtype=np.int64)}
+    bare = (inp.t_mat <= 0.0) & ~inp.crushable & ~d.geo.opening
+    deck_ = d.fm.level.deck
+    for j, load in enumerate(d.loads):
+        if not local_damage_mod.is_hard(load):
+            continue
+        sel = bare & (d.li == j) if len(d.loads) > 1 else bare
+        if not sel.any():
+            continue
+        r = local_damage_mod.load_local_damage(load, deck_, inp.h[sel])
+        orient = np.array([local_damage_mod.ORIENTATIONS.index(o) for o in r.orientations])
+        out["assessed"][sel] = True
+        out["penetration"][sel] = r.penetration
+        out["scabbing"][sel] = r.scabbing
+        out["perforation"][sel] = r.perforation
+        out["h_scab"][sel] = r.h_scabbing
+        out["h_perf"][sel] = r.h_perforation
+        out["v_res"][sel] = r.v_residual
+        out["extrapolated"][sel] = r.extrapolated
+        out["orientation"][sel] = orient[r.governing]
+    return LocalDamage(**out)
 
 
 # --------------------------------------------------------------------------- run
@@ -847,6 +929,7 @@ STEPS: tuple[Callable[[Chain], object], ...] = (
     checks,
     beyond_yield,
     inverse_answers,
+    local_damage,
 )
 """The steps of the chain, in order (each reads only the results before it)."""
 
@@ -864,7 +947,7 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
     field names, and ``F_allow`` (N); at a deck opening the load falls through
     (U = ∞, exceeds, governing check ``opening``, no other value)."""
     d, inp, sm, imp = c.drop, c[LoadInputs], c[StruckMass], c[Impact]
-    ck, by, inv = c[Checks], c[BeyondYield], c[InverseAnswers]
+    ck, by, inv, ld = c[Checks], c[BeyondYield], c[InverseAnswers], c[LocalDamage]
     geo = d.geo
     out = {
         "x": geo.x, "y": geo.y, "bay": geo.bay, "protection": geo.protection,
@@ -877,7 +960,13 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "allowable_mass": inv.m_allow, "plastic_deflection": by.plastic_deflection,
         "ductility": by.ductility_out, "support_rotation": by.rotation_out,
         "required_mat_stiffness": inv.k_req, "required_crush_stroke": inv.s_req,
+        "penetration": ld.penetration, "scabbing": ld.scabbing,
+        "scabbing_height": ld.h_scab, "perforation_height": ld.h_perf,
+        "residual_velocity": ld.v_res, "local_extrapolated": ld.extrapolated,
+        "strike_orientation": ld.orientation,
     }
+    if ld.perforation.any():
+        out["response"] = np.where(ld.perforation, PERFORATES, out["response"])
     op = geo.opening
     if op.any():
         for k in _NONE_AT_OPENING:

@@ -32,7 +32,9 @@ load so that memory stays bounded."""
 OUTPUTS = (*FIELDS, "F_allow")
 """The keys of :func:`evaluate_case`'s result."""
 
-_INTS = {"bay", "protection", "governing_member", "governing_check", "response"}
+_INTS = {"bay", "protection", "governing_member", "governing_check", "response",
+         "strike_orientation"}
+_BOOLS = {"scabbing", "local_extrapolated"}
 
 
 def _loads(load: LiftLoad | Sequence[LiftLoad]) -> tuple[LiftLoad, ...]:
@@ -70,7 +72,8 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     n = geo.x.size
     memory.keep_freed_memory()
     if n == 0:
-        return {k: np.zeros(0, dtype=np.int64 if k in _INTS else float) for k in OUTPUTS}
+        return {k: np.zeros(0, dtype=np.int64 if k in _INTS else bool if k in _BOOLS
+                            else float) for k in OUTPUTS}
     chunk = loadpath_chunk()
     with np.errstate(all="ignore"):
         if n <= chunk:

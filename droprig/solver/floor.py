@@ -16,7 +16,7 @@ from typing import Any
 import numpy as np
 
 from droprig.model import Level, ModelError, Project, Settings
-from droprig.solver import beam, capacity, composite, contact, deck, impact
+from droprig.solver import beam, cancel, capacity, composite, contact, deck, impact
 from droprig.solver.candidates import CandidateTables, candidate_tables
 from droprig.solver.loadpath import COND_NAMES, Frame, build_frame, tributary_widths
 
@@ -132,6 +132,8 @@ def build_floor(level: Level, settings: Settings) -> FloorModel:
             M0_sup[ip, jp] = existing_moment(frame, w0, P0, int(mm), frame.pair_sup_x[ip, jp])
     # members already over capacity under the existing loads alone
     for k, m in enumerate(level.members):
+        if k % 64 == 0:
+            cancel.check()  # stops a cancelled analysis (solver/cancel.py)
         xs = np.linspace(0.0, frame.L[k], 21)
         M_ex = np.max(np.abs(existing_moment(frame, w0, P0, k, xs)))
         if M_ex > Mr[k] or np.max(V0[k]) > Vr[k]:

@@ -34,6 +34,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
+from dataclasses import dataclass
 from typing import Any
 
 import numpy as np
@@ -151,6 +152,53 @@ def assess_member(
     edges compare ``max_deflection`` with span/N themselves). Raises
     :class:`~droprig.model.ModelError` naming the argument for inputs outside range.
     """
+    _check_inputs(cond, basis, L, a, mass, h, bearing, udl, cushion_stiffness,
+                  load_stiffness, crush_force, crush_stroke, deflection_limit_ratio,
+                  ductility_limit, rotation_limit)
+    st = _strike(section, grade, cond, L, a, mass, h, basis, phi, dif, bearing,
+                 cushion_stiffness, load_stiffness, crush_force, crush_stroke, udl,
+                 self_weight, beam_mass, ductility_limit, rotation_limit)
+    F_el = _impact_force(st)
+    acts = _Actions(st)
+    U_el = acts.utilisations(F_el)
+    gov_el = max(U_el, key=lambda k: U_el[k])
+    F_allow = {k: _solve_increasing(fn) for k, fn in acts.u_fun.items()}
+    h_allow = _elastic_height(st, min(F_allow.values()))
+    hinge_ok = capacity.plastic_hinge_capable(section, grade, basis)
+    R_p = float(beam.plastic_collapse_load_udl(cond, L, a, acts.Mr, st.w0)) if hinge_ok \
+        else math.nan
+    out: dict[str, Any] = dict.fromkeys(RESULT_KEYS)
+    out["static_deflection"] = st.d_st
+    out["dynamic_factor"] = F_el / st.W
+    out["effective_mass"] = st.m_e
+    out["allowable_drop_height"] = h_allow
+    if U_el["flexure"] <= 1.0 or not hinge_ok:
+        out["peak_force"] = F_el
+        out["max_moment"] = acts.moment(F_el)
+        out["max_shear"] = acts.shear(F_el)
+        out["max_deflection"] = acts.deflection_at(F_el)
+        out["utilisation"] = U_el[gov_el]
+        out["governing_check"] = gov_el
+        out["response"] = "elastic" if U_el[gov_el] <= 1.0 else "exceeds"
+    else:
+        out.update(_beyond_yield(st, acts, F_el, U_el["flexure"], R_p))
+    plastic_usable = hinge_ok and min(F_allow[k] for k in BRITTLE_CHECKS) >= R_p
+    if plastic_usable:
+        out["allowable_drop_height_plastic"] = _plastic_height(st, R_p, h_allow)
+    out["deceleration_g"] = float(impact.deceleration_g(out["peak_force"], st.W))
+    for k in RESULT_KEYS:
+        if k not in ("governing_check", "response"):
+            out[k] = _clean(out[k])
+    return out
+
+
+def _check_inputs(cond: str, basis: str, L: float, a: float, mass: float, h: float,
+                  bearing: float, udl: float, cushion_stiffness: float | None,
+                  load_stiffness: float | None, crush_force: float | None,
+                  crush_stroke: float | None, deflection_limit_ratio: float,
+                  ductility_limit: float, rotation_limit: float) -> None:
+    """Raise :class:`~droprig.model.ModelError` naming the first argument outside its
+    range (the names of the ``droprig check`` options)."""
     if cond not in beam.END_CONDITIONS:
         raise ModelError("support", cond, "one of " + ", ".join(beam.END_CONDITIONS))
     if basis not in capacity.BASES:
@@ -185,6 +233,49 @@ def assess_member(
         if not (math.isfinite(val) and val >= lo):
             raise ModelError(name, val, f"≥ {lo:g}")
 
+
+@dataclass(frozen=True)
+class _Strike:
+    """One member struck at ``a`` (inputs, SI) with its compliance and struck mass:
+    ``f_s`` the member's own flexibility at a (m/N), ``f_c`` the elastic springs in
+    series (mat and the load's underside), ``f`` = f_s + f_c; ``m_e`` the struck mass
+    (kg), ``eta`` the share of kinetic energy kept; ``w0`` existing UDL (N/m)."""
+
+    section: Section
+    grade: Grade
+    cond: beam.EndCondition
+    L: float
+    a: float
+    mass: float
+    h: float
+    basis: capacity.Basis
+    phi: float
+    dif: float
+    bearing: float
+    crush_force: float | None
+    crush_stroke: float | None
+    ductility_limit: float
+    rotation_limit: float
+    W: float
+    EI: float
+    w0: float
+    f_s: float
+    f_c: float
+    f: float
+    m_e: float
+    eta: float
+    d_st: float
+
+
+def _strike(section: Section, grade: Grade, cond: beam.EndCondition, L: float, a: float,
+            mass: float, h: float, basis: capacity.Basis, phi: float, dif: float,
+            bearing: float, cushion_stiffness: float | None, load_stiffness: float | None,
+            crush_force: float | None, crush_stroke: float | None, udl: float,
+            self_weight: bool, beam_mass: bool, ductility_limit: float,
+            rotation_limit: float) -> _Strike:
+    """Compliance (AISC Manual Table 3-23 via :func:`beam.green`; springs in series,
+    Gere §9.10) and struck mass (:func:`impact.struck_point_mass`, η = 1 under a mat or
+    a crushable layer)."""
     g = impact.G
     W = mass * g
     EI = grade.E * section.Ix
@@ -192,8 +283,6 @@ def assess_member(
     w0 = (mu_l * g if self_weight else 0.0) + udl
     crushable = crush_force is not None
     cushioned = cushion_stiffness is not None or crushable
-
-    # 1. compliance, effective mass
     f_s = float(beam.green(cond, L, EI, a, a))
     # elastic springs in series with the member: the mat and the load's underside
     f_c = 1.0 / cushion_stiffness if cushion_stiffness is not None else 0.0
@@ -211,162 +300,163 @@ def assess_member(
     f_struct = f_s + (1.0 / load_stiffness if load_stiffness is not None else 0.0)
     m_e = float(impact.struck_point_mass(m_rayleigh, f_s, f_struct))
     eta = 1.0 if cushioned else float(impact.mass_efficiency(mass, m_e))
-    d_st = W * f
+    return _Strike(section, grade, cond, L, a, mass, h, basis, phi, dif, bearing,
+                   crush_force, crush_stroke, ductility_limit, rotation_limit, W, EI, w0,
+                   f_s, f_c, f, m_e, eta, W * f)
 
-    # 2. impact
-    if crushable:
-        assert crush_force is not None and crush_stroke is not None
-        F_el_arr, _, _ = impact.impact_crushable(W, h, f, eta, crush_force, crush_stroke)
-        F_el = float(F_el_arr)
-    else:
-        _, F_el_arr, _ = impact.impact_elastic(W, h, f, eta)
-        F_el = float(F_el_arr)
-    K = F_el / W
 
-    # 3. resistances and utilisations as functions of the impact force
-    Mr = capacity.flexural_resistance(section, grade, basis, phi, dif)
-    Vr = capacity.shear_resistance(section, grade, basis, phi, dif)
-    dist = max(min(a, L - a) - 0.5 * bearing, 0.0)
-    R_wy = float(capacity.web_local_yielding(section, grade, basis, bearing, dist, phi, dif))
-    R_wc = float(capacity.web_crippling(section, grade, basis, bearing, dist, phi, dif))
+def _impact_force(st: _Strike) -> float:
+    """Peak force F (N): Gere 7th ed. §9.10 Eq. 9-94 (:func:`impact.impact_elastic`) or
+    through a crushable layer (:func:`impact.impact_crushable`)."""
+    if st.crush_force is not None and st.crush_stroke is not None:
+        F_arr, _, _ = impact.impact_crushable(st.W, st.h, st.f, st.eta, st.crush_force,
+                                              st.crush_stroke)
+        return float(F_arr)
+    _, F_arr, _ = impact.impact_elastic(st.W, st.h, st.f, st.eta)
+    return float(F_arr)
 
-    def _unbounded(fn: Callable[[float], float]) -> Callable[[float], float]:
-        # an unbounded force (a bottomed layer on a rigid point) drives to inf only the
-        # actions it loads; the others keep their existing-load value
-        def wrapped(F: float) -> float:
-            if math.isfinite(F):
-                return fn(F)
-            return math.inf if fn(1.0) > fn(0.0) else fn(0.0)
-        return wrapped
 
-    @_unbounded
-    def moment(F: float) -> float:
-        return float(beam.max_abs_moment(cond, L, F, a, w0))
-
-    @_unbounded
-    def shear(F: float) -> float:
-        return float(beam.max_abs_shear(cond, L, F, a, w0))
-
-    u_fun: dict[str, Callable[[float], float]] = {
-        "flexure": lambda F: moment(F) / Mr,
-        "shear": lambda F: shear(F) / Vr,
-        "web_yielding": lambda F: F / R_wy,
-        "web_crippling": lambda F: F / R_wc,
-    }
-
-    def utilisations(F: float) -> dict[str, float]:
-        # an unbounded force (a bottomed layer on a rigid point) gives U = inf for every
-        # check it loads and leaves the others at their existing-load value
+def _unbounded(fn: Callable[[float], float]) -> Callable[[float], float]:
+    """``fn`` that, at an unbounded force (a bottomed layer on a rigid point), is ∞ for
+    an action the force loads and keeps its existing-load value for the others."""
+    def wrapped(F: float) -> float:
         if math.isfinite(F):
-            return {k: fn(F) for k, fn in u_fun.items()}
-        return {k: (math.inf if fn(1.0) > fn(0.0) else fn(0.0)) for k, fn in u_fun.items()}
+            return fn(F)
+        return math.inf if fn(1.0) > fn(0.0) else fn(0.0)
+    return wrapped
 
-    U_el = utilisations(F_el)
-    gov_el = max(U_el, key=lambda k: U_el[k])
-    F_allow = {k: _solve_increasing(fn) for k, fn in u_fun.items()}
-    F_allow_min = min(F_allow.values())
 
-    # elastic allowable drop height (force at the struck point reaches F_allow)
-    if crushable and crush_force is not None and crush_stroke is not None \
-            and crush_force < F_allow_min:
-        # the layer crushes fully, then the structure takes the rest elastically:
-        # ηWh + W(s_c + δ) = F_c·s_c + δ²/(2f), δ = F_allow·f
-        # (δ²/(2f) = F_allow²·f/2, finite also for a rigid point f = 0)
-        h_el = ((crush_force - W) * crush_stroke + 0.5 * F_allow_min**2 * f
-                - W * F_allow_min * f) / (eta * W)
-        h_allow = h_el if math.isfinite(h_el) and h_el >= 0.0 else math.nan
-    else:
-        h_allow = float(limits.allowable_drop_height_elastic(W, F_allow_min, d_st, eta))
+class _Actions:
+    """Resistances (AISC 360-16 F2/G2/J10, EN 1993-1-1 6.2.5/6.2.6, EN 1993-1-5 §6;
+    :mod:`droprig.solver.capacity`) and the member's actions at a force F (N) at a plus
+    its existing UDL (AISC Manual Table 3-23 by superposition)."""
 
-    hinge_ok = capacity.plastic_hinge_capable(section, grade, basis)
-    R_p = float(beam.plastic_collapse_load_udl(cond, L, a, Mr, w0)) if hinge_ok else math.nan
-    brittle_allow = min(F_allow[k] for k in BRITTLE_CHECKS)
-    plastic_usable = hinge_ok and brittle_allow >= R_p
+    def __init__(self, st: _Strike) -> None:
+        self.st = st
+        sec, grd, basis, phi, dif = st.section, st.grade, st.basis, st.phi, st.dif
+        self.Mr = capacity.flexural_resistance(sec, grd, basis, phi, dif)
+        self.Vr = capacity.shear_resistance(sec, grd, basis, phi, dif)
+        dist = max(min(st.a, st.L - st.a) - 0.5 * st.bearing, 0.0)
+        self.R_wy = float(capacity.web_local_yielding(sec, grd, basis, st.bearing, dist,
+                                                      phi, dif))
+        self.R_wc = float(capacity.web_crippling(sec, grd, basis, st.bearing, dist, phi,
+                                                 dif))
+        self.moment = _unbounded(
+            lambda F: float(beam.max_abs_moment(st.cond, st.L, F, st.a, st.w0)))
+        self.shear = _unbounded(
+            lambda F: float(beam.max_abs_shear(st.cond, st.L, F, st.a, st.w0)))
+        self.deflection_at = _unbounded(self._deflection)
+        self.u_fun: dict[str, Callable[[float], float]] = {
+            "flexure": lambda F: self.moment(F) / self.Mr,
+            "shear": lambda F: self.shear(F) / self.Vr,
+            "web_yielding": lambda F: F / self.R_wy,
+            "web_crippling": lambda F: F / self.R_wc,
+        }
 
-    # plastic energy balance: path = (crush layer) + series spring f_c + member (f_s, R_p)
-    def plastic_state(h_: float) -> tuple[float, float, bool]:
-        """member δm, ductility, collapsed for a drop h_."""
-        e_extra = 0.0
-        if crushable and crush_force is not None and crush_stroke is not None \
-                and crush_force < R_p:
-            # gravity work minus crush energy over the depth actually crushed
-            c = min(float(impact.crush_depth(W, h_, f, eta, crush_force)), crush_stroke)
-            e_extra = (W - crush_force) * c
-        h_eff = (eta * W * h_ + e_extra) / W
-        d_m, _, coll = plastic.plastic_response(W, max(h_eff, 0.0), 1.0, R_p, R_p * f)
-        d_member = float(d_m) - R_p * f_c
-        # no reserve left by the existing load (R_p = 0): no finite ductility
-        mu_m = d_member / (R_p * f_s) if R_p * f_s > 0 else math.inf
-        return d_member, mu_m, bool(coll)
-
-    out: dict[str, Any] = dict.fromkeys(RESULT_KEYS)
-    out["static_deflection"] = d_st
-    out["dynamic_factor"] = K
-    out["effective_mass"] = m_e
-    out["allowable_drop_height"] = h_allow
-
-    @_unbounded
-    def deflection_at(F: float) -> float:
-        x = np.linspace(0.0, L, _N_DEFLECTION_SAMPLES)
-        x = np.append(x, a)
-        y = F * beam.green(cond, L, EI, x, a) + beam.udl_deflection(cond, L, EI, w0, x)
+    def _deflection(self, F: float) -> float:
+        st = self.st
+        x = np.linspace(0.0, st.L, _N_DEFLECTION_SAMPLES)
+        x = np.append(x, st.a)
+        y = F * beam.green(st.cond, st.L, st.EI, x, st.a) + beam.udl_deflection(
+            st.cond, st.L, st.EI, st.w0, x)
         return float(np.max(np.abs(y)))
 
-    flex_over = U_el["flexure"] > 1.0
-    if not flex_over or not hinge_ok:
-        F_pk = F_el
-        out["peak_force"] = F_pk
-        out["max_moment"] = moment(F_pk)
-        out["max_shear"] = shear(F_pk)
-        out["max_deflection"] = deflection_at(F_pk)
-        out["utilisation"] = U_el[gov_el]
-        out["governing_check"] = gov_el
-        out["response"] = "elastic" if U_el[gov_el] <= 1.0 else "exceeds"
+    def utilisations(self, F: float) -> dict[str, float]:
+        """U of every check at F; an unbounded force (a bottomed layer on a rigid
+        point) gives U = ∞ for every check it loads, the others keep their
+        existing-load value."""
+        if math.isfinite(F):
+            return {k: fn(F) for k, fn in self.u_fun.items()}
+        return {k: (math.inf if fn(1.0) > fn(0.0) else fn(0.0))
+                for k, fn in self.u_fun.items()}
+
+
+def _elastic_height(st: _Strike, F_allow_min: float) -> float:
+    """Elastic allowable drop height (m): the force at the struck point reaches
+    F_allow (Gere Eq. 9-94 solved for h, :func:`limits.allowable_drop_height_elastic`;
+    through a crushable layer that crushes fully, the energy balance
+    ηWh + W(s_c + δ) = F_c·s_c + δ²/(2f), δ = F_allow·f)."""
+    W, f, eta = st.W, st.f, st.eta
+    if st.crush_force is not None and st.crush_stroke is not None \
+            and st.crush_force < F_allow_min:
+        # (δ²/(2f) = F_allow²·f/2, finite also for a rigid point f = 0)
+        h_el = ((st.crush_force - W) * st.crush_stroke + 0.5 * F_allow_min**2 * f
+                - W * F_allow_min * f) / (eta * W)
+        return h_el if math.isfinite(h_el) and h_el >= 0.0 else math.nan
+    return float(limits.allowable_drop_height_elastic(W, F_allow_min, st.d_st, eta))
+
+
+def _plastic_state(st: _Strike, R_p: float, h_: float) -> tuple[float, float, bool]:
+    """Member δm (m), ductility and collapsed for a drop h_: the path (crush layer) +
+    series spring f_c + member (f_s, R_p) elastic–perfectly-plastic (Biggs 1964,
+    :func:`plastic.plastic_response`)."""
+    W, f, eta = st.W, st.f, st.eta
+    e_extra = 0.0
+    if st.crush_force is not None and st.crush_stroke is not None and st.crush_force < R_p:
+        # gravity work minus crush energy over the depth actually crushed
+        c = min(float(impact.crush_depth(W, h_, f, eta, st.crush_force)), st.crush_stroke)
+        e_extra = (W - st.crush_force) * c
+    h_eff = (eta * W * h_ + e_extra) / W
+    d_m, _, coll = plastic.plastic_response(W, max(h_eff, 0.0), 1.0, R_p, R_p * f)
+    d_member = float(d_m) - R_p * st.f_c
+    # no reserve left by the existing load (R_p = 0): no finite ductility
+    mu_m = d_member / (R_p * st.f_s) if R_p * st.f_s > 0 else math.inf
+    return d_member, mu_m, bool(coll)
+
+
+def _beyond_yield(st: _Strike, acts: _Actions, F_el: float, U_flexure: float,
+                  R_p: float) -> dict[str, Any]:
+    """Flexure beyond its resistance on a hinge-capable section: the force is capped
+    at R_p, brittle checks are re-checked there, then collapse, ductility and support
+    rotation (:func:`plastic.support_rotation`) against the limits."""
+    out: dict[str, Any] = {}
+    F_pk = min(F_el, R_p)
+    U_pk = acts.utilisations(F_pk)
+    d_m, mu_m, collapsed = _plastic_state(st, R_p, st.h)
+    theta = float(plastic.support_rotation(d_m, st.L, st.a, st.cond)) if not collapsed \
+        else math.inf
+    out["peak_force"] = F_pk
+    out["max_moment"] = acts.moment(F_pk)
+    out["max_shear"] = acts.shear(F_pk)
+    out["utilisation"] = U_flexure
+    brittle_gov = max(BRITTLE_CHECKS, key=lambda k: U_pk[k])
+    if U_pk[brittle_gov] > 1.0:
+        out["response"], out["governing_check"] = "exceeds", brittle_gov
+        out["max_deflection"] = acts.deflection_at(F_pk)
+    elif collapsed:
+        out["response"], out["governing_check"] = "exceeds", "collapse"
     else:
-        F_pk = min(F_el, R_p)
-        U_pk = utilisations(F_pk)
-        d_m, mu_m, collapsed = plastic_state(h)
-        theta = float(plastic.support_rotation(d_m, L, a, cond)) if not collapsed else math.inf
-        out["peak_force"] = F_pk
-        out["max_moment"] = moment(F_pk)
-        out["max_shear"] = shear(F_pk)
-        out["utilisation"] = U_el["flexure"]
-        brittle_gov = max(BRITTLE_CHECKS, key=lambda k: U_pk[k])
-        if U_pk[brittle_gov] > 1.0:
-            out["response"], out["governing_check"] = "exceeds", brittle_gov
-            out["max_deflection"] = deflection_at(F_pk)
-        elif collapsed:
-            out["response"], out["governing_check"] = "exceeds", "collapse"
+        out["max_deflection"] = max(d_m, acts.deflection_at(F_pk))
+        out["plastic_deflection"] = d_m
+        out["ductility"] = mu_m
+        out["support_rotation"] = theta
+        if mu_m > st.ductility_limit:
+            out["response"], out["governing_check"] = "exceeds", "ductility"
+        elif theta > st.rotation_limit:
+            out["response"], out["governing_check"] = "exceeds", "rotation"
         else:
-            out["max_deflection"] = max(d_m, deflection_at(F_pk))
-            out["plastic_deflection"] = d_m
-            out["ductility"] = mu_m
-            out["support_rotation"] = theta
-            if mu_m > ductility_limit:
-                out["response"], out["governing_check"] = "exceeds", "ductility"
-            elif theta > rotation_limit:
-                out["response"], out["governing_check"] = "exceeds", "rotation"
-            else:
-                out["response"], out["governing_check"] = "plastic", "flexure"
-
-    # plastic allowable drop height: largest h keeping μ ≤ limit and θ ≤ limit
-    if plastic_usable and R_p > W and f_s > 0.0:
-        arm = a if cond == "cantilever" else min(a, L - a)
-        d_lim = min(ductility_limit * R_p * f_s, math.tan(rotation_limit) * arm)
-        if d_lim >= R_p * f_s:  # the limit lies beyond first yield
-            d_travel = d_lim + R_p * f_c
-            d_y = R_p * f
-            e_crush = 0.0
-            if crushable and crush_force is not None and crush_stroke is not None \
-                    and crush_force < R_p:
-                e_crush = (crush_force - W) * crush_stroke
-            h_pl = (R_p * (d_travel - 0.5 * d_y) - W * d_travel + e_crush) / (eta * W)
-            if math.isfinite(h_pl) and h_pl >= 0.0:
-                h_el = h_allow if math.isfinite(h_allow) else 0.0
-                out["allowable_drop_height_plastic"] = max(h_pl, h_el)
-
-    out["deceleration_g"] = float(impact.deceleration_g(out["peak_force"], W))
-    for k in RESULT_KEYS:
-        if k not in ("governing_check", "response"):
-            out[k] = _clean(out[k])
+            out["response"], out["governing_check"] = "plastic", "flexure"
     return out
+
+
+def _plastic_height(st: _Strike, R_p: float, h_allow: float) -> float | None:
+    """Largest drop height (m) keeping μ ≤ limit and θ ≤ limit (energy balance at the
+    limit deflection, Biggs 1964), not below the elastic one; None where the limit lies
+    before first yield or no height works."""
+    W, f_s, eta = st.W, st.f_s, st.eta
+    if not (R_p > W and f_s > 0.0):
+        return None
+    arm = st.a if st.cond == "cantilever" else min(st.a, st.L - st.a)
+    d_lim = min(st.ductility_limit * R_p * f_s, math.tan(st.rotation_limit) * arm)
+    if d_lim < R_p * f_s:  # the limit lies before first yield
+        return None
+    d_travel = d_lim + R_p * st.f_c
+    d_y = R_p * st.f
+    e_crush = 0.0
+    if st.crush_force is not None and st.crush_stroke is not None and st.crush_force < R_p:
+        e_crush = (st.crush_force - W) * st.crush_stroke
+    h_pl = (R_p * (d_travel - 0.5 * d_y) - W * d_travel + e_crush) / (eta * W)
+    if not (math.isfinite(h_pl) and h_pl >= 0.0):
+        return None
+    h_el = h_allow if math.isfinite(h_allow) else 0.0
+    return max(h_pl, h_el)

@@ -14,6 +14,8 @@ import threading
 from collections.abc import Callable
 from concurrent.futures import ThreadPoolExecutor
 
+from droprig.solver import cancel
+
 __all__ = ["MIN_PARALLEL_BLOCKS", "for_blocks", "workers"]
 
 MIN_PARALLEL_BLOCKS = 4
@@ -62,10 +64,12 @@ def for_blocks(fn: Callable[[int, int], None], n: int, block: int) -> None:
     nw = workers()
     if nw == 1 or len(starts) < MIN_PARALLEL_BLOCKS or getattr(_LOCAL, "inside", False):
         for s in starts:
+            cancel.check()
             fn(s, min(s + block, n))
         return
 
     def run(s: int) -> None:
+        cancel.check()  # a cancelled analysis stops between blocks (solver/cancel.py)
         _LOCAL.inside = True
         try:
             fn(s, min(s + block, n))

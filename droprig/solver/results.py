@@ -12,12 +12,15 @@ from typing import Literal
 
 import numpy as np
 
-RESPONSES: tuple[str, ...] = ("elastic", "plastic", "exceeds")
+RESPONSES: tuple[str, ...] = ("elastic", "plastic", "exceeds", "perforates")
 """Response states, worst last. ``elastic``: every check U ≤ 1. ``plastic``:
 only flexure exceeded, and the plastic energy balance stays within the ductility
 and rotation limits. ``exceeds``: anything else (collapse, brittle check,
-limits passed, drop through an opening)."""
-ELASTIC, PLASTIC, EXCEEDS = 0, 1, 2
+limits passed, drop through an opening). ``perforates``: a hard load may go
+through the deck (local damage, :mod:`droprig.solver.local_damage`) whatever the
+framing does. Scabbing of the soffit is a flag (``CaseResult.scabbing``), not a
+state."""
+ELASTIC, PLASTIC, EXCEEDS, PERFORATES = 0, 1, 2, 3
 
 CHECKS: tuple[str, ...] = (
     "flexure",
@@ -36,10 +39,10 @@ CHECKS: tuple[str, ...] = (
 """Names of the checks; ``governing_check`` arrays hold indices into this tuple."""
 
 AdviceKind = Literal["none", "limit_height", "mat", "limit_or_mat", "plastic_mat",
-                     "plastic_accept", "keep_clear", "opening"]
+                     "plastic_accept", "keep_clear", "opening", "level_below"]
 ADVICE_KINDS: tuple[AdviceKind, ...] = ("none", "limit_height", "mat", "limit_or_mat",
                                         "plastic_mat", "plastic_accept", "keep_clear",
-                                        "opening")
+                                        "opening", "level_below")
 """What a bay needs (``BaySummary.advice_kind``); the words are written at the
 edges (:mod:`droprig.advice`).
 
@@ -53,6 +56,9 @@ edges (:mod:`droprig.advice`).
   with the engineer's approval.
 * ``keep_clear``: exceeds and neither option works: exclusion zone.
 * ``opening``: the load can fall through a deck opening: exclusion zone.
+* ``level_below``: a hard load may perforate the deck: the level below is an
+  exclusion zone; ``height_limit`` (when offered) is the drop height under which
+  neither perforation nor scabbing starts.
 """
 
 DECK = -1
@@ -67,6 +73,14 @@ class CaseResult:
     order (``droprig.model.bays``), ``-1`` outside any bay; ``governing_member``
     indexes ``level.members`` (``DECK`` for the deck); ``protection`` indexes
     ``project.protection_areas`` (``-1`` for bare deck).
+
+    Local damage of the deck by a hard load (bare deck only; nan / False / −1 where
+    not assessed, and at every point when not given): ``penetration`` (m),
+    ``scabbing`` (bool), ``scabbing_height`` and
+    ``perforation_height`` (free fall at which each starts, m), ``residual_velocity``
+    (m/s after perforation, 0 when not perforated), ``local_extrapolated`` (bool: the
+    strike speed is outside the formulas' test range) and ``strike_orientation``
+    (index into ``droprig.model.STRIKE_ORIENTATIONS`` of the governing one).
     """
 
     zone_id: str
@@ -98,6 +112,25 @@ class CaseResult:
     support_rotation: np.ndarray
     required_mat_stiffness: np.ndarray
     required_crush_stroke: np.ndarray
+    penetration: np.ndarray = None  # type: ignore[assignment]
+    scabbing: np.ndarray = None  # type: ignore[assignment]
+    scabbing_height: np.ndarray = None  # type: ignore[assignment]
+    perforation_height: np.ndarray = None  # type: ignore[assignment]
+    residual_velocity: np.ndarray = None  # type: ignore[assignment]
+    local_extrapolated: np.ndarray = None  # type: ignore[assignment]
+    strike_orientation: np.ndarray = None  # type: ignore[assignment]
+
+    def __post_init__(self) -> None:
+        # local-damage arrays not given: "not assessed" at every point
+        n = int(self.x.shape[0])
+        fill = {"penetration": np.full(n, np.nan), "scabbing": np.zeros(n, dtype=bool),
+                "scabbing_height": np.full(n, np.nan),
+                "perforation_height": np.full(n, np.nan), "residual_velocity": np.zeros(n),
+                "local_extrapolated": np.zeros(n, dtype=bool),
+                "strike_orientation": np.full(n, -1, dtype=np.int64)}
+        for k, v in fill.items():
+            if getattr(self, k) is None:
+                object.__setattr__(self, k, v)
 
     @property
     def n(self) -> int:
@@ -115,6 +148,13 @@ class BaySummary:
     stiffest spring mat that works) and ``mat_travel`` (m, how far it must be able
     to compress); ``None`` where not offered. ``planned_drop_height`` (m): the
     load's planned free fall. Text for people: :func:`droprig.advice.advice_text`.
+
+    Local damage (hard loads): ``scabbing`` (some point of the bay may scab the
+    soffit), ``scabbing_height`` / ``perforation_height`` (least free fall at which
+    each starts in the bay, m; ``None`` where not assessed), ``local_extrapolated``
+    (the answer lies outside the formulas' test speeds), ``strike_orientation`` (the
+    governing one at the worst point) and ``level_below`` (id of the level under this
+    one in the project, ``None`` when the project does not hold it).
     """
 
     level_id: str
@@ -136,6 +176,12 @@ class BaySummary:
     mat_stiffness_max: float | None = None
     mat_travel: float | None = None
     planned_drop_height: float | None = None
+    scabbing: bool = False
+    scabbing_height: float | None = None
+    perforation_height: float | None = None
+    local_extrapolated: bool = False
+    strike_orientation: str | None = None
+    level_below: str | None = None
 
 
 @dataclass(frozen=True)
@@ -170,10 +216,30 @@ class Trace:
 
 
 @dataclass(frozen=True, eq=False)
+class Cascade:
+    """A load that perforates a deck, passed down to the level below and assessed
+    there in the same run. ``from_level``/``level_id``: the perforated level and the
+    level below; ``zone_id``, ``load_name``: the lift and load; ``equivalent_height``
+    (m): the free fall onto the level below with the same strike speed (residual
+    speed after perforation plus the clear fall, the largest over the perforating
+    points; :mod:`droprig.solver.cascade`); ``case`` and ``bays``: the level below's
+    results at the perforating points, with its own bay outcomes."""
+
+    zone_id: str
+    load_name: str
+    from_level: str
+    level_id: str
+    equivalent_height: float
+    case: CaseResult
+    bays: tuple[BaySummary, ...]
+
+
+@dataclass(frozen=True, eq=False)
 class Results:
     cases: tuple[CaseResult, ...] = ()
     bays: tuple[BaySummary, ...] = ()
     warnings: tuple[str, ...] = field(default=())
+    cascade: tuple[Cascade, ...] = field(default=())
 
     @property
     def n_points(self) -> int:

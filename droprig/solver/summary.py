@@ -11,7 +11,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from droprig.model import Level, LiftLoad, LiftZone, bays
+from droprig.model import STRIKE_ORIENTATIONS, Level, LiftLoad, LiftZone, bays
 from droprig.solver import droppoints
 from droprig.solver.floor import remember
 from droprig.solver.refine import severity
@@ -20,6 +20,7 @@ from droprig.solver.results import (
     DECK,
     ELASTIC,
     EXCEEDS,
+    PERFORATES,
     PLASTIC,
     RESPONSES,
     AdviceKind,
@@ -51,16 +52,23 @@ class Advice:
 
 
 def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
-               mat_travel: float | None = None, h_elastic: float | None = None) -> Advice:
+               mat_travel: float | None = None, h_elastic: float | None = None,
+               h_local: float | None = None) -> Advice:
     """What one bay needs: no protection, a drop-height limit ``h_allow`` (offered
     from :data:`MIN_USEFUL_HEIGHT` up, and only when the bay exceeds its limits), a
     spring mat no stiffer than ``k_mat`` (offered while it need not compress more
     than :data:`MAX_MAT_TRAVEL`), acceptance of yielding with the engineer's
     approval, or an exclusion zone (deck opening, or no option found).
     ``height_limit_yields``: the height limit lets members yield (it exceeds the
-    elastic height ``h_elastic`` by more than 1 %). SI units (m, N/m)."""
+    elastic height ``h_elastic`` by more than 1 %). A hard load that perforates the
+    deck makes the level below an exclusion zone (``level_below``), with the drop
+    height ``h_local`` under which neither scabbing nor perforation starts offered as
+    a limit. SI units (m, N/m)."""
     if n_opening:
         return Advice("opening")
+    if resp == PERFORATES:
+        hl = float(h_local) if h_local is not None and h_local >= MIN_USEFUL_HEIGHT else None
+        return Advice("level_below", height_limit=hl)
     if resp == ELASTIC:
         return Advice("none")
     h: float | None = None
@@ -90,9 +98,11 @@ def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | 
 
 
 def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
-              allowed_force: np.ndarray) -> list[BaySummary]:
+              allowed_force: np.ndarray, level_below: str | None = None
+              ) -> list[BaySummary]:
     """One :class:`BaySummary` per bay that holds drop points of ``case``
-    (``allowed_force``: the elastic F_allow of each point, N). A point on a shared grid
+    (``allowed_force``: the elastic F_allow of each point, N; ``level_below``: id of
+    the level under this one, if the project holds it). A point on a shared grid
     line or at a column counts for every bay it touches (closed bays). All bays are
     reduced at once over a (bay, point) membership matrix."""
     out: list[BaySummary] = []
@@ -131,6 +141,11 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
         # the mat carries the allowed force at its softest: travel = F_allow / k
         travel_all = np.where(Mn, allowed_force[None, :] / k_min[:, None], -np.inf).max(axis=1)
     n_open = (M & (case.governing_check == CHECKS.index("opening"))).sum(axis=1)
+    scab = (M & case.scabbing).any(axis=1)
+    extrap = (M & case.local_extrapolated).any(axis=1)
+    h_scab, _ = least(np.where(np.isnan(case.scabbing_height), np.inf, case.scabbing_height))
+    h_perf, _ = least(np.where(np.isnan(case.perforation_height), np.inf,
+                               case.perforation_height))
     for b in np.flatnonzero(count):
         i = int(gov[b])
         wst = int(worst[b])
@@ -141,7 +156,11 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
         k_mat = float(k_min[b]) if k_ok[b] else None
         travel = float(travel_all[b]) if k_ok[b] else None
         gm = int(case.governing_member[i])
-        adv = bay_advice(wst, int(n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he)
+        hs = float(h_scab[b]) if np.isfinite(h_scab[b]) else None
+        hpf = float(h_perf[b]) if np.isfinite(h_perf[b]) else None
+        adv = bay_advice(wst, int(n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he,
+                         min((v for v in (hs, hpf) if v is not None), default=None))
+        so = int(case.strike_orientation[i])
         out.append(BaySummary(
             level_id=level.id, bay_id=all_bays[b].id, zone_id=zone.id,
             load_name=load.name, n_points=int(count[b]), max_utilisation=u_b,
@@ -152,7 +171,11 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
             governing_check=CHECKS[int(case.governing_check[i])], advice_kind=adv.kind,
             height_limit=adv.height_limit, height_limit_yields=adv.height_limit_yields,
             mat_stiffness_max=adv.mat_stiffness_max, mat_travel=adv.mat_travel,
-            planned_drop_height=case.planned_drop_height))
+            planned_drop_height=case.planned_drop_height, scabbing=bool(scab[b]),
+            scabbing_height=hs, perforation_height=hpf,
+            local_extrapolated=bool(extrap[b]),
+            strike_orientation=STRIKE_ORIENTATIONS[so] if so >= 0 else None,
+            level_below=level_below))
     return out
 
 

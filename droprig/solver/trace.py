@@ -18,23 +18,26 @@ import math
 
 import numpy as np
 
-from droprig.model import ModelError, Project
+from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
 from droprig.solver import droppoints
 from droprig.solver.chain import (
     BRITTLE,
     BeyondYield,
+    Chain,
     Checks,
     Compliance,
     Demands,
     Impact,
     InverseAnswers,
     LoadInputs,
+    LocalDamage,
     StruckMass,
     outputs,
 )
+from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import evaluate_chain
-from droprig.solver.floor import floor_model
-from droprig.solver.geometry import point_geometry
+from droprig.solver.floor import FloorModel, floor_model
+from droprig.solver.geometry import Geometry, point_geometry
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, RESPONSES, Trace, TraceStep
 
@@ -81,6 +84,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     """Every step of the analysis of ``load_name`` of zone ``zone_id`` at plan point
     (x, y) in m. Raises :class:`ModelError` for an unknown zone or load, or a point
     that is not over a deck panel of the zone's level."""
+    project = resolve_drift(project)
     try:
         zone = project.zone(zone_id)
     except KeyError:
@@ -99,24 +103,8 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         raise ModelError("trace.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}")
     chain = evaluate_chain(fm, project, load, geo, detail=True)
-    inp, comp, sm, imp = chain[LoadInputs], chain[Compliance], chain[StruckMass], chain[Impact]
-    dem, ck, by, inv = chain[Demands], chain[Checks], chain[BeyondYield], chain[InverseAnswers]
-    out = outputs(chain)
-    lv = fm.level
-    members = lv.members
-    fr = fm.frame
-    steps: list[TraceStep] = []
-
-    def add(title: str, symbol: str, formula: str, inputs: dict[str, tuple[float, str]],
-            value: float, quantity: str, source: str) -> None:
-        steps.append(TraceStep(title, symbol, formula,
-                               {k: (float(v), q) for k, (v, q) in inputs.items()},
-                               float(value), quantity, source))
-
-    def mname(i: int) -> str:
-        return "deck" if i == DECK else members[int(i)].id
-
-    path = geo.path
+    sheet = _Sheet(project, fm, geo, load, chain)
+    add = sheet.add
     in_zone = bool(droppoints.in_zone(zone, xa, ya)[0])
     if not in_zone:
         add("Point outside the lift zone (traced anyway)", "d_zone",
@@ -126,8 +114,49 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     if geo.opening[0]:
         add("Deck opening: the load falls through", "U", "U = ∞ (no deck to strike)", {},
             math.inf, "dimensionless", "plan geometry")
-        return Trace(zone.id, load.name, float(x), float(y), tuple(steps), "exceeds", "deck",
-                     "opening")
+        return Trace(zone.id, load.name, float(x), float(y), tuple(sheet.steps), "exceeds",
+                     "deck", "opening")
+    _path_steps(sheet)
+    _impact_steps(sheet)
+    _check_steps(sheet)
+    _local_damage_steps(sheet)
+    by = sheet.by
+    gm = int(by.gov_member[0])
+    return Trace(zone.id, load.name, float(x), float(y), tuple(sheet.steps),
+                 RESPONSES[int(sheet.out["response"][0])], sheet.mname(gm),
+                 CHECKS[int(by.gov_check[0])])
+
+
+class _Sheet:
+    """The steps of one trace as they are written, and what they are written from."""
+
+    def __init__(self, project: Project, fm: FloorModel, geo: Geometry, load: LiftLoad,
+                 chain: Chain) -> None:
+        self.project, self.load, self.geo = project, load, geo
+        self.fr, self.members, self.path = fm.frame, fm.level.members, geo.path
+        self.inp, self.comp = chain[LoadInputs], chain[Compliance]
+        self.sm, self.imp = chain[StruckMass], chain[Impact]
+        self.dem, self.ck = chain[Demands], chain[Checks]
+        self.by, self.inv = chain[BeyondYield], chain[InverseAnswers]
+        self.out = outputs(chain)
+        self.chain, self.level = chain, fm.level
+        self.steps: list[TraceStep] = []
+
+    def add(self, title: str, symbol: str, formula: str,
+            inputs: dict[str, tuple[float, str]], value: float, quantity: str,
+            source: str) -> None:
+        self.steps.append(TraceStep(title, symbol, formula,
+                                    {k: (float(v), q) for k, (v, q) in inputs.items()},
+                                    float(value), quantity, source))
+
+    def mname(self, i: int) -> str:
+        return "deck" if i == DECK else self.members[int(i)].id
+
+
+def _path_steps(sheet: _Sheet) -> None:
+    """Load path, compliance and struck mass."""
+    add, inp, comp, sm = sheet.add, sheet.inp, sheet.comp, sheet.sm
+    load, fr, members, path = sheet.load, sheet.fr, sheet.members, sheet.path
     # ---- load path
     for k in range(2):
         m = int(path.members[0, k])
@@ -170,6 +199,13 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     add("Effective struck mass", "m_e",
         "m_e = (f_s/(f_s + f_deck + 1/k_load))²·Σ_m ∫ μ_m (w_m(x)/w_s(p))² dx",
         {}, sm.m_e[0], "mass", _SRC_RAYLEIGH)
+
+
+def _impact_steps(sheet: _Sheet) -> None:
+    """Energy balance of the impact: η, h, K, F, deflections."""
+    add, inp, comp, sm = sheet.add, sheet.inp, sheet.comp, sheet.sm
+    imp, out, project, load = sheet.imp, sheet.out, sheet.project, sheet.load
+    fr, members, path = sheet.fr, sheet.members, sheet.path
     M = load.mass
     add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",
         {"M": (M, "mass"), "m_e": (sm.m_e[0], "mass")}, sm.eta[0],
@@ -213,6 +249,14 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     add("Deceleration of the load", "a/g", "a/g = F/W − 1",
         {"F": (imp.F[0], "force"), "W": (W, "force")}, out["deceleration_g"][0],
         "dimensionless", "Newton's second law")
+
+
+def _check_steps(sheet: _Sheet) -> None:
+    """Checks, verdict, beyond yield and the inverse answers."""
+    add, mname, comp, sm = sheet.add, sheet.mname, sheet.comp, sheet.sm
+    imp, dem, ck, by = sheet.imp, sheet.dem, sheet.ck, sheet.by
+    inv, project = sheet.inv, sheet.project
+    W = sheet.load.weight
     # ---- checks
     qty = {"flexure": "moment", "shear": "force", "web_yielding": "force",
            "web_crippling": "force", "deck_flexure": "moment", "deck_punching": "force",
@@ -266,7 +310,23 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         _SRC_GERE + " solved for M")
     add("Spring mat that keeps the point elastic", "k_req", "k = 1/(f_req − f_s)", {},
         inv.k_req[0], "stiffness", "series springs; " + _SRC_GERE)
-    gm = int(by.gov_member[0])
-    return Trace(zone.id, load.name, float(x), float(y), tuple(steps),
-                 RESPONSES[int(by.response[0])], mname(gm),
-                 CHECKS[int(by.gov_check[0])])
+
+
+def _local_damage_steps(sheet: _Sheet) -> None:
+    """Penetration, scabbing and perforation of the deck by a hard item."""
+    add, lv, inp = sheet.add, sheet.level, sheet.inp
+    ld = sheet.chain[LocalDamage]
+    if ld.assessed[0]:
+        so = STRIKE_ORIENTATIONS[int(ld.orientation[0])]
+        src = ("Kennedy 1976; Li et al. 2005; DOE-STD-3014 App. C"
+               + ("; extrapolated below the test speeds" if ld.extrapolated[0] else ""))
+        add(f"Local damage: penetration of the deck ({so} strike governs)", "x",
+            "x/d = 2√G or G + 1, G = 3.8·10⁻⁵·N*·M/(d√f_c)·(V/d)^1.8; UKAEA",
+            {"t": (lv.deck.thickness, "length"), "h": (inp.h[0], "length")},
+            ld.penetration[0], "length", src)
+        add("Drop height at which the soffit starts to scab", "h_s",
+            "t = 1.1·t_s(V), V = √(2gh) (Kennedy, Chang)", {"t": (lv.deck.thickness, "length")},
+            ld.h_scab[0], "length", src)
+        add("Drop height at which the load perforates the deck", "h_p",
+            "t = 1.2·t_p(V), V = √(2gh) (Kennedy/ACE, Barr, Chang)",
+            {"t": (lv.deck.thickness, "length")}, ld.h_perf[0], "length", src)

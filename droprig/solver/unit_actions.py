@@ -17,6 +17,7 @@ from typing import TYPE_CHECKING
 import numpy as np
 
 from droprig.solver import beam
+from droprig.solver.candidates import CandidateTables
 from droprig.solver.floor import FloorModel, existing_moment
 from droprig.solver.linear_checks import Family, argmax0, argmin_axis
 from droprig.solver.loadpath import COND_NAMES, by_condition
@@ -81,23 +82,61 @@ def unit_actions(fm: FloorModel, geo: Geometry) -> UnitActions:
     ua = geo.cache.get("ua")
     if ua is not None:
         return ua
-    fr = fm.frame
     tb = fm.tables
     assert tb is not None, "a floor prepared by build_floor has its candidate tables"
+    pv = _path_view(fm, tb, geo)
+    flex, M0, runs = _flexure(fm, tb, pv)
+    shear = _shear(fm, tb, pv)
+    R_p, rp_member, rp_arm, rp_cond = _plastic_reserve(fm, tb, pv, flex, M0, runs)
+    nh_fa, nh_member = _no_hinge(fm, pv, flex)
+    ua = UnitActions(flexure=flex, shear=shear, R_p=R_p, rp_member=rp_member,
+                     rp_arm=rp_arm, rp_cond=rp_cond, nh_fa=nh_fa, nh_member=nh_member)
+    geo.cache["ua"] = ua
+    return ua
+
+
+@dataclass(frozen=True, eq=False)
+class _PathView:
+    """The path of each point laid out member-first for the kernels: deck members
+    ``memT`` (2, n) with their shares, positions a (m), spans L (m) and end
+    conditions; the panel of each point ``pair`` (0 off the deck), local reactions
+    ``rT`` (4, n); support members ``supm`` (P, n); all source members ``members``
+    (2 + P, n)."""
+
+    n: int
+    memT: np.ndarray
+    shareT: np.ndarray
+    aT: np.ndarray
+    LT: np.ndarray
+    condT: np.ndarray
+    pair: np.ndarray
+    rT: np.ndarray
+    supm: np.ndarray
+    members: np.ndarray
+    cols: np.ndarray
+
+
+def _path_view(fm: FloorModel, tb: CandidateTables, geo: Geometry) -> _PathView:
+    fr = fm.frame
     path = geo.path
     n = geo.x.size
     memT = np.ascontiguousarray(path.members.T)  # (2, n)
-    shareT = np.ascontiguousarray(path.share.T)
-    aT = np.ascontiguousarray(path.a.T)
-    LT = fr.L[memT]
-    condT = fr.cond[memT]
     pair = np.maximum(path.pair, 0)
-    rT = np.ascontiguousarray(path.r.T)  # (4, n)
-    P, S = tb.P, tb.S
-    supm = np.take(tb.member, pair, axis=1) if P else np.zeros((0, n), dtype=np.int64)
-    members = np.concatenate([memT, supm])  # (K, n): the source members
-    cols = np.arange(n)
-    # ---- flexure: deck members (2, S_l stations) then support members (P, S)
+    supm = np.take(tb.member, pair, axis=1) if tb.P else np.zeros((0, n), dtype=np.int64)
+    return _PathView(n=n, memT=memT, shareT=np.ascontiguousarray(path.share.T),
+                     aT=np.ascontiguousarray(path.a.T), LT=fr.L[memT], condT=fr.cond[memT],
+                     pair=pair, rT=np.ascontiguousarray(path.r.T), supm=supm,
+                     members=np.concatenate([memT, supm]), cols=np.arange(n))
+
+
+def _flexure(fm: FloorModel, tb: CandidateTables, pv: _PathView,
+             ) -> tuple[Family, np.ndarray, tuple[tuple[int, int], ...]]:
+    """Flexure candidates: deck members (2, S_l stations) then support members (P,
+    S kept); the existing moment under the load of each deck member (2, 2, n) and the
+    row runs of each source."""
+    fr = fm.frame
+    n, memT, aT, LT, condT, pair = pv.n, pv.memT, pv.aT, pv.LT, pv.condT, pv.pair
+    P = tb.P
     xs = _loaded_stations(aT[:, None, :], LT[:, None, :], bool(np.any(fr.cond != 0)))
     S_l = xs.shape[1]
     S_p = [k.size for k in tb.m_keep]  # stations kept per support member
@@ -106,7 +145,7 @@ def unit_actions(fm: FloorModel, geo: Geometry) -> UnitActions:
     Et = np.empty((C, n))
     u = by_condition(beam.unit_moment, condT[:, None, :], LT[:, None, :], xs,
                      aT[:, None, :])
-    u *= shareT[:, None, :]
+    u *= pv.shareT[:, None, :]
     Rd = fm.Mr[memT][:, None, :]
     np.divide(u, Rd, out=ut[:2 * S_l].reshape(2, S_l, n))
     # existing moment: at the stations that move with the load per point, at the
@@ -123,13 +162,19 @@ def unit_actions(fm: FloorModel, geo: Geometry) -> UnitActions:
     runs = _runs([S_l, S_l, *S_p])
     for p in range(P):
         a0, a1 = runs[2 + p]
-        _combine(ut[a0:a1], tb.m_coef[p], tb.m_terms[p], pair, rT)
+        _combine(ut[a0:a1], tb.m_coef[p], tb.m_terms[p], pair, pv.rT)
         ut[a0:a1] /= m_R[p]
         np.take(tb.m_Et[p], pair, axis=1, out=Et[a0:a1])
-    flex = Family(ut, Et, members, np.concatenate([fm.Mr[memT], m_R]),
+    flex = Family(ut, Et, pv.members, np.concatenate([fm.Mr[memT], m_R]),
                   np.repeat(np.arange(2 + P), [S_l, S_l, *S_p]), runs)
-    # ---- shear: deck member ends (rows m0·R0, m1·R0, m0·RL, m1·RL), support ends
-    R0, RL = by_condition(beam.unit_reactions, condT, LT, aT)
+    return flex, M0, runs
+
+
+def _shear(fm: FloorModel, tb: CandidateTables, pv: _PathView) -> Family:
+    """Shear candidates: deck member ends (rows m0·R0, m1·R0, m0·RL, m1·RL), then
+    the two ends of each support member."""
+    n, memT, shareT, pair, P = pv.n, pv.memT, pv.shareT, pv.pair, tb.P
+    R0, RL = by_condition(beam.unit_reactions, pv.condT, pv.LT, pv.aT)
     Vd = fm.Vr[memT]
     C = 4 + 2 * P
     vt = np.empty((C, n))
@@ -143,17 +188,27 @@ def unit_actions(fm: FloorModel, geo: Geometry) -> UnitActions:
     v_R = np.take(tb.v_R, pair, axis=1)
     for p in range(P):
         rows = vt[4 + 2 * p:6 + 2 * p]
-        _combine(rows, tb.v_coef[p], tb.v_terms[p], pair, rT)
+        _combine(rows, tb.v_coef[p], tb.v_terms[p], pair, pv.rT)
         rows /= v_R[p]
     np.take(tb.v_Et, pair, axis=1, out=vE[4:])
-    shear = Family(vt, vE, members, np.concatenate([Vd, v_R]),
-                   np.array([0, 1, 0, 1] + [2 + p for p in range(P) for _ in range(2)]))
-    # ---- plastic reserve: R_p of the path for a load at p. Deck members: virtual-work
-    # collapse load for fixed/propped, first hinge (= collapse of a determinate
-    # member) otherwise; support members: first hinge (conservative)
+    return Family(vt, vE, pv.members, np.concatenate([Vd, v_R]),
+                  np.array([0, 1, 0, 1] + [2 + p for p in range(P) for _ in range(2)]))
+
+
+def _plastic_reserve(fm: FloorModel, tb: CandidateTables, pv: _PathView, flex: Family,
+                     M0: np.ndarray, runs: tuple[tuple[int, int], ...],
+                     ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """R_p of the path for a load at p (N), the member that sets it, its hinge arm (m)
+    and end condition. Deck members: virtual-work collapse load for fixed/propped,
+    first hinge (= collapse of a determinate member) otherwise; support members:
+    first hinge (conservative)."""
+    fr = fm.frame
+    n, aT, LT, condT, shareT, pair, cols = pv.n, pv.aT, pv.LT, pv.condT, pv.shareT, \
+        pv.pair, pv.cols
+    P, S = tb.P, tb.S
     assert flex.gmin is not None
     fa_l = flex.gmin[:2]  # (2, n)
-    Mp_eff = np.maximum(fm.Mr[memT] - np.abs(M0[:, 0, :]), 0.0)  # under the load
+    Mp_eff = np.maximum(fm.Mr[pv.memT] - np.abs(M0[:, 0, :]), 0.0)  # under the load
     Pc = by_condition(beam.plastic_collapse_load, condT, LT, aT, Mp_eff)
     with np.errstate(divide="ignore", invalid="ignore"):
         Pc = np.where(shareT > 0, Pc / np.where(shareT > 0, shareT, 1.0), np.inf)
@@ -164,7 +219,7 @@ def unit_actions(fm: FloorModel, geo: Geometry) -> UnitActions:
     arm = np.empty((2 + P, n))
     cant = condT == COND_NAMES.index("cantilever")
     arm[:2] = np.where(cant, aT, np.minimum(aT, LT - aT))  # hinge arm (root for a cantilever)
-    rp_cond = np.concatenate([condT, fr.cond[supm]])
+    rp_cond = np.concatenate([condT, fr.cond[pv.supm]])
     for p in range(P):
         a0, a1 = runs[2 + p]
         fa_p = flex.gmin[2 + p]
@@ -172,25 +227,28 @@ def unit_actions(fm: FloorModel, geo: Geometry) -> UnitActions:
         Rp_all[2 + p] = np.where(np.take(tb.valid[p], pair), fa_p, np.inf)
         # station of the governing section: pair_sup_x[pair, p, j] by flat index
         xst = np.take(fr.pair_sup_x.reshape(-1), (pair * P + p) * S + j)
-        Ls = fr.L[supm[p]]
+        Ls = fr.L[pv.supm[p]]
         arm[2 + p] = np.where(rp_cond[2 + p] == COND_NAMES.index("cantilever"), xst,
                               np.minimum(xst, Ls - xst))
     jr = argmin_axis(Rp_all, Rp_all.min(axis=0), 0)
-    # members that cannot form a plastic hinge: the least force that takes one of
-    # them to its flexural resistance (inf where the path has none)
-    nh_fa = np.full(n, np.inf)
-    nh_member = np.full(n, -1, dtype=np.int64)
+    return (np.maximum(Rp_all[jr, cols], 0.0), pv.members[jr, cols], arm[jr, cols],
+            rp_cond[jr, cols])
+
+
+def _no_hinge(fm: FloorModel, pv: _PathView, flex: Family) -> tuple[np.ndarray, np.ndarray]:
+    """Members that cannot form a plastic hinge: the least force that takes one of
+    them to its flexural resistance (N; ∞ where the path has none) and that member
+    (-1 none)."""
+    nh_fa = np.full(pv.n, np.inf)
+    nh_member = np.full(pv.n, -1, dtype=np.int64)
     hinge = fm.hinge
     if hinge is not None and not bool(np.all(hinge)):
-        g_nh = np.where(hinge[members], np.inf, flex.gmin)  # (K, n)
+        assert flex.gmin is not None
+        g_nh = np.where(hinge[pv.members], np.inf, flex.gmin)  # (K, n)
         jn = np.argmin(g_nh, axis=0)
-        nh_fa = g_nh[jn, cols]
-        nh_member = members[jn, cols]
-    ua = UnitActions(flexure=flex, shear=shear, R_p=np.maximum(Rp_all[jr, cols], 0.0),
-                     rp_member=members[jr, cols], rp_arm=arm[jr, cols],
-                     rp_cond=rp_cond[jr, cols], nh_fa=nh_fa, nh_member=nh_member)
-    geo.cache["ua"] = ua
-    return ua
+        nh_fa = g_nh[jn, pv.cols]
+        nh_member = pv.members[jn, pv.cols]
+    return nh_fa, nh_member
 
 
 def _runs(lens: Sequence[int]) -> tuple[tuple[int, int], ...]:

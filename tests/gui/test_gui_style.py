@@ -41,9 +41,10 @@ def test_outcomes_never_rely_on_colour_alone() -> None:
     for attr in ("label", "tag", "hatch"):
         values = [getattr(s, attr) for s in styles]
         assert len(set(values)) == len(values), attr
-    # Getting worse adds hatch lines: none, single diagonal, cross-hatch.
+    # Getting worse adds hatch lines: none, single diagonal, cross-hatch, square grid.
     assert [style.OUTCOMES[k].hatch for k in style.OUTCOME_ORDER] == [
-        Qt.BrushStyle.NoBrush, Qt.BrushStyle.BDiagPattern, Qt.BrushStyle.DiagCrossPattern]
+        Qt.BrushStyle.NoBrush, Qt.BrushStyle.BDiagPattern, Qt.BrushStyle.DiagCrossPattern,
+        Qt.BrushStyle.CrossPattern]
 
 
 @pytest.mark.parametrize("key", list(style.OUTCOMES))

@@ -510,9 +510,11 @@ def test_long_references_wrap_and_missing_fields_are_flagged(si_floor: Project,
 def test_unprintable_text_is_refused_and_writes_nothing(si_floor: Project, field: str,
                                                         value: str,
                                                         tmp_path: pathlib.Path) -> None:
-    p = dataclasses.replace(si_floor, info=dataclasses.replace(si_floor.info,
-                                                               **{field: value}))
+    # a control character is refused when the project is built (issue 16: text
+    # hygiene at the door), the others by the annex; either way nothing is written
     with pytest.raises(ModelError, match=f"info.{field}"):
+        p = dataclasses.replace(si_floor, info=dataclasses.replace(si_floor.info,
+                                                                   **{field: value}))
         annex.write_annex(p, analysis.analyse(p), tmp_path / "x.pdf")
     assert list(tmp_path.iterdir()) == []
 
@@ -610,3 +612,19 @@ def test_edited_project_is_not_signed_under_the_saved_file(si_floor: Project,
     assert hashlib.sha256(dumps_project(edited).encode("utf-8")).hexdigest() in last
     assert hashlib.sha256(src.read_bytes()).hexdigest() not in last
     assert "differs from the saved file saved.droprig" in last
+
+
+def test_hard_items_and_left_out_strikes_are_printed(built: Annex) -> None:
+    # issue: a restricted set of strike orientations carries a reason that goes in
+    # the annex; hard items are listed with the orientations checked
+    from droprig.solver import is_hard
+
+    hard = [ld for z in built.project.lift_zones for ld in z.loads if is_hard(ld)]
+    text = " ".join(built.texts)
+    if not hard:
+        assert "Hard items: local damage of the deck" not in text
+        return
+    assert "Hard items: local damage of the deck" in text
+    for ld in hard:
+        if ld.strike_reason:
+            assert _norm(ld.strike_reason)[:30] in text

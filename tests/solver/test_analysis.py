@@ -40,7 +40,15 @@ from droprig.solver.chain import (
     outputs,
 )
 from droprig.solver.evaluate import evaluate_chain
-from droprig.solver.results import ADVICE_KINDS, CHECKS, ELASTIC, EXCEEDS, PLASTIC, RESPONSES
+from droprig.solver.results import (
+    ADVICE_KINDS,
+    CHECKS,
+    ELASTIC,
+    EXCEEDS,
+    PERFORATES,
+    PLASTIC,
+    RESPONSES,
+)
 from droprig.solver.trace import trace_point
 
 REL = 1e-9  # closed forms in floating point
@@ -303,7 +311,11 @@ def test_no_nan_where_a_value_must_exist(busy_project):
             ok = ~np.isnan(arr) if name in ("x", "y", "drop_height", "utilisation") \
                 else ~np.isnan(arr) | opening
             assert ok.all(), name
-        assert np.all(case.response >= 0) and np.all(case.response <= 2)
+        assert np.all(case.response >= 0) and np.all(case.response <= 3)
+        # perforates exactly where a hard load's perforation starts at or below its fall
+        hit = case.perforation_height <= case.drop_height
+        assert np.array_equal(case.response == PERFORATES, hit)
+        assert np.all(case.scabbing[hit])
         assert np.all(case.bay >= 0)
         # allowable heights: nan only as "none exists", never negative
         h = case.allowable_drop_height
@@ -334,6 +346,17 @@ def test_bay_advice_kind(resp, n_open, h, k, travel, h_el, want):
     assert want.kind in ADVICE_KINDS
 
 
+@pytest.mark.parametrize("h_local, want", [
+    (0.8, analysis.Advice("level_below", 0.8)), (0.01, analysis.Advice("level_below")),
+    (None, analysis.Advice("level_below"))])
+def test_perforating_bay_names_the_level_below(h_local, want):
+    # a perforating hard load: the level below is an exclusion zone whatever the
+    # framing needs; the start height is offered as a limit when controllable
+    # (0.05 m, common practice, no source); an opening still comes first
+    assert analysis.bay_advice(PERFORATES, 0, 0.4, 3e6, 0.05, 0.4, h_local) == want
+    assert analysis.bay_advice(PERFORATES, 1, 0.4, 3e6, 0.05, 0.4, 0.8).kind == "opening"
+
+
 def test_bay_summaries_carry_advice_numbers(busy_project):
     res = analysis.analyse(busy_project)
     for b in res.bays:
@@ -343,6 +366,11 @@ def test_bay_summaries_carry_advice_numbers(busy_project):
         if b.advice_kind in ("limit_height", "limit_or_mat"):
             assert b.height_limit is not None
             assert b.height_limit >= summary.MIN_USEFUL_HEIGHT
+        elif b.advice_kind == "level_below":
+            # the drop under which neither perforation nor scabbing starts
+            assert b.response == "perforates" and b.perforation_height is not None
+            assert b.height_limit is None or b.height_limit >= summary.MIN_USEFUL_HEIGHT
+            assert b.height_limit is None or b.height_limit <= b.perforation_height
         else:
             assert b.height_limit is None
         if b.advice_kind in ("mat", "limit_or_mat", "plastic_mat"):

@@ -1,0 +1,94 @@
+"""The per-point chain as named steps: the runner, step replacement and the outputs
+(properties of the implementation, no engineering source; the physics of each step is
+checked against published sources in test_analysis.py, test_impact.py, …)."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from droprig.io.project_file import load_project
+from droprig.solver import analysis, chain, evaluate
+from droprig.solver.chain import Chain, Compliance, Drop, Impact, outputs, run_chain
+
+ROOT = Path(__file__).resolve().parents[2]
+
+
+@pytest.fixture(scope="module")
+def demo():
+    project = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    zone = project.lift_zones[0]
+    fm = analysis.build_floor(project.level(zone.level_id), project.settings)
+    ext = fm.level.grid.extent
+    rng = np.random.default_rng(2)
+    x = rng.uniform(ext.x0, ext.x1, 300)
+    y = rng.uniform(ext.y0, ext.y1, 300)
+    geo = analysis.point_geometry(fm, project, x, y)
+    return project, zone, fm, geo
+
+
+def test_steps_run_in_order_and_each_returns_its_dataclass(demo):
+    project, zone, fm, geo = demo
+    c = evaluate.evaluate_chain(fm, project, zone.loads[0], geo)
+    assert [type(r).__name__ for r in c.history] == [
+        "LoadInputs", "Compliance", "StruckMass", "Impact", "Demands", "Checks",
+        "BeyondYield", "InverseAnswers"]
+    for r in c.history:
+        assert type(r).__dataclass_params__.frozen, type(r).__name__
+
+
+def test_outputs_equal_the_vectorised_evaluation(demo):
+    project, zone, fm, geo = demo
+    c = evaluate.evaluate_chain(fm, project, zone.loads[0], geo, detail=False)
+    got = outputs(c)
+    ref = evaluate.evaluate_case(fm, project, zone.loads[0], geo)
+    assert set(got) == set(ref) == set(evaluate.OUTPUTS)
+    for k, v in ref.items():
+        np.testing.assert_array_equal(got[k], v, err_msg=k)
+
+
+def test_a_step_that_returns_an_earlier_type_replaces_it(demo, monkeypatch):
+    # a step inserted after compliance that doubles the deck's compliance: the
+    # impact step must read the replaced Compliance (how a physics step plugs in)
+    project, zone, fm, geo = demo
+
+    def softer_deck(c: Chain) -> Compliance:
+        comp = c[Compliance]
+        return replace(comp, f_deck=2 * comp.f_deck, f_struct=comp.f_struct + comp.f_deck,
+                       f_series=comp.f_series + comp.f_deck, f=comp.f + comp.f_deck)
+
+    li = np.zeros(geo.x.size, dtype=np.int64)
+    drop = Drop(fm, project, geo, (zone.loads[0],), li)
+    with np.errstate(all="ignore"):
+        base = run_chain(drop)
+        steps = list(chain.STEPS)
+        steps.insert(steps.index(chain.compliance) + 1, softer_deck)
+        monkeypatch.setattr(chain, "STEPS", tuple(steps))
+        soft = run_chain(drop)
+    assert len(soft.history) == len(base.history) + 1
+    f_new = soft[Compliance].f
+    np.testing.assert_array_equal(f_new, base[Compliance].f + base[Compliance].f_deck)
+    np.testing.assert_array_equal(soft[Impact].d_st, soft.drop.per_point(
+        [zone.loads[0].weight]) * f_new)
+    # a softer path never raises the peak force (Gere Eq. 9-94 decreases in f)
+    assert np.all(soft[Impact].F <= base[Impact].F * (1 + 1e-12))
+
+
+@dataclass(frozen=True, eq=False)
+class _Extra:
+    F_over_W: np.ndarray
+
+
+def test_a_new_step_is_read_by_type(demo, monkeypatch):
+    project, zone, fm, geo = demo
+
+    def extra(c: Chain) -> _Extra:
+        return _Extra(c[Impact].F / c.drop.per_point([zone.loads[0].weight]))
+
+    monkeypatch.setattr(chain, "STEPS", (*chain.STEPS, extra))
+    c = evaluate.evaluate_chain(fm, project, zone.loads[0], geo)
+    assert _Extra in c
+    np.testing.assert_allclose(c[_Extra].F_over_W, c[Impact].K, rtol=1e-12)
