@@ -35,7 +35,7 @@ def test_steps_run_in_order_and_each_returns_its_dataclass(demo):
     c = evaluate.evaluate_chain(fm, project, zone.loads[0], geo)
     assert [type(r).__name__ for r in c.history] == [
         "LoadInputs", "Compliance", "StruckMass", "Impact", "Demands", "Checks",
-        "BeyondYield", "InverseAnswers"]
+        "BeyondYield", "InverseAnswers", "LocalDamage"]  # local damage joined the chain
     for r in c.history:
         assert type(r).__dataclass_params__.frozen, type(r).__name__
 

@@ -113,7 +113,7 @@ def test_no_peak_force_above_the_crushing_bound(roof, steel):
             assert np.all(imp.F[direct] <= imp.F_crush[direct] * (1 + 1e-12))
 
 
-def _bay_worst(case, bay: int) -> float:
+def _bay_worst(case, bay: int) -> float:  # as the bay summaries attribute points
     sel = (np.asarray(case.bay) == bay) & np.isfinite(case.utilisation)
     return float(np.max(case.utilisation[sel]))
 
@@ -121,12 +121,14 @@ def _bay_worst(case, bay: int) -> float:
 @pytest.mark.parametrize("cx, cy", [(9.144, 9.144), (18.288, 18.288)])
 def test_column_approach_changes_a_bays_worst_by_under_5_percent(steel, cx, cy):
     # points 1–45 mm from a column the lift zone reaches (2/B, 3/C), in every bay it
-    # supports; the bay's worst utilisation must not jump (columns are axial springs,
-    # the contact crushes): < 5 %
+    # supports; the worst utilisation over the bay (its closed panel, so the column
+    # point at its corner counts in each of the four bays around it) must not jump
+    # (columns are axial springs, the contact crushes): < 5 %
     r = analyse(steel)
     zone = steel.lift_zones[0]
     lv = steel.level(zone.level_id)
     fm = analysis.build_floor(lv, steel.settings)
+    gx, gy = np.array(lv.grid.x_lines), np.array(lv.grid.y_lines)
     d = np.array([0.001, 0.005, 0.015, 0.03, 0.045])
     dirs = [(1, 0), (-1, 0), (0, 1), (0, -1), (1, 1), (-1, 1), (1, -1), (-1, -1)]
     xs = np.concatenate([cx + d * a / math.hypot(a, b) for a, b in dirs])
@@ -136,15 +138,20 @@ def test_column_approach_changes_a_bays_worst_by_under_5_percent(steel, cx, cy):
     for case in r.cases:
         load = next(ld for ld in zone.loads if ld.name == case.load_name)
         res = evaluate.evaluate_case(fm, steel, load, geo)
-        for bay in np.unique(res["bay"][res["bay"] >= 0]):
-            if not np.any(np.asarray(case.bay) == bay):
+        X, Y, U = np.asarray(case.x), np.asarray(case.y), np.asarray(case.utilisation)
+        for k in range(xs.size):
+            i = int(np.clip(np.searchsorted(gx, xs[k]) - 1, 0, gx.size - 2))
+            j = int(np.clip(np.searchsorted(gy, ys[k]) - 1, 0, gy.size - 2))
+            tol = 1e-9
+            inside = ((X >= gx[i] - tol) & (X <= gx[i + 1] + tol) & (Y >= gy[j] - tol)
+                      & (Y <= gy[j + 1] + tol) & np.isfinite(U))
+            if not inside.any():
                 continue
-            before = _bay_worst(case, int(bay))
-            near = res["utilisation"][res["bay"] == bay]
-            after = max(before, float(np.max(near)))
-            assert after <= 1.05 * before, (case.load_name, int(bay), before, after)
+            before = float(np.max(U[inside]))
+            after = max(before, float(res["utilisation"][k]))
+            assert after <= 1.05 * before, (case.load_name, xs[k], ys[k], before, after)
             checked += 1
-    assert checked >= 3
+    assert checked >= 40
 
 
 def test_a_pad_on_one_bay_never_changes_another_bays_worst(roof):
