@@ -19,6 +19,7 @@ from droprig.io.sections import get_concrete, get_grade, get_section
 from droprig.model import (
     Deck,
     LiftLoad,
+    LiftPoint,
     LiftZone,
     Project,
     ProjectInfo,
@@ -94,14 +95,32 @@ def rooftop_plant_swap() -> Project:
             # its own rails when set down, i.e. some 20-40 kN/mm; 25 kN/mm taken for
             # the new unit, 20 kN/mm for the old one (lighter, worn rails)
             # (common practice, no source).
+            # Mass sources: the new unit's data plate; the old unit's drained mass
+            # is estimated from its schedule less the water in its coils.
             LiftLoad("AHU-3 (new)", 4200.0, 3.0, 2.0, hook_elevation=hook,
-                     hang_length=AHU_HANG, drop_height=None, contact_stiffness=2.5e7),
+                     hang_length=AHU_HANG, drop_height=None, contact_stiffness=2.5e7,
+                     mass_source="data_plate"),
             LiftLoad("AHU-3 (old, drained)", 3650.0, 2.8, 1.9, hook_elevation=hook,
-                     hang_length=AHU_HANG, drop_height=None, contact_stiffness=2.0e7),
+                     hang_length=AHU_HANG, drop_height=None, contact_stiffness=2.0e7,
+                     mass_source="estimate"),
             # The spreader beam is rigid steel with a small footprint and rides
             # 4 m above the unit's underside: no contact stiffness (rigid).
             LiftLoad("Spreader beam 4 m", 300.0, 4.0, 0.3, hook_elevation=hook,
-                     hang_length=AHU_HANG - 4.0, drop_height=None, kind="rigging"),
+                     hang_length=AHU_HANG - 4.0, drop_height=None, kind="rigging",
+                     mass_source="weighed"),
+        ),
+        crane_description="90 t all-terrain crane, fleet no. AT90-07 (fictional)",
+        crane_configuration=(
+            "Main boom 38.4 m, no jib; 26 t counterweight; outriggers fully extended "
+            "8.6 m x 8.3 m on 1.2 m x 1.2 m timber outrigger pads; 360° slewing duty chart"),
+        # The old unit goes from its plinth (south-west of bay 2-3/A-B) to trailer
+        # T2, the new one from trailer T1 onto the plinth (both trailers in the
+        # closed lane west of the building).
+        lift_points=(
+            LiftPoint("pick_up", (10.2, 1.4), "old AHU-3 on the plinth"),
+            LiftPoint("set_down", (-17.0, 1.0), "old unit onto trailer T2"),
+            LiftPoint("pick_up", (-13.0, -4.0), "new AHU-3 on trailer T1"),
+            LiftPoint("set_down", (8.2, 1.4), "new unit onto the plinth"),
         ),
     )
     # Landing bay 2-3/A-B: a crushable pad of timber sleepers over foam blocks laid
@@ -130,6 +149,10 @@ def rooftop_plant_swap() -> Project:
         prepared_by="R. Okonjo, Brightwell Lifting Ltd (fictional)",
         checked_by="S. Lindqvist CEng, Tallow & Vane Structures (fictional)",
         approved_by="M. Haddad, appointed person",
+        permit_number="PTW-HC-2026-118",
+        lift_plan_revision="C",
+        valid_from="2026-12-06 06:00",
+        valid_to="2026-12-06 18:00",
         description=(
             "Removal of the existing air-handling unit AHU-3 and placing of its replacement "
             "on the plinth in roof bay 2-3/A-B. 90 t all-terrain crane on outriggers in the "
@@ -194,17 +217,28 @@ def steel_erection_floor() -> Project:
             # bundle bending between its dunnage and the crushing of the timber make
             # its underside soft, of the order of 30 kip/in (5e6 N/m)
             # (common practice, no source).
+            # Mass sources: the bundle from the fabricator's shipping list (drawing),
+            # the welder from its data plate, the spreader bar weighed.
             LiftLoad("Joist bundle J-7", 4000.0 * LB, 20.0 * FT, 2.0 * FT, US_CLEAR,
-                     contact_stiffness=5e6),
+                     contact_stiffness=5e6, mass_source="drawing"),
             # Welder on its steel skid with rubber feet: of the order of 60 kip/in
             # (1e7 N/m) (common practice, no source). Being light and compact it is
             # walked across lower, WELDER_CLEAR above the floor.
             LiftLoad("Engine-driven welder", 1150.0 * LB, 5.0 * FT, 2.5 * FT, WELDER_CLEAR,
-                     contact_stiffness=1e7),
+                     contact_stiffness=1e7, mass_source="data_plate"),
             # The spreader bar rides 10 ft above the load it carries; solid steel
             # pipe: rigid.
             LiftLoad("Spreader bar 12 ft", 250.0 * LB, 12.0 * FT, 0.5 * FT,
-                     US_CLEAR + 10.0 * FT, kind="rigging"),
+                     US_CLEAR + 10.0 * FT, kind="rigging", mass_source="weighed"),
+        ),
+        crane_description="110 US ton lattice-boom crawler crane, unit C-3 (fictional)",
+        crane_configuration=(
+            "Main boom 150 ft, jib stowed; upper counterweight 70,000 lb and carbody "
+            "counterweight 20,000 lb; tracks extended, on 4 ft x 20 ft timber crane mats; "
+            "standard boom duty chart"),
+        lift_points=(
+            LiftPoint("pick_up", (-25.0 * FT, 22.0 * FT), "laydown area, west"),
+            LiftPoint("set_down", (84.0 * FT, 35.0 * FT), "hoist landing, bay 3-4/B-C"),
         ),
     )
     # Laydown bay 3-4/B-C at the hoist landing: a crushable pad of plywood over EPS
@@ -227,6 +261,10 @@ def steel_erection_floor() -> Project:
         prepared_by="D. Alvarez, Ironline Erectors Inc. (fictional)",
         checked_by="K. Brennan PE, North Ridge Engineering (fictional)",
         approved_by="T. Yamada, lift director",
+        permit_number="CF-HW-2026-0457",
+        lift_plan_revision="2",
+        valid_from="2026-10-06",
+        valid_to="2026-10-09",
         description=(
             "Crawler crane at the west laydown area slews joist bundles, a welder and its "
             "rigging over the completed level 3 floor to the east hoist landing, where a "

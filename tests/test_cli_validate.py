@@ -121,7 +121,7 @@ def test_newer_format_version(two_bay_floor: Project, tmp_path: Path,
     doc["format_version"] = 3
     code, out = _run(capsys, _write(tmp_path, doc))
     assert code == 2
-    assert "written by a newer droprig (format 3); this droprig reads up to format 1" in out
+    assert "written by a newer droprig (format 3); this droprig reads up to format 2" in out
 
 
 def test_several_problems_are_listed_together(two_bay_floor: Project, tmp_path: Path,

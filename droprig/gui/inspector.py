@@ -47,6 +47,8 @@ from droprig.gui.document import Document, Selection, resolve
 from droprig.model import (
     CORRIDOR_ALLOWED,
     END_CONDITIONS,
+    MASS_SOURCE_WORDS,
+    MASS_SOURCES,
     Deck,
     Level,
     LiftLoad,
@@ -57,6 +59,7 @@ from droprig.model import (
     ProtectionArea,
     Rect,
     corridor_problem,
+    lift_point_tags,
 )
 from droprig.outcomes import fmt_utilisation
 
@@ -295,6 +298,57 @@ def _choice(key: str, label: str, choices: tuple[tuple[str, str], ...],
                      set_ or (lambda o, v: replace(o, **{key: v})), choices=choices)
 
 
+_NOT_RECORDED_HINT = "empty = not recorded (flagged in the annex)"
+
+
+def _permit_info_fields() -> list[FieldSpec]:
+    """Permit number, lift-plan revision, validity window: plain text boxes."""
+    out = []
+    for key, label in (("permit_number", "Permit number"),
+                       ("lift_plan_revision", "Lift-plan revision")):
+        out.append(FieldSpec(key, label, "text", lambda o, k=key: getattr(o, k),
+                             lambda o, v, k=key: replace(o, **{k: v}),
+                             empty=_NOT_RECORDED_HINT))
+    for key, label in (("valid_from", "Valid from"), ("valid_to", "Valid to")):
+        out.append(FieldSpec(key, label, "text", lambda o, k=key: getattr(o, k),
+                             lambda o, v, k=key: replace(o, **{k: v}),
+                             tip="YYYY-MM-DD or YYYY-MM-DD HH:MM",
+                             empty="YYYY-MM-DD HH:MM; empty = not recorded"))
+    return out
+
+
+def _crane_fields(system: units.UnitSystem) -> list[FieldSpec]:
+    """The zone's crane and configuration (text) and its lift points (read only)."""
+    def points(o: LiftZone) -> str:
+        if not o.lift_points:
+            return "not recorded"
+        return "; ".join(
+            f"{tag} {'pick-up' if p.kind == 'pick_up' else 'set-down'} "
+            f"({units.fmt(p.at[0], 'length', system)}, {units.fmt(p.at[1], 'length', system)})"
+            + (f" {p.label}" if p.label else "")
+            for tag, p in zip(lift_point_tags(o), o.lift_points, strict=True))
+
+    return [
+        FieldSpec("crane_description", "Crane", "text", lambda o: o.crane_description,
+                  lambda o, v: replace(o, crane_description=v),
+                  tip="Type, capacity, fleet number", empty=_NOT_RECORDED_HINT),
+        FieldSpec("crane_configuration", "Crane configuration", "text",
+                  lambda o: o.crane_configuration,
+                  lambda o, v: replace(o, crane_configuration=v),
+                  tip="Boom and jib, counterweight, outriggers or tracks, duty chart",
+                  empty=_NOT_RECORDED_HINT),
+        _ro("lift_points", "Pick-up / set-down points", points),
+    ]
+
+
+def _mass_source_field() -> FieldSpec:
+    return FieldSpec("mass_source", "Mass source", "choice",
+                     lambda o: o.mass_source or "",
+                     lambda o, v: replace(o, mass_source=v or None),
+                     choices=(("", "not recorded"),
+                              *((k, MASS_SOURCE_WORDS[k]) for k in MASS_SOURCES)))
+
+
 def _rect_fields(prefix: str, get_rect: Getter, set_rect: Setter) -> list[FieldSpec]:
     out = []
     for k, lab in (("x0", "West edge x"), ("y0", "South edge y"), ("x1", "East edge x"),
@@ -327,10 +381,11 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
     if k == "info":
         return Form("Project", "Title block of the permit annex", obj, [
             _t("name", "Project name"), _t("site", "Site"),
-            _t("lift_reference", "Lift reference"), _t("revision", "Revision"),
+            _t("lift_reference", "Lift-plan reference"), _t("revision", "Annex revision"),
             _t("date", "Date"), _t("prepared_by", "Prepared by"),
             _t("checked_by", "Checked by"), _t("approved_by", "Approved by"),
             _t("description", "Description", "longtext"),
+            *_permit_info_fields(),
         ], lambda p, o: ed.with_info(p, o))
 
     if k == "settings":
@@ -430,6 +485,7 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                                               "circle"),
             _q("drift_margin", "Load swing margin", "length",
                "The region is widened by this much for load swing"),
+            *_crane_fields(system),
             FieldSpec("corridor", f"Corridor ({units.display_unit('length', system)})",
                       "text", lambda o: corridor_text(o.corridor, system),
                       lambda o, v: replace(o, corridor=parse_corridor(v, system)),
@@ -468,6 +524,7 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                           "frame, timber dunnage), in series with the deck. Leave empty to "
                           "take the load as rigid (highest force, conservative).",
                       empty="empty = rigid (conservative)"),
+            _mass_source_field(),
             FieldSpec("mode", "Height given as", "choice",
                       lambda o: "drop" if o.drop_height is not None else "hook", set_mode,
                       choices=(("drop", "Drop height above the deck"),

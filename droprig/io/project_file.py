@@ -37,6 +37,7 @@ from droprig.model import (
     Grade,
     Level,
     LiftLoad,
+    LiftPoint,
     LiftZone,
     Member,
     ModelError,
@@ -50,7 +51,7 @@ from droprig.model import (
 )
 from droprig.model.errors import QUOTE_MAX, quote, text_problem
 
-FORMAT_VERSION = 1
+FORMAT_VERSION = 2
 """The file layout this droprig writes and the newest it reads."""
 
 APPLICATION = "droprig"
@@ -316,6 +317,8 @@ def _load_doc(ld: LiftLoad) -> dict[str, object]:
     out["hang_length_m"] = ld.hang_length
     if ld.contact_stiffness is not None:
         out["contact_stiffness_N_per_m"] = ld.contact_stiffness
+    if ld.mass_source is not None:
+        out["mass_source"] = ld.mass_source
     # strike data only when not the defaults, so older files round-trip unchanged
     if ld.strike_orientations != _DEFAULT_LOAD.strike_orientations or ld.strike_reason:
         out["strike_orientations"] = list(ld.strike_orientations)
@@ -325,6 +328,29 @@ def _load_doc(ld: LiftLoad) -> dict[str, object]:
     if ld.hard is not None:
         out["hard"] = ld.hard
     return out
+
+
+def _zone_permit_doc(z: LiftZone) -> dict[str, object]:
+    """Crane, configuration and lift points, only when recorded (format 2)."""
+    out: dict[str, object] = {}
+    if z.crane_description:
+        out["crane_description"] = z.crane_description
+    if z.crane_configuration:
+        out["crane_configuration"] = z.crane_configuration
+    if z.lift_points:
+        out["lift_points"] = [
+            {"kind": p.kind, "at_m": _point_doc(p.at), **({"label": p.label} if p.label
+                                                           else {})}
+            for p in z.lift_points]
+    return out
+
+
+def _info_permit_doc(i: ProjectInfo) -> dict[str, object]:
+    """Permit number, lift-plan revision and validity, only when recorded (format 2)."""
+    return {k: getattr(i, k) for k in _PERMIT_INFO_KEYS if getattr(i, k)}
+
+
+_PERMIT_INFO_KEYS = ("permit_number", "lift_plan_revision", "valid_from", "valid_to")
 
 
 _DEFAULT_LOAD = LiftLoad(name="default", mass=1.0)
@@ -346,6 +372,7 @@ def _zone_doc(z: LiftZone) -> dict[str, object]:
         "drift_margin_m": z.drift_margin,
         "corridor_m": [_point_doc(p) for p in z.corridor],
         "loads": [_load_doc(ld) for ld in z.loads],
+        **_zone_permit_doc(z),
     }
     # drift data only when computed or entered, so older files round-trip unchanged
     if z.drift_mode != "given" or any(getattr(z, a) for a, _ in _ZONE_DRIFT_KEYS) \
@@ -386,6 +413,7 @@ def project_to_document(project: Project) -> dict[str, object]:
             "revision": i.revision, "date": i.date, "prepared_by": i.prepared_by,
             "checked_by": i.checked_by, "approved_by": i.approved_by,
             "description": i.description,
+            **_info_permit_doc(i),
         },
         "settings": {
             "unit_system": s.unit_system,
@@ -453,7 +481,19 @@ def _migrate_0_to_1(doc: dict[str, Any]) -> dict[str, Any]:
     return doc
 
 
-MIGRATIONS: dict[int, Callable[[dict[str, Any]], dict[str, Any]]] = {0: _migrate_0_to_1}
+def _migrate_1_to_2(doc: dict[str, Any]) -> dict[str, Any]:
+    """Format 2 adds optional permit data: ``info.permit_number``,
+    ``info.lift_plan_revision``, ``info.valid_from`` / ``valid_to``; per lift
+    zone ``crane_description``, ``crane_configuration`` and ``lift_points``; per
+    load ``mass_source``. A format-1 file recorded none of them: nothing is
+    added (absent = not recorded, which the annex flags on page 1); no value is
+    guessed."""
+    doc["format_version"] = 2
+    return doc
+
+
+MIGRATIONS: dict[int, Callable[[dict[str, Any]], dict[str, Any]]] = {
+    0: _migrate_0_to_1, 1: _migrate_1_to_2}
 """``MIGRATIONS[v]`` turns a format-``v`` document into a format-``v + 1`` one.
 Each step works on its own deep copy; a failing step leaves nothing half done."""
 
@@ -796,6 +836,7 @@ _KEYS_LOAD = {"name": "name", "mass": "mass_kg", "footprint_length": "footprint_
               "footprint_width": "footprint_width_m", "drop_height": "drop_height_m",
               "hook_elevation": "hook_elevation_m", "hang_length": "hang_length_m",
               "kind": "kind", "contact_stiffness": "contact_stiffness_N_per_m",
+              "mass_source": "mass_source",
               "strike_orientations": "strike_orientations", "strike_reason": "strike_reason",
               "edge_width": "edge_width_m", "hard": "hard"}
 _KEYS_ZONE = {"id": "id", "name": "name", "level_id": "level_id", "crane": "crane_m",
@@ -804,7 +845,10 @@ _KEYS_ZONE = {"id": "id", "name": "name", "level_id": "level_id", "crane": "cran
               "corridor": "corridor_m", "loads": "loads", "drift_mode": "drift_mode",
               "slew_speed": "slew_speed_rad_per_s", "hoist_speed": "hoist_speed_m_per_s",
               "radial_speed": "radial_speed_m_per_s", "swing_angle": "swing_angle_deg",
-              "swing_length": "swing_length_m"}
+              "swing_length": "swing_length_m",
+              "crane_description": "crane_description",
+              "crane_configuration": "crane_configuration", "lift_points": "lift_points"}
+_KEYS_LIFT_POINT = {"kind": "kind", "at": "at_m", "label": "label"}
 _KEYS_PROTECTION = {"id": "id", "name": "name", "level_id": "level_id", "kind": "kind",
                     "thickness": "thickness_m", "stiffness": "stiffness_N_per_m",
                     "crush_force": "crush_force_N", "crush_stroke": "crush_stroke_m",
@@ -818,7 +862,8 @@ _KEYS_SETTINGS = {"unit_system": "unit_system", "design_basis": "design_basis",
                   "include_member_mass": "include_member_mass",
                   "include_existing_loads": "include_existing_loads"}
 _KEYS_INFO = {k: k for k in ("name", "site", "lift_reference", "revision", "date",
-                             "prepared_by", "checked_by", "approved_by", "description")}
+                             "prepared_by", "checked_by", "approved_by", "description",
+                             *_PERMIT_INFO_KEYS)}
 
 
 def _point(v: list[float]) -> tuple[float, float]:
@@ -997,8 +1042,8 @@ class _Builder:
     def load(self, v: dict[str, Any], path: str) -> LiftLoad:
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LOAD.items()
                          if k in ("footprint_length", "footprint_width", "hang_length", "kind",
-                                  "contact_stiffness", "strike_reason", "edge_width",
-                                  "hard")})
+                                  "contact_stiffness", "mass_source", "strike_reason",
+                                  "edge_width", "hard")})
         if "strike_orientations" in v:
             kw["strike_orientations"] = tuple(v["strike_orientations"])
         return self._make(path, _KEYS_LOAD, lambda: LiftLoad(
@@ -1026,6 +1071,10 @@ class _Builder:
             kw["swing_angle"] = _deg_to_rad(v["swing_angle_deg"])
         if "corridor_m" in v:
             kw["corridor"] = tuple(_point(p) for p in v["corridor_m"])
+        try:
+            kw.update(self.zone_permit(v, path))
+        except _BuildFailedError:
+            failed = True
         zone = self._make(path, _KEYS_ZONE, lambda: LiftZone(
             id=v["id"], name=v.get("name", ""), level_id=v["level_id"],
             crane=_point(v["crane_m"]), r_min=v["r_min_m"], r_max=v["r_max_m"],
@@ -1033,6 +1082,17 @@ class _Builder:
         if failed:
             raise _BuildFailedError
         return zone
+
+    def zone_permit(self, v: dict[str, Any], path: str) -> dict[str, Any]:
+        """A zone's crane description, configuration and lift points (format 2)."""
+        kw: dict[str, Any] = {k: v[k] for k in ("crane_description", "crane_configuration")
+                              if k in v}
+        if "lift_points" in v:
+            kw["lift_points"] = tuple(self._collect(
+                v["lift_points"], f"{path}.lift_points",
+                lambda p, where: self._make(where, _KEYS_LIFT_POINT, lambda: LiftPoint(
+                    p["kind"], _point(p["at_m"]), p.get("label", "")))))
+        return kw
 
     def protection(self, v: dict[str, Any], path: str) -> ProtectionArea:
         area = self.rect(v["area"], f"{path}.area")

@@ -9,6 +9,13 @@ from droprig.model.framing import (
     resting_on,
     without_members,
 )
+from droprig.model.permit_data import (
+    LIFT_POINT_KINDS,
+    MASS_SOURCE_WORDS,
+    MASS_SOURCES,
+    LiftPoint,
+    lift_point_tags,
+)
 from droprig.model.polygon import CORRIDOR_ALLOWED, check_corridor, corridor_problem
 from droprig.model.project import (
     CONTACT_STIFFNESS_RANGE,
@@ -34,6 +41,9 @@ __all__ = [
     "CORRIDOR_ALLOWED",
     "END_CONDITIONS",
     "E_STEEL",
+    "LIFT_POINT_KINDS",
+    "MASS_SOURCES",
+    "MASS_SOURCE_WORDS",
     "STRIKE_ORIENTATIONS",
     "Bay",
     "ColumnGrid",
@@ -42,6 +52,7 @@ __all__ = [
     "Grade",
     "Level",
     "LiftLoad",
+    "LiftPoint",
     "LiftZone",
     "Member",
     "ModelError",
@@ -57,6 +68,7 @@ __all__ = [
     "corridor_problem",
     "default_labels",
     "generate_level",
+    "lift_point_tags",
     "resting_on",
     "without_members",
 ]

@@ -20,6 +20,13 @@ from droprig.model.errors import (
     check_range,
     check_text,
 )
+from droprig.model.permit_data import (
+    LiftPoint,
+    MassSource,
+    check_mass_source,
+    check_permit_info,
+    check_zone_permit,
+)
 from droprig.model.sections import Concrete, Grade, Section
 
 Point = tuple[float, float]
@@ -92,7 +99,14 @@ class Rect:
 
 @dataclass(frozen=True)
 class ProjectInfo:
-    """Title-block data."""
+    """Title-block data.
+
+    ``lift_reference`` is the lift-plan reference and ``lift_plan_revision``
+    its revision; ``revision`` and ``date`` are those of this assessment.
+    Permit fields (:mod:`droprig.model.permit_data`): ``permit_number``,
+    ``lift_plan_revision``, ``valid_from`` / ``valid_to`` (ISO 8601 date or
+    date and time). Empty text: not recorded.
+    """
 
     name: str = "Untitled lift"
     site: str = ""
@@ -103,8 +117,13 @@ class ProjectInfo:
     checked_by: str = ""
     approved_by: str = ""
     description: str = ""
+    permit_number: str = ""
+    lift_plan_revision: str = ""
+    valid_from: str = ""
+    valid_to: str = ""
 
     def __post_init__(self) -> None:
+        check_permit_info(self)
         check_text("info.name", self.name, required=True)
         for n in ("site", "lift_reference", "revision", "date", "prepared_by", "checked_by",
                   "approved_by"):
@@ -377,9 +396,13 @@ class LiftLoad:
     strike_reason: str = ""
     edge_width: float = 0.02
     hard: bool | None = None
+    mass_source: MassSource | None = None
+    """Where ``mass`` comes from (:data:`~droprig.model.permit_data.MASS_SOURCES`);
+    None: not recorded."""
 
     def __post_init__(self) -> None:
         check_text("load.name", self.name, required=True, max_len=64)
+        check_mass_source(self)
         check_range(f"load {self.name}.mass", self.mass, 1.0, 500_000.0, unit="kg")
         check_range(f"load {self.name}.footprint_length", self.footprint_length, 0.01, 30.0,
                     unit="m")
@@ -467,9 +490,17 @@ class LiftZone:
     radial_speed: float = 0.0
     swing_angle: float = 0.0
     swing_length: float = 0.0
+    crane_description: str = ""
+    """The crane: type, capacity, owner's or fleet number. Empty: not recorded."""
+    crane_configuration: str = ""
+    """Boom and jib, counterweight, outrigger or track set-up, duty chart used.
+    Empty: not recorded."""
+    lift_points: tuple[LiftPoint, ...] = ()
+    """Pick-up and set-down points in plan (m)."""
 
     def __post_init__(self) -> None:
         check_text("zone.id", self.id, required=True, max_len=32)
+        check_zone_permit(self)
         check_text(f"zone {self.id}.name", self.name)
         check_text(f"zone {self.id}.level_id", self.level_id, required=True)
         _check_point(f"zone {self.id}.crane", self.crane)

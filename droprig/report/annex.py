@@ -34,7 +34,7 @@ from droprig import __version__
 from droprig.advice import advice_text
 from droprig.io.atomic import atomic_path
 from droprig.model import Level, LiftZone, ModelError, Project, bays
-from droprig.report import content, fonts, references
+from droprig.report import content, fonts, permit_fields, references
 from droprig.report.formula import SIG, evaluate, fmt_sig, printed_tolerance
 from droprig.report.text import esc, fmt_util, fmt_value, is_none
 from droprig.solver import (
@@ -315,6 +315,7 @@ def check_printable(project: Project) -> None:
             fields.append((f"zone {z.id}.load name", ld.name, False))
     for p in project.protection_areas:
         fields.append((f"protection {p.id}.name", p.name, False))
+    fields += _permit_text_fields(project)
     for name, text, multiline in fields:
         for ch in text:
             if ch in "\n\r\t" and multiline:
@@ -326,6 +327,19 @@ def check_printable(project: Project) -> None:
         if bad:
             raise ModelError(name, text, "characters the annex font (DejaVu Sans: Latin, "
                              f"Greek, Cyrillic) can print; cannot print {bad!r}")
+
+
+def _permit_text_fields(project: Project) -> list[tuple[str, str, bool]]:
+    """The permit data's text for :func:`check_printable` (single-line fields)."""
+    info = project.info
+    out = [(f"info.{k}", getattr(info, k), False)
+           for k in ("permit_number", "lift_plan_revision", "valid_from", "valid_to")]
+    for z in project.lift_zones:
+        out += [(f"zone {z.id}.crane_description", z.crane_description, False),
+                (f"zone {z.id}.crane_configuration", z.crane_configuration, False)]
+        out += [(f"zone {z.id}.lift_points[{i}].label", p.label, False)
+                for i, p in enumerate(z.lift_points)]
+    return out
 
 
 # ----------------------------------------------------------------------- styles
@@ -567,10 +581,11 @@ def _canvas_class(header: _Header, book: _Book,
             self.setFont(fonts.REGULAR, MIN_PT)
             sec = getattr(self, "_droprig_section", "")
             self.drawRightString(m + w, top - 11, sec)
-            cw = [0.33 * w, 0.29 * w, 0.2 * w, 0.06 * w]
+            cw = [0.31 * w, 0.27 * w, 0.2 * w, 0.1 * w]
             cw.append(w - sum(cw))
             cells = [("Project", header.project, True), ("Site", header.site, False),
-                     ("Lift reference", header.lift, True), ("Rev", header.revision, True),
+                     ("Lift plan, revision", header.lift, True),
+                     ("Annex rev", header.revision, True),
                      ("Date", header.date, False)]
             x = m
             for (label, value, bold), cwi in zip(cells, cw, strict=True):
@@ -770,10 +785,12 @@ class _Builder:
         vstyle.style = vstyle.style.clone("v2", textColor=colors.HexColor(style.ink))
         info = self.p.info
         self.story.append(Spacer(1, 4))
-        ref, rev = esc(info.lift_reference) or NOT_GIVEN, esc(info.revision) or NOT_GIVEN
+        ref = esc(info.lift_reference) or NOT_GIVEN
+        plan_rev = esc(info.lift_plan_revision) or permit_fields.NOT_RECORDED
+        rev = esc(info.revision) or NOT_GIVEN
         self.story.append(self.P(
-            f"Dropped-load assessment of the framing under lift <b>{ref}</b> rev "
-            f"<b>{rev}</b>: "
+            f"Dropped-load assessment, revision <b>{rev}</b>, of the framing under lift plan "
+            f"<b>{ref}</b> revision <b>{plan_rev}</b>: "
             f"{len(self.zones)} lift zone(s), {sum(len(z.loads) for z in self.zones)} "
             f"load(s), {self.r.n_points:,} drop points. Design basis {esc(_basis(self.p))}. "
             "Drop heights are the load's underside above the finished surface of the "
@@ -820,6 +837,7 @@ class _Builder:
         if flags:
             self.story.append(self.P("Title block incomplete: " + esc("; ".join(flags))
                                      + ". Complete it by hand before signing.", st.caution))
+        self.story.extend(self.permit_flags())
         self.story.append(Spacer(1, 3))
         self.story.append(self.P(esc(_caution()), st.caution))
         self.story.append(KeepTogether(self.signoff()))
@@ -827,12 +845,49 @@ class _Builder:
     def title_flags(self) -> list[str]:
         info = self.p.info
         out = []
-        for label, value in (("permit / lift reference", info.lift_reference),
+        for label, value in (("lift-plan reference", info.lift_reference),
                              ("revision", info.revision), ("date", info.date),
                              ("project name", info.name), ("site", info.site)):
             if not value.strip():
                 out.append(f"{label} not given")
         return out
+
+    def permit_flags(self) -> list[object]:
+        """Page 1: the permit data the project file does not record (never filled in),
+        and any pick-up or set-down point inside an exclusion area."""
+        out = []
+        missing = permit_fields.not_recorded(self.p, self.zones)
+        if missing:
+            out.append(self.P(
+                f"<b>{permit_fields.NOT_RECORDED}</b> in the project file: "
+                + esc("; ".join(missing)) + ". Write each in by hand in the sign-off block "
+                "and confirm it before signing.", self.st.caution))
+        ended = permit_fields.window_ended(self.p, _dt.datetime.now(_dt.UTC))
+        if ended:
+            out.append(self.P("<b>VALIDITY ENDED</b>: " + esc(ended) + ". Do not sign; "
+                              "renew the permit and print the annex again.",
+                              self.st.caution))
+        clash = permit_fields.points_in_exclusions(self.p, self.zones, self.conditions)
+        if clash:
+            out.append(self.P(
+                "<b>LIFT PLAN AND CONDITIONS DISAGREE</b>: " + esc("; ".join(clash))
+                + ". Move the point or change the plan, and assess again before signing.",
+                self.st.caution))
+        return out
+
+    def signoff_rows(self) -> list[list[str]]:
+        """Permit number, lift plan, crane, validity: recorded values or write-ins."""
+        info = self.p.info
+        fmt = (lambda x: self.v(x, "length"))  # noqa: E731
+        return [
+            ["Permit number", info.permit_number or permit_fields.WRITE_IN],
+            ["Lift-plan reference and revision", permit_fields.lift_plan_text(self.p)],
+            ["Crane and configuration", " ".join(
+                permit_fields.crane_text(z, fmt) + "." for z in self.zones)],
+            ["Valid from / to", f"{permit_fields.validity_text(self.p)}, and only for the "
+             f"input whose SHA-256 is printed in the footer of every page "
+             f"({self.fp.source})"],
+        ]
 
     def signoff(self) -> list[object]:
         from reportlab.lib import colors
@@ -842,19 +897,8 @@ class _Builder:
         info = self.p.info
         w = self.w
         flow: list[object] = [self.P("Sign-off", st.h2)]
-        crane = "; ".join(f"{z.id}: {z.name}, at ({self.v(z.crane[0], 'length')}, "
-                          f"{self.v(z.crane[1], 'length')}), radius "
-                          f"{self.v(z.r_min, 'length')} to {self.v(z.r_max, 'length')}"
-                          for z in self.zones)
-        blank = "________________________"
         rows = [
-            ["Permit number", blank + " (write in)"],
-            ["Lift-plan reference and revision",
-             f"{info.lift_reference or NOT_GIVEN} rev {info.revision or NOT_GIVEN}"],
-            ["Crane and configuration", f"{crane}. Model, boom, counterweight and "
-             f"outrigger set-up: {blank}"],
-            ["Valid from / to", f"{blank} to {blank}, and only for the input whose SHA-256 "
-             f"is printed in the footer of every page ({self.fp.source})"],
+            *self.signoff_rows(),
             ["This annex is void after", "; ".join(INVALIDATES) + "."],
             ["After a drop", " ".join(AFTER_A_DROP)],
         ]
@@ -1007,7 +1051,7 @@ class _Builder:
                     h = "below the surface"
                 rows.append([
                     z.id, self.P(esc(ld.name)), ld.kind, self.v(ld.mass, "mass"),
-                    self.P("<b>not recorded</b>: confirm (weighed, certified, drawing)"),
+                    self.P(_mass_source_cell(ld)),
                     f"{self.v(ld.footprint_length, 'length')} × "
                     f"{self.v(ld.footprint_width, 'length')}",
                     self.v(ld.hook_elevation, "length") if ld.hook_elevation is not None
@@ -1056,8 +1100,11 @@ class _Builder:
                          f"{_deg(z.slew_start)} – {_deg(z.slew_start + z.slew_sweep)}",
                          self.v(z.drift_margin, "length"),
                          f"{len(z.corridor)} points" if z.corridor else "none"])
+            rows.append(self.crane_row(z))
+        extra = [("SPAN", (1, r), (-1, r)) for r in range(2, len(rows), 2)]
         self.story.append(_table(rows, [0.06 * w, 0.25 * w, 0.06 * w, 0.15 * w, 0.14 * w,
-                                        0.13 * w, 0.1 * w, 0.11 * w]))
+                                        0.13 * w, 0.1 * w, 0.11 * w], extra=extra))
+        self.story.extend(self.point_inputs())
         self.story.append(self.P("Design criteria and settings", st.h2))
         s = self.p.settings
         crit = [
@@ -1100,6 +1147,30 @@ class _Builder:
                                          bulletText="•"))
         self.story.append(Spacer(1, 3))
         self.story.append(self.P(esc(_caution()), st.caution))
+
+    def crane_row(self, z: LiftZone) -> list[object]:
+        """A row under the zone's row (spanning the table): crane and configuration."""
+        crane = esc(z.crane_description) or _NOT_RECORDED_CELL
+        conf = esc(z.crane_configuration) or _NOT_RECORDED_CELL
+        return ["", self.P(f"Crane: {crane}. Configuration: {conf}."), "", "", "", "", "", ""]
+
+    def point_inputs(self) -> list[object]:
+        """The zones' pick-up and set-down points (none recorded: page 1 says so)."""
+        w = self.w
+        pts = permit_fields.point_rows(self.p, self.zones)
+        if not pts:
+            return []
+        flow: list[object] = [self.P("Pick-up and set-down points (symbols on the "
+                                     "conditions plan)", self.st.h2)]
+        big = "ft" if self.sys == "US" else "m"
+        rows = [["Zone", "Point", "Kind", "Description", f"x, {big}", f"y, {big}", "Bay"]]
+        for r in pts:
+            rows.append([r.zone_id, r.tag, r.kind, self.P(esc(r.label) or "–"),
+                         self.v(r.x, "length").split(" ")[0],
+                         self.v(r.y, "length").split(" ")[0], self.P(esc(r.bay))])
+        flow.append(_table(rows, [0.06 * w, 0.07 * w, 0.09 * w, 0.4 * w, 0.11 * w,
+                                  0.11 * w, 0.16 * w]))
+        return flow
 
     # ------------------------------------------------------------ contents
     def contents(self, sheets: Sequence[SheetDoc]) -> None:
@@ -1291,6 +1362,17 @@ class _Builder:
 
 
 # ----------------------------------------------------------------------- sheets
+
+
+_NOT_RECORDED_CELL = f"<b>{permit_fields.NOT_RECORDED}</b>"
+
+
+def _mass_source_cell(ld: object) -> str:
+    """The mass source in words, or NOT RECORDED with what to confirm."""
+    words = permit_fields.mass_source_text(ld)  # type: ignore[arg-type]
+    if words == permit_fields.NOT_RECORDED:
+        return f"{_NOT_RECORDED_CELL}: confirm (weighed, data plate, drawing)"
+    return esc(words)
 
 
 def wrap_text(text: str, font: str, size: float, width: float) -> str:
@@ -1555,7 +1637,10 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
     b.revisions()
 
     info = project.info
-    header = _Header(info.name, info.site, info.lift_reference, info.revision, info.date,
+    lift = info.lift_reference
+    if lift and info.lift_plan_revision:
+        lift = f"{lift} rev {info.lift_plan_revision}"
+    header = _Header(info.name, info.site, lift, info.revision, info.date,
                      __version__, fp.sha256, _units(system))
     with atomic_path(path) as tmp:
         doc = BaseDocTemplate(

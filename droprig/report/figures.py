@@ -12,8 +12,10 @@ hatched heavy black over white; pads and mats filled dark and labelled with thei
 specification; each bay labelled with its id, outcome, utilisation and the numbers
 of the permit conditions that apply to it (hook caps among them). Girders heavy
 solid, beams light solid, the reachable edge long-dashed with a halo, the drift
-margin dotted, the corridor dash-dot, columns as filled squares. Every text is at
-least 7 pt; nothing relies on colour alone (greyscale-safe).
+margin dotted, the corridor dash-dot, columns as filled squares; pick-up points
+as open upright triangles (P1, P2 …), set-down points as filled inverted
+triangles (S1, S2 …). Every text is at least 7 pt; nothing relies on colour
+alone (greyscale-safe).
 """
 
 from __future__ import annotations
@@ -27,7 +29,7 @@ from reportlab.lib import colors
 from reportlab.pdfbase.pdfmetrics import stringWidth
 
 from droprig import units
-from droprig.model import Level, LiftZone, ProtectionArea, bays
+from droprig.model import Level, LiftZone, ProtectionArea, bays, lift_point_tags
 from droprig.report import fonts
 from droprig.report.content import NOT_ASSESSED, OUTCOMES, OutcomeStyle
 from droprig.report.geometry import (
@@ -193,6 +195,9 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
         for q in z.corridor:
             xs.append(q[0])
             ys.append(q[1])
+        for lp in z.lift_points:
+            xs.append(lp.at[0])
+            ys.append(lp.at[1])
     pad = max(1.0, 0.06 * max(max(xs) - min(xs), max(ys) - min(ys)))
     box = (min(xs) - pad, min(ys) - pad, max(xs) + pad, max(ys) + pad)
     plan_h = height - LEGEND_HEIGHT
@@ -360,9 +365,46 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
             labels.add(_text(x0 + 3, y1 - 1 - (k + 1) * MIN_PT * 1.2 + 1, t, MIN_PT,
                              color=colors.white))
     d.add(labels)
+    _lift_points(d, zones, P)  # above the labels: a point is never hidden
     _north_and_scale(d, s, system, width, LEGEND_HEIGHT + 8)
     _legend(d, width)
     return d
+
+
+POINT_SIZE = 6.5
+"""Half-height of the pick-up and set-down triangles, pt."""
+
+
+def lift_point_symbol(kind: str, x: float, y: float, size: float = POINT_SIZE) -> Group:
+    """Pick-up: an open upright triangle with a heavy outline; set-down: a filled
+    inverted triangle. Told apart by shape and by fill, so also in greyscale."""
+    gr = Group()
+    if kind == "pick_up":
+        pts = [x - size, y - size * 0.8, x + size, y - size * 0.8, x, y + size * 1.1]
+        gr.add(Polygon(pts, fillColor=colors.white, strokeColor=colors.white,
+                       strokeWidth=3.2, strokeLineJoin=1))
+        gr.add(Polygon(pts, fillColor=colors.white, strokeColor=INK, strokeWidth=1.6,
+                       strokeLineJoin=1))
+    else:
+        pts = [x - size, y + size * 0.8, x + size, y + size * 0.8, x, y - size * 1.1]
+        gr.add(Polygon(pts, fillColor=INK, strokeColor=colors.white, strokeWidth=1.8,
+                       strokeLineJoin=1))
+    return gr
+
+
+def _lift_points(d: Drawing, zones: Sequence[LiftZone], P: object) -> None:
+    """Each zone's pick-up and set-down points with their tags (zone id added
+    when the level carries more than one zone)."""
+    several = len(zones) > 1
+    for z in zones:
+        for tag, lp in zip(lift_point_tags(z), z.lift_points, strict=True):
+            x, y = P(*lp.at)  # type: ignore[operator]
+            d.add(lift_point_symbol(lp.kind, x, y))
+            text = f"{z.id} {tag}" if several else tag
+            w = stringWidth(text, fonts.BOLD, MIN_PT) + 4
+            d.add(Rect(x + POINT_SIZE + 1, y - 4, w, 9.5, fillColor=colors.white,
+                       strokeColor=INK, strokeWidth=0.5))
+            d.add(_text(x + POINT_SIZE + 3, y - 1.5, text, MIN_PT, bold=True))
 
 
 def _north_and_scale(d: Drawing, s: float, system: UnitSystem, width: float,
@@ -417,7 +459,11 @@ def _legend(d: Drawing, width: float) -> None:
          ("C3: permit condition no. 3 applies", lambda x, yy: _text(x + 2, yy, "C3", MIN_PT,
                                                                     bold=True)),
          ("column", lambda x, yy: Rect(x + 8, yy - 0.5, 6, 6, fillColor=INK,
-                                       strokeColor=None))],
+                                       strokeColor=None)),
+         ("P1: pick-up point (inputs, section 4)",
+          lambda x, yy: lift_point_symbol("pick_up", x + 11, yy + 2.5, 4.5)),
+         ("S1: set-down point (inputs, section 4)",
+          lambda x, yy: lift_point_symbol("set_down", x + 11, yy + 2.5, 4.5))],
         [("girder", lambda x, yy: line(x, yy, 2.2, None)),
          ("beam", lambda x, yy: line(x, yy, 0.6, None)),
          ("edge of the swing region", lambda x, yy: line(x, yy, 1.2, REACH_DASH, ZONE_INK)),

@@ -59,13 +59,13 @@ from __future__ import annotations
 
 import threading
 from collections.abc import Callable, Hashable, Iterable
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from functools import cache
 from typing import Any, TypeVar
 
 import numpy as np
 
-from droprig.model import Level, ModelError
+from droprig.model import Level, Member, ModelError
 from droprig.model.project import GEOMETRY_TOL
 from droprig.solver import beam
 from droprig.solver.parallel import for_blocks
@@ -471,31 +471,100 @@ def build_frame(level: Level, *, include_member_mass: bool = True,
                 EI: np.ndarray | None = None) -> Frame:
     """Precompute the load-path data of ``level`` (see :class:`Frame`). ``EI``
     (N·m², per member) replaces the steel sections' E·Ix (composite members)."""
+    mb = _member_arrays(level, include_member_mass)
+    if EI is not None:
+        mb = replace(mb, EI=np.asarray(EI, float).copy())
+    nd = _nodes(level, mb)
+    T, D = _node_matrices(mb, nd)
+    N_R, quad = _member_quadrature(mb, nd)
+    deck_axis, u_breaks, v_breaks, cell_pair, pairs = _deck_cells(level, mb)
+    n_p, n_m = pairs.shape[0], mb.L.size
+    pair_c = mb.cross[pairs] if n_p else np.zeros((0, 2))
+    pair_nodes = np.concatenate([nd.end_node[pairs[:, 0]], nd.end_node[pairs[:, 1]]],
+                                axis=1) if n_p else np.zeros((0, 4), dtype=np.int64)
+    pair_D = D[pair_nodes[:, :, None], pair_nodes[:, None, :]] if n_p else np.zeros((0, 4, 4))
+    support_lists = [_support_path(level, nd, pairs[ip], pair_nodes[ip])
+                     for ip in range(n_p)]
+    pair_M = np.zeros((n_p, 4, 4))
+    for ip, path in enumerate(support_lists):
+        pair_M[ip] = _support_mass_form(mb, nd, T, D, quad, path, pair_nodes[ip])
+    sup_member, sup_x, sup_m, sup_r, sup_w, sup_wmax = _support_actions(
+        mb, nd, T, D, pair_nodes, support_lists)
+    return Frame(
+        level=level, cond=mb.cond, L=mb.L, EI=mb.EI, mu=mb.mu, vs=mb.vs, vdir=mb.vdir,
+        cross=mb.cross, end_node=nd.end_node, node_member=nd.node_member,
+        node_pos=nd.node_pos, node_xy=nd.node_xy, nodes_on=nd.nodes_on,
+        T=T, D=D, deck_axis=deck_axis, u_breaks=u_breaks, v_breaks=v_breaks,
+        cell_pair=cell_pair, pair_members=pairs, pair_c=pair_c, pair_nodes=pair_nodes,
+        pair_D=pair_D, pair_M=pair_M, pair_support=tuple(support_lists), N_R=N_R,
+        pair_sup_member=sup_member, pair_sup_x=sup_x, pair_sup_mcoef=sup_m,
+        pair_sup_rcoef=sup_r, pair_sup_wcoef=sup_w,
+        pair_D16=np.ascontiguousarray(pair_D.reshape(n_p, 16).T),
+        pair_M16=np.ascontiguousarray(pair_M.reshape(n_p, 16).T),
+        pair_wmax=np.ascontiguousarray(sup_wmax.T),
+        N_R16=np.ascontiguousarray(N_R.reshape(n_m, 4).T),
+    )
+
+
+@dataclass(frozen=True, eq=False)
+class _MemberArrays:
+    """Per member: end condition code, span L (m), EI (N·m²), mass per length μ
+    (kg/m; 0 without member mass), start ``vs`` and direction ``vdir`` along its axis,
+    plan coordinate ``cross`` across it, axis index (0 = x)."""
+
+    members: tuple[Member, ...]
+    cond: np.ndarray
+    L: np.ndarray
+    EI: np.ndarray
+    mu: np.ndarray
+    vs: np.ndarray
+    vdir: np.ndarray
+    cross: np.ndarray
+    axis_idx: np.ndarray
+
+
+def _member_arrays(level: Level, include_member_mass: bool) -> _MemberArrays:
     members = level.members
     n_m = len(members)
     if n_m == 0:
         raise ModelError(f"level {level.id}.members", 0, "at least one member")
     cond = np.array([COND_NAMES.index(m.end_condition) for m in members], dtype=np.int64)
-    L = np.array([m.span for m in members])
-    EI = (np.array([m.grade.E * m.section.Ix for m in members]) if EI is None
-          else np.asarray(EI, float).copy())
     mu = np.array([m.section.mass_per_length for m in members])
     if not include_member_mass:
         mu = np.zeros(n_m)
     axis_idx = np.array([0 if m.axis == "x" else 1 for m in members])
-    vs = np.array([m.start[a] for m, a in zip(members, axis_idx, strict=True)])
-    vdir = np.array([1.0 if m.end[a] >= m.start[a] else -1.0
-                     for m, a in zip(members, axis_idx, strict=True)])
-    cross = np.array([m.start[1 - a] for m, a in zip(members, axis_idx, strict=True)])
+    return _MemberArrays(
+        members=members, cond=cond, L=np.array([m.span for m in members]),
+        EI=np.array([m.grade.E * m.section.Ix for m in members]), mu=mu,
+        vs=np.array([m.start[a] for m, a in zip(members, axis_idx, strict=True)]),
+        vdir=np.array([1.0 if m.end[a] >= m.start[a] else -1.0
+                       for m, a in zip(members, axis_idx, strict=True)]),
+        cross=np.array([m.start[1 - a] for m, a in zip(members, axis_idx, strict=True)]),
+        axis_idx=axis_idx)
 
-    # ---- nodes: member ends resting on other members
+
+@dataclass(frozen=True, eq=False)
+class _Nodes:
+    """Member ends resting on other members: ``end_node`` (members, 2; n_n = on a
+    column or free), the member and position (m) of each node, its plan point, the
+    nodes on each member."""
+
+    n_n: int
+    end_node: np.ndarray
+    node_member: np.ndarray
+    node_pos: np.ndarray
+    node_xy: np.ndarray
+    nodes_on: tuple[np.ndarray, ...]
+
+
+def _nodes(level: Level, mb: _MemberArrays) -> _Nodes:
     node_key: dict[tuple[int, int], int] = {}
     node_member: list[int] = []
     node_pos: list[float] = []
     node_xy: list[tuple[float, float]] = []
     end_ref: list[list[int]] = []
     rests_on: dict[int, set[int]] = {}
-    for k, m in enumerate(members):
+    for k, m in enumerate(mb.members):
         refs = []
         for e, p in enumerate((m.start, m.end)):
             if (m.end_condition == "cantilever" and e == 1) or _is_column(level, p):
@@ -513,21 +582,28 @@ def build_frame(level: Level, *, include_member_mass: bool = True,
         end_ref.append(refs)
     _check_acyclic(level, rests_on)
     n_n = len(node_member)
-    end_node = np.array([[n_n if r < 0 else r for r in refs] for refs in end_ref],
-                        dtype=np.int64)
     node_member_a = np.array(node_member, dtype=np.int64)
-    node_pos_a = np.array(node_pos, dtype=float)
-    nodes_on = tuple(np.flatnonzero(node_member_a == k) for k in range(n_m))
+    return _Nodes(
+        n_n=n_n,
+        end_node=np.array([[n_n if r < 0 else r for r in refs] for refs in end_ref],
+                          dtype=np.int64),
+        node_member=node_member_a, node_pos=np.array(node_pos, dtype=float),
+        node_xy=np.array(node_xy, dtype=float).reshape(-1, 2),
+        nodes_on=tuple(np.flatnonzero(node_member_a == k) for k in range(len(mb.members))))
 
-    # ---- node propagation T and node flexibility D
+
+def _node_matrices(mb: _MemberArrays, nd: _Nodes) -> tuple[np.ndarray, np.ndarray]:
+    """Node propagation T = (I − P)⁻¹ (a node load passed down the member tree by the
+    reaction influence lines) and node flexibility D = Tᵀ·G·T (Maxwell–Betti)."""
+    n_n, L, EI, end_node = nd.n_n, mb.L, mb.EI, nd.end_node
     P = np.zeros((n_n + 1, n_n + 1))
     Gn = np.zeros((n_n + 1, n_n + 1))
-    for k in range(n_m):
-        on = nodes_on[k]
+    for k in range(L.size):
+        on = nd.nodes_on[k]
         if on.size == 0:
             continue
-        c = COND_NAMES[cond[k]]
-        s_on = node_pos_a[on]
+        c = COND_NAMES[mb.cond[k]]
+        s_on = nd.node_pos[on]
         R0, RL = beam.unit_reactions(c, L[k], s_on)
         for e, R in ((0, R0), (1, RL)):
             tgt = end_node[k, e]
@@ -539,24 +615,36 @@ def build_frame(level: Level, *, include_member_mass: bool = True,
     T[:, n_n] = 0.0
     D = T.T @ Gn @ T
     D = 0.5 * (D + D.T)
+    return T, D
 
-    # ---- member quadrature data (support movement by the reaction influence line)
+
+def _member_quadrature(mb: _MemberArrays, nd: _Nodes,
+                       ) -> tuple[np.ndarray, list[tuple[np.ndarray, np.ndarray]]]:
+    """Gauss points of each member between its nodes, and N_R (members, 2, 2): the
+    mass form of the support movement carried by the reaction influence lines."""
+    L, n_m = mb.L, mb.L.size
     N_R = np.zeros((n_m, 2, 2))
     quad: list[tuple[np.ndarray, np.ndarray]] = []
     for k in range(n_m):
-        brk = np.unique(np.concatenate(([0.0, L[k]], node_pos_a[nodes_on[k]])))
+        brk = np.unique(np.concatenate(([0.0, L[k]], nd.node_pos[nd.nodes_on[k]])))
         seg0, seg1 = brk[:-1], brk[1:]
         xq = (seg0[:, None] + (seg1 - seg0)[:, None] * _GL_S[None, :]).ravel()
         wq = ((seg1 - seg0)[:, None] * _GL_WS[None, :]).ravel()
         quad.append((xq, wq))
-        R0, RL = beam.unit_reactions(COND_NAMES[cond[k]], L[k], xq)
+        R0, RL = beam.unit_reactions(COND_NAMES[mb.cond[k]], L[k], xq)
         Rq = np.stack([R0, RL], axis=1)
-        N_R[k] = mu[k] * (Rq * wq[:, None]).T @ Rq
+        N_R[k] = mb.mu[k] * (Rq * wq[:, None]).T @ Rq
+    return N_R, quad
 
-    # ---- deck cells and panels
+
+def _deck_cells(level: Level, mb: _MemberArrays,
+                ) -> tuple[str, np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """Deck span axis, cell breaks across (u) and along (v) the deck members, the
+    panel of each cell (−1 none) and the two deck members of each panel."""
+    L, vs, vdir, cross = mb.L, mb.vs, mb.vdir, mb.cross
     deck_axis = _deck_axis(level)
     dk_idx = 0 if deck_axis == "x" else 1
-    deck_members = [k for k in range(n_m) if axis_idx[k] == dk_idx]
+    deck_members = [k for k in range(L.size) if mb.axis_idx[k] == dk_idx]
     c_deck = cross[deck_members]
     v_lo = np.minimum(vs[deck_members], vs[deck_members] + vdir[deck_members] * L[deck_members])
     v_hi = np.maximum(vs[deck_members], vs[deck_members] + vdir[deck_members] * L[deck_members])
@@ -582,63 +670,79 @@ def build_frame(level: Level, *, include_member_mass: bool = True,
                 pair_index[key] = len(pair_index)
             cell_pair[iu, iv] = pair_index[key]
     pairs = np.array(list(pair_index), dtype=np.int64).reshape(-1, 2)
-    n_p = pairs.shape[0]
-    pair_c = cross[pairs] if n_p else np.zeros((0, 2))
-    pair_nodes = np.concatenate([end_node[pairs[:, 0]], end_node[pairs[:, 1]]], axis=1) \
-        if n_p else np.zeros((0, 4), dtype=np.int64)
-    pair_D = D[pair_nodes[:, :, None], pair_nodes[:, None, :]] if n_p else np.zeros((0, 4, 4))
-    pair_M = np.zeros((n_p, 4, 4))
-    support_lists: list[tuple[int, ...]] = []
-    for ip in range(n_p):
-        nl = pair_nodes[ip]
-        path: list[int] = []
-        todo = [int(n) for n in nl if n < n_n]
-        seen_nodes: set[int] = set()
-        while todo:
-            nd = todo.pop()
-            if nd in seen_nodes:
-                continue
-            seen_nodes.add(nd)
-            mm = int(node_member_a[nd])
-            if mm not in path:
-                path.append(mm)
-            todo.extend(int(x) for x in end_node[mm] if x < n_n)
-        kl, kr = int(pairs[ip, 0]), int(pairs[ip, 1])
-        for kk in (kl, kr):
-            if kk in path:
-                raise ModelError(
-                    f"level {level.id}.members[{members[kk].id}]", members[kk].id,
-                    "a deck-supporting member that does not also carry, in the same "
-                    "deck panel, the load of the members it supports")
-        path.sort()
-        support_lists.append(tuple(path))
-        Mloc = np.zeros((4, 4))
-        for mm in path:
-            xq, wq = quad[mm]
-            on = nodes_on[mm]
-            c = COND_NAMES[cond[mm]]
-            Phi = np.zeros((xq.size, 4))
-            if on.size:
-                g = beam.green(c, L[mm], EI[mm], xq[:, None], node_pos_a[on][None, :])
-                Phi += g @ T[np.ix_(on, nl)]
-            R0, RL = beam.unit_reactions(c, L[mm], xq)
-            Phi += R0[:, None] * D[end_node[mm, 0], nl][None, :]
-            Phi += RL[:, None] * D[end_node[mm, 1], nl][None, :]
-            Mloc += mu[mm] * (Phi * wq[:, None]).T @ Phi
-        pair_M[ip] = 0.5 * (Mloc + Mloc.T)
+    return deck_axis, u_breaks, v_breaks, cell_pair, pairs
 
-    # ---- support-member unit actions per pair: stations, moments, reactions
+
+def _support_path(level: Level, nd: _Nodes, pair: np.ndarray,
+                  nl: np.ndarray) -> tuple[int, ...]:
+    """The members that carry a panel's deck members (sorted), following the nodes
+    down to the columns; a deck member of the panel among them is refused."""
+    n_n, members = nd.n_n, level.members
+    path: list[int] = []
+    todo = [int(n) for n in nl if n < n_n]
+    seen_nodes: set[int] = set()
+    while todo:
+        node = todo.pop()
+        if node in seen_nodes:
+            continue
+        seen_nodes.add(node)
+        mm = int(nd.node_member[node])
+        if mm not in path:
+            path.append(mm)
+        todo.extend(int(x) for x in nd.end_node[mm] if x < n_n)
+    for kk in (int(pair[0]), int(pair[1])):
+        if kk in path:
+            raise ModelError(
+                f"level {level.id}.members[{members[kk].id}]", members[kk].id,
+                "a deck-supporting member that does not also carry, in the same "
+                "deck panel, the load of the members it supports")
+    path.sort()
+    return tuple(path)
+
+
+def _support_mass_form(mb: _MemberArrays, nd: _Nodes, T: np.ndarray, D: np.ndarray,
+                       quad: list[tuple[np.ndarray, np.ndarray]], path: tuple[int, ...],
+                       nl: np.ndarray) -> np.ndarray:
+    """Kinetic-energy form (4, 4) of the support members of a panel per local
+    reaction: Σ μ ∫ Φᵀ Φ dx with Φ their deflection per reaction (own bending under
+    the node loads + end movement by the reaction influence lines)."""
+    L, EI, end_node = mb.L, mb.EI, nd.end_node
+    Mloc = np.zeros((4, 4))
+    for mm in path:
+        xq, wq = quad[mm]
+        on = nd.nodes_on[mm]
+        c = COND_NAMES[mb.cond[mm]]
+        Phi = np.zeros((xq.size, 4))
+        if on.size:
+            g = beam.green(c, L[mm], EI[mm], xq[:, None], nd.node_pos[on][None, :])
+            Phi += g @ T[np.ix_(on, nl)]
+        R0, RL = beam.unit_reactions(c, L[mm], xq)
+        Phi += R0[:, None] * D[end_node[mm, 0], nl][None, :]
+        Phi += RL[:, None] * D[end_node[mm, 1], nl][None, :]
+        Mloc += mb.mu[mm] * (Phi * wq[:, None]).T @ Phi
+    return 0.5 * (Mloc + Mloc.T)
+
+
+def _support_actions(mb: _MemberArrays, nd: _Nodes, T: np.ndarray, D: np.ndarray,
+                     pair_nodes: np.ndarray, support_lists: list[tuple[int, ...]],
+                     ) -> tuple[np.ndarray, ...]:
+    """Support-member unit actions per panel: stations, moments, end reactions and
+    deflections per local reaction, and the largest deflection per reaction."""
+    L, EI, cond, end_node, nodes_on, node_pos = mb.L, mb.EI, mb.cond, nd.end_node, \
+        nd.nodes_on, nd.node_pos
+
     def stations(k: int) -> np.ndarray:
         """Ends, nodes and midpoints between them; a simple member's ends carry no
         moment and are left out."""
-        pts = np.unique(np.concatenate(([0.0, L[k]], node_pos_a[nodes_on[k]])))
+        pts = np.unique(np.concatenate(([0.0, L[k]], node_pos[nodes_on[k]])))
         mids = 0.5 * (pts[:-1] + pts[1:])
         st = np.unique(np.concatenate([pts, mids]))
         if COND_NAMES[cond[k]] == "simple":
             st = st[(st > 0.0) & (st < L[k])]
         return st
 
-    st = [stations(k) for k in range(n_m)]
+    n_p = len(support_lists)
+    st = [stations(k) for k in range(L.size)]
     n_sup = max((len(p) for p in support_lists), default=0)
     n_st = max((len(st[k]) for p in support_lists for k in p), default=1)
     sup_member = -np.ones((n_p, n_sup), dtype=np.int64)
@@ -657,34 +761,19 @@ def build_frame(level: Level, *, include_member_mass: bool = True,
             sup_member[ip, jp] = mm
             sup_x[ip, jp] = xs_pad
             Tq = T[np.ix_(on, nl)]  # node loads on mm per local reaction
-            um = beam.unit_moment(c, L[mm], xs_pad[:, None], node_pos_a[on][None, :])
+            um = beam.unit_moment(c, L[mm], xs_pad[:, None], node_pos[on][None, :])
             sup_m[ip, jp] = um @ Tq
-            R0, RL = beam.unit_reactions(c, L[mm], node_pos_a[on])
+            R0, RL = beam.unit_reactions(c, L[mm], node_pos[on])
             sup_r[ip, jp, 0] = R0 @ Tq
             sup_r[ip, jp, 1] = RL @ Tq
             # deflection at the stations per local reaction (own bending + supports)
-            sup_w[ip, jp] = _support_deflection(c, L[mm], EI[mm], xs_pad,
-                                                node_pos_a[on], Tq,
+            sup_w[ip, jp] = _support_deflection(c, L[mm], EI[mm], xs_pad, node_pos[on], Tq,
                                                 D[end_node[mm, 0], nl], D[end_node[mm, 1], nl])
             dense = np.unique(np.concatenate([np.linspace(0.0, L[mm], 257), xs]))
-            Wd = _support_deflection(c, L[mm], EI[mm], dense, node_pos_a[on], Tq,
+            Wd = _support_deflection(c, L[mm], EI[mm], dense, node_pos[on], Tq,
                                      D[end_node[mm, 0], nl], D[end_node[mm, 1], nl])
             sup_wmax[ip] = np.maximum(sup_wmax[ip], np.maximum(Wd, 0.0).max(axis=0))
-
-    return Frame(
-        level=level, cond=cond, L=L, EI=EI, mu=mu, vs=vs, vdir=vdir, cross=cross,
-        end_node=end_node, node_member=node_member_a, node_pos=node_pos_a,
-        node_xy=np.array(node_xy, dtype=float).reshape(-1, 2), nodes_on=nodes_on,
-        T=T, D=D, deck_axis=deck_axis, u_breaks=u_breaks, v_breaks=v_breaks,
-        cell_pair=cell_pair, pair_members=pairs, pair_c=pair_c, pair_nodes=pair_nodes,
-        pair_D=pair_D, pair_M=pair_M, pair_support=tuple(support_lists), N_R=N_R,
-        pair_sup_member=sup_member, pair_sup_x=sup_x, pair_sup_mcoef=sup_m,
-        pair_sup_rcoef=sup_r, pair_sup_wcoef=sup_w,
-        pair_D16=np.ascontiguousarray(pair_D.reshape(n_p, 16).T),
-        pair_M16=np.ascontiguousarray(pair_M.reshape(n_p, 16).T),
-        pair_wmax=np.ascontiguousarray(sup_wmax.T),
-        N_R16=np.ascontiguousarray(N_R.reshape(n_m, 4).T),
-    )
+    return sup_member, sup_x, sup_m, sup_r, sup_w, sup_wmax
 
 
 # --------------------------------------------------------------------------- per point
@@ -913,18 +1002,10 @@ def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.nda
     np.multiply(share[1], R0[1], out=r[2])
     np.multiply(share[1], RL[1], out=r[3])
     tmp = np.empty(n)
-
-    def quad4(rows: np.ndarray, where: tuple[int, ...], i: int, dst: np.ndarray) -> None:
-        """dst = ((A_i0·r0 + A_i1·r1) + A_i2·r2) + A_i3·r3"""
-        np.multiply(rows[where[4 * i]], r[0], out=dst)
-        for j in (1, 2, 3):
-            np.multiply(rows[where[4 * i + j]], r[j], out=tmp)
-            dst += tmp
-
     Dl = pt.d_rows.take(pair, axis=1)
     un = np.empty((4, n))
     for i in range(4):
-        quad4(Dl, pt.d_map, i, un[i])
+        _quad4(Dl, pt.d_map, i, r, un[i], tmp)
     del Dl
     gs = np.multiply(share, g_aa, out=g_aa)  # g_own
     # f = (w0·g0 + w1·g1) + (((r0·u0 + r1·u1) + r2·u2) + r3·u3)
@@ -943,12 +1024,36 @@ def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.nda
         out["m_e"][sel] = np.nan
         out["w_ref"][sel] = np.nan
         return
+    m_e, w_ref = _kernel_mass(pt, pair, None if pt.cond is not None else cond, a, L, share,
+                              un, r, f, tmp)
+    _put(out["m_e"], sel, m_e)
+    _put(out["w_ref"], sel, w_ref)
+
+
+def _quad4(rows: np.ndarray, where: tuple[int, ...], i: int, r: np.ndarray, dst: np.ndarray,
+           tmp: np.ndarray) -> None:
+    """dst = ((A_i0·r0 + A_i1·r1) + A_i2·r2) + A_i3·r3 (``tmp``: scratch, (n,))."""
+    np.multiply(rows[where[4 * i]], r[0], out=dst)
+    for j in (1, 2, 3):
+        np.multiply(rows[where[4 * i + j]], r[j], out=tmp)
+        dst += tmp
+
+
+def _kernel_mass(pt: _PointTables, pair: np.ndarray, cond: np.ndarray | None,
+                 a: np.ndarray, L: np.ndarray, share: np.ndarray, un: np.ndarray,
+                 r: np.ndarray, f: np.ndarray, tmp: np.ndarray,
+                 ) -> tuple[np.ndarray, np.ndarray]:
+    """Rayleigh mass m_e (kg) and normalising deflection w_ref (m/N) of the points of
+    :func:`_evaluate_supported` (``cond``: the end-condition codes when mixed; ``a``
+    is overwritten)."""
+    n = pair.size
     # Rayleigh mass: deck members by the exact integrals (tabulated on a/L), support
     # members by the precomputed quadratic form pair_M
     xi = np.divide(a, L, out=a)  # a is not needed any more
     if pt.cond is not None:
         I_gg, J0, J1, Gmax = _mass_tables(pt.cond, xi)
     else:
+        assert cond is not None
         I_gg, J0, J1, Gmax = by_condition(_mass_tables, cond, xi)
     M = pt.mass.take(pair, axis=1)
     mu, L4EI, L7EI2 = M[0:2], M[2:4], M[4:6]
@@ -981,7 +1086,7 @@ def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.nda
     Ml = pt.m_rows.take(pair, axis=1)
     q = np.empty(n)
     for i in range(4):  # kin += r_i·(M r)_i
-        quad4(Ml, pt.m_map, i, q)
+        _quad4(Ml, pt.m_map, i, r, q, tmp)
         q *= r[i]
         kin += q
     del Ml
@@ -1000,8 +1105,7 @@ def _evaluate_supported(frame: Frame, pt: _PointTables, x: np.ndarray, y: np.nda
     m_e = np.zeros(n)
     with np.errstate(divide="ignore", invalid="ignore"):
         np.divide(kin, np.square(w_ref), out=m_e, where=w_ref > 0.0)
-    _put(out["m_e"], sel, m_e)
-    _put(out["w_ref"], sel, w_ref)
+    return m_e, w_ref
 
 
 def _put(dst: np.ndarray, sel: slice | np.ndarray, val: np.ndarray) -> None:

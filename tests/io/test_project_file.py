@@ -253,7 +253,7 @@ def test_whole_degrees_are_written_as_typed(deg: float) -> None:
 
 def test_file_is_json_with_units_in_the_keys_and_library_names(office_roof: Project) -> None:
     doc = json.loads(dumps_project(office_roof))
-    assert doc["format_version"] == FORMAT_VERSION == 1
+    assert doc["format_version"] == FORMAT_VERSION == 2
     assert doc["application"] == "droprig"
     member = doc["levels"][0]["members"][0]
     assert member["section"] == "HEB 400" and member["grade"] == "S355"
@@ -586,7 +586,7 @@ def test_newer_format_is_refused_by_name(office_roof_doc: dict[str, Any]) -> Non
     office_roof_doc["format_version"] = 3
     assert _problems(office_roof_doc) == [
         "$.format_version: written by a newer droprig (format 3); this droprig reads up to "
-        "format 1. Open it with a newer droprig."]
+        "format 2. Open it with a newer droprig."]
 
 
 def _format0_doc(doc1: dict[str, Any]) -> dict[str, Any]:
@@ -610,7 +610,7 @@ def test_format0_file_is_migrated(office_roof: Project, office_roof_doc: dict[st
 def test_migration_does_not_touch_its_input(office_roof_doc: dict[str, Any]) -> None:
     doc0 = _format0_doc(office_roof_doc)
     before = json.dumps(doc0)
-    assert pf._migrate(doc0, 0)["format_version"] == 1
+    assert pf._migrate(doc0, 0)["format_version"] == FORMAT_VERSION
     assert json.dumps(doc0) == before
 
 

