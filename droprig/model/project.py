@@ -225,9 +225,9 @@ class Member:
 
     ``composite``: studded to the deck (shear connectors), so the slab over it acts
     with it in bending (EN 1994-1-1 ch. 6 / AISC 360-16 ch. I). ``connection_capacity``
-    (N): shear capacity of each end connection; ``None`` takes a stated conservative
-    default (``droprig.solver.composite.CONNECTION_DEFAULT_FRACTION`` of the web's
-    plastic shear resistance).
+    (N): shear capacity of each end connection; ``None`` takes the web's plastic
+    shear resistance (``droprig.solver.composite.CONNECTION_DEFAULT_FRACTION``; not
+    conservative).
     """
 
     id: str

