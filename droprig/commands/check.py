@@ -16,6 +16,7 @@ import argparse
 import json
 import math
 import sys
+from dataclasses import dataclass
 from typing import Any
 
 from droprig.cli import EXIT_BAD_INPUT, EXIT_OK
@@ -92,9 +93,27 @@ def run(args: argparse.Namespace) -> int:
         return EXIT_BAD_INPUT
 
 
-def _run(args: argparse.Namespace) -> int:
+@dataclass(frozen=True)
+class MemberDrop:
+    """The member and drop that ``droprig check`` and ``droprig verify`` share, in SI
+    (m, kg, N/m), read from the command line and checked against their ranges."""
+
+    section: Any
+    grade: Any
+    system: str
+    span: float
+    at: float
+    mass: float
+    drop: float
+    cushion_stiffness: float | None
+    load_stiffness: float | None
+
+
+def member_drop(args: argparse.Namespace) -> MemberDrop:
+    """Section, grade, span, point, mass, drop and the optional mat and load-underside
+    stiffnesses of a single-member command; raises :class:`_BadInputError` naming the
+    option and its allowed range."""
     from droprig.io.sections import GradeNotFound, SectionNotFound, get_grade, get_section
-    from droprig.solver import RESULT_KEYS, assess_member, on_rigid_support
 
     try:
         section = get_section(args.section)
@@ -104,31 +123,39 @@ def _run(args: argparse.Namespace) -> int:
         grade = get_grade(args.grade)
     except GradeNotFound as exc:
         raise _BadInputError(f"--grade: {exc}") from exc
-    basis = args.code or ("aisc360" if grade.family == "ASTM" else "en1993")
     system = args.units or ("US" if grade.family == "ASTM" else "SI")
-
     span = _parse(args, "span", "length", system)
     at = _parse(args, "at", "length", system)
     mass = _parse(args, "mass", "mass", system)
     drop = _parse(args, "drop", "length", system)
     assert span is not None and at is not None and mass is not None and drop is not None
-    bearing = _parse(args, "bearing", "small_length", system)
     k_c = _parse(args, "cushion-stiffness", "stiffness", system)
     k_load = _parse(args, "load-stiffness", "stiffness", system)
-    F_c = _parse(args, "crush-force", "force", system)
-    s_c = _parse(args, "crush-stroke", "small_length", system)
-    udl = _parse(args, "udl", "line_load", system)
-
     _range("--span", span, *SPAN_RANGE, "length", system)
     _range("--at", at, 0.0, span, "length", system)
     _range("--mass", mass, *MASS_RANGE, "mass", system)
     _range("--drop", drop, *DROP_RANGE, "length", system)
-    if bearing is not None:
-        _range("--bearing", bearing, 0.0, span, "small_length", system)
     if k_c is not None:
         _range("--cushion-stiffness", k_c, *STIFFNESS_RANGE, "stiffness", system)
     if k_load is not None:
         _range("--load-stiffness", k_load, *LOAD_STIFFNESS_RANGE, "stiffness", system)
+    return MemberDrop(section, grade, system, span, at, mass, drop, k_c, k_load)
+
+
+def _run(args: argparse.Namespace) -> int:
+    from droprig.solver import RESULT_KEYS, assess_member, on_rigid_support
+
+    md = member_drop(args)
+    section, grade, system = md.section, md.grade, md.system
+    span, at, mass, drop = md.span, md.at, md.mass, md.drop
+    k_c, k_load = md.cushion_stiffness, md.load_stiffness
+    basis = args.code or ("aisc360" if grade.family == "ASTM" else "en1993")
+    bearing = _parse(args, "bearing", "small_length", system)
+    F_c = _parse(args, "crush-force", "force", system)
+    s_c = _parse(args, "crush-stroke", "small_length", system)
+    udl = _parse(args, "udl", "line_load", system)
+    if bearing is not None:
+        _range("--bearing", bearing, 0.0, span, "small_length", system)
     if (F_c is None) != (s_c is None):
         missing = "--crush-stroke" if s_c is None else "--crush-force"
         raise _BadInputError(f"{missing}: missing; a crushable layer needs both --crush-force "

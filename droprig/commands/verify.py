@@ -21,14 +21,8 @@ from typing import TYPE_CHECKING, Any
 
 from droprig.cli import EXIT_BAD_INPUT, EXIT_OK
 from droprig.commands.check import (
-    DROP_RANGE,
-    LOAD_STIFFNESS_RANGE,
-    MASS_RANGE,
-    SPAN_RANGE,
-    STIFFNESS_RANGE,
     _BadInputError,
-    _parse,
-    _range,
+    member_drop,
 )
 from droprig.model import ModelError
 from droprig.texts import CAUTION
@@ -86,33 +80,12 @@ def _run(args: argparse.Namespace) -> int:
 
 
 def _run_member(args: argparse.Namespace) -> int:
-    from droprig.io.sections import GradeNotFound, SectionNotFound, get_grade, get_section
     from droprig.solver import on_rigid_support, verify_member
 
-    try:
-        section = get_section(args.section)
-    except SectionNotFound as exc:
-        raise _BadInputError(f"--section: {exc}") from exc
-    try:
-        grade = get_grade(args.grade)
-    except GradeNotFound as exc:
-        raise _BadInputError(f"--grade: {exc}") from exc
-    system = args.units or ("US" if grade.family == "ASTM" else "SI")
-    span = _parse(args, "span", "length", system)
-    at = _parse(args, "at", "length", system)
-    mass = _parse(args, "mass", "mass", system)
-    drop = _parse(args, "drop", "length", system)
-    assert span is not None and at is not None and mass is not None and drop is not None
-    k_c = _parse(args, "cushion-stiffness", "stiffness", system)
-    k_load = _parse(args, "load-stiffness", "stiffness", system)
-    _range("--span", span, *SPAN_RANGE, "length", system)
-    _range("--at", at, 0.0, span, "length", system)
-    _range("--mass", mass, *MASS_RANGE, "mass", system)
-    _range("--drop", drop, *DROP_RANGE, "length", system)
-    if k_c is not None:
-        _range("--cushion-stiffness", k_c, *STIFFNESS_RANGE, "stiffness", system)
-    if k_load is not None:
-        _range("--load-stiffness", k_load, *LOAD_STIFFNESS_RANGE, "stiffness", system)
+    md = member_drop(args)
+    section, grade, system = md.section, md.grade, md.system
+    span, at, mass, drop = md.span, md.at, md.mass, md.drop
+    k_c, k_load = md.cushion_stiffness, md.load_stiffness
     if args.crush_force is not None or args.crush_stroke is not None:
         raise _BadInputError("--crush-force: the time history models an elastic contact "
                              "only; verify without the crushable layer, or with "
