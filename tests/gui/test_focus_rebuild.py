@@ -6,6 +6,8 @@ the window commits the edit and must never free a widget Qt is still using
 These are behaviour checks of the window's own contract (no engineering
 value is checked here); the project data are invented for the test.
 """
+# These tests check the window's behaviour asked for in issue 15, not engineering values:
+# no published source applies (common practice, no source).
 
 from __future__ import annotations
 

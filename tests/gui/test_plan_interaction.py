@@ -5,6 +5,8 @@ its instruction on the plan.
 
 Behaviour of the window only; the framing is invented for the test.
 """
+# These tests check the window's behaviour asked for in issue 15, not engineering values:
+# no published source applies (common practice, no source).
 
 from __future__ import annotations
 

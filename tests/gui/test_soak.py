@@ -7,6 +7,8 @@ and a shadow undo history.
 Behaviour of the window only (no engineering value is checked); the framing
 and loads are invented for the test.
 """
+# These tests check the window's behaviour asked for in issue 15, not engineering values:
+# no published source applies (common practice, no source).
 
 from __future__ import annotations
 
