@@ -261,9 +261,12 @@ def _level_doc(lv: Level, memo: dict[int, object]) -> dict[str, object]:
                 "fy_rebar_Pa": d.concrete.fy_rebar,
             },
             "openings": [_rect_doc(o) for o in d.openings],
+            **_deck_extra_doc(d),
         },
         "superimposed_dead_Pa": lv.superimposed_dead,
         "live_in_place_Pa": lv.live_in_place,
+        **{key: v for key, v in (("column_area_m2", lv.column_area),
+                                 ("column_height_m", lv.column_height)) if v is not None},
         "members": [
             {
                 "id": m.id,
@@ -273,10 +276,31 @@ def _level_doc(lv: Level, memo: dict[int, object]) -> dict[str, object]:
                 "section": cached(m.section, _section_doc),
                 "grade": cached(m.grade, _grade_doc),
                 "end_condition": m.end_condition,
+                **_member_extra_doc(m),
             }
             for m in lv.members
         ],
     }
+
+
+def _deck_extra_doc(d: Deck) -> dict[str, object]:
+    """Slab and composite-deck data, only when given (older files round-trip unchanged)."""
+    out: dict[str, object] = {}
+    if d.rib_height:
+        out["rib_height_m"] = d.rib_height
+    if d.top_rebar_area:
+        out["top_rebar_area_m2_per_m"] = d.top_rebar_area
+    return out
+
+
+def _member_extra_doc(m: Member) -> dict[str, object]:
+    """Composite flag and connection capacity, only when given."""
+    out: dict[str, object] = {}
+    if m.composite:
+        out["composite"] = True
+    if m.connection_capacity is not None:
+        out["connection_capacity_N"] = m.connection_capacity
+    return out
 
 
 def _load_doc(ld: LiftLoad) -> dict[str, object]:
@@ -370,7 +394,8 @@ def _protection_doc(p: ProtectionArea) -> dict[str, object]:
         "kind": p.kind,
         "thickness_m": p.thickness,
     }
-    for key, v in (("stiffness_N_per_m", p.stiffness), ("crush_force_N", p.crush_force),
+    for key, v in (("stiffness_N_per_m", p.stiffness), ("modulus_Pa", p.modulus),
+                   ("crush_force_N", p.crush_force), ("crush_stress_Pa", p.crush_stress),
                    ("crush_stroke_m", p.crush_stroke)):
         if v is not None:
             out[key] = v
@@ -870,14 +895,17 @@ _COMPONENT = {"x": "[0]", "y": "[1]"}
 _FIELD_TAIL = re.compile(r"\.([A-Za-z_][A-Za-z0-9_]*)(\[\d+\])?(?:\.([xy]))?$")
 
 _KEYS_MEMBER = {"id": "id", "role": "role", "start": "start_m", "end": "end_m",
-                "end_condition": "end_condition"}
+                "end_condition": "end_condition", "composite": "composite",
+                "connection_capacity": "connection_capacity_N"}
 _KEYS_LEVEL = {"id": "id", "name": "name", "elevation": "elevation_m",
                "superimposed_dead": "superimposed_dead_Pa",
-               "live_in_place": "live_in_place_Pa", "members": "members"}
+               "live_in_place": "live_in_place_Pa", "members": "members",
+               "column_area": "column_area_m2", "column_height": "column_height_m"}
 _KEYS_GRID = {"x_lines": "x_lines_m", "y_lines": "y_lines_m", "x_labels": "x_labels",
               "y_labels": "y_labels"}
 _KEYS_DECK = {"kind": "kind", "thickness": "thickness_m", "cover": "cover_m",
-              "rebar_area": "rebar_area_m2_per_m"}
+              "rebar_area": "rebar_area_m2_per_m", "rib_height": "rib_height_m",
+              "top_rebar_area": "top_rebar_area_m2_per_m"}
 _KEYS_CONCRETE = {"fc": "fc_Pa", "density": "density_kg_per_m3", "fy_rebar": "fy_rebar_Pa"}
 _KEYS_RECT = {"x0": "x0_m", "y0": "y0_m", "x1": "x1_m", "y1": "y1_m"}
 _KEYS_SECTION = {"name": "name", "d": "d_m", "bf": "bf_m", "tw": "tw_m", "tf": "tf_m",
@@ -903,7 +931,8 @@ _KEYS_ZONE = {"id": "id", "name": "name", "level_id": "level_id", "crane": "cran
 _KEYS_LIFT_POINT = {"kind": "kind", "at": "at_m", "label": "label"}
 _KEYS_PROTECTION = {"id": "id", "name": "name", "level_id": "level_id", "kind": "kind",
                     "thickness": "thickness_m", "stiffness": "stiffness_N_per_m",
-                    "crush_force": "crush_force_N", "crush_stroke": "crush_stroke_m"}
+                    "crush_force": "crush_force_N", "crush_stroke": "crush_stroke_m",
+                    "crush_stress": "crush_stress_Pa", "modulus": "modulus_Pa"}
 _KEYS_SETTINGS = {"unit_system": "unit_system", "design_basis": "design_basis",
                   "resistance_factor": "resistance_factor",
                   "dynamic_increase_factor": "dynamic_increase_factor",
@@ -1038,7 +1067,8 @@ class _Builder:
                 failed = True
         if failed:
             raise _BuildFailedError
-        kw = {"end_condition": v["end_condition"]} if "end_condition" in v else {}
+        kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_MEMBER.items()
+                         if k in ("end_condition", "composite", "connection_capacity")})
         return self._make(path, _KEYS_MEMBER, lambda: Member(
             v["id"], v["role"], _point(v["start_m"]), _point(v["end_m"]),
             sec_grade[0], sec_grade[1], **kw))
@@ -1085,7 +1115,8 @@ class _Builder:
             raise _BuildFailedError
         assert grid is not None and deck is not None  # built, or failed above
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LEVEL.items()
-                         if k in ("superimposed_dead", "live_in_place")})
+                         if k in ("superimposed_dead", "live_in_place", "column_area",
+                                  "column_height")})
         return self._make(path, _KEYS_LEVEL, lambda: Level(
             v["id"], v.get("name", ""), v["elevation_m"], grid, tuple(members), deck, **kw))
 
@@ -1147,7 +1178,8 @@ class _Builder:
     def protection(self, v: dict[str, Any], path: str) -> ProtectionArea:
         area = self.rect(v["area"], f"{path}.area")
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_PROTECTION.items()
-                         if k in ("kind", "thickness", "crush_force", "crush_stroke")})
+                         if k in ("kind", "thickness", "crush_force", "crush_stroke",
+                                  "crush_stress", "modulus")})
         kw["stiffness"] = v.get("stiffness_N_per_m")
         return self._make(path, _KEYS_PROTECTION, lambda: ProtectionArea(
             id=v["id"], name=v.get("name", ""), level_id=v["level_id"], area=area, **kw))

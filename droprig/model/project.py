@@ -226,6 +226,12 @@ class Member:
     ``propped`` (fixed at ``start``, pinned at ``end``), ``cantilever`` (fixed at
     ``start``, free at ``end``). A member's ends rest on a column (grid
     intersection) or on another member whose line passes through the end.
+
+    ``composite``: studded to the deck (shear connectors), so the slab over it acts
+    with it in bending (EN 1994-1-1 ch. 6 / AISC 360-16 ch. I). ``connection_capacity``
+    (N): shear capacity of each end connection; ``None`` takes the web's plastic
+    shear resistance (``droprig.solver.composite.CONNECTION_DEFAULT_FRACTION``; not
+    conservative).
     """
 
     id: str
@@ -235,9 +241,16 @@ class Member:
     section: Section
     grade: Grade
     end_condition: EndCondition = "simple"
+    composite: bool = False
+    connection_capacity: float | None = None
 
     def __post_init__(self) -> None:
         check_text("member.id", self.id, required=True, max_len=32)
+        if not isinstance(self.composite, bool):
+            raise ModelError(f"member {self.id}.composite", self.composite, "true or false")
+        if self.connection_capacity is not None:
+            check_range(f"member {self.id}.connection_capacity", self.connection_capacity,
+                        1e3, 1e8, unit="N")
         check_choice(f"member {self.id}.role", self.role, ("girder", "beam"))
         _check_point(f"member {self.id}.start", self.start)
         _check_point(f"member {self.id}.end", self.end)
@@ -265,7 +278,14 @@ class Member:
 class Deck:
     """Floor deck spanning one way between the members parallel to the infill
     beams. thickness: total slab depth, m; cover to the bottom bars, m;
-    rebar_area: bottom reinforcement per metre width, m²/m."""
+    rebar_area: bottom reinforcement per metre width, m²/m.
+
+    rib_height: height of the profiled steel deck's ribs, m (composite decks; 0 for a
+    solid slab or when not known — then the full depth is used as before). Punching
+    and local flexure use the concrete over the ribs, thickness − rib_height
+    (EN 1994-1-1 §9.7.6), at least 40 mm (§9.2.1(2), from memory).
+    top_rebar_area: top bars over the beams and girders per metre width, m²/m (0:
+    none, no hogging capacity is counted)."""
 
     kind: DeckKind = "composite"
     thickness: float = 0.13
@@ -273,6 +293,8 @@ class Deck:
     cover: float = 0.025
     rebar_area: float = 2.5e-4
     openings: tuple[Rect, ...] = ()
+    rib_height: float = 0.0
+    top_rebar_area: float = 0.0
 
     def __post_init__(self) -> None:
         check_choice("deck.kind", self.kind, ("composite", "solid_slab"))
@@ -282,6 +304,12 @@ class Deck:
             raise ModelError("deck.cover", self.cover,
                              f"< thickness/2 = {self.thickness / 2:g} m", "m")
         check_range("deck.rebar_area", self.rebar_area, 5e-5, 5e-3, unit="m²/m")
+        check_range("deck.rib_height", self.rib_height, 0.0, 0.25, unit="m")
+        if self.rib_height > 0.0 and self.thickness - self.rib_height < 0.04:
+            raise ModelError("deck.rib_height", self.rib_height,
+                             f"≤ thickness − 0.04 m = {self.thickness - 0.04:g} m (at least "
+                             "40 mm of concrete over the ribs)", "m")
+        check_range("deck.top_rebar_area", self.top_rebar_area, 0.0, 5e-3, unit="m²/m")
 
     @property
     def self_weight_pressure(self) -> float:
@@ -291,7 +319,11 @@ class Deck:
 
 @dataclass(frozen=True)
 class Level:
-    """A framed floor or roof level at ``elevation`` (top of deck, m)."""
+    """A framed floor or roof level at ``elevation`` (top of deck, m).
+
+    ``column_area`` (m²) and ``column_height`` (m): the steel columns under the level,
+    axial springs E·A/L under a drop over a column; ``None`` takes the stated defaults
+    of ``droprig.solver.crushing`` (stiff: a higher force)."""
 
     id: str
     name: str
@@ -301,9 +333,16 @@ class Level:
     deck: Deck = field(default_factory=Deck)
     superimposed_dead: float = 1000.0
     live_in_place: float = 0.0
+    column_area: float | None = None
+    column_height: float | None = None
 
     def __post_init__(self) -> None:
         check_text("level.id", self.id, required=True, max_len=32)
+        if self.column_area is not None:
+            check_range(f"level {self.id}.column_area", self.column_area, 1e-3, 1.0, unit="m²")
+        if self.column_height is not None:
+            check_range(f"level {self.id}.column_height", self.column_height, 1.0, 30.0,
+                        unit="m")
         check_text(f"level {self.id}.name", self.name)
         check_range(f"level {self.id}.elevation", self.elevation, -500.0, 1000.0, unit="m")
         check_range(f"level {self.id}.superimposed_dead", self.superimposed_dead, 0.0, 50e3,
@@ -518,9 +557,13 @@ class LiftZone:
 class ProtectionArea:
     """A mat or protective layer laid over a rectangle of a level.
 
-    ``spring``: an elastic mat of plan stiffness ``stiffness`` (N/m, for the
-    load's footprint). ``crushable``: a layer that crushes at a constant
-    ``crush_force`` (N) over ``crush_stroke`` (m), then bottoms out.
+    ``spring``: an elastic mat of compression modulus ``modulus`` (Pa), stiffness
+    modulus × pressed area / thickness; older projects give ``stiffness`` (N/m, for
+    the load's footprint). ``crushable``: a layer that crushes at ``crush_stress``
+    (Pa) over the pressed area (the overlap of the load's footprint and the layer)
+    through ``crush_stroke`` (m), then bottoms out; older projects give a
+    ``crush_force`` (N), read as a stress over the largest declared footprint of the
+    level's loads (with a warning).
     ``thickness`` raises the struck surface (reduces the free fall) and spreads
     the load at 1:1 to the deck below (common practice, no source).
     """
@@ -534,6 +577,8 @@ class ProtectionArea:
     stiffness: float | None = 50e6
     crush_force: float | None = None
     crush_stroke: float | None = None
+    crush_stress: float | None = None
+    modulus: float | None = None
 
     def __post_init__(self) -> None:
         check_text("protection.id", self.id, required=True, max_len=32)
@@ -542,16 +587,29 @@ class ProtectionArea:
         check_choice(f"protection {self.id}.kind", self.kind, ("spring", "crushable"))
         check_range(f"protection {self.id}.thickness", self.thickness, 0.0, 3.0, unit="m")
         if self.kind == "spring":
-            if self.stiffness is None:
+            if self.modulus is not None:
+                check_range(f"protection {self.id}.modulus", self.modulus, 1e4, 1e11,
+                            unit="Pa")
+                if self.thickness <= 0.0:
+                    raise ModelError(f"protection {self.id}.thickness", self.thickness,
+                                     "> 0 m for a mat given by its modulus", "m")
+            elif self.stiffness is None:
                 raise ModelError(f"protection {self.id}.stiffness", None,
-                                 "> 0 N/m for a spring mat")
-            check_range(f"protection {self.id}.stiffness", self.stiffness, 1e3, 1e12, unit="N/m")
+                                 "> 0 N/m for a spring mat (or give its modulus)")
+            if self.stiffness is not None:
+                check_range(f"protection {self.id}.stiffness", self.stiffness, 1e3, 1e12,
+                            unit="N/m")
         else:
-            if self.crush_force is None or self.crush_stroke is None:
-                raise ModelError(f"protection {self.id}.crush_force", self.crush_force,
-                                 "a crush force and a crush stroke for a crushable layer")
-            check_range(f"protection {self.id}.crush_force", self.crush_force, 1e2, 1e8,
-                        unit="N")
+            if (self.crush_force is None and self.crush_stress is None) \
+                    or self.crush_stroke is None:
+                raise ModelError(f"protection {self.id}.crush_stress", self.crush_stress,
+                                 "a crush stress and a crush stroke for a crushable layer")
+            if self.crush_stress is not None:
+                check_range(f"protection {self.id}.crush_stress", self.crush_stress, 1e3,
+                            1e8, unit="Pa")
+            if self.crush_force is not None:
+                check_range(f"protection {self.id}.crush_force", self.crush_force, 1e2, 1e8,
+                            unit="N")
             check_range(f"protection {self.id}.crush_stroke", self.crush_stroke, 1e-3, 3.0,
                         unit="m")
 

@@ -102,6 +102,13 @@ def analyse_zone(project: Project, zone_id: str,
     if zone.corridor and (problem := corridor_problem(zone.corridor)) is not None:
         warnings.append(f"zone {zone.id}: the lift corridor is not a simple polygon "
                         f"({problem}); check the drop points it covers")
+    for pa in project.protection_areas:
+        if pa.level_id == level.id and pa.kind == "crushable" and pa.crush_stress is None:
+            w = (f"protection {pa.id}: its crush force is read as a crush stress over the "
+                 f"largest load footprint on level {level.id}; a pad acts over the part of "
+                 "a footprint that lands on it — enter the pad's crush stress")
+            if w not in warnings:
+                warnings.append(w)
     x, y = droppoints.base_points(fm.frame, zone, project.settings.grid_resolution)
     if x.size == 0:
         warnings.append(f"zone {zone.id}: no drop point over the deck of level {level.id}")

@@ -59,18 +59,30 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from dataclasses import dataclass
+from types import SimpleNamespace
 from typing import TypeVar, cast
 
 import numpy as np
 
-from droprig.model import Level, LiftLoad, ModelError, Project
+from droprig.model import Deck, Level, LiftLoad, ModelError, Project
 from droprig.solver import amplification as amp_mod
-from droprig.solver import capacity, contact, deck, limits, plastic
+from droprig.solver import (
+    capacity,
+    columns,
+    composite,
+    contact,
+    crushing,
+    deck,
+    limits,
+    pads,
+    plastic,
+    slab,
+)
 from droprig.solver import impact as impact_mod
 from droprig.solver import local_damage as local_damage_mod
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry
-from droprig.solver.linear_checks import Check, small_check
+from droprig.solver.linear_checks import Check, Family, small_check
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PERFORATES, PLASTIC
 from droprig.solver.unit_actions import (
@@ -104,7 +116,8 @@ __all__ = [
 ]
 
 CHECK = {name: i for i, name in enumerate(CHECKS)}
-BRITTLE = ("shear", "web_yielding", "web_crippling", "deck_flexure", "deck_punching")
+BRITTLE = ("shear", "web_yielding", "web_crippling", "deck_flexure", "deck_punching",
+           "connection")
 """Checks with no plastic reserve (DNV-RP-C204 accidental limit state, from memory)."""
 
 FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
@@ -229,11 +242,24 @@ def load_inputs(c: Chain) -> LoadInputs:
         if not sel.any():
             continue
         t_mat[sel] = pa.thickness
+        # pads by area: the part of the footprint on the pad, the less of the two
+        # footprint orientations (conservative)
+        A_fp = fl[sel] * fw[sel]
+        r = pa.area
+        A_ov = np.minimum(
+            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], fl[sel],
+                                                       fw[sel], True), (r.x0, r.y0, r.x1, r.y1)),
+            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], fl[sel],
+                                                       fw[sel], False), (r.x0, r.y0, r.x1, r.y1)))
         if pa.kind == "spring":
-            f_mat[sel] = 1.0 / float(pa.stiffness)  # type: ignore[arg-type]
+            if pa.modulus is not None:
+                k = pads.spring_mat_stiffness(pa.modulus, pa.thickness, A_ov)
+            else:  # older files: the stiffness for the load's own footprint
+                k = float(pa.stiffness) * A_ov / A_fp  # type: ignore[arg-type]
+            f_mat[sel] = np.where(k > 0.0, 1.0 / np.where(k > 0.0, k, 1.0), 0.0)
         else:
             crushable[sel] = True
-            F_c[sel] = float(pa.crush_force)  # type: ignore[arg-type]
+            F_c[sel] = pads.crushable_pad_force(pad_crush_stress(d.project, pa), A_ov)
             s_c[sel] = float(pa.crush_stroke)  # type: ignore[arg-type]
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
@@ -280,6 +306,20 @@ def _refuse_below_pad(loads: tuple[LiftLoad, ...], li: np.ndarray, level: Level,
                      f"underside above the top of a pad or mat on level {level.id})", "m")
 
 
+def pad_crush_stress(project: Project, pa: object) -> float:
+    """Crush stress of a crushable layer, Pa: its own, or for older projects its crush
+    force over the largest declared footprint of the loads on its level
+    (:func:`droprig.solver.pads.crush_stress_from_force`; the analysis warns)."""
+    stress = getattr(pa, "crush_stress", None)
+    if stress is not None:
+        return float(stress)
+    level_id = getattr(pa, "level_id", None)
+    areas = [ld.footprint_length * ld.footprint_width for z in project.lift_zones
+             if z.level_id == level_id for ld in z.loads]
+    return pads.crush_stress_from_force(float(getattr(pa, "crush_force")),  # noqa: B009
+                                        max(areas, default=1.0))
+
+
 # --------------------------------------------------------------------------- 2. compliance
 @dataclass(frozen=True, eq=False)
 class Compliance:
@@ -287,7 +327,13 @@ class Compliance:
     bending), everything in series with a mat ``f_struct`` = f_s + f_deck + f_load,
     the elastic springs in series with the yielding framing ``f_series`` = f_deck +
     f_load + f_mat, and the total ``f`` = f_struct + f_mat. Deck strip span
-    ``strip_span`` and position ``strip_pos`` (m)."""
+    ``strip_span`` and position ``strip_pos`` (m); ``f_col`` (m/N): the columns'
+    axial springs, part of ``f_s``; ``k_left``, ``k_right`` (N·m/rad): the rotational
+    restraint of the continuous deck strip at its two supports (0 at a deck edge);
+    ``g_strip`` (m³, times 1/EI gives m/N) its deflection under a unit load at EI = 1,
+    ``cont_ratio`` its sagging moment under the load over the simple span's a·b/L;
+    ``f_deck_local`` (m/N) the indentation part of ``f_deck``.
+    """
 
     f_s: np.ndarray
     f_deck: np.ndarray
@@ -296,23 +342,76 @@ class Compliance:
     f: np.ndarray
     strip_span: np.ndarray
     strip_pos: np.ndarray
+    f_col: np.ndarray
+    k_left: np.ndarray
+    k_right: np.ndarray
+    g_strip: np.ndarray
+    cont_ratio: np.ndarray
+    f_deck_local: np.ndarray
+
+
+def strip_restraint(c: Chain, EI: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Rotational restraint of the deck strip at its two supports, N·m/rad: the far
+    spans of a continuous slab, K = 2√3·EI/L (:data:`droprig.solver.slab.K_INTERIOR`,
+    equal spans), where the deck goes on beyond the support; 0 at a deck edge."""
+    d = c.drop
+    path, frame = d.geo.path, d.fm.frame
+    span = path.strip_span
+    ext = d.fm.level.grid.extent
+    lo, hi = (ext.y0, ext.y1) if frame.deck_axis == "x" else (ext.x0, ext.x1)
+    tol = 1e-3
+    mem = np.where(path.members >= 0, path.members, 0)
+    u1, u2 = frame.cross[mem[:, 0]], frame.cross[mem[:, 1]]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        K = np.where(span > 0.0, slab.K_INTERIOR * EI / np.where(span > 0.0, span, 1.0), 0.0)
+    k_first = np.where((u1 > lo + tol) & (u1 < hi - tol), K, 0.0)
+    k_second = np.where((u2 > lo + tol) & (u2 < hi - tol), K, 0.0)
+    return k_first, k_second
 
 
 def compliance(c: Chain) -> Compliance:
-    """Springs in series, 1/k_eff = Σ 1/k_i (Gere 7th ed. §9.10 energy method); deck
-    by :func:`droprig.solver.contact.deck_contact_compliance`."""
+    """Springs in series, 1/k_eff = Σ 1/k_i (Gere 7th ed. §9.10 energy method): the
+    framing with the columns' axial springs (:mod:`droprig.solver.columns`), the deck's
+    local indentation (:func:`droprig.solver.contact.deck_local_compliance`) and the
+    continuous deck strip (:func:`droprig.solver.slab.continuous_strip_compliance`,
+    gross section, restrained by the spans beyond its supports), the load's underside
+    and a mat."""
     d, inp = c.drop, c[LoadInputs]
     lv, path = d.fm.level, d.geo.path
     span, pos = path.strip_span, path.strip_pos
+    basis = d.fm.settings.design_basis
     width = deck.deck_effective_width(span, pos, np.maximum(inp.foot_l, inp.foot_w),
                                       lv.deck.thickness)
-    f_deck = contact.deck_contact_compliance(lv.deck, span, pos, width, inp.foot_l,
-                                             inp.foot_w, d.fm.settings.design_basis)
-    f_s = path.f
+    EI = contact.concrete_modulus(lv.deck.concrete.fc, basis) * width \
+        * lv.deck.thickness**3 / 12.0
+    k_l, k_r = strip_restraint(c, EI)
+    # the restrained strip once, at EI = 1 (K/EI): deflection and moment under the load
+    # (slab.continuous_strip_end_moments; the compliance scales as 1/EI)
+    ok = span > 0.0
+    L = np.where(ok, span, 1.0)
+    x = np.clip(pos, 0.0, L)
+    b = L - x
+    Kn = slab.K_INTERIOR / L
+    MA, MB = slab.continuous_strip_end_moments(L, x, 1.0, np.where(k_l > 0.0, Kn, 0.0),
+                                               np.where(k_r > 0.0, Kn, 0.0))
+    g1 = np.where(ok, np.maximum(x**2 * b**2 / (3.0 * L) - MA * x * b * (L + b) / (6.0 * L)
+                                 - MB * x * b * (L + x) / (6.0 * L), 0.0), 0.0)
+    M_ss = x * b / L
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ratio = np.where(ok & (M_ss > 0.0),
+                         np.maximum(M_ss - (MA * b + MB * x) / L, 0.0)
+                         / np.where(M_ss > 0.0, M_ss, 1.0), 0.0)
+    f_strip = g1 / EI
+    f_local = contact.deck_local_compliance(lv.deck, inp.foot_l, inp.foot_w, basis)
+    f_deck = f_local + f_strip
+    f_col = columns.column_compliance(d.fm.frame, path, columns.level_column_compliance(lv))
+    f_s = path.f + f_col
     f_struct = f_s + f_deck + inp.f_load
     f_series = f_deck + inp.f_load + inp.f_mat
     return Compliance(f_s=f_s, f_deck=f_deck, f_struct=f_struct, f_series=f_series,
-                      f=f_struct + inp.f_mat, strip_span=span, strip_pos=pos)
+                      f=f_struct + inp.f_mat, strip_span=span, strip_pos=pos, f_col=f_col,
+                      k_left=k_l, k_right=k_r, g_strip=g1, cont_ratio=ratio,
+                      f_deck_local=f_local)
 
 
 # --------------------------------------------------------------------------- 3. struck mass
@@ -352,7 +451,10 @@ def struck_mass(c: Chain) -> StruckMass:
 class Impact:
     """Per point: dynamic factor ``K`` = F/W, peak force ``F`` (N), peak deflection of
     the load ``d_max`` (m), static deflection ``d_st`` = W·f (m); through a crushable
-    layer its crushed depth ``crush`` (m) and whether it bottomed out ``bottomed``."""
+    layer its crushed depth ``crush`` (m) and whether it bottomed out ``bottomed``;
+    ``F_crush`` (N): the force at which the deck concrete under the footprint crushes
+    (the bound on the contact force), ``deck_crush`` (m) how deep it crushed and
+    ``deck_through`` whether the crushing passed the cover."""
 
     K: np.ndarray
     F: np.ndarray
@@ -360,6 +462,9 @@ class Impact:
     d_st: np.ndarray
     crush: np.ndarray
     bottomed: np.ndarray
+    F_crush: np.ndarray
+    deck_crush: np.ndarray
+    deck_through: np.ndarray
 
 
 def impact(c: Chain) -> Impact:
@@ -383,7 +488,28 @@ def impact(c: Chain) -> Impact:
         bottomed[crushable] = bot
         K = np.where(crushable, F / W, K)
         d_max = np.where(crushable, F * comp.f_struct + crush, d_max)
-    return Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed)
+    # contact force bounded by the crushing of the deck concrete under the footprint
+    # (EN 1992-1-1 §6.7 / ACI 318-19 §22.8.3.2 as an upper estimate,
+    # droprig.solver.crushing); the crushing absorbs F_crush·c; crushing deeper than
+    # the cover reaches the bars: the rest of the energy is then taken elastically
+    lv = d.fm.level
+    F_crush = crushing.concrete_bearing_pressure(
+        lv.deck.concrete.fc, inp.foot_l, inp.foot_w, lv.deck.thickness,
+        d.fm.settings.design_basis) * inp.foot_l * inp.foot_w
+    deck_crush = np.zeros(n)
+    deck_through = np.zeros(n, dtype=bool)
+    cap = ~crushable & (F > F_crush)
+    if cap.any():
+        Fb, dep, thr = crushing.crushing_limited_impact(W[cap], inp.h[cap], comp.f[cap],
+                                                        sm.eta[cap], F_crush[cap],
+                                                        lv.deck.cover)
+        F[cap] = Fb
+        deck_crush[cap] = dep
+        deck_through[cap] = thr
+        K = np.where(cap, F / W, K)
+        d_max = np.where(cap, F * comp.f + deck_crush, d_max)
+    return Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed,
+                  F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through)
 
 
 # --------------------------------------------------------------------------- 5. demands
@@ -418,6 +544,7 @@ def demands(c: Chain) -> Demands:
     out: dict[str, Check] = {}
     out["flexure"] = ua.flexure.check("flexure", F, detail)
     out["shear"] = ua.shear.check("shear", F, detail)
+    out["connection"] = connection_family(fm, ua.shear).check("connection", F, detail)
     # web checks under the load (each deck-supporting member, its share)
     lb = inp.lb
     dist = np.maximum(np.minimum(aT, LT - aT) - 0.5 * lb, 0.0)
@@ -427,19 +554,35 @@ def demands(c: Chain) -> Demands:
     out["web_yielding"] = small_check("web_yielding", F, shareT, None, Rwy, memT, detail)
     out["web_crippling"] = small_check("web_crippling", F, shareT, None, Rwc, memT, detail)
     # deck flexure (worse of the two footprint orientations) and punching
-    lv, s = fm.level, fm.settings
+    lv = fm.level
     span, pos = comp.strip_span, comp.strip_pos
     thick = lv.deck.thickness
     mu1 = deck.deck_unit_moment_per_width(span, pos, inp.foot_l, inp.foot_w, thick)
     mu2 = deck.deck_unit_moment_per_width(span, pos, inp.foot_w, inp.foot_l, thick)
-    m_deck = np.maximum(mu1, mu2)
+    # the strip is continuous over its supports: the sagging moment under the load is
+    # that of a span restrained by the spans beyond (droprig.solver.slab), zero on a
+    # support line (the load bears on the steel there)
+    # near a girder the panel also carries load across to it: crossing strips share the
+    # load by their deflections (two_way_share); the cross strip is checked with the
+    # distribution steel, 20 % of the main bars (EN 1992-1-1 §9.3.1.1(2), as punching)
+    share_x, Ly, yb = two_way_share(c)
+    m_x = np.maximum(mu1, mu2) * comp.cont_ratio * share_x
+    my1 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_l, inp.foot_w, thick)
+    my2 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_w, inp.foot_l, thick)
+    # where the footprint reaches over the girder line its base bears on the girder
+    # (rigid base on the stiffer support, common practice, no source): no cross-strip
+    # bending there, for each orientation of the footprint
+    ey = np.minimum(yb, Ly - yb)
+    m_y = np.maximum(np.where(ey > 0.5 * inp.foot_l, my1, 0.0),
+                     np.where(ey > 0.5 * inp.foot_w, my2, 0.0)) * (1.0 - share_x)
     M0_deck = deck.deck_existing_moment_per_width(span, fm.q0)
+    out["deck_flexure"] = small_check(
+        "deck_flexure", F, np.stack([m_x, m_y]),
+        np.stack([np.broadcast_to(M0_deck, (n,)), np.zeros(n)]),
+        np.stack([np.full(n, fm.deck_Mr), np.full(n, DISTRIBUTION_SHARE * fm.deck_Mr)]),
+        np.full((2, n), DECK), detail)
+    R_punch = punching_resistance_at(c)
     deckm = np.full((1, n), DECK)
-    out["deck_flexure"] = small_check("deck_flexure", F, m_deck[None, :],
-                                      np.broadcast_to(M0_deck, (n,))[None, :],
-                                      np.full((1, n), fm.deck_Mr), deckm, detail)
-    R_punch = deck.punching_resistance(lv.deck, inp.foot_l, inp.foot_w, s.design_basis,
-                                       s.resistance_factor)
     out["deck_punching"] = small_check("deck_punching", F, np.ones((1, n)), None,
                                        np.broadcast_to(R_punch, (n,))[None, :], deckm,
                                        detail)
@@ -534,12 +677,103 @@ def amplified_demands(c: Chain) -> Demands:
         return dem  # the energy method's demands, unchanged
     out: dict[str, Check] = {}
     for name, chk in dem.checks.items():
-        A = amp.factor[name]
+        # the connection check is end shear: it takes the shear factor
+        A = amp.factor.get(name, amp.A_shear)
         scaled = _scaled(chk, A)
         out[name] = Check(name=scaled.name, U=scaled.U_at(imp.F), F_allow=scaled.F_allow,
                           member=chk.member, unit=chk.unit, exist=chk.exist,
                           resist=chk.resist, U_at=scaled.U_at)
     return Demands(checks=out, actions=dem.actions)
+
+
+def connection_family(fm: FloorModel, shear: Family) -> Family:
+    """End shear of every path member against its end connections: the shear
+    family's end candidates (AISC Manual Table 3-23 end reactions) with the
+    connection capacity ``Member.connection_capacity`` in place of the web's
+    resistance, or the stated default
+    :data:`droprig.solver.composite.CONNECTION_DEFAULT_FRACTION` of it
+    (:func:`droprig.solver.composite.connection_capacity`). Brittle (bolts, welds)."""
+    Vc = np.array([composite.connection_capacity(float(fm.Vr[k]), m.connection_capacity)
+                   for k, m in enumerate(fm.level.members)])
+    mem = shear.members
+    Vc_pts = np.where(mem >= 0, Vc[np.where(mem >= 0, mem, 0)], np.inf)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        scale = np.where(np.isfinite(Vc_pts), shear.resist / Vc_pts, 1.0)
+    rows = scale[shear.src]
+    return Family(shear.ut * rows, shear.Et * rows, mem,
+                  np.where(np.isfinite(Vc_pts), Vc_pts, shear.resist), shear.src,
+                  shear.groups)
+
+
+def punching_resistance_at(c: Chain) -> np.ndarray:
+    """Punching resistance of the deck under the footprint at each point, N.
+
+    :func:`droprig.solver.deck.punching_resistance` with the concrete over the ribs
+    of a composite deck (h − rib height, EN 1994-1-1 §9.7.6, from memory), scaled by
+    the share of the control perimeter u1 left beside a deck opening within 6d: the
+    part between the tangents from the loaded area's centre to the opening is
+    ineffective (EN 1992-1-1 §6.4.2(3), Fig. 6.14); the worse footprint orientation
+    is taken (conservative; the same geometry is used for the ACI basis, whose
+    perimeter is at d/2). The deck's outline rests on edge members in droprig's
+    model (a supported edge, where the load bears on the steel), so the free-edge
+    perimeters of §6.4.2(4) apply at openings only — through the tangent rule."""
+    d, inp = c.drop, c[LoadInputs]
+    lv, s = d.fm.level, d.fm.settings
+    dk = lv.deck
+    dk_p = dk if dk.rib_height <= 0.0 else cast(
+        Deck, SimpleNamespace(thickness=dk.thickness - dk.rib_height, cover=dk.cover,
+                              rebar_area=dk.rebar_area, concrete=dk.concrete))
+    R = np.broadcast_to(deck.punching_resistance(dk_p, inp.foot_l, inp.foot_w,
+                                                 s.design_basis, s.resistance_factor),
+                        (d.n,))
+    if not dk.openings:
+        return R
+    dd = max(deck.effective_depth(dk_p), 1e-3)
+    x, y = d.geo.x, d.geo.y
+    ratio = np.ones(d.n)
+    for lx, ly in ((inp.foot_l, inp.foot_w), (inp.foot_w, inp.foot_l)):
+        u1 = slab.control_perimeter_edges(lx, ly, dd)
+        cut = np.zeros(d.n)
+        for op in dk.openings:
+            reach = 8.0 * dd  # 6d from the loaded area plus the 2d of u1
+            near = ((x + lx / 2 + reach >= op.x0) & (x - lx / 2 - reach <= op.x1)
+                    & (y + ly / 2 + reach >= op.y0) & (y - ly / 2 - reach <= op.y1))
+            if near.any():
+                cut[near] += slab.opening_ineffective_length(
+                    x[near], y[near], lx[near], ly[near], dd, (op.x0, op.y0, op.x1, op.y1))
+        ratio = np.minimum(ratio, np.maximum(u1 - cut, 0.0) / u1)
+    return R * ratio
+
+
+DISTRIBUTION_SHARE = 0.2
+"""Distribution (cross) steel of the deck as a share of its main bars: the minimum of
+EN 1992-1-1 §9.3.1.1(2), 20 % (the same assumption as the punching check)."""
+
+
+def two_way_share(c: Chain) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Share of the load carried by the deck strip between the beams, the rest going
+    along the cross strip to the girders, by equal deflection of two crossing strips
+    at the load (Rankine–Grashof crossing-strip method; Reynolds, *Reinforced Concrete
+    Designer's Handbook*, two-way slabs — from memory): share = g_y/(g_x + g_y),
+    g_x the restrained main strip's deflection under a unit load
+    (:func:`droprig.solver.slab.continuous_strip_compliance`, same EI both ways),
+    g_y = y²(Ly − y)²/(3·Ly) of the cross strip simply supported on the girders
+    (AISC Manual Table 3-23 case 8; conservative for the main strip). On a girder
+    line g_y = 0: the load bears on the girder. Returns (share, Ly, y) with Ly the
+    girder spacing (the deck beams' span, m) and y the position along it (m)."""
+    d, comp = c.drop, c[Compliance]
+    path, frame = d.geo.path, d.fm.frame
+    span = comp.strip_span
+    mem = np.where(path.members[:, 0] >= 0, path.members[:, 0], 0)
+    Ly = frame.L[mem]
+    yb = np.clip(path.a[:, 0], 0.0, Ly)
+    ok = span > 0.0
+    gx = comp.g_strip
+    gy = yb**2 * (Ly - yb) ** 2 / (3.0 * Ly)
+    tot = gx + gy
+    with np.errstate(divide="ignore", invalid="ignore"):
+        share = np.where(tot > 0.0, gy / np.where(tot > 0.0, tot, 1.0), 0.0)
+    return np.where(ok, share, 0.0), Ly, yb
 
 
 # --------------------------------------------------------------------------- 6. checks

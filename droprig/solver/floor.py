@@ -16,7 +16,7 @@ from typing import Any
 import numpy as np
 
 from droprig.model import Level, ModelError, Project, Settings
-from droprig.solver import beam, cancel, capacity, deck, impact
+from droprig.solver import beam, cancel, capacity, composite, contact, deck, impact
 from droprig.solver.candidates import CandidateTables, candidate_tables
 from droprig.solver.loadpath import COND_NAMES, Frame, build_frame, tributary_widths
 
@@ -73,6 +73,10 @@ def build_floor(level: Level, settings: Settings) -> FloorModel:
     basis = settings.design_basis
     phi, dif = settings.resistance_factor, settings.dynamic_increase_factor
     n_m = frame.n_members
+    Mr_comp, EI_comp, comp_warn = composite_members(level, settings, tributary_widths(frame))
+    if np.any(np.isfinite(EI_comp)):
+        frame = build_frame(level, include_member_mass=settings.include_member_mass,
+                            EI=np.where(np.isfinite(EI_comp), EI_comp, frame.EI))
     groups: list[tuple[object, object]] = []
     gidx = np.zeros(n_m, dtype=np.int64)
     Mr = np.zeros(n_m)
@@ -92,8 +96,10 @@ def build_floor(level: Level, settings: Settings) -> FloorModel:
             cache[key] = (mr, vr, len(groups), hk)
             groups.append(key)
         Mr[k], Vr[k], gidx[k], hinge[k] = cache[key]
+        if np.isfinite(Mr_comp[k]):
+            Mr[k] = Mr_comp[k]
     # existing loads
-    warnings: list[str] = []
+    warnings: list[str] = list(comp_warn)
     g = impact.G
     q0 = 0.0
     w0 = np.zeros(n_m)
@@ -138,6 +144,45 @@ def build_floor(level: Level, settings: Settings) -> FloorModel:
                       V0=V0, P0=P0, M0_sup=M0_sup, q0=q0, deck_Mr=deck_Mr, group=gidx,
                       groups=tuple(groups), warnings=tuple(warnings), hinge=hinge,
                       tables=candidate_tables(frame, Mr, Vr, V0, M0_sup))
+
+
+def composite_members(level: Level, settings: Settings, trib: np.ndarray
+                      ) -> tuple[np.ndarray, np.ndarray, list[str]]:
+    """Plastic moment (N·m) and stiffness E·I (N·m²) of the members studded to the deck
+    (``Member.composite``), NaN for the others, and warnings.
+
+    Full shear connection (EN 1994-1-1 §6.2.1.2 / AISC 360-16 §I3.2a,
+    :func:`droprig.solver.composite.composite_plastic_moment`) with the effective
+    width min(L/8, half the spacing) a side (§5.4.1.2 / §I3.1a; the spacing from the
+    member's tributary deck width) and the concrete over the ribs; the transformed
+    uncracked inertia with the short-term modular ratio E_a/E_cm (§5.4.2.2) for the
+    stiffness (stiffer: a higher impact force). Only simply supported members: the
+    hogging ends of fixed or propped members are steel alone, so their flag is
+    ignored with a warning. The resistance factor and the dynamic increase factor
+    apply as for steel."""
+    n = len(level.members)
+    Mr = np.full(n, np.nan)
+    EI = np.full(n, np.nan)
+    warn: list[str] = []
+    dk = level.deck
+    basis = settings.design_basis
+    for k, m in enumerate(level.members):
+        if not m.composite:
+            continue
+        if m.end_condition != "simple" or trib[k] <= 0.0:
+            warn.append(f"member {m.id}: composite action is taken only for a simply "
+                        "supported member carrying deck; it is checked as steel alone")
+            continue
+        sec = composite.CompositeSection(
+            d=m.section.d, bf=m.section.bf, tf=m.section.tf, tw=m.section.tw, A=m.section.A,
+            Ix=m.section.Ix, b_eff=composite.effective_width(m.span, trib[k], trib[k], basis),
+            h_c=dk.thickness - dk.rib_height, h_p=dk.rib_height)
+        fy = m.grade.section_fy(m.section) * settings.dynamic_increase_factor
+        Mr[k] = settings.resistance_factor * composite.composite_plastic_moment(
+            sec, fy, dk.concrete.fc, basis)
+        n_mod = m.grade.E / contact.concrete_modulus(dk.concrete.fc, basis)
+        EI[k] = m.grade.E * composite.transformed_inertia(sec, n_mod)
+    return Mr, EI, warn
 
 
 def existing_moment(frame: Frame, w0: np.ndarray, P0: np.ndarray, k: int,

@@ -59,7 +59,7 @@ from __future__ import annotations
 
 import threading
 from collections.abc import Callable, Hashable, Iterable
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from functools import cache
 from typing import Any, TypeVar
 
@@ -467,9 +467,13 @@ def _deck_axis(level: Level) -> str:
     return "y" if max(("x", "y"), key=girders.count) == "x" else "x"
 
 
-def build_frame(level: Level, *, include_member_mass: bool = True) -> Frame:
-    """Precompute the load-path data of ``level`` (see :class:`Frame`)."""
+def build_frame(level: Level, *, include_member_mass: bool = True,
+                EI: np.ndarray | None = None) -> Frame:
+    """Precompute the load-path data of ``level`` (see :class:`Frame`). ``EI``
+    (N·m², per member) replaces the steel sections' E·Ix (composite members)."""
     mb = _member_arrays(level, include_member_mass)
+    if EI is not None:
+        mb = replace(mb, EI=np.asarray(EI, float).copy())
     nd = _nodes(level, mb)
     T, D = _node_matrices(mb, nd)
     N_R, quad = _member_quadrature(mb, nd)

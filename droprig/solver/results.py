@@ -34,6 +34,7 @@ CHECKS: tuple[str, ...] = (
     "ductility",
     "rotation",
     "opening",
+    "connection",
 )
 """Names of the checks; ``governing_check`` arrays hold indices into this tuple."""
 

@@ -55,8 +55,13 @@ _SRC_CHECK = {
     "shear": "AISC 360-16 G2.1 / EN 1993-1-1 Eq. 6.18 (droprig.solver.capacity)",
     "web_yielding": "AISC 360-16 J10.2 / EN 1993-1-5 §6 (droprig.solver.capacity)",
     "web_crippling": "AISC 360-16 J10.3 (droprig.solver.capacity)",
-    "deck_flexure": "ACI 318-19 §22.2 / EN 1992-1-1 §3.1.7 (droprig.solver.deck)",
-    "deck_punching": "ACI 318-19 §22.6 / EN 1992-1-1 §6.4.4 (droprig.solver.deck)",
+    "deck_flexure": "ACI 318-19 §22.2 / EN 1992-1-1 §3.1.7 (droprig.solver.deck); strip "
+                    "continuous over the beams, crossing strips share with the cross strip "
+                    "to the girders (Rankine–Grashof; droprig.solver.chain.two_way_share)",
+    "deck_punching": "ACI 318-19 §22.6 / EN 1992-1-1 §6.4.4, §6.4.2(3) at openings, "
+                     "EN 1994-1-1 §9.7.6 over ribs (droprig.solver.chain)",
+    "connection": "end shear against the connection capacity (Member.connection_capacity; "
+                  "default the web's plastic shear resistance, droprig.solver.composite)",
 }
 _SRC_SERIES = ("springs in series, 1/k_eff = Σ 1/k_i (Gere, Mechanics of Materials 7th ed., "
                "§9.10 energy method)")
@@ -167,16 +172,21 @@ def _path_steps(sheet: _Sheet) -> None:
             path.a[0, k], "length", _SRC_PATH)
     g_own = path.g_own[0]
     add("Compliance of the framing at p", "f_s",
-        "f_s = Σ_k w_k² g_k(a_k, a_k) + rᵀ D r (internal work of the unit-load system)",
+        "f_s = Σ_k w_k² g_k(a_k, a_k) + rᵀ D r + Σ_c R_c²·L_c/(E·A_c) (internal work of "
+        "the unit-load system; the columns as axial springs)",
         {"w1·g1": (g_own[0], "compliance"), "w2·g2": (g_own[1], "compliance"),
-         "rᵀDr": (float(path.r[0] @ path.u[0]), "compliance")},
-        comp.f_s[0], "compliance", _SRC_GREEN)
-    add("Deck compliance: indentation under the footprint + strip bending", "f_deck",
-        "f_deck = 1/(2a·E/(1 − ν²)) + s²(S − s)²/(3·E·I·S)",
-        {"s": (path.strip_pos[0], "length"), "S": (path.strip_span[0], "length")},
+         "rᵀDr": (float(path.r[0] @ path.u[0]), "compliance"),
+         "f_col": (comp.f_col[0], "compliance")},
+        comp.f_s[0], "compliance", _SRC_GREEN + "; Gere §2.3 (droprig.solver.columns)")
+    add("Deck compliance: indentation under the footprint + the strip between the beams, "
+        "continuous over them", "f_deck",
+        "f_deck = 1/(2a·E/(1 − ν²)) + g(s)/(E·I), g the strip restrained by K = 2√3·EI/S "
+        "where the deck goes on beyond a support",
+        {"s": (path.strip_pos[0], "length"), "S": (path.strip_span[0], "length"),
+         "f_strip": (comp.f_deck[0] - comp.f_deck_local[0], "compliance")},
         comp.f_deck[0], "compliance",
         "Sneddon 1965 / Johnson, Contact Mechanics §3.8; AISC Manual Table 3-23 case 8 "
-        "(droprig.solver.contact)")
+        "with the end moments of the restrained span (droprig.solver.slab)")
     k_load = load.contact_stiffness
     add("Compliance of the load's underside (skid, base frame, dunnage)"
         + ("" if k_load is not None else ": none given, load taken as rigid (conservative)"),
@@ -218,6 +228,12 @@ def _impact_steps(sheet: _Sheet) -> None:
         "F = crush force, or elastic after bottoming (droprig.solver.impact.impact_crushable)",
         {"K": (imp.K[0], "dimensionless"), "W": (W, "force")},
         imp.F[0], "force", _SRC_GERE)
+    add("Crushing force of the deck concrete under the footprint (bound on the contact "
+        "force)", "F_crush", "F_crush = DIF·f_cm·√(A_c1/A_c0)·A_c0 ≤ 3·DIF·f_cm·A_c0",
+        {"A_c0": (inp.foot_l[0] * inp.foot_w[0], "area"),
+         "crushed depth": (imp.deck_crush[0], "length")},
+        imp.F_crush[0], "force",
+        "EN 1992-1-1 §6.7 / ACI 318-19 §22.8.3.2, upper estimate (droprig.solver.crushing)")
     add("Peak deflection of the struck point", "δ_max", "δ_max = K·δ_st",
         {"K": (imp.K[0], "dimensionless"),
          "δ_st": (imp.d_st[0], "length")}, imp.d_max[0], "length",
@@ -272,9 +288,10 @@ def _check_steps(sheet: _Sheet) -> None:
     on = project.settings.dynamic_amplification
     # ---- checks
     qty = {"flexure": "moment", "shear": "force", "web_yielding": "force",
-           "web_crippling": "force", "deck_flexure": "moment", "deck_punching": "force"}
-    for c in ("flexure", "shear", "web_yielding", "web_crippling", "deck_flexure",
-              "deck_punching"):
+           "web_crippling": "force", "deck_flexure": "moment", "deck_punching": "force",
+           "connection": "force"}
+    for c in ("flexure", "shear", "connection", "web_yielding", "web_crippling",
+              "deck_flexure", "deck_punching"):
         q = qty[c]
         unit_q = "length" if q == "moment" else "dimensionless"
         add(f"{c.replace('_', ' ').capitalize()} — {mname(dem.checks[c].member[0])}", f"U_{c}",

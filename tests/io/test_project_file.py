@@ -337,6 +337,37 @@ def test_load_contact_stiffness_is_optional_and_round_trips(office_roof: Project
     assert loads_project(dumps_project(p)) == p
 
 
+def test_slab_and_pad_fields_are_optional_and_round_trip(office_roof: Project,
+                                                        office_roof_doc: dict[str, Any]
+                                                        ) -> None:
+    # Files written before the keys existed read with the model defaults (no ribs, no
+    # top bars, not composite, default connections and columns); given values are
+    # written under their unit keys, validate against the schema and read back exactly.
+    deck_doc = office_roof_doc["levels"][0]["deck"]
+    assert "rib_height_m" not in deck_doc and "top_rebar_area_m2_per_m" not in deck_doc
+    lv = office_roof.levels[0]
+    lv2 = replace(lv, deck=replace(lv.deck, rib_height=0.05, top_rebar_area=1.9e-4),
+                  column_area=0.012, column_height=3.6,
+                  members=(replace(lv.members[0], composite=True, connection_capacity=1.8e5),
+                           *lv.members[1:]))
+    pad = ProtectionArea("PD", "pad", lv.id, Rect(0.0, 0.0, 3.0, 3.0), "crushable", 0.3,
+                         None, crush_stroke=0.2, crush_stress=2.5e4)
+    mat = ProtectionArea("MT", "mat", lv.id, Rect(3.0, 0.0, 6.0, 3.0), "spring", 0.1,
+                         None, modulus=4e6)
+    p = replace(office_roof, levels=(lv2,), protection_areas=(pad, mat))
+    doc = json.loads(dumps_project(p))
+    assert doc["levels"][0]["deck"]["rib_height_m"] == 0.05
+    assert doc["levels"][0]["column_area_m2"] == 0.012
+    assert doc["levels"][0]["members"][0]["composite"] is True
+    assert doc["levels"][0]["members"][0]["connection_capacity_N"] == 1.8e5
+    assert "composite" not in doc["levels"][0]["members"][1]
+    assert doc["protection_areas"][0]["crush_stress_Pa"] == 2.5e4
+    assert "crush_force_N" not in doc["protection_areas"][0]
+    assert doc["protection_areas"][1]["modulus_Pa"] == 4e6
+    jsonschema.Draft202012Validator(pf.schema()).validate(doc)
+    assert loads_project(dumps_project(p)) == p
+
+
 def test_strike_and_drift_data_are_optional_and_round_trip(office_roof: Project,
                                                            office_roof_doc: dict[str, Any]
                                                            ) -> None:

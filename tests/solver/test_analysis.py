@@ -121,8 +121,12 @@ def test_hand_check_one_bay():
     * the beam puts ½ on each girder at a = 3 m of a 9 m span; AISC case 8, under the
       load δ = Pa²b²/(3EIL) → per girder (½)²·3²·6²/(3·EI_g·9) = 3/EI_g; two girders
       6/EI_g
-    * framing f_s = 4.5/EI_b + 6/EI_g; the deck adds its indentation under the 1 m²
-      footprint (the point lies on the beam line: no strip bending), f = f_s + f_ind
+    * framing f_s = 4.5/EI_b + 6/EI_g + f_col; the columns are axial springs
+      L/(EA) = 3 m/(210 GPa × 0.0171 m², the stated defaults; Gere §2.3): each girder
+      takes ½ at a third of its span, so the columns take 1/3, 1/6, 1/3, 1/6 and
+      f_col = Σ R²·L/(EA) = (5/18)·L/(EA) (unit-load method, Gere §9.10); the deck
+      adds its indentation under the 1 m² footprint (the point lies on the beam line:
+      no strip bending), f = f_s + f_ind
     * Gere Eq. 9-94: K = 1 + √(1 + 2h/(W·f)), F = K·W
     * beam moment at midspan: F·L/4 + w0·L²/8 (case 7 and case 1), w0 = beam
       self-weight + (deck 0.13 m × 2400 kg/m³ × g + 1 kPa) × 3 m tributary width
@@ -136,7 +140,8 @@ def test_hand_check_one_bay():
 
     EI_b = 210e9 * 8.356e-5
     EI_g = 210e9 * 3.374e-4
-    f_s = 4.5 / EI_b + 6.0 / EI_g
+    f_col = 5.0 / 18.0 * 3.0 / (210e9 * 0.0171)  # columns as springs (was rigid)
+    f_s = 4.5 / EI_b + 6.0 / EI_g + f_col
     f = f_s + _indentation(1.0)
     W = 1000.0 * G
     K = 1.0 + math.sqrt(1.0 + 2 * 0.1 / (W * f))
@@ -172,7 +177,9 @@ def test_hand_check_spring_mat_in_series():
     proj = _project(level, [_zone([load])], [mat], include_member_mass=False)
     fm = analysis.build_floor(level, proj.settings)
     r = _at(fm, proj, load, [3.0, 3.0], [3.0, 5.0])
-    f_s = 4.5 / (210e9 * 8.356e-5) + 6.0 / (210e9 * 3.374e-4)
+    # + the columns' axial springs (5/18)·L/(EA), as in test_hand_check_one_bay
+    f_s = 4.5 / (210e9 * 8.356e-5) + 6.0 / (210e9 * 3.374e-4) \
+        + 5.0 / 18.0 * 3.0 / (210e9 * 0.0171)
     h = 13.0 - 2.5 - (10.0 + 0.2)
     W = 1000.0 * G
     K = 1.0 + math.sqrt(1.0 + 2 * h / (W * (f_s + _indentation(1.4**2) + 1 / 2e6)))
@@ -255,16 +262,20 @@ def test_beyond_yield_energy_balance():
 
 
 def test_drop_over_a_column_is_finite():
-    """Over a column the framing does not deflect (f_s = 0); the deck's indentation
-    under the footprint keeps the force finite (Gere Eq. 9-94 with f = f_ind)."""
+    """Over a column the members do not deflect; the column is an axial spring
+    L/(EA) = 3 m/(210 GPa × 0.0171 m²) (the stated defaults; Gere §2.3) carrying the
+    whole load, in series with the deck's indentation under the footprint
+    (Gere Eq. 9-94 with f = L/(EA) + f_ind). Before the columns were springs the
+    framing was rigid here (f_s = 0) and the force several times higher."""
     level = _one_bay_level()
     load = LiftLoad("crate", 1000.0, 1.0, 1.0, drop_height=0.5)
     proj = _project(level, [_zone([load])])
     fm = analysis.build_floor(level, proj.settings)
     r = _at(fm, proj, load, [0.0], [0.0])
-    assert r.chain[Compliance].f_s[0] == 0.0
+    f_col = 3.0 / (210e9 * 0.0171)
+    assert r.chain[Compliance].f_s[0] == pytest.approx(f_col, rel=REL)
     W = 1000.0 * G
-    f = _indentation(1.0)
+    f = f_col + _indentation(1.0)
     K = 1.0 + math.sqrt(1.0 + 2 * 0.5 / (W * f))
     assert r["peak_force"][0] == pytest.approx(K * W, rel=REL)
     assert np.isfinite(r["utilisation"][0])

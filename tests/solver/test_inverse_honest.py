@@ -129,17 +129,34 @@ def test_a_layer_weaker_than_the_load_earns_no_height() -> None:
     fall: the allowable height is that of the same pad that never crushes, less
     (W − F_c)·s_c/W (impact_crushable case 3 solved for h, η = 1 under a layer),
     and none where that is below 0."""
-    weak = analysis.analyse(_weak_layer_project(30e3))
+    weak_project = _weak_layer_project(30e3)
+    weak = analysis.analyse(weak_project)
     strong = analysis.analyse(_weak_layer_project(1e8))  # 100 MN: never crushes here
+    # pads act by area: the 30 kN of an older file is a stress over the largest
+    # footprint on the level (the 3 × 2 m unit), so a load wholly on the pad gets
+    # F_c = 30 kN × its footprint / 6 m²
+    loads = {ld.name: ld for z in weak_project.lift_zones for ld in z.loads}
+    A_max = max(ld.footprint_length * ld.footprint_width for ld in loads.values())
     n = 0
     for cw, cs in zip(weak.cases, strong.cases, strict=True):
-        if cw.weight <= 30e3:
+        ld = loads[cw.load_name]
+        A = ld.footprint_length * ld.footprint_width
+        Fc = 30e3 * A / A_max
+        if cw.weight <= Fc:
             continue
-        # the same base points in both runs (refinement points may differ)
+        # the same base points in both runs (refinement points may differ), with the
+        # footprint wholly on its pad either way round
         at = {(x, y): i for i, (x, y) in enumerate(zip(cs.x, cs.y, strict=True))}
-        iw = [i for i in np.flatnonzero(cw.protection >= 0) if (cw.x[i], cw.y[i]) in at]
+        half = 0.5 * max(ld.footprint_length, ld.footprint_width)
+        on = []
+        for i in np.flatnonzero(cw.protection >= 0):
+            r = weak_project.protection_areas[int(cw.protection[i])].area
+            if (cw.x[i], cw.y[i]) in at and r.x0 + half <= cw.x[i] <= r.x1 - half \
+                    and r.y0 + half <= cw.y[i] <= r.y1 - half:
+                on.append(i)
+        iw = on
         js = [at[(cw.x[i], cw.y[i])] for i in iw]
-        expect = cs.allowable_drop_height[js] - (cw.weight - 30e3) * 0.35 / cw.weight
+        expect = cs.allowable_drop_height[js] - (cw.weight - Fc) * 0.35 / cw.weight
         # heights above the finished surface: none where the fall it allows onto the
         # pad (the height less the pad's thickness) would be below 0 (issue 13)
         t = (cw.drop_height - cw.fall_height)[iw]

@@ -1,0 +1,103 @@
+"""How a load's footprint hands its force to the framing.
+
+* **Flat landing on a rigid base.** A skid or base frame that bridges several
+  beams rests on all of them: a rigid body on elastic supports, so the supports
+  take F_i = k_i·(w + θ·(s_i − s̄)) with w, θ from vertical and moment
+  equilibrium (rigid beam on springs; Hetényi, *Beams on Elastic Foundation*,
+  1946, ch. 1 — from memory). Supports that would pull are dropped and the rest
+  solved again (a base can only push).
+* **Tilted landing on one edge.** A load landing out of level meets the deck with
+  one edge first; the whole force goes through that edge (common practice, no
+  source). Every drop point is checked for both cases.
+* **Clipping at deck edges.** A footprint overhanging the edge of the deck is cut
+  to the part over the deck; its force acts at the centroid of that part.
+
+Vectorised over drop points. SI units: m, m², N, N/m.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+__all__ = [
+    "EDGE_CONTACT_WIDTH",
+    "clip_footprint",
+    "rigid_base_shares",
+    "tilted_edges",
+]
+
+EDGE_CONTACT_WIDTH = 0.05
+"""Width of the strip along a tilted load's leading edge that bears at first
+contact, m (a base rail or skid flange; common practice, no source). Small: the
+contact pressure and the crushing bound are then high."""
+
+
+def clip_footprint(x0: ArrayLike, y0: ArrayLike, x1: ArrayLike, y1: ArrayLike,
+                   extent: tuple[float, float, float, float]
+                   ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """Part of the footprint (x0, y0, x1, y1) over the deck ``extent``:
+    returns (area m², centroid x, centroid y, share of the footprint over the
+    deck). Off the deck entirely: area 0, centroid NaN ("none exists")."""
+    ex0, ey0, ex1, ey1 = extent
+    x0, y0, x1, y1 = np.broadcast_arrays(*(np.asarray(v, float) for v in (x0, y0, x1, y1)))
+    cx0, cy0 = np.maximum(x0, ex0), np.maximum(y0, ey0)
+    cx1, cy1 = np.minimum(x1, ex1), np.minimum(y1, ey1)
+    dx, dy = np.maximum(cx1 - cx0, 0.0), np.maximum(cy1 - cy0, 0.0)
+    area = dx * dy
+    full = (x1 - x0) * (y1 - y0)
+    on = area > 0.0
+    xc = np.where(on, 0.5 * (cx0 + cx1), np.nan)
+    yc = np.where(on, 0.5 * (cy0 + cy1), np.nan)
+    return area, xc, yc, area / full
+
+
+def rigid_base_shares(s: ArrayLike, k: ArrayLike, s_load: ArrayLike,
+                      iterations: int = 3) -> np.ndarray:
+    """Shares of a unit load at ``s_load`` carried by supports at ``s`` (n, K) of
+    stiffness ``k`` (n, K; 0 where a slot is empty) under a rigid base, (n, K).
+
+    Equilibrium of the rigid base: Σk·(w + θ·(s − s̄)) = 1 and
+    Σk·(w + θ·(s − s̄))·(s − s̄) = (s_load − s̄), s̄ = Σk·s/Σk (Hetényi 1946 ch. 1,
+    rigid beam on springs — from memory) ⇒ w = 1/Σk,
+    θ = (s_load − s̄)/Σk·(s − s̄)². One support: it takes all. Supports with a
+    negative share are dropped and the rest solved again (``iterations`` times);
+    a load beyond the last support is then carried by it alone (statics of a
+    base tipping about its outermost support). Equal stiffness gives the lever
+    rule between two supports.
+    """
+    s, k = np.broadcast_arrays(np.asarray(s, float), np.asarray(k, float))
+    s_load = np.asarray(s_load, float)[..., None]
+    k = np.where(k > 0.0, k, 0.0)
+    for _ in range(iterations + 1):
+        K = np.sum(k, axis=-1, keepdims=True)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            sbar = np.sum(k * s, axis=-1, keepdims=True) / K
+            J = np.sum(k * (s - sbar) ** 2, axis=-1, keepdims=True)
+            w = 1.0 / K
+            theta = np.where(J > 0.0, (s_load - sbar) / np.where(J > 0.0, J, 1.0), 0.0)
+            share = k * (w + theta * (s - sbar))
+        negative = share < -1e-12
+        if not negative.any():
+            break
+        k = np.where(negative, 0.0, k)
+    share = np.where(np.isfinite(share), np.maximum(share, 0.0), 0.0)
+    tot = np.sum(share, axis=-1, keepdims=True)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return np.where(tot > 0.0, share / tot, 0.0)
+
+
+def tilted_edges(x0: ArrayLike, y0: ArrayLike, x1: ArrayLike, y1: ArrayLike,
+                 contact_width: float = EDGE_CONTACT_WIDTH
+                 ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """The four ways a footprint can land tilted on one edge: centre x, centre y,
+    length along the edge, contact width and contact area of each edge strip,
+    each (n, 4) in the order x0-side, x1-side, y0-side, y1-side (m, m²)."""
+    x0, y0, x1, y1 = np.broadcast_arrays(*(np.asarray(v, float) for v in (x0, y0, x1, y1)))
+    w = contact_width
+    xm, ym = 0.5 * (x0 + x1), 0.5 * (y0 + y1)
+    cx = np.stack([x0 + w / 2, x1 - w / 2, xm, xm], axis=-1)
+    cy = np.stack([ym, ym, y0 + w / 2, y1 - w / 2], axis=-1)
+    length = np.stack([y1 - y0, y1 - y0, x1 - x0, x1 - x0], axis=-1)
+    width = np.minimum(w, np.stack([x1 - x0, x1 - x0, y1 - y0, y1 - y0], axis=-1))
+    return cx, cy, length, width, length * width
