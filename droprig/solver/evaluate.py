@@ -43,32 +43,35 @@ def _loads(load: LiftLoad | Sequence[LiftLoad]) -> tuple[LiftLoad, ...]:
 
 def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                    geo: Geometry, load_index: np.ndarray | None = None, *,
-                   detail: bool = True) -> Chain:
+                   detail: bool = True, v_hoist: float = 0.0) -> Chain:
     """Every step of the chain for ``load`` at the points of ``geo`` (one block, all
     points; the calculation trace and the tests read the step results). ``load`` may
-    be a sequence of loads with ``load_index`` naming the load of each point."""
+    be a sequence of loads with ``load_index`` naming the load of each point;
+    ``v_hoist`` is the hoist's lowering speed at release (m/s, :class:`Drop`)."""
     memory.keep_freed_memory()
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
     with np.errstate(all="ignore"):
-        return run_chain(Drop(fm, project, geo, _loads(load), li, detail))
+        return run_chain(Drop(fm, project, geo, _loads(load), li, detail, v_hoist))
 
 
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
-             geo: Geometry, load_index: np.ndarray | None) -> dict[str, np.ndarray]:
+             geo: Geometry, load_index: np.ndarray | None,
+             v_hoist: float = 0.0) -> dict[str, np.ndarray]:
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
-    return outputs(run_chain(Drop(fm, project, geo, _loads(load), li, False)))
+    return outputs(run_chain(Drop(fm, project, geo, _loads(load), li, False, v_hoist)))
 
 
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
-                  geo: Geometry, load_index: np.ndarray | None = None,
-                  ) -> dict[str, np.ndarray]:
+                  geo: Geometry, load_index: np.ndarray | None = None, *,
+                  v_hoist: float = 0.0) -> dict[str, np.ndarray]:
     """The :class:`~droprig.solver.results.CaseResult` arrays of ``load`` at the points
     of ``geo`` under their field names, and ``F_allow`` (N, the elastic allowed force).
 
     ``load`` may be a sequence of loads with ``load_index`` naming the load of each
-    point (several cases in one vectorised pass)."""
+    point (several cases in one vectorised pass); ``v_hoist``: the hoist's lowering
+    speed at release, m/s (:class:`~droprig.solver.chain.Drop`)."""
     n = geo.x.size
     memory.keep_freed_memory()
     if n == 0:
@@ -77,7 +80,7 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     chunk = loadpath_chunk()
     with np.errstate(all="ignore"):
         if n <= chunk:
-            return _outputs(fm, project, load, geo, load_index)
+            return _outputs(fm, project, load, geo, load_index, v_hoist)
 
         def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
             sl = slice(s, e)
@@ -88,10 +91,10 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
                 if n <= CACHE_MAX_POINTS:  # keep per-point actions for the next load
                     geo.cache[("slice", s)] = sub
             with np.errstate(all="ignore"):
-                return [_outputs(fm, project, load, sub, li)]
+                return [_outputs(fm, project, load, sub, li, v_hoist)]
 
         li0 = None if load_index is None else load_index[:1]
-        probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0)
+        probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0, v_hoist)
         return _blockwise(n, 1, chunk, block, probe)
 
 
@@ -120,28 +123,30 @@ def loadpath_chunk() -> int:
 
 
 def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
-                    x: np.ndarray, y: np.ndarray) -> dict[str, np.ndarray]:
+                    x: np.ndarray, y: np.ndarray, *,
+                    v_hoist: float = 0.0) -> dict[str, np.ndarray]:
     """Every load at every point, load by load ((len(loads)·n) rows, load-major):
     :func:`point_geometry` and :func:`evaluate_case` block by block on all cores,
     each block's load path and load-independent member actions shared by the loads.
     The path for large sets of points: nothing of the size of all points is kept
-    but the results. Same values as the two functions called on all points."""
+    but the results. Same values as the two functions called on all points.
+    ``v_hoist``: the hoist's lowering speed at release, m/s."""
     memory.keep_freed_memory()
     x = np.asarray(x, float)
     y = np.asarray(y, float)
     n, nl = x.size, len(loads)
     if n == 0 or nl == 0:
         return evaluate_case(fm, project, list(loads), point_geometry(fm, project, x, y),
-                             np.zeros(0, dtype=np.int64))
+                             np.zeros(0, dtype=np.int64), v_hoist=v_hoist)
 
     def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
         geo = point_geometry(fm, project, x[s:e], y[s:e])
         with np.errstate(all="ignore"):
-            return [_outputs(fm, project, ld, geo, None) for ld in loads]
+            return [_outputs(fm, project, ld, geo, None, v_hoist) for ld in loads]
 
     with np.errstate(all="ignore"):
         probe = _outputs(fm, project, loads[0], point_geometry(fm, project, x[:1], y[:1]),
-                         None)
+                         None, v_hoist)
     return _blockwise(n, nl, loadpath_chunk(), block, probe)
 
 

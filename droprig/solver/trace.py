@@ -98,7 +98,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     if geo.path.pair[0] < 0:
         raise ModelError("trace.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}")
-    chain = evaluate_chain(fm, project, load, geo, detail=True)
+    chain = evaluate_chain(fm, project, load, geo, detail=True, v_hoist=zone.hoist_speed)
     sheet = _Sheet(project, fm, geo, load, chain)
     add = sheet.add
     in_zone = bool(droppoints.in_zone(zone, xa, ya)[0])
@@ -337,13 +337,18 @@ def _local_damage_steps(sheet: _Sheet) -> None:
         so = STRIKE_ORIENTATIONS[int(ld.orientation[0])]
         src = ("Kennedy 1976; Li et al. 2005; DOE-STD-3014 App. C"
                + ("; extrapolated below the test speeds" if ld.extrapolated[0] else ""))
+        add("Strike speed (free fall from the hoist's lowering speed)", "V",
+            "V = √(v_h² + 2gh)",
+            {"v_h": (sheet.chain.drop.v_hoist, "speed"), "h": (inp.h[0], "length")},
+            ld.v_strike[0], "speed", "uniform acceleration (any dynamics text)")
         add(f"Local damage: penetration of the deck ({so} strike governs)", "x",
             "x/d = 2√G or G + 1, G = 3.8·10⁻⁵·N*·M/(d√f_c)·(V/d)^1.8; UKAEA",
             {"t": (lv.deck.thickness, "length"), "h": (inp.h[0], "length")},
             ld.penetration[0], "length", src)
         add("Drop height at which the soffit starts to scab", "h_s",
-            "t = 1.1·t_s(V), V = √(2gh) (Kennedy, Chang)", {"t": (lv.deck.thickness, "length")},
+            "t = 1.1·t_s(V), V = √(v_h² + 2gh) (Kennedy, Chang)",
+            {"t": (lv.deck.thickness, "length")},
             ld.h_scab[0], "length", src)
         add("Drop height at which the load perforates the deck", "h_p",
-            "t = 1.2·t_p(V), V = √(2gh) (Kennedy/ACE, Barr, Chang)",
+            "t = 1.2·t_p(V), V = √(v_h² + 2gh) (Kennedy/ACE, Barr, Chang)",
             {"t": (lv.deck.thickness, "length")}, ld.h_perf[0], "length", src)
