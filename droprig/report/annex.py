@@ -905,9 +905,11 @@ class _Builder:
                     nums_of.setdefault(bay_id, []).append(f"C{n + 1}")
                     if c.kind == "exclude_area":
                         excl.add(bay_id)
+            scab = content.scabbing_bays(self.r, level, self.zones)
             for b in bays(level):
                 marks[b.id] = BayMark(b.id in excl,
-                                      tuple(dict.fromkeys(nums_of.get(b.id, []))))
+                                      tuple(dict.fromkeys(nums_of.get(b.id, []))),
+                                      b.id in scab)
             desc = [f"Level elevation {self.v(level.elevation, 'length')}."]
             for z in zones:
                 desc.append(
@@ -915,7 +917,9 @@ class _Builder:
                     f"({self.v(z.crane[0], 'length')}, {self.v(z.crane[1], 'length')}), "
                     f"radius {self.v(z.r_min, 'length')} to {self.v(z.r_max, 'length')}, "
                     f"slew {_deg(z.slew_start)} to {_deg(z.slew_start + z.slew_sweep)}, "
-                    f"drift margin {self.v(z.drift_margin, 'length')}.")
+                    f"drift margin {self.v(z.drift_margin, 'length')}"
+                    + (" (computed from the slew, hoist and radial speeds and the "
+                       "swing)" if z.drift_mode == "computed" else "") + ".")
             desc.append("Each bay: id, worst outcome over the loads, highest U and the "
                         "numbers of the permit conditions that apply (page 1). Plan north "
                         "is +y; angles counter-clockwise from +x.")
