@@ -52,7 +52,15 @@ from dataclasses import replace
 import numpy as np
 
 from droprig.model import Level, LiftLoad, LiftZone, Project, corridor_problem
-from droprig.solver import cancel, cascade, droppoints, evaluate, memory, refine
+from droprig.solver import (
+    cancel,
+    cascade,
+    droppoints,
+    evaluate,
+    local_damage,
+    memory,
+    refine,
+)
 from droprig.solver.chain import FIELDS, planned_height
 from droprig.solver.drift import resolve_drift
 from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_model
@@ -102,6 +110,8 @@ def analyse_zone(project: Project, zone_id: str,
     if zone.corridor and (problem := corridor_problem(zone.corridor)) is not None:
         warnings.append(f"zone {zone.id}: the lift corridor is not a simple polygon "
                         f"({problem}); check the drop points it covers")
+    for load in zone.loads:  # a load smaller than a grating's gap passes through it
+        local_damage.check_load_on_grating(load, level.deck)
     x, y = droppoints.base_points(fm.frame, zone, project.settings.grid_resolution)
     if x.size == 0:
         warnings.append(f"zone {zone.id}: no drop point over the deck of level {level.id}")
