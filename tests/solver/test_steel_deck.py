@@ -179,3 +179,25 @@ def test_two_level_demo_on_a_steel_plate_roof() -> None:
     assert steps["h_p"] == pytest.approx(case.perforation_height[i], rel=1e-12)
     assert t.response == "perforates"
     assert any(f.from_level == "RF" for f in res.cascade)
+
+
+def test_preflight_names_the_load_too_small_for_a_grating() -> None:
+    # the same refusal before the analysis, with the JSON path of the value to change
+    from droprig.io.project_file import load_project
+    from droprig.preflight import analysis_problems
+    from droprig.solver import analyse
+
+    p = load_project(ROOT / "demo_projects" / "two_level_rigging.droprig")
+    roof = dataclasses.replace(p.level("RF"), deck=GRATING)
+    zone = p.lift_zones[0]
+    pin = LiftLoad("Pin", mass=5.0, footprint_length=0.2, footprint_width=0.02,
+                   drop_height=3.0, kind="rigging")
+    p = dataclasses.replace(p, levels=(roof, p.level("L3")),
+                            lift_zones=(dataclasses.replace(zone, loads=(*zone.loads, pin)),))
+    with pytest.raises(ModelError) as info:
+        ld.check_load_on_grating(pin, GRATING)
+    problems = analysis_problems(p)
+    assert problems == [f"$.lift_zones[0].loads[{len(zone.loads)}].footprint_width_m: "
+                        f"{info.value}"]
+    with pytest.raises(ModelError):
+        analyse(p)
