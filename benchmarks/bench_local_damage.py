@@ -4,7 +4,8 @@
 Run: ``.venv/bin/python benchmarks/bench_local_damage.py [--quick]``
 
 For each demo project's hard loads, :func:`droprig.solver.local_damage.load_local_damage`
-(three strike orientations, three formula families each) over n drop points with
+(three strike orientations, three formula families each; and on a 10 mm steel plate
+deck, BRL) over n drop points with
 drop heights spread over 0–2× the load's height; reported as ns per drop point
 per load, next to the floor analysis's own time per drop point for scale; then the
 demo's whole ``analyse`` with and without the step (the same project with every
@@ -26,6 +27,7 @@ ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT))
 
 from droprig.io.project_file import load_project  # noqa: E402
+from droprig.model import Deck  # noqa: E402
 from droprig.solver import analysis  # noqa: E402
 from droprig.solver import local_damage as ld  # noqa: E402
 
@@ -71,6 +73,12 @@ def main(argv: list[str] | None = None) -> dict[str, dict[str, float]]:
                       f"({len(load.strike_orientations)} orientations, n = {n}); "
                       f"floor analysis {1e9 * t_an / max(n_pts, 1):8.1f} ns/point "
                       f"({n_pts} points, median {1e3 * t_an:.1f} ms)")
+                plate = Deck(kind="steel_plate", thickness=0.010)
+                t_pl = _median(lambda ld_=load, hh=h, d=plate: ld.load_local_damage(ld_, d, hh),
+                               runs)
+                out[key]["plate_ns_per_point"] = 1e9 * t_pl / n
+                print(f"{key}: on a 10 mm steel plate deck (BRL) {1e9 * t_pl / n:8.1f} "
+                      "ns/point")
         soft = replace(project, lift_zones=tuple(
             replace(z, loads=tuple(replace(ld_, hard=False) for ld_ in z.loads))
             for z in project.lift_zones))

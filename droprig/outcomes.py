@@ -101,7 +101,9 @@ SCABBING = Flag(
     "scabbing", "Soffit may scab", "s",
     "A hard load may knock concrete off the underside of the deck here: keep the level "
     "below clear.", "#C0733A")
-"""The scabbing flag (our own mark: a lower-case s in burnt orange)."""
+"""The scabbing flag (our own mark: a burnt-orange disc with a white lower-case s,
+drawn in the top-right corner of a bay where a hard load may scab the soffit over
+the level below — on the screen plan and on the annex plan alike)."""
 
 
 def outcome(key: str | None) -> Outcome:

@@ -37,7 +37,8 @@ def json_path_of(project: Project, field: str, zone: LiftZone | None = None,
         if load_index is not None:
             tail = field.rsplit(".", 1)[-1]
             key = {"hook_elevation": "hook_elevation_m", "drop_height": "drop_height_m",
-                   "hang_length": "hang_length_m"}.get(tail)
+                   "hang_length": "hang_length_m",
+                   "footprint_width": "footprint_width_m"}.get(tail)
             base = f"$.lift_zones[{zi}].loads[{load_index}]"
             return f"{base}.{key}" if key else base
         return f"$.lift_zones[{zi}]"
@@ -79,19 +80,20 @@ def analysis_problems(project: Project) -> list[str]:
     ``"<JSON path>: <message>"`` (empty: the analysis accepts the project).
     Builds the prepared floors the analysis then reuses (same cache), so running
     it first costs nothing extra."""
-    from droprig.solver import floor_model, level_below
+    from droprig.solver import check_load_on_grating, floor_model, level_below
 
     out: list[str] = []
     seen: set[str] = set()
-    # the zones' levels, and the level below each: a load that perforates a deck
-    # is assessed on the level below in the same run (droprig.solver.cascade)
+    # the zones' levels, and every level under each: a load that perforates a deck
+    # is assessed on the level below in the same run, and further down while it
+    # still perforates (droprig.solver.analysis.cascade_down)
     wanted: list[Level] = []
     for zone in project.lift_zones:
-        level = project.level(zone.level_id)
-        for lv in (level, level_below(project, level.id)):
-            if lv is not None and lv.id not in seen:
-                seen.add(lv.id)
-                wanted.append(lv)
+        lv: Level | None = project.level(zone.level_id)
+        while lv is not None and lv.id not in seen:
+            seen.add(lv.id)
+            wanted.append(lv)
+            lv = level_below(project, lv.id)
     for level in wanted:
         try:
             floor_model(level, project.settings)
@@ -101,6 +103,10 @@ def analysis_problems(project: Project) -> list[str]:
         level = project.level(zone.level_id)
         top = _surface_top(project, level, zone)
         for j, load in enumerate(zone.loads):
+            try:
+                check_load_on_grating(load, level.deck)
+            except ModelError as exc:
+                out.append(f"{json_path_of(project, exc.field, zone, j)}: {exc}")
             try:
                 if load.hook_elevation is None:
                     # one datum (issue 13): a drop height is measured from the finished

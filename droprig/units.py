@@ -33,6 +33,7 @@ QUANTITIES: dict[str, tuple[str, str, str, int, int]] = {
     "inertia": ("m**4", "cm**4", "in**4", 0, 0),
     "modulus": ("m**3", "cm**3", "in**3", 0, 1),
     "angle": ("rad", "deg", "deg", 2, 2),
+    "speed": ("m/s", "m/s", "ft/s", 2, 2),
     "line_load": ("N/m", "kN/m", "kip/ft", 2, 3),
     "mass_per_length": ("kg/m", "kg/m", "lb/ft", 1, 1),
     "dimensionless": ("", "", "", 3, 3),

@@ -45,7 +45,14 @@ from PySide6.QtWidgets import (
 
 from droprig import units
 from droprig.io import sections as lib
-from droprig.model import Deck, Level, ModelError, default_labels, generate_level
+from droprig.model import (
+    STEEL_DECK_KINDS,
+    Deck,
+    Level,
+    ModelError,
+    default_labels,
+    generate_level,
+)
 from droprig.model.sections import Grade, Section
 from droprig.texts import CAUTION
 
@@ -57,6 +64,8 @@ BEAM_SPACING_RANGE = (0.5, 10.0)
 """m (generate_level validation)."""
 THICKNESS_RANGE = (0.05, 0.6)
 """Deck thickness, m (Deck validation)."""
+STEEL_THICKNESS_RANGE = (0.003, 0.1)
+"""Steel plate thickness or grating bar depth, m (Deck validation narrows it per kind)."""
 PRESSURE_RANGE = (0.0, 50e3)
 """Superimposed dead and live-in-place loads, Pa (Level validation)."""
 ELEVATION_RANGE = (-500.0, 1000.0)
@@ -203,6 +212,8 @@ class GeneratorDialog(QDialog):
         self.system = unit_system if unit_system in ("SI", "US") else "SI"
         self._existing = tuple(existing_level_ids)
         self._level: Level | None = None
+        self._deck_base = Deck()
+        """The deck being edited (a steel deck's grade and bars are kept)."""
         self._fields: dict[str, _Field] = {}
         us = self.system == "US"
         s = self.system
@@ -255,6 +266,8 @@ class GeneratorDialog(QDialog):
         self.deck_kind = QComboBox()
         self.deck_kind.addItem("Composite deck (slab on profiled sheet)", "composite")
         self.deck_kind.addItem("Solid slab", "solid_slab")
+        self.deck_kind.addItem("Steel plate (thickness = plate)", "steel_plate")
+        self.deck_kind.addItem("Steel grating (thickness = bar depth)", "grating")
         self.deck_thickness = QLineEdit(length(0.13, "small_length"))
         self.concrete = QComboBox()
         self.concrete.addItems(lib.list_concretes())
@@ -408,9 +421,10 @@ class GeneratorDialog(QDialog):
             "girder_section": section(self.girder_section, "Girder section"),
             "beam_section": section(self.beam_section, "Beam section"),
             "deck_kind": lambda: self.deck_kind.currentData(),
-            "deck_thickness": lambda: parse_quantity(self.deck_thickness.text(),
-                                                     "small_length", s, *THICKNESS_RANGE,
-                                                     field="Deck thickness"),
+            "deck_thickness": lambda: parse_quantity(
+                self.deck_thickness.text(), "small_length", s,
+                *(STEEL_THICKNESS_RANGE if self.deck_kind.currentData() in STEEL_DECK_KINDS
+                  else THICKNESS_RANGE), field="Deck thickness"),
             "concrete": lambda: lib.get_concrete(self.concrete.currentText()),
             "superimposed_dead": lambda: parse_quantity(
                 self.superimposed_dead.text(), "pressure", s, *PRESSURE_RANGE,
@@ -458,8 +472,10 @@ class GeneratorDialog(QDialog):
         self._update_summary()
 
     def _build(self, v: dict[str, object]) -> Level:
+        b = self._deck_base  # a steel deck keeps its grade and bars
         deck = Deck(kind=v["deck_kind"], thickness=v["deck_thickness"],  # type: ignore[arg-type]
-                    concrete=v["concrete"])  # type: ignore[arg-type]
+                    concrete=v["concrete"], steel_fy=b.steel_fy,  # type: ignore[arg-type]
+                    bar_thickness=b.bar_thickness, bar_pitch=b.bar_pitch)
         return generate_level(
             level_id=v["level_id"],  # type: ignore[arg-type]
             name=v["level_name"],  # type: ignore[arg-type]
@@ -545,7 +561,8 @@ class GeneratorDialog(QDialog):
                 unit = units.display_unit("length", s)  # type: ignore[arg-type]
                 self.beam_spacing.setText(f"{mag:.{d}f} {unit}")
         d = level.deck
-        self.deck_kind.setCurrentIndex(0 if d.kind == "composite" else 1)
+        self._deck_base = d
+        self.deck_kind.setCurrentIndex(max(self.deck_kind.findData(d.kind), 0))
         self.deck_thickness.setText(fmt_value(d.thickness, "small_length", s).replace(",", ""))
         for name in lib.list_concretes():
             if lib.get_concrete(name) == d.concrete:

@@ -419,13 +419,27 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
     if k == "deck":
         dk: Deck = obj
 
+        def set_deck_kind(o: Deck, v: str) -> Deck:
+            # a new kind keeps the thickness where it is in that kind's range, else
+            # takes a typical one (the ranges do not overlap: 10 mm is no slab)
+            lo, hi, typical = {"steel_plate": (0.003, 0.05, 0.01),
+                               "grating": (0.02, 0.1, 0.03)}.get(v, (0.05, 0.6, 0.13))
+            t = o.thickness if lo <= o.thickness <= hi else typical
+            return replace(o, kind=v, thickness=t)  # type: ignore[arg-type]
+
         def set_conc(o: Deck, key: str, v: float) -> Deck:
             return replace(o, concrete=replace(o.concrete, **{key: v}))
 
         return Form("Deck", f"on level {ids[0]} · {len(dk.openings)} openings", obj, [
             _choice("kind", "Deck type", (("composite", "Composite metal deck"),
-                                          ("solid_slab", "Solid slab"))),
-            _q("thickness", "Total thickness", "small_length"),
+                                          ("solid_slab", "Solid slab"),
+                                          ("steel_plate", "Steel plate"),
+                                          ("grating", "Steel grating")),
+                    set_deck_kind),
+            _q("thickness", "Total thickness (plate; grating bar depth)", "small_length"),
+            _q("steel_fy", "Steel yield strength (plate, grating)", "stress"),
+            _q("bar_thickness", "Grating bar thickness", "small_length"),
+            _q("bar_pitch", "Grating bar pitch", "small_length"),
             _q("cover", "Cover to bottom bars", "small_length"),
             FieldSpec("rebar_area", "Bottom bars per width", "quantity",
                       lambda o: o.rebar_area, lambda o, v: replace(o, rebar_area=v),

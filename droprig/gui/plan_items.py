@@ -110,7 +110,8 @@ SHORT_WORDS = {"elastic": "ELASTIC", "plastic": "YIELDS", "exceeds": "EXCEEDS",
 class BayState:
     """What the plan shows for one bay: worst outcome over the displayed
     cases, greatest utilisation and least allowable drop heights (SI, None when
-    no summary exists or none is defined)."""
+    no summary exists or none is defined); ``scabbing``: a hard load of a displayed
+    case may scab the soffit over the level below (the scabbing mark)."""
 
     bay: Bay
     key: str = style.OUTCOME_NONE
@@ -118,6 +119,7 @@ class BayState:
     allowable_drop_height: float | None = None
     allowable_drop_height_plastic: float | None = None
     n_points: int = 0
+    scabbing: bool = False
 
     def short_word(self) -> str:
         """One word for a small bay label."""
@@ -252,6 +254,19 @@ class BayLabelsItem(PixelSized, QGraphicsItem):
             out.append((s, lines, placed))
         return out
 
+    def scabbing_marks(self, t: QTransform) -> list[QRectF]:
+        """Device rectangles of the scabbing marks: the top-right corner of each bay
+        that may scab, where the bay is at least 3 marks wide and tall on screen."""
+        out = []
+        for s in self._bays.states:
+            if not s.scabbing:
+                continue
+            dr = t.mapRect(rect_to_scene(s.bay.rect))
+            if dr.width() >= 3 * SCAB_MARK_PX and dr.height() >= 3 * SCAB_MARK_PX:
+                out.append(QRectF(dr.right() - SCAB_MARK_PX - 3, dr.top() + 3,
+                                  SCAB_MARK_PX, SCAB_MARK_PX))
+        return out
+
     def label_for(self, s: BayState, width_px: float, height_px: float) -> list[str]:
         """The lines that fit a bay of the given screen size (for tests too)."""
         full, number = self.value_line(s)
@@ -279,6 +294,8 @@ class BayLabelsItem(PixelSized, QGraphicsItem):
         painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
         painter.setRenderHint(QPainter.RenderHint.TextAntialiasing, True)
         bold, plain = pixel_font(11, True), pixel_font(11)
+        for rect in self.scabbing_marks(t):
+            paint_scabbing_mark(painter, rect)
         for s, lines, plate in self.plates(t):
             st = style.outcome(s.key)
             w = plate.width()
@@ -291,6 +308,26 @@ class BayLabelsItem(PixelSized, QGraphicsItem):
                 painter.drawText(QRectF(plate.left(), plate.top() + 2 + 14 * i, w, 14),
                                  Qt.AlignmentFlag.AlignCenter, line)
         painter.restore()
+
+
+SCAB_MARK_PX = 15.0
+"""Diameter of the scabbing mark on the screen plan, px."""
+
+
+def paint_scabbing_mark(painter: QPainter, rect: QRectF) -> None:
+    """The scabbing mark (:data:`droprig.outcomes.SCABBING`, our own symbol) in
+    ``rect`` (device px): a burnt-orange disc ringed in white with the white tag
+    letter, as on the annex plan."""
+    from droprig.outcomes import SCABBING
+
+    painter.save()
+    painter.setPen(cosmetic_pen("#FFFFFF", 1.5))
+    painter.setBrush(QColor(SCABBING.ink))
+    painter.drawEllipse(rect)
+    painter.setPen(QColor("#FFFFFF"))
+    painter.setFont(pixel_font(max(8.0, rect.height() * 0.75), True))
+    painter.drawText(rect, Qt.AlignmentFlag.AlignCenter, SCABBING.tag)
+    painter.restore()
 
 
 # ---------------------------------------------------------------- framing
@@ -522,9 +559,11 @@ def arc_path(cx: float, cy: float, r: float, a0: float, sweep: float) -> QPainte
     return path
 
 
-def drift_band(z: LiftZone) -> QPainterPath:
-    """The region swept by the drift margin around the zone's sector."""
-    d = z.drift_margin
+def drift_band(z: LiftZone, margin: float | None = None) -> QPainterPath:
+    """The region swept by the drift margin around the zone's sector: ``margin`` (m)
+    when given (the margin the analysis uses, :func:`shown_drift_margin`), else the
+    zone's stored ``drift_margin``."""
+    d = z.drift_margin if margin is None else margin
     if d <= 0:
         return QPainterPath()
     sweep = z.slew_sweep
@@ -538,12 +577,29 @@ def drift_band(z: LiftZone) -> QPainterPath:
     return widened.subtracted(sector_path(cx, cy, z.r_min, z.r_max, z.slew_start, sweep))
 
 
-def zone_bounds(z: LiftZone) -> QRectF:
-    """Scene rectangle of a zone's sector, drift band, corridor and crane."""
+def shown_drift_margin(z: LiftZone, surface_elevation: float) -> float:
+    """The drift margin the plan draws for ``z``, m: the one the analysis uses — for a
+    zone in ``computed`` mode :func:`droprig.solver.zone_drift_margin` from its slew,
+    hoist and radial speeds and swing over each load's fall onto the surface at
+    ``surface_elevation`` (m); the stored ``drift_margin`` otherwise, or where the
+    computation refuses the zone's data (the analysis then names the field)."""
+    if z.drift_mode != "computed":
+        return z.drift_margin
+    from droprig.solver import zone_drift_margin
+
+    try:
+        return zone_drift_margin(z, surface_elevation)
+    except ValueError:  # ModelError too: the analysis reports it with the field
+        return z.drift_margin
+
+
+def zone_bounds(z: LiftZone, margin: float | None = None) -> QRectF:
+    """Scene rectangle of a zone's sector, drift band (``margin`` as in
+    :func:`drift_band`), corridor and crane."""
     cx, cy = z.crane
     sweep = z.slew_sweep
     r = sector_path(cx, cy, z.r_min, z.r_max, z.slew_start, sweep).boundingRect()
-    r = r.united(drift_band(z).boundingRect())
+    r = r.united(drift_band(z, margin).boundingRect())
     c = to_scene(cx, cy)
     r = r.united(QRectF(c.x() - 0.5, c.y() - 0.5, 1.0, 1.0))
     for p in z.corridor:
@@ -573,6 +629,9 @@ class ZonesItem(PixelSized, QGraphicsItem):
         self._selected: str | None = None
         self._rect = QRectF()
         self.part = part
+        self.margin_of: Callable[[LiftZone], float] = lambda z: z.drift_margin
+        """The drift margin drawn for a zone, m (the plan view gives the computed
+        one for a zone in ``computed`` mode: :func:`shown_drift_margin`)."""
         self.setZValue(5 if part == "area" else 8.7)
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
 
@@ -600,7 +659,7 @@ class ZonesItem(PixelSized, QGraphicsItem):
     def _recompute(self) -> None:
         r = QRectF()
         for z in self.shown_zones():
-            r = r.united(zone_bounds(z))
+            r = r.united(zone_bounds(z, self.margin_of(z)))
         self._rect = r
         self.update()
 
@@ -631,12 +690,13 @@ class ZonesItem(PixelSized, QGraphicsItem):
             w = 2.6 if sel else 1.6
             cx, cy = z.crane
             sweep = z.slew_sweep
+            dband = drift_band(z, self.margin_of(z))
             painter.setPen(Qt.PenStyle.NoPen)
             painter.setBrush(band)
-            painter.drawPath(drift_band(z))
+            painter.drawPath(dband)
             painter.setPen(cosmetic_pen(teal.lighter(130), 1.0, Qt.PenStyle.DotLine))
             painter.setBrush(Qt.BrushStyle.NoBrush)
-            painter.drawPath(drift_band(z))
+            painter.drawPath(dband)
             painter.setPen(Qt.PenStyle.NoPen)
             painter.setBrush(wash)
             painter.drawPath(sector_path(cx, cy, z.r_min, z.r_max, z.slew_start, sweep))

@@ -88,11 +88,13 @@ from droprig.gui.plan_items import (
     fmt_ratio,
     from_scene,
     handle_positions,
+    paint_scabbing_mark,
     pixel_font,
     raster_transform,
     rasterise,
     rect_to_scene,
     sector_path,
+    shown_drift_margin,
     to_scene,
     utilisation_line,
     zone_bounds,
@@ -471,7 +473,11 @@ class PlanView(QGraphicsView):
         zones = [z for z in project.lift_zones if z.level_id == lid] if project else []
         for pitem in (self._protection_item, self._protection_labels):
             pitem.set_areas(areas)
+        # the drift band drawn is the margin the analysis uses (computed from the
+        # crane's motion for a zone in computed mode), never a stale stored value
+        elevation = level.elevation if level is not None else 0.0
         for zitem in (self._zones_item, self._cranes_item):
+            zitem.margin_of = lambda z, e=elevation: shown_drift_margin(z, e)
             zitem.set_zones(zones)
         if self._selected_zone and not self._zone(self._selected_zone):
             self._selected_zone = None
@@ -707,7 +713,7 @@ class PlanView(QGraphicsView):
         if self._level is not None:
             r = rect_to_scene(self._level.grid.extent)
         for z in self._zones_item.shown_zones():
-            r = r.united(zone_bounds(z))
+            r = r.united(zone_bounds(z, self._zones_item.margin_of(z)))
         for a in self._protection_item.areas:
             r = r.united(rect_to_scene(a.area))
         return r
@@ -751,7 +757,8 @@ class PlanView(QGraphicsView):
                     if self._case is not None and (s.zone_id, s.load_name) != self._case:
                         continue
                     a = agg.setdefault(s.bay_id, {"keys": [], "u": [], "h": [], "hp": [],
-                                                  "n": 0})
+                                                  "n": 0, "scab": False})
+                    a["scab"] = a["scab"] or bool(s.scabbing)
                     a["keys"].append(s.response)
                     a["u"].append(s.max_utilisation)
                     if s.allowable_drop_height is not None:
@@ -770,7 +777,7 @@ class PlanView(QGraphicsView):
                     max(us) if us else math.nan,
                     min(a["h"]) if a["h"] else None,
                     min(a["hp"]) if a["hp"] else None,
-                    a["n"]))
+                    a["n"], a["scab"]))
         self._bays_item.set_states(states)
         self._cases = self._displayed_cases()
         self._build_point_index()
@@ -1697,6 +1704,8 @@ class PlanView(QGraphicsView):
             rows.append(("sym", "protection"))
         if self._openings_item.count:
             rows.append(("sym", "opening"))
+        if any(st.scabbing for st in self._bays_item.states):
+            rows.append(("sym", "scabbing"))
         return rows
 
     def _paint_legend(self, p: QPainter) -> None:
@@ -1849,6 +1858,11 @@ class PlanView(QGraphicsView):
             p.setBrush(Qt.BrushStyle.NoBrush)
             p.drawRect(box)
             label = "Deck opening"
+        elif kind == "scabbing":
+            from droprig.outcomes import SCABBING
+
+            paint_scabbing_mark(p, QRectF(a.x() + 6, a.y() - 7, 14, 14))
+            label = f"{SCABBING.label}: keep the level below clear"
         p.setFont(pixel_font(10))
         p.setPen(QColor("#222222"))
         p.drawText(QRectF(r.left() + 32, r.top(), r.width() - 32, r.height()),

@@ -262,6 +262,10 @@ def _level_doc(lv: Level, memo: dict[int, object]) -> dict[str, object]:
             },
             "openings": [_rect_doc(o) for o in d.openings],
             **_deck_extra_doc(d),
+            # steel decks only (absent = the defaults; a concrete deck's file unchanged)
+            **({"steel_fy_Pa": d.steel_fy} if d.is_steel else {}),
+            **({"bar_thickness_m": d.bar_thickness, "bar_pitch_m": d.bar_pitch}
+               if d.kind == "grating" else {}),
         },
         "superimposed_dead_Pa": lv.superimposed_dead,
         "live_in_place_Pa": lv.live_in_place,
@@ -905,7 +909,8 @@ _KEYS_GRID = {"x_lines": "x_lines_m", "y_lines": "y_lines_m", "x_labels": "x_lab
               "y_labels": "y_labels"}
 _KEYS_DECK = {"kind": "kind", "thickness": "thickness_m", "cover": "cover_m",
               "rebar_area": "rebar_area_m2_per_m", "rib_height": "rib_height_m",
-              "top_rebar_area": "top_rebar_area_m2_per_m"}
+              "top_rebar_area": "top_rebar_area_m2_per_m", "steel_fy": "steel_fy_Pa",
+              "bar_thickness": "bar_thickness_m", "bar_pitch": "bar_pitch_m"}
 _KEYS_CONCRETE = {"fc": "fc_Pa", "density": "density_kg_per_m3", "fy_rebar": "fy_rebar_Pa"}
 _KEYS_RECT = {"x0": "x0_m", "y0": "y0_m", "x1": "x1_m", "y1": "y1_m"}
 _KEYS_SECTION = {"name": "name", "d": "d_m", "bf": "bf_m", "tw": "tw_m", "tf": "tf_m",

@@ -19,7 +19,10 @@ from droprig.model.permit_data import (
 from droprig.model.polygon import CORRIDOR_ALLOWED, check_corridor, corridor_problem
 from droprig.model.project import (
     CONTACT_STIFFNESS_RANGE,
+    DECK_KINDS,
     END_CONDITIONS,
+    STEEL_DECK_KINDS,
+    STEEL_DENSITY,
     STRIKE_ORIENTATIONS,
     ColumnGrid,
     Deck,
@@ -39,11 +42,14 @@ from droprig.model.sections import E_STEEL, Concrete, Grade, Section
 __all__ = [
     "CONTACT_STIFFNESS_RANGE",
     "CORRIDOR_ALLOWED",
+    "DECK_KINDS",
     "END_CONDITIONS",
     "E_STEEL",
     "LIFT_POINT_KINDS",
     "MASS_SOURCES",
     "MASS_SOURCE_WORDS",
+    "STEEL_DECK_KINDS",
+    "STEEL_DENSITY",
     "STRIKE_ORIENTATIONS",
     "Bay",
     "ColumnGrid",

@@ -35,7 +35,11 @@ END_CONDITIONS: tuple[str, ...] = ("simple", "fixed", "propped", "cantilever")
 MemberRole = Literal["girder", "beam"]
 UnitSystem = Literal["SI", "US"]
 DesignBasis = Literal["aisc360", "en1993"]
-DeckKind = Literal["composite", "solid_slab"]
+DeckKind = Literal["composite", "solid_slab", "steel_plate", "grating"]
+DECK_KINDS: tuple[str, ...] = ("composite", "solid_slab", "steel_plate", "grating")
+STEEL_DECK_KINDS: tuple[str, ...] = ("steel_plate", "grating")
+STEEL_DENSITY = 7850.0
+"""Density of structural steel, kg/m³ (EN 1991-1-1 Table A.4)."""
 MatKind = Literal["spring", "crushable"]
 LoadKind = Literal["load", "rigging"]
 StrikeOrientation = Literal["flat", "edge", "corner"]
@@ -277,15 +281,27 @@ class Member:
 @dataclass(frozen=True)
 class Deck:
     """Floor deck spanning one way between the members parallel to the infill
-    beams. thickness: total slab depth, m; cover to the bottom bars, m;
-    rebar_area: bottom reinforcement per metre width, m²/m.
+    beams.
 
-    rib_height: height of the profiled steel deck's ribs, m (composite decks; 0 for a
-    solid slab or when not known — then the full depth is used as before). Punching
-    and local flexure use the concrete over the ribs, thickness − rib_height
-    (EN 1994-1-1 §9.7.6), at least 40 mm (§9.2.1(2), from memory).
-    top_rebar_area: top bars over the beams and girders per metre width, m²/m (0:
-    none, no hogging capacity is counted)."""
+    Concrete kinds (``composite``, ``solid_slab``): thickness is the total slab
+    depth, m; cover to the bottom bars, m; rebar_area: bottom reinforcement per
+    metre width, m²/m.
+
+    Steel kinds: ``steel_plate`` — thickness is the plate thickness (3–50 mm);
+    ``grating`` — thickness is the depth of the bearing bars (20–100 mm), which
+    span between the beams, ``bar_thickness`` their thickness (2–20 mm) and
+    ``bar_pitch`` their centre spacing (10–100 mm, more than the bar thickness).
+    ``steel_fy``: yield strength of the plate or bars, Pa (200–700 MPa; the grade's
+    nominal value, e.g. 235 MPa for S235, 250 MPa for A36). A steel deck has no
+    concrete: cover, rebar and concrete are kept but not used.
+    
+    Concrete kinds may also give ``rib_height``: height of the profiled steel
+    deck's ribs, m (composite decks; 0 for a solid slab or when not known — then
+    the full depth is used). Punching and local flexure use the concrete over the
+    ribs, thickness − rib_height (EN 1994-1-1 §9.7.6), at least 40 mm (§9.2.1(2),
+    from memory); ``top_rebar_area``: top bars over the beams and girders per metre
+    width, m²/m (0: none, no hogging capacity is counted).
+    """
 
     kind: DeckKind = "composite"
     thickness: float = 0.13
@@ -296,24 +312,59 @@ class Deck:
     rib_height: float = 0.0
     top_rebar_area: float = 0.0
 
+    steel_fy: float = 235e6
+    bar_thickness: float = 0.005
+    bar_pitch: float = 0.03
+
     def __post_init__(self) -> None:
-        check_choice("deck.kind", self.kind, ("composite", "solid_slab"))
-        check_range("deck.thickness", self.thickness, 0.05, 0.6, unit="m")
-        check_range("deck.cover", self.cover, 0.01, 0.1, unit="m")
-        if self.cover >= self.thickness / 2:
-            raise ModelError("deck.cover", self.cover,
-                             f"< thickness/2 = {self.thickness / 2:g} m", "m")
-        check_range("deck.rebar_area", self.rebar_area, 5e-5, 5e-3, unit="m²/m")
-        check_range("deck.rib_height", self.rib_height, 0.0, 0.25, unit="m")
-        if self.rib_height > 0.0 and self.thickness - self.rib_height < 0.04:
-            raise ModelError("deck.rib_height", self.rib_height,
-                             f"≤ thickness − 0.04 m = {self.thickness - 0.04:g} m (at least "
-                             "40 mm of concrete over the ribs)", "m")
-        check_range("deck.top_rebar_area", self.top_rebar_area, 0.0, 5e-3, unit="m²/m")
+        check_choice("deck.kind", self.kind, DECK_KINDS)
+        if self.kind == "steel_plate":
+            check_range("deck.thickness", self.thickness, 0.003, 0.05, unit="m")
+        elif self.kind == "grating":
+            check_range("deck.thickness", self.thickness, 0.02, 0.1, unit="m")
+        else:
+            check_range("deck.thickness", self.thickness, 0.05, 0.6, unit="m")
+            check_range("deck.cover", self.cover, 0.01, 0.1, unit="m")
+            if self.cover >= self.thickness / 2:
+                raise ModelError("deck.cover", self.cover,
+                                 f"< thickness/2 = {self.thickness / 2:g} m", "m")
+            check_range("deck.rebar_area", self.rebar_area, 5e-5, 5e-3, unit="m²/m")
+            check_range("deck.rib_height", self.rib_height, 0.0, 0.25, unit="m")
+            if self.rib_height > 0.0 and self.thickness - self.rib_height < 0.04:
+                raise ModelError("deck.rib_height", self.rib_height,
+                                 f"≤ thickness − 0.04 m = {self.thickness - 0.04:g} m (at "
+                                 "least 40 mm of concrete over the ribs)", "m")
+            check_range("deck.top_rebar_area", self.top_rebar_area, 0.0, 5e-3,
+                        unit="m²/m")
+        check_range("deck.steel_fy", self.steel_fy, 200e6, 700e6, unit="Pa")
+        check_range("deck.bar_thickness", self.bar_thickness, 0.002, 0.02, unit="m")
+        check_range("deck.bar_pitch", self.bar_pitch, 0.01, 0.1, unit="m")
+        if self.bar_pitch <= self.bar_thickness:
+            raise ModelError("deck.bar_pitch", self.bar_pitch,
+                             f"> bar_thickness = {self.bar_thickness:g} m", "m")
+
+    @property
+    def is_steel(self) -> bool:
+        """A steel plate or grating deck (no concrete)."""
+        return self.kind in STEEL_DECK_KINDS
+
+    @property
+    def steel_depth(self) -> float:
+        """Steel per unit plan area of a steel deck, m (m³/m²): the plate thickness,
+        or for a grating the bar depth × bar thickness / pitch (the bars smeared over
+        the plan; cross bars left out). 0 for a concrete deck."""
+        if self.kind == "steel_plate":
+            return self.thickness
+        if self.kind == "grating":
+            return self.thickness * self.bar_thickness / self.bar_pitch
+        return 0.0
 
     @property
     def self_weight_pressure(self) -> float:
-        """Deck self-weight, Pa (thickness × density × g)."""
+        """Deck self-weight, Pa: thickness × density × g for concrete; steel depth
+        (:attr:`steel_depth`) × 7850 kg/m³ × g for a steel deck."""
+        if self.is_steel:
+            return self.steel_depth * STEEL_DENSITY * 9.80665
         return self.thickness * self.concrete.density * 9.80665
 
 

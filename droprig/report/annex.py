@@ -32,7 +32,7 @@ from dataclasses import dataclass, field
 
 from droprig import __version__
 from droprig.io.atomic import atomic_path
-from droprig.model import Level, LiftZone, ModelError, Project, bays
+from droprig.model import Deck, Level, LiftZone, ModelError, Project, bays
 from droprig.permit import VERDICT_WORDS as _PERMIT_WORDS
 from droprig.permit import derive_conditions
 from droprig.report import content, fonts, permit_fields, references
@@ -663,6 +663,26 @@ def pad_spec(p: object, system: str) -> str:
             f"{fmt_sig(p.stiffness, 'stiffness', system, 3)}")  # type: ignore[attr-defined,arg-type]
 
 
+def _deck_words(dk: Deck, v: Callable[[float | None, str], str]) -> str:
+    """A deck's data for the members appendix: concrete depth, strength and bars; a
+    steel plate's thickness and yield strength; a grating's bars and the steel per
+    plan area its perforation check uses (``v`` formats a value in project units)."""
+    if dk.kind == "steel_plate":
+        return (f"{v(dk.thickness, 'small_length')} steel plate, yield strength "
+                f"{v(dk.steel_fy, 'stress')}; perforation by a hard item by the BRL "
+                "formula with a 1.25 thickness margin")
+    if dk.kind == "grating":
+        return (f"bearing bars {v(dk.thickness, 'small_length')} deep × "
+                f"{v(dk.bar_thickness, 'small_length')} at {v(dk.bar_pitch, 'small_length')}"
+                f" centres spanning between the beams, yield strength "
+                f"{v(dk.steel_fy, 'stress')}; perforation by a hard item by the BRL "
+                f"formula on {v(dk.steel_depth, 'small_length')} of steel per plan area "
+                "(bars smeared) with a 1.25 thickness margin")
+    return (f"{v(dk.thickness, 'length')} thick, concrete {v(dk.concrete.fc, 'stress')}, "
+            f"bottom bars {v(dk.rebar_area, 'area')} per m width at "
+            f"{v(dk.cover, 'length')} cover")
+
+
 class _Builder:
     def __init__(self, project: Project, results: Results, zones: tuple[LiftZone, ...],
                  fp: Fingerprint, permit: object, frame_w: float, frame_h: float,
@@ -905,9 +925,11 @@ class _Builder:
                     nums_of.setdefault(bay_id, []).append(f"C{n + 1}")
                     if c.kind == "exclude_area":
                         excl.add(bay_id)
+            scab = content.scabbing_bays(self.r, level, self.zones)
             for b in bays(level):
                 marks[b.id] = BayMark(b.id in excl,
-                                      tuple(dict.fromkeys(nums_of.get(b.id, []))))
+                                      tuple(dict.fromkeys(nums_of.get(b.id, []))),
+                                      b.id in scab)
             desc = [f"Level elevation {self.v(level.elevation, 'length')}."]
             for z in zones:
                 desc.append(
@@ -915,7 +937,9 @@ class _Builder:
                     f"({self.v(z.crane[0], 'length')}, {self.v(z.crane[1], 'length')}), "
                     f"radius {self.v(z.r_min, 'length')} to {self.v(z.r_max, 'length')}, "
                     f"slew {_deg(z.slew_start)} to {_deg(z.slew_start + z.slew_sweep)}, "
-                    f"drift margin {self.v(z.drift_margin, 'length')}.")
+                    f"drift margin {self.v(z.drift_margin, 'length')}"
+                    + (" (computed from the slew, hoist and radial speeds and the "
+                       "swing)" if z.drift_mode == "computed" else "") + ".")
             desc.append("Each bay: id, worst outcome over the loads, highest U and the "
                         "numbers of the permit conditions that apply (page 1). Plan north "
                         "is +y; angles counter-clockwise from +x.")
@@ -1162,10 +1186,7 @@ class _Builder:
             dk = lv.deck
             self.story.append(self.P(
                 f"Deck of level <b>{esc(lv.id)}</b>: {esc(dk.kind.replace('_', ' '))}, "
-                f"{self.v(dk.thickness, 'length')} thick, concrete "
-                f"{self.v(dk.concrete.fc, 'stress')}, bottom bars "
-                f"{self.v(dk.rebar_area, 'area')} per m width at "
-                f"{self.v(dk.cover, 'length')} cover; {len(dk.openings)} opening(s). "
+                f"{_deck_words(dk, self.v)}; {len(dk.openings)} opening(s). "
                 f"Superimposed dead {self.v(lv.superimposed_dead, 'pressure')}, live "
                 f"left in place {self.v(lv.live_in_place, 'pressure')}.", st.small))
         su = {"SI": ("m", "MPa", "kN·m", "kN", "kN·m²"),

@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 from droprig import outcomes
 from droprig.model import Level, LiftZone, ModelError, Project, bays
-from droprig.solver import RESPONSES, BaySummary, CaseResult, Results
+from droprig.solver import RESPONSES, BaySummary, CaseResult, Results, resolve_drift
 
 NOT_ASSESSED = outcomes.NOT_ASSESSED
 
@@ -126,10 +126,15 @@ def _case(results: Results, zone_id: str, load_name: str) -> CaseResult | None:
 
 
 def select_zones(project: Project, lift: str | None) -> tuple[LiftZone, ...]:
-    """The lift zones the annex covers: all, or the one named ``lift``."""
+    """The lift zones the annex covers: all, or the one named ``lift``, each with the
+    drift margin the analysis used (a ``computed`` zone's margin from its slew, hoist,
+    radial speed and swing: :func:`droprig.solver.resolve_drift`), so the plan and the
+    inputs print the band the drop points were spread over, never a stale stored
+    value."""
+    zones = resolve_drift(project).lift_zones
     if lift is None:
-        return project.lift_zones
-    for z in project.lift_zones:
+        return zones
+    for z in zones:
         if z.id == lift:
             return (z,)
     ids = ", ".join(z.id for z in project.lift_zones) or "(the project has no lift zones)"
@@ -252,6 +257,16 @@ def bay_outcomes(results: Results, level: Level,
         response = s.response if rank(s.response) > rank(r0) else r0
         out[s.bay_id] = (response, u if math.isnan(u0) or u > u0 else u0)
     return out
+
+
+def scabbing_bays(results: Results, level: Level, zones: tuple[LiftZone, ...]) -> set[str]:
+    """Ids of the bays of ``level`` where some load of ``zones`` may scab the soffit
+    (``BaySummary.scabbing``, hard loads: :mod:`droprig.solver.local_damage`). The
+    space under a deck is taken as occupied unless the permit keeps it clear, so each
+    such bay carries the scabbing mark (:data:`droprig.outcomes.SCABBING`)."""
+    zone_ids = {z.id for z in zones}
+    return {s.bay_id for s in results.bays
+            if s.level_id == level.id and s.zone_id in zone_ids and s.scabbing}
 
 
 # ------------------------------------------------------- de-duplicated sheets

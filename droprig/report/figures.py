@@ -28,7 +28,7 @@ from reportlab.graphics.shapes import Circle, Drawing, Group, Line, Polygon, Pol
 from reportlab.lib import colors
 from reportlab.pdfbase.pdfmetrics import stringWidth
 
-from droprig import units
+from droprig import outcomes, units
 from droprig.model import Level, LiftZone, ProtectionArea, bays, lift_point_tags
 from droprig.report import fonts
 from droprig.report.content import NOT_ASSESSED, OUTCOMES, OutcomeStyle
@@ -150,11 +150,14 @@ DRIFT_DASH = [1, 2]
 
 @dataclass(frozen=True)
 class BayMark:
-    """What the conditions plan writes in one bay: excluded (hatched) and the
-    labels of the permit conditions that apply (``"C3"``)."""
+    """What the conditions plan writes in one bay: excluded (hatched), the labels
+    of the permit conditions that apply (``"C3"``) and ``scabbing``: a hard load
+    may scab the soffit over the level below (the scabbing mark,
+    :data:`droprig.outcomes.SCABBING`)."""
 
     excluded: bool = False
     conditions: tuple[str, ...] = ()
+    scabbing: bool = False
 
 
 def reach_polygons(zone: LiftZone) -> tuple[list[list[tuple[float, float]]],
@@ -351,6 +354,14 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
         for k, (t, bold) in enumerate(lines):
             labels.add(_text(cx, cy + th / 2 - (k + 1) * size * 1.2 + size * 0.28, t, size,
                              anchor="middle", bold=bold))
+    # scabbing marks in the top-right corner of each bay that may scab
+    for b in bay_list:
+        if marks.get(b.id, BayMark()).scabbing:
+            x0, y0 = P(b.rect.x0, b.rect.y0)
+            x1, y1 = P(b.rect.x1, b.rect.y1)
+            r = min(SCAB_RADIUS, (x1 - x0) / 4, (y1 - y0) / 4)
+            if r >= 2.5:
+                labels.add(scabbing_mark(x1 - r - 2, y1 - r - 2, r))
     # pad labels: id and specification, on the pad's top edge
     for p in protections:
         x0, y0 = P(p.area.x0, p.area.y0)
@@ -369,6 +380,23 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
     _north_and_scale(d, s, system, width, LEGEND_HEIGHT + 8)
     _legend(d, width)
     return d
+
+
+SCAB_RADIUS = 5.0
+"""Radius of the scabbing mark on the plan, pt."""
+
+
+def scabbing_mark(x: float, y: float, r: float = SCAB_RADIUS) -> Group:
+    """The scabbing mark (:data:`droprig.outcomes.SCABBING`, our own symbol): a
+    burnt-orange disc of radius ``r`` (pt) centred at (x, y) with a white
+    lower-case tag letter, ringed in white so it reads over any bay fill."""
+    gr = Group()
+    ink = _hex(outcomes.SCABBING.ink)
+    gr.add(Circle(x, y, r, fillColor=ink, strokeColor=colors.white, strokeWidth=0.8))
+    size = max(MIN_PT, 1.5 * r)
+    gr.add(_text(x, y - 0.35 * size, outcomes.SCABBING.tag, size, anchor="middle",
+                 bold=True, color=colors.white))
+    return gr
 
 
 POINT_SIZE = 6.5
@@ -451,8 +479,10 @@ def _legend(d: Drawing, width: float) -> None:
     cols: list[list[tuple[str, object]]] = [
         [(f"{OUTCOMES[k].tag} {OUTCOMES[k].label} (reachable part)",
           lambda x, yy, k=k: sw_rect(x, yy, _hex(OUTCOMES[k].fill)))
-         for k in ("elastic", "plastic", "exceeds")]
-        + [("not reached by the load", lambda x, yy: sw_rect(x, yy, colors.white))],
+         for k in ("elastic", "plastic", "exceeds", "perforates")]
+        + [("not reached by the load", lambda x, yy: sw_rect(x, yy, colors.white)),
+           (f"{outcomes.SCABBING.label.lower()}: keep the level below clear",
+            lambda x, yy: scabbing_mark(x + 11, yy + 2.5, 4.5))],
         [("exclusion area: do not carry the load over it", excl),
          ("pad or mat to lay (specification on it)",
           lambda x, yy: sw_rect(x, yy, PAD_FILL)),

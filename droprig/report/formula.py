@@ -36,6 +36,7 @@ UNIT_FACTORS: dict[str, float] = {
     "cm²": 1e-4, "in²": _IN**2, "cm⁴": 1e-8, "in⁴": _IN**4, "cm³": 1e-6, "in³": _IN**3,
     "kN/m": 1e3, "kip/ft": 1e3 * _LBF / _FT, "kg/m": 1.0, "lb/ft": _LB / _FT,
     "°": math.pi / 180.0, "deg": math.pi / 180.0, "rad": 1.0,
+    "m/s": 1.0, "ft/s": _FT,
 }
 """The units a sheet prints, with the factor that takes them to SI."""
 
@@ -46,7 +47,8 @@ SHEET_UNITS: dict[str, tuple[str, str]] = {
     "pressure": ("kPa", "psf"), "stiffness": ("kN/mm", "kip/in"),
     "compliance": ("mm/kN", "in/kip"), "area": ("cm²", "in²"), "inertia": ("cm⁴", "in⁴"),
     "modulus": ("cm³", "in³"), "angle": ("°", "°"), "line_load": ("kN/m", "kip/ft"),
-    "mass_per_length": ("kg/m", "lb/ft"), "dimensionless": ("", ""),
+    "mass_per_length": ("kg/m", "lb/ft"), "speed": ("m/s", "ft/s"),
+    "dimensionless": ("", ""),
 }
 
 SMALL_LENGTH = 0.1

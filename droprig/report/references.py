@@ -79,6 +79,18 @@ REFERENCES: tuple[Reference, ...] = (
     Reference("toolbox", "Engineering ToolBox, Impact Force, "
               "https://www.engineeringtoolbox.com/impact-force-d_1780.html — springs in "
               "series, stopping distance.", r"Engineering ToolBox,? Impact Force"),
+    Reference("kennedy", "Kennedy, R. P., A review of procedures for the analysis and "
+              "design of concrete structures to resist missile impact effects, Nucl. Eng. "
+              "Des. 37 (1976) 183–203 — modified NDRC penetration, scabbing and "
+              "perforation (cited from memory).", r"Kennedy 1976"),
+    Reference("li2005", "Li, Q. M., Reid, S. R., Wen, H. M. and Telford, A. R., Local "
+              "impact effects of hard missiles on concrete targets, Int. J. Impact Eng. 32 "
+              "(2005) 224–284 — review of the NDRC, UKAEA, Barr, Chang and BRL formulas "
+              "(cited from memory).", r"Li et al\. 2005"),
+    Reference("doe3014", "DOE-STD-3014, Accident Analysis for Aircraft Crash into "
+              "Hazardous Facilities, US Department of Energy — Appendix C, local damage "
+              "of concrete and steel barriers by hard missiles, design margins.",
+              r"DOE-STD-3014(?: App\. C)?"),
     Reference("practice", "Common practice of structural engineering with no single "
               "published source (statics of the load path, lever rule over a one-way "
               "deck strip, springs in series, largest demand/resistance ratio, Newton's "
@@ -107,6 +119,7 @@ _PLAIN = {
     "springs in series": "practice",
     "series springs": "practice",
     "lever rule": "practice",
+    "uniform acceleration": "practice",
     "largest demand/resistance ratio": "practice",
 }
 

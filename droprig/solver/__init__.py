@@ -30,7 +30,7 @@ from droprig.solver.framing import (
     member_resistances,
     on_rigid_support,
 )
-from droprig.solver.local_damage import is_hard
+from droprig.solver.local_damage import check_load_on_grating, is_hard
 from droprig.solver.member import DEFAULT_DEFLECTION_LIMIT_RATIO, RESULT_KEYS, assess_member
 from droprig.solver.results import (
     ADVICE_KINDS,
@@ -89,6 +89,7 @@ __all__ = [
     "assess_member",
     "cancellable",
     "check_framing",
+    "check_load_on_grating",
     "floor_model",
     "is_hard",
     "level_below",

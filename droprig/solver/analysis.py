@@ -52,7 +52,15 @@ from dataclasses import replace
 import numpy as np
 
 from droprig.model import Level, LiftLoad, LiftZone, Project, corridor_problem
-from droprig.solver import cancel, cascade, droppoints, evaluate, memory, refine
+from droprig.solver import (
+    cancel,
+    cascade,
+    droppoints,
+    evaluate,
+    local_damage,
+    memory,
+    refine,
+)
 from droprig.solver.chain import FIELDS, planned_height
 from droprig.solver.confirm import confirm_bay_limits
 from droprig.solver.drift import resolve_drift
@@ -110,6 +118,8 @@ def analyse_zone(project: Project, zone_id: str,
                  "a footprint that lands on it — enter the pad's crush stress")
             if w not in warnings:
                 warnings.append(w)
+    for load in zone.loads:  # a load smaller than a grating's gap passes through it
+        local_damage.check_load_on_grating(load, level.deck)
     x, y = droppoints.base_points(fm.frame, zone, project.settings.grid_resolution)
     if x.size == 0:
         warnings.append(f"zone {zone.id}: no drop point over the deck of level {level.id}")
@@ -138,13 +148,35 @@ def analyse_zone(project: Project, zone_id: str,
         summaries = confirm_bay_limits(fm, project, zone, allres, summaries)
     for load, case in zip(zone.loads, zone_cases, strict=True):
         if below is not None:
-            fall = _cascade(project, zone, load, case, below, floor)
-            if fall is not None:
-                falls.append(fall)
+            falls.extend(cascade_down(project, zone, load, case, below, floor))
     if not zone.loads:
         warnings.append(f"zone {zone.id}: no loads to assess")
     warnings.extend(useless_layers(project, zone))
     return Results(tuple(cases), tuple(summaries), tuple(warnings), tuple(falls))
+
+
+def cascade_down(project: Project, zone: LiftZone, load: LiftLoad, case: CaseResult,
+                 below: Level, floor: Callable[[str], FloorModel]) -> list[Cascade]:
+    """The falls of a perforating drop level by level: the level below is struck
+    (:func:`_cascade`); where that level is perforated too and the project has a
+    level under it, the object goes on with its residual speed there, and so on
+    while it still perforates. Bounded by the project's levels: each step goes to a
+    strictly lower level (:func:`droprig.solver.cascade.level_below`), so at most
+    one fall per level. Each fall is one :class:`Cascade` (from the level it came
+    through to the level it strikes)."""
+    falls: list[Cascade] = []
+    seen = {case.level_id}
+    lower: Level | None = below
+    while lower is not None and lower.id not in seen and len(falls) < len(project.levels):
+        cancel.check()
+        fall = _cascade(project, zone, load, case, lower, floor)
+        if fall is None:
+            break
+        falls.append(fall)
+        seen.add(lower.id)
+        case = fall.case
+        lower = cascade.level_below(project, lower.id)
+    return falls
 
 
 def _cascade(project: Project, zone: LiftZone, load: LiftLoad, case: CaseResult,
@@ -160,7 +192,9 @@ def _cascade(project: Project, zone: LiftZone, load: LiftLoad, case: CaseResult,
     h_eq = float(np.nanmax(cascade.equivalent_drop_height_below(
         case.residual_velocity[hit], level, below)))
     h_eq = min(max(h_eq, 0.0), 200.0)  # LiftLoad's drop-height range
-    falling = replace(load, drop_height=h_eq, hook_elevation=None)
+    # the height stands for the whole strike speed (the hoist's lowering speed is in
+    # the residual speed already); the evaluation below adds no lowering speed
+    falling = replace(load, drop_height=h_eq, hook_elevation=None, hang_length=0.0)
     fm = floor(below.id)
     res = evaluate.evaluate_points(fm, project, [falling], case.x[hit], case.y[hit])
     inside = res["bay"] >= 0

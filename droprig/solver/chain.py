@@ -150,7 +150,11 @@ class Drop:
     Trials of a permit condition (:mod:`droprig.solver.confirm`) give per point
     ``H``: the drop height on the datum in place of the load's planned one (m), and
     ``mat_k``: the stiffness of a spring mat laid on the finished surface under the
-    whole footprint (N/m; nan = none), as the permit's advised mat is laid."""
+    whole footprint (N/m; nan = none), as the permit's advised mat is laid.
+
+    ``v_hoist``: the hoist's lowering speed when the load is let go (the zone's
+    ``hoist_speed``, m/s), which adds to the strike speed of the local-damage step,
+    V = √(v_h² + 2gh)."""
 
     fm: FloorModel
     project: Project
@@ -160,6 +164,7 @@ class Drop:
     detail: bool = False
     H: np.ndarray | None = None
     mat_k: np.ndarray | None = None
+    v_hoist: float = 0.0
 
     @property
     def n(self) -> int:
@@ -1140,9 +1145,9 @@ class LocalDamage:
     ``assessed``: a hard load on bare deck (no mat or crushable layer, no opening, no
     declared soft underside). ``penetration`` (m), ``scabbing`` / ``perforation``
     (bool), ``h_scab`` / ``h_perf`` (free fall at which each starts, m),
-    ``v_res`` (m/s after perforation), ``extrapolated`` (outside the formulas'
-    test speeds) and ``orientation`` (index into ``STRIKE_ORIENTATIONS``, −1 where
-    not assessed); nan / False elsewhere."""
+    ``v_res`` (m/s after perforation), ``v_strike`` (strike speed √(v_h² + 2gh), m/s),
+    ``extrapolated`` (outside the formulas' test speeds) and ``orientation`` (index
+    into ``STRIKE_ORIENTATIONS``, −1 where not assessed); nan / False elsewhere."""
 
     assessed: np.ndarray
     penetration: np.ndarray
@@ -1151,6 +1156,7 @@ class LocalDamage:
     h_scab: np.ndarray
     h_perf: np.ndarray
     v_res: np.ndarray
+    v_strike: np.ndarray
     extrapolated: np.ndarray
     orientation: np.ndarray
 
@@ -1158,15 +1164,19 @@ class LocalDamage:
 def local_damage(c: Chain) -> LocalDamage:
     """:class:`LocalDamage` of the drop: each hard load
     (:func:`~droprig.solver.local_damage.is_hard`) at its points on bare deck, free
-    fall ``LoadInputs.h``, the level's deck (full depth, its concrete and bottom
-    bars). Under a mat or a crushable layer the layer spreads the strike and the
-    deck is not assessed for local damage here (the contact checks judge it)."""
+    fall ``LoadInputs.h`` from the hoist's lowering speed ``Drop.v_hoist`` (strike
+    speed V = √(v_h² + 2gh), uniform acceleration), the level's deck (full depth,
+    its concrete and bottom bars). The start heights h_s, h_p are the free falls
+    that reach each start speed from v_h, (V² − v_h²)/(2g). Under a mat or a
+    crushable layer the layer spreads the strike and the deck is not assessed for
+    local damage here (the contact checks judge it)."""
     d, inp = c.drop, c[LoadInputs]
     n = d.n
     nan = np.full(n, np.nan)
     out = {"assessed": np.zeros(n, dtype=bool), "penetration": nan.copy(),
            "scabbing": np.zeros(n, dtype=bool), "perforation": np.zeros(n, dtype=bool),
            "h_scab": nan.copy(), "h_perf": nan.copy(), "v_res": np.zeros(n),
+           "v_strike": nan.copy(),
            "extrapolated": np.zeros(n, dtype=bool),
            "orientation": np.full(n, -1, dtype=np.int64)}
     bare = (inp.t_mat <= 0.0) & ~inp.crushable & ~d.geo.opening
@@ -1177,7 +1187,7 @@ def local_damage(c: Chain) -> LocalDamage:
         sel = bare & (d.li == j) if len(d.loads) > 1 else bare
         if not sel.any():
             continue
-        r = local_damage_mod.load_local_damage(load, deck_, inp.h[sel])
+        r = local_damage_mod.load_local_damage(load, deck_, inp.h[sel], d.v_hoist)
         orient = np.array([local_damage_mod.ORIENTATIONS.index(o) for o in r.orientations])
         out["assessed"][sel] = True
         out["penetration"][sel] = r.penetration
@@ -1186,6 +1196,7 @@ def local_damage(c: Chain) -> LocalDamage:
         out["h_scab"][sel] = r.h_scabbing
         out["h_perf"][sel] = r.h_perforation
         out["v_res"][sel] = r.v_residual
+        out["v_strike"][sel] = local_damage_mod.impact_speed(inp.h[sel], d.v_hoist)
         out["extrapolated"][sel] = r.extrapolated
         out["orientation"][sel] = orient[r.governing]
     return LocalDamage(**out)

@@ -17,7 +17,7 @@ import math
 import numpy as np
 from numpy.typing import ArrayLike
 
-from droprig.model import Deck
+from droprig.model import E_STEEL, Deck
 
 __all__ = [
     "POISSON_CONCRETE",
@@ -30,6 +30,9 @@ __all__ = [
 
 POISSON_CONCRETE = 0.2
 """Poisson's ratio of uncracked concrete (EN 1992-1-1 §3.1.3(4))."""
+
+POISSON_STEEL = 0.3
+"""Poisson's ratio of steel (EN 1993-1-1 §3.2.6(1))."""
 
 
 def concrete_modulus(fc: float, basis: str) -> float:
@@ -63,9 +66,13 @@ def flat_punch_stiffness(E: ArrayLike, nu: float, area: ArrayLike) -> np.ndarray
 def deck_local_compliance(deck: Deck, footprint_l: ArrayLike, footprint_w: ArrayLike,
                           basis: str) -> np.ndarray:
     """Local indentation compliance of the deck under the footprint, m/N:
-    1 / :func:`flat_punch_stiffness` with the deck concrete's modulus."""
-    E = concrete_modulus(deck.concrete.fc, basis)
+    1 / :func:`flat_punch_stiffness` with the deck concrete's modulus; a steel plate
+    or grating with the modulus of steel (E = 200 GPa, ν = 0.3; the half-space is
+    stiff, so the plate's bending in :func:`deck_strip_compliance` governs)."""
     area = np.asarray(footprint_l, float) * np.asarray(footprint_w, float)
+    if deck.is_steel:
+        return 1.0 / flat_punch_stiffness(E_STEEL, POISSON_STEEL, area)
+    E = concrete_modulus(deck.concrete.fc, basis)
     return 1.0 / flat_punch_stiffness(E, POISSON_CONCRETE, area)
 
 
@@ -77,11 +84,17 @@ def deck_strip_compliance(deck: Deck, span: ArrayLike, a: ArrayLike, width: Arra
     δ = a²·b²/(3·E·I·L) with b = L − a (AISC Manual Table 3-23 case 8;
     Roark 7th ed. Table 8.1 case 1e) and I = width·h³/12 of the gross
     uncracked section (stiffer than the cracked slab: a higher, conservative
-    impact force).
+    impact force). A steel plate: E_s·width·t³/12; a grating: the bearing bars,
+    E_s·width·t_b·h³/(12·p) (bars p apart, cross bars left out).
     """
     span, a, width = np.broadcast_arrays(*(np.asarray(v, float) for v in (span, a, width)))
-    E = concrete_modulus(deck.concrete.fc, basis)
-    EI = E * width * deck.thickness**3 / 12.0
+    if deck.kind == "steel_plate":
+        EI = E_STEEL * width * deck.thickness**3 / 12.0
+    elif deck.kind == "grating":
+        EI = E_STEEL * width * deck.bar_thickness * deck.thickness**3 / (12.0 * deck.bar_pitch)
+    else:
+        E = concrete_modulus(deck.concrete.fc, basis)
+        EI = E * width * deck.thickness**3 / 12.0
     x = np.clip(a, 0.0, span)
     with np.errstate(divide="ignore", invalid="ignore"):
         f = np.where(span > 0.0, x**2 * (span - x) ** 2 / (3.0 * EI * span), 0.0)

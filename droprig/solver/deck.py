@@ -1,5 +1,7 @@
-"""The floor deck as a one-way reinforced-concrete slab spanning between two adjacent
-parallel beams, struck by a load with a rectangular footprint.
+"""The floor deck as a one-way reinforced-concrete slab (or a steel plate or grating,
+:func:`steel_deck_flexure_resistance`, :func:`steel_deck_punching_resistance`)
+spanning between two adjacent parallel beams, struck by a load with a rectangular
+footprint.
 
 Only the bottom bars (``Deck.rebar_area`` per metre) are counted; the steel deck
 of a composite slab is ignored (conservative). The strip is simply supported on
@@ -28,6 +30,8 @@ __all__ = [
     "deck_unit_moment_per_width",
     "effective_depth",
     "punching_resistance",
+    "steel_deck_flexure_resistance",
+    "steel_deck_punching_resistance",
 ]
 
 BAR_DIAMETER = 0.012
@@ -60,9 +64,12 @@ def deck_flexure_resistance(deck: Deck, basis: str, phi: float = 1.0, *,
     with αcc = 1.0 (§3.1.6(1)), fyd = fyk/γs.
     ACI 318-19 §22.2.2: stress 0.85·f'c over a = β1·c, β1 = 0.85 − 0.05(f'c − 28 MPa)/7,
     0.65 ≤ β1 ≤ 0.85 (Table 22.2.2.4.3), εcu = 0.003 (§22.2.2.1).
-    M = As·σs·(d − depth/2) per metre, times ``phi``.
+    M = As·σs·(d − depth/2) per metre, times ``phi``. A steel plate or grating deck:
+    :func:`steel_deck_flexure_resistance`.
     """
     _basis(basis)
+    if deck.is_steel:
+        return steel_deck_flexure_resistance(deck, phi)
     fck = deck.concrete.fc
     As = deck.rebar_area
     d = effective_depth(deck, bar_diameter)
@@ -146,9 +153,12 @@ def punching_resistance(deck: Deck, footprint_l: ArrayLike, footprint_w: ArrayLi
     ACI 318-19 §22.6.5.2: vc = λs·√f'c·min(0.33, 0.17(1 + 2/β), 0.083(2 + αs·d/bo)) (MPa),
     λs = √(2/(1 + 0.004·d[mm])) ≤ 1 (§22.5.5.1.3), αs = 40 (interior), β = long/short
     side, bo = 2(l + w) + 4d at d/2 (§22.6.4.1), √f'c ≤ 8.3 MPa (§22.5.3.1);
-    Vc = vc·bo·d, times ``phi``. Footprints in m, vectorised.
+    Vc = vc·bo·d, times ``phi``. Footprints in m, vectorised. A steel plate or
+    grating deck: :func:`steel_deck_punching_resistance`.
     """
     _basis(basis)
+    if deck.is_steel:
+        return steel_deck_punching_resistance(deck, footprint_l, footprint_w, phi)
     l, w = np.broadcast_arrays(np.asarray(footprint_l, float), np.asarray(footprint_w, float))
     d = effective_depth(deck, bar_diameter)
     d_mm = d * 1000.0
@@ -171,3 +181,46 @@ def punching_resistance(deck: Deck, footprint_l: ArrayLike, footprint_w: ArrayLi
     beta = np.maximum(l, w) / np.minimum(l, w)
     coef = np.minimum(np.minimum(0.33, 0.17 * (1.0 + 2.0 / beta)), 0.083 * (2.0 + 40.0 * d / bo))
     return phi * lam_s * root * coef * bo * d * 1e6
+
+
+def steel_deck_flexure_resistance(deck: Deck, phi: float = 1.0) -> float:
+    """Plastic moment resistance per metre width of a steel plate or grating deck,
+    N·m/m.
+
+    Plate of thickness t: m_p = f_y·t²/4 (plastic modulus of a rectangle b·t²/4 per
+    unit width; EN 1993-1-1 §6.2.5 Eq. 6.13 with W_pl, γ_M0 = 1.0; AISC 360-16 F11.1
+    M_p = F_y·Z for a rectangular bar, Z ≤ 1.6·S is met, Z/S = 1.5).
+    Grating of bearing bars (depth h, thickness t_b, pitch p) spanning between the
+    beams: m_p = f_y·t_b·h²/(4·p) (each bar a rectangle, p apart; cross bars and
+    the lateral stability of a deep thin bar are left out — a bar with h/t_b > 20
+    may buckle sideways first: common practice, no source). Times ``phi``.
+    """
+    if deck.kind == "steel_plate":
+        return phi * deck.steel_fy * deck.thickness**2 / 4.0
+    if deck.kind == "grating":
+        return phi * deck.steel_fy * deck.bar_thickness * deck.thickness**2 / (
+            4.0 * deck.bar_pitch)
+    raise ValueError(f"deck.kind: {deck.kind!r} is not a steel deck")
+
+
+def steel_deck_punching_resistance(deck: Deck, footprint_l: ArrayLike,
+                                   footprint_w: ArrayLike, phi: float = 1.0) -> np.ndarray:
+    """Shear (punching) resistance of a steel plate or grating deck around the
+    footprint l × w, N.
+
+    Plate of thickness t: the plate sheared through on the footprint's perimeter,
+    V = 2(l + w)·t·f_y/√3 (shear yield, von Mises; EN 1993-1-1 §6.2.6 Eq. 6.18 with
+    A_v the sheared section, γ_M0 = 1.0).
+    Grating: the bearing bars under the footprint sheared at both its ends,
+    V = 2·n·h·t_b·f_y/√3 with n = ⌊b/p⌋ + 1 bars under the footprint's width
+    b = min(l, w) (the bars run either way: the narrower side is taken,
+    conservative; common practice, no source). Times ``phi``; vectorised.
+    """
+    l, w = np.broadcast_arrays(np.asarray(footprint_l, float), np.asarray(footprint_w, float))
+    tau = deck.steel_fy / math.sqrt(3.0)
+    if deck.kind == "steel_plate":
+        return phi * 2.0 * (l + w) * deck.thickness * tau
+    if deck.kind == "grating":
+        n = np.floor(np.minimum(l, w) / deck.bar_pitch) + 1.0
+        return phi * 2.0 * n * deck.thickness * deck.bar_thickness * tau
+    raise ValueError(f"deck.kind: {deck.kind!r} is not a steel deck")

@@ -43,35 +43,38 @@ def _loads(load: LiftLoad | Sequence[LiftLoad]) -> tuple[LiftLoad, ...]:
 
 def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                    geo: Geometry, load_index: np.ndarray | None = None, *,
-                   detail: bool = True) -> Chain:
+                   detail: bool = True, v_hoist: float = 0.0) -> Chain:
     """Every step of the chain for ``load`` at the points of ``geo`` (one block, all
     points; the calculation trace and the tests read the step results). ``load`` may
-    be a sequence of loads with ``load_index`` naming the load of each point."""
+    be a sequence of loads with ``load_index`` naming the load of each point;
+    ``v_hoist`` is the hoist's lowering speed at release (m/s, :class:`Drop`)."""
     memory.keep_freed_memory()
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
     with np.errstate(all="ignore"):
-        return run_chain(Drop(fm, project, geo, _loads(load), li, detail))
+        return run_chain(Drop(fm, project, geo, _loads(load), li, detail, v_hoist=v_hoist))
 
 
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
              geo: Geometry, load_index: np.ndarray | None, H: np.ndarray | None = None,
-             mat_k: np.ndarray | None = None) -> dict[str, np.ndarray]:
+             mat_k: np.ndarray | None = None, v_hoist: float = 0.0) -> dict[str, np.ndarray]:
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
-    return outputs(run_chain(Drop(fm, project, geo, _loads(load), li, False, H, mat_k)))
+    return outputs(run_chain(Drop(fm, project, geo, _loads(load), li, False, H, mat_k,
+                                  v_hoist)))
 
 
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                   geo: Geometry, load_index: np.ndarray | None = None,
-                  H: np.ndarray | None = None, mat_k: np.ndarray | None = None,
-                  ) -> dict[str, np.ndarray]:
+                  H: np.ndarray | None = None, mat_k: np.ndarray | None = None, *,
+                  v_hoist: float = 0.0) -> dict[str, np.ndarray]:
     """The :class:`~droprig.solver.results.CaseResult` arrays of ``load`` at the points
     of ``geo`` under their field names, and ``F_allow`` (N, the elastic allowed force).
 
     ``load`` may be a sequence of loads with ``load_index`` naming the load of each
     point (several cases in one vectorised pass). ``H`` and ``mat_k``: per-point trial
-    drop heights and mats (:class:`~droprig.solver.chain.Drop`)."""
+    drop heights and mats; ``v_hoist``: the hoist's lowering speed at release, m/s
+    (:class:`~droprig.solver.chain.Drop`)."""
     n = geo.x.size
     memory.keep_freed_memory()
     if n == 0:
@@ -80,7 +83,7 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     chunk = loadpath_chunk()
     with np.errstate(all="ignore"):
         if n <= chunk:
-            return _outputs(fm, project, load, geo, load_index, H, mat_k)
+            return _outputs(fm, project, load, geo, load_index, H, mat_k, v_hoist)
 
         def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
             sl = slice(s, e)
@@ -93,12 +96,12 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
             with np.errstate(all="ignore"):
                 return [_outputs(fm, project, load, sub, li,
                                  None if H is None else H[sl],
-                                 None if mat_k is None else mat_k[sl])]
+                                 None if mat_k is None else mat_k[sl], v_hoist)]
 
         li0 = None if load_index is None else load_index[:1]
         probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0,
                          None if H is None else H[:1],
-                         None if mat_k is None else mat_k[:1])
+                         None if mat_k is None else mat_k[:1], v_hoist)
         return _blockwise(n, 1, chunk, block, probe)
 
 
@@ -127,28 +130,30 @@ def loadpath_chunk() -> int:
 
 
 def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
-                    x: np.ndarray, y: np.ndarray) -> dict[str, np.ndarray]:
+                    x: np.ndarray, y: np.ndarray, *,
+                    v_hoist: float = 0.0) -> dict[str, np.ndarray]:
     """Every load at every point, load by load ((len(loads)·n) rows, load-major):
     :func:`point_geometry` and :func:`evaluate_case` block by block on all cores,
     each block's load path and load-independent member actions shared by the loads.
     The path for large sets of points: nothing of the size of all points is kept
-    but the results. Same values as the two functions called on all points."""
+    but the results. Same values as the two functions called on all points.
+    ``v_hoist``: the hoist's lowering speed at release, m/s."""
     memory.keep_freed_memory()
     x = np.asarray(x, float)
     y = np.asarray(y, float)
     n, nl = x.size, len(loads)
     if n == 0 or nl == 0:
         return evaluate_case(fm, project, list(loads), point_geometry(fm, project, x, y),
-                             np.zeros(0, dtype=np.int64))
+                             np.zeros(0, dtype=np.int64), v_hoist=v_hoist)
 
     def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
         geo = point_geometry(fm, project, x[s:e], y[s:e])
         with np.errstate(all="ignore"):
-            return [_outputs(fm, project, ld, geo, None) for ld in loads]
+            return [_outputs(fm, project, ld, geo, None, v_hoist=v_hoist) for ld in loads]
 
     with np.errstate(all="ignore"):
         probe = _outputs(fm, project, loads[0], point_geometry(fm, project, x[:1], y[:1]),
-                         None)
+                         None, v_hoist=v_hoist)
     return _blockwise(n, nl, loadpath_chunk(), block, probe)
 
 

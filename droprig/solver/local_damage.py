@@ -24,10 +24,11 @@ and carry ``from memory`` in their docstring):
 * **Chang's scabbing and perforation** thicknesses (Chang 1981, *J. Struct. Div.
   ASCE* 107; Li et al. 2005 — from memory), whose test range reaches the
   lowest impact speed of the families here (16.7 m/s).
-* **Steel plates**: the Ballistic Research Laboratory (BRL) perforation formula
-  (Li et al. 2005 and DOE-STD-3014 Appendix C — from memory; the SI constant
-  1.4396·10⁹ and the US constant 17 400 give the same thickness, checked in the
-  tests).
+* **Steel plates and gratings**: the Ballistic Research Laboratory (BRL)
+  perforation formula (Li et al. 2005 and DOE-STD-3014 Appendix C — from memory;
+  the SI constant 1.4396·10⁹ and the US constant 17 400 give the same thickness,
+  checked in the tests) on the deck's steel per plan area, with the DOE margin of
+  1.25 (:func:`plate_deck_damage`).
 
 All these formulas were fitted to missile tests at speeds well above a dropped
 load's (a 5 m drop strikes at 9.9 m/s). Every result therefore carries an
@@ -57,6 +58,7 @@ __all__ = [
     "NOSE_FACTOR",
     "ORIENTATIONS",
     "PERFORATION_MARGIN",
+    "PLATE_PERFORATION_MARGIN",
     "SCABBING_MARGIN",
     "UKAEA_BARR",
     "ConcreteDamage",
@@ -71,6 +73,7 @@ __all__ = [
     "chang_perforation_velocity",
     "chang_scabbing_thickness",
     "chang_scabbing_velocity",
+    "check_load_on_grating",
     "concrete_local_damage",
     "degen_perforation_thickness",
     "drop_height_for_speed",
@@ -84,6 +87,7 @@ __all__ = [
     "ndrc_penetration",
     "ndrc_perforation_velocity",
     "ndrc_scabbing_velocity",
+    "plate_deck_damage",
     "plate_local_damage",
     "residual_velocity",
     "slab_reinforcement_percent",
@@ -147,6 +151,10 @@ SCABBING_MARGIN = 1.1
 PERFORATION_MARGIN = 1.2
 """A slab prevents perforation when at least 1.2 × the perforation thickness
 (DOE-STD-3014 App. C, after Eq. C-614)."""
+
+PLATE_PERFORATION_MARGIN = 1.25
+"""A steel plate prevents perforation when at least 1.25 × the BRL perforation
+thickness (DOE-STD-3014 App. C, steel barriers — from memory)."""
 
 _CHANG_U = 60.96
 """Chang's reference speed u = 200 ft/s in m/s (Chang 1981 — from memory)."""
@@ -605,12 +613,15 @@ class LoadDamage:
     scabbing / perforation (any orientation), h_scabbing / h_perforation (lowest
     start height, m), v_residual (highest, m/s), extrapolated (any), and
     governing: index into ``orientations`` of the orientation with the lowest
-    perforation height at each point.
+    perforation height at each point. On a steel plate or grating deck
+    (:func:`plate_local_damage`) the penetration is ``nan`` (not defined), scabbing
+    never occurs (``False``, start height ``inf``) and ``by_orientation`` holds
+    :class:`PlateDamage`.
     """
 
     orientations: tuple[str, ...]
     reason: str
-    by_orientation: tuple[ConcreteDamage, ...]
+    by_orientation: tuple[ConcreteDamage | PlateDamage, ...]
     penetration: np.ndarray
     scabbing: np.ndarray
     perforation: np.ndarray
@@ -657,13 +668,82 @@ def _load_start_speeds(load: LiftLoad, deck: Deck
     return tuple(out)
 
 
+def check_load_on_grating(load: LiftLoad, deck: Deck) -> None:
+    """Refuse a load that can pass between the bearing bars of a grating deck: its
+    smaller plan side min(L, W) not more than the clear gap p − t_b (m). droprig
+    cannot assess such a drop on the grating (the load goes through to the level
+    below); the user lays a plate or mat, or models the deck as an opening. Raises
+    :class:`~droprig.model.ModelError` naming the load's footprint width (plain
+    geometry; common practice, no source). Nothing to check on other decks."""
+    if deck.kind != "grating":
+        return
+    gap = deck.bar_pitch - deck.bar_thickness
+    small = min(load.footprint_length, load.footprint_width)
+    if small <= gap:
+        raise ModelError(f"load {load.name}.footprint_width", small,
+                         f"> {gap:g} m, the clear gap between the bearing bars of the "
+                         "grating (a smaller load passes through it; lay a plate or mat "
+                         "over the grating)", "m")
+
+
+@lru_cache(maxsize=256)
+def _load_plate_limits(load: LiftLoad, deck: Deck) -> tuple[tuple[float, float], ...]:
+    """Per strike orientation of ``load``: (d_eq m, ballistic limit m/s) of the steel
+    plate or grating ``deck`` by BRL (:func:`brl_plate_ballistic_limit`) on
+    ``deck.steel_depth`` / :data:`PLATE_PERFORATION_MARGIN`."""
+    t = deck.steel_depth / PLATE_PERFORATION_MARGIN
+    out = []
+    for o in load.strike_orientations:
+        d, _, _ = strike_geometry(o, load.footprint_length, load.footprint_width,
+                                  load.edge_width)
+        out.append((d, float(brl_plate_ballistic_limit(load.mass, d, t))))
+    return tuple(out)
+
+
+def plate_deck_damage(load: LiftLoad, deck: Deck, h: ArrayLike,
+                      v0: ArrayLike = 0.0) -> LoadDamage:
+    """Perforation of a steel plate or grating deck by ``load`` falling h (m) from a
+    downward speed v0 (m/s), worst of its strike orientations: BRL ballistic limit
+    (:func:`brl_plate_ballistic_limit`, K = 1) of the deck's steel per plan area
+    (``Deck.steel_depth``: the plate thickness; for a grating the bars smeared,
+    h·t_b/p — common practice, no source: a small item may pass between bars, which
+    no formula here covers) reduced by :data:`PLATE_PERFORATION_MARGIN`; residual
+    speed by Recht and Ipson (:func:`residual_velocity`). The BRL fit's test speeds
+    lie far above a dropped load's (``extrapolated``)."""
+    h = np.asarray(h, float)
+    v = impact_speed(h, v0)
+    v0a = np.broadcast_to(np.asarray(v0, float), v.shape)
+    parts = []
+    for _d, v_bl in _load_plate_limits(load, deck):
+        vb = np.full(v.shape, v_bl)
+        parts.append(PlateDamage(perforation=v >= vb,
+                                 h_perforation=drop_height_for_speed(np.maximum(vb, v0a), v0a),
+                                 v_ballistic=vb, v_residual=residual_velocity(v, vb),
+                                 extrapolated=BRL_STEEL.extrapolated(v)))
+    h_perf = np.stack([c.h_perforation for c in parts])
+    return LoadDamage(
+        orientations=tuple(load.strike_orientations), reason=load.strike_reason,
+        by_orientation=tuple(parts),
+        penetration=np.full(v.shape, np.nan),
+        scabbing=np.zeros(v.shape, dtype=bool),
+        perforation=np.any(np.stack([c.perforation for c in parts]), axis=0),
+        h_scabbing=np.full(v.shape, np.inf),
+        h_perforation=np.min(h_perf, axis=0),
+        v_residual=np.max(np.stack([c.v_residual for c in parts]), axis=0),
+        extrapolated=np.any(np.stack([c.extrapolated for c in parts]), axis=0),
+        governing=np.argmin(h_perf, axis=0))
+
+
 def load_local_damage(load: LiftLoad, deck: Deck, h: ArrayLike,
                       v0: ArrayLike = 0.0) -> LoadDamage:
     """Local damage of ``deck`` by ``load`` falling h (m, per drop point) from a
     downward speed v0 (m/s): :func:`concrete_local_damage` for each of the load's
     strike orientations (:func:`strike_geometry` from its footprint and edge
     width), the worst governing at each point. The slab is the deck's full
-    depth with its concrete and bottom reinforcement."""
+    depth with its concrete and bottom reinforcement. A steel plate or grating deck:
+    :func:`plate_deck_damage`."""
+    if deck.is_steel:
+        return plate_deck_damage(load, deck, h, v0)
     h = np.asarray(h, float)
     v = impact_speed(h, v0)
     fc = deck.concrete.fc

@@ -108,6 +108,7 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
     (:data:`REFINE_PASSES` passes, spacing resolution/4, /16, …). ``load_index`` names the
     load of each row."""
     loads = list(zone.loads)
+    vh = zone.hoist_speed  # the load strikes at √(v_h² + 2gh) (local damage)
     nl = len(loads)
     bx, by = (base.x, base.y) if isinstance(base, Geometry) else base
     nb = bx.size
@@ -116,9 +117,9 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
         # all loads in one pass over the base points repeated once per load; the
         # load-independent actions are computed once and repeated with them
         geo = base if isinstance(base, Geometry) else point_geometry(fm, project, bx, by)
-        res = evaluate.evaluate_case(fm, project, loads, tile(fm, geo, nl), li)
+        res = evaluate.evaluate_case(fm, project, loads, tile(fm, geo, nl), li, v_hoist=vh)
     else:  # block by block, each block's path shared by the loads
-        res = evaluate.evaluate_points(fm, project, loads, bx, by)
+        res = evaluate.evaluate_points(fm, project, loads, bx, by, v_hoist=vh)
     res["load_index"] = li
     step = fm.settings.grid_resolution
     known = np.sort(_keys(res["x"], res["y"], li))  # sorted: membership by bisection
@@ -137,7 +138,7 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
         # merged into the sorted known keys (k is sorted: no sort of the whole again)
         known = np.insert(known, np.searchsorted(known, keys[fresh]), keys[fresh])
         geo = point_geometry(fm, project, x, y)
-        r2 = evaluate.evaluate_case(fm, project, loads, geo, lj)
+        r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh)
         r2["load_index"] = lj
         parts.append(r2)
         res = _merge(parts, _REFINE_KEYS)

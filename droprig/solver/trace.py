@@ -103,7 +103,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     if geo.path.pair[0] < 0:
         raise ModelError("trace.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}")
-    chain = evaluate_chain(fm, project, load, geo, detail=True)
+    chain = evaluate_chain(fm, project, load, geo, detail=True, v_hoist=zone.hoist_speed)
     sheet = _Sheet(project, fm, geo, load, chain)
     add = sheet.add
     in_zone = bool(droppoints.in_zone(zone, xa, ya)[0])
@@ -346,21 +346,52 @@ def _check_steps(sheet: _Sheet) -> None:
         inv.k_req[0], "stiffness", "series springs; " + _SRC_GERE)
 
 
+def _plate_damage_steps(sheet: _Sheet) -> None:
+    """Perforation of a steel plate or grating deck by a hard item (BRL)."""
+    add, dk, inp = sheet.add, sheet.level.deck, sheet.inp
+    ld = sheet.chain[LocalDamage]
+    so = STRIKE_ORIENTATIONS[int(ld.orientation[0])]
+    src = ("BRL formula; Li et al. 2005; DOE-STD-3014 App. C"
+           + ("; extrapolated below the test speeds" if ld.extrapolated[0] else ""))
+    add("Strike speed (free fall from the hoist's lowering speed)", "V",
+        "V = √(v_h² + 2gh)",
+        {"v_h": (sheet.chain.drop.v_hoist, "speed"), "h": (inp.h[0], "length")},
+        ld.v_strike[0], "speed", "uniform acceleration (any dynamics text)")
+    if dk.kind == "grating":
+        add("Steel of the grating per plan area (bearing bars smeared)", "t_s",
+            "t_s = h·t_b/p",
+            {"h": (dk.thickness, "small_length"), "t_b": (dk.bar_thickness, "small_length"),
+             "p": (dk.bar_pitch, "small_length")},
+            dk.steel_depth, "small_length", "common practice, no source")
+    add(f"Drop height at which the load perforates the steel deck ({so} strike governs)",
+        "h_p", "t_s = 1.25·e(V), e^1.5 = 0.5·M·V²/(1.4396·10⁹·d^1.5), V = √(v_h² + 2gh)",
+        {"t_s": (dk.steel_depth, "small_length"), "M": (inp.M[0], "mass")},
+        ld.h_perf[0], "length", src)
+
+
 def _local_damage_steps(sheet: _Sheet) -> None:
     """Penetration, scabbing and perforation of the deck by a hard item."""
     add, lv, inp = sheet.add, sheet.level, sheet.inp
     ld = sheet.chain[LocalDamage]
+    if ld.assessed[0] and lv.deck.is_steel:
+        _plate_damage_steps(sheet)
+        return
     if ld.assessed[0]:
         so = STRIKE_ORIENTATIONS[int(ld.orientation[0])]
         src = ("Kennedy 1976; Li et al. 2005; DOE-STD-3014 App. C"
                + ("; extrapolated below the test speeds" if ld.extrapolated[0] else ""))
+        add("Strike speed (free fall from the hoist's lowering speed)", "V",
+            "V = √(v_h² + 2gh)",
+            {"v_h": (sheet.chain.drop.v_hoist, "speed"), "h": (inp.h[0], "length")},
+            ld.v_strike[0], "speed", "uniform acceleration (any dynamics text)")
         add(f"Local damage: penetration of the deck ({so} strike governs)", "x",
             "x/d = 2√G or G + 1, G = 3.8·10⁻⁵·N*·M/(d√f_c)·(V/d)^1.8; UKAEA",
             {"t": (lv.deck.thickness, "length"), "h": (inp.h[0], "length")},
             ld.penetration[0], "length", src)
         add("Drop height at which the soffit starts to scab", "h_s",
-            "t = 1.1·t_s(V), V = √(2gh) (Kennedy, Chang)", {"t": (lv.deck.thickness, "length")},
+            "t = 1.1·t_s(V), V = √(v_h² + 2gh) (Kennedy, Chang)",
+            {"t": (lv.deck.thickness, "length")},
             ld.h_scab[0], "length", src)
         add("Drop height at which the load perforates the deck", "h_p",
-            "t = 1.2·t_p(V), V = √(2gh) (Kennedy/ACE, Barr, Chang)",
+            "t = 1.2·t_p(V), V = √(v_h² + 2gh) (Kennedy/ACE, Barr, Chang)",
             {"t": (lv.deck.thickness, "length")}, ld.h_perf[0], "length", src)

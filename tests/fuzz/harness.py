@@ -281,6 +281,7 @@ def random_project(rng: random.Random) -> bytes:
     from droprig.io.project_file import dumps_project
     from droprig.io.sections import get_grade, get_section
     from droprig.model import (
+        Deck,
         LiftLoad,
         LiftZone,
         Project,
@@ -304,7 +305,13 @@ def random_project(rng: random.Random) -> bytes:
             girder_section=get_section(rng.choice(secs)),
             beam_section=get_section(rng.choice(secs)),
             girder_grade=get_grade(rng.choice(grades)),
-            beam_grade=get_grade(rng.choice(grades))))
+            beam_grade=get_grade(rng.choice(grades)),
+            # steel plate and grating decks now and then (their own file keys)
+            deck=rng.choice([Deck(), Deck(), Deck(kind="steel_plate",
+                                                  thickness=rng.uniform(0.004, 0.03),
+                                                  steel_fy=rng.choice([235e6, 355e6])),
+                             Deck(kind="grating", thickness=rng.uniform(0.025, 0.06),
+                                  bar_thickness=0.005, bar_pitch=rng.choice([0.03, 0.041]))])))
     zones, prots = [], []
     for j in range(rng.randint(1, 2)):
         lv = rng.choice(levels)

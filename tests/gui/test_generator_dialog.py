@@ -221,3 +221,27 @@ def test_prefill_from_a_generated_level_round_trips(qtbot, system: str) -> None:
     assert rebuilt.deck.thickness == pytest.approx(0.2, abs=0.001)
     assert rebuilt.superimposed_dead == pytest.approx(1500.0, rel=0.01)
     assert rebuilt.members[0].section.name == original.members[0].section.name
+
+
+def test_generator_offers_steel_decks_and_keeps_their_grade(qtbot) -> None:
+    # droprig's own dialog behaviour (no published source): a steel plate level is
+    # shown as such and regenerated with its yield strength; a plate thickness is
+    # accepted for a steel kind and refused for a slab by the deck's own range
+    from dataclasses import replace as _replace
+
+    from droprig.gui.generator_dialog import GeneratorDialog
+    from droprig.model import Deck
+
+    dlg = GeneratorDialog(unit_system="SI")
+    qtbot.addWidget(dlg)
+    assert dlg.level() is not None
+    base = dlg.level()
+    plate = _replace(base, deck=Deck(kind="steel_plate", thickness=0.012, steel_fy=355e6))
+    dlg.prefill(plate)
+    assert dlg.deck_kind.currentData() == "steel_plate"
+    lv = dlg.level()
+    assert lv is not None and lv.deck.kind == "steel_plate"
+    assert lv.deck.thickness == pytest.approx(0.012) and lv.deck.steel_fy == 355e6
+    dlg.deck_kind.setCurrentIndex(dlg.deck_kind.findData("solid_slab"))
+    dlg._revalidate()
+    assert dlg.level() is None  # 12 mm is no slab

@@ -368,3 +368,25 @@ def test_load_underside_stiffness_out_of_range_is_refused(inspector: Inspector,
     assert doc.undo_stack.count() == 0
     assert "Underside stiffness" in inspector.message and "Allowed" in inspector.message
     assert inspector.editor("contact_stiffness").text() == ""
+
+
+def test_deck_kind_switches_to_a_steel_plate_and_back(qtbot) -> None:
+    # the thickness ranges of a slab and a plate do not overlap: a change of kind takes
+    # a typical thickness of the new kind (droprig's own editing rule, no source)
+    doc = Document(_roof("SI"))
+    w = Inspector(doc)
+    qtbot.addWidget(w)
+    doc.select(Selection("deck", ("L1",)))
+    kind = w.editor("kind")
+    assert isinstance(kind, QComboBox)
+    kind.setCurrentIndex(kind.findData("steel_plate"))
+    kind.activated.emit(kind.currentIndex())
+    dk = doc.project.level("L1").deck
+    assert dk.kind == "steel_plate" and dk.thickness == 0.01
+    _enter(w.editor("steel_fy"), "355 MPa")
+    assert math.isclose(doc.project.level("L1").deck.steel_fy, 355e6, rel_tol=REL)
+    kind = w.editor("kind")
+    kind.setCurrentIndex(kind.findData("composite"))
+    kind.activated.emit(kind.currentIndex())
+    dk = doc.project.level("L1").deck
+    assert dk.kind == "composite" and dk.thickness == 0.13

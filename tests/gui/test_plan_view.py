@@ -579,3 +579,52 @@ def test_plan_follows_the_solver(view: PlanView, qtbot, warehouse_floor: Project
                for a, b in zip(hit.x, hit.y, strict=True))
     view.set_overlay("drop_height")
     assert view.overlay_visible
+
+
+def test_drift_band_is_the_computed_margin(view: PlanView, warehouse_floor: Project) -> None:
+    # Plain kinematics (v = ωR over the fall time √(2h/g); Meriam & Kraige — from
+    # memory): a zone in computed mode draws the margin the analysis uses, not the
+    # stored value. Hand calculation: ω = 0.1 rad/s at r_max = 14 m, a 1 m fall from
+    # rest, t = √(2·1/9.80665) = 0.4516 s, drift 0.1·14·0.4516 = 0.6322 m.
+    import dataclasses
+
+    from droprig.gui.plan_items import drift_band
+
+    z = dataclasses.replace(warehouse_floor.lift_zones[0], drift_mode="computed",
+                            slew_speed=0.1, drift_margin=3.0)
+    view.set_project(dataclasses.replace(warehouse_floor, lift_zones=(z,)), "L2")
+    item = view._zones_item
+    shown = item.margin_of(item.shown_zones()[0])
+    assert shown == pytest.approx(0.1 * 14.0 * math.sqrt(2.0 / 9.80665), rel=1e-4)
+    outer = drift_band(z, shown).boundingRect()
+    stale = drift_band(z).boundingRect()  # the stored 3 m band is wider
+    assert outer.width() < stale.width()
+    # a zone in given mode draws what was entered
+    view.set_project(warehouse_floor, "L2")
+    assert view._zones_item.margin_of(view._zones_item.shown_zones()[0]) == 1.0
+
+
+def test_scabbing_mark_on_bays_that_may_scab(view: PlanView, warehouse_floor: Project,
+                                             three_outcomes: Results) -> None:
+    # plumbing only: a summary flagged scabbing puts the mark in its bay and the key
+    import dataclasses
+
+    bays_ = tuple(dataclasses.replace(b, scabbing=(b.bay_id == "2-3/B-C"))
+                  for b in three_outcomes.bays)
+    view.set_results(Results(three_outcomes.cases, bays_))
+    by_id = {s.bay.id: s for s in view.bay_states()}
+    assert by_id["2-3/B-C"].scabbing and not by_id["1-2/B-C"].scabbing
+    t = view.viewportTransform()
+    marks = view._labels_item.scabbing_marks(t)
+    assert len(marks) == 1
+    bay = t.mapRect(rect_to_scene_of(by_id["2-3/B-C"]))
+    assert bay.contains(marks[0])
+    assert ("sym", "scabbing") in view._legend_rows()
+    view.set_results(three_outcomes)
+    assert ("sym", "scabbing") not in view._legend_rows()
+
+
+def rect_to_scene_of(state):  # type: ignore[no-untyped-def]
+    from droprig.gui.plan_items import rect_to_scene
+
+    return rect_to_scene(state.bay.rect)

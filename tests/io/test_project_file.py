@@ -780,3 +780,32 @@ def test_format1_drop_heights_keep_their_numbers_with_a_note(
     else:
         assert notes == []
     assert json.loads(dumps_project(project))["format_version"] == 2
+
+
+@pytest.mark.parametrize("deck", [
+    Deck(kind="steel_plate", thickness=0.012, steel_fy=355e6),
+    Deck(kind="grating", thickness=0.04, steel_fy=235e6, bar_thickness=0.004,
+         bar_pitch=0.034),
+])
+def test_steel_decks_round_trip_and_concrete_files_are_unchanged(
+        office_roof: Project, office_roof_doc: dict[str, Any], deck: Deck) -> None:
+    # A concrete deck is written without the steel keys (older files unchanged); a
+    # steel deck writes its yield strength (and a grating its bars) in SI and reads
+    # back exactly, valid against the published schema.
+    assert "steel_fy_Pa" not in json.loads(dumps_project(office_roof))["levels"][0]["deck"]
+    lv = replace(office_roof.levels[0], deck=deck)
+    p = replace(office_roof, levels=(lv, *office_roof.levels[1:]))
+    doc = json.loads(dumps_project(p))
+    dd = doc["levels"][0]["deck"]
+    assert dd["kind"] == deck.kind and dd["steel_fy_Pa"] == deck.steel_fy
+    assert ("bar_pitch_m" in dd) == (deck.kind == "grating")
+    jsonschema.Draft202012Validator(pf.schema()).validate(doc)
+    assert loads_project(dumps_project(p)) == p
+
+
+def test_steel_deck_out_of_range_names_the_field(office_roof_doc: dict[str, Any]) -> None:
+    doc = copy.deepcopy(office_roof_doc)
+    doc["levels"][0]["deck"].update({"kind": "steel_plate", "thickness_m": 0.13})
+    with pytest.raises(ProjectFileError) as info:
+        loads_project(json.dumps(doc))
+    assert "$.levels[0].deck" in str(info.value) and "0.05 m" in str(info.value)

@@ -119,7 +119,8 @@ CASES: dict[str, Case] = {
     "member start far": (lambda: replace(MEMBER, start=(0.0, -2e4)), "member B1.start.y",
                          "≥ -10000 m and ≤ 10000 m"),
     # ---- Deck and Concrete
-    "deck kind": (lambda: Deck(kind="timber"), "deck.kind", "one of composite, solid_slab"),  # type: ignore[arg-type]
+    "deck kind": (lambda: Deck(kind="timber"),  # type: ignore[arg-type]
+                  "deck.kind", "one of composite, solid_slab, steel_plate, grating"),
     "deck thin": (lambda: Deck(thickness=0.04), "deck.thickness", "≥ 0.05 m and ≤ 0.6 m"),
     "deck cover small": (lambda: Deck(cover=0.005), "deck.cover", "≥ 0.01 m and ≤ 0.1 m"),
     # bottom bars must sit in the lower half of the slab (common practice, no source)

@@ -6,6 +6,8 @@ Dynamics*, ch. 2 — from memory), checked against scipy ``solve_ivp``.
 
 from __future__ import annotations
 
+import itertools
+
 import numpy as np
 import pytest
 from scipy.integrate import solve_ivp
@@ -101,3 +103,62 @@ def test_trace_shows_the_local_damage_the_analysis_found() -> None:
     assert by_symbol["h_p"] == pytest.approx(case.perforation_height[i], rel=1e-12)
     assert by_symbol["h_s"] == pytest.approx(case.scabbing_height[i], rel=1e-12)
     assert by_symbol["x"] == pytest.approx(case.penetration[i], rel=1e-12)
+
+
+def _three_levels(thin: float = 0.06):  # type: ignore[no-untyped-def]
+    """The invented two-level demo with the lower deck thinned and a copy of that
+    level put 4 m under it (inputs only; expected values come from the run)."""
+    from dataclasses import replace
+    from pathlib import Path
+
+    from droprig.io.project_file import load_project
+
+    root = Path(__file__).resolve().parents[2]
+    p = load_project(root / "demo_projects" / "two_level_rigging.droprig")
+    l3 = p.level("L3")
+    l3 = replace(l3, deck=replace(l3.deck, thickness=thin, cover=0.02))
+    l2 = replace(l3, id="L2", name="L2", elevation=l3.elevation - 4.0)
+    return replace(p, levels=(p.level("RF"), l3, l2))
+
+
+def test_a_drop_that_still_perforates_goes_on_down() -> None:
+    # Uniform acceleration (Meriam & Kraige ch. 2 — from memory): each lower strike is
+    # the residual speed of the level above (Recht & Ipson 1963, plug neglected) plus
+    # the clear fall; the chain stops at the lowest level of the project.
+    from droprig.solver import PERFORATES, analyse
+
+    project = _three_levels()
+    res = analyse(project)
+    for name in {f.load_name for f in res.cascade}:
+        falls = [f for f in res.cascade if f.load_name == name]
+        path = [(f.from_level, f.level_id) for f in falls]
+        assert path[0] == ("RF", "L3")
+        for (_, b), (c, _) in itertools.pairwise(path):
+            assert b == c  # each fall starts where the last one struck
+        for upper, lower in itertools.pairwise(falls):
+            hit = upper.case.response == PERFORATES
+            assert hit.any()
+            h_eq = np.nanmax(cascade.equivalent_drop_height_below(
+                upper.case.residual_velocity[hit], project.level(upper.level_id),
+                project.level(lower.level_id)))
+            assert lower.equivalent_height == pytest.approx(h_eq, rel=1e-12)
+            assert lower.case.level_id == lower.level_id and lower.bays
+        assert len(falls) <= len(project.levels) - 1
+    assert any(f.level_id == "L2" for f in res.cascade), \
+        "a 60 mm deck under a perforated roof is perforated in turn"
+
+
+def test_the_cascade_stops_where_the_drop_no_longer_perforates() -> None:
+    # the same project with the middle deck at its full 130 mm: any fall onto L2 must
+    # come from a perforation of L3 (no fall without a perforating point above it)
+    from droprig.solver import PERFORATES, analyse
+
+    project = _three_levels(thin=0.13)
+    res = analyse(project)
+    for f in res.cascade:
+        if f.level_id == "L2":
+            src = next(g for g in res.cascade
+                       if g.load_name == f.load_name and g.level_id == "L3")
+            assert (src.case.response == PERFORATES).any()
+        else:
+            assert f.level_id == "L3"

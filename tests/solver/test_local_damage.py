@@ -316,3 +316,49 @@ def test_no_nan_over_the_model_ranges(M: float, L: float, W: float, b: float, h:
     for a in (r.penetration, r.h_scabbing, r.h_perforation, r.v_ballistic, r.v_residual):
         assert not np.any(np.isnan(a))
     assert float(ld.ukaea_penetration(M, d, 0.0, fc)) == 0.0
+
+
+# Uniform acceleration (any dynamics text; Meriam & Kraige ch. 2 — from memory):
+# a load let go while the hoist lowers at v_h strikes after a fall h at
+# V = √(v_h² + 2gh), so every start height is lower by v_h²/(2g).
+@pytest.mark.parametrize("v_h", [0.0, 0.3, 1.0, 2.5])
+def test_hoist_lowering_speed_adds_to_the_strike_speed(v_h: float) -> None:
+    from droprig.model import Concrete, Deck, LiftLoad
+
+    deck = Deck(thickness=0.13, concrete=Concrete(fc=30e6))
+    load = LiftLoad("shackle", mass=220.0, footprint_length=0.45, footprint_width=0.3,
+                    drop_height=3.0, kind="rigging", edge_width=0.03)
+    h = np.array([0.5, 2.0, 6.0])
+    still = ld.load_local_damage(load, deck, h)
+    moving = ld.load_local_damage(load, deck, h, v_h)
+    lift = v_h**2 / (2.0 * ld.G)
+    assert np.allclose(moving.h_perforation, np.maximum(still.h_perforation - lift, 0.0),
+                       rtol=REL, atol=1e-12)
+    assert np.allclose(moving.h_scabbing, np.maximum(still.h_scabbing - lift, 0.0),
+                       rtol=REL, atol=1e-12)
+    # the same strike as a still drop from h + v_h²/(2g)
+    same = ld.load_local_damage(load, deck, h + lift)
+    assert np.allclose(moving.penetration, same.penetration, rtol=REL)
+    assert np.array_equal(moving.perforation, same.perforation)
+
+
+def test_chain_strike_speed_and_trace_carry_the_hoist_speed() -> None:
+    # the floor chain and the trace take the zone's hoist speed (kinematics as above)
+    from pathlib import Path
+
+    from droprig.io.project_file import load_project
+    from droprig.solver import analyse, trace_point
+
+    root = Path(__file__).resolve().parents[2]
+    project = load_project(root / "demo_projects" / "two_level_rigging.droprig")
+    zone = project.lift_zones[0]
+    assert zone.hoist_speed > 0.0
+    case = analyse(project).cases[1]
+    i = int(np.argmax(case.perforation_height))
+    t = trace_point(project, case.zone_id, case.load_name, float(case.x[i]), float(case.y[i]))
+    steps = {s.symbol: s for s in t.steps}
+    V = steps["V"]
+    assert V.value == pytest.approx(math.sqrt(zone.hoist_speed**2
+                                              + 2.0 * ld.G * case.fall_height[i]), rel=REL)
+    assert dict(V.inputs)["v_h"][0] == zone.hoist_speed
+    assert steps["h_p"].value == pytest.approx(case.perforation_height[i], rel=1e-12)
