@@ -294,7 +294,7 @@ class Deck:
     ``steel_fy``: yield strength of the plate or bars, Pa (200–700 MPa; the grade's
     nominal value, e.g. 235 MPa for S235, 250 MPa for A36). A steel deck has no
     concrete: cover, rebar and concrete are kept but not used.
-    
+
     Concrete kinds may also give ``rib_height``: height of the profiled steel
     deck's ribs, m (composite decks; 0 for a solid slab or when not known — then
     the full depth is used). Punching and local flexure use the concrete over the
