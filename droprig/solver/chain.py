@@ -777,7 +777,8 @@ def punching_resistance_at(c: Chain) -> np.ndarray:
     dk = lv.deck
     dk_p = dk if dk.rib_height <= 0.0 else cast(
         Deck, SimpleNamespace(thickness=dk.thickness - dk.rib_height, cover=dk.cover,
-                              rebar_area=dk.rebar_area, concrete=dk.concrete))
+                              rebar_area=dk.rebar_area, concrete=dk.concrete,
+                              is_steel=False))
     R = np.broadcast_to(deck.punching_resistance(dk_p, inp.foot_l, inp.foot_w,
                                                  s.design_basis, s.resistance_factor),
                         (d.n,))
