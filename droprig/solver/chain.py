@@ -132,7 +132,11 @@ _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "pe
 class Drop:
     """What is dropped where: the points of ``geo`` on the prepared floor ``fm``, the
     load of each point ``loads[li]``; ``detail`` keeps what the calculation trace shows
-    (the governing candidate of every check, beyond yield at every point)."""
+    (the governing candidate of every check, beyond yield at every point).
+    ``heights``: per point, the planned drop height H (m, on the one datum) in place
+    of the loads' own (:func:`planned_height`) — trial drops of one load from many
+    heights (:func:`droprig.solver.analysis.confirm_plastic_heights`) without a
+    load object per point; ``None``: each load's own height."""
 
     fm: FloorModel
     project: Project
@@ -140,6 +144,7 @@ class Drop:
     loads: tuple[LiftLoad, ...]
     li: np.ndarray
     detail: bool = False
+    heights: np.ndarray | None = None
 
     @property
     def n(self) -> int:
@@ -238,10 +243,13 @@ def load_inputs(c: Chain) -> LoadInputs:
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
     # is that less its thickness
-    H = np.empty(n)
-    for j, ld in enumerate(loads):
-        sel = li == j if len(loads) > 1 else slice(None)
-        H[sel] = planned_height(ld, lv)
+    if d.heights is not None:
+        H = np.array(d.heights, dtype=float)
+    else:
+        H = np.empty(n)
+        for j, ld in enumerate(loads):
+            sel = li == j if len(loads) > 1 else slice(None)
+            H[sel] = planned_height(ld, lv)
     h = H - t_mat
     if n and float(np.min(h)) < 0.0:
         _refuse_below_pad(loads, li, lv, t_mat, H)
@@ -272,7 +280,7 @@ def _refuse_below_pad(loads: tuple[LiftLoad, ...], li: np.ndarray, level: Level,
     ld = loads[int(li[bad])] if len(loads) > 1 else loads[0]
     need = float(t_mat[bad])
     if ld.drop_height is not None:
-        raise ModelError(f"load {ld.name}.drop_height", ld.drop_height,
+        raise ModelError(f"load {ld.name}.drop_height", float(H[bad]),
                          f"≥ {need:g} m (the load's underside above the top of a pad or "
                          f"mat on level {level.id})", "m")
     raise ModelError(f"load {ld.name}.hook_elevation", ld.hook_elevation,

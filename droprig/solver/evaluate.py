@@ -55,20 +55,23 @@ def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
 
 
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
-             geo: Geometry, load_index: np.ndarray | None) -> dict[str, np.ndarray]:
+             geo: Geometry, load_index: np.ndarray | None,
+             heights: np.ndarray | None = None) -> dict[str, np.ndarray]:
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
-    return outputs(run_chain(Drop(fm, project, geo, _loads(load), li, False)))
+    return outputs(run_chain(Drop(fm, project, geo, _loads(load), li, False, heights)))
 
 
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                   geo: Geometry, load_index: np.ndarray | None = None,
-                  ) -> dict[str, np.ndarray]:
+                  heights: np.ndarray | None = None) -> dict[str, np.ndarray]:
     """The :class:`~droprig.solver.results.CaseResult` arrays of ``load`` at the points
     of ``geo`` under their field names, and ``F_allow`` (N, the elastic allowed force).
 
     ``load`` may be a sequence of loads with ``load_index`` naming the load of each
-    point (several cases in one vectorised pass)."""
+    point (several cases in one vectorised pass). ``heights`` (m, one per point): the
+    planned drop height of each point in place of its load's own
+    (:class:`~droprig.solver.chain.Drop`)."""
     n = geo.x.size
     memory.keep_freed_memory()
     if n == 0:
@@ -77,21 +80,23 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     chunk = loadpath_chunk()
     with np.errstate(all="ignore"):
         if n <= chunk:
-            return _outputs(fm, project, load, geo, load_index)
+            return _outputs(fm, project, load, geo, load_index, heights)
 
         def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
             sl = slice(s, e)
             li = None if load_index is None else load_index[sl]
+            hs = None if heights is None else heights[sl]
             sub = geo.cache.get(("slice", s))
             if sub is None:
                 sub = slice_geo(geo, sl)
                 if n <= CACHE_MAX_POINTS:  # keep per-point actions for the next load
                     geo.cache[("slice", s)] = sub
             with np.errstate(all="ignore"):
-                return [_outputs(fm, project, load, sub, li)]
+                return [_outputs(fm, project, load, sub, li, hs)]
 
         li0 = None if load_index is None else load_index[:1]
-        probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0)
+        h0 = None if heights is None else heights[:1]
+        probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0, h0)
         return _blockwise(n, 1, chunk, block, probe)
 
 
