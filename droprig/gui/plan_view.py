@@ -1594,8 +1594,18 @@ class PlanView(QGraphicsView):
     def _caution_lines(self) -> list[str]:
         if self._results is None:
             return []
-        fm = QFontMetricsF(pixel_font(10))
         width = max(self.viewport().width() - 16, 100)
+        cached = getattr(self, "_caution_wrap", None)
+        if cached is not None and cached[0] == width:
+            return cached[1]
+        lines = self._wrap_caution(width)
+        self._caution_wrap = (width, lines)  # asked several times per paint
+        return lines
+
+    @staticmethod
+    def _wrap_caution(width: float) -> list[str]:
+        """The caution broken into lines of at most ``width`` pixels at word ends."""
+        fm = QFontMetricsF(pixel_font(10))
         words, lines, cur = CAUTION.split(), [], ""
         for w in words:
             trial = f"{cur} {w}".strip()
