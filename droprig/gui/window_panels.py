@@ -1,0 +1,382 @@
+"""The main window's panels: the plan with its view bar, heading and guide, the
+docked project tree, inspector, results and trace, the status bar, the one
+lift / load filter, and the window geometry stored per screen scale.
+
+A part of :class:`droprig.gui.main_window.MainWindow` (a mixin)."""
+
+from __future__ import annotations
+
+import html
+
+from PySide6.QtCore import QByteArray, Qt
+from PySide6.QtGui import QShowEvent
+from PySide6.QtWidgets import (
+    QComboBox,
+    QDockWidget,
+    QHBoxLayout,
+    QLabel,
+    QProgressBar,
+    QToolButton,
+    QVBoxLayout,
+    QWidget,
+)
+
+from droprig import units
+from droprig.gui import style
+from droprig.gui.document import Selection
+from droprig.gui.inspector import Inspector
+from droprig.gui.project_tree import ProjectTree
+from droprig.gui.results_table import ResultsTable
+from droprig.gui.window_base import WindowParts
+from droprig.gui.window_edits import is_placeholder
+from droprig.model import LiftLoad
+from droprig.texts import CAUTION
+
+BASIS_LABELS = {"en1993": "EN 1993-1-1", "aisc360": "AISC 360-16"}
+UNIT_LABELS = {"SI": "SI (m · kN · kg · MPa)", "US": "US (ft · kip · lb · ksi)"}
+
+
+def screen_scale_tag(screen: object) -> str:
+    """``"scale150"`` for a screen at 150 % (device pixel ratio 1.5); ``"scale100"``
+    when there is no screen."""
+    dpr = float(screen.devicePixelRatio()) if screen is not None else 1.0  # type: ignore[attr-defined]
+    return f"scale{round(dpr * 100)}"
+
+
+class PanelsMixin(WindowParts):
+    """The main window's panels."""
+
+    def _make_central(self) -> None:
+        from droprig.gui.plan_view import PlanView
+
+        self.plan = PlanView(self.doc)
+        self.plan.setObjectName("planView")
+
+        self.level_combo = QComboBox()
+        self.level_combo.setToolTip("Level shown in the plan")
+        self.overlay_combo = QComboBox()
+        for mode, label in style.OVERLAYS.items():
+            self.overlay_combo.addItem(label, mode)
+        self.overlay_combo.setToolTip("What the bays and drop points are coloured by")
+        self.case_combo = QComboBox()
+        self.case_combo.setToolTip("Which lift and load the plan shows")
+        self.case_combo.setMinimumContentsLength(22)
+        draw_btn = QToolButton()
+        draw_btn.setDefaultAction(self.actions["draw_protection"])
+        fit_btn = QToolButton()
+        fit_btn.setDefaultAction(self.actions["fit"])
+
+        bar = QWidget()
+        bar.setObjectName("viewBar")
+        h = QHBoxLayout(bar)
+        h.setContentsMargins(6, 4, 6, 4)
+        self._level_label = QLabel("Level:")
+        h.addWidget(self._level_label)
+        h.addWidget(self.level_combo)
+        h.addSpacing(10)
+        h.addWidget(QLabel("Colour by:"))
+        h.addWidget(self.overlay_combo)
+        h.addSpacing(10)
+        h.addWidget(QLabel("Lift:"))
+        h.addWidget(self.case_combo)
+        h.addStretch(1)
+        h.addWidget(draw_btn)
+        h.addWidget(fit_btn)
+
+        self.guide = QWidget()
+        self.guide.setObjectName("guideBar")
+        self.guide.setStyleSheet("QWidget#guideBar { background: #E3EEF7; "
+                                 "border-bottom: 1px solid #9CB8D3; }")
+        g = QHBoxLayout(self.guide)
+        g.setContentsMargins(8, 5, 8, 5)
+        self.guide_text = QLabel()
+        self.guide_text.setObjectName("guideText")
+        self.guide_text.setStyleSheet("color: #0B2E4F;")
+        self.guide_text.setWordWrap(True)  # a long hint wraps, never widens the window
+        self.guide_button = QToolButton()
+        g.addWidget(self.guide_text, 1)
+        g.addWidget(self.guide_button)
+
+        self.plan_heading = QLabel()
+        self.plan_heading.setObjectName("planHeading")
+        self.plan_heading.setWordWrap(True)
+        self.plan_heading.setTextFormat(Qt.TextFormat.RichText)
+        self.plan_heading.setStyleSheet("QLabel#planHeading { background: #F4F4F0; "
+                                        "color: #1E1E1E; padding: 3px 8px; "
+                                        "border-bottom: 1px solid #CFCFC8; }")
+
+        central = QWidget()
+        v = QVBoxLayout(central)
+        v.setContentsMargins(0, 0, 0, 0)
+        v.setSpacing(0)
+        v.addWidget(bar)
+        v.addWidget(self.plan_heading)
+        v.addWidget(self.guide)
+        v.addWidget(self.plan, 1)
+        self.setCentralWidget(central)
+
+    def _dock(self, name: str, title: str, widget: QWidget,
+              area: Qt.DockWidgetArea) -> QDockWidget:
+        d = QDockWidget(title, self)
+        d.setObjectName(f"dock_{name}")
+        d.setWidget(widget)
+        d.setFeatures(QDockWidget.DockWidgetFeature.DockWidgetMovable
+                      | QDockWidget.DockWidgetFeature.DockWidgetFloatable
+                      | QDockWidget.DockWidgetFeature.DockWidgetClosable)
+        self.addDockWidget(area, d)
+        return d
+
+    def _make_docks(self) -> None:
+        from droprig.gui.trace_panel import TracePanel
+
+        self.tree = ProjectTree(self.doc, self.actions)
+        self.inspector = Inspector(self.doc, self.actions)
+        self.results_table = ResultsTable(self.doc)
+        self.trace_panel = TracePanel()
+        self.tree_dock = self._dock("project", "Project", self.tree,
+                                    Qt.DockWidgetArea.LeftDockWidgetArea)
+        self.inspector_dock = self._dock("inspector", "Inspector", self.inspector,
+                                         Qt.DockWidgetArea.RightDockWidgetArea)
+        self.results_dock = self._dock("results", "Results by bay", self.results_table,
+                                       Qt.DockWidgetArea.BottomDockWidgetArea)
+        self.trace_dock = self._dock("trace", "Calculation trace", self.trace_panel,
+                                     Qt.DockWidgetArea.BottomDockWidgetArea)
+        self.splitDockWidget(self.results_dock, self.trace_dock, Qt.Orientation.Horizontal)
+        self._set_dock_minimums()
+        self._default_layout_pending = True
+
+    def _apply_default_dock_sizes(self) -> None:
+        """First start at this screen scale (no saved layout): side panels wide
+        enough for their titles and a form, the results a third of the height on
+        a tall window and 27 % on a short one (1280 × 720, or a large screen
+        at 150–200 %), the rest to the plan."""
+        w = max(self.width(), 800)
+        h = max(self.height(), 480)
+        tree_w = max(int(w * 0.15), self.tree_dock.minimumWidth())
+        insp_w = max(int(w * 0.23), self.inspector_dock.minimumWidth())
+        self.resizeDocks([self.tree_dock, self.inspector_dock], [tree_w, insp_w],
+                         Qt.Orientation.Horizontal)
+        self.resizeDocks([self.results_dock], [int(h * (0.32 if h >= 900 else 0.27))],
+                         Qt.Orientation.Vertical)
+        self.resizeDocks([self.results_dock, self.trace_dock], [int(w * 0.62), int(w * 0.38)],
+                         Qt.Orientation.Horizontal)
+
+    def _set_dock_minimums(self) -> None:
+        """No panel narrower than its title and buttons (titles are never cut to
+        "…"), and the side forms wide enough for a label and a value."""
+        for d in (self.tree_dock, self.inspector_dock, self.results_dock, self.trace_dock):
+            fm = d.fontMetrics()
+            bold = d.font()
+            bold.setBold(True)
+            from PySide6.QtGui import QFontMetrics
+
+            title = QFontMetrics(bold).horizontalAdvance(d.windowTitle())
+            d.setMinimumWidth(title + 2 * fm.height() + 40)  # float + close buttons
+        em = self.fontMetrics().averageCharWidth()
+        self.tree_dock.setMinimumWidth(max(self.tree_dock.minimumWidth(), 18 * em))
+        self.inspector_dock.setMinimumWidth(max(self.inspector_dock.minimumWidth(), 30 * em))
+
+    def showEvent(self, event: QShowEvent) -> None:
+        super().showEvent(event)
+        if self._default_layout_pending:
+            self._default_layout_pending = False
+            self._apply_default_dock_sizes()
+
+    def _make_status_bar(self) -> None:
+        sb = self.statusBar()
+        sb.setObjectName("statusBar")
+        self.units_label = QLabel()
+        self.units_label.setObjectName("unitsLabel")
+        self.basis_label = QLabel()
+        self.basis_label.setObjectName("basisLabel")
+        self.state_label = QLabel()
+        self.state_label.setObjectName("analysisState")
+        self.busy = QProgressBar()
+        self.busy.setObjectName("busyIndicator")
+        self.busy.setRange(0, 0)
+        self.busy.setFixedWidth(70)
+        self.busy.setFixedHeight(12)
+        self.busy.setTextVisible(False)
+        self.busy.hide()
+        self.caution_label = QLabel(f"⚠ {style.CAUTION_SHORT}")
+        self.caution_label.setObjectName("cautionLabel")
+        self.caution_label.setToolTip(CAUTION)
+        self.caution_label.setStyleSheet(
+            "QLabel#cautionLabel { background: #FFF1CC; color: #3D2800; "
+            "border: 1px solid #C9A23A; border-radius: 3px; padding: 1px 6px; "
+            "font-weight: 600; }")
+        for w in (self.units_label, self.basis_label, self.busy, self.state_label):
+            sb.addPermanentWidget(w)
+        sb.addPermanentWidget(self.caution_label, 1)
+
+    def _update_guide(self) -> None:
+        """Tell a new user the next step until the project can be assessed."""
+        p = self.doc.project
+        if not p.levels:
+            text, action = ("<b>Start here:</b> build the floor from its column grid and "
+                            "sections, or open a saved project (File › Open).", "generate")
+        elif not any(z.level_id == self.doc.level_id for z in p.lift_zones):
+            text, action = ("<b>Next:</b> place the crane and the region its load swings "
+                            "over this level.", "add_zone")
+        elif not any(z.loads for z in p.lift_zones):
+            text, action = ("<b>Next:</b> give the lift zone the load (and rigging) that "
+                            "could drop.", "add_load")
+        elif self._placeholder() is not None:
+            zid, ld = self._placeholder()  # type: ignore[misc]
+            s = p.settings.unit_system
+            text, action = (
+                f"<b>Next:</b> {html.escape(ld.name)} (zone {html.escape(zid)}) still has "
+                f"its starting values: {units.fmt(ld.mass, 'mass', s)}, "
+                f"{units.fmt(ld.drop_height, 'length', s)} fall, rigid, "
+                f"{units.fmt(ld.footprint_length, 'length', s)} × "
+                f"{units.fmt(ld.footprint_width, 'length', s)} footprint. Enter the "
+                "planned load.", "edit_load")
+        else:
+            self.guide.hide()
+            return
+        self.guide_text.setText(text)
+        self.guide_button.setDefaultAction(self.actions[action])
+        self.guide.show()
+
+    def _placeholder(self) -> tuple[str, LiftLoad] | None:
+        """(zone id, load) of the first load on the level shown that still has
+        the starting values of :func:`placeholder_load`."""
+        for z in self.doc.project.lift_zones:
+            if z.level_id == self.doc.level_id:
+                for ld in z.loads:
+                    if is_placeholder(ld):
+                        return z.id, ld
+        return None
+
+    def edit_placeholder_load(self) -> None:
+        """Select the load that still has its starting values, for the inspector."""
+        found = self._placeholder()
+        if found is not None:
+            self.doc.select(Selection("load", (found[0], found[1].name)))
+            self.inspector_dock.show()
+            self.inspector_dock.raise_()
+
+    def _fill_level_combo(self) -> None:
+        p = self.doc.project
+        self.level_combo.blockSignals(True)
+        self.level_combo.clear()
+        for lv in p.levels:
+            self.level_combo.addItem(lv.name, lv.id)
+        self.level_combo.setCurrentIndex(self.level_combo.findData(self.doc.level_id))
+        self.level_combo.blockSignals(False)
+        multi = len(p.levels) > 1
+        self.level_combo.setVisible(multi)
+        self._level_label.setVisible(multi)
+
+    def _fill_case_combo(self) -> None:
+        current = self.doc.case
+        self.case_combo.blockSignals(True)
+        self.case_combo.clear()
+        self.case_combo.addItem("All lifts — worst per bay", None)
+        for z in self.doc.project.lift_zones:
+            for ld in z.loads:
+                label = f"{z.id} {z.name} · {ld.name}".replace("  ", " ")
+                self.case_combo.addItem(label, (z.id, ld.name))
+        # QComboBox.findData compares Python tuples by identity: match by value
+        keep = next((i for i in range(self.case_combo.count())
+                     if self.case_combo.itemData(i) == current), 0)
+        self.case_combo.setCurrentIndex(keep)
+        self.case_combo.blockSignals(False)
+        if self.case_combo.currentData() != current:
+            self._on_case_chosen(self.case_combo.currentIndex())
+
+    def _on_case_chosen(self, _index: int) -> None:
+        data = self.case_combo.currentData()
+        self.doc.set_case(None if data is None else (data[0], data[1]))
+
+    def _on_case_changed(self, case: tuple[str, str] | None) -> None:
+        """The one lift / load filter changed: the combo and the heading follow
+        (the plan and the table follow the document themselves)."""
+        i = next((k for k in range(self.case_combo.count())
+                  if self.case_combo.itemData(k) == case), 0)
+        if i != self.case_combo.currentIndex():
+            self.case_combo.blockSignals(True)
+            self.case_combo.setCurrentIndex(i)
+            self.case_combo.blockSignals(False)
+        self._update_heading()
+
+    def set_overlay(self, mode: str) -> None:
+        self.plan.set_overlay(mode)
+        self.overlay_combo.setCurrentIndex(self.overlay_combo.findData(mode))
+        for m in style.OVERLAYS:
+            self.actions[f"overlay_{m}"].setChecked(m == mode)
+        self._update_heading()
+
+    def plan_heading_text(self) -> str:
+        """One line over the plan saying what it shows, in plain words: the level,
+        what the colours stand for, which lift and load, and where the key and the
+        caution are (for a first-time reader). Plain text."""
+        p = self.doc.project
+        lv = self.doc.level
+        if lv is None:
+            return "No level yet: build the floor framing first."
+        shown = {"outcome": "bays coloured by outcome (E stays elastic, Y yields within "
+                            "limits, X exceeds limits)",
+                 "utilisation": "drop points coloured by utilisation U = demand / "
+                                "resistance (above 1.00 a check is exceeded)",
+                 "drop_height": "drop points coloured by the allowable drop height"
+                 }.get(self.plan.overlay, self.plan.overlay)
+        data = self.case_combo.currentData()
+        if data is None:
+            n = sum(len(z.loads) for z in p.lift_zones if z.level_id == lv.id)
+            which = (f"worst of all {n} load(s) of every lift zone on this level"
+                     if n else "no lift zone with a load on this level yet")
+        else:
+            zid, load_name = data
+            which = f"lift {zid}, load {load_name}"
+            try:
+                z = p.zone(zid)
+                ld = next(x for x in z.loads if x.name == load_name)
+                which = (f"lift {z.id} ({z.name}), load {ld.name}: "
+                         f"{units.fmt(ld.mass, 'mass', p.settings.unit_system)}")
+                case = next((c for c in (self.doc.results.cases if self.doc.results else ())
+                             if (c.zone_id, c.load_name) == data), None)
+                if case is not None:
+                    which += (", planned drop "
+                              + units.fmt(case.planned_drop_height, "length",
+                                          p.settings.unit_system))
+            except (KeyError, StopIteration):
+                pass
+        state = "" if self.doc.results_current else " Results are being updated."
+        name = lv.name if lv.name.lower().startswith("level") else f"Level {lv.name}"
+        return (f"{name}: {shown}; {which}. Key in a corner of the plan; "
+                f"the caution is under the plan.{state}")
+
+    def _update_heading(self) -> None:
+        if hasattr(self, "plan_heading"):
+            self.plan_heading.setText(html.escape(self.plan_heading_text()))
+
+    def _geometry_key(self) -> str:
+        """Settings group of the window geometry for the screen's scale: a size
+        saved at 150 % is not reused at 100 %."""
+        return f"window/{screen_scale_tag(self.screen())}"
+
+    def _restore_geometry(self) -> None:
+        key = self._geometry_key()
+        geo = self.qsettings.value(f"{key}/geometry")
+        state = self.qsettings.value(f"{key}/state")
+        if isinstance(geo, QByteArray | bytes) and geo:
+            self.restoreGeometry(QByteArray(geo))
+        else:  # 1600 × 1000, or what the screen has room for
+            avail = self.screen().availableGeometry() if self.screen() else None
+            w = min(1600, int(avail.width() * 0.96)) if avail else 1600
+            h = min(1000, int(avail.height() * 0.94)) if avail else 1000
+            self.resize(max(w, 640), max(h, 480))
+        if isinstance(state, QByteArray | bytes) and state and \
+                self.restoreState(QByteArray(state)):
+            self._default_layout_pending = False
+        overlay = self.qsettings.value("view/overlay", "outcome")
+        if overlay in style.OVERLAYS:
+            self.set_overlay(str(overlay))
+
+    def save_window_state(self) -> None:
+        key = self._geometry_key()
+        self.qsettings.setValue(f"{key}/geometry", self.saveGeometry())
+        self.qsettings.setValue(f"{key}/state", self.saveState())
+        self.qsettings.setValue("view/overlay", self.plan.overlay)
+        self.qsettings.sync()
