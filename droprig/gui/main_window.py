@@ -21,11 +21,12 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from PySide6.QtCore import QSettings, Qt
+from PySide6.QtCore import QByteArray, QSettings, Qt
 from PySide6.QtGui import QCloseEvent
 from PySide6.QtWidgets import QMainWindow, QMenu, QMessageBox, QWidget
 
 from droprig import __version__
+from droprig.gui import style
 from droprig.gui.analysis_runner import AnalyseFn, AnalysisRunner
 from droprig.gui.document import Autosaver, Document, Selection
 from droprig.gui.settings_dialog import SettingsDialog
@@ -177,6 +178,38 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
 
     def _on_dirty_changed(self, dirty: bool) -> None:
         self.setWindowModified(dirty)
+
+    # ================================================================ window state
+
+    def _geometry_key(self) -> str:
+        """Settings group of the window geometry for the screen's scale: a size
+        saved at 150 % is not reused at 100 %."""
+        return f"window/{screen_scale_tag(self.screen())}"
+
+    def _restore_geometry(self) -> None:
+        key = self._geometry_key()
+        geo = self.qsettings.value(f"{key}/geometry")
+        state = self.qsettings.value(f"{key}/state")
+        if isinstance(geo, QByteArray | bytes) and geo:
+            self.restoreGeometry(QByteArray(geo))
+        else:  # 1600 × 1000, or what the screen has room for
+            avail = self.screen().availableGeometry() if self.screen() else None
+            w = min(1600, int(avail.width() * 0.96)) if avail else 1600
+            h = min(1000, int(avail.height() * 0.94)) if avail else 1000
+            self.resize(max(w, 640), max(h, 480))
+        if isinstance(state, QByteArray | bytes) and state and \
+                self.restoreState(QByteArray(state)):
+            self._default_layout_pending = False
+        overlay = self.qsettings.value("view/overlay", "outcome")
+        if overlay in style.OVERLAYS:
+            self.set_overlay(str(overlay))
+
+    def save_window_state(self) -> None:
+        key = self._geometry_key()
+        self.qsettings.setValue(f"{key}/geometry", self.saveGeometry())
+        self.qsettings.setValue(f"{key}/state", self.saveState())
+        self.qsettings.setValue("view/overlay", self.plan.overlay)
+        self.qsettings.sync()
 
     def closeEvent(self, event: QCloseEvent) -> None:
         if not self._closing and not self.maybe_save():

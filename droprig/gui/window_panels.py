@@ -8,7 +8,7 @@ from __future__ import annotations
 
 import html
 
-from PySide6.QtCore import QByteArray, Qt
+from PySide6.QtCore import Qt
 from PySide6.QtGui import QShowEvent
 from PySide6.QtWidgets import (
     QComboBox,
@@ -350,33 +350,3 @@ class PanelsMixin(WindowParts):
     def _update_heading(self) -> None:
         if hasattr(self, "plan_heading"):
             self.plan_heading.setText(html.escape(self.plan_heading_text()))
-
-    def _geometry_key(self) -> str:
-        """Settings group of the window geometry for the screen's scale: a size
-        saved at 150 % is not reused at 100 %."""
-        return f"window/{screen_scale_tag(self.screen())}"
-
-    def _restore_geometry(self) -> None:
-        key = self._geometry_key()
-        geo = self.qsettings.value(f"{key}/geometry")
-        state = self.qsettings.value(f"{key}/state")
-        if isinstance(geo, QByteArray | bytes) and geo:
-            self.restoreGeometry(QByteArray(geo))
-        else:  # 1600 × 1000, or what the screen has room for
-            avail = self.screen().availableGeometry() if self.screen() else None
-            w = min(1600, int(avail.width() * 0.96)) if avail else 1600
-            h = min(1000, int(avail.height() * 0.94)) if avail else 1000
-            self.resize(max(w, 640), max(h, 480))
-        if isinstance(state, QByteArray | bytes) and state and \
-                self.restoreState(QByteArray(state)):
-            self._default_layout_pending = False
-        overlay = self.qsettings.value("view/overlay", "outcome")
-        if overlay in style.OVERLAYS:
-            self.set_overlay(str(overlay))
-
-    def save_window_state(self) -> None:
-        key = self._geometry_key()
-        self.qsettings.setValue(f"{key}/geometry", self.saveGeometry())
-        self.qsettings.setValue(f"{key}/state", self.saveState())
-        self.qsettings.setValue("view/overlay", self.plan.overlay)
-        self.qsettings.sync()
