@@ -8,8 +8,8 @@ from __future__ import annotations
 
 import html
 
-from PySide6.QtCore import Qt
-from PySide6.QtGui import QShowEvent
+from PySide6.QtCore import QSize, Qt, Signal
+from PySide6.QtGui import QMouseEvent, QResizeEvent, QShowEvent
 from PySide6.QtWidgets import (
     QComboBox,
     QDockWidget,
@@ -41,6 +41,71 @@ def screen_scale_tag(screen: object) -> str:
     when there is no screen."""
     dpr = float(screen.devicePixelRatio()) if screen is not None else 1.0  # type: ignore[attr-defined]
     return f"scale{round(dpr * 100)}"
+
+
+CAUTION_VARIANTS: tuple[str, ...] = (
+    style.CAUTION_SHORT,
+    "An aid only — review with the appointed lifting person and a licensed engineer",
+    "Aid only — review with the lifting person and a licensed engineer",
+    "Aid only — review with a licensed engineer",
+    "Caution: aid only",
+)
+"""The status bar's caution, longest first: the label shows the longest that fits
+its width (never cut at the window's edge); the whole caution is its tooltip and a
+click opens Help › Limits of use."""
+
+
+class CautionLabel(QLabel):
+    """The caution in the status bar, as long as the room allows
+    (:data:`CAUTION_VARIANTS`); ``clicked`` when pressed."""
+
+    clicked = Signal()
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(f"⚠ {CAUTION_VARIANTS[0]}", parent)
+        self.setObjectName("cautionLabel")
+        self.setToolTip(f"{CAUTION}\n\nClick for Help › Limits of use.")
+        self.setCursor(Qt.CursorShape.PointingHandCursor)
+        self.setStyleSheet(
+            "QLabel#cautionLabel { background: #FFF1CC; color: #3D2800; "
+            "border: 1px solid #C9A23A; border-radius: 3px; padding: 1px 6px; "
+            "font-weight: 600; }")
+
+    @staticmethod
+    def variants() -> list[str]:
+        return [f"⚠ {v}" for v in CAUTION_VARIANTS]
+
+    def _need(self, text: str) -> int:
+        """Width (px) the label needs to show ``text`` whole."""
+        frame = self.width() - self.contentsRect().width()
+        return self.fontMetrics().horizontalAdvance(text) + max(frame, 0) + 2
+
+    def fits(self) -> bool:
+        """True when the text on show fits the label's width."""
+        return self.fontMetrics().horizontalAdvance(self.text()) <= \
+            self.contentsRect().width()
+
+    def sizeHint(self) -> QSize:
+        hint = super().sizeHint()
+        return QSize(self._need(self.variants()[0]), hint.height())
+
+    def minimumSizeHint(self) -> QSize:
+        hint = super().minimumSizeHint()
+        return QSize(self._need(self.variants()[-1]), hint.height())
+
+    def resizeEvent(self, event: QResizeEvent) -> None:
+        super().resizeEvent(event)
+        room = self.contentsRect().width()
+        fm = self.fontMetrics()
+        texts = self.variants()
+        text = next((t for t in texts if fm.horizontalAdvance(t) <= room), texts[-1])
+        if text != self.text():
+            self.setText(text)
+
+    def mousePressEvent(self, event: QMouseEvent) -> None:
+        if event.button() == Qt.MouseButton.LeftButton:
+            self.clicked.emit()
+        super().mousePressEvent(event)
 
 
 class PanelsMixin(WindowParts):
@@ -198,13 +263,8 @@ class PanelsMixin(WindowParts):
         self.busy.setFixedHeight(12)
         self.busy.setTextVisible(False)
         self.busy.hide()
-        self.caution_label = QLabel(f"⚠ {style.CAUTION_SHORT}")
-        self.caution_label.setObjectName("cautionLabel")
-        self.caution_label.setToolTip(CAUTION)
-        self.caution_label.setStyleSheet(
-            "QLabel#cautionLabel { background: #FFF1CC; color: #3D2800; "
-            "border: 1px solid #C9A23A; border-radius: 3px; padding: 1px 6px; "
-            "font-weight: 600; }")
+        self.caution_label = CautionLabel()
+        self.caution_label.clicked.connect(self.actions["caution"].trigger)
         for w in (self.units_label, self.basis_label, self.busy, self.state_label):
             sb.addPermanentWidget(w)
         sb.addPermanentWidget(self.caution_label, 1)
