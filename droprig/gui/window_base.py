@@ -83,6 +83,9 @@ class WindowParts:
     guide_text: QLabel
     guide_button: QToolButton
     plan_heading: QLabel
+    notice: QWidget
+    notice_text: QLabel
+    notice_dismiss: QToolButton
     units_label: QLabel
     basis_label: QLabel
     state_label: QLabel

@@ -6,6 +6,7 @@ A part of :class:`droprig.gui.main_window.MainWindow` (a mixin)."""
 from __future__ import annotations
 
 import datetime as _dt
+import logging
 from pathlib import Path
 
 from PySide6.QtWidgets import (
@@ -19,6 +20,9 @@ from droprig.gui.document import (
 )
 from droprig.gui.window_base import WindowParts, describe
 from droprig.model import Project
+
+log = logging.getLogger("droprig.gui")
+"""Where the window records what the user was told in passing (format conversions)."""
 
 FILE_FILTER = "droprig projects (*.droprig);;All files (*)"
 MAX_RECENT = 8
@@ -100,6 +104,7 @@ class FilesMixin(WindowParts):
     def _forget_views(self) -> None:
         """After new / open / close: nothing of the previous project stays on show."""
         self.trace_panel.show_trace(None)
+        self.dismiss_notice()
 
     def _on_open(self) -> None:
         if not self.maybe_save():
@@ -123,8 +128,25 @@ class FilesMixin(WindowParts):
         self._forget_views()
         if self.doc.lock_warning:  # a second window on the same file (file_guard)
             self.statusBar().showMessage(self.doc.lock_warning, 30_000)
+        if self.doc.open_notes:  # converted from an older format: what changed
+            self.report_conversion(Path(path).name, self.doc.open_notes)
         self.plan.fit()
         return True
+
+    def report_conversion(self, name: str, notes: tuple[str, ...]) -> None:
+        """Tell the user what the conversion of ``name`` from an older file format
+        changed in meaning (which loads' drop heights were re-based to the one
+        datum): a notice above the plan until dismissed, the status bar and the log."""
+        n = len(notes)
+        self.show_notice(
+            f"{name} was converted from an older droprig file format: check "
+            f"{'these values' if n > 1 else 'this value'}, then save to keep the "
+            "converted file.", notes)
+        self.statusBar().showMessage(
+            f"{name}: converted from an older file format — {n} note{'s' if n > 1 else ''} "
+            "to check, in the notice above the plan", 30_000)
+        for note in notes:
+            log.warning("%s, converted from an older format: %s", name, note)
 
     def save(self) -> bool:
         if self.doc.path is None:

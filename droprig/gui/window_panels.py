@@ -13,9 +13,11 @@ from PySide6.QtGui import QMouseEvent, QResizeEvent, QShowEvent
 from PySide6.QtWidgets import (
     QComboBox,
     QDockWidget,
+    QFrame,
     QHBoxLayout,
     QLabel,
     QProgressBar,
+    QScrollArea,
     QToolButton,
     QVBoxLayout,
     QWidget,
@@ -170,15 +172,74 @@ class PanelsMixin(WindowParts):
                                         "color: #1E1E1E; padding: 3px 8px; "
                                         "border-bottom: 1px solid #CFCFC8; }")
 
+        # a notice the user dismisses (a file converted from an older format)
+        self.notice = QWidget()
+        self.notice.setObjectName("noticeBar")
+        self.notice.setStyleSheet("QWidget#noticeBar { background: #FFF1CC; "
+                                  "border-bottom: 1px solid #C9A23A; }")
+        nb = QHBoxLayout(self.notice)
+        nb.setContentsMargins(8, 5, 8, 5)
+        self.notice_text = QLabel()
+        self.notice_text.setObjectName("noticeText")
+        self.notice_text.setStyleSheet("color: #3D2800;")
+        self.notice_text.setWordWrap(True)
+        self.notice_text.setTextFormat(Qt.TextFormat.RichText)
+        self.notice_text.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+        self.notice_dismiss = QToolButton()
+        self.notice_dismiss.setObjectName("noticeDismiss")
+        self.notice_dismiss.setText("Dismiss")
+        self.notice_dismiss.setToolTip("Hide this notice")
+        self.notice_dismiss.clicked.connect(self.dismiss_notice)
+        # at most NOTICE_LINES lines high: a long list scrolls, the plan keeps its room
+        scroll = QScrollArea()
+        scroll.setObjectName("noticeScroll")
+        scroll.setWidget(self.notice_text)
+        scroll.setWidgetResizable(True)
+        scroll.setFrameShape(QFrame.Shape.NoFrame)
+        scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        scroll.setStyleSheet("QScrollArea#noticeScroll, QScrollArea#noticeScroll > QWidget "
+                             "> QWidget { background: transparent; }")
+        scroll.setMaximumHeight(self.fontMetrics().lineSpacing() * self.NOTICE_LINES + 6)
+        self.notice_scroll = scroll
+        nb.addWidget(scroll, 1)
+        nb.addWidget(self.notice_dismiss, 0, Qt.AlignmentFlag.AlignTop)
+        self.notice.hide()
+
         central = QWidget()
         v = QVBoxLayout(central)
         v.setContentsMargins(0, 0, 0, 0)
         v.setSpacing(0)
         v.addWidget(bar)
+        v.addWidget(self.notice)
         v.addWidget(self.plan_heading)
         v.addWidget(self.guide)
         v.addWidget(self.plan, 1)
         self.setCentralWidget(central)
+
+    NOTICE_ITEMS = 3
+    """Notes listed in the notice bar; the rest are counted and listed on hover."""
+    NOTICE_LINES = 5
+    """Text lines the notice bar shows at most (more scroll inside it)."""
+
+    def show_notice(self, heading: str, items: tuple[str, ...] | list[str] = ()) -> None:
+        """A notice above the plan (plain ``heading`` and ``items``) until the user
+        dismisses it or the project changes by new / open / close."""
+        e = html.escape
+        shown = list(items)[:self.NOTICE_ITEMS]
+        more = len(items) - len(shown)
+        body = "".join(f"<li>{e(t)}</li>" for t in shown)
+        if more:
+            body += f"<li>… and {more} more (hover to read them all)</li>"
+        self.notice_text.setText(f"<b>⚠ {e(heading)}</b>"
+                                 + (f"<ul style='margin:2px 0 0 -20px'>{body}</ul>"
+                                    if body else ""))
+        self.notice_text.setToolTip("\n\n".join(items) if more else "")
+        self.notice.show()
+
+    def dismiss_notice(self) -> None:
+        """Hide the notice bar."""
+        self.notice.hide()
+        self.notice_text.clear()
 
     def _dock(self, name: str, title: str, widget: QWidget,
               area: Qt.DockWidgetArea) -> QDockWidget:
