@@ -122,6 +122,14 @@ def _fin(v: float | None) -> float | None:
     return None if v is None or (isinstance(v, float) and math.isnan(v)) else v
 
 
+_ROLES = frozenset({
+    int(Qt.ItemDataRole.DisplayRole), int(Qt.ItemDataRole.DecorationRole),
+    int(Qt.ItemDataRole.ToolTipRole), int(Qt.ItemDataRole.FontRole),
+    int(Qt.ItemDataRole.ForegroundRole), int(Qt.ItemDataRole.TextAlignmentRole),
+    int(SORT_ROLE), int(ROW_ROLE)})
+"""The roles :meth:`BayResultsModel.data` answers (any other is None at once)."""
+
+
 class BayResultsModel(QAbstractTableModel):
     """Rows = ``results.bays`` (the solver's per-bay summaries)."""
 
@@ -133,6 +141,7 @@ class BayResultsModel(QAbstractTableModel):
         self._system: units.UnitSystem = "SI"
         self._level_names: dict[str, str] = {}
         self._stale = False
+        self._memo: dict[tuple[int, int, int], Any] = {}
         self._cells: dict[tuple[str, str, str], dict[str, str]] = {}
         """Each row's permit cells, worked once per results (the view asks for every
         cell on every repaint)."""
@@ -148,11 +157,13 @@ class BayResultsModel(QAbstractTableModel):
             if len(project.levels) > 1 else {}
         self._stale = stale
         self._cells = {}
+        self._memo = {}
         self.endResetModel()
 
     def set_stale(self, stale: bool) -> None:
         if stale != self._stale:
             self._stale = stale
+            self._memo = {}
             if self._rows:
                 self.dataChanged.emit(self.index(0, 0),
                                       self.index(len(self._rows) - 1, len(COLUMNS) - 1))
@@ -194,8 +205,18 @@ class BayResultsModel(QAbstractTableModel):
 
     def data(self, index: QModelIndex | QPersistentModelIndex,
              role: int = Qt.ItemDataRole.DisplayRole) -> Any:
-        if not index.isValid():
+        """The cell's value for ``role``, worked once per results (the views ask for
+        every visible cell and role on every repaint)."""
+        if role not in _ROLES or not index.isValid():
             return None
+        key = (index.row(), index.column(), role)
+        try:
+            return self._memo[key]
+        except KeyError:
+            value = self._memo[key] = self._data(index, role)
+            return value
+
+    def _data(self, index: QModelIndex | QPersistentModelIndex, role: int) -> Any:
         b = self._rows[index.row()]
         key = COLUMNS[index.column()][0]
         if role == ROW_ROLE:
