@@ -130,6 +130,66 @@ def bench_zone_edit() -> dict[str, float]:
     }
 
 
+def bench_edit_cpu() -> float:
+    """CPU time (s) of one zone edit until the plan has painted the new outcomes, with
+    the analysis on the UI thread and one solver thread: what the edit costs, nearly
+    independent of other load on the machine (median of the edits)."""
+    from PySide6.QtCore import QEvent, QObject
+    from PySide6.QtWidgets import QApplication
+
+    from droprig.gui.app import create_app
+    from droprig.gui.document import Document
+    from droprig.gui.main_window import MainWindow
+    from droprig.io.project_file import load_project
+
+    old = os.environ.get("DROPRIG_THREADS")
+    os.environ["DROPRIG_THREADS"] = "1"
+    app = create_app()
+    doc = Document(load_project(DEMO), DEMO)
+    win = MainWindow(doc, autosave=False, threaded=False)
+    win.resize(1600, 1000)
+    win.show()
+
+    class PaintCounter(QObject):
+        n = 0
+
+        def eventFilter(self, obj: QObject, ev: QEvent) -> bool:
+            if ev.type() == QEvent.Type.Paint:
+                PaintCounter.n += 1
+            return False
+
+    counter = PaintCounter()
+    win.plan.viewport().installEventFilter(counter)
+
+    def pause(seconds: float) -> None:
+        end = time.perf_counter() + seconds
+        while time.perf_counter() < end:
+            app.processEvents()
+            time.sleep(0.002)
+
+    pause(0.3)
+    zone = doc.project.lift_zones[0]
+    radii = (zone.r_max * 0.8, zone.r_max)
+    cpu = []
+    for i in range(N_EDITS):
+        z = doc.project.zone(zone.id)
+        painted = PaintCounter.n
+        c0 = time.process_time()
+        win.plan.zone_changed.emit(zone.id, replace(z, r_max=radii[i % 2]))
+        while not doc.results_current or PaintCounter.n <= painted:
+            app.processEvents()
+        cpu.append(time.process_time() - c0)
+        pause(0.2)
+    win._closing = True
+    win.close()
+    QApplication.processEvents()
+    if old is None:
+        os.environ.pop("DROPRIG_THREADS", None)
+    else:
+        os.environ["DROPRIG_THREADS"] = old
+    return statistics.median(cpu)
+
+
 _CHILD = textwrap.dedent("""
     import sys, time
     from droprig.gui.app import create_app
@@ -202,6 +262,9 @@ def main() -> int:
           f"{edit['analysis_median_s'] * 1e3:.0f} ms for {edit['drop_points']:,.0f} drop points")
     print(f"    second edit inside the 150 ms throttle window: median "
           f"{edit['edit_in_throttle_window_median_s'] * 1e3:.0f} ms")
+    cpu = bench_edit_cpu()
+    print(f"    CPU of one edit until painted, analysis on the UI thread, one solver "
+          f"thread: median {cpu * 1e3:.0f} ms")
     start = bench_cold_start()
     print(f"  cold start to a shown window: empty {start['empty_shown_s']:.2f} s, with the demo "
           f"{start['demo_shown_s']:.2f} s (target ≤ {TARGET_START_S} s); first results "
