@@ -3,6 +3,13 @@
 Core code never sees a unit string: :func:`parse` turns user text into an SI
 float for a named quantity (by a grammar, never by evaluating an expression),
 :func:`fmt` turns an SI float into text in the user's unit system.
+
+pint is imported only when it is needed: the display units (:data:`DISPLAY_FACTORS`)
+and the common input units (:data:`PARSE_FACTORS`) are converted by a table of
+pint's own conversion factors (``tests/test_units_light.py`` checks every entry
+against pint bit for bit and against NIST SP 811), so opening a window or a
+project does not load pint's unit definitions (about a second); any other unit
+text goes through pint as before.
 """
 
 from __future__ import annotations
@@ -10,11 +17,12 @@ from __future__ import annotations
 import math
 import re
 from functools import lru_cache
-from typing import Literal
-
-import pint
+from typing import TYPE_CHECKING, Literal
 
 from droprig.model.errors import quote
+
+if TYPE_CHECKING:
+    import pint
 
 UnitSystem = Literal["SI", "US"]
 
@@ -44,8 +52,143 @@ class UnitError(ValueError):
     """User text that is not a quantity of the expected kind."""
 
 
+DISPLAY_FACTORS: dict[tuple[str, str], float] = {
+    ("N", "kN"): 0.001,
+    ("N", "kip"): 0.00022480894309971047,
+    ("N*m", "kN*m"): 0.001,
+    ("N*m", "kip*ft"): 0.0007375621492772653,
+    ("N/m", "kN/m"): 0.001,
+    ("N/m", "kN/mm"): 1e-06,
+    ("N/m", "kip/ft"): 6.852176585679175e-05,
+    ("N/m", "kip/in"): 5.710147154732646e-06,
+    ("Pa", "MPa"): 1e-06,
+    ("Pa", "kPa"): 0.001,
+    ("Pa", "ksi"): 1.4503773773020921e-07,
+    ("Pa", "psf"): 0.02088543423315013,
+    ("kg", "kg"): 1.0,
+    ("kg", "lb"): 2.2046226218487757,
+    ("kg/m", "kg/m"): 1.0,
+    ("kg/m", "lb/ft"): 0.6719689751395068,
+    ("m", "ft"): 3.2808398950131235,
+    ("m", "in"): 39.37007874015748,
+    ("m", "m"): 1.0,
+    ("m", "mm"): 1000.0,
+    ("m**2", "cm**2"): 10000.0,
+    ("m**2", "in**2"): 1550.0031000062002,
+    ("m**2/m", "inch**2/ft"): 472.44094488188983,
+    ("m**2/m", "mm**2/m"): 1000000.0,
+    ("m**3", "cm**3"): 999999.9999999999,
+    ("m**3", "in**3"): 61023.7440947323,
+    ("m**4", "cm**4"): 99999999.99999999,
+    ("m**4", "in**4"): 2402509.610028831,
+    ("m/N", "in/kip"): 175126.83524647643,
+    ("m/N", "mm/kN"): 1000000.0,
+    ("rad", "deg"): 57.29577951308232,
+}
+"""(SI unit, display unit) → the factor pint multiplies by to convert (its
+``_get_conversion_factor``, pint 0.25), so :func:`convert` gives pint's numbers bit
+for bit without loading pint. Definitions: NIST SP 811 (2008) Appendix B."""
+
+PARSE_FACTORS: dict[tuple[str, str], float] = {
+    ("length", "m"): 1.0,
+    ("length", "mm"): 0.001,
+    ("length", "cm"): 0.01,
+    ("length", "ft"): 0.30479999999999996,
+    ("length", "in"): 0.0254,
+    ("small_length", "m"): 1.0,
+    ("small_length", "mm"): 0.001,
+    ("small_length", "cm"): 0.01,
+    ("small_length", "ft"): 0.30479999999999996,
+    ("small_length", "in"): 0.0254,
+    ("force", "N"): 1.0,
+    ("force", "kN"): 1000.0,
+    ("force", "MN"): 1000000.0,
+    ("force", "kip"): 4448.221615260501,
+    ("force", "lbf"): 4.4482216152605005,
+    ("force", "lb"): 4.4482216152605005,
+    ("force", "kg"): 9.80665,
+    ("force", "t"): 9806.65,
+    ("mass", "kg"): 1.0,
+    ("mass", "t"): 1000.0,
+    ("mass", "lb"): 0.4535923700000001,
+    ("moment", "N*m"): 1.0,
+    ("moment", "kN*m"): 1000.0,
+    ("moment", "kip*ft"): 1355.8179483314004,
+    ("moment", "kip*in"): 112.98482902761671,
+    ("moment", "lbf*ft"): 1.3558179483314006,
+    ("stress", "Pa"): 1.0,
+    ("stress", "kPa"): 1000.0,
+    ("stress", "MPa"): 1000000.0,
+    ("stress", "GPa"): 1000000000.0,
+    ("stress", "ksi"): 6894757.293168363,
+    ("stress", "psi"): 6894.7572931683635,
+    ("stress", "N/mm**2"): 1000000.0,
+    ("pressure", "Pa"): 1.0,
+    ("pressure", "kPa"): 1000.0,
+    ("pressure", "MPa"): 1000000.0,
+    ("pressure", "psf"): 47.88025898033586,
+    ("pressure", "psi"): 6894.7572931683635,
+    ("pressure", "kN/m**2"): 1000.0,
+    ("stiffness", "N/m"): 1.0,
+    ("stiffness", "kN/m"): 1000.0,
+    ("stiffness", "N/mm"): 1000.0,
+    ("stiffness", "kN/mm"): 1000000.0,
+    ("stiffness", "kip/in"): 175126.83524647643,
+    ("stiffness", "lbf/in"): 175.12683524647645,
+    ("compliance", "m/N"): 1.0,
+    ("compliance", "mm/kN"): 1e-06,
+    ("compliance", "in/kip"): 5.710147154732646e-06,
+    ("area", "m**2"): 1.0,
+    ("area", "mm**2"): 1e-06,
+    ("area", "cm**2"): 0.0001,
+    ("area", "in**2"): 0.00064516,
+    ("inertia", "m**4"): 1.0,
+    ("inertia", "mm**4"): 1.0000000000000002e-12,
+    ("inertia", "cm**4"): 1e-08,
+    ("inertia", "in**4"): 4.1623142559999997e-07,
+    ("modulus", "m**3"): 1.0,
+    ("modulus", "mm**3"): 1e-09,
+    ("modulus", "cm**3"): 1.0000000000000002e-06,
+    ("modulus", "in**3"): 1.6387063999999996e-05,
+    ("angle", "rad"): 1.0,
+    ("angle", "deg"): 0.017453292519943295,
+    ("line_load", "N/m"): 1.0,
+    ("line_load", "kN/m"): 1000.0,
+    ("line_load", "kip/ft"): 14593.902937206369,
+    ("line_load", "lbf/ft"): 14.59390293720637,
+    ("mass_per_length", "kg/m"): 1.0,
+    ("mass_per_length", "lb/ft"): 1.488163943569554,
+    ("dimensionless", ""): 1.0,
+}
+"""(quantity, unit text) → the SI value of 1 of that unit as :func:`parse` reads it
+through pint (pound-mass as a force by standard gravity, as there), so the common
+units are read without loading pint and give the same numbers bit for bit."""
+
+_SPACED_OPERATOR = re.compile(r"\s*(\*\*|\*|/|\^)\s*")
+
+
+def _unit_key(unit_text: str) -> str:
+    """``unit_text`` in the form of the keys of :data:`PARSE_FACTORS`: no blanks
+    beside ``*``, ``/`` and powers, ``^`` written ``**`` (a blank that multiplies,
+    "kN m", stays and goes to pint)."""
+    return _SPACED_OPERATOR.sub(lambda m: "**" if m.group(1) == "^" else m.group(1),
+                                unit_text.strip())
+
+
+def convert(value: float, from_unit: str, to_unit: str) -> float:
+    """``value`` in ``from_unit`` → ``to_unit``, by :data:`DISPLAY_FACTORS` where the
+    pair is there (no pint), else by pint."""
+    f = DISPLAY_FACTORS.get((from_unit, to_unit))
+    if f is not None:
+        return float(value * f)
+    return float(registry().Quantity(value, from_unit).to(to_unit).magnitude)
+
+
 @lru_cache(maxsize=1)
 def registry() -> pint.UnitRegistry:
+    """pint's unit registry (loaded on first use: about a second)."""
+    import pint
+
     ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
     # pint's "t" is the metric tonne; "ton" alone is ambiguous and refused in parse().
     # Pounds per square foot, the US unit of floor pressure (ASCE 7 tables).
@@ -178,6 +321,11 @@ def parse(text: str | float, quantity: str, system: UnitSystem = "SI", *,
             text_in = _normalise(normalise_decimal(text))
         except UnitError as exc:
             raise UnitError(f"{field}: {exc}") from None
+    light = _read_light(text_in, text, quantity, system, field)
+    if light is not None:
+        return light
+    import pint
+
     ureg = registry()
     q = _read(text_in, text, quantity, system, field)
     units_text = str(q.units)
@@ -205,6 +353,32 @@ def parse(text: str | float, quantity: str, system: UnitSystem = "SI", *,
 
 def _shown(text: object) -> str:
     return quote(text) if isinstance(text, str) else repr(text)
+
+
+def _read_light(text_in: str, text: object, quantity: str, system: UnitSystem,
+                field: str) -> float | None:
+    """The SI value of ``text_in`` when its unit (or the bare number's display unit)
+    is in :data:`PARSE_FACTORS`, read by the grammar :data:`_QUANTITY`; ``None``
+    sends the text to pint (any other unit, or text the grammar refuses, which pint's
+    path words as before)."""
+    m = _QUANTITY.match(text_in) if len(text_in) <= MAX_TEXT else None
+    if m is None or m.group("num") is None:
+        return None
+    unit_text = m.group("unit")
+    if not unit_text:
+        _, si_unit, us_unit, _, _ = QUANTITIES[quantity]
+        unit_text = si_unit if system == "SI" else us_unit
+    factor = PARSE_FACTORS.get((quantity, _unit_key(unit_text)))
+    if factor is None:
+        return None
+    value = float(m.group("num"))
+    if not math.isfinite(value) or abs(value) > MAX_MAGNITUDE:
+        raise UnitError(f"{field}: {_shown(text)} is too large a number; at most "
+                        f"{MAX_MAGNITUDE:g} in the unit typed")
+    value = float(value * factor)
+    if not math.isfinite(value):
+        raise UnitError(f"{field}: {_shown(text)} is not a finite number")
+    return value
 
 
 def _read(text_in: str, text: object, quantity: str, system: UnitSystem,
@@ -254,8 +428,7 @@ def to_display(value: float, quantity: str, system: UnitSystem) -> float:
     base, si_unit, us_unit, _, _ = QUANTITIES[quantity]
     if not base:
         return float(value)
-    ureg = registry()
-    return float(ureg.Quantity(value, base).to(si_unit if system == "SI" else us_unit).magnitude)
+    return convert(value, base, si_unit if system == "SI" else us_unit)
 
 
 Rounding = Literal["nearest", "down", "up"]

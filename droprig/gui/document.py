@@ -231,6 +231,7 @@ class Document(QObject):
             self.release_lock()
             self._disk = None
         self.undo_stack.clear()
+        self.open_notes = ()
         self._force_dirty = dirty
         self._path = Path(path) if path else None
         self._results = None
@@ -247,13 +248,21 @@ class Document(QObject):
 
     # -------------------------------------------------------------- files
 
+    open_notes: tuple[str, ...] = ()
+    """What the conversion of the file last opened from an older format changed in
+    meaning, in words for the user (``load_project(notes=…)``); empty for a file of
+    the current format and after new, close or recovery."""
+
     def open(self, path: str | Path) -> None:
         """Load ``path``; raises ``ProjectFileError`` and leaves the document
-        unchanged if the file cannot be read."""
+        unchanged if the file cannot be read. A file of an older format is converted
+        and :attr:`open_notes` says what that changed in meaning."""
         from droprig.io.project_file import load_project
 
-        project = load_project(Path(path))
+        notes: list[str] = []
+        project = load_project(Path(path), notes=notes)
         self.reset(project, Path(path))
+        self.open_notes = tuple(notes)
         self._guard_opened(Path(path))
 
     def save(self, path: str | Path | None = None, *, force: bool = False) -> Path:

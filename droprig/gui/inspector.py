@@ -149,7 +149,7 @@ def fmt_q(value: float | None, quantity: str, system: units.UnitSystem) -> str:
     if value is not None and value == value:
         if quantity == REBAR:
             unit, label, d = _REBAR_UNITS[system]
-            mag = units.registry().Quantity(value, "m**2/m").to(unit).magnitude
+            mag = units.convert(value, "m**2/m", unit)
             return f"{mag:,.{d}f} {label}"
     return units.fmt(value, quantity, system)
 

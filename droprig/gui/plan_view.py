@@ -89,6 +89,7 @@ from droprig.gui.plan_items import (
     from_scene,
     handle_positions,
     paint_scabbing_mark,
+    keep_inside,
     pixel_font,
     raster_transform,
     rasterise,
@@ -138,6 +139,29 @@ CRANE_PICK_PX = 17.0
 
 NOTE_MS = 6000
 """How long a refusal note stays beside a released corridor corner, ms."""
+BUBBLE_OFFSET_PX = 46.0
+"""Distance of a grid bubble's centre beyond the end of its grid line (pixels)."""
+BUBBLE_RADIUS_PX = 11.0
+BUBBLE_GAP_PX = 3.0
+"""Least gap between a grid bubble and a crane symbol or label (pixels)."""
+BUBBLE_STEP_PX = 4.0
+BUBBLE_MAX_SHIFT_PX = 400.0
+"""A bubble moves out along its grid line at most this far to clear a crane."""
+CRANE_SYMBOL_RADIUS_PX = 26.0
+"""Half the width of the painted crane symbol with its jib (outriggers reach ~20 px,
+the jib 24 px plus its pen)."""
+
+
+@dataclass(frozen=True)
+class GridBubble:
+    """A grid bubble as painted: ``axis`` "x" for a bubble of an x-line (a vertical
+    line, lettered along x), its ``label`` and ``centre`` (viewport px)."""
+
+    axis: str
+    label: str
+    centre: QPointF
+
+
 LEGEND_WIDTH = 196.0
 """px; the legend box in the top right corner."""
 MIN_ZOOM, MAX_ZOOM = 0.2, 4000.0
@@ -1465,12 +1489,57 @@ class PlanView(QGraphicsView):
     def _vp(self, x: float, y: float) -> QPointF:
         return self.viewportTransform().map(to_scene(x, y))
 
+    def grid_bubbles(self) -> list[GridBubble]:
+        """The grid bubbles of the level shown (viewport px): each at
+        :data:`BUBBLE_OFFSET_PX` beyond the end of its grid line, or pushed further out
+        along the line until it is clear of every crane symbol and crane label (a crane
+        standing just off the grid used to cover a bubble); a moved bubble stays on its
+        grid line. Top / left bubble first for each line."""
+        if self._level is None:
+            return []
+        g = self._level.grid
+        x0, x1, y0, y1 = g.x_lines[0], g.x_lines[-1], g.y_lines[0], g.y_lines[-1]
+        off, r = BUBBLE_OFFSET_PX, BUBBLE_RADIUS_PX
+        avoid = self._crane_obstacles()
+
+        def clear(c: QPointF, dx: float, dy: float) -> QPointF:
+            box = QRectF(c.x() - r - BUBBLE_GAP_PX, c.y() - r - BUBBLE_GAP_PX,
+                         2 * (r + BUBBLE_GAP_PX), 2 * (r + BUBBLE_GAP_PX))
+            moved = 0.0
+            while any(box.intersects(o) for o in avoid) and moved < BUBBLE_MAX_SHIFT_PX:
+                box.translate(dx * BUBBLE_STEP_PX, dy * BUBBLE_STEP_PX)
+                moved += BUBBLE_STEP_PX
+            return box.center()
+
+        out: list[GridBubble] = []
+        for x, lab in zip(g.x_lines, g.x_labels, strict=True):
+            top, bot = self._vp(x, y1), self._vp(x, y0)
+            out.append(GridBubble("x", lab, clear(QPointF(top.x(), top.y() - off), 0, -1)))
+            out.append(GridBubble("x", lab, clear(QPointF(bot.x(), bot.y() + off), 0, 1)))
+        for y, lab in zip(g.y_lines, g.y_labels, strict=True):
+            lft, rgt = self._vp(x0, y), self._vp(x1, y)
+            out.append(GridBubble("y", lab, clear(QPointF(lft.x() - off, lft.y()), -1, 0)))
+            out.append(GridBubble("y", lab, clear(QPointF(rgt.x() + off, rgt.y()), 1, 0)))
+        return out
+
+    def _crane_obstacles(self) -> list[QRectF]:
+        """Viewport rectangles of every crane symbol (jib included) and crane label
+        shown, as painted."""
+        bounds = QRectF(self.viewport().rect())
+        out = []
+        for z in self._cranes_item.shown_zones():
+            c = QPointF(self.mapFromScene(to_scene(*z.crane)))
+            k = CRANE_SYMBOL_RADIUS_PX
+            out.append(QRectF(c.x() - k, c.y() - k, 2 * k, 2 * k))
+            out.append(keep_inside(crane_label_rect(c, z), bounds))
+        return out
+
     def _paint_grid(self, p: QPainter) -> None:
         assert self._level is not None
         g = self._level.grid
         sysm = self.unit_system
-        x0, x1, y0, y1 = g.x_lines[0], g.x_lines[-1], g.y_lines[0], g.y_lines[-1]
-        bub_off, bub_r, dim_off = 46.0, 11.0, 24.0
+        x0, y0 = g.x_lines[0], g.y_lines[0]
+        bub_r, dim_off = BUBBLE_RADIUS_PX, 24.0
         line_pen = cosmetic_pen(style.PLAN["grid_line"], 1.0, Qt.PenStyle.DashDotLine)
         bub_pen = cosmetic_pen(style.PLAN["grid_label"], 1.4)
         font = pixel_font(11, True)
@@ -1486,21 +1555,20 @@ class PlanView(QGraphicsView):
             p.drawText(QRectF(c.x() - bub_r, c.y() - bub_r, 2 * bub_r, 2 * bub_r),
                        Qt.AlignmentFlag.AlignCenter, text)
 
-        for x, lab in zip(g.x_lines, g.x_labels, strict=True):
-            top, bot = self._vp(x, y1), self._vp(x, y0)
-            a, b = QPointF(top.x(), top.y() - bub_off + bub_r), QPointF(bot.x(),
-                                                                         bot.y() + bub_off - bub_r)
-            p.setPen(line_pen)
-            p.drawLine(a, b)
-            bubble(QPointF(top.x(), top.y() - bub_off), lab)
-            bubble(QPointF(bot.x(), bot.y() + bub_off), lab)
-        for y, lab in zip(g.y_lines, g.y_labels, strict=True):
-            lft, rgt = self._vp(x0, y), self._vp(x1, y)
-            p.setPen(line_pen)
-            p.drawLine(QPointF(lft.x() - bub_off + bub_r, lft.y()),
-                       QPointF(rgt.x() + bub_off - bub_r, rgt.y()))
-            bubble(QPointF(lft.x() - bub_off, lft.y()), lab)
-            bubble(QPointF(rgt.x() + bub_off, rgt.y()), lab)
+        # each grid line runs from bubble to bubble (a bubble moved off a crane
+        # takes its line with it)
+        bubbles = self.grid_bubbles()
+        ends: dict[tuple[str, str], list[QPointF]] = {}
+        for b in bubbles:
+            ends.setdefault((b.axis, b.label), []).append(b.centre)
+        p.setPen(line_pen)
+        for (axis, _lab), (c0, c1) in ends.items():
+            if axis == "x":  # a vertical line, bubbles above and below
+                p.drawLine(QPointF(c0.x(), c0.y() + bub_r), QPointF(c1.x(), c1.y() - bub_r))
+            else:
+                p.drawLine(QPointF(c0.x() + bub_r, c0.y()), QPointF(c1.x() - bub_r, c1.y()))
+        for b in bubbles:
+            bubble(b.centre, b.label)
         # dimension strings: x below the grid, y left of it
         dim_pen = cosmetic_pen("#3A3A3A", 1.0)
         p.setFont(dim_font)
@@ -1601,8 +1669,18 @@ class PlanView(QGraphicsView):
     def _caution_lines(self) -> list[str]:
         if self._results is None:
             return []
-        fm = QFontMetricsF(pixel_font(10))
         width = max(self.viewport().width() - 16, 100)
+        cached = getattr(self, "_caution_wrap", None)
+        if cached is not None and cached[0] == width:
+            return cached[1]
+        lines = self._wrap_caution(width)
+        self._caution_wrap = (width, lines)  # asked several times per paint
+        return lines
+
+    @staticmethod
+    def _wrap_caution(width: float) -> list[str]:
+        """The caution broken into lines of at most ``width`` pixels at word ends."""
+        fm = QFontMetricsF(pixel_font(10))
         words, lines, cur = CAUTION.split(), [], ""
         for w in words:
             trial = f"{cur} {w}".strip()

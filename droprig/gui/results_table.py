@@ -91,8 +91,19 @@ def header_font(hh: QHeaderView) -> QFont:
     return f
 
 
+_ICONS: dict[tuple[str, int], QIcon] = {}
+
+
 def outcome_icon(key: str, size: int = 14) -> QIcon:
-    """A square swatch: outcome fill, hatch and edge (same look as the plan)."""
+    """A square swatch: outcome fill, hatch and edge (same look as the plan); drawn
+    once per outcome and size (the table asks for it on every repaint)."""
+    icon = _ICONS.get((key, size))
+    if icon is None:
+        icon = _ICONS[(key, size)] = _draw_outcome_icon(key, size)
+    return icon
+
+
+def _draw_outcome_icon(key: str, size: int) -> QIcon:
     st = style.outcome(key)
     pm = QPixmap(size, size)
     pm.fill(Qt.GlobalColor.transparent)
@@ -111,6 +122,14 @@ def _fin(v: float | None) -> float | None:
     return None if v is None or (isinstance(v, float) and math.isnan(v)) else v
 
 
+_ROLES = frozenset({
+    int(Qt.ItemDataRole.DisplayRole), int(Qt.ItemDataRole.DecorationRole),
+    int(Qt.ItemDataRole.ToolTipRole), int(Qt.ItemDataRole.FontRole),
+    int(Qt.ItemDataRole.ForegroundRole), int(Qt.ItemDataRole.TextAlignmentRole),
+    int(SORT_ROLE), int(ROW_ROLE)})
+"""The roles :meth:`BayResultsModel.data` answers (any other is None at once)."""
+
+
 class BayResultsModel(QAbstractTableModel):
     """Rows = ``results.bays`` (the solver's per-bay summaries)."""
 
@@ -122,6 +141,10 @@ class BayResultsModel(QAbstractTableModel):
         self._system: units.UnitSystem = "SI"
         self._level_names: dict[str, str] = {}
         self._stale = False
+        self._memo: dict[tuple[int, int, int], Any] = {}
+        self._cells: dict[tuple[str, str, str], dict[str, str]] = {}
+        """Each row's permit cells, worked once per results (the view asks for every
+        cell on every repaint)."""
 
     def set_data(self, results: Results | None, project: Project, stale: bool = False) -> None:
         self.beginResetModel()
@@ -133,11 +156,14 @@ class BayResultsModel(QAbstractTableModel):
         self._level_names = {lv.id: lv.name for lv in project.levels} \
             if len(project.levels) > 1 else {}
         self._stale = stale
+        self._cells = {}
+        self._memo = {}
         self.endResetModel()
 
     def set_stale(self, stale: bool) -> None:
         if stale != self._stale:
             self._stale = stale
+            self._memo = {}
             if self._rows:
                 self.dataChanged.emit(self.index(0, 0),
                                       self.index(len(self._rows) - 1, len(COLUMNS) - 1))
@@ -151,8 +177,14 @@ class BayResultsModel(QAbstractTableModel):
 
     def cell(self, b: BaySummary, key: str) -> str:
         """The permit cell ``key`` of :data:`CELL_OF` for a row."""
-        v = self.verdict(b)
-        return v.cells(self._system)[CELL_OF[key]] if v is not None else "none"
+        k = (b.zone_id, b.load_name, b.bay_id)
+        cells = self._cells.get(k)
+        if cells is None:
+            v = self._verdicts.get(k)
+            if v is None:
+                return "none"
+            cells = self._cells[k] = v.cells(self._system)
+        return cells[CELL_OF[key]]
 
     def rowCount(self, parent: QModelIndex | QPersistentModelIndex = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(self._rows)
@@ -173,8 +205,18 @@ class BayResultsModel(QAbstractTableModel):
 
     def data(self, index: QModelIndex | QPersistentModelIndex,
              role: int = Qt.ItemDataRole.DisplayRole) -> Any:
-        if not index.isValid():
+        """The cell's value for ``role``, worked once per results (the views ask for
+        every visible cell and role on every repaint)."""
+        if role not in _ROLES or not index.isValid():
             return None
+        key = (index.row(), index.column(), role)
+        try:
+            return self._memo[key]
+        except KeyError:
+            value = self._memo[key] = self._data(index, role)
+            return value
+
+    def _data(self, index: QModelIndex | QPersistentModelIndex, role: int) -> Any:
         b = self._rows[index.row()]
         key = COLUMNS[index.column()][0]
         if role == ROW_ROLE:

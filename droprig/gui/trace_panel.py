@@ -15,7 +15,7 @@ import math
 import re
 
 from PySide6.QtCore import Qt
-from PySide6.QtGui import QGuiApplication
+from PySide6.QtGui import QGuiApplication, QResizeEvent
 from PySide6.QtWidgets import (
     QHBoxLayout,
     QLabel,
@@ -103,8 +103,21 @@ def step_rows(trace: Trace, system: str) -> list[tuple[str, str, str, str, str]]
     return rows
 
 
-def trace_html(trace: Trace, system: str) -> str:
-    """The whole sheet as HTML (every project/solver string escaped)."""
+COLUMN_HEADS = ("#", "Step", "Formula", "With numbers", "Result", "Source")
+"""The heads of the sheet's columns (the wide layout; the narrow one writes them as
+labels in front of each value)."""
+
+WIDE_MIN_EM = 64
+"""Narrower than this many average character widths, the sheet is written step by
+step (each value on a line of its own behind its label) instead of as a table of six
+columns, whose heads and values a narrow panel (about 250 px at 1280 × 720) would
+otherwise break in the middle of a word."""
+
+
+def trace_html(trace: Trace, system: str, *, narrow: bool = False) -> str:
+    """The whole sheet as HTML (every project/solver string escaped): a table of
+    :data:`COLUMN_HEADS`, or with ``narrow`` one block per step with the same heads
+    as labels (the same words and values either way)."""
     e = html.escape
     st = style.outcome(trace.response)
     where = (f"({units.fmt(trace.x, 'length', system, decimals=2)}, "  # type: ignore[arg-type]
@@ -114,25 +127,40 @@ def trace_html(trace: Trace, system: str) -> str:
         f"<h3 style='margin:2px 0'>Drop point {e(where)}</h3>",
         f"<p style='margin:2px 0 8px 0;color:#444'>Load <b>{e(trace.load_name)}</b> in lift "
         f"zone <b>{e(trace.zone_id)}</b> · units: {e(system)}</p>",
-        "<table cellspacing='0' cellpadding='4' width='100%' "
-        "style='border-collapse:collapse;border:1px solid #BBB'>",
-        "<tr style='background:#ECECE8'><th align='left'>#</th><th align='left'>Step</th>"
-        "<th align='left'>Formula</th><th align='left'>With numbers</th>"
-        "<th align='left'>Result</th><th align='left'>Source</th></tr>",
     ]
-    for i, (title, formula, numbers, result, source) in enumerate(step_rows(trace, system), 1):
-        bg = "#FFFFFF" if i % 2 else "#F6F6F2"
-        out.append(
-            f"<tr style='background:{bg}'><td valign='top'>{i}</td>"
-            f"<td valign='top'>{e(title)}</td>"
-            f"<td valign='top'><code>{e(formula)}</code></td>"
-            f"<td valign='top'><code>{e(numbers)}</code></td>"
-            f"<td valign='top'><b>{e(result)}</b></td>"
-            f"<td valign='top' style='color:#555'>{e(source)}</td></tr>")
-    if not trace.steps:
-        out.append("<tr><td colspan='6'><i>The solver returned no steps for this point."
-                   "</i></td></tr>")
-    out.append("</table>")
+    rows = step_rows(trace, system)
+    if narrow:
+        _, _, h_formula, h_numbers, h_result, h_source = COLUMN_HEADS
+        for i, (title, formula, numbers, result, source) in enumerate(rows, 1):
+            bg = "#FFFFFF" if i % 2 else "#F6F6F2"
+            out.append(
+                f"<table cellspacing='0' cellpadding='3' width='100%' "
+                f"style='background:{bg};border-top:1px solid #CCC'><tr><td>"
+                f"<b>{i}. {e(title)}</b><br>"
+                f"<span style='color:#555'>{h_formula}:</span> <code>{e(formula)}</code><br>"
+                f"<span style='color:#555'>{h_numbers}:</span> <code>{e(numbers)}</code><br>"
+                f"<span style='color:#555'>{h_result}:</span> <b>{e(result)}</b><br>"
+                f"<span style='color:#555'>{h_source}: {e(source)}</span></td></tr></table>")
+        if not trace.steps:
+            out.append("<p><i>The solver returned no steps for this point.</i></p>")
+    else:
+        out.append("<table cellspacing='0' cellpadding='4' width='100%' "
+                   "style='border-collapse:collapse;border:1px solid #BBB'>")
+        out.append("<tr style='background:#ECECE8'>"
+                   + "".join(f"<th align='left'>{h}</th>" for h in COLUMN_HEADS) + "</tr>")
+        for i, (title, formula, numbers, result, source) in enumerate(rows, 1):
+            bg = "#FFFFFF" if i % 2 else "#F6F6F2"
+            out.append(
+                f"<tr style='background:{bg}'><td valign='top'>{i}</td>"
+                f"<td valign='top'>{e(title)}</td>"
+                f"<td valign='top'><code>{e(formula)}</code></td>"
+                f"<td valign='top'><code>{e(numbers)}</code></td>"
+                f"<td valign='top'><b>{e(result)}</b></td>"
+                f"<td valign='top' style='color:#555'>{e(source)}</td></tr>")
+        if not trace.steps:
+            out.append("<tr><td colspan='6'><i>The solver returned no steps for this point."
+                       "</i></td></tr>")
+        out.append("</table>")
     ink = style.ink_on(st.fill_color()).name()
     gov = []
     if trace.governing_member:
@@ -174,6 +202,7 @@ class TracePanel(QWidget):
         super().__init__(parent)
         self._trace: Trace | None = None
         self._system = "SI"
+        self._narrow = False
         self._title = QLabel("Calculation trace")
         self._title.setStyleSheet("font-weight:bold")
         self._copy = QPushButton("Copy as text")
@@ -199,15 +228,28 @@ class TracePanel(QWidget):
         return self._trace
 
     def show_trace(self, trace: Trace | None, unit_system: str = "SI") -> None:
-        """Render ``trace`` in ``unit_system`` ("SI" or "US")."""
+        """Render ``trace`` in ``unit_system`` ("SI" or "US"), as a table or step by
+        step as the panel's width allows (:data:`WIDE_MIN_EM`)."""
         self._trace = trace
         self._system = unit_system if unit_system in ("SI", "US") else "SI"
+        self._narrow = self.is_narrow()
         if trace is None:
             self.browser.setHtml(f"<p style='color:#666'>{html.escape(PLACEHOLDER)}</p>")
             self._copy.setEnabled(False)
             return
-        self.browser.setHtml(trace_html(trace, self._system))
+        self.browser.setHtml(trace_html(trace, self._system, narrow=self._narrow))
         self._copy.setEnabled(True)
+
+    def is_narrow(self) -> bool:
+        """True when the sheet is written step by step (the panel is narrower than
+        :data:`WIDE_MIN_EM` average characters)."""
+        em = self.browser.fontMetrics().averageCharWidth()
+        return self.browser.viewport().width() < WIDE_MIN_EM * em
+
+    def resizeEvent(self, event: QResizeEvent) -> None:
+        super().resizeEvent(event)
+        if self._trace is not None and self.is_narrow() != self._narrow:
+            self.show_trace(self._trace, self._system)  # the other layout fits now
 
     @property
     def unit_system(self) -> str:

@@ -348,7 +348,7 @@ def _refuse_below_pad(loads: tuple[LiftLoad, ...], li: np.ndarray, level: Level,
     ld = loads[int(li[bad])] if len(loads) > 1 else loads[0]
     need = float(t_mat[bad])
     if ld.drop_height is not None:
-        raise ModelError(f"load {ld.name}.drop_height", ld.drop_height,
+        raise ModelError(f"load {ld.name}.drop_height", float(H[bad]),
                          f"≥ {need:g} m (the load's underside above the top of a pad or "
                          f"mat on level {level.id})", "m")
     raise ModelError(f"load {ld.name}.hook_elevation", ld.hook_elevation,

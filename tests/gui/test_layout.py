@@ -31,7 +31,7 @@ DEMO = ROOT / "demo_projects" / "rooftop_plant_swap.droprig"
 PROBE = r"""
 import json, sys, tempfile
 from pathlib import Path
-from PySide6.QtCore import QSettings
+from PySide6.QtCore import QPoint, QRectF, QSettings
 from PySide6.QtGui import QFontMetrics
 from droprig.gui.app import create_app
 from droprig.gui.document import Document
@@ -65,7 +65,15 @@ rows = view.viewport().height() / max(view.verticalHeader().defaultSectionSize()
 title = win.inspector._title
 legend = win.plan.legend_rect()
 covers = [o for o in win.plan.content_obstacles() if legend.intersects(o)]
+cl = win.caution_label
+right = cl.mapTo(win, QPoint(cl.width(), 0)).x()
+obst = win.plan._crane_obstacles()
+hits = [b.label for b in win.plan.grid_bubbles()
+        if any(o.intersects(QRectF(b.centre.x() - 11, b.centre.y() - 11, 22, 22))
+               for o in obst)]
 print(json.dumps({
+    "caution": [cl.fits(), right, win.width(), cl.text(), cl.toolTip()],
+    "bubble_hits": hits,
     "window": [win.width(), win.height()], "plan": [vp.width(), vp.height()],
     "dpr": win.devicePixelRatioF(), "titles": titles, "rows": rows,
     "inspector_title": [title.width(), title.sizeHint().width(), title.text()],
@@ -98,6 +106,13 @@ def test_1280x720_logical_at_each_scale(scale: str) -> None:
     iw, ineed, text = m["inspector_title"]
     assert iw >= ineed, f"inspector title {text!r} cut"
     assert m["legend_covers"] == 0 or m["legend_collapsed"], m
+    # the status bar's caution is whole, inside the window, and still names the
+    # licensed engineer; the full caution is its tooltip (issue 15: it was cut)
+    fits, right, width, text, tip = m["caution"]
+    assert fits and right <= width, m["caution"]
+    assert "licensed engineer" in text and text.startswith("⚠")
+    assert "local codes" in tip and "appointed lifting person" in tip
+    assert m["bubble_hits"] == [], m  # no grid bubble under the crane (issue 15)
 
 
 def test_small_logical_screen_keeps_panel_titles() -> None:

@@ -316,7 +316,7 @@ def test_unsaved_changes_save_answer_saves(qtbot, monkeypatch: pytest.MonkeyPatc
     win.doc.edit(ed.add_level(win.doc.project, _level()), "Generate framing")
     monkeypatch.setattr(QMessageBox, "warning",
                         lambda *a, **k: QMessageBox.StandardButton.Save)
-    monkeypatch.setattr("droprig.gui.main_window.QFileDialog.getSaveFileName",
+    monkeypatch.setattr("droprig.gui.window_files.QFileDialog.getSaveFileName",
                         lambda *a, **k: (str(path), ""))
     win.actions["new"].trigger()
     assert path.is_file()

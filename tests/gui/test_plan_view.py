@@ -628,3 +628,57 @@ def rect_to_scene_of(state):  # type: ignore[no-untyped-def]
     from droprig.gui.plan_items import rect_to_scene
 
     return rect_to_scene(state.bay.rect)
+
+
+def _bubble_box(c: QPointF, r: float = 11.0):
+    from PySide6.QtCore import QRectF
+
+    return QRectF(c.x() - r, c.y() - r, 2 * r, 2 * r)
+
+
+@pytest.mark.parametrize("where", ["west_of_B", "north_of_2", "corner", "inside"])
+def test_grid_bubbles_keep_clear_of_the_crane(view: PlanView, warehouse_floor: Project,
+                                              where: str) -> None:
+    """Issue 15 at 1280 × 720: the crane symbol covered a grid bubble. A bubble in
+    the way moves out along its own grid line (the crane stays where it stands)."""
+    from dataclasses import replace
+
+    from droprig.gui.plan_view import BUBBLE_OFFSET_PX, CRANE_SYMBOL_RADIUS_PX
+
+    g = warehouse_floor.level("L2").grid
+    view.fit()
+    scale = view.transform().m11()  # px per m
+    off_m = BUBBLE_OFFSET_PX / scale
+    crane = {"west_of_B": (g.x_lines[0] - off_m, g.y_lines[1]),  # on bubble B, west
+             "north_of_2": (g.x_lines[1], g.y_lines[-1] + off_m),  # on bubble 2, north
+             "corner": (g.x_lines[0] - off_m * 0.8, g.y_lines[0] - off_m * 0.9),
+             "inside": (10.0, 5.0)}[where]
+    zone = replace(warehouse_floor.lift_zones[0], crane=crane)
+    view.set_project(replace(warehouse_floor, lift_zones=(zone,)), "L2")
+    bubbles = view.grid_bubbles()
+    assert len(bubbles) == 2 * (len(g.x_lines) + len(g.y_lines))
+    c = view._vp(*crane)
+    k = CRANE_SYMBOL_RADIUS_PX
+    from PySide6.QtCore import QRectF
+
+    symbol = QRectF(c.x() - k, c.y() - k, 2 * k, 2 * k)
+    obstacles = view._crane_obstacles()
+    assert any(o.contains(c) for o in obstacles)
+    for b in bubbles:
+        box = _bubble_box(b.centre)
+        assert not box.intersects(symbol), (b, where)
+        assert not any(box.intersects(o) for o in obstacles), (b, where)
+    # each bubble stays on its own grid line, outside the framing
+    for x, lab in zip(g.x_lines, g.x_labels, strict=True):
+        on = [b for b in bubbles if b.axis == "x" and b.label == lab]
+        assert [round(b.centre.x(), 6) for b in on] == [round(view._vp(x, 0).x(), 6)] * 2
+        top, bot = view._vp(x, g.y_lines[-1]).y(), view._vp(x, g.y_lines[0]).y()
+        assert on[0].centre.y() <= top - BUBBLE_OFFSET_PX + 1e-6
+        assert on[1].centre.y() >= bot + BUBBLE_OFFSET_PX - 1e-6
+    for y, lab in zip(g.y_lines, g.y_labels, strict=True):
+        on = [b for b in bubbles if b.axis == "y" and b.label == lab]
+        assert [round(b.centre.y(), 6) for b in on] == [round(view._vp(0, y).y(), 6)] * 2
+    if where == "west_of_B":  # that bubble did have to move
+        b = next(b for b in bubbles if b.axis == "y" and b.label == g.y_labels[1])
+        assert b.centre.x() < view._vp(g.x_lines[0], 0).x() - BUBBLE_OFFSET_PX - 20
+    view.viewport().grab()  # paints without error

@@ -8,14 +8,19 @@ on presentation and unit conversion, not on engineering values.
 
 from __future__ import annotations
 
+import itertools
+from pathlib import Path
+
 import pytest
 
 from droprig.gui import style
-from droprig.gui.trace_panel import TracePanel, substitute, trace_html
+from droprig.gui.trace_panel import COLUMN_HEADS, TracePanel, substitute, trace_html
 from droprig.solver.results import Trace, TraceStep
 from droprig.texts import CAUTION
 
 pytestmark = pytest.mark.gui
+
+ROOT = Path(__file__).resolve().parents[2]
 
 
 @pytest.fixture
@@ -178,3 +183,72 @@ def test_real_trace_of_the_solver(qtbot) -> None:
     assert style.outcome(trace.response).label in text
     assert CAUTION in text
     assert " nan" not in text.lower() and "(nan" not in text.lower()
+
+
+def _lines(browser) -> list[str]:
+    """Every laid-out line of the browser's document, as text (table cells too)."""
+    doc = browser.document()
+    out = []
+    block = doc.firstBlock()
+    while block.isValid():
+        layout, text = block.layout(), block.text()
+        for i in range(layout.lineCount()):
+            line = layout.lineAt(i)
+            out.append(text[line.textStart():line.textStart() + line.textLength()])
+        block = block.next()
+    return out
+
+
+def _broken_heads(lines: list[str]) -> list[str]:
+    """Column-head words split over two lines ("Ste" / "p"), from the laid-out lines."""
+    words = {w for h in COLUMN_HEADS for w in h.split()}
+    bad = []
+    for a, b in itertools.pairwise(lines):
+        a_end = a.rstrip().split()[-1] if a.strip() else ""
+        b_start = b.lstrip().split()[0] if b.strip() else ""
+        for w in words:
+            for k in range(1, len(w)):
+                if a_end.endswith(w[:k]) and b_start.startswith(w[k:]) and \
+                        not a_end.endswith(w):
+                    bad.append(f"{a!r} / {b!r}")
+    return bad
+
+
+@pytest.mark.parametrize(("width", "narrow"), [(260, True), (330, True), (1100, False)])
+def test_column_heads_never_break_inside_a_word(qtbot, width: int, narrow: bool) -> None:
+    """Issue 15 at 1280 × 720: the trace panel (~255 px) broke its column heads in
+    the middle of a word ("Ste / p", "For / mul / a"). A narrow panel now writes the
+    sheet step by step with the heads as labels; a wide one keeps the table."""
+    from droprig.io.project_file import load_project
+    from droprig.solver import trace_point
+
+    project = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    zone = project.lift_zones[0]
+    x0, y0 = project.levels[0].grid.x_lines[2], project.levels[0].grid.y_lines[1]
+    trace = trace_point(project, zone.id, zone.loads[0].name, x0 + 1.7, y0 + 2.3)
+    panel = TracePanel()
+    qtbot.addWidget(panel)
+    panel.resize(width, 500)
+    panel.show()
+    qtbot.waitExposed(panel)
+    panel.show_trace(trace, "SI")
+    assert panel.is_narrow() is narrow
+    lines = _lines(panel.browser)
+    assert _broken_heads(lines) == []
+    text = panel.browser.toPlainText()
+    for head in COLUMN_HEADS[2:]:
+        assert head in text  # the same words either way
+    for step in trace.steps:
+        assert step.title in text
+    assert CAUTION in text
+    # resizing across the limit changes the layout, same trace
+    panel.resize(1100 if narrow else 260, 500)
+    qtbot.waitUntil(lambda: panel.is_narrow() is not narrow)
+    qtbot.wait(20)
+    assert _broken_heads(_lines(panel.browser)) == []
+    assert panel.trace is trace
+    if narrow:  # the check itself: the six-column table at this width does break them
+        panel.resize(width, 500)
+        qtbot.waitUntil(panel.is_narrow)
+        panel.browser.setHtml(trace_html(trace, "SI", narrow=False))
+        assert _broken_heads(_lines(panel.browser))

@@ -1,0 +1,473 @@
+"""The main window's panels: the plan with its view bar, heading and guide, the
+docked project tree, inspector, results and trace, the status bar, the one
+lift / load filter, and the window geometry stored per screen scale.
+
+A part of :class:`droprig.gui.main_window.MainWindow` (a mixin)."""
+
+from __future__ import annotations
+
+import html
+
+from PySide6.QtCore import QSize, Qt, Signal
+from PySide6.QtGui import QMouseEvent, QResizeEvent, QShowEvent
+from PySide6.QtWidgets import (
+    QComboBox,
+    QDockWidget,
+    QFrame,
+    QHBoxLayout,
+    QLabel,
+    QProgressBar,
+    QScrollArea,
+    QToolButton,
+    QVBoxLayout,
+    QWidget,
+)
+
+from droprig import units
+from droprig.gui import style
+from droprig.gui.document import Selection
+from droprig.gui.inspector import Inspector
+from droprig.gui.project_tree import ProjectTree
+from droprig.gui.results_table import ResultsTable
+from droprig.gui.window_base import WindowParts
+from droprig.gui.window_edits import is_placeholder
+from droprig.model import LiftLoad
+from droprig.texts import CAUTION
+
+BASIS_LABELS = {"en1993": "EN 1993-1-1", "aisc360": "AISC 360-16"}
+UNIT_LABELS = {"SI": "SI (m · kN · kg · MPa)", "US": "US (ft · kip · lb · ksi)"}
+
+
+def screen_scale_tag(screen: object) -> str:
+    """``"scale150"`` for a screen at 150 % (device pixel ratio 1.5); ``"scale100"``
+    when there is no screen."""
+    dpr = float(screen.devicePixelRatio()) if screen is not None else 1.0  # type: ignore[attr-defined]
+    return f"scale{round(dpr * 100)}"
+
+
+CAUTION_VARIANTS: tuple[str, ...] = (
+    style.CAUTION_SHORT,
+    "An aid only — review with the appointed lifting person and a licensed engineer",
+    "Aid only — review with the lifting person and a licensed engineer",
+    "Aid only — review with a licensed engineer",
+    "Caution: aid only",
+)
+"""The status bar's caution, longest first: the label shows the longest that fits
+its width (never cut at the window's edge); the whole caution is its tooltip and a
+click opens Help › Limits of use."""
+
+
+class CautionLabel(QLabel):
+    """The caution in the status bar, as long as the room allows
+    (:data:`CAUTION_VARIANTS`); ``clicked`` when pressed."""
+
+    clicked = Signal()
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(f"⚠ {CAUTION_VARIANTS[0]}", parent)
+        self.setObjectName("cautionLabel")
+        self.setToolTip(f"{CAUTION}\n\nClick for Help › Limits of use.")
+        self.setCursor(Qt.CursorShape.PointingHandCursor)
+        self.setStyleSheet(
+            "QLabel#cautionLabel { background: #FFF1CC; color: #3D2800; "
+            "border: 1px solid #C9A23A; border-radius: 3px; padding: 1px 6px; "
+            "font-weight: 600; }")
+
+    @staticmethod
+    def variants() -> list[str]:
+        return [f"⚠ {v}" for v in CAUTION_VARIANTS]
+
+    def _need(self, text: str) -> int:
+        """Width (px) the label needs to show ``text`` whole."""
+        frame = self.width() - self.contentsRect().width()
+        return self.fontMetrics().horizontalAdvance(text) + max(frame, 0) + 2
+
+    def fits(self) -> bool:
+        """True when the text on show fits the label's width."""
+        return self.fontMetrics().horizontalAdvance(self.text()) <= \
+            self.contentsRect().width()
+
+    def sizeHint(self) -> QSize:
+        hint = super().sizeHint()
+        return QSize(self._need(self.variants()[0]), hint.height())
+
+    def minimumSizeHint(self) -> QSize:
+        hint = super().minimumSizeHint()
+        return QSize(self._need(self.variants()[-1]), hint.height())
+
+    def resizeEvent(self, event: QResizeEvent) -> None:
+        super().resizeEvent(event)
+        room = self.contentsRect().width()
+        fm = self.fontMetrics()
+        texts = self.variants()
+        text = next((t for t in texts if fm.horizontalAdvance(t) <= room), texts[-1])
+        if text != self.text():
+            self.setText(text)
+
+    def mousePressEvent(self, event: QMouseEvent) -> None:
+        if event.button() == Qt.MouseButton.LeftButton:
+            self.clicked.emit()
+        super().mousePressEvent(event)
+
+
+class PanelsMixin(WindowParts):
+    """The main window's panels."""
+
+    def _make_central(self) -> None:
+        from droprig.gui.plan_view import PlanView
+
+        self.plan = PlanView(self.doc)
+        self.plan.setObjectName("planView")
+
+        self.level_combo = QComboBox()
+        self.level_combo.setToolTip("Level shown in the plan")
+        self.overlay_combo = QComboBox()
+        for mode, label in style.OVERLAYS.items():
+            self.overlay_combo.addItem(label, mode)
+        self.overlay_combo.setToolTip("What the bays and drop points are coloured by")
+        self.case_combo = QComboBox()
+        self.case_combo.setToolTip("Which lift and load the plan shows")
+        self.case_combo.setMinimumContentsLength(22)
+        draw_btn = QToolButton()
+        draw_btn.setDefaultAction(self.actions["draw_protection"])
+        fit_btn = QToolButton()
+        fit_btn.setDefaultAction(self.actions["fit"])
+
+        bar = QWidget()
+        bar.setObjectName("viewBar")
+        h = QHBoxLayout(bar)
+        h.setContentsMargins(6, 4, 6, 4)
+        self._level_label = QLabel("Level:")
+        h.addWidget(self._level_label)
+        h.addWidget(self.level_combo)
+        h.addSpacing(10)
+        h.addWidget(QLabel("Colour by:"))
+        h.addWidget(self.overlay_combo)
+        h.addSpacing(10)
+        h.addWidget(QLabel("Lift:"))
+        h.addWidget(self.case_combo)
+        h.addStretch(1)
+        h.addWidget(draw_btn)
+        h.addWidget(fit_btn)
+
+        self.guide = QWidget()
+        self.guide.setObjectName("guideBar")
+        self.guide.setStyleSheet("QWidget#guideBar { background: #E3EEF7; "
+                                 "border-bottom: 1px solid #9CB8D3; }")
+        g = QHBoxLayout(self.guide)
+        g.setContentsMargins(8, 5, 8, 5)
+        self.guide_text = QLabel()
+        self.guide_text.setObjectName("guideText")
+        self.guide_text.setStyleSheet("color: #0B2E4F;")
+        self.guide_text.setWordWrap(True)  # a long hint wraps, never widens the window
+        self.guide_button = QToolButton()
+        g.addWidget(self.guide_text, 1)
+        g.addWidget(self.guide_button)
+
+        self.plan_heading = QLabel()
+        self.plan_heading.setObjectName("planHeading")
+        self.plan_heading.setWordWrap(True)
+        self.plan_heading.setTextFormat(Qt.TextFormat.RichText)
+        self.plan_heading.setStyleSheet("QLabel#planHeading { background: #F4F4F0; "
+                                        "color: #1E1E1E; padding: 3px 8px; "
+                                        "border-bottom: 1px solid #CFCFC8; }")
+
+        # a notice the user dismisses (a file converted from an older format)
+        self.notice = QWidget()
+        self.notice.setObjectName("noticeBar")
+        self.notice.setStyleSheet("QWidget#noticeBar { background: #FFF1CC; "
+                                  "border-bottom: 1px solid #C9A23A; }")
+        nb = QHBoxLayout(self.notice)
+        nb.setContentsMargins(8, 5, 8, 5)
+        self.notice_text = QLabel()
+        self.notice_text.setObjectName("noticeText")
+        self.notice_text.setStyleSheet("color: #3D2800;")
+        self.notice_text.setWordWrap(True)
+        self.notice_text.setTextFormat(Qt.TextFormat.RichText)
+        self.notice_text.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+        self.notice_dismiss = QToolButton()
+        self.notice_dismiss.setObjectName("noticeDismiss")
+        self.notice_dismiss.setText("Dismiss")
+        self.notice_dismiss.setToolTip("Hide this notice")
+        self.notice_dismiss.clicked.connect(self.dismiss_notice)
+        # at most NOTICE_LINES lines high: a long list scrolls, the plan keeps its room
+        scroll = QScrollArea()
+        scroll.setObjectName("noticeScroll")
+        scroll.setWidget(self.notice_text)
+        scroll.setWidgetResizable(True)
+        scroll.setFrameShape(QFrame.Shape.NoFrame)
+        scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        scroll.setStyleSheet("QScrollArea#noticeScroll, QScrollArea#noticeScroll > QWidget "
+                             "> QWidget { background: transparent; }")
+        scroll.setMaximumHeight(self.fontMetrics().lineSpacing() * self.NOTICE_LINES + 6)
+        self.notice_scroll = scroll
+        nb.addWidget(scroll, 1)
+        nb.addWidget(self.notice_dismiss, 0, Qt.AlignmentFlag.AlignTop)
+        self.notice.hide()
+
+        central = QWidget()
+        v = QVBoxLayout(central)
+        v.setContentsMargins(0, 0, 0, 0)
+        v.setSpacing(0)
+        v.addWidget(bar)
+        v.addWidget(self.notice)
+        v.addWidget(self.plan_heading)
+        v.addWidget(self.guide)
+        v.addWidget(self.plan, 1)
+        self.setCentralWidget(central)
+
+    NOTICE_ITEMS = 3
+    """Notes listed in the notice bar; the rest are counted and listed on hover."""
+    NOTICE_LINES = 5
+    """Text lines the notice bar shows at most (more scroll inside it)."""
+
+    def show_notice(self, heading: str, items: tuple[str, ...] | list[str] = ()) -> None:
+        """A notice above the plan (plain ``heading`` and ``items``) until the user
+        dismisses it or the project changes by new / open / close."""
+        e = html.escape
+        shown = list(items)[:self.NOTICE_ITEMS]
+        more = len(items) - len(shown)
+        body = "".join(f"<li>{e(t)}</li>" for t in shown)
+        if more:
+            body += f"<li>… and {more} more (hover to read them all)</li>"
+        self.notice_text.setText(f"<b>⚠ {e(heading)}</b>"
+                                 + (f"<ul style='margin:2px 0 0 -20px'>{body}</ul>"
+                                    if body else ""))
+        self.notice_text.setToolTip("\n\n".join(items) if more else "")
+        self.notice.show()
+
+    def dismiss_notice(self) -> None:
+        """Hide the notice bar."""
+        self.notice.hide()
+        self.notice_text.clear()
+
+    def _dock(self, name: str, title: str, widget: QWidget,
+              area: Qt.DockWidgetArea) -> QDockWidget:
+        d = QDockWidget(title, self)
+        d.setObjectName(f"dock_{name}")
+        d.setWidget(widget)
+        d.setFeatures(QDockWidget.DockWidgetFeature.DockWidgetMovable
+                      | QDockWidget.DockWidgetFeature.DockWidgetFloatable
+                      | QDockWidget.DockWidgetFeature.DockWidgetClosable)
+        self.addDockWidget(area, d)
+        return d
+
+    def _make_docks(self) -> None:
+        from droprig.gui.trace_panel import TracePanel
+
+        self.tree = ProjectTree(self.doc, self.actions)
+        self.inspector = Inspector(self.doc, self.actions)
+        self.results_table = ResultsTable(self.doc)
+        self.trace_panel = TracePanel()
+        self.tree_dock = self._dock("project", "Project", self.tree,
+                                    Qt.DockWidgetArea.LeftDockWidgetArea)
+        self.inspector_dock = self._dock("inspector", "Inspector", self.inspector,
+                                         Qt.DockWidgetArea.RightDockWidgetArea)
+        self.results_dock = self._dock("results", "Results by bay", self.results_table,
+                                       Qt.DockWidgetArea.BottomDockWidgetArea)
+        self.trace_dock = self._dock("trace", "Calculation trace", self.trace_panel,
+                                     Qt.DockWidgetArea.BottomDockWidgetArea)
+        self.splitDockWidget(self.results_dock, self.trace_dock, Qt.Orientation.Horizontal)
+        self._set_dock_minimums()
+        self._default_layout_pending = True
+
+    def _apply_default_dock_sizes(self) -> None:
+        """First start at this screen scale (no saved layout): side panels wide
+        enough for their titles and a form, the results a third of the height on
+        a tall window and 27 % on a short one (1280 × 720, or a large screen
+        at 150–200 %), the rest to the plan."""
+        w = max(self.width(), 800)
+        h = max(self.height(), 480)
+        tree_w = max(int(w * 0.15), self.tree_dock.minimumWidth())
+        insp_w = max(int(w * 0.23), self.inspector_dock.minimumWidth())
+        self.resizeDocks([self.tree_dock, self.inspector_dock], [tree_w, insp_w],
+                         Qt.Orientation.Horizontal)
+        self.resizeDocks([self.results_dock], [int(h * (0.32 if h >= 900 else 0.27))],
+                         Qt.Orientation.Vertical)
+        self.resizeDocks([self.results_dock, self.trace_dock], [int(w * 0.62), int(w * 0.38)],
+                         Qt.Orientation.Horizontal)
+
+    def _set_dock_minimums(self) -> None:
+        """No panel narrower than its title and buttons (titles are never cut to
+        "…"), and the side forms wide enough for a label and a value."""
+        for d in (self.tree_dock, self.inspector_dock, self.results_dock, self.trace_dock):
+            fm = d.fontMetrics()
+            bold = d.font()
+            bold.setBold(True)
+            from PySide6.QtGui import QFontMetrics
+
+            title = QFontMetrics(bold).horizontalAdvance(d.windowTitle())
+            d.setMinimumWidth(title + 2 * fm.height() + 40)  # float + close buttons
+        em = self.fontMetrics().averageCharWidth()
+        self.tree_dock.setMinimumWidth(max(self.tree_dock.minimumWidth(), 18 * em))
+        self.inspector_dock.setMinimumWidth(max(self.inspector_dock.minimumWidth(), 30 * em))
+
+    def showEvent(self, event: QShowEvent) -> None:
+        super().showEvent(event)
+        if self._default_layout_pending:
+            self._default_layout_pending = False
+            self._apply_default_dock_sizes()
+
+    def _make_status_bar(self) -> None:
+        sb = self.statusBar()
+        sb.setObjectName("statusBar")
+        self.units_label = QLabel()
+        self.units_label.setObjectName("unitsLabel")
+        self.basis_label = QLabel()
+        self.basis_label.setObjectName("basisLabel")
+        self.state_label = QLabel()
+        self.state_label.setObjectName("analysisState")
+        self.busy = QProgressBar()
+        self.busy.setObjectName("busyIndicator")
+        self.busy.setRange(0, 0)
+        self.busy.setFixedWidth(70)
+        self.busy.setFixedHeight(12)
+        self.busy.setTextVisible(False)
+        self.busy.hide()
+        self.caution_label = CautionLabel()
+        self.caution_label.clicked.connect(self.actions["caution"].trigger)
+        for w in (self.units_label, self.basis_label, self.busy, self.state_label):
+            sb.addPermanentWidget(w)
+        sb.addPermanentWidget(self.caution_label, 1)
+
+    def _update_guide(self) -> None:
+        """Tell a new user the next step until the project can be assessed."""
+        p = self.doc.project
+        if not p.levels:
+            text, action = ("<b>Start here:</b> build the floor from its column grid and "
+                            "sections, or open a saved project (File › Open).", "generate")
+        elif not any(z.level_id == self.doc.level_id for z in p.lift_zones):
+            text, action = ("<b>Next:</b> place the crane and the region its load swings "
+                            "over this level.", "add_zone")
+        elif not any(z.loads for z in p.lift_zones):
+            text, action = ("<b>Next:</b> give the lift zone the load (and rigging) that "
+                            "could drop.", "add_load")
+        elif self._placeholder() is not None:
+            zid, ld = self._placeholder()  # type: ignore[misc]
+            s = p.settings.unit_system
+            text, action = (
+                f"<b>Next:</b> {html.escape(ld.name)} (zone {html.escape(zid)}) still has "
+                f"its starting values: {units.fmt(ld.mass, 'mass', s)}, "
+                f"{units.fmt(ld.drop_height, 'length', s)} fall, rigid, "
+                f"{units.fmt(ld.footprint_length, 'length', s)} × "
+                f"{units.fmt(ld.footprint_width, 'length', s)} footprint. Enter the "
+                "planned load.", "edit_load")
+        else:
+            self.guide.hide()
+            return
+        self.guide_text.setText(text)
+        self.guide_button.setDefaultAction(self.actions[action])
+        self.guide.show()
+
+    def _placeholder(self) -> tuple[str, LiftLoad] | None:
+        """(zone id, load) of the first load on the level shown that still has
+        the starting values of :func:`placeholder_load`."""
+        for z in self.doc.project.lift_zones:
+            if z.level_id == self.doc.level_id:
+                for ld in z.loads:
+                    if is_placeholder(ld):
+                        return z.id, ld
+        return None
+
+    def edit_placeholder_load(self) -> None:
+        """Select the load that still has its starting values, for the inspector."""
+        found = self._placeholder()
+        if found is not None:
+            self.doc.select(Selection("load", (found[0], found[1].name)))
+            self.inspector_dock.show()
+            self.inspector_dock.raise_()
+
+    def _fill_level_combo(self) -> None:
+        p = self.doc.project
+        self.level_combo.blockSignals(True)
+        self.level_combo.clear()
+        for lv in p.levels:
+            self.level_combo.addItem(lv.name, lv.id)
+        self.level_combo.setCurrentIndex(self.level_combo.findData(self.doc.level_id))
+        self.level_combo.blockSignals(False)
+        multi = len(p.levels) > 1
+        self.level_combo.setVisible(multi)
+        self._level_label.setVisible(multi)
+
+    def _fill_case_combo(self) -> None:
+        current = self.doc.case
+        self.case_combo.blockSignals(True)
+        self.case_combo.clear()
+        self.case_combo.addItem("All lifts — worst per bay", None)
+        for z in self.doc.project.lift_zones:
+            for ld in z.loads:
+                label = f"{z.id} {z.name} · {ld.name}".replace("  ", " ")
+                self.case_combo.addItem(label, (z.id, ld.name))
+        # QComboBox.findData compares Python tuples by identity: match by value
+        keep = next((i for i in range(self.case_combo.count())
+                     if self.case_combo.itemData(i) == current), 0)
+        self.case_combo.setCurrentIndex(keep)
+        self.case_combo.blockSignals(False)
+        if self.case_combo.currentData() != current:
+            self._on_case_chosen(self.case_combo.currentIndex())
+
+    def _on_case_chosen(self, _index: int) -> None:
+        data = self.case_combo.currentData()
+        self.doc.set_case(None if data is None else (data[0], data[1]))
+
+    def _on_case_changed(self, case: tuple[str, str] | None) -> None:
+        """The one lift / load filter changed: the combo and the heading follow
+        (the plan and the table follow the document themselves)."""
+        i = next((k for k in range(self.case_combo.count())
+                  if self.case_combo.itemData(k) == case), 0)
+        if i != self.case_combo.currentIndex():
+            self.case_combo.blockSignals(True)
+            self.case_combo.setCurrentIndex(i)
+            self.case_combo.blockSignals(False)
+        self._update_heading()
+
+    def set_overlay(self, mode: str) -> None:
+        self.plan.set_overlay(mode)
+        self.overlay_combo.setCurrentIndex(self.overlay_combo.findData(mode))
+        for m in style.OVERLAYS:
+            self.actions[f"overlay_{m}"].setChecked(m == mode)
+        self._update_heading()
+
+    def plan_heading_text(self) -> str:
+        """One line over the plan saying what it shows, in plain words: the level,
+        what the colours stand for, which lift and load, and where the key and the
+        caution are (for a first-time reader). Plain text."""
+        p = self.doc.project
+        lv = self.doc.level
+        if lv is None:
+            return "No level yet: build the floor framing first."
+        shown = {"outcome": "bays coloured by outcome (E stays elastic, Y yields within "
+                            "limits, X exceeds limits)",
+                 "utilisation": "drop points coloured by utilisation U = demand / "
+                                "resistance (above 1.00 a check is exceeded)",
+                 "drop_height": "drop points coloured by the allowable drop height"
+                 }.get(self.plan.overlay, self.plan.overlay)
+        data = self.case_combo.currentData()
+        if data is None:
+            n = sum(len(z.loads) for z in p.lift_zones if z.level_id == lv.id)
+            which = (f"worst of all {n} load(s) of every lift zone on this level"
+                     if n else "no lift zone with a load on this level yet")
+        else:
+            zid, load_name = data
+            which = f"lift {zid}, load {load_name}"
+            try:
+                z = p.zone(zid)
+                ld = next(x for x in z.loads if x.name == load_name)
+                which = (f"lift {z.id} ({z.name}), load {ld.name}: "
+                         f"{units.fmt(ld.mass, 'mass', p.settings.unit_system)}")
+                case = next((c for c in (self.doc.results.cases if self.doc.results else ())
+                             if (c.zone_id, c.load_name) == data), None)
+                if case is not None:
+                    which += (", planned drop "
+                              + units.fmt(case.planned_drop_height, "length",
+                                          p.settings.unit_system))
+            except (KeyError, StopIteration):
+                pass
+        state = "" if self.doc.results_current else " Results are being updated."
+        name = lv.name if lv.name.lower().startswith("level") else f"Level {lv.name}"
+        return (f"{name}: {shown}; {which}. Key in a corner of the plan; "
+                f"the caution is under the plan.{state}")
+
+    def _update_heading(self) -> None:
+        if hasattr(self, "plan_heading"):
+            self.plan_heading.setText(html.escape(self.plan_heading_text()))
