@@ -50,7 +50,8 @@ def test_converted_file_shows_the_notice_status_and_log(qtbot, open_window, tmp_
     assert win.doc.open_notes and len(win.doc.open_notes) == 1
     assert win.notice.isVisible()
     text = win.notice_text.text()
-    assert "old_site.droprig" in text and "older droprig file format" in text and "then save" in text
+    assert "old_site.droprig" in text and "older droprig file format" in text
+    assert "then save" in text
     assert names[0] in text and "finished surface" in text
     assert "converted from an older file format" in win.statusBar().currentMessage()
     logged = [r.getMessage() for r in caplog.records if r.name == "droprig.gui"]
