@@ -432,8 +432,7 @@ def compliance(c: Chain) -> Compliance:
     basis = d.fm.settings.design_basis
     width = deck.deck_effective_width(span, pos, np.maximum(inp.foot_l, inp.foot_w),
                                       lv.deck.thickness)
-    EI = contact.concrete_modulus(lv.deck.concrete.fc, basis) * width \
-        * lv.deck.thickness**3 / 12.0
+    EI = contact.deck_strip_EI(lv.deck, width, basis)
     k_l, k_r = strip_restraint(c, EI)
     # the restrained strip once, at EI = 1 (K/EI): deflection and moment under the load
     # (slab.continuous_strip_end_moments; the compliance scales as 1/EI)
@@ -548,16 +547,24 @@ def impact(c: Chain) -> Impact:
     # droprig.solver.crushing); the crushing absorbs F_crush·c; crushing deeper than
     # the cover reaches the bars: the rest of the energy is then taken elastically
     lv = d.fm.level
-    F_crush = crushing.concrete_bearing_pressure(
-        lv.deck.concrete.fc, inp.foot_l, inp.foot_w, lv.deck.thickness,
-        d.fm.settings.design_basis) * inp.foot_l * inp.foot_w
+    if lv.deck.is_steel:
+        # a steel plate or grating yields under the footprint at p = 3·fy (Tabor's
+        # constraint, Johnson ch. 6); "through" once the indentation passes the plate
+        F_crush = (crushing.steel_indentation_pressure(lv.deck.steel_fy)
+                   * inp.foot_l * inp.foot_w)
+        depth_available = lv.deck.thickness
+    else:
+        F_crush = crushing.concrete_bearing_pressure(
+            lv.deck.concrete.fc, inp.foot_l, inp.foot_w, lv.deck.thickness,
+            d.fm.settings.design_basis) * inp.foot_l * inp.foot_w
+        depth_available = lv.deck.cover
     deck_crush = np.zeros(n)
     deck_through = np.zeros(n, dtype=bool)
     cap = ~crushable & (F > F_crush)
     if cap.any():
         Fb, dep, thr = crushing.crushing_limited_impact(W[cap], inp.h[cap], comp.f[cap],
                                                         sm.eta[cap], F_crush[cap],
-                                                        lv.deck.cover)
+                                                        depth_available)
         F[cap] = Fb
         deck_crush[cap] = dep
         deck_through[cap] = thr
@@ -1082,7 +1089,8 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     # F_crush while the concrete crushes and passes F_crush only once the crushing has
     # gone through the cover (impact step, crushing_limited_impact): the height at
     # which the force then reaches F_allow takes the crushing work (F_crush − W)·cover
-    cover = d.fm.level.deck.cover
+    dk = d.fm.level.deck
+    cover = dk.thickness if dk.is_steel else dk.cover  # as the impact step's depth
     h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow), imp.F_crush,
                              np.full(d.n, cover), W, eta)
     # plastic: ductility and rotation limits, brittle checks at R_p

@@ -76,6 +76,20 @@ def deck_local_compliance(deck: Deck, footprint_l: ArrayLike, footprint_w: Array
     return 1.0 / flat_punch_stiffness(E, POISSON_CONCRETE, area)
 
 
+def deck_strip_EI(deck: Deck, width: ArrayLike, basis: str) -> np.ndarray:
+    """Bending stiffness of a deck strip of ``width`` (m), N·m²: the gross uncracked
+    concrete section E_c·width·h³/12 (E_c by the design basis, stiffer than the cracked
+    slab: a higher, conservative impact force); a steel plate E_s·width·t³/12; a
+    grating its bearing bars E_s·width·t_b·h³/(12·p) (bars p apart, cross bars left
+    out). Gere 7th ed. §5.5 (I of a rectangle)."""
+    width = np.asarray(width, float)
+    if deck.kind == "steel_plate":
+        return E_STEEL * width * deck.thickness**3 / 12.0
+    if deck.kind == "grating":
+        return E_STEEL * width * deck.bar_thickness * deck.thickness**3 / (12.0 * deck.bar_pitch)
+    return concrete_modulus(deck.concrete.fc, basis) * width * deck.thickness**3 / 12.0
+
+
 def deck_strip_compliance(deck: Deck, span: ArrayLike, a: ArrayLike, width: ArrayLike,
                           basis: str) -> np.ndarray:
     """Deflection under a unit load at ``a`` of the one-way slab strip (simply
@@ -88,13 +102,7 @@ def deck_strip_compliance(deck: Deck, span: ArrayLike, a: ArrayLike, width: Arra
     E_s·width·t_b·h³/(12·p) (bars p apart, cross bars left out).
     """
     span, a, width = np.broadcast_arrays(*(np.asarray(v, float) for v in (span, a, width)))
-    if deck.kind == "steel_plate":
-        EI = E_STEEL * width * deck.thickness**3 / 12.0
-    elif deck.kind == "grating":
-        EI = E_STEEL * width * deck.bar_thickness * deck.thickness**3 / (12.0 * deck.bar_pitch)
-    else:
-        E = concrete_modulus(deck.concrete.fc, basis)
-        EI = E * width * deck.thickness**3 / 12.0
+    EI = deck_strip_EI(deck, width, basis)
     x = np.clip(a, 0.0, span)
     with np.errstate(divide="ignore", invalid="ignore"):
         f = np.where(span > 0.0, x**2 * (span - x) ** 2 / (3.0 * EI * span), 0.0)

@@ -201,3 +201,28 @@ def test_preflight_names_the_load_too_small_for_a_grating() -> None:
                         f"{info.value}"]
     with pytest.raises(ModelError):
         analyse(p)
+
+
+def test_plate_contact_force_bounded_by_the_plate_yielding_under_the_footprint() -> None:
+    # A steel deck has no concrete to crush: the contact force is bounded where the
+    # plate yields under the footprint, mean pressure 3·f_y (Tabor's constraint;
+    # Johnson, *Contact Mechanics* ch. 6 — from memory), F_crush = 3·f_y·A, and the
+    # "through" depth is the plate thickness, not a concrete cover.
+    from droprig.io.project_file import load_project
+    from droprig.solver import analysis, evaluate
+    from droprig.solver.chain import Impact, LoadInputs
+
+    p = load_project(ROOT / "demo_projects" / "two_level_rigging.droprig")
+    roof = dataclasses.replace(p.level("RF"), deck=PLATE)
+    p = dataclasses.replace(p, levels=(roof, p.level("L3")))
+    zone = next(z for z in p.lift_zones if z.level_id == "RF")
+    load = next(ld for ld in zone.loads if ld.name == "Hook block 12 t")
+    fm = analysis.build_floor(roof, p.settings)
+    ext = roof.grid.extent
+    x = np.array([0.5 * (ext.x0 + ext.x1)])
+    y = np.array([0.5 * (ext.y0 + ext.y1)])
+    c = evaluate.evaluate_chain(fm, p, load, analysis.point_geometry(fm, p, x, y))
+    inp, imp = c[LoadInputs], c[Impact]
+    area = inp.foot_l * inp.foot_w
+    assert imp.F_crush == pytest.approx(3.0 * 235e6 * area, rel=REL)
+    assert np.all(imp.F <= imp.F_crush * (1 + 1e-9) + 1.0) or np.all(imp.deck_through)
