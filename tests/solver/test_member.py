@@ -416,3 +416,31 @@ def test_settings_ranges_name_the_option(ipe300: Section, s355: Grade, kw: dict,
     L = args.pop("L")
     with pytest.raises(ModelError, match=f"^{name}:"):
         assess_member(ipe300, s355, "simple", L, 3.0, 500.0, 0.3, basis="en1993", **args)
+
+
+def test_utilisation_is_the_largest_elastic_ratio(ipe300: Section, s355: Grade) -> None:
+    """Beyond the flexural resistance the reported utilisation is the largest elastic
+    demand over resistance (as the floor analysis), here web local yielding: droprig
+    check used to report flexure's 4.6 beside a governing web check of 6.2. Hand
+    values at the elastic force F = K·W: fixed-end beam with a point load at a, AISC
+    Manual 15th ed. Table 3-23 case 16 (M = 2Pa²b²/L³ under the load, Pab²/L² and
+    Pa²b/L² at the ends; R1 = Pb²(3a + b)/L³, R2 = Pa²(a + 3b)/L³); resistances by
+    droprig.solver.capacity (EN 1993-1-1 6.2.5/6.2.6, EN 1993-1-5 §6: tested in
+    test_capacity.py)."""
+    from droprig.solver import capacity
+
+    L, a, M, h = 3.0, 1.0, 3000.0, 0.5
+    b = L - a
+    r = assess_member(ipe300, s355, "fixed", L, a, M, h, basis="en1993", self_weight=False)
+    F = r["dynamic_factor"] * M * G
+    Mmax = max(2 * F * a**2 * b**2 / L**3, F * a * b**2 / L**2, F * a**2 * b / L**2)
+    V = max(F * b**2 * (3 * a + b) / L**3, F * a**2 * (a + 3 * b) / L**3)
+    ratios = {
+        "flexure": Mmax / capacity.flexural_resistance(ipe300, s355, "en1993"),
+        "shear": V / capacity.shear_resistance(ipe300, s355, "en1993"),
+        "web_yielding": F / float(capacity.web_local_yielding(ipe300, s355, "en1993", 0.0,
+                                                              min(a, b))),
+    }
+    assert ratios["web_yielding"] > ratios["flexure"] > 1.0
+    assert r["utilisation"] == pytest.approx(max(ratios.values()), rel=1e-9)
+    assert r["governing_check"] == "web_yielding" and r["response"] == "exceeds"
