@@ -318,7 +318,7 @@ def _result(c: Chain, cond: beam.EndCondition, L: float, a: float) -> dict[str, 
     out["max_shear"] = _at(chk["shear"], F_pk) * float(fm.Vr[0])
     # the struck-point mass, also where a cushion or a layer leaves it unused (η = 1)
     m_path = c.drop.geo.path.m_e if fm.settings.include_member_mass else np.zeros(1)
-    out["effective_mass"] = float(impact.struck_point_mass(m_path, comp.f_s,
+    out["effective_mass"] = float(impact.struck_point_mass(m_path, comp.f_s - comp.f_col,
                                                            comp.f_struct)[0])
     out["deceleration_g"] = float(impact.deceleration_g(F_pk, W))
     out["utilisation"] = float(ck.U[0])
