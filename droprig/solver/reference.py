@@ -34,10 +34,12 @@ fast kernels of :mod:`droprig.solver.unit_actions` and
 * a check family at a force F: U = max_c |F·u_c + E_c|/R_c and
   F_allow = min_c (R_c − sign(u_c)·E_c)/|u_c| (∞ where u_c = 0, −1 where |E_c| > R_c;
   common practice, no source);
-* plastic reserve of the path R_p: per deck member the first-yield force (least
-  F_allow of its flexure rows), for a fixed or propped member at least the
-  virtual-work collapse load with M_p − |M_0(a)| over its share; per support
-  member its first-yield force; R_p the least (≥ 0);
+* plastic reserve of the path R_p: per deck member carrying no other member the
+  virtual-work collapse load of the point load with its existing UDL over its share
+  (:func:`droprig.solver.beam.plastic_collapse_load_udl`); per deck member carrying
+  others the first-yield force (least F_allow of its flexure rows), for a fixed or
+  propped member at least the collapse load with M_p − |M_0(a)|; per support member
+  its first-yield force; R_p the least (≥ 0);
 * web resistances under the load per point (:func:`droprig.solver.capacity.web_local_yielding`,
   :func:`~droprig.solver.capacity.web_crippling`; AISC 360-16 J10.2/J10.3,
   EN 1993-1-5 §6) at the distance max(min(a, L − a) − l_b/2, 0) from the nearer end.
@@ -311,6 +313,13 @@ def _plastic_reserve_reference(fm: FloorModel, flexure: CandidatesReference,
             indeterminate = (cond[k] == COND_NAMES.index("fixed")) | (
                 cond[k] == COND_NAMES.index("propped"))
             Rp[src] = np.where(indeterminate, np.maximum(first_yield, Pc), first_yield)
+            # a member carrying no other: its own UDL in the mechanism (exact)
+            carries = np.array([fm.frame.nodes_on[int(m)].size > 0 for m in mem[k]])
+            Pu = by_condition(beam.plastic_collapse_load_udl, cond[k], L[k], a[k],
+                              fm.Mr[mem[k]], fm.w0[mem[k]])
+            with np.errstate(divide="ignore", invalid="ignore"):
+                Pu = np.where(share[k] > 0, Pu / share[k], np.inf)
+            Rp[src] = np.where(carries, Rp[src], Pu)
             arm[src] = np.where(cond[k] == COND_NAMES.index("cantilever"), a[k],
                                 np.minimum(a[k], L[k] - a[k]))
         else:
