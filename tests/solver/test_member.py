@@ -444,3 +444,21 @@ def test_utilisation_is_the_largest_elastic_ratio(ipe300: Section, s355: Grade) 
     assert ratios["web_yielding"] > ratios["flexure"] > 1.0
     assert r["utilisation"] == pytest.approx(max(ratios.values()), rel=1e-9)
     assert r["governing_check"] == "web_yielding" and r["response"] == "exceeds"
+
+
+def test_plastic_reserve_with_existing_udl_is_the_mechanism(ipe300: Section,
+                                                            s355: Grade) -> None:
+    """A fixed beam struck at midspan while carrying a UDL w yields at the collapse load
+    of the mechanism with hinges at the ends and under the load, P·δ + w·L·δ/2 =
+    4·Mp·(2δ/L): R_p = 8Mp/L − wL/2 (virtual work; Neal, The Plastic Methods of
+    Structural Analysis). Beyond yield the member passes on R_p, so that is the peak
+    force. (The floor chain used to take 8(Mp − wL²/24)/L, wL/6 too high, before it
+    took the member's own UDL into the mechanism.)"""
+    from droprig.solver import capacity
+
+    L, w = 6.0, 20e3
+    Mp = capacity.flexural_resistance(ipe300, s355, "en1993")
+    r = assess_member(ipe300, s355, "fixed", L, L / 2, 1500.0, 0.3, basis="en1993",
+                      self_weight=False, udl=w, bearing=0.2)
+    assert r["response"] == "plastic" and r["governing_check"] == "flexure"
+    assert r["peak_force"] == pytest.approx(8 * Mp / L - w * L / 2, rel=1e-12)
