@@ -196,7 +196,7 @@ def member_chain(
         s_c=0.0 if crush_stroke is None else crush_stroke)
     with np.errstate(all="ignore"):
         c = run_chain(Drop(fm, Project(settings=settings), _geometry(fm, a, bare), (),
-                           np.zeros(1, dtype=np.int64), False, bare))
+                           np.zeros(1, dtype=np.int64), detail=False, bare=bare))
     if float(c[Compliance].f[0]) <= 0.0 and crush_force is None:
         raise ModelError("at", a, "a point off the supports (droprig takes supports as "
                          "rigid, so a load landing on one has no finite force) — or give "
