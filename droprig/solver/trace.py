@@ -321,7 +321,7 @@ def _check_steps(sheet: _Sheet) -> None:
         sc = float(sheet.inp.s_c[0]) if layer else float(sheet.level.deck.cover)
         add("Allowable free fall with the crushing work "
             + ("of the pad" if layer else "of the deck concrete through its cover"),
-            "h_allow", "h = h_el + (F_c − W)·s/(ηW)",
+            "h_cr", "h_cr = h_el + (F_c − W)·s/(η·W)",
             {"h_el": (h_gere, "length"), "F_c": (Fc, "force"), "W": (W, "force"),
              "s": (sc, "length"), "η": (sm.eta[0], "dimensionless")},
             inv.h_el[0], "length", "energy balance with a constant crushing force, "
