@@ -316,41 +316,47 @@ def plastic_collapse_load(cond: EndCondition, L: ArrayLike, a: ArrayLike,
     return np.where(at_support, np.inf, P)
 
 
+_HINGE_WORK: dict[str, tuple[float, float]] = {
+    "simple": (1.0, 1.0), "fixed": (2.0, 2.0), "propped": (2.0, 1.0)}
+"""Hinges turning with the left and the right segment of a span mechanism: the span
+hinge, plus the fixed end on that side (propped: fixed at x = 0)."""
+
+
 def plastic_collapse_load_udl(cond: EndCondition, L: ArrayLike, a: ArrayLike, Mp: ArrayLike,
-                              w: ArrayLike, n: int = 2001) -> np.ndarray:
+                              w: ArrayLike) -> np.ndarray:
     """Plastic collapse value of a point load at ``a`` on a member already carrying a
     full-length UDL ``w`` (N/m), N (0 where the UDL alone is a mechanism).
 
     Kinematic theorem (the least mechanism load is the collapse load): a span hinge
     at ξ moving Δ = 1, segments rotating 1/ξ and 1/(L − ξ), hinges also at each
-    fixed end; the point load moves δa = a/ξ (a ≤ ξ) or (L − a)/(L − ξ):
-    P(ξ) = (Mp·Σθ − w·L/2)/δa. Cantilever (fixed at 0): hinge at ξ < a,
-    P(ξ) = (Mp − w(L − ξ)²/2)/(a − ξ). Minimised over ξ on ``n`` points plus ξ = a
-    (derived by virtual work, as :func:`plastic_collapse_load`, which it equals for
-    w = 0). Vectorised over the leading axes of ``L``, ``a``, ``Mp``, ``w``.
+    fixed end (k_l, k_r hinges turning with each segment); the point load moves
+    δa = a/ξ (a ≤ ξ) or (L − a)/(L − ξ); the UDL does w·L/2:
+    P(ξ) = (Mp·(k_l/ξ + k_r/(L − ξ)) − w·L/2)/δa. On each side of the load P(ξ) is
+    convex with its least value at (L − ξ)² = 2·k_r·Mp/w (ξ ≥ a) or ξ² = 2·k_l·Mp/w
+    (ξ ≤ a), clipped to the side — so the minimum is found exactly in closed form.
+    Cantilever (fixed at 0): root hinge, P = (Mp − w·L²/2)/a (a hinge between root
+    and load gives more: P(u) with u = a − ξ has a maximum, not a minimum, inside).
+    Derived by virtual work (e.g. Neal, *The Plastic Methods of Structural Analysis*;
+    fixed beam, load at midspan: P = 8Mp/L − wL/2); equals :func:`plastic_collapse_load`
+    for w = 0. A load at a support gives ``inf``. Vectorised.
     """
     _check(cond)
     L, a, Mp, w = np.broadcast_arrays(*_arr(L, a, Mp, w))
-    s = np.linspace(0.0, 1.0, n)[1:-1]
-    La, aa, Ma, wa = (v[..., None] for v in (L, a, Mp, w))
-    if cond == "cantilever":
-        xi = np.concatenate([aa * s, 0.0 * aa], axis=-1)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            P = (Ma - 0.5 * wa * (La - xi) ** 2) / (aa - xi)
-        P = np.where(aa - xi > 0.0, P, np.inf)
-    else:
-        xi = np.concatenate([La * s, np.clip(aa, 1e-9 * La, La * (1 - 1e-9))], axis=-1)
-        th_l, th_r = 1.0 / xi, 1.0 / (La - xi)
-        internal = th_l + th_r
-        if cond in ("fixed", "propped"):
-            internal = internal + th_l
-        if cond == "fixed":
-            internal = internal + th_r
-        d_a = np.where(aa <= xi, aa / xi, (La - aa) / (La - xi))
-        with np.errstate(divide="ignore", invalid="ignore"):
-            P = (Ma * internal - 0.5 * wa * La) / d_a
-        P = np.where(d_a > 0.0, P, np.inf)
-    return np.maximum(np.min(P, axis=-1), 0.0)
+    b = L - a
+    with np.errstate(divide="ignore", invalid="ignore"):
+        if cond == "cantilever":
+            P = np.maximum((Mp - 0.5 * w * L**2) / a, 0.0)
+            return np.where(a <= 0.0, np.inf, P)
+        k_l, k_r = _HINGE_WORK[cond]
+        wpos = w > 0.0
+        ws = np.where(wpos, w, 1.0)
+        xi_r = np.where(wpos, np.maximum(a, L - np.sqrt(2.0 * k_r * Mp / ws)), a)
+        xi_l = np.where(wpos, np.minimum(a, np.sqrt(2.0 * k_l * Mp / ws)), a)
+        P_r = (Mp * (k_l + k_r * xi_r / (L - xi_r)) - 0.5 * w * L * xi_r) / a
+        P_l = (Mp * (k_l * L / xi_l - k_l + k_r) - 0.5 * w * L * (L - xi_l)) / b
+        P = np.maximum(np.minimum(P_l, P_r), 0.0)
+    P = np.where(Mp <= 0.0, 0.0, P)
+    return np.where((a <= 0.0) | (b <= 0.0), np.inf, P)
 
 
 # --------------------------------------------------------------------------- mass

@@ -96,6 +96,7 @@ __all__ = [
     "BRITTLE",
     "CHECK",
     "STEPS",
+    "BareMember",
     "BeyondYield",
     "Chain",
     "Checks",
@@ -141,6 +142,30 @@ _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "pe
 
 
 # --------------------------------------------------------------------------- the runner
+@dataclass(frozen=True)
+class BareMember:
+    """The deck-less mode of the chain (``droprig check``: a floor of one member,
+    :func:`droprig.solver.floor.member_floor`): the load bears on the member's top
+    flange over ``bearing`` (m; 0 = a point contact), mass ``mass`` (kg) falling
+    ``h`` (m) onto the member; in series with it the load's underside ``f_load`` and a
+    spring cushion ``f_mat`` (m/N, 0 = none); a crushable layer with crush force
+    ``F_c`` (N, ∞ = none) and stroke ``s_c`` (m). No deck: no deck compliance,
+    crushing, deck or connection checks, no local damage."""
+
+    mass: float
+    h: float
+    bearing: float = 0.0
+    f_load: float = 0.0
+    f_mat: float = 0.0
+    F_c: float = np.inf
+    s_c: float = 0.0
+
+    @property
+    def cushioned(self) -> bool:
+        """A cushion or a crushable layer lies between load and member."""
+        return self.f_mat > 0.0 or bool(np.isfinite(self.F_c))
+
+
 @dataclass(frozen=True, eq=False)
 class Drop:
     """What is dropped where: the points of ``geo`` on the prepared floor ``fm``, the
@@ -154,7 +179,10 @@ class Drop:
 
     ``v_hoist``: the hoist's lowering speed when the load is let go (the zone's
     ``hoist_speed``, m/s), which adds to the strike speed of the local-damage step,
-    V = √(v_h² + 2gh)."""
+    V = √(v_h² + 2gh).
+
+    ``bare``: the deck-less mode of one member (``loads`` then empty, the load in
+    ``bare``)."""
 
     fm: FloorModel
     project: Project
@@ -165,6 +193,7 @@ class Drop:
     H: np.ndarray | None = None
     mat_k: np.ndarray | None = None
     v_hoist: float = 0.0
+    bare: BareMember | None = None
 
     @property
     def n(self) -> int:
@@ -234,6 +263,8 @@ class LoadInputs:
 def load_inputs(c: Chain) -> LoadInputs:
     """:class:`LoadInputs` of the drop (common practice for the 1:1 spread, no source)."""
     d = c.drop
+    if d.bare is not None:
+        return _bare_load_inputs(d.bare, d.n)
     n, loads, li, geo = d.n, d.loads, d.li, d.geo
     lv = d.fm.level
     W = d.per_point([ld.weight for ld in loads])
@@ -427,6 +458,8 @@ def compliance(c: Chain) -> Compliance:
     gross section, restrained by the spans beyond its supports), the load's underside
     and a mat."""
     d, inp = c.drop, c[LoadInputs]
+    if d.bare is not None:
+        return _bare_compliance(d, inp)
     lv, path = d.fm.level, d.geo.path
     span, pos = path.strip_span, path.strip_pos
     basis = d.fm.settings.design_basis
@@ -558,6 +591,8 @@ def impact(c: Chain) -> Impact:
             lv.deck.concrete.fc, inp.foot_l, inp.foot_w, lv.deck.thickness,
             d.fm.settings.design_basis) * inp.foot_l * inp.foot_w
         depth_available = lv.deck.cover
+    if d.bare is not None:  # deck-less: no deck under the load
+        F_crush = np.full(n, np.inf)
     deck_crush = np.zeros(n)
     deck_through = np.zeros(n, dtype=bool)
     cap = ~crushable & (F > F_crush)
@@ -606,7 +641,8 @@ def demands(c: Chain) -> Demands:
     out: dict[str, Check] = {}
     out["flexure"] = ua.flexure.check("flexure", F, detail)
     out["shear"] = ua.shear.check("shear", F, detail)
-    out["connection"] = connection_family(fm, ua.shear).check("connection", F, detail)
+    if d.bare is None:  # deck-less (one member): no end connection given
+        out["connection"] = connection_family(fm, ua.shear).check("connection", F, detail)
     # web checks under the load (each deck-supporting member, its share)
     lb = inp.lb
     dist = np.maximum(np.minimum(aT, LT - aT) - 0.5 * lb, 0.0)
@@ -615,6 +651,8 @@ def demands(c: Chain) -> Demands:
                                memT, lb_pts, dist)
     out["web_yielding"] = small_check("web_yielding", F, shareT, None, Rwy, memT, detail)
     out["web_crippling"] = small_check("web_crippling", F, shareT, None, Rwc, memT, detail)
+    if d.bare is not None:  # deck-less (one member): no deck checks
+        return Demands(checks=out, actions=ua)
     # deck flexure (worse of the two footprint orientations) and punching
     lv = fm.level
     span, pos = comp.strip_span, comp.strip_pos
@@ -879,13 +917,14 @@ def checks(c: Chain) -> Checks:
     # U at F_cap = min(F, R_p) is U at F where F_cap is F (F ≤ R_p or F is NaN) and
     # U at R_p elsewhere: each brittle family is evaluated at R_p once, for this and
     # for the plastic inverse answer (same values as evaluating at F_cap)
-    Ub_at_Rp = tuple(chk[k].U_at(R_p) for k in BRITTLE)
+    brittle = tuple(k for k in BRITTLE if k in chk)  # (deck-less: no deck checks)
+    Ub_at_Rp = tuple(chk[k].U_at(R_p) for k in brittle)
     at_F = (F <= R_p) | np.isnan(F)
-    Ub = np.stack([np.where(at_F, chk[k].U, u) for k, u in zip(BRITTLE, Ub_at_Rp, strict=True)])
+    Ub = np.stack([np.where(at_F, chk[k].U, u) for k, u in zip(brittle, Ub_at_Rp, strict=True)])
     jb = argmax_nan_low(Ub)
     Ub_max = Ub[jb, rows]
-    brittle_member = np.stack([chk[k].member for k in BRITTLE])[jb, rows]
-    brittle_check = np.array([CHECK[k] for k in BRITTLE])[jb]
+    brittle_member = np.stack([chk[k].member for k in brittle])[jb, rows]
+    brittle_check = np.array([CHECK[k] for k in brittle])[jb]
     flex_exceeded = chk["flexure"].U > 1.0
     response = np.full(n, ELASTIC, dtype=np.int64)
     over = U > 1.0
@@ -1209,6 +1248,33 @@ def local_damage(c: Chain) -> LocalDamage:
         out["extrapolated"][sel] = r.extrapolated
         out["orientation"][sel] = orient[r.governing]
     return LocalDamage(**out)
+
+
+# --------------------------------------------------------------------------- deck-less
+def _bare_load_inputs(b: BareMember, n: int) -> LoadInputs:
+    """:class:`LoadInputs` of one member's drop (:class:`BareMember`): W = M·g, no
+    mat thickness (the fall is the drop height), bearing length ``b.bearing``."""
+    full = np.full
+    return LoadInputs(W=full(n, b.mass * impact_mod.G), M=full(n, b.mass),
+                      fl=full(n, b.bearing), fw=full(n, b.bearing), f_load=full(n, b.f_load),
+                      t_mat=np.zeros(n), f_mat=full(n, b.f_mat), F_c=full(n, b.F_c),
+                      s_c=full(n, b.s_c), crushable=full(n, bool(np.isfinite(b.F_c))),
+                      h=full(n, b.h), H=full(n, b.h), foot_l=full(n, b.bearing),
+                      foot_w=full(n, b.bearing), lb=full(n, b.bearing),
+                      protected=full(n, b.cushioned))
+
+
+def _bare_compliance(d: Drop, inp: LoadInputs) -> Compliance:
+    """:class:`Compliance` of one member (no deck, no columns): f_s from the load path
+    (the member's Green's function, AISC Manual Table 3-23), in series with the
+    load's underside and a cushion (Gere 7th ed. §9.10)."""
+    zero = np.zeros(d.n)
+    f_s = d.geo.path.f
+    f_struct = f_s + inp.f_load
+    return Compliance(f_s=f_s, f_deck=zero, f_struct=f_struct,
+                      f_series=inp.f_load + inp.f_mat, f=f_struct + inp.f_mat,
+                      strip_span=zero, strip_pos=zero, f_col=zero, k_left=zero,
+                      k_right=zero, g_strip=zero, cont_ratio=zero, f_deck_local=zero)
 
 
 # --------------------------------------------------------------------------- run

@@ -9,19 +9,21 @@ SI units (N, N·m, m, Pa)."""
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable
 from dataclasses import dataclass, field
-from typing import Any
+from typing import Any, cast
 
 import numpy as np
 
-from droprig.model import Level, ModelError, Project, Settings
+from droprig.model import ColumnGrid, Grade, Level, Member, ModelError, Project, Section, Settings
+from droprig.model.project import EndCondition
 from droprig.solver import beam, cancel, capacity, composite, contact, deck, impact
 from droprig.solver.candidates import CandidateTables, candidate_tables
 from droprig.solver.loadpath import COND_NAMES, Frame, build_frame, tributary_widths
 
 __all__ = ["FloorModel", "build_floor", "existing_moment", "floor_cache", "floor_model",
-           "remember"]
+           "member_floor", "remember"]
 
 
 @dataclass(frozen=True, eq=False)
@@ -228,3 +230,45 @@ def floor_cache(project: Project) -> Callable[[str], FloorModel]:
 
     return get
 
+
+
+MEMBER_TWIN_SPACING = 1.0
+"""Distance (m) of the unloaded twin that closes the deck panel of a one-member floor
+(:func:`member_floor`); it carries no share of a load on the member's line."""
+
+
+def member_floor(section: Section, grade: Grade, cond: str, L: float, w0: float,
+                 settings: Settings) -> FloorModel:
+    """A floor of one member for ``droprig check``: the member (span ``L``, m; end
+    condition ``cond``) on two columns, with its existing uniform load ``w0`` (N/m:
+    self-weight and a given UDL, no deck). The floor's load path needs a deck panel
+    between two parallel members; the second member is an unloaded twin
+    :data:`MEMBER_TWIN_SPACING` away: a load on the member's own line gives the twin a
+    lever-rule share of exactly 0 (common practice, no source), so it adds no
+    compliance, mass, demand or existing load. Resistances as :func:`build_floor`
+    (:mod:`droprig.solver.capacity`); the deck is not used (the chain runs deck-less,
+    :class:`droprig.solver.chain.BareMember`). SI units."""
+    s = MEMBER_TWIN_SPACING
+    grid = ColumnGrid((0.0, L), (0.0, s), ("1", "2"), ("A", "B"))
+    members = tuple(Member(mid, "beam", (0.0, y), (L, y), section, grade,
+                           cast(EndCondition, cond)) for mid, y in (("member", 0.0),
+                                                                    ("twin", s)))
+    level = Level(id="member", name="one member", elevation=0.0, grid=grid,
+                  members=members, superimposed_dead=0.0, live_in_place=0.0)
+    frame = build_frame(level, include_member_mass=settings.include_member_mass)
+    basis = settings.design_basis
+    phi, dif = settings.resistance_factor, settings.dynamic_increase_factor
+    mr = capacity.flexural_resistance(section, grade, basis, phi, dif)
+    vr = capacity.shear_resistance(section, grade, basis, phi, dif)
+    hinge = capacity.plastic_hinge_capable(section, grade, basis)
+    Mr, Vr = np.full(2, mr), np.full(2, vr)
+    w = np.array([w0, 0.0])
+    V0 = np.zeros((2, 2))
+    V0[0] = beam.udl_reactions(cond, L, w0)  # type: ignore[arg-type]
+    P0 = np.zeros(frame.n_nodes + 1)
+    M0_sup = np.zeros(frame.pair_sup_x.shape)
+    return FloorModel(level=level, settings=settings, frame=frame, Mr=Mr, Vr=Vr, w0=w,
+                      V0=V0, P0=P0, M0_sup=M0_sup, q0=0.0, deck_Mr=math.nan,
+                      group=np.zeros(2, dtype=np.int64), groups=((section, grade),),
+                      hinge=np.full(2, hinge),
+                      tables=candidate_tables(frame, Mr, Vr, V0, M0_sup))

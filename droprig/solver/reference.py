@@ -17,17 +17,50 @@ For a unit load at p over the deck panel between members 1 and 2 (SI: m, N, kg):
   integrals of the member shapes tabulated over ξ = a/L
   (:func:`droprig.solver.loadpath._mass_tables`; Timoshenko, Strength of Materials
   Part I) and w_ref the largest deflection of the path (≥ f).
+
+The member actions per unit force and the check families
+(:func:`unit_actions_reference`, :func:`check_reference`) are the plain forms of the
+fast kernels of :mod:`droprig.solver.unit_actions` and
+:mod:`droprig.solver.linear_checks` (``tests/solver/test_action_kernels.py``):
+
+* flexure candidates of each deck member k at the stations x (under the load, the
+  quarter points, halfway between the load and midspan, the ends when a member of
+  the floor has a fixed end): demand per N w_k·M(x; a_k), existing demand M_0(x)
+  (AISC Manual Table 3-23 by superposition, :func:`droprig.solver.floor.existing_moment`);
+  of each support member at its stations Σ_i c_i·r_i (the frame's coefficients on
+  the local reactions r) with its existing moment;
+* shear candidates: deck member ends w_k·R_e(a_k) and support member ends Σ_i c_i·r_i,
+  existing end shears V_0;
+* a check family at a force F: U = max_c |F·u_c + E_c|/R_c and
+  F_allow = min_c (R_c − sign(u_c)·E_c)/|u_c| (∞ where u_c = 0, −1 where |E_c| > R_c;
+  common practice, no source);
+* plastic reserve of the path R_p: per deck member carrying no other member the
+  virtual-work collapse load of the point load with its existing UDL over its share
+  (:func:`droprig.solver.beam.plastic_collapse_load_udl`); per deck member carrying
+  others the first-yield force (least F_allow of its flexure rows), for a fixed or
+  propped member at least the collapse load with M_p − |M_0(a)|; per support member
+  its first-yield force; R_p the least (≥ 0);
+* web resistances under the load per point (:func:`droprig.solver.capacity.web_local_yielding`,
+  :func:`~droprig.solver.capacity.web_crippling`; AISC 360-16 J10.2/J10.3,
+  EN 1993-1-5 §6) at the distance max(min(a, L − a) − l_b/2, 0) from the nearer end.
 """
 
 from __future__ import annotations
 
+from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
 import numpy as np
 
 from droprig.model.project import GEOMETRY_TOL
-from droprig.solver import beam, loadpath
-from droprig.solver.loadpath import Frame, PathResult, by_condition
+from droprig.solver import beam, capacity, loadpath
+from droprig.solver.loadpath import COND_NAMES, Frame, PathResult, by_condition
 
-__all__ = ["path_reference"]
+if TYPE_CHECKING:
+    from droprig.solver.floor import FloorModel
+
+__all__ = ["ActionsReference", "CandidatesReference", "check_reference", "path_reference",
+           "unit_actions_reference", "web_reference"]
 
 
 def path_reference(frame: Frame, x: np.ndarray, y: np.ndarray, *,
@@ -118,3 +151,214 @@ def _rayleigh_mass(frame: Frame, p: np.ndarray, mem: np.ndarray, share: np.ndarr
     with np.errstate(divide="ignore", invalid="ignore"):
         m_e = np.where(w_ref > 0.0, kin / np.where(w_ref > 0.0, w_ref, 1.0) ** 2, 0.0)
     return m_e, w_ref
+
+
+# --------------------------------------------------------------------------- actions
+@dataclass(frozen=True)
+class CandidatesReference:
+    """The candidates of one check family, (C, n): demand per N of impact force
+    ``unit`` (N·m/N or N/N), existing demand ``exist`` (N·m or N), resistance
+    ``resist`` (N·m or N), ``member`` (index into the level's members) and ``source``
+    (0, 1: the two deck members; 2 + p: support member slot p)."""
+
+    unit: np.ndarray
+    exist: np.ndarray
+    resist: np.ndarray
+    member: np.ndarray
+    source: np.ndarray
+
+
+@dataclass(frozen=True)
+class ActionsReference:
+    """Plain-formula counterpart of :class:`droprig.solver.unit_actions.UnitActions`:
+    the flexure and shear candidates, the plastic reserve ``R_p`` (N), the member that
+    sets it and its hinge arm (m), the least force taking a member unable to form a
+    hinge to its flexural resistance ``nh_fa`` (N, ∞ none) and that member."""
+
+    flexure: CandidatesReference
+    shear: CandidatesReference
+    R_p: np.ndarray
+    rp_member: np.ndarray
+    rp_arm: np.ndarray
+    nh_fa: np.ndarray
+    nh_member: np.ndarray
+
+
+def check_reference(c: CandidatesReference, F: np.ndarray,
+                    ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """A check family at the forces F (n,): U = max_c |F·u_c + E_c|/R_c, the allowed
+    force F_allow = min_c (R_c − sign(u_c)·E_c)/|u_c| (N; ∞ where u_c = 0, −1 where
+    the existing demand alone exceeds R_c) and the member of the candidate with the
+    largest U (first of equals)."""
+    U_c = np.abs(F * c.unit + c.exist) / c.resist
+    with np.errstate(divide="ignore", invalid="ignore"):
+        fa = (c.resist - np.sign(c.unit) * c.exist) / np.abs(c.unit)
+    fa = np.where(c.unit == 0.0, np.inf, fa)
+    fa = np.where(np.abs(c.exist) > c.resist, -1.0, fa)
+    j = np.argmax(U_c, axis=0)
+    cols = np.arange(F.size)
+    return U_c.max(axis=0), fa.min(axis=0), c.member[j, cols]
+
+
+def _allowed(c: CandidatesReference) -> np.ndarray:
+    """F_allow of every candidate, (C, n) (as :func:`check_reference`)."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        fa = (c.resist - np.sign(c.unit) * c.exist) / np.abs(c.unit)
+    fa = np.where(c.unit == 0.0, np.inf, fa)
+    return np.where(np.abs(c.exist) > c.resist, -1.0, fa)
+
+
+def deck_member_stations(a: np.ndarray, L: np.ndarray, ends: bool) -> list[np.ndarray]:
+    """Stations (m) along a deck member where the moment under a point load at a plus
+    a uniform load can peak: under the load, the quarter points, halfway between the
+    load and midspan, and both ends when the floor has a member with a fixed end."""
+    st = [a, 0.25 * L, 0.5 * L, 0.75 * L, 0.5 * (a + 0.5 * L)]
+    if ends:
+        st += [0.0 * a, L + 0.0 * a]
+    return st
+
+
+def unit_actions_reference(fm: FloorModel, path: PathResult) -> ActionsReference:
+    """The member actions of the load path of each point per unit force, the existing
+    actions and the plastic reserve (module docstring), point by point in plain
+    numpy."""
+    from droprig.solver.floor import existing_moment
+
+    fr = fm.frame
+    n = path.f.size
+    pair = np.maximum(path.pair, 0)
+    mem = path.members.T  # (2, n)
+    share, a = path.share.T, path.a.T
+    L = fr.L[mem]
+    cond = fr.cond[mem]
+    r = path.r.T  # (4, n)
+    ends = bool(np.any(fr.cond != 0))
+    # flexure: deck members at their stations
+    rows_u, rows_e, rows_r, rows_m, rows_s = [], [], [], [], []
+    M0_under = np.zeros((2, n))
+    for k in range(2):
+        for si, x in enumerate(deck_member_stations(a[k], L[k], ends)):
+            M = by_condition(beam.unit_moment, cond[k], L[k], x, a[k])
+            M0 = np.empty(n)
+            for m in np.unique(mem[k]):
+                on = mem[k] == m
+                M0[on] = existing_moment(fr, fm.w0, fm.P0, int(m), x[on])
+            if si == 0:
+                M0_under[k] = M0
+            rows_u.append(share[k] * M)
+            rows_e.append(M0)
+            rows_r.append(fm.Mr[mem[k]])
+            rows_m.append(mem[k])
+            rows_s.append(np.full(n, k))
+    # flexure: support members at their stations, Σ_i c_i·r_i
+    sup = fr.pair_sup_member[pair]  # (n, P)
+    P = sup.shape[1]
+    valid = sup >= 0
+    supm = np.maximum(sup, 0)
+    for p in range(P):
+        for st in range(fr.pair_sup_x.shape[2]):
+            coef = fr.pair_sup_mcoef[pair, p, st, :]  # (n, 4)
+            rows_u.append(np.where(valid[:, p], (coef * r.T).sum(axis=1), 0.0))
+            rows_e.append(np.where(valid[:, p], fm.M0_sup[pair, p, st], 0.0))
+            rows_r.append(fm.Mr[supm[:, p]])
+            rows_m.append(supm[:, p])
+            rows_s.append(np.full(n, 2 + p))
+    flexure = CandidatesReference(*(np.array(v) for v in (rows_u, rows_e, rows_r, rows_m,
+                                                          rows_s)))
+    # shear: deck member ends, then support member ends
+    R0, RL = by_condition(beam.unit_reactions, cond, L, a)
+    s_u = [share[0] * R0[0], share[1] * R0[1], share[0] * RL[0], share[1] * RL[1]]
+    s_e = [fm.V0[mem[0], 0], fm.V0[mem[1], 0], fm.V0[mem[0], 1], fm.V0[mem[1], 1]]
+    s_r = [fm.Vr[mem[0]], fm.Vr[mem[1]], fm.Vr[mem[0]], fm.Vr[mem[1]]]
+    s_m = [mem[0], mem[1], mem[0], mem[1]]
+    s_s = [np.zeros(n), np.ones(n), np.zeros(n), np.ones(n)]
+    for p in range(P):
+        for e in range(2):
+            coef = fr.pair_sup_rcoef[pair, p, e, :]
+            s_u.append(np.where(valid[:, p], (coef * r.T).sum(axis=1), 0.0))
+            s_e.append(np.where(valid[:, p], fm.V0[supm[:, p], e], 0.0))
+            s_r.append(fm.Vr[supm[:, p]])
+            s_m.append(supm[:, p])
+            s_s.append(np.full(n, 2 + p))
+    shear = CandidatesReference(*(np.array(v) for v in (s_u, s_e, s_r, s_m, s_s)))
+    R_p, rp_member, rp_arm = _plastic_reserve_reference(fm, flexure, mem, share, a, L,
+                                                        cond, M0_under, valid)
+    nh_fa, nh_member = _no_hinge_reference(fm, flexure)
+    return ActionsReference(flexure=flexure, shear=shear, R_p=R_p, rp_member=rp_member,
+                            rp_arm=rp_arm, nh_fa=nh_fa, nh_member=nh_member)
+
+
+def _plastic_reserve_reference(fm: FloorModel, flexure: CandidatesReference,
+                               mem: np.ndarray, share: np.ndarray, a: np.ndarray,
+                               L: np.ndarray, cond: np.ndarray, M0_under: np.ndarray,
+                               valid: np.ndarray,
+                               ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """R_p (N), its member and hinge arm (m) (module docstring)."""
+    fa = _allowed(flexure)
+    n = mem.shape[1]
+    P = valid.shape[1]
+    Rp = np.full((2 + P, n), np.inf)
+    member = np.zeros((2 + P, n), dtype=np.int64)
+    arm = np.zeros((2 + P, n))
+    for src in range(2 + P):
+        rows = flexure.source[:, 0] == src
+        first_yield = fa[rows].min(axis=0)
+        member[src] = flexure.member[rows][0]
+        if src < 2:
+            k = src
+            Mp_eff = np.maximum(fm.Mr[mem[k]] - np.abs(M0_under[k]), 0.0)
+            Pc = by_condition(beam.plastic_collapse_load, cond[k], L[k], a[k], Mp_eff)
+            with np.errstate(divide="ignore", invalid="ignore"):
+                Pc = np.where(share[k] > 0, Pc / share[k], np.inf)
+            indeterminate = (cond[k] == COND_NAMES.index("fixed")) | (
+                cond[k] == COND_NAMES.index("propped"))
+            Rp[src] = np.where(indeterminate, np.maximum(first_yield, Pc), first_yield)
+            # a member carrying no other: its own UDL in the mechanism (exact)
+            carries = np.array([fm.frame.nodes_on[int(m)].size > 0 for m in mem[k]])
+            Pu = by_condition(beam.plastic_collapse_load_udl, cond[k], L[k], a[k],
+                              fm.Mr[mem[k]], fm.w0[mem[k]])
+            with np.errstate(divide="ignore", invalid="ignore"):
+                Pu = np.where(share[k] > 0, Pu / share[k], np.inf)
+            Rp[src] = np.where(carries, Rp[src], Pu)
+            arm[src] = np.where(cond[k] == COND_NAMES.index("cantilever"), a[k],
+                                np.minimum(a[k], L[k] - a[k]))
+        else:
+            Rp[src] = np.where(valid[:, src - 2], first_yield, np.inf)
+            arm[src] = np.nan  # (the governing station of a support member)
+    j = np.argmin(Rp, axis=0)
+    cols = np.arange(n)
+    return np.maximum(Rp[j, cols], 0.0), member[j, cols], arm[j, cols]
+
+
+def _no_hinge_reference(fm: FloorModel, flexure: CandidatesReference,
+                        ) -> tuple[np.ndarray, np.ndarray]:
+    """Least first-yield force of a member that cannot form a plastic hinge (N, ∞
+    none) and that member (−1 none)."""
+    n = flexure.unit.shape[1]
+    hinge = fm.hinge if fm.hinge is not None else np.ones(fm.frame.n_members, dtype=bool)
+    fa = np.where(hinge[flexure.member], np.inf, _allowed(flexure))
+    j = np.argmin(fa, axis=0)
+    cols = np.arange(n)
+    nh_fa = fa[j, cols]
+    return nh_fa, np.where(np.isfinite(nh_fa), flexure.member[j, cols], -1)
+
+
+def web_reference(fm: FloorModel, path: PathResult, bearing: np.ndarray,
+                  ) -> tuple[np.ndarray, np.ndarray]:
+    """Web local yielding and web crippling resistance (N) of each deck member under
+    the load, (2, n) each: the clause functions of :mod:`droprig.solver.capacity`
+    point by point, bearing length ``bearing`` (m) at the distance
+    max(min(a, L − a) − l_b/2, 0) from the nearer end."""
+    s = fm.settings
+    mem, a = path.members.T, path.a.T
+    L = fm.frame.L[mem]
+    dist = np.maximum(np.minimum(a, L - a) - 0.5 * bearing, 0.0)
+    out = np.empty((2, *mem.shape))
+    lb = np.broadcast_to(bearing, mem.shape)
+    for fi, fn in enumerate((capacity.web_local_yielding, capacity.web_crippling)):
+        for m in np.unique(mem):
+            on = mem == m
+            mb = fm.level.members[int(m)]
+            out[fi][on] = fn(mb.section, mb.grade, s.design_basis, lb[on], dist[on],
+                             s.resistance_factor, s.dynamic_increase_factor)
+    return out[0], out[1]

@@ -199,9 +199,12 @@ def _plastic_reserve(fm: FloorModel, tb: CandidateTables, pv: _PathView, flex: F
                      M0: np.ndarray, runs: tuple[tuple[int, int], ...],
                      ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """R_p of the path for a load at p (N), the member that sets it, its hinge arm (m)
-    and end condition. Deck members: virtual-work collapse load for fixed/propped,
-    first hinge (= collapse of a determinate member) otherwise; support members:
-    first hinge (conservative)."""
+    and end condition. Deck members that carry no other member: the virtual-work
+    collapse load of the point load with the member's existing UDL
+    (:func:`droprig.solver.beam.plastic_collapse_load_udl`, exact); deck members
+    carrying others: the collapse load with M_p − |M_0(a)| for fixed/propped, first
+    hinge (= collapse of a determinate member) otherwise; support members: first
+    hinge (conservative)."""
     fr = fm.frame
     n, aT, LT, condT, shareT, pair, cols = pv.n, pv.aT, pv.LT, pv.condT, pv.shareT, \
         pv.pair, pv.cols
@@ -216,6 +219,13 @@ def _plastic_reserve(fm: FloorModel, tb: CandidateTables, pv: _PathView, flex: F
         "propped"))
     Rp_all = np.empty((2 + P, n))
     Rp_all[:2] = np.where(indeterminate, np.maximum(fa_l, Pc), fa_l)
+    own = ~_carries_others(fm)[pv.memT]  # existing load: the member's own UDL alone
+    if own.any():
+        Pu = by_condition(beam.plastic_collapse_load_udl, condT, LT, aT, fm.Mr[pv.memT],
+                          fm.w0[pv.memT])
+        with np.errstate(divide="ignore", invalid="ignore"):
+            Pu = np.where(shareT > 0, Pu / np.where(shareT > 0, shareT, 1.0), np.inf)
+        np.copyto(Rp_all[:2], Pu, where=own)
     arm = np.empty((2 + P, n))
     cant = condT == COND_NAMES.index("cantilever")
     arm[:2] = np.where(cant, aT, np.minimum(aT, LT - aT))  # hinge arm (root for a cantilever)
@@ -233,6 +243,16 @@ def _plastic_reserve(fm: FloorModel, tb: CandidateTables, pv: _PathView, flex: F
     jr = argmin_axis(Rp_all, Rp_all.min(axis=0), 0)
     return (np.maximum(Rp_all[jr, cols], 0.0), pv.members[jr, cols], arm[jr, cols],
             rp_cond[jr, cols])
+
+
+def _carries_others(fm: FloorModel) -> np.ndarray:
+    """Per member: do other members rest on it (existing loads at its nodes)?"""
+    got = fm._memo.get("carries_mask")
+    if got is None:
+        fr = fm.frame
+        got = fm._memo["carries_mask"] = np.array(
+            [fr.nodes_on[k].size > 0 for k in range(fr.n_members)], dtype=bool)
+    return got
 
 
 def _no_hinge(fm: FloorModel, pv: _PathView, flex: Family) -> tuple[np.ndarray, np.ndarray]:

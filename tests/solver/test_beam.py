@@ -310,7 +310,39 @@ def test_plastic_collapse_with_udl_simple_beam_statics() -> None:
     L, Mp, w = 6.0, 100e3, 8e3
     for a in (0.7, 1.9, 3.0, 4.4):
         P = float(beam.plastic_collapse_load_udl("simple", L, a, Mp, w))
-        assert float(beam.max_abs_moment("simple", L, P, a, w)) == pytest.approx(Mp, rel=1e-5)
+        assert float(beam.max_abs_moment("simple", L, P, a, w)) == pytest.approx(Mp, rel=1e-12)
+
+
+def test_plastic_collapse_with_udl_fixed_and_cantilever_by_hand() -> None:
+    # virtual work (Neal, The Plastic Methods of Structural Analysis): fixed beam, load at
+    # midspan, hinges at the ends and under the load: P·δ + w·L·δ/2 = 4Mp·(2δ/L)
+    L, Mp, w = 6.0, 100e3, 8e3
+    assert float(beam.plastic_collapse_load_udl("fixed", L, L / 2, Mp, w)) == pytest.approx(
+        8 * Mp / L - w * L / 2, rel=1e-12)
+    # cantilever, root hinge: P·a + w·L²/2 = Mp
+    assert float(beam.plastic_collapse_load_udl("cantilever", L, 4.0, Mp, w / 4)) == \
+        pytest.approx((Mp - w / 4 * L**2 / 2) / 4.0, rel=1e-12)
+
+
+@pytest.mark.parametrize("cond", ["simple", "fixed", "propped"])
+def test_plastic_collapse_with_udl_is_the_least_mechanism(cond: str,
+                                                          rng: np.random.Generator) -> None:
+    # kinematic theorem: the collapse load is the least load over the span-hinge
+    # position ξ (virtual work, written out here on a fine grid of ξ, Neal)
+    kl, kr = {"simple": (1, 1), "fixed": (2, 2), "propped": (2, 1)}[cond]
+    L = rng.uniform(2.0, 12.0, 50)
+    a = rng.uniform(0.05, 0.95, 50) * L
+    Mp = rng.uniform(5e4, 5e5, 50)
+    w = rng.uniform(0.0, 6e4, 50)
+    xi = np.concatenate([np.linspace(0.0, 1.0, 200_001)[1:-1][None, :] * L[:, None],
+                         a[:, None]], axis=1)  # the load's own point: a kink of P(ξ)
+    d_a = np.where(a[:, None] <= xi, a[:, None] / xi, (L - a)[:, None] / (L[:, None] - xi))
+    P_grid = (Mp[:, None] * (kl / xi + kr / (L[:, None] - xi)) - w[:, None] * L[:, None] / 2
+              ) / d_a
+    least = np.maximum(P_grid.min(axis=1), 0.0)
+    P = beam.plastic_collapse_load_udl(cond, L, a, Mp, w)
+    assert np.all(P <= least * (1 + 1e-12))
+    assert np.allclose(P, least, rtol=1e-6)
 
 
 def test_plastic_collapse_at_support_is_infinite() -> None:

@@ -338,3 +338,127 @@ def test_bottomed_layer_on_rigid_support_is_unbounded(ipe300: Section, s355: Gra
     assert hard["response"] == "exceeds" and hard["peak_force"] is None
     assert hard["max_moment"] is not None  # a support point adds no moment
     json.dumps(hard, allow_nan=False)
+
+
+def _simple_green(L: float, EI: float, x: float, a: float) -> float:
+    """Deflection at x under a unit load at a of a simply supported beam, m/N: AISC
+    Manual 15th ed. Table 3-23 case 8 (x < a: P·b·x(L² − b² − x²)/(6EIL), b = L − a),
+    the other side by symmetry (Maxwell–Betti)."""
+    if x > a:
+        x, a = L - x, L - a
+    b = L - a
+    return b * x * (L**2 - b**2 - x**2) / (6 * EI * L)
+
+
+def test_struck_mass_off_midspan_is_the_floors_rule(ipe300: Section, s355: Grade) -> None:
+    """droprig check runs the floor's chain (a floor of one member), so a member struck
+    off midspan takes the floor's struck mass: Rayleigh's kinetic energy of the static
+    shape, μ∫y²dx, over the largest deflection squared (Timoshenko, Strength of
+    Materials Part I; droprig normalises by the largest deflection of the path,
+    droprig.solver.loadpath). The shape and its largest deflection by hand from AISC
+    Manual Table 3-23 case 8 (Δmax = P·a·b(a + 2b)·√(3a(a + 2b))/(27·EI·L) at
+    x = √(a(a + 2b)/3), a > b), integrated by scipy.integrate.quad; the force by Gere
+    7th ed. §9.10 Eq. 9-94 with η = M/(M + m_e).
+
+    Before this change droprig check normalised by the struck point's deflection,
+    which grows without bound near a support (at L/4 of this beam 1.6× the floor's
+    mass): a heavier struck mass, a smaller force — not conservative. Hand values:
+    no self-weight or UDL (no existing load), a drop that stays elastic."""
+    from scipy.integrate import quad
+
+    L, a, M, h = 6.0, 4.5, 800.0, 0.01  # load at 3L/4 (a > b)
+    EI = s355.E * ipe300.Ix
+    mu = ipe300.mass_per_length
+    b = L - a
+    y_max = a * b * (a + 2 * b) * math.sqrt(3 * a * (a + 2 * b)) / (27 * EI * L)
+    x_max = math.sqrt(a * (a + 2 * b) / 3)
+    assert _simple_green(L, EI, x_max, a) == pytest.approx(y_max, rel=1e-12)
+    kin = quad(lambda x: _simple_green(L, EI, x, a) ** 2, 0.0, L, points=[a],
+               epsabs=0.0, epsrel=1e-13)[0]
+    m_e = mu * kin / y_max**2
+    m_old = mu * kin / _simple_green(L, EI, a, a) ** 2
+    assert m_old > 1.05 * m_e  # the struck point moves less than the largest deflection
+    f = _simple_green(L, EI, a, a)
+    W = M * G
+    eta = M / (M + m_e)
+    K = 1 + math.sqrt(1 + 2 * eta * h / (W * f))
+    r = assess_member(ipe300, s355, "simple", L, a, M, h, basis="en1993",
+                      self_weight=False)
+    assert r["response"] == "elastic"
+    # the floor's mass table is interpolated in ξ = a/L (loadpath._XI): 1e-7
+    assert r["effective_mass"] == pytest.approx(m_e, rel=1e-6)
+    assert r["dynamic_factor"] == pytest.approx(K, rel=1e-6)
+    assert r["peak_force"] == pytest.approx(K * W, rel=1e-6)
+    K_old = 1 + math.sqrt(1 + 2 * M / (M + m_old) * h / (W * f))
+    assert r["peak_force"] > K_old * W
+
+
+def test_droprig_check_is_the_floor_chain(ipe300: Section, s355: Grade) -> None:
+    """droprig check is the floor's chain in its deck-less mode: the chain it runs has
+    every step of droprig.solver.chain.STEPS, and its force is the chain's Impact step
+    (same object, not a copy of the formulas)."""
+    from droprig.solver.chain import STEPS, Impact
+
+    c = member.member_chain(ipe300, s355, "fixed", 5.0, 1.7, 900.0, 0.2, basis="en1993")
+    assert len(c.history) == len(STEPS)
+    r = assess_member(ipe300, s355, "fixed", 5.0, 1.7, 900.0, 0.2, basis="en1993")
+    assert r["dynamic_factor"] * 900.0 * G == pytest.approx(float(c[Impact].F[0]), rel=REL)
+    assert set(c[member.Demands].checks) == set(member.MEMBER_CHECKS)
+
+
+@pytest.mark.parametrize(("kw", "name"), [({"ductility_limit": 0.5}, "ductility-limit"),
+                                          ({"rotation_limit": 0.0}, "rotation-limit"),
+                                          ({"phi": 1.2}, "phi"), ({"L": 70.0}, "span")])
+def test_settings_ranges_name_the_option(ipe300: Section, s355: Grade, kw: dict,
+                                         name: str) -> None:
+    # the chain's settings take the project's ranges (droprig.model.Settings, Member.span)
+    args = {"L": 6.0, **kw}
+    L = args.pop("L")
+    with pytest.raises(ModelError, match=f"^{name}:"):
+        assess_member(ipe300, s355, "simple", L, 3.0, 500.0, 0.3, basis="en1993", **args)
+
+
+def test_utilisation_is_the_largest_elastic_ratio(ipe300: Section, s355: Grade) -> None:
+    """Beyond the flexural resistance the reported utilisation is the largest elastic
+    demand over resistance (as the floor analysis), here web local yielding: droprig
+    check used to report flexure's 4.6 beside a governing web check of 6.2. Hand
+    values at the elastic force F = K·W: fixed-end beam with a point load at a, AISC
+    Manual 15th ed. Table 3-23 case 16 (M = 2Pa²b²/L³ under the load, Pab²/L² and
+    Pa²b/L² at the ends; R1 = Pb²(3a + b)/L³, R2 = Pa²(a + 3b)/L³); resistances by
+    droprig.solver.capacity (EN 1993-1-1 6.2.5/6.2.6, EN 1993-1-5 §6: tested in
+    test_capacity.py)."""
+    from droprig.solver import capacity
+
+    L, a, M, h = 3.0, 1.0, 3000.0, 0.5
+    b = L - a
+    r = assess_member(ipe300, s355, "fixed", L, a, M, h, basis="en1993", self_weight=False)
+    F = r["dynamic_factor"] * M * G
+    Mmax = max(2 * F * a**2 * b**2 / L**3, F * a * b**2 / L**2, F * a**2 * b / L**2)
+    V = max(F * b**2 * (3 * a + b) / L**3, F * a**2 * (a + 3 * b) / L**3)
+    ratios = {
+        "flexure": Mmax / capacity.flexural_resistance(ipe300, s355, "en1993"),
+        "shear": V / capacity.shear_resistance(ipe300, s355, "en1993"),
+        "web_yielding": F / float(capacity.web_local_yielding(ipe300, s355, "en1993", 0.0,
+                                                              min(a, b))),
+    }
+    assert ratios["web_yielding"] > ratios["flexure"] > 1.0
+    assert r["utilisation"] == pytest.approx(max(ratios.values()), rel=1e-9)
+    assert r["governing_check"] == "web_yielding" and r["response"] == "exceeds"
+
+
+def test_plastic_reserve_with_existing_udl_is_the_mechanism(ipe300: Section,
+                                                            s355: Grade) -> None:
+    """A fixed beam struck at midspan while carrying a UDL w yields at the collapse load
+    of the mechanism with hinges at the ends and under the load, P·δ + w·L·δ/2 =
+    4·Mp·(2δ/L): R_p = 8Mp/L − wL/2 (virtual work; Neal, The Plastic Methods of
+    Structural Analysis). Beyond yield the member passes on R_p, so that is the peak
+    force. (The floor chain used to take 8(Mp − wL²/24)/L, wL/6 too high, before it
+    took the member's own UDL into the mechanism.)"""
+    from droprig.solver import capacity
+
+    L, w = 6.0, 20e3
+    Mp = capacity.flexural_resistance(ipe300, s355, "en1993")
+    r = assess_member(ipe300, s355, "fixed", L, L / 2, 1500.0, 0.3, basis="en1993",
+                      self_weight=False, udl=w, bearing=0.2)
+    assert r["response"] == "plastic" and r["governing_check"] == "flexure"
+    assert r["peak_force"] == pytest.approx(8 * Mp / L - w * L / 2, rel=1e-12)
