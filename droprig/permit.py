@@ -621,11 +621,49 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
                         f"{zone.level_id}; drops there are not assessed by droprig. Do "
                         "not carry a load there unless that area is checked separately "
                         "and kept clear of people.")))
+    everything.extend(connection_conditions(project))
     verdict = worst_verdict(lv.verdict for lv in loads)
     merged = _merge(everything, rects, across_loads=True)
     if verdict == "acceptable" and merged:
         verdict = "acceptable_with_conditions"
     return PermitConditions(verdict, tuple(loads), merged, tuple(not_checked))
+
+
+CONNECTION_NAMES_SHOWN = 12
+"""Members named in a connection sign-off condition before "and N more"."""
+
+
+def connection_conditions(project: Project) -> list[Condition]:
+    """A separate sign-off per lift zone whose level has members without an entered
+    end-connection capacity (``Member.connection_capacity``).
+
+    droprig checks end shear against each connection's capacity; a capacity cannot be
+    inferred from the beam (simple connections are often weaker than the web), so
+    without it the check runs at the web's plastic shear resistance and the permit
+    requires the engineer to confirm the named connections or enter their capacity
+    (droprig.solver.composite.CONNECTION_DEFAULT_FRACTION; common practice, no source).
+    """
+    out: list[Condition] = []
+    for zone in project.lift_zones:
+        try:
+            level = project.level(zone.level_id)
+        except KeyError:
+            continue
+        missing = [m.id for m in level.members if m.connection_capacity is None]
+        if not missing:
+            continue
+        shown = missing[:CONNECTION_NAMES_SHOWN]
+        more = len(missing) - len(shown)
+        names = _join(shown) + (f" and {more} more" if more else "")
+        word = "member" if len(missing) == 1 else "members"
+        out.append(Condition(
+            "separate_signoff", zone_id=zone.id, load_name=None, level_id=level.id,
+            detail=(f"the end connections of {word} {names} have no shear capacity "
+                    "entered: their end shear was checked against the web's shear "
+                    "resistance, which a simple connection may not reach; enter each "
+                    "connection's capacity, or have the engineer confirm the connections "
+                    "carry the beam's web shear resistance")))
+    return out
 
 
 def _is_finite(v: float | None) -> bool:

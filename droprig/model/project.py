@@ -229,9 +229,9 @@ class Member:
 
     ``composite``: studded to the deck (shear connectors), so the slab over it acts
     with it in bending (EN 1994-1-1 ch. 6 / AISC 360-16 ch. I). ``connection_capacity``
-    (N): shear capacity of each end connection; ``None`` takes the web's plastic
-    shear resistance (``droprig.solver.composite.CONNECTION_DEFAULT_FRACTION``; not
-    conservative).
+    (N): shear capacity of each end connection; ``None`` = not entered: the check
+    runs at the web's plastic shear resistance and the permit requires the engineer to
+    confirm the connections (``droprig.solver.composite.CONNECTION_DEFAULT_FRACTION``).
     """
 
     id: str

@@ -97,7 +97,9 @@ ASSUMPTIONS: tuple[str, ...] = (
 )
 
 NOT_CHECKED: tuple[str, ...] = (
-    "connections and their bolts or welds",
+    "connections other than for their end shear, and their bolts or welds in detail "
+    "(a connection whose capacity is not entered is checked against the web's shear "
+    "resistance and is a sign-off condition above)",
     "columns, their bases and the foundations",
     "the level below and anything on or under it",
     "secondary impacts, rebound and a load that tips or rolls after landing",

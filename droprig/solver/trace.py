@@ -61,7 +61,8 @@ _SRC_CHECK = {
     "deck_punching": "ACI 318-19 §22.6 / EN 1992-1-1 §6.4.4, §6.4.2(3) at openings, "
                      "EN 1994-1-1 §9.7.6 over ribs (droprig.solver.chain)",
     "connection": "end shear against the connection capacity (Member.connection_capacity; "
-                  "default the web's plastic shear resistance, droprig.solver.composite)",
+                  "not entered: the web's plastic shear resistance, to be confirmed by "
+                  "the engineer, droprig.solver.composite)",
 }
 _SRC_SERIES = ("springs in series, 1/k_eff = Σ 1/k_i (Gere, Mechanics of Materials 7th ed., "
                "§9.10 energy method)")
