@@ -107,6 +107,7 @@ __all__ = [
     "InverseAnswers",
     "LoadInputs",
     "LocalDamage",
+    "SlabResistance",
     "StruckMass",
     "amplified_demands",
     "dynamic_amplification",
@@ -776,6 +777,107 @@ def two_way_share(c: Chain) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     return np.where(ok, share, 0.0), Ly, yb
 
 
+# --------------------------------------------------------------------------- 5c. slab
+@dataclass(frozen=True, eq=False)
+class SlabResistance:
+    """Per point: the struck deck panel as a ductile member in series with the
+    framing. ``R_yl`` (N): yield-line resistance of the panel under the load (inf on
+    a support line, where a panel opening lies near, or where the slab is not
+    ductile); ``ell`` (m): distance from the load to the nearest support line (the
+    segments' lever for the support rotation); ``ductile``: the slab section may be
+    taken past yield here (deck flexure is then not brittle); ``R`` (N): the
+    resistance of slab and framing in series, min(R_frame, R_yl); ``slab_first``:
+    the slab's mechanism forms before the framing's (R_yl < R_frame)."""
+
+    R_yl: np.ndarray
+    ell: np.ndarray
+    ductile: np.ndarray
+    R: np.ndarray
+    slab_first: np.ndarray
+
+
+def slab_rotation_limit(settings_limit: float) -> float:
+    """Support-rotation limit of the slab's yield-line mechanism, rad: the less of
+    :data:`droprig.solver.slab.ROTATION_LIMIT_SLAB` (2°, UFC 3-340-02 ch. 4 for slabs
+    without shear reinforcement or membrane detailing — from memory) and the
+    project's rotation limit."""
+    return min(slab.ROTATION_LIMIT_SLAB, settings_limit)
+
+
+def slab_ductile(fm: FloorModel) -> bool:
+    """Whether the level's deck section is under-reinforced enough to be taken past
+    yield: x_u/d ≤ 0.45 (fck ≤ 50 MPa) or 0.35 (EN 1992-1-1 §5.6.3(2) simplified
+    rotation check, :func:`droprig.solver.slab.is_ductile`; x_u by §3.1.7(3) or
+    ACI 318-19 §22.2.2, :func:`droprig.solver.slab.neutral_axis_ratio`)."""
+    dk = fm.level.deck
+    dd = deck.effective_depth(dk)
+    if dd <= 0.0 or dk.rebar_area <= 0.0:
+        return False
+    xu_d = slab.neutral_axis_ratio(dk.rebar_area, dd, dk.concrete.fc, dk.concrete.fy_rebar,
+                                   fm.settings.design_basis)
+    return bool(slab.is_ductile(xu_d, dk.concrete.fc))
+
+
+def hogging_resistance(fm: FloorModel) -> float:
+    """Hogging moment resistance per metre width over the beams and girders from the
+    deck's top bars, N·m/m (:func:`droprig.solver.deck.deck_flexure_resistance` with
+    the top bars as the tension steel; 0 without top bars)."""
+    dk = fm.level.deck
+    if dk.top_rebar_area <= 0.0:
+        return 0.0
+    top = cast(Deck, SimpleNamespace(thickness=dk.thickness, cover=dk.cover,
+                                     rebar_area=dk.top_rebar_area, concrete=dk.concrete))
+    return float(deck.deck_flexure_resistance(top, fm.settings.design_basis,
+                                              fm.settings.resistance_factor))
+
+
+def slab_resistance(c: Chain) -> SlabResistance:
+    """Yield-line resistance of the struck panel (Lx = the deck strip's span between
+    the beams, Ly = the beams' span between the girders, load at (x, y) in it), the
+    least of the conical fan and the four-segment pattern
+    (:func:`droprig.solver.slab.yield_line_resistance`; Johansen; Park & Gamble,
+    *Reinforced Concrete Slabs* 2nd ed. ch. 9–10 — from memory), with sagging
+    m_x = M_r − m_0 along the main bars (the existing load's strip moment
+    q·L²/8 taken off, conservative), m_y = 20 % of M_r across them (distribution
+    steel, EN 1992-1-1 §9.3.1.1(2)), hogging from the top bars over every support
+    line, and the load as the circle of the footprint's area. In series with the
+    framing, the pair yields at R = min(R_frame, R_yl) (UFC 3-340-02 ch. 3,
+    resistance of elements in series; :func:`droprig.solver.slab.series_resistance`).
+    N, m."""
+    d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
+    fm, n = d.fm, d.n
+    R_frame = c[Demands].actions.R_p
+    inf = np.full(n, np.inf)
+    _share, Ly, yb = two_way_share(c)
+    Lx, xa = comp.strip_span, np.clip(comp.strip_pos, 0.0, np.maximum(comp.strip_span, 0.0))
+    ell = np.minimum(np.minimum(xa, Lx - xa), np.minimum(yb, Ly - yb))
+    ductile = np.full(n, slab_ductile(fm)) & (Lx > 0.0) & (Ly > 0.0)
+    dk = fm.level.deck
+    if ductile.any() and dk.openings:
+        # a panel with an opening near the load: no credit (the patterns assume a
+        # whole panel)
+        reach = np.maximum(Lx, Ly)
+        x, y = d.geo.x, d.geo.y
+        for op in dk.openings:
+            gx = np.maximum(0.0, np.maximum(op.x0 - x, x - op.x1))
+            gy = np.maximum(0.0, np.maximum(op.y0 - y, y - op.y1))
+            ductile &= np.hypot(gx, gy) > reach
+    if not ductile.any():
+        return SlabResistance(R_yl=inf, ell=ell, ductile=ductile, R=R_frame,
+                              slab_first=np.zeros(n, dtype=bool))
+    m0 = deck.deck_existing_moment_per_width(np.where(Lx > 0.0, Lx, 0.0), fm.q0)
+    mx = np.maximum(fm.deck_Mr - m0, 0.0)
+    my = DISTRIBUTION_SHARE * fm.deck_Mr
+    m_neg = hogging_resistance(fm)
+    r_load = np.sqrt(inp.foot_l * inp.foot_w / np.pi)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        R_yl = slab.yield_line_resistance(Lx, Ly, xa, yb, mx, my, r_load, m_neg, m_neg)
+    R_yl = np.where(ductile & np.isfinite(R_yl) & (R_yl > 0.0), R_yl, np.inf)
+    R, _dy, first = slab.series_resistance(R_frame, comp.f_s, R_yl, comp.f_deck)
+    return SlabResistance(R_yl=R_yl, ell=ell, ductile=ductile, R=R,
+                          slab_first=(first == 2) & np.isfinite(R_yl))
+
+
 # --------------------------------------------------------------------------- 6. checks
 @dataclass(frozen=True, eq=False)
 class Checks:
@@ -799,7 +901,9 @@ class Checks:
 
 def checks(c: Chain) -> Checks:
     """U = max over checks; F_allow = min over checks (linear in F, common practice, no
-    source); brittle checks at R_p where F > R_p (DNV-RP-C204, from memory)."""
+    source); brittle checks at R_p where F > R_p (DNV-RP-C204, from memory), R_p the
+    resistance of slab and framing in series (:func:`slab_resistance`); deck flexure
+    of a ductile slab yields instead of breaking (EN 1992-1-1 §5.6.3(2))."""
     d, imp, dem = c.drop, c[Impact], c[Demands]
     n, F, chk = d.n, imp.F, dem.checks
     names = list(chk)
@@ -812,18 +916,26 @@ def checks(c: Chain) -> Checks:
         F_allow = np.minimum(F_allow, chk[k].F_allow)
     gov_check = np.array([CHECK[names[i]] for i in range(len(names))])[gi]
     gov_member = np.stack([chk[k].member for k in names])[gi, rows]
-    R_p = dem.actions.R_p
+    sr = c[SlabResistance]
+    R_p = sr.R
     # U at F_cap = min(F, R_p) is U at F where F_cap is F (F ≤ R_p or F is NaN) and
     # U at R_p elsewhere: each brittle family is evaluated at R_p once, for this and
-    # for the plastic inverse answer (same values as evaluating at F_cap)
-    Ub_at_Rp = tuple(chk[k].U_at(R_p) for k in BRITTLE)
+    # for the plastic inverse answer (same values as evaluating at F_cap). Deck
+    # flexure of a ductile slab is not brittle: its mechanism is part of R_p.
+    zero = np.zeros(n)
+
+    def brittle_U(k: str, U: np.ndarray) -> np.ndarray:
+        return np.where(sr.ductile, zero, U) if k == "deck_flexure" else U
+
+    Ub_at_Rp = tuple(brittle_U(k, chk[k].U_at(R_p)) for k in BRITTLE)
     at_F = (F <= R_p) | np.isnan(F)
-    Ub = np.stack([np.where(at_F, chk[k].U, u) for k, u in zip(BRITTLE, Ub_at_Rp, strict=True)])
+    Ub = np.stack([np.where(at_F, brittle_U(k, chk[k].U), u)
+                   for k, u in zip(BRITTLE, Ub_at_Rp, strict=True)])
     jb = argmax_nan_low(Ub)
     Ub_max = Ub[jb, rows]
     brittle_member = np.stack([chk[k].member for k in BRITTLE])[jb, rows]
     brittle_check = np.array([CHECK[k] for k in BRITTLE])[jb]
-    flex_exceeded = chk["flexure"].U > 1.0
+    flex_exceeded = (chk["flexure"].U > 1.0) | (sr.ductile & (chk["deck_flexure"].U > 1.0))
     response = np.full(n, ELASTIC, dtype=np.int64)
     over = U > 1.0
     brittle_fail = over & (~flex_exceeded | (Ub_max > 1.0))
@@ -872,10 +984,10 @@ def beyond_yield(c: Chain) -> BeyondYield:
     (δm − R_p·f_series)/(R_p·f_s); support rotation
     (:func:`droprig.solver.plastic.support_rotation`)."""
     d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
-    ua, ck = c[Demands].actions, c[Checks]
+    ua, ck, sr = c[Demands].actions, c[Checks], c[SlabResistance]
     s, n = d.fm.settings, d.n
     W, h, F_c, s_c, eta = inp.W, inp.h, inp.F_c, inp.s_c, sm.eta
-    R_p, f_s, f = ua.R_p, comp.f_s, comp.f
+    R_p, f_s, f = sr.R, comp.f_s, comp.f
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
     h_struct = h.copy()
     crush_ok = inp.crushable & (F_c < R_p) & imp.bottomed
@@ -905,6 +1017,16 @@ def beyond_yield(c: Chain) -> BeyondYield:
         Lsel = arm_s[sel] if COND_NAMES[int(cc)] == "cantilever" else 2 * arm_s[sel]
         theta_s[sel] = plastic.support_rotation(d_struct[sel], Lsel, arm_s[sel],
                                                 COND_NAMES[int(cc)])
+    # the slab's mechanism first: the framing stays elastic (ductility R/R_frame) and
+    # the plastic deflection is the slab's, turning its segments about the nearest
+    # support line (slab.slab_support_rotation; limit slab_rotation_limit)
+    sf_s = sr.slab_first[sub]
+    if sf_s.any():
+        with np.errstate(divide="ignore", invalid="ignore"):
+            d_slab = np.maximum(d_m_s - R_ps * f[sub], 0.0)
+            duct_s = np.where(sf_s, R_ps / ua.R_p[sub], duct_s)
+            theta_sl = slab.slab_support_rotation(d_slab, sr.ell[sub])
+        theta_s = np.where(sf_s, theta_sl, theta_s)
     d_m: np.ndarray
     ductility: np.ndarray
     theta: np.ndarray
@@ -916,12 +1038,14 @@ def beyond_yield(c: Chain) -> BeyondYield:
         d_m[sub], collapsed[sub], ductility[sub], theta[sub] = d_m_s, coll_s, duct_s, theta_s
     col = pl & collapsed
     duct = pl & ~collapsed & (ductility > s.ductility_limit)
-    rot = pl & ~collapsed & ~duct & (theta > s.rotation_limit)
+    theta_lim = np.where(sr.slab_first, slab_rotation_limit(s.rotation_limit),
+                         s.rotation_limit)
+    rot = pl & ~collapsed & ~duct & (theta > theta_lim)
     ok_pl = pl & ~collapsed & ~duct & ~rot
     # flexure beyond the resistance of a member that cannot form a plastic hinge
     # (AISC 360-16 App. 1 / EN 1993-1-1 Class 1): no plastic reserve, exceeds (as in
     # droprig check, droprig.solver.member)
-    no_hinge = ok_pl & (imp.F > ua.nh_fa)
+    no_hinge = ok_pl & (np.where(sr.slab_first, R_p, imp.F) > ua.nh_fa)
     ok_pl = ok_pl & ~no_hinge
     response = ck.response.copy()
     response[ok_pl] = PLASTIC
@@ -930,6 +1054,11 @@ def beyond_yield(c: Chain) -> BeyondYield:
     gov_check = np.where(rot, CHECK["rotation"], gov_check)
     gov_check = np.where(ok_pl, CHECK["flexure"], gov_check)
     gov_member = np.where(pl, ua.rp_member, ck.gov_member)
+    # the yielding is the slab's where its mechanism forms first, or where only the
+    # deck's elastic strip check is exceeded
+    slab_gov = pl & (sr.slab_first | ~(c[Demands].checks["flexure"].U > 1.0))
+    gov_check = np.where(slab_gov & ok_pl, CHECK["deck_flexure"], gov_check)
+    gov_member = np.where(slab_gov, DECK, gov_member)
     gov_check = np.where(no_hinge, CHECK["flexure"], gov_check)
     gov_member = np.where(no_hinge, ua.nh_member, gov_member)
     return BeyondYield(R_p=R_p, rp_member=ua.rp_member, h_struct=h_struct, d_m=d_m,
@@ -984,7 +1113,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     (:mod:`droprig.solver.limits`); beyond yield the energy balance at the ductility
     and rotation limits (:func:`droprig.solver.plastic.allowable_height_plastic`)."""
     d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
-    ck, by = c[Checks], c[BeyondYield]
+    ck, by, sr = c[Checks], c[BeyondYield], c[SlabResistance]
     ua = c[Demands].actions
     s = d.fm.settings
     W, eta, F_c, s_c, crushable = inp.W, sm.eta, inp.F_c, inp.s_c, inp.crushable
@@ -1001,6 +1130,10 @@ def inverse_answers(c: Chain) -> InverseAnswers:
             ua.rp_cond == COND_NAMES.index("cantilever"), ua.rp_arm, ua.rp_arm)
         d_lim_s = np.minimum(s.ductility_limit * R_p * f_s, d_rot)
         mu_tot = (d_lim_s + R_p * comp.f_series) / (R_p * f)
+        # the slab's mechanism first: its plastic deflection up to the slab's rotation
+        # limit about the nearest support line (as beyond_yield checks it)
+        d_slab = np.tan(slab_rotation_limit(s.rotation_limit)) * sr.ell
+        mu_tot = np.where(sr.slab_first, (R_p * f + d_slab) / (R_p * f), mu_tot)
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     h_pl = with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
     # the drop height that gives the structure that energy after amplification (A_δ²)
@@ -1013,6 +1146,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     with np.errstate(invalid="ignore"):
         hp_check = np.where(s.ductility_limit * R_p * f_s <= d_rot, CHECK["ductility"],
                             CHECK["rotation"])
+    hp_check = np.where(sr.slab_first, CHECK["rotation"], hp_check)
     hp_check = np.where(np.isnan(h_pl) | (h_el >= h_pl), -1, hp_check)
     h_pl = np.fmax(h_pl, h_el)
     m_allow = limits.allowable_mass(Fa_pos, inp.h, f, sm.m_e)
@@ -1108,6 +1242,7 @@ STEPS: tuple[Callable[[Chain], object], ...] = (
     demands,
     dynamic_amplification,
     amplified_demands,
+    slab_resistance,
     checks,
     beyond_yield,
     inverse_answers,

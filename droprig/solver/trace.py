@@ -32,8 +32,10 @@ from droprig.solver.chain import (
     InverseAnswers,
     LoadInputs,
     LocalDamage,
+    SlabResistance,
     StruckMass,
     outputs,
+    slab_rotation_limit,
 )
 from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import evaluate_chain
@@ -314,16 +316,27 @@ def _check_steps(sheet: _Sheet) -> None:
         "H_allow = h_allow + t_mat",
         {"h_allow": (inv.h_el[0], "length"), "t_mat": (sheet.inp.t_mat[0], "length")},
         inv.h_el[0] + sheet.inp.t_mat[0], "length", "datum of droprig (finished surface)")
-    add("Plastic collapse resistance of the path", "R_p",
-        "R_p = min over path members of the collapse load for a load at p",
-        {}, by.R_p[0], "force", "virtual work (Neal); droprig.solver.beam")
+    sr = sheet.chain[SlabResistance]
+    R_frame = sheet.chain[Demands].actions.R_p[0]
+    add("Plastic collapse resistance of the framing", "R_frame",
+        "R_frame = min over path members of the collapse load for a load at p",
+        {}, R_frame, "force", "virtual work (Neal); droprig.solver.beam")
+    if np.isfinite(sr.R_yl[0]):
+        add("Yield-line resistance of the struck slab panel", "R_yl",
+            "R_yl = min(fan 2π√(m_x·m_y)/(1 − 2r/3ℓ), Σ (m + m')·(projected length)/lever)",
+            {"ℓ": (sr.ell[0], "length")}, sr.R_yl[0], "force",
+            "Johansen; Park & Gamble, Reinforced Concrete Slabs 2nd ed. ch. 9–10 "
+            "(from memory); EN 1992-1-1 §5.6.3(2) ductile section")
+    add("Series resistance of slab and framing", "R_p", "R_p = min(R_frame, R_yl)",
+        {"R_frame": (R_frame, "force")}, by.R_p[0], "force",
+        "elements in series (UFC 3-340-02 ch. 3, from memory)")
     if by.no_hinge[0]:
         add("Flexure beyond the resistance of a section that cannot form a plastic hinge "
             f"({mname(by.gov_member[0])}): no plastic reserve, exceeds",
             "F/F_allow,nh", "F / F_allow of the members without hinge capacity",
             {"F": (imp.F[0], "force"), "F_allow,nh": (by.nh_fa[0], "force")},
             imp.F[0] / by.nh_fa[0], "dimensionless", _SRC_HINGE)
-    if by.response[0] != 0 and dem.checks["flexure"].U[0] > 1.0:
+    if by.response[0] != 0 and ck.flex_exceeded[0]:
         add("Brittle checks at the plastic force", "U_brittle", "U at F = min(F, R_p)",
             {"R_p": (by.R_p[0], "force")}, ck.Ub_cap[0], "dimensionless",
             "no plastic reserve in " + ", ".join(BRITTLE)
@@ -334,9 +347,15 @@ def _check_steps(sheet: _Sheet) -> None:
         add("Ductility", "μ", "μ = δ_m / δ_y", {"μ_lim": (project.settings.ductility_limit,
                                                         "dimensionless")},
             by.ductility[0], "dimensionless", _SRC_PLASTIC)
-        add("Support rotation", "θ", "θ = atan(δ_m / arm)",
-            {"θ_lim": (project.settings.rotation_limit, "angle")}, by.theta[0], "angle",
-            _SRC_PLASTIC)
+        if sr.slab_first[0]:
+            add("Support rotation of the slab", "θ", "θ = atan((δ_m − δ_y) / ℓ)",
+                {"ℓ": (sr.ell[0], "length"),
+                 "θ_lim": (slab_rotation_limit(project.settings.rotation_limit), "angle")},
+                by.theta[0], "angle", "UFC 3-340-02 ch. 4 slab support rotation (from memory)")
+        else:
+            add("Support rotation", "θ", "θ = atan(δ_m / arm)",
+                {"θ_lim": (project.settings.rotation_limit, "angle")}, by.theta[0], "angle",
+                _SRC_PLASTIC)
     add("Allowable drop height (beyond yield)", "h_allow,pl",
         "h = δ_y(R_p(μ − ½) − Wμ)/(ηW)", {"R_p": (by.R_p[0], "force")},
         inv.h_pl[0], "length", _SRC_PLASTIC)
