@@ -78,6 +78,7 @@ from droprig.solver import (
     plastic,
     slab,
 )
+from droprig.solver import footprint as footprint_mod
 from droprig.solver import impact as impact_mod
 from droprig.solver import local_damage as local_damage_mod
 from droprig.solver.floor import FloorModel
@@ -198,8 +199,9 @@ class LoadInputs:
     ``crushable`` with crush force ``F_c`` (N, ∞ none) and stroke ``s_c`` (m); drop
     height ``H`` above the finished surface (m, the datum) and the free fall ``h`` =
     H − t_mat onto the struck surface (m); footprint on the deck ``foot_l`` ×
-    ``foot_w`` (spread 1:1 through a mat, m) and bearing length on a flange ``lb``
-    (smaller footprint side + 2 × mat thickness, m)."""
+    ``foot_w`` (spread 1:1 through a mat, then cut at the deck's edges and openings:
+    the sides along x and y of a rectangle of the area that bears, m) and bearing
+    length on a flange ``lb`` (its smaller side, m)."""
 
     W: np.ndarray
     M: np.ndarray
@@ -273,10 +275,23 @@ def load_inputs(c: Chain) -> LoadInputs:
     if n and float(np.min(h)) < 0.0:
         _refuse_below_pad(loads, li, lv, t_mat, H)
     spread = 2.0 * t_mat
-    lb = np.minimum(fl, fw) + spread
+    # the part of the footprint that bears on the deck: cut at the deck's edges and
+    # over openings (droprig.solver.footprint.footprint_on_deck)
+    ext = lv.grid.extent
+    foot_l, foot_w, _share = footprint_mod.footprint_on_deck(
+        geo.x, geo.y, fl + spread, fw + spread, (ext.x0, ext.y0, ext.x1, ext.y1),
+        tuple((o.x0, o.y0, o.x1, o.y1) for o in lv.deck.openings))
+    foot_l = np.maximum(foot_l, MIN_CONTACT_SIDE)
+    foot_w = np.maximum(foot_w, MIN_CONTACT_SIDE)
+    lb = np.minimum(foot_l, foot_w)
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
-                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=fl + spread,
-                      foot_w=fw + spread, lb=lb)
+                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
+                      foot_w=foot_w, lb=lb)
+
+
+MIN_CONTACT_SIDE = 1e-3
+"""Least side of the contact rectangle on the deck, m (a footprint all but wholly over
+an opening or off the deck still bears on a sliver; keeps the contact checks finite)."""
 
 
 def planned_height(load: LiftLoad, level: Level) -> float:

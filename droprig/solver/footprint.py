@@ -23,6 +23,7 @@ from numpy.typing import ArrayLike
 __all__ = [
     "EDGE_CONTACT_WIDTH",
     "clip_footprint",
+    "footprint_on_deck",
     "rigid_base_shares",
     "tilted_edges",
 ]
@@ -50,6 +51,47 @@ def clip_footprint(x0: ArrayLike, y0: ArrayLike, x1: ArrayLike, y1: ArrayLike,
     xc = np.where(on, 0.5 * (cx0 + cx1), np.nan)
     yc = np.where(on, 0.5 * (cy0 + cy1), np.nan)
     return area, xc, yc, area / full
+
+
+def footprint_on_deck(x: ArrayLike, y: ArrayLike, length: ArrayLike, width: ArrayLike,
+                      extent: tuple[float, float, float, float],
+                      openings: tuple[tuple[float, float, float, float], ...] = ()
+                      ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The part of a footprint length × width centred at (x, y) that bears on the deck,
+    as a rectangle of the same area: returns (side along x, side along y, share of the
+    footprint on the deck), m, m, dimensionless.
+
+    Both plan orientations of the footprint (length along x or along y) are cut to the
+    deck ``extent`` (:func:`clip_footprint`) and the area over each opening
+    (x0, y0, x1, y1) is taken off; the orientation with less area on the deck is kept
+    (higher contact pressure: the lower punching and crushing resistance, the higher
+    deck moment; conservative for the contact checks). The part over an opening is
+    taken off the side along x (the area is exact; the shape is an approximation —
+    common practice, no source). A footprint wholly on the deck is returned unchanged.
+    """
+    x, y, ln, wd = np.broadcast_arrays(*(np.asarray(v, float) for v in (x, y, length, width)))
+    best_a = np.full(x.shape, np.inf)
+    best_x = ln.copy()
+    best_y = wd.copy()
+    for lx, ly in ((ln, wd), (wd, ln)):
+        x0, x1, y0, y1 = x - lx / 2, x + lx / 2, y - ly / 2, y + ly / 2
+        area, _, _, _ = clip_footprint(x0, y0, x1, y1, extent)
+        ex0, ey0, ex1, ey1 = extent
+        dx = np.maximum(np.minimum(x1, ex1) - np.maximum(x0, ex0), 0.0)
+        dy = np.maximum(np.minimum(y1, ey1) - np.maximum(y0, ey0), 0.0)
+        net = area.copy()
+        for op in openings:
+            cut, _, _, _ = clip_footprint(np.maximum(x0, ex0), np.maximum(y0, ey0),
+                                          np.minimum(x1, ex1), np.minimum(y1, ey1), op)
+            net = net - cut
+        net = np.maximum(net, 0.0)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            sx = np.where(area > 0.0, dx * net / np.where(area > 0.0, area, 1.0), 0.0)
+        take = net < best_a
+        best_a = np.where(take, net, best_a)
+        best_x = np.where(take, sx, best_x)
+        best_y = np.where(take, dy, best_y)
+    return best_x, best_y, best_a / (ln * wd)
 
 
 def rigid_base_shares(s: ArrayLike, k: ArrayLike, s_load: ArrayLike,
