@@ -589,14 +589,18 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
         by_load.setdefault((b.zone_id, b.load_name), []).append(b)
     loads: list[LoadVerdict] = []
     everything: list[Condition] = []
+    connections = connection_conditions(project)
     for zone in project.lift_zones:
+        # connections without an entered capacity: every load of the zone relies on
+        # them (a condition of the load, not of one bay)
+        conn = [c for c in connections if c.zone_id == zone.id]
         for ld in zone.loads:
             summaries = by_load.get((zone.id, ld.name), [])
             # (results a step behind an edited project: bays no longer on the grid
             # are left out)
             bvs = tuple(_bay_verdict(project, b, rects[(b.level_id, b.bay_id)])
                         for b in summaries if (b.level_id, b.bay_id) in rects)
-            conds = _merge((c for bv in bvs for c in bv.conditions), rects)
+            conds = _merge([*(c for bv in bvs for c in bv.conditions), *conn], rects)
             if bvs and all(bv.verdict == "not_acceptable" for bv in bvs):
                 verdict: Verdict = "not_acceptable"
             elif conds:
@@ -621,7 +625,6 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
                         f"{zone.level_id}; drops there are not assessed by droprig. Do "
                         "not carry a load there unless that area is checked separately "
                         "and kept clear of people.")))
-    everything.extend(connection_conditions(project))
     verdict = worst_verdict(lv.verdict for lv in loads)
     merged = _merge(everything, rects, across_loads=True)
     if verdict == "acceptable" and merged:

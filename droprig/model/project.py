@@ -145,6 +145,10 @@ class Settings:
     dynamic_amplification: the checks use the larger of the energy method and the
     time-history-based demand (droprig.solver.amplification); off by default until
     the calibrated factors are reviewed (README, "Dynamic amplification").
+    tilted_landing: every drop point is also checked for the load landing out of
+    level on its shorter edge (the whole mass through an edge strip,
+    droprig.solver.chain.LANDINGS), the worse governing; off by default until the
+    edge contact is reviewed (README, limits).
     """
 
     unit_system: UnitSystem = "SI"
@@ -158,6 +162,7 @@ class Settings:
     include_member_mass: bool = True
     include_existing_loads: bool = True
     dynamic_amplification: bool = False
+    tilted_landing: bool = False
 
     def __post_init__(self) -> None:
         check_choice("settings.unit_system", self.unit_system, ("SI", "US"))
@@ -169,7 +174,8 @@ class Settings:
         check_range("settings.rotation_limit", self.rotation_limit, math.radians(0.1),
                     math.radians(15.0), unit="rad")
         check_range("settings.grid_resolution", self.grid_resolution, 0.05, 5.0, unit="m")
-        for n in ("include_member_mass", "include_existing_loads", "dynamic_amplification"):
+        for n in ("include_member_mass", "include_existing_loads", "dynamic_amplification",
+                  "tilted_landing"):
             if not isinstance(getattr(self, n), bool):
                 raise ModelError(f"settings.{n}", getattr(self, n), "true or false")
 

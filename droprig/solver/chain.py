@@ -96,6 +96,7 @@ from droprig.solver.unit_actions import (
 __all__ = [
     "BRITTLE",
     "CHECK",
+    "LANDINGS",
     "STEPS",
     "BeyondYield",
     "Chain",
@@ -112,6 +113,7 @@ __all__ = [
     "StruckMass",
     "amplified_demands",
     "dynamic_amplification",
+    "merge_landings",
     "outputs",
     "planned_height",
     "run_chain",
@@ -147,7 +149,9 @@ _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "pe
 class Drop:
     """What is dropped where: the points of ``geo`` on the prepared floor ``fm``, the
     load of each point ``loads[li]``; ``detail`` keeps what the calculation trace shows
-    (the governing candidate of every check, beyond yield at every point)."""
+    (the governing candidate of every check, beyond yield at every point). ``landing``:
+    ``flat`` (the whole footprint meets the deck) or ``tilted`` (the load lands out
+    of level on one edge: :data:`LANDINGS`)."""
 
     fm: FloorModel
     project: Project
@@ -155,6 +159,7 @@ class Drop:
     loads: tuple[LiftLoad, ...]
     li: np.ndarray
     detail: bool = False
+    landing: str = "flat"
 
     @property
     def n(self) -> int:
@@ -237,6 +242,16 @@ def load_inputs(c: Chain) -> LoadInputs:
     F_c = np.full(n, np.inf)
     s_c = np.zeros(n)
     crushable = np.zeros(n, dtype=bool)
+    # the contact: the whole footprint for a flat landing; for a load landing tilted
+    # on one edge, the strip along its shorter edge (the smaller contact of the four
+    # edges of droprig.solver.footprint.tilted_edges), centred on the drop point,
+    # carrying the whole force (common practice, no source)
+    cl, cw = fl, fw
+    if d.landing == "tilted":
+        cl = np.minimum(fl, fw)
+        cw = np.minimum(footprint_mod.EDGE_CONTACT_WIDTH, np.maximum(fl, fw))
+    elif d.landing != "flat":
+        raise ValueError(f"landing: {d.landing!r} is not allowed; allowed: {LANDINGS}")
     any_mat = bool(np.any(geo.protection >= 0))
     for i, pa in enumerate(d.project.protection_areas):
         if not any_mat or pa.level_id != lv.id:
@@ -245,15 +260,16 @@ def load_inputs(c: Chain) -> LoadInputs:
         if not sel.any():
             continue
         t_mat[sel] = pa.thickness
-        # pads by area: the part of the footprint on the pad, the less of the two
-        # footprint orientations (conservative)
+        # pads by area: the part of the contact on the pad, the less of the two
+        # orientations (conservative); a tilted landing crushes the pad under its
+        # edge strip only
         A_fp = fl[sel] * fw[sel]
         r = pa.area
         A_ov = np.minimum(
-            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], fl[sel],
-                                                       fw[sel], True), (r.x0, r.y0, r.x1, r.y1)),
-            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], fl[sel],
-                                                       fw[sel], False), (r.x0, r.y0, r.x1, r.y1)))
+            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], cl[sel],
+                                                       cw[sel], True), (r.x0, r.y0, r.x1, r.y1)),
+            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], cl[sel],
+                                                       cw[sel], False), (r.x0, r.y0, r.x1, r.y1)))
         if pa.kind == "spring":
             if pa.modulus is not None:
                 k = pads.spring_mat_stiffness(pa.modulus, pa.thickness, A_ov)
@@ -275,11 +291,11 @@ def load_inputs(c: Chain) -> LoadInputs:
     if n and float(np.min(h)) < 0.0:
         _refuse_below_pad(loads, li, lv, t_mat, H)
     spread = 2.0 * t_mat
-    # the part of the footprint that bears on the deck: cut at the deck's edges and
+    # the part of the contact that bears on the deck: cut at the deck's edges and
     # over openings (droprig.solver.footprint.footprint_on_deck)
     ext = lv.grid.extent
     foot_l, foot_w, _share = footprint_mod.footprint_on_deck(
-        geo.x, geo.y, fl + spread, fw + spread, (ext.x0, ext.y0, ext.x1, ext.y1),
+        geo.x, geo.y, cl + spread, cw + spread, (ext.x0, ext.y0, ext.x1, ext.y1),
         tuple((o.x0, o.y0, o.x1, o.y1) for o in lv.deck.openings))
     foot_l = np.maximum(foot_l, MIN_CONTACT_SIDE)
     foot_w = np.maximum(foot_w, MIN_CONTACT_SIDE)
@@ -288,6 +304,10 @@ def load_inputs(c: Chain) -> LoadInputs:
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
                       foot_w=foot_w, lb=lb)
 
+
+LANDINGS = ("flat", "tilted")
+"""How a load meets the deck; every drop point is checked for each, the worse
+governing (:func:`merge_landings`)."""
 
 MIN_CONTACT_SIDE = 1e-3
 """Least side of the contact rectangle on the deck, m (a footprint all but wholly over
@@ -1319,4 +1339,50 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
                                                  out["allowable_height_check"])
         out["allowable_height_member"] = np.where(op, DECK, out["allowable_height_member"])
     out["F_allow"] = ck.F_allow
+    return out
+
+
+_BY_RESPONSE = ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
+                "max_deflection", "deceleration_g", "utilisation", "governing_member",
+                "governing_check", "response", "plastic_deflection", "ductility",
+                "support_rotation", "structure_compliance")
+"""Outputs that describe the response at a point: taken from the governing landing."""
+
+_BY_HEIGHT = ("allowable_drop_height", "allowable_height_check", "allowable_height_member",
+              "F_allow")
+_BY_PLASTIC_HEIGHT = ("allowable_drop_height_plastic", "allowable_height_plastic_check")
+
+
+def _lower(a: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """True where ``b`` is the lower value; NaN (none exists: no height allowed) is
+    the lowest of all."""
+    return (np.isnan(b) & ~np.isnan(a)) | (b < a)
+
+
+def merge_landings(flat: dict[str, np.ndarray], tilted: dict[str, np.ndarray]
+                   ) -> dict[str, np.ndarray]:
+    """The outputs of a point checked for both landings, the worse governing: the
+    response, utilisation and what goes with them from the landing with the worse
+    response (then the larger utilisation); each allowable height (and its check,
+    member and allowed force) the lower of the two; the allowable mass and the
+    stiffest mat that works the less, the crush stroke needed the larger (NaN — none
+    exists — wins). Everything else is the same for both landings."""
+    out = dict(flat)
+    Uf = np.where(np.isnan(flat["utilisation"]), -np.inf, flat["utilisation"])
+    Ut = np.where(np.isnan(tilted["utilisation"]), -np.inf, tilted["utilisation"])
+    rf, rt = flat["response"], tilted["response"]
+    gov = (rt > rf) | ((rt == rf) & (Ut > Uf))
+    for k in _BY_RESPONSE:
+        out[k] = np.where(gov, tilted[k], flat[k])
+    low = _lower(flat["allowable_drop_height"], tilted["allowable_drop_height"])
+    for k in _BY_HEIGHT:
+        out[k] = np.where(low, tilted[k], flat[k])
+    low = _lower(flat["allowable_drop_height_plastic"], tilted["allowable_drop_height_plastic"])
+    for k in _BY_PLASTIC_HEIGHT:
+        out[k] = np.where(low, tilted[k], flat[k])
+    out["allowable_mass"] = np.minimum(flat["allowable_mass"], tilted["allowable_mass"])
+    out["required_mat_stiffness"] = np.minimum(flat["required_mat_stiffness"],
+                                               tilted["required_mat_stiffness"])
+    out["required_crush_stroke"] = np.maximum(flat["required_crush_stroke"],
+                                              tilted["required_crush_stroke"])
     return out

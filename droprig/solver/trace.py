@@ -22,6 +22,7 @@ from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
 from droprig.solver import droppoints
 from droprig.solver.chain import (
     BRITTLE,
+    LANDINGS,
     BeyondYield,
     Chain,
     Checks,
@@ -40,6 +41,7 @@ from droprig.solver.chain import (
 from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import evaluate_chain
 from droprig.solver.floor import FloorModel, floor_model
+from droprig.solver.footprint import EDGE_CONTACT_WIDTH
 from droprig.solver.geometry import Geometry, point_geometry
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, RESPONSES, Trace, TraceStep
@@ -106,9 +108,26 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     if geo.path.pair[0] < 0:
         raise ModelError("trace.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}")
-    chain = evaluate_chain(fm, project, load, geo, detail=True)
+    # both landings (droprig.solver.chain.LANDINGS); the trace follows the one that
+    # governs the point's response (as droprig.solver.chain.merge_landings)
+    chains = {k: evaluate_chain(fm, project, load, geo, detail=True, landing=k)
+              for k in (LANDINGS if project.settings.tilted_landing else ("flat",))}
+    o_f = outputs(chains["flat"])
+    o_t = outputs(chains["tilted"]) if "tilted" in chains else o_f
+    u_f, u_t = float(np.nan_to_num(o_f["utilisation"][0], nan=-1.0)), \
+        float(np.nan_to_num(o_t["utilisation"][0], nan=-1.0))
+    r_f, r_t = int(o_f["response"][0]), int(o_t["response"][0])
+    landing = "tilted" if (r_t > r_f or (r_t == r_f and u_t > u_f)) else "flat"
+    chain = chains[landing]
     sheet = _Sheet(project, fm, geo, load, chain)
     add = sheet.add
+    inp = chain[LoadInputs]
+    if project.settings.tilted_landing:
+        add("Landing that governs: " + ("tilted, on the shorter edge of the footprint"
+                                        if landing == "tilted" else "flat, on the footprint"),
+            "A_c", "A_c = contact on the deck (footprint, or edge strip of width w_e)",
+            {"w_e": (EDGE_CONTACT_WIDTH, "length")}, inp.foot_l[0] * inp.foot_w[0], "area",
+            "both landings checked, the worse governs (common practice, no source)")
     in_zone = bool(droppoints.in_zone(zone, xa, ya)[0])
     if not in_zone:
         add("Point outside the lift zone (traced anyway)", "d_zone",
