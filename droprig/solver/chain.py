@@ -462,8 +462,9 @@ class StruckMass:
 
 
 def struck_mass(c: Chain) -> StruckMass:
-    """m_e·(f_s/f_struct)² (Rayleigh with the struck point's own deflection; Timoshenko,
-    Strength of Materials Part I, from memory), η = M/(M + m_e)
+    """m_e·((f_s − f_col)/f_struct)² (Rayleigh with the struck point's own deflection,
+    the members' bending only; Timoshenko, Strength of Materials Part I, from memory),
+    η = M/(M + m_e)
     (:func:`droprig.solver.impact.mass_efficiency`)."""
     d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
     n = d.n
@@ -474,8 +475,12 @@ def struck_mass(c: Chain) -> StruckMass:
     # bound ever appear, the framing's mass share is not taken (η = 1, conservative)
     m_bound = d.fm.frame_mass
     m_e = np.where(np.isfinite(m_e) & (m_e >= 0.0) & (m_e <= m_bound), m_e, 0.0)
-    # the load moves W·f (f = f_s + f_deck + 1/k_load), the framing under it W·f_s
-    m_e = impact_mod.struck_point_mass(m_e, comp.f_s, comp.f_struct)
+    # the load moves W·f (f = f_s + f_deck + 1/k_load), the members' bending under it
+    # W·(f_s − f_col): the Rayleigh shape of loadpath is the members' own bending, so
+    # it is scaled by that share alone. The columns' shortening moves the members as
+    # rigid bodies; that mass is not counted (less struck mass: higher force,
+    # conservative), and the struck mass goes to zero continuously at a column
+    m_e = impact_mod.struck_point_mass(m_e, comp.f_s - comp.f_col, comp.f_struct)
     # under a mat or a crushable layer the hit on the framing is no longer perfectly
     # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
     m_e = np.where(d.geo.protection >= 0, 0.0, m_e)
