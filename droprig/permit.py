@@ -657,7 +657,7 @@ def connection_conditions(project: Project) -> list[Condition]:
             continue
         shown = missing[:CONNECTION_NAMES_SHOWN]
         more = len(missing) - len(shown)
-        names = _join(shown) + (f" and {more} more" if more else "")
+        names = (", ".join(shown) + f" and {more} more") if more else _join(shown)
         word = "member" if len(missing) == 1 else "members"
         out.append(Condition(
             "separate_signoff", zone_id=zone.id, load_name=None, level_id=level.id,
