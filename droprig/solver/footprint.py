@@ -57,41 +57,33 @@ def footprint_on_deck(x: ArrayLike, y: ArrayLike, length: ArrayLike, width: Arra
                       extent: tuple[float, float, float, float],
                       openings: tuple[tuple[float, float, float, float], ...] = ()
                       ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """The part of a footprint length × width centred at (x, y) that bears on the deck,
-    as a rectangle of the same area: returns (side along x, side along y, share of the
-    footprint on the deck), m, m, dimensionless.
+    """The part of a footprint length × width centred at (x, y) that bears on the deck:
+    returns (length, width) of a rectangle of that area and the footprint's shape, and
+    the share of the footprint on the deck, m, m, dimensionless.
 
     Both plan orientations of the footprint (length along x or along y) are cut to the
     deck ``extent`` (:func:`clip_footprint`) and the area over each opening
-    (x0, y0, x1, y1) is taken off; the orientation with less area on the deck is kept
+    (x0, y0, x1, y1) is taken off; the lesser area of the two orientations is kept
     (higher contact pressure: the lower punching and crushing resistance, the higher
-    deck moment; conservative for the contact checks). The part over an opening is
-    taken off the side along x (the area is exact; the shape is an approximation —
+    deck moment; conservative for the contact checks), and both sides are scaled by
+    √share so that the area is exact and the sides change continuously with the
+    point (a rectangle of the footprint's proportions stands for the cut shape —
     common practice, no source). A footprint wholly on the deck is returned unchanged.
     """
     x, y, ln, wd = np.broadcast_arrays(*(np.asarray(v, float) for v in (x, y, length, width)))
-    best_a = np.full(x.shape, np.inf)
-    best_x = ln.copy()
-    best_y = wd.copy()
+    least = np.full(x.shape, np.inf)
+    ex0, ey0, ex1, ey1 = extent
     for lx, ly in ((ln, wd), (wd, ln)):
         x0, x1, y0, y1 = x - lx / 2, x + lx / 2, y - ly / 2, y + ly / 2
-        area, _, _, _ = clip_footprint(x0, y0, x1, y1, extent)
-        ex0, ey0, ex1, ey1 = extent
-        dx = np.maximum(np.minimum(x1, ex1) - np.maximum(x0, ex0), 0.0)
-        dy = np.maximum(np.minimum(y1, ey1) - np.maximum(y0, ey0), 0.0)
-        net = area.copy()
+        net, _, _, _ = clip_footprint(x0, y0, x1, y1, extent)
         for op in openings:
             cut, _, _, _ = clip_footprint(np.maximum(x0, ex0), np.maximum(y0, ey0),
                                           np.minimum(x1, ex1), np.minimum(y1, ey1), op)
             net = net - cut
-        net = np.maximum(net, 0.0)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            sx = np.where(area > 0.0, dx * net / np.where(area > 0.0, area, 1.0), 0.0)
-        take = net < best_a
-        best_a = np.where(take, net, best_a)
-        best_x = np.where(take, sx, best_x)
-        best_y = np.where(take, dy, best_y)
-    return best_x, best_y, best_a / (ln * wd)
+        least = np.minimum(least, np.maximum(net, 0.0))
+    share = np.minimum(least / (ln * wd), 1.0)
+    root = np.sqrt(share)
+    return ln * root, wd * root, share
 
 
 def rigid_base_shares(s: ArrayLike, k: ArrayLike, s_load: ArrayLike,

@@ -33,13 +33,16 @@ def test_footprint_on_deck_by_hand():
     ext = (0.0, 0.0, 10.0, 8.0)
     # centre 0.25 m from the edge x = 0, footprint 1.0 × 0.6:
     # length along x: x ∈ [−0.25, 0.75] → 0.75 × 0.6 = 0.45 m² on the deck
-    # length along y: x ∈ [−0.05, 0.55] → 0.55 × 1.0 = 0.55 m²; the smaller is kept
+    # length along y: x ∈ [−0.05, 0.55] → 0.55 × 1.0 = 0.55 m²; the smaller is kept,
+    # as a 1.0 × 0.6 rectangle scaled by √(0.45/0.6)
     sx, sy, share = footprint.footprint_on_deck(0.25, 4.0, 1.0, 0.6, ext)
-    assert (float(sx), float(sy)) == pytest.approx((0.75, 0.6), rel=REL)
     assert float(share) == pytest.approx(0.45 / 0.6, rel=REL)
+    assert float(sx) * float(sy) == pytest.approx(0.45, rel=REL)
+    assert (float(sx), float(sy)) == pytest.approx((math.sqrt(0.75), 0.6 * math.sqrt(0.75)),
+                                                   rel=REL)
     # at a corner (0.2, 0.1): length along x → 0.7 × 0.4 = 0.28; along y → 0.5 × 0.6 = 0.30
     sx, sy, share = footprint.footprint_on_deck(0.2, 0.1, 1.0, 0.6, ext)
-    assert (float(sx), float(sy)) == pytest.approx((0.7, 0.4), rel=REL)
+    assert float(sx) * float(sy) == pytest.approx(0.28, rel=REL)
     # wholly on the deck: unchanged
     sx, sy, share = footprint.footprint_on_deck(5.0, 4.0, 1.0, 0.6, ext)
     assert (float(sx), float(sy), float(share)) == pytest.approx((1.0, 0.6, 1.0), rel=REL)
@@ -48,13 +51,19 @@ def test_footprint_on_deck_by_hand():
 def test_footprint_over_an_opening_by_hand():
     # opening x ∈ [5.3, 7], y ∈ [0, 8]; footprint 1.0 × 0.6 centred at (5.0, 4.0):
     # along x: [4.5, 5.5] × [3.7, 4.3] loses 0.2 × 0.6 = 0.12 → 0.48 m²
-    # along y: [4.7, 5.3] × [3.5, 4.5] loses nothing → 0.6 m²; the 0.48 m² is kept, as
-    # a 0.8 × 0.6 rectangle (the part over the opening taken off the side along x)
+    # along y: [4.7, 5.3] × [3.5, 4.5] loses nothing → 0.6 m²; the 0.48 m² is kept
     sx, sy, share = footprint.footprint_on_deck(5.0, 4.0, 1.0, 0.6, (0.0, 0.0, 10.0, 8.0),
                                                 ((5.3, 0.0, 7.0, 8.0),))
     assert float(sx) * float(sy) == pytest.approx(0.48, rel=1e-12)
-    assert (float(sx), float(sy)) == pytest.approx((0.8, 0.6), rel=1e-12)
     assert float(share) == pytest.approx(0.8, rel=1e-12)
+
+
+def test_footprint_on_deck_is_continuous_along_a_line():
+    # the contact must not jump as the point moves (drop points are sampled): the
+    # sides change by at most their first-order amount over a 1 mm step
+    xs = np.linspace(0.01, 1.5, 1491)
+    sx, sy, _ = footprint.footprint_on_deck(xs, 4.0, 1.0, 0.6, (0.0, 0.0, 10.0, 8.0))
+    assert np.max(np.abs(np.diff(sx))) < 2e-3 and np.max(np.abs(np.diff(sy))) < 2e-3
 
 
 @pytest.fixture(scope="module")
@@ -79,15 +88,17 @@ def test_clipped_footprint_at_the_deck_edge_in_the_chain(steel):
     ys = [0.5 * (ext.y0 + ext.y1) + 1.1] * 2
     c = _chain(p, lv, load, xs, ys)
     inp, imp = c[LoadInputs], c[Impact]
-    # the edge point: 0.75 × 0.6 m bears (hand, as above); the inside point: 1.0 × 0.6
-    assert (inp.foot_l[0], inp.foot_w[0]) == pytest.approx((0.75, 0.6), rel=REL)
+    # the edge point: 0.45 m² bears (hand, as above) as 1.0 × 0.6 scaled by √0.75;
+    # the inside point: 1.0 × 0.6
+    edge = (math.sqrt(0.75), 0.6 * math.sqrt(0.75))
+    assert (inp.foot_l[0], inp.foot_w[0]) == pytest.approx(edge, rel=REL)
     assert (inp.foot_l[1], inp.foot_w[1]) == pytest.approx((1.0, 0.6), rel=REL)
     # crushing bound by hand, × 1.25 for the strain rate on the mean strength:
     # EN 1992-1-1 Eq. 6.63, b_i = min(3c_i, c_i + h), ratio ≤ 3, f_cm = f_ck + 8 MPa;
     # ACI 318-19 §22.8.3.2, A2 spread 1:2 over h, ratio ≤ 2, 0.85·(f'c + 8.3 MPa)
     fc, h = lv.deck.concrete.fc, lv.deck.thickness
     assert p.settings.design_basis in ("en1993", "aisc360")
-    for i, (c1, c2) in enumerate(((0.75, 0.6), (1.0, 0.6))):
+    for i, (c1, c2) in enumerate((edge, (1.0, 0.6))):
         if p.settings.design_basis == "en1993":
             b1, b2 = min(3 * c1, c1 + h), min(3 * c2, c2 + h)
             q = (fc + 8e6) * min(math.sqrt(b1 * b2 / (c1 * c2)), 3.0)
