@@ -168,8 +168,8 @@ CONFIRM_FACTORS = (0.99, 1.0)
 """Fractions of a plastic allowable height at which the forward analysis must not
 exceed before the height is reported (issue 16: evaluated at 0.99 × the height)."""
 
-_CONFIRM_BLOCK = 256
-"""Points per forward check (each point carries its own trial load)."""
+_CONFIRM_BLOCK = 8192
+"""Points per forward check (each point carries its own trial height)."""
 
 
 def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
@@ -190,7 +190,12 @@ def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
     idx = np.flatnonzero(np.isfinite(h_pl) & ~(h_pl <= h_el))
     if idx.size == 0:
         return
-    loads = list(zone.loads)
+    # the structural response alone (hard=False: no local-damage step), so a trial
+    # that exceeds is never reported as 'perforates' and let through; the deck's
+    # local damage has its own allowable heights. Each point's trial height is passed
+    # as a per-point height (one load object per load, not per point)
+    loads = [replace(ld, drop_height=planned_height(ld, fm.level),
+                     hook_elevation=None, hang_length=0.0, hard=False) for ld in zone.loads]
     ok = np.ones(idx.size, dtype=bool)
     for s0 in range(0, idx.size, _CONFIRM_BLOCK):
         cancel.check()
@@ -200,15 +205,9 @@ def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
         # a pad (t + factor·(h − t), issue 13)
         t_pad = res["drop_height"][part] - res["fall_height"][part]
         for factor in CONFIRM_FACTORS:
-            # the structural response alone (hard=False: no local-damage step), so a
-            # trial that exceeds is never reported as 'perforates' and let through;
-            # the deck's local damage has its own allowable heights
-            trial = [replace(loads[int(j)],
-                             drop_height=min(t + factor * (float(hp) - t), 200.0),
-                             hook_elevation=None, hang_length=0.0, hard=False)
-                     for j, hp, t in zip(res["load_index"][part], h_pl[part], t_pad,
-                                         strict=True)]
-            r = evaluate.evaluate_case(fm, project, trial, geo, np.arange(part.size))
+            trial_h = np.minimum(t_pad + factor * (h_pl[part] - t_pad), 200.0)
+            r = evaluate.evaluate_case(fm, project, loads, geo, res["load_index"][part],
+                                       heights=trial_h)
             ok[s0:s0 + part.size] &= r["response"] != EXCEEDS
     bad = idx[~ok]
     if bad.size:

@@ -151,7 +151,9 @@ class Drop:
     load of each point ``loads[li]``; ``detail`` keeps what the calculation trace shows
     (the governing candidate of every check, beyond yield at every point). ``landing``:
     ``flat`` (the whole footprint meets the deck) or ``tilted`` (the load lands out
-    of level on one edge: :data:`LANDINGS`)."""
+    of level on one edge: :data:`LANDINGS`). ``heights``: per point, a drop height on
+    the datum (m) in place of each load's planned one (trial heights of many points
+    in one pass, :func:`droprig.solver.analysis.confirm_plastic_heights`)."""
 
     fm: FloorModel
     project: Project
@@ -160,6 +162,7 @@ class Drop:
     li: np.ndarray
     detail: bool = False
     landing: str = "flat"
+    heights: np.ndarray | None = None
 
     @property
     def n(self) -> int:
@@ -287,6 +290,8 @@ def load_inputs(c: Chain) -> LoadInputs:
     for j, ld in enumerate(loads):
         sel = li == j if len(loads) > 1 else slice(None)
         H[sel] = planned_height(ld, lv)
+    if d.heights is not None:
+        H = np.asarray(d.heights, float).copy()
     h = H - t_mat
     if n and float(np.min(h)) < 0.0:
         _refuse_below_pad(loads, li, lv, t_mat, H)

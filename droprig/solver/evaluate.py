@@ -56,28 +56,30 @@ def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
 
 
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
-             geo: Geometry, load_index: np.ndarray | None) -> dict[str, np.ndarray]:
+             geo: Geometry, load_index: np.ndarray | None,
+             heights: np.ndarray | None = None) -> dict[str, np.ndarray]:
     """The outputs of the flat landing, or with the project setting
     ``tilted_landing`` of both landings merged, the worse governing
     (:func:`~droprig.solver.chain.merge_landings`)."""
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
     loads = _loads(load)
-    flat = outputs(run_chain(Drop(fm, project, geo, loads, li, False, "flat")))
+    flat = outputs(run_chain(Drop(fm, project, geo, loads, li, False, "flat", heights)))
     if not fm.settings.tilted_landing:
         return flat
-    tilted = outputs(run_chain(Drop(fm, project, geo, loads, li, False, "tilted")))
+    tilted = outputs(run_chain(Drop(fm, project, geo, loads, li, False, "tilted", heights)))
     return merge_landings(flat, tilted)
 
 
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                   geo: Geometry, load_index: np.ndarray | None = None,
-                  ) -> dict[str, np.ndarray]:
+                  heights: np.ndarray | None = None) -> dict[str, np.ndarray]:
     """The :class:`~droprig.solver.results.CaseResult` arrays of ``load`` at the points
     of ``geo`` under their field names, and ``F_allow`` (N, the elastic allowed force).
 
     ``load`` may be a sequence of loads with ``load_index`` naming the load of each
-    point (several cases in one vectorised pass)."""
+    point (several cases in one vectorised pass); ``heights`` (m, per point) replaces
+    the loads' planned drop heights (trial heights)."""
     n = geo.x.size
     memory.keep_freed_memory()
     if n == 0:
@@ -86,7 +88,7 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     chunk = loadpath_chunk()
     with np.errstate(all="ignore"):
         if n <= chunk:
-            return _outputs(fm, project, load, geo, load_index)
+            return _outputs(fm, project, load, geo, load_index, heights)
 
         def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
             sl = slice(s, e)
@@ -96,11 +98,13 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
                 sub = slice_geo(geo, sl)
                 if n <= CACHE_MAX_POINTS:  # keep per-point actions for the next load
                     geo.cache[("slice", s)] = sub
+            hs = None if heights is None else heights[sl]
             with np.errstate(all="ignore"):
-                return [_outputs(fm, project, load, sub, li)]
+                return [_outputs(fm, project, load, sub, li, hs)]
 
         li0 = None if load_index is None else load_index[:1]
-        probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0)
+        h0 = None if heights is None else heights[:1]
+        probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0, h0)
         return _blockwise(n, 1, chunk, block, probe)
 
 
