@@ -149,11 +149,14 @@ _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "pe
 class Drop:
     """What is dropped where: the points of ``geo`` on the prepared floor ``fm``, the
     load of each point ``loads[li]``; ``detail`` keeps what the calculation trace shows
-    (the governing candidate of every check, beyond yield at every point). ``landing``:
-    ``flat`` (the whole footprint meets the deck) or ``tilted`` (the load lands out
-    of level on one edge: :data:`LANDINGS`). ``heights``: per point, a drop height on
-    the datum (m) in place of each load's planned one (trial heights of many points
-    in one pass, :func:`droprig.solver.analysis.confirm_plastic_heights`)."""
+    (the governing candidate of every check, beyond yield at every point).
+
+    Trials of a permit condition (:mod:`droprig.solver.confirm`) give per point
+    ``H``: the drop height on the datum in place of the load's planned one (m), and
+    ``mat_k``: the stiffness of a spring mat laid on the finished surface under the
+    whole footprint (N/m; nan = none), as the permit's advised mat is laid.
+    ``landing``: ``flat`` (the whole footprint meets the deck) or ``tilted`` (the load
+    lands out of level on one edge: :data:`LANDINGS`)."""
 
     fm: FloorModel
     project: Project
@@ -161,8 +164,9 @@ class Drop:
     loads: tuple[LiftLoad, ...]
     li: np.ndarray
     detail: bool = False
+    H: np.ndarray | None = None
+    mat_k: np.ndarray | None = None
     landing: str = "flat"
-    heights: np.ndarray | None = None
 
     @property
     def n(self) -> int:
@@ -208,8 +212,9 @@ class LoadInputs:
     height ``H`` above the finished surface (m, the datum) and the free fall ``h`` =
     H − t_mat onto the struck surface (m); footprint on the deck ``foot_l`` ×
     ``foot_w`` (spread 1:1 through a mat, then cut at the deck's edges and openings:
-    the sides along x and y of a rectangle of the area that bears, m) and bearing
-    length on a flange ``lb`` (its smaller side, m)."""
+    a rectangle of the footprint's proportions with the area that bears, m) and
+    bearing length on a flange ``lb`` (its smaller side, m); ``protected``: a pad or
+    mat lies under the load (the framing's mass share is then not taken)."""
 
     W: np.ndarray
     M: np.ndarray
@@ -226,6 +231,7 @@ class LoadInputs:
     foot_l: np.ndarray
     foot_w: np.ndarray
     lb: np.ndarray
+    protected: np.ndarray
 
 
 def load_inputs(c: Chain) -> LoadInputs:
@@ -256,44 +262,73 @@ def load_inputs(c: Chain) -> LoadInputs:
     elif d.landing != "flat":
         raise ValueError(f"landing: {d.landing!r} is not allowed; allowed: {LANDINGS}")
     any_mat = bool(np.any(geo.protection >= 0))
-    for i, pa in enumerate(d.project.protection_areas):
+    prot = d.project.protection_areas
+    for i, pa in enumerate(prot):
         if not any_mat or pa.level_id != lv.id:
             continue
         sel = geo.protection == i
         if not sel.any():
             continue
         t_mat[sel] = pa.thickness
-        # pads by area: the part of the contact on the pad, the less of the two
-        # orientations (conservative); a tilted landing crushes the pad under its
-        # edge strip only
+        # pads by area: the part of the footprint on the layer — this one and every
+        # layer of the same kind and thickness it abuts, which the footprint presses
+        # at the same moment — the less of the two footprint orientations
+        # (conservative); a layer of another thickness is not credited
+        together = [j for j, o in enumerate(prot)
+                    if o.level_id == lv.id and o.kind == pa.kind
+                    and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+        # (a tilted landing presses the layers under its edge strip only)
+        xs, ys, fls, fws = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
         A_fp = fl[sel] * fw[sel]
-        r = pa.area
-        A_ov = np.minimum(
-            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], cl[sel],
-                                                       cw[sel], True), (r.x0, r.y0, r.x1, r.y1)),
-            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], cl[sel],
-                                                       cw[sel], False), (r.x0, r.y0, r.x1, r.y1)))
+        per_orient = []
+        stroke = np.full(xs.shape, np.inf)
+        for along_x in (True, False):
+            rect = pads.footprint_rect(xs, ys, fls, fws, along_x)
+            total = np.zeros(xs.shape)
+            for j in together:
+                o = prot[j]
+                r = o.area
+                A_ov = pads.rect_overlap_area(rect, (r.x0, r.y0, r.x1, r.y1))
+                if o.kind == "spring":
+                    if o.modulus is not None:
+                        total += pads.spring_mat_stiffness(o.modulus, o.thickness, A_ov)
+                    else:  # older files: the stiffness for the load's own footprint
+                        total += float(o.stiffness) * A_ov / A_fp  # type: ignore[arg-type]
+                else:
+                    total += pads.crushable_pad_force(pad_crush_stress(d.project, o), A_ov)
+                    stroke = np.where(A_ov > 0.0,
+                                      np.minimum(stroke, float(o.crush_stroke)),  # type: ignore[arg-type]
+                                      stroke)
+            per_orient.append(total)
+        credit = np.minimum(per_orient[0], per_orient[1])
         if pa.kind == "spring":
-            if pa.modulus is not None:
-                k = pads.spring_mat_stiffness(pa.modulus, pa.thickness, A_ov)
-            else:  # older files: the stiffness for the load's own footprint
-                k = float(pa.stiffness) * A_ov / A_fp  # type: ignore[arg-type]
-            f_mat[sel] = np.where(k > 0.0, 1.0 / np.where(k > 0.0, k, 1.0), 0.0)
+            f_mat[sel] = np.where(credit > 0.0, 1.0 / np.where(credit > 0.0, credit, 1.0),
+                                  0.0)
         else:
             crushable[sel] = True
-            F_c[sel] = pads.crushable_pad_force(pad_crush_stress(d.project, pa), A_ov)
-            s_c[sel] = float(pa.crush_stroke)  # type: ignore[arg-type]
+            F_c[sel] = credit
+            s_c[sel] = np.where(np.isfinite(stroke), stroke,
+                                float(pa.crush_stroke))  # type: ignore[arg-type]
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
     # is that less its thickness
-    H = np.empty(n)
-    for j, ld in enumerate(loads):
-        sel = li == j if len(loads) > 1 else slice(None)
-        H[sel] = planned_height(ld, lv)
-    if d.heights is not None:
-        H = np.asarray(d.heights, float).copy()
+    protected = geo.protection >= 0
+    if d.mat_k is not None:
+        # a trial mat on the finished surface under the whole footprint (confirm.py)
+        trial = np.isfinite(d.mat_k) & (d.mat_k > 0.0)
+        f_mat = np.where(trial, 1.0 / np.where(trial, d.mat_k, 1.0), f_mat)
+        protected = protected | trial
+    if d.H is not None:
+        H = np.asarray(d.H, float).copy()
+    else:
+        H = np.empty(n)
+        for j, ld in enumerate(loads):
+            sel = li == j if len(loads) > 1 else slice(None)
+            H[sel] = planned_height(ld, lv)
     h = H - t_mat
-    if n and float(np.min(h)) < 0.0:
+    if d.H is not None:
+        h = np.maximum(h, 0.0)  # a trial height under a pad's top: resting on the pad
+    elif n and float(np.min(h)) < 0.0:
         _refuse_below_pad(loads, li, lv, t_mat, H)
     spread = 2.0 * t_mat
     # the part of the contact that bears on the deck: cut at the deck's edges and
@@ -307,8 +342,12 @@ def load_inputs(c: Chain) -> LoadInputs:
     lb = np.minimum(foot_l, foot_w)
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
-                      foot_w=foot_w, lb=lb)
+                      foot_w=foot_w, lb=lb, protected=protected)
 
+
+_SAME_THICKNESS = 1e-3
+"""Layers whose thicknesses differ by at most this (m) are pressed together by one
+footprint (common practice, no source)."""
 
 LANDINGS = ("flat", "tilted")
 """How a load meets the deck; every drop point is checked for each, the worse
@@ -488,7 +527,7 @@ def struck_mass(c: Chain) -> StruckMass:
     m_e = impact_mod.struck_point_mass(m_e, comp.f_s - comp.f_col, comp.f_struct)
     # under a mat or a crushable layer the hit on the framing is no longer perfectly
     # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
-    m_e = np.where(d.geo.protection >= 0, 0.0, m_e)
+    m_e = np.where(inp.protected, 0.0, m_e)
     return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e))
 
 
@@ -1153,6 +1192,36 @@ def with_crush_energy(h_allow: np.ndarray, where: np.ndarray, F_c: np.ndarray,
     return np.where(np.isfinite(out) & (out >= 0.0), out, np.nan)
 
 
+MASS_BISECTIONS = 48
+"""Bisection steps of :func:`_mass_through_crushing` (the bracket shrinks 2⁻⁴⁸)."""
+
+
+def _mass_through_crushing(F_allow: np.ndarray, h: np.ndarray, f: np.ndarray,
+                           m_e: np.ndarray, F_crush: np.ndarray, cover: float,
+                           M_low: np.ndarray) -> np.ndarray:
+    """Largest mass M (kg) whose peak force through the crushing-limited contact of
+    the impact step stays ≤ F_allow (N), by bisection on the forward model itself:
+    F(M) = :func:`droprig.solver.crushing.crushing_limited_impact` with W = M·g and
+    η = M/(M + m_e) (Gere §9.10 with Timoshenko's mass share), increasing in M.
+    Bracket: ``M_low`` (the elastic answer, where the force is at most F_allow) and
+    F_allow/g (the force is never below the weight). The lower end is returned, so
+    the answer never exceeds what the forward model allows. h in m, f in m/N, m_e in
+    kg, cover in m."""
+    lo = M_low.copy()
+    hi = np.maximum(F_allow / impact_mod.G, lo)
+    for _ in range(MASS_BISECTIONS):
+        mid = 0.5 * (lo + hi)
+        W = mid * impact_mod.G
+        eta = impact_mod.mass_efficiency(mid, m_e)
+        _, F_el, _ = impact_mod.impact_elastic(W, h, f, eta)
+        F_cap, _, _ = crushing.crushing_limited_impact(W, h, f, eta, F_crush, cover)
+        F = np.where(F_el > F_crush, F_cap, F_el)
+        ok = F <= F_allow
+        lo = np.where(ok, mid, lo)
+        hi = np.where(ok, hi, mid)
+    return lo
+
+
 def inverse_answers(c: Chain) -> InverseAnswers:
     """Gere Eq. 9-94 solved for h, M, k and a crush stroke
     (:mod:`droprig.solver.limits`); beyond yield the energy balance at the ductility
@@ -1166,6 +1235,13 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
     h_el = with_crush_energy(h_el, crushable & (F_c <= F_allow), F_c, s_c, W, eta)
+    # bare deck whose concrete crushes below the allowed force: the force stays at
+    # F_crush while the concrete crushes and passes F_crush only once the crushing has
+    # gone through the cover (impact step, crushing_limited_impact): the height at
+    # which the force then reaches F_allow takes the crushing work (F_crush − W)·cover
+    cover = d.fm.level.deck.cover
+    h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow), imp.F_crush,
+                             np.full(d.n, cover), W, eta)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
     for u in ck.Ub_at_Rp[1:]:
@@ -1195,6 +1271,11 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     hp_check = np.where(np.isnan(h_pl) | (h_el >= h_pl), -1, hp_check)
     h_pl = np.fmax(h_pl, h_el)
     m_allow = limits.allowable_mass(Fa_pos, inp.h, f, sm.m_e)
+    capped = ~crushable & (imp.F_crush < F_allow) & np.isfinite(m_allow)
+    if capped.any():
+        m_allow[capped] = _mass_through_crushing(
+            Fa_pos[capped], inp.h[capped], f[capped], sm.m_e[capped], imp.F_crush[capped],
+            cover, m_allow[capped])
     if crushable.any():
         # through the crushable layer that lies there (η = 1 under a layer)
         m_allow[crushable] = limits.allowable_mass_crushable(
