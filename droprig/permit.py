@@ -589,14 +589,18 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
         by_load.setdefault((b.zone_id, b.load_name), []).append(b)
     loads: list[LoadVerdict] = []
     everything: list[Condition] = []
+    connections = connection_conditions(project)
     for zone in project.lift_zones:
+        # connections without an entered capacity: every load of the zone relies on
+        # them (a condition of the load, not of one bay)
+        conn = [c for c in connections if c.zone_id == zone.id]
         for ld in zone.loads:
             summaries = by_load.get((zone.id, ld.name), [])
             # (results a step behind an edited project: bays no longer on the grid
             # are left out)
             bvs = tuple(_bay_verdict(project, b, rects[(b.level_id, b.bay_id)])
                         for b in summaries if (b.level_id, b.bay_id) in rects)
-            conds = _merge((c for bv in bvs for c in bv.conditions), rects)
+            conds = _merge([*(c for bv in bvs for c in bv.conditions), *conn], rects)
             if bvs and all(bv.verdict == "not_acceptable" for bv in bvs):
                 verdict: Verdict = "not_acceptable"
             elif conds:
@@ -626,6 +630,43 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
     if verdict == "acceptable" and merged:
         verdict = "acceptable_with_conditions"
     return PermitConditions(verdict, tuple(loads), merged, tuple(not_checked))
+
+
+CONNECTION_NAMES_SHOWN = 12
+"""Members named in a connection sign-off condition before "and N more"."""
+
+
+def connection_conditions(project: Project) -> list[Condition]:
+    """A separate sign-off per lift zone whose level has members without an entered
+    end-connection capacity (``Member.connection_capacity``).
+
+    droprig checks end shear against each connection's capacity; a capacity cannot be
+    inferred from the beam (simple connections are often weaker than the web), so
+    without it the check runs at the web's plastic shear resistance and the permit
+    requires the engineer to confirm the named connections or enter their capacity
+    (droprig.solver.composite.CONNECTION_DEFAULT_FRACTION; common practice, no source).
+    """
+    out: list[Condition] = []
+    for zone in project.lift_zones:
+        try:
+            level = project.level(zone.level_id)
+        except KeyError:
+            continue
+        missing = [m.id for m in level.members if m.connection_capacity is None]
+        if not missing:
+            continue
+        shown = missing[:CONNECTION_NAMES_SHOWN]
+        more = len(missing) - len(shown)
+        names = (", ".join(shown) + f" and {more} more") if more else _join(shown)
+        word = "member" if len(missing) == 1 else "members"
+        out.append(Condition(
+            "separate_signoff", zone_id=zone.id, load_name=None, level_id=level.id,
+            detail=(f"the end connections of {word} {names} have no shear capacity "
+                    "entered: their end shear was checked against the web's shear "
+                    "resistance, which a simple connection may not reach; enter each "
+                    "connection's capacity, or have the engineer confirm the connections "
+                    "carry the beam's web shear resistance")))
+    return out
 
 
 def _is_finite(v: float | None) -> bool:

@@ -471,6 +471,16 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                       choices=tuple((g, g) for g in _grade_names(m.grade.name))),
             _choice("end_condition", "End conditions",
                     tuple((c, _END_LABELS.get(c, c)) for c in END_CONDITIONS)),
+            FieldSpec("connection_capacity", "End connection shear capacity", "optional",
+                      lambda o: o.connection_capacity,
+                      lambda o, v: replace(o, connection_capacity=v), quantity="force",
+                      tip="Shear capacity of each end connection (bolts, welds, plates), "
+                          "from the drawings or the connection design. Leave empty only "
+                          "if it is not known: the end shear is then checked against the "
+                          "web's shear resistance, which a simple connection may not "
+                          "reach, and the permit asks the engineer to confirm the "
+                          "connection.",
+                      empty="empty = not entered: the engineer must confirm"),
             _ro("ends", "From → to", lambda o: f"({units.fmt(o.start[0], 'length', system)}, "
                 f"{units.fmt(o.start[1], 'length', system)}) → "
                 f"({units.fmt(o.end[0], 'length', system)}, "

@@ -433,6 +433,7 @@ def project_to_document(project: Project) -> dict[str, object]:
             "include_existing_loads": s.include_existing_loads,
             # written only when on, so files of projects without it stay byte-equal
             **({"dynamic_amplification": True} if s.dynamic_amplification else {}),
+            **({"tilted_landing": True} if s.tilted_landing else {}),
         },
         "levels": [_level_doc(lv, memo) for lv in project.levels],
         "lift_zones": [_zone_doc(z) for z in project.lift_zones],
@@ -947,7 +948,8 @@ _KEYS_SETTINGS = {"unit_system": "unit_system", "design_basis": "design_basis",
                   "grid_resolution": "grid_resolution_m",
                   "include_member_mass": "include_member_mass",
                   "include_existing_loads": "include_existing_loads",
-                  "dynamic_amplification": "dynamic_amplification"}
+                  "dynamic_amplification": "dynamic_amplification",
+                  "tilted_landing": "tilted_landing"}
 _KEYS_INFO = {k: k for k in ("name", "site", "lift_reference", "revision", "date",
                              "prepared_by", "checked_by", "approved_by", "description",
                              *_PERMIT_INFO_KEYS)}

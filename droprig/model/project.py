@@ -149,6 +149,10 @@ class Settings:
     dynamic_amplification: the checks use the larger of the energy method and the
     time-history-based demand (droprig.solver.amplification); off by default until
     the calibrated factors are reviewed (README, "Dynamic amplification").
+    tilted_landing: every drop point is also checked for the load landing out of
+    level on its shorter edge (the whole mass through an edge strip,
+    droprig.solver.chain.LANDINGS), the worse governing; off by default until the
+    edge contact is reviewed (README, limits).
     """
 
     unit_system: UnitSystem = "SI"
@@ -162,6 +166,7 @@ class Settings:
     include_member_mass: bool = True
     include_existing_loads: bool = True
     dynamic_amplification: bool = False
+    tilted_landing: bool = False
 
     def __post_init__(self) -> None:
         check_choice("settings.unit_system", self.unit_system, ("SI", "US"))
@@ -173,7 +178,8 @@ class Settings:
         check_range("settings.rotation_limit", self.rotation_limit, math.radians(0.1),
                     math.radians(15.0), unit="rad")
         check_range("settings.grid_resolution", self.grid_resolution, 0.05, 5.0, unit="m")
-        for n in ("include_member_mass", "include_existing_loads", "dynamic_amplification"):
+        for n in ("include_member_mass", "include_existing_loads", "dynamic_amplification",
+                  "tilted_landing"):
             if not isinstance(getattr(self, n), bool):
                 raise ModelError(f"settings.{n}", getattr(self, n), "true or false")
 
@@ -233,9 +239,9 @@ class Member:
 
     ``composite``: studded to the deck (shear connectors), so the slab over it acts
     with it in bending (EN 1994-1-1 ch. 6 / AISC 360-16 ch. I). ``connection_capacity``
-    (N): shear capacity of each end connection; ``None`` takes the web's plastic
-    shear resistance (``droprig.solver.composite.CONNECTION_DEFAULT_FRACTION``; not
-    conservative).
+    (N): shear capacity of each end connection; ``None`` = not entered: the check
+    runs at the web's plastic shear resistance and the permit requires the engineer to
+    confirm the connections (``droprig.solver.composite.CONNECTION_DEFAULT_FRACTION``).
     """
 
     id: str

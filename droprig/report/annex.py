@@ -90,14 +90,18 @@ ASSUMPTIONS: tuple[str, ...] = (
     "Existing loads (self-weight, superimposed dead and the live load left in place) are "
     "as given in the project and are added to the impact actions.",
     "Beyond yield, flexure is idealised elastic–perfectly plastic within the ductility and "
-    "rotation limits below ([{biggs}], [{ufc}]); shear, web and punching failures are "
-    "brittle and have no plastic reserve.",
+    "rotation limits below ([{biggs}], [{ufc}]), the framing in series with the yield-line "
+    "resistance of the struck slab panel where the slab section is ductile (its support "
+    "rotation then limited to 2°); shear, web and punching failures, and the flexure of "
+    "an over-reinforced slab, are brittle and have no plastic reserve.",
     "Deflection limits (span/N) are serviceability information, not pass criteria for an "
     "accidental impact.",
 )
 
 NOT_CHECKED: tuple[str, ...] = (
-    "connections and their bolts or welds",
+    "connections other than for their end shear, and their bolts or welds in detail "
+    "(a connection whose capacity is not entered is checked against the web's shear "
+    "resistance and is a sign-off condition above)",
     "columns, their bases and the foundations",
     "the level below and anything on or under it",
     "secondary impacts, rebound and a load that tips or rolls after landing",

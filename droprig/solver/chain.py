@@ -78,6 +78,7 @@ from droprig.solver import (
     plastic,
     slab,
 )
+from droprig.solver import footprint as footprint_mod
 from droprig.solver import impact as impact_mod
 from droprig.solver import local_damage as local_damage_mod
 from droprig.solver.floor import FloorModel
@@ -95,6 +96,7 @@ from droprig.solver.unit_actions import (
 __all__ = [
     "BRITTLE",
     "CHECK",
+    "LANDINGS",
     "STEPS",
     "BareMember",
     "BeyondYield",
@@ -108,9 +110,11 @@ __all__ = [
     "InverseAnswers",
     "LoadInputs",
     "LocalDamage",
+    "SlabResistance",
     "StruckMass",
     "amplified_demands",
     "dynamic_amplification",
+    "merge_landings",
     "outputs",
     "planned_height",
     "run_chain",
@@ -182,7 +186,10 @@ class Drop:
     V = √(v_h² + 2gh).
 
     ``bare``: the deck-less mode of one member (``loads`` then empty, the load in
-    ``bare``)."""
+    ``bare``).
+
+    ``landing``: ``flat`` (the whole footprint meets the deck) or ``tilted`` (the load
+    lands out of level on one edge: :data:`LANDINGS`)."""
 
     fm: FloorModel
     project: Project
@@ -194,6 +201,7 @@ class Drop:
     mat_k: np.ndarray | None = None
     v_hoist: float = 0.0
     bare: BareMember | None = None
+    landing: str = "flat"
 
     @property
     def n(self) -> int:
@@ -238,9 +246,10 @@ class LoadInputs:
     ``crushable`` with crush force ``F_c`` (N, ∞ none) and stroke ``s_c`` (m); drop
     height ``H`` above the finished surface (m, the datum) and the free fall ``h`` =
     H − t_mat onto the struck surface (m); footprint on the deck ``foot_l`` ×
-    ``foot_w`` (spread 1:1 through a mat, m) and bearing length on a flange ``lb``
-    (smaller footprint side + 2 × mat thickness, m); ``protected``: a pad or mat
-    lies under the load (the framing's mass share is then not taken)."""
+    ``foot_w`` (spread 1:1 through a mat, then cut at the deck's edges and openings:
+    a rectangle of the footprint's proportions with the area that bears, m) and
+    bearing length on a flange ``lb`` (its smaller side, m); ``protected``: a pad or
+    mat lies under the load (the framing's mass share is then not taken)."""
 
     W: np.ndarray
     M: np.ndarray
@@ -279,6 +288,16 @@ def load_inputs(c: Chain) -> LoadInputs:
     F_c = np.full(n, np.inf)
     s_c = np.zeros(n)
     crushable = np.zeros(n, dtype=bool)
+    # the contact: the whole footprint for a flat landing; for a load landing tilted
+    # on one edge, the strip along its shorter edge (the smaller contact of the four
+    # edges of droprig.solver.footprint.tilted_edges), centred on the drop point,
+    # carrying the whole force (common practice, no source)
+    cl, cw = fl, fw
+    if d.landing == "tilted":
+        cl = np.minimum(fl, fw)
+        cw = np.minimum(footprint_mod.EDGE_CONTACT_WIDTH, np.maximum(fl, fw))
+    elif d.landing != "flat":
+        raise ValueError(f"landing: {d.landing!r} is not allowed; allowed: {LANDINGS}")
     any_mat = bool(np.any(geo.protection >= 0))
     prot = d.project.protection_areas
     for i, pa in enumerate(prot):
@@ -295,8 +314,9 @@ def load_inputs(c: Chain) -> LoadInputs:
         together = [j for j, o in enumerate(prot)
                     if o.level_id == lv.id and o.kind == pa.kind
                     and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
-        xs, ys, fls, fws = geo.x[sel], geo.y[sel], fl[sel], fw[sel]
-        A_fp = fls * fws
+        # (a tilted landing presses the layers under its edge strip only)
+        xs, ys, fls, fws = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
+        A_fp = fl[sel] * fw[sel]
         per_orient = []
         stroke = np.full(xs.shape, np.inf)
         for along_x in (True, False):
@@ -348,15 +368,31 @@ def load_inputs(c: Chain) -> LoadInputs:
     elif n and float(np.min(h)) < 0.0:
         _refuse_below_pad(loads, li, lv, t_mat, H)
     spread = 2.0 * t_mat
-    lb = np.minimum(fl, fw) + spread
+    # the part of the contact that bears on the deck: cut at the deck's edges and
+    # over openings (droprig.solver.footprint.footprint_on_deck)
+    ext = lv.grid.extent
+    foot_l, foot_w, _share = footprint_mod.footprint_on_deck(
+        geo.x, geo.y, cl + spread, cw + spread, (ext.x0, ext.y0, ext.x1, ext.y1),
+        tuple((o.x0, o.y0, o.x1, o.y1) for o in lv.deck.openings))
+    foot_l = np.maximum(foot_l, MIN_CONTACT_SIDE)
+    foot_w = np.maximum(foot_w, MIN_CONTACT_SIDE)
+    lb = np.minimum(foot_l, foot_w)
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
-                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=fl + spread,
-                      foot_w=fw + spread, lb=lb, protected=protected)
+                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
+                      foot_w=foot_w, lb=lb, protected=protected)
 
 
 _SAME_THICKNESS = 1e-3
 """Layers whose thicknesses differ by at most this (m) are pressed together by one
 footprint (common practice, no source)."""
+
+LANDINGS = ("flat", "tilted")
+"""How a load meets the deck; every drop point is checked for each, the worse
+governing (:func:`merge_landings`)."""
+
+MIN_CONTACT_SIDE = 1e-3
+"""Least side of the contact rectangle on the deck, m (a footprint all but wholly over
+an opening or off the deck still bears on a sliver; keeps the contact checks finite)."""
 
 
 def planned_height(load: LiftLoad, level: Level) -> float:
@@ -877,6 +913,113 @@ def two_way_share(c: Chain) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     return np.where(ok, share, 0.0), Ly, yb
 
 
+# --------------------------------------------------------------------------- 5c. slab
+@dataclass(frozen=True, eq=False)
+class SlabResistance:
+    """Per point: the struck deck panel as a ductile member in series with the
+    framing. ``R_yl`` (N): yield-line resistance of the panel under the load (inf on
+    a support line, where a panel opening lies near, or where the slab is not
+    ductile); ``ell`` (m): distance from the load to the nearest support line (the
+    segments' lever for the support rotation); ``ductile``: the slab section may be
+    taken past yield here (deck flexure is then not brittle); ``R`` (N): the
+    resistance of slab and framing in series, min(R_frame, R_yl); ``slab_first``:
+    the slab's mechanism forms before the framing's (R_yl < R_frame)."""
+
+    R_yl: np.ndarray
+    ell: np.ndarray
+    ductile: np.ndarray
+    R: np.ndarray
+    slab_first: np.ndarray
+
+
+def slab_rotation_limit(settings_limit: float) -> float:
+    """Support-rotation limit of the slab's yield-line mechanism, rad: the less of
+    :data:`droprig.solver.slab.ROTATION_LIMIT_SLAB` (2°, UFC 3-340-02 ch. 4 for slabs
+    without shear reinforcement or membrane detailing — from memory) and the
+    project's rotation limit."""
+    return min(slab.ROTATION_LIMIT_SLAB, settings_limit)
+
+
+def slab_ductile(fm: FloorModel) -> bool:
+    """Whether the level's deck section is under-reinforced enough to be taken past
+    yield: x_u/d ≤ 0.45 (fck ≤ 50 MPa) or 0.35 (EN 1992-1-1 §5.6.3(2) simplified
+    rotation check, :func:`droprig.solver.slab.is_ductile`; x_u by §3.1.7(3) or
+    ACI 318-19 §22.2.2, :func:`droprig.solver.slab.neutral_axis_ratio`)."""
+    dk = fm.level.deck
+    dd = deck.effective_depth(dk)
+    if dd <= 0.0 or dk.rebar_area <= 0.0:
+        return False
+    xu_d = slab.neutral_axis_ratio(dk.rebar_area, dd, dk.concrete.fc, dk.concrete.fy_rebar,
+                                   fm.settings.design_basis)
+    return bool(slab.is_ductile(xu_d, dk.concrete.fc))
+
+
+def hogging_resistance(fm: FloorModel) -> float:
+    """Hogging moment resistance per metre width over the beams and girders from the
+    deck's top bars, N·m/m (:func:`droprig.solver.deck.deck_flexure_resistance` with
+    the top bars as the tension steel; 0 without top bars)."""
+    dk = fm.level.deck
+    if dk.top_rebar_area <= 0.0:
+        return 0.0
+    top = cast(Deck, SimpleNamespace(thickness=dk.thickness, cover=dk.cover,
+                                     rebar_area=dk.top_rebar_area, concrete=dk.concrete))
+    return float(deck.deck_flexure_resistance(top, fm.settings.design_basis,
+                                              fm.settings.resistance_factor))
+
+
+def slab_resistance(c: Chain) -> SlabResistance:
+    """Yield-line resistance of the struck panel (Lx = the deck strip's span between
+    the beams, Ly = the beams' span between the girders, load at (x, y) in it), the
+    least of the conical fan and the four-segment pattern
+    (:func:`droprig.solver.slab.yield_line_resistance`; Johansen; Park & Gamble,
+    *Reinforced Concrete Slabs* 2nd ed. ch. 9–10 — from memory), with sagging
+    m_x = M_r − m_0 along the main bars (the existing load's strip moment
+    q·L²/8 taken off, conservative), m_y = 20 % of M_r across them (distribution
+    steel, EN 1992-1-1 §9.3.1.1(2)), hogging from the top bars over every support
+    line, and the load as the circle of the footprint's area. In series with the
+    framing, the pair yields at R = min(R_frame, R_yl) (UFC 3-340-02 ch. 3,
+    resistance of elements in series; :func:`droprig.solver.slab.series_resistance`).
+    N, m."""
+    d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
+    fm, n = d.fm, d.n
+    R_frame = c[Demands].actions.R_p
+    inf = np.full(n, np.inf)
+    if d.bare is not None or fm.level.deck.is_steel:
+        # deck-less (one member), or a steel plate / grating deck: no concrete slab
+        # mechanism is credited (a steel deck's flexure stays a brittle check:
+        # conservative)
+        return SlabResistance(R_yl=inf, ell=np.zeros(n), ductile=np.zeros(n, dtype=bool),
+                              R=R_frame, slab_first=np.zeros(n, dtype=bool))
+    _share, Ly, yb = two_way_share(c)
+    Lx, xa = comp.strip_span, np.clip(comp.strip_pos, 0.0, np.maximum(comp.strip_span, 0.0))
+    ell = np.minimum(np.minimum(xa, Lx - xa), np.minimum(yb, Ly - yb))
+    ductile = np.full(n, slab_ductile(fm)) & (Lx > 0.0) & (Ly > 0.0)
+    dk = fm.level.deck
+    if ductile.any() and dk.openings:
+        # a panel with an opening near the load: no credit (the patterns assume a
+        # whole panel)
+        reach = np.maximum(Lx, Ly)
+        x, y = d.geo.x, d.geo.y
+        for op in dk.openings:
+            gx = np.maximum(0.0, np.maximum(op.x0 - x, x - op.x1))
+            gy = np.maximum(0.0, np.maximum(op.y0 - y, y - op.y1))
+            ductile &= np.hypot(gx, gy) > reach
+    if not ductile.any():
+        return SlabResistance(R_yl=inf, ell=ell, ductile=ductile, R=R_frame,
+                              slab_first=np.zeros(n, dtype=bool))
+    m0 = deck.deck_existing_moment_per_width(np.where(Lx > 0.0, Lx, 0.0), fm.q0)
+    mx = np.maximum(fm.deck_Mr - m0, 0.0)
+    my = DISTRIBUTION_SHARE * fm.deck_Mr
+    m_neg = hogging_resistance(fm)
+    r_load = np.sqrt(inp.foot_l * inp.foot_w / np.pi)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        R_yl = slab.yield_line_resistance(Lx, Ly, xa, yb, mx, my, r_load, m_neg, m_neg)
+    R_yl = np.where(ductile & np.isfinite(R_yl) & (R_yl > 0.0), R_yl, np.inf)
+    R, _dy, first = slab.series_resistance(R_frame, comp.f_s, R_yl, comp.f_deck)
+    return SlabResistance(R_yl=R_yl, ell=ell, ductile=ductile, R=R,
+                          slab_first=(first == 2) & np.isfinite(R_yl))
+
+
 # --------------------------------------------------------------------------- 6. checks
 @dataclass(frozen=True, eq=False)
 class Checks:
@@ -900,7 +1043,9 @@ class Checks:
 
 def checks(c: Chain) -> Checks:
     """U = max over checks; F_allow = min over checks (linear in F, common practice, no
-    source); brittle checks at R_p where F > R_p (DNV-RP-C204, from memory)."""
+    source); brittle checks at R_p where F > R_p (DNV-RP-C204, from memory), R_p the
+    resistance of slab and framing in series (:func:`slab_resistance`); deck flexure
+    of a ductile slab yields instead of breaking (EN 1992-1-1 §5.6.3(2))."""
     d, imp, dem = c.drop, c[Impact], c[Demands]
     n, F, chk = d.n, imp.F, dem.checks
     names = list(chk)
@@ -913,19 +1058,30 @@ def checks(c: Chain) -> Checks:
         F_allow = np.minimum(F_allow, chk[k].F_allow)
     gov_check = np.array([CHECK[names[i]] for i in range(len(names))])[gi]
     gov_member = np.stack([chk[k].member for k in names])[gi, rows]
-    R_p = dem.actions.R_p
+    sr = c[SlabResistance]
+    R_p = sr.R
     # U at F_cap = min(F, R_p) is U at F where F_cap is F (F ≤ R_p or F is NaN) and
     # U at R_p elsewhere: each brittle family is evaluated at R_p once, for this and
-    # for the plastic inverse answer (same values as evaluating at F_cap)
-    brittle = tuple(k for k in BRITTLE if k in chk)  # (deck-less: no deck checks)
-    Ub_at_Rp = tuple(chk[k].U_at(R_p) for k in brittle)
+    # for the plastic inverse answer (same values as evaluating at F_cap). Deck
+    # flexure of a ductile slab is not brittle: its mechanism is part of R_p.
+    # (deck-less, one member: no deck checks)
+    brittle = tuple(k for k in BRITTLE if k in chk)
+    zero = np.zeros(n)
+
+    def brittle_U(k: str, U: np.ndarray) -> np.ndarray:
+        return np.where(sr.ductile, zero, U) if k == "deck_flexure" else U
+
+    Ub_at_Rp = tuple(brittle_U(k, chk[k].U_at(R_p)) for k in brittle)
     at_F = (F <= R_p) | np.isnan(F)
-    Ub = np.stack([np.where(at_F, chk[k].U, u) for k, u in zip(brittle, Ub_at_Rp, strict=True)])
+    Ub = np.stack([np.where(at_F, brittle_U(k, chk[k].U), u)
+                   for k, u in zip(brittle, Ub_at_Rp, strict=True)])
     jb = argmax_nan_low(Ub)
     Ub_max = Ub[jb, rows]
     brittle_member = np.stack([chk[k].member for k in brittle])[jb, rows]
     brittle_check = np.array([CHECK[k] for k in brittle])[jb]
     flex_exceeded = chk["flexure"].U > 1.0
+    if "deck_flexure" in chk:
+        flex_exceeded = flex_exceeded | (sr.ductile & (chk["deck_flexure"].U > 1.0))
     response = np.full(n, ELASTIC, dtype=np.int64)
     over = U > 1.0
     brittle_fail = over & (~flex_exceeded | (Ub_max > 1.0))
@@ -974,10 +1130,10 @@ def beyond_yield(c: Chain) -> BeyondYield:
     (δm − R_p·f_series)/(R_p·f_s); support rotation
     (:func:`droprig.solver.plastic.support_rotation`)."""
     d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
-    ua, ck = c[Demands].actions, c[Checks]
+    ua, ck, sr = c[Demands].actions, c[Checks], c[SlabResistance]
     s, n = d.fm.settings, d.n
     W, h, F_c, s_c, eta = inp.W, inp.h, inp.F_c, inp.s_c, sm.eta
-    R_p, f_s, f = ua.R_p, comp.f_s, comp.f
+    R_p, f_s, f = sr.R, comp.f_s, comp.f
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
     h_struct = h.copy()
     crush_ok = inp.crushable & (F_c < R_p) & imp.bottomed
@@ -1007,6 +1163,16 @@ def beyond_yield(c: Chain) -> BeyondYield:
         Lsel = arm_s[sel] if COND_NAMES[int(cc)] == "cantilever" else 2 * arm_s[sel]
         theta_s[sel] = plastic.support_rotation(d_struct[sel], Lsel, arm_s[sel],
                                                 COND_NAMES[int(cc)])
+    # the slab's mechanism first: the framing stays elastic (ductility R/R_frame) and
+    # the plastic deflection is the slab's, turning its segments about the nearest
+    # support line (slab.slab_support_rotation; limit slab_rotation_limit)
+    sf_s = sr.slab_first[sub]
+    if sf_s.any():
+        with np.errstate(divide="ignore", invalid="ignore"):
+            d_slab = np.maximum(d_m_s - R_ps * f[sub], 0.0)
+            duct_s = np.where(sf_s, R_ps / ua.R_p[sub], duct_s)
+            theta_sl = slab.slab_support_rotation(d_slab, sr.ell[sub])
+        theta_s = np.where(sf_s, theta_sl, theta_s)
     d_m: np.ndarray
     ductility: np.ndarray
     theta: np.ndarray
@@ -1018,12 +1184,14 @@ def beyond_yield(c: Chain) -> BeyondYield:
         d_m[sub], collapsed[sub], ductility[sub], theta[sub] = d_m_s, coll_s, duct_s, theta_s
     col = pl & collapsed
     duct = pl & ~collapsed & (ductility > s.ductility_limit)
-    rot = pl & ~collapsed & ~duct & (theta > s.rotation_limit)
+    theta_lim = np.where(sr.slab_first, slab_rotation_limit(s.rotation_limit),
+                         s.rotation_limit)
+    rot = pl & ~collapsed & ~duct & (theta > theta_lim)
     ok_pl = pl & ~collapsed & ~duct & ~rot
     # flexure beyond the resistance of a member that cannot form a plastic hinge
     # (AISC 360-16 App. 1 / EN 1993-1-1 Class 1): no plastic reserve, exceeds (as in
     # droprig check, droprig.solver.member)
-    no_hinge = ok_pl & (imp.F > ua.nh_fa)
+    no_hinge = ok_pl & (np.where(sr.slab_first, R_p, imp.F) > ua.nh_fa)
     ok_pl = ok_pl & ~no_hinge
     response = ck.response.copy()
     response[ok_pl] = PLASTIC
@@ -1032,6 +1200,11 @@ def beyond_yield(c: Chain) -> BeyondYield:
     gov_check = np.where(rot, CHECK["rotation"], gov_check)
     gov_check = np.where(ok_pl, CHECK["flexure"], gov_check)
     gov_member = np.where(pl, ua.rp_member, ck.gov_member)
+    # the yielding is the slab's where its mechanism forms first, or where only the
+    # deck's elastic strip check is exceeded
+    slab_gov = pl & (sr.slab_first | ~(c[Demands].checks["flexure"].U > 1.0))
+    gov_check = np.where(slab_gov & ok_pl, CHECK["deck_flexure"], gov_check)
+    gov_member = np.where(slab_gov, DECK, gov_member)
     gov_check = np.where(no_hinge, CHECK["flexure"], gov_check)
     gov_member = np.where(no_hinge, ua.nh_member, gov_member)
     return BeyondYield(R_p=R_p, rp_member=ua.rp_member, h_struct=h_struct, d_m=d_m,
@@ -1116,7 +1289,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     (:mod:`droprig.solver.limits`); beyond yield the energy balance at the ductility
     and rotation limits (:func:`droprig.solver.plastic.allowable_height_plastic`)."""
     d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
-    ck, by = c[Checks], c[BeyondYield]
+    ck, by, sr = c[Checks], c[BeyondYield], c[SlabResistance]
     ua = c[Demands].actions
     s = d.fm.settings
     W, eta, F_c, s_c, crushable = inp.W, sm.eta, inp.F_c, inp.s_c, inp.crushable
@@ -1141,6 +1314,10 @@ def inverse_answers(c: Chain) -> InverseAnswers:
             ua.rp_cond == COND_NAMES.index("cantilever"), ua.rp_arm, ua.rp_arm)
         d_lim_s = np.minimum(s.ductility_limit * R_p * f_s, d_rot)
         mu_tot = (d_lim_s + R_p * comp.f_series) / (R_p * f)
+        # the slab's mechanism first: its plastic deflection up to the slab's rotation
+        # limit about the nearest support line (as beyond_yield checks it)
+        d_slab = np.tan(slab_rotation_limit(s.rotation_limit)) * sr.ell
+        mu_tot = np.where(sr.slab_first, (R_p * f + d_slab) / (R_p * f), mu_tot)
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     h_pl = with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
     # the drop height that gives the structure that energy after amplification (A_δ²)
@@ -1153,6 +1330,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     with np.errstate(invalid="ignore"):
         hp_check = np.where(s.ductility_limit * R_p * f_s <= d_rot, CHECK["ductility"],
                             CHECK["rotation"])
+    hp_check = np.where(sr.slab_first, CHECK["rotation"], hp_check)
     hp_check = np.where(np.isnan(h_pl) | (h_el >= h_pl), -1, hp_check)
     h_pl = np.fmax(h_pl, h_el)
     m_allow = limits.allowable_mass(Fa_pos, inp.h, f, sm.m_e)
@@ -1286,6 +1464,7 @@ STEPS: tuple[Callable[[Chain], object], ...] = (
     demands,
     dynamic_amplification,
     amplified_demands,
+    slab_resistance,
     checks,
     beyond_yield,
     inverse_answers,
@@ -1347,4 +1526,50 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
                                                  out["allowable_height_check"])
         out["allowable_height_member"] = np.where(op, DECK, out["allowable_height_member"])
     out["F_allow"] = ck.F_allow
+    return out
+
+
+_BY_RESPONSE = ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
+                "max_deflection", "deceleration_g", "utilisation", "governing_member",
+                "governing_check", "response", "plastic_deflection", "ductility",
+                "support_rotation", "structure_compliance")
+"""Outputs that describe the response at a point: taken from the governing landing."""
+
+_BY_HEIGHT = ("allowable_drop_height", "allowable_height_check", "allowable_height_member",
+              "F_allow")
+_BY_PLASTIC_HEIGHT = ("allowable_drop_height_plastic", "allowable_height_plastic_check")
+
+
+def _lower(a: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """True where ``b`` is the lower value; NaN (none exists: no height allowed) is
+    the lowest of all."""
+    return (np.isnan(b) & ~np.isnan(a)) | (b < a)
+
+
+def merge_landings(flat: dict[str, np.ndarray], tilted: dict[str, np.ndarray]
+                   ) -> dict[str, np.ndarray]:
+    """The outputs of a point checked for both landings, the worse governing: the
+    response, utilisation and what goes with them from the landing with the worse
+    response (then the larger utilisation); each allowable height (and its check,
+    member and allowed force) the lower of the two; the allowable mass and the
+    stiffest mat that works the less, the crush stroke needed the larger (NaN — none
+    exists — wins). Everything else is the same for both landings."""
+    out = dict(flat)
+    Uf = np.where(np.isnan(flat["utilisation"]), -np.inf, flat["utilisation"])
+    Ut = np.where(np.isnan(tilted["utilisation"]), -np.inf, tilted["utilisation"])
+    rf, rt = flat["response"], tilted["response"]
+    gov = (rt > rf) | ((rt == rf) & (Ut > Uf))
+    for k in _BY_RESPONSE:
+        out[k] = np.where(gov, tilted[k], flat[k])
+    low = _lower(flat["allowable_drop_height"], tilted["allowable_drop_height"])
+    for k in _BY_HEIGHT:
+        out[k] = np.where(low, tilted[k], flat[k])
+    low = _lower(flat["allowable_drop_height_plastic"], tilted["allowable_drop_height_plastic"])
+    for k in _BY_PLASTIC_HEIGHT:
+        out[k] = np.where(low, tilted[k], flat[k])
+    out["allowable_mass"] = np.minimum(flat["allowable_mass"], tilted["allowable_mass"])
+    out["required_mat_stiffness"] = np.minimum(flat["required_mat_stiffness"],
+                                               tilted["required_mat_stiffness"])
+    out["required_crush_stroke"] = np.maximum(flat["required_crush_stroke"],
+                                              tilted["required_crush_stroke"])
     return out

@@ -28,13 +28,20 @@ __all__ = [
 ]
 
 CONNECTION_DEFAULT_FRACTION = 1.0
-"""Default end-connection shear capacity as a share of the beam's plastic shear
-resistance V_pl, when the user gives none: 1.0, so that without data the check
-repeats the web's shear check. This is NOT conservative (simple fin-plate and
-double-angle connections are often weaker than the web; common practice, no
-source): enter each member's real connection capacity. A lower default (0.5 was
-tried) turned every bay of the demo projects into a keep-clear area, which a
-permit cannot use; the choice is left to the engineer."""
+"""Working connection capacity, as a share of the beam's plastic shear resistance
+V_pl, while the user has entered none: 1.0 — the connection check then repeats the
+web's shear check and adds no margin of its own.
+
+Decision (common practice, no source): a connection's capacity cannot be inferred
+from the beam. Simple fin-plate and double-angle connections of existing floors were
+designed for the gravity reaction and often carry well under V_pl; no fraction of V_pl
+is conservative for every connection (0.5 was tried: every demo bay became a
+keep-clear area on a guess, which is not a safer answer, only a different guess).
+So the capacity is a required input for a permit: until every member of a lift
+zone's level has one, :func:`droprig.permit.derive_conditions` adds a separate
+sign-off condition naming the members whose connections the engineer must confirm
+(or whose capacity must be entered), and the permit cannot read "Acceptable" without
+conditions. The annex and the inspector say so."""
 
 
 @dataclass(frozen=True)
@@ -150,9 +157,11 @@ def effective_inertia(I_steel: float, I_tr: float, shear_connection: float) -> f
 
 
 def connection_capacity(V_pl: float, capacity: float | None = None) -> float:
-    """End-connection shear capacity, N: the user's figure, or the default
+    """End-connection shear capacity, N: the user's figure, or the working value
     :data:`CONNECTION_DEFAULT_FRACTION`·V_pl (V_pl the beam's plastic shear
-    resistance, N). The end-shear utilisation is then V_end/capacity."""
+    resistance, N; not a conservative default — the permit then requires the
+    engineer's confirmation, see :data:`CONNECTION_DEFAULT_FRACTION`). The end-shear
+    utilisation is V_end/capacity."""
     if capacity is not None:
         if not (math.isfinite(capacity) and capacity > 0.0):
             raise ValueError(f"member connection_capacity: {capacity!r} must be > 0 N")

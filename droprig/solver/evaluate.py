@@ -14,7 +14,7 @@ import numpy as np
 
 from droprig.model import LiftLoad, Project
 from droprig.solver import loadpath, memory
-from droprig.solver.chain import FIELDS, Chain, Drop, outputs, run_chain
+from droprig.solver.chain import FIELDS, Chain, Drop, merge_landings, outputs, run_chain
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry, point_geometry, slice_geo
 from droprig.solver.loadpath import PathResult
@@ -43,25 +43,36 @@ def _loads(load: LiftLoad | Sequence[LiftLoad]) -> tuple[LiftLoad, ...]:
 
 def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                    geo: Geometry, load_index: np.ndarray | None = None, *,
-                   detail: bool = True, v_hoist: float = 0.0) -> Chain:
+                   detail: bool = True, v_hoist: float = 0.0, landing: str = "flat") -> Chain:
     """Every step of the chain for ``load`` at the points of ``geo`` (one block, all
-    points; the calculation trace and the tests read the step results). ``load`` may
-    be a sequence of loads with ``load_index`` naming the load of each point;
-    ``v_hoist`` is the hoist's lowering speed at release (m/s, :class:`Drop`)."""
+    points; the calculation trace and the tests read the step results) for one
+    ``landing`` (:data:`~droprig.solver.chain.LANDINGS`). ``load`` may be a sequence
+    of loads with ``load_index`` naming the load of each point; ``v_hoist`` is the
+    hoist's lowering speed at release (m/s, :class:`Drop`)."""
     memory.keep_freed_memory()
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
     with np.errstate(all="ignore"):
-        return run_chain(Drop(fm, project, geo, _loads(load), li, detail, v_hoist=v_hoist))
+        return run_chain(Drop(fm, project, geo, _loads(load), li, detail,
+                              v_hoist=v_hoist, landing=landing))
 
 
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
              geo: Geometry, load_index: np.ndarray | None, H: np.ndarray | None = None,
              mat_k: np.ndarray | None = None, v_hoist: float = 0.0) -> dict[str, np.ndarray]:
+    """The outputs of the flat landing, or with the project setting
+    ``tilted_landing`` of both landings merged, the worse governing
+    (:func:`~droprig.solver.chain.merge_landings`)."""
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
-    return outputs(run_chain(Drop(fm, project, geo, _loads(load), li, False, H, mat_k,
-                                  v_hoist)))
+    loads = _loads(load)
+    flat = outputs(run_chain(Drop(fm, project, geo, loads, li, False, H, mat_k,
+                                  v_hoist=v_hoist, landing="flat")))
+    if not fm.settings.tilted_landing:
+        return flat
+    tilted = outputs(run_chain(Drop(fm, project, geo, loads, li, False, H, mat_k,
+                                    v_hoist=v_hoist, landing="tilted")))
+    return merge_landings(flat, tilted)
 
 
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],

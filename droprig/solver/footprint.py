@@ -23,6 +23,7 @@ from numpy.typing import ArrayLike
 __all__ = [
     "EDGE_CONTACT_WIDTH",
     "clip_footprint",
+    "footprint_on_deck",
     "rigid_base_shares",
     "tilted_edges",
 ]
@@ -50,6 +51,39 @@ def clip_footprint(x0: ArrayLike, y0: ArrayLike, x1: ArrayLike, y1: ArrayLike,
     xc = np.where(on, 0.5 * (cx0 + cx1), np.nan)
     yc = np.where(on, 0.5 * (cy0 + cy1), np.nan)
     return area, xc, yc, area / full
+
+
+def footprint_on_deck(x: ArrayLike, y: ArrayLike, length: ArrayLike, width: ArrayLike,
+                      extent: tuple[float, float, float, float],
+                      openings: tuple[tuple[float, float, float, float], ...] = ()
+                      ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The part of a footprint length × width centred at (x, y) that bears on the deck:
+    returns (length, width) of a rectangle of that area and the footprint's shape, and
+    the share of the footprint on the deck, m, m, dimensionless.
+
+    Both plan orientations of the footprint (length along x or along y) are cut to the
+    deck ``extent`` (:func:`clip_footprint`) and the area over each opening
+    (x0, y0, x1, y1) is taken off; the lesser area of the two orientations is kept
+    (higher contact pressure: the lower punching and crushing resistance, the higher
+    deck moment; conservative for the contact checks), and both sides are scaled by
+    √share so that the area is exact and the sides change continuously with the
+    point (a rectangle of the footprint's proportions stands for the cut shape —
+    common practice, no source). A footprint wholly on the deck is returned unchanged.
+    """
+    x, y, ln, wd = np.broadcast_arrays(*(np.asarray(v, float) for v in (x, y, length, width)))
+    least = np.full(x.shape, np.inf)
+    ex0, ey0, ex1, ey1 = extent
+    for lx, ly in ((ln, wd), (wd, ln)):
+        x0, x1, y0, y1 = x - lx / 2, x + lx / 2, y - ly / 2, y + ly / 2
+        net, _, _, _ = clip_footprint(x0, y0, x1, y1, extent)
+        for op in openings:
+            cut, _, _, _ = clip_footprint(np.maximum(x0, ex0), np.maximum(y0, ey0),
+                                          np.minimum(x1, ex1), np.minimum(y1, ey1), op)
+            net = net - cut
+        least = np.minimum(least, np.maximum(net, 0.0))
+    share = np.minimum(least / (ln * wd), 1.0)
+    root = np.sqrt(share)
+    return ln * root, wd * root, share
 
 
 def rigid_base_shares(s: ArrayLike, k: ArrayLike, s_load: ArrayLike,

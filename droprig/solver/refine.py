@@ -34,8 +34,12 @@ def severity(utilisation: np.ndarray, response: np.ndarray) -> np.ndarray:
 def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
             step: float, n_top: int) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Points on a 5 × 5 lattice of spacing ``step`` around the worst points of
-    each bay for each load, moved into the zone where they fall outside it, kept
-    where they lie over a deck panel. Returns x, y and the load index of each."""
+    each bay for each load — the most severe (:func:`severity`) and those with the
+    least allowable drop height (the hook limits and mats come from that least
+    height: where a yielding slab makes a point less severe than a brittle one
+    elsewhere, the least height need not lie at the most severe point) — moved into
+    the zone where they fall outside it, kept where they lie over a deck panel.
+    Returns x, y and the load index of each."""
     sev = severity(res["utilisation"], res["response"])
     finite = np.isfinite(res["utilisation"])
     bay = res["bay"]
@@ -45,12 +49,12 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     cand = np.flatnonzero(finite)
     if cand.size == 0:
         return np.zeros(0), np.zeros(0), np.zeros(0, dtype=np.int64)
-    cand = cand[_top_candidates(sev[cand], group[cand], n_top)]
-    order = cand[np.lexsort((-sev[cand], group[cand]))]
-    g = group[order]
-    first = np.r_[True, g[1:] != g[:-1]]
-    start = np.maximum.accumulate(np.where(first, np.arange(g.size), 0))
-    top = order[(np.arange(g.size) - start) < n_top]
+    top = _top_per_group(sev, group, cand, n_top)
+    h = res.get("allowable_drop_height")
+    if h is not None:
+        low = np.flatnonzero(finite & np.isfinite(h))
+        if low.size:
+            top = np.union1d(top, _top_per_group(-h, group, low, n_top))
     off = np.arange(-2, 3) * step
     OX, OY = np.meshgrid(off, off)
     x = (res["x"][top][:, None] + OX.ravel()[None, :]).ravel()
@@ -61,6 +65,17 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     x, y = droppoints.project_into_zone(zone, x, y)
     keep = droppoints.in_zone(zone, x, y) & (locate(fm.frame, x, y) >= 0)
     return x[keep], y[keep], lj[keep]
+
+
+def _top_per_group(key: np.ndarray, group: np.ndarray, cand: np.ndarray,
+                   n_top: int) -> np.ndarray:
+    """The ``n_top`` rows of ``cand`` with the largest ``key`` in each group."""
+    cand = cand[_top_candidates(key[cand], group[cand], n_top)]
+    order = cand[np.lexsort((-key[cand], group[cand]))]
+    g = group[order]
+    first = np.r_[True, g[1:] != g[:-1]]
+    start = np.maximum.accumulate(np.where(first, np.arange(g.size), 0))
+    return order[(np.arange(g.size) - start) < n_top]
 
 
 def _top_candidates(sev: np.ndarray, group: np.ndarray, n_top: int) -> np.ndarray:
@@ -89,7 +104,8 @@ def _keys(x: np.ndarray, y: np.ndarray, li: np.ndarray) -> np.ndarray:
     return (np.round(x, 7) + 1e5 * li) + 1j * np.round(y, 7)
 
 
-_REFINE_KEYS = ("x", "y", "bay", "utilisation", "response", "load_index")
+_REFINE_KEYS = ("x", "y", "bay", "utilisation", "response", "load_index",
+                "allowable_drop_height")
 """The fields :func:`_refine` reads (merged after every pass; the others once)."""
 
 

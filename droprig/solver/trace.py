@@ -22,6 +22,7 @@ from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
 from droprig.solver import droppoints, limits
 from droprig.solver.chain import (
     BRITTLE,
+    LANDINGS,
     BeyondYield,
     Chain,
     Checks,
@@ -32,12 +33,15 @@ from droprig.solver.chain import (
     InverseAnswers,
     LoadInputs,
     LocalDamage,
+    SlabResistance,
     StruckMass,
     outputs,
+    slab_rotation_limit,
 )
 from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import evaluate_chain
 from droprig.solver.floor import FloorModel, floor_model
+from droprig.solver.footprint import EDGE_CONTACT_WIDTH
 from droprig.solver.geometry import Geometry, point_geometry
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, RESPONSES, Trace, TraceStep
@@ -61,7 +65,8 @@ _SRC_CHECK = {
     "deck_punching": "ACI 318-19 §22.6 / EN 1992-1-1 §6.4.4, §6.4.2(3) at openings, "
                      "EN 1994-1-1 §9.7.6 over ribs (droprig.solver.chain)",
     "connection": "end shear against the connection capacity (Member.connection_capacity; "
-                  "default the web's plastic shear resistance, droprig.solver.composite)",
+                  "not entered: the web's plastic shear resistance, to be confirmed by "
+                  "the engineer, droprig.solver.composite)",
 }
 _SRC_SERIES = ("springs in series, 1/k_eff = Σ 1/k_i (Gere, Mechanics of Materials 7th ed., "
                "§9.10 energy method)")
@@ -103,9 +108,27 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     if geo.path.pair[0] < 0:
         raise ModelError("trace.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}")
-    chain = evaluate_chain(fm, project, load, geo, detail=True, v_hoist=zone.hoist_speed)
+    # both landings (droprig.solver.chain.LANDINGS); the trace follows the one that
+    # governs the point's response (as droprig.solver.chain.merge_landings)
+    chains = {k: evaluate_chain(fm, project, load, geo, detail=True, landing=k,
+                                     v_hoist=zone.hoist_speed)
+              for k in (LANDINGS if project.settings.tilted_landing else ("flat",))}
+    o_f = outputs(chains["flat"])
+    o_t = outputs(chains["tilted"]) if "tilted" in chains else o_f
+    u_f, u_t = float(np.nan_to_num(o_f["utilisation"][0], nan=-1.0)), \
+        float(np.nan_to_num(o_t["utilisation"][0], nan=-1.0))
+    r_f, r_t = int(o_f["response"][0]), int(o_t["response"][0])
+    landing = "tilted" if (r_t > r_f or (r_t == r_f and u_t > u_f)) else "flat"
+    chain = chains[landing]
     sheet = _Sheet(project, fm, geo, load, chain)
     add = sheet.add
+    inp = chain[LoadInputs]
+    if project.settings.tilted_landing:
+        add("Landing that governs: " + ("tilted, on the shorter edge of the footprint"
+                                        if landing == "tilted" else "flat, on the footprint"),
+            "A_c", "A_c = contact on the deck (footprint, or edge strip of width w_e)",
+            {"w_e": (EDGE_CONTACT_WIDTH, "length")}, inp.foot_l[0] * inp.foot_w[0], "area",
+            "both landings checked, the worse governs (common practice, no source)")
     in_zone = bool(droppoints.in_zone(zone, xa, ya)[0])
     if not in_zone:
         add("Point outside the lift zone (traced anyway)", "d_zone",
@@ -330,16 +353,27 @@ def _check_steps(sheet: _Sheet) -> None:
         "H_allow = h_allow + t_mat",
         {"h_allow": (inv.h_el[0], "length"), "t_mat": (sheet.inp.t_mat[0], "length")},
         inv.h_el[0] + sheet.inp.t_mat[0], "length", "datum of droprig (finished surface)")
-    add("Plastic collapse resistance of the path", "R_p",
-        "R_p = min over path members of the collapse load for a load at p",
-        {}, by.R_p[0], "force", "virtual work (Neal); droprig.solver.beam")
+    sr = sheet.chain[SlabResistance]
+    R_frame = sheet.chain[Demands].actions.R_p[0]
+    add("Plastic collapse resistance of the framing", "R_frame",
+        "R_frame = min over path members of the collapse load for a load at p",
+        {}, R_frame, "force", "virtual work (Neal); droprig.solver.beam")
+    if np.isfinite(sr.R_yl[0]):
+        add("Yield-line resistance of the struck slab panel", "R_yl",
+            "R_yl = min(fan 2π√(m_x·m_y)/(1 − 2r/3ℓ), Σ (m + m')·(projected length)/lever)",
+            {"ℓ": (sr.ell[0], "length")}, sr.R_yl[0], "force",
+            "Johansen; Park & Gamble, Reinforced Concrete Slabs 2nd ed. ch. 9–10 "
+            "(from memory); EN 1992-1-1 §5.6.3(2) ductile section")
+    add("Series resistance of slab and framing", "R_p", "R_p = min(R_frame, R_yl)",
+        {"R_frame": (R_frame, "force")}, by.R_p[0], "force",
+        "elements in series (UFC 3-340-02 ch. 3, from memory)")
     if by.no_hinge[0]:
         add("Flexure beyond the resistance of a section that cannot form a plastic hinge "
             f"({mname(by.gov_member[0])}): no plastic reserve, exceeds",
             "F/F_allow,nh", "F / F_allow of the members without hinge capacity",
             {"F": (imp.F[0], "force"), "F_allow,nh": (by.nh_fa[0], "force")},
             imp.F[0] / by.nh_fa[0], "dimensionless", _SRC_HINGE)
-    if by.response[0] != 0 and dem.checks["flexure"].U[0] > 1.0:
+    if by.response[0] != 0 and ck.flex_exceeded[0]:
         add("Brittle checks at the plastic force", "U_brittle", "U at F = min(F, R_p)",
             {"R_p": (by.R_p[0], "force")}, ck.Ub_cap[0], "dimensionless",
             "no plastic reserve in " + ", ".join(BRITTLE)
@@ -350,9 +384,15 @@ def _check_steps(sheet: _Sheet) -> None:
         add("Ductility", "μ", "μ = δ_m / δ_y", {"μ_lim": (project.settings.ductility_limit,
                                                         "dimensionless")},
             by.ductility[0], "dimensionless", _SRC_PLASTIC)
-        add("Support rotation", "θ", "θ = atan(δ_m / arm)",
-            {"θ_lim": (project.settings.rotation_limit, "angle")}, by.theta[0], "angle",
-            _SRC_PLASTIC)
+        if sr.slab_first[0]:
+            add("Support rotation of the slab", "θ", "θ = atan((δ_m − δ_y) / ℓ)",
+                {"ℓ": (sr.ell[0], "length"),
+                 "θ_lim": (slab_rotation_limit(project.settings.rotation_limit), "angle")},
+                by.theta[0], "angle", "UFC 3-340-02 ch. 4 slab support rotation (from memory)")
+        else:
+            add("Support rotation", "θ", "θ = atan(δ_m / arm)",
+                {"θ_lim": (project.settings.rotation_limit, "angle")}, by.theta[0], "angle",
+                _SRC_PLASTIC)
     add("Allowable drop height (beyond yield)", "h_allow,pl",
         "h = δ_y(R_p(μ − ½) − Wμ)/(ηW)", {"R_p": (by.R_p[0], "force")},
         inv.h_pl[0], "length", _SRC_PLASTIC)
