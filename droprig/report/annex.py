@@ -1024,10 +1024,10 @@ class _Builder:
                     extra.append(_outcome_ink(response, 2 + 4 * k, r))
                 rows.append(row)
             w = self.w
-            cw = [0.05 * w, 0.15 * w]
+            cw = [0.045 * w, 0.14 * w]
             for _ in group:
-                cw += [0.035 * w, 0.12 * w, 0.065 * w, 0.05 * w]
-            scale = w / sum(cw) if len(group) == LOADS_PER_TABLE else 1.0
+                cw += [0.035 * w, 0.12 * w, 0.08 * w, 0.055 * w]
+            scale = w / sum(cw) if sum(cw) > w else 1.0
             cw = [c * scale for c in cw]
             extra += [("ALIGN", (2, 1), (-1, -1), "CENTER"),
                       ("BACKGROUND", (0, 0), (-1, 1), "#2E2E2E")]
