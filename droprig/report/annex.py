@@ -1323,7 +1323,7 @@ class _Builder:
                 f"Worked at: lift zone <b>{esc(g.zone_id)}</b> · load "
                 f"<b>{esc(g.load_name)}</b> · level {esc(self.p.zone(g.zone_id).level_id)}"
                 f" · drop point x = {self.v(g.x, 'length')}, y = {self.v(g.y, 'length')} "
-                f"(bay {esc(g.bay_id)}). <b>Covers</b> ({esc(where)}): {esc(covers)}. "
+                f"(bay {esc(g.bay_id)}). <b>Covers</b>: in {esc(where)} — {esc(covers)}. "
                 "The same numbers hold at every place listed.", st.small))
             self.story.extend(self._sheet_inputs(doc))
             self.story.append(self._sheet_steps(doc))

@@ -410,7 +410,7 @@ def test_sheets_are_not_repeated(built: Annex) -> None:
         case = next(c for c in built.results.cases
                     if c.zone_id == g.zone_id and c.load_name == g.load_name)
         i = int(((case.x - g.x) ** 2 + (case.y - g.y) ** 2).argmin())
-        k = content.case_key(case, i)
+        k = content.case_key(case, i, built.project)
         assert k not in keys
         keys.add(k)
 
