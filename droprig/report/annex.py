@@ -1024,9 +1024,9 @@ class _Builder:
                     extra.append(_outcome_ink(response, 2 + 4 * k, r))
                 rows.append(row)
             w = self.w
-            cw = [0.045 * w, 0.14 * w]
+            cw = [0.05 * w, 0.13 * w]
             for _ in group:
-                cw += [0.035 * w, 0.12 * w, 0.08 * w, 0.055 * w]
+                cw += [0.035 * w, 0.11 * w, 0.075 * w, 0.06 * w]
             scale = w / sum(cw) if sum(cw) > w else 1.0
             cw = [c * scale for c in cw]
             extra += [("ALIGN", (2, 1), (-1, -1), "CENTER"),
@@ -1046,8 +1046,12 @@ class _Builder:
 
         if not rows_of_bay:
             return []
-        flow: list[object] = [self.P("Index of bays: the rows that give each bay",
-                                     self.st.h2)]
+        flow: list[object] = [
+            self.P("Index of bays: the rows that give each bay", self.st.h2),
+            self.P("A column is the bays between two x grid lines, a line the bays between "
+                   "two y grid lines; the cell names the rows of the tables above that give "
+                   "the bay's outcome for each load ('–': no load reaches the bay).",
+                   self.st.small)]
         for lv in content.levels_of(self.p, self.zones):
             g = lv.grid
             nx, ny = len(g.x_lines) - 1, len(g.y_lines) - 1

@@ -18,7 +18,6 @@ engineering value. The checks are on the document:
 from __future__ import annotations
 
 import importlib.util
-import math
 import pathlib
 import re
 import sys
@@ -27,18 +26,9 @@ from types import ModuleType
 import pytest
 from pypdf import PdfReader
 
-from droprig.io.sections import get_grade, get_section
-from droprig.model import (
-    LiftLoad,
-    LiftZone,
-    Project,
-    ProjectInfo,
-    ProtectionArea,
-    Rect,
-    Settings,
-    generate_level,
-)
+from droprig.model import Project
 from droprig.report import annex, content
+from tests.builders import tall_frame
 
 analysis = pytest.importorskip("droprig.solver.analysis")
 
@@ -60,30 +50,9 @@ _text_sizes = _pdf._text_sizes
 
 
 def stress_project(levels: int = 2) -> Project:
-    """``levels`` levels of 12 × 10 bays (9 m × 8 m, beams at 3 m), two lift zones of
-    two loads per level, one crushable pad per level (invented scenario data)."""
-    lvls, zones, pads = [], [], []
-    for i in range(levels):
-        lv = generate_level(
-            level_id=f"L{i + 1:02d}", name=f"Level {i + 1}", elevation=4.0 * (i + 1),
-            x_spacings=(9.0,) * 12, y_spacings=(8.0,) * 10, girder_direction="x",
-            beam_spacing=3.0, girder_section=get_section("IPE 500"),
-            beam_section=get_section("IPE 300"), girder_grade=get_grade("S355"),
-            beam_grade=get_grade("S275"))
-        lvls.append(lv)
-        for j in range(2):
-            zones.append(LiftZone(
-                f"Z{i + 1:02d}{'ab'[j]}", f"crane {j + 1}", lv.id, (27.0 + 54.0 * j, 40.0),
-                2.0, 25.0, math.radians(-100.0 + 30 * j), math.radians(150.0 + 30 * j),
-                0.5, (),
-                (LiftLoad("pallet of blocks", 1800.0, 1.2, 1.0, 2.5),
-                 LiftLoad("rebar bundle", 3200.0, 6.0, 0.6, None, lv.elevation + 9.0, 4.0,
-                          contact_stiffness=2e7))))
-        pads.append(ProtectionArea(f"P{i + 1:02d}", "landing pad", lv.id,
-                                   Rect(45.0, 32.0, 63.0, 48.0), "crushable", 0.3, None,
-                                   1.2e5, 0.2))
-    return Project(ProjectInfo("Stress test: two large floors"),
-                   Settings(grid_resolution=0.5), tuple(lvls), tuple(zones), tuple(pads))
+    """``levels`` levels of 12 × 10 bays, two lift zones of two loads per level, one
+    crushable pad per level (:func:`tests.builders.tall_frame`, invented data)."""
+    return tall_frame(levels, title="Stress test: two large floors")
 
 
 @pytest.fixture(scope="module")
