@@ -13,6 +13,12 @@ Body (at most six pages; each section starts on a new page):
 Appendices: contents; A members; B calculation sheets, de-duplicated, citing
 the numbered references; C references; D revision history.
 
+The annex grows with the distinct governing cases, not with levels × bays: one
+calculation sheet per distinct case over all levels and lift zones (listing
+where it applies), one member row per distinct member, one bay × load row per
+distinct outcome with an index of bays, and bay lists as grid ranges
+("2-5/A-C on levels L03–L08").
+
 Tables flow across pages with their header repeated (never shrunk); nothing is
 printed below 7 pt; every page carries the title block and "page x of y". The
 fonts (DejaVu, shipped in ``resources/fonts``) are embedded. reportlab's open

@@ -244,3 +244,19 @@ def test_table_row_taller_than_a_page_splits(tmp_path: pathlib.Path) -> None:
     assert all(f"bay {k}-{k + 1}/A-B" in text for k in range(900))
     for page in reader.pages:
         assert min(_text_sizes(page)) >= MIN_PT - 1e-6
+
+
+def test_covers_text_condenses_bays_per_level() -> None:
+    """A sheet's list of places: the bays of each level as grid ranges, levels with
+    the same ranges named together, every (load, bay, reason) once (issue 16: bay
+    lists condensed to grid ranges; droprig's own wording, no source)."""
+    project = tall_frame(4)
+    block = [f"{x}-{x + 1}/{y0}-{y1}" for x in (2, 3, 4) for y0, y1 in (("A", "B"),
+                                                                        ("B", "C"))]
+    covers = [content.Covered(f"Z{lv:02d}a", "pallet", bay, 0.0, 0.0, "highest utilisation",
+                              f"L{lv:02d}") for lv in (1, 2, 3) for bay in block]
+    covers += [content.Covered("Z04a", "pallet", "7-8/E-F", 0.0, 0.0, "highest utilisation",
+                               "L04")] * 2
+    text = annex.covers_text(covers, project)
+    assert text == "pallet: 2-5/A-C on levels L01–L03; 7-8/E-F on level L04 " \
+                   "(highest utilisation)"
