@@ -1242,16 +1242,22 @@ class _Builder:
         self.story.append(self.P(_resistance_note(self.p) + " Members with the same role, "
                                  "section, grade, span and ends share a row, which lists "
                                  "them all.", st.small))
+        decks: dict[str, list[str]] = {}  # the same deck on several levels: once
         for lv in levels:
             dk = lv.deck
+            text = (f"{esc(dk.kind.replace('_', ' '))}, "
+                    f"{self.v(dk.thickness, 'length')} thick, concrete "
+                    f"{self.v(dk.concrete.fc, 'stress')}, bottom bars "
+                    f"{self.v(dk.rebar_area, 'area')} per m width at "
+                    f"{self.v(dk.cover, 'length')} cover; {len(dk.openings)} opening(s). "
+                    f"Superimposed dead {self.v(lv.superimposed_dead, 'pressure')}, live "
+                    f"left in place {self.v(lv.live_in_place, 'pressure')}.")
+            decks.setdefault(text, []).append(lv.id)
+        for text, ids in decks.items():
+            names = id_ranges([lv.id for lv in levels], ids)
+            word = "level" if len(ids) == 1 else "levels"
             self.story.append(self.P(
-                f"Deck of level <b>{esc(lv.id)}</b>: {esc(dk.kind.replace('_', ' '))}, "
-                f"{self.v(dk.thickness, 'length')} thick, concrete "
-                f"{self.v(dk.concrete.fc, 'stress')}, bottom bars "
-                f"{self.v(dk.rebar_area, 'area')} per m width at "
-                f"{self.v(dk.cover, 'length')} cover; {len(dk.openings)} opening(s). "
-                f"Superimposed dead {self.v(lv.superimposed_dead, 'pressure')}, live "
-                f"left in place {self.v(lv.live_in_place, 'pressure')}.", st.small))
+                f"Deck of {word} <b>{esc(', '.join(names))}</b>: {text}", st.small))
         su = {"SI": ("m", "MPa", "kN·m", "kN", "kN·m²"),
               "US": ("ft", "ksi", "kip·ft", "kip", "10⁶ kip·in²")}[self.sys]
         hdr = ["Members", "Role", "Section", "Grade", f"Span, {su[0]}", "Ends",
