@@ -37,11 +37,24 @@ def main() -> int:
     ap.add_argument("--cases", type=int, default=10_000)
     ap.add_argument("--seed", type=int, default=20261203)
     ap.add_argument("--quick", action="store_true", help="1,000 cases")
+    ap.add_argument("--progress", type=int, default=0, metavar="N",
+                    help="print the running tally every N cases and each failure at once "
+                         "(a long run stopped early still reports what it saw)")
     args = ap.parse_args()
     n = 1_000 if args.quick else args.cases
     h = _harness()
     t0 = time.perf_counter()
-    tally = h.run(n, args.seed)
+    seen = [0]
+
+    def progress(tally) -> None:  # type: ignore[no-untyped-def]
+        for f in tally.failures[seen[0]:]:
+            print("  failure:", f[:500], flush=True)
+        seen[0] = len(tally.failures)
+        if args.progress and tally.cases % args.progress == 0:
+            print(f"  after {tally.summary()}; wall {time.perf_counter() - t0:.0f} s",
+                  flush=True)
+
+    tally = h.run(n, args.seed, on_case=progress if args.progress else None)
     print(f"fuzz (seed {args.seed}): {tally.summary()}; wall {time.perf_counter() - t0:.0f} s")
     for f in tally.failures[:20]:
         print("  -", f[:500])

@@ -24,7 +24,6 @@ import numpy as np
 
 from droprig.model import (
     Deck,
-    Grade,
     LiftLoad,
     LiftZone,
     ModelError,
@@ -38,16 +37,14 @@ from droprig.model import (
 from droprig.solver import analyse, assess_member, trace_point
 
 ROOT = Path(__file__).resolve().parents[1]
+sys.path.insert(0, str(ROOT))
+
+from tests.builders import BEAM, GIRDER, S355  # noqa: E402
+
 REL = 1e-9
 N_RANDOM = 200
 
-GRADE = Grade("S355", "EN", ((0.016, 355e6), (0.04, 345e6)), 470e6, E=210e9)
-BEAM = Section("B300", "custom", d=0.3, bf=0.15, tw=0.0071, tf=0.0107, r=0.015,
-               A=5.381e-3, Ix=8.356e-5, Sx=5.57e-4, Zx=6.28e-4, Iy=6.04e-6,
-               mass_per_length=42.2)
-GIRDER = Section("G450", "custom", d=0.45, bf=0.19, tw=0.0094, tf=0.0146, r=0.021,
-                 A=9.88e-3, Ix=3.374e-4, Sx=1.5e-3, Zx=1.702e-3, Iy=1.676e-5,
-                 mass_per_length=77.6)
+GRADE = S355
 SLENDER = Section("S400", "custom", d=0.4, bf=0.25, tw=0.007, tf=0.012, r=0.01,
                   A=8.7e-3, Ix=2.5e-4, Sx=1.25e-3, Zx=1.38e-3, Iy=3.1e-5,
                   mass_per_length=68.3)

@@ -36,7 +36,7 @@ from dataclasses import dataclass, replace
 from typing import Literal
 
 from droprig import units
-from droprig.model import Project, ProtectionArea, Rect, bays
+from droprig.model import Level, Project, ProtectionArea, Rect, bay_ranges, bays
 from droprig.outcomes import fmt_utilisation
 from droprig.solver import LIMIT_MARGIN, BaySummary, Results
 from droprig.units import UnitSystem
@@ -171,12 +171,18 @@ class Condition:
     below_level_id: str | None = None
     protection: ProtectionArea | None = None
 
-    def where(self) -> str:
-        """The bays (or the whole zone) the condition covers, in words."""
+    def where(self, level: Level | None = None) -> str:
+        """The bays (or the whole zone) the condition covers, in words. With the
+        condition's ``level``, the bays are condensed to grid ranges
+        (:func:`droprig.model.bay_ranges`: "bays 2-5/A-C and 6-7/B-C", every bay
+        named once) — the annex of a large project."""
         if not self.bays:
             return f"lift zone {self.zone_id} on level {self.level_id}"
+        names: tuple[str, ...] = self.bays
+        if level is not None and level.id == self.level_id:
+            names = bay_ranges(level, self.bays)
         word = "bay" if len(self.bays) == 1 else "bays"
-        return f"{word} {_join(self.bays)} of level {self.level_id}"
+        return f"{word} {_join(names)} of level {self.level_id}"
 
     def _for(self) -> str:
         return f" for {self.load_name}" if self.load_name else ""
@@ -196,12 +202,14 @@ class Condition:
                     f"{units.fmt_sig(pa.stiffness, 'stiffness', system)}")
         return f"{pa.name + ': ' if pa.name else ''}{body}; {_rect_text(pa.area, system)}"
 
-    def sentence(self, system: UnitSystem = "SI") -> str:
-        """The one wording of this condition, with its numbers in ``system``."""
+    def sentence(self, system: UnitSystem = "SI", level: Level | None = None) -> str:
+        """The one wording of this condition, with its numbers in ``system``; with
+        the condition's ``level``, its bays condensed to grid ranges (:meth:`where`)."""
+        where = self.where(level)
         if self.kind == "lay_protection":
             if self.protection_id is not None:
                 return (f"Lay pad {self.protection_id} ({self.spec(system)}) before the "
-                        f"lift and keep it in place: {self.where()}{self._for()} "
+                        f"lift and keep it in place: {where}{self._for()} "
                         f"{'relies' if len(self.bays) == 1 else 'rely'} on it.")
             stiff = units.fmt_sig(self.mat_stiffness_max, "stiffness", system,
                                   sig=SIG_STIFFNESS, rounding="down")
@@ -210,7 +218,7 @@ class Condition:
                       + units.fmt_sig(self.mat_travel, "small_length", system,
                                       rounding="up"))
             return (f"Lay a spring mat no stiffer than {stiff}{travel} over the whole of "
-                    f"{self.where()}{self._for()} (a softer mat also works).")
+                    f"{where}{self._for()} (a softer mat also works).")
         if self.kind == "cap_hook":
             hook = ""
             if self.max_hook_elevation is not None:
@@ -221,20 +229,20 @@ class Condition:
                 else:  # no hang length given (a drop-height load): the underside itself
                     hook = (f": its underside at or below elevation {elev} (add the hang "
                             "length for the hook)")
-            return (f"Over {self.where()}{self._for()}: keep the load's underside no more "
+            return (f"Over {where}{self._for()}: keep the load's underside no more "
                     f"than {fmt_height(self.max_drop_height, system)} above the finished "
                     f"surface{hook}.")
         if self.kind == "exclude_area":
-            return (f"Do not carry {self.load_name or 'any load'} over {self.where()}; "
+            return (f"Do not carry {self.load_name or 'any load'} over {where}; "
                     "keep that area clear of people while the load is lifted.")
         if self.kind == "exclude_level_below":
             below = (f"level {self.below_level_id}" if self.below_level_id
                      else f"the space below level {self.level_id}")
-            return (f"Keep {below} clear of people under {self.where()} while "
+            return (f"Keep {below} clear of people under {where} while "
                     f"{self.load_name or 'the load'} is lifted: a drop there can break "
                     "through the deck or bring the framing down.")
         if self.kind == "separate_signoff":
-            return (f"Over {self.where()}{self._for()}, {self.detail}; accept only with the "
+            return (f"Over {where}{self._for()}, {self.detail}; accept only with the "
                     "engineer's separate sign-off, and inspect the framing and the level "
                     "below after any drop.")
         if self.kind == "not_assessed":

@@ -110,10 +110,12 @@ def _check_annex(project, results, permit, path) -> None:
     write_annex(project, results, path)
     text = _norm(" ".join(p.extract_text() or "" for p in PdfReader(str(path)).pages))
     system = project.settings.unit_system
-    # the verdict of every load and every condition sentence, as the engine words them
+    # the verdict of every load and every condition sentence, as the engine words
+    # them with the bays as grid ranges of their level (the annex's wording)
     for lv in permit.loads:
         assert VERDICT_WORDS[lv.verdict] in text
-    for sentence in permit.sentences(system):
+    for c in permit.conditions:
+        sentence = c.sentence(system, project.level(c.level_id))
         assert _norm(sentence) in text, sentence
     # the annex's bay table gives the allowable height in mm (in) to three
     # significant figures, rounded down, and U with its own check

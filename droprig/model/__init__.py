@@ -3,9 +3,11 @@
 from droprig.model.errors import ModelError
 from droprig.model.framing import (
     Bay,
+    bay_ranges,
     bays,
     default_labels,
     generate_level,
+    id_ranges,
     resting_on,
     without_members,
 )
@@ -69,11 +71,13 @@ __all__ = [
     "Rect",
     "Section",
     "Settings",
+    "bay_ranges",
     "bays",
     "check_corridor",
     "corridor_problem",
     "default_labels",
     "generate_level",
+    "id_ranges",
     "lift_point_tags",
     "resting_on",
     "without_members",

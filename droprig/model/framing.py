@@ -205,3 +205,73 @@ def without_members(level: Level, member_ids: Iterable[str]) -> Level:
         raise ModelError(f"level {level.id}.members", 0,
                          "at least one member (delete the level instead)")
     return replace(level, members=kept)
+
+
+def bay_ranges(level: Level, bay_ids: Iterable[str]) -> tuple[str, ...]:
+    """``bay_ids`` of ``level`` condensed to rectangles of whole bays, each written
+    like a bay id over several bays: ``"2-5/A-C"`` is every bay between grid lines
+    2 and 5 and lines A and C (droprig's own wording). A single bay reads as its id.
+
+    Rectangles are runs of bays along x on one bay row, stacked over the rows
+    where the same run recurs, so every bay is named exactly once; they are listed
+    row by row (y, then x). Ids that are not bays of ``level`` follow as given.
+    Linear in the number of bays of the level.
+    """
+    g = level.grid
+    nx = len(g.x_lines) - 1
+    index = {b.id: (b.i, b.j) for b in bays(level)}
+    wanted = dict.fromkeys(bay_ids)
+    cells = {index[b] for b in wanted if b in index}
+    others = [b for b in wanted if b not in index]
+    # runs along x per bay row
+    runs: dict[int, list[tuple[int, int]]] = {}
+    for j in sorted({j for _, j in cells}):
+        i = 0
+        while i < nx:
+            if (i, j) in cells:
+                i0 = i
+                while i + 1 < nx and (i + 1, j) in cells:
+                    i += 1
+                runs.setdefault(j, []).append((i0, i))
+            i += 1
+    # stack equal runs of consecutive rows: (i0, i1) -> [j0, j1] of the open one
+    done: list[tuple[int, int, int, int]] = []
+    open_: dict[tuple[int, int], list[int]] = {}
+    for j in sorted(runs):
+        now = set(runs[j])
+        for run in list(open_):
+            if run not in now or open_[run][1] != j - 1:
+                j0, j1 = open_.pop(run)
+                done.append((j0, run[0], run[1], j1))
+        for run in runs[j]:
+            if run in open_:
+                open_[run][1] = j
+            else:
+                open_[run] = [j, j]
+    done += [(j0, run[0], run[1], j1) for run, (j0, j1) in open_.items()]
+    done.sort()
+    out = [f"{g.x_labels[i0]}-{g.x_labels[i1 + 1]}/{g.y_labels[j0]}-{g.y_labels[j1 + 1]}"
+           for j0, i0, i1, j1 in done]
+    return tuple(out + others)
+
+
+def id_ranges(order: Iterable[str], ids: Iterable[str]) -> tuple[str, ...]:
+    """``ids`` in the order of ``order`` with runs of three or more neighbours in
+    ``order`` written first–last (``"L03–L08"``, an en dash); ids not in ``order``
+    follow as given. For lists of levels or zones."""
+    seq = list(dict.fromkeys(order))
+    pos = {k: n for n, k in enumerate(seq)}
+    wanted = dict.fromkeys(ids)
+    have = sorted(pos[k] for k in wanted if k in pos)
+    out: list[str] = []
+    k = 0
+    while k < len(have):
+        m = k
+        while m + 1 < len(have) and have[m + 1] == have[m] + 1:
+            m += 1
+        if m - k >= 2:
+            out.append(f"{seq[have[k]]}–{seq[have[m]]}")
+        else:
+            out += [seq[have[n]] for n in range(k, m + 1)]
+        k = m + 1
+    return tuple(out + [k_ for k_ in wanted if k_ not in pos])

@@ -13,6 +13,12 @@ Body (at most six pages; each section starts on a new page):
 Appendices: contents; A members; B calculation sheets, de-duplicated, citing
 the numbered references; C references; D revision history.
 
+The annex grows with the distinct governing cases, not with levels × bays: one
+calculation sheet per distinct case over all levels and lift zones (listing
+where it applies), one member row per distinct member, one bay × load row per
+distinct outcome with an index of bays, and bay lists as grid ranges
+("2-5/A-C on levels L03–L08").
+
 Tables flow across pages with their header repeated (never shrunk); nothing is
 printed below 7 pt; every page carries the title block and "page x of y". The
 fonts (DejaVu, shipped in ``resources/fonts``) are embedded. reportlab's open
@@ -32,7 +38,7 @@ from dataclasses import dataclass, field
 
 from droprig import __version__
 from droprig.io.atomic import atomic_path
-from droprig.model import Deck, Level, LiftZone, ModelError, Project, bays
+from droprig.model import Deck, Level, LiftZone, ModelError, Project, bays, id_ranges
 from droprig.permit import VERDICT_WORDS as _PERMIT_WORDS
 from droprig.permit import derive_conditions
 from droprig.report import content, fonts, permit_fields, references
@@ -710,6 +716,13 @@ class _Builder:
         self.sheet_titles: list[str] = []
 
     # helpers
+    def _level(self, c: object) -> Level | None:
+        """The level of a condition, for its bays as grid ranges."""
+        try:
+            return self.p.level(c.level_id)  # type: ignore[attr-defined]
+        except (KeyError, AttributeError):
+            return None
+
     def P(self, text: str, style: object | None = None, bulletText: str | None = None
           ) -> object:
         from reportlab.platypus import Paragraph
@@ -817,7 +830,8 @@ class _Builder:
                                      "deck for every load.", st.body))
         for k, c in enumerate(self.conditions):
             self.story.append(self.P(f"<b>C{k + 1}</b>&nbsp;&nbsp;"
-                                     + esc(c.sentence(self.sys)), st.cond))
+                                     + esc(c.sentence(self.sys, self._level(c))),
+                                     st.cond))
         flags = self.title_flags()
         if flags:
             self.story.append(self.P("Title block incomplete: " + esc("; ".join(flags))
@@ -958,6 +972,8 @@ class _Builder:
     def bay_table(self) -> None:
         from reportlab.platypus import Spacer
 
+        from droprig.model import bay_ranges
+
         st = self.st
         self.section("bays")
         small = "in" if self.sys == "US" else "mm"
@@ -966,69 +982,135 @@ class _Builder:
             f"limits, – not reached), highest utilisation U and the check that sets it, the "
             f"least allowable drop height in {small} (above the finished surface, rounded "
             "down; 'none': not even a load set down is within the limits; 'no limit': no "
-            "height reaches a limit) and the permit conditions that apply.", st.small))
+            "height reaches a limit) and the permit conditions that apply. Bays whose "
+            "rows would be the same share one row, numbered R1, R2, …; a bay range such "
+            "as 2-5/A-C stands for every bay between grid lines 2 and 5 and lines A and "
+            "C. The index after the tables gives every bay's rows.", st.small))
         cases = [(z, ld) for z in self.zones for ld in z.loads]
         by = {(b.zone_id, b.load_name, b.level_id, b.bay_id): b for b in self.r.bays}
         conds_of: dict[tuple[str, str, str], list[int]] = {}
         for n, c in enumerate(self.conditions):
             for bay_id in c.bays:
                 conds_of.setdefault((c.zone_id, c.load_name or "", bay_id), []).append(n + 1)
-        for start in range(0, len(cases), LOADS_PER_TABLE):
-            group = cases[start:start + LOADS_PER_TABLE]
-            levels = content.levels_of(self.p, tuple(z for z, _ in group))
-            hdr1: list[object] = ["Bay"]
-            hdr2: list[object] = [""]
+        # the loads of one level side by side, at most LOADS_PER_TABLE a table
+        groups: list[list[tuple[LiftZone, object]]] = []
+        for lv in content.levels_of(self.p, self.zones):
+            on = [(z, ld) for z, ld in cases if z.level_id == lv.id]
+            groups += [on[k:k + LOADS_PER_TABLE] for k in range(0, len(on), LOADS_PER_TABLE)]
+        rows_of_bay: dict[tuple[str, str], list[int]] = {}
+        row_no = 0
+        for group in groups:
+            lv = self.p.level(group[0][0].level_id)
+            hdr1: list[object] = ["Row", f"Bays of level {lv.id}"]
+            hdr2: list[object] = ["", ""]
             spans = []
             for k, (z, ld) in enumerate(group):
-                hdr1 += [self.P(f"<b>{esc(z.id)}: {esc(ld.name)}</b>", st.head), "", "", ""]
+                hdr1 += [self.P(f"<b>{esc(z.id)}: {esc(ld.name)}</b>",  # type: ignore
+                                st.head), "", "", ""]
                 hdr2 += ["", "U · check", f"h allow, {small}", "Cond."]
-                spans.append(("SPAN", (1 + 4 * k, 0), (4 + 4 * k, 0)))
+                spans.append(("SPAN", (2 + 4 * k, 0), (5 + 4 * k, 0)))
+            # one row per distinct set of cells, listing its bays
+            distinct: dict[tuple, list[str]] = {}
+            looks: dict[tuple, list[tuple[str, object]]] = {}
+            for bay in bays(lv):
+                key: list[object] = []
+                look: list[tuple[str, object]] = []
+                any_result = False
+                for z, ld in group:
+                    b = by.get((z.id, ld.name, lv.id, bay.id))  # type: ignore[attr-defined]
+                    if b is None:
+                        key.append(("–",))
+                        look.append(("–", None))
+                        continue
+                    any_result = True
+                    o = content.OUTCOMES.get(b.response,
+                                             content.OUTCOMES[content.NOT_ASSESSED])
+                    nums = sorted(set(conds_of.get((z.id, ld.name, bay.id), [])))  # type: ignore
+                    # max U with its own check (the worst point's check can
+                    # differ: droprig.solver.results.BaySummary)
+                    u_chk = b.utilisation_check or b.governing_check
+                    cells = (o.tag, f"{fmt_util(b.max_utilisation)} "
+                             f"{u_chk.replace('_', ' ')}",
+                             _h_small(b.allowable_drop_height, self.sys),
+                             " ".join(f"C{n}" for n in nums))
+                    key.append(cells)
+                    look.append((b.response, cells))
+                if not any_result:
+                    continue
+                distinct.setdefault(tuple(key), []).append(bay.id)
+                looks[tuple(key)] = look
             rows: list[list[object]] = [hdr1, hdr2]
             extra: list[tuple] = list(spans)
-            for lv in levels:
-                for bay in bays(lv):
-                    row: list[object] = [self.P(f"<b>{esc(bay.id)}</b>"
-                                                + (f" ({esc(lv.id)})" if len(levels) > 1
-                                                   else ""))]
-                    any_result = False
-                    for k, (z, ld) in enumerate(group):
-                        if z.level_id != lv.id:
-                            row += ["", "", "", ""]
-                            continue
-                        b = by.get((z.id, ld.name, lv.id, bay.id))
-                        if b is None:
-                            row += ["–", "", "", ""]
-                            continue
-                        any_result = True
-                        o = content.OUTCOMES.get(b.response,
-                                                 content.OUTCOMES[content.NOT_ASSESSED])
-                        nums = sorted(set(conds_of.get((z.id, ld.name, bay.id), [])))
-                        # max U with its own check (the worst point's check can
-                        # differ: droprig.solver.results.BaySummary)
-                        u_chk = b.utilisation_check or b.governing_check
-                        row += [o.tag, self.P(f"{fmt_util(b.max_utilisation)} "
-                                              f"{esc(u_chk.replace('_', ' '))}"),
-                                _h_small(b.allowable_drop_height, self.sys),
-                                self.P(" ".join(f"C{n}" for n in nums))]
-                        r = len(rows)
-                        extra.append(_outcome_bg(b.response, 1 + 4 * k, r))
-                        extra.append(_outcome_ink(b.response, 1 + 4 * k, r))
-                    if any_result:
-                        rows.append(row)
+            for key_, bay_ids in distinct.items():
+                row_no += 1
+                for bay_id in bay_ids:
+                    rows_of_bay.setdefault((lv.id, bay_id), []).append(row_no)
+                r = len(rows)
+                row: list[object] = [f"R{row_no}", self.P(
+                    "<b>" + esc(", ".join(bay_ranges(lv, bay_ids))) + "</b>")]
+                for k, (response, cells) in enumerate(looks[key_]):
+                    if cells is None:
+                        row += ["–", "", "", ""]
+                        continue
+                    tag, util, h, cond = cells  # type: ignore[misc]
+                    row += [tag, self.P(esc(util)), h, self.P(cond)]
+                    extra.append(_outcome_bg(response, 2 + 4 * k, r))
+                    extra.append(_outcome_ink(response, 2 + 4 * k, r))
+                rows.append(row)
             w = self.w
-            cw = [0.13 * w]
+            cw = [0.05 * w, 0.13 * w]
             for _ in group:
-                cw += [0.035 * w, 0.13 * w, 0.07 * w, 0.055 * w]
-            scale = w / sum(cw) if len(group) == LOADS_PER_TABLE else 1.0
+                cw += [0.035 * w, 0.11 * w, 0.075 * w, 0.06 * w]
+            scale = w / sum(cw) if sum(cw) > w else 1.0
             cw = [c * scale for c in cw]
-            extra += [("ALIGN", (1, 1), (-1, -1), "CENTER"),
+            extra += [("ALIGN", (2, 1), (-1, -1), "CENTER"),
                       ("BACKGROUND", (0, 0), (-1, 1), "#2E2E2E")]
             self.story.append(_table(rows, cw, header_rows=2, extra=extra))
             self.story.append(Spacer(1, 6))
+        self.story.extend(self.bay_index(rows_of_bay))
         self.story.append(self.P(
             "Governing points and every step of the calculation: appendix B. The least "
             "allowable height of a bay is the least over its drop points, each with its "
             "own governing check.", st.small))
+
+    def bay_index(self, rows_of_bay: dict[tuple[str, str], list[int]]) -> list[object]:
+        """Every bay of every level with a result, by its grid lines: the rows of the
+        bay × load table that give its outcome (the table lists bays in ranges)."""
+        from reportlab.platypus import Spacer
+
+        if not rows_of_bay:
+            return []
+        flow: list[object] = [
+            self.P("Index of bays: the rows that give each bay", self.st.h2),
+            self.P("A column is the bays between two x grid lines, a line the bays between "
+                   "two y grid lines; the cell names the rows of the tables above that give "
+                   "the bay's outcome for each load ('–': no load reaches the bay).",
+                   self.st.small)]
+        for lv in content.levels_of(self.p, self.zones):
+            g = lv.grid
+            nx, ny = len(g.x_lines) - 1, len(g.y_lines) - 1
+            if not any((lv.id, b.id) in rows_of_bay for b in bays(lv)):
+                continue
+            head = [f"Level {lv.id}"] + [f"{g.x_labels[i]}-{g.x_labels[i + 1]}"
+                                         for i in range(nx)]
+            rows: list[list[object]] = [head]
+            for j in range(ny):
+                y_id = f"{g.y_labels[j]}-{g.y_labels[j + 1]}"
+                row: list[object] = [y_id]
+                for i in range(nx):
+                    bay_id = f"{g.x_labels[i]}-{g.x_labels[i + 1]}/{y_id}"
+                    nums = rows_of_bay.get((lv.id, bay_id), [])
+                    row.append(" ".join(f"R{n}" for n in nums) or "–")
+                rows.append(row)
+            # columns of the bays along x; a level wider than a page splits them
+            per = max(1, min(nx, 14))
+            for c0 in range(0, nx, per):
+                sub = [[r[0], *r[1 + c0:1 + c0 + per]] for r in rows]
+                cw = [0.1 * self.w] + [0.9 * self.w / per] * (len(sub[0]) - 1)
+                flow.append(_table(sub, cw, header_rows=1,
+                                   extra=[("ALIGN", (1, 1), (-1, -1), "CENTER")]))
+                flow.append(Spacer(1, 4))
+        return flow
 
     # ------------------------------------------------------------ 4 inputs
     def inputs(self) -> None:
@@ -1185,40 +1267,68 @@ class _Builder:
     def members(self, levels: Sequence[Level]) -> None:
         st = self.st
         self.section("members")
-        self.story.append(self.P(_resistance_note(self.p), st.small))
+        self.story.append(self.P(_resistance_note(self.p) + " Members with the same role, "
+                                 "section, grade, span and ends share a row, which lists "
+                                 "them all.", st.small))
+        decks: dict[str, list[str]] = {}  # the same deck on several levels: once
         for lv in levels:
             dk = lv.deck
+            text = (f"{esc(dk.kind.replace('_', ' '))}, "
+                    f"{_deck_words(dk, self.v)}; {len(dk.openings)} opening(s). "
+                    f"Superimposed dead {self.v(lv.superimposed_dead, 'pressure')}, live "
+                    f"left in place {self.v(lv.live_in_place, 'pressure')}.")
+            decks.setdefault(text, []).append(lv.id)
+        for text, ids in decks.items():
+            names = id_ranges([lv.id for lv in levels], ids)
+            word = "level" if len(ids) == 1 else "levels"
             self.story.append(self.P(
-                f"Deck of level <b>{esc(lv.id)}</b>: {esc(dk.kind.replace('_', ' '))}, "
-                f"{_deck_words(dk, self.v)}; {len(dk.openings)} opening(s). "
-                f"Superimposed dead {self.v(lv.superimposed_dead, 'pressure')}, live "
-                f"left in place {self.v(lv.live_in_place, 'pressure')}.", st.small))
+                f"Deck of {word} <b>{esc(', '.join(names))}</b>: {text}", st.small))
         su = {"SI": ("m", "MPa", "kN·m", "kN", "kN·m²"),
               "US": ("ft", "ksi", "kip·ft", "kip", "10⁶ kip·in²")}[self.sys]
-        hdr = ["Member", "Role", "Section", "Grade", f"Span, {su[0]}", "Ends", f"fy, {su[1]}",
-               "Class", f"Flexure resistance, {su[2]}", f"Shear resistance, {su[3]}",
-               f"EI, {su[4]}"]
-        rows: list[list[object]] = [hdr]
-        many = len(levels) > 1
+        hdr = ["Members", "Role", "Section", "Grade", f"Span, {su[0]}", "Ends",
+               f"fy, {su[1]}", "Class", f"Flexure resistance, {su[2]}",
+               f"Shear resistance, {su[3]}", f"EI, {su[4]}"]
+        # one row per distinct member as printed (the same section, grade, span,
+        # ends and resistances), listing every member it stands for: a tall
+        # building repeats its floors, and its table grows with distinct members
+        rows_of: dict[tuple[str, ...], dict[str, list[str]]] = {}
+        memo: dict[tuple, tuple[str, ...]] = {}
         for lv in levels:
             for m in lv.members:
-                res = member_resistances(m, self.p.settings)
-                rows.append([
-                    f"{lv.id}: {m.id}" if many else m.id, m.role, m.section.name,
-                    m.grade.name, self.v(m.span, "length").split(" ")[0], m.end_condition,
-                    self.v(res.fy, "stress").split(" ")[0],
-                    _CLASS_TAG.get(res.section_class, res.section_class),
-                    self.v(res.flexure, "moment").split(" ")[0] if res.flexure is not None
-                    else "out of scope",
-                    self.v(res.shear, "force").split(" ")[0] if res.shear is not None
-                    else "out of scope",
-                    _ei(res.EI, self.sys),
-                ])
+                mk = (m.role, m.section, m.grade, m.span, m.end_condition)
+                cells = memo.get(mk)
+                if cells is None:
+                    res = member_resistances(m, self.p.settings)
+                    cells = memo[mk] = (
+                        m.role, m.section.name, m.grade.name,
+                        self.v(m.span, "length").split(" ")[0], m.end_condition,
+                        self.v(res.fy, "stress").split(" ")[0],
+                        _CLASS_TAG.get(res.section_class, res.section_class),
+                        self.v(res.flexure, "moment").split(" ")[0]
+                        if res.flexure is not None else "out of scope",
+                        self.v(res.shear, "force").split(" ")[0] if res.shear is not None
+                        else "out of scope",
+                        _ei(res.EI, self.sys))
+                rows_of.setdefault(cells, {}).setdefault(lv.id, []).append(m.id)
+        order = [lv.id for lv in levels]
+        many = len(levels) > 1
+        rows: list[list[object]] = [hdr]
+        for cells, by_level in rows_of.items():
+            where: dict[str, list[str]] = {}
+            for lv_id, ids in by_level.items():
+                where.setdefault(", ".join(ids), []).append(lv_id)
+            text = "; ".join(
+                (f"{ids} on level{'s' if len(lvs) > 1 else ''} "
+                 f"{', '.join(id_ranges(order, lvs))}" if many else ids)
+                for ids, lvs in where.items())
+            rows.append([text, *cells])
         w = self.w
-        self.story.append(_table(rows, [0.12 * w, 0.07 * w, 0.1 * w, 0.07 * w, 0.07 * w,
-                                        0.08 * w, 0.07 * w, 0.06 * w, 0.12 * w, 0.12 * w,
-                                        0.12 * w],
-                                 extra=[("ALIGN", (4, 1), (-1, -1), "RIGHT")]))
+        self.story.append(_table(rows, [0.25 * w, 0.06 * w, 0.08 * w, 0.06 * w, 0.06 * w,
+                                        0.07 * w, 0.06 * w, 0.06 * w, 0.1 * w, 0.1 * w,
+                                        0.1 * w],
+                                 extra=[("ALIGN", (4, 1), (4, -1), "RIGHT"),
+                                        ("ALIGN", (6, 1), (6, -1), "RIGHT"),
+                                        ("ALIGN", (8, 1), (-1, -1), "RIGHT")]))
 
     # ------------------------------------------------------------ B sheets
     def sheets(self, docs: Sequence[SheetDoc]) -> None:
@@ -1232,7 +1342,10 @@ class _Builder:
             "and reason it stands for. Every substituted formula gives the printed result "
             "from the printed numbers; where a step's result does not follow from its "
             "formula alone, the sheet says so. Sources are cited by their number in "
-            "appendix C.", st.small))
+            "appendix C. A sheet is worked at one drop point and lists every level, "
+            "lift zone and bay where the same calculation holds; a bay range such as "
+            "2-5/A-C stands for every bay between grid lines 2 and 5 and lines A and C.",
+            st.small))
         for n, doc in enumerate(docs):
             g = doc.group
             if n:
@@ -1242,11 +1355,17 @@ class _Builder:
             self.story.append(_marker(f"sheet:{n + 1}",
                                       f"{HEADINGS['sheets']} — B.{n + 1}", self.book))
             self.story.append(self.P(esc(title), st.h2))
-            covers = covers_text(g.covers)
+            covers = covers_text(g.covers, self.p)
+            zones = id_ranges([z.id for z in self.p.lift_zones],
+                              [c.zone_id for c in g.covers])
+            where = (f"lift zone {zones[0]}" if len(zones) == 1 and "–" not in zones[0]
+                     else f"lift zones {', '.join(zones)}")
             self.story.append(self.P(
-                f"Lift zone <b>{esc(g.zone_id)}</b> · load <b>{esc(g.load_name)}</b> · "
-                f"drop point x = {self.v(g.x, 'length')}, y = {self.v(g.y, 'length')} "
-                f"(bay {esc(g.bay_id)}). <b>Covers</b>: {esc(covers)}.", st.small))
+                f"Worked at: lift zone <b>{esc(g.zone_id)}</b> · load "
+                f"<b>{esc(g.load_name)}</b> · level {esc(self.p.zone(g.zone_id).level_id)}"
+                f" · drop point x = {self.v(g.x, 'length')}, y = {self.v(g.y, 'length')} "
+                f"(bay {esc(g.bay_id)}). <b>Covers</b>: in {esc(where)} — {esc(covers)}. "
+                "The same numbers hold at every place listed.", st.small))
             self.story.extend(self._sheet_inputs(doc))
             self.story.append(self._sheet_steps(doc))
             self.story.extend(self._sheet_outcome(doc))
@@ -1370,22 +1489,44 @@ def _mass_source_cell(ld: object) -> str:
     return esc(words)
 
 
-def covers_text(covers: Sequence[content.Covered]) -> str:
-    """What a calculation sheet stands for, one clause per (load, reason) with its
-    bays in first-seen order: "pallet: bays A-B/1-2, B-C/1-2 (governing point)".
+def covers_text(covers: Sequence[content.Covered], project: Project | None = None) -> str:
+    """What a calculation sheet stands for, one clause per (load, reason).
 
-    Linear in the number of covered (load, bay, reason) triples; a sheet covering
-    hundreds of bays prints each bay id once per reason instead of repeating the
-    load name and reason beside every bay. The text is a top-level paragraph of
-    the sheet, so a long list wraps and splits across pages.
+    With ``project``, each clause's bays are condensed per level to grid ranges
+    (:func:`droprig.model.bay_ranges`) and levels with the same ranges are named
+    together: "pallet: 3-5/B-D, 6-7/C-D on levels L01–L10; 2-3/F-G on level L02
+    (highest utilisation)". Without it (or for a cover whose level is unknown),
+    the bays are listed as given: "pallet: bays A-B/1-2, B-C/1-2 (governing
+    point)". Each (load, bay, reason) is named once; linear in the covers (a sheet
+    of a large project stands for hundreds of bays).
     """
-    groups: dict[tuple[str, str], dict[str, None]] = {}
+    from droprig.model import bay_ranges
+
+    groups: dict[tuple[str, str], dict[str, dict[str, None]]] = {}
     for c in covers:
-        groups.setdefault((c.load_name, c.reason), {})[c.bay_id] = None
+        lv = c.level_id if project is not None else ""
+        groups.setdefault((c.load_name, c.reason), {}).setdefault(lv, {})[c.bay_id] = None
+    level_order = [lv.id for lv in project.levels] if project is not None else []
+    known = set(level_order)
     parts = []
-    for (load, reason), bay_ids in groups.items():
-        word = "bay" if len(bay_ids) == 1 else "bays"
-        parts.append(f"{load}: {word} {', '.join(bay_ids)} ({reason})")
+    for (load, reason), by_level in groups.items():
+        places: dict[str, list[str]] = {}  # ranges text -> levels, in first-seen order
+        plain: dict[str, None] = {}
+        for lv_id, bay_ids in by_level.items():
+            if project is None or lv_id not in known:
+                plain.update(bay_ids)
+                continue
+            ranges = ", ".join(bay_ranges(project.level(lv_id), bay_ids))
+            places.setdefault(ranges, []).append(lv_id)
+        clauses = []
+        for ranges, lvs in places.items():
+            names = id_ranges(level_order, lvs)
+            word = "level" if len(lvs) == 1 else "levels"
+            clauses.append(f"{ranges} on {word} {', '.join(names)}")
+        if plain:
+            word = "bay" if len(plain) == 1 else "bays"
+            clauses.append(f"{word} {', '.join(plain)}")
+        parts.append(f"{load}: {'; '.join(clauses)} ({reason})")
     return "; ".join(parts)
 
 
@@ -1622,11 +1763,18 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
     fp = fingerprint(project, project_path)
     permit = permit_conditions(project, results)
     groups = content.sheet_groups(project, results, zones)
-    docs = []
-    for k, g in enumerate(groups):
+    # traced level by level: a prepared floor is remembered for a few levels only,
+    # and sheets in severity order would prepare the floors of a tall building
+    # again and again
+    level_pos = {lv.id: n for n, lv in enumerate(project.levels)}
+    order = sorted(range(len(groups)),
+                   key=lambda n: level_pos.get(project.zone(groups[n].zone_id).level_id, 0))
+    by_index: dict[int, SheetDoc] = {}
+    for k, n in enumerate(order):
         tick(0.05 + 0.3 * k / max(1, len(groups)), f"Calculation sheet {k + 1} of "
              f"{len(groups)}")
-        docs.append(sheet_doc(project, results, g))
+        by_index[n] = sheet_doc(project, results, groups[n])
+    docs = [by_index[n] for n in range(len(groups))]
     levels = content.levels_of(project, zones)
 
     pagesize = LETTER if paper == "Letter" else A4

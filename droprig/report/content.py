@@ -282,6 +282,7 @@ class Covered:
     x: float
     y: float
     reason: str
+    level_id: str = ""
 
 
 @dataclass(frozen=True)
@@ -308,16 +309,51 @@ def _sig(v: float, n: int = 4) -> float | str:
     return float(f"{f:.{n - 1}e}")
 
 
-def case_key(case: CaseResult, i: int) -> tuple:
-    """What makes two drop points the same calculation as printed (4 significant
-    figures of every result a sheet prints, the check, the response, the surface)."""
+def case_key(case: CaseResult, i: int, project: Project | None = None) -> tuple:
+    """What makes two drop points the same calculation as printed: 4 significant
+    figures of every result a sheet prints, the check, the response, the surface.
+
+    With ``project`` the key holds no place (lift zone, level, bay) but what the
+    sheet prints about the load (name, mass, footprint, underside stiffness,
+    kind), the governing member (role, section, grade, span, end condition), the
+    deck of the level and the pad or mat struck: equal calculations on several
+    levels and zones share a sheet, which lists where it applies. Without
+    ``project`` the lift zone stands for all of these (one zone's sheets only).
+    """
     arrays = (case.drop_height, case.static_deflection, case.effective_mass,
               case.dynamic_factor, case.peak_force, case.max_deflection, case.utilisation,
               case.allowable_drop_height, case.allowable_drop_height_plastic,
               case.allowable_mass, case.ductility)
-    return (case.zone_id, case.load_name, int(case.governing_check[i]),
-            int(case.response[i]), int(case.protection[i]),
-            *(_sig(a[i]) for a in arrays))
+    results = (case.load_name, int(case.governing_check[i]), int(case.response[i]),
+               *(_sig(a[i]) for a in arrays))
+    if project is None:
+        return (case.zone_id, int(case.protection[i]), *results)
+    return (*_printed_inputs(project, case, i), *results)
+
+
+def _printed_inputs(project: Project, case: CaseResult, i: int) -> tuple:
+    """The inputs a calculation sheet prints besides the place (see :func:`case_key`)."""
+    zone = project.zone(case.zone_id)
+    load = next(ld for ld in zone.loads if ld.name == case.load_name)
+    level = project.level(case.level_id)
+    load_key = (load.name, _sig(load.mass), _sig(load.footprint_length),
+                _sig(load.footprint_width), load.kind,
+                None if load.contact_stiffness is None else _sig(load.contact_stiffness),
+                load.strike_orientations, load.edge_width)
+    gm = int(case.governing_member[i])
+    if 0 <= gm < len(level.members):
+        m = level.members[gm]
+        member_key: tuple = (m.role, m.section.name, m.grade.name, _sig(m.span),
+                             m.end_condition)
+    else:
+        member_key = ("deck",)
+    prot = int(case.protection[i])
+    pad_key: tuple = ()
+    if 0 <= prot < len(project.protection_areas):
+        pa = project.protection_areas[prot]
+        pad_key = (pa.kind, pa.thickness, pa.stiffness, pa.crush_force,
+                   pa.crush_stroke, pa.area.x1 - pa.area.x0, pa.area.y1 - pa.area.y0)
+    return (load_key, member_key, repr(level.deck), prot >= 0, pad_key)
 
 
 def sheet_groups(project: Project, results: Results,
@@ -337,19 +373,19 @@ def sheet_groups(project: Project, results: Results,
     groups: dict[tuple, list[Covered]] = {}
     reps: dict[tuple, tuple[CaseResult, int, str]] = {}
     order: list[tuple] = []
-    seen: dict[tuple, set[tuple[str, str, str]]] = {}
+    seen: dict[tuple, set[tuple[str, str, str, str]]] = {}
 
     def add(case: CaseResult, i: int, bay_id: str, reason: str) -> None:
-        key = case_key(case, i)
+        key = case_key(case, i, project)
         cov = Covered(case.zone_id, case.load_name, bay_id, float(case.x[i]),
-                      float(case.y[i]), reason)
+                      float(case.y[i]), reason, case.level_id)
         if key not in groups:
             groups[key] = []
             seen[key] = set()
             reps[key] = (case, i, bay_id)
             order.append(key)
         # a set, not a scan of the group: a sheet can cover hundreds of bays
-        tag = (cov.load_name, cov.bay_id, cov.reason)
+        tag = (cov.zone_id, cov.load_name, cov.bay_id, cov.reason)
         if tag not in seen[key]:
             seen[key].add(tag)
             groups[key].append(cov)

@@ -29,7 +29,7 @@ import random
 import signal
 import tempfile
 import time
-from collections.abc import Iterator
+from collections.abc import Callable, Iterator
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
@@ -372,12 +372,15 @@ def cases(n: int, seed: int, random_share: float = 0.25) -> Iterator[tuple[str, 
                    mutate(demos[d], rng, rng.choice([1, 1, 1, 2, 3])))
 
 
-def run(n: int, seed: int, limit: float = CASE_SECONDS) -> Tally:
+def run(n: int, seed: int, limit: float = CASE_SECONDS,
+        on_case: Callable[[Tally], None] | None = None) -> Tally:
     """Run ``n`` cases from ``seed`` and tally them (``limit``: seconds before a case
-    counts as a hang)."""
+    counts as a hang; ``on_case(tally)`` after every case, for progress)."""
     tally = Tally()
     with tempfile.TemporaryDirectory(prefix="droprig-fuzz-") as tmp:
         folder = Path(tmp)
         for label, data in cases(n, seed):
             tally.add(label, run_case(data, folder, limit))
+            if on_case is not None:
+                on_case(tally)
     return tally

@@ -20,24 +20,20 @@ import pytest
 
 from droprig.model import (
     Deck,
-    Grade,
     LiftLoad,
     LiftZone,
     Project,
     ProtectionArea,
     Rect,
-    Section,
     Settings,
     generate_level,
 )
 from droprig.solver import analysis, droppoints, summary, unit_actions
 from droprig.solver.chain import (
     BeyondYield,
-    Chain,
     Compliance,
     Demands,
     StruckMass,
-    outputs,
 )
 from droprig.solver.evaluate import evaluate_chain
 from droprig.solver.results import (
@@ -51,22 +47,14 @@ from droprig.solver.results import (
     RESPONSES,
 )
 from droprig.solver.trace import trace_point
+from tests.builders import BEAM, GIRDER, S355, AtPoints
 
 REL = 1e-9  # closed forms in floating point
 G = 9.80665  # standard gravity (CGPM 1901)
 
 
 
-class _AtPoints:
-    """The chain of the analysis at some points: public outputs by field name
-    (``r["peak_force"]``), step results on ``r.chain`` (``r.chain[Compliance].f_s``)."""
-
-    def __init__(self, chain: Chain) -> None:
-        self.chain = chain
-        self.out = outputs(chain)
-
-    def __getitem__(self, key: str) -> np.ndarray:
-        return self.out[key]
+_AtPoints = AtPoints
 
 def _indentation(area: float, fck: float = 30e6) -> float:
     """Deck indentation compliance under a rigid flat footprint of ``area`` (m/N):
@@ -76,15 +64,7 @@ def _indentation(area: float, fck: float = 30e6) -> float:
     E = 22e9 * ((fck / 1e6 + 8.0) / 10.0) ** 0.3
     return 1.0 / (2.0 * math.sqrt(area / math.pi) * E / (1 - 0.2**2))
 
-# EN 10025-2 Table 7: S355 355 MPa (t ≤ 16 mm), 345 MPa (16 < t ≤ 40 mm)
-S355 = Grade("S355", "EN", ((0.016, 355e6), (0.04, 345e6)), 470e6, E=210e9)
-# Custom section properties close to an IPE 300 / IPE 450 (inputs, not check values)
-BEAM = Section("B300", "custom", d=0.3, bf=0.15, tw=0.0071, tf=0.0107, r=0.015,
-               A=5.381e-3, Ix=8.356e-5, Sx=5.57e-4, Zx=6.28e-4, Iy=6.04e-6,
-               mass_per_length=42.2)
-GIRDER = Section("G450", "custom", d=0.45, bf=0.19, tw=0.0094, tf=0.0146, r=0.021,
-                 A=9.88e-3, Ix=3.374e-4, Sx=1.5e-3, Zx=1.702e-3, Iy=1.676e-5,
-                 mass_per_length=77.6)
+# S355 (EN 10025-2 Table 7) and sections close to IPE 300 / IPE 450: tests/builders.py
 
 
 def _one_bay_level(**kw):

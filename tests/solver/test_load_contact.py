@@ -31,17 +31,16 @@ from droprig.model import (
 )
 from droprig.solver import analysis, capacity
 from droprig.solver.chain import (
-    Chain,
     Compliance,
     Demands,
     LoadInputs,
     StruckMass,
-    outputs,
 )
 from droprig.solver.evaluate import evaluate_chain
 from droprig.solver.member import assess_member
 from droprig.solver.results import CHECKS, RESPONSES
 from droprig.solver.trace import trace_point
+from tests.builders import AtPoints
 
 G = 9.80665  # standard gravity (CGPM 1901)
 REL = 1e-9  # closed forms in floating point
@@ -49,16 +48,7 @@ SPAN = 6.0  # m, infill beam span of the test floor
 K_SKID = 5e7  # N/m: a stiffness in the range of a steel skid (input only)
 
 
-class _AtPoints:
-    """The chain of the analysis at some points: public outputs by field name
-    (``r["peak_force"]``), step results on ``r.chain`` (``r.chain[Compliance].f_s``)."""
-
-    def __init__(self, chain: Chain) -> None:
-        self.chain = chain
-        self.out = outputs(chain)
-
-    def __getitem__(self, key: str) -> np.ndarray:
-        return self.out[key]
+_AtPoints = AtPoints
 
 
 @pytest.fixture(scope="module")

@@ -21,27 +21,17 @@ import pytest
 from droprig.io.project_file import load_project
 from droprig.solver import analysis
 from droprig.solver.chain import (
-    Chain,
     Compliance,
     LoadInputs,
-    outputs,
 )
 from droprig.solver.evaluate import evaluate_chain
+from tests.builders import AtPoints
 
 ROOT = Path(__file__).resolve().parents[2]
 REL = 1e-12
 
 
-class _AtPoints:
-    """The chain of the analysis at some points: public outputs by field name
-    (``r["peak_force"]``), step results on ``r.chain`` (``r.chain[Compliance].f_s``)."""
-
-    def __init__(self, chain: Chain) -> None:
-        self.chain = chain
-        self.out = outputs(chain)
-
-    def __getitem__(self, key: str) -> np.ndarray:
-        return self.out[key]
+_AtPoints = AtPoints
 
 
 @pytest.mark.parametrize("name", ["rooftop_plant_swap", "steel_erection_floor"])
