@@ -143,8 +143,9 @@ class Settings:
     ductility_limit μ and rotation_limit θ (rad): NAVFAC DM-2.08 non-reusable
     steel beams, μ = 6, θ = 2°. grid_resolution: drop-point spacing, m.
     dynamic_amplification: the checks use the larger of the energy method and the
-    time-history-based demand (droprig.solver.amplification); off by default until
-    the calibrated factors are reviewed (README, "Dynamic amplification").
+    time-history-based demand (droprig.solver.amplification; README, "Dynamic
+    amplification"); on by default — off gives the energy method alone (for
+    comparison only).
     """
 
     unit_system: UnitSystem = "SI"
@@ -157,7 +158,7 @@ class Settings:
     grid_resolution: float = 0.5
     include_member_mass: bool = True
     include_existing_loads: bool = True
-    dynamic_amplification: bool = False
+    dynamic_amplification: bool = True
 
     def __post_init__(self) -> None:
         check_choice("settings.unit_system", self.unit_system, ("SI", "US"))

@@ -595,10 +595,14 @@ class DynamicAmplification:
     """Per point: load mass ÷ struck mass of the path ``mass_ratio`` (r = M/mₑ with
     the path's Rayleigh mass at the struck framing point), contact ÷ framing
     compliance ``compliance_ratio`` (κ = (f − f_s)/f_s), the factors on the energy
-    method's contact force ``A_force``, member moment ``A_moment``, shear ``A_shear``
-    and deflection ``A_deflection`` (dimensionless, ≥ 1), the contact-force bound
-    ``F_bound`` (N) and the factor each check family takes, ``factor`` by check name
-    (for the local checks min(A_force, F_bound/F), never below 1)."""
+    method's force F at which the checks are made — contact force ``A_force`` (web,
+    deck flexure, punching), member moment ``A_moment``, shear ``A_shear`` and
+    deflection ``A_deflection`` (dimensionless, ≥ 1; each the amplified force of
+    :func:`droprig.solver.amplification.amplified_forces` over F) — the contact-force
+    bound ``F_bound`` (N: the rigid-base bound, and the crushing force where the
+    crushing holds within its stroke) and the factor each check family takes,
+    ``factor`` by check name; ``set_by`` what set the local, moment, shear and
+    deflection forces (index into :data:`droprig.solver.amplification.SET_BY`)."""
 
     mass_ratio: np.ndarray
     compliance_ratio: np.ndarray
@@ -608,6 +612,7 @@ class DynamicAmplification:
     A_deflection: np.ndarray
     F_bound: np.ndarray
     factor: dict[str, np.ndarray]
+    set_by: dict[str, np.ndarray]
 
 
 _CRUSHABLE_KAPPA = 1e3
@@ -616,14 +621,22 @@ column of the amplification tables)."""
 
 
 def dynamic_amplification(c: Chain) -> DynamicAmplification:
-    """Table lookup of :func:`droprig.solver.amplification.amplification` (calibrated
-    on the time history of :mod:`droprig.solver.timehistory`: Euler–Bernoulli modes,
-    Blevins 1979 Table 8-1; Newmark average acceleration, Chopra §5.4) against the
-    energy method as this chain applies it: with the struck-mass share where η < 1,
-    with η = 1 under mats and crushable layers. A crushable layer is not in the
-    calibration: its points take the η = 1 table at the softest contact (an
-    assumption, stated in the README). Contact-force bound: the load on its contact
-    springs against an immovable point (Gere 7th ed. §9.10, η = 1, +5 %)."""
+    """The factor each family of checks takes, from
+    :func:`droprig.solver.amplification.amplified_forces`: the larger of the energy
+    method's force and the least of the time history's upper bounds — the tables
+    (calibrated on :mod:`droprig.solver.timehistory`: Euler–Bernoulli modes, Blevins
+    1979 Table 8-1; Newmark average acceleration, Chopra §5.4) on the energy method's
+    elastic force as calibrated (with the struck-mass share where η < 1, η = 1 under
+    mats and crushable layers); the load on its contact springs against an immovable
+    point (Gere 7th ed. §9.10, η = 1, +5 %); the crushing force — of the deck
+    concrete under the footprint (Impact's F_crush) or of a crushable layer — where
+    the crushing cannot pass its stroke (the cover; the layer's stroke) even with all
+    the energy in it (:func:`droprig.solver.amplification.crush_depth_bound`); and for
+    member moment, shear and deflection the member's largest response per unit peak
+    contact force (B_M, B_V, B_δ, calibrated on the time history with an
+    elastic–perfectly plastic contact). A crushable layer is not in the tables'
+    calibration: its points take the η = 1 table at the softest contact on the
+    layer's own force (an assumption, stated in the README)."""
     d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
     if not d.fm.settings.dynamic_amplification:
         one = np.ones(d.n)
@@ -633,25 +646,43 @@ def dynamic_amplification(c: Chain) -> DynamicAmplification:
                                     compliance_ratio=np.full(d.n, np.nan), A_force=one,
                                     A_moment=one, A_shear=one, A_deflection=one,
                                     F_bound=np.full(d.n, np.inf),
-                                    factor=dict.fromkeys(names, one))
+                                    factor=dict.fromkeys(names, one),
+                                    set_by=dict.fromkeys(("local", "moment", "shear",
+                                                          "deflection"),
+                                                         np.zeros(d.n, int)))
     m_path = d.geo.path.m_e
     m_path = np.where(np.isfinite(m_path) & (m_path > 0.0), m_path, 0.0)
+    crushable = inp.crushable
     # a crushable layer: the softest column of the η = 1 tables (not calibrated)
-    f_contact = np.where(inp.crushable, _CRUSHABLE_KAPPA * comp.f_s, comp.f - comp.f_s)
+    f_contact = np.where(crushable, _CRUSHABLE_KAPPA * comp.f_s, comp.f - comp.f_s)
     a = amp_mod.amplification(inp.M, m_path, f_contact, comp.f_s,
                               struck_mass=sm.m_e > 0.0)
-    bound = np.where(inp.crushable, np.inf,
+    rigid = np.where(crushable, np.inf,
                      amp_mod.contact_force_bound(inp.W, inp.h, comp.f - comp.f_s))
+    # the tables multiply the energy method's elastic force (as calibrated); a
+    # crushable layer's own force
+    _, F_el, _ = impact_mod.impact_elastic(inp.W, inp.h, comp.f, sm.eta)
+    F_ref = np.where(crushable, imp.F, F_el)
+    # the crushing cap and the stroke it holds over
+    F_cap = np.where(crushable, inp.F_c, imp.F_crush)
+    stroke = np.where(crushable, inp.s_c, d.fm.level.deck.cover)
+    f_beyond = np.where(crushable, comp.f_struct, comp.f)
+    holds = amp_mod.crush_depth_bound(inp.W, inp.h, f_beyond, F_cap) <= stroke
+    forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds)
     F = imp.F
     with np.errstate(divide="ignore", invalid="ignore"):
-        local = np.where(F > 0.0, np.minimum(a.force, bound / np.where(F > 0.0, F, 1.0)),
-                         a.force)
-    local = np.where(np.isfinite(local), np.maximum(local, 1.0), a.force)
-    factor = {"flexure": a.moment, "shear": a.shear, "web_yielding": local,
+        def ratio(Fx: np.ndarray) -> np.ndarray:
+            r_ = np.where(F > 0.0, Fx / np.where(F > 0.0, F, 1.0), 1.0)
+            return np.where(np.isfinite(r_), np.maximum(r_, 1.0), 1.0)
+    local, A_M, A_V, A_D = (ratio(forces.local), ratio(forces.moment),
+                            ratio(forces.shear), ratio(forces.deflection))
+    factor = {"flexure": A_M, "shear": A_V, "web_yielding": local,
               "web_crippling": local, "deck_flexure": local, "deck_punching": local}
     return DynamicAmplification(mass_ratio=a.mass_ratio, compliance_ratio=a.compliance_ratio,
-                                A_force=a.force, A_moment=a.moment, A_shear=a.shear,
-                                A_deflection=a.deflection, F_bound=bound, factor=factor)
+                                A_force=local, A_moment=A_M, A_shear=A_V,
+                                A_deflection=A_D,
+                                F_bound=np.minimum(rigid, np.where(holds, F_cap, np.inf)),
+                                factor=factor, set_by=forces.set_by)
 
 
 def _scaled(chk: Check, A: np.ndarray) -> Check:
