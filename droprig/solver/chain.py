@@ -471,15 +471,21 @@ def impact(c: Chain) -> Impact:
     """Gere 7th ed. §9.10 Eq. 9-94 with Timoshenko's mass correction
     (:func:`droprig.solver.impact.impact_elastic`); a crushable layer by the energy
     balance of :func:`droprig.solver.impact.impact_crushable`."""
+    return impact_at(c, None)
+
+
+def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
+    """:func:`impact` for the free falls ``h`` (m; ``None``: the planned ones)."""
     d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
+    h = inp.h if h is None else h
     n = d.n
     W, crushable = inp.W, inp.crushable
-    K, F_el, d_max = impact_mod.impact_elastic(W, inp.h, comp.f, sm.eta)
+    K, F_el, d_max = impact_mod.impact_elastic(W, h, comp.f, sm.eta)
     F = F_el.copy()
     crush = np.zeros(n)
     bottomed = np.zeros(n, dtype=bool)
     if crushable.any():
-        Fcr, dep, bot = impact_mod.impact_crushable(W[crushable], inp.h[crushable],
+        Fcr, dep, bot = impact_mod.impact_crushable(W[crushable], h[crushable],
                                                     comp.f_struct[crushable],
                                                     sm.eta[crushable], inp.F_c[crushable],
                                                     inp.s_c[crushable])
@@ -500,7 +506,7 @@ def impact(c: Chain) -> Impact:
     deck_through = np.zeros(n, dtype=bool)
     cap = ~crushable & (F > F_crush)
     if cap.any():
-        Fb, dep, thr = crushing.crushing_limited_impact(W[cap], inp.h[cap], comp.f[cap],
+        Fb, dep, thr = crushing.crushing_limited_impact(W[cap], h[cap], comp.f[cap],
                                                         sm.eta[cap], F_crush[cap],
                                                         lv.deck.cover)
         F[cap] = Fb
@@ -637,7 +643,12 @@ def dynamic_amplification(c: Chain) -> DynamicAmplification:
     elastic–perfectly plastic contact). A crushable layer is not in the tables'
     calibration: its points take the η = 1 table at the softest contact on the
     layer's own force (an assumption, stated in the README)."""
-    d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+    return amplification_at(c, c[LoadInputs].h, c[Impact])
+
+
+def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplification:
+    """:func:`dynamic_amplification` for the free falls ``h`` (m) and their impact."""
+    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
     if not d.fm.settings.dynamic_amplification:
         one = np.ones(d.n)
         names = ("flexure", "shear", "web_yielding", "web_crippling", "deck_flexure",
@@ -658,16 +669,16 @@ def dynamic_amplification(c: Chain) -> DynamicAmplification:
     a = amp_mod.amplification(inp.M, m_path, f_contact, comp.f_s,
                               struck_mass=sm.m_e > 0.0)
     rigid = np.where(crushable, np.inf,
-                     amp_mod.contact_force_bound(inp.W, inp.h, comp.f - comp.f_s))
+                     amp_mod.contact_force_bound(inp.W, h, comp.f - comp.f_s))
     # the tables multiply the energy method's elastic force (as calibrated); a
     # crushable layer's own force
-    _, F_el, _ = impact_mod.impact_elastic(inp.W, inp.h, comp.f, sm.eta)
+    _, F_el, _ = impact_mod.impact_elastic(inp.W, h, comp.f, sm.eta)
     F_ref = np.where(crushable, imp.F, F_el)
     # the crushing cap and the stroke it holds over
     F_cap = np.where(crushable, inp.F_c, imp.F_crush)
     stroke = np.where(crushable, inp.s_c, d.fm.level.deck.cover)
     f_beyond = np.where(crushable, comp.f_struct, comp.f)
-    holds = amp_mod.crush_depth_bound(inp.W, inp.h, f_beyond, F_cap) <= stroke
+    holds = amp_mod.crush_depth_bound(inp.W, h, f_beyond, F_cap) <= stroke
     forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds)
     F = imp.F
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -1023,6 +1034,8 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
     h_el = with_crush_energy(h_el, crushable & (F_c <= F_allow), F_c, s_c, W, eta)
+    if s.dynamic_amplification:
+        h_el = confirm_amplified_height(c, h_el)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
     for u in ck.Ub_at_Rp[1:]:
@@ -1069,6 +1082,48 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     return InverseAnswers(h_el=h_el, h_pl=h_pl, m_allow=m_allow, k_req=k_req, s_req=s_req,
                           Ub_Rp=Ub_Rp, h_check=h_check, h_member=h_member,
                           hp_check=hp_check)
+
+
+def amplified_utilisation_at(c: Chain, h: np.ndarray) -> np.ndarray:
+    """Largest elastic U of every check family at the free falls ``h`` (m): the
+    impact at h (:func:`impact_at`) and the amplification at h
+    (:func:`amplification_at`) on step 5's energy-method checks (linear in F)."""
+    imp = impact_at(c, h)
+    amp = amplification_at(c, h, imp)
+    dem = next(r for r in c.history if isinstance(r, Demands))  # step 5's own
+    U = np.zeros(c.drop.n)
+    for name, chk in dem.checks.items():
+        A = amp.factor.get(name, amp.A_shear)
+        with np.errstate(invalid="ignore"):
+            U = np.fmax(U, chk.U_at(A * imp.F))
+    return U
+
+
+_CONFIRM_ROUNDS = 12
+
+
+def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
+    """The elastic allowable free fall with dynamic amplification, m: the factors
+    depend on the height (the rigid-base and crushing bounds, the energy method's own
+    force), so the closed form's height — with the factors at the planned height — is
+    re-checked by a forward run at that height (:func:`amplified_utilisation_at`) and
+    lowered by (0.98/U)² where U > 1 (F ∝ √h for a drop large against the static
+    deflection, Gere 7th ed. Eq. 9-94), until every point holds (at most
+    :data:`_CONFIRM_ROUNDS` rounds; a point still over then gets no height, NaN)."""
+    h = h_el.copy()
+    for _ in range(_CONFIRM_ROUNDS):
+        live = np.isfinite(h) & (h > 0.0)
+        if not live.any():
+            break
+        U = np.ones(c.drop.n)
+        U[live] = amplified_utilisation_at(c, np.where(live, h, 0.0))[live]
+        over = live & (U > 1.0)
+        if not over.any():
+            return h
+        h = np.where(over, h * np.minimum(0.98, (0.98 / U) ** 2), h)
+    live = np.isfinite(h) & (h > 0.0)
+    U = amplified_utilisation_at(c, np.where(live, h, 0.0))
+    return np.where(live & (U > 1.0), np.nan, h)
 
 
 # --------------------------------------------------------------------------- 9. local damage
