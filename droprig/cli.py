@@ -67,6 +67,9 @@ def build_parser() -> argparse.ArgumentParser:
 
     s = sub.add_parser("check", help="one member struck by one dropped load")
     _member_options(s)
+    s.add_argument("--energy-method-only", action="store_true",
+                   help="leave out the dynamic amplification (for comparison only; the "
+                   "verdict takes it, as the floor analysis does)")
 
     s = sub.add_parser("verify", help="time history beside the energy method: a project's "
                        "governing points (FILE), or one member (check's options)")

@@ -291,13 +291,16 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
     time history:
 
     * contact force: min(A_F·F_ref, F_rigid, F_crush) — the table on the energy
-      method's elastic force F_ref (N, uncapped, as calibrated), the load on its
+      method's elastic force F_ref (N, uncapped, as calibrated; only where
+      A_F·F_ref ≤ F_crush, i.e. the contact stays elastic, the tables' calibration),
+      the load on its
       contact spring against an immovable point F_rigid (N,
       :func:`contact_force_bound`), and the crushing force F_crush (N) where the
       crushing stays within its stroke (``crush_holds``, from
       :func:`crush_depth_bound`): an elastic–perfectly plastic contact never passes
       more;
-    * member moment, shear, deflection: min(A_X·F_ref, B_X·F_local) — the table, or
+    * member moment, shear, deflection: min(A_X·F_ref, B_X·F_local) — the table
+      (where the contact stays elastic, as above), or
       the member's largest dynamic response to a contact pulse no larger than the
       contact force bound F_local (:data:`B_MOMENT`, :data:`B_SHEAR`,
       :data:`B_DEFLECTION`, calibrated on the time history with an
@@ -309,7 +312,11 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
         *(np.asarray(v, float) for v in (F, F_ref, F_rigid, F_crush)),
         np.asarray(crush_holds, bool))
     cap = np.where(holds, F_crush, np.inf)
-    terms = np.stack([amp.force * F_ref, F_rigid, cap])
+    # the tables were calibrated on a linear contact: they bound the time history only
+    # where their own contact force stays below the crushing force (the contact then
+    # never yields and the capped history is the linear one)
+    table_ok = amp.force * F_ref <= F_crush
+    terms = np.stack([np.where(table_ok, amp.force * F_ref, np.inf), F_rigid, cap])
     i_loc = np.argmin(terms, axis=0)
     least = np.take_along_axis(terms, i_loc[None], axis=0)[0]
     local = np.maximum(F, least)
@@ -317,7 +324,7 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
     out = {}
     for key, A, B in (("moment", amp.moment, B_MOMENT), ("shear", amp.shear, B_SHEAR),
                       ("deflection", amp.deflection, B_DEFLECTION)):
-        tab, bnd = A * F_ref, B * local
+        tab, bnd = np.where(table_ok, A * F_ref, np.inf), B * local
         least_m = np.minimum(tab, bnd)
         out[key] = np.maximum(F, least_m)
         set_by[key] = np.where(F >= least_m, 0, np.where(tab <= bnd, 1, 4))

@@ -621,11 +621,6 @@ class DynamicAmplification:
     set_by: dict[str, np.ndarray]
 
 
-_CRUSHABLE_KAPPA = 1e3
-"""Contact ÷ framing compliance a crushable layer's points are looked up at (softest
-column of the amplification tables)."""
-
-
 def dynamic_amplification(c: Chain) -> DynamicAmplification:
     """The factor each family of checks takes, from
     :func:`droprig.solver.amplification.amplified_forces`: the larger of the energy
@@ -640,9 +635,10 @@ def dynamic_amplification(c: Chain) -> DynamicAmplification:
     the energy in it (:func:`droprig.solver.amplification.crush_depth_bound`); and for
     member moment, shear and deflection the member's largest response per unit peak
     contact force (B_M, B_V, B_δ, calibrated on the time history with an
-    elastic–perfectly plastic contact). A crushable layer is not in the tables'
-    calibration: its points take the η = 1 table at the softest contact on the
-    layer's own force (an assumption, stated in the README)."""
+    elastic–perfectly plastic contact). The tables apply only where their contact
+    force stays below the crushing force (they were calibrated on elastic contacts);
+    a crushable layer is an elastic–perfectly plastic contact like the deck's
+    crushing, with its own force and stroke."""
     return amplification_at(c, c[LoadInputs].h, c[Impact])
 
 
@@ -664,20 +660,18 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplificati
     m_path = d.geo.path.m_e
     m_path = np.where(np.isfinite(m_path) & (m_path > 0.0), m_path, 0.0)
     crushable = inp.crushable
-    # a crushable layer: the softest column of the η = 1 tables (not calibrated)
-    f_contact = np.where(crushable, _CRUSHABLE_KAPPA * comp.f_s, comp.f - comp.f_s)
+    # the elastic contact: through a crushable layer (rigid until it crushes) the
+    # load's underside alone, else the deck, mats and the load's underside
+    f_beyond = np.where(crushable, comp.f_struct, comp.f)
+    f_contact = f_beyond - comp.f_s
     a = amp_mod.amplification(inp.M, m_path, f_contact, comp.f_s,
                               struck_mass=sm.m_e > 0.0)
-    rigid = np.where(crushable, np.inf,
-                     amp_mod.contact_force_bound(inp.W, h, comp.f - comp.f_s))
-    # the tables multiply the energy method's elastic force (as calibrated); a
-    # crushable layer's own force
-    _, F_el, _ = impact_mod.impact_elastic(inp.W, h, comp.f, sm.eta)
-    F_ref = np.where(crushable, imp.F, F_el)
-    # the crushing cap and the stroke it holds over
+    rigid = amp_mod.contact_force_bound(inp.W, h, f_contact)
+    # the tables multiply the energy method's elastic (uncapped) force, as calibrated
+    _, F_ref, _ = impact_mod.impact_elastic(inp.W, h, f_beyond, sm.eta)
+    # the crushing cap — the layer's, or the deck concrete's — and its stroke
     F_cap = np.where(crushable, inp.F_c, imp.F_crush)
     stroke = np.where(crushable, inp.s_c, d.fm.level.deck.cover)
-    f_beyond = np.where(crushable, comp.f_struct, comp.f)
     holds = amp_mod.crush_depth_bound(inp.W, h, f_beyond, F_cap) <= stroke
     forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds)
     F = imp.F

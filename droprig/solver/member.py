@@ -34,13 +34,13 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Any
 
 import numpy as np
 
 from droprig.model import Grade, ModelError, Section
-from droprig.solver import beam, capacity, impact, limits, plastic
+from droprig.solver import amplification, beam, capacity, impact, limits, plastic
 
 __all__ = [
     "BRITTLE_CHECKS",
@@ -70,6 +70,7 @@ RESULT_KEYS: tuple[str, ...] = (
     "plastic_deflection",
     "ductility",
     "support_rotation",
+    "amplification",
 )
 """Keys of :func:`assess_member`'s result, in the order of ``droprig check --json``."""
 
@@ -133,6 +134,7 @@ def assess_member(
     deflection_limit_ratio: float = DEFAULT_DEFLECTION_LIMIT_RATIO,
     ductility_limit: float = 6.0,
     rotation_limit: float = math.radians(2.0),
+    dynamic_amplification: bool = True,
 ) -> dict[str, Any]:
     """Assess one member (span L, m; end condition ``cond``) struck at ``a`` (m from
     the origin end) by a mass (kg) falling ``h`` (m).
@@ -151,6 +153,15 @@ def assess_member(
     validated but never changes the verdict (deflection is information only; the
     edges compare ``max_deflection`` with span/N themselves). Raises
     :class:`~droprig.model.ModelError` naming the argument for inputs outside range.
+
+    ``dynamic_amplification`` (on by default, as the floor analysis): every check is
+    made at its amplified force (:func:`droprig.solver.amplification.amplified_forces`
+    — the same rule as the floor chain's ``dynamic_amplification`` step; flexure at
+    A_M·F, shear at A_V·F, web checks at the bounded contact force A_F·F), the energy
+    beyond yield scaled by A_δ², the allowable heights confirmed by a forward run;
+    ``amplification`` then holds the factors ``force``, ``moment``, ``shear``,
+    ``deflection``, the ratios ``mass_ratio`` (r = M/mₑ) and ``compliance_ratio`` (κ)
+    and ``set_by`` (what set each factor); ``None`` when off (the energy method).
     """
     _check_inputs(cond, basis, L, a, mass, h, bearing, udl, cushion_stiffness,
                   load_stiffness, crush_force, crush_stroke, deflection_limit_ratio,
@@ -160,10 +171,19 @@ def assess_member(
                  self_weight, beam_mass, ductility_limit, rotation_limit)
     F_el = _impact_force(st)
     acts = _Actions(st)
+    amp = _amplification(st, st.h, F_el) if dynamic_amplification else None
+    st_by = st
+    if amp is not None:
+        base = _Actions(st)
+        acts.scale(amp)
+        # beyond yield: the kinetic energy × A_δ² (as the floor chain)
+        st_by = replace(st, h=st.h * amp["deflection"] ** 2)
     U_el = acts.utilisations(F_el)
     gov_el = max(U_el, key=lambda k: U_el[k])
     F_allow = {k: _solve_increasing(fn) for k, fn in acts.u_fun.items()}
     h_allow = _elastic_height(st, min(F_allow.values()))
+    if amp is not None:
+        h_allow = _confirm_height(st, base, h_allow)
     hinge_ok = capacity.plastic_hinge_capable(section, grade, basis)
     R_p = float(beam.plastic_collapse_load_udl(cond, L, a, acts.Mr, st.w0)) if hinge_ok \
         else math.nan
@@ -181,15 +201,65 @@ def assess_member(
         out["governing_check"] = gov_el
         out["response"] = "elastic" if U_el[gov_el] <= 1.0 else "exceeds"
     else:
-        out.update(_beyond_yield(st, acts, F_el, U_el["flexure"], R_p))
+        out.update(_beyond_yield(st_by, acts, F_el, U_el["flexure"], R_p))
     plastic_usable = hinge_ok and min(F_allow[k] for k in BRITTLE_CHECKS) >= R_p
     if plastic_usable:
-        out["allowable_drop_height_plastic"] = _plastic_height(st, R_p, h_allow)
+        h_pl = _plastic_height(st, R_p, h_allow)
+        if amp is not None and h_pl is not None:
+            h_pl = max(h_pl / amp["deflection"] ** 2, h_allow)
+        out["allowable_drop_height_plastic"] = h_pl
     out["deceleration_g"] = float(impact.deceleration_g(out["peak_force"], st.W))
     for k in RESULT_KEYS:
-        if k not in ("governing_check", "response"):
+        if k not in ("governing_check", "response", "amplification"):
             out[k] = _clean(out[k])
+    out["amplification"] = amp
     return out
+
+
+def _amplification(st: _Strike, h: float, F: float) -> dict[str, Any]:
+    """The floor chain's amplification rule for one member at the drop h (m) and the
+    energy method's force F (N): :func:`droprig.solver.amplification.amplification`
+    (r = M/mₑ with the member's Rayleigh mass, κ = f_c/f_s, f_c the elastic springs:
+    mat and the load's underside) and
+    :func:`~droprig.solver.amplification.amplified_forces` with the rigid-base bound
+    and a crushable layer's crush force while its stroke holds. Factors ≥ 1."""
+    crushable = st.crush_force is not None and st.crush_stroke is not None
+    a = amplification.amplification(st.mass, st.m_path, st.f_c, st.f_s,
+                                     struck_mass=st.eta < 1.0)
+    rigid = float(amplification.contact_force_bound(st.W, h, st.f_c))
+    F_cap = float(st.crush_force) if crushable else math.inf  # type: ignore[arg-type]
+    stroke = float(st.crush_stroke) if crushable else math.inf  # type: ignore[arg-type]
+    holds = bool(amplification.crush_depth_bound(st.W, h, st.f, F_cap) <= stroke)
+    F_ref = float(impact.impact_elastic(st.W, h, st.f, st.eta)[1])
+    fo = amplification.amplified_forces(a, F, F_ref, rigid, F_cap, holds)
+
+    def ratio(x: np.ndarray) -> float:
+        v = float(x) / F if F > 0.0 and math.isfinite(F) else 1.0
+        return max(v, 1.0) if math.isfinite(v) else 1.0
+
+    return {"force": ratio(fo.local), "moment": ratio(fo.moment), "shear": ratio(fo.shear),
+            "deflection": ratio(fo.deflection), "mass_ratio": _clean(float(a.mass_ratio)),
+            "compliance_ratio": _clean(float(a.compliance_ratio)),
+            "set_by": {k: amplification.SET_BY[int(v)] for k, v in fo.set_by.items()}}
+
+
+def _confirm_height(st: _Strike, base: _Actions, h_allow: float) -> float:
+    """The elastic allowable drop (m) re-checked by a forward run with the factors at
+    that height (they depend on it), lowered by (0.98/U)² until U ≤ 1 (as the floor
+    chain's ``confirm_amplified_height``; F ∝ √h, Gere 7th ed. Eq. 9-94)."""
+    h = h_allow
+    for _ in range(12):
+        if not (math.isfinite(h) and h > 0.0):
+            return h
+        F = _impact_force(replace(st, h=h))
+        amp = _amplification(st, h, F)
+        acts = _Actions(st)
+        acts.scale(amp)
+        U = max(acts.utilisations(F).values())
+        if U <= 1.0:
+            return h
+        h *= min(0.98, (0.98 / U) ** 2)
+    return math.nan
 
 
 def _check_inputs(cond: str, basis: str, L: float, a: float, mass: float, h: float,
@@ -265,6 +335,7 @@ class _Strike:
     m_e: float
     eta: float
     d_st: float
+    m_path: float = 0.0
 
 
 def _strike(section: Section, grade: Grade, cond: beam.EndCondition, L: float, a: float,
@@ -302,7 +373,7 @@ def _strike(section: Section, grade: Grade, cond: beam.EndCondition, L: float, a
     eta = 1.0 if cushioned else float(impact.mass_efficiency(mass, m_e))
     return _Strike(section, grade, cond, L, a, mass, h, basis, phi, dif, bearing,
                    crush_force, crush_stroke, ductility_limit, rotation_limit, W, EI, w0,
-                   f_s, f_c, f, m_e, eta, W * f)
+                   f_s, f_c, f, m_e, eta, W * f, m_rayleigh)
 
 
 def _impact_force(st: _Strike) -> float:
@@ -351,6 +422,23 @@ class _Actions:
             "shear": lambda F: self.shear(F) / self.Vr,
             "web_yielding": lambda F: F / self.R_wy,
             "web_crippling": lambda F: F / self.R_wc,
+        }
+
+    def scale(self, amp: dict[str, Any]) -> None:
+        """Make every check at its amplified force (:func:`_amplification`): flexure
+        and the reported moment at A_M·F, shear at A_V·F, the web checks at A_F·F,
+        the deflection at A_δ·F."""
+        moment, shear, defl = self.moment, self.shear, self.deflection_at
+        A_M, A_V, A_F, A_D = (amp["moment"], amp["shear"], amp["force"],
+                              amp["deflection"])
+        self.moment = lambda F: moment(A_M * F)
+        self.shear = lambda F: shear(A_V * F)
+        self.deflection_at = lambda F: defl(A_D * F)
+        self.u_fun = {
+            "flexure": lambda F: self.moment(F) / self.Mr,
+            "shear": lambda F: self.shear(F) / self.Vr,
+            "web_yielding": lambda F: A_F * F / self.R_wy,
+            "web_crippling": lambda F: A_F * F / self.R_wc,
         }
 
     def _deflection(self, F: float) -> float:
