@@ -673,7 +673,8 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplificati
     F_cap = np.where(crushable, inp.F_c, imp.F_crush)
     stroke = np.where(crushable, inp.s_c, d.fm.level.deck.cover)
     holds = amp_mod.crush_depth_bound(inp.W, h, f_beyond, F_cap) <= stroke
-    forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds)
+    forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds,
+                                      bottomed=imp.bottomed | imp.deck_through)
     F = imp.F
     with np.errstate(divide="ignore", invalid="ignore"):
         def ratio(Fx: np.ndarray) -> np.ndarray:

@@ -231,7 +231,9 @@ def _amplification(st: _Strike, h: float, F: float) -> dict[str, Any]:
     stroke = float(st.crush_stroke) if crushable else math.inf  # type: ignore[arg-type]
     holds = bool(amplification.crush_depth_bound(st.W, h, st.f, F_cap) <= stroke)
     F_ref = float(impact.impact_elastic(st.W, h, st.f, st.eta)[1])
-    fo = amplification.amplified_forces(a, F, F_ref, rigid, F_cap, holds)
+    bottomed = crushable and bool(impact.impact_crushable(
+        st.W, h, st.f, st.eta, F_cap, stroke)[2])
+    fo = amplification.amplified_forces(a, F, F_ref, rigid, F_cap, holds, bottomed)
 
     def ratio(x: np.ndarray) -> float:
         v = float(x) / F if F > 0.0 and math.isfinite(F) else 1.0

@@ -60,14 +60,16 @@ def _verdict_forces(c: dict[str, np.ndarray]) -> amplification.AmplifiedForces:
     W, h, f = c["W"], c["h"], c["f_s"] + c["f_c"]
     # the energy method as the chain gives it: capped by crushing where it crushes
     F = c["F_el"].copy()
+    bottomed = np.zeros(F.size, bool)
     cap = np.isfinite(c["F_y"])
-    F[cap] = crushing.crushing_limited_impact(W[cap], h[cap], f[cap], c["eta"][cap],
-                                              c["F_y"][cap], c["s_y"][cap])[0]
+    F[cap], _, bottomed[cap] = crushing.crushing_limited_impact(
+        W[cap], h[cap], f[cap], c["eta"][cap], c["F_y"][cap], c["s_y"][cap])
     amp = amplification.amplification(c["M"], c["m_e"], c["f_c"], c["f_s"],
                                       struck_mass=c["struck"])
     rigid = amplification.contact_force_bound(W, h, c["f_c"])
     holds = amplification.crush_depth_bound(W, h, f, c["F_y"]) <= c["s_y"]
-    return amplification.amplified_forces(amp, F, c["F_el"], rigid, c["F_y"], holds)
+    return amplification.amplified_forces(amp, F, c["F_el"], rigid, c["F_y"], holds,
+                                          bottomed)
 
 
 def _unit(c: dict[str, np.ndarray]) -> tuple[np.ndarray, np.ndarray, np.ndarray]:

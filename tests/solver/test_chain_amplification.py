@@ -83,7 +83,7 @@ def test_on_checks_use_the_amplified_force() -> None:
         holds = amplification.crush_depth_bound(inp.W, inp.h, f_b, F_cap) <= stroke
         fo = amplification.amplified_forces(
             ref, imp.F, F_ref, amplification.contact_force_bound(inp.W, inp.h, f_b - comp.f_s),
-            F_cap, holds)
+            F_cap, holds, imp.bottomed | imp.deck_through)
         np.testing.assert_allclose(amp.A_moment[ok], np.maximum(fo.moment / imp.F, 1.0)[ok],
                                    rtol=REL)
         np.testing.assert_allclose(amp.A_force[ok], np.maximum(fo.local / imp.F, 1.0)[ok],
