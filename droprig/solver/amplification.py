@@ -311,8 +311,9 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
     ``bottomed``: where the energy method crushes through the whole stroke and the
     rest of the energy is taken elastically; the tables then apply to the energy
     method's own (bottomed) force F, the elastic impact of what is left after the
-    stroke — an assumption checked on the time history with a finite stroke (same
-    test).
+    stroke; where the crushing may pass its stroke (``crush_holds`` false) they apply
+    to the elastic force F_ref with no crushing at all — both checked on the time
+    history with a finite stroke (same test).
 
     Every term is an upper bound of the time history (tests/solver/
     test_amplification_capped.py), so their least is one too. Vectorised, N."""
@@ -324,7 +325,7 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
     # the tables were calibrated on a linear contact: they bound the time history only
     # where their own contact force stays below the crushing force (the contact then
     # never yields and the capped history is the linear one)
-    table_ok = bot | (amp.force * F_ref <= F_crush)
+    table_ok = bot | ~holds | (amp.force * F_ref <= F_crush)
     terms = np.stack([np.where(table_ok, amp.force * F_ref, np.inf), F_rigid, cap])
     i_loc = np.argmin(terms, axis=0)
     least = np.take_along_axis(terms, i_loc[None], axis=0)[0]
