@@ -54,6 +54,7 @@ import numpy as np
 from droprig.model import Level, LiftLoad, LiftZone, Project, corridor_problem
 from droprig.solver import cancel, cascade, droppoints, evaluate, memory, refine
 from droprig.solver.chain import FIELDS, planned_height
+from droprig.solver.confirm import confirm_bay_limits
 from droprig.solver.drift import resolve_drift
 from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_model
 from droprig.solver.geometry import Geometry, point_geometry
@@ -122,14 +123,20 @@ def analyse_zone(project: Project, zone_id: str,
     allres = refine.zone_points(fm, project, zone, (x, y)) if zone.loads else {}
     if zone.loads:
         confirm_plastic_heights(fm, project, zone, allres)
+    zone_cases = []
     for j, load in enumerate(zone.loads):
         sel = allres["load_index"] == j
         res = {k: v[sel] for k, v in allres.items()}
         case = _case_result(zone, load, level, res)
         cases.append(case)
+        zone_cases.append(case)
         summaries.extend(summarise(level, zone, load, case, res["F_allow"],
                                    below.id if below is not None else None,
                                    [p.id for p in project.protection_areas]))
+    if summaries:
+        # every limit a bay offers, tried by the forward chain before it is printed
+        summaries = confirm_bay_limits(fm, project, zone, allres, summaries)
+    for load, case in zip(zone.loads, zone_cases, strict=True):
         if below is not None:
             fall = _cascade(project, zone, load, case, below, floor)
             if fall is not None:
@@ -168,10 +175,6 @@ CONFIRM_FACTORS = (0.99, 1.0)
 """Fractions of a plastic allowable height at which the forward analysis must not
 exceed before the height is reported (issue 16: evaluated at 0.99 × the height)."""
 
-_CONFIRM_BLOCK = 256
-"""Points per forward check (each point carries its own trial load)."""
-
-
 def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
                             res: dict[str, np.ndarray]) -> None:
     """Keep a plastic allowable height only where the forward analysis confirms it.
@@ -190,26 +193,22 @@ def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
     idx = np.flatnonzero(np.isfinite(h_pl) & ~(h_pl <= h_el))
     if idx.size == 0:
         return
-    loads = list(zone.loads)
+    # the structural response alone (hard=False: no local-damage step), so a trial
+    # that exceeds is never reported as 'perforates' and let through; the deck's local
+    # damage has its own allowable heights. All points in one pass, each with its own
+    # trial height (Drop.H)
+    loads = [replace(ld, hard=False) for ld in zone.loads]
+    cancel.check()
+    geo = point_geometry(fm, project, res["x"][idx], res["y"][idx])
+    li = res["load_index"][idx]
+    # heights are above the finished surface; the factor applies to the fall onto a
+    # pad (t + factor·(h − t), issue 13)
+    t_pad = res["drop_height"][idx] - res["fall_height"][idx]
     ok = np.ones(idx.size, dtype=bool)
-    for s0 in range(0, idx.size, _CONFIRM_BLOCK):
-        cancel.check()
-        part = idx[s0:s0 + _CONFIRM_BLOCK]
-        geo = point_geometry(fm, project, res["x"][part], res["y"][part])
-        # heights are above the finished surface; the factor applies to the fall onto
-        # a pad (t + factor·(h − t), issue 13)
-        t_pad = res["drop_height"][part] - res["fall_height"][part]
-        for factor in CONFIRM_FACTORS:
-            # the structural response alone (hard=False: no local-damage step), so a
-            # trial that exceeds is never reported as 'perforates' and let through;
-            # the deck's local damage has its own allowable heights
-            trial = [replace(loads[int(j)],
-                             drop_height=min(t + factor * (float(hp) - t), 200.0),
-                             hook_elevation=None, hang_length=0.0, hard=False)
-                     for j, hp, t in zip(res["load_index"][part], h_pl[part], t_pad,
-                                         strict=True)]
-            r = evaluate.evaluate_case(fm, project, trial, geo, np.arange(part.size))
-            ok[s0:s0 + part.size] &= r["response"] != EXCEEDS
+    for factor in CONFIRM_FACTORS:
+        H = np.minimum(t_pad + factor * (h_pl[idx] - t_pad), 200.0)
+        r = evaluate.evaluate_case(fm, project, loads, geo, li, H=H)
+        ok &= r["response"] != EXCEEDS
     bad = idx[~ok]
     if bad.size:
         h_pl = h_pl.copy()

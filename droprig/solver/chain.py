@@ -145,7 +145,12 @@ _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "pe
 class Drop:
     """What is dropped where: the points of ``geo`` on the prepared floor ``fm``, the
     load of each point ``loads[li]``; ``detail`` keeps what the calculation trace shows
-    (the governing candidate of every check, beyond yield at every point)."""
+    (the governing candidate of every check, beyond yield at every point).
+
+    Trials of a permit condition (:mod:`droprig.solver.confirm`) give per point
+    ``H``: the drop height on the datum in place of the load's planned one (m), and
+    ``mat_k``: the stiffness of a spring mat laid on the finished surface under the
+    whole footprint (N/m; nan = none), as the permit's advised mat is laid."""
 
     fm: FloorModel
     project: Project
@@ -153,6 +158,8 @@ class Drop:
     loads: tuple[LiftLoad, ...]
     li: np.ndarray
     detail: bool = False
+    H: np.ndarray | None = None
+    mat_k: np.ndarray | None = None
 
     @property
     def n(self) -> int:
@@ -198,7 +205,8 @@ class LoadInputs:
     height ``H`` above the finished surface (m, the datum) and the free fall ``h`` =
     H − t_mat onto the struck surface (m); footprint on the deck ``foot_l`` ×
     ``foot_w`` (spread 1:1 through a mat, m) and bearing length on a flange ``lb``
-    (smaller footprint side + 2 × mat thickness, m)."""
+    (smaller footprint side + 2 × mat thickness, m); ``protected``: a pad or mat
+    lies under the load (the framing's mass share is then not taken)."""
 
     W: np.ndarray
     M: np.ndarray
@@ -215,6 +223,7 @@ class LoadInputs:
     foot_l: np.ndarray
     foot_w: np.ndarray
     lb: np.ndarray
+    protected: np.ndarray
 
 
 def load_inputs(c: Chain) -> LoadInputs:
@@ -235,47 +244,83 @@ def load_inputs(c: Chain) -> LoadInputs:
     s_c = np.zeros(n)
     crushable = np.zeros(n, dtype=bool)
     any_mat = bool(np.any(geo.protection >= 0))
-    for i, pa in enumerate(d.project.protection_areas):
+    prot = d.project.protection_areas
+    for i, pa in enumerate(prot):
         if not any_mat or pa.level_id != lv.id:
             continue
         sel = geo.protection == i
         if not sel.any():
             continue
         t_mat[sel] = pa.thickness
-        # pads by area: the part of the footprint on the pad, the less of the two
-        # footprint orientations (conservative)
-        A_fp = fl[sel] * fw[sel]
-        r = pa.area
-        A_ov = np.minimum(
-            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], fl[sel],
-                                                       fw[sel], True), (r.x0, r.y0, r.x1, r.y1)),
-            pads.rect_overlap_area(pads.footprint_rect(geo.x[sel], geo.y[sel], fl[sel],
-                                                       fw[sel], False), (r.x0, r.y0, r.x1, r.y1)))
+        # pads by area: the part of the footprint on the layer — this one and every
+        # layer of the same kind and thickness it abuts, which the footprint presses
+        # at the same moment — the less of the two footprint orientations
+        # (conservative); a layer of another thickness is not credited
+        together = [j for j, o in enumerate(prot)
+                    if o.level_id == lv.id and o.kind == pa.kind
+                    and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+        xs, ys, fls, fws = geo.x[sel], geo.y[sel], fl[sel], fw[sel]
+        A_fp = fls * fws
+        per_orient = []
+        stroke = np.full(xs.shape, np.inf)
+        for along_x in (True, False):
+            rect = pads.footprint_rect(xs, ys, fls, fws, along_x)
+            total = np.zeros(xs.shape)
+            for j in together:
+                o = prot[j]
+                r = o.area
+                A_ov = pads.rect_overlap_area(rect, (r.x0, r.y0, r.x1, r.y1))
+                if o.kind == "spring":
+                    if o.modulus is not None:
+                        total += pads.spring_mat_stiffness(o.modulus, o.thickness, A_ov)
+                    else:  # older files: the stiffness for the load's own footprint
+                        total += float(o.stiffness) * A_ov / A_fp  # type: ignore[arg-type]
+                else:
+                    total += pads.crushable_pad_force(pad_crush_stress(d.project, o), A_ov)
+                    stroke = np.where(A_ov > 0.0,
+                                      np.minimum(stroke, float(o.crush_stroke)),  # type: ignore[arg-type]
+                                      stroke)
+            per_orient.append(total)
+        credit = np.minimum(per_orient[0], per_orient[1])
         if pa.kind == "spring":
-            if pa.modulus is not None:
-                k = pads.spring_mat_stiffness(pa.modulus, pa.thickness, A_ov)
-            else:  # older files: the stiffness for the load's own footprint
-                k = float(pa.stiffness) * A_ov / A_fp  # type: ignore[arg-type]
-            f_mat[sel] = np.where(k > 0.0, 1.0 / np.where(k > 0.0, k, 1.0), 0.0)
+            f_mat[sel] = np.where(credit > 0.0, 1.0 / np.where(credit > 0.0, credit, 1.0),
+                                  0.0)
         else:
             crushable[sel] = True
-            F_c[sel] = pads.crushable_pad_force(pad_crush_stress(d.project, pa), A_ov)
-            s_c[sel] = float(pa.crush_stroke)  # type: ignore[arg-type]
+            F_c[sel] = credit
+            s_c[sel] = np.where(np.isfinite(stroke), stroke,
+                                float(pa.crush_stroke))  # type: ignore[arg-type]
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
     # is that less its thickness
-    H = np.empty(n)
-    for j, ld in enumerate(loads):
-        sel = li == j if len(loads) > 1 else slice(None)
-        H[sel] = planned_height(ld, lv)
+    protected = geo.protection >= 0
+    if d.mat_k is not None:
+        # a trial mat on the finished surface under the whole footprint (confirm.py)
+        trial = np.isfinite(d.mat_k) & (d.mat_k > 0.0)
+        f_mat = np.where(trial, 1.0 / np.where(trial, d.mat_k, 1.0), f_mat)
+        protected = protected | trial
+    if d.H is not None:
+        H = np.asarray(d.H, float).copy()
+    else:
+        H = np.empty(n)
+        for j, ld in enumerate(loads):
+            sel = li == j if len(loads) > 1 else slice(None)
+            H[sel] = planned_height(ld, lv)
     h = H - t_mat
-    if n and float(np.min(h)) < 0.0:
+    if d.H is not None:
+        h = np.maximum(h, 0.0)  # a trial height under a pad's top: resting on the pad
+    elif n and float(np.min(h)) < 0.0:
         _refuse_below_pad(loads, li, lv, t_mat, H)
     spread = 2.0 * t_mat
     lb = np.minimum(fl, fw) + spread
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=fl + spread,
-                      foot_w=fw + spread, lb=lb)
+                      foot_w=fw + spread, lb=lb, protected=protected)
+
+
+_SAME_THICKNESS = 1e-3
+"""Layers whose thicknesses differ by at most this (m) are pressed together by one
+footprint (common practice, no source)."""
 
 
 def planned_height(load: LiftLoad, level: Level) -> float:
@@ -426,8 +471,9 @@ class StruckMass:
 
 
 def struck_mass(c: Chain) -> StruckMass:
-    """m_e·(f_s/f_struct)² (Rayleigh with the struck point's own deflection; Timoshenko,
-    Strength of Materials Part I, from memory), η = M/(M + m_e)
+    """m_e·((f_s − f_col)/f_struct)² (Rayleigh with the struck point's own deflection,
+    the members' bending only; Timoshenko, Strength of Materials Part I, from memory),
+    η = M/(M + m_e)
     (:func:`droprig.solver.impact.mass_efficiency`)."""
     d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
     n = d.n
@@ -438,11 +484,15 @@ def struck_mass(c: Chain) -> StruckMass:
     # bound ever appear, the framing's mass share is not taken (η = 1, conservative)
     m_bound = d.fm.frame_mass
     m_e = np.where(np.isfinite(m_e) & (m_e >= 0.0) & (m_e <= m_bound), m_e, 0.0)
-    # the load moves W·f (f = f_s + f_deck + 1/k_load), the framing under it W·f_s
-    m_e = impact_mod.struck_point_mass(m_e, comp.f_s, comp.f_struct)
+    # the load moves W·f (f = f_s + f_deck + 1/k_load), the members' bending under it
+    # W·(f_s − f_col): the Rayleigh shape of loadpath is the members' own bending, so
+    # it is scaled by that share alone. The columns' shortening moves the members as
+    # rigid bodies; that mass is not counted (less struck mass: higher force,
+    # conservative), and the struck mass goes to zero continuously at a column
+    m_e = impact_mod.struck_point_mass(m_e, comp.f_s - comp.f_col, comp.f_struct)
     # under a mat or a crushable layer the hit on the framing is no longer perfectly
     # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
-    m_e = np.where(d.geo.protection >= 0, 0.0, m_e)
+    m_e = np.where(inp.protected, 0.0, m_e)
     return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e))
 
 
@@ -1016,6 +1066,36 @@ def with_crush_energy(h_allow: np.ndarray, where: np.ndarray, F_c: np.ndarray,
     return np.where(np.isfinite(out) & (out >= 0.0), out, np.nan)
 
 
+MASS_BISECTIONS = 48
+"""Bisection steps of :func:`_mass_through_crushing` (the bracket shrinks 2⁻⁴⁸)."""
+
+
+def _mass_through_crushing(F_allow: np.ndarray, h: np.ndarray, f: np.ndarray,
+                           m_e: np.ndarray, F_crush: np.ndarray, cover: float,
+                           M_low: np.ndarray) -> np.ndarray:
+    """Largest mass M (kg) whose peak force through the crushing-limited contact of
+    the impact step stays ≤ F_allow (N), by bisection on the forward model itself:
+    F(M) = :func:`droprig.solver.crushing.crushing_limited_impact` with W = M·g and
+    η = M/(M + m_e) (Gere §9.10 with Timoshenko's mass share), increasing in M.
+    Bracket: ``M_low`` (the elastic answer, where the force is at most F_allow) and
+    F_allow/g (the force is never below the weight). The lower end is returned, so
+    the answer never exceeds what the forward model allows. h in m, f in m/N, m_e in
+    kg, cover in m."""
+    lo = M_low.copy()
+    hi = np.maximum(F_allow / impact_mod.G, lo)
+    for _ in range(MASS_BISECTIONS):
+        mid = 0.5 * (lo + hi)
+        W = mid * impact_mod.G
+        eta = impact_mod.mass_efficiency(mid, m_e)
+        _, F_el, _ = impact_mod.impact_elastic(W, h, f, eta)
+        F_cap, _, _ = crushing.crushing_limited_impact(W, h, f, eta, F_crush, cover)
+        F = np.where(F_el > F_crush, F_cap, F_el)
+        ok = F <= F_allow
+        lo = np.where(ok, mid, lo)
+        hi = np.where(ok, hi, mid)
+    return lo
+
+
 def inverse_answers(c: Chain) -> InverseAnswers:
     """Gere Eq. 9-94 solved for h, M, k and a crush stroke
     (:mod:`droprig.solver.limits`); beyond yield the energy balance at the ductility
@@ -1029,6 +1109,13 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
     h_el = with_crush_energy(h_el, crushable & (F_c <= F_allow), F_c, s_c, W, eta)
+    # bare deck whose concrete crushes below the allowed force: the force stays at
+    # F_crush while the concrete crushes and passes F_crush only once the crushing has
+    # gone through the cover (impact step, crushing_limited_impact): the height at
+    # which the force then reaches F_allow takes the crushing work (F_crush − W)·cover
+    cover = d.fm.level.deck.cover
+    h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow), imp.F_crush,
+                             np.full(d.n, cover), W, eta)
     if s.dynamic_amplification:
         h_el = confirm_amplified_height(c, h_el)
     # plastic: ductility and rotation limits, brittle checks at R_p
@@ -1055,6 +1142,11 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     hp_check = np.where(np.isnan(h_pl) | (h_el >= h_pl), -1, hp_check)
     h_pl = np.fmax(h_pl, h_el)
     m_allow = limits.allowable_mass(Fa_pos, inp.h, f, sm.m_e)
+    capped = ~crushable & (imp.F_crush < F_allow) & np.isfinite(m_allow)
+    if capped.any():
+        m_allow[capped] = _mass_through_crushing(
+            Fa_pos[capped], inp.h[capped], f[capped], sm.m_e[capped], imp.F_crush[capped],
+            cover, m_allow[capped])
     if crushable.any():
         # through the crushable layer that lies there (η = 1 under a layer)
         m_allow[crushable] = limits.allowable_mass_crushable(

@@ -55,20 +55,23 @@ def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
 
 
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
-             geo: Geometry, load_index: np.ndarray | None) -> dict[str, np.ndarray]:
+             geo: Geometry, load_index: np.ndarray | None, H: np.ndarray | None = None,
+             mat_k: np.ndarray | None = None) -> dict[str, np.ndarray]:
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
-    return outputs(run_chain(Drop(fm, project, geo, _loads(load), li, False)))
+    return outputs(run_chain(Drop(fm, project, geo, _loads(load), li, False, H, mat_k)))
 
 
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                   geo: Geometry, load_index: np.ndarray | None = None,
+                  H: np.ndarray | None = None, mat_k: np.ndarray | None = None,
                   ) -> dict[str, np.ndarray]:
     """The :class:`~droprig.solver.results.CaseResult` arrays of ``load`` at the points
     of ``geo`` under their field names, and ``F_allow`` (N, the elastic allowed force).
 
     ``load`` may be a sequence of loads with ``load_index`` naming the load of each
-    point (several cases in one vectorised pass)."""
+    point (several cases in one vectorised pass). ``H`` and ``mat_k``: per-point trial
+    drop heights and mats (:class:`~droprig.solver.chain.Drop`)."""
     n = geo.x.size
     memory.keep_freed_memory()
     if n == 0:
@@ -77,7 +80,7 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     chunk = loadpath_chunk()
     with np.errstate(all="ignore"):
         if n <= chunk:
-            return _outputs(fm, project, load, geo, load_index)
+            return _outputs(fm, project, load, geo, load_index, H, mat_k)
 
         def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
             sl = slice(s, e)
@@ -88,10 +91,14 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
                 if n <= CACHE_MAX_POINTS:  # keep per-point actions for the next load
                     geo.cache[("slice", s)] = sub
             with np.errstate(all="ignore"):
-                return [_outputs(fm, project, load, sub, li)]
+                return [_outputs(fm, project, load, sub, li,
+                                 None if H is None else H[sl],
+                                 None if mat_k is None else mat_k[sl])]
 
         li0 = None if load_index is None else load_index[:1]
-        probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0)
+        probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0,
+                         None if H is None else H[:1],
+                         None if mat_k is None else mat_k[:1])
         return _blockwise(n, 1, chunk, block, probe)
 
 

@@ -199,7 +199,7 @@ def _path_steps(sheet: _Sheet) -> None:
          "1/k_mat": (inp.f_mat[0], "compliance")},
         comp.f[0], "compliance", _SRC_SERIES + "; Engineering ToolBox, Impact Force")
     add("Effective struck mass", "m_e",
-        "m_e = (f_s/(f_s + f_deck + 1/k_load))²·Σ_m ∫ μ_m (w_m(x)/w_s(p))² dx",
+        "m_e = ((f_s − f_col)/(f_s + f_deck + 1/k_load))²·Σ_m ∫ μ_m (w_m(x)/w_s(p))² dx",
         {}, sm.m_e[0], "mass", _SRC_RAYLEIGH)
 
 

@@ -5,7 +5,10 @@ deflected shape, normalised to 1 at the point the load strikes (Timoshenko,
 *Strength of Materials* Part I, impact chapter — from memory). With the deck and
 the load's underside as springs in series above the framing (Gere, *Mechanics of
 Materials* 7th ed. §9.10), the load moves W·f while the framing under it moves
-W·f_s, so the framing's share is m_e·(f_s/f)².
+W·f_s, so the framing's share is m_e·(f_s/f)². With the columns as axial springs
+(f_s = members' bending + f_col) the Rayleigh shape is that of the members' bending,
+so it is scaled by (f_s − f_col)/f; the rigid-body motion the columns' shortening
+gives the members is not counted (less mass, higher force: conservative).
 """
 
 from __future__ import annotations
@@ -59,7 +62,7 @@ def test_mass_share_follows_the_series_springs(name: str) -> None:
         r = _AtPoints(evaluate_chain(fm, project, load, geo))
         comp = r.chain[Compliance]
         f_s, f = comp.f_s, comp.f_s + comp.f_deck + r.chain[LoadInputs].f_load
-        expected = geo.path.m_e * (f_s / f) ** 2
+        expected = geo.path.m_e * ((f_s - comp.f_col) / f) ** 2
         np.testing.assert_allclose(r["effective_mass"][bare], expected[bare], rtol=REL)
         # the share is a fraction: never more than the framing's own Rayleigh mass
         assert np.all(r["effective_mass"] <= geo.path.m_e * (1 + REL))

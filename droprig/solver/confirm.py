@@ -1,0 +1,285 @@
+"""Every limit a bay summary offers, confirmed by the forward chain before it is printed.
+
+The inverse answers of :mod:`droprig.solver.chain` (allowable heights, the stiffest
+mat) are derived point by point from the forward model, and the bay takes the least
+of them over its drop points. Two things can still make a printed condition fail
+when it is followed: a drop point between the sampled ones, and any part of the
+forward model a closed form does not follow exactly. So each condition a bay offers
+is *tried*: the forward chain is run with it applied — the load dropped from the
+offered height, or the offered mat laid under it — at every drop point of the bay
+and at points refined around the worst of them (as :mod:`droprig.solver.refine`
+does for the analysis). A condition that leaves the bay beyond its limits steps back
+to the least of :data:`CONFIRM_STEP` × itself and :data:`LIMIT_MARGIN` × the least
+inverse answer of the trial's own points, and is tried again, up to
+:data:`CONFIRM_ROUNDS` times; one that never works is withdrawn (the bay then reads
+keep clear, or takes another option). Issue 13's closed loop, in the solver.
+
+All trials of a zone run together, one vectorised pass per round (each drop point
+carries its own trial height and mat: :class:`droprig.solver.chain.Drop`). The
+trials judge the structural response alone (``hard=False``): the deck's local
+damage by a hard load has its own allowable heights. SI units (m, N/m).
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from droprig.model import LiftZone, Project, Rect, bays
+from droprig.solver import cancel, droppoints, evaluate
+from droprig.solver.floor import FloorModel
+from droprig.solver.geometry import point_geometry
+from droprig.solver.loadpath import locate
+from droprig.solver.refine import severity
+from droprig.solver.results import (
+    ELASTIC,
+    EXCEEDS,
+    LIMIT_MARGIN,
+    PLASTIC,
+    RESPONSES,
+    BaySummary,
+)
+from droprig.solver.summary import bay_advice
+
+__all__ = ["CONFIRM_REFINE", "CONFIRM_ROUNDS", "CONFIRM_SPAN", "CONFIRM_STEP",
+           "confirm_bay_limits"]
+
+CONFIRM_STEP = 0.8
+"""A condition that fails its trial steps back to at most this fraction of itself."""
+CONFIRM_ROUNDS = 6
+"""Trials per condition before it is withdrawn (0.8⁶ ≈ 0.26 of the first offer)."""
+CONFIRM_REFINE = (1, 1, 1)
+"""Points per deck panel of each trial around which each refinement pass lays a
+5 × 5 lattice (spacing the zone's grid resolution ÷ 4, ÷ 16, ÷ 64)."""
+
+CONFIRM_SPAN = 4.0
+"""A trial starts from the bay's analysis points whose own inverse answer (allowable
+height, stiffest mat) is at most this multiple of the condition tried: a point whose
+answer is four times the condition is far from failing it (its utilisation at the
+condition is about ½ or less; Gere §9.10, F ∝ √h for h ≫ δst). Refinement then
+searches around the worst of them."""
+
+_FIELD = {"elastic": "allowable_drop_height", "plastic": "allowable_drop_height_plastic",
+          "mat": "required_mat_stiffness"}
+"""The inverse answer of each kind of condition, per drop point."""
+
+_ELASTIC = frozenset({ELASTIC})
+_WITHIN = frozenset({ELASTIC, PLASTIC})
+
+
+@dataclass
+class _Trial:
+    """One condition of one bay summary: ``kind`` ``elastic`` / ``plastic`` (a drop
+    height on the datum, m) or ``mat`` (a spring mat's stiffness, N/m, dropped from
+    the planned height ``H``); ``value`` the condition as it would be printed."""
+
+    s: int
+    kind: str
+    load: int
+    rect: Rect
+    value: float
+    H: float
+    allowed: frozenset[int]
+    ok: bool = False
+    failed: bool = False
+    peak: float = 0.0
+
+
+def _inside(rect: Rect, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+    tol = droppoints.EDGE_TOL
+    return ((x >= rect.x0 - tol) & (x <= rect.x1 + tol)
+            & (y >= rect.y0 - tol) & (y <= rect.y1 + tol))
+
+
+def _trials(summaries: Sequence[BaySummary], zone: LiftZone,
+            rects: dict[str, Rect]) -> list[_Trial]:
+    """The conditions each summary may offer (see the module docstring)."""
+    names = [ld.name for ld in zone.loads]
+    out: list[_Trial] = []
+    for k, s in enumerate(summaries):
+        if s.advice_kind == "opening" or s.bay_id not in rects:
+            continue
+        j = names.index(s.load_name)
+        H = float(s.planned_drop_height or 0.0)
+        he, hp = s.allowable_drop_height, s.allowable_drop_height_plastic
+        rect = rects[s.bay_id]
+        if he is not None and math.isfinite(he) and he > 0.0 and (
+                s.response != RESPONSES[ELASTIC] or LIMIT_MARGIN * he > H):
+            out.append(_Trial(k, "elastic", j, rect, LIMIT_MARGIN * he,
+                              LIMIT_MARGIN * he, _ELASTIC))
+        if hp is not None and math.isfinite(hp) and hp > 0.0 and (
+                he is None or hp > he * (1.0 + 1e-9)):
+            out.append(_Trial(k, "plastic", j, rect, LIMIT_MARGIN * hp,
+                              LIMIT_MARGIN * hp, _WITHIN))
+        if s.mat_stiffness_max is not None and s.mat_stiffness_max > 0.0:
+            out.append(_Trial(k, "mat", j, rect, float(s.mat_stiffness_max), H, _ELASTIC))
+    return out
+
+
+def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
+         trials: list[_Trial], res: dict[str, np.ndarray]) -> None:
+    """One round: every trial of ``trials`` at the analysis points of its bay and at
+    points refined around its worst ones; sets ``ok`` and, where it fails, the next
+    value to try (``value``) or ``failed``."""
+    li_all = res["load_index"]
+    xs, ys, owner = [], [], []
+    for t, tr in enumerate(trials):
+        v = res[_FIELD[tr.kind]]
+        # points whose own answer is far above the condition cannot fail it
+        near = ~(v > CONFIRM_SPAN * tr.value)
+        sel = np.flatnonzero((li_all == tr.load) & near
+                             & _inside(tr.rect, res["x"], res["y"]))
+        xs.append(res["x"][sel])
+        ys.append(res["y"][sel])
+        owner.append(np.full(sel.size, t, dtype=np.int64))
+    x, y, own = np.concatenate(xs), np.concatenate(ys), np.concatenate(owner)
+    parts = [_evaluate(fm, project, loads, trials, x, y, own)]
+    step = fm.settings.grid_resolution
+    for n_top in CONFIRM_REFINE:
+        step /= 4.0
+        cur = _cat(parts)
+        rx, ry, rown = _refine(fm, zone, trials, cur, step, n_top)
+        if rx.size == 0:
+            break
+        parts.append(_evaluate(fm, project, loads, trials, rx, ry, rown))
+    r = _cat(parts)
+    own = r["owner"]
+    resp = r["response"]
+    for t, tr in enumerate(trials):
+        sel = own == t
+        if not sel.any():
+            tr.ok = True
+            continue
+        tr.peak = float(np.nanmax(r["peak_force"][sel]))
+        worst = set(np.unique(resp[sel]).tolist())
+        if worst <= tr.allowed:
+            tr.ok = True
+            continue
+        v = r[_FIELD[tr.kind]][sel]
+        v = v[np.isfinite(v)]
+        nxt = CONFIRM_STEP * tr.value
+        if v.size:
+            nxt = min(nxt, LIMIT_MARGIN * float(np.min(v)))
+        if not (nxt > 0.0) or (tr.kind != "mat" and nxt < 1e-4):
+            tr.failed = True
+        else:
+            tr.value = nxt
+            if tr.kind != "mat":
+                tr.H = nxt
+
+
+def _cat(parts: list[dict[str, np.ndarray]]) -> dict[str, np.ndarray]:
+    return parts[0] if len(parts) == 1 else {
+        k: np.concatenate([p[k] for p in parts]) for k in parts[0]}
+
+
+def _evaluate(fm: FloorModel, project: Project, loads: tuple, trials: list[_Trial],
+              x: np.ndarray, y: np.ndarray, own: np.ndarray) -> dict[str, np.ndarray]:
+    cancel.check()
+    li = np.array([tr.load for tr in trials], dtype=np.int64)[own]
+    H = np.array([tr.H for tr in trials])[own]
+    mk = np.array([tr.value if tr.kind == "mat" else np.nan for tr in trials])[own]
+    geo = point_geometry(fm, project, x, y)
+    r = evaluate.evaluate_case(fm, project, loads, geo, li, H=H,
+                               mat_k=mk if np.isfinite(mk).any() else None)
+    keep = ("x", "y", "response", "utilisation", "peak_force", "allowable_drop_height",
+            "allowable_drop_height_plastic", "required_mat_stiffness")
+    out = {k: r[k] for k in keep}
+    out["owner"] = own
+    return out
+
+
+def _refine(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
+            r: dict[str, np.ndarray], step: float, n_top: int
+            ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """A 5 × 5 lattice of spacing ``step`` around the ``n_top`` worst points of each
+    deck panel of each trial (each panel between its beams has its own worst point:
+    the deck strip's and the members' maxima lie in every panel), kept inside the
+    trial's bay, the zone and the deck."""
+    sev = severity(r["utilisation"], r["response"])
+    own = r["owner"]
+    cell = locate(fm.frame, r["x"], r["y"])
+    group = own * (int(cell.max(initial=0)) + 2) + (cell + 1)
+    order = np.lexsort((-sev, group))
+    o = group[order]
+    first = np.r_[True, o[1:] != o[:-1]]
+    start = np.maximum.accumulate(np.where(first, np.arange(o.size), 0))
+    top = order[(np.arange(o.size) - start) < n_top]
+    off = np.arange(-2, 3) * step
+    OX, OY = np.meshgrid(off, off)
+    x = (r["x"][top][:, None] + OX.ravel()[None, :]).ravel()
+    y = (r["y"][top][:, None] + OY.ravel()[None, :]).ravel()
+    ow = np.repeat(own[top], OX.size)
+    x, y = droppoints.project_into_zone(zone, x, y)
+    keep = droppoints.in_zone(zone, x, y) & (locate(fm.frame, x, y) >= 0)
+    rx0 = np.array([t.rect.x0 for t in trials])[ow]
+    rx1 = np.array([t.rect.x1 for t in trials])[ow]
+    ry0 = np.array([t.rect.y0 for t in trials])[ow]
+    ry1 = np.array([t.rect.y1 for t in trials])[ow]
+    tol = droppoints.EDGE_TOL
+    keep &= (x >= rx0 - tol) & (x <= rx1 + tol) & (y >= ry0 - tol) & (y <= ry1 + tol)
+    return x[keep], y[keep], ow[keep]
+
+
+def confirm_bay_limits(fm: FloorModel, project: Project, zone: LiftZone,
+                       res: dict[str, np.ndarray], summaries: Sequence[BaySummary],
+                       ) -> list[BaySummary]:
+    """``summaries`` (one zone's, every load) with each offered limit confirmed by a
+    forward run, stepped back or withdrawn (module docstring); the advice of a bay
+    whose limits changed is derived again (:func:`droprig.solver.summary.bay_advice`).
+    ``res``: the zone's analysis rows (:func:`droprig.solver.refine.zone_points`)."""
+    rects = {b.id: b.rect for b in bays(fm.level)}
+    trials = _trials(summaries, zone, rects)
+    if not trials:
+        return list(summaries)
+    # the structural response alone: a hard load's local damage has its own heights
+    loads = tuple(replace(ld, hard=False) for ld in zone.loads)
+    pending = trials
+    for _ in range(CONFIRM_ROUNDS):
+        _run(fm, project, zone, loads, pending, res)
+        pending = [t for t in pending if not t.ok and not t.failed]
+        if not pending:
+            break
+    for t in pending:
+        t.failed = True
+    return [_rewrite(s, [t for t in trials if t.s == k]) for k, s in enumerate(summaries)]
+
+
+def _rewrite(s: BaySummary, trials: list[_Trial]) -> BaySummary:
+    """The summary with its confirmed limits and the advice derived from them."""
+    if not trials:
+        return s
+    by = {t.kind: t for t in trials}
+    he0 = s.allowable_drop_height
+    he, hp = he0, s.allowable_drop_height_plastic
+    if "elastic" in by:
+        t = by["elastic"]
+        he = None if t.failed else min(he0 or math.inf, t.value / LIMIT_MARGIN)
+    if "plastic" in by:
+        t = by["plastic"]
+        hp = he if t.failed else t.value / LIMIT_MARGIN
+    elif hp is not None and he0 is not None and hp <= he0 * (1.0 + 1e-9):
+        hp = he  # the plastic height was the elastic one
+    if he is not None and hp is not None:
+        hp = max(hp, he)
+    k_mat: float | None = None
+    travel: float | None = None
+    if "mat" in by and not by["mat"].failed:
+        t = by["mat"]
+        k_mat = t.value / LIMIT_MARGIN  # bay_advice offers LIMIT_MARGIN × k_mat
+        travel = t.peak / t.value
+    wst = RESPONSES.index(s.response)
+    h_local = min((v for v in (s.scabbing_height, s.perforation_height) if v is not None),
+                  default=None)
+    adv = bay_advice(wst, 0, hp if wst == EXCEEDS else he, k_mat, travel, he, h_local)
+    limit = adv.height_limit is not None
+    return replace(s, allowable_drop_height=he, allowable_drop_height_plastic=hp,
+                   advice_kind=adv.kind, height_limit=adv.height_limit,
+                   height_limit_yields=adv.height_limit_yields,
+                   mat_stiffness_max=adv.mat_stiffness_max, mat_travel=adv.mat_travel,
+                   height_limit_check=s.height_limit_check if limit else "",
+                   height_limit_x=s.height_limit_x if limit else None,
+                   height_limit_y=s.height_limit_y if limit else None)
