@@ -48,6 +48,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from typing import cast
 
 import numpy as np
 from numpy.typing import ArrayLike
@@ -281,12 +282,12 @@ def _green_aa(cond: str | ArrayLike, L: np.ndarray, EI: np.ndarray,
               a: np.ndarray) -> np.ndarray:
     """G(a, a) (m/N) for one end condition or one per case."""
     if isinstance(cond, str):
-        return np.asarray(beam.green(cond, L, EI, a, a), float)
+        return np.asarray(beam.green(cast(EndCondition, cond), L, EI, a, a), float)
     conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
     out = np.zeros(L.shape)
     for cnd in dict.fromkeys(conds.tolist()):
         i = conds == cnd
-        out[i] = beam.green(cnd, L[i], EI[i], a[i], a[i])
+        out[i] = beam.green(cast(EndCondition, cnd), L[i], EI[i], a[i], a[i])
     return out
 
 
@@ -332,18 +333,18 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
                          "(allowed: > M·g, N) and stroke must be ≥ 0 m")
     v0 = np.sqrt(2.0 * g * h)
     if isinstance(cond, str):
-        su = _setup(cond, L, EI, mu, a, M, f_c, f_s, n_modes, cutoff)
+        su = _setup(cast(EndCondition, cond), L, EI, mu, a, M, f_c, f_s, n_modes, cutoff)
     else:  # one end condition per case: set up per condition, then merge
         conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
         su = {}
         for cnd in dict.fromkeys(conds.tolist()):
-            i = np.flatnonzero(conds == cnd)
-            part = _setup(cnd, L[i], EI[i], mu[i], a[i], M[i], f_c[i], f_s[i], n_modes,
-                          cutoff)
+            idx = np.flatnonzero(conds == cnd)
+            part = _setup(cnd, L[idx], EI[idx], mu[idx], a[idx], M[idx], f_c[idx], f_s[idx],
+                          n_modes, cutoff)
             for key, val in part.items():
                 if key not in su:
                     su[key] = np.zeros((P, *val.shape[1:]), dtype=val.dtype)
-                su[key][i] = val
+                su[key][idx] = val
     omega, m_e, inv_m, kept, f_k, k, pt, Wd, Wm, Wv, Rd, Rm, Rv, T1 = (
         su[key] for key in _SETUP_KEYS)
     N = omega.shape[1]
@@ -521,7 +522,7 @@ _SETUP_KEYS = ("omega", "m_e", "inv_m", "kept", "f_k", "k", "pt", "Wd", "Wm",
                "Wv", "Rd", "Rm", "Rv", "T1")
 
 
-def _setup(cond: str, L: np.ndarray, EI: np.ndarray, mu: np.ndarray, a: np.ndarray,
+def _setup(cond: EndCondition, L: np.ndarray, EI: np.ndarray, mu: np.ndarray, a: np.ndarray,
            M: np.ndarray, f_c: np.ndarray, f_s: np.ndarray, n_modes: int,
            cutoff: float) -> dict[str, np.ndarray]:
     """Modal data of the cases of one end condition (see :func:`time_history`):
