@@ -68,7 +68,7 @@ HEADINGS = {
     "sheets": "Appendix B Calculation sheets",
     "references": "Appendix C References",
     "revisions": "Appendix D Revision history",
-    "verification": "Appendix E Time-history verification",
+    "verification": "Appendix B2 Time-history verification",
 }
 BODY_SECTIONS = ("verdict", "plan", "bays", "inputs")
 
@@ -1150,7 +1150,7 @@ class _Builder:
         entries += [(k, HEADINGS[k]) for k in ("members", "sheets")]
         entries += [(f"sheet:{n + 1}", f"      {title}") for n, title in
                     enumerate(self.sheet_titles)]
-        entries += [(k, HEADINGS[k]) for k in ("references", "revisions", "verification")]
+        entries += [(k, HEADINGS[k]) for k in ("verification", "references", "revisions")]
         self.section("contents")
         self.story.append(_contents(entries, self.w, self.book))
 
@@ -1297,7 +1297,7 @@ class _Builder:
                 extra += [_outcome_bg(tr.response, 1, k), _outcome_ink(tr.response, 1, k)]
         return [_table(rows, [0.5 * self.w, 0.5 * self.w], header_rows=0, extra=extra)]
 
-    # ------------------------------------------------------------ E verification
+    # ------------------------------------------------------------ B2 verification
     def verification(self, rows: Sequence[Sequence[str]]) -> None:
         """The time history beside the energy method and the verdict at each bay's
         governing point (:mod:`droprig.report.verification`)."""
@@ -1649,8 +1649,6 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
     if levels and any(lv.members for lv in levels):
         b.members(levels)
     b.sheets(docs)
-    b.references_page()
-    b.revisions()
     tick(0.4, "Time-history verification")
     from droprig.report.verification import verification_rows
 
@@ -1658,6 +1656,8 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
     for z in zones:
         vrows += verification_rows(project, results, zone_id=z.id)
     b.verification(vrows)
+    b.references_page()
+    b.revisions()
 
     info = project.info
     lift = info.lift_reference

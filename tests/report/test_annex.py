@@ -284,7 +284,7 @@ def test_governing_numbers_are_the_solvers(built: Annex) -> None:
 
 def _sheet_texts(built: Annex) -> str:
     start = _first_page(built, annex.HEADINGS["sheets"])
-    end = _first_page(built, annex.HEADINGS["references"])
+    end = _first_page(built, annex.HEADINGS["verification"])  # appendix B2 follows
     return " ".join(built.texts[start - 1:end - 1])
 
 
@@ -635,7 +635,7 @@ def test_hard_items_and_left_out_strikes_are_printed(built: Annex) -> None:
 
 
 def test_verification_appendix_covers_the_time_history(built: Annex) -> None:
-    # appendix E prints, for each bay's governing point the solver can verify, the
+    # appendix B2 prints, for each bay's governing point the solver can verify, the
     # verdict ÷ time-history ratios of droprig.report.verification (the time history:
     # Blevins 1979 Table 8-1 modes, Newmark — tests/solver/test_timehistory.py); the
     # annex prints them as the solver gives them (common practice, no source)
