@@ -51,9 +51,9 @@ CONFIRM_STEP = 0.8
 """A condition that fails its trial steps back to at most this fraction of itself."""
 CONFIRM_ROUNDS = 6
 """Trials per condition before it is withdrawn (0.8⁶ ≈ 0.26 of the first offer)."""
-CONFIRM_REFINE = (1, 1, 1)
+CONFIRM_REFINE = (1, 1)
 """Points per deck panel of each trial around which each refinement pass lays a
-5 × 5 lattice (spacing the zone's grid resolution ÷ 4, ÷ 16, ÷ 64)."""
+5 × 5 lattice (spacing the zone's grid resolution ÷ 4, ÷ 16)."""
 
 CONFIRM_SPAN = 4.0
 """A trial starts from the bay's analysis points whose own inverse answer (allowable

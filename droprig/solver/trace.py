@@ -19,7 +19,7 @@ import math
 import numpy as np
 
 from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
-from droprig.solver import amplification, droppoints
+from droprig.solver import amplification, droppoints, limits
 from droprig.solver.chain import (
     BRITTLE,
     BeyondYield,
@@ -317,11 +317,28 @@ def _check_steps(sheet: _Sheet) -> None:
         "dimensionless", "largest demand/resistance ratio (common practice, no source)")
     add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
         {}, ck.F_allow[0], "force", "linear checks")
+    h_gere = float(limits.allowable_drop_height_elastic(W, ck.F_allow[0], imp.d_st[0],
+                                                         sm.eta[0]))
     add("Allowable free fall (elastic)", "h_allow",
         "h = δ_st((K_a − 1)² − 1)/(2η), K_a = F_allow/W",
         {"F_allow": (ck.F_allow[0], "force"), "W": (W, "force"),
          "δ_st": (imp.d_st[0], "length"), "η": (sm.eta[0], "dimensionless")},
-        inv.h_el[0], "length", _SRC_GERE + " solved for h")
+        h_gere if math.isfinite(h_gere) else inv.h_el[0], "length",
+        _SRC_GERE + " solved for h")
+    if math.isfinite(h_gere) and math.isfinite(inv.h_el[0]) and \
+            abs(inv.h_el[0] - h_gere) > 1e-12 * max(1.0, abs(h_gere)):
+        # the force passes a crushable layer's or the deck concrete's crushing force
+        # before it reaches F_allow: the crushing work is added (chain.with_crush_energy)
+        layer = bool(sheet.inp.crushable[0])
+        Fc = float(sheet.inp.F_c[0]) if layer else float(imp.F_crush[0])
+        sc = float(sheet.inp.s_c[0]) if layer else float(sheet.level.deck.cover)
+        add("Allowable free fall with the crushing work "
+            + ("of the pad" if layer else "of the deck concrete through its cover"),
+            "h_cr", "h_cr = h_el + (F_c − W)·s/(η·W)",
+            {"h_el": (h_gere, "length"), "F_c": (Fc, "force"), "W": (W, "force"),
+             "s": (sc, "length"), "η": (sm.eta[0], "dimensionless")},
+            inv.h_el[0], "length", "energy balance with a constant crushing force, "
+            + _SRC_GERE)
     add("Allowable drop height above the finished surface (elastic)", "H_allow",
         "H_allow = h_allow + t_mat",
         {"h_allow": (inv.h_el[0], "length"), "t_mat": (sheet.inp.t_mat[0], "length")},
@@ -353,8 +370,9 @@ def _check_steps(sheet: _Sheet) -> None:
         "h = δ_y(R_p(μ − ½) − Wμ)/(ηW)", {"R_p": (by.R_p[0], "force")},
         inv.h_pl[0], "length", _SRC_PLASTIC)
     add("Allowable mass at the planned height", "M_allow",
-        "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e))))", {}, inv.m_allow[0], "mass",
-        _SRC_GERE + " solved for M")
+        "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e)))), through crushing where the force "
+        "passes the crushing force first (bisection on the forward model)", {},
+        inv.m_allow[0], "mass", _SRC_GERE + " solved for M")
     add("Spring mat that keeps the point elastic", "k_req", "k = 1/(f_req − f_s)", {},
         inv.k_req[0], "stiffness", "series springs; " + _SRC_GERE)
 
