@@ -427,9 +427,8 @@ def project_to_document(project: Project) -> dict[str, object]:
             "grid_resolution_m": s.grid_resolution,
             "include_member_mass": s.include_member_mass,
             "include_existing_loads": s.include_existing_loads,
-            # written only when off (on is the default), so files of projects
-            # without it stay byte-equal
-            **({"dynamic_amplification": False} if not s.dynamic_amplification else {}),
+            # written only when on, so files of projects without it stay byte-equal
+            **({"dynamic_amplification": True} if s.dynamic_amplification else {}),
         },
         "levels": [_level_doc(lv, memo) for lv in project.levels],
         "lift_zones": [_zone_doc(z) for z in project.lift_zones],

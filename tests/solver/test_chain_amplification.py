@@ -111,14 +111,12 @@ def test_on_never_reads_lower_than_off() -> None:
         assert b1.max_utilisation >= b0.max_utilisation * (1 - REL)
 
 
-def test_setting_round_trips_and_is_omitted_when_on() -> None:
-    # on by default: written only when off, so files without the key read as on
-    p = _project(False)
+def test_setting_round_trips_and_is_omitted_when_off() -> None:
+    p = _project(True)
     text = dumps_project(p)
-    assert '"dynamic_amplification": false' in text
-    assert loads_project(text).settings.dynamic_amplification is False
-    assert "dynamic_amplification" not in dumps_project(_project(True))
-    assert loads_project(dumps_project(_project(True))).settings.dynamic_amplification
+    assert '"dynamic_amplification": true' in text
+    assert loads_project(text).settings.dynamic_amplification is True
+    assert "dynamic_amplification" not in dumps_project(_project(False))
 
 
 @pytest.mark.parametrize("bad", ["yes", 1])

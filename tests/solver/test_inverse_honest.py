@@ -112,16 +112,7 @@ def _weak_layer_project(crush_force: float) -> Project:
     return replace(p, protection_areas=pads)
 
 
-_AMPLIFIED_HEIGHTS_OPEN = pytest.mark.xfail(
-    strict=True,
-    reason="open defect (branch amp12, after merging land10): with dynamic amplification "
-    "on, some per-point elastic allowable heights do not hold at 0.99 x when applied "
-    "(rooftop spreader beam and AHU-3, steel demo, crushable layers); the permit's "
-    "offered limits are confirmed by forward runs (confirm.py) and are not affected")
-
-
-@pytest.mark.parametrize("crush_force", [
-    100.0, *(pytest.param(f, marks=_AMPLIFIED_HEIGHTS_OPEN) for f in (30e3, 45e3, 90e3))])
+@pytest.mark.parametrize("crush_force", [100.0, 30e3, 45e3, 90e3])
 def test_crushable_layer_weaker_or_stronger_than_the_load(crush_force: float) -> None:
     """Before: a 30 kN layer under a 41 kN unit gave heights that failed when applied,
     and a 100 N pad reported 1.19 m where a 0 m drop already exceeded."""
@@ -182,10 +173,7 @@ def test_a_layer_weaker_than_the_load_earns_no_height() -> None:
     assert n > 0
 
 
-@pytest.mark.parametrize("demo", [
-    pytest.param(p, marks=_AMPLIFIED_HEIGHTS_OPEN) if p.stem in (
-        "rooftop_plant_swap", "steel_erection_floor") else p for p in DEMOS],
-    ids=lambda p: p.stem)
+@pytest.mark.parametrize("demo", DEMOS, ids=lambda p: p.stem)
 def test_demo_projects(demo: Path) -> None:
     assert _check_project(_by_drop_height(load_project(demo), 1.0)) > 0
 
