@@ -67,6 +67,9 @@ def build_parser() -> argparse.ArgumentParser:
 
     s = sub.add_parser("check", help="one member struck by one dropped load")
     _member_options(s)
+    s.add_argument("--amplified", action="store_true",
+                   help="make every check at the time-history-calibrated amplified force "
+                   "(as the project setting dynamic_amplification; off by default)")
 
     s = sub.add_parser("verify", help="time history beside the energy method: a project's "
                        "governing points (FILE), or one member (check's options)")

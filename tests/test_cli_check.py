@@ -41,6 +41,10 @@ def test_json_equals_assess_member(capsys: pytest.CaptureFixture[str]) -> None:
     for k in RESULT_KEYS:
         if isinstance(ref[k], float):
             assert data[k] == pytest.approx(ref[k], rel=REL), k
+        elif isinstance(ref[k], dict):  # the amplification factors (on by default)
+            assert data[k]["set_by"] == ref[k]["set_by"]
+            for q in ("force", "moment", "shear", "deflection", "mass_ratio"):
+                assert data[k][q] == pytest.approx(ref[k][q], rel=REL), q
         else:
             assert data[k] == ref[k], k
 
@@ -68,10 +72,19 @@ def test_options_reach_the_solver(capsys: pytest.CaptureFixture[str]) -> None:
 
 
 def test_table_has_units_verdict_and_caution(capsys: pytest.CaptureFixture[str]) -> None:
+    # the energy method (the default, as the project setting): elastic
     rc, out, _ = _run(EXAMPLE, capsys)
     assert rc == 0
     assert "kip" in out and "RESPONSE: ELASTIC" in out
+    assert "dynamic amplification: off" in out
     assert "information only" in out  # deflection is not a pass criterion
+    assert out.rstrip().endswith(CAUTION)
+    # amplified (as the floor analysis with the setting on): a rigid 1,500 lb load on
+    # the bare flange takes the tables' rigid-contact factors and exceeds in web yielding
+    rc, out, _ = _run([*EXAMPLE, "--amplified"], capsys)
+    assert rc == 0
+    assert "dynamic amplification (time-history calibration" in out
+    assert "RESPONSE: EXCEEDS" in out
     assert out.rstrip().endswith(CAUTION)
     rc, out, _ = _run([*EXAMPLE, "--units", "SI"], capsys)
     assert rc == 0 and "kN" in out and out.rstrip().endswith(CAUTION)

@@ -225,6 +225,13 @@ def test_random_set_covers_every_kind_of_answer():
     permits: set[str] = set()
     for seed in range(N_LOOP):
         project = random_project(seed)
+        if seed % 2:
+            # every other project with the energy method alone: with dynamic
+            # amplification (on by default) no random member stays within the yield
+            # limits that call for a separate sign-off, and this test is of the
+            # permit engine's answers, not of the physics
+            project = replace(project, settings=replace(project.settings,
+                                                        dynamic_amplification=False))
         pc = derive_conditions(project, analyse(project))
         seen |= {c.kind for c in pc.conditions}
         seen |= {"mat" for c in pc.conditions
@@ -419,8 +426,16 @@ def test_demo_allowable_mass_counts_the_pad():
 
 
 # --------------------------------------------------------------------------- demo
+def _energy_only(project):
+    """The demo's permit sentences and datum as designed, on the energy method: with
+    dynamic amplification (on by default) the rooftop demo reads not acceptable (the
+    time history gives the AHU's beams up to 2 × the energy method's shear there;
+    README, "Dynamic amplification")."""
+    return replace(project, settings=replace(project.settings, dynamic_amplification=False))
+
+
 def test_rooftop_demo_reads_acceptable_with_conditions():
-    project = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    project = _energy_only(load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig"))
     pc = derive_conditions(project, analyse(project))
     assert pc.verdict == "acceptable_with_conditions"
     text = " ".join(pc.sentences())
@@ -472,7 +487,7 @@ def test_rooftop_demo_by_drop_height_reads_the_same():
     """The rooftop demo's loads re-entered as drop heights above the roof (the same
     0.8 m and 4.8 m: hook elevation − hang length − roof elevation) give the same
     verdicts and heights bay by bay — the 0.8 m is no longer measured to the pad top."""
-    project = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    project = _energy_only(load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig"))
     lv = project.level("RF")
     z = project.lift_zones[0]
     as_drop = tuple(replace(ld, drop_height=planned_height(ld, lv), hook_elevation=None)

@@ -184,6 +184,7 @@ def _run(args: argparse.Namespace) -> int:
             udl=udl or 0.0,
             self_weight=not args.no_self_weight,
             beam_mass=not args.no_beam_mass,
+            dynamic_amplification=args.amplified,
         )
     except ValueError as exc:  # ModelError is handled by run(); out-of-scope sections here
         if isinstance(exc, ModelError):
@@ -196,6 +197,11 @@ def _run(args: argparse.Namespace) -> int:
     print(_table(args, section.name, grade.name, basis, system, span, at, mass, drop,
                  bearing or 0.0, k_c, F_c, s_c, udl or 0.0, result, k_load))
     return EXIT_OK
+
+
+def _num(v: float | None) -> str:
+    """A ratio to 3 significant figures, '∞' spelled as 'unbounded'."""
+    return "unbounded" if v is None else f"{v:.3g}"
 
 
 def _table(args: argparse.Namespace, section: str, grade: str, basis: str, system: str,
@@ -246,6 +252,17 @@ def _table(args: argparse.Namespace, section: str, grade: str, basis: str, syste
                      f"{fmt(limit, 'small_length', system)} — information only "
                      "(IBC Table 1604.3 serviceability limit, not a criterion for an accidental "
                      "impact)")
+    amp = r.get("amplification")
+    if amp is None:
+        lines.append("  dynamic amplification: off (energy method alone, for comparison "
+                     "only)")
+    else:
+        lines.append(
+            f"  dynamic amplification (time-history calibration; r = M/mₑ "
+            f"{_num(amp['mass_ratio'])}, κ {_num(amp['compliance_ratio'])}): contact force "
+            f"×{amp['force']:.3g} ({amp['set_by']['local']}), moment ×{amp['moment']:.3g} "
+            f"({amp['set_by']['moment']}), shear ×{amp['shear']:.3g} "
+            f"({amp['set_by']['shear']}); the checks above are at these forces")
     verdict = r["response"].upper()
     lines.append(f"  RESPONSE: {verdict}  (governing: {r['governing_check'].replace('_', ' ')})")
     lines.append("")

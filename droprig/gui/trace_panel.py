@@ -13,12 +13,17 @@ from __future__ import annotations
 import html
 import math
 import re
+from collections.abc import Callable
+from typing import TYPE_CHECKING
 
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QGuiApplication, QResizeEvent
 from PySide6.QtWidgets import (
+    QApplication,
+    QDialog,
     QHBoxLayout,
     QLabel,
+    QMessageBox,
     QPushButton,
     QTextBrowser,
     QVBoxLayout,
@@ -29,6 +34,9 @@ from droprig import tracefmt, units
 from droprig.gui import style
 from droprig.solver import Trace, TraceStep
 from droprig.texts import CAUTION
+
+if TYPE_CHECKING:
+    from droprig.model import Project
 
 PLACEHOLDER = "Click a drop point in the plan to see how its result was worked out."
 
@@ -209,6 +217,14 @@ class TracePanel(QWidget):
         self._copy.setToolTip("Copy the steps, the verdict and the caution to the clipboard")
         self._copy.clicked.connect(self._on_copy)
         self._copy.setEnabled(False)
+        self._verify = QPushButton("Verify by time history…")
+        self._verify.setToolTip("Run the time history of this drop point and show its "
+                                "force, deflection and moment against time beside the "
+                                "energy method's numbers")
+        self._verify.clicked.connect(self.open_verification)
+        self._verify.setEnabled(False)
+        self._project_source: Callable[[], Project | None] | None = None
+        self.last_dialog: QDialog | None = None
         self.browser = QTextBrowser()
         self.browser.setOpenLinks(False)
         self.browser.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse
@@ -216,6 +232,7 @@ class TracePanel(QWidget):
         top = QHBoxLayout()
         top.addWidget(self._title)
         top.addStretch(1)
+        top.addWidget(self._verify)
         top.addWidget(self._copy)
         lay = QVBoxLayout(self)
         lay.setContentsMargins(4, 4, 4, 4)
@@ -236,9 +253,47 @@ class TracePanel(QWidget):
         if trace is None:
             self.browser.setHtml(f"<p style='color:#666'>{html.escape(PLACEHOLDER)}</p>")
             self._copy.setEnabled(False)
+            self._verify.setEnabled(False)
             return
         self.browser.setHtml(trace_html(trace, self._system, narrow=self._narrow))
         self._copy.setEnabled(True)
+        self._verify.setEnabled(self._project_source is not None)
+
+    def set_project_source(self, source: Callable[[], Project | None]) -> None:
+        """Where "Verify by time history…" reads the project the trace belongs to."""
+        self._project_source = source
+        self._verify.setEnabled(self._trace is not None)
+
+    @property
+    def verify_button(self) -> QPushButton:
+        return self._verify
+
+    def open_verification(self) -> QDialog | None:
+        """Run the time history of the traced point and show it in a dialog
+        (:class:`droprig.gui.verify_dialog.VerifyDialog`); a point that cannot be
+        verified gives a message naming why, never a crash."""
+        trace = self._trace
+        project = self._project_source() if self._project_source else None
+        if trace is None or project is None:
+            return None
+        from droprig.gui.verify_dialog import VerifyDialog
+        from droprig.report.verify_plots import point_verification_figures
+        from droprig.texts import describe_error
+
+        QApplication.setOverrideCursor(Qt.CursorShape.WaitCursor)
+        try:
+            pv, figs = point_verification_figures(project, trace.zone_id, trace.load_name,
+                                                  trace.x, trace.y)
+        except Exception as exc:  # a message, never a crash
+            QApplication.restoreOverrideCursor()
+            QMessageBox.warning(self, "Time-history verification",
+                                f"This point cannot be verified: {describe_error(exc)}")
+            return None
+        QApplication.restoreOverrideCursor()
+        dlg = VerifyDialog(pv, figs, project.settings.unit_system, self)
+        self.last_dialog = dlg
+        dlg.show()
+        return dlg
 
     def is_narrow(self) -> bool:
         """True when the sheet is written step by step (the panel is narrower than

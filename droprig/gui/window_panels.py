@@ -259,6 +259,7 @@ class PanelsMixin(WindowParts):
         self.inspector = Inspector(self.doc, self.actions)
         self.results_table = ResultsTable(self.doc)
         self.trace_panel = TracePanel()
+        self.trace_panel.set_project_source(lambda: self.doc.project)
         self.tree_dock = self._dock("project", "Project", self.tree,
                                     Qt.DockWidgetArea.LeftDockWidgetArea)
         self.inspector_dock = self._dock("inspector", "Inspector", self.inspector,

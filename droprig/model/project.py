@@ -147,8 +147,11 @@ class Settings:
     ductility_limit μ and rotation_limit θ (rad): NAVFAC DM-2.08 non-reusable
     steel beams, μ = 6, θ = 2°. grid_resolution: drop-point spacing, m.
     dynamic_amplification: the checks use the larger of the energy method and the
-    time-history-based demand (droprig.solver.amplification); off by default until
-    the calibrated factors are reviewed (README, "Dynamic amplification").
+    time-history-based demand (droprig.solver.amplification; README, "Dynamic
+    amplification"). Off by default until the permit conditions are confirmed
+    under it: with it on, a condition printed for the steel demo (lay PAD1, cap the
+    hook) left bay 3-4/B-C exceeding when followed (tests/test_permit.py closed
+    loop) — README, "Dynamic amplification".
     tilted_landing: every drop point is also checked for the load landing out of
     level on its shorter edge (the whole mass through an edge strip,
     droprig.solver.chain.LANDINGS), the worse governing; off by default until the

@@ -74,6 +74,7 @@ HEADINGS = {
     "sheets": "Appendix B Calculation sheets",
     "references": "Appendix C References",
     "revisions": "Appendix D Revision history",
+    "verification": "Appendix B2 Time-history verification",
 }
 BODY_SECTIONS = ("verdict", "plan", "bays", "inputs")
 
@@ -1259,7 +1260,7 @@ class _Builder:
         entries += [(k, HEADINGS[k]) for k in ("members", "sheets")]
         entries += [(f"sheet:{n + 1}", f"      {title}") for n, title in
                     enumerate(self.sheet_titles)]
-        entries += [(k, HEADINGS[k]) for k in ("references", "revisions")]
+        entries += [(k, HEADINGS[k]) for k in ("verification", "references", "revisions")]
         self.section("contents")
         self.story.append(_contents(entries, self.w, self.book))
 
@@ -1439,6 +1440,32 @@ class _Builder:
             if a == "Response":
                 extra += [_outcome_bg(tr.response, 1, k), _outcome_ink(tr.response, 1, k)]
         return [_table(rows, [0.5 * self.w, 0.5 * self.w], header_rows=0, extra=extra)]
+
+    # ------------------------------------------------------------ B2 verification
+    def verification(self, rows: Sequence[Sequence[str]]) -> None:
+        """The time history beside the energy method and the verdict at each bay's
+        governing point (:mod:`droprig.report.verification`)."""
+        from droprig.report.verification import VERIFICATION_HEADER, VERIFICATION_NOTE
+
+        self.section("verification")
+        self.story.append(self.P(esc(VERIFICATION_NOTE), self.st.small))
+        if not rows:
+            self.story.append(self.P("No governing point could be verified (points on a "
+                                     "support or off the deck).", self.st.small))
+            return
+        w = self.w
+        # the ratios only (the peaks are in droprig verify and the window's dialog)
+        keep = (0, 1, 2, 3, 4, 5, 10, 11, 12, 13, 14, 15)
+        heads = ("Zone", "Bay", "Load", "Member", "r = M/mₑ", "κ", "F energy ÷ history",
+                 "M energy ÷ history", "δ energy ÷ history", "F verdict ÷ history",
+                 "M verdict ÷ history", "V verdict ÷ history")
+        assert len(VERIFICATION_HEADER) == 16
+        widths = (0.06, 0.08, 0.16, 0.1, 0.07, 0.07, 0.076, 0.076, 0.076, 0.076, 0.076,
+                  0.076)
+        body: list[list[object]] = [[self.P(esc(h), self.st.small) for h in heads]]
+        body += [[self.P(esc(r[i]), self.st.small) for i in keep] for r in rows]
+        self.story.append(_table(body, [f * w for f in widths],
+                                 extra=[("ALIGN", (4, 1), (-1, -1), "RIGHT")]))
 
     # ------------------------------------------------------------ C, D
     def references_page(self) -> None:
@@ -1795,6 +1822,13 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
     if levels and any(lv.members for lv in levels):
         b.members(levels)
     b.sheets(docs)
+    tick(0.4, "Time-history verification")
+    from droprig.report.verification import verification_rows
+
+    vrows: list[tuple[str, ...]] = []
+    for z in zones:
+        vrows += verification_rows(project, results, zone_id=z.id)
+    b.verification(vrows)
     b.references_page()
     b.revisions()
 

@@ -18,15 +18,21 @@ __all__ = ["VERIFICATION_HEADER", "VERIFICATION_NOTE", "verification_rows"]
 VERIFICATION_HEADER: tuple[str, ...] = (
     "zone", "bay", "load", "member", "r = M/mₑ", "κ = f_c/f_s",
     "F energy", "F time history", "M energy", "M time history",
-    "F ratio", "M ratio", "δ ratio")
+    "F ratio", "M ratio", "δ ratio", "F verdict ratio", "M verdict ratio",
+    "V verdict ratio")
 """Column titles; the ratios are energy method ÷ time history (below 1: the energy
-method reads low there)."""
+method reads low there), the verdict ratios the demand the verdict uses (dynamic
+amplification) ÷ time history (1 or more: the verdict covers the time history)."""
 
 VERIFICATION_NOTE = (
     "Time-history check of the energy method at each bay's governing point (impact alone): "
     "the struck member's Euler–Bernoulli modes (Blevins Table 8-1), the load on a "
-    "compression-only contact spring, Newmark integration through the rebound. A ratio "
-    "below 1 means the energy method reads lower than the time history. Check aid only: "
+    "compression-only contact spring capped by crushing as the verdict caps it (deck "
+    "concrete or crushable layer), Newmark integration through the rebound. A ratio "
+    "below 1 means the energy method reads lower than the time history; the verdict "
+    "ratios compare the demands the checks use (dynamic amplification: the larger of the "
+    "energy method and the calibrated time-history bounds) with the time history — 1 or "
+    "more means the verdict covers it. Check aid only: "
     "review against local codes with the appointed lifting person and a licensed "
     "structural engineer.")
 
@@ -53,5 +59,14 @@ def verification_rows(project: Any, results: Any, *,
                      fmt(v.time_history["force"], "force", system),
                      fmt(v.energy["moment"], "moment", system),
                      fmt(v.time_history["moment"], "moment", system),
-                     ratio("force"), ratio("moment"), ratio("deflection")))
+                     ratio("force"), ratio("moment"), ratio("deflection"),
+                     _verdict_ratio(v, "force"), _verdict_ratio(v, "moment"),
+                     _verdict_ratio(v, "shear")))
     return rows
+
+
+def _verdict_ratio(v: Any, key: str) -> str:
+    """The verdict's demand ÷ the time history's peak, as text ("none" where 0)."""
+    t = v.time_history[key]
+    d = (v.verdict or {}).get(key)
+    return "none" if d is None or t <= 0 else f"{d / t:.2f}"

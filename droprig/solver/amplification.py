@@ -36,13 +36,20 @@ from numpy.typing import ArrayLike
 from droprig.solver import impact
 
 __all__ = [
+    "B_DEFLECTION",
+    "B_MOMENT",
+    "B_SHEAR",
     "COMPLIANCE_RATIO_EDGES",
     "KAPPA_MIN",
     "MASS_RATIO_EDGES",
     "RIGID_BASE_MARGIN",
+    "SET_BY",
     "Amplification",
+    "AmplifiedForces",
     "amplification",
+    "amplified_forces",
     "contact_force_bound",
+    "crush_depth_bound",
 ]
 
 MASS_RATIO_EDGES: tuple[float, ...] = (0.03, 0.1, 0.3, 1.0, 3.0, 10.0, 30.0, 100.0)
@@ -216,3 +223,121 @@ def contact_force_bound(W: ArrayLike, h: ArrayLike, f_c: ArrayLike) -> np.ndarra
     W, h, f_c = np.broadcast_arrays(*(np.asarray(v, float) for v in (W, h, f_c)))
     _, F, _ = impact.impact_elastic(W, h, f_c, 1.0)
     return np.where(f_c > 0.0, RIGID_BASE_MARGIN * F, np.inf)
+
+
+# --------------------------------------------------------------------------- crushing cap
+B_MOMENT = 3.5
+"""Largest member moment per unit peak contact force, over the static moment of that
+force (the member's dynamic load factor under push-only contact pulses; a step force
+gives 2 on one mode, Clough & Penzien 2nd ed. §4-3 / Biggs 1964 Fig. 2.6, from
+memory; repeated contacts and higher modes give more): calibrated on the time history
+by ``scripts/calibrate_contact_bound.py`` — largest ratio 3.00 over 1,200 random
+members (840 with a capped contact; 99th percentile 2.35) × 1.15, rounded up."""
+B_SHEAR = 6.1
+"""As :data:`B_MOMENT` for the member shear: largest 5.29 (99th percentile 3.62) ×
+1.15 (higher modes load the supports of a light member)."""
+B_DEFLECTION = 3.55
+"""As :data:`B_MOMENT` for the member deflection: largest 3.07 (99th percentile
+2.17) × 1.15."""
+
+
+def crush_depth_bound(W: ArrayLike, h: ArrayLike, f: ArrayLike,
+                      F_crush: ArrayLike) -> np.ndarray:
+    """Upper bound of the depth crushed under a contact force capped at F_crush (N),
+    m: the work of the load's weight W (N) over its fall h (m), the crushing c and
+    the static elastic travel F_crush·f (f the series compliance of contact and
+    member, m/N) all goes into crushing — F_crush·c ≤ W·(h + c + F_crush·f) (energy
+    balance, Gere 7th ed. §9.10 with no energy left in the load) ⇒
+    c ≤ 1.05·W·(h + F_crush·f)/(F_crush − W). Checked on the time history
+    (tests/solver/test_amplification_capped.py, scripts/calibrate_contact_bound.py):
+    without the 1.05 the crushed depth reached 1.002 × the bound (cases where nearly
+    all the energy goes into crushing; the time integration's own energy error); the
+    5 % covers that. ∞ where F_crush ≤ W, 0 where F_crush is infinite (no
+    crushing)."""
+    W, h, f, Fc = np.broadcast_arrays(*(np.asarray(v, float) for v in (W, h, f, F_crush)))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        c = 1.05 * W * (h + Fc * f) / (Fc - W)
+    return np.where(~np.isfinite(Fc), 0.0, np.where(Fc > W, c, np.inf))
+
+
+@dataclass(frozen=True)
+class AmplifiedForces:
+    """The forces (N) at which each family of checks is made, per point: ``local``
+    the contact force (web, deck flexure, punching), ``moment``, ``shear`` and
+    ``deflection`` the force whose static member response bounds the time history's
+    peak member moment, shear and deflection; ``capped`` where the crushing bound
+    on the contact force holds (never crushed through its stroke); ``set_by`` per
+    quantity ("local", "moment", "shear", "deflection") the index in
+    :data:`SET_BY` of the term that set it."""
+
+    local: np.ndarray
+    moment: np.ndarray
+    shear: np.ndarray
+    deflection: np.ndarray
+    capped: np.ndarray
+    set_by: dict[str, np.ndarray]
+
+
+SET_BY: tuple[str, ...] = ("energy method", "time-history table", "rigid-base bound",
+                           "crushing force", "contact-force bound")
+"""What set an amplified force (:attr:`AmplifiedForces.set_by`): the energy method's
+own force, the table, the load against an immovable point, the crushing force, or
+(member quantities) the member's response to the bounded contact force."""
+
+
+def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
+                     F_rigid: ArrayLike, F_crush: ArrayLike,
+                     crush_holds: ArrayLike, bottomed: ArrayLike = False) -> AmplifiedForces:
+    """The checks' forces, each the larger of the energy method's force F (N, as the
+    chain gives it — capped by crushing) and the least of the upper bounds of the
+    time history:
+
+    * contact force: min(A_F·F_ref, F_rigid, F_crush) — the table on the energy
+      method's elastic force F_ref (N, uncapped, as calibrated; only where
+      A_F·F_ref ≤ F_crush, i.e. the contact stays elastic, the tables' calibration),
+      the load on its
+      contact spring against an immovable point F_rigid (N,
+      :func:`contact_force_bound`), and the crushing force F_crush (N) where the
+      crushing stays within its stroke (``crush_holds``, from
+      :func:`crush_depth_bound`): an elastic–perfectly plastic contact never passes
+      more;
+    * member moment, shear, deflection: min(A_X·F_ref, B_X·F_local) — the table
+      (where the contact stays elastic, as above), or
+      the member's largest dynamic response to a contact pulse no larger than the
+      contact force bound F_local (:data:`B_MOMENT`, :data:`B_SHEAR`,
+      :data:`B_DEFLECTION`, calibrated on the time history with an
+      elastic–perfectly plastic contact).
+
+    ``bottomed``: where the energy method crushes through the whole stroke and the
+    rest of the energy is taken elastically; the tables then apply to the energy
+    method's own (bottomed) force F, the elastic impact of what is left after the
+    stroke; where the crushing may pass its stroke (``crush_holds`` false) they apply
+    to the elastic force F_ref with no crushing at all — both checked on the time
+    history with a finite stroke (same test).
+
+    Every term is an upper bound of the time history (tests/solver/
+    test_amplification_capped.py), so their least is one too. Vectorised, N."""
+    F, F_ref, F_rigid, F_crush, holds, bot = np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (F, F_ref, F_rigid, F_crush)),
+        np.asarray(crush_holds, bool), np.asarray(bottomed, bool))
+    F_ref = np.where(bot, F, F_ref)
+    cap = np.where(holds, F_crush, np.inf)
+    # the tables were calibrated on a linear contact: they bound the time history only
+    # where their own contact force stays below the crushing force (the contact then
+    # never yields and the capped history is the linear one)
+    table_ok = bot | ~holds | (amp.force * F_ref <= F_crush)
+    terms = np.stack([np.where(table_ok, amp.force * F_ref, np.inf), F_rigid, cap])
+    i_loc = np.argmin(terms, axis=0)
+    least = np.take_along_axis(terms, i_loc[None], axis=0)[0]
+    local = np.maximum(F, least)
+    set_by = {"local": np.where(F >= least, 0, i_loc + 1)}
+    out = {}
+    for key, A, B in (("moment", amp.moment, B_MOMENT), ("shear", amp.shear, B_SHEAR),
+                      ("deflection", amp.deflection, B_DEFLECTION)):
+        tab, bnd = np.where(table_ok, A * F_ref, np.inf), B * local
+        least_m = np.minimum(tab, bnd)
+        out[key] = np.maximum(F, least_m)
+        set_by[key] = np.where(F >= least_m, 0, np.where(tab <= bnd, 1, 4))
+    return AmplifiedForces(local=local, moment=out["moment"], shear=out["shear"],
+                           deflection=out["deflection"],
+                           capped=holds & np.isfinite(F_crush), set_by=set_by)

@@ -594,15 +594,21 @@ def impact(c: Chain) -> Impact:
     """Gere 7th ed. §9.10 Eq. 9-94 with Timoshenko's mass correction
     (:func:`droprig.solver.impact.impact_elastic`); a crushable layer by the energy
     balance of :func:`droprig.solver.impact.impact_crushable`."""
+    return impact_at(c, None)
+
+
+def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
+    """:func:`impact` for the free falls ``h`` (m; ``None``: the planned ones)."""
     d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
+    h = inp.h if h is None else h
     n = d.n
     W, crushable = inp.W, inp.crushable
-    K, F_el, d_max = impact_mod.impact_elastic(W, inp.h, comp.f, sm.eta)
+    K, F_el, d_max = impact_mod.impact_elastic(W, h, comp.f, sm.eta)
     F = F_el.copy()
     crush = np.zeros(n)
     bottomed = np.zeros(n, dtype=bool)
     if crushable.any():
-        Fcr, dep, bot = impact_mod.impact_crushable(W[crushable], inp.h[crushable],
+        Fcr, dep, bot = impact_mod.impact_crushable(W[crushable], h[crushable],
                                                     comp.f_struct[crushable],
                                                     sm.eta[crushable], inp.F_c[crushable],
                                                     inp.s_c[crushable])
@@ -633,7 +639,7 @@ def impact(c: Chain) -> Impact:
     deck_through = np.zeros(n, dtype=bool)
     cap = ~crushable & (F > F_crush)
     if cap.any():
-        Fb, dep, thr = crushing.crushing_limited_impact(W[cap], inp.h[cap], comp.f[cap],
+        Fb, dep, thr = crushing.crushing_limited_impact(W[cap], h[cap], comp.f[cap],
                                                         sm.eta[cap], F_crush[cap],
                                                         depth_available)
         F[cap] = Fb
@@ -731,10 +737,14 @@ class DynamicAmplification:
     """Per point: load mass ÷ struck mass of the path ``mass_ratio`` (r = M/mₑ with
     the path's Rayleigh mass at the struck framing point), contact ÷ framing
     compliance ``compliance_ratio`` (κ = (f − f_s)/f_s), the factors on the energy
-    method's contact force ``A_force``, member moment ``A_moment``, shear ``A_shear``
-    and deflection ``A_deflection`` (dimensionless, ≥ 1), the contact-force bound
-    ``F_bound`` (N) and the factor each check family takes, ``factor`` by check name
-    (for the local checks min(A_force, F_bound/F), never below 1)."""
+    method's force F at which the checks are made — contact force ``A_force`` (web,
+    deck flexure, punching), member moment ``A_moment``, shear ``A_shear`` and
+    deflection ``A_deflection`` (dimensionless, ≥ 1; each the amplified force of
+    :func:`droprig.solver.amplification.amplified_forces` over F) — the contact-force
+    bound ``F_bound`` (N: the rigid-base bound, and the crushing force where the
+    crushing holds within its stroke) and the factor each check family takes,
+    ``factor`` by check name; ``set_by`` what set the local, moment, shear and
+    deflection forces (index into :data:`droprig.solver.amplification.SET_BY`)."""
 
     mass_ratio: np.ndarray
     compliance_ratio: np.ndarray
@@ -744,23 +754,33 @@ class DynamicAmplification:
     A_deflection: np.ndarray
     F_bound: np.ndarray
     factor: dict[str, np.ndarray]
-
-
-_CRUSHABLE_KAPPA = 1e3
-"""Contact ÷ framing compliance a crushable layer's points are looked up at (softest
-column of the amplification tables)."""
+    set_by: dict[str, np.ndarray]
 
 
 def dynamic_amplification(c: Chain) -> DynamicAmplification:
-    """Table lookup of :func:`droprig.solver.amplification.amplification` (calibrated
-    on the time history of :mod:`droprig.solver.timehistory`: Euler–Bernoulli modes,
-    Blevins 1979 Table 8-1; Newmark average acceleration, Chopra §5.4) against the
-    energy method as this chain applies it: with the struck-mass share where η < 1,
-    with η = 1 under mats and crushable layers. A crushable layer is not in the
-    calibration: its points take the η = 1 table at the softest contact (an
-    assumption, stated in the README). Contact-force bound: the load on its contact
-    springs against an immovable point (Gere 7th ed. §9.10, η = 1, +5 %)."""
-    d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+    """The factor each family of checks takes, from
+    :func:`droprig.solver.amplification.amplified_forces`: the larger of the energy
+    method's force and the least of the time history's upper bounds — the tables
+    (calibrated on :mod:`droprig.solver.timehistory`: Euler–Bernoulli modes, Blevins
+    1979 Table 8-1; Newmark average acceleration, Chopra §5.4) on the energy method's
+    elastic force as calibrated (with the struck-mass share where η < 1, η = 1 under
+    mats and crushable layers); the load on its contact springs against an immovable
+    point (Gere 7th ed. §9.10, η = 1, +5 %); the crushing force — of the deck
+    concrete under the footprint (Impact's F_crush) or of a crushable layer — where
+    the crushing cannot pass its stroke (the cover; the layer's stroke) even with all
+    the energy in it (:func:`droprig.solver.amplification.crush_depth_bound`); and for
+    member moment, shear and deflection the member's largest response per unit peak
+    contact force (B_M, B_V, B_δ, calibrated on the time history with an
+    elastic–perfectly plastic contact). The tables apply only where their contact
+    force stays below the crushing force (they were calibrated on elastic contacts);
+    a crushable layer is an elastic–perfectly plastic contact like the deck's
+    crushing, with its own force and stroke."""
+    return amplification_at(c, c[LoadInputs].h, c[Impact])
+
+
+def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplification:
+    """:func:`dynamic_amplification` for the free falls ``h`` (m) and their impact."""
+    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
     if not d.fm.settings.dynamic_amplification:
         one = np.ones(d.n)
         names = ("flexure", "shear", "web_yielding", "web_crippling", "deck_flexure",
@@ -769,25 +789,42 @@ def dynamic_amplification(c: Chain) -> DynamicAmplification:
                                     compliance_ratio=np.full(d.n, np.nan), A_force=one,
                                     A_moment=one, A_shear=one, A_deflection=one,
                                     F_bound=np.full(d.n, np.inf),
-                                    factor=dict.fromkeys(names, one))
+                                    factor=dict.fromkeys(names, one),
+                                    set_by=dict.fromkeys(("local", "moment", "shear",
+                                                          "deflection"),
+                                                         np.zeros(d.n, int)))
     m_path = d.geo.path.m_e
     m_path = np.where(np.isfinite(m_path) & (m_path > 0.0), m_path, 0.0)
-    # a crushable layer: the softest column of the η = 1 tables (not calibrated)
-    f_contact = np.where(inp.crushable, _CRUSHABLE_KAPPA * comp.f_s, comp.f - comp.f_s)
+    crushable = inp.crushable
+    # the elastic contact: through a crushable layer (rigid until it crushes) the
+    # load's underside alone, else the deck, mats and the load's underside
+    f_beyond = np.where(crushable, comp.f_struct, comp.f)
+    f_contact = f_beyond - comp.f_s
     a = amp_mod.amplification(inp.M, m_path, f_contact, comp.f_s,
                               struck_mass=sm.m_e > 0.0)
-    bound = np.where(inp.crushable, np.inf,
-                     amp_mod.contact_force_bound(inp.W, inp.h, comp.f - comp.f_s))
+    rigid = amp_mod.contact_force_bound(inp.W, h, f_contact)
+    # the tables multiply the energy method's elastic (uncapped) force, as calibrated
+    _, F_ref, _ = impact_mod.impact_elastic(inp.W, h, f_beyond, sm.eta)
+    # the crushing cap — the layer's, or the deck concrete's — and its stroke
+    F_cap = np.where(crushable, inp.F_c, imp.F_crush)
+    stroke = np.where(crushable, inp.s_c, d.fm.level.deck.cover)
+    holds = amp_mod.crush_depth_bound(inp.W, h, f_beyond, F_cap) <= stroke
+    forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds,
+                                      bottomed=imp.bottomed | imp.deck_through)
     F = imp.F
     with np.errstate(divide="ignore", invalid="ignore"):
-        local = np.where(F > 0.0, np.minimum(a.force, bound / np.where(F > 0.0, F, 1.0)),
-                         a.force)
-    local = np.where(np.isfinite(local), np.maximum(local, 1.0), a.force)
-    factor = {"flexure": a.moment, "shear": a.shear, "web_yielding": local,
+        def ratio(Fx: np.ndarray) -> np.ndarray:
+            r_ = np.where(F > 0.0, Fx / np.where(F > 0.0, F, 1.0), 1.0)
+            return np.where(np.isfinite(r_), np.maximum(r_, 1.0), 1.0)
+    local, A_M, A_V, A_D = (ratio(forces.local), ratio(forces.moment),
+                            ratio(forces.shear), ratio(forces.deflection))
+    factor = {"flexure": A_M, "shear": A_V, "web_yielding": local,
               "web_crippling": local, "deck_flexure": local, "deck_punching": local}
     return DynamicAmplification(mass_ratio=a.mass_ratio, compliance_ratio=a.compliance_ratio,
-                                A_force=a.force, A_moment=a.moment, A_shear=a.shear,
-                                A_deflection=a.deflection, F_bound=bound, factor=factor)
+                                A_force=local, A_moment=A_M, A_shear=A_V,
+                                A_deflection=A_D,
+                                F_bound=np.minimum(rigid, np.where(holds, F_cap, np.inf)),
+                                factor=factor, set_by=forces.set_by)
 
 
 def _scaled(chk: Check, A: np.ndarray) -> Check:
@@ -1305,6 +1342,8 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     cover = dk.thickness if dk.is_steel else dk.cover  # as the impact step's depth
     h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow), imp.F_crush,
                              np.full(d.n, cover), W, eta)
+    if s.dynamic_amplification:
+        h_el = confirm_amplified_height(c, h_el)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
     for u in ck.Ub_at_Rp[1:]:
@@ -1361,6 +1400,48 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     return InverseAnswers(h_el=h_el, h_pl=h_pl, m_allow=m_allow, k_req=k_req, s_req=s_req,
                           Ub_Rp=Ub_Rp, h_check=h_check, h_member=h_member,
                           hp_check=hp_check)
+
+
+def amplified_utilisation_at(c: Chain, h: np.ndarray) -> np.ndarray:
+    """Largest elastic U of every check family at the free falls ``h`` (m): the
+    impact at h (:func:`impact_at`) and the amplification at h
+    (:func:`amplification_at`) on step 5's energy-method checks (linear in F)."""
+    imp = impact_at(c, h)
+    amp = amplification_at(c, h, imp)
+    dem = next(r for r in c.history if isinstance(r, Demands))  # step 5's own
+    U = np.zeros(c.drop.n)
+    for name, chk in dem.checks.items():
+        A = amp.factor.get(name, amp.A_shear)
+        with np.errstate(invalid="ignore"):
+            U = np.fmax(U, chk.U_at(A * imp.F))
+    return U
+
+
+_CONFIRM_ROUNDS = 12
+
+
+def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
+    """The elastic allowable free fall with dynamic amplification, m: the factors
+    depend on the height (the rigid-base and crushing bounds, the energy method's own
+    force), so the closed form's height — with the factors at the planned height — is
+    re-checked by a forward run at that height (:func:`amplified_utilisation_at`) and
+    lowered by (0.98/U)² where U > 1 (F ∝ √h for a drop large against the static
+    deflection, Gere 7th ed. Eq. 9-94), until every point holds (at most
+    :data:`_CONFIRM_ROUNDS` rounds; a point still over then gets no height, NaN)."""
+    h = h_el.copy()
+    for _ in range(_CONFIRM_ROUNDS):
+        live = np.isfinite(h) & (h > 0.0)
+        if not live.any():
+            break
+        U = np.ones(c.drop.n)
+        U[live] = amplified_utilisation_at(c, np.where(live, h, 0.0))[live]
+        over = live & (U > 1.0)
+        if not over.any():
+            return h
+        h = np.where(over, h * np.minimum(0.98, (0.98 / U) ** 2), h)
+    live = np.isfinite(h) & (h > 0.0)
+    U = amplified_utilisation_at(c, np.where(live, h, 0.0))
+    return np.where(live & (U > 1.0), np.nan, h)
 
 
 # --------------------------------------------------------------------------- 9. local damage

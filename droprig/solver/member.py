@@ -33,7 +33,7 @@ from typing import Any
 import numpy as np
 
 from droprig.model import Grade, ModelError, Project, Section, Settings
-from droprig.solver import beam, capacity, impact
+from droprig.solver import amplification, beam, capacity, impact
 from droprig.solver.chain import (
     BareMember,
     BeyondYield,
@@ -42,6 +42,7 @@ from droprig.solver.chain import (
     Compliance,
     Demands,
     Drop,
+    DynamicAmplification,
     Impact,
     InverseAnswers,
     LoadInputs,
@@ -82,6 +83,7 @@ RESULT_KEYS: tuple[str, ...] = (
     "plastic_deflection",
     "ductility",
     "support_rotation",
+    "amplification",
 )
 """Keys of :func:`assess_member`'s result, in the order of ``droprig check --json``."""
 
@@ -121,6 +123,7 @@ def assess_member(
     deflection_limit_ratio: float = DEFAULT_DEFLECTION_LIMIT_RATIO,
     ductility_limit: float = 6.0,
     rotation_limit: float = math.radians(2.0),
+    dynamic_amplification: bool = False,
 ) -> dict[str, Any]:
     """Assess one member (span L, m; end condition ``cond``) struck at ``a`` (m from
     the origin end) by a mass (kg) falling ``h`` (m), by the floor's chain
@@ -141,18 +144,38 @@ def assess_member(
     validated but never changes the verdict (deflection is information only; the
     edges compare ``max_deflection`` with span/N themselves). Raises
     :class:`~droprig.model.ModelError` naming the argument for inputs outside range.
+
+    ``dynamic_amplification`` (off by default, as the floor analysis's setting): the
+    chain's ``dynamic_amplification`` step makes every check at its amplified force
+    (:func:`droprig.solver.amplification.amplified_forces`, the same rule as the
+    floor); ``amplification`` then holds the factors ``force``, ``moment``,
+    ``shear``, ``deflection``, the ratios ``mass_ratio`` (r = M/mₑ) and
+    ``compliance_ratio`` (κ) and ``set_by`` (what set each factor); ``None`` when off.
     """
     c = member_chain(section, grade, cond, L, a, mass, h, basis=basis, phi=phi, dif=dif,
                      bearing=bearing, cushion_stiffness=cushion_stiffness,
                      load_stiffness=load_stiffness, crush_force=crush_force,
                      crush_stroke=crush_stroke, udl=udl, self_weight=self_weight,
                      beam_mass=beam_mass, deflection_limit_ratio=deflection_limit_ratio,
-                     ductility_limit=ductility_limit, rotation_limit=rotation_limit)
+                     ductility_limit=ductility_limit, rotation_limit=rotation_limit,
+                     dynamic_amplification=dynamic_amplification)
     out = _result(c, cond, L, a)
     for k in RESULT_KEYS:
-        if k not in ("governing_check", "response"):
+        if k not in ("governing_check", "response", "amplification"):
             out[k] = _clean(out[k])
+    out["amplification"] = _amplification(c) if dynamic_amplification else None
     return out
+
+
+def _amplification(c: Chain) -> dict[str, Any]:
+    """The chain's :class:`~droprig.solver.chain.DynamicAmplification` of the one
+    point as plain numbers (factors ≥ 1) and what set each."""
+    da = c[DynamicAmplification]
+    return {"force": float(da.A_force[0]), "moment": float(da.A_moment[0]),
+            "shear": float(da.A_shear[0]), "deflection": float(da.A_deflection[0]),
+            "mass_ratio": _clean(float(da.mass_ratio[0])),
+            "compliance_ratio": _clean(float(da.compliance_ratio[0])),
+            "set_by": {k: amplification.SET_BY[int(v[0])] for k, v in da.set_by.items()}}
 
 
 def member_chain(
@@ -178,6 +201,7 @@ def member_chain(
     deflection_limit_ratio: float = DEFAULT_DEFLECTION_LIMIT_RATIO,
     ductility_limit: float = 6.0,
     rotation_limit: float = math.radians(2.0),
+    dynamic_amplification: bool = False,
 ) -> Chain:
     """The floor's chain (:func:`droprig.solver.chain.run_chain`) for one member
     struck at ``a``, in the deck-less mode: every step result readable by type,
@@ -185,7 +209,7 @@ def member_chain(
     _check_inputs(cond, basis, L, a, mass, h, bearing, udl, cushion_stiffness,
                   load_stiffness, crush_force, crush_stroke)
     settings = _settings(basis, phi, dif, deflection_limit_ratio, ductility_limit,
-                         rotation_limit, beam_mass)
+                         rotation_limit, beam_mass, dynamic_amplification)
     w0 = (section.mass_per_length * impact.G if self_weight else 0.0) + udl
     fm = member_floor(section, grade, cond, L, w0, settings)
     bare = BareMember(
@@ -217,7 +241,8 @@ def _geometry(fm: FloorModel, a: float, bare: BareMember) -> Geometry:
 
 
 def _settings(basis: str, phi: float, dif: float, deflection_limit_ratio: float,
-              ductility_limit: float, rotation_limit: float, beam_mass: bool) -> Settings:
+              ductility_limit: float, rotation_limit: float, beam_mass: bool,
+              dynamic_amplification: bool = False) -> Settings:
     """The chain's settings; a value outside the project's range is refused under the
     ``droprig check`` name of the argument."""
     names = {"resistance_factor": "phi", "dynamic_increase_factor": "dif",
@@ -229,7 +254,7 @@ def _settings(basis: str, phi: float, dif: float, deflection_limit_ratio: float,
                         deflection_limit_ratio=deflection_limit_ratio,
                         ductility_limit=ductility_limit, rotation_limit=rotation_limit,
                         include_member_mass=beam_mass, include_existing_loads=True,
-                        dynamic_amplification=False)
+                        dynamic_amplification=dynamic_amplification)
     except ModelError as exc:
         field = str(exc.field).removeprefix("settings.")
         raise ModelError(names.get(field, field), exc.value, exc.allowed, exc.unit) from exc

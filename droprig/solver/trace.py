@@ -19,7 +19,7 @@ import math
 import numpy as np
 
 from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
-from droprig.solver import droppoints, limits
+from droprig.solver import amplification, droppoints, limits
 from droprig.solver.chain import (
     BRITTLE,
     LANDINGS,
@@ -289,16 +289,28 @@ def _amplification_steps(sheet: _Sheet) -> None:
     add("Contact over framing compliance", "κ", "κ = (f − f_s) / f_s",
         {"f": (comp.f[0], "compliance"), "f_s": (comp.f_s[0], "compliance")},
         amp.compliance_ratio[0], "dimensionless", src_amp)
-    add("Amplification of the member moment", "A_M", "A_M = table(r, κ)", {},
-        amp.A_moment[0], "dimensionless", src_amp)
-    add("Amplification of the member shear", "A_V", "A_V = table(r, κ)", {},
-        amp.A_shear[0], "dimensionless", src_amp)
-    add("Amplification of the contact force (web and deck checks)", "A_F",
-        "A_F = min(table(r, κ), F_bound/F), F_bound = 1.05·W(1 + √(1 + 2h/(W(f − f_s))))",
+    by = {k: amplification.SET_BY[int(v[0])] for k, v in amp.set_by.items()}
+    src_cap = (src_amp + "; member response per unit peak contact force B_M = "
+               f"{amplification.B_MOMENT}, B_V = {amplification.B_SHEAR}, B_δ = "
+               f"{amplification.B_DEFLECTION} (time history with an elastic–perfectly "
+               "plastic contact, scripts/calibrate_contact_bound.py)")
+    add(f"Amplification of the contact force (web and deck checks), set by the "
+        f"{by['local']}", "A_F",
+        "A_F = max(1, min(table(r, κ)·F_el, F_rigid, F_crush)/F), "
+        "F_rigid = 1.05·W(1 + √(1 + 2h/(W(f − f_s))))",
         {"F_bound": (amp.F_bound[0], "force"), "F": (imp.F[0], "force")},
-        amp.factor["web_yielding"][0], "dimensionless", src_amp + "; Gere §9.10")
-    add("Amplification of the energy beyond yield", "A_δ²", "A_δ = table(r, κ)", {},
-        amp.A_deflection[0] ** 2, "dimensionless", src_amp)
+        amp.factor["web_yielding"][0], "dimensionless",
+        src_amp + "; Gere §9.10; crushing force as the impact step, held where the "
+        "crushed depth cannot pass the cover with all the energy in it")
+    add(f"Amplification of the member moment, set by the {by['moment']}", "A_M",
+        "A_M = max(1, min(table(r, κ)·F_el, B_M·A_F·F)/F)", {},
+        amp.A_moment[0], "dimensionless", src_cap)
+    add(f"Amplification of the member shear, set by the {by['shear']}", "A_V",
+        "A_V = max(1, min(table(r, κ)·F_el, B_V·A_F·F)/F)", {},
+        amp.A_shear[0], "dimensionless", src_cap)
+    add("Amplification of the energy beyond yield", "A_δ²",
+        "A_δ = max(1, min(table(r, κ)·F_el, B_δ·A_F·F)/F)", {},
+        amp.A_deflection[0] ** 2, "dimensionless", src_cap)
 
 
 def _check_steps(sheet: _Sheet) -> None:
@@ -319,7 +331,8 @@ def _check_steps(sheet: _Sheet) -> None:
         unit_q = "length" if q == "moment" else "dimensionless"
         add(f"{c.replace('_', ' ').capitalize()} — {mname(dem.checks[c].member[0])}", f"U_{c}",
             "U = |A·F·u + E| / R" if on else "U = |F·u + E| / R",
-            {**({"A": (amp.factor[c][0], "dimensionless")} if on else {}),
+            {**({"A": (amp.factor.get(c, amp.A_shear)[0], "dimensionless")} if on
+               else {}),
              "F": (imp.F[0], "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
              "E": (_detail(dem.checks[c].exist)[0], q), "R": (_detail(dem.checks[c].resist)[0], q)},
             dem.checks[c].U[0], "dimensionless", _SRC_CHECK[c])

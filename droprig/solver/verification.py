@@ -28,7 +28,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from droprig.model import Grade, Level, ModelError, Project, Section
-from droprig.solver import amplification, beam, timehistory
+from droprig.solver import amplification, beam, crushing, impact, timehistory
 from droprig.solver.beam import EndCondition
 from droprig.solver.geometry import Geometry
 
@@ -50,7 +50,11 @@ class Verification:
     """Energy method and time history of one struck member, impact alone (SI).
 
     ``energy``, ``time_history``, ``amplification`` map :data:`QUANTITIES` to the
-    energy method's peak, the time history's peak and the calibrated factor;
+    energy method's peak (capped by crushing as the chain caps it), the time
+    history's peak (with the same elastic–perfectly plastic contact) and the factor
+    the verdict applies (:func:`droprig.solver.amplification.amplified_forces`);
+    ``verdict`` the demand the checks use (factor × energy), ``crushing_force`` (N,
+    ∞ none) and ``crush`` (m) the time history's crushed depth;
     ``energy_deflection_at_point`` (m) is F·G(a, a) for the plot of the struck
     point; ``mass_ratio`` r = M/mₑ, ``compliance_ratio`` κ = f_c/f_s;
     ``contact_compliance`` (m/N) the contact spring the time history used
@@ -70,6 +74,9 @@ class Verification:
     time_step: float
     separation_time: float | None
     history: timehistory.History
+    verdict: dict[str, float] | None = None
+    crushing_force: float = math.inf
+    crush: float = 0.0
 
     def ratio(self, key: str) -> float | None:
         """Energy method ÷ time history of ``key`` (None where the history is 0)."""
@@ -97,7 +104,8 @@ class PointVerification:
 
 
 def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
-            f_c: float, struck_mass: bool, scaled_mass: bool = False) -> Verification:
+            f_c: float, struck_mass: bool, scaled_mass: bool = False,
+            F_yield: float = math.inf, stroke: float = math.inf) -> Verification:
     f_s = float(beam.green(cond, L, EI, a, a))
     if f_s <= 0.0:
         raise ModelError("at", a, "a point off the supports (the member does not move "
@@ -106,16 +114,37 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     f_th = max(f_c, amplification.KAPPA_MIN * f_s)
     e = timehistory.energy_method_peaks(cond, L, EI, mu, a, M, h, f_c,
                                         struck_mass=struck_mass, scaled_mass=scaled_mass)
-    t = timehistory.time_history(cond, L, EI, mu, a, M, h, f_th, record=True)
+    W = M * impact.G
+    cap = F_yield if F_yield > W else math.inf
+    t = timehistory.time_history(cond, L, EI, mu, a, M, h, f_th, record=True,
+                                 F_yield=cap, stroke=stroke)
     amp = amplification.amplification(M, float(e.effective_mass), f_c, f_s,
                                       struck_mass=struck_mass)
+    F_el = float(e.force)
+    F = F_el
+    bottomed = False
+    if math.isfinite(cap) and F_el > cap:  # the chain's crushing-limited impact
+        m_eta = float(e.effective_mass) * (f_s / (f_s + f_c)) ** 2 if scaled_mass \
+            else float(e.effective_mass)
+        eta = float(impact.mass_efficiency(M, m_eta)) if struck_mass else 1.0
+        F_a, _, thr = crushing.crushing_limited_impact(W, h, f_s + f_c, eta, cap, stroke)
+        F, bottomed = float(F_a), bool(thr)
+    holds = bool(amplification.crush_depth_bound(W, h, f_s + f_c, cap) <= stroke)
+    fo = amplification.amplified_forces(amp, F, F_el,
+                                        amplification.contact_force_bound(W, h, f_c),
+                                        cap, holds, bottomed)
+    energy = {k: float(getattr(e, k)) * F / F_el for k in QUANTITIES}
+    factor = {"force": float(fo.local) / F, "moment": float(fo.moment) / F,
+              "shear": float(fo.shear) / F, "deflection": float(fo.deflection) / F}
     assert t.history is not None
     t_sep = float(t.t_separation[0])
     return Verification(
-        energy={k: float(getattr(e, k)) for k in QUANTITIES},
+        energy=energy,
         time_history={k: float(getattr(t, k)[0]) for k in QUANTITIES},
-        amplification={k: float(getattr(amp, k)) for k in QUANTITIES},
-        energy_deflection_at_point=float(e.force) * f_s,
+        amplification=factor,
+        verdict={k: factor[k] * energy[k] for k in QUANTITIES},
+        crushing_force=cap, crush=float(t.crush[0]) if t.crush is not None else 0.0,
+        energy_deflection_at_point=F * f_s,
         mass_ratio=float(amp.mass_ratio), compliance_ratio=f_c / f_s,
         contact_compliance=f_th, contact_assumed=assumed, modes=int(t.modes[0]),
         time_step=float(t.dt[0]), separation_time=t_sep if math.isfinite(t_sep) else None,
@@ -146,8 +175,10 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     """A drop point (x, y in m) of load ``load_name`` of lift zone ``zone_id`` (see the
     module docstring for the idealisation). Raises :class:`ModelError` naming the
     zone, load or point when they do not exist or the point is not over a deck panel,
-    over an opening, or under a crushable layer (not modelled by the time history)."""
-    from droprig.solver.chain import Compliance, LoadInputs, StruckMass
+    over an opening. The contact is elastic–perfectly plastic as the chain caps it:
+    the deck concrete's crushing force over the cover, or a crushable layer's force
+    over its stroke."""
+    from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass
     from droprig.solver.evaluate import evaluate_chain
     from droprig.solver.floor import floor_model
     from droprig.solver.geometry import point_geometry
@@ -169,10 +200,12 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
                          f"a point over a deck panel of level {fm.level.id}")
     chain = evaluate_chain(fm, project, load, geo, detail=True)
     inp, comp, sm = chain[LoadInputs], chain[Compliance], chain[StruckMass]
-    if bool(inp.crushable[0]):
-        raise ModelError("verify.point", (float(x), float(y)),
-                         "a point outside crushable layers (the time history models an "
-                         "elastic contact only)")
+    crushable = bool(inp.crushable[0])
+    if crushable:  # rigid until it crushes: the elastic contact is the rest
+        F_y, s_y, f_all = float(inp.F_c[0]), float(inp.s_c[0]), float(comp.f_struct[0])
+    else:
+        F_y = float(chain[Impact].F_crush[0])
+        s_y, f_all = float(fm.level.deck.cover), float(comp.f[0])
     path, fr = geo.path, fm.frame
     k = 0 if path.share[0, 0] >= path.share[0, 1] else 1
     m = int(path.members[0, k])
@@ -184,10 +217,9 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     EI = grade.E * section.Ix
     g_m = float(beam.green(cond, L, EI, a, a))
     # the rest of the path in series: everything but the modelled member's own spring
-    f_c = max(float(comp.f[0]) - g_m, 0.0) if g_m > 0 else float(comp.f[0])
+    f_c = max(f_all - g_m, 0.0) if g_m > 0 else f_all
     ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), float(inp.h[0]),
-                  f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True)
-    from droprig.solver.chain import Impact
+                  f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True, F_yield=F_y, stroke=s_y)
 
     return PointVerification(zone_id=zone_id, load_name=load_name, x=float(x), y=float(y),
                              bay_id=_bay_name(fm.level, geo), member_id=member.id, cond=cond,

@@ -319,7 +319,7 @@ def _bay_rows(built: Annex) -> list[tuple[str, set[str], str]]:
 
 def _sheet_texts(built: Annex) -> str:
     start = _first_page(built, annex.HEADINGS["sheets"])
-    end = _first_page(built, annex.HEADINGS["references"])
+    end = _first_page(built, annex.HEADINGS["verification"])  # appendix B2 follows
     return " ".join(built.texts[start - 1:end - 1])
 
 
@@ -667,3 +667,22 @@ def test_hard_items_and_left_out_strikes_are_printed(built: Annex) -> None:
     for ld in hard:
         if ld.strike_reason:
             assert _norm(ld.strike_reason)[:30] in text
+
+
+def test_verification_appendix_covers_the_time_history(built: Annex) -> None:
+    # appendix B2 prints, for each bay's governing point the solver can verify, the
+    # verdict ÷ time-history ratios of droprig.report.verification (the time history:
+    # Blevins 1979 Table 8-1 modes, Newmark — tests/solver/test_timehistory.py); the
+    # annex prints them as the solver gives them (common practice, no source)
+    from droprig.report.verification import verification_rows
+
+    heading = annex.HEADINGS["verification"]
+    first = _first_page(built, heading)
+    rows = verification_rows(built.project, built.results)
+    text = " ".join(built.texts[first - 1:])
+    for r in rows:
+        for cell in r[13:]:
+            assert cell in text
+            if cell not in ("none", "inf"):
+                # with amplification on, the verdict covers the time history
+                assert float(cell) >= 1.0, (r[:4], r[13:])

@@ -79,6 +79,10 @@ def _one_bay_level(**kw):
 
 
 def _project(level, zones, protection=(), **settings):
+    # these tests check the energy method (Gere 7th ed. §9.10) by hand: dynamic
+    # amplification (on by default) is tested in test_chain_amplification.py and
+    # test_amplification_capped.py
+    settings.setdefault("dynamic_amplification", False)
     return Project(settings=Settings(**settings), levels=(level,), lift_zones=tuple(zones),
                    protection_areas=tuple(protection))
 

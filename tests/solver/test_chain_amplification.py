@@ -19,7 +19,6 @@ import pytest
 from droprig.commands.demo import demo_dir
 from droprig.io.project_file import dumps_project, load_project, loads_project
 from droprig.solver import amplification, analysis
-from droprig.solver import chain as chain_mod
 from droprig.solver.chain import (
     Compliance,
     Demands,
@@ -70,13 +69,28 @@ def test_on_checks_use_the_amplified_force() -> None:
         inp, comp, sm, imp = c1[LoadInputs], c1[Compliance], c1[StruckMass], c1[Impact]
         amp = c1[DynamicAmplification]
         ok = np.isfinite(imp.F)
-        # the factors are the table's for this path (r, κ as the step defines them)
+        # the factors are amplification.amplified_forces' for this path (r, κ as the
+        # step defines them: the elastic contact through a crushable layer is the
+        # load's underside alone) over the energy method's force
         m_path = np.where(np.isfinite(c1.drop.geo.path.m_e), c1.drop.geo.path.m_e, 0.0)
-        # a crushable layer is looked up in the softest column (stated assumption)
-        f_c = np.where(inp.crushable, chain_mod._CRUSHABLE_KAPPA * comp.f_s, comp.f - comp.f_s)
-        ref = amplification.amplification(inp.M, m_path, f_c, comp.f_s,
+        f_b = np.where(inp.crushable, comp.f_struct, comp.f)
+        ref = amplification.amplification(inp.M, m_path, f_b - comp.f_s, comp.f_s,
                                           struck_mass=sm.m_e > 0.0)
-        np.testing.assert_array_equal(amp.A_moment[ok], ref.moment[ok])
+        from droprig.solver import impact as impact_mod
+        _, F_ref, _ = impact_mod.impact_elastic(inp.W, inp.h, f_b, sm.eta)
+        F_cap = np.where(inp.crushable, inp.F_c, imp.F_crush)
+        stroke = np.where(inp.crushable, inp.s_c, c1.drop.fm.level.deck.cover)
+        holds = amplification.crush_depth_bound(inp.W, inp.h, f_b, F_cap) <= stroke
+        fo = amplification.amplified_forces(
+            ref, imp.F, F_ref, amplification.contact_force_bound(inp.W, inp.h, f_b - comp.f_s),
+            F_cap, holds, imp.bottomed | imp.deck_through)
+        np.testing.assert_allclose(amp.A_moment[ok], np.maximum(fo.moment / imp.F, 1.0)[ok],
+                                   rtol=REL)
+        np.testing.assert_allclose(amp.A_force[ok], np.maximum(fo.local / imp.F, 1.0)[ok],
+                                   rtol=REL)
+        # the contact force never above the crushing force where the crushing holds
+        # within its stroke (elastic–perfectly plastic contact)
+        assert np.all(fo.local[ok & holds] <= np.maximum(F_cap, imp.F)[ok & holds] * (1 + REL))
         # amplified check = the energy-method check at A·F (linear in F)
         for name in ("flexure", "shear", "web_yielding", "deck_punching"):
             A = amp.factor[name]

@@ -33,12 +33,18 @@ calculation leaves out the struck mass (η = 1) and the deck's own compliance.""
 
 @pytest.fixture(scope="module")
 def roof():
-    return load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    return _energy_only(load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig"))
 
 
 @pytest.fixture(scope="module")
 def steel():
-    return load_project(ROOT / "demo_projects" / "steel_erection_floor.droprig")
+    return _energy_only(load_project(ROOT / "demo_projects" / "steel_erection_floor.droprig"))
+
+
+def _energy_only(p):
+    """The hand calculations here are of the energy method (Gere 7th ed. §9.10);
+    dynamic amplification (on by default) is tested in test_chain_amplification.py."""
+    return replace(p, settings=replace(p.settings, dynamic_amplification=False))
 
 
 def _chain(project, load, xs, ys):

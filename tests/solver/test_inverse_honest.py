@@ -99,6 +99,10 @@ def _check_project(project: Project) -> int:
     return checked
 
 
+def _energy_only(p: Project) -> Project:
+    return replace(p, settings=replace(p.settings, dynamic_amplification=False))
+
+
 def _weak_layer_project(crush_force: float) -> Project:
     """The rooftop demo (invented) with its pads made crushable at ``crush_force``
     (N) under loads dropped from 0.5 m."""
@@ -129,9 +133,11 @@ def test_a_layer_weaker_than_the_load_earns_no_height() -> None:
     fall: the allowable height is that of the same pad that never crushes, less
     (W − F_c)·s_c/W (impact_crushable case 3 solved for h, η = 1 under a layer),
     and none where that is below 0."""
-    weak_project = _weak_layer_project(30e3)
+    # the crush-energy arithmetic of the energy method (dynamic amplification off:
+    # its heights are confirmed by forward runs, not by this closed form)
+    weak_project = _energy_only(_weak_layer_project(30e3))
     weak = analysis.analyse(weak_project)
-    strong = analysis.analyse(_weak_layer_project(1e8))  # 100 MN: never crushes here
+    strong = analysis.analyse(_energy_only(_weak_layer_project(1e8)))  # 100 MN: never crushes here
     # pads act by area: the 30 kN of an older file is a stress over the largest
     # footprint on the level (the 3 × 2 m unit), so a load wholly on the pad gets
     # F_c = 30 kN × its footprint / 6 m²

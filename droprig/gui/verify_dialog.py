@@ -1,0 +1,130 @@
+"""The "Verify by time history…" dialog of the calculation trace.
+
+For the drop point on the trace panel it runs :func:`droprig.solver.verify_point`
+(through :func:`droprig.report.verify_plots.point_verification_figures`: the struck
+member modelled alone, Euler–Bernoulli modes — Blevins 1979 Table 8-1 — Newmark
+average acceleration, Chopra §5.4, the contact capped by crushing as the verdict caps
+it) and shows its force-, deflection- and moment-time plots beside a table of the
+energy method's peaks, the time history's peaks and the demands the verdict uses
+(dynamic amplification), with the caution. Nothing is computed here.
+"""
+
+from __future__ import annotations
+
+import html
+from typing import TYPE_CHECKING
+
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import (
+    QDialog,
+    QDialogButtonBox,
+    QHBoxLayout,
+    QLabel,
+    QTableWidget,
+    QTableWidgetItem,
+    QTabWidget,
+    QVBoxLayout,
+    QWidget,
+)
+
+from droprig import units
+from droprig.texts import CAUTION
+
+if TYPE_CHECKING:
+    from matplotlib.figure import Figure
+
+    from droprig.solver import PointVerification
+
+ROWS: tuple[tuple[str, str, str], ...] = (
+    ("force", "Contact force", "force"),
+    ("moment", "Member moment", "moment"),
+    ("shear", "Member shear", "force"),
+    ("deflection", "Member deflection", "small_length"),
+)
+"""(key, row label, unit quantity) of the comparison table."""
+COLUMNS: tuple[str, ...] = ("Energy method", "Time history", "Energy ÷ history",
+                            "Verdict uses", "Verdict ÷ history")
+
+
+def comparison_rows(pv: PointVerification, system: str) -> list[list[str]]:
+    """The table's cells (text) for a verification, in ``system`` units."""
+    v = pv.verification
+    rows: list[list[str]] = []
+    for key, _, quantity in ROWS:
+        e, t = v.energy[key], v.time_history[key]
+        d = (v.verdict or {}).get(key, v.amplification[key] * e)
+        rows.append([units.fmt(e, quantity, system), units.fmt(t, quantity, system),
+                     f"{e / t:.2f}" if t > 0 else "—",
+                     units.fmt(d, quantity, system),
+                     f"{d / t:.2f}" if t > 0 else "—"])
+    return rows
+
+
+class VerifyDialog(QDialog):
+    """Plots (one tab each) and the comparison table of one point's verification."""
+
+    def __init__(self, pv: PointVerification, figures: list[Figure], system: str,
+                 parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        from matplotlib.backends.backend_qtagg import FigureCanvasQTAgg
+
+        self.setWindowTitle("Time-history verification")
+        self.verification = pv
+        v = pv.verification
+        head = QLabel(html.escape(
+            f"Lift {pv.zone_id}, load {pv.load_name}, bay {pv.bay_id or '—'}, point "
+            f"({units.fmt(pv.x, 'length', system)}, {units.fmt(pv.y, 'length', system)}) "
+            f"— member {pv.member_id} ({pv.cond}, span {units.fmt(pv.L, 'length', system)}, "
+            f"struck at {units.fmt(pv.a, 'length', system)})"))
+        head.setWordWrap(True)
+        self.tabs = QTabWidget()
+        self.canvases = []
+        for fig, name in zip(figures, ("Force", "Deflection", "Moment"), strict=False):
+            canvas = FigureCanvasQTAgg(fig)
+            canvas.setMinimumSize(420, 260)
+            self.canvases.append(canvas)
+            self.tabs.addTab(canvas, name)
+        self.table = QTableWidget(len(ROWS), len(COLUMNS))
+        self.table.setHorizontalHeaderLabels(list(COLUMNS))
+        self.table.setVerticalHeaderLabels([label for _, label, _ in ROWS])
+        for i, row in enumerate(comparison_rows(pv, system)):
+            for j, text in enumerate(row):
+                item = QTableWidgetItem(text)
+                item.setFlags(Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable)
+                item.setTextAlignment(Qt.AlignmentFlag.AlignRight
+                                      | Qt.AlignmentFlag.AlignVCenter)
+                self.table.setItem(i, j, item)
+        self.table.resizeColumnsToContents()
+        crush = (f"contact capped at {units.fmt(v.crushing_force, 'force', system)} by "
+                 f"crushing (crushed {units.fmt(v.crush, 'small_length', system)} in the "
+                 "time history)" if v.crushing_force < float("inf") else
+                 "elastic contact (no crushing cap)")
+        notes = QLabel(html.escape(
+            f"r = M/mₑ {v.mass_ratio:.3g}, κ = f_c/f_s {v.compliance_ratio:.3g}; {crush}; "
+            f"{v.modes} modes in time, time step {v.time_step * 1e3:.3g} ms"
+            + ("; a rigid contact was given a small compliance (stated assumption)"
+               if v.contact_assumed else "")
+            + ". The verdict uses the larger of the energy method and the time-history "
+            "bounds (dynamic amplification); a ratio 'verdict ÷ history' of 1 or more "
+            "means the verdict covers this time history."))
+        notes.setWordWrap(True)
+        self.caution = QLabel(html.escape(CAUTION))
+        self.caution.setWordWrap(True)
+        self.caution.setStyleSheet("color:#7a4a00")
+        side = QVBoxLayout()
+        side.addWidget(self.table)
+        side.addWidget(notes)
+        side.addStretch(1)
+        body = QHBoxLayout()
+        body.addWidget(self.tabs, 3)
+        side_w = QWidget()
+        side_w.setLayout(side)
+        body.addWidget(side_w, 2)
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
+        buttons.rejected.connect(self.reject)
+        lay = QVBoxLayout(self)
+        lay.addWidget(head)
+        lay.addLayout(body, 1)
+        lay.addWidget(self.caution)
+        lay.addWidget(buttons)
+        self.resize(1100, 560)

@@ -1,0 +1,91 @@
+"""The trace panel's "Verify by time history…" action, offscreen.
+
+No engineering value is asserted against a published source here (the dialog
+computes nothing — common practice, no source): the numbers it shows must be those of
+droprig.solver.verify_point for the traced point (itself tested against Blevins 1979
+Table 8-1 and Gere 7th ed. §9.10 in tests/solver/test_timehistory.py and
+test_amplification_capped.py), with the three plots and the caution. The demo
+project is an invented scenario used as input only.
+"""
+
+from __future__ import annotations
+
+import pytest
+from PySide6.QtWidgets import QMessageBox
+
+from droprig import units
+from droprig.commands.demo import demo_dir
+from droprig.gui.verify_dialog import ROWS, VerifyDialog
+from droprig.texts import CAUTION
+
+pytestmark = pytest.mark.gui
+
+
+def test_verify_action_shows_plots_table_and_caution(open_window, qtbot) -> None:
+    from droprig.solver import analyse, verify_point
+
+    win = open_window()
+    assert win.open_path(demo_dir() / "steel_erection_floor.droprig", ask=False)
+    p = win.doc.project
+    from droprig.model import ModelError
+
+    def verifiable(b) -> bool:  # a governing point off the supports
+        try:
+            verify_point(p, b.zone_id, b.load_name, b.governing_x, b.governing_y)
+        except ModelError:
+            return False
+        return True
+
+    bay = next(b for b in analyse(p).bays if verifiable(b))
+    assert win.show_trace(bay.zone_id, bay.load_name, bay.governing_x, bay.governing_y)
+    panel = win.trace_panel
+    assert panel.verify_button.isEnabled()
+    assert panel.verify_button.text() == "Verify by time history…"
+    panel.verify_button.click()
+    dlg = panel.last_dialog
+    assert isinstance(dlg, VerifyDialog)
+    qtbot.addWidget(dlg)
+    assert dlg.isVisible()
+    assert dlg.tabs.count() == 3  # force-, deflection- and moment-time
+    assert [dlg.tabs.tabText(i) for i in range(3)] == ["Force", "Deflection", "Moment"]
+    ref = verify_point(p, bay.zone_id, bay.load_name, bay.governing_x, bay.governing_y)
+    system = p.settings.unit_system
+    for i, (key, _, q) in enumerate(ROWS):
+        assert dlg.table.item(i, 0).text() == units.fmt(ref.verification.energy[key], q,
+                                                        system)
+        assert dlg.table.item(i, 1).text() == units.fmt(
+            ref.verification.time_history[key], q, system)
+    assert CAUTION in dlg.caution.text().replace("&#x27;", "'")
+    dlg.close()
+
+
+def test_verify_action_off_without_a_trace(qtbot) -> None:
+    from droprig.gui.trace_panel import TracePanel
+
+    panel = TracePanel()
+    qtbot.addWidget(panel)
+    panel.set_project_source(lambda: None)
+    assert not panel.verify_button.isEnabled()
+    assert panel.open_verification() is None
+
+
+def test_a_point_that_cannot_be_verified_gives_a_message(open_window, monkeypatch) -> None:
+    from droprig.solver import analyse
+
+    win = open_window()
+    assert win.open_path(demo_dir() / "steel_erection_floor.droprig", ask=False)
+    bay = analyse(win.doc.project).bays[0]
+    assert win.show_trace(bay.zone_id, bay.load_name, bay.governing_x, bay.governing_y)
+    seen: list[str] = []
+    monkeypatch.setattr(QMessageBox, "warning",
+                        lambda *a, **k: seen.append(str(a[2])))
+    # the point moved off the deck (the trace kept, the project's zone renamed away)
+    import droprig.report.verify_plots as vp
+
+    def fail(*a, **k):
+        from droprig.model import ModelError
+        raise ModelError("verify.point", (0.0, 0.0), "a point over a deck panel")
+
+    monkeypatch.setattr(vp, "point_verification_figures", fail)
+    assert win.trace_panel.open_verification() is None
+    assert seen and "verify.point" in seen[0]
