@@ -22,7 +22,6 @@ from PySide6.QtWidgets import (
     QApplication,
     QDialog,
     QHBoxLayout,
-    QLabel,
     QMessageBox,
     QPushButton,
     QTextBrowser,
@@ -211,8 +210,6 @@ class TracePanel(QWidget):
         self._trace: Trace | None = None
         self._system = "SI"
         self._narrow = False
-        self._title = QLabel("Calculation trace")
-        self._title.setStyleSheet("font-weight:bold")
         self._copy = QPushButton("Copy as text")
         self._copy.setToolTip("Copy the steps, the verdict and the caution to the clipboard")
         self._copy.clicked.connect(self._on_copy)
@@ -229,8 +226,9 @@ class TracePanel(QWidget):
         self.browser.setOpenLinks(False)
         self.browser.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse
                                              | Qt.TextInteractionFlag.TextSelectableByKeyboard)
+        # the dock's own title names the panel: the row holds the two actions only, so
+        # the panel stays narrow enough for a 1280 × 720 screen
         top = QHBoxLayout()
-        top.addWidget(self._title)
         top.addStretch(1)
         top.addWidget(self._verify)
         top.addWidget(self._copy)

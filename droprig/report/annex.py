@@ -1462,8 +1462,22 @@ class _Builder:
         assert len(VERIFICATION_HEADER) == 16
         widths = (0.06, 0.08, 0.16, 0.1, 0.07, 0.07, 0.076, 0.076, 0.076, 0.076, 0.076,
                   0.076)
+        # rows with the same load, member and figures share one row listing their
+        # zones and bays (a tall building repeats its floors: the table grows with
+        # distinct cases, not with levels)
+        where: dict[tuple[str, ...], dict[str, list[str]]] = {}
+        for r in rows:
+            bays_of = where.setdefault(tuple(r[i] for i in keep[2:]), {})
+            ids = bays_of.setdefault(r[0], [])
+            if r[1] not in ids:
+                ids.append(r[1])
         body: list[list[object]] = [[self.P(esc(h), self.st.small) for h in heads]]
-        body += [[self.P(esc(r[i]), self.st.small) for i in keep] for r in rows]
+        for cells, bays_of in where.items():
+            zones = ", ".join(bays_of)
+            bay_text = "; ".join(", ".join(ids) for ids in bays_of.values())
+            body.append([self.P(esc(zones), self.st.small),
+                         self.P(esc(bay_text), self.st.small),
+                         *(self.P(esc(c), self.st.small) for c in cells)])
         self.story.append(_table(body, [f * w for f in widths],
                                  extra=[("ALIGN", (4, 1), (-1, -1), "RIGHT")]))
 
