@@ -40,7 +40,8 @@ def _member_options(s: argparse.ArgumentParser, required: bool = True) -> None:
     s.add_argument("--cushion-stiffness", default=None, help="spring mat stiffness, e.g. 2e6 N/m")
     s.add_argument("--load-stiffness", default=None,
                    help="stiffness of the load's own underside (skid, base frame, dunnage) "
-                   "in series, e.g. 50 kN/mm (default: rigid load, conservative)")
+                   "in series, e.g. 50 kN/mm (default: rigid load, the highest contact "
+                   "force)")
     s.add_argument("--crush-force", default=None, help="crushable layer force, e.g. 50 kN")
     s.add_argument("--crush-stroke", default=None, help="crushable layer stroke, e.g. 50mm")
     s.add_argument("--udl", default=None, help="existing uniform load besides self-weight, "

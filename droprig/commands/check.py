@@ -221,7 +221,7 @@ def _table(args: argparse.Namespace, section: str, grade: str, basis: str, syste
         lines.append(f"spring mat {fmt(k_c, 'stiffness', system)}")
     lines.append("load underside (skid, base frame, dunnage) "
                  + (f"{fmt(k_load, 'stiffness', system)} in series" if k_load is not None
-                    else "rigid (conservative)"))
+                    else "rigid (highest contact force)"))
     if F_c is not None and s_c is not None:
         lines.append(f"crushable layer {fmt(F_c, 'force', system)} over "
                      f"{fmt(s_c, 'small_length', system)}")

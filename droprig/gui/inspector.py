@@ -549,8 +549,10 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                       lambda o, v: replace(o, contact_stiffness=v), quantity="stiffness",
                       tip="Stiffness of the load's own underside where it lands (skid, base "
                           "frame, timber dunnage), in series with the deck. Leave empty to "
-                          "take the load as rigid (highest force, conservative).",
-                      empty="empty = rigid (conservative)"),
+                          "take the load as rigid (the highest contact force; where the deck "
+                          "concrete crushes, a softer underside can raise the framing's "
+                          "demand: enter the real stiffness where it is known).",
+                      empty="empty = rigid (highest contact force)"),
             _mass_source_field(),
             FieldSpec("mode", "Height given as", "choice",
                       lambda o: "drop" if o.drop_height is not None else "hook", set_mode,

@@ -140,7 +140,7 @@ def assess_member(
     m_e·(f_s/f_struct)² (as the floor analysis), reported even where it is not used
     (η = 1 with a cushion or a crushable layer). ``load_stiffness`` (N/m): the load's
     own underside (skid, base frame, dunnage) in series with the member; ``None`` =
-    rigid (conservative); it does not change η. ``deflection_limit_ratio`` is
+    rigid (the highest contact force); it does not change η. ``deflection_limit_ratio`` is
     validated but never changes the verdict (deflection is information only; the
     edges compare ``max_deflection`` with span/N themselves). Raises
     :class:`~droprig.model.ModelError` naming the argument for inputs outside range.

@@ -212,7 +212,8 @@ def _path_steps(sheet: _Sheet) -> None:
         "with the end moments of the restrained span (droprig.solver.slab)")
     k_load = load.contact_stiffness
     add("Compliance of the load's underside (skid, base frame, dunnage)"
-        + ("" if k_load is not None else ": none given, load taken as rigid (conservative)"),
+        + ("" if k_load is not None
+           else ": none given, load taken as rigid (highest contact force)"),
         "1/k_load", "1/k_load (0 for a rigid load)",
         {"k_load": (k_load, "stiffness")} if k_load is not None else {},
         inp.f_load[0], "compliance", _SRC_SERIES)

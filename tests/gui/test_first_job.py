@@ -53,7 +53,7 @@ def _framed_zone(window: MainWindow) -> None:
 
 def test_inspector_boxes_show_their_whole_text(qtbot, window: MainWindow) -> None:
     """A narrow inspector moves a box under its label instead of cutting its
-    value ("360.00 deg") or its hint ("empty = rigid (conservative)")."""
+    value ("360.00 deg") or its hint ("empty = rigid (highest contact force)")."""
     _framed_zone(window)
     window.resizeDocks([window.inspector_dock], [300], Qt.Orientation.Horizontal)
     for sel in (window.doc.selection,
