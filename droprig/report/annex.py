@@ -53,6 +53,7 @@ from droprig.solver import (
     TraceStep,
     is_hard,
     member_resistances,
+    pad_crush_stress,
 )
 
 Progress = Callable[[float, str], None]
@@ -657,19 +658,36 @@ def _check_name(k: int) -> str:
     return CHECKS[k].replace("_", " ") if 0 <= k < len(CHECKS) else "none"
 
 
-def pad_spec(p: object, system: str) -> str:
-    """A pad's or mat's specification in words (kind, thickness, stiffness or crush
-    resistance and stroke, extent)."""
+def pad_spec(p: object, system: str, project: Project | None = None) -> str:
+    """A pad's or mat's specification in words, as the analysis reads it (kind,
+    thickness, extent; a crushable layer's crush stress over the pressed area — for an
+    older file its crush force read over the largest load footprint of its level,
+    :func:`droprig.solver.pad_crush_stress` — and stroke; a spring mat's compression
+    modulus, or the stiffness given for the load's footprint)."""
     a = p.area  # type: ignore[attr-defined]
     ext = (f"{fmt_value(a.x1 - a.x0, 'length', system)} × "  # type: ignore[arg-type]
            f"{fmt_value(a.y1 - a.y0, 'length', system)}")  # type: ignore[arg-type]
     th = fmt_value(p.thickness, "length", system)  # type: ignore[attr-defined,arg-type]
     if p.kind == "crushable":  # type: ignore[attr-defined]
-        area = (a.x1 - a.x0) * (a.y1 - a.y0)
-        return (f"crushable, {th} thick, {ext}; crush force "
-                f"{fmt_sig(p.crush_force, 'force', system, 3)}"  # type: ignore[attr-defined,arg-type]
-                f" ({fmt_sig(p.crush_force / area, 'pressure', system, 3)}),"  # type: ignore[attr-defined,arg-type]
-                f" stroke {fmt_sig(p.crush_stroke, 'length', system, 3)}")  # type: ignore[attr-defined,arg-type]
+        stroke = fmt_sig(p.crush_stroke, "length", system, 3)  # type: ignore[attr-defined,arg-type]
+        given = p.crush_stress  # type: ignore[attr-defined]
+        if given is not None:
+            crush = (f"crush stress {fmt_sig(given, 'pressure', system, 3)} over the "
+                     "pressed area")
+        else:
+            force = fmt_sig(p.crush_force, "force", system, 3)  # type: ignore[attr-defined,arg-type]
+            if project is not None:
+                sigma = pad_crush_stress(project, p)
+                crush = (f"crush force {force} read as a crush stress of "
+                         f"{fmt_sig(sigma, 'pressure', system, 3)} over the pressed area "
+                         "(the force over the largest load footprint on its level)")
+            else:
+                crush = f"crush force {force} (for the largest load footprint on its level)"
+        return f"crushable, {th} thick, {ext}; {crush}, stroke {stroke}"
+    if p.modulus is not None:  # type: ignore[attr-defined]
+        return (f"spring mat, {th} thick, {ext}; compression modulus "
+                f"{fmt_sig(p.modulus, 'pressure', system, 3)}"  # type: ignore[attr-defined,arg-type]
+                " (stiffness = modulus × pressed area ÷ thickness)")
     return (f"spring mat, {th} thick, {ext}; stiffness "
             f"{fmt_sig(p.stiffness, 'stiffness', system, 3)}")  # type: ignore[attr-defined,arg-type]
 
@@ -965,7 +983,7 @@ class _Builder:
             self.story.append(self.P(" ".join(desc), self.st.small))
             self.story.append(Spacer(1, 3))
             outcomes = content.bay_outcomes(self.r, level, self.zones)
-            specs = {p.id: pad_spec(p, self.sys) for p in prot}
+            specs = {p.id: pad_spec(p, self.sys, self.p) for p in prot}
             self.story.append(plan_drawing(level, zones, prot, outcomes, self.sys, self.w,
                                            self.h - 95, marks=marks, pad_specs=specs))
 
@@ -1167,7 +1185,7 @@ class _Builder:
                 rows.append([p.id, self.P(esc(p.name)), p.level_id,
                              f"{self.v(a.x0, 'length')} – {self.v(a.x1, 'length')}",
                              f"{self.v(a.y0, 'length')} – {self.v(a.y1, 'length')}",
-                             self.P(esc(pad_spec(p, self.sys)))])
+                             self.P(esc(pad_spec(p, self.sys, self.p)))])
             self.story.append(_table(rows, [0.07 * w, 0.2 * w, 0.07 * w, 0.14 * w, 0.14 * w,
                                             0.38 * w]))
         else:
@@ -1386,7 +1404,7 @@ class _Builder:
             prot = int(c.protection[i])
             parts.append("struck surface: bare deck" if prot < 0 else
                          f"struck surface: pad {self.p.protection_areas[prot].id} "
-                         f"({pad_spec(self.p.protection_areas[prot], self.sys)})")
+                         f"({pad_spec(self.p.protection_areas[prot], self.sys, self.p)})")
             gm = int(c.governing_member[i])
             if gm != DECK and 0 <= gm < len(level.members):
                 m = level.members[gm]

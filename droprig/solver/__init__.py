@@ -22,7 +22,7 @@ names from ``droprig.solver`` and nothing from its modules
 from droprig.solver.analysis import analyse, floor_model
 from droprig.solver.cancel import AnalysisCancelledError, CancelToken, cancellable
 from droprig.solver.cascade import level_below
-from droprig.solver.chain import planned_height
+from droprig.solver.chain import pad_crush_stress, planned_height
 from droprig.solver.drift import resolve_drift, zone_drift_margin
 from droprig.solver.framing import (
     Resistances,
@@ -95,6 +95,7 @@ __all__ = [
     "level_below",
     "member_resistances",
     "on_rigid_support",
+    "pad_crush_stress",
     "planned_height",
     "resolve_drift",
     "trace_point",

@@ -686,3 +686,17 @@ def test_verification_appendix_covers_the_time_history(built: Annex) -> None:
             if cell not in ("none", "inf"):
                 # with amplification on, the verdict covers the time history
                 assert float(cell) >= 1.0, (r[:4], r[13:])
+
+
+def test_pad_spec_states_the_crush_stress_the_analysis_uses() -> None:
+    # The rooftop demo's pads come from an older file: a crush force of 90 kN, which the
+    # analysis reads as a stress over the largest load footprint of the level
+    # (AHU-3, 3.0 m × 2.0 m = 6.0 m²): 90 kN / 6 m² = 15.0 kPa by hand. The annex must
+    # print that stress, not the force over the pad's own area (1.34 kPa on MAT2).
+    from droprig.io.project_file import load_project
+
+    p = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    mat = next(pa for pa in p.protection_areas if pa.kind == "crushable")
+    assert mat.crush_stress is None and mat.crush_force == pytest.approx(90e3)
+    text = annex.pad_spec(mat, "SI", p)
+    assert "15.0 kPa" in text and "1.34 kPa" not in text, text
