@@ -658,6 +658,22 @@ def _check_name(k: int) -> str:
     return CHECKS[k].replace("_", " ") if 0 <= k < len(CHECKS) else "none"
 
 
+def pad_label(p: object, system: str, project: Project) -> str:
+    """A pad's specification short enough for its label on the conditions plan: kind,
+    thickness, the crush stress the analysis uses and the stroke, or the mat's
+    modulus / stiffness (the full wording is in :func:`pad_spec`, inputs section)."""
+    th = fmt_value(p.thickness, "length", system)  # type: ignore[attr-defined,arg-type]
+    if p.kind == "crushable":  # type: ignore[attr-defined]
+        return (f"crushable, {th} thick; crushes at "
+                f"{fmt_sig(pad_crush_stress(project, p), 'pressure', system, 3)}, stroke "
+                f"{fmt_sig(p.crush_stroke, 'length', system, 3)}")  # type: ignore[attr-defined,arg-type]
+    if p.modulus is not None:  # type: ignore[attr-defined]
+        return (f"spring mat, {th} thick; modulus "
+                f"{fmt_sig(p.modulus, 'pressure', system, 3)}")  # type: ignore[attr-defined,arg-type]
+    return (f"spring mat, {th} thick; stiffness "
+            f"{fmt_sig(p.stiffness, 'stiffness', system, 3)}")  # type: ignore[attr-defined,arg-type]
+
+
 def pad_spec(p: object, system: str, project: Project | None = None) -> str:
     """A pad's or mat's specification in words, as the analysis reads it (kind,
     thickness, extent; a crushable layer's crush stress over the pressed area — for an
@@ -983,7 +999,7 @@ class _Builder:
             self.story.append(self.P(" ".join(desc), self.st.small))
             self.story.append(Spacer(1, 3))
             outcomes = content.bay_outcomes(self.r, level, self.zones)
-            specs = {p.id: pad_spec(p, self.sys, self.p) for p in prot}
+            specs = {p.id: pad_label(p, self.sys, self.p) for p in prot}
             self.story.append(plan_drawing(level, zones, prot, outcomes, self.sys, self.w,
                                            self.h - 95, marks=marks, pad_specs=specs))
 
