@@ -1627,6 +1627,16 @@ def _lower(a: np.ndarray, b: np.ndarray) -> np.ndarray:
     return (np.isnan(b) & ~np.isnan(a)) | (b < a)
 
 
+def tilted_governs(flat: dict[str, np.ndarray], tilted: dict[str, np.ndarray]
+                   ) -> np.ndarray:
+    """Per point, whether the tilted landing governs: the worse response, then the
+    larger utilisation (NaN below every number)."""
+    Uf = np.where(np.isnan(flat["utilisation"]), -np.inf, flat["utilisation"])
+    Ut = np.where(np.isnan(tilted["utilisation"]), -np.inf, tilted["utilisation"])
+    rf, rt = flat["response"], tilted["response"]
+    return np.asarray((rt > rf) | ((rt == rf) & (Ut > Uf)))
+
+
 def merge_landings(flat: dict[str, np.ndarray], tilted: dict[str, np.ndarray]
                    ) -> dict[str, np.ndarray]:
     """The outputs of a point checked for both landings, the worse governing: the
@@ -1636,10 +1646,7 @@ def merge_landings(flat: dict[str, np.ndarray], tilted: dict[str, np.ndarray]
     stiffest mat that works the less, the crush stroke needed the larger (NaN — none
     exists — wins). Everything else is the same for both landings."""
     out = dict(flat)
-    Uf = np.where(np.isnan(flat["utilisation"]), -np.inf, flat["utilisation"])
-    Ut = np.where(np.isnan(tilted["utilisation"]), -np.inf, tilted["utilisation"])
-    rf, rt = flat["response"], tilted["response"]
-    gov = (rt > rf) | ((rt == rf) & (Ut > Uf))
+    gov = tilted_governs(flat, tilted)
     for k in _BY_RESPONSE:
         out[k] = np.where(gov, tilted[k], flat[k])
     low = _lower(flat["allowable_drop_height"], tilted["allowable_drop_height"])

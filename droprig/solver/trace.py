@@ -37,6 +37,7 @@ from droprig.solver.chain import (
     StruckMass,
     outputs,
     slab_rotation_limit,
+    tilted_governs,
 )
 from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import evaluate_chain
@@ -115,10 +116,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
               for k in (LANDINGS if project.settings.tilted_landing else ("flat",))}
     o_f = outputs(chains["flat"])
     o_t = outputs(chains["tilted"]) if "tilted" in chains else o_f
-    u_f, u_t = float(np.nan_to_num(o_f["utilisation"][0], nan=-1.0)), \
-        float(np.nan_to_num(o_t["utilisation"][0], nan=-1.0))
-    r_f, r_t = int(o_f["response"][0]), int(o_t["response"][0])
-    landing = "tilted" if (r_t > r_f or (r_t == r_f and u_t > u_f)) else "flat"
+    landing = "tilted" if bool(tilted_governs(o_f, o_t)[0]) else "flat"
     chain = chains[landing]
     sheet = _Sheet(project, fm, geo, load, chain)
     add = sheet.add
