@@ -395,6 +395,35 @@ MIN_CONTACT_SIDE = 1e-3
 an opening or off the deck still bears on a sliver; keeps the contact checks finite)."""
 
 
+def hoist_head(v_hoist: float) -> float:
+    """The height a free fall would need to reach the hoist's lowering speed v_h
+    (m/s): v_h²/(2g), m (uniform acceleration; 4.6 mm at 0.3 m/s). A load let go
+    while lowering strikes at V = √(v_h² + 2gh) and brings ½·M·V² = M·g·(h + v_h²/2g)
+    of kinetic energy: every energy balance of the chain (impact, beyond yield,
+    amplification bounds, inverse answers) uses the fall ``h`` plus this head, the
+    same strike speed as the local-damage step."""
+    return float(v_hoist) ** 2 / (2.0 * impact_mod.G)
+
+
+def energy_fall(c: Chain, h: np.ndarray) -> np.ndarray:
+    """The free falls ``h`` (m) plus the hoist's head :func:`hoist_head` of the drop:
+    the height whose free fall from rest gives the strike speed √(v_h² + 2gh), m."""
+    head = hoist_head(c.drop.v_hoist)
+    return h + head if head > 0.0 else h
+
+
+def fall_from_energy(c: Chain, h_e: np.ndarray) -> np.ndarray:
+    """An allowable energy height h_e (m) as the allowable free fall: h_e − v_h²/(2g)
+    (:func:`hoist_head`); where that is below 0 the lowering speed alone brings more
+    energy than allowed and no fall is allowed (NaN)."""
+    head = hoist_head(c.drop.v_hoist)
+    if head <= 0.0:
+        return h_e
+    with np.errstate(invalid="ignore"):
+        out = h_e - head
+        return np.where(np.isfinite(out) & (out >= 0.0), out, np.nan)
+
+
 def planned_height(load: LiftLoad, level: Level) -> float:
     """The load's planned drop height H (m) on droprig's one datum: its underside
     above the finished surface (top of deck) of ``level``. Given directly
@@ -600,7 +629,8 @@ def impact(c: Chain) -> Impact:
 def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
     """:func:`impact` for the free falls ``h`` (m; ``None``: the planned ones)."""
     d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
-    h = inp.h if h is None else h
+    # the energy height: the fall plus the hoist's lowering speed head (hoist_head)
+    h = energy_fall(c, inp.h if h is None else h)
     n = d.n
     W, crushable = inp.W, inp.crushable
     K, F_el, d_max = impact_mod.impact_elastic(W, h, comp.f, sm.eta)
@@ -779,7 +809,8 @@ def dynamic_amplification(c: Chain) -> DynamicAmplification:
 
 
 def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplification:
-    """:func:`dynamic_amplification` for the free falls ``h`` (m) and their impact."""
+    """:func:`dynamic_amplification` for the free falls ``h`` (m) and their impact
+    (the energy bounds at the fall plus the hoist's head, :func:`energy_fall`)."""
     d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
     if not d.fm.settings.dynamic_amplification:
         one = np.ones(d.n)
@@ -793,6 +824,7 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplificati
                                     set_by=dict.fromkeys(("local", "moment", "shear",
                                                           "deflection"),
                                                          np.zeros(d.n, int)))
+    h = energy_fall(c, h)
     m_path = d.geo.path.m_e
     m_path = np.where(np.isfinite(m_path) & (m_path > 0.0), m_path, 0.0)
     crushable = inp.crushable
@@ -1169,7 +1201,8 @@ def beyond_yield(c: Chain) -> BeyondYield:
     d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
     ua, ck, sr = c[Demands].actions, c[Checks], c[SlabResistance]
     s, n = d.fm.settings, d.n
-    W, h, F_c, s_c, eta = inp.W, inp.h, inp.F_c, inp.s_c, sm.eta
+    W, F_c, s_c, eta = inp.W, inp.F_c, inp.s_c, sm.eta
+    h = energy_fall(c, inp.h)  # with the hoist's lowering speed head
     R_p, f_s, f = sr.R, comp.f_s, comp.f
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
     h_struct = h.copy()
@@ -1342,6 +1375,8 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     cover = dk.thickness if dk.is_steel else dk.cover  # as the impact step's depth
     h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow), imp.F_crush,
                              np.full(d.n, cover), W, eta)
+    # the energy heights above as free falls: less the hoist's lowering speed head
+    h_el = fall_from_energy(c, h_el)
     if s.dynamic_amplification:
         h_el = confirm_amplified_height(c, h_el)
     # plastic: ductility and rotation limits, brittle checks at R_p
@@ -1360,7 +1395,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     h_pl = with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
     # the drop height that gives the structure that energy after amplification (A_δ²)
-    h_pl = h_pl / c[DynamicAmplification].A_deflection ** 2
+    h_pl = fall_from_energy(c, h_pl / c[DynamicAmplification].A_deflection ** 2)
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
@@ -1372,23 +1407,25 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     hp_check = np.where(sr.slab_first, CHECK["rotation"], hp_check)
     hp_check = np.where(np.isnan(h_pl) | (h_el >= h_pl), -1, hp_check)
     h_pl = np.fmax(h_pl, h_el)
-    m_allow = limits.allowable_mass(Fa_pos, inp.h, f, sm.m_e)
+    h_e = energy_fall(c, inp.h)
+    m_allow = limits.allowable_mass(Fa_pos, h_e, f, sm.m_e)
     capped = ~crushable & (imp.F_crush < F_allow) & np.isfinite(m_allow)
     if capped.any():
         m_allow[capped] = _mass_through_crushing(
-            Fa_pos[capped], inp.h[capped], f[capped], sm.m_e[capped], imp.F_crush[capped],
+            Fa_pos[capped], h_e[capped], f[capped], sm.m_e[capped], imp.F_crush[capped],
             cover, m_allow[capped])
     if crushable.any():
         # through the crushable layer that lies there (η = 1 under a layer)
         m_allow[crushable] = limits.allowable_mass_crushable(
-            Fa_pos[crushable], inp.h[crushable], comp.f_struct[crushable], F_c[crushable],
+            Fa_pos[crushable], h_e[crushable], comp.f_struct[crushable], F_c[crushable],
             s_c[crushable])
     # a mat laid on the finished surface over the point: the fall is the datum height
     # H, and the framing's mass share is not taken (η = 1, as the forward model does
     # under protection); inf where the structure alone suffices
-    k_req = limits.required_mat_stiffness(W, inp.H, 1.0, Fa_pos, comp.f_struct)
+    H_e = energy_fall(c, inp.H)
+    k_req = limits.required_mat_stiffness(W, H_e, 1.0, Fa_pos, comp.f_struct)
     k_req = np.where(np.isnan(Fa_pos), np.nan, k_req)
-    s_req = limits.required_crush_stroke(W, inp.H, 1.0, Fa_pos, comp.f_struct)
+    s_req = limits.required_crush_stroke(W, H_e, 1.0, Fa_pos, comp.f_struct)
     s_req = np.where(np.isfinite(s_req), s_req, np.nan)
     # the check that sets the allowable height: the least allowed force
     chk = c[Demands].checks

@@ -35,6 +35,7 @@ from droprig.solver.chain import (
     LocalDamage,
     SlabResistance,
     StruckMass,
+    energy_fall,
     outputs,
     slab_rotation_limit,
     tilted_governs,
@@ -239,11 +240,19 @@ def _impact_steps(sheet: _Sheet) -> None:
         {"H": (inp.H[0], "length"), "t_mat": (inp.t_mat[0], "length")}, inp.h[0],
         "length", "load data (droprig.solver.chain.planned_height)")
     W = load.weight
+    v_h = sheet.chain.drop.v_hoist
+    h_e = float(energy_fall(sheet.chain, inp.h[:1])[0])
+    if v_h > 0.0:
+        add("Energy height: the fall plus the head of the hoist's lowering speed (the "
+            "load strikes at V = √(v_h² + 2gh))", "h_e", "h_e = h + v_h²/(2g)",
+            {"h": (inp.h[0], "length"), "v_h": (v_h, "speed")}, h_e, "length",
+            "uniform acceleration (any dynamics text); kinetic energy ½·M·V²")
     add("Static deflection", "δ_st", "δ_st = W·f",
         {"W": (W, "force"), "f": (comp.f[0], "compliance")}, imp.d_st[0],
         "length", _SRC_GERE)
-    add("Dynamic factor", "K", "K = 1 + √(1 + 2ηh/δ_st)" if inp.f_mat[0] >= 0 else "",
-        {"η": (sm.eta[0], "dimensionless"), "h": (inp.h[0], "length"),
+    hk = "h_e" if v_h > 0.0 else "h"
+    add("Dynamic factor", "K", f"K = 1 + √(1 + 2η{hk}/δ_st)" if inp.f_mat[0] >= 0 else "",
+        {"η": (sm.eta[0], "dimensionless"), hk: (h_e, "length"),
          "δ_st": (imp.d_st[0], "length")}, imp.K[0],
         "dimensionless", _SRC_GERE)
     add("Peak impact force", "F", "F = K·W" if imp.crush[0] == 0 else
