@@ -17,7 +17,8 @@ and carry ``from memory`` in their docstring):
   (ACE), e/d = 1.32 + 1.24·x/d for 3 ≤ e/d ≤ 18, as quoted in DOE-STD-3014
   Appendix C.
 * **Degen's perforation relation** (Degen 1980, *Nucl. Eng. Des.* 58) on the
-  NDRC penetration depth, as quoted in DOE-STD-3014 Appendix C, Eqs. C-613/C-614.
+  NDRC penetration depth, as quoted in DOE-STD-3014 Appendix C, Eqs. C-613/C-614
+  — a family of its own in the verdict (the most onerous family governs).
 * **UKAEA penetration** (Barr 1990, UKAEA/R3 impact assessment procedure;
   Li et al. 2005.1 — from memory) and the **Barr (UKAEA, CEA-EDF extended)
   ballistic limit** of a reinforced slab (Li et al. 2005 — from memory).
@@ -57,6 +58,7 @@ __all__ = [
     "NDRC_KENNEDY",
     "NOSE_FACTOR",
     "ORIENTATIONS",
+    "PERFORATION_FAMILIES",
     "PERFORATION_MARGIN",
     "PLATE_PERFORATION_MARGIN",
     "SCABBING_MARGIN",
@@ -76,12 +78,15 @@ __all__ = [
     "check_load_on_grating",
     "concrete_local_damage",
     "degen_perforation_thickness",
+    "degen_perforation_velocity",
     "drop_height_for_speed",
     "equivalent_diameter",
+    "family_ballistic_limits",
     "impact_speed",
     "is_hard",
     "kennedy_perforation_thickness",
     "kennedy_scabbing_thickness",
+    "load_family_heights",
     "load_local_damage",
     "ndrc_G",
     "ndrc_penetration",
@@ -315,6 +320,15 @@ def _x_over_d_for_perforation(e_over_d: np.ndarray) -> np.ndarray:
     return np.where(e_over_d <= 3.19 * 1.35 - 0.718 * 1.35**2, quad, lin)
 
 
+def _x_over_d_for_degen(e_over_d: np.ndarray) -> np.ndarray:
+    # inverse of degen_perforation_thickness (the quadratic branch's smaller root up to
+    # x/d = 1.52, e/d = 2.2·1.52 − 0.3·1.52² = 2.6509)
+    disc = np.maximum(2.2**2 - 4.0 * 0.3 * e_over_d, 0.0)
+    quad = (2.2 - np.sqrt(disc)) / (2.0 * 0.3)
+    lin = (e_over_d - 0.69) / 1.29
+    return np.where(e_over_d <= 2.2 * 1.52 - 0.3 * 1.52**2, quad, lin)
+
+
 def _ndrc_speed_for_x(x_over_d: np.ndarray, M: np.ndarray, d: np.ndarray,
                       fc: np.ndarray, N: np.ndarray) -> np.ndarray:
     Gv = np.where(x_over_d <= 2.0, (x_over_d / 2.0) ** 2, x_over_d - 1.0)
@@ -337,6 +351,16 @@ def ndrc_perforation_velocity(M: ArrayLike, d: ArrayLike, t: ArrayLike, fc: Arra
     (:func:`kennedy_perforation_thickness` inverted, then :func:`ndrc_G`)."""
     M, d, t, fc, N = _arr(M, d, t, fc, N)
     return _ndrc_speed_for_x(_x_over_d_for_perforation(t / d), M, d, fc, N)
+
+
+def degen_perforation_velocity(M: ArrayLike, d: ArrayLike, t: ArrayLike, fc: ArrayLike,
+                               N: ArrayLike = 0.72) -> np.ndarray:
+    """Ballistic limit of a slab of thickness t (m) by Degen's relation on the modified
+    NDRC penetration, m/s: the strike speed whose Degen perforation thickness
+    (:func:`degen_perforation_thickness`, DOE-STD-3014 App. C Eqs. C-613/C-614)
+    equals t, through :func:`ndrc_G` inverted."""
+    M, d, t, fc, N = _arr(M, d, t, fc, N)
+    return _ndrc_speed_for_x(_x_over_d_for_degen(t / d), M, d, fc, N)
 
 
 # --- UKAEA / Barr ----------------------------------------------------------------
@@ -475,13 +499,16 @@ def concrete_local_damage(M: ArrayLike, d: ArrayLike, perimeter: ArrayLike,
     of three independent families at each point:
 
     1. modified NDRC penetration with Kennedy's scabbing and perforation relations;
-    2. UKAEA penetration with Barr's ballistic limit (no scabbing relation: it
-       takes the scabbing speed of family 3);
-    3. Chang's scabbing and perforation thicknesses.
+    2. Degen's perforation relation on the same NDRC penetration (DOE-STD-3014
+       App. C, Eqs. C-613/C-614);
+    3. UKAEA penetration with Barr's ballistic limit (no scabbing relation: it
+       takes the scabbing speed of family 4);
+    4. Chang's scabbing and perforation thicknesses.
 
-    Scabbing starts at the lowest scabbing speed of families 1 and 3, perforation
-    at the lowest ballistic limit of the three; the penetration is the deepest of
-    families 1 and 2, capped at t. Heights: h = (V² − v0²)/(2g) with v0 the
+    Scabbing starts at the lowest scabbing speed of families 1 and 4, perforation
+    at the lowest ballistic limit of the four (the most onerous family governs;
+    :func:`load_family_heights` gives the spread); the penetration is the deepest
+    of the NDRC and UKAEA penetrations, capped at t. Heights: h = (V² − v0²)/(2g) with v0 the
     downward speed at release (hoist lowering). Units as in the module docstring.
 
     The slab counts against scabbing only with t/1.1 and against perforation only
@@ -510,14 +537,58 @@ def _start_speeds(M: np.ndarray, d: np.ndarray, p: np.ndarray, t: np.ndarray,
                   ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Scabbing speed, ballistic limit (m/s) and the index of the governing family of
     :func:`concrete_local_damage` (the slab's DOE margins applied)."""
-    ts, tp = t / SCABBING_MARGIN, t / PERFORATION_MARGIN
+    ts = t / SCABBING_MARGIN
     v_scab = np.minimum(ndrc_scabbing_velocity(M, d, ts, fc, N),
                         chang_scabbing_velocity(M, d, ts, fc))
-    v_perf_all = np.stack([ndrc_perforation_velocity(M, d, tp, fc, N),
-                           barr_ballistic_limit(M, p, tp, fc, rho, r),
-                           chang_perforation_velocity(M, d, tp, fc)])
+    v_perf_all = family_ballistic_limits(M, d, p, t, fc, rho, r, N)
     v_bl = np.min(v_perf_all, axis=0)
     return np.minimum(v_scab, v_bl), v_bl, np.argmin(v_perf_all, axis=0)  # perforated ⇒ scabbed
+
+
+PERFORATION_FAMILIES: tuple[str, ...] = ("modified NDRC + Kennedy", "Degen",
+                                         "UKAEA / Barr", "Chang")
+"""The independent perforation families of :func:`concrete_local_damage`, in the
+order of :func:`family_ballistic_limits`; the most onerous (lowest ballistic limit)
+governs the verdict at every point."""
+
+
+def family_ballistic_limits(M: ArrayLike, d: ArrayLike, p: ArrayLike, t: ArrayLike,
+                            fc: ArrayLike, rho: ArrayLike, r: ArrayLike,
+                            N: ArrayLike = 0.72) -> np.ndarray:
+    """Ballistic limit of the slab t (m) by each of :data:`PERFORATION_FAMILIES`, m/s,
+    stacked on a first axis: modified NDRC + Kennedy/ACE
+    (:func:`ndrc_perforation_velocity`), Degen on the NDRC penetration
+    (:func:`degen_perforation_velocity`), Barr (:func:`barr_ballistic_limit`) and
+    Chang (:func:`chang_perforation_velocity`), each on t/1.2 (DOE-STD-3014 App. C,
+    ``PERFORATION_MARGIN``). Their spread is the scatter between published fits;
+    the verdict takes the lowest."""
+    M, d, p, t, fc, rho, r, N = _arr(M, d, p, t, fc, rho, r, N)
+    tp = t / PERFORATION_MARGIN
+    return np.stack([ndrc_perforation_velocity(M, d, tp, fc, N),
+                     degen_perforation_velocity(M, d, tp, fc, N),
+                     barr_ballistic_limit(M, p, tp, fc, rho, r),
+                     chang_perforation_velocity(M, d, tp, fc)])
+
+
+def load_family_heights(load: LiftLoad, deck: Deck, v0: float = 0.0
+                        ) -> dict[str, dict[str, float]]:
+    """The free-fall height (m, from the downward speed v0 m/s) at which each of
+    :data:`PERFORATION_FAMILIES` has ``load`` perforate the concrete ``deck``, per
+    strike orientation: ``{orientation: {family: height}}`` — the spread between the
+    families, for the calculation trace and the annex (the verdict takes the
+    lowest). Empty for a steel deck (one formula, BRL)."""
+    if deck.is_steel:
+        return {}
+    out: dict[str, dict[str, float]] = {}
+    for o in load.strike_orientations:
+        d, p, n = strike_geometry(o, load.footprint_length, load.footprint_width,
+                                  load.edge_width)
+        v = family_ballistic_limits(load.mass, d, p, deck.thickness, deck.concrete.fc,
+                                    deck.concrete.density, slab_reinforcement_percent(deck),
+                                    n)
+        h = drop_height_for_speed(np.maximum(v, v0), v0)
+        out[o] = {f: float(h[i]) for i, f in enumerate(PERFORATION_FAMILIES)}
+    return out
 
 
 def _damage(x: np.ndarray, v: np.ndarray, v0: ArrayLike, v_scab: ArrayLike,
@@ -530,15 +601,15 @@ def _damage(x: np.ndarray, v: np.ndarray, v0: ArrayLike, v_scab: ArrayLike,
     v0 = np.broadcast_to(np.asarray(v0, float), x.shape)
     perforation = v >= v_bl
     scabbing = v >= v_scab
-    extrapolated = (NDRC_KENNEDY.extrapolated(v) | UKAEA_BARR.extrapolated(v)
-                    | CHANG.extrapolated(v))
+    extrapolated = (NDRC_KENNEDY.extrapolated(v) | DEGEN.extrapolated(v)
+                    | UKAEA_BARR.extrapolated(v) | CHANG.extrapolated(v))
     return ConcreteDamage(
         penetration=x, scabbing=scabbing, perforation=perforation,
         h_scabbing=drop_height_for_speed(np.maximum(v_scab, v0), v0),
         h_perforation=drop_height_for_speed(np.maximum(v_bl, v0), v0),
         v_ballistic=v_bl, v_residual=residual_velocity(v, v_bl),
         extrapolated=extrapolated, governing_family=gov,
-        families=(NDRC_KENNEDY.name, UKAEA_BARR.name, CHANG.name))
+        families=PERFORATION_FAMILIES)
 
 
 # --- steel plate -----------------------------------------------------------------

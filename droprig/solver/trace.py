@@ -19,7 +19,7 @@ import math
 import numpy as np
 
 from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
-from droprig.solver import amplification, droppoints, limits
+from droprig.solver import amplification, droppoints, limits, local_damage
 from droprig.solver.chain import (
     BRITTLE,
     LANDINGS,
@@ -448,6 +448,18 @@ def _plate_damage_steps(sheet: _Sheet) -> None:
         ld.h_perf[0], "length", src)
 
 
+_FAMILY_ROWS: tuple[tuple[str, str], ...] = (
+    ("h_p,NDRC", "t/1.2 = e: e/d = 3.19·x/d − 0.718·(x/d)² or 1.32 + 1.24·x/d"),
+    ("h_p,Degen", "t/1.2 = e: e/d = 2.2·x/d − 0.3·(x/d)² or 0.69 + 1.29·x/d"),
+    ("h_p,Barr", "V_p = 1.3·ρ^(1/6)·f_c^(1/2)·(p·(t/1.2)²/(πM))^(2/3)·(r + 0.3)^(1/2)"),
+    ("h_p,Chang", "t/1.2 = e: e/d = (u/V)^0.25·(M·V²/(d³f_c))^0.5"))
+_FAMILY_SOURCES: dict[str, str] = {
+    "modified NDRC + Kennedy": "DOE-STD-3014 App. C §C.6.3.2.1.2; Kennedy 1976",
+    "Degen": "DOE-STD-3014 App. C Eqs. C-613, C-614 (Degen 1980)",
+    "UKAEA / Barr": "Barr 1990; Li et al. 2005 (from memory)",
+    "Chang": "Chang 1981; Li et al. 2005 (from memory)"}
+
+
 def _local_damage_steps(sheet: _Sheet) -> None:
     """Penetration, scabbing and perforation of the deck by a hard item."""
     add, lv, inp = sheet.add, sheet.level, sheet.inp
@@ -471,6 +483,16 @@ def _local_damage_steps(sheet: _Sheet) -> None:
             "t = 1.1·t_s(V), V = √(v_h² + 2gh) (Kennedy, Chang)",
             {"t": (lv.deck.thickness, "length")},
             ld.h_scab[0], "length", src)
-        add("Drop height at which the load perforates the deck", "h_p",
-            "t = 1.2·t_p(V), V = √(v_h² + 2gh) (Kennedy/ACE, Barr, Chang)",
+        add("Drop height at which the load perforates the deck (the most onerous "
+            "family governs)", "h_p",
+            "t = 1.2·t_p(V), V = √(v_h² + 2gh) (Kennedy/ACE, Degen, Barr, Chang)",
             {"t": (lv.deck.thickness, "length")}, ld.h_perf[0], "length", src)
+        # the spread between the independent families for the governing orientation
+        spread = local_damage.load_family_heights(sheet.load, lv.deck,
+                                                  sheet.chain.drop.v_hoist).get(so, {})
+        for fam, (sym, eq) in zip(local_damage.PERFORATION_FAMILIES, _FAMILY_ROWS, strict=True):
+            if fam in spread:
+                add(f"Perforation height by {fam} ({so} strike; spread between the "
+                    "families, the lowest governs)", sym, eq,
+                    {"t": (lv.deck.thickness, "length")}, spread[fam], "length",
+                    _FAMILY_SOURCES[fam])

@@ -14,8 +14,7 @@ import pytest
 
 from droprig.io.project_file import load_project
 from droprig.solver import analysis, chain
-from droprig.solver.chain import Drop, Impact, InverseAnswers, LoadInputs, LocalDamage
-from droprig.solver.chain import run_chain
+from droprig.solver.chain import Drop, Impact, InverseAnswers, LoadInputs, LocalDamage, run_chain
 
 ROOT = Path(__file__).resolve().parents[2]
 G = 9.80665  # standard gravity, m/s² (CGPM 1901)
