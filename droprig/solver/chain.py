@@ -132,7 +132,8 @@ FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
           "allowable_mass", "plastic_deflection", "ductility", "support_rotation",
           "required_mat_stiffness", "required_crush_stroke", "penetration", "scabbing",
           "scabbing_height", "perforation_height", "residual_velocity",
-          "local_extrapolated", "strike_orientation", "fall_height",
+          "local_extrapolated", "strike_orientation", "dent_depth", "dent_height",
+          "fall_height",
           "structure_compliance", "allowable_height_check", "allowable_height_member",
           "allowable_height_plastic_check")
 """The :class:`~droprig.solver.results.CaseResult` arrays, in order."""
@@ -142,7 +143,8 @@ _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "pe
                     "allowable_drop_height_plastic", "allowable_mass",
                     "plastic_deflection", "ductility", "support_rotation",
                     "required_mat_stiffness", "required_crush_stroke", "penetration",
-                    "scabbing_height", "perforation_height", "residual_velocity")
+                    "scabbing_height", "perforation_height", "residual_velocity",
+                    "dent_depth", "dent_height")
 
 
 # --------------------------------------------------------------------------- the runner
@@ -1491,7 +1493,12 @@ class LocalDamage:
     (bool), ``h_scab`` / ``h_perf`` (free fall at which each starts, m),
     ``v_res`` (m/s after perforation), ``v_strike`` (strike speed √(v_h² + 2gh), m/s),
     ``extrapolated`` (outside the formulas' test speeds) and ``orientation`` (index
-    into ``STRIKE_ORIENTATIONS``, −1 where not assessed); nan / False elsewhere."""
+    into ``STRIKE_ORIENTATIONS``, −1 where not assessed); nan / False elsewhere.
+    On a steel plate deck also the plastic dent: ``dent`` (m, deepest over the
+    orientations), ``h_dent`` (free fall at which the dent reaches
+    :data:`~droprig.solver.local_damage.DENT_LIMIT`, m, lowest over the orientations)
+    and ``dent_valid`` (the membrane estimate within its validity); nan / False
+    elsewhere."""
 
     assessed: np.ndarray
     penetration: np.ndarray
@@ -1503,6 +1510,43 @@ class LocalDamage:
     v_strike: np.ndarray
     extrapolated: np.ndarray
     orientation: np.ndarray
+    dent: np.ndarray
+    h_dent: np.ndarray
+    dent_valid: np.ndarray
+
+
+def plate_dent(c: Chain, load: LiftLoad, sel: np.ndarray
+               ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Dent of a steel plate deck by a hard ``load`` at the points ``sel``: depth (m,
+    deepest over the load's strike orientations), the free fall at which it reaches
+    :data:`~droprig.solver.local_damage.DENT_LIMIT` (m, lowest) and validity (every
+    orientation's estimate valid), by the plate's plastic membrane energy
+    (:func:`~droprig.solver.local_damage.plate_dent_stiffness`, punch radius the
+    equivalent radius of the strike contact, clamped at half the deck strip's span
+    between the beams — common practice, no source) at the energy height of the
+    drop (:func:`energy_fall`)."""
+    d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
+    dk = d.fm.level.deck
+    R = 0.5 * comp.strip_span[sel]
+    h_e = energy_fall(c, inp.h[sel])
+    W_all, h_all, ok_all = [], [], []
+    for o in load.strike_orientations:
+        deq, _p, _n = local_damage_mod.strike_geometry(o, load.footprint_length,
+                                                       load.footprint_width,
+                                                       load.edge_width)
+        a = 0.5 * deq
+        k = local_damage_mod.plate_dent_stiffness(dk.thickness, dk.steel_fy, a, R)
+        W = local_damage_mod.plate_dent_depth(load.mass, h_e, k)
+        W_all.append(W)
+        h_all.append(local_damage_mod.plate_dent_height(load.mass,
+                                                        local_damage_mod.DENT_LIMIT, k,
+                                                        d.v_hoist))
+        ok_all.append(local_damage_mod.plate_dent_valid(W, dk.thickness, a, R))
+    W_s, h_s = np.stack(W_all), np.stack(h_all)
+    # (an orientation whose footprint covers the panel has no dent mode: NaN, left
+    # out; all NaN stays NaN)
+    return (np.fmax.reduce(W_s, axis=0), np.fmin.reduce(h_s, axis=0),
+            np.all(np.stack(ok_all), axis=0))
 
 
 def local_damage(c: Chain) -> LocalDamage:
@@ -1522,7 +1566,8 @@ def local_damage(c: Chain) -> LocalDamage:
            "h_scab": nan.copy(), "h_perf": nan.copy(), "v_res": np.zeros(n),
            "v_strike": nan.copy(),
            "extrapolated": np.zeros(n, dtype=bool),
-           "orientation": np.full(n, -1, dtype=np.int64)}
+           "orientation": np.full(n, -1, dtype=np.int64),
+           "dent": nan.copy(), "h_dent": nan.copy(), "dent_valid": np.zeros(n, dtype=bool)}
     bare = (inp.t_mat <= 0.0) & ~inp.crushable & ~d.geo.opening
     deck_ = d.fm.level.deck
     for j, load in enumerate(d.loads):
@@ -1543,6 +1588,9 @@ def local_damage(c: Chain) -> LocalDamage:
         out["v_strike"][sel] = local_damage_mod.impact_speed(inp.h[sel], d.v_hoist)
         out["extrapolated"][sel] = r.extrapolated
         out["orientation"][sel] = orient[r.governing]
+        if deck_.kind == "steel_plate":
+            out["dent"][sel], out["h_dent"][sel], out["dent_valid"][sel] = \
+                plate_dent(c, load, sel)
     return LocalDamage(**out)
 
 
@@ -1629,6 +1677,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "scabbing_height": ld.h_scab + inp.t_mat, "perforation_height": ld.h_perf + inp.t_mat,
         "residual_velocity": ld.v_res, "local_extrapolated": ld.extrapolated,
         "strike_orientation": ld.orientation,
+        # steel plate decks: the dent and the height (on the datum) of the dent limit
+        "dent_depth": ld.dent, "dent_height": ld.h_dent + inp.t_mat,
     }
     if ld.perforation.any():
         out["response"] = np.where(ld.perforation, PERFORATES, out["response"])

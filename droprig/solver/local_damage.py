@@ -55,6 +55,8 @@ __all__ = [
     "BRL_STEEL",
     "CHANG",
     "DEGEN",
+    "DENT_LIMIT",
+    "DENT_RUPTURE_STRAIN",
     "NDRC_KENNEDY",
     "NOSE_FACTOR",
     "ORIENTATIONS",
@@ -93,6 +95,11 @@ __all__ = [
     "ndrc_perforation_velocity",
     "ndrc_scabbing_velocity",
     "plate_deck_damage",
+    "plate_dent_depth",
+    "plate_dent_height",
+    "plate_dent_stiffness",
+    "plate_dent_strain",
+    "plate_dent_valid",
     "plate_local_damage",
     "residual_velocity",
     "slab_reinforcement_percent",
@@ -669,6 +676,89 @@ def plate_local_damage(M: ArrayLike, d: ArrayLike, v: ArrayLike, t: ArrayLike,
                        h_perforation=drop_height_for_speed(np.maximum(v_bl, v0), v0),
                        v_ballistic=v_bl, v_residual=residual_velocity(v, v_bl),
                        extrapolated=BRL_STEEL.extrapolated(v))
+
+
+# --- steel plate denting -----------------------------------------------------------
+
+DENT_LIMIT = 0.025
+"""Dent depth of a steel plate deck that the permit reports the drop height for, m
+(25 mm: a plate dented deeper is a trip hazard and is replaced — a serviceability
+limit, common practice, no source; the safety limit is perforation, BRL)."""
+
+DENT_RUPTURE_STRAIN = 0.10
+"""Membrane strain beyond which a steel plate indented by a hard object may tear (mild
+steel under a punch, from memory); a dent past it is flagged outside the method's
+validity and perforation (BRL) is the verdict's measure."""
+
+
+def plate_dent_stiffness(t: ArrayLike, fy: ArrayLike, a: ArrayLike, R: ArrayLike
+                         ) -> np.ndarray:
+    """Coefficient k (N/m) of the plastic membrane energy of a steel plate dented by a
+    rigid flat punch, D(W) = k·W², J (W the dent depth, m):
+
+    k = π·f_y·t·(R + a) / (2·(R − a))
+
+    Rigid–perfectly plastic plate, clamped at radius R (m) around a punch of radius a
+    (m), conical mode: the generator of slope β = W/(R − a) stretches by β²/2, the
+    membrane force per width is N_0 = f_y·t, over the annulus π(R² − a²). The
+    kinematic (mode) method of Jones, *Structural Impact* (1989), ch. 7 approximate
+    methods — from memory; bending at the hinge circles is left out (less
+    resistance: a deeper dent, conservative: the bending work is t/W of the
+    membrane work), while the small-slope strain β²/2 reads the stretch
+    √(1 + β²) − 1 high by up to β²/4; the net is conservative where
+    t/W ≥ β²/4, which :func:`plate_dent_valid` requires. t m, f_y Pa. NaN where a ≥ R (the
+    footprint covers the panel: no dent mode, the framing checks govern)."""
+    t, fy, a, R = _arr(t, fy, a, R)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        k = math.pi * fy * t * (R + a) / (2.0 * (R - a))
+    return np.where(R > a, k, np.nan)
+
+
+def plate_dent_depth(M: ArrayLike, h_e: ArrayLike, k: ArrayLike) -> np.ndarray:
+    """Dent depth W (m) of a plate of membrane coefficient k (N/m,
+    :func:`plate_dent_stiffness`) struck by a mass M (kg) after an energy height h_e
+    (m; the fall plus v_h²/2g): the energy balance M·g·(h_e + W) = k·W² solved,
+
+    W = [M·g + √((M·g)² + 4·k·M·g·h_e)] / (2k)
+
+    (the load's weight keeps working through the dent, as in the framing's energy
+    balance, Gere 7th ed. §9.10). Rigid–plastic: valid where the kinetic energy is
+    large against the plate's elastic energy."""
+    M, h_e, k = _arr(M, h_e, k)
+    Mg = M * G
+    return (Mg + np.sqrt(Mg**2 + 4.0 * k * Mg * np.maximum(h_e, 0.0))) / (2.0 * k)
+
+
+def plate_dent_height(M: ArrayLike, W: ArrayLike, k: ArrayLike,
+                      v0: ArrayLike = 0.0) -> np.ndarray:
+    """Free fall (m, from the downward speed v0 m/s) at which the dent reaches W (m):
+    :func:`plate_dent_depth` solved for the energy height, h_e = (k·W² − M·g·W)/(M·g),
+    less v0²/(2g); 0 where the weight alone dents it that deep."""
+    M, W, k, v0 = _arr(M, W, k, v0)
+    Mg = M * G
+    return np.maximum((k * W**2 - Mg * W) / Mg - v0**2 / (2.0 * G), 0.0)
+
+
+def plate_dent_strain(W: ArrayLike, a: ArrayLike, R: ArrayLike) -> np.ndarray:
+    """Membrane strain of the conical dent mode, ε = ½·(W/(R − a))² (small slopes;
+    :func:`plate_dent_stiffness`), dimensionless."""
+    W, a, R = _arr(W, a, R)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return 0.5 * (W / (R - a)) ** 2
+
+
+def plate_dent_valid(W: ArrayLike, t: ArrayLike, a: ArrayLike, R: ArrayLike
+                     ) -> np.ndarray:
+    """Whether the membrane dent estimate is within its validity: the dent at least
+    the plate thickness (membrane action; shallower dents are bending-governed and
+    the membrane-only energy over-predicts them, conservative), the membrane
+    strain at most :data:`DENT_RUPTURE_STRAIN`, and the bending work left out (t/W
+    of the membrane work) at least the small-slope strain's excess (β²/4), so the
+    estimate stays on the deep side: t ≥ W³/(4(R − a)²)."""
+    W, t, a, R = _arr(W, t, a, R)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        net = t >= W**3 / (4.0 * (R - a) ** 2)
+    return (W >= t) & (plate_dent_strain(W, a, R) <= DENT_RUPTURE_STRAIN) & (R > a) & net
 
 
 # --- a load on a deck ------------------------------------------------------------

@@ -446,6 +446,20 @@ def _plate_damage_steps(sheet: _Sheet) -> None:
         "h_p", "t_s = 1.25·e(V), e^1.5 = 0.5·M·V²/(1.4396·10⁹·d^1.5), V = √(v_h² + 2gh)",
         {"t_s": (dk.steel_depth, "small_length"), "M": (inp.M[0], "mass")},
         ld.h_perf[0], "length", src)
+    if dk.kind == "steel_plate" and np.isfinite(ld.dent[0]):
+        src_d = ("Jones, Structural Impact (1989) ch. 7, rigid-plastic mode method, "
+                 "membrane only (from memory); clamped at half the strip span"
+                 + ("" if ld.dent_valid[0] else
+                    "; outside its validity (dent under the plate thickness, or "
+                    "membrane strain over 10 %: the plate may tear, see perforation)"))
+        add("Plastic dent of the plate (deepest strike orientation)", "W",
+            "M·g·(h + v_h²/2g + W) = k·W², k = π·f_y·t·(R + a)/(2(R − a))",
+            {"t": (dk.thickness, "small_length"), "f_y": (dk.steel_fy, "stress"),
+             "M": (inp.M[0], "mass")}, ld.dent[0], "small_length", src_d)
+        add(f"Drop height at which the dent reaches "
+            f"{local_damage.DENT_LIMIT * 1000:.0f} mm (a serviceability limit)", "h_W",
+            "h = (k·W_lim² − M·g·W_lim)/(M·g) − v_h²/2g",
+            {"M": (inp.M[0], "mass")}, ld.h_dent[0], "length", src_d)
 
 
 _FAMILY_ROWS: tuple[tuple[str, str], ...] = (

@@ -24,7 +24,7 @@ import math
 import numpy as np
 import pytest
 
-from droprig.solver import local_damage as L
+from droprig.solver import local_damage as ldm
 
 INCH = 0.0254  # m, exact (NIST SP 811 App. B.8)
 LB = 0.45359237  # kg, exact (NIST SP 811 App. B.8)
@@ -42,22 +42,22 @@ PSI = 6894.757  # Pa (NIST SP 811 App. B.8)
 ])
 def test_scabbing_thickness_is_doe_3014_c65_c66(x_over_d, ts_over_d):
     d = 0.2
-    assert L.kennedy_scabbing_thickness(x_over_d * d, d) == pytest.approx(ts_over_d * d,
+    assert ldm.kennedy_scabbing_thickness(x_over_d * d, d) == pytest.approx(ts_over_d * d,
                                                                           rel=1e-12)
 
 
 def test_printed_hand_values_c65_c66():
     # hand calculation from the printed coefficients, kept to 4 figures
-    assert L.kennedy_scabbing_thickness(0.5, 1.0) == pytest.approx(2.690, abs=5e-4)
-    assert L.kennedy_scabbing_thickness(2.0, 1.0) == pytest.approx(4.840, abs=5e-4)
+    assert ldm.kennedy_scabbing_thickness(0.5, 1.0) == pytest.approx(2.690, abs=5e-4)
+    assert ldm.kennedy_scabbing_thickness(2.0, 1.0) == pytest.approx(4.840, abs=5e-4)
     # the two printed branches meet at x/d = 0.65 within the print's rounding
     assert 7.91 * 0.65 - 5.06 * 0.65**2 == pytest.approx(2.12 + 1.36 * 0.65, abs=0.01)
 
 
 def test_doe_margins_are_the_printed_ones():
     # DOE-STD-3014 App. C: t_d ≥ 1.1·t_s (after C-66) and t_d = 1.2·t_p (after C-614)
-    assert L.SCABBING_MARGIN == 1.1
-    assert L.PERFORATION_MARGIN == 1.2
+    assert ldm.SCABBING_MARGIN == 1.1
+    assert ldm.PERFORATION_MARGIN == 1.2
 
 
 # --- DOE-STD-3014 App. C, Eqs. C-613 / C-614 (Degen) ---------------------------------
@@ -70,14 +70,14 @@ def test_doe_margins_are_the_printed_ones():
 ])
 def test_degen_perforation_is_doe_3014_c613_c614(x_over_d, tp_over_d):
     d = 0.3
-    assert L.degen_perforation_thickness(x_over_d * d, d) == pytest.approx(tp_over_d * d,
+    assert ldm.degen_perforation_thickness(x_over_d * d, d) == pytest.approx(tp_over_d * d,
                                                                            rel=1e-12)
 
 
 def test_degen_printed_branches_meet_at_1_52():
     # C-614 at x/d = 1.52: 2.6509; C-613: 2.6508 (hand calculation): continuous
-    assert L.degen_perforation_thickness(1.52, 1.0) == pytest.approx(2.6509, abs=1e-4)
-    assert L.degen_perforation_thickness(1.5200001, 1.0) == pytest.approx(2.6508, abs=1e-4)
+    assert ldm.degen_perforation_thickness(1.52, 1.0) == pytest.approx(2.6509, abs=1e-4)
+    assert ldm.degen_perforation_thickness(1.5200001, 1.0) == pytest.approx(2.6508, abs=1e-4)
 
 
 @pytest.mark.parametrize("t", [0.10, 0.15, 0.25, 0.40])
@@ -85,19 +85,19 @@ def test_degen_ballistic_limit_gives_back_the_printed_thickness(t):
     # at the Degen ballistic limit of t/1.2, the NDRC penetration put through C-613 /
     # C-614 gives t/1.2 again (the inversion is exact on the printed formulas)
     M, d, fc, N = 1200.0, 0.12, 30e6, 0.72
-    v = L.degen_perforation_velocity(M, d, t / 1.2, fc, N)
-    x = L.ndrc_penetration(M, d, v, fc, N)
-    assert L.degen_perforation_thickness(x, d) == pytest.approx(t / 1.2, rel=1e-9)
+    v = ldm.degen_perforation_velocity(M, d, t / 1.2, fc, N)
+    x = ldm.ndrc_penetration(M, d, v, fc, N)
+    assert ldm.degen_perforation_thickness(x, d) == pytest.approx(t / 1.2, rel=1e-9)
 
 
 def test_degen_is_a_family_of_the_verdict_and_the_most_onerous_governs():
-    assert L.PERFORATION_FAMILIES[1] == "Degen"
+    assert ldm.PERFORATION_FAMILIES[1] == "Degen"
     M, d, p, t, fc = 2000.0, 0.15, math.pi * 0.15, 0.2, 30e6
-    v_all = L.family_ballistic_limits(M, d, p, t, fc, 2400.0, 0.3, 0.72)
-    r = L.concrete_local_damage(M, d, p, v_all.min() * 1.0001, t, fc, 2400.0, 0.3)
+    v_all = ldm.family_ballistic_limits(M, d, p, t, fc, 2400.0, 0.3, 0.72)
+    r = ldm.concrete_local_damage(M, d, p, v_all.min() * 1.0001, t, fc, 2400.0, 0.3)
     assert bool(r.perforation)
     assert float(r.v_ballistic) == pytest.approx(float(v_all.min()), rel=1e-12)
-    assert r.families[int(r.governing_family)] == L.PERFORATION_FAMILIES[
+    assert r.families[int(r.governing_family)] == ldm.PERFORATION_FAMILIES[
         int(np.argmin(v_all))]
     # the families differ (their scatter), by less than one order of magnitude here
     assert v_all.max() / v_all.min() > 1.01
@@ -110,21 +110,21 @@ def test_ndrc_G_and_branches_by_hand():
     # G = 3.8·10⁻⁵·N·M/(d·√f_c)·(V/d)^1.8; x/d = 2√G (G ≤ 1), G + 1 (G > 1)
     M, d, V, fc, N = 100.0, 0.1, 30.0, 25e6, 0.72
     G = 3.8e-5 * N * M / (d * math.sqrt(fc)) * (V / d) ** 1.8
-    assert float(L.ndrc_G(M, d, V, fc, N)) == pytest.approx(G, rel=1e-12)
+    assert float(ldm.ndrc_G(M, d, V, fc, N)) == pytest.approx(G, rel=1e-12)
     # hand: 3.8e-5·0.72·100/(0.1·5000) = 5.472e-6; 300^1.8 = 28 762; G = 0.1574
     assert G == pytest.approx(0.1574, rel=1e-3)
-    assert float(L.ndrc_penetration(M, d, V, fc, N)) == pytest.approx(2 * math.sqrt(G) * d,
+    assert float(ldm.ndrc_penetration(M, d, V, fc, N)) == pytest.approx(2 * math.sqrt(G) * d,
                                                                       rel=1e-12)
     V2 = 150.0
     G2 = 3.8e-5 * N * M / (d * math.sqrt(fc)) * (V2 / d) ** 1.8
     assert G2 > 1.0
-    assert float(L.ndrc_penetration(M, d, V2, fc, N)) == pytest.approx((G2 + 1) * d,
+    assert float(ldm.ndrc_penetration(M, d, V2, fc, N)) == pytest.approx((G2 + 1) * d,
                                                                        rel=1e-12)
 
 
 def test_ace_perforation_branch():
     # e/d = 1.32 + 1.24·x/d for 1.35 < x/d < 13.5 (Eq. 2.8): x/d = 3 → 5.04
-    assert L.kennedy_perforation_thickness(3.0, 1.0) == pytest.approx(5.04, rel=1e-12)
+    assert ldm.kennedy_perforation_thickness(3.0, 1.0) == pytest.approx(5.04, rel=1e-12)
 
 
 # --- DOE-STD-1020-2002 Tables 3-4 / 3-5: slabs that resisted the pipe missile ----------
@@ -150,7 +150,7 @@ def test_every_family_agrees_the_tested_slabs_are_not_perforated(t_in, v_mph, s_
     t, v, fc = t_in * INCH, v_mph * MPH, fc_psi * PSI
     d, p = PIPE_OD, math.pi * PIPE_OD
     r = 100.0 * (0.20 * INCH**2 / (s_in * INCH)) / t
-    v_bl = L.family_ballistic_limits(PIPE_MASS, d, p, t, fc, 2400.0, r, 0.84)
-    assert np.all(v < v_bl), dict(zip(L.PERFORATION_FAMILIES, v_bl, strict=True))
-    dmg = L.concrete_local_damage(PIPE_MASS, d, p, v, t, fc, 2400.0, r, 0.84)
+    v_bl = ldm.family_ballistic_limits(PIPE_MASS, d, p, t, fc, 2400.0, r, 0.84)
+    assert np.all(v < v_bl), dict(zip(ldm.PERFORATION_FAMILIES, v_bl, strict=True))
+    dmg = ldm.concrete_local_damage(PIPE_MASS, d, p, v, t, fc, 2400.0, r, 0.84)
     assert not bool(dmg.perforation)
