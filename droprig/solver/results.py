@@ -205,7 +205,9 @@ class BaySummary:
     ``local_extrapolated`` (the answer lies outside the formulas' test speeds),
     ``strike_orientation`` (the governing one at the worst point) and ``level_below``
     (id of the level under this one in the project, ``None`` when the project does not
-    hold it).
+    hold it). A steel plate deck: ``dent_depth`` (deepest plastic dent in the bay, m)
+    and ``dent_height`` (least drop height on the datum at which the dent reaches
+    ``droprig.solver.local_damage.DENT_LIMIT``, m); ``None`` elsewhere.
     """
 
     level_id: str
@@ -248,6 +250,8 @@ class BaySummary:
     local_extrapolated: bool = False
     strike_orientation: str | None = None
     level_below: str | None = None
+    dent_depth: float | None = None
+    dent_height: float | None = None
 
 
 @dataclass(frozen=True)

@@ -308,3 +308,37 @@ def test_dent_reaches_the_demo_outputs_and_the_trace() -> None:
         ROOT / "demo_projects" / "two_level_rigging.droprig")).cases
         if c.load_name == "Hook block 12 t")
     assert np.isnan(conc.dent_depth).all()
+
+
+def test_dent_reaches_the_bay_summary_and_the_json(tmp_path) -> None:
+    # the CLI JSON's bays carry the deepest dent and the least height of the dent limit
+    # of their points (the per-point CSV carries dent_depth_m / dent_height_m)
+    import csv
+    import json
+
+    from droprig.cli import main
+    from droprig.io.project_file import dumps_project, load_project
+
+    p = load_project(ROOT / "demo_projects" / "two_level_rigging.droprig")
+    roof = dataclasses.replace(p.level("RF"), deck=PLATE)
+    p = dataclasses.replace(p, levels=(roof, p.level("L3")))
+    src = tmp_path / "plate.droprig"
+    src.write_text(dumps_project(p), encoding="utf-8")
+    jpath, cpath = tmp_path / "r.json", tmp_path / "r.csv"
+    assert main(["analyse", str(src), "--json", str(jpath), "--csv", str(cpath)]) == 0
+    doc = json.loads(jpath.read_text(encoding="utf-8"))
+    with cpath.open(encoding="utf-8", newline="") as fh:
+        rows = [r for r in csv.DictReader(fh) if r["level"] == "RF"
+                and r["dent_depth_m"] not in ("", None)]
+    assert rows
+    dents = [b for b in doc["bays"] if b["level_id"] == "RF" and b["dent_depth"] is not None]
+    assert dents
+    checked = 0
+    for b in dents:
+        pts = [r for r in rows if r["bay"] == b["bay_id"] and r["load"] == b["load_name"]]
+        if pts:
+            # the bay's summary covers its own points (and those on its grid lines)
+            assert b["dent_depth"] >= max(float(r["dent_depth_m"]) for r in pts) * (1 - 1e-6)
+            assert b["dent_height"] <= min(float(r["dent_height_m"]) for r in pts) * (1 + 1e-6)
+            checked += 1
+    assert checked
