@@ -1497,8 +1497,8 @@ class LocalDamage:
     On a steel plate deck also the plastic dent: ``dent`` (m, deepest over the
     orientations), ``h_dent`` (free fall at which the dent reaches
     :data:`~droprig.solver.local_damage.DENT_LIMIT`, m, lowest over the orientations)
-    and ``dent_valid`` (the membrane estimate within its validity); nan / False
-    elsewhere."""
+    and ``dent_valid`` (the membrane estimate within its validity, and the load not
+    through the plate by BRL); nan / False elsewhere."""
 
     assessed: np.ndarray
     penetration: np.ndarray
@@ -1589,8 +1589,9 @@ def local_damage(c: Chain) -> LocalDamage:
         out["extrapolated"][sel] = r.extrapolated
         out["orientation"][sel] = orient[r.governing]
         if deck_.kind == "steel_plate":
-            out["dent"][sel], out["h_dent"][sel], out["dent_valid"][sel] = \
-                plate_dent(c, load, sel)
+            out["dent"][sel], out["h_dent"][sel], valid = plate_dent(c, load, sel)
+            # where the load goes through (BRL) the dent is no measure: not valid
+            out["dent_valid"][sel] = valid & ~r.perforation
     return LocalDamage(**out)
 
 

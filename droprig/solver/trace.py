@@ -450,8 +450,8 @@ def _plate_damage_steps(sheet: _Sheet) -> None:
         src_d = ("Jones, Structural Impact (1989) ch. 7, rigid-plastic mode method, "
                  "membrane only (from memory); clamped at half the strip span"
                  + ("" if ld.dent_valid[0] else
-                    "; outside its validity (dent under the plate thickness, or "
-                    "membrane strain over 10 %: the plate may tear, see perforation)"))
+                    "; outside its validity (dent under the plate thickness, membrane "
+                    "strain over 10 % or the load through the plate: see perforation)"))
         add("Plastic dent of the plate (deepest strike orientation)", "W",
             "M·g·(h + v_h²/2g + W) = k·W², k = π·f_y·t·(R + a)/(2(R − a))",
             {"t": (dk.thickness, "small_length"), "f_y": (dk.steel_fy, "stress"),

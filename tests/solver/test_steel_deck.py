@@ -342,3 +342,28 @@ def test_dent_reaches_the_bay_summary_and_the_json(tmp_path) -> None:
             assert b["dent_height"] <= min(float(r["dent_height_m"]) for r in pts) * (1 + 1e-6)
             checked += 1
     assert checked
+
+
+def test_dent_is_not_valid_where_the_load_perforates_the_plate() -> None:
+    # the 220 kg hook block perforates a 10 mm plate on a corner from 2.97 m (BRL, hand
+    # value in test_plate_perforation_height_by_hand's source): from 6 m the dent is
+    # no measure of the damage and is flagged outside validity
+    from droprig.io.project_file import load_project
+    from droprig.solver import analysis
+    from droprig.solver.chain import Drop, LocalDamage, run_chain
+
+    p = load_project(ROOT / "demo_projects" / "two_level_rigging.droprig")
+    roof = dataclasses.replace(p.level("RF"), deck=PLATE)
+    p = dataclasses.replace(p, levels=(roof, p.level("L3")))
+    zone = p.lift_zones[0]
+    fm = analysis.build_floor(p.level(zone.level_id), p.settings)
+    ext = fm.level.grid.extent
+    x = np.linspace(ext.x0 + 0.3, ext.x1 - 0.3, 5)
+    y = np.full(5, 0.5 * (ext.y0 + ext.y1))
+    geo = analysis.point_geometry(fm, p, x, y)
+    hook = next(ld_ for ld_ in zone.loads if ld_.name == "Hook block 12 t")
+    c = run_chain(Drop(fm, p, geo, (hook,), np.zeros(5, dtype=np.int64),
+                       v_hoist=zone.hoist_speed))
+    dmg = c[LocalDamage]
+    assert dmg.perforation.all() and np.isfinite(dmg.dent).all()
+    assert not dmg.dent_valid.any()
