@@ -4,8 +4,8 @@
 Run: ``.venv/bin/python benchmarks/bench_local_damage.py [--quick]``
 
 For each demo project's hard loads, :func:`droprig.solver.local_damage.load_local_damage`
-(three strike orientations, three formula families each; and on a 10 mm steel plate
-deck, BRL) over n drop points with
+(three strike orientations, four perforation families each; and on a 10 mm steel
+plate deck, BRL and the plastic dent) over n drop points with
 drop heights spread over 0–2× the load's height; reported as ns per drop point
 per load, next to the floor analysis's own time per drop point for scale; then the
 demo's whole ``analyse`` with and without the step (the same project with every
@@ -79,6 +79,25 @@ def main(argv: list[str] | None = None) -> dict[str, dict[str, float]]:
                 out[key]["plate_ns_per_point"] = 1e9 * t_pl / n
                 print(f"{key}: on a 10 mm steel plate deck (BRL) {1e9 * t_pl / n:8.1f} "
                       "ns/point")
+                if hasattr(ld, "plate_dent_depth"):
+                    # the plate's plastic dent per orientation (as chain.plate_dent):
+                    # k, depth, the height of the dent limit and the validity
+                    R = rng.uniform(0.3, 1.5, n)
+
+                    def dent(ld_=load, hh=h, RR=R) -> None:
+                        for o in ld_.strike_orientations:
+                            deq, _p, _n = ld.strike_geometry(
+                                o, ld_.footprint_length, ld_.footprint_width,
+                                ld_.edge_width)
+                            k = ld.plate_dent_stiffness(0.010, 235e6, deq / 2, RR)
+                            W = ld.plate_dent_depth(ld_.mass, hh, k)
+                            ld.plate_dent_height(ld_.mass, ld.DENT_LIMIT, k)
+                            ld.plate_dent_valid(W, 0.010, deq / 2, RR)
+
+                    t_dn = _median(dent, runs)
+                    out[key]["dent_ns_per_point"] = 1e9 * t_dn / n
+                    print(f"{key}: plate dent (all orientations) {1e9 * t_dn / n:8.1f} "
+                          "ns/point")
         soft = replace(project, lift_zones=tuple(
             replace(z, loads=tuple(replace(ld_, hard=False) for ld_ in z.loads))
             for z in project.lift_zones))

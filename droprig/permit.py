@@ -72,11 +72,20 @@ VERDICT_WORDS: dict[Verdict, str] = {
 """How a verdict is written, on every surface."""
 
 ConditionKind = Literal["lay_protection", "exclude_area", "exclude_level_below",
-                        "cap_hook", "not_assessed", "separate_signoff"]
+                        "cap_hook", "not_assessed", "separate_signoff",
+                        "note_level_below"]
 CONDITION_KINDS: tuple[ConditionKind, ...] = (
     "lay_protection", "cap_hook", "exclude_area", "exclude_level_below",
-    "separate_signoff", "not_assessed")
-"""Condition kinds in reading order."""
+    "note_level_below", "separate_signoff", "not_assessed")
+"""Condition kinds in reading order. ``note_level_below``: concrete may scab off the
+soffit over a level below recorded as unoccupied (``Level.occupied_below`` false) — a
+note that the permit relies on that record (it still counts as a condition)."""
+
+BELOW_CAUSES: tuple[str, ...] = ("", "perforation", "scabbing")
+"""Why the level below is kept clear (``Condition.cause`` of ``exclude_level_below``):
+the framing or deck failing (``""``: punching, collapse, an opening, members past their
+limits), a hard load going through the deck, or concrete scabbing off the soffit over
+an occupied level below."""
 
 NOT_CHECKED: tuple[str, ...] = (
     "The crane, its foundations or outrigger support, the rigging and the lifting "
@@ -153,6 +162,7 @@ class Condition:
     (``exclude_level_below``; ``None`` = the space below, no level in the project).
     ``detail``: words without numbers for ``not_assessed`` / ``separate_signoff``.
     ``protection``: the pad or mat itself, for its specification in the sentence.
+    ``cause``: why the level below is kept clear (:data:`BELOW_CAUSES`).
     """
 
     kind: ConditionKind
@@ -170,6 +180,7 @@ class Condition:
     hang_length: float | None = None
     below_level_id: str | None = None
     protection: ProtectionArea | None = None
+    cause: str = ""
 
     def where(self, level: Level | None = None) -> str:
         """The bays (or the whole zone) the condition covers, in words. With the
@@ -242,12 +253,23 @@ class Condition:
         if self.kind == "exclude_area":
             return (f"Do not carry {self.load_name or 'any load'} over {where}; "
                     "keep that area clear of people while the load is lifted.")
+        below = (f"level {self.below_level_id}" if self.below_level_id
+                 else f"the space below level {self.level_id}")
         if self.kind == "exclude_level_below":
-            below = (f"level {self.below_level_id}" if self.below_level_id
-                     else f"the space below level {self.level_id}")
+            if self.cause == "scabbing":
+                return (f"Keep {below} clear of people under {where}, or hang a catch "
+                        f"deck under the soffit there, while {self.load_name or 'the load'}"
+                        " is lifted: a drop there can knock concrete off the soffit "
+                        "(scabbing).")
+            why = ("can go through the deck (perforation)" if self.cause == "perforation"
+                   else "can break through the deck or bring the framing down")
             return (f"Keep {below} clear of people under {where} while "
-                    f"{self.load_name or 'the load'} is lifted: a drop there can break "
-                    "through the deck or bring the framing down.")
+                    f"{self.load_name or 'the load'} is lifted: a drop there {why}.")
+        if self.kind == "note_level_below":
+            return (f"Note: {below} is recorded as unoccupied; a drop of "
+                    f"{self.load_name or 'the load'} on {where} can knock concrete off "
+                    "the soffit (scabbing). Keep it unoccupied during the lift and "
+                    "inspect the soffit after any drop.")
         if self.kind == "separate_signoff":
             return (f"Over {where}{self._for()}, {self.detail}; accept only with the "
                     "engineer's separate sign-off, and inspect the framing and the level "
@@ -450,13 +472,21 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
             b.height_limit <= thickest:
         # the limit lies below the top of a pad in the bay: no practical hook limit
         kind = "mat" if kind == "limit_or_mat" else "keep_clear"
-    if b.response == "perforates" or b.scabbing:
-        # a hard load may go through the deck or knock concrete off its soffit
-        # (local damage): keep the level below clear under the bay
+    below_id = b.level_below or _level_below(project, b.level_id)
+    if b.response == "perforates":
+        # a hard load may go through the deck (local damage): the level below is an
+        # exclusion area whether or not it is recorded as occupied
         conds.append(Condition("exclude_level_below", region=region,  # type: ignore
-                               below_level_id=b.level_below or _level_below(project,
-                                                                            b.level_id),
-                               **base))
+                               below_level_id=below_id, cause="perforation", **base))
+    elif b.scabbing and level.occupied_below:
+        # concrete may scab off the soffit onto people: keep the level below clear
+        # under the bay (or a catch deck)
+        conds.append(Condition("exclude_level_below", region=region,  # type: ignore
+                               below_level_id=below_id, cause="scabbing", **base))
+    elif b.scabbing:
+        # over a level below recorded as unoccupied: a note that the permit relies on it
+        conds.append(Condition("note_level_below", region=region,  # type: ignore
+                               below_level_id=below_id, cause="scabbing", **base))
     if kind == "level_below":
         # a hard load perforates the deck as planned: a hook limit must keep it under
         # the height where scabbing or perforation starts *and* within the framing's
@@ -537,7 +567,8 @@ def _merge_key(c: Condition) -> tuple[object, ...]:
 
     return (c.kind, c.zone_id, c.load_name, c.level_id, c.protection_id,
             r(c.max_drop_height), r(c.max_hook_elevation), r(c.mat_stiffness_max),
-            r(c.mat_travel), c.hang_length, c.below_level_id, c.protection, c.detail)
+            r(c.mat_travel), c.hang_length, c.below_level_id, c.protection, c.detail,
+            c.cause)
 
 
 def _merge(conds: Iterable[Condition], rects: dict[tuple[str, str], Rect],

@@ -52,6 +52,8 @@ CSV_COLUMNS: tuple[tuple[str, str], ...] = (
     ("scabbing_height", "scabbing_height_m"),
     ("perforation_height", "perforation_height_m"),
     ("residual_velocity", "residual_velocity_m_per_s"),
+    ("dent_depth", "dent_depth_m"),
+    ("dent_height", "dent_height_m"),
 )
 """(CaseResult field, CSV column name with its SI unit)."""
 

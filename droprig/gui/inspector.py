@@ -410,6 +410,11 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
                "Finishes, services, ceilings: carried by the framing during the lift"),
             _q("live_in_place", "Live load left in place", "pressure",
                "Occupancy or stored material that stays on the floor during the lift"),
+            replace(_t("occupied_below", "Level below occupied", "bool"),
+                    tip="People may be under this deck during the lift (the safe "
+                        "side). Unticked: concrete scabbing off the soffit is a note "
+                        "instead of keeping the level below clear; a drop that goes "
+                        "through the deck always keeps it clear"),
             _ro("gx", "Grid spacings along x", lambda o: _spacings(o.grid.x_lines, system)),
             _ro("gy", "Grid spacings along y", lambda o: _spacings(o.grid.y_lines, system)),
             _ro("gl", "Grid labels", lambda o: f"{', '.join(o.grid.x_labels)} / "

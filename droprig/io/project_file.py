@@ -271,6 +271,8 @@ def _level_doc(lv: Level, memo: dict[int, object]) -> dict[str, object]:
         "live_in_place_Pa": lv.live_in_place,
         **{key: v for key, v in (("column_area_m2", lv.column_area),
                                  ("column_height_m", lv.column_height)) if v is not None},
+        # absent = occupied (the safe side); an older file is unchanged
+        **({} if lv.occupied_below else {"occupied_below": False}),
         "members": [
             {
                 "id": m.id,
@@ -906,7 +908,8 @@ _KEYS_MEMBER = {"id": "id", "role": "role", "start": "start_m", "end": "end_m",
 _KEYS_LEVEL = {"id": "id", "name": "name", "elevation": "elevation_m",
                "superimposed_dead": "superimposed_dead_Pa",
                "live_in_place": "live_in_place_Pa", "members": "members",
-               "column_area": "column_area_m2", "column_height": "column_height_m"}
+               "column_area": "column_area_m2", "column_height": "column_height_m",
+               "occupied_below": "occupied_below"}
 _KEYS_GRID = {"x_lines": "x_lines_m", "y_lines": "y_lines_m", "x_labels": "x_labels",
               "y_labels": "y_labels"}
 _KEYS_DECK = {"kind": "kind", "thickness": "thickness_m", "cover": "cover_m",
@@ -1124,7 +1127,7 @@ class _Builder:
         assert grid is not None and deck is not None  # built, or failed above
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LEVEL.items()
                          if k in ("superimposed_dead", "live_in_place", "column_area",
-                                  "column_height")})
+                                  "column_height", "occupied_below")})
         return self._make(path, _KEYS_LEVEL, lambda: Level(
             v["id"], v.get("name", ""), v["elevation_m"], grid, tuple(members), deck, **kw))
 

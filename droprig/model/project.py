@@ -384,7 +384,13 @@ class Level:
 
     ``column_area`` (m²) and ``column_height`` (m): the steel columns under the level,
     axial springs E·A/L under a drop over a column; ``None`` takes the stated defaults
-    of ``droprig.solver.crushing`` (stiff: a higher force)."""
+    of ``droprig.solver.crushing`` (stiff: a higher force).
+
+    ``occupied_below``: whether the space under this level's deck (the level below)
+    is occupied or open to people during the lift. Default ``True``, the safe side:
+    concrete scabbing off the soffit over an occupied level below makes the permit
+    keep that area clear (or ask for a catch deck); over an unoccupied one it is a
+    note. A perforating drop always names the level below as an exclusion area."""
 
     id: str
     name: str
@@ -396,9 +402,14 @@ class Level:
     live_in_place: float = 0.0
     column_area: float | None = None
     column_height: float | None = None
+    occupied_below: bool = True
 
     def __post_init__(self) -> None:
         check_text("level.id", self.id, required=True, max_len=32)
+        if not isinstance(self.occupied_below, bool):
+            raise ModelError(f"level {self.id}.occupied_below", self.occupied_below,
+                             "true or false (is the level below occupied or open to "
+                             "people during the lift?)")
         if self.column_area is not None:
             check_range(f"level {self.id}.column_area", self.column_area, 1e-3, 1.0, unit="m²")
         if self.column_height is not None:

@@ -1314,7 +1314,12 @@ class _Builder:
             text = (f"{esc(dk.kind.replace('_', ' '))}, "
                     f"{_deck_words(dk, self.v)}; {len(dk.openings)} opening(s). "
                     f"Superimposed dead {self.v(lv.superimposed_dead, 'pressure')}, live "
-                    f"left in place {self.v(lv.live_in_place, 'pressure')}.")
+                    f"left in place {self.v(lv.live_in_place, 'pressure')}. Level "
+                    "below " + ("occupied or open to people during the lift."
+                                if lv.occupied_below else
+                                "recorded as unoccupied during the lift (the user's "
+                                "entry): scabbing of the soffit is a note, not an "
+                                "exclusion."))
             decks.setdefault(text, []).append(lv.id)
         for text, ids in decks.items():
             names = id_ranges([lv.id for lv in levels], ids)

@@ -241,7 +241,8 @@ def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
     ok = np.ones(idx.size, dtype=bool)
     for factor in CONFIRM_FACTORS:
         H = np.minimum(t_pad + factor * (h_pl[idx] - t_pad), 200.0)
-        r = evaluate.evaluate_case(fm, project, loads, geo, li, H=H)
+        r = evaluate.evaluate_case(fm, project, loads, geo, li, H=H,
+                                   v_hoist=zone.hoist_speed)
         ok &= r["response"] != EXCEEDS
     bad = idx[~ok]
     if bad.size:

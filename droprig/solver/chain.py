@@ -132,7 +132,8 @@ FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
           "allowable_mass", "plastic_deflection", "ductility", "support_rotation",
           "required_mat_stiffness", "required_crush_stroke", "penetration", "scabbing",
           "scabbing_height", "perforation_height", "residual_velocity",
-          "local_extrapolated", "strike_orientation", "fall_height",
+          "local_extrapolated", "strike_orientation", "dent_depth", "dent_height",
+          "fall_height",
           "structure_compliance", "allowable_height_check", "allowable_height_member",
           "allowable_height_plastic_check")
 """The :class:`~droprig.solver.results.CaseResult` arrays, in order."""
@@ -142,7 +143,8 @@ _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "pe
                     "allowable_drop_height_plastic", "allowable_mass",
                     "plastic_deflection", "ductility", "support_rotation",
                     "required_mat_stiffness", "required_crush_stroke", "penetration",
-                    "scabbing_height", "perforation_height", "residual_velocity")
+                    "scabbing_height", "perforation_height", "residual_velocity",
+                    "dent_depth", "dent_height")
 
 
 # --------------------------------------------------------------------------- the runner
@@ -395,6 +397,35 @@ MIN_CONTACT_SIDE = 1e-3
 an opening or off the deck still bears on a sliver; keeps the contact checks finite)."""
 
 
+def hoist_head(v_hoist: float) -> float:
+    """The height a free fall would need to reach the hoist's lowering speed v_h
+    (m/s): v_h²/(2g), m (uniform acceleration; 4.6 mm at 0.3 m/s). A load let go
+    while lowering strikes at V = √(v_h² + 2gh) and brings ½·M·V² = M·g·(h + v_h²/2g)
+    of kinetic energy: every energy balance of the chain (impact, beyond yield,
+    amplification bounds, inverse answers) uses the fall ``h`` plus this head, the
+    same strike speed as the local-damage step."""
+    return float(v_hoist) ** 2 / (2.0 * impact_mod.G)
+
+
+def energy_fall(c: Chain, h: np.ndarray) -> np.ndarray:
+    """The free falls ``h`` (m) plus the hoist's head :func:`hoist_head` of the drop:
+    the height whose free fall from rest gives the strike speed √(v_h² + 2gh), m."""
+    head = hoist_head(c.drop.v_hoist)
+    return h + head if head > 0.0 else h
+
+
+def fall_from_energy(c: Chain, h_e: np.ndarray) -> np.ndarray:
+    """An allowable energy height h_e (m) as the allowable free fall: h_e − v_h²/(2g)
+    (:func:`hoist_head`); where that is below 0 the lowering speed alone brings more
+    energy than allowed and no fall is allowed (NaN)."""
+    head = hoist_head(c.drop.v_hoist)
+    if head <= 0.0:
+        return h_e
+    with np.errstate(invalid="ignore"):
+        out = h_e - head
+        return np.where(np.isfinite(out) & (out >= 0.0), out, np.nan)
+
+
 def planned_height(load: LiftLoad, level: Level) -> float:
     """The load's planned drop height H (m) on droprig's one datum: its underside
     above the finished surface (top of deck) of ``level``. Given directly
@@ -600,7 +631,8 @@ def impact(c: Chain) -> Impact:
 def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
     """:func:`impact` for the free falls ``h`` (m; ``None``: the planned ones)."""
     d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
-    h = inp.h if h is None else h
+    # the energy height: the fall plus the hoist's lowering speed head (hoist_head)
+    h = energy_fall(c, inp.h if h is None else h)
     n = d.n
     W, crushable = inp.W, inp.crushable
     K, F_el, d_max = impact_mod.impact_elastic(W, h, comp.f, sm.eta)
@@ -780,7 +812,8 @@ def dynamic_amplification(c: Chain) -> DynamicAmplification:
 
 
 def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplification:
-    """:func:`dynamic_amplification` for the free falls ``h`` (m) and their impact."""
+    """:func:`dynamic_amplification` for the free falls ``h`` (m) and their impact
+    (the energy bounds at the fall plus the hoist's head, :func:`energy_fall`)."""
     d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
     if not d.fm.settings.dynamic_amplification:
         one = np.ones(d.n)
@@ -794,6 +827,7 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplificati
                                     set_by=dict.fromkeys(("local", "moment", "shear",
                                                           "deflection"),
                                                          np.zeros(d.n, int)))
+    h = energy_fall(c, h)
     m_path = d.geo.path.m_e
     m_path = np.where(np.isfinite(m_path) & (m_path > 0.0), m_path, 0.0)
     crushable = inp.crushable
@@ -1198,7 +1232,8 @@ def beyond_yield(c: Chain) -> BeyondYield:
     d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
     ua, ck, sr = c[Demands].actions, c[Checks], c[SlabResistance]
     s, n = d.fm.settings, d.n
-    W, h, F_c, s_c, eta = inp.W, inp.h, inp.F_c, inp.s_c, sm.eta
+    W, F_c, s_c, eta = inp.W, inp.F_c, inp.s_c, sm.eta
+    h = energy_fall(c, inp.h)  # with the hoist's lowering speed head
     R_p, f_s, f = sr.R, comp.f_s, comp.f
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
     h_struct = h.copy()
@@ -1371,6 +1406,8 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     cover = dk.thickness if dk.is_steel else dk.cover  # as the impact step's depth
     h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow), imp.F_crush,
                              np.full(d.n, cover), W, eta)
+    # the energy heights above as free falls: less the hoist's lowering speed head
+    h_el = fall_from_energy(c, h_el)
     if s.dynamic_amplification:
         h_el = confirm_amplified_height(c, h_el)
     # plastic: ductility and rotation limits, brittle checks at R_p
@@ -1389,7 +1426,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     h_pl = with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
     # the drop height that gives the structure that energy after amplification (A_δ²)
-    h_pl = h_pl / c[DynamicAmplification].A_deflection ** 2
+    h_pl = fall_from_energy(c, h_pl / c[DynamicAmplification].A_deflection ** 2)
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
@@ -1401,23 +1438,25 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     hp_check = np.where(sr.slab_first, CHECK["rotation"], hp_check)
     hp_check = np.where(np.isnan(h_pl) | (h_el >= h_pl), -1, hp_check)
     h_pl = np.fmax(h_pl, h_el)
-    m_allow = limits.allowable_mass(Fa_pos, inp.h, f, sm.m_e)
+    h_e = energy_fall(c, inp.h)
+    m_allow = limits.allowable_mass(Fa_pos, h_e, f, sm.m_e)
     capped = ~crushable & (imp.F_crush < F_allow) & np.isfinite(m_allow)
     if capped.any():
         m_allow[capped] = _mass_through_crushing(
-            Fa_pos[capped], inp.h[capped], f[capped], sm.m_e[capped], imp.F_crush[capped],
+            Fa_pos[capped], h_e[capped], f[capped], sm.m_e[capped], imp.F_crush[capped],
             cover, m_allow[capped])
     if crushable.any():
         # through the crushable layer that lies there (η = 1 under a layer)
         m_allow[crushable] = limits.allowable_mass_crushable(
-            Fa_pos[crushable], inp.h[crushable], comp.f_struct[crushable], F_c[crushable],
+            Fa_pos[crushable], h_e[crushable], comp.f_struct[crushable], F_c[crushable],
             s_c[crushable])
     # a mat laid on the finished surface over the point: the fall is the datum height
     # H, and the framing's mass share is not taken (η = 1, as the forward model does
     # under protection); inf where the structure alone suffices
-    k_req = limits.required_mat_stiffness(W, inp.H, 1.0, Fa_pos, comp.f_struct)
+    H_e = energy_fall(c, inp.H)
+    k_req = limits.required_mat_stiffness(W, H_e, 1.0, Fa_pos, comp.f_struct)
     k_req = np.where(np.isnan(Fa_pos), np.nan, k_req)
-    s_req = limits.required_crush_stroke(W, inp.H, 1.0, Fa_pos, comp.f_struct)
+    s_req = limits.required_crush_stroke(W, H_e, 1.0, Fa_pos, comp.f_struct)
     s_req = np.where(np.isfinite(s_req), s_req, np.nan)
     # the check that sets the allowable height: the least allowed force
     chk = c[Demands].checks
@@ -1483,7 +1522,12 @@ class LocalDamage:
     (bool), ``h_scab`` / ``h_perf`` (free fall at which each starts, m),
     ``v_res`` (m/s after perforation), ``v_strike`` (strike speed √(v_h² + 2gh), m/s),
     ``extrapolated`` (outside the formulas' test speeds) and ``orientation`` (index
-    into ``STRIKE_ORIENTATIONS``, −1 where not assessed); nan / False elsewhere."""
+    into ``STRIKE_ORIENTATIONS``, −1 where not assessed); nan / False elsewhere.
+    On a steel plate deck also the plastic dent: ``dent`` (m, deepest over the
+    orientations), ``h_dent`` (free fall at which the dent reaches
+    :data:`~droprig.solver.local_damage.DENT_LIMIT`, m, lowest over the orientations)
+    and ``dent_valid`` (the membrane estimate within its validity, and the load not
+    through the plate by BRL); nan / False elsewhere."""
 
     assessed: np.ndarray
     penetration: np.ndarray
@@ -1495,6 +1539,43 @@ class LocalDamage:
     v_strike: np.ndarray
     extrapolated: np.ndarray
     orientation: np.ndarray
+    dent: np.ndarray
+    h_dent: np.ndarray
+    dent_valid: np.ndarray
+
+
+def plate_dent(c: Chain, load: LiftLoad, sel: np.ndarray
+               ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Dent of a steel plate deck by a hard ``load`` at the points ``sel``: depth (m,
+    deepest over the load's strike orientations), the free fall at which it reaches
+    :data:`~droprig.solver.local_damage.DENT_LIMIT` (m, lowest) and validity (every
+    orientation's estimate valid), by the plate's plastic membrane energy
+    (:func:`~droprig.solver.local_damage.plate_dent_stiffness`, punch radius the
+    equivalent radius of the strike contact, clamped at half the deck strip's span
+    between the beams — common practice, no source) at the energy height of the
+    drop (:func:`energy_fall`)."""
+    d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
+    dk = d.fm.level.deck
+    R = 0.5 * comp.strip_span[sel]
+    h_e = energy_fall(c, inp.h[sel])
+    W_all, h_all, ok_all = [], [], []
+    for o in load.strike_orientations:
+        deq, _p, _n = local_damage_mod.strike_geometry(o, load.footprint_length,
+                                                       load.footprint_width,
+                                                       load.edge_width)
+        a = 0.5 * deq
+        k = local_damage_mod.plate_dent_stiffness(dk.thickness, dk.steel_fy, a, R)
+        W = local_damage_mod.plate_dent_depth(load.mass, h_e, k)
+        W_all.append(W)
+        h_all.append(local_damage_mod.plate_dent_height(load.mass,
+                                                        local_damage_mod.DENT_LIMIT, k,
+                                                        d.v_hoist))
+        ok_all.append(local_damage_mod.plate_dent_valid(W, dk.thickness, a, R))
+    W_s, h_s = np.stack(W_all), np.stack(h_all)
+    # (an orientation whose footprint covers the panel has no dent mode: NaN, left
+    # out; all NaN stays NaN)
+    return (np.fmax.reduce(W_s, axis=0), np.fmin.reduce(h_s, axis=0),
+            np.all(np.stack(ok_all), axis=0))
 
 
 def local_damage(c: Chain) -> LocalDamage:
@@ -1514,7 +1595,8 @@ def local_damage(c: Chain) -> LocalDamage:
            "h_scab": nan.copy(), "h_perf": nan.copy(), "v_res": np.zeros(n),
            "v_strike": nan.copy(),
            "extrapolated": np.zeros(n, dtype=bool),
-           "orientation": np.full(n, -1, dtype=np.int64)}
+           "orientation": np.full(n, -1, dtype=np.int64),
+           "dent": nan.copy(), "h_dent": nan.copy(), "dent_valid": np.zeros(n, dtype=bool)}
     bare = (inp.t_mat <= 0.0) & ~inp.crushable & ~d.geo.opening
     deck_ = d.fm.level.deck
     for j, load in enumerate(d.loads):
@@ -1535,6 +1617,10 @@ def local_damage(c: Chain) -> LocalDamage:
         out["v_strike"][sel] = local_damage_mod.impact_speed(inp.h[sel], d.v_hoist)
         out["extrapolated"][sel] = r.extrapolated
         out["orientation"][sel] = orient[r.governing]
+        if deck_.kind == "steel_plate":
+            out["dent"][sel], out["h_dent"][sel], valid = plate_dent(c, load, sel)
+            # where the load goes through (BRL) the dent is no measure: not valid
+            out["dent_valid"][sel] = valid & ~r.perforation
     return LocalDamage(**out)
 
 
@@ -1621,6 +1707,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "scabbing_height": ld.h_scab + inp.t_mat, "perforation_height": ld.h_perf + inp.t_mat,
         "residual_velocity": ld.v_res, "local_extrapolated": ld.extrapolated,
         "strike_orientation": ld.orientation,
+        # steel plate decks: the dent and the height (on the datum) of the dent limit
+        "dent_depth": ld.dent, "dent_height": ld.h_dent + inp.t_mat,
     }
     if ld.perforation.any():
         out["response"] = np.where(ld.perforation, PERFORATES, out["response"])

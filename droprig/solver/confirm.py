@@ -146,7 +146,7 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     x, y, own = np.concatenate(xs), np.concatenate(ys), np.concatenate(owner)
     ex, ey, eown = _edge_kinks(fm, zone, loads, trials, x, y, own)
     x, y, own = np.r_[x, ex], np.r_[y, ey], np.r_[own, eown]
-    parts = [_evaluate(fm, project, loads, trials, x, y, own)]
+    parts = [_evaluate(fm, project, loads, trials, x, y, own, zone.hoist_speed)]
     step = fm.settings.grid_resolution
     for n_top in CONFIRM_REFINE:
         step /= 4.0
@@ -154,7 +154,7 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
         rx, ry, rown = _refine(fm, zone, trials, cur, step, n_top)
         if rx.size == 0:
             break
-        parts.append(_evaluate(fm, project, loads, trials, rx, ry, rown))
+        parts.append(_evaluate(fm, project, loads, trials, rx, ry, rown, zone.hoist_speed))
     r = _cat(parts)
     own = r["owner"]
     resp = r["response"]
@@ -222,14 +222,17 @@ def _cat(parts: list[dict[str, np.ndarray]]) -> dict[str, np.ndarray]:
 
 
 def _evaluate(fm: FloorModel, project: Project, loads: tuple, trials: list[_Trial],
-              x: np.ndarray, y: np.ndarray, own: np.ndarray) -> dict[str, np.ndarray]:
+              x: np.ndarray, y: np.ndarray, own: np.ndarray,
+              v_hoist: float = 0.0) -> dict[str, np.ndarray]:
     cancel.check()
     li = np.array([tr.load for tr in trials], dtype=np.int64)[own]
     H = np.array([tr.H for tr in trials])[own]
     mk = np.array([tr.value if tr.kind == "mat" else np.nan for tr in trials])[own]
     geo = point_geometry(fm, project, x, y)
+    # the trial drops strike as the planned ones do, with the hoist's lowering speed
     r = evaluate.evaluate_case(fm, project, loads, geo, li, H=H,
-                               mat_k=mk if np.isfinite(mk).any() else None)
+                               mat_k=mk if np.isfinite(mk).any() else None,
+                               v_hoist=v_hoist)
     keep = ("x", "y", "response", "utilisation", "peak_force", "allowable_drop_height",
             "allowable_drop_height_plastic", "required_mat_stiffness")
     out = {k: r[k] for k in keep}

@@ -17,7 +17,8 @@ and carry ``from memory`` in their docstring):
   (ACE), e/d = 1.32 + 1.24·x/d for 3 ≤ e/d ≤ 18, as quoted in DOE-STD-3014
   Appendix C.
 * **Degen's perforation relation** (Degen 1980, *Nucl. Eng. Des.* 58) on the
-  NDRC penetration depth, as quoted in DOE-STD-3014 Appendix C, Eqs. C-613/C-614.
+  NDRC penetration depth, as quoted in DOE-STD-3014 Appendix C, Eqs. C-613/C-614
+  — a family of its own in the verdict (the most onerous family governs).
 * **UKAEA penetration** (Barr 1990, UKAEA/R3 impact assessment procedure;
   Li et al. 2005.1 — from memory) and the **Barr (UKAEA, CEA-EDF extended)
   ballistic limit** of a reinforced slab (Li et al. 2005 — from memory).
@@ -54,9 +55,12 @@ __all__ = [
     "BRL_STEEL",
     "CHANG",
     "DEGEN",
+    "DENT_LIMIT",
+    "DENT_RUPTURE_STRAIN",
     "NDRC_KENNEDY",
     "NOSE_FACTOR",
     "ORIENTATIONS",
+    "PERFORATION_FAMILIES",
     "PERFORATION_MARGIN",
     "PLATE_PERFORATION_MARGIN",
     "SCABBING_MARGIN",
@@ -76,18 +80,26 @@ __all__ = [
     "check_load_on_grating",
     "concrete_local_damage",
     "degen_perforation_thickness",
+    "degen_perforation_velocity",
     "drop_height_for_speed",
     "equivalent_diameter",
+    "family_ballistic_limits",
     "impact_speed",
     "is_hard",
     "kennedy_perforation_thickness",
     "kennedy_scabbing_thickness",
+    "load_family_heights",
     "load_local_damage",
     "ndrc_G",
     "ndrc_penetration",
     "ndrc_perforation_velocity",
     "ndrc_scabbing_velocity",
     "plate_deck_damage",
+    "plate_dent_depth",
+    "plate_dent_height",
+    "plate_dent_stiffness",
+    "plate_dent_strain",
+    "plate_dent_valid",
     "plate_local_damage",
     "residual_velocity",
     "slab_reinforcement_percent",
@@ -315,6 +327,15 @@ def _x_over_d_for_perforation(e_over_d: np.ndarray) -> np.ndarray:
     return np.where(e_over_d <= 3.19 * 1.35 - 0.718 * 1.35**2, quad, lin)
 
 
+def _x_over_d_for_degen(e_over_d: np.ndarray) -> np.ndarray:
+    # inverse of degen_perforation_thickness (the quadratic branch's smaller root up to
+    # x/d = 1.52, e/d = 2.2·1.52 − 0.3·1.52² = 2.6509)
+    disc = np.maximum(2.2**2 - 4.0 * 0.3 * e_over_d, 0.0)
+    quad = (2.2 - np.sqrt(disc)) / (2.0 * 0.3)
+    lin = (e_over_d - 0.69) / 1.29
+    return np.where(e_over_d <= 2.2 * 1.52 - 0.3 * 1.52**2, quad, lin)
+
+
 def _ndrc_speed_for_x(x_over_d: np.ndarray, M: np.ndarray, d: np.ndarray,
                       fc: np.ndarray, N: np.ndarray) -> np.ndarray:
     Gv = np.where(x_over_d <= 2.0, (x_over_d / 2.0) ** 2, x_over_d - 1.0)
@@ -337,6 +358,16 @@ def ndrc_perforation_velocity(M: ArrayLike, d: ArrayLike, t: ArrayLike, fc: Arra
     (:func:`kennedy_perforation_thickness` inverted, then :func:`ndrc_G`)."""
     M, d, t, fc, N = _arr(M, d, t, fc, N)
     return _ndrc_speed_for_x(_x_over_d_for_perforation(t / d), M, d, fc, N)
+
+
+def degen_perforation_velocity(M: ArrayLike, d: ArrayLike, t: ArrayLike, fc: ArrayLike,
+                               N: ArrayLike = 0.72) -> np.ndarray:
+    """Ballistic limit of a slab of thickness t (m) by Degen's relation on the modified
+    NDRC penetration, m/s: the strike speed whose Degen perforation thickness
+    (:func:`degen_perforation_thickness`, DOE-STD-3014 App. C Eqs. C-613/C-614)
+    equals t, through :func:`ndrc_G` inverted."""
+    M, d, t, fc, N = _arr(M, d, t, fc, N)
+    return _ndrc_speed_for_x(_x_over_d_for_degen(t / d), M, d, fc, N)
 
 
 # --- UKAEA / Barr ----------------------------------------------------------------
@@ -475,13 +506,16 @@ def concrete_local_damage(M: ArrayLike, d: ArrayLike, perimeter: ArrayLike,
     of three independent families at each point:
 
     1. modified NDRC penetration with Kennedy's scabbing and perforation relations;
-    2. UKAEA penetration with Barr's ballistic limit (no scabbing relation: it
-       takes the scabbing speed of family 3);
-    3. Chang's scabbing and perforation thicknesses.
+    2. Degen's perforation relation on the same NDRC penetration (DOE-STD-3014
+       App. C, Eqs. C-613/C-614);
+    3. UKAEA penetration with Barr's ballistic limit (no scabbing relation: it
+       takes the scabbing speed of family 4);
+    4. Chang's scabbing and perforation thicknesses.
 
-    Scabbing starts at the lowest scabbing speed of families 1 and 3, perforation
-    at the lowest ballistic limit of the three; the penetration is the deepest of
-    families 1 and 2, capped at t. Heights: h = (V² − v0²)/(2g) with v0 the
+    Scabbing starts at the lowest scabbing speed of families 1 and 4, perforation
+    at the lowest ballistic limit of the four (the most onerous family governs;
+    :func:`load_family_heights` gives the spread); the penetration is the deepest
+    of the NDRC and UKAEA penetrations, capped at t. Heights: h = (V² − v0²)/(2g) with v0 the
     downward speed at release (hoist lowering). Units as in the module docstring.
 
     The slab counts against scabbing only with t/1.1 and against perforation only
@@ -510,14 +544,58 @@ def _start_speeds(M: np.ndarray, d: np.ndarray, p: np.ndarray, t: np.ndarray,
                   ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Scabbing speed, ballistic limit (m/s) and the index of the governing family of
     :func:`concrete_local_damage` (the slab's DOE margins applied)."""
-    ts, tp = t / SCABBING_MARGIN, t / PERFORATION_MARGIN
+    ts = t / SCABBING_MARGIN
     v_scab = np.minimum(ndrc_scabbing_velocity(M, d, ts, fc, N),
                         chang_scabbing_velocity(M, d, ts, fc))
-    v_perf_all = np.stack([ndrc_perforation_velocity(M, d, tp, fc, N),
-                           barr_ballistic_limit(M, p, tp, fc, rho, r),
-                           chang_perforation_velocity(M, d, tp, fc)])
+    v_perf_all = family_ballistic_limits(M, d, p, t, fc, rho, r, N)
     v_bl = np.min(v_perf_all, axis=0)
     return np.minimum(v_scab, v_bl), v_bl, np.argmin(v_perf_all, axis=0)  # perforated ⇒ scabbed
+
+
+PERFORATION_FAMILIES: tuple[str, ...] = ("modified NDRC + Kennedy", "Degen",
+                                         "UKAEA / Barr", "Chang")
+"""The independent perforation families of :func:`concrete_local_damage`, in the
+order of :func:`family_ballistic_limits`; the most onerous (lowest ballistic limit)
+governs the verdict at every point."""
+
+
+def family_ballistic_limits(M: ArrayLike, d: ArrayLike, p: ArrayLike, t: ArrayLike,
+                            fc: ArrayLike, rho: ArrayLike, r: ArrayLike,
+                            N: ArrayLike = 0.72) -> np.ndarray:
+    """Ballistic limit of the slab t (m) by each of :data:`PERFORATION_FAMILIES`, m/s,
+    stacked on a first axis: modified NDRC + Kennedy/ACE
+    (:func:`ndrc_perforation_velocity`), Degen on the NDRC penetration
+    (:func:`degen_perforation_velocity`), Barr (:func:`barr_ballistic_limit`) and
+    Chang (:func:`chang_perforation_velocity`), each on t/1.2 (DOE-STD-3014 App. C,
+    ``PERFORATION_MARGIN``). Their spread is the scatter between published fits;
+    the verdict takes the lowest."""
+    M, d, p, t, fc, rho, r, N = _arr(M, d, p, t, fc, rho, r, N)
+    tp = t / PERFORATION_MARGIN
+    return np.stack([ndrc_perforation_velocity(M, d, tp, fc, N),
+                     degen_perforation_velocity(M, d, tp, fc, N),
+                     barr_ballistic_limit(M, p, tp, fc, rho, r),
+                     chang_perforation_velocity(M, d, tp, fc)])
+
+
+def load_family_heights(load: LiftLoad, deck: Deck, v0: float = 0.0
+                        ) -> dict[str, dict[str, float]]:
+    """The free-fall height (m, from the downward speed v0 m/s) at which each of
+    :data:`PERFORATION_FAMILIES` has ``load`` perforate the concrete ``deck``, per
+    strike orientation: ``{orientation: {family: height}}`` — the spread between the
+    families, for the calculation trace and the annex (the verdict takes the
+    lowest). Empty for a steel deck (one formula, BRL)."""
+    if deck.is_steel:
+        return {}
+    out: dict[str, dict[str, float]] = {}
+    for o in load.strike_orientations:
+        d, p, n = strike_geometry(o, load.footprint_length, load.footprint_width,
+                                  load.edge_width)
+        v = family_ballistic_limits(load.mass, d, p, deck.thickness, deck.concrete.fc,
+                                    deck.concrete.density, slab_reinforcement_percent(deck),
+                                    n)
+        h = drop_height_for_speed(np.maximum(v, v0), v0)
+        out[o] = {f: float(h[i]) for i, f in enumerate(PERFORATION_FAMILIES)}
+    return out
 
 
 def _damage(x: np.ndarray, v: np.ndarray, v0: ArrayLike, v_scab: ArrayLike,
@@ -530,15 +608,15 @@ def _damage(x: np.ndarray, v: np.ndarray, v0: ArrayLike, v_scab: ArrayLike,
     v0 = np.broadcast_to(np.asarray(v0, float), x.shape)
     perforation = v >= v_bl
     scabbing = v >= v_scab
-    extrapolated = (NDRC_KENNEDY.extrapolated(v) | UKAEA_BARR.extrapolated(v)
-                    | CHANG.extrapolated(v))
+    extrapolated = (NDRC_KENNEDY.extrapolated(v) | DEGEN.extrapolated(v)
+                    | UKAEA_BARR.extrapolated(v) | CHANG.extrapolated(v))
     return ConcreteDamage(
         penetration=x, scabbing=scabbing, perforation=perforation,
         h_scabbing=drop_height_for_speed(np.maximum(v_scab, v0), v0),
         h_perforation=drop_height_for_speed(np.maximum(v_bl, v0), v0),
         v_ballistic=v_bl, v_residual=residual_velocity(v, v_bl),
         extrapolated=extrapolated, governing_family=gov,
-        families=(NDRC_KENNEDY.name, UKAEA_BARR.name, CHANG.name))
+        families=PERFORATION_FAMILIES)
 
 
 # --- steel plate -----------------------------------------------------------------
@@ -598,6 +676,89 @@ def plate_local_damage(M: ArrayLike, d: ArrayLike, v: ArrayLike, t: ArrayLike,
                        h_perforation=drop_height_for_speed(np.maximum(v_bl, v0), v0),
                        v_ballistic=v_bl, v_residual=residual_velocity(v, v_bl),
                        extrapolated=BRL_STEEL.extrapolated(v))
+
+
+# --- steel plate denting -----------------------------------------------------------
+
+DENT_LIMIT = 0.025
+"""Dent depth of a steel plate deck that the permit reports the drop height for, m
+(25 mm: a plate dented deeper is a trip hazard and is replaced — a serviceability
+limit, common practice, no source; the safety limit is perforation, BRL)."""
+
+DENT_RUPTURE_STRAIN = 0.10
+"""Membrane strain beyond which a steel plate indented by a hard object may tear (mild
+steel under a punch, from memory); a dent past it is flagged outside the method's
+validity and perforation (BRL) is the verdict's measure."""
+
+
+def plate_dent_stiffness(t: ArrayLike, fy: ArrayLike, a: ArrayLike, R: ArrayLike
+                         ) -> np.ndarray:
+    """Coefficient k (N/m) of the plastic membrane energy of a steel plate dented by a
+    rigid flat punch, D(W) = k·W², J (W the dent depth, m):
+
+    k = π·f_y·t·(R + a) / (2·(R − a))
+
+    Rigid–perfectly plastic plate, clamped at radius R (m) around a punch of radius a
+    (m), conical mode: the generator of slope β = W/(R − a) stretches by β²/2, the
+    membrane force per width is N_0 = f_y·t, over the annulus π(R² − a²). The
+    kinematic (mode) method of Jones, *Structural Impact* (1989), ch. 7 approximate
+    methods — from memory; bending at the hinge circles is left out (less
+    resistance: a deeper dent, conservative: the bending work is t/W of the
+    membrane work), while the small-slope strain β²/2 reads the stretch
+    √(1 + β²) − 1 high by up to β²/4; the net is conservative where
+    t/W ≥ β²/4, which :func:`plate_dent_valid` requires. t m, f_y Pa. NaN where a ≥ R (the
+    footprint covers the panel: no dent mode, the framing checks govern)."""
+    t, fy, a, R = _arr(t, fy, a, R)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        k = math.pi * fy * t * (R + a) / (2.0 * (R - a))
+    return np.where(R > a, k, np.nan)
+
+
+def plate_dent_depth(M: ArrayLike, h_e: ArrayLike, k: ArrayLike) -> np.ndarray:
+    """Dent depth W (m) of a plate of membrane coefficient k (N/m,
+    :func:`plate_dent_stiffness`) struck by a mass M (kg) after an energy height h_e
+    (m; the fall plus v_h²/2g): the energy balance M·g·(h_e + W) = k·W² solved,
+
+    W = [M·g + √((M·g)² + 4·k·M·g·h_e)] / (2k)
+
+    (the load's weight keeps working through the dent, as in the framing's energy
+    balance, Gere 7th ed. §9.10). Rigid–plastic: valid where the kinetic energy is
+    large against the plate's elastic energy."""
+    M, h_e, k = _arr(M, h_e, k)
+    Mg = M * G
+    return (Mg + np.sqrt(Mg**2 + 4.0 * k * Mg * np.maximum(h_e, 0.0))) / (2.0 * k)
+
+
+def plate_dent_height(M: ArrayLike, W: ArrayLike, k: ArrayLike,
+                      v0: ArrayLike = 0.0) -> np.ndarray:
+    """Free fall (m, from the downward speed v0 m/s) at which the dent reaches W (m):
+    :func:`plate_dent_depth` solved for the energy height, h_e = (k·W² − M·g·W)/(M·g),
+    less v0²/(2g); 0 where the weight alone dents it that deep."""
+    M, W, k, v0 = _arr(M, W, k, v0)
+    Mg = M * G
+    return np.maximum((k * W**2 - Mg * W) / Mg - v0**2 / (2.0 * G), 0.0)
+
+
+def plate_dent_strain(W: ArrayLike, a: ArrayLike, R: ArrayLike) -> np.ndarray:
+    """Membrane strain of the conical dent mode, ε = ½·(W/(R − a))² (small slopes;
+    :func:`plate_dent_stiffness`), dimensionless."""
+    W, a, R = _arr(W, a, R)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return 0.5 * (W / (R - a)) ** 2
+
+
+def plate_dent_valid(W: ArrayLike, t: ArrayLike, a: ArrayLike, R: ArrayLike
+                     ) -> np.ndarray:
+    """Whether the membrane dent estimate is within its validity: the dent at least
+    the plate thickness (membrane action; shallower dents are bending-governed and
+    the membrane-only energy over-predicts them, conservative), the membrane
+    strain at most :data:`DENT_RUPTURE_STRAIN`, and the bending work left out (t/W
+    of the membrane work) at least the small-slope strain's excess (β²/4), so the
+    estimate stays on the deep side: t ≥ W³/(4(R − a)²)."""
+    W, t, a, R = _arr(W, t, a, R)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        net = t >= W**3 / (4.0 * (R - a) ** 2)
+    return (W >= t) & (plate_dent_strain(W, a, R) <= DENT_RUPTURE_STRAIN) & (R > a) & net
 
 
 # --- a load on a deck ------------------------------------------------------------

@@ -104,7 +104,10 @@ class CaseResult:
     ``perforation_height`` (free fall at which each starts, m), ``residual_velocity``
     (m/s after perforation, 0 when not perforated), ``local_extrapolated`` (bool: the
     strike speed is outside the formulas' test range) and ``strike_orientation``
-    (index into ``droprig.model.STRIKE_ORIENTATIONS`` of the governing one).
+    (index into ``droprig.model.STRIKE_ORIENTATIONS`` of the governing one); on a
+    steel plate deck ``dent_depth`` (m, plastic membrane dent) and ``dent_height``
+    (drop height on the datum at which the dent reaches
+    ``droprig.solver.local_damage.DENT_LIMIT``, m).
     """
 
     zone_id: str
@@ -143,6 +146,8 @@ class CaseResult:
     residual_velocity: np.ndarray = None  # type: ignore[assignment]
     local_extrapolated: np.ndarray = None  # type: ignore[assignment]
     strike_orientation: np.ndarray = None  # type: ignore[assignment]
+    dent_depth: np.ndarray = None  # type: ignore[assignment]
+    dent_height: np.ndarray = None  # type: ignore[assignment]
 
     fall_height: np.ndarray | None = None
     structure_compliance: np.ndarray | None = None
@@ -157,7 +162,8 @@ class CaseResult:
                 "scabbing_height": np.full(n, np.nan),
                 "perforation_height": np.full(n, np.nan), "residual_velocity": np.zeros(n),
                 "local_extrapolated": np.zeros(n, dtype=bool),
-                "strike_orientation": np.full(n, -1, dtype=np.int64)}
+                "strike_orientation": np.full(n, -1, dtype=np.int64),
+                "dent_depth": np.full(n, np.nan), "dent_height": np.full(n, np.nan)}
         for k, v in fill.items():
             if getattr(self, k) is None:
                 object.__setattr__(self, k, v)
@@ -199,7 +205,9 @@ class BaySummary:
     ``local_extrapolated`` (the answer lies outside the formulas' test speeds),
     ``strike_orientation`` (the governing one at the worst point) and ``level_below``
     (id of the level under this one in the project, ``None`` when the project does not
-    hold it).
+    hold it). A steel plate deck: ``dent_depth`` (deepest plastic dent in the bay, m)
+    and ``dent_height`` (least drop height on the datum at which the dent reaches
+    ``droprig.solver.local_damage.DENT_LIMIT``, m); ``None`` elsewhere.
     """
 
     level_id: str
@@ -242,6 +250,8 @@ class BaySummary:
     local_extrapolated: bool = False
     strike_orientation: str | None = None
     level_below: str | None = None
+    dent_depth: float | None = None
+    dent_height: float | None = None
 
 
 @dataclass(frozen=True)

@@ -176,6 +176,11 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
                                   case.scabbing_height), np.inf).min(axis=1)
     h_perf = np.where(M, np.where(np.isnan(case.perforation_height), np.inf,
                                   case.perforation_height), np.inf).min(axis=1)
+    # steel plate decks: the deepest dent and the least height of the dent limit
+    dent = np.where(M, np.where(np.isnan(case.dent_depth), -np.inf, case.dent_depth),
+                    -np.inf).max(axis=1)
+    h_dent = np.where(M, np.where(np.isnan(case.dent_height), np.inf, case.dent_height),
+                      np.inf).min(axis=1)
     for b in np.flatnonzero(count):
         i = int(gov[b])
         wst = int(worst[b])
@@ -230,7 +235,9 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
             scabbing=bool(scab[b]), scabbing_height=hs, perforation_height=hpf,
             local_extrapolated=bool(extrap[b]),
             strike_orientation=STRIKE_ORIENTATIONS[so] if so >= 0 else None,
-            level_below=level_below))
+            level_below=level_below,
+            dent_depth=float(dent[b]) if np.isfinite(dent[b]) else None,
+            dent_height=float(h_dent[b]) if np.isfinite(h_dent[b]) else None))
     return out
 
 

@@ -19,7 +19,7 @@ import math
 import numpy as np
 
 from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
-from droprig.solver import amplification, droppoints, limits
+from droprig.solver import amplification, droppoints, limits, local_damage
 from droprig.solver.chain import (
     BRITTLE,
     LANDINGS,
@@ -35,6 +35,7 @@ from droprig.solver.chain import (
     LocalDamage,
     SlabResistance,
     StruckMass,
+    energy_fall,
     outputs,
     slab_rotation_limit,
     tilted_governs,
@@ -241,11 +242,19 @@ def _impact_steps(sheet: _Sheet) -> None:
         {"H": (inp.H[0], "length"), "t_mat": (inp.t_mat[0], "length")}, inp.h[0],
         "length", "load data (droprig.solver.chain.planned_height)")
     W = load.weight
+    v_h = sheet.chain.drop.v_hoist
+    h_e = float(energy_fall(sheet.chain, inp.h[:1])[0])
+    if v_h > 0.0:
+        add("Energy height: the fall plus the head of the hoist's lowering speed (the "
+            "load strikes at V = √(v_h² + 2gh))", "h_e", "h_e = h + v_h²/(2g)",
+            {"h": (inp.h[0], "length"), "v_h": (v_h, "speed")}, h_e, "length",
+            "uniform acceleration (any dynamics text); kinetic energy ½·M·V²")
     add("Static deflection", "δ_st", "δ_st = W·f",
         {"W": (W, "force"), "f": (comp.f[0], "compliance")}, imp.d_st[0],
         "length", _SRC_GERE)
-    add("Dynamic factor", "K", "K = 1 + √(1 + 2ηh/δ_st)" if inp.f_mat[0] >= 0 else "",
-        {"η": (sm.eta[0], "dimensionless"), "h": (inp.h[0], "length"),
+    hk = "h_e" if v_h > 0.0 else "h"
+    add("Dynamic factor", "K", f"K = 1 + √(1 + 2η{hk}/δ_st)" if inp.f_mat[0] >= 0 else "",
+        {"η": (sm.eta[0], "dimensionless"), hk: (h_e, "length"),
          "δ_st": (imp.d_st[0], "length")}, imp.K[0],
         "dimensionless", _SRC_GERE)
     add("Peak impact force", "F", "F = K·W" if imp.crush[0] == 0 else
@@ -439,6 +448,32 @@ def _plate_damage_steps(sheet: _Sheet) -> None:
         "h_p", "t_s = 1.25·e(V), e^1.5 = 0.5·M·V²/(1.4396·10⁹·d^1.5), V = √(v_h² + 2gh)",
         {"t_s": (dk.steel_depth, "small_length"), "M": (inp.M[0], "mass")},
         ld.h_perf[0], "length", src)
+    if dk.kind == "steel_plate" and np.isfinite(ld.dent[0]):
+        src_d = ("Jones, Structural Impact (1989) ch. 7, rigid-plastic mode method, "
+                 "membrane only (from memory); clamped at half the strip span"
+                 + ("" if ld.dent_valid[0] else
+                    "; outside its validity (dent under the plate thickness, membrane "
+                    "strain over 10 % or the load through the plate: see perforation)"))
+        add("Plastic dent of the plate (deepest strike orientation)", "W",
+            "M·g·(h + v_h²/2g + W) = k·W², k = π·f_y·t·(R + a)/(2(R − a))",
+            {"t": (dk.thickness, "small_length"), "f_y": (dk.steel_fy, "stress"),
+             "M": (inp.M[0], "mass")}, ld.dent[0], "small_length", src_d)
+        add(f"Drop height at which the dent reaches "
+            f"{local_damage.DENT_LIMIT * 1000:.0f} mm (a serviceability limit)", "h_W",
+            "h = (k·W_lim² − M·g·W_lim)/(M·g) − v_h²/2g",
+            {"M": (inp.M[0], "mass")}, ld.h_dent[0], "length", src_d)
+
+
+_FAMILY_ROWS: tuple[tuple[str, str], ...] = (
+    ("h_p,NDRC", "t/1.2 = e: e/d = 3.19·x/d − 0.718·(x/d)² or 1.32 + 1.24·x/d"),
+    ("h_p,Degen", "t/1.2 = e: e/d = 2.2·x/d − 0.3·(x/d)² or 0.69 + 1.29·x/d"),
+    ("h_p,Barr", "V_p = 1.3·ρ^(1/6)·f_c^(1/2)·(p·(t/1.2)²/(πM))^(2/3)·(r + 0.3)^(1/2)"),
+    ("h_p,Chang", "t/1.2 = e: e/d = (u/V)^0.25·(M·V²/(d³f_c))^0.5"))
+_FAMILY_SOURCES: dict[str, str] = {
+    "modified NDRC + Kennedy": "DOE-STD-3014 App. C §C.6.3.2.1.2; Kennedy 1976",
+    "Degen": "DOE-STD-3014 App. C Eqs. C-613, C-614 (Degen 1980)",
+    "UKAEA / Barr": "Barr 1990; Li et al. 2005 (from memory)",
+    "Chang": "Chang 1981; Li et al. 2005 (from memory)"}
 
 
 def _local_damage_steps(sheet: _Sheet) -> None:
@@ -464,6 +499,16 @@ def _local_damage_steps(sheet: _Sheet) -> None:
             "t = 1.1·t_s(V), V = √(v_h² + 2gh) (Kennedy, Chang)",
             {"t": (lv.deck.thickness, "length")},
             ld.h_scab[0], "length", src)
-        add("Drop height at which the load perforates the deck", "h_p",
-            "t = 1.2·t_p(V), V = √(v_h² + 2gh) (Kennedy/ACE, Barr, Chang)",
+        add("Drop height at which the load perforates the deck (the most onerous "
+            "family governs)", "h_p",
+            "t = 1.2·t_p(V), V = √(v_h² + 2gh) (Kennedy/ACE, Degen, Barr, Chang)",
             {"t": (lv.deck.thickness, "length")}, ld.h_perf[0], "length", src)
+        # the spread between the independent families for the governing orientation
+        spread = local_damage.load_family_heights(sheet.load, lv.deck,
+                                                  sheet.chain.drop.v_hoist).get(so, {})
+        for fam, (sym, eq) in zip(local_damage.PERFORATION_FAMILIES, _FAMILY_ROWS, strict=True):
+            if fam in spread:
+                add(f"Perforation height by {fam} ({so} strike; spread between the "
+                    "families, the lowest governs)", sym, eq,
+                    {"t": (lv.deck.thickness, "length")}, spread[fam], "length",
+                    _FAMILY_SOURCES[fam])

@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import contextlib
 import copy
+import dataclasses
 import io
 import json
 import math
@@ -312,6 +313,11 @@ def random_project(rng: random.Random) -> bytes:
                                                   steel_fy=rng.choice([235e6, 355e6])),
                              Deck(kind="grating", thickness=rng.uniform(0.025, 0.06),
                                   bar_thickness=0.005, bar_pitch=rng.choice([0.03, 0.041]))])))
+        # a level below recorded as unoccupied now and then (its own file key, which the
+        # mutations then reach), chosen from values already drawn: the random stream of
+        # the existing seeds is unchanged
+        if len(xs) == 2:
+            levels[-1] = dataclasses.replace(levels[-1], occupied_below=False)
     zones, prots = [], []
     for j in range(rng.randint(1, 2)):
         lv = rng.choice(levels)

@@ -226,3 +226,144 @@ def test_plate_contact_force_bounded_by_the_plate_yielding_under_the_footprint()
     area = inp.foot_l * inp.foot_w
     assert imp.F_crush == pytest.approx(3.0 * 235e6 * area, rel=REL)
     assert np.all(imp.F <= imp.F_crush * (1 + 1e-9) + 1.0) or np.all(imp.deck_through)
+
+
+# --- plastic denting of a steel plate deck ------------------------------------------
+# Rigid-plastic mode method (Jones, Structural Impact, 1989, ch. 7 — from memory):
+# conical mode of a plate clamped at radius R around a rigid punch of radius a; the
+# membrane energy is checked against scipy's integration of the exact stretch
+# N_0·(√(1 + β²) − 1) over the annulus, and the energy balance against brentq.
+
+def _membrane_energy_exact(W: float, t: float, fy: float, a: float, R: float) -> float:
+    beta = W / (R - a)
+    eps = math.sqrt(1.0 + beta**2) - 1.0
+    return quad(lambda r: fy * t * eps * 2 * math.pi * r, a, R, epsabs=0,
+                epsrel=1e-12)[0]
+
+
+def test_dent_energy_is_the_membrane_work_of_the_conical_mode() -> None:
+    t, fy, a, R = 0.010, 235e6, 0.10, 0.50
+    k = float(ld.plate_dent_stiffness(t, fy, a, R))
+    # hand: π·235e6·0.01·0.6/(2·0.4) = 5.5371e6 N/m
+    assert k == pytest.approx(5.5371e6, rel=HAND)
+    for W in (0.005, 0.02, 0.04):
+        exact = _membrane_energy_exact(W, t, fy, a, R)
+        # small slopes: β²/2 for √(1 + β²) − 1, low by β²/8 at most (β ≤ 0.1 here)
+        assert k * W**2 == pytest.approx(exact, rel=(W / (R - a)) ** 2 / 4 + 1e-9)
+        # β²/2 ≥ √(1 + β²) − 1: the small-slope energy is the higher (a dent up to
+        # β²/4 too shallow; plate_dent_valid asks the bending left out, t/W of it,
+        # to make up for that)
+        assert k * W**2 >= exact
+
+
+def test_dent_depth_balances_the_energy_and_inverts_to_its_height() -> None:
+    from scipy.optimize import brentq
+    t, fy, a, R, M = 0.010, 235e6, 0.10, 0.50, 220.0
+    k = float(ld.plate_dent_stiffness(t, fy, a, R))
+    for h_e in (0.2, 1.0, 5.0):
+        W = float(ld.plate_dent_depth(M, h_e, k))
+        W_ref = brentq(lambda w, h_e=h_e: k * w**2 - M * G * (h_e + w), 1e-9, 10.0, xtol=1e-14)
+        assert W == pytest.approx(W_ref, rel=1e-10)
+    # hand: 220 kg from 1.0 m: W = 0.01994 m
+    assert float(ld.plate_dent_depth(M, 1.0, k)) == pytest.approx(0.01994, rel=1e-3)
+    h = float(ld.plate_dent_height(M, ld.DENT_LIMIT, k))
+    assert float(ld.plate_dent_depth(M, h, k)) == pytest.approx(ld.DENT_LIMIT, rel=1e-10)
+    # with a lowering speed the height for the same dent is lower by v_h²/2g
+    assert float(ld.plate_dent_height(M, ld.DENT_LIMIT, k, 0.3)) == pytest.approx(
+        h - 0.3**2 / (2 * G), rel=1e-10)
+
+
+def test_dent_validity_and_a_footprint_larger_than_the_panel() -> None:
+    t, a, R = 0.010, 0.10, 0.50
+    assert not bool(ld.plate_dent_valid(0.005, t, a, R))   # under t: bending governs
+    assert bool(ld.plate_dent_valid(0.02, t, a, R))         # strain 0.00125
+    assert not bool(ld.plate_dent_valid(0.2, t, a, R))      # strain 0.125 > 0.10
+    # a thin plate dented deep: strain 0.08 ≤ 0.10, but t = 3 mm < W³/(4(R − a)²) =
+    # 0.16³/0.64 = 6.4 mm — the small-slope excess is not covered: not valid
+    assert bool(ld.plate_dent_strain(0.16, a, R) <= ld.DENT_RUPTURE_STRAIN)
+    assert not bool(ld.plate_dent_valid(0.16, 0.003, a, R))
+    assert bool(ld.plate_dent_valid(0.16, 0.007, a, R))
+    assert np.isnan(ld.plate_dent_stiffness(t, 235e6, 0.6, 0.5))
+
+
+def test_dent_reaches_the_demo_outputs_and_the_trace() -> None:
+    from droprig.io.project_file import load_project
+    from droprig.solver import analyse, trace_point
+
+    p = load_project(ROOT / "demo_projects" / "two_level_rigging.droprig")
+    roof = dataclasses.replace(p.level("RF"), deck=PLATE)
+    p = dataclasses.replace(p, levels=(roof, p.level("L3")))
+    res = analyse(p)
+    case = next(c for c in res.cases if c.load_name == "Hook block 12 t"
+                and c.level_id == "RF")
+    bare = case.protection < 0
+    assert np.isfinite(case.dent_depth[bare]).any()
+    i = int(np.flatnonzero(np.isfinite(case.dent_depth))[0])
+    t = trace_point(p, case.zone_id, case.load_name, float(case.x[i]), float(case.y[i]))
+    steps = {s.symbol: s.value for s in t.steps}
+    assert steps["W"] == pytest.approx(case.dent_depth[i], rel=1e-12)
+    assert steps["h_W"] == pytest.approx(case.dent_height[i], rel=1e-12)
+    # a concrete deck has no dent
+    conc = next(c for c in analyse(load_project(
+        ROOT / "demo_projects" / "two_level_rigging.droprig")).cases
+        if c.load_name == "Hook block 12 t")
+    assert np.isnan(conc.dent_depth).all()
+
+
+def test_dent_reaches_the_bay_summary_and_the_json(tmp_path) -> None:
+    # the CLI JSON's bays carry the deepest dent and the least height of the dent limit
+    # of their points (the per-point CSV carries dent_depth_m / dent_height_m)
+    import csv
+    import json
+
+    from droprig.cli import main
+    from droprig.io.project_file import dumps_project, load_project
+
+    p = load_project(ROOT / "demo_projects" / "two_level_rigging.droprig")
+    roof = dataclasses.replace(p.level("RF"), deck=PLATE)
+    p = dataclasses.replace(p, levels=(roof, p.level("L3")))
+    src = tmp_path / "plate.droprig"
+    src.write_text(dumps_project(p), encoding="utf-8")
+    jpath, cpath = tmp_path / "r.json", tmp_path / "r.csv"
+    assert main(["analyse", str(src), "--json", str(jpath), "--csv", str(cpath)]) == 0
+    doc = json.loads(jpath.read_text(encoding="utf-8"))
+    with cpath.open(encoding="utf-8", newline="") as fh:
+        rows = [r for r in csv.DictReader(fh) if r["level"] == "RF"
+                and r["dent_depth_m"] not in ("", None)]
+    assert rows
+    dents = [b for b in doc["bays"] if b["level_id"] == "RF" and b["dent_depth"] is not None]
+    assert dents
+    checked = 0
+    for b in dents:
+        pts = [r for r in rows if r["bay"] == b["bay_id"] and r["load"] == b["load_name"]]
+        if pts:
+            # the bay's summary covers its own points (and those on its grid lines)
+            assert b["dent_depth"] >= max(float(r["dent_depth_m"]) for r in pts) * (1 - 1e-6)
+            assert b["dent_height"] <= min(float(r["dent_height_m"]) for r in pts) * (1 + 1e-6)
+            checked += 1
+    assert checked
+
+
+def test_dent_is_not_valid_where_the_load_perforates_the_plate() -> None:
+    # the 220 kg hook block perforates a 10 mm plate on a corner from 2.97 m (BRL, hand
+    # value in test_plate_perforation_height_by_hand's source): from 6 m the dent is
+    # no measure of the damage and is flagged outside validity
+    from droprig.io.project_file import load_project
+    from droprig.solver import analysis
+    from droprig.solver.chain import Drop, LocalDamage, run_chain
+
+    p = load_project(ROOT / "demo_projects" / "two_level_rigging.droprig")
+    roof = dataclasses.replace(p.level("RF"), deck=PLATE)
+    p = dataclasses.replace(p, levels=(roof, p.level("L3")))
+    zone = p.lift_zones[0]
+    fm = analysis.build_floor(p.level(zone.level_id), p.settings)
+    ext = fm.level.grid.extent
+    x = np.linspace(ext.x0 + 0.3, ext.x1 - 0.3, 5)
+    y = np.full(5, 0.5 * (ext.y0 + ext.y1))
+    geo = analysis.point_geometry(fm, p, x, y)
+    hook = next(ld_ for ld_ in zone.loads if ld_.name == "Hook block 12 t")
+    c = run_chain(Drop(fm, p, geo, (hook,), np.zeros(5, dtype=np.int64),
+                       v_hoist=zone.hoist_speed))
+    dmg = c[LocalDamage]
+    assert dmg.perforation.all() and np.isfinite(dmg.dent).all()
+    assert not dmg.dent_valid.any()
