@@ -482,13 +482,16 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
 def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
                          a: ArrayLike, M: ArrayLike, h: ArrayLike, f_c: ArrayLike = 0.0, *,
                          F_yield: ArrayLike = math.inf, stroke: ArrayLike = math.inf,
-                         group: int = 128, spread: float = 1.5) -> TimeHistoryPeaks:
+                         group: int = 128, spread: float = 1.5,
+                         n_modes: int = DEFAULT_MODES, cutoff: float = DEFAULT_CUTOFF,
+                         steps_per_period: int = DEFAULT_STEPS_PER_PERIOD) -> TimeHistoryPeaks:
     """:func:`time_history` of many cases of mixed end conditions (``cond`` an array of
     names), run vectorised in groups of ``group`` cases of one end condition and a
     similar number of time steps (a group runs as many steps as its longest case), so
     that one case needing many steps does not hold up the rest. Same model and
-    sources as :func:`time_history`; the peaks come back in the cases' order
-    (``dt``/``steps``: per case the time step, and the largest group's steps)."""
+    sources as :func:`time_history` (``n_modes``, ``cutoff``, ``steps_per_period`` as
+    there); the peaks come back in the cases' order (``dt``/``steps``: per case the
+    time step, and the largest group's steps)."""
     cond_a = np.atleast_1d(np.asarray(cond, dtype=object))
     L, EI, mu, a, M, h, f_c, F_y, s_y = (np.atleast_1d(v) for v in np.broadcast_arrays(
         *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke))))
@@ -498,7 +501,8 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
     modes = np.zeros(L.size, int)
     steps = 0
     need = time_history(cond_a, L, EI, mu, a, M, h, f_c, F_yield=F_y, stroke=s_y,
-                        _plan=True).dt
+                        _plan=True, n_modes=n_modes, cutoff=cutoff,
+                        steps_per_period=steps_per_period).dt
     order = np.argsort(need, kind="stable")
     need = need[order]
     g = 0
@@ -508,7 +512,8 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
         sel = order[g:e]
         g = e
         t = time_history(cond_a[sel], L[sel], EI[sel], mu[sel], a[sel], M[sel], h[sel],
-                         f_c[sel], F_yield=F_y[sel], stroke=s_y[sel])
+                         f_c[sel], F_yield=F_y[sel], stroke=s_y[sel], n_modes=n_modes,
+                         cutoff=cutoff, steps_per_period=steps_per_period)
         for k in out:
             out[k][sel] = getattr(t, k)
         modes[sel] = t.modes
