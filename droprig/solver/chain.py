@@ -778,7 +778,9 @@ class DynamicAmplification:
     deflection forces (index into :data:`droprig.solver.amplification.SET_BY`);
     ``th``: the points whose factors come from their own time history
     (:func:`droprig.solver.pointhistory.point_history`, bool) and ``history`` that run
-    (its points in ascending order; None where no point was run)."""
+    (its points in ascending order; None where no point was run);
+    ``A_deflection_bound`` the deflection factor of the bounds alone (what the
+    inverse answers take, None where it equals ``A_deflection``)."""
 
     mass_ratio: np.ndarray
     compliance_ratio: np.ndarray
@@ -791,6 +793,7 @@ class DynamicAmplification:
     set_by: dict[str, np.ndarray]
     th: np.ndarray | None = None
     history: pointhistory.PointHistory | None = None
+    A_deflection_bound: np.ndarray | None = None
 
 
 def dynamic_amplification(c: Chain) -> DynamicAmplification:
@@ -812,9 +815,10 @@ def dynamic_amplification(c: Chain) -> DynamicAmplification:
     a crushable layer is an elastic–perfectly plastic contact like the deck's
     crushing, with its own force and stroke.
 
-    Where it matters the bounds give way to the point's own time history
+    Where it matters the point's own time history
     (:func:`droprig.solver.pointhistory.point_history`, its peaks × the convergence
-    margin TH_MARGIN over the energy method's): in each group of points of one bay
+    margin TH_MARGIN over the energy method's) lowers a factor to its own where that
+    is less (both lie above the time history): in each group of points of one bay
     and one load, the points whose bounded U could exceed the limit (≥
     :data:`TH_NEAR`) and lie within 10 % of the group's worst, where a bounded factor
     exceeds :data:`TH_FACTOR_MIN`, at most :data:`TH_PER_ROUND` per round; a point
@@ -917,20 +921,27 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
               "deflection": A_D}
     th, hist = _point_histories(c, h, F, factor, th_points)
     set_by = dict(forces.set_by)
+    A_D_bound = A_D
     if hist is not None:
         idx = np.flatnonzero(th)
         got = _th_factors(hist)
         factor = {k: v.copy() for k, v in factor.items()}
+        lower = {}
         for k in factor:
-            factor[k][idx] = got[k]
+            lower[k] = np.zeros(d.n, dtype=bool)
+            lower[k][idx] = got[k] < factor[k][idx]
+            factor[k][idx] = np.minimum(factor[k][idx], got[k])
         ti = amp_mod.SET_BY.index("point time history")
-        set_by = {k: np.where(th, ti, v) for k, v in set_by.items()}
+        keyed = {"local": "web_yielding", "moment": "flexure", "shear": "shear",
+                 "deflection": "deflection"}
+        set_by = {k: np.where(lower[keyed[k]], ti, v) for k, v in set_by.items()}
     A_D = factor.pop("deflection")
     return DynamicAmplification(mass_ratio=a.mass_ratio, compliance_ratio=a.compliance_ratio,
                                 A_force=factor["web_yielding"], A_moment=factor["flexure"],
                                 A_shear=factor["shear"], A_deflection=A_D,
                                 F_bound=np.minimum(rigid, np.where(holds, F_cap, np.inf)),
-                                factor=factor, set_by=set_by, th=th, history=hist)
+                                factor=factor, set_by=set_by, th=th, history=hist,
+                                A_deflection_bound=A_D_bound)
 
 
 def _point_histories(c: Chain, h: np.ndarray, F: np.ndarray, factor: dict[str, np.ndarray],
@@ -977,7 +988,7 @@ def _point_histories(c: Chain, h: np.ndarray, F: np.ndarray, factor: dict[str, n
         ph = pointhistory.point_history(c, idx, h[idx], F[idx])
         got = _th_factors(ph)
         for k in now:
-            now[k][idx] = got[k]
+            now[k][idx] = np.minimum(now[k][idx], got[k])
         U_now = _utilisation(dem, now, F)
         th[idx] = True
         rows.append(idx)
@@ -1519,7 +1530,11 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     h_pl = with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
     # the drop height that gives the structure that energy after amplification (A_δ²)
-    h_pl = h_pl / c[DynamicAmplification].A_deflection ** 2
+    # (the bounds' factor: a forward run at that height may not run the point's own
+    # time history, and the bounds lie above it)
+    da = c[DynamicAmplification]
+    A_D = da.A_deflection if da.A_deflection_bound is None else da.A_deflection_bound
+    h_pl = h_pl / A_D ** 2
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
@@ -1562,49 +1577,42 @@ def inverse_answers(c: Chain) -> InverseAnswers:
 
 
 _CONFIRM_ROUNDS = 12
-TH_INVERSE_ROUNDS = 2
-"""Rounds of the allowable-height confirmation that run the points' own time
-history (at the points the forward step ran it); later rounds take the bounds there
-(upper bounds too: a lower, never a higher, height)."""
 
 
-def amplified_utilisation_at(c: Chain, h: np.ndarray, th: bool = True) -> np.ndarray:
+def amplified_utilisation_at(c: Chain, h: np.ndarray) -> np.ndarray:
     """Largest elastic U of every check family at the free falls ``h`` (m): the
-    impact at h (:func:`impact_at`) and the amplification at h
-    (:func:`amplification_at`; with ``th`` the point time history at the points the
-    forward step ran it, else the bounds everywhere) on step 5's energy-method
-    checks (linear in F)."""
+    impact at h (:func:`impact_at`) and the bounds of the amplification at h
+    (:func:`amplification_at` with no point time history) on step 5's energy-method
+    checks (linear in F). The bounds lie at or above what a forward run at h takes
+    (a point's own time history only lowers a factor), so a height they allow holds
+    in the forward run whichever points it runs."""
     imp = impact_at(c, h)
-    fwd = c[DynamicAmplification].th
-    pts = fwd if th and fwd is not None else np.zeros(c.drop.n, dtype=bool)
-    amp = amplification_at(c, h, imp, th_points=pts)
+    amp = amplification_at(c, h, imp, th_points=np.zeros(c.drop.n, dtype=bool))
     return _utilisation(_energy_demands(c), amp.factor, imp.F)
 
 
 def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
     """The elastic allowable free fall with dynamic amplification, m: the factors
     depend on the height (the rigid-base and crushing bounds, the energy method's own
-    force, the point's own time history), so the closed form's height — with the
-    factors at the planned height — is re-checked by a forward run at that height
+    force), so the closed form's height — with the factors at the planned height — is
+    re-checked by a forward run of the bounds at that height
     (:func:`amplified_utilisation_at`) and lowered by (0.98/U)² where U > 1 (F ∝ √h
     for a drop large against the static deflection, Gere 7th ed. Eq. 9-94), until
-    every point holds (at most :data:`_CONFIRM_ROUNDS` rounds, the first
-    :data:`TH_INVERSE_ROUNDS` with the point time history; a point still over then
+    every point holds (at most :data:`_CONFIRM_ROUNDS` rounds; a point still over then
     gets no height, NaN)."""
     h = h_el.copy()
-    for r in range(_CONFIRM_ROUNDS):
+    for _ in range(_CONFIRM_ROUNDS):
         live = np.isfinite(h) & (h > 0.0)
         if not live.any():
             break
         U = np.ones(c.drop.n)
-        U[live] = amplified_utilisation_at(c, np.where(live, h, 0.0),
-                                           th=r < TH_INVERSE_ROUNDS)[live]
+        U[live] = amplified_utilisation_at(c, np.where(live, h, 0.0))[live]
         over = live & (U > 1.0)
         if not over.any():
             return h
         h = np.where(over, h * np.minimum(0.98, (0.98 / U) ** 2), h)
     live = np.isfinite(h) & (h > 0.0)
-    U = amplified_utilisation_at(c, np.where(live, h, 0.0), th=False)
+    U = amplified_utilisation_at(c, np.where(live, h, 0.0))
     return np.where(live & (U > 1.0), np.nan, h)
 
 

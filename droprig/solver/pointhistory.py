@@ -8,12 +8,14 @@ own position ``a`` by the whole load; everything else of the path (the other fra
 and the columns, the deck's indentation and strip, the load's underside, a spring
 mat) is a massless spring in series with the contact, so that the member's own spring
 plus the contact spring equal the chain's total compliance f. The member's mass per
-length is the steel's, raised so that its Rayleigh mass at the struck point is the
-path's Rayleigh mass the chain's struck-mass step reads (``geo.path.m_e``, with the
-other framing and any slab mass the path carries), never below the steel's. The
-contact is elastic–perfectly plastic as the chain caps it: the crushing force of the
-deck concrete (or a steel deck's indentation) over the cover (the plate), or a
-crushable layer's force over its stroke (:func:`droprig.solver.timehistory.time_history`
+length is the one the chain's load path and struck-mass step read
+(``FloorModel.frame.mu``, the steel's); the other framing's and the slab's mass are
+not in the time history (raising the member's mass to the path's Rayleigh mass at
+the struck point was tried and fails near a support, where the member's own Rayleigh
+mass goes to zero and the ratio without bound). The contact is elastic–perfectly
+plastic as the chain caps it: the crushing force of the deck concrete (or a steel
+deck's indentation) over the cover (the plate), a bare flange's local yield force over
+its thickness, or a crushable layer's force over its stroke (:func:`droprig.solver.timehistory.time_history`
 with ``F_yield``/``stroke``; Euler–Bernoulli modes, Blevins 1979 Table 8-1; Newmark
 average acceleration, Chopra 4th ed. §5.4).
 
@@ -117,20 +119,14 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     mu = fr.mu[m]
     cond = np.array([COND_NAMES[int(x)] for x in fr.cond[m]], dtype=object)
     g_m = np.zeros(sel.size)
-    m_r = np.zeros(sel.size)
     for cn in dict.fromkeys(cond.tolist()):
         i = cond == cn
         cc = cast(EndCondition, cn)
         g_m[i] = beam.green(cc, L[i], EI[i], a[i], a[i])
-        m_r[i] = beam.rayleigh_mass_factor(cc, L[i], a[i]) * mu[i] * L[i]
     crushable = inp.crushable[sel]
     f_all = np.where(crushable, comp.f_struct[sel], comp.f[sel])
     f_c = np.maximum(f_all - g_m, 0.0)
-    m_path = path.m_e[sel]
-    with np.errstate(divide="ignore", invalid="ignore"):
-        scale = np.where(np.isfinite(m_path) & (m_r > 0.0), m_path / np.where(m_r > 0, m_r, 1.0),
-                         1.0)
-    mu_th = mu * np.maximum(scale, 1.0)
+    mu_th = mu
     W = inp.W[sel]
     F_y = np.where(crushable, inp.F_c[sel], imp.F_crush[sel])
     stroke = np.where(crushable, inp.s_c[sel], crush_depth_available(c))
