@@ -15,9 +15,10 @@ the struck point was tried and fails near a support, where the member's own Rayl
 mass goes to zero and the ratio without bound). The contact is elastic–perfectly
 plastic as the chain caps it: the crushing force of the deck concrete (or a steel
 deck's indentation) over the cover (the plate), a bare flange's local yield force over
-its thickness, or a crushable layer's force over its stroke (:func:`droprig.solver.timehistory.time_history`
-with ``F_yield``/``stroke``; Euler–Bernoulli modes, Blevins 1979 Table 8-1; Newmark
-average acceleration, Chopra 4th ed. §5.4).
+its thickness, or a crushable layer's force over its stroke
+(:func:`droprig.solver.timehistory.time_history` with ``F_yield``/``stroke``;
+Euler–Bernoulli modes, Blevins 1979 Table 8-1; Newmark average acceleration, Chopra
+4th ed. §5.4).
 
 Factors (dimensionless, per point): A_X = :data:`TH_MARGIN` × X_th / X_e for the
 contact force, the member's largest moment, shear and deflection, X_e the chain's
