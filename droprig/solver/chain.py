@@ -832,9 +832,9 @@ FLOOR_POINT_HISTORY = False
 """Whether floor runs (not only ``droprig check``'s one member) choose points for
 their own time history. Off: with the Newmark integration of
 :mod:`droprig.solver.timehistory` (a Python loop over thousands of steps for a stiff
-contact, about 80 ms a point) the rooftop demo took 82 s instead of 0.3 s with it on
-(981 point runs in the refinement, confirmation and inverse passes); floors keep the
-bounds (upper bounds of the time history) until the integration is fast enough."""
+contact, about 50 ms a point) the rooftop demo took 18.8 s instead of 0.3 s with it on
+(375 point runs in the refinement and confirmation passes); floors keep the bounds
+(upper bounds of the time history) until the integration is fast enough."""
 TH_NEAR = 0.9
 """Points whose bounded U is below this (of the limit U = 1) keep the bounds."""
 TH_FACTOR_MIN = 1.5
