@@ -21,6 +21,7 @@ import statistics
 import sys
 import time
 import tracemalloc
+from dataclasses import replace
 from pathlib import Path
 
 import numpy as np
@@ -242,9 +243,19 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
         warm = _median_time(lambda proj=proj: analysis.analyse(proj), 5 if q else 21)
         t_cold = _median_time(cold, 3 if q else 11)
         npts = analysis.analyse(proj).n_points
-        out[f"demo:{name}"] = {"warm_s": warm, "cold_s": t_cold, "points": npts}
         print(f"   {name}: {warm * 1e3:.1f} ms warm, {t_cold * 1e3:.1f} ms cold "
               f"({npts} drop points × loads)  target ≤ 30 ms")
+        # dynamic amplification off / on (the project setting; warm, median)
+        amp = {}
+        for flag in (False, True):
+            p_f = replace(proj, settings=replace(proj.settings, dynamic_amplification=flag))
+            analysis.analyse(p_f)
+            amp[flag] = _median_time(lambda p_f=p_f: analysis.analyse(p_f), 5 if q else 11)
+        out[f"demo:{name}"] = {"warm_s": warm, "cold_s": t_cold, "points": npts,
+                               "amplification_off_s": amp[False],
+                               "amplification_on_s": amp[True]}
+        print(f"   {name}: amplification off {amp[False] * 1e3:.1f} ms, on "
+              f"{amp[True] * 1e3:.1f} ms — ratio {amp[True] / amp[False]:.2f} (target ≤ 2)")
     n = 100_000 if q else 1_000_000
     mil = bench_million(proj0, n)
     out["million"] = mil

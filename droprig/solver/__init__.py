@@ -32,6 +32,7 @@ from droprig.solver.framing import (
 )
 from droprig.solver.local_damage import check_load_on_grating, is_hard
 from droprig.solver.member import DEFAULT_DEFLECTION_LIMIT_RATIO, RESULT_KEYS, assess_member
+from droprig.solver.pointhistory import TH_MARGIN
 from droprig.solver.results import (
     ADVICE_KINDS,
     CHECKS,
@@ -72,6 +73,7 @@ __all__ = [
     "PLASTIC",
     "RESPONSES",
     "RESULT_KEYS",
+    "TH_MARGIN",
     "AdviceKind",
     "AnalysisCancelledError",
     "BaySummary",

@@ -279,10 +279,12 @@ class AmplifiedForces:
 
 
 SET_BY: tuple[str, ...] = ("energy method", "time-history table", "rigid-base bound",
-                           "crushing force", "contact-force bound")
+                           "crushing force", "contact-force bound", "point time history")
 """What set an amplified force (:attr:`AmplifiedForces.set_by`): the energy method's
-own force, the table, the load against an immovable point, the crushing force, or
-(member quantities) the member's response to the bounded contact force."""
+own force, the table, the load against an immovable point, the crushing force,
+(member quantities) the member's response to the bounded contact force, or the
+point's own time history (the chain's choice of points,
+:func:`droprig.solver.chain.dynamic_amplification`)."""
 
 
 def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,

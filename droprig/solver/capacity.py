@@ -273,6 +273,25 @@ def web_local_yielding(section: Section, grade: Grade, basis: Basis, bearing: Ar
     return phi * Rn
 
 
+def flange_contact_force_bound(section: Section, grade: Grade, bearing: ArrayLike,
+                               dist_to_end: ArrayLike) -> np.ndarray:
+    """Upper estimate of the force a hard load can pass through a bare top flange
+    into the web before the flange and web yield locally under it, N: the web local
+    yielding mechanism of AISC 360-16 J10.2 (Eq. J10-2, J10-3: the force spread at
+    2.5:1 through the flange and fillet over 5k + lb, or 2.5k + lb within d of the
+    end; k = k_des, lb = ``bearing``, m) at the web's tensile strength Fu in place of
+    its yield strength (strain hardening: an upper estimate, not a resistance; the
+    web local yielding check itself stays at Fy). The contact force cannot pass it by
+    more than the hardening the Fu already allows; beyond it the flange dents
+    (EN 1993-1-5 §6 states the same mechanism, yielding of the web over the load
+    spread s_s + 2t_f(1 + √…), as its patch-load resistance). ``dist_to_end`` from
+    the member end to the nearer edge of the bearing, m. Vectorised."""
+    lb, dist = np.broadcast_arrays(np.asarray(bearing, float), np.asarray(dist_to_end, float))
+    k = section.k_des
+    interior = dist > section.d
+    return grade.fu * section.tw * (np.where(interior, 5.0 * k, 2.5 * k) + np.maximum(lb, 0.0))
+
+
 def web_crippling(section: Section, grade: Grade, basis: Basis, bearing: ArrayLike,
                   dist_to_end: ArrayLike, phi: float = 1.0, dif: float = 1.0) -> np.ndarray:
     """Resistance to a concentrated compressive force on the top flange, web

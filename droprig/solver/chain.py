@@ -76,6 +76,7 @@ from droprig.solver import (
     limits,
     pads,
     plastic,
+    pointhistory,
     slab,
 )
 from droprig.solver import footprint as footprint_mod
@@ -665,8 +666,12 @@ def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
             lv.deck.concrete.fc, inp.foot_l, inp.foot_w, lv.deck.thickness,
             d.fm.settings.design_basis) * inp.foot_l * inp.foot_w
         depth_available = lv.deck.cover
-    if d.bare is not None:  # deck-less: no deck under the load
-        F_crush = np.full(n, np.inf)
+    if d.bare is not None:
+        # deck-less: the hard load on the bare top flange — the contact force is
+        # bounded by the flange and web yielding locally under it (AISC 360-16 J10.2
+        # at Fu, capacity.flange_contact_force_bound), until the dent passes the
+        # flange's thickness
+        F_crush, depth_available = bare_flange_bound(c)
     deck_crush = np.zeros(n)
     deck_through = np.zeros(n, dtype=bool)
     cap = ~crushable & (F > F_crush)
@@ -681,6 +686,32 @@ def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
         d_max = np.where(cap, F * comp.f + deck_crush, d_max)
     return Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed,
                   F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through)
+
+
+def crush_depth_available(c: Chain) -> float:
+    """How deep the surface under the load may crush (dent) before the impact step's
+    crushing force no longer bounds the contact force, m: a concrete deck's cover
+    over the bars, a steel deck's plate, or (deck-less) the bare flange's thickness."""
+    d = c.drop
+    if d.bare is not None:
+        return float(d.fm.level.members[0].section.tf)
+    dk = d.fm.level.deck
+    return float(dk.thickness if dk.is_steel else dk.cover)
+
+
+def bare_flange_bound(c: Chain) -> tuple[np.ndarray, float]:
+    """Deck-less mode (one member): the upper estimate of the contact force through
+    the bare top flange (N, per point; :func:`droprig.solver.capacity.
+    flange_contact_force_bound` over the bearing, at the struck point's distance to
+    the nearer end) and the depth of dent after which it no longer holds (the
+    flange's thickness, m)."""
+    d, inp = c.drop, c[LoadInputs]
+    member = d.fm.level.members[0]
+    sec, grade = member.section, member.grade
+    a = d.geo.path.a[:, 0]
+    L = d.fm.frame.L[0]
+    dist = np.maximum(np.minimum(a, L - a) - 0.5 * inp.lb, 0.0)
+    return capacity.flange_contact_force_bound(sec, grade, inp.lb, dist), float(sec.tf)
 
 
 # --------------------------------------------------------------------------- 5. demands
@@ -777,7 +808,12 @@ class DynamicAmplification:
     bound ``F_bound`` (N: the rigid-base bound, and the crushing force where the
     crushing holds within its stroke) and the factor each check family takes,
     ``factor`` by check name; ``set_by`` what set the local, moment, shear and
-    deflection forces (index into :data:`droprig.solver.amplification.SET_BY`)."""
+    deflection forces (index into :data:`droprig.solver.amplification.SET_BY`);
+    ``th``: the points whose factors come from their own time history
+    (:func:`droprig.solver.pointhistory.point_history`, bool) and ``history`` that run
+    (its points in ascending order; None where no point was run);
+    ``A_deflection_bound`` the deflection factor of the bounds alone (what the
+    inverse answers take, None where it equals ``A_deflection``)."""
 
     mass_ratio: np.ndarray
     compliance_ratio: np.ndarray
@@ -788,6 +824,9 @@ class DynamicAmplification:
     F_bound: np.ndarray
     factor: dict[str, np.ndarray]
     set_by: dict[str, np.ndarray]
+    th: np.ndarray | None = None
+    history: pointhistory.PointHistory | None = None
+    A_deflection_bound: np.ndarray | None = None
 
 
 def dynamic_amplification(c: Chain) -> DynamicAmplification:
@@ -807,13 +846,72 @@ def dynamic_amplification(c: Chain) -> DynamicAmplification:
     elastic–perfectly plastic contact). The tables apply only where their contact
     force stays below the crushing force (they were calibrated on elastic contacts);
     a crushable layer is an elastic–perfectly plastic contact like the deck's
-    crushing, with its own force and stroke."""
+    crushing, with its own force and stroke.
+
+    Where it matters the point's own time history
+    (:func:`droprig.solver.pointhistory.point_history`, its peaks × the convergence
+    margin TH_MARGIN over the energy method's) lowers a factor to its own where that
+    is less (both lie above the time history): in each group of points of one bay
+    and one load, the points whose bounded U could exceed the limit (≥
+    :data:`TH_NEAR`) and lie within 10 % of the group's worst, where a bounded factor
+    exceeds :data:`TH_FACTOR_MIN`, at most :data:`TH_PER_ROUND` per round; a point
+    whose bounded U is still within 10 % of the group's worst after the run is run
+    in the next round (:data:`TH_ROUNDS`). Every other point keeps the bounds, which
+    lie above its time history."""
     return amplification_at(c, c[LoadInputs].h, c[Impact])
 
 
-def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplification:
+FLOOR_POINT_HISTORY = False
+"""Whether floor runs (not only ``droprig check``'s one member) choose points for
+their own time history. Off: with the Newmark integration of
+:mod:`droprig.solver.timehistory` (a Python loop over thousands of steps for a stiff
+contact, about 50 ms a point) the rooftop demo took 18.8 s instead of 0.3 s with it on
+(375 point runs in the refinement and confirmation passes); floors keep the bounds
+(upper bounds of the time history) until the integration is fast enough."""
+TH_NEAR = 0.9
+"""Points whose bounded U is below this (of the limit U = 1) keep the bounds."""
+TH_FACTOR_MIN = 1.5
+"""A point whose bounded factors are all at or below this keeps them: the bound is
+then close to the time history and a run would change little (cost)."""
+TH_PER_ROUND = 2
+"""Points per group (bay × load) run through their own time history per round."""
+TH_ROUNDS = 2
+"""Rounds of the choice per group."""
+
+
+def _energy_demands(c: Chain) -> Demands:
+    """Step 5's own :class:`Demands` (the energy method's, before amplification)."""
+    return next(r for r in c.history if isinstance(r, Demands))
+
+
+def _utilisation(dem: Demands, factor: dict[str, np.ndarray], F: np.ndarray) -> np.ndarray:
+    """Largest U of every check family of ``dem`` at its amplified force (the
+    connection check, end shear, at the shear factor)."""
+    U = np.zeros(F.shape)
+    for name, chk in dem.checks.items():
+        A = factor.get(name, factor["shear"])
+        with np.errstate(invalid="ignore"):
+            U = np.fmax(U, chk.U_at(A * F))
+    return U
+
+
+def _th_factors(ph: pointhistory.PointHistory) -> dict[str, np.ndarray]:
+    """Factors (≥ 1) of the check families (and ``deflection``) from the points' own
+    time history."""
+    one = {q: np.where(np.isfinite(v), np.maximum(v, 1.0), 1.0)
+           for q, v in ph.factor.items()}
+    return {"flexure": one["moment"], "shear": one["shear"], "web_yielding": one["force"],
+            "web_crippling": one["force"], "deck_flexure": one["force"],
+            "deck_punching": one["force"], "deflection": one["deflection"]}
+
+
+def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
+                     th_points: np.ndarray | None = None) -> DynamicAmplification:
     """:func:`dynamic_amplification` for the free falls ``h`` (m) and their impact
-    (the energy bounds at the fall plus the hoist's head, :func:`energy_fall`)."""
+    (the energy bounds at the fall plus the hoist's head, :func:`energy_fall`);
+    ``th_points`` (bool per point): run the points' own time history at exactly these
+    points (the inverse answers re-use the forward step's choice) instead of choosing
+    them."""
     d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
     if not d.fm.settings.dynamic_amplification:
         one = np.ones(d.n)
@@ -842,7 +940,7 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplificati
     _, F_ref, _ = impact_mod.impact_elastic(inp.W, h, f_beyond, sm.eta)
     # the crushing cap — the layer's, or the deck concrete's — and its stroke
     F_cap = np.where(crushable, inp.F_c, imp.F_crush)
-    stroke = np.where(crushable, inp.s_c, d.fm.level.deck.cover)
+    stroke = np.where(crushable, inp.s_c, crush_depth_available(c))
     holds = amp_mod.crush_depth_bound(inp.W, h, f_beyond, F_cap) <= stroke
     forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds,
                                       bottomed=imp.bottomed | imp.deck_through)
@@ -854,12 +952,85 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact) -> DynamicAmplificati
     local, A_M, A_V, A_D = (ratio(forces.local), ratio(forces.moment),
                             ratio(forces.shear), ratio(forces.deflection))
     factor = {"flexure": A_M, "shear": A_V, "web_yielding": local,
-              "web_crippling": local, "deck_flexure": local, "deck_punching": local}
+              "web_crippling": local, "deck_flexure": local, "deck_punching": local,
+              "deflection": A_D}
+    th, hist = _point_histories(c, h, F, factor, th_points)
+    set_by = dict(forces.set_by)
+    A_D_bound = A_D
+    if hist is not None:
+        idx = np.flatnonzero(th)
+        got = _th_factors(hist)
+        factor = {k: v.copy() for k, v in factor.items()}
+        lower = {}
+        for k in factor:
+            lower[k] = np.zeros(d.n, dtype=bool)
+            lower[k][idx] = got[k] < factor[k][idx]
+            factor[k][idx] = np.minimum(factor[k][idx], got[k])
+        ti = amp_mod.SET_BY.index("point time history")
+        keyed = {"local": "web_yielding", "moment": "flexure", "shear": "shear",
+                 "deflection": "deflection"}
+        set_by = {k: np.where(lower[keyed[k]], ti, v) for k, v in set_by.items()}
+    A_D = factor.pop("deflection")
     return DynamicAmplification(mass_ratio=a.mass_ratio, compliance_ratio=a.compliance_ratio,
-                                A_force=local, A_moment=A_M, A_shear=A_V,
-                                A_deflection=A_D,
+                                A_force=factor["web_yielding"], A_moment=factor["flexure"],
+                                A_shear=factor["shear"], A_deflection=A_D,
                                 F_bound=np.minimum(rigid, np.where(holds, F_cap, np.inf)),
-                                factor=factor, set_by=forces.set_by)
+                                factor=factor, set_by=set_by, th=th, history=hist,
+                                A_deflection_bound=A_D_bound)
+
+
+def _point_histories(c: Chain, h: np.ndarray, F: np.ndarray, factor: dict[str, np.ndarray],
+                     th_points: np.ndarray | None
+                     ) -> tuple[np.ndarray, pointhistory.PointHistory | None]:
+    """The points run through their own time history (bool per point) and that run
+    (its points in ascending order), chosen as :func:`dynamic_amplification` says
+    (or ``th_points``)."""
+    d = c.drop
+    n = d.n
+    th = np.zeros(n, dtype=bool)
+    if d.bare is None and not FLOOR_POINT_HISTORY:
+        return th, None
+    ok = ((d.geo.path.pair >= 0) & ~d.geo.opening & np.isfinite(F) & (F > 0.0)
+          & np.isfinite(h) & (h > 0.0))
+    if th_points is not None:
+        th = np.asarray(th_points, bool) & ok
+        if not th.any():
+            return th, None
+        idx = np.flatnonzero(th)
+        return th, pointhistory.point_history(c, idx, h[idx], F[idx])
+    dem = _energy_demands(c)
+    U_now = _utilisation(dem, factor, F)
+    A_max = np.maximum(np.maximum(factor["web_yielding"], factor["flexure"]),
+                       np.maximum(factor["shear"], factor["deflection"]))
+    eligible = ok & np.isfinite(U_now) & (U_now >= TH_NEAR) & (A_max > TH_FACTOR_MIN)
+    if not eligible.any():
+        return th, None
+    group = np.asarray(d.geo.bay, np.int64) * (len(d.loads) + 1) + np.asarray(d.li, np.int64)
+    now = {k: v.copy() for k, v in factor.items()}
+    rows: list[np.ndarray] = []
+    runs: list[pointhistory.PointHistory] = []
+    for _ in range(TH_ROUNDS):
+        pick: list[np.ndarray] = []
+        for g in np.unique(group[eligible & ~th]):
+            ing = group == g
+            worst = float(np.max(np.where(ing & np.isfinite(U_now), U_now, -np.inf)))
+            cand = np.flatnonzero(ing & eligible & ~th & (U_now >= 0.9 * worst))
+            if cand.size:
+                pick.append(cand[np.argsort(-U_now[cand], kind="stable")][:TH_PER_ROUND])
+        if not pick:
+            break
+        idx = np.sort(np.concatenate(pick))
+        ph = pointhistory.point_history(c, idx, h[idx], F[idx])
+        got = _th_factors(ph)
+        for k in now:
+            now[k][idx] = np.minimum(now[k][idx], got[k])
+        U_now = _utilisation(dem, now, F)
+        th[idx] = True
+        rows.append(idx)
+        runs.append(ph)
+    if not runs:
+        return th, None
+    return th, pointhistory.merge(np.concatenate(rows), runs)
 
 
 def _scaled(chk: Check, A: np.ndarray) -> Check:
@@ -1402,8 +1573,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     # F_crush while the concrete crushes and passes F_crush only once the crushing has
     # gone through the cover (impact step, crushing_limited_impact): the height at
     # which the force then reaches F_allow takes the crushing work (F_crush − W)·cover
-    dk = d.fm.level.deck
-    cover = dk.thickness if dk.is_steel else dk.cover  # as the impact step's depth
+    cover = crush_depth_available(c)  # as the impact step's depth
     h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow), imp.F_crush,
                              np.full(d.n, cover), W, eta)
     # the energy heights above as free falls: less the hoist's lowering speed head
@@ -1426,7 +1596,11 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     h_pl = with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
     # the drop height that gives the structure that energy after amplification (A_δ²)
-    h_pl = fall_from_energy(c, h_pl / c[DynamicAmplification].A_deflection ** 2)
+    # (the bounds' factor: a forward run at that height may not run the point's own
+    # time history, and the bounds lie above it)
+    da = c[DynamicAmplification]
+    A_D = da.A_deflection if da.A_deflection_bound is None else da.A_deflection_bound
+    h_pl = fall_from_energy(c, h_pl / A_D ** 2)
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
@@ -1470,32 +1644,30 @@ def inverse_answers(c: Chain) -> InverseAnswers:
                           hp_check=hp_check)
 
 
+_CONFIRM_ROUNDS = 12
+
+
 def amplified_utilisation_at(c: Chain, h: np.ndarray) -> np.ndarray:
     """Largest elastic U of every check family at the free falls ``h`` (m): the
-    impact at h (:func:`impact_at`) and the amplification at h
-    (:func:`amplification_at`) on step 5's energy-method checks (linear in F)."""
+    impact at h (:func:`impact_at`) and the bounds of the amplification at h
+    (:func:`amplification_at` with no point time history) on step 5's energy-method
+    checks (linear in F). The bounds lie at or above what a forward run at h takes
+    (a point's own time history only lowers a factor), so a height they allow holds
+    in the forward run whichever points it runs."""
     imp = impact_at(c, h)
-    amp = amplification_at(c, h, imp)
-    dem = next(r for r in c.history if isinstance(r, Demands))  # step 5's own
-    U = np.zeros(c.drop.n)
-    for name, chk in dem.checks.items():
-        A = amp.factor.get(name, amp.A_shear)
-        with np.errstate(invalid="ignore"):
-            U = np.fmax(U, chk.U_at(A * imp.F))
-    return U
-
-
-_CONFIRM_ROUNDS = 12
+    amp = amplification_at(c, h, imp, th_points=np.zeros(c.drop.n, dtype=bool))
+    return _utilisation(_energy_demands(c), amp.factor, imp.F)
 
 
 def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
     """The elastic allowable free fall with dynamic amplification, m: the factors
     depend on the height (the rigid-base and crushing bounds, the energy method's own
     force), so the closed form's height — with the factors at the planned height — is
-    re-checked by a forward run at that height (:func:`amplified_utilisation_at`) and
-    lowered by (0.98/U)² where U > 1 (F ∝ √h for a drop large against the static
-    deflection, Gere 7th ed. Eq. 9-94), until every point holds (at most
-    :data:`_CONFIRM_ROUNDS` rounds; a point still over then gets no height, NaN)."""
+    re-checked by a forward run of the bounds at that height
+    (:func:`amplified_utilisation_at`) and lowered by (0.98/U)² where U > 1 (F ∝ √h
+    for a drop large against the static deflection, Gere 7th ed. Eq. 9-94), until
+    every point holds (at most :data:`_CONFIRM_ROUNDS` rounds; a point still over then
+    gets no height, NaN)."""
     h = h_el.copy()
     for _ in range(_CONFIRM_ROUNDS):
         live = np.isfinite(h) & (h > 0.0)

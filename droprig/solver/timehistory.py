@@ -359,7 +359,12 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
     # by the cut-off) gets at least 8 steps per period
     T_c = 2.0 * math.pi * np.sqrt(f_k / inv_m)
     dt = np.minimum(T_c / steps_per_period, T_top / 8.0)
-    T_sys = 2.0 * math.pi * np.sqrt((M + m_e) * (f_s + f_c))
+    # the loaded system's period, with the struck point's Rayleigh mass taken at most as
+    # the member's own mass: referred to a point near a support that mass grows without
+    # bound (the point barely moves), and the run (1e4 s for a point 1e-6·L from a
+    # support) was then cut to _MAX_STEPS with a step far too long — it read 1.9 × the
+    # rigid-base force, an energy the drop does not have
+    T_sys = 2.0 * math.pi * np.sqrt((M + np.minimum(m_e, mu * L)) * (f_s + f_c))
     with np.errstate(divide="ignore", invalid="ignore"):
         t_crush = np.where(np.isfinite(F_y), M * v0 / (F_y - W), 0.0)
     t_end = duration * (np.maximum(T1, T_sys) + t_crush)
@@ -482,13 +487,16 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
 def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
                          a: ArrayLike, M: ArrayLike, h: ArrayLike, f_c: ArrayLike = 0.0, *,
                          F_yield: ArrayLike = math.inf, stroke: ArrayLike = math.inf,
-                         group: int = 128, spread: float = 1.5) -> TimeHistoryPeaks:
+                         group: int = 128, spread: float = 1.5,
+                         n_modes: int = DEFAULT_MODES, cutoff: float = DEFAULT_CUTOFF,
+                         steps_per_period: int = DEFAULT_STEPS_PER_PERIOD) -> TimeHistoryPeaks:
     """:func:`time_history` of many cases of mixed end conditions (``cond`` an array of
     names), run vectorised in groups of ``group`` cases of one end condition and a
     similar number of time steps (a group runs as many steps as its longest case), so
     that one case needing many steps does not hold up the rest. Same model and
-    sources as :func:`time_history`; the peaks come back in the cases' order
-    (``dt``/``steps``: per case the time step, and the largest group's steps)."""
+    sources as :func:`time_history` (``n_modes``, ``cutoff``, ``steps_per_period`` as
+    there); the peaks come back in the cases' order (``dt``/``steps``: per case the
+    time step, and the largest group's steps)."""
     cond_a = np.atleast_1d(np.asarray(cond, dtype=object))
     L, EI, mu, a, M, h, f_c, F_y, s_y = (np.atleast_1d(v) for v in np.broadcast_arrays(
         *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke))))
@@ -498,7 +506,8 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
     modes = np.zeros(L.size, int)
     steps = 0
     need = time_history(cond_a, L, EI, mu, a, M, h, f_c, F_yield=F_y, stroke=s_y,
-                        _plan=True).dt
+                        _plan=True, n_modes=n_modes, cutoff=cutoff,
+                        steps_per_period=steps_per_period).dt
     order = np.argsort(need, kind="stable")
     need = need[order]
     g = 0
@@ -508,7 +517,8 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
         sel = order[g:e]
         g = e
         t = time_history(cond_a[sel], L[sel], EI[sel], mu[sel], a[sel], M[sel], h[sel],
-                         f_c[sel], F_yield=F_y[sel], stroke=s_y[sel])
+                         f_c[sel], F_yield=F_y[sel], stroke=s_y[sel], n_modes=n_modes,
+                         cutoff=cutoff, steps_per_period=steps_per_period)
         for k in out:
             out[k][sel] = getattr(t, k)
         modes[sel] = t.modes

@@ -24,13 +24,18 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 import numpy as np
 
 from droprig.model import Grade, Level, ModelError, Project, Section
 from droprig.solver import amplification, beam, crushing, impact, timehistory
 from droprig.solver.beam import EndCondition
+from droprig.solver.capacity import Basis
 from droprig.solver.geometry import Geometry
+
+if TYPE_CHECKING:
+    from droprig.solver.chain import DynamicAmplification
 
 __all__ = [
     "QUANTITIES",
@@ -105,7 +110,8 @@ class PointVerification:
 
 def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
             f_c: float, struck_mass: bool, scaled_mass: bool = False,
-            F_yield: float = math.inf, stroke: float = math.inf) -> Verification:
+            F_yield: float = math.inf, stroke: float = math.inf,
+            chain_factors: tuple[float, dict[str, float]] | None = None) -> Verification:
     f_s = float(beam.green(cond, L, EI, a, a))
     if f_s <= 0.0:
         raise ModelError("at", a, "a point off the supports (the member does not move "
@@ -136,6 +142,12 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     energy = {k: float(getattr(e, k)) * F / F_el for k in QUANTITIES}
     factor = {"force": float(fo.local) / F, "moment": float(fo.moment) / F,
               "shear": float(fo.shear) / F, "deflection": float(fo.deflection) / F}
+    if chain_factors is not None:
+        # what the verdict uses: the chain's own energy-method force on this member's
+        # unit-load envelopes, times the chain's factors (its amplification step)
+        F_chain, factor = chain_factors
+        energy = {k: float(getattr(e, k)) / F_el * F_chain for k in QUANTITIES}
+        F = F_chain
     assert t.history is not None
     t_sep = float(t.t_separation[0])
     return Verification(
@@ -154,20 +166,45 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
 def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, a: float,
                   mass: float, h: float, *, cushion_stiffness: float | None = None,
                   load_stiffness: float | None = None,
-                  beam_mass: bool = True) -> Verification:
+                  beam_mass: bool = True, basis: Basis = "aisc360", bearing: float = 0.0,
+                  udl: float = 0.0, self_weight: bool = True) -> Verification:
     """One member (SI inputs as :func:`droprig.solver.member.assess_member`): contact
     compliance 1/k_cushion + 1/k_load in series; the energy method with the struck-mass
     share mₑ·(f_s/f)² unless a mat is given or ``beam_mass`` is off (droprig check's
-    rule)."""
+    rule). The factors and the verdict's demands are those of ``droprig check
+    --amplified`` (the chain's amplification step, its own time history where it ran
+    one; ``basis``, ``bearing`` (m), ``udl`` (N/m) and ``self_weight`` as the check's),
+    and the time history caps the contact
+    force as the chain does (the bare flange's local yield force,
+    :func:`droprig.solver.capacity.flange_contact_force_bound`)."""
     if cond not in beam.END_CONDITIONS:
         raise ModelError("support", cond, "one of " + ", ".join(beam.END_CONDITIONS))
+    from droprig.solver.chain import DynamicAmplification, Impact
+    from droprig.solver.member import member_chain
+
     f_c = 0.0
     if cushion_stiffness is not None:
         f_c += 1.0 / cushion_stiffness
     if load_stiffness is not None:
         f_c += 1.0 / load_stiffness
+    # the chain droprig check --amplified runs: its contact cap (the bare flange's
+    # local yield force over the flange's thickness) and its factors
+    c = member_chain(section, grade, cond, L, a, mass, h, basis=basis,
+                     bearing=bearing, cushion_stiffness=cushion_stiffness,
+                     load_stiffness=load_stiffness, udl=udl, self_weight=self_weight,
+                     beam_mass=beam_mass, dynamic_amplification=True)
+    imp = c[Impact]
+    F_y = float(imp.F_crush[0])
     return _verify(cond, L, grade.E * section.Ix, section.mass_per_length, a, mass, h, f_c,
-                   beam_mass and cushion_stiffness is None, scaled_mass=True)
+                   beam_mass and cushion_stiffness is None, scaled_mass=True,
+                   F_yield=F_y, stroke=float(section.tf),
+                   chain_factors=(float(imp.F[0]), _factors(c[DynamicAmplification], 0)))
+
+
+def _factors(da: DynamicAmplification, i: int) -> dict[str, float]:
+    """The chain's amplification factors at point ``i`` by :data:`QUANTITIES`."""
+    return {"force": float(da.A_force[i]), "moment": float(da.A_moment[i]),
+            "shear": float(da.A_shear[i]), "deflection": float(da.A_deflection[i])}
 
 
 def verify_point(project: Project, zone_id: str, load_name: str, x: float,

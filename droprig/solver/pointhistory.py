@@ -1,0 +1,202 @@
+"""Time history of the struck path at chosen drop points of a chain, and the factors
+on the energy method's demands that it gives.
+
+Idealisation (the same as :func:`droprig.solver.verification.verify_point`): the
+struck member — the deck member of the load path carrying the larger lever-rule share
+— is an Euler–Bernoulli beam (its end condition, span, the chain's EI) struck at its
+own position ``a`` by the whole load; everything else of the path (the other framing
+and the columns, the deck's indentation and strip, the load's underside, a spring
+mat) is a massless spring in series with the contact, so that the member's own spring
+plus the contact spring equal the chain's total compliance f. The member's mass per
+length is the one the chain's load path and struck-mass step read
+(``FloorModel.frame.mu``, the steel's); the other framing's and the slab's mass are
+not in the time history (raising the member's mass to the path's Rayleigh mass at
+the struck point was tried and fails near a support, where the member's own Rayleigh
+mass goes to zero and the ratio without bound). The contact is elastic–perfectly
+plastic as the chain caps it: the crushing force of the deck concrete (or a steel
+deck's indentation) over the cover (the plate), a bare flange's local yield force over
+its thickness, or a crushable layer's force over its stroke
+(:func:`droprig.solver.timehistory.time_history` with ``F_yield``/``stroke``;
+Euler–Bernoulli modes, Blevins 1979 Table 8-1; Newmark average acceleration, Chopra
+4th ed. §5.4).
+
+Factors (dimensionless, per point): A_X = :data:`TH_MARGIN` × X_th / X_e for the
+contact force, the member's largest moment, shear and deflection, X_e the chain's
+energy-method force F times the member's unit-load envelope (AISC Manual Table 3-23:
+:func:`droprig.solver.beam.max_abs_moment`, ``max_abs_shear``, the largest G(x, a)).
+A demand A_X·X_e is then at least the time history's own peak times the margin.
+
+:data:`TH_MARGIN` comes from the convergence study of the time history in modes and
+time step (``scripts/convergence_point_history.py``; tests/solver/
+test_point_history.py repeats a part of it): the default run (40 modes, cut-off 8 ×
+the contact frequency, 40 steps per contact period) against a run with 80 modes, a
+cut-off of 32 and 160 steps per period on 240 random members and contacts — the
+default read at most :data:`CONVERGENCE_SHORTFALL` (42 %, the shear of a near-rigid
+contact) below the refined run on any of the four peaks; the margin is 1 + that
+shortfall + 5 % for the sampling, rounded up to 5 %: 1.50.
+SI units throughout.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import TYPE_CHECKING, Any, cast
+
+import numpy as np
+
+from droprig.solver import amplification, beam, timehistory
+from droprig.solver.beam import EndCondition
+from droprig.solver.loadpath import COND_NAMES
+
+if TYPE_CHECKING:
+    from droprig.solver.chain import Chain
+
+__all__ = [
+    "CONVERGENCE_SHORTFALL",
+    "TH_MARGIN",
+    "PointHistory",
+    "merge",
+    "point_history",
+    "struck_member",
+]
+
+CONVERGENCE_SHORTFALL = 0.42
+"""Largest shortfall of the verdict's time history below the refined one (fraction),
+over 240 random cases (``scripts/convergence_point_history.py 240 20261203``:
+refined ÷ verdict run, largest — contact force 1.345, moment 1.114, shear 1.420,
+deflection 1.040; the shortfalls come from near-rigid contacts, where the force and
+shear of an Euler–Bernoulli member converge slowly)."""
+TH_MARGIN = 1.50
+"""Margin on the time history's peaks in the verdict: :data:`CONVERGENCE_SHORTFALL`
++ 5 % for the sampling, rounded up to the next 5 %."""
+TH_OPTIONS: dict[str, Any] = {"n_modes": 40, "cutoff": 8.0, "steps_per_period": 40}
+"""The time history's settings in the verdict (``timehistory`` defaults)."""
+
+
+@dataclass(frozen=True, eq=False)
+class PointHistory:
+    """Per chosen point (arrays of the chosen points' length): the member modelled
+    (index into the level's members), its end condition name, span L and position a
+    (m), EI (N·m²), mass per length μ (kg/m), the contact compliance f_c (m/N), the
+    crushing force (N, ∞ none) and stroke (m); the time history's peaks ``th`` and the
+    chain's energy-method peaks ``energy`` of the same member (N, N·m, N, m; by
+    :data:`droprig.solver.verification.QUANTITIES`), and the factors ``factor``
+    (TH_MARGIN × th / energy, not yet floored at 1)."""
+
+    member: np.ndarray
+    cond: np.ndarray
+    L: np.ndarray
+    a: np.ndarray
+    EI: np.ndarray
+    mu: np.ndarray
+    f_c: np.ndarray
+    F_yield: np.ndarray
+    stroke: np.ndarray
+    th: dict[str, np.ndarray]
+    energy: dict[str, np.ndarray]
+    factor: dict[str, np.ndarray]
+
+
+QUANTITIES = ("force", "moment", "shear", "deflection")
+
+
+def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
+    """The modelled member at the points ``sel`` (indices): member index, end
+    condition name, L, a, EI (the chain's, composite where the floor takes it) and the
+    mass per length (see the module docstring), and the contact compliance, crushing
+    force and stroke of the chain there."""
+    from droprig.solver.chain import Compliance, Impact, LoadInputs, crush_depth_available
+
+    d, inp, comp, imp = c.drop, c[LoadInputs], c[Compliance], c[Impact]
+    path, fr = d.geo.path, d.fm.frame
+    share = path.share[sel]
+    k = np.where(share[:, 0] >= share[:, 1], 0, 1)
+    rows = np.arange(sel.size)
+    m = path.members[sel][rows, k].astype(int)
+    a = path.a[sel][rows, k]
+    L = fr.L[m]
+    a = np.clip(a, 1e-6 * L, L * (1.0 - 1e-6))
+    EI = fr.EI[m]
+    mu = fr.mu[m]
+    cond = np.array([COND_NAMES[int(x)] for x in fr.cond[m]], dtype=object)
+    g_m = np.zeros(sel.size)
+    for cn in dict.fromkeys(cond.tolist()):
+        i = cond == cn
+        cc = cast(EndCondition, cn)
+        g_m[i] = beam.green(cc, L[i], EI[i], a[i], a[i])
+    crushable = inp.crushable[sel]
+    f_all = np.where(crushable, comp.f_struct[sel], comp.f[sel])
+    f_c = np.maximum(f_all - g_m, 0.0)
+    mu_th = mu
+    W = inp.W[sel]
+    F_y = np.where(crushable, inp.F_c[sel], imp.F_crush[sel])
+    stroke = np.where(crushable, inp.s_c[sel], crush_depth_available(c))
+    F_y = np.where(np.isfinite(F_y) & (F_y > W), F_y, np.inf)
+    return {"member": m, "cond": cond, "L": L, "a": a, "EI": EI, "mu": mu_th, "g_m": g_m,
+            "f_c": f_c, "F_yield": F_y, "stroke": stroke}
+
+
+def point_history(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray,
+                  **th_options: object) -> PointHistory:
+    """The time history at the points ``sel`` (indices into the chain's points) for
+    the free falls ``h`` (m, per chosen point) and the chain's energy-method contact
+    force there ``F`` (N, per chosen point); factors as in the module docstring. A
+    contact stiffer than :data:`droprig.solver.amplification.KAPPA_MIN` × the
+    member's compliance is given that compliance (an Euler–Bernoulli member struck
+    rigidly has no converged contact force; the crushing or flange-yield cap then
+    bounds it)."""
+    from droprig.solver.chain import LoadInputs
+
+    inp = c[LoadInputs]
+    s = struck_member(c, sel)
+    M = inp.M[sel]
+    f_th = np.maximum(s["f_c"], amplification.KAPPA_MIN * s["g_m"])
+    t = timehistory.time_history_batched(s["cond"], s["L"], s["EI"], s["mu"], s["a"], M, h,
+                                         f_th, F_yield=s["F_yield"], stroke=s["stroke"],
+                                         **{**TH_OPTIONS, **th_options})
+    unit_m = np.zeros(sel.size)
+    unit_v = np.zeros(sel.size)
+    unit_d = np.zeros(sel.size)
+    cond = s["cond"]
+    xi = np.linspace(0.0, 1.0, 201)
+    for cn in dict.fromkeys(cond.tolist()):
+        i = cond == cn
+        cc = cast(EndCondition, cn)
+        L, a, EI = s["L"][i], s["a"][i], s["EI"][i]
+        unit_m[i] = beam.max_abs_moment(cc, L, 1.0, a)
+        unit_v[i] = beam.max_abs_shear(cc, L, 1.0, a)
+        x = L[:, None] * xi[None, :]
+        unit_d[i] = np.maximum(
+            np.max(beam.green(cc, L[:, None], EI[:, None], x, a[:, None]), axis=1),
+            s["g_m"][i])
+    energy = {"force": F, "moment": F * unit_m, "shear": F * unit_v, "deflection": F * unit_d}
+    th = {q: np.asarray(getattr(t, q), float) for q in QUANTITIES}
+    factor = {}
+    with np.errstate(divide="ignore", invalid="ignore"):
+        for q in QUANTITIES:
+            e = energy[q]
+            factor[q] = np.where(e > 0.0, TH_MARGIN * th[q] / np.where(e > 0.0, e, 1.0),
+                                 np.inf)
+    return PointHistory(member=s["member"], cond=cond, L=s["L"], a=s["a"], EI=s["EI"],
+                        mu=s["mu"], f_c=f_th, F_yield=s["F_yield"], stroke=s["stroke"],
+                        th=th, energy=energy, factor=factor)
+
+
+def merge(points: np.ndarray, runs: list[PointHistory]) -> PointHistory:
+    """One :class:`PointHistory` of several runs whose points (``points``, the runs'
+    point indices concatenated) are distinct, sorted by point."""
+    order = np.argsort(points, kind="stable")
+
+    def cat(get: object) -> np.ndarray:
+        return np.concatenate([get(r) for r in runs])[order]  # type: ignore[operator]
+
+    def cat_d(attr: str) -> dict[str, np.ndarray]:
+        return {q: cat(lambda r, q=q: getattr(r, attr)[q]) for q in QUANTITIES}
+
+    if len(runs) == 1:
+        return runs[0]
+    return PointHistory(member=cat(lambda r: r.member), cond=cat(lambda r: r.cond),
+                        L=cat(lambda r: r.L), a=cat(lambda r: r.a), EI=cat(lambda r: r.EI),
+                        mu=cat(lambda r: r.mu), f_c=cat(lambda r: r.f_c),
+                        F_yield=cat(lambda r: r.F_yield), stroke=cat(lambda r: r.stroke),
+                        th=cat_d("th"), energy=cat_d("energy"), factor=cat_d("factor"))
