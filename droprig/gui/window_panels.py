@@ -327,9 +327,13 @@ class PanelsMixin(WindowParts):
         self.busy.hide()
         self.caution_label = CautionLabel()
         self.caution_label.clicked.connect(self.actions["caution"].trigger)
-        for w in (self.units_label, self.basis_label, self.busy, self.state_label):
-            sb.addPermanentWidget(w)
-        sb.addPermanentWidget(self.caution_label, 1)
+        # units, basis and the analysis state give way to a temporary message
+        # ('Annex written: …'); only the caution is permanent. (All were permanent,
+        # the caution stretched: messages had no room and were never seen.)
+        for w in (self.units_label, self.basis_label, self.busy):
+            sb.addWidget(w)
+        sb.addWidget(self.state_label, 1)
+        sb.addPermanentWidget(self.caution_label)
 
     def _update_guide(self) -> None:
         """Tell a new user the next step until the project can be assessed."""
