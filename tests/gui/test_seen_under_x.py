@@ -76,3 +76,33 @@ def test_status_messages_have_room(qtbot, window) -> None:
     window.statusBar().clearMessage()
     qtbot.wait(50)
     assert window.state_label.isVisible() and window.units_label.isVisible()
+
+
+def test_verify_dialog_text_has_no_html_entities(qtbot) -> None:
+    """The time-history dialog escaped its text for HTML in labels Qt showed as plain
+    text: "a ratio &#x27;verdict ÷ history&#x27;" on screen; and "r = M/mₑ 12.5"
+    read as a product, not a value."""
+    from PySide6.QtWidgets import QLabel
+
+    from droprig.commands.demo import demo_dir
+    from droprig.gui.verify_dialog import VerifyDialog
+    from droprig.model import ModelError
+    from droprig.solver import analyse, verify_point
+    from droprig.texts import CAUTION
+
+    p = load_project(demo_dir() / "steel_erection_floor.droprig")
+    pv = None
+    for b in analyse(p).bays:
+        try:
+            pv = verify_point(p, b.zone_id, b.load_name, b.governing_x, b.governing_y)
+            break
+        except ModelError:
+            continue
+    assert pv is not None
+    dlg = VerifyDialog(pv, [], p.settings.unit_system)
+    qtbot.addWidget(dlg)
+    texts = [lab.text() for lab in dlg.findChildren(QLabel)]
+    assert not [t for t in texts if "&#" in t or "&amp;" in t or "&quot;" in t], texts
+    assert any("'verdict ÷ history'" in t for t in texts)
+    assert any("r = M/mₑ = " in t and "κ = f_c/f_s = " in t for t in texts)
+    assert dlg.caution.text() == CAUTION
