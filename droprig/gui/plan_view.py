@@ -1271,13 +1271,20 @@ class PlanView(QGraphicsView):
                 return s
         return None
 
-    def nearest_point(self, x: float, y: float) -> tuple[CaseResult, int] | None:
+    def nearest_point(self, x: float, y: float, case: tuple[str, str] | None = None
+                      ) -> tuple[CaseResult, int] | None:
         """The analysed drop point of the displayed case(s) nearest to (x, y), m,
         within PICK_PX pixels or 1.5 grid cells; ties (the same point in several
-        cases) go to the worst outcome, then the highest utilisation."""
+        cases) go to the worst outcome, then the highest utilisation. ``case``
+        (zone id, load name): that case's points only."""
         if self._px.size == 0:
             return None
         d2 = (self._px - x) ** 2 + (self._py - y) ** 2
+        if case is not None:
+            keep = np.array([(c.zone_id, c.load_name) == case for c in self._cases])
+            d2 = np.where(keep[self._pcase], d2, np.inf)
+            if not np.isfinite(d2).any():
+                return None
         dmin = float(d2.min())
         cell = self._project.settings.grid_resolution if self._project else 0.5
         tol = max(PICK_PX / max(self.pixels_per_metre(), 1e-9), 1.5 * cell)

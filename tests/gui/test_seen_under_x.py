@@ -106,3 +106,81 @@ def test_verify_dialog_text_has_no_html_entities(qtbot) -> None:
     assert any("'verdict ÷ history'" in t for t in texts)
     assert any("r = M/mₑ = " in t and "κ = f_c/f_s = " in t for t in texts)
     assert dlg.caution.text() == CAUTION
+
+
+def _planner_floor():
+    """The floor a planner built under Xvfb (an invented scenario): 3 × 2 bays
+    (7.5 m; 6 m and 8 m), a crane zone at the middle, a 4.2 t chiller dropped 0.3 m,
+    a 350 kg spreader beam dropped 1 m, a spring mat on bay 2-3/B-C."""
+    from droprig.io.sections import get_grade, get_section
+    from droprig.model import (
+        LiftLoad,
+        LiftZone,
+        Project,
+        ProtectionArea,
+        Rect,
+        generate_level,
+    )
+
+    level = generate_level(
+        level_id="L1", name="Level 1", elevation=0.0, x_spacings=(7.5, 7.5, 7.5),
+        y_spacings=(6.0, 8.0), girder_direction="x", beam_spacing=2.5,
+        girder_section=get_section("IPE 450"), beam_section=get_section("IPE 300"),
+        girder_grade=get_grade("S355"), beam_grade=get_grade("S355"))
+    zone = LiftZone("Z1", "Lift 1", "L1", crane=(11.25, 7.0), r_min=0.0, r_max=4.9,
+                    loads=(LiftLoad("Chiller CH-2", 4200.0, 2.4, 1.8, drop_height=0.3),
+                           LiftLoad("Spreader beam", 350.0, drop_height=1.0,
+                                    kind="rigging")))
+    mat = ProtectionArea("P1", "Mat 1", "L1", Rect(7.5, 6.0, 15.0, 14.0))
+    return Project(levels=(level,), lift_zones=(zone,), protection_areas=(mat,))
+
+
+def test_bay_click_traces_the_load_of_the_selected_row(qtbot, window) -> None:
+    """A click inside a bay selected the bay's worst row in the table (the spreader
+    beam) while the trace showed the nearest point's worst case (the chiller): the
+    trace named a load the highlighted row did not. Now the trace follows the
+    selected row's load at the point nearest the click."""
+    import numpy as np
+
+    from droprig.gui import style
+    from droprig.gui.plan_items import to_scene
+
+    window.doc.reset(_planner_floor())
+    qtbot.waitUntil(lambda: not window.runner.busy and window.doc.results_current,
+                    timeout=WAIT_MS)
+    plan, table = window.plan, window.results_table
+    plan.fit()
+    order = style.OUTCOME_ORDER
+
+    def worst(bay_id: str) -> tuple[str, str]:
+        rows = [b for b in window.doc.results.bays if b.bay_id == bay_id]
+        b = max(rows, key=lambda b: (order.index(b.response) if b.response in order
+                                     else -1, b.max_utilisation))
+        return b.zone_id, b.load_name
+
+    found = None
+    for s in plan._bays_item.states:
+        r = s.bay.rect
+        for fx in np.linspace(0.05, 0.95, 19):
+            for fy in np.linspace(0.05, 0.95, 19):
+                x, y = r.x0 + fx * (r.x1 - r.x0), r.y0 + fy * (r.y1 - r.y0)
+                if plan.member_at(x, y) is not None or plan.crane_at(
+                        plan.mapFromScene(to_scene(x, y))) is not None:
+                    continue
+                hit = plan.nearest_point(x, y)
+                if hit is not None and (hit[0].zone_id, hit[0].load_name) != worst(s.bay.id):
+                    found = (x, y, s.bay.id)
+                    break
+            if found:
+                break
+        if found:
+            break
+    assert found is not None, "no point of the scenario where another load is worst"
+    x, y, bay_id = found
+    plan._click(to_scene(x, y))
+    row = table.selected_row()
+    assert row is not None and row.bay_id == bay_id
+    assert (row.zone_id, row.load_name) == worst(bay_id)
+    trace = window.trace_panel.trace
+    assert trace is not None
+    assert (trace.zone_id, trace.load_name) == (row.zone_id, row.load_name)
