@@ -102,8 +102,10 @@ class PixelSized:
 
 
 SHORT_WORDS = {"elastic": "ELASTIC", "plastic": "YIELDS", "exceeds": "EXCEEDS",
-               "perforates": "GOES THROUGH", style.OUTCOME_NONE: "N/A"}
-"""One-word bay labels when the full outcome words do not fit."""
+               "perforates": "GOES THROUGH", style.OUTCOME_NONE: "NOT ASSESSED"}
+"""One-word bay labels when the full outcome words do not fit. A bay not assessed
+reads as the legend does (it read "N/A", which a reader can take for "no check
+needed"); where that does not fit, the legend's tag."""
 
 
 @dataclass(frozen=True)

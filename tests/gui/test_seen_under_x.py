@@ -184,3 +184,24 @@ def test_bay_click_traces_the_load_of_the_selected_row(qtbot, window) -> None:
     trace = window.trace_panel.trace
     assert trace is not None
     assert (trace.zone_id, trace.load_name) == (row.zone_id, row.load_name)
+
+
+def test_bay_not_assessed_reads_as_the_legend(qtbot, window) -> None:
+    """Before any lift zone, every bay was tagged "N/A" while the legend reads
+    "– Not assessed": a third wording, and one a reader can take for "not
+    applicable". At every bay size the tag is the legend's words or its symbol."""
+    from droprig.gui import edits as ed
+    from droprig.gui import style
+
+    level = _planner_floor().levels[0]
+    window.doc.edit(ed.add_level(window.doc.project, level), "Generate framing")
+    qtbot.wait(100)
+    item = window.plan._labels_item
+    states = window.plan._bays_item.states
+    assert states and all(s.key == style.OUTCOME_NONE for s in states)
+    st = style.outcome(style.OUTCOME_NONE)
+    allowed = {st.label.upper(), st.tag}
+    for w in (20, 40, 60, 76, 90, 120, 200):
+        for h in (20, 40, 80):
+            lines = item.label_for(states[0], w, h)
+            assert set(lines) <= allowed, (w, h, lines)
