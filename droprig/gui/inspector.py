@@ -393,8 +393,10 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
 
     if k == "settings":
         return Form("Analysis settings", "Change them in the settings dialog", obj, [
-            _ro("u", "Units", lambda o: o.unit_system),
-            _ro("b", "Design basis", lambda o: o.design_basis),
+            # named as the status bar names them (it showed the file's key 'en1993')
+            _ro("u", "Units", lambda o: style.UNIT_LABELS.get(o.unit_system, o.unit_system)),
+            _ro("b", "Design basis",
+                lambda o: style.BASIS_LABELS.get(o.design_basis, o.design_basis)),
             _ro("phi", "Resistance factor φ", lambda o: f"{o.resistance_factor:.2f}"),
             _ro("dif", "Dynamic increase factor", lambda o: f"{o.dynamic_increase_factor:.2f}"),
             _ro("res", "Drop-point spacing",

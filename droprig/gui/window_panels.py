@@ -34,8 +34,8 @@ from droprig.gui.window_edits import is_placeholder
 from droprig.model import LiftLoad
 from droprig.texts import CAUTION
 
-BASIS_LABELS = {"en1993": "EN 1993-1-1", "aisc360": "AISC 360-16"}
-UNIT_LABELS = {"SI": "SI (m · kN · kg · MPa)", "US": "US (ft · kip · lb · ksi)"}
+BASIS_LABELS = style.BASIS_LABELS
+UNIT_LABELS = style.UNIT_LABELS
 
 
 def screen_scale_tag(screen: object) -> str:

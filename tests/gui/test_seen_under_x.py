@@ -205,3 +205,16 @@ def test_bay_not_assessed_reads_as_the_legend(qtbot, window) -> None:
         for h in (20, 40, 80):
             lines = item.label_for(states[0], w, h)
             assert set(lines) <= allowed, (w, h, lines)
+
+
+def test_settings_inspector_names_the_basis_as_the_status_bar(qtbot, window) -> None:
+    """The settings inspector showed the file's key 'en1993' under Design basis
+    while the status bar read 'Basis: EN 1993-1-1'."""
+    from droprig.gui.document import Selection
+
+    _open_demo(qtbot, window)
+    window.doc.select(Selection("settings"))
+    qtbot.wait(50)
+    basis = window.inspector.editor("b").text()
+    assert window.basis_label.text() == f"Basis: {basis}", basis
+    assert window.units_label.text() == f"Units: {window.inspector.editor('u').text()}"
