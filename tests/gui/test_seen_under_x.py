@@ -218,3 +218,22 @@ def test_settings_inspector_names_the_basis_as_the_status_bar(qtbot, window) -> 
     basis = window.inspector.editor("b").text()
     assert window.basis_label.text() == f"Basis: {basis}", basis
     assert window.units_label.text() == f"Units: {window.inspector.editor('u').text()}"
+
+
+def test_generator_rows_are_never_drawn_short(qtbot) -> None:
+    """Under X the 'Generate floor framing' dialog opened 3 px shorter than its
+    layout needed and the framing rows (girder direction, sections) were cut at the
+    bottom. Made as short as the window system allows, every box keeps its height."""
+    from droprig.gui.generator_dialog import GeneratorDialog
+
+    d = GeneratorDialog()
+    qtbot.addWidget(d)
+    d.show()
+    qtbot.waitExposed(d)
+    d.x_spacings.setText("3@7.5")  # the summary line changes as in the session
+    d.resize(d.width(), 10)
+    qtbot.wait(50)
+    short = {k: (f.widget.height(), f.widget.sizeHint().height())
+             for k, f in d._fields.items()
+             if f.widget.parentWidget().height() < f.widget.sizeHint().height()}
+    assert not short, short
