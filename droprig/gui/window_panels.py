@@ -361,6 +361,12 @@ class PanelsMixin(WindowParts):
             self.guide.hide()
             return
         self.guide_text.setText(text)
+        # one action only: setDefaultAction adds to the button's actions, and with
+        # more than one the button drew a menu arrow over its text and a long press
+        # offered the steps already done (seen under Xvfb)
+        for old in self.guide_button.actions():
+            if old is not self.actions[action]:
+                self.guide_button.removeAction(old)
         self.guide_button.setDefaultAction(self.actions[action])
         self.guide.show()
 

@@ -237,3 +237,25 @@ def test_generator_rows_are_never_drawn_short(qtbot) -> None:
              for k, f in d._fields.items()
              if f.widget.parentWidget().height() < f.widget.sizeHint().height()}
     assert not short, short
+
+
+def test_guide_button_holds_one_step(qtbot, window) -> None:
+    """The guide bar's button took each next step's action on top of the last: from
+    the second step on it drew a menu arrow over 'Add lift zone' and a long press
+    offered the steps already done."""
+    import dataclasses
+
+    from PySide6.QtWidgets import QStyleOptionToolButton
+
+    p = load_project(DEMO)
+    window.doc.reset(dataclasses.replace(p, levels=(), lift_zones=(),
+                                         protection_areas=()))
+    qtbot.wait(50)
+    window.doc.reset(dataclasses.replace(p, lift_zones=()))
+    qtbot.wait(50)
+    b = window.guide_button
+    assert b.isVisible() and b.defaultAction() is window.actions["add_zone"]
+    assert b.actions() == [window.actions["add_zone"]]
+    opt = QStyleOptionToolButton()
+    b.initStyleOption(opt)
+    assert not opt.features & QStyleOptionToolButton.ToolButtonFeature.HasMenu
