@@ -259,3 +259,26 @@ def test_guide_button_holds_one_step(qtbot, window) -> None:
     opt = QStyleOptionToolButton()
     b.initStyleOption(opt)
     assert not opt.features & QStyleOptionToolButton.ToolButtonFeature.HasMenu
+
+
+def test_crane_covers_no_bay_tag_or_mat_name(qtbot, window) -> None:
+    """On the planner's floor the crane at the middle was drawn over the name of the
+    mat under it ('Mat 1 (spring mat)') and its label over a bay's tag."""
+    window.doc.reset(_planner_floor())
+    qtbot.waitUntil(lambda: not window.runner.busy and window.doc.results_current,
+                    timeout=WAIT_MS)
+    plan = window.plan
+    for size in ((1280, 720), (1600, 1000), (1100, 700)):
+        window.resize(*size)
+        qtbot.wait(50)
+        plan.fit()
+        qtbot.wait(50)
+        cranes = plan._crane_obstacles()
+        assert cranes
+        t = plan.viewportTransform()
+        names = plan._protection_labels.label_plates(t)
+        assert names
+        for text, r in names:
+            assert not [c for c in cranes if c.intersects(r)], (size, text, r, cranes)
+        for r in plan.bay_tag_rects():
+            assert not [c for c in cranes if c.intersects(r)], (size, r, cranes)
