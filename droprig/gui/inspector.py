@@ -736,6 +736,10 @@ class FormEditor(QWidget):
             for spec in form.fields:
                 w = self._make_editor(spec)
                 lab = QLabel(spec.label)
+                # wrapped: a long label ("Slew from (anticlockwise, from east)") set
+                # the form's width, and at 1280 × 720 the boxes ran under the
+                # panel's edge behind a horizontal scroll bar (seen under Xvfb)
+                lab.setWordWrap(True)
                 if spec.tip:
                     lab.setToolTip(spec.tip)
                     w.setToolTip(spec.tip)

@@ -282,3 +282,33 @@ def test_crane_covers_no_bay_tag_or_mat_name(qtbot, window) -> None:
             assert not [c for c in cranes if c.intersects(r)], (size, text, r, cranes)
         for r in plan.bay_tag_rects():
             assert not [c for c in cranes if c.intersects(r)], (size, r, cranes)
+
+
+def test_inspector_labels_do_not_widen_the_form(qtbot, window) -> None:
+    """At 1280 × 720 under X the lift-zone form was wider than the inspector (its
+    label 'Slew from (anticlockwise, from east)' on one line set the width): the
+    boxes ran under the panel's edge behind a horizontal scroll bar. No label may
+    ask for more width than the widest box is allowed."""
+    from PySide6.QtWidgets import QLabel
+
+    from droprig.gui.document import Selection
+    from droprig.gui.inspector import FIELD_MIN_WIDTH_CAP
+
+    _open_demo(qtbot, window)
+    # the font the window had under X (9.5 pt and up, app.create_app) is larger than
+    # the offscreen default: a third larger here
+    font = window.inspector.font()
+    font.setPointSizeF(font.pointSizeF() * 1.35)
+    window.inspector.setFont(font)
+    p = window.doc.project
+    z = p.lift_zones[0]
+    for sel in (Selection("zone", (z.id,)), Selection("load", (z.id, z.loads[0].name)),
+                Selection("protection", (p.protection_areas[0].id,)), Selection("info"),
+                Selection("level", (p.levels[0].id,))):
+        window.doc.select(sel)
+        qtbot.wait(20)
+        form = window.inspector.form_editor
+        wide = [(lab.text(), lab.minimumSizeHint().width())
+                for lab in form.findChildren(QLabel) if lab.isVisible()
+                and lab.minimumSizeHint().width() > FIELD_MIN_WIDTH_CAP]
+        assert not wide, (sel.kind, wide)
