@@ -312,3 +312,31 @@ def test_inspector_labels_do_not_widen_the_form(qtbot, window) -> None:
                 for lab in form.findChildren(QLabel) if lab.isVisible()
                 and lab.minimumSizeHint().width() > FIELD_MIN_WIDTH_CAP]
         assert not wide, (sel.kind, wide)
+
+
+def test_inspector_boxes_stay_inside_a_narrow_panel(qtbot, window) -> None:
+    """At 1280 × 720 under X the lift zone's boxes beside their labels ran past the
+    inspector's right edge (cut, no border): at any panel width every box of the
+    form stays inside it (labels go above the boxes when both do not fit)."""
+    from droprig.gui.document import Selection
+
+    _open_demo(qtbot, window)
+    font = window.inspector.font()
+    font.setPointSizeF(font.pointSizeF() * 1.35)  # the X session's larger font
+    window.inspector.setFont(font)
+    z = window.doc.project.lift_zones[0]
+    window.doc.select(Selection("zone", (z.id,)))
+    qtbot.wait(20)
+    form = window.inspector.form_editor
+    tried = 0
+    for width in range(150, 420, 7):
+        form.resize(width, form.height())
+        qtbot.wait(1)
+        form.layout().activate()
+        if width < form.minimumSizeHint().width():
+            continue  # the panel scrolls sideways below the form's least width
+        tried += 1
+        out = [(k, w.geometry().right(), width) for k, w in form._editors.items()
+               if w.isVisible() and w.geometry().right() > width]
+        assert not out, out
+    assert tried > 10
