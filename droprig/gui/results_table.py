@@ -438,9 +438,9 @@ class ResultsTable(QWidget):
 
         self.summary = QLabel()
         self.summary.setObjectName("resultsSummary")
-        # wrapped: one unbroken line of counts set the dock's minimum width, and
-        # the window grew past a 1280 px screen when a project with many outcome
-        # kinds was opened (seen under Xvfb)
+        # wraps rather than widening the panel: unwrapped, the line for a project with
+        # a verdict set the results panel's least width at 945 px and the window's
+        # past a 1280 px screen (seen under Xvfb)
         self.summary.setWordWrap(True)
         self.summary.setToolTip("The lift shown is chosen above the plan (Lift:); the plan "
                                 "and this table always show the same lift")
