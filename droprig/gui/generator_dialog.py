@@ -29,6 +29,7 @@ from collections.abc import Callable
 from dataclasses import dataclass
 
 from PySide6.QtCore import QStringListModel, Qt
+from PySide6.QtGui import QResizeEvent
 from PySide6.QtWidgets import (
     QComboBox,
     QCompleter,
@@ -368,6 +369,17 @@ class GeneratorDialog(QDialog):
                       self.beam_grade):
             combo.currentIndexChanged.connect(self._revalidate)
         self._revalidate()
+
+    def resizeEvent(self, event: QResizeEvent) -> None:
+        """Never shorter than the layout needs at this width: the wrapped hint
+        and caution made the dialog's least height too small, and under X the
+        framing rows were drawn 1–3 px short (boxes cut at the bottom)."""
+        super().resizeEvent(event)
+        lay = self.layout()
+        need = lay.totalHeightForWidth(self.width()) if lay.hasHeightForWidth() else \
+            lay.totalMinimumSize().height()
+        if need > self.minimumHeight():
+            self.setMinimumHeight(need)
 
     # ------------------------------------------------------------ parsing
 

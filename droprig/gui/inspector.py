@@ -393,8 +393,10 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
 
     if k == "settings":
         return Form("Analysis settings", "Change them in the settings dialog", obj, [
-            _ro("u", "Units", lambda o: o.unit_system),
-            _ro("b", "Design basis", lambda o: o.design_basis),
+            # named as the status bar names them (it showed the file's key 'en1993')
+            _ro("u", "Units", lambda o: style.UNIT_LABELS.get(o.unit_system, o.unit_system)),
+            _ro("b", "Design basis",
+                lambda o: style.BASIS_LABELS.get(o.design_basis, o.design_basis)),
             _ro("phi", "Resistance factor φ", lambda o: f"{o.resistance_factor:.2f}"),
             _ro("dif", "Dynamic increase factor", lambda o: f"{o.dynamic_increase_factor:.2f}"),
             _ro("res", "Drop-point spacing",
@@ -714,6 +716,35 @@ class FormEditor(QWidget):
         v.addWidget(self._message)
         v.addLayout(self._layout)
 
+    def resizeEvent(self, event: Any) -> None:
+        super().resizeEvent(event)
+        self._fit_rows()
+
+    def _fit_rows(self) -> None:
+        """Every label above its box when a box beside its label would run past the
+        form's right edge (QFormLayout kept such rows side by side: at 1280 × 720
+        under X the lift zone's boxes were cut at the inspector's edge)."""
+        lay = self._layout
+        gap = max(lay.horizontalSpacing(), 6)
+        label_w = field_w = 0
+        for r in range(lay.rowCount()):
+            lab = lay.itemAt(r, QFormLayout.ItemRole.LabelRole)
+            fld = lay.itemAt(r, QFormLayout.ItemRole.FieldRole)
+            lw = lab.widget() if lab is not None else None
+            fw = fld.widget() if fld is not None else None
+            if not isinstance(lw, QLabel) or fw is None:
+                continue
+            one_line = lw.fontMetrics().horizontalAdvance(lw.text())
+            if one_line > FIELD_MIN_WIDTH_CAP:
+                continue  # wrapped under any policy
+            label_w = max(label_w, one_line)
+            field_w = max(field_w, fw.minimumWidth(), fw.minimumSizeHint().width())
+        policy = (QFormLayout.RowWrapPolicy.WrapAllRows
+                  if label_w and self.width() < label_w + gap + field_w
+                  else QFormLayout.RowWrapPolicy.WrapLongRows)
+        if lay.rowWrapPolicy() != policy:
+            lay.setRowWrapPolicy(policy)
+
     # -------------------------------------------------------------- public
 
     @property
@@ -739,12 +770,17 @@ class FormEditor(QWidget):
             for spec in form.fields:
                 w = self._make_editor(spec)
                 lab = QLabel(spec.label)
+                # wrapped: a long label ("Slew from (anticlockwise, from east)") set
+                # the form's width, and at 1280 × 720 the boxes ran under the
+                # panel's edge behind a horizontal scroll bar (seen under Xvfb)
+                lab.setWordWrap(True)
                 if spec.tip:
                     lab.setToolTip(spec.tip)
                     w.setToolTip(spec.tip)
                 self._layout.addRow(lab, w)
                 self._editors[spec.key] = w
             self._signature = sig
+            self._fit_rows()
             if focus_key in self._editors:  # same field in the new shape: keep typing
                 self._editors[focus_key].setFocus(Qt.FocusReason.OtherFocusReason)
         for spec in form.fields:

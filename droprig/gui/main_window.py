@@ -135,7 +135,7 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
         self.plan.corridor_changed.connect(self._on_corridor_dragged)
         self.plan.context_requested.connect(self._on_plan_context)
         self.plan.mode_changed.connect(self._on_plan_mode_changed)
-        self.plan.point_clicked.connect(self._on_point_clicked)
+        self.plan.point_clicked.connect(self._on_plan_point)
         self.plan.hover_text.connect(self._on_hover_text)
         self.results_table.trace_requested.connect(self.show_trace)
         self.inspector.refused.connect(lambda msg: self.statusBar().showMessage(msg, 10_000))
@@ -160,6 +160,23 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
             tp.show_trace(tp.trace, s.unit_system)  # the same point in the new units
         self.basis_label.setText(f"Basis: {BASIS_LABELS.get(s.design_basis, s.design_basis)}")
         self._update_actions()
+
+    def _on_plan_point(self, zone_id: str, load_name: str, x: float, y: float) -> None:
+        """A click on the plan: trace the point clicked. When the click selected a
+        bay, the trace follows the load of the table row it selected (the bay's
+        worst); the nearest point alone could be another load's, and the trace then
+        named a load the highlighted row did not (seen under Xvfb)."""
+        row = self.results_table.selected_row()
+        sel = self.doc.selection
+        if (row is not None and sel is not None and sel.kind == "bay"
+                and (row.level_id, row.bay_id) == tuple(sel.ids)
+                and (row.zone_id, row.load_name) != (zone_id, load_name)):
+            hit = self.plan.nearest_point(x, y, case=(row.zone_id, row.load_name))
+            if hit is not None:
+                case, i = hit
+                zone_id, load_name = case.zone_id, case.load_name
+                x, y = float(case.x[i]), float(case.y[i])
+        self._on_point_clicked(zone_id, load_name, x, y)
 
     def _on_selection_changed(self, sel: Selection | None) -> None:
         self._update_actions()  # the plan follows the selection itself

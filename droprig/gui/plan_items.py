@@ -102,8 +102,10 @@ class PixelSized:
 
 
 SHORT_WORDS = {"elastic": "ELASTIC", "plastic": "YIELDS", "exceeds": "EXCEEDS",
-               "perforates": "GOES THROUGH", style.OUTCOME_NONE: "N/A"}
-"""One-word bay labels when the full outcome words do not fit."""
+               "perforates": "GOES THROUGH", style.OUTCOME_NONE: "NOT ASSESSED"}
+"""One-word bay labels when the full outcome words do not fit. A bay not assessed
+reads as the legend does (it read "N/A", which a reader can take for "no check
+needed"); where that does not fit, the legend's tag."""
 
 
 @dataclass(frozen=True)
@@ -456,6 +458,8 @@ class ProtectionItem(PixelSized, QGraphicsItem):
         self._areas: list[ProtectionArea] = []
         self._rect = QRectF()
         self.part = part
+        self.avoid: Callable[[], list[QRectF]] = list
+        """Device rectangles the name keeps clear of where it can (set by the view)."""
         self.setZValue(4 if part == "area" else 7.9)
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
 
@@ -497,7 +501,19 @@ class ProtectionItem(PixelSized, QGraphicsItem):
         painter.save()
         painter.resetTransform()
         painter.setFont(pixel_font(10, True))
-        fm = QFontMetricsF(painter.font())
+        for text, plate in self.label_plates(t):
+            painter.fillRect(plate, QColor(255, 255, 255, 220))
+            painter.setPen(QColor(style.PLAN["protection_edge"]))
+            painter.drawText(plate, Qt.AlignmentFlag.AlignCenter, text)
+        painter.restore()
+
+    def label_plates(self, t: QTransform) -> list[tuple[str, QRectF]]:
+        """(caption, device rectangle) of each area's name: in a bottom corner of the
+        area, clear of the bay centres, and of :attr:`avoid` (the crane symbols and
+        labels) where a corner allows — the crane was drawn over a mat's name."""
+        fm = QFontMetricsF(pixel_font(10, True))
+        avoid = [a.adjusted(-2, -2, 2, 2) for a in self.avoid()]
+        out = []
         for a in self._areas:
             dr = t.mapRect(rect_to_scene(a.area))
             text = self.caption(a)
@@ -507,11 +523,14 @@ class ProtectionItem(PixelSized, QGraphicsItem):
             if dr.width() < 30 or dr.height() < 18:
                 continue
             w = fm.horizontalAdvance(text) + 6
-            plate = QRectF(dr.left() + 3, dr.bottom() - 17, w, 14)  # clear of bay centres
-            painter.fillRect(plate, QColor(255, 255, 255, 220))
-            painter.setPen(QColor(style.PLAN["protection_edge"]))
-            painter.drawText(plate, Qt.AlignmentFlag.AlignCenter, text)
-        painter.restore()
+            corners = [QRectF(dr.left() + 3, dr.bottom() - 17, w, 14),
+                       QRectF(dr.right() - 3 - w, dr.bottom() - 17, w, 14),
+                       QRectF(dr.left() + 3, dr.top() + 3, w, 14),
+                       QRectF(dr.right() - 3 - w, dr.top() + 3, w, 14)]
+            plate = next((c for c in corners if not any(c.intersects(o) for o in avoid)),
+                         corners[0])
+            out.append((text, plate))
+        return out
 
 
 # -------------------------------------------------------------- lift zones

@@ -358,7 +358,10 @@ class PlanView(QGraphicsView):
                      self._band_item,
                      self._drag_label, *self._handles.values()):
             self._scene.addItem(item)
-        self._labels_item.avoid = self.handle_rects
+        # bay tags and mat names keep clear of the handles and the crane symbols and
+        # labels (the crane label was drawn over a bay's tag, the crane over a mat's name)
+        self._labels_item.avoid = lambda: self.handle_rects() + self._crane_obstacles()
+        self._protection_labels.avoid = self._crane_obstacles
         self._dim_plate = QColor(style.PLAN["background"])
         self._doc: Document | None = None
         self._stale_timer = QTimer(self)
@@ -1271,13 +1274,20 @@ class PlanView(QGraphicsView):
                 return s
         return None
 
-    def nearest_point(self, x: float, y: float) -> tuple[CaseResult, int] | None:
+    def nearest_point(self, x: float, y: float, case: tuple[str, str] | None = None
+                      ) -> tuple[CaseResult, int] | None:
         """The analysed drop point of the displayed case(s) nearest to (x, y), m,
         within PICK_PX pixels or 1.5 grid cells; ties (the same point in several
-        cases) go to the worst outcome, then the highest utilisation."""
+        cases) go to the worst outcome, then the highest utilisation. ``case``
+        (zone id, load name): that case's points only."""
         if self._px.size == 0:
             return None
         d2 = (self._px - x) ** 2 + (self._py - y) ** 2
+        if case is not None:
+            keep = np.array([(c.zone_id, c.load_name) == case for c in self._cases])
+            d2 = np.where(keep[self._pcase], d2, np.inf)
+            if not np.isfinite(d2).any():
+                return None
         dmin = float(d2.min())
         cell = self._project.settings.grid_resolution if self._project else 0.5
         tol = max(PICK_PX / max(self.pixels_per_metre(), 1e-9), 1.5 * cell)

@@ -440,7 +440,7 @@ class ResultsTable(QWidget):
         self.summary.setObjectName("resultsSummary")
         # wraps rather than widening the panel: unwrapped, the line for a project with
         # a verdict set the results panel's least width at 945 px and the window's
-        # past a 1280 px screen
+        # past a 1280 px screen (seen under Xvfb)
         self.summary.setWordWrap(True)
         self.summary.setToolTip("The lift shown is chosen above the plan (Lift:); the plan "
                                 "and this table always show the same lift")
@@ -515,19 +515,22 @@ class ResultsTable(QWidget):
         if not res.bays:
             self.summary.setText("No drop points: add a lift zone with a load.")
             return
-        parts = [f"{style.outcome(k).label}: {counts[k]}"
+        parts = [f"{style.outcome(k).label} {counts[k]}"
                  for k in reversed(style.OUTCOME_ORDER) if counts.get(k)]
         stale = "  (updating…)" if not self._doc.results_current else ""
         permit = self.model.permit
         verdict = f"<b>{permit.verdict_words}</b> — " if permit is not None else ""
         case = self._doc.case
-        which = "all lifts and loads" if case is None else f"lift {case[0]} · {case[1]}"
-        self.summary.setText(f"{verdict}Showing {which}: {self.proxy.rowCount()} of "
-                             f"{len(res.bays)} rows, one per bay and load — "
-                             + " · ".join(parts) + stale)
+        which = "all lifts" if case is None else f"lift {case[0]} · {case[1]}"
+        # short enough for one line at 1280 × 720 (wrapped beyond; two lines cost
+        # the table a row)
+        self.summary.setText(f"{verdict}{which}: {self.proxy.rowCount()} of "
+                             f"{len(res.bays)} rows — " + " · ".join(parts) + stale)
         # the caution stands in the window's status bar beside every verdict; here
-        # on hover
-        self.summary.setToolTip(CAUTION)
+        # on hover, after what the rows are
+        self.summary.setToolTip("One row per bay and load (the worst drop point of the "
+                                "bay for that load); the count of rows by outcome.\n\n"
+                                + CAUTION)
 
     # -------------------------------------------------------------- selection sync
 

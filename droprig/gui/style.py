@@ -233,3 +233,9 @@ def fmt_drop(height: float | None, system: units.UnitSystem) -> str:
     given in mm or in, so a drop of a few millimetres does not read as "0.00 ft"."""
     q = "small_length" if height is not None and height < SHORT_DROP_M else "length"
     return units.fmt(height, q, system, rounding="down")
+
+
+BASIS_LABELS = {"en1993": "EN 1993-1-1", "aisc360": "AISC 360-16"}
+"""Design basis as the window names it (status bar, inspector)."""
+UNIT_LABELS = {"SI": "SI (m · kN · kg · MPa)", "US": "US (ft · kip · lb · ksi)"}
+"""Unit system as the window names it (status bar, inspector)."""

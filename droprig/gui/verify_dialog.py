@@ -11,7 +11,6 @@ energy method's peaks, the time history's peaks and the demands the verdict uses
 
 from __future__ import annotations
 
-import html
 from typing import TYPE_CHECKING
 
 from PySide6.QtCore import Qt
@@ -60,6 +59,14 @@ def comparison_rows(pv: PointVerification, system: str) -> list[list[str]]:
     return rows
 
 
+def _plain(text: str) -> QLabel:
+    """A label shown as plain text: an HTML-escaped string in an auto-format label
+    showed its entities ('verdict ÷ history' read &#x27;verdict ÷ history&#x27;)."""
+    label = QLabel(text)
+    label.setTextFormat(Qt.TextFormat.PlainText)
+    return label
+
+
 class VerifyDialog(QDialog):
     """Plots (one tab each) and the comparison table of one point's verification."""
 
@@ -71,11 +78,11 @@ class VerifyDialog(QDialog):
         self.setWindowTitle("Time-history verification")
         self.verification = pv
         v = pv.verification
-        head = QLabel(html.escape(
+        head = _plain(
             f"Lift {pv.zone_id}, load {pv.load_name}, bay {pv.bay_id or '—'}, point "
             f"({units.fmt(pv.x, 'length', system)}, {units.fmt(pv.y, 'length', system)}) "
             f"— member {pv.member_id} ({pv.cond}, span {units.fmt(pv.L, 'length', system)}, "
-            f"struck at {units.fmt(pv.a, 'length', system)})"))
+            f"struck at {units.fmt(pv.a, 'length', system)})")
         head.setWordWrap(True)
         self.tabs = QTabWidget()
         self.canvases = []
@@ -99,16 +106,16 @@ class VerifyDialog(QDialog):
                  f"crushing (crushed {units.fmt(v.crush, 'small_length', system)} in the "
                  "time history)" if v.crushing_force < float("inf") else
                  "elastic contact (no crushing cap)")
-        notes = QLabel(html.escape(
-            f"r = M/mₑ {v.mass_ratio:.3g}, κ = f_c/f_s {v.compliance_ratio:.3g}; {crush}; "
+        notes = _plain(
+            f"r = M/mₑ = {v.mass_ratio:.3g}, κ = f_c/f_s = {v.compliance_ratio:.3g}; {crush}; "
             f"{v.modes} modes in time, time step {v.time_step * 1e3:.3g} ms"
             + ("; a rigid contact was given a small compliance (stated assumption)"
                if v.contact_assumed else "")
             + ". The verdict uses the larger of the energy method and the time-history "
             "bounds (dynamic amplification); a ratio 'verdict ÷ history' of 1 or more "
-            "means the verdict covers this time history."))
+            "means the verdict covers this time history.")
         notes.setWordWrap(True)
-        self.caution = QLabel(html.escape(CAUTION))
+        self.caution = _plain(CAUTION)
         self.caution.setWordWrap(True)
         self.caution.setStyleSheet("color:#7a4a00")
         side = QVBoxLayout()

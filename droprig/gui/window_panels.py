@@ -34,8 +34,8 @@ from droprig.gui.window_edits import is_placeholder
 from droprig.model import LiftLoad
 from droprig.texts import CAUTION
 
-BASIS_LABELS = {"en1993": "EN 1993-1-1", "aisc360": "AISC 360-16"}
-UNIT_LABELS = {"SI": "SI (m · kN · kg · MPa)", "US": "US (ft · kip · lb · ksi)"}
+BASIS_LABELS = style.BASIS_LABELS
+UNIT_LABELS = style.UNIT_LABELS
 
 
 def screen_scale_tag(screen: object) -> str:
@@ -327,9 +327,13 @@ class PanelsMixin(WindowParts):
         self.busy.hide()
         self.caution_label = CautionLabel()
         self.caution_label.clicked.connect(self.actions["caution"].trigger)
-        for w in (self.units_label, self.basis_label, self.busy, self.state_label):
-            sb.addPermanentWidget(w)
-        sb.addPermanentWidget(self.caution_label, 1)
+        # units, basis and the analysis state give way to a temporary message
+        # ('Annex written: …'); only the caution is permanent. (All were permanent,
+        # the caution stretched: messages had no room and were never seen.)
+        for w in (self.units_label, self.basis_label, self.busy):
+            sb.addWidget(w)
+        sb.addWidget(self.state_label, 1)
+        sb.addPermanentWidget(self.caution_label)
 
     def _update_guide(self) -> None:
         """Tell a new user the next step until the project can be assessed."""
@@ -357,6 +361,12 @@ class PanelsMixin(WindowParts):
             self.guide.hide()
             return
         self.guide_text.setText(text)
+        # one action only: setDefaultAction adds to the button's actions, and with
+        # more than one the button drew a menu arrow over its text and a long press
+        # offered the steps already done (seen under Xvfb)
+        for old in self.guide_button.actions():
+            if old is not self.actions[action]:
+                self.guide_button.removeAction(old)
         self.guide_button.setDefaultAction(self.actions[action])
         self.guide.show()
 
