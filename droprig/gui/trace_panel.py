@@ -288,7 +288,8 @@ class TracePanel(QWidget):
                                 f"This point cannot be verified: {describe_error(exc)}")
             return None
         QApplication.restoreOverrideCursor()
-        dlg = VerifyDialog(pv, figs, project.settings.unit_system, self)
+        dlg = VerifyDialog(pv, figs, project.settings.unit_system, self,
+                           amplified=project.settings.dynamic_amplification)
         self.last_dialog = dlg
         dlg.show()
         return dlg

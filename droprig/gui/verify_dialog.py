@@ -71,7 +71,7 @@ class VerifyDialog(QDialog):
     """Plots (one tab each) and the comparison table of one point's verification."""
 
     def __init__(self, pv: PointVerification, figures: list[Figure], system: str,
-                 parent: QWidget | None = None) -> None:
+                 parent: QWidget | None = None, *, amplified: bool = False) -> None:
         super().__init__(parent)
         from matplotlib.backends.backend_qtagg import FigureCanvasQTAgg
 
@@ -111,9 +111,13 @@ class VerifyDialog(QDialog):
             f"{v.modes} modes in time, time step {v.time_step * 1e3:.3g} ms"
             + ("; a rigid contact was given a small compliance (stated assumption)"
                if v.contact_assumed else "")
-            + ". The verdict uses the larger of the energy method and the time-history "
-            "bounds (dynamic amplification); a ratio 'verdict ÷ history' of 1 or more "
-            "means the verdict covers this time history.")
+            + (". The verdict uses the larger of the energy method and the time-history "
+               "bounds (dynamic amplification); a ratio 'verdict ÷ history' of 1 or more "
+               "means the verdict covers this time history." if amplified else
+               ". Dynamic amplification is off in this project's settings: the verdict "
+               "uses the energy method, and a ratio 'verdict ÷ history' below 1 means the "
+               "time history reads higher than the verdict here — for the engineer to "
+               "review, or switch amplification on."))
         notes.setWordWrap(True)
         self.caution = _plain(CAUTION)
         self.caution.setWordWrap(True)

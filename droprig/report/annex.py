@@ -1487,10 +1487,16 @@ class _Builder:
     def verification(self, rows: Sequence[Sequence[str]]) -> None:
         """The time history beside the energy method and the verdict at each bay's
         governing point (:mod:`droprig.report.verification`)."""
-        from droprig.report.verification import VERIFICATION_HEADER, VERIFICATION_NOTE
+        from droprig.report.verification import (
+            VERIFICATION_HEADER,
+            VERIFICATION_NOTE,
+            VERIFICATION_OFF,
+        )
 
         self.section("verification")
         self.story.append(self.P(esc(VERIFICATION_NOTE), self.st.small))
+        if not self.p.settings.dynamic_amplification:
+            self.story.append(self.P(f"<b>{esc(VERIFICATION_OFF)}</b>", self.st.small))
         if not rows:
             self.story.append(self.P("No governing point could be verified (points on a "
                                      "support or off the deck).", self.st.small))

@@ -13,7 +13,7 @@ from typing import Any
 
 from droprig.units import fmt
 
-__all__ = ["VERIFICATION_HEADER", "VERIFICATION_NOTE", "verification_rows"]
+__all__ = ["VERIFICATION_HEADER", "VERIFICATION_NOTE", "VERIFICATION_OFF", "verification_rows"]
 
 VERIFICATION_HEADER: tuple[str, ...] = (
     "zone", "bay", "load", "member", "r = M/mₑ", "κ = f_c/f_s",
@@ -35,6 +35,14 @@ VERIFICATION_NOTE = (
     "more means the verdict covers it. Check aid only: "
     "review against local codes with the appointed lifting person and a licensed "
     "structural engineer.")
+
+
+VERIFICATION_OFF = (
+    "Dynamic amplification is off in this project's settings: the verdict uses the energy "
+    "method, so its ratios equal the energy method's, and below 1 the time history reads "
+    "higher than the verdict at that point — for the engineer to review, or switch "
+    "amplification on.")
+"""Said beside the table when the project's checks use the energy method alone."""
 
 
 def verification_rows(project: Any, results: Any, *,

@@ -23,7 +23,7 @@ SI units throughout.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import TYPE_CHECKING
 
 import numpy as np
@@ -258,6 +258,10 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), float(inp.h[0]),
                   f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True, F_yield=F_y, stroke=s_y)
 
+    if not project.settings.dynamic_amplification:
+        # the project's checks use the energy method alone (amplification off in its
+        # settings): that is the demand the verdict uses, whatever the bounds would be
+        ver = replace(ver, verdict=dict(ver.energy))
     return PointVerification(zone_id=zone_id, load_name=load_name, x=float(x), y=float(y),
                              bay_id=_bay_name(fm.level, geo), member_id=member.id, cond=cond,
                              L=L, a=a, chain_peak_force=float(chain[Impact].F[0]),

@@ -680,12 +680,21 @@ def test_verification_appendix_covers_the_time_history(built: Annex) -> None:
     first = _first_page(built, heading)
     rows = verification_rows(built.project, built.results)
     text = " ".join(built.texts[first - 1:])
+    on = built.project.settings.dynamic_amplification
+    from droprig.report.verification import VERIFICATION_OFF
+
+    # the note saying the verdict uses the energy method alone is printed when (and only
+    # when) amplification is off
+    assert (" ".join(VERIFICATION_OFF.split()[:8]) in text) == (not on and bool(rows))
     for r in rows:
         for cell in r[13:]:
             assert cell in text
-            if cell not in ("none", "inf"):
+            if on and cell not in ("none", "inf"):
                 # with amplification on, the verdict covers the time history
                 assert float(cell) >= 1.0, (r[:4], r[13:])
+        if not on:
+            # off: the verdict is the energy method, its ratios the energy method's
+            assert r[13:15] == r[10:12], (r[:4], r[10:])
 
 
 def test_pad_spec_states_the_crush_stress_the_analysis_uses() -> None:
