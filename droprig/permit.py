@@ -100,6 +100,12 @@ NOT_CHECKED: tuple[str, ...] = (
 )
 """What droprig never checks, printed on every permit (common practice, no source)."""
 
+ENERGY_ONLY = ("Dynamic amplification is off: the demands are the energy method's, which "
+               "reads low for a load light against the struck framing (the time-history "
+               "ratios of Appendix B2 show by how much at each bay's governing point).")
+"""Named among the things not checked when the project's checks use the energy method
+alone (Gere §9.10's limitation for a light load; droprig.solver.amplification)."""
+
 SIG_HEIGHT = 3
 """Significant figures of a drop height (m or ft): 0.0700 m, 0.930 m, 10.8 m."""
 SIG_MASS = 3
@@ -657,6 +663,8 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
             loads.append(LoadVerdict(zone.id, ld.name, verdict, conds, bvs))
             everything.extend(conds)
     not_checked = list(NOT_CHECKED)
+    if not project.settings.dynamic_amplification:
+        not_checked.append(ENERGY_ONLY)
     for w in results.warnings:
         if "beyond the deck" in w:
             continue  # a condition of its own (not_assessed)

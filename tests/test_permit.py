@@ -536,3 +536,17 @@ def test_a_bay_states_each_condition_once(name):
     for bv in permit.bays:
         said = [c.sentence("SI") for c in bv.conditions]
         assert len(said) == len(set(said)), (bv.bay_id, said)
+
+
+def test_energy_method_alone_is_named_among_the_limits():
+    # with dynamic amplification off the demands are the energy method's, which reads
+    # low for a light load (Gere, Mechanics of Materials 7th ed., §9.10 — the method's
+    # own stated limitation); the permit says so, and not when amplification is on
+    from droprig.permit import ENERGY_ONLY
+
+    p = load_project(Path(__file__).resolve().parents[1] / "demo_projects"
+                     / "two_level_rigging.droprig")
+    assert not p.settings.dynamic_amplification
+    assert ENERGY_ONLY in derive_conditions(p, analyse(p)).not_checked
+    on = replace(p, settings=replace(p.settings, dynamic_amplification=True))
+    assert ENERGY_ONLY not in derive_conditions(on, analyse(on)).not_checked

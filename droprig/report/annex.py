@@ -39,8 +39,8 @@ from dataclasses import dataclass, field
 from droprig import __version__
 from droprig.io.atomic import atomic_path
 from droprig.model import Deck, Level, LiftZone, ModelError, Project, bays, id_ranges
+from droprig.permit import ENERGY_ONLY, derive_conditions
 from droprig.permit import VERDICT_WORDS as _PERMIT_WORDS
-from droprig.permit import derive_conditions
 from droprig.report import content, fonts, permit_fields, references
 from droprig.report.formula import SIG, evaluate, fmt_sig, printed_tolerance
 from droprig.report.text import esc, fmt_util, fmt_value, is_none
@@ -81,8 +81,7 @@ BODY_SECTIONS = ("verdict", "plan", "bays", "inputs")
 
 ASSUMPTIONS: tuple[str, ...] = (
     "Energy method: the peak contact force acts quasi-statically (member actions = peak "
-    "force × the actions of a unit load at the drop point, [{gere}]); with dynamic "
-    "amplification on, the larger of this and the time-history bounds (Appendix B2).",
+    "force × the actions of a unit load at the drop point, [{gere}]); {amplification}",
     "Perfectly inelastic contact: η = M/(M + mₑ), mₑ the members' Rayleigh mass in their "
     "static shape ([{timoshenko}]).",
     "Free fall from the drop height (underside above the finished surface; onto a pad, "
@@ -105,6 +104,13 @@ ASSUMPTIONS: tuple[str, ...] = (
     "the flexure of an over-reinforced slab are brittle (no plastic reserve).",
     "Deflection limits (span/N) are information only, not pass criteria.",
 )
+
+AMPLIFICATION_ON = ("dynamic amplification on: the larger of this and the time-history "
+                    "bounds (Appendix B2).")
+AMPLIFICATION_OFF = ("dynamic amplification off: this reads low for a load light against "
+                     "the struck framing (Appendix B2 gives the ratios).")
+"""The end of the first assumption, by the project's setting (Gere §9.10's limitation
+of the energy method for a light load; droprig.solver.amplification)."""
 
 NOT_CHECKED: tuple[str, ...] = (
     "connections other than for their end shear, and their bolts or welds in detail "
@@ -1247,12 +1253,17 @@ class _Builder:
                           self.P(esc(b[0])), self.P(f"<b>{esc(b[1])}</b>")])
         self.story.append(_table(rows2, [0.3 * w, 0.2 * w, 0.3 * w, 0.2 * w], header_rows=0))
         self.story.append(self.P("Assumptions", st.h2))
+        amp = (AMPLIFICATION_ON if self.p.settings.dynamic_amplification
+               else AMPLIFICATION_OFF)
         for a in ASSUMPTIONS:
-            self.story.append(self.P(esc(a.format(**{k: self.ref(k) for k in self.refs})),
+            self.story.append(self.P(esc(a.format(amplification=amp,
+                                                  **{k: self.ref(k) for k in self.refs})),
                                      st.bullet, bulletText="•"))
         self.story.append(self.P("Not checked by droprig (needs a separate check and "
                                  "sign-off)", st.h2))
-        items = list(getattr(self.permit, "not_checked", ()) or ())
+        # the energy-method-only statement is the first assumption's (no second copy)
+        items = [n for n in (getattr(self.permit, "not_checked", ()) or ())
+                 if n != ENERGY_ONLY]
         if not items:
             items = [n[0].upper() + n[1:] + "." for n in NOT_CHECKED]
         else:
