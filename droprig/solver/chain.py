@@ -189,7 +189,13 @@ class Drop:
     ``bare``).
 
     ``landing``: ``flat`` (the whole footprint meets the deck) or ``tilted`` (the load
-    lands out of level on one edge: :data:`LANDINGS`)."""
+    lands out of level on one edge: :data:`LANDINGS`).
+
+    ``trial``: a forward run of :mod:`droprig.solver.confirm` (a condition tried). Its
+    verdict is the forward steps'; its inverse answers only guide the next trial
+    value, so they are the closed forms, not confirmed again by forward runs of
+    their own (:func:`confirm_amplified_height`): each printed limit is confirmed
+    once, by the trial."""
 
     fm: FloorModel
     project: Project
@@ -202,6 +208,7 @@ class Drop:
     v_hoist: float = 0.0
     bare: BareMember | None = None
     landing: str = "flat"
+    trial: bool = False
 
     @property
     def n(self) -> int:
@@ -1342,7 +1349,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     cover = dk.thickness if dk.is_steel else dk.cover  # as the impact step's depth
     h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow), imp.F_crush,
                              np.full(d.n, cover), W, eta)
-    if s.dynamic_amplification:
+    if s.dynamic_amplification and not d.trial:
         h_el = confirm_amplified_height(c, h_el)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
