@@ -46,8 +46,10 @@ The drop points are the zone grid plus the points that can govern
 
 from __future__ import annotations
 
+import threading
+from collections import OrderedDict
 from collections.abc import Callable
-from dataclasses import replace
+from dataclasses import fields, replace
 
 import numpy as np
 
@@ -73,6 +75,7 @@ __all__ = [
     "Advice",
     "FloorModel",
     "Geometry",
+    "ZoneCache",
     "analyse",
     "analyse_zone",
     "bay_advice",
@@ -80,6 +83,7 @@ __all__ = [
     "floor_model",
     "planned_height",
     "point_geometry",
+    "zone_key",
 ]
 
 
@@ -234,6 +238,64 @@ def analyse(project: Project) -> Results:
     :class:`~droprig.model.ModelError` for framing the method cannot assess (a member
     end resting on nothing, members resting on each other in a loop).
     """
+    return _analyse(project, None)
+
+
+_NOT_ANALYSED = ("info", "lift_zones")
+"""Fields of :class:`~droprig.model.Project` that feed no zone's analysis (the
+project's description and permit fields; the other zones)."""
+
+
+def zone_key(project: Project, zone: LiftZone) -> tuple:
+    """What one zone's analysis is made of, as frozen model objects: the zone (its
+    loads, corridor and drift margin as resolved), and every other input of the
+    project — the levels (the zone's framing, and the levels below it that a
+    perforating drop falls to), the protection areas (their order numbers the
+    results' ``protection``) and the settings. Equal keys, equal results."""
+    return (zone, *(getattr(project, f.name) for f in fields(project)
+                    if f.name not in _NOT_ANALYSED))
+
+
+class ZoneCache:
+    """The results of each lift zone remembered by :func:`zone_key` (the last
+    ``size`` zone analyses), so that an edit re-analyses only the zones it changes:
+    an edit to one zone or its loads re-runs that zone, an edit to framing, pads or
+    settings every zone. Same results as :func:`analyse`, bit for bit
+    (``tests/solver/test_zone_cache.py``). Safe to share between threads."""
+
+    def __init__(self, size: int = 32) -> None:
+        self.size = size
+        self._zones: OrderedDict[tuple, Results] = OrderedDict()
+        self._lock = threading.Lock()
+        self.hits = 0
+        self.misses = 0
+
+    def analyse(self, project: Project) -> Results:
+        """:func:`analyse`, each zone's results taken from the cache where its
+        :func:`zone_key` is known."""
+        return _analyse(project, self)
+
+    def zone(self, project: Project, zone: LiftZone,
+             floor: Callable[[str], FloorModel]) -> Results:
+        """One zone's results (``project`` with its drift margins resolved)."""
+        key = zone_key(project, zone)
+        with self._lock:
+            hit = self._zones.get(key)
+            if hit is not None:
+                self._zones.move_to_end(key)
+                self.hits += 1
+                return hit
+        r = analyse_zone(project, zone.id, floor)
+        with self._lock:
+            self.misses += 1
+            self._zones[key] = r
+            while len(self._zones) > self.size:
+                self._zones.popitem(last=False)
+        return r
+
+
+def _analyse(project: Project, cache: ZoneCache | None) -> Results:
+    """:func:`analyse`, with the zones' results from ``cache`` where it has them."""
     project = resolve_drift(project)
     floor = floor_cache(project)
     cases: list[CaseResult] = []
@@ -241,7 +303,8 @@ def analyse(project: Project) -> Results:
     warnings: list[str] = []
     falls: list[Cascade] = []
     for zone in project.lift_zones:
-        r = analyse_zone(project, zone.id, floor)
+        r = (analyse_zone(project, zone.id, floor) if cache is None
+             else cache.zone(project, zone, floor))
         cases.extend(r.cases)
         summaries.extend(r.bays)
         falls.extend(r.cascade)
