@@ -94,13 +94,13 @@ def concat_geo(parts: list[Geometry]) -> Geometry:
     paths = [g.path for g in parts]
     path = PathResult(**{f: np.concatenate([getattr(p, f) for p in paths])
                          for f in paths[0].__dataclass_fields__})
-    out = Geometry(*(np.concatenate([getattr(g, f) for g in parts])
-                     for f in ("x", "y")), path,
-                   *(np.concatenate([getattr(g, f) for g in parts])
-                     for f in ("bay", "protection", "opening")))
+    def cat(name: str) -> np.ndarray:
+        return np.concatenate([getattr(g, name) for g in parts])
+
+    out = Geometry(cat("x"), cat("y"), path, cat("bay"), cat("protection"), cat("opening"))
     uas = [g.cache.get("ua") for g in parts]
     if all(u is not None for u in uas):
-        ua = UnitActions.concat(uas)  # type: ignore[arg-type]
+        ua = UnitActions.concat([u for u in uas if u is not None])
         if ua is not None:
             out.cache["ua"] = ua
     return out

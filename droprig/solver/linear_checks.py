@@ -330,7 +330,7 @@ class Family:
         fam.src = first.src
         fam.groups = first.groups
         fam.gmin = None if first.gmin is None else np.concatenate(
-            [f.gmin for f in parts], axis=1)  # type: ignore[misc]
+            [f.gmin for f in parts], axis=1)
         fam.F_allow = np.concatenate([f.F_allow for f in parts])
         return fam
 
