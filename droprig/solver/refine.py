@@ -131,9 +131,9 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
                          ) -> tuple[dict[str, np.ndarray], Geometry | None]:
     """:func:`zone_points` and the geometry of its rows (row for row, with the
     load-independent member actions where they were kept), for the trials of
-    :mod:`droprig.solver.confirm` to take their points from; ``None`` for a zone
-    evaluated block by block (beyond :data:`~droprig.solver.evaluate.CACHE_MAX_POINTS`
-    base points), whose geometry is not kept."""
+    :mod:`droprig.solver.confirm` to take their points from; ``None`` for a zone of
+    more than :data:`~droprig.solver.evaluate.CACHE_MAX_POINTS` rows (loads × points;
+    some 40 doubles a row are kept), whose geometry is not kept."""
     loads = list(zone.loads)
     vh = zone.hoist_speed  # the load strikes at √(v_h² + 2gh) (local damage)
     nl = len(loads)
@@ -174,7 +174,9 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         if geos is not None:
             geos.append(geo)
         res = _merge(parts, _REFINE_KEYS)
-    return _merge(parts), None if geos is None else concat_geo(geos)
+    if geos is None or sum(g.x.size for g in geos) > evaluate.CACHE_MAX_POINTS:
+        return _merge(parts), None  # memory stays bounded: trials work theirs out
+    return _merge(parts), concat_geo(geos)
 
 
 def _in_sorted(sorted_keys: np.ndarray, keys: np.ndarray) -> np.ndarray:
