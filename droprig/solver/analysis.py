@@ -258,13 +258,17 @@ def zone_key(project: Project, zone: LiftZone) -> tuple:
 
 class ZoneCache:
     """The results of each lift zone remembered by :func:`zone_key` (the last
-    ``size`` zone analyses), so that an edit re-analyses only the zones it changes:
-    an edit to one zone or its loads re-runs that zone, an edit to framing, pads or
-    settings every zone. Same results as :func:`analyse`, bit for bit
-    (``tests/solver/test_zone_cache.py``). Safe to share between threads."""
+    ``size`` zone analyses, holding at most ``max_points`` drop points × loads
+    together — some 40 numbers each — beyond the newest), so that an edit
+    re-analyses only the zones it changes: an edit to one zone or its loads re-runs
+    that zone, an edit to framing, pads or settings every zone. Same results as
+    :func:`analyse`, bit for bit (``tests/solver/test_zone_cache.py``). Safe to share
+    between threads."""
 
-    def __init__(self, size: int = 32) -> None:
+    def __init__(self, size: int = 32, max_points: int = 400_000) -> None:
         self.size = size
+        self.max_points = max_points
+        self._points = 0
         self._zones: OrderedDict[tuple, Results] = OrderedDict()
         self._lock = threading.Lock()
         self.hits = 0
@@ -288,9 +292,12 @@ class ZoneCache:
         r = analyse_zone(project, zone.id, floor)
         with self._lock:
             self.misses += 1
-            self._zones[key] = r
-            while len(self._zones) > self.size:
-                self._zones.popitem(last=False)
+            if key not in self._zones:
+                self._zones[key] = r
+                self._points += r.n_points
+            while len(self._zones) > 1 and (len(self._zones) > self.size
+                                            or self._points > self.max_points):
+                self._points -= self._zones.popitem(last=False)[1].n_points
         return r
 
 

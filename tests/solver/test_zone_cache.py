@@ -100,3 +100,16 @@ def test_the_cache_stays_bounded() -> None:
     for r in (2.0, 2.5, 3.0):
         cache.analyse(replace(p, lift_zones=(p.lift_zones[0], replace(z2, r_max=r))))
     assert len(cache._zones) == 2
+
+
+def test_the_cache_holds_a_bounded_number_of_points() -> None:
+    p = _two_zones()
+    probe = ZoneCache()
+    probe.analyse(p)
+    one = max(r.n_points for r in probe._zones.values())
+    cache = ZoneCache(max_points=one)  # room for about one zone's results
+    z2 = p.lift_zones[1]
+    for r in (2.0, 2.5):
+        cache.analyse(replace(p, lift_zones=(p.lift_zones[0], replace(z2, r_max=r))))
+        assert cache._points <= one or len(cache._zones) == 1
+    assert cache._points == sum(r.n_points for r in cache._zones.values())
