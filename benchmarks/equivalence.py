@@ -9,6 +9,9 @@ this guards that a refactoring of the solver changes no number.
     python benchmarks/equivalence.py record out.npz     # before a change
     python benchmarks/equivalence.py compare out.npz    # after: max relative difference
 
+With ``DROPRIG_EQ_AMPLIFIED=1`` in the environment every project is analysed with the
+setting ``dynamic_amplification`` on (``=0``: off), whatever its file or the default.
+
 Compared within 1e-9 relative (NaN equal NaN; integers and strings exactly). Invented
 data only (random inputs): nothing here is an expected value of the physics.
 """
@@ -16,6 +19,7 @@ data only (random inputs): nothing here is an expected value of the physics.
 from __future__ import annotations
 
 import math
+import os
 import sys
 from dataclasses import fields, replace
 from pathlib import Path
@@ -140,6 +144,10 @@ def projects() -> list[tuple[str, Project]]:
             out.append((f"random{s}", random_project(s)))
         except ModelError:
             continue
+    amp = os.environ.get("DROPRIG_EQ_AMPLIFIED")
+    if amp in ("0", "1"):
+        out = [(n, replace(p, settings=replace(p.settings, dynamic_amplification=amp == "1")))
+               for n, p in out]
     return out
 
 

@@ -171,7 +171,7 @@ def _check_exclusion_needed(project: Project, bv) -> None:
     above that (2 % more, for the sampling of drop points) the bay is beyond its
     elastic limits. (Whether it would stay within the plastic limits there is not
     claimed: a plastic height the forward analysis does not confirm falls back to the
-    elastic one, droprig.solver.analysis.confirm_plastic_heights.) Run on the zone's
+    elastic one, droprig.solver.confirm.confirm_point_heights.) Run on the zone's
     own region, with the pads that touch the bay."""
     rect = _bay_rect(project, bv.level_id, bv.bay_id)
     z = project.zone(bv.zone_id)

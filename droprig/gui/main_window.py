@@ -69,7 +69,8 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
 
     ``settings``: where geometry, state and recent files are kept (tests pass
     an isolated one). ``settings_dir``: folder of the autosave / recovery files.
-    ``analyse``: the analysis function (default ``droprig.solver.analysis.analyse``).
+    ``analyse``: the analysis function (default: ``analyse_live``, the solver's
+    ``analyse`` with each zone's results remembered).
     ``threaded=False`` analyses on the UI thread (screenshots, benchmarks).
     """
 
@@ -85,7 +86,8 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
         self.doc.setParent(self)
         self.qsettings = settings or make_settings()
         self.settings_dir = settings_dir or default_dir()
-        self.runner = AnalysisRunner(self.doc, analyse=analyse, threaded=threaded,
+        self.runner = AnalysisRunner(self.doc, analyse=analyse or self.analyse_live,
+                                     threaded=threaded,
                                      debounce_ms=debounce_ms, parent=self)
         self.autosaver = Autosaver(self.doc, self.settings_dir, parent=self) \
             if autosave else None

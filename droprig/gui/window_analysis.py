@@ -12,11 +12,24 @@ from PySide6.QtCore import QTimer
 from droprig.gui import style
 from droprig.gui.document import Selection
 from droprig.gui.window_base import WindowParts, describe
-from droprig.solver import Results
+from droprig.model import Project
+from droprig.solver import Results, ZoneCache
 
 
 class AnalysisMixin(WindowParts):
     """The main window's side of the live analysis."""
+
+    def analyse_live(self, project: Project) -> Results:
+        """The runner's analysis: :func:`droprig.solver.analyse` with each zone's
+        results remembered by the frozen model objects that feed it
+        (:class:`droprig.solver.ZoneCache`), so an edit to one zone or its loads
+        re-analyses that zone only — the same results as a full analysis, bit for
+        bit. One cache per window; the runner's single worker thread and its
+        synchronous runs share it (the cache holds a lock)."""
+        cache: ZoneCache | None = getattr(self, "_zone_cache", None)
+        if cache is None:
+            cache = self._zone_cache = ZoneCache()
+        return cache.analyse(project)
 
     def _on_results_changed(self, results: Results | None) -> None:
         self._refresh_trace()

@@ -5,6 +5,8 @@ names from ``droprig.solver`` and nothing from its modules
 (``tests/test_layers.py`` enforces it).
 
 * :func:`analyse` — every drop point of every load of every lift zone of a project;
+  :class:`ZoneCache` — the same with each zone's results remembered by the model
+  objects that feed it (the window's live re-analysis);
 * :func:`trace_point` — the calculation trace of one drop point;
 * :func:`planned_height` — a load's drop height on droprig's one datum (load
   underside above the finished surface of the level);
@@ -19,7 +21,7 @@ names from ``droprig.solver`` and nothing from its modules
 * the result types and their code tables.
 """
 
-from droprig.solver.analysis import analyse, floor_model
+from droprig.solver.analysis import ZoneCache, analyse, floor_model
 from droprig.solver.cancel import AnalysisCancelledError, CancelToken, cancellable
 from droprig.solver.cascade import level_below
 from droprig.solver.chain import pad_crush_stress, planned_height
@@ -87,6 +89,7 @@ __all__ = [
     "Trace",
     "TraceStep",
     "Verification",
+    "ZoneCache",
     "analyse",
     "assess_member",
     "cancellable",

@@ -46,8 +46,10 @@ The drop points are the zone grid plus the points that can govern
 
 from __future__ import annotations
 
+import threading
+from collections import OrderedDict
 from collections.abc import Callable
-from dataclasses import replace
+from dataclasses import fields, replace
 
 import numpy as np
 
@@ -62,7 +64,7 @@ from droprig.solver import (
     refine,
 )
 from droprig.solver.chain import FIELDS, planned_height
-from droprig.solver.confirm import confirm_bay_limits
+from droprig.solver.confirm import confirm_zone
 from droprig.solver.drift import resolve_drift
 from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_model
 from droprig.solver.geometry import Geometry, point_geometry
@@ -73,6 +75,7 @@ __all__ = [
     "Advice",
     "FloorModel",
     "Geometry",
+    "ZoneCache",
     "analyse",
     "analyse_zone",
     "bay_advice",
@@ -80,6 +83,7 @@ __all__ = [
     "floor_model",
     "planned_height",
     "point_geometry",
+    "zone_key",
 ]
 
 
@@ -126,26 +130,30 @@ def analyse_zone(project: Project, zone_id: str,
     elif droppoints.reaches_off_deck(fm.frame, zone, project.settings.grid_resolution):
         warnings.append(f"zone {zone.id}: part of the zone lies beyond the deck of level "
                         f"{level.id}; drops there are not assessed by droprig")
-    cases = []
     summaries: list[BaySummary] = []
     falls: list[Cascade] = []
     below = cascade.level_below(project, level.id)
-    allres = refine.zone_points(fm, project, zone, (x, y)) if zone.loads else {}
+    zone_cases: list[CaseResult] = []
+
+    def cases_and_bays(rows: dict[str, np.ndarray]) -> list[BaySummary]:
+        """The case of each load from the zone's (confirmed) rows, and its bays."""
+        out: list[BaySummary] = []
+        for j, load in enumerate(zone.loads):
+            sel = rows["load_index"] == j
+            res = {k: v[sel] for k, v in rows.items()}
+            case = _case_result(zone, load, level, res)
+            zone_cases.append(case)
+            out.extend(summarise(level, zone, load, case, res["F_allow"],
+                                 below.id if below is not None else None,
+                                 [p.id for p in project.protection_areas]))
+        return out
+
     if zone.loads:
-        confirm_plastic_heights(fm, project, zone, allres)
-    zone_cases = []
-    for j, load in enumerate(zone.loads):
-        sel = allres["load_index"] == j
-        res = {k: v[sel] for k, v in allres.items()}
-        case = _case_result(zone, load, level, res)
-        cases.append(case)
-        zone_cases.append(case)
-        summaries.extend(summarise(level, zone, load, case, res["F_allow"],
-                                   below.id if below is not None else None,
-                                   [p.id for p in project.protection_areas]))
-    if summaries:
-        # every limit a bay offers, tried by the forward chain before it is printed
-        summaries = confirm_bay_limits(fm, project, zone, allres, summaries)
+        allres, geo = refine.zone_points_geometry(fm, project, zone, (x, y))
+        # each point's plastic height, then every limit a bay offers, tried by the
+        # forward chain before it is printed
+        summaries = confirm_zone(fm, project, zone, allres, geo, cases_and_bays)
+    cases = list(zone_cases)
     for load, case in zip(zone.loads, zone_cases, strict=True):
         if below is not None:
             falls.extend(cascade_down(project, zone, load, case, below, floor))
@@ -205,52 +213,6 @@ def _cascade(project: Project, zone: LiftZone, load: LiftLoad, case: CaseResult,
     return Cascade(zone.id, load.name, level.id, below.id, h_eq, lower, tuple(bays_below))
 
 
-CONFIRM_FACTORS = (0.99, 1.0)
-"""Fractions of a plastic allowable height at which the forward analysis must not
-exceed before the height is reported (issue 16: evaluated at 0.99 × the height)."""
-
-def confirm_plastic_heights(fm: FloorModel, project: Project, zone: LiftZone,
-                            res: dict[str, np.ndarray]) -> None:
-    """Keep a plastic allowable height only where the forward analysis confirms it.
-
-    The plastic inverse (:func:`droprig.solver.plastic.allowable_height_plastic` with
-    the brittle checks at R_p) is an energy estimate; a height it gives above the
-    elastic one is checked by analysing each such point again with the load dropped
-    from :data:`CONFIRM_FACTORS` × that height. Where any trial exceeds, the height
-    falls back to the elastic allowable height (closed form, Gere §9.10), so no
-    reported height claims a margin the forward analysis does not give (issue 16).
-    In place on ``res`` (the rows of :func:`droprig.solver.refine.zone_points`)."""
-    from droprig.solver.results import EXCEEDS
-
-    h_pl = res["allowable_drop_height_plastic"]
-    h_el = res["allowable_drop_height"]
-    idx = np.flatnonzero(np.isfinite(h_pl) & ~(h_pl <= h_el))
-    if idx.size == 0:
-        return
-    # the structural response alone (hard=False: no local-damage step), so a trial
-    # that exceeds is never reported as 'perforates' and let through; the deck's local
-    # damage has its own allowable heights. All points in one pass, each with its own
-    # trial height (Drop.H)
-    loads = [replace(ld, hard=False) for ld in zone.loads]
-    cancel.check()
-    geo = point_geometry(fm, project, res["x"][idx], res["y"][idx])
-    li = res["load_index"][idx]
-    # heights are above the finished surface; the factor applies to the fall onto a
-    # pad (t + factor·(h − t), issue 13)
-    t_pad = res["drop_height"][idx] - res["fall_height"][idx]
-    ok = np.ones(idx.size, dtype=bool)
-    for factor in CONFIRM_FACTORS:
-        H = np.minimum(t_pad + factor * (h_pl[idx] - t_pad), 200.0)
-        r = evaluate.evaluate_case(fm, project, loads, geo, li, H=H,
-                                   v_hoist=zone.hoist_speed)
-        ok &= r["response"] != EXCEEDS
-    bad = idx[~ok]
-    if bad.size:
-        h_pl = h_pl.copy()
-        h_pl[bad] = h_el[bad]
-        res["allowable_drop_height_plastic"] = h_pl
-
-
 def useless_layers(project: Project, zone: LiftZone) -> list[str]:
     """Warnings for crushable layers on the zone's level whose crush force is at most
     a load's weight: the layer crushes under the load's own weight and protects
@@ -276,6 +238,71 @@ def analyse(project: Project) -> Results:
     :class:`~droprig.model.ModelError` for framing the method cannot assess (a member
     end resting on nothing, members resting on each other in a loop).
     """
+    return _analyse(project, None)
+
+
+_NOT_ANALYSED = ("info", "lift_zones")
+"""Fields of :class:`~droprig.model.Project` that feed no zone's analysis (the
+project's description and permit fields; the other zones)."""
+
+
+def zone_key(project: Project, zone: LiftZone) -> tuple:
+    """What one zone's analysis is made of, as frozen model objects: the zone (its
+    loads, corridor and drift margin as resolved), and every other input of the
+    project — the levels (the zone's framing, and the levels below it that a
+    perforating drop falls to), the protection areas (their order numbers the
+    results' ``protection``) and the settings. Equal keys, equal results."""
+    return (zone, *(getattr(project, f.name) for f in fields(project)
+                    if f.name not in _NOT_ANALYSED))
+
+
+class ZoneCache:
+    """The results of each lift zone remembered by :func:`zone_key` (the last
+    ``size`` zone analyses, holding at most ``max_points`` drop points × loads
+    together — some 40 numbers each — beyond the newest), so that an edit
+    re-analyses only the zones it changes: an edit to one zone or its loads re-runs
+    that zone, an edit to framing, pads or settings every zone. Same results as
+    :func:`analyse`, bit for bit (``tests/solver/test_zone_cache.py``). Safe to share
+    between threads."""
+
+    def __init__(self, size: int = 32, max_points: int = 400_000) -> None:
+        self.size = size
+        self.max_points = max_points
+        self._points = 0
+        self._zones: OrderedDict[tuple, Results] = OrderedDict()
+        self._lock = threading.Lock()
+        self.hits = 0
+        self.misses = 0
+
+    def analyse(self, project: Project) -> Results:
+        """:func:`analyse`, each zone's results taken from the cache where its
+        :func:`zone_key` is known."""
+        return _analyse(project, self)
+
+    def zone(self, project: Project, zone: LiftZone,
+             floor: Callable[[str], FloorModel]) -> Results:
+        """One zone's results (``project`` with its drift margins resolved)."""
+        key = zone_key(project, zone)
+        with self._lock:
+            hit = self._zones.get(key)
+            if hit is not None:
+                self._zones.move_to_end(key)
+                self.hits += 1
+                return hit
+        r = analyse_zone(project, zone.id, floor)
+        with self._lock:
+            self.misses += 1
+            if key not in self._zones:
+                self._zones[key] = r
+                self._points += r.n_points
+            while len(self._zones) > 1 and (len(self._zones) > self.size
+                                            or self._points > self.max_points):
+                self._points -= self._zones.popitem(last=False)[1].n_points
+        return r
+
+
+def _analyse(project: Project, cache: ZoneCache | None) -> Results:
+    """:func:`analyse`, with the zones' results from ``cache`` where it has them."""
     project = resolve_drift(project)
     floor = floor_cache(project)
     cases: list[CaseResult] = []
@@ -283,7 +310,8 @@ def analyse(project: Project) -> Results:
     warnings: list[str] = []
     falls: list[Cascade] = []
     for zone in project.lift_zones:
-        r = analyse_zone(project, zone.id, floor)
+        r = (analyse_zone(project, zone.id, floor) if cache is None
+             else cache.zone(project, zone, floor))
         cases.extend(r.cases)
         summaries.extend(r.bays)
         falls.extend(r.cascade)

@@ -192,7 +192,13 @@ class Drop:
     ``bare``).
 
     ``landing``: ``flat`` (the whole footprint meets the deck) or ``tilted`` (the load
-    lands out of level on one edge: :data:`LANDINGS`)."""
+    lands out of level on one edge: :data:`LANDINGS`).
+
+    ``trial``: a forward run of :mod:`droprig.solver.confirm` (a condition tried). Its
+    verdict is the forward steps'; its inverse answers only guide the next trial
+    value, so they are the closed forms, not confirmed again by forward runs of
+    their own (:func:`confirm_amplified_height`): each printed limit is confirmed
+    once, by the trial."""
 
     fm: FloorModel
     project: Project
@@ -205,6 +211,7 @@ class Drop:
     v_hoist: float = 0.0
     bare: BareMember | None = None
     landing: str = "flat"
+    trial: bool = False
 
     @property
     def n(self) -> int:
@@ -1578,7 +1585,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
                              np.full(d.n, cover), W, eta)
     # the energy heights above as free falls: less the hoist's lowering speed head
     h_el = fall_from_energy(c, h_el)
-    if s.dynamic_amplification:
+    if s.dynamic_amplification and not d.trial:
         h_el = confirm_amplified_height(c, h_el)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]

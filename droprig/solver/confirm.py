@@ -14,8 +14,21 @@ inverse answer of the trial's own points, and is tried again, up to
 :data:`CONFIRM_ROUNDS` times; one that never works is withdrawn (the bay then reads
 keep clear, or takes another option). Issue 13's closed loop, in the solver.
 
+Before the bays, each drop point's own plastic allowable height (printed on the
+calculation sheets and in the per-point outputs) is tried the same way at
+:data:`CONFIRM_FACTORS` × itself and falls back to the elastic one where it exceeds
+(:func:`confirm_point_heights`). :func:`confirm_zone` runs both stages; they are the
+only confirmation of a limit: a trial's own inverse answers (with dynamic
+amplification, the elastic height re-run at that height,
+:func:`droprig.solver.chain.confirm_amplified_height`) are not confirmed again
+(``Drop.trial``) — they only guide the next trial value, which is itself tried.
+
 All trials of a zone run together, one vectorised pass per round (each drop point
-carries its own trial height and mat: :class:`droprig.solver.chain.Drop`). The
+carries its own trial height and mat: :class:`droprig.solver.chain.Drop`), through
+the chain's own :data:`~droprig.solver.chain.STEPS` with the project's settings
+(dynamic amplification and tilted landing included). A trial at a drop point of the
+analysis takes that point's load path and member actions from the analysis
+(:func:`droprig.solver.geometry.take_geo`) rather than working them out again. The
 trials judge the structural response alone (``hard=False``): the deck's local
 damage by a hard load has its own allowable heights. SI units (m, N/m).
 """
@@ -23,7 +36,7 @@ damage by a hard load has its own allowable heights. SI units (m, N/m).
 from __future__ import annotations
 
 import math
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass, replace
 
 import numpy as np
@@ -31,7 +44,7 @@ import numpy as np
 from droprig.model import LiftZone, Project, Rect, bays
 from droprig.solver import cancel, droppoints, evaluate
 from droprig.solver.floor import FloorModel
-from droprig.solver.geometry import point_geometry
+from droprig.solver.geometry import Geometry, concat_geo, point_geometry, take_geo
 from droprig.solver.loadpath import locate
 from droprig.solver.refine import severity
 from droprig.solver.results import (
@@ -43,9 +56,11 @@ from droprig.solver.results import (
     BaySummary,
 )
 from droprig.solver.summary import bay_advice
+from droprig.solver.unit_actions import unit_actions
 
-__all__ = ["CONFIRM_REFINE", "CONFIRM_ROUNDS", "CONFIRM_SPAN", "CONFIRM_STEP", "CONFIRM_U",
-           "confirm_bay_limits"]
+__all__ = ["CONFIRM_FACTORS", "CONFIRM_REFINE", "CONFIRM_ROUNDS", "CONFIRM_SPAN",
+           "CONFIRM_STEP", "CONFIRM_U", "confirm_bay_limits", "confirm_point_heights",
+           "confirm_zone"]
 
 CONFIRM_STEP = 0.8
 """A condition that fails its trial steps back to at most this fraction of itself."""
@@ -69,6 +84,11 @@ lattice of the grid resolution ÷ 16, and a smooth U field can rise between them
 small fraction (a footprint cut at a deck edge: 1.0001 between points when 1.0 was
 the largest sampled value). Common practice, no source: a limit on a permit is kept
 a little inside the value that just works."""
+
+CONFIRM_FACTORS = (0.99, 1.0)
+"""Fractions of a drop point's plastic allowable height at which the forward chain
+must not exceed before the height is reported (issue 16: evaluated at 0.99 × the
+height)."""
 
 _FIELD = {"elastic": "allowable_drop_height", "plastic": "allowable_drop_height_plastic",
           "mat": "required_mat_stiffness"}
@@ -128,25 +148,32 @@ def _trials(summaries: Sequence[BaySummary], zone: LiftZone,
 
 
 def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
-         trials: list[_Trial], res: dict[str, np.ndarray]) -> None:
+         trials: list[_Trial], res: dict[str, np.ndarray], geo: Geometry | None) -> None:
     """One round: every trial of ``trials`` at the analysis points of its bay and at
     points refined around its worst ones; sets ``ok`` and, where it fails, the next
-    value to try (``value``) or ``failed``."""
+    value to try (``value``) or ``failed``. ``geo``: the geometry of ``res``'s rows
+    (``None``: worked out afresh)."""
     li_all = res["load_index"]
-    xs, ys, owner = [], [], []
+    rows, owner = [], []
     for t, tr in enumerate(trials):
         v = res[_FIELD[tr.kind]]
         # points whose own answer is far above the condition cannot fail it
         near = ~(v > CONFIRM_SPAN * tr.value)
         sel = np.flatnonzero((li_all == tr.load) & near
                              & _inside(tr.rect, res["x"], res["y"]))
-        xs.append(res["x"][sel])
-        ys.append(res["y"][sel])
+        rows.append(sel)
         owner.append(np.full(sel.size, t, dtype=np.int64))
-    x, y, own = np.concatenate(xs), np.concatenate(ys), np.concatenate(owner)
+    row, own = np.concatenate(rows), np.concatenate(owner)
+    x, y = res["x"][row], res["y"][row]
     ex, ey, eown = _edge_kinks(fm, zone, loads, trials, x, y, own)
+    g = None
+    if geo is not None:
+        # the analysis points' path and member actions, and the edge points' own
+        eg = point_geometry(fm, project, ex, ey)
+        unit_actions(fm, eg)
+        g = concat_geo([take_geo(geo, row), eg])
     x, y, own = np.r_[x, ex], np.r_[y, ey], np.r_[own, eown]
-    parts = [_evaluate(fm, project, loads, trials, x, y, own, zone.hoist_speed)]
+    parts = [_evaluate(fm, project, loads, trials, x, y, own, g, zone.hoist_speed)]
     step = fm.settings.grid_resolution
     for n_top in CONFIRM_REFINE:
         step /= 4.0
@@ -154,7 +181,8 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
         rx, ry, rown = _refine(fm, zone, trials, cur, step, n_top)
         if rx.size == 0:
             break
-        parts.append(_evaluate(fm, project, loads, trials, rx, ry, rown, zone.hoist_speed))
+        parts.append(_evaluate(fm, project, loads, trials, rx, ry, rown,
+                                   v_hoist=zone.hoist_speed))
     r = _cat(parts)
     own = r["owner"]
     resp = r["response"]
@@ -223,15 +251,18 @@ def _cat(parts: list[dict[str, np.ndarray]]) -> dict[str, np.ndarray]:
 
 def _evaluate(fm: FloorModel, project: Project, loads: tuple, trials: list[_Trial],
               x: np.ndarray, y: np.ndarray, own: np.ndarray,
-              v_hoist: float = 0.0) -> dict[str, np.ndarray]:
+              geo: Geometry | None = None, v_hoist: float = 0.0) -> dict[str, np.ndarray]:
+    """The forward chain of each trial at its points (``geo``: their geometry where
+    known, row for row with x, y); the trial drops strike as the planned ones do, with
+    the hoist's lowering speed ``v_hoist`` (m/s)."""
     cancel.check()
     li = np.array([tr.load for tr in trials], dtype=np.int64)[own]
     H = np.array([tr.H for tr in trials])[own]
     mk = np.array([tr.value if tr.kind == "mat" else np.nan for tr in trials])[own]
-    geo = point_geometry(fm, project, x, y)
-    # the trial drops strike as the planned ones do, with the hoist's lowering speed
+    if geo is None:
+        geo = point_geometry(fm, project, x, y)
     r = evaluate.evaluate_case(fm, project, loads, geo, li, H=H,
-                               mat_k=mk if np.isfinite(mk).any() else None,
+                               mat_k=mk if np.isfinite(mk).any() else None, trial=True,
                                v_hoist=v_hoist)
     keep = ("x", "y", "response", "utilisation", "peak_force", "allowable_drop_height",
             "allowable_drop_height_plastic", "required_mat_stiffness")
@@ -272,13 +303,74 @@ def _refine(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
     return x[keep], y[keep], ow[keep]
 
 
+def confirm_zone(fm: FloorModel, project: Project, zone: LiftZone,
+                 res: dict[str, np.ndarray], geo: Geometry | None,
+                 summarise: Callable[[dict[str, np.ndarray]], list[BaySummary]],
+                 ) -> list[BaySummary]:
+    """The one confirmation of a zone's limits: each drop point's plastic allowable
+    height (:func:`confirm_point_heights`, in place on ``res``), then the bay
+    summaries made of the confirmed rows by ``summarise`` with every limit they
+    offer (:func:`confirm_bay_limits`). ``res``: the zone's analysis rows and
+    ``geo`` their geometry (:func:`droprig.solver.refine.zone_points_geometry`)."""
+    confirm_point_heights(fm, project, zone, res, geo)
+    summaries = summarise(res)
+    if not summaries:
+        return summaries
+    return confirm_bay_limits(fm, project, zone, res, summaries, geo)
+
+
+def confirm_point_heights(fm: FloorModel, project: Project, zone: LiftZone,
+                          res: dict[str, np.ndarray], geo: Geometry | None = None) -> None:
+    """Keep a drop point's plastic allowable height only where the forward chain
+    confirms it.
+
+    The plastic inverse (:func:`droprig.solver.plastic.allowable_height_plastic` with
+    the brittle checks at R_p) is an energy estimate; a height it gives above the
+    elastic one is tried by running each such point again with the load dropped from
+    :data:`CONFIRM_FACTORS` × that height (both factors in one pass). Where any trial
+    exceeds, the height falls back to the elastic allowable height (closed form, Gere
+    §9.10), so no reported height claims a margin the forward analysis does not give
+    (issue 16). In place on ``res`` (the rows of
+    :func:`droprig.solver.refine.zone_points`; ``geo`` their geometry, or ``None``)."""
+    h_pl = res["allowable_drop_height_plastic"]
+    h_el = res["allowable_drop_height"]
+    idx = np.flatnonzero(np.isfinite(h_pl) & ~(h_pl <= h_el))
+    if idx.size == 0:
+        return
+    # the structural response alone (hard=False: no local-damage step), so a trial
+    # that exceeds is never reported as 'perforates' and let through; the deck's local
+    # damage has its own allowable heights. Every point and factor in one pass, each
+    # row with its own trial height (Drop.H)
+    loads = [replace(ld, hard=False) for ld in zone.loads]
+    cancel.check()
+    k = len(CONFIRM_FACTORS)
+    rows = np.tile(idx, k)
+    g = (take_geo(geo, rows) if geo is not None
+         else point_geometry(fm, project, res["x"][rows], res["y"][rows]))
+    # heights are above the finished surface; the factor applies to the fall onto a
+    # pad (t + factor·(h − t), issue 13)
+    t_pad = res["drop_height"][rows] - res["fall_height"][rows]
+    factor = np.repeat(np.asarray(CONFIRM_FACTORS, float), idx.size)
+    H = np.minimum(t_pad + factor * (h_pl[rows] - t_pad), 200.0)
+    # the trial drops strike as the planned ones do, with the hoist's lowering speed
+    r = evaluate.evaluate_case(fm, project, loads, g, res["load_index"][rows], H=H,
+                               trial=True, v_hoist=zone.hoist_speed)
+    ok = (r["response"] != EXCEEDS).reshape(k, idx.size).all(axis=0)
+    bad = idx[~ok]
+    if bad.size:
+        h_pl = h_pl.copy()
+        h_pl[bad] = h_el[bad]
+        res["allowable_drop_height_plastic"] = h_pl
+
+
 def confirm_bay_limits(fm: FloorModel, project: Project, zone: LiftZone,
                        res: dict[str, np.ndarray], summaries: Sequence[BaySummary],
-                       ) -> list[BaySummary]:
+                       geo: Geometry | None = None) -> list[BaySummary]:
     """``summaries`` (one zone's, every load) with each offered limit confirmed by a
     forward run, stepped back or withdrawn (module docstring); the advice of a bay
     whose limits changed is derived again (:func:`droprig.solver.summary.bay_advice`).
-    ``res``: the zone's analysis rows (:func:`droprig.solver.refine.zone_points`)."""
+    ``res``: the zone's analysis rows (:func:`droprig.solver.refine.zone_points`),
+    ``geo`` their geometry (``None``: worked out afresh)."""
     rects = {b.id: b.rect for b in bays(fm.level)}
     trials = _trials(summaries, zone, rects)
     if not trials:
@@ -287,7 +379,7 @@ def confirm_bay_limits(fm: FloorModel, project: Project, zone: LiftZone,
     loads = tuple(replace(ld, hard=False) for ld in zone.loads)
     pending = trials
     for _ in range(CONFIRM_ROUNDS):
-        _run(fm, project, zone, loads, pending, res)
+        _run(fm, project, zone, loads, pending, res, geo)
         pending = [t for t in pending if not t.ok and not t.failed]
         if not pending:
             break

@@ -59,7 +59,8 @@ def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
 
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
              geo: Geometry, load_index: np.ndarray | None, H: np.ndarray | None = None,
-             mat_k: np.ndarray | None = None, v_hoist: float = 0.0) -> dict[str, np.ndarray]:
+             mat_k: np.ndarray | None = None, v_hoist: float = 0.0,
+             trial: bool = False) -> dict[str, np.ndarray]:
     """The outputs of the flat landing, or with the project setting
     ``tilted_landing`` of both landings merged, the worse governing
     (:func:`~droprig.solver.chain.merge_landings`)."""
@@ -67,25 +68,25 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
     loads = _loads(load)
     flat = outputs(run_chain(Drop(fm, project, geo, loads, li, False, H, mat_k,
-                                  v_hoist=v_hoist, landing="flat")))
+                                  v_hoist=v_hoist, landing="flat", trial=trial)))
     if not fm.settings.tilted_landing:
         return flat
     tilted = outputs(run_chain(Drop(fm, project, geo, loads, li, False, H, mat_k,
-                                    v_hoist=v_hoist, landing="tilted")))
+                                    v_hoist=v_hoist, landing="tilted", trial=trial)))
     return merge_landings(flat, tilted)
 
 
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                   geo: Geometry, load_index: np.ndarray | None = None,
                   H: np.ndarray | None = None, mat_k: np.ndarray | None = None, *,
-                  v_hoist: float = 0.0) -> dict[str, np.ndarray]:
+                  v_hoist: float = 0.0, trial: bool = False) -> dict[str, np.ndarray]:
     """The :class:`~droprig.solver.results.CaseResult` arrays of ``load`` at the points
     of ``geo`` under their field names, and ``F_allow`` (N, the elastic allowed force).
 
     ``load`` may be a sequence of loads with ``load_index`` naming the load of each
     point (several cases in one vectorised pass). ``H`` and ``mat_k``: per-point trial
-    drop heights and mats; ``v_hoist``: the hoist's lowering speed at release, m/s
-    (:class:`~droprig.solver.chain.Drop`)."""
+    drop heights and mats; ``v_hoist``: the hoist's lowering speed at release, m/s;
+    ``trial``: a forward run of a condition tried (:class:`~droprig.solver.chain.Drop`)."""
     n = geo.x.size
     memory.keep_freed_memory()
     if n == 0:
@@ -94,7 +95,7 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     chunk = loadpath_chunk()
     with np.errstate(all="ignore"):
         if n <= chunk:
-            return _outputs(fm, project, load, geo, load_index, H, mat_k, v_hoist)
+            return _outputs(fm, project, load, geo, load_index, H, mat_k, v_hoist, trial)
 
         def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
             sl = slice(s, e)
@@ -107,12 +108,12 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
             with np.errstate(all="ignore"):
                 return [_outputs(fm, project, load, sub, li,
                                  None if H is None else H[sl],
-                                 None if mat_k is None else mat_k[sl], v_hoist)]
+                                 None if mat_k is None else mat_k[sl], v_hoist, trial)]
 
         li0 = None if load_index is None else load_index[:1]
         probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0,
                          None if H is None else H[:1],
-                         None if mat_k is None else mat_k[:1], v_hoist)
+                         None if mat_k is None else mat_k[:1], v_hoist, trial)
         return _blockwise(n, 1, chunk, block, probe)
 
 

@@ -15,8 +15,9 @@ from droprig.solver.floor import FloorModel
 from droprig.solver.loadpath import PathResult
 from droprig.solver.loadpath import evaluate as evaluate_path
 from droprig.solver.reference import path_reference
+from droprig.solver.unit_actions import UnitActions
 
-__all__ = ["Geometry", "point_geometry", "slice_geo"]
+__all__ = ["Geometry", "concat_geo", "point_geometry", "slice_geo", "take_geo"]
 
 
 @dataclass(frozen=True, eq=False)
@@ -68,3 +69,38 @@ def slice_geo(geo: Geometry, sl: slice) -> Geometry:
                     geo.opening[sl])
 
 
+
+
+def take_geo(geo: Geometry, idx: np.ndarray) -> Geometry:
+    """The points ``idx`` of ``geo`` (rows in that order), with the load-independent
+    member actions taken along where ``geo`` has them: the same values as
+    :func:`point_geometry` and :func:`~droprig.solver.unit_actions.unit_actions` at
+    those points, without working them out again (every quantity is per point)."""
+    p = geo.path
+    path = PathResult(**{f: getattr(p, f)[idx] for f in p.__dataclass_fields__})
+    out = Geometry(geo.x[idx], geo.y[idx], path, geo.bay[idx], geo.protection[idx],
+                   geo.opening[idx])
+    ua = geo.cache.get("ua")
+    if ua is not None:
+        out.cache["ua"] = ua.take(idx)
+    return out
+
+
+def concat_geo(parts: list[Geometry]) -> Geometry:
+    """The points of ``parts`` one after the other, with their member actions where
+    every part has them (and their candidate layouts agree)."""
+    if len(parts) == 1:
+        return parts[0]
+    paths = [g.path for g in parts]
+    path = PathResult(**{f: np.concatenate([getattr(p, f) for p in paths])
+                         for f in paths[0].__dataclass_fields__})
+    def cat(name: str) -> np.ndarray:
+        return np.concatenate([getattr(g, name) for g in parts])
+
+    out = Geometry(cat("x"), cat("y"), path, cat("bay"), cat("protection"), cat("opening"))
+    uas = [g.cache.get("ua") for g in parts]
+    if all(u is not None for u in uas):
+        ua = UnitActions.concat([u for u in uas if u is not None])
+        if ua is not None:
+            out.cache["ua"] = ua
+    return out

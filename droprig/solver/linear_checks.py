@@ -19,7 +19,7 @@ contiguous rows of drop points.
 
 from __future__ import annotations
 
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -308,11 +308,40 @@ class Family:
 
     def tiled(self, k: int) -> Family:
         """This family repeated ``k`` times along the points (one copy per load)."""
+        return self._columns(lambda a: np.tile(a, (1, k)) if a.ndim == 2 else np.tile(a, k))
+
+    def take(self, idx: np.ndarray) -> Family:
+        """This family at the points ``idx`` only (every array is per point, column by
+        column: the values are those of the family built on those points alone)."""
+        return self._columns(lambda a: np.take(a, idx, axis=a.ndim - 1))
+
+    @staticmethod
+    def concat(parts: Sequence[Family]) -> Family | None:
+        """The families of several sets of points one after the other, or ``None``
+        where their candidate rows differ (not one floor's layout)."""
+        first = parts[0]
+        if any(f.ut.shape[0] != first.ut.shape[0] or f.groups != first.groups
+               or not np.array_equal(f.src, first.src)
+               or (f.gmin is None) != (first.gmin is None) for f in parts):
+            return None
         fam = object.__new__(Family)
         for attr in ("ut", "Et", "members", "resist", "fa"):
-            setattr(fam, attr, np.tile(getattr(self, attr), (1, k)))
+            setattr(fam, attr, np.concatenate([getattr(f, attr) for f in parts], axis=1))
+        fam.src = first.src
+        fam.groups = first.groups
+        fam.gmin = None if first.gmin is None else np.concatenate(
+            [f.gmin for f in parts], axis=1)
+        fam.F_allow = np.concatenate([f.F_allow for f in parts])
+        return fam
+
+    def _columns(self, per_point: Callable[[np.ndarray], np.ndarray]) -> Family:
+        """A family with ``per_point`` applied to every per-point array (the candidate
+        rows, their sources and groups unchanged)."""
+        fam = object.__new__(Family)
+        for attr in ("ut", "Et", "members", "resist", "fa"):
+            setattr(fam, attr, per_point(getattr(self, attr)))
         fam.src = self.src
         fam.groups = self.groups
-        fam.gmin = None if self.gmin is None else np.tile(self.gmin, (1, k))
-        fam.F_allow = np.tile(self.F_allow, k)
+        fam.gmin = None if self.gmin is None else per_point(self.gmin)
+        fam.F_allow = per_point(self.F_allow)
         return fam

@@ -28,6 +28,7 @@ member, so the struck-mass share is not taken (η = 1, conservative).
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 from typing import Any
 
 import numpy as np
@@ -59,6 +60,8 @@ __all__ = [
     "DEFAULT_DEFLECTION_LIMIT_RATIO",
     "MEMBER_CHECKS",
     "RESULT_KEYS",
+    "MemberDrop",
+    "assess",
     "assess_member",
     "member_chain",
 ]
@@ -100,34 +103,71 @@ def _clean(v: float | None) -> float | None:
     return v if math.isfinite(v) else None
 
 
-def assess_member(
-    section: Section,
-    grade: Grade,
-    cond: beam.EndCondition,
-    L: float,
-    a: float,
-    mass: float,
-    h: float,
-    *,
-    basis: capacity.Basis,
-    phi: float = 1.0,
-    dif: float = 1.0,
-    bearing: float = 0.0,
-    cushion_stiffness: float | None = None,
-    load_stiffness: float | None = None,
-    crush_force: float | None = None,
-    crush_stroke: float | None = None,
-    udl: float = 0.0,
-    self_weight: bool = True,
-    beam_mass: bool = True,
-    deflection_limit_ratio: float = DEFAULT_DEFLECTION_LIMIT_RATIO,
-    ductility_limit: float = 6.0,
-    rotation_limit: float = math.radians(2.0),
-    dynamic_amplification: bool = False,
-) -> dict[str, Any]:
+@dataclass(frozen=True)
+class MemberDrop:
+    """What ``droprig check`` assesses: one member (``section`` of ``grade``, end
+    condition ``cond``, span ``L``, m) struck at ``a`` (m from the origin end) by a
+    mass ``mass`` (kg) falling ``h`` (m) — and the options, in SI units:
+
+    ``basis`` the design code (:data:`droprig.solver.capacity.BASES`); ``phi`` the
+    resistance factor and ``dif`` the dynamic increase factor on the yield strength;
+    ``bearing`` the bearing length on the flange (m, 0 = a point contact);
+    ``cushion_stiffness`` a spring cushion and ``load_stiffness`` the load's own
+    underside in series with the member (N/m, ``None`` = none / rigid); a crushable
+    layer of ``crush_force`` (N) and ``crush_stroke`` (m) (both or neither);
+    ``udl`` a uniform load on the member (N/m) and ``self_weight`` its own weight;
+    ``beam_mass`` the member's Rayleigh mass in the struck mass;
+    ``deflection_limit_ratio`` span/N (information only), ``ductility_limit`` and
+    ``rotation_limit`` (rad) beyond yield; ``dynamic_amplification`` the chain's
+    amplification step (off by default, as the floor analysis's setting).
+
+    Checked when made: an input outside its range raises
+    :class:`~droprig.model.ModelError` naming the ``droprig check`` option."""
+
+    section: Section
+    grade: Grade
+    cond: beam.EndCondition
+    L: float
+    a: float
+    mass: float
+    h: float
+    basis: capacity.Basis
+    phi: float = 1.0
+    dif: float = 1.0
+    bearing: float = 0.0
+    cushion_stiffness: float | None = None
+    load_stiffness: float | None = None
+    crush_force: float | None = None
+    crush_stroke: float | None = None
+    udl: float = 0.0
+    self_weight: bool = True
+    beam_mass: bool = True
+    deflection_limit_ratio: float = DEFAULT_DEFLECTION_LIMIT_RATIO
+    ductility_limit: float = 6.0
+    rotation_limit: float = math.radians(2.0)
+    dynamic_amplification: bool = False
+
+    def __post_init__(self) -> None:
+        _check_inputs(self.cond, self.basis, self.L, self.a, self.mass, self.h,
+                      self.bearing, self.udl, self.cushion_stiffness, self.load_stiffness,
+                      self.crush_force, self.crush_stroke)
+
+    @property
+    def settings(self) -> Settings:
+        """The chain's settings (a value outside the project's range is refused under
+        the ``droprig check`` name of the option)."""
+        return _settings(self.basis, self.phi, self.dif, self.deflection_limit_ratio,
+                         self.ductility_limit, self.rotation_limit, self.beam_mass,
+                         self.dynamic_amplification)
+
+
+def assess_member(section: Section, grade: Grade, cond: beam.EndCondition, L: float,
+                  a: float, mass: float, h: float, *, basis: capacity.Basis,
+                  **options: Any) -> dict[str, Any]:
     """Assess one member (span L, m; end condition ``cond``) struck at ``a`` (m from
     the origin end) by a mass (kg) falling ``h`` (m), by the floor's chain
-    (:func:`member_chain`).
+    (:func:`member_chain`). ``options``: the keyword fields of :class:`MemberDrop`
+    (an unknown one raises ``TypeError``); :func:`assess` takes a :class:`MemberDrop`.
 
     Returns a dict with exactly :data:`RESULT_KEYS` in SI base units (m, N, N·m, kg,
     rad; ``governing_check`` a name from :data:`MEMBER_CHECKS` or ``collapse``,
@@ -152,18 +192,17 @@ def assess_member(
     ``shear``, ``deflection``, the ratios ``mass_ratio`` (r = M/mₑ) and
     ``compliance_ratio`` (κ) and ``set_by`` (what set each factor); ``None`` when off.
     """
-    c = member_chain(section, grade, cond, L, a, mass, h, basis=basis, phi=phi, dif=dif,
-                     bearing=bearing, cushion_stiffness=cushion_stiffness,
-                     load_stiffness=load_stiffness, crush_force=crush_force,
-                     crush_stroke=crush_stroke, udl=udl, self_weight=self_weight,
-                     beam_mass=beam_mass, deflection_limit_ratio=deflection_limit_ratio,
-                     ductility_limit=ductility_limit, rotation_limit=rotation_limit,
-                     dynamic_amplification=dynamic_amplification)
-    out = _result(c, cond, L, a)
+    return assess(MemberDrop(section, grade, cond, L, a, mass, h, basis, **options))
+
+
+def assess(drop: MemberDrop) -> dict[str, Any]:
+    """:func:`assess_member` for a :class:`MemberDrop`."""
+    c = member_chain(drop)
+    out = _result(c, drop.cond, drop.L, drop.a)
     for k in RESULT_KEYS:
         if k not in ("governing_check", "response", "amplification"):
             out[k] = _clean(out[k])
-    out["amplification"] = _amplification(c) if dynamic_amplification else None
+    out["amplification"] = _amplification(c) if drop.dynamic_amplification else None
     return out
 
 
@@ -178,51 +217,25 @@ def _amplification(c: Chain) -> dict[str, Any]:
             "set_by": {k: amplification.SET_BY[int(v[0])] for k, v in da.set_by.items()}}
 
 
-def member_chain(
-    section: Section,
-    grade: Grade,
-    cond: beam.EndCondition,
-    L: float,
-    a: float,
-    mass: float,
-    h: float,
-    *,
-    basis: capacity.Basis,
-    phi: float = 1.0,
-    dif: float = 1.0,
-    bearing: float = 0.0,
-    cushion_stiffness: float | None = None,
-    load_stiffness: float | None = None,
-    crush_force: float | None = None,
-    crush_stroke: float | None = None,
-    udl: float = 0.0,
-    self_weight: bool = True,
-    beam_mass: bool = True,
-    deflection_limit_ratio: float = DEFAULT_DEFLECTION_LIMIT_RATIO,
-    ductility_limit: float = 6.0,
-    rotation_limit: float = math.radians(2.0),
-    dynamic_amplification: bool = False,
-) -> Chain:
+def member_chain(drop: MemberDrop) -> Chain:
     """The floor's chain (:func:`droprig.solver.chain.run_chain`) for one member
-    struck at ``a``, in the deck-less mode: every step result readable by type,
-    ``chain[Impact].F``. Arguments as :func:`assess_member`."""
-    _check_inputs(cond, basis, L, a, mass, h, bearing, udl, cushion_stiffness,
-                  load_stiffness, crush_force, crush_stroke)
-    settings = _settings(basis, phi, dif, deflection_limit_ratio, ductility_limit,
-                         rotation_limit, beam_mass, dynamic_amplification)
-    w0 = (section.mass_per_length * impact.G if self_weight else 0.0) + udl
-    fm = member_floor(section, grade, cond, L, w0, settings)
+    struck at ``drop.a``, in the deck-less mode: every step result readable by type,
+    ``chain[Impact].F``."""
+    d = drop
+    settings = d.settings
+    w0 = (d.section.mass_per_length * impact.G if d.self_weight else 0.0) + d.udl
+    fm = member_floor(d.section, d.grade, d.cond, d.L, w0, settings)
     bare = BareMember(
-        mass=mass, h=h, bearing=bearing,
-        f_load=0.0 if load_stiffness is None else 1.0 / load_stiffness,
-        f_mat=0.0 if cushion_stiffness is None else 1.0 / cushion_stiffness,
-        F_c=math.inf if crush_force is None else crush_force,
-        s_c=0.0 if crush_stroke is None else crush_stroke)
+        mass=d.mass, h=d.h, bearing=d.bearing,
+        f_load=0.0 if d.load_stiffness is None else 1.0 / d.load_stiffness,
+        f_mat=0.0 if d.cushion_stiffness is None else 1.0 / d.cushion_stiffness,
+        F_c=math.inf if d.crush_force is None else d.crush_force,
+        s_c=0.0 if d.crush_stroke is None else d.crush_stroke)
     with np.errstate(all="ignore"):
-        c = run_chain(Drop(fm, Project(settings=settings), _geometry(fm, a, bare), (),
+        c = run_chain(Drop(fm, Project(settings=settings), _geometry(fm, d.a, bare), (),
                            np.zeros(1, dtype=np.int64), detail=False, bare=bare))
-    if float(c[Compliance].f[0]) <= 0.0 and crush_force is None:
-        raise ModelError("at", a, "a point off the supports (droprig takes supports as "
+    if float(c[Compliance].f[0]) <= 0.0 and d.crush_force is None:
+        raise ModelError("at", d.a, "a point off the supports (droprig takes supports as "
                          "rigid, so a load landing on one has no finite force) — or give "
                          "a cushion or a crushable layer", "m")
     return c

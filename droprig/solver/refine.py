@@ -14,10 +14,10 @@ from droprig.model import LiftZone, Project
 from droprig.solver import droppoints, evaluate
 from droprig.solver.evaluate import tile
 from droprig.solver.floor import FloorModel
-from droprig.solver.geometry import Geometry, point_geometry
+from droprig.solver.geometry import Geometry, concat_geo, point_geometry
 from droprig.solver.loadpath import locate
 
-__all__ = ["REFINE_PASSES", "REFINE_TOP", "severity", "zone_points"]
+__all__ = ["REFINE_PASSES", "REFINE_TOP", "severity", "zone_points", "zone_points_geometry"]
 
 REFINE_PASSES = 3
 """Local refinement passes around the worst points of each bay (spacing ÷4 each)."""
@@ -123,6 +123,17 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
     and y), then refine around each bay's worst points of each load
     (:data:`REFINE_PASSES` passes, spacing resolution/4, /16, …). ``load_index`` names the
     load of each row."""
+    return zone_points_geometry(fm, project, zone, base)[0]
+
+
+def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
+                         base: Geometry | tuple[np.ndarray, np.ndarray]
+                         ) -> tuple[dict[str, np.ndarray], Geometry | None]:
+    """:func:`zone_points` and the geometry of its rows (row for row, with the
+    load-independent member actions where they were kept), for the trials of
+    :mod:`droprig.solver.confirm` to take their points from; ``None`` for a zone of
+    more than :data:`~droprig.solver.evaluate.CACHE_MAX_POINTS` rows (loads × points;
+    some 40 doubles a row are kept), whose geometry is not kept."""
     loads = list(zone.loads)
     vh = zone.hoist_speed  # the load strikes at √(v_h² + 2gh) (local damage)
     nl = len(loads)
@@ -133,9 +144,12 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
         # all loads in one pass over the base points repeated once per load; the
         # load-independent actions are computed once and repeated with them
         geo = base if isinstance(base, Geometry) else point_geometry(fm, project, bx, by)
-        res = evaluate.evaluate_case(fm, project, loads, tile(fm, geo, nl), li, v_hoist=vh)
+        geo = tile(fm, geo, nl)
+        res = evaluate.evaluate_case(fm, project, loads, geo, li, v_hoist=vh)
+        geos: list[Geometry] | None = [geo]
     else:  # block by block, each block's path shared by the loads
         res = evaluate.evaluate_points(fm, project, loads, bx, by, v_hoist=vh)
+        geos = None
     res["load_index"] = li
     step = fm.settings.grid_resolution
     known = np.sort(_keys(res["x"], res["y"], li))  # sorted: membership by bisection
@@ -157,8 +171,12 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
         r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh)
         r2["load_index"] = lj
         parts.append(r2)
+        if geos is not None:
+            geos.append(geo)
         res = _merge(parts, _REFINE_KEYS)
-    return _merge(parts)
+    if geos is None or sum(g.x.size for g in geos) > evaluate.CACHE_MAX_POINTS:
+        return _merge(parts), None  # memory stays bounded: trials work theirs out
+    return _merge(parts), concat_geo(geos)
 
 
 def _in_sorted(sorted_keys: np.ndarray, keys: np.ndarray) -> np.ndarray:

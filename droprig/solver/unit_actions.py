@@ -49,9 +49,28 @@ class UnitActions:
     def tiled(self, k: int) -> UnitActions:
         """These actions repeated ``k`` times along the points (one copy per load)."""
         return UnitActions(self.flexure.tiled(k), self.shear.tiled(k),
-                           *(np.tile(getattr(self, f), k) for f in
-                             ("R_p", "rp_member", "rp_arm", "rp_cond", "nh_fa",
-                              "nh_member")))
+                           *(np.tile(getattr(self, f), k) for f in _PER_POINT))
+
+    def take(self, idx: np.ndarray) -> UnitActions:
+        """These actions at the points ``idx`` only (the same values as the actions
+        computed at those points: every quantity is per point)."""
+        return UnitActions(self.flexure.take(idx), self.shear.take(idx),
+                           *(getattr(self, f)[idx] for f in _PER_POINT))
+
+    @staticmethod
+    def concat(parts: Sequence[UnitActions]) -> UnitActions | None:
+        """The actions of several sets of points one after the other (``None`` where
+        their candidate layouts differ)."""
+        flex = Family.concat([p.flexure for p in parts])
+        shear = Family.concat([p.shear for p in parts])
+        if flex is None or shear is None:
+            return None
+        return UnitActions(flex, shear, *(np.concatenate([getattr(p, f) for p in parts])
+                                          for f in _PER_POINT))
+
+
+_PER_POINT = ("R_p", "rp_member", "rp_arm", "rp_cond", "nh_fa", "nh_member")
+"""The plain per-point arrays of :class:`UnitActions`."""
 
 
 def _combine(out: np.ndarray, coef: np.ndarray, terms: tuple[int, ...], pair: np.ndarray,

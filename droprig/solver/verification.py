@@ -180,7 +180,7 @@ def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, 
     if cond not in beam.END_CONDITIONS:
         raise ModelError("support", cond, "one of " + ", ".join(beam.END_CONDITIONS))
     from droprig.solver.chain import DynamicAmplification, Impact
-    from droprig.solver.member import member_chain
+    from droprig.solver.member import MemberDrop, member_chain
 
     f_c = 0.0
     if cushion_stiffness is not None:
@@ -189,10 +189,11 @@ def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, 
         f_c += 1.0 / load_stiffness
     # the chain droprig check --amplified runs: its contact cap (the bare flange's
     # local yield force over the flange's thickness) and its factors
-    c = member_chain(section, grade, cond, L, a, mass, h, basis=basis,
-                     bearing=bearing, cushion_stiffness=cushion_stiffness,
-                     load_stiffness=load_stiffness, udl=udl, self_weight=self_weight,
-                     beam_mass=beam_mass, dynamic_amplification=True)
+    c = member_chain(MemberDrop(section, grade, cond, L, a, mass, h, basis=basis,
+                                bearing=bearing, cushion_stiffness=cushion_stiffness,
+                                load_stiffness=load_stiffness, udl=udl,
+                                self_weight=self_weight, beam_mass=beam_mass,
+                                dynamic_amplification=True))
     imp = c[Impact]
     F_y = float(imp.F_crush[0])
     return _verify(cond, L, grade.E * section.Ix, section.mass_per_length, a, mass, h, f_c,

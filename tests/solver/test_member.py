@@ -406,7 +406,8 @@ def test_droprig_check_is_the_floor_chain(ipe300: Section, s355: Grade) -> None:
     (same object, not a copy of the formulas)."""
     from droprig.solver.chain import STEPS, Impact
 
-    c = member.member_chain(ipe300, s355, "fixed", 5.0, 1.7, 900.0, 0.2, basis="en1993")
+    c = member.member_chain(member.MemberDrop(ipe300, s355, "fixed", 5.0, 1.7, 900.0, 0.2,
+                                              basis="en1993"))
     assert len(c.history) == len(STEPS)
     r = assess_member(ipe300, s355, "fixed", 5.0, 1.7, 900.0, 0.2, basis="en1993")
     assert r["dynamic_factor"] * 900.0 * G == pytest.approx(float(c[Impact].F[0]), rel=REL)
@@ -469,3 +470,25 @@ def test_plastic_reserve_with_existing_udl_is_the_mechanism(ipe300: Section,
                       self_weight=False, udl=w, bearing=0.2)
     assert r["response"] == "plastic" and r["governing_check"] == "flexure"
     assert r["peak_force"] == pytest.approx(8 * Mp / L - w * L / 2, rel=1e-12)
+
+
+def test_one_parameter_object_for_assess_and_chain(ipe300: Section, s355: Grade) -> None:
+    """assess_member and member_chain share one frozen MemberDrop (issue 9): the same
+    inputs give the same result through either door, an unknown option is refused by
+    name, a bad value names its droprig check option, and the object cannot change.
+    (A property of the interface; the physics is checked against Gere and AISC above.)"""
+    import dataclasses
+
+    kw = {"bearing": 0.1, "udl": 2000.0, "cushion_stiffness": 5e7}
+    drop = member.MemberDrop(ipe300, s355, "propped", 6.0, 2.0, 1200.0, 0.4,
+                             basis="en1993", **kw)
+    assert member.assess(drop) == assess_member(ipe300, s355, "propped", 6.0, 2.0, 1200.0,
+                                                0.4, basis="en1993", **kw)
+    with pytest.raises(TypeError):
+        assess_member(ipe300, s355, "propped", 6.0, 2.0, 1200.0, 0.4, basis="en1993",
+                      bearings=0.1)
+    with pytest.raises(ModelError, match="bearing"):
+        member.MemberDrop(ipe300, s355, "propped", 6.0, 2.0, 1200.0, 0.4, basis="en1993",
+                          bearing=-1.0)
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        drop.h = 1.0  # type: ignore[misc]

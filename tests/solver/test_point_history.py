@@ -24,7 +24,7 @@ import pytest
 from droprig.io.sections import get_grade, get_section
 from droprig.solver import beam, capacity, impact, pointhistory, timehistory
 from droprig.solver.chain import DynamicAmplification, Impact
-from droprig.solver.member import assess_member, member_chain
+from droprig.solver.member import MemberDrop, assess_member, member_chain
 
 KIP = 4448.2216152605  # N per kip (NIST SP 811 App. B.8)
 INCH = 0.0254  # m per inch (NIST SP 811 App. B.8)
@@ -55,8 +55,8 @@ def test_rigid_load_on_a_bare_flange_has_a_physical_cap() -> None:
     # time history cannot pass the flange's local yield force (269.98 kN by hand,
     # above), and the verdict's contact force is at most TH_MARGIN times that
     sec, gr = get_section("W16X26"), get_grade("A992")
-    c = member_chain(sec, gr, "simple", 7.3, 3.65, 27.0, 0.9, basis="aisc360",
-                     dynamic_amplification=True)
+    c = member_chain(MemberDrop(sec, gr, "simple", 7.3, 3.65, 27.0, 0.9, basis="aisc360",
+                                dynamic_amplification=True))
     imp, da = c[Impact], c[DynamicAmplification]
     F_cap = 65.0 * 0.250 * 5.0 * 0.747 * KIP
     assert float(imp.F_crush[0]) == pytest.approx(F_cap, rel=2e-3)
@@ -168,9 +168,9 @@ def test_check_at_its_own_history_never_below_the_converged_history() -> None:
     cs = _member_cases(20261204, 16)
     seen = 0
     for c in cs:
-        ch = member_chain(c["sec"], c["gr"], c["cond"], c["L"], c["a"], c["M"], c["h"],
-                          basis="aisc360", load_stiffness=c["k_load"], self_weight=False,
-                          dynamic_amplification=True)
+        ch = member_chain(MemberDrop(c["sec"], c["gr"], c["cond"], c["L"], c["a"], c["M"],
+                                     c["h"], basis="aisc360", load_stiffness=c["k_load"],
+                                     self_weight=False, dynamic_amplification=True))
         da, imp = ch[DynamicAmplification], ch[Impact]
         if da.th is None or not bool(da.th[0]):
             continue
