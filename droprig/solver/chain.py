@@ -59,12 +59,11 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from dataclasses import dataclass
-from types import SimpleNamespace
 from typing import TypeVar, cast
 
 import numpy as np
 
-from droprig.model import Deck, Level, LiftLoad, ModelError, Project
+from droprig.model import Level, LiftLoad, ModelError, Project
 from droprig.solver import amplification as amp_mod
 from droprig.solver import (
     capacity,
@@ -893,10 +892,7 @@ def punching_resistance_at(c: Chain) -> np.ndarray:
     d, inp = c.drop, c[LoadInputs]
     lv, s = d.fm.level, d.fm.settings
     dk = lv.deck
-    dk_p = dk if dk.rib_height <= 0.0 else cast(
-        Deck, SimpleNamespace(thickness=dk.thickness - dk.rib_height, cover=dk.cover,
-                              rebar_area=dk.rebar_area, concrete=dk.concrete,
-                              is_steel=False))
+    dk_p = dk.over_ribs()
     R = np.broadcast_to(deck.punching_resistance(dk_p, inp.foot_l, inp.foot_w,
                                                  s.design_basis, s.resistance_factor),
                         (d.n,))
@@ -998,9 +994,7 @@ def hogging_resistance(fm: FloorModel) -> float:
     dk = fm.level.deck
     if dk.top_rebar_area <= 0.0:
         return 0.0
-    top = cast(Deck, SimpleNamespace(thickness=dk.thickness, cover=dk.cover,
-                                     rebar_area=dk.top_rebar_area, concrete=dk.concrete))
-    return float(deck.deck_flexure_resistance(top, fm.settings.design_basis,
+    return float(deck.deck_flexure_resistance(dk.hogging_section(), fm.settings.design_basis,
                                               fm.settings.resistance_factor))
 
 
