@@ -105,3 +105,19 @@ def test_tilted_landing_never_bridges(roof):
     geo = analysis.point_geometry(fm, roof, np.array([11.25]), np.array([13.5]))
     c = evaluate.evaluate_chain(fm, roof, _base(roof, 3.0, 2.6), geo, landing="tilted")
     assert not bool(c[Compliance].bridged[0])
+
+
+def test_trace_says_the_base_rests_on_the_beams(roof):
+    # the calculation trace of a bridged point states the strip does not bend, and
+    # its deck compliance is the indentation alone (Sneddon 1965 / Johnson §3.8:
+    # 1/(2a·E*), a = √(A/π)), as the chain computes it
+    from droprig.solver.trace import trace_point
+
+    zone = roof.lift_zones[0]
+    unit = zone.loads[0]
+    assert (unit.footprint_length, unit.footprint_width) in ((3.0, 2.0), (2.0, 3.0))
+    tr = trace_point(roof, zone.id, unit.name, 11.0, 13.5)
+    step = next(s for s in tr.steps if s.symbol == "f_deck")
+    assert "rests on them" in step.title
+    c = _chain(roof, unit, [11.0], [13.5])
+    assert step.value == pytest.approx(float(c[Compliance].f_deck_local[0]), rel=1e-12)
