@@ -72,7 +72,8 @@ def local_damage_text(b: BaySummary, system: UnitSystem = "SI") -> str:
     if b.response != "perforates" and not b.scabbing:
         return ""
     parts = []
-    how = f" on a {b.strike_orientation} strike" if b.strike_orientation else ""
+    o = b.strike_orientation
+    how = f" on {'an' if o and o[0] in 'aeiou' else 'a'} {o} strike" if o else ""
     if b.response == "perforates":
         h = (f" from a drop of {fmt_down(b.perforation_height, 'length', system)}"
              if b.perforation_height is not None else "")

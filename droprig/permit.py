@@ -82,7 +82,7 @@ NOT_CHECKED: tuple[str, ...] = (
     "The crane, its foundations or outrigger support, the rigging and the lifting "
     "accessories are not checked by droprig.",
     "Columns, connections, walls and foundations below the struck framing are not "
-    "checked; the columns are taken as rigid supports.",
+    "checked.",
     "That the pick-up and set-down points and the path between them keep every "
     "condition (exclusion areas, hook limits, pads in place) is for the appointed "
     "lifting person to confirm.",
@@ -194,9 +194,16 @@ class Condition:
             return ""
         t = units.fmt(pa.thickness, "small_length", system)
         if pa.kind == "crushable":
-            body = (f"crushable, {t} thick, crushing at "
-                    f"{units.fmt_sig(pa.crush_force, 'force', system)} over a stroke of "
+            if pa.crush_stress is not None:
+                crush = (f"crush stress {units.fmt_sig(pa.crush_stress, 'pressure', system)}"
+                         " on the pressed area")
+            else:  # an older file: the force, read over the largest footprint
+                crush = f"crushing at {units.fmt_sig(pa.crush_force, 'force', system)}"
+            body = (f"crushable, {t} thick, {crush}, stroke "
                     f"{units.fmt_sig(pa.crush_stroke, 'small_length', system)}")
+        elif pa.modulus is not None:
+            body = (f"spring mat, {t} thick, compression modulus "
+                    f"{units.fmt_sig(pa.modulus, 'pressure', system)}")
         else:
             body = (f"spring mat, {t} thick, stiffness "
                     f"{units.fmt_sig(pa.stiffness, 'stiffness', system)}")
@@ -491,7 +498,8 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
         # the load is kept off the bay: nothing on it is relied on
         conds = [c for c in conds if c.kind != "lay_protection"]
         conds.append(Condition("exclude_area", region=region, **base))  # type: ignore
-        if b.governing_check in _THROUGH or b.utilisation_check in _THROUGH:
+        if (b.governing_check in _THROUGH or b.utilisation_check in _THROUGH) and \
+                not any(c.kind == "exclude_level_below" for c in conds):
             conds.append(Condition("exclude_level_below", region=region,  # type: ignore
                                    below_level_id=_level_below(project, b.level_id),
                                    **base))

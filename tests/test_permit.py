@@ -499,3 +499,40 @@ def test_rooftop_demo_by_drop_height_reads_the_same():
     assert [(v.bay_id, v.verdict, v.allowable_drop_height) for v in a.bays] == \
         [(v.bay_id, v.verdict, v.allowable_drop_height) for v in b.bays]
     assert a.verdict == b.verdict == "acceptable_with_conditions"
+
+
+def test_lay_pad_sentence_states_what_the_pad_is():
+    # the wording a site crew lays the pad by: a crushable pad by its crush stress
+    # (the figure the analysis uses, force = stress × pressed area), a spring mat by
+    # its compression modulus where given (common practice, no source)
+    area = Rect(0.0, 0.0, 2.0, 3.0)
+    pads = {
+        "crush": ProtectionArea("P1", "foam pad", "L1", area, kind="crushable",
+                                thickness=0.3, stiffness=None, crush_stress=150e3,
+                                crush_stroke=0.2),
+        "old": ProtectionArea("P2", "old pad", "L1", area, kind="crushable", thickness=0.3,
+                              stiffness=None, crush_force=90e3, crush_stroke=0.2),
+        "mat": ProtectionArea("P3", "rubber mat", "L1", area, kind="spring",
+                              thickness=0.05, stiffness=None, modulus=5e6),
+    }
+    words = {}
+    for k, pa in pads.items():
+        c = Condition("lay_protection", "Z", "crate", "L1", bays=("1-2/A-B",),
+                      protection_id=pa.id, protection=pa)
+        words[k] = c.sentence("SI")
+        assert "none" not in words[k]
+    assert "crush stress 150 kPa on the pressed area, stroke 200 mm" in words["crush"]
+    assert "crushing at 90.0 kN, stroke 200 mm" in words["old"]
+    assert "compression modulus 5,000 kPa" in words["mat"]
+
+
+@pytest.mark.parametrize("name", ["rooftop_plant_swap", "two_level_rigging"])
+def test_a_bay_states_each_condition_once(name):
+    # a bay the load may go through *and* must be kept clear of names the level below
+    # once, not once per reason (a repeated sentence reads as a second condition;
+    # common practice, no source). The demo is an invented scenario.
+    p = load_project(Path(__file__).resolve().parents[1] / "demo_projects" / f"{name}.droprig")
+    permit = derive_conditions(p, analyse(p))
+    for bv in permit.bays:
+        said = [c.sentence("SI") for c in bv.conditions]
+        assert len(said) == len(set(said)), (bv.bay_id, said)

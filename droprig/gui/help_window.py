@@ -11,8 +11,8 @@ import re
 from functools import lru_cache
 from pathlib import Path
 
-from PySide6.QtCore import QUrl
-from PySide6.QtGui import QTextCursor, QTextDocument
+from PySide6.QtCore import Qt, QUrl
+from PySide6.QtGui import QKeyEvent, QKeySequence, QShortcut, QTextCursor, QTextDocument
 from PySide6.QtWidgets import (
     QDialog,
     QDialogButtonBox,
@@ -80,6 +80,15 @@ class HelpWindow(QWidget):
         lay.addWidget(self.browser)
         self.resize(760, 640)
         self.section = "start"
+        # a reader closes the guide from the keyboard as any other window (Esc;
+        # the platform's Close, Ctrl+W on Linux/Windows); common practice, no source
+        QShortcut(QKeySequence(QKeySequence.StandardKey.Close), self, activated=self.close)
+
+    def keyPressEvent(self, event: QKeyEvent) -> None:
+        if event.key() == Qt.Key.Key_Escape:
+            self.close()
+            return
+        super().keyPressEvent(event)
 
     def _fit_images(self, width: int) -> None:
         """Screenshots at most ``width`` px wide (aspect kept), so the guide reads

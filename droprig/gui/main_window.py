@@ -192,6 +192,7 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
         state = self.qsettings.value(f"{key}/state")
         if isinstance(geo, QByteArray | bytes) and geo:
             self.restoreGeometry(QByteArray(geo))
+            self._fit_to_screen()
         else:  # 1600 × 1000, or what the screen has room for
             avail = self.screen().availableGeometry() if self.screen() else None
             w = min(1600, int(avail.width() * 0.96)) if avail else 1600
@@ -203,6 +204,23 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
         overlay = self.qsettings.value("view/overlay", "outcome")
         if overlay in style.OVERLAYS:
             self.set_overlay(str(overlay))
+
+    def _fit_to_screen(self) -> None:
+        """A size saved on a larger screen (or by another display) is cut to the
+        screen's available area and moved onto it: never a window wider or taller
+        than the screen, or off it."""
+        scr = self.screen()
+        if scr is None:
+            return
+        avail = scr.availableGeometry()
+        w = min(self.width(), avail.width())
+        h = min(self.height(), avail.height())
+        if (w, h) != (self.width(), self.height()):
+            self.resize(max(w, 640), max(h, 480))
+        x = min(max(self.x(), avail.x()), avail.x() + max(avail.width() - self.width(), 0))
+        y = min(max(self.y(), avail.y()), avail.y() + max(avail.height() - self.height(), 0))
+        if (x, y) != (self.x(), self.y()):
+            self.move(x, y)
 
     def save_window_state(self) -> None:
         key = self._geometry_key()

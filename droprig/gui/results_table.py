@@ -438,6 +438,10 @@ class ResultsTable(QWidget):
 
         self.summary = QLabel()
         self.summary.setObjectName("resultsSummary")
+        # wraps rather than widening the panel: unwrapped, the line for a project with
+        # a verdict set the results panel's least width at 945 px and the window's
+        # past a 1280 px screen
+        self.summary.setWordWrap(True)
         self.summary.setToolTip("The lift shown is chosen above the plan (Lift:); the plan "
                                 "and this table always show the same lift")
         top = QHBoxLayout()

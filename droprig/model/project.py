@@ -192,7 +192,8 @@ class Settings:
 class ColumnGrid:
     """Orthogonal column grid: lines x = x_lines[i] (labels x_labels) and
     y = y_lines[j] (labels y_labels), strictly increasing. Columns stand at every
-    intersection and are taken as rigid supports."""
+    intersection; under a drop they act as axial springs E·A/L (``Level.column_area``,
+    ``Level.column_height``)."""
 
     x_lines: tuple[float, ...]
     y_lines: tuple[float, ...]

@@ -80,30 +80,30 @@ HEADINGS = {
 BODY_SECTIONS = ("verdict", "plan", "bays", "inputs")
 
 ASSUMPTIONS: tuple[str, ...] = (
-    "The peak contact force is applied to the framing quasi-statically: member actions "
-    "are the peak force times the static actions of a unit load at the drop point "
-    "(energy method, [{gere}]).",
-    "Contact is perfectly inelastic: the load and the struck framing move together after "
-    "contact; the share of kinetic energy left is η = M/(M + mₑ) with mₑ the Rayleigh "
-    "effective mass of the load path in its static deflected shape ([{timoshenko}]).",
-    "The load falls freely from the stated height (no drag, no hoist braking) and lands "
-    "flat on one point of the deck. Drop height: the load's underside above the finished "
-    "surface of the level; the fall onto a pad or mat is that height less its thickness.",
-    "Columns are rigid supports; the load path is deck → beams → girders → columns by "
-    "statics.",
-    "No membrane (catenary) action and no composite action of the deck with the steel is "
-    "counted; the deck spans one way between beams.",
-    "Members are taken as laterally restrained and compact: lateral-torsional buckling "
-    "and local buckling are not checked.",
-    "Existing loads (self-weight, superimposed dead and the live load left in place) are "
-    "as given in the project and are added to the impact actions.",
-    "Beyond yield, flexure is idealised elastic–perfectly plastic within the ductility and "
-    "rotation limits below ([{biggs}], [{ufc}]), the framing in series with the yield-line "
-    "resistance of the struck slab panel where the slab section is ductile (its support "
-    "rotation then limited to 2°); shear, web and punching failures, and the flexure of "
-    "an over-reinforced slab, are brittle and have no plastic reserve.",
-    "Deflection limits (span/N) are serviceability information, not pass criteria for an "
-    "accidental impact.",
+    "Energy method: the peak contact force acts quasi-statically (member actions = peak "
+    "force × the actions of a unit load at the drop point, [{gere}]); with dynamic "
+    "amplification on, the larger of this and the time-history bounds (Appendix B2).",
+    "Perfectly inelastic contact: η = M/(M + mₑ), mₑ the members' Rayleigh mass in their "
+    "static shape ([{timoshenko}]).",
+    "Free fall from the drop height (underside above the finished surface; onto a pad, "
+    "less its thickness), landing flat (and on an edge where tilted landing is on); the "
+    "framing takes the force at the footprint's centre, the deck's checks use the "
+    "footprint cut at edges and openings.",
+    "The contact force is bounded by crushing under the footprint (concrete bearing, or a "
+    "steel deck plate yielding), the energy it absorbs counted; a crushable pad acts by "
+    "its crush stress over the part of the footprint on it ([{johnson}]).",
+    "Load path deck → beams → girders → columns by statics; columns as axial springs "
+    "E·A/L.",
+    "The deck strip is continuous over the beams and shares the load with the cross strip "
+    "to the girders; over a support the load bears on the steel (no sagging flexure or "
+    "punching; within 2d of it β = a_v/2d of the load punches). Composite members act "
+    "with the slab. No membrane action; members laterally restrained and compact.",
+    "Existing loads as given in the project are added to the impact actions.",
+    "Beyond yield: elastic–perfectly plastic within the ductility and rotation limits "
+    "([{biggs}], [{ufc}]), in series with the yield lines of the struck slab panel where "
+    "the slab is ductile (support rotation ≤ 2°); shear, web and punching failures and "
+    "the flexure of an over-reinforced slab are brittle (no plastic reserve).",
+    "Deflection limits (span/N) are information only, not pass criteria.",
 )
 
 NOT_CHECKED: tuple[str, ...] = (
@@ -1234,6 +1234,9 @@ class _Builder:
             ("Member mass in the struck mass; existing loads",
              ("included" if s.include_member_mass else "ignored") + "; "
              + ("included" if s.include_existing_loads else "ignored")),
+            ("Dynamic amplification; tilted landing",
+             ("on" if s.dynamic_amplification else "off") + "; "
+             + ("checked" if s.tilted_landing else "not checked")),
         ]
         half = (len(crit) + 1) // 2
         rows2 = []

@@ -60,7 +60,7 @@ REFERENCES: tuple[Reference, ...] = (
               "axisymmetric Boussinesq problem, Int. J. Engng Sci. 3 (1965) 47–57 — rigid "
               "flat punch on an elastic half-space.", r"Sneddon 1965"),
     Reference("johnson", "Johnson, K. L., Contact Mechanics, Cambridge University Press, "
-              "1985 — §3.8 flat punch.", r"Johnson,? Contact Mechanics"),
+              "1985 — §3.8 flat punch; ch. 6 plastic indentation.", r"Johnson,? Contact Mechanics"),
     Reference("biggs", "Biggs, J. M., Introduction to Structural Dynamics, McGraw-Hill, "
               "1964 — ch. 5, elastic–plastic resistance and ductility.",
               r"Biggs,? Introduction to Structural Dynamics \(1964\)"),

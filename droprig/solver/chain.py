@@ -745,7 +745,8 @@ def demands(c: Chain) -> Demands:
         np.full((2, n), DECK), detail)
     R_punch = punching_resistance_at(c)
     deckm = np.full((1, n), DECK)
-    out["deck_punching"] = small_check("deck_punching", F, np.ones((1, n)), None,
+    beta = punching_near_support(c, Ly, yb)
+    out["deck_punching"] = small_check("deck_punching", F, beta[None, :], None,
                                        np.broadcast_to(R_punch, (n,))[None, :], deckm,
                                        detail)
     return Demands(checks=out, actions=ua)
@@ -896,6 +897,34 @@ def connection_family(fm: FloorModel, shear: Family) -> Family:
     return Family(shear.ut * rows, shear.Et * rows, mem,
                   np.where(np.isfinite(Vc_pts), Vc_pts, shear.resist), shear.src,
                   shear.groups)
+
+
+def punching_near_support(c: Chain, Ly: np.ndarray, yb: np.ndarray) -> np.ndarray:
+    """Share of the contact force that loads the deck in punching, per point.
+
+    A load whose footprint reaches over a supporting beam or girder line bears on the
+    steel by direct compression: the slab cannot punch around it (the crushing of
+    the concrete under the footprint, :mod:`droprig.solver.crushing`, is the check
+    there), so the share is 0. Close to a support the load goes to it partly by a
+    direct strut: EN 1992-1-1 §6.2.2(6) lets the contribution of a load applied
+    within 0.5d ≤ a_v ≤ 2d of the support be multiplied by β = a_v/(2d), applied
+    here to punching as to one-way shear (from memory; β ≥ 0.25 at a_v = 0.5d).
+    a_v is the clear distance from the footprint to the nearest support line, in
+    the strip's direction (beams) or across it (girders), measured to the line
+    rather than the flange edge and with the footprint's smaller half-side
+    (both give the larger a_v: conservative). SI units (m); 1 beyond 2d."""
+    d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
+    dk = d.fm.level.deck
+    if dk.is_steel:
+        return np.ones(d.n)
+    dd = max(deck.effective_depth(dk) - max(dk.rib_height, 0.0), 1e-3)
+    span, pos = comp.strip_span, comp.strip_pos
+    ex = np.where(span > 0.0, np.minimum(pos, span - pos), 0.0)
+    ey = np.minimum(yb, Ly - yb)
+    half = 0.5 * np.minimum(inp.foot_l, inp.foot_w)
+    a_v = np.minimum(ex, ey) - half
+    beta = np.clip(a_v / (2.0 * dd), 0.25, 1.0)
+    return np.where(a_v > 0.0, beta, 0.0)
 
 
 def punching_resistance_at(c: Chain) -> np.ndarray:

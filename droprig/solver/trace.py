@@ -64,7 +64,9 @@ _SRC_CHECK = {
                     "continuous over the beams, crossing strips share with the cross strip "
                     "to the girders (Rankine–Grashof; droprig.solver.chain.two_way_share)",
     "deck_punching": "ACI 318-19 §22.6 / EN 1992-1-1 §6.4.4, §6.4.2(3) at openings, "
-                     "EN 1994-1-1 §9.7.6 over ribs (droprig.solver.chain)",
+                     "EN 1994-1-1 §9.7.6 over ribs; u = β = a_v/2d within 2d of a support "
+                     "(EN 1992-1-1 §6.2.2(6)), 0 where the footprint bears on the steel "
+                     "(droprig.solver.chain.punching_near_support)",
     "connection": "end shear against the connection capacity (Member.connection_capacity; "
                   "not entered: the web's plastic shear resistance, to be confirmed by "
                   "the engineer, droprig.solver.composite)",

@@ -113,3 +113,16 @@ def test_the_window_imports_only_the_solver_face() -> None:
         for node in ast.walk(tree):
             if isinstance(node, ast.ImportFrom) and node.module:
                 assert not node.module.startswith("droprig.solver."), (path.name, node.module)
+
+
+def test_escape_closes_the_guide(qtbot) -> None:
+    # under Xvfb (no window manager, so no title bar) Esc left the guide over the main
+    # window; a reader closes it from the keyboard (common practice, no source)
+    hw = HelpWindow()
+    qtbot.addWidget(hw)
+    hw.show()
+    qtbot.waitExposed(hw)
+    hw.activateWindow()
+    hw.browser.setFocus()
+    qtbot.keyClick(hw.browser, Qt.Key.Key_Escape)
+    qtbot.waitUntil(lambda: not hw.isVisible(), timeout=2000)

@@ -75,6 +75,7 @@ print(json.dumps({
     "caution": [cl.fits(), right, win.width(), cl.text(), cl.toolTip()],
     "bubble_hits": hits,
     "window": [win.width(), win.height()], "plan": [vp.width(), vp.height()],
+    "min": [win.minimumSizeHint().width(), win.minimumSizeHint().height()],
     "dpr": win.devicePixelRatioF(), "titles": titles, "rows": rows,
     "inspector_title": [title.width(), title.sizeHint().width(), title.text()],
     "legend_collapsed": win.plan.legend_collapsed, "legend_covers": len(covers),
@@ -98,6 +99,9 @@ def test_1280x720_logical_at_each_scale(scale: str) -> None:
     assert m["dpr"] == pytest.approx(float(scale))
     W, H = m["window"]
     pw, ph = m["plan"]
+    # the window fits the screen: no panel's least size pushes it wider (the results
+    # summary line once set a 1,306 px window under Xvfb at 1280 × 720)
+    assert (W, H) == (1280, 720) and m["min"][0] <= 1280 and m["min"][1] <= 720, m
     # the plan keeps over half of the window each way (it was ~240 px tall)
     assert ph >= 0.5 * H and pw >= 0.55 * W, m
     for name, (width, need, visible) in m["titles"].items():
@@ -147,3 +151,22 @@ def test_geometry_is_kept_per_screen_scale(qtbot, tmp_path: Path, monkeypatch) -
     c = window()  # another scale: not the size saved at 150 %
     assert (c.width(), c.height()) != (700, 500)
     assert settings.value("window/scale150/geometry") is not None
+
+
+def test_a_saved_size_larger_than_the_screen_is_cut_to_it(qtbot, tmp_path: Path) -> None:
+    # a geometry saved on a bigger display (or one Qt restores as saved because the
+    # screen it was saved on had the same size) must not leave a window wider or taller
+    # than this screen, or off it: seen under Xvfb at 1280 × 720, where a restored
+    # 1306 px wide window ran off the right edge (common practice, no source: a window
+    # fits its screen). Qt's own restoreGeometry clamps only some cases, so the window
+    # is cut to the screen after it, by _fit_to_screen.
+    settings = QSettings(str(tmp_path / "s.ini"), QSettings.Format.IniFormat)
+    a = mw.MainWindow(settings=settings, settings_dir=tmp_path, autosave=False)
+    qtbot.addWidget(a, before_close_func=lambda x: setattr(x, "_closing", True))
+    avail = a.screen().availableGeometry()
+    a.resize(avail.width() + 300, avail.height() + 200)
+    a.move(avail.x() + 400, avail.y() + 300)
+    assert a.width() > avail.width()
+    a._fit_to_screen()
+    assert a.width() <= avail.width() and a.height() <= avail.height()
+    assert avail.contains(a.geometry().topLeft()) and a.x() + a.width() <= avail.right() + 1

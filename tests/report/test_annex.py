@@ -689,14 +689,21 @@ def test_verification_appendix_covers_the_time_history(built: Annex) -> None:
 
 
 def test_pad_spec_states_the_crush_stress_the_analysis_uses() -> None:
-    # The rooftop demo's pads come from an older file: a crush force of 90 kN, which the
-    # analysis reads as a stress over the largest load footprint of the level
-    # (AHU-3, 3.0 m × 2.0 m = 6.0 m²): 90 kN / 6 m² = 15.0 kPa by hand. The annex must
-    # print that stress, not the force over the pad's own area (1.34 kPa on MAT2).
+    # A pad from an older file gives a crush force (90 kN here), which the analysis
+    # reads as a stress over the largest load footprint of the level (the rooftop
+    # demo's AHU-3, 3.0 m × 2.0 m = 6.0 m²): 90 kN / 6 m² = 15.0 kPa by hand. The annex
+    # must print that stress, not the force over the pad's own area (1.34 kPa on MAT2).
+    # The demo itself now gives its pads' crush stress (15 kPa), printed as such.
+    from dataclasses import replace as _replace
+
     from droprig.io.project_file import load_project
 
     p = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
-    mat = next(pa for pa in p.protection_areas if pa.kind == "crushable")
-    assert mat.crush_stress is None and mat.crush_force == pytest.approx(90e3)
-    text = annex.pad_spec(mat, "SI", p)
+    given = next(pa for pa in p.protection_areas if pa.kind == "crushable")
+    assert given.crush_stress == pytest.approx(15e3)
+    assert "crush stress 15.0 kPa" in annex.pad_spec(given, "SI", p)
+    old = _replace(given, crush_stress=None, crush_force=90e3)
+    p = _replace(p, protection_areas=tuple(old if pa.id == given.id else pa
+                                           for pa in p.protection_areas))
+    text = annex.pad_spec(old, "SI", p)
     assert "15.0 kPa" in text and "1.34 kPa" not in text, text

@@ -108,7 +108,7 @@ def _weak_layer_project(crush_force: float) -> Project:
     (N) under loads dropped from 0.5 m."""
     p = _by_drop_height(load_project(DEMOS[0]), 0.5)  # 0.5 m onto the 0.5 m pads
     pads = tuple(replace(pa, kind="crushable", stiffness=None, crush_force=crush_force,
-                         crush_stroke=0.35) for pa in p.protection_areas)
+                         crush_stress=None, crush_stroke=0.35) for pa in p.protection_areas)
     return replace(p, protection_areas=pads)
 
 
