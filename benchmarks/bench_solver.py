@@ -115,6 +115,22 @@ def bench_million(project, n: int, runs: int = 3) -> dict[str, float]:
             "threads": parallel.workers()}
 
 
+def bench_tilted(projects, runs: int) -> dict[str, dict[str, float]]:
+    """Cost of the second landing case: each demo's warm ``analyse`` (median) with the
+    setting ``tilted_landing`` off and on."""
+    from dataclasses import replace
+
+    out: dict[str, dict[str, float]] = {}
+    for name, proj in projects:
+        t = {}
+        for on in (False, True):
+            p = replace(proj, settings=replace(proj.settings, tilted_landing=on))
+            analysis.analyse(p)
+            t["on" if on else "off"] = _median_time(lambda p=p: analysis.analyse(p), runs)
+        out[name] = t
+    return out
+
+
 def bench_naive(project, n_loop: int, n_vec: int) -> dict[str, float]:
     """The same code called once per drop point from a Python loop."""
     zone = project.lift_zones[0]
@@ -256,6 +272,12 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
                                "amplification_on_s": amp[True]}
         print(f"   {name}: amplification off {amp[False] * 1e3:.1f} ms, on "
               f"{amp[True] * 1e3:.1f} ms — ratio {amp[True] / amp[False]:.2f} (target ≤ 2)")
+    tilt = bench_tilted(projects, 5 if q else 21)
+    out["tilted"] = tilt
+    print("\n2b. the tilted landing as a second case (warm analyse(), median)")
+    for name, t in tilt.items():
+        print(f"   {name}: flat only {t['off'] * 1e3:.1f} ms, flat + tilted "
+              f"{t['on'] * 1e3:.1f} ms (× {t['on'] / t['off']:.2f})")
     n = 100_000 if q else 1_000_000
     mil = bench_million(proj0, n)
     out["million"] = mil

@@ -7,6 +7,7 @@ Edit with :func:`dataclasses.replace`.
 
 from __future__ import annotations
 
+import copy
 import math
 from collections.abc import Iterable
 from dataclasses import dataclass, field
@@ -368,6 +369,33 @@ class Deck:
         if self.kind == "grating":
             return self.thickness * self.bar_thickness / self.bar_pitch
         return 0.0
+
+    def _derived(self, **values: float) -> Deck:
+        """A copy with ``values`` changed, not validated again (a section derived from
+        a validated deck, e.g. the 40 mm topping over ribs that a solid slab's 50 mm
+        minimum would refuse)."""
+        out = copy.copy(self)
+        for name, value in values.items():
+            object.__setattr__(out, name, value)
+        return out
+
+    def over_ribs(self) -> Deck:
+        """The concrete over the ribs of a profiled (composite) deck as a solid slab:
+        thickness − rib_height, m, with the same cover, bars and concrete (EN 1994-1-1
+        §9.7.6: punching of a composite slab with the depth of concrete over the
+        ribs). The deck itself where it has no ribs or is steel."""
+        if self.is_steel or self.rib_height <= 0.0:
+            return self
+        return self._derived(thickness=self.thickness - self.rib_height, rib_height=0.0)
+
+    def hogging_section(self) -> Deck:
+        """The deck with its top bars as the tension steel (``rebar_area`` =
+        ``top_rebar_area``, m²/m): the section that resists hogging over the beams and
+        girders (EN 1992-1-1 §6.1, the same rectangular section with the top bars;
+        cover taken as for the bottom bars). The deck itself when steel."""
+        if self.is_steel:
+            return self
+        return self._derived(rebar_area=self.top_rebar_area)
 
     @property
     def self_weight_pressure(self) -> float:

@@ -59,12 +59,11 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from dataclasses import dataclass
-from types import SimpleNamespace
 from typing import TypeVar, cast
 
 import numpy as np
 
-from droprig.model import Deck, Level, LiftLoad, ModelError, Project
+from droprig.model import Level, LiftLoad, ModelError, Project
 from droprig.solver import amplification as amp_mod
 from droprig.solver import (
     capacity,
@@ -488,7 +487,12 @@ class Compliance:
     restraint of the continuous deck strip at its two supports (0 at a deck edge);
     ``g_strip`` (m³, times 1/EI gives m/N) its deflection under a unit load at EI = 1,
     ``cont_ratio`` its sagging moment under the load over the simple span's a·b/L;
-    ``f_deck_local`` (m/N) the indentation part of ``f_deck``.
+    ``f_deck_local`` (m/N) the indentation part of ``f_deck``; ``bridged``: a flat
+    landing whose rigid base covers both support lines of the strip in one of its
+    plan orientations (:func:`droprig.solver.footprint.bridges_strip`; the strip's
+    bending is then left out of ``f_deck``: stiffer, a higher force), and
+    ``bridged_both``: in both orientations (the deck strip then carries nothing and
+    is not checked).
     """
 
     f_s: np.ndarray
@@ -504,6 +508,8 @@ class Compliance:
     g_strip: np.ndarray
     cont_ratio: np.ndarray
     f_deck_local: np.ndarray
+    bridged: np.ndarray
+    bridged_both: np.ndarray
 
 
 def strip_restraint(c: Chain, EI: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -559,6 +565,15 @@ def compliance(c: Chain) -> Compliance:
                          np.maximum(M_ss - (MA * b + MB * x) / L, 0.0)
                          / np.where(M_ss > 0.0, M_ss, 1.0), 0.0)
     f_strip = g1 / EI
+    # a flat rigid base over both beams of its strip rests on them: no strip bending
+    # in series (in either plan orientation of the base: the stiffer, higher force);
+    # the deck checks are left out only where it bridges in both orientations
+    if d.landing == "flat":
+        bridged = footprint_mod.bridges_strip(span, pos, np.maximum(inp.foot_l, inp.foot_w))
+        both = footprint_mod.bridges_strip(span, pos, np.minimum(inp.foot_l, inp.foot_w))
+    else:  # a tilted landing bears on one edge strip: no bridging credited
+        bridged = both = np.zeros(d.n, dtype=bool)
+    f_strip = np.where(bridged, 0.0, f_strip)
     f_local = contact.deck_local_compliance(lv.deck, inp.foot_l, inp.foot_w, basis)
     f_deck = f_local + f_strip
     f_col = columns.column_compliance(d.fm.frame, path, columns.level_column_compliance(lv))
@@ -568,7 +583,7 @@ def compliance(c: Chain) -> Compliance:
     return Compliance(f_s=f_s, f_deck=f_deck, f_struct=f_struct, f_series=f_series,
                       f=f_struct + inp.f_mat, strip_span=span, strip_pos=pos, f_col=f_col,
                       k_left=k_l, k_right=k_r, g_strip=g1, cont_ratio=ratio,
-                      f_deck_local=f_local)
+                      f_deck_local=f_local, bridged=bridged, bridged_both=both)
 
 
 # --------------------------------------------------------------------------- 3. struck mass
@@ -787,6 +802,11 @@ def demands(c: Chain) -> Demands:
     ey = np.minimum(yb, Ly - yb)
     m_y = np.maximum(np.where(ey > 0.5 * inp.foot_l, my1, 0.0),
                      np.where(ey > 0.5 * inp.foot_w, my2, 0.0)) * (1.0 - share_x)
+    # a rigid base over both beams of its strip (in both plan orientations) rests on
+    # the beams: the strip between them carries none of the impact
+    # (footprint.bridges_strip)
+    m_x = np.where(comp.bridged_both, 0.0, m_x)
+    m_y = np.where(comp.bridged_both, 0.0, m_y)
     M0_deck = deck.deck_existing_moment_per_width(span, fm.q0)
     out["deck_flexure"] = small_check(
         "deck_flexure", F, np.stack([m_x, m_y]),
@@ -1134,10 +1154,7 @@ def punching_resistance_at(c: Chain) -> np.ndarray:
     d, inp = c.drop, c[LoadInputs]
     lv, s = d.fm.level, d.fm.settings
     dk = lv.deck
-    dk_p = dk if dk.rib_height <= 0.0 else cast(
-        Deck, SimpleNamespace(thickness=dk.thickness - dk.rib_height, cover=dk.cover,
-                              rebar_area=dk.rebar_area, concrete=dk.concrete,
-                              is_steel=False))
+    dk_p = dk.over_ribs()
     R = np.broadcast_to(deck.punching_resistance(dk_p, inp.foot_l, inp.foot_w,
                                                  s.design_basis, s.resistance_factor),
                         (d.n,))
@@ -1239,9 +1256,7 @@ def hogging_resistance(fm: FloorModel) -> float:
     dk = fm.level.deck
     if dk.top_rebar_area <= 0.0:
         return 0.0
-    top = cast(Deck, SimpleNamespace(thickness=dk.thickness, cover=dk.cover,
-                                     rebar_area=dk.top_rebar_area, concrete=dk.concrete))
-    return float(deck.deck_flexure_resistance(top, fm.settings.design_basis,
+    return float(deck.deck_flexure_resistance(dk.hogging_section(), fm.settings.design_basis,
                                               fm.settings.resistance_factor))
 
 
@@ -1292,7 +1307,9 @@ def slab_resistance(c: Chain) -> SlabResistance:
     r_load = np.sqrt(inp.foot_l * inp.foot_w / np.pi)
     with np.errstate(divide="ignore", invalid="ignore"):
         R_yl = slab.yield_line_resistance(Lx, Ly, xa, yb, mx, my, r_load, m_neg, m_neg)
-    R_yl = np.where(ductile & np.isfinite(R_yl) & (R_yl > 0.0), R_yl, np.inf)
+    # a rigid base resting on both beams of the strip loads no slab mechanism
+    R_yl = np.where(ductile & np.isfinite(R_yl) & (R_yl > 0.0) & ~comp.bridged_both, R_yl,
+                    np.inf)
     R, _dy, first = slab.series_resistance(R_frame, comp.f_s, R_yl, comp.f_deck)
     return SlabResistance(R_yl=R_yl, ell=ell, ductile=ductile, R=R,
                           slab_first=(first == 2) & np.isfinite(R_yl))
@@ -1827,7 +1844,8 @@ def _bare_compliance(d: Drop, inp: LoadInputs) -> Compliance:
     return Compliance(f_s=f_s, f_deck=zero, f_struct=f_struct,
                       f_series=inp.f_load + inp.f_mat, f=f_struct + inp.f_mat,
                       strip_span=zero, strip_pos=zero, f_col=zero, k_left=zero,
-                      k_right=zero, g_strip=zero, cont_ratio=zero, f_deck_local=zero)
+                      k_right=zero, g_strip=zero, cont_ratio=zero, f_deck_local=zero,
+                      bridged=np.zeros(d.n, dtype=bool), bridged_both=np.zeros(d.n, dtype=bool))
 
 
 # --------------------------------------------------------------------------- run

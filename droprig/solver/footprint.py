@@ -22,6 +22,7 @@ from numpy.typing import ArrayLike
 
 __all__ = [
     "EDGE_CONTACT_WIDTH",
+    "bridges_strip",
     "clip_footprint",
     "footprint_on_deck",
     "rigid_base_shares",
@@ -84,6 +85,23 @@ def footprint_on_deck(x: ArrayLike, y: ArrayLike, length: ArrayLike, width: Arra
     share = np.minimum(least / (ln * wd), 1.0)
     root = np.sqrt(share)
     return ln * root, wd * root, share
+
+
+def bridges_strip(span: ArrayLike, pos: ArrayLike, extent: ArrayLike) -> np.ndarray:
+    """Whether a rigid base bridges the deck strip it lands on: its extent across the
+    strip ``extent`` (m), centred ``pos`` (m) from the strip's first support line,
+    covers both support lines of the strip of span ``span`` (m):
+    pos − extent/2 ≤ 0 and pos + extent/2 ≥ span. The base then rests on the two
+    members and the strip between them carries nothing: the force goes to the two
+    members by the statics of a rigid beam on two supports, the lever rule
+    F₁ = F·(span − pos)/span, F₂ = F·pos/span, whatever their stiffness (two
+    supports are statically determinate; Hetényi 1946 ch. 1, rigid beam on springs —
+    from memory), and the deck strip's bending is neither a spring in series nor a
+    check. False where the strip has no span (on a support line the load bears on
+    the member already)."""
+    span, pos, ext = np.broadcast_arrays(*(np.asarray(v, float) for v in (span, pos, extent)))
+    tol = 1e-9
+    return (span > 0.0) & (pos - 0.5 * ext <= tol) & (pos + 0.5 * ext >= span - tol)
 
 
 def rigid_base_shares(s: ArrayLike, k: ArrayLike, s_load: ArrayLike,

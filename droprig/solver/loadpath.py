@@ -468,12 +468,18 @@ def _deck_axis(level: Level) -> str:
 
 
 def build_frame(level: Level, *, include_member_mass: bool = True,
-                EI: np.ndarray | None = None) -> Frame:
+                EI: np.ndarray | None = None,
+                extra_mass: np.ndarray | None = None) -> Frame:
     """Precompute the load-path data of ``level`` (see :class:`Frame`). ``EI``
-    (N·m², per member) replaces the steel sections' E·Ix (composite members)."""
+    (N·m², per member) replaces the steel sections' E·Ix (composite members);
+    ``extra_mass`` (kg/m, per member) is added to the steel's mass per length μ in
+    the Rayleigh struck mass (e.g. the slab and superimposed dead load over the
+    member's tributary width, :func:`tributary_widths`)."""
     mb = _member_arrays(level, include_member_mass)
     if EI is not None:
         mb = replace(mb, EI=np.asarray(EI, float).copy())
+    if extra_mass is not None:
+        mb = replace(mb, mu=mb.mu + np.asarray(extra_mass, float))
     nd = _nodes(level, mb)
     T, D = _node_matrices(mb, nd)
     N_R, quad = _member_quadrature(mb, nd)

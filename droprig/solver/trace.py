@@ -202,15 +202,25 @@ def _path_steps(sheet: _Sheet) -> None:
          "rᵀDr": (float(path.r[0] @ path.u[0]), "compliance"),
          "f_col": (comp.f_col[0], "compliance")},
         comp.f_s[0], "compliance", _SRC_GREEN + "; Gere §2.3 (droprig.solver.columns)")
-    add("Deck compliance: indentation under the footprint + the strip between the beams, "
-        "continuous over them", "f_deck",
-        "f_deck = 1/(2a·E/(1 − ν²)) + g(s)/(E·I), g the strip restrained by K = 2√3·EI/S "
-        "where the deck goes on beyond a support",
-        {"s": (path.strip_pos[0], "length"), "S": (path.strip_span[0], "length"),
-         "f_strip": (comp.f_deck[0] - comp.f_deck_local[0], "compliance")},
-        comp.f_deck[0], "compliance",
-        "Sneddon 1965 / Johnson, Contact Mechanics §3.8; AISC Manual Table 3-23 case 8 "
-        "with the end moments of the restrained span (droprig.solver.slab)")
+    if bool(comp.bridged[0]):
+        # the rigid base covers both beams of its strip and rests on them
+        add("Deck compliance: indentation under the footprint only (the rigid base "
+            "covers both beams of its deck strip and rests on them: the strip does not "
+            "bend under it)", "f_deck", "f_deck = 1/(2a·E/(1 − ν²))",
+            {"s": (path.strip_pos[0], "length"), "S": (path.strip_span[0], "length")},
+            comp.f_deck[0], "compliance",
+            "Sneddon 1965 / Johnson, Contact Mechanics §3.8; statics of a rigid base on "
+            "two supports (droprig.solver.footprint)")
+    else:
+        add("Deck compliance: indentation under the footprint + the strip between the "
+            "beams, continuous over them", "f_deck",
+            "f_deck = 1/(2a·E/(1 − ν²)) + g(s)/(E·I), g the strip restrained by "
+            "K = 2√3·EI/S where the deck goes on beyond a support",
+            {"s": (path.strip_pos[0], "length"), "S": (path.strip_span[0], "length"),
+             "f_strip": (comp.f_deck[0] - comp.f_deck_local[0], "compliance")},
+            comp.f_deck[0], "compliance",
+            "Sneddon 1965 / Johnson, Contact Mechanics §3.8; AISC Manual Table 3-23 case "
+            "8 with the end moments of the restrained span (droprig.solver.slab)")
     k_load = load.contact_stiffness
     add("Compliance of the load's underside (skid, base frame, dunnage)"
         + ("" if k_load is not None

@@ -124,12 +124,18 @@ def _bay_worst(case, bay: int) -> float:  # as the bay summaries attribute point
     return float(np.max(case.utilisation[sel]))
 
 
-@pytest.mark.parametrize("cx, cy", [(9.144, 9.144), (18.288, 18.288)])
-def test_column_approach_changes_a_bays_worst_by_under_5_percent(steel, cx, cy):
-    # points 1–45 mm from a column the lift zone reaches (2/B, 3/C), in every bay it
-    # supports; the worst utilisation over the bay (its closed panel, so the column
-    # point at its corner counts in each of the four bays around it) must not jump
-    # (columns are axial springs, the contact crushes): < 5 %
+@pytest.mark.parametrize("name, cx, cy", [
+    ("steel", 9.144, 9.144), ("steel", 18.288, 18.288),
+    ("roof", 7.5, 9.0), ("roof", 15.0, 9.0), ("roof", 7.5, 18.0),
+])
+def test_column_approach_changes_a_bays_worst_by_under_5_percent(name, cx, cy, roof,
+                                                                steel):
+    # points 1–45 mm from a column the lift zone reaches (steel 2/B, 3/C; roof 2/B,
+    # 3/B and 2/C on the deck's edge), in every bay it supports; the worst utilisation
+    # over the bay (its closed panel, so the column point at its corner counts in each
+    # of the bays around it) must not jump (columns are axial springs, the contact
+    # crushes): < 5 % (issue 10's test; common practice, no source for the 5 %)
+    steel = steel if name == "steel" else roof
     r = analyse(steel)
     zone = steel.lift_zones[0]
     lv = steel.level(zone.level_id)
@@ -146,6 +152,8 @@ def test_column_approach_changes_a_bays_worst_by_under_5_percent(steel, cx, cy):
         res = evaluate.evaluate_case(fm, steel, load, geo)
         X, Y, U = np.asarray(case.x), np.asarray(case.y), np.asarray(case.utilisation)
         for k in range(xs.size):
+            if geo.path.pair[k] < 0:
+                continue  # off the deck (beyond its edge): never a drop point of analyse
             i = int(np.clip(np.searchsorted(gx, xs[k]) - 1, 0, gx.size - 2))
             j = int(np.clip(np.searchsorted(gy, ys[k]) - 1, 0, gy.size - 2))
             tol = 1e-9
