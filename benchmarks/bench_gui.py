@@ -3,12 +3,13 @@
 1. Zone edit -> repainted bay outcomes, on the SI demo project: a finished
    handle drag (the plan's ``zone_changed``) goes through the undo stack, the
    threaded analysis runner, the plan and the results table, until the plan's
-   viewport has painted the new outcomes. Median of N edits; target ≤ 100 ms.
-   Edits are spaced beyond the 150 ms throttle window, as separate drags are.
-   Also reported: the same with an edit inside the throttle window (coalesced
-   at the trailing edge), the analysis alone, and edits to radii not analysed before
-   (the window remembers each zone's results: the alternating radii of the first
-   series are cache hits after two edits).
+   viewport has painted the new outcomes. Target ≤ 100 ms for the median of N
+   edits to radii not analysed before (the window remembers each zone's results,
+   so an edit it has seen is a cache hit and would flatter the figure). Edits are
+   spaced beyond the 150 ms throttle window, as separate drags are. Also
+   reported: edits alternating two radii (undo and redo: cache hits), an edit
+   inside the throttle window (coalesced at the trailing edge) and the analysis
+   alone.
 2. Cold start: a fresh interpreter until the main window is shown (empty, and
    with the demo project opened) and until the demo's first results are
    painted. Median of a few runs; target ≤ 1.5 s to a shown window. Python's
@@ -270,14 +271,14 @@ def main() -> int:
           f"{os.cpu_count()} CPUs, load average "
           + " ".join(f"{x:.2f}" for x in os.getloadavg()))
     edit = bench_zone_edit()
-    med = edit["edit_to_paint_median_s"] * 1e3
-    print(f"  zone edit -> bay outcomes repainted: median {med:.0f} ms "
-          f"(max {edit['edit_to_paint_max_s'] * 1e3:.0f} ms, target ≤ "
-          f"{TARGET_EDIT_S * 1e3:.0f} ms) over {N_EDITS} edits")
-    print(f"    of which analysis (worker thread): median "
-          f"{edit['analysis_median_s'] * 1e3:.0f} ms for {edit['drop_points']:,.0f} drop points")
-    print(f"    zone edit to a radius not analysed before (no cache hit): median "
-          f"{edit['fresh_edit_median_s'] * 1e3:.0f} ms")
+    fresh = edit["fresh_edit_median_s"] * 1e3
+    print(f"  zone edit -> bay outcomes repainted (a radius not analysed before): median "
+          f"{fresh:.0f} ms (target ≤ {TARGET_EDIT_S * 1e3:.0f} ms) over {N_EDITS} edits")
+    print(f"    edits back and forth between two radii, as undo and redo (the zone cache "
+          f"holds both): median {edit['edit_to_paint_median_s'] * 1e3:.0f} ms (max "
+          f"{edit['edit_to_paint_max_s'] * 1e3:.0f} ms); their analysis (worker thread): "
+          f"median {edit['analysis_median_s'] * 1e3:.0f} ms for "
+          f"{edit['drop_points']:,.0f} drop points")
     print(f"    second edit inside the 150 ms throttle window: median "
           f"{edit['edit_in_throttle_window_median_s'] * 1e3:.0f} ms")
     cpu = bench_edit_cpu()
@@ -290,7 +291,8 @@ def main() -> int:
     print(f"    CPU time to the shown window: empty {start['empty_cpu_s']:.2f} s, with the "
           f"demo {start['demo_cpu_s']:.2f} s (the demo's analysis thread included)")
     print("  load average after: " + " ".join(f"{x:.2f}" for x in os.getloadavg()))
-    ok = edit["edit_to_paint_median_s"] <= TARGET_EDIT_S and \
+    # the target is for an edit the window has not seen: a cache hit would flatter it
+    ok = edit["fresh_edit_median_s"] <= TARGET_EDIT_S and \
         start["demo_shown_s"] <= TARGET_START_S
     print("  targets met" if ok else "  TARGET MISSED")
     return 0
