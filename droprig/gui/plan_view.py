@@ -1950,7 +1950,7 @@ class PlanView(QGraphicsView):
             from droprig.outcomes import SCABBING
 
             paint_scabbing_mark(p, QRectF(a.x() + 6, a.y() - 7, 14, 14))
-            label = f"{SCABBING.label}: keep the level below clear"
+            label = f"{SCABBING.label}: clear below"  # fits the 196 px key
         p.setFont(pixel_font(10))
         p.setPen(QColor("#222222"))
         p.drawText(QRectF(r.left() + 32, r.top(), r.width() - 32, r.height()),

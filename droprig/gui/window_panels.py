@@ -128,6 +128,14 @@ class PanelsMixin(WindowParts):
         self.case_combo = QComboBox()
         self.case_combo.setToolTip("Which lift and load the plan shows")
         self.case_combo.setMinimumContentsLength(22)
+        # the combos size to a set number of characters, not to their longest item
+        # (the list opens at full width): with a level chooser, names as long as the
+        # two-level demo's set the bar, and so the window, past a 1280 px screen
+        for combo, chars in ((self.level_combo, 10), (self.overlay_combo, 10),
+                             (self.case_combo, 16)):
+            combo.setSizeAdjustPolicy(
+                QComboBox.SizeAdjustPolicy.AdjustToMinimumContentsLengthWithIcon)
+            combo.setMinimumContentsLength(chars)
         draw_btn = QToolButton()
         draw_btn.setDefaultAction(self.actions["draw_protection"])
         fit_btn = QToolButton()

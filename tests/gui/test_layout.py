@@ -85,9 +85,9 @@ win.close()
 """
 
 
-def _probe(scale: str, size: tuple[int, int]) -> dict:
+def _probe(scale: str, size: tuple[int, int], demo: Path = DEMO) -> dict:
     env = dict(os.environ, QT_QPA_PLATFORM="offscreen", QT_SCALE_FACTOR=scale)
-    r = subprocess.run([sys.executable, "-c", PROBE, str(DEMO), str(size[0]), str(size[1])],
+    r = subprocess.run([sys.executable, "-c", PROBE, str(demo), str(size[0]), str(size[1])],
                        capture_output=True, text=True, env=env, timeout=300)
     assert r.returncode == 0, r.stderr
     return json.loads(r.stdout.strip().splitlines()[-1])
@@ -170,3 +170,11 @@ def test_a_saved_size_larger_than_the_screen_is_cut_to_it(qtbot, tmp_path: Path)
     a._fit_to_screen()
     assert a.width() <= avail.width() and a.height() <= avail.height()
     assert avail.contains(a.geometry().topLeft()) and a.x() + a.width() <= avail.right() + 1
+
+
+def test_two_level_project_fits_1280x720() -> None:
+    # with two levels the view bar gains a level chooser; its combos sized to their
+    # longest item set a window wider than a 1280 px screen (seen under Xvfb with the
+    # two-level demo: the inspector and the caution ran off the right edge)
+    m = _probe("1", (1280, 720), ROOT / "demo_projects" / "two_level_rigging.droprig")
+    assert m["window"] == [1280, 720] and m["min"][0] <= 1280, m
