@@ -50,11 +50,13 @@ CAUTION_VARIANTS: tuple[str, ...] = (
     "An aid only — review with the appointed lifting person and a licensed engineer",
     "Aid only — review with the lifting person and a licensed engineer",
     "Aid only — review with a licensed engineer",
-    "Caution: aid only",
+    "Aid only — licensed engineer to review",
+    "Aid only — licensed engineer",
 )
 """The status bar's caution, longest first: the label shows the longest that fits
 its width (never cut at the window's edge); the whole caution is its tooltip and a
-click opens Help › Limits of use."""
+click opens Help › Limits of use. Even the shortest defers to a licensed engineer
+(the full caution is also under the plan)."""
 
 
 class CautionLabel(QLabel):

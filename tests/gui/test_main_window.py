@@ -530,3 +530,12 @@ def test_project_tree_and_selection_follow_each_other(qtbot, window: MainWindow)
     window.doc.select(Selection("member", ("L1", member.id)))  # e.g. from the plan
     assert tree.currentItem() is tree.item_for(Selection("member", ("L1", member.id)))
     assert tree.currentItem().parent().isExpanded()
+
+
+def test_every_status_bar_caution_defers_to_a_licensed_engineer() -> None:
+    # however narrow the window, the status bar's caution still names who reviews the
+    # result (the user's rule for every verdict screen; its shortest form was "Caution:
+    # aid only" and showed on a 768 px window)
+    from droprig.gui.window_panels import CAUTION_VARIANTS
+
+    assert all("licensed engineer" in v for v in CAUTION_VARIANTS), CAUTION_VARIANTS
