@@ -184,8 +184,9 @@ class Drop:
     whole footprint (N/m; nan = none), as the permit's advised mat is laid.
 
     ``v_hoist``: the hoist's lowering speed when the load is let go (the zone's
-    ``hoist_speed``, m/s), which adds to the strike speed of the local-damage step,
-    V = √(v_h² + 2gh).
+    ``hoist_speed``, m/s): the strike speed V = √(v_h² + 2gh) of every step — the
+    energy balances take h + v_h²/(2g) (:func:`energy_fall`), the local-damage step
+    V itself.
 
     ``bare``: the deck-less mode of one member (``loads`` then empty, the load in
     ``bare``).
@@ -815,7 +816,7 @@ def demands(c: Chain) -> Demands:
         np.full((2, n), DECK), detail)
     R_punch = punching_resistance_at(c)
     deckm = np.full((1, n), DECK)
-    beta = punching_near_support(c, Ly, yb)
+    beta = punching_near_support(c, ey)
     out["deck_punching"] = small_check("deck_punching", F, beta[None, :], None,
                                        np.broadcast_to(R_punch, (n,))[None, :], deckm,
                                        detail)
@@ -1111,7 +1112,7 @@ def connection_family(fm: FloorModel, shear: Family) -> Family:
                   shear.groups)
 
 
-def punching_near_support(c: Chain, Ly: np.ndarray, yb: np.ndarray) -> np.ndarray:
+def punching_near_support(c: Chain, ey: np.ndarray) -> np.ndarray:
     """Share of the contact force that loads the deck in punching, per point.
 
     A load whose footprint reaches over a supporting beam or girder line bears on the
@@ -1124,15 +1125,15 @@ def punching_near_support(c: Chain, Ly: np.ndarray, yb: np.ndarray) -> np.ndarra
     a_v is the clear distance from the footprint to the nearest support line, in
     the strip's direction (beams) or across it (girders), measured to the line
     rather than the flange edge and with the footprint's smaller half-side
-    (both give the larger a_v: conservative). SI units (m); 1 beyond 2d."""
+    (both give the larger a_v: conservative); ``ey`` the distance to the nearer
+    girder line (m, as :func:`demands` has it). SI units (m); 1 beyond 2d."""
     d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
     dk = d.fm.level.deck
     if dk.is_steel:
         return np.ones(d.n)
-    dd = max(deck.effective_depth(dk) - max(dk.rib_height, 0.0), 1e-3)
+    dd = max(deck.effective_depth(dk.over_ribs()), 1e-3)  # d as the punching check's
     span, pos = comp.strip_span, comp.strip_pos
     ex = np.where(span > 0.0, np.minimum(pos, span - pos), 0.0)
-    ey = np.minimum(yb, Ly - yb)
     half = 0.5 * np.minimum(inp.foot_l, inp.foot_w)
     a_v = np.minimum(ex, ey) - half
     beta = np.clip(a_v / (2.0 * dd), 0.25, 1.0)
