@@ -38,7 +38,7 @@ from typing import Literal
 from droprig import units
 from droprig.model import Level, Project, ProtectionArea, Rect, bay_ranges, bays
 from droprig.outcomes import fmt_utilisation
-from droprig.solver import LIMIT_MARGIN, BaySummary, Results
+from droprig.solver import LIMIT_MARGIN, BaySummary, Results, pad_crush_stress
 from droprig.units import UnitSystem
 
 __all__ = [
@@ -152,6 +152,39 @@ def _rect_text(r: Rect, system: UnitSystem) -> str:
     return f"x {f(r.x0)}–{f(r.x1)} {u}, y {f(r.y0)}–{f(r.y1)} {u}"
 
 
+def pad_words(pa: ProtectionArea, system: UnitSystem = "SI",
+              stress: float | None = None) -> str:
+    """A pad's or mat's specification in words, as the analysis reads it — the one
+    wording the permit sentences and the annex's inputs table share: kind, thickness
+    and a crushable layer's crush stress on the pressed area and stroke, or a spring
+    mat's compression modulus (stiffness = modulus × pressed area ÷ thickness), or the
+    stiffness an older file gives for the load's footprint. ``stress`` (Pa): the crush
+    stress the analysis reads for an older file's crush force
+    (:func:`droprig.solver.pad_crush_stress`: the force over the largest load footprint
+    on its level); the wording then names both."""
+    t = units.fmt(pa.thickness, "small_length", system)
+    if pa.kind == "crushable":
+        stroke = units.fmt_sig(pa.crush_stroke, "small_length", system)
+        if pa.crush_stress is not None:
+            crush = (f"crush stress {units.fmt_sig(pa.crush_stress, 'pressure', system)}"
+                     " on the pressed area")
+        elif stress is not None:
+            crush = (f"crush stress {units.fmt_sig(stress, 'pressure', system)} on the "
+                     f"pressed area (its crush force "
+                     f"{units.fmt_sig(pa.crush_force, 'force', system)} over the largest "
+                     "load footprint on its level)")
+        else:
+            crush = (f"crush force {units.fmt_sig(pa.crush_force, 'force', system)} "
+                     "(read over the largest load footprint on its level)")
+        return f"crushable, {t} thick, {crush}, stroke {stroke}"
+    if pa.modulus is not None:
+        return (f"spring mat, {t} thick, compression modulus "
+                f"{units.fmt_sig(pa.modulus, 'pressure', system)} (stiffness = modulus "
+                "× pressed area ÷ thickness)")
+    return (f"spring mat, {t} thick, stiffness "
+            f"{units.fmt_sig(pa.stiffness, 'stiffness', system)} (for the load's footprint)")
+
+
 @dataclass(frozen=True)
 class Condition:
     """One permit condition for one lift zone (and load) on one level.
@@ -187,6 +220,7 @@ class Condition:
     below_level_id: str | None = None
     protection: ProtectionArea | None = None
     cause: str = ""
+    pad_stress: float | None = None
 
     def where(self, level: Level | None = None) -> str:
         """The bays (or the whole zone) the condition covers, in words. With the
@@ -205,25 +239,12 @@ class Condition:
         return f" for {self.load_name}" if self.load_name else ""
 
     def spec(self, system: UnitSystem = "SI") -> str:
-        """The specification of the pad or mat of a ``lay_protection`` condition."""
+        """The specification of the pad or mat of a ``lay_protection`` condition
+        (:func:`pad_words`, then where it lies)."""
         pa = self.protection
         if pa is None:
             return ""
-        t = units.fmt(pa.thickness, "small_length", system)
-        if pa.kind == "crushable":
-            if pa.crush_stress is not None:
-                crush = (f"crush stress {units.fmt_sig(pa.crush_stress, 'pressure', system)}"
-                         " on the pressed area")
-            else:  # an older file: the force, read over the largest footprint
-                crush = f"crushing at {units.fmt_sig(pa.crush_force, 'force', system)}"
-            body = (f"crushable, {t} thick, {crush}, stroke "
-                    f"{units.fmt_sig(pa.crush_stroke, 'small_length', system)}")
-        elif pa.modulus is not None:
-            body = (f"spring mat, {t} thick, compression modulus "
-                    f"{units.fmt_sig(pa.modulus, 'pressure', system)}")
-        else:
-            body = (f"spring mat, {t} thick, stiffness "
-                    f"{units.fmt_sig(pa.stiffness, 'stiffness', system)}")
+        body = pad_words(pa, system, self.pad_stress)
         return f"{pa.name + ': ' if pa.name else ''}{body}; {_rect_text(pa.area, system)}"
 
     def sentence(self, system: UnitSystem = "SI", level: Level | None = None) -> str:
@@ -469,8 +490,9 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
     pads = {pa.id: pa for pa in project.protection_areas
             if pa.id in b.protections and _overlaps(pa.area, rect)}
     for pid, pa in pads.items():
+        stress = pad_crush_stress(project, pa) if pa.kind == "crushable" else None
         conds.append(Condition("lay_protection", protection_id=pid,  # type: ignore[arg-type]
-                               protection=pa, **base))
+                               protection=pa, pad_stress=stress, **base))
     kind = b.advice_kind
     verdict: Verdict = "acceptable_with_conditions"
     thickest = max((pa.thickness for pa in pads.values()), default=0.0)

@@ -522,8 +522,33 @@ def test_lay_pad_sentence_states_what_the_pad_is():
         words[k] = c.sentence("SI")
         assert "none" not in words[k]
     assert "crush stress 150 kPa on the pressed area, stroke 200 mm" in words["crush"]
-    assert "crushing at 90.0 kN, stroke 200 mm" in words["old"]
+    assert "crush force 90.0 kN (read over the largest load footprint on its level)" \
+        ", stroke 200 mm" in words["old"]
     assert "compression modulus 5,000 kPa" in words["mat"]
+    # an older file's pad, as derive_conditions states it: the stress the analysis
+    # reads, 90 kN over a 2 m × 3 m footprint = 15 kPa (hand value), and the force
+    old = Condition("lay_protection", "Z", "crate", "L1", bays=("1-2/A-B",),
+                    protection_id="P2", protection=pads["old"], pad_stress=90e3 / 6.0)
+    assert "crush stress 15.0 kPa on the pressed area (its crush force 90.0 kN over the " \
+        "largest load footprint on its level), stroke 200 mm" in old.sentence("SI")
+
+
+@pytest.mark.parametrize("name", ["rooftop_plant_swap", "steel_erection_floor"])
+def test_permit_and_annex_word_a_pad_alike(name):
+    # one wording of a pad: the permit sentence and the annex's inputs table say the
+    # same thing of it (the crew lays it by either; common practice, no source).
+    # The demo is an invented scenario.
+    from droprig.report.annex import pad_spec
+
+    p = load_project(Path(__file__).resolve().parents[1] / "demo_projects" / f"{name}.droprig")
+    permit = derive_conditions(p, analyse(p))
+    laid = [c for c in permit.conditions if c.kind == "lay_protection"]
+    assert laid
+    for c in laid:
+        assert c.protection is not None
+        for system in ("SI", "US"):
+            body = pad_spec(c.protection, system, p).split("; extent ")[0]
+            assert body in c.sentence(system)  # type: ignore[arg-type]
 
 
 @pytest.mark.parametrize("name", ["rooftop_plant_swap", "two_level_rigging"])

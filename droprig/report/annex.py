@@ -38,8 +38,17 @@ from dataclasses import dataclass, field
 
 from droprig import __version__
 from droprig.io.atomic import atomic_path
-from droprig.model import Deck, Level, LiftZone, ModelError, Project, bays, id_ranges
-from droprig.permit import ENERGY_ONLY, derive_conditions
+from droprig.model import (
+    Deck,
+    Level,
+    LiftZone,
+    ModelError,
+    Project,
+    ProtectionArea,
+    bays,
+    id_ranges,
+)
+from droprig.permit import ENERGY_ONLY, derive_conditions, pad_words
 from droprig.permit import VERDICT_WORDS as _PERMIT_WORDS
 from droprig.report import content, fonts, permit_fields, references
 from droprig.report.formula import SIG, evaluate, fmt_sig, printed_tolerance
@@ -55,6 +64,7 @@ from droprig.solver import (
     member_resistances,
     pad_crush_stress,
 )
+from droprig.units import UnitSystem
 
 Progress = Callable[[float, str], None]
 
@@ -680,38 +690,15 @@ def pad_label(p: object, system: str, project: Project) -> str:
             f"{fmt_sig(p.stiffness, 'stiffness', system, 3)}")  # type: ignore[attr-defined,arg-type]
 
 
-def pad_spec(p: object, system: str, project: Project | None = None) -> str:
-    """A pad's or mat's specification in words, as the analysis reads it (kind,
-    thickness, extent; a crushable layer's crush stress over the pressed area — for an
-    older file its crush force read over the largest load footprint of its level,
-    :func:`droprig.solver.pad_crush_stress` — and stroke; a spring mat's compression
-    modulus, or the stiffness given for the load's footprint)."""
-    a = p.area  # type: ignore[attr-defined]
-    ext = (f"{fmt_value(a.x1 - a.x0, 'length', system)} × "  # type: ignore[arg-type]
-           f"{fmt_value(a.y1 - a.y0, 'length', system)}")  # type: ignore[arg-type]
-    th = fmt_value(p.thickness, "length", system)  # type: ignore[attr-defined,arg-type]
-    if p.kind == "crushable":  # type: ignore[attr-defined]
-        stroke = fmt_sig(p.crush_stroke, "length", system, 3)  # type: ignore[attr-defined,arg-type]
-        given = p.crush_stress  # type: ignore[attr-defined]
-        if given is not None:
-            crush = (f"crush stress {fmt_sig(given, 'pressure', system, 3)} over the "
-                     "pressed area")
-        else:
-            force = fmt_sig(p.crush_force, "force", system, 3)  # type: ignore[attr-defined,arg-type]
-            if project is not None:
-                sigma = pad_crush_stress(project, p)
-                crush = (f"crush force {force} read as a crush stress of "
-                         f"{fmt_sig(sigma, 'pressure', system, 3)} over the pressed area "
-                         "(the force over the largest load footprint on its level)")
-            else:
-                crush = f"crush force {force} (for the largest load footprint on its level)"
-        return f"crushable, {th} thick, {ext}; {crush}, stroke {stroke}"
-    if p.modulus is not None:  # type: ignore[attr-defined]
-        return (f"spring mat, {th} thick, {ext}; compression modulus "
-                f"{fmt_sig(p.modulus, 'pressure', system, 3)}"  # type: ignore[attr-defined,arg-type]
-                " (stiffness = modulus × pressed area ÷ thickness)")
-    return (f"spring mat, {th} thick, {ext}; stiffness "
-            f"{fmt_sig(p.stiffness, 'stiffness', system, 3)}")  # type: ignore[attr-defined,arg-type]
+def pad_spec(p: ProtectionArea, system: UnitSystem, project: Project | None = None) -> str:
+    """A pad's or mat's specification in words for the inputs table: the permit's
+    wording (:func:`droprig.permit.pad_words`, with the crush stress the analysis reads
+    for an older file's crush force) and its extent."""
+    a = p.area
+    ext = f"{fmt_value(a.x1 - a.x0, 'length', system)} × {fmt_value(a.y1 - a.y0, 'length', system)}"
+    stress = (pad_crush_stress(project, p)
+              if project is not None and p.kind == "crushable" else None)
+    return f"{pad_words(p, system, stress)}; extent {ext}"
 
 
 def _deck_words(dk: Deck, v: Callable[[float | None, str], str]) -> str:
