@@ -67,7 +67,7 @@ MAX_EVENTS = 400
 TAIL = 0.01
 """Modes not sampled in a free or crushing phase: their amplitudes' sum (the bound on
 their part, added to the peak) is at most TAIL of the family's largest."""
-_BUDGET = 8_192  # samples per round over all active cases (the search for phase ends)
+_BUDGET = 32_768  # samples per round over all active cases (the search for phase ends)
 _CHUNK = 600_000  # outputs × samples evaluated at once (a few MB: kept in cache)
 _BISECT = 22  # bisection steps on a bracket of one sample spacing, then a secant step
 
