@@ -34,8 +34,13 @@ between the samples that bracket them (to 1e-12 of the sample spacing), so no
 time-step error accumulates: what is left is the modal truncation and the sampling of
 the peaks (``scripts/convergence_point_history.py``). The window and its end are the
 reference's: 1.25 × the longer of the member's fundamental period and the loaded
-period (plus the crushing time), ending one fundamental period after the first
-separation once the load is off the member.
+period (plus the crushing time), every case to its own end — a load that bounces off
+and lands again inside it is followed through the second landing.
+
+Cost: the samples grow with the modes kept (a stiff contact keeps up to 40, sampled 8
+times a period of the highest over the whole window) and every contact change is a
+round of its own, so a point costs about 1–40 ms (``benchmarks/bench_verify.py``:
+on 100 random members about the Newmark reference's cost, not the ≤ 1 ms aimed at).
 
 Cases are vectorised: points of one end condition and a similar number of kept modes
 run together, each in its own phase, in rounds of a chunk of samples per point. A case
@@ -72,7 +77,6 @@ _CHUNK = 600_000  # outputs × samples evaluated at once (a few MB: kept in cach
 _BISECT = 22  # bisection steps on a bracket of one sample spacing, then a secant step
 
 _CONTACT, _CRUSH, _FREE = 0, 1, 2
-_DBG: dict = {}
 
 
 def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike,
@@ -431,9 +435,6 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
         ev_which = np.where(stop, -1, ev_which)
         nvalid = np.sum(ts <= t_cut[:, None], axis=1)
         samples[idx] += nvalid
-        for kk in (0, 1, 2):
-            _DBG[kk] = _DBG.get(kk, 0) + int(nvalid[kind[idx] == kk].sum())
-        _DBG["rounds"] = _DBG.get("rounds", 0) + 1
         # the outputs at the valid samples, in buckets of similar length (powers of
         # two), each peak refined by a parabola through the largest and its neighbours
         z = ph.As[idx][:, None, :] * cs + ph.Bs[idx][:, None, :] * sn  # (n, G, J)
