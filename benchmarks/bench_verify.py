@@ -22,10 +22,15 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT))
 
+import numpy as np  # noqa: E402
+
 from droprig.io.project_file import load_project  # noqa: E402
 from droprig.io.sections import get_grade, get_section  # noqa: E402
 from droprig.solver import (  # noqa: E402
     analyse,
+    exacthistory,
+    pointhistory,
+    timehistory,
     verification_table,
     verify_member,
     verify_point,
@@ -84,6 +89,20 @@ def main(argv: list[str] | None = None) -> dict[str, float]:
         t_tab = _median_time(lambda p=p, res=res: verification_table(p, res), 1)
         out[f"{path.stem}.table_s"] = t_tab
         print(f"  verification table, {len(res.bays)} bays: {t_tab:.2f} s")
+    # the integrators, per point batched: the phase-exact one of the verdict against
+    # the Newmark reference, on 100 random members (tests/solver/test_exact_history.py)
+    sys.path.insert(0, str(ROOT / "tests" / "solver"))
+    from test_exact_history import _random_cases
+
+    c = _random_cases(np.random.default_rng(20261204), 100)
+    a_ = (c["cond"], c["L"], c["EI"], c["mu"], c["a"], c["M"], c["h"], c["f_c"])
+    t_ex = _median_time(lambda: exacthistory.exact_time_history(
+        *a_, F_yield=c["F_y"], **pointhistory.TH_OPTIONS), 1)
+    t_nm = _median_time(lambda: timehistory.time_history_batched(*a_, F_yield=c["F_y"]), 1)
+    out["exact_ms_per_point"] = t_ex * 10.0
+    out["newmark_ms_per_point"] = t_nm * 10.0
+    print(f"time history of 100 random members: phase-exact {t_ex * 10.0:.1f} ms a point, "
+          f"Newmark {t_nm * 10.0:.1f} ms a point (target ≤ 1 ms)")
     sec, gr = get_section("W16X26"), get_grade("A992")
     t_m = _median_time(lambda: verify_member(sec, gr, "simple", 7.3152, 2.7432, 27.2, 0.9144,
                                              load_stiffness=2e7), runs)

@@ -39,7 +39,12 @@ Model (SI units: m, N, kg, s; downward positive):
   §5.4 and Table 5.4.2), unconditionally stable; each step tries the contact and
   the free state and keeps the one whose contact force has the right sign. The run
   covers the first peak and the rebound: 1.25 × the longer of the member's
-  fundamental period and the loaded system's period 2π√((M + mₑ)(f_s + f_c)).
+  fundamental period and the loaded system's period 2π√((M + mₑ)(f_s + f_c)), every
+  case to its own end (a case's peaks do not depend on the cases run with it; a run
+  that stopped one fundamental period after the batch's separations missed a second
+  landing in the window). :mod:`droprig.solver.exacthistory` solves the same model
+  phase by phase in closed form (the verdict's integrator); this one is its plain
+  reference.
 
 All functions are vectorised over cases (one entry per drop point or random case).
 """
@@ -403,10 +408,6 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
     capped = bool(np.any(np.isfinite(F_y)))
     p_set = np.zeros(P)  # permanent set of the contact spring, m
     rec: dict[str, list[np.ndarray]] = {k_: [] for k_ in ("F", "M", "V", "D", "U")}
-    # after the first separation the member vibrates freely: one more fundamental
-    # period catches its peaks (the run ends earlier than t_end when every case is done)
-    t_after = T1
-
     def take_peaks(qb: np.ndarray, Fb: np.ndarray) -> None:
         """Fold a block of steps (P, B, N) and forces (P, B) into the peaks."""
         d = np.einsum("pbn,pns->pbs", qb, Wd) + Fb[:, :, None] * Rd[:, None, :]
@@ -417,11 +418,11 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
         pk["D"][:] = np.maximum(pk["D"], np.abs(d).max(axis=(1, 2)))
         pk["M"][:] = np.maximum(pk["M"], ma.max(axis=1))
         pk["V"][:] = np.maximum(pk["V"], sa.max(axis=1))
-        if record:
-            rec["F"].append(Fb[0])
-            rec["D"].append(d[0, :, -2])
-            rec["M"].append(ma[0])
-            rec["V"].append(sa[0])
+        if record:  # copies: the block's buffers are reused by the next block
+            rec["F"].append(Fb[0].copy())
+            rec["D"].append(d[0, :, -2].copy())
+            rec["M"].append(ma[0].copy())
+            rec["V"].append(sa[0].copy())
 
     block = 256
     qb = np.zeros((P, block, N))
@@ -464,13 +465,8 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
         if j == block or i == n_steps - 1:
             take_peaks(qb[:, :j], Fb[:, :j])
             if record:
-                rec["U"].append(ub[0, :j])
+                rec["U"].append(ub[0, :j].copy())
             j = 0
-            done = np.all(~np.isnan(t_sep) & ((i + 1) * dt >= t_sep + t_after)
-                          & ~in_contact)
-            if done:
-                steps_done = i + 1
-                break
     history = None
     if record:
         t = np.arange(steps_done + 1) * dt[0]
@@ -534,10 +530,11 @@ _SETUP_KEYS = ("omega", "m_e", "inv_m", "kept", "f_k", "k", "pt", "Wd", "Wm",
 
 def _setup(cond: EndCondition, L: np.ndarray, EI: np.ndarray, mu: np.ndarray, a: np.ndarray,
            M: np.ndarray, f_c: np.ndarray, f_s: np.ndarray, n_modes: int,
-           cutoff: float) -> dict[str, np.ndarray]:
+           cutoff: float, sections: int = _N_SECTIONS) -> dict[str, np.ndarray]:
     """Modal data of the cases of one end condition (see :func:`time_history`):
     frequencies, kept modes, contact stiffness, modal and static-correction fields
-    at the member's sections, fundamental period; each array has the cases first."""
+    at the member's sections (``sections`` equal intervals, and both sides of the
+    load), fundamental period; each array has the cases first."""
     P = L.size
     md = _modal(cond, max(n_modes, 1))
     lam, norm = md.lam[:n_modes], md.norm[:n_modes]
@@ -564,7 +561,7 @@ def _setup(cond: EndCondition, L: np.ndarray, EI: np.ndarray, mu: np.ndarray, a:
     pt = np.where(kept, phi_a / np.sqrt(m_n), 0.0)  # φ̃ₙ(a); omitted modes stay at 0
 
     # sections along the member (ξ grid plus both sides of the load)
-    xi = np.linspace(0.0, 1.0, _N_SECTIONS + 1)
+    xi = np.linspace(0.0, 1.0, sections + 1)
     eps = 1e-9
     shp = mode_shapes(cond, lam, xi)
     x_grid = L[:, None] * xi[None, :]

@@ -13,8 +13,11 @@ Both methods are run on the same idealisation so that their ratio shows the meth
 not the idealisation: the energy method of :func:`timehistory.energy_method_peaks`
 (Gere 7th ed. §9.10 with the Rayleigh struck mass, as droprig applies it: η = 1 under
 mats; the struck mass referred to the load, mₑ·(f_s/f)², as the floor chain and
-droprig check take it) and the time history of :func:`timehistory.time_history` (Euler–Bernoulli
-modes, Blevins 1979 Table 8-1; Newmark average acceleration, Chopra §5.4). A rigid
+droprig check take it) and the time history the verdict's point histories use,
+:func:`exacthistory.exact_time_history` (Euler–Bernoulli modes, Blevins 1979 Table
+8-1; each phase in closed form by modal superposition, Chopra §10–12). The factors
+and demands shown are the chain's own amplification step at the point, exactly what
+the verdict used. A rigid
 contact is given KAPPA_MIN × the member's compliance (an Euler–Bernoulli member struck
 rigidly has no converged contact force; moment and deflection do not depend on it).
 SI units throughout.
@@ -29,7 +32,15 @@ from typing import TYPE_CHECKING
 import numpy as np
 
 from droprig.model import Grade, Level, ModelError, Project, Section
-from droprig.solver import amplification, beam, crushing, impact, timehistory
+from droprig.solver import (
+    amplification,
+    beam,
+    crushing,
+    exacthistory,
+    impact,
+    pointhistory,
+    timehistory,
+)
 from droprig.solver.beam import EndCondition
 from droprig.solver.capacity import Basis
 from droprig.solver.geometry import Geometry
@@ -122,8 +133,10 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
                                         struck_mass=struck_mass, scaled_mass=scaled_mass)
     W = M * impact.G
     cap = F_yield if F_yield > W else math.inf
-    t = timehistory.time_history(cond, L, EI, mu, a, M, h, f_th, record=True,
-                                 F_yield=cap, stroke=stroke)
+    # the integrator and settings of the verdict's own point histories
+    t = exacthistory.exact_time_history(cond, L, EI, mu, a, M, h, f_th, record=True,
+                                        F_yield=cap, stroke=stroke,
+                                        **pointhistory.TH_OPTIONS)
     amp = amplification.amplification(M, float(e.effective_mass), f_c, f_s,
                                       struck_mass=struck_mass)
     F_el = float(e.force)
@@ -256,8 +269,16 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     g_m = float(beam.green(cond, L, EI, a, a))
     # the rest of the path in series: everything but the modelled member's own spring
     f_c = max(f_all - g_m, 0.0) if g_m > 0 else f_all
+    # what the verdict used: the chain's own amplification step at this point (its
+    # factors on the chain's energy-method force), not factors of the verification's
+    # own — with amplification off the energy method's (below)
+    from droprig.solver.chain import DynamicAmplification
+    chain_factors = None
+    if project.settings.dynamic_amplification and DynamicAmplification in chain:
+        chain_factors = (float(chain[Impact].F[0]), _factors(chain[DynamicAmplification], 0))
     ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), float(inp.h[0]),
-                  f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True, F_yield=F_y, stroke=s_y)
+                  f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True, F_yield=F_y, stroke=s_y,
+                  chain_factors=chain_factors)
 
     if not project.settings.dynamic_amplification:
         # the project's checks use the energy method alone (amplification off in its

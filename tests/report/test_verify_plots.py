@@ -26,9 +26,13 @@ def test_three_figures_with_energy_peak_and_caution() -> None:
     v = pv.verification
     force_ax = figs[0].axes[0]
     lines = force_ax.get_lines()
-    # the time-history curve peaks at the time history's peak; the dashed line is the
-    # energy method's peak (display unit kN in the SI system)
-    assert max(lines[0].get_ydata()) == pytest.approx(v.time_history["force"] / 1e3, rel=1e-9)
+    # the time-history curve peaks at the time history's peak (the curve is sampled 8
+    # times a period; the peak is refined between the samples, within 0.85 % on a
+    # pure cosine: tests/solver/test_exact_history.py); the dashed line is the energy
+    # method's peak (display unit kN in the SI system)
+    top = max(lines[0].get_ydata())
+    assert top <= v.time_history["force"] / 1e3 * (1 + 1e-9)
+    assert top == pytest.approx(v.time_history["force"] / 1e3, rel=0.0085)
     assert lines[1].get_ydata()[0] == pytest.approx(v.energy["force"] / 1e3, rel=1e-9)
     for fig in figs:
         assert any(CAUTION_SHORT in t.get_text() for t in fig.texts)

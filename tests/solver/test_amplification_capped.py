@@ -150,7 +150,12 @@ def test_stroke_used_up_the_force_rises_again() -> None:
     M, h, f_c = 300.0 * m_e, 0.5, 0.05 * f_s
     W = M * impact.G
     F_y = 0.5 * float(impact.impact_elastic(W, h, f_s + f_c, 1.0)[1])
-    t = timehistory.time_history(cond, L, EI, mu, a, M, h, f_c, F_yield=F_y, stroke=0.01)
+    # the first landing only (duration 0.5: the run ends before the load, which
+    # bounces off at ~0.6 s, lands again at ~1.2 s; on the member's six kept modes,
+    # swinging up to meet it, that second landing reads ~30 % more — with no member
+    # modes in time it repeats the first, energy being conserved)
+    t = timehistory.time_history(cond, L, EI, mu, a, M, h, f_c, F_yield=F_y, stroke=0.01,
+                                 duration=0.5)
     F_b, _, bottomed = impact.impact_crushable(W, h, f_s + f_c, 1.0, F_y, 0.01)
     assert bool(bottomed)
     assert float(t.force[0]) > F_y

@@ -9,7 +9,8 @@ Sources:
   ASTM A992 Fu = 65 ksi, from memory.
 * The time history of droprig.solver.timehistory (Blevins 1979 Table 8-1 modes,
   Newmark average acceleration — Chopra 4th ed. §5.4; checked in test_timehistory.py
-  against Gere 7th ed. §9.10 and Clough & Penzien 2nd ed. §18-2), refined in modes and
+  against Gere 7th ed. §9.10 and Clough & Penzien 2nd ed. §18-2) and the phase-exact
+  one the verdict uses (droprig.solver.exacthistory, test_exact_history.py), refined in modes and
   time step (80 modes, cut-off 32, 160 steps per period) as the converged reference.
 * Unit-load envelopes of AISC Manual Table 3-23 (via droprig.solver.beam).
 """
@@ -22,15 +23,16 @@ import numpy as np
 import pytest
 
 from droprig.io.sections import get_grade, get_section
-from droprig.solver import beam, capacity, impact, pointhistory, timehistory
+from droprig.solver import beam, capacity, exacthistory, impact, pointhistory, timehistory
 from droprig.solver.chain import DynamicAmplification, Impact
 from droprig.solver.member import MemberDrop, assess_member, member_chain
 
 KIP = 4448.2216152605  # N per kip (NIST SP 811 App. B.8)
 INCH = 0.0254  # m per inch (NIST SP 811 App. B.8)
 KSI = KIP / INCH**2
-REFINED = {"n_modes": 80, "cutoff": 32.0, "steps_per_period": 160}
+REFINED = {"n_modes": 80, "cutoff": 32.0, "samples_per_period": 16, "sections": 64}
 CONDS = ("simple", "fixed", "propped", "cantilever")
+N_MARGIN_CASES = 20
 
 
 @pytest.mark.parametrize(("dist", "lb", "expected_kip"), [
@@ -67,7 +69,7 @@ def test_rigid_load_on_a_bare_flange_has_a_physical_cap() -> None:
     # the lesser of the upper bounds: the cap itself (the time history never passes
     # it), below 1.5 × the history's own peak
     assert verdict_force == pytest.approx(F_cap, rel=2e-3)
-    assert verdict_force >= float(da.history.th["force"][0])
+    assert verdict_force >= float(da.history.th["force"][0]) * (1 - 1e-12)
     # the web then yields locally under the load: U = Fu/Fy = 65/50 = 1.30 at Fy
     r = assess_member(sec, gr, "simple", 7.3, 3.65, 27.0, 0.9, basis="aisc360",
                       dynamic_amplification=True)
@@ -107,18 +109,19 @@ def _random_cases(rng: np.random.Generator, n: int) -> dict[str, np.ndarray]:
 
 @pytest.fixture(scope="module")
 def histories():
-    c = _random_cases(np.random.default_rng(20261203 + 7), 200)
+    # a quick part of the study (scripts/convergence_point_history.py runs 120-240)
+    c = _random_cases(np.random.default_rng(20261203 + 7), N_MARGIN_CASES)
     args = (c["cond"], c["L"], c["EI"], c["mu"], c["a"], c["M"], c["h"], c["f_c"])
-    run = timehistory.time_history_batched(*args, F_yield=c["F_y"],
-                                           **pointhistory.TH_OPTIONS)
-    ref = timehistory.time_history_batched(*args, F_yield=c["F_y"], **REFINED)
+    run = exacthistory.exact_time_history(*args, F_yield=c["F_y"],
+                                          **pointhistory.TH_OPTIONS)
+    ref = exacthistory.exact_time_history(*args, F_yield=c["F_y"], **REFINED)
     return c, run, ref
 
 
 @pytest.mark.slow
 @pytest.mark.parametrize("q", ["force", "moment", "shear", "deflection"])
 def test_margin_covers_the_converged_history(histories, q: str) -> None:
-    # on 200 random members (not the convergence study's seed) the verdict's run
+    # on 20 random members (not the convergence study's seed) the verdict's run
     # times TH_MARGIN is never below the refined, converged run: a demand
     # A·E = TH_MARGIN·run ≥ converged (the verdict at a point with its own history)
     _, run, ref = histories
@@ -127,14 +130,20 @@ def test_margin_covers_the_converged_history(histories, q: str) -> None:
         float(np.max(conv / got))
 
 
-@pytest.mark.slow
-def test_margin_is_not_loose(histories) -> None:
-    # the margin is the study's largest shortfall + 5 %: on fresh cases some
-    # quantity comes within 25 % of it (it is not a blanket factor)
-    _, run, ref = histories
-    worst = max(float(np.max(getattr(ref, q) / getattr(run, q)))
-                for q in ("force", "moment", "shear", "deflection"))
-    assert worst > (pointhistory.TH_MARGIN - 0.05) / 1.25
+def test_margin_is_not_loose() -> None:
+    # the margin is the study's largest shortfall + 5 %: the case that set it
+    # (scripts/convergence_point_history.py 240 20261203, case 214: a 1.7 kg load on
+    # a soft, crushing contact of a propped member — the study's random inputs,
+    # compared method to method) needs it within 10 %, and gets it
+    case = ("propped", 8.406425067083124, 2708699.054211443, 15.65907740482114,
+            5.941669872831323, 1.7233727372480083, 0.4588112429335479,
+            2.6392068142580973e-06)
+    kw = {"F_yield": 20.280615904479816, "stroke": 0.0028777081910122265}
+    run = exacthistory.exact_time_history(*case, **kw, **pointhistory.TH_OPTIONS)
+    ref = exacthistory.exact_time_history(*case, **kw, **REFINED)
+    need = max(float(getattr(ref, q)[0] / getattr(run, q)[0])
+               for q in ("force", "moment", "shear", "deflection"))
+    assert need <= pointhistory.TH_MARGIN <= 1.1 * need
 
 
 SECTIONS = ("W16X26", "W10X33", "W21X44")
@@ -175,10 +184,11 @@ def test_check_at_its_own_history_never_below_the_converged_history() -> None:
         if da.th is None or not bool(da.th[0]):
             continue
         seen += 1
-        ref = timehistory.time_history(c["cond"], c["L"], c["EI"],
-                                       c["sec"].mass_per_length, c["a"], c["M"], c["h"],
-                                       1.0 / c["k_load"], F_yield=float(imp.F_crush[0]),
-                                       stroke=float(c["sec"].tf), **REFINED)
+        ref = exacthistory.exact_time_history(c["cond"], c["L"], c["EI"],
+                                              c["sec"].mass_per_length, c["a"], c["M"],
+                                              c["h"], 1.0 / c["k_load"],
+                                              F_yield=float(imp.F_crush[0]),
+                                              stroke=float(c["sec"].tf), **REFINED)
         F = float(imp.F[0])
         assert da.A_force[0] * F >= ref.force[0] * (1 - 1e-9)
         unit_m = float(beam.max_abs_moment(c["cond"], c["L"], 1.0, c["a"]))
@@ -188,8 +198,9 @@ def test_check_at_its_own_history_never_below_the_converged_history() -> None:
     assert seen >= 4
 
 
+@pytest.mark.parametrize("run", [timehistory.time_history, exacthistory.exact_time_history])
 @pytest.mark.parametrize("frac", [0.99, 0.9999, 1.0 - 1e-6])
-def test_history_near_a_support_keeps_to_the_rigid_base_force(frac: float) -> None:
+def test_history_near_a_support_keeps_to_the_rigid_base_force(frac: float, run) -> None:
     # a point next to a support barely moves: the load on its contact spring against
     # an immovable point is the most it can pass, F = W(1 + √(1 + 2h/(W·f)))
     # (Gere 7th ed. §9.10, Eq. 9-94, η = 1, f the contact and member compliance in
@@ -200,6 +211,6 @@ def test_history_near_a_support_keeps_to_the_rigid_base_force(frac: float) -> No
     f = f_c + float(beam.green("simple", L, EI, a, a))
     W = M * impact.G
     F_rigid = W * (1.0 + math.sqrt(1.0 + 2.0 * h / (W * f)))
-    t = timehistory.time_history("simple", L, EI, mu, a, M, h, f_c)
+    t = run("simple", L, EI, mu, a, M, h, f_c)
     assert float(t.force[0]) <= F_rigid * 1.011  # RIGID_BASE_MARGIN's measured 1.011
     assert float(t.force[0]) >= 0.9 * F_rigid

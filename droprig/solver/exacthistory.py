@@ -1,0 +1,542 @@
+"""Time history of a load dropped on one member, phase by phase in closed form: the
+fast integrator of the point histories in the verdict.
+
+The model is that of :mod:`droprig.solver.timehistory` (the Newmark integration kept
+beside it as the plain reference; same modes, residual flexibility, contact and
+output sections): the member's kept Euler–Bernoulli modes (mass-normalised
+coordinates q̃ₙ, circular frequencies ωₙ, Blevins 1979 Table 8-1), the load's mass M
+on a contact spring k = 1/(f_c + f_res), undamped. The struck system is piecewise
+linear, and each phase has an exact solution (Chopra, *Dynamics of Structures* 4th
+ed., §10.2 and §12.1–12.4, modal superposition of an undamped linear system; Clough &
+Penzien 2nd ed. §11-1 and §12-2 — from memory):
+
+* **contact** (elastic spring, force F = k·(u − Σφ̃ₙ(a)q̃ₙ − p), p the permanent set):
+  M·ẍ + K·x = b with x = (u, q̃₁…q̃_N), mass diag(M, 1, …, 1),
+  K = diag(0, ω₁², …) + k·c·cᵀ, c = (1, −φ̃₁(a), …), b = (W, 0, …) + k·p·c.
+  K is positive definite, so with M^(−½)·K·M^(−½) = Ψ·Λ·Ψᵀ (``numpy.linalg.eigh``,
+  batched over points) x(t) = x_s + M^(−½)Ψ·(z₀ cos Ωt + ż₀/Ω sin Ωt), x_s = K⁻¹b,
+  z₀ = Ψᵀ M^(½) (x₀ − x_s), ż₀ = Ψᵀ M^(½) ẋ₀, Ω = √Λ;
+* **crushing** (the contact force held at F_yield while the set grows): the load
+  decelerates uniformly, ü = (W − F_yield)/M, and each mode responds to the constant
+  force φ̃ₙ·F_yield in closed form, q̃ₙ = q̃ₛ + (q̃₀ − q̃ₛ) cos ωₙt + (q̃̇₀/ωₙ) sin ωₙt,
+  q̃ₛ = φ̃ₙF_yield/ωₙ²; it ends when the gap closes no more (elastic unloading, the set
+  fixed) or the set reaches the stroke (then elastic and uncapped);
+* **free** (separated): the load falls freely, ü = g, the modes vibrate freely (the
+  crushing case with zero force); it ends when the gap closes on the set again.
+
+Each phase's response — the contact force, and the deflection, moment and shear at the
+member's sections (the modes plus the static correction per unit contact force, as in
+the reference) — is a constant plus a sum of harmonics (plus a quadratic for the gap).
+It is sampled at ``samples_per_period`` samples per period of the phase's highest
+frequency, the largest sample of each output is refined by a parabola through it and
+its neighbours, and the phase's ends are found by bisection of the closed form
+between the samples that bracket them (to 1e-12 of the sample spacing), so no
+time-step error accumulates: what is left is the modal truncation and the sampling of
+the peaks (``scripts/convergence_point_history.py``). The window and its end are the
+reference's: 1.25 × the longer of the member's fundamental period and the loaded
+period (plus the crushing time), every case to its own end — a load that bounces off
+and lands again inside it is followed through the second landing.
+
+Cost: the samples grow with the modes kept (a stiff contact keeps up to 40, sampled 8
+times a period of the highest over the whole window) and every contact change is a
+round of its own, so a point costs about 1–40 ms (``benchmarks/bench_verify.py``:
+on 100 random members about the Newmark reference's cost, not the ≤ 1 ms aimed at).
+
+Cases are vectorised: points of one end condition and a similar number of kept modes
+run together, each in its own phase, in rounds of a chunk of samples per point. A case
+whose contact chatters more than :data:`MAX_EVENTS` times (a grazing load on a
+vibrating member) is run by the reference instead. SI units: m, N, kg, s.
+"""
+
+from __future__ import annotations
+
+import math
+from typing import cast
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+from droprig.solver import impact, timehistory
+from droprig.solver.beam import EndCondition
+from droprig.solver.timehistory import History, TimeHistoryPeaks
+
+__all__ = ["DEFAULT_SAMPLES_PER_PERIOD", "MAX_EVENTS", "exact_time_history"]
+
+DEFAULT_SAMPLES_PER_PERIOD = 8
+"""Samples per period of a phase's highest frequency (peaks refined by a parabola)."""
+DEFAULT_SECTIONS = 16
+"""Equal intervals of the member at whose ends (and both sides of the load) the
+deflection, moment and shear are followed (the reference follows 64)."""
+MAX_EVENTS = 400
+"""Phase changes per case before the case is handed to the Newmark reference."""
+TAIL = 0.01
+"""Modes not sampled in a free or crushing phase: their amplitudes' sum (the bound on
+their part, added to the peak) is at most TAIL of the family's largest."""
+_BUDGET = 32_768  # samples per round over all active cases (the search for phase ends)
+_CHUNK = 600_000  # outputs × samples evaluated at once (a few MB: kept in cache)
+_BISECT = 22  # bisection steps on a bracket of one sample spacing, then a secant step
+
+_CONTACT, _CRUSH, _FREE = 0, 1, 2
+
+
+def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike,
+                       mu: ArrayLike, a: ArrayLike, M: ArrayLike, h: ArrayLike,
+                       f_c: ArrayLike = 0.0, *, F_yield: ArrayLike = math.inf,
+                       stroke: ArrayLike = math.inf,
+                       n_modes: int = timehistory.DEFAULT_MODES,
+                       cutoff: float = timehistory.DEFAULT_CUTOFF,
+                       samples_per_period: int = DEFAULT_SAMPLES_PER_PERIOD,
+                       duration: float = 1.25, record: bool = False,
+                       sections: int = DEFAULT_SECTIONS,
+                       group: int = 256) -> TimeHistoryPeaks:
+    """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
+    condition ``cond``, one name or one per case; span L m, EI N·m², μ kg/m) at
+    ``a`` (m) through a contact compliance f_c (m/N), with an elastic–perfectly
+    plastic contact (``F_yield`` N > M·g, ∞ elastic; ``stroke`` m); the model, modes
+    kept (``n_modes``, ``cutoff``) and outputs of
+    :func:`droprig.solver.timehistory.time_history`, solved phase by phase in closed
+    form (module docstring). ``record`` keeps the sampled histories (one case).
+    ``dt`` in the result is each case's sample spacing in its last phase (s) and
+    ``steps`` the largest number of samples of a case."""
+    L, EI, mu, a, M, h, f_c, F_y, s_y = (np.atleast_1d(v) for v in np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke))))
+    P = L.size
+    if record and P != 1:
+        raise ValueError("record: histories are kept for one case at a time")
+    if samples_per_period < 4:
+        raise ValueError("samples_per_period: at least 4 samples per period")
+    conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
+    f_s = timehistory._green_aa(conds, L, EI, a)
+    if np.any(f_s + f_c <= 0.0):
+        raise ValueError("a: a point on a rigid support with a rigid contact has no "
+                         "finite impact force; give a contact compliance")
+    g = impact.G
+    W = M * g
+    if np.any(~(F_y > W)) or np.any(~(s_y >= 0.0)):
+        raise ValueError("F_yield: the crushing force must exceed the load's weight "
+                         "(allowed: > M·g, N) and stroke must be ≥ 0 m")
+    if np.any(~np.isfinite(h)) or np.any(h < 0.0):
+        raise ValueError("h: the drop height must be a finite number ≥ 0 m")
+    v0 = np.sqrt(2.0 * g * h)
+    out = {k: np.zeros(P) for k in ("force", "moment", "shear", "deflection",
+                                    "t_separation", "dt", "crush")}
+    modes = np.zeros(P, int)
+    steps = 0
+    history: History | None = None
+    fallback: list[np.ndarray] = []
+    for cnd in dict.fromkeys(conds.tolist()):
+        ic = np.flatnonzero(conds == cnd)
+        su = timehistory._setup(cast(EndCondition, cnd), L[ic], EI[ic], mu[ic], a[ic],
+                                M[ic], f_c[ic], f_s[ic], n_modes, cutoff, sections)
+        kept = su["kept"].sum(axis=1)
+        # the window of the reference (timehistory.time_history)
+        T_sys = 2.0 * math.pi * np.sqrt((M[ic] + np.minimum(su["m_e"], mu[ic] * L[ic]))
+                                        * (f_s[ic] + f_c[ic]))
+        with np.errstate(divide="ignore", invalid="ignore"):
+            t_crush = np.where(np.isfinite(F_y[ic]), M[ic] * v0[ic] / (F_y[ic] - W[ic]),
+                               0.0)
+        t_end = duration * (np.maximum(su["T1"], T_sys) + t_crush)
+        order = np.argsort(kept, kind="stable")
+        g0 = 0
+        while g0 < order.size:
+            n0 = int(kept[order[g0]])
+            e = g0 + 1
+            while (e < order.size and e - g0 < group
+                   and kept[order[e]] <= max(int(1.5 * n0), n0 + 2)):
+                e += 1
+            sel = order[g0:e]
+            g0 = e
+            N = int(kept[sel].max())
+            part = {key: su[key][sel] for key in ("omega", "pt", "Wd", "Wm", "Wv")}
+            run = _run(M=M[ic][sel], W=W[ic][sel], k=su["k"][sel], v0=v0[ic][sel],
+                       omega=part["omega"][:, :N], pt=part["pt"][:, :N],
+                       Wsec=np.concatenate([part["Wd"][:, :N], part["Wm"][:, :N],
+                                            part["Wv"][:, :N]], axis=2),
+                       Rsec=np.concatenate([su["Rd"][sel], su["Rm"][sel], su["Rv"][sel]],
+                                           axis=1),
+                       n_sec=su["Rd"].shape[1], F_y=F_y[ic][sel], s_y=s_y[ic][sel],
+                       t_end=t_end[sel], T1=su["T1"][sel], sp=samples_per_period,
+                       record=record)
+            idx = ic[sel]
+            for key in out:
+                out[key][idx] = run[key]
+            modes[idx] = kept[sel]
+            steps = max(steps, int(run["samples"].max()))
+            if run["history"] is not None:
+                history = run["history"]
+            if np.any(run["chatter"]):
+                fallback.append(idx[run["chatter"]])
+    if fallback:
+        fb = np.concatenate(fallback)
+        ref = timehistory.time_history_batched(conds[fb], L[fb], EI[fb], mu[fb], a[fb],
+                                               M[fb], h[fb], f_c[fb], F_yield=F_y[fb],
+                                               stroke=s_y[fb], n_modes=n_modes,
+                                               cutoff=cutoff)
+        for key in out:
+            out[key][fb] = getattr(ref, key)
+    return TimeHistoryPeaks(force=out["force"], moment=out["moment"], shear=out["shear"],
+                            deflection=out["deflection"], t_separation=out["t_separation"],
+                            modes=modes, dt=out["dt"], steps=steps, history=history,
+                            crush=out["crush"])
+
+
+class _Phase:
+    """Closed-form solution of every case's current phase (arrays, cases first):
+    x(τ) = s + l·τ + w·τ² + V·(A cos Ωτ + B sin Ωτ); the outputs (contact force, then
+    the sections' deflection, moment and shear);
+    the gap c·x(τ) = g0 + g1·τ + g2·τ² + Σ(ga cos Ωτ + gb sin Ωτ); the outputs
+    y(τ) = yc + (A cos Ωτ + B sin Ωτ)·CV (CV: the outputs per unit harmonic)."""
+
+    def __init__(self, P: int, n1: int, Q: int) -> None:
+        self.Om = np.ones((P, n1))
+        self.V = np.zeros((P, n1, n1))
+        self.A = np.zeros((P, n1))
+        self.B = np.zeros((P, n1))
+        self.As = np.zeros((P, n1))  # the harmonics sampled (the rest bounded by tail)
+        self.Bs = np.zeros((P, n1))
+        self.tail = np.zeros((P, Q))
+        self.s = np.zeros((P, n1))
+        self.l_u = np.zeros(P)  # only the load moves with l and w
+        self.w_u = np.zeros(P)
+        self.yc = np.zeros((P, Q))
+        self.CV = np.zeros((P, Q, n1))
+        self.ga = np.zeros((P, n1))
+        self.gb = np.zeros((P, n1))
+        self.g0 = np.zeros(P)
+        self.dt = np.zeros(P)
+
+
+def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: np.ndarray,
+         pt: np.ndarray, Wsec: np.ndarray, Rsec: np.ndarray, n_sec: int, F_y: np.ndarray,
+         s_y: np.ndarray, t_end: np.ndarray, T1: np.ndarray, sp: int,
+         record: bool) -> dict:
+    """Cases of one end condition with N kept modes (a prefix of ``omega``; modes not
+    kept have φ̃ = 0 and stay at rest): peaks by phases (see :func:`exact_time_history`).
+    ``Wsec`` (P, N, 3S) the sections' deflection, moment and shear per unit q̃ₙ,
+    ``Rsec`` (P, 3S) their static correction per unit contact force."""
+    P, N = pt.shape
+    n1 = N + 1
+    Q = 1 + Rsec.shape[1]
+    om = np.where(omega > 0.0, omega, 1.0)
+    c = np.concatenate([np.ones((P, 1)), -pt], axis=1)  # gap = c·x
+    base = np.zeros((P, Q, n1))  # outputs per unit state: sections' modal part
+    base[:, 1:, 1:] = np.transpose(Wsec, (0, 2, 1))
+    R = np.concatenate([np.ones((P, 1)), Rsec], axis=1)  # outputs per unit contact force
+    mass = np.concatenate([M[:, None], np.ones((P, N))], axis=1)
+    msq = np.sqrt(mass)
+    Kbase = np.zeros((P, n1, n1))
+    Kbase[:, np.arange(1, n1), np.arange(1, n1)] = om**2
+    Kc = Kbase + k[:, None, None] * c[:, :, None] * c[:, None, :]
+    Ks = Kc / (msq[:, :, None] * msq[:, None, :])
+    lam_c, psi_c = np.linalg.eigh(Ks)  # the contact phase's modes do not depend on p
+    lam_c = np.maximum(lam_c, 1e-300)
+    V_c = psi_c / msq[:, :, None]  # M^(-1/2)·Ψ
+    Om_c = np.sqrt(lam_c)
+    cV_c = np.einsum("pi,pij->pj", c, V_c)
+    RcV_c = R[:, :, None] * (k[:, None] * cV_c)[:, None, :]
+    CV_c = base @ V_c + RcV_c  # (P, Q, n1)
+
+    x = np.zeros((P, n1))
+    xd = np.zeros((P, n1))
+    xd[:, 0] = v0
+    p = np.zeros(P)
+    cap = F_y.copy()
+    kind = np.full(P, _CONTACT)
+    t0 = np.zeros(P)
+    tau = np.zeros(P)
+    t_sep = np.full(P, np.nan)
+    active = np.ones(P, bool)
+    events = np.zeros(P, int)
+    expect = np.full((P, 3), 64.0)  # samples a phase of each kind took last (search)
+    samples = np.zeros(P, int)
+    chatter = np.zeros(P, bool)
+    pk = np.zeros((P, 4))  # force, deflection, moment, shear
+    ph = _Phase(P, n1, Q)
+    rec: dict[str, list[np.ndarray]] = {key: [] for key in ("t", "F", "D", "M", "V", "U")}
+    S = n_sec
+    sl = {"D": slice(1, 1 + S), "M": slice(1 + S, 1 + 2 * S), "V": slice(1 + 2 * S, 1 + 3 * S)}
+
+    def set_phase(idx: np.ndarray) -> None:
+        """The closed form of each case's phase from its state at the phase's start."""
+        if idx.size == 0:
+            return
+        kd = kind[idx]
+        e = idx[kd == _CONTACT]
+        if e.size:
+            Ve, lam = V_c[e], lam_c[e]
+            b = np.zeros((e.size, n1))
+            b[:, 0] = W[e]
+            b += (k[e] * p[e])[:, None] * c[e]
+            # x_s = K⁻¹ b = V Λ⁻¹ Vᵀ b
+            xs = np.einsum("pij,pj->pi", Ve, np.einsum("pji,pj->pi", Ve, b) / lam)
+            z0 = np.einsum("pji,pj->pi", Ve, mass[e] * (x[e] - xs))
+            zd0 = np.einsum("pji,pj->pi", Ve, mass[e] * xd[e])
+            ph.Om[e], ph.V[e], ph.s[e] = Om_c[e], Ve, xs
+            ph.A[e], ph.B[e] = z0, zd0 / Om_c[e]
+            ph.As[e], ph.Bs[e] = z0, zd0 / Om_c[e]
+            ph.tail[e] = 0.0
+            ph.l_u[e] = 0.0
+            ph.w_u[e] = 0.0
+            Fs = k[e] * (np.einsum("pi,pi->p", c[e], xs) - p[e])
+            ph.yc[e] = np.einsum("pqi,pi->pq", base[e], xs) + R[e] * Fs[:, None]
+            ph.CV[e] = CV_c[e]  # (p, Q, J)
+            ph.g0[e] = np.einsum("pi,pi->p", c[e], xs)
+            ph.ga[e] = cV_c[e] * z0
+            ph.gb[e] = cV_c[e] * zd0 / Om_c[e]
+            ph.dt[e] = 2.0 * math.pi / (sp * Om_c[e].max(axis=1))
+        f = idx[kd != _CONTACT]
+        if f.size:
+            Fc = np.where(kind[f] == _CRUSH, cap[f], 0.0)
+            ptf, omf = pt[f], om[f]
+            qs = ptf * Fc[:, None] / omf**2
+            Am = x[f, 1:] - qs
+            Bm = xd[f, 1:] / omf
+            Om = np.ones((f.size, n1))
+            Om[:, :N] = omf
+            A = np.zeros((f.size, n1))
+            B = np.zeros((f.size, n1))
+            A[:, :N], B[:, :N] = Am, Bm
+            V = np.zeros((f.size, n1, n1))
+            V[:, np.arange(1, n1), np.arange(N)] = 1.0
+            s = np.concatenate([x[f, :1], qs], axis=1)
+            ph.Om[f], ph.V[f], ph.s[f], ph.A[f], ph.B[f] = Om, V, s, A, B
+            ph.l_u[f] = xd[f, 0]
+            ph.w_u[f] = 0.5 * (W[f] - Fc) / M[f]
+            Wt = np.zeros((f.size, Q, n1))
+            Wt[:, :, :N] = base[f][:, :, 1:]
+            ph.yc[f] = np.einsum("pqn,pn->pq", base[f][:, :, 1:], qs) + R[f] * Fc[:, None]
+            ph.CV[f] = Wt
+            ph.g0[f] = x[f, 0] - np.einsum("pn,pn->p", ptf, qs)
+            ph.ga[f] = np.concatenate([-ptf * Am, np.zeros((f.size, 1))], axis=1)
+            ph.gb[f] = np.concatenate([-ptf * Bm, np.zeros((f.size, 1))], axis=1)
+            # the modes whose free vibration is small are not sampled: their part of
+            # each output is bounded by the sum of their amplitudes (added to the
+            # sampled peak), where that sum is at most TAIL of the family's largest
+            amp = np.abs(Wt) * np.hypot(A, B)[:, None, :]  # (f, Q, J)
+            tail = np.cumsum(amp[:, :, ::-1], axis=2)[:, :, ::-1]
+            tail = np.concatenate([tail, np.zeros((f.size, Q, 1))], axis=2)  # from j
+            tot = tail[:, :, 0]
+            thr = np.zeros((f.size, Q))
+            for fam in ("D", "M", "V"):
+                thr[:, sl[fam]] = TAIL * tot[:, sl[fam]].max(axis=1, keepdims=True)
+            gamp = np.abs(ptf) * np.hypot(Am, Bm)
+            gtail = np.cumsum(gamp[:, ::-1], axis=1)[:, ::-1]
+            gtail = np.concatenate([gtail, np.zeros((f.size, 2))], axis=1)
+            ok = (np.all(tail <= thr[:, :, None] * (1.0 + 1e-12), axis=1)
+                  & (gtail <= TAIL * gtail[:, :1]))
+            m = np.argmax(ok, axis=1)  # harmonics sampled
+            keep = np.arange(n1)[None, :] < m[:, None]
+            ph.As[f], ph.Bs[f] = np.where(keep, A, 0.0), np.where(keep, B, 0.0)
+            ph.tail[f] = np.take_along_axis(tail, m[:, None, None], axis=2)[:, :, 0]
+            om_s = np.max(np.where(keep, Om, 0.0), axis=1)
+            ph.dt[f] = 2.0 * math.pi / (sp * np.maximum(om_s, 1e-30))
+            # a phase with no kept mode: sample by the window instead
+            none = om_s <= 0.0
+            ph.dt[f[none]] = t_end[f[none]] / 64.0
+
+    def gap(idx: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """Gap c·x and its rate at phase times ``t`` (cases idx; t (n,) or (n, G))."""
+        tt = t if t.ndim == 2 else t[:, None]
+        arg = ph.Om[idx][:, None, :] * tt[:, :, None]
+        cs, sn = np.cos(arg), np.sin(arg)
+        ga, gb, Om = ph.ga[idx][:, None, :], ph.gb[idx][:, None, :], ph.Om[idx][:, None, :]
+        l_u, w_u = ph.l_u[idx][:, None], ph.w_u[idx][:, None]
+        gv = ph.g0[idx][:, None] + l_u * tt + w_u * tt**2 + np.sum(ga * cs + gb * sn, axis=2)
+        gd = l_u + 2.0 * w_u * tt + np.sum((gb * cs - ga * sn) * Om, axis=2)
+        return (gv, gd) if t.ndim == 2 else (gv[:, 0], gd[:, 0])
+
+    def event_fn(idx: np.ndarray, which: np.ndarray, t: np.ndarray) -> np.ndarray:
+        """The ending function of each case's phase at phase times t (> 0 once the
+        phase has ended): 0 separation, 1 yield, 2 unloading, 3 stroke, 4 contact."""
+        gv, gd = gap(idx, t)
+        F = k[idx] * (gv - p[idx])
+        return np.select([which == 0, which == 1, which == 2, which == 3],
+                         [-F, F - cap[idx], -gd, gv - cap[idx] / k[idx] - p[idx]],
+                         gv - p[idx])
+
+    def outputs(idx: np.ndarray, t: np.ndarray) -> np.ndarray:
+        """The outputs at phase times t (cases idx; t (n,)) → (n, Q)."""
+        arg = ph.Om[idx] * t[:, None]
+        z = ph.A[idx] * np.cos(arg) + ph.B[idx] * np.sin(arg)
+        return ph.yc[idx] + np.einsum("pj,pqj->pq", z, ph.CV[idx])
+
+    def state(idx: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """x and ẋ at phase times t (cases idx)."""
+        arg = ph.Om[idx] * t[:, None]
+        cs, sn = np.cos(arg), np.sin(arg)
+        A, B, Om = ph.A[idx], ph.B[idx], ph.Om[idx]
+        xv = ph.s[idx] + np.einsum("pij,pj->pi", ph.V[idx], A * cs + B * sn)
+        xdv = np.einsum("pij,pj->pi", ph.V[idx], (B * cs - A * sn) * Om)
+        xv[:, 0] += ph.l_u[idx] * t + ph.w_u[idx] * t**2
+        xdv[:, 0] += ph.l_u[idx] + 2.0 * ph.w_u[idx] * t
+        return xv, xdv
+
+    def fold(idx: np.ndarray, Y: np.ndarray) -> None:
+        """Fold outputs (n, Q) into the peaks."""
+        pk[idx, 0] = np.maximum(pk[idx, 0], Y[:, 0])
+        for j, key in enumerate(("D", "M", "V"), start=1):
+            pk[idx, j] = np.maximum(pk[idx, j], np.abs(Y[:, sl[key]]).max(axis=1))
+
+    set_phase(np.arange(P))
+    while active.any():
+        idx = np.flatnonzero(active)
+        G = int(np.clip(2.0 * expect[idx, kind[idx]].max(), 16,
+                        max(16, min(4096, _BUDGET // idx.size))))
+        gg = np.arange(G, dtype=float)
+        dt = ph.dt[idx]
+        ts = tau[idx][:, None] + dt[:, None] * gg[None, :]  # (n, G) phase times
+        arg = ph.Om[idx][:, None, :] * ts[:, :, None]
+        cs, sn = np.cos(arg), np.sin(arg)
+        Om, ga, gb = ph.Om[idx][:, None, :], ph.ga[idx][:, None, :], ph.gb[idx][:, None, :]
+        l_u, w_u = ph.l_u[idx][:, None], ph.w_u[idx][:, None]
+        gv = ph.g0[idx][:, None] + l_u * ts + w_u * ts**2 + np.sum(ga * cs + gb * sn, axis=2)
+        gd = l_u + 2.0 * w_u * ts + np.sum((gb * cs - ga * sn) * Om, axis=2)
+        kd = kind[idx][:, None]
+        Fv = k[idx][:, None] * (gv - p[idx][:, None])
+        capi = cap[idx][:, None]
+        tol = 1e-9 * np.maximum(capi, W[idx][:, None])
+        which = np.full(ts.shape, -1)
+        cont = kd == _CONTACT
+        which = np.where(cont & (Fv < -1e-12 * W[idx][:, None]), 0, which)
+        which = np.where(cont & (which < 0) & (Fv > capi + tol), 1, which)
+        cr = kd == _CRUSH
+        p_now = gv - capi / k[idx][:, None]
+        which = np.where(cr & (gd < 0.0), 2, which)
+        which = np.where(cr & (which < 0) & (p_now >= s_y[idx][:, None]), 3, which)
+        which = np.where((kd == _FREE) & (gv - p[idx][:, None] > 0.0), 4, which)
+        which[:, 0] = -1
+        hit = which >= 0
+        i_ev = np.where(hit.any(axis=1), np.argmax(hit, axis=1), G)
+        # the window's end
+        t_stop = np.maximum(t_end[idx] - t0[idx], tau[idx])
+        # the event's time by bisection of the closed form within its bracket
+        has = i_ev < G
+        t_cut = np.where(has, np.inf, ts[:, -1])
+        ev_which = np.full(idx.size, -1)
+        if has.any():
+            r = np.flatnonzero(has)
+            ii = idx[r]
+            wh = which[r, i_ev[r]]
+            lo = ts[r, i_ev[r] - 1]
+            hi = ts[r, i_ev[r]]
+            for _ in range(_BISECT):
+                mid = 0.5 * (lo + hi)
+                up = event_fn(ii, wh, mid) > 0.0
+                hi = np.where(up, mid, hi)
+                lo = np.where(up, lo, mid)
+            f_lo, f_hi = event_fn(ii, wh, lo), event_fn(ii, wh, hi)
+            with np.errstate(divide="ignore", invalid="ignore"):
+                sec = lo + (hi - lo) * (-f_lo) / (f_hi - f_lo)
+            t_cut[r] = np.where((f_lo <= 0.0) & (f_hi > f_lo) & np.isfinite(sec),
+                                np.clip(sec, lo, hi), hi)
+            ev_which[r] = wh
+        stop = t_stop <= t_cut
+        t_cut = np.minimum(t_cut, t_stop)
+        ev_which = np.where(stop, -1, ev_which)
+        nvalid = np.sum(ts <= t_cut[:, None], axis=1)
+        samples[idx] += nvalid
+        # the outputs at the valid samples, in buckets of similar length (powers of
+        # two), each peak refined by a parabola through the largest and its neighbours
+        z = ph.As[idx][:, None, :] * cs + ph.Bs[idx][:, None, :] * sn  # (n, G, J)
+        bucket = np.ceil(np.log2(np.maximum(nvalid, 1))).astype(int)
+        for bk in np.unique(bucket):
+            rb = np.flatnonzero(bucket == bk)
+            Gb = min(1 << int(bk), G)
+            step = max(1, _CHUNK // (Q * Gb))
+            for c0 in range(0, rb.size, step):
+                r = rb[c0:c0 + step]
+                ii = idx[r]
+                nv = nvalid[r]
+                # samples past the cut repeat the last valid one (no effect on a peak)
+                gi = np.minimum(np.arange(Gb)[None, :], np.maximum(nv - 1, 0)[:, None])
+                zb = np.take_along_axis(z[r], gi[:, :, None], axis=1)
+                zb = np.concatenate([zb, np.ones((r.size, Gb, 1))], axis=2)
+                CVb = np.concatenate([ph.CV[ii], ph.yc[ii][:, :, None]], axis=2)
+                Y = np.einsum("mqj,mgj->mqg", CVb, zb, optimize=True)  # (m, Q, Gb)
+                Fr = Y[:, 0, :].copy()
+                if record:
+                    Yr = Y[0].copy()
+                Ya = np.abs(Y, out=Y)
+                Ya[:, 0, :] = Fr
+                im = np.argmax(Ya, axis=2)  # (m, Q)
+                best = np.take_along_axis(Ya, im[:, :, None], axis=2)[:, :, 0]
+                inner = (im >= 1) & (im <= nv[:, None] - 2)
+                ym1 = np.take_along_axis(Ya, np.maximum(im - 1, 0)[:, :, None],
+                                         axis=2)[:, :, 0]
+                yp1 = np.take_along_axis(Ya, np.minimum(im + 1, Gb - 1)[:, :, None],
+                                         axis=2)[:, :, 0]
+                with np.errstate(invalid="ignore"):
+                    den = 2.0 * best - ym1 - yp1
+                    bump = np.where(inner & (den > 0.0),
+                                    (yp1 - ym1) ** 2 / (8.0 * np.where(den > 0.0, den, 1.0)),
+                                    0.0)
+                    bump = np.where(inner, np.minimum(bump, np.abs(yp1 - ym1)), 0.0)
+                fold(ii, best + bump + ph.tail[ii])
+                if record:
+                    m = nv[0]
+                    rec["t"].append(t0[ii[0]] + ts[r[0], :m])
+                    rec["F"].append(Yr[0, :m])
+                    rec["D"].append(Yr[S - 1, :m])  # just left of the struck point
+                    rec["M"].append(np.abs(Yr[sl["M"], :m]).max(axis=0))
+                    rec["V"].append(np.abs(Yr[sl["V"], :m]).max(axis=0))
+                    rec["U"].append(state(np.repeat(ii[:1], m), ts[r[0], :m])[0][:, 0])
+        # the outputs at the cut (an event, the window's end) exactly
+        Ycut = outputs(idx, t_cut)
+        fold(idx, Ycut)
+        if record:
+            rec["t"].append(t0[idx[:1]] + t_cut[:1])
+            rec["F"].append(Ycut[:1, 0])
+            rec["D"].append(Ycut[:1, S - 1])
+            rec["M"].append(np.abs(Ycut[:1, sl["M"]]).max(axis=1))
+            rec["V"].append(np.abs(Ycut[:1, sl["V"]]).max(axis=1))
+            rec["U"].append(state(idx[:1], t_cut[:1])[0][:, 0])
+        # advance
+        go_on = ~stop & (ev_which < 0)
+        ki = kind[idx]
+        expect[idx, ki] = np.where(go_on, 2.0 * expect[idx, ki],
+                                   np.maximum(nvalid + (tau[idx] - 0.0) / dt, 8.0))
+        tau[idx[go_on]] = ts[go_on, -1]
+        active[idx[stop]] = False
+        ch = ev_which >= 0
+        if ch.any():
+            r = np.flatnonzero(ch)
+            ii = idx[r]
+            xv, xdv = state(ii, t_cut[r])
+            x[ii], xd[ii] = xv, xdv
+            t0[ii] += t_cut[r]
+            tau[ii] = 0.0
+            wh = ev_which[r]
+            events[ii] += 1
+            first = (wh == 0) & np.isnan(t_sep[ii])
+            t_sep[ii[first]] = t0[ii[first]]
+            # new phases: separation → free; yield → crushing (or contact
+            # uncapped once the set has reached the stroke); unloading → contact with
+            # the set fixed; stroke → contact uncapped; contact → contact
+            gcur = np.einsum("pi,pi->p", c[ii], xv)
+            new = np.select([wh == 0, wh == 1, wh == 4], [_FREE, _CRUSH, _CONTACT], _CONTACT)
+            at_stroke = (wh == 1) & (p[ii] >= s_y[ii])
+            new = np.where(at_stroke, _CONTACT, new)
+            cap[ii[at_stroke]] = np.inf
+            unl = wh == 2
+            p[ii[unl]] = gcur[unl] - cap[ii[unl]] / k[ii[unl]]
+            stk = wh == 3
+            p[ii[stk]] = s_y[ii[stk]]
+            cap[ii[stk]] = np.inf
+            kind[ii] = new
+            over = events[ii] > MAX_EVENTS
+            chatter[ii[over]] = True
+            active[ii[over]] = False
+            set_phase(ii[~over])
+    crush = np.where(np.isfinite(F_y) & (kind == _CRUSH),
+                     np.einsum("pi,pi->p", c, x) - cap / k, p)
+    history = None
+    if record:
+        t = np.concatenate(rec["t"])
+        history = History(t=t, contact_force=np.concatenate(rec["F"]),
+                          deflection=np.concatenate(rec["D"]),
+                          moment=np.concatenate(rec["M"]), shear=np.concatenate(rec["V"]),
+                          load_displacement=np.concatenate(rec["U"]) if rec["U"]
+                          else np.zeros_like(t))
+    return {"force": pk[:, 0], "deflection": pk[:, 1], "moment": pk[:, 2], "shear": pk[:, 3],
+            "t_separation": t_sep, "dt": ph.dt.copy(), "crush": np.maximum(crush, 0.0),
+            "samples": samples, "chatter": chatter, "history": history, "events": events}
