@@ -11,7 +11,7 @@ SI units (N, N·m, m)."""
 from __future__ import annotations
 
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import TYPE_CHECKING
 
 import numpy as np
@@ -35,7 +35,9 @@ class UnitActions:
     member that sets it ``rp_member``, its hinge arm ``rp_arm`` (m) and end
     condition ``rp_cond``; the least force that takes a member unable to form a
     hinge to its flexural resistance ``nh_fa`` (N, ∞ none) and that member
-    ``nh_member`` (-1 none)."""
+    ``nh_member`` (-1 none). ``derived``: further load-independent check families
+    built from these by the chain (the end connections from ``shear``), kept by
+    name and taken, tiled and joined along with them."""
 
     flexure: Family
     shear: Family
@@ -45,17 +47,28 @@ class UnitActions:
     rp_cond: np.ndarray
     nh_fa: np.ndarray
     nh_member: np.ndarray
+    derived: dict[str, Family] = field(default_factory=dict, compare=False, repr=False)
+
+    def family(self, name: str, build: Callable[[], Family]) -> Family:
+        """The derived family ``name``: ``build()`` the first time it is asked for,
+        then kept (it depends on the points, not on the load)."""
+        fam = self.derived.get(name)
+        if fam is None:
+            fam = self.derived[name] = build()
+        return fam
 
     def tiled(self, k: int) -> UnitActions:
         """These actions repeated ``k`` times along the points (one copy per load)."""
         return UnitActions(self.flexure.tiled(k), self.shear.tiled(k),
-                           *(np.tile(getattr(self, f), k) for f in _PER_POINT))
+                           *(np.tile(getattr(self, f), k) for f in _PER_POINT),
+                           derived={n: f.tiled(k) for n, f in self.derived.items()})
 
     def take(self, idx: np.ndarray) -> UnitActions:
         """These actions at the points ``idx`` only (the same values as the actions
         computed at those points: every quantity is per point)."""
         return UnitActions(self.flexure.take(idx), self.shear.take(idx),
-                           *(getattr(self, f)[idx] for f in _PER_POINT))
+                           *(getattr(self, f)[idx] for f in _PER_POINT),
+                           derived={n: f.take(idx) for n, f in self.derived.items()})
 
     @staticmethod
     def concat(parts: Sequence[UnitActions]) -> UnitActions | None:
@@ -65,8 +78,14 @@ class UnitActions:
         shear = Family.concat([p.shear for p in parts])
         if flex is None or shear is None:
             return None
+        derived = {}
+        for name in parts[0].derived:
+            if all(name in p.derived for p in parts):
+                fam = Family.concat([p.derived[name] for p in parts])
+                if fam is not None:
+                    derived[name] = fam
         return UnitActions(flex, shear, *(np.concatenate([getattr(p, f) for p in parts])
-                                          for f in _PER_POINT))
+                                          for f in _PER_POINT), derived=derived)
 
 
 _PER_POINT = ("R_p", "rp_member", "rp_arm", "rp_cond", "nh_fa", "nh_member")
@@ -409,22 +428,15 @@ def web_resistances(fm: FloorModel, fns: Sequence[Callable[..., np.ndarray]],
 
 def _distinct(b: np.ndarray, limit: int = 16) -> tuple[np.ndarray, np.ndarray]:
     """``np.unique(b, return_inverse=True)`` for a 1-D array holding few distinct
-    values (a bearing length per load and mat thickness): the values are found in
-    ascending order by repeated masked minima instead of a sort of every point."""
-    if b.size == 0:
+    values (a bearing length per load and mat thickness): the distinct values of a
+    sample of ``b`` (every k-th value), each value of ``b`` looked up among them by
+    bisection and the lookup verified exactly; where a value is missing from the
+    sample (or there are more than ``limit``), ``np.unique`` of every point."""
+    if b.size == 0 or np.isnan(b).any():
         return np.unique(b, return_inverse=True)
-    v = b.min()
-    vals = [v]
-    while np.isfinite(v):
-        v = np.min(b, where=b > v, initial=np.inf)
-        if not np.isfinite(v):
-            break
-        vals.append(v)
-        if len(vals) > limit:
-            break
-    u = np.array(vals)
-    if len(vals) > limit or not np.isfinite(u[-1]) or b.max() > u[-1]:
-        return np.unique(b, return_inverse=True)
-    return u, np.searchsorted(u, b)
-
-
+    u = np.unique(b[::max(1, b.size // 64)])
+    if u.size <= limit:
+        inv = np.minimum(np.searchsorted(u, b), u.size - 1)
+        if np.array_equal(u[inv], b):
+            return u, inv
+    return np.unique(b, return_inverse=True)

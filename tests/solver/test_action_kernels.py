@@ -155,6 +155,41 @@ def test_web_resistances_equal_the_clauses(floor) -> None:
     assert _close(Rwy, ry) and _close(Rwc, rc)
 
 
+def test_web_resistances_with_few_bearing_lengths(floor) -> None:
+    """A bearing length per load and mat thickness (a few distinct values, one of them
+    at a single point, which a sample of the points can miss): the table per
+    (section, bearing) gives the clauses' values at every point."""
+    fm, geo, rng = floor
+    n = geo.x.size
+    lb = rng.choice([0.1, 0.25, 0.4], n)
+    lb[n // 2 + 1] = 0.33  # at one point only
+    mem, a = geo.path.members.T, geo.path.a.T
+    dist = np.maximum(np.minimum(a, fm.frame.L[mem] - a) - 0.5 * lb, 0.0)
+    from droprig.solver import capacity
+
+    Rwy, Rwc = web_resistances(fm, (capacity.web_local_yielding, capacity.web_crippling),
+                               mem, np.broadcast_to(lb, mem.shape), dist)
+    ry, rc = web_reference(fm, geo.path, lb)
+    assert _close(Rwy, ry) and _close(Rwc, rc)
+
+
+def test_distinct_values_equal_numpy_unique() -> None:
+    """The few-distinct-values lookup of the web tables equals ``np.unique`` with its
+    inverse (values, and each point's index), with values the sample misses, NaN and
+    many distinct values (invented arrays)."""
+    from droprig.solver.unit_actions import _distinct
+
+    rng = np.random.default_rng(3)
+    cases = [rng.choice([0.2, 0.5, 0.7], 5000), np.r_[np.full(3000, 0.3), 0.9],
+             rng.uniform(0.0, 1.0, 300), np.r_[rng.choice([0.1, 0.2], 100), np.nan],
+             np.zeros(0), np.full(7, 0.25)]
+    for b in cases:
+        u, inv = _distinct(b)
+        ue, inve = np.unique(b, return_inverse=True)
+        assert np.array_equal(u, ue, equal_nan=True)
+        assert np.array_equal(np.asarray(inv).ravel(), np.asarray(inve).ravel())
+
+
 @pytest.mark.parametrize("seed", [1, 2, 3])
 def test_check_family_kernels_equal_the_linear_check(seed: int) -> None:
     """Family and small_check against U = |F·u + E|/R, F_allow = (R − sign(u)E)/|u|,
