@@ -153,6 +153,8 @@ class _PathView:
     supm: np.ndarray
     members: np.ndarray
     cols: np.ndarray
+    R0: np.ndarray
+    RL: np.ndarray
 
 
 def _path_view(fm: FloorModel, tb: CandidateTables, geo: Geometry) -> _PathView:
@@ -162,10 +164,24 @@ def _path_view(fm: FloorModel, tb: CandidateTables, geo: Geometry) -> _PathView:
     memT = np.ascontiguousarray(path.members.T)  # (2, n)
     pair = np.maximum(path.pair, 0)
     supm = np.take(tb.member, pair, axis=1) if tb.P else np.zeros((0, n), dtype=np.int64)
+    aT, LT, condT = np.ascontiguousarray(path.a.T), fr.L[memT], fr.cond[memT]
+    R0, RL = by_condition(beam.unit_reactions, condT, LT, aT)
     return _PathView(n=n, memT=memT, shareT=np.ascontiguousarray(path.share.T),
-                     aT=np.ascontiguousarray(path.a.T), LT=fr.L[memT], condT=fr.cond[memT],
+                     aT=aT, LT=LT, condT=condT,
                      pair=pair, rT=np.ascontiguousarray(path.r.T), supm=supm,
-                     members=np.concatenate([memT, supm]), cols=np.arange(n))
+                     members=np.concatenate([memT, supm]), cols=np.arange(n), R0=R0, RL=RL)
+
+
+def _udl_ends(fm: FloorModel) -> tuple[np.ndarray, np.ndarray]:
+    """Left reaction (N) and left end moment (N·m) of every member under its existing
+    UDL (AISC Manual Table 3-23), kept on the prepared floor."""
+    got = fm._memo.get("udl_ends")
+    if got is None:
+        fr = fm.frame
+        r_w, _ = by_condition(beam.udl_reactions, fr.cond, fr.L, fm.w0)
+        m_w, _ = by_condition(beam.udl_end_moments, fr.cond, fr.L, fm.w0)
+        got = fm._memo["udl_ends"] = (np.asarray(r_w, float), np.asarray(m_w, float))
+    return got
 
 
 def _flexure(fm: FloorModel, tb: CandidateTables, pv: _PathView,
@@ -176,8 +192,10 @@ def _flexure(fm: FloorModel, tb: CandidateTables, pv: _PathView,
     fr = fm.frame
     n, memT, aT, LT, condT, pair = pv.n, pv.memT, pv.aT, pv.LT, pv.condT, pv.pair
     P = tb.P
+    r_w, m_w = _udl_ends(fm)
     x_pk = peak_station(condT, LT, aT, fm.w0[memT], fm.Mr[memT], pv.shareT,
-                        _carries_others(fm)[memT])
+                        _carries_others(fm)[memT], r_u=pv.R0, r_w=r_w[memT],
+                        m_w=m_w[memT])
     xs = _loaded_stations(aT[:, None, :], LT[:, None, :], bool(np.any(fr.cond != 0)),
                           x_pk[:, None, :])
     S_l = xs.shape[1]
@@ -216,7 +234,7 @@ def _shear(fm: FloorModel, tb: CandidateTables, pv: _PathView) -> Family:
     """Shear candidates: deck member ends (rows m0·R0, m1·R0, m0·RL, m1·RL), then
     the two ends of each support member."""
     n, memT, shareT, pair, P = pv.n, pv.memT, pv.shareT, pv.pair, tb.P
-    R0, RL = by_condition(beam.unit_reactions, pv.condT, pv.LT, pv.aT)
+    R0, RL = pv.R0, pv.RL
     Vd = fm.Vr[memT]
     C = 4 + 2 * P
     vt = np.empty((C, n))
@@ -365,7 +383,9 @@ _S_PLAIN = 6
 
 
 def peak_station(cond: np.ndarray, L: np.ndarray, a: np.ndarray, w: np.ndarray,
-                 Mr: np.ndarray, share: np.ndarray, carries: np.ndarray) -> np.ndarray:
+                 Mr: np.ndarray, share: np.ndarray, carries: np.ndarray, *,
+                 r_u: np.ndarray | None = None, r_w: np.ndarray | None = None,
+                 m_w: np.ndarray | None = None) -> np.ndarray:
     """Where the sagging moment of a deck member peaks at the point load that just
     takes it to its flexural resistance, m: the station at which the linear check
     (demand = F·u(x) + E(x)) allows exactly the force of the exact peak, so that the
@@ -385,12 +405,16 @@ def peak_station(cond: np.ndarray, L: np.ndarray, a: np.ndarray, w: np.ndarray,
     where no side qualifies, where w ≤ 0, on a cantilever (hogging, its peak at the
     root) and on members that carry others (their existing moment is not a
     parabola; the other stations stand). ``share``: the member's share of the
-    force (only its sign is used: a member without a share keeps a). Arrays broadcast;
-    SI units (m, N/m, N·m)."""
-    r_u, _ = by_condition(beam.unit_reactions, cond, L, a)
+    force (only its sign is used: a member without a share keeps a). ``r_u``, ``r_w``,
+    ``m_w``: R0u, R0w, M0w where already known. Arrays broadcast; SI units (m, N/m,
+    N·m)."""
+    if r_u is None:
+        r_u, _ = by_condition(beam.unit_reactions, cond, L, a)
     m_u, _ = by_condition(beam.unit_end_moments, cond, L, a)
-    r_w, _ = by_condition(beam.udl_reactions, cond, L, w)
-    m_w, _ = by_condition(beam.udl_end_moments, cond, L, w)
+    if r_w is None:
+        r_w, _ = by_condition(beam.udl_reactions, cond, L, w)
+    if m_w is None:
+        m_w, _ = by_condition(beam.udl_end_moments, cond, L, w)
     ok = (w > 0.0) & (share > 0.0) & ~carries & (cond != COND_NAMES.index("cantilever"))
     ws = np.where(ok, w, 1.0)
     best_P = np.full(np.shape(a), np.inf)
