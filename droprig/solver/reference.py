@@ -50,7 +50,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, cast
 
 import numpy as np
 
@@ -230,10 +230,11 @@ def peak_station_reference(cond: str, L: float, a: float, w: float, Mr: float) -
     share of the load)."""
     if w <= 0.0 or cond == "cantilever":
         return a
-    r_u = float(beam.unit_reactions(cond, L, a)[0])
-    m_u = float(beam.unit_end_moments(cond, L, a)[0])
-    r_w = float(beam.udl_reactions(cond, L, w)[0])
-    m_w = float(beam.udl_end_moments(cond, L, w)[0])
+    c = cast(beam.EndCondition, cond)
+    r_u = float(beam.unit_reactions(c, L, a)[0])
+    m_u = float(beam.unit_end_moments(c, L, a)[0])
+    r_w = float(beam.udl_reactions(c, L, w)[0])
+    m_w = float(beam.udl_end_moments(c, L, w)[0])
     best_P, best_x = math.inf, a
     for c0_P, c1_P, lo, hi in ((m_u, r_u, 0.0, a), (m_u + a, r_u - 1.0, a, L)):
         # M* = (c0_P·P + m_w) + (c1_P·P + r_w)²/(2w) = Mr: q_a·P² + q_b·P + q_c = 0

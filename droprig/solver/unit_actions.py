@@ -60,16 +60,16 @@ class UnitActions:
 
     def tiled(self, k: int) -> UnitActions:
         """These actions repeated ``k`` times along the points (one copy per load)."""
-        return UnitActions(self.flexure.tiled(k), self.shear.tiled(k),
-                           *(np.tile(getattr(self, f), k) for f in _PER_POINT),
-                           derived={n: f.tiled(k) for n, f in self.derived.items()})
+        return _made(self.flexure.tiled(k), self.shear.tiled(k),
+                     [np.tile(getattr(self, f), k) for f in _PER_POINT],
+                     {n: f.tiled(k) for n, f in self.derived.items()})
 
     def take(self, idx: np.ndarray) -> UnitActions:
         """These actions at the points ``idx`` only (the same values as the actions
         computed at those points: every quantity is per point)."""
-        return UnitActions(self.flexure.take(idx), self.shear.take(idx),
-                           *(getattr(self, f)[idx] for f in _PER_POINT),
-                           derived={n: f.take(idx) for n, f in self.derived.items()})
+        return _made(self.flexure.take(idx), self.shear.take(idx),
+                     [getattr(self, f)[idx] for f in _PER_POINT],
+                     {n: f.take(idx) for n, f in self.derived.items()})
 
     @staticmethod
     def concat(parts: Sequence[UnitActions]) -> UnitActions | None:
@@ -85,12 +85,22 @@ class UnitActions:
                 fam = Family.concat([p.derived[name] for p in parts])
                 if fam is not None:
                     derived[name] = fam
-        return UnitActions(flex, shear, *(np.concatenate([getattr(p, f) for p in parts])
-                                          for f in _PER_POINT), derived=derived)
+        return _made(flex, shear, [np.concatenate([getattr(p, f) for p in parts])
+                                   for f in _PER_POINT], derived)
 
 
 _PER_POINT = ("R_p", "rp_member", "rp_arm", "rp_cond", "nh_fa", "nh_member")
 """The plain per-point arrays of :class:`UnitActions`."""
+
+
+def _made(flexure: Family, shear: Family, per_point: list[np.ndarray],
+          derived: dict[str, Family]) -> UnitActions:
+    """:class:`UnitActions` from its families and the arrays of :data:`_PER_POINT`
+    in that order."""
+    R_p, rp_member, rp_arm, rp_cond, nh_fa, nh_member = per_point
+    return UnitActions(flexure=flexure, shear=shear, R_p=R_p, rp_member=rp_member,
+                       rp_arm=rp_arm, rp_cond=rp_cond, nh_fa=nh_fa, nh_member=nh_member,
+                       derived=derived)
 
 
 def _combine(out: np.ndarray, coef: np.ndarray, terms: tuple[int, ...], pair: np.ndarray,
