@@ -131,6 +131,106 @@ def bench_tilted(projects, runs: int) -> dict[str, dict[str, float]]:
     return out
 
 
+_STAGES = (
+    ("analysis points (base + refinement)", "refine", "zone_points_geometry"),
+    ("confirm: each point's plastic height", "confirm", "confirm_point_heights"),
+    ("confirm: the bays' limits (rounds)", "confirm", "confirm_bay_limits"),
+    ("cascade to the level below", "analysis", "cascade_down"),
+    ("bay summaries", "summary", "summarise"),
+    ("geometry of new points", "geometry", "point_geometry"),
+    ("geometry taken for trials", "geometry", "take_geo"),
+    ("member actions of new points", "unit_actions", "unit_actions"),
+)
+"""(label, module under droprig.solver, function) of the warm analyse() timed by
+:func:`bench_steps` besides the chain's steps (nested: a stage includes the chain runs
+and steps inside it)."""
+
+
+def bench_steps(projects, runs: int) -> dict[str, dict[str, float]]:
+    """Where each demo's warm ``analyse()`` goes: the wall time of every step of the
+    chain (:data:`droprig.solver.chain.STEPS`, summed over its runs, with the runs
+    and points per analysis) and of the stages of :data:`_STAGES`, by wrapping them
+    for ``runs`` analyses (mean per analysis; the wrappers add ~1 µs a call). Also
+    the cost of one chain run on 10 points (the fixed cost of a run: some thousand
+    numpy calls) and per point beyond that (10 → 3,000 points)."""
+    import importlib
+
+    from droprig.solver import chain, geometry, unit_actions
+
+    out: dict[str, dict[str, float]] = {}
+    T: dict[str, float] = {}
+    N: dict[str, float] = {}
+    saved: list[tuple[object, str, object]] = []
+
+    def timed(label: str, fn):
+        def w(*a, **k):
+            t = time.perf_counter()
+            try:
+                return fn(*a, **k)
+            finally:
+                T[label] = T.get(label, 0.0) + time.perf_counter() - t
+                N[label] = N.get(label, 0.0) + 1
+        return w
+
+    def patch(obj: object, name: str, new: object) -> None:
+        saved.append((obj, name, getattr(obj, name)))
+        setattr(obj, name, new)
+
+    steps = chain.STEPS
+    pts = {"n": 0}
+
+    def count_points(c):
+        pts["n"] += c.drop.n
+        return c
+    try:
+        patch(chain, "STEPS", tuple(timed("step " + s.__name__, s) for s in steps))
+        for label, mod, fn in _STAGES:
+            m = importlib.import_module(f"droprig.solver.{mod}")
+            f = timed(label, getattr(m, fn))
+            # every module that imported the function by name
+            for other in ("analysis", "refine", "confirm", "evaluate", "chain",
+                          "geometry", "unit_actions", "summary"):
+                om = importlib.import_module(f"droprig.solver.{other}")
+                if getattr(om, fn, None) is getattr(m, fn):
+                    patch(om, fn, f)
+        run = chain.run_chain
+        patch(chain, "run_chain", timed("chain runs", lambda d: count_points(run(d))))
+        from droprig.solver import evaluate as ev_mod
+        patch(ev_mod, "run_chain", chain.run_chain)
+        for name, proj in projects:
+            analysis.analyse(proj)
+            T.clear()
+            N.clear()
+            pts["n"] = 0
+            t = time.perf_counter()
+            for _ in range(runs):
+                analysis.analyse(proj)
+            total = (time.perf_counter() - t) / runs
+            res = {k: v / runs for k, v in T.items()}
+            res["total"] = total
+            res["chain runs per analysis"] = N.get("chain runs", 0.0) / runs
+            res["points per analysis"] = pts["n"] / runs
+            out[name] = res
+    finally:
+        for obj, name, old in reversed(saved):
+            setattr(obj, name, old)
+    # the fixed cost of a chain run and the cost per point
+    for name, proj in projects:
+        zone = proj.lift_zones[0]
+        fm = analysis.floor_model(proj.level(zone.level_id), proj.settings)
+        x, y = _random_points(fm.level, 3000, seed=4)
+        per = {}
+        for n in (10, 3000):
+            geo = geometry.point_geometry(fm, proj, x[:n], y[:n])
+            unit_actions.unit_actions(fm, geo)
+            per[n] = _median_time(lambda geo=geo, fm=fm, proj=proj, zone=zone:
+                                  evaluate.evaluate_case(fm, proj, zone.loads[0], geo,
+                                                         v_hoist=zone.hoist_speed), 15)
+        out[name]["run_10_points"] = per[10]
+        out[name]["per_point_beyond"] = (per[3000] - per[10]) / 2990
+    return out
+
+
 def bench_naive(project, n_loop: int, n_vec: int) -> dict[str, float]:
     """The same code called once per drop point from a Python loop."""
     zone = project.lift_zones[0]
@@ -278,6 +378,20 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
     for name, t in tilt.items():
         print(f"   {name}: flat only {t['off'] * 1e3:.1f} ms, flat + tilted "
               f"{t['on'] * 1e3:.1f} ms (× {t['on'] / t['off']:.2f})")
+    steps = bench_steps(projects, 3 if q else 11)
+    out["steps"] = steps
+    print("\n2c. where each demo's warm analyse() goes (mean of the runs; stages include "
+          "the chain runs inside them)")
+    for name, r in steps.items():
+        print(f"   {name}: {r['total'] * 1e3:.1f} ms, {r['chain runs per analysis']:.0f} "
+              f"chain runs, {r['points per analysis']:.0f} points × loads; one run "
+              f"{r['run_10_points'] * 1e3:.1f} ms on 10 points + "
+              f"{r['per_point_beyond'] * 1e6:.2f} µs a point")
+        rows = sorted(((k, v) for k, v in r.items() if k not in (
+            "total", "chain runs per analysis", "points per analysis", "run_10_points",
+            "per_point_beyond")), key=lambda kv: -kv[1])
+        for k, v in rows:
+            print(f"      {k:40s} {v * 1e3:7.2f} ms")
     n = 100_000 if q else 1_000_000
     mil = bench_million(proj0, n)
     out["million"] = mil

@@ -770,7 +770,8 @@ def demands(c: Chain) -> Demands:
     out["flexure"] = ua.flexure.check("flexure", F, detail)
     out["shear"] = ua.shear.check("shear", F, detail)
     if d.bare is None:  # deck-less (one member): no end connection given
-        out["connection"] = connection_family(fm, ua.shear).check("connection", F, detail)
+        conn = ua.family("connection", lambda: connection_family(fm, ua.shear))
+        out["connection"] = conn.check("connection", F, detail)
     # web checks under the load (each deck-supporting member, its share)
     lb = inp.lb
     dist = np.maximum(np.minimum(aT, LT - aT) - 0.5 * lb, 0.0)
@@ -1107,8 +1108,11 @@ def connection_family(fm: FloorModel, shear: Family) -> Family:
     resistance, or the stated default
     :data:`droprig.solver.composite.CONNECTION_DEFAULT_FRACTION` of it
     (:func:`droprig.solver.composite.connection_capacity`). Brittle (bolts, welds)."""
-    Vc = np.array([composite.connection_capacity(float(fm.Vr[k]), m.connection_capacity)
-                   for k, m in enumerate(fm.level.members)])
+    Vc = fm._memo.get("connection_capacity")
+    if Vc is None:  # per member, kept on the prepared floor
+        Vc = fm._memo["connection_capacity"] = np.array(
+            [composite.connection_capacity(float(fm.Vr[k]), m.connection_capacity)
+             for k, m in enumerate(fm.level.members)])
     mem = shear.members
     Vc_pts = np.where(mem >= 0, Vc[np.where(mem >= 0, mem, 0)], np.inf)
     with np.errstate(divide="ignore", invalid="ignore"):

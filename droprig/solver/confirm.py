@@ -41,7 +41,7 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
-from droprig.model import LiftZone, Project, Rect, bays
+from droprig.model import LiftLoad, LiftZone, Project, Rect, bays
 from droprig.solver import cancel, droppoints, evaluate
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry, concat_geo, point_geometry, take_geo
@@ -173,7 +173,7 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
         unit_actions(fm, eg)
         g = concat_geo([take_geo(geo, row), eg])
     x, y, own = np.r_[x, ex], np.r_[y, ey], np.r_[own, eown]
-    parts = [_evaluate(fm, project, loads, trials, x, y, own, g, zone.hoist_speed)]
+    parts = [_evaluate(fm, project, zone, loads, trials, x, y, own, g)]
     step = fm.settings.grid_resolution
     for n_top in CONFIRM_REFINE:
         step /= 4.0
@@ -181,8 +181,7 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
         rx, ry, rown = _refine(fm, zone, trials, cur, step, n_top)
         if rx.size == 0:
             break
-        parts.append(_evaluate(fm, project, loads, trials, rx, ry, rown,
-                                   v_hoist=zone.hoist_speed))
+        parts.append(_evaluate(fm, project, zone, loads, trials, rx, ry, rown))
     r = _cat(parts)
     own = r["owner"]
     resp = r["response"]
@@ -249,21 +248,31 @@ def _cat(parts: list[dict[str, np.ndarray]]) -> dict[str, np.ndarray]:
         k: np.concatenate([p[k] for p in parts]) for k in parts[0]}
 
 
-def _evaluate(fm: FloorModel, project: Project, loads: tuple, trials: list[_Trial],
-              x: np.ndarray, y: np.ndarray, own: np.ndarray,
-              geo: Geometry | None = None, v_hoist: float = 0.0) -> dict[str, np.ndarray]:
+def _forward(fm: FloorModel, project: Project, zone: LiftZone, loads: Sequence[LiftLoad],
+             geo: Geometry, li: np.ndarray, H: np.ndarray,
+             mat_k: np.ndarray | None = None) -> dict[str, np.ndarray]:
+    """The forward chain of a trial (``Drop.trial``) of ``zone``: ``loads[li]`` dropped
+    from the trial heights ``H`` (m, on the datum) at the points of ``geo``, on the
+    trial mats ``mat_k`` (N/m, nan none) where given. The one place the trials are
+    run: their drops strike as the planned ones do, with the zone's hoist lowering
+    speed (``Drop.v_hoist`` = ``zone.hoist_speed``, m/s)."""
+    return evaluate.evaluate_case(fm, project, loads, geo, li, H=H, mat_k=mat_k,
+                                  trial=True, v_hoist=zone.hoist_speed)
+
+
+def _evaluate(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
+              trials: list[_Trial], x: np.ndarray, y: np.ndarray, own: np.ndarray,
+              geo: Geometry | None = None) -> dict[str, np.ndarray]:
     """The forward chain of each trial at its points (``geo``: their geometry where
-    known, row for row with x, y); the trial drops strike as the planned ones do, with
-    the hoist's lowering speed ``v_hoist`` (m/s)."""
+    known, row for row with x, y; :func:`_forward`)."""
     cancel.check()
     li = np.array([tr.load for tr in trials], dtype=np.int64)[own]
     H = np.array([tr.H for tr in trials])[own]
     mk = np.array([tr.value if tr.kind == "mat" else np.nan for tr in trials])[own]
     if geo is None:
         geo = point_geometry(fm, project, x, y)
-    r = evaluate.evaluate_case(fm, project, loads, geo, li, H=H,
-                               mat_k=mk if np.isfinite(mk).any() else None, trial=True,
-                               v_hoist=v_hoist)
+    r = _forward(fm, project, zone, loads, geo, li, H,
+                 mk if np.isfinite(mk).any() else None)
     keep = ("x", "y", "response", "utilisation", "peak_force", "allowable_drop_height",
             "allowable_drop_height_plastic", "required_mat_stiffness")
     out = {k: r[k] for k in keep}
@@ -352,9 +361,7 @@ def confirm_point_heights(fm: FloorModel, project: Project, zone: LiftZone,
     t_pad = res["drop_height"][rows] - res["fall_height"][rows]
     factor = np.repeat(np.asarray(CONFIRM_FACTORS, float), idx.size)
     H = np.minimum(t_pad + factor * (h_pl[rows] - t_pad), 200.0)
-    # the trial drops strike as the planned ones do, with the hoist's lowering speed
-    r = evaluate.evaluate_case(fm, project, loads, g, res["load_index"][rows], H=H,
-                               trial=True, v_hoist=zone.hoist_speed)
+    r = _forward(fm, project, zone, loads, g, res["load_index"][rows], H)
     ok = (r["response"] != EXCEEDS).reshape(k, idx.size).all(axis=0)
     bad = idx[~ok]
     if bad.size:

@@ -236,6 +236,37 @@ def _nearest_in_sector(zone: LiftZone, x: np.ndarray, y: np.ndarray) -> tuple[np
 
 def _nearest_in_polygon(poly: tuple[tuple[float, float], ...], x: np.ndarray,
                         y: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Nearest point of the polygon (its boundary, or the point itself inside) to each
+    point: every edge at once, laid out (edge, point), the first nearest edge kept —
+    the same floating-point expressions and choice as :func:`_nearest_on_segment`
+    edge by edge (``_nearest_in_polygon_by_edge``)."""
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    if x.ndim != 1 or x.shape != y.shape or not poly:
+        return _nearest_in_polygon_by_edge(poly, x, y)
+    inside = polygon_distance(poly, x, y) <= 0.0
+    e = _edges(tuple((float(px), float(py)) for px, py in poly))
+    tt = np.multiply(np.subtract(x, e.ax), e.dx)  # (edge, point)
+    tt += np.multiply(np.subtract(y, e.ay), e.dy)
+    tt /= e.ll
+    np.clip(tt, 0.0, 1.0, out=tt)
+    if e.degenerate is not None:
+        tt[e.degenerate] = 0.0  # a zero-length edge: its point a
+    ex = np.multiply(tt, e.dx)
+    ex += e.ax
+    ey = np.multiply(tt, e.dy, out=tt)
+    ey += e.ay
+    d = np.hypot(x - ex, y - ey)
+    j = np.argmin(d, axis=0)  # the first edge of least distance
+    cols = np.arange(x.size)
+    qx, qy = ex[j, cols], ey[j, cols]
+    if np.isnan(d).any():  # the edge-by-edge form keeps x, y where no distance is a number
+        return _nearest_in_polygon_by_edge(poly, x, y)
+    return np.where(inside, x, qx), np.where(inside, y, qy)
+
+
+def _nearest_in_polygon_by_edge(poly: tuple[tuple[float, float], ...], x: np.ndarray,
+                                y: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     inside = polygon_distance(poly, x, y) <= 0.0
     best_d = np.full(x.shape, np.inf)
     qx, qy = x.copy(), y.copy()

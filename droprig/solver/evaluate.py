@@ -163,6 +163,10 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
         with np.errstate(all="ignore"):
             return [_outputs(fm, project, ld, geo, None, v_hoist=v_hoist) for ld in loads]
 
+    if n <= loadpath_chunk():  # one block: no probe run for the output types
+        parts = block(0, n)
+        return {k: np.concatenate([p[k] for p in parts]) if nl > 1 else parts[0][k]
+                for k in parts[0]}
     with np.errstate(all="ignore"):
         probe = _outputs(fm, project, loads[0], point_geometry(fm, project, x[:1], y[:1]),
                          None, v_hoist=v_hoist)

@@ -14,7 +14,7 @@ from droprig.solver import droppoints, memory
 from droprig.solver.floor import FloorModel
 from droprig.solver.loadpath import PathResult
 from droprig.solver.loadpath import evaluate as evaluate_path
-from droprig.solver.reference import path_reference
+from droprig.solver.reference import path_reference, reference_unit_actions
 from droprig.solver.unit_actions import UnitActions
 
 __all__ = ["Geometry", "concat_geo", "point_geometry", "slice_geo", "take_geo"]
@@ -38,7 +38,9 @@ def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarra
     """Load path and plan attributes of drop points (bay, protection area, opening).
     The load path by the fast kernel (:func:`droprig.solver.loadpath.evaluate`), or
     with ``reference`` by the plain formulas
-    (:func:`droprig.solver.reference.path_reference`; the calculation trace)."""
+    (:func:`droprig.solver.reference.path_reference`; the calculation trace), and then
+    the member actions too (:func:`droprig.solver.reference.reference_unit_actions`,
+    kept for the chain in place of the kernel's)."""
     memory.keep_freed_memory()
     x = np.asarray(x, float)
     y = np.asarray(y, float)
@@ -59,7 +61,10 @@ def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarra
             (y <= r.y1 + tol)
         prot[inside] = i
     opening = droppoints.in_openings(fm.level, x, y)
-    return Geometry(x, y, path, bay, prot, opening)
+    geo = Geometry(x, y, path, bay, prot, opening)
+    if reference and fm.tables is not None:
+        geo.cache["ua"] = reference_unit_actions(fm, path)
+    return geo
 
 
 def slice_geo(geo: Geometry, sl: slice) -> Geometry:

@@ -24,8 +24,9 @@ fast kernels of :mod:`droprig.solver.unit_actions` and
 :mod:`droprig.solver.linear_checks` (``tests/solver/test_action_kernels.py``):
 
 * flexure candidates of each deck member k at the stations x (under the load, the
-  quarter points, halfway between the load and midspan, the ends when a member of
-  the floor has a fixed end): demand per N w_k·M(x; a_k), existing demand M_0(x)
+  quarter points, halfway between the load and midspan, the peak station of
+  :func:`peak_station_reference`, the ends when a member of the floor has a fixed
+  end): demand per N w_k·M(x; a_k), existing demand M_0(x)
   (AISC Manual Table 3-23 by superposition, :func:`droprig.solver.floor.existing_moment`);
   of each support member at its stations Σ_i c_i·r_i (the frame's coefficients on
   the local reactions r) with its existing moment;
@@ -47,8 +48,9 @@ fast kernels of :mod:`droprig.solver.unit_actions` and
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, cast
 
 import numpy as np
 
@@ -56,11 +58,16 @@ from droprig.model.project import GEOMETRY_TOL
 from droprig.solver import beam, capacity, loadpath
 from droprig.solver.loadpath import COND_NAMES, Frame, PathResult, by_condition
 
+TIE_REL = 1e-9
+"""Plastic-reserve candidates within this fraction of the least are tied (as
+:data:`droprig.solver.unit_actions.TIE_REL`)."""
+
 if TYPE_CHECKING:
     from droprig.solver.floor import FloorModel
+    from droprig.solver.unit_actions import UnitActions
 
 __all__ = ["ActionsReference", "CandidatesReference", "check_reference", "path_reference",
-           "unit_actions_reference", "web_reference"]
+           "reference_unit_actions", "unit_actions_reference", "web_reference"]
 
 
 def path_reference(frame: Frame, x: np.ndarray, y: np.ndarray, *,
@@ -172,8 +179,9 @@ class CandidatesReference:
 class ActionsReference:
     """Plain-formula counterpart of :class:`droprig.solver.unit_actions.UnitActions`:
     the flexure and shear candidates, the plastic reserve ``R_p`` (N), the member that
-    sets it and its hinge arm (m), the least force taking a member unable to form a
-    hinge to its flexural resistance ``nh_fa`` (N, ∞ none) and that member."""
+    sets it, its hinge arm (m) and end condition ``rp_cond``, the least force taking a
+    member unable to form a hinge to its flexural resistance ``nh_fa`` (N, ∞ none)
+    and that member."""
 
     flexure: CandidatesReference
     shear: CandidatesReference
@@ -182,6 +190,7 @@ class ActionsReference:
     rp_arm: np.ndarray
     nh_fa: np.ndarray
     nh_member: np.ndarray
+    rp_cond: np.ndarray
 
 
 def check_reference(c: CandidatesReference, F: np.ndarray,
@@ -208,11 +217,53 @@ def _allowed(c: CandidatesReference) -> np.ndarray:
     return np.where(np.abs(c.exist) > c.resist, -1.0, fa)
 
 
-def deck_member_stations(a: np.ndarray, L: np.ndarray, ends: bool) -> list[np.ndarray]:
+def peak_station_reference(cond: str, L: float, a: float, w: float, Mr: float) -> float:
+    """Where the sagging moment of a member under a point load P at ``a`` plus its UDL
+    ``w`` peaks at the least P that takes the peak to ``Mr`` (m), one member at a time.
+
+    On each side of the load M(x) = c0 + c1·x − w·x²/2 (AISC Manual 15th ed. Table
+    3-23 by superposition; Roark 7th ed. Table 8.1), c0 and c1 linear in P; the peak
+    of a side is at V = 0, x* = c1/w, M* = c0 + c1²/(2w) (statics). Each side: the
+    least P ≥ 0 with M* = Mr (a quadratic in P) whose x* lies on that side; the side
+    with the lesser P gives x*. ``a`` where none does, where w ≤ 0 or on a cantilever
+    (the caller also keeps ``a`` for members carrying others, and members without a
+    share of the load)."""
+    if w <= 0.0 or cond == "cantilever":
+        return a
+    c = cast(beam.EndCondition, cond)
+    r_u = float(beam.unit_reactions(c, L, a)[0])
+    m_u = float(beam.unit_end_moments(c, L, a)[0])
+    r_w = float(beam.udl_reactions(c, L, w)[0])
+    m_w = float(beam.udl_end_moments(c, L, w)[0])
+    best_P, best_x = math.inf, a
+    for c0_P, c1_P, lo, hi in ((m_u, r_u, 0.0, a), (m_u + a, r_u - 1.0, a, L)):
+        # M* = (c0_P·P + m_w) + (c1_P·P + r_w)²/(2w) = Mr: q_a·P² + q_b·P + q_c = 0
+        q_a = c1_P * c1_P / (2.0 * w)
+        q_b = c0_P + c1_P * r_w / w
+        q_c = m_w + r_w * r_w / (2.0 * w) - Mr
+        if q_c > 0.0:  # the UDL alone already exceeds Mr
+            continue
+        disc = math.sqrt(max(q_b * q_b - 4.0 * q_a * q_c, 0.0))
+        if q_b > 0.0:
+            P = -2.0 * q_c / (q_b + disc)
+        elif q_a > 0.0:
+            P = (disc - q_b) / (2.0 * q_a)
+        else:
+            continue
+        x = (c1_P * P + r_w) / w
+        if P >= 0.0 and lo <= x <= hi and P < best_P:
+            best_P, best_x = P, x
+    return best_x
+
+
+def deck_member_stations(a: np.ndarray, L: np.ndarray, ends: bool,
+                         peak: np.ndarray | None = None) -> list[np.ndarray]:
     """Stations (m) along a deck member where the moment under a point load at a plus
     a uniform load can peak: under the load, the quarter points, halfway between the
-    load and midspan, and both ends when the floor has a member with a fixed end."""
-    st = [a, 0.25 * L, 0.5 * L, 0.75 * L, 0.5 * (a + 0.5 * L)]
+    load and midspan, the peak station ``peak`` (:func:`peak_station_reference`; under
+    the load where not given), and both ends when the floor has a member with a fixed
+    end."""
+    st = [a, 0.25 * L, 0.5 * L, 0.75 * L, 0.5 * (a + 0.5 * L), a if peak is None else peak]
     if ends:
         st += [0.0 * a, L + 0.0 * a]
     return st
@@ -236,8 +287,14 @@ def unit_actions_reference(fm: FloorModel, path: PathResult) -> ActionsReference
     # flexure: deck members at their stations
     rows_u, rows_e, rows_r, rows_m, rows_s = [], [], [], [], []
     M0_under = np.zeros((2, n))
+    carries = np.array([fr.nodes_on[m].size > 0 for m in range(fr.n_members)], dtype=bool)
     for k in range(2):
-        for si, x in enumerate(deck_member_stations(a[k], L[k], ends)):
+        peak = np.array([
+            a[k, i] if share[k, i] <= 0.0 or carries[mem[k, i]] else
+            peak_station_reference(COND_NAMES[int(cond[k, i])], float(L[k, i]),
+                                   float(a[k, i]), float(fm.w0[mem[k, i]]),
+                                   float(fm.Mr[mem[k, i]])) for i in range(n)])
+        for si, x in enumerate(deck_member_stations(a[k], L[k], ends, peak)):
             M = by_condition(beam.unit_moment, cond[k], L[k], x, a[k])
             M0 = np.empty(n)
             for m in np.unique(mem[k]):
@@ -281,25 +338,60 @@ def unit_actions_reference(fm: FloorModel, path: PathResult) -> ActionsReference
             s_m.append(supm[:, p])
             s_s.append(np.full(n, 2 + p))
     shear = CandidatesReference(*(np.array(v) for v in (s_u, s_e, s_r, s_m, s_s)))
-    R_p, rp_member, rp_arm = _plastic_reserve_reference(fm, flexure, mem, share, a, L,
-                                                        cond, M0_under, valid)
+    R_p, rp_member, rp_arm, rp_cond = _plastic_reserve_reference(
+        fm, flexure, mem, share, a, L, cond, M0_under, valid, pair)
     nh_fa, nh_member = _no_hinge_reference(fm, flexure)
     return ActionsReference(flexure=flexure, shear=shear, R_p=R_p, rp_member=rp_member,
-                            rp_arm=rp_arm, nh_fa=nh_fa, nh_member=nh_member)
+                            rp_arm=rp_arm, nh_fa=nh_fa, nh_member=nh_member,
+                            rp_cond=rp_cond)
+
+
+def reference_unit_actions(fm: FloorModel, path: PathResult) -> UnitActions:
+    """:func:`unit_actions_reference` in the form the chain reads
+    (:class:`droprig.solver.unit_actions.UnitActions`: every candidate a row of its
+    own, no table or dominated station left out), for the calculation trace: its
+    member actions are the plain formulas, not the fast kernel."""
+    from droprig.solver.linear_checks import Family
+    from droprig.solver.unit_actions import UnitActions
+
+    ref = unit_actions_reference(fm, path)
+
+    def family(c: CandidatesReference) -> Family:
+        return Family.from_candidates(c.unit, c.exist, c.resist, c.member)
+
+    return UnitActions(flexure=family(ref.flexure), shear=family(ref.shear), R_p=ref.R_p,
+                       rp_member=ref.rp_member, rp_arm=ref.rp_arm, rp_cond=ref.rp_cond,
+                       nh_fa=ref.nh_fa, nh_member=ref.nh_member)
+
+
+def _tie_pick_reference(values: list[float], arms: list[float]) -> int:
+    """The candidate that sets the plastic reserve, point by point: of those whose
+    collapse force lies within TIE_REL (1e-9) of the least, the shortest hinge arm
+    (the larger support rotation: conservative), and of equal arms the first (common
+    practice, no source; the kernel's :func:`droprig.solver.unit_actions.tie_pick`)."""
+    v_min = min(values)
+    best = -1
+    for i, (v, arm) in enumerate(zip(values, arms, strict=True)):
+        if (v == v_min or v <= v_min + TIE_REL * abs(v_min)) and (
+                best < 0 or arm < arms[best]):
+            best = i
+    return best
 
 
 def _plastic_reserve_reference(fm: FloorModel, flexure: CandidatesReference,
                                mem: np.ndarray, share: np.ndarray, a: np.ndarray,
                                L: np.ndarray, cond: np.ndarray, M0_under: np.ndarray,
-                               valid: np.ndarray,
-                               ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """R_p (N), its member and hinge arm (m) (module docstring)."""
+                               valid: np.ndarray, pair: np.ndarray,
+                               ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """R_p (N), its member, hinge arm (m) and end condition (module docstring)."""
     fa = _allowed(flexure)
+    fr = fm.frame
     n = mem.shape[1]
     P = valid.shape[1]
     Rp = np.full((2 + P, n), np.inf)
     member = np.zeros((2 + P, n), dtype=np.int64)
     arm = np.zeros((2 + P, n))
+    rcond = np.zeros((2 + P, n), dtype=np.int64)
     for src in range(2 + P):
         rows = flexure.source[:, 0] == src
         first_yield = fa[rows].min(axis=0)
@@ -322,12 +414,27 @@ def _plastic_reserve_reference(fm: FloorModel, flexure: CandidatesReference,
             Rp[src] = np.where(carries, Rp[src], Pu)
             arm[src] = np.where(cond[k] == COND_NAMES.index("cantilever"), a[k],
                                 np.minimum(a[k], L[k] - a[k]))
+            rcond[src] = cond[k]
         else:
-            Rp[src] = np.where(valid[:, src - 2], first_yield, np.inf)
-            arm[src] = np.nan  # (the governing station of a support member)
-    j = np.argmin(Rp, axis=0)
+            p = src - 2
+            Rp[src] = np.where(valid[:, p], first_yield, np.inf)
+            # the hinge at the governing station x of the support member (its stations
+            # in order), arm min(x, L − x), x from the root of a cantilever
+            fa_st = fa[rows]
+            for i in range(n):
+                m = int(flexure.member[rows][0][i])
+                c = int(fr.cond[m])
+                xs = [float(fr.pair_sup_x[pair[i], p, st]) for st in range(fa_st.shape[0])]
+                arms = [x if COND_NAMES[c] == "cantilever" else min(x, float(fr.L[m]) - x)
+                        for x in xs]
+                st = _tie_pick_reference([float(v) for v in fa_st[:, i]], arms)
+                arm[src, i] = arms[st]
+                rcond[src, i] = c
     cols = np.arange(n)
-    return np.maximum(Rp[j, cols], 0.0), member[j, cols], arm[j, cols]
+    j = np.array([_tie_pick_reference([float(v) for v in Rp[:, i]],
+                                      [float(v) for v in arm[:, i]]) for i in range(n)],
+                 dtype=np.int64)
+    return np.maximum(Rp.min(axis=0), 0.0), member[j, cols], arm[j, cols], rcond[j, cols]
 
 
 def _no_hinge_reference(fm: FloorModel, flexure: CandidatesReference,

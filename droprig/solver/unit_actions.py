@@ -11,7 +11,7 @@ SI units (N, N·m, m)."""
 from __future__ import annotations
 
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import TYPE_CHECKING
 
 import numpy as np
@@ -19,13 +19,14 @@ import numpy as np
 from droprig.solver import beam
 from droprig.solver.candidates import CandidateTables
 from droprig.solver.floor import FloorModel, existing_moment
-from droprig.solver.linear_checks import Family, argmax0, argmin_axis
+from droprig.solver.linear_checks import Family, argmax0
 from droprig.solver.loadpath import COND_NAMES, by_condition
 
 if TYPE_CHECKING:
     from droprig.solver.geometry import Geometry
 
-__all__ = ["UnitActions", "argmax_nan_low", "unit_actions", "web_resistances"]
+__all__ = ["TIE_REL", "UnitActions", "argmax_nan_low", "peak_station", "tie_pick",
+           "unit_actions", "web_resistances"]
 
 
 @dataclass(frozen=True, eq=False)
@@ -35,7 +36,9 @@ class UnitActions:
     member that sets it ``rp_member``, its hinge arm ``rp_arm`` (m) and end
     condition ``rp_cond``; the least force that takes a member unable to form a
     hinge to its flexural resistance ``nh_fa`` (N, ∞ none) and that member
-    ``nh_member`` (-1 none)."""
+    ``nh_member`` (-1 none). ``derived``: further load-independent check families
+    built from these by the chain (the end connections from ``shear``), kept by
+    name and taken, tiled and joined along with them."""
 
     flexure: Family
     shear: Family
@@ -45,17 +48,28 @@ class UnitActions:
     rp_cond: np.ndarray
     nh_fa: np.ndarray
     nh_member: np.ndarray
+    derived: dict[str, Family] = field(default_factory=dict, compare=False, repr=False)
+
+    def family(self, name: str, build: Callable[[], Family]) -> Family:
+        """The derived family ``name``: ``build()`` the first time it is asked for,
+        then kept (it depends on the points, not on the load)."""
+        fam = self.derived.get(name)
+        if fam is None:
+            fam = self.derived[name] = build()
+        return fam
 
     def tiled(self, k: int) -> UnitActions:
         """These actions repeated ``k`` times along the points (one copy per load)."""
-        return UnitActions(self.flexure.tiled(k), self.shear.tiled(k),
-                           *(np.tile(getattr(self, f), k) for f in _PER_POINT))
+        return _made(self.flexure.tiled(k), self.shear.tiled(k),
+                     [np.tile(getattr(self, f), k) for f in _PER_POINT],
+                     {n: f.tiled(k) for n, f in self.derived.items()})
 
     def take(self, idx: np.ndarray) -> UnitActions:
         """These actions at the points ``idx`` only (the same values as the actions
         computed at those points: every quantity is per point)."""
-        return UnitActions(self.flexure.take(idx), self.shear.take(idx),
-                           *(getattr(self, f)[idx] for f in _PER_POINT))
+        return _made(self.flexure.take(idx), self.shear.take(idx),
+                     [getattr(self, f)[idx] for f in _PER_POINT],
+                     {n: f.take(idx) for n, f in self.derived.items()})
 
     @staticmethod
     def concat(parts: Sequence[UnitActions]) -> UnitActions | None:
@@ -65,12 +79,28 @@ class UnitActions:
         shear = Family.concat([p.shear for p in parts])
         if flex is None or shear is None:
             return None
-        return UnitActions(flex, shear, *(np.concatenate([getattr(p, f) for p in parts])
-                                          for f in _PER_POINT))
+        derived = {}
+        for name in parts[0].derived:
+            if all(name in p.derived for p in parts):
+                fam = Family.concat([p.derived[name] for p in parts])
+                if fam is not None:
+                    derived[name] = fam
+        return _made(flex, shear, [np.concatenate([getattr(p, f) for p in parts])
+                                   for f in _PER_POINT], derived)
 
 
 _PER_POINT = ("R_p", "rp_member", "rp_arm", "rp_cond", "nh_fa", "nh_member")
 """The plain per-point arrays of :class:`UnitActions`."""
+
+
+def _made(flexure: Family, shear: Family, per_point: list[np.ndarray],
+          derived: dict[str, Family]) -> UnitActions:
+    """:class:`UnitActions` from its families and the arrays of :data:`_PER_POINT`
+    in that order."""
+    R_p, rp_member, rp_arm, rp_cond, nh_fa, nh_member = per_point
+    return UnitActions(flexure=flexure, shear=shear, R_p=R_p, rp_member=rp_member,
+                       rp_arm=rp_arm, rp_cond=rp_cond, nh_fa=nh_fa, nh_member=nh_member,
+                       derived=derived)
 
 
 def _combine(out: np.ndarray, coef: np.ndarray, terms: tuple[int, ...], pair: np.ndarray,
@@ -133,6 +163,8 @@ class _PathView:
     supm: np.ndarray
     members: np.ndarray
     cols: np.ndarray
+    R0: np.ndarray
+    RL: np.ndarray
 
 
 def _path_view(fm: FloorModel, tb: CandidateTables, geo: Geometry) -> _PathView:
@@ -142,10 +174,24 @@ def _path_view(fm: FloorModel, tb: CandidateTables, geo: Geometry) -> _PathView:
     memT = np.ascontiguousarray(path.members.T)  # (2, n)
     pair = np.maximum(path.pair, 0)
     supm = np.take(tb.member, pair, axis=1) if tb.P else np.zeros((0, n), dtype=np.int64)
+    aT, LT, condT = np.ascontiguousarray(path.a.T), fr.L[memT], fr.cond[memT]
+    R0, RL = by_condition(beam.unit_reactions, condT, LT, aT)
     return _PathView(n=n, memT=memT, shareT=np.ascontiguousarray(path.share.T),
-                     aT=np.ascontiguousarray(path.a.T), LT=fr.L[memT], condT=fr.cond[memT],
+                     aT=aT, LT=LT, condT=condT,
                      pair=pair, rT=np.ascontiguousarray(path.r.T), supm=supm,
-                     members=np.concatenate([memT, supm]), cols=np.arange(n))
+                     members=np.concatenate([memT, supm]), cols=np.arange(n), R0=R0, RL=RL)
+
+
+def _udl_ends(fm: FloorModel) -> tuple[np.ndarray, np.ndarray]:
+    """Left reaction (N) and left end moment (N·m) of every member under its existing
+    UDL (AISC Manual Table 3-23), kept on the prepared floor."""
+    got = fm._memo.get("udl_ends")
+    if got is None:
+        fr = fm.frame
+        r_w, _ = by_condition(beam.udl_reactions, fr.cond, fr.L, fm.w0)
+        m_w, _ = by_condition(beam.udl_end_moments, fr.cond, fr.L, fm.w0)
+        got = fm._memo["udl_ends"] = (np.asarray(r_w, float), np.asarray(m_w, float))
+    return got
 
 
 def _flexure(fm: FloorModel, tb: CandidateTables, pv: _PathView,
@@ -156,7 +202,12 @@ def _flexure(fm: FloorModel, tb: CandidateTables, pv: _PathView,
     fr = fm.frame
     n, memT, aT, LT, condT, pair = pv.n, pv.memT, pv.aT, pv.LT, pv.condT, pv.pair
     P = tb.P
-    xs = _loaded_stations(aT[:, None, :], LT[:, None, :], bool(np.any(fr.cond != 0)))
+    r_w, m_w = _udl_ends(fm)
+    x_pk = peak_station(condT, LT, aT, fm.w0[memT], fm.Mr[memT], pv.shareT,
+                        _carries_others(fm)[memT], r_u=pv.R0, r_w=r_w[memT],
+                        m_w=m_w[memT])
+    xs = _loaded_stations(aT[:, None, :], LT[:, None, :], bool(np.any(fr.cond != 0)),
+                          x_pk[:, None, :])
     S_l = xs.shape[1]
     S_p = [k.size for k in tb.m_keep]  # stations kept per support member
     C = 2 * S_l + sum(S_p)
@@ -169,7 +220,7 @@ def _flexure(fm: FloorModel, tb: CandidateTables, pv: _PathView,
     np.divide(u, Rd, out=ut[:2 * S_l].reshape(2, S_l, n))
     # existing moment: at the stations that move with the load per point, at the
     # fixed ones (quarter points, ends) from a table per member
-    M0 = _loaded_existing_moment(fm, memT, xs[:, _MOVING, :])  # (2, 2, n)
+    M0 = _loaded_existing_moment(fm, memT, xs[:, _MOVING, :])  # (2, 3, n)
     E3 = Et[:2 * S_l].reshape(2, S_l, n)
     for i, st in enumerate(_MOVING):
         np.divide(M0[:, i, :], Rd[:, 0, :], out=E3[:, st, :])
@@ -193,7 +244,7 @@ def _shear(fm: FloorModel, tb: CandidateTables, pv: _PathView) -> Family:
     """Shear candidates: deck member ends (rows m0·R0, m1·R0, m0·RL, m1·RL), then
     the two ends of each support member."""
     n, memT, shareT, pair, P = pv.n, pv.memT, pv.shareT, pv.pair, tb.P
-    R0, RL = by_condition(beam.unit_reactions, pv.condT, pv.LT, pv.aT)
+    R0, RL = pv.R0, pv.RL
     Vd = fm.Vr[memT]
     C = 4 + 2 * P
     vt = np.empty((C, n))
@@ -252,16 +303,37 @@ def _plastic_reserve(fm: FloorModel, tb: CandidateTables, pv: _PathView, flex: F
     for p in range(P):
         a0, a1 = runs[2 + p]
         fa_p = flex.gmin[2 + p]
-        j = tb.m_keep[p][argmin_axis(flex.fa[a0:a1], fa_p, 0)]
         Rp_all[2 + p] = np.where(np.take(tb.valid[p], pair), fa_p, np.inf)
-        # station of the governing section: pair_sup_x[pair, p, j] by flat index
-        xst = np.take(fr.pair_sup_x.reshape(-1), (pair * P + p) * S + j)
+        # the governing section among the kept stations pair_sup_x[pair, p, keep]
+        # (flat index), ties broken by the shortest arm (tie_pick)
+        xst = np.take(fr.pair_sup_x.reshape(-1),
+                      (pair * P + p)[None, :] * S + tb.m_keep[p][:, None])  # (K, n)
         Ls = fr.L[pv.supm[p]]
-        arm[2 + p] = np.where(rp_cond[2 + p] == COND_NAMES.index("cantilever"), xst,
-                              np.minimum(xst, Ls - xst))
-    jr = argmin_axis(Rp_all, Rp_all.min(axis=0), 0)
-    return (np.maximum(Rp_all[jr, cols], 0.0), pv.members[jr, cols], arm[jr, cols],
+        arms = np.where(rp_cond[2 + p] == COND_NAMES.index("cantilever"), xst,
+                        np.minimum(xst, Ls - xst))
+        j = tie_pick(flex.fa[a0:a1], fa_p, arms)
+        arm[2 + p] = arms[j, cols]
+    R_min = Rp_all.min(axis=0)
+    jr = tie_pick(Rp_all, R_min, arm)
+    return (np.maximum(R_min, 0.0), pv.members[jr, cols], arm[jr, cols],
             rp_cond[jr, cols])
+
+
+TIE_REL = 1e-9
+"""Plastic-reserve candidates (members, stations) whose collapse force lies within
+this fraction of the least are taken as tied (the fast kernel and the plain reference
+compute them in a different order, a few ulp apart)."""
+
+
+def tie_pick(V: np.ndarray, V_min: np.ndarray, arm: np.ndarray) -> np.ndarray:
+    """Row of each column of ``V`` (k, n) that sets the plastic reserve: of the rows
+    within :data:`TIE_REL` of the least ``V_min``, the one with the shortest hinge
+    arm ``arm`` (k, n; m) — the larger support rotation for a given deflection,
+    conservative — and of equal arms the first (common practice, no source). The
+    same rule in :func:`droprig.solver.reference.unit_actions_reference`."""
+    tied = V <= V_min + TIE_REL * np.abs(V_min)
+    tied |= V == V_min  # (∞ and NaN-free equality where V_min is ∞)
+    return np.argmin(np.where(tied, arm, np.inf), axis=0)
 
 
 def _carries_others(fm: FloorModel) -> np.ndarray:
@@ -297,20 +369,80 @@ def _runs(lens: Sequence[int]) -> tuple[tuple[int, int], ...]:
     return tuple((e - k, e) for e, k in zip(ends, lens, strict=True))
 
 
-def _loaded_stations(a: np.ndarray, L: np.ndarray, ends: bool) -> np.ndarray:
+def _loaded_stations(a: np.ndarray, L: np.ndarray, ends: bool,
+                     peak: np.ndarray | None = None) -> np.ndarray:
     """Stations along a deck-supporting member where the moment can peak under a
     point load at a plus a uniform load: under the load, the quarter points, halfway
-    between the load and midspan, and the ends when a member has a fixed end; stacked
-    along the second axis of ``a`` (shape (2, 1, n) → (2, 5 or 7, n)), m."""
-    cols = [a, 0.25 * L, 0.5 * L, 0.75 * L, 0.5 * (a + 0.5 * L)]
+    between the load and midspan, the peak station ``peak`` (:func:`peak_station`;
+    under the load where not given), and the ends when a member has a fixed end;
+    stacked along the second axis of ``a`` (shape (2, 1, n) → (2, 6 or 8, n)), m."""
+    cols = [a, 0.25 * L, 0.5 * L, 0.75 * L, 0.5 * (a + 0.5 * L),
+            a if peak is None else peak]
     if ends:
         cols += [0.0 * a, L + 0.0 * a]
     return np.concatenate(np.broadcast_arrays(*cols), axis=1)
 
 
-_MOVING = (0, 4)
-"""The stations of :func:`_loaded_stations` that move with the load (under it, and
-halfway between it and midspan); the others are fixed on the member."""
+_MOVING = (0, 4, 5)
+"""The stations of :func:`_loaded_stations` that move with the load (under it,
+halfway between it and midspan, and the peak station); the others are fixed on the
+member."""
+
+_S_PLAIN = 6
+"""Stations of :func:`_loaded_stations` without the ends."""
+
+
+def peak_station(cond: np.ndarray, L: np.ndarray, a: np.ndarray, w: np.ndarray,
+                 Mr: np.ndarray, share: np.ndarray, carries: np.ndarray, *,
+                 r_u: np.ndarray | None = None, r_w: np.ndarray | None = None,
+                 m_w: np.ndarray | None = None) -> np.ndarray:
+    """Where the sagging moment of a deck member peaks at the point load that just
+    takes it to its flexural resistance, m: the station at which the linear check
+    (demand = F·u(x) + E(x)) allows exactly the force of the exact peak, so that the
+    flexure check's allowed force is never above the exact one.
+
+    Under a point load P at a plus the member's existing UDL w (N/m), on every end
+    condition M(x) = c0 + c1·x − w·x²/2 on each side of the load (AISC Manual
+    15th ed. Table 3-23 by superposition; Roark 7th ed. Table 8.1): left of a
+    c0 = P·M0u + M0w, c1 = P·R0u + R0w; right of a c0 = P·(M0u + a) + M0w,
+    c1 = P·(R0u − 1) + R0w, with (R0u, M0u) the unit load's and (R0w, M0w) the
+    UDL's left reaction and end moment. Inside a side M peaks where V = 0, at
+    x* = c1/w, with M* = c0 + c1²/(2w) (statics). M* = Mr is a quadratic in P,
+    (β²/2w)·P² + (α + β·R0w/w)·P + (M0w + R0w²/2w − Mr) = 0 (α, β: c0's and c1's
+    coefficients of P), whose larger root is the least P ≥ 0 at which the side's
+    peak reaches Mr; a side whose x* then lies outside it peaks at its ends (the
+    other stations). The side with the lesser such P gives x*; under the load (a)
+    where no side qualifies, where w ≤ 0, on a cantilever (hogging, its peak at the
+    root) and on members that carry others (their existing moment is not a
+    parabola; the other stations stand). ``share``: the member's share of the
+    force (only its sign is used: a member without a share keeps a). ``r_u``, ``r_w``,
+    ``m_w``: R0u, R0w, M0w where already known. Arrays broadcast; SI units (m, N/m,
+    N·m)."""
+    if r_u is None:
+        r_u, _ = by_condition(beam.unit_reactions, cond, L, a)
+    m_u, _ = by_condition(beam.unit_end_moments, cond, L, a)
+    if r_w is None:
+        r_w, _ = by_condition(beam.udl_reactions, cond, L, w)
+    if m_w is None:
+        m_w, _ = by_condition(beam.udl_end_moments, cond, L, w)
+    ok = (w > 0.0) & (share > 0.0) & ~carries & (cond != COND_NAMES.index("cantilever"))
+    ws = np.where(ok, w, 1.0)
+    best_P = np.full(np.shape(a), np.inf)
+    x_best = np.array(a, dtype=float, copy=True)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        for alpha, beta, lo, hi in ((m_u, r_u, 0.0 * a, a), (m_u + a, r_u - 1.0, a, L)):
+            qa = beta * beta / (2.0 * ws)
+            qb = alpha + beta * r_w / ws
+            qc = m_w + r_w * r_w / (2.0 * ws) - Mr
+            root = np.sqrt(np.maximum(qb * qb - 4.0 * qa * qc, 0.0))
+            # the larger root, in the form that keeps its digits (qa may be 0)
+            P = np.where(qb > 0.0, -2.0 * qc / (qb + root), (root - qb) / (2.0 * qa))
+            x = (beta * P + r_w) / ws
+            use = ok & (qc <= 0.0) & np.isfinite(P) & (P >= 0.0) & (x >= lo) & (x <= hi) \
+                & (P < best_P)
+            best_P = np.where(use, P, best_P)
+            x_best = np.where(use, x, x_best)
+    return x_best
 
 
 def _fixed_station_table(fm: FloorModel, S_l: int) -> np.ndarray:
@@ -323,7 +455,8 @@ def _fixed_station_table(fm: FloorModel, S_l: int) -> np.ndarray:
         tab = np.zeros((S_l, fr.n_members))
         for k in range(fr.n_members):
             L = np.array([fr.L[k]])
-            x = _loaded_stations(np.zeros((1, 1, 1)), L[:, None, None], S_l > 5)[0, :, 0]
+            x = _loaded_stations(np.zeros((1, 1, 1)), L[:, None, None],
+                                 S_l > _S_PLAIN)[0, :, 0]
             tab[:, k] = existing_moment(fr, fm.w0, fm.P0, k, x) / fm.Mr[k]
         fm._memo[key] = tab
     return tab
@@ -409,22 +542,15 @@ def web_resistances(fm: FloorModel, fns: Sequence[Callable[..., np.ndarray]],
 
 def _distinct(b: np.ndarray, limit: int = 16) -> tuple[np.ndarray, np.ndarray]:
     """``np.unique(b, return_inverse=True)`` for a 1-D array holding few distinct
-    values (a bearing length per load and mat thickness): the values are found in
-    ascending order by repeated masked minima instead of a sort of every point."""
-    if b.size == 0:
+    values (a bearing length per load and mat thickness): the distinct values of a
+    sample of ``b`` (every k-th value), each value of ``b`` looked up among them by
+    bisection and the lookup verified exactly; where a value is missing from the
+    sample (or there are more than ``limit``), ``np.unique`` of every point."""
+    if b.size == 0 or np.isnan(b).any():
         return np.unique(b, return_inverse=True)
-    v = b.min()
-    vals = [v]
-    while np.isfinite(v):
-        v = np.min(b, where=b > v, initial=np.inf)
-        if not np.isfinite(v):
-            break
-        vals.append(v)
-        if len(vals) > limit:
-            break
-    u = np.array(vals)
-    if len(vals) > limit or not np.isfinite(u[-1]) or b.max() > u[-1]:
-        return np.unique(b, return_inverse=True)
-    return u, np.searchsorted(u, b)
-
-
+    u = np.unique(b[::max(1, b.size // 64)])
+    if u.size <= limit:
+        inv = np.minimum(np.searchsorted(u, b), u.size - 1)
+        if np.array_equal(u[inv], b):
+            return u, inv
+    return np.unique(b, return_inverse=True)

@@ -139,3 +139,25 @@ def test_zone_reaching_beyond_the_deck_is_flagged(frame):
     outside = LiftZone("Z", "z", "L", (15.0, 6.0), 0.0, 3.0, drift_margin=0.0)
     assert not droppoints.reaches_off_deck(frame, inside, 0.5)
     assert droppoints.reaches_off_deck(frame, outside, 0.5)
+
+
+def test_nearest_in_polygon_all_edges_equals_edge_by_edge():
+    """The nearest boundary point of a corridor, every edge at once (the kernel used
+    by :func:`droppoints.project_into_zone`), equals the plain edge-by-edge loop
+    exactly — the same floating-point expressions, the first nearest edge kept — on
+    random star polygons, some with a repeated (zero-length) edge. Invented polygons:
+    inputs only; the loop is the reference (nearest point on a segment, t clipped to
+    [0, 1]; common practice, no source)."""
+    rng = np.random.default_rng(7)
+    for k in range(60):
+        n = int(rng.integers(3, 12))
+        ang = np.sort(rng.uniform(0.0, 2.0 * np.pi, n))
+        r = rng.uniform(1.0, 5.0, n)
+        poly = tuple((float(a), float(b)) for a, b in zip(r * np.cos(ang), r * np.sin(ang),
+                                                          strict=True))
+        if k % 5 == 0:
+            poly = (*poly, poly[-1])
+        x, y = rng.uniform(-6.0, 6.0, 400), rng.uniform(-6.0, 6.0, 400)
+        fast = droppoints._nearest_in_polygon(poly, x, y)
+        plain = droppoints._nearest_in_polygon_by_edge(poly, x, y)
+        assert np.array_equal(fast[0], plain[0]) and np.array_equal(fast[1], plain[1])
