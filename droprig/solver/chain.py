@@ -73,6 +73,7 @@ from droprig.solver import (
     crushing,
     deck,
     limits,
+    loadpath,
     pads,
     plastic,
     pointhistory,
@@ -81,6 +82,7 @@ from droprig.solver import (
 from droprig.solver import footprint as footprint_mod
 from droprig.solver import impact as impact_mod
 from droprig.solver import local_damage as local_damage_mod
+from droprig.solver import struck_mass as struck_mass_mod
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry
 from droprig.solver.linear_checks import Check, Family, small_check
@@ -592,10 +594,15 @@ def compliance(c: Chain) -> Compliance:
 class StruckMass:
     """Per point: the path's Rayleigh mass scaled to the struck point ``m_e`` (kg;
     zero under a mat or a crushable layer, or where the framing mass is not taken) and
-    the share of kinetic energy kept by the hit ``eta`` = M/(M + m_e)."""
+    the share of kinetic energy kept by the hit ``eta`` = M/(M + m_e); ``m2`` (kg):
+    the struck path's Rayleigh mass with the slab and the superimposed dead load over
+    each member's tributary width (:func:`slab_path_mass`), referred to the framing
+    point — the second mass of the two-mass impact (zero where ``m_e`` is, and in the
+    deck-less mode, where the impact keeps the one-mass balance)."""
 
     m_e: np.ndarray
     eta: np.ndarray
+    m2: np.ndarray | None = None
 
 
 def struck_mass(c: Chain) -> StruckMass:
@@ -621,7 +628,53 @@ def struck_mass(c: Chain) -> StruckMass:
     # under a mat or a crushable layer the hit on the framing is no longer perfectly
     # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
     m_e = np.where(inp.protected, 0.0, m_e)
-    return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e))
+    m2 = None
+    if TWO_FORCES and d.bare is None and d.fm.settings.include_member_mass:
+        # the same share of the path's mass with the slab and superimposed dead load,
+        # referred to the framing point (x2 of the two-mass model moves W·f_s)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            bend = np.where(comp.f_s > 0.0, (comp.f_s - comp.f_col) / comp.f_s, 0.0)
+        m_slab = slab_path_mass(c)
+        m2 = np.where(inp.protected | ~np.isfinite(m_slab), 0.0, m_slab * bend**2)
+    return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e), m2=m2)
+
+
+TWO_FORCES = False
+"""Whether the floor chain gives two forces per point (contact and framing, the
+two-mass model with the slab's mass, :func:`struck_mass` ``m2``). Off: measured on the
+demos (README, "Two forces per point"), the contact force of a hard item on a bare
+deck is the crushing bound — tens of MN for ~0.1 ms — and the quasi-static punching
+and deck-flexure checks at that spike read U 50–130 where the slab's own local
+inertia, not modelled yet, carries it; until that local response is in, the
+floor keeps the one-mass force for every check (today's verdicts)."""
+
+
+def slab_frame(fm: FloorModel) -> loadpath.Frame:
+    """The floor's load path with the deck's self-weight and the level's superimposed
+    dead load added to each member's mass per length over its tributary width,
+    μ + (ρh + q_sd/g)·b (kg/m; :func:`droprig.solver.struck_mass.
+    distributed_mass_per_length`, lever rule, common practice, no source); the same
+    stiffness as ``fm.frame`` (built once per frame)."""
+    def make() -> loadpath.Frame:
+        lv = fm.level
+        q = lv.deck.self_weight_pressure + lv.superimposed_dead
+        extra = q / impact_mod.G * loadpath.tributary_widths(fm.frame)
+        return loadpath.build_frame(lv, include_member_mass=True, EI=fm.frame.EI,
+                                    extra_mass=extra)
+    return loadpath.frame_memo(fm.frame, "slab_frame", make)
+
+
+def slab_path_mass(c: Chain) -> np.ndarray:
+    """Rayleigh mass (kg) of the struck path with the slab and superimposed dead load
+    (:func:`slab_frame`; Timoshenko, *Strength of Materials* Part I, as
+    :mod:`droprig.solver.loadpath`) at the drop points, kept with the points'
+    geometry (load-independent)."""
+    geo = c.drop.geo
+    got = geo.cache.get("slab_path_mass")
+    if got is None or got.shape != geo.x.shape:
+        got = loadpath.evaluate(slab_frame(c.drop.fm), geo.x, geo.y).m_e
+        geo.cache["slab_path_mass"] = got
+    return got
 
 
 # --------------------------------------------------------------------------- 4. impact
@@ -632,7 +685,19 @@ class Impact:
     layer its crushed depth ``crush`` (m) and whether it bottomed out ``bottomed``;
     ``F_crush`` (N): the force at which the deck concrete under the footprint crushes
     (the bound on the contact force), ``deck_crush`` (m) how deep it crushed and
-    ``deck_through`` whether the crushing passed the cover."""
+    ``deck_through`` whether the crushing passed the cover.
+
+    Two forces per point: ``F`` is the force on the framing (member flexure, shear,
+    connections, webs under the load, columns, the slab's yield lines, beyond yield
+    and the inverse answers) and ``F_contact`` the force between the load and the
+    struck surface (deck flexure and punching, the crushing bound, local damage);
+    both from :func:`droprig.solver.struck_mass.impact_two_forces` where the two-mass
+    idealisation applies (a bare deck and the struck path's mass with the slab,
+    ``StruckMass.m2`` > 0), and both today's one force elsewhere (under mats and
+    crushable layers, deck-less). ``eta_frame``: the share of the energy that, in
+    the one-mass balance on f, gives ``F`` (:func:`droprig.solver.struck_mass.
+    equivalent_eta`; ``eta`` of the struck mass where one force); ``two_mass``
+    (bool): the points with two forces."""
 
     K: np.ndarray
     F: np.ndarray
@@ -643,6 +708,23 @@ class Impact:
     F_crush: np.ndarray
     deck_crush: np.ndarray
     deck_through: np.ndarray
+    F_contact: np.ndarray | None = None
+    eta_frame: np.ndarray | None = None
+    two_mass: np.ndarray | None = None
+
+    @property
+    def contact(self) -> np.ndarray:
+        """The contact force (N): ``F_contact``, or ``F`` where one force."""
+        return self.F if self.F_contact is None else self.F_contact
+
+    @property
+    def contact_ratio(self) -> np.ndarray:
+        """F_contact / F (1 where one force or F is 0 or not finite)."""
+        if self.F_contact is None:
+            return np.ones(self.F.shape)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            r = self.F_contact / self.F
+        return np.where(np.isfinite(r) & (self.F > 0.0), r, 1.0)
 
 
 def impact(c: Chain) -> Impact:
@@ -661,6 +743,19 @@ def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
     W, crushable = inp.W, inp.crushable
     K, F_el, d_max = impact_mod.impact_elastic(W, h, comp.f, sm.eta)
     F = F_el.copy()
+    # two forces where the two-mass idealisation applies: a bare deck (no mat or
+    # crushable layer) and the struck path's mass with the slab (StruckMass.m2)
+    two = np.zeros(n, dtype=bool)
+    F_frame_el = F_el
+    if sm.m2 is not None:
+        two = (~inp.protected & ~crushable & (sm.m2 > 0.0) & np.isfinite(comp.f)
+               & (comp.f_s > 0.0) & (comp.f_series > 0.0))
+        if two.any():
+            Fc2, Ff2 = struck_mass_mod.impact_two_forces(
+                W[two], h[two], comp.f_series[two], comp.f_s[two], sm.m2[two])
+            F[two] = Fc2
+            F_frame_el = F_el.copy()
+            F_frame_el[two] = Ff2
     crush = np.zeros(n)
     bottomed = np.zeros(n, dtype=bool)
     if crushable.any():
@@ -702,13 +797,29 @@ def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
         Fb, dep, thr = crushing.crushing_limited_impact(W[cap], h[cap], comp.f[cap],
                                                         sm.eta[cap], F_crush[cap],
                                                         depth_available)
-        F[cap] = Fb
+        # (a two-mass contact force above F_crush is capped at F_crush even where the
+        # one-mass balance alone would not crush)
+        F[cap] = np.maximum(Fb, F_crush[cap])
         deck_crush[cap] = dep
         deck_through[cap] = thr
         K = np.where(cap, F / W, K)
         d_max = np.where(cap, F * comp.f + deck_crush, d_max)
-    return Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed,
-                  F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through)
+    if not two.any():
+        return Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush,
+                      bottomed=bottomed, F_crush=F_crush, deck_crush=deck_crush,
+                      deck_through=deck_through)
+    # the force on the framing: the two-mass model's; where the contact crushes, at
+    # most twice the contact force it lets through (a suddenly applied constant force
+    # on an elastic system, dynamic load factor 2: Biggs 1964 ch. 2 — from memory)
+    F_frame = np.where(two, np.minimum(F_frame_el, np.where(cap, 2.0 * F, np.inf)), F)
+    eta_frame = np.where(two, struck_mass_mod.equivalent_eta(W, h, comp.f, F_frame, sm.eta),
+                         sm.eta)
+    K = np.where(two, F_frame / W, K)
+    d_max = np.where(two, F_frame * comp.f + deck_crush, d_max)
+    return Impact(K=K, F=F_frame, d_max=d_max, d_st=W * comp.f, crush=crush,
+                  bottomed=bottomed, F_crush=F_crush, deck_crush=deck_crush,
+                  deck_through=deck_through, F_contact=F, eta_frame=eta_frame,
+                  two_mass=two)
 
 
 def crush_depth_available(c: Chain) -> float:
@@ -820,7 +931,31 @@ def demands(c: Chain) -> Demands:
     out["deck_punching"] = small_check("deck_punching", F, beta[None, :], None,
                                        np.broadcast_to(R_punch, (n,))[None, :], deckm,
                                        detail)
-    return Demands(checks=out, actions=ua)
+    return Demands(checks=on_contact(out, imp), actions=ua)
+
+
+CONTACT_CHECKS = ("deck_flexure", "deck_punching")
+"""Check families driven by the contact force (the deck lies within the contact
+springs of the two-mass model: its indentation and strip bending); every other family
+takes the force on the framing (``Impact.F``)."""
+
+
+def on_contact(checks: dict[str, Check], imp: Impact) -> dict[str, Check]:
+    """The :data:`CONTACT_CHECKS` of ``checks`` (built at the framing force F) at the
+    contact force F_contact = A·F, A = ``imp.contact_ratio``: U = U_at(A·F), allowed
+    force F_allow/A in terms of F (linear in F, as :func:`_scaled`); unchanged where
+    the impact gives one force."""
+    if imp.F_contact is None:
+        return checks
+    A = imp.contact_ratio
+    out = dict(checks)
+    for name in CONTACT_CHECKS:
+        if name in out:
+            sc = _scaled(out[name], A)
+            out[name] = Check(name=sc.name, U=sc.U_at(imp.F), F_allow=sc.F_allow,
+                              member=sc.member, unit=sc.unit, exist=sc.exist,
+                              resist=sc.resist, U_at=sc.U_at)
+    return out
 
 
 # --------------------------------------------------------------------------- 5a. amplification
@@ -1428,7 +1563,9 @@ def beyond_yield(c: Chain) -> BeyondYield:
     d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
     ua, ck, sr = c[Demands].actions, c[Checks], c[SlabResistance]
     s, n = d.fm.settings, d.n
-    W, F_c, s_c, eta = inp.W, inp.F_c, inp.s_c, sm.eta
+    W, F_c, s_c = inp.W, inp.F_c, inp.s_c
+    # the framing's share of the energy: the two-mass model's where it applies
+    eta = sm.eta if imp.eta_frame is None else imp.eta_frame
     h = energy_fall(c, inp.h)  # with the hoist's lowering speed head
     R_p, f_s, f = sr.R, comp.f_s, comp.f
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
@@ -1589,7 +1726,12 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     ck, by, sr = c[Checks], c[BeyondYield], c[SlabResistance]
     ua = c[Demands].actions
     s = d.fm.settings
-    W, eta, F_c, s_c, crushable = inp.W, sm.eta, inp.F_c, inp.s_c, inp.crushable
+    W, F_c, s_c, crushable = inp.W, inp.F_c, inp.s_c, inp.crushable
+    # the framing's share of the energy (two-mass model where it applies; the
+    # allowed force F_allow is stated as a force on the framing, the contact checks
+    # scaled to it): the height at which the one-mass balance with this share gives
+    # F_allow (struck_mass.equivalent_eta)
+    eta = sm.eta if imp.eta_frame is None else imp.eta_frame
     F_allow, R_p, f_s, f = ck.F_allow, by.R_p, comp.f_s, comp.f
     Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
@@ -1599,8 +1741,10 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     # gone through the cover (impact step, crushing_limited_impact): the height at
     # which the force then reaches F_allow takes the crushing work (F_crush − W)·cover
     cover = crush_depth_available(c)  # as the impact step's depth
-    h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow), imp.F_crush,
-                             np.full(d.n, cover), W, eta)
+    # (the crushing bounds the contact force: F_crush against the allowed force at
+    # the contact, F_allow·F_contact/F)
+    h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow * imp.contact_ratio),
+                             imp.F_crush, np.full(d.n, cover), W, eta)
     # the energy heights above as free falls: less the hoist's lowering speed head
     h_el = fall_from_energy(c, h_el)
     if s.dynamic_amplification and not d.trial:
@@ -1886,9 +2030,12 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
     out = {
         "x": geo.x, "y": geo.y, "bay": geo.bay, "protection": geo.protection,
         "drop_height": inp.H, "fall_height": inp.h, "structure_compliance": comp.f_struct,
-        "static_deflection": imp.d_st, "effective_mass": sm.m_e,
+        "static_deflection": imp.d_st,
+        # the struck mass the impact used: with the slab where two forces
+        "effective_mass": sm.m_e if imp.two_mass is None or sm.m2 is None
+        else np.where(imp.two_mass, sm.m2, sm.m_e),
         "dynamic_factor": imp.K, "peak_force": imp.F, "max_deflection": imp.d_max,
-        "deceleration_g": impact_mod.deceleration_g(imp.F, inp.W), "utilisation": ck.U,
+        "deceleration_g": impact_mod.deceleration_g(imp.contact, inp.W), "utilisation": ck.U,
         "governing_member": by.gov_member.astype(np.int64),
         "governing_check": by.gov_check.astype(np.int64), "response": by.response,
         # allowable heights on the datum: the fall they allow plus the pad's thickness
