@@ -697,7 +697,8 @@ class Impact:
     crushable layers, deck-less). ``eta_frame``: the share of the energy that, in
     the one-mass balance on f, gives ``F`` (:func:`droprig.solver.struck_mass.
     equivalent_eta`; ``eta`` of the struck mass where one force); ``two_mass``
-    (bool): the points with two forces."""
+    (bool): the points with two forces; ``F_deck`` (N): the force of the deck's
+    checks (flexure, punching; :func:`two_forces`)."""
 
     K: np.ndarray
     F: np.ndarray
@@ -711,6 +712,7 @@ class Impact:
     F_contact: np.ndarray | None = None
     eta_frame: np.ndarray | None = None
     two_mass: np.ndarray | None = None
+    F_deck: np.ndarray | None = None
 
     @property
     def contact(self) -> np.ndarray:
@@ -720,10 +722,18 @@ class Impact:
     @property
     def contact_ratio(self) -> np.ndarray:
         """F_contact / F (1 where one force or F is 0 or not finite)."""
-        if self.F_contact is None:
+        return self._ratio(self.F_contact)
+
+    @property
+    def deck_ratio(self) -> np.ndarray:
+        """F_deck / F (1 where one force or F is 0 or not finite)."""
+        return self._ratio(self.F_deck)
+
+    def _ratio(self, Fx: np.ndarray | None) -> np.ndarray:
+        if Fx is None:
             return np.ones(self.F.shape)
         with np.errstate(divide="ignore", invalid="ignore"):
-            r = self.F_contact / self.F
+            r = Fx / self.F
         return np.where(np.isfinite(r) & (self.F > 0.0), r, 1.0)
 
 
@@ -743,19 +753,6 @@ def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
     W, crushable = inp.W, inp.crushable
     K, F_el, d_max = impact_mod.impact_elastic(W, h, comp.f, sm.eta)
     F = F_el.copy()
-    # two forces where the two-mass idealisation applies: a bare deck (no mat or
-    # crushable layer) and the struck path's mass with the slab (StruckMass.m2)
-    two = np.zeros(n, dtype=bool)
-    F_frame_el = F_el
-    if sm.m2 is not None:
-        two = (~inp.protected & ~crushable & (sm.m2 > 0.0) & np.isfinite(comp.f)
-               & (comp.f_s > 0.0) & (comp.f_series > 0.0))
-        if two.any():
-            Fc2, Ff2 = struck_mass_mod.impact_two_forces(
-                W[two], h[two], comp.f_series[two], comp.f_s[two], sm.m2[two])
-            F[two] = Fc2
-            F_frame_el = F_el.copy()
-            F_frame_el[two] = Ff2
     crush = np.zeros(n)
     bottomed = np.zeros(n, dtype=bool)
     if crushable.any():
@@ -797,29 +794,65 @@ def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
         Fb, dep, thr = crushing.crushing_limited_impact(W[cap], h[cap], comp.f[cap],
                                                         sm.eta[cap], F_crush[cap],
                                                         depth_available)
-        # (a two-mass contact force above F_crush is capped at F_crush even where the
-        # one-mass balance alone would not crush)
-        F[cap] = np.maximum(Fb, F_crush[cap])
+        F[cap] = Fb
         deck_crush[cap] = dep
         deck_through[cap] = thr
         K = np.where(cap, F / W, K)
         d_max = np.where(cap, F * comp.f + deck_crush, d_max)
+    one = Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed,
+                 F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through)
+    return two_forces(c, h, one)
+
+
+def two_forces(c: Chain, h: np.ndarray, one: Impact) -> Impact:
+    """The impact's two forces where the two-mass idealisation applies (a bare deck —
+    no mat or crushable layer — and the struck path's mass with the slab,
+    ``StruckMass.m2``; ``h`` the energy heights, m), on top of the one-force impact
+    ``one`` (returned unchanged elsewhere, and where :data:`TWO_FORCES` is off).
+
+    * Contact force F_c (N): :func:`droprig.solver.struck_mass.impact_two_forces`
+      with the contact springs f_series (the load's underside, the deck's indentation
+      and strip) against the framing f_s and its mass m2; bounded by the crushing of
+      the struck surface, F_crush (the one-force step's bound; above it the
+      one-force crushing result, which exceeds F_crush only where the crushing passed
+      the cover).
+    * Force on the framing F (N): the two-mass framing force; where the contact
+      crushes, at most twice the contact force it lets through (a suddenly applied
+      constant force on an elastic system, dynamic load factor 2: Biggs 1964 ch. 2 —
+      from memory).
+    * Force on the deck ``F_deck`` (N, deck flexure and punching): the contact force
+      where the load's underside is declared (a soft contact, CEB Bulletin 187's soft
+      impact — from memory); for a hard load on a bare deck the contact spike (a
+      fraction of a millisecond) is the hard-missile local damage's to judge
+      (:func:`local_damage`, DOE-STD-3014 App. C), and the deck's quasi-static checks
+      keep the one-mass force of the load on the deck and framing in series
+      (``one.F``)."""
+    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
+    if sm.m2 is None:
+        return one
+    two = (~inp.protected & ~inp.crushable & (sm.m2 > 0.0) & np.isfinite(comp.f)
+           & (comp.f_s > 0.0) & (comp.f_series > 0.0) & np.isfinite(one.F))
     if not two.any():
-        return Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush,
-                      bottomed=bottomed, F_crush=F_crush, deck_crush=deck_crush,
-                      deck_through=deck_through)
-    # the force on the framing: the two-mass model's; where the contact crushes, at
-    # most twice the contact force it lets through (a suddenly applied constant force
-    # on an elastic system, dynamic load factor 2: Biggs 1964 ch. 2 — from memory)
-    F_frame = np.where(two, np.minimum(F_frame_el, np.where(cap, 2.0 * F, np.inf)), F)
-    eta_frame = np.where(two, struck_mass_mod.equivalent_eta(W, h, comp.f, F_frame, sm.eta),
+        return one
+    W = inp.W
+    Fc = one.F.copy()
+    Ff = one.F.copy()
+    Fc2, Ff2 = struck_mass_mod.impact_two_forces(W[two], h[two], comp.f_series[two],
+                                                 comp.f_s[two], sm.m2[two])
+    crushes = Fc2 > one.F_crush[two]
+    Fc[two] = np.where(crushes, np.maximum(one.F_crush[two], one.F[two]), Fc2)
+    Ff[two] = np.where(crushes, np.minimum(Ff2, 2.0 * Fc[two]), Ff2)
+    soft = inp.f_load > 0.0
+    F_deck = np.where(two & soft, Fc, one.F)
+    eta_frame = np.where(two, struck_mass_mod.equivalent_eta(W, h, comp.f, Ff, sm.eta),
                          sm.eta)
-    K = np.where(two, F_frame / W, K)
-    d_max = np.where(two, F_frame * comp.f + deck_crush, d_max)
-    return Impact(K=K, F=F_frame, d_max=d_max, d_st=W * comp.f, crush=crush,
-                  bottomed=bottomed, F_crush=F_crush, deck_crush=deck_crush,
-                  deck_through=deck_through, F_contact=F, eta_frame=eta_frame,
-                  two_mass=two)
+    K = np.where(two, Ff / W, one.K)
+    d_max = np.where(two, Ff * comp.f + one.deck_crush, one.d_max)
+    del d
+    return Impact(K=K, F=Ff, d_max=d_max, d_st=one.d_st, crush=one.crush,
+                  bottomed=one.bottomed, F_crush=one.F_crush, deck_crush=one.deck_crush,
+                  deck_through=one.deck_through, F_contact=Fc, eta_frame=eta_frame,
+                  two_mass=two, F_deck=F_deck)
 
 
 def crush_depth_available(c: Chain) -> float:
@@ -942,12 +975,12 @@ takes the force on the framing (``Impact.F``)."""
 
 def on_contact(checks: dict[str, Check], imp: Impact) -> dict[str, Check]:
     """The :data:`CONTACT_CHECKS` of ``checks`` (built at the framing force F) at the
-    contact force F_contact = A·F, A = ``imp.contact_ratio``: U = U_at(A·F), allowed
-    force F_allow/A in terms of F (linear in F, as :func:`_scaled`); unchanged where
-    the impact gives one force."""
-    if imp.F_contact is None:
+    deck's force F_deck = A·F (:func:`two_forces`), A = ``imp.deck_ratio``: U =
+    U_at(A·F), allowed force F_allow/A in terms of F (linear in F, as
+    :func:`_scaled`); unchanged where the impact gives one force."""
+    if imp.F_deck is None:
         return checks
-    A = imp.contact_ratio
+    A = imp.deck_ratio
     out = dict(checks)
     for name in CONTACT_CHECKS:
         if name in out:
@@ -1743,7 +1776,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     cover = crush_depth_available(c)  # as the impact step's depth
     # (the crushing bounds the contact force: F_crush against the allowed force at
     # the contact, F_allow·F_contact/F)
-    h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow * imp.contact_ratio),
+    h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow * imp.deck_ratio),
                              imp.F_crush, np.full(d.n, cover), W, eta)
     # the energy heights above as free falls: less the hoist's lowering speed head
     h_el = fall_from_energy(c, h_el)

@@ -126,97 +126,123 @@ def _refine_max(c: np.ndarray, A: tuple[np.ndarray, ...], w: tuple[np.ndarray, .
     return y
 
 
+def _rotate(c: np.ndarray, s: np.ndarray, cd: np.ndarray, sd: np.ndarray
+            ) -> tuple[np.ndarray, np.ndarray]:
+    """cos and sin of (θ + δ) from those of θ and δ (angle addition)."""
+    return c * cd - s * sd, s * cd + c * sd
+
+
 def _episode(M, kc, m2, k2, W, modes, state):
     """One contact from ``state`` = (y1, v1, y2, v2) (displacements from the static
     position in contact, m; velocities, m/s; (n,) each): peaks of the contact force
     and of x2 − x_st2 while in contact, whether and when the load leaves the
-    structure, and the state then."""
+    structure (``sep``, ``t_sep``, s), and the state then. The samples step through
+    time by angle addition (one cos/sin per mode and window, not one per sample)."""
     w_lo, w_hi, p_lo, p_hi, w2_lo, w2_hi = modes
     y1, v1, y2, v2 = state
     det = p_hi - p_lo
     qa_lo, qa_hi = (p_hi * y1 - y2) / det, (y2 - p_lo * y1) / det
     qb_lo, qb_hi = (p_hi * v1 - v2) / det / w_lo, (v2 - p_lo * v1) / det / w_hi
     # F = W + M·ω_lo²·q_lo + M·ω_hi²·q_hi (k_c·(1 − p) = M·ω²);
-    # k2·x2 = W + k2·(p_lo·q_lo + p_hi·q_hi)
-    fF = (M * w2_lo, M * w2_hi)
-    fX = (p_lo, p_hi)
+    # k2·x2 = W + k2·(p_lo·q_lo + p_hi·q_hi): coefficients of cos and sin per mode
+    FA_lo, FB_lo = M * w2_lo * qa_lo, M * w2_lo * qb_lo
+    FA_hi, FB_hi = M * w2_hi * qa_hi, M * w2_hi * qb_hi
+    XA_lo, XB_lo = p_lo * qa_lo, p_lo * qb_lo
+    XA_hi, XB_hi = p_hi * qa_hi, p_hi * qb_hi
     n = M.shape[0]
-    s = np.arange(1, FAST_SAMPLES + 1)[None, :] / FAST_SAMPLES
-    t_fast = s * (3.0 * np.pi / w_hi[:, None])
-    t_slow = (np.arange(1, SLOW_SAMPLES + 1)[None, :] / SLOW_SAMPLES) * (
-        2.0 * np.pi / w_lo[:, None])
-    t_slow = np.maximum(t_slow, t_fast[:, -1:])
-    rows = np.arange(n)
-
-    def q(t, wk, qa, qb):
-        wt = wk[:, None] * t
-        return qa[:, None] * np.cos(wt) + qb[:, None] * np.sin(wt)
-
-    ql_f, qh_f = q(t_fast, w_lo, qa_lo, qb_lo), q(t_fast, w_hi, qa_hi, qb_hi)
-    F_f = W[:, None] + fF[0][:, None] * ql_f + fF[1][:, None] * qh_f
-    X_f = fX[0][:, None] * ql_f + fX[1][:, None] * qh_f
-    ql_s = q(t_slow, w_lo, qa_lo, qb_lo)
-    R_hi = np.hypot(qa_hi, qb_hi)
-    qh_s = q(t_slow, w_hi, qa_hi, qb_hi)
-    F_s = W[:, None] + fF[0][:, None] * ql_s + fF[1][:, None] * qh_s
-    # separation: the first sample with a pulling contact force
-    t_all = np.concatenate([t_fast, t_slow], axis=1)
-    F_all = np.concatenate([F_f, F_s], axis=1)
-    neg = F_all < 0.0
-    k = np.where(neg.any(axis=1), neg.argmax(axis=1), t_all.shape[1])
-    sep = k < t_all.shape[1]
-    kk = np.minimum(k, t_all.shape[1] - 1)
-    kp = np.maximum(kk - 1, 0)
-    ta = np.where(kk > 0, t_all[rows, kp], 0.0)
-    Fa = np.where(kk > 0, F_all[rows, kp], W + fF[0] * qa_lo + fF[1] * qa_hi)
-    tb, Fb = t_all[rows, kk], F_all[rows, kk]
-    # secant steps on F(t) = 0 within [ta, tb]
+    F0 = W + FA_lo + FA_hi
+    X0 = XA_lo + XA_hi
+    F_pk, X_pk = F0.copy(), X0.copy()
+    tF, tX = np.zeros(n), np.zeros(n)
+    alive = np.ones(n, dtype=bool)  # still in contact
+    t_a, F_a = np.zeros(n), F0.copy()  # last sample in contact
+    t_b, F_b = np.full(n, np.inf), np.full(n, -1.0)  # first sample apart
+    # fast window: 1½ periods of the fast mode, sampled and refined
+    dt = 3.0 * np.pi / w_hi / FAST_SAMPLES
+    cdl, sdl = np.cos(w_lo * dt), np.sin(w_lo * dt)
+    cdh, sdh = np.cos(w_hi * dt), np.sin(w_hi * dt)
+    cl, sl, ch, sh = np.ones(n), np.zeros(n), np.ones(n), np.zeros(n)
+    for k in range(1, FAST_SAMPLES + 1):
+        cl, sl = _rotate(cl, sl, cdl, sdl)
+        ch, sh = _rotate(ch, sh, cdh, sdh)
+        t = k * dt
+        F = W + FA_lo * cl + FB_lo * sl + FA_hi * ch + FB_hi * sh
+        X = XA_lo * cl + XB_lo * sl + XA_hi * ch + XB_hi * sh
+        leave = alive & (F < 0.0)
+        if leave.any():
+            t_b = np.where(leave, t, t_b)
+            F_b = np.where(leave, F, F_b)
+            alive &= ~leave
+        up = alive & (F > F_pk)
+        F_pk = np.where(up, F, F_pk)
+        tF = np.where(up, t, tF)
+        up = alive & (X > X_pk)
+        X_pk = np.where(up, X, X_pk)
+        tX = np.where(up, t, tX)
+        t_a = np.where(alive, t, t_a)
+        F_a = np.where(alive, F, F_a)
+    t_fast = FAST_SAMPLES * dt
+    ws = (w_lo, w_hi)
+    hi_t = np.minimum(t_fast, t_b)
+    Fr = _refine_max(W, (FA_lo, FB_lo, FA_hi, FB_hi), ws, tF, np.zeros(n), hi_t)
+    Xr = _refine_max(np.zeros(n), (XA_lo, XB_lo, XA_hi, XB_hi), ws, tX, np.zeros(n), hi_t)
+    F_pk = np.maximum(F_pk, Fr)
+    X_pk = np.maximum(X_pk, Xr)
+    # slow window: one period of the slow mode after the fast window, the slow part
+    # sampled and refined, the fast mode's ripple added at its amplitude (upper bound)
+    R_F = np.hypot(FA_hi, FB_hi)
+    R_X = np.hypot(XA_hi, XB_hi)
+    slow = alive.copy()
+    if slow.any():
+        dts = np.maximum(2.0 * np.pi / w_lo / SLOW_SAMPLES, 1e-300)
+        cdl, sdl = np.cos(w_lo * dts), np.sin(w_lo * dts)
+        cdh, sdh = np.cos(w_hi * dts), np.sin(w_hi * dts)
+        cl, sl = np.cos(w_lo * t_fast), np.sin(w_lo * t_fast)
+        ch, sh = np.cos(w_hi * t_fast), np.sin(w_hi * t_fast)
+        sF_pk, sX_pk = np.full(n, -np.inf), np.full(n, -np.inf)
+        tsF, tsX = t_fast.copy(), t_fast.copy()
+        for k in range(1, SLOW_SAMPLES + 1):
+            cl, sl = _rotate(cl, sl, cdl, sdl)
+            ch, sh = _rotate(ch, sh, cdh, sdh)
+            t = t_fast + k * dts
+            F_slow = W + FA_lo * cl + FB_lo * sl
+            F = F_slow + FA_hi * ch + FB_hi * sh
+            leave = alive & (F < 0.0)
+            if leave.any():
+                t_b = np.where(leave, t, t_b)
+                F_b = np.where(leave, F, F_b)
+                alive &= ~leave
+            Fb_ = F_slow + R_F
+            Xb_ = XA_lo * cl + XB_lo * sl + R_X
+            up = alive & (Fb_ > sF_pk)
+            sF_pk = np.where(up, Fb_, sF_pk)
+            tsF = np.where(up, t, tsF)
+            up = alive & (Xb_ > sX_pk)
+            sX_pk = np.where(up, Xb_, sX_pk)
+            tsX = np.where(up, t, tsX)
+            t_a = np.where(alive, t, t_a)
+            F_a = np.where(alive, F, F_a)
+        hi_s = np.minimum(t_fast + SLOW_SAMPLES * dts, t_b)
+        Fs_r = _refine_max(W + R_F, (FA_lo, FB_lo), (w_lo,), tsF, t_fast, hi_s)
+        Xs_r = _refine_max(R_X, (XA_lo, XB_lo), (w_lo,), tsX, t_fast, hi_s)
+        got = np.isfinite(sF_pk)
+        F_pk = np.where(got, np.maximum(F_pk, np.maximum(sF_pk, Fs_r)), F_pk)
+        X_pk = np.where(got, np.maximum(X_pk, np.maximum(sX_pk, Xs_r)), X_pk)
+    sep = np.isfinite(t_b)
+    # the separation time: secant steps on F(t) = 0 within [t_a, t_b]
+    ta, Fa = t_a, F_a
+    tb, Fb = np.where(sep, t_b, 0.0), F_b
     for _ in range(3):
         with np.errstate(divide="ignore", invalid="ignore"):
             tm = np.where(Fa > Fb, ta + (tb - ta) * Fa / (Fa - Fb), tb)
-        tm = np.clip(np.where(np.isfinite(tm), tm, tb), ta, tb)
-        Fm = (W + fF[0] * (qa_lo * np.cos(w_lo * tm) + qb_lo * np.sin(w_lo * tm))
-              + fF[1] * (qa_hi * np.cos(w_hi * tm) + qb_hi * np.sin(w_hi * tm)))
+        tm = np.clip(np.where(np.isfinite(tm), tm, tb), np.minimum(ta, tb), tb)
+        Fm = (W + FA_lo * np.cos(w_lo * tm) + FB_lo * np.sin(w_lo * tm)
+              + FA_hi * np.cos(w_hi * tm) + FB_hi * np.sin(w_hi * tm))
         pos = Fm >= 0.0
         ta, Fa = np.where(pos, tm, ta), np.where(pos, Fm, Fa)
         tb, Fb = np.where(pos, tb, tm), np.where(pos, Fb, Fm)
-    t_sep = np.where(sep, 0.5 * (ta + tb), np.inf)
-    # peaks while in contact: the fast window sampled and refined; the slow window
-    # as its slow part plus the fast mode's amplitude (an upper bound)
-    live_f = t_fast <= t_sep[:, None]
-    live_s = t_slow <= t_sep[:, None]
-    F0 = W + fF[0] * qa_lo + fF[1] * qa_hi
-    Fpk = np.maximum(F0, np.max(np.where(live_f, F_f, -np.inf), axis=1))
-    X0 = fX[0] * qa_lo + fX[1] * qa_hi
-    Xpk = np.maximum(X0, np.max(np.where(live_f, X_f, -np.inf), axis=1))
-    hi_t = np.minimum(t_fast[:, -1], t_sep)
-    jf = np.argmax(np.where(live_f, F_f, -np.inf), axis=1)
-    jx = np.argmax(np.where(live_f, X_f, -np.inf), axis=1)
-    ws = (w_lo, w_hi)
-    Fr = _refine_max(W, (fF[0] * qa_lo, fF[0] * qb_lo, fF[1] * qa_hi, fF[1] * qb_hi), ws,
-                     t_fast[rows, jf], np.zeros(n), hi_t)
-    Xr = _refine_max(np.zeros(n), (fX[0] * qa_lo, fX[0] * qb_lo, fX[1] * qa_hi,
-                                   fX[1] * qb_hi), ws, t_fast[rows, jx], np.zeros(n), hi_t)
-    Fpk = np.maximum(Fpk, Fr)
-    Xpk = np.maximum(Xpk, Xr)
-    any_s = live_s & (t_slow > t_fast[:, -1:])
-    slowF = W[:, None] + fF[0][:, None] * ql_s + (fF[1] * R_hi)[:, None]
-    slowX = fX[0][:, None] * ql_s + np.abs(fX[1] * R_hi)[:, None]
-    Fpk = np.maximum(Fpk, np.max(np.where(any_s, slowF, -np.inf), axis=1))
-    Xpk = np.maximum(Xpk, np.max(np.where(any_s, slowX, -np.inf), axis=1))
-    # the slow window's own peak between samples: Newton from its best sample
-    js = np.argmax(np.where(any_s, slowF, -np.inf), axis=1)
-    has_s = any_s.any(axis=1)
-    hi_s = np.minimum(t_slow[:, -1], t_sep)
-    Fs_r = _refine_max(W + fF[1] * R_hi, (fF[0] * qa_lo, fF[0] * qb_lo), (w_lo,),
-                       t_slow[rows, js], t_fast[:, -1], hi_s)
-    Fpk = np.where(has_s, np.maximum(Fpk, Fs_r), Fpk)
-    jsx = np.argmax(np.where(any_s, slowX, -np.inf), axis=1)
-    Xs_r = _refine_max(np.abs(fX[1] * R_hi), (fX[0] * qa_lo, fX[0] * qb_lo), (w_lo,),
-                       t_slow[rows, jsx], t_fast[:, -1], hi_s)
-    Xpk = np.where(has_s, np.maximum(Xpk, Xs_r), Xpk)
+    ts = np.where(sep, 0.5 * (ta + tb), 0.0)
     # the state at separation
-    ts = np.where(sep, t_sep, 0.0)
     cl, sl = np.cos(w_lo * ts), np.sin(w_lo * ts)
     ch, sh = np.cos(w_hi * ts), np.sin(w_hi * ts)
     ql = qa_lo * cl + qb_lo * sl
@@ -224,7 +250,42 @@ def _episode(M, kc, m2, k2, W, modes, state):
     qld = w_lo * (qb_lo * cl - qa_lo * sl)
     qhd = w_hi * (qb_hi * ch - qa_hi * sh)
     out = (ql + qh, qld + qhd, p_lo * ql + p_hi * qh, p_lo * qld + p_hi * qhd)
-    return Fpk, Xpk, sep, ts, out
+    return F_pk, X_pk, sep, ts, out
+
+
+def _catch_up(x1: np.ndarray, v1: np.ndarray, x2: np.ndarray, v2: np.ndarray,
+              wf: np.ndarray, left: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """First time τ in (0, left] (s) at which the falling load x1 + v1·τ + g·τ²/2
+    reaches the freely vibrating structure x2·cos(ωτ) + (v2/ω)·sin(ωτ) (m, m/s,
+    rad/s): sampled at :data:`GAP_SAMPLES` points (angle addition), then secant
+    steps. Returns (found, τ)."""
+    n = x1.shape[0]
+    dt = left / GAP_SAMPLES
+    cd, sd = np.cos(wf * dt), np.sin(wf * dt)
+    c, s = np.ones(n), np.zeros(n)
+    b2 = v2 / wf
+    found = np.zeros(n, dtype=bool)
+    ta, ga = np.zeros(n), x1 - x2
+    tb, gb = left.copy(), np.zeros(n)
+    for k in range(1, GAP_SAMPLES + 1):
+        c, s = _rotate(c, s, cd, sd)
+        t = k * dt
+        g = x1 + v1 * t + 0.5 * G * t * t - (x2 * c + b2 * s)
+        hit = ~found & (g >= 0.0)
+        tb = np.where(hit, t, tb)
+        gb = np.where(hit, g, gb)
+        found |= hit
+        ta = np.where(found, ta, t)
+        ga = np.where(found, ga, g)
+    for _ in range(3):
+        with np.errstate(divide="ignore", invalid="ignore"):
+            tm = np.where(gb > ga, ta + (tb - ta) * (-ga) / (gb - ga), tb)
+        tm = np.clip(np.where(np.isfinite(tm), tm, tb), ta, tb)
+        gm = x1 + v1 * tm + 0.5 * G * tm * tm - (x2 * np.cos(wf * tm) + b2 * np.sin(wf * tm))
+        neg = gm < 0.0
+        ta, ga = np.where(neg, tm, ta), np.where(neg, gm, ga)
+        tb, gb = np.where(neg, tb, tm), np.where(neg, gb, gm)
+    return found, tb
 
 
 def two_mass_peaks(M: ArrayLike, v0: ArrayLike, k_c: ArrayLike, m2: ArrayLike,
@@ -287,37 +348,9 @@ def two_mass_peaks(M: ArrayLike, v0: ArrayLike, k_c: ArrayLike, m2: ArrayLike,
         go = sep & (left > 0.0)
         if not go.any():
             break
-        # the gap x1 − x2 in free flight; the load catches the structure at its first
-        # sign change (sampled, then secant steps)
+        # the load catches the structure again (the gap x1 − x2 reaches 0)
         j = np.flatnonzero(go)
-        tau = (np.arange(1, GAP_SAMPLES + 1)[None, :] / GAP_SAMPLES) * left[j, None]
-
-        def gap(tt, j=j, x1=x1, v1=v1, x2=x2, v2=v2, wf=wf):
-            tt = np.asarray(tt)
-            sh = (slice(None),) + (None,) * (tt.ndim - 1)
-            a1 = x1[j][sh] + v1[j][sh] * tt + 0.5 * G * tt**2
-            a2 = (x2[j][sh] * np.cos(wf[j][sh] * tt)
-                  + v2[j][sh] / wf[j][sh] * np.sin(wf[j][sh] * tt))
-            return a1 - a2
-
-        g = gap(tau)
-        hit = g >= 0.0
-        got = hit.any(axis=1)
-        kk = hit.argmax(axis=1)
-        rj = np.arange(j.size)
-        tb = tau[rj, kk]
-        ta = np.where(kk > 0, tau[rj, np.maximum(kk - 1, 0)], 0.0)
-        ga = np.where(kk > 0, g[rj, np.maximum(kk - 1, 0)], -1e-300)
-        gb = g[rj, kk]
-        for _s in range(3):
-            with np.errstate(divide="ignore", invalid="ignore"):
-                tm = np.where(gb > ga, ta + (tb - ta) * (-ga) / (gb - ga), tb)
-            tm = np.clip(np.where(np.isfinite(tm), tm, tb), ta, tb)
-            gm = gap(tm)
-            neg = gm < 0.0
-            ta, ga = np.where(neg, tm, ta), np.where(neg, gm, ga)
-            tb, gb = np.where(neg, tb, tm), np.where(neg, gb, gm)
-        tj = tb
+        got, tj = _catch_up(x1[j], v1[j], x2[j], v2[j], wf[j], left[j])
         j, tj = j[got], tj[got]
         if not j.size:
             break

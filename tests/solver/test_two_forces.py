@@ -17,6 +17,7 @@ import numpy as np
 import pytest
 
 from droprig.solver import struck_mass
+from droprig.solver.chain import Compliance as Compliance_
 from droprig.solver.impact import G, impact_elastic
 
 
@@ -138,20 +139,26 @@ def _rooftop_chains(monkeypatch, on: bool):
 
 
 def test_chain_carries_both_forces(monkeypatch):
-    from droprig.solver.chain import Demands, Impact, StruckMass
+    from droprig.solver.chain import Demands, Impact, LoadInputs, StruckMass
 
     on = _rooftop_chains(monkeypatch, True)
     off = _rooftop_chains(monkeypatch, False)
+    kinds = set()
     for c1, c0 in zip(on, off, strict=True):
         i1, i0, sm1 = c1[Impact], c0[Impact], c1[StruckMass]
         assert i0.F_contact is None and i1.F_contact is not None
         assert bool(np.all(i1.two_mass))
         # the slab's mass: tonnes, against the steel's hundreds of kg
         assert bool(np.all(sm1.m2 > 10 * sm1.m_e))
+        # the deck's force: the contact force under a declared (soft) underside; for a
+        # hard load the one-mass force of the load on deck and framing in series
+        soft = bool(np.all(c1[LoadInputs].f_load > 0.0))
+        kinds.add(soft)
+        np.testing.assert_allclose(i1.F_deck, i1.F_contact if soft else i0.F, rtol=1e-12)
         # punching (no existing demand, linear through 0): the same demand per newton,
-        # now at the contact force; flexure at the framing force
+        # now at the deck's force; flexure at the framing force
         p1, p0 = c1[Demands].checks["deck_punching"], c0[Demands].checks["deck_punching"]
-        np.testing.assert_allclose(p1.U / i1.F_contact, p0.U / i0.F, rtol=1e-9)
+        np.testing.assert_allclose(p1.U / i1.F_deck, p0.U / i0.F, rtol=1e-9)
         fl1 = c1[Demands].checks["flexure"]
         np.testing.assert_allclose(fl1.U, fl1.U_at(i1.F), rtol=1e-12)
         # allowed force stated on the framing force: at F_allow the punching U is 1
@@ -159,3 +166,9 @@ def test_chain_carries_both_forces(monkeypatch):
         fin = np.isfinite(p1.F_allow)
         assert fin.any()
         np.testing.assert_allclose(p1.U_at(p1.F_allow)[fin], 1.0, rtol=1e-9)
+        # the framing's energy share reproduces its force in the one-mass balance
+        # (Gere Eq. 9-94 with η_frame)
+        _, F_eq, _ = impact_elastic(c1[LoadInputs].W, c1[LoadInputs].h,
+                                    c1[Compliance_].f, i1.eta_frame)
+        np.testing.assert_allclose(F_eq, i1.F, rtol=1e-9)
+    assert kinds == {True, False}  # both a soft unit and a hard spreader were seen
