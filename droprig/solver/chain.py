@@ -1782,6 +1782,8 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     h_el = fall_from_energy(c, h_el)
     if s.dynamic_amplification and not d.trial:
         h_el = confirm_amplified_height(c, h_el)
+    elif imp.two_mass is not None and not d.trial:
+        h_el = confirm_two_force_height(c, h_el)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
     for u in ck.Ub_at_Rp[1:]:
@@ -1847,6 +1849,50 @@ def inverse_answers(c: Chain) -> InverseAnswers:
 
 
 _CONFIRM_ROUNDS = 12
+
+
+def two_force_utilisation_at(c: Chain, h: np.ndarray) -> np.ndarray:
+    """Largest elastic U of every check family at the free falls ``h`` (m) with the
+    impact's two forces there (:func:`impact_at`): the framing families at the force
+    on the framing, the deck's at its own force (step 5's families are linear in F;
+    the deck's were scaled to the planned height's ratio F_deck/F, undone here)."""
+    imp0 = c[Impact]
+    imp = impact_at(c, h)
+    A0 = imp0.deck_ratio
+    F_deck = imp.F if imp.F_deck is None else imp.F_deck
+    U = np.zeros(c.drop.n)
+    for name, chk in c[Demands].checks.items():
+        Fx = F_deck / A0 if name in CONTACT_CHECKS else imp.F
+        with np.errstate(invalid="ignore"):
+            U = np.fmax(U, chk.U_at(Fx))
+    return U
+
+
+def confirm_two_force_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
+    """The elastic allowable free fall with two forces per point, m: the closed form
+    takes the framing's energy share and the deck's force ratio at the planned height
+    (:func:`droprig.solver.struck_mass.equivalent_eta`); both change with the height,
+    so the height is re-checked by the forward impact at that height
+    (:func:`two_force_utilisation_at`) and lowered by (0.98/U)² where U > 1 (F ∝ √h
+    for a drop large against the static deflection, Gere 7th ed. Eq. 9-94), until
+    every point holds (at most :data:`_CONFIRM_ROUNDS` rounds; a point still over
+    then gets no height, NaN). Points with one force are not touched."""
+    two = c[Impact].two_mass
+    if two is None or not two.any():
+        return h_el
+    h = h_el.copy()
+    for _ in range(_CONFIRM_ROUNDS):
+        live = two & np.isfinite(h) & (h > 0.0)
+        if not live.any():
+            return h
+        U = two_force_utilisation_at(c, np.where(live, h, 0.0))
+        over = live & (U > 1.0 + 1e-9)
+        if not over.any():
+            return h
+        h = np.where(over, h * np.minimum(0.98, (0.98 / U) ** 2), h)
+    live = two & np.isfinite(h) & (h > 0.0)
+    U = two_force_utilisation_at(c, np.where(live, h, 0.0))
+    return np.where(live & (U > 1.0 + 1e-9), np.nan, h)
 
 
 def amplified_utilisation_at(c: Chain, h: np.ndarray) -> np.ndarray:

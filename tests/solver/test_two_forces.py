@@ -172,3 +172,19 @@ def test_chain_carries_both_forces(monkeypatch):
                                     c1[Compliance_].f, i1.eta_frame)
         np.testing.assert_allclose(F_eq, i1.F, rtol=1e-9)
     assert kinds == {True, False}  # both a soft unit and a hard spreader were seen
+
+
+def test_allowable_height_holds_in_the_forward_impact(monkeypatch):
+    # The allowable free fall of the inverse answers, dropped again through the
+    # impact step with two forces, loads no check beyond U = 1 (a closed loop; the
+    # forward two-mass solution is the reference checked above against scipy), and
+    # it is not thrown away: the least U at it is above 0.9.
+    from droprig.solver.chain import InverseAnswers, two_force_utilisation_at
+
+    for c in _rooftop_chains(monkeypatch, True):
+        h = c[InverseAnswers].h_el
+        ok = np.isfinite(h) & (h > 0.0)
+        assert ok.any()
+        U = two_force_utilisation_at(c, np.where(ok, h, 0.0))[ok]
+        assert float(U.max()) <= 1.0 + 1e-9
+        assert float(U.min()) > 0.9
