@@ -635,7 +635,15 @@ def struck_mass(c: Chain) -> StruckMass:
         with np.errstate(divide="ignore", invalid="ignore"):
             bend = np.where(comp.f_s > 0.0, (comp.f_s - comp.f_col) / comp.f_s, 0.0)
         m_slab = slab_path_mass(c)
-        m2 = np.where(inp.protected | ~np.isfinite(m_slab), 0.0, m_slab * bend**2)
+        m2 = m_slab * bend**2
+        # and the members (with their slab) moved rigidly by the columns' shortening,
+        # referred to the framing point by the columns' share of its displacement
+        # (columns.column_rigid_mass): a drop over a column still strikes the mass
+        # of the floor around it
+        with np.errstate(divide="ignore", invalid="ignore"):
+            col_share = np.where(comp.f_s > 0.0, comp.f_col / comp.f_s, 0.0)
+        m2 = m2 + column_path_mass(c) * col_share**2
+        m2 = np.where(inp.protected | ~np.isfinite(m2), 0.0, m2)
     return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e), m2=m2)
 
 
@@ -662,6 +670,20 @@ def slab_frame(fm: FloorModel) -> loadpath.Frame:
         return loadpath.build_frame(lv, include_member_mass=True, EI=fm.frame.EI,
                                     extra_mass=extra)
     return loadpath.frame_memo(fm.frame, "slab_frame", make)
+
+
+def column_path_mass(c: Chain) -> np.ndarray:
+    """Mass (kg, with the slab and superimposed dead load) that the columns'
+    shortening moves rigidly, referred to the columns' share of each drop point's
+    displacement (:func:`droprig.solver.columns.column_rigid_mass` on
+    :func:`slab_frame`'s μ), kept with the points' geometry."""
+    geo = c.drop.geo
+    got = geo.cache.get("column_path_mass")
+    if got is None or got.shape != geo.x.shape:
+        fm = c.drop.fm
+        got = columns.column_rigid_mass(fm.frame, geo.path, slab_frame(fm).mu)
+        geo.cache["column_path_mass"] = got
+    return got
 
 
 def slab_path_mass(c: Chain) -> np.ndarray:

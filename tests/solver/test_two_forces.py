@@ -188,3 +188,47 @@ def test_allowable_height_holds_in_the_forward_impact(monkeypatch):
         U = two_force_utilisation_at(c, np.where(ok, h, 0.0))[ok]
         assert float(U.max()) <= 1.0 + 1e-9
         assert float(U.min()) > 0.9
+
+
+def test_hard_item_over_a_column_strikes_the_floor_around_it(monkeypatch):
+    # Steel demo, the 12 ft spreader bar landing flat exactly over column 1/B
+    # (0, 9.144 m). Members framing into the column (project data): girders
+    # G1/A-B and G1/B-C, W24X55, 81.85 kg/m × 9.144 m, no deck of their own; beam
+    # BB/1-2, W21X44, 65.48 kg/m with 3.048 m of deck at 4454.5 Pa
+    # (self-weight + superimposed dead) / g = 454.2 kg/m² → 1449.9 kg/m, 9.144 m.
+    # Each moves rigidly with the column top in a linear shape, ∫(x/L)² = L/3
+    # (Rayleigh, Timoshenko Part I):
+    # m_c = (2 × 81.85 × 9.144 + 1449.9 × 9.144)/3 = 4918.5 kg. The whole load goes
+    # to the one column (R = 1), so the struck mass at the point is m_c.
+    from droprig.commands.demo import demo_dir
+    from droprig.io.project_file import load_project
+    from droprig.solver import analysis, chain
+    from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass
+    from droprig.solver.evaluate import evaluate_chain
+
+    p = load_project(demo_dir() / "steel_erection_floor.droprig")
+    zone = p.lift_zones[0]
+    lv = p.level(zone.level_id)
+    load = next(ld for ld in zone.loads if "Spreader" in ld.name)
+    fm = analysis.build_floor(lv, p.settings)
+    geo = analysis.point_geometry(fm, p, np.array([0.0]), np.array([9.144]))
+    mu_beam = 65.47921351706036 + 4454.537534705038 / G * 3.048
+    m_hand = (2 * 81.84901689632545 * 9.144 + mu_beam * 9.144) / 3
+    assert m_hand == pytest.approx(4918.5, abs=0.5)
+    monkeypatch.setattr(chain, "TWO_FORCES", True)
+    c = evaluate_chain(fm, p, load, geo)
+    assert float(c[StruckMass].m2[0]) == pytest.approx(m_hand, rel=5e-3)
+    # the force on the framing, by a time history of the load on its contact
+    # springs striking that mass on the column and framing spring (scipy solve_ivp)
+    inp, comp = c[LoadInputs], c[Compliance]
+    M = float(inp.M[0])
+    v0 = math.sqrt(2 * G * float(inp.h[0]))
+    F_ref, x_ref = _two_dof(M, v0, 1 / float(comp.f_series[0]), float(c[StruckMass].m2[0]),
+                            1 / float(comp.f_s[0]))
+    F_frame = float(c[Impact].F[0])
+    assert F_frame == pytest.approx(x_ref / float(comp.f_s[0]), rel=0.01)
+    # against the one-force chain (no struck mass at a column: the load on its
+    # springs in series), the structure now sets a force under a third of it
+    monkeypatch.setattr(chain, "TWO_FORCES", False)
+    F_one = float(evaluate_chain(fm, p, load, geo)[Impact].F[0])
+    assert F_frame < F_one / 3
