@@ -73,6 +73,7 @@ from droprig.solver import (
     crushing,
     deck,
     limits,
+    loadpath,
     pads,
     plastic,
     pointhistory,
@@ -81,6 +82,7 @@ from droprig.solver import (
 from droprig.solver import footprint as footprint_mod
 from droprig.solver import impact as impact_mod
 from droprig.solver import local_damage as local_damage_mod
+from droprig.solver import struck_mass as struck_mass_mod
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry
 from droprig.solver.linear_checks import Check, Family, small_check
@@ -592,10 +594,15 @@ def compliance(c: Chain) -> Compliance:
 class StruckMass:
     """Per point: the path's Rayleigh mass scaled to the struck point ``m_e`` (kg;
     zero under a mat or a crushable layer, or where the framing mass is not taken) and
-    the share of kinetic energy kept by the hit ``eta`` = M/(M + m_e)."""
+    the share of kinetic energy kept by the hit ``eta`` = M/(M + m_e); ``m2`` (kg):
+    the struck path's Rayleigh mass with the slab and the superimposed dead load over
+    each member's tributary width (:func:`slab_path_mass`), referred to the framing
+    point — the second mass of the two-mass impact (zero where ``m_e`` is, and in the
+    deck-less mode, where the impact keeps the one-mass balance)."""
 
     m_e: np.ndarray
     eta: np.ndarray
+    m2: np.ndarray | None = None
 
 
 def struck_mass(c: Chain) -> StruckMass:
@@ -621,7 +628,78 @@ def struck_mass(c: Chain) -> StruckMass:
     # under a mat or a crushable layer the hit on the framing is no longer perfectly
     # inelastic: its mass share is not taken (η = 1, conservative; as droprig check)
     m_e = np.where(inp.protected, 0.0, m_e)
-    return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e))
+    m2 = None
+    if TWO_FORCES and d.bare is None and d.fm.settings.include_member_mass:
+        # the same share of the path's mass with the slab and superimposed dead load,
+        # referred to the framing point (x2 of the two-mass model moves W·f_s)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            bend = np.where(comp.f_s > 0.0, (comp.f_s - comp.f_col) / comp.f_s, 0.0)
+        m_slab = slab_path_mass(c)
+        m2 = m_slab * bend**2
+        # and the members (with their slab) moved rigidly by the columns' shortening,
+        # referred to the framing point by the columns' share of its displacement
+        # (columns.column_rigid_mass): a drop over a column still strikes the mass
+        # of the floor around it
+        with np.errstate(divide="ignore", invalid="ignore"):
+            col_share = np.where(comp.f_s > 0.0, comp.f_col / comp.f_s, 0.0)
+        m2 = m2 + column_path_mass(c) * col_share**2
+        m2 = np.where(inp.protected | ~np.isfinite(m2), 0.0, m2)
+    return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e), m2=m2)
+
+
+TWO_FORCES = False
+"""Whether the floor chain gives two forces per point (contact and framing, the
+two-mass model with the slab's and the column-moved floor's mass, :func:`struck_mass`
+``m2``, :func:`two_forces`). Off, measured (README, "Two forces per point"): with it
+on, the allowable height of the inverse answers is not yet honest everywhere — the
+two-mass peaks are not monotone in the drop height (the load's later contacts start
+and stop with it), so a forward run at 0.99 × a reported height can read U 1.001–1.047
+(tests/solver/test_inverse_honest.py on the demos and random projects), the plastic
+height and the allowable mass still take the planned height's energy share, and
+``analyse()`` costs about 3 ×. The floor keeps the one-mass force for every check
+(today's verdicts) until those are closed."""
+
+
+def slab_frame(fm: FloorModel) -> loadpath.Frame:
+    """The floor's load path with the deck's self-weight and the level's superimposed
+    dead load added to each member's mass per length over its tributary width,
+    μ + (ρh + q_sd/g)·b (kg/m; :func:`droprig.solver.struck_mass.
+    distributed_mass_per_length`, lever rule, common practice, no source); the same
+    stiffness as ``fm.frame`` (built once per frame)."""
+    def make() -> loadpath.Frame:
+        lv = fm.level
+        q = lv.deck.self_weight_pressure + lv.superimposed_dead
+        extra = q / impact_mod.G * loadpath.tributary_widths(fm.frame)
+        return loadpath.build_frame(lv, include_member_mass=True, EI=fm.frame.EI,
+                                    extra_mass=extra)
+    return loadpath.frame_memo(fm.frame, "slab_frame", make)
+
+
+def column_path_mass(c: Chain) -> np.ndarray:
+    """Mass (kg, with the slab and superimposed dead load) that the columns'
+    shortening moves rigidly, referred to the columns' share of each drop point's
+    displacement (:func:`droprig.solver.columns.column_rigid_mass` on
+    :func:`slab_frame`'s μ), kept with the points' geometry."""
+    geo = c.drop.geo
+    got = geo.cache.get("column_path_mass")
+    if got is None or got.shape != geo.x.shape:
+        fm = c.drop.fm
+        got = columns.column_rigid_mass(fm.frame, geo.path, slab_frame(fm).mu)
+        geo.cache["column_path_mass"] = got
+    return got
+
+
+def slab_path_mass(c: Chain) -> np.ndarray:
+    """Rayleigh mass (kg) of the struck path with the slab and superimposed dead load
+    (:func:`slab_frame`; Timoshenko, *Strength of Materials* Part I, as
+    :mod:`droprig.solver.loadpath`) at the drop points, kept with the points'
+    geometry (load-independent)."""
+    geo = c.drop.geo
+    got = geo.cache.get("slab_path_mass")
+    if got is None or got.shape != geo.x.shape:
+        got = loadpath.evaluate(slab_frame(c.drop.fm), geo.x, geo.y).m_e
+        geo.cache["slab_path_mass"] = got
+    return got
 
 
 # --------------------------------------------------------------------------- 4. impact
@@ -632,7 +710,20 @@ class Impact:
     layer its crushed depth ``crush`` (m) and whether it bottomed out ``bottomed``;
     ``F_crush`` (N): the force at which the deck concrete under the footprint crushes
     (the bound on the contact force), ``deck_crush`` (m) how deep it crushed and
-    ``deck_through`` whether the crushing passed the cover."""
+    ``deck_through`` whether the crushing passed the cover.
+
+    Two forces per point: ``F`` is the force on the framing (member flexure, shear,
+    connections, webs under the load, columns, the slab's yield lines, beyond yield
+    and the inverse answers) and ``F_contact`` the force between the load and the
+    struck surface (deck flexure and punching, the crushing bound, local damage);
+    both from :func:`droprig.solver.struck_mass.impact_two_forces` where the two-mass
+    idealisation applies (a bare deck and the struck path's mass with the slab,
+    ``StruckMass.m2`` > 0), and both today's one force elsewhere (under mats and
+    crushable layers, deck-less). ``eta_frame``: the share of the energy that, in
+    the one-mass balance on f, gives ``F`` (:func:`droprig.solver.struck_mass.
+    equivalent_eta`; ``eta`` of the struck mass where one force); ``two_mass``
+    (bool): the points with two forces; ``F_deck`` (N): the force of the deck's
+    checks (flexure, punching; :func:`two_forces`)."""
 
     K: np.ndarray
     F: np.ndarray
@@ -643,6 +734,32 @@ class Impact:
     F_crush: np.ndarray
     deck_crush: np.ndarray
     deck_through: np.ndarray
+    F_contact: np.ndarray | None = None
+    eta_frame: np.ndarray | None = None
+    two_mass: np.ndarray | None = None
+    F_deck: np.ndarray | None = None
+
+    @property
+    def contact(self) -> np.ndarray:
+        """The contact force (N): ``F_contact``, or ``F`` where one force."""
+        return self.F if self.F_contact is None else self.F_contact
+
+    @property
+    def contact_ratio(self) -> np.ndarray:
+        """F_contact / F (1 where one force or F is 0 or not finite)."""
+        return self._ratio(self.F_contact)
+
+    @property
+    def deck_ratio(self) -> np.ndarray:
+        """F_deck / F (1 where one force or F is 0 or not finite)."""
+        return self._ratio(self.F_deck)
+
+    def _ratio(self, Fx: np.ndarray | None) -> np.ndarray:
+        if Fx is None:
+            return np.ones(self.F.shape)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            r = Fx / self.F
+        return np.where(np.isfinite(r) & (self.F > 0.0), r, 1.0)
 
 
 def impact(c: Chain) -> Impact:
@@ -652,8 +769,10 @@ def impact(c: Chain) -> Impact:
     return impact_at(c, None)
 
 
-def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
-    """:func:`impact` for the free falls ``h`` (m; ``None``: the planned ones)."""
+def impact_at(c: Chain, h: np.ndarray | None, sel: np.ndarray | None = None) -> Impact:
+    """:func:`impact` for the free falls ``h`` (m; ``None``: the planned ones);
+    ``sel`` (bool per point): the two forces are worked out at these points only (the
+    others keep the one force; for a caller that reads ``sel`` alone)."""
     d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
     # the energy height: the fall plus the hoist's lowering speed head (hoist_head)
     h = energy_fall(c, inp.h if h is None else h)
@@ -707,8 +826,63 @@ def impact_at(c: Chain, h: np.ndarray | None) -> Impact:
         deck_through[cap] = thr
         K = np.where(cap, F / W, K)
         d_max = np.where(cap, F * comp.f + deck_crush, d_max)
-    return Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed,
-                  F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through)
+    one = Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed,
+                 F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through)
+    return two_forces(c, h, one, sel)
+
+
+def two_forces(c: Chain, h: np.ndarray, one: Impact,
+               sel: np.ndarray | None = None) -> Impact:
+    """The impact's two forces where the two-mass idealisation applies (a bare deck —
+    no mat or crushable layer — and the struck path's mass with the slab,
+    ``StruckMass.m2``; ``h`` the energy heights, m), on top of the one-force impact
+    ``one`` (returned unchanged elsewhere, and where :data:`TWO_FORCES` is off).
+
+    * Contact force F_c (N): :func:`droprig.solver.struck_mass.impact_two_forces`
+      with the contact springs f_series (the load's underside, the deck's indentation
+      and strip) against the framing f_s and its mass m2; bounded by the crushing of
+      the struck surface, F_crush (the one-force step's bound; above it the
+      one-force crushing result, which exceeds F_crush only where the crushing passed
+      the cover).
+    * Force on the framing F (N): the two-mass framing force; where the contact
+      crushes, at most twice the contact force it lets through (a suddenly applied
+      constant force on an elastic system, dynamic load factor 2: Biggs 1964 ch. 2 —
+      from memory).
+    * Force on the deck ``F_deck`` (N, deck flexure and punching): the contact force
+      where the load's underside is declared (a soft contact, CEB Bulletin 187's soft
+      impact — from memory); for a hard load on a bare deck the contact spike (a
+      fraction of a millisecond) is the hard-missile local damage's to judge
+      (:func:`local_damage`, DOE-STD-3014 App. C), and the deck's quasi-static checks
+      keep the one-mass force of the load on the deck and framing in series
+      (``one.F``)."""
+    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
+    if sm.m2 is None:
+        return one
+    two = (~inp.protected & ~inp.crushable & (sm.m2 > 0.0) & np.isfinite(comp.f)
+           & (comp.f_s > 0.0) & (comp.f_series > 0.0) & np.isfinite(one.F))
+    if sel is not None:
+        two = two & sel
+    if not two.any():
+        return one
+    W = inp.W
+    Fc = one.F.copy()
+    Ff = one.F.copy()
+    Fc2, Ff2 = struck_mass_mod.impact_two_forces(W[two], h[two], comp.f_series[two],
+                                                 comp.f_s[two], sm.m2[two])
+    crushes = Fc2 > one.F_crush[two]
+    Fc[two] = np.where(crushes, np.maximum(one.F_crush[two], one.F[two]), Fc2)
+    Ff[two] = np.where(crushes, np.minimum(Ff2, 2.0 * Fc[two]), Ff2)
+    soft = inp.f_load > 0.0
+    F_deck = np.where(two & soft, Fc, one.F)
+    eta_frame = np.where(two, struck_mass_mod.equivalent_eta(W, h, comp.f, Ff, sm.eta),
+                         sm.eta)
+    K = np.where(two, Ff / W, one.K)
+    d_max = np.where(two, Ff * comp.f + one.deck_crush, one.d_max)
+    del d
+    return Impact(K=K, F=Ff, d_max=d_max, d_st=one.d_st, crush=one.crush,
+                  bottomed=one.bottomed, F_crush=one.F_crush, deck_crush=one.deck_crush,
+                  deck_through=one.deck_through, F_contact=Fc, eta_frame=eta_frame,
+                  two_mass=two, F_deck=F_deck)
 
 
 def crush_depth_available(c: Chain) -> float:
@@ -821,7 +995,31 @@ def demands(c: Chain) -> Demands:
     out["deck_punching"] = small_check("deck_punching", F, beta[None, :], None,
                                        np.broadcast_to(R_punch, (n,))[None, :], deckm,
                                        detail)
-    return Demands(checks=out, actions=ua)
+    return Demands(checks=on_contact(out, imp), actions=ua)
+
+
+CONTACT_CHECKS = ("deck_flexure", "deck_punching")
+"""Check families driven by the contact force (the deck lies within the contact
+springs of the two-mass model: its indentation and strip bending); every other family
+takes the force on the framing (``Impact.F``)."""
+
+
+def on_contact(checks: dict[str, Check], imp: Impact) -> dict[str, Check]:
+    """The :data:`CONTACT_CHECKS` of ``checks`` (built at the framing force F) at the
+    deck's force F_deck = A·F (:func:`two_forces`), A = ``imp.deck_ratio``: U =
+    U_at(A·F), allowed force F_allow/A in terms of F (linear in F, as
+    :func:`_scaled`); unchanged where the impact gives one force."""
+    if imp.F_deck is None:
+        return checks
+    A = imp.deck_ratio
+    out = dict(checks)
+    for name in CONTACT_CHECKS:
+        if name in out:
+            sc = _scaled(out[name], A)
+            out[name] = Check(name=sc.name, U=sc.U_at(imp.F), F_allow=sc.F_allow,
+                              member=sc.member, unit=sc.unit, exist=sc.exist,
+                              resist=sc.resist, U_at=sc.U_at)
+    return out
 
 
 # --------------------------------------------------------------------------- 5a. amplification
@@ -1439,7 +1637,9 @@ def beyond_yield(c: Chain) -> BeyondYield:
     d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
     ua, ck, sr = c[Demands].actions, c[Checks], c[SlabResistance]
     s, n = d.fm.settings, d.n
-    W, F_c, s_c, eta = inp.W, inp.F_c, inp.s_c, sm.eta
+    W, F_c, s_c = inp.W, inp.F_c, inp.s_c
+    # the framing's share of the energy: the two-mass model's where it applies
+    eta = sm.eta if imp.eta_frame is None else imp.eta_frame
     h = energy_fall(c, inp.h)  # with the hoist's lowering speed head
     R_p, f_s, f = sr.R, comp.f_s, comp.f
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
@@ -1600,7 +1800,12 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     ck, by, sr = c[Checks], c[BeyondYield], c[SlabResistance]
     ua = c[Demands].actions
     s = d.fm.settings
-    W, eta, F_c, s_c, crushable = inp.W, sm.eta, inp.F_c, inp.s_c, inp.crushable
+    W, F_c, s_c, crushable = inp.W, inp.F_c, inp.s_c, inp.crushable
+    # the framing's share of the energy (two-mass model where it applies; the
+    # allowed force F_allow is stated as a force on the framing, the contact checks
+    # scaled to it): the height at which the one-mass balance with this share gives
+    # F_allow (struck_mass.equivalent_eta)
+    eta = sm.eta if imp.eta_frame is None else imp.eta_frame
     F_allow, R_p, f_s, f = ck.F_allow, by.R_p, comp.f_s, comp.f
     Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
@@ -1610,12 +1815,16 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     # gone through the cover (impact step, crushing_limited_impact): the height at
     # which the force then reaches F_allow takes the crushing work (F_crush − W)·cover
     cover = crush_depth_available(c)  # as the impact step's depth
-    h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow), imp.F_crush,
-                             np.full(d.n, cover), W, eta)
+    # (the crushing bounds the contact force: F_crush against the allowed force at
+    # the contact, F_allow·F_contact/F)
+    h_el = with_crush_energy(h_el, ~crushable & (imp.F_crush < F_allow * imp.deck_ratio),
+                             imp.F_crush, np.full(d.n, cover), W, eta)
     # the energy heights above as free falls: less the hoist's lowering speed head
     h_el = fall_from_energy(c, h_el)
     if s.dynamic_amplification and not d.trial:
         h_el = confirm_amplified_height(c, h_el)
+    elif imp.two_mass is not None and not d.trial:
+        h_el = confirm_two_force_height(c, h_el)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
     for u in ck.Ub_at_Rp[1:]:
@@ -1681,6 +1890,52 @@ def inverse_answers(c: Chain) -> InverseAnswers:
 
 
 _CONFIRM_ROUNDS = 12
+
+
+def two_force_utilisation_at(c: Chain, h: np.ndarray,
+                             sel: np.ndarray | None = None) -> np.ndarray:
+    """Largest elastic U of every check family at the free falls ``h`` (m) with the
+    impact's two forces there (:func:`impact_at`): the framing families at the force
+    on the framing, the deck's at its own force (step 5's families are linear in F;
+    the deck's were scaled to the planned height's ratio F_deck/F, undone here);
+    ``sel``: only these points are read (:func:`impact_at`)."""
+    imp0 = c[Impact]
+    imp = impact_at(c, h, sel)
+    A0 = imp0.deck_ratio
+    F_deck = imp.F if imp.F_deck is None else imp.F_deck
+    U = np.zeros(c.drop.n)
+    for name, chk in c[Demands].checks.items():
+        Fx = F_deck / A0 if name in CONTACT_CHECKS else imp.F
+        with np.errstate(invalid="ignore"):
+            U = np.fmax(U, chk.U_at(Fx))
+    return U
+
+
+def confirm_two_force_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
+    """The elastic allowable free fall with two forces per point, m: the closed form
+    takes the framing's energy share and the deck's force ratio at the planned height
+    (:func:`droprig.solver.struck_mass.equivalent_eta`); both change with the height,
+    so the height is re-checked by the forward impact at that height
+    (:func:`two_force_utilisation_at`) and lowered by (0.98/U)² where U > 1 (F ∝ √h
+    for a drop large against the static deflection, Gere 7th ed. Eq. 9-94), until
+    every point holds (at most :data:`_CONFIRM_ROUNDS` rounds; a point still over
+    then gets no height, NaN). Points with one force are not touched."""
+    two = c[Impact].two_mass
+    if two is None or not two.any():
+        return h_el
+    h = h_el.copy()
+    live = two & np.isfinite(h) & (h > 0.0)
+    for _ in range(_CONFIRM_ROUNDS):
+        if not live.any():
+            return h
+        U = two_force_utilisation_at(c, np.where(live, h, 0.0), live)
+        over = live & (U > 1.0 + 1e-9)
+        if not over.any():
+            return h
+        h = np.where(over, h * np.minimum(0.98, (0.98 / U) ** 2), h)
+        live = over  # the points that held keep their height
+    U = two_force_utilisation_at(c, np.where(live, h, 0.0), live)
+    return np.where(live & (U > 1.0 + 1e-9), np.nan, h)
 
 
 def amplified_utilisation_at(c: Chain, h: np.ndarray) -> np.ndarray:
@@ -1897,9 +2152,12 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
     out = {
         "x": geo.x, "y": geo.y, "bay": geo.bay, "protection": geo.protection,
         "drop_height": inp.H, "fall_height": inp.h, "structure_compliance": comp.f_struct,
-        "static_deflection": imp.d_st, "effective_mass": sm.m_e,
+        "static_deflection": imp.d_st,
+        # the struck mass the impact used: with the slab where two forces
+        "effective_mass": sm.m_e if imp.two_mass is None or sm.m2 is None
+        else np.where(imp.two_mass, sm.m2, sm.m_e),
         "dynamic_factor": imp.K, "peak_force": imp.F, "max_deflection": imp.d_max,
-        "deceleration_g": impact_mod.deceleration_g(imp.F, inp.W), "utilisation": ck.U,
+        "deceleration_g": impact_mod.deceleration_g(imp.contact, inp.W), "utilisation": ck.U,
         "governing_member": by.gov_member.astype(np.int64),
         "governing_check": by.gov_check.astype(np.int64), "response": by.response,
         # allowable heights on the datum: the fall they allow plus the pad's thickness

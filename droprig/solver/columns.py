@@ -28,7 +28,8 @@ from droprig.solver.crushing import (
 )
 from droprig.solver.loadpath import COND_NAMES, Frame, PathResult, frame_memo
 
-__all__ = ["column_compliance", "column_reaction_table", "level_column_compliance"]
+__all__ = ["column_compliance", "column_positions", "column_reaction_table",
+           "column_rigid_mass", "level_column_compliance"]
 
 
 def level_column_compliance(level: Level) -> float:
@@ -87,7 +88,18 @@ def column_reaction_table(frame: Frame) -> tuple[np.ndarray, np.ndarray]:
     local member ends: ``C`` (n_pairs, 4, K) and the column index of each of the K
     slots ``cols`` (n_pairs, K; −1 = empty). Built once per frame."""
 
-    def make() -> tuple[np.ndarray, np.ndarray]:
+    C, cols, _ = _column_tables(frame)
+    return C, cols
+
+
+def column_positions(frame: Frame) -> np.ndarray:
+    """Plan position (x, y) of each column index of :func:`column_reaction_table`,
+    (n_columns, 2), m."""
+    return _column_tables(frame)[2]
+
+
+def _column_tables(frame: Frame) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    def make() -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         memo: dict[int, dict[tuple[float, float], float]] = {}
         per_pair: list[list[dict[tuple[float, float], float]]] = []
         keys: dict[tuple[float, float], int] = {}
@@ -113,9 +125,50 @@ def column_reaction_table(frame: Frame) -> tuple[np.ndarray, np.ndarray]:
                     c = local.setdefault(key, len(local))
                     C[ip, si, c] += v
                     cols[ip, c] = keys[key]
-        return C, cols
+        pos = np.zeros((len(keys), 2))
+        for key, i in keys.items():
+            pos[i] = key
+        return C, cols, pos
 
-    return frame_memo(frame, "column_reaction_table", make)
+    return frame_memo(frame, "column_tables", make)
+
+
+def column_rigid_mass(frame: Frame, path: PathResult, mu: np.ndarray) -> np.ndarray:
+    """Mass moved by the columns' shortening, referred to the columns' own share of
+    the displacement at each drop point, kg. The members framing into column c move
+    rigidly with its top (a linear shape from that end: ∫(x/L)²dx = L/3 of each
+    member's mass ``mu``·L, kg/m × m — Rayleigh, Timoshenko, *Strength of Materials*
+    Part I; the cross terms of members moved at both ends are left out, a lower
+    bound), m_c = Σ μ_k·L_k/3; a unit load at the point moves the column tops
+    R_c·f_c, and their share of the point's displacement is f_col = Σ_c R_c²·f_c
+    (:func:`column_compliance`; unit-load method, Gere §9.10), so
+    m = Σ_c m_c·(R_c·f_c)²/f_col² = Σ_c m_c·R_c²/(Σ_c R_c²)² for one column
+    compliance f_c on the level. 0 where no column takes a share."""
+    C, cols = column_reaction_table(frame)
+    n = path.f.shape[0]
+    if frame.n_pairs == 0 or n == 0:
+        return np.zeros(n)
+    pos = column_positions(frame)
+    m_col = np.zeros(pos.shape[0])
+    index = {(float(x), float(y)): i for i, (x, y) in enumerate(pos)}
+    for k, m in enumerate(frame.level.members):
+        for e, xy in ((0, m.start), (1, m.end)):
+            if int(frame.end_node[k, e]) < frame.n_nodes:
+                continue
+            if m.end_condition == "cantilever" and e == 1:
+                continue
+            i = index.get((round(xy[0], 6), round(xy[1], 6)))
+            if i is not None:
+                m_col[i] += float(mu[k]) * float(frame.L[k]) / 3.0
+    pair = np.where(path.pair >= 0, path.pair, 0)
+    Rc = np.einsum("ns,nsk->nk", path.r, C[pair])
+    mk = np.where(cols[pair] >= 0, m_col[np.maximum(cols[pair], 0)], 0.0)
+    R2 = Rc * Rc
+    num = np.sum(mk * R2, axis=1)
+    den = np.sum(R2, axis=1) ** 2
+    with np.errstate(divide="ignore", invalid="ignore"):
+        out = np.where(den > 0.0, num / den, 0.0)
+    return np.where(path.pair >= 0, out, 0.0)
 
 
 def column_compliance(frame: Frame, path: PathResult, f_column: float) -> np.ndarray:
