@@ -220,6 +220,14 @@ CAUTION_SHORT = (
 """The caution shown permanently in the status bar (the full sentence is
 ``droprig.texts.CAUTION``)."""
 
+CAUTION_PLAN_SHORT = (
+    "CAUTION: an aid only. Review against local codes with the appointed lifting person "
+    "and a licensed structural engineer; keep people out from under the load path."
+)
+"""The plan's caution strip on a small plan (1280 × 720 at 150–200 %), where the
+full ``droprig.texts.CAUTION`` took a third of the plan's height: the same three
+deferrals and the same instruction, in fewer words."""
+
 APP_ORGANISATION = "Droprig Works"
 APP_NAME = "droprig"
 
