@@ -93,7 +93,8 @@ for src in sys.argv[1].split(";"):  # one process, several demos
     print(json.dumps({
         "compact": getattr(win, "compact", False), "tabs": tabs,
         "content": [content.width(), content.height()],
-        "bar_rows": getattr(win, "view_bar", win.plan_heading).height(), "heading": win.plan_heading.height(),
+        "bar_rows": getattr(win, "view_bar", win.plan_heading).height(),
+        "heading": win.plan_heading.height(),
         "caution": [cl.fits(), right, win.width(), cl.text(), cl.toolTip()],
         "bubble_hits": hits,
         "window": [win.width(), win.height()], "plan": [vp.width(), vp.height()],

@@ -89,3 +89,49 @@ def test_a_point_that_cannot_be_verified_gives_a_message(open_window, monkeypatc
     monkeypatch.setattr(vp, "point_verification_figures", fail)
     assert win.trace_panel.open_verification() is None
     assert seen and "verify.point" in seen[0]
+
+
+def _verify_dialog(open_window, qtbot) -> VerifyDialog:
+    from droprig.model import ModelError
+    from droprig.solver import analyse, verify_point
+
+    win = open_window()
+    assert win.open_path(demo_dir() / "steel_erection_floor.droprig", ask=False)
+    p = win.doc.project
+
+    def verifiable(b) -> bool:
+        try:
+            verify_point(p, b.zone_id, b.load_name, b.governing_x, b.governing_y)
+        except ModelError:
+            return False
+        return True
+
+    bay = next(b for b in analyse(p).bays if verifiable(b))
+    assert win.show_trace(bay.zone_id, bay.load_name, bay.governing_x, bay.governing_y)
+    win.trace_panel.verify_button.click()
+    dlg = win.trace_panel.last_dialog
+    qtbot.addWidget(dlg)
+    return dlg
+
+
+def test_the_table_never_needs_a_sideways_scroll(open_window, qtbot) -> None:
+    """Issue 15: beside the plots the comparison table was narrower than its five
+    columns and needed a sideways scroll. At a wide dialog it stands beside the plots,
+    at a narrow one (a 1280 × 720 screen at 150–200 %) under them; every column is
+    whole either way, and the caution stays in the dialog (common practice, no
+    source)."""
+    dlg = _verify_dialog(open_window, qtbot)
+    for size, beside in (((1100, 600), True), ((760, 460), False), ((600, 330), False)):
+        dlg.resize(*size)
+        qtbot.wait(10)
+        t = dlg.table
+        last = t.horizontalHeader().sectionViewportPosition(t.columnCount() - 1) \
+            + t.columnWidth(t.columnCount() - 1)
+        assert last <= t.viewport().width(), (size, last, t.viewport().width())
+        assert t.horizontalScrollBar().maximum() == 0, size
+        assert dlg.side_by_side() is beside, size
+        assert t.isVisibleTo(dlg) and dlg.caution.isVisibleTo(dlg)
+        assert "licensed structural engineer" in dlg.caution.text()
+    screen = dlg.screen().availableGeometry()
+    assert dlg.width() <= screen.width() and dlg.height() <= screen.height()
+    dlg.close()

@@ -1,0 +1,73 @@
+"""The window on a small screen (1280 × 720 at 150–200 % scaling), in process:
+the compact layout's tabbed side panel, going back to the full layout, the
+project tree's rows whole, and a results row that keeps the results in view.
+
+Behaviour of the window only (common practice, no source); the demo project is an
+invented scenario used as input. The fit to a real 1280 × 720 screen at each
+scale is in tests/gui/test_layout.py (a fresh process per scale).
+"""
+
+from __future__ import annotations
+
+import pytest
+from PySide6.QtCore import Qt
+
+from droprig.commands.demo import demo_dir
+
+pytestmark = pytest.mark.gui
+
+DEMO = demo_dir() / "rooftop_plant_swap.droprig"
+
+
+def test_compact_layout_comes_and_goes_with_the_window_size(open_window, qtbot) -> None:
+    win = open_window((700, 460))
+    assert win.open_path(DEMO, ask=False)
+    qtbot.waitUntil(lambda: win.compact)
+    area = win.dockWidgetArea
+    assert {area(d) for d in win._docks()} == {Qt.DockWidgetArea.RightDockWidgetArea}
+    assert len(win.tabifiedDockWidgets(win.results_dock)) == 3
+    assert win.results_dock.windowTitle() == "Results"
+    assert not any(b.isVisible() for b in win.view_buttons)  # in the Lift / View menus
+    win.trace_dock.close()  # the user closes a panel: it stays closed across layouts
+    win.resize(1300, 820)
+    qtbot.waitUntil(lambda: not win.compact)
+    assert area(win.tree_dock) == Qt.DockWidgetArea.LeftDockWidgetArea
+    assert area(win.inspector_dock) == Qt.DockWidgetArea.RightDockWidgetArea
+    assert area(win.results_dock) == Qt.DockWidgetArea.BottomDockWidgetArea
+    assert win.results_dock.windowTitle() == "Results by bay"
+    assert win.trace_dock.windowTitle() == "Calculation trace"
+    assert win.trace_dock.isHidden() and win.results_dock.isVisible()
+    assert all(b.isVisible() for b in win.view_buttons)
+    assert win.units_label.isVisible() and "Key in a corner" in win.plan_heading_text()
+
+
+def test_choosing_a_results_row_keeps_the_results_on_top(open_window, qtbot) -> None:
+    # in the tabbed side panel, choosing a row raised the trace's tab over the table
+    # the reader was going down; the trace is computed and waits behind its tab
+    win = open_window((700, 460))
+    assert win.open_path(DEMO, ask=False)
+    win.runner.run_now()
+    qtbot.waitUntil(lambda: win.compact and win.results_table.proxy.rowCount() > 1)
+    win.results_dock.raise_()
+    qtbot.waitUntil(lambda: win.current_side_panel() is win.results_dock)
+    before = win.trace_panel.trace
+    win.results_table.select_row(1)
+    qtbot.waitUntil(lambda: win.trace_panel.trace is not before)
+    assert win.current_side_panel() is win.results_dock
+    assert win.trace_panel.trace is not None
+
+
+def test_project_tree_rows_are_never_cut(open_window, qtbot) -> None:
+    """Issue 15: the tree's rows were elided ("Spreader be…"); the column is as wide
+    as its longest row and a narrow panel scrolls sideways."""
+    win = open_window((1280, 720))
+    assert win.open_path(DEMO, ask=False)
+    tree = win.tree
+    tree.expandAll()
+    win.resizeDocks([win.tree_dock], [win.tree_dock.minimumWidth()], Qt.Orientation.Horizontal)
+    qtbot.wait(20)
+    need = tree.sizeHintForColumn(0)
+    assert need > tree.viewport().width()  # the demo's names are longer than the panel
+    assert tree.columnWidth(0) >= need
+    assert tree.horizontalScrollBar().maximum() > 0
+    assert tree.textElideMode() == Qt.TextElideMode.ElideNone
