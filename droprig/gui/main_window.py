@@ -178,12 +178,17 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
                 case, i = hit
                 zone_id, load_name = case.zone_id, case.load_name
                 x, y = float(case.x[i]), float(case.y[i])
+        keep = self.current_side_panel() if self.compact else None
         self._on_point_clicked(zone_id, load_name, x, y)
+        if keep is not None and keep is not self.trace_dock:
+            keep.raise_()  # see _trace_from_table
 
     def _trace_from_table(self, zone_id: str, load_name: str, x: float, y: float) -> None:
         """A results row chosen: trace its governing point. In the compact layout
-        the results stay on top (the trace waits behind its tab): raising the trace
-        hid the table the reader was going down."""
+        the tab on top stays (the trace waits behind its tab): raising the trace
+        hid the table the reader was going down, or, after a click on a bay in the
+        plan, the inspector's outcome and conditions of that bay (seen under Xvfb
+        at 150 %)."""
         keep = self.current_side_panel() if self.compact else None
         self.show_trace(zone_id, load_name, x, y)
         if keep is not None and keep is not self.trace_dock:

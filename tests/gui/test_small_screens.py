@@ -71,3 +71,26 @@ def test_project_tree_rows_are_never_cut(open_window, qtbot) -> None:
     assert tree.columnWidth(0) >= need
     assert tree.horizontalScrollBar().maximum() > 0
     assert tree.textElideMode() == Qt.TextElideMode.ElideNone
+
+
+def test_a_click_on_a_bay_keeps_the_inspector_on_top(open_window, qtbot) -> None:
+    # seen under Xvfb at 150 %: a click in a bay raised the trace's tab, and the
+    # bay's outcome and conditions (inspector) went behind it
+    win = open_window((700, 460))
+    assert win.open_path(DEMO, ask=False)
+    win.runner.run_now()
+    qtbot.waitUntil(lambda: win.compact and win.doc.results is not None)
+    win.plan.fit()
+    win.inspector_dock.raise_()
+    qtbot.waitUntil(lambda: win.current_side_panel() is win.inspector_dock)
+    bay = max(win.doc.results.bays, key=lambda b: b.max_utilisation)
+    from droprig.model.framing import bays
+
+    r = next(b for b in bays(win.doc.level) if b.id == bay.bay_id).rect
+    x, y = (r.x0 + r.x1) / 2, (r.y0 + r.y1) / 2
+    before = win.trace_panel.trace
+    qtbot.mouseClick(win.plan.viewport(), Qt.MouseButton.LeftButton,
+                     pos=win.plan.view_pos(x, y))
+    qtbot.waitUntil(lambda: win.trace_panel.trace is not before)
+    assert win.doc.selection is not None and win.doc.selection.kind == "bay"
+    assert win.current_side_panel() is win.inspector_dock
