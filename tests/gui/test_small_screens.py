@@ -94,3 +94,29 @@ def test_a_click_on_a_bay_keeps_the_inspector_on_top(open_window, qtbot) -> None
     qtbot.waitUntil(lambda: win.trace_panel.trace is not before)
     assert win.doc.selection is not None and win.doc.selection.kind == "bay"
     assert win.current_side_panel() is win.inspector_dock
+
+
+def test_the_bay_inspector_opens_with_the_row_the_plan_shows(open_window, qtbot) -> None:
+    # seen under Xvfb on the rooftop demo: bay 1-2/A-B read "X 6.99" on the plan
+    # (the spreader beam) while the inspector's outcome list opened with AHU-3 (new),
+    # U 1.15, of the same outcome; the worst load now comes first, as on the plan
+    import re
+
+    from droprig.gui.document import Selection
+    from droprig.outcomes import fmt_utilisation
+
+    win = open_window((1280, 720))
+    assert win.open_path(DEMO, ask=False)
+    win.runner.run_now()
+    qtbot.waitUntil(lambda: win.doc.results is not None and win.doc.results_current)
+    checked = 0
+    for state in win.plan.bay_states():
+        if state.max_utilisation is None:
+            continue
+        win.doc.select(Selection("bay", (state.bay.level_id, state.bay.id)))
+        text = win.inspector._extra.text()
+        first = re.search(r"max U ([0-9.]+)", text)
+        assert first is not None, text
+        assert first.group(1) == fmt_utilisation(state.max_utilisation), state.bay.id
+        checked += 1
+    assert checked >= 6
