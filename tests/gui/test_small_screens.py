@@ -120,3 +120,23 @@ def test_the_bay_inspector_opens_with_the_row_the_plan_shows(open_window, qtbot)
         assert first.group(1) == fmt_utilisation(state.max_utilisation), state.bay.id
         checked += 1
     assert checked >= 6
+
+
+def test_the_key_tab_covers_no_grid_bubble(open_window, qtbot) -> None:
+    # seen under Xvfb at 150 %: with no corner free for the whole key, its "Key" tab
+    # sat at the top right over grid bubble 4; the tab takes a free corner too
+    from PySide6.QtCore import QRectF
+
+    win = open_window((818, 451))
+    assert win.open_path(DEMO, ask=False)
+    win.runner.run_now()
+    qtbot.waitUntil(lambda: win.compact and win.doc.results is not None)
+    win.plan.fit()
+    qtbot.wait(20)
+    plan = win.plan
+    tab = plan.legend_rect()
+    assert plan.legend_collapsed  # the whole key has no free corner at this size
+    bubbles = [QRectF(b.centre.x() - 11, b.centre.y() - 11, 22, 22)
+               for b in plan.grid_bubbles()]
+    assert bubbles and not any(tab.intersects(b) for b in bubbles), tab
+    assert not any(tab.intersects(c) for c in plan.content_obstacles())
