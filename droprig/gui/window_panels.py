@@ -25,7 +25,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from droprig import units
+from droprig import outcomes, units
 from droprig.gui import style
 from droprig.gui.document import Selection
 from droprig.gui.flow_layout import FlowLayout
@@ -608,8 +608,12 @@ class PanelsMixin(WindowParts):
         lv = self.doc.level
         if lv is None:
             return "No level yet: build the floor framing first."
-        shown = {"outcome": "bays coloured by outcome (E stays elastic, Y yields within "
-                            "limits, X exceeds limits)",
+        # every tag the plan can show is named (the P of "may go through" and the
+        # scabbing mark were not, while the plan showed "P 9.75": seen under Xvfb)
+        tags = ", ".join(f"{o.tag} {o.label.lower().replace(',', '')}"
+                         for o in (outcomes.OUTCOMES[k] for k in outcomes.ORDER))
+        mark = f"{outcomes.SCABBING.tag}: {outcomes.SCABBING.label.lower()}"
+        shown = {"outcome": f"bays coloured by outcome ({tags}; {mark})",
                  "utilisation": "drop points coloured by utilisation U = demand / "
                                 "resistance (above 1.00 a check is exceeded)",
                  "drop_height": "drop points coloured by the allowable drop height"
@@ -638,7 +642,7 @@ class PanelsMixin(WindowParts):
         state = "" if self.doc.results_current else " Results are being updated."
         name = lv.name if lv.name.lower().startswith("level") else f"Level {lv.name}"
         if self.compact:  # a small window: the heading in two lines, not five
-            short = {"outcome": "outcome E elastic, Y yields within limits, X exceeds",
+            short = {"outcome": f"outcome {tags}; {mark}",
                      "utilisation": "utilisation U = demand / resistance",
                      "drop_height": "allowable drop height"}.get(self.plan.overlay, shown)
             if data is None:

@@ -140,3 +140,23 @@ def test_the_key_tab_covers_no_grid_bubble(open_window, qtbot) -> None:
                for b in plan.grid_bubbles()]
     assert bubbles and not any(tab.intersects(b) for b in bubbles), tab
     assert not any(tab.intersects(c) for c in plan.content_obstacles())
+
+
+@pytest.mark.parametrize("size", [(1280, 720), (700, 460)])
+def test_the_heading_names_every_tag_the_plan_shows(open_window, qtbot, size) -> None:
+    # seen under Xvfb: the plan showed "P 9.75" and scabbing marks while the heading
+    # over it explained only E, Y and X (full and compact heading alike)
+    from droprig import outcomes
+
+    win = open_window(size)
+    assert win.open_path(DEMO, ask=False)
+    win.runner.run_now()
+    qtbot.waitUntil(lambda: win.doc.results is not None and win.doc.results_current)
+    heading = win.plan_heading_text()
+    keys = {s.key for s in win.plan.bay_states() if s.key in outcomes.ORDER}
+    assert "perforates" in keys  # the demo's spreader may go through
+    for key in keys:
+        o = outcomes.OUTCOMES[key]
+        assert f"{o.tag} {o.label.lower().replace(',', '')}" in heading, (key, heading)
+    if any(s.scabbing for s in win.plan.bay_states()):
+        assert "soffit may scab" in heading
