@@ -157,7 +157,6 @@ class VerifyDialog(QDialog):
         inner.setContentsMargins(0, 0, 0, 0)
         inner.addWidget(head)
         inner.addWidget(self.body, 1)
-        inner.addWidget(self.caution)
         self.scroll = QScrollArea()
         self.scroll.setWidget(content)
         self.scroll.setWidgetResizable(True)
@@ -167,6 +166,7 @@ class VerifyDialog(QDialog):
         buttons.rejected.connect(self.reject)
         lay = QVBoxLayout(self)
         lay.addWidget(self.scroll, 1)
+        lay.addWidget(self.caution)  # outside the scroll: always in view
         lay.addWidget(buttons)
         w, h = 1100, 600
         screen = (parent.screen() if parent is not None else None) or self.screen()
@@ -185,6 +185,10 @@ class VerifyDialog(QDialog):
         orientation = Qt.Orientation.Horizontal if wide else Qt.Orientation.Vertical
         if orientation != self.body.orientation():
             self.body.setOrientation(orientation)
+            # stacked, the numbers come first and the plots under them: on a small
+            # screen the plots filled the view and the table sat below the fold
+            # (seen under Xvfb at 150 %)
+            self.body.insertWidget(0, self.tabs if wide else self.side)
 
     def resizeEvent(self, event: QResizeEvent) -> None:
         super().resizeEvent(event)
