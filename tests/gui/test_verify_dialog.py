@@ -141,3 +141,36 @@ def test_the_table_never_needs_a_sideways_scroll(open_window, qtbot) -> None:
     screen = dlg.screen().availableGeometry()
     assert dlg.width() <= screen.width() and dlg.height() <= screen.height()
     dlg.close()
+
+
+def test_the_crushing_note_agrees_with_the_table() -> None:
+    # seen under Xvfb on the rooftop demo (spreader on a pad, bay 1-2/A-B): the note
+    # read "contact capped at 18.0 kN by crushing" beside a time-history contact force
+    # of 1,647 kN; a cap the history passes is named as used up (common practice, no
+    # source: a note must not contradict its table)
+    from dataclasses import replace
+
+    from droprig.commands.demo import demo_dir
+    from droprig.gui.verify_dialog import crushing_note
+    from droprig.io.project_file import load_project
+    from droprig.model import ModelError
+    from droprig.solver import analyse, verify_point
+
+    p = load_project(demo_dir() / "steel_erection_floor.droprig")
+    for b in analyse(p).bays:
+        try:
+            v = verify_point(p, b.zone_id, b.load_name, b.governing_x,
+                             b.governing_y).verification
+            break
+        except ModelError:
+            continue
+    cap = 18.0e3
+    held = replace(v, crushing_force=cap, time_history={**v.time_history, "force": cap})
+    passed = replace(v, crushing_force=cap,
+                     time_history={**v.time_history, "force": 90 * cap})
+    assert "capped at 18.0 kN" in crushing_note(held, "SI")
+    note = crushing_note(passed, "SI")
+    assert "capped" not in note and "used up" in note
+    assert units.fmt(90 * cap, "force", "SI") in note
+    assert crushing_note(replace(v, crushing_force=float("inf")), "SI") == \
+        "elastic contact (no crushing cap)"
