@@ -160,3 +160,21 @@ def test_the_heading_names_every_tag_the_plan_shows(open_window, qtbot, size) ->
         assert f"{o.tag} {o.label.lower().replace(',', '')}" in heading, (key, heading)
     if any(s.scabbing for s in win.plan.bay_states()):
         assert "soffit may scab" in heading
+
+
+def test_short_cautions_defer_to_local_codes_too(open_window, qtbot) -> None:
+    # seen under Xvfb: the bay's outcome in the inspector and the export dialog
+    # carried a caution naming the lifting person and the engineer but not the local
+    # codes (common.md: every verdict surface defers to all three)
+    from droprig.gui import style
+    from droprig.gui.document import Selection
+
+    for words in ("local codes", "appointed lifting person", "licensed engineer"):
+        assert words in style.CAUTION_SHORT
+    win = open_window((1280, 720))
+    assert win.open_path(DEMO, ask=False)
+    win.runner.run_now()
+    qtbot.waitUntil(lambda: win.doc.results is not None and win.doc.results_current)
+    bay = win.doc.results.bays[0]
+    win.doc.select(Selection("bay", (bay.level_id, bay.bay_id)))
+    assert style.CAUTION_SHORT in win.inspector._extra.text()
