@@ -642,12 +642,18 @@ class PanelsMixin(WindowParts):
         state = "" if self.doc.results_current else " Results are being updated."
         name = lv.name if lv.name.lower().startswith("level") else f"Level {lv.name}"
         if self.compact:  # a small window: the heading in two lines, not five
-            short = {"outcome": f"outcome {tags}; {mark}",
+            # each tag with one or two words (the full words are in the key): the
+            # long form took four of a 360 px window's lines (seen under Xvfb)
+            few = {"elastic": "elastic", "plastic": "yields", "exceeds": "exceeds",
+                   "perforates": "may go through"}
+            brief = ", ".join(f"{outcomes.OUTCOMES[k].tag} {few.get(k, k)}"
+                              for k in outcomes.ORDER)
+            short = {"outcome": f"{brief}, {outcomes.SCABBING.tag} scabs",
                      "utilisation": "utilisation U = demand / resistance",
                      "drop_height": "allowable drop height"}.get(self.plan.overlay, shown)
             if data is None:
-                which = "worst of all lifts per bay" if "no lift" not in which else which
-            return f"{name} · {short} · {which}.{state}"
+                which = "all lifts, worst per bay" if "no lift" not in which else which
+            return f"{lv.name} · {short} · {which}.{state}"
         return (f"{name}: {shown}; {which}. Key in a corner of the plan; "
                 f"the caution is under the plan.{state}")
 
