@@ -49,7 +49,8 @@ def screen_scale_tag(screen: object) -> str:
 
 
 CAUTION_VARIANTS: tuple[str, ...] = (
-    style.CAUTION_SHORT,
+    "An aid only — review against local codes with the appointed lifting person and a "
+    "licensed engineer",
     "An aid only — review with the appointed lifting person and a licensed engineer",
     "Aid only — review with the lifting person and a licensed engineer",
     "Aid only — review with a licensed engineer",
@@ -120,9 +121,22 @@ class ElidingLabel(QLabel):
     with "…" and keeps the whole text as ``text()`` and in its tooltip (the
     analysis state in the status bar: its least width once set the window's)."""
 
+    changed = Signal()
+    """The text changed (the window then shares the status bar out again)."""
+
+    def setText(self, text: str) -> None:
+        changed = text != self.text()
+        super().setText(text)
+        if changed:
+            self.changed.emit()
+
+    def need(self) -> int:
+        """Width (px) that shows the whole text."""
+        return self.fontMetrics().horizontalAdvance(self.text()) + 8
+
     def minimumSizeHint(self) -> QSize:
-        return QSize(self.fontMetrics().horizontalAdvance("Analysing…") + 4,
-                     super().minimumSizeHint().height())
+        return QSize(max(self.fontMetrics().horizontalAdvance("Analysing…") + 4,
+                         self.minimumWidth()), super().minimumSizeHint().height())
 
     def elided(self) -> bool:
         """True when the text on show is cut."""
@@ -387,6 +401,7 @@ class PanelsMixin(WindowParts):
     def resizeEvent(self, event: QResizeEvent) -> None:
         super().resizeEvent(event)
         self.set_compact(self._wants_compact(self.width(), self.height()))
+        self._fit_status_bar()
 
     @staticmethod
     def _wants_compact(width: int, height: int) -> bool:
@@ -433,8 +448,7 @@ class PanelsMixin(WindowParts):
         for b in self.view_buttons:
             b.setVisible(not compact)
         self._size_combos(compact=compact)
-        self.units_label.setVisible(not compact)
-        self.basis_label.setVisible(not compact)
+        self._fit_status_bar()
         self._update_heading()
         if compact:
             self.results_dock.raise_()
@@ -497,6 +511,26 @@ class PanelsMixin(WindowParts):
             sb.addWidget(w)
         sb.addWidget(self.state_label, 1)
         sb.addPermanentWidget(self.caution_label)
+        self.state_label.changed.connect(self._fit_status_bar)
+
+    def _fit_status_bar(self) -> None:
+        """Share the status bar out: the analysis state whole first (whether the
+        results are current, and their warnings: at 1280 × 720 it read "Up to dat…"
+        and its "⚠ 1 warning" was cut away, seen under Xvfb), the caution at least
+        its shortest form (it names the licensed engineer; the full one is under the
+        plan and in its tooltip), then units and basis if room is left (they are
+        also in Settings)."""
+        if not hasattr(self, "caution_label"):
+            return
+        room = self.statusBar().width() - 40
+        caution = self.caution_label.minimumSizeHint().width()
+        state = self.state_label.need()
+        extra = (self.units_label.sizeHint().width() + self.basis_label.sizeHint().width()
+                 + 24)
+        show = not self.compact and room >= state + caution + extra
+        self.units_label.setVisible(show)
+        self.basis_label.setVisible(show)
+        self.state_label.setMinimumWidth(max(min(state, room - caution), 0))
 
     def _update_guide(self) -> None:
         """Tell a new user the next step until the project can be assessed."""

@@ -201,3 +201,19 @@ def test_the_bay_column_shows_two_level_bay_names_whole(open_window, qtbot) -> N
     for n in names:
         assert fm.horizontalAdvance(n) + 8 <= view.columnWidth(col), (n, view.columnWidth(col))
     assert t._frozen.view.columnWidth(col) == view.columnWidth(col)
+
+
+@pytest.mark.parametrize("size", [(1228, 677), (818, 451)])
+def test_the_analysis_state_is_never_cut(open_window, qtbot, size) -> None:
+    # seen under Xvfb at 1280 x 720: the status bar read "Up to dat…", its
+    # "⚠ 1 warning" cut away; the state is whole, the caution keeps at least its
+    # shortest form, units and basis step aside when there is no room for them
+    win = open_window(size)
+    assert win.open_path(DEMO, ask=False)
+    win.runner.run_now()
+    qtbot.waitUntil(lambda: win.doc.results is not None and win.doc.results_current)
+    qtbot.waitUntil(lambda: win.state_label.text().startswith("Up to date"))
+    qtbot.wait(30)
+    assert not win.state_label.elided(), (win.state_label.text(), win.state_label.width())
+    assert win.caution_label.fits() and "licensed engineer" in win.caution_label.text()
+    assert win.caution_label.text() in win.caution_label.variants()
