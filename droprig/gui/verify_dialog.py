@@ -35,8 +35,7 @@ from droprig.texts import CAUTION
 if TYPE_CHECKING:
     from matplotlib.figure import Figure
 
-    from droprig.solver import PointVerification
-    from droprig.solver.verification import Verification
+    from droprig.solver import PointVerification, Verification
 
 ROWS: tuple[tuple[str, str, str], ...] = (
     ("force", "Contact force", "force"),
