@@ -123,6 +123,9 @@ def test_the_table_never_needs_a_sideways_scroll(open_window, qtbot) -> None:
     dlg = _verify_dialog(open_window, qtbot)
     for size, beside in (((1100, 600), True), ((760, 460), False), ((600, 330), False)):
         dlg.resize(*size)
+        # a top-level resize arrives as an event: wait for it (and the layout)
+        qtbot.waitUntil(lambda s=size: dlg.size().toTuple() == s)
+        qtbot.waitUntil(lambda b=beside: dlg.side_by_side() is b)
         qtbot.wait(10)
         t = dlg.table
         last = t.horizontalHeader().sectionViewportPosition(t.columnCount() - 1) \
