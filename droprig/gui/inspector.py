@@ -1169,7 +1169,11 @@ class Inspector(QWidget):
             permit = derive_conditions(self._doc.project, res) if res is not None else None
             verdicts = {(v.zone_id, v.load_name, v.bay_id): v
                         for v in (permit.bays if permit is not None else ())}
-            for b in sorted(rows, key=lambda r: -order.get(r.response, -1)):
+            # worst first, and among equal outcomes the highest utilisation first:
+            # the plan's tag shows that one (X 6.99), and the list opened with
+            # another load's U 1.15 (seen under Xvfb on the rooftop demo)
+            for b in sorted(rows, key=lambda r: (-order.get(r.response, -1),
+                                                 -r.max_utilisation)):
                 st = style.outcome(b.response)
                 v = verdicts.get((b.zone_id, b.load_name, b.bay_id))
                 cells = v.cells(system) if v is not None else None

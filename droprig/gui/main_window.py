@@ -139,7 +139,7 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
         self.plan.mode_changed.connect(self._on_plan_mode_changed)
         self.plan.point_clicked.connect(self._on_plan_point)
         self.plan.hover_text.connect(self._on_hover_text)
-        self.results_table.trace_requested.connect(self.show_trace)
+        self.results_table.trace_requested.connect(self._trace_from_table)
         self.inspector.refused.connect(lambda msg: self.statusBar().showMessage(msg, 10_000))
         self.level_combo.activated.connect(
             lambda _i: self.doc.set_level(self.level_combo.currentData()))
@@ -178,7 +178,21 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
                 case, i = hit
                 zone_id, load_name = case.zone_id, case.load_name
                 x, y = float(case.x[i]), float(case.y[i])
+        keep = self.current_side_panel() if self.compact else None
         self._on_point_clicked(zone_id, load_name, x, y)
+        if keep is not None and keep is not self.trace_dock:
+            keep.raise_()  # see _trace_from_table
+
+    def _trace_from_table(self, zone_id: str, load_name: str, x: float, y: float) -> None:
+        """A results row chosen: trace its governing point. In the compact layout
+        the tab on top stays (the trace waits behind its tab): raising the trace
+        hid the table the reader was going down, or, after a click on a bay in the
+        plan, the inspector's outcome and conditions of that bay (seen under Xvfb
+        at 150 %)."""
+        keep = self.current_side_panel() if self.compact else None
+        self.show_trace(zone_id, load_name, x, y)
+        if keep is not None and keep is not self.trace_dock:
+            keep.raise_()
 
     def _on_selection_changed(self, sel: Selection | None) -> None:
         self._update_actions()  # the plan follows the selection itself
@@ -216,7 +230,8 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
             avail = self.screen().availableGeometry() if self.screen() else None
             w = min(1600, int(avail.width() * 0.96)) if avail else 1600
             h = min(1000, int(avail.height() * 0.94)) if avail else 1000
-            self.resize(max(w, 640), max(h, 480))
+            self.resize(max(w, 640), max(h, 360))
+        self.set_compact(self._wants_compact(self.width(), self.height()))
         if isinstance(state, QByteArray | bytes) and state and \
                 self.restoreState(QByteArray(state)):
             self._default_layout_pending = False
@@ -235,7 +250,7 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
         w = min(self.width(), avail.width())
         h = min(self.height(), avail.height())
         if (w, h) != (self.width(), self.height()):
-            self.resize(max(w, 640), max(h, 480))
+            self.resize(max(w, 640), max(h, 360))
         x = min(max(self.x(), avail.x()), avail.x() + max(avail.width() - self.width(), 0))
         y = min(max(self.y(), avail.y()), avail.y() + max(avail.height() - self.height(), 0))
         if (x, y) != (self.x(), self.y()):

@@ -268,7 +268,7 @@ class PlanView(QGraphicsView):
         self.setMouseTracking(True)
         self.viewport().setMouseTracking(True)
         self.setFocusPolicy(Qt.FocusPolicy.StrongFocus)
-        self.setMinimumSize(320, 240)
+        self.setMinimumSize(240, 150)
 
         self._project: Project | None = None
         self._level: Level | None = None
@@ -693,8 +693,11 @@ class PlanView(QGraphicsView):
             return ml, mt, mr + legend, mb + caution
 
         def scale() -> float:
-            s = min((vw - ml - mr) / max(r.width(), 1e-6),
-                    (vh - mt - mb) / max(r.height(), 1e-6))
+            # the content keeps at least 40 % of the view each way: on a small plan
+            # (1280 × 720 at 200 %) the margins for bubbles, crane labels and the
+            # caution came to more than the view, and the fit fell to the least zoom
+            s = min(max(vw - ml - mr, 0.4 * vw) / max(r.width(), 1e-6),
+                    max(vh - mt - mb, 0.4 * vh) / max(r.height(), 1e-6))
             return min(max(s, MIN_ZOOM), MAX_ZOOM)
 
         ml, mt, mr, mb = 72.0, 64.0, 72.0 + legend, 96.0 + caution
@@ -1681,17 +1684,21 @@ class PlanView(QGraphicsView):
             return []
         width = max(self.viewport().width() - 16, 100)
         cached = getattr(self, "_caution_wrap", None)
-        if cached is not None and cached[0] == width:
+        key = (width, self.viewport().height())
+        if cached is not None and cached[0] == key:
             return cached[1]
         lines = self._wrap_caution(width)
-        self._caution_wrap = (width, lines)  # asked several times per paint
+        if 13.0 * len(lines) + 8 > 0.18 * self.viewport().height():
+            # a small plan: the short caution, not a strip over a third of the plan
+            lines = self._wrap_caution(width, style.CAUTION_PLAN_SHORT)
+        self._caution_wrap = (key, lines)  # asked several times per paint
         return lines
 
     @staticmethod
-    def _wrap_caution(width: float) -> list[str]:
+    def _wrap_caution(width: float, text: str = CAUTION) -> list[str]:
         """The caution broken into lines of at most ``width`` pixels at word ends."""
         fm = QFontMetricsF(pixel_font(10))
-        words, lines, cur = CAUTION.split(), [], ""
+        words, lines, cur = text.split(), [], ""
         for w in words:
             trial = f"{cur} {w}".strip()
             if fm.horizontalAdvance(trial) > width and cur:
@@ -1774,7 +1781,13 @@ class PlanView(QGraphicsView):
                     r.right() <= vw and not any(r.intersects(c) for c in content):
                 return r
         self.legend_collapsed = True
-        return QRectF(vw - 64, 10, 54, 20)
+        # the Key tab itself in the first corner free of content (top right, bottom
+        # right, top left beside the north arrow): at top right it covered grid
+        # bubble 4 of the rooftop demo at 150 % (seen under Xvfb)
+        tabs = [QRectF(vw - 64, 10, 54, 20), QRectF(vw - 64, bottom - 20, 54, 20),
+                QRectF(80, 10, 54, 20)]
+        return next((r for r in tabs if r.left() >= 0 and r.top() >= 0
+                     and not any(r.intersects(c) for c in content)), tabs[0])
 
     def _legend_rows(self) -> list[tuple[str, object]]:
         rows: list[tuple[str, object]] = []

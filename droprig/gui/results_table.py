@@ -476,10 +476,26 @@ class ResultsTable(QWidget):
     def _on_results_changed(self, results: Results | None) -> None:
         self._syncing = True
         self.model.set_data(results, self._doc.project)
+        self._fit_bay_column()
         self._fill_filter(results)
         self._update_summary()
         self._select_rows_for(self._doc.selection)
         self._syncing = False
+
+    BAY_COLUMN_MAX = 220
+    """px: the widest the Bay column grows to show its names whole."""
+
+    def _fit_bay_column(self) -> None:
+        """The Bay column as wide as its longest name (up to :attr:`BAY_COLUMN_MAX`):
+        with two levels a bay reads "Plant roof 1-2/A-B", and at 64 px it showed
+        "Plant r…", the bay itself cut away (seen under Xvfb at 200 %)."""
+        col = COL["bay"]
+        fm = self.view.fontMetrics()
+        texts = {str(self.model.data(self.model.index(r, col)) or "")
+                 for r in range(self.model.rowCount())}
+        need = max((fm.horizontalAdvance(t) for t in texts), default=0) + 16
+        if need > self.view.columnWidth(col):
+            self.view.setColumnWidth(col, min(need, self.BAY_COLUMN_MAX))
 
     def _on_project_changed(self, project: Project) -> None:
         self.model.set_stale(not self._doc.results_current)

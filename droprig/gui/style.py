@@ -214,11 +214,21 @@ SELECTION_WIDTH_PX = 3.0
 HANDLE_SIZE_PX = 9.0
 
 CAUTION_SHORT = (
-    "Results are an aid for a competent person — review with the appointed lifting "
-    "person and a licensed engineer"
+    "Results are an aid for a competent person — review against local codes with the "
+    "appointed lifting person and a licensed engineer"
 )
-"""The caution shown permanently in the status bar (the full sentence is
-``droprig.texts.CAUTION``)."""
+"""The caution of the bay inspector, the export dialog and (room allowing) the status
+bar: it defers to local codes, the appointed lifting person and a licensed engineer
+(the full sentence is ``droprig.texts.CAUTION``; the export dialog and the bay's
+outcome once left out the local codes, seen under Xvfb)."""
+
+CAUTION_PLAN_SHORT = (
+    "CAUTION: an aid only. Review against local codes with the appointed lifting person "
+    "and a licensed structural engineer; keep people out from under the load path."
+)
+"""The plan's caution strip on a small plan (1280 × 720 at 150–200 %), where the
+full ``droprig.texts.CAUTION`` took a third of the plan's height: the same three
+deferrals and the same instruction, in fewer words."""
 
 APP_ORGANISATION = "Droprig Works"
 APP_NAME = "droprig"

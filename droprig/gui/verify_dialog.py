@@ -14,11 +14,14 @@ from __future__ import annotations
 from typing import TYPE_CHECKING
 
 from PySide6.QtCore import Qt
+from PySide6.QtGui import QResizeEvent
 from PySide6.QtWidgets import (
     QDialog,
     QDialogButtonBox,
-    QHBoxLayout,
+    QFrame,
     QLabel,
+    QScrollArea,
+    QSplitter,
     QTableWidget,
     QTableWidgetItem,
     QTabWidget,
@@ -32,7 +35,7 @@ from droprig.texts import CAUTION
 if TYPE_CHECKING:
     from matplotlib.figure import Figure
 
-    from droprig.solver import PointVerification
+    from droprig.solver import PointVerification, Verification
 
 ROWS: tuple[tuple[str, str, str], ...] = (
     ("force", "Contact force", "force"),
@@ -57,6 +60,24 @@ def comparison_rows(pv: PointVerification, system: str) -> list[list[str]]:
                      units.fmt(d, quantity, system),
                      f"{d / t:.2f}" if t > 0 else "—"])
     return rows
+
+
+def crushing_note(v: Verification, system: str) -> str:
+    """What the crushable layer did in the time history, in words that agree with
+    the table: "capped at F_c" only while the history's contact force stayed at the
+    cap; when it rose past it (the layer used up, the load bearing on what is below),
+    the note says so. Under Xvfb the note read "contact capped at 18.0 kN by
+    crushing" beside a time-history contact force of 1,647 kN."""
+    if not v.crushing_force < float("inf"):
+        return "elastic contact (no crushing cap)"
+    cap = units.fmt(v.crushing_force, "force", system)
+    crushed = units.fmt(v.crush, "small_length", system)
+    peak = v.time_history["force"]
+    if peak > 1.01 * v.crushing_force:
+        return (f"contact held at {cap} by crushing until the crushable layer was used "
+                f"up (crushed {crushed} in the time history); the force then rose to "
+                f"{units.fmt(peak, 'force', system)} on what lies below it")
+    return f"contact capped at {cap} by crushing (crushed {crushed} in the time history)"
 
 
 def _plain(text: str) -> QLabel:
@@ -102,10 +123,7 @@ class VerifyDialog(QDialog):
                                       | Qt.AlignmentFlag.AlignVCenter)
                 self.table.setItem(i, j, item)
         self.table.resizeColumnsToContents()
-        crush = (f"contact capped at {units.fmt(v.crushing_force, 'force', system)} by "
-                 f"crushing (crushed {units.fmt(v.crush, 'small_length', system)} in the "
-                 "time history)" if v.crushing_force < float("inf") else
-                 "elastic contact (no crushing cap)")
+        crush = crushing_note(v, system)
         notes = _plain(
             f"r = M/mₑ = {v.mass_ratio:.3g}, κ = f_c/f_s = {v.compliance_ratio:.3g}; {crush}; "
             f"{v.modes} modes in time, time step {v.time_step * 1e3:.3g} ms"
@@ -122,20 +140,71 @@ class VerifyDialog(QDialog):
         self.caution = _plain(CAUTION)
         self.caution.setWordWrap(True)
         self.caution.setStyleSheet("color:#7a4a00")
+        # the table is never narrower than its columns (it needed a sideways scroll
+        # beside the plots): beside the plots when the dialog is wide enough, under
+        # them otherwise, and the whole body scrolls up and down on a small screen
+        # (1280 × 720 at 150–200 %), the buttons staying in view
+        hh = self.table.horizontalHeader()
+        self.table.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        self.table.setVerticalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        full_w = (self.table.verticalHeader().sizeHint().width() + hh.length()
+                  + 2 * self.table.frameWidth() + 2)
+        full_h = (hh.sizeHint().height() + self.table.verticalHeader().length()
+                  + 2 * self.table.frameWidth() + 2)
+        self.table.setFixedSize(full_w, full_h)
+        for c in self.canvases:
+            c.setMinimumSize(320, 220)
         side = QVBoxLayout()
+        side.setContentsMargins(0, 0, 0, 0)
         side.addWidget(self.table)
         side.addWidget(notes)
         side.addStretch(1)
-        body = QHBoxLayout()
-        body.addWidget(self.tabs, 3)
-        side_w = QWidget()
-        side_w.setLayout(side)
-        body.addWidget(side_w, 2)
+        self.side = QWidget()
+        self.side.setLayout(side)
+        self.body = QSplitter(Qt.Orientation.Horizontal)
+        self.body.setChildrenCollapsible(False)
+        self.body.addWidget(self.tabs)
+        self.body.addWidget(self.side)
+        self.body.setStretchFactor(0, 3)
+        self.body.setStretchFactor(1, 2)
+        content = QWidget()
+        inner = QVBoxLayout(content)
+        inner.setContentsMargins(0, 0, 0, 0)
+        inner.addWidget(head)
+        inner.addWidget(self.body, 1)
+        self.scroll = QScrollArea()
+        self.scroll.setWidget(content)
+        self.scroll.setWidgetResizable(True)
+        self.scroll.setFrameShape(QFrame.Shape.NoFrame)
+        self.scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
         buttons.rejected.connect(self.reject)
         lay = QVBoxLayout(self)
-        lay.addWidget(head)
-        lay.addLayout(body, 1)
-        lay.addWidget(self.caution)
+        lay.addWidget(self.scroll, 1)
+        lay.addWidget(self.caution)  # outside the scroll: always in view
         lay.addWidget(buttons)
-        self.resize(1100, 560)
+        w, h = 1100, 600
+        screen = (parent.screen() if parent is not None else None) or self.screen()
+        if screen is not None:
+            avail = screen.availableGeometry()
+            w, h = min(w, int(avail.width() * 0.96)), min(h, int(avail.height() * 0.92))
+        self.resize(w, h)
+        self._arrange()
+
+    def side_by_side(self) -> bool:
+        """True when the table stands beside the plots (else under them)."""
+        return self.body.orientation() == Qt.Orientation.Horizontal
+
+    def _arrange(self) -> None:
+        wide = self.width() - 40 >= self.table.width() + 360
+        orientation = Qt.Orientation.Horizontal if wide else Qt.Orientation.Vertical
+        if orientation != self.body.orientation():
+            self.body.setOrientation(orientation)
+            # stacked, the numbers come first and the plots under them: on a small
+            # screen the plots filled the view and the table sat below the fold
+            # (seen under Xvfb at 150 %)
+            self.body.insertWidget(0, self.tabs if wide else self.side)
+
+    def resizeEvent(self, event: QResizeEvent) -> None:
+        super().resizeEvent(event)
+        self._arrange()

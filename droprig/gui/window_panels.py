@@ -9,7 +9,7 @@ from __future__ import annotations
 import html
 
 from PySide6.QtCore import QSize, Qt, Signal
-from PySide6.QtGui import QMouseEvent, QResizeEvent, QShowEvent
+from PySide6.QtGui import QMouseEvent, QPainter, QPaintEvent, QResizeEvent, QShowEvent
 from PySide6.QtWidgets import (
     QComboBox,
     QDockWidget,
@@ -18,14 +18,17 @@ from PySide6.QtWidgets import (
     QLabel,
     QProgressBar,
     QScrollArea,
+    QTabBar,
+    QTabWidget,
     QToolButton,
     QVBoxLayout,
     QWidget,
 )
 
-from droprig import units
+from droprig import outcomes, units
 from droprig.gui import style
 from droprig.gui.document import Selection
+from droprig.gui.flow_layout import FlowLayout
 from droprig.gui.inspector import Inspector
 from droprig.gui.project_tree import ProjectTree
 from droprig.gui.results_table import ResultsTable
@@ -46,7 +49,8 @@ def screen_scale_tag(screen: object) -> str:
 
 
 CAUTION_VARIANTS: tuple[str, ...] = (
-    style.CAUTION_SHORT,
+    "An aid only — review against local codes with the appointed lifting person and a "
+    "licensed engineer",
     "An aid only — review with the appointed lifting person and a licensed engineer",
     "Aid only — review with the lifting person and a licensed engineer",
     "Aid only — review with a licensed engineer",
@@ -112,6 +116,54 @@ class CautionLabel(QLabel):
         super().mousePressEvent(event)
 
 
+class ElidingLabel(QLabel):
+    """A one-line label that, when narrower than its text, draws the text cut
+    with "…" and keeps the whole text as ``text()`` and in its tooltip (the
+    analysis state in the status bar: its least width once set the window's)."""
+
+    changed = Signal()
+    """The text changed (the window then shares the status bar out again)."""
+
+    def setText(self, text: str) -> None:
+        changed = text != self.text()
+        super().setText(text)
+        if changed:
+            self.changed.emit()
+
+    def need(self) -> int:
+        """Width (px) that shows the whole text."""
+        return self.fontMetrics().horizontalAdvance(self.text()) + 8
+
+    def minimumSizeHint(self) -> QSize:
+        return QSize(max(self.fontMetrics().horizontalAdvance("Analysing…") + 4,
+                         self.minimumWidth()), super().minimumSizeHint().height())
+
+    def elided(self) -> bool:
+        """True when the text on show is cut."""
+        return self.fontMetrics().horizontalAdvance(self.text()) > self.contentsRect().width()
+
+    def paintEvent(self, event: QPaintEvent) -> None:
+        if not self.elided():
+            super().paintEvent(event)
+            return
+        painter = QPainter(self)
+        rect = self.contentsRect()
+        text = self.fontMetrics().elidedText(self.text(), Qt.TextElideMode.ElideRight,
+                                             rect.width())
+        painter.setPen(self.palette().color(self.foregroundRole()))
+        painter.drawText(rect, int(Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignVCenter),
+                         text)
+
+
+COMPACT_BELOW = (760, 600)
+"""Window width and height (logical px) below either of which the panels go to one
+tabbed side panel (:meth:`PanelsMixin.set_compact`): 1280 × 720 at 150 % is
+853 × 480 logical and at 200 % 640 × 360 (common practice, no source)."""
+
+SHORT_TITLES = {"results": "Results", "trace": "Trace"}
+"""Panel titles in the compact layout, where the four share one row of tabs."""
+
+
 class PanelsMixin(WindowParts):
     """The main window's panels."""
 
@@ -129,36 +181,45 @@ class PanelsMixin(WindowParts):
         self.overlay_combo.setToolTip("What the bays and drop points are coloured by")
         self.case_combo = QComboBox()
         self.case_combo.setToolTip("Which lift and load the plan shows")
-        self.case_combo.setMinimumContentsLength(22)
         # the combos size to a set number of characters, not to their longest item
         # (the list opens at full width): with a level chooser, names as long as the
         # two-level demo's set the bar, and so the window, past a 1280 px screen
-        for combo, chars in ((self.level_combo, 10), (self.overlay_combo, 10),
-                             (self.case_combo, 16)):
+        for combo in (self.level_combo, self.overlay_combo, self.case_combo):
             combo.setSizeAdjustPolicy(
                 QComboBox.SizeAdjustPolicy.AdjustToMinimumContentsLengthWithIcon)
-            combo.setMinimumContentsLength(chars)
+        self._size_combos(compact=False)
         draw_btn = QToolButton()
         draw_btn.setDefaultAction(self.actions["draw_protection"])
         fit_btn = QToolButton()
         fit_btn.setDefaultAction(self.actions["fit"])
 
+        # the view bar: each label with its chooser, then the two buttons; on a
+        # narrow window (1280 × 720 at 150–200 %) it wraps onto a second row rather
+        # than set a window wider than the screen
         bar = QWidget()
         bar.setObjectName("viewBar")
-        h = QHBoxLayout(bar)
-        h.setContentsMargins(6, 4, 6, 4)
+        self.view_bar = bar
+        flow = FlowLayout(bar, spacing=10)
+        flow.setContentsMargins(6, 4, 6, 4)
+
+        def pair(label: QLabel, combo: QComboBox) -> QWidget:
+            w = QWidget()
+            lay = QHBoxLayout(w)
+            lay.setContentsMargins(0, 0, 0, 0)
+            lay.setSpacing(4)
+            lay.addWidget(label)
+            lay.addWidget(combo)
+            flow.addWidget(w)
+            return w
+
         self._level_label = QLabel("Level:")
-        h.addWidget(self._level_label)
-        h.addWidget(self.level_combo)
-        h.addSpacing(10)
-        h.addWidget(QLabel("Colour by:"))
-        h.addWidget(self.overlay_combo)
-        h.addSpacing(10)
-        h.addWidget(QLabel("Lift:"))
-        h.addWidget(self.case_combo)
-        h.addStretch(1)
-        h.addWidget(draw_btn)
-        h.addWidget(fit_btn)
+        self._level_pair = pair(self._level_label, self.level_combo)
+        self._colour_label = QLabel("Colour by:")
+        pair(self._colour_label, self.overlay_combo)
+        pair(QLabel("Lift:"), self.case_combo)
+        self.view_buttons = (draw_btn, fit_btn)
+        flow.addWidget(draw_btn)
+        flow.addWidget(fit_btn)
 
         self.guide = QWidget()
         self.guide.setObjectName("guideBar")
@@ -226,6 +287,15 @@ class PanelsMixin(WindowParts):
         v.addWidget(self.plan, 1)
         self.setCentralWidget(central)
 
+    def _size_combos(self, *, compact: bool) -> None:
+        """The view bar's choosers at a set number of characters (fewer on a small
+        window, where the bar would otherwise take three rows of a 360 px plan)."""
+        for combo, chars, small in ((self.level_combo, 10, 5), (self.overlay_combo, 10, 6),
+                                    (self.case_combo, 16, 10)):
+            combo.setMinimumContentsLength(small if compact else chars)
+        if hasattr(self, "_colour_label"):
+            self._colour_label.setText("Colour:" if compact else "Colour by:")
+
     NOTICE_ITEMS = 3
     """Notes listed in the notice bar; the rest are counted and listed on hover."""
     NOTICE_LINES = 5
@@ -279,6 +349,8 @@ class PanelsMixin(WindowParts):
         self.trace_dock = self._dock("trace", "Calculation trace", self.trace_panel,
                                      Qt.DockWidgetArea.BottomDockWidgetArea)
         self.splitDockWidget(self.results_dock, self.trace_dock, Qt.Orientation.Horizontal)
+        self._full_titles = {"results": self.results_dock.windowTitle(),
+                             "trace": self.trace_dock.windowTitle()}
         self._set_dock_minimums()
         self._default_layout_pending = True
 
@@ -311,13 +383,108 @@ class PanelsMixin(WindowParts):
             d.setMinimumWidth(title + 2 * fm.height() + 40)  # float + close buttons
         em = self.fontMetrics().averageCharWidth()
         self.tree_dock.setMinimumWidth(max(self.tree_dock.minimumWidth(), 18 * em))
-        self.inspector_dock.setMinimumWidth(max(self.inspector_dock.minimumWidth(), 30 * em))
+        self.inspector_dock.setMinimumWidth(max(self.inspector_dock.minimumWidth(),
+                                                (26 if self.compact else 30) * em))
 
     def showEvent(self, event: QShowEvent) -> None:
         super().showEvent(event)
         if self._default_layout_pending:
             self._default_layout_pending = False
-            self._apply_default_dock_sizes()
+            if self.compact:
+                self._size_side_panel()
+            else:
+                self._apply_default_dock_sizes()
+
+    compact = False
+    """True while the panels share one tabbed side panel (a small window)."""
+
+    def resizeEvent(self, event: QResizeEvent) -> None:
+        super().resizeEvent(event)
+        self.set_compact(self._wants_compact(self.width(), self.height()))
+        self._fit_status_bar()
+
+    @staticmethod
+    def _wants_compact(width: int, height: int) -> bool:
+        return width < COMPACT_BELOW[0] or height < COMPACT_BELOW[1]
+
+    def _docks(self) -> tuple[QDockWidget, ...]:
+        """The panels in their tab order of the compact layout (the results first:
+        what a reader opens the window for)."""
+        return (self.results_dock, self.inspector_dock, self.tree_dock, self.trace_dock)
+
+    def set_compact(self, compact: bool) -> None:
+        """On a small window (below :data:`COMPACT_BELOW`: 1280 × 720 at 150 % or
+        200 % scaling) the four panels become tabs of one panel at the right and the
+        plan keeps the rest; the view bar's two buttons (also in the Lift and View
+        menus) and the status bar's units and basis (also in Settings) step aside.
+        On a larger window the panels go back to their places: project left,
+        inspector right, results and trace below. Each panel keeps whether the
+        user closed it (View menu)."""
+        if compact == self.compact:
+            return
+        self.compact = compact
+        shown = {d: not d.isHidden() for d in self._docks()}
+        for d in self._docks():
+            d.setFloating(False)
+        if compact:
+            self.setTabPosition(Qt.DockWidgetArea.RightDockWidgetArea,
+                                QTabWidget.TabPosition.North)
+            first, *rest = self._docks()
+            self.addDockWidget(Qt.DockWidgetArea.RightDockWidgetArea, first)
+            for d in rest:
+                self.addDockWidget(Qt.DockWidgetArea.RightDockWidgetArea, d)
+                self.tabifyDockWidget(first, d)
+        else:
+            self.addDockWidget(Qt.DockWidgetArea.LeftDockWidgetArea, self.tree_dock)
+            self.addDockWidget(Qt.DockWidgetArea.RightDockWidgetArea, self.inspector_dock)
+            self.addDockWidget(Qt.DockWidgetArea.BottomDockWidgetArea, self.results_dock)
+            self.addDockWidget(Qt.DockWidgetArea.BottomDockWidgetArea, self.trace_dock)
+            self.splitDockWidget(self.results_dock, self.trace_dock, Qt.Orientation.Horizontal)
+        for key, d in (("results", self.results_dock), ("trace", self.trace_dock)):
+            d.setWindowTitle(SHORT_TITLES[key] if compact else self._full_titles[key])
+        for d, was in shown.items():
+            d.setVisible(was)
+        self._set_dock_minimums()
+        for b in self.view_buttons:
+            b.setVisible(not compact)
+        self._size_combos(compact=compact)
+        self._fit_status_bar()
+        self._update_heading()
+        if compact:
+            self.results_dock.raise_()
+        if self.isVisible():
+            if compact:
+                self._size_side_panel()
+            else:
+                self._apply_default_dock_sizes()
+
+    def side_tab_bar(self) -> QTabBar | None:
+        """The tab bar of the compact layout's side panel (None when not compact)."""
+        if not self.compact:
+            return None
+        titles = {d.windowTitle() for d in self._docks()}
+        for bar in self.findChildren(QTabBar):
+            if bar.parent() is self and bar.isVisible() and bar.count() > 1 and \
+                    {bar.tabText(i) for i in range(bar.count())} <= titles:
+                return bar
+        return None
+
+    def current_side_panel(self) -> QDockWidget | None:
+        """The panel whose tab is raised in the compact layout."""
+        bar = self.side_tab_bar()
+        if bar is None:
+            return None
+        title = bar.tabText(bar.currentIndex())
+        return next((d for d in self._docks() if d.windowTitle() == title), None)
+
+    def _size_side_panel(self) -> None:
+        """The side panel as wide as its row of tabs (no tab scrolled away or cut),
+        and at least 36 % of the window; the plan keeps the rest."""
+        fm = self.fontMetrics()
+        tabs = sum(fm.horizontalAdvance(d.windowTitle()) + 2 * fm.height()
+                   for d in self._docks() if not d.isHidden())
+        want = max(tabs, int(self.width() * 0.36), self.inspector_dock.minimumWidth())
+        self.resizeDocks([self.results_dock], [want], Qt.Orientation.Horizontal)
 
     def _make_status_bar(self) -> None:
         sb = self.statusBar()
@@ -326,7 +493,7 @@ class PanelsMixin(WindowParts):
         self.units_label.setObjectName("unitsLabel")
         self.basis_label = QLabel()
         self.basis_label.setObjectName("basisLabel")
-        self.state_label = QLabel()
+        self.state_label = ElidingLabel()
         self.state_label.setObjectName("analysisState")
         self.busy = QProgressBar()
         self.busy.setObjectName("busyIndicator")
@@ -344,6 +511,26 @@ class PanelsMixin(WindowParts):
             sb.addWidget(w)
         sb.addWidget(self.state_label, 1)
         sb.addPermanentWidget(self.caution_label)
+        self.state_label.changed.connect(self._fit_status_bar)
+
+    def _fit_status_bar(self) -> None:
+        """Share the status bar out: the analysis state whole first (whether the
+        results are current, and their warnings: at 1280 × 720 it read "Up to dat…"
+        and its "⚠ 1 warning" was cut away, seen under Xvfb), the caution at least
+        its shortest form (it names the licensed engineer; the full one is under the
+        plan and in its tooltip), then units and basis if room is left (they are
+        also in Settings)."""
+        if not hasattr(self, "caution_label"):
+            return
+        room = self.statusBar().width() - 40
+        caution = self.caution_label.minimumSizeHint().width()
+        state = self.state_label.need()
+        extra = (self.units_label.sizeHint().width() + self.basis_label.sizeHint().width()
+                 + 24)
+        show = not self.compact and room >= state + caution + extra
+        self.units_label.setVisible(show)
+        self.basis_label.setVisible(show)
+        self.state_label.setMinimumWidth(max(min(state, room - caution), 0))
 
     def _update_guide(self) -> None:
         """Tell a new user the next step until the project can be assessed."""
@@ -406,9 +593,7 @@ class PanelsMixin(WindowParts):
             self.level_combo.addItem(lv.name, lv.id)
         self.level_combo.setCurrentIndex(self.level_combo.findData(self.doc.level_id))
         self.level_combo.blockSignals(False)
-        multi = len(p.levels) > 1
-        self.level_combo.setVisible(multi)
-        self._level_label.setVisible(multi)
+        self._level_pair.setVisible(len(p.levels) > 1)
 
     def _fill_case_combo(self) -> None:
         current = self.doc.case
@@ -457,8 +642,12 @@ class PanelsMixin(WindowParts):
         lv = self.doc.level
         if lv is None:
             return "No level yet: build the floor framing first."
-        shown = {"outcome": "bays coloured by outcome (E stays elastic, Y yields within "
-                            "limits, X exceeds limits)",
+        # every tag the plan can show is named (the P of "may go through" and the
+        # scabbing mark were not, while the plan showed "P 9.75": seen under Xvfb)
+        tags = ", ".join(f"{o.tag} {o.label.lower().replace(',', '')}"
+                         for o in (outcomes.OUTCOMES[k] for k in outcomes.ORDER))
+        mark = f"{outcomes.SCABBING.tag}: {outcomes.SCABBING.label.lower()}"
+        shown = {"outcome": f"bays coloured by outcome ({tags}; {mark})",
                  "utilisation": "drop points coloured by utilisation U = demand / "
                                 "resistance (above 1.00 a check is exceeded)",
                  "drop_height": "drop points coloured by the allowable drop height"
@@ -486,6 +675,19 @@ class PanelsMixin(WindowParts):
                 pass
         state = "" if self.doc.results_current else " Results are being updated."
         name = lv.name if lv.name.lower().startswith("level") else f"Level {lv.name}"
+        if self.compact:  # a small window: the heading in two lines, not five
+            # each tag with one or two words (the full words are in the key): the
+            # long form took four of a 360 px window's lines (seen under Xvfb)
+            few = {"elastic": "elastic", "plastic": "yields", "exceeds": "exceeds",
+                   "perforates": "may go through"}
+            brief = ", ".join(f"{outcomes.OUTCOMES[k].tag} {few.get(k, k)}"
+                              for k in outcomes.ORDER)
+            short = {"outcome": f"{brief}, {outcomes.SCABBING.tag} scabs",
+                     "utilisation": "utilisation U = demand / resistance",
+                     "drop_height": "allowable drop height"}.get(self.plan.overlay, shown)
+            if data is None:
+                which = "all lifts, worst per bay" if "no lift" not in which else which
+            return f"{lv.name} · {short} · {which}.{state}"
         return (f"{name}: {shown}; {which}. Key in a corner of the plan; "
                 f"the caution is under the plan.{state}")
 
