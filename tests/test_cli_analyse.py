@@ -126,6 +126,14 @@ def test_local_damage_and_level_below_reach_json_and_csv(tmp_path, capsys):
     assert main(["analyse", str(demo)]) == 0
     table = capsys.readouterr().out
     assert "Through the deck of level RF to level L3" in table and CAUTION in table
+    # each cascade states its bays one line each and a shared advice once, not the same
+    # long local-damage paragraph bay by bay (readability, common practice, no source)
+    blocks = table.split("Through the deck of level RF to level L3")[1:]
+    assert blocks
+    for block in blocks:
+        block = block.split("Warning:")[0]
+        assert block.count("Local damage:") == block.count("  For ")
+        assert block.count("Local damage:") >= 1
     doc = _no_nan(jpath.read_text(encoding="utf-8"))
     perf = [b for b in doc["bays"] if b["response"] == "perforates"]
     assert perf and all(b["level_below"] == "L3" and b["advice_kind"] == "level_below"

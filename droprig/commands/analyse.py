@@ -21,6 +21,7 @@ import io
 import json
 import math
 import sys
+from collections.abc import Sequence
 from dataclasses import asdict
 from typing import Any
 
@@ -242,8 +243,6 @@ def bays_csv_text(project: Any, results: Any, permit: Any = None) -> str:
 
 def table_text(project: Any, results: Any, permit: Any = None) -> str:
     """Readable per-bay table in the project's unit system, then the permit."""
-    from droprig.advice import advice_text
-    from droprig.outcomes import fmt_utilisation
     from droprig.permit import derive_conditions
     from droprig.units import fmt
 
@@ -284,14 +283,31 @@ def table_text(project: Any, results: Any, permit: Any = None) -> str:
         out.append(f"Through the deck of level {f.from_level} to level {f.level_id}: "
                    f"{f.load_name} ({f.zone_id}) strikes as if dropped "
                    f"{fmt(f.equivalent_height, 'length', system)}")
-        for b in f.bays:
-            out.append(f"  {b.bay_id}: {b.response}, max U "
-                       f"{fmt_utilisation(b.max_utilisation)}; {advice_text(b, system)}")
+        out.extend(_cascade_lines(f.bays, system))
     for wmsg in results.warnings:
         out.append(f"Warning: {wmsg}")
     out.append("")
     out.append(CAUTION)
     return "\n".join(out) + "\n"
+
+
+def _cascade_lines(bays: Sequence[Any], system: str) -> list[str]:
+    """One line per bay (its response and worst U), then each distinct advice once,
+    naming the bays it is for (the same long local-damage advice is not repeated bay
+    by bay)."""
+    from droprig.advice import advice_text
+    from droprig.outcomes import fmt_utilisation
+
+    lines = [f"  {b.bay_id}: {b.response}, max U {fmt_utilisation(b.max_utilisation)}"
+             for b in bays]
+    groups: dict[str, list[str]] = {}
+    for b in bays:
+        groups.setdefault(advice_text(b, system), []).append(b.bay_id)
+    for text, ids in groups.items():
+        who = "each bay above" if len(ids) == len(bays) and len(bays) > 1 else (
+            ("bay " if len(ids) == 1 else "bays ") + ", ".join(ids))
+        lines.append(f"  For {who}: {text}")
+    return lines
 
 
 def _write(target: str, text: str, project_path: str = "", *, force: bool = False,
