@@ -865,9 +865,29 @@ class _Builder:
             self.story.append(self.P("Title block incomplete: " + esc("; ".join(flags))
                                      + ". Complete it by hand before signing.", st.caution))
         self.story.extend(self.permit_flags())
+        example = self._range_example()
+        if example:  # after the flags: they must stay on page 1
+            self.story.append(self.P(
+                f"A bay range such as {esc(example)} stands for every bay within those "
+                "grid lines, not for one bay; section 3 lists the bays one by one.",
+                st.cell))
         self.story.append(Spacer(1, 3))
         self.story.append(self.P(esc(_caution()), st.caution))
         self.story.append(KeepTogether(self.signoff()))
+
+    def _range_example(self) -> str:
+        """The first bay range (:func:`droprig.model.bay_ranges`) the conditions use
+        that is not itself a bay id, or "" when every condition names single bays."""
+        from droprig.model import bay_ranges
+
+        for c in self.conditions:
+            lv = self._level(c)
+            if lv is None or not c.bays:
+                continue
+            for name in bay_ranges(lv, c.bays):
+                if name not in c.bays:
+                    return name
+        return ""
 
     def title_flags(self) -> list[str]:
         info = self.p.info

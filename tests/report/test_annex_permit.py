@@ -302,3 +302,19 @@ def test_pick_up_and_set_down_read_apart_in_greyscale(tmp_path: pathlib.Path) ->
         assert (box <= 0.3).mean() > 0.05          # its outline is drawn dark
         ring = patch(*drop, POINT_SIZE + 1.0)
         assert (ring >= 0.8).mean() > 0.05         # a light edge, so it reads on a pad
+
+
+def test_a_bay_range_is_explained_on_page_one(recorded: tuple[Project, list[str]]) -> None:
+    # page 1 words conditions with grid ranges ("1-3/A-B": every bay between grid
+    # lines 1 and 3 and A and B, droprig's own wording, model.bay_ranges); a signer
+    # must not read one as a single bay, so page 1 says what a range is
+    # (readability, common practice, no source)
+    from droprig.model import bay_ranges
+    from droprig.permit import derive_conditions
+
+    p, texts = recorded
+    permit = derive_conditions(p, analysis.analyse(p))
+    ranges = [n for c in permit.conditions if c.bays
+              for n in bay_ranges(p.level(c.level_id), c.bays) if n not in c.bays]
+    assert ranges, "this roof's conditions should name a range of bays"
+    assert f"A bay range such as {ranges[0]} stands for every bay" in texts[0]
