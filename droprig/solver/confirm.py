@@ -14,6 +14,13 @@ inverse answer of the trial's own points, and is tried again, up to
 :data:`CONFIRM_ROUNDS` times; one that never works is withdrawn (the bay then reads
 keep clear, or takes another option). Issue 13's closed loop, in the solver.
 
+A bay's allowable mass (the heaviest load that keeps it elastic from the planned
+height) is tried the same way: the load run at that mass, as hard as it is, so a
+trial that perforates the deck fails (a hard load's mass is first held below the
+mass that perforates bare deck, :func:`droprig.solver.local_damage.perforation_mass`);
+a failed mass steps back to :data:`MASS_STEP` × itself (or 0.99 × the least its own
+points allow) and is left out after :data:`CONFIRM_ROUNDS`.
+
 Before the bays, each drop point's own plastic allowable height (printed on the
 calculation sheets and in the per-point outputs) is tried the same way at
 :data:`CONFIRM_FACTORS` × itself and falls back to the elastic one where it exceeds
@@ -35,17 +42,19 @@ damage by a hard load has its own allowable heights. SI units (m, N/m).
 
 from __future__ import annotations
 
+import copy
 import math
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, replace
 
 import numpy as np
 
-from droprig.model import LiftLoad, LiftZone, Project, Rect, bays
+from droprig.model import Deck, LiftLoad, LiftZone, Project, Rect, bays
 from droprig.solver import cancel, droppoints, evaluate
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry, concat_geo, point_geometry, take_geo
 from droprig.solver.loadpath import locate
+from droprig.solver.local_damage import impact_speed, is_hard, perforation_mass
 from droprig.solver.refine import severity
 from droprig.solver.results import (
     ELASTIC,
@@ -91,8 +100,18 @@ must not exceed before the height is reported (issue 16: evaluated at 0.99 × th
 height)."""
 
 _FIELD = {"elastic": "allowable_drop_height", "plastic": "allowable_drop_height_plastic",
-          "mat": "required_mat_stiffness"}
+          "mat": "required_mat_stiffness", "mass": "allowable_mass"}
 """The inverse answer of each kind of condition, per drop point."""
+
+MASS_STEP = 0.95
+"""An allowable mass that fails its trial steps back to at most this fraction of
+itself (and to 0.99 × the least the trial's own points allow)."""
+
+MASS_SPAN = 1.5
+"""A mass trial starts from the bay's analysis points whose own allowable mass is at
+most this multiple of the mass tried: U grows at least as √M (Gere §9.10), so a point
+allowing 1.5 × the trial mass is at U ≤ 0.82 under it; refinement then searches
+around the worst of them."""
 
 _ELASTIC = frozenset({ELASTIC})
 _WITHIN = frozenset({ELASTIC, PLASTIC})
@@ -101,8 +120,10 @@ _WITHIN = frozenset({ELASTIC, PLASTIC})
 @dataclass
 class _Trial:
     """One condition of one bay summary: ``kind`` ``elastic`` / ``plastic`` (a drop
-    height on the datum, m) or ``mat`` (a spring mat's stiffness, N/m, dropped from
-    the planned height ``H``); ``value`` the condition as it would be printed."""
+    height on the datum, m), ``mat`` (a spring mat's stiffness, N/m, dropped from
+    the planned height ``H``) or ``mass`` (the bay's allowable mass, kg, dropped from
+    ``H``: the load is run with that mass, ``eval_load`` its index among the loads
+    evaluated); ``value`` the condition as it would be printed."""
 
     s: int
     kind: str
@@ -114,6 +135,7 @@ class _Trial:
     ok: bool = False
     failed: bool = False
     peak: float = 0.0
+    eval_load: int = -1
 
 
 def _inside(rect: Rect, x: np.ndarray, y: np.ndarray) -> np.ndarray:
@@ -123,8 +145,9 @@ def _inside(rect: Rect, x: np.ndarray, y: np.ndarray) -> np.ndarray:
 
 
 def _trials(summaries: Sequence[BaySummary], zone: LiftZone,
-            rects: dict[str, Rect]) -> list[_Trial]:
-    """The conditions each summary may offer (see the module docstring)."""
+            rects: dict[str, Rect], deck: Deck) -> list[_Trial]:
+    """The conditions each summary may offer, and its allowable mass (see the module
+    docstring); ``deck`` the level's (a hard load's perforation limits the mass)."""
     names = [ld.name for ld in zone.loads]
     out: list[_Trial] = []
     for k, s in enumerate(summaries):
@@ -144,7 +167,32 @@ def _trials(summaries: Sequence[BaySummary], zone: LiftZone,
                               LIMIT_MARGIN * hp, _WITHIN))
         if s.mat_stiffness_max is not None and s.mat_stiffness_max > 0.0:
             out.append(_Trial(k, "mat", j, rect, float(s.mat_stiffness_max), H, _ELASTIC))
+        m = s.allowable_mass
+        if m is not None and math.isfinite(m) and m > 0.0:
+            load = zone.loads[j]
+            if is_hard(load) and s.perforation_height is not None:
+                # the mass that does not perforate from the planned height where the
+                # bay has bare deck (a perforation height of its own; the forward
+                # trial then checks the bay as it lies)
+                v = float(impact_speed(H, zone.hoist_speed))
+                m = perforation_mass(load, deck, v, m)
+            if m > 0.0:
+                # first tried at CONFIRM_U² of itself: U grows as M^a, ½ ≤ a ≤ 1
+                # (Gere §9.10: F ∝ √M for h ≫ δst, ∝ M for h → 0), so U ≤ CONFIRM_U
+                # at the point that set it
+                out.append(_Trial(k, "mass", j, rect, CONFIRM_U ** 2 * m, H, _ELASTIC))
+            else:
+                out.append(_Trial(k, "mass", j, rect, 0.0, H, _ELASTIC, failed=True))
     return out
+
+
+def _with_mass(load: LiftLoad, mass: float) -> LiftLoad:
+    """``load`` with the trial ``mass`` (kg). A copy with the field set directly: a
+    trial may go below the least mass a project may declare (1 kg, an input range,
+    not physics), which the model's validation would refuse."""
+    trial = copy.copy(load)
+    object.__setattr__(trial, "mass", float(mass))
+    return trial
 
 
 def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
@@ -158,7 +206,7 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     for t, tr in enumerate(trials):
         v = res[_FIELD[tr.kind]]
         # points whose own answer is far above the condition cannot fail it
-        near = ~(v > CONFIRM_SPAN * tr.value)
+        near = ~(v > (MASS_SPAN if tr.kind == "mass" else CONFIRM_SPAN) * tr.value)
         sel = np.flatnonzero((li_all == tr.load) & near
                              & _inside(tr.rect, res["x"], res["y"]))
         rows.append(sel)
@@ -201,11 +249,15 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
         nxt = CONFIRM_STEP * tr.value
         if v.size:
             nxt = min(nxt, LIMIT_MARGIN * float(np.min(v)))
-        if not (nxt > 0.0) or (tr.kind != "mat" and nxt < 1e-4):
+        if tr.kind == "mass":
+            nxt = MASS_STEP * tr.value
+            if v.size:
+                nxt = min(nxt, 0.99 * float(np.min(v)))
+        if not (nxt > 0.0) or (tr.kind in ("elastic", "plastic") and nxt < 1e-4):
             tr.failed = True
         else:
             tr.value = nxt
-            if tr.kind != "mat":
+            if tr.kind in ("elastic", "plastic"):
                 tr.H = nxt
 
 
@@ -266,7 +318,8 @@ def _evaluate(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     """The forward chain of each trial at its points (``geo``: their geometry where
     known, row for row with x, y; :func:`_forward`)."""
     cancel.check()
-    li = np.array([tr.load for tr in trials], dtype=np.int64)[own]
+    li = np.array([tr.eval_load if tr.eval_load >= 0 else tr.load for tr in trials],
+                  dtype=np.int64)[own]
     H = np.array([tr.H for tr in trials])[own]
     mk = np.array([tr.value if tr.kind == "mat" else np.nan for tr in trials])[own]
     if geo is None:
@@ -274,7 +327,7 @@ def _evaluate(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     r = _forward(fm, project, zone, loads, geo, li, H,
                  mk if np.isfinite(mk).any() else None)
     keep = ("x", "y", "response", "utilisation", "peak_force", "allowable_drop_height",
-            "allowable_drop_height_plastic", "required_mat_stiffness")
+            "allowable_drop_height_plastic", "required_mat_stiffness", "allowable_mass")
     out = {k: r[k] for k in keep}
     out["owner"] = own
     return out
@@ -379,13 +432,23 @@ def confirm_bay_limits(fm: FloorModel, project: Project, zone: LiftZone,
     ``res``: the zone's analysis rows (:func:`droprig.solver.refine.zone_points`),
     ``geo`` their geometry (``None``: worked out afresh)."""
     rects = {b.id: b.rect for b in bays(fm.level)}
-    trials = _trials(summaries, zone, rects)
+    trials = _trials(summaries, zone, rects, fm.level.deck)
     if not trials:
         return list(summaries)
-    # the structural response alone: a hard load's local damage has its own heights
-    loads = tuple(replace(ld, hard=False) for ld in zone.loads)
-    pending = trials
+    # the structural response alone: a hard load's local damage has its own heights;
+    # a mass trial runs the load at its trial mass, as hard as it is (the allowable
+    # mass keeps the bay elastic: no perforation either)
+    base = tuple(replace(ld, hard=False) for ld in zone.loads)
+    pending = [t for t in trials if not t.failed]
     for _ in range(CONFIRM_ROUNDS):
+        if not pending:
+            break
+        extra: list[LiftLoad] = []
+        for t in pending:
+            if t.kind == "mass":
+                t.eval_load = len(base) + len(extra)
+                extra.append(_with_mass(zone.loads[t.load], t.value))
+        loads = base + tuple(extra)
         _run(fm, project, zone, loads, pending, res, geo)
         pending = [t for t in pending if not t.ok and not t.failed]
         if not pending:
@@ -418,12 +481,20 @@ def _rewrite(s: BaySummary, trials: list[_Trial]) -> BaySummary:
         t = by["mat"]
         k_mat = t.value / LIMIT_MARGIN  # bay_advice offers LIMIT_MARGIN × k_mat
         travel = t.peak / t.value
+    m_al, m_x, m_y = s.allowable_mass, s.allowable_mass_x, s.allowable_mass_y
+    if "mass" in by:
+        t = by["mass"]
+        if t.failed:
+            m_al = m_x = m_y = None
+        else:
+            m_al = t.value
     wst = RESPONSES.index(s.response)
     h_local = min((v for v in (s.scabbing_height, s.perforation_height) if v is not None),
                   default=None)
     adv = bay_advice(wst, 0, hp if wst == EXCEEDS else he, k_mat, travel, he, h_local)
     limit = adv.height_limit is not None
     return replace(s, allowable_drop_height=he, allowable_drop_height_plastic=hp,
+                   allowable_mass=m_al, allowable_mass_x=m_x, allowable_mass_y=m_y,
                    advice_kind=adv.kind, height_limit=adv.height_limit,
                    height_limit_yields=adv.height_limit_yields,
                    mat_stiffness_max=adv.mat_stiffness_max, mat_travel=adv.mat_travel,

@@ -94,6 +94,7 @@ __all__ = [
     "ndrc_penetration",
     "ndrc_perforation_velocity",
     "ndrc_scabbing_velocity",
+    "perforation_mass",
     "plate_deck_damage",
     "plate_dent_depth",
     "plate_dent_height",
@@ -550,6 +551,42 @@ def _start_speeds(M: np.ndarray, d: np.ndarray, p: np.ndarray, t: np.ndarray,
     v_perf_all = family_ballistic_limits(M, d, p, t, fc, rho, r, N)
     v_bl = np.min(v_perf_all, axis=0)
     return np.minimum(v_scab, v_bl), v_bl, np.argmin(v_perf_all, axis=0)  # perforated ⇒ scabbed
+
+
+def perforation_mass(load: LiftLoad, deck: Deck, v: float, m_max: float) -> float:
+    """The largest mass (kg, at most ``m_max``) of ``load``'s shape that does not
+    perforate the concrete ``deck`` when it strikes at ``v`` (m/s) in any of its
+    strike orientations: the ballistic limit of every family
+    (:func:`family_ballistic_limits`, the least governs) falls as the mass grows, so
+    the mass where the least of them equals ``v`` is found by bisection on log M
+    (60 halvings: a relative width below 1e-9 of the bracket). ``m_max`` where even
+    that mass stays below its ballistic limit (and for a steel deck: its plate
+    formula is checked by the forward run); 0 where every mass perforates."""
+    if deck.is_steel or not (m_max > 0.0) or not (v > 0.0):
+        return m_max
+    geo = [strike_geometry(o, load.footprint_length, load.footprint_width, load.edge_width)
+           for o in load.strike_orientations]
+
+    def v_bl(m: float) -> float:
+        least = math.inf
+        for d, p, n in geo:
+            args = _arr(m, d, p, deck.thickness, deck.concrete.fc, deck.concrete.density,
+                        slab_reinforcement_percent(deck), n)
+            least = min(least, float(_start_speeds(*args)[1]))
+        return least
+
+    if v_bl(m_max) > v:
+        return m_max
+    lo, hi = math.log(m_max) - 40.0, math.log(m_max)
+    if v_bl(math.exp(lo)) <= v:
+        return 0.0
+    for _ in range(60):
+        mid = 0.5 * (lo + hi)
+        if v_bl(math.exp(mid)) > v:
+            lo = mid
+        else:
+            hi = mid
+    return math.exp(lo)
 
 
 PERFORATION_FAMILIES: tuple[str, ...] = ("modified NDRC + Kennedy", "Degen",
