@@ -155,3 +155,29 @@ def test_member_options_or_file_required(capsys: pytest.CaptureFixture[str]) -> 
     assert rc == 2 and "--section" in err
     rc, _, err = _run(["verify", "--bay", "1-2/A-B"], capsys)
     assert rc == 2 and "--bay" in err
+
+
+@pytest.mark.parametrize("amplified", [False, True])
+def test_project_table_says_what_the_verdict_used(amplified: bool, tmp_path: Path,
+                                                  capsys: pytest.CaptureFixture[str]) -> None:
+    # the note under the table follows the project's setting (it said "on unless the
+    # project turns it off" while the default was off): one truth across surfaces,
+    # as the annex's appendix B2 and the verify dialog (droprig's own contract)
+    import dataclasses
+
+    from droprig.io.project_file import load_project, save_project
+
+    p = load_project(DEMO)
+    p = dataclasses.replace(p, settings=dataclasses.replace(
+        p.settings, dynamic_amplification=amplified))
+    f = tmp_path / "p.droprig"
+    save_project(p, f)
+    rc, out, err = _run(["verify", str(f), "--bay", "3-4/B-C"], capsys)
+    assert rc == 0, err
+    flat = " ".join(out.split())
+    if amplified:
+        assert "The verdict uses the amplified demands" in flat
+        assert "amplification is off" not in flat
+    else:
+        assert "Dynamic amplification is off in this project" in flat
+        assert "uses the amplified demands" not in flat
