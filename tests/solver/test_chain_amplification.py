@@ -18,7 +18,7 @@ import pytest
 
 from droprig.commands.demo import demo_dir
 from droprig.io.project_file import dumps_project, load_project, loads_project
-from droprig.solver import amplification, analysis
+from droprig.solver import amplification, analysis, pointhistory
 from droprig.solver.chain import (
     Compliance,
     Demands,
@@ -72,10 +72,22 @@ def test_on_checks_use_the_amplified_force() -> None:
         # the factors are amplification.amplified_forces' for this path (r, κ as the
         # step defines them: the elastic contact through a crushable layer is the
         # load's underside alone) over the energy method's force
+        # keyed on the struck member's condition and position band where its own
+        # bending is at least half the members' (pointhistory.struck_member picks
+        # the same member), the envelope of every condition and band elsewhere
         m_path = np.where(np.isfinite(c1.drop.geo.path.m_e), c1.drop.geo.path.m_e, 0.0)
         f_b = np.where(inp.crushable, comp.f_struct, comp.f)
+        path = c1.drop.geo.path
+        s = pointhistory.struck_member(c1, np.arange(c1.drop.n))
+        k = np.where(path.share[:, 0] >= path.share[:, 1], 0, 1)
+        rows = np.arange(c1.drop.n)
+        own = path.share[rows, k] * path.g_own[rows, k] / path.f
+        key = own * (comp.f_s - comp.f_col) >= 0.5 * comp.f_s
+        cond = np.where(key, [amplification.CONDITIONS.index(x) for x in s["cond"]], -1)
         ref = amplification.amplification(inp.M, m_path, f_b - comp.f_s, comp.f_s,
-                                          struck_mass=sm.m_e > 0.0)
+                                          struck_mass=sm.m_e > 0.0, cond=cond,
+                                          xi=path.a[rows, k] / s["L"])
+        assert key.any() and not key.all()  # both kinds of point are exercised
         from droprig.solver import impact as impact_mod
         _, F_ref, _ = impact_mod.impact_elastic(inp.W, inp.h, f_b, sm.eta)
         F_cap = np.where(inp.crushable, inp.F_c, imp.F_crush)
