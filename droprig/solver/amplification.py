@@ -30,11 +30,14 @@ Euler–Bernoulli modes, Blevins 1979 Table 8-1, each phase in closed form, Chop
 4th ed. §10–12; its Newmark reference :mod:`droprig.solver.timehistory`, Chopra
 §5.4).
 
-Keying the table on the struck position is what keeps a point over a girder or near
-a column from reading the factors of a light load at mid-span (the table without it
-read the spreader beams of the demos at U 57–307 where the point's own time history
-gave at most ~25): near a support the member hardly moves (κ large, mₑ small) and
-the factors tend to 1 on the energy method with the member's own mass share.
+Keying the table on the struck position tightens it where the struck member's own
+bending is most of the framing's compliance: without it every point had to take the
+factors of the worst position in its cell. Over a girder line or a column the member
+whose modes the table describes is not the one that moves, and the chain takes the
+envelope over every condition and band there (``droprig.solver.chain.
+struck_member_table``). On the demos' light hard items the governing points are such
+points, and the bounds stay far above the point's own time history (README, "Dynamic
+amplification").
 
 A contact stiffer than the table's least κ (0.001; a rigid load on a bare member,
 κ = 0) takes the first column: an Euler–Bernoulli member hit rigidly has no
