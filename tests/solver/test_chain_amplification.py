@@ -154,3 +154,32 @@ def test_on_beyond_yield_takes_the_amplified_energy() -> None:
         h0, h1 = c0[InverseAnswers].h_pl, c1[InverseAnswers].h_pl
         both = np.isfinite(h0) & np.isfinite(h1)
         assert np.all(h1[both] <= h0[both] * (1 + REL))
+
+
+@pytest.mark.parametrize("two_forces", [False, True])
+def test_each_family_amplifies_the_force_it_reads(monkeypatch, two_forces: bool) -> None:
+    # chain.TWO_FORCES on: the framing families read the framing force F, the deck's
+    # checks the deck's force F_deck (the contact force under a soft load); each
+    # family's amplified force is the larger of its own force and the bounds
+    # (amplification.amplified_forces), so amplification never lowers a family below
+    # what it reads with amplification off, and the deck never above the larger of
+    # F_deck and the contact-force bound
+    from droprig.solver import chain as chain_mod
+    monkeypatch.setattr(chain_mod, "TWO_FORCES", two_forces)
+    off, on = _chains(False), _chains(True)
+    saw_two = False
+    for c0, c1 in zip(off, on, strict=True):
+        imp, amp = c1[Impact], c1[DynamicAmplification]
+        ok = np.isfinite(imp.F) & (imp.F > 0.0)
+        saw_two |= imp.F_deck is not None and bool(np.any(imp.deck_ratio[ok] != 1.0))
+        for name, chk in c1[Demands].checks.items():
+            assert np.all(chk.U[ok] >= c0[Demands].checks[name].U[ok] * (1 - REL)), name
+        F_deck = imp.F * imp.deck_ratio
+        A_deck = amp.factor["deck_punching"]
+        bound = np.maximum(F_deck, np.minimum(amp.F_bound, amp.A_force * imp.F))
+        assert np.all((A_deck * F_deck)[ok] <= np.maximum(bound, F_deck)[ok] * (1 + REL))
+        assert np.all(A_deck >= 1.0)
+        for name in ("deck_flexure", "deck_punching"):
+            U_ref = c0[Demands].checks[name].U_at(A_deck * imp.F)
+            np.testing.assert_allclose(c1[Demands].checks[name].U[ok], U_ref[ok], rtol=REL)
+    assert saw_two == two_forces
