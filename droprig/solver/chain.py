@@ -1060,8 +1060,10 @@ def dynamic_amplification(c: Chain) -> DynamicAmplification:
     """The factor each family of checks takes, from
     :func:`droprig.solver.amplification.amplified_forces`: the larger of the energy
     method's force and the least of the time history's upper bounds — the tables
-    (calibrated on :mod:`droprig.solver.timehistory`: Euler–Bernoulli modes, Blevins
-    1979 Table 8-1; Newmark average acceleration, Chopra §5.4) on the energy method's
+    (calibrated on :mod:`droprig.solver.exacthistory`: Euler–Bernoulli modes, Blevins
+    1979 Table 8-1, each phase in closed form, Chopra 4th ed. §10–12; keyed on the
+    struck member's end condition and position band where its own bending is most of
+    the framing's compliance, :func:`struck_member_table`) on the energy method's
     elastic force as calibrated (with the struck-mass share where η < 1, η = 1 under
     mats and crushable layers); the load on its contact springs against an immovable
     point (Gere 7th ed. §9.10, η = 1, +5 %); the crushing force — of the deck
@@ -1154,17 +1156,27 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
                                                           "deflection"),
                                                          np.zeros(d.n, int)))
     h = energy_fall(c, h)
-    m_path = d.geo.path.m_e
-    m_path = np.where(np.isfinite(m_path) & (m_path > 0.0), m_path, 0.0)
     crushable = inp.crushable
     # the elastic contact: through a crushable layer (rigid until it crushes) the
     # load's underside alone, else the deck, mats and the load's underside
     f_beyond = np.where(crushable, comp.f_struct, comp.f)
+    # the table keyed on the struck path as one member (as calibrated on one
+    # member): r = M/mₑ with the path's Rayleigh mass at the struck point, κ = the
+    # contact ÷ the framing's compliance; and the struck member's end condition and
+    # position band where its own bending is most of the framing's compliance (the
+    # envelope over every condition and band elsewhere: over a girder or a column
+    # the member struck is not the one that moves)
+    m_path = d.geo.path.m_e
+    m_path = np.where(np.isfinite(m_path) & (m_path > 0.0), m_path, 0.0)
     f_contact = f_beyond - comp.f_s
+    key = struck_member_table(c)
+    own = key["own"] * (comp.f_s - comp.f_col) >= 0.5 * comp.f_s  # members' bending
+    cond = np.where(own, key["cond"], -1)
     a = amp_mod.amplification(inp.M, m_path, f_contact, comp.f_s,
-                              struck_mass=sm.m_e > 0.0)
+                              struck_mass=sm.m_e > 0.0, cond=cond, xi=key["xi"])
     rigid = amp_mod.contact_force_bound(inp.W, h, f_contact)
     # the tables multiply the energy method's elastic (uncapped) force, as calibrated
+    # (the chain's struck-mass share)
     _, F_ref, _ = impact_mod.impact_elastic(inp.W, h, f_beyond, sm.eta)
     # the crushing cap — the layer's, or the deck concrete's — and its stroke
     F_cap = np.where(crushable, inp.F_c, imp.F_crush)
@@ -1179,8 +1191,16 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
             return np.where(np.isfinite(r_), np.maximum(r_, 1.0), 1.0)
     local, A_M, A_V, A_D = (ratio(forces.local), ratio(forces.moment),
                             ratio(forces.shear), ratio(forces.deflection))
+    # the deck's checks read the deck's force F_deck (F where one force): the larger
+    # of it and the bound on the contact force
+    F_deck = F * imp.deck_ratio
+    lb = forces.local_bound if forces.local_bound is not None else forces.local
+    with np.errstate(divide="ignore", invalid="ignore"):
+        A_deck = np.where(F_deck > 0.0, np.maximum(F_deck, lb) / np.where(F_deck > 0.0,
+                                                                           F_deck, 1.0), 1.0)
+    A_deck = np.where(np.isfinite(A_deck), np.maximum(A_deck, 1.0), 1.0)
     factor = {"flexure": A_M, "shear": A_V, "web_yielding": local,
-              "web_crippling": local, "deck_flexure": local, "deck_punching": local,
+              "web_crippling": local, "deck_flexure": A_deck, "deck_punching": A_deck,
               "deflection": A_D}
     th, hist = _point_histories(c, h, F, factor, th_points)
     set_by = dict(forces.set_by)
@@ -1205,6 +1225,37 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
                                 F_bound=np.minimum(rigid, np.where(holds, F_cap, np.inf)),
                                 factor=factor, set_by=set_by, th=th, history=hist,
                                 A_deflection_bound=A_D_bound)
+
+
+def struck_member_table(c: Chain) -> dict[str, np.ndarray]:
+    """Per point, the deck member of the load path with the larger lever-rule share
+    (the struck member of :func:`droprig.solver.pointhistory.struck_member`) as the
+    amplification table reads it: end condition index ``cond``
+    (:data:`droprig.solver.loadpath.COND_NAMES`), position ``xi`` = a/L, and ``own``
+    the share of the members' bending compliance that is that member's own bending
+    under its share (w_k·g_own,k over the path's bending, dimensionless, 0–1; 0 where
+    no path). Load-independent, kept with the points' geometry."""
+    geo = c.drop.geo
+    got = geo.cache.get("struck_member_table")
+    if got is not None and got["xi"].shape == geo.x.shape:
+        return got
+    fr, path = c.drop.fm.frame, geo.path
+    n = geo.x.shape[0]
+    share = path.share
+    k = np.where(share[:, 0] >= share[:, 1], 0, 1)
+    rows = np.arange(n)
+    m = path.members[rows, k].astype(int)
+    valid = (m >= 0) & (path.pair >= 0)
+    m = np.where(valid, m, 0)
+    L = fr.L[m]
+    xi = np.clip(path.a[rows, k] / L, 0.0, 1.0)
+    ci = np.where(valid, np.asarray(fr.cond, int)[m], 0)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        own = share[rows, k] * path.g_own[rows, k] / path.f
+    own = np.where(valid & np.isfinite(own), np.clip(own, 0.0, 1.0), 0.0)
+    got = {"cond": ci, "xi": np.where(valid, xi, 0.5), "own": own}
+    geo.cache["struck_member_table"] = got
+    return got
 
 
 def _point_histories(c: Chain, h: np.ndarray, F: np.ndarray, factor: dict[str, np.ndarray],

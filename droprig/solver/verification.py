@@ -138,7 +138,7 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
                                         F_yield=cap, stroke=stroke,
                                         **pointhistory.TH_OPTIONS)
     amp = amplification.amplification(M, float(e.effective_mass), f_c, f_s,
-                                      struck_mass=struck_mass)
+                                      struck_mass=struck_mass, cond=cond, xi=a / L)
     F_el = float(e.force)
     F = F_el
     bottomed = False

@@ -41,9 +41,11 @@ def _cases(seed: int, n: int) -> dict[str, np.ndarray]:
     m_e = np.array([float(beam.rayleigh_mass_factor(c, l, x))
                     for c, l, x in zip(cond, L, a, strict=True)]) * mu * L
     M, f_c = r * m_e, kappa * f_s
-    struck = rng.uniform(size=n) < 0.6  # η = M/(M + mₑ); else η = 1 (under mats)
+    # η = M/(M + mₑ·(f_s/(f_s + f_c))²), the chain's struck-mass rule; else η = 1
+    # (under mats)
+    struck = rng.uniform(size=n) < 0.6
     W = M * impact.G
-    eta = np.where(struck, impact.mass_efficiency(M, m_e), 1.0)
+    eta = np.where(struck, impact.mass_efficiency(M, m_e * (f_s / (f_s + f_c)) ** 2), 1.0)
     _, F_el, _ = impact.impact_elastic(W, h, f_s + f_c, eta)
     capped = rng.uniform(size=n) < 0.75
     F_y = np.where(capped, np.maximum(3.0 * W, F_el * np.exp(rng.uniform(
@@ -65,7 +67,8 @@ def _verdict_forces(c: dict[str, np.ndarray]) -> amplification.AmplifiedForces:
     F[cap], _, bottomed[cap] = crushing.crushing_limited_impact(
         W[cap], h[cap], f[cap], c["eta"][cap], c["F_y"][cap], c["s_y"][cap])
     amp = amplification.amplification(c["M"], c["m_e"], c["f_c"], c["f_s"],
-                                      struck_mass=c["struck"])
+                                      struck_mass=c["struck"], cond=c["cond"],
+                                      xi=c["a"] / c["L"])
     rigid = amplification.contact_force_bound(W, h, c["f_c"])
     holds = amplification.crush_depth_bound(W, h, f, c["F_y"]) <= c["s_y"]
     return amplification.amplified_forces(amp, F, c["F_el"], rigid, c["F_y"], holds,

@@ -18,7 +18,7 @@ import pytest
 
 from droprig.commands.demo import demo_dir
 from droprig.io.project_file import dumps_project, load_project, loads_project
-from droprig.solver import amplification, analysis
+from droprig.solver import amplification, analysis, pointhistory
 from droprig.solver.chain import (
     Compliance,
     Demands,
@@ -72,10 +72,22 @@ def test_on_checks_use_the_amplified_force() -> None:
         # the factors are amplification.amplified_forces' for this path (r, κ as the
         # step defines them: the elastic contact through a crushable layer is the
         # load's underside alone) over the energy method's force
+        # keyed on the struck member's condition and position band where its own
+        # bending is at least half the members' (pointhistory.struck_member picks
+        # the same member), the envelope of every condition and band elsewhere
         m_path = np.where(np.isfinite(c1.drop.geo.path.m_e), c1.drop.geo.path.m_e, 0.0)
         f_b = np.where(inp.crushable, comp.f_struct, comp.f)
+        path = c1.drop.geo.path
+        s = pointhistory.struck_member(c1, np.arange(c1.drop.n))
+        k = np.where(path.share[:, 0] >= path.share[:, 1], 0, 1)
+        rows = np.arange(c1.drop.n)
+        own = path.share[rows, k] * path.g_own[rows, k] / path.f
+        key = own * (comp.f_s - comp.f_col) >= 0.5 * comp.f_s
+        cond = np.where(key, [amplification.CONDITIONS.index(x) for x in s["cond"]], -1)
         ref = amplification.amplification(inp.M, m_path, f_b - comp.f_s, comp.f_s,
-                                          struck_mass=sm.m_e > 0.0)
+                                          struck_mass=sm.m_e > 0.0, cond=cond,
+                                          xi=path.a[rows, k] / s["L"])
+        assert key.any() and not key.all()  # both kinds of point are exercised
         from droprig.solver import impact as impact_mod
         _, F_ref, _ = impact_mod.impact_elastic(inp.W, inp.h, f_b, sm.eta)
         F_cap = np.where(inp.crushable, inp.F_c, imp.F_crush)
@@ -142,3 +154,32 @@ def test_on_beyond_yield_takes_the_amplified_energy() -> None:
         h0, h1 = c0[InverseAnswers].h_pl, c1[InverseAnswers].h_pl
         both = np.isfinite(h0) & np.isfinite(h1)
         assert np.all(h1[both] <= h0[both] * (1 + REL))
+
+
+@pytest.mark.parametrize("two_forces", [False, True])
+def test_each_family_amplifies_the_force_it_reads(monkeypatch, two_forces: bool) -> None:
+    # chain.TWO_FORCES on: the framing families read the framing force F, the deck's
+    # checks the deck's force F_deck (the contact force under a soft load); each
+    # family's amplified force is the larger of its own force and the bounds
+    # (amplification.amplified_forces), so amplification never lowers a family below
+    # what it reads with amplification off, and the deck never above the larger of
+    # F_deck and the contact-force bound
+    from droprig.solver import chain as chain_mod
+    monkeypatch.setattr(chain_mod, "TWO_FORCES", two_forces)
+    off, on = _chains(False), _chains(True)
+    saw_two = False
+    for c0, c1 in zip(off, on, strict=True):
+        imp, amp = c1[Impact], c1[DynamicAmplification]
+        ok = np.isfinite(imp.F) & (imp.F > 0.0)
+        saw_two |= imp.F_deck is not None and bool(np.any(imp.deck_ratio[ok] != 1.0))
+        for name, chk in c1[Demands].checks.items():
+            assert np.all(chk.U[ok] >= c0[Demands].checks[name].U[ok] * (1 - REL)), name
+        F_deck = imp.F * imp.deck_ratio
+        A_deck = amp.factor["deck_punching"]
+        bound = np.maximum(F_deck, np.minimum(amp.F_bound, amp.A_force * imp.F))
+        assert np.all((A_deck * F_deck)[ok] <= np.maximum(bound, F_deck)[ok] * (1 + REL))
+        assert np.all(A_deck >= 1.0)
+        for name in ("deck_flexure", "deck_punching"):
+            U_ref = c0[Demands].checks[name].U_at(A_deck * imp.F)
+            np.testing.assert_allclose(c1[Demands].checks[name].U[ok], U_ref[ok], rtol=REL)
+    assert saw_two == two_forces

@@ -1,0 +1,94 @@
+"""Dynamic amplification at a governing point of each demo, worked by hand.
+
+Sources: Gere, *Mechanics of Materials* 7th ed. §9.10 Eq. 9-94 (K = 1 + √(1 + 2ηh/δst),
+δst = W·f) with Timoshenko's struck-mass share η (*Strength of Materials* Part I, from
+memory); the amplification table's cells and values as published in
+droprig/solver/amplification_table.py (calibrated on the time history and re-checked
+on 200 random members in test_amplification.py / test_amplification_eta_one.py);
+each check is linear in the force, U = |F·u + E|/R (droprig.solver.linear_checks).
+The path's compliance f, f_s and Rayleigh mass at these points are the chain's (worked
+by hand for the governing bays in test_governing_bays.py). The demo projects are
+invented scenarios: they give the inputs, never an expected value.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import replace
+
+import numpy as np
+import pytest
+
+from droprig.commands.demo import demo_dir
+from droprig.io.project_file import load_project
+from droprig.solver import analysis
+from droprig.solver.amplification_table import TABLE
+from droprig.solver.chain import (
+    Compliance,
+    Demands,
+    DynamicAmplification,
+    Impact,
+    LoadInputs,
+    StruckMass,
+    energy_fall,
+)
+from droprig.solver.evaluate import evaluate_chain
+
+G = 9.80665
+R_EDGES = (0.03, 0.1, 0.3, 1.0, 3.0, 10.0, 30.0, 100.0)  # as printed in the table's module
+K_EDGES = (0.003, 0.01, 0.03, 0.1, 0.3, 1.0, 3.0)
+B_SHEAR = 6.1  # amplification.B_SHEAR
+
+
+@pytest.mark.parametrize(("demo", "load", "bay"), [
+    ("rooftop_plant_swap", "AHU-3 (new)", "3-4/B-C"),
+    ("steel_erection_floor", "Engine-driven welder", "1-2/B-C"),
+])
+def test_governing_point_amplified_by_hand(demo: str, load: str, bay: str) -> None:
+    p = load_project(demo_dir() / f"{demo}.droprig")
+    p = replace(p, settings=replace(p.settings, dynamic_amplification=True,
+                                    tilted_landing=False))
+    res = analysis.analyse(p)
+    b = next(x for x in res.bays if x.bay_id == bay and x.load_name == load)
+    assert b.utilisation_check == "shear"
+    zone = next(z for z in p.lift_zones if z.id == b.zone_id)
+    ld = next(x for x in zone.loads if x.name == load)
+    fm = analysis.build_floor(p.level(b.level_id), p.settings)
+    geo = analysis.point_geometry(fm, p, np.array([b.utilisation_x]),
+                                  np.array([b.utilisation_y]))
+    c = evaluate_chain(fm, p, ld, geo, detail=True)
+    inp, comp, sm, imp = c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+    M, W = float(inp.M[0]), float(inp.W[0])
+    h = float(energy_fall(c, inp.h)[0])
+    f, f_s, eta = float(comp.f[0]), float(comp.f_s[0]), float(sm.eta[0])
+    assert not bool(inp.crushable[0]) and not bool(inp.protected[0])
+    # the point lies over a supporting line (the deck member's end): the table's
+    # envelope over every end condition and position band
+    m_path = float(geo.path.m_e[0])
+    r, kappa = M / m_path, (f - f_s) / f_s
+    row = sum(r >= e for e in R_EDGES)
+    col = sum(kappa >= e for e in K_EDGES)
+    A_V = max(TABLE[0][2][ci][band][row][col] for ci in range(4) for band in range(3))
+    A_F = max(TABLE[0][0][ci][band][row][col] for ci in range(4) for band in range(3))
+    # Gere Eq. 9-94: the energy method's elastic force with the struck-mass share
+    F_ref = W * (1.0 + math.sqrt(1.0 + 2.0 * eta * h / (W * f)))
+    # rigid-base bound on the contact force: η = 1 on the contact spring alone, + 5 %
+    F_rigid = 1.05 * W * (1.0 + math.sqrt(1.0 + 2.0 * h / (W * (f - f_s))))
+    F = float(imp.F[0])
+    assert F == pytest.approx(F_ref, rel=1e-9)  # elastic: the deck does not crush here
+    F_local = max(F, min(A_F * F_ref, F_rigid, float(imp.F_crush[0])))
+    V_force = max(F, min(A_V * F_ref, B_SHEAR * F_local))
+    amp = c[DynamicAmplification]
+    assert float(amp.A_shear[0]) * F == pytest.approx(V_force, rel=1e-9)
+    assert float(amp.A_force[0]) * F == pytest.approx(F_local, rel=1e-9)
+    assert V_force == pytest.approx(A_V * F_ref, rel=1e-9)  # the table sets it
+    # the shear check at the amplified force: U = |A·F·u + E|/R of the energy method's
+    # check (its demand per N u, existing demand E and resistance R)
+    shear = c[Demands].checks["shear"]
+    unit, exist, resist = (float(np.ravel(v)[0]) for v in (shear.unit, shear.exist,
+                                                           shear.resist))
+    U_hand = abs(V_force * unit + exist) / resist
+    assert float(shear.U[0]) == pytest.approx(U_hand, rel=1e-9)
+    # the bay reads at least this (its largest U may be a ductile family's, its
+    # verdict the brittle shear's)
+    assert b.max_utilisation >= U_hand * (1.0 - 1e-9)
