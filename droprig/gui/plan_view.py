@@ -273,6 +273,7 @@ class PlanView(QGraphicsView):
         self._project: Project | None = None
         self._level: Level | None = None
         self._results: Results | None = None
+        self._confirmed = True
         self._overlay = "outcome"
         self._mode = "select"
         self._case: tuple[str, str] | None = None
@@ -520,10 +521,16 @@ class PlanView(QGraphicsView):
             self.fit()
         self.viewport().update()
 
-    def set_results(self, results: Results | None) -> None:
+    def set_results(self, results: Results | None, confirmed: bool | None = None) -> None:
         """Colour the plan by ``results`` (None while analysing: "not assessed").
+        ``confirmed=False``: outcomes whose limits are still being confirmed — the
+        bays' colours, tags and U are shown, allowable drop heights read
+        "confirming…" (default: as the document says, else confirmed).
         The caution strip comes and goes with the results: a fitted view is
         fitted again so the grid keeps clear of it and of the scale bar."""
+        if confirmed is None:
+            confirmed = self._doc is None or not self._doc.limits_pending
+        self._confirmed = confirmed
         self._results = results
         self._refresh_results()
         if not self._user_view:
@@ -835,6 +842,8 @@ class PlanView(QGraphicsView):
             sysm = self.unit_system
 
             def drop_line(s: BayState) -> tuple[str, str]:
+                if not self._confirmed and s.key != style.OUTCOME_NONE:
+                    return f"drop {style.CONFIRMING}", "…"
                 if s.allowable_drop_height is None:
                     return "no safe drop", "none"
                 h = style.fmt_drop(s.allowable_drop_height, sysm)
@@ -848,6 +857,8 @@ class PlanView(QGraphicsView):
         self._overlay_item.setVisible(False)
         if mode == "outcome" or not self._cases or self._project is None:
             return
+        if mode == "drop_height" and not self._confirmed:
+            return  # no map of allowable heights until they are confirmed
         field = "utilisation" if mode == "utilisation" else "allowable_drop_height"
         values = np.concatenate([np.asarray(getattr(c, field), dtype=float)
                                  for c in self._cases])
@@ -1400,6 +1411,10 @@ class PlanView(QGraphicsView):
             st = style.outcome(s.key)
             if s.key == style.OUTCOME_NONE:
                 parts.append(f"Bay {s.bay.id}: {st.label.lower()}")
+            elif not self._confirmed:
+                parts.append(
+                    f"Bay {s.bay.id}: {st.label.lower()}, max U {fmt_ratio(s.max_utilisation)}, "
+                    f"allowable drop {style.CONFIRMING}")
             else:
                 h_el = style.fmt_drop(s.allowable_drop_height, sysm)
                 h_pl = style.fmt_drop(s.allowable_drop_height_plastic, sysm)
@@ -1417,7 +1432,8 @@ class PlanView(QGraphicsView):
                 f"{c.load_name} in {c.zone_id}: {resp.lower()}, "
                 f"U {fmt_ratio(float(c.utilisation[i]))}, "
                 f"allowable drop "
-                f"{style.fmt_drop(float(c.allowable_drop_height[i]), sysm)}")
+                + (style.CONFIRMING if not self._confirmed else
+                   style.fmt_drop(float(c.allowable_drop_height[i]), sysm)))
         else:
             parts.append(f"x {units.fmt(x, 'length', sysm, decimals=2)}, "
                          f"y {units.fmt(y, 'length', sysm, decimals=2)}")

@@ -37,7 +37,8 @@ from droprig import units
 from droprig.gui import style
 from droprig.gui.document import Document, Selection
 from droprig.model import Project
-from droprig.permit import BayVerdict, PermitConditions, derive_conditions
+from droprig.outcomes import fmt_utilisation
+from droprig.permit import BayVerdict, PermitConditions, derive_conditions, fmt_height
 from droprig.solver import BaySummary, Results
 from droprig.texts import CAUTION
 
@@ -62,6 +63,10 @@ COLUMNS: tuple[tuple[str, str], ...] = (
 CELL_OF = {"verdict": "verdict", "util": "utilisation", "allow": "allowable", "hook": "hook",
            "planned": "planned", "advice": "conditions"}
 COL = {key: i for i, (key, _) in enumerate(COLUMNS)}
+CONFIRMING = style.CONFIRMING
+UNCONFIRMED = frozenset({"verdict", "allow", "hook", "advice"})
+"""The cells the confirmation may change; the utilisation and the planned height
+come from the outcomes themselves."""
 
 _TIPS = {
     "outcome": "Worst response of any drop point in the bay. E: stays elastic, "
@@ -138,6 +143,7 @@ class BayResultsModel(QAbstractTableModel):
         self._rows: tuple[BaySummary, ...] = ()
         self._verdicts: dict[tuple[str, str, str], BayVerdict] = {}
         self.permit: PermitConditions | None = None
+        self.confirmed = True
         self._system: units.UnitSystem = "SI"
         self._level_names: dict[str, str] = {}
         self._stale = False
@@ -146,10 +152,17 @@ class BayResultsModel(QAbstractTableModel):
         """Each row's permit cells, worked once per results (the view asks for every
         cell on every repaint)."""
 
-    def set_data(self, results: Results | None, project: Project, stale: bool = False) -> None:
+    def set_data(self, results: Results | None, project: Project, stale: bool = False,
+                 confirmed: bool = True) -> None:
+        """Rows of ``results``. ``confirmed=False``: the outcomes of an edit whose
+        limits are still being confirmed — the verdict, limit and condition cells read
+        :data:`CONFIRMING` and :attr:`permit` is ``None`` (the permit's words for the
+        untried limits are never shown)."""
         self.beginResetModel()
         self._rows = results.bays if results is not None else ()
-        self.permit = derive_conditions(project, results) if results is not None else None
+        self.confirmed = confirmed
+        self.permit = derive_conditions(project, results) \
+            if results is not None and confirmed else None
         self._verdicts = {(v.zone_id, v.load_name, v.bay_id): v
                           for v in (self.permit.bays if self.permit is not None else ())}
         self._system = project.settings.unit_system
@@ -172,11 +185,17 @@ class BayResultsModel(QAbstractTableModel):
         return self._rows[i]
 
     def verdict(self, b: BaySummary) -> BayVerdict | None:
-        """The permit verdict of a row (None if the results no longer hold it)."""
+        """The permit verdict of a row (None if the results no longer hold it, or
+        while its limits are being confirmed)."""
+        if not self.confirmed:
+            return None
         return self._verdicts.get((b.zone_id, b.load_name, b.bay_id))
 
     def cell(self, b: BaySummary, key: str) -> str:
-        """The permit cell ``key`` of :data:`CELL_OF` for a row."""
+        """The permit cell ``key`` of :data:`CELL_OF` for a row (:data:`CONFIRMING`
+        for the cells of :data:`UNCONFIRMED` while the limits are being confirmed)."""
+        if not self.confirmed:
+            return self._outcome_cell(b, key)
         k = (b.zone_id, b.load_name, b.bay_id)
         cells = self._cells.get(k)
         if cells is None:
@@ -185,6 +204,20 @@ class BayResultsModel(QAbstractTableModel):
                 return "none"
             cells = self._cells[k] = v.cells(self._system)
         return cells[CELL_OF[key]]
+
+    def _outcome_cell(self, b: BaySummary, key: str) -> str:
+        """A cell while the limits are being confirmed: the utilisation and the planned
+        height as :meth:`droprig.permit.BayVerdict.cells` writes them (the permit is
+        not derived from untried limits; ``tests/gui/test_confirming.py`` checks the
+        two agree), :data:`CONFIRMING` for the rest."""
+        if key == "util":
+            util = fmt_utilisation(b.max_utilisation)
+            if b.utilisation_check:
+                util += f" ({b.utilisation_check.replace('_', ' ')})"
+            return util
+        if key == "planned":
+            return fmt_height(b.planned_drop_height, self._system, rounding="nearest")
+        return CONFIRMING
 
     def rowCount(self, parent: QModelIndex | QPersistentModelIndex = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(self._rows)
@@ -241,7 +274,8 @@ class BayResultsModel(QAbstractTableModel):
             f = QFont()
             f.setBold(True)
             return f
-        if role == Qt.ItemDataRole.ForegroundRole and self._stale:
+        if role == Qt.ItemDataRole.ForegroundRole and (
+                self._stale or (not self.confirmed and key in UNCONFIRMED)):
             return QColor("#9A9A9A")
         if role == Qt.ItemDataRole.TextAlignmentRole and key in ("util", "allow", "planned",
                                                                   "hook"):
@@ -475,7 +509,8 @@ class ResultsTable(QWidget):
 
     def _on_results_changed(self, results: Results | None) -> None:
         self._syncing = True
-        self.model.set_data(results, self._doc.project)
+        self.model.set_data(results, self._doc.project,
+                            confirmed=results is None or self._doc.results_confirmed)
         self._fit_bay_column()
         self._fill_filter(results)
         self._update_summary()
@@ -536,6 +571,9 @@ class ResultsTable(QWidget):
         stale = "  (updating…)" if not self._doc.results_current else ""
         permit = self.model.permit
         verdict = f"<b>{permit.verdict_words}</b> — " if permit is not None else ""
+        if not self.model.confirmed:
+            # the outcomes are final; the verdict waits for the confirmed limits
+            verdict = "<b>Verdict: confirming limits…</b> — "
         case = self._doc.case
         which = "all lifts" if case is None else f"lift {case[0]} · {case[1]}"
         # short enough for one line at 1280 × 720 (wrapped beyond; two lines cost
@@ -595,6 +633,8 @@ class ResultsTable(QWidget):
         said = ("" if v is None else
                 " ".join(c.sentence(system) for c in v.conditions)
                 or v.cells(system)["verdict"])
+        if not self.model.confirmed:
+            said = f"limits and conditions {CONFIRMING}"
         self.detail.setText(f"<b>{b.bay_id}</b> · {b.zone_id} · {html_escape(b.load_name)} — "
                             f"{st.label}: {html_escape(said)}")
         self._place_detail()

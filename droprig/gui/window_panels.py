@@ -674,6 +674,8 @@ class PanelsMixin(WindowParts):
             except (KeyError, StopIteration):
                 pass
         state = "" if self.doc.results_current else " Results are being updated."
+        if self.doc.results_current and not self.doc.results_confirmed:
+            state = " Limits are being confirmed."
         name = lv.name if lv.name.lower().startswith("level") else f"Level {lv.name}"
         if self.compact:  # a small window: the heading in two lines, not five
             # each tag with one or two words (the full words are in the key): the
