@@ -87,15 +87,19 @@ def bench_zone_edit() -> dict[str, float]:
         """Until a paint that started with the edit's results in has finished."""
         while PaintCounter.n_current <= after:
             app.processEvents()
+            time.sleep(0.0005)
 
     def settle() -> None:
         while win.runner.busy or not doc.results_current:
             app.processEvents()
             time.sleep(0.0005)
 
+    # the waits sleep a little between polls, as the event loop sleeps when idle: a
+    # loop that polls without sleeping holds the interpreter lock the worker needs
     def wait_paint(after: int) -> None:
         while PaintCounter.n <= after:
             app.processEvents()
+            time.sleep(0.0005)
 
     def pause(seconds: float) -> None:
         end = time.perf_counter() + seconds
