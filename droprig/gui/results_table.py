@@ -511,7 +511,7 @@ class ResultsTable(QWidget):
         self._syncing = True
         self.model.set_data(results, self._doc.project,
                             confirmed=results is None or self._doc.results_confirmed)
-        self._fit_bay_column()
+        self._fit_columns()
         self._fill_filter(results)
         self._update_summary()
         self._select_rows_for(self._doc.selection)
@@ -519,18 +519,40 @@ class ResultsTable(QWidget):
 
     BAY_COLUMN_MAX = 220
     """px: the widest the Bay column grows to show its names whole."""
+    LOAD_COLUMN_MAX = 180
+    """px: the widest the (frozen) Load column grows; the selected row's detail line
+    and the inspector give a longer name whole."""
+    UTIL_COLUMN_MAX = 240
+    """px: the widest the Max U column grows to show its check whole."""
 
-    def _fit_bay_column(self) -> None:
+    def _fit_columns(self) -> None:
         """The Bay column as wide as its longest name (up to :attr:`BAY_COLUMN_MAX`):
         with two levels a bay reads "Plant roof 1-2/A-B", and at 64 px it showed
-        "Plant r…", the bay itself cut away (seen under Xvfb at 200 %)."""
-        col = COL["bay"]
+        "Plant r…", the bay itself cut away (seen under Xvfb at 200 %). The Outcome
+        column as wide as the longest outcome words with the swatch (in bold, as an
+        exceeding row draws them), and Max U as its longest value and check (up to
+        :attr:`UTIL_COLUMN_MAX`): at 100 % they read "X Exceeds l…" and "9.75 (web
+        yieldi…" (seen under Xvfb)."""
         fm = self.view.fontMetrics()
-        texts = {str(self.model.data(self.model.index(r, col)) or "")
-                 for r in range(self.model.rowCount())}
-        need = max((fm.horizontalAdvance(t) for t in texts), default=0) + 16
-        if need > self.view.columnWidth(col):
-            self.view.setColumnWidth(col, min(need, self.BAY_COLUMN_MAX))
+        bold = QFont(self.view.font())
+        bold.setBold(True)
+        bfm = QFontMetrics(bold)
+
+        def widest(col: int, metrics: QFontMetrics) -> int:
+            texts = {str(self.model.data(self.model.index(r, col)) or "")
+                     for r in range(self.model.rowCount())}
+            return max((metrics.horizontalAdvance(t) for t in texts), default=0)
+
+        icon = self.view.iconSize().width() + 8
+        words = max(bfm.horizontalAdvance(f"{st.tag}  {st.label}")
+                    for st in (style.outcome(k) for k in style.OUTCOME_ORDER))
+        for col, need, cap in (
+                (COL["bay"], widest(COL["bay"], fm) + 16, self.BAY_COLUMN_MAX),
+                (COL["load"], widest(COL["load"], fm) + 16, self.LOAD_COLUMN_MAX),
+                (COL["outcome"], icon + words + 16, 10_000),
+                (COL["util"], widest(COL["util"], bfm) + 16, self.UTIL_COLUMN_MAX)):
+            if need > self.view.columnWidth(col):
+                self.view.setColumnWidth(col, min(need, cap))
 
     def _on_project_changed(self, project: Project) -> None:
         self.model.set_stale(not self._doc.results_current)
