@@ -590,10 +590,14 @@ class ResultsTable(QWidget):
             return
         parts = [f"{style.outcome(k).label} {counts[k]}"
                  for k in reversed(style.OUTCOME_ORDER) if counts.get(k)]
-        stale = "  (updating…)" if not self._doc.results_current else ""
         permit = self.model.permit
         verdict = f"<b>{permit.verdict_words}</b> — " if permit is not None else ""
-        if not self.model.confirmed:
+        if not self._doc.results_current:
+            # in place of the verdict, not after the line: a second line moved the
+            # table down on every edit (seen under Xvfb at 1280 × 720), and the
+            # verdict of the project before the edit is not this project's
+            verdict = "<b>Updating…</b> — "
+        elif not self.model.confirmed:
             # the outcomes are final; the verdict waits for the confirmed limits
             verdict = "<b>Verdict: confirming limits…</b> — "
         case = self._doc.case
@@ -601,7 +605,7 @@ class ResultsTable(QWidget):
         # short enough for one line at 1280 × 720 (wrapped beyond; two lines cost
         # the table a row)
         self.summary.setText(f"{verdict}{which}: {self.proxy.rowCount()} of "
-                             f"{len(res.bays)} rows — " + " · ".join(parts) + stale)
+                             f"{len(res.bays)} rows — " + " · ".join(parts))
         # the caution stands in the window's status bar beside every verdict; here
         # on hover, after what the rows are
         self.summary.setToolTip("One row per bay and load (the worst drop point of the "

@@ -695,7 +695,9 @@ class PanelsMixin(WindowParts):
                      "drop_height": "allowable drop height"}.get(self.plan.overlay, shown)
             if data is None:
                 which = "all lifts, worst per bay" if "no lift" not in which else which
-            return f"{lv.name} · {short} · {which}.{state}"
+            # no state here: its second line moved the plan down on every edit (seen
+            # under Xvfb at 1280 × 720); the status bar and the table say it
+            return f"{lv.name} · {short} · {which}."
         return (f"{name}: {shown}; {which}. Key in a corner of the plan; "
                 f"the caution is under the plan.{state}")
 

@@ -205,3 +205,22 @@ def test_annex_waits_for_confirmed_results(qtbot, tmp_path, monkeypatch) -> None
     win.doc.set_results(analyse(p), "", p)
     win.export_annex(opts)
     assert taken[-1] is win.doc.results
+
+
+def test_an_edit_does_not_move_the_plan_or_the_table(qtbot, tmp_path) -> None:
+    """At 1280 × 720 the heading and the table's summary gained a second line while an
+    edit was analysed ("Results are being updated.", "(updating…)"), moving the plan
+    and the table down on every edit (seen under Xvfb). The short heading carries no
+    state; the summary says "Updating…" in place of the verdict of the project before
+    the edit."""
+    win = _window(qtbot, tmp_path)
+    win.resize(1280, 720)
+    qtbot.waitUntil(lambda: win.short_heading)
+    before = win.plan_heading_text()
+    verdict = win.results_table.model.permit.verdict_words
+    win.runner._stopped = True  # hold the edit's analysis: the stale state stays on show
+    _new_radius(win, 0.9)
+    assert not win.doc.results_current
+    assert win.plan_heading_text() == before
+    summary = win.results_table.summary.text()
+    assert summary.startswith("<b>Updating…</b>") and verdict not in summary
