@@ -497,6 +497,10 @@ class ResultsTable(QWidget):
         lay.addWidget(self.detail)
         # Bay and Load first and frozen: they stay in view while the table scrolls
         hh.moveSection(hh.visualIndex(COL["load"]), 1)
+        # the outcome and its U next: in the side panel of a small window they were
+        # past its edge behind Zone and Verdict (seen under Xvfb at 150 %)
+        hh.moveSection(hh.visualIndex(COL["outcome"]), 2)
+        hh.moveSection(hh.visualIndex(COL["util"]), 3)
         self._frozen = _FrozenColumns(self.view, (COL["bay"], COL["load"]))
 
         document.results_changed.connect(self._on_results_changed)
@@ -511,6 +515,8 @@ class ResultsTable(QWidget):
         self._syncing = True
         self.model.set_data(results, self._doc.project,
                             confirmed=results is None or self._doc.results_confirmed)
+        # one lift zone: its column says nothing the summary line does not
+        self.view.setColumnHidden(COL["zone"], len(self._doc.project.lift_zones) <= 1)
         self._fit_columns()
         self._fill_filter(results)
         self._update_summary()

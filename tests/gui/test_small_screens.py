@@ -217,3 +217,18 @@ def test_the_analysis_state_is_never_cut(open_window, qtbot, size) -> None:
     assert not win.state_label.elided(), (win.state_label.text(), win.state_label.width())
     assert win.caution_label.fits() and "licensed engineer" in win.caution_label.text()
     assert win.caution_label.text() in win.caution_label.variants()
+
+
+def test_the_outcome_is_in_view_in_the_side_panel(open_window, qtbot) -> None:
+    # seen under Xvfb at 150 %: the side panel's table showed Bay, Load and Zone, the
+    # outcome past its edge; with one lift zone its column says nothing
+    from droprig.gui.results_table import COL
+
+    win = open_window((853, 480))
+    assert win.open_path(DEMO, ask=False)
+    win.runner.run_now()
+    qtbot.waitUntil(lambda: win.compact and win.doc.results_current)
+    view = win.results_table.view
+    assert view.isColumnHidden(COL["zone"])  # the demo has one lift zone
+    x = view.columnViewportPosition(COL["outcome"])
+    assert 0 <= x and x + 40 <= view.viewport().width()  # its swatch and tag at least
