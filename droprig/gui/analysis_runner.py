@@ -6,10 +6,21 @@ edges: the first edit after a quiet spell starts at once (a finished handle drag
 repaints without waiting), further edits inside ``debounce_ms`` (150 ms) are
 coalesced into one run at the end of the window. Each run carries a generation
 number; results of a run overtaken by a newer edit are discarded, never shown.
+
+A run in two stages (``outcomes``): the outcomes of the edit first — every point's
+and bay's response and utilisation, the forward analysis alone
+(:func:`droprig.solver.analyse_outcomes`) — installed at once as *not confirmed*
+(``Document.results_confirmed`` False: the panels show limits, conditions and
+verdicts as "confirming…"), then, on the same worker thread, the analysis whose
+limits are confirmed, which replaces them. The worker starts the confirmation once
+the window has drawn the outcomes (or after :data:`PAINT_WAIT_S`): both hold the
+interpreter lock in turns, and the drawing comes first. A newer edit cancels the run
+in either stage; neither stage of a stale run is ever installed.
 """
 
 from __future__ import annotations
 
+import threading
 import time
 import traceback
 from collections.abc import Callable
@@ -21,6 +32,12 @@ from droprig.model import Project
 from droprig.solver import AnalysisCancelledError, CancelToken, Results, cancellable
 
 AnalyseFn = Callable[[Project], Results]
+OutcomesFn = Callable[[Project], "Results | None"]
+"""The first stage: the outcomes before the limits are confirmed, or ``None`` when
+the confirmed results are at hand (a zone cache holds them)."""
+PAINT_WAIT_S = 0.25
+"""s: the longest the worker waits for the window to draw the outcomes before it
+confirms their limits."""
 
 
 def _default_analyse(project: Project) -> Results:
@@ -38,15 +55,20 @@ def describe_analysis_error(exc: BaseException) -> str:
 
 class _JobSignals(QObject):
     done = Signal(int, object, str, float)  # generation, results | None, error, seconds
+    outcomes = Signal(int, object, float)  # generation, unconfirmed results, seconds
 
 
 class _Job(QRunnable):
     def __init__(self, fn: AnalyseFn, project: Project, generation: int,
-                 signals: _JobSignals, token: CancelToken | None = None) -> None:
+                 signals: _JobSignals, token: CancelToken | None = None,
+                 outcomes: OutcomesFn | None = None,
+                 drawn: threading.Event | None = None) -> None:
         super().__init__()
         self.setAutoDelete(True)
         self._token = token or CancelToken()
         self._fn = fn
+        self._outcomes = outcomes
+        self._drawn = drawn
         self._project = project
         self._generation = generation
         self._signals = signals
@@ -56,6 +78,13 @@ class _Job(QRunnable):
         results, error = None, ""
         try:
             with cancellable(self._token):
+                if self._outcomes is not None:
+                    early = self._outcomes(self._project)
+                    if early is not None:
+                        self._signals.outcomes.emit(self._generation, early,
+                                                    time.perf_counter() - t0)
+                        if self._drawn is not None:
+                            self._drawn.wait(PAINT_WAIT_S)
                 results = self._fn(self._project)
         except AnalysisCancelledError:  # overtaken by an edit or the window closing
             results, error = None, ""
@@ -69,19 +98,24 @@ class _Job(QRunnable):
 class AnalysisRunner(QObject):
     """Keeps ``document.results`` up to date with ``document.project``.
 
-    Signals: ``busy_changed(bool)``; ``finished(float seconds)`` after results
-    (or an error) for the current project were installed.
+    Signals: ``busy_changed(bool)``; ``outcomes_shown(float seconds)`` after the
+    outcomes of the current project were installed, not yet confirmed (``outcomes``
+    given); ``finished(float seconds)`` after results (or an error) for the current
+    project were installed, confirmed. The runner stays busy until then.
     """
 
     busy_changed = Signal(bool)
+    outcomes_shown = Signal(float)
     finished = Signal(float)
 
     def __init__(self, document: Document, *, analyse: AnalyseFn | None = None,
+                 outcomes: OutcomesFn | None = None,
                  debounce_ms: int = 150, threaded: bool = True,
                  parent: QObject | None = None) -> None:
         super().__init__(parent)
         self._document = document
         self._analyse = analyse or _default_analyse
+        self._outcomes = outcomes
         self._threaded = threaded
         self._generation = 0
         self._running = False
@@ -94,6 +128,9 @@ class AnalysisRunner(QObject):
         self._pool.setMaxThreadCount(1)
         self._signals = _JobSignals(self)
         self._signals.done.connect(self._on_job_done)
+        self._signals.outcomes.connect(self._on_outcomes)
+        self._drawn: threading.Event | None = None
+        self.outcomes_seconds = float("nan")
         self._cooldown = QTimer(self)
         self._cooldown.setSingleShot(True)
         self._cooldown.setInterval(debounce_ms)
@@ -129,6 +166,8 @@ class AnalysisRunner(QObject):
         self._set_busy(True)
         if self._running:
             self._token.cancel()  # the running analysis is stale: stop it (< 1 s)
+            if self._drawn is not None:
+                self._drawn.set()
         if not self._running and not self._cooldown.isActive():
             self._launch()
 
@@ -145,10 +184,29 @@ class AnalysisRunner(QObject):
             return
         self._running = True
         self._token = CancelToken()
+        self._drawn = threading.Event() if self._threaded else None
+        job = _Job(self._analyse, project, gen, self._signals, self._token, self._outcomes,
+                   self._drawn)
         if self._threaded:
-            self._pool.start(_Job(self._analyse, project, gen, self._signals, self._token))
+            self._pool.start(job)
         else:
-            _Job(self._analyse, project, gen, self._signals, self._token).run()
+            job.run()
+
+    def _on_outcomes(self, generation: int, results: Results, seconds: float) -> None:
+        """The first stage of the current run: shown at once, not confirmed. A stale
+        run's (overtaken by an edit) is dropped, as its final results are."""
+        drawn = self._drawn
+        if generation != self._generation:
+            if drawn is not None:
+                drawn.set()  # a stale run: on to its cancellation at once
+            return
+        self.outcomes_seconds = seconds
+        self._document.set_results(results, "", self._document.project, confirmed=False)
+        self.outcomes_shown.emit(seconds)
+        if drawn is not None:
+            # after the repaints the installation posted (Qt delivers posted events
+            # before it fires a zero timer)
+            QTimer.singleShot(0, drawn.set)
 
     def _on_job_done(self, generation: int, results: Results | None, error: str,
                      seconds: float) -> None:
@@ -210,4 +268,6 @@ class AnalysisRunner(QObject):
         self._stopped = True
         self._cooldown.stop()
         self._token.cancel()  # a running analysis stops at its next block (< 1 s)
+        if self._drawn is not None:
+            self._drawn.set()
         self.wait_idle(5_000)

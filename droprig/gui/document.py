@@ -127,6 +127,7 @@ class Document(QObject):
         self._case: tuple[str, str] | None = None
         self._results: Results | None = None
         self._results_project: Project | None = None
+        self._confirmed = True
         self._analysis_error = ""
         self.revision = 0
         """Incremented on every swap (autosave writes only when it moved)."""
@@ -178,6 +179,22 @@ class Document(QObject):
     def results_current(self) -> bool:
         """True when :attr:`results` belong to the current project."""
         return self._results is not None and self._results_project is self._project
+
+    @property
+    def results_confirmed(self) -> bool:
+        """True when :attr:`results` belong to the current project and their limits
+        are confirmed (:func:`droprig.solver.analyse`). False while only the outcomes
+        of an edit are in (:func:`droprig.solver.analyse_outcomes`: every point's and
+        bay's response and utilisation final, the limits still being tried): panels
+        then show limits, conditions and verdicts as "confirming…", never the
+        untried values, and the annex waits for the confirmed results."""
+        return self.results_current and self._confirmed
+
+    @property
+    def limits_pending(self) -> bool:
+        """True when the installed :attr:`results` (current or not) are outcomes
+        whose limits were still being confirmed when they were installed."""
+        return self._results is not None and not self._confirmed
 
     @property
     def analysis_error(self) -> str:
@@ -236,6 +253,7 @@ class Document(QObject):
         self._path = Path(path) if path else None
         self._results = None
         self._results_project = None
+        self._confirmed = True
         self._analysis_error = ""
         self._selection = None
         self._level_id = project.levels[0].id if project.levels else ""
@@ -362,10 +380,13 @@ class Document(QObject):
         self.level_changed.emit(level_id)
 
     def set_results(self, results: Results | None, error: str = "",
-                    project: Project | None = None) -> None:
-        """Install analysis results for ``project`` (default: the current one)."""
+                    project: Project | None = None, *, confirmed: bool = True) -> None:
+        """Install analysis results for ``project`` (default: the current one);
+        ``confirmed=False`` for outcomes whose limits are still being confirmed
+        (:attr:`results_confirmed`)."""
         self._results = results
         self._results_project = project if project is not None else self._project
+        self._confirmed = confirmed
         self._analysis_error = error
         self.results_changed.emit(results)
 

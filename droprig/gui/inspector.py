@@ -1165,8 +1165,11 @@ class Inspector(QWidget):
         else:
             html = "<p><b>Outcome in this bay</b></p>"
             order = {k: i for i, k in enumerate(style.OUTCOME_ORDER)}
-            # the permit's words and figures (droprig.permit), as in the results table
-            permit = derive_conditions(self._doc.project, res) if res is not None else None
+            # the permit's words and figures (droprig.permit), as in the results table;
+            # none while the limits of an edit are still being confirmed
+            confirmed = self._doc.results_confirmed
+            permit = derive_conditions(self._doc.project, res) \
+                if res is not None and confirmed else None
             verdicts = {(v.zone_id, v.load_name, v.bay_id): v
                         for v in (permit.bays if permit is not None else ())}
             # worst first, and among equal outcomes the highest utilisation first:
@@ -1177,7 +1180,8 @@ class Inspector(QWidget):
                 st = style.outcome(b.response)
                 v = verdicts.get((b.zone_id, b.load_name, b.bay_id))
                 cells = v.cells(system) if v is not None else None
-                allow = cells["allowable"] if cells else "none"
+                allow = cells["allowable"] if cells else "none" if confirmed \
+                    else style.CONFIRMING
                 html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
                          f"{b.load_name}<br>max U {fmt_utilisation(b.max_utilisation)}; "
                          f"allowable drop {html_escape(allow)}<br>governing: "
@@ -1186,6 +1190,8 @@ class Inspector(QWidget):
                     html += (f"<br><b>{html_escape(cells['verdict'])}</b>; max hook "
                              f"elevation {html_escape(cells['hook'])}<br>"
                              f"<i>{html_escape(cells['conditions'])}</i>")
+                elif not confirmed:
+                    html += f"<br><i>Verdict, limits and conditions: {style.CONFIRMING}</i>"
                 html += "</p>"
         html += f"<p style='color:#6B4E00'>⚠ {style.CAUTION_SHORT}.</p>"
         self._extra.setText(html)

@@ -70,7 +70,8 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
     ``settings``: where geometry, state and recent files are kept (tests pass
     an isolated one). ``settings_dir``: folder of the autosave / recovery files.
     ``analyse``: the analysis function (default: ``analyse_live``, the solver's
-    ``analyse`` with each zone's results remembered).
+    ``analyse`` with each zone's results remembered, its outcomes shown first by
+    ``analyse_live_outcomes`` while the limits are confirmed).
     ``threaded=False`` analyses on the UI thread (screenshots, benchmarks).
     """
 
@@ -87,6 +88,7 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
         self.qsettings = settings or make_settings()
         self.settings_dir = settings_dir or default_dir()
         self.runner = AnalysisRunner(self.doc, analyse=analyse or self.analyse_live,
+                                     outcomes=None if analyse else self.analyse_live_outcomes,
                                      threaded=threaded,
                                      debounce_ms=debounce_ms, parent=self)
         self.autosaver = Autosaver(self.doc, self.settings_dir, parent=self) \
@@ -131,6 +133,7 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
         d.dirty_changed.connect(self._on_dirty_changed)
         self.runner.busy_changed.connect(self._on_busy_changed)
         self.runner.finished.connect(self._on_analysis_finished)
+        self.runner.outcomes_shown.connect(self._on_analysis_finished)
         self.plan.zone_changed.connect(self._on_zone_changed)
         self.plan.protection_drawn.connect(self._on_protection_drawn)
         self.plan.corridor_drawn.connect(self._on_corridor_drawn)

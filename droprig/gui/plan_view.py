@@ -33,6 +33,7 @@ formatted with :func:`droprig.units.fmt` in the project's unit system.
 from __future__ import annotations
 
 import dataclasses
+import itertools
 import math
 from dataclasses import dataclass
 
@@ -142,6 +143,8 @@ NOTE_MS = 6000
 BUBBLE_OFFSET_PX = 46.0
 """Distance of a grid bubble's centre beyond the end of its grid line (pixels)."""
 BUBBLE_RADIUS_PX = 11.0
+BUBBLE_MIN_RADIUS_PX = 7.0
+"""The smallest a grid bubble is drawn when its grid lines lie close on screen."""
 BUBBLE_GAP_PX = 3.0
 """Least gap between a grid bubble and a crane symbol or label (pixels)."""
 BUBBLE_STEP_PX = 4.0
@@ -160,6 +163,7 @@ class GridBubble:
     axis: str
     label: str
     centre: QPointF
+    radius: float = 11.0
 
 
 LEGEND_WIDTH = 196.0
@@ -273,6 +277,7 @@ class PlanView(QGraphicsView):
         self._project: Project | None = None
         self._level: Level | None = None
         self._results: Results | None = None
+        self._confirmed = True
         self._overlay = "outcome"
         self._mode = "select"
         self._case: tuple[str, str] | None = None
@@ -520,10 +525,16 @@ class PlanView(QGraphicsView):
             self.fit()
         self.viewport().update()
 
-    def set_results(self, results: Results | None) -> None:
+    def set_results(self, results: Results | None, confirmed: bool | None = None) -> None:
         """Colour the plan by ``results`` (None while analysing: "not assessed").
+        ``confirmed=False``: outcomes whose limits are still being confirmed — the
+        bays' colours, tags and U are shown, allowable drop heights read
+        "confirming…" (default: as the document says, else confirmed).
         The caution strip comes and goes with the results: a fitted view is
         fitted again so the grid keeps clear of it and of the scale bar."""
+        if confirmed is None:
+            confirmed = self._doc is None or not self._doc.limits_pending
+        self._confirmed = confirmed
         self._results = results
         self._refresh_results()
         if not self._user_view:
@@ -835,6 +846,8 @@ class PlanView(QGraphicsView):
             sysm = self.unit_system
 
             def drop_line(s: BayState) -> tuple[str, str]:
+                if not self._confirmed and s.key != style.OUTCOME_NONE:
+                    return f"drop {style.CONFIRMING}", "…"
                 if s.allowable_drop_height is None:
                     return "no safe drop", "none"
                 h = style.fmt_drop(s.allowable_drop_height, sysm)
@@ -848,6 +861,8 @@ class PlanView(QGraphicsView):
         self._overlay_item.setVisible(False)
         if mode == "outcome" or not self._cases or self._project is None:
             return
+        if mode == "drop_height" and not self._confirmed:
+            return  # no map of allowable heights until they are confirmed
         field = "utilisation" if mode == "utilisation" else "allowable_drop_height"
         values = np.concatenate([np.asarray(getattr(c, field), dtype=float)
                                  for c in self._cases])
@@ -1400,6 +1415,10 @@ class PlanView(QGraphicsView):
             st = style.outcome(s.key)
             if s.key == style.OUTCOME_NONE:
                 parts.append(f"Bay {s.bay.id}: {st.label.lower()}")
+            elif not self._confirmed:
+                parts.append(
+                    f"Bay {s.bay.id}: {st.label.lower()}, max U {fmt_ratio(s.max_utilisation)}, "
+                    f"allowable drop {style.CONFIRMING}")
             else:
                 h_el = style.fmt_drop(s.allowable_drop_height, sysm)
                 h_pl = style.fmt_drop(s.allowable_drop_height_plastic, sysm)
@@ -1417,7 +1436,8 @@ class PlanView(QGraphicsView):
                 f"{c.load_name} in {c.zone_id}: {resp.lower()}, "
                 f"U {fmt_ratio(float(c.utilisation[i]))}, "
                 f"allowable drop "
-                f"{style.fmt_drop(float(c.allowable_drop_height[i]), sysm)}")
+                + (style.CONFIRMING if not self._confirmed else
+                   style.fmt_drop(float(c.allowable_drop_height[i]), sysm)))
         else:
             parts.append(f"x {units.fmt(x, 'length', sysm, decimals=2)}, "
                          f"y {units.fmt(y, 'length', sysm, decimals=2)}")
@@ -1507,32 +1527,75 @@ class PlanView(QGraphicsView):
         :data:`BUBBLE_OFFSET_PX` beyond the end of its grid line, or pushed further out
         along the line until it is clear of every crane symbol and crane label (a crane
         standing just off the grid used to cover a bubble); a moved bubble stays on its
-        grid line. Top / left bubble first for each line."""
+        grid line. Top / left bubble first for each line.
+
+        Where the lines of one direction lie closer on screen than two bubbles, the
+        bubbles of that direction shrink (down to :data:`BUBBLE_MIN_RADIUS_PX`); if
+        they still would touch, each line of that direction is labelled at one end
+        only, the ends alternating (first line top / left, the next bottom / right),
+        and where even that is too close, every other bubble also stands a bubble
+        further out (staggered): on a small plan at 200 % they overlapped."""
         if self._level is None:
             return []
         g = self._level.grid
         x0, x1, y0, y1 = g.x_lines[0], g.x_lines[-1], g.y_lines[0], g.y_lines[-1]
-        off, r = BUBBLE_OFFSET_PX, BUBBLE_RADIUS_PX
+        off = BUBBLE_OFFSET_PX
         avoid = self._crane_obstacles()
 
-        def clear(c: QPointF, dx: float, dy: float) -> QPointF:
+        def sizing(along: list[float]) -> tuple[float, bool, float]:
+            """(radius, one end only, stagger step) of the bubbles on lines at
+            screen positions ``along`` (px)."""
+            gaps = [abs(b - a) for a, b in itertools.pairwise(along)]
+            least = min(gaps, default=math.inf)
+            pairs = [abs(b - a) for a, b in zip(along[:-2], along[2:], strict=True)]
+            # two bubbles side by side keep BUBBLE_GAP_PX between them (and a little)
+            r = max(BUBBLE_MIN_RADIUS_PX,
+                    min(BUBBLE_RADIUS_PX, (least - BUBBLE_GAP_PX) / 2 - 0.5))
+            if 2 * r + BUBBLE_GAP_PX < least:
+                return r, False, 0.0
+            every_other = min(pairs, default=math.inf)
+            return r, True, (0.0 if 2 * r + BUBBLE_GAP_PX < every_other
+                             else 2 * r + 2 * BUBBLE_GAP_PX)
+
+        rx, one_x, sx = sizing([self._vp(x, y0).x() for x in g.x_lines])
+        ry, one_y, sy = sizing([self._vp(x0, y).y() for y in g.y_lines])
+
+        placed: list[QRectF] = []
+
+        def clear(c: QPointF, dx: float, dy: float, r: float) -> QPointF:
+            """``c`` moved out along its line (dx, dy) until clear of the cranes and of
+            the bubbles placed before it (one a crane moved must not land on its
+            staggered neighbour)."""
             box = QRectF(c.x() - r - BUBBLE_GAP_PX, c.y() - r - BUBBLE_GAP_PX,
                          2 * (r + BUBBLE_GAP_PX), 2 * (r + BUBBLE_GAP_PX))
             moved = 0.0
-            while any(box.intersects(o) for o in avoid) and moved < BUBBLE_MAX_SHIFT_PX:
+            while any(box.intersects(o) for o in (*avoid, *placed)) and \
+                    moved < BUBBLE_MAX_SHIFT_PX:
                 box.translate(dx * BUBBLE_STEP_PX, dy * BUBBLE_STEP_PX)
                 moved += BUBBLE_STEP_PX
-            return box.center()
+            centre = box.center()
+            placed.append(QRectF(centre.x() - r, centre.y() - r, 2 * r, 2 * r))
+            return centre
 
         out: list[GridBubble] = []
-        for x, lab in zip(g.x_lines, g.x_labels, strict=True):
+        for i, (x, lab) in enumerate(zip(g.x_lines, g.x_labels, strict=True)):
             top, bot = self._vp(x, y1), self._vp(x, y0)
-            out.append(GridBubble("x", lab, clear(QPointF(top.x(), top.y() - off), 0, -1)))
-            out.append(GridBubble("x", lab, clear(QPointF(bot.x(), bot.y() + off), 0, 1)))
-        for y, lab in zip(g.y_lines, g.y_labels, strict=True):
+            o = off + (sx if i % 4 >= 2 else 0.0)
+            if not one_x or i % 2 == 0:
+                out.append(GridBubble("x", lab, clear(QPointF(top.x(), top.y() - o), 0, -1,
+                                                      rx), rx))
+            if not one_x or i % 2 == 1:
+                out.append(GridBubble("x", lab, clear(QPointF(bot.x(), bot.y() + o), 0, 1,
+                                                      rx), rx))
+        for i, (y, lab) in enumerate(zip(g.y_lines, g.y_labels, strict=True)):
             lft, rgt = self._vp(x0, y), self._vp(x1, y)
-            out.append(GridBubble("y", lab, clear(QPointF(lft.x() - off, lft.y()), -1, 0)))
-            out.append(GridBubble("y", lab, clear(QPointF(rgt.x() + off, rgt.y()), 1, 0)))
+            o = off + (sy if i % 4 >= 2 else 0.0)
+            if not one_y or i % 2 == 0:
+                out.append(GridBubble("y", lab, clear(QPointF(lft.x() - o, lft.y()), -1, 0,
+                                                      ry), ry))
+            if not one_y or i % 2 == 1:
+                out.append(GridBubble("y", lab, clear(QPointF(rgt.x() + o, rgt.y()), 1, 0,
+                                                      ry), ry))
         return out
 
     def _crane_obstacles(self) -> list[QRectF]:
@@ -1559,29 +1622,38 @@ class PlanView(QGraphicsView):
         dim_font = pixel_font(10)
         fm = QFontMetricsF(dim_font)
 
-        def bubble(c: QPointF, text: str) -> None:
+        def bubble(c: QPointF, text: str, r: float) -> None:
             p.setPen(bub_pen)
             p.setBrush(QColor("#FFFFFF"))
-            p.drawEllipse(c, bub_r, bub_r)
-            p.setFont(font)
+            p.drawEllipse(c, r, r)
+            p.setFont(font if r >= bub_r else pixel_font(11 * r / bub_r + 0.5, True))
             p.setPen(QColor(style.PLAN["grid_label"]))
-            p.drawText(QRectF(c.x() - bub_r, c.y() - bub_r, 2 * bub_r, 2 * bub_r),
+            p.drawText(QRectF(c.x() - r, c.y() - r, 2 * r, 2 * r),
                        Qt.AlignmentFlag.AlignCenter, text)
 
         # each grid line runs from bubble to bubble (a bubble moved off a crane
         # takes its line with it)
         bubbles = self.grid_bubbles()
-        ends: dict[tuple[str, str], list[QPointF]] = {}
+        ends: dict[tuple[str, str], list[GridBubble]] = {}
         for b in bubbles:
-            ends.setdefault((b.axis, b.label), []).append(b.centre)
+            ends.setdefault((b.axis, b.label), []).append(b)
         p.setPen(line_pen)
-        for (axis, _lab), (c0, c1) in ends.items():
-            if axis == "x":  # a vertical line, bubbles above and below
-                p.drawLine(QPointF(c0.x(), c0.y() + bub_r), QPointF(c1.x(), c1.y() - bub_r))
+        top_y, bot_y = self._vp(x0, g.y_lines[-1]).y(), self._vp(x0, y0).y()
+        left_x, right_x = self._vp(x0, y0).x(), self._vp(g.x_lines[-1], y0).x()
+        for (axis, _lab), pair in ends.items():
+            r = pair[0].radius
+            if axis == "x":  # a vertical line, bubbles above and below (or at one end)
+                ys = sorted(b.centre.y() for b in pair)
+                ya = ys[0] + r if ys[0] < top_y else top_y - 8
+                yb = ys[-1] - r if ys[-1] > bot_y else bot_y + 8
+                p.drawLine(QPointF(pair[0].centre.x(), ya), QPointF(pair[0].centre.x(), yb))
             else:
-                p.drawLine(QPointF(c0.x() + bub_r, c0.y()), QPointF(c1.x() - bub_r, c1.y()))
+                xs = sorted(b.centre.x() for b in pair)
+                xa = xs[0] + r if xs[0] < left_x else left_x - 8
+                xb = xs[-1] - r if xs[-1] > right_x else right_x + 8
+                p.drawLine(QPointF(xa, pair[0].centre.y()), QPointF(xb, pair[0].centre.y()))
         for b in bubbles:
-            bubble(b.centre, b.label)
+            bubble(b.centre, b.label, b.radius)
         # dimension strings: x below the grid, y left of it
         dim_pen = cosmetic_pen("#3A3A3A", 1.0)
         p.setFont(dim_font)

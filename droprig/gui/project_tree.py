@@ -49,6 +49,7 @@ class ProjectTree(QTreeWidget):
         self.itemSelectionChanged.connect(self._on_item_selection_changed)
         document.project_changed.connect(self._on_project_changed)
         document.selection_changed.connect(self._on_selection_changed)
+        self._sig = _shown(document.project)
         self._rebuild(document.project)
 
     # -------------------------------------------------------------- building
@@ -159,6 +160,10 @@ class ProjectTree(QTreeWidget):
     # -------------------------------------------------------------- document events
 
     def _on_project_changed(self, project: Project) -> None:
+        sig = _shown(project)
+        if sig == self._sig:
+            return  # nothing the tree shows has changed (a zone dragged, a radius)
+        self._sig = sig
         self._rebuild(project)
 
     def _on_selection_changed(self, sel: Selection | None) -> None:
@@ -215,3 +220,12 @@ class ProjectTree(QTreeWidget):
 
 
 _BASIS = {"aisc360": "AISC 360", "en1993": "EN 1993"}
+
+
+def _shown(p: Project) -> tuple:
+    """What the tree's rows are made of, as the project's frozen objects (equal
+    objects, equal rows; the comparison stops at the first object that differs and
+    takes an unchanged one by identity)."""
+    return (p.info.name, p.settings.unit_system, p.settings.design_basis, p.levels,
+            tuple((z.id, z.name, z.level_id, z.loads) for z in p.lift_zones),
+            p.protection_areas)

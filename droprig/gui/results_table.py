@@ -37,7 +37,8 @@ from droprig import units
 from droprig.gui import style
 from droprig.gui.document import Document, Selection
 from droprig.model import Project
-from droprig.permit import BayVerdict, PermitConditions, derive_conditions
+from droprig.outcomes import fmt_utilisation
+from droprig.permit import BayVerdict, PermitConditions, derive_conditions, fmt_height
 from droprig.solver import BaySummary, Results
 from droprig.texts import CAUTION
 
@@ -62,6 +63,10 @@ COLUMNS: tuple[tuple[str, str], ...] = (
 CELL_OF = {"verdict": "verdict", "util": "utilisation", "allow": "allowable", "hook": "hook",
            "planned": "planned", "advice": "conditions"}
 COL = {key: i for i, (key, _) in enumerate(COLUMNS)}
+CONFIRMING = style.CONFIRMING
+UNCONFIRMED = frozenset({"verdict", "allow", "hook", "advice"})
+"""The cells the confirmation may change; the utilisation and the planned height
+come from the outcomes themselves."""
 
 _TIPS = {
     "outcome": "Worst response of any drop point in the bay. E: stays elastic, "
@@ -138,6 +143,7 @@ class BayResultsModel(QAbstractTableModel):
         self._rows: tuple[BaySummary, ...] = ()
         self._verdicts: dict[tuple[str, str, str], BayVerdict] = {}
         self.permit: PermitConditions | None = None
+        self.confirmed = True
         self._system: units.UnitSystem = "SI"
         self._level_names: dict[str, str] = {}
         self._stale = False
@@ -146,10 +152,17 @@ class BayResultsModel(QAbstractTableModel):
         """Each row's permit cells, worked once per results (the view asks for every
         cell on every repaint)."""
 
-    def set_data(self, results: Results | None, project: Project, stale: bool = False) -> None:
+    def set_data(self, results: Results | None, project: Project, stale: bool = False,
+                 confirmed: bool = True) -> None:
+        """Rows of ``results``. ``confirmed=False``: the outcomes of an edit whose
+        limits are still being confirmed — the verdict, limit and condition cells read
+        :data:`CONFIRMING` and :attr:`permit` is ``None`` (the permit's words for the
+        untried limits are never shown)."""
         self.beginResetModel()
         self._rows = results.bays if results is not None else ()
-        self.permit = derive_conditions(project, results) if results is not None else None
+        self.confirmed = confirmed
+        self.permit = derive_conditions(project, results) \
+            if results is not None and confirmed else None
         self._verdicts = {(v.zone_id, v.load_name, v.bay_id): v
                           for v in (self.permit.bays if self.permit is not None else ())}
         self._system = project.settings.unit_system
@@ -172,11 +185,17 @@ class BayResultsModel(QAbstractTableModel):
         return self._rows[i]
 
     def verdict(self, b: BaySummary) -> BayVerdict | None:
-        """The permit verdict of a row (None if the results no longer hold it)."""
+        """The permit verdict of a row (None if the results no longer hold it, or
+        while its limits are being confirmed)."""
+        if not self.confirmed:
+            return None
         return self._verdicts.get((b.zone_id, b.load_name, b.bay_id))
 
     def cell(self, b: BaySummary, key: str) -> str:
-        """The permit cell ``key`` of :data:`CELL_OF` for a row."""
+        """The permit cell ``key`` of :data:`CELL_OF` for a row (:data:`CONFIRMING`
+        for the cells of :data:`UNCONFIRMED` while the limits are being confirmed)."""
+        if not self.confirmed:
+            return self._outcome_cell(b, key)
         k = (b.zone_id, b.load_name, b.bay_id)
         cells = self._cells.get(k)
         if cells is None:
@@ -185,6 +204,20 @@ class BayResultsModel(QAbstractTableModel):
                 return "none"
             cells = self._cells[k] = v.cells(self._system)
         return cells[CELL_OF[key]]
+
+    def _outcome_cell(self, b: BaySummary, key: str) -> str:
+        """A cell while the limits are being confirmed: the utilisation and the planned
+        height as :meth:`droprig.permit.BayVerdict.cells` writes them (the permit is
+        not derived from untried limits; ``tests/gui/test_confirming.py`` checks the
+        two agree), :data:`CONFIRMING` for the rest."""
+        if key == "util":
+            util = fmt_utilisation(b.max_utilisation)
+            if b.utilisation_check:
+                util += f" ({b.utilisation_check.replace('_', ' ')})"
+            return util
+        if key == "planned":
+            return fmt_height(b.planned_drop_height, self._system, rounding="nearest")
+        return CONFIRMING
 
     def rowCount(self, parent: QModelIndex | QPersistentModelIndex = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(self._rows)
@@ -241,7 +274,8 @@ class BayResultsModel(QAbstractTableModel):
             f = QFont()
             f.setBold(True)
             return f
-        if role == Qt.ItemDataRole.ForegroundRole and self._stale:
+        if role == Qt.ItemDataRole.ForegroundRole and (
+                self._stale or (not self.confirmed and key in UNCONFIRMED)):
             return QColor("#9A9A9A")
         if role == Qt.ItemDataRole.TextAlignmentRole and key in ("util", "allow", "planned",
                                                                   "hook"):
@@ -463,6 +497,10 @@ class ResultsTable(QWidget):
         lay.addWidget(self.detail)
         # Bay and Load first and frozen: they stay in view while the table scrolls
         hh.moveSection(hh.visualIndex(COL["load"]), 1)
+        # the outcome and its U next: in the side panel of a small window they were
+        # past its edge behind Zone and Verdict (seen under Xvfb at 150 %)
+        hh.moveSection(hh.visualIndex(COL["outcome"]), 2)
+        hh.moveSection(hh.visualIndex(COL["util"]), 3)
         self._frozen = _FrozenColumns(self.view, (COL["bay"], COL["load"]))
 
         document.results_changed.connect(self._on_results_changed)
@@ -475,8 +513,11 @@ class ResultsTable(QWidget):
 
     def _on_results_changed(self, results: Results | None) -> None:
         self._syncing = True
-        self.model.set_data(results, self._doc.project)
-        self._fit_bay_column()
+        self.model.set_data(results, self._doc.project,
+                            confirmed=results is None or self._doc.results_confirmed)
+        # one lift zone: its column says nothing the summary line does not
+        self.view.setColumnHidden(COL["zone"], len(self._doc.project.lift_zones) <= 1)
+        self._fit_columns()
         self._fill_filter(results)
         self._update_summary()
         self._select_rows_for(self._doc.selection)
@@ -484,18 +525,40 @@ class ResultsTable(QWidget):
 
     BAY_COLUMN_MAX = 220
     """px: the widest the Bay column grows to show its names whole."""
+    LOAD_COLUMN_MAX = 180
+    """px: the widest the (frozen) Load column grows; the selected row's detail line
+    and the inspector give a longer name whole."""
+    UTIL_COLUMN_MAX = 240
+    """px: the widest the Max U column grows to show its check whole."""
 
-    def _fit_bay_column(self) -> None:
+    def _fit_columns(self) -> None:
         """The Bay column as wide as its longest name (up to :attr:`BAY_COLUMN_MAX`):
         with two levels a bay reads "Plant roof 1-2/A-B", and at 64 px it showed
-        "Plant r…", the bay itself cut away (seen under Xvfb at 200 %)."""
-        col = COL["bay"]
+        "Plant r…", the bay itself cut away (seen under Xvfb at 200 %). The Outcome
+        column as wide as the longest outcome words with the swatch (in bold, as an
+        exceeding row draws them), and Max U as its longest value and check (up to
+        :attr:`UTIL_COLUMN_MAX`): at 100 % they read "X Exceeds l…" and "9.75 (web
+        yieldi…" (seen under Xvfb)."""
         fm = self.view.fontMetrics()
-        texts = {str(self.model.data(self.model.index(r, col)) or "")
-                 for r in range(self.model.rowCount())}
-        need = max((fm.horizontalAdvance(t) for t in texts), default=0) + 16
-        if need > self.view.columnWidth(col):
-            self.view.setColumnWidth(col, min(need, self.BAY_COLUMN_MAX))
+        bold = QFont(self.view.font())
+        bold.setBold(True)
+        bfm = QFontMetrics(bold)
+
+        def widest(col: int, metrics: QFontMetrics) -> int:
+            texts = {str(self.model.data(self.model.index(r, col)) or "")
+                     for r in range(self.model.rowCount())}
+            return max((metrics.horizontalAdvance(t) for t in texts), default=0)
+
+        icon = self.view.iconSize().width() + 8
+        words = max(bfm.horizontalAdvance(f"{st.tag}  {st.label}")
+                    for st in (style.outcome(k) for k in style.OUTCOME_ORDER))
+        for col, need, cap in (
+                (COL["bay"], widest(COL["bay"], fm) + 16, self.BAY_COLUMN_MAX),
+                (COL["load"], widest(COL["load"], fm) + 16, self.LOAD_COLUMN_MAX),
+                (COL["outcome"], icon + words + 16, 10_000),
+                (COL["util"], widest(COL["util"], bfm) + 16, self.UTIL_COLUMN_MAX)):
+            if need > self.view.columnWidth(col):
+                self.view.setColumnWidth(col, min(need, cap))
 
     def _on_project_changed(self, project: Project) -> None:
         self.model.set_stale(not self._doc.results_current)
@@ -533,15 +596,22 @@ class ResultsTable(QWidget):
             return
         parts = [f"{style.outcome(k).label} {counts[k]}"
                  for k in reversed(style.OUTCOME_ORDER) if counts.get(k)]
-        stale = "  (updating…)" if not self._doc.results_current else ""
         permit = self.model.permit
         verdict = f"<b>{permit.verdict_words}</b> — " if permit is not None else ""
+        if not self._doc.results_current:
+            # in place of the verdict, not after the line: a second line moved the
+            # table down on every edit (seen under Xvfb at 1280 × 720), and the
+            # verdict of the project before the edit is not this project's
+            verdict = "<b>Updating…</b> — "
+        elif not self.model.confirmed:
+            # the outcomes are final; the verdict waits for the confirmed limits
+            verdict = "<b>Verdict: confirming limits…</b> — "
         case = self._doc.case
         which = "all lifts" if case is None else f"lift {case[0]} · {case[1]}"
         # short enough for one line at 1280 × 720 (wrapped beyond; two lines cost
         # the table a row)
         self.summary.setText(f"{verdict}{which}: {self.proxy.rowCount()} of "
-                             f"{len(res.bays)} rows — " + " · ".join(parts) + stale)
+                             f"{len(res.bays)} rows — " + " · ".join(parts))
         # the caution stands in the window's status bar beside every verdict; here
         # on hover, after what the rows are
         self.summary.setToolTip("One row per bay and load (the worst drop point of the "
@@ -595,6 +665,8 @@ class ResultsTable(QWidget):
         said = ("" if v is None else
                 " ".join(c.sentence(system) for c in v.conditions)
                 or v.cells(system)["verdict"])
+        if not self.model.confirmed:
+            said = f"limits and conditions {CONFIRMING}"
         self.detail.setText(f"<b>{b.bay_id}</b> · {b.zone_id} · {html_escape(b.load_name)} — "
                             f"{st.label}: {html_escape(said)}")
         self._place_detail()

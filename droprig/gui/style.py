@@ -234,6 +234,11 @@ APP_ORGANISATION = "Droprig Works"
 APP_NAME = "droprig"
 
 
+CONFIRMING = "confirming…"
+"""What a limit, condition or verdict reads while the outcomes of an edit are shown
+and its limits are still being confirmed (``Document.results_confirmed``): never the
+untried value."""
+
 SHORT_DROP_M = 0.5
 """m: allowable drops below this are shown in mm / in, not m / ft."""
 

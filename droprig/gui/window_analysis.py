@@ -13,11 +13,17 @@ from droprig.gui import style
 from droprig.gui.document import Selection
 from droprig.gui.window_base import WindowParts, describe
 from droprig.model import Project
-from droprig.solver import Results, ZoneCache
+from droprig.solver import Results, ZoneCache, analyse_outcomes
 
 
 class AnalysisMixin(WindowParts):
     """The main window's side of the live analysis."""
+
+    def _live_cache(self) -> ZoneCache:
+        cache: ZoneCache | None = getattr(self, "_zone_cache", None)
+        if cache is None:
+            cache = self._zone_cache = ZoneCache()
+        return cache
 
     def analyse_live(self, project: Project) -> Results:
         """The runner's analysis: :func:`droprig.solver.analyse` with each zone's
@@ -26,10 +32,14 @@ class AnalysisMixin(WindowParts):
         re-analyses that zone only — the same results as a full analysis, bit for
         bit. One cache per window; the runner's single worker thread and its
         synchronous runs share it (the cache holds a lock)."""
-        cache: ZoneCache | None = getattr(self, "_zone_cache", None)
-        if cache is None:
-            cache = self._zone_cache = ZoneCache()
-        return cache.analyse(project)
+        return self._live_cache().analyse(project)
+
+    def analyse_live_outcomes(self, project: Project) -> Results | None:
+        """The runner's first stage: the outcomes of the zones the cache does not
+        hold, before their limits are confirmed (:func:`droprig.solver.analyse_outcomes`);
+        ``None`` when it holds them all (an undo, a redo: the confirmed results come
+        at once)."""
+        return analyse_outcomes(project, self._live_cache())
 
     def _on_results_changed(self, results: Results | None) -> None:
         self._refresh_trace()
@@ -44,6 +54,9 @@ class AnalysisMixin(WindowParts):
         if t is None or not self.doc.results_current:
             return
         p = self.doc.project
+        if getattr(self, "_traced_project", None) is p:
+            return  # the outcomes came first: the trace of this project is on show
+        self._traced_project = p
         if not any(z.id == t.zone_id and any(ld.name == t.load_name for ld in z.loads)
                    for z in p.lift_zones):
             self.trace_panel.show_trace(None)
@@ -66,7 +79,11 @@ class AnalysisMixin(WindowParts):
 
     def _update_state_label(self) -> None:
         if self.runner.busy:
-            self.state_label.setText("Analysing…")
+            if self.doc.results_current and not self.doc.results_confirmed:
+                # the outcomes are in; the limits are still being tried
+                self.state_label.setText("Outcomes shown · confirming limits…")
+            else:
+                self.state_label.setText("Analysing…")
             self.state_label.setStyleSheet("color: #173F66;")
             return
         if self.doc.analysis_error:

@@ -72,7 +72,8 @@ class FilesMixin(WindowParts):
             if not dlg.exec():
                 return None
             options = dlg.options()
-        results = self.doc.results if self.doc.results_current else None
+        # only confirmed results: outcomes still being confirmed are analysed afresh
+        results = self.doc.results if self.doc.results_confirmed else None
         src = self.doc.path if self.doc.path is not None and not self.doc.is_dirty else None
         job = AnnexExport(p, results, options, src, self)
         job.done.connect(self._on_annex_done)

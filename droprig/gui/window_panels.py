@@ -160,6 +160,9 @@ COMPACT_BELOW = (760, 600)
 tabbed side panel (:meth:`PanelsMixin.set_compact`): 1280 × 720 at 150 % is
 853 × 480 logical and at 200 % 640 × 360 (common practice, no source)."""
 
+SHORT_HEADING_BELOW = 800
+"""Window height (logical px) below which the plan's heading takes its short form
+(:attr:`PanelsMixin.short_heading`; common practice, no source)."""
 SHORT_TITLES = {"results": "Results", "trace": "Trace"}
 """Panel titles in the compact layout, where the four share one row of tabs."""
 
@@ -356,16 +359,16 @@ class PanelsMixin(WindowParts):
 
     def _apply_default_dock_sizes(self) -> None:
         """First start at this screen scale (no saved layout): side panels wide
-        enough for their titles and a form, the results a third of the height on
-        a tall window and 27 % on a short one (1280 × 720, or a large screen
-        at 150–200 %), the rest to the plan."""
+        enough for their titles and a form, the results a third of the height
+        (on a short window, 1280 × 720 or a large screen at 150–200 %, the heading
+        is short, which leaves the plan its half), the rest to the plan."""
         w = max(self.width(), 800)
         h = max(self.height(), 480)
         tree_w = max(int(w * 0.15), self.tree_dock.minimumWidth())
         insp_w = max(int(w * 0.23), self.inspector_dock.minimumWidth())
         self.resizeDocks([self.tree_dock, self.inspector_dock], [tree_w, insp_w],
                          Qt.Orientation.Horizontal)
-        self.resizeDocks([self.results_dock], [int(h * (0.32 if h >= 900 else 0.27))],
+        self.resizeDocks([self.results_dock], [int(h * 0.32)],
                          Qt.Orientation.Vertical)
         self.resizeDocks([self.results_dock, self.trace_dock], [int(w * 0.62), int(w * 0.38)],
                          Qt.Orientation.Horizontal)
@@ -402,6 +405,9 @@ class PanelsMixin(WindowParts):
         super().resizeEvent(event)
         self.set_compact(self._wants_compact(self.width(), self.height()))
         self._fit_status_bar()
+        if self.short_heading != getattr(self, "_heading_short", None):
+            self._heading_short = self.short_heading
+            self._update_heading()
 
     @staticmethod
     def _wants_compact(width: int, height: int) -> bool:
@@ -674,8 +680,10 @@ class PanelsMixin(WindowParts):
             except (KeyError, StopIteration):
                 pass
         state = "" if self.doc.results_current else " Results are being updated."
+        if self.doc.results_current and not self.doc.results_confirmed:
+            state = " Limits are being confirmed."
         name = lv.name if lv.name.lower().startswith("level") else f"Level {lv.name}"
-        if self.compact:  # a small window: the heading in two lines, not five
+        if self.short_heading:  # a small window: the heading in a line or two, not five
             # each tag with one or two words (the full words are in the key): the
             # long form took four of a 360 px window's lines (seen under Xvfb)
             few = {"elastic": "elastic", "plastic": "yields", "exceeds": "exceeds",
@@ -687,9 +695,19 @@ class PanelsMixin(WindowParts):
                      "drop_height": "allowable drop height"}.get(self.plan.overlay, shown)
             if data is None:
                 which = "all lifts, worst per bay" if "no lift" not in which else which
-            return f"{lv.name} · {short} · {which}.{state}"
+            # no state here: its second line moved the plan down on every edit (seen
+            # under Xvfb at 1280 × 720); the status bar and the table say it
+            return f"{lv.name} · {short} · {which}."
         return (f"{name}: {shown}; {which}. Key in a corner of the plan; "
                 f"the caution is under the plan.{state}")
+
+    @property
+    def short_heading(self) -> bool:
+        """The plan's heading in its short form: in the compact layout, and on a
+        window below :data:`SHORT_HEADING_BELOW` px tall (at 1280 × 720 the long
+        form took three lines, and the results table kept four rows; the key in the
+        plan's corner gives every tag in full)."""
+        return self.compact or self.height() < SHORT_HEADING_BELOW
 
     def _update_heading(self) -> None:
         if hasattr(self, "plan_heading"):

@@ -48,6 +48,7 @@ from droprig.model import (
     bays,
     id_ranges,
 )
+from droprig.outcomes import NOT_ASSESSED, ORDER, OUTCOMES
 from droprig.permit import ENERGY_ONLY, derive_conditions, pad_words
 from droprig.permit import VERDICT_WORDS as _PERMIT_WORDS
 from droprig.report import content, fonts, permit_fields, references
@@ -67,6 +68,16 @@ from droprig.solver import (
 from droprig.units import UnitSystem
 
 Progress = Callable[[float, str], None]
+
+
+def outcome_key_words() -> str:
+    """The tags of the bay table in words, every outcome droprig can print
+    (:data:`droprig.outcomes.ORDER`) and the dash of a bay not reached: "E stays
+    elastic, Y yields within limits, X exceeds limits, P may go through, – not
+    reached" (it had no P while the table printed P rows)."""
+    words = [f"{o.tag} {o.label.lower().replace(',', '')}"
+             for o in (OUTCOMES[k] for k in ORDER)]
+    return ", ".join([*words, f"{OUTCOMES[NOT_ASSESSED].tag} not reached"])
 
 MIN_PT = 7.0
 IN_ROW_MIN = 26.0
@@ -1026,8 +1037,8 @@ class _Builder:
         self.section("bays")
         small = "in" if self.sys == "US" else "mm"
         self.story.append(self.P(
-            "Per bay and load: outcome (E stays elastic, Y yields within limits, X exceeds "
-            f"limits, – not reached), highest utilisation U and the check that sets it, the "
+            f"Per bay and load: outcome ({outcome_key_words()}), "
+            "highest utilisation U and the check that sets it, the "
             f"least allowable drop height in {small} (above the finished surface, rounded "
             "down; 'none': not even a load set down is within the limits; 'no limit': no "
             "height reaches a limit) and the permit conditions that apply. Bays whose "

@@ -6,7 +6,9 @@ names from ``droprig.solver`` and nothing from its modules
 
 * :func:`analyse` — every drop point of every load of every lift zone of a project;
   :class:`ZoneCache` — the same with each zone's results remembered by the model
-  objects that feed it (the window's live re-analysis);
+  objects that feed it (the window's live re-analysis); :func:`analyse_outcomes` —
+  the same up to, not including, the confirmation of limits (the window paints the
+  outcomes first and shows the limits once confirmed);
 * :func:`trace_point` — the calculation trace of one drop point;
 * :func:`planned_height` — a load's drop height on droprig's one datum (load
   underside above the finished surface of the level);
@@ -21,6 +23,7 @@ names from ``droprig.solver`` and nothing from its modules
 * the result types and their code tables.
 """
 
+from droprig.model import Project
 from droprig.solver.analysis import ZoneCache, analyse, floor_model
 from droprig.solver.cancel import AnalysisCancelledError, CancelToken, cancellable
 from droprig.solver.cascade import level_below
@@ -63,6 +66,75 @@ from droprig.solver.verification import (
     verify_point,
 )
 
+
+def analyse_outcomes(project: Project, cache: ZoneCache | None = None) -> Results | None:
+    """The outcomes of :func:`analyse` before its limits are confirmed, or ``None``
+    when ``cache`` holds the confirmed results of every zone (then
+    ``cache.analyse(project)`` returns them at once).
+
+    Each zone ``cache`` does not hold runs the forward analysis only — the drop points
+    and their refinement (:func:`droprig.solver.refine.zone_points_geometry`), each
+    load's case and bay summaries (:func:`droprig.solver.summary.summarise`) and the
+    falls to the levels below (:func:`droprig.solver.analysis.cascade_down`) — and
+    stops before :func:`droprig.solver.confirm.confirm_zone`, the costly part. The
+    zones it holds are taken from it, confirmed. What the confirmation never changes
+    is final here: every point's response, utilisation and governing check, each
+    bay's response, greatest utilisation and its point, the falls
+    (``tests/solver/test_analyse_outcomes.py`` compares them with :func:`analyse`).
+    What it does change is not: each bay's limits and advice (allowable heights,
+    height limit, mat) and every point's plastic allowable height are the inverse
+    answers as found, untried, so they must never be shown or printed as final; and
+    the unconfirmed zones carry no warnings. The permit, the annex and ``droprig``
+    take :func:`analyse` only. SI units.
+    """
+    from droprig.solver import analysis, droppoints, refine
+    from droprig.solver.floor import floor_cache
+    from droprig.solver.summary import summarise
+
+    project = resolve_drift(project)
+    floor = floor_cache(project)
+    cases: list[CaseResult] = []
+    summaries: list[BaySummary] = []
+    warnings: list[str] = []
+    falls: list[Cascade] = []
+    forward = False
+    for zone in project.lift_zones:
+        held = None
+        if cache is not None:
+            with cache._lock:  # a look only: neither a hit nor a miss
+                held = cache._zones.get(analysis.zone_key(project, zone))
+        if held is not None:
+            cases.extend(held.cases)
+            summaries.extend(held.bays)
+            falls.extend(held.cascade)
+            warnings.extend(w for w in held.warnings if w not in warnings)
+            continue
+        forward = True
+        if not zone.loads:
+            continue
+        fm = floor(zone.level_id)
+        x, y = droppoints.base_points(fm.frame, zone, project.settings.grid_resolution)
+        # analysis.analyse_zone up to its confirm_zone, the same calls in the same order
+        rows, _geo = refine.zone_points_geometry(fm, project, zone, (x, y))
+        below = level_below(project, fm.level.id)
+        zone_cases = []
+        for j, load in enumerate(zone.loads):
+            sel = rows["load_index"] == j
+            res = {k: v[sel] for k, v in rows.items()}
+            case = analysis._case_result(zone, load, fm.level, res)
+            zone_cases.append(case)
+            summaries.extend(summarise(fm.level, zone, load, case, res["F_allow"],
+                                       below.id if below is not None else None,
+                                       [p.id for p in project.protection_areas]))
+        cases.extend(zone_cases)
+        for load, case in zip(zone.loads, zone_cases, strict=True):
+            if below is not None:
+                falls.extend(analysis.cascade_down(project, zone, load, case, below, floor))
+    if not forward:
+        return None
+    return Results(tuple(cases), tuple(summaries), tuple(warnings), tuple(falls))
+
+
 __all__ = [
     "ADVICE_KINDS",
     "CHECKS",
@@ -91,6 +163,7 @@ __all__ = [
     "Verification",
     "ZoneCache",
     "analyse",
+    "analyse_outcomes",
     "assess_member",
     "cancellable",
     "check_framing",

@@ -180,6 +180,9 @@ def test_results_headers_are_not_cut(qtbot, window: MainWindow) -> None:
     hh = view.horizontalHeader()
     fm = QFontMetrics(header_font(hh))
     for key in ("bay", "zone", "load", "outcome", "util", "allow", "planned", "governing"):
+        if view.isColumnHidden(COL[key]):  # Zone, with one lift zone: not shown at all
+            assert key == "zone" and len(window.doc.project.lift_zones) <= 1
+            continue
         title = COLUMNS[COL[key]][1]
         assert view.columnWidth(COL[key]) >= fm.horizontalAdvance(title) + HEADER_PADDING_PX
 

@@ -682,3 +682,35 @@ def test_grid_bubbles_keep_clear_of_the_crane(view: PlanView, warehouse_floor: P
         b = next(b for b in bubbles if b.axis == "y" and b.label == g.y_labels[1])
         assert b.centre.x() < view._vp(g.x_lines[0], 0).x() - BUBBLE_OFFSET_PX - 20
     view.viewport().grab()  # paints without error
+
+
+@pytest.mark.parametrize("size", [(900, 640), (326, 191)])
+def test_grid_bubbles_never_overlap_each_other(view: PlanView, size) -> None:
+    """Seen under Xvfb at 200 % (a 326 × 191 px plan): the bubbles of 1, 2, 3, 4
+    overlapped. Close on screen they shrink, then each line is labelled at one end,
+    the ends alternating; every line keeps a bubble, on its own grid line (common
+    practice, no source: a grid label is read whole)."""
+    import itertools
+    import math
+
+    from droprig.gui.plan_view import BUBBLE_MIN_RADIUS_PX, BUBBLE_RADIUS_PX
+
+    view.resize(*size)
+    view.fit()
+    if size[0] < 400:
+        view.zoom_by(0.25)  # a floor drawn small, as beside a crane far off
+    bubbles = view.grid_bubbles()
+    assert bubbles
+    for a, b in itertools.combinations(bubbles, 2):
+        d = math.dist((a.centre.x(), a.centre.y()), (b.centre.x(), b.centre.y()))
+        assert d >= a.radius + b.radius, (a, b)
+    assert all(BUBBLE_MIN_RADIUS_PX <= b.radius <= BUBBLE_RADIUS_PX for b in bubbles)
+    g = view._level.grid
+    for x, lab in zip(g.x_lines, g.x_labels, strict=True):
+        on = [b for b in bubbles if b.axis == "x" and b.label == lab]
+        assert on and all(abs(b.centre.x() - view._vp(x, 0).x()) < 1e-6 for b in on)
+    for y, lab in zip(g.y_lines, g.y_labels, strict=True):
+        on = [b for b in bubbles if b.axis == "y" and b.label == lab]
+        assert on and all(abs(b.centre.y() - view._vp(0, y).y()) < 1e-6 for b in on)
+    if size[0] < 400:
+        assert len(bubbles) < 2 * (len(g.x_lines) + len(g.y_lines))  # one end each

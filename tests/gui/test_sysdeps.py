@@ -87,3 +87,17 @@ def test_pyproject_licence_is_an_spdx_string() -> None:
     assert isinstance(meta["project"]["license"], str)  # PEP 639; no table form
     req = meta["build-system"]["requires"]
     assert any(r.replace(" ", "").startswith("setuptools>=77") for r in req)
+
+
+def test_editable_install_is_a_plain_pth_with_no_warning() -> None:
+    """setuptools (84, ``command/editable_wheel.py``, ``_select_strategy``) makes an
+    editable install a plain ``.pth`` entry when ``package-dir`` is ``{"": …}`` and
+    the packages lie under that folder; otherwise an import hook, whose
+    "Editable installation." warning pip prints even with ``--quiet`` (the `make`
+    output showed it)."""
+    import tomllib
+
+    meta = tomllib.loads((ROOT / "pyproject.toml").read_text())
+    assert meta["tool"]["setuptools"]["package-dir"] == {"": "."}
+    assert (ROOT / "droprig" / "__init__.py").is_file()
+    assert meta["tool"]["setuptools"]["packages"]["find"]["include"] == ["droprig*"]

@@ -153,6 +153,7 @@ def test_long_crane_label_at_the_edge_stays_readable(qtbot) -> None:
 
 
 def test_heading_says_level_colours_lift_and_load(qtbot, window: MainWindow) -> None:
+    window.resize(1400, 900)  # the long heading (a window below 800 px has the short)
     _with_zone(qtbot, window, "Tower crane east")
     text = window.plan_heading.text()
     assert "Level Roof" in text and "outcome" in text and "worst of all 1 load" in text
@@ -201,6 +202,7 @@ def test_chosen_lift_stays_chosen_after_an_edit(qtbot, window: MainWindow) -> No
 
 
 def test_heading_does_not_repeat_the_word_level(qtbot, window: MainWindow) -> None:
+    window.resize(1400, 900)  # the long heading (a window below 800 px has the short)
     lv = replace(_level(), name="Level 3")
     window.doc.edit(ed.add_level(window.doc.project, lv), "Generate framing")
     window.doc.set_level("L1")
