@@ -170,6 +170,7 @@ def bench_steps(projects, runs: int) -> dict[str, dict[str, float]]:
             finally:
                 T[label] = T.get(label, 0.0) + time.perf_counter() - t
                 N[label] = N.get(label, 0.0) + 1
+        w.__name__ = getattr(fn, "__name__", label)  # chain.HEIGHT_FREE finds steps by name
         return w
 
     def patch(obj: object, name: str, new: object) -> None:
@@ -194,7 +195,8 @@ def bench_steps(projects, runs: int) -> dict[str, dict[str, float]]:
                 if getattr(om, fn, None) is getattr(m, fn):
                     patch(om, fn, f)
         run = chain.run_chain
-        patch(chain, "run_chain", timed("chain runs", lambda d: count_points(run(d))))
+        patch(chain, "run_chain", timed("chain runs",
+                                         lambda d, given=None: count_points(run(d, given))))
         from droprig.solver import evaluate as ev_mod
         patch(ev_mod, "run_chain", chain.run_chain)
         for name, proj in projects:

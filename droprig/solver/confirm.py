@@ -171,7 +171,7 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
         # the analysis points' path and member actions, and the edge points' own
         eg = point_geometry(fm, project, ex, ey)
         unit_actions(fm, eg)
-        g = concat_geo([take_geo(geo, row), eg])
+        g = concat_geo([take_geo(geo, row, steps=False), eg])
     x, y, own = np.r_[x, ex], np.r_[y, ey], np.r_[own, eown]
     parts = [_evaluate(fm, project, zone, loads, trials, x, y, own, g)]
     step = fm.settings.grid_resolution

@@ -145,7 +145,9 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         # load-independent actions are computed once and repeated with them
         geo = base if isinstance(base, Geometry) else point_geometry(fm, project, bx, by)
         geo = tile(fm, geo, nl)
-        res = evaluate.evaluate_case(fm, project, loads, geo, li, v_hoist=vh)
+        # the height-free steps are kept with the geometry for the trials
+        # (confirm.py) at these points
+        res = evaluate.evaluate_case(fm, project, loads, geo, li, v_hoist=vh, keep=True)
         geos: list[Geometry] | None = [geo]
     else:  # block by block, each block's path shared by the loads
         res = evaluate.evaluate_points(fm, project, loads, bx, by, v_hoist=vh)
@@ -168,7 +170,7 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         # merged into the sorted known keys (k is sorted: no sort of the whole again)
         known = np.insert(known, np.searchsorted(known, keys[fresh]), keys[fresh])
         geo = point_geometry(fm, project, x, y)
-        r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh)
+        r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True)
         r2["load_index"] = lj
         parts.append(r2)
         if geos is not None:
