@@ -168,14 +168,16 @@ def loadpath_chunk() -> int:
 
 
 def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
-                    x: np.ndarray, y: np.ndarray, *,
-                    v_hoist: float = 0.0) -> dict[str, np.ndarray]:
+                    x: np.ndarray, y: np.ndarray, *, v_hoist: float = 0.0,
+                    load_index: np.ndarray | None = None) -> dict[str, np.ndarray]:
     """Every load at every point, load by load ((len(loads)·n) rows, load-major):
     :func:`point_geometry` and :func:`evaluate_case` block by block on all cores,
     each block's load path and load-independent member actions shared by the loads.
-    The path for large sets of points: nothing of the size of all points is kept
-    but the results. Same values as the two functions called on all points.
-    ``v_hoist``: the hoist's lowering speed at release, m/s."""
+    With ``load_index``, each point with its own load ``loads[load_index]`` instead
+    (n rows, one chain run for all the loads). The path for large sets of points:
+    nothing of the size of all points is kept but the results. Same values as the two
+    functions called on all points. ``v_hoist``: the hoist's lowering speed at
+    release, m/s."""
     memory.keep_freed_memory()
     x = np.asarray(x, float)
     y = np.asarray(y, float)
@@ -183,20 +185,25 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
     if n == 0 or nl == 0:
         return evaluate_case(fm, project, list(loads), point_geometry(fm, project, x, y),
                              np.zeros(0, dtype=np.int64), v_hoist=v_hoist)
+    own = None if load_index is None else np.asarray(load_index, dtype=np.int64)
+    sets = nl if own is None else 1
 
     def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
         geo = point_geometry(fm, project, x[s:e], y[s:e])
         with np.errstate(all="ignore"):
+            if own is not None:
+                return [_outputs(fm, project, loads, geo, own[s:e], v_hoist=v_hoist)]
             return [_outputs(fm, project, ld, geo, None, v_hoist=v_hoist) for ld in loads]
 
     if n <= loadpath_chunk():  # one block: no probe run for the output types
         parts = block(0, n)
-        return {k: np.concatenate([p[k] for p in parts]) if nl > 1 else parts[0][k]
+        return {k: np.concatenate([p[k] for p in parts]) if sets > 1 else parts[0][k]
                 for k in parts[0]}
     with np.errstate(all="ignore"):
-        probe = _outputs(fm, project, loads[0], point_geometry(fm, project, x[:1], y[:1]),
-                         None, v_hoist=v_hoist)
-    return _blockwise(n, nl, loadpath_chunk(), block, probe)
+        probe = _outputs(fm, project, loads if own is not None else loads[0],
+                         point_geometry(fm, project, x[:1], y[:1]),
+                         None if own is None else own[:1], v_hoist=v_hoist)
+    return _blockwise(n, sets, loadpath_chunk(), block, probe)
 
 
 def tile(fm: FloorModel, geo: Geometry, k: int) -> Geometry:
