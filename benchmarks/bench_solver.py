@@ -162,8 +162,12 @@ def bench_steps(projects, runs: int) -> dict[str, dict[str, float]]:
     N: dict[str, float] = {}
     saved: list[tuple[object, str, object]] = []
 
+    rows_in: dict[str, float] = {}
+
     def timed(label: str, fn):
         def w(*a, **k):
+            if label.startswith("step "):  # the points each step works on
+                rows_in[label] = rows_in.get(label, 0.0) + a[0].drop.n
             t = time.perf_counter()
             try:
                 return fn(*a, **k)
@@ -203,6 +207,7 @@ def bench_steps(projects, runs: int) -> dict[str, dict[str, float]]:
             analysis.analyse(proj)
             T.clear()
             N.clear()
+            rows_in.clear()
             pts["n"] = 0
             t = time.perf_counter()
             for _ in range(runs):
@@ -212,6 +217,7 @@ def bench_steps(projects, runs: int) -> dict[str, dict[str, float]]:
             res["total"] = total
             res["chain runs per analysis"] = N.get("chain runs", 0.0) / runs
             res["points per analysis"] = pts["n"] / runs
+            res["step points"] = {k: v / runs for k, v in rows_in.items()}
             out[name] = res
     finally:
         for obj, name, old in reversed(saved):
@@ -389,11 +395,13 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
               f"chain runs, {r['points per analysis']:.0f} points × loads; one run "
               f"{r['run_10_points'] * 1e3:.1f} ms on 10 points + "
               f"{r['per_point_beyond'] * 1e6:.2f} µs a point")
+        sp = r.get("step points", {})
         rows = sorted(((k, v) for k, v in r.items() if k not in (
             "total", "chain runs per analysis", "points per analysis", "run_10_points",
-            "per_point_beyond")), key=lambda kv: -kv[1])
+            "per_point_beyond", "step points")), key=lambda kv: -kv[1])
         for k, v in rows:
-            print(f"      {k:40s} {v * 1e3:7.2f} ms")
+            pts_k = f"  ({sp[k]:.0f} points)" if k in sp else ""
+            print(f"      {k:40s} {v * 1e3:7.2f} ms{pts_k}")
     n = 100_000 if q else 1_000_000
     mil = bench_million(proj0, n)
     out["million"] = mil
