@@ -44,7 +44,13 @@ import numpy as np
 from droprig.model import LiftLoad, LiftZone, Project, Rect, bays
 from droprig.solver import cancel, droppoints, evaluate
 from droprig.solver.floor import FloorModel
-from droprig.solver.geometry import Geometry, concat_geo, point_geometry, take_geo
+from droprig.solver.geometry import (
+    Geometry,
+    concat_geo,
+    distinct_point_geometry,
+    point_geometry,
+    take_geo,
+)
 from droprig.solver.loadpath import locate
 from droprig.solver.refine import severity
 from droprig.solver.results import (
@@ -169,7 +175,7 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     g = None
     if geo is not None:
         # the analysis points' path and member actions, and the edge points' own
-        eg = point_geometry(fm, project, ex, ey)
+        eg = distinct_point_geometry(fm, project, ex, ey)
         unit_actions(fm, eg)
         g = concat_geo([take_geo(geo, row, steps=False), eg])
     x, y, own = np.r_[x, ex], np.r_[y, ey], np.r_[own, eown]
@@ -269,8 +275,8 @@ def _evaluate(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     li = np.array([tr.load for tr in trials], dtype=np.int64)[own]
     H = np.array([tr.H for tr in trials])[own]
     mk = np.array([tr.value if tr.kind == "mat" else np.nan for tr in trials])[own]
-    if geo is None:
-        geo = point_geometry(fm, project, x, y)
+    if geo is None:  # trials of one bay often refine around the same points
+        geo = distinct_point_geometry(fm, project, x, y)
     r = _forward(fm, project, zone, loads, geo, li, H,
                  mk if np.isfinite(mk).any() else None)
     keep = ("x", "y", "response", "utilisation", "peak_force", "allowable_drop_height",

@@ -16,9 +16,10 @@ from droprig.solver.floor import FloorModel
 from droprig.solver.loadpath import PathResult
 from droprig.solver.loadpath import evaluate as evaluate_path
 from droprig.solver.reference import path_reference, reference_unit_actions
-from droprig.solver.unit_actions import UnitActions
+from droprig.solver.unit_actions import UnitActions, unit_actions
 
-__all__ = ["Geometry", "KeptSteps", "concat_geo", "point_geometry", "slice_geo", "take_geo"]
+__all__ = ["Geometry", "KeptSteps", "concat_geo", "distinct_point_geometry", "point_geometry",
+           "slice_geo", "take_geo"]
 
 
 @dataclass(frozen=True, eq=False)
@@ -144,6 +145,24 @@ def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarra
     if reference and fm.tables is not None:
         geo.cache["ua"] = reference_unit_actions(fm, path)
     return geo
+
+
+def distinct_point_geometry(fm: FloorModel, project: Project, x: np.ndarray,
+                            y: np.ndarray) -> Geometry:
+    """:func:`point_geometry` of points among which some repeat (the same x and y: the
+    lattices of several trials refined around one worst point, or of several loads
+    around one point), with the load path and the member actions
+    (:func:`~droprig.solver.unit_actions.unit_actions`) of each distinct point worked
+    out once and taken for its repeats (:func:`take_geo`): the same values, row for
+    row (both are per point)."""
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    _, first, inv = np.unique(x + 1j * y, return_index=True, return_inverse=True)
+    if first.size == x.size:
+        return point_geometry(fm, project, x, y)
+    geo = point_geometry(fm, project, x[first], y[first])
+    unit_actions(fm, geo)
+    return take_geo(geo, inv.ravel())
 
 
 def slice_geo(geo: Geometry, sl: slice) -> Geometry:

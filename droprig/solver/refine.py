@@ -14,7 +14,12 @@ from droprig.model import LiftZone, Project
 from droprig.solver import droppoints, evaluate
 from droprig.solver.evaluate import tile
 from droprig.solver.floor import FloorModel
-from droprig.solver.geometry import Geometry, concat_geo, point_geometry
+from droprig.solver.geometry import (
+    Geometry,
+    concat_geo,
+    distinct_point_geometry,
+    point_geometry,
+)
 from droprig.solver.loadpath import locate
 
 __all__ = ["REFINE_PASSES", "REFINE_TOP", "severity", "zone_points", "zone_points_geometry"]
@@ -169,7 +174,7 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         x, y, lj = x[new], y[new], lj[new]
         # merged into the sorted known keys (k is sorted: no sort of the whole again)
         known = np.insert(known, np.searchsorted(known, keys[fresh]), keys[fresh])
-        geo = point_geometry(fm, project, x, y)
+        geo = distinct_point_geometry(fm, project, x, y)  # a point refined for each load
         r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True)
         r2["load_index"] = lj
         parts.append(r2)

@@ -171,3 +171,24 @@ def test_analysis_with_kept_steps_equals_the_analysis_without(path: Path,
             else:
                 assert va == vb, f.name
     assert got.bays == ref.bays
+
+
+@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
+def test_repeated_points_take_the_geometry_of_their_first(path: Path) -> None:
+    # trials refine around the same worst points: each distinct point's path and
+    # member actions are worked out once and taken for its repeats, bit for bit those
+    # worked out at every row
+    p = load_project(path)
+    fm = floor.floor_cache(p)(p.lift_zones[0].level_id)
+    e = fm.level.grid.extent
+    rng = np.random.default_rng(5)
+    x0, y0 = rng.uniform(e.x0, e.x1, 60), rng.uniform(e.y0, e.y1, 60)
+    pick = rng.integers(0, 60, 200)
+    x, y = x0[pick], y0[pick]
+    got = geometry.distinct_point_geometry(fm, p, x, y)
+    fresh = geometry.point_geometry(fm, p, x, y)
+    _same_geo(got, fresh)
+    _same_actions(got.cache["ua"], unit_actions(fm, fresh))
+    # no repeats: the plain geometry
+    once = geometry.distinct_point_geometry(fm, p, x0, y0)
+    _same_geo(once, geometry.point_geometry(fm, p, x0, y0))
