@@ -162,14 +162,19 @@ def bench_steps(projects, runs: int) -> dict[str, dict[str, float]]:
     N: dict[str, float] = {}
     saved: list[tuple[object, str, object]] = []
 
+    rows_in: dict[str, float] = {}
+
     def timed(label: str, fn):
         def w(*a, **k):
+            if label.startswith("step "):  # the points each step works on
+                rows_in[label] = rows_in.get(label, 0.0) + a[0].drop.n
             t = time.perf_counter()
             try:
                 return fn(*a, **k)
             finally:
                 T[label] = T.get(label, 0.0) + time.perf_counter() - t
                 N[label] = N.get(label, 0.0) + 1
+        w.__name__ = getattr(fn, "__name__", label)  # chain.HEIGHT_FREE finds steps by name
         return w
 
     def patch(obj: object, name: str, new: object) -> None:
@@ -194,13 +199,15 @@ def bench_steps(projects, runs: int) -> dict[str, dict[str, float]]:
                 if getattr(om, fn, None) is getattr(m, fn):
                     patch(om, fn, f)
         run = chain.run_chain
-        patch(chain, "run_chain", timed("chain runs", lambda d: count_points(run(d))))
+        patch(chain, "run_chain", timed("chain runs",
+                                         lambda d, given=None: count_points(run(d, given))))
         from droprig.solver import evaluate as ev_mod
         patch(ev_mod, "run_chain", chain.run_chain)
         for name, proj in projects:
             analysis.analyse(proj)
             T.clear()
             N.clear()
+            rows_in.clear()
             pts["n"] = 0
             t = time.perf_counter()
             for _ in range(runs):
@@ -210,6 +217,7 @@ def bench_steps(projects, runs: int) -> dict[str, dict[str, float]]:
             res["total"] = total
             res["chain runs per analysis"] = N.get("chain runs", 0.0) / runs
             res["points per analysis"] = pts["n"] / runs
+            res["step points"] = {k: v / runs for k, v in rows_in.items()}
             out[name] = res
     finally:
         for obj, name, old in reversed(saved):
@@ -387,11 +395,13 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
               f"chain runs, {r['points per analysis']:.0f} points × loads; one run "
               f"{r['run_10_points'] * 1e3:.1f} ms on 10 points + "
               f"{r['per_point_beyond'] * 1e6:.2f} µs a point")
+        sp = r.get("step points", {})
         rows = sorted(((k, v) for k, v in r.items() if k not in (
             "total", "chain runs per analysis", "points per analysis", "run_10_points",
-            "per_point_beyond")), key=lambda kv: -kv[1])
+            "per_point_beyond", "step points")), key=lambda kv: -kv[1])
         for k, v in rows:
-            print(f"      {k:40s} {v * 1e3:7.2f} ms")
+            pts_k = f"  ({sp[k]:.0f} points)" if k in sp else ""
+            print(f"      {k:40s} {v * 1e3:7.2f} ms{pts_k}")
     n = 100_000 if q else 1_000_000
     mil = bench_million(proj0, n)
     out["million"] = mil

@@ -48,7 +48,7 @@ from __future__ import annotations
 
 import threading
 from collections import OrderedDict
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 from dataclasses import fields, replace
 
 import numpy as np
@@ -154,63 +154,96 @@ def analyse_zone(project: Project, zone_id: str,
         # forward chain before it is printed
         summaries = confirm_zone(fm, project, zone, allres, geo, cases_and_bays)
     cases = list(zone_cases)
-    for load, case in zip(zone.loads, zone_cases, strict=True):
-        if below is not None:
-            falls.extend(cascade_down(project, zone, load, case, below, floor))
+    if below is not None and zone_cases:
+        falls.extend(cascade_down(project, zone, zone_cases, below, floor))
     if not zone.loads:
         warnings.append(f"zone {zone.id}: no loads to assess")
     warnings.extend(useless_layers(project, zone))
     return Results(tuple(cases), tuple(summaries), tuple(warnings), tuple(falls))
 
 
-def cascade_down(project: Project, zone: LiftZone, load: LiftLoad, case: CaseResult,
+def cascade_down(project: Project, zone: LiftZone, cases: Sequence[CaseResult],
                  below: Level, floor: Callable[[str], FloorModel]) -> list[Cascade]:
-    """The falls of a perforating drop level by level: the level below is struck
+    """The falls of every perforating drop of the zone's loads (``cases``: one per load
+    of ``zone.loads``, on the zone's level) level by level: the level below is struck
     (:func:`_cascade`); where that level is perforated too and the project has a
     level under it, the object goes on with its residual speed there, and so on
     while it still perforates. Bounded by the project's levels: each step goes to a
     strictly lower level (:func:`droprig.solver.cascade.level_below`), so at most
-    one fall per level. Each fall is one :class:`Cascade` (from the level it came
-    through to the level it strikes)."""
-    falls: list[Cascade] = []
-    seen = {case.level_id}
+    one fall per load and level. Each fall is one :class:`Cascade` (from the level it
+    came through to the level it strikes); the list holds them load by load, each
+    load's from the top down. The loads falling onto one level are worked out in one
+    run."""
+    per_load: list[list[Cascade]] = [[] for _ in cases]
+    current = list(cases)
+    active = list(range(len(cases)))
+    seen = {case.level_id for case in cases}
     lower: Level | None = below
-    while lower is not None and lower.id not in seen and len(falls) < len(project.levels):
+    steps = 0
+    while active and lower is not None and lower.id not in seen \
+            and steps < len(project.levels):
         cancel.check()
-        fall = _cascade(project, zone, load, case, lower, floor)
-        if fall is None:
-            break
-        falls.append(fall)
+        got = _cascade(project, zone, [zone.loads[j] for j in active],
+                       [current[j] for j in active], lower, floor)
+        still = []
+        for j, fall in zip(active, got, strict=True):
+            if fall is not None:
+                per_load[j].append(fall)
+                current[j] = fall.case
+                still.append(j)
+        active = still
         seen.add(lower.id)
-        case = fall.case
+        steps += 1
         lower = cascade.level_below(project, lower.id)
-    return falls
+    return [fall for falls in per_load for fall in falls]
 
 
-def _cascade(project: Project, zone: LiftZone, load: LiftLoad, case: CaseResult,
-             below: Level, floor: Callable[[str], FloorModel]) -> Cascade | None:
-    """The level below a perforated deck, struck at the perforating points by the
-    same load from the equivalent height h_eq = V_r²/(2g) + Δ (the largest over
-    those points; :mod:`droprig.solver.cascade`), assessed in the same run with its
-    own bay outcomes. ``None`` where nothing perforates."""
-    hit = case.response == PERFORATES
-    if not hit.any():
-        return None
-    level = project.level(case.level_id)
-    h_eq = float(np.nanmax(cascade.equivalent_drop_height_below(
-        case.residual_velocity[hit], level, below)))
-    h_eq = min(max(h_eq, 0.0), 200.0)  # LiftLoad's drop-height range
-    # the height stands for the whole strike speed (the hoist's lowering speed is in
-    # the residual speed already); the evaluation below adds no lowering speed
-    falling = replace(load, drop_height=h_eq, hook_elevation=None, hang_length=0.0)
+def _cascade(project: Project, zone: LiftZone, loads: Sequence[LiftLoad],
+             cases: Sequence[CaseResult], below: Level,
+             floor: Callable[[str], FloorModel]) -> list[Cascade | None]:
+    """The level below a perforated deck, struck at the perforating points of each
+    load's case by the same load from the equivalent height h_eq = V_r²/(2g) + Δ (the
+    largest over those points; :mod:`droprig.solver.cascade`), assessed in the same
+    run with its own bay outcomes: one :class:`Cascade` per load, ``None`` where
+    nothing perforates. Every load's points in one vectorised run, each point with
+    its own load."""
+    falling: list[LiftLoad] = []
+    owner: list[int] = []
+    xs: list[np.ndarray] = []
+    ys: list[np.ndarray] = []
+    for k, (load, case) in enumerate(zip(loads, cases, strict=True)):
+        hit = case.response == PERFORATES
+        if not hit.any():
+            continue
+        level = project.level(case.level_id)
+        h_eq = float(np.nanmax(cascade.equivalent_drop_height_below(
+            case.residual_velocity[hit], level, below)))
+        h_eq = min(max(h_eq, 0.0), 200.0)  # LiftLoad's drop-height range
+        # the height stands for the whole strike speed (the hoist's lowering speed is
+        # in the residual speed already); the evaluation below adds no lowering speed
+        falling.append(replace(load, drop_height=h_eq, hook_elevation=None,
+                               hang_length=0.0))
+        owner.append(k)
+        xs.append(case.x[hit])
+        ys.append(case.y[hit])
+    out: list[Cascade | None] = [None] * len(cases)
+    if not falling:
+        return out
     fm = floor(below.id)
-    res = evaluate.evaluate_points(fm, project, [falling], case.x[hit], case.y[hit])
-    inside = res["bay"] >= 0
-    res = {k: v[inside] for k, v in res.items()}
-    lower = _case_result(zone, falling, below, res)
-    bays_below = summarise(below, zone, falling, lower, res["F_allow"],
-                           lv.id if (lv := cascade.level_below(project, below.id)) else None)
-    return Cascade(zone.id, load.name, level.id, below.id, h_eq, lower, tuple(bays_below))
+    li = np.repeat(np.arange(len(falling)), [x.size for x in xs])
+    res_all = evaluate.evaluate_points(fm, project, falling, np.concatenate(xs),
+                                       np.concatenate(ys), load_index=li)
+    lv = cascade.level_below(project, below.id)
+    for j, k in enumerate(owner):
+        case = cases[k]
+        sel = (li == j) & (res_all["bay"] >= 0)
+        res = {key: v[sel] for key, v in res_all.items()}
+        lower = _case_result(zone, falling[j], below, res)
+        bays_below = summarise(below, zone, falling[j], lower, res["F_allow"],
+                               lv.id if lv is not None else None)
+        out[k] = Cascade(zone.id, loads[k].name, case.level_id, below.id,
+                         float(falling[j].drop_height or 0.0), lower, tuple(bays_below))
+    return out
 
 
 def useless_layers(project: Project, zone: LiftZone) -> list[str]:

@@ -57,7 +57,7 @@ replace it for the steps after it (e.g. a refined :class:`Compliance`).
 
 from __future__ import annotations
 
-from collections.abc import Callable
+from collections.abc import Callable, Mapping
 from dataclasses import dataclass
 from typing import TypeVar, cast
 
@@ -2184,11 +2184,26 @@ STEPS: tuple[Callable[[Chain], object], ...] = (
 """The steps of the chain, in order (each reads only the results before it)."""
 
 
-def run_chain(drop: Drop) -> Chain:
-    """Every step of :data:`STEPS` for ``drop``."""
+HEIGHT_FREE: dict[str, type] = {"compliance": Compliance, "struck_mass": StruckMass,
+                                 "slab_resistance": SlabResistance}
+"""Steps of :data:`STEPS` (by name) and their result types whose values depend on the
+points, the loads, the landing and what lies under the load, but read neither the drop
+height (the trial heights ``Drop.H``, the hoist speed) nor whether the load is hard: a
+trial at points the analysis ran, with no trial mat, takes them from that run
+(:func:`run_chain` ``given``; :class:`droprig.solver.geometry.KeptSteps`)."""
+
+
+def run_chain(drop: Drop, given: Mapping[type, object] | None = None) -> Chain:
+    """Every step of :data:`STEPS` for ``drop``; a step of :data:`HEIGHT_FREE` whose
+    result ``given`` holds (worked out for the same points, loads, landing and
+    protection at another drop height) is taken from it instead of run again."""
     chain = Chain(drop)
     for step in STEPS:
-        chain.add(step(chain))
+        kind = HEIGHT_FREE.get(getattr(step, "__name__", "")) if given else None
+        if given and kind is not None and kind in given:
+            chain.add(given[kind])
+        else:
+            chain.add(step(chain))
     return chain
 
 

@@ -52,7 +52,13 @@ import numpy as np
 from droprig.model import Deck, LiftLoad, LiftZone, Project, Rect, bays
 from droprig.solver import cancel, droppoints, evaluate
 from droprig.solver.floor import FloorModel
-from droprig.solver.geometry import Geometry, concat_geo, point_geometry, take_geo
+from droprig.solver.geometry import (
+    Geometry,
+    concat_geo,
+    distinct_point_geometry,
+    point_geometry,
+    take_geo,
+)
 from droprig.solver.loadpath import locate
 from droprig.solver.local_damage import impact_speed, is_hard, perforation_mass
 from droprig.solver.refine import severity
@@ -219,9 +225,9 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     g = None
     if geo is not None:
         # the analysis points' path and member actions, and the edge points' own
-        eg = point_geometry(fm, project, ex, ey)
+        eg = distinct_point_geometry(fm, project, ex, ey)
         unit_actions(fm, eg)
-        g = concat_geo([take_geo(geo, row), eg])
+        g = concat_geo([take_geo(geo, row, steps=False), eg])
     x, y, own = np.r_[x, ex], np.r_[y, ey], np.r_[own, eown]
     parts = [_evaluate(fm, project, zone, loads, trials, x, y, own, g)]
     step = fm.settings.grid_resolution
@@ -324,8 +330,8 @@ def _evaluate(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
                   dtype=np.int64)[own]
     H = np.array([tr.H for tr in trials])[own]
     mk = np.array([tr.value if tr.kind == "mat" else np.nan for tr in trials])[own]
-    if geo is None:
-        geo = point_geometry(fm, project, x, y)
+    if geo is None:  # trials of one bay often refine around the same points
+        geo = distinct_point_geometry(fm, project, x, y)
     r = _forward(fm, project, zone, loads, geo, li, H,
                  mk if np.isfinite(mk).any() else None)
     keep = ("x", "y", "response", "utilisation", "peak_force", "allowable_drop_height",

@@ -14,9 +14,17 @@ import numpy as np
 
 from droprig.model import LiftLoad, Project
 from droprig.solver import loadpath, memory
-from droprig.solver.chain import FIELDS, Chain, Drop, merge_landings, outputs, run_chain
+from droprig.solver.chain import (
+    FIELDS,
+    HEIGHT_FREE,
+    Chain,
+    Drop,
+    merge_landings,
+    outputs,
+    run_chain,
+)
 from droprig.solver.floor import FloorModel
-from droprig.solver.geometry import Geometry, point_geometry, slice_geo
+from droprig.solver.geometry import Geometry, KeptSteps, point_geometry, slice_geo
 from droprig.solver.loadpath import PathResult
 from droprig.solver.parallel import for_blocks
 from droprig.solver.unit_actions import unit_actions
@@ -60,33 +68,50 @@ def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
              geo: Geometry, load_index: np.ndarray | None, H: np.ndarray | None = None,
              mat_k: np.ndarray | None = None, v_hoist: float = 0.0,
-             trial: bool = False) -> dict[str, np.ndarray]:
+             trial: bool = False, keep: bool = False) -> dict[str, np.ndarray]:
     """The outputs of the flat landing, or with the project setting
     ``tilted_landing`` of both landings merged, the worse governing
-    (:func:`~droprig.solver.chain.merge_landings`)."""
+    (:func:`~droprig.solver.chain.merge_landings`). The height-free steps
+    (:data:`~droprig.solver.chain.HEIGHT_FREE`) are taken from ``geo``'s kept ones
+    where they were kept for this run's loads and rows (:class:`KeptSteps`), and with
+    ``keep`` kept with ``geo`` for later runs."""
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
     loads = _loads(load)
-    flat = outputs(run_chain(Drop(fm, project, geo, loads, li, False, H, mat_k,
-                                  v_hoist=v_hoist, landing="flat", trial=trial)))
-    if not fm.settings.tilted_landing:
-        return flat
-    tilted = outputs(run_chain(Drop(fm, project, geo, loads, li, False, H, mat_k,
-                                    v_hoist=v_hoist, landing="tilted", trial=trial)))
-    return merge_landings(flat, tilted)
+    kept = geo.cache.get("steps")
+    by_landing: dict[str, dict[type, object]] = {}
+
+    def run(landing: str) -> dict[str, np.ndarray]:
+        given = kept.given(loads, li, landing, mat_k) if kept is not None else None
+        c = run_chain(Drop(fm, project, geo, loads, li, False, H, mat_k, v_hoist=v_hoist,
+                           landing=landing, trial=trial), given)
+        if keep:
+            by_landing[landing] = {t: c[t] for t in HEIGHT_FREE.values() if t in c}
+        return outputs(c)
+
+    out = run("flat")
+    if fm.settings.tilted_landing:
+        out = merge_landings(out, run("tilted"))
+    if keep and mat_k is None:
+        geo.cache["steps"] = KeptSteps.of(loads, li, by_landing)
+    return out
 
 
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                   geo: Geometry, load_index: np.ndarray | None = None,
                   H: np.ndarray | None = None, mat_k: np.ndarray | None = None, *,
-                  v_hoist: float = 0.0, trial: bool = False) -> dict[str, np.ndarray]:
+                  v_hoist: float = 0.0, trial: bool = False,
+                  keep: bool = False) -> dict[str, np.ndarray]:
     """The :class:`~droprig.solver.results.CaseResult` arrays of ``load`` at the points
     of ``geo`` under their field names, and ``F_allow`` (N, the elastic allowed force).
 
     ``load`` may be a sequence of loads with ``load_index`` naming the load of each
     point (several cases in one vectorised pass). ``H`` and ``mat_k``: per-point trial
     drop heights and mats; ``v_hoist``: the hoist's lowering speed at release, m/s;
-    ``trial``: a forward run of a condition tried (:class:`~droprig.solver.chain.Drop`)."""
+    ``trial``: a forward run of a condition tried (:class:`~droprig.solver.chain.Drop`);
+    ``keep``: keep the height-free step results with ``geo`` for the trials at its
+    points (:class:`~droprig.solver.geometry.KeptSteps`; one block only — a larger run
+    keeps none)."""
     n = geo.x.size
     memory.keep_freed_memory()
     if n == 0:
@@ -95,7 +120,8 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     chunk = loadpath_chunk()
     with np.errstate(all="ignore"):
         if n <= chunk:
-            return _outputs(fm, project, load, geo, load_index, H, mat_k, v_hoist, trial)
+            return _outputs(fm, project, load, geo, load_index, H, mat_k, v_hoist, trial,
+                            keep)
 
         def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
             sl = slice(s, e)
@@ -142,14 +168,16 @@ def loadpath_chunk() -> int:
 
 
 def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
-                    x: np.ndarray, y: np.ndarray, *,
-                    v_hoist: float = 0.0) -> dict[str, np.ndarray]:
+                    x: np.ndarray, y: np.ndarray, *, v_hoist: float = 0.0,
+                    load_index: np.ndarray | None = None) -> dict[str, np.ndarray]:
     """Every load at every point, load by load ((len(loads)·n) rows, load-major):
     :func:`point_geometry` and :func:`evaluate_case` block by block on all cores,
     each block's load path and load-independent member actions shared by the loads.
-    The path for large sets of points: nothing of the size of all points is kept
-    but the results. Same values as the two functions called on all points.
-    ``v_hoist``: the hoist's lowering speed at release, m/s."""
+    With ``load_index``, each point with its own load ``loads[load_index]`` instead
+    (n rows, one chain run for all the loads). The path for large sets of points:
+    nothing of the size of all points is kept but the results. Same values as the two
+    functions called on all points. ``v_hoist``: the hoist's lowering speed at
+    release, m/s."""
     memory.keep_freed_memory()
     x = np.asarray(x, float)
     y = np.asarray(y, float)
@@ -157,20 +185,25 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
     if n == 0 or nl == 0:
         return evaluate_case(fm, project, list(loads), point_geometry(fm, project, x, y),
                              np.zeros(0, dtype=np.int64), v_hoist=v_hoist)
+    own = None if load_index is None else np.asarray(load_index, dtype=np.int64)
+    sets = nl if own is None else 1
 
     def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
         geo = point_geometry(fm, project, x[s:e], y[s:e])
         with np.errstate(all="ignore"):
+            if own is not None:
+                return [_outputs(fm, project, loads, geo, own[s:e], v_hoist=v_hoist)]
             return [_outputs(fm, project, ld, geo, None, v_hoist=v_hoist) for ld in loads]
 
     if n <= loadpath_chunk():  # one block: no probe run for the output types
         parts = block(0, n)
-        return {k: np.concatenate([p[k] for p in parts]) if nl > 1 else parts[0][k]
+        return {k: np.concatenate([p[k] for p in parts]) if sets > 1 else parts[0][k]
                 for k in parts[0]}
     with np.errstate(all="ignore"):
-        probe = _outputs(fm, project, loads[0], point_geometry(fm, project, x[:1], y[:1]),
-                         None, v_hoist=v_hoist)
-    return _blockwise(n, nl, loadpath_chunk(), block, probe)
+        probe = _outputs(fm, project, loads if own is not None else loads[0],
+                         point_geometry(fm, project, x[:1], y[:1]),
+                         None if own is None else own[:1], v_hoist=v_hoist)
+    return _blockwise(n, sets, loadpath_chunk(), block, probe)
 
 
 def tile(fm: FloorModel, geo: Geometry, k: int) -> Geometry:

@@ -5,19 +5,21 @@ SI units (m)."""
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass, field, fields, replace
 
 import numpy as np
 
-from droprig.model import Project
+from droprig.model import LiftLoad, Project
 from droprig.solver import droppoints, memory
 from droprig.solver.floor import FloorModel
 from droprig.solver.loadpath import PathResult
 from droprig.solver.loadpath import evaluate as evaluate_path
 from droprig.solver.reference import path_reference, reference_unit_actions
-from droprig.solver.unit_actions import UnitActions
+from droprig.solver.unit_actions import UnitActions, unit_actions
 
-__all__ = ["Geometry", "concat_geo", "point_geometry", "slice_geo", "take_geo"]
+__all__ = ["Geometry", "KeptSteps", "concat_geo", "distinct_point_geometry", "point_geometry",
+           "slice_geo", "take_geo"]
 
 
 @dataclass(frozen=True, eq=False)
@@ -31,6 +33,84 @@ class Geometry:
     protection: np.ndarray
     opening: np.ndarray
     cache: dict = field(default_factory=dict, repr=False)
+
+
+def _rows(result: object, pick: Callable[[np.ndarray], np.ndarray], n: int) -> object:
+    """A step result (a frozen dataclass of per-point arrays) with ``pick`` applied to
+    every array field; each must hold one row per point (``n``) along its first axis."""
+    change = {}
+    for f in fields(result):  # type: ignore[arg-type]
+        v = getattr(result, f.name)
+        if isinstance(v, np.ndarray):
+            if v.ndim == 0 or v.shape[0] != n:
+                raise ValueError(f"{type(result).__name__}.{f.name}: not one row per point")
+            change[f.name] = pick(v)
+    return replace(result, **change)  # type: ignore[type-var]
+
+
+def _hard_free(loads: Sequence[LiftLoad]) -> tuple[LiftLoad, ...]:
+    return tuple(ld if ld.hard is False else replace(ld, hard=False) for ld in loads)
+
+
+@dataclass(frozen=True, eq=False)
+class KeptSteps:
+    """The results of the chain's height-free steps
+    (:data:`droprig.solver.chain.HEIGHT_FREE`) at the points of a geometry, row for
+    row, kept with it by the analysis run that worked them out: the loads of that run
+    (``loads``, their hardness set aside: those steps do not read it), each row's load
+    index ``li``, and per landing (``flat``, ``tilted``) the results by type. A later
+    run at the same rows, loads and landing with no trial mat takes them
+    (:meth:`given`) instead of working them out again at its own drop height."""
+
+    loads: tuple[LiftLoad, ...]
+    li: np.ndarray
+    by_landing: dict[str, dict[type, object]]
+
+    @staticmethod
+    def of(loads: Sequence[LiftLoad], li: np.ndarray,
+           by_landing: dict[str, dict[type, object]]) -> KeptSteps:
+        return KeptSteps(_hard_free(loads), np.asarray(li), by_landing)
+
+    def given(self, loads: Sequence[LiftLoad], li: np.ndarray, landing: str,
+              mat_k: np.ndarray | None) -> dict[type, object] | None:
+        """The kept results for a run of ``loads[li]`` on ``landing`` (``None`` where
+        the run is not the kept one's: other loads or rows, or a trial mat laid)."""
+        got = self.by_landing.get(landing)
+        if got is None or mat_k is not None or li.shape != self.li.shape \
+                or _hard_free(loads) != self.loads or not np.array_equal(li, self.li):
+            return None
+        return got
+
+    def per_point(self, pick: Callable[[np.ndarray], np.ndarray]) -> KeptSteps:
+        """These results with ``pick`` applied to every per-point array."""
+        n = self.li.size
+        return KeptSteps(self.loads, pick(self.li),
+                         {k: {t: _rows(r, pick, n) for t, r in d.items()}
+                          for k, d in self.by_landing.items()})
+
+    @staticmethod
+    def concat(parts: Sequence[KeptSteps]) -> KeptSteps | None:
+        """The results of several sets of points one after the other (``None`` where
+        they were kept for other loads, landings or steps)."""
+        first = parts[0]
+        if any(p.loads != first.loads or p.by_landing.keys() != first.by_landing.keys()
+               or any(p.by_landing[k].keys() != first.by_landing[k].keys()
+                      for k in first.by_landing) for p in parts):
+            return None
+        by: dict[str, dict[type, object]] = {}
+        for k, d in first.by_landing.items():
+            by[k] = {}
+            for t, r in d.items():
+                rs = [p.by_landing[k][t] for p in parts]
+                change = {}
+                for f in fields(r):  # type: ignore[arg-type]
+                    vs = [getattr(x, f.name) for x in rs]
+                    if all(isinstance(v, np.ndarray) for v in vs):
+                        change[f.name] = np.concatenate(vs)
+                    elif any(isinstance(v, np.ndarray) for v in vs):
+                        return None  # an array in some parts only (None in others)
+                by[k][t] = replace(r, **change)  # type: ignore[type-var]
+        return KeptSteps(first.loads, np.concatenate([p.li for p in parts]), by)
 
 
 def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarray, *,
@@ -67,6 +147,24 @@ def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarra
     return geo
 
 
+def distinct_point_geometry(fm: FloorModel, project: Project, x: np.ndarray,
+                            y: np.ndarray) -> Geometry:
+    """:func:`point_geometry` of points among which some repeat (the same x and y: the
+    lattices of several trials refined around one worst point, or of several loads
+    around one point), with the load path and the member actions
+    (:func:`~droprig.solver.unit_actions.unit_actions`) of each distinct point worked
+    out once and taken for its repeats (:func:`take_geo`): the same values, row for
+    row (both are per point)."""
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    _, first, inv = np.unique(x + 1j * y, return_index=True, return_inverse=True)
+    if first.size == x.size:
+        return point_geometry(fm, project, x, y)
+    geo = point_geometry(fm, project, x[first], y[first])
+    unit_actions(fm, geo)
+    return take_geo(geo, inv.ravel())
+
+
 def slice_geo(geo: Geometry, sl: slice) -> Geometry:
     p = geo.path
     path = PathResult(**{f: getattr(p, f)[sl] for f in p.__dataclass_fields__})
@@ -76,11 +174,13 @@ def slice_geo(geo: Geometry, sl: slice) -> Geometry:
 
 
 
-def take_geo(geo: Geometry, idx: np.ndarray) -> Geometry:
+def take_geo(geo: Geometry, idx: np.ndarray, *, steps: bool = True) -> Geometry:
     """The points ``idx`` of ``geo`` (rows in that order), with the load-independent
     member actions taken along where ``geo`` has them: the same values as
     :func:`point_geometry` and :func:`~droprig.solver.unit_actions.unit_actions` at
-    those points, without working them out again (every quantity is per point)."""
+    those points, without working them out again (every quantity is per point); with
+    ``steps``, the chain's height-free step results kept with ``geo``
+    (:class:`KeptSteps`) too."""
     p = geo.path
     path = PathResult(**{f: getattr(p, f)[idx] for f in p.__dataclass_fields__})
     out = Geometry(geo.x[idx], geo.y[idx], path, geo.bay[idx], geo.protection[idx],
@@ -88,6 +188,9 @@ def take_geo(geo: Geometry, idx: np.ndarray) -> Geometry:
     ua = geo.cache.get("ua")
     if ua is not None:
         out.cache["ua"] = ua.take(idx)
+    kept = geo.cache.get("steps")
+    if steps and kept is not None:
+        out.cache["steps"] = kept.per_point(lambda a: a[idx])
     return out
 
 
@@ -108,4 +211,9 @@ def concat_geo(parts: list[Geometry]) -> Geometry:
         ua = UnitActions.concat([u for u in uas if u is not None])
         if ua is not None:
             out.cache["ua"] = ua
+    kept = [g.cache.get("steps") for g in parts]
+    if all(k is not None for k in kept):
+        both = KeptSteps.concat([k for k in kept if k is not None])
+        if both is not None:
+            out.cache["steps"] = both
     return out

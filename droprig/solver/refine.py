@@ -14,7 +14,12 @@ from droprig.model import LiftZone, Project
 from droprig.solver import droppoints, evaluate
 from droprig.solver.evaluate import tile
 from droprig.solver.floor import FloorModel
-from droprig.solver.geometry import Geometry, concat_geo, point_geometry
+from droprig.solver.geometry import (
+    Geometry,
+    concat_geo,
+    distinct_point_geometry,
+    point_geometry,
+)
 from droprig.solver.loadpath import locate
 
 __all__ = ["REFINE_PASSES", "REFINE_TOP", "severity", "zone_points", "zone_points_geometry"]
@@ -145,7 +150,9 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         # load-independent actions are computed once and repeated with them
         geo = base if isinstance(base, Geometry) else point_geometry(fm, project, bx, by)
         geo = tile(fm, geo, nl)
-        res = evaluate.evaluate_case(fm, project, loads, geo, li, v_hoist=vh)
+        # the height-free steps are kept with the geometry for the trials
+        # (confirm.py) at these points
+        res = evaluate.evaluate_case(fm, project, loads, geo, li, v_hoist=vh, keep=True)
         geos: list[Geometry] | None = [geo]
     else:  # block by block, each block's path shared by the loads
         res = evaluate.evaluate_points(fm, project, loads, bx, by, v_hoist=vh)
@@ -167,8 +174,8 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         x, y, lj = x[new], y[new], lj[new]
         # merged into the sorted known keys (k is sorted: no sort of the whole again)
         known = np.insert(known, np.searchsorted(known, keys[fresh]), keys[fresh])
-        geo = point_geometry(fm, project, x, y)
-        r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh)
+        geo = distinct_point_geometry(fm, project, x, y)  # a point refined for each load
+        r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True)
         r2["load_index"] = lj
         parts.append(r2)
         if geos is not None:

@@ -162,3 +162,41 @@ def test_the_cascade_stops_where_the_drop_no_longer_perforates() -> None:
             assert (src.case.response == PERFORATES).any()
         else:
             assert f.level_id == "L3"
+
+
+def test_the_loads_falling_together_fall_as_each_alone() -> None:
+    # every load of a zone falls onto a level in one vectorised run (each point with
+    # its own load): the falls equal those of each load's case let fall alone, load by
+    # load and level by level (a property of the implementation, no engineering
+    # source; the invented three-level project of the tests above)
+    from dataclasses import fields, replace
+
+    from droprig.solver import analyse
+    from droprig.solver.analysis import cascade_down
+    from droprig.solver.floor import floor_cache
+
+    project = _three_levels()
+    res = analyse(project)
+    zone = project.lift_zones[0]
+    assert len(zone.loads) >= 2
+    floor = floor_cache(project)
+    below = cascade.level_below(project, zone.level_id)
+    assert below is not None
+    cases = [c for c in res.cases if c.zone_id == zone.id]
+    both = cascade_down(project, zone, cases, below, floor)
+    alone = []
+    for ld, case in zip(zone.loads, cases, strict=True):
+        alone.extend(cascade_down(project, replace(zone, loads=(ld,)), [case], below, floor))
+    assert len({f.load_name for f in both}) >= 2, "both loads perforate the roof"
+    assert any(f.level_id == "L2" for f in both)
+    assert [(f.load_name, f.from_level, f.level_id) for f in both] == \
+        [(f.load_name, f.from_level, f.level_id) for f in alone]
+    for a, b in zip(both, alone, strict=True):
+        assert a.equivalent_height == b.equivalent_height
+        assert a.bays == b.bays
+        for f in fields(a.case):
+            va, vb = getattr(a.case, f.name), getattr(b.case, f.name)
+            if isinstance(va, np.ndarray):
+                assert np.array_equal(va, vb, equal_nan=True), f.name
+            else:
+                assert va == vb, f.name

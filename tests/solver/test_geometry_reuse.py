@@ -59,3 +59,136 @@ def test_taken_and_joined_points_equal_points_worked_out_afresh(path: Path) -> N
     _same_geo(taken, fresh)
     assert "ua" in taken.cache
     _same_actions(taken.cache["ua"], unit_actions(fm, fresh))
+
+
+def _same_outputs(a: dict[str, np.ndarray], b: dict[str, np.ndarray]) -> None:
+    assert set(a) == set(b)
+    for k in a:
+        assert np.array_equal(a[k], b[k], equal_nan=True), k
+
+
+@pytest.mark.parametrize("tilted", [False, True], ids=["flat", "flat+tilted"])
+@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
+def test_kept_height_free_steps_give_the_run_worked_out_afresh(path: Path,
+                                                               tilted: bool) -> None:
+    # the analysis keeps compliance, struck mass and slab resistance with its points
+    # (evaluate_case keep=True); a trial at those points at other heights, with its
+    # loads made not hard, takes them (chain.HEIGHT_FREE): every output equals the run
+    # that works them out afresh, bit for bit
+    from dataclasses import replace
+
+    from droprig.solver import chain, evaluate
+
+    p = load_project(path)
+    p = replace(p, settings=replace(p.settings, tilted_landing=tilted))
+    zone = p.lift_zones[0]
+    fm = floor.floor_cache(p)(zone.level_id)
+    e = fm.level.grid.extent
+    rng = np.random.default_rng(11)
+    loads = list(zone.loads)
+    parts, lis = [], []
+    for n in (300, 41):
+        g = geometry.point_geometry(fm, p, rng.uniform(e.x0, e.x1, n),
+                                    rng.uniform(e.y0, e.y1, n))
+        li = rng.integers(0, len(loads), n)
+        evaluate.evaluate_case(fm, p, loads, g, li, v_hoist=zone.hoist_speed, keep=True)
+        assert isinstance(g.cache.get("steps"), geometry.KeptSteps)
+        parts.append(g)
+        lis.append(li)
+    joined = geometry.concat_geo(parts)
+    li_all = np.concatenate(lis)
+    idx = rng.integers(0, joined.x.size, 250)
+    taken = geometry.take_geo(joined, idx)
+    trial_loads = [replace(ld, hard=False) for ld in loads]
+    H = rng.uniform(0.05, 8.0, idx.size)
+    assert taken.cache["steps"].given(trial_loads, li_all[idx], "flat", None) is not None
+    fresh = geometry.point_geometry(fm, p, joined.x[idx], joined.y[idx])
+    assert "steps" not in fresh.cache
+    with np.errstate(all="ignore"):
+        got = evaluate.evaluate_case(fm, p, trial_loads, taken, li_all[idx], H=H,
+                                     trial=True, v_hoist=zone.hoist_speed)
+        ref = evaluate.evaluate_case(fm, p, trial_loads, fresh, li_all[idx], H=H,
+                                     trial=True, v_hoist=zone.hoist_speed)
+    _same_outputs(got, ref)
+    # and the kept results are those a fresh run works out
+    d = chain.Drop(fm, p, fresh, tuple(trial_loads), li_all[idx], H=H, trial=True)
+    with np.errstate(all="ignore"):
+        c = chain.run_chain(d)
+    kept = taken.cache["steps"].by_landing["flat"]
+    for t in chain.HEIGHT_FREE.values():
+        for f in t.__dataclass_fields__:
+            a, b = getattr(kept[t], f), getattr(c[t], f)
+            assert (a is None and b is None) or np.array_equal(a, b, equal_nan=True), f
+
+
+def test_kept_steps_are_not_given_to_another_run() -> None:
+    # a trial mat changes the compliance and the struck mass; other loads or rows
+    # are another run
+    from dataclasses import replace
+
+    from droprig.solver import evaluate
+
+    p = load_project(DEMOS[0])
+    zone = p.lift_zones[0]
+    fm = floor.floor_cache(p)(zone.level_id)
+    e = fm.level.grid.extent
+    rng = np.random.default_rng(3)
+    g = geometry.point_geometry(fm, p, rng.uniform(e.x0, e.x1, 50),
+                                rng.uniform(e.y0, e.y1, 50))
+    li = np.zeros(50, dtype=np.int64)
+    evaluate.evaluate_case(fm, p, list(zone.loads), g, li, keep=True)
+    kept = g.cache["steps"]
+    assert kept.given(zone.loads, li, "flat", None) is not None
+    assert kept.given(zone.loads, li, "flat", np.full(50, 1e6)) is None
+    assert kept.given(zone.loads, li, "tilted", None) is None
+    assert kept.given(zone.loads, li[:49], "flat", None) is None
+    heavier = [replace(ld, mass=ld.mass * 2) for ld in zone.loads]
+    assert kept.given(heavier, li, "flat", None) is None
+    # a mat trial keeps nothing either
+    g2 = geometry.point_geometry(fm, p, g.x, g.y)
+    evaluate.evaluate_case(fm, p, list(zone.loads), g2, li, mat_k=np.full(50, 1e6),
+                           keep=True)
+    assert "steps" not in g2.cache
+
+
+@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
+def test_analysis_with_kept_steps_equals_the_analysis_without(path: Path,
+                                                              monkeypatch) -> None:
+    from dataclasses import fields
+
+    from droprig.solver import analysis, chain
+
+    p = load_project(path)
+    got = analysis.analyse(p)
+    monkeypatch.setattr(chain, "HEIGHT_FREE", {})
+    ref = analysis.analyse(p)
+    assert len(got.cases) == len(ref.cases)
+    for a, b in zip(got.cases, ref.cases, strict=True):
+        for f in fields(a):
+            va, vb = getattr(a, f.name), getattr(b, f.name)
+            if isinstance(va, np.ndarray):
+                assert np.array_equal(va, vb, equal_nan=True), f.name
+            else:
+                assert va == vb, f.name
+    assert got.bays == ref.bays
+
+
+@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
+def test_repeated_points_take_the_geometry_of_their_first(path: Path) -> None:
+    # trials refine around the same worst points: each distinct point's path and
+    # member actions are worked out once and taken for its repeats, bit for bit those
+    # worked out at every row
+    p = load_project(path)
+    fm = floor.floor_cache(p)(p.lift_zones[0].level_id)
+    e = fm.level.grid.extent
+    rng = np.random.default_rng(5)
+    x0, y0 = rng.uniform(e.x0, e.x1, 60), rng.uniform(e.y0, e.y1, 60)
+    pick = rng.integers(0, 60, 200)
+    x, y = x0[pick], y0[pick]
+    got = geometry.distinct_point_geometry(fm, p, x, y)
+    fresh = geometry.point_geometry(fm, p, x, y)
+    _same_geo(got, fresh)
+    _same_actions(got.cache["ua"], unit_actions(fm, fresh))
+    # no repeats: the plain geometry
+    once = geometry.distinct_point_geometry(fm, p, x0, y0)
+    _same_geo(once, geometry.point_geometry(fm, p, x0, y0))
