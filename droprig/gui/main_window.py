@@ -21,7 +21,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from PySide6.QtCore import QByteArray, QSettings, Qt
+from PySide6.QtCore import QByteArray, QSettings, QSize, Qt
 from PySide6.QtGui import QCloseEvent
 from PySide6.QtWidgets import QMainWindow, QMenu, QMessageBox, QWidget
 
@@ -229,6 +229,7 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
         if isinstance(geo, QByteArray | bytes) and geo:
             self.restoreGeometry(QByteArray(geo))
             self._fit_to_screen()
+            self._restore_size(self.qsettings.value(f"{key}/size"))
         else:  # 1600 × 1000, or what the screen has room for
             avail = self.screen().availableGeometry() if self.screen() else None
             w = min(1600, int(avail.width() * 0.96)) if avail else 1600
@@ -259,9 +260,25 @@ class MainWindow(FilesMixin, EditsMixin, AnalysisMixin, PanelsMixin, ActionsMixi
         if (x, y) != (self.x(), self.y()):
             self.move(x, y)
 
+    def _restore_size(self, saved: object) -> None:
+        """The saved window size, cut to the screen: Qt's restoreGeometry shrinks a
+        window saved larger than the screen to two thirds of it (a 1600 × 1000
+        window reopened on a 1280 × 720 screen came back 853 × 480), so the size is
+        kept apart and taken up to what the screen has room for."""
+        scr = self.screen()
+        if scr is None or not isinstance(saved, QSize) or not saved.isValid():
+            return
+        avail = scr.availableGeometry()
+        w = min(saved.width(), avail.width())
+        h = min(saved.height(), avail.height())
+        if (w, h) != (self.width(), self.height()):
+            self.resize(max(w, 640), max(h, 360))
+            self._fit_to_screen()
+
     def save_window_state(self) -> None:
         key = self._geometry_key()
         self.qsettings.setValue(f"{key}/geometry", self.saveGeometry())
+        self.qsettings.setValue(f"{key}/size", self.size())
         self.qsettings.setValue(f"{key}/state", self.saveState())
         self.qsettings.setValue("view/overlay", self.plan.overlay)
         self.qsettings.sync()
