@@ -17,7 +17,7 @@ import numpy as np
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from droprig.solver import struck_mass  # noqa: E402
+from droprig.solver import struck_mass
 
 
 def main() -> None:

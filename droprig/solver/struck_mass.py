@@ -573,6 +573,13 @@ def _envelope() -> tuple[np.ndarray, np.ndarray]:
     return Ff, Fc
 
 
+@functools.lru_cache(maxsize=1)
+def _log_envelope() -> tuple[np.ndarray, np.ndarray]:
+    """ln of the stored envelope (framing, contact), flattened."""
+    Ff, Fc = _envelope()
+    return np.log(Ff).ravel(), np.log(Fc).ravel()
+
+
 def _cell(lg: np.ndarray, start: float, step: float, n: int
           ) -> tuple[np.ndarray, np.ndarray]:
     """Lower node (of ``n``, clamped to the table's edge cells) and the position in
@@ -616,9 +623,9 @@ def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
     result is."""
     W, h, fc, ff, m2 = np.broadcast_arrays(*(np.asarray(v, float)
                                              for v in (W, h, f_contact, f_frame, m2)))
-    Ftab, Ctab = _envelope()
+    LF, LC = _log_envelope()
     (m0, _, dm), (k0, _, dk), (h0, _, dh) = ENVELOPE_GRID
-    nm, nk, nh = Ftab.shape  # nodes
+    nm, nk, nh = _envelope()[0].shape  # nodes
     M = W / G
     f = fc + ff
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -640,10 +647,10 @@ def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
     for a, wa in ((0, 1.0 - wi), (1, wi)):
         for b, wb in ((0, 1.0 - wj), (1, wj)):
             base = ((i + a) * nk + (j + b)) * nh + k
-            for e, we in ((0, 1.0 - wk), (1, wk)):
-                w = wa * wb * we
-                lf += w * np.log(Ftab.flat[base + e])
-                lc += w * np.log(Ctab.flat[base + e])
+            w1 = wa * wb * wk
+            w0 = wa * wb - w1
+            lf += w0 * LF[base] + w1 * LF[base + 1]
+            lc += w0 * LC[base] + w1 * LC[base + 1]
     Ff = np.exp(lf) * over * W
     Fc = np.exp(lc) * over * c_scale * W
     eta = M / (M + m2)
