@@ -715,7 +715,7 @@ class Impact:
     connections, webs under the load, columns, the slab's yield lines, beyond yield
     and the inverse answers) and ``F_contact`` the force between the load and the
     struck surface (deck flexure and punching, the crushing bound, local damage);
-    both from :func:`droprig.solver.struck_mass.impact_two_forces` where the two-mass
+    both from :func:`droprig.solver.struck_mass.envelope_two_forces` where the two-mass
     idealisation applies (a bare deck and the struck path's mass with the slab,
     ``StruckMass.m2`` > 0), and both today's one force elsewhere (under mats and
     crushable layers, deck-less). ``eta_frame``: the share of the energy that, in
