@@ -1867,7 +1867,20 @@ def inverse_answers(c: Chain) -> InverseAnswers:
             with np.errstate(divide="ignore", invalid="ignore"):
                 return e * energy_fall(sub, hx) / E_lim[idx] - (1.0 + 1e-12)
 
-        h_pl = two_force_height(c, h_pl, within)
+        # where the energy at the elastic allowable height already passes the limit,
+        # the plastic boundary lies below it and the answer is the elastic height
+        # (h_pl = max(h_pl, h_el) below): no search there
+        ask = imp.two_mass & np.isfinite(h_pl) & np.isfinite(h_el) & (h_el > 0.0)
+        if ask.any():
+            ia = np.flatnonzero(ask)
+            below = within(sub_chain(c, ia), ia, h_el[ia]) > 0.0
+            h_pl[ia[below]] = h_el[ia[below]]
+            skip = np.zeros(d.n, dtype=bool)
+            skip[ia[below]] = True
+            h_pl = np.where(skip, h_pl, two_force_height(c, np.where(skip, np.nan, h_pl),
+                                                         within))
+        else:
+            h_pl = two_force_height(c, h_pl, within)
     # what sets the plastic height: the ductility or the rotation limit, or the
     # elastic height where that is larger
     with np.errstate(invalid="ignore"):
