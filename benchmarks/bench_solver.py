@@ -336,6 +336,33 @@ def bench_pynite(project, n_fe: int, n_vec: int) -> dict[str, float]:
             "ratio": per_fe / per_vec, "max_rel_difference": worst}
 
 
+def bench_two_forces(projects: list, runs: int) -> dict[str, dict[str, float]]:
+    """Warm ``analyse()`` of each demo with two forces per point off and on
+    (``chain.TWO_FORCES``), the two timed in turn so that a busy machine weighs on
+    both alike; median seconds."""
+    from droprig.solver import chain
+
+    was = chain.TWO_FORCES
+    out: dict[str, dict[str, float]] = {}
+    try:
+        for name, proj in projects:
+            ts: dict[bool, list[float]] = {False: [], True: []}
+            for flag in (False, True):
+                chain.TWO_FORCES = flag
+                analysis.analyse(proj)
+            for _ in range(runs):
+                for flag in (False, True):
+                    chain.TWO_FORCES = flag
+                    t = time.perf_counter()
+                    analysis.analyse(proj)
+                    ts[flag].append(time.perf_counter() - t)
+            out[name] = {"off": statistics.median(ts[False]),
+                         "on": statistics.median(ts[True])}
+    finally:
+        chain.TWO_FORCES = was
+    return out
+
+
 def main(argv: list[str] | None = None) -> dict[str, object]:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--quick", action="store_true", help="small sizes (smoke run)")
@@ -380,6 +407,13 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
                                "amplification_on_s": amp[True]}
         print(f"   {name}: amplification off {amp[False] * 1e3:.1f} ms, on "
               f"{amp[True] * 1e3:.1f} ms — ratio {amp[True] / amp[False]:.2f} (target ≤ 2)")
+    two = bench_two_forces(projects, 5 if q else 15)
+    out["two_forces"] = two
+    print("\n2a. two forces per point (chain.TWO_FORCES) off / on (warm analyse(), median, "
+          "interleaved)")
+    for name, t in two.items():
+        print(f"   {name}: off {t['off'] * 1e3:.1f} ms, on {t['on'] * 1e3:.1f} ms "
+              f"(× {t['on'] / t['off']:.2f}, target ≤ 1.5)")
     tilt = bench_tilted(projects, 5 if q else 21)
     out["tilted"] = tilt
     print("\n2b. the tilted landing as a second case (warm analyse(), median)")

@@ -17,7 +17,9 @@ Vectorised over drop points. SI units: kg, kg/m, kg/m², m, N, N/m, s, Pa.
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
+from pathlib import Path
 
 import numpy as np
 from numpy.typing import ArrayLike
@@ -27,7 +29,10 @@ from droprig.solver.impact import G
 __all__ = [
     "LOAD_MASS_FACTORS",
     "TwoMassPeaks",
+    "build_envelope",
     "distributed_mass_per_length",
+    "energy_bounds",
+    "envelope_two_forces",
     "slab_mass_per_area",
     "two_mass_impact",
     "two_mass_peaks",
@@ -85,9 +90,6 @@ method on the sampled peak)."""
 SLOW_SAMPLES = 16
 """Samples of a contact over one period of the slow mode (the fast mode's ripple there
 is added as its amplitude: an upper bound)."""
-GAP_SAMPLES = 48
-"""Samples of the free flight between contacts (the first sign change of the gap is
-refined by the secant method)."""
 EPISODES = 8
 """Contacts followed at most (each later one only for the points whose load catches
 the struck structure again within two periods of the slow mode)."""
@@ -253,39 +255,75 @@ def _episode(M, kc, m2, k2, W, modes, state):
     return F_pk, X_pk, sep, ts, out
 
 
+CATCH_STEPS = 400
+"""Steps at most of :func:`_catch_up`'s safe advance (a point not caught by then is
+taken as not caught within the horizon)."""
+
+
 def _catch_up(x1: np.ndarray, v1: np.ndarray, x2: np.ndarray, v2: np.ndarray,
               wf: np.ndarray, left: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """First time τ in (0, left] (s) at which the falling load x1 + v1·τ + g·τ²/2
     reaches the freely vibrating structure x2·cos(ωτ) + (v2/ω)·sin(ωτ) (m, m/s,
-    rad/s): sampled at :data:`GAP_SAMPLES` points (angle addition), then secant
-    steps. Returns (found, τ)."""
+    rad/s), starting from the separation (gap ≈ 0, opening). Returns (found, τ).
+
+    Safe advance: the gap g(τ) = x2(τ) − x1(τ) has |g''| ≤ K = g + ω²·A (the load's
+    fall and the structure's largest acceleration, A = √(x2² + (v2/ω)²)), so
+    g(τ + Δ) ≥ g + g'·Δ − K·Δ²/2 and the step Δ = (g' + √(g'² + 2K·g))/K cannot pass
+    the first contact; near it the step is Newton's. A contact missed between
+    samples would let the load fall through the structure and gain energy it does
+    not have (the peaks then stay within :func:`energy_bounds`)."""
     n = x1.shape[0]
-    dt = left / GAP_SAMPLES
-    cd, sd = np.cos(wf * dt), np.sin(wf * dt)
-    c, s = np.ones(n), np.zeros(n)
+    A = np.sqrt(x2 * x2 + (v2 / wf) ** 2)
     b2 = v2 / wf
+    K = G + wf * wf * A
+    t = np.zeros(n)
     found = np.zeros(n, dtype=bool)
-    ta, ga = np.zeros(n), x1 - x2
-    tb, gb = left.copy(), np.zeros(n)
-    for k in range(1, GAP_SAMPLES + 1):
-        c, s = _rotate(c, s, cd, sd)
-        t = k * dt
-        g = x1 + v1 * t + 0.5 * G * t * t - (x2 * c + b2 * s)
-        hit = ~found & (g >= 0.0)
-        tb = np.where(hit, t, tb)
-        gb = np.where(hit, g, gb)
-        found |= hit
-        ta = np.where(found, ta, t)
-        ga = np.where(found, ga, g)
-    for _ in range(3):
-        with np.errstate(divide="ignore", invalid="ignore"):
-            tm = np.where(gb > ga, ta + (tb - ta) * (-ga) / (gb - ga), tb)
-        tm = np.clip(np.where(np.isfinite(tm), tm, tb), ta, tb)
-        gm = x1 + v1 * tm + 0.5 * G * tm * tm - (x2 * np.cos(wf * tm) + b2 * np.sin(wf * tm))
-        neg = gm < 0.0
-        ta, ga = np.where(neg, tm, ta), np.where(neg, gm, ga)
-        tb, gb = np.where(neg, tb, tm), np.where(neg, gb, gm)
-    return found, tb
+    live = np.arange(n)
+    tol = 1e-12 * (np.abs(x1) + A + 1e-12)
+    first = True
+    for _ in range(CATCH_STEPS):
+        if not live.size:
+            break
+        tl, w = t[live], wf[live]
+        cw, sw = np.cos(w * tl), np.sin(w * tl)
+        g = x2[live] * cw + b2[live] * sw - (x1[live] + v1[live] * tl + 0.5 * G * tl * tl)
+        gd = w * (b2[live] * cw - x2[live] * sw) - (v1[live] + G * tl)
+        Kl = K[live]
+        gp = np.maximum(g, 0.0)
+        step = (gd + np.sqrt(gd * gd + 2.0 * Kl * gp)) / Kl
+        # caught: the gap closed (after the start), or closing with no room to step
+        if first:  # at the separation: caught only if not opening
+            hit = (g <= tol[live]) & (gd <= 0.0)
+        else:
+            hit = (g <= tol[live]) | (step <= 1e-12 * (1.0 + tl))
+        first = False
+        found[live[hit]] = True
+        tn = tl + np.maximum(step, 0.0)
+        out = tn > left[live]
+        t[live] = np.where(hit, tl, tn)
+        live = live[~hit & ~out]
+    found &= t <= left
+    return found, t
+
+
+def energy_bounds(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
+                  f_frame: ArrayLike) -> tuple[np.ndarray, np.ndarray]:
+    """Upper bounds (N) of the contact force and of the force on the framing of the
+    two-mass impact (:func:`two_mass_peaks`) from the conservation of energy: with
+    x from the position at first contact, ½M·v1² + ½m2·v2² + ½k_c·⟨x1 − x2⟩² +
+    ½k2·x2² − W·x1 = W·h, and W·x2 − ½k2·x2² ≤ W²/(2k2) (its largest value), so
+    ½k_c·δ² − W·δ ≤ W·h + W²·f_frame/2 for the contact's compression δ:
+    F_c ≤ W·(1 + √(1 + 2h/(W·f_c) + f_frame/f_c)), and likewise
+    F_f ≤ W·(1 + √(1 + 2h/(W·f_frame) + f_c/f_frame)) (Gere 7th ed. §9.10's balance
+    on either spring alone, η = 1; Clough & Penzien, energy of a 2-DOF system).
+    W in N, h (energy height) in m, compliances in m/N; non-decreasing in h."""
+    W, h, fc, ff = np.broadcast_arrays(*(np.asarray(v, float)
+                                         for v in (W, h, f_contact, f_frame)))
+    hp = np.maximum(h, 0.0)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        Bc = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / (W * fc) + ff / fc))
+        Bf = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / (W * ff) + fc / ff))
+    return (np.where(np.isnan(Bc), np.inf, Bc), np.where(np.isnan(Bf), np.inf, Bf))
 
 
 def two_mass_peaks(M: ArrayLike, v0: ArrayLike, k_c: ArrayLike, m2: ArrayLike,
@@ -429,3 +467,201 @@ def equivalent_eta(W: ArrayLike, h: ArrayLike, f: ArrayLike, F: ArrayLike,
         eta = ((F / W - 1.0) ** 2 - 1.0) * W * f / (2.0 * h)
     ok = np.isfinite(eta) & (h > 0.0)
     return np.where(ok, np.maximum(eta, 0.0), e0)
+
+
+# --------------------------------------------------------------------------- envelope
+ENVELOPE_FILE = Path(__file__).with_name("data") / "two_mass_envelope.npz"
+"""The tabulated envelope of the two-mass peaks (:func:`build_envelope`; written by
+``scripts/build_two_mass_envelope.py``)."""
+
+ENVELOPE_GRID = ((-3.0, 5.0, 0.25), (-2.0, 7.0, 0.25), (-2.0, 8.0, 0.02))
+"""(start, stop, step) of log₁₀ μ = m2/M, log₁₀ κ = k_c/k2 and log₁₀ ĥ = h·k2/W (the
+energy height over the framing's static deflection under the load's weight)."""
+
+
+ENVELOPE_MARGIN = (1.10, 1.10)
+"""Factors on the tabulated envelope (framing, contact) for the peaks between the
+table's samples (measured: tests/solver/test_two_force_envelope.py)."""
+
+
+def envelope_grid() -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The nodes of log₁₀ μ, log₁₀ κ and log₁₀ ĥ (:data:`ENVELOPE_GRID`)."""
+    return tuple(np.round(np.arange(a, b + 0.5 * d, d), 10)  # type: ignore[return-value]
+                 for a, b, d in ENVELOPE_GRID)
+
+
+def build_envelope(lg_mu: np.ndarray, lg_kappa: np.ndarray, lg_h: np.ndarray,
+                   chunk: int = 60_000) -> tuple[np.ndarray, np.ndarray]:
+    """The two-mass peaks' envelope in units of the load's weight at the nodes of the
+    grid (μ, κ, ĥ), shape (len each): the framing force and the contact force. Each
+    node holds the largest of :func:`two_mass_peaks`/W (M = 1 kg, k2 = 1 N/m,
+    m2 = μ kg, k_c = κ N/m, v0 = √(2g·ĥ·W/k2)) sampled on a grid twice as fine in
+    each log, over the samples within half a step of the node in μ and κ and over
+    every drop up to half a step above it in ĥ (running maximum).
+
+    The two-mass equations with gravity (:func:`two_mass_peaks`) in units of the
+    load's weight W and the framing's static deflection W/k2 depend on μ, κ and ĥ
+    alone (dimensional analysis; Clough & Penzien, 2-DOF free vibration), so one
+    table serves every load and point. The peaks are not monotone in ĥ (a lower
+    drop can give the larger peak: the load's later contacts start and stop with
+    the height and meet the framing in or out of phase; Biggs 1964 ch. 5 — from
+    memory) nor smooth in μ and κ: the running maximum is the monotone envelope,
+    and the nodes' neighbourhoods overlap, so an interpolation between two nodes is
+    at least every sample between them. Each peak is first bounded by
+    :func:`energy_bounds` (the slow window's ripple bound of :func:`two_mass_peaks`
+    can lie above them)."""
+    def fine(g: np.ndarray) -> np.ndarray:
+        out = np.empty(2 * g.size - 1)
+        out[0::2] = g
+        out[1::2] = 0.5 * (g[:-1] + g[1:])
+        return out
+
+    MU, KA, HH = np.meshgrid(10.0 ** fine(lg_mu), 10.0 ** fine(lg_kappa),
+                             10.0 ** fine(lg_h), indexing="ij")
+    mu, ka, hh = MU.ravel(), KA.ravel(), HH.ravel()
+    Ff = np.empty(mu.size)
+    Fc = np.empty(mu.size)
+    for a in range(0, mu.size, chunk):
+        b = slice(a, a + chunk)
+        v0 = np.sqrt(2.0 * G * hh[b] * G)  # h = ĥ·W/k2 with W = g, k2 = 1
+        pk = two_mass_peaks(1.0, v0, ka[b], mu[b], 1.0)
+        # never above the energy bounds (the slow window's ripple bound can be)
+        Bc, Bf = energy_bounds(G, hh[b] * G, 1.0 / ka[b], 1.0)
+        Ff[b] = np.minimum(pk.F_frame, Bf) / G
+        Fc[b] = np.minimum(pk.F_contact, Bc) / G
+
+    def nodes(v: np.ndarray) -> np.ndarray:
+        v = np.maximum.accumulate(v.reshape(MU.shape), axis=2)
+        for ax in range(3):  # each fine sample with its neighbours (edges: itself)
+            lo = np.concatenate([np.take(v, [0], axis=ax),
+                                 np.take(v, np.arange(v.shape[ax] - 1), axis=ax)], axis=ax)
+            hi = np.concatenate([np.take(v, np.arange(1, v.shape[ax]), axis=ax),
+                                 np.take(v, [-1], axis=ax)], axis=ax)
+            v = np.maximum(v, np.maximum(lo, hi))
+        return v[0::2, 0::2, 0::2]
+
+    return nodes(Ff), nodes(Fc)
+
+
+def round_up_f32(a: np.ndarray) -> np.ndarray:
+    """``a`` as float32, never below ``a`` (the next float32 up where the cast went
+    down): a stored envelope stays an upper bound."""
+    b = a.astype(np.float32)
+    low = b.astype(float) < a
+    b[low] = np.nextafter(b[low], np.float32(np.inf))
+    return b
+
+
+@functools.lru_cache(maxsize=1)
+def _envelope() -> tuple[np.ndarray, np.ndarray]:
+    """The stored envelope (framing, contact), float64, checked against the grid."""
+    try:
+        with np.load(ENVELOPE_FILE) as z:
+            grid = tuple(np.asarray(z[k], float) for k in ("lg_mu", "lg_kappa", "lg_h"))
+            Ff, Fc = np.asarray(z["frame"], float), np.asarray(z["contact"], float)
+    except (OSError, KeyError, ValueError) as exc:
+        raise RuntimeError(f"the two-mass envelope table {ENVELOPE_FILE} is missing or "
+                           "unreadable; rebuild it with "
+                           "scripts/build_two_mass_envelope.py") from exc
+    want = envelope_grid()
+    same = all(g.shape == w.shape and np.allclose(g, w)
+               for g, w in zip(grid, want, strict=True))
+    if not same or Ff.shape != tuple(w.size for w in want):
+        raise RuntimeError(f"{ENVELOPE_FILE} was built on another grid than "
+                           "ENVELOPE_GRID; rebuild it with "
+                           "scripts/build_two_mass_envelope.py")
+    return Ff, Fc
+
+
+@functools.lru_cache(maxsize=1)
+def _log_envelope() -> tuple[np.ndarray, np.ndarray]:
+    """ln of the stored envelope (framing, contact), flattened."""
+    Ff, Fc = _envelope()
+    return np.log(Ff).ravel(), np.log(Fc).ravel()
+
+
+def _cell(lg: np.ndarray, start: float, step: float, n: int
+          ) -> tuple[np.ndarray, np.ndarray]:
+    """Lower node (of ``n``, clamped to the table's edge cells) and the position in
+    the cell (0–1, clamped: the edge node's value outside) of the log values ``lg``
+    on a grid from ``start`` by ``step``."""
+    t = (lg - start) / step
+    i = np.clip(np.floor(t), 0, n - 2).astype(np.int64)
+    return i, np.clip(t - i, 0.0, 1.0)
+
+
+def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
+                        f_frame: ArrayLike, m2: ArrayLike
+                        ) -> tuple[np.ndarray, np.ndarray]:
+    """Contact force F_c and force on the framing F_f (N): the largest that any drop
+    from h' ≤ h (m, energy height) gives — the monotone envelope of
+    :func:`impact_two_forces` in the drop height. W (N), f_contact and f_frame (m/N),
+    m2 (kg) as there.
+
+    Why an envelope: a lower drop can give a two-mass system the larger peak (the
+    load's later contacts meet the framing in or out of phase; Biggs 1964 ch. 5 —
+    from memory), and a load being lowered can fall from any height below the
+    planned one. The envelope is conservative (never below the pointwise peak at the
+    table's sampled nodes) and non-decreasing in h, so the inverse answers found by
+    bisection on it are exact: every height below an allowable height passes.
+
+    Lookup (:func:`build_envelope`, dimensionless in μ = m2/M, κ = f_frame/f_contact,
+    ĥ = h/(W·f_frame)): trilinear in the logs of μ, κ, ĥ and of the nodes' values
+    (the peaks go as powers of them, e.g. F ∝ √ĥ and, for a light load,
+    ∝ 1/√μ); with fixed weights in μ and κ it is non-decreasing in ĥ, as every
+    node's running maximum is. Outside the
+    table: μ and κ take the edge node's value (above the largest μ, a lighter load
+    on a heavier structure, and below the smallest κ, a softer contact, the forces
+    are lower: the edge is the upper side; below the smallest μ, a load 1000 × the
+    struck mass, the one-mass balance below governs — common practice, no source),
+    the contact force above the
+    stiffest κ scaled by √(κ/κ_max) (a rigid-wall hit, F = v0·√(k_c·m), Gere §9.10),
+    ĥ below the table at its first node, above it scaled by √(ĥ/ĥ_max) (an upper
+    bound for F/W = 1 + a·√ĥ). Then × :data:`ENVELOPE_MARGIN`, the larger of that
+    and the one-mass balance with η = M/(M + m2) on the springs in series, and at
+    most the energy bounds (:func:`energy_bounds`): each non-decreasing in h, so the
+    result is."""
+    W, h, fc, ff, m2 = np.broadcast_arrays(*(np.asarray(v, float)
+                                             for v in (W, h, f_contact, f_frame, m2)))
+    LF, LC = _log_envelope()
+    (m0, _, dm), (k0, _, dk), (h0, _, dh) = ENVELOPE_GRID
+    nm, nk, nh = _envelope()[0].shape  # nodes
+    M = W / G
+    f = fc + ff
+    with np.errstate(divide="ignore", invalid="ignore"):
+        mu = np.where(M > 0.0, m2 / M, np.inf)
+        ka = np.where(fc > 0.0, ff / fc, np.inf)
+        hh = np.where(W * ff > 0.0, np.maximum(h, 0.0) / (W * ff), np.inf)
+        lmu = np.log10(np.clip(mu, 1e-300, 1e300))
+        lka = np.log10(np.clip(ka, 1e-300, 1e300))
+        lhh = np.log10(np.clip(hh, 1e-300, 1e300))
+    i, wi = _cell(lmu, m0, dm, nm)
+    j, wj = _cell(lka, k0, dk, nk)
+    k, wk = _cell(lhh, h0, dh, nh)
+    top = h0 + (nh - 1) * dh
+    over = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh, top) - top), 1.0))
+    ka_top = 10.0 ** (k0 + (nk - 1) * dk)
+    c_scale = np.sqrt(np.maximum(ka / ka_top, 1.0))
+    lf = np.zeros(W.shape)
+    lc = np.zeros(W.shape)
+    for a, wa in ((0, 1.0 - wi), (1, wi)):
+        for b, wb in ((0, 1.0 - wj), (1, wj)):
+            base = ((i + a) * nk + (j + b)) * nh + k
+            w1 = wa * wb * wk
+            w0 = wa * wb - w1
+            lf += w0 * LF[base] + w1 * LF[base + 1]
+            lc += w0 * LC[base] + w1 * LC[base + 1]
+    Ff = np.exp(lf) * over * W
+    Fc = np.exp(lc) * over * c_scale * W
+    eta = M / (M + m2)
+    d_st = W * f
+    with np.errstate(divide="ignore", invalid="ignore"):
+        F1 = W * (1.0 + np.sqrt(1.0 + 2.0 * np.maximum(eta * h, 0.0)
+                                / np.where(d_st > 0.0, d_st, np.inf)))
+    Bc, Bf = energy_bounds(W, h, fc, ff)
+    bad = ~(np.isfinite(Ff) & np.isfinite(Fc))
+    if bad.any():  # outside any table (a massless load, a rigid framing): the bounds
+        Ff[bad], Fc[bad] = Bf[bad], Bc[bad]
+    Fc = np.minimum(np.fmax(Fc * ENVELOPE_MARGIN[1], F1), Bc)
+    Ff = np.minimum(np.fmax(Ff * ENVELOPE_MARGIN[0], F1), Bf)
+    return Fc, Ff

@@ -267,7 +267,11 @@ def _impact_steps(sheet: _Sheet) -> None:
         {"η": (sm.eta[0], "dimensionless"), hk: (h_e, "length"),
          "δ_st": (imp.d_st[0], "length")}, imp.K[0],
         "dimensionless", _SRC_GERE)
-    add("Peak impact force", "F", "F = K·W" if imp.crush[0] == 0 else
+    if imp.two_mass is not None and bool(imp.two_mass[0]):
+        _two_force_steps(sheet, W, h_e)
+    add("Peak impact force" + (" on the framing" if imp.two_mass is not None
+                               and bool(imp.two_mass[0]) else ""),
+        "F", "F = K·W" if imp.crush[0] == 0 else
         "F = crush force, or elastic after bottoming (droprig.solver.impact.impact_crushable)",
         {"K": (imp.K[0], "dimensionless"), "W": (W, "force")},
         imp.F[0], "force", _SRC_GERE)
@@ -294,6 +298,50 @@ def _impact_steps(sheet: _Sheet) -> None:
     add("Deceleration of the load", "a/g", "a/g = F/W − 1",
         {"F": (imp.F[0], "force"), "W": (W, "force")}, out["deceleration_g"][0],
         "dimensionless", "Newton's second law")
+
+
+_SRC_TWO_MASS = ("CEB Bulletin 187 (1988) two-mass model (from memory); Clough & "
+                 "Penzien, Dynamics of Structures, 2-DOF free vibration; envelope over "
+                 "lower drops (droprig.solver.struck_mass.envelope_two_forces)")
+
+
+def _two_force_steps(sheet: _Sheet, W: float, h_e: float) -> None:
+    """The two forces of the two-mass impact: struck mass with the slab, contact
+    force, force on the framing and the framing's energy share."""
+    add, comp, sm, imp, inp = sheet.add, sheet.comp, sheet.sm, sheet.imp, sheet.inp
+    assert sm.m2 is not None and imp.F_contact is not None and imp.eta_frame is not None
+    M = float(inp.M[0])
+    m2 = float(sm.m2[0])
+    add("Struck mass of the floor with the slab and superimposed dead load (two-mass "
+        "model; over a column with the floor the column's shortening moves)", "m₂",
+        "m₂ = Σ∫(μ_steel + (ρh + q_sd/g)·b)·(w/w_ref)² dx", {}, m2, "mass",
+        _SRC_RAYLEIGH + "; Biggs 1964 ch. 5 (from memory)")
+    add("Contact force between load and struck surface (largest for any fall up to "
+        "h_e; bounded by the crushing of the surface)", "F_c",
+        "max over h' ≤ h_e of the two-mass peak k_c·max⟨x₁ − x₂⟩, "
+        "M·x₁'' = M·g − k_c⟨x₁ − x₂⟩, m₂·x₂'' = k_c⟨x₁ − x₂⟩ − k₂·x₂",
+        {"M": (M, "mass"), "m₂": (m2, "mass"), "k_c": (1.0 / comp.f_series[0], "stiffness"),
+         "k₂": (1.0 / comp.f_s[0], "stiffness"), "h_e": (h_e, "length")},
+        imp.F_contact[0], "force", _SRC_TWO_MASS)
+    add("Force on the framing (two-mass peak k₂·max x₂, largest for any fall up to "
+        "h_e; at least the one-mass balance with η = M/(M + m₂), at most the energy "
+        "bound and 2× the contact force the surface passes)", "F_f",
+        "F_f = min(max(k₂·max x₂, W(1 + √(1 + 2ηh_e/(W·f)))), "
+        "W(1 + √(1 + 2h_e/(W·f₂) + f_c/f₂)))",
+        {"W": (W, "force"), "f": (comp.f[0], "compliance"),
+         "f₂": (comp.f_s[0], "compliance"), "f_c": (comp.f_series[0], "compliance")},
+        imp.F[0], "force", _SRC_TWO_MASS + "; " + _SRC_GERE)
+    add("Share of the energy that gives the framing force in the one-mass balance "
+        "(used beyond yield and by the allowable heights)", "η_f",
+        "η_f = ((F_f/W − 1)² − 1)·W·f/(2h_e)",
+        {"F_f": (imp.F[0], "force"), "W": (W, "force"), "f": (comp.f[0], "compliance"),
+         "h_e": (h_e, "length")}, imp.eta_frame[0], "dimensionless",
+        _SRC_GERE + " solved for η")
+    if imp.F_deck is not None:
+        add("Force the deck's checks take (the contact force under a declared "
+            "underside; a hard load's contact spike is the local-damage checks', the "
+            "deck takes the one-mass force)", "F_deck", "F_deck = F_c (soft) or F_1",
+            {}, imp.F_deck[0], "force", "CEB Bulletin 187 soft/hard impact (from memory)")
 
 
 def _amplification_steps(sheet: _Sheet) -> None:
@@ -368,7 +416,14 @@ def _check_steps(sheet: _Sheet) -> None:
          "δ_st": (imp.d_st[0], "length"), "η": (sm.eta[0], "dimensionless")},
         h_gere if math.isfinite(h_gere) else inv.h_el[0], "length",
         _SRC_GERE + " solved for h")
-    if math.isfinite(h_gere) and math.isfinite(inv.h_el[0]) and \
+    two = imp.two_mass is not None and bool(imp.two_mass[0])
+    if two:
+        add("Allowable free fall with two forces: the largest fall at which the forward "
+            "two-mass impact (its envelope over lower falls, non-decreasing) keeps every "
+            "check at U ≤ 1, found by bisection", "h_allow,2",
+            "max h: U(F_f(h), F_deck(h)) ≤ 1", {}, inv.h_el[0], "length",
+            "bisection on the forward chain (droprig.solver.chain.two_force_height)")
+    elif math.isfinite(h_gere) and math.isfinite(inv.h_el[0]) and \
             abs(inv.h_el[0] - h_gere) > 1e-12 * max(1.0, abs(h_gere)):
         # the force passes a crushable layer's or the deck concrete's crushing force
         # before it reaches F_allow: the crushing work is added (chain.with_crush_energy)
