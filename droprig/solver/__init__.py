@@ -127,9 +127,8 @@ def analyse_outcomes(project: Project, cache: ZoneCache | None = None) -> Result
                                        below.id if below is not None else None,
                                        [p.id for p in project.protection_areas]))
         cases.extend(zone_cases)
-        for load, case in zip(zone.loads, zone_cases, strict=True):
-            if below is not None:
-                falls.extend(analysis.cascade_down(project, zone, load, case, below, floor))
+        if below is not None:
+            falls.extend(analysis.cascade_down(project, zone, zone_cases, below, floor))
     if not forward:
         return None
     return Results(tuple(cases), tuple(summaries), tuple(warnings), tuple(falls))
