@@ -1644,6 +1644,11 @@ def checks(c: Chain) -> Checks:
     flex_exceeded = chk["flexure"].U > 1.0
     if "deck_flexure" in chk:
         flex_exceeded = flex_exceeded | (sr.ductile & (chk["deck_flexure"].U > 1.0))
+    # the slab's yield-line mechanism forms first (R_p = R_yl in series, below the
+    # force): the path yields there whatever the sagging-strip check reads, as the
+    # inverse answers and the brittle checks at R_p take it (a load set down on a
+    # random floor read 'exceeds' at a zero fall while its plastic height was 0.8 mm)
+    flex_exceeded = flex_exceeded | (sr.slab_first & (F > R_p))
     response = np.full(n, ELASTIC, dtype=np.int64)
     over = U > 1.0
     brittle_fail = over & (~flex_exceeded | (Ub_max > 1.0))

@@ -21,7 +21,7 @@ from pathlib import Path
 
 import numpy as np
 import pytest
-from hypothesis import given, settings
+from hypothesis import example, given, settings
 from hypothesis import strategies as st
 
 from droprig.io.project_file import load_project, loads_project
@@ -180,6 +180,9 @@ def test_demo_projects(demo: Path) -> None:
 
 @settings(max_examples=12, deadline=None)
 @given(seed=st.integers(0, 2**31))
+# found by this test: a load set down where the slab's yield-line mechanism forms
+# first read 'exceeds' (shear at the full force) while its plastic height was 0.8 mm
+@example(seed=663)
 def test_random_projects(seed: int) -> None:
     rng = random.Random(seed)
     project = loads_project(harness.random_project(rng).decode("utf-8"))
