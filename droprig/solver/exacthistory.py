@@ -98,23 +98,13 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     form (module docstring). ``record`` keeps the sampled histories (one case).
     ``dt`` in the result is each case's sample spacing in its last phase (s) and
     ``steps`` the largest number of samples of a case."""
-    L, EI, mu, a, M, h, f_c, F_y, s_y = (np.atleast_1d(v) for v in np.broadcast_arrays(
-        *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke))))
-    P = L.size
-    if record and P != 1:
-        raise ValueError("record: histories are kept for one case at a time")
     if samples_per_period < 4:
         raise ValueError("samples_per_period: at least 4 samples per period")
+    (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = timehistory.checked_case(
+        cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record)
+    P = L.size
     conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
-    f_s = timehistory._green_aa(conds, L, EI, a)
-    if np.any(f_s + f_c <= 0.0):
-        raise ValueError("a: a point on a rigid support with a rigid contact has no "
-                         "finite impact force; give a contact compliance")
     g = impact.G
-    W = M * g
-    if np.any(~(F_y > W)) or np.any(~(s_y >= 0.0)):
-        raise ValueError("F_yield: the crushing force must exceed the load's weight "
-                         "(allowed: > M·g, N) and stroke must be ≥ 0 m")
     if np.any(~np.isfinite(h)) or np.any(h < 0.0):
         raise ValueError("h: the drop height must be a finite number ≥ 0 m")
     v0 = np.sqrt(2.0 * g * h)

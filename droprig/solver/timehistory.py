@@ -296,6 +296,32 @@ def _green_aa(cond: str | ArrayLike, L: np.ndarray, EI: np.ndarray,
     return out
 
 
+def checked_case(cond: str | ArrayLike, values: tuple[ArrayLike, ...], record: bool
+                 ) -> tuple[tuple[np.ndarray, ...], np.ndarray, np.ndarray]:
+    """The inputs of a time history (L, EI, mu, a, M, h, f_c, F_yield, stroke, in SI)
+    broadcast to one array each (at least 1-D), checked as both integrators need
+    them; with the static compliance f_s at the load (:func:`_green_aa`, m/N) and
+    the weight W = M·g (N). Raises ValueError naming the input: ``record`` with more
+    than one case; a rigid contact on a rigid support; a crushing force not above
+    the weight, or a negative stroke."""
+    arrs = tuple(np.atleast_1d(v) for v in np.broadcast_arrays(
+        *(np.asarray(v, float) for v in values)))
+    L, EI, _mu, a, M, _h, f_c, F_y, s_y = arrs
+    if record and L.size != 1:
+        raise ValueError("record: histories are kept for one case at a time")
+    f_s = _green_aa(cond if isinstance(cond, str)
+                    else np.broadcast_to(np.asarray(cond, dtype=object), L.shape),
+                    L, EI, a)
+    if np.any(f_s + f_c <= 0.0):
+        raise ValueError("a: a point on a rigid support with a rigid contact has no "
+                         "finite impact force; give a contact compliance")
+    W = M * impact.G
+    if np.any(~(F_y > W)) or np.any(~(s_y >= 0.0)):
+        raise ValueError("F_yield: the crushing force must exceed the load's weight "
+                         "(allowed: > M·g, N) and stroke must be ≥ 0 m")
+    return arrs, f_s, W
+
+
 def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
                  a: ArrayLike,
                  M: ArrayLike, h: ArrayLike, f_c: ArrayLike = 0.0, *,
@@ -322,20 +348,10 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
     and uncapped (module docstring). The run is lengthened by the crushing time
     M·v₀/(F_yield − W).
     """
-    L, EI, mu, a, M, h, f_c, F_y, s_y = (np.atleast_1d(v) for v in np.broadcast_arrays(
-        *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke))))
+    (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = checked_case(
+        cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record)
     P = L.size
-    if record and P != 1:
-        raise ValueError("record: histories are kept for one case at a time")
-    f_s = _green_aa(cond, L, EI, a)
-    if np.any(f_s + f_c <= 0.0):
-        raise ValueError("a: a point on a rigid support with a rigid contact has no "
-                         "finite impact force; give a contact compliance")
     g = impact.G
-    W = M * g
-    if np.any(~(F_y > W)) or np.any(~(s_y >= 0.0)):
-        raise ValueError("F_yield: the crushing force must exceed the load's weight "
-                         "(allowed: > M·g, N) and stroke must be ≥ 0 m")
     v0 = np.sqrt(2.0 * g * h)
     if isinstance(cond, str):
         su = _setup(cast(EndCondition, cond), L, EI, mu, a, M, f_c, f_s, n_modes, cutoff)
