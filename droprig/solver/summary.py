@@ -206,7 +206,7 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
             lim_chk = CHECKS[int(hp_chk[ihp])]
         else:
             lim_chk = CHECKS[int(h_chk[lim_at])] if h_chk is not None else ""
-        pads = sorted({int(p) for p in prot[M[b]] if p >= 0})
+        pads = [int(p) for p in np.unique(prot[M[b] & (prot >= 0)])]  # sorted
         out.append(BaySummary(
             level_id=level.id, bay_id=all_bays[b].id, zone_id=zone.id,
             load_name=load.name, n_points=int(count[b]), max_utilisation=u_b,
