@@ -87,9 +87,8 @@ def analyse_outcomes(project: Project, cache: ZoneCache | None = None) -> Result
     the unconfirmed zones carry no warnings. The permit, the annex and ``droprig``
     take :func:`analyse` only. SI units.
     """
-    from droprig.solver import analysis, droppoints, refine
+    from droprig.solver import analysis
     from droprig.solver.floor import floor_cache
-    from droprig.solver.summary import summarise
 
     project = resolve_drift(project)
     floor = floor_cache(project)
@@ -99,10 +98,7 @@ def analyse_outcomes(project: Project, cache: ZoneCache | None = None) -> Result
     falls: list[Cascade] = []
     forward = False
     for zone in project.lift_zones:
-        held = None
-        if cache is not None:
-            with cache._lock:  # a look only: neither a hit nor a miss
-                held = cache._zones.get(analysis.zone_key(project, zone))
+        held = cache.peek(project, zone) if cache is not None else None
         if held is not None:
             cases.extend(held.cases)
             summaries.extend(held.bays)
@@ -110,25 +106,10 @@ def analyse_outcomes(project: Project, cache: ZoneCache | None = None) -> Result
             warnings.extend(w for w in held.warnings if w not in warnings)
             continue
         forward = True
-        if not zone.loads:
-            continue
-        fm = floor(zone.level_id)
-        x, y = droppoints.base_points(fm.frame, zone, project.settings.grid_resolution)
-        # analysis.analyse_zone up to its confirm_zone, the same calls in the same order
-        rows, _geo = refine.zone_points_geometry(fm, project, zone, (x, y))
-        below = level_below(project, fm.level.id)
-        zone_cases = []
-        for j, load in enumerate(zone.loads):
-            sel = rows["load_index"] == j
-            res = {k: v[sel] for k, v in rows.items()}
-            case = analysis._case_result(zone, load, fm.level, res)
-            zone_cases.append(case)
-            summaries.extend(summarise(fm.level, zone, load, case, res["F_allow"],
-                                       below.id if below is not None else None,
-                                       [p.id for p in project.protection_areas]))
-        cases.extend(zone_cases)
-        if below is not None:
-            falls.extend(analysis.cascade_down(project, zone, zone_cases, below, floor))
+        r = analysis.analyse_zone(project, zone.id, floor, confirm=False)
+        cases.extend(r.cases)
+        summaries.extend(r.bays)
+        falls.extend(r.cascade)
     if not forward:
         return None
     return Results(tuple(cases), tuple(summaries), tuple(warnings), tuple(falls))

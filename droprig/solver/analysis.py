@@ -103,8 +103,11 @@ def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
 
 
 def analyse_zone(project: Project, zone_id: str,
-                 floor: Callable[[str], FloorModel] | None = None) -> Results:
-    """Every load of one lift zone (see :func:`analyse`)."""
+                 floor: Callable[[str], FloorModel] | None = None, *,
+                 confirm: bool = True) -> Results:
+    """Every load of one lift zone (see :func:`analyse`). ``confirm=False``: the
+    forward analysis only, its limits untried (:func:`droprig.solver.analyse_outcomes`
+    — never to be printed as final)."""
     cancel.check()
     project = resolve_drift(project)
     floor = floor or floor_cache(project)
@@ -152,7 +155,8 @@ def analyse_zone(project: Project, zone_id: str,
         allres, geo = refine.zone_points_geometry(fm, project, zone, (x, y))
         # each point's plastic height, then every limit a bay offers, tried by the
         # forward chain before it is printed
-        summaries = confirm_zone(fm, project, zone, allres, geo, cases_and_bays)
+        summaries = (confirm_zone(fm, project, zone, allres, geo, cases_and_bays)
+                     if confirm else cases_and_bays(allres))
     cases = list(zone_cases)
     if below is not None and zone_cases:
         falls.extend(cascade_down(project, zone, zone_cases, below, floor))
@@ -306,6 +310,12 @@ class ZoneCache:
         self._lock = threading.Lock()
         self.hits = 0
         self.misses = 0
+
+    def peek(self, project: Project, zone: LiftZone) -> Results | None:
+        """The zone's results if the cache holds them, else None; a look only (no
+        hit or miss counted, nothing moved)."""
+        with self._lock:
+            return self._zones.get(zone_key(project, zone))
 
     def analyse(self, project: Project) -> Results:
         """:func:`analyse`, each zone's results taken from the cache where its

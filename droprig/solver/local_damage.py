@@ -564,16 +564,9 @@ def perforation_mass(load: LiftLoad, deck: Deck, v: float, m_max: float) -> floa
     formula is checked by the forward run); 0 where every mass perforates."""
     if deck.is_steel or not (m_max > 0.0) or not (v > 0.0):
         return m_max
-    geo = [strike_geometry(o, load.footprint_length, load.footprint_width, load.edge_width)
-           for o in load.strike_orientations]
 
     def v_bl(m: float) -> float:
-        least = math.inf
-        for d, p, n in geo:
-            args = _arr(m, d, p, deck.thickness, deck.concrete.fc, deck.concrete.density,
-                        slab_reinforcement_percent(deck), n)
-            least = min(least, float(_start_speeds(*args)[1]))
-        return least
+        return min(row[3] for row in _orientation_speeds(load, deck, m))
 
     if v_bl(m_max) > v:
         return m_max
@@ -855,11 +848,17 @@ def _load_start_speeds(load: LiftLoad, deck: Deck
     """Per strike orientation of ``load``: (d_eq m, N*, scabbing speed m/s, ballistic
     limit m/s, governing family) on ``deck`` — they depend on the load and the slab
     only, so they are worked out once (frozen, hashable model objects)."""
+    return _orientation_speeds(load, deck, load.mass)
+
+
+def _orientation_speeds(load: LiftLoad, deck: Deck, mass: float
+                        ) -> tuple[tuple[float, float, float, float, int], ...]:
+    """:func:`_load_start_speeds` of ``load``'s shape at ``mass`` (kg), uncached."""
     out = []
     for o in load.strike_orientations:
         d, p, n = strike_geometry(o, load.footprint_length, load.footprint_width,
                                   load.edge_width)
-        args = _arr(load.mass, d, p, deck.thickness, deck.concrete.fc,
+        args = _arr(mass, d, p, deck.thickness, deck.concrete.fc,
                     deck.concrete.density, slab_reinforcement_percent(deck), n)
         v_scab, v_bl, gov = _start_speeds(*args)
         out.append((d, n, float(v_scab), float(v_bl), int(gov)))
