@@ -46,7 +46,7 @@ from droprig.solver.floor import FloorModel, floor_model
 from droprig.solver.footprint import EDGE_CONTACT_WIDTH
 from droprig.solver.geometry import Geometry, point_geometry
 from droprig.solver.loadpath import COND_NAMES
-from droprig.solver.results import CHECKS, DECK, RESPONSES, Trace, TraceStep
+from droprig.solver.results import CHECKS, DECK, LIMIT_MARGIN, RESPONSES, Trace, TraceStep
 
 __all__ = ["trace_point"]
 
@@ -577,3 +577,14 @@ def _local_damage_steps(sheet: _Sheet) -> None:
                     "families, the lowest governs)", sym, eq,
                     {"t": (lv.deck.thickness, "length")}, spread[fam], "length",
                     _FAMILY_SOURCES[fam])
+        # the point's allowable mass held below the one that perforates (the bay's
+        # printed mass is this, tried by the forward chain: droprig.solver.confirm)
+        m_el = float(sheet.inv.m_allow[0])
+        if math.isfinite(m_el) and m_el > 0.0:
+            add("Allowable mass at the planned height, the load not perforating the deck",
+                "M_allow,p", "largest M ≤ M_allow with V below the ballistic limit "
+                "V_bl(M) of every family and strike (bisection on log M); a bay prints "
+                f"{LIMIT_MARGIN:g} × the least over its points, tried by the forward chain",
+                {"V": (ld.v_strike[0], "speed"), "M_allow": (m_el, "mass")},
+                local_damage.perforation_mass(sheet.load, lv.deck, float(ld.v_strike[0]),
+                                              m_el), "mass", src)

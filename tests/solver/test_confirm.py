@@ -242,3 +242,22 @@ def test_allowable_masses_hold_on_a_lattice_over_each_bay(seed: int) -> None:
             b.bay_id, b.load_name, m, float(np.max(r["utilisation"][ok])))
         tried += 1
     assert tried > 0
+
+
+def test_calculation_sheet_states_the_mass_the_bay_prints() -> None:
+    """The calculation sheet of the point that sets a bay's allowable mass holds the
+    point's closed-form mass (Gere §9.10 solved for M) and the mass held below
+    perforation (the perforation families' ballistic limits, bisection); the bay
+    prints LIMIT_MARGIN × that, tried by the forward chain (never more). Rooftop demo,
+    4 m spreader over 3-4/A-B: 39.9 kg closed form, 33.7 kg not perforating, 30.3 kg
+    printed; the sheet said only 39.9 kg before, beside a table's 30.3 kg."""
+    from droprig.solver import trace_point
+    from droprig.solver.results import LIMIT_MARGIN
+
+    project = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    b = next(x for x in analyse(project).bays if x.load_name.startswith("Spreader")
+             and x.bay_id == "3-4/A-B")
+    t = trace_point(project, b.zone_id, b.load_name, b.allowable_mass_x, b.allowable_mass_y)
+    by = {s.symbol: s.value for s in t.steps}
+    assert by["M_allow,p"] < by["M_allow"]
+    assert b.allowable_mass <= LIMIT_MARGIN * by["M_allow,p"] * (1.0 + 1e-9)
