@@ -62,6 +62,7 @@ __all__ = [
     "ORIENTATIONS",
     "PERFORATION_FAMILIES",
     "PERFORATION_MARGIN",
+    "PERFORATION_MASS_GRID",
     "PLATE_PERFORATION_MARGIN",
     "SCABBING_MARGIN",
     "UKAEA_BARR",
@@ -88,6 +89,7 @@ __all__ = [
     "is_hard",
     "kennedy_perforation_thickness",
     "kennedy_scabbing_thickness",
+    "least_ballistic_limit",
     "load_family_heights",
     "load_local_damage",
     "ndrc_G",
@@ -95,6 +97,7 @@ __all__ = [
     "ndrc_perforation_velocity",
     "ndrc_scabbing_velocity",
     "perforation_mass",
+    "perforation_mass_reference",
     "plate_deck_damage",
     "plate_dent_depth",
     "plate_dent_height",
@@ -553,15 +556,77 @@ def _start_speeds(M: np.ndarray, d: np.ndarray, p: np.ndarray, t: np.ndarray,
     return np.minimum(v_scab, v_bl), v_bl, np.argmin(v_perf_all, axis=0)  # perforated ⇒ scabbed
 
 
+PERFORATION_MASS_GRID = 256
+"""Masses tried at once per round of :func:`perforation_mass`: each round narrows the
+bracket on log M by 257×, so 8 rounds narrow it below 2⁻⁶⁰ of its width (257⁸ >
+2⁶⁰), as the 60 halvings of :func:`perforation_mass_reference`."""
+
+_PERFORATION_MASS_ROUNDS = math.ceil(60.0 / math.log2(PERFORATION_MASS_GRID + 1.0))
+_PERFORATION_MASS_SPAN = 40.0
+"""The bracket on log M below ``m_max`` (e⁻⁴⁰ ≈ 4·10⁻¹⁸ of it: no mass that small
+perforates a slab)."""
+
+
+def least_ballistic_limit(load: LiftLoad, deck: Deck, mass: ArrayLike) -> np.ndarray:
+    """The least ballistic limit (m/s) over ``load``'s strike orientations and the
+    :data:`PERFORATION_FAMILIES` of the concrete ``deck``, for ``load``'s shape at
+    each ``mass`` (kg, any shape): min over orientations of
+    :func:`family_ballistic_limits` with the slab's DOE margin, as
+    :func:`_orientation_speeds` gives it one mass at a time."""
+    m = np.asarray(mass, float)
+    # one row per orientation: (orientations, *mass.shape), all in one call
+    geo = np.array([strike_geometry(o, load.footprint_length, load.footprint_width,
+                                    load.edge_width) for o in load.strike_orientations])
+    col = (slice(None),) + (None,) * m.ndim
+    d, p, n = geo[:, 0][col], geo[:, 1][col], geo[:, 2][col]
+    lim = family_ballistic_limits(m, d, p, deck.thickness, deck.concrete.fc,
+                                  deck.concrete.density, slab_reinforcement_percent(deck), n)
+    return np.min(lim, axis=(0, 1))
+
+
+@lru_cache(maxsize=1024)
 def perforation_mass(load: LiftLoad, deck: Deck, v: float, m_max: float) -> float:
     """The largest mass (kg, at most ``m_max``) of ``load``'s shape that does not
     perforate the concrete ``deck`` when it strikes at ``v`` (m/s) in any of its
-    strike orientations: the ballistic limit of every family
-    (:func:`family_ballistic_limits`, the least governs) falls as the mass grows, so
-    the mass where the least of them equals ``v`` is found by bisection on log M
-    (60 halvings: a relative width below 1e-9 of the bracket). ``m_max`` where even
-    that mass stays below its ballistic limit (and for a steel deck: its plate
-    formula is checked by the forward run); 0 where every mass perforates."""
+    strike orientations (:func:`perforation_mass_reference`, its plain bisection).
+
+    The same bracket [M_lo, M_hi] on log M, with the least ballistic limit
+    (:func:`least_ballistic_limit`) above ``v`` at M_lo and not above it at M_hi, is
+    narrowed by :data:`PERFORATION_MASS_GRID` masses evaluated in one vectorised
+    call per round rather than one mass per halving: the new bracket is the first
+    grid mass whose limit is not above ``v`` and the mass before it, so the bracket
+    keeps its two ends' property whether or not the limit is monotone in between;
+    8 rounds leave it as narrow as 60 halvings. ``m_max`` where that mass stays
+    below its ballistic limit (a steel deck: its plate formula is checked by the
+    forward run); 0 where every mass perforates. Remembered per (load, deck, v,
+    m_max): frozen model objects, so a re-analysis after an edit elsewhere finds it."""
+    if deck.is_steel or not (m_max > 0.0) or not (v > 0.0):
+        return m_max
+    hi = math.log(m_max)
+    lo = hi - _PERFORATION_MASS_SPAN
+    ends = least_ballistic_limit(load, deck, np.exp(np.array([hi, lo])))
+    if ends[0] > v:
+        return m_max
+    if ends[1] <= v:
+        return 0.0
+    frac = np.arange(1, PERFORATION_MASS_GRID + 1) / (PERFORATION_MASS_GRID + 1.0)
+    for _ in range(_PERFORATION_MASS_ROUNDS):
+        grid = lo + (hi - lo) * frac
+        below = least_ballistic_limit(load, deck, np.exp(grid)) <= v
+        j = int(np.argmax(below)) if below.any() else grid.size
+        new_lo = grid[j - 1] if j > 0 else lo
+        hi = float(grid[j]) if j < grid.size else hi
+        lo = float(new_lo)
+    return math.exp(lo)
+
+
+def perforation_mass_reference(load: LiftLoad, deck: Deck, v: float, m_max: float) -> float:
+    """:func:`perforation_mass` by plain bisection: the ballistic limit of every
+    family (:func:`family_ballistic_limits`, the least governs) falls as the mass
+    grows, so the mass where the least of them equals ``v`` (m/s) is found by
+    bisection on log M (60 halvings: a relative width below 1e-9 of the bracket).
+    ``m_max`` (kg) where even that mass stays below its ballistic limit; 0 where
+    every mass perforates. The calculation trace uses it."""
     if deck.is_steel or not (m_max > 0.0) or not (v > 0.0):
         return m_max
 
@@ -570,7 +635,7 @@ def perforation_mass(load: LiftLoad, deck: Deck, v: float, m_max: float) -> floa
 
     if v_bl(m_max) > v:
         return m_max
-    lo, hi = math.log(m_max) - 40.0, math.log(m_max)
+    lo, hi = math.log(m_max) - _PERFORATION_MASS_SPAN, math.log(m_max)
     if v_bl(math.exp(lo)) <= v:
         return 0.0
     for _ in range(60):

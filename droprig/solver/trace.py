@@ -586,5 +586,5 @@ def _local_damage_steps(sheet: _Sheet) -> None:
                 "V_bl(M) of every family and strike (bisection on log M); a bay prints "
                 f"{LIMIT_MARGIN:g} × the least over its points, tried by the forward chain",
                 {"V": (ld.v_strike[0], "speed"), "M_allow": (m_el, "mass")},
-                local_damage.perforation_mass(sheet.load, lv.deck, float(ld.v_strike[0]),
-                                              m_el), "mass", src)
+                local_damage.perforation_mass_reference(
+                    sheet.load, lv.deck, float(ld.v_strike[0]), m_el), "mass", src)
