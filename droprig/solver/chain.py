@@ -2310,22 +2310,23 @@ def local_damage(c: Chain) -> LocalDamage:
         sel = bare & (d.li == j) if len(d.loads) > 1 else bare
         if not sel.any():
             continue
-        r = local_damage_mod.load_local_damage(load, deck_, inp.h[sel], d.v_hoist)
+        # worked out once per distinct height (the points share the planned one)
+        r, at = local_damage_mod.distinct_height_damage(load, deck_, inp.h[sel], d.v_hoist)
         orient = np.array([local_damage_mod.ORIENTATIONS.index(o) for o in r.orientations])
         out["assessed"][sel] = True
-        out["penetration"][sel] = r.penetration
-        out["scabbing"][sel] = r.scabbing
-        out["perforation"][sel] = r.perforation
-        out["h_scab"][sel] = r.h_scabbing
-        out["h_perf"][sel] = r.h_perforation
-        out["v_res"][sel] = r.v_residual
+        out["penetration"][sel] = r.penetration[at]
+        out["scabbing"][sel] = r.scabbing[at]
+        out["perforation"][sel] = r.perforation[at]
+        out["h_scab"][sel] = r.h_scabbing[at]
+        out["h_perf"][sel] = r.h_perforation[at]
+        out["v_res"][sel] = r.v_residual[at]
         out["v_strike"][sel] = local_damage_mod.impact_speed(inp.h[sel], d.v_hoist)
-        out["extrapolated"][sel] = r.extrapolated
-        out["orientation"][sel] = orient[r.governing]
+        out["extrapolated"][sel] = r.extrapolated[at]
+        out["orientation"][sel] = orient[r.governing[at]]
         if deck_.kind == "steel_plate":
             out["dent"][sel], out["h_dent"][sel], valid = plate_dent(c, load, sel)
             # where the load goes through (BRL) the dent is no measure: not valid
-            out["dent_valid"][sel] = valid & ~r.perforation
+            out["dent_valid"][sel] = valid & ~r.perforation[at]
     return LocalDamage(**out)
 
 

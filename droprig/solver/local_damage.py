@@ -57,6 +57,7 @@ __all__ = [
     "DEGEN",
     "DENT_LIMIT",
     "DENT_RUPTURE_STRAIN",
+    "DISTINCT_HEIGHTS_KEPT",
     "NDRC_KENNEDY",
     "NOSE_FACTOR",
     "ORIENTATIONS",
@@ -82,6 +83,7 @@ __all__ = [
     "concrete_local_damage",
     "degen_perforation_thickness",
     "degen_perforation_velocity",
+    "distinct_height_damage",
     "drop_height_for_speed",
     "equivalent_diameter",
     "family_ballistic_limits",
@@ -1026,3 +1028,29 @@ def load_local_damage(load: LiftLoad, deck: Deck, h: ArrayLike,
         v_residual=np.max(np.stack([c.v_residual for c in parts]), axis=0),
         extrapolated=np.any(np.stack([c.extrapolated for c in parts]), axis=0),
         governing=np.argmin(h_perf, axis=0))
+
+
+DISTINCT_HEIGHTS_KEPT = 8
+""":func:`distinct_height_damage` remembers its answer when the points have at most
+this many distinct heights (a zone's planned drops: one or a few)."""
+
+
+@lru_cache(maxsize=512)
+def _damage_at_heights(load: LiftLoad, deck: Deck, heights: tuple[float, ...],
+                       v0: float) -> LoadDamage:
+    return load_local_damage(load, deck, np.array(heights, dtype=float), v0)
+
+
+def distinct_height_damage(load: LiftLoad, deck: Deck, h: ArrayLike,
+                           v0: float = 0.0) -> tuple[LoadDamage, np.ndarray]:
+    """:func:`load_local_damage` of ``load`` on ``deck`` at the distinct values of the
+    drop heights h (m, per point; free fall from the downward speed v0, m/s), and the
+    index of each point's height among them (``LoadDamage`` field ``[index]`` is the
+    point's). The damage depends on the point only through its height, and a zone's
+    drop points share a few heights (the planned one), so the formulas run once per
+    height, not once per point; the answer is remembered per (load, deck, heights,
+    v0) for at most :data:`DISTINCT_HEIGHTS_KEPT` heights (frozen model objects)."""
+    hs, index = np.unique(np.asarray(h, float), return_inverse=True)
+    if hs.size <= DISTINCT_HEIGHTS_KEPT and np.isfinite(hs).all():
+        return _damage_at_heights(load, deck, tuple(hs.tolist()), float(v0)), index.ravel()
+    return load_local_damage(load, deck, hs, v0), index.ravel()

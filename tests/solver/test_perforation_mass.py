@@ -91,3 +91,34 @@ def test_least_limit_of_many_masses_is_the_one_mass_answer() -> None:
         many = ld.least_ballistic_limit(load, deck, masses)
         one = [min(r[3] for r in ld._orientation_speeds(load, deck, float(m))) for m in masses]
         assert np.allclose(many, one, rtol=1e-14, atol=0.0)
+
+
+DISTINCT_REL = 1e-14
+"""The damage worked out once per distinct height against the same formulas run at
+every point: the same arithmetic on the same values (a few ulps at most)."""
+
+
+@pytest.mark.parametrize("seed", range(8))
+def test_damage_per_distinct_height_is_the_damage_per_point(seed: int) -> None:
+    """``distinct_height_damage`` (the chain's local-damage step: one evaluation per
+    distinct drop height) gives every point what ``load_local_damage`` gives it run
+    point by point (DOE-STD-3014 App. C families; BRL on a steel plate), for few
+    heights (remembered) and many (not)."""
+    rng = np.random.default_rng(100 + seed)
+    load, deck, _, _ = CASES[seed]
+    if seed % 4 == 3:
+        deck = Deck(kind="steel_plate", thickness=float(rng.uniform(0.006, 0.02)), steel_fy=235e6)
+    n_distinct = 3 if seed % 2 == 0 else 40
+    heights = rng.uniform(0.1, 25.0, n_distinct)
+    h = heights[rng.integers(0, n_distinct, 200)]
+    v0 = float(rng.uniform(0.0, 1.0))
+    r, at = ld.distinct_height_damage(load, deck, h, v0)
+    per_point = ld.load_local_damage(load, deck, h, v0)
+    for name in ("penetration", "h_scabbing", "h_perforation", "v_residual"):
+        np.testing.assert_allclose(getattr(r, name)[at], getattr(per_point, name),
+                                   rtol=DISTINCT_REL, atol=0.0, equal_nan=True)
+    for name in ("scabbing", "perforation", "extrapolated", "governing"):
+        np.testing.assert_array_equal(getattr(r, name)[at], getattr(per_point, name))
+    # and again: the remembered answer is the same
+    again, at2 = ld.distinct_height_damage(load, deck, h, v0)
+    np.testing.assert_array_equal(again.h_perforation[at2], r.h_perforation[at])
