@@ -5,6 +5,8 @@ SI units (m)."""
 
 from __future__ import annotations
 
+import threading
+from collections import OrderedDict
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field, fields, replace
 
@@ -18,8 +20,8 @@ from droprig.solver.loadpath import evaluate as evaluate_path
 from droprig.solver.reference import path_reference, reference_unit_actions
 from droprig.solver.unit_actions import UnitActions, unit_actions
 
-__all__ = ["Geometry", "KeptSteps", "concat_geo", "distinct_point_geometry", "point_geometry",
-           "slice_geo", "take_geo"]
+__all__ = ["KEPT_POINTS", "LOAD_FREE", "Geometry", "KeptSteps", "concat_geo",
+           "distinct_point_geometry", "point_geometry", "slice_geo", "take_geo"]
 
 
 @dataclass(frozen=True, eq=False)
@@ -113,6 +115,36 @@ class KeptSteps:
         return KeptSteps(first.loads, np.concatenate([p.li for p in parts]), by)
 
 
+LOAD_FREE = ("ua", "struck_member_table")
+"""Entries of ``Geometry.cache`` that depend on the points and the prepared floor only
+(the member actions, the struck member's table), never on a load, a drop height or
+the settings outside the floor: kept with a remembered point set
+(:func:`point_geometry`)."""
+
+KEPT_POINTS = 60_000
+"""Drop points whose geometry a prepared floor remembers, over all its point sets
+(the oldest set is forgotten first; a set larger than a third of this is never kept:
+a large job's blocks would only fill the memory)."""
+
+_KEPT_LOCK = threading.Lock()
+
+
+class _KeptCache(dict):
+    """``Geometry.cache`` of a remembered point set: starts with the set's
+    :data:`LOAD_FREE` entries, and a :data:`LOAD_FREE` entry written to it is kept
+    for the set's next geometry too. Every other entry (the chain's kept steps,
+    slices) stays with this geometry alone."""
+
+    def __init__(self, kept: dict) -> None:
+        super().__init__(kept)
+        self._kept = kept
+
+    def __setitem__(self, key: object, value: object) -> None:
+        super().__setitem__(key, value)
+        if key in LOAD_FREE:
+            self._kept[key] = value
+
+
 def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarray, *,
                    reference: bool = False) -> Geometry:
     """Load path and plan attributes of drop points (bay, protection area, opening).
@@ -120,10 +152,47 @@ def point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarra
     with ``reference`` by the plain formulas
     (:func:`droprig.solver.reference.path_reference`; the calculation trace), and then
     the member actions too (:func:`droprig.solver.reference.reference_unit_actions`,
-    kept for the chain in place of the kernel's)."""
+    kept for the chain in place of the kernel's).
+
+    The kernel's answer for a set of points is remembered by the prepared floor
+    ``fm`` (keyed by the points' exact coordinates and the project's protection
+    areas, :data:`KEPT_POINTS` at most), with the :data:`LOAD_FREE` results later
+    worked out for it (:func:`~droprig.solver.unit_actions.unit_actions`): a
+    re-analysis of the same zone after an edit that leaves the floor and the drop
+    points as they were (a load, a height, a setting the floor does not hold) takes
+    them instead of working them out again. The arrays are shared, never written."""
     memory.keep_freed_memory()
     x = np.asarray(x, float)
     y = np.asarray(y, float)
+    if reference or 3 * x.size > KEPT_POINTS:
+        return _point_geometry(fm, project, x, y, reference=reference)
+    key = (project.protection_areas, x.tobytes(), y.tobytes())
+    with _KEPT_LOCK:
+        kept = fm._memo.setdefault("point_geometry", OrderedDict())
+        got = kept.get(key)
+        if got is not None:
+            kept.move_to_end(key)
+    if got is not None:
+        g, load_free = got
+        return Geometry(g.x, g.y, g.path, g.bay, g.protection, g.opening,
+                        _KeptCache(load_free))
+    # (copies: the caller's arrays are its own to change)
+    geo = _point_geometry(fm, project, x.copy(), y.copy(), reference=False)
+    extra: dict = {}
+    out = Geometry(geo.x, geo.y, geo.path, geo.bay, geo.protection, geo.opening,
+                   _KeptCache(extra))
+    with _KEPT_LOCK:
+        kept[key] = (geo, extra)
+        total = sum(g.x.size for g, _ in kept.values())
+        while total > KEPT_POINTS and len(kept) > 1:
+            _, (old, _) = kept.popitem(last=False)
+            total -= old.x.size
+    return out
+
+
+def _point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarray, *,
+                    reference: bool) -> Geometry:
+    """:func:`point_geometry` worked out afresh."""
     with_mass = fm.settings.include_member_mass
     path = (path_reference(fm.frame, x, y, with_mass=with_mass) if reference
             else evaluate_path(fm.frame, x, y, with_mass=with_mass))

@@ -192,3 +192,58 @@ def test_repeated_points_take_the_geometry_of_their_first(path: Path) -> None:
     # no repeats: the plain geometry
     once = geometry.distinct_point_geometry(fm, p, x0, y0)
     _same_geo(once, geometry.point_geometry(fm, p, x0, y0))
+
+
+def _fresh_floor(p):
+    floor._FLOORS.clear()
+    return floor.floor_cache(p)(p.lift_zones[0].level_id)
+
+
+@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
+def test_remembered_point_sets_equal_points_worked_out_afresh(path: Path) -> None:
+    """The prepared floor remembers the geometry and member actions of a point set
+    (geometry.point_geometry, KEPT_POINTS): asked again for the same points it gives
+    what a floor prepared afresh works out, bit for bit; the caller's arrays changed
+    afterwards change nothing kept; the chain's kept steps are not carried over; other
+    protection areas are another set."""
+    from dataclasses import replace
+
+    p = load_project(path)
+    fm = _fresh_floor(p)
+    e = fm.level.grid.extent
+    rng = np.random.default_rng(11)
+    x, y = rng.uniform(e.x0, e.x1, 500), rng.uniform(e.y0, e.y1, 500)
+    first = geometry.point_geometry(fm, p, x, y)
+    unit_actions(fm, first)
+    first.cache["steps"] = object()  # load-dependent: stays with this geometry
+    x0 = x.copy()
+    x[:] = -1.0  # the caller's own array, changed
+    again = geometry.point_geometry(fm, p, x0, y)
+    assert again is not first
+    assert "ua" in again.cache and "steps" not in again.cache
+    assert again.cache["ua"] is first.cache["ua"]  # taken, not worked out again
+    fresh = geometry.point_geometry(_fresh_floor(p), p, x0, y)
+    _same_geo(again, fresh)
+    _same_actions(again.cache["ua"], unit_actions(floor.floor_cache(p)(fm.level.id), fresh))
+    # a pad laid over the whole level: the same points are another set
+    from droprig.model import ProtectionArea, Rect
+
+    pad = ProtectionArea("pad", "pad", fm.level.id, Rect(e.x0, e.y0, e.x1, e.y1),
+                         kind="spring", thickness=0.05, stiffness=1e7)
+    q = replace(p, protection_areas=(pad, *p.protection_areas))  # the first one counts
+    under = geometry.point_geometry(fm, q, x0, y)
+    assert "ua" not in under.cache
+    assert np.all(under.protection == 0)
+
+
+def test_large_point_sets_are_not_remembered() -> None:
+    """A set of more than a third of KEPT_POINTS (a large job's block) is worked out
+    every time and leaves nothing kept."""
+    p = load_project(DEMOS[0])
+    fm = _fresh_floor(p)
+    e = fm.level.grid.extent
+    n = geometry.KEPT_POINTS // 3 + 1
+    rng = np.random.default_rng(3)
+    x, y = rng.uniform(e.x0, e.x1, n), rng.uniform(e.y0, e.y1, n)
+    geometry.point_geometry(fm, p, x, y)
+    assert not fm._memo.get("point_geometry")
