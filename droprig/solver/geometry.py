@@ -250,16 +250,23 @@ def take_geo(geo: Geometry, idx: np.ndarray, *, steps: bool = True) -> Geometry:
     those points, without working them out again (every quantity is per point); with
     ``steps``, the chain's height-free step results kept with ``geo``
     (:class:`KeptSteps`) too."""
+    idx = np.asarray(idx)
+    if idx.dtype == bool:
+        idx = np.flatnonzero(idx)
+
+    def rows(a: np.ndarray) -> np.ndarray:  # a[idx]; take copies whole rows faster
+        return np.take(a, idx, axis=0)
+
     p = geo.path
-    path = PathResult(**{f: getattr(p, f)[idx] for f in p.__dataclass_fields__})
-    out = Geometry(geo.x[idx], geo.y[idx], path, geo.bay[idx], geo.protection[idx],
-                   geo.opening[idx])
+    path = PathResult(**{f: rows(getattr(p, f)) for f in p.__dataclass_fields__})
+    out = Geometry(rows(geo.x), rows(geo.y), path, rows(geo.bay), rows(geo.protection),
+                   rows(geo.opening))
     ua = geo.cache.get("ua")
     if ua is not None:
         out.cache["ua"] = ua.take(idx)
     kept = geo.cache.get("steps")
     if steps and kept is not None:
-        out.cache["steps"] = kept.per_point(lambda a: a[idx])
+        out.cache["steps"] = kept.per_point(rows)
     return out
 
 
