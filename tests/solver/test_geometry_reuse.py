@@ -237,12 +237,12 @@ def test_remembered_point_sets_equal_points_worked_out_afresh(path: Path) -> Non
 
 
 def test_large_point_sets_are_not_remembered() -> None:
-    """A set of more than a third of KEPT_POINTS (a large job's block) is worked out
+    """A set of more than half of KEPT_POINTS (a large job's block) is worked out
     every time and leaves nothing kept."""
     p = load_project(DEMOS[0])
     fm = _fresh_floor(p)
     e = fm.level.grid.extent
-    n = geometry.KEPT_POINTS // 3 + 1
+    n = geometry.KEPT_POINTS // 2 + 1
     rng = np.random.default_rng(3)
     x, y = rng.uniform(e.x0, e.x1, n), rng.uniform(e.y0, e.y1, n)
     geometry.point_geometry(fm, p, x, y)
