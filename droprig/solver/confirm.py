@@ -362,8 +362,8 @@ def _refine(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
     x = (r["x"][top][:, None] + OX.ravel()[None, :]).ravel()
     y = (r["y"][top][:, None] + OY.ravel()[None, :]).ravel()
     ow = np.repeat(own[top], OX.size)
-    x, y = droppoints.project_into_zone(zone, x, y)
-    keep = droppoints.in_zone(zone, x, y) & (locate(fm.frame, x, y) >= 0)
+    x, y, inside = droppoints.into_zone(zone, x, y)
+    keep = inside & (locate(fm.frame, x, y) >= 0)
     rx0 = np.array([t.rect.x0 for t in trials])[ow]
     rx1 = np.array([t.rect.x1 for t in trials])[ow]
     ry0 = np.array([t.rect.y0 for t in trials])[ow]

@@ -67,8 +67,8 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     lj = np.repeat(li[top], OX.size)
     # lattice points beyond the zone edge move onto it: the worst point often lies
     # on the edge nearest a stiff support
-    x, y = droppoints.project_into_zone(zone, x, y)
-    keep = droppoints.in_zone(zone, x, y) & (locate(fm.frame, x, y) >= 0)
+    x, y, inside = droppoints.into_zone(zone, x, y)
+    keep = inside & (locate(fm.frame, x, y) >= 0)
     return x[keep], y[keep], lj[keep]
 
 

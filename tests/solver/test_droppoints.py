@@ -92,6 +92,23 @@ def test_projection_lands_on_the_widened_edge():
     assert py[0] == pytest.approx(1.4, abs=1e-9)  # 0.4 beyond the corridor's top edge
 
 
+@pytest.mark.parametrize("corridor", [(), ((1.0, -1.0), (9.0, -1.0), (9.0, 1.0), (1.0, 1.0))])
+def test_into_zone_tests_only_the_moved_points(corridor) -> None:
+    """into_zone (the refinements' projection with its in-zone test of the moved points
+    only) gives project_into_zone's points and in_zone of all of them, exactly; the
+    corridor's projected points end on the widened edge, within it (hand geometry as
+    above)."""
+    z = _zone(corridor=corridor, drift_margin=0.4, slew_start=-0.5, slew_end=0.5)
+    rng = np.random.default_rng(5)
+    x, y = rng.uniform(-2.0, 14.0, 3000), rng.uniform(-6.0, 8.0, 3000)
+    qx, qy, inside = droppoints.into_zone(z, x, y)
+    px, py = droppoints.project_into_zone(z, x, y)
+    assert np.array_equal(qx, px) and np.array_equal(qy, py)
+    assert np.array_equal(inside, droppoints.in_zone(z, qx, qy))
+    moved = (qx != x) | (qy != y)
+    assert moved.sum() > 100 and inside[moved].mean() > 0.9
+
+
 def test_bay_index_order(frame):
     level = frame.level
     # bays row by row (y outer, x inner): (1-2/A-B, 2-3/A-B, 1-2/B-C, 2-3/B-C)
