@@ -95,9 +95,9 @@ def test_projection_lands_on_the_widened_edge():
 @pytest.mark.parametrize("corridor", [(), ((1.0, -1.0), (9.0, -1.0), (9.0, 1.0), (1.0, 1.0))])
 def test_into_zone_tests_only_the_moved_points(corridor) -> None:
     """into_zone (the refinements' projection with its in-zone test of the moved points
-    only) gives project_into_zone's points and in_zone of all of them, exactly; the
-    corridor's projected points end on the widened edge, within it (hand geometry as
-    above)."""
+    only) gives project_into_zone's points and in_zone of all of them, exactly. A
+    property of the implementation (the in-zone test is point by point), no
+    engineering source; random points are inputs only."""
     z = _zone(corridor=corridor, drift_margin=0.4, slew_start=-0.5, slew_end=0.5)
     rng = np.random.default_rng(5)
     x, y = rng.uniform(-2.0, 14.0, 3000), rng.uniform(-6.0, 8.0, 3000)
