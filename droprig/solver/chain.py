@@ -647,16 +647,15 @@ def struck_mass(c: Chain) -> StruckMass:
     return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e), m2=m2)
 
 
-TWO_FORCES = False
-"""Whether the floor chain gives two forces per point (contact and framing, the
-two-mass model with the slab's and the column-moved floor's mass, :func:`struck_mass`
-``m2``, :func:`two_forces`). Its forces are the envelope over lower drops
-(monotone in the height) and its inverse answers are found on the forward chain
+TWO_FORCES = True
+"""Two forces per point, on: the floor chain gives the contact force and the force on
+the framing of the two-mass model with the slab's and the column-moved floor's mass
+(:func:`struck_mass` ``m2``, :func:`two_forces`), each the envelope over lower drops
+(monotone in the height); the inverse answers are found on the forward chain
 (:func:`two_force_height`): every allowable height holds in the forward run, and
-1.01 × it fails (tests/solver/test_two_force_inverse.py). Off by default for its
-cost: ``analyse()`` of the demos 2.2–2.5 × (benchmarks/bench_solver.py, 2a; the
-target was 1.5 ×); the allowable mass still takes the planned height's energy share
-(README, "Two forces per point")."""
+1.01 × it fails (tests/solver/test_two_force_inverse.py). A test switch only (off:
+the one-mass step alone, as tests that guard it set it; README, "Two forces per
+point")."""
 
 
 def slab_frame(fm: FloorModel) -> loadpath.Frame:
@@ -1633,7 +1632,17 @@ def checks(c: Chain) -> Checks:
     def brittle_U(k: str, U: np.ndarray) -> np.ndarray:
         return np.where(sr.ductile, zero, U) if k == "deck_flexure" else U
 
-    Ub_at_Rp = tuple(brittle_U(k, chk[k].U_at(R_p)) for k in brittle)
+    # two forces per point: the deck's (contact) families are scaled to the framing
+    # force by A = F_deck/F (on_contact). Where A < 1 the framing yielding at R_p
+    # does not lower the force on the deck below min(F_deck, R_p): the contact lies
+    # before the struck mass in the load path (two-mass model, CEB Bulletin 187 —
+    # from memory), so the framing's plastic resistance bounds it no lower than the
+    # one force in series would be (R_p), and never above its own elastic value
+    A = imp.deck_ratio
+    with np.errstate(divide="ignore", invalid="ignore"):
+        R_deck = np.where(A < 1.0, np.fmin(F, R_p / np.where(A > 0.0, A, 1.0)), R_p)
+    Ub_at_Rp = tuple(brittle_U(k, chk[k].U_at(R_deck if k in CONTACT_CHECKS else R_p))
+                     for k in brittle)
     at_F = (F <= R_p) | np.isnan(F)
     Ub = np.stack([np.where(at_F, brittle_U(k, chk[k].U), u)
                    for k, u in zip(brittle, Ub_at_Rp, strict=True)])
