@@ -521,10 +521,19 @@ def _check_steps(sheet: _Sheet) -> None:
     add("Allowable drop height (beyond yield)", "h_allow,pl",
         "h = δ_y(R_p(μ − ½) − Wμ)/(ηW)", {"R_p": (by.R_p[0], "force")},
         inv.h_pl[0], "length", _SRC_PLASTIC)
-    add("Allowable mass at the planned height", "M_allow",
-        "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e)))), through crushing where the force "
-        "passes the crushing force first (bisection on the forward model)", {},
-        inv.m_allow[0], "mass", _SRC_GERE + " solved for M")
+    if two:
+        add("Allowable mass at the planned height with two forces: the heaviest load of "
+            "the same underside whose forward two-mass impact keeps every check within "
+            "its resistance", "M_allow",
+            "max M: U(F_f(M), F_deck(M)) ≤ 1, searched from the one-mass closed form "
+            "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e))))", {}, inv.m_allow[0], "mass",
+            "search on the forward chain (droprig.solver.chain.two_force_mass); "
+            + _SRC_TWO_MASS)
+    else:
+        add("Allowable mass at the planned height", "M_allow",
+            "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e)))), through crushing where the "
+            "force passes the crushing force first (bisection on the forward model)", {},
+            inv.m_allow[0], "mass", _SRC_GERE + " solved for M")
     add("Spring mat that keeps the point elastic", "k_req", "k = 1/(f_req − f_s)", {},
         inv.k_req[0], "stiffness", "series springs; " + _SRC_GERE)
 
