@@ -58,7 +58,7 @@ replace it for the steps after it (e.g. a refined :class:`Compliance`).
 from __future__ import annotations
 
 from collections.abc import Callable, Mapping
-from dataclasses import dataclass, fields, replace
+from dataclasses import dataclass
 from typing import TypeVar, cast
 
 import numpy as np
@@ -2022,37 +2022,6 @@ H_TOL = 1e-3
 answer lies within it below the exact boundary)."""
 H_SEARCH_MAX = 1000.0
 """Largest allowable free fall :func:`two_force_height` looks for, m."""
-
-
-def _take(result: S, idx: np.ndarray, n: int) -> S:
-    """A step's result at the points ``idx``: every per-point array field (first
-    dimension n) indexed, the rest kept."""
-    kw = {}
-    for fd in fields(result):  # type: ignore[arg-type]
-        v = getattr(result, fd.name)
-        if isinstance(v, np.ndarray) and v.ndim >= 1 and v.shape[0] == n:
-            v = v[idx]
-        kw[fd.name] = v
-    return type(result)(**kw)
-
-
-def sub_chain(c: Chain, idx: np.ndarray) -> Chain:
-    """The chain at the points ``idx`` up to the struck mass (inputs, compliance,
-    struck mass taken from ``c``; the impact step can then be run on these points
-    alone, as :func:`two_force_height` does)."""
-    d, n = c.drop, c.drop.n
-    g = d.geo
-    # the points' geometry without the member actions (the impact step does not
-    # read them; take_geo would carry them along)
-    path = type(g.path)(**{f: getattr(g.path, f)[idx] for f in g.path.__dataclass_fields__})
-    geo = Geometry(g.x[idx], g.y[idx], path, g.bay[idx], g.protection[idx], g.opening[idx])
-    drop = replace(d, geo=geo, li=d.li[idx],
-                   H=None if d.H is None else d.H[idx],
-                   mat_k=None if d.mat_k is None else d.mat_k[idx])
-    sub = Chain(drop)
-    for kind in (LoadInputs, Compliance, StruckMass):
-        sub.add(_take(c[kind], idx, n))
-    return sub
 
 
 class TwoForceKernel:
