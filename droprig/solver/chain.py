@@ -2110,7 +2110,8 @@ class TwoForceKernel:
 def two_force_height(c: Chain, h0: np.ndarray,
                      excess_at: Callable[[TwoForceKernel, np.ndarray, np.ndarray],
                                          np.ndarray],
-                     kern: TwoForceKernel | None = None) -> np.ndarray:
+                     kern: TwoForceKernel | None = None,
+                     top: float = H_SEARCH_MAX) -> np.ndarray:
     """The largest free fall (m) at which the forward two-force chain passes, per
     point with two forces (others keep ``h0``): ``excess_at(kern, rows, h)`` is the
     forward run's excess at the falls ``h`` of the kernel's points ``rows``
@@ -2130,7 +2131,9 @@ def two_force_height(c: Chain, h0: np.ndarray,
     bracket always holds a passing and a failing height and ends within
     :data:`H_TOL` of the height (at most :data:`BISECTIONS` rounds). The lower end —
     a height the forward run passed — is returned. NaN where even a zero fall fails;
-    :data:`H_SEARCH_MAX` where that passes."""
+    ``top`` (:data:`H_SEARCH_MAX`) where that passes. The same search serves any
+    variable the excess grows with as a power ½–1 (the allowable mass,
+    :func:`two_force_mass`, with its own ``top``)."""
     two = c[Impact].two_mass
     if two is None or not two.any():
         return h0
@@ -2152,7 +2155,7 @@ def two_force_height(c: Chain, h0: np.ndarray,
         r = np.asarray(excess_at(kern, rows, trial.ravel()), dtype=float)
         return np.where(np.isnan(r), np.inf, r).reshape(trial.shape)
 
-    start = np.clip(h0[idx], 1e-6, H_SEARCH_MAX)
+    start = np.clip(h0[idx], 1e-6 * min(top, 1.0), top)
     everyone = np.arange(m)
     r0 = run(everyone, start)
     # the excess is a ratio less one that grows as h^p, p between ½ (a force, Gere
@@ -2160,9 +2163,9 @@ def two_force_height(c: Chain, h0: np.ndarray,
     # on it where p = ½; the pair H_TOL/3 either side of it closes the bracket then
     with np.errstate(divide="ignore", invalid="ignore"):
         U0 = np.where(np.isfinite(r0) & (r0 > -1.0), 1.0 + r0, np.where(r0 > 0, 16.0, 1 / 16))
-    h1 = np.clip(start / U0**2, start / 16.0, np.minimum(16.0 * start, H_SEARCH_MAX))
+    h1 = np.clip(start / U0**2, start / 16.0, np.minimum(16.0 * start, top))
     pair = np.minimum(np.stack([h1 * (1.0 - H_TOL / 3.0), h1 * (1.0 + H_TOL / 3.0)], axis=1),
-                      H_SEARCH_MAX)
+                      top)
     fan = np.sort(np.concatenate([start[:, None], pair], axis=1), axis=1)
     rp = run(everyone, pair)
     rf = np.take_along_axis(np.concatenate([r0[:, None], rp], axis=1),
@@ -2177,18 +2180,18 @@ def two_force_height(c: Chain, h0: np.ndarray,
     r_lo = np.where(n_ok > 0, rf[ar, i_lo], np.nan)
     r_hi = np.where(n_ok < nf, rf[ar, i_hi], np.nan)
     # beyond the fan: up by ×4 from an all-passing fan, down by ÷4 from an all-failing
-    up = (n_ok == nf) & (lo < H_SEARCH_MAX)
+    up = (n_ok == nf) & (lo < top)
     for _ in range(12):
         if not up.any():
             break
         w = np.flatnonzero(up)
-        trial = np.minimum(lo[w] * 4.0, H_SEARCH_MAX)
+        trial = np.minimum(lo[w] * 4.0, top)
         r = run(w, trial)
         okw = r <= 0.0
         lo[w[okw]], r_lo[w[okw]] = trial[okw], r[okw]
         hi[w[~okw]], r_hi[w[~okw]] = trial[~okw], r[~okw]
-        up[w] = okw & (trial < H_SEARCH_MAX)
-    unbounded = hi == 0.0  # passes at H_SEARCH_MAX
+        up[w] = okw & (trial < top)
+    unbounded = hi == 0.0  # passes at top
     down = n_ok == 0
     for _ in range(32):
         if not down.any():
@@ -2235,10 +2238,10 @@ def two_force_height(c: Chain, h0: np.ndarray,
         j = np.maximum(n_okp - 1, 0)
         lo[w[got]] = pair[got, j[got]]
         r_lo[w[got]] = r[got, j[got]]
-        top = n_okp < 2
+        upper = n_okp < 2
         jt = np.minimum(n_okp, 1)
-        hi[w[top]] = pair[top, jt[top]]
-        r_hi[w[top]] = r[top, jt[top]]
+        hi[w[upper]] = pair[upper, jt[upper]]
+        r_hi[w[upper]] = r[upper, jt[upper]]
         # a round that did not halve the bracket is followed by a bisection
         bisect[w] = (np.sqrt(hi[w]) - np.sqrt(lo[w])) > 0.5 * width0
     h = h0.copy()
@@ -2246,13 +2249,10 @@ def two_force_height(c: Chain, h0: np.ndarray,
     return h
 
 
-MASS_FAN = (0.25, 0.5, 0.8, 1.0, 1.25, 2.0)
-"""Factors on the one-mass allowable mass tried at once by :func:`two_force_mass`."""
-MASS_ROUNDS = 2
-"""Rounds of :func:`two_force_mass` after the fan, each cutting the bracket (in log M)
-in :data:`MASS_CUTS` + 1: within 3 % (the bay's printed mass is then tried on the
-forward chain, droprig.solver.confirm)."""
-MASS_CUTS = 4
+
+
+MASS_SEARCH_MAX = 1.0e6
+"""Largest allowable mass :func:`two_force_mass` looks for, kg."""
 
 
 def two_force_mass(c: Chain, kern: TwoForceKernel, m0: np.ndarray,
@@ -2260,13 +2260,12 @@ def two_force_mass(c: Chain, kern: TwoForceKernel, m0: np.ndarray,
     """The allowable mass at the planned height with two forces per point, kg: the
     heaviest load of the same underside whose framing force and deck force
     (:meth:`TwoForceKernel.forces_at_mass`) keep every check family within its
-    allowed force (as :func:`two_force_elastic_height`), found from the one-mass
-    closed form's mass ``m0`` (Gere §9.10 solved for M) by the fan :data:`MASS_FAN`
-    and :data:`MASS_ROUNDS` rounds of :data:`MASS_CUTS` cuts in log M (the forces grow
-    with M: the
-    pass/fail boundary is searched as one mass; droprig.solver.confirm tries the
-    bay's printed mass on the forward chain). ``h``: the planned free falls (m). Others
-    keep ``m0``; NaN where even m0/4⁹ fails (no mass is offered)."""
+    allowed force (as :func:`two_force_elastic_height`), found by the search of
+    :func:`two_force_height` in the mass (the forces grow with M as a power ½–1:
+    F ≈ √(2·M·g·h/f) + M·g, Gere §9.10) from the one-mass closed form's mass ``m0``
+    (Gere §9.10 solved for M), within :data:`H_TOL` of it; droprig.solver.confirm
+    tries the bay's printed mass on the forward chain. ``h``: the planned free falls
+    (m). Others keep ``m0``; NaN where no mass passes."""
     chk = c[Demands].checks
     A0 = c[Impact].deck_ratio
     n = c.drop.n
@@ -2278,66 +2277,16 @@ def two_force_mass(c: Chain, kern: TwoForceKernel, m0: np.ndarray,
             Fa_deck = np.minimum(Fa_deck, fa * A0)
         else:
             Fa_frame = np.minimum(Fa_frame, fa)
-    live = np.isfinite(m0[kern.idx]) & (m0[kern.idx] > 0.0)
-    rows = np.flatnonzero(live)
-    if not rows.size:
-        return m0
-    pts = kern.idx[rows]
+    Fa_frame_k, Fa_deck_k, h_k = Fa_frame[kern.idx], Fa_deck[kern.idx], h[kern.idx]
 
-    def passes(Mx: np.ndarray) -> np.ndarray:
-        k = Mx.shape[1]
-        rr = np.repeat(rows, k)
-        pp = np.repeat(pts, k)
-        F, F_deck, _ = kern.forces_at_mass(np.repeat(h[pts], k), Mx.ravel(), rr)
+    def excess(kn: TwoForceKernel, rows: np.ndarray, Mx: np.ndarray) -> np.ndarray:
         with np.errstate(divide="ignore", invalid="ignore"):
-            ex = np.maximum(F / Fa_frame[pp], F_deck / Fa_deck[pp]) - 1.0
-        return (ex <= 0.0).reshape(Mx.shape)
+            F, F_deck, _ = kn.forces_at_mass(h_k[rows], Mx, rows)
+            return np.maximum(F / Fa_frame_k[rows], F_deck / Fa_deck_k[rows]) - 1.0
 
-    fan = m0[pts][:, None] * np.asarray(MASS_FAN)[None, :]
-    ok = passes(fan)
-    # the lightest failure and the heaviest pass below it (the forces grow with M)
-    first_fail = np.where(~ok.all(axis=1), np.argmin(ok, axis=1), len(MASS_FAN))
-    ar = np.arange(rows.size)
-    lo = np.where(first_fail == 0, np.nan, fan[ar, np.maximum(first_fail - 1, 0)])
-    hi = np.where(first_fail < len(MASS_FAN),
-                  fan[ar, np.minimum(first_fail, len(MASS_FAN) - 1)], np.inf)
-    # failing at the fan's lightest: down by ÷4 (a heavy unit on a soft underside
-    # can take a fraction of the one-mass answer: the contact's pulse meets the
-    # framing's period)
-    down = first_fail == 0
-    all_rows, all_pts = rows, pts
-    for _ in range(8):
-        if not down.any():
-            break
-        w = np.flatnonzero(down)
-        rows, pts = all_rows[w], all_pts[w]
-        trial = hi[w] / 4.0
-        okw = passes(trial[:, None])[:, 0]
-        rows, pts = all_rows, all_pts
-        lo[w[okw]] = trial[okw]
-        hi[w[~okw]] = trial[~okw]
-        down[w[okw]] = False
-    none = down
-    work = ~none & np.isfinite(hi)
-    k = np.arange(1, MASS_CUTS + 1) / (MASS_CUTS + 1.0)
-    for _ in range(MASS_ROUNDS):
-        if not work.any():
-            break
-        w = np.flatnonzero(work)
-        trial = np.exp(np.log(lo[w])[:, None]
-                       + (np.log(hi[w]) - np.log(lo[w]))[:, None] * k[None, :])
-        sub_rows, sub_pts = rows, pts
-        rows, pts = sub_rows[w], sub_pts[w]
-        okw = passes(trial)
-        rows, pts = sub_rows, sub_pts
-        ff = np.where(~okw.all(axis=1), np.argmin(okw, axis=1), MASS_CUTS)
-        got = ff > 0
-        lo[w[got]] = trial[got, ff[got] - 1]
-        top = ff < MASS_CUTS
-        hi[w[top]] = trial[top, ff[top]]
-    out = m0.copy()
-    out[pts] = lo
-    return out
+    start = np.where(np.isfinite(m0) & (m0 > 0.0), m0, np.nan)
+    out = two_force_height(c, start, excess, kern, top=MASS_SEARCH_MAX)
+    return np.where(np.isnan(start), m0, out)
 
 
 def two_force_elastic_height(c: Chain, h_el: np.ndarray,
