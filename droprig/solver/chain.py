@@ -2052,15 +2052,19 @@ class TwoForceKernel:
         self.f_series, self.f_s, self.m2 = comp.f_series[idx], comp.f_s[idx], sm.m2[idx]
         self.env = struck_mass_mod.EnvelopeLookup(self.W, self.f_series, self.f_s, self.m2)
 
-    def forces(self, h: np.ndarray, rows: np.ndarray | None = None
-               ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    def forces(self, h: np.ndarray, rows: np.ndarray | None = None,
+               need_eta: bool = True) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         """At the free falls ``h`` (m) of the kernel's points ``rows`` (all where
         None): the force on the framing F (N), the deck's force F_deck (N) and the
-        framing's energy share η_frame, as :func:`impact_at` gives them."""
+        framing's energy share η_frame, as :func:`impact_at` gives them (``need_eta``
+        False: the one-mass η in its place, not worked out)."""
         r = slice(None) if rows is None else rows
         W, f, eta, F_crush = self.W[r], self.f[r], self.eta[r], self.F_crush[r]
         he = h + self.head if self.head > 0.0 else h
-        _, F_el, _ = impact_mod.impact_elastic(W, he, f, eta)
+        # Gere Eq. 9-94 as impact_mod.dynamic_factor (W·f > 0 at every point here)
+        e = eta * he
+        ratio = np.where(e <= 0.0, 0.0, 2.0 * e / (W * f))
+        F_el = (1.0 + np.sqrt(1.0 + ratio)) * W
         cap = F_el > F_crush
         F1 = F_el
         if cap.any():
@@ -2069,10 +2073,10 @@ class TwoForceKernel:
             F1 = F_el.copy()
             F1[cap] = Fb
         Fc2, Ff2 = self.env.at(he, rows)
-        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r])
+        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta)
 
-    def forces_at_mass(self, h: np.ndarray, M: np.ndarray, rows: np.ndarray
-                       ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    def forces_at_mass(self, h: np.ndarray, M: np.ndarray, rows: np.ndarray,
+                       need_eta: bool = True) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         """:meth:`forces` for loads of mass ``M`` (kg) in place of the points' own
         (the same underside, footprint and struck masses; η = M/(M + m_e), the
         envelope through :func:`droprig.solver.struck_mass.envelope_two_forces`)."""
@@ -2090,12 +2094,13 @@ class TwoForceKernel:
             F1[cap] = Fb
         Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W, he, self.f_series[rows],
                                                        self.f_s[rows], self.m2[rows])
-        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[rows])
+        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[rows], need_eta)
 
     @staticmethod
     def _caps(W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
               F_crush: np.ndarray, F1: np.ndarray, Fc2: np.ndarray, Ff2: np.ndarray,
-              soft: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+              soft: np.ndarray, need_eta: bool = True
+              ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         """The caps of :func:`two_forces` on the envelope's forces (N)."""
         through = np.maximum(F_crush, F1)
         Fc = np.where(Fc2 > F_crush, through, Fc2)
@@ -2103,6 +2108,8 @@ class TwoForceKernel:
         ok = np.isfinite(F1)
         Ff = np.where(ok, Ff, F1)
         F_deck = np.where(ok & soft, Fc, F1)
+        if not need_eta:  # the caller reads the forces alone
+            return Ff, F_deck, eta
         eta_f = np.where(ok, struck_mass_mod.equivalent_eta(W, he, f, Ff, eta), eta)
         return Ff, F_deck, eta_f
 
@@ -2281,7 +2288,7 @@ def two_force_mass(c: Chain, kern: TwoForceKernel, m0: np.ndarray,
 
     def excess(kn: TwoForceKernel, rows: np.ndarray, Mx: np.ndarray) -> np.ndarray:
         with np.errstate(divide="ignore", invalid="ignore"):
-            F, F_deck, _ = kn.forces_at_mass(h_k[rows], Mx, rows)
+            F, F_deck, _ = kn.forces_at_mass(h_k[rows], Mx, rows, need_eta=False)
             return np.maximum(F / Fa_frame_k[rows], F_deck / Fa_deck_k[rows]) - 1.0
 
     start = np.where(np.isfinite(m0) & (m0 > 0.0), m0, np.nan)
@@ -2317,7 +2324,7 @@ def two_force_elastic_height(c: Chain, h_el: np.ndarray,
     Fa_frame_k, Fa_deck_k = Fa_frame[kern.idx], Fa_deck[kern.idx]
 
     def excess(kn: TwoForceKernel, rows: np.ndarray, hx: np.ndarray) -> np.ndarray:
-        F, F_deck, _ = kn.forces(hx, rows)
+        F, F_deck, _ = kn.forces(hx, rows, need_eta=False)
         with np.errstate(divide="ignore", invalid="ignore"):
             return np.maximum(F / Fa_frame_k[rows], F_deck / Fa_deck_k[rows]) - 1.0
 

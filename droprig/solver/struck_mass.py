@@ -581,6 +581,13 @@ def _log_envelope() -> tuple[np.ndarray, np.ndarray]:
     return np.log(Ff).ravel(), np.log(Fc).ravel()
 
 
+@functools.lru_cache(maxsize=1)
+def _log_envelope_pair() -> np.ndarray:
+    """ln of the stored envelope, (framing, contact) side by side per node, (N, 2)."""
+    LF, LC = _log_envelope()
+    return np.ascontiguousarray(np.stack([LF, LC], axis=1))
+
+
 def _cell(lg: np.ndarray, start: float, step: float, n: int
           ) -> tuple[np.ndarray, np.ndarray]:
     """Lower node (of ``n``, clamped to the table's edge cells) and the position in
@@ -702,6 +709,9 @@ class EnvelopeLookup:
         self.wab = np.stack([wa * wb for wa in (1.0 - wi, wi) for wb in (1.0 - wj, wj)])
         self.W, self.fc, self.ff, self.m2 = W, fc, ff, m2
         self.Wff = W * ff
+        self.Wfc = W * fc
+        with np.errstate(divide="ignore", invalid="ignore"):
+            self.ff_fc, self.fc_ff = ff / fc, fc / ff
         self.eta = M / (M + m2)
         self.d_st = W * (fc + ff)
 
@@ -711,9 +721,8 @@ class EnvelopeLookup:
         ``h`` (m) of the points ``rows`` (indices into the points given; all where
         None), as :func:`envelope_two_forces`."""
         r = slice(None) if rows is None else rows
-        W, fc, ff = self.W[r], self.fc[r], self.ff[r]
+        W = self.W[r]
         h = np.broadcast_to(np.asarray(h, float), W.shape)
-        LF, LC = _log_envelope()
         _, _, (h0, _, dh) = ENVELOPE_GRID
         nh = _envelope()[0].shape[2]
         Wff = self.Wff[r]
@@ -723,22 +732,27 @@ class EnvelopeLookup:
         k, wk = _cell(lhh, h0, dh, nh)
         top = h0 + (nh - 1) * dh
         over = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh, top) - top), 1.0))
-        lf = np.zeros(W.shape)
-        lc = np.zeros(W.shape)
+        LFC = _log_envelope_pair()
+        acc = np.zeros((W.size, 2))
         base, wab = self.base[:, r], self.wab[:, r]
         for q in range(4):
             b = base[q] + k
             w1 = wab[q] * wk
             w0 = wab[q] - w1
-            lf += w0 * LF[b] + w1 * LF[b + 1]
-            lc += w0 * LC[b] + w1 * LC[b + 1]
-        Ff = np.exp(lf) * over * W
-        Fc = np.exp(lc) * over * self.c_scale[r] * W
+            acc += w0[:, None] * LFC[b] + w1[:, None] * LFC[b + 1]
+        e = np.exp(acc)
+        Ff = e[:, 0] * over * W
+        Fc = e[:, 1] * over * self.c_scale[r] * W
         eta, d_st = self.eta[r], self.d_st[r]
+        hp = np.maximum(h, 0.0)
         with np.errstate(divide="ignore", invalid="ignore"):
             F1 = W * (1.0 + np.sqrt(1.0 + 2.0 * np.maximum(eta * h, 0.0)
                                     / np.where(d_st > 0.0, d_st, np.inf)))
-        Bc, Bf = energy_bounds(W, h, fc, ff)
+            # energy_bounds, with the height-free parts kept
+            Bc = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / self.Wfc[r] + self.ff_fc[r]))
+            Bf = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / self.Wff[r] + self.fc_ff[r]))
+        Bc = np.where(np.isnan(Bc), np.inf, Bc)
+        Bf = np.where(np.isnan(Bf), np.inf, Bf)
         bad = ~(np.isfinite(Ff) & np.isfinite(Fc))
         if bad.any():
             Ff[bad], Fc[bad] = Bf[bad], Bc[bad]
