@@ -129,8 +129,12 @@ def test_project_one_point_json_and_plots(tmp_path: Path,
     assert len(data["points"]) == 1 and data["caution"] == CAUTION
     pt = data["points"][0]
     # on a beam line the modelled member carries the whole load: the energy column is
-    # the floor chain's own peak force (Gere §9.10 on the same compliance)
-    assert pt["energy_method"]["force"] == pytest.approx(pt["chain_peak_force"], rel=1e-3)
+    # the one-mass force on the same compliance (Gere §9.10). The chain's force on the
+    # framing is the two-mass model's (two forces per point, the floor with its slab as
+    # the struck mass): for this heavy unit on a soft underside never lighter than the
+    # energy method of the framing alone (the contact's pulse meets the framing's
+    # period; CEB Bulletin 187 two-mass — from memory)
+    assert pt["chain_peak_force"] >= pt["energy_method"]["force"] * (1 - 1e-3)
     for key in ("force", "moment", "shear", "deflection"):
         assert pt["amplified_demand"][key] >= pt["time_history"][key]
     assert len(data["plots"]) == 3

@@ -67,12 +67,23 @@ def test_one_member_missing_is_named_alone():
         assert f"of member {first.id} " in c.detail
 
 
+def _lowered(project: Project, k: float) -> Project:
+    """``project`` with every load's mass × k."""
+    zones = tuple(replace(z, loads=tuple(replace(ld, mass=ld.mass * k) for ld in z.loads))
+                  for z in project.lift_zones)
+    return replace(project, lift_zones=zones)
+
+
 def test_load_never_plainly_acceptable_without_capacities():
     # a load that reads 'acceptable' once its connections have capacities above any
     # end shear reads 'acceptable with conditions' while they are unconfirmed
     found = 0
-    for seed in range(20):
-        project = random_project(seed)
+    # the random floors as they are, then with loads of a tenth of the mass (with two
+    # forces per point none of the first 120 random floors holds a load acceptable as
+    # it is: measured)
+    cases = [(seed, k) for k in (1.0, 0.1) for seed in range(20)]
+    for seed, k in cases:
+        project = _lowered(random_project(seed), k)
         full = _with_capacities(project, 1e8)
         pc_full = derive_conditions(full, analyse(full))
         ok = [(lv.zone_id, lv.load_name) for lv in pc_full.loads if lv.verdict == "acceptable"]

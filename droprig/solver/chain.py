@@ -58,7 +58,7 @@ replace it for the steps after it (e.g. a refined :class:`Compliance`).
 from __future__ import annotations
 
 from collections.abc import Callable, Mapping
-from dataclasses import dataclass, fields, replace
+from dataclasses import dataclass
 from typing import TypeVar, cast
 
 import numpy as np
@@ -647,16 +647,15 @@ def struck_mass(c: Chain) -> StruckMass:
     return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e), m2=m2)
 
 
-TWO_FORCES = False
-"""Whether the floor chain gives two forces per point (contact and framing, the
-two-mass model with the slab's and the column-moved floor's mass, :func:`struck_mass`
-``m2``, :func:`two_forces`). Its forces are the envelope over lower drops
-(monotone in the height) and its inverse answers are found on the forward chain
+TWO_FORCES = True
+"""Two forces per point, on: the floor chain gives the contact force and the force on
+the framing of the two-mass model with the slab's and the column-moved floor's mass
+(:func:`struck_mass` ``m2``, :func:`two_forces`), each the envelope over lower drops
+(monotone in the height); the inverse answers are found on the forward chain
 (:func:`two_force_height`): every allowable height holds in the forward run, and
-1.01 × it fails (tests/solver/test_two_force_inverse.py). Off by default for its
-cost: ``analyse()`` of the demos 2.2–2.5 × (benchmarks/bench_solver.py, 2a; the
-target was 1.5 ×); the allowable mass still takes the planned height's energy share
-(README, "Two forces per point")."""
+1.01 × it fails (tests/solver/test_two_force_inverse.py). A test switch only (off:
+the one-mass step alone, as tests that guard it set it; README, "Two forces per
+point")."""
 
 
 def slab_frame(fm: FloorModel) -> loadpath.Frame:
@@ -1633,7 +1632,17 @@ def checks(c: Chain) -> Checks:
     def brittle_U(k: str, U: np.ndarray) -> np.ndarray:
         return np.where(sr.ductile, zero, U) if k == "deck_flexure" else U
 
-    Ub_at_Rp = tuple(brittle_U(k, chk[k].U_at(R_p)) for k in brittle)
+    # two forces per point: the deck's (contact) families are scaled to the framing
+    # force by A = F_deck/F (on_contact). Where A < 1 the framing yielding at R_p
+    # does not lower the force on the deck below min(F_deck, R_p): the contact lies
+    # before the struck mass in the load path (two-mass model, CEB Bulletin 187 —
+    # from memory), so the framing's plastic resistance bounds it no lower than the
+    # one force in series would be (R_p), and never above its own elastic value
+    A = imp.deck_ratio
+    with np.errstate(divide="ignore", invalid="ignore"):
+        R_deck = np.where(A < 1.0, np.fmin(F, R_p / np.where(A > 0.0, A, 1.0)), R_p)
+    Ub_at_Rp = tuple(brittle_U(k, chk[k].U_at(R_deck if k in CONTACT_CHECKS else R_p))
+                     for k in brittle)
     at_F = (F <= R_p) | np.isnan(F)
     Ub = np.stack([np.where(at_F, brittle_U(k, chk[k].U), u)
                    for k, u in zip(brittle, Ub_at_Rp, strict=True)])
@@ -1883,10 +1892,13 @@ def inverse_answers(c: Chain) -> InverseAnswers:
                              imp.F_crush, np.full(d.n, cover), W, eta)
     # the energy heights above as free falls: less the hoist's lowering speed head
     h_el = fall_from_energy(c, h_el)
+    # the two-force points' impact at any height (the searches' fast kernel)
+    kern = (TwoForceKernel(c, np.flatnonzero(imp.two_mass))
+            if imp.two_mass is not None and imp.two_mass.any() and not d.trial else None)
     if s.dynamic_amplification and not d.trial:
         h_el = confirm_amplified_height(c, h_el)
-    elif imp.two_mass is not None and not d.trial:
-        h_el = two_force_elastic_height(c, h_el)
+    elif kern is not None:
+        h_el = two_force_elastic_height(c, h_el, kern)
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
     for u in ck.Ub_at_Rp[1:]:
@@ -1911,17 +1923,17 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
-    if imp.two_mass is not None and imp.two_mass.any() and not d.trial:
+    if kern is not None:
         # two forces: the framing's energy share changes with the height; the energy
         # the closed form allows, η·h (η of the planned height), is matched by the
         # forward impact's η_frame(h)·h_e(h), non-decreasing in h (two_forces)
         E_lim = eta * energy_fall(c, h_pl)
+        E_k = E_lim[kern.idx]
 
-        def within(sub: Chain, idx: np.ndarray, hx: np.ndarray) -> np.ndarray:
-            e = impact_at(sub, hx).eta_frame
-            assert e is not None
+        def within(kn: TwoForceKernel, rows: np.ndarray, hx: np.ndarray) -> np.ndarray:
+            e = kn.forces(hx, rows)[2]
             with np.errstate(divide="ignore", invalid="ignore"):
-                return e * energy_fall(sub, hx) / E_lim[idx] - (1.0 + 1e-12)
+                return e * energy_fall(c, hx) / E_k[rows] - (1.0 + 1e-12)
 
         # where the energy at the elastic allowable height already passes the limit,
         # the plastic boundary lies below it and the answer is the elastic height
@@ -1929,14 +1941,14 @@ def inverse_answers(c: Chain) -> InverseAnswers:
         ask = imp.two_mass & np.isfinite(h_pl) & np.isfinite(h_el) & (h_el > 0.0)
         if ask.any():
             ia = np.flatnonzero(ask)
-            below = within(sub_chain(c, ia), ia, h_el[ia]) > 0.0
+            below = within(kern, np.searchsorted(kern.idx, ia), h_el[ia]) > 0.0
             h_pl[ia[below]] = h_el[ia[below]]
             skip = np.zeros(d.n, dtype=bool)
             skip[ia[below]] = True
             h_pl = np.where(skip, h_pl, two_force_height(c, np.where(skip, np.nan, h_pl),
-                                                         within))
+                                                         within, kern))
         else:
-            h_pl = two_force_height(c, h_pl, within)
+            h_pl = two_force_height(c, h_pl, within, kern)
     # what sets the plastic height: the ductility or the rotation limit, or the
     # elastic height where that is larger
     with np.errstate(invalid="ignore"):
@@ -1952,6 +1964,8 @@ def inverse_answers(c: Chain) -> InverseAnswers:
         m_allow[capped] = _mass_through_crushing(
             Fa_pos[capped], h_e[capped], f[capped], sm.m_e[capped], imp.F_crush[capped],
             cover, m_allow[capped])
+    if kern is not None:
+        m_allow = two_force_mass(c, kern, m_allow, inp.h)
     if crushable.any():
         # through the crushable layer that lies there (η = 1 under a layer)
         m_allow[crushable] = limits.allowable_mass_crushable(
@@ -2000,68 +2014,133 @@ def two_force_utilisation_at(c: Chain, h: np.ndarray,
     return U
 
 
-BISECTIONS = 12
-"""Rounds at most of :func:`two_force_height` after the bracket (each cuts the
-bracket, at most a factor 4, into :data:`_SECTIONS` + 1)."""
-_SECTIONS = 8
-"""Heights tried at once per point in each round of :func:`two_force_height`."""
+BISECTIONS = 40
+"""Rounds at most of :func:`two_force_height` after the bracket (each halves the
+bracket in √h at least every second round)."""
 H_TOL = 1e-3
 """Width of :func:`two_force_height`'s final bracket, as a share of the height (the
 answer lies within it below the exact boundary)."""
-_WIDEN = (1.02, 1.25, 4.0)
-"""The bracket's steps out from the closed form's height (then ×4 each)."""
 H_SEARCH_MAX = 1000.0
 """Largest allowable free fall :func:`two_force_height` looks for, m."""
 
 
-def _take(result: S, idx: np.ndarray, n: int) -> S:
-    """A step's result at the points ``idx``: every per-point array field (first
-    dimension n) indexed, the rest kept."""
-    kw = {}
-    for fd in fields(result):  # type: ignore[arg-type]
-        v = getattr(result, fd.name)
-        if isinstance(v, np.ndarray) and v.ndim >= 1 and v.shape[0] == n:
-            v = v[idx]
-        kw[fd.name] = v
-    return type(result)(**kw)
+class TwoForceKernel:
+    """The impact step's forces at the points with two forces (``Impact.two_mass``)
+    for any drop height: the fast kernel of the allowable-height searches
+    (:func:`two_force_height`). Everything that does not depend on the height — the
+    points' weights, compliances, struck masses, the crushing bound and the
+    envelope's cell in μ and κ (:class:`droprig.solver.struck_mass.EnvelopeLookup`)
+    — is gathered once; :meth:`forces` then does the height's arithmetic alone, the
+    same formulas as :func:`impact_at` on those points (one-mass Gere §9.10 Eq. 9-94,
+    crushing-limited impact, the envelope over lower drops, the caps of
+    :func:`two_forces`). :func:`impact_at` is its plain reference (compared at 1e-12
+    in tests/solver/test_two_force_kernel.py). ``idx``: the chain's points it holds.
+    SI units."""
 
+    def __init__(self, c: Chain, idx: np.ndarray) -> None:
+        inp, comp, sm, imp = c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+        assert sm.m2 is not None
+        self.idx = idx
+        self.head = hoist_head(c.drop.v_hoist)
+        self.W = inp.W[idx]
+        self.f = comp.f[idx]
+        self.eta = sm.eta[idx]
+        self.F_crush = imp.F_crush[idx]
+        self.depth = crush_depth_available(c)  # as the impact step's
+        self.soft = inp.f_load[idx] > 0.0
+        self.m_e = sm.m_e[idx]
+        self.f_series, self.f_s, self.m2 = comp.f_series[idx], comp.f_s[idx], sm.m2[idx]
+        self.env = struck_mass_mod.EnvelopeLookup(self.W, self.f_series, self.f_s, self.m2)
 
-def sub_chain(c: Chain, idx: np.ndarray) -> Chain:
-    """The chain at the points ``idx`` up to the struck mass (inputs, compliance,
-    struck mass taken from ``c``; the impact step can then be run on these points
-    alone, as :func:`two_force_height` does)."""
-    d, n = c.drop, c.drop.n
-    g = d.geo
-    # the points' geometry without the member actions (the impact step does not
-    # read them; take_geo would carry them along)
-    path = type(g.path)(**{f: getattr(g.path, f)[idx] for f in g.path.__dataclass_fields__})
-    geo = Geometry(g.x[idx], g.y[idx], path, g.bay[idx], g.protection[idx], g.opening[idx])
-    drop = replace(d, geo=geo, li=d.li[idx],
-                   H=None if d.H is None else d.H[idx],
-                   mat_k=None if d.mat_k is None else d.mat_k[idx])
-    sub = Chain(drop)
-    for kind in (LoadInputs, Compliance, StruckMass):
-        sub.add(_take(c[kind], idx, n))
-    return sub
+    def forces(self, h: np.ndarray, rows: np.ndarray | None = None,
+               need_eta: bool = True) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """At the free falls ``h`` (m) of the kernel's points ``rows`` (all where
+        None): the force on the framing F (N), the deck's force F_deck (N) and the
+        framing's energy share η_frame, as :func:`impact_at` gives them (``need_eta``
+        False: the one-mass η in its place, not worked out)."""
+        r = slice(None) if rows is None else rows
+        W, f, eta, F_crush = self.W[r], self.f[r], self.eta[r], self.F_crush[r]
+        he = h + self.head if self.head > 0.0 else h
+        # Gere Eq. 9-94 as impact_mod.dynamic_factor (W·f > 0 at every point here)
+        e = eta * he
+        ratio = np.where(e <= 0.0, 0.0, 2.0 * e / (W * f))
+        F_el = (1.0 + np.sqrt(1.0 + ratio)) * W
+        cap = F_el > F_crush
+        F1 = F_el
+        if cap.any():
+            Fb, _, _ = crushing.crushing_limited_impact(W[cap], he[cap], f[cap], eta[cap],
+                                                        F_crush[cap], self.depth)
+            F1 = F_el.copy()
+            F1[cap] = Fb
+        Fc2, Ff2 = self.env.at(he, rows)
+        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta)
+
+    def forces_at_mass(self, h: np.ndarray, M: np.ndarray, rows: np.ndarray,
+                       need_eta: bool = True) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """:meth:`forces` for loads of mass ``M`` (kg) in place of the points' own
+        (the same underside, footprint and struck masses; η = M/(M + m_e), the
+        envelope through :func:`droprig.solver.struck_mass.envelope_two_forces`)."""
+        W = M * impact_mod.G
+        f, F_crush = self.f[rows], self.F_crush[rows]
+        eta = impact_mod.mass_efficiency(M, self.m_e[rows])
+        he = h + self.head if self.head > 0.0 else h
+        _, F_el, _ = impact_mod.impact_elastic(W, he, f, eta)
+        cap = F_el > F_crush
+        F1 = F_el
+        if cap.any():
+            Fb, _, _ = crushing.crushing_limited_impact(W[cap], he[cap], f[cap], eta[cap],
+                                                        F_crush[cap], self.depth)
+            F1 = F_el.copy()
+            F1[cap] = Fb
+        Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W, he, self.f_series[rows],
+                                                       self.f_s[rows], self.m2[rows])
+        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[rows], need_eta)
+
+    @staticmethod
+    def _caps(W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
+              F_crush: np.ndarray, F1: np.ndarray, Fc2: np.ndarray, Ff2: np.ndarray,
+              soft: np.ndarray, need_eta: bool = True
+              ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """The caps of :func:`two_forces` on the envelope's forces (N)."""
+        through = np.maximum(F_crush, F1)
+        Fc = np.where(Fc2 > F_crush, through, Fc2)
+        Ff = np.minimum(Ff2, 2.0 * through)
+        ok = np.isfinite(F1)
+        Ff = np.where(ok, Ff, F1)
+        F_deck = np.where(ok & soft, Fc, F1)
+        if not need_eta:  # the caller reads the forces alone
+            return Ff, F_deck, eta
+        eta_f = np.where(ok, struck_mass_mod.equivalent_eta(W, he, f, Ff, eta), eta)
+        return Ff, F_deck, eta_f
 
 
 def two_force_height(c: Chain, h0: np.ndarray,
-                     excess_at: Callable[[Chain, np.ndarray, np.ndarray], np.ndarray]
-                     ) -> np.ndarray:
+                     excess_at: Callable[[TwoForceKernel, np.ndarray, np.ndarray],
+                                         np.ndarray],
+                     kern: TwoForceKernel | None = None,
+                     top: float = H_SEARCH_MAX) -> np.ndarray:
     """The largest free fall (m) at which the forward two-force chain passes, per
-    point with two forces (others keep ``h0``): ``excess_at(sub, idx, h)`` is the
-    forward run's excess at the falls ``h`` of the points ``idx`` (``sub`` the chain
-    at those points, :func:`sub_chain`): ≤ 0 where it passes, non-decreasing in h
-    (the forces are the monotone envelope of :func:`two_forces`). So the pass/fail
-    boundary is one height, and it is found exactly: from ``h0`` (the closed form with
-    the planned height's energy share, :func:`droprig.solver.struck_mass.
-    equivalent_eta`) the bracket goes out by ×1.02, ×1.25, then ×4 (or ÷) until
-    it holds the boundary; then each round runs the forward chain at
-    :data:`_SECTIONS` heights evenly inside the bracket at once and keeps the
-    passing one and the failing one next to it, until the bracket is
-    :data:`H_TOL` of the height (at most :data:`BISECTIONS` rounds). The lower
-    end — a height the forward run passed — is returned. NaN where even a zero
-    fall fails; :data:`H_SEARCH_MAX` where that passes."""
+    point with two forces (others keep ``h0``): ``excess_at(kern, rows, h)`` is the
+    forward run's excess at the falls ``h`` of the kernel's points ``rows``
+    (:class:`TwoForceKernel`, the impact step at those points): ≤ 0 where it passes,
+    non-decreasing in h (the forces are the monotone envelope of :func:`two_forces`).
+    So the pass/fail boundary is one height, and it is found exactly: from ``h0``
+    (the closed form with the planned height's energy share,
+    :func:`droprig.solver.struck_mass.equivalent_eta`) and its excess r0, the heights
+    h0/(1 + r0)² × (1 ± H_TOL/3) (exact where the excess grows as √h, a force by
+    Gere §9.10; across the boundary from h0 where it grows as h^p, ½ ≤ p ≤ 1); the
+    passes come first, and the last pass and the first failure bracket the boundary
+    (beyond these the bracket goes on out by ×4 or ÷4). Then
+    each round runs two heights per point: the bracket's false position in √h (the
+    forces go nearly as √h, Gere §9.10) with a step of :data:`H_TOL`/3 of it to
+    either side, so that a good estimate closes the bracket in one round; a round
+    that does not halve the bracket (in √h) is followed by a bisection. The
+    bracket always holds a passing and a failing height and ends within
+    :data:`H_TOL` of the height (at most :data:`BISECTIONS` rounds). The lower end —
+    a height the forward run passed — is returned. NaN where even a zero fall fails;
+    ``top`` (:data:`H_SEARCH_MAX`) where that passes. The same search serves any
+    variable the excess grows with as a power ½–1 (the allowable mass,
+    :func:`two_force_mass`, with its own ``top``)."""
     two = c[Impact].two_mass
     if two is None or not two.any():
         return h0
@@ -2069,77 +2148,156 @@ def two_force_height(c: Chain, h0: np.ndarray,
     if not live_all.any():
         return h0
     idx = np.flatnonzero(live_all)
+    if kern is None:
+        kern = TwoForceKernel(c, idx)
+    kidx = np.searchsorted(kern.idx, idx)
+    assert np.array_equal(kern.idx[kidx], idx), "the kernel does not hold every point"
     m = idx.size
-    cur: list = [np.ones(m, dtype=bool), sub_chain(c, idx)]
 
-    def excess(hx: np.ndarray, sel: np.ndarray) -> np.ndarray:
-        # the forward run at the points still searched (a narrower chain once they
-        # are fewer than half of the current one's)
-        if np.any(sel & ~cur[0]) or 2 * int(sel.sum()) < int(cur[0].sum()):
-            cur[0], cur[1] = sel.copy(), sub_chain(c, idx[sel])
-        on = cur[0]
-        out = np.full(m, np.nan)
-        out[on] = excess_at(cur[1], idx[on], np.where(sel, hx, 0.0)[on])
-        out = np.where(sel, out, np.nan)
-        return np.where(np.isnan(out), np.inf, out)
+    def run(w: np.ndarray, trial: np.ndarray) -> np.ndarray:
+        # the forward run's excess at the points w (of idx) at the heights trial (one
+        # per point, or a row of several per point); NaN as a failure (+inf)
+        k = trial.shape[1] if trial.ndim == 2 else 1
+        rows = np.repeat(kidx[w], k)
+        r = np.asarray(excess_at(kern, rows, trial.ravel()), dtype=float)
+        return np.where(np.isnan(r), np.inf, r).reshape(trial.shape)
 
-    everyone = np.ones(m, dtype=bool)
-    start = np.clip(h0[idx], 1e-6, H_SEARCH_MAX)
-    r0 = excess(start, everyone)
-    ok0 = r0 <= 0.0
-    lo, r_lo = np.where(ok0, start, 0.0), np.where(ok0, r0, np.nan)
-    hi, r_hi = np.where(~ok0, start, 0.0), np.where(~ok0, r0, np.nan)
-    # bracket upwards from a passing start, downwards from a failing one
-    up = ok0.copy()
-    for step in range(12):
+    start = np.clip(h0[idx], 1e-6 * min(top, 1.0), top)
+    everyone = np.arange(m)
+    r0 = run(everyone, start)
+    # the excess is a ratio less one that grows as h^p, p between ½ (a force, Gere
+    # §9.10) and 1 (an energy): h0/(1 + r0)² lies across the boundary from h0, and
+    # on it where p = ½; the pair H_TOL/3 either side of it closes the bracket then
+    with np.errstate(divide="ignore", invalid="ignore"):
+        U0 = np.where(np.isfinite(r0) & (r0 > -1.0), 1.0 + r0, np.where(r0 > 0, 16.0, 1 / 16))
+    h1 = np.clip(start / U0**2, start / 16.0, np.minimum(16.0 * start, top))
+    pair = np.minimum(np.stack([h1 * (1.0 - H_TOL / 3.0), h1 * (1.0 + H_TOL / 3.0)], axis=1),
+                      top)
+    fan = np.sort(np.concatenate([start[:, None], pair], axis=1), axis=1)
+    rp = run(everyone, pair)
+    rf = np.take_along_axis(np.concatenate([r0[:, None], rp], axis=1),
+                            np.argsort(np.concatenate([start[:, None], pair], axis=1),
+                                       axis=1), axis=1)
+    n_ok = (rf <= 0.0).sum(axis=1)  # non-decreasing: the passes come first
+    nf = fan.shape[1]
+    ar = np.arange(m)
+    i_lo, i_hi = np.maximum(n_ok - 1, 0), np.minimum(n_ok, nf - 1)
+    lo = np.where(n_ok > 0, fan[ar, i_lo], 0.0)
+    hi = np.where(n_ok < nf, fan[ar, i_hi], 0.0)
+    r_lo = np.where(n_ok > 0, rf[ar, i_lo], np.nan)
+    r_hi = np.where(n_ok < nf, rf[ar, i_hi], np.nan)
+    # beyond the fan: up by ×4 from an all-passing fan, down by ÷4 from an all-failing
+    up = (n_ok == nf) & (lo < top)
+    for _ in range(12):
         if not up.any():
             break
-        trial = np.minimum(lo * _WIDEN[min(step, 2)], H_SEARCH_MAX)
-        r = excess(trial, up)
-        ok = r <= 0.0
-        lo, r_lo = np.where(up & ok, trial, lo), np.where(up & ok, r, r_lo)
-        hi, r_hi = np.where(up & ~ok, trial, hi), np.where(up & ~ok, r, r_hi)
-        up = up & ok & (trial < H_SEARCH_MAX)
-    unbounded = ok0 & (hi == 0.0)  # passes at H_SEARCH_MAX
-    down = ~ok0
-    for step in range(32):
+        w = np.flatnonzero(up)
+        trial = np.minimum(lo[w] * 4.0, top)
+        r = run(w, trial)
+        okw = r <= 0.0
+        lo[w[okw]], r_lo[w[okw]] = trial[okw], r[okw]
+        hi[w[~okw]], r_hi[w[~okw]] = trial[~okw], r[~okw]
+        up[w] = okw & (trial < top)
+    unbounded = hi == 0.0  # passes at top
+    down = n_ok == 0
+    for _ in range(32):
         if not down.any():
             break
-        trial = hi / _WIDEN[min(step, 2)]
-        r = excess(trial, down)
-        ok = r <= 0.0
-        lo, r_lo = np.where(down & ok, trial, lo), np.where(down & ok, r, r_lo)
-        hi, r_hi = np.where(down & ~ok, trial, hi), np.where(down & ~ok, r, r_hi)
-        down = down & ~ok
+        w = np.flatnonzero(down)
+        trial = hi[w] / 4.0
+        r = run(w, trial)
+        okw = r <= 0.0
+        lo[w[okw]], r_lo[w[okw]] = trial[okw], r[okw]
+        hi[w[~okw]], r_hi[w[~okw]] = trial[~okw], r[~okw]
+        down[w] = ~okw
     none = np.zeros(m, dtype=bool)
     if down.any():  # failing down to ~10⁻²⁰ m: does a zero fall pass?
-        r = excess(np.zeros(m), down)
-        ok = r <= 0.0
-        lo, r_lo = np.where(down & ok, 0.0, lo), np.where(down & ok, r, r_lo)
-        none = down & ~ok
+        w = np.flatnonzero(down)
+        r = run(w, np.zeros(w.size))
+        okw = r <= 0.0
+        lo[w[okw]], r_lo[w[okw]] = 0.0, r[okw]
+        none[w[~okw]] = True
     work = ~unbounded & ~none
-    k = np.arange(1, _SECTIONS + 1) / (_SECTIONS + 1)
+    bisect = np.zeros(m, dtype=bool)
     for _ in range(BISECTIONS):
         work = work & (hi - lo > H_TOL * hi)
         if not work.any():
             break
-        # the bracket cut in _SECTIONS + 1 at once: one forward run of every cut
         w = np.flatnonzero(work)
-        trial = lo[w, None] + (hi[w] - lo[w])[:, None] * k[None, :]
-        rows = np.repeat(idx[w], _SECTIONS)
-        r = np.asarray(excess_at(sub_chain(c, rows), rows, trial.ravel()), dtype=float)
-        ok = (r <= 0.0).reshape(trial.shape)  # non-decreasing: the passes come first
-        n_ok = ok.sum(axis=1)
-        got = n_ok > 0
-        lo[w[got]] = trial[got, n_ok[got] - 1]
-        top = n_ok < _SECTIONS
-        hi[w[top]] = trial[top, n_ok[top]]
+        sl, sh = np.sqrt(lo[w]), np.sqrt(hi[w])
+        a, b = r_lo[w], r_hi[w]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            t = np.where(np.isfinite(a) & np.isfinite(b) & (b > a), -a / (b - a), 0.5)
+        t = np.where(bisect[w], 0.5, np.clip(t, 0.0, 1.0))
+        x = (sl + t * (sh - sl)) ** 2
+        d = H_TOL / 3.0 * x
+        pair = np.stack([np.clip(x - d, lo[w], hi[w]), np.clip(x + d, lo[w], hi[w])], axis=1)
+        # strictly inside the bracket (a pair on an end would not move it)
+        inside = (pair > lo[w, None]) & (pair < hi[w, None])
+        mid = (0.5 * (sl + sh)) ** 2
+        pair = np.sort(np.where(inside, pair, mid[:, None]), axis=1)
+        r = run(w, pair)
+        okp = r <= 0.0
+        width0 = sh - sl
+        # the highest passing and the lowest failing trial (the passes come first)
+        n_okp = okp.sum(axis=1)
+        got = n_okp > 0
+        j = np.maximum(n_okp - 1, 0)
+        lo[w[got]] = pair[got, j[got]]
+        r_lo[w[got]] = r[got, j[got]]
+        upper = n_okp < 2
+        jt = np.minimum(n_okp, 1)
+        hi[w[upper]] = pair[upper, jt[upper]]
+        r_hi[w[upper]] = r[upper, jt[upper]]
+        # a round that did not halve the bracket is followed by a bisection
+        bisect[w] = (np.sqrt(hi[w]) - np.sqrt(lo[w])) > 0.5 * width0
     h = h0.copy()
     h[idx] = np.where(none, np.nan, lo)
     return h
 
 
-def two_force_elastic_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
+
+
+MASS_SEARCH_MAX = 1.0e6
+"""Largest allowable mass :func:`two_force_mass` looks for, kg."""
+
+
+def two_force_mass(c: Chain, kern: TwoForceKernel, m0: np.ndarray,
+                   h: np.ndarray) -> np.ndarray:
+    """The allowable mass at the planned height with two forces per point, kg: the
+    heaviest load of the same underside whose framing force and deck force
+    (:meth:`TwoForceKernel.forces_at_mass`) keep every check family within its
+    allowed force (as :func:`two_force_elastic_height`), found by the search of
+    :func:`two_force_height` in the mass (the forces grow with M as a power ½–1:
+    F ≈ √(2·M·g·h/f) + M·g, Gere §9.10) from the one-mass closed form's mass ``m0``
+    (Gere §9.10 solved for M), within :data:`H_TOL` of it; droprig.solver.confirm
+    tries the bay's printed mass on the forward chain. ``h``: the planned free falls
+    (m). Others keep ``m0``; NaN where no mass passes."""
+    chk = c[Demands].checks
+    A0 = c[Impact].deck_ratio
+    n = c.drop.n
+    Fa_frame = np.full(n, np.inf)
+    Fa_deck = np.full(n, np.inf)
+    for name, ck in chk.items():
+        fa = np.where(np.isnan(ck.F_allow), np.inf, ck.F_allow)
+        if name in CONTACT_CHECKS:
+            Fa_deck = np.minimum(Fa_deck, fa * A0)
+        else:
+            Fa_frame = np.minimum(Fa_frame, fa)
+    Fa_frame_k, Fa_deck_k, h_k = Fa_frame[kern.idx], Fa_deck[kern.idx], h[kern.idx]
+
+    def excess(kn: TwoForceKernel, rows: np.ndarray, Mx: np.ndarray) -> np.ndarray:
+        with np.errstate(divide="ignore", invalid="ignore"):
+            F, F_deck, _ = kn.forces_at_mass(h_k[rows], Mx, rows, need_eta=False)
+            return np.maximum(F / Fa_frame_k[rows], F_deck / Fa_deck_k[rows]) - 1.0
+
+    start = np.where(np.isfinite(m0) & (m0 > 0.0), m0, np.nan)
+    out = two_force_height(c, start, excess, kern, top=MASS_SEARCH_MAX)
+    return np.where(np.isnan(start), m0, out)
+
+
+def two_force_elastic_height(c: Chain, h_el: np.ndarray,
+                             kern: TwoForceKernel | None = None) -> np.ndarray:
     """The elastic allowable free fall with two forces per point, m
     (:func:`two_force_height`): the forward run passes where the force on the
     framing is at most the least allowed force of the framing's families and the
@@ -2159,15 +2317,18 @@ def two_force_elastic_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
         else:
             Fa_frame = np.minimum(Fa_frame, fa)
 
-    def excess(sub: Chain, idx: np.ndarray, hx: np.ndarray) -> np.ndarray:
-        imp = impact_at(sub, hx)
-        F_deck = imp.F if imp.F_deck is None else imp.F_deck
-        with np.errstate(divide="ignore", invalid="ignore"):
-            return np.maximum(imp.F / Fa_frame[idx], F_deck / Fa_deck[idx]) - 1.0
-
-    h = two_force_height(c, h_el, excess)
     two = c[Impact].two_mass
     assert two is not None
+    if kern is None:
+        kern = TwoForceKernel(c, np.flatnonzero(two))
+    Fa_frame_k, Fa_deck_k = Fa_frame[kern.idx], Fa_deck[kern.idx]
+
+    def excess(kn: TwoForceKernel, rows: np.ndarray, hx: np.ndarray) -> np.ndarray:
+        F, F_deck, _ = kn.forces(hx, rows, need_eta=False)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            return np.maximum(F / Fa_frame_k[rows], F_deck / Fa_deck_k[rows]) - 1.0
+
+    h = two_force_height(c, h_el, excess, kern)
     for _ in range(3):
         live = two & np.isfinite(h) & (h > 0.0)
         if not live.any():

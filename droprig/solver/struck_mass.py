@@ -28,6 +28,7 @@ from droprig.solver.impact import G
 
 __all__ = [
     "LOAD_MASS_FACTORS",
+    "EnvelopeLookup",
     "TwoMassPeaks",
     "build_envelope",
     "distributed_mass_per_length",
@@ -580,6 +581,13 @@ def _log_envelope() -> tuple[np.ndarray, np.ndarray]:
     return np.log(Ff).ravel(), np.log(Fc).ravel()
 
 
+@functools.lru_cache(maxsize=1)
+def _log_envelope_pair() -> np.ndarray:
+    """ln of the stored envelope, (framing, contact) side by side per node, (N, 2)."""
+    LF, LC = _log_envelope()
+    return np.ascontiguousarray(np.stack([LF, LC], axis=1))
+
+
 def _cell(lg: np.ndarray, start: float, step: float, n: int
           ) -> tuple[np.ndarray, np.ndarray]:
     """Lower node (of ``n``, clamped to the table's edge cells) and the position in
@@ -665,3 +673,89 @@ def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
     Fc = np.minimum(np.fmax(Fc * ENVELOPE_MARGIN[1], F1), Bc)
     Ff = np.minimum(np.fmax(Ff * ENVELOPE_MARGIN[0], F1), Bf)
     return Fc, Ff
+
+
+class EnvelopeLookup:
+    """:func:`envelope_two_forces` for fixed points (W, f_contact, f_frame, m2) at
+    many drop heights: the fast kernel of the allowable-height searches
+    (``droprig.solver.chain.TwoForceKernel``). The cell and weights in μ = m2/M and
+    κ = f_frame/f_contact, the contact's stiff-side scale and the one-mass share η
+    do not depend on the height: they are worked out once here, and :meth:`at`
+    does only the ĥ = h/(W·f_frame) part. The same arithmetic as
+    :func:`envelope_two_forces` in the same order, so both give the same forces
+    (compared at 1e-12 in tests/solver/test_two_force_kernel.py). SI units: W in N,
+    compliances in m/N, m2 in kg; heights in m (energy heights)."""
+
+    def __init__(self, W: ArrayLike, f_contact: ArrayLike, f_frame: ArrayLike,
+                 m2: ArrayLike) -> None:
+        W, fc, ff, m2 = np.broadcast_arrays(*(np.asarray(v, float)
+                                              for v in (W, f_contact, f_frame, m2)))
+        W, fc, ff, m2 = (np.ascontiguousarray(a.ravel()) for a in (W, fc, ff, m2))
+        (m0, _, dm), (k0, _, dk), _ = ENVELOPE_GRID
+        nm, nk, nh = _envelope()[0].shape
+        M = W / G
+        with np.errstate(divide="ignore", invalid="ignore"):
+            mu = np.where(M > 0.0, m2 / M, np.inf)
+            ka = np.where(fc > 0.0, ff / fc, np.inf)
+            lmu = np.log10(np.clip(mu, 1e-300, 1e300))
+            lka = np.log10(np.clip(ka, 1e-300, 1e300))
+        i, wi = _cell(lmu, m0, dm, nm)
+        j, wj = _cell(lka, k0, dk, nk)
+        ka_top = 10.0 ** (k0 + (nk - 1) * dk)
+        self.c_scale = np.sqrt(np.maximum(ka / ka_top, 1.0))
+        # the four corners in (μ, κ): base index of ĥ = 0 and weight
+        self.base = np.stack([((i + a) * nk + (j + b)) * nh
+                              for a in (0, 1) for b in (0, 1)])
+        self.wab = np.stack([wa * wb for wa in (1.0 - wi, wi) for wb in (1.0 - wj, wj)])
+        self.W, self.fc, self.ff, self.m2 = W, fc, ff, m2
+        self.Wff = W * ff
+        self.Wfc = W * fc
+        with np.errstate(divide="ignore", invalid="ignore"):
+            self.ff_fc, self.fc_ff = ff / fc, fc / ff
+        self.eta = M / (M + m2)
+        self.d_st = W * (fc + ff)
+
+    def at(self, h: ArrayLike, rows: np.ndarray | None = None
+           ) -> tuple[np.ndarray, np.ndarray]:
+        """Contact force F_c and force on the framing F_f (N) at the energy heights
+        ``h`` (m) of the points ``rows`` (indices into the points given; all where
+        None), as :func:`envelope_two_forces`."""
+        r = slice(None) if rows is None else rows
+        W = self.W[r]
+        h = np.broadcast_to(np.asarray(h, float), W.shape)
+        _, _, (h0, _, dh) = ENVELOPE_GRID
+        nh = _envelope()[0].shape[2]
+        Wff = self.Wff[r]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            hh = np.where(Wff > 0.0, np.maximum(h, 0.0) / Wff, np.inf)
+            lhh = np.log10(np.clip(hh, 1e-300, 1e300))
+        k, wk = _cell(lhh, h0, dh, nh)
+        top = h0 + (nh - 1) * dh
+        over = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh, top) - top), 1.0))
+        LFC = _log_envelope_pair()
+        acc = np.zeros((W.size, 2))
+        base, wab = self.base[:, r], self.wab[:, r]
+        for q in range(4):
+            b = base[q] + k
+            w1 = wab[q] * wk
+            w0 = wab[q] - w1
+            acc += w0[:, None] * LFC[b] + w1[:, None] * LFC[b + 1]
+        e = np.exp(acc)
+        Ff = e[:, 0] * over * W
+        Fc = e[:, 1] * over * self.c_scale[r] * W
+        eta, d_st = self.eta[r], self.d_st[r]
+        hp = np.maximum(h, 0.0)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            F1 = W * (1.0 + np.sqrt(1.0 + 2.0 * np.maximum(eta * h, 0.0)
+                                    / np.where(d_st > 0.0, d_st, np.inf)))
+            # energy_bounds, with the height-free parts kept
+            Bc = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / self.Wfc[r] + self.ff_fc[r]))
+            Bf = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / self.Wff[r] + self.fc_ff[r]))
+        Bc = np.where(np.isnan(Bc), np.inf, Bc)
+        Bf = np.where(np.isnan(Bf), np.inf, Bf)
+        bad = ~(np.isfinite(Ff) & np.isfinite(Fc))
+        if bad.any():
+            Ff[bad], Fc[bad] = Bf[bad], Bc[bad]
+        Fc = np.minimum(np.fmax(Fc * ENVELOPE_MARGIN[1], F1), Bc)
+        Ff = np.minimum(np.fmax(Ff * ENVELOPE_MARGIN[0], F1), Bf)
+        return Fc, Ff

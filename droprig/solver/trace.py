@@ -19,7 +19,7 @@ import math
 import numpy as np
 
 from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
-from droprig.solver import amplification, droppoints, limits, local_damage
+from droprig.solver import amplification, droppoints, limits, local_damage, struck_mass
 from droprig.solver.chain import (
     BRITTLE,
     LANDINGS,
@@ -233,9 +233,30 @@ def _path_steps(sheet: _Sheet) -> None:
          "1/k_load": (inp.f_load[0], "compliance"),
          "1/k_mat": (inp.f_mat[0], "compliance")},
         comp.f[0], "compliance", _SRC_SERIES + "; Engineering ToolBox, Impact Force")
-    add("Effective struck mass", "m_e",
-        "m_e = ((f_s − f_col)/(f_s + f_deck + 1/k_load))²·Σ_m ∫ μ_m (w_m(x)/w_s(p))² dx",
-        {}, sm.m_e[0], "mass", _SRC_RAYLEIGH)
+    steel = ("m_e = ((f_s − f_col)/(f_s + f_deck + 1/k_load))²·Σ_m ∫ μ_m (w_m(x)/w_s(p))² "
+             "dx")
+    if _two(sheet):
+        # the struck mass the analysis prints (outputs "effective_mass") is the two-mass
+        # model's m₂; the steel's alone gives the one-mass balance's η (its lower bound)
+        assert sm.m2 is not None
+        add("Struck mass of the steel alone (the one-mass balance's share η, a lower "
+            "bound of the framing force)", "m_s", steel, {}, sm.m_e[0], "mass",
+            _SRC_RAYLEIGH)
+        add("Effective struck mass: the floor with the slab and superimposed dead load "
+            "(two-mass model; over a column with the floor the column's shortening "
+            "moves)", "m_e",
+            "m_e = m₂ = ((f_s − f_col)/f_s)²·Σ∫(μ_steel + (ρh + q_sd/g)·b)·(w/w_ref)² dx "
+            "+ (f_col/f_s)²·m_col",
+            {"m_s": (sm.m_e[0], "mass")}, sm.m2[0], "mass",
+            _SRC_RAYLEIGH + "; Biggs 1964 ch. 5 (from memory)")
+    else:
+        add("Effective struck mass", "m_e", steel, {}, sm.m_e[0], "mass", _SRC_RAYLEIGH)
+
+
+def _two(sheet: _Sheet) -> bool:
+    """Whether the point has two forces (contact and framing, the two-mass model)."""
+    two = sheet.imp.two_mass
+    return two is not None and bool(two[0])
 
 
 def _impact_steps(sheet: _Sheet) -> None:
@@ -263,18 +284,24 @@ def _impact_steps(sheet: _Sheet) -> None:
         {"W": (W, "force"), "f": (comp.f[0], "compliance")}, imp.d_st[0],
         "length", _SRC_GERE)
     hk = "h_e" if v_h > 0.0 else "h"
-    add("Dynamic factor", "K", f"K = 1 + √(1 + 2η{hk}/δ_st)" if inp.f_mat[0] >= 0 else "",
-        {"η": (sm.eta[0], "dimensionless"), hk: (h_e, "length"),
-         "δ_st": (imp.d_st[0], "length")}, imp.K[0],
-        "dimensionless", _SRC_GERE)
-    if imp.two_mass is not None and bool(imp.two_mass[0]):
+    two = _two(sheet)
+    if two:
+        # the framing force comes from the two-mass model: K is that force over W
         _two_force_steps(sheet, W, h_e)
-    add("Peak impact force" + (" on the framing" if imp.two_mass is not None
-                               and bool(imp.two_mass[0]) else ""),
+        add("Dynamic factor of the force on the framing", "K", "K = F_f / W",
+            {"F_f": (imp.F[0], "force"), "W": (W, "force")}, imp.K[0], "dimensionless",
+            _SRC_TWO_MASS)
+    else:
+        add("Dynamic factor", "K",
+            f"K = 1 + √(1 + 2η{hk}/δ_st)" if inp.f_mat[0] >= 0 else "",
+            {"η": (sm.eta[0], "dimensionless"), hk: (h_e, "length"),
+             "δ_st": (imp.d_st[0], "length")}, imp.K[0],
+            "dimensionless", _SRC_GERE)
+    add("Peak impact force" + (" on the framing" if two else ""),
         "F", "F = K·W" if imp.crush[0] == 0 else
         "F = crush force, or elastic after bottoming (droprig.solver.impact.impact_crushable)",
         {"K": (imp.K[0], "dimensionless"), "W": (W, "force")},
-        imp.F[0], "force", _SRC_GERE)
+        imp.F[0], "force", _SRC_TWO_MASS if two else _SRC_GERE)
     add("Crushing force of the deck concrete under the footprint (bound on the contact "
         "force)", "F_crush", "F_crush = DIF·f_cm·√(A_c1/A_c0)·A_c0 ≤ 3·DIF·f_cm·A_c0",
         {"A_c0": (inp.foot_l[0] * inp.foot_w[0], "area"),
@@ -295,9 +322,11 @@ def _impact_steps(sheet: _Sheet) -> None:
                           "N": (project.settings.deflection_limit_ratio, "dimensionless")},
         imp.d_max[0] / limit, "dimensionless",
         "IBC Table 1604.3 (serviceability; information for an accidental impact)")
-    add("Deceleration of the load", "a/g", "a/g = F/W − 1",
-        {"F": (imp.F[0], "force"), "W": (W, "force")}, out["deceleration_g"][0],
-        "dimensionless", "Newton's second law")
+    add("Deceleration of the load", "a/g",
+        "a/g = F_c/W − 1 (the contact force decelerates the load)" if two
+        else "a/g = F/W − 1",
+        {("F_c" if two else "F"): (imp.contact[0], "force"), "W": (W, "force")},
+        out["deceleration_g"][0], "dimensionless", "Newton's second law")
 
 
 _SRC_TWO_MASS = ("CEB Bulletin 187 (1988) two-mass model (from memory); Clough & "
@@ -311,11 +340,7 @@ def _two_force_steps(sheet: _Sheet, W: float, h_e: float) -> None:
     add, comp, sm, imp, inp = sheet.add, sheet.comp, sheet.sm, sheet.imp, sheet.inp
     assert sm.m2 is not None and imp.F_contact is not None and imp.eta_frame is not None
     M = float(inp.M[0])
-    m2 = float(sm.m2[0])
-    add("Struck mass of the floor with the slab and superimposed dead load (two-mass "
-        "model; over a column with the floor the column's shortening moves)", "m₂",
-        "m₂ = Σ∫(μ_steel + (ρh + q_sd/g)·b)·(w/w_ref)² dx", {}, m2, "mass",
-        _SRC_RAYLEIGH + "; Biggs 1964 ch. 5 (from memory)")
+    m2 = float(sm.m2[0])  # the struck mass m_e of the path steps
     add("Contact force between load and struck surface (largest for any fall up to "
         "h_e; bounded by the crushing of the surface)", "F_c",
         "max over h' ≤ h_e of the two-mass peak k_c·max⟨x₁ − x₂⟩, "
@@ -324,14 +349,16 @@ def _two_force_steps(sheet: _Sheet, W: float, h_e: float) -> None:
          "k₂": (1.0 / comp.f_s[0], "stiffness"), "h_e": (h_e, "length")},
         imp.F_contact[0], "force", _SRC_TWO_MASS)
     add("Force on the framing (two-mass peak k₂·max x₂, largest for any fall up to "
-        "h_e; at least the one-mass balance with η = M/(M + m₂), at most the energy "
-        "bound and 2× the contact force the surface passes)", "F_f",
-        "F_f = min(max(k₂·max x₂, W(1 + √(1 + 2ηh_e/(W·f)))), "
-        "W(1 + √(1 + 2h_e/(W·f₂) + f_c/f₂)))",
+        "h_e; at least the one-mass balance with the floor's mass, at most the energy "
+        "bound and twice the contact force the surface passes)", "F_f",
+        f"F_f = min(max({struck_mass.ENVELOPE_MARGIN[0]:g}·k₂·max x₂, "
+        "W(1 + √(1 + 2ηh_e/(W·f)))), "
+        "W(1 + √(1 + 2h_e/(W·f₂) + f_c/f₂)), 2·max(F_crush, F_1)), η = M/(M + m₂)",
         {"W": (W, "force"), "f": (comp.f[0], "compliance"),
-         "f₂": (comp.f_s[0], "compliance"), "f_c": (comp.f_series[0], "compliance")},
+         "f₂": (comp.f_s[0], "compliance"), "f_c": (comp.f_series[0], "compliance"),
+         "η": (M / (M + m2), "dimensionless"), "F_crush": (imp.F_crush[0], "force")},
         imp.F[0], "force", _SRC_TWO_MASS + "; " + _SRC_GERE)
-    add("Share of the energy that gives the framing force in the one-mass balance "
+    add("Share of the energy that gives the framing force by the one-mass balance "
         "(used beyond yield and by the allowable heights)", "η_f",
         "η_f = ((F_f/W − 1)² − 1)·W·f/(2h_e)",
         {"F_f": (imp.F[0], "force"), "W": (W, "force"), "f": (comp.f[0], "compliance"),
@@ -408,22 +435,32 @@ def _check_steps(sheet: _Sheet) -> None:
         "dimensionless", "largest demand/resistance ratio (common practice, no source)")
     add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
         {}, ck.F_allow[0], "force", "linear checks")
-    h_gere = float(limits.allowable_drop_height_elastic(W, ck.F_allow[0], imp.d_st[0],
-                                                         sm.eta[0]))
-    add("Allowable free fall (elastic)", "h_allow",
-        "h = δ_st((K_a − 1)² − 1)/(2η), K_a = F_allow/W",
-        {"F_allow": (ck.F_allow[0], "force"), "W": (W, "force"),
-         "δ_st": (imp.d_st[0], "length"), "η": (sm.eta[0], "dimensionless")},
-        h_gere if math.isfinite(h_gere) else inv.h_el[0], "length",
-        _SRC_GERE + " solved for h")
-    two = imp.two_mass is not None and bool(imp.two_mass[0])
+    two = _two(sheet)
+    # the share of the energy the closed form takes: the framing's (two-mass model,
+    # at the planned height) where two forces, as inverse_answers
+    eta = float(imp.eta_frame[0]) if two and imp.eta_frame is not None else float(sm.eta[0])
+    h_gere = float(limits.allowable_drop_height_elastic(W, ck.F_allow[0], imp.d_st[0], eta))
     if two:
+        add("Start of the search for the allowable free fall: the closed form with the "
+            "framing's share of the energy at the planned height", "h_0",
+            "h = δ_st((K_a − 1)² − 1)/(2η_f), K_a = F_allow/W",
+            {"F_allow": (ck.F_allow[0], "force"), "W": (W, "force"),
+             "δ_st": (imp.d_st[0], "length"), "η_f": (eta, "dimensionless")},
+            h_gere if math.isfinite(h_gere) else math.nan, "length",
+            _SRC_GERE + " solved for h")
         add("Allowable free fall with two forces: the largest fall at which the forward "
             "two-mass impact (its envelope over lower falls, non-decreasing) keeps every "
-            "check at U ≤ 1, found by bisection", "h_allow,2",
+            "check within its resistance, found by bisection", "h_allow",
             "max h: U(F_f(h), F_deck(h)) ≤ 1", {}, inv.h_el[0], "length",
             "bisection on the forward chain (droprig.solver.chain.two_force_height)")
-    elif math.isfinite(h_gere) and math.isfinite(inv.h_el[0]) and \
+    else:
+        add("Allowable free fall (elastic)", "h_allow",
+            "h = δ_st((K_a − 1)² − 1)/(2η), K_a = F_allow/W",
+            {"F_allow": (ck.F_allow[0], "force"), "W": (W, "force"),
+             "δ_st": (imp.d_st[0], "length"), "η": (eta, "dimensionless")},
+            h_gere if math.isfinite(h_gere) else inv.h_el[0], "length",
+            _SRC_GERE + " solved for h")
+    if not two and math.isfinite(h_gere) and math.isfinite(inv.h_el[0]) and \
             abs(inv.h_el[0] - h_gere) > 1e-12 * max(1.0, abs(h_gere)):
         # the force passes a crushable layer's or the deck concrete's crushing force
         # before it reaches F_allow: the crushing work is added (chain.with_crush_energy)
@@ -484,10 +521,19 @@ def _check_steps(sheet: _Sheet) -> None:
     add("Allowable drop height (beyond yield)", "h_allow,pl",
         "h = δ_y(R_p(μ − ½) − Wμ)/(ηW)", {"R_p": (by.R_p[0], "force")},
         inv.h_pl[0], "length", _SRC_PLASTIC)
-    add("Allowable mass at the planned height", "M_allow",
-        "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e)))), through crushing where the force "
-        "passes the crushing force first (bisection on the forward model)", {},
-        inv.m_allow[0], "mass", _SRC_GERE + " solved for M")
+    if two:
+        add("Allowable mass at the planned height with two forces: the heaviest load of "
+            "the same underside whose forward two-mass impact keeps every check within "
+            "its resistance", "M_allow",
+            "max M: U(F_f(M), F_deck(M)) ≤ 1, searched from the one-mass closed form "
+            "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e))))", {}, inv.m_allow[0], "mass",
+            "search on the forward chain (droprig.solver.chain.two_force_mass); "
+            + _SRC_TWO_MASS)
+    else:
+        add("Allowable mass at the planned height", "M_allow",
+            "F_allow = M·g·(1 + √(1 + 2h/(g·f·(M + m_e)))), through crushing where the "
+            "force passes the crushing force first (bisection on the forward model)", {},
+            inv.m_allow[0], "mass", _SRC_GERE + " solved for M")
     add("Spring mat that keeps the point elastic", "k_req", "k = 1/(f_req − f_s)", {},
         inv.k_req[0], "stiffness", "series springs; " + _SRC_GERE)
 

@@ -104,7 +104,8 @@ class Verification:
 class PointVerification:
     """:class:`Verification` of a project drop point: zone, load, point (m), bay,
     the member modelled (id, end condition, span L and position a in m) and the
-    chain's own energy-method peak force there (N, the whole path)."""
+    chain's own peak force on the framing there (N, the whole path: the two-mass
+    model's where two forces per point, else the energy method's)."""
 
     zone_id: str
     load_name: str

@@ -75,13 +75,24 @@ def test_governing_point_amplified_by_hand(demo: str, load: str, bay: str) -> No
     # rigid-base bound on the contact force: η = 1 on the contact spring alone, + 5 %
     F_rigid = 1.05 * W * (1.0 + math.sqrt(1.0 + 2.0 * h / (W * (f - f_s))))
     F = float(imp.F[0])
-    assert F == pytest.approx(F_ref, rel=1e-9)  # elastic: the deck does not crush here
+    # two forces per point: F is the two-mass model's force on the framing (the floor
+    # with its slab as the struck mass m2, CEB Bulletin 187 — from memory), between the
+    # one-mass balance with η2 = M/(M + m2) and the energy bound on the framing spring
+    # alone, W(1 + √(1 + 2h/(W·f_s) + f_c/f_s)) (Gere §9.10; Clough & Penzien, energy
+    # of a 2-DOF system); the tables still multiply the energy method's F_ref
+    m2 = sm.m2
+    assert m2 is not None and imp.two_mass is not None and bool(imp.two_mass[0])
+    f_c = float(comp.f_series[0])
+    F_1 = W * (1.0 + math.sqrt(1.0 + 2.0 * M / (M + float(m2[0])) * h / (W * f)))
+    B_f = W * (1.0 + math.sqrt(1.0 + 2.0 * h / (W * f_s) + f_c / f_s))
+    assert F_1 * (1 - 1e-9) <= F <= B_f * (1 + 1e-9)
     F_local = max(F, min(A_F * F_ref, F_rigid, float(imp.F_crush[0])))
     V_force = max(F, min(A_V * F_ref, B_SHEAR * F_local))
     amp = c[DynamicAmplification]
     assert float(amp.A_shear[0]) * F == pytest.approx(V_force, rel=1e-9)
     assert float(amp.A_force[0]) * F == pytest.approx(F_local, rel=1e-9)
-    assert V_force == pytest.approx(A_V * F_ref, rel=1e-9)  # the table sets it
+    # the table sets it, or the two-mass framing force where that is larger
+    assert V_force == pytest.approx(max(F, A_V * F_ref), rel=1e-9)
     # the shear check at the amplified force: U = |A·F·u + E|/R of the energy method's
     # check (its demand per N u, existing demand E and resistance R)
     shear = c[Demands].checks["shear"]

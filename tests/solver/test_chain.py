@@ -78,8 +78,30 @@ def test_a_step_that_returns_an_earlier_type_replaces_it(demo, monkeypatch):
     np.testing.assert_array_equal(f_new, base[Compliance].f + base[Compliance].f_deck)
     np.testing.assert_array_equal(soft[Impact].d_st, soft.drop.per_point(
         [zone.loads[0].weight]) * f_new)
-    # a softer path never raises the peak force (Gere Eq. 9-94 decreases in f)
-    assert np.all(soft[Impact].F <= base[Impact].F * (1 + 1e-12))
+    # a softer path never raises the one-mass force (Gere Eq. 9-94 decreases in f):
+    # the deck's force of a hard load, and the force wherever there is one force
+    # (the two-mass framing force is not monotone in the contact spring: a softer
+    # contact can meet the framing's period, Clough & Penzien 2-DOF; its own bounds
+    # are tested in test_two_force_envelope.py)
+    imp_s, imp_b = soft[Impact], base[Impact]
+    one = imp_s.F_deck if imp_s.F_deck is not None else imp_s.F
+    one_b = imp_b.F_deck if imp_b.F_deck is not None else imp_b.F
+    hard = (zone.loads[0].contact_stiffness is None) | (imp_s.two_mass is None)
+    if hard:
+        assert np.all(one <= one_b * (1 + 1e-12))
+    two = imp_s.two_mass if imp_s.two_mass is not None else np.zeros(one.shape, bool)
+    assert np.all(imp_s.F[~two] <= imp_b.F[~two] * (1 + 1e-12))
+    # the softer contact spring is read by the two-mass step: its contact force stays
+    # within the energy bound on the new contact spring, W(1 + √(1 + 2h/(W·f_c) +
+    # f_s/f_c)) (Clough & Penzien, energy of a 2-DOF system)
+    if two.any():
+        comp = soft[Compliance]
+        W = soft.drop.per_point([zone.loads[0].weight])
+        h = chain.energy_fall(soft, soft[chain.LoadInputs].h)
+        Bc = W * (1 + np.sqrt(1 + 2 * h / (W * comp.f_series) + comp.f_s / comp.f_series))
+        assert imp_s.F_contact is not None
+        Fc = np.minimum(imp_s.F_contact, np.maximum(imp_s.F_crush, imp_s.F))
+        assert np.all(Fc[two] <= Bc[two] * (1 + 1e-9))
 
 
 @dataclass(frozen=True, eq=False)

@@ -196,9 +196,11 @@ def test_a_printed_allowable_mass_keeps_its_bay_elastic_when_lifted() -> None:
 @pytest.mark.parametrize("seed", [
     32, 41, 45,  # each printed a mass a lattice point read beyond elastic before
     pytest.param(31, marks=pytest.mark.xfail(strict=True, reason=(
-        "a load with a rigid underside 0.1 m from a column: U rises 0.90 -> 1.33 within 0.11 m "
-        "of the nearest point sampled (the column's rigid-contact spike, issue 10); "
-        "a lattice point 0.17 m from the girder reads U 1.014 at the printed mass"))),
+        "with one force a load with a rigid underside 0.1 m from a column read U 0.90 -> "
+        "1.33 within 0.11 m of the nearest point sampled (the column's rigid-contact "
+        "spike, issue 10); with two forces that spike is gone, but the two-force mass "
+        "(about 24 kg of a 1072 kg load) reads U 1.002 at a lattice point 0.25 m from column "
+        "(12.96, 6.42) between the points the analysis samples (measured)"))),
 ])
 def test_allowable_masses_hold_on_a_lattice_over_each_bay(seed: int) -> None:
     """Each bay's printed allowable mass (the heaviest load that keeps the bay
@@ -259,5 +261,14 @@ def test_calculation_sheet_states_the_mass_the_bay_prints() -> None:
              and x.bay_id == "3-4/A-B")
     t = trace_point(project, b.zone_id, b.load_name, b.allowable_mass_x, b.allowable_mass_y)
     by = {s.symbol: s.value for s in t.steps}
-    assert by["M_allow,p"] < by["M_allow"]
-    assert b.allowable_mass <= LIMIT_MARGIN * by["M_allow,p"] * (1.0 + 1e-9)
+    # with two forces per point the least mass of the bay lies on the crushable pad
+    # (one force there, no local damage assessed: the pad takes the hit) — the sheet
+    # states the point's mass, and the held-below-perforation mass where assessed
+    m_point = by.get("M_allow,p", by["M_allow"])
+    assert m_point <= by["M_allow"]
+    assert b.allowable_mass <= LIMIT_MARGIN * m_point * (1.0 + 1e-9)
+    # the bare deck's points of the bay state both (a hard spreader perforates first)
+    pts = [s for s in trace_point(project, b.zone_id, b.load_name, 20.0, 4.0).steps
+           if s.symbol in ("M_allow", "M_allow,p")]
+    bare = {s.symbol: s.value for s in pts}
+    assert bare["M_allow,p"] < bare["M_allow"]

@@ -19,6 +19,7 @@ from pathlib import Path
 
 import numpy as np
 import pytest
+from scipy.integrate import solve_ivp
 
 from droprig.io.project_file import load_project
 from droprig.solver import analyse, analysis, evaluate
@@ -39,16 +40,84 @@ def _demo(name: str):
                                        tilted_landing=False))
 
 
-def _worst(p):
-    """The bay × load with the largest utilisation, its load and its chain."""
+def _at(p, bay_id: str, load_name: str, x: float, y: float):
+    """The bay × load of the analysis, its load and the chain at (x, y)."""
     r = analyse(p)
-    bay = max(r.bays, key=lambda b: b.max_utilisation)
+    bay = next(b for b in r.bays if b.bay_id == bay_id and b.load_name == load_name)
     zone = next(z for z in p.lift_zones if z.id == bay.zone_id)
     load = next(ld for ld in zone.loads if ld.name == bay.load_name)
     fm = analysis.build_floor(p.level(bay.level_id), p.settings)
-    x, y = bay.utilisation_x, bay.utilisation_y
     geo = analysis.point_geometry(fm, p, np.array([x]), np.array([y]))
     return bay, load, fm, evaluate.evaluate_chain(fm, p, load, geo), (x, y)
+
+
+def _two_mass_history(M: float, k_c: float, m2: float, k2: float, h: float,
+                      drops: int = 12) -> tuple[float, float]:
+    """Peak framing force k2·max x2 and contact force k_c·max⟨x1 − x2⟩ (N) of the
+    two-mass impact M·x1'' = M·g − k_c⟨x1 − x2⟩, m2·x2'' = k_c⟨x1 − x2⟩ − k2·x2 from
+    x = 0, x1' = √(2gh') (CEB Bulletin 187 two-mass model — from memory; Clough &
+    Penzien 2-DOF), integrated by scipy ``solve_ivp`` (an independent integrator),
+    the largest over the drops h' = h·j/drops, j = 1..drops (the envelope over lower
+    drops that droprig states)."""
+    T = 2 * math.pi * (math.sqrt((M + m2) / k2) + math.sqrt(M / k_c))
+
+    def rhs(_t, y):
+        Fc = k_c * max(y[0] - y[2], 0.0)
+        return [y[1], G - Fc / M, y[3], (Fc - k2 * y[2]) / m2]
+
+    Ff = Fc = 0.0
+    for j in range(1, drops + 1):
+        v0 = math.sqrt(2 * G * h * j / drops)
+        sol = solve_ivp(rhs, (0.0, 3 * T), [0.0, v0, 0.0, 0.0], max_step=T / 3000,
+                        rtol=1e-9, atol=1e-14)
+        Ff = max(Ff, float((k2 * sol.y[2]).max()))
+        Fc = max(Fc, float((k_c * np.maximum(sol.y[0] - sol.y[2], 0.0)).max()))
+    return Ff, Fc
+
+
+ENVELOPE_OVER_HISTORY = 1.30
+"""How far droprig's framing force may lie above the two-mass time history's largest
+over lower drops at these column points: its table's ×1.10 margin and the nodes'
+neighbours in μ and κ (droprig.solver.struck_mass.build_envelope) — measured 1.25 and
+1.27 here, on the safe side."""
+
+
+def _two_forces_by_hand(c, M: float, h: float, f_c: float, f_col: float,
+                        F_one: float) -> float:
+    """The two forces at a column point (two-mass model): the contact spring k_c =
+    1/f_c (the deck's indentation; a rigid underside) against the column's axial
+    spring k2 = 1/f_col carrying the mass m2 of the floor its shortening moves
+    (droprig.solver.columns.column_rigid_mass, the chain's). Checks, and returns, the
+    chain's force on the framing F_f:
+
+    * the deck's force of a hard load is the one-mass force on the springs in series,
+      F_one = W + √(W² + 2Wh/f) (Gere Eq. 9-94, η = 1 at a column);
+    * F_f lies between the one-mass balance with η2 = M/(M + m2) and the energy
+      bound of the column spring alone, W(1 + √(1 + 2h/(W·f_col) + f_c/f_col))
+      (Clough & Penzien, energy of a 2-DOF system);
+    * F_f is at least the scipy time history's largest over lower drops, and within
+      :data:`ENVELOPE_OVER_HISTORY` of it; the contact force is at least the history's
+      and at most the crushing bound F_crush.
+    A 300 kg item at a column then reads a framing force of a few MN (its momentum
+    passed to some tonnes of floor and an elastic bounce, v2 ≈ 2Mv/(M + m2),
+    F ≈ v2·√(k2·m2)), never the rigid punch of the load on the column alone."""
+    W = M * G
+    imp, sm = c[Impact], c[StruckMass]
+    assert imp.two_mass is not None and bool(imp.two_mass[0])
+    assert imp.F_deck is not None and imp.F_contact is not None and sm.m2 is not None
+    assert float(imp.F_deck[0]) == pytest.approx(F_one, rel=TOL)
+    m2 = float(sm.m2[0])
+    F_f = float(imp.F[0])
+    F_1 = W * (1 + math.sqrt(1 + 2 * M / (M + m2) * h / (W * (f_c + f_col))))
+    B_f = W * (1 + math.sqrt(1 + 2 * h / (W * f_col) + f_c / f_col))
+    assert F_1 * (1 - TOL) <= F_f <= B_f * (1 + TOL)
+    Ff_ivp, Fc_ivp = _two_mass_history(M, 1 / f_c, m2, 1 / f_col, h)
+    assert Ff_ivp * (1 - TOL) <= F_f <= ENVELOPE_OVER_HISTORY * Ff_ivp
+    assert Fc_ivp * (1 - TOL) <= float(imp.F_contact[0]) <= float(imp.F_crush[0]) * (1 + TOL)
+    # the momentum check, by hand: an elastic bounce passes at most 2Mv/(M + m2)
+    v = math.sqrt(2 * G * h)
+    assert Ff_ivp <= 2 * M * v / (M + m2) * math.sqrt(m2 / f_col) * 1.05
+    return F_f
 
 
 def test_rooftop_governing_bay_by_hand():
@@ -77,10 +146,10 @@ def test_rooftop_governing_bay_by_hand():
     * U = F/F_Rd. (Deck punching is not checked where the footprint bears on the
       steel: EN 1992-1-1 §6.2.2(6), test_punching_near_support.py.)"""
     p = _demo("rooftop_plant_swap")
-    bay, load, _fm, c, (x, y) = _worst(p)
+    # the point that governed with one force per point (9.75): with two it is checked
+    # here at the column itself; the bay prints at least its U
+    bay, load, _fm, c, _xy = _at(p, "2-3/B-C", "Spreader beam 4 m", 7.5, 18.0)
     assert load.name.startswith("Spreader") and load.contact_stiffness is None
-    assert math.hypot(x - 7.5, y - 18.0) < 0.01  # at column 2/C
-    assert bay.utilisation_check == "web_yielding"
     W, h = load.mass * G, 4.8
     assert float(c[LoadInputs].h[0]) == pytest.approx(h, rel=1e-12)
     A = 4.0 * 0.3 / 2
@@ -91,14 +160,14 @@ def test_rooftop_governing_bay_by_hand():
     E_cm = 22e9 * (38.0 / 10.0) ** 0.3
     f_deck = 1.0 / (2.0 * math.sqrt(A / math.pi) * E_cm / (1 - 0.2**2))
     f = f_col + f_deck
-    F = W + math.sqrt(W**2 + 2 * W * h / f)
+    F_one = W + math.sqrt(W**2 + 2 * W * h / f)
     assert float(c[StruckMass].eta[0]) == pytest.approx(1.0, abs=1e-6)
-    assert float(c[Impact].F[0]) == pytest.approx(F, rel=TOL)
+    F = _two_forces_by_hand(c, load.mass, h, f_deck, f_col, F_one)
     # EN 1992-1-1 §6.7 (upper estimate, × 1.25 strain rate): far above F — no cap here
     b1, b2 = min(3 * l, l + 0.13), min(3 * w, w + 0.13)
     F_crush = 1.25 * 38e6 * min(math.sqrt(b1 * b2 / (l * w)), 3.0) * A
     assert float(c[Impact].F_crush[0]) == pytest.approx(F_crush, rel=1e-9)
-    assert F < F_crush
+    assert F_one < F_crush
     E, fy = 210e9, 355e6
     hh, b, tw, tf = 0.360, 0.170, 0.0080, 0.0127
     hw = hh - 2 * tf
@@ -119,7 +188,8 @@ def test_rooftop_governing_bay_by_hand():
     F_Rd = min(resist(kF, ly), resist(6.0, ss + 2 * tf * (1 + math.sqrt(m1 + m2))))
     chk = c[Demands].checks["web_yielding"]
     assert float(chk.F_allow[0]) == pytest.approx(F_Rd, rel=TOL)
-    assert bay.max_utilisation == pytest.approx(F / F_Rd, rel=2 * TOL)
+    assert float(chk.U[0]) == pytest.approx(F / F_Rd, rel=2 * TOL)
+    assert bay.max_utilisation >= F / F_Rd * (1 - 2 * TOL)
     checks = c[Demands].checks
     assert max(checks, key=lambda k: float(checks[k].U[0])) == "web_yielding"
 
@@ -140,9 +210,9 @@ def test_steel_demo_governing_bay_by_hand():
       (AISC 360-16 Eq. J10-5b, resistance factor 1 as the project sets);
     * U = F/R_n."""
     p = _demo("steel_erection_floor")
-    bay, load, fm, c, (x, y) = _worst(p)
+    # the point that governed with one force per point (7.21), at column 1/B itself
+    bay, load, fm, c, _xy = _at(p, "1-2/A-B", "Spreader bar 12 ft", 0.0, 9.144)
     assert load.name.startswith("Spreader") and load.contact_stiffness is None
-    assert math.hypot(x - 0.0, y - 9.144) < 0.01  # at column 1/B
     assert bay.utilisation_check == "web_crippling"
     assert p.settings.resistance_factor == 1.0
     W, h = load.mass * G, 13 * 0.3048
@@ -156,14 +226,16 @@ def test_steel_demo_governing_bay_by_hand():
     f_col = 3.0 / (E * 0.0171)
     fc = float(fm.level.deck.concrete.fc)
     E_c = 4700e6 * math.sqrt(fc / 1e6)
-    f = f_col + 1.0 / (2.0 * math.sqrt(A / math.pi) * E_c / (1 - 0.2**2))
+    f_deck = 1.0 / (2.0 * math.sqrt(A / math.pi) * E_c / (1 - 0.2**2))
+    f = f_col + f_deck
     assert float(c[Compliance].f[0]) == pytest.approx(f, rel=TOL)
-    F = W + math.sqrt(W**2 + 2 * W * h / f)
-    assert float(c[Impact].F[0]) == pytest.approx(F, rel=TOL)
+    F_one = W + math.sqrt(W**2 + 2 * W * h / f)
+    F = _two_forces_by_hand(c, load.mass, h, f_deck, f_col, F_one)
     tw, tf, dd = sec.tw, sec.tf, sec.d
     assert lb / dd > 0.2
     Fy = girder.grade.yield_strength(tw)
     Rn = 0.40 * tw**2 * (1 + (4 * lb / dd - 0.2) * (tw / tf) ** 1.5) * math.sqrt(
         E * Fy * tf / tw)
     assert float(c[Demands].checks["web_crippling"].F_allow[0]) == pytest.approx(Rn, rel=1e-9)
-    assert bay.max_utilisation == pytest.approx(F / Rn, rel=TOL)
+    assert float(c[Demands].checks["web_crippling"].U[0]) == pytest.approx(F / Rn, rel=TOL)
+    assert bay.max_utilisation >= F / Rn * (1 - TOL)

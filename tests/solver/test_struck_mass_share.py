@@ -23,6 +23,7 @@ from droprig.solver import analysis
 from droprig.solver.chain import (
     Compliance,
     LoadInputs,
+    StruckMass,
 )
 from droprig.solver.evaluate import evaluate_chain
 from tests.builders import AtPoints
@@ -53,9 +54,20 @@ def test_mass_share_follows_the_series_springs(name: str) -> None:
         comp = r.chain[Compliance]
         f_s, f = comp.f_s, comp.f_s + comp.f_deck + r.chain[LoadInputs].f_load
         expected = geo.path.m_e * ((f_s - comp.f_col) / f) ** 2
-        np.testing.assert_allclose(r["effective_mass"][bare], expected[bare], rtol=REL)
+        m_e = r.chain[StruckMass].m_e
+        np.testing.assert_allclose(m_e[bare], expected[bare], rtol=REL)
         # the share is a fraction: never more than the framing's own Rayleigh mass
-        assert np.all(r["effective_mass"] <= geo.path.m_e * (1 + REL))
+        assert np.all(m_e <= geo.path.m_e * (1 + REL))
+        # two forces per point: the struck mass printed is the two-mass model's m2,
+        # the same path's Rayleigh mass with the slab and superimposed dead load over
+        # the members' tributary widths, referred to the framing point — more than
+        # the steel's share wherever the slab is there (a bare deck)
+        m2 = r.chain[StruckMass].m2
+        assert m2 is not None
+        two = bare & (m2 > 0.0)
+        assert two.any()
+        np.testing.assert_array_equal(r["effective_mass"][two], m2[two])
+        assert np.all(m2[two] > m_e[two])
 
 
 def test_a_drop_over_a_column_takes_no_framing_mass() -> None:

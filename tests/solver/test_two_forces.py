@@ -262,8 +262,12 @@ def test_trace_shows_both_forces_with_formulas(monkeypatch):
     load = next(ld for ld in zone.loads if "Spreader" in ld.name)
     tr = trace_point(p, zone.id, load.name, 0.0, 9.144)
     by = {s.symbol: s for s in tr.steps}
-    for sym in ("m₂", "F_c", "F_f", "η_f", "h_allow,2"):
+    # the struck mass the impact used (with the slab) is the sheet's m_e, the steel's
+    # alone m_s; the searched allowable fall is the sheet's h_allow, the closed form
+    # its start h_0 (one truth with the results: test_trace_agrees_with_analyse)
+    for sym in ("m_s", "m_e", "F_c", "F_f", "η_f", "h_0", "h_allow"):
         assert sym in by and by[sym].formula, sym
+    assert by["m_e"].value > by["m_s"].value
     Ff = by["F_f"].value
     W = by["η_f"].inputs["W"][0]
     f = by["η_f"].inputs["f"][0]
