@@ -982,9 +982,17 @@ def demands(c: Chain) -> Demands:
     # line), worse plan orientation
     ey = np.minimum(yb, Ly - yb)
     b_fl, h_p = support_spread(fm)
-    m_y = np.maximum(cross_strip_moment(Ly, yb, inp.foot_l, inp.foot_w, thick, b_fl, h_p),
-                     cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, h_p)) \
-        * (1.0 - share_x)
+    g_main = np.where(comp.strip_span > 0.0, comp.g_strip, np.inf)
+    m_y = np.maximum(
+        cross_strip_moment(Ly, yb, inp.foot_l, inp.foot_w, thick, b_fl, h_p, g_main),
+        cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, h_p, g_main))
+    soft = presses_uniformly(c)
+    if soft.any():  # the rule before (presses_uniformly): no rigid-base statics
+        my1 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_l, inp.foot_w, thick)
+        my2 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_w, inp.foot_l, thick)
+        m_soft = np.maximum(np.where(ey > 0.5 * inp.foot_l, my1, 0.0),
+                            np.where(ey > 0.5 * inp.foot_w, my2, 0.0)) * (1.0 - share_x)
+        m_y = np.where(soft, m_soft, m_y)
     # a rigid base over both beams of its strip (in both plan orientations) rests on
     # the beams: the strip between them carries none of the impact
     # (footprint.bridges_strip)
@@ -1406,7 +1414,9 @@ def base_on_line(e: np.ndarray, ext: np.ndarray, b: float, h: float
     ch. 1 — from memory). The flange is engaged by λ, the part of its near half
     [0, b] under the footprint spread at 45° through the slab depth ``h``
     (EN 1994-1-1 §9.4.3(2) — from memory), from 0 as the spread reaches the flange's
-    edge to 1 when it covers the half; the two states are mixed by λ (share,
+    edge to 1 when it covers the half, raised smoothly, λ = 3t² − 2t³ of the covered
+    part t (no kink in U where the engagement starts: a ridge there was missed by the
+    grid's refinement by 1.2 %); the two states are mixed by λ (share,
     moment of the share and length weighted), so the result is continuous as the
     base comes onto the line (before, the slab was relieved outright the instant
     the footprint's edge reached it). SI units."""
@@ -1420,7 +1430,8 @@ def base_on_line(e: np.ndarray, ext: np.ndarray, b: float, h: float
             share[near], pos[near], length[near] = base_on_line(e[near], ext[near], b, h)
         return share, pos, length
     s1 = e + 0.5 * ext
-    lam = np.clip((bb - (s0 - h)) / bb, 0.0, 1.0)
+    t_lam = np.clip((bb - (s0 - h)) / bb, 0.0, 1.0)
+    lam = t_lam * t_lam * (3.0 - 2.0 * t_lam)  # smooth start and end of the engagement
     p = np.clip(bb, s0, s1)
     run = np.maximum(s1 - p, 0.0)
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -1437,7 +1448,8 @@ def base_on_line(e: np.ndarray, ext: np.ndarray, b: float, h: float
 
 
 def cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray,
-                       along: np.ndarray, thick: float, b: float, h: float) -> np.ndarray:
+                       along: np.ndarray, thick: float, b: float, h: float,
+                       g_main: np.ndarray | None = None) -> np.ndarray:
     """Sagging moment per metre width of the slab's cross strip between the girder
     lines (span ``Ly``, load centred ``y`` from the first line), per newton of the
     load, N·m/m per N.
@@ -1447,7 +1459,12 @@ def cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray,
     the force on the slab, its resultant's distance a from the line and length c),
     the slab part as a patch of length c at a on the simply supported strip
     (:func:`droprig.solver.deck.deck_unit_moment_per_width`), F_s·m(a, c); the
-    flange engaged through the 45° spread over the slab depth ``h``. Clear of the
+    flange engaged through the 45° spread over the slab depth ``h``. With
+    ``g_main`` (m/N, the main strip's deflection under a unit load, inf where none)
+    the cross strip's share of the slab part is taken where that part acts:
+    1 − g_y(a)/(g_main + g_y(a)), g_y(a) = a²(Ly − a)²/(3·Ly) (:func:`two_way_share`'s
+    crossing strips at the resultant, not at the load's centre, which lies nearer
+    the girder). Clear of the
     girders (the spread short of the flange) this is the patch at the load's
     centre; it falls continuously as the base comes to rest over a
     girder (before, the cross strip was dropped the instant the footprint's edge
@@ -1455,8 +1472,12 @@ def cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray,
     Ly, y, a_c, a_l = np.broadcast_arrays(*(np.asarray(v, float) for v in (Ly, y, across, along)))
     e = np.clip(np.minimum(y, Ly - y), 0.0, None)
     share, pos, length = base_on_line(e, a_c, b, h)
-    m = deck.deck_unit_moment_per_width(Ly, pos, length, a_l, thick)
-    out = share * m
+    out = share * deck.deck_unit_moment_per_width(Ly, pos, length, a_l, thick)
+    if g_main is not None:
+        gy = pos**2 * (Ly - pos) ** 2 / (3.0 * Ly)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            tot = g_main + gy
+            out = out * np.where(tot > 0.0, 1.0 - gy / np.where(tot > 0.0, tot, 1.0), 1.0)
     return np.where(np.isfinite(out), out, 0.0)
 
 
@@ -1471,6 +1492,17 @@ def slab_bearing_share(span: np.ndarray, pos: np.ndarray, extent: np.ndarray, b:
     e = np.clip(np.minimum(pos, span - pos), 0.0, None)
     share, _pos, _len = base_on_line(e, ext, b, h)
     return np.where(span > 0.0, share, 1.0)
+
+
+def presses_uniformly(c: Chain) -> np.ndarray:
+    """Per point: the footprint presses the deck uniformly rather than as a rigid
+    base — a declared underside stiffness (``LoadInputs.f_load`` > 0), or a mat or
+    crushable layer under the load (``t_mat`` > 0). The rigid-base statics of
+    :func:`base_on_line` are not credited there: the cross strip and punching keep
+    the rule they had (the footprint reaching over a line bears on the steel),
+    still a step where the footprint's edge reaches the line."""
+    inp = c[LoadInputs]
+    return (np.asarray(inp.f_load) > 0.0) | (np.asarray(inp.t_mat) > 0.0)
 
 
 def girder_share(c: Chain, across: np.ndarray) -> np.ndarray:
@@ -1525,6 +1557,8 @@ def punching_near_support(c: Chain, ey: np.ndarray) -> np.ndarray:
     beta = np.clip(a_v / (2.0 * dd), 0.25, 1.0)
     sigma = np.maximum(np.minimum(beam_share(c, inp.foot_l), girder_share(c, inp.foot_w)),
                        np.minimum(beam_share(c, inp.foot_w), girder_share(c, inp.foot_l)))
+    # a footprint pressing uniformly: the rule before (presses_uniformly)
+    sigma = np.where(presses_uniformly(c), np.where(a_v > 0.0, 1.0, 0.0), sigma)
     return sigma * beta
 
 

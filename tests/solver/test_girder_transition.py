@@ -90,3 +90,44 @@ def test_base_on_a_flange_against_a_direct_energy_minimum(e: float, ext: float) 
     sh, at, _ = chain.base_on_line(np.array([b + 0.25]), np.array([0.5]), b, h)
     assert float(sh[0]) == pytest.approx(0.75, rel=1e-9)
     assert float(at[0]) == pytest.approx(b + 2 * 0.5 / 3, rel=1e-9)
+
+
+def test_clear_of_the_girders_the_crossing_strips_share_is_at_the_centre() -> None:
+    # Rankine–Grashof crossing strips (Reynolds, Reinforced Concrete Designer's
+    # Handbook, two-way slabs — from memory): the cross strip takes
+    # 1 − g_y/(g_x + g_y) with g_y = y²(Ly − y)²/(3·Ly) at the load, here its centre,
+    # 3 m from the girder line (the base clear of the flange: the whole force on the
+    # slab at its centre)
+    from droprig.solver import deck
+
+    Ly, y, gx = 6.42, 3.0, 0.5
+    m = chain.cross_strip_moment(np.array([Ly]), np.array([y]), np.array([0.53]),
+                                 np.array([1.23]), 0.15, 0.075, 0.15, np.array([gx]))
+    gy = y**2 * (Ly - y) ** 2 / (3 * Ly)
+    ref = deck.deck_unit_moment_per_width(Ly, y, 0.53, 1.23, 0.15) * (1 - gy / (gx + gy))
+    assert float(m[0]) == pytest.approx(float(ref), rel=1e-12)
+
+
+@pytest.mark.xfail(strict=True, reason=(
+    "a footprint pressing uniformly (declared underside stiffness, mat, layer) keeps the "
+    "earlier rule, chain.presses_uniformly: the cross strip drops out as its edge reaches "
+    "the girder line (a uniform-pressure split made girder-line points sagging-governed)"))
+def test_a_soft_underside_is_continuous_too() -> None:
+    """The same floor and load with a declared underside stiffness: U should change
+    by less than 5 % for moves of 1–20 mm across the footprint's edge reaching the
+    girder line (common practice, no source)."""
+    y_edge = 6.42 - 0.53 / 2
+    from dataclasses import replace
+
+    p = random_project(31)
+    fm = floor.floor_cache(p)("L1")
+    z = p.lift_zones[0]
+    load = replace(z.loads[0], contact_stiffness=2e7)
+    d = np.array([0.0005, 0.001, 0.005, 0.01])
+    ys = np.concatenate([y_edge - d, y_edge + d])
+    geo = geometry.point_geometry(fm, p, np.full(ys.size, 6.2), ys)
+    r = evaluate.evaluate_case(fm, p, (load,), geo, np.zeros(ys.size, np.int64),
+                               v_hoist=z.hoist_speed)
+    U = r["utilisation"]
+    assert np.all(np.isfinite(U)) and np.all(U > 0.0)
+    assert np.all(np.abs(U[d.size:] / U[:d.size] - 1.0) < 0.05), U
