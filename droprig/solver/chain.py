@@ -975,14 +975,23 @@ def demands(c: Chain) -> Demands:
     # distribution steel, 20 % of the main bars (EN 1992-1-1 §9.3.1.1(2), as punching)
     share_x, Ly, yb = two_way_share(c)
     m_x = np.maximum(mu1, mu2) * comp.cont_ratio * share_x
-    my1 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_l, inp.foot_w, thick)
-    my2 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_w, inp.foot_l, thick)
-    # where the footprint reaches over the girder line its base bears on the girder
-    # (rigid base on the stiffer support, common practice, no source): no cross-strip
-    # bending there, for each orientation of the footprint
+    # the cross strip between the girders: the base on the slab and the nearer
+    # girder's flange as a rigid body, the slab's share as a patch
+    # (cross_strip_moment, base_on_line; continuous as the footprint reaches the
+    # line), worse plan orientation
     ey = np.minimum(yb, Ly - yb)
-    m_y = np.maximum(np.where(ey > 0.5 * inp.foot_l, my1, 0.0),
-                     np.where(ey > 0.5 * inp.foot_w, my2, 0.0)) * (1.0 - share_x)
+    b_fl, h_p = support_spread(fm)
+    g_main = np.where(comp.strip_span > 0.0, comp.g_strip, np.inf)
+    m_y = np.maximum(
+        cross_strip_moment(Ly, yb, inp.foot_l, inp.foot_w, thick, b_fl, h_p, g_main),
+        cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, h_p, g_main))
+    soft = presses_uniformly(c)
+    if soft.any():  # the rule before (presses_uniformly): no rigid-base statics
+        my1 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_l, inp.foot_w, thick)
+        my2 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_w, inp.foot_l, thick)
+        m_soft = np.maximum(np.where(ey > 0.5 * inp.foot_l, my1, 0.0),
+                            np.where(ey > 0.5 * inp.foot_w, my2, 0.0)) * (1.0 - share_x)
+        m_y = np.where(soft, m_soft, m_y)
     # a rigid base over both beams of its strip (in both plan orientations) rests on
     # the beams: the strip between them carries none of the impact
     # (footprint.bridges_strip)
@@ -1377,21 +1386,164 @@ def connection_family(fm: FloorModel, shear: Family) -> Family:
                   shear.groups)
 
 
+def support_spread(fm: FloorModel) -> tuple[float, float]:
+    """(b, h): half the least flange width of the level's members and the depth the
+    load spreads through to them (the concrete over the ribs), m — the inputs of
+    :func:`base_on_line` (the least flange: the least direct bearing, conservative
+    for the slab)."""
+    lv = fm.level
+    b = 0.5 * min((m.section.bf for m in lv.members), default=0.0)
+    return b, float(lv.deck.over_ribs().thickness)
+
+
+def base_on_line(e: np.ndarray, ext: np.ndarray, b: float, h: float
+                 ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """A rigid base of extent ``ext`` (m) whose centre lies ``e`` ≥ 0 (m) from a
+    support line, on the slab (uniform springs) and the line's flange (half-width
+    ``b``, rigid): the share of the force the slab carries, the distance of that
+    part's resultant from the line and its equivalent uniform length (m), per point.
+
+    The base's near edge is at s0 = e − ext/2, its far edge at s1 = e + ext/2. Clear
+    of the flange it rests on the slab alone: share 1 at e, length ext. Bearing on
+    the flange it tips about p = clip(b, s0, s1), the flange's edge (or the base's
+    edge where the spread, not the base, reaches the flange): the slab under
+    [p, s1] takes a triangular pressure, share 3(e − p)/(2(s1 − p)) (0 once the
+    centre is over the flange), resultant at p + 2(s1 − p)/3, length (s1 − p)/2
+    (statics of a rigid base on a knife edge and uniform springs; Hetényi 1946
+    ch. 1 — from memory). The flange is engaged by λ, the part of its near half
+    [0, b] under the footprint spread at 45° through the slab depth ``h``
+    (EN 1994-1-1 §9.4.3(2) — from memory), from 0 as the spread reaches the flange's
+    edge to 1 when it covers the half, raised smoothly, λ = 3t² − 2t³ of the covered
+    part t (no kink in U where the engagement starts: a ridge there was missed by the
+    grid's refinement by 1.2 %); the two states are mixed by λ (share,
+    moment of the share and length weighted), so the result is continuous as the
+    base comes onto the line (before, the slab was relieved outright the instant
+    the footprint's edge reached it). SI units."""
+    e, ext = np.broadcast_arrays(np.asarray(e, float), np.asarray(ext, float))
+    s0 = e - 0.5 * ext
+    bb = max(b, 1e-9)
+    near = s0 - h < bb  # elsewhere λ = 0: the slab alone (exact, not an approximation)
+    if not near.all():
+        share, pos, length = np.ones(e.shape), e.copy(), ext.copy()
+        if near.any():
+            share[near], pos[near], length[near] = base_on_line(e[near], ext[near], b, h)
+        return share, pos, length
+    s1 = e + 0.5 * ext
+    t_lam = np.clip((bb - (s0 - h)) / bb, 0.0, 1.0)
+    lam = t_lam * t_lam * (3.0 - 2.0 * t_lam)  # smooth start and end of the engagement
+    p = np.clip(bb, s0, s1)
+    run = np.maximum(s1 - p, 0.0)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        piv = np.where(run > 0.0, np.clip(1.5 * (e - p) / np.where(run > 0.0, run, 1.0),
+                                          0.0, 1.0), 0.0)
+    share = (1.0 - lam) + lam * piv
+    mom = (1.0 - lam) * e + lam * piv * (p + 2.0 * run / 3.0)
+    lng = (1.0 - lam) * ext + lam * piv * 0.5 * run
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ok = share > 0.0
+        pos = np.where(ok, mom / np.where(ok, share, 1.0), e)
+        length = np.where(ok, lng / np.where(ok, share, 1.0), 0.0)
+    return share, pos, length
+
+
+def cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray,
+                       along: np.ndarray, thick: float, b: float, h: float,
+                       g_main: np.ndarray | None = None) -> np.ndarray:
+    """Sagging moment per metre width of the slab's cross strip between the girder
+    lines (span ``Ly``, load centred ``y`` from the first line), per newton of the
+    load, N·m/m per N.
+
+    The base (extent ``across`` normal to the girder lines, ``along`` parallel)
+    on the slab and the nearer girder's flange (:func:`base_on_line`: share F_s of
+    the force on the slab, its resultant's distance a from the line and length c),
+    the slab part as a patch of length c at a on the simply supported strip
+    (:func:`droprig.solver.deck.deck_unit_moment_per_width`), F_s·m(a, c); the
+    flange engaged through the 45° spread over the slab depth ``h``. With
+    ``g_main`` (m/N, the main strip's deflection under a unit load, inf where none)
+    the cross strip's share of the slab part is taken where that part acts:
+    1 − g_y(a)/(g_main + g_y(a)), g_y(a) = a²(Ly − a)²/(3·Ly) (:func:`two_way_share`'s
+    crossing strips at the resultant, not at the load's centre, which lies nearer
+    the girder). Clear of the
+    girders (the spread short of the flange) this is the patch at the load's
+    centre; it falls continuously as the base comes to rest over a
+    girder (before, the cross strip was dropped the instant the footprint's edge
+    reached the line: U stepped 2.2× on a random floor). SI units (m)."""
+    Ly, y, a_c, a_l = np.broadcast_arrays(*(np.asarray(v, float) for v in (Ly, y, across, along)))
+    e = np.clip(np.minimum(y, Ly - y), 0.0, None)
+    share, pos, length = base_on_line(e, a_c, b, h)
+    out = share * deck.deck_unit_moment_per_width(Ly, pos, length, a_l, thick)
+    if g_main is not None:
+        gy = pos**2 * (Ly - pos) ** 2 / (3.0 * Ly)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            tot = g_main + gy
+            out = out * np.where(tot > 0.0, 1.0 - gy / np.where(tot > 0.0, tot, 1.0), 1.0)
+    return np.where(np.isfinite(out), out, 0.0)
+
+
+def slab_bearing_share(span: np.ndarray, pos: np.ndarray, extent: np.ndarray, b: float,
+                       h: float) -> np.ndarray:
+    """Share of a rigid base's force that bears on the slab beside the nearer of
+    two parallel support lines (0 and ``span``, m; the base of ``extent`` m centred
+    ``pos`` m from the first), per point: :func:`base_on_line`'s share, 1 clear of
+    the lines and where no span exists, continuous as the base comes to rest on a
+    line (0 once its centre is over the flange). Dimensionless."""
+    span, pos, ext = np.broadcast_arrays(*(np.asarray(v, float) for v in (span, pos, extent)))
+    e = np.clip(np.minimum(pos, span - pos), 0.0, None)
+    share, _pos, _len = base_on_line(e, ext, b, h)
+    return np.where(span > 0.0, share, 1.0)
+
+
+def presses_uniformly(c: Chain) -> np.ndarray:
+    """Per point: the footprint presses the deck uniformly rather than as a rigid
+    base — a declared underside stiffness (``LoadInputs.f_load`` > 0), or a mat or
+    crushable layer under the load (``t_mat`` > 0). The rigid-base statics of
+    :func:`base_on_line` are not credited there: the cross strip and punching keep
+    the rule they had (the footprint reaching over a line bears on the steel),
+    still a step where the footprint's edge reaches the line."""
+    inp = c[LoadInputs]
+    return (np.asarray(inp.f_load) > 0.0) | (np.asarray(inp.t_mat) > 0.0)
+
+
+def girder_share(c: Chain, across: np.ndarray) -> np.ndarray:
+    """:func:`slab_bearing_share` of the base across the girder lines (extent
+    ``across`` m normal to them, at y along the deck beam of span Ly), the flange
+    engaged by the footprint itself (the strut through the slab's depth is
+    :func:`punching_near_support`'s β). Dimensionless."""
+    _share, Ly, yb = two_way_share(c)
+    b, _h = support_spread(c.drop.fm)
+    return slab_bearing_share(Ly, yb, across, b, 0.0)
+
+
+def beam_share(c: Chain, along: np.ndarray) -> np.ndarray:
+    """:func:`slab_bearing_share` of the base across the strip's two deck beams
+    (extent ``along`` m in the strip's direction), as :func:`girder_share`; 1 where
+    the point has no strip. Dimensionless."""
+    comp = c[Compliance]
+    b, _h = support_spread(c.drop.fm)
+    return slab_bearing_share(comp.strip_span, comp.strip_pos, along, b, 0.0)
+
+
 def punching_near_support(c: Chain, ey: np.ndarray) -> np.ndarray:
     """Share of the contact force that loads the deck in punching, per point.
 
-    A load whose footprint reaches over a supporting beam or girder line bears on the
-    steel by direct compression: the slab cannot punch around it (the crushing of
-    the concrete under the footprint, :mod:`droprig.solver.crushing`, is the check
-    there), so the share is 0. Close to a support the load goes to it partly by a
-    direct strut: EN 1992-1-1 §6.2.2(6) lets the contribution of a load applied
-    within 0.5d ≤ a_v ≤ 2d of the support be multiplied by β = a_v/(2d), applied
-    here to punching as to one-way shear (from memory; β ≥ 0.25 at a_v = 0.5d).
-    a_v is the clear distance from the footprint to the nearest support line, in
-    the strip's direction (beams) or across it (girders), measured to the line
-    rather than the flange edge and with the footprint's smaller half-side
-    (both give the larger a_v: conservative); ``ey`` the distance to the nearer
-    girder line (m, as :func:`demands` has it). SI units (m); 1 beyond 2d."""
+    The part of the force a rigid base passes to a beam's or girder's flange bears
+    on the steel by direct compression and cannot punch (the crushing of the
+    concrete under the footprint, :mod:`droprig.solver.crushing`, is the check
+    there): the share that bears on the slab σ (:func:`beam_share`,
+    :func:`girder_share`: the base as a rigid body on the slab's springs and the
+    flanges it covers, :func:`base_on_line`; the lesser, the larger over the two
+    plan orientations of the footprint). Close to a support the rest goes to it
+    partly by a direct strut: EN 1992-1-1 §6.2.2(6) lets the contribution of a load
+    applied within 0.5d ≤ a_v ≤ 2d of the support be multiplied by β = a_v/(2d),
+    applied here to punching as to one-way shear (from memory; β = 0.25 for
+    a_v ≤ 0.5d, down to a footprint over the line). a_v is the clear distance from
+    the footprint to the nearest support line, in the strip's direction (beams) or
+    across it (girders), measured to the line rather than the flange edge and with
+    the footprint's smaller half-side (both give the larger a_v: conservative);
+    ``ey`` the distance to the nearer girder line (m, as :func:`demands` has it).
+    Returns σ·β: continuous in the point (before, 0 as soon as the footprint
+    reached a line: a step from 0.25). SI units (m); 1 beyond 2d and clear of the
+    flanges."""
     d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
     dk = d.fm.level.deck
     if dk.is_steel:
@@ -1402,7 +1554,11 @@ def punching_near_support(c: Chain, ey: np.ndarray) -> np.ndarray:
     half = 0.5 * np.minimum(inp.foot_l, inp.foot_w)
     a_v = np.minimum(ex, ey) - half
     beta = np.clip(a_v / (2.0 * dd), 0.25, 1.0)
-    return np.where(a_v > 0.0, beta, 0.0)
+    sigma = np.maximum(np.minimum(beam_share(c, inp.foot_l), girder_share(c, inp.foot_w)),
+                       np.minimum(beam_share(c, inp.foot_w), girder_share(c, inp.foot_l)))
+    # a footprint pressing uniformly: the rule before (presses_uniformly)
+    sigma = np.where(presses_uniformly(c), np.where(a_v > 0.0, 1.0, 0.0), sigma)
+    return sigma * beta
 
 
 def punching_resistance_at(c: Chain) -> np.ndarray:

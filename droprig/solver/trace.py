@@ -18,7 +18,7 @@ import math
 
 import numpy as np
 
-from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
+from droprig.model import STRIKE_ORIENTATIONS, Level, LiftLoad, ModelError, Project
 from droprig.solver import amplification, droppoints, limits, local_damage, struck_mass
 from droprig.solver.chain import (
     BRITTLE,
@@ -111,7 +111,8 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     geo = point_geometry(fm, project, xa, ya, reference=True)
     if geo.path.pair[0] < 0:
         raise ModelError("trace.point", (float(x), float(y)),
-                         f"a point over a deck panel of level {fm.level.id}")
+                         f"a point over a deck panel of level {fm.level.id}"
+                         + _deck_range(fm.level))
     # both landings (droprig.solver.chain.LANDINGS); the trace follows the one that
     # governs the point's response (as droprig.solver.chain.merge_landings)
     chains = {k: evaluate_chain(fm, project, load, geo, detail=True, landing=k,
@@ -634,3 +635,10 @@ def _local_damage_steps(sheet: _Sheet) -> None:
                 {"V": (ld.v_strike[0], "speed"), "M_allow": (m_el, "mass")},
                 local_damage.perforation_mass_reference(
                     sheet.load, lv.deck, float(ld.v_strike[0]), m_el), "mass", src)
+
+
+def _deck_range(level: Level) -> str:
+    """The deck's plan extent as the allowed range of a point, m (the analysis's drop
+    points never leave it; a point past an edge has no deck under its centre)."""
+    e = level.grid.extent
+    return f" (x {e.x0:g} to {e.x1:g} m, y {e.y0:g} to {e.y1:g} m)"

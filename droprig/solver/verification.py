@@ -249,7 +249,8 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     geo = point_geometry(fm, project, np.array([float(x)]), np.array([float(y)]))
     if geo.path.pair[0] < 0 or bool(geo.opening[0]):
         raise ModelError("verify.point", (float(x), float(y)),
-                         f"a point over a deck panel of level {fm.level.id}")
+                         f"a point over a deck panel of level {fm.level.id}"
+                         + _deck_range(fm.level))
     chain = evaluate_chain(fm, project, load, geo, detail=True)
     inp, comp, sm = chain[LoadInputs], chain[Compliance], chain[StruckMass]
     crushable = bool(inp.crushable[0])
@@ -316,3 +317,10 @@ def verification_table(project: Project, results: object, *,
             continue
         rows.append(PointVerification(**{**pv.__dict__, "bay_id": b.bay_id}))
     return tuple(rows)
+
+
+def _deck_range(level: Level) -> str:
+    """The deck's plan extent as the allowed range of a point, m (the analysis's drop
+    points never leave it; a point past an edge has no deck under its centre)."""
+    e = level.grid.extent
+    return f" (x {e.x0:g} to {e.x1:g} m, y {e.y0:g} to {e.y1:g} m, not in an opening)"

@@ -71,7 +71,8 @@ def test_edge_strip_contact_by_hand(roof):
     # the point (4.1, 11.3) lies between the beams at x = 2.5 and 5.0 (0.9 m from the
     # nearer) and 2.3 m from the girder at y = 9.0. Flat, the 3.0 × 2.0 m base reaches
     # over the beam at x = 5.0 (0.9 < 2.0/2): it bears on the steel and cannot punch the
-    # slab (share 0); on its edge the 2.0 × 0.05 m strip is 0.9 − 0.025 = 0.875 m clear
+    # slab (share 0; the unit's declared underside stiffness keeps this rule,
+    # chain.presses_uniformly); on its edge the 2.0 × 0.05 m strip is 0.9 − 0.025 = 0.875 m clear
     # of the beam, beyond 2d, so all of the force punches (EN 1992-1-1 §6.2.2(6): β = 1
     # for a_v ≥ 2d)
     assert 0.9 - 0.025 > 2 * d
