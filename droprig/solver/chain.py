@@ -1188,8 +1188,12 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
     F_cap = np.where(crushable, inp.F_c, imp.F_crush)
     stroke = np.where(crushable, inp.s_c, crush_depth_available(c))
     holds = amp_mod.crush_depth_bound(inp.W, h, f_beyond, F_cap) <= stroke
+    # the most energy the drop can put into the framing, as a static force at the
+    # struck point (bounds member moment and deflection however stiff the contact)
+    F_energy = amp_mod.member_energy_force(inp.W, h, comp.f_s, f_contact, F_cap, stroke)
     forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds,
-                                      bottomed=imp.bottomed | imp.deck_through)
+                                      bottomed=imp.bottomed | imp.deck_through,
+                                      F_energy=F_energy)
     F = imp.F
     with np.errstate(divide="ignore", invalid="ignore"):
         def ratio(Fx: np.ndarray) -> np.ndarray:
