@@ -137,7 +137,7 @@ FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
           "local_extrapolated", "strike_orientation", "dent_depth", "dent_height",
           "fall_height",
           "structure_compliance", "allowable_height_check", "allowable_height_member",
-          "allowable_height_plastic_check")
+          "allowable_height_plastic_check", "utilisation_check", "utilisation_member")
 """The :class:`~droprig.solver.results.CaseResult` arrays, in order."""
 
 _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
@@ -1605,6 +1605,8 @@ class Checks:
     brittle_fail: np.ndarray
     Ub_cap: np.ndarray
     Ub_at_Rp: tuple[np.ndarray, ...]
+    util_check: np.ndarray | None = None
+    util_member: np.ndarray | None = None
 
 
 def checks(c: Chain) -> Checks:
@@ -1657,11 +1659,15 @@ def checks(c: Chain) -> Checks:
     over = U > 1.0
     brittle_fail = over & (~flex_exceeded | (Ub_max > 1.0))
     response[over] = EXCEEDS
+    # the family whose U is the point's U (printed beside U), before the verdict's
+    # governing check replaces it (a brittle check failing at the yield force)
+    util_check, util_member = gov_check, gov_member
     gov_check = np.where(brittle_fail & flex_exceeded, brittle_check, gov_check)
     gov_member = np.where(brittle_fail & flex_exceeded, brittle_member, gov_member)
     return Checks(U=U, F_allow=F_allow, gov_check=gov_check, gov_member=gov_member,
                   response=response, flex_exceeded=flex_exceeded, brittle_fail=brittle_fail,
-                  Ub_cap=Ub_max, Ub_at_Rp=Ub_at_Rp)
+                  Ub_cap=Ub_max, Ub_at_Rp=Ub_at_Rp, util_check=util_check,
+                  util_member=util_member)
 
 
 # --------------------------------------------------------------------------- 7. beyond yield
@@ -2421,6 +2427,11 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "deceleration_g": impact_mod.deceleration_g(imp.contact, inp.W), "utilisation": ck.U,
         "governing_member": by.gov_member.astype(np.int64),
         "governing_check": by.gov_check.astype(np.int64), "response": by.response,
+        # the check (and its member) whose U is the point's U
+        "utilisation_check": (ck.gov_check if ck.util_check is None
+                              else ck.util_check).astype(np.int64),
+        "utilisation_member": (ck.gov_member if ck.util_member is None
+                               else ck.util_member).astype(np.int64),
         # allowable heights on the datum: the fall they allow plus the pad's thickness
         "allowable_drop_height": inv.h_el + inp.t_mat,
         "allowable_drop_height_plastic": inv.h_pl + inp.t_mat,
@@ -2448,6 +2459,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         out["response"] = np.where(op, EXCEEDS, out["response"])
         out["governing_check"] = np.where(op, CHECK["opening"], out["governing_check"])
         out["governing_member"] = np.where(op, DECK, out["governing_member"])
+        out["utilisation_check"] = np.where(op, CHECK["opening"], out["utilisation_check"])
+        out["utilisation_member"] = np.where(op, DECK, out["utilisation_member"])
         out["allowable_height_check"] = np.where(op, CHECK["opening"],
                                                  out["allowable_height_check"])
         out["allowable_height_member"] = np.where(op, DECK, out["allowable_height_member"])
@@ -2458,7 +2471,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
 _BY_RESPONSE = ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
                 "max_deflection", "deceleration_g", "utilisation", "governing_member",
                 "governing_check", "response", "plastic_deflection", "ductility",
-                "support_rotation", "structure_compliance")
+                "support_rotation", "structure_compliance", "utilisation_check",
+                "utilisation_member")
 """Outputs that describe the response at a point: taken from the governing landing."""
 
 _BY_HEIGHT = ("allowable_drop_height", "allowable_height_check", "allowable_height_member",

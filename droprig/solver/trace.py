@@ -140,7 +140,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         add("Deck opening: the load falls through", "U", "U = ∞ (no deck to strike)", {},
             math.inf, "dimensionless", "plan geometry")
         return Trace(zone.id, load.name, float(x), float(y), tuple(sheet.steps), "exceeds",
-                     "deck", "opening")
+                     "deck", "opening", "opening")
     _path_steps(sheet)
     _impact_steps(sheet)
     _amplification_steps(sheet)
@@ -150,7 +150,8 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     gm = int(by.gov_member[0])
     return Trace(zone.id, load.name, float(x), float(y), tuple(sheet.steps),
                  RESPONSES[int(sheet.out["response"][0])], sheet.mname(gm),
-                 CHECKS[int(by.gov_check[0])])
+                 CHECKS[int(by.gov_check[0])],
+                 CHECKS[int(sheet.out["utilisation_check"][0])])
 
 
 class _Sheet:
@@ -404,7 +405,8 @@ def _check_steps(sheet: _Sheet) -> None:
              "F": (imp.F[0], "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
              "E": (_detail(dem.checks[c].exist)[0], q), "R": (_detail(dem.checks[c].resist)[0], q)},
             dem.checks[c].U[0], "dimensionless", _SRC_CHECK[c])
-    add("Utilisation", "U", "U = max over the checks", {}, ck.U[0],
+    add(f"Utilisation ({CHECKS[int(sheet.out['utilisation_check'][0])].replace('_', ' ')})",
+        "U", "U = max over the checks", {}, ck.U[0],
         "dimensionless", "largest demand/resistance ratio (common practice, no source)")
     add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
         {}, ck.F_allow[0], "force", "linear checks")
