@@ -1046,7 +1046,9 @@ class DynamicAmplification:
     (:func:`droprig.solver.pointhistory.point_history`, bool) and ``history`` that run
     (its points in ascending order; None where no point was run);
     ``A_deflection_bound`` the deflection factor of the bounds alone (what the
-    inverse answers take, None where it equals ``A_deflection``)."""
+    inverse answers take, None where it equals ``A_deflection``); ``F_energy`` the
+    member energy force (N, :func:`droprig.solver.amplification.member_energy_force`;
+    None where not computed)."""
 
     mass_ratio: np.ndarray
     compliance_ratio: np.ndarray
@@ -1060,6 +1062,7 @@ class DynamicAmplification:
     th: np.ndarray | None = None
     history: pointhistory.PointHistory | None = None
     A_deflection_bound: np.ndarray | None = None
+    F_energy: np.ndarray | None = None
 
 
 def dynamic_amplification(c: Chain) -> DynamicAmplification:
@@ -1234,7 +1237,7 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
                                 A_shear=factor["shear"], A_deflection=A_D,
                                 F_bound=np.minimum(rigid, np.where(holds, F_cap, np.inf)),
                                 factor=factor, set_by=set_by, th=th, history=hist,
-                                A_deflection_bound=A_D_bound)
+                                A_deflection_bound=A_D_bound, F_energy=F_energy)
 
 
 def struck_member_table(c: Chain) -> dict[str, np.ndarray]:
