@@ -63,3 +63,19 @@ def test_every_bays_utilisation_label_names_its_own_check(monkeypatch, on: bool,
         # the case the label got wrong (the verdict's check printed beside another
         # family's U) is exercised
         assert differs > 0
+
+
+def test_point_table_carries_the_check_of_each_points_utilisation() -> None:
+    # droprig analyse --csv: per point the check whose U it is beside the verdict's;
+    # on the steel demo with amplification on they differ (flexure's U beside a
+    # brittle check failing at the yield force)
+    import csv
+    import io
+
+    from droprig.commands.analyse import csv_text
+
+    p = load_project(demo_dir() / "steel_erection_floor.droprig")
+    p = replace(p, settings=replace(p.settings, dynamic_amplification=True))
+    rows = list(csv.DictReader(io.StringIO(csv_text(p, analysis.analyse(p)))))
+    assert rows and all(r["utilisation_check"] in CHECKS for r in rows)
+    assert any(r["utilisation_check"] != r["governing_check"] for r in rows)
