@@ -394,7 +394,8 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
                             B_ENERGY_DEFLECTION)):
         tab, bnd = np.where(table_ok, A * F_ref, np.inf), B * local
         en = B_E * F_E if np.isfinite(B_E) else np.full(F.shape, np.inf)
-        least_m = np.minimum(np.minimum(tab, bnd), en)
+        # fmin: a missing (NaN) energy force drops its term, never the others
+        least_m = np.fmin(np.minimum(tab, bnd), en)
         out[key] = np.maximum(F, least_m)
         set_by[key] = np.where(F >= least_m, 0, np.where(
             en < np.minimum(tab, bnd), i_energy, np.where(tab <= bnd, 1, 4)))

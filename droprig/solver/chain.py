@@ -1192,8 +1192,13 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
     stroke = np.where(crushable, inp.s_c, crush_depth_available(c))
     holds = amp_mod.crush_depth_bound(inp.W, h, f_beyond, F_cap) <= stroke
     # the most energy the drop can put into the framing, as a static force at the
-    # struck point (bounds member moment and deflection however stiff the contact)
-    F_energy = amp_mod.member_energy_force(inp.W, h, comp.f_s, f_contact, F_cap, stroke)
+    # struck point (bounds member moment and deflection however stiff the contact);
+    # under a crushable layer the deck may crush too: the lesser crushing force over
+    # both strokes bounds what they dissipate
+    F_low = np.where(crushable, np.fmin(inp.F_c, imp.F_crush), F_cap)
+    stroke_all = np.where(crushable, inp.s_c + crush_depth_available(c), stroke)
+    F_energy = amp_mod.member_energy_force(inp.W, h, comp.f_s, f_contact, F_low,
+                                           stroke_all)
     forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds,
                                       bottomed=imp.bottomed | imp.deck_through,
                                       F_energy=F_energy)

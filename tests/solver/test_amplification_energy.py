@@ -151,3 +151,17 @@ def test_energy_bound_lowers_a_stiff_contacts_moment_factor() -> None:
     # still above the time history (Newmark, 40 modes)
     m1 = float(beam.max_abs_moment(cond, L, 1.0, a))
     assert float(with_e.moment) * m1 >= float(t.moment[0])
+
+
+def test_a_missing_energy_force_drops_its_term_only() -> None:
+    # a NaN energy force must not turn the member's demands into NaN (rule: no silent
+    # NaN); the other bounds stand as without it (common practice, no source)
+    amp = amplification.amplification(10.0, 100.0, 1e-9, 1e-7, cond="simple", xi=0.5)
+    W, h = 10.0 * impact.G, 0.5
+    rigid = amplification.contact_force_bound(W, h, 1e-9)
+    F = 5e3
+    got = amplification.amplified_forces(amp, F, F, rigid, np.inf, False, F_energy=np.nan)
+    ref = amplification.amplified_forces(amp, F, F, rigid, np.inf, False)
+    for key in ("local", "moment", "shear", "deflection"):
+        assert np.isfinite(getattr(got, key))
+        assert float(getattr(got, key)) == float(getattr(ref, key))
