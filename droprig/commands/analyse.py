@@ -179,7 +179,8 @@ def csv_text(project: Any, results: Any) -> str:
 
     w.writerow(["lift", "load", "level", "bay", "protection", *[c for _, c in CSV_COLUMNS],
                 "governing_member", "governing_check", "response", "scabbing",
-                "local_extrapolated", "strike_orientation", "through_level"])
+                "local_extrapolated", "strike_orientation", "through_level",
+                "utilisation_check"])
     prot_ids = [p.id for p in project.protection_areas]
     rows = [(c, "") for c in results.cases]
     rows += [(f.case, f.from_level) for f in getattr(results, "cascade", ())]
@@ -201,7 +202,8 @@ def csv_text(project: Any, results: Any) -> str:
                         "true" if case.scabbing[i] else "false",
                         "true" if case.local_extrapolated[i] else "false",
                         STRIKE_ORIENTATIONS[int(case.strike_orientation[i])]
-                        if case.strike_orientation[i] >= 0 else "", through])
+                        if case.strike_orientation[i] >= 0 else "", through,
+                        CHECKS[int(case.utilisation_check[i])]])
     return buf.getvalue()
 
 

@@ -1493,7 +1493,9 @@ class _Builder:
         vals: list[tuple[str, str]] = []
         if c is not None and i is not None:
             vals = [
-                ("Utilisation U", fmt_util(float(c.utilisation[i]))),
+                ("Utilisation U", fmt_util(float(c.utilisation[i]))
+                 + (f" ({tr.utilisation_check.replace('_', ' ')})"
+                    if tr.utilisation_check else "")),
                 ("Governing member · check", f"{tr.governing_member} · "
                  f"{tr.governing_check.replace('_', ' ')}"),
                 ("Response", content.OUTCOMES.get(tr.response,

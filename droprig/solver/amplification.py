@@ -56,6 +56,8 @@ from droprig.solver import impact
 
 __all__ = [
     "B_DEFLECTION",
+    "B_ENERGY_DEFLECTION",
+    "B_ENERGY_MOMENT",
     "B_MOMENT",
     "B_SHEAR",
     "CANTILEVER_POSITION_EDGES",
@@ -72,6 +74,7 @@ __all__ = [
     "amplified_forces",
     "contact_force_bound",
     "crush_depth_bound",
+    "member_energy_force",
     "position_band",
 ]
 
@@ -246,6 +249,54 @@ def crush_depth_bound(W: ArrayLike, h: ArrayLike, f: ArrayLike,
     return np.where(~np.isfinite(Fc), 0.0, np.where(Fc > W, c, np.inf))
 
 
+# --------------------------------------------------------------------------- energy bound
+B_ENERGY_MOMENT = 3.95
+"""Largest member moment of the time history over the static moment of the member
+energy force (:func:`member_energy_force`): 3.40 over 400 random members
+(``scripts/calibrate_energy_bound.py``, contacts down to κ = 1e-4, 70 % with a
+crushing cap) × 1.15, rounded up. The energy bounds the deflection at the struck
+point exactly; the moment it bounds only through the member's mode shapes, hence
+the calibration (largest where a very light load strikes stiffly: higher modes)."""
+B_ENERGY_DEFLECTION = 1.5
+"""As :data:`B_ENERGY_MOMENT` for the member's largest deflection: 1.27 × 1.15,
+rounded up (at the struck point the bound is exact, ≤ 1; elsewhere along the member,
+the free vibration after the load has left, above it)."""
+
+
+def member_energy_force(W: ArrayLike, h: ArrayLike, f_s: ArrayLike, f_c: ArrayLike,
+                        F_crush: ArrayLike = np.inf, stroke: ArrayLike = np.inf
+                        ) -> np.ndarray:
+    """The static force at the struck point whose strain energy is the most the drop
+    can put into the member, N: F_E = √(2·E/f_s).
+
+    The member (struck-point compliance f_s, m/N) is linear elastic and at rest; the
+    load (weight W, N) falls h (m) onto it through a contact spring (compliance f_c,
+    m/N), elastic–perfectly plastic at F_crush (N) over ``stroke`` (m). Energy is
+    conserved less what crushing dissipates, so at every instant the member's energy
+    (strain + kinetic) is at most W·(h + u_max), u_max the load's lowest travel below
+    first contact. At that lowest point the load is at rest on the contact and the
+    springs hold at least s²/(2f) (f = f_s + f_c, s the elastic travel; two springs in
+    series store least for a given total travel) and crushing c took F_crush·c, so
+    s²/(2f) − W·s ≤ W·h and (F_crush − W)·c ≤ W·h + W²·f/2, i.e.
+    s ≤ W·f·(1 + √(1 + 2h/(W·f))) (Gere 7th ed. §9.10 Eq. 9-94 with η = 1) and
+    c ≤ min(stroke, (W·h + W²·f/2)/(F_crush − W)). Of all the member's deflected shapes
+    with deflection δ at the struck point the static one under a point force there
+    stores least strain energy, δ²/(2·f_s) (minimum potential energy; Timoshenko &
+    Gere, *Theory of Elastic Stability*, or any text on energy methods — from
+    memory), so δ ≤ F_E·f_s at every instant with E = W·(h + s + c). Vectorised; ∞
+    where f_s = 0."""
+    W, h, f_s, f_c, Fc, sc = np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (W, h, f_s, f_c, F_crush, stroke)))
+    f = f_s + f_c
+    with np.errstate(divide="ignore", invalid="ignore"):
+        s = np.where(f > 0.0, W * f * (1.0 + np.sqrt(1.0 + 2.0 * h / (W * f))), 0.0)
+        c = np.where(np.isfinite(Fc) & (Fc > W),
+                     (W * h + 0.5 * W**2 * f) / (Fc - W), 0.0)
+        c = np.minimum(c, sc)
+        F_E = np.where(f_s > 0.0, np.sqrt(2.0 * W * (h + s + c) / f_s), np.inf)
+    return F_E
+
+
 @dataclass(frozen=True)
 class AmplifiedForces:
     """The forces (N) at which each family of checks is made, per point: ``local``
@@ -269,17 +320,21 @@ class AmplifiedForces:
 
 
 SET_BY: tuple[str, ...] = ("energy method", "time-history table", "rigid-base bound",
-                           "crushing force", "contact-force bound", "point time history")
+                           "crushing force", "contact-force bound", "point time history",
+                           "member energy bound")
 """What set an amplified force (:attr:`AmplifiedForces.set_by`): the energy method's
 own force, the table, the load against an immovable point, the crushing force,
-(member quantities) the member's response to the bounded contact force, or the
+(member quantities) the member's response to the bounded contact force, the
 point's own time history (the chain's choice of points,
-:func:`droprig.solver.chain.dynamic_amplification`)."""
+:func:`droprig.solver.chain.dynamic_amplification`), or (member moment and
+deflection) the most energy the drop can put into the member
+(:func:`member_energy_force`)."""
 
 
 def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
                      F_rigid: ArrayLike, F_crush: ArrayLike,
-                     crush_holds: ArrayLike, bottomed: ArrayLike = False) -> AmplifiedForces:
+                     crush_holds: ArrayLike, bottomed: ArrayLike = False,
+                     F_energy: ArrayLike = np.inf) -> AmplifiedForces:
     """The checks' forces, each the larger of the energy method's force F (N, as the
     chain gives it — capped by crushing) and the least of the upper bounds of the
     time history:
@@ -298,7 +353,12 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
       the member's largest dynamic response to a contact pulse no larger than the
       contact force bound F_local (:data:`B_MOMENT`, :data:`B_SHEAR`,
       :data:`B_DEFLECTION`, calibrated on the time history with an
-      elastic–perfectly plastic contact).
+      elastic–perfectly plastic contact);
+    * member moment and deflection also B_E·F_energy — the member's response to the
+      most energy the drop can put into it (F_energy, N, :func:`member_energy_force`;
+      :data:`B_ENERGY_MOMENT`, :data:`B_ENERGY_DEFLECTION`): unlike the contact force,
+      this does not grow without bound as the contact stiffens (a light hard load's
+      contact force is a short spike the member does not follow).
 
     ``bottomed``: where the energy method crushes through the whole stroke and the
     rest of the energy is taken elastically; the tables then apply to the larger of
@@ -309,8 +369,8 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
 
     Every term is an upper bound of the time history (tests/solver/
     test_amplification_capped.py), so their least is one too. Vectorised, N."""
-    F, F_ref, F_rigid, F_crush, holds, bot = np.broadcast_arrays(
-        *(np.asarray(v, float) for v in (F, F_ref, F_rigid, F_crush)),
+    F, F_ref, F_rigid, F_crush, F_E, holds, bot = np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (F, F_ref, F_rigid, F_crush, F_energy)),
         np.asarray(crush_holds, bool), np.asarray(bottomed, bool))
     # bottomed: the larger of the bottomed force and the elastic one with no crushing
     # (with the position-keyed table the bottomed force alone read a capped time
@@ -327,12 +387,18 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
     local = np.maximum(F, least)
     set_by = {"local": np.where(F >= least, 0, i_loc + 1)}
     out = {}
-    for key, A, B in (("moment", amp.moment, B_MOMENT), ("shear", amp.shear, B_SHEAR),
-                      ("deflection", amp.deflection, B_DEFLECTION)):
+    i_energy = SET_BY.index("member energy bound")
+    for key, A, B, B_E in (("moment", amp.moment, B_MOMENT, B_ENERGY_MOMENT),
+                           ("shear", amp.shear, B_SHEAR, np.inf),
+                           ("deflection", amp.deflection, B_DEFLECTION,
+                            B_ENERGY_DEFLECTION)):
         tab, bnd = np.where(table_ok, A * F_ref, np.inf), B * local
-        least_m = np.minimum(tab, bnd)
+        en = B_E * F_E if np.isfinite(B_E) else np.full(F.shape, np.inf)
+        # fmin: a missing (NaN) energy force drops its term, never the others
+        least_m = np.fmin(np.minimum(tab, bnd), en)
         out[key] = np.maximum(F, least_m)
-        set_by[key] = np.where(F >= least_m, 0, np.where(tab <= bnd, 1, 4))
+        set_by[key] = np.where(F >= least_m, 0, np.where(
+            en < np.minimum(tab, bnd), i_energy, np.where(tab <= bnd, 1, 4)))
     return AmplifiedForces(local=local, moment=out["moment"], shear=out["shear"],
                            deflection=out["deflection"],
                            capped=holds & np.isfinite(F_crush), set_by=set_by,

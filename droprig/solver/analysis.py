@@ -92,7 +92,8 @@ def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
     arrays = {k: np.ascontiguousarray(res[k]) for k in FIELDS}
     for k in ("bay", "protection", "governing_member", "governing_check", "response",
               "allowable_height_check", "allowable_height_member",
-              "allowable_height_plastic_check", "strike_orientation"):
+              "allowable_height_plastic_check", "strike_orientation", "utilisation_check",
+              "utilisation_member"):
         arrays[k] = arrays[k].astype(np.int64)
     for k in ("scabbing", "local_extrapolated"):
         arrays[k] = arrays[k].astype(bool)

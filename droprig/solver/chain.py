@@ -137,7 +137,7 @@ FIELDS = ("x", "y", "bay", "protection", "drop_height", "static_deflection",
           "local_extrapolated", "strike_orientation", "dent_depth", "dent_height",
           "fall_height",
           "structure_compliance", "allowable_height_check", "allowable_height_member",
-          "allowable_height_plastic_check")
+          "allowable_height_plastic_check", "utilisation_check", "utilisation_member")
 """The :class:`~droprig.solver.results.CaseResult` arrays, in order."""
 
 _NONE_AT_OPENING = ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
@@ -1054,7 +1054,9 @@ class DynamicAmplification:
     (:func:`droprig.solver.pointhistory.point_history`, bool) and ``history`` that run
     (its points in ascending order; None where no point was run);
     ``A_deflection_bound`` the deflection factor of the bounds alone (what the
-    inverse answers take, None where it equals ``A_deflection``)."""
+    inverse answers take, None where it equals ``A_deflection``); ``F_energy`` the
+    member energy force (N, :func:`droprig.solver.amplification.member_energy_force`;
+    None where not computed)."""
 
     mass_ratio: np.ndarray
     compliance_ratio: np.ndarray
@@ -1068,6 +1070,7 @@ class DynamicAmplification:
     th: np.ndarray | None = None
     history: pointhistory.PointHistory | None = None
     A_deflection_bound: np.ndarray | None = None
+    F_energy: np.ndarray | None = None
 
 
 def dynamic_amplification(c: Chain) -> DynamicAmplification:
@@ -1196,8 +1199,17 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
     F_cap = np.where(crushable, inp.F_c, imp.F_crush)
     stroke = np.where(crushable, inp.s_c, crush_depth_available(c))
     holds = amp_mod.crush_depth_bound(inp.W, h, f_beyond, F_cap) <= stroke
+    # the most energy the drop can put into the framing, as a static force at the
+    # struck point (bounds member moment and deflection however stiff the contact);
+    # under a crushable layer the deck may crush too: the lesser crushing force over
+    # both strokes bounds what they dissipate
+    F_low = np.where(crushable, np.fmin(inp.F_c, imp.F_crush), F_cap)
+    stroke_all = np.where(crushable, inp.s_c + crush_depth_available(c), stroke)
+    F_energy = amp_mod.member_energy_force(inp.W, h, comp.f_s, f_contact, F_low,
+                                           stroke_all)
     forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds,
-                                      bottomed=imp.bottomed | imp.deck_through)
+                                      bottomed=imp.bottomed | imp.deck_through,
+                                      F_energy=F_energy)
     F = imp.F
     with np.errstate(divide="ignore", invalid="ignore"):
         def ratio(Fx: np.ndarray) -> np.ndarray:
@@ -1238,7 +1250,7 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
                                 A_shear=factor["shear"], A_deflection=A_D,
                                 F_bound=np.minimum(rigid, np.where(holds, F_cap, np.inf)),
                                 factor=factor, set_by=set_by, th=th, history=hist,
-                                A_deflection_bound=A_D_bound)
+                                A_deflection_bound=A_D_bound, F_energy=F_energy)
 
 
 def struck_member_table(c: Chain) -> dict[str, np.ndarray]:
@@ -1756,6 +1768,8 @@ class Checks:
     brittle_fail: np.ndarray
     Ub_cap: np.ndarray
     Ub_at_Rp: tuple[np.ndarray, ...]
+    util_check: np.ndarray | None = None
+    util_member: np.ndarray | None = None
 
 
 def checks(c: Chain) -> Checks:
@@ -1818,11 +1832,15 @@ def checks(c: Chain) -> Checks:
     over = U > 1.0
     brittle_fail = over & (~flex_exceeded | (Ub_max > 1.0))
     response[over] = EXCEEDS
+    # the family whose U is the point's U (printed beside U), before the verdict's
+    # governing check replaces it (a brittle check failing at the yield force)
+    util_check, util_member = gov_check, gov_member
     gov_check = np.where(brittle_fail & flex_exceeded, brittle_check, gov_check)
     gov_member = np.where(brittle_fail & flex_exceeded, brittle_member, gov_member)
     return Checks(U=U, F_allow=F_allow, gov_check=gov_check, gov_member=gov_member,
                   response=response, flex_exceeded=flex_exceeded, brittle_fail=brittle_fail,
-                  Ub_cap=Ub_max, Ub_at_Rp=Ub_at_Rp)
+                  Ub_cap=Ub_max, Ub_at_Rp=Ub_at_Rp, util_check=util_check,
+                  util_member=util_member)
 
 
 # --------------------------------------------------------------------------- 7. beyond yield
@@ -2735,6 +2753,11 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "deceleration_g": impact_mod.deceleration_g(imp.contact, inp.W), "utilisation": ck.U,
         "governing_member": by.gov_member.astype(np.int64),
         "governing_check": by.gov_check.astype(np.int64), "response": by.response,
+        # the check (and its member) whose U is the point's U
+        "utilisation_check": (ck.gov_check if ck.util_check is None
+                              else ck.util_check).astype(np.int64),
+        "utilisation_member": (ck.gov_member if ck.util_member is None
+                               else ck.util_member).astype(np.int64),
         # allowable heights on the datum: the fall they allow plus the pad's thickness
         "allowable_drop_height": inv.h_el + inp.t_mat,
         "allowable_drop_height_plastic": inv.h_pl + inp.t_mat,
@@ -2762,6 +2785,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         out["response"] = np.where(op, EXCEEDS, out["response"])
         out["governing_check"] = np.where(op, CHECK["opening"], out["governing_check"])
         out["governing_member"] = np.where(op, DECK, out["governing_member"])
+        out["utilisation_check"] = np.where(op, CHECK["opening"], out["utilisation_check"])
+        out["utilisation_member"] = np.where(op, DECK, out["utilisation_member"])
         out["allowable_height_check"] = np.where(op, CHECK["opening"],
                                                  out["allowable_height_check"])
         out["allowable_height_member"] = np.where(op, DECK, out["allowable_height_member"])
@@ -2772,7 +2797,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
 _BY_RESPONSE = ("static_deflection", "effective_mass", "dynamic_factor", "peak_force",
                 "max_deflection", "deceleration_g", "utilisation", "governing_member",
                 "governing_check", "response", "plastic_deflection", "ductility",
-                "support_rotation", "structure_compliance")
+                "support_rotation", "structure_compliance", "utilisation_check",
+                "utilisation_member")
 """Outputs that describe the response at a point: taken from the governing landing."""
 
 _BY_HEIGHT = ("allowable_drop_height", "allowable_height_check", "allowable_height_member",

@@ -41,7 +41,7 @@ OUTPUTS = (*FIELDS, "F_allow")
 """The keys of :func:`evaluate_case`'s result."""
 
 _INTS = {"bay", "protection", "governing_member", "governing_check", "response",
-         "strike_orientation"}
+         "strike_orientation", "utilisation_check", "utilisation_member"}
 _BOOLS = {"scabbing", "local_extrapolated"}
 
 

@@ -154,6 +154,8 @@ class CaseResult:
     allowable_height_check: np.ndarray | None = None
     allowable_height_member: np.ndarray | None = None
     allowable_height_plastic_check: np.ndarray | None = None
+    utilisation_check: np.ndarray = None  # type: ignore[assignment]
+    utilisation_member: np.ndarray = None  # type: ignore[assignment]
 
     def __post_init__(self) -> None:
         # local-damage arrays not given: "not assessed" at every point
@@ -167,6 +169,11 @@ class CaseResult:
         for k, v in fill.items():
             if getattr(self, k) is None:
                 object.__setattr__(self, k, v)
+        # not given: the governing check names U (results built by hand)
+        if self.utilisation_check is None:
+            object.__setattr__(self, "utilisation_check", self.governing_check)
+        if self.utilisation_member is None:
+            object.__setattr__(self, "utilisation_member", self.governing_member)
 
     @property
     def n(self) -> int:
@@ -283,6 +290,9 @@ class Trace:
     response: str
     governing_member: str
     governing_check: str
+    utilisation_check: str = ""
+    """The check whose U is the point's U (the verdict's ``governing_check`` can be
+    another: a brittle check at the yield force, ductility, rotation)."""
 
 
 @dataclass(frozen=True, eq=False)

@@ -238,7 +238,10 @@ class TimeHistoryPeaks:
     moment (N·m), shear (N), deflection (m); time of the first separation (s, NaN if
     the load stays in contact), modes integrated in time, time step (s), steps;
     ``history`` for a single recorded case; ``crush`` the permanent set of an
-    elastic–perfectly plastic contact (m, 0 for an elastic one)."""
+    elastic–perfectly plastic contact (m, 0 for an elastic one); ``reaction`` the
+    largest |shear| at the member's ends (N: the dynamic support reactions, what the
+    verdict's end-shear checks read — the section shear beside the load also carries
+    the contact spike, which the web's local checks take; None where not computed)."""
 
     force: np.ndarray
     moment: np.ndarray
@@ -250,6 +253,7 @@ class TimeHistoryPeaks:
     steps: int
     history: History | None = None
     crush: np.ndarray | None = None
+    reaction: np.ndarray | None = None
 
 
 # --------------------------------------------------------------------------- energy
@@ -418,7 +422,8 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
     v[:, 0] = v0
     acc = np.zeros((P, n1))
     acc[:, 0] = g
-    pk = {k_: np.zeros(P) for k_ in ("F", "M", "V", "D")}
+    pk = {k_: np.zeros(P) for k_ in ("F", "M", "V", "D", "R")}
+    ends = [0, _N_SECTIONS]  # the grid's end columns (x = 0 and x = L)
     t_sep = np.full(P, np.nan)
     in_contact = np.ones(P, bool)
     capped = bool(np.any(np.isfinite(F_y)))
@@ -434,6 +439,7 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
         pk["D"][:] = np.maximum(pk["D"], np.abs(d).max(axis=(1, 2)))
         pk["M"][:] = np.maximum(pk["M"], ma.max(axis=1))
         pk["V"][:] = np.maximum(pk["V"], sa.max(axis=1))
+        pk["R"][:] = np.maximum(pk["R"], np.abs(sh[:, :, ends]).max(axis=(1, 2)))
         if record:  # copies: the block's buffers are reused by the next block
             rec["F"].append(Fb[0].copy())
             rec["D"].append(d[0, :, -2].copy())
@@ -493,7 +499,7 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
     return TimeHistoryPeaks(force=pk["F"], moment=pk["M"], shear=pk["V"],
                             deflection=pk["D"], t_separation=t_sep,
                             modes=kept.sum(axis=1), dt=dt, steps=steps_done,
-                            history=history, crush=p_set)
+                            history=history, crush=p_set, reaction=pk["R"])
 
 
 def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
@@ -514,7 +520,7 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
         *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke))))
     cond_a = np.broadcast_to(cond_a, L.shape)
     out = {k: np.zeros(L.size) for k in ("force", "moment", "shear", "deflection",
-                                         "t_separation", "dt", "crush")}
+                                         "t_separation", "dt", "crush", "reaction")}
     modes = np.zeros(L.size, int)
     steps = 0
     need = time_history(cond_a, L, EI, mu, a, M, h, f_c, F_yield=F_y, stroke=s_y,
@@ -537,7 +543,8 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
         steps = max(steps, t.steps)
     return TimeHistoryPeaks(force=out["force"], moment=out["moment"], shear=out["shear"],
                             deflection=out["deflection"], t_separation=out["t_separation"],
-                            modes=modes, dt=out["dt"], steps=steps, crush=out["crush"])
+                            modes=modes, dt=out["dt"], steps=steps, crush=out["crush"],
+                            reaction=out["reaction"])
 
 
 _SETUP_KEYS = ("omega", "m_e", "inv_m", "kept", "f_k", "k", "pt", "Wd", "Wm",

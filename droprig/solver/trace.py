@@ -141,7 +141,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
         add("Deck opening: the load falls through", "U", "U = ∞ (no deck to strike)", {},
             math.inf, "dimensionless", "plan geometry")
         return Trace(zone.id, load.name, float(x), float(y), tuple(sheet.steps), "exceeds",
-                     "deck", "opening")
+                     "deck", "opening", "opening")
     _path_steps(sheet)
     _impact_steps(sheet)
     _amplification_steps(sheet)
@@ -151,7 +151,8 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     gm = int(by.gov_member[0])
     return Trace(zone.id, load.name, float(x), float(y), tuple(sheet.steps),
                  RESPONSES[int(sheet.out["response"][0])], sheet.mname(gm),
-                 CHECKS[int(by.gov_check[0])])
+                 CHECKS[int(by.gov_check[0])],
+                 CHECKS[int(sheet.out["utilisation_check"][0])])
 
 
 class _Sheet:
@@ -398,15 +399,26 @@ def _amplification_steps(sheet: _Sheet) -> None:
         amp.factor["web_yielding"][0], "dimensionless",
         src_amp + "; Gere §9.10; crushing force as the impact step, held where the "
         "crushed depth cannot pass the cover with all the energy in it")
+    src_en = (src_cap + "; member energy bound B_E,M = "
+              f"{amplification.B_ENERGY_MOMENT}, B_E,δ = "
+              f"{amplification.B_ENERGY_DEFLECTION} (energy conservation, minimum "
+              "potential energy; scripts/calibrate_energy_bound.py)")
+    if amp.F_energy is not None:
+        add("Member energy force: the most energy the drop can put into the framing, "
+            "as a static force at the struck point", "F_E",
+            "F_E = √(2W(h + s + c)/f_s), s = W·f(1 + √(1 + 2h/(W·f))), "
+            "c = min(stroke, (W·h + W²f/2)/(F_crush − W))",
+            {"f_s": (comp.f_s[0], "compliance"), "f": (comp.f[0], "compliance")},
+            amp.F_energy[0], "force", src_en)
     add(f"Amplification of the member moment, set by the {by['moment']}", "A_M",
-        "A_M = max(1, min(table(r, κ)·F_el, B_M·A_F·F)/F)", {},
-        amp.A_moment[0], "dimensionless", src_cap)
+        "A_M = max(1, min(table(r, κ)·F_el, B_M·A_F·F, B_E,M·F_E)/F)", {},
+        amp.A_moment[0], "dimensionless", src_en)
     add(f"Amplification of the member shear, set by the {by['shear']}", "A_V",
         "A_V = max(1, min(table(r, κ)·F_el, B_V·A_F·F)/F)", {},
         amp.A_shear[0], "dimensionless", src_cap)
     add("Amplification of the energy beyond yield", "A_δ²",
-        "A_δ = max(1, min(table(r, κ)·F_el, B_δ·A_F·F)/F)", {},
-        amp.A_deflection[0] ** 2, "dimensionless", src_cap)
+        "A_δ = max(1, min(table(r, κ)·F_el, B_δ·A_F·F, B_E,δ·F_E)/F)", {},
+        amp.A_deflection[0] ** 2, "dimensionless", src_en)
 
 
 def _check_steps(sheet: _Sheet) -> None:
@@ -432,7 +444,8 @@ def _check_steps(sheet: _Sheet) -> None:
              "F": (imp.F[0], "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
              "E": (_detail(dem.checks[c].exist)[0], q), "R": (_detail(dem.checks[c].resist)[0], q)},
             dem.checks[c].U[0], "dimensionless", _SRC_CHECK[c])
-    add("Utilisation", "U", "U = max over the checks", {}, ck.U[0],
+    add(f"Utilisation ({CHECKS[int(sheet.out['utilisation_check'][0])].replace('_', ' ')})",
+        "U", "U = max over the checks", {}, ck.U[0],
         "dimensionless", "largest demand/resistance ratio (common practice, no source)")
     add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
         {}, ck.F_allow[0], "force", "linear checks")

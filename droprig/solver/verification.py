@@ -152,7 +152,9 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     holds = bool(amplification.crush_depth_bound(W, h, f_s + f_c, cap) <= stroke)
     fo = amplification.amplified_forces(amp, F, F_el,
                                         amplification.contact_force_bound(W, h, f_c),
-                                        cap, holds, bottomed)
+                                        cap, holds, bottomed,
+                                        F_energy=amplification.member_energy_force(
+                                            W, h, f_s, f_c, cap, stroke))
     energy = {k: float(getattr(e, k)) * F / F_el for k in QUANTITIES}
     factor = {"force": float(fo.local) / F, "moment": float(fo.moment) / F,
               "shear": float(fo.shear) / F, "deflection": float(fo.deflection) / F}

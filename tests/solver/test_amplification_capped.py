@@ -71,8 +71,10 @@ def _verdict_forces(c: dict[str, np.ndarray]) -> amplification.AmplifiedForces:
                                       xi=c["a"] / c["L"])
     rigid = amplification.contact_force_bound(W, h, c["f_c"])
     holds = amplification.crush_depth_bound(W, h, f, c["F_y"]) <= c["s_y"]
+    # the most energy the drop puts into the member (the chain's energy bound)
+    F_E = amplification.member_energy_force(W, h, c["f_s"], c["f_c"], c["F_y"], c["s_y"])
     return amplification.amplified_forces(amp, F, c["F_el"], rigid, c["F_y"], holds,
-                                          bottomed)
+                                          bottomed, F_energy=F_E)
 
 
 def _unit(c: dict[str, np.ndarray]) -> tuple[np.ndarray, np.ndarray, np.ndarray]:

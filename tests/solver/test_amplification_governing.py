@@ -50,7 +50,9 @@ def test_governing_point_amplified_by_hand(demo: str, load: str, bay: str) -> No
                                     tilted_landing=False))
     res = analysis.analyse(p)
     b = next(x for x in res.bays if x.bay_id == bay and x.load_name == load)
-    assert b.utilisation_check == "shear"
+    # the verdict's check is the brittle shear; the U printed may be another family's
+    # (the welder's 3.45 is flexure's: utilisation_check, test_utilisation_label.py)
+    assert b.governing_check == "shear"
     zone = next(z for z in p.lift_zones if z.id == b.zone_id)
     ld = next(x for x in zone.loads if x.name == load)
     fm = analysis.build_floor(p.level(b.level_id), p.settings)

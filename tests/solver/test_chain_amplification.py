@@ -93,9 +93,14 @@ def test_on_checks_use_the_amplified_force() -> None:
         F_cap = np.where(inp.crushable, inp.F_c, imp.F_crush)
         stroke = np.where(inp.crushable, inp.s_c, c1.drop.fm.level.deck.cover)
         holds = amplification.crush_depth_bound(inp.W, inp.h, f_b, F_cap) <= stroke
+        # the member energy bound (energy conservation; minimum potential energy)
+        F_low = np.where(inp.crushable, np.fmin(inp.F_c, imp.F_crush), F_cap)
+        s_all = np.where(inp.crushable, inp.s_c + c1.drop.fm.level.deck.cover, stroke)
+        F_E = amplification.member_energy_force(inp.W, inp.h, comp.f_s, f_b - comp.f_s,
+                                                F_low, s_all)
         fo = amplification.amplified_forces(
             ref, imp.F, F_ref, amplification.contact_force_bound(inp.W, inp.h, f_b - comp.f_s),
-            F_cap, holds, imp.bottomed | imp.deck_through)
+            F_cap, holds, imp.bottomed | imp.deck_through, F_energy=F_E)
         np.testing.assert_allclose(amp.A_moment[ok], np.maximum(fo.moment / imp.F, 1.0)[ok],
                                    rtol=REL)
         np.testing.assert_allclose(amp.A_force[ok], np.maximum(fo.local / imp.F, 1.0)[ok],

@@ -102,7 +102,7 @@ def _out(**kw):
               "max_deflection", "deceleration_g", "governing_member", "governing_check",
               "plastic_deflection", "ductility", "support_rotation", "structure_compliance",
               "allowable_height_check", "allowable_height_member", "F_allow",
-              "allowable_height_plastic_check"):
+              "allowable_height_plastic_check", "utilisation_check", "utilisation_member"):
         out.setdefault(k, np.zeros(n))
     return out
 
