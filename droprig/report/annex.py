@@ -1037,7 +1037,8 @@ class _Builder:
         self.section("bays")
         small = "in" if self.sys == "US" else "mm"
         self.story.append(self.P(
-            f"Per bay and load: outcome ({outcome_key_words()}), "
+            "Per bay and load: outcome of a drop from the planned height with the pads "
+            f"as laid out ({outcome_key_words()}), "
             "highest utilisation U and the check that sets it, the "
             f"least allowable drop height in {small} (above the finished surface, rounded "
             "down; 'none': not even a load set down is within the limits; 'no limit': no "
