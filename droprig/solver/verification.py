@@ -229,7 +229,7 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     over an opening. The contact is elastic–perfectly plastic as the chain caps it:
     the deck concrete's crushing force over the cover, or a crushable layer's force
     over its stroke."""
-    from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass
+    from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass, energy_fall
     from droprig.solver.evaluate import evaluate_chain
     from droprig.solver.floor import floor_model
     from droprig.solver.geometry import point_geometry
@@ -249,7 +249,7 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     if geo.path.pair[0] < 0 or bool(geo.opening[0]):
         raise ModelError("verify.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}")
-    chain = evaluate_chain(fm, project, load, geo, detail=True)
+    chain = evaluate_chain(fm, project, load, geo, detail=True, v_hoist=zone.hoist_speed)
     inp, comp, sm = chain[LoadInputs], chain[Compliance], chain[StruckMass]
     crushable = bool(inp.crushable[0])
     if crushable:  # rigid until it crushes: the elastic contact is the rest
@@ -267,6 +267,13 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     section, grade = member.section, member.grade
     EI = grade.E * section.Ix
     g_m = float(beam.green(cond, L, EI, a, a))
+    if g_m <= 0.0:
+        # over a column or a support of the member: the time history's struck
+        # member does not move there
+        raise ModelError("verify.point", (float(x), float(y)),
+                         f"a point off the supports of member {member.id} (it is "
+                         f"{a:.3f} m along it, over a support, where the modelled "
+                         "member does not move)")
     # the rest of the path in series: everything but the modelled member's own spring
     f_c = max(f_all - g_m, 0.0) if g_m > 0 else f_all
     # what the verdict used: the chain's own amplification step at this point (its
@@ -276,7 +283,10 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     chain_factors = None
     if project.settings.dynamic_amplification and DynamicAmplification in chain:
         chain_factors = (float(chain[Impact].F[0]), _factors(chain[DynamicAmplification], 0))
-    ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), float(inp.h[0]),
+    # the strike speed the chain uses: the free fall plus the hoist's lowering-speed
+    # head, h + v_h²/2g (chain.energy_fall) — the time history starts at the same speed
+    h_e = float(energy_fall(chain, inp.h)[0])
+    ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), h_e,
                   f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True, F_yield=F_y, stroke=s_y,
                   chain_factors=chain_factors)
 
