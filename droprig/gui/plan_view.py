@@ -813,7 +813,7 @@ class PlanView(QGraphicsView):
                 if a is None:
                     states.append(BayState(b))
                     continue
-                us = [(u, ld) for u, ld in zip(a["u"], a["loads"])
+                us = [(u, ld) for u, ld in zip(a["u"], a["loads"], strict=True)
                       if u is not None and not math.isnan(u)]
                 many = len(set(a["loads"])) > 1
                 u_max = max(us, key=lambda t: t[0]) if us else (math.nan, "")

@@ -310,18 +310,24 @@ def _bay_name(level: Level, geo: Geometry) -> str:
 
 
 def verification_table(project: Project, results: object, *,
-                       zone_id: str | None = None) -> tuple[PointVerification, ...]:
+                       zone_id: str | None = None,
+                       skipped: list[tuple[object, str]] | None = None,
+                       ) -> tuple[PointVerification, ...]:
     """One :class:`PointVerification` per bay summary of ``results`` (a
     :class:`~droprig.solver.results.Results`), at the bay's governing point; bays whose
-    governing point cannot be verified (a crushable layer, a support point) are left
-    out. ``zone_id`` keeps one lift zone."""
+    governing point cannot be verified (over a support of the modelled member, off a
+    deck panel) are left out, and appended to ``skipped`` (when given) as (bay
+    summary, why) so the reader can be told which were not verified. ``zone_id`` keeps
+    one lift zone."""
     rows: list[PointVerification] = []
     for b in getattr(results, "bays", ()):
         if zone_id is not None and b.zone_id != zone_id:
             continue
         try:
             pv = verify_point(project, b.zone_id, b.load_name, b.governing_x, b.governing_y)
-        except ModelError:
+        except ModelError as exc:
+            if skipped is not None:
+                skipped.append((b, exc.allowed))
             continue
         rows.append(PointVerification(**{**pv.__dict__, "bay_id": b.bay_id}))
     return tuple(rows)
