@@ -230,7 +230,7 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     the deck concrete's crushing force over the cover, or a crushable layer's force
     over its stroke."""
     from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass, energy_fall
-    from droprig.solver.evaluate import evaluate_chain
+    from droprig.solver.evaluate import governing_landing_chain
     from droprig.solver.floor import floor_model
     from droprig.solver.geometry import point_geometry
     from droprig.solver.loadpath import COND_NAMES
@@ -249,7 +249,8 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     if geo.path.pair[0] < 0 or bool(geo.opening[0]):
         raise ModelError("verify.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}")
-    chain = evaluate_chain(fm, project, load, geo, detail=True, v_hoist=zone.hoist_speed)
+    # the landing that governs the point, as the calculation trace follows it
+    _, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
     inp, comp, sm = chain[LoadInputs], chain[Compliance], chain[StruckMass]
     crushable = bool(inp.crushable[0])
     if crushable:  # rigid until it crushes: the elastic contact is the rest
