@@ -220,7 +220,8 @@ def _run_project(args: argparse.Namespace) -> int:
                              + "; bays: " + ", ".join(known))
     selected = type(results)(cases=results.cases, bays=tuple(bays),
                              warnings=results.warnings)
-    rows = verification_table(project, selected)
+    skipped_bays: list[tuple[object, str]] = []
+    rows = verification_table(project, selected, skipped=skipped_bays)
     system: Any = project.settings.unit_system
     plots: list[str] = []
     if args.plots:
@@ -267,10 +268,9 @@ def _run_project(args: argparse.Namespace) -> int:
         lines.append(f"  {r.zone_id:<6}{r.bay_id:<10}{r.load_name[:21]:<22}"
                      f"{r.member_id:<10}{v.mass_ratio:>10.3g}{v.compliance_ratio:>9.3g}"
                      f"   {txt}   {txt2}")
-    skipped = len(bays) - len(rows)
-    if skipped:
-        lines.append(f"  ({skipped} bays not verified: governing point on a support or "
-                     "off the deck)")
+    from droprig.report.verification import skipped_words
+
+    lines += [f"  {line}" for line in skipped_words(skipped_bays)]
     lines.append("")
     if project.settings.dynamic_amplification:
         used = ("The verdict uses the amplified demands (dynamic amplification is on in "

@@ -113,7 +113,8 @@ class BayState:
     """What the plan shows for one bay: worst outcome over the displayed
     cases, greatest utilisation and least allowable drop heights (SI, None when
     no summary exists or none is defined); ``scabbing``: a hard load of a displayed
-    case may scab the soffit over the level below (the scabbing mark)."""
+    case may scab the soffit over the level below (the scabbing mark); ``u_load`` and
+    ``h_load``: the loads that set the utilisation and the height."""
 
     bay: Bay
     key: str = style.OUTCOME_NONE
@@ -122,6 +123,11 @@ class BayState:
     allowable_drop_height_plastic: float | None = None
     n_points: int = 0
     scabbing: bool = False
+    u_load: str = ""
+    h_load: str = ""
+    """Where the plan shows the worst of several loads: the load that sets the
+    greatest utilisation and the one that sets the least allowable drop height
+    (empty for one load), so a hover never mixes two loads' numbers unnamed."""
 
     def short_word(self) -> str:
         """One word for a small bay label."""

@@ -798,12 +798,13 @@ class PlanView(QGraphicsView):
                     if self._case is not None and (s.zone_id, s.load_name) != self._case:
                         continue
                     a = agg.setdefault(s.bay_id, {"keys": [], "u": [], "h": [], "hp": [],
-                                                  "n": 0, "scab": False})
+                                                  "n": 0, "scab": False, "loads": []})
                     a["scab"] = a["scab"] or bool(s.scabbing)
                     a["keys"].append(s.response)
                     a["u"].append(s.max_utilisation)
+                    a["loads"].append(s.load_name)
                     if s.allowable_drop_height is not None:
-                        a["h"].append(s.allowable_drop_height)
+                        a["h"].append((s.allowable_drop_height, s.load_name))
                     if s.allowable_drop_height_plastic is not None:
                         a["hp"].append(s.allowable_drop_height_plastic)
                     a["n"] += s.n_points
@@ -812,13 +813,19 @@ class PlanView(QGraphicsView):
                 if a is None:
                     states.append(BayState(b))
                     continue
-                us = [u for u in a["u"] if u is not None and not math.isnan(u)]
+                us = [(u, ld) for u, ld in zip(a["u"], a["loads"], strict=True)
+                      if u is not None and not math.isnan(u)]
+                many = len(set(a["loads"])) > 1
+                u_max = max(us, key=lambda t: t[0]) if us else (math.nan, "")
+                h_min = min(a["h"], key=lambda t: t[0]) if a["h"] else (None, "")
                 states.append(BayState(
                     b, style.worst(a["keys"]),
-                    max(us) if us else math.nan,
-                    min(a["h"]) if a["h"] else None,
+                    u_max[0],
+                    h_min[0],
                     min(a["hp"]) if a["hp"] else None,
-                    a["n"], a["scab"]))
+                    a["n"], a["scab"],
+                    u_load=u_max[1] if many else "",
+                    h_load=h_min[1] if many else ""))
         self._bays_item.set_states(states)
         self._cases = self._displayed_cases()
         self._build_point_index()
@@ -1415,16 +1422,21 @@ class PlanView(QGraphicsView):
             st = style.outcome(s.key)
             if s.key == style.OUTCOME_NONE:
                 parts.append(f"Bay {s.bay.id}: {st.label.lower()}")
-            elif not self._confirmed:
-                parts.append(
-                    f"Bay {s.bay.id}: {st.label.lower()}, max U {fmt_ratio(s.max_utilisation)}, "
-                    f"allowable drop {style.CONFIRMING}")
             else:
-                h_el = style.fmt_drop(s.allowable_drop_height, sysm)
-                h_pl = style.fmt_drop(s.allowable_drop_height_plastic, sysm)
-                parts.append(
-                    f"Bay {s.bay.id}: {st.label.lower()}, max U {fmt_ratio(s.max_utilisation)}, "
-                    f"allowable drop {h_el} (yielding {h_pl})")
+                # over several loads, name the load behind each number: the greatest U
+                # and the least height may come from different loads
+                u_of = f" ({s.u_load})" if s.u_load else ""
+                u_txt = f"Bay {s.bay.id}: {st.label.lower()}, max U " \
+                        f"{fmt_ratio(s.max_utilisation)}{u_of}, "
+                if not self._confirmed:
+                    parts.append(f"{u_txt}allowable drop {style.CONFIRMING}")
+                else:
+                    h_el = style.fmt_drop(s.allowable_drop_height, sysm)
+                    h_pl = style.fmt_drop(s.allowable_drop_height_plastic, sysm)
+                    h_of = f" for {s.h_load}" if s.h_load else ""
+                    least = "least " if s.h_load else ""
+                    parts.append(f"{u_txt}{least}allowable drop {h_el}{h_of} "
+                                 f"(yielding {h_pl})")
         hit = self.nearest_point(x, y)
         if hit is not None:
             c, i = hit

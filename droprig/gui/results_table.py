@@ -50,7 +50,7 @@ COLUMNS: tuple[tuple[str, str], ...] = (
     ("zone", "Zone"),
     ("load", "Load"),
     ("verdict", "Verdict"),
-    ("outcome", "Outcome"),
+    ("outcome", "Outcome at planned drop"),
     ("util", "Max U (check)"),
     ("allow", "Allowable drop height, elastic (check)"),
     ("hook", "Max hook elevation"),
@@ -69,8 +69,10 @@ UNCONFIRMED = frozenset({"verdict", "allow", "hook", "advice"})
 come from the outcomes themselves."""
 
 _TIPS = {
-    "outcome": "Worst response of any drop point in the bay. E: stays elastic, "
-               "Y: yields within limits, X: exceeds limits.",
+    "outcome": "Worst response of any drop point in the bay to a drop from the planned "
+               "height, with the pads and mats as laid out and before the hook-height "
+               "and keep-clear conditions. E: stays elastic, Y: yields within limits, "
+               "X: exceeds limits, P: may go through the deck.",
     "util": "Maximum utilisation U = demand / resistance of any check at any drop point "
             "in the bay, as a ratio: above 1.00 a check is exceeded; '> 99' beyond 99",
     "allow": "Greatest drop height (load underside above the finished surface) that keeps "

@@ -1037,7 +1037,8 @@ class _Builder:
         self.section("bays")
         small = "in" if self.sys == "US" else "mm"
         self.story.append(self.P(
-            f"Per bay and load: outcome ({outcome_key_words()}), "
+            "Per bay and load: outcome of a drop from the planned height with the pads "
+            f"as laid out ({outcome_key_words()}), "
             "highest utilisation U and the check that sets it, the "
             f"least allowable drop height in {small} (above the finished surface, rounded "
             "down; 'none': not even a load set down is within the limits; 'no limit': no "
@@ -1515,19 +1516,24 @@ class _Builder:
         return [_table(rows, [0.5 * self.w, 0.5 * self.w], header_rows=0, extra=extra)]
 
     # ------------------------------------------------------------ B2 verification
-    def verification(self, rows: Sequence[Sequence[str]]) -> None:
+    def verification(self, rows: Sequence[Sequence[str]],
+                     skipped: list[tuple[object, str]] | None = None) -> None:
         """The time history beside the energy method and the verdict at each bay's
-        governing point (:mod:`droprig.report.verification`)."""
+        governing point (:mod:`droprig.report.verification`); the bays whose
+        governing point could not be verified are named, with why."""
         from droprig.report.verification import (
             VERIFICATION_HEADER,
             VERIFICATION_NOTE,
             VERIFICATION_OFF,
+            skipped_words,
         )
 
         self.section("verification")
         self.story.append(self.P(esc(VERIFICATION_NOTE), self.st.small))
         if not self.p.settings.dynamic_amplification:
             self.story.append(self.P(f"<b>{esc(VERIFICATION_OFF)}</b>", self.st.small))
+        for line in skipped_words(list(skipped or [])):
+            self.story.append(self.P(esc(line), self.st.small))
         if not rows:
             self.story.append(self.P("No governing point could be verified (points on a "
                                      "support or off the deck).", self.st.small))
@@ -1919,9 +1925,10 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
     from droprig.report.verification import verification_rows
 
     vrows: list[tuple[str, ...]] = []
+    vskipped: list[tuple[object, str]] = []
     for z in zones:
-        vrows += verification_rows(project, results, zone_id=z.id)
-    b.verification(vrows)
+        vrows += verification_rows(project, results, zone_id=z.id, skipped=vskipped)
+    b.verification(vrows, vskipped)
     b.references_page()
     b.revisions()
 

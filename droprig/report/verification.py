@@ -45,16 +45,18 @@ VERIFICATION_OFF = (
 """Said beside the table when the project's checks use the energy method alone."""
 
 
-def verification_rows(project: Any, results: Any, *,
-                      zone_id: str | None = None) -> list[tuple[str, ...]]:
+def verification_rows(project: Any, results: Any, *, zone_id: str | None = None,
+                      skipped: list[tuple[Any, str]] | None = None,
+                      ) -> list[tuple[str, ...]]:
     """One row of text per verified bay summary, in :data:`VERIFICATION_HEADER` order;
-    bays whose governing point cannot be verified (crushable layer, support) are left
-    out. ``zone_id`` keeps one lift zone."""
+    bays whose governing point cannot be verified (over a support of the modelled
+    member, off a deck panel) are left out and appended to ``skipped`` (bay summary,
+    why; :func:`droprig.solver.verification_table`). ``zone_id`` keeps one lift zone."""
     from droprig.solver import verification_table
 
     system = project.settings.unit_system
     rows: list[tuple[str, ...]] = []
-    for pv in verification_table(project, results, zone_id=zone_id):
+    for pv in verification_table(project, results, zone_id=zone_id, skipped=skipped):
         v = pv.verification
 
         def ratio(key: str, v: Any = v) -> str:
@@ -71,6 +73,24 @@ def verification_rows(project: Any, results: Any, *,
                      _verdict_ratio(v, "force"), _verdict_ratio(v, "moment"),
                      _verdict_ratio(v, "shear")))
     return rows
+
+
+def skipped_words(skipped: list[tuple[Any, str]]) -> list[str]:
+    """One sentence per lift zone and load of the bays left out of the verification
+    table, with where their governing point is and why it was not verified, e.g.
+    "Not verified: MC1, Spreader beam 4 m, bays 1-2/A-B, 2-3/A-B (governing point
+    over a column or a support of the modelled member)"."""
+    groups: dict[tuple[str, str, str], list[str]] = {}
+    for b, why in skipped:
+        kind = ("over a column or a support of the modelled member" if "support" in why
+                else "not over a deck panel")
+        ids = groups.setdefault((b.zone_id, b.load_name, kind), [])
+        if b.bay_id not in ids:
+            ids.append(b.bay_id)
+    return [f"Not verified: {z}, {load}, bay{'s' if len(ids) > 1 else ''} "
+            f"{', '.join(ids)} (governing point {kind}; the trace and the bay's other "
+            "points are for the engineer to judge)."
+            for (z, load, kind), ids in groups.items()]
 
 
 def _verdict_ratio(v: Any, key: str) -> str:

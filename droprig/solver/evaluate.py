@@ -17,11 +17,13 @@ from droprig.solver import loadpath, memory
 from droprig.solver.chain import (
     FIELDS,
     HEIGHT_FREE,
+    LANDINGS,
     Chain,
     Drop,
     merge_landings,
     outputs,
     run_chain,
+    tilted_governs,
 )
 from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry, KeptSteps, point_geometry, slice_geo
@@ -63,6 +65,22 @@ def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     with np.errstate(all="ignore"):
         return run_chain(Drop(fm, project, geo, _loads(load), li, detail,
                               v_hoist=v_hoist, landing=landing))
+
+
+def governing_landing_chain(fm: FloorModel, project: Project, load: LiftLoad, geo: Geometry,
+                            v_hoist: float = 0.0) -> tuple[str, Chain]:
+    """The landing that governs a single point (``geo`` of one point) and its chain
+    with every step: both landings where the project checks the tilted one
+    (``settings.tilted_landing``), the worse governing as the analysis merges them
+    (:func:`~droprig.solver.chain.tilted_governs`); else the flat landing. The
+    calculation trace and the time-history verification read the same one."""
+    landings = LANDINGS if project.settings.tilted_landing else ("flat",)
+    chains = {k: evaluate_chain(fm, project, load, geo, detail=True, landing=k,
+                                v_hoist=v_hoist) for k in landings}
+    if "tilted" not in chains:
+        return "flat", chains["flat"]
+    tilted = bool(tilted_governs(outputs(chains["flat"]), outputs(chains["tilted"]))[0])
+    return ("tilted", chains["tilted"]) if tilted else ("flat", chains["flat"])
 
 
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],

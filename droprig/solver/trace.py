@@ -22,7 +22,6 @@ from droprig.model import STRIKE_ORIENTATIONS, Level, LiftLoad, ModelError, Proj
 from droprig.solver import amplification, droppoints, limits, local_damage, struck_mass
 from droprig.solver.chain import (
     BRITTLE,
-    LANDINGS,
     BeyondYield,
     Chain,
     Checks,
@@ -38,10 +37,9 @@ from droprig.solver.chain import (
     energy_fall,
     outputs,
     slab_rotation_limit,
-    tilted_governs,
 )
 from droprig.solver.drift import resolve_drift
-from droprig.solver.evaluate import evaluate_chain
+from droprig.solver.evaluate import governing_landing_chain
 from droprig.solver.floor import FloorModel, floor_model
 from droprig.solver.footprint import EDGE_CONTACT_WIDTH
 from droprig.solver.geometry import Geometry, point_geometry
@@ -115,13 +113,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
                          + _deck_range(fm.level))
     # both landings (droprig.solver.chain.LANDINGS); the trace follows the one that
     # governs the point's response (as droprig.solver.chain.merge_landings)
-    chains = {k: evaluate_chain(fm, project, load, geo, detail=True, landing=k,
-                                     v_hoist=zone.hoist_speed)
-              for k in (LANDINGS if project.settings.tilted_landing else ("flat",))}
-    o_f = outputs(chains["flat"])
-    o_t = outputs(chains["tilted"]) if "tilted" in chains else o_f
-    landing = "tilted" if bool(tilted_governs(o_f, o_t)[0]) else "flat"
-    chain = chains[landing]
+    landing, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
     sheet = _Sheet(project, fm, geo, load, chain)
     add = sheet.add
     inp = chain[LoadInputs]

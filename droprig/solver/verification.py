@@ -232,8 +232,8 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     over an opening. The contact is elastic–perfectly plastic as the chain caps it:
     the deck concrete's crushing force over the cover, or a crushable layer's force
     over its stroke."""
-    from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass
-    from droprig.solver.evaluate import evaluate_chain
+    from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass, energy_fall
+    from droprig.solver.evaluate import governing_landing_chain
     from droprig.solver.floor import floor_model
     from droprig.solver.geometry import point_geometry
     from droprig.solver.loadpath import COND_NAMES
@@ -253,7 +253,8 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
         raise ModelError("verify.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}"
                          + _deck_range(fm.level))
-    chain = evaluate_chain(fm, project, load, geo, detail=True)
+    # the landing that governs the point, as the calculation trace follows it
+    _, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
     inp, comp, sm = chain[LoadInputs], chain[Compliance], chain[StruckMass]
     crushable = bool(inp.crushable[0])
     if crushable:  # rigid until it crushes: the elastic contact is the rest
@@ -271,6 +272,13 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     section, grade = member.section, member.grade
     EI = grade.E * section.Ix
     g_m = float(beam.green(cond, L, EI, a, a))
+    if g_m <= 0.0:
+        # over a column or a support of the member: the time history's struck
+        # member does not move there
+        raise ModelError("verify.point", (float(x), float(y)),
+                         f"a point off the supports of member {member.id} (it is "
+                         f"{a:.3f} m along it, over a support, where the modelled "
+                         "member does not move)")
     # the rest of the path in series: everything but the modelled member's own spring
     f_c = max(f_all - g_m, 0.0) if g_m > 0 else f_all
     # what the verdict used: the chain's own amplification step at this point (its
@@ -280,7 +288,10 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     chain_factors = None
     if project.settings.dynamic_amplification and DynamicAmplification in chain:
         chain_factors = (float(chain[Impact].F[0]), _factors(chain[DynamicAmplification], 0))
-    ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), float(inp.h[0]),
+    # the strike speed the chain uses: the free fall plus the hoist's lowering-speed
+    # head, h + v_h²/2g (chain.energy_fall) — the time history starts at the same speed
+    h_e = float(energy_fall(chain, inp.h)[0])
+    ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), h_e,
                   f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True, F_yield=F_y, stroke=s_y,
                   chain_factors=chain_factors)
 
@@ -304,18 +315,24 @@ def _bay_name(level: Level, geo: Geometry) -> str:
 
 
 def verification_table(project: Project, results: object, *,
-                       zone_id: str | None = None) -> tuple[PointVerification, ...]:
+                       zone_id: str | None = None,
+                       skipped: list[tuple[object, str]] | None = None,
+                       ) -> tuple[PointVerification, ...]:
     """One :class:`PointVerification` per bay summary of ``results`` (a
     :class:`~droprig.solver.results.Results`), at the bay's governing point; bays whose
-    governing point cannot be verified (a crushable layer, a support point) are left
-    out. ``zone_id`` keeps one lift zone."""
+    governing point cannot be verified (over a support of the modelled member, off a
+    deck panel) are left out, and appended to ``skipped`` (when given) as (bay
+    summary, why) so the reader can be told which were not verified. ``zone_id`` keeps
+    one lift zone."""
     rows: list[PointVerification] = []
     for b in getattr(results, "bays", ()):
         if zone_id is not None and b.zone_id != zone_id:
             continue
         try:
             pv = verify_point(project, b.zone_id, b.load_name, b.governing_x, b.governing_y)
-        except ModelError:
+        except ModelError as exc:
+            if skipped is not None:
+                skipped.append((b, exc.allowed))
             continue
         rows.append(PointVerification(**{**pv.__dict__, "bay_id": b.bay_id}))
     return tuple(rows)

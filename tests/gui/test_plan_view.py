@@ -399,6 +399,29 @@ def test_hover_text_in_project_units(view: PlanView, three_outcomes: Results,
     assert "1.96 ft" in text  # 0.6 m = 1.9685 ft; an allowable height is rounded down
 
 
+def test_hover_over_several_loads_names_the_load_behind_each_number(
+        view: PlanView, warehouse_floor: Project) -> None:
+    # the worst of several loads: the greatest U (the light hard item) and the least
+    # allowable height (the heavy unit) come from different loads; the hover names
+    # each, never one sentence mixing two loads' numbers unnamed (common practice,
+    # no source: a reading must say what it is of)
+    import dataclasses
+
+    heavy = _case(warehouse_floor, [(11.0, 11.0, 2, 2.8, 0.013)])
+    light = dataclasses.replace(_case(warehouse_floor, [(11.0, 11.0, 2, 9.75, 0.05)]),
+                                load_name="Spreader")
+    both = Results((heavy, light), _summaries(warehouse_floor, heavy)
+                   + _summaries(warehouse_floor, light))
+    view.set_results(both)
+    text = view.describe(11.0, 11.0)
+    assert "max U 9.75 (Spreader)" in text
+    assert "least allowable drop 13.0 mm for Pump skid" in text
+    view.set_case("Z1", "Spreader")
+    text = view.describe(11.0, 11.0)
+    assert "max U 9.75," in text and "allowable drop 50.0 mm (" in text
+    assert "least" not in text
+
+
 # ------------------------------------------------------------- protection
 
 
