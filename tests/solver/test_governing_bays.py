@@ -213,7 +213,10 @@ def test_steel_demo_governing_bay_by_hand():
     # the point that governed with one force per point (7.21), at column 1/B itself
     bay, load, fm, c, _xy = _at(p, "1-2/A-B", "Spreader bar 12 ft", 0.0, 9.144)
     assert load.name.startswith("Spreader") and load.contact_stiffness is None
-    assert bay.utilisation_check == "web_crippling"
+    # with two forces the bay's largest U need not be this point's web crippling any
+    # more (it is deck flexure on the merged tree); the hand check below is of the
+    # web crippling at the column point, which the bay's worst U covers
+    assert bay.max_utilisation >= float(c[Demands].checks["web_crippling"].U[0]) - 1e-9
     assert p.settings.resistance_factor == 1.0
     W, h = load.mass * G, 13 * 0.3048
     A = 12 * 0.3048 * 6 * 0.0254 / 2
