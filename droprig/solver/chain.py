@@ -2239,13 +2239,7 @@ class TwoForceKernel:
         e = eta * he
         ratio = np.where(e <= 0.0, 0.0, 2.0 * e / (W * f))
         F_el = (1.0 + np.sqrt(1.0 + ratio)) * W
-        cap = F_el > F_crush
-        F1 = F_el
-        if cap.any():
-            Fb, _, _ = crushing.crushing_limited_impact(W[cap], he[cap], f[cap], eta[cap],
-                                                        F_crush[cap], self.depth)
-            F1 = F_el.copy()
-            F1[cap] = Fb
+        F1 = self._crush_capped(W, he, f, eta, F_crush, F_el)
         Fc2, Ff2 = self.env.at(he, rows)
         return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta)
 
@@ -2259,16 +2253,24 @@ class TwoForceKernel:
         eta = impact_mod.mass_efficiency(M, self.m_e[rows])
         he = h + self.head if self.head > 0.0 else h
         _, F_el, _ = impact_mod.impact_elastic(W, he, f, eta)
-        cap = F_el > F_crush
-        F1 = F_el
-        if cap.any():
-            Fb, _, _ = crushing.crushing_limited_impact(W[cap], he[cap], f[cap], eta[cap],
-                                                        F_crush[cap], self.depth)
-            F1 = F_el.copy()
-            F1[cap] = Fb
+        F1 = self._crush_capped(W, he, f, eta, F_crush, F_el)
         Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W, he, self.f_series[rows],
                                                        self.f_s[rows], self.m2[rows])
         return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[rows], need_eta)
+
+    def _crush_capped(self, W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
+                      F_crush: np.ndarray, F_el: np.ndarray) -> np.ndarray:
+        """The one-mass force (N): the elastic ``F_el`` where it stays below the
+        surface's crushing force, else the crushing-limited impact
+        (:func:`droprig.solver.crushing.crushing_limited_impact`), as :func:`impact_at`."""
+        cap = F_el > F_crush
+        if not cap.any():
+            return F_el
+        Fb, _, _ = crushing.crushing_limited_impact(W[cap], he[cap], f[cap], eta[cap],
+                                                    F_crush[cap], self.depth)
+        F1 = F_el.copy()
+        F1[cap] = Fb
+        return F1
 
     @staticmethod
     def _caps(W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
