@@ -12,7 +12,7 @@ from collections.abc import Callable, Sequence
 
 import numpy as np
 
-from droprig.model import LiftLoad, Project
+from droprig.model import Level, LiftLoad, Project
 from droprig.solver import loadpath, memory
 from droprig.solver.chain import (
     FIELDS,
@@ -65,6 +65,15 @@ def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[L
     with np.errstate(all="ignore"):
         return run_chain(Drop(fm, project, geo, _loads(load), li, detail,
                               v_hoist=v_hoist, landing=landing))
+
+
+def deck_range_words(level: Level, opening: bool = False) -> str:
+    """The deck's plan extent as the allowed range of a point asked for directly, m
+    (the analysis's drop points never leave it; a point past an edge has no deck under
+    its centre), " (x … to … m, y … to … m)", with ``opening`` "not in an opening"."""
+    e = level.grid.extent
+    rest = ", not in an opening" if opening else ""
+    return f" (x {e.x0:g} to {e.x1:g} m, y {e.y0:g} to {e.y1:g} m{rest})"
 
 
 def governing_landing_chain(fm: FloorModel, project: Project, load: LiftLoad, geo: Geometry,

@@ -18,7 +18,7 @@ import math
 
 import numpy as np
 
-from droprig.model import STRIKE_ORIENTATIONS, Level, LiftLoad, ModelError, Project
+from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
 from droprig.solver import amplification, droppoints, limits, local_damage, struck_mass
 from droprig.solver.chain import (
     BRITTLE,
@@ -39,7 +39,7 @@ from droprig.solver.chain import (
     slab_rotation_limit,
 )
 from droprig.solver.drift import resolve_drift
-from droprig.solver.evaluate import governing_landing_chain
+from droprig.solver.evaluate import deck_range_words, governing_landing_chain
 from droprig.solver.floor import FloorModel, floor_model
 from droprig.solver.footprint import EDGE_CONTACT_WIDTH
 from droprig.solver.geometry import Geometry, point_geometry
@@ -110,7 +110,7 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     if geo.path.pair[0] < 0:
         raise ModelError("trace.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}"
-                         + _deck_range(fm.level))
+                         + deck_range_words(fm.level))
     # both landings (droprig.solver.chain.LANDINGS); the trace follows the one that
     # governs the point's response (as droprig.solver.chain.merge_landings)
     landing, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
@@ -640,10 +640,3 @@ def _local_damage_steps(sheet: _Sheet) -> None:
                 {"V": (ld.v_strike[0], "speed"), "M_allow": (m_el, "mass")},
                 local_damage.perforation_mass_reference(
                     sheet.load, lv.deck, float(ld.v_strike[0]), m_el), "mass", src)
-
-
-def _deck_range(level: Level) -> str:
-    """The deck's plan extent as the allowed range of a point, m (the analysis's drop
-    points never leave it; a point past an edge has no deck under its centre)."""
-    e = level.grid.extent
-    return f" (x {e.x0:g} to {e.x1:g} m, y {e.y0:g} to {e.y1:g} m)"

@@ -233,7 +233,7 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     the deck concrete's crushing force over the cover, or a crushable layer's force
     over its stroke."""
     from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass, energy_fall
-    from droprig.solver.evaluate import governing_landing_chain
+    from droprig.solver.evaluate import deck_range_words, governing_landing_chain
     from droprig.solver.floor import floor_model
     from droprig.solver.geometry import point_geometry
     from droprig.solver.loadpath import COND_NAMES
@@ -252,7 +252,7 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     if geo.path.pair[0] < 0 or bool(geo.opening[0]):
         raise ModelError("verify.point", (float(x), float(y)),
                          f"a point over a deck panel of level {fm.level.id}"
-                         + _deck_range(fm.level))
+                         + deck_range_words(fm.level, opening=True))
     # the landing that governs the point, as the calculation trace follows it
     _, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
     inp, comp, sm = chain[LoadInputs], chain[Compliance], chain[StruckMass]
@@ -336,10 +336,3 @@ def verification_table(project: Project, results: object, *,
             continue
         rows.append(PointVerification(**{**pv.__dict__, "bay_id": b.bay_id}))
     return tuple(rows)
-
-
-def _deck_range(level: Level) -> str:
-    """The deck's plan extent as the allowed range of a point, m (the analysis's drop
-    points never leave it; a point past an edge has no deck under its centre)."""
-    e = level.grid.extent
-    return f" (x {e.x0:g} to {e.x1:g} m, y {e.y0:g} to {e.y1:g} m, not in an opening)"
