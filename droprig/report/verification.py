@@ -80,10 +80,12 @@ def skipped_words(skipped: list[tuple[Any, str]]) -> list[str]:
     table, with where their governing point is and why it was not verified, e.g.
     "Not verified: MC1, Spreader beam 4 m, bays 1-2/A-B, 2-3/A-B (governing point
     over a column or a support of the modelled member)"."""
+    from droprig.solver import SKIP_OVER_SUPPORT
+
     groups: dict[tuple[str, str, str], list[str]] = {}
     for b, why in skipped:
-        kind = ("over a column or a support of the modelled member" if "support" in why
-                else "not over a deck panel")
+        kind = ("over a column or a support of the modelled member"
+                if why == SKIP_OVER_SUPPORT else "not over a deck panel")
         ids = groups.setdefault((b.zone_id, b.load_name, kind), [])
         if b.bay_id not in ids:
             ids.append(b.bay_id)

@@ -18,7 +18,7 @@ import math
 
 import numpy as np
 
-from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
+from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, Project
 from droprig.solver import amplification, droppoints, limits, local_damage, struck_mass
 from droprig.solver.chain import (
     BRITTLE,
@@ -39,10 +39,10 @@ from droprig.solver.chain import (
     slab_rotation_limit,
 )
 from droprig.solver.drift import resolve_drift
-from droprig.solver.evaluate import deck_range_words, governing_landing_chain
-from droprig.solver.floor import FloorModel, floor_model
+from droprig.solver.evaluate import governing_landing_chain, point_case
+from droprig.solver.floor import FloorModel
 from droprig.solver.footprint import EDGE_CONTACT_WIDTH
-from droprig.solver.geometry import Geometry, point_geometry
+from droprig.solver.geometry import Geometry
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, LIMIT_MARGIN, RESPONSES, Trace, TraceStep
 
@@ -93,24 +93,10 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     (x, y) in m. Raises :class:`ModelError` for an unknown zone or load, or a point
     that is not over a deck panel of the zone's level."""
     project = resolve_drift(project)
-    try:
-        zone = project.zone(zone_id)
-    except KeyError:
-        raise ModelError("trace.zone", zone_id,
-                         "the id of a lift zone: " + ", ".join(z.id for z in project.lift_zones)
-                         ) from None
-    loads = {ld.name: ld for ld in zone.loads}
-    if load_name not in loads:
-        raise ModelError("trace.load", load_name,
-                         f"the name of a load of zone {zone.id}: " + ", ".join(loads))
-    load = loads[load_name]
-    fm = floor_model(project.level(zone.level_id), project.settings)
-    xa, ya = np.array([float(x)]), np.array([float(y)])
-    geo = point_geometry(fm, project, xa, ya, reference=True)
-    if geo.path.pair[0] < 0:
-        raise ModelError("trace.point", (float(x), float(y)),
-                         f"a point over a deck panel of level {fm.level.id}"
-                         + deck_range_words(fm.level))
+    case = point_case(project, zone_id, load_name, x, y, reference=True,
+                      fields=("trace.zone", "trace.load", "trace.point"))
+    zone, load, fm, geo = case.zone, case.load, case.fm, case.geo
+    xa, ya = geo.x, geo.y
     # both landings (droprig.solver.chain.LANDINGS); the trace follows the one that
     # governs the point's response (as droprig.solver.chain.merge_landings)
     landing, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)

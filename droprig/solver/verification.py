@@ -29,8 +29,6 @@ import math
 from dataclasses import dataclass, replace
 from typing import TYPE_CHECKING
 
-import numpy as np
-
 from droprig.model import Grade, Level, ModelError, Project, Section
 from droprig.solver import (
     amplification,
@@ -50,6 +48,9 @@ if TYPE_CHECKING:
 
 __all__ = [
     "QUANTITIES",
+    "SKIP_OFF_PANEL",
+    "SKIP_OVER_SUPPORT",
+    "OverSupportError",
     "PointVerification",
     "Verification",
     "verification_table",
@@ -120,14 +121,28 @@ class PointVerification:
     verification: Verification
 
 
+SKIP_OVER_SUPPORT = "over a support"
+"""Why a bay's governing point is left out of the verification table: over a column or
+a support of the modelled member, where that member does not move."""
+
+SKIP_OFF_PANEL = "off a deck panel"
+"""Why a bay's governing point is left out: no deck panel under it (past an edge, or in
+an opening)."""
+
+
+class OverSupportError(ModelError):
+    """A point over a support of the modelled member: the member does not move there,
+    so its time history is no check of the point (:data:`SKIP_OVER_SUPPORT`)."""
+
+
 def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
             f_c: float, struck_mass: bool, scaled_mass: bool = False,
             F_yield: float = math.inf, stroke: float = math.inf,
             chain_factors: tuple[float, dict[str, float]] | None = None) -> Verification:
     f_s = float(beam.green(cond, L, EI, a, a))
     if f_s <= 0.0:
-        raise ModelError("at", a, "a point off the supports (the member does not move "
-                         "there)", "m")
+        raise OverSupportError("at", a, "a point off the supports (the member does not move "
+                          "there)", "m")
     assumed = f_c <= amplification.KAPPA_MIN * f_s
     f_th = max(f_c, amplification.KAPPA_MIN * f_s)
     e = timehistory.energy_method_peaks(cond, L, EI, mu, a, M, h, f_c,
@@ -233,26 +248,12 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     the deck concrete's crushing force over the cover, or a crushable layer's force
     over its stroke."""
     from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass, energy_fall
-    from droprig.solver.evaluate import deck_range_words, governing_landing_chain
-    from droprig.solver.floor import floor_model
-    from droprig.solver.geometry import point_geometry
+    from droprig.solver.evaluate import governing_landing_chain, point_case
     from droprig.solver.loadpath import COND_NAMES
 
-    zones = {z.id: z for z in project.lift_zones}
-    if zone_id not in zones:
-        raise ModelError("verify.lift", zone_id, "the id of a lift zone: " + ", ".join(zones))
-    zone = zones[zone_id]
-    loads = {ld.name: ld for ld in zone.loads}
-    if load_name not in loads:
-        raise ModelError("verify.load", load_name,
-                         f"the name of a load of zone {zone_id}: " + ", ".join(loads))
-    load = loads[load_name]
-    fm = floor_model(project.level(zone.level_id), project.settings)
-    geo = point_geometry(fm, project, np.array([float(x)]), np.array([float(y)]))
-    if geo.path.pair[0] < 0 or bool(geo.opening[0]):
-        raise ModelError("verify.point", (float(x), float(y)),
-                         f"a point over a deck panel of level {fm.level.id}"
-                         + deck_range_words(fm.level, opening=True))
+    case = point_case(project, zone_id, load_name, x, y, opening=True,
+                      fields=("verify.lift", "verify.load", "verify.point"))
+    zone, load, fm, geo = case.zone, case.load, case.fm, case.geo
     # the landing that governs the point, as the calculation trace follows it
     _, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
     inp, comp, sm = chain[LoadInputs], chain[Compliance], chain[StruckMass]
@@ -275,7 +276,7 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     if g_m <= 0.0:
         # over a column or a support of the member: the time history's struck
         # member does not move there
-        raise ModelError("verify.point", (float(x), float(y)),
+        raise OverSupportError("verify.point", (float(x), float(y)),
                          f"a point off the supports of member {member.id} (it is "
                          f"{a:.3f} m along it, over a support, where the modelled "
                          "member does not move)")
@@ -322,7 +323,8 @@ def verification_table(project: Project, results: object, *,
     :class:`~droprig.solver.results.Results`), at the bay's governing point; bays whose
     governing point cannot be verified (over a support of the modelled member, off a
     deck panel) are left out, and appended to ``skipped`` (when given) as (bay
-    summary, why) so the reader can be told which were not verified. ``zone_id`` keeps
+    summary, :data:`SKIP_OVER_SUPPORT` or :data:`SKIP_OFF_PANEL`) so the reader can be
+    told which were not verified and why. ``zone_id`` keeps
     one lift zone."""
     rows: list[PointVerification] = []
     for b in getattr(results, "bays", ()):
@@ -330,9 +332,13 @@ def verification_table(project: Project, results: object, *,
             continue
         try:
             pv = verify_point(project, b.zone_id, b.load_name, b.governing_x, b.governing_y)
-        except ModelError as exc:
+        except OverSupportError:
             if skipped is not None:
-                skipped.append((b, exc.allowed))
+                skipped.append((b, SKIP_OVER_SUPPORT))
+            continue
+        except ModelError:
+            if skipped is not None:
+                skipped.append((b, SKIP_OFF_PANEL))
             continue
         rows.append(PointVerification(**{**pv.__dict__, "bay_id": b.bay_id}))
     return tuple(rows)
