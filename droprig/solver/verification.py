@@ -25,6 +25,7 @@ SI units throughout.
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass, replace
 from typing import TYPE_CHECKING
@@ -135,6 +136,21 @@ class OverSupportError(ModelError):
     so its time history is no check of the point (:data:`SKIP_OVER_SUPPORT`)."""
 
 
+@functools.lru_cache(maxsize=256)
+def _member_history(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float,
+                    h: float, f_c: float, F_yield: float, stroke: float
+                    ) -> timehistory.TimeHistoryPeaks:
+    """:func:`droprig.solver.exacthistory.exact_time_history` of one case with the
+    verdict's settings (:data:`droprig.solver.pointhistory.TH_OPTIONS`), histories
+    recorded; arguments as there (SI). Remembered by its exact inputs: a project of
+    equal levels, or a regular grid, asks the annex's verification table for the same
+    member history many times (a stress project of three equal levels: 390 bays, 30
+    distinct histories). The result is shared: read it, never write to it."""
+    return exacthistory.exact_time_history(cond, L, EI, mu, a, M, h, f_c, record=True,
+                                           F_yield=F_yield, stroke=stroke,
+                                           **pointhistory.TH_OPTIONS)
+
+
 def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
             f_c: float, struck_mass: bool, scaled_mass: bool = False,
             F_yield: float = math.inf, stroke: float = math.inf,
@@ -150,9 +166,7 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     W = M * impact.G
     cap = F_yield if F_yield > W else math.inf
     # the integrator and settings of the verdict's own point histories
-    t = exacthistory.exact_time_history(cond, L, EI, mu, a, M, h, f_th, record=True,
-                                        F_yield=cap, stroke=stroke,
-                                        **pointhistory.TH_OPTIONS)
+    t = _member_history(cond, L, EI, mu, a, M, h, f_th, cap, stroke)
     amp = amplification.amplification(M, float(e.effective_mass), f_c, f_s,
                                       struck_mass=struck_mass, cond=cond, xi=a / L)
     F_el = float(e.force)
