@@ -18,6 +18,9 @@ the free load — as uniform acceleration), sampled ``samples_per_period`` times
 of its highest frequency; the phase ends (F = 0, the gap closing) are found by
 bisection of the closed form. Undamped. SI units: m, N, kg, s.
 
+:func:`contact_drop` is the same exact-phase solution for any linear structure (the
+two-member history of ``tests/solver/test_shared_load.py``).
+
 Test helper and study tool only (scipy); droprig never imports it.
 """
 
@@ -65,24 +68,42 @@ def timoshenko_drop(L: float, EI: float, mu: float, kGA: float, rhoI: float, a: 
     K[iP, iP] = L / 2.0 * (EI * k**2 + kGA)
     c = np.zeros(nd)
     c[0], c[iW] = 1.0, -np.sin(k * a)  # the contact's closure u − w(a)
-    kc = 1.0 / f_c
     r_V = np.zeros(nd)
     r_V[iW], r_V[iP] = kGA * k, -kGA
     b = np.zeros(nd)
     b[0] = M * G
-    phases = {True: eigh(K + kc * np.outer(c, c), np.diag(mass)),
-              False: eigh(K, np.diag(mass))}
-    lam_free = phases[False][0]
+    lam_free = eigh(K, np.diag(mass), eigvals_only=True)
     omega = np.sqrt(np.clip(lam_free[lam_free > 1e-9 * lam_free.max()], 0.0, None))
     g_aa = L**3 / (48.0 * EI) if abs(a - L / 2) < 1e-12 else \
         a**2 * (L - a) ** 2 / (3.0 * EI * L)
     T_sys = 2.0 * math.pi * math.sqrt((M + 0.5 * mu * L) * (g_aa + f_c))
     t_end = window if window is not None else duration * max(2 * math.pi / omega[0], T_sys)
+    r_d = -c.copy()
+    r_d[0] = 0.0  # w(a)
+    pk = contact_drop(mass, K, c, 1.0 / f_c, b, math.sqrt(2.0 * G * h), t_end,
+                      {"reaction": r_V, "deflection": r_d},
+                      samples_per_period=samples_per_period, max_samples=max_samples)
+    return TimoshenkoPeaks(force=pk["force"], reaction=pk["reaction"],
+                           deflection=pk["deflection"], omega=omega)
 
-    def evolve(contact: bool, x0: np.ndarray, v0: np.ndarray, ts: np.ndarray
+
+def contact_drop(mass: np.ndarray, K: np.ndarray, c: np.ndarray, kc: float, b: np.ndarray,
+                 v0: float, t_end: float, outputs: dict[str, np.ndarray], *,
+                 samples_per_period: int = 10, max_samples: int = 200_000
+                 ) -> dict[str, float]:
+    """Peaks of a linear structure (diagonal mass ``mass``, stiffness K; coordinate 0
+    the load, starting at speed v0 m/s, every coordinate at 0) struck through a
+    compression-only spring kc (N/m) on the closure c·x, under the constant forces b
+    (N), over t_end s: the largest contact force ``force`` (N) and the largest
+    |r·x| of each row r of ``outputs``. Each phase exact (module docstring)."""
+    nd = mass.size
+    phases = {True: eigh(K + kc * np.outer(c, c), np.diag(mass)),
+              False: eigh(K, np.diag(mass))}
+
+    def evolve(contact: bool, x0: np.ndarray, v0_: np.ndarray, ts: np.ndarray
                ) -> tuple[np.ndarray, np.ndarray]:
         lam, V = phases[contact]
-        z0, zd0, fz = V.T @ (mass * x0), V.T @ (mass * v0), V.T @ b
+        z0, zd0, fz = V.T @ (mass * x0), V.T @ (mass * v0_), V.T @ b
         rigid = lam <= 1e-9 * lam.max()
         w = np.sqrt(np.where(rigid, 1.0, lam))
         zs = np.where(rigid, 0.0, fz / np.where(rigid, 1.0, lam))
@@ -94,9 +115,9 @@ def timoshenko_drop(L: float, EI: float, mu: float, kGA: float, rhoI: float, a: 
         return z @ V.T, zd @ V.T
 
     x, v = np.zeros(nd), np.zeros(nd)
-    v[0] = math.sqrt(2.0 * G * h)
+    v[0] = v0
     t, contact = 0.0, True
-    F_pk = V_pk = d_pk = 0.0
+    pk = dict.fromkeys(["force", *outputs], 0.0)
     for _ in range(400):
         lam = phases[contact][0]
         dt = 2.0 * math.pi / math.sqrt(lam.max()) / samples_per_period
@@ -107,13 +128,13 @@ def timoshenko_drop(L: float, EI: float, mu: float, kGA: float, rhoI: float, a: 
         ends = np.flatnonzero((gap < 0.0) if contact else (gap > 0.0))
         ends = ends[ends > 0]
         stop = int(ends[0]) if ends.size else ns
-        V_pk = max(V_pk, float(np.abs(X[:stop] @ r_V).max()))
-        d_pk = max(d_pk, float(np.abs(-(X[:stop] @ c) + X[:stop, 0]).max()))
+        for key, r in outputs.items():
+            pk[key] = max(pk[key], float(np.abs(X[:stop] @ r).max()))
         if contact:
-            F_pk = max(F_pk, float(kc * gap[:stop].max()))
+            pk["force"] = max(pk["force"], float(kc * gap[:stop].max()))
         if not ends.size:
             if ns == max_samples and t + ts[-1] < t_end:
-                raise RuntimeError("timoshenko_drop: window longer than max_samples")
+                raise RuntimeError("contact_drop: window longer than max_samples")
             break
         lo, hi = float(ts[stop - 1]), float(ts[stop])
         for _ in range(40):
@@ -129,4 +150,4 @@ def timoshenko_drop(L: float, EI: float, mu: float, kGA: float, rhoI: float, a: 
         contact = not contact
         if t >= t_end:
             break
-    return TimoshenkoPeaks(force=F_pk, reaction=V_pk, deflection=d_pk, omega=omega)
+    return pk
