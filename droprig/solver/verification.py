@@ -74,7 +74,8 @@ class Verification:
     ``verdict`` the demand the checks use (factor × energy), ``crushing_force`` (N,
     ∞ none) and ``crush`` (m) the time history's crushed depth;
     ``energy_deflection_at_point`` (m) is F·G(a, a) for the plot of the struck
-    point; ``mass_ratio`` r = M/mₑ, ``compliance_ratio`` κ = f_c/f_s;
+    point; ``mass_ratio`` r = M/mₑ (w²·M/mₑ where the member takes a lever-rule share
+    w of the load), ``compliance_ratio`` κ = f_c/f_s (the contact as the member sees it);
     ``contact_compliance`` (m/N) the contact spring the time history used
     (``contact_assumed`` when a rigid contact was given KAPPA_MIN × f_s); ``modes``
     integrated in time, ``time_step`` (s), ``separation_time`` (s, None if the load
