@@ -22,6 +22,7 @@ from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
 from droprig.solver import amplification, droppoints, limits, local_damage, struck_mass
 from droprig.solver.chain import (
     BRITTLE,
+    CONTACT_CHECKS,
     BeyondYield,
     Chain,
     Checks,
@@ -429,11 +430,17 @@ def _check_steps(sheet: _Sheet) -> None:
               "deck_flexure", "deck_punching"):
         q = qty[c]
         unit_q = "length" if q == "moment" else "dimensionless"
+        # the deck's checks take the deck's force where the impact gives two
+        # (chain.on_contact): printed as such, so that the line's own numbers give
+        # its U (it printed the framing force beside a U worked from F_deck)
+        deck_force = c in CONTACT_CHECKS and imp.F_deck is not None
+        f_sym, f_val = ("F_deck", imp.F_deck[0]) if deck_force and imp.F_deck is not None \
+            else ("F", imp.F[0])
         add(f"{c.replace('_', ' ').capitalize()} — {mname(dem.checks[c].member[0])}", f"U_{c}",
-            "U = |A·F·u + E| / R" if on else "U = |F·u + E| / R",
+            f"U = |A·{f_sym}·u + E| / R" if on else f"U = |{f_sym}·u + E| / R",
             {**({"A": (amp.factor.get(c, amp.A_shear)[0], "dimensionless")} if on
                else {}),
-             "F": (imp.F[0], "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
+             f_sym: (f_val, "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
              "E": (_detail(dem.checks[c].exist)[0], q), "R": (_detail(dem.checks[c].resist)[0], q)},
             dem.checks[c].U[0], "dimensionless", _SRC_CHECK[c])
     add(f"Utilisation ({CHECKS[int(sheet.out['utilisation_check'][0])].replace('_', ' ')})",
