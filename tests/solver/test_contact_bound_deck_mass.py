@@ -101,3 +101,29 @@ def test_two_mass_peak_by_solve_ivp(spreader_point: dict[str, float]) -> None:
     F_r = W * (1.0 + math.sqrt(1.0 + 2.0 * s["h"] / (W * s["f_c"])))
     # the floor's mass lowers the contact force by about 5 % only
     assert 0.93 <= F_ivp / F_r <= 1.0
+
+
+def test_girder_time_history_with_the_floor_mass() -> None:
+    """Independent method with distributed mass: the point (7, 9) lies on girder
+    GB/1-2 of the two-level demo (simply supported, L = 7.5 m, EI = 121.1 MN·m²,
+    155.26 kg/m of steel, struck 7.0 m from its end), where the beams B1.2 and B2 end;
+    the spreader beam (300 kg, h = 4.80 m, contact 2.37e-11 m/N) struck through the
+    deck's indentation. Euler–Bernoulli modes, each phase exact
+    (``exacthistory.exact_time_history``, Blevins 1979 Table 8-1; Chopra §10–12),
+    the column taken rigid (a stiffer support: a higher force). With the beams' ends
+    (1,219.48 kg/m with their slab, 9 m spans on both sides, 2.5 m apart: half each
+    beam's mass, 2·1219.48·9/2/2.5 = 4,389.5 kg/m) smeared onto the girder the contact
+    force is 0.88 × the rigid-base force; with the girder's steel alone 0.41."""
+    from droprig.solver import exacthistory
+
+    M, h, f_c = 300.0, 4.80, 2.37e-11
+    W = M * G
+    F_r = W * (1.0 + math.sqrt(1.0 + 2.0 * h / (W * f_c)))
+    mu_floor = 155.26 + 2.0 * 1219.48 * 9.0 / 2.0 / 2.5
+    t = exacthistory.exact_time_history(["simple", "simple"], [7.5, 7.5],
+                                        [121.12569e6] * 2, [155.26, mu_floor],
+                                        [7.0, 7.0], [M, M], [h, h], [f_c, f_c])
+    steel, floor = (float(x) / F_r for x in t.force)
+    assert floor == pytest.approx(0.884, abs=0.02)
+    assert floor <= RIGID_SPRING_BACK
+    assert steel == pytest.approx(0.413, abs=0.02)
