@@ -1029,10 +1029,7 @@ def on_contact(checks: dict[str, Check], imp: Impact) -> dict[str, Check]:
     out = dict(checks)
     for name in CONTACT_CHECKS:
         if name in out:
-            sc = _scaled(out[name], A)
-            out[name] = Check(name=sc.name, U=sc.U_at(imp.F), F_allow=sc.F_allow,
-                              member=sc.member, unit=sc.unit, exist=sc.exist,
-                              resist=sc.resist, U_at=sc.U_at)
+            out[name] = at_force(_scaled(out[name], A), imp.F)
     return out
 
 
@@ -1347,14 +1344,38 @@ def _point_histories(c: Chain, h: np.ndarray, F: np.ndarray, factor: dict[str, n
 def _scaled(chk: Check, A: np.ndarray) -> Check:
     """``chk`` evaluated at the force A·F: U = U_at(A·F) for the impact force F the
     chain's Impact step gives, allowed (energy-method) force F_allow/A; the governing
-    candidate's detail is kept (its demand per N of the amplified force)."""
+    candidate's detail is kept (its demand per N of the amplified force), and ``at``
+    gives the check at A·F with the member and candidate that govern there."""
     U_at = chk.U_at
+    inner = chk.at
 
-    def at(Fx: np.ndarray) -> np.ndarray:
+    def at_U(Fx: np.ndarray) -> np.ndarray:
         return U_at(A * Fx)
 
+    at = None
+    if inner is not None:
+        def at(Fx: np.ndarray) -> Check:
+            got = inner(A * Fx)
+            return Check(name=chk.name, U=got.U, F_allow=chk.F_allow / A,
+                         member=got.member, unit=got.unit, exist=got.exist,
+                         resist=got.resist, U_at=at_U, at=at)
+
     return Check(name=chk.name, U=chk.U, F_allow=chk.F_allow / A, member=chk.member,
-                 unit=chk.unit, exist=chk.exist, resist=chk.resist, U_at=at)
+                 unit=chk.unit, exist=chk.exist, resist=chk.resist, U_at=at_U, at=at)
+
+
+def at_force(chk: Check, F: np.ndarray) -> Check:
+    """``chk`` (a family scaled by :func:`_scaled`) made at the impact force F (N): its
+    U there and the member and candidate that govern there (:attr:`Check.at`), the
+    allowed force kept. Where the check keeps no ``at``: U at F, member and detail as
+    they were."""
+    if chk.at is None:
+        return Check(name=chk.name, U=chk.U_at(F), F_allow=chk.F_allow, member=chk.member,
+                     unit=chk.unit, exist=chk.exist, resist=chk.resist, U_at=chk.U_at)
+    got = chk.at(F)
+    return Check(name=chk.name, U=got.U, F_allow=chk.F_allow, member=got.member,
+                 unit=got.unit, exist=got.exist, resist=got.resist, U_at=chk.U_at,
+                 at=chk.at)
 
 
 def amplified_demands(c: Chain) -> Demands:
@@ -1369,10 +1390,9 @@ def amplified_demands(c: Chain) -> Demands:
     for name, chk in dem.checks.items():
         # the connection check is end shear: it takes the shear factor
         A = amp.factor.get(name, amp.A_shear)
-        scaled = _scaled(chk, A)
-        out[name] = Check(name=scaled.name, U=scaled.U_at(imp.F), F_allow=scaled.F_allow,
-                          member=chk.member, unit=chk.unit, exist=chk.exist,
-                          resist=chk.resist, U_at=scaled.U_at)
+        # the member and candidate that govern at the amplified force (at A·F the
+        # existing demand weighs less: another member can govern than at F)
+        out[name] = at_force(_scaled(chk, A), imp.F)
     return Demands(checks=out, actions=dem.actions)
 
 

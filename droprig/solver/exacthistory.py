@@ -88,7 +88,8 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                        samples_per_period: int = DEFAULT_SAMPLES_PER_PERIOD,
                        duration: float = 1.25, record: bool = False,
                        sections: int = DEFAULT_SECTIONS,
-                       group: int = 256) -> TimeHistoryPeaks:
+                       group: int = 256,
+                       weight: ArrayLike | None = None) -> TimeHistoryPeaks:
     """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
     condition ``cond``, one name or one per case; span L m, EI N·m², μ kg/m) at
     ``a`` (m) through a contact compliance f_c (m/N), with an elastic–perfectly
@@ -97,11 +98,12 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     :func:`droprig.solver.timehistory.time_history`, solved phase by phase in closed
     form (module docstring). ``record`` keeps the sampled histories (one case).
     ``dt`` in the result is each case's sample spacing in its last phase (s) and
-    ``steps`` the largest number of samples of a case."""
+    ``steps`` the largest number of samples of a case. ``weight`` (N, default M·g):
+    as in :func:`droprig.solver.timehistory.time_history`."""
     if samples_per_period < 4:
         raise ValueError("samples_per_period: at least 4 samples per period")
     (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = timehistory.checked_case(
-        cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record)
+        cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record, weight)
     P = L.size
     conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
     g = impact.G
@@ -160,8 +162,8 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
         fb = np.concatenate(fallback)
         ref = timehistory.time_history_batched(conds[fb], L[fb], EI[fb], mu[fb], a[fb],
                                                M[fb], h[fb], f_c[fb], F_yield=F_y[fb],
-                                               stroke=s_y[fb], n_modes=n_modes,
-                                               cutoff=cutoff)
+                                               stroke=s_y[fb], weight=W[fb],
+                                               n_modes=n_modes, cutoff=cutoff)
         for key in out:
             out[key][fb] = getattr(ref, key)
     return TimeHistoryPeaks(force=out["force"], moment=out["moment"], shear=out["shear"],

@@ -300,14 +300,17 @@ def _green_aa(cond: str | ArrayLike, L: np.ndarray, EI: np.ndarray,
     return out
 
 
-def checked_case(cond: str | ArrayLike, values: tuple[ArrayLike, ...], record: bool
+def checked_case(cond: str | ArrayLike, values: tuple[ArrayLike, ...], record: bool,
+                 weight: ArrayLike | None = None
                  ) -> tuple[tuple[np.ndarray, ...], np.ndarray, np.ndarray]:
     """The inputs of a time history (L, EI, mu, a, M, h, f_c, F_yield, stroke, in SI)
     broadcast to one array each (at least 1-D), checked as both integrators need
     them; with the static compliance f_s at the load (:func:`_green_aa`, m/N) and
-    the weight W = M·g (N). Raises ValueError naming the input: ``record`` with more
-    than one case; a rigid contact on a rigid support; a crushing force not above
-    the weight, or a negative stroke."""
+    the weight W = M·g (N), or ``weight`` where given (N, > 0: a load seen through a
+    generalised coordinate, :func:`droprig.solver.pointhistory.shared_load`). Raises
+    ValueError naming the input: ``record`` with more than one case; a rigid contact
+    on a rigid support; a weight not above 0; a crushing force not above the weight,
+    or a negative stroke."""
     arrs = tuple(np.atleast_1d(v) for v in np.broadcast_arrays(
         *(np.asarray(v, float) for v in values)))
     L, EI, _mu, a, M, _h, f_c, F_y, s_y = arrs
@@ -319,7 +322,12 @@ def checked_case(cond: str | ArrayLike, values: tuple[ArrayLike, ...], record: b
     if np.any(f_s + f_c <= 0.0):
         raise ValueError("a: a point on a rigid support with a rigid contact has no "
                          "finite impact force; give a contact compliance")
-    W = M * impact.G
+    if weight is None:
+        W = M * impact.G
+    else:
+        W = np.broadcast_to(np.asarray(weight, float), L.shape).copy()
+        if np.any(~(W > 0.0)) or np.any(~np.isfinite(W)):
+            raise ValueError("weight: the load's weight must be a finite number > 0 N")
     if np.any(~(F_y > W)) or np.any(~(s_y >= 0.0)):
         raise ValueError("F_yield: the crushing force must exceed the load's weight "
                          "(allowed: > M·g, N) and stroke must be ≥ 0 m")
@@ -333,7 +341,7 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
                  steps_per_period: int = DEFAULT_STEPS_PER_PERIOD,
                  duration: float = 1.25, record: bool = False,
                  F_yield: ArrayLike = math.inf, stroke: ArrayLike = math.inf,
-                 _plan: bool = False) -> TimeHistoryPeaks:
+                 weight: ArrayLike | None = None, _plan: bool = False) -> TimeHistoryPeaks:
     """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
     condition ``cond``, span L m, EI N·m², μ kg/m) at ``a`` (m from the origin end)
     through a contact compliance f_c (m/N); model and sources in the module docstring.
@@ -351,9 +359,13 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
     F_yield, until the set reaches ``stroke`` (m; ∞ never), after which it is elastic
     and uncapped (module docstring). The run is lengthened by the crushing time
     M·v₀/(F_yield − W).
+
+    ``weight`` (N, default M·g): the load's weight where it is not M·g — a load
+    seen through a generalised coordinate (:func:`droprig.solver.pointhistory.
+    shared_load`); the load then falls freely at W/M.
     """
     (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = checked_case(
-        cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record)
+        cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record, weight)
     P = L.size
     g = impact.G
     v0 = np.sqrt(2.0 * g * h)
@@ -421,7 +433,7 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
     v = np.zeros((P, n1))
     v[:, 0] = v0
     acc = np.zeros((P, n1))
-    acc[:, 0] = g
+    acc[:, 0] = W / M
     pk = {k_: np.zeros(P) for k_ in ("F", "M", "V", "D", "R")}
     ends = [0, _N_SECTIONS]  # the grid's end columns (x = 0 and x = L)
     t_sep = np.full(P, np.nan)
@@ -505,6 +517,7 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
 def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
                          a: ArrayLike, M: ArrayLike, h: ArrayLike, f_c: ArrayLike = 0.0, *,
                          F_yield: ArrayLike = math.inf, stroke: ArrayLike = math.inf,
+                         weight: ArrayLike | None = None,
                          group: int = 128, spread: float = 1.5,
                          n_modes: int = DEFAULT_MODES, cutoff: float = DEFAULT_CUTOFF,
                          steps_per_period: int = DEFAULT_STEPS_PER_PERIOD) -> TimeHistoryPeaks:
@@ -516,15 +529,17 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
     there); the peaks come back in the cases' order (``dt``/``steps``: per case the
     time step, and the largest group's steps)."""
     cond_a = np.atleast_1d(np.asarray(cond, dtype=object))
-    L, EI, mu, a, M, h, f_c, F_y, s_y = (np.atleast_1d(v) for v in np.broadcast_arrays(
-        *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke))))
+    L, EI, mu, a, M, h, f_c, F_y, s_y, Wt = (np.atleast_1d(v) for v in np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke,
+                                         np.nan if weight is None else weight))))
+    Wt = np.where(np.isnan(Wt), M * impact.G, Wt)
     cond_a = np.broadcast_to(cond_a, L.shape)
     out = {k: np.zeros(L.size) for k in ("force", "moment", "shear", "deflection",
                                          "t_separation", "dt", "crush", "reaction")}
     modes = np.zeros(L.size, int)
     steps = 0
     need = time_history(cond_a, L, EI, mu, a, M, h, f_c, F_yield=F_y, stroke=s_y,
-                        _plan=True, n_modes=n_modes, cutoff=cutoff,
+                        weight=Wt, _plan=True, n_modes=n_modes, cutoff=cutoff,
                         steps_per_period=steps_per_period).dt
     order = np.argsort(need, kind="stable")
     need = need[order]
@@ -535,7 +550,8 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
         sel = order[g:e]
         g = e
         t = time_history(cond_a[sel], L[sel], EI[sel], mu[sel], a[sel], M[sel], h[sel],
-                         f_c[sel], F_yield=F_y[sel], stroke=s_y[sel], n_modes=n_modes,
+                         f_c[sel], F_yield=F_y[sel], stroke=s_y[sel], weight=Wt[sel],
+                         n_modes=n_modes,
                          cutoff=cutoff, steps_per_period=steps_per_period)
         for k in out:
             out[k][sel] = getattr(t, k)
