@@ -282,12 +282,15 @@ class LoadInputs:
 
 
 def load_inputs(c: Chain) -> LoadInputs:
-    """:class:`LoadInputs` of the drop (common practice for the 1:1 spread, no source)."""
+    """:class:`LoadInputs` of the drop (common practice for the 1:1 spread, no source):
+    the loads' own values per point, the layers under them
+    (:func:`_protection_inputs`), a trial mat (:mod:`droprig.solver.confirm`), the
+    drop heights (:func:`_drop_heights`) and the contact on the deck
+    (:func:`_contact_sides`, :func:`_footprint_on_deck`)."""
     d = c.drop
     if d.bare is not None:
         return _bare_load_inputs(d.bare, d.n)
-    n, loads, li, geo = d.n, d.loads, d.li, d.geo
-    lv = d.fm.level
+    loads, geo = d.loads, d.geo
     W = d.per_point([ld.weight for ld in loads])
     M = d.per_point([ld.mass for ld in loads])
     fl = d.per_point([ld.footprint_length for ld in loads])
@@ -295,69 +298,8 @@ def load_inputs(c: Chain) -> LoadInputs:
     # the load's own underside (skid, base frame, dunnage) in series: 1/k_load, 0 = rigid
     f_load = d.per_point([0.0 if ld.contact_stiffness is None else 1.0 / ld.contact_stiffness
                           for ld in loads])
-    t_mat = np.zeros(n)
-    f_mat = np.zeros(n)
-    F_c = np.full(n, np.inf)
-    s_c = np.zeros(n)
-    crushable = np.zeros(n, dtype=bool)
-    # the contact: the whole footprint for a flat landing; for a load landing tilted
-    # on one edge, the strip along its shorter edge (the smaller contact of the four
-    # edges of droprig.solver.footprint.tilted_edges), centred on the drop point,
-    # carrying the whole force (common practice, no source)
-    cl, cw = fl, fw
-    if d.landing == "tilted":
-        cl = np.minimum(fl, fw)
-        cw = np.minimum(footprint_mod.EDGE_CONTACT_WIDTH, np.maximum(fl, fw))
-    elif d.landing != "flat":
-        raise ValueError(f"landing: {d.landing!r} is not allowed; allowed: {LANDINGS}")
-    any_mat = bool(np.any(geo.protection >= 0))
-    prot = d.project.protection_areas
-    for i, pa in enumerate(prot):
-        if not any_mat or pa.level_id != lv.id:
-            continue
-        sel = geo.protection == i
-        if not sel.any():
-            continue
-        t_mat[sel] = pa.thickness
-        # pads by area: the part of the footprint on the layer — this one and every
-        # layer of the same kind and thickness it abuts, which the footprint presses
-        # at the same moment — the less of the two footprint orientations
-        # (conservative); a layer of another thickness is not credited
-        together = [j for j, o in enumerate(prot)
-                    if o.level_id == lv.id and o.kind == pa.kind
-                    and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
-        # (a tilted landing presses the layers under its edge strip only)
-        xs, ys, fls, fws = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
-        A_fp = fl[sel] * fw[sel]
-        per_orient = []
-        stroke = np.full(xs.shape, np.inf)
-        for along_x in (True, False):
-            rect = pads.footprint_rect(xs, ys, fls, fws, along_x)
-            total = np.zeros(xs.shape)
-            for j in together:
-                o = prot[j]
-                r = o.area
-                A_ov = pads.rect_overlap_area(rect, (r.x0, r.y0, r.x1, r.y1))
-                if o.kind == "spring":
-                    if o.modulus is not None:
-                        total += pads.spring_mat_stiffness(o.modulus, o.thickness, A_ov)
-                    else:  # older files: the stiffness for the load's own footprint
-                        total += float(o.stiffness) * A_ov / A_fp  # type: ignore[arg-type]
-                else:
-                    total += pads.crushable_pad_force(pad_crush_stress(d.project, o), A_ov)
-                    stroke = np.where(A_ov > 0.0,
-                                      np.minimum(stroke, float(o.crush_stroke)),  # type: ignore[arg-type]
-                                      stroke)
-            per_orient.append(total)
-        credit = np.minimum(per_orient[0], per_orient[1])
-        if pa.kind == "spring":
-            f_mat[sel] = np.where(credit > 0.0, 1.0 / np.where(credit > 0.0, credit, 1.0),
-                                  0.0)
-        else:
-            crushable[sel] = True
-            F_c[sel] = credit
-            s_c[sel] = np.where(np.isfinite(stroke), stroke,
-                                float(pa.crush_stroke))  # type: ignore[arg-type]
+    cl, cw = _contact_sides(d, fl, fw)
+    t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw)
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
     # is that less its thickness
@@ -367,6 +309,107 @@ def load_inputs(c: Chain) -> LoadInputs:
         trial = np.isfinite(d.mat_k) & (d.mat_k > 0.0)
         f_mat = np.where(trial, 1.0 / np.where(trial, d.mat_k, 1.0), f_mat)
         protected = protected | trial
+    H, h = _drop_heights(d, t_mat)
+    foot_l, foot_w = _footprint_on_deck(d, cl, cw, t_mat)
+    lb = np.minimum(foot_l, foot_w)
+    return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
+                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
+                      foot_w=foot_w, lb=lb, protected=protected)
+
+
+def _contact_sides(d: Drop, fl: np.ndarray, fw: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The contact's sides (m): the whole footprint ``fl`` × ``fw`` for a flat landing;
+    for a load landing tilted on one edge, the strip along its shorter edge (the
+    smaller contact of the four edges of
+    :func:`droprig.solver.footprint.tilted_edges`), centred on the drop point,
+    carrying the whole force (common practice, no source)."""
+    if d.landing == "tilted":
+        return (np.minimum(fl, fw),
+                np.minimum(footprint_mod.EDGE_CONTACT_WIDTH, np.maximum(fl, fw)))
+    if d.landing != "flat":
+        raise ValueError(f"landing: {d.landing!r} is not allowed; allowed: {LANDINGS}")
+    return fl, fw
+
+
+def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
+                       cw: np.ndarray) -> tuple[np.ndarray, ...]:
+    """Per point, what the protection area under it gives (:class:`LoadInputs`): mat
+    thickness ``t_mat`` (m), spring mat compliance ``f_mat`` (m/N), crush force
+    ``F_c`` (N, ∞ none), stroke ``s_c`` (m) and ``crushable`` — pads by area
+    (:func:`_layer_credit`) for the contact ``cl`` × ``cw`` of the footprint
+    ``fl`` × ``fw`` (m)."""
+    n, geo, lv = d.n, d.geo, d.fm.level
+    t_mat = np.zeros(n)
+    f_mat = np.zeros(n)
+    F_c = np.full(n, np.inf)
+    s_c = np.zeros(n)
+    crushable = np.zeros(n, dtype=bool)
+    any_mat = bool(np.any(geo.protection >= 0))
+    prot = d.project.protection_areas
+    for i, pa in enumerate(prot):
+        if not any_mat or pa.level_id != lv.id:
+            continue
+        sel = geo.protection == i
+        if not sel.any():
+            continue
+        t_mat[sel] = pa.thickness
+        credit, stroke = _layer_credit(d, i, sel, fl, fw, cl, cw)
+        if pa.kind == "spring":
+            f_mat[sel] = np.where(credit > 0.0, 1.0 / np.where(credit > 0.0, credit, 1.0),
+                                  0.0)
+        else:
+            crushable[sel] = True
+            F_c[sel] = credit
+            s_c[sel] = np.where(np.isfinite(stroke), stroke,
+                                float(pa.crush_stroke))  # type: ignore[arg-type]
+    return t_mat, f_mat, F_c, s_c, crushable
+
+
+def _layer_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray, fw: np.ndarray,
+                  cl: np.ndarray, cw: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Pads by area at the points ``sel`` on protection area ``i``: the part of the
+    footprint on the layer — this one and every layer of the same kind and thickness
+    it abuts, which the footprint presses at the same moment — the less of the two
+    footprint orientations (conservative); a layer of another thickness is not
+    credited. Returns the credit (spring stiffness N/m, or crush force N) and the
+    least stroke of the crushable layers pressed (m, inf none). A tilted landing
+    presses the layers under its edge strip only (``cl`` × ``cw``)."""
+    prot, lv, geo = d.project.protection_areas, d.fm.level, d.geo
+    pa = prot[i]
+    together = [j for j, o in enumerate(prot)
+                if o.level_id == lv.id and o.kind == pa.kind
+                and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+    xs, ys, fls, fws = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
+    A_fp = fl[sel] * fw[sel]
+    per_orient = []
+    stroke = np.full(xs.shape, np.inf)
+    for along_x in (True, False):
+        rect = pads.footprint_rect(xs, ys, fls, fws, along_x)
+        total = np.zeros(xs.shape)
+        for j in together:
+            o = prot[j]
+            r = o.area
+            A_ov = pads.rect_overlap_area(rect, (r.x0, r.y0, r.x1, r.y1))
+            if o.kind == "spring":
+                if o.modulus is not None:
+                    total += pads.spring_mat_stiffness(o.modulus, o.thickness, A_ov)
+                else:  # older files: the stiffness for the load's own footprint
+                    total += float(o.stiffness) * A_ov / A_fp  # type: ignore[arg-type]
+            else:
+                total += pads.crushable_pad_force(pad_crush_stress(d.project, o), A_ov)
+                stroke = np.where(A_ov > 0.0,
+                                  np.minimum(stroke, float(o.crush_stroke)),  # type: ignore[arg-type]
+                                  stroke)
+        per_orient.append(total)
+    return np.minimum(per_orient[0], per_orient[1]), stroke
+
+
+def _drop_heights(d: Drop, t_mat: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The drop height ``H`` on the datum (the trial's ``Drop.H``, else each load's
+    :func:`planned_height`, m) and the free fall ``h`` = H − t_mat onto the struck
+    surface (m; a trial height under a pad's top rests on the pad; a planned one
+    there is refused, :func:`_refuse_below_pad`)."""
+    n, loads, li, lv = d.n, d.loads, d.li, d.fm.level
     if d.H is not None:
         H = np.asarray(d.H, float).copy()
     else:
@@ -379,19 +422,22 @@ def load_inputs(c: Chain) -> LoadInputs:
         h = np.maximum(h, 0.0)  # a trial height under a pad's top: resting on the pad
     elif n and float(np.min(h)) < 0.0:
         _refuse_below_pad(loads, li, lv, t_mat, H)
+    return H, h
+
+
+def _footprint_on_deck(d: Drop, cl: np.ndarray, cw: np.ndarray,
+                       t_mat: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The contact ``cl`` × ``cw`` spread 1:1 through a mat of thickness ``t_mat``,
+    then the part that bears on the deck: cut at the deck's edges and over openings
+    (:func:`droprig.solver.footprint.footprint_on_deck`), each side at least
+    :data:`MIN_CONTACT_SIDE` (m)."""
+    lv, geo = d.fm.level, d.geo
     spread = 2.0 * t_mat
-    # the part of the contact that bears on the deck: cut at the deck's edges and
-    # over openings (droprig.solver.footprint.footprint_on_deck)
     ext = lv.grid.extent
     foot_l, foot_w, _share = footprint_mod.footprint_on_deck(
         geo.x, geo.y, cl + spread, cw + spread, (ext.x0, ext.y0, ext.x1, ext.y1),
         tuple((o.x0, o.y0, o.x1, o.y1) for o in lv.deck.openings))
-    foot_l = np.maximum(foot_l, MIN_CONTACT_SIDE)
-    foot_w = np.maximum(foot_w, MIN_CONTACT_SIDE)
-    lb = np.minimum(foot_l, foot_w)
-    return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
-                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
-                      foot_w=foot_w, lb=lb, protected=protected)
+    return np.maximum(foot_l, MIN_CONTACT_SIDE), np.maximum(foot_w, MIN_CONTACT_SIDE)
 
 
 _SAME_THICKNESS = 1e-3
@@ -1158,21 +1204,65 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
     (the energy bounds at the fall plus the hoist's head, :func:`energy_fall`);
     ``th_points`` (bool per point): run the points' own time history at exactly these
     points (the inverse answers re-use the forward step's choice) instead of choosing
-    them."""
-    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
+    them. The bounds (:func:`_amplified_bounds`) as factors on the chain's force
+    (:func:`_bound_factors`), lowered to the points' own time history where it runs
+    (:func:`_with_histories`)."""
+    d = c.drop
     if not d.fm.settings.dynamic_amplification:
-        one = np.ones(d.n)
-        names = ("flexure", "shear", "web_yielding", "web_crippling", "deck_flexure",
-                 "deck_punching")
-        return DynamicAmplification(mass_ratio=np.full(d.n, np.nan),
-                                    compliance_ratio=np.full(d.n, np.nan), A_force=one,
-                                    A_moment=one, A_shear=one, A_deflection=one,
-                                    F_bound=np.full(d.n, np.inf),
-                                    factor=dict.fromkeys(names, one),
-                                    set_by=dict.fromkeys(("local", "moment", "shear",
-                                                          "deflection"),
-                                                         np.zeros(d.n, int)))
+        return _no_amplification(d.n)
     h = energy_fall(c, h)
+    b = _amplified_bounds(c, h, imp)
+    factor = _bound_factors(imp, b.forces)
+    th, hist = _point_histories(c, h, imp.F, factor, th_points)
+    set_by = dict(b.forces.set_by)
+    A_D_bound = factor["deflection"]
+    if hist is not None:
+        factor, set_by = _with_histories(d.n, th, hist, factor, set_by)
+    A_D = factor.pop("deflection")
+    return DynamicAmplification(mass_ratio=b.a.mass_ratio,
+                                compliance_ratio=b.a.compliance_ratio,
+                                A_force=factor["web_yielding"], A_moment=factor["flexure"],
+                                A_shear=factor["shear"], A_deflection=A_D,
+                                F_bound=np.minimum(b.rigid, np.where(b.holds, b.F_cap,
+                                                                     np.inf)),
+                                factor=factor, set_by=set_by, th=th, history=hist,
+                                A_deflection_bound=A_D_bound, F_energy=b.F_energy)
+
+
+def _no_amplification(n: int) -> DynamicAmplification:
+    """The setting off: every factor 1, no bound (n points)."""
+    one = np.ones(n)
+    names = ("flexure", "shear", "web_yielding", "web_crippling", "deck_flexure",
+             "deck_punching")
+    return DynamicAmplification(mass_ratio=np.full(n, np.nan),
+                                compliance_ratio=np.full(n, np.nan), A_force=one,
+                                A_moment=one, A_shear=one, A_deflection=one,
+                                F_bound=np.full(n, np.inf),
+                                factor=dict.fromkeys(names, one),
+                                set_by=dict.fromkeys(("local", "moment", "shear",
+                                                      "deflection"),
+                                                     np.zeros(n, int)))
+
+
+@dataclass(frozen=True, eq=False)
+class _Bounds:
+    """The amplification's inputs at the points: the table's answer ``a``
+    (:func:`droprig.solver.amplification.amplification`), the rigid-base bound
+    ``rigid`` (N), the crushing cap ``F_cap`` (N) and whether its stroke ``holds``,
+    the member energy force ``F_energy`` (N) and the amplified forces ``forces``
+    (:func:`droprig.solver.amplification.amplified_forces`)."""
+
+    a: amp_mod.Amplification
+    rigid: np.ndarray
+    F_cap: np.ndarray
+    holds: np.ndarray
+    F_energy: np.ndarray
+    forces: amp_mod.AmplifiedForces
+
+
+def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
+    """The table, the bounds and the amplified forces of the energy heads ``h`` (m)."""
+    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
     crushable = inp.crushable
     # the elastic contact: through a crushable layer (rigid until it crushes) the
     # load's underside alone, else the deck, mats and the load's underside
@@ -1210,6 +1300,14 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
     forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds,
                                       bottomed=imp.bottomed | imp.deck_through,
                                       F_energy=F_energy)
+    return _Bounds(a=a, rigid=rigid, F_cap=F_cap, holds=holds, F_energy=F_energy,
+                   forces=forces)
+
+
+def _bound_factors(imp: Impact, forces: amp_mod.AmplifiedForces) -> dict[str, np.ndarray]:
+    """The amplified forces as factors (≥ 1) on the chain's force F of each check
+    family and ``deflection``; the deck's checks read the deck's force F_deck (F where
+    one force): the larger of it and the bound on the contact force."""
     F = imp.F
     with np.errstate(divide="ignore", invalid="ignore"):
         def ratio(Fx: np.ndarray) -> np.ndarray:
@@ -1217,40 +1315,35 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
             return np.where(np.isfinite(r_), np.maximum(r_, 1.0), 1.0)
     local, A_M, A_V, A_D = (ratio(forces.local), ratio(forces.moment),
                             ratio(forces.shear), ratio(forces.deflection))
-    # the deck's checks read the deck's force F_deck (F where one force): the larger
-    # of it and the bound on the contact force
     F_deck = F * imp.deck_ratio
     lb = forces.local_bound if forces.local_bound is not None else forces.local
     with np.errstate(divide="ignore", invalid="ignore"):
         A_deck = np.where(F_deck > 0.0, np.maximum(F_deck, lb) / np.where(F_deck > 0.0,
                                                                            F_deck, 1.0), 1.0)
     A_deck = np.where(np.isfinite(A_deck), np.maximum(A_deck, 1.0), 1.0)
-    factor = {"flexure": A_M, "shear": A_V, "web_yielding": local,
-              "web_crippling": local, "deck_flexure": A_deck, "deck_punching": A_deck,
-              "deflection": A_D}
-    th, hist = _point_histories(c, h, F, factor, th_points)
-    set_by = dict(forces.set_by)
-    A_D_bound = A_D
-    if hist is not None:
-        idx = np.flatnonzero(th)
-        got = _th_factors(hist)
-        factor = {k: v.copy() for k, v in factor.items()}
-        lower = {}
-        for k in factor:
-            lower[k] = np.zeros(d.n, dtype=bool)
-            lower[k][idx] = got[k] < factor[k][idx]
-            factor[k][idx] = np.minimum(factor[k][idx], got[k])
-        ti = amp_mod.SET_BY.index("point time history")
-        keyed = {"local": "web_yielding", "moment": "flexure", "shear": "shear",
-                 "deflection": "deflection"}
-        set_by = {k: np.where(lower[keyed[k]], ti, v) for k, v in set_by.items()}
-    A_D = factor.pop("deflection")
-    return DynamicAmplification(mass_ratio=a.mass_ratio, compliance_ratio=a.compliance_ratio,
-                                A_force=factor["web_yielding"], A_moment=factor["flexure"],
-                                A_shear=factor["shear"], A_deflection=A_D,
-                                F_bound=np.minimum(rigid, np.where(holds, F_cap, np.inf)),
-                                factor=factor, set_by=set_by, th=th, history=hist,
-                                A_deflection_bound=A_D_bound, F_energy=F_energy)
+    return {"flexure": A_M, "shear": A_V, "web_yielding": local,
+            "web_crippling": local, "deck_flexure": A_deck, "deck_punching": A_deck,
+            "deflection": A_D}
+
+
+def _with_histories(n: int, th: np.ndarray, hist: pointhistory.PointHistory,
+                    factor: dict[str, np.ndarray], set_by: dict[str, np.ndarray]
+                    ) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray]]:
+    """The factors at the points ``th`` lowered to their own time history's where
+    that is less (:func:`_th_factors`), and what set them marked so."""
+    idx = np.flatnonzero(th)
+    got = _th_factors(hist)
+    factor = {k: v.copy() for k, v in factor.items()}
+    lower = {}
+    for k in factor:
+        lower[k] = np.zeros(n, dtype=bool)
+        lower[k][idx] = got[k] < factor[k][idx]
+        factor[k][idx] = np.minimum(factor[k][idx], got[k])
+    ti = amp_mod.SET_BY.index("point time history")
+    keyed = {"local": "web_yielding", "moment": "flexure", "shear": "shear",
+             "deflection": "deflection"}
+    set_by = {k: np.where(lower[keyed[k]], ti, v) for k, v in set_by.items()}
+    return factor, set_by
 
 
 def struck_member_table(c: Chain) -> dict[str, np.ndarray]:
