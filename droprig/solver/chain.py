@@ -1971,30 +1971,73 @@ def beyond_yield(c: Chain) -> BeyondYield:
     EN 1993-1-1 Class 1): R_p(δm − δy/2) = ηW h + W δm with δy = R_p·f (Biggs 1964,
     :func:`droprig.solver.plastic.plastic_response`); ductility of the framing
     (δm − R_p·f_series)/(R_p·f_s); support rotation
-    (:func:`droprig.solver.plastic.support_rotation`)."""
-    d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
-    ua, ck, sr = c[Demands].actions, c[Checks], c[SlabResistance]
-    s, n = d.fm.settings, d.n
-    W, F_c, s_c = inp.W, inp.F_c, inp.s_c
+    (:func:`droprig.solver.plastic.support_rotation`). Steps: the energy the
+    structure takes (:func:`_structure_head`), the response at the points that yield
+    (:func:`_plastic_points`) and the verdict (:func:`_yield_verdict`)."""
+    d, imp = c.drop, c[Impact]
+    ck, sr = c[Checks], c[SlabResistance]
+    n = d.n
     # the framing's share of the energy: the two-mass model's where it applies
-    eta = sm.eta if imp.eta_frame is None else imp.eta_frame
+    eta = c[StruckMass].eta if imp.eta_frame is None else imp.eta_frame
+    h_struct = _structure_head(c, eta)
+    over = ck.U > 1.0
+    pl = over & ~ck.brittle_fail
+    sub = slice(None) if d.detail or bool(pl.all()) else np.flatnonzero(pl)
+    d_m_s, coll_s, duct_s, theta_s = _plastic_points(c, sub, h_struct, eta)
+    d_m: np.ndarray
+    ductility: np.ndarray
+    theta: np.ndarray
+    if isinstance(sub, slice):
+        d_m, collapsed, ductility, theta = d_m_s, coll_s, duct_s, theta_s
+    else:
+        d_m, ductility, theta = (np.full(n, np.nan) for _ in range(3))
+        collapsed = np.zeros(n, dtype=bool)
+        d_m[sub], collapsed[sub], ductility[sub], theta[sub] = d_m_s, coll_s, duct_s, theta_s
+    response, gov_check, gov_member, no_hinge = _yield_verdict(c, pl, collapsed, ductility,
+                                                               theta)
+    ua = c[Demands].actions
+    return BeyondYield(R_p=sr.R, rp_member=ua.rp_member, h_struct=h_struct, d_m=d_m,
+                       collapsed=collapsed, ductility=ductility, theta=theta,
+                       no_hinge=no_hinge, nh_fa=ua.nh_fa, response=response,
+                       gov_check=gov_check, gov_member=gov_member,
+                       plastic_deflection=np.where(pl, d_m, np.nan),
+                       ductility_out=np.where(pl, ductility, np.nan),
+                       rotation_out=np.where(pl, theta, np.nan))
+
+
+def _structure_head(c: Chain, eta: np.ndarray) -> np.ndarray:
+    """The energy head the structure takes beyond yield (m): the fall with the
+    hoist's head (:func:`energy_fall`), less the crushed layer's work
+    (F_c − W)·s_c/(ηW) where the layer crushes below R_p and bottoms, × A_δ² of the
+    dynamic amplification (an elastic response would deflect A_δ times the energy
+    method's, δ ∝ √E; an approximation beyond yield, stated in the README; × 1 when
+    the setting is off)."""
+    inp, imp = c[LoadInputs], c[Impact]
+    W, F_c, s_c = inp.W, inp.F_c, inp.s_c
     h = energy_fall(c, inp.h)  # with the hoist's lowering speed head
-    R_p, f_s, f = sr.R, comp.f_s, comp.f
+    R_p = c[SlabResistance].R
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
     h_struct = h.copy()
     crush_ok = inp.crushable & (F_c < R_p) & imp.bottomed
     with np.errstate(divide="ignore", invalid="ignore"):
         h_struct = np.where(crush_ok, np.maximum(h - (F_c - W) * s_c / (eta * W), 0.0),
                             h_struct)
-    # dynamic amplification: the energy the structure takes is scaled by A_δ² so that
-    # an elastic response would deflect A_δ times the energy method's (δ ∝ √E; an
-    # approximation beyond yield, stated in the README); × 1 when the setting is off
-    h_struct = h_struct * c[DynamicAmplification].A_deflection ** 2
-    over = ck.U > 1.0
-    pl = over & ~ck.brittle_fail
-    sub = slice(None) if d.detail or bool(pl.all()) else np.flatnonzero(pl)
+    return h_struct * c[DynamicAmplification].A_deflection ** 2
+
+
+def _plastic_points(c: Chain, sub: slice | np.ndarray, h_struct: np.ndarray,
+                    eta: np.ndarray) -> tuple[np.ndarray, ...]:
+    """At the points ``sub``: the peak deflection δm (m), collapse (bool), the
+    framing's ductility and the support rotation (rad,
+    :func:`droprig.solver.plastic.support_rotation`); where the slab's mechanism
+    forms first the framing stays elastic (ductility R/R_frame) and the rotation is
+    the slab's about the nearest support line
+    (:func:`droprig.solver.slab.slab_support_rotation`)."""
+    inp, comp = c[LoadInputs], c[Compliance]
+    ua, sr = c[Demands].actions, c[SlabResistance]
+    R_p, f_s, f = sr.R, comp.f_s, comp.f
     R_ps, f_s_s = R_p[sub], f_s[sub]
-    d_m_s, _mu_tot, coll_s = plastic.plastic_response(W[sub], h_struct[sub], eta[sub],
+    d_m_s, _mu_tot, coll_s = plastic.plastic_response(inp.W[sub], h_struct[sub], eta[sub],
                                                       R_ps, R_ps * f[sub])
     with np.errstate(invalid="ignore"):
         d_struct = np.maximum(d_m_s - R_ps * comp.f_series[sub], 0.0)
@@ -2019,24 +2062,26 @@ def beyond_yield(c: Chain) -> BeyondYield:
             duct_s = np.where(sf_s, R_ps / ua.R_p[sub], duct_s)
             theta_sl = slab.slab_support_rotation(d_slab, sr.ell[sub])
         theta_s = np.where(sf_s, theta_sl, theta_s)
-    d_m: np.ndarray
-    ductility: np.ndarray
-    theta: np.ndarray
-    if isinstance(sub, slice):
-        d_m, collapsed, ductility, theta = d_m_s, coll_s, duct_s, theta_s
-    else:
-        d_m, ductility, theta = (np.full(n, np.nan) for _ in range(3))
-        collapsed = np.zeros(n, dtype=bool)
-        d_m[sub], collapsed[sub], ductility[sub], theta[sub] = d_m_s, coll_s, duct_s, theta_s
+    return d_m_s, coll_s, duct_s, theta_s
+
+
+def _yield_verdict(c: Chain, pl: np.ndarray, collapsed: np.ndarray, ductility: np.ndarray,
+                   theta: np.ndarray) -> tuple[np.ndarray, ...]:
+    """Response, governing check and member of the points ``pl`` beyond yield:
+    collapse, ductility, rotation, or plastic (flexure; the deck's where the slab
+    yields); flexure beyond the resistance of a member that cannot form a plastic
+    hinge (AISC 360-16 App. 1 / EN 1993-1-1 Class 1) has no plastic reserve and
+    exceeds (as in droprig check, :mod:`droprig.solver.member`). Returns response,
+    gov_check, gov_member and no_hinge."""
+    s = c.drop.fm.settings
+    ck, sr, imp, ua = c[Checks], c[SlabResistance], c[Impact], c[Demands].actions
+    R_p = sr.R
     col = pl & collapsed
     duct = pl & ~collapsed & (ductility > s.ductility_limit)
     theta_lim = np.where(sr.slab_first, slab_rotation_limit(s.rotation_limit),
                          s.rotation_limit)
     rot = pl & ~collapsed & ~duct & (theta > theta_lim)
     ok_pl = pl & ~collapsed & ~duct & ~rot
-    # flexure beyond the resistance of a member that cannot form a plastic hinge
-    # (AISC 360-16 App. 1 / EN 1993-1-1 Class 1): no plastic reserve, exceeds (as in
-    # droprig check, droprig.solver.member)
     no_hinge = ok_pl & (np.where(sr.slab_first, R_p, imp.F) > ua.nh_fa)
     ok_pl = ok_pl & ~no_hinge
     response = ck.response.copy()
@@ -2053,13 +2098,7 @@ def beyond_yield(c: Chain) -> BeyondYield:
     gov_member = np.where(slab_gov, DECK, gov_member)
     gov_check = np.where(no_hinge, CHECK["flexure"], gov_check)
     gov_member = np.where(no_hinge, ua.nh_member, gov_member)
-    return BeyondYield(R_p=R_p, rp_member=ua.rp_member, h_struct=h_struct, d_m=d_m,
-                       collapsed=collapsed, ductility=ductility, theta=theta,
-                       no_hinge=no_hinge, nh_fa=ua.nh_fa, response=response,
-                       gov_check=gov_check, gov_member=gov_member,
-                       plastic_deflection=np.where(pl, d_m, np.nan),
-                       ductility_out=np.where(pl, ductility, np.nan),
-                       rotation_out=np.where(pl, theta, np.nan))
+    return response, gov_check, gov_member, no_hinge
 
 
 # --------------------------------------------------------------------------- 8. inverse
@@ -2133,19 +2172,39 @@ def _mass_through_crushing(F_allow: np.ndarray, h: np.ndarray, f: np.ndarray,
 def inverse_answers(c: Chain) -> InverseAnswers:
     """Gere Eq. 9-94 solved for h, M, k and a crush stroke
     (:mod:`droprig.solver.limits`); beyond yield the energy balance at the ductility
-    and rotation limits (:func:`droprig.solver.plastic.allowable_height_plastic`)."""
-    d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
-    ck, by, sr = c[Checks], c[BeyondYield], c[SlabResistance]
-    ua = c[Demands].actions
-    s = d.fm.settings
-    W, F_c, s_c, crushable = inp.W, inp.F_c, inp.s_c, inp.crushable
+    and rotation limits (:func:`droprig.solver.plastic.allowable_height_plastic`).
+    Steps: :func:`_elastic_height`, :func:`_plastic_height`,
+    :func:`_allowable_mass_of`, :func:`_mat_answers`, :func:`_height_check`."""
+    d, sm, imp, ck = c.drop, c[StruckMass], c[Impact], c[Checks]
     # the framing's share of the energy (two-mass model where it applies; the
     # allowed force F_allow is stated as a force on the framing, the contact checks
     # scaled to it): the height at which the one-mass balance with this share gives
     # F_allow (struck_mass.equivalent_eta)
     eta = sm.eta if imp.eta_frame is None else imp.eta_frame
-    F_allow, R_p, f_s, f = ck.F_allow, by.R_p, comp.f_s, comp.f
+    F_allow = ck.F_allow
     Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
+    # the two-force points' impact at any height (the searches' fast kernel)
+    kern = (TwoForceKernel(c, np.flatnonzero(imp.two_mass))
+            if imp.two_mass is not None and imp.two_mass.any() and not d.trial else None)
+    h_el = _elastic_height(c, eta, Fa_pos, kern)
+    h_pl, hp_check, Ub_Rp = _plastic_height(c, eta, h_el, kern)
+    m_allow = _allowable_mass_of(c, Fa_pos, kern)
+    k_req, s_req = _mat_answers(c, Fa_pos)
+    h_check, h_member = _height_check(c)
+    return InverseAnswers(h_el=h_el, h_pl=h_pl, m_allow=m_allow, k_req=k_req, s_req=s_req,
+                          Ub_Rp=Ub_Rp, h_check=h_check, h_member=h_member,
+                          hp_check=hp_check)
+
+
+def _elastic_height(c: Chain, eta: np.ndarray, Fa_pos: np.ndarray,
+                    kern: TwoForceKernel | None) -> np.ndarray:
+    """The elastic allowable free fall (m): Gere Eq. 9-94 solved for h at the allowed
+    force ``Fa_pos`` (N, NaN none) with the framing's energy share ``eta``, with the
+    crushing work of a layer or of the deck's concrete, less the hoist's head; then
+    confirmed by the forward run where amplified, or searched where two forces."""
+    d, inp, imp = c.drop, c[LoadInputs], c[Impact]
+    W, F_c, s_c, crushable = inp.W, inp.F_c, inp.s_c, inp.crushable
+    F_allow = c[Checks].F_allow
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
     h_el = with_crush_energy(h_el, crushable & (F_c <= F_allow), F_c, s_c, W, eta)
     # bare deck whose concrete crushes below the allowed force: the force stays at
@@ -2159,13 +2218,26 @@ def inverse_answers(c: Chain) -> InverseAnswers:
                              imp.F_crush, np.full(d.n, cover), W, eta)
     # the energy heights above as free falls: less the hoist's lowering speed head
     h_el = fall_from_energy(c, h_el)
-    # the two-force points' impact at any height (the searches' fast kernel)
-    kern = (TwoForceKernel(c, np.flatnonzero(imp.two_mass))
-            if imp.two_mass is not None and imp.two_mass.any() and not d.trial else None)
-    if s.dynamic_amplification and not d.trial:
+    if d.fm.settings.dynamic_amplification and not d.trial:
         h_el = confirm_amplified_height(c, h_el)
     elif kern is not None:
         h_el = two_force_elastic_height(c, h_el, kern)
+    return h_el
+
+
+def _plastic_height(c: Chain, eta: np.ndarray, h_el: np.ndarray,
+                    kern: TwoForceKernel | None) -> tuple[np.ndarray, ...]:
+    """The allowable free fall beyond yield (m): the energy balance at the ductility
+    and rotation limits (the slab's rotation where its mechanism forms first), with
+    a crushing layer's work, the brittle checks at R_p, and A_δ² of the amplification;
+    searched by the forward run where two forces (:func:`_two_force_plastic`); at
+    least ``h_el``. Returns h_pl, the check that sets it (−1 where ``h_el``) and the
+    largest brittle utilisation at R_p."""
+    inp, comp, ck = c[LoadInputs], c[Compliance], c[Checks]
+    by, sr, ua = c[BeyondYield], c[SlabResistance], c[Demands].actions
+    s = c.drop.fm.settings
+    W, F_c, s_c, crushable = inp.W, inp.F_c, inp.s_c, inp.crushable
+    F_allow, R_p, f_s, f = ck.F_allow, by.R_p, comp.f_s, comp.f
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
     for u in ck.Ub_at_Rp[1:]:
@@ -2191,31 +2263,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
     if kern is not None:
-        # two forces: the framing's energy share changes with the height; the energy
-        # the closed form allows, η·h (η of the planned height), is matched by the
-        # forward impact's η_frame(h)·h_e(h), non-decreasing in h (two_forces)
-        E_lim = eta * energy_fall(c, h_pl)
-        E_k = E_lim[kern.idx]
-
-        def within(kn: TwoForceKernel, rows: np.ndarray, hx: np.ndarray) -> np.ndarray:
-            e = kn.forces(hx, rows)[2]
-            with np.errstate(divide="ignore", invalid="ignore"):
-                return e * energy_fall(c, hx) / E_k[rows] - (1.0 + 1e-12)
-
-        # where the energy at the elastic allowable height already passes the limit,
-        # the plastic boundary lies below it and the answer is the elastic height
-        # (h_pl = max(h_pl, h_el) below): no search there
-        ask = imp.two_mass & np.isfinite(h_pl) & np.isfinite(h_el) & (h_el > 0.0)
-        if ask.any():
-            ia = np.flatnonzero(ask)
-            below = within(kern, np.searchsorted(kern.idx, ia), h_el[ia]) > 0.0
-            h_pl[ia[below]] = h_el[ia[below]]
-            skip = np.zeros(d.n, dtype=bool)
-            skip[ia[below]] = True
-            h_pl = np.where(skip, h_pl, two_force_height(c, np.where(skip, np.nan, h_pl),
-                                                         within, kern))
-        else:
-            h_pl = two_force_height(c, h_pl, within, kern)
+        h_pl = _two_force_plastic(c, eta, h_pl, h_el, kern)
     # what sets the plastic height: the ductility or the rotation limit, or the
     # elastic height where that is larger
     with np.errstate(invalid="ignore"):
@@ -2223,7 +2271,50 @@ def inverse_answers(c: Chain) -> InverseAnswers:
                             CHECK["rotation"])
     hp_check = np.where(sr.slab_first, CHECK["rotation"], hp_check)
     hp_check = np.where(np.isnan(h_pl) | (h_el >= h_pl), -1, hp_check)
-    h_pl = np.fmax(h_pl, h_el)
+    return np.fmax(h_pl, h_el), hp_check, Ub_Rp
+
+
+def _two_force_plastic(c: Chain, eta: np.ndarray, h_pl: np.ndarray, h_el: np.ndarray,
+                       kern: TwoForceKernel) -> np.ndarray:
+    """Two forces: the framing's energy share changes with the height; the energy
+    the closed form allows, η·h (η of the planned height), is matched by the forward
+    impact's η_frame(h)·h_e(h), non-decreasing in h (two_forces):
+    :func:`two_force_height` (m)."""
+    imp = c[Impact]
+    E_lim = eta * energy_fall(c, h_pl)
+    E_k = E_lim[kern.idx]
+
+    def within(kn: TwoForceKernel, rows: np.ndarray, hx: np.ndarray) -> np.ndarray:
+        e = kn.forces(hx, rows)[2]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            return e * energy_fall(c, hx) / E_k[rows] - (1.0 + 1e-12)
+
+    # where the energy at the elastic allowable height already passes the limit,
+    # the plastic boundary lies below it and the answer is the elastic height
+    # (h_pl = max(h_pl, h_el) below): no search there
+    assert imp.two_mass is not None
+    ask = imp.two_mass & np.isfinite(h_pl) & np.isfinite(h_el) & (h_el > 0.0)
+    if ask.any():
+        ia = np.flatnonzero(ask)
+        below = within(kern, np.searchsorted(kern.idx, ia), h_el[ia]) > 0.0
+        h_pl[ia[below]] = h_el[ia[below]]
+        skip = np.zeros(c.drop.n, dtype=bool)
+        skip[ia[below]] = True
+        return np.where(skip, h_pl, two_force_height(c, np.where(skip, np.nan, h_pl),
+                                                     within, kern))
+    return two_force_height(c, h_pl, within, kern)
+
+
+def _allowable_mass_of(c: Chain, Fa_pos: np.ndarray,
+                       kern: TwoForceKernel | None) -> np.ndarray:
+    """The allowable mass (kg) at the planned fall (with the hoist's head): Gere Eq.
+    9-94 solved for M (:func:`droprig.solver.limits.allowable_mass`), through the
+    deck's crushing where it caps the force, searched where two forces, and through
+    a crushable layer where one lies (η = 1 under a layer)."""
+    inp, comp, sm, imp = c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+    F_c, s_c, crushable, f = inp.F_c, inp.s_c, inp.crushable, comp.f
+    F_allow = c[Checks].F_allow
+    cover = crush_depth_available(c)
     h_e = energy_fall(c, inp.h)
     m_allow = limits.allowable_mass(Fa_pos, h_e, f, sm.m_e)
     capped = ~crushable & (imp.F_crush < F_allow) & np.isfinite(m_allow)
@@ -2238,24 +2329,32 @@ def inverse_answers(c: Chain) -> InverseAnswers:
         m_allow[crushable] = limits.allowable_mass_crushable(
             Fa_pos[crushable], h_e[crushable], comp.f_struct[crushable], F_c[crushable],
             s_c[crushable])
-    # a mat laid on the finished surface over the point: the fall is the datum height
-    # H, and the framing's mass share is not taken (η = 1, as the forward model does
-    # under protection); inf where the structure alone suffices
+    return m_allow
+
+
+def _mat_answers(c: Chain, Fa_pos: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """A mat laid on the finished surface over the point: the fall is the datum height
+    H, and the framing's mass share is not taken (η = 1, as the forward model does
+    under protection): the required mat stiffness (N/m; inf where the structure alone
+    suffices) and crush stroke (m), Gere Eq. 9-94 (:mod:`droprig.solver.limits`)."""
+    inp, comp = c[LoadInputs], c[Compliance]
     H_e = energy_fall(c, inp.H)
-    k_req = limits.required_mat_stiffness(W, H_e, 1.0, Fa_pos, comp.f_struct)
+    k_req = limits.required_mat_stiffness(inp.W, H_e, 1.0, Fa_pos, comp.f_struct)
     k_req = np.where(np.isnan(Fa_pos), np.nan, k_req)
-    s_req = limits.required_crush_stroke(W, H_e, 1.0, Fa_pos, comp.f_struct)
-    s_req = np.where(np.isfinite(s_req), s_req, np.nan)
-    # the check that sets the allowable height: the least allowed force
+    s_req = limits.required_crush_stroke(inp.W, H_e, 1.0, Fa_pos, comp.f_struct)
+    return k_req, np.where(np.isfinite(s_req), s_req, np.nan)
+
+
+def _height_check(c: Chain) -> tuple[np.ndarray, np.ndarray]:
+    """The check (index into CHECKS) and member that set the allowable height: the
+    least allowed force of the check families."""
     chk = c[Demands].checks
     names = list(chk)
     Fa_stack = np.stack([chk[k].F_allow for k in names])
     ai = np.argmin(np.where(np.isnan(Fa_stack), np.inf, Fa_stack), axis=0)
     h_check = np.array([CHECK[k] for k in names])[ai]
-    h_member = np.stack([chk[k].member for k in names])[ai, np.arange(d.n)]
-    return InverseAnswers(h_el=h_el, h_pl=h_pl, m_allow=m_allow, k_req=k_req, s_req=s_req,
-                          Ub_Rp=Ub_Rp, h_check=h_check, h_member=h_member,
-                          hp_check=hp_check)
+    h_member = np.stack([chk[k].member for k in names])[ai, np.arange(c.drop.n)]
+    return h_check, h_member
 
 
 _CONFIRM_ROUNDS = 12
@@ -2421,7 +2520,6 @@ def two_force_height(c: Chain, h0: np.ndarray,
         kern = TwoForceKernel(c, idx)
     kidx = np.searchsorted(kern.idx, idx)
     assert np.array_equal(kern.idx[kidx], idx), "the kernel does not hold every point"
-    m = idx.size
 
     def run(w: np.ndarray, trial: np.ndarray) -> np.ndarray:
         # the forward run's excess at the points w (of idx) at the heights trial (one
@@ -2431,12 +2529,48 @@ def two_force_height(c: Chain, h0: np.ndarray,
         r = np.asarray(excess_at(kern, rows, trial.ravel()), dtype=float)
         return np.where(np.isnan(r), np.inf, r).reshape(trial.shape)
 
-    start = np.clip(h0[idx], 1e-6 * min(top, 1.0), top)
+    br = _first_bracket(run, np.clip(h0[idx], 1e-6 * min(top, 1.0), top), top)
+    unbounded, none = _widen_bracket(run, br, top)
+    _close_bracket(run, br, ~unbounded & ~none)
+    h = h0.copy()
+    h[idx] = np.where(none, np.nan, br.lo)
+    return h
+
+
+_Excess = Callable[[np.ndarray, np.ndarray], np.ndarray]
+"""The forward run's excess at points ``w`` (of the search's) at trial heights (one
+per point, or a row of several per point); +inf for a failure that gave NaN."""
+
+
+class _Bracket:
+    """The search's bracket per point (mutable, updated in place by the rounds): the
+    highest passing height ``lo`` and the lowest failing one ``hi`` (m; 0 for none
+    yet) with their excesses ``r_lo``, ``r_hi`` (NaN none), and ``n_ok``: how many
+    heights of the first fan passed (``nf`` tried)."""
+
+    def __init__(self, lo: np.ndarray, hi: np.ndarray, r_lo: np.ndarray, r_hi: np.ndarray,
+                 n_ok: np.ndarray, nf: int) -> None:
+        self.lo, self.hi, self.r_lo, self.r_hi = lo, hi, r_lo, r_hi
+        self.n_ok, self.nf = n_ok, nf
+
+    def take(self, w: np.ndarray, trial: np.ndarray, r: np.ndarray) -> np.ndarray:
+        """One trial height per point ``w``: a pass raises ``lo``, a failure lowers
+        ``hi``; returns the passes."""
+        okw = r <= 0.0
+        self.lo[w[okw]], self.r_lo[w[okw]] = trial[okw], r[okw]
+        self.hi[w[~okw]], self.r_hi[w[~okw]] = trial[~okw], r[~okw]
+        return okw
+
+
+def _first_bracket(run: _Excess, start: np.ndarray, top: float) -> _Bracket:
+    """The first fan: the start ``start`` (m) and its excess r0, and the pair
+    H_TOL/3 either side of start/(1 + r0)². The excess is a ratio less one that
+    grows as h^p, p between ½ (a force, Gere §9.10) and 1 (an energy): start/(1 + r0)²
+    lies across the boundary from the start, and on it where p = ½; the pair then
+    closes the bracket. The passes come first (non-decreasing excess)."""
+    m = start.size
     everyone = np.arange(m)
     r0 = run(everyone, start)
-    # the excess is a ratio less one that grows as h^p, p between ½ (a force, Gere
-    # §9.10) and 1 (an energy): h0/(1 + r0)² lies across the boundary from h0, and
-    # on it where p = ½; the pair H_TOL/3 either side of it closes the bracket then
     with np.errstate(divide="ignore", invalid="ignore"):
         U0 = np.where(np.isfinite(r0) & (r0 > -1.0), 1.0 + r0, np.where(r0 > 0, 16.0, 1 / 16))
     h1 = np.clip(start / U0**2, start / 16.0, np.minimum(16.0 * start, top))
@@ -2451,43 +2585,50 @@ def two_force_height(c: Chain, h0: np.ndarray,
     nf = fan.shape[1]
     ar = np.arange(m)
     i_lo, i_hi = np.maximum(n_ok - 1, 0), np.minimum(n_ok, nf - 1)
-    lo = np.where(n_ok > 0, fan[ar, i_lo], 0.0)
-    hi = np.where(n_ok < nf, fan[ar, i_hi], 0.0)
-    r_lo = np.where(n_ok > 0, rf[ar, i_lo], np.nan)
-    r_hi = np.where(n_ok < nf, rf[ar, i_hi], np.nan)
-    # beyond the fan: up by ×4 from an all-passing fan, down by ÷4 from an all-failing
-    up = (n_ok == nf) & (lo < top)
+    return _Bracket(lo=np.where(n_ok > 0, fan[ar, i_lo], 0.0),
+                    hi=np.where(n_ok < nf, fan[ar, i_hi], 0.0),
+                    r_lo=np.where(n_ok > 0, rf[ar, i_lo], np.nan),
+                    r_hi=np.where(n_ok < nf, rf[ar, i_hi], np.nan), n_ok=n_ok, nf=nf)
+
+
+def _widen_bracket(run: _Excess, br: _Bracket, top: float) -> tuple[np.ndarray, np.ndarray]:
+    """Beyond the fan: up by ×4 from an all-passing fan (to ``top``), down by ÷4 from
+    an all-failing one (to ~10⁻²⁰ m, then a zero fall). Returns the points that pass
+    at ``top`` and those where even a zero fall fails."""
+    up = (br.n_ok == br.nf) & (br.lo < top)
     for _ in range(12):
         if not up.any():
             break
         w = np.flatnonzero(up)
-        trial = np.minimum(lo[w] * 4.0, top)
-        r = run(w, trial)
-        okw = r <= 0.0
-        lo[w[okw]], r_lo[w[okw]] = trial[okw], r[okw]
-        hi[w[~okw]], r_hi[w[~okw]] = trial[~okw], r[~okw]
+        trial = np.minimum(br.lo[w] * 4.0, top)
+        okw = br.take(w, trial, run(w, trial))
         up[w] = okw & (trial < top)
-    unbounded = hi == 0.0  # passes at top
-    down = n_ok == 0
+    unbounded = br.hi == 0.0  # passes at top
+    down = br.n_ok == 0
     for _ in range(32):
         if not down.any():
             break
         w = np.flatnonzero(down)
-        trial = hi[w] / 4.0
-        r = run(w, trial)
-        okw = r <= 0.0
-        lo[w[okw]], r_lo[w[okw]] = trial[okw], r[okw]
-        hi[w[~okw]], r_hi[w[~okw]] = trial[~okw], r[~okw]
+        trial = br.hi[w] / 4.0
+        okw = br.take(w, trial, run(w, trial))
         down[w] = ~okw
-    none = np.zeros(m, dtype=bool)
+    none = np.zeros(br.lo.size, dtype=bool)
     if down.any():  # failing down to ~10⁻²⁰ m: does a zero fall pass?
         w = np.flatnonzero(down)
         r = run(w, np.zeros(w.size))
         okw = r <= 0.0
-        lo[w[okw]], r_lo[w[okw]] = 0.0, r[okw]
+        br.lo[w[okw]], br.r_lo[w[okw]] = 0.0, r[okw]
         none[w[~okw]] = True
-    work = ~unbounded & ~none
-    bisect = np.zeros(m, dtype=bool)
+    return unbounded, none
+
+
+def _close_bracket(run: _Excess, br: _Bracket, work: np.ndarray) -> None:
+    """Rounds of two heights per point of ``work``: the bracket's false position in
+    √h with a step of :data:`H_TOL`/3 of it to either side; a round that does not
+    halve the bracket (in √h) is followed by a bisection; until the bracket is
+    within :data:`H_TOL` (at most :data:`BISECTIONS` rounds)."""
+    lo, hi, r_lo, r_hi = br.lo, br.hi, br.r_lo, br.r_hi
+    bisect = np.zeros(lo.size, dtype=bool)
     for _ in range(BISECTIONS):
         work = work & (hi - lo > H_TOL * hi)
         if not work.any():
@@ -2520,11 +2661,6 @@ def two_force_height(c: Chain, h0: np.ndarray,
         r_hi[w[upper]] = r[upper, jt[upper]]
         # a round that did not halve the bracket is followed by a bisection
         bisect[w] = (np.sqrt(hi[w]) - np.sqrt(lo[w])) > 0.5 * width0
-    h = h0.copy()
-    h[idx] = np.where(none, np.nan, lo)
-    return h
-
-
 
 
 MASS_SEARCH_MAX = 1.0e6
