@@ -796,21 +796,19 @@ class EnvelopeLookup:
         if up.any():
             over[up] = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh[up], top) - top), 1.0))
         LFC = _log_envelope_pair()
-        # the four corners in (μ, κ) at once, (4, n): the same sum in the same order as
-        # one corner after another, (((c0 + c1) + c2) + c3); np.take along axis 0 gives
-        # the rows of LFC[b], gathered several times faster
+        acc = np.zeros((W.size, 2))
+        # (np.take: the same rows as LFC[b] and columns as [:, rows], gathered several
+        # times faster; one corner at a time keeps the temporaries in cache)
         if rows is None:
             base, wab = self.base, self.wab
         else:
             base, wab = np.take(self.base, rows, axis=1), np.take(self.wab, rows, axis=1)
-        b = base + k
-        w1 = wab * wk
-        w0 = wab - w1
-        t = (w0[:, :, None] * np.take(LFC, b, axis=0)
-             + w1[:, :, None] * np.take(LFC, b + 1, axis=0))  # (4, n, 2)
-        acc = t[0] + t[1]
-        acc += t[2]
-        acc += t[3]
+        for q in range(4):
+            b = base[q] + k
+            w1 = wab[q] * wk
+            w0 = wab[q] - w1
+            acc += (w0[:, None] * np.take(LFC, b, axis=0)
+                    + w1[:, None] * np.take(LFC, b + 1, axis=0))
         e = np.exp(acc)
         Ff = e[:, 0] * over * W
         Fc = e[:, 1] * over * self.c_scale[r] * W
