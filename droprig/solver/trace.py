@@ -402,12 +402,17 @@ def _amplification_steps(sheet: _Sheet) -> None:
 
 def _check_steps(sheet: _Sheet) -> None:
     """Checks, verdict, beyond yield and the inverse answers."""
-    add, mname, comp, sm = sheet.add, sheet.mname, sheet.comp, sheet.sm
-    imp, dem, ck, by = sheet.imp, sheet.dem, sheet.ck, sheet.by
-    inv, project = sheet.inv, sheet.project
-    W = sheet.load.weight
+    _utilisation_steps(sheet)
+    _elastic_height_steps(sheet)
+    _plastic_steps(sheet)
+    _mass_and_mat_steps(sheet)
+
+
+def _utilisation_steps(sheet: _Sheet) -> None:
+    """Each check family's U at the point, the largest, and the allowed force."""
+    add, mname, imp, dem, ck = sheet.add, sheet.mname, sheet.imp, sheet.dem, sheet.ck
     amp = sheet.chain[DynamicAmplification]
-    on = project.settings.dynamic_amplification
+    on = sheet.project.settings.dynamic_amplification
     # ---- checks
     qty = {"flexure": "moment", "shear": "force", "web_yielding": "force",
            "web_crippling": "force", "deck_flexure": "moment", "deck_punching": "force",
@@ -434,6 +439,13 @@ def _check_steps(sheet: _Sheet) -> None:
         "dimensionless", "largest demand/resistance ratio (common practice, no source)")
     add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
         {}, ck.F_allow[0], "force", "linear checks")
+
+
+def _elastic_height_steps(sheet: _Sheet) -> None:
+    """The elastic allowable free fall (closed form, or the two-force search), with
+    a crushing layer's or the deck concrete's work, and the height on the datum."""
+    add, sm, imp, ck, inv = sheet.add, sheet.sm, sheet.imp, sheet.ck, sheet.inv
+    W = sheet.load.weight
     two = _two(sheet)
     # the share of the energy the closed form takes: the framing's (two-mass model,
     # at the planned height) where two forces, as inverse_answers
@@ -477,6 +489,14 @@ def _check_steps(sheet: _Sheet) -> None:
         "H_allow = h_allow + t_mat",
         {"h_allow": (inv.h_el[0], "length"), "t_mat": (sheet.inp.t_mat[0], "length")},
         inv.h_el[0] + sheet.inp.t_mat[0], "length", "datum of droprig (finished surface)")
+
+
+def _plastic_steps(sheet: _Sheet) -> None:
+    """Resistances beyond yield, the plastic response and the allowable height beyond
+    yield."""
+    add, mname, comp, imp, ck, by = (sheet.add, sheet.mname, sheet.comp, sheet.imp,
+                                     sheet.ck, sheet.by)
+    inv, project = sheet.inv, sheet.project
     sr = sheet.chain[SlabResistance]
     R_frame = sheet.chain[Demands].actions.R_p[0]
     add("Plastic collapse resistance of the framing", "R_frame",
@@ -520,6 +540,13 @@ def _check_steps(sheet: _Sheet) -> None:
     add("Allowable drop height (beyond yield)", "h_allow,pl",
         "h = δ_y(R_p(μ − ½) − Wμ)/(ηW)", {"R_p": (by.R_p[0], "force")},
         inv.h_pl[0], "length", _SRC_PLASTIC)
+
+
+def _mass_and_mat_steps(sheet: _Sheet) -> None:
+    """The allowable mass at the planned height and the spring mat that keeps the
+    point elastic."""
+    add, inv = sheet.add, sheet.inv
+    two = _two(sheet)
     if two:
         add("Allowable mass at the planned height with two forces: the heaviest load of "
             "the same underside whose forward two-mass impact keeps every check within "
