@@ -88,8 +88,7 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                        cutoff: float = timehistory.DEFAULT_CUTOFF,
                        samples_per_period: int = DEFAULT_SAMPLES_PER_PERIOD,
                        duration: float = 1.25, record: bool = False,
-                       sections: int = DEFAULT_SECTIONS,
-                       group: int = 256,
+                       sections: int = DEFAULT_SECTIONS, group: int = 256,
                        weight: ArrayLike | None = None) -> TimeHistoryPeaks:
     """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
     condition ``cond``, one name or one per case; span L m, EI N·m², μ kg/m) at
