@@ -21,8 +21,8 @@ import numpy as np
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from droprig.solver import amplification, beam, impact, timehistory
-from tests.solver.test_end_shear_dynamic import sdof_reactions
+from droprig.solver import beam, timehistory
+from tests.solver.test_end_shear_dynamic import sdof_reactions, verdict_end_shear
 from tests.solver.timoshenko_reference import timoshenko_drop
 
 SECTIONS = {  # A m², I m⁴, web area m²
@@ -58,15 +58,7 @@ def main() -> None:
         cR, cF = sdof_reactions("simple", L, a)
         R_max = t.deflection / f_s
         V_sdof = max(abs(cR[i]) * R_max + abs(cF[i]) * t.force for i in (0, 1))
-        W = M * impact.G
-        m_e = float(beam.rayleigh_mass_factor("simple", L, a)) * mu * L
-        eta = M / (M + m_e * (f_s / (f_s + f_c)) ** 2)
-        _, F, _ = impact.impact_elastic(W, h, f_s + f_c, eta)
-        amp = amplification.amplification(M, m_e, f_c, f_s, cond="simple", xi=xi)
-        fo = amplification.amplified_forces(
-            amp, F, F, amplification.contact_force_bound(W, h, f_c), np.inf, False,
-            F_energy=amplification.member_energy_force(W, h, f_s, f_c))
-        V_v = float(beam.max_abs_shear("simple", L, fo.shear, a))
+        V_v = verdict_end_shear(L, EI, mu, a, M, h, f_c)
         V_stat = float(beam.max_abs_shear("simple", L, t.force, a))
         assert eb.reaction is not None
         print(f"| {sec} | {L:.2f} | {xi:.2f} | {M:.1f} | {h:.2f} | {kappa:.3g} "

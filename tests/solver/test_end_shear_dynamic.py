@@ -164,6 +164,25 @@ def test_sdof_reaction_under_reads_a_short_pulse(short_pulse: dict[str, float]) 
     assert short_pulse["V_t"] > SDOF_SHORTFALL * V_sdof
 
 
+def verdict_end_shear(L: float, EI: float, mu: float, a: float, M: float, h: float,
+                      f_c: float) -> float:
+    """The verdict's end shear (N) of a simply supported member (span L m, EI N·m²,
+    μ kg/m) struck at ``a`` (m) by M (kg) from h (m) through f_c (m/N): the amplified
+    shear force of :func:`droprig.solver.amplification.amplified_forces` (elastic
+    contact, no crushing, the chain's struck-mass rule) on the member's static shear
+    envelope (also read by scripts/end_shear_models.py)."""
+    f_s = float(beam.green("simple", L, EI, a, a))
+    W = M * G
+    m_e = float(beam.rayleigh_mass_factor("simple", L, a)) * mu * L
+    eta = M / (M + m_e * (f_s / (f_s + f_c)) ** 2)
+    _, F, _ = impact.impact_elastic(W, h, f_s + f_c, eta)
+    amp = amplification.amplification(M, m_e, f_c, f_s, cond="simple", xi=a / L)
+    forces = amplification.amplified_forces(
+        amp, F, F, amplification.contact_force_bound(W, h, f_c), np.inf, False,
+        F_energy=amplification.member_energy_force(W, h, f_s, f_c))
+    return float(beam.max_abs_shear("simple", L, forces.shear, a))
+
+
 @pytest.mark.parametrize(("M", "h", "f_c", "xi"), [
     (20.0, 1.0, 1e-8, 0.5),
     (5.0, 2.0, 1e-9, 0.5),
@@ -174,15 +193,6 @@ def test_verdict_end_shear_above_timoshenko(M: float, h: float, f_c: float,
     # the verdict's shear force (amplification.amplified_forces, elastic contact, no
     # crushing, the chain's struck-mass rule) on the member's static shear envelope
     a = xi * SPAN
-    f_s = float(beam.green("simple", SPAN, EI, a, a))
-    W = M * G
-    m_e = float(beam.rayleigh_mass_factor("simple", SPAN, a)) * MU * SPAN
-    eta = M / (M + m_e * (f_s / (f_s + f_c)) ** 2)
-    _, F, _ = impact.impact_elastic(W, h, f_s + f_c, eta)
-    amp = amplification.amplification(M, m_e, f_c, f_s, cond="simple", xi=xi)
-    forces = amplification.amplified_forces(
-        amp, F, F, amplification.contact_force_bound(W, h, f_c), np.inf, False,
-        F_energy=amplification.member_energy_force(W, h, f_s, f_c))
-    V_verdict = float(beam.max_abs_shear("simple", SPAN, forces.shear, a))
+    V_verdict = verdict_end_shear(SPAN, EI, MU, a, M, h, f_c)
     t = timoshenko_drop(SPAN, EI, MU, KGA, RHO_I, a, M, h, f_c, n_modes=40)
     assert V_verdict >= t.reaction
