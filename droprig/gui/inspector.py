@@ -61,7 +61,7 @@ from droprig.model import (
     corridor_problem,
     lift_point_tags,
 )
-from droprig.outcomes import fmt_utilisation
+from droprig.outcomes import fmt_utilisation_check
 from droprig.permit import derive_conditions
 
 # ------------------------------------------------------------------ messages
@@ -1186,10 +1186,8 @@ class Inspector(QWidget):
                 # worst point's check can be another (seen under Xvfb on the rooftop
                 # demo: "max U 6.85" beside "governing: … (web yielding)" while the
                 # table read "6.85 (shear)")
-                util = cells["utilisation"] if cells else (
-                    fmt_utilisation(b.max_utilisation)
-                    + (f" ({b.utilisation_check.replace('_', ' ')})"
-                       if b.utilisation_check else ""))
+                util = cells["utilisation"] if cells else fmt_utilisation_check(
+                    b.max_utilisation, b.utilisation_check)
                 html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
                          f"{b.load_name}<br>max U {html_escape(util)}; "
                          f"allowable drop {html_escape(allow)}<br>worst point: "
