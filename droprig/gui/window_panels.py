@@ -518,6 +518,8 @@ class PanelsMixin(WindowParts):
         sb.addWidget(self.state_label, 1)
         sb.addPermanentWidget(self.caution_label)
         self.state_label.changed.connect(self._fit_status_bar)
+        # a message ends: QStatusBar shows its normal widgets again, share them out
+        sb.messageChanged.connect(self._fit_status_bar)
 
     def _fit_status_bar(self) -> None:
         """Share the status bar out: the analysis state whole first (whether the
@@ -525,8 +527,16 @@ class PanelsMixin(WindowParts):
         and its "⚠ 1 warning" was cut away, seen under Xvfb), the caution at least
         its shortest form (it names the licensed engineer; the full one is under the
         plan and in its tooltip), then units and basis if room is left (they are
-        also in Settings)."""
+        also in Settings).
+
+        While a temporary message is on show, QStatusBar has hidden the normal
+        widgets to paint it; showing units and basis then draws them over the
+        message (seen under Xvfb: the pointer's "x −10.59 m, y 23.83 m" painted on
+        top of "Units: SI …" after an undo re-ran the analysis). They are shared
+        out again when the message ends (``messageChanged``)."""
         if not hasattr(self, "caution_label"):
+            return
+        if self.statusBar().currentMessage():
             return
         room = self.statusBar().width() - 40
         caution = self.caution_label.minimumSizeHint().width()

@@ -78,6 +78,27 @@ def test_status_messages_have_room(qtbot, window) -> None:
     assert window.state_label.isVisible() and window.units_label.isVisible()
 
 
+def test_a_status_message_is_not_painted_over(qtbot, window) -> None:
+    """Under Xvfb an undo re-ran the analysis while the pointer's position was on
+    show in the status bar: the new analysis state shared the bar out again and
+    showed the units and basis, painted over "x −10.59 m, y 23.83 m". While a
+    message is shown no normal widget may be; when it ends they come back."""
+    _open_demo(qtbot, window)
+    sb = window.statusBar()
+    sb.showMessage("x −10.59 m, y 23.83 m", 5000)
+    qtbot.wait(50)
+    # what a new analysis state does: its text changes and the bar is shared out
+    window.state_label.setText("Up to date · a state text changed by the test")
+    qtbot.wait(50)
+    shown = [w.objectName() for w in (window.units_label, window.basis_label,
+                                       window.state_label) if w.isVisible()]
+    assert shown == [], shown
+    sb.clearMessage()
+    qtbot.wait(50)
+    assert window.units_label.isVisible() and window.basis_label.isVisible()
+    assert window.state_label.isVisible()
+
+
 def test_verify_dialog_text_has_no_html_entities(qtbot) -> None:
     """The time-history dialog escaped its text for HTML in labels Qt showed as plain
     text: "a ratio &#x27;verdict ÷ history&#x27;" on screen; and "r = M/mₑ 12.5"
