@@ -141,8 +141,61 @@ def _fit(text: str, size: float, width: float, font: str = fonts.REGULAR) -> str
 MIN_PT = 7.0
 """Smallest text size on the plan, pt."""
 PAD_FILL = colors.HexColor("#14261D")
-"""Pads and mats: a near-black green fill (greyscale ≈ 12 %, darker than the
-"exceeds" fill at ≈ 29 %), white label."""
+"""Pads and mats: a near-black green ink (greyscale ≈ 12 %) for their outline,
+studs and label box (white text)."""
+PAD_STUD_STEP = 7.0
+"""Spacing of a pad's studs on the plan, pt."""
+
+
+def pad_symbol(x0: float, y0: float, x1: float, y1: float,
+               step: float = PAD_STUD_STEP) -> Group:
+    """A pad or mat on the plan (our own symbol): a heavy outline and a square
+    grid of small studs, each ringed in white, over whatever lies below, so the
+    bay's outcome fill still shows through (a solid pad fill hid it: on the rooftop
+    demo's annex the padded bays read black, like "may go through")."""
+    gr = Group()
+    gr.add(Rect(x0, y0, x1 - x0, y1 - y0, fillColor=None, strokeColor=colors.white,
+                strokeWidth=3.4))
+    gr.add(Rect(x0, y0, x1 - x0, y1 - y0, fillColor=None, strokeColor=PAD_FILL,
+                strokeWidth=1.6))
+    nx, ny = max(int((x1 - x0) / step), 1), max(int((y1 - y0) / step), 1)
+    dx, dy = (x1 - x0) / nx, (y1 - y0) / ny
+    r = min(1.3, dx / 4, dy / 4)
+    for i in range(nx):
+        for j in range(ny):
+            gr.add(Circle(x0 + (i + 0.5) * dx, y0 + (j + 0.5) * dy, r,
+                          fillColor=PAD_FILL, strokeColor=colors.white, strokeWidth=0.6))
+    return gr
+
+
+def _overlap(a: tuple[float, float, float, float],
+             b: tuple[float, float, float, float]) -> float:
+    """Area (pt²) shared by two boxes (x, y, w, h)."""
+    w = min(a[0] + a[2], b[0] + b[2]) - max(a[0], b[0])
+    h = min(a[1] + a[3], b[1] + b[3]) - max(a[1], b[1])
+    return max(w, 0.0) * max(h, 0.0)
+
+
+def pad_label_box(x0: float, y0: float, x1: float, y1: float, tw: float, th: float,
+                  taken: Sequence[tuple[float, float, float, float]]
+                  ) -> tuple[tuple[float, float, float, float], float]:
+    """Where a pad's label box (``tw`` × ``th`` pt) goes: the first corner of the
+    pad (top left, bottom left, top right, bottom right, then just outside its top
+    and bottom edges) that covers none of the boxes already ``taken`` (bay labels,
+    other pads' labels), else the corner that covers least. Returns the box
+    (x, y, w, h) and the area it still covers (pt²)."""
+    tries = [(x0, y1 - th - 1), (x0, y0 + 1), (x1 - tw, y1 - th - 1), (x1 - tw, y0 + 1),
+             (x0, y1 + 1), (x0, y0 - th - 1)]
+    best: tuple[tuple[float, float, float, float], float] | None = None
+    for x, y in tries:
+        box = (x, y, tw, th)
+        cover = sum(_overlap(box, t) for t in taken)
+        if best is None or cover < best[1] - 1e-9:
+            best = (box, cover)
+        if cover <= 0.0:
+            break
+    assert best is not None
+    return best
 EXCL_INK = colors.black
 REACH_DASH = [7, 2.5]
 DRIFT_DASH = [1, 2]
@@ -256,12 +309,11 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
             d.add(Line(xa, ya, xb, yb, strokeColor=EXCL_INK, strokeWidth=1.3))
         d.add(Rect(x0 + 1, y0 + 1, x1 - x0 - 2, y1 - y0 - 2, fillColor=None,
                    strokeColor=EXCL_INK, strokeWidth=2.0))
-    # 3. pads and mats: dark solid fill
+    # 3. pads and mats: heavy outline and studs over the outcome fill
     for p in protections:
         x0, y0 = P(p.area.x0, p.area.y0)
         x1, y1 = P(p.area.x1, p.area.y1)
-        d.add(Rect(x0, y0, x1 - x0, y1 - y0, fillColor=PAD_FILL, strokeColor=colors.black,
-                   strokeWidth=0.8))
+        d.add(pad_symbol(x0, y0, x1, y1))
     # deck openings
     for o in level.deck.openings:
         x0, y0 = P(o.x0, o.y0)
@@ -322,7 +374,8 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
         w = stringWidth(tag, fonts.BOLD, MIN_PT) + 4
         labels.add(Rect(cx + 7, cy + 4, w, 10, fillColor=ZONE_INK, strokeColor=None))
         labels.add(_text(cx + 9, cy + 6.5, tag, MIN_PT, bold=True, color=colors.white))
-    # bay labels
+    # bay labels (their boxes kept: a pad's label is placed clear of them)
+    taken: list[tuple[float, float, float, float]] = []
     for b in bay_list:
         resp, u = outcomes.get(b.id, (NOT_ASSESSED, math.nan))
         st = OUTCOMES.get(resp, OUTCOMES[NOT_ASSESSED])
@@ -349,6 +402,7 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
                  for t, bold in lines) + 4
         th = len(lines) * size * 1.2 + 3
         cx, cy = (x0 + x1) / 2, (y0 + y1) / 2
+        taken.append((cx - tw / 2, cy - th / 2, tw, th))
         labels.add(Rect(cx - tw / 2, cy - th / 2, tw, th, fillColor=colors.white,
                         strokeColor=_hex(st.edge), strokeWidth=0.6))
         for k, (t, bold) in enumerate(lines):
@@ -362,18 +416,26 @@ def plan_drawing(level: Level, zones: Sequence[LiftZone],
             r = min(SCAB_RADIUS, (x1 - x0) / 4, (y1 - y0) / 4)
             if r >= 2.5:
                 labels.add(scabbing_mark(x1 - r - 2, y1 - r - 2, r))
-    # pad labels: id and specification, on the pad's top edge
+    # pad labels: id and specification in a corner of the pad clear of the bay
+    # labels (on the pad's top edge they hid the padded bays' ids and outcomes on
+    # the rooftop demo's annex); where the whole text finds no clear corner, the id
+    # alone (the specification is in the pad's permit condition)
     for p in protections:
         x0, y0 = P(p.area.x0, p.area.y0)
         x1, y1 = P(p.area.x1, p.area.y1)
-        text = f"PAD {p.id}: {pad_specs.get(p.id, p.kind)}"
-        lines = _wrap(text, MIN_PT, max(x1 - x0 - 8, 60))[:6]
-        tw = max(stringWidth(t, fonts.REGULAR, MIN_PT) for t in lines) + 6
-        th = len(lines) * MIN_PT * 1.2 + 3
-        labels.add(Rect(x0, y1 - th - 1, tw, th, fillColor=PAD_FILL, strokeColor=colors.white,
+        texts = [f"PAD {p.id}: {pad_specs.get(p.id, p.kind)}", f"PAD {p.id}"]
+        for n, text in enumerate(texts):
+            lines = _wrap(text, MIN_PT, max(x1 - x0 - 8, 60))[:6]
+            tw = max(stringWidth(t, fonts.REGULAR, MIN_PT) for t in lines) + 6
+            th = len(lines) * MIN_PT * 1.2 + 3
+            (bx, by, _, _), cover = pad_label_box(x0, y0, x1, y1, tw, th, taken)
+            if cover <= 0.0 or n == len(texts) - 1:
+                break
+        taken.append((bx, by, tw, th))
+        labels.add(Rect(bx, by, tw, th, fillColor=PAD_FILL, strokeColor=colors.white,
                         strokeWidth=0.6))
         for k, t in enumerate(lines):
-            labels.add(_text(x0 + 3, y1 - 1 - (k + 1) * MIN_PT * 1.2 + 1, t, MIN_PT,
+            labels.add(_text(bx + 3, by + th - (k + 1) * MIN_PT * 1.2 + 1, t, MIN_PT,
                              color=colors.white))
     d.add(labels)
     _lift_points(d, zones, P)  # above the labels: a point is never hidden
@@ -484,8 +546,8 @@ def _legend(d: Drawing, width: float) -> None:
            (f"{outcomes.SCABBING.label.lower()}: keep the level below clear",
             lambda x, yy: scabbing_mark(x + 11, yy + 2.5, 4.5))],
         [("exclusion area: do not carry the load over it", excl),
-         ("pad or mat to lay (specification on it)",
-          lambda x, yy: sw_rect(x, yy, PAD_FILL)),
+         ("pad or mat to lay (specification labelled)",
+          lambda x, yy: pad_symbol(x, yy - 2, x + 22, yy + 7, 5.0)),
          ("C3: permit condition no. 3 applies", lambda x, yy: _text(x + 2, yy, "C3", MIN_PT,
                                                                     bold=True)),
          ("column", lambda x, yy: Rect(x + 8, yy - 0.5, 6, 6, fillColor=INK,

@@ -79,3 +79,48 @@ def test_scabbing_bays_and_their_mark() -> None:
     words = " ".join(n.text for n in _walk(d) if isinstance(n, String))
     assert outcomes.OUTCOMES["perforates"].label in words
     assert outcomes.SCABBING.label.lower() in words
+
+
+def test_pads_leave_the_bays_labels_and_outcome_fill_in_view() -> None:
+    """On the rooftop demo's annex the pads' labels sat on their top edges and hid
+    the padded bays' ids and outcomes ("X Exceeds limits" could not be read), and
+    their solid near-black fill hid the outcome colour (a padded bay read like "may
+    go through"). Every bay's label must stay clear of every pad's label, every
+    bay's id must be printed, and no solid box may cover a pad's area (droprig's own
+    plan language: common practice, no source)."""
+    from reportlab.graphics.shapes import Rect
+
+    from droprig.report.figures import PAD_FILL
+
+    p = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    level = p.levels[0]
+    prot = [a for a in p.protection_areas if a.level_id == level.id]
+    assert len(prot) == 2  # the demo's two crushable pads
+    ids = [b.id for b in bays(level)]
+    outcomes_ = {b: ("exceeds", 7.42) for b in ids}
+    marks = {b: BayMark(False, ("C1", "C2", "C3", "C5", "C7")) for b in ids}
+    specs = {a.id: "crushable, 0.500 m thick; crushes at 15.0 kPa, stroke 0.350 m"
+             for a in prot}
+    d = plan_drawing(level, list(content.select_zones(p, None)), prot, outcomes_, "SI",
+                     500, 600, marks=marks, pad_specs=specs)
+    rects = [n for n in _walk(d) if isinstance(n, Rect)]
+    pad_hex = PAD_FILL.hexval()
+
+    def box(r: Rect) -> tuple[float, float, float, float]:
+        return (r.x, r.y, r.x + r.width, r.y + r.height)
+
+    bay_boxes = [box(r) for r in rects if r.fillColor is not None
+                 and r.fillColor.hexval() == "0xffffff" and r.strokeWidth == 0.6]
+    pad_boxes = [box(r) for r in rects if r.fillColor is not None
+                 and r.fillColor.hexval() == pad_hex]
+    assert len(bay_boxes) == len(ids)
+    assert len(pad_boxes) == len(prot)  # the labels only: no solid pad fill
+    for a in pad_boxes:
+        for b in bay_boxes:
+            w = min(a[2], b[2]) - max(a[0], b[0])
+            h = min(a[3], b[3]) - max(a[1], b[1])
+            assert w <= 0 or h <= 0, (a, b)
+    words = " ".join(n.text for n in _walk(d) if isinstance(n, String))
+    for b in ids:
+        assert b in words
+    assert words.count("X Exceeds limits") >= len(ids)
