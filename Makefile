@@ -34,7 +34,8 @@ lint: $(STAMP)
 	$(PY) -m mypy
 
 bench: sysdeps $(STAMP)
-	@for f in benchmarks/bench_*.py; do echo "== $$f"; QT_QPA_PLATFORM=offscreen $(PY) $$f || exit 1; done
+	@for f in benchmarks/bench_*.py; do echo "== $$f"; a=; [ $$f = benchmarks/bench_fuzz.py ] && a=--quick; \
+		QT_QPA_PLATFORM=offscreen $(PY) $$f $$a || exit 1; done
 
 clean:
 	rm -rf $(VENV) build *.egg-info out
