@@ -158,12 +158,16 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
             f_c: float, struck_mass: bool, scaled_mass: bool = False,
             F_yield: float = math.inf, stroke: float = math.inf,
             chain_factors: tuple[float, dict[str, float]] | None = None,
-            share: float = 1.0) -> Verification:
+            share: float = 1.0, contact_force: float | None = None) -> Verification:
     """``share``: the member's lever-rule share w of the load (0.5–1; ``f_c`` is then
     the rest of the path's compliance beyond w²·G(a, a), may be negative down to
     −(1 − w²)·G(a, a)): the time history sees the load through it
     (:func:`droprig.solver.pointhistory.shared_load`) and the member's energy-method
-    and verdict demands are w × those of the whole force."""
+    and verdict demands are w × those of the whole force. ``contact_force`` (N): the
+    chain's contact force F_c at the point (``Impact.contact``, what the local checks
+    take); the force row then shows it beside the time history's contact force (with
+    the chain's factors, the verdict's contact force is the larger of F_c and the
+    amplified contact force A_F·F the local checks use)."""
     f_s = float(beam.green(cond, L, EI, a, a))
     if f_s <= 0.0:
         raise OverSupportError("at", a, "a point off the supports (the member does not "
@@ -211,6 +215,13 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
         F_chain, factor = chain_factors
         energy = {k: float(getattr(e, k)) / F_el * F_chain * part[k] for k in QUANTITIES}
         F = F_chain
+    if contact_force is not None and contact_force > 0.0:
+        # the force row compares contact forces: the chain's contact force F_c (the
+        # local checks'), not its force on the framing (two forces per point differ)
+        if chain_factors is not None:
+            factor = {**factor, "force": max(contact_force, factor["force"] * F)
+                      / contact_force}
+        energy = {**energy, "force": contact_force}
     assert t.history is not None
     t_sep = float(t.t_separation[0])
     th = {k: float(getattr(t, k)[0]) for k in QUANTITIES}
@@ -335,7 +346,8 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     h_e = float(energy_fall(chain, inp.h)[0])
     ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), h_e,
                   f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True, F_yield=F_y, stroke=s_y,
-                  chain_factors=chain_factors, share=w)
+                  chain_factors=chain_factors, share=w,
+                  contact_force=float(chain[Impact].contact[0]))
 
     if not project.settings.dynamic_amplification:
         # the project's checks use the energy method alone (amplification off in its
