@@ -399,6 +399,36 @@ deflection) the most energy the drop can put into the member
 bound (:data:`B_SHEAR_SHORT`, :func:`short_pulse`)."""
 
 
+def _member_forces(amp: Amplification, F: np.ndarray, F_tab: np.ndarray,
+                   local: np.ndarray, F_E: np.ndarray, V_short: np.ndarray,
+                   set_by: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    """Member moment, shear and deflection forces of :func:`amplified_forces` (N): the
+    larger of F and the least of the table on F_tab (∞ where the table does not
+    apply), B_X × the contact-force bound ``local``, B_E × the member energy force F_E
+    (moment, deflection) and the short-pulse shear force ``V_short`` (∞ where the
+    pulse is not short); what set each is written into ``set_by``."""
+    out = {}
+    inf = np.full(F.shape, np.inf)
+    for key, A, B, B_E, other, i_other in (
+            ("moment", amp.moment, B_MOMENT, B_ENERGY_MOMENT, inf, "member energy bound"),
+            ("shear", amp.shear, B_SHEAR, np.inf, V_short, "short-pulse shear bound"),
+            ("deflection", amp.deflection, B_DEFLECTION, B_ENERGY_DEFLECTION, inf,
+             "member energy bound")):
+        with np.errstate(invalid="ignore"):
+            tab = A * F_tab
+        tab = np.where(np.isfinite(F_tab), tab, np.inf)
+        bnd = B * local
+        en = np.fmin(B_E * F_E if np.isfinite(B_E) else inf, other)
+        i_en = np.where(other < en * (1.0 + 1e-12), SET_BY.index(i_other),
+                        SET_BY.index("member energy bound"))
+        # fmin: a missing (NaN) energy force drops its term, never the others
+        least_m = np.fmin(np.minimum(tab, bnd), en)
+        out[key] = np.maximum(F, least_m)
+        set_by[key] = np.where(F >= least_m, 0, np.where(
+            en < np.minimum(tab, bnd), i_en, np.where(tab <= bnd, 1, 4)))
+    return out
+
+
 def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
                      F_rigid: ArrayLike, F_crush: ArrayLike,
                      crush_holds: ArrayLike, bottomed: ArrayLike = False,
@@ -461,26 +491,10 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
     least = np.take_along_axis(terms, i_loc[None], axis=0)[0]
     local = np.maximum(F, least)
     set_by = {"local": np.where(F >= least, 0, i_loc + 1)}
-    out = {}
-    i_energy = SET_BY.index("member energy bound")
     # a short elastic pulse: the shear from the static shear of the rigid-base bound
     short = short_pulse(amp.mass_ratio, amp.compliance_ratio, F_rigid, F_crush)
-    pulse = {"moment": np.full(F.shape, np.inf), "deflection": np.full(F.shape, np.inf),
-             "shear": np.where(short, B_SHEAR_SHORT * F_rigid, np.inf)}
-    for key, A, B, B_E in (("moment", amp.moment, B_MOMENT, B_ENERGY_MOMENT),
-                           ("shear", amp.shear, B_SHEAR, np.inf),
-                           ("deflection", amp.deflection, B_DEFLECTION,
-                            B_ENERGY_DEFLECTION)):
-        tab, bnd = np.where(table_ok, A * F_ref, np.inf), B * local
-        en = np.fmin(B_E * F_E if np.isfinite(B_E) else np.full(F.shape, np.inf),
-                     pulse[key])
-        # fmin: a missing (NaN) energy force drops its term, never the others
-        least_m = np.fmin(np.minimum(tab, bnd), en)
-        out[key] = np.maximum(F, least_m)
-        i_en = np.where(pulse[key] < np.inf, SET_BY.index("short-pulse shear bound"),
-                        i_energy) if key == "shear" else i_energy
-        set_by[key] = np.where(F >= least_m, 0, np.where(
-            en < np.minimum(tab, bnd), i_en, np.where(tab <= bnd, 1, 4)))
+    out = _member_forces(amp, F, np.where(table_ok, F_ref, np.inf), local, F_E,
+                         np.where(short, B_SHEAR_SHORT * F_rigid, np.inf), set_by)
     return AmplifiedForces(local=local, moment=out["moment"], shear=out["shear"],
                            deflection=out["deflection"],
                            capped=holds & np.isfinite(F_crush), set_by=set_by,

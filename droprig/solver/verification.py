@@ -164,10 +164,7 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     −(1 − w²)·G(a, a)): the time history sees the load through it
     (:func:`droprig.solver.pointhistory.shared_load`) and the member's energy-method
     and verdict demands are w × those of the whole force. ``contact_force`` (N): the
-    chain's contact force F_c at the point (``Impact.contact``, what the local checks
-    take); the force row then shows it beside the time history's contact force (with
-    the chain's factors, the verdict's contact force is the larger of F_c and the
-    amplified contact force A_F·F the local checks use)."""
+    chain's contact force at the point, for the force row (:func:`_contact_row`)."""
     f_s = float(beam.green(cond, L, EI, a, a))
     if f_s <= 0.0:
         raise OverSupportError("at", a, "a point off the supports (the member does not "
@@ -216,12 +213,7 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
         energy = {k: float(getattr(e, k)) / F_el * F_chain * part[k] for k in QUANTITIES}
         F = F_chain
     if contact_force is not None and contact_force > 0.0:
-        # the force row compares contact forces: the chain's contact force F_c (the
-        # local checks'), not its force on the framing (two forces per point differ)
-        if chain_factors is not None:
-            factor = {**factor, "force": max(contact_force, factor["force"] * F)
-                      / contact_force}
-        energy = {**energy, "force": contact_force}
+        energy, factor = _contact_row(energy, factor, F, contact_force, chain_factors)
     assert t.history is not None
     t_sep = float(t.t_separation[0])
     th = {k: float(getattr(t, k)[0]) for k in QUANTITIES}
@@ -242,6 +234,17 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
         contact_compliance=f_th, contact_assumed=assumed, modes=int(t.modes[0]),
         time_step=float(t.dt[0]), separation_time=t_sep if math.isfinite(t_sep) else None,
         history=history)
+
+
+def _contact_row(energy: dict[str, float], factor: dict[str, float], F: float,
+                 F_c: float, amplified: object) -> tuple[dict[str, float], dict[str, float]]:
+    """The force row compares contact forces: the chain's contact force F_c (N, what
+    the local checks take), not its force on the framing F (N; the two differ where
+    the chain gives two forces per point); with the chain's factors (``amplified``
+    not None) the verdict's contact force is the larger of F_c and the amplified A_F·F."""
+    if amplified is not None:
+        factor = {**factor, "force": max(F_c, factor["force"] * F) / F_c}
+    return {**energy, "force": F_c}, factor
 
 
 def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, a: float,
