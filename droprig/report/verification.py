@@ -32,7 +32,9 @@ VERIFICATION_NOTE = (
     "below 1 means the energy method reads lower than the time history; the verdict "
     "ratios compare the demands the checks use (dynamic amplification: the larger of the "
     "energy method and the calibrated time-history bounds) with the time history — 1 or "
-    "more means the verdict covers it. Check aid only: "
+    "more means the verdict covers it. F is the contact force between the load and the "
+    "struck surface: the analysis's contact force (what the local checks take) beside the "
+    "time history's. Check aid only: "
     "review against local codes with the appointed lifting person and a licensed "
     "structural engineer.")
 

@@ -60,14 +60,18 @@ __all__ = [
     "B_ENERGY_MOMENT",
     "B_MOMENT",
     "B_SHEAR",
+    "B_SHEAR_SHORT",
     "CANTILEVER_POSITION_EDGES",
     "COMPLIANCE_RATIO_EDGES",
     "CONDITIONS",
     "KAPPA_MIN",
     "MASS_RATIO_EDGES",
+    "MASS_RATIO_MIN",
     "POSITION_EDGES",
     "RIGID_BASE_MARGIN",
     "SET_BY",
+    "SHORT_PULSE_COMPLIANCE_RATIO",
+    "SHORT_PULSE_MASS_RATIO",
     "Amplification",
     "AmplifiedForces",
     "amplification",
@@ -76,6 +80,7 @@ __all__ = [
     "crush_depth_bound",
     "member_energy_force",
     "position_band",
+    "short_pulse",
 ]
 
 MASS_RATIO_EDGES: tuple[float, ...] = (0.03, 0.1, 0.3, 1.0, 3.0, 10.0, 30.0, 100.0)
@@ -84,6 +89,13 @@ COMPLIANCE_RATIO_EDGES: tuple[float, ...] = (0.003, 0.01, 0.03, 0.1, 0.3, 1.0, 3
 """Inner edges of the contact ÷ member compliance cells (below 0.003 … above 3)."""
 KAPPA_MIN = 0.001
 """Least contact ÷ member compliance sampled by the calibration."""
+MASS_RATIO_MIN = 0.03
+"""Least load ÷ struck mass r at which :func:`amplified_forces` uses the table: its
+lowest cell (r < 0.03, calibrated from r = 0.01, ``scripts/calibrate_amplification.py``)
+read the time history's shear at 0.34–0.98 × for r = 0.001–0.009 and 0.82 × at
+r = 0.012 (a cantilever, κ = 0.002), and a fixed member's moment at 0.84 × for
+r = 0.01–0.03 (``scripts/calibrate_short_pulse_shear.py``,
+``tests/solver/test_end_shear_short_pulse.py``): below it the bounds alone set the demands."""
 
 CONDITIONS: tuple[str, ...] = ("simple", "fixed", "propped", "cantilever")
 """End conditions of the table (the order of :data:`droprig.solver.loadpath.COND_NAMES`)."""
@@ -230,6 +242,61 @@ B_DEFLECTION = 3.55
 2.17) × 1.15."""
 
 
+# --------------------------------------------------------------------------- short pulse
+B_SHEAR_SHORT = 2.0
+"""Member shear per unit contact-force bound under a short elastic contact pulse
+(:func:`short_pulse`), over the static shear of that force: V ≤ B_SHEAR_SHORT ×
+V_st(F_rigid), F_rigid the rigid-base bound of :func:`contact_force_bound` (N),
+V_st the member's largest static shear under a point force at the struck point
+(AISC Manual Table 3-23 via :func:`droprig.solver.beam.max_abs_shear`).
+
+Why a factor on the peak force and not B_SHEAR's: a pulse of one sign no larger than
+P drives each mode to at most twice its static response to P while it lasts half
+the mode's period or less (the rectangular pulse's dynamic load factor 2, the largest
+of any such pulse: Biggs 1964 ch. 2 Fig. 2.6, Clough & Penzien 2nd ed. §5-2 shock
+spectra — from memory); modes much slower than the pulse take the impulse
+(Clough & Penzien §5-3: q̇ = φ(a)·∫F dt, small against the peak force's static
+response), modes much faster follow it quasi-statically. So a short pulse's end shear
+scales with its peak force, as a static load does, not with the many rebounds and
+long crushing plateaus B_SHEAR (6.1) was calibrated on. 2 is that dynamic load
+factor; the time history sets no lower value: its largest shear over V_st(F_rigid)
+reached 1.70 with the verdict's settings and 1.80 with 80 modes, cut-off 32 and 16
+samples a period (a cantilever) on 288 random members in the short-pulse domain, and
+a Timoshenko beam's end reaction 1.41 × the static end shear of its own peak contact
+force (shear waves at a finite speed;
+``tests/solver/timoshenko_reference.py``) — ``scripts/
+calibrate_short_pulse_shear.py``, ``tests/solver/test_end_shear_short_pulse.py``."""
+SHORT_PULSE_MASS_RATIO = 1.0
+"""Largest r = M/mₑ (load over the member's Rayleigh mass at the struck point) of a
+short pulse (:func:`short_pulse`)."""
+SHORT_PULSE_COMPLIANCE_RATIO = 0.1
+"""Largest κ = f_c/f_s (contact over member compliance) of a short pulse: a contact ten
+times stiffer than the member shapes the pulse (:func:`short_pulse`)."""
+
+
+def short_pulse(mass_ratio: ArrayLike, compliance_ratio: ArrayLike, F_rigid: ArrayLike,
+                F_crush: ArrayLike = np.inf) -> np.ndarray:
+    """Whether the contact pulse is short against the member's periods and elastic,
+    per case (bool): r = M/mₑ ≤ :data:`SHORT_PULSE_MASS_RATIO` and κ = f_c/f_s ≤
+    :data:`SHORT_PULSE_COMPLIANCE_RATIO` (dimensionless), and the contact never
+    reaches the crushing force, F_rigid ≤ F_crush (N; F_rigid finite: the load on its
+    contact spring against an immovable point, :func:`contact_force_bound`).
+
+    The load on its contact spring against an immovable point rebounds after half a
+    period, t₀ = π·√(M·f_c) (s; M kg, f_c m/N), and the member's Rayleigh period at
+    the struck point is T_R = 2π·√(mₑ·f_s) (s; no longer than its fundamental period:
+    Rayleigh's quotient bounds ω₁ from above — Clough & Penzien 2nd ed. §8-5, from
+    memory), so t₀/T_R = ½·√(r·κ) ≤ 0.16 here: the pulse is short against the
+    member's periods, and a contact ten times stiffer than the member at the point
+    sets its shape. Where it holds the member shear is bounded by
+    :data:`B_SHEAR_SHORT` × the static shear of F_rigid (:func:`amplified_forces`)."""
+    r, k, Fr, Fc = np.broadcast_arrays(*(np.asarray(v, float) for v in (
+        mass_ratio, compliance_ratio, F_rigid, F_crush)))
+    with np.errstate(invalid="ignore"):
+        return ((r <= SHORT_PULSE_MASS_RATIO) & (k <= SHORT_PULSE_COMPLIANCE_RATIO)
+                & (k >= 0.0) & np.isfinite(Fr) & (Fr <= Fc))
+
+
 def crush_depth_bound(W: ArrayLike, h: ArrayLike, f: ArrayLike,
                       F_crush: ArrayLike) -> np.ndarray:
     """Upper bound of the depth crushed under a contact force capped at F_crush (N),
@@ -321,14 +388,45 @@ class AmplifiedForces:
 
 SET_BY: tuple[str, ...] = ("energy method", "time-history table", "rigid-base bound",
                            "crushing force", "contact-force bound", "point time history",
-                           "member energy bound")
+                           "member energy bound", "short-pulse shear bound")
 """What set an amplified force (:attr:`AmplifiedForces.set_by`): the energy method's
 own force, the table, the load against an immovable point, the crushing force,
 (member quantities) the member's response to the bounded contact force, the
 point's own time history (the chain's choice of points,
 :func:`droprig.solver.chain.dynamic_amplification`), or (member moment and
 deflection) the most energy the drop can put into the member
-(:func:`member_energy_force`)."""
+(:func:`member_energy_force`), or (member shear) the short elastic contact pulse's
+bound (:data:`B_SHEAR_SHORT`, :func:`short_pulse`)."""
+
+
+def _member_forces(amp: Amplification, F: np.ndarray, F_tab: np.ndarray,
+                   local: np.ndarray, F_E: np.ndarray, V_short: np.ndarray,
+                   set_by: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    """Member moment, shear and deflection forces of :func:`amplified_forces` (N): the
+    larger of F and the least of the table on F_tab (∞ where the table does not
+    apply), B_X × the contact-force bound ``local``, B_E × the member energy force F_E
+    (moment, deflection) and the short-pulse shear force ``V_short`` (∞ where the
+    pulse is not short); what set each is written into ``set_by``."""
+    out = {}
+    inf = np.full(F.shape, np.inf)
+    for key, A, B, B_E, other, i_other in (
+            ("moment", amp.moment, B_MOMENT, B_ENERGY_MOMENT, inf, "member energy bound"),
+            ("shear", amp.shear, B_SHEAR, np.inf, V_short, "short-pulse shear bound"),
+            ("deflection", amp.deflection, B_DEFLECTION, B_ENERGY_DEFLECTION, inf,
+             "member energy bound")):
+        with np.errstate(invalid="ignore"):
+            tab = A * F_tab
+        tab = np.where(np.isfinite(F_tab), tab, np.inf)
+        bnd = B * local
+        en = np.fmin(B_E * F_E if np.isfinite(B_E) else inf, other)
+        i_en = np.where(other < en * (1.0 + 1e-12), SET_BY.index(i_other),
+                        SET_BY.index("member energy bound"))
+        # fmin: a missing (NaN) energy force drops its term, never the others
+        least_m = np.fmin(np.minimum(tab, bnd), en)
+        out[key] = np.maximum(F, least_m)
+        set_by[key] = np.where(F >= least_m, 0, np.where(
+            en < np.minimum(tab, bnd), i_en, np.where(tab <= bnd, 1, 4)))
+    return out
 
 
 def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
@@ -341,7 +439,8 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
 
     * contact force: min(A_F·F_ref, F_rigid, F_crush) — the table on the energy
       method's elastic force F_ref (N, uncapped, as calibrated; only where
-      A_F·F_ref ≤ F_crush, i.e. the contact stays elastic, the tables' calibration),
+      A_F·F_ref ≤ F_crush, i.e. the contact stays elastic, the tables' calibration,
+      and r ≥ :data:`MASS_RATIO_MIN`, the least it was calibrated on),
       the load on its
       contact spring against an immovable point F_rigid (N,
       :func:`contact_force_bound`), and the crushing force F_crush (N) where the
@@ -354,6 +453,10 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
       contact force bound F_local (:data:`B_MOMENT`, :data:`B_SHEAR`,
       :data:`B_DEFLECTION`, calibrated on the time history with an
       elastic–perfectly plastic contact);
+    * member shear also B_VS·F_rigid where the contact pulse is short and elastic
+      (:func:`short_pulse` of the table's r and κ; :data:`B_SHEAR_SHORT`): a short
+      pulse loads the supports as its peak force does statically, times at most its
+      dynamic load factor;
     * member moment and deflection also B_E·F_energy — the member's response to the
       most energy the drop can put into it (F_energy, N, :func:`member_energy_force`;
       :data:`B_ENERGY_MOMENT`, :data:`B_ENERGY_DEFLECTION`): unlike the contact force,
@@ -381,24 +484,17 @@ def amplified_forces(amp: Amplification, F: ArrayLike, F_ref: ArrayLike,
     # where their own contact force stays below the crushing force (the contact then
     # never yields and the capped history is the linear one)
     table_ok = bot | ~holds | (amp.force * F_ref <= F_crush)
+    # nor below the least mass ratio it was calibrated on (MASS_RATIO_MIN)
+    table_ok = table_ok & ~(amp.mass_ratio < MASS_RATIO_MIN)
     terms = np.stack([np.where(table_ok, amp.force * F_ref, np.inf), F_rigid, cap])
     i_loc = np.argmin(terms, axis=0)
     least = np.take_along_axis(terms, i_loc[None], axis=0)[0]
     local = np.maximum(F, least)
     set_by = {"local": np.where(F >= least, 0, i_loc + 1)}
-    out = {}
-    i_energy = SET_BY.index("member energy bound")
-    for key, A, B, B_E in (("moment", amp.moment, B_MOMENT, B_ENERGY_MOMENT),
-                           ("shear", amp.shear, B_SHEAR, np.inf),
-                           ("deflection", amp.deflection, B_DEFLECTION,
-                            B_ENERGY_DEFLECTION)):
-        tab, bnd = np.where(table_ok, A * F_ref, np.inf), B * local
-        en = B_E * F_E if np.isfinite(B_E) else np.full(F.shape, np.inf)
-        # fmin: a missing (NaN) energy force drops its term, never the others
-        least_m = np.fmin(np.minimum(tab, bnd), en)
-        out[key] = np.maximum(F, least_m)
-        set_by[key] = np.where(F >= least_m, 0, np.where(
-            en < np.minimum(tab, bnd), i_energy, np.where(tab <= bnd, 1, 4)))
+    # a short elastic pulse: the shear from the static shear of the rigid-base bound
+    short = short_pulse(amp.mass_ratio, amp.compliance_ratio, F_rigid, F_crush)
+    out = _member_forces(amp, F, np.where(table_ok, F_ref, np.inf), local, F_E,
+                         np.where(short, B_SHEAR_SHORT * F_rigid, np.inf), set_by)
     return AmplifiedForces(local=local, moment=out["moment"], shear=out["shear"],
                            deflection=out["deflection"],
                            capped=holds & np.isfinite(F_crush), set_by=set_by,

@@ -158,12 +158,13 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
             f_c: float, struck_mass: bool, scaled_mass: bool = False,
             F_yield: float = math.inf, stroke: float = math.inf,
             chain_factors: tuple[float, dict[str, float]] | None = None,
-            share: float = 1.0) -> Verification:
+            share: float = 1.0, contact_force: float | None = None) -> Verification:
     """``share``: the member's lever-rule share w of the load (0.5–1; ``f_c`` is then
     the rest of the path's compliance beyond w²·G(a, a), may be negative down to
     −(1 − w²)·G(a, a)): the time history sees the load through it
     (:func:`droprig.solver.pointhistory.shared_load`) and the member's energy-method
-    and verdict demands are w × those of the whole force."""
+    and verdict demands are w × those of the whole force. ``contact_force`` (N): the
+    chain's contact force at the point, for the force row (:func:`_contact_row`)."""
     f_s = float(beam.green(cond, L, EI, a, a))
     if f_s <= 0.0:
         raise OverSupportError("at", a, "a point off the supports (the member does not "
@@ -211,6 +212,8 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
         F_chain, factor = chain_factors
         energy = {k: float(getattr(e, k)) / F_el * F_chain * part[k] for k in QUANTITIES}
         F = F_chain
+    if contact_force is not None and contact_force > 0.0:
+        energy, factor = _contact_row(energy, factor, F, contact_force, chain_factors)
     assert t.history is not None
     t_sep = float(t.t_separation[0])
     th = {k: float(getattr(t, k)[0]) for k in QUANTITIES}
@@ -231,6 +234,17 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
         contact_compliance=f_th, contact_assumed=assumed, modes=int(t.modes[0]),
         time_step=float(t.dt[0]), separation_time=t_sep if math.isfinite(t_sep) else None,
         history=history)
+
+
+def _contact_row(energy: dict[str, float], factor: dict[str, float], F: float,
+                 F_c: float, amplified: object) -> tuple[dict[str, float], dict[str, float]]:
+    """The force row compares contact forces: the chain's contact force F_c (N, what
+    the local checks take), not its force on the framing F (N; the two differ where
+    the chain gives two forces per point); with the chain's factors (``amplified``
+    not None) the verdict's contact force is the larger of F_c and the amplified A_F·F."""
+    if amplified is not None:
+        factor = {**factor, "force": max(F_c, factor["force"] * F) / F_c}
+    return {**energy, "force": F_c}, factor
 
 
 def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, a: float,
@@ -335,7 +349,8 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     h_e = float(energy_fall(chain, inp.h)[0])
     ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), h_e,
                   f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True, F_yield=F_y, stroke=s_y,
-                  chain_factors=chain_factors, share=w)
+                  chain_factors=chain_factors, share=w,
+                  contact_force=float(chain[Impact].contact[0]))
 
     if not project.settings.dynamic_amplification:
         # the project's checks use the energy method alone (amplification off in its

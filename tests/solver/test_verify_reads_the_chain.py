@@ -35,15 +35,38 @@ def test_verify_point_uses_the_chain_factors() -> None:
     c = evaluate_chain(fm, p, load, point_geometry(fm, p, np.array([x]), np.array([y])),
                        detail=True)
     da, F = c[DynamicAmplification], float(c[Impact].F[0])
+    F_c = float(c[Impact].contact[0])
     v = pv.verification
-    want = {"force": da.A_force[0], "moment": da.A_moment[0], "shear": da.A_shear[0],
+    want = {"moment": da.A_moment[0], "shear": da.A_shear[0],
             "deflection": da.A_deflection[0]}
+    assert v.verdict is not None
     for q, A in want.items():
         assert v.amplification[q] == pytest.approx(float(A), rel=1e-12)
-        assert v.verdict is not None
         assert v.verdict[q] == pytest.approx(float(A) * v.energy[q], rel=1e-12)
-    # the energy-method force shown is the chain's at the point
-    assert v.energy["force"] == pytest.approx(F, rel=1e-9)
+    # the force row compares contact forces: the chain's contact force F_c (what the
+    # local checks take), and the verdict's the larger of it and the amplified A_F·F
+    assert v.energy["force"] == pytest.approx(F_c, rel=1e-9)
+    assert v.verdict["force"] == pytest.approx(max(F_c, float(da.A_force[0]) * F), rel=1e-12)
+    assert v.verdict["force"] == pytest.approx(v.amplification["force"] * F_c, rel=1e-12)
+
+
+def test_verify_point_force_row_is_the_contact_force() -> None:
+    # two forces per point (the two-mass model): the contact force between load and
+    # deck differs from the force on the framing; the verification's force row sets
+    # the chain's contact force beside the time history's contact force (it showed
+    # the framing force). Amplification off: the verdict's force is that contact force.
+    p = load_project(DEMO)
+    zone = p.zone("MC1")
+    load = next(ld for ld in zone.loads if ld.name == "AHU-3 (old, drained)")
+    x, y = 7.5, 13.5
+    fm = floor_model(p.level(zone.level_id), p.settings)
+    c = evaluate_chain(fm, p, load, point_geometry(fm, p, np.array([x]), np.array([y])),
+                       detail=True)
+    F, F_c = float(c[Impact].F[0]), float(c[Impact].contact[0])
+    assert abs(F_c - F) > 0.01 * F  # the two forces differ here: the test can tell
+    v = verify_point(p, "MC1", load.name, x, y).verification
+    assert v.energy["force"] == pytest.approx(F_c, rel=1e-9)
+    assert v.verdict is not None and v.verdict["force"] == pytest.approx(F_c, rel=1e-9)
 
 
 TWO_LEVEL = DEMO.parent / "two_level_rigging.droprig"
