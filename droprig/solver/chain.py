@@ -643,7 +643,11 @@ def struck_mass(c: Chain) -> StruckMass:
         with np.errstate(divide="ignore", invalid="ignore"):
             col_share = np.where(comp.f_s > 0.0, comp.f_col / comp.f_s, 0.0)
         m2 = m2 + column_path_mass(c) * col_share**2
-        m2 = np.where(inp.protected | ~np.isfinite(m2), 0.0, m2)
+        # zero under a mat (the one force there); kept under a crushable layer, where
+        # a load that bottoms the layer out meets the floor through the two-mass
+        # model (:func:`after_bottoming`)
+        mat = inp.protected & ~(inp.crushable & (inp.f_mat <= 0.0))
+        m2 = np.where(mat | ~np.isfinite(m2), 0.0, m2)
     return StruckMass(m_e=m_e, eta=impact_mod.mass_efficiency(inp.M, m_e), m2=m2)
 
 
@@ -721,7 +725,10 @@ class Impact:
     the one-mass balance on f, gives ``F`` (:func:`droprig.solver.struck_mass.
     equivalent_eta`; ``eta`` of the struck mass where one force); ``two_mass``
     (bool): the points with two forces; ``F_deck`` (N): the force of the deck's
-    checks (flexure, punching; :func:`two_forces`)."""
+    checks (flexure, punching; :func:`two_forces`); ``searched`` (bool): the points
+    whose allowable height and mass are searched on the forward impact
+    (:class:`TwoForceKernel`): those with two forces and those on a crushable layer
+    that a higher drop bottoms out (:func:`after_bottoming`)."""
 
     K: np.ndarray
     F: np.ndarray
@@ -736,6 +743,7 @@ class Impact:
     eta_frame: np.ndarray | None = None
     two_mass: np.ndarray | None = None
     F_deck: np.ndarray | None = None
+    searched: np.ndarray | None = None
 
     @property
     def contact(self) -> np.ndarray:
@@ -860,34 +868,130 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
       (:func:`local_damage`, DOE-STD-3014 App. C), and the deck's quasi-static checks
       keep the one-mass force of the load on the deck and framing in series
       (``one.F``)."""
-    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
+    inp, comp, sm = c[LoadInputs], c[Compliance], c[StruckMass]
     if sm.m2 is None:
         return one
-    two = (~inp.protected & ~inp.crushable & (sm.m2 > 0.0) & np.isfinite(comp.f)
-           & (comp.f_s > 0.0) & (comp.f_series > 0.0) & np.isfinite(one.F))
+    fits = two_mass_fits(c) & np.isfinite(one.F)
+    two = ~inp.protected & ~inp.crushable & fits
+    # a crushable layer (and no spring mat): the after-bottoming stage where it
+    # bottoms out
+    pad = pad_two_mass(c) & np.isfinite(one.F)
     if sel is not None:
         two = two & sel
-    if not two.any():
+        pad = pad & sel
+    bot = pad & one.bottomed
+    if not (two.any() or pad.any()):
         return one
     W = inp.W
     Fc = one.F.copy()
     Ff = one.F.copy()
-    Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W[two], h[two], comp.f_series[two],
-                                                   comp.f_s[two], sm.m2[two])
-    through = np.maximum(one.F_crush[two], one.F[two])
-    Fc[two] = np.where(Fc2 > one.F_crush[two], through, Fc2)
-    Ff[two] = np.minimum(Ff2, 2.0 * through)
+    F_deck = one.F.copy()
     soft = inp.f_load > 0.0
-    F_deck = np.where(two & soft, Fc, one.F)
+    if two.any():
+        Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W[two], h[two], comp.f_series[two],
+                                                       comp.f_s[two], sm.m2[two])
+        through = np.maximum(one.F_crush[two], one.F[two])
+        Fc[two] = np.where(Fc2 > one.F_crush[two], through, Fc2)
+        Ff[two] = np.minimum(Ff2, 2.0 * through)
+        F_deck[two] = np.where(soft[two], Fc[two], one.F[two])
     eta_frame = np.where(two, struck_mass_mod.equivalent_eta(W, h, comp.f, Ff, sm.eta),
                          sm.eta)
-    K = np.where(two, Ff / W, one.K)
+    if bot.any():
+        ab = after_bottoming(W[bot], h[bot], inp.F_c[bot], inp.s_c[bot], comp.f[bot],
+                             comp.f_series[bot], comp.f_s[bot], sm.m2[bot],
+                             one.F_crush[bot], crush_depth_available(c))
+        Fc[bot], Ff[bot] = ab.F_contact, ab.F_frame
+        F_deck[bot] = np.where(soft[bot], ab.F_contact, ab.F_one)
+    new = two | bot
+    K = np.where(new, Ff / W, one.K)
     d_max = np.where(two, Ff * comp.f + one.deck_crush, one.d_max)
-    del d
+    d_max = np.where(bot, Ff * comp.f + one.crush, d_max)
     return Impact(K=K, F=Ff, d_max=d_max, d_st=one.d_st, crush=one.crush,
                   bottomed=one.bottomed, F_crush=one.F_crush, deck_crush=one.deck_crush,
                   deck_through=one.deck_through, F_contact=Fc, eta_frame=eta_frame,
-                  two_mass=two, F_deck=F_deck)
+                  two_mass=two, F_deck=F_deck, searched=two | pad)
+
+
+def two_mass_fits(c: Chain) -> np.ndarray:
+    """The points where the two-mass model has its inputs (bool): the struck floor's
+    mass m2 > 0 and finite, positive compliances of the framing and the contact."""
+    comp, sm = c[Compliance], c[StruckMass]
+    if sm.m2 is None:
+        return np.zeros(c.drop.n, dtype=bool)
+    return ((sm.m2 > 0.0) & np.isfinite(comp.f) & (comp.f_s > 0.0)
+            & (comp.f_series > 0.0))
+
+
+def pad_two_mass(c: Chain) -> np.ndarray:
+    """The points on a crushable layer (no spring mat with it) where a drop that
+    bottoms the layer out meets the floor by the two-mass model
+    (:func:`after_bottoming`), bool."""
+    inp = c[LoadInputs]
+    return inp.crushable & (inp.f_mat <= 0.0) & two_mass_fits(c)
+
+
+@dataclass(frozen=True, eq=False)
+class AfterBottoming:
+    """The forces of a drop that bottoms out a crushable layer (:func:`after_bottoming`),
+    per point, N: ``F_contact`` (between the load, through the spent layer, and the
+    deck), ``F_frame`` (on the framing), ``F_one`` (the one-mass force of the residual
+    fall on the bare deck, crushing-capped: the deck's force under a hard load) and
+    the residual energy height ``h_r`` (m)."""
+
+    F_contact: np.ndarray
+    F_frame: np.ndarray
+    F_one: np.ndarray
+    h_r: np.ndarray
+
+
+def residual_height(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarray,
+                    f: np.ndarray) -> np.ndarray:
+    """Energy height (m) left when a crushable layer bottoms out: the work of the fall
+    W·(h + s_c) less the layer's crush F_c·s_c, plus the fall with the floor's
+    deflection under the layer's force while it crushes (at most 2·F_c·f, a suddenly
+    applied force on an elastic system at rest, dynamic load factor 2: Biggs 1964
+    ch. 2 — from memory), all given to the load (an upper bound of the energy that
+    meets the hard contact; energy balance, common practice, no source):
+    h_r = max(h − (F_c/W − 1)·s_c + 2·F_c·f, 0). W, F_c in N; h, s_c in m; f in m/N."""
+    return np.maximum(h - (F_c / W - 1.0) * s_c + 2.0 * F_c * f, 0.0)
+
+
+def after_bottoming(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarray,
+                    f: np.ndarray, f_series: np.ndarray, f_s: np.ndarray, m2: np.ndarray,
+                    F_crush: np.ndarray, depth_available: float) -> AfterBottoming:
+    """A load that bottoms out a crushable layer (crush force F_c = crush stress ×
+    the footprint's overlap with the layer, N; stroke s_c, m): the layer absorbs
+    (F_c − W)·s_c of the energy height h (m, the fall with the hoist's head), and the
+    residual energy (:func:`residual_height`, h_r) meets the deck through the spent
+    layer as a bare drop does: the two-mass model of the load on its contact springs
+    (f_series: the load's underside and the deck's indentation and strip, m/N)
+    against the struck floor's mass m2 (kg) on the framing's compliance f_s (m/N),
+    the envelope over lower drops (:func:`droprig.solver.struck_mass.
+    envelope_two_forces`; CEB Bulletin 187 (1988) two-mass model, Biggs 1964 ch. 5 —
+    from memory), the contact bounded by the crushing of the deck under the footprint
+    F_crush (N; crushed no deeper than ``depth_available``, m) and the framing force
+    by twice the contact force that passes, as :func:`two_forces` does for a bare
+    deck. The framing force is at least 2·F_c (the layer's force applied suddenly,
+    dynamic load factor 2), each force at least the layer's F_c. W in N, f (m/N)
+    the series compliance of the one-mass balance (η = 1 under a layer, Gere 7th ed. §9.10 Eq. 9-94). Checked against a
+    scipy time history of load – layer (crushing, then rigid) – contact spring –
+    struck mass – framing spring (tests/solver/test_after_bottoming.py)."""
+    h_r = residual_height(W, h, F_c, s_c, f)
+    one = np.ones(W.shape)
+    _, F_el, _ = impact_mod.impact_elastic(W, h_r, f, one)
+    F1 = F_el.copy()
+    cap = F_el > F_crush
+    if cap.any():
+        F1[cap], _, _ = crushing.crushing_limited_impact(W[cap], h_r[cap], f[cap], one[cap],
+                                                         F_crush[cap], depth_available)
+    Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W, h_r, f_series, f_s, m2)
+    through = np.maximum(F_crush, F1)
+    Fc = np.where(Fc2 > F_crush, through, Fc2)
+    Ff = np.maximum(np.minimum(Ff2, 2.0 * through), 2.0 * F_c)
+    # never below the layer's force that came before (every force non-decreasing in
+    # the drop height across the bottoming, as the searches need)
+    return AfterBottoming(F_contact=np.maximum(Fc, F_c), F_frame=Ff,
+                          F_one=np.maximum(F1, F_c), h_r=h_r)
 
 
 def crush_depth_available(c: Chain) -> float:
@@ -2067,8 +2171,8 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     # the energy heights above as free falls: less the hoist's lowering speed head
     h_el = fall_from_energy(c, h_el)
     # the two-force points' impact at any height (the searches' fast kernel)
-    kern = (TwoForceKernel(c, np.flatnonzero(imp.two_mass))
-            if imp.two_mass is not None and imp.two_mass.any() and not d.trial else None)
+    kern = (TwoForceKernel(c, np.flatnonzero(imp.searched))
+            if imp.searched is not None and imp.searched.any() and not d.trial else None)
     if s.dynamic_amplification and not d.trial:
         h_el = confirm_amplified_height(c, h_el)
     elif kern is not None:
@@ -2112,7 +2216,12 @@ def inverse_answers(c: Chain) -> InverseAnswers:
         # where the energy at the elastic allowable height already passes the limit,
         # the plastic boundary lies below it and the answer is the elastic height
         # (h_pl = max(h_pl, h_el) below): no search there
-        ask = imp.two_mass & np.isfinite(h_pl) & np.isfinite(h_el) & (h_el > 0.0)
+        # (a crushable layer's points keep the closed form: beyond yield the layer's
+        # work comes off the one-mass balance, η = 1, as beyond_yield has it)
+        two_pl = imp.two_mass if imp.two_mass is not None else np.zeros(d.n, dtype=bool)
+        h_pad = np.where(two_pl, np.nan, h_pl)
+        h_pl = np.where(two_pl, h_pl, np.nan)
+        ask = two_pl & np.isfinite(h_pl) & np.isfinite(h_el) & (h_el > 0.0)
         if ask.any():
             ia = np.flatnonzero(ask)
             below = within(kern, np.searchsorted(kern.idx, ia), h_el[ia]) > 0.0
@@ -2123,6 +2232,7 @@ def inverse_answers(c: Chain) -> InverseAnswers:
                                                          within, kern))
         else:
             h_pl = two_force_height(c, h_pl, within, kern)
+        h_pl = np.where(two_pl, h_pl, h_pad)
     # what sets the plastic height: the ductility or the rotation limit, or the
     # elastic height where that is larger
     with np.errstate(invalid="ignore"):
@@ -2138,13 +2248,14 @@ def inverse_answers(c: Chain) -> InverseAnswers:
         m_allow[capped] = _mass_through_crushing(
             Fa_pos[capped], h_e[capped], f[capped], sm.m_e[capped], imp.F_crush[capped],
             cover, m_allow[capped])
-    if kern is not None:
-        m_allow = two_force_mass(c, kern, m_allow, inp.h)
     if crushable.any():
-        # through the crushable layer that lies there (η = 1 under a layer)
+        # through the crushable layer that lies there (η = 1 under a layer; the
+        # one-mass balance, the search's start where the layer bottoms out)
         m_allow[crushable] = limits.allowable_mass_crushable(
             Fa_pos[crushable], h_e[crushable], comp.f_struct[crushable], F_c[crushable],
             s_c[crushable])
+    if kern is not None:
+        m_allow = two_force_mass(c, kern, m_allow, inp.h)
     # a mat laid on the finished surface over the point: the fall is the datum height
     # H, and the framing's mass share is not taken (η = 1, as the forward model does
     # under protection); inf where the structure alone suffices
@@ -2225,6 +2336,9 @@ class TwoForceKernel:
         self.m_e = sm.m_e[idx]
         self.f_series, self.f_s, self.m2 = comp.f_series[idx], comp.f_s[idx], sm.m2[idx]
         self.env = struck_mass_mod.EnvelopeLookup(self.W, self.f_series, self.f_s, self.m2)
+        # the points on a crushable layer (after_bottoming where it bottoms out)
+        self.pad = pad_two_mass(c)[idx]
+        self.F_c, self.s_c = inp.F_c[idx], inp.s_c[idx]
 
     def forces(self, h: np.ndarray, rows: np.ndarray | None = None,
                need_eta: bool = True) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
@@ -2241,7 +2355,8 @@ class TwoForceKernel:
         F_el = (1.0 + np.sqrt(1.0 + ratio)) * W
         F1 = self._crush_capped(W, he, f, eta, F_crush, F_el)
         Fc2, Ff2 = self.env.at(he, rows)
-        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta)
+        out = self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta)
+        return self._on_pads(out, r, W, he, eta)
 
     def forces_at_mass(self, h: np.ndarray, M: np.ndarray, rows: np.ndarray,
                        need_eta: bool = True) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
@@ -2256,7 +2371,32 @@ class TwoForceKernel:
         F1 = self._crush_capped(W, he, f, eta, F_crush, F_el)
         Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W, he, self.f_series[rows],
                                                        self.f_s[rows], self.m2[rows])
-        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[rows], need_eta)
+        out = self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[rows], need_eta)
+        return self._on_pads(out, rows, W, he, eta)
+
+    def _on_pads(self, out: tuple[np.ndarray, np.ndarray, np.ndarray],
+                 r: slice | np.ndarray, W: np.ndarray, he: np.ndarray, eta: np.ndarray
+                 ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """``out`` (F, F_deck, η_frame) with the rows on a crushable layer replaced by
+        the impact step's forces there: the layer's energy balance
+        (:func:`droprig.solver.impact.impact_crushable`, η as the step's) and, where
+        it bottoms out, :func:`after_bottoming` (the framing's share η)."""
+        p = self.pad[r]
+        if not p.any():
+            return out
+        Ff, F_deck, eta_f = (a.copy() for a in out)
+        Wp, hp, ep = W[p], he[p], eta[p]
+        f, F_c, s_c = self.f[r][p], self.F_c[r][p], self.s_c[r][p]
+        F, _, bot = impact_mod.impact_crushable(Wp, hp, f, ep, F_c, s_c)
+        Fd = F.copy()
+        if bot.any():
+            ab = after_bottoming(Wp[bot], hp[bot], F_c[bot], s_c[bot], f[bot],
+                                 self.f_series[r][p][bot], self.f_s[r][p][bot],
+                                 self.m2[r][p][bot], self.F_crush[r][p][bot], self.depth)
+            F[bot] = ab.F_frame
+            Fd[bot] = np.where(self.soft[r][p][bot], ab.F_contact, ab.F_one)
+        Ff[p], F_deck[p], eta_f[p] = F, Fd, ep
+        return Ff, F_deck, eta_f
 
     def _crush_capped(self, W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
                       F_crush: np.ndarray, F_el: np.ndarray) -> np.ndarray:
@@ -2317,7 +2457,7 @@ def two_force_height(c: Chain, h0: np.ndarray,
     ``top`` (:data:`H_SEARCH_MAX`) where that passes. The same search serves any
     variable the excess grows with as a power ½–1 (the allowable mass,
     :func:`two_force_mass`, with its own ``top``)."""
-    two = c[Impact].two_mass
+    two = c[Impact].searched
     if two is None or not two.any():
         return h0
     live_all = two & np.isfinite(h0)
@@ -2493,7 +2633,7 @@ def two_force_elastic_height(c: Chain, h_el: np.ndarray,
         else:
             Fa_frame = np.minimum(Fa_frame, fa)
 
-    two = c[Impact].two_mass
+    two = c[Impact].searched
     assert two is not None
     if kern is None:
         kern = TwoForceKernel(c, np.flatnonzero(two))
