@@ -34,22 +34,41 @@ REL = 1e-9
 """Hand check against the chain's own arithmetic (same formulas, rounding only)."""
 TH_OVER = 1.0
 """The model's forces are at least the time history's peaks (conservative side)."""
-TH_SPAN = 1.5
-"""... and within this factor of them (the envelope over lower drops and its table's
-margin; measured here 1.04–1.32, the column point the largest before the table's
-correction)."""
+TH_SPAN = 1.8
+"""... and within this factor of them (the envelope over lower drops, its table's
+margin and the framing's free vibration from the pad's stage, 2·F_c, added in full,
+or the energy bound of what the pad leaves; measured here: contact 1.02 at all
+three, framing 1.04 at the column, 1.21 mid-bay, 1.72 under the joist bundle, whose
+peak is the pad's stage, 2·F_c, and whose rest after bottoming is small)."""
+
+
+STEEL = ROOT / "demo_projects" / "steel_erection_floor.droprig"
+CASES = {"column-2/B": (ROOFTOP, "Spreader beam 4 m", 0),
+         "bay-2-3/A-B": (ROOFTOP, "Spreader beam 4 m", 1),
+         "joist-bundle-3/B-C": (STEEL, "Joist bundle J-7", 0)}
+"""The 300 kg "Spreader beam 4 m" of the rooftop demo at column 2/B (7.5, 9.0) and
+at the middle of bay 2-3/A-B (11.25, 4.5), and the 1 814 kg joist bundle of the steel
+demo on grid line 3 at (18.288, 15.24), its footprint partly off pad PAD1: all three
+bottom their pads out at the planned height."""
+
+
+def _chain(demo: Path, load_name: str, xs: list[float], ys: list[float]):
+    p = load_project(demo)
+    zone = p.lift_zones[0]
+    load = next(ld for ld in zone.loads if ld.name == load_name)
+    fm = analysis.build_floor(p.level(zone.level_id), p.settings)
+    geo = analysis.point_geometry(fm, p, np.array(xs), np.array(ys))
+    return evaluate_chain(fm, p, load, geo, v_hoist=zone.hoist_speed)
 
 
 @pytest.fixture(scope="module")
 def spreader_on_pad():
-    """The chain of the 300 kg "Spreader beam 4 m" at column 2/B (7.5, 9.0) and at
-    the middle of bay 2-3/A-B (11.25, 4.5), both on the crushable pads."""
-    p = load_project(ROOFTOP)
-    zone = p.lift_zones[0]
-    load = next(ld for ld in zone.loads if ld.name == "Spreader beam 4 m")
-    fm = analysis.build_floor(p.level(zone.level_id), p.settings)
-    geo = analysis.point_geometry(fm, p, np.array([7.5, 11.25]), np.array([9.0, 4.5]))
-    return evaluate_chain(fm, p, load, geo, v_hoist=zone.hoist_speed)
+    return _chain(ROOFTOP, "Spreader beam 4 m", [7.5, 11.25], [9.0, 4.5])
+
+
+@pytest.fixture(scope="module")
+def joist_on_pad():
+    return _chain(STEEL, "Joist bundle J-7", [18.288], [15.24])
 
 
 def _history(M: float, v0: float, F_pad: float, stroke: float, kc: float, m2: float,
@@ -79,8 +98,8 @@ def _history(M: float, v0: float, F_pad: float, stroke: float, kc: float, m2: fl
     w_lo = math.sqrt(k2 / (M + m2))
     w_hi = math.sqrt(kc * (1.0 / M + 1.0 / m2) + k2 / m2)
     t_end = t_pad + 4.0 * math.pi / w_lo
-    sol = solve_ivp(rhs, (0.0, t_end), [0.0, v0, 0.0, 0.0, 0.0], method="LSODA",
-                    max_step=2.0 * math.pi / w_hi / 30.0, rtol=1e-8, atol=1e-12)
+    sol = solve_ivp(rhs, (0.0, t_end), [0.0, v0, 0.0, 0.0, 0.0], method="RK45",
+                    max_step=2.0 * math.pi / w_hi / 12.0, rtol=1e-7, atol=1e-12)
     x1, v1, x2, _, p = sol.y
     e = np.maximum(x1 - x2 - p, 0.0)
     F = np.minimum(kc * e, np.where(p < stroke, F_pad,
@@ -116,9 +135,9 @@ def test_column_point_by_hand(spreader_on_pad):
     m2, k2 = float(sm.m2[i]), 1.0 / float(comp.f_s[i])
     F_momentum = 2.0 * 300.0 * v_r / (300.0 + m2) * math.sqrt(k2 * m2) + W
     F = float(imp.F[i])
-    # the chain's framing force is the two-mass envelope: above the momentum
-    # estimate, within the envelope's over-read of it (README, two forces)
-    assert F_momentum <= F <= 1.35 * F_momentum
+    # the chain's framing force is the two-mass envelope plus the pad's stage
+    # (2·F_c): above the momentum estimate, within 5 % of it (measured 1.035)
+    assert F_momentum <= F <= 1.05 * F_momentum
     # and far below the rigid punch of the whole residual energy into the column
     # (Gere Eq. 9-94, η = 1, the old after-bottoming force, 4.88 MN)
     F_punch = W * (1.0 + math.sqrt(1.0 + 2.0 * h_r / (W * float(comp.f[i]))))
@@ -134,10 +153,12 @@ def test_column_point_by_hand(spreader_on_pad):
     assert float(imp.F_deck[i]) == pytest.approx(float(ab.F_one[0]), rel=REL)
 
 
-@pytest.mark.parametrize("i", [0, 1], ids=["column-2/B", "bay-2-3/A-B"])
-def test_against_the_time_history(spreader_on_pad, i):
-    c = spreader_on_pad
+@pytest.mark.parametrize("case", list(CASES))
+def test_against_the_time_history(spreader_on_pad, joist_on_pad, case):
+    demo, _, i = CASES[case]
+    c = spreader_on_pad if demo == ROOFTOP else joist_on_pad
     inp, comp, sm, imp = c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+    assert bool(imp.bottomed[i])
     M = float(inp.M[i])
     h = float(energy_fall(c, inp.h)[i])
     Fc_th, Ff_th, v_r = _history(M, math.sqrt(2 * G * h), float(inp.F_c[i]),
