@@ -36,6 +36,7 @@ from droprig.solver.chain import (
     StruckMass,
     energy_fall,
     outputs,
+    residual_height,
     slab_rotation_limit,
 )
 from droprig.solver.drift import resolve_drift
@@ -279,7 +280,14 @@ def _impact_steps(sheet: _Sheet) -> None:
         "length", _SRC_GERE)
     hk = "h_e" if v_h > 0.0 else "h"
     two = _two(sheet)
-    if two:
+    # a crushable layer that bottoms out: the rest by the two-mass stage
+    after = (imp.searched is not None and bool(imp.searched[0]) and not two
+             and bool(imp.bottomed[0]))
+    if after:
+        add("Dynamic factor of the force on the framing", "K", "K = F / W",
+            {"F": (imp.F[0], "force"), "W": (W, "force")}, imp.K[0], "dimensionless",
+            _SRC_TWO_MASS)
+    elif two:
         # the framing force comes from the two-mass model: K is that force over W
         _two_force_steps(sheet, W, h_e)
         add("Dynamic factor of the force on the framing", "K", "K = F_f / W",
@@ -291,11 +299,27 @@ def _impact_steps(sheet: _Sheet) -> None:
             {"η": (sm.eta[0], "dimensionless"), hk: (h_e, "length"),
              "δ_st": (imp.d_st[0], "length")}, imp.K[0],
             "dimensionless", _SRC_GERE)
-    add("Peak impact force" + (" on the framing" if two else ""),
+    if after:
+        # the energy the layer leaves and the force of the rest of the fall
+        F_c, s_c = float(inp.F_c[0]), float(inp.s_c[0])
+        add("Energy height left when the pad bottoms out (its crush work taken off, "
+            "the fall under its force added)", "h_r",
+            f"h_r = {hk} − (F_c/W − 1)·s_c + 2·F_c·f",
+            {hk: (h_e, "length"), "F_c": (F_c, "force"), "W": (W, "force"),
+             "s_c": (s_c, "length"), "f": (comp.f[0], "compliance")},
+            float(residual_height(np.array([W]), np.array([h_e]), np.array([F_c]),
+                                  np.array([s_c]), comp.f[:1])[0]),
+            "length", "energy balance (common practice, no source); Biggs 1964 ch. 2 "
+            "(dynamic load factor 2, from memory)")
+    add("Peak impact force" + (" on the framing" if two or after else ""),
         "F", "F = K·W" if imp.crush[0] == 0 else
-        "F = crush force, or elastic after bottoming (droprig.solver.impact.impact_crushable)",
+        ("F = min(two-mass envelope at h_r (≤ 2·max(F_crush, F_1)) + 2·F_c, energy "
+         "bound of h − (F_c/W − 1)·s_c), at least min(2·F_c, energy bound of h) "
+         "(droprig.solver.chain.after_bottoming)" if after else
+         "F = crush force, or elastic after bottoming "
+         "(droprig.solver.impact.impact_crushable)"),
         {"K": (imp.K[0], "dimensionless"), "W": (W, "force")},
-        imp.F[0], "force", _SRC_TWO_MASS if two else _SRC_GERE)
+        imp.F[0], "force", _SRC_TWO_MASS if two or after else _SRC_GERE)
     add("Crushing force of the deck concrete under the footprint (bound on the contact "
         "force)", "F_crush", "F_crush = DIF·f_cm·√(A_c1/A_c0)·A_c0 ≤ 3·DIF·f_cm·A_c0",
         {"A_c0": (inp.foot_l[0] * inp.foot_w[0], "area"),
