@@ -958,7 +958,9 @@ def residual_height(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarr
 
 def after_bottoming(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarray,
                     f: np.ndarray, f_series: np.ndarray, f_s: np.ndarray, m2: np.ndarray,
-                    F_crush: np.ndarray, depth_available: float) -> AfterBottoming:
+                    F_crush: np.ndarray, depth_available: float,
+                    envelope: Callable[[np.ndarray], tuple[np.ndarray, np.ndarray]]
+                    | None = None) -> AfterBottoming:
     """A load that bottoms out a crushable layer (crush force F_c = crush stress ×
     the footprint's overlap with the layer, N; stroke s_c, m): the layer absorbs
     (F_c − W)·s_c of the energy height h (m, the fall with the hoist's head), and the
@@ -984,7 +986,9 @@ def after_bottoming(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarr
     layer (crushing, then rigid) – contact spring – struck mass – framing spring
     (tests/solver/test_after_bottoming.py: framing 1.04–1.72 ×, contact 1.02 × the
     history; the one-mass balance it replaces read 0.77–0.86 × the history's
-    framing force for the rooftop demo's 4.2 t unit)."""
+    framing force for the rooftop demo's 4.2 t unit). ``envelope(h_r)``: the
+    envelope's (contact, framing) forces at these points (the kernel's
+    :class:`droprig.solver.struck_mass.EnvelopeLookup`; the same numbers)."""
     h_r = residual_height(W, h, F_c, s_c, f)
     one = np.ones(W.shape)
     _, F_el, _ = impact_mod.impact_elastic(W, h_r, f, one)
@@ -993,7 +997,10 @@ def after_bottoming(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarr
     if cap.any():
         F1[cap], _, _ = crushing.crushing_limited_impact(W[cap], h_r[cap], f[cap], one[cap],
                                                          F_crush[cap], depth_available)
-    Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W, h_r, f_series, f_s, m2)
+    if envelope is None:
+        Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W, h_r, f_series, f_s, m2)
+    else:
+        Fc2, Ff2 = envelope(h_r)
     through = np.maximum(F_crush, F1)
     Fc = np.where(Fc2 > F_crush, through, Fc2)
     # the framing is linear: its free vibration from the layer's stage (amplitude at
@@ -2393,11 +2400,11 @@ class TwoForceKernel:
         Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W, he, self.f_series[rows],
                                                        self.f_s[rows], self.m2[rows])
         out = self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[rows], need_eta)
-        return self._on_pads(out, rows, W, he, eta)
+        return self._on_pads(out, rows, W, he, eta, mass=True)
 
     def _on_pads(self, out: tuple[np.ndarray, np.ndarray, np.ndarray],
-                 r: slice | np.ndarray, W: np.ndarray, he: np.ndarray, eta: np.ndarray
-                 ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+                 r: slice | np.ndarray, W: np.ndarray, he: np.ndarray, eta: np.ndarray,
+                 mass: bool = False) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         """``out`` (F, F_deck, η_frame) with the rows on a crushable layer replaced by
         the impact step's forces there: the layer's energy balance
         (:func:`droprig.solver.impact.impact_crushable`, η as the step's) and, where
@@ -2411,9 +2418,13 @@ class TwoForceKernel:
         F, _, bot = impact_mod.impact_crushable(Wp, hp, f, ep, F_c, s_c)
         Fd = F.copy()
         if bot.any():
+            rows_all = np.arange(self.W.size)[r]
+            env = (None if mass else
+                   lambda hr: self.env.at(hr, rows_all[p][bot]))
             ab = after_bottoming(Wp[bot], hp[bot], F_c[bot], s_c[bot], f[bot],
                                  self.f_series[r][p][bot], self.f_s[r][p][bot],
-                                 self.m2[r][p][bot], self.F_crush[r][p][bot], self.depth)
+                                 self.m2[r][p][bot], self.F_crush[r][p][bot], self.depth,
+                                 env)
             F[bot] = ab.F_frame
             Fd[bot] = np.where(self.soft[r][p][bot], ab.F_contact, ab.F_one)
         Ff[p], F_deck[p], eta_f[p] = F, Fd, ep
@@ -2629,8 +2640,27 @@ def two_force_mass(c: Chain, kern: TwoForceKernel, m0: np.ndarray,
             return np.maximum(F / Fa_frame_k[rows], F_deck / Fa_deck_k[rows]) - 1.0
 
     start = np.where(np.isfinite(m0) & (m0 > 0.0), m0, np.nan)
-    out = two_force_height(c, start, excess, kern, top=MASS_SEARCH_MAX)
-    return np.where(np.isnan(start), m0, out)
+    keep = _pads_passing(c, kern, start, excess)
+    out = two_force_height(c, np.where(keep, np.nan, start), excess, kern,
+                           top=MASS_SEARCH_MAX)
+    return np.where(np.isnan(start) | keep, m0, out)
+
+
+def _pads_passing(c: Chain, kern: TwoForceKernel, x0: np.ndarray,
+                  excess: Callable[[TwoForceKernel, np.ndarray, np.ndarray], np.ndarray]
+                  ) -> np.ndarray:
+    """The points on a crushable pad (kernel pad rows) whose closed-form answer
+    ``x0`` (the one-mass balance with the layer's work) already passes on the forward
+    impact (``excess`` ≤ 0 there), bool per point: they keep it (conservative: the
+    forward chain allows at least that), and the search runs only where it fails
+    (the two-mass stage after bottoming above the one-mass force)."""
+    out = np.zeros(c.drop.n, dtype=bool)
+    rows = np.flatnonzero(kern.pad & np.isfinite(x0[kern.idx]) & (x0[kern.idx] > 0.0))
+    if rows.size:
+        with np.errstate(divide="ignore", invalid="ignore"):
+            r = excess(kern, rows, x0[kern.idx[rows]])
+        out[kern.idx[rows[r <= 0.0]]] = True
+    return out
 
 
 def two_force_elastic_height(c: Chain, h_el: np.ndarray,
@@ -2665,7 +2695,9 @@ def two_force_elastic_height(c: Chain, h_el: np.ndarray,
         with np.errstate(divide="ignore", invalid="ignore"):
             return np.maximum(F / Fa_frame_k[rows], F_deck / Fa_deck_k[rows]) - 1.0
 
-    h = two_force_height(c, h_el, excess, kern)
+    keep = _pads_passing(c, kern, h_el, excess)
+    h = two_force_height(c, np.where(keep, np.nan, h_el), excess, kern)
+    h = np.where(keep, h_el, h)
     for _ in range(3):
         live = two & np.isfinite(h) & (h > 0.0)
         if not live.any():
