@@ -24,7 +24,7 @@ sysdeps-test:
 
 test: sysdeps-test $(STAMP)
 	$(PY) -m mypy
-	QT_QPA_PLATFORM=offscreen $(PY) -m pytest -q
+	QT_QPA_PLATFORM=offscreen $(PY) -m pytest -q -n auto --dist loadfile
 
 demo: sysdeps $(STAMP)
 	$(PY) -m droprig demo

@@ -10,7 +10,7 @@ Run: ``.venv/bin/python benchmarks/bench_solver.py [--quick]``
 4. against a naive per-point Python loop over the same code;
 5. against building and solving a PyNiteFEA grillage per drop point.
 
-Targets from the brief: demo ≤ 30 ms median, 10⁶ points ≤ 1 s and ≤ 500 MB,
+Targets from issue 9: demo warm ≤ 35 ms median, 10⁶ points ≤ 1.2 s and ≤ 500 MB,
 ≥ 200× a naive loop, ≥ 10⁴× PyNiteFEA per point.
 """
 
@@ -395,7 +395,7 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
         t_cold = _median_time(cold, 3 if q else 11)
         npts = analysis.analyse(proj).n_points
         print(f"   {name}: {warm * 1e3:.1f} ms warm, {t_cold * 1e3:.1f} ms cold "
-              f"({npts} drop points × loads)  target ≤ 30 ms")
+              f"({npts} drop points × loads)  target ≤ 35 ms")
         # dynamic amplification off / on (the project setting; warm, median)
         amp = {}
         for flag in (False, True):
@@ -443,7 +443,7 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
     print(f"   load path + compliance + mass: {mil['t_path']:.2f} s, "
           f"peak {mil['peak_MB_path']:.0f} MB")
     print(f"   full analysis with all checks: {mil['t_full']:.2f} s, "
-          f"peak {mil['peak_MB_full']:.0f} MB  target ≤ 1 s, ≤ 500 MB")
+          f"peak {mil['peak_MB_full']:.0f} MB  target ≤ 1.2 s, ≤ 500 MB")
     nv = evaluate.loadpath_chunk()
     naive = bench_naive(proj0, 100 if q else 500, nv)
     out["naive"] = naive

@@ -158,3 +158,11 @@ def fmt_utilisation(u: float | None) -> str:
     if math.isinf(u):  # -inf: no meaning for a utilisation
         return "none"
     return f"{u:.2f}"
+
+
+def fmt_utilisation_check(u: float | None, check: str) -> str:
+    """:func:`fmt_utilisation` with the check that sets it in brackets (``3.39
+    (shear)``; the ratio alone where no check is named): the one text of a bay's
+    largest U in the results table, the permit's cells and the inspector."""
+    util = fmt_utilisation(u)
+    return f"{util} ({check.replace('_', ' ')})" if check else util

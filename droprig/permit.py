@@ -37,7 +37,7 @@ from typing import Literal
 
 from droprig import units
 from droprig.model import Level, Project, ProtectionArea, Rect, bay_ranges, bays
-from droprig.outcomes import fmt_utilisation
+from droprig.outcomes import fmt_utilisation_check
 from droprig.solver import LIMIT_MARGIN, BaySummary, Results, pad_crush_stress
 from droprig.units import UnitSystem
 
@@ -358,9 +358,7 @@ class BayVerdict:
             if self.allowable_pad is not None and self.allowable_fall is not None:
                 allow += (f"; fall onto pad {self.allowable_pad} "
                           f"{fmt_height(self.allowable_fall, system)}")
-        util = fmt_utilisation(self.max_utilisation)
-        if self.utilisation_check:
-            util += f" ({self.utilisation_check.replace('_', ' ')})"
+        util = fmt_utilisation_check(self.max_utilisation, self.utilisation_check)
         return {
             "verdict": VERDICT_WORDS[self.verdict],
             "planned": fmt_height(self.planned_drop_height, system, rounding="nearest"),

@@ -61,7 +61,7 @@ from droprig.model import (
     corridor_problem,
     lift_point_tags,
 )
-from droprig.outcomes import fmt_utilisation
+from droprig.outcomes import fmt_utilisation_check
 from droprig.permit import derive_conditions
 
 # ------------------------------------------------------------------ messages
@@ -1182,9 +1182,15 @@ class Inspector(QWidget):
                 cells = v.cells(system) if v is not None else None
                 allow = cells["allowable"] if cells else "none" if confirmed \
                     else style.CONFIRMING
+                # max U with the check that sets it, the table's own cell; the
+                # worst point's check can be another (seen under Xvfb on the rooftop
+                # demo: "max U 6.85" beside "governing: … (web yielding)" while the
+                # table read "6.85 (shear)")
+                util = cells["utilisation"] if cells else fmt_utilisation_check(
+                    b.max_utilisation, b.utilisation_check)
                 html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
-                         f"{b.load_name}<br>max U {fmt_utilisation(b.max_utilisation)}; "
-                         f"allowable drop {html_escape(allow)}<br>governing: "
+                         f"{b.load_name}<br>max U {html_escape(util)}; "
+                         f"allowable drop {html_escape(allow)}<br>worst point: "
                          f"{b.governing_member} ({b.governing_check.replace('_', ' ')})")
                 if cells:
                     html += (f"<br><b>{html_escape(cells['verdict'])}</b>; max hook "

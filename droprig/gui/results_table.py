@@ -37,7 +37,7 @@ from droprig import units
 from droprig.gui import style
 from droprig.gui.document import Document, Selection
 from droprig.model import Project
-from droprig.outcomes import fmt_utilisation
+from droprig.outcomes import fmt_utilisation_check
 from droprig.permit import BayVerdict, PermitConditions, derive_conditions, fmt_height
 from droprig.solver import BaySummary, Results
 from droprig.texts import CAUTION
@@ -213,10 +213,7 @@ class BayResultsModel(QAbstractTableModel):
         not derived from untried limits; ``tests/gui/test_confirming.py`` checks the
         two agree), :data:`CONFIRMING` for the rest."""
         if key == "util":
-            util = fmt_utilisation(b.max_utilisation)
-            if b.utilisation_check:
-                util += f" ({b.utilisation_check.replace('_', ' ')})"
-            return util
+            return fmt_utilisation_check(b.max_utilisation, b.utilisation_check)
         if key == "planned":
             return fmt_height(b.planned_drop_height, self._system, rounding="nearest")
         return CONFIRMING

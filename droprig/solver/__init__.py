@@ -59,6 +59,8 @@ from droprig.solver.results import (
 from droprig.solver.timehistory import History
 from droprig.solver.trace import trace_point
 from droprig.solver.verification import (
+    SKIP_OFF_PANEL,
+    SKIP_OVER_SUPPORT,
     PointVerification,
     Verification,
     verification_table,
@@ -127,6 +129,8 @@ __all__ = [
     "PLASTIC",
     "RESPONSES",
     "RESULT_KEYS",
+    "SKIP_OFF_PANEL",
+    "SKIP_OVER_SUPPORT",
     "TH_MARGIN",
     "AdviceKind",
     "AnalysisCancelledError",

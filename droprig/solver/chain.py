@@ -282,12 +282,15 @@ class LoadInputs:
 
 
 def load_inputs(c: Chain) -> LoadInputs:
-    """:class:`LoadInputs` of the drop (common practice for the 1:1 spread, no source)."""
+    """:class:`LoadInputs` of the drop (common practice for the 1:1 spread, no source):
+    the loads' own values per point, the layers under them
+    (:func:`_protection_inputs`), a trial mat (:mod:`droprig.solver.confirm`), the
+    drop heights (:func:`_drop_heights`) and the contact on the deck
+    (:func:`_contact_sides`, :func:`_footprint_on_deck`)."""
     d = c.drop
     if d.bare is not None:
         return _bare_load_inputs(d.bare, d.n)
-    n, loads, li, geo = d.n, d.loads, d.li, d.geo
-    lv = d.fm.level
+    loads, geo = d.loads, d.geo
     W = d.per_point([ld.weight for ld in loads])
     M = d.per_point([ld.mass for ld in loads])
     fl = d.per_point([ld.footprint_length for ld in loads])
@@ -295,69 +298,8 @@ def load_inputs(c: Chain) -> LoadInputs:
     # the load's own underside (skid, base frame, dunnage) in series: 1/k_load, 0 = rigid
     f_load = d.per_point([0.0 if ld.contact_stiffness is None else 1.0 / ld.contact_stiffness
                           for ld in loads])
-    t_mat = np.zeros(n)
-    f_mat = np.zeros(n)
-    F_c = np.full(n, np.inf)
-    s_c = np.zeros(n)
-    crushable = np.zeros(n, dtype=bool)
-    # the contact: the whole footprint for a flat landing; for a load landing tilted
-    # on one edge, the strip along its shorter edge (the smaller contact of the four
-    # edges of droprig.solver.footprint.tilted_edges), centred on the drop point,
-    # carrying the whole force (common practice, no source)
-    cl, cw = fl, fw
-    if d.landing == "tilted":
-        cl = np.minimum(fl, fw)
-        cw = np.minimum(footprint_mod.EDGE_CONTACT_WIDTH, np.maximum(fl, fw))
-    elif d.landing != "flat":
-        raise ValueError(f"landing: {d.landing!r} is not allowed; allowed: {LANDINGS}")
-    any_mat = bool(np.any(geo.protection >= 0))
-    prot = d.project.protection_areas
-    for i, pa in enumerate(prot):
-        if not any_mat or pa.level_id != lv.id:
-            continue
-        sel = geo.protection == i
-        if not sel.any():
-            continue
-        t_mat[sel] = pa.thickness
-        # pads by area: the part of the footprint on the layer — this one and every
-        # layer of the same kind and thickness it abuts, which the footprint presses
-        # at the same moment — the less of the two footprint orientations
-        # (conservative); a layer of another thickness is not credited
-        together = [j for j, o in enumerate(prot)
-                    if o.level_id == lv.id and o.kind == pa.kind
-                    and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
-        # (a tilted landing presses the layers under its edge strip only)
-        xs, ys, fls, fws = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
-        A_fp = fl[sel] * fw[sel]
-        per_orient = []
-        stroke = np.full(xs.shape, np.inf)
-        for along_x in (True, False):
-            rect = pads.footprint_rect(xs, ys, fls, fws, along_x)
-            total = np.zeros(xs.shape)
-            for j in together:
-                o = prot[j]
-                r = o.area
-                A_ov = pads.rect_overlap_area(rect, (r.x0, r.y0, r.x1, r.y1))
-                if o.kind == "spring":
-                    if o.modulus is not None:
-                        total += pads.spring_mat_stiffness(o.modulus, o.thickness, A_ov)
-                    else:  # older files: the stiffness for the load's own footprint
-                        total += float(o.stiffness) * A_ov / A_fp  # type: ignore[arg-type]
-                else:
-                    total += pads.crushable_pad_force(pad_crush_stress(d.project, o), A_ov)
-                    stroke = np.where(A_ov > 0.0,
-                                      np.minimum(stroke, float(o.crush_stroke)),  # type: ignore[arg-type]
-                                      stroke)
-            per_orient.append(total)
-        credit = np.minimum(per_orient[0], per_orient[1])
-        if pa.kind == "spring":
-            f_mat[sel] = np.where(credit > 0.0, 1.0 / np.where(credit > 0.0, credit, 1.0),
-                                  0.0)
-        else:
-            crushable[sel] = True
-            F_c[sel] = credit
-            s_c[sel] = np.where(np.isfinite(stroke), stroke,
-                                float(pa.crush_stroke))  # type: ignore[arg-type]
+    cl, cw = _contact_sides(d, fl, fw)
+    t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw)
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
     # is that less its thickness
@@ -367,6 +309,107 @@ def load_inputs(c: Chain) -> LoadInputs:
         trial = np.isfinite(d.mat_k) & (d.mat_k > 0.0)
         f_mat = np.where(trial, 1.0 / np.where(trial, d.mat_k, 1.0), f_mat)
         protected = protected | trial
+    H, h = _drop_heights(d, t_mat)
+    foot_l, foot_w = _footprint_on_deck(d, cl, cw, t_mat)
+    lb = np.minimum(foot_l, foot_w)
+    return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
+                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
+                      foot_w=foot_w, lb=lb, protected=protected)
+
+
+def _contact_sides(d: Drop, fl: np.ndarray, fw: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The contact's sides (m): the whole footprint ``fl`` × ``fw`` for a flat landing;
+    for a load landing tilted on one edge, the strip along its shorter edge (the
+    smaller contact of the four edges of
+    :func:`droprig.solver.footprint.tilted_edges`), centred on the drop point,
+    carrying the whole force (common practice, no source)."""
+    if d.landing == "tilted":
+        return (np.minimum(fl, fw),
+                np.minimum(footprint_mod.EDGE_CONTACT_WIDTH, np.maximum(fl, fw)))
+    if d.landing != "flat":
+        raise ValueError(f"landing: {d.landing!r} is not allowed; allowed: {LANDINGS}")
+    return fl, fw
+
+
+def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
+                       cw: np.ndarray) -> tuple[np.ndarray, ...]:
+    """Per point, what the protection area under it gives (:class:`LoadInputs`): mat
+    thickness ``t_mat`` (m), spring mat compliance ``f_mat`` (m/N), crush force
+    ``F_c`` (N, ∞ none), stroke ``s_c`` (m) and ``crushable`` — pads by area
+    (:func:`_layer_credit`) for the contact ``cl`` × ``cw`` of the footprint
+    ``fl`` × ``fw`` (m)."""
+    n, geo, lv = d.n, d.geo, d.fm.level
+    t_mat = np.zeros(n)
+    f_mat = np.zeros(n)
+    F_c = np.full(n, np.inf)
+    s_c = np.zeros(n)
+    crushable = np.zeros(n, dtype=bool)
+    any_mat = bool(np.any(geo.protection >= 0))
+    prot = d.project.protection_areas
+    for i, pa in enumerate(prot):
+        if not any_mat or pa.level_id != lv.id:
+            continue
+        sel = geo.protection == i
+        if not sel.any():
+            continue
+        t_mat[sel] = pa.thickness
+        credit, stroke = _layer_credit(d, i, sel, fl, fw, cl, cw)
+        if pa.kind == "spring":
+            f_mat[sel] = np.where(credit > 0.0, 1.0 / np.where(credit > 0.0, credit, 1.0),
+                                  0.0)
+        else:
+            crushable[sel] = True
+            F_c[sel] = credit
+            s_c[sel] = np.where(np.isfinite(stroke), stroke,
+                                float(pa.crush_stroke))  # type: ignore[arg-type]
+    return t_mat, f_mat, F_c, s_c, crushable
+
+
+def _layer_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray, fw: np.ndarray,
+                  cl: np.ndarray, cw: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Pads by area at the points ``sel`` on protection area ``i``: the part of the
+    footprint on the layer — this one and every layer of the same kind and thickness
+    it abuts, which the footprint presses at the same moment — the less of the two
+    footprint orientations (conservative); a layer of another thickness is not
+    credited. Returns the credit (spring stiffness N/m, or crush force N) and the
+    least stroke of the crushable layers pressed (m, inf none). A tilted landing
+    presses the layers under its edge strip only (``cl`` × ``cw``)."""
+    prot, lv, geo = d.project.protection_areas, d.fm.level, d.geo
+    pa = prot[i]
+    together = [j for j, o in enumerate(prot)
+                if o.level_id == lv.id and o.kind == pa.kind
+                and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+    xs, ys, fls, fws = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
+    A_fp = fl[sel] * fw[sel]
+    per_orient = []
+    stroke = np.full(xs.shape, np.inf)
+    for along_x in (True, False):
+        rect = pads.footprint_rect(xs, ys, fls, fws, along_x)
+        total = np.zeros(xs.shape)
+        for j in together:
+            o = prot[j]
+            r = o.area
+            A_ov = pads.rect_overlap_area(rect, (r.x0, r.y0, r.x1, r.y1))
+            if o.kind == "spring":
+                if o.modulus is not None:
+                    total += pads.spring_mat_stiffness(o.modulus, o.thickness, A_ov)
+                else:  # older files: the stiffness for the load's own footprint
+                    total += float(o.stiffness) * A_ov / A_fp  # type: ignore[arg-type]
+            else:
+                total += pads.crushable_pad_force(pad_crush_stress(d.project, o), A_ov)
+                stroke = np.where(A_ov > 0.0,
+                                  np.minimum(stroke, float(o.crush_stroke)),  # type: ignore[arg-type]
+                                  stroke)
+        per_orient.append(total)
+    return np.minimum(per_orient[0], per_orient[1]), stroke
+
+
+def _drop_heights(d: Drop, t_mat: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The drop height ``H`` on the datum (the trial's ``Drop.H``, else each load's
+    :func:`planned_height`, m) and the free fall ``h`` = H − t_mat onto the struck
+    surface (m; a trial height under a pad's top rests on the pad; a planned one
+    there is refused, :func:`_refuse_below_pad`)."""
+    n, loads, li, lv = d.n, d.loads, d.li, d.fm.level
     if d.H is not None:
         H = np.asarray(d.H, float).copy()
     else:
@@ -379,19 +422,22 @@ def load_inputs(c: Chain) -> LoadInputs:
         h = np.maximum(h, 0.0)  # a trial height under a pad's top: resting on the pad
     elif n and float(np.min(h)) < 0.0:
         _refuse_below_pad(loads, li, lv, t_mat, H)
+    return H, h
+
+
+def _footprint_on_deck(d: Drop, cl: np.ndarray, cw: np.ndarray,
+                       t_mat: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The contact ``cl`` × ``cw`` spread 1:1 through a mat of thickness ``t_mat``,
+    then the part that bears on the deck: cut at the deck's edges and over openings
+    (:func:`droprig.solver.footprint.footprint_on_deck`), each side at least
+    :data:`MIN_CONTACT_SIDE` (m)."""
+    lv, geo = d.fm.level, d.geo
     spread = 2.0 * t_mat
-    # the part of the contact that bears on the deck: cut at the deck's edges and
-    # over openings (droprig.solver.footprint.footprint_on_deck)
     ext = lv.grid.extent
     foot_l, foot_w, _share = footprint_mod.footprint_on_deck(
         geo.x, geo.y, cl + spread, cw + spread, (ext.x0, ext.y0, ext.x1, ext.y1),
         tuple((o.x0, o.y0, o.x1, o.y1) for o in lv.deck.openings))
-    foot_l = np.maximum(foot_l, MIN_CONTACT_SIDE)
-    foot_w = np.maximum(foot_w, MIN_CONTACT_SIDE)
-    lb = np.minimum(foot_l, foot_w)
-    return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
-                      F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
-                      foot_w=foot_w, lb=lb, protected=protected)
+    return np.maximum(foot_l, MIN_CONTACT_SIDE), np.maximum(foot_w, MIN_CONTACT_SIDE)
 
 
 _SAME_THICKNESS = 1e-3
@@ -1161,10 +1207,7 @@ def on_contact(checks: dict[str, Check], imp: Impact) -> dict[str, Check]:
     out = dict(checks)
     for name in CONTACT_CHECKS:
         if name in out:
-            sc = _scaled(out[name], A)
-            out[name] = Check(name=sc.name, U=sc.U_at(imp.F), F_allow=sc.F_allow,
-                              member=sc.member, unit=sc.unit, exist=sc.exist,
-                              resist=sc.resist, U_at=sc.U_at)
+            out[name] = at_force(_scaled(out[name], A), imp.F)
     return out
 
 
@@ -1290,21 +1333,65 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
     (the energy bounds at the fall plus the hoist's head, :func:`energy_fall`);
     ``th_points`` (bool per point): run the points' own time history at exactly these
     points (the inverse answers re-use the forward step's choice) instead of choosing
-    them."""
-    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
+    them. The bounds (:func:`_amplified_bounds`) as factors on the chain's force
+    (:func:`_bound_factors`), lowered to the points' own time history where it runs
+    (:func:`_with_histories`)."""
+    d = c.drop
     if not d.fm.settings.dynamic_amplification:
-        one = np.ones(d.n)
-        names = ("flexure", "shear", "web_yielding", "web_crippling", "deck_flexure",
-                 "deck_punching")
-        return DynamicAmplification(mass_ratio=np.full(d.n, np.nan),
-                                    compliance_ratio=np.full(d.n, np.nan), A_force=one,
-                                    A_moment=one, A_shear=one, A_deflection=one,
-                                    F_bound=np.full(d.n, np.inf),
-                                    factor=dict.fromkeys(names, one),
-                                    set_by=dict.fromkeys(("local", "moment", "shear",
-                                                          "deflection"),
-                                                         np.zeros(d.n, int)))
+        return _no_amplification(d.n)
     h = energy_fall(c, h)
+    b = _amplified_bounds(c, h, imp)
+    factor = _bound_factors(imp, b.forces)
+    th, hist = _point_histories(c, h, imp.F, factor, th_points)
+    set_by = dict(b.forces.set_by)
+    A_D_bound = factor["deflection"]
+    if hist is not None:
+        factor, set_by = _with_histories(d.n, th, hist, factor, set_by)
+    A_D = factor.pop("deflection")
+    return DynamicAmplification(mass_ratio=b.a.mass_ratio,
+                                compliance_ratio=b.a.compliance_ratio,
+                                A_force=factor["web_yielding"], A_moment=factor["flexure"],
+                                A_shear=factor["shear"], A_deflection=A_D,
+                                F_bound=np.minimum(b.rigid, np.where(b.holds, b.F_cap,
+                                                                     np.inf)),
+                                factor=factor, set_by=set_by, th=th, history=hist,
+                                A_deflection_bound=A_D_bound, F_energy=b.F_energy)
+
+
+def _no_amplification(n: int) -> DynamicAmplification:
+    """The setting off: every factor 1, no bound (n points)."""
+    one = np.ones(n)
+    names = ("flexure", "shear", "web_yielding", "web_crippling", "deck_flexure",
+             "deck_punching")
+    return DynamicAmplification(mass_ratio=np.full(n, np.nan),
+                                compliance_ratio=np.full(n, np.nan), A_force=one,
+                                A_moment=one, A_shear=one, A_deflection=one,
+                                F_bound=np.full(n, np.inf),
+                                factor=dict.fromkeys(names, one),
+                                set_by=dict.fromkeys(("local", "moment", "shear",
+                                                      "deflection"),
+                                                     np.zeros(n, int)))
+
+
+@dataclass(frozen=True, eq=False)
+class _Bounds:
+    """The amplification's inputs at the points: the table's answer ``a``
+    (:func:`droprig.solver.amplification.amplification`), the rigid-base bound
+    ``rigid`` (N), the crushing cap ``F_cap`` (N) and whether its stroke ``holds``,
+    the member energy force ``F_energy`` (N) and the amplified forces ``forces``
+    (:func:`droprig.solver.amplification.amplified_forces`)."""
+
+    a: amp_mod.Amplification
+    rigid: np.ndarray
+    F_cap: np.ndarray
+    holds: np.ndarray
+    F_energy: np.ndarray
+    forces: amp_mod.AmplifiedForces
+
+
+def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
+    """The table, the bounds and the amplified forces of the energy heads ``h`` (m)."""
+    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
     crushable = inp.crushable
     # the elastic contact: through a crushable layer (rigid until it crushes) the
     # load's underside alone, else the deck, mats and the load's underside
@@ -1342,6 +1429,14 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
     forces = amp_mod.amplified_forces(a, imp.F, F_ref, rigid, F_cap, holds,
                                       bottomed=imp.bottomed | imp.deck_through,
                                       F_energy=F_energy)
+    return _Bounds(a=a, rigid=rigid, F_cap=F_cap, holds=holds, F_energy=F_energy,
+                   forces=forces)
+
+
+def _bound_factors(imp: Impact, forces: amp_mod.AmplifiedForces) -> dict[str, np.ndarray]:
+    """The amplified forces as factors (≥ 1) on the chain's force F of each check
+    family and ``deflection``; the deck's checks read the deck's force F_deck (F where
+    one force): the larger of it and the bound on the contact force."""
     F = imp.F
     with np.errstate(divide="ignore", invalid="ignore"):
         def ratio(Fx: np.ndarray) -> np.ndarray:
@@ -1349,40 +1444,35 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
             return np.where(np.isfinite(r_), np.maximum(r_, 1.0), 1.0)
     local, A_M, A_V, A_D = (ratio(forces.local), ratio(forces.moment),
                             ratio(forces.shear), ratio(forces.deflection))
-    # the deck's checks read the deck's force F_deck (F where one force): the larger
-    # of it and the bound on the contact force
     F_deck = F * imp.deck_ratio
     lb = forces.local_bound if forces.local_bound is not None else forces.local
     with np.errstate(divide="ignore", invalid="ignore"):
         A_deck = np.where(F_deck > 0.0, np.maximum(F_deck, lb) / np.where(F_deck > 0.0,
                                                                            F_deck, 1.0), 1.0)
     A_deck = np.where(np.isfinite(A_deck), np.maximum(A_deck, 1.0), 1.0)
-    factor = {"flexure": A_M, "shear": A_V, "web_yielding": local,
-              "web_crippling": local, "deck_flexure": A_deck, "deck_punching": A_deck,
-              "deflection": A_D}
-    th, hist = _point_histories(c, h, F, factor, th_points)
-    set_by = dict(forces.set_by)
-    A_D_bound = A_D
-    if hist is not None:
-        idx = np.flatnonzero(th)
-        got = _th_factors(hist)
-        factor = {k: v.copy() for k, v in factor.items()}
-        lower = {}
-        for k in factor:
-            lower[k] = np.zeros(d.n, dtype=bool)
-            lower[k][idx] = got[k] < factor[k][idx]
-            factor[k][idx] = np.minimum(factor[k][idx], got[k])
-        ti = amp_mod.SET_BY.index("point time history")
-        keyed = {"local": "web_yielding", "moment": "flexure", "shear": "shear",
-                 "deflection": "deflection"}
-        set_by = {k: np.where(lower[keyed[k]], ti, v) for k, v in set_by.items()}
-    A_D = factor.pop("deflection")
-    return DynamicAmplification(mass_ratio=a.mass_ratio, compliance_ratio=a.compliance_ratio,
-                                A_force=factor["web_yielding"], A_moment=factor["flexure"],
-                                A_shear=factor["shear"], A_deflection=A_D,
-                                F_bound=np.minimum(rigid, np.where(holds, F_cap, np.inf)),
-                                factor=factor, set_by=set_by, th=th, history=hist,
-                                A_deflection_bound=A_D_bound, F_energy=F_energy)
+    return {"flexure": A_M, "shear": A_V, "web_yielding": local,
+            "web_crippling": local, "deck_flexure": A_deck, "deck_punching": A_deck,
+            "deflection": A_D}
+
+
+def _with_histories(n: int, th: np.ndarray, hist: pointhistory.PointHistory,
+                    factor: dict[str, np.ndarray], set_by: dict[str, np.ndarray]
+                    ) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray]]:
+    """The factors at the points ``th`` lowered to their own time history's where
+    that is less (:func:`_th_factors`), and what set them marked so."""
+    idx = np.flatnonzero(th)
+    got = _th_factors(hist)
+    factor = {k: v.copy() for k, v in factor.items()}
+    lower = {}
+    for k in factor:
+        lower[k] = np.zeros(n, dtype=bool)
+        lower[k][idx] = got[k] < factor[k][idx]
+        factor[k][idx] = np.minimum(factor[k][idx], got[k])
+    ti = amp_mod.SET_BY.index("point time history")
+    keyed = {"local": "web_yielding", "moment": "flexure", "shear": "shear",
+             "deflection": "deflection"}
+    set_by = {k: np.where(lower[keyed[k]], ti, v) for k, v in set_by.items()}
+    return factor, set_by
 
 
 def struck_member_table(c: Chain) -> dict[str, np.ndarray]:
@@ -1479,14 +1569,38 @@ def _point_histories(c: Chain, h: np.ndarray, F: np.ndarray, factor: dict[str, n
 def _scaled(chk: Check, A: np.ndarray) -> Check:
     """``chk`` evaluated at the force A·F: U = U_at(A·F) for the impact force F the
     chain's Impact step gives, allowed (energy-method) force F_allow/A; the governing
-    candidate's detail is kept (its demand per N of the amplified force)."""
+    candidate's detail is kept (its demand per N of the amplified force), and ``at``
+    gives the check at A·F with the member and candidate that govern there."""
     U_at = chk.U_at
+    inner = chk.at
 
-    def at(Fx: np.ndarray) -> np.ndarray:
+    def at_U(Fx: np.ndarray) -> np.ndarray:
         return U_at(A * Fx)
 
+    at = None
+    if inner is not None:
+        def at(Fx: np.ndarray) -> Check:
+            got = inner(A * Fx)
+            return Check(name=chk.name, U=got.U, F_allow=chk.F_allow / A,
+                         member=got.member, unit=got.unit, exist=got.exist,
+                         resist=got.resist, U_at=at_U, at=at)
+
     return Check(name=chk.name, U=chk.U, F_allow=chk.F_allow / A, member=chk.member,
-                 unit=chk.unit, exist=chk.exist, resist=chk.resist, U_at=at)
+                 unit=chk.unit, exist=chk.exist, resist=chk.resist, U_at=at_U, at=at)
+
+
+def at_force(chk: Check, F: np.ndarray) -> Check:
+    """``chk`` (a family scaled by :func:`_scaled`) made at the impact force F (N): its
+    U there and the member and candidate that govern there (:attr:`Check.at`), the
+    allowed force kept. Where the check keeps no ``at``: U at F, member and detail as
+    they were."""
+    if chk.at is None:
+        return Check(name=chk.name, U=chk.U_at(F), F_allow=chk.F_allow, member=chk.member,
+                     unit=chk.unit, exist=chk.exist, resist=chk.resist, U_at=chk.U_at)
+    got = chk.at(F)
+    return Check(name=chk.name, U=got.U, F_allow=chk.F_allow, member=got.member,
+                 unit=got.unit, exist=got.exist, resist=got.resist, U_at=chk.U_at,
+                 at=chk.at)
 
 
 def amplified_demands(c: Chain) -> Demands:
@@ -1501,10 +1615,9 @@ def amplified_demands(c: Chain) -> Demands:
     for name, chk in dem.checks.items():
         # the connection check is end shear: it takes the shear factor
         A = amp.factor.get(name, amp.A_shear)
-        scaled = _scaled(chk, A)
-        out[name] = Check(name=scaled.name, U=scaled.U_at(imp.F), F_allow=scaled.F_allow,
-                          member=chk.member, unit=chk.unit, exist=chk.exist,
-                          resist=chk.resist, U_at=scaled.U_at)
+        # the member and candidate that govern at the amplified force (at A·F the
+        # existing demand weighs less: another member can govern than at F)
+        out[name] = at_force(_scaled(chk, A), imp.F)
     return Demands(checks=out, actions=dem.actions)
 
 
@@ -2010,30 +2123,73 @@ def beyond_yield(c: Chain) -> BeyondYield:
     EN 1993-1-1 Class 1): R_p(δm − δy/2) = ηW h + W δm with δy = R_p·f (Biggs 1964,
     :func:`droprig.solver.plastic.plastic_response`); ductility of the framing
     (δm − R_p·f_series)/(R_p·f_s); support rotation
-    (:func:`droprig.solver.plastic.support_rotation`)."""
-    d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
-    ua, ck, sr = c[Demands].actions, c[Checks], c[SlabResistance]
-    s, n = d.fm.settings, d.n
-    W, F_c, s_c = inp.W, inp.F_c, inp.s_c
+    (:func:`droprig.solver.plastic.support_rotation`). Steps: the energy the
+    structure takes (:func:`_structure_head`), the response at the points that yield
+    (:func:`_plastic_points`) and the verdict (:func:`_yield_verdict`)."""
+    d, imp = c.drop, c[Impact]
+    ck, sr = c[Checks], c[SlabResistance]
+    n = d.n
     # the framing's share of the energy: the two-mass model's where it applies
-    eta = sm.eta if imp.eta_frame is None else imp.eta_frame
+    eta = c[StruckMass].eta if imp.eta_frame is None else imp.eta_frame
+    h_struct = _structure_head(c, eta)
+    over = ck.U > 1.0
+    pl = over & ~ck.brittle_fail
+    sub = slice(None) if d.detail or bool(pl.all()) else np.flatnonzero(pl)
+    d_m_s, coll_s, duct_s, theta_s = _plastic_points(c, sub, h_struct, eta)
+    d_m: np.ndarray
+    ductility: np.ndarray
+    theta: np.ndarray
+    if isinstance(sub, slice):
+        d_m, collapsed, ductility, theta = d_m_s, coll_s, duct_s, theta_s
+    else:
+        d_m, ductility, theta = (np.full(n, np.nan) for _ in range(3))
+        collapsed = np.zeros(n, dtype=bool)
+        d_m[sub], collapsed[sub], ductility[sub], theta[sub] = d_m_s, coll_s, duct_s, theta_s
+    response, gov_check, gov_member, no_hinge = _yield_verdict(c, pl, collapsed, ductility,
+                                                               theta)
+    ua = c[Demands].actions
+    return BeyondYield(R_p=sr.R, rp_member=ua.rp_member, h_struct=h_struct, d_m=d_m,
+                       collapsed=collapsed, ductility=ductility, theta=theta,
+                       no_hinge=no_hinge, nh_fa=ua.nh_fa, response=response,
+                       gov_check=gov_check, gov_member=gov_member,
+                       plastic_deflection=np.where(pl, d_m, np.nan),
+                       ductility_out=np.where(pl, ductility, np.nan),
+                       rotation_out=np.where(pl, theta, np.nan))
+
+
+def _structure_head(c: Chain, eta: np.ndarray) -> np.ndarray:
+    """The energy head the structure takes beyond yield (m): the fall with the
+    hoist's head (:func:`energy_fall`), less the crushed layer's work
+    (F_c − W)·s_c/(ηW) where the layer crushes below R_p and bottoms, × A_δ² of the
+    dynamic amplification (an elastic response would deflect A_δ times the energy
+    method's, δ ∝ √E; an approximation beyond yield, stated in the README; × 1 when
+    the setting is off)."""
+    inp, imp = c[LoadInputs], c[Impact]
+    W, F_c, s_c = inp.W, inp.F_c, inp.s_c
     h = energy_fall(c, inp.h)  # with the hoist's lowering speed head
-    R_p, f_s, f = sr.R, comp.f_s, comp.f
+    R_p = c[SlabResistance].R
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
     h_struct = h.copy()
     crush_ok = inp.crushable & (F_c < R_p) & imp.bottomed
     with np.errstate(divide="ignore", invalid="ignore"):
         h_struct = np.where(crush_ok, np.maximum(h - (F_c - W) * s_c / (eta * W), 0.0),
                             h_struct)
-    # dynamic amplification: the energy the structure takes is scaled by A_δ² so that
-    # an elastic response would deflect A_δ times the energy method's (δ ∝ √E; an
-    # approximation beyond yield, stated in the README); × 1 when the setting is off
-    h_struct = h_struct * c[DynamicAmplification].A_deflection ** 2
-    over = ck.U > 1.0
-    pl = over & ~ck.brittle_fail
-    sub = slice(None) if d.detail or bool(pl.all()) else np.flatnonzero(pl)
+    return h_struct * c[DynamicAmplification].A_deflection ** 2
+
+
+def _plastic_points(c: Chain, sub: slice | np.ndarray, h_struct: np.ndarray,
+                    eta: np.ndarray) -> tuple[np.ndarray, ...]:
+    """At the points ``sub``: the peak deflection δm (m), collapse (bool), the
+    framing's ductility and the support rotation (rad,
+    :func:`droprig.solver.plastic.support_rotation`); where the slab's mechanism
+    forms first the framing stays elastic (ductility R/R_frame) and the rotation is
+    the slab's about the nearest support line
+    (:func:`droprig.solver.slab.slab_support_rotation`)."""
+    inp, comp = c[LoadInputs], c[Compliance]
+    ua, sr = c[Demands].actions, c[SlabResistance]
+    R_p, f_s, f = sr.R, comp.f_s, comp.f
     R_ps, f_s_s = R_p[sub], f_s[sub]
-    d_m_s, _mu_tot, coll_s = plastic.plastic_response(W[sub], h_struct[sub], eta[sub],
+    d_m_s, _mu_tot, coll_s = plastic.plastic_response(inp.W[sub], h_struct[sub], eta[sub],
                                                       R_ps, R_ps * f[sub])
     with np.errstate(invalid="ignore"):
         d_struct = np.maximum(d_m_s - R_ps * comp.f_series[sub], 0.0)
@@ -2058,24 +2214,26 @@ def beyond_yield(c: Chain) -> BeyondYield:
             duct_s = np.where(sf_s, R_ps / ua.R_p[sub], duct_s)
             theta_sl = slab.slab_support_rotation(d_slab, sr.ell[sub])
         theta_s = np.where(sf_s, theta_sl, theta_s)
-    d_m: np.ndarray
-    ductility: np.ndarray
-    theta: np.ndarray
-    if isinstance(sub, slice):
-        d_m, collapsed, ductility, theta = d_m_s, coll_s, duct_s, theta_s
-    else:
-        d_m, ductility, theta = (np.full(n, np.nan) for _ in range(3))
-        collapsed = np.zeros(n, dtype=bool)
-        d_m[sub], collapsed[sub], ductility[sub], theta[sub] = d_m_s, coll_s, duct_s, theta_s
+    return d_m_s, coll_s, duct_s, theta_s
+
+
+def _yield_verdict(c: Chain, pl: np.ndarray, collapsed: np.ndarray, ductility: np.ndarray,
+                   theta: np.ndarray) -> tuple[np.ndarray, ...]:
+    """Response, governing check and member of the points ``pl`` beyond yield:
+    collapse, ductility, rotation, or plastic (flexure; the deck's where the slab
+    yields); flexure beyond the resistance of a member that cannot form a plastic
+    hinge (AISC 360-16 App. 1 / EN 1993-1-1 Class 1) has no plastic reserve and
+    exceeds (as in droprig check, :mod:`droprig.solver.member`). Returns response,
+    gov_check, gov_member and no_hinge."""
+    s = c.drop.fm.settings
+    ck, sr, imp, ua = c[Checks], c[SlabResistance], c[Impact], c[Demands].actions
+    R_p = sr.R
     col = pl & collapsed
     duct = pl & ~collapsed & (ductility > s.ductility_limit)
     theta_lim = np.where(sr.slab_first, slab_rotation_limit(s.rotation_limit),
                          s.rotation_limit)
     rot = pl & ~collapsed & ~duct & (theta > theta_lim)
     ok_pl = pl & ~collapsed & ~duct & ~rot
-    # flexure beyond the resistance of a member that cannot form a plastic hinge
-    # (AISC 360-16 App. 1 / EN 1993-1-1 Class 1): no plastic reserve, exceeds (as in
-    # droprig check, droprig.solver.member)
     no_hinge = ok_pl & (np.where(sr.slab_first, R_p, imp.F) > ua.nh_fa)
     ok_pl = ok_pl & ~no_hinge
     response = ck.response.copy()
@@ -2092,13 +2250,7 @@ def beyond_yield(c: Chain) -> BeyondYield:
     gov_member = np.where(slab_gov, DECK, gov_member)
     gov_check = np.where(no_hinge, CHECK["flexure"], gov_check)
     gov_member = np.where(no_hinge, ua.nh_member, gov_member)
-    return BeyondYield(R_p=R_p, rp_member=ua.rp_member, h_struct=h_struct, d_m=d_m,
-                       collapsed=collapsed, ductility=ductility, theta=theta,
-                       no_hinge=no_hinge, nh_fa=ua.nh_fa, response=response,
-                       gov_check=gov_check, gov_member=gov_member,
-                       plastic_deflection=np.where(pl, d_m, np.nan),
-                       ductility_out=np.where(pl, ductility, np.nan),
-                       rotation_out=np.where(pl, theta, np.nan))
+    return response, gov_check, gov_member, no_hinge
 
 
 # --------------------------------------------------------------------------- 8. inverse
@@ -2172,19 +2324,39 @@ def _mass_through_crushing(F_allow: np.ndarray, h: np.ndarray, f: np.ndarray,
 def inverse_answers(c: Chain) -> InverseAnswers:
     """Gere Eq. 9-94 solved for h, M, k and a crush stroke
     (:mod:`droprig.solver.limits`); beyond yield the energy balance at the ductility
-    and rotation limits (:func:`droprig.solver.plastic.allowable_height_plastic`)."""
-    d, inp, comp, sm, imp = c.drop, c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
-    ck, by, sr = c[Checks], c[BeyondYield], c[SlabResistance]
-    ua = c[Demands].actions
-    s = d.fm.settings
-    W, F_c, s_c, crushable = inp.W, inp.F_c, inp.s_c, inp.crushable
+    and rotation limits (:func:`droprig.solver.plastic.allowable_height_plastic`).
+    Steps: :func:`_elastic_height`, :func:`_plastic_height`,
+    :func:`_allowable_mass_of`, :func:`_mat_answers`, :func:`_height_check`."""
+    d, sm, imp, ck = c.drop, c[StruckMass], c[Impact], c[Checks]
     # the framing's share of the energy (two-mass model where it applies; the
     # allowed force F_allow is stated as a force on the framing, the contact checks
     # scaled to it): the height at which the one-mass balance with this share gives
     # F_allow (struck_mass.equivalent_eta)
     eta = sm.eta if imp.eta_frame is None else imp.eta_frame
-    F_allow, R_p, f_s, f = ck.F_allow, by.R_p, comp.f_s, comp.f
+    F_allow = ck.F_allow
     Fa_pos = np.where(F_allow > 0, F_allow, np.nan)
+    # the two-force points' impact at any height (the searches' fast kernel)
+    kern = (TwoForceKernel(c, np.flatnonzero(imp.searched))
+            if imp.searched is not None and imp.searched.any() and not d.trial else None)
+    h_el = _elastic_height(c, eta, Fa_pos, kern)
+    h_pl, hp_check, Ub_Rp = _plastic_height(c, eta, h_el, kern)
+    m_allow = _allowable_mass_of(c, Fa_pos, kern)
+    k_req, s_req = _mat_answers(c, Fa_pos)
+    h_check, h_member = _height_check(c)
+    return InverseAnswers(h_el=h_el, h_pl=h_pl, m_allow=m_allow, k_req=k_req, s_req=s_req,
+                          Ub_Rp=Ub_Rp, h_check=h_check, h_member=h_member,
+                          hp_check=hp_check)
+
+
+def _elastic_height(c: Chain, eta: np.ndarray, Fa_pos: np.ndarray,
+                    kern: TwoForceKernel | None) -> np.ndarray:
+    """The elastic allowable free fall (m): Gere Eq. 9-94 solved for h at the allowed
+    force ``Fa_pos`` (N, NaN none) with the framing's energy share ``eta``, with the
+    crushing work of a layer or of the deck's concrete, less the hoist's head; then
+    confirmed by the forward run where amplified, or searched where two forces."""
+    d, inp, imp = c.drop, c[LoadInputs], c[Impact]
+    W, F_c, s_c, crushable = inp.W, inp.F_c, inp.s_c, inp.crushable
+    F_allow = c[Checks].F_allow
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
     h_el = with_crush_energy(h_el, crushable & (F_c <= F_allow), F_c, s_c, W, eta)
     # bare deck whose concrete crushes below the allowed force: the force stays at
@@ -2198,13 +2370,26 @@ def inverse_answers(c: Chain) -> InverseAnswers:
                              imp.F_crush, np.full(d.n, cover), W, eta)
     # the energy heights above as free falls: less the hoist's lowering speed head
     h_el = fall_from_energy(c, h_el)
-    # the two-force points' impact at any height (the searches' fast kernel)
-    kern = (TwoForceKernel(c, np.flatnonzero(imp.searched))
-            if imp.searched is not None and imp.searched.any() and not d.trial else None)
-    if s.dynamic_amplification and not d.trial:
+    if d.fm.settings.dynamic_amplification and not d.trial:
         h_el = confirm_amplified_height(c, h_el)
     elif kern is not None:
         h_el = two_force_elastic_height(c, h_el, kern)
+    return h_el
+
+
+def _plastic_height(c: Chain, eta: np.ndarray, h_el: np.ndarray,
+                    kern: TwoForceKernel | None) -> tuple[np.ndarray, ...]:
+    """The allowable free fall beyond yield (m): the energy balance at the ductility
+    and rotation limits (the slab's rotation where its mechanism forms first), with
+    a crushing layer's work, the brittle checks at R_p, and A_δ² of the amplification;
+    searched by the forward run where two forces (:func:`_two_force_plastic`); at
+    least ``h_el``. Returns h_pl, the check that sets it (−1 where ``h_el``) and the
+    largest brittle utilisation at R_p."""
+    inp, comp, ck = c[LoadInputs], c[Compliance], c[Checks]
+    by, sr, ua = c[BeyondYield], c[SlabResistance], c[Demands].actions
+    s = c.drop.fm.settings
+    W, F_c, s_c, crushable = inp.W, inp.F_c, inp.s_c, inp.crushable
+    F_allow, R_p, f_s, f = ck.F_allow, by.R_p, comp.f_s, comp.f
     # plastic: ductility and rotation limits, brittle checks at R_p
     Ub_Rp = ck.Ub_at_Rp[0]
     for u in ck.Ub_at_Rp[1:]:
@@ -2230,36 +2415,12 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     # capacity reaches its flexural resistance
     h_pl = np.where((Ub_Rp <= 1.0) & (F_allow > 0) & (by.nh_fa > R_p), h_pl, np.nan)
     if kern is not None:
-        # two forces: the framing's energy share changes with the height; the energy
-        # the closed form allows, η·h (η of the planned height), is matched by the
-        # forward impact's η_frame(h)·h_e(h), non-decreasing in h (two_forces)
-        E_lim = eta * energy_fall(c, h_pl)
-        E_k = E_lim[kern.idx]
-
-        def within(kn: TwoForceKernel, rows: np.ndarray, hx: np.ndarray) -> np.ndarray:
-            e = kn.forces(hx, rows)[2]
-            with np.errstate(divide="ignore", invalid="ignore"):
-                return e * energy_fall(c, hx) / E_k[rows] - (1.0 + 1e-12)
-
-        # where the energy at the elastic allowable height already passes the limit,
-        # the plastic boundary lies below it and the answer is the elastic height
-        # (h_pl = max(h_pl, h_el) below): no search there
         # (a crushable layer's points keep the closed form: beyond yield the layer's
         # work comes off the one-mass balance, η = 1, as beyond_yield has it)
-        two_pl = imp.two_mass if imp.two_mass is not None else np.zeros(d.n, dtype=bool)
+        two_pl = c[Impact].two_mass
+        assert two_pl is not None
         h_pad = np.where(two_pl, np.nan, h_pl)
-        h_pl = np.where(two_pl, h_pl, np.nan)
-        ask = two_pl & np.isfinite(h_pl) & np.isfinite(h_el) & (h_el > 0.0)
-        if ask.any():
-            ia = np.flatnonzero(ask)
-            below = within(kern, np.searchsorted(kern.idx, ia), h_el[ia]) > 0.0
-            h_pl[ia[below]] = h_el[ia[below]]
-            skip = np.zeros(d.n, dtype=bool)
-            skip[ia[below]] = True
-            h_pl = np.where(skip, h_pl, two_force_height(c, np.where(skip, np.nan, h_pl),
-                                                         within, kern))
-        else:
-            h_pl = two_force_height(c, h_pl, within, kern)
+        h_pl = _two_force_plastic(c, eta, np.where(two_pl, h_pl, np.nan), h_el, kern)
         h_pl = np.where(two_pl, h_pl, h_pad)
     # what sets the plastic height: the ductility or the rotation limit, or the
     # elastic height where that is larger
@@ -2268,7 +2429,50 @@ def inverse_answers(c: Chain) -> InverseAnswers:
                             CHECK["rotation"])
     hp_check = np.where(sr.slab_first, CHECK["rotation"], hp_check)
     hp_check = np.where(np.isnan(h_pl) | (h_el >= h_pl), -1, hp_check)
-    h_pl = np.fmax(h_pl, h_el)
+    return np.fmax(h_pl, h_el), hp_check, Ub_Rp
+
+
+def _two_force_plastic(c: Chain, eta: np.ndarray, h_pl: np.ndarray, h_el: np.ndarray,
+                       kern: TwoForceKernel) -> np.ndarray:
+    """Two forces: the framing's energy share changes with the height; the energy
+    the closed form allows, η·h (η of the planned height), is matched by the forward
+    impact's η_frame(h)·h_e(h), non-decreasing in h (two_forces):
+    :func:`two_force_height` (m)."""
+    imp = c[Impact]
+    E_lim = eta * energy_fall(c, h_pl)
+    E_k = E_lim[kern.idx]
+
+    def within(kn: TwoForceKernel, rows: np.ndarray, hx: np.ndarray) -> np.ndarray:
+        e = kn.forces(hx, rows)[2]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            return e * energy_fall(c, hx) / E_k[rows] - (1.0 + 1e-12)
+
+    # where the energy at the elastic allowable height already passes the limit,
+    # the plastic boundary lies below it and the answer is the elastic height
+    # (h_pl = max(h_pl, h_el) below): no search there
+    assert imp.two_mass is not None
+    ask = imp.two_mass & np.isfinite(h_pl) & np.isfinite(h_el) & (h_el > 0.0)
+    if ask.any():
+        ia = np.flatnonzero(ask)
+        below = within(kern, np.searchsorted(kern.idx, ia), h_el[ia]) > 0.0
+        h_pl[ia[below]] = h_el[ia[below]]
+        skip = np.zeros(c.drop.n, dtype=bool)
+        skip[ia[below]] = True
+        return np.where(skip, h_pl, two_force_height(c, np.where(skip, np.nan, h_pl),
+                                                     within, kern))
+    return two_force_height(c, h_pl, within, kern)
+
+
+def _allowable_mass_of(c: Chain, Fa_pos: np.ndarray,
+                       kern: TwoForceKernel | None) -> np.ndarray:
+    """The allowable mass (kg) at the planned fall (with the hoist's head): Gere Eq.
+    9-94 solved for M (:func:`droprig.solver.limits.allowable_mass`), through the
+    deck's crushing where it caps the force, searched where two forces, and through
+    a crushable layer where one lies (η = 1 under a layer)."""
+    inp, comp, sm, imp = c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+    F_c, s_c, crushable, f = inp.F_c, inp.s_c, inp.crushable, comp.f
+    F_allow = c[Checks].F_allow
+    cover = crush_depth_available(c)
     h_e = energy_fall(c, inp.h)
     m_allow = limits.allowable_mass(Fa_pos, h_e, f, sm.m_e)
     capped = ~crushable & (imp.F_crush < F_allow) & np.isfinite(m_allow)
@@ -2284,24 +2488,32 @@ def inverse_answers(c: Chain) -> InverseAnswers:
             s_c[crushable])
     if kern is not None:
         m_allow = two_force_mass(c, kern, m_allow, inp.h)
-    # a mat laid on the finished surface over the point: the fall is the datum height
-    # H, and the framing's mass share is not taken (η = 1, as the forward model does
-    # under protection); inf where the structure alone suffices
+    return m_allow
+
+
+def _mat_answers(c: Chain, Fa_pos: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """A mat laid on the finished surface over the point: the fall is the datum height
+    H, and the framing's mass share is not taken (η = 1, as the forward model does
+    under protection): the required mat stiffness (N/m; inf where the structure alone
+    suffices) and crush stroke (m), Gere Eq. 9-94 (:mod:`droprig.solver.limits`)."""
+    inp, comp = c[LoadInputs], c[Compliance]
     H_e = energy_fall(c, inp.H)
-    k_req = limits.required_mat_stiffness(W, H_e, 1.0, Fa_pos, comp.f_struct)
+    k_req = limits.required_mat_stiffness(inp.W, H_e, 1.0, Fa_pos, comp.f_struct)
     k_req = np.where(np.isnan(Fa_pos), np.nan, k_req)
-    s_req = limits.required_crush_stroke(W, H_e, 1.0, Fa_pos, comp.f_struct)
-    s_req = np.where(np.isfinite(s_req), s_req, np.nan)
-    # the check that sets the allowable height: the least allowed force
+    s_req = limits.required_crush_stroke(inp.W, H_e, 1.0, Fa_pos, comp.f_struct)
+    return k_req, np.where(np.isfinite(s_req), s_req, np.nan)
+
+
+def _height_check(c: Chain) -> tuple[np.ndarray, np.ndarray]:
+    """The check (index into CHECKS) and member that set the allowable height: the
+    least allowed force of the check families."""
     chk = c[Demands].checks
     names = list(chk)
     Fa_stack = np.stack([chk[k].F_allow for k in names])
     ai = np.argmin(np.where(np.isnan(Fa_stack), np.inf, Fa_stack), axis=0)
     h_check = np.array([CHECK[k] for k in names])[ai]
-    h_member = np.stack([chk[k].member for k in names])[ai, np.arange(d.n)]
-    return InverseAnswers(h_el=h_el, h_pl=h_pl, m_allow=m_allow, k_req=k_req, s_req=s_req,
-                          Ub_Rp=Ub_Rp, h_check=h_check, h_member=h_member,
-                          hp_check=hp_check)
+    h_member = np.stack([chk[k].member for k in names])[ai, np.arange(c.drop.n)]
+    return h_check, h_member
 
 
 _CONFIRM_ROUNDS = 12
@@ -2500,7 +2712,6 @@ def two_force_height(c: Chain, h0: np.ndarray,
         kern = TwoForceKernel(c, idx)
     kidx = np.searchsorted(kern.idx, idx)
     assert np.array_equal(kern.idx[kidx], idx), "the kernel does not hold every point"
-    m = idx.size
 
     def run(w: np.ndarray, trial: np.ndarray) -> np.ndarray:
         # the forward run's excess at the points w (of idx) at the heights trial (one
@@ -2510,12 +2721,48 @@ def two_force_height(c: Chain, h0: np.ndarray,
         r = np.asarray(excess_at(kern, rows, trial.ravel()), dtype=float)
         return np.where(np.isnan(r), np.inf, r).reshape(trial.shape)
 
-    start = np.clip(h0[idx], 1e-6 * min(top, 1.0), top)
+    br = _first_bracket(run, np.clip(h0[idx], 1e-6 * min(top, 1.0), top), top)
+    unbounded, none = _widen_bracket(run, br, top)
+    _close_bracket(run, br, ~unbounded & ~none)
+    h = h0.copy()
+    h[idx] = np.where(none, np.nan, br.lo)
+    return h
+
+
+_Excess = Callable[[np.ndarray, np.ndarray], np.ndarray]
+"""The forward run's excess at points ``w`` (of the search's) at trial heights (one
+per point, or a row of several per point); +inf for a failure that gave NaN."""
+
+
+class _Bracket:
+    """The search's bracket per point (mutable, updated in place by the rounds): the
+    highest passing height ``lo`` and the lowest failing one ``hi`` (m; 0 for none
+    yet) with their excesses ``r_lo``, ``r_hi`` (NaN none), and ``n_ok``: how many
+    heights of the first fan passed (``nf`` tried)."""
+
+    def __init__(self, lo: np.ndarray, hi: np.ndarray, r_lo: np.ndarray, r_hi: np.ndarray,
+                 n_ok: np.ndarray, nf: int) -> None:
+        self.lo, self.hi, self.r_lo, self.r_hi = lo, hi, r_lo, r_hi
+        self.n_ok, self.nf = n_ok, nf
+
+    def take(self, w: np.ndarray, trial: np.ndarray, r: np.ndarray) -> np.ndarray:
+        """One trial height per point ``w``: a pass raises ``lo``, a failure lowers
+        ``hi``; returns the passes."""
+        okw = r <= 0.0
+        self.lo[w[okw]], self.r_lo[w[okw]] = trial[okw], r[okw]
+        self.hi[w[~okw]], self.r_hi[w[~okw]] = trial[~okw], r[~okw]
+        return okw
+
+
+def _first_bracket(run: _Excess, start: np.ndarray, top: float) -> _Bracket:
+    """The first fan: the start ``start`` (m) and its excess r0, and the pair
+    H_TOL/3 either side of start/(1 + r0)². The excess is a ratio less one that
+    grows as h^p, p between ½ (a force, Gere §9.10) and 1 (an energy): start/(1 + r0)²
+    lies across the boundary from the start, and on it where p = ½; the pair then
+    closes the bracket. The passes come first (non-decreasing excess)."""
+    m = start.size
     everyone = np.arange(m)
     r0 = run(everyone, start)
-    # the excess is a ratio less one that grows as h^p, p between ½ (a force, Gere
-    # §9.10) and 1 (an energy): h0/(1 + r0)² lies across the boundary from h0, and
-    # on it where p = ½; the pair H_TOL/3 either side of it closes the bracket then
     with np.errstate(divide="ignore", invalid="ignore"):
         U0 = np.where(np.isfinite(r0) & (r0 > -1.0), 1.0 + r0, np.where(r0 > 0, 16.0, 1 / 16))
     h1 = np.clip(start / U0**2, start / 16.0, np.minimum(16.0 * start, top))
@@ -2530,43 +2777,50 @@ def two_force_height(c: Chain, h0: np.ndarray,
     nf = fan.shape[1]
     ar = np.arange(m)
     i_lo, i_hi = np.maximum(n_ok - 1, 0), np.minimum(n_ok, nf - 1)
-    lo = np.where(n_ok > 0, fan[ar, i_lo], 0.0)
-    hi = np.where(n_ok < nf, fan[ar, i_hi], 0.0)
-    r_lo = np.where(n_ok > 0, rf[ar, i_lo], np.nan)
-    r_hi = np.where(n_ok < nf, rf[ar, i_hi], np.nan)
-    # beyond the fan: up by ×4 from an all-passing fan, down by ÷4 from an all-failing
-    up = (n_ok == nf) & (lo < top)
+    return _Bracket(lo=np.where(n_ok > 0, fan[ar, i_lo], 0.0),
+                    hi=np.where(n_ok < nf, fan[ar, i_hi], 0.0),
+                    r_lo=np.where(n_ok > 0, rf[ar, i_lo], np.nan),
+                    r_hi=np.where(n_ok < nf, rf[ar, i_hi], np.nan), n_ok=n_ok, nf=nf)
+
+
+def _widen_bracket(run: _Excess, br: _Bracket, top: float) -> tuple[np.ndarray, np.ndarray]:
+    """Beyond the fan: up by ×4 from an all-passing fan (to ``top``), down by ÷4 from
+    an all-failing one (to ~10⁻²⁰ m, then a zero fall). Returns the points that pass
+    at ``top`` and those where even a zero fall fails."""
+    up = (br.n_ok == br.nf) & (br.lo < top)
     for _ in range(12):
         if not up.any():
             break
         w = np.flatnonzero(up)
-        trial = np.minimum(lo[w] * 4.0, top)
-        r = run(w, trial)
-        okw = r <= 0.0
-        lo[w[okw]], r_lo[w[okw]] = trial[okw], r[okw]
-        hi[w[~okw]], r_hi[w[~okw]] = trial[~okw], r[~okw]
+        trial = np.minimum(br.lo[w] * 4.0, top)
+        okw = br.take(w, trial, run(w, trial))
         up[w] = okw & (trial < top)
-    unbounded = hi == 0.0  # passes at top
-    down = n_ok == 0
+    unbounded = br.hi == 0.0  # passes at top
+    down = br.n_ok == 0
     for _ in range(32):
         if not down.any():
             break
         w = np.flatnonzero(down)
-        trial = hi[w] / 4.0
-        r = run(w, trial)
-        okw = r <= 0.0
-        lo[w[okw]], r_lo[w[okw]] = trial[okw], r[okw]
-        hi[w[~okw]], r_hi[w[~okw]] = trial[~okw], r[~okw]
+        trial = br.hi[w] / 4.0
+        okw = br.take(w, trial, run(w, trial))
         down[w] = ~okw
-    none = np.zeros(m, dtype=bool)
+    none = np.zeros(br.lo.size, dtype=bool)
     if down.any():  # failing down to ~10⁻²⁰ m: does a zero fall pass?
         w = np.flatnonzero(down)
         r = run(w, np.zeros(w.size))
         okw = r <= 0.0
-        lo[w[okw]], r_lo[w[okw]] = 0.0, r[okw]
+        br.lo[w[okw]], br.r_lo[w[okw]] = 0.0, r[okw]
         none[w[~okw]] = True
-    work = ~unbounded & ~none
-    bisect = np.zeros(m, dtype=bool)
+    return unbounded, none
+
+
+def _close_bracket(run: _Excess, br: _Bracket, work: np.ndarray) -> None:
+    """Rounds of two heights per point of ``work``: the bracket's false position in
+    √h with a step of :data:`H_TOL`/3 of it to either side; a round that does not
+    halve the bracket (in √h) is followed by a bisection; until the bracket is
+    within :data:`H_TOL` (at most :data:`BISECTIONS` rounds)."""
+    lo, hi, r_lo, r_hi = br.lo, br.hi, br.r_lo, br.r_hi
+    bisect = np.zeros(lo.size, dtype=bool)
     for _ in range(BISECTIONS):
         work = work & (hi - lo > H_TOL * hi)
         if not work.any():
@@ -2599,11 +2853,6 @@ def two_force_height(c: Chain, h0: np.ndarray,
         r_hi[w[upper]] = r[upper, jt[upper]]
         # a round that did not halve the bracket is followed by a bisection
         bisect[w] = (np.sqrt(hi[w]) - np.sqrt(lo[w])) > 0.5 * width0
-    h = h0.copy()
-    h[idx] = np.where(none, np.nan, lo)
-    return h
-
-
 
 
 MASS_SEARCH_MAX = 1.0e6

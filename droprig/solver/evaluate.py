@@ -9,10 +9,11 @@ on all points at once (``tests/solver/test_parallel.py``). SI units.
 from __future__ import annotations
 
 from collections.abc import Callable, Sequence
+from dataclasses import dataclass
 
 import numpy as np
 
-from droprig.model import Level, LiftLoad, Project
+from droprig.model import Level, LiftLoad, LiftZone, ModelError, Project
 from droprig.solver import loadpath, memory
 from droprig.solver.chain import (
     FIELDS,
@@ -25,14 +26,14 @@ from droprig.solver.chain import (
     run_chain,
     tilted_governs,
 )
-from droprig.solver.floor import FloorModel
+from droprig.solver.floor import FloorModel, floor_model
 from droprig.solver.geometry import Geometry, KeptSteps, point_geometry, slice_geo
 from droprig.solver.loadpath import PathResult
 from droprig.solver.parallel import for_blocks
 from droprig.solver.unit_actions import unit_actions
 
-__all__ = ["CACHE_MAX_POINTS", "OUTPUTS", "evaluate_case", "evaluate_chain",
-           "evaluate_points", "tile"]
+__all__ = ["CACHE_MAX_POINTS", "OUTPUTS", "PointCase", "evaluate_case", "evaluate_chain",
+           "evaluate_points", "point_case", "tile"]
 
 CACHE_MAX_POINTS = 200_000
 """Up to this many drop points the load-independent member actions are kept between
@@ -74,6 +75,43 @@ def deck_range_words(level: Level, opening: bool = False) -> str:
     e = level.grid.extent
     rest = ", not in an opening" if opening else ""
     return f" (x {e.x0:g} to {e.x1:g} m, y {e.y0:g} to {e.y1:g} m{rest})"
+
+
+@dataclass(frozen=True)
+class PointCase:
+    """One asked-for drop point: its lift zone, load, the zone level's floor model and
+    the point's geometry (one point)."""
+
+    zone: LiftZone
+    load: LiftLoad
+    fm: FloorModel
+    geo: Geometry
+
+
+def point_case(project: Project, zone_id: str, load_name: str, x: float, y: float, *,
+               fields: tuple[str, str, str], reference: bool = False,
+               opening: bool = False) -> PointCase:
+    """Look up a point asked for directly (the calculation trace, the time-history
+    verification): zone ``zone_id``, its load ``load_name`` and the geometry of plan
+    point (x, y) in m. Raises :class:`ModelError` naming ``fields`` (zone, load,
+    point) and the allowed values for an unknown zone or load, or a point with no deck
+    panel under it (``opening`` also refuses a point in a deck opening)."""
+    zones = {z.id: z for z in project.lift_zones}
+    if zone_id not in zones:
+        raise ModelError(fields[0], zone_id, "the id of a lift zone: " + ", ".join(zones))
+    zone = zones[zone_id]
+    loads = {ld.name: ld for ld in zone.loads}
+    if load_name not in loads:
+        raise ModelError(fields[1], load_name,
+                         f"the name of a load of zone {zone_id}: " + ", ".join(loads))
+    fm = floor_model(project.level(zone.level_id), project.settings)
+    geo = point_geometry(fm, project, np.array([float(x)]), np.array([float(y)]),
+                         reference=reference)
+    if geo.path.pair[0] < 0 or (opening and bool(geo.opening[0])):
+        raise ModelError(fields[2], (float(x), float(y)),
+                         f"a point over a deck panel of level {fm.level.id}"
+                         + deck_range_words(fm.level, opening=opening))
+    return PointCase(zone, loads[load_name], fm, geo)
 
 
 def governing_landing_chain(fm: FloorModel, project: Project, load: LiftLoad, geo: Geometry,

@@ -51,6 +51,7 @@ vibrating member) is run by the reference instead. SI units: m, N, kg, s.
 from __future__ import annotations
 
 import math
+from collections.abc import Iterator
 from typing import cast
 
 import numpy as np
@@ -87,8 +88,8 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                        cutoff: float = timehistory.DEFAULT_CUTOFF,
                        samples_per_period: int = DEFAULT_SAMPLES_PER_PERIOD,
                        duration: float = 1.25, record: bool = False,
-                       sections: int = DEFAULT_SECTIONS,
-                       group: int = 256) -> TimeHistoryPeaks:
+                       sections: int = DEFAULT_SECTIONS, group: int = 256,
+                       weight: ArrayLike | None = None) -> TimeHistoryPeaks:
     """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
     condition ``cond``, one name or one per case; span L m, EI N·m², μ kg/m) at
     ``a`` (m) through a contact compliance f_c (m/N), with an elastic–perfectly
@@ -97,11 +98,12 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     :func:`droprig.solver.timehistory.time_history`, solved phase by phase in closed
     form (module docstring). ``record`` keeps the sampled histories (one case).
     ``dt`` in the result is each case's sample spacing in its last phase (s) and
-    ``steps`` the largest number of samples of a case."""
+    ``steps`` the largest number of samples of a case. ``weight`` (N, default M·g):
+    as in :func:`droprig.solver.timehistory.time_history`."""
     if samples_per_period < 4:
         raise ValueError("samples_per_period: at least 4 samples per period")
     (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = timehistory.checked_case(
-        cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record)
+        cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record, weight)
     P = L.size
     conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
     g = impact.G
@@ -126,22 +128,12 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
             t_crush = np.where(np.isfinite(F_y[ic]), M[ic] * v0[ic] / (F_y[ic] - W[ic]),
                                0.0)
         t_end = duration * (np.maximum(su["T1"], T_sys) + t_crush)
-        order = np.argsort(kept, kind="stable")
-        g0 = 0
-        while g0 < order.size:
-            n0 = int(kept[order[g0]])
-            e = g0 + 1
-            while (e < order.size and e - g0 < group
-                   and kept[order[e]] <= max(int(1.5 * n0), n0 + 2)):
-                e += 1
-            sel = order[g0:e]
-            g0 = e
+        for sel in _groups(kept, group):
             N = int(kept[sel].max())
-            part = {key: su[key][sel] for key in ("omega", "pt", "Wd", "Wm", "Wv")}
             run = _run(M=M[ic][sel], W=W[ic][sel], k=su["k"][sel], v0=v0[ic][sel],
-                       omega=part["omega"][:, :N], pt=part["pt"][:, :N],
-                       Wsec=np.concatenate([part["Wd"][:, :N], part["Wm"][:, :N],
-                                            part["Wv"][:, :N]], axis=2),
+                       omega=su["omega"][sel][:, :N], pt=su["pt"][sel][:, :N],
+                       Wsec=np.concatenate([su["Wd"][sel][:, :N], su["Wm"][sel][:, :N],
+                                            su["Wv"][sel][:, :N]], axis=2),
                        Rsec=np.concatenate([su["Rd"][sel], su["Rm"][sel], su["Rv"][sel]],
                                            axis=1),
                        n_sec=su["Rd"].shape[1], F_y=F_y[ic][sel], s_y=s_y[ic][sel],
@@ -160,14 +152,29 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
         fb = np.concatenate(fallback)
         ref = timehistory.time_history_batched(conds[fb], L[fb], EI[fb], mu[fb], a[fb],
                                                M[fb], h[fb], f_c[fb], F_yield=F_y[fb],
-                                               stroke=s_y[fb], n_modes=n_modes,
-                                               cutoff=cutoff)
+                                               stroke=s_y[fb], weight=W[fb],
+                                               n_modes=n_modes, cutoff=cutoff)
         for key in out:
             out[key][fb] = getattr(ref, key)
     return TimeHistoryPeaks(force=out["force"], moment=out["moment"], shear=out["shear"],
                             deflection=out["deflection"], t_separation=out["t_separation"],
                             modes=modes, dt=out["dt"], steps=steps, history=history,
                             crush=out["crush"])
+
+
+def _groups(kept: np.ndarray, group: int) -> Iterator[np.ndarray]:
+    """The cases (indices) in groups of at most ``group`` with similar numbers of kept
+    modes (at most 1.5 × or 2 more than the group's fewest), fewest first."""
+    order = np.argsort(kept, kind="stable")
+    g0 = 0
+    while g0 < order.size:
+        n0 = int(kept[order[g0]])
+        e = g0 + 1
+        while (e < order.size and e - g0 < group
+               and kept[order[e]] <= max(int(1.5 * n0), n0 + 2)):
+            e += 1
+        yield order[g0:e]
+        g0 = e
 
 
 class _Phase:
@@ -203,7 +210,23 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
     """Cases of one end condition with N kept modes (a prefix of ``omega``; modes not
     kept have φ̃ = 0 and stay at rest): peaks by phases (see :func:`exact_time_history`).
     ``Wsec`` (P, N, 3S) the sections' deflection, moment and shear per unit q̃ₙ,
-    ``Rsec`` (P, 3S) their static correction per unit contact force."""
+    ``Rsec`` (P, 3S) their static correction per unit contact force. Rounds of
+    :class:`_Integrator` until every case has ended."""
+    it = _Integrator(M=M, W=W, k=k, v0=v0, omega=omega, pt=pt, Wsec=Wsec, Rsec=Rsec,
+                     n_sec=n_sec, F_y=F_y, s_y=s_y, t_end=t_end, T1=T1, sp=sp, record=record)
+    it.set_phase(np.arange(it.P))
+    while it.active.any():
+        it.round()
+    return it.result()
+
+
+def _contact_modes(k: np.ndarray, omega: np.ndarray, pt: np.ndarray, Wsec: np.ndarray,
+                   Rsec: np.ndarray, M: np.ndarray) -> tuple:
+    """The contact phase's modes (they do not depend on the set p): cases P, kept
+    modes N, states n1 = N + 1, outputs Q; ω with 1 for a mode at rest, the gap vector
+    c (gap = c·x), the outputs per unit state ``base`` and per unit contact force R,
+    the masses and their roots, the eigenvalues λ, mode shapes M^(-1/2)·Ψ, Ω = √λ, c·V
+    and the outputs per unit harmonic CV (P, Q, n1)."""
     P, N = pt.shape
     n1 = N + 1
     Q = 1 + Rsec.shape[1]
@@ -225,107 +248,150 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
     cV_c = np.einsum("pi,pij->pj", c, V_c)
     RcV_c = R[:, :, None] * (k[:, None] * cV_c)[:, None, :]
     CV_c = base @ V_c + RcV_c  # (P, Q, n1)
+    return P, N, n1, Q, om, c, base, R, mass, msq, lam_c, V_c, Om_c, cV_c, CV_c
 
-    x = np.zeros((P, n1))
-    xd = np.zeros((P, n1))
-    xd[:, 0] = v0
-    p = np.zeros(P)
-    cap = F_y.copy()
-    kind = np.full(P, _CONTACT)
-    t0 = np.zeros(P)
-    tau = np.zeros(P)
-    t_sep = np.full(P, np.nan)
-    active = np.ones(P, bool)
-    events = np.zeros(P, int)
-    expect = np.full((P, 3), 64.0)  # samples a phase of each kind took last (search)
-    samples = np.zeros(P, int)
-    chatter = np.zeros(P, bool)
-    pk = np.zeros((P, 4))  # force, deflection, moment, shear
-    ph = _Phase(P, n1, Q)
-    rec: dict[str, list[np.ndarray]] = {key: [] for key in ("t", "F", "D", "M", "V", "U")}
-    S = n_sec
-    sl = {"D": slice(1, 1 + S), "M": slice(1 + S, 1 + 2 * S), "V": slice(1 + 2 * S, 1 + 3 * S)}
 
-    def set_phase(idx: np.ndarray) -> None:
-        """The closed form of each case's phase from its state at the phase's start."""
+class _Integrator:
+    """The phase-by-phase solution of :func:`_run`'s cases: the contact phase's modes
+    (:func:`_contact_modes`), the cases' states (``x``, ``xd``, set ``p``, ``cap``,
+    phase ``kind``, times ``t0`` and ``tau``), the current phases' closed forms ``ph``
+    (:class:`_Phase`) and the peaks ``pk`` (force, deflection, moment, shear); the
+    arrays are updated in place by :meth:`round` until no case is ``active``."""
+
+    def __init__(self, *, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray,
+                 omega: np.ndarray, pt: np.ndarray, Wsec: np.ndarray, Rsec: np.ndarray,
+                 n_sec: int, F_y: np.ndarray, s_y: np.ndarray, t_end: np.ndarray,
+                 T1: np.ndarray, sp: int, record: bool) -> None:
+        self.M, self.W, self.k, self.v0, self.omega, self.pt = M, W, k, v0, omega, pt
+        self.F_y, self.s_y, self.t_end, self.T1, self.sp = F_y, s_y, t_end, T1, sp
+        self.record = record
+        (self.P, self.N, self.n1, self.Q, self.om, self.c, self.base, self.R, self.mass,
+         self.msq, self.lam_c, self.V_c, self.Om_c, self.cV_c,
+         self.CV_c) = _contact_modes(k, omega, pt, Wsec, Rsec, M)
+        P, n1, Q = self.P, self.n1, self.Q
+        x = np.zeros((P, n1))
+        xd = np.zeros((P, n1))
+        xd[:, 0] = v0
+        p = np.zeros(P)
+        cap = F_y.copy()
+        kind = np.full(P, _CONTACT)
+        t0 = np.zeros(P)
+        tau = np.zeros(P)
+        t_sep = np.full(P, np.nan)
+        active = np.ones(P, bool)
+        events = np.zeros(P, int)
+        expect = np.full((P, 3), 64.0)  # samples a phase of each kind took last (search)
+        samples = np.zeros(P, int)
+        chatter = np.zeros(P, bool)
+        pk = np.zeros((P, 4))  # force, deflection, moment, shear
+        ph = _Phase(P, n1, Q)
+        rec: dict[str, list[np.ndarray]] = {key: [] for key in ("t", "F", "D", "M", "V", "U")}
+        S = n_sec
+        sl = {"D": slice(1, 1 + S), "M": slice(1 + S, 1 + 2 * S), "V": slice(1 + 2 * S, 1 + 3 * S)}
+        self.x, self.xd, self.p, self.cap, self.kind, self.t0 = x, xd, p, cap, kind, t0
+        self.tau, self.t_sep, self.active, self.events = tau, t_sep, active, events
+        self.expect, self.samples, self.chatter, self.pk = expect, samples, chatter, pk
+        self.ph, self.rec, self.S, self.sl = ph, rec, S, sl
+
+    def set_phase(self, idx: np.ndarray) -> None:
+        """The closed form of each case's phase from its state at the phase's start
+        (:meth:`_set_contact`, :meth:`_set_free`)."""
         if idx.size == 0:
             return
-        kd = kind[idx]
+        kd = self.kind[idx]
         e = idx[kd == _CONTACT]
         if e.size:
-            Ve, lam = V_c[e], lam_c[e]
-            b = np.zeros((e.size, n1))
-            b[:, 0] = W[e]
-            b += (k[e] * p[e])[:, None] * c[e]
-            # x_s = K⁻¹ b = V Λ⁻¹ Vᵀ b
-            xs = np.einsum("pij,pj->pi", Ve, np.einsum("pji,pj->pi", Ve, b) / lam)
-            z0 = np.einsum("pji,pj->pi", Ve, mass[e] * (x[e] - xs))
-            zd0 = np.einsum("pji,pj->pi", Ve, mass[e] * xd[e])
-            ph.Om[e], ph.V[e], ph.s[e] = Om_c[e], Ve, xs
-            ph.A[e], ph.B[e] = z0, zd0 / Om_c[e]
-            ph.As[e], ph.Bs[e] = z0, zd0 / Om_c[e]
-            ph.tail[e] = 0.0
-            ph.l_u[e] = 0.0
-            ph.w_u[e] = 0.0
-            Fs = k[e] * (np.einsum("pi,pi->p", c[e], xs) - p[e])
-            ph.yc[e] = np.einsum("pqi,pi->pq", base[e], xs) + R[e] * Fs[:, None]
-            ph.CV[e] = CV_c[e]  # (p, Q, J)
-            ph.g0[e] = np.einsum("pi,pi->p", c[e], xs)
-            ph.ga[e] = cV_c[e] * z0
-            ph.gb[e] = cV_c[e] * zd0 / Om_c[e]
-            ph.dt[e] = 2.0 * math.pi / (sp * Om_c[e].max(axis=1))
+            self._set_contact(e)
         f = idx[kd != _CONTACT]
         if f.size:
-            Fc = np.where(kind[f] == _CRUSH, cap[f], 0.0)
-            ptf, omf = pt[f], om[f]
-            qs = ptf * Fc[:, None] / omf**2
-            Am = x[f, 1:] - qs
-            Bm = xd[f, 1:] / omf
-            Om = np.ones((f.size, n1))
-            Om[:, :N] = omf
-            A = np.zeros((f.size, n1))
-            B = np.zeros((f.size, n1))
-            A[:, :N], B[:, :N] = Am, Bm
-            V = np.zeros((f.size, n1, n1))
-            V[:, np.arange(1, n1), np.arange(N)] = 1.0
-            s = np.concatenate([x[f, :1], qs], axis=1)
-            ph.Om[f], ph.V[f], ph.s[f], ph.A[f], ph.B[f] = Om, V, s, A, B
-            ph.l_u[f] = xd[f, 0]
-            ph.w_u[f] = 0.5 * (W[f] - Fc) / M[f]
-            Wt = np.zeros((f.size, Q, n1))
-            Wt[:, :, :N] = base[f][:, :, 1:]
-            ph.yc[f] = np.einsum("pqn,pn->pq", base[f][:, :, 1:], qs) + R[f] * Fc[:, None]
-            ph.CV[f] = Wt
-            ph.g0[f] = x[f, 0] - np.einsum("pn,pn->p", ptf, qs)
-            ph.ga[f] = np.concatenate([-ptf * Am, np.zeros((f.size, 1))], axis=1)
-            ph.gb[f] = np.concatenate([-ptf * Bm, np.zeros((f.size, 1))], axis=1)
-            # the modes whose free vibration is small are not sampled: their part of
-            # each output is bounded by the sum of their amplitudes (added to the
-            # sampled peak), where that sum is at most TAIL of the family's largest
-            amp = np.abs(Wt) * np.hypot(A, B)[:, None, :]  # (f, Q, J)
-            tail = np.cumsum(amp[:, :, ::-1], axis=2)[:, :, ::-1]
-            tail = np.concatenate([tail, np.zeros((f.size, Q, 1))], axis=2)  # from j
-            tot = tail[:, :, 0]
-            thr = np.zeros((f.size, Q))
-            for fam in ("D", "M", "V"):
-                thr[:, sl[fam]] = TAIL * tot[:, sl[fam]].max(axis=1, keepdims=True)
-            gamp = np.abs(ptf) * np.hypot(Am, Bm)
-            gtail = np.cumsum(gamp[:, ::-1], axis=1)[:, ::-1]
-            gtail = np.concatenate([gtail, np.zeros((f.size, 2))], axis=1)
-            ok = (np.all(tail <= thr[:, :, None] * (1.0 + 1e-12), axis=1)
-                  & (gtail <= TAIL * gtail[:, :1]))
-            m = np.argmax(ok, axis=1)  # harmonics sampled
-            keep = np.arange(n1)[None, :] < m[:, None]
-            ph.As[f], ph.Bs[f] = np.where(keep, A, 0.0), np.where(keep, B, 0.0)
-            ph.tail[f] = np.take_along_axis(tail, m[:, None, None], axis=2)[:, :, 0]
-            om_s = np.max(np.where(keep, Om, 0.0), axis=1)
-            ph.dt[f] = 2.0 * math.pi / (sp * np.maximum(om_s, 1e-30))
-            # a phase with no kept mode: sample by the window instead
-            none = om_s <= 0.0
-            ph.dt[f[none]] = t_end[f[none]] / 64.0
+            self._set_free(f)
 
-    def gap(idx: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    def _set_contact(self, e: np.ndarray) -> None:
+        """The contact phase of the cases ``e``: the modes of the contact system about
+        the static position."""
+        W, k, sp, n1, c, base = self.W, self.k, self.sp, self.n1, self.c, self.base
+        R, mass, lam_c, V_c, Om_c = self.R, self.mass, self.lam_c, self.V_c, self.Om_c
+        cV_c, CV_c, x, xd, p, ph = self.cV_c, self.CV_c, self.x, self.xd, self.p, self.ph
+        Ve, lam = V_c[e], lam_c[e]
+        b = np.zeros((e.size, n1))
+        b[:, 0] = W[e]
+        b += (k[e] * p[e])[:, None] * c[e]
+        # x_s = K⁻¹ b = V Λ⁻¹ Vᵀ b
+        xs = np.einsum("pij,pj->pi", Ve, np.einsum("pji,pj->pi", Ve, b) / lam)
+        z0 = np.einsum("pji,pj->pi", Ve, mass[e] * (x[e] - xs))
+        zd0 = np.einsum("pji,pj->pi", Ve, mass[e] * xd[e])
+        ph.Om[e], ph.V[e], ph.s[e] = Om_c[e], Ve, xs
+        ph.A[e], ph.B[e] = z0, zd0 / Om_c[e]
+        ph.As[e], ph.Bs[e] = z0, zd0 / Om_c[e]
+        ph.tail[e] = 0.0
+        ph.l_u[e] = 0.0
+        ph.w_u[e] = 0.0
+        Fs = k[e] * (np.einsum("pi,pi->p", c[e], xs) - p[e])
+        ph.yc[e] = np.einsum("pqi,pi->pq", base[e], xs) + R[e] * Fs[:, None]
+        ph.CV[e] = CV_c[e]  # (p, Q, J)
+        ph.g0[e] = np.einsum("pi,pi->p", c[e], xs)
+        ph.ga[e] = cV_c[e] * z0
+        ph.gb[e] = cV_c[e] * zd0 / Om_c[e]
+        ph.dt[e] = 2.0 * math.pi / (sp * Om_c[e].max(axis=1))
+
+    def _set_free(self, f: np.ndarray) -> None:
+        """A free or crushing phase of the cases ``f``: the member's own modes under the
+        crushing force (0 free), the load moving with g and that force."""
+        M, W, pt, t_end, sp, N = self.M, self.W, self.pt, self.t_end, self.sp, self.N
+        n1, Q, om, base, R, x = self.n1, self.Q, self.om, self.base, self.R, self.x
+        xd, cap, kind, ph, sl = self.xd, self.cap, self.kind, self.ph, self.sl
+        Fc = np.where(kind[f] == _CRUSH, cap[f], 0.0)
+        ptf, omf = pt[f], om[f]
+        qs = ptf * Fc[:, None] / omf**2
+        Am = x[f, 1:] - qs
+        Bm = xd[f, 1:] / omf
+        Om = np.ones((f.size, n1))
+        Om[:, :N] = omf
+        A = np.zeros((f.size, n1))
+        B = np.zeros((f.size, n1))
+        A[:, :N], B[:, :N] = Am, Bm
+        V = np.zeros((f.size, n1, n1))
+        V[:, np.arange(1, n1), np.arange(N)] = 1.0
+        s = np.concatenate([x[f, :1], qs], axis=1)
+        ph.Om[f], ph.V[f], ph.s[f], ph.A[f], ph.B[f] = Om, V, s, A, B
+        ph.l_u[f] = xd[f, 0]
+        ph.w_u[f] = 0.5 * (W[f] - Fc) / M[f]
+        Wt = np.zeros((f.size, Q, n1))
+        Wt[:, :, :N] = base[f][:, :, 1:]
+        ph.yc[f] = np.einsum("pqn,pn->pq", base[f][:, :, 1:], qs) + R[f] * Fc[:, None]
+        ph.CV[f] = Wt
+        ph.g0[f] = x[f, 0] - np.einsum("pn,pn->p", ptf, qs)
+        ph.ga[f] = np.concatenate([-ptf * Am, np.zeros((f.size, 1))], axis=1)
+        ph.gb[f] = np.concatenate([-ptf * Bm, np.zeros((f.size, 1))], axis=1)
+        # the modes whose free vibration is small are not sampled: their part of
+        # each output is bounded by the sum of their amplitudes (added to the
+        # sampled peak), where that sum is at most TAIL of the family's largest
+        amp = np.abs(Wt) * np.hypot(A, B)[:, None, :]  # (f, Q, J)
+        tail = np.cumsum(amp[:, :, ::-1], axis=2)[:, :, ::-1]
+        tail = np.concatenate([tail, np.zeros((f.size, Q, 1))], axis=2)  # from j
+        tot = tail[:, :, 0]
+        thr = np.zeros((f.size, Q))
+        for fam in ("D", "M", "V"):
+            thr[:, sl[fam]] = TAIL * tot[:, sl[fam]].max(axis=1, keepdims=True)
+        gamp = np.abs(ptf) * np.hypot(Am, Bm)
+        gtail = np.cumsum(gamp[:, ::-1], axis=1)[:, ::-1]
+        gtail = np.concatenate([gtail, np.zeros((f.size, 2))], axis=1)
+        ok = (np.all(tail <= thr[:, :, None] * (1.0 + 1e-12), axis=1)
+              & (gtail <= TAIL * gtail[:, :1]))
+        m = np.argmax(ok, axis=1)  # harmonics sampled
+        keep = np.arange(n1)[None, :] < m[:, None]
+        ph.As[f], ph.Bs[f] = np.where(keep, A, 0.0), np.where(keep, B, 0.0)
+        ph.tail[f] = np.take_along_axis(tail, m[:, None, None], axis=2)[:, :, 0]
+        om_s = np.max(np.where(keep, Om, 0.0), axis=1)
+        ph.dt[f] = 2.0 * math.pi / (sp * np.maximum(om_s, 1e-30))
+        # a phase with no kept mode: sample by the window instead
+        none = om_s <= 0.0
+        ph.dt[f[none]] = t_end[f[none]] / 64.0
+
+
+    def gap(self, idx: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """Gap c·x and its rate at phase times ``t`` (cases idx; t (n,) or (n, G))."""
+        ph = self.ph
         tt = t if t.ndim == 2 else t[:, None]
         arg = ph.Om[idx][:, None, :] * tt[:, :, None]
         cs, sn = np.cos(arg), np.sin(arg)
@@ -335,23 +401,26 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
         gd = l_u + 2.0 * w_u * tt + np.sum((gb * cs - ga * sn) * Om, axis=2)
         return (gv, gd) if t.ndim == 2 else (gv[:, 0], gd[:, 0])
 
-    def event_fn(idx: np.ndarray, which: np.ndarray, t: np.ndarray) -> np.ndarray:
+    def event_fn(self, idx: np.ndarray, which: np.ndarray, t: np.ndarray) -> np.ndarray:
         """The ending function of each case's phase at phase times t (> 0 once the
         phase has ended): 0 separation, 1 yield, 2 unloading, 3 stroke, 4 contact."""
+        k, p, cap, gap = self.k, self.p, self.cap, self.gap
         gv, gd = gap(idx, t)
         F = k[idx] * (gv - p[idx])
         return np.select([which == 0, which == 1, which == 2, which == 3],
                          [-F, F - cap[idx], -gd, gv - cap[idx] / k[idx] - p[idx]],
                          gv - p[idx])
 
-    def outputs(idx: np.ndarray, t: np.ndarray) -> np.ndarray:
+    def outputs(self, idx: np.ndarray, t: np.ndarray) -> np.ndarray:
         """The outputs at phase times t (cases idx; t (n,)) → (n, Q)."""
+        ph = self.ph
         arg = ph.Om[idx] * t[:, None]
         z = ph.A[idx] * np.cos(arg) + ph.B[idx] * np.sin(arg)
         return ph.yc[idx] + np.einsum("pj,pqj->pq", z, ph.CV[idx])
 
-    def state(idx: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    def state(self, idx: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """x and ẋ at phase times t (cases idx)."""
+        ph = self.ph
         arg = ph.Om[idx] * t[:, None]
         cs, sn = np.cos(arg), np.sin(arg)
         A, B, Om = ph.A[idx], ph.B[idx], ph.Om[idx]
@@ -361,15 +430,30 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
         xdv[:, 0] += ph.l_u[idx] + 2.0 * ph.w_u[idx] * t
         return xv, xdv
 
-    def fold(idx: np.ndarray, Y: np.ndarray) -> None:
+    def fold(self, idx: np.ndarray, Y: np.ndarray) -> None:
         """Fold outputs (n, Q) into the peaks."""
+        pk, sl = self.pk, self.sl
         pk[idx, 0] = np.maximum(pk[idx, 0], Y[:, 0])
         for j, key in enumerate(("D", "M", "V"), start=1):
             pk[idx, j] = np.maximum(pk[idx, j], np.abs(Y[:, sl[key]]).max(axis=1))
 
-    set_phase(np.arange(P))
-    while active.any():
-        idx = np.flatnonzero(active)
+    def round(self) -> None:
+        """One round over the active cases: samples of each phase, its end (an event or
+        the window's end) found exactly, the peaks folded, the phases advanced."""
+        idx = np.flatnonzero(self.active)
+        dt, ts, cs, sn, which, i_ev, G = self._scan(idx)
+        t_cut, ev_which, stop, nvalid = self._cut(idx, ts, which, i_ev, G)
+        self._fold_samples(idx, ts, cs, sn, nvalid, G)
+        self._fold_cut(idx, t_cut)
+        self._advance(idx, dt, ts, t_cut, ev_which, stop, nvalid)
+
+    def _scan(self, idx: np.ndarray) -> tuple:
+        """G samples of each active case's phase (its own spacing ``dt``): the phase
+        times ``ts``, the harmonics' cos/sin and the first sample past an event
+        (``which``: 0 separation, 1 yield, 2 unloading, 3 stroke, 4 contact; ``i_ev``, G
+        none)."""
+        W, k, s_y, p, cap, kind = self.W, self.k, self.s_y, self.p, self.cap, self.kind
+        tau, expect, ph = self.tau, self.expect, self.ph
         G = int(np.clip(2.0 * expect[idx, kind[idx]].max(), 16,
                         max(16, min(4096, _BUDGET // idx.size))))
         gg = np.arange(G, dtype=float)
@@ -397,6 +481,15 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
         which[:, 0] = -1
         hit = which >= 0
         i_ev = np.where(hit.any(axis=1), np.argmax(hit, axis=1), G)
+        return dt, ts, cs, sn, which, i_ev, G
+
+    def _cut(self, idx: np.ndarray, ts: np.ndarray, which: np.ndarray,
+             i_ev: np.ndarray, G: int) -> tuple:
+        """Where each case's samples end: the event's time by bisection of the closed
+        form within its bracket, then a secant step, or the window's end; the
+        samples before it counted."""
+        t_end, t0, tau, samples = self.t_end, self.t0, self.tau, self.samples
+        event_fn = self.event_fn
         # the window's end
         t_stop = np.maximum(t_end[idx] - t0[idx], tau[idx])
         # the event's time by bisection of the closed form within its bracket
@@ -425,6 +518,13 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
         ev_which = np.where(stop, -1, ev_which)
         nvalid = np.sum(ts <= t_cut[:, None], axis=1)
         samples[idx] += nvalid
+        return t_cut, ev_which, stop, nvalid
+
+    def _fold_samples(self, idx: np.ndarray, ts: np.ndarray, cs: np.ndarray,
+                      sn: np.ndarray, nvalid: np.ndarray, G: int) -> None:
+        """The outputs at the valid samples folded into the peaks."""
+        record, Q, t0, ph, rec, S = self.record, self.Q, self.t0, self.ph, self.rec, self.S
+        sl, state, fold = self.sl, self.state, self.fold
         # the outputs at the valid samples, in buckets of similar length (powers of
         # two), each peak refined by a parabola through the largest and its neighbours
         z = ph.As[idx][:, None, :] * cs + ph.Bs[idx][:, None, :] * sn  # (n, G, J)
@@ -470,6 +570,11 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
                     rec["M"].append(np.abs(Yr[sl["M"], :m]).max(axis=0))
                     rec["V"].append(np.abs(Yr[sl["V"], :m]).max(axis=0))
                     rec["U"].append(state(np.repeat(ii[:1], m), ts[r[0], :m])[0][:, 0])
+
+    def _fold_cut(self, idx: np.ndarray, t_cut: np.ndarray) -> None:
+        """The outputs at the cut folded into the peaks."""
+        record, t0, rec, S, sl = self.record, self.t0, self.rec, self.S, self.sl
+        outputs, state, fold = self.outputs, self.state, self.fold
         # the outputs at the cut (an event, the window's end) exactly
         Ycut = outputs(idx, t_cut)
         fold(idx, Ycut)
@@ -480,6 +585,16 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
             rec["M"].append(np.abs(Ycut[:1, sl["M"]]).max(axis=1))
             rec["V"].append(np.abs(Ycut[:1, sl["V"]]).max(axis=1))
             rec["U"].append(state(idx[:1], t_cut[:1])[0][:, 0])
+
+    def _advance(self, idx: np.ndarray, dt: np.ndarray, ts: np.ndarray,
+                 t_cut: np.ndarray, ev_which: np.ndarray, stop: np.ndarray,
+                 nvalid: np.ndarray) -> None:
+        """Each case on: past its samples, ended at the window's end, or into its next
+        phase at the event (a case past :data:`MAX_EVENTS` is handed to the reference)."""
+        k, s_y, c, x, xd, p = self.k, self.s_y, self.c, self.x, self.xd, self.p
+        cap, kind, t0, tau, t_sep = self.cap, self.kind, self.t0, self.tau, self.t_sep
+        active, events, expect = self.active, self.events, self.expect
+        chatter, set_phase, state = self.chatter, self.set_phase, self.state
         # advance
         go_on = ~stop & (ev_which < 0)
         ki = kind[idx]
@@ -517,16 +632,23 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
             chatter[ii[over]] = True
             active[ii[over]] = False
             set_phase(ii[~over])
-    crush = np.where(np.isfinite(F_y) & (kind == _CRUSH),
-                     np.einsum("pi,pi->p", c, x) - cap / k, p)
-    history = None
-    if record:
-        t = np.concatenate(rec["t"])
-        history = History(t=t, contact_force=np.concatenate(rec["F"]),
-                          deflection=np.concatenate(rec["D"]),
-                          moment=np.concatenate(rec["M"]), shear=np.concatenate(rec["V"]),
-                          load_displacement=np.concatenate(rec["U"]) if rec["U"]
-                          else np.zeros_like(t))
-    return {"force": pk[:, 0], "deflection": pk[:, 1], "moment": pk[:, 2], "shear": pk[:, 3],
-            "t_separation": t_sep, "dt": ph.dt.copy(), "crush": np.maximum(crush, 0.0),
-            "samples": samples, "chatter": chatter, "history": history, "events": events}
+
+    def result(self) -> dict:
+        """The peaks and what the caller reads of the run."""
+        k, F_y, record, c, x, p = self.k, self.F_y, self.record, self.c, self.x, self.p
+        cap, kind, t_sep, events = self.cap, self.kind, self.t_sep, self.events
+        samples, chatter, pk, ph = self.samples, self.chatter, self.pk, self.ph
+        rec = self.rec
+        crush = np.where(np.isfinite(F_y) & (kind == _CRUSH),
+                         np.einsum("pi,pi->p", c, x) - cap / k, p)
+        history = None
+        if record:
+            t = np.concatenate(rec["t"])
+            history = History(t=t, contact_force=np.concatenate(rec["F"]),
+                              deflection=np.concatenate(rec["D"]),
+                              moment=np.concatenate(rec["M"]), shear=np.concatenate(rec["V"]),
+                              load_displacement=np.concatenate(rec["U"]) if rec["U"]
+                              else np.zeros_like(t))
+        return {"force": pk[:, 0], "deflection": pk[:, 1], "moment": pk[:, 2], "shear": pk[:, 3],
+                "t_separation": t_sep, "dt": ph.dt.copy(), "crush": np.maximum(crush, 0.0),
+                "samples": samples, "chatter": chatter, "history": history, "events": events}

@@ -123,7 +123,12 @@ class Check:
     """One check family over the points: U at the elastic peak, allowed force and the
     member it governs on; for the calculation trace also the governing candidate's
     demand per N, existing demand and resistance (None otherwise). ``U_at(F)``: the
-    family's U at another force."""
+    family's U at another force; ``at(F)``: the family's whole check at another force
+    — its U, the member that governs there and (with the detail) that candidate's
+    demand per N, existing demand and resistance (None where not kept). A check made
+    at an amplified force A·F takes its member and detail from ``at(A·F)``: the
+    candidate with the largest U at F need not be the one at A·F (the existing demand
+    E weighs less as the force grows)."""
 
     name: str
     U: np.ndarray
@@ -133,6 +138,7 @@ class Check:
     exist: np.ndarray | None
     resist: np.ndarray | None
     U_at: Callable[[np.ndarray], np.ndarray]
+    at: Callable[[np.ndarray], Check] | None = None
 
 
 def small_check(name: str, F: np.ndarray, unit: np.ndarray, exist: np.ndarray | None,
@@ -169,11 +175,15 @@ def small_check(name: str, F: np.ndarray, unit: np.ndarray, exist: np.ndarray | 
 
     mem = (np.broadcast_to(member, shape)[0] if shape[0] == 1
            else np.broadcast_to(member, shape)[j, cols])
+
+    def at(Fx: np.ndarray) -> Check:
+        return small_check(name, Fx, unit, exist, resist, member, detail)
+
     if not detail:
-        return Check(name, U, F_allow, mem, None, None, None, U_at)
+        return Check(name, U, F_allow, mem, None, None, None, U_at, at)
     ex = np.zeros(shape) if exist is None else np.broadcast_to(exist, shape)
     return Check(name, U, F_allow, mem, np.broadcast_to(unit, shape)[j, cols],
-                 ex[j, cols], np.broadcast_to(resist, shape)[j, cols], U_at)
+                 ex[j, cols], np.broadcast_to(resist, shape)[j, cols], U_at, at)
 
 
 class Family:
@@ -276,6 +286,10 @@ class Family:
         governing candidate's demand per N, existing demand and resistance."""
         n = F.size
         cols = np.arange(n)
+
+        def at(Fx: np.ndarray) -> Check:
+            return self.check(name, Fx, detail)
+
         inf = np.isinf(F)
         has_inf = bool(inf.any())
         Fm = np.minimum(F, F_HUGE) if has_inf else F
@@ -291,7 +305,7 @@ class Family:
                 assert self.gmin is not None  # set with the groups
                 g = np.where(unbounded, np.argmin(self.gmin, axis=0), g)
             return Check(name, U, self.F_allow, self.members[g, cols], None, None, None,
-                         self.U_at)
+                         self.U_at, at)
         D = demand(F[None, :], self.ut, self.Et)
         U = D.max(axis=0)
         j = argmax0(D, U)
@@ -301,10 +315,10 @@ class Family:
         s = self.src[j]
         member = self.members[s, cols]
         if not detail:
-            return Check(name, U, self.F_allow, member, None, None, None, self.U_at)
+            return Check(name, U, self.F_allow, member, None, None, None, self.U_at, at)
         R = self.resist[s, cols]
         return Check(name, U, self.F_allow, member, self.ut[j, cols] * R,
-                     self.Et[j, cols] * R, R, self.U_at)
+                     self.Et[j, cols] * R, R, self.U_at, at)
 
     def tiled(self, k: int) -> Family:
         """This family repeated ``k`` times along the points (one copy per load)."""

@@ -1,13 +1,15 @@
 """Time history of the struck path at chosen drop points of a chain, and the factors
 on the energy method's demands that it gives.
 
-Idealisation (the same as :func:`droprig.solver.verification.verify_point`): the
-struck member — the deck member of the load path carrying the larger lever-rule share
-— is an Euler–Bernoulli beam (its end condition, span, the chain's EI) struck at its
-own position ``a`` by the whole load; everything else of the path (the other framing
-and the columns, the deck's indentation and strip, the load's underside, a spring
-mat) is a massless spring in series with the contact, so that the member's own spring
-plus the contact spring equal the chain's total compliance f. The member's mass per
+Idealisation: the struck member — the deck member of the load path carrying the
+larger lever-rule share w — is an Euler–Bernoulli beam (its end condition, span, the
+chain's EI) struck at its own position ``a``; everything else of the path (the other
+framing and the columns, the deck's indentation and strip, the load's underside, a
+spring mat) is a massless spring in series with the contact. The member sees the load
+through its share (:func:`shared_load`: mass w²·M, weight w·W, speed v/w, contact
+(f − w²·g_own)/w², so that its own spring and the contact's give the chain's total
+compliance f at the load); with w = 1 (``droprig check``, a point on one member) the
+whole load, as before. The member's mass per
 length is the one the chain's load path and struck-mass step read
 (``FloorModel.frame.mu``, the steel's); the other framing's and the slab's mass are
 not in the time history (raising the member's mass to the path's Rayleigh mass at
@@ -49,8 +51,9 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any, cast
 
 import numpy as np
+from numpy.typing import ArrayLike
 
-from droprig.solver import amplification, beam, exacthistory
+from droprig.solver import amplification, beam, exacthistory, impact
 from droprig.solver.beam import EndCondition
 from droprig.solver.loadpath import COND_NAMES
 
@@ -63,6 +66,7 @@ __all__ = [
     "PointHistory",
     "merge",
     "point_history",
+    "shared_load",
     "struck_member",
 ]
 
@@ -138,8 +142,46 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     F_y = np.where(crushable, inp.F_c[sel], imp.F_crush[sel])
     stroke = np.where(crushable, inp.s_c[sel], crush_depth_available(c))
     F_y = np.where(np.isfinite(F_y) & (F_y > W), F_y, np.inf)
+    w = np.clip(share[rows, k], 0.5, 1.0)  # the larger of two shares summing to 1
     return {"member": m, "cond": cond, "L": L, "a": a, "EI": EI, "mu": mu_th, "g_m": g_m,
-            "f_c": f_c, "F_yield": F_y, "stroke": stroke}
+            "f_c": f_c, "F_yield": F_y, "stroke": stroke, "share": w, "f_all": f_all}
+
+
+def shared_load(w: ArrayLike, M: ArrayLike, h: ArrayLike, f_all: ArrayLike,
+                g_own: ArrayLike, F_yield: ArrayLike = np.inf,
+                stroke: ArrayLike = np.inf) -> dict[str, np.ndarray]:
+    """The load as one member sees it when the footprint shares it by the lever rule,
+    in that member's own coordinate (a generalised-coordinate reduction, exact while
+    the rest of the path is massless — the time history's idealisation).
+
+    The load (mass M, kg; weight W = M·g, N; falling h, m) presses its contact (force
+    F, N) on a footprint that passes w·F (w the member's lever-rule share, 0 < w ≤ 1)
+    to the member at its point and the rest to the other member. The path's
+    compliance at the load is f_all = w²·g_own + f_rest (m/N; ``droprig.solver.
+    loadpath``: Σ w_k²·g_k + rᵀDr, plus the contact), g_own the member's own
+    G(a, a). With q the member's deflection at its point and u the load's travel,
+    u − w·q = F·f_rest (everything but the member in series, massless). In the
+    coordinate Q = u/w, with P = w·F the force on the member:
+    Q − q = P·f_rest/w², and the load's equation M·ü = W − F becomes
+    (w²·M)·Q̈ = w·W − P (virtual work: P·δq = F·w·δq; kinetic energy ½·M·u̇² =
+    ½·(w²M)·Q̇²). So the member sees a load of mass M_b = w²·M (kg) and weight
+    W_b = w·W (N), striking at Q̇₀ = v₀/w (h_b = h/w², m: the same kinetic energy)
+    through f_b = f_rest/w² = (f_all − w²·g_own)/w² (m/N); a contact that crushes
+    at F_yield (N) over ``stroke`` (m of u) crushes at w·F_yield over stroke/w. The
+    member's own peaks (moment, shear, deflection) are the reduced run's; its
+    contact force is the load's contact force times w. With w = 1 nothing changes.
+    (Lagrange's equations with a kinematic constraint, e.g. Clough & Penzien 2nd ed.
+    §8-2, generalised coordinates and virtual work — from memory.)
+
+    Returns ``M`` (kg), ``h`` (m), ``weight`` (N), ``f_c`` (m/N, ≥ 0), ``F_yield``
+    (N), ``stroke`` (m). Vectorised."""
+    w, M, h, f_all, g_own, Fy, sy = np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (w, M, h, f_all, g_own, F_yield, stroke)))
+    if np.any(~((w > 0.0) & (w <= 1.0))):
+        raise ValueError("w: the member's lever-rule share must lie in (0, 1]")
+    f_rest = np.maximum(f_all - w**2 * g_own, 0.0)
+    return {"M": w**2 * M, "h": h / w**2, "weight": w * M * impact.G,
+            "f_c": f_rest / w**2, "F_yield": w * Fy, "stroke": sy / w}
 
 
 def point_history(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray,
@@ -155,10 +197,13 @@ def point_history(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray,
 
     inp = c[LoadInputs]
     s = struck_member(c, sel)
-    M = inp.M[sel]
-    f_th = np.maximum(s["f_c"], amplification.KAPPA_MIN * s["g_m"])
-    t = exacthistory.exact_time_history(s["cond"], s["L"], s["EI"], s["mu"], s["a"], M, h,
-                                        f_th, F_yield=s["F_yield"], stroke=s["stroke"],
+    w = s["share"]
+    # the load as the member sees it through its lever-rule share (shared_load)
+    r = shared_load(w, inp.M[sel], h, s["f_all"], s["g_m"], s["F_yield"], s["stroke"])
+    f_th = np.maximum(r["f_c"], amplification.KAPPA_MIN * s["g_m"])
+    t = exacthistory.exact_time_history(s["cond"], s["L"], s["EI"], s["mu"], s["a"],
+                                        r["M"], r["h"], f_th, F_yield=r["F_yield"],
+                                        stroke=r["stroke"], weight=r["weight"],
                                         **{**TH_OPTIONS, **th_options})
     unit_m = np.zeros(sel.size)
     unit_v = np.zeros(sel.size)
@@ -175,8 +220,12 @@ def point_history(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray,
         unit_d[i] = np.maximum(
             np.max(beam.green(cc, L[:, None], EI[:, None], x, a[:, None]), axis=1),
             s["g_m"][i])
-    energy = {"force": F, "moment": F * unit_m, "shear": F * unit_v, "deflection": F * unit_d}
+    # the chain's demand on this member: its share w of the force F (the contact
+    # force stays F); the history's contact force is the member's (w·F) over w
+    energy = {"force": F, "moment": w * F * unit_m, "shear": w * F * unit_v,
+              "deflection": w * F * unit_d}
     th = {q: np.asarray(getattr(t, q), float) for q in QUANTITIES}
+    th["force"] = th["force"] / w
     factor = {}
     with np.errstate(divide="ignore", invalid="ignore"):
         for q in QUANTITIES:

@@ -140,27 +140,77 @@ def _episode(M, kc, m2, k2, W, modes, state):
     position in contact, m; velocities, m/s; (n,) each): peaks of the contact force
     and of x2 − x_st2 while in contact, whether and when the load leaves the
     structure (``sep``, ``t_sep``, s), and the state then. The samples step through
-    time by angle addition (one cos/sin per mode and window, not one per sample)."""
+    time by angle addition (one cos/sin per mode and window, not one per sample):
+    a fast window (:func:`_fast_window`), a slow one (:func:`_slow_window`), then the
+    separation (:func:`_separation`)."""
     w_lo, w_hi, p_lo, p_hi, w2_lo, w2_hi = modes
     y1, v1, y2, v2 = state
     det = p_hi - p_lo
-    qa_lo, qa_hi = (p_hi * y1 - y2) / det, (y2 - p_lo * y1) / det
-    qb_lo, qb_hi = (p_hi * v1 - v2) / det / w_lo, (v2 - p_lo * v1) / det / w_hi
+    q = ((p_hi * y1 - y2) / det, (y2 - p_lo * y1) / det,
+         (p_hi * v1 - v2) / det / w_lo, (v2 - p_lo * v1) / det / w_hi)
+    qa_lo, qa_hi, qb_lo, qb_hi = q
     # F = W + M·ω_lo²·q_lo + M·ω_hi²·q_hi (k_c·(1 − p) = M·ω²);
     # k2·x2 = W + k2·(p_lo·q_lo + p_hi·q_hi): coefficients of cos and sin per mode
-    FA_lo, FB_lo = M * w2_lo * qa_lo, M * w2_lo * qb_lo
-    FA_hi, FB_hi = M * w2_hi * qa_hi, M * w2_hi * qb_hi
-    XA_lo, XB_lo = p_lo * qa_lo, p_lo * qb_lo
-    XA_hi, XB_hi = p_hi * qa_hi, p_hi * qb_hi
-    n = M.shape[0]
-    F0 = W + FA_lo + FA_hi
-    X0 = XA_lo + XA_hi
-    F_pk, X_pk = F0.copy(), X0.copy()
-    tF, tX = np.zeros(n), np.zeros(n)
-    alive = np.ones(n, dtype=bool)  # still in contact
-    t_a, F_a = np.zeros(n), F0.copy()  # last sample in contact
-    t_b, F_b = np.full(n, np.inf), np.full(n, -1.0)  # first sample apart
-    # fast window: 1½ periods of the fast mode, sampled and refined
+    co = _Coeffs(W=W, w_lo=w_lo, w_hi=w_hi,
+                 FA_lo=M * w2_lo * qa_lo, FB_lo=M * w2_lo * qb_lo,
+                 FA_hi=M * w2_hi * qa_hi, FB_hi=M * w2_hi * qb_hi,
+                 XA_lo=p_lo * qa_lo, XB_lo=p_lo * qb_lo,
+                 XA_hi=p_hi * qa_hi, XB_hi=p_hi * qb_hi)
+    tr = _fast_window(co, M.shape[0])
+    _slow_window(co, tr)
+    ts = _separation(co, tr)
+    # the state at separation
+    cl, sl = np.cos(w_lo * ts), np.sin(w_lo * ts)
+    ch, sh = np.cos(w_hi * ts), np.sin(w_hi * ts)
+    ql = qa_lo * cl + qb_lo * sl
+    qh = qa_hi * ch + qb_hi * sh
+    qld = w_lo * (qb_lo * cl - qa_lo * sl)
+    qhd = w_hi * (qb_hi * ch - qa_hi * sh)
+    out = (ql + qh, qld + qhd, p_lo * ql + p_hi * qh, p_lo * qld + p_hi * qhd)
+    return tr.F_pk, tr.X_pk, np.isfinite(tr.t_b), ts, out
+
+
+@dataclass(frozen=True, eq=False)
+class _Coeffs:
+    """One contact in closed form (arrays over points): F(t) = W + Σ FA·cos ωt +
+    FB·sin ωt (N) and x2 − x_st2 = Σ XA·cos ωt + XB·sin ωt (m) over the slow (lo) and
+    fast (hi) modes ω (rad/s)."""
+
+    W: np.ndarray
+    w_lo: np.ndarray
+    w_hi: np.ndarray
+    FA_lo: np.ndarray
+    FB_lo: np.ndarray
+    FA_hi: np.ndarray
+    FB_hi: np.ndarray
+    XA_lo: np.ndarray
+    XB_lo: np.ndarray
+    XA_hi: np.ndarray
+    XB_hi: np.ndarray
+
+
+class _Track:
+    """What the windows follow of one contact (mutable, per point): peaks ``F_pk``
+    (N), ``X_pk`` (m) and their times; ``alive`` (still in contact); the last sample
+    in contact (``t_a``, ``F_a``) and the first apart (``t_b`` inf none, ``F_b``); the
+    fast window's end ``t_fast`` (s)."""
+
+    def __init__(self, F0: np.ndarray, X0: np.ndarray, n: int) -> None:
+        self.F_pk, self.X_pk = F0.copy(), X0.copy()
+        self.tF, self.tX = np.zeros(n), np.zeros(n)
+        self.alive = np.ones(n, dtype=bool)
+        self.t_a, self.F_a = np.zeros(n), F0.copy()
+        self.t_b, self.F_b = np.full(n, np.inf), np.full(n, -1.0)
+        self.t_fast = np.zeros(n)
+
+
+def _fast_window(co: _Coeffs, n: int) -> _Track:
+    """1½ periods of the fast mode, sampled (:data:`FAST_SAMPLES`) and the peaks
+    refined (:func:`_refine_max`)."""
+    W, w_lo, w_hi = co.W, co.w_lo, co.w_hi
+    FA_lo, FB_lo, FA_hi, FB_hi = co.FA_lo, co.FB_lo, co.FA_hi, co.FB_hi
+    XA_lo, XB_lo, XA_hi, XB_hi = co.XA_lo, co.XB_lo, co.XA_hi, co.XB_hi
+    tr = _Track(W + FA_lo + FA_hi, XA_lo + XA_hi, n)
     dt = 3.0 * np.pi / w_hi / FAST_SAMPLES
     cdl, sdl = np.cos(w_lo * dt), np.sin(w_lo * dt)
     cdh, sdh = np.cos(w_hi * dt), np.sin(w_hi * dt)
@@ -171,89 +221,97 @@ def _episode(M, kc, m2, k2, W, modes, state):
         t = k * dt
         F = W + FA_lo * cl + FB_lo * sl + FA_hi * ch + FB_hi * sh
         X = XA_lo * cl + XB_lo * sl + XA_hi * ch + XB_hi * sh
-        leave = alive & (F < 0.0)
+        leave = tr.alive & (F < 0.0)
         if leave.any():
-            t_b = np.where(leave, t, t_b)
-            F_b = np.where(leave, F, F_b)
-            alive &= ~leave
-        up = alive & (F > F_pk)
-        F_pk = np.where(up, F, F_pk)
-        tF = np.where(up, t, tF)
-        up = alive & (X > X_pk)
-        X_pk = np.where(up, X, X_pk)
-        tX = np.where(up, t, tX)
-        t_a = np.where(alive, t, t_a)
-        F_a = np.where(alive, F, F_a)
+            tr.t_b = np.where(leave, t, tr.t_b)
+            tr.F_b = np.where(leave, F, tr.F_b)
+            tr.alive &= ~leave
+        up = tr.alive & (F > tr.F_pk)
+        tr.F_pk = np.where(up, F, tr.F_pk)
+        tr.tF = np.where(up, t, tr.tF)
+        up = tr.alive & (X > tr.X_pk)
+        tr.X_pk = np.where(up, X, tr.X_pk)
+        tr.tX = np.where(up, t, tr.tX)
+        tr.t_a = np.where(tr.alive, t, tr.t_a)
+        tr.F_a = np.where(tr.alive, F, tr.F_a)
     t_fast = FAST_SAMPLES * dt
+    tr.t_fast = t_fast
     ws = (w_lo, w_hi)
-    hi_t = np.minimum(t_fast, t_b)
-    Fr = _refine_max(W, (FA_lo, FB_lo, FA_hi, FB_hi), ws, tF, np.zeros(n), hi_t)
-    Xr = _refine_max(np.zeros(n), (XA_lo, XB_lo, XA_hi, XB_hi), ws, tX, np.zeros(n), hi_t)
-    F_pk = np.maximum(F_pk, Fr)
-    X_pk = np.maximum(X_pk, Xr)
-    # slow window: one period of the slow mode after the fast window, the slow part
-    # sampled and refined, the fast mode's ripple added at its amplitude (upper bound)
+    hi_t = np.minimum(t_fast, tr.t_b)
+    Fr = _refine_max(W, (FA_lo, FB_lo, FA_hi, FB_hi), ws, tr.tF, np.zeros(n), hi_t)
+    Xr = _refine_max(np.zeros(n), (XA_lo, XB_lo, XA_hi, XB_hi), ws, tr.tX, np.zeros(n),
+                     hi_t)
+    tr.F_pk = np.maximum(tr.F_pk, Fr)
+    tr.X_pk = np.maximum(tr.X_pk, Xr)
+    return tr
+
+
+def _slow_window(co: _Coeffs, tr: _Track) -> None:
+    """One period of the slow mode after the fast window (points still in contact),
+    the slow part sampled (:data:`SLOW_SAMPLES`) and refined, the fast mode's ripple
+    added at its amplitude (upper bound); folds into ``tr``."""
+    if not tr.alive.any():
+        return
+    W, w_lo, w_hi = co.W, co.w_lo, co.w_hi
+    FA_lo, FB_lo, FA_hi, FB_hi = co.FA_lo, co.FB_lo, co.FA_hi, co.FB_hi
+    XA_lo, XB_lo = co.XA_lo, co.XB_lo
+    n = tr.alive.size
+    t_fast = tr.t_fast
     R_F = np.hypot(FA_hi, FB_hi)
-    R_X = np.hypot(XA_hi, XB_hi)
-    slow = alive.copy()
-    if slow.any():
-        dts = np.maximum(2.0 * np.pi / w_lo / SLOW_SAMPLES, 1e-300)
-        cdl, sdl = np.cos(w_lo * dts), np.sin(w_lo * dts)
-        cdh, sdh = np.cos(w_hi * dts), np.sin(w_hi * dts)
-        cl, sl = np.cos(w_lo * t_fast), np.sin(w_lo * t_fast)
-        ch, sh = np.cos(w_hi * t_fast), np.sin(w_hi * t_fast)
-        sF_pk, sX_pk = np.full(n, -np.inf), np.full(n, -np.inf)
-        tsF, tsX = t_fast.copy(), t_fast.copy()
-        for k in range(1, SLOW_SAMPLES + 1):
-            cl, sl = _rotate(cl, sl, cdl, sdl)
-            ch, sh = _rotate(ch, sh, cdh, sdh)
-            t = t_fast + k * dts
-            F_slow = W + FA_lo * cl + FB_lo * sl
-            F = F_slow + FA_hi * ch + FB_hi * sh
-            leave = alive & (F < 0.0)
-            if leave.any():
-                t_b = np.where(leave, t, t_b)
-                F_b = np.where(leave, F, F_b)
-                alive &= ~leave
-            Fb_ = F_slow + R_F
-            Xb_ = XA_lo * cl + XB_lo * sl + R_X
-            up = alive & (Fb_ > sF_pk)
-            sF_pk = np.where(up, Fb_, sF_pk)
-            tsF = np.where(up, t, tsF)
-            up = alive & (Xb_ > sX_pk)
-            sX_pk = np.where(up, Xb_, sX_pk)
-            tsX = np.where(up, t, tsX)
-            t_a = np.where(alive, t, t_a)
-            F_a = np.where(alive, F, F_a)
-        hi_s = np.minimum(t_fast + SLOW_SAMPLES * dts, t_b)
-        Fs_r = _refine_max(W + R_F, (FA_lo, FB_lo), (w_lo,), tsF, t_fast, hi_s)
-        Xs_r = _refine_max(R_X, (XA_lo, XB_lo), (w_lo,), tsX, t_fast, hi_s)
-        got = np.isfinite(sF_pk)
-        F_pk = np.where(got, np.maximum(F_pk, np.maximum(sF_pk, Fs_r)), F_pk)
-        X_pk = np.where(got, np.maximum(X_pk, np.maximum(sX_pk, Xs_r)), X_pk)
-    sep = np.isfinite(t_b)
-    # the separation time: secant steps on F(t) = 0 within [t_a, t_b]
-    ta, Fa = t_a, F_a
-    tb, Fb = np.where(sep, t_b, 0.0), F_b
+    R_X = np.hypot(co.XA_hi, co.XB_hi)
+    dts = np.maximum(2.0 * np.pi / w_lo / SLOW_SAMPLES, 1e-300)
+    cdl, sdl = np.cos(w_lo * dts), np.sin(w_lo * dts)
+    cdh, sdh = np.cos(w_hi * dts), np.sin(w_hi * dts)
+    cl, sl = np.cos(w_lo * t_fast), np.sin(w_lo * t_fast)
+    ch, sh = np.cos(w_hi * t_fast), np.sin(w_hi * t_fast)
+    sF_pk, sX_pk = np.full(n, -np.inf), np.full(n, -np.inf)
+    tsF, tsX = t_fast.copy(), t_fast.copy()
+    for k in range(1, SLOW_SAMPLES + 1):
+        cl, sl = _rotate(cl, sl, cdl, sdl)
+        ch, sh = _rotate(ch, sh, cdh, sdh)
+        t = t_fast + k * dts
+        F_slow = W + FA_lo * cl + FB_lo * sl
+        F = F_slow + FA_hi * ch + FB_hi * sh
+        leave = tr.alive & (F < 0.0)
+        if leave.any():
+            tr.t_b = np.where(leave, t, tr.t_b)
+            tr.F_b = np.where(leave, F, tr.F_b)
+            tr.alive &= ~leave
+        Fb_ = F_slow + R_F
+        Xb_ = XA_lo * cl + XB_lo * sl + R_X
+        up = tr.alive & (Fb_ > sF_pk)
+        sF_pk = np.where(up, Fb_, sF_pk)
+        tsF = np.where(up, t, tsF)
+        up = tr.alive & (Xb_ > sX_pk)
+        sX_pk = np.where(up, Xb_, sX_pk)
+        tsX = np.where(up, t, tsX)
+        tr.t_a = np.where(tr.alive, t, tr.t_a)
+        tr.F_a = np.where(tr.alive, F, tr.F_a)
+    hi_s = np.minimum(t_fast + SLOW_SAMPLES * dts, tr.t_b)
+    Fs_r = _refine_max(W + R_F, (FA_lo, FB_lo), (w_lo,), tsF, t_fast, hi_s)
+    Xs_r = _refine_max(R_X, (XA_lo, XB_lo), (w_lo,), tsX, t_fast, hi_s)
+    got = np.isfinite(sF_pk)
+    tr.F_pk = np.where(got, np.maximum(tr.F_pk, np.maximum(sF_pk, Fs_r)), tr.F_pk)
+    tr.X_pk = np.where(got, np.maximum(tr.X_pk, np.maximum(sX_pk, Xs_r)), tr.X_pk)
+
+
+def _separation(co: _Coeffs, tr: _Track) -> np.ndarray:
+    """The separation time (s; 0 where the load stays): secant steps on F(t) = 0
+    within [t_a, t_b]."""
+    W, w_lo, w_hi = co.W, co.w_lo, co.w_hi
+    sep = np.isfinite(tr.t_b)
+    ta, Fa = tr.t_a, tr.F_a
+    tb, Fb = np.where(sep, tr.t_b, 0.0), tr.F_b
     for _ in range(3):
         with np.errstate(divide="ignore", invalid="ignore"):
             tm = np.where(Fa > Fb, ta + (tb - ta) * Fa / (Fa - Fb), tb)
         tm = np.clip(np.where(np.isfinite(tm), tm, tb), np.minimum(ta, tb), tb)
-        Fm = (W + FA_lo * np.cos(w_lo * tm) + FB_lo * np.sin(w_lo * tm)
-              + FA_hi * np.cos(w_hi * tm) + FB_hi * np.sin(w_hi * tm))
+        Fm = (W + co.FA_lo * np.cos(w_lo * tm) + co.FB_lo * np.sin(w_lo * tm)
+              + co.FA_hi * np.cos(w_hi * tm) + co.FB_hi * np.sin(w_hi * tm))
         pos = Fm >= 0.0
         ta, Fa = np.where(pos, tm, ta), np.where(pos, Fm, Fa)
         tb, Fb = np.where(pos, tb, tm), np.where(pos, Fb, Fm)
-    ts = np.where(sep, 0.5 * (ta + tb), 0.0)
-    # the state at separation
-    cl, sl = np.cos(w_lo * ts), np.sin(w_lo * ts)
-    ch, sh = np.cos(w_hi * ts), np.sin(w_hi * ts)
-    ql = qa_lo * cl + qb_lo * sl
-    qh = qa_hi * ch + qb_hi * sh
-    qld = w_lo * (qb_lo * cl - qa_lo * sl)
-    qhd = w_hi * (qb_hi * ch - qa_hi * sh)
-    out = (ql + qh, qld + qhd, p_lo * ql + p_hi * qh, p_lo * qld + p_hi * qhd)
-    return F_pk, X_pk, sep, ts, out
+    return np.where(sep, 0.5 * (ta + tb), 0.0)
 
 
 CATCH_STEPS = 400
@@ -791,15 +849,26 @@ class EnvelopeLookup:
             lhh = np.log10(np.clip(hh, 1e-300, 1e300))
         k, wk = _cell(lhh, h0, dh, nh)
         top = h0 + (nh - 1) * dh
-        over = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh, top) - top), 1.0))
+        # √(10^(max(lĥ, top) − top)), 1 at and below the table's top: the power is
+        # taken only above it (and for NaN), where it differs from 1
+        over = np.ones(lhh.shape)
+        up = ~(lhh <= top)
+        if up.any():
+            over[up] = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh[up], top) - top), 1.0))
         LFC = _log_envelope_pair()
         acc = np.zeros((W.size, 2))
-        base, wab = self.base[:, r], self.wab[:, r]
+        # (np.take: the same rows as LFC[b] and columns as [:, rows], gathered several
+        # times faster; one corner at a time keeps the temporaries in cache)
+        if rows is None:
+            base, wab = self.base, self.wab
+        else:
+            base, wab = np.take(self.base, rows, axis=1), np.take(self.wab, rows, axis=1)
         for q in range(4):
             b = base[q] + k
             w1 = wab[q] * wk
             w0 = wab[q] - w1
-            acc += w0[:, None] * LFC[b] + w1[:, None] * LFC[b + 1]
+            acc += (w0[:, None] * np.take(LFC, b, axis=0)
+                    + w1[:, None] * np.take(LFC, b + 1, axis=0))
         e = np.exp(acc)
         Ff = e[:, 0] * over * W
         Fc = e[:, 1] * over * self.c_scale[r] * W

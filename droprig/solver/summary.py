@@ -110,135 +110,195 @@ def summarise(level: Level, zone: LiftZone, load: LiftLoad, case: CaseResult,
     the level under this one, if the project holds it; ``protection_ids``: the ids of
     ``project.protection_areas``). A point on a shared grid line or at a column counts
     for every bay it touches (closed bays). All bays are reduced at once over a (bay,
-    point) membership matrix. Each quantity is reported with the point and the check
-    that set it (the least allowable height need not come from the point of largest
-    utilisation)."""
-    out: list[BaySummary] = []
+    point) membership matrix (:func:`_membership`, :func:`_bay_stats`). Each quantity
+    is reported with the point and the check that set it (the least allowable height
+    need not come from the point of largest utilisation)."""
     all_bays = _bays(level)
-    members = level.members
-    n = case.x.size
-    if n == 0 or not all_bays:
-        return out
+    if case.x.size == 0 or not all_bays:
+        return []
+    M = _membership(level, case)
+    st = _bay_stats(M, case)
+    return [_bay_summary(level, all_bays[b].id, zone, load, case, M, st, int(b), level_below,
+                         protection_ids)
+            for b in np.flatnonzero(st.count)]
+
+
+def _membership(level: Level, case: CaseResult) -> np.ndarray:
+    """(bays, n) bool: point i lies in bay b (closed, within
+    :data:`droppoints.EDGE_TOL` of its grid lines; b = j·nx + i, as
+    :func:`droprig.model.bays` numbers them)."""
     g = level.grid
     xl, yl = np.asarray(g.x_lines, float), np.asarray(g.y_lines, float)
     tol = droppoints.EDGE_TOL
     x, y = case.x, case.y
     Mx = (x >= xl[:-1, None] - tol) & (x <= xl[1:, None] + tol)  # (nx, n)
     My = (y >= yl[:-1, None] - tol) & (y <= yl[1:, None] + tol)  # (ny, n)
-    M = (My[:, None, :] & Mx[None, :, :]).reshape(-1, n)  # (bays, n), b = j·nx + i
-    count = M.sum(axis=1)
+    return (My[:, None, :] & Mx[None, :, :]).reshape(-1, x.size)  # (bays, n)
+
+
+def _least(M: np.ndarray, v: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Smallest value per bay of ``v`` (per point), the point that has it, and whether
+    any point of the bay has none (nan)."""
+    vm = np.where(M, np.where(np.isnan(v), np.inf, v), np.inf)
+    return vm.min(axis=1), vm.argmin(axis=1), (M & np.isnan(v)).any(axis=1)
+
+
+def _bay_min(M: np.ndarray, v: np.ndarray) -> np.ndarray:
+    """Least of ``v`` over each bay's points, NaN left out (inf where none)."""
+    return np.where(M, np.where(np.isnan(v), np.inf, v), np.inf).min(axis=1)
+
+
+@dataclass(frozen=True, eq=False)
+class _BayStats:
+    """Per-bay reductions of a case over the membership matrix (arrays over bays):
+    points ``count``; the first worst point ``gov`` (by severity) and worst response
+    ``worst``; the largest utilisation ``U_max`` (−inf none) and its point ``u_at``;
+    the least elastic / plastic allowable height and allowable mass (value, point,
+    any none: ``h_el*``, ``h_pl*``, ``m_al*``); the stiffest mat for the whole bay
+    ``k_min`` (N/m), whether it is offered ``k_ok`` and its compression ``travel``
+    (m, −inf none); openings ``n_open``; ``scab``, ``extrap``; least scabbing and
+    perforation heights (m, inf none); deepest dent (m, −inf none) and least dent
+    height (m, inf none)."""
+
+    count: np.ndarray
+    gov: np.ndarray
+    worst: np.ndarray
+    U_max: np.ndarray
+    u_at: np.ndarray
+    h_el: tuple[np.ndarray, np.ndarray, np.ndarray]
+    h_pl: tuple[np.ndarray, np.ndarray, np.ndarray]
+    m_al: tuple[np.ndarray, np.ndarray, np.ndarray]
+    k_ok: np.ndarray
+    k_min: np.ndarray
+    travel: np.ndarray
+    n_open: np.ndarray
+    scab: np.ndarray
+    extrap: np.ndarray
+    h_scab: np.ndarray
+    h_perf: np.ndarray
+    dent: np.ndarray
+    h_dent: np.ndarray
+
+
+def _bay_stats(M: np.ndarray, case: CaseResult) -> _BayStats:
+    """:class:`_BayStats` of ``case`` over the (bays, n) membership ``M``."""
     sev = severity(case.utilisation, case.response)
-    resp = case.response
-    gov = np.argmax(np.where(M, sev, -np.inf), axis=1)  # first worst point per bay
-    worst = np.where(M, resp, -1).max(axis=1)
     U = case.utilisation
     U_m = np.where(M, np.where(np.isnan(U), -np.inf, U), -np.inf)
-    U_max = U_m.max(axis=1)
-    u_at = U_m.argmax(axis=1)
-
-    def least(v: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-        """Smallest value per bay, the point that has it, and whether any point of the
-        bay has none (nan)."""
-        vm = np.where(M, np.where(np.isnan(v), np.inf, v), np.inf)
-        return vm.min(axis=1), vm.argmin(axis=1), (M & np.isnan(v)).any(axis=1)
-
-    h_el, h_el_at, h_el_none = least(case.allowable_drop_height)
-    h_pl, h_pl_at, h_pl_none = least(case.allowable_drop_height_plastic)
-    m_al, m_al_at, m_al_none = least(case.allowable_mass)
     # the stiffest mat laid over the whole bay that keeps every point of it elastic
     # (η = 1 under a mat, so points that stay elastic on bare deck count as well)
     # (offered where no pad lies: a mat does not replace a pad's design)
     kv = case.required_mat_stiffness
     k_ok = ~(M & (np.isnan(kv) | (case.protection >= 0))).any(axis=1)
     k_min = np.where(M, kv, np.inf).min(axis=1)
+    return _BayStats(
+        count=M.sum(axis=1),
+        gov=np.argmax(np.where(M, sev, -np.inf), axis=1),  # first worst point per bay
+        worst=np.where(M, case.response, -1).max(axis=1),
+        U_max=U_m.max(axis=1), u_at=U_m.argmax(axis=1),
+        h_el=_least(M, case.allowable_drop_height),
+        h_pl=_least(M, case.allowable_drop_height_plastic),
+        m_al=_least(M, case.allowable_mass),
+        k_ok=k_ok, k_min=k_min, travel=_mat_travel(M, case, k_ok, k_min),
+        n_open=(M & (case.governing_check == CHECKS.index("opening"))).sum(axis=1),
+        scab=(M & case.scabbing).any(axis=1),
+        extrap=(M & case.local_extrapolated).any(axis=1),
+        h_scab=_bay_min(M, case.scabbing_height),
+        h_perf=_bay_min(M, case.perforation_height),
+        # steel plate decks: the deepest dent and the least height of the dent limit
+        dent=np.where(M, np.where(np.isnan(case.dent_depth), -np.inf, case.dent_depth),
+                      -np.inf).max(axis=1),
+        h_dent=_bay_min(M, case.dent_height))
+
+
+def _mat_travel(M: np.ndarray, case: CaseResult, k_ok: np.ndarray,
+                k_min: np.ndarray) -> np.ndarray:
+    """How far the mat offered to each bay (:data:`LIMIT_MARGIN` × ``k_min``, N/m)
+    compresses: F/k at each point with the mat in series (Gere §9.10, η = 1 under a
+    mat), the largest over the bay (m; −inf where no mat is offered)."""
     travel_all = np.full(k_min.shape, -np.inf)
     fs_pts = case.structure_compliance
     for b in np.flatnonzero(k_ok & np.isfinite(k_min) & (k_min > 0)):
-        # how far the mat compresses: F/k at each point with the mat in series
-        # (Gere §9.10, η = 1 under a mat), the largest over the bay
         sel = M[b]
         k_adv = LIMIT_MARGIN * k_min[b]  # the mat offered (bay_advice)
         f_pts = (fs_pts[sel] if fs_pts is not None else 0.0) + 1.0 / k_adv
         _, F_pts, _ = impact.impact_elastic(case.weight, case.drop_height[sel], f_pts, 1.0)
         travel_all[b] = float(np.max(F_pts)) / k_adv
-    n_open = (M & (case.governing_check == CHECKS.index("opening"))).sum(axis=1)
-    h_chk = case.allowable_height_check
-    h_mem = case.allowable_height_member
-    hp_chk = case.allowable_height_plastic_check
-    prot = case.protection
+    return travel_all
+
+
+def _bay_summary(level: Level, bay_id: str, zone: LiftZone, load: LiftLoad,
+                 case: CaseResult, M: np.ndarray, st: _BayStats, b: int,
+                 level_below: str | None, protection_ids: Sequence[str]) -> BaySummary:
+    """The :class:`BaySummary` of bay ``b`` (row of ``M`` and ``st``)."""
+    members = level.members
 
     def mname(gm: int) -> str:
         return "deck" if gm == DECK else members[gm].id
 
-    scab = (M & case.scabbing).any(axis=1)
-    extrap = (M & case.local_extrapolated).any(axis=1)
-    h_scab = np.where(M, np.where(np.isnan(case.scabbing_height), np.inf,
-                                  case.scabbing_height), np.inf).min(axis=1)
-    h_perf = np.where(M, np.where(np.isnan(case.perforation_height), np.inf,
-                                  case.perforation_height), np.inf).min(axis=1)
-    # steel plate decks: the deepest dent and the least height of the dent limit
-    dent = np.where(M, np.where(np.isnan(case.dent_depth), -np.inf, case.dent_depth),
-                    -np.inf).max(axis=1)
-    h_dent = np.where(M, np.where(np.isnan(case.dent_height), np.inf, case.dent_height),
-                      np.inf).min(axis=1)
-    for b in np.flatnonzero(count):
-        i = int(gov[b])
-        wst = int(worst[b])
-        u_b = float(U_max[b])
-        u_b = u_b if u_b > -np.inf else float("inf")
-        iu = int(u_at[b])
-        he = None if h_el_none[b] else float(h_el[b])
-        hp = None if h_pl_none[b] else float(h_pl[b])
-        ih, ihp = int(h_el_at[b]), int(h_pl_at[b])
-        k_mat = float(k_min[b]) if k_ok[b] and wst != ELASTIC else None
-        travel = float(travel_all[b]) if k_mat is not None and \
-            math.isfinite(float(travel_all[b])) and travel_all[b] > 0 else None
-        gm = int(case.governing_member[i])
-        hs = float(h_scab[b]) if np.isfinite(h_scab[b]) else None
-        hpf = float(h_perf[b]) if np.isfinite(h_perf[b]) else None
-        adv = bay_advice(wst, int(n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he,
-                         min((v for v in (hs, hpf) if v is not None), default=None))
-        so = int(case.strike_orientation[i])
-        lim_at = ihp if wst == EXCEEDS else ih
-        if adv.height_limit is None:
-            lim_chk = ""
-        elif wst == EXCEEDS and hp_chk is not None and int(hp_chk[ihp]) >= 0:
-            lim_chk = CHECKS[int(hp_chk[ihp])]
-        else:
-            lim_chk = CHECKS[int(h_chk[lim_at])] if h_chk is not None else ""
-        pads = [int(p) for p in np.unique(prot[M[b] & (prot >= 0)])]  # sorted
-        out.append(BaySummary(
-            level_id=level.id, bay_id=all_bays[b].id, zone_id=zone.id,
-            load_name=load.name, n_points=int(count[b]), max_utilisation=u_b,
-            response=RESPONSES[wst], allowable_drop_height=he,
-            allowable_drop_height_plastic=hp, governing_x=float(case.x[i]),
-            governing_y=float(case.y[i]),
-            governing_member=mname(gm),
-            governing_check=CHECKS[int(case.governing_check[i])], advice_kind=adv.kind,
-            height_limit=adv.height_limit, height_limit_yields=adv.height_limit_yields,
-            mat_stiffness_max=adv.mat_stiffness_max, mat_travel=adv.mat_travel,
-            planned_drop_height=case.planned_drop_height,
-            utilisation_x=float(case.x[iu]), utilisation_y=float(case.y[iu]),
-            utilisation_member=mname(int(case.utilisation_member[iu])),
-            utilisation_check=CHECKS[int(case.utilisation_check[iu])],
-            height_x=None if he is None else float(case.x[ih]),
-            height_y=None if he is None else float(case.y[ih]),
-            height_member="" if he is None or h_mem is None else mname(int(h_mem[ih])),
-            height_check="" if he is None or h_chk is None else CHECKS[int(h_chk[ih])],
-            height_limit_x=None if not lim_chk else float(case.x[lim_at]),
-            height_limit_y=None if not lim_chk else float(case.y[lim_at]),
-            height_limit_check=lim_chk,
-            protections=tuple(protection_ids[p] for p in pads if p < len(protection_ids)),
-            allowable_mass=None if m_al_none[b] else float(m_al[b]),
-            allowable_mass_x=None if m_al_none[b] else float(case.x[int(m_al_at[b])]),
-            allowable_mass_y=None if m_al_none[b] else float(case.y[int(m_al_at[b])]),
-            scabbing=bool(scab[b]), scabbing_height=hs, perforation_height=hpf,
-            local_extrapolated=bool(extrap[b]),
-            strike_orientation=STRIKE_ORIENTATIONS[so] if so >= 0 else None,
-            level_below=level_below,
-            dent_depth=float(dent[b]) if np.isfinite(dent[b]) else None,
-            dent_height=float(h_dent[b]) if np.isfinite(h_dent[b]) else None))
-    return out
+    h_el, h_el_at, h_el_none = st.h_el
+    h_pl, h_pl_at, h_pl_none = st.h_pl
+    m_al, m_al_at, m_al_none = st.m_al
+    h_chk = case.allowable_height_check
+    h_mem = case.allowable_height_member
+    hp_chk = case.allowable_height_plastic_check
+    prot = case.protection
+    i = int(st.gov[b])
+    wst = int(st.worst[b])
+    u_b = float(st.U_max[b])
+    u_b = u_b if u_b > -np.inf else float("inf")
+    iu = int(st.u_at[b])
+    he = None if h_el_none[b] else float(h_el[b])
+    hp = None if h_pl_none[b] else float(h_pl[b])
+    ih, ihp = int(h_el_at[b]), int(h_pl_at[b])
+    k_mat = float(st.k_min[b]) if st.k_ok[b] and wst != ELASTIC else None
+    travel = float(st.travel[b]) if k_mat is not None and \
+        math.isfinite(float(st.travel[b])) and st.travel[b] > 0 else None
+    gm = int(case.governing_member[i])
+    hs = float(st.h_scab[b]) if np.isfinite(st.h_scab[b]) else None
+    hpf = float(st.h_perf[b]) if np.isfinite(st.h_perf[b]) else None
+    adv = bay_advice(wst, int(st.n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he,
+                     min((v for v in (hs, hpf) if v is not None), default=None))
+    so = int(case.strike_orientation[i])
+    lim_at = ihp if wst == EXCEEDS else ih
+    if adv.height_limit is None:
+        lim_chk = ""
+    elif wst == EXCEEDS and hp_chk is not None and int(hp_chk[ihp]) >= 0:
+        lim_chk = CHECKS[int(hp_chk[ihp])]
+    else:
+        lim_chk = CHECKS[int(h_chk[lim_at])] if h_chk is not None else ""
+    pads = [int(p) for p in np.unique(prot[M[b] & (prot >= 0)])]  # sorted
+    return BaySummary(
+        level_id=level.id, bay_id=bay_id, zone_id=zone.id,
+        load_name=load.name, n_points=int(st.count[b]), max_utilisation=u_b,
+        response=RESPONSES[wst], allowable_drop_height=he,
+        allowable_drop_height_plastic=hp, governing_x=float(case.x[i]),
+        governing_y=float(case.y[i]),
+        governing_member=mname(gm),
+        governing_check=CHECKS[int(case.governing_check[i])], advice_kind=adv.kind,
+        height_limit=adv.height_limit, height_limit_yields=adv.height_limit_yields,
+        mat_stiffness_max=adv.mat_stiffness_max, mat_travel=adv.mat_travel,
+        planned_drop_height=case.planned_drop_height,
+        utilisation_x=float(case.x[iu]), utilisation_y=float(case.y[iu]),
+        utilisation_member=mname(int(case.utilisation_member[iu])),
+        utilisation_check=CHECKS[int(case.utilisation_check[iu])],
+        height_x=None if he is None else float(case.x[ih]),
+        height_y=None if he is None else float(case.y[ih]),
+        height_member="" if he is None or h_mem is None else mname(int(h_mem[ih])),
+        height_check="" if he is None or h_chk is None else CHECKS[int(h_chk[ih])],
+        height_limit_x=None if not lim_chk else float(case.x[lim_at]),
+        height_limit_y=None if not lim_chk else float(case.y[lim_at]),
+        height_limit_check=lim_chk,
+        protections=tuple(protection_ids[p] for p in pads if p < len(protection_ids)),
+        allowable_mass=None if m_al_none[b] else float(m_al[b]),
+        allowable_mass_x=None if m_al_none[b] else float(case.x[int(m_al_at[b])]),
+        allowable_mass_y=None if m_al_none[b] else float(case.y[int(m_al_at[b])]),
+        scabbing=bool(st.scab[b]), scabbing_height=hs, perforation_height=hpf,
+        local_extrapolated=bool(st.extrap[b]),
+        strike_orientation=STRIKE_ORIENTATIONS[so] if so >= 0 else None,
+        level_below=level_below,
+        dent_depth=float(st.dent[b]) if np.isfinite(st.dent[b]) else None,
+        dent_height=float(st.h_dent[b]) if np.isfinite(st.h_dent[b]) else None)
 
 
 _BAYS: dict[Level, tuple] = {}

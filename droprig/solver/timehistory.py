@@ -300,14 +300,17 @@ def _green_aa(cond: str | ArrayLike, L: np.ndarray, EI: np.ndarray,
     return out
 
 
-def checked_case(cond: str | ArrayLike, values: tuple[ArrayLike, ...], record: bool
+def checked_case(cond: str | ArrayLike, values: tuple[ArrayLike, ...], record: bool,
+                 weight: ArrayLike | None = None
                  ) -> tuple[tuple[np.ndarray, ...], np.ndarray, np.ndarray]:
     """The inputs of a time history (L, EI, mu, a, M, h, f_c, F_yield, stroke, in SI)
     broadcast to one array each (at least 1-D), checked as both integrators need
     them; with the static compliance f_s at the load (:func:`_green_aa`, m/N) and
-    the weight W = M·g (N). Raises ValueError naming the input: ``record`` with more
-    than one case; a rigid contact on a rigid support; a crushing force not above
-    the weight, or a negative stroke."""
+    the weight W = M·g (N), or ``weight`` where given (N, > 0: a load seen through a
+    generalised coordinate, :func:`droprig.solver.pointhistory.shared_load`). Raises
+    ValueError naming the input: ``record`` with more than one case; a rigid contact
+    on a rigid support; a weight not above 0; a crushing force not above the weight,
+    or a negative stroke."""
     arrs = tuple(np.atleast_1d(v) for v in np.broadcast_arrays(
         *(np.asarray(v, float) for v in values)))
     L, EI, _mu, a, M, _h, f_c, F_y, s_y = arrs
@@ -319,7 +322,12 @@ def checked_case(cond: str | ArrayLike, values: tuple[ArrayLike, ...], record: b
     if np.any(f_s + f_c <= 0.0):
         raise ValueError("a: a point on a rigid support with a rigid contact has no "
                          "finite impact force; give a contact compliance")
-    W = M * impact.G
+    if weight is None:
+        W = M * impact.G
+    else:
+        W = np.broadcast_to(np.asarray(weight, float), L.shape).copy()
+        if np.any(~(W > 0.0)) or np.any(~np.isfinite(W)):
+            raise ValueError("weight: the load's weight must be a finite number > 0 N")
     if np.any(~(F_y > W)) or np.any(~(s_y >= 0.0)):
         raise ValueError("F_yield: the crushing force must exceed the load's weight "
                          "(allowed: > M·g, N) and stroke must be ≥ 0 m")
@@ -333,7 +341,7 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
                  steps_per_period: int = DEFAULT_STEPS_PER_PERIOD,
                  duration: float = 1.25, record: bool = False,
                  F_yield: ArrayLike = math.inf, stroke: ArrayLike = math.inf,
-                 _plan: bool = False) -> TimeHistoryPeaks:
+                 weight: ArrayLike | None = None, _plan: bool = False) -> TimeHistoryPeaks:
     """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
     condition ``cond``, span L m, EI N·m², μ kg/m) at ``a`` (m from the origin end)
     through a contact compliance f_c (m/N); model and sources in the module docstring.
@@ -351,30 +359,57 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
     F_yield, until the set reaches ``stroke`` (m; ∞ never), after which it is elastic
     and uncapped (module docstring). The run is lengthened by the crushing time
     M·v₀/(F_yield − W).
+
+    ``weight`` (N, default M·g): the load's weight where it is not M·g — a load
+    seen through a generalised coordinate (:func:`droprig.solver.pointhistory.
+    shared_load`); the load then falls freely at W/M.
     """
     (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = checked_case(
-        cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record)
-    P = L.size
-    g = impact.G
-    v0 = np.sqrt(2.0 * g * h)
-    if isinstance(cond, str):
-        su = _setup(cast(EndCondition, cond), L, EI, mu, a, M, f_c, f_s, n_modes, cutoff)
-    else:  # one end condition per case: set up per condition, then merge
-        conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
-        su = {}
-        for cnd in dict.fromkeys(conds.tolist()):
-            idx = np.flatnonzero(conds == cnd)
-            part = _setup(cnd, L[idx], EI[idx], mu[idx], a[idx], M[idx], f_c[idx], f_s[idx],
-                          n_modes, cutoff)
-            for key, val in part.items():
-                if key not in su:
-                    su[key] = np.zeros((P, *val.shape[1:]), dtype=val.dtype)
-                su[key][idx] = val
-    omega, m_e, inv_m, kept, f_k, k, pt, Wd, Wm, Wv, Rd, Rm, Rv, T1 = (
-        su[key] for key in _SETUP_KEYS)
-    N = omega.shape[1]
+        cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record, weight)
+    v0 = np.sqrt(2.0 * impact.G * h)
+    su = _merged_setup(cond, L, EI, mu, a, M, f_c, f_s, n_modes, cutoff)
+    dt, t_end = _step_and_window(su, M, mu, L, f_s, f_c, F_y, W, v0, steps_per_period,
+                                 duration)
+    if _plan:  # steps each case needs (for time_history_batched); nothing integrated
+        z = np.zeros(L.size)
+        return TimeHistoryPeaks(force=z, moment=z, shear=z, deflection=z,
+                                t_separation=z, modes=su["kept"].sum(axis=1),
+                                dt=np.ceil(t_end / dt), steps=0)
+    n_steps = int(min(np.max(np.ceil(t_end / dt)), _MAX_STEPS))
+    return _integrate(su, M, W, v0, F_y, s_y, t_end / n_steps, n_steps, record)
 
-    # time step and duration
+
+def _merged_setup(cond: EndCondition | ArrayLike, L: np.ndarray, EI: np.ndarray,
+                  mu: np.ndarray, a: np.ndarray, M: np.ndarray, f_c: np.ndarray,
+                  f_s: np.ndarray, n_modes: int, cutoff: float) -> dict[str, np.ndarray]:
+    """:func:`_setup` of every case: for one end condition at once; for one per case,
+    per condition, then merged (arrays over the cases in their order)."""
+    P = L.size
+    if isinstance(cond, str):
+        return _setup(cast(EndCondition, cond), L, EI, mu, a, M, f_c, f_s, n_modes, cutoff)
+    conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
+    su: dict[str, np.ndarray] = {}
+    for cnd in dict.fromkeys(conds.tolist()):
+        idx = np.flatnonzero(conds == cnd)
+        part = _setup(cnd, L[idx], EI[idx], mu[idx], a[idx], M[idx], f_c[idx], f_s[idx],
+                      n_modes, cutoff)
+        for key, val in part.items():
+            if key not in su:
+                su[key] = np.zeros((P, *val.shape[1:]), dtype=val.dtype)
+            su[key][idx] = val
+    return su
+
+
+def _step_and_window(su: dict[str, np.ndarray], M: np.ndarray, mu: np.ndarray,
+                     L: np.ndarray, f_s: np.ndarray, f_c: np.ndarray, F_y: np.ndarray,
+                     W: np.ndarray, v0: np.ndarray, steps_per_period: int,
+                     duration: float) -> tuple[np.ndarray, np.ndarray]:
+    """The time step (s): the shorter of the contact period over
+    ``steps_per_period`` and the highest kept mode's (stiffened by the contact
+    spring) over 8; and the run's length (s): ``duration`` × the longer of the
+    fundamental and the loaded period, plus the crushing time M·v₀/(F_yield − W)."""
+    omega, kept, k, pt = su["omega"], su["kept"], su["k"], su["pt"]
+    P, N = L.size, omega.shape[1]
     w_top = np.max(np.where(kept, omega, 0.0), axis=1) if N else np.zeros(P)
     # a mode stiffened by the contact spring: ω² ≤ ωₙ² + k·φ̃ₙ²
     w_top = np.sqrt(w_top**2 + k * np.max(pt**2, axis=1, initial=0.0))
@@ -382,26 +417,59 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
         T_top = np.where(w_top > 0.0, 2.0 * math.pi / np.where(w_top > 0, w_top, 1.0), np.inf)
     # the contact period sets the accuracy; the highest kept mode (nearly quasi-static
     # by the cut-off) gets at least 8 steps per period
-    T_c = 2.0 * math.pi * np.sqrt(f_k / inv_m)
+    T_c = 2.0 * math.pi * np.sqrt(su["f_k"] / su["inv_m"])
     dt = np.minimum(T_c / steps_per_period, T_top / 8.0)
     # the loaded system's period, with the struck point's Rayleigh mass taken at most as
     # the member's own mass: referred to a point near a support that mass grows without
     # bound (the point barely moves), and the run (1e4 s for a point 1e-6·L from a
     # support) was then cut to _MAX_STEPS with a step far too long — it read 1.9 × the
     # rigid-base force, an energy the drop does not have
-    T_sys = 2.0 * math.pi * np.sqrt((M + np.minimum(m_e, mu * L)) * (f_s + f_c))
+    T_sys = 2.0 * math.pi * np.sqrt((M + np.minimum(su["m_e"], mu * L)) * (f_s + f_c))
     with np.errstate(divide="ignore", invalid="ignore"):
         t_crush = np.where(np.isfinite(F_y), M * v0 / (F_y - W), 0.0)
-    t_end = duration * (np.maximum(T1, T_sys) + t_crush)
-    if _plan:  # steps each case needs (for time_history_batched); nothing integrated
-        z = np.zeros(P)
-        return TimeHistoryPeaks(force=z, moment=z, shear=z, deflection=z,
-                                t_separation=z, modes=kept.sum(axis=1),
-                                dt=np.ceil(t_end / dt), steps=0)
-    n_steps = int(min(np.max(np.ceil(t_end / dt)), _MAX_STEPS))
-    dt = t_end / n_steps
+    t_end = duration * (np.maximum(su["T1"], T_sys) + t_crush)
+    return dt, t_end
 
-    # Newmark average acceleration, x = [u, q̃₁ … q̃_N]
+
+class _Peaks:
+    """The peaks of a run, folded block by block (``take``): contact force ``F``,
+    moment ``M``, shear ``V``, deflection ``D`` over the sections and end shear
+    ``R`` (reaction); with ``record``, the first case's histories."""
+
+    def __init__(self, su: dict[str, np.ndarray], P: int, record: bool) -> None:
+        self.Wd, self.Wm, self.Wv = su["Wd"], su["Wm"], su["Wv"]
+        self.Rd, self.Rm, self.Rv = su["Rd"], su["Rm"], su["Rv"]
+        self.pk = {k_: np.zeros(P) for k_ in ("F", "M", "V", "D", "R")}
+        self.record = record
+        self.rec: dict[str, list[np.ndarray]] = {k_: [] for k_ in ("F", "M", "V", "D", "U")}
+
+    def take(self, qb: np.ndarray, Fb: np.ndarray) -> None:
+        """Fold a block of steps (P, B, N) and forces (P, B) into the peaks."""
+        pk, rec = self.pk, self.rec
+        ends = [0, _N_SECTIONS]  # the grid's end columns (x = 0 and x = L)
+        d = np.einsum("pbn,pns->pbs", qb, self.Wd) + Fb[:, :, None] * self.Rd[:, None, :]
+        mo = np.einsum("pbn,pns->pbs", qb, self.Wm) + Fb[:, :, None] * self.Rm[:, None, :]
+        sh = np.einsum("pbn,pns->pbs", qb, self.Wv) + Fb[:, :, None] * self.Rv[:, None, :]
+        ma, sa = np.abs(mo).max(axis=2), np.abs(sh).max(axis=2)
+        pk["F"][:] = np.maximum(pk["F"], Fb.max(axis=1))
+        pk["D"][:] = np.maximum(pk["D"], np.abs(d).max(axis=(1, 2)))
+        pk["M"][:] = np.maximum(pk["M"], ma.max(axis=1))
+        pk["V"][:] = np.maximum(pk["V"], sa.max(axis=1))
+        pk["R"][:] = np.maximum(pk["R"], np.abs(sh[:, :, ends]).max(axis=(1, 2)))
+        if self.record:  # copies: the block's buffers are reused by the next block
+            rec["F"].append(Fb[0].copy())
+            rec["D"].append(d[0, :, -2].copy())
+            rec["M"].append(ma[0].copy())
+            rec["V"].append(sa[0].copy())
+
+
+def _newmark_matrices(su: dict[str, np.ndarray], M: np.ndarray, dt: np.ndarray
+                      ) -> tuple[np.ndarray, ...]:
+    """The Newmark (average acceleration) system of x = [u, q̃₁ … q̃_N]: the masses,
+    the gap vector c (gap = c·x), a0 = 4/dt², a1 = 4/dt, the inverse of the effective
+    stiffness in contact (K + k·c·cᵀ + a0·M) and the diagonal one apart (K + a0·M)."""
+    omega, kept, k, pt = su["omega"], su["kept"], su["k"], su["pt"]
+    P, N = M.size, omega.shape[1]
     n1 = N + 1
     mass = np.concatenate([M[:, None], np.ones((P, N))], axis=1)
     Kf = np.concatenate([np.zeros((P, 1)), np.where(kept, omega**2, 1.0)], axis=1)
@@ -415,43 +483,36 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
     Khat_c[:, np.arange(n1), np.arange(n1)] += (a0[:, None] * mass)
     Kc_inv = np.linalg.inv(Khat_c)
     Kf_hat = Kf + a0[:, None] * mass
+    return mass, cvec, a0, a1, Kc_inv, Kf_hat
+
+
+def _integrate(su: dict[str, np.ndarray], M: np.ndarray, W: np.ndarray, v0: np.ndarray,
+               F_y: np.ndarray, s_y: np.ndarray, dt: np.ndarray, n_steps: int,
+               record: bool) -> TimeHistoryPeaks:
+    """Newmark average acceleration over ``n_steps`` steps ``dt`` (s), x = [u, q̃₁ …
+    q̃_N], the contact spring compression-only and capped at ``F_y`` until the set
+    reaches ``s_y`` (module docstring); the peaks block by block (:class:`_Peaks`)."""
+    kept, k = su["kept"], su["k"]
+    P, N = M.size, su["omega"].shape[1]
+    n1 = N + 1
+    mass, cvec, a0, a1, Kc_inv, Kf_hat = _newmark_matrices(su, M, dt)
     load = np.zeros((P, n1))
     load[:, 0] = W
     x = np.zeros((P, n1))
     v = np.zeros((P, n1))
     v[:, 0] = v0
     acc = np.zeros((P, n1))
-    acc[:, 0] = g
-    pk = {k_: np.zeros(P) for k_ in ("F", "M", "V", "D", "R")}
-    ends = [0, _N_SECTIONS]  # the grid's end columns (x = 0 and x = L)
+    acc[:, 0] = W / M
+    peaks = _Peaks(su, P, record)
     t_sep = np.full(P, np.nan)
     in_contact = np.ones(P, bool)
     capped = bool(np.any(np.isfinite(F_y)))
     p_set = np.zeros(P)  # permanent set of the contact spring, m
-    rec: dict[str, list[np.ndarray]] = {k_: [] for k_ in ("F", "M", "V", "D", "U")}
-    def take_peaks(qb: np.ndarray, Fb: np.ndarray) -> None:
-        """Fold a block of steps (P, B, N) and forces (P, B) into the peaks."""
-        d = np.einsum("pbn,pns->pbs", qb, Wd) + Fb[:, :, None] * Rd[:, None, :]
-        mo = np.einsum("pbn,pns->pbs", qb, Wm) + Fb[:, :, None] * Rm[:, None, :]
-        sh = np.einsum("pbn,pns->pbs", qb, Wv) + Fb[:, :, None] * Rv[:, None, :]
-        ma, sa = np.abs(mo).max(axis=2), np.abs(sh).max(axis=2)
-        pk["F"][:] = np.maximum(pk["F"], Fb.max(axis=1))
-        pk["D"][:] = np.maximum(pk["D"], np.abs(d).max(axis=(1, 2)))
-        pk["M"][:] = np.maximum(pk["M"], ma.max(axis=1))
-        pk["V"][:] = np.maximum(pk["V"], sa.max(axis=1))
-        pk["R"][:] = np.maximum(pk["R"], np.abs(sh[:, :, ends]).max(axis=(1, 2)))
-        if record:  # copies: the block's buffers are reused by the next block
-            rec["F"].append(Fb[0].copy())
-            rec["D"].append(d[0, :, -2].copy())
-            rec["M"].append(ma[0].copy())
-            rec["V"].append(sa[0].copy())
-
     block = 256
     qb = np.zeros((P, block, N))
     Fb = np.zeros((P, block))
     ub = np.zeros((P, block))
     j = 1  # slot 0 holds the state at t = 0 (at rest, no force)
-    steps_done = n_steps
     for i in range(n_steps):
         rhs = load + mass * (a0[:, None] * x + a1[:, None] * v + acc)
         if capped:
@@ -485,26 +546,28 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
         ub[:, j] = x[:, 0]
         j += 1
         if j == block or i == n_steps - 1:
-            take_peaks(qb[:, :j], Fb[:, :j])
+            peaks.take(qb[:, :j], Fb[:, :j])
             if record:
-                rec["U"].append(ub[0, :j].copy())
+                peaks.rec["U"].append(ub[0, :j].copy())
             j = 0
     history = None
+    pk, rec = peaks.pk, peaks.rec
     if record:
-        t = np.arange(steps_done + 1) * dt[0]
+        t = np.arange(n_steps + 1) * dt[0]
         history = History(t=t, contact_force=np.concatenate(rec["F"]),
                           deflection=np.concatenate(rec["D"]),
                           moment=np.concatenate(rec["M"]), shear=np.concatenate(rec["V"]),
                           load_displacement=np.concatenate(rec["U"]))
     return TimeHistoryPeaks(force=pk["F"], moment=pk["M"], shear=pk["V"],
                             deflection=pk["D"], t_separation=t_sep,
-                            modes=kept.sum(axis=1), dt=dt, steps=steps_done,
+                            modes=kept.sum(axis=1), dt=dt, steps=n_steps,
                             history=history, crush=p_set, reaction=pk["R"])
 
 
 def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
                          a: ArrayLike, M: ArrayLike, h: ArrayLike, f_c: ArrayLike = 0.0, *,
                          F_yield: ArrayLike = math.inf, stroke: ArrayLike = math.inf,
+                         weight: ArrayLike | None = None,
                          group: int = 128, spread: float = 1.5,
                          n_modes: int = DEFAULT_MODES, cutoff: float = DEFAULT_CUTOFF,
                          steps_per_period: int = DEFAULT_STEPS_PER_PERIOD) -> TimeHistoryPeaks:
@@ -516,15 +579,17 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
     there); the peaks come back in the cases' order (``dt``/``steps``: per case the
     time step, and the largest group's steps)."""
     cond_a = np.atleast_1d(np.asarray(cond, dtype=object))
-    L, EI, mu, a, M, h, f_c, F_y, s_y = (np.atleast_1d(v) for v in np.broadcast_arrays(
-        *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke))))
+    L, EI, mu, a, M, h, f_c, F_y, s_y, Wt = (np.atleast_1d(v) for v in np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke,
+                                         np.nan if weight is None else weight))))
+    Wt = np.where(np.isnan(Wt), M * impact.G, Wt)
     cond_a = np.broadcast_to(cond_a, L.shape)
     out = {k: np.zeros(L.size) for k in ("force", "moment", "shear", "deflection",
                                          "t_separation", "dt", "crush", "reaction")}
     modes = np.zeros(L.size, int)
     steps = 0
     need = time_history(cond_a, L, EI, mu, a, M, h, f_c, F_yield=F_y, stroke=s_y,
-                        _plan=True, n_modes=n_modes, cutoff=cutoff,
+                        weight=Wt, _plan=True, n_modes=n_modes, cutoff=cutoff,
                         steps_per_period=steps_per_period).dt
     order = np.argsort(need, kind="stable")
     need = need[order]
@@ -535,7 +600,8 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
         sel = order[g:e]
         g = e
         t = time_history(cond_a[sel], L[sel], EI[sel], mu[sel], a[sel], M[sel], h[sel],
-                         f_c[sel], F_yield=F_y[sel], stroke=s_y[sel], n_modes=n_modes,
+                         f_c[sel], F_yield=F_y[sel], stroke=s_y[sel], weight=Wt[sel],
+                         n_modes=n_modes,
                          cutoff=cutoff, steps_per_period=steps_per_period)
         for k in out:
             out[k][sel] = getattr(t, k)

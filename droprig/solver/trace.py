@@ -18,10 +18,11 @@ import math
 
 import numpy as np
 
-from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, ModelError, Project
+from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, Project
 from droprig.solver import amplification, droppoints, limits, local_damage, struck_mass
 from droprig.solver.chain import (
     BRITTLE,
+    CONTACT_CHECKS,
     BeyondYield,
     Chain,
     Checks,
@@ -40,10 +41,10 @@ from droprig.solver.chain import (
     slab_rotation_limit,
 )
 from droprig.solver.drift import resolve_drift
-from droprig.solver.evaluate import deck_range_words, governing_landing_chain
-from droprig.solver.floor import FloorModel, floor_model
+from droprig.solver.evaluate import governing_landing_chain, point_case
+from droprig.solver.floor import FloorModel
 from droprig.solver.footprint import EDGE_CONTACT_WIDTH
-from droprig.solver.geometry import Geometry, point_geometry
+from droprig.solver.geometry import Geometry
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, LIMIT_MARGIN, RESPONSES, Trace, TraceStep
 
@@ -94,24 +95,10 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     (x, y) in m. Raises :class:`ModelError` for an unknown zone or load, or a point
     that is not over a deck panel of the zone's level."""
     project = resolve_drift(project)
-    try:
-        zone = project.zone(zone_id)
-    except KeyError:
-        raise ModelError("trace.zone", zone_id,
-                         "the id of a lift zone: " + ", ".join(z.id for z in project.lift_zones)
-                         ) from None
-    loads = {ld.name: ld for ld in zone.loads}
-    if load_name not in loads:
-        raise ModelError("trace.load", load_name,
-                         f"the name of a load of zone {zone.id}: " + ", ".join(loads))
-    load = loads[load_name]
-    fm = floor_model(project.level(zone.level_id), project.settings)
-    xa, ya = np.array([float(x)]), np.array([float(y)])
-    geo = point_geometry(fm, project, xa, ya, reference=True)
-    if geo.path.pair[0] < 0:
-        raise ModelError("trace.point", (float(x), float(y)),
-                         f"a point over a deck panel of level {fm.level.id}"
-                         + deck_range_words(fm.level))
+    case = point_case(project, zone_id, load_name, x, y, reference=True,
+                      fields=("trace.zone", "trace.load", "trace.point"))
+    zone, load, fm, geo = case.zone, case.load, case.fm, case.geo
+    xa, ya = geo.x, geo.y
     # both landings (droprig.solver.chain.LANDINGS); the trace follows the one that
     # governs the point's response (as droprig.solver.chain.merge_landings)
     landing, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
@@ -257,8 +244,7 @@ def _two(sheet: _Sheet) -> bool:
 def _impact_steps(sheet: _Sheet) -> None:
     """Energy balance of the impact: η, h, K, F, deflections."""
     add, inp, comp, sm = sheet.add, sheet.inp, sheet.comp, sheet.sm
-    imp, out, project, load = sheet.imp, sheet.out, sheet.project, sheet.load
-    fr, members, path = sheet.fr, sheet.members, sheet.path
+    imp, load = sheet.imp, sheet.load
     M = load.mass
     add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",
         {"M": (M, "mass"), "m_e": (sm.m_e[0], "mass")}, sm.eta[0],
@@ -326,6 +312,14 @@ def _impact_steps(sheet: _Sheet) -> None:
          "crushed depth": (imp.deck_crush[0], "length")},
         imp.F_crush[0], "force",
         "EN 1992-1-1 §6.7 / ACI 318-19 §22.8.3.2, upper estimate (droprig.solver.crushing)")
+    _deflection_steps(sheet, W, two)
+
+
+def _deflection_steps(sheet: _Sheet, W: float, two: bool) -> None:
+    """The struck point's peak deflection (and against span/N, for information) and
+    the load's deceleration."""
+    add, imp, out, project = sheet.add, sheet.imp, sheet.out, sheet.project
+    fr, members, path = sheet.fr, sheet.members, sheet.path
     add("Peak deflection of the struck point", "δ_max", "δ_max = K·δ_st",
         {"K": (imp.K[0], "dimensionless"),
          "δ_st": (imp.d_st[0], "length")}, imp.d_max[0], "length",
@@ -439,12 +433,17 @@ def _amplification_steps(sheet: _Sheet) -> None:
 
 def _check_steps(sheet: _Sheet) -> None:
     """Checks, verdict, beyond yield and the inverse answers."""
-    add, mname, comp, sm = sheet.add, sheet.mname, sheet.comp, sheet.sm
-    imp, dem, ck, by = sheet.imp, sheet.dem, sheet.ck, sheet.by
-    inv, project = sheet.inv, sheet.project
-    W = sheet.load.weight
+    _utilisation_steps(sheet)
+    _elastic_height_steps(sheet)
+    _plastic_steps(sheet)
+    _mass_and_mat_steps(sheet)
+
+
+def _utilisation_steps(sheet: _Sheet) -> None:
+    """Each check family's U at the point, the largest, and the allowed force."""
+    add, mname, imp, dem, ck = sheet.add, sheet.mname, sheet.imp, sheet.dem, sheet.ck
     amp = sheet.chain[DynamicAmplification]
-    on = project.settings.dynamic_amplification
+    on = sheet.project.settings.dynamic_amplification
     # ---- checks
     qty = {"flexure": "moment", "shear": "force", "web_yielding": "force",
            "web_crippling": "force", "deck_flexure": "moment", "deck_punching": "force",
@@ -453,11 +452,17 @@ def _check_steps(sheet: _Sheet) -> None:
               "deck_flexure", "deck_punching"):
         q = qty[c]
         unit_q = "length" if q == "moment" else "dimensionless"
+        # the deck's checks take the deck's force where the impact gives two
+        # (chain.on_contact): printed as such, so that the line's own numbers give
+        # its U (it printed the framing force beside a U worked from F_deck)
+        deck_force = c in CONTACT_CHECKS and imp.F_deck is not None
+        f_sym, f_val = ("F_deck", imp.F_deck[0]) if deck_force and imp.F_deck is not None \
+            else ("F", imp.F[0])
         add(f"{c.replace('_', ' ').capitalize()} — {mname(dem.checks[c].member[0])}", f"U_{c}",
-            "U = |A·F·u + E| / R" if on else "U = |F·u + E| / R",
+            f"U = |A·{f_sym}·u + E| / R" if on else f"U = |{f_sym}·u + E| / R",
             {**({"A": (amp.factor.get(c, amp.A_shear)[0], "dimensionless")} if on
                else {}),
-             "F": (imp.F[0], "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
+             f_sym: (f_val, "force"), "u": (_detail(dem.checks[c].unit)[0], unit_q),
              "E": (_detail(dem.checks[c].exist)[0], q), "R": (_detail(dem.checks[c].resist)[0], q)},
             dem.checks[c].U[0], "dimensionless", _SRC_CHECK[c])
     add(f"Utilisation ({CHECKS[int(sheet.out['utilisation_check'][0])].replace('_', ' ')})",
@@ -465,6 +470,13 @@ def _check_steps(sheet: _Sheet) -> None:
         "dimensionless", "largest demand/resistance ratio (common practice, no source)")
     add("Largest force the checks allow", "F_allow", "F_allow = min (R − E)/u",
         {}, ck.F_allow[0], "force", "linear checks")
+
+
+def _elastic_height_steps(sheet: _Sheet) -> None:
+    """The elastic allowable free fall (closed form, or the two-force search), with
+    a crushing layer's or the deck concrete's work, and the height on the datum."""
+    add, sm, imp, ck, inv = sheet.add, sheet.sm, sheet.imp, sheet.ck, sheet.inv
+    W = sheet.load.weight
     two = _two(sheet)
     # the share of the energy the closed form takes: the framing's (two-mass model,
     # at the planned height) where two forces, as inverse_answers
@@ -508,6 +520,14 @@ def _check_steps(sheet: _Sheet) -> None:
         "H_allow = h_allow + t_mat",
         {"h_allow": (inv.h_el[0], "length"), "t_mat": (sheet.inp.t_mat[0], "length")},
         inv.h_el[0] + sheet.inp.t_mat[0], "length", "datum of droprig (finished surface)")
+
+
+def _plastic_steps(sheet: _Sheet) -> None:
+    """Resistances beyond yield, the plastic response and the allowable height beyond
+    yield."""
+    add, mname, comp, imp, ck, by = (sheet.add, sheet.mname, sheet.comp, sheet.imp,
+                                     sheet.ck, sheet.by)
+    inv, project = sheet.inv, sheet.project
     sr = sheet.chain[SlabResistance]
     R_frame = sheet.chain[Demands].actions.R_p[0]
     add("Plastic collapse resistance of the framing", "R_frame",
@@ -551,6 +571,13 @@ def _check_steps(sheet: _Sheet) -> None:
     add("Allowable drop height (beyond yield)", "h_allow,pl",
         "h = δ_y(R_p(μ − ½) − Wμ)/(ηW)", {"R_p": (by.R_p[0], "force")},
         inv.h_pl[0], "length", _SRC_PLASTIC)
+
+
+def _mass_and_mat_steps(sheet: _Sheet) -> None:
+    """The allowable mass at the planned height and the spring mat that keeps the
+    point elastic."""
+    add, inv = sheet.add, sheet.inv
+    two = _two(sheet)
     if two:
         add("Allowable mass at the planned height with two forces: the heaviest load of "
             "the same underside whose forward two-mass impact keeps every check within "

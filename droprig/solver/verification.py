@@ -3,9 +3,11 @@
 * :func:`verify_member` — one member struck by one load (``droprig verify`` with
   ``droprig check``'s options);
 * :func:`verify_point` — a drop point of a project: the struck member (the member of
-  the load path carrying the larger share of the load) modelled alone with the whole
-  load, the rest of the path (other framing, deck indentation and strip, the load's
-  underside, a spring mat) as a massless spring in series with the contact;
+  the load path carrying the larger share w of the load) modelled alone, seeing the
+  load through its share (:func:`droprig.solver.pointhistory.shared_load`: mass w²·M,
+  weight w·W, speed v/w), the rest of the path (other framing, deck indentation and
+  strip, the load's underside, a spring mat) as a massless spring in series with the
+  contact; its demands are its share w of the chain's force;
 * :func:`verification_table` — one row per bay summary, at the bay's governing point
   (the annex prints it).
 
@@ -25,11 +27,10 @@ SI units throughout.
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass, replace
 from typing import TYPE_CHECKING
-
-import numpy as np
 
 from droprig.model import Grade, Level, ModelError, Project, Section
 from droprig.solver import (
@@ -50,6 +51,9 @@ if TYPE_CHECKING:
 
 __all__ = [
     "QUANTITIES",
+    "SKIP_OFF_PANEL",
+    "SKIP_OVER_SUPPORT",
+    "OverSupportError",
     "PointVerification",
     "Verification",
     "verification_table",
@@ -72,7 +76,8 @@ class Verification:
     ``verdict`` the demand the checks use (factor × energy), ``crushing_force`` (N,
     ∞ none) and ``crush`` (m) the time history's crushed depth;
     ``energy_deflection_at_point`` (m) is F·G(a, a) for the plot of the struck
-    point; ``mass_ratio`` r = M/mₑ, ``compliance_ratio`` κ = f_c/f_s;
+    point; ``mass_ratio`` r = M/mₑ (w²·M/mₑ where the member takes a lever-rule share
+    w of the load), ``compliance_ratio`` κ = f_c/f_s (the contact as the member sees it);
     ``contact_compliance`` (m/N) the contact spring the time history used
     (``contact_assumed`` when a rigid contact was given KAPPA_MIN × f_s); ``modes``
     integrated in time, ``time_step`` (s), ``separation_time`` (s, None if the load
@@ -120,25 +125,65 @@ class PointVerification:
     verification: Verification
 
 
+SKIP_OVER_SUPPORT = "over a support"
+"""Why a bay's governing point is left out of the verification table: over a column or
+a support of the modelled member, where that member does not move."""
+
+SKIP_OFF_PANEL = "off a deck panel"
+"""Why a bay's governing point is left out: no deck panel under it (past an edge, or in
+an opening)."""
+
+
+class OverSupportError(ModelError):
+    """A point over a support of the modelled member: the member does not move there,
+    so its time history is no check of the point (:data:`SKIP_OVER_SUPPORT`)."""
+
+
+@functools.lru_cache(maxsize=256)
+def _member_history(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float,
+                    h: float, f_c: float, F_yield: float, stroke: float, weight: float
+                    ) -> timehistory.TimeHistoryPeaks:
+    """:func:`droprig.solver.exacthistory.exact_time_history` of one case with the
+    verdict's settings (:data:`droprig.solver.pointhistory.TH_OPTIONS`), histories
+    recorded; arguments as there (SI). Remembered by its exact inputs: a project of
+    equal levels, or a regular grid, asks the annex's verification table for the same
+    member history many times (a stress project of three equal levels: 390 bays, 30
+    distinct histories). The result is shared: read it, never write to it."""
+    return exacthistory.exact_time_history(cond, L, EI, mu, a, M, h, f_c, record=True,
+                                           F_yield=F_yield, stroke=stroke, weight=weight,
+                                           **pointhistory.TH_OPTIONS)
+
+
 def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
             f_c: float, struck_mass: bool, scaled_mass: bool = False,
             F_yield: float = math.inf, stroke: float = math.inf,
-            chain_factors: tuple[float, dict[str, float]] | None = None) -> Verification:
+            chain_factors: tuple[float, dict[str, float]] | None = None,
+            share: float = 1.0) -> Verification:
+    """``share``: the member's lever-rule share w of the load (0.5–1; ``f_c`` is then
+    the rest of the path's compliance beyond w²·G(a, a), may be negative down to
+    −(1 − w²)·G(a, a)): the time history sees the load through it
+    (:func:`droprig.solver.pointhistory.shared_load`) and the member's energy-method
+    and verdict demands are w × those of the whole force."""
     f_s = float(beam.green(cond, L, EI, a, a))
     if f_s <= 0.0:
-        raise ModelError("at", a, "a point off the supports (the member does not move "
-                         "there)", "m")
-    assumed = f_c <= amplification.KAPPA_MIN * f_s
-    f_th = max(f_c, amplification.KAPPA_MIN * f_s)
+        raise OverSupportError("at", a, "a point off the supports (the member does not "
+                               "move there)", "m")
+    w = min(max(share, 0.5), 1.0)
     e = timehistory.energy_method_peaks(cond, L, EI, mu, a, M, h, f_c,
                                         struck_mass=struck_mass, scaled_mass=scaled_mass)
     W = M * impact.G
     cap = F_yield if F_yield > W else math.inf
+    # the load as the member sees it (w = 1: as it is)
+    r = pointhistory.shared_load(w, M, h, f_s + f_c, f_s, cap, stroke)
+    f_b = float(r["f_c"][()])
+    assumed = f_b <= amplification.KAPPA_MIN * f_s
+    f_th = max(f_b, amplification.KAPPA_MIN * f_s)
     # the integrator and settings of the verdict's own point histories
-    t = exacthistory.exact_time_history(cond, L, EI, mu, a, M, h, f_th, record=True,
-                                        F_yield=cap, stroke=stroke,
-                                        **pointhistory.TH_OPTIONS)
-    amp = amplification.amplification(M, float(e.effective_mass), f_c, f_s,
+    t = _member_history(cond, L, EI, mu, a, float(r["M"][()]), float(r["h"][()]), f_th,
+                        float(r["F_yield"][()]), float(r["stroke"][()]),
+                        float(r["weight"][()]))
+    f_cp = max(f_c, 0.0)  # the contact alone, for the one-member bounds below
+    amp = amplification.amplification(M, float(e.effective_mass), f_cp, f_s,
                                       struck_mass=struck_mass, cond=cond, xi=a / L)
     F_el = float(e.force)
     F = F_el
@@ -151,32 +196,41 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
         F, bottomed = float(F_a), bool(thr)
     holds = bool(amplification.crush_depth_bound(W, h, f_s + f_c, cap) <= stroke)
     fo = amplification.amplified_forces(amp, F, F_el,
-                                        amplification.contact_force_bound(W, h, f_c),
+                                        amplification.contact_force_bound(W, h, f_cp),
                                         cap, holds, bottomed,
                                         F_energy=amplification.member_energy_force(
-                                            W, h, f_s, f_c, cap, stroke))
-    energy = {k: float(getattr(e, k)) * F / F_el for k in QUANTITIES}
+                                            W, h, f_s, f_cp, cap, stroke))
+    # the member's demands: its share w of the force (the contact force is the load's)
+    part = {"force": 1.0, "moment": w, "shear": w, "deflection": w}
+    energy = {k: float(getattr(e, k)) * F / F_el * part[k] for k in QUANTITIES}
     factor = {"force": float(fo.local) / F, "moment": float(fo.moment) / F,
               "shear": float(fo.shear) / F, "deflection": float(fo.deflection) / F}
     if chain_factors is not None:
         # what the verdict uses: the chain's own energy-method force on this member's
         # unit-load envelopes, times the chain's factors (its amplification step)
         F_chain, factor = chain_factors
-        energy = {k: float(getattr(e, k)) / F_el * F_chain for k in QUANTITIES}
+        energy = {k: float(getattr(e, k)) / F_el * F_chain * part[k] for k in QUANTITIES}
         F = F_chain
     assert t.history is not None
     t_sep = float(t.t_separation[0])
+    th = {k: float(getattr(t, k)[0]) for k in QUANTITIES}
+    history = t.history
+    if w < 1.0:
+        # back from the member's coordinate: the load's contact force P/w, its travel w·Q
+        th["force"] /= w
+        history = replace(history, contact_force=history.contact_force / w,
+                          load_displacement=history.load_displacement * w)
     return Verification(
         energy=energy,
-        time_history={k: float(getattr(t, k)[0]) for k in QUANTITIES},
+        time_history=th,
         amplification=factor,
         verdict={k: factor[k] * energy[k] for k in QUANTITIES},
         crushing_force=cap, crush=float(t.crush[0]) if t.crush is not None else 0.0,
-        energy_deflection_at_point=F * f_s,
-        mass_ratio=float(amp.mass_ratio), compliance_ratio=f_c / f_s,
+        energy_deflection_at_point=w * F * f_s,
+        mass_ratio=float(amp.mass_ratio) * w**2, compliance_ratio=f_b / f_s,
         contact_compliance=f_th, contact_assumed=assumed, modes=int(t.modes[0]),
         time_step=float(t.dt[0]), separation_time=t_sep if math.isfinite(t_sep) else None,
-        history=t.history)
+        history=history)
 
 
 def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, a: float,
@@ -233,26 +287,12 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     the deck concrete's crushing force over the cover, or a crushable layer's force
     over its stroke."""
     from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass, energy_fall
-    from droprig.solver.evaluate import deck_range_words, governing_landing_chain
-    from droprig.solver.floor import floor_model
-    from droprig.solver.geometry import point_geometry
+    from droprig.solver.evaluate import governing_landing_chain, point_case
     from droprig.solver.loadpath import COND_NAMES
 
-    zones = {z.id: z for z in project.lift_zones}
-    if zone_id not in zones:
-        raise ModelError("verify.lift", zone_id, "the id of a lift zone: " + ", ".join(zones))
-    zone = zones[zone_id]
-    loads = {ld.name: ld for ld in zone.loads}
-    if load_name not in loads:
-        raise ModelError("verify.load", load_name,
-                         f"the name of a load of zone {zone_id}: " + ", ".join(loads))
-    load = loads[load_name]
-    fm = floor_model(project.level(zone.level_id), project.settings)
-    geo = point_geometry(fm, project, np.array([float(x)]), np.array([float(y)]))
-    if geo.path.pair[0] < 0 or bool(geo.opening[0]):
-        raise ModelError("verify.point", (float(x), float(y)),
-                         f"a point over a deck panel of level {fm.level.id}"
-                         + deck_range_words(fm.level, opening=True))
+    case = point_case(project, zone_id, load_name, x, y, opening=True,
+                      fields=("verify.lift", "verify.load", "verify.point"))
+    zone, load, fm, geo = case.zone, case.load, case.fm, case.geo
     # the landing that governs the point, as the calculation trace follows it
     _, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
     inp, comp, sm = chain[LoadInputs], chain[Compliance], chain[StruckMass]
@@ -275,12 +315,14 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     if g_m <= 0.0:
         # over a column or a support of the member: the time history's struck
         # member does not move there
-        raise ModelError("verify.point", (float(x), float(y)),
+        raise OverSupportError("verify.point", (float(x), float(y)),
                          f"a point off the supports of member {member.id} (it is "
                          f"{a:.3f} m along it, over a support, where the modelled "
                          "member does not move)")
-    # the rest of the path in series: everything but the modelled member's own spring
-    f_c = max(f_all - g_m, 0.0) if g_m > 0 else f_all
+    # the rest of the path in series: everything but the member's own spring under its
+    # share w (f_all − w²·g_m; _verify takes f_all − g_m and the share)
+    w = float(path.share[0, k])
+    f_c = f_all - g_m
     # what the verdict used: the chain's own amplification step at this point (its
     # factors on the chain's energy-method force), not factors of the verification's
     # own — with amplification off the energy method's (below)
@@ -293,7 +335,7 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     h_e = float(energy_fall(chain, inp.h)[0])
     ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), h_e,
                   f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True, F_yield=F_y, stroke=s_y,
-                  chain_factors=chain_factors)
+                  chain_factors=chain_factors, share=w)
 
     if not project.settings.dynamic_amplification:
         # the project's checks use the energy method alone (amplification off in its
@@ -322,7 +364,8 @@ def verification_table(project: Project, results: object, *,
     :class:`~droprig.solver.results.Results`), at the bay's governing point; bays whose
     governing point cannot be verified (over a support of the modelled member, off a
     deck panel) are left out, and appended to ``skipped`` (when given) as (bay
-    summary, why) so the reader can be told which were not verified. ``zone_id`` keeps
+    summary, :data:`SKIP_OVER_SUPPORT` or :data:`SKIP_OFF_PANEL`) so the reader can be
+    told which were not verified and why. ``zone_id`` keeps
     one lift zone."""
     rows: list[PointVerification] = []
     for b in getattr(results, "bays", ()):
@@ -330,9 +373,13 @@ def verification_table(project: Project, results: object, *,
             continue
         try:
             pv = verify_point(project, b.zone_id, b.load_name, b.governing_x, b.governing_y)
-        except ModelError as exc:
+        except OverSupportError:
             if skipped is not None:
-                skipped.append((b, exc.allowed))
+                skipped.append((b, SKIP_OVER_SUPPORT))
+            continue
+        except ModelError:
+            if skipped is not None:
+                skipped.append((b, SKIP_OFF_PANEL))
             continue
         rows.append(PointVerification(**{**pv.__dict__, "bay_id": b.bay_id}))
     return tuple(rows)

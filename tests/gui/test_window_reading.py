@@ -182,7 +182,10 @@ def test_utilisation_is_the_same_ratio_in_plan_table_and_inspector(
     # the table gives the ratio and, in brackets, the check that sets it
     assert m.data(m.index(row, COL["util"])).split(" (")[0] == u
     window.doc.select(Selection("bay", (b.level_id, b.bay_id)))
-    assert f"max U {u}" in window.inspector._extra.text()
+    text = window.inspector._extra.text()
+    assert f"max U {u}" in text
+    # with the same check in brackets as the table (common practice, no source)
+    assert f"max U {m.data(m.index(row, COL['util']))}" in text
     labels = {s.bay.id: window.plan._labels_item.value_line(s)[0]
               for s in window.plan.bay_states()}
     assert any(u in v for v in labels.values())

@@ -28,6 +28,7 @@ from pypdf import PdfReader
 
 from droprig.model import Project
 from droprig.report import annex, content
+from droprig.solver import Results
 from tests.builders import tall_frame
 
 analysis = pytest.importorskip("droprig.solver.analysis")
@@ -56,24 +57,25 @@ def stress_project(levels: int = 2) -> Project:
 
 
 @pytest.fixture(scope="module")
-def large(tmp_path_factory: pytest.TempPathFactory) -> tuple[Project, int, PdfReader]:
+def large(tmp_path_factory: pytest.TempPathFactory
+          ) -> tuple[Project, int, PdfReader, Results]:
     project = stress_project()
     results = analysis.analyse(project)
     out = tmp_path_factory.mktemp("large") / "annex.pdf"
     pages = annex.write_annex(project, results, out)
-    return project, pages, PdfReader(str(out))
+    return project, pages, PdfReader(str(out)), results
 
 
-def test_large_annex_is_written(large: tuple[Project, int, PdfReader]) -> None:
-    _, pages, reader = large
+def test_large_annex_is_written(large: tuple[Project, int, PdfReader, Results]) -> None:
+    _, pages, reader, _ = large
     assert pages == len(reader.pages) > 6
 
 
 def test_large_annex_contents_split_and_complete(
-        large: tuple[Project, int, PdfReader]) -> None:
+        large: tuple[Project, int, PdfReader, Results]) -> None:
     """The contents list runs over more than one page and names every sheet with a
     page number (no '–' left for an entry whose page was not recorded)."""
-    project, _, reader = large
+    project, _, reader, results = large
     texts = [p.extract_text() or "" for p in reader.pages]
     # contents entries of the sheets are indented lines "      B.n  title"; their
     # page numbers are drawn separately and extract as lines of digits
@@ -90,8 +92,7 @@ def test_large_annex_contents_split_and_complete(
         nums = [m.group(1) for m in number.finditer(t)]
         assert "–" not in nums
         assert len(nums) >= len(on_page)
-    n_sheets = len(content.sheet_groups(project, analysis.analyse(project),
-                                        project.lift_zones))
+    n_sheets = len(content.sheet_groups(project, results, project.lift_zones))
     assert found == list(range(1, n_sheets + 1))
     assert pages_with_entries >= 1
 
@@ -187,8 +188,8 @@ def test_every_bay_of_every_level_is_findable(
         assert f"Level {lv}" in index
 
 
-def test_large_annex_no_text_below_7_pt(large: tuple[Project, int, PdfReader]) -> None:
-    _, _, reader = large
+def test_large_annex_no_text_below_7_pt(large: tuple[Project, int, PdfReader, Results]) -> None:
+    _, _, reader, _ = large
     for k, page in enumerate(reader.pages):
         sizes = _text_sizes(page)
         assert sizes, k + 1
