@@ -2621,16 +2621,36 @@ class TwoForceKernel:
         framing's energy share η_frame, as :func:`impact_at` gives them (``need_eta``
         False: the one-mass η in its place, not worked out)."""
         r = slice(None) if rows is None else rows
-        W, f, eta, F_crush = self.W[r], self.f[r], self.eta[r], self.F_crush[r]
+        W, eta = self.W[r], self.eta[r]
         he = h + self.head if self.head > 0.0 else h
+        he = np.broadcast_to(np.asarray(he, float), W.shape)
+        p = self.pad[r]
+        if not p.any():
+            out = self._bare(he, r, rows, need_eta)
+        else:
+            # the rows on a crushable layer are the layer's alone (_on_pads): the
+            # bare deck's two forces only at the others
+            Ff, F_deck, eta_f = np.empty(W.shape), np.empty(W.shape), eta.copy()
+            q = ~p
+            if q.any():
+                sub = np.arange(self.W.size)[r][q]
+                Ff[q], F_deck[q], eta_f[q] = self._bare(he[q], sub, sub, need_eta)
+            out = (Ff, F_deck, eta_f)
+        return self._on_pads(out, r, W, he, eta)
+
+    def _bare(self, he: np.ndarray, r: slice | np.ndarray, rows: np.ndarray | None,
+              need_eta: bool) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """:meth:`forces` at kernel rows ``r`` off any crushable layer (``rows``: the
+        same as indices, or None for all), at the energy heights ``he`` (m): the
+        one-mass force capped by crushing and the two-mass envelope's caps."""
+        W, f, eta, F_crush = self.W[r], self.f[r], self.eta[r], self.F_crush[r]
         # Gere Eq. 9-94 as impact_mod.dynamic_factor (W·f > 0 at every point here)
         e = eta * he
         ratio = np.where(e <= 0.0, 0.0, 2.0 * e / (W * f))
         F_el = (1.0 + np.sqrt(1.0 + ratio)) * W
         F1 = self._crush_capped(W, he, f, eta, F_crush, F_el)
         Fc2, Ff2 = self.env.at(he, rows)
-        out = self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta)
-        return self._on_pads(out, r, W, he, eta)
+        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta)
 
     def forces_at_mass(self, h: np.ndarray, M: np.ndarray, rows: np.ndarray,
                        need_eta: bool = True) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
@@ -2638,15 +2658,23 @@ class TwoForceKernel:
         (the same underside, footprint and struck masses; η = M/(M + m_e), the
         envelope through :func:`droprig.solver.struck_mass.envelope_two_forces`)."""
         W = M * impact_mod.G
-        f, F_crush = self.f[rows], self.F_crush[rows]
         eta = impact_mod.mass_efficiency(M, self.m_e[rows])
         he = h + self.head if self.head > 0.0 else h
-        _, F_el, _ = impact_mod.impact_elastic(W, he, f, eta)
-        F1 = self._crush_capped(W, he, f, eta, F_crush, F_el)
-        Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W, he, self.f_series[rows],
-                                                       self.f_s[rows], self.m2[rows])
-        out = self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[rows], need_eta)
-        return self._on_pads(out, rows, W, he, eta, mass=True)
+        W, eta, he = np.broadcast_arrays(W, eta, np.asarray(he, float))
+        # the rows on a crushable layer are the layer's alone (_on_pads)
+        q = ~self.pad[rows]
+        Ff, F_deck, eta_f = np.empty(W.shape), np.empty(W.shape), eta.copy()
+        if q.any():
+            sub = rows[q]
+            Wq, eq, hq = W[q], eta[q], he[q]
+            f, F_crush = self.f[sub], self.F_crush[sub]
+            _, F_el, _ = impact_mod.impact_elastic(Wq, hq, f, eq)
+            F1 = self._crush_capped(Wq, hq, f, eq, F_crush, F_el)
+            Fc2, Ff2 = struck_mass_mod.envelope_two_forces(Wq, hq, self.f_series[sub],
+                                                           self.f_s[sub], self.m2[sub])
+            Ff[q], F_deck[q], eta_f[q] = self._caps(Wq, hq, f, eq, F_crush, F1, Fc2, Ff2,
+                                                    self.soft[sub], need_eta)
+        return self._on_pads((Ff, F_deck, eta_f), rows, W, he, eta, mass=True)
 
     def _on_pads(self, out: tuple[np.ndarray, np.ndarray, np.ndarray],
                  r: slice | np.ndarray, W: np.ndarray, he: np.ndarray, eta: np.ndarray,
