@@ -834,19 +834,12 @@ def impact_at(c: Chain, h: np.ndarray | None, sel: np.ndarray | None = None) -> 
     F = F_el.copy()
     crush = np.zeros(n)
     bottomed = np.zeros(n, dtype=bool)
-    F_layer = None
     if crushable.any():
-        Wl, hl, fl, el = W[crushable], h[crushable], comp.f_struct[crushable], sm.eta[crushable]
-        Fcr, dep, bot = impact_mod.impact_crushable(Wl, hl, fl, el, inp.F_c[crushable],
+        Fcr, dep, bot = impact_mod.impact_crushable(W[crushable], h[crushable],
+                                                    comp.f_struct[crushable],
+                                                    sm.eta[crushable], inp.F_c[crushable],
                                                     inp.s_c[crushable])
-        # the layer passes Fcr to the deck; a framing that deflects (and so has mass,
-        # counted in the struck mass or not) takes up to 2·F_c while it crushes
-        # (impact.framing_under_layer; the layer rigid: the energy bound); a rigid
-        # support (f = 0) takes the layer's force as it comes
-        F_layer = F.copy()
-        F_layer[crushable] = Fcr
-        F[crushable] = np.where(fl > 0.0, impact_mod.framing_under_layer(
-            Fcr, impact_mod.impact_elastic(Wl, hl, fl, el)[1], inp.F_c[crushable]), Fcr)
+        F[crushable] = Fcr
         crush[crushable] = dep
         bottomed[crushable] = bot
         K = np.where(crushable, F / W, K)
@@ -886,8 +879,7 @@ def impact_at(c: Chain, h: np.ndarray | None, sel: np.ndarray | None = None) -> 
         K = np.where(cap, F / W, K)
         d_max = np.where(cap, F * comp.f + deck_crush, d_max)
     one = Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed,
-                 F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through,
-                 F_contact=F_layer, F_deck=F_layer)
+                 F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through)
     return two_forces(c, h, one, sel)
 
 
@@ -937,9 +929,9 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
     if not (two.any() or pad.any()):
         return one
     W = inp.W
-    Fc = one.contact.copy()
+    Fc = one.F.copy()
     Ff = one.F.copy()
-    F_deck = (one.F if one.F_deck is None else one.F_deck).copy()
+    F_deck = one.F.copy()
     soft = inp.f_load > 0.0
     if two.any():
         Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W[two], h[two], comp.f_series[two],
@@ -956,31 +948,14 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
                              one.F_crush[bot], crush_depth_available(c))
         Fc[bot], Ff[bot] = ab.F_contact, ab.F_frame
         F_deck[bot] = np.where(soft[bot], ab.F_contact, ab.F_one)
-    crushing = pad & ~one.bottomed & (one.crush > 0.0)
-    if crushing.any():
-        Ff[crushing] = _framing_while_crushing(c, h, crushing, Fc)
-    new = two | bot | crushing
+    new = two | bot
     K = np.where(new, Ff / W, one.K)
     d_max = np.where(two, Ff * comp.f + one.deck_crush, one.d_max)
-    d_max = np.where(bot | crushing, Ff * comp.f + one.crush, d_max)
+    d_max = np.where(bot, Ff * comp.f + one.crush, d_max)
     return Impact(K=K, F=Ff, d_max=d_max, d_st=one.d_st, crush=one.crush,
                   bottomed=one.bottomed, F_crush=one.F_crush, deck_crush=one.deck_crush,
                   deck_through=one.deck_through, F_contact=Fc, eta_frame=eta_frame,
                   two_mass=two, F_deck=F_deck, searched=two | pad)
-
-
-def _framing_while_crushing(c: Chain, h: np.ndarray, crushing: np.ndarray,
-                            F_layer: np.ndarray) -> np.ndarray:
-    """The force on the framing (N) at the points ``crushing`` (a crushable layer
-    crushing, not bottomed out, with the two-mass inputs): the layer's force applied
-    suddenly, up to 2·F_c, within the two-mass energy bound of the whole fall
-    (:func:`droprig.solver.impact.framing_under_layer`; ``h`` the energy heights, m;
-    ``F_layer`` the layer's force per point, N), as :func:`after_bottoming` takes it
-    while the layer crushes."""
-    inp, comp = c[LoadInputs], c[Compliance]
-    _, Bf = struck_mass_mod.energy_bounds(inp.W[crushing], h[crushing],
-                                          comp.f_series[crushing], comp.f_s[crushing])
-    return impact_mod.framing_under_layer(F_layer[crushing], Bf, inp.F_c[crushing])
 
 
 def two_mass_fits(c: Chain) -> np.ndarray:
@@ -2383,9 +2358,7 @@ def _elastic_height(c: Chain, eta: np.ndarray, Fa_pos: np.ndarray,
     W, F_c, s_c, crushable = inp.W, inp.F_c, inp.s_c, inp.crushable
     F_allow = c[Checks].F_allow
     h_el = limits.allowable_drop_height_elastic(W, Fa_pos, imp.d_st, eta)
-    # (a layer's crush work counts only where the framing passes its crushing stage,
-    # up to 2·F_c, impact.framing_under_layer; below, the elastic answer holds)
-    h_el = with_crush_energy(h_el, crushable & (2.0 * F_c <= F_allow), F_c, s_c, W, eta)
+    h_el = with_crush_energy(h_el, crushable & (F_c <= F_allow), F_c, s_c, W, eta)
     # bare deck whose concrete crushes below the allowed force: the force stays at
     # F_crush while the concrete crushes and passes F_crush only once the crushing has
     # gone through the cover (impact step, crushing_limited_impact): the height at
@@ -2431,7 +2404,7 @@ def _plastic_height(c: Chain, eta: np.ndarray, h_el: np.ndarray,
         d_slab = np.tan(slab_rotation_limit(s.rotation_limit)) * sr.ell
         mu_tot = np.where(sr.slab_first, (R_p * f + d_slab) / (R_p * f), mu_tot)
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
-    h_pl = with_crush_energy(h_pl, crushable & (2.0 * F_c < R_p), F_c, s_c, W, eta)
+    h_pl = with_crush_energy(h_pl, crushable & (F_c < R_p), F_c, s_c, W, eta)
     # the drop height that gives the structure that energy after amplification (A_δ²)
     # (the bounds' factor: a forward run at that height may not run the point's own
     # time history, and the bounds lie above it)
@@ -2513,13 +2486,6 @@ def _allowable_mass_of(c: Chain, Fa_pos: np.ndarray,
         m_allow[crushable] = limits.allowable_mass_crushable(
             Fa_pos[crushable], h_e[crushable], comp.f_struct[crushable], F_c[crushable],
             s_c[crushable])
-        # ... where the framing takes more than F_allow while the layer crushes (up
-        # to 2·F_c, impact.framing_under_layer), the mass that keeps the impact short
-        # of F_allow with the layer rigid (m_e = 0 under a layer)
-        short = crushable & (F_allow < 2.0 * F_c)
-        if short.any():
-            m_allow[short] = limits.allowable_mass(Fa_pos[short], h_e[short],
-                                                   comp.f_struct[short], 0.0)
     if kern is not None:
         m_allow = two_force_mass(c, kern, m_allow, inp.h)
     return m_allow
@@ -2689,15 +2655,8 @@ class TwoForceKernel:
         Ff, F_deck, eta_f = (a.copy() for a in out)
         Wp, hp, ep = W[p], he[p], eta[p]
         f, F_c, s_c = self.f[r][p], self.F_c[r][p], self.s_c[r][p]
-        F, dep, bot = impact_mod.impact_crushable(Wp, hp, f, ep, F_c, s_c)
+        F, _, bot = impact_mod.impact_crushable(Wp, hp, f, ep, F_c, s_c)
         Fd = F.copy()
-        crushing = ~bot & (dep > 0.0)
-        if crushing.any():
-            # as two_forces: the framing under the crushing layer
-            _, Bf = struck_mass_mod.energy_bounds(Wp[crushing], hp[crushing],
-                                              self.f_series[r][p][crushing],
-                                              self.f_s[r][p][crushing])
-            F[crushing] = impact_mod.framing_under_layer(F[crushing], Bf, F_c[crushing])
         if bot.any():
             rows_all = np.arange(self.W.size)[r]
             env = (None if mass else

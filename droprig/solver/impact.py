@@ -146,32 +146,6 @@ def impact_crushable(W: ArrayLike, h: ArrayLike, f_s: ArrayLike, eta: ArrayLike,
     return F, depth, bottomed
 
 
-def framing_under_layer(F_layer: ArrayLike, F_bound: ArrayLike,
-                        F_c: ArrayLike) -> np.ndarray:
-    """Peak force on the framing (N) under a crushable layer that crushes at F_c (N):
-    F_f = max(F_layer, min(2·F_c, F_bound)).
-
-    While the layer crushes it passes a force of at most F_c to the framing, for as
-    long as the crush lasts, and never a pull: a force history 0 ≤ P(t) ≤ F_c on a
-    linear framing at rest gives at most twice the static response to F_c (the
-    suddenly applied constant force, dynamic load factor 2: Biggs 1964 ch. 2,
-    Clough & Penzien ch. 4 — from memory; with the Duhamel integral,
-    u(t) = ∫P(τ)·h(t − τ)dτ ≤ F_c·f·(1 − cos ωt) ≤ 2·F_c·f while the force acts, and
-    the free vibration that follows has an amplitude of at most 2·F_c·f). The framing
-    force the layer's stage gives is therefore at most 2·F_c, and at most
-    ``F_bound``: the force of the whole fall on the framing with the layer rigid (the
-    energy bound: the layer's crush work only takes energy away). ``F_layer``: the
-    layer's own force (:func:`impact_crushable`; after it bottoms out, the force of
-    the rest of the fall), the least the framing takes. A framing whose period is
-    long against the crush time would take less (2·sin(π·t_d/T) for t_d < T/2, Biggs
-    1964 rectangular pulse — from memory); the bound does not count on it. Before
-    this the framing was given F_c alone (the quasi-static force), which a time
-    history of load, layer and framing mass exceeds by up to 2×
-    (tests/solver/test_layer_framing.py)."""
-    Fl, Fb, Fc = np.broadcast_arrays(*(np.asarray(v, float) for v in (F_layer, F_bound, F_c)))
-    return np.maximum(Fl, np.minimum(2.0 * Fc, Fb))
-
-
 def deceleration_g(F: ArrayLike, W: ArrayLike) -> np.ndarray:
     """Peak deceleration of the load in g: a/g = F/W − 1 (Newton's second law,
     M·a = F − W, with W = M·g), dimensionless."""

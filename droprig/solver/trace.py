@@ -302,10 +302,8 @@ def _impact_steps(sheet: _Sheet) -> None:
         ("F = min(two-mass envelope at h_r (≤ 2·max(F_crush, F_1)) + 2·F_c, energy "
          "bound of h − (F_c/W − 1)·s_c), at least min(2·F_c, energy bound of h) "
          "(droprig.solver.chain.after_bottoming)" if after else
-         "F = max(F_layer, min(2·F_c, the force with the pad rigid)): the pad's "
-         "force applied suddenly to the framing (droprig.solver.impact."
-         "framing_under_layer; F_layer: crush force, or elastic after bottoming, "
-         "droprig.solver.impact.impact_crushable)"),
+         "F = crush force, or elastic after bottoming "
+         "(droprig.solver.impact.impact_crushable)"),
         {"K": (imp.K[0], "dimensionless"), "W": (W, "force")},
         imp.F[0], "force", _SRC_TWO_MASS if two or after else _SRC_GERE)
     add("Crushing force of the deck concrete under the footprint (bound on the contact "

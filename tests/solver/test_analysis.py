@@ -201,14 +201,7 @@ def test_crushable_layer(stroke):
     assert r["fall_height"][0] == pytest.approx(h, rel=REL)
     c = (W * h + W * Fc * f_s - 0.5 * Fc**2 * f_s) / (Fc - W)
     if c <= stroke:
-        # the deck takes the layer's F_c; the framing, which has mass, takes the
-        # layer's force applied suddenly: at most 2·F_c (dynamic load factor 2,
-        # Biggs 1964 ch. 2 — from memory), within the force of the whole fall with
-        # the layer rigid (Gere §9.10, η = 1), here far above
-        F_rigid = W * (1 + math.sqrt(1 + 2 * h / (W * f_s)))
-        assert F_rigid > 2 * Fc
-        assert r.chain[Impact].contact[0] == pytest.approx(Fc, rel=REL)
-        assert r["peak_force"][0] == pytest.approx(2 * Fc, rel=REL)
+        assert r["peak_force"][0] == pytest.approx(Fc, rel=REL)
     else:
         F = W + math.sqrt(W**2 + 2 * (W * h - (Fc - W) * stroke) / f_s)
         assert r["peak_force"][0] == pytest.approx(F, rel=REL)

@@ -17,11 +17,7 @@ points of each demo nearest a deck edge the contact is smaller, effective mass, 
 and utilisations moved by under 0.3 %, allowable heights by up to 6 %; and again when
 a flat rigid base that covers both beams of its deck strip rests on them, the strip's
 bending out of the series: effective mass +0.7 to +9.4 %, forces +0.2 to +1.9 %,
-utilisations +0.1 to +1.7 %, allowable heights −0.3 to −4.0 %; and again when the
-framing under a crushable pad that crushes without bottoming out took the pad's force
-applied suddenly, up to 2·F_c (impact.framing_under_layer): at the roof demo's two
-points on a pad, force and dynamic factor ×2, utilisations 0.79 → 1.27 and 0.37 →
-0.55, the first one's allowable height 0.444 → 0.029 m above the pad). They are not a
+utilisations +0.1 to +1.7 %, allowable heights −0.3 to −4.0 %). They are not a
 source: the physics is checked against published values elsewhere
 (test_loadpath.py, test_analysis.py); this file guards that optimisations change no
 result.
@@ -63,19 +59,19 @@ PREVIOUS = {
             0.0, 194.95004741345434, 0.0, 274.69911277997204, 270.92568161517084, 213.5257323202929,
         ),
         "dynamic_factor": (
-            4.370212341333978, 13.062341109221533, 4.370212341333978,
+            2.185106170666989, 13.062341109221533, 2.185106170666989,
             14.954947707321663, 12.996466179860573, 15.948893661401945,
         ),
         "peak_force": (
-            180000.0, 538010.7912427388, 180000.0,
+            90000.0, 538010.7912427388, 90000.0,
             615963.3393228252, 535297.5392634646, 656901.915703267,
         ),
         "utilisation": (
-            1.2665319850935293, 2.3465657463180154, 0.5511724249649238,
+            0.7925050653944982, 2.3465657463180154, 0.3725511571681077,
             1.7567135707536548, 2.1241573327857655, 1.8866519491022364,
         ),
         "allowable_drop_height": (
-            0.02911384009879059, 0.0712477463576646, 0.6811659297055355,
+            0.44390099983223674, 0.0712477463576646, 0.6811659297055355,
             0.17076001101795857, 0.07977469815417494, 0.14260592871704755,
         ),
     },
