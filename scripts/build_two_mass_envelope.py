@@ -1,9 +1,10 @@
 """Build the two-mass envelope table (droprig/solver/data/two_mass_envelope.npz).
 
 The running maxima over the drop height of the two-mass peaks in units of the load's
-weight, on the grid of ``struck_mass.ENVELOPE_GRID``
-(:func:`droprig.solver.struck_mass.build_envelope`), stored as float32 rounded up.
-Deterministic; about 10–20 s on one core. Run:
+weight, on the grid of ``struck_mass.ENVELOPE_GRID``, as nodes whose interpolation
+covers every sample of a grid twice as fine (:func:`droprig.solver.struck_mass.
+build_envelope`, :func:`~droprig.solver.struck_mass.covering_nodes`), stored as
+float32 rounded up. Deterministic; about 20–90 s on one core. Run:
 ``.venv/bin/python scripts/build_two_mass_envelope.py``.
 """
 

@@ -450,7 +450,7 @@ def test_rooftop_demo_reads_acceptable_with_conditions():
     for needle in ("Lay pad MAT1", "Lay pad MAT2", "hook at or below elevation",
                    "Do not carry AHU-3 (new) over", "Do not carry Spreader beam 4 m over"):
         assert needle in text, needle
-    for bay_id in ("1-2/A-B", "2-3/A-B"):
+    for bay_id in ("1-2/A-B",):
         bv = pc.bay("MC1", "AHU-3 (new)", bay_id)
         assert bv.verdict == "acceptable_with_conditions"
         assert "MAT1" in [c.protection_id for c in bv.conditions]
@@ -460,10 +460,21 @@ def test_rooftop_demo_reads_acceptable_with_conditions():
         assert "Lay pad MAT1" in cells["conditions"]
     # the planned 0.8 m and the allowable height are on one datum. At the bay's edge
     # on grid line 3 the footprint overhangs MAT1 and the pad bottoms out (hand
-    # calculation: test_demo_pad_credit_follows_the_footprint_on_it), so the
-    # allowable height lies below the plan, above the pad's top, and the bay's
-    # conditions cap the hook below the plan
+    # calculation: test_demo_pad_credit_follows_the_footprint_on_it); where less
+    # than 41 kN of it lies on the pad (at the bay's corners, (15.0, 0.0): 27 kN)
+    # the pad crushes under the unit's weight even when it is set down on it, and
+    # the rest of the fall meets the framing by the two-mass stage
+    # (chain.after_bottoming; its scipy time history gives 0.73 MN at a 50 mm fall
+    # onto the pad against the 0.67 MN the framing allows there,
+    # tests/solver/test_after_bottoming.py): no height is allowed, the bay is kept
+    # clear of the unit
     bv = pc.bay("MC1", "AHU-3 (new)", "2-3/A-B")
+    assert bv.verdict == "not_acceptable"
+    assert bv.allowable_drop_height is None
+    assert [c.kind for c in bv.conditions] == ["exclude_area"]
+    # bay 1-2/A-B keeps a height below the plan, above the pad's top, and its
+    # conditions cap the hook below the plan
+    bv = pc.bay("MC1", "AHU-3 (new)", "1-2/A-B")
     assert 0.5 < bv.allowable_drop_height < bv.planned_drop_height
     caps = [c.max_drop_height for c in bv.conditions if c.kind == "cap_hook"]
     assert caps and 0.5 < min(caps) < bv.planned_drop_height

@@ -6,11 +6,14 @@ of them over its drop points. Two things can still make a printed condition fail
 when it is followed: a drop point between the sampled ones, and any part of the
 forward model a closed form does not follow exactly. So each condition a bay offers
 is *tried*: the forward chain is run with it applied — the load dropped from the
-offered height, or the offered mat laid under it — at every drop point of the bay
-and at points refined around the worst of them (as :mod:`droprig.solver.refine`
-does for the analysis). A condition that leaves the bay beyond its limits steps back
-to the least of :data:`CONFIRM_STEP` × itself and :data:`LIMIT_MARGIN` × the least
-inverse answer of the trial's own points, and is tried again, up to
+offered height, or the offered mat laid under it — at every drop point of the bay,
+at points refined around the worst of them (as :mod:`droprig.solver.refine` does
+for the analysis) and at cuts of the stretches between neighbouring points whose
+answers change steeply (:class:`_Stretches`: a limit that falls between two sample
+points is looked for where it can hide). A condition that leaves the bay beyond its
+limits steps back to the least of :data:`CONFIRM_STEP` × itself and
+:data:`LIMIT_MARGIN` × the least inverse answer of the trial's own points, and is
+tried again, up to
 :data:`CONFIRM_ROUNDS` times; one that never works is withdrawn (the bay then reads
 keep clear, or takes another option). Issue 13's closed loop, in the solver.
 
@@ -73,7 +76,8 @@ from droprig.solver.results import (
 from droprig.solver.summary import bay_advice
 from droprig.solver.unit_actions import unit_actions
 
-__all__ = ["CONFIRM_FACTORS", "CONFIRM_REFINE", "CONFIRM_ROUNDS", "CONFIRM_SPAN",
+__all__ = ["BISECT_LEVELS", "BISECT_RATIO", "BISECT_TOP", "CONFIRM_FACTORS", "CONFIRM_REFINE",
+           "CONFIRM_ROUNDS", "CONFIRM_SPAN",
            "CONFIRM_STEP", "CONFIRM_U", "confirm_bay_limits", "confirm_point_heights",
            "confirm_zone"]
 
@@ -108,6 +112,38 @@ height)."""
 _FIELD = {"elastic": "allowable_drop_height", "plastic": "allowable_drop_height_plastic",
           "mat": "required_mat_stiffness", "mass": "allowable_mass"}
 """The inverse answer of each kind of condition, per drop point."""
+
+BISECT_RATIO = 1.5
+"""Two neighbouring points whose answers to a condition differ by more than this
+factor mark a steep stretch (:class:`_Stretches`): half again over one lattice step
+is steep for the smooth part of the response (U ∝ √h for h ≫ δst, Gere §9.10: a
+factor 1.5 in height is 1.22 in U) and marks an edge, a switch of check or of
+branch. Common practice, no source."""
+BISECT_NEAR = 1.5
+"""A steep stretch is cut only where its lower answer is below this multiple of the
+trial value (:func:`_danger`): elsewhere a dip would have to fall by more than a
+third below the lower end within one lattice step to fail the trial."""
+BISECT_RHO_MAX = 4.0
+"""The change across a stretch that :func:`_danger` carries on past its lower end
+is taken at most this factor (a point with no limit beside one with a limit)."""
+BISECT_TOP = 4
+"""Stretches of each trial cut at each level after the first (:class:`_Stretches`):
+its most dangerous ones (a cost bound, stated in the class docstring)."""
+BISECT_PIECES = 4
+"""Pieces a dangerous stretch is cut into at each level after the first."""
+BISECT_LEVELS = 3
+"""Levels of cutting after the first (:class:`_Stretches`), each with a refinement
+pass of :func:`_run` or, after the last, a pass of its own."""
+BISECT_REACH = 1.05
+"""Neighbours of a point for :class:`_Stretches`: every point no farther than this
+multiple of the grid resolution (the lattice's step, not its diagonal)."""
+BISECT_SHORT = 0.3
+"""Stretches no longer than this multiple of the grid resolution are left to the
+refinement lattices (grid ÷ 4 and ÷ 16 around the worst points, run whole by each
+trial): :class:`_Stretches` cuts the longer ones."""
+BISECT_THIN = 0.125
+"""The stretches of :class:`_Stretches` join analysis points at least about this
+multiple of the grid resolution apart (one point per square of that side)."""
 
 MASS_STEP = 0.95
 """An allowable mass that fails its trial steps back to at most this fraction of
@@ -204,52 +240,65 @@ def _with_mass(load: LiftLoad, mass: float) -> LiftLoad:
 
 
 def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
-         trials: list[_Trial], res: dict[str, np.ndarray], geo: Geometry | None) -> None:
+         trials: list[_Trial], res: dict[str, np.ndarray], geo: Geometry | None,
+         known: dict[int, tuple[np.ndarray, np.ndarray]]) -> None:
     """One round: every trial of ``trials`` at the analysis points of its bay and at
     points refined around its worst ones; sets ``ok`` and, where it fails, the next
     value to try (``value``) or ``failed``. ``geo``: the geometry of ``res``'s rows
-    (``None``: worked out afresh)."""
+    (``None``: worked out afresh); ``known``: the neighbours of the bays' analysis
+    points found so far (:meth:`_Stretches.first`)."""
     li_all = res["load_index"]
-    rows, owner = [], []
+    rows, owner, bay = [], [], []
     for t, tr in enumerate(trials):
         v = res[_FIELD[tr.kind]]
-        # points whose own answer is far above the condition cannot fail it
-        near = ~(v > (MASS_SPAN if tr.kind == "mass" else CONFIRM_SPAN) * tr.value)
-        sel = np.flatnonzero((li_all == tr.load) & near
-                             & _inside(tr.rect, res["x"], res["y"]))
+        # points whose own answer is far above the condition cannot fail it (they
+        # still end the stretches _Stretches examines)
+        near = ~(v > _span(tr) * tr.value)
+        in_bay = (li_all == tr.load) & _inside(tr.rect, res["x"], res["y"])
+        sel = np.flatnonzero(in_bay & near)
         rows.append(sel)
         owner.append(np.full(sel.size, t, dtype=np.int64))
+        bay.append(np.flatnonzero(in_bay))
     row, own = np.concatenate(rows), np.concatenate(owner)
     x, y = res["x"][row], res["y"][row]
     ex, ey, eown = _edge_kinks(fm, zone, loads, trials, x, y, own)
+    # the first level of the steep stretches' splitting (_Stretches) rides with the
+    # analysis points, each further level with a refinement pass
+    st = _Stretches.first(fm, trials, res, bay, known)
+    sx, sy, sown = st.split(fm, zone, trials)
+    ex, ey, eown = np.r_[ex, sx], np.r_[ey, sy], np.r_[eown, sown]
     g = None
     if geo is not None:
-        # the analysis points' path and member actions, and the edge points' own
+        # the analysis points' path and member actions, and the other points' own
         eg = distinct_point_geometry(fm, project, ex, ey)
         unit_actions(fm, eg)
         g = concat_geo([take_geo(geo, row, steps=False), eg])
     x, y, own = np.r_[x, ex], np.r_[y, ey], np.r_[own, eown]
-    parts = [_evaluate(fm, project, zone, loads, trials, x, y, own, g)]
+    first = _evaluate(fm, project, zone, loads, trials, x, y, own, g)
+    parts = [st.take(fm, project, trials, first, sx.size)]
     step = fm.settings.grid_resolution
-    for n_top in CONFIRM_REFINE:
+    for level in range(BISECT_LEVELS):
         step /= 4.0
         cur = _cat(parts)
-        rx, ry, rown = _refine(fm, zone, trials, cur, step, n_top)
-        if rx.size == 0:
+        n_top = CONFIRM_REFINE[level] if level < len(CONFIRM_REFINE) else 0
+        rx, ry, rown = (_refine(fm, zone, trials, cur, step, n_top) if n_top
+                        else (np.zeros(0), np.zeros(0), np.zeros(0, dtype=np.int64)))
+        st.stop_failing(trials, cur)
+        sx, sy, sown = st.split(fm, zone, trials)
+        if rx.size + sx.size == 0:
             break
-        parts.append(_evaluate(fm, project, zone, loads, trials, rx, ry, rown))
+        ev = _evaluate(fm, project, zone, loads, trials, np.r_[rx, sx], np.r_[ry, sy],
+                       np.r_[rown, sown])
+        parts.append(st.take(fm, project, trials, ev, sx.size))
     r = _cat(parts)
     own = r["owner"]
-    resp = r["response"]
     for t, tr in enumerate(trials):
         sel = own == t
         if not sel.any():
             tr.ok = True
             continue
         tr.peak = float(np.nanmax(r["peak_force"][sel]))
-        worst = set(np.unique(resp[sel]).tolist())
-        u_max = float(np.nanmax(r["utilisation"][sel], initial=0.0))
-        if worst <= tr.allowed and (tr.allowed != _ELASTIC or u_max <= CONFIRM_U):
+        if _holds(tr, r, sel):
             tr.ok = True
             continue
         v = r[_FIELD[tr.kind]][sel]
@@ -267,6 +316,273 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
             tr.value = nxt
             if tr.kind in ("elastic", "plastic"):
                 tr.H = nxt
+
+
+def _span(tr: _Trial) -> float:
+    """The multiple of a trial's value above which a point's own answer is far from
+    failing it (:data:`CONFIRM_SPAN`, :data:`MASS_SPAN`)."""
+    return MASS_SPAN if tr.kind == "mass" else CONFIRM_SPAN
+
+
+def _holds(tr: _Trial, r: dict[str, np.ndarray], sel: np.ndarray) -> bool:
+    """Whether the trial's rows ``sel`` of ``r`` keep the bay within the condition's
+    limits: responses among ``tr.allowed`` and, for an elastic condition, every
+    U ≤ :data:`CONFIRM_U`."""
+    worst = set(np.unique(r["response"][sel]).tolist())
+    u_max = float(np.nanmax(r["utilisation"][sel], initial=0.0))
+    return worst <= tr.allowed and (tr.allowed != _ELASTIC or u_max <= CONFIRM_U)
+
+
+def _pad_top(fm: FloorModel, project: Project, prot: np.ndarray) -> np.ndarray:
+    """The thickness (m) of the pad or mat at each point (its index among the
+    project's protection areas, -1 none: 0)."""
+    t = np.array([pa.thickness if pa.level_id == fm.level.id else 0.0
+                  for pa in project.protection_areas] + [0.0])
+    return t[np.where(prot >= 0, prot, -1)]
+
+
+def _neighbours(x: np.ndarray, y: np.ndarray, reach: float
+                ) -> tuple[np.ndarray, np.ndarray]:
+    """The pairs (i, j) of points no farther apart than ``reach`` (m), each once:
+    exact distances between the points of neighbouring square cells of side
+    ``reach`` (a cell hash, O(n) for a lattice)."""
+    n = x.size
+    e = np.zeros(0, dtype=np.int64)
+    if n < 2:
+        return e, e
+    cx = np.floor((x - x.min()) / reach).astype(np.int64) + 1
+    cy = np.floor((y - y.min()) / reach).astype(np.int64) + 1
+    M = int(cy.max()) + 2
+    key = cx * M + cy
+    order = np.argsort(key, kind="stable")
+    ks = key[order]
+    ii, jj = [], []
+    # each pair once: the own cell (j after i) and four of the eight around it
+    for dx, dy in ((0, 0), (1, -1), (1, 0), (1, 1), (0, 1)):
+        tk = (cx + dx) * M + (cy + dy)
+        lo = np.searchsorted(ks, tk, "left")
+        cnt = np.searchsorted(ks, tk, "right") - lo
+        tot = int(cnt.sum())
+        if tot == 0:
+            continue
+        rep = np.repeat(np.arange(n), cnt)
+        start = np.cumsum(cnt) - cnt
+        j = order[lo[rep] + np.arange(tot) - start[rep]]
+        keep = (j > rep) if (dx, dy) == (0, 0) else np.ones(tot, dtype=bool)
+        keep &= np.hypot(x[rep] - x[j], y[rep] - y[j]) <= reach
+        ii.append(rep[keep])
+        jj.append(j[keep])
+    if not ii:
+        return e, e
+    return np.concatenate(ii), np.concatenate(jj)
+
+
+def _danger(tr: _Trial, va: np.ndarray, vb: np.ndarray) -> np.ndarray:
+    """How low the answer to the condition (allowable height, stiffest mat, allowable
+    mass; nan read as nothing allowed, as the chain's inverse answers give it where
+    even a zero fall fails) may reach between two neighbouring points with answers
+    ``va``, ``vb``, as a fraction of the trial value: lo/ρ, the lower answer divided
+    by the change across the stretch ρ = hi/lo (at most :data:`BISECT_RHO_MAX`) — the
+    change carried on past the lower end within the stretch, as at a kink between
+    the points. Where ρ ≤ :data:`BISECT_RATIO` (a smooth stretch) inf. A stretch with
+    a value below 1 is dangerous (:class:`_Stretches`); smaller is more dangerous."""
+    a = np.where(np.isnan(va), 0.0, va)
+    b = np.where(np.isnan(vb), 0.0, vb)
+    lo, hi = np.minimum(a, b), np.maximum(a, b)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        rho = np.where(lo > 0.0, hi / lo, np.inf)
+        d = np.where((rho > BISECT_RATIO) & (lo < BISECT_NEAR * tr.value),
+                     lo / np.minimum(rho, BISECT_RHO_MAX) / tr.value, np.inf)
+    return np.where(np.isnan(d), np.inf, d)
+
+
+def _most_dangerous(d: np.ndarray, own: np.ndarray, k: int) -> np.ndarray:
+    """Positions of the (at most ``k``) stretches of least danger ``d`` (< 1) of each
+    trial ``own``."""
+    cand = np.flatnonzero(d < 1.0)
+    if cand.size == 0:
+        return cand
+    order = cand[np.lexsort((d[cand], own[cand]))]
+    o = own[order]
+    first = np.r_[True, o[1:] != o[:-1]]
+    start = np.maximum.accumulate(np.where(first, np.arange(o.size), 0))
+    return order[(np.arange(o.size) - start) < k]
+
+
+@dataclass
+class _Stretches:
+    """The steep stretches of a round's trials: straight lines between neighbouring
+    points (ends x0, y0 and x1, y1, m) with each end's answer to the trial's
+    condition (v0, v1) and the trial they belong to (``own``).
+
+    Why: a bay's limit is the least inverse answer over its drop points, and the
+    answer is not smooth everywhere: where the load's footprint meets a deck edge,
+    a check takes over from another, or the plastic branch opens or closes, a point's
+    allowable height can fall from 0.45 m to 0.18 m within 0.1 m (a random floor,
+    issue 10) — a dip wholly between two sample points, which the refinement around
+    the worst sampled point never reaches. A steep change between neighbours is the
+    sign of such a place.
+
+    How: the first stretches join the analysis points of each trial's bay (one per
+    square of :data:`BISECT_THIN` × the grid resolution) to every such point within
+    :data:`BISECT_REACH` × the grid resolution, longer than :data:`BISECT_SHORT` ×
+    it, with the analysis' answers (:meth:`first`). A stretch is dangerous where its
+    answers differ by more than :data:`BISECT_RATIO`, its lower answer is within
+    :data:`BISECT_NEAR` of the trial value and, carried on past the lower end by that
+    change, would fall below the trial value (:func:`_danger`). The first level
+    halves every dangerous stretch; each of the :data:`BISECT_LEVELS` further levels
+    cuts the :data:`BISECT_TOP` most dangerous stretches of each trial still holding
+    into :data:`BISECT_PIECES` pieces. The cuts run with the trial (:meth:`split`; a
+    level rides with the analysis points or a refinement pass of :func:`_run`), and
+    each piece becomes a stretch with the trial run's answers at its ends
+    (:meth:`take`). A trial that fails at a cut stops being cut (it steps back with
+    the least answer found and is cut again in the next round).
+
+    The tolerance: every dangerous stretch is looked into at its middle; the most
+    dangerous are resolved to 1/(2·4³) = 1/128 of their length (4 mm on a 0.5 m
+    grid), finer than the refinement lattices (grid ÷ 16).
+
+    What it cannot see: a dip between two neighbours with nearly the same answer (a
+    smooth field: :data:`LIMIT_MARGIN` and :data:`CONFIRM_U` are the allowance for
+    that), a dip more than a third below the lower end of a stretch whose lower
+    answer is more than :data:`BISECT_NEAR` × the trial value, a dip that the middle
+    of a dangerous stretch does not reach while more dangerous ones take the deeper
+    levels, and stretches of the diagonal (the orthogonal ones around them are
+    cut). The answer field of a floor is rough — a beam line beside mid-panel
+    changes it threefold — and cutting every steep stretch to the end would cost as
+    much as the analysis again."""
+
+    x0: np.ndarray
+    y0: np.ndarray
+    v0: np.ndarray
+    x1: np.ndarray
+    y1: np.ndarray
+    v1: np.ndarray
+    own: np.ndarray
+    stopped: set[int]
+    cut: tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray, int] | None = None
+    level: int = 0
+
+    @classmethod
+    def first(cls, fm: FloorModel, trials: list[_Trial], res: dict[str, np.ndarray],
+              bay: list[np.ndarray], known: dict[int, tuple[np.ndarray, np.ndarray]]
+              ) -> _Stretches:
+        """The stretches between neighbouring analysis points of each trial's bay
+        (``bay``: their rows of ``res``), with the analysis' answers; ``known``: the
+        neighbours found so far among each load's analysis points (rows of ``res``; the
+        same for every trial and round of a zone)."""
+        reach = BISECT_REACH * fm.settings.grid_resolution
+        cols: list[list[np.ndarray]] = [[] for _ in range(7)]
+        in_bay = np.zeros(res["x"].size, dtype=bool)
+        for t, tr in enumerate(trials):
+            f = _FIELD[tr.kind]
+            if tr.load not in known:
+                # every analysis point of the load in the zone (rows of res)
+                rows = np.flatnonzero(res["load_index"] == tr.load)
+                # one point per square of BISECT_THIN (a stretch shorter than that
+                # lies within a refinement lattice, which the trial runs whole)
+                cell = BISECT_THIN * fm.settings.grid_resolution
+                _, one = np.unique(np.c_[np.round(res["x"][rows] / cell),
+                                         np.round(res["y"][rows] / cell)],
+                                   axis=0, return_index=True)
+                rows = rows[np.sort(one)]
+                a, b = _neighbours(res["x"][rows], res["y"][rows], reach)
+                # stretches within a refinement lattice are sampled densely already
+                long = (np.hypot(res["x"][rows[a]] - res["x"][rows[b]],
+                                 res["y"][rows[a]] - res["y"][rows[b]])
+                        > BISECT_SHORT * fm.settings.grid_resolution)
+                a, b = a[long], b[long]
+                known[tr.load] = (rows[a], rows[b])
+            a, b = known[tr.load]
+            in_bay[bay[t]] = True
+            w = in_bay[a] & in_bay[b]
+            in_bay[bay[t]] = False
+            i, j = a[w], b[w]
+            x, y, v = res["x"], res["y"], res[f]
+            for c, a in zip(cols, (x[i], y[i], v[i], x[j], y[j], v[j],
+                                   np.full(i.size, t, dtype=np.int64)), strict=True):
+                c.append(a)
+        if not cols[0]:
+            e = np.zeros(0)
+            return cls(e, e, e, e, e, e, np.zeros(0, dtype=np.int64), set())
+        x0, y0, v0, x1, y1, v1, own = (np.concatenate(c) for c in cols)
+        return cls(x0, y0, v0, x1, y1, v1, own, set())
+
+    def stop_failing(self, trials: list[_Trial], r: dict[str, np.ndarray]) -> None:
+        """No more cuts for the trials that fail on the rows ``r`` so far."""
+        for t in np.unique(r["owner"]).tolist():
+            if t not in self.stopped and not _holds(trials[t], r, r["owner"] == t):
+                self.stopped.add(t)
+
+    def split(self, fm: FloorModel, zone: LiftZone, trials: list[_Trial]
+              ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """The cut points (x, y, trial) of this level's most dangerous stretches that
+        lie in the zone and over the deck."""
+        own = self.own
+        d = np.full(own.size, np.inf)
+        for t in np.unique(own).tolist():
+            if t in self.stopped:
+                continue
+            h = own == t
+            d[h] = _danger(trials[t], self.v0[h], self.v1[h])
+        # the first level halves every dangerous stretch, each further one cuts the
+        # most dangerous of each trial into BISECT_PIECES
+        first = self.level == 0
+        top = _most_dangerous(d, own, own.size if first else BISECT_TOP)
+        n = 2 if first else BISECT_PIECES
+        self.level += 1
+        s = np.arange(1, n) / n
+        x = self.x0[top, None] + s[None, :] * (self.x1 - self.x0)[top, None]
+        y = self.y0[top, None] + s[None, :] * (self.y1 - self.y0)[top, None]
+        ok = (droppoints.in_zone(zone, x.ravel(), y.ravel())
+              & (locate(fm.frame, x.ravel(), y.ravel()) >= 0)).reshape(x.shape)
+        self.cut = (top, x, y, ok, n)
+        return x[ok], y[ok], np.repeat(own[top, None], n - 1, axis=1)[ok]
+
+    def take(self, fm: FloorModel, project: Project, trials: list[_Trial],
+             ev: dict[str, np.ndarray], n_cut: int) -> dict[str, np.ndarray]:
+        """``ev`` (a trial run whose last ``n_cut`` rows are this level's cuts, in
+        :meth:`split`'s order) without the cuts no capped load reaches; the pieces
+        of the cut stretches become the stretches of the next level."""
+        assert self.cut is not None
+        top, cx, cy, ok, n = self.cut
+        m = top.size
+        own = self.own[top]
+        assert n_cut == int(ok.sum())
+        base = ev["owner"].size - n_cut
+        keep = np.ones(ev["owner"].size, dtype=bool)
+        vals = np.full((m, n - 1), np.nan)
+        if n_cut:
+            # a height limit below the top of a pad keeps the load off that pad (the
+            # permit reads no practical hook limit there, droprig.permit): a cut on
+            # such a pad is no place the capped load reaches
+            h_cap = np.array([tr.H if tr.kind in ("elastic", "plastic") else np.inf
+                              for tr in trials])
+            ro = ev["owner"][base:]
+            reach = ~(_pad_top(fm, project, ev["protection"][base:]) > h_cap[ro])
+            keep[base:] = reach
+            v = np.full(n_cut, np.nan)
+            names = sorted(set(_FIELD.values()))
+            fi = np.array([names.index(_FIELD[tr.kind]) for tr in trials])[ro]
+            for q in np.unique(fi).tolist():
+                w = fi == q
+                v[w] = ev[names[q]][base:][w]
+            ok = ok.copy()
+            pos = np.flatnonzero(ok.ravel())
+            ok.ravel()[pos[~reach]] = False
+            vals.ravel()[pos] = v
+        # the nodes of each cut stretch: its ends and its cuts
+        X = np.c_[self.x0[top], cx, self.x1[top]]
+        Y = np.c_[self.y0[top], cy, self.y1[top]]
+        V = np.c_[self.v0[top], vals, self.v1[top]]
+        live = np.c_[np.ones(m, dtype=bool), ok, np.ones(m, dtype=bool)]
+        piece = live[:, :-1] & live[:, 1:]
+        O = np.repeat(own[:, None], n, axis=1)
+        self.x0, self.y0, self.v0 = X[:, :-1][piece], Y[:, :-1][piece], V[:, :-1][piece]
+        self.x1, self.y1, self.v1 = X[:, 1:][piece], Y[:, 1:][piece], V[:, 1:][piece]
+        self.own = O[piece]
+        self.cut = None
+        return ev if keep.all() else {k: a[keep] for k, a in ev.items()}
 
 
 def _edge_kinks(fm: FloorModel, zone: LiftZone, loads: tuple, trials: list[_Trial],
@@ -334,7 +650,8 @@ def _evaluate(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
         geo = distinct_point_geometry(fm, project, x, y)
     r = _forward(fm, project, zone, loads, geo, li, H,
                  mk if np.isfinite(mk).any() else None)
-    keep = ("x", "y", "response", "utilisation", "peak_force", "allowable_drop_height",
+    keep = ("x", "y", "protection", "response", "utilisation", "peak_force",
+            "allowable_drop_height",
             "allowable_drop_height_plastic", "required_mat_stiffness", "allowable_mass")
     out = {k: r[k] for k in keep}
     out["owner"] = own
@@ -448,6 +765,7 @@ def confirm_bay_limits(fm: FloorModel, project: Project, zone: LiftZone,
     # mass keeps the bay elastic: no perforation either)
     base = tuple(replace(ld, hard=False) for ld in zone.loads)
     pending = [t for t in trials if not t.failed]
+    known: dict[int, tuple[np.ndarray, np.ndarray]] = {}
     for _ in range(CONFIRM_ROUNDS):
         if not pending:
             break
@@ -457,7 +775,7 @@ def confirm_bay_limits(fm: FloorModel, project: Project, zone: LiftZone,
                 t.eval_load = len(base) + len(extra)
                 extra.append(_with_mass(zone.loads[t.load], t.value))
         loads = base + tuple(extra)
-        _run(fm, project, zone, loads, pending, res, geo)
+        _run(fm, project, zone, loads, pending, res, geo, known)
         pending = [t for t in pending if not t.ok and not t.failed]
         if not pending:
             break

@@ -37,6 +37,7 @@ from droprig.solver.chain import (
     StruckMass,
     energy_fall,
     outputs,
+    residual_height,
     slab_rotation_limit,
 )
 from droprig.solver.drift import resolve_drift
@@ -243,8 +244,7 @@ def _two(sheet: _Sheet) -> bool:
 def _impact_steps(sheet: _Sheet) -> None:
     """Energy balance of the impact: η, h, K, F, deflections."""
     add, inp, comp, sm = sheet.add, sheet.inp, sheet.comp, sheet.sm
-    imp, out, project, load = sheet.imp, sheet.out, sheet.project, sheet.load
-    fr, members, path = sheet.fr, sheet.members, sheet.path
+    imp, load = sheet.imp, sheet.load
     M = load.mass
     add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",
         {"M": (M, "mass"), "m_e": (sm.m_e[0], "mass")}, sm.eta[0],
@@ -266,7 +266,14 @@ def _impact_steps(sheet: _Sheet) -> None:
         "length", _SRC_GERE)
     hk = "h_e" if v_h > 0.0 else "h"
     two = _two(sheet)
-    if two:
+    # a crushable layer that bottoms out: the rest by the two-mass stage
+    after = (imp.searched is not None and bool(imp.searched[0]) and not two
+             and bool(imp.bottomed[0]))
+    if after:
+        add("Dynamic factor of the force on the framing", "K", "K = F / W",
+            {"F": (imp.F[0], "force"), "W": (W, "force")}, imp.K[0], "dimensionless",
+            _SRC_TWO_MASS)
+    elif two:
         # the framing force comes from the two-mass model: K is that force over W
         _two_force_steps(sheet, W, h_e)
         add("Dynamic factor of the force on the framing", "K", "K = F_f / W",
@@ -278,17 +285,41 @@ def _impact_steps(sheet: _Sheet) -> None:
             {"η": (sm.eta[0], "dimensionless"), hk: (h_e, "length"),
              "δ_st": (imp.d_st[0], "length")}, imp.K[0],
             "dimensionless", _SRC_GERE)
-    add("Peak impact force" + (" on the framing" if two else ""),
+    if after:
+        # the energy the layer leaves and the force of the rest of the fall
+        F_c, s_c = float(inp.F_c[0]), float(inp.s_c[0])
+        add("Energy height left when the pad bottoms out (its crush work taken off, "
+            "the fall under its force added)", "h_r",
+            f"h_r = {hk} − (F_c/W − 1)·s_c + 2·F_c·f",
+            {hk: (h_e, "length"), "F_c": (F_c, "force"), "W": (W, "force"),
+             "s_c": (s_c, "length"), "f": (comp.f[0], "compliance")},
+            float(residual_height(np.array([W]), np.array([h_e]), np.array([F_c]),
+                                  np.array([s_c]), comp.f[:1])[0]),
+            "length", "energy balance (common practice, no source); Biggs 1964 ch. 2 "
+            "(dynamic load factor 2, from memory)")
+    add("Peak impact force" + (" on the framing" if two or after else ""),
         "F", "F = K·W" if imp.crush[0] == 0 else
-        "F = crush force, or elastic after bottoming (droprig.solver.impact.impact_crushable)",
+        ("F = min(two-mass envelope at h_r (≤ 2·max(F_crush, F_1)) + 2·F_c, energy "
+         "bound of h − (F_c/W − 1)·s_c), at least min(2·F_c, energy bound of h) "
+         "(droprig.solver.chain.after_bottoming)" if after else
+         "F = crush force, or elastic after bottoming "
+         "(droprig.solver.impact.impact_crushable)"),
         {"K": (imp.K[0], "dimensionless"), "W": (W, "force")},
-        imp.F[0], "force", _SRC_TWO_MASS if two else _SRC_GERE)
+        imp.F[0], "force", _SRC_TWO_MASS if two or after else _SRC_GERE)
     add("Crushing force of the deck concrete under the footprint (bound on the contact "
         "force)", "F_crush", "F_crush = DIF·f_cm·√(A_c1/A_c0)·A_c0 ≤ 3·DIF·f_cm·A_c0",
         {"A_c0": (inp.foot_l[0] * inp.foot_w[0], "area"),
          "crushed depth": (imp.deck_crush[0], "length")},
         imp.F_crush[0], "force",
         "EN 1992-1-1 §6.7 / ACI 318-19 §22.8.3.2, upper estimate (droprig.solver.crushing)")
+    _deflection_steps(sheet, W, two)
+
+
+def _deflection_steps(sheet: _Sheet, W: float, two: bool) -> None:
+    """The struck point's peak deflection (and against span/N, for information) and
+    the load's deceleration."""
+    add, imp, out, project = sheet.add, sheet.imp, sheet.out, sheet.project
+    fr, members, path = sheet.fr, sheet.members, sheet.path
     add("Peak deflection of the struck point", "δ_max", "δ_max = K·δ_st",
         {"K": (imp.K[0], "dimensionless"),
          "δ_st": (imp.d_st[0], "length")}, imp.d_max[0], "length",

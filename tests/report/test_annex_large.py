@@ -154,9 +154,11 @@ def test_annex_grows_with_distinct_cases_not_with_levels(
     # measured: 114 → 121 pages (its conditions plan, bay-table rows, conditions incl.
     # the connection sign-off and inputs of each level); 118 → 127 once a rigid base
     # bridging the beams of its deck strip rests on them (the same sheet groups, as
-    # asserted above; the per-level part grew); a level's worth of sheets would be
-    # ~100 pages
-    assert pages3 - pages1 <= 5 * (3 - 1), (pages1, pages3)
+    # asserted above; the per-level part grew); 164 → 175 with the after-bottoming
+    # stage of crushable pads (chain.after_bottoming: more bays of each level carry
+    # conditions; the same sheet groups); a level's worth of sheets would be ~100
+    # pages
+    assert pages3 - pages1 <= 6 * (3 - 1), (pages1, pages3)
 
 
 def test_every_bay_of_every_level_is_findable(

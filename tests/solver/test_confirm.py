@@ -272,3 +272,77 @@ def test_calculation_sheet_states_the_mass_the_bay_prints() -> None:
            if s.symbol in ("M_allow", "M_allow,p")]
     bare = {s.symbol: s.value for s in pts}
     assert bare["M_allow,p"] < bare["M_allow"]
+
+
+def test_neighbour_pairs_of_the_cell_hash_equal_every_pair_within_reach() -> None:
+    """The fast neighbour search of the steep stretches (a cell hash) against the
+    plain reference: every pair of points no farther apart than the reach, from the
+    full distance matrix (numpy). Random points with a dense cluster (a refinement
+    lattice) and points exactly a reach apart."""
+    from droprig.solver.confirm import _neighbours
+
+    rng = np.random.default_rng(7)
+    x = np.r_[rng.uniform(0.0, 9.0, 300), 4.0 + 0.03 * np.arange(5).repeat(5), 0.0, 0.5]
+    y = np.r_[rng.uniform(0.0, 7.5, 300), 3.0 + 0.03 * np.tile(np.arange(5), 5), 0.0, 0.0]
+    reach = 0.5
+    i, j = _neighbours(x, y, reach)
+    got = {(min(a, b), max(a, b)) for a, b in zip(i.tolist(), j.tolist(), strict=True)}
+    assert len(got) == i.size  # each pair once
+    d = np.hypot(x[:, None] - x[None, :], y[:, None] - y[None, :])
+    a, b = np.nonzero(np.triu(d <= reach, k=1))
+    assert got == set(zip(a.tolist(), b.tolist(), strict=True))
+
+
+def test_a_plastic_limit_holds_across_a_steep_change_between_samples() -> None:
+    """Random project 41, bay 1-2/B-C, load 0 (an invented floor, grid 1.0 m): along
+    the bay's edge y = 7.48 m the point's plastic allowable height (the chain's own
+    inverse answer) falls from about 0.45 m at x = 0.53 m to 0.18 m at x = 0.60 m and
+    rises again to 0.27 m at x = 0.95 m. The analysis samples x = 0.475 and 0.949 m,
+    both above 0.26 m, so the least height of the bay's samples (0.217 m) lies above
+    the dip, and the hook limit printed from it (0.196 m) used to leave the bay
+    exceeding when followed (U 1.24 on re-analysis). The confirmation cuts the steep
+    stretch between those samples (droprig.solver.confirm._Stretches). Checked
+    against the forward chain itself: the bay's height limit, applied at a 10 mm line
+    of points along the whole bay's edge, keeps every point within the response it
+    is offered for (plastic, with the engineer's sign-off). The limit now lies below
+    the top of the 164 mm pad on the bay, so the permit offers no hook limit there
+    and excludes the bay (a limit it prints would have to hold the same way)."""
+    from droprig.model import bays
+    from droprig.permit import derive_conditions
+    from droprig.solver import evaluate, floor, geometry
+
+    project = random_project(41)
+    res = analyse(project)
+    key = ("1-2/B-C", "load 0")
+    bv = next(b for b in derive_conditions(project, res).bays
+              if (b.bay_id, b.load_name) == key)
+    s = next(b for b in res.bays if (b.bay_id, b.load_name) == key)
+    lv = project.level(bv.level_id)
+    rect = next(b.rect for b in bays(lv) if b.id == bv.bay_id)
+    zone = project.zone(bv.zone_id)
+    load = replace(next(ld for ld in zone.loads if ld.name == bv.load_name), hard=False)
+    fm = floor.floor_cache(project)(lv.id)
+    x = np.arange(rect.x0, rect.x1 + 1e-9, 0.01)
+    geo = geometry.point_geometry(fm, project, x, np.full(x.size, rect.y0))
+    at = evaluate.evaluate_case(fm, project, load, geo, v_hoist=zone.hoist_speed)
+    hp = at["allowable_drop_height_plastic"]
+    # the premise: the dip lies between the analysis' samples of that line
+    case = next(c for c in res.cases if c.load_name == bv.load_name)
+    on_line = np.isclose(case.y, rect.y0) & (case.x > 0.4) & (case.x < 1.0)
+    assert case.x[on_line].size >= 2
+    assert np.all(case.allowable_drop_height_plastic[on_line] > 0.26)
+    dip = (x > 0.55) & (x < 0.75)
+    assert np.nanmin(hp[dip]) < 0.19
+    # the bay's limit (a drop beyond the elastic limits, the plastic limit offered)
+    # holds across it, and so does any hook limit the permit prints
+    assert s.advice_kind == "limit_height" and s.height_limit_yields
+    limits = [s.height_limit] + [c.max_drop_height for c in bv.conditions
+                                 if c.kind == "cap_hook"]
+    if not any(c.kind == "cap_hook" for c in bv.conditions):
+        pad = max(pa.thickness for pa in project.protection_areas)
+        assert s.height_limit < pad and bv.verdict == "not_acceptable"
+    for h in limits:
+        assert h is not None and h < np.nanmin(hp)
+        r = evaluate.evaluate_case(fm, project, load, geo, H=np.full(x.size, h),
+                                   v_hoist=zone.hoist_speed)
+        assert np.isin(r["response"], (0, 1)).all(), (h, float(np.nanmax(r["utilisation"])))

@@ -81,8 +81,9 @@ def test_allowable_height_with_lowering_speed_is_lower_by_the_head(demo):
         assert ok.any()
         # the closed forms exactly; with two forces per point the heights are
         # searched on the forward chain, each within chain.H_TOL below its exact
-        # boundary (chain.two_force_height): the two then agree within that
-        two = still[Impact].two_mass
+        # boundary (chain.two_force_height): the two then agree within that (the
+        # searched points: two forces, and crushable pads, chain.after_bottoming)
+        two = still[Impact].searched
         tol = np.where(two if two is not None else False, chain.H_TOL, 1e-9)
         ok1 = ok & np.isfinite(h1)
         assert np.all(np.abs(h1[ok1] - (h0[ok1] - head))

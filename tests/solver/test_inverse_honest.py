@@ -130,9 +130,10 @@ def test_a_layer_weaker_than_the_load_is_flagged_useless() -> None:
 
 def test_a_layer_weaker_than_the_load_earns_no_height() -> None:
     """A layer that crushes under the load's weight (F_c ≤ W) adds its stroke to the
-    fall: the allowable height is that of the same pad that never crushes, less
-    (W − F_c)·s_c/W (impact_crushable case 3 solved for h, η = 1 under a layer),
-    and none where that is below 0."""
+    fall: the allowable height is at most that of the same pad that never crushes,
+    less (W − F_c)·s_c/W (impact_crushable case 3 solved for h, η = 1 under a
+    layer: the one-mass balance of the energy left), and none where that is below
+    0."""
     # the crush-energy arithmetic of the energy method (dynamic amplification off:
     # its heights are confirmed by forward runs, not by this closed form)
     weak_project = _energy_only(_weak_layer_project(30e3))
@@ -167,8 +168,15 @@ def test_a_layer_weaker_than_the_load_earns_no_height() -> None:
         # pad (the height less the pad's thickness) would be below 0 (issue 13)
         t = (cw.drop_height - cw.fall_height)[iw]
         expect = np.where(expect >= t, expect, np.nan)
-        np.testing.assert_allclose(cw.allowable_drop_height[iw], expect, rtol=1e-9,
-                                   atol=1e-12)
+        # the layer crushes under the weight alone and bottoms out at any height: the
+        # rest of the fall meets the floor by the two-mass stage
+        # (chain.after_bottoming, at least the one-mass force of the same energy
+        # where the framing's own motion adds to it; searched on the forward impact),
+        # so the height is at most the one-mass balance's, and none where that has none
+        got = cw.allowable_drop_height[iw]
+        assert np.all(np.isnan(got[np.isnan(expect)]))
+        fin = ~np.isnan(got)
+        assert np.all(got[fin] <= expect[fin] * (1 + 1e-9))
         n += len(iw)
     assert n > 0
 

@@ -112,30 +112,92 @@ def test_envelope_is_monotone_and_between_one_mass_and_energy_bounds():
     assert np.all(Fc <= Bc * (1 + 1e-12)) and np.all(Ff <= Bf * (1 + 1e-12))
 
 
-def test_envelope_covers_the_pointwise_peaks_of_lower_drops():
-    # The envelope against the running maximum over lower drops of the pointwise
-    # two-mass solution (each peak within its energy bound), 400 random systems ×
-    # 100 heights. Measured on this tree (2 × 2,000 systems × 150 heights, margin
-    # 1.10): covered for 99 % of the systems (framing) and 99.9 % (contact); the rest
-    # — loads heavier than about a tenth of the struck mass whose contact breaks and
-    # closes many times (chatter) — at worst 0.955 (framing) and 0.83 (contact) of the
-    # pointwise spike (README, limits). Typical: 1.05–1.18 × the pointwise peak.
-    M, m2, k2, kc = _random_systems(5, 400)
-    nh = 100
-    hs = np.geomspace(1e-3, 20.0, nh)
-    W = np.repeat(M * G, nh)
-    fc, ff, m2r = np.repeat(1 / kc, nh), np.repeat(1 / k2, nh), np.repeat(m2, nh)
-    H = np.tile(hs, M.size)
-    Fc_p, Ff_p = struck_mass.impact_two_forces(W, H, fc, ff, m2r)
-    Bc, Bf = struck_mass.energy_bounds(W, H, fc, ff)
-    run_c = np.maximum.accumulate(np.minimum(Fc_p, Bc).reshape(-1, nh), axis=1)
-    run_f = np.maximum.accumulate(np.minimum(Ff_p, Bf).reshape(-1, nh), axis=1)
-    Fc_e, Ff_e = struck_mass.envelope_two_forces(W, H, fc, ff, m2r)
-    rc = (Fc_e.reshape(-1, nh) / run_c).min(axis=1)
-    rf = (Ff_e.reshape(-1, nh) / run_f).min(axis=1)
-    assert np.mean(rc >= 1.0 - 1e-9) >= 0.98
-    assert np.mean(rf >= 1.0 - 1e-9) >= 0.98
-    assert rc.min() > 0.8 and rf.min() > 0.9
+TABLE_OVER = 1.05
+"""The table against the pointwise solution (the running maximum over lower drops of
+struck_mass.two_mass_peaks at the point's own μ, κ): at most 5 % above it for most
+points (:data:`TABLE_SHARE_WITHIN`), never below it by more than the closed form's
+own ripple bound lets a sample stand above a time history (:data:`TABLE_UNDER`)."""
+TABLE_SHARE_WITHIN = (0.74, 0.84)
+"""Share of random (system, planned height) pairs whose table force (framing,
+contact) lies within [1, TABLE_OVER] × the pointwise solution (measured on this
+tree, the 300 systems of the test: 0.79 and 0.89, every one ≥ 1; with the table
+before the covering nodes and its ×1.10 margin: 0.25 and 0.45). The rest are
+systems whose peaks jump where a later contact starts or stops between the table's
+samples (up to 1.36 × the pointwise peak; 1.86 before)."""
+TABLE_MEDIAN = 1.04
+"""Median of the table over the pointwise solution (measured 1.032 and 1.031; 1.19
+and 1.07 before)."""
+TABLE_UNDER = 0.85
+"""Lowest table / pointwise ratio allowed (measured 0.87 in a sample of 100 systems
+× 3,000 heights: a closed-form peak raised by the slow window's ripple bound above
+the scipy time history, which the table stays above; see
+:func:`test_table_under_the_closed_form_is_above_the_time_history`)."""
+
+
+def _pointwise_running_max(M, m2, k2, kc, h, nh):
+    """The running maximum over nh lower drops (quadratically spaced up to h) of the
+    pointwise peaks, each within its energy bound (as the table's samples): the
+    reference the table is read against. Returns (contact, framing), N."""
+    fr = np.linspace(0.0, 1.0, nh + 1)[1:] ** 2
+    H = (h[:, None] * fr[None, :]).ravel()
+    W = M * G
+
+    def rep(a):
+        return np.repeat(a, nh)
+
+    Fc, Ff = struck_mass.impact_two_forces(rep(W), H, rep(1 / kc), rep(1 / k2), rep(m2))
+    Bc, Bf = struck_mass.energy_bounds(rep(W), H, rep(1 / kc), rep(1 / k2))
+    return (np.minimum(Fc, Bc).reshape(-1, nh).max(axis=1),
+            np.minimum(Ff, Bf).reshape(-1, nh).max(axis=1))
+
+
+def test_table_within_its_tolerance_of_the_pointwise_solution():
+    # 300 random systems (the demos' range and beyond) at one planned height each,
+    # against the pointwise running maximum over 400 lower drops
+    M, m2, k2, kc = _random_systems(8, 300)
+    h = np.random.default_rng(9).uniform(0.05, 5.0, M.size)
+    ref_c, ref_f = _pointwise_running_max(M, m2, k2, kc, h, 400)
+    Fc, Ff = struck_mass.envelope_two_forces(M * G, h, 1 / kc, 1 / k2, m2)
+    for got, ref, share in ((Ff, ref_f, TABLE_SHARE_WITHIN[0]),
+                            (Fc, ref_c, TABLE_SHARE_WITHIN[1])):
+        r = got / ref
+        assert np.mean((r >= 1.0 - 1e-9) & (r <= TABLE_OVER)) >= share
+        assert np.median(r) <= TABLE_MEDIAN
+        assert np.mean(r >= 1.0 - 1e-9) >= 0.99
+        assert r.min() >= TABLE_UNDER
+
+
+def test_table_at_the_rooftop_units_governing_point():
+    # AHU-3 (new) of the invented rooftop demo at (7.5, 17.75): μ = 1.03, κ = 0.149,
+    # ĥ = 3 249 (W = 41 188 N, h = 0.8 m, f_s = 5.979e-9 m/N, f_c = 4.001e-8 m/N,
+    # m2 = 4 331 kg). The pointwise two-mass peak on the framing is 1.824 MN (the
+    # running maximum over lower drops is the same: the peak rises with the height
+    # here); the table read 2.459 MN before (1.35 ×, U 3.39 on shear), within 5 %
+    # now
+    W, h, fs, fc, m2 = 41187.93, 0.8, 5.97890829e-09, 4.00138492e-08, 4331.2415805
+    ref_c, ref_f = _pointwise_running_max(np.array([W / G]), np.array([m2]),
+                                          np.array([1 / fs]), np.array([1 / fc]),
+                                          np.array([h]), 2000)
+    assert float(ref_f[0]) == pytest.approx(1.824e6, rel=2e-3)
+    Fc, Ff = struck_mass.envelope_two_forces(W, h, fc, fs, m2)
+    assert 1.0 <= float(Ff) / float(ref_f[0]) <= TABLE_OVER
+    assert 1.0 <= float(Fc) / float(ref_c[0]) <= TABLE_OVER
+
+
+def test_table_under_the_closed_form_is_above_the_time_history():
+    # Where the table reads below the closed-form peak (the slow window's ripple
+    # bound of two_mass_peaks is an upper bound and jumps), the scipy time history
+    # shows the real peak below the table: AHU-3 (new) on the rooftop demo at a
+    # point with μ = 2.22, κ = 5.41, ĥ = 89.7, the contact force at h = 0.8 m
+    # (closed form 31.07 W, time history 26.57 W, table 27.5 W)
+    M = 4200.0
+    W = M * G
+    f_s = 0.8 / (89.67511415271605 * W)  # ĥ = h/(W·f_s)
+    f_c = f_s / 5.413439194433118
+    m2 = 2.222308960734305 * M
+    Fc_th, _ = _two_dof_history(M, math.sqrt(2 * G * 0.8), 1 / f_c, m2, 1 / f_s)
+    Fc, _ = struck_mass.envelope_two_forces(W, 0.8, f_c, f_s, m2)
+    assert float(Fc) >= Fc_th
 
 
 def test_envelope_against_the_time_history():

@@ -1,7 +1,8 @@
 """The allowable-height searches' fast kernel against its plain reference.
 
 ``chain.TwoForceKernel`` gathers the height-free inputs of the impact step at the
-points with two forces once and redoes only the height's arithmetic;
+points with two forces and on crushable pads (``Impact.searched``) once and redoes
+only the height's arithmetic;
 ``struck_mass.EnvelopeLookup`` keeps the envelope's cell in μ and κ. Their plain
 references are the chain's own impact step (``chain.impact_at``: Gere, *Mechanics of
 Materials* 7th ed. §9.10 Eq. 9-94, the crushing-limited impact, the two-mass
@@ -46,10 +47,13 @@ def _chains(demo: Path, seed: int, n: int = 80):
 
 @pytest.mark.parametrize("demo", DEMOS, ids=lambda p: p.stem)
 def test_kernel_gives_the_impact_steps_forces(demo):
-    seen = 0
+    seen = pads = 0
     for c, rng in _chains(demo, 4):
-        two = c[Impact].two_mass
+        # the searched points: those with two forces and those on a crushable pad
+        # (chain.after_bottoming where a drop bottoms it out)
+        two = c[Impact].searched
         assert two is not None
+        pads += int((two & c[LoadInputs].crushable).sum())
         if not two.any():
             continue
         idx = np.flatnonzero(two)
@@ -70,6 +74,8 @@ def test_kernel_gives_the_impact_steps_forces(demo):
             np.testing.assert_allclose(er, eta_f[rows], rtol=TOL)
         seen += idx.size
     assert seen > 50
+    # the rooftop and steel demos have crushable pads under part of the floor
+    assert (pads > 20) == (demo.stem != "two_level_rigging")
 
 
 def test_envelope_lookup_is_the_envelope():
@@ -111,12 +117,12 @@ def test_kernel_at_another_mass_is_that_loads_impact_step(demo):
                                       rng.uniform(ext.y0, ext.y1, 60))
         for load in zone.loads:
             c = evaluate_chain(fm, p, load, geo, v_hoist=zone.hoist_speed)
-            two = c[Impact].two_mass
+            two = c[Impact].searched
             assert two is not None
             k = float(rng.uniform(0.1, 3.0))
             c2 = evaluate_chain(fm, p, replace(load, mass=k * load.mass), geo,
                                 v_hoist=zone.hoist_speed)
-            both = two & c2[Impact].two_mass
+            both = two & c2[Impact].searched
             if not both.any():
                 continue
             idx = np.flatnonzero(two)

@@ -1,0 +1,62 @@
+"""Per bay and load of the demo projects: response, worst U, allowable heights, the
+height limit, allowable mass and advice, recorded to JSON and compared between two
+recordings (verdict-class changes called out). An engineer's look at what a change
+of the physics moves; invented demos, no expected values.
+
+Run (from the tree to record):
+``PYTHONPATH=. .venv/bin/python scripts/bay_changes.py record before.json``, then
+``... compare before.json after.json``.
+"""
+
+from __future__ import annotations
+
+import json
+import sys
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[1]
+FIELDS = ("response", "max_utilisation", "allowable_drop_height",
+          "allowable_drop_height_plastic", "height_limit", "allowable_mass", "advice_kind")
+
+
+def record(out: Path) -> None:
+    from droprig.io.project_file import load_project
+    from droprig.solver import analysis
+
+    rows = {}
+    for path in sorted((ROOT / "demo_projects").glob("*.droprig")):
+        for b in analysis.analyse(load_project(path)).bays:
+            rows[f"{path.stem}|{b.zone_id}|{b.bay_id}|{b.load_name}"] = {
+                k: getattr(b, k) for k in FIELDS}
+    out.write_text(json.dumps(rows, indent=0))
+
+
+def _f(v: object) -> str:
+    return "   —  " if v is None else f"{v:7.3f}" if isinstance(v, float) else str(v)
+
+
+def compare(a_path: Path, b_path: Path) -> None:
+    a, b = json.loads(a_path.read_text()), json.loads(b_path.read_text())
+    n = 0
+    for key, x in a.items():
+        y = b.get(key)
+        if y is None:
+            print("only before:", key)
+            continue
+        if all(x[k] == y[k] or (isinstance(x[k], float) and isinstance(y[k], float)
+                                and abs(x[k] - y[k]) <= 1e-9 * max(1.0, abs(x[k])))
+               for k in FIELDS):
+            continue
+        n += 1
+        flag = ("  <== VERDICT CLASS" if (x["response"], x["advice_kind"])
+                != (y["response"], y["advice_kind"]) else "")
+        print(key + ": " + "; ".join(f"{k} {_f(x[k])} -> {_f(y[k])}" for k in FIELDS
+                                    if x[k] != y[k]) + flag)
+    print(f"{n} of {len(a)} bay rows changed")
+
+
+if __name__ == "__main__":
+    if sys.argv[1:2] == ["record"]:
+        record(Path(sys.argv[2]))
+    else:
+        compare(Path(sys.argv[2]), Path(sys.argv[3]))
