@@ -724,10 +724,14 @@ def column_path_mass(c: Chain) -> np.ndarray:
     shortening moves rigidly, referred to the columns' share of each drop point's
     displacement (:func:`droprig.solver.columns.column_rigid_mass` on
     :func:`slab_frame`'s μ), kept with the points' geometry."""
-    geo = c.drop.geo
+    return column_path_mass_at(c.drop.fm, c.drop.geo)
+
+
+def column_path_mass_at(fm: FloorModel, geo: Geometry) -> np.ndarray:
+    """:func:`column_path_mass` at the points of ``geo`` on the prepared floor ``fm``
+    (kg), kept with ``geo``."""
     got = geo.cache.get("column_path_mass")
     if got is None or got.shape != geo.x.shape:
-        fm = c.drop.fm
         got = columns.column_rigid_mass(fm.frame, geo.path, slab_frame(fm).mu)
         geo.cache["column_path_mass"] = got
     return got
@@ -738,10 +742,15 @@ def slab_path_mass(c: Chain) -> np.ndarray:
     (:func:`slab_frame`; Timoshenko, *Strength of Materials* Part I, as
     :mod:`droprig.solver.loadpath`) at the drop points, kept with the points'
     geometry (load-independent)."""
-    geo = c.drop.geo
+    return slab_path_mass_at(c.drop.fm, c.drop.geo)
+
+
+def slab_path_mass_at(fm: FloorModel, geo: Geometry) -> np.ndarray:
+    """:func:`slab_path_mass` at the points of ``geo`` on the prepared floor ``fm``
+    (kg), kept with ``geo``."""
     got = geo.cache.get("slab_path_mass")
     if got is None or got.shape != geo.x.shape:
-        got = loadpath.evaluate(slab_frame(c.drop.fm), geo.x, geo.y).m_e
+        got = loadpath.evaluate(slab_frame(fm), geo.x, geo.y).m_e
         geo.cache["slab_path_mass"] = got
     return got
 

@@ -14,6 +14,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from droprig.model import Level, LiftLoad, LiftZone, ModelError, Project
+from droprig.solver import chain as chain_mod
 from droprig.solver import loadpath, memory
 from droprig.solver.chain import (
     FIELDS,
@@ -21,19 +22,29 @@ from droprig.solver.chain import (
     LANDINGS,
     Chain,
     Drop,
+    column_path_mass_at,
     merge_landings,
     outputs,
     run_chain,
+    slab_path_mass_at,
     tilted_governs,
 )
 from droprig.solver.floor import FloorModel, floor_model
-from droprig.solver.geometry import Geometry, KeptSteps, point_geometry, slice_geo
+from droprig.solver.geometry import (
+    PER_POINT_MASSES,
+    Geometry,
+    KeptSteps,
+    distinct_point_geometry,
+    point_geometry,
+    slice_geo,
+)
 from droprig.solver.loadpath import PathResult
 from droprig.solver.parallel import for_blocks
 from droprig.solver.unit_actions import unit_actions
 
-__all__ = ["CACHE_MAX_POINTS", "OUTPUTS", "PointCase", "evaluate_case", "evaluate_chain",
-           "evaluate_points", "point_case", "tile"]
+__all__ = ["CACHE_MAX_POINTS", "OUTPUTS", "PointCase", "distinct_geometry", "evaluate_case",
+           "evaluate_chain",
+           "evaluate_points", "point_case", "point_masses", "tile"]
 
 CACHE_MAX_POINTS = 200_000
 """Up to this many drop points the load-independent member actions are kept between
@@ -271,16 +282,42 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
     return _blockwise(n, sets, loadpath_chunk(), block, probe)
 
 
+def point_masses(fm: FloorModel, geo: Geometry) -> None:
+    """Work out and keep with ``geo`` the load-free masses per point that the chain's
+    struck-mass step reads where it gives two forces
+    (:data:`~droprig.solver.geometry.PER_POINT_MASSES`: the path's mass with the
+    slab, the column-moved mass; kg), so that :func:`tile`, ``take_geo`` and
+    ``concat_geo`` pass them on and a remembered point set keeps them."""
+    if chain_mod.TWO_FORCES and fm.settings.include_member_mass:
+        slab_path_mass_at(fm, geo)
+        column_path_mass_at(fm, geo)
+
+
+def distinct_geometry(fm: FloorModel, project: Project, x: np.ndarray,
+                      y: np.ndarray) -> Geometry:
+    """:func:`~droprig.solver.geometry.distinct_point_geometry` with the masses of
+    :func:`point_masses` worked out once per distinct point (and kept with a
+    remembered point set)."""
+    return distinct_point_geometry(fm, project, x, y,
+                                   prepare=lambda g: point_masses(fm, g))
+
+
 def tile(fm: FloorModel, geo: Geometry, k: int) -> Geometry:
     """``geo`` repeated ``k`` times (one copy per load), with its load-independent
-    member actions computed once and repeated alongside."""
+    member actions and masses (:func:`point_masses`) computed once and repeated
+    alongside."""
     if k == 1:
         return geo
     ua = unit_actions(fm, geo)
+    point_masses(fm, geo)
     p = geo.path
     path = PathResult(**{f: np.concatenate([getattr(p, f)] * k)
                          for f in p.__dataclass_fields__})
     out = Geometry(np.tile(geo.x, k), np.tile(geo.y, k), path, np.tile(geo.bay, k),
                    np.tile(geo.protection, k), np.tile(geo.opening, k))
     out.cache["ua"] = ua.tiled(k)
+    for key in PER_POINT_MASSES:
+        v = geo.cache.get(key)
+        if v is not None:
+            out.cache[key] = np.tile(v, k)
     return out
