@@ -95,6 +95,32 @@ def test_envelope_lookup_is_the_envelope():
         np.testing.assert_allclose(a, b, rtol=TOL)
 
 
+def test_envelope_lookup_reads_the_corners_alike_in_one_pass_or_one_by_one(monkeypatch):
+    # few rows: the four (μ, κ) corners are read in one pass (EnvelopeLookup._FUSED_ROWS),
+    # many: one at a time; both add them in the same order, so they agree bit for bit
+    # (a property of the implementation), and both are the plain envelope at 1e-12
+    rng = np.random.default_rng(12)
+    n = 3000
+    M = 10 ** rng.uniform(0, 4.5, n)
+    m2 = M * 10 ** rng.uniform(-4, 5, n)
+    k2 = 10 ** rng.uniform(5, 9, n)
+    kc = k2 * 10 ** rng.uniform(-3, 8, n)
+    W = M * G
+    h = W / k2 * 10 ** rng.uniform(-5, 9, n)
+    h[:20] = 0.0  # no fall
+    look = struck_mass.EnvelopeLookup(W, 1 / kc, 1 / k2, m2)
+    rows = rng.integers(0, n, 700)
+    assert rows.size <= look._FUSED_ROWS
+    fused = look.at(h[rows], rows)
+    monkeypatch.setattr(struck_mass.EnvelopeLookup, "_FUSED_ROWS", 0)
+    by_corner = look.at(h[rows], rows)
+    ref = struck_mass.envelope_two_forces(W[rows], h[rows], 1 / kc[rows], 1 / k2[rows],
+                                          m2[rows])
+    for a, b, r in zip(fused, by_corner, ref, strict=True):
+        assert np.array_equal(a, b)
+        np.testing.assert_allclose(a, r, rtol=TOL)
+
+
 @pytest.mark.parametrize("demo", DEMOS, ids=lambda p: p.stem)
 def test_kernel_at_another_mass_is_that_loads_impact_step(demo):
     # the allowable-mass search (chain.two_force_mass) runs the kernel at trial masses:
