@@ -771,25 +771,20 @@ class EnvelopeLookup:
         i, wi = _cell(lmu, m0, dm, nm)
         j, wj = _cell(lka, k0, dk, nk)
         ka_top = 10.0 ** (k0 + (nk - 1) * dk)
-        self.c_scale = np.sqrt(np.maximum(ka / ka_top, 1.0))
         # the four corners in (μ, κ): base index of ĥ = 0 and weight
         self.base = np.stack([((i + a) * nk + (j + b)) * nh
                               for a in (0, 1) for b in (0, 1)])
         self.wab = np.stack([wa * wb for wa in (1.0 - wi, wi) for wb in (1.0 - wj, wj)])
-        self.W, self.fc, self.ff, self.m2 = W, fc, ff, m2
-        self.Wff = W * ff
-        self.Wfc = W * fc
+        d_st = W * (fc + ff)
+        # the table of the gathered rows (one row per quantity): W, W·f_frame, the
+        # contact's stiff-side scale, η, the static deflection W·f (∞ where not
+        # positive), W·f_contact, f_frame/f_contact, f_contact/f_frame
         with np.errstate(divide="ignore", invalid="ignore"):
-            self.ff_fc, self.fc_ff = ff / fc, fc / ff
-        self.eta = M / (M + m2)
-        self.d_st = W * (fc + ff)
-        # the table of the gathered rows (one row per quantity): W, W·f_frame, the contact's
-        # scale, η, the static deflection (∞ where not positive), W·f_contact,
-        # f_frame/f_contact, f_contact/f_frame
-        self._cols = np.stack(
-            [W, self.Wff, self.c_scale, self.eta,
-             np.where(self.d_st > 0.0, self.d_st, np.inf), self.Wfc, self.ff_fc,
-             self.fc_ff])
+            self._cols = np.stack(
+                [W, W * ff, np.sqrt(np.maximum(ka / ka_top, 1.0)), M / (M + m2),
+                 np.where(d_st > 0.0, d_st, np.inf), W * fc, ff / fc, fc / ff])
+        (self.W, self.Wff, self.c_scale, self.eta, self.d_pos, self.Wfc, self.ff_fc,
+         self.fc_ff) = self._cols
 
     def at(self, h: ArrayLike, rows: np.ndarray | None = None
            ) -> tuple[np.ndarray, np.ndarray]:

@@ -158,3 +158,27 @@ def test_kernel_at_another_mass_is_that_loads_impact_step(demo):
             np.testing.assert_allclose(eta_f, ref.eta_frame[pts], rtol=TOL)
             seen += rows.size
     assert seen > 20
+
+
+def test_searches_answer_alike_whatever_rows_a_forward_run_takes(monkeypatch):
+    # chain.two_force_height runs its forward runs EXCESS_ROWS rows at a time (memory
+    # of a large block); every row's arithmetic is its own, so the answers are the
+    # same bit for bit with any number (a property of the implementation)
+    from droprig.solver import chain
+    from droprig.solver.chain import InverseAnswers
+
+    p = load_project(DEMOS[0])
+    zone = p.lift_zones[0]
+    fm = analysis.build_floor(p.level(zone.level_id), p.settings)
+    ext = fm.level.grid.extent
+    rng = np.random.default_rng(8)
+    geo = analysis.point_geometry(fm, p, rng.uniform(ext.x0, ext.x1, 400),
+                                  rng.uniform(ext.y0, ext.y1, 400))
+    ref = evaluate_chain(fm, p, zone.loads, geo, rng.integers(0, len(zone.loads), 400),
+                         v_hoist=zone.hoist_speed)
+    assert ref[Impact].two_mass is not None and ref[Impact].two_mass.sum() > 50
+    monkeypatch.setattr(chain, "EXCESS_ROWS", 7)
+    got = evaluate_chain(fm, p, zone.loads, geo, ref.drop.li, v_hoist=zone.hoist_speed)
+    for f in ("h_el", "h_pl", "m_allow"):
+        assert np.array_equal(getattr(got[InverseAnswers], f),
+                              getattr(ref[InverseAnswers], f), equal_nan=True), f
