@@ -42,9 +42,9 @@ from droprig.solver.loadpath import PathResult
 from droprig.solver.parallel import for_blocks
 from droprig.solver.unit_actions import unit_actions
 
-__all__ = ["CACHE_MAX_POINTS", "OUTPUTS", "PointCase", "distinct_geometry", "evaluate_case",
-           "evaluate_chain",
-           "evaluate_points", "point_case", "point_masses", "tile"]
+__all__ = ["CACHE_MAX_POINTS", "LARGE_JOB_SHARE", "OUTPUTS", "PointCase", "distinct_geometry",
+           "evaluate_case", "evaluate_chain", "evaluate_points", "large_job_block",
+           "point_case", "point_masses", "tile"]
 
 CACHE_MAX_POINTS = 200_000
 """Up to this many drop points the load-independent member actions are kept between
@@ -243,6 +243,19 @@ def loadpath_chunk() -> int:
     return int(loadpath.CHUNK)
 
 
+LARGE_JOB_SHARE = 0.75
+"""A job of more than :data:`CACHE_MAX_POINTS` points (:func:`evaluate_points`) runs in
+blocks of this share of :func:`loadpath_chunk`: each block in flight holds some 2.7 kB
+a point (its member actions, the chain's step results, the searches' temporaries) and
+the results 0.3 kB a point, so that 10⁶ points on two cores stay within 500 MB
+(benchmarks/bench_solver.py: 515–530 MB at the full block, 475–481 MB at ¾)."""
+
+
+def large_job_block() -> int:
+    """Points per block of a job of more than :data:`CACHE_MAX_POINTS` points."""
+    return max(1, int(LARGE_JOB_SHARE * loadpath_chunk()))
+
+
 def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
                     x: np.ndarray, y: np.ndarray, *, v_hoist: float = 0.0,
                     load_index: np.ndarray | None = None) -> dict[str, np.ndarray]:
@@ -271,7 +284,8 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
                 return [_outputs(fm, project, loads, geo, own[s:e], v_hoist=v_hoist)]
             return [_outputs(fm, project, ld, geo, None, v_hoist=v_hoist) for ld in loads]
 
-    if n <= loadpath_chunk():  # one block: no probe run for the output types
+    size = loadpath_chunk() if n <= CACHE_MAX_POINTS else large_job_block()
+    if n <= size:  # one block: no probe run for the output types
         parts = block(0, n)
         return {k: np.concatenate([p[k] for p in parts]) if sets > 1 else parts[0][k]
                 for k in parts[0]}
@@ -279,7 +293,7 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
         probe = _outputs(fm, project, loads if own is not None else loads[0],
                          point_geometry(fm, project, x[:1], y[:1]),
                          None if own is None else own[:1], v_hoist=v_hoist)
-    return _blockwise(n, sets, loadpath_chunk(), block, probe)
+    return _blockwise(n, sets, size, block, probe)
 
 
 def point_masses(fm: FloorModel, geo: Geometry) -> None:
