@@ -690,47 +690,69 @@ def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
     result is."""
     W, h, fc, ff, m2 = np.broadcast_arrays(*(np.asarray(v, float)
                                              for v in (W, h, f_contact, f_frame, m2)))
-    LF, LC = _log_envelope()
+    shape = W.shape
+    # row by row on flat copies (the same arithmetic as the formulas below, in the
+    # same order, with fewer numpy calls: the allowable-mass search runs it often)
+    W, h, fc, ff, m2 = (np.ravel(a) for a in (W, h, fc, ff, m2))
     (m0, _, dm), (k0, _, dk), (h0, _, dh) = ENVELOPE_GRID
     nm, nk, nh = _envelope()[0].shape  # nodes
     M = W / G
     f = fc + ff
+    hp = np.maximum(h, 0.0)
+    Wff = W * ff
+    Wfc = W * fc
     with np.errstate(divide="ignore", invalid="ignore"):
         mu = np.where(M > 0.0, m2 / M, np.inf)
         ka = np.where(fc > 0.0, ff / fc, np.inf)
-        hh = np.where(W * ff > 0.0, np.maximum(h, 0.0) / (W * ff), np.inf)
-        lmu = np.log10(np.clip(mu, 1e-300, 1e300))
-        lka = np.log10(np.clip(ka, 1e-300, 1e300))
-        lhh = np.log10(np.clip(hh, 1e-300, 1e300))
+        hh = np.where(Wff > 0.0, hp / Wff, np.inf)
+        # log₁₀ of each clipped to [1e-300, 1e300] (np.clip's values)
+        lmu = np.log10(np.minimum(np.maximum(mu, 1e-300), 1e300))
+        lka = np.log10(np.minimum(np.maximum(ka, 1e-300), 1e300))
+        lhh = np.log10(np.minimum(np.maximum(hh, 1e-300), 1e300))
     i, wi = _cell(lmu, m0, dm, nm)
     j, wj = _cell(lka, k0, dk, nk)
     k, wk = _cell(lhh, h0, dh, nh)
     top = h0 + (nh - 1) * dh
-    over = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh, top) - top), 1.0))
+    # √(10^(max(lĥ, top) − top)): 1 at and below the table's top (the power only above
+    # it, and for NaN, where it differs from 1)
+    over = np.ones(lhh.shape)
+    up = ~(lhh <= top)
+    if up.any():
+        over[up] = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh[up], top) - top), 1.0))
     ka_top = 10.0 ** (k0 + (nk - 1) * dk)
     c_scale = np.sqrt(np.maximum(ka / ka_top, 1.0))
-    lf = np.zeros(W.shape)
-    lc = np.zeros(W.shape)
+    LFC = _log_envelope_pair()  # ln of the nodes (framing, contact) side by side
+    acc = np.zeros((W.size, 2))
     for a, wa in ((0, 1.0 - wi), (1, wi)):
         for b, wb in ((0, 1.0 - wj), (1, wj)):
             base = ((i + a) * nk + (j + b)) * nh + k
-            w1 = wa * wb * wk
-            w0 = wa * wb - w1
-            lf += w0 * LF[base] + w1 * LF[base + 1]
-            lc += w0 * LC[base] + w1 * LC[base + 1]
-    Ff = np.exp(lf) * over * W
-    Fc = np.exp(lc) * over * c_scale * W
+            wab = wa * wb
+            w1 = wab * wk
+            w0 = wab - w1
+            acc += (w0[:, None] * np.take(LFC, base, axis=0)
+                    + w1[:, None] * np.take(LFC, base + 1, axis=0))
+    e = np.exp(acc)
+    Ff = e[:, 0] * over * W
+    Fc = e[:, 1] * over * c_scale * W
     eta = M / (M + m2)
     d_st = W * f
     with np.errstate(divide="ignore", invalid="ignore"):
         F1 = W * (1.0 + np.sqrt(1.0 + 2.0 * np.maximum(eta * h, 0.0)
                                 / np.where(d_st > 0.0, d_st, np.inf)))
-    Bc, Bf = energy_bounds(W, h, fc, ff)
+        # energy_bounds(W, h, fc, ff)
+        Bc = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / Wfc + ff / fc))
+        Bf = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / Wff + fc / ff))
+    Bc[np.isnan(Bc)] = np.inf
+    Bf[np.isnan(Bf)] = np.inf
     bad = ~(np.isfinite(Ff) & np.isfinite(Fc))
     if bad.any():  # outside any table (a massless load, a rigid framing): the bounds
         Ff[bad], Fc[bad] = Bf[bad], Bc[bad]
-    Fc = np.minimum(np.fmax(Fc * ENVELOPE_MARGIN[1], F1), Bc)
-    Ff = np.minimum(np.fmax(Ff * ENVELOPE_MARGIN[0], F1), Bf)
+    Fc *= ENVELOPE_MARGIN[1]
+    Ff *= ENVELOPE_MARGIN[0]
+    Fc = np.minimum(np.fmax(Fc, F1, out=Fc), Bc, out=Fc).reshape(shape)
+    Ff = np.minimum(np.fmax(Ff, F1, out=Ff), Bf, out=Ff).reshape(shape)
+    if not shape:  # numpy scalars for scalar inputs, as the arithmetic on 0-d gives
+        return Fc[()], Ff[()]
     return Fc, Ff
 
 
