@@ -657,6 +657,40 @@ def _cell(lg: np.ndarray, start: float, step: float, n: int
     return i, np.minimum(np.maximum(t - i, 0.0), 1.0)
 
 
+def _corner(LFC: np.ndarray, base: np.ndarray, w0: np.ndarray, w1: np.ndarray
+            ) -> np.ndarray:
+    """One (μ, κ) corner's share of the trilinear interpolation in the logs, (n, 2):
+    w0·L[base] + w1·L[base + 1] of the (framing, contact) node table ``LFC``."""
+    return (w0[:, None] * np.take(LFC, base, axis=0)
+            + w1[:, None] * np.take(LFC, base + 1, axis=0))
+
+
+def _bounded(W: np.ndarray, h: np.ndarray, hp: np.ndarray, Ff: np.ndarray,
+             Fc: np.ndarray, eta: np.ndarray, d_pos: np.ndarray, Wfc: np.ndarray,
+             Wff: np.ndarray, ff_fc: np.ndarray, fc_ff: np.ndarray
+             ) -> tuple[np.ndarray, np.ndarray]:
+    """The envelope's forces ``Ff``, ``Fc`` (N, written in place) × the margin, at
+    least the one-mass balance F1 = W·(1 + √(1 + 2·max(ηh, 0)/(W·f))) (Gere §9.10,
+    ``d_pos`` = W·f, ∞ where not positive) and at most the energy bounds
+    (:func:`energy_bounds`: ``Wfc`` = W·f_contact, ``Wff`` = W·f_frame, ``ff_fc`` and
+    ``fc_ff`` their ratios, ``hp`` = max(h, 0)); where the table gives no finite
+    force, the bounds. Returns (F_c, F_f). Shared by :func:`envelope_two_forces` and
+    :class:`EnvelopeLookup` (the same arithmetic)."""
+    F1 = W * (1.0 + np.sqrt(1.0 + 2.0 * np.maximum(eta * h, 0.0) / d_pos))
+    Bc = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / Wfc + ff_fc))
+    Bf = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / Wff + fc_ff))
+    Bc[np.isnan(Bc)] = np.inf
+    Bf[np.isnan(Bf)] = np.inf
+    bad = ~(np.isfinite(Ff) & np.isfinite(Fc))
+    if bad.any():  # outside any table (a massless load, a rigid framing): the bounds
+        Ff[bad], Fc[bad] = Bf[bad], Bc[bad]
+    Fc *= ENVELOPE_MARGIN[1]
+    Ff *= ENVELOPE_MARGIN[0]
+    Fc = np.minimum(np.fmax(Fc, F1, out=Fc), Bc, out=Fc)
+    Ff = np.minimum(np.fmax(Ff, F1, out=Ff), Bf, out=Ff)
+    return Fc, Ff
+
+
 def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
                         f_frame: ArrayLike, m2: ArrayLike
                         ) -> tuple[np.ndarray, np.ndarray]:
@@ -691,9 +725,7 @@ def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
     W, h, fc, ff, m2 = np.broadcast_arrays(*(np.asarray(v, float)
                                              for v in (W, h, f_contact, f_frame, m2)))
     shape = W.shape
-    # row by row on flat copies (the same arithmetic as the formulas below, in the
-    # same order, with fewer numpy calls: the allowable-mass search runs it often)
-    W, h, fc, ff, m2 = (np.ravel(a) for a in (W, h, fc, ff, m2))
+    W, h, fc, ff, m2 = (np.ravel(a) for a in (W, h, fc, ff, m2))  # row by row, flat
     (m0, _, dm), (k0, _, dk), (h0, _, dh) = ENVELOPE_GRID
     nm, nk, nh = _envelope()[0].shape  # nodes
     M = W / G
@@ -725,32 +757,16 @@ def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
     acc = np.zeros((W.size, 2))
     for a, wa in ((0, 1.0 - wi), (1, wi)):
         for b, wb in ((0, 1.0 - wj), (1, wj)):
-            base = ((i + a) * nk + (j + b)) * nh + k
             wab = wa * wb
             w1 = wab * wk
-            w0 = wab - w1
-            acc += (w0[:, None] * np.take(LFC, base, axis=0)
-                    + w1[:, None] * np.take(LFC, base + 1, axis=0))
+            acc += _corner(LFC, ((i + a) * nk + (j + b)) * nh + k, wab - w1, w1)
     e = np.exp(acc)
-    Ff = e[:, 0] * over * W
-    Fc = e[:, 1] * over * c_scale * W
-    eta = M / (M + m2)
     d_st = W * f
     with np.errstate(divide="ignore", invalid="ignore"):
-        F1 = W * (1.0 + np.sqrt(1.0 + 2.0 * np.maximum(eta * h, 0.0)
-                                / np.where(d_st > 0.0, d_st, np.inf)))
-        # energy_bounds(W, h, fc, ff)
-        Bc = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / Wfc + ff / fc))
-        Bf = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / Wff + fc / ff))
-    Bc[np.isnan(Bc)] = np.inf
-    Bf[np.isnan(Bf)] = np.inf
-    bad = ~(np.isfinite(Ff) & np.isfinite(Fc))
-    if bad.any():  # outside any table (a massless load, a rigid framing): the bounds
-        Ff[bad], Fc[bad] = Bf[bad], Bc[bad]
-    Fc *= ENVELOPE_MARGIN[1]
-    Ff *= ENVELOPE_MARGIN[0]
-    Fc = np.minimum(np.fmax(Fc, F1, out=Fc), Bc, out=Fc).reshape(shape)
-    Ff = np.minimum(np.fmax(Ff, F1, out=Ff), Bf, out=Ff).reshape(shape)
+        Fc, Ff = _bounded(W, h, hp, e[:, 0] * over * W, e[:, 1] * over * c_scale * W,
+                          M / (M + m2), np.where(d_st > 0.0, d_st, np.inf), Wfc, Wff,
+                          ff / fc, fc / ff)
+    Fc, Ff = Fc.reshape(shape), Ff.reshape(shape)
     if not shape:  # numpy scalars for scalar inputs, as the arithmetic on 0-d gives
         return Fc[()], Ff[()]
     return Fc, Ff
@@ -851,26 +867,9 @@ class EnvelopeLookup:
         else:
             acc = np.zeros((m, 2))
             for q in range(4):
-                bq = base[q] + k
                 w1q = wab[q] * wk
-                w0q = wab[q] - w1q
-                acc += (w0q[:, None] * np.take(LFC, bq, axis=0)
-                        + w1q[:, None] * np.take(LFC, bq + 1, axis=0))
+                acc += _corner(LFC, base[q] + k, wab[q] - w1q, w1q)
         e = np.exp(acc)
-        Ff = e[:, 0] * over * W
-        Fc = e[:, 1] * over * c_scale * W
         with np.errstate(divide="ignore", invalid="ignore"):
-            F1 = W * (1.0 + np.sqrt(1.0 + 2.0 * np.maximum(eta * h, 0.0) / d_pos))
-            # energy_bounds, with the height-free parts kept
-            Bc = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / Wfc + ff_fc))
-            Bf = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / Wff + fc_ff))
-        Bc[np.isnan(Bc)] = np.inf
-        Bf[np.isnan(Bf)] = np.inf
-        bad = ~(np.isfinite(Ff) & np.isfinite(Fc))
-        if bad.any():
-            Ff[bad], Fc[bad] = Bf[bad], Bc[bad]
-        Fc *= ENVELOPE_MARGIN[1]
-        Ff *= ENVELOPE_MARGIN[0]
-        Fc = np.minimum(np.fmax(Fc, F1, out=Fc), Bc, out=Fc)
-        Ff = np.minimum(np.fmax(Ff, F1, out=Ff), Bf, out=Ff)
-        return Fc, Ff
+            return _bounded(W, h, hp, e[:, 0] * over * W, e[:, 1] * over * c_scale * W,
+                            eta, d_pos, Wfc, Wff, ff_fc, fc_ff)
