@@ -728,10 +728,14 @@ def column_path_mass(c: Chain) -> np.ndarray:
     shortening moves rigidly, referred to the columns' share of each drop point's
     displacement (:func:`droprig.solver.columns.column_rigid_mass` on
     :func:`slab_frame`'s μ), kept with the points' geometry."""
-    geo = c.drop.geo
+    return column_path_mass_at(c.drop.fm, c.drop.geo)
+
+
+def column_path_mass_at(fm: FloorModel, geo: Geometry) -> np.ndarray:
+    """:func:`column_path_mass` at the points of ``geo`` on the prepared floor ``fm``
+    (kg), kept with ``geo``."""
     got = geo.cache.get("column_path_mass")
     if got is None or got.shape != geo.x.shape:
-        fm = c.drop.fm
         got = columns.column_rigid_mass(fm.frame, geo.path, slab_frame(fm).mu)
         geo.cache["column_path_mass"] = got
     return got
@@ -742,10 +746,15 @@ def slab_path_mass(c: Chain) -> np.ndarray:
     (:func:`slab_frame`; Timoshenko, *Strength of Materials* Part I, as
     :mod:`droprig.solver.loadpath`) at the drop points, kept with the points'
     geometry (load-independent)."""
-    geo = c.drop.geo
+    return slab_path_mass_at(c.drop.fm, c.drop.geo)
+
+
+def slab_path_mass_at(fm: FloorModel, geo: Geometry) -> np.ndarray:
+    """:func:`slab_path_mass` at the points of ``geo`` on the prepared floor ``fm``
+    (kg), kept with ``geo``."""
     got = geo.cache.get("slab_path_mass")
     if got is None or got.shape != geo.x.shape:
-        got = loadpath.evaluate(slab_frame(c.drop.fm), geo.x, geo.y).m_e
+        got = loadpath.evaluate(slab_frame(fm), geo.x, geo.y).m_e
         geo.cache["slab_path_mass"] = got
     return got
 
@@ -2547,6 +2556,9 @@ H_TOL = 1e-3
 answer lies within it below the exact boundary)."""
 H_SEARCH_MAX = 1000.0
 """Largest allowable free fall :func:`two_force_height` looks for, m."""
+EXCESS_ROWS = 8192
+"""Rows of :func:`two_force_height`'s forward runs taken at a time (memory: some 40
+temporaries a row; the rows are independent, so the answers do not depend on it)."""
 
 
 class TwoForceKernel:
@@ -2743,18 +2755,30 @@ def two_force_height(c: Chain, h0: np.ndarray,
 
     def run(w: np.ndarray, trial: np.ndarray) -> np.ndarray:
         # the forward run's excess at the points w (of idx) at the heights trial (one
-        # per point, or a row of several per point); NaN as a failure (+inf)
+        # per point, or a row of several per point); NaN as a failure (+inf). Each
+        # row's excess is its own (row by row arithmetic): taken EXCESS_ROWS rows at a
+        # time, so that a large block's temporaries stay small
         k = trial.shape[1] if trial.ndim == 2 else 1
         rows = np.repeat(kidx[w], k)
-        r = np.asarray(excess_at(kern, rows, trial.ravel()), dtype=float)
+        t = trial.ravel()
+        r = np.concatenate([np.asarray(excess_at(kern, rows[s:s + EXCESS_ROWS],
+                                                 t[s:s + EXCESS_ROWS]), dtype=float)
+                            for s in range(0, rows.size, EXCESS_ROWS)]) \
+            if rows.size > EXCESS_ROWS else np.asarray(excess_at(kern, rows, t), dtype=float)
         return np.where(np.isnan(r), np.inf, r).reshape(trial.shape)
 
-    br = _first_bracket(run, np.clip(h0[idx], 1e-6 * min(top, 1.0), top), top)
+    br = _first_bracket(run, _clip(h0[idx], 1e-6 * min(top, 1.0), top), top)
     unbounded, none = _widen_bracket(run, br, top)
     _close_bracket(run, br, ~unbounded & ~none)
     h = h0.copy()
     h[idx] = np.where(none, np.nan, br.lo)
     return h
+
+
+def _clip(a: np.ndarray, lo: np.ndarray | float, hi: np.ndarray | float) -> np.ndarray:
+    """``np.clip(a, lo, hi)`` (the same values, NaN kept) without its call cost: the
+    searches call it on a few rows many times."""
+    return np.minimum(np.maximum(a, lo), hi)
 
 
 _Excess = Callable[[np.ndarray, np.ndarray], np.ndarray]
@@ -2793,7 +2817,7 @@ def _first_bracket(run: _Excess, start: np.ndarray, top: float) -> _Bracket:
     r0 = run(everyone, start)
     with np.errstate(divide="ignore", invalid="ignore"):
         U0 = np.where(np.isfinite(r0) & (r0 > -1.0), 1.0 + r0, np.where(r0 > 0, 16.0, 1 / 16))
-    h1 = np.clip(start / U0**2, start / 16.0, np.minimum(16.0 * start, top))
+    h1 = _clip(start / U0**2, start / 16.0, np.minimum(16.0 * start, top))
     pair = np.minimum(np.stack([h1 * (1.0 - H_TOL / 3.0), h1 * (1.0 + H_TOL / 3.0)], axis=1),
                       top)
     fan = np.sort(np.concatenate([start[:, None], pair], axis=1), axis=1)
@@ -2858,12 +2882,13 @@ def _close_bracket(run: _Excess, br: _Bracket, work: np.ndarray) -> None:
         a, b = r_lo[w], r_hi[w]
         with np.errstate(divide="ignore", invalid="ignore"):
             t = np.where(np.isfinite(a) & np.isfinite(b) & (b > a), -a / (b - a), 0.5)
-        t = np.where(bisect[w], 0.5, np.clip(t, 0.0, 1.0))
+        t = np.where(bisect[w], 0.5, _clip(t, 0.0, 1.0))
         x = (sl + t * (sh - sl)) ** 2
         d = H_TOL / 3.0 * x
-        pair = np.stack([np.clip(x - d, lo[w], hi[w]), np.clip(x + d, lo[w], hi[w])], axis=1)
+        lw, hw = lo[w], hi[w]
+        pair = np.stack([_clip(x - d, lw, hw), _clip(x + d, lw, hw)], axis=1)
         # strictly inside the bracket (a pair on an end would not move it)
-        inside = (pair > lo[w, None]) & (pair < hi[w, None])
+        inside = (pair > lw[:, None]) & (pair < hw[:, None])
         mid = (0.5 * (sl + sh)) ** 2
         pair = np.sort(np.where(inside, pair, mid[:, None]), axis=1)
         r = run(w, pair)

@@ -58,7 +58,6 @@ from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import (
     Geometry,
     concat_geo,
-    distinct_point_geometry,
     point_geometry,
     take_geo,
 )
@@ -270,7 +269,7 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     g = None
     if geo is not None:
         # the analysis points' path and member actions, and the other points' own
-        eg = distinct_point_geometry(fm, project, ex, ey)
+        eg = evaluate.distinct_geometry(fm, project, ex, ey)
         unit_actions(fm, eg)
         g = concat_geo([take_geo(geo, row, steps=False), eg])
     x, y, own = np.r_[x, ex], np.r_[y, ey], np.r_[own, eown]
@@ -647,7 +646,7 @@ def _evaluate(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     H = np.array([tr.H for tr in trials])[own]
     mk = np.array([tr.value if tr.kind == "mat" else np.nan for tr in trials])[own]
     if geo is None:  # trials of one bay often refine around the same points
-        geo = distinct_point_geometry(fm, project, x, y)
+        geo = evaluate.distinct_geometry(fm, project, x, y)
     r = _forward(fm, project, zone, loads, geo, li, H,
                  mk if np.isfinite(mk).any() else None)
     keep = ("x", "y", "protection", "response", "utilisation", "peak_force",

@@ -14,6 +14,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from droprig.model import Level, LiftLoad, LiftZone, ModelError, Project
+from droprig.solver import chain as chain_mod
 from droprig.solver import loadpath, memory
 from droprig.solver.chain import (
     FIELDS,
@@ -21,19 +22,29 @@ from droprig.solver.chain import (
     LANDINGS,
     Chain,
     Drop,
+    column_path_mass_at,
     merge_landings,
     outputs,
     run_chain,
+    slab_path_mass_at,
     tilted_governs,
 )
 from droprig.solver.floor import FloorModel, floor_model
-from droprig.solver.geometry import Geometry, KeptSteps, point_geometry, slice_geo
+from droprig.solver.geometry import (
+    PER_POINT_MASSES,
+    Geometry,
+    KeptSteps,
+    distinct_point_geometry,
+    point_geometry,
+    slice_geo,
+)
 from droprig.solver.loadpath import PathResult
 from droprig.solver.parallel import for_blocks
 from droprig.solver.unit_actions import unit_actions
 
-__all__ = ["CACHE_MAX_POINTS", "OUTPUTS", "PointCase", "evaluate_case", "evaluate_chain",
-           "evaluate_points", "point_case", "tile"]
+__all__ = ["CACHE_MAX_POINTS", "LARGE_JOB_SHARE", "OUTPUTS", "PointCase", "distinct_geometry",
+           "evaluate_case", "evaluate_chain", "evaluate_points", "large_job_block",
+           "point_case", "point_masses", "tile"]
 
 CACHE_MAX_POINTS = 200_000
 """Up to this many drop points the load-independent member actions are kept between
@@ -232,6 +243,19 @@ def loadpath_chunk() -> int:
     return int(loadpath.CHUNK)
 
 
+LARGE_JOB_SHARE = 0.75
+"""A job of more than :data:`CACHE_MAX_POINTS` points (:func:`evaluate_points`) runs in
+blocks of this share of :func:`loadpath_chunk`: each block in flight holds some 2.7 kB
+a point (its member actions, the chain's step results, the searches' temporaries) and
+the results 0.3 kB a point, so that 10⁶ points on two cores stay within 500 MB
+(benchmarks/bench_solver.py: 515–530 MB at the full block, 475–481 MB at ¾)."""
+
+
+def large_job_block() -> int:
+    """Points per block of a job of more than :data:`CACHE_MAX_POINTS` points."""
+    return max(1, int(LARGE_JOB_SHARE * loadpath_chunk()))
+
+
 def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
                     x: np.ndarray, y: np.ndarray, *, v_hoist: float = 0.0,
                     load_index: np.ndarray | None = None) -> dict[str, np.ndarray]:
@@ -260,7 +284,8 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
                 return [_outputs(fm, project, loads, geo, own[s:e], v_hoist=v_hoist)]
             return [_outputs(fm, project, ld, geo, None, v_hoist=v_hoist) for ld in loads]
 
-    if n <= loadpath_chunk():  # one block: no probe run for the output types
+    size = loadpath_chunk() if n <= CACHE_MAX_POINTS else large_job_block()
+    if n <= size:  # one block: no probe run for the output types
         parts = block(0, n)
         return {k: np.concatenate([p[k] for p in parts]) if sets > 1 else parts[0][k]
                 for k in parts[0]}
@@ -268,19 +293,45 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
         probe = _outputs(fm, project, loads if own is not None else loads[0],
                          point_geometry(fm, project, x[:1], y[:1]),
                          None if own is None else own[:1], v_hoist=v_hoist)
-    return _blockwise(n, sets, loadpath_chunk(), block, probe)
+    return _blockwise(n, sets, size, block, probe)
+
+
+def point_masses(fm: FloorModel, geo: Geometry) -> None:
+    """Work out and keep with ``geo`` the load-free masses per point that the chain's
+    struck-mass step reads where it gives two forces
+    (:data:`~droprig.solver.geometry.PER_POINT_MASSES`: the path's mass with the
+    slab, the column-moved mass; kg), so that :func:`tile`, ``take_geo`` and
+    ``concat_geo`` pass them on and a remembered point set keeps them."""
+    if chain_mod.TWO_FORCES and fm.settings.include_member_mass:
+        slab_path_mass_at(fm, geo)
+        column_path_mass_at(fm, geo)
+
+
+def distinct_geometry(fm: FloorModel, project: Project, x: np.ndarray,
+                      y: np.ndarray) -> Geometry:
+    """:func:`~droprig.solver.geometry.distinct_point_geometry` with the masses of
+    :func:`point_masses` worked out once per distinct point (and kept with a
+    remembered point set)."""
+    return distinct_point_geometry(fm, project, x, y,
+                                   prepare=lambda g: point_masses(fm, g))
 
 
 def tile(fm: FloorModel, geo: Geometry, k: int) -> Geometry:
     """``geo`` repeated ``k`` times (one copy per load), with its load-independent
-    member actions computed once and repeated alongside."""
+    member actions and masses (:func:`point_masses`) computed once and repeated
+    alongside."""
     if k == 1:
         return geo
     ua = unit_actions(fm, geo)
+    point_masses(fm, geo)
     p = geo.path
     path = PathResult(**{f: np.concatenate([getattr(p, f)] * k)
                          for f in p.__dataclass_fields__})
     out = Geometry(np.tile(geo.x, k), np.tile(geo.y, k), path, np.tile(geo.bay, k),
                    np.tile(geo.protection, k), np.tile(geo.opening, k))
     out.cache["ua"] = ua.tiled(k)
+    for key in PER_POINT_MASSES:
+        v = geo.cache.get(key)
+        if v is not None:
+            out.cache[key] = np.tile(v, k)
     return out

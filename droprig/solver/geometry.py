@@ -20,7 +20,7 @@ from droprig.solver.loadpath import evaluate as evaluate_path
 from droprig.solver.reference import path_reference, reference_unit_actions
 from droprig.solver.unit_actions import UnitActions, unit_actions
 
-__all__ = ["KEPT_POINTS", "LOAD_FREE", "Geometry", "KeptSteps", "concat_geo",
+__all__ = ["KEPT_POINTS", "LOAD_FREE", "PER_POINT_MASSES", "Geometry", "KeptSteps", "concat_geo",
            "distinct_point_geometry", "point_geometry", "slice_geo", "take_geo"]
 
 
@@ -115,11 +115,19 @@ class KeptSteps:
         return KeptSteps(first.loads, np.concatenate([p.li for p in parts]), by)
 
 
-LOAD_FREE = ("ua", "struck_member_table")
+PER_POINT_MASSES = ("slab_path_mass", "column_path_mass")
+"""Entries of ``Geometry.cache`` that are one float per point and depend on the points
+and the prepared floor only: the path's Rayleigh mass with the slab
+(:func:`droprig.solver.chain.slab_path_mass`) and the mass the columns' shortening
+moves (:func:`droprig.solver.chain.column_path_mass`), kg. :func:`take_geo` and
+:func:`concat_geo` carry them row for row (the same values as working them out at
+those points: each is per point)."""
+
+LOAD_FREE = ("ua", "struck_member_table", *PER_POINT_MASSES)
 """Entries of ``Geometry.cache`` that depend on the points and the prepared floor only
-(the member actions, the struck member's table), never on a load, a drop height or
-the settings outside the floor: kept with a remembered point set
-(:func:`point_geometry`)."""
+(the member actions, the struck member's table, :data:`PER_POINT_MASSES`), never on a
+load, a drop height or the settings outside the floor: kept with a remembered point
+set (:func:`point_geometry`)."""
 
 KEPT_POINTS = 16_000
 """Drop points whose geometry a prepared floor remembers, over all its point sets
@@ -219,20 +227,29 @@ def _point_geometry(fm: FloorModel, project: Project, x: np.ndarray, y: np.ndarr
 
 
 def distinct_point_geometry(fm: FloorModel, project: Project, x: np.ndarray,
-                            y: np.ndarray) -> Geometry:
+                            y: np.ndarray,
+                            prepare: Callable[[Geometry], object] | None = None
+                            ) -> Geometry:
     """:func:`point_geometry` of points among which some repeat (the same x and y: the
     lattices of several trials refined around one worst point, or of several loads
     around one point), with the load path and the member actions
     (:func:`~droprig.solver.unit_actions.unit_actions`) of each distinct point worked
     out once and taken for its repeats (:func:`take_geo`): the same values, row for
-    row (both are per point)."""
+    row (both are per point). ``prepare``: called on the geometry of the distinct
+    points before it is taken for the repeats (to work out more per-point entries of
+    its cache once, :data:`PER_POINT_MASSES`)."""
     x = np.asarray(x, float)
     y = np.asarray(y, float)
     _, first, inv = np.unique(x + 1j * y, return_index=True, return_inverse=True)
     if first.size == x.size:
-        return point_geometry(fm, project, x, y)
+        geo = point_geometry(fm, project, x, y)
+        if prepare is not None:
+            prepare(geo)
+        return geo
     geo = point_geometry(fm, project, x[first], y[first])
     unit_actions(fm, geo)
+    if prepare is not None:
+        prepare(geo)
     return take_geo(geo, inv.ravel())
 
 
@@ -266,6 +283,10 @@ def take_geo(geo: Geometry, idx: np.ndarray, *, steps: bool = True) -> Geometry:
     ua = geo.cache.get("ua")
     if ua is not None:
         out.cache["ua"] = ua.take(idx)
+    for key in PER_POINT_MASSES:
+        v = geo.cache.get(key)
+        if v is not None and v.shape == geo.x.shape:
+            out.cache[key] = rows(v)
     kept = geo.cache.get("steps")
     if steps and kept is not None:
         out.cache["steps"] = kept.per_point(rows)
@@ -289,6 +310,10 @@ def concat_geo(parts: list[Geometry]) -> Geometry:
         ua = UnitActions.concat([u for u in uas if u is not None])
         if ua is not None:
             out.cache["ua"] = ua
+    for key in PER_POINT_MASSES:
+        vs = [g.cache.get(key) for g in parts]
+        if all(v is not None and v.shape == g.x.shape for v, g in zip(vs, parts, strict=True)):
+            out.cache[key] = np.concatenate(vs)  # type: ignore[arg-type]
     kept = [g.cache.get("steps") for g in parts]
     if all(k is not None for k in kept):
         both = KeptSteps.concat([k for k in kept if k is not None])

@@ -17,7 +17,6 @@ from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import (
     Geometry,
     concat_geo,
-    distinct_point_geometry,
     point_geometry,
 )
 from droprig.solver.loadpath import locate
@@ -174,7 +173,7 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         x, y, lj = x[new], y[new], lj[new]
         # merged into the sorted known keys (k is sorted: no sort of the whole again)
         known = np.insert(known, np.searchsorted(known, keys[fresh]), keys[fresh])
-        geo = distinct_point_geometry(fm, project, x, y)  # a point refined for each load
+        geo = evaluate.distinct_geometry(fm, project, x, y)  # a point refined for each load
         r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True)
         r2["load_index"] = lj
         parts.append(r2)

@@ -712,8 +712,43 @@ def _cell(lg: np.ndarray, start: float, step: float, n: int
     the cell (0–1, clamped: the edge node's value outside) of the log values ``lg``
     on a grid from ``start`` by ``step``."""
     t = (lg - start) / step
-    i = np.clip(np.floor(t), 0, n - 2).astype(np.int64)
-    return i, np.clip(t - i, 0.0, 1.0)
+    # np.minimum(np.maximum(·)) is np.clip (NaN kept alike) at a fraction of the call cost
+    i = np.minimum(np.maximum(np.floor(t), 0.0), float(n - 2)).astype(np.int64)
+    return i, np.minimum(np.maximum(t - i, 0.0), 1.0)
+
+
+def _corner(LFC: np.ndarray, base: np.ndarray, w0: np.ndarray, w1: np.ndarray
+            ) -> np.ndarray:
+    """One (μ, κ) corner's share of the trilinear interpolation in the logs, (n, 2):
+    w0·L[base] + w1·L[base + 1] of the (framing, contact) node table ``LFC``."""
+    return (w0[:, None] * np.take(LFC, base, axis=0)
+            + w1[:, None] * np.take(LFC, base + 1, axis=0))
+
+
+def _bounded(W: np.ndarray, h: np.ndarray, hp: np.ndarray, Ff: np.ndarray,
+             Fc: np.ndarray, eta: np.ndarray, d_pos: np.ndarray, Wfc: np.ndarray,
+             Wff: np.ndarray, ff_fc: np.ndarray, fc_ff: np.ndarray
+             ) -> tuple[np.ndarray, np.ndarray]:
+    """The envelope's forces ``Ff``, ``Fc`` (N, written in place) × the margin, at
+    least the one-mass balance F1 = W·(1 + √(1 + 2·max(ηh, 0)/(W·f))) (Gere §9.10,
+    ``d_pos`` = W·f, ∞ where not positive) and at most the energy bounds
+    (:func:`energy_bounds`: ``Wfc`` = W·f_contact, ``Wff`` = W·f_frame, ``ff_fc`` and
+    ``fc_ff`` their ratios, ``hp`` = max(h, 0)); where the table gives no finite
+    force, the bounds. Returns (F_c, F_f). Shared by :func:`envelope_two_forces` and
+    :class:`EnvelopeLookup` (the same arithmetic)."""
+    F1 = W * (1.0 + np.sqrt(1.0 + 2.0 * np.maximum(eta * h, 0.0) / d_pos))
+    Bc = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / Wfc + ff_fc))
+    Bf = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / Wff + fc_ff))
+    Bc[np.isnan(Bc)] = np.inf
+    Bf[np.isnan(Bf)] = np.inf
+    bad = ~(np.isfinite(Ff) & np.isfinite(Fc))
+    if bad.any():  # outside any table (a massless load, a rigid framing): the bounds
+        Ff[bad], Fc[bad] = Bf[bad], Bc[bad]
+    Fc *= ENVELOPE_MARGIN[1]
+    Ff *= ENVELOPE_MARGIN[0]
+    Fc = np.minimum(np.fmax(Fc, F1, out=Fc), Bc, out=Fc)
+    Ff = np.minimum(np.fmax(Ff, F1, out=Ff), Bf, out=Ff)
+    return Fc, Ff
 
 
 def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
@@ -749,47 +784,51 @@ def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
     result is."""
     W, h, fc, ff, m2 = np.broadcast_arrays(*(np.asarray(v, float)
                                              for v in (W, h, f_contact, f_frame, m2)))
-    LF, LC = _log_envelope()
+    shape = W.shape
+    W, h, fc, ff, m2 = (np.ravel(a) for a in (W, h, fc, ff, m2))  # row by row, flat
     (m0, _, dm), (k0, _, dk), (h0, _, dh) = ENVELOPE_GRID
     nm, nk, nh = _envelope()[0].shape  # nodes
     M = W / G
     f = fc + ff
+    hp = np.maximum(h, 0.0)
+    Wff = W * ff
+    Wfc = W * fc
     with np.errstate(divide="ignore", invalid="ignore"):
         mu = np.where(M > 0.0, m2 / M, np.inf)
         ka = np.where(fc > 0.0, ff / fc, np.inf)
-        hh = np.where(W * ff > 0.0, np.maximum(h, 0.0) / (W * ff), np.inf)
-        lmu = np.log10(np.clip(mu, 1e-300, 1e300))
-        lka = np.log10(np.clip(ka, 1e-300, 1e300))
-        lhh = np.log10(np.clip(hh, 1e-300, 1e300))
+        hh = np.where(Wff > 0.0, hp / Wff, np.inf)
+        # log₁₀ of each clipped to [1e-300, 1e300] (np.clip's values)
+        lmu = np.log10(np.minimum(np.maximum(mu, 1e-300), 1e300))
+        lka = np.log10(np.minimum(np.maximum(ka, 1e-300), 1e300))
+        lhh = np.log10(np.minimum(np.maximum(hh, 1e-300), 1e300))
     i, wi = _cell(lmu, m0, dm, nm)
     j, wj = _cell(lka, k0, dk, nk)
     k, wk = _cell(lhh, h0, dh, nh)
     top = h0 + (nh - 1) * dh
-    over = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh, top) - top), 1.0))
+    # √(10^(max(lĥ, top) − top)): 1 at and below the table's top (the power only above
+    # it, and for NaN, where it differs from 1)
+    over = np.ones(lhh.shape)
+    up = ~(lhh <= top)
+    if up.any():
+        over[up] = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh[up], top) - top), 1.0))
     ka_top = 10.0 ** (k0 + (nk - 1) * dk)
     c_scale = np.sqrt(np.maximum(ka / ka_top, 1.0))
-    lf = np.zeros(W.shape)
-    lc = np.zeros(W.shape)
+    LFC = _log_envelope_pair()  # ln of the nodes (framing, contact) side by side
+    acc = np.zeros((W.size, 2))
     for a, wa in ((0, 1.0 - wi), (1, wi)):
         for b, wb in ((0, 1.0 - wj), (1, wj)):
-            base = ((i + a) * nk + (j + b)) * nh + k
-            w1 = wa * wb * wk
-            w0 = wa * wb - w1
-            lf += w0 * LF[base] + w1 * LF[base + 1]
-            lc += w0 * LC[base] + w1 * LC[base + 1]
-    Ff = np.exp(lf) * over * W
-    Fc = np.exp(lc) * over * c_scale * W
-    eta = M / (M + m2)
+            wab = wa * wb
+            w1 = wab * wk
+            acc += _corner(LFC, ((i + a) * nk + (j + b)) * nh + k, wab - w1, w1)
+    e = np.exp(acc)
     d_st = W * f
     with np.errstate(divide="ignore", invalid="ignore"):
-        F1 = W * (1.0 + np.sqrt(1.0 + 2.0 * np.maximum(eta * h, 0.0)
-                                / np.where(d_st > 0.0, d_st, np.inf)))
-    Bc, Bf = energy_bounds(W, h, fc, ff)
-    bad = ~(np.isfinite(Ff) & np.isfinite(Fc))
-    if bad.any():  # outside any table (a massless load, a rigid framing): the bounds
-        Ff[bad], Fc[bad] = Bf[bad], Bc[bad]
-    Fc = np.minimum(np.fmax(Fc * ENVELOPE_MARGIN[1], F1), Bc)
-    Ff = np.minimum(np.fmax(Ff * ENVELOPE_MARGIN[0], F1), Bf)
+        Fc, Ff = _bounded(W, h, hp, e[:, 0] * over * W, e[:, 1] * over * c_scale * W,
+                          M / (M + m2), np.where(d_st > 0.0, d_st, np.inf), Wfc, Wff,
+                          ff / fc, fc / ff)
+    Fc, Ff = Fc.reshape(shape), Ff.reshape(shape)
+    if not shape:  # numpy scalars for scalar inputs, as the arithmetic on 0-d gives
+        return Fc[()], Ff[()]
     return Fc, Ff
 
 
@@ -802,7 +841,17 @@ class EnvelopeLookup:
     does only the ĥ = h/(W·f_frame) part. The same arithmetic as
     :func:`envelope_two_forces` in the same order, so both give the same forces
     (compared at 1e-12 in tests/solver/test_two_force_kernel.py). SI units: W in N,
-    compliances in m/N, m2 in kg; heights in m (energy heights)."""
+    compliances in m/N, m2 in kg; heights in m (energy heights).
+
+    Speed (the searches run it on a few rows many times, so the cost is numpy's per
+    call): the height-free per-point values sit side by side in one table
+    (``_cols``, ``base``, ``wab``) gathered by one ``np.take`` per table, and the
+    four corners in (μ, κ) are read in one pass where the rows are few."""
+
+    _FUSED_ROWS = 1024
+    """Up to this many rows :meth:`at` reads the four corners in one pass (fewer numpy
+    calls); beyond, one corner at a time (the temporaries stay in cache). The two
+    add the corners in the same order: the same values."""
 
     def __init__(self, W: ArrayLike, f_contact: ArrayLike, f_frame: ArrayLike,
                  m2: ArrayLike) -> None:
@@ -820,71 +869,67 @@ class EnvelopeLookup:
         i, wi = _cell(lmu, m0, dm, nm)
         j, wj = _cell(lka, k0, dk, nk)
         ka_top = 10.0 ** (k0 + (nk - 1) * dk)
-        self.c_scale = np.sqrt(np.maximum(ka / ka_top, 1.0))
         # the four corners in (μ, κ): base index of ĥ = 0 and weight
         self.base = np.stack([((i + a) * nk + (j + b)) * nh
                               for a in (0, 1) for b in (0, 1)])
         self.wab = np.stack([wa * wb for wa in (1.0 - wi, wi) for wb in (1.0 - wj, wj)])
-        self.W, self.fc, self.ff, self.m2 = W, fc, ff, m2
-        self.Wff = W * ff
-        self.Wfc = W * fc
+        d_st = W * (fc + ff)
+        # the table of the gathered rows (one row per quantity): W, W·f_frame, the
+        # contact's stiff-side scale, η, the static deflection W·f (∞ where not
+        # positive), W·f_contact, f_frame/f_contact, f_contact/f_frame
         with np.errstate(divide="ignore", invalid="ignore"):
-            self.ff_fc, self.fc_ff = ff / fc, fc / ff
-        self.eta = M / (M + m2)
-        self.d_st = W * (fc + ff)
+            self._cols = np.stack(
+                [W, W * ff, np.sqrt(np.maximum(ka / ka_top, 1.0)), M / (M + m2),
+                 np.where(d_st > 0.0, d_st, np.inf), W * fc, ff / fc, fc / ff])
+        (self.W, self.Wff, self.c_scale, self.eta, self.d_pos, self.Wfc, self.ff_fc,
+         self.fc_ff) = self._cols
 
     def at(self, h: ArrayLike, rows: np.ndarray | None = None
            ) -> tuple[np.ndarray, np.ndarray]:
         """Contact force F_c and force on the framing F_f (N) at the energy heights
         ``h`` (m) of the points ``rows`` (indices into the points given; all where
         None), as :func:`envelope_two_forces`."""
-        r = slice(None) if rows is None else rows
-        W = self.W[r]
+        if rows is None:
+            cols, base, wab = self._cols, self.base, self.wab
+        else:
+            cols = np.take(self._cols, rows, axis=1)
+            base = np.take(self.base, rows, axis=1)
+            wab = np.take(self.wab, rows, axis=1)
+        W, Wff, c_scale, eta, d_pos, Wfc, ff_fc, fc_ff = cols
+        m = W.size
         h = np.broadcast_to(np.asarray(h, float), W.shape)
         _, _, (h0, _, dh) = ENVELOPE_GRID
         nh = _envelope()[0].shape[2]
-        Wff = self.Wff[r]
+        hp = np.maximum(h, 0.0)
         with np.errstate(divide="ignore", invalid="ignore"):
-            hh = np.where(Wff > 0.0, np.maximum(h, 0.0) / Wff, np.inf)
-            lhh = np.log10(np.clip(hh, 1e-300, 1e300))
+            hh = np.where(Wff > 0.0, hp / Wff, np.inf)
+            # log₁₀ of ĥ clipped to [1e-300, 1e300] (np.clip's values)
+            lhh = np.log10(np.minimum(np.maximum(hh, 1e-300), 1e300))
         k, wk = _cell(lhh, h0, dh, nh)
         top = h0 + (nh - 1) * dh
         # √(10^(max(lĥ, top) − top)), 1 at and below the table's top: the power is
         # taken only above it (and for NaN), where it differs from 1
-        over = np.ones(lhh.shape)
+        over = np.ones(m)
         up = ~(lhh <= top)
         if up.any():
             over[up] = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh[up], top) - top), 1.0))
         LFC = _log_envelope_pair()
-        acc = np.zeros((W.size, 2))
-        # (np.take: the same rows as LFC[b] and columns as [:, rows], gathered several
-        # times faster; one corner at a time keeps the temporaries in cache)
-        if rows is None:
-            base, wab = self.base, self.wab
+        # trilinear in the logs: Σ over the corners (in order) of w0·L[b] + w1·L[b + 1]
+        if m <= self._FUSED_ROWS:
+            b = base + k
+            w1 = wab * wk
+            w0 = wab - w1
+            t = (w0[:, :, None] * np.take(LFC, b, axis=0)
+                 + w1[:, :, None] * np.take(LFC, b + 1, axis=0))
+            acc = t[0] + t[1]
+            acc += t[2]
+            acc += t[3]
         else:
-            base, wab = np.take(self.base, rows, axis=1), np.take(self.wab, rows, axis=1)
-        for q in range(4):
-            b = base[q] + k
-            w1 = wab[q] * wk
-            w0 = wab[q] - w1
-            acc += (w0[:, None] * np.take(LFC, b, axis=0)
-                    + w1[:, None] * np.take(LFC, b + 1, axis=0))
+            acc = np.zeros((m, 2))
+            for q in range(4):
+                w1q = wab[q] * wk
+                acc += _corner(LFC, base[q] + k, wab[q] - w1q, w1q)
         e = np.exp(acc)
-        Ff = e[:, 0] * over * W
-        Fc = e[:, 1] * over * self.c_scale[r] * W
-        eta, d_st = self.eta[r], self.d_st[r]
-        hp = np.maximum(h, 0.0)
         with np.errstate(divide="ignore", invalid="ignore"):
-            F1 = W * (1.0 + np.sqrt(1.0 + 2.0 * np.maximum(eta * h, 0.0)
-                                    / np.where(d_st > 0.0, d_st, np.inf)))
-            # energy_bounds, with the height-free parts kept
-            Bc = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / self.Wfc[r] + self.ff_fc[r]))
-            Bf = W * (1.0 + np.sqrt(1.0 + 2.0 * hp / self.Wff[r] + self.fc_ff[r]))
-        Bc = np.where(np.isnan(Bc), np.inf, Bc)
-        Bf = np.where(np.isnan(Bf), np.inf, Bf)
-        bad = ~(np.isfinite(Ff) & np.isfinite(Fc))
-        if bad.any():
-            Ff[bad], Fc[bad] = Bf[bad], Bc[bad]
-        Fc = np.minimum(np.fmax(Fc * ENVELOPE_MARGIN[1], F1), Bc)
-        Ff = np.minimum(np.fmax(Ff * ENVELOPE_MARGIN[0], F1), Bf)
-        return Fc, Ff
+            return _bounded(W, h, hp, e[:, 0] * over * W, e[:, 1] * over * c_scale * W,
+                            eta, d_pos, Wfc, Wff, ff_fc, fc_ff)

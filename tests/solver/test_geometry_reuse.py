@@ -247,3 +247,46 @@ def test_large_point_sets_are_not_remembered() -> None:
     x, y = rng.uniform(e.x0, e.x1, n), rng.uniform(e.y0, e.y1, n)
     geometry.point_geometry(fm, p, x, y)
     assert not fm._memo.get("point_geometry")
+
+
+@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
+def test_carried_point_masses_equal_masses_worked_out_afresh(path: Path) -> None:
+    """The path's mass with the slab and the column-moved mass (chain.slab_path_mass,
+    column_path_mass; geometry.PER_POINT_MASSES) are worked out once per point set and
+    carried by evaluate.tile, take_geo, concat_geo and evaluate.distinct_geometry, and
+    kept with a remembered point set: every carried value equals the one worked out at
+    the same points afresh, bit for bit."""
+    from droprig.solver import chain, evaluate
+
+    p = load_project(path)
+    fm = _fresh_floor(p)
+    e = fm.level.grid.extent
+    rng = np.random.default_rng(13)
+
+    def fresh_masses(g: geometry.Geometry) -> tuple[np.ndarray, np.ndarray]:
+        f = geometry.point_geometry(fm, p, g.x.copy() + 0.0, g.y.copy())
+        f.cache.clear()
+        return chain.slab_path_mass_at(fm, f), chain.column_path_mass_at(fm, f)
+
+    def same(g: geometry.Geometry) -> None:
+        want = fresh_masses(g)
+        for key, w in zip(geometry.PER_POINT_MASSES, want, strict=True):
+            assert key in g.cache, key
+            assert np.array_equal(g.cache[key], w, equal_nan=True), key
+
+    x, y = rng.uniform(e.x0, e.x1, 120), rng.uniform(e.y0, e.y1, 120)
+    base = geometry.point_geometry(fm, p, x, y)
+    tiled = evaluate.tile(fm, base, 3)
+    same(tiled)
+    # the remembered set keeps them: asked again, the arrays are the ones worked out
+    again = geometry.point_geometry(fm, p, x, y)
+    assert again.cache["slab_path_mass"] is base.cache["slab_path_mass"]
+    pick = rng.integers(0, 120, 90)
+    rep = evaluate.distinct_geometry(fm, p, x[pick], y[pick])
+    same(rep)
+    joined = geometry.concat_geo([tiled, rep])
+    same(joined)
+    same(geometry.take_geo(joined, rng.integers(0, joined.x.size, 200)))
+    # a part without them: the join carries none (the chain works them out)
+    bare = geometry.point_geometry(fm, p, x[:7] + 0.01, y[:7])
+    assert "slab_path_mass" not in geometry.concat_geo([tiled, bare]).cache

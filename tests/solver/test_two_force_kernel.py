@@ -101,6 +101,32 @@ def test_envelope_lookup_is_the_envelope():
         np.testing.assert_allclose(a, b, rtol=TOL)
 
 
+def test_envelope_lookup_reads_the_corners_alike_in_one_pass_or_one_by_one(monkeypatch):
+    # few rows: the four (μ, κ) corners are read in one pass (EnvelopeLookup._FUSED_ROWS),
+    # many: one at a time; both add them in the same order, so they agree bit for bit
+    # (a property of the implementation), and both are the plain envelope at 1e-12
+    rng = np.random.default_rng(12)
+    n = 3000
+    M = 10 ** rng.uniform(0, 4.5, n)
+    m2 = M * 10 ** rng.uniform(-4, 5, n)
+    k2 = 10 ** rng.uniform(5, 9, n)
+    kc = k2 * 10 ** rng.uniform(-3, 8, n)
+    W = M * G
+    h = W / k2 * 10 ** rng.uniform(-5, 9, n)
+    h[:20] = 0.0  # no fall
+    look = struck_mass.EnvelopeLookup(W, 1 / kc, 1 / k2, m2)
+    rows = rng.integers(0, n, 700)
+    assert rows.size <= look._FUSED_ROWS
+    fused = look.at(h[rows], rows)
+    monkeypatch.setattr(struck_mass.EnvelopeLookup, "_FUSED_ROWS", 0)
+    by_corner = look.at(h[rows], rows)
+    ref = struck_mass.envelope_two_forces(W[rows], h[rows], 1 / kc[rows], 1 / k2[rows],
+                                          m2[rows])
+    for a, b, r in zip(fused, by_corner, ref, strict=True):
+        assert np.array_equal(a, b)
+        np.testing.assert_allclose(a, r, rtol=TOL)
+
+
 @pytest.mark.parametrize("demo", DEMOS, ids=lambda p: p.stem)
 def test_kernel_at_another_mass_is_that_loads_impact_step(demo):
     # the allowable-mass search (chain.two_force_mass) runs the kernel at trial masses:
@@ -138,3 +164,27 @@ def test_kernel_at_another_mass_is_that_loads_impact_step(demo):
             np.testing.assert_allclose(eta_f, ref.eta_frame[pts], rtol=TOL)
             seen += rows.size
     assert seen > 20
+
+
+def test_searches_answer_alike_whatever_rows_a_forward_run_takes(monkeypatch):
+    # chain.two_force_height runs its forward runs EXCESS_ROWS rows at a time (memory
+    # of a large block); every row's arithmetic is its own, so the answers are the
+    # same bit for bit with any number (a property of the implementation)
+    from droprig.solver import chain
+    from droprig.solver.chain import InverseAnswers
+
+    p = load_project(DEMOS[0])
+    zone = p.lift_zones[0]
+    fm = analysis.build_floor(p.level(zone.level_id), p.settings)
+    ext = fm.level.grid.extent
+    rng = np.random.default_rng(8)
+    geo = analysis.point_geometry(fm, p, rng.uniform(ext.x0, ext.x1, 400),
+                                  rng.uniform(ext.y0, ext.y1, 400))
+    ref = evaluate_chain(fm, p, zone.loads, geo, rng.integers(0, len(zone.loads), 400),
+                         v_hoist=zone.hoist_speed)
+    assert ref[Impact].two_mass is not None and ref[Impact].two_mass.sum() > 50
+    monkeypatch.setattr(chain, "EXCESS_ROWS", 7)
+    got = evaluate_chain(fm, p, zone.loads, geo, ref.drop.li, v_hoist=zone.hoist_speed)
+    for f in ("h_el", "h_pl", "m_allow"):
+        assert np.array_equal(getattr(got[InverseAnswers], f),
+                              getattr(ref[InverseAnswers], f), equal_nan=True), f
