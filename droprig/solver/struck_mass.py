@@ -717,12 +717,25 @@ def _cell(lg: np.ndarray, start: float, step: float, n: int
     return i, np.minimum(np.maximum(t - i, 0.0), 1.0)
 
 
-def _corner(LFC: np.ndarray, base: np.ndarray, w0: np.ndarray, w1: np.ndarray
-            ) -> np.ndarray:
-    """One (μ, κ) corner's share of the trilinear interpolation in the logs, (n, 2):
-    w0·L[base] + w1·L[base + 1] of the (framing, contact) node table ``LFC``."""
-    return (w0[:, None] * np.take(LFC, base, axis=0)
-            + w1[:, None] * np.take(LFC, base + 1, axis=0))
+def _trilinear(tables: tuple[np.ndarray, np.ndarray],
+               corners: list[tuple[np.ndarray, np.ndarray]], k: np.ndarray,
+               wk: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The logs of the envelope's (framing, contact) forces, trilinear: Σ over the
+    four (μ, κ) corners (base index at ĥ's node 0, weight w_ab; in order) of
+    w0·L[b] + w1·L[b + 1] with b = base + k, w1 = w_ab·w_k, w0 = w_ab − w1, for each
+    flat node table L of ``tables``. One contiguous row per point (the fastest for
+    many rows)."""
+    LF, LC = tables
+    lf = np.zeros(k.shape)
+    lc = np.zeros(k.shape)
+    for base, wab in corners:
+        b = base + k
+        b1 = b + 1
+        w1 = wab * wk
+        w0 = wab - w1
+        lf += w0 * np.take(LF, b) + w1 * np.take(LF, b1)
+        lc += w0 * np.take(LC, b) + w1 * np.take(LC, b1)
+    return lf, lc
 
 
 def _bounded(W: np.ndarray, h: np.ndarray, hp: np.ndarray, Ff: np.ndarray,
@@ -813,17 +826,12 @@ def envelope_two_forces(W: ArrayLike, h: ArrayLike, f_contact: ArrayLike,
         over[up] = np.sqrt(np.maximum(10.0 ** (np.maximum(lhh[up], top) - top), 1.0))
     ka_top = 10.0 ** (k0 + (nk - 1) * dk)
     c_scale = np.sqrt(np.maximum(ka / ka_top, 1.0))
-    LFC = _log_envelope_pair()  # ln of the nodes (framing, contact) side by side
-    acc = np.zeros((W.size, 2))
-    for a, wa in ((0, 1.0 - wi), (1, wi)):
-        for b, wb in ((0, 1.0 - wj), (1, wj)):
-            wab = wa * wb
-            w1 = wab * wk
-            acc += _corner(LFC, ((i + a) * nk + (j + b)) * nh + k, wab - w1, w1)
-    e = np.exp(acc)
+    lf, lc = _trilinear(_log_envelope(), [(((i + a) * nk + (j + b)) * nh, wa * wb)
+                                          for a, wa in ((0, 1.0 - wi), (1, wi))
+                                          for b, wb in ((0, 1.0 - wj), (1, wj))], k, wk)
     d_st = W * f
     with np.errstate(divide="ignore", invalid="ignore"):
-        Fc, Ff = _bounded(W, h, hp, e[:, 0] * over * W, e[:, 1] * over * c_scale * W,
+        Fc, Ff = _bounded(W, h, hp, np.exp(lf) * over * W, np.exp(lc) * over * c_scale * W,
                           M / (M + m2), np.where(d_st > 0.0, d_st, np.inf), Wfc, Wff,
                           ff / fc, fc / ff)
     Fc, Ff = Fc.reshape(shape), Ff.reshape(shape)
@@ -850,7 +858,7 @@ class EnvelopeLookup:
 
     _FUSED_ROWS = 1024
     """Up to this many rows :meth:`at` reads the four corners in one pass (fewer numpy
-    calls); beyond, one corner at a time (the temporaries stay in cache). The two
+    calls); beyond, one corner at a time on flat rows (:func:`_trilinear`). The two
     add the corners in the same order: the same values."""
 
     def __init__(self, W: ArrayLike, f_contact: ArrayLike, f_frame: ArrayLike,
@@ -924,12 +932,12 @@ class EnvelopeLookup:
             acc = t[0] + t[1]
             acc += t[2]
             acc += t[3]
+            e = np.exp(acc)
+            ef, ec = e[:, 0], e[:, 1]
         else:
-            acc = np.zeros((m, 2))
-            for q in range(4):
-                w1q = wab[q] * wk
-                acc += _corner(LFC, base[q] + k, wab[q] - w1q, w1q)
-        e = np.exp(acc)
+            lf, lc = _trilinear(_log_envelope(), [(base[q], wab[q]) for q in range(4)],
+                                k, wk)
+            ef, ec = np.exp(lf), np.exp(lc)
         with np.errstate(divide="ignore", invalid="ignore"):
-            return _bounded(W, h, hp, e[:, 0] * over * W, e[:, 1] * over * c_scale * W,
+            return _bounded(W, h, hp, ef * over * W, ec * over * c_scale * W,
                             eta, d_pos, Wfc, Wff, ff_fc, fc_ff)
