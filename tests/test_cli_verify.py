@@ -128,13 +128,13 @@ def test_project_one_point_json_and_plots(tmp_path: Path,
     data = json.loads(out)
     assert len(data["points"]) == 1 and data["caution"] == CAUTION
     pt = data["points"][0]
-    # on a beam line the modelled member carries the whole load: the energy column is
-    # the one-mass force on the same compliance (Gere §9.10). The chain's force on the
-    # framing is the two-mass model's (two forces per point, the floor with its slab as
-    # the struck mass): for this heavy unit on a soft underside never lighter than the
-    # energy method of the framing alone (the contact's pulse meets the framing's
-    # period; CEB Bulletin 187 two-mass — from memory)
-    assert pt["chain_peak_force"] >= pt["energy_method"]["force"] * (1 - 1e-3)
+    # the force row compares contact forces: the chain's contact force F_c (what the
+    # local checks take) beside the time history's. For this heavy unit on a soft
+    # underside (r ≈ 10, κ ≈ 0.18) the chain's two-mass contact force (CEB Bulletin 187
+    # two-mass, from memory) must not read below the member's own time history (the
+    # independent method), and the chain's force on the framing is a part of it
+    assert pt["energy_method"]["force"] >= pt["time_history"]["force"]
+    assert 0.0 < pt["chain_peak_force"] <= pt["energy_method"]["force"] * (1 + 1e-9)
     for key in ("force", "moment", "shear", "deflection"):
         assert pt["amplified_demand"][key] >= pt["time_history"][key]
     assert len(data["plots"]) == 3
