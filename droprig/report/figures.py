@@ -543,10 +543,10 @@ def _legend(d: Drawing, width: float) -> None:
           lambda x, yy, k=k: sw_rect(x, yy, _hex(OUTCOMES[k].fill)))
          for k in ("elastic", "plastic", "exceeds", "perforates")]
         + [("not reached by the load", lambda x, yy: sw_rect(x, yy, colors.white)),
-           (f"{outcomes.SCABBING.label.lower()}: keep the level below clear",
+           (f"{outcomes.SCABBING.label.lower()}: clear level below",
             lambda x, yy: scabbing_mark(x + 11, yy + 2.5, 4.5))],
-        [("exclusion area: do not carry the load over it", excl),
-         ("pad or mat to lay (specification labelled)",
+        [("exclusion area: keep the load off", excl),
+         ("pad or mat to lay (see its label)",
           lambda x, yy: pad_symbol(x, yy - 2, x + 22, yy + 7, 5.0)),
          ("C3: permit condition no. 3 applies", lambda x, yy: _text(x + 2, yy, "C3", MIN_PT,
                                                                     bold=True)),

@@ -124,3 +124,20 @@ def test_pads_leave_the_bays_labels_and_outcome_fill_in_view() -> None:
     for b in ids:
         assert b in words
     assert words.count("X Exceeds limits") >= len(ids)
+
+
+@pytest.mark.parametrize("width", [500.0, 515.0])
+def test_every_legend_label_is_printed_whole(width: float) -> None:
+    """The legend prints one line per entry and dropped what did not fit: "exclusion
+    area: do not carry the load over it" read "… carry the load" and "pad or mat to
+    lay (specification labelled)" lost its last word (seen in the rooftop demo's annex
+    with pdftoppm). Every entry must be printed whole at the annex's widths (droprig's
+    own plan language: common practice, no source)."""
+    p = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    d = plan_drawing(p.levels[0], list(content.select_zones(p, None)), (), {}, "SI",
+                     width, 600)
+    words = [n.text for n in _walk(d) if isinstance(n, String)]
+    for label in ("exclusion area: keep the load off", "pad or mat to lay (see its label)",
+                  "soffit may scab: clear level below",
+                  "S1: set-down point (inputs, section 4)"):
+        assert label in words, (label, [w for w in words if w[:8] == label[:8]])
