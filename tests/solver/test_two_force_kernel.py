@@ -78,16 +78,24 @@ def test_kernel_gives_the_impact_steps_forces(demo):
     assert (pads > 20) == (demo.stem != "two_level_rigging")
 
 
-def test_envelope_lookup_is_the_envelope():
-    # random systems over and beyond the table (μ 10⁻⁴–10⁵, κ 10⁻³–10⁸, ĥ 10⁻⁵–10⁹)
-    rng = np.random.default_rng(11)
-    n = 20_000
+def _random_systems(rng: np.random.Generator, n: int):  # type: ignore[no-untyped-def]
+    """n random two-mass systems over and beyond the envelope's table (μ 10⁻⁴–10⁵,
+    κ 10⁻³–10⁸, ĥ 10⁻⁵–10⁹): weight W (N), fall h (m), contact and framing
+    stiffnesses kc, k2 (N/m), floor mass m2 (kg)."""
     M = 10 ** rng.uniform(0, 4.5, n)
     m2 = M * 10 ** rng.uniform(-4, 5, n)
     k2 = 10 ** rng.uniform(5, 9, n)
     kc = k2 * 10 ** rng.uniform(-3, 8, n)
     W = M * G
     h = W / k2 * 10 ** rng.uniform(-5, 9, n)
+    return W, h, kc, k2, m2
+
+
+def test_envelope_lookup_is_the_envelope():
+    # random systems over and beyond the table (μ 10⁻⁴–10⁵, κ 10⁻³–10⁸, ĥ 10⁻⁵–10⁹)
+    rng = np.random.default_rng(11)
+    n = 20_000
+    W, h, kc, k2, m2 = _random_systems(rng, n)
     ref = struck_mass.envelope_two_forces(W, h, 1 / kc, 1 / k2, m2)
     look = struck_mass.EnvelopeLookup(W, 1 / kc, 1 / k2, m2)
     got = look.at(h)
@@ -107,12 +115,7 @@ def test_envelope_lookup_reads_the_corners_alike_in_one_pass_or_one_by_one(monke
     # (a property of the implementation), and both are the plain envelope at 1e-12
     rng = np.random.default_rng(12)
     n = 3000
-    M = 10 ** rng.uniform(0, 4.5, n)
-    m2 = M * 10 ** rng.uniform(-4, 5, n)
-    k2 = 10 ** rng.uniform(5, 9, n)
-    kc = k2 * 10 ** rng.uniform(-3, 8, n)
-    W = M * G
-    h = W / k2 * 10 ** rng.uniform(-5, 9, n)
+    W, h, kc, k2, m2 = _random_systems(rng, n)
     h[:20] = 0.0  # no fall
     look = struck_mass.EnvelopeLookup(W, 1 / kc, 1 / k2, m2)
     rows = rng.integers(0, n, 700)
