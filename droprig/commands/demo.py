@@ -47,6 +47,7 @@ def run(args: argparse.Namespace) -> int:
     out.mkdir(parents=True, exist_ok=True)
     print("droprig demo: no display found, running the same job headless.\n")
     status = 0
+    written: list[pathlib.Path] = []
     for path in demos:
         stem = path.stem
         print(f"== {path.name}")
@@ -55,19 +56,30 @@ def run(args: argparse.Namespace) -> int:
             return rc
         rc = main(["analyse", str(path), "--json", str(out / f"{stem}.json"),
                    "--csv", str(out / f"{stem}.csv")])
+        written += [out / f"{stem}.json", out / f"{stem}.csv"]
         status = status or rc
         rc = main(["analyse", str(path)])
         status = status or rc
         rc = main(["report", str(path), "-o", str(out / f"{stem}_annex.pdf")])
+        written.append(out / f"{stem}_annex.pdf")
         status = status or rc
         # The screenshot runs in a child process so Qt renders offscreen cleanly.
         env = dict(os.environ, QT_QPA_PLATFORM="offscreen", QT_LOGGING_RULES="qt.qpa.*=false")
         shot = out / f"{stem}_window.png"
         rc = subprocess.call([sys.executable, "-m", "droprig", "gui", str(path),
                               "--screenshot", str(shot)], env=env)
+        written.append(shot)
         status = status or rc
         print()
     print(f"droprig demo: outputs written to {out.resolve()}:")
-    for f in sorted(out.iterdir()):
-        print(f"  {f.name:45s} {f.stat().st_size:>10,d} bytes")
+    # Only this run's outputs: an earlier run's files are kept beside them as
+    # ``.bak`` (droprig.io.atomic.keep_backup) and are not outputs of this run.
+    for f in written:
+        if f.is_file():
+            print(f"  {f.name:45s} {f.stat().st_size:>10,d} bytes")
+        else:
+            print(f"  {f.name:45s} {'not written':>16s}")
+            status = status or 1
+    if any(out.glob("*.bak")):
+        print("  (files of an earlier run are kept beside them as .bak)")
     return status
