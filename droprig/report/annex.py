@@ -689,11 +689,13 @@ def pad_label(p: object, system: str, project: Project) -> str:
     """A pad's specification short enough for its label on the conditions plan: kind,
     thickness, the crush stress the analysis uses and the stroke, or the mat's
     modulus / stiffness (the full wording is in :func:`pad_spec`, inputs section)."""
-    th = fmt_value(p.thickness, "length", system)  # type: ignore[attr-defined,arg-type]
+    # thickness and stroke in the small-length unit, as the permit condition and
+    # the inputs table print them (permit.pad_words): one pad, one unit
+    th = fmt_value(p.thickness, "small_length", system)  # type: ignore[attr-defined,arg-type]
     if p.kind == "crushable":  # type: ignore[attr-defined]
         return (f"crushable, {th} thick; crushes at "
                 f"{fmt_sig(pad_crush_stress(project, p), 'pressure', system, 3)}, stroke "
-                f"{fmt_sig(p.crush_stroke, 'length', system, 3)}")  # type: ignore[attr-defined,arg-type]
+                f"{fmt_sig(p.crush_stroke, 'small_length', system, 3)}")  # type: ignore[attr-defined,arg-type]
     if p.modulus is not None:  # type: ignore[attr-defined]
         return (f"spring mat, {th} thick; modulus "
                 f"{fmt_sig(p.modulus, 'pressure', system, 3)}")  # type: ignore[attr-defined,arg-type]

@@ -321,3 +321,27 @@ def test_a_bay_range_is_explained_on_page_one(recorded: tuple[Project, list[str]
               for n in bay_ranges(p.level(c.level_id), c.bays) if n not in c.bays]
     assert ranges, "this roof's conditions should name a range of bays"
     assert f"A bay range such as {ranges[0]} stands for every bay" in texts[0]
+
+
+@pytest.mark.parametrize("system", ["SI", "US"])
+@pytest.mark.parametrize("name", ["rooftop_plant_swap", "steel_erection_floor"])
+def test_pad_label_units_match_permit_condition(name: str, system: str) -> None:
+    """The conditions plan's pad label prints the thickness and stroke in the unit the
+    permit condition uses for the same pad (seen with pdftoppm on the steel demo:
+    "1.00 ft thick ... stroke 0.667 ft" on the plan against "12.00 in thick ...
+    stroke 8.00 in" in condition C1). Common practice, no source: one quantity, one
+    unit on one permit."""
+    from droprig import permit, units
+
+    project = load_project(ROOT / "demo_projects" / f"{name}.droprig")
+    assert project.protection_areas, "the demo has pads to label"
+    for pa in project.protection_areas:
+        words = permit.pad_words(pa, system)  # type: ignore[arg-type]
+        label = annex.pad_label(pa, system, project)
+        thick = units.fmt(pa.thickness, "small_length", system)  # type: ignore[arg-type]
+        assert f"{thick} thick" in words
+        assert f"{thick} thick" in label, (label, words)
+        if pa.kind == "crushable":
+            stroke = units.fmt_sig(pa.crush_stroke, "small_length", system)  # type: ignore[arg-type]
+            assert f"stroke {stroke}" in words
+            assert f"stroke {stroke}" in label, (label, words)
