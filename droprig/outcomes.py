@@ -166,3 +166,24 @@ def fmt_utilisation_check(u: float | None, check: str) -> str:
     largest U in the results table, the permit's cells and the inspector."""
     util = fmt_utilisation(u)
     return f"{util} ({check.replace('_', ' ')})" if check else util
+
+
+
+def outcome_check(check: str, response: str) -> str:
+    """The words for the check that sets a point's outcome: for a point whose load
+    may go through the deck (``response`` ``"perforates"``) the local-damage check
+    (perforation of the slab), not the framing check the chain names at that point
+    (seen under Xvfb on the rooftop demo: "B3/B-C · web yielding" beside "P May go
+    through" and "5.48 (deck flexure)", three reasons for one bay). Common practice,
+    no source: name the check that sets the outcome."""
+    if response == "perforates":
+        return "deck perforation (local damage)"
+    return check.replace("_", " ")
+
+
+def fmt_worst_point(member: str, check: str, response: str) -> str:
+    """The worst point's member and the check that sets its outcome
+    (:func:`outcome_check`): the one text of the results table's "worst point"
+    column, the inspector and the annex's point sheet."""
+    words = outcome_check(check, response)
+    return f"{member} · {words}" if words else member

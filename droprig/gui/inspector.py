@@ -61,7 +61,7 @@ from droprig.model import (
     corridor_problem,
     lift_point_tags,
 )
-from droprig.outcomes import fmt_utilisation_check
+from droprig.outcomes import fmt_utilisation_check, fmt_worst_point
 from droprig.permit import derive_conditions
 
 # ------------------------------------------------------------------ messages
@@ -1191,7 +1191,8 @@ class Inspector(QWidget):
                 html += (f"<p>{_chip(st)} <b>{st.label}</b> — zone {b.zone_id}, "
                          f"{b.load_name}<br>max U {html_escape(util)}; "
                          f"allowable drop {html_escape(allow)}<br>worst point: "
-                         f"{b.governing_member} ({b.governing_check.replace('_', ' ')})")
+                         + html_escape(fmt_worst_point(b.governing_member,
+                                                       b.governing_check, b.response)))
                 if cells:
                     html += (f"<br><b>{html_escape(cells['verdict'])}</b>; max hook "
                              f"elevation {html_escape(cells['hook'])}<br>"

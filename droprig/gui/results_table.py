@@ -37,7 +37,7 @@ from droprig import units
 from droprig.gui import style
 from droprig.gui.document import Document, Selection
 from droprig.model import Project
-from droprig.outcomes import fmt_utilisation_check
+from droprig.outcomes import fmt_utilisation_check, fmt_worst_point
 from droprig.permit import BayVerdict, PermitConditions, derive_conditions, fmt_height
 from droprig.solver import BaySummary, Results
 from droprig.texts import CAUTION
@@ -295,7 +295,7 @@ class BayResultsModel(QAbstractTableModel):
         if key in CELL_OF:
             return self.cell(b, key)
         if key == "governing":
-            return f"{b.governing_member} · {b.governing_check.replace('_', ' ')}"
+            return fmt_worst_point(b.governing_member, b.governing_check, b.response)
         return ""
 
     def _sort(self, b: BaySummary, key: str) -> Any:

@@ -31,6 +31,7 @@ from PySide6.QtWidgets import (
 
 from droprig import tracefmt, units
 from droprig.gui import style
+from droprig.outcomes import outcome_check
 from droprig.solver import Trace, TraceStep
 from droprig.texts import CAUTION
 
@@ -173,7 +174,8 @@ def trace_html(trace: Trace, system: str, *, narrow: bool = False) -> str:
     if trace.governing_member:
         gov.append(f"governing member <b>{e(trace.governing_member)}</b>")
     if trace.governing_check:
-        gov.append(f"governing check <b>{e(trace.governing_check.replace('_', ' '))}</b>")
+        words = outcome_check(trace.governing_check, trace.response)
+        gov.append(f"governing check <b>{e(words)}</b>")
     out.append(
         "<table cellspacing='0' cellpadding='6' width='100%' style='margin-top:8px'><tr>"
         f"<td width='34' align='center' style='background:{st.fill};color:{ink};"
@@ -197,7 +199,8 @@ def trace_text(trace: Trace, system: str) -> str:
         lines += [f"{i}. {title}", f"   {formula}", f"   {numbers}", f"   {result}",
                   f"   [{source}]"]
     lines.append(f"Verdict: {st.label} ({st.tag}); governing member "
-                 f"{trace.governing_member or 'none'}, check {trace.governing_check or 'none'}")
+                 f"{trace.governing_member or 'none'}, check "
+                 f"{outcome_check(trace.governing_check, trace.response) or 'none'}")
     lines.append(CAUTION)
     return "\n".join(lines)
 

@@ -48,7 +48,7 @@ from droprig.model import (
     bays,
     id_ranges,
 )
-from droprig.outcomes import NOT_ASSESSED, ORDER, OUTCOMES
+from droprig.outcomes import NOT_ASSESSED, ORDER, OUTCOMES, fmt_worst_point
 from droprig.permit import ENERGY_ONLY, derive_conditions, pad_words
 from droprig.permit import VERDICT_WORDS as _PERMIT_WORDS
 from droprig.report import content, fonts, permit_fields, references
@@ -1499,8 +1499,8 @@ class _Builder:
                 ("Utilisation U", fmt_util(float(c.utilisation[i]))
                  + (f" ({tr.utilisation_check.replace('_', ' ')})"
                     if tr.utilisation_check else "")),
-                ("Governing member · check", f"{tr.governing_member} · "
-                 f"{tr.governing_check.replace('_', ' ')}"),
+                ("Governing member · check",
+                 fmt_worst_point(tr.governing_member, tr.governing_check, tr.response)),
                 ("Response", content.OUTCOMES.get(tr.response,
                                                   content.OUTCOMES["none"]).label),
                 ("Allowable drop height (elastic), above the finished surface",
