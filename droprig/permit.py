@@ -44,6 +44,7 @@ from droprig.units import UnitSystem
 __all__ = [
     "CELL_KEYS",
     "CONDITION_KINDS",
+    "HOOK_KEEP_OFF",
     "NOT_CHECKED",
     "VERDICTS",
     "VERDICT_WORDS",
@@ -131,6 +132,13 @@ def fmt_height(value: float | None, system: UnitSystem = "SI", *,
     """A drop height on the datum, to :data:`SIG_HEIGHT` significant figures,
     rounded down by default (a limit)."""
     return units.fmt_sig(value, "length", system, sig=SIG_HEIGHT, rounding=rounding)
+
+
+HOOK_KEEP_OFF = "keep load off"
+"""The hook-elevation cell of a bay the load must not be carried over: no elevation
+is safe there. It read "none", which a signer can take for "no cap" (seen under Xvfb
+on the rooftop demo's spreader bays; common practice, no source: a blank limit must
+never read as an open one)."""
 
 
 def fmt_elevation(value: float | None, system: UnitSystem = "SI") -> str:
@@ -363,7 +371,9 @@ class BayVerdict:
             "verdict": VERDICT_WORDS[self.verdict],
             "planned": fmt_height(self.planned_drop_height, system, rounding="nearest"),
             "allowable": allow,
-            "hook": fmt_elevation(self.max_hook_elevation, system),
+            "hook": (HOOK_KEEP_OFF if self.max_hook_elevation is None
+                     and self.verdict == "not_acceptable"
+                     else fmt_elevation(self.max_hook_elevation, system)),
             "utilisation": util,
             "conditions": " ".join(c.sentence(system) for c in self.conditions) or "none",
             "mass": units.fmt_sig(self.allowable_mass, "mass", system, sig=SIG_MASS,

@@ -594,3 +594,22 @@ def test_energy_method_alone_is_named_among_the_limits():
     assert ENERGY_ONLY in derive_conditions(p, analyse(p)).not_checked
     on = replace(p, settings=replace(p.settings, dynamic_amplification=True))
     assert ENERGY_ONLY not in derive_conditions(on, analyse(on)).not_checked
+
+
+def test_excluded_bay_hook_cell_never_reads_as_open() -> None:
+    """A bay the load must not be carried over has no safe hook elevation; its cell
+    says so instead of "none", which a signer can read as "no cap" (seen under Xvfb
+    on the rooftop demo's spreader bays; common practice, no source)."""
+    from droprig.permit import HOOK_KEEP_OFF
+
+    project = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    pc = derive_conditions(project, analyse(project))
+    excluded = [bv for bv in pc.bays if bv.verdict == "not_acceptable"]
+    assert excluded, "the rooftop demo excludes the spreader from some bays"
+    for bv in pc.bays:
+        hook = bv.cells("SI")["hook"]
+        assert hook != "none", (bv.bay_id, bv.load_name)
+        if bv.verdict == "not_acceptable" and bv.max_hook_elevation is None:
+            assert hook == HOOK_KEEP_OFF
+        else:
+            assert hook.endswith(" m"), hook

@@ -1195,7 +1195,7 @@ class Inspector(QWidget):
                                                        b.governing_check, b.response)))
                 if cells:
                     html += (f"<br><b>{html_escape(cells['verdict'])}</b>; max hook "
-                             f"elevation {html_escape(cells['hook'])}<br>"
+                             f"elevation: {html_escape(cells['hook'])}<br>"
                              f"<i>{html_escape(cells['conditions'])}</i>")
                 elif not confirmed:
                     html += f"<br><i>Verdict, limits and conditions: {style.CONFIRMING}</i>"
