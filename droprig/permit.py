@@ -10,7 +10,9 @@ turns the results into those conditions and one verdict:
 * ``acceptable`` — every assessed bay stays elastic on bare deck;
 * ``acceptable_with_conditions`` — acceptable when every listed condition is kept;
 * ``not_acceptable`` — no practical condition makes the lift acceptable (every bay
-  the load can reach must be excluded).
+  the load can reach must be excluded), or the lift plan cannot keep the conditions:
+  a pick-up or set-down point lies in a bay a load must not be carried over
+  (:func:`plan_clashes`).
 
 A bay's own verdict (:class:`BayVerdict`) is ``not_acceptable`` where the load must
 not be carried over it (exclusion), ``acceptable_with_conditions`` where a pad, a
@@ -36,13 +38,22 @@ from dataclasses import dataclass, replace
 from typing import Literal
 
 from droprig import units
-from droprig.model import Level, Project, ProtectionArea, Rect, bay_ranges, bays
+from droprig.model import (
+    Level,
+    Project,
+    ProtectionArea,
+    Rect,
+    bay_ranges,
+    bays,
+    lift_point_tags,
+)
 from droprig.outcomes import fmt_utilisation_check
 from droprig.solver import LIMIT_MARGIN, BaySummary, Results, pad_crush_stress
 from droprig.units import UnitSystem
 
 __all__ = [
     "CELL_KEYS",
+    "CLASH_ADVICE",
     "CONDITION_KINDS",
     "HOOK_KEEP_OFF",
     "NOT_CHECKED",
@@ -53,10 +64,12 @@ __all__ = [
     "ConditionKind",
     "LoadVerdict",
     "PermitConditions",
+    "PlanClash",
     "Verdict",
     "derive_conditions",
     "fmt_elevation",
     "fmt_height",
+    "plan_clashes",
     "worst_verdict",
 ]
 
@@ -394,6 +407,39 @@ class LoadVerdict:
 
 
 @dataclass(frozen=True)
+class PlanClash:
+    """A pick-up or set-down point of the lift plan that lies in a bay a load of the
+    same lift zone must not be carried over: the plan and the conditions disagree.
+
+    Points are not tied to a load in the project file, so every load of the zone is
+    taken to pass over each of its points (the rigging travels with the load it
+    lifts; a drop while picking up or setting down lands in that bay) — the safe
+    reading. ``tag``: the point's tag on the conditions plan (``P1``, ``S2``;
+    :func:`droprig.model.lift_point_tags`); ``kind``: ``pick_up`` / ``set_down``;
+    a point on the line between two bays lies in both."""
+
+    zone_id: str
+    level_id: str
+    tag: str
+    kind: str
+    label: str
+    bay_id: str
+    load_name: str
+
+    def sentence(self) -> str:
+        what = "pick-up" if self.kind == "pick_up" else "set-down"
+        name = f"{self.tag} ({self.label})" if self.label else self.tag
+        return (f"{what} point {name} of lift zone {self.zone_id} lies in bay "
+                f"{self.bay_id} of level {self.level_id}, which {self.load_name} must "
+                "not be carried over")
+
+
+CLASH_ADVICE = ("The lift as planned cannot keep the conditions: move the point, protect "
+                "or prop that bay, or change the plan, and assess again before signing.")
+"""What a signer does about a :class:`PlanClash` (common practice, no source)."""
+
+
+@dataclass(frozen=True)
 class PermitConditions:
     """Everything a permit states: the verdict (the worst over the loads), the
     verdict per load, the conditions de-duplicated in reading order, and what is
@@ -403,6 +449,9 @@ class PermitConditions:
     loads: tuple[LoadVerdict, ...]
     conditions: tuple[Condition, ...]
     not_checked: tuple[str, ...]
+    clashes: tuple[PlanClash, ...] = ()
+    """Lift-plan points in bays a load must not be carried over; any makes the
+    verdict ``not_acceptable`` (:func:`plan_clashes`)."""
 
     @property
     def verdict_words(self) -> str:
@@ -710,11 +759,51 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
                         f"{zone.level_id}; drops there are not assessed by droprig. Do "
                         "not carry a load there unless that area is checked separately "
                         "and kept clear of people.")))
+    clashes = plan_clashes(project, loads)
+    clashing = {(c.zone_id, c.load_name) for c in clashes}
+    loads = [replace(lv, verdict="not_acceptable")
+             if (lv.zone_id, lv.load_name) in clashing else lv for lv in loads]
     verdict = worst_verdict(lv.verdict for lv in loads)
     merged = _merge(everything, rects, across_loads=True)
     if verdict == "acceptable" and merged:
         verdict = "acceptable_with_conditions"
-    return PermitConditions(verdict, tuple(loads), merged, tuple(not_checked))
+    return PermitConditions(verdict, tuple(loads), merged, tuple(not_checked),
+                            tuple(clashes))
+
+
+def plan_clashes(project: Project, loads: Iterable[LoadVerdict]) -> list[PlanClash]:
+    """Every pick-up or set-down point that lies in (or on the edge of) a bay a load
+    of its lift zone must not be carried over (a bay verdict ``not_acceptable``).
+
+    Such a plan cannot keep its own conditions: the load starts or ends its lift
+    where a drop is not acceptable. The load's verdict is then ``not_acceptable``
+    and so is the permit's (common practice, no source: a permit whose conditions
+    the lift plan cannot keep is not a permit to sign). Before, only the annex
+    listed these, under a headline that read "acceptable with conditions" (the
+    rooftop demo, read with pdftoppm)."""
+    excluded: dict[tuple[str, str], list[tuple[str, str]]] = {}
+    for lv in loads:
+        for bv in lv.bays:
+            if bv.verdict == "not_acceptable":
+                excluded.setdefault((bv.zone_id, bv.level_id), []).append(
+                    (bv.bay_id, bv.load_name))
+    out: list[PlanClash] = []
+    for zone in project.lift_zones:
+        hits = excluded.get((zone.id, zone.level_id))
+        if not hits or not zone.lift_points:
+            continue
+        try:
+            level = project.level(zone.level_id)
+        except KeyError:
+            continue
+        rect = {b.id: b.rect for b in bays(level)}
+        for tag, pt in zip(lift_point_tags(zone), zone.lift_points, strict=True):
+            for bay_id, load_name in hits:
+                r = rect.get(bay_id)
+                if r is not None and r.contains(*pt.at):
+                    out.append(PlanClash(zone.id, zone.level_id, tag, pt.kind, pt.label,
+                                         bay_id, load_name))
+    return out
 
 
 CONNECTION_NAMES_SHOWN = 12

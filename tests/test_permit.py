@@ -442,10 +442,25 @@ def _energy_only(project):
     return replace(project, settings=replace(project.settings, dynamic_amplification=False))
 
 
-def test_rooftop_demo_reads_acceptable_with_conditions():
+def test_rooftop_demo_reads_not_acceptable_as_planned():
     project = _energy_only(load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig"))
     pc = derive_conditions(project, analyse(project))
-    assert pc.verdict == "acceptable_with_conditions"
+    # the conditions keep both units off bay 2-3/A-B (below), where the plan picks the
+    # old unit up (P1) and sets the new one down (S2): the plan cannot keep its own
+    # conditions, so the permit is not acceptable as planned (droprig.permit.
+    # plan_clashes; common practice, no source). It read "acceptable with
+    # conditions" above a page-1 note that the plan and the conditions disagree.
+    assert pc.verdict == "not_acceptable"
+    assert {(c.tag, c.bay_id, c.load_name) for c in pc.clashes} == {
+        (tag, "2-3/A-B", load) for tag in ("P1", "S2")
+        for load in ("AHU-3 (new)", "AHU-3 (old, drained)")}
+    assert {lv.load_name: lv.verdict for lv in pc.loads} == {
+        "AHU-3 (new)": "not_acceptable", "AHU-3 (old, drained)": "not_acceptable",
+        "Spreader beam 4 m": "acceptable_with_conditions"}
+    # without the plan's points the same conditions make it acceptable
+    zone = replace(project.lift_zones[0], lift_points=())
+    bare = replace(project, lift_zones=(zone,))
+    assert derive_conditions(bare, analyse(bare)).verdict == "acceptable_with_conditions"
     text = " ".join(pc.sentences())
     for needle in ("Lay pad MAT1", "Lay pad MAT2", "hook at or below elevation",
                    "Do not carry AHU-3 (new) over", "Do not carry Spreader beam 4 m over"):
@@ -517,7 +532,10 @@ def test_rooftop_demo_by_drop_height_reads_the_same():
     assert [ld.drop_height for ld in as_drop] == pytest.approx([0.8, 0.8, 4.8], rel=1e-12)
     assert [(v.bay_id, v.verdict, v.allowable_drop_height) for v in a.bays] == \
         [(v.bay_id, v.verdict, v.allowable_drop_height) for v in b.bays]
-    assert a.verdict == b.verdict == "acceptable_with_conditions"
+    # not acceptable as planned both ways: the plan's points P1 and S2 lie in bay
+    # 2-3/A-B, which the units must not be carried over (plan_clashes)
+    assert a.verdict == b.verdict == "not_acceptable"
+    assert a.clashes == b.clashes and a.clashes
 
 
 def test_lay_pad_sentence_states_what_the_pad_is():

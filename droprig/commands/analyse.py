@@ -93,6 +93,10 @@ def permit_document(project: Any, permit: Any) -> dict[str, Any]:
                    "conditions": [c.sentence(system) for c in lv.conditions]}
                   for lv in permit.loads],
         "not_checked": list(permit.not_checked),
+        "plan_clashes": [{"lift": c.zone_id, "level": c.level_id, "point": c.tag,
+                          "kind": c.kind, "label": c.label, "bay": c.bay_id,
+                          "load": c.load_name, "sentence": c.sentence()}
+                         for c in permit.clashes],
     }
 
 
@@ -245,7 +249,7 @@ def bays_csv_text(project: Any, results: Any, permit: Any = None) -> str:
 
 def table_text(project: Any, results: Any, permit: Any = None) -> str:
     """Readable per-bay table in the project's unit system, then the permit."""
-    from droprig.permit import derive_conditions
+    from droprig.permit import CLASH_ADVICE, derive_conditions
     from droprig.units import fmt
 
     system = project.settings.unit_system
@@ -273,6 +277,11 @@ def table_text(project: Any, results: Any, permit: Any = None) -> str:
                "a fall onto a pad is that less the pad's thickness.")
     out.append("")
     out.append(f"Permit verdict: {permit.verdict_words.upper()}")
+    if permit.clashes:
+        out.append("The lift plan and the conditions disagree:")
+        for c in permit.clashes:
+            out.append(f"  - {c.sentence()}")
+        out.append(f"  {CLASH_ADVICE}")
     if permit.conditions:
         out.append("Conditions:")
         for i, sentence in enumerate(permit.sentences(system), 1):

@@ -38,7 +38,13 @@ from droprig.gui import style
 from droprig.gui.document import Document, Selection
 from droprig.model import Project
 from droprig.outcomes import fmt_utilisation_check, fmt_worst_point
-from droprig.permit import BayVerdict, PermitConditions, derive_conditions, fmt_height
+from droprig.permit import (
+    CLASH_ADVICE,
+    BayVerdict,
+    PermitConditions,
+    derive_conditions,
+    fmt_height,
+)
 from droprig.solver import BaySummary, Results
 from droprig.texts import CAUTION
 
@@ -597,14 +603,23 @@ class ResultsTable(QWidget):
                  for k in reversed(style.OUTCOME_ORDER) if counts.get(k)]
         permit = self.model.permit
         verdict = f"<b>{permit.verdict_words}</b> — " if permit is not None else ""
+        clashes = permit.clashes if permit is not None else ()
+        if clashes:
+            # the plan's own points lie where a load must not be carried
+            # (droprig.permit.plan_clashes): the reason, short, on the same line
+            tags = sorted({c.tag for c in clashes})
+            verdict = (f"<b>{permit.verdict_words}</b> ({', '.join(tags)} in "  # type: ignore[union-attr]
+                       "excluded bays) — ")
         if not self._doc.results_current:
             # in place of the verdict, not after the line: a second line moved the
             # table down on every edit (seen under Xvfb at 1280 × 720), and the
             # verdict of the project before the edit is not this project's
             verdict = "<b>Updating…</b> — "
+            clashes = ()
         elif not self.model.confirmed:
             # the outcomes are final; the verdict waits for the confirmed limits
             verdict = "<b>Verdict: confirming limits…</b> — "
+            clashes = ()
         case = self._doc.case
         which = "all lifts" if case is None else f"lift {case[0]} · {case[1]}"
         # short enough for one line at 1280 × 720 (wrapped beyond; two lines cost
@@ -613,9 +628,12 @@ class ResultsTable(QWidget):
                              f"{len(res.bays)} rows — " + " · ".join(parts))
         # the caution stands in the window's status bar beside every verdict; here
         # on hover, after what the rows are
-        self.summary.setToolTip("One row per bay and load (the worst drop point of the "
-                                "bay for that load); the count of rows by outcome.\n\n"
-                                + CAUTION)
+        disagree = ("The lift plan and the conditions disagree:\n"
+                    + "\n".join(f"- {c.sentence()}" for c in clashes)
+                    + f"\n{CLASH_ADVICE}\n\n") if clashes else ""
+        self.summary.setToolTip(disagree + "One row per bay and load (the worst drop point "
+                                "of the bay for that load); the count of rows by outcome."
+                                "\n\n" + CAUTION)
 
     # -------------------------------------------------------------- selection sync
 

@@ -49,7 +49,7 @@ from droprig.model import (
     id_ranges,
 )
 from droprig.outcomes import NOT_ASSESSED, ORDER, OUTCOMES, fmt_worst_point
-from droprig.permit import ENERGY_ONLY, derive_conditions, pad_words
+from droprig.permit import CLASH_ADVICE, ENERGY_ONLY, derive_conditions, pad_words
 from droprig.permit import VERDICT_WORDS as _PERMIT_WORDS
 from droprig.report import content, fonts, permit_fields, references
 from droprig.report.formula import SIG, evaluate, fmt_sig, printed_tolerance
@@ -814,6 +814,13 @@ class _Builder:
         words = VERDICT_WORDS[verdict].upper()
         if verdict == "acceptable_with_conditions":
             words += f" — {n_cond} CONDITION{'S' if n_cond != 1 else ''} BELOW"
+        elif verdict == "not_acceptable" and any(
+                c.zone_id in {z.id for z in self.zones}
+                for c in getattr(self.permit, "clashes", ())):
+            # the plan's own pick-up or set-down point lies where a load must not
+            # be carried (droprig.permit.plan_clashes); the points are listed below
+            words += (" AS PLANNED — THE LIFT PLAN CANNOT KEEP THE CONDITIONS "
+                      "(SEE BELOW)")
         elif verdict == "not_acceptable":
             words += " AS PLANNED — NO PRACTICAL CONDITION MAKES IT ACCEPTABLE"
         vstyle = self.P(esc(words), st.verdict)
@@ -927,12 +934,14 @@ class _Builder:
             out.append(self.P("<b>VALIDITY ENDED</b>: " + esc(ended) + ". Do not sign; "
                               "renew the permit and print the annex again.",
                               self.st.caution))
-        clash = permit_fields.points_in_exclusions(self.p, self.zones, self.conditions)
+        zone_ids = {z.id for z in self.zones}
+        clash = permit_fields.points_in_exclusions(
+            [c for c in getattr(self.permit, "clashes", ()) if c.zone_id in zone_ids],
+            self.conditions)
         if clash:
             out.append(self.P(
                 "<b>LIFT PLAN AND CONDITIONS DISAGREE</b>: " + esc("; ".join(clash))
-                + ". Move the point or change the plan, and assess again before signing.",
-                self.st.caution))
+                + ". " + esc(CLASH_ADVICE), self.st.caution))
         return out
 
     def signoff_rows(self) -> list[list[str]]:

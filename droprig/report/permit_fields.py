@@ -120,28 +120,22 @@ def not_recorded(project: Project, zones: Sequence[LiftZone]) -> list[str]:
     return out
 
 
-def points_in_exclusions(project: Project, zones: Sequence[LiftZone],
+def points_in_exclusions(clashes: Sequence[object],
                          conditions: Sequence[object]) -> list[str]:
-    """Pick-up or set-down points that lie in a bay an ``exclude_area`` permit
-    condition of the same zone keeps the load away from — the lift plan and the
-    conditions then contradict each other. ``conditions`` are numbered from 1 as
-    printed (C1, C2 …); a condition with no bays covers the whole zone."""
+    """The permit's plan clashes (:func:`droprig.permit.plan_clashes`: pick-up or
+    set-down points in a bay a load must not be carried over) in words, each with the
+    number of the ``exclude_area`` condition it meets as printed (``conditions``
+    numbered from 1: C1, C2 …; a condition with no bays covers the whole zone)."""
     out = []
-    rows = point_rows(project, zones)
-    for r in rows:
-        if r.bay == OFF_FRAMING:
-            continue
-        for n, c in enumerate(conditions, start=1):
-            if (getattr(c, "kind", "") != "exclude_area"
-                    or getattr(c, "zone_id", None) != r.zone_id):
-                continue
-            covered = getattr(c, "bays", ())
-            if covered and r.bay not in covered:
-                continue
-            load = getattr(c, "load_name", None) or "every load"
-            name = f"{r.tag} ({r.label})" if r.label else r.tag
-            out.append(f"{r.kind} point {name} of zone {r.zone_id} lies in bay {r.bay}, "
-                       f"an exclusion area for {load} (C{n})")
+    for c in clashes:
+        n = next((k for k, cond in enumerate(conditions, start=1)
+                  if getattr(cond, "kind", "") == "exclude_area"
+                  and getattr(cond, "zone_id", None) == getattr(c, "zone_id", "")
+                  and getattr(cond, "load_name", None) in (None, getattr(c, "load_name", ""))
+                  and (not getattr(cond, "bays", ()) or getattr(c, "bay_id", "")
+                       in getattr(cond, "bays", ()))), None)
+        text = c.sentence()  # type: ignore[attr-defined]
+        out.append(f"{text} (C{n})" if n is not None else text)
     return out
 
 
