@@ -192,3 +192,30 @@ def test_unwritable_output_exits_2(project_file, tmp_path, capsys):
     target = tmp_path / "no" / "such" / "dir" / "r.json"
     assert main(["analyse", str(project_file), "--json", str(target)]) == 2
     assert not target.exists()
+
+
+def test_json_and_table_name_the_plan_clashes() -> None:
+    """The rooftop demo's plan picks up and sets down in bay 2-3/A-B, which the units
+    must not be carried over: the JSON document and the readable table name each point,
+    bay and load beside the verdict (droprig.permit.plan_clashes; common practice, no
+    source: a permit whose conditions the plan cannot keep is not signed)."""
+    from pathlib import Path
+
+    from droprig.commands.analyse import results_document, table_text
+    from droprig.io.project_file import load_project
+    from droprig.solver import analyse
+
+    project = load_project(Path(__file__).resolve().parents[1] / "demo_projects"
+                           / "rooftop_plant_swap.droprig")
+    results = analyse(project)
+    doc = results_document(project, results)["permit"]
+    assert doc["verdict"] == "not_acceptable"
+    got = {(c["point"], c["kind"], c["bay"], c["load"]) for c in doc["plan_clashes"]}
+    assert got == {("P1", "pick_up", "2-3/A-B", "AHU-3 (new)"),
+                   ("P1", "pick_up", "2-3/A-B", "AHU-3 (old, drained)"),
+                   ("S2", "set_down", "2-3/A-B", "AHU-3 (new)"),
+                   ("S2", "set_down", "2-3/A-B", "AHU-3 (old, drained)")}
+    text = table_text(project, results)
+    assert "Permit verdict: NOT ACCEPTABLE\nThe lift plan and the conditions disagree:" in text
+    assert "set-down point S2 (new unit onto the plinth) of lift zone MC1 lies in bay " \
+        "2-3/A-B of level RF, which AHU-3 (new) must not be carried over" in text
