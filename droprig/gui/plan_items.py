@@ -39,7 +39,7 @@ from PySide6.QtWidgets import (
 )
 
 from droprig.gui import style
-from droprig.model import Bay, Level, LiftZone, ProtectionArea, Rect
+from droprig.model import Bay, Level, LiftZone, ProtectionArea, Rect, lift_point_tags
 from droprig.outcomes import fmt_utilisation
 
 # ------------------------------------------------------------------ helpers
@@ -447,6 +447,107 @@ class OpeningsItem(PixelSized, QGraphicsItem):
                 painter.fillRect(plate, QColor(255, 255, 255, 230))
                 painter.setPen(QColor("#1A1A1A"))
                 painter.drawText(plate, Qt.AlignmentFlag.AlignCenter, "OPENING")
+        painter.restore()
+
+
+def paint_lift_point(painter: QPainter, kind: str, x: float, y: float, s: float) -> None:
+    """One lift-plan point's symbol at device (x, y), ``s`` px: pick-up an open
+    triangle pointing up, set-down a filled one pointing down (the annex's symbols,
+    :func:`droprig.report.figures.lift_point_symbol`)."""
+    if kind == "pick_up":  # apex up (device y runs down)
+        tri = QPolygonF([QPointF(x - s, y + 0.8 * s), QPointF(x + s, y + 0.8 * s),
+                         QPointF(x, y - 1.1 * s)])
+        painter.setPen(cosmetic_pen("#FFFFFF", 4.0))
+        painter.setBrush(QColor("#FFFFFF"))
+        painter.drawPolygon(tri)
+        painter.setPen(cosmetic_pen("#1A1A1A", 2.0))
+        painter.drawPolygon(tri)
+    else:
+        tri = QPolygonF([QPointF(x - s, y - 0.8 * s), QPointF(x + s, y - 0.8 * s),
+                         QPointF(x, y + 1.1 * s)])
+        painter.setPen(cosmetic_pen("#FFFFFF", 2.0))
+        painter.setBrush(QColor("#1A1A1A"))
+        painter.drawPolygon(tri)
+
+
+class LiftPointsItem(PixelSized, QGraphicsItem):
+    """The lift plan's pick-up and set-down points with their tags (``P1``, ``S2``:
+    :func:`droprig.model.lift_point_tags`), the symbols of the annex's conditions plan
+    (:func:`droprig.report.figures.lift_point_symbol`): pick-up an open triangle
+    pointing up, set-down a filled triangle pointing down, told apart by shape and
+    fill. The window's verdict names points by tag when one lies in a bay a load must
+    not be carried over (:func:`droprig.permit.plan_clashes`); they were drawn only
+    in the annex, so the window named points it did not show (seen under Xvfb on the
+    rooftop demo). Fixed pixel size, z 8.8: above bays, pads, zones and their labels
+    (the rooftop demo's P1 and S2 sit under a pad's label)."""
+
+    margin_px = 60.0
+    SIZE_PX = 7.0
+
+    def __init__(self) -> None:
+        QGraphicsItem.__init__(self)
+        PixelSized.__init__(self)
+        self._points: list[tuple[str, str, QPointF]] = []
+        self._rect = QRectF()
+        self.setZValue(8.8)
+        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+
+    def set_zones(self, zones: Sequence[LiftZone]) -> None:
+        self.prepareGeometryChange()
+        several = len(zones) > 1
+        self._points = [(p.kind, f"{z.id} {tag}" if several else tag, to_scene(*p.at))
+                        for z in zones
+                        for tag, p in zip(lift_point_tags(z), z.lift_points, strict=True)]
+        r = QRectF()
+        for _, _, q in self._points:
+            r = r.united(QRectF(q.x() - 1e-3, q.y() - 1e-3, 2e-3, 2e-3))
+        self._rect = r
+        self.update()
+
+    @property
+    def tags(self) -> list[str]:
+        return [t for _, t, _ in self._points]
+
+    @property
+    def kinds(self) -> set[str]:
+        return {k for k, _, _ in self._points}
+
+    def boundingRect(self) -> QRectF:
+        return self._grow(self._rect)
+
+    def paint(self, painter: QPainter, option: QStyleOptionGraphicsItem,
+              widget: QWidget | None = None) -> None:
+        t = painter.worldTransform()
+        painter.save()
+        painter.resetTransform()
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        painter.setFont(pixel_font(10, True))
+        fm = painter.fontMetrics()
+        s = self.SIZE_PX
+        ink = QColor("#1A1A1A")
+        centres = [t.map(q) for _, _, q in self._points]
+        # every symbol's box is taken first; each tag then goes right, left, above or
+        # below its symbol, the first place clear of symbols and earlier tags (the
+        # rooftop demo's S2 tag sat on P1, 2 m away)
+        taken = [QRectF(c.x() - s - 2, c.y() - 1.1 * s - 2, 2 * s + 4, 1.9 * s + 4)
+                 for c in centres]
+        for (kind, tag, _), c in zip(self._points, centres, strict=True):
+            x, y = c.x(), c.y()
+            paint_lift_point(painter, kind, x, y, s)
+            w = fm.horizontalAdvance(tag) + 6
+            options = [QRectF(x + s + 2, y - 7, w, 14), QRectF(x - s - 2 - w, y - 7, w, 14),
+                       QRectF(x - w / 2, y - 1.1 * s - 17, w, 14),
+                       QRectF(x - w / 2, y + 1.1 * s + 3, w, 14)]
+            own = QRectF(x - s - 2, y - 1.1 * s - 2, 2 * s + 4, 1.9 * s + 4)
+            plate = next((o for o in options
+                          if not any(o.intersects(r) for r in taken if r != own)),
+                         options[0])
+            taken.append(plate)
+            painter.setPen(cosmetic_pen("#1A1A1A", 1.0))
+            painter.setBrush(QColor(255, 255, 255, 235))
+            painter.drawRect(plate)
+            painter.setPen(ink)
+            painter.drawText(plate, Qt.AlignmentFlag.AlignCenter, tag)
         painter.restore()
 
 

@@ -77,6 +77,7 @@ from droprig.gui.plan_items import (
     BayState,
     FramingItem,
     HandleItem,
+    LiftPointsItem,
     OpeningsItem,
     ProtectionItem,
     TagItem,
@@ -90,6 +91,7 @@ from droprig.gui.plan_items import (
     from_scene,
     handle_positions,
     keep_inside,
+    paint_lift_point,
     paint_scabbing_mark,
     pixel_font,
     raster_transform,
@@ -313,6 +315,7 @@ class PlanView(QGraphicsView):
         self._zones_item = ZonesItem()
         self._cranes_item = ZonesItem("crane")
         self._protection_labels = ProtectionItem("label")
+        self._lift_points_item = LiftPointsItem()
         self._overlay_item = QGraphicsPixmapItem()
         self._overlay_item.setZValue(1)
         self._overlay_item.setOpacity(0.9)
@@ -359,8 +362,8 @@ class PlanView(QGraphicsView):
         for item in (self._bays_item, self._overlay_item, self._openings_item,
                      self._framing_item, self._protection_item, self._zones_item,
                      self._labels_item, self._cranes_item, self._protection_labels,
-                     self._selection_item, self._hover_item, self._member_item,
-                     self._band_item,
+                     self._lift_points_item, self._selection_item, self._hover_item,
+                     self._member_item, self._band_item,
                      self._drag_label, *self._handles.values()):
             self._scene.addItem(item)
         # bay tags and mat names keep clear of the handles and the crane symbols and
@@ -511,6 +514,7 @@ class PlanView(QGraphicsView):
         for zitem in (self._zones_item, self._cranes_item):
             zitem.margin_of = lambda z, e=elevation: shown_drift_margin(z, e)
             zitem.set_zones(zones)
+        self._lift_points_item.set_zones(zones)
         if self._selected_zone and not self._zone(self._selected_zone):
             self._selected_zone = None
         if self._mode == "draw_corridor" and self._selected_zone != self._corridor_zone:
@@ -770,7 +774,7 @@ class PlanView(QGraphicsView):
         px = 1.0 / max(self.pixels_per_metre(), 1e-9)
         for item in (self._bays_item, self._labels_item, self._framing_item,
                      self._openings_item, self._protection_item, self._zones_item,
-                     self._cranes_item, self._protection_labels):
+                     self._cranes_item, self._protection_labels, self._lift_points_item):
             item.set_pixel_size(px)
         self.viewport().update()
 
@@ -1889,6 +1893,8 @@ class PlanView(QGraphicsView):
             rows.append(("sym", "protection"))
         if self._openings_item.count:
             rows.append(("sym", "opening"))
+        rows += [("sym", k) for k in ("pick_up", "set_down")
+                 if k in self._lift_points_item.kinds]
         if any(st.scabbing for st in self._bays_item.states):
             rows.append(("sym", "scabbing"))
         return rows
@@ -2043,6 +2049,9 @@ class PlanView(QGraphicsView):
             p.setBrush(Qt.BrushStyle.NoBrush)
             p.drawRect(box)
             label = "Deck opening"
+        elif kind in ("pick_up", "set_down"):
+            paint_lift_point(p, kind, a.x() + 13, a.y(), 5.0)
+            label = "Pick-up point" if kind == "pick_up" else "Set-down point"
         elif kind == "scabbing":
             from droprig.outcomes import SCABBING
 
