@@ -56,6 +56,7 @@ __all__ = [
     "CLASH_ADVICE",
     "CONDITION_KINDS",
     "HOOK_KEEP_OFF",
+    "LIMIT_NOTE",
     "NOT_CHECKED",
     "VERDICTS",
     "VERDICT_WORDS",
@@ -66,6 +67,7 @@ __all__ = [
     "PermitConditions",
     "PlanClash",
     "Verdict",
+    "clash_sentences",
     "derive_conditions",
     "fmt_elevation",
     "fmt_height",
@@ -146,6 +148,16 @@ def fmt_height(value: float | None, system: UnitSystem = "SI", *,
     rounded down by default (a limit)."""
     return units.fmt_sig(value, "length", system, sig=SIG_HEIGHT, rounding=rounding)
 
+
+LIMIT_NOTE = ("A hook or drop-height limit is 90 % of the least height the analysis "
+              "allows for it over the bays it covers (elastic; beyond yield where the "
+              "condition says members may yield; or where local damage starts): a margin "
+              "for the places between the drop points analysed, about 5 % of force. So "
+              "an elastic limit reads below the allowable height beside it.")
+assert abs(LIMIT_MARGIN - 0.9) < 1e-12, "LIMIT_NOTE states the margin in words"
+"""Why a printed limit is below the allowable height beside it (the inspector showed
+an allowable 0.117 m beside a condition of 0.105 m without saying why; common
+practice, no source: :data:`droprig.solver.results.LIMIT_MARGIN`)."""
 
 HOOK_KEEP_OFF = "keep load off"
 """The hook-elevation cell of a bay the load must not be carried over: no elevation
@@ -432,6 +444,31 @@ class PlanClash:
         return (f"{what} point {name} of lift zone {self.zone_id} lies in bay "
                 f"{self.bay_id} of level {self.level_id}, which {self.load_name} must "
                 "not be carried over")
+
+
+def clash_sentences(clashes: Iterable[PlanClash],
+                    cond_no: dict[tuple[str, str, str], int] | None = None) -> list[str]:
+    """The plan clashes in words, one sentence per bay: its points and the loads that
+    must not be carried over it (with the number of each load's exclusion condition
+    as printed, ``cond_no[(zone, load, bay)]``, where given). Four clashes of the
+    rooftop demo read as one sentence, not four."""
+    groups: dict[tuple[str, str, str], tuple[list[str], list[str]]] = {}
+    for c in clashes:
+        pts, lds = groups.setdefault((c.zone_id, c.level_id, c.bay_id), ([], []))
+        what = "pick-up" if c.kind == "pick_up" else "set-down"
+        pt = f"{what} point {c.tag}" + (f" ({c.label})" if c.label else "")
+        n = (cond_no or {}).get((c.zone_id, c.load_name, c.bay_id))
+        ld = c.load_name + (f" (C{n})" if n is not None else "")
+        if pt not in pts:
+            pts.append(pt)
+        if ld not in lds:
+            lds.append(ld)
+    out = []
+    for (zone_id, level_id, bay_id), (pts, lds) in groups.items():
+        verb = "lies" if len(pts) == 1 else "lie"
+        out.append(f"{_join(pts)} of lift zone {zone_id} {verb} in bay {bay_id} of level "
+                   f"{level_id}, which {_join(lds)} must not be carried over")
+    return out
 
 
 CLASH_ADVICE = ("The lift as planned cannot keep the conditions: move the point, protect "

@@ -217,5 +217,7 @@ def test_json_and_table_name_the_plan_clashes() -> None:
                    ("S2", "set_down", "2-3/A-B", "AHU-3 (old, drained)")}
     text = table_text(project, results)
     assert "Permit verdict: NOT ACCEPTABLE\nThe lift plan and the conditions disagree:" in text
-    assert "set-down point S2 (new unit onto the plinth) of lift zone MC1 lies in bay " \
-        "2-3/A-B of level RF, which AHU-3 (new) must not be carried over" in text
+    # one sentence per bay (permit.clash_sentences)
+    assert "pick-up point P1 (old AHU-3 on the plinth) and set-down point S2 (new unit " \
+        "onto the plinth) of lift zone MC1 lie in bay 2-3/A-B of level RF, which AHU-3 " \
+        "(new) and AHU-3 (old, drained) must not be carried over" in text

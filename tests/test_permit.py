@@ -631,3 +631,22 @@ def test_excluded_bay_hook_cell_never_reads_as_open() -> None:
             assert hook == HOOK_KEEP_OFF
         else:
             assert hook.endswith(" m"), hook
+
+
+def test_limit_note_says_why_a_limit_is_below_the_allowable_height() -> None:
+    """Every surface that prints a hook or height limit beside an allowable height says
+    the limit is 90 % of it (the inspector showed an allowable 0.117 m beside a
+    condition of 0.105 m without a word; common practice, no source)."""
+    from droprig.commands.analyse import table_text
+    from droprig.permit import LIMIT_NOTE
+
+    assert LIMIT_MARGIN == pytest.approx(0.9) and "90 %" in LIMIT_NOTE
+    project = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    results = analyse(project)
+    pc = derive_conditions(project, results)
+    caps = [c for c in pc.conditions if c.kind == "cap_hook"]
+    assert caps
+    bv = pc.bay("MC1", "AHU-3 (new)", "1-2/A-B")
+    cap = min(c.max_drop_height for c in bv.conditions if c.kind == "cap_hook")
+    assert cap == pytest.approx(LIMIT_MARGIN * bv.allowable_drop_height, rel=1e-9)
+    assert LIMIT_NOTE in table_text(project, results)

@@ -249,7 +249,7 @@ def bays_csv_text(project: Any, results: Any, permit: Any = None) -> str:
 
 def table_text(project: Any, results: Any, permit: Any = None) -> str:
     """Readable per-bay table in the project's unit system, then the permit."""
-    from droprig.permit import CLASH_ADVICE, derive_conditions
+    from droprig.permit import CLASH_ADVICE, LIMIT_NOTE, clash_sentences, derive_conditions
     from droprig.units import fmt
 
     system = project.settings.unit_system
@@ -279,13 +279,15 @@ def table_text(project: Any, results: Any, permit: Any = None) -> str:
     out.append(f"Permit verdict: {permit.verdict_words.upper()}")
     if permit.clashes:
         out.append("The lift plan and the conditions disagree:")
-        for c in permit.clashes:
-            out.append(f"  - {c.sentence()}")
+        for sentence in clash_sentences(permit.clashes):
+            out.append(f"  - {sentence}")
         out.append(f"  {CLASH_ADVICE}")
     if permit.conditions:
         out.append("Conditions:")
         for i, sentence in enumerate(permit.sentences(system), 1):
             out.append(f"  {i}. {sentence}")
+        if any(c.kind == "cap_hook" for c in permit.conditions):
+            out.append(f"  ({LIMIT_NOTE})")
     out.append("Not checked (separate sign-off):")
     for item in permit.not_checked:
         out.append(f"  - {item}")

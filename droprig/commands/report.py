@@ -88,8 +88,10 @@ def run(args: argparse.Namespace) -> int:
     for note in notes:  # an older format converted: what changed in meaning
         print(f"note: {note}")
     print(f"overall verdict: {VERDICT_WORDS[permit.verdict].upper()}")  # type: ignore[attr-defined]
-    for clash in permit.clashes:  # type: ignore[attr-defined]
-        print(f"  the lift plan and the conditions disagree: {clash.sentence()}")
+    from droprig.permit import clash_sentences
+
+    for sentence in clash_sentences(permit.clashes):  # type: ignore[attr-defined]
+        print(f"  the lift plan and the conditions disagree: {sentence}")
     verdicts = content.zone_verdicts(project, results, zones)
     for zv in verdicts:
         zs = content.OUTCOMES.get(zv.response, content.OUTCOMES[content.NOT_ASSESSED])

@@ -62,7 +62,7 @@ from droprig.model import (
     lift_point_tags,
 )
 from droprig.outcomes import fmt_utilisation_check, fmt_worst_point
-from droprig.permit import derive_conditions
+from droprig.permit import LIMIT_NOTE, derive_conditions
 
 # ------------------------------------------------------------------ messages
 
@@ -1197,6 +1197,10 @@ class Inspector(QWidget):
                     html += (f"<br><b>{html_escape(cells['verdict'])}</b>; max hook "
                              f"elevation: {html_escape(cells['hook'])}<br>"
                              f"<i>{html_escape(cells['conditions'])}</i>")
+                    if v is not None and any(c.kind == "cap_hook" for c in v.conditions):
+                        # why the limit reads below the allowable drop beside it
+                        html += (f"<br><span style='color:#555'>"
+                                 f"{html_escape(LIMIT_NOTE)}</span>")
                 elif not confirmed:
                     html += f"<br><i>Verdict, limits and conditions: {style.CONFIRMING}</i>"
                 html += "</p>"

@@ -40,8 +40,10 @@ from droprig.model import Project
 from droprig.outcomes import fmt_utilisation_check, fmt_worst_point
 from droprig.permit import (
     CLASH_ADVICE,
+    LIMIT_NOTE,
     BayVerdict,
     PermitConditions,
+    clash_sentences,
     derive_conditions,
     fmt_height,
 )
@@ -84,8 +86,9 @@ _TIPS = {
     "allow": "Greatest drop height (load underside above the finished surface) that keeps "
              "every point of the bay elastic, with the check that sets it; where a pad "
              "lies at that point, the fall onto the pad",
-    "hook": "Hook elevation that puts the load's underside at the allowable drop height "
-            "(level elevation + hang length + allowable height)",
+    "hook": "Highest hook elevation over the bay: the hook limit of its conditions, else "
+            "level elevation + hang length + 90 % of the allowable drop height. "
+            + LIMIT_NOTE,
     "planned": "Drop height as planned: the load's underside above the finished surface",
     "verdict": "Acceptable; acceptable with the permit conditions; not acceptable (keep the "
                "load off the bay). Defer to local codes, the appointed lifting person and a "
@@ -629,7 +632,7 @@ class ResultsTable(QWidget):
         # the caution stands in the window's status bar beside every verdict; here
         # on hover, after what the rows are
         disagree = ("The lift plan and the conditions disagree:\n"
-                    + "\n".join(f"- {c.sentence()}" for c in clashes)
+                    + "\n".join(f"- {t}" for t in clash_sentences(clashes))
                     + f"\n{CLASH_ADVICE}\n\n") if clashes else ""
         self.summary.setToolTip(disagree + "One row per bay and load (the worst drop point "
                                 "of the bay for that load); the count of rows by outcome."

@@ -49,7 +49,13 @@ from droprig.model import (
     id_ranges,
 )
 from droprig.outcomes import NOT_ASSESSED, ORDER, OUTCOMES, fmt_worst_point
-from droprig.permit import CLASH_ADVICE, ENERGY_ONLY, derive_conditions, pad_words
+from droprig.permit import (
+    CLASH_ADVICE,
+    ENERGY_ONLY,
+    LIMIT_NOTE,
+    derive_conditions,
+    pad_words,
+)
 from droprig.permit import VERDICT_WORDS as _PERMIT_WORDS
 from droprig.report import content, fonts, permit_fields, references
 from droprig.report.formula import SIG, evaluate, fmt_sig, printed_tolerance
@@ -893,6 +899,9 @@ class _Builder:
                 st.cell))
         self.story.append(Spacer(1, 3))
         self.story.append(self.P(esc(_caution()), st.caution))
+        if any(getattr(c, "kind", "") == "cap_hook" for c in self.conditions):
+            # after the caution: that must stay on page 1
+            self.story.append(self.P(esc(LIMIT_NOTE), st.cell))
         self.story.append(KeepTogether(self.signoff()))
 
     def _range_example(self) -> str:

@@ -123,20 +123,25 @@ def not_recorded(project: Project, zones: Sequence[LiftZone]) -> list[str]:
 def points_in_exclusions(clashes: Sequence[object],
                          conditions: Sequence[object]) -> list[str]:
     """The permit's plan clashes (:func:`droprig.permit.plan_clashes`: pick-up or
-    set-down points in a bay a load must not be carried over) in words, each with the
-    number of the ``exclude_area`` condition it meets as printed (``conditions``
-    numbered from 1: C1, C2 …; a condition with no bays covers the whole zone)."""
-    out = []
+    set-down points in a bay a load must not be carried over) in words, one sentence
+    per bay (:func:`droprig.permit.clash_sentences`), each load with the number of
+    the ``exclude_area`` condition it meets as printed (``conditions`` numbered from
+    1: C1, C2 …; a condition with no bays covers the whole zone)."""
+    from droprig.permit import clash_sentences
+
+    numbers: dict[tuple[str, str, str], int] = {}
     for c in clashes:
+        key = (getattr(c, "zone_id", ""), getattr(c, "load_name", ""),
+               getattr(c, "bay_id", ""))
         n = next((k for k, cond in enumerate(conditions, start=1)
                   if getattr(cond, "kind", "") == "exclude_area"
-                  and getattr(cond, "zone_id", None) == getattr(c, "zone_id", "")
-                  and getattr(cond, "load_name", None) in (None, getattr(c, "load_name", ""))
-                  and (not getattr(cond, "bays", ()) or getattr(c, "bay_id", "")
-                       in getattr(cond, "bays", ()))), None)
-        text = c.sentence()  # type: ignore[attr-defined]
-        out.append(f"{text} (C{n})" if n is not None else text)
-    return out
+                  and getattr(cond, "zone_id", None) == key[0]
+                  and getattr(cond, "load_name", None) in (None, key[1])
+                  and (not getattr(cond, "bays", ()) or key[2] in getattr(cond, "bays", ()))),
+                 None)
+        if n is not None:
+            numbers[key] = n
+    return clash_sentences(clashes, numbers)  # type: ignore[arg-type]
 
 
 WINDOW_MARGIN = _dt.timedelta(hours=14)

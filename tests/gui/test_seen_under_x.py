@@ -50,7 +50,7 @@ def test_opening_a_project_keeps_the_window_on_a_1280_screen(qtbot, window) -> N
     # the demo's plan picks up and sets down in a bay the units must be kept off
     # (droprig.permit.plan_clashes): the verdict says so, with the points
     assert s.isVisible() and "Not acceptable</b> (P1, S2 in excluded bays)" in s.text()
-    assert "set-down point S2 (new unit onto the plinth) of lift zone MC1 lies in bay " \
+    assert "set-down point S2 (new unit onto the plinth) of lift zone MC1 lie in bay " \
         "2-3/A-B" in s.toolTip()
     # the whole summary is on show (wrapped, not cut)
     assert s.heightForWidth(s.width()) <= s.height() + 1, (s.width(), s.height())
