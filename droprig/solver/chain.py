@@ -1315,14 +1315,18 @@ def _energy_demands(c: Chain) -> Demands:
     return next(r for r in c.history if isinstance(r, Demands))
 
 
-def _utilisation(dem: Demands, factor: dict[str, np.ndarray], F: np.ndarray) -> np.ndarray:
+def _utilisation(dem: Demands, factor: dict[str, np.ndarray], F: np.ndarray,
+                 contact_scale: np.ndarray | float = 1.0) -> np.ndarray:
     """Largest U of every check family of ``dem`` at its amplified force (the
-    connection check, end shear, at the shear factor)."""
+    connection check, end shear, at the shear factor); the deck's (contact) families
+    at ``contact_scale`` × that force (dimensionless: their F_deck/F at the force's
+    height over the one step 5 scaled them to, :func:`amplified_utilisation_at`)."""
     U = np.zeros(F.shape)
     for name, chk in dem.checks.items():
         A = factor.get(name, factor["shear"])
+        Fx = A * F * contact_scale if name in CONTACT_CHECKS else A * F
         with np.errstate(invalid="ignore"):
-            U = np.fmax(U, chk.U_at(A * F))
+            U = np.fmax(U, chk.U_at(Fx))
     return U
 
 
@@ -3021,7 +3025,12 @@ def amplified_utilisation_at(c: Chain, h: np.ndarray) -> np.ndarray:
     in the forward run whichever points it runs."""
     imp = impact_at(c, h)
     amp = amplification_at(c, h, imp, th_points=np.zeros(c.drop.n, dtype=bool))
-    return _utilisation(_energy_demands(c), amp.factor, imp.F)
+    # step 5 scaled the deck's families to the planned height's F_deck/F (on_contact);
+    # at h the ratio is the impact's at h (as two_force_utilisation_at undoes it):
+    # with the planned ratio a random floor's deck flexure read U 1.001 at a fall
+    # whose forward run reads 0.770, so no height was found there
+    scale = imp.deck_ratio / c[Impact].deck_ratio
+    return _utilisation(_energy_demands(c), amp.factor, imp.F, scale)
 
 
 def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:

@@ -188,3 +188,40 @@ def test_each_family_amplifies_the_force_it_reads(monkeypatch, two_forces: bool)
             U_ref = c0[Demands].checks[name].U_at(A_deck * imp.F)
             np.testing.assert_allclose(c1[Demands].checks[name].U[ok], U_ref[ok], rtol=REL)
     assert saw_two == two_forces
+
+
+def test_forward_run_of_the_bounds_at_another_height_reads_the_deck_at_its_own_force(
+        ) -> None:
+    """chain.amplified_utilisation_at (the height confirmation's forward run of the
+    bounds) at a fall h other than the planned one must read what the chain run at h
+    reads: step 5 scaled the deck's (contact) families to the planned height's
+    F_deck/F, which changes with h (two forces per point). A random floor (seed 13 of
+    tests/permit_projects.py, invented) at a point whose deck flexure governs: with
+    the planned ratio it read U 1.001 at falls where the chain reads 0.43-0.77, so the
+    confirmation found no height (NaN) and the bay was excluded although a hook limit
+    holds (the closed loop of tests/test_permit.py with amplification on). Each check
+    is linear in its force (U = |F·u + E|/R), so the two must agree to rounding."""
+    from droprig.solver import chain, floor, geometry
+    from tests.permit_projects import random_project
+
+    p = random_project(13)
+    p = replace(p, settings=replace(p.settings, dynamic_amplification=True))
+    zone = p.lift_zones[0]
+    load = zone.loads[0]
+    fm = floor.floor_cache(p)(zone.level_id)
+    geo = geometry.point_geometry(fm, p, np.array([2.0]), np.array([0.25]))
+    planned = evaluate_chain(fm, p, load, geo, v_hoist=zone.hoist_speed)
+    for H in (0.03, 0.138, 0.3):
+        at_h = evaluate_chain(fm, p, replace(load, drop_height=H), geo,
+                              v_hoist=zone.hoist_speed)
+        h = at_h[LoadInputs].h
+        assert planned[Impact].deck_ratio[0] != pytest.approx(at_h[Impact].deck_ratio[0])
+        U_fn = chain.amplified_utilisation_at(planned, h)
+        U_fw = np.max([c.U for c in at_h[Demands].checks.values()], axis=0)
+        np.testing.assert_allclose(U_fn, U_fw, rtol=1e-9)
+    # the elastic height is found, and the chain run at it holds
+    h_el = planned[chain.InverseAnswers].h_el
+    assert np.isfinite(h_el[0]) and h_el[0] > 0.0
+    at = evaluate_chain(fm, p, replace(load, drop_height=float(h_el[0])), geo,
+                        v_hoist=zone.hoist_speed)
+    assert float(at[chain.Checks].U[0]) <= 1.0 + 1e-9
