@@ -75,9 +75,13 @@ def test_on_checks_use_the_amplified_force() -> None:
         # keyed on the struck member's condition and position band where its own
         # bending is at least half the members' (pointhistory.struck_member picks
         # the same member), the envelope of every condition and band elsewhere
-        m_path = np.where(np.isfinite(c1.drop.geo.path.m_e), c1.drop.geo.path.m_e, 0.0)
-        f_b = np.where(inp.crushable, comp.f_struct, comp.f)
+        # the path's Rayleigh mass with its shape scaled to 1 at the struck point, as
+        # the tables were calibrated (beam.rayleigh_mass_factor): mₑ·(w_ref/f)²
         path = c1.drop.geo.path
+        with np.errstate(divide="ignore", invalid="ignore"):
+            m_path = path.m_e * (path.w_ref / path.f) ** 2
+        m_path = np.where(np.isfinite(m_path) & (m_path > 0.0), m_path, 0.0)
+        f_b = np.where(inp.crushable, comp.f_struct, comp.f)
         s = pointhistory.struck_member(c1, np.arange(c1.drop.n))
         k = np.where(path.share[:, 0] >= path.share[:, 1], 0, 1)
         rows = np.arange(c1.drop.n)
