@@ -1315,14 +1315,18 @@ def _energy_demands(c: Chain) -> Demands:
     return next(r for r in c.history if isinstance(r, Demands))
 
 
-def _utilisation(dem: Demands, factor: dict[str, np.ndarray], F: np.ndarray) -> np.ndarray:
+def _utilisation(dem: Demands, factor: dict[str, np.ndarray], F: np.ndarray,
+                 contact_scale: np.ndarray | float = 1.0) -> np.ndarray:
     """Largest U of every check family of ``dem`` at its amplified force (the
-    connection check, end shear, at the shear factor)."""
+    connection check, end shear, at the shear factor); the deck's (contact) families
+    at ``contact_scale`` × that force (dimensionless: their F_deck/F at the force's
+    height over the one step 5 scaled them to, :func:`amplified_utilisation_at`)."""
     U = np.zeros(F.shape)
     for name, chk in dem.checks.items():
         A = factor.get(name, factor["shear"])
+        Fx = A * F * contact_scale if name in CONTACT_CHECKS else A * F
         with np.errstate(invalid="ignore"):
-            U = np.fmax(U, chk.U_at(A * F))
+            U = np.fmax(U, chk.U_at(Fx))
     return U
 
 
@@ -1411,8 +1415,7 @@ def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
     # position band where its own bending is most of the framing's compliance (the
     # envelope over every condition and band elsewhere: over a girder or a column
     # the member struck is not the one that moves)
-    m_path = d.geo.path.m_e
-    m_path = np.where(np.isfinite(m_path) & (m_path > 0.0), m_path, 0.0)
+    m_path = table_mass(d.geo.path.m_e, d.geo.path.w_ref, d.geo.path.f)
     f_contact = f_beyond - comp.f_s
     key = struck_member_table(c)
     own = key["own"] * (comp.f_s - comp.f_col) >= 0.5 * comp.f_s  # members' bending
@@ -1421,7 +1424,8 @@ def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
                               struck_mass=sm.m_e > 0.0, cond=cond, xi=key["xi"])
     rigid = amp_mod.contact_force_bound(inp.W, h, f_contact)
     # the tables multiply the energy method's elastic (uncapped) force, as calibrated
-    # (the chain's struck-mass share)
+    # (the chain's struck-mass share: its mass, normalised by w_ref, is at most the
+    # tables' mass, so this force is at least the calibration's energy method's)
     _, F_ref, _ = impact_mod.impact_elastic(inp.W, h, f_beyond, sm.eta)
     # the crushing cap — the layer's, or the deck concrete's — and its stroke
     F_cap = np.where(crushable, inp.F_c, imp.F_crush)
@@ -1440,6 +1444,31 @@ def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
                                       F_energy=F_energy)
     return _Bounds(a=a, rigid=rigid, F_cap=F_cap, holds=holds, F_energy=F_energy,
                    forces=forces)
+
+
+def table_mass(m_e: np.ndarray, w_ref: np.ndarray, f: np.ndarray) -> np.ndarray:
+    """The path's Rayleigh mass with its shape scaled to 1 at the struck point, kg:
+    mₑ·(w_ref/f)², the mass r = M/mₑ of the amplification tables is taken with.
+
+    The load path's Rayleigh mass ``m_e`` (kg) is normalised by w_ref (m/N), the
+    larger of the struck point's deflection f (m/N) and the largest along the path
+    (:mod:`droprig.solver.loadpath`: never larger than the published form, for the
+    energy balance); the tables were calibrated with the member's Rayleigh mass
+    β(a)·μ·L, its static shape scaled to 1 at the struck point
+    (:func:`droprig.solver.beam.rayleigh_mass_factor`, Timoshenko, *Strength of
+    Materials* Part I; ``scripts/calibrate_amplification.py``). Kinetic energy
+    ½·mₑ·ẇ_ref² = ½·m·ẇ(p)² gives m = mₑ·(w_ref/f)². With the mass normalised by
+    w_ref, r read up to (w_ref/f)² too high wherever the struck point is not where
+    the path moves most (near a support, a cantilever struck inboard, over a girder
+    line): a cell of heavier loads, whose factors are lower (a cantilever IPE 300
+    struck at 0.54 L read r 1.20 in place of 0.23; on random single members, the
+    table's demand read that way fell below the time history: contact force up to
+    1.48 ×, moment 1.21 ×, deflection 1.59 ×, read at this mass never —
+    tests/solver/test_amplification_keying.py). 0 where the mass or f is not
+    positive and finite (no moving mass: the energy method is exact, factor 1)."""
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        m = m_e * np.square(np.where(f > 0.0, w_ref / f, np.nan))
+    return np.where(np.isfinite(m) & (m > 0.0), m, 0.0)
 
 
 def _bound_factors(imp: Impact, forces: amp_mod.AmplifiedForces) -> dict[str, np.ndarray]:
@@ -3021,7 +3050,12 @@ def amplified_utilisation_at(c: Chain, h: np.ndarray) -> np.ndarray:
     in the forward run whichever points it runs."""
     imp = impact_at(c, h)
     amp = amplification_at(c, h, imp, th_points=np.zeros(c.drop.n, dtype=bool))
-    return _utilisation(_energy_demands(c), amp.factor, imp.F)
+    # step 5 scaled the deck's families to the planned height's F_deck/F (on_contact);
+    # at h the ratio is the impact's at h (as two_force_utilisation_at undoes it):
+    # with the planned ratio a random floor's deck flexure read U 1.001 at a fall
+    # whose forward run reads 0.770, so no height was found there
+    scale = imp.deck_ratio / c[Impact].deck_ratio
+    return _utilisation(_energy_demands(c), amp.factor, imp.F, scale)
 
 
 def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
