@@ -32,7 +32,10 @@ def test_step_back_follows_the_worst_u():
     # Gere §9.10: with h ≫ δ_st, F = W·(1 + √(1 + 2h/(W·f))) ≈ √(2·M·g·h/f), so the
     # force at the stepped-back mass is at most F_allow (a = ½ exactly here)
     f, h, m = 1e-8, 4.8, 19.7
-    F = (lambda M: M * G * (1.0 + math.sqrt(1.0 + 2.0 * h / (M * G * f))))
+
+    def F(M: float) -> float:
+        return M * G * (1.0 + math.sqrt(1.0 + 2.0 * h / (M * G * f)))
+
     F_allow = F(m) / 1.04
     assert F(_mass_step_back(m, np.array([1.04]))) <= F_allow
 

@@ -25,8 +25,15 @@ import pytest
 
 from droprig.io.project_file import load_project
 from droprig.solver import analysis
-from droprig.solver.chain import (Checks, Compliance, Impact, LoadInputs, StruckMass,
-                                  energy_fall, framing_while_crushing)
+from droprig.solver.chain import (
+    Checks,
+    Compliance,
+    Impact,
+    LoadInputs,
+    StruckMass,
+    energy_fall,
+    framing_while_crushing,
+)
 from droprig.solver.evaluate import evaluate_chain
 from droprig.solver.impact import G, crush_duration, framing_under_crush, impact_crushable
 from tests.solver.test_after_bottoming import _history
