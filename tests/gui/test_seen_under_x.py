@@ -47,7 +47,9 @@ def test_opening_a_project_keeps_the_window_on_a_1280_screen(qtbot, window) -> N
     # how much the whole window then grew): it must not
     assert s.minimumSizeHint().width() <= 400, s.minimumSizeHint().width()
     assert window.width() <= 1280, window.width()
-    assert s.isVisible() and "Acceptable with conditions" in s.text()
+    # (the rooftop demo reads not acceptable: its units are kept off the roof,
+    # tests/test_permit.py::test_rooftop_demo_keeps_the_units_off_the_roof)
+    assert s.isVisible() and "Not acceptable" in s.text()
     # the whole summary is on show (wrapped, not cut)
     assert s.heightForWidth(s.width()) <= s.height() + 1, (s.width(), s.height())
 
