@@ -195,7 +195,7 @@ def crush_duration(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, m2: ArrayLike,
             t = np.where(past, t_half, t + step)
             past = past | (live & (t >= t_half))
             t = np.where(past, t_half, t)
-            live = live & ~past & (np.abs(step) > 1e-15 * np.maximum(t, 1e-300))
+            live = live & ~past & (np.abs(step) > 1e-13 * np.maximum(t, 1e-300))
     t = np.where(a > 0.0, t, np.inf)
     return np.where(v0 > 0.0, t, 0.0)
 
