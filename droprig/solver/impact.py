@@ -223,8 +223,9 @@ def framing_under_crush(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, m2: ArrayLi
     force the layer passes lies in 0…F_c, and the Duhamel integral of such a force
     on a linear oscillator at rest never exceeds 2·F_c/k2, Clough & Penzien ch. 4 —
     from memory). Checked against a scipy time history of load – layer – contact
-    spring – floor mass – framing (tests/solver/test_layer_framing.py: 1.00–1.14 ×
-    its framing peak on random systems, short and long crushes). M, m2 in kg, v0 in
+    spring – floor mass – framing (tests/solver/test_layer_framing.py: 1.00–1.01 ×
+    its framing peak on random systems, short and long crushes; up to 1.14 × where
+    a heavy load on a light floor presses the layer again after the crush). M, m2 in kg, v0 in
     m/s, F_c in N, k2 in N/m."""
     M, v0, F_c, m2, k2 = np.broadcast_arrays(*(np.asarray(v, float)
                                                for v in (M, v0, F_c, m2, k2)))
