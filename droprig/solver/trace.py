@@ -45,6 +45,7 @@ from droprig.solver.evaluate import governing_landing_chain, point_case
 from droprig.solver.floor import FloorModel
 from droprig.solver.footprint import EDGE_CONTACT_WIDTH
 from droprig.solver.geometry import Geometry
+from droprig.solver.impact import G, crush_duration
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, LIMIT_MARGIN, RESPONSES, Trace, TraceStep
 
@@ -269,7 +270,12 @@ def _impact_steps(sheet: _Sheet) -> None:
     # a crushable layer that bottoms out: the rest by the two-mass stage
     after = (imp.searched is not None and bool(imp.searched[0]) and not two
              and bool(imp.bottomed[0]))
-    if after:
+    # ... that crushes and does not bottom out: the framing's response to the crush
+    crushing = (imp.searched is not None and bool(imp.searched[0]) and not two
+                and not after and float(imp.crush[0]) > 0.0)
+    if crushing:
+        _crushing_steps(sheet, W, h_e)
+    if after or crushing:
         add("Dynamic factor of the force on the framing", "K", "K = F / W",
             {"F": (imp.F[0], "force"), "W": (W, "force")}, imp.K[0], "dimensionless",
             _SRC_TWO_MASS)
@@ -297,15 +303,18 @@ def _impact_steps(sheet: _Sheet) -> None:
                                   np.array([s_c]), comp.f[:1])[0]),
             "length", "energy balance (common practice, no source); Biggs 1964 ch. 2 "
             "(dynamic load factor 2, from memory)")
-    add("Peak impact force" + (" on the framing" if two or after else ""),
+    add("Peak impact force" + (" on the framing" if two or after or crushing else ""),
         "F", "F = K·W" if imp.crush[0] == 0 else
         ("F = min(two-mass envelope at h_r (≤ 2·max(F_crush, F_1)) + 2·F_c, energy "
          "bound of h − (F_c/W − 1)·s_c), at least min(2·F_c, energy bound of h) "
          "(droprig.solver.chain.after_bottoming)" if after else
+         "F = max(F_c, min(F_pulse(t_c, T), energy bound of h)) "
+         "(droprig.solver.chain.framing_while_crushing)" if crushing else
          "F = crush force, or elastic after bottoming "
          "(droprig.solver.impact.impact_crushable)"),
         {"K": (imp.K[0], "dimensionless"), "W": (W, "force")},
-        imp.F[0], "force", _SRC_TWO_MASS if two or after else _SRC_GERE)
+        imp.F[0], "force", _SRC_CRUSH if crushing else
+        _SRC_TWO_MASS if two or after else _SRC_GERE)
     add("Crushing force of the deck concrete under the footprint (bound on the contact "
         "force)", "F_crush", "F_crush = DIF·f_cm·√(A_c1/A_c0)·A_c0 ≤ 3·DIF·f_cm·A_c0",
         {"A_c0": (inp.foot_l[0] * inp.foot_w[0], "area"),
@@ -339,6 +348,28 @@ def _deflection_steps(sheet: _Sheet, W: float, two: bool) -> None:
         else "a/g = F/W − 1",
         {("F_c" if two else "F"): (imp.contact[0], "force"), "W": (W, "force")},
         out["deceleration_g"][0], "dimensionless", "Newton's second law")
+
+
+_SRC_CRUSH = ("Biggs 1964 ch. 2, rectangular pulse (from memory); Clough & Penzien ch. 2 "
+              "(free vibration); droprig.solver.impact.framing_under_crush")
+
+
+def _crushing_steps(sheet: _Sheet, W: float, h_e: float) -> None:
+    """The crush's duration against the floor's period (a crushable layer that
+    crushes and does not bottom out; :func:`droprig.solver.impact.crush_duration`)."""
+    c, add = sheet.chain, sheet.add
+    inp, comp, sm = c[LoadInputs], c[Compliance], c[StruckMass]
+    assert sm.m2 is not None
+    M, F_c = W / G, float(inp.F_c[0])
+    m2, k2 = float(sm.m2[0]), 1.0 / float(comp.f_s[0])
+    v0 = math.sqrt(2.0 * G * max(h_e, 0.0))
+    T = 2.0 * math.pi * math.sqrt(m2 / k2)
+    add("Duration of the crush (until the load's speed is down to the floor's) over "
+        "the floor's period T = 2π·√(m2/k2); at most ½", "t_c/T",
+        "v0 − (F_c − W)/M·t_c = F_c/(m2·ω)·sin(ω·t_c), ω = 2π/T",
+        {"v0": (v0, "speed"), "F_c": (F_c, "force"), "W": (W, "force"),
+         "m2": (m2, "mass"), "k2": (k2, "stiffness")},
+        float(crush_duration(M, v0, F_c, m2, k2)) / T, "dimensionless", _SRC_CRUSH)
 
 
 _SRC_TWO_MASS = ("CEB Bulletin 187 (1988) two-mass model (from memory); Clough & "
@@ -509,6 +540,24 @@ def _elastic_height_steps(sheet: _Sheet) -> None:
         layer = bool(sheet.inp.crushable[0])
         Fc = float(sheet.inp.F_c[0]) if layer else float(imp.F_crush[0])
         sc = float(sheet.inp.s_c[0]) if layer else float(sheet.level.deck.cover)
+        h_cr = h_gere + (Fc - W) * sc / (float(sm.eta[0]) * W)
+        if layer and imp.searched is not None and bool(imp.searched[0]) and \
+                abs(inv.h_el[0] - h_cr) > 1e-9 * max(1.0, abs(h_cr)):
+            # the pad's points are searched on the forward impact through the pad
+            # (the framing while it crushes, or after it bottoms out)
+            add("Allowable free fall onto the pad: the largest fall at which the "
+                "forward impact through the pad (the framing's response while it "
+                "crushes, the two-mass stage after it bottoms out) keeps every check "
+                "within its resistance, found by search", "h_allow",
+                "max h: U(F_f(h), F_deck(h)) ≤ 1", {}, inv.h_el[0], "length",
+                "search on the forward chain (droprig.solver.chain.two_force_height)")
+            add("Allowable drop height above the finished surface (elastic)", "H_allow",
+                "H_allow = h_allow + t_mat",
+                {"h_allow": (inv.h_el[0], "length"),
+                 "t_mat": (sheet.inp.t_mat[0], "length")},
+                inv.h_el[0] + sheet.inp.t_mat[0], "length",
+                "datum of droprig (finished surface)")
+            return
         add("Allowable free fall with the crushing work "
             + ("of the pad" if layer else "of the deck concrete through its cover"),
             "h_cr", "h_cr = h_el + (F_c − W)·s/(η·W)",
