@@ -668,7 +668,7 @@ def test_limit_note_says_why_a_limit_is_below_the_allowable_height() -> None:
     pc = derive_conditions(project, results)
     caps = [c for c in pc.conditions if c.kind == "cap_hook"]
     assert caps
-    bv = pc.bay("MC1", "AHU-3 (new)", "1-2/A-B")
+    bv = pc.bay("MC1", "Spreader beam 4 m", "1-2/A-B")
     cap = min(c.max_drop_height for c in bv.conditions if c.kind == "cap_hook")
     assert cap == pytest.approx(LIMIT_MARGIN * bv.allowable_drop_height, rel=1e-9)
     assert LIMIT_NOTE in table_text(project, results)
