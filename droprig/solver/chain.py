@@ -2664,21 +2664,23 @@ class TwoForceKernel:
         p = self.pad[r]
         if not p.any():
             return out
-        Ff, F_deck, eta_f = (a.copy() for a in out)
+        # (the callers' arrays are their own, made for this call: written in place)
+        Ff, F_deck, eta_f = out
+        # the kernel rows on a layer, each array gathered once
+        ip = np.flatnonzero(p) if isinstance(r, slice) else r[p]
         Wp, hp, ep = W[p], he[p], eta[p]
-        f, F_c, s_c = self.f[r][p], self.F_c[r][p], self.s_c[r][p]
+        f, F_c, s_c = self.f[ip], self.F_c[ip], self.s_c[ip]
         F, _, bot = impact_mod.impact_crushable(Wp, hp, f, ep, F_c, s_c)
         Fd = F.copy()
         if bot.any():
-            rows_all = np.arange(self.W.size)[r]
+            ib = ip[bot]
             env = (None if mass else
-                   lambda hr: self.env.at(hr, rows_all[p][bot]))
+                   lambda hr: self.env.at(hr, ib))
             ab = after_bottoming(Wp[bot], hp[bot], F_c[bot], s_c[bot], f[bot],
-                                 self.f_series[r][p][bot], self.f_s[r][p][bot],
-                                 self.m2[r][p][bot], self.F_crush[r][p][bot], self.depth,
-                                 env)
+                                 self.f_series[ib], self.f_s[ib], self.m2[ib],
+                                 self.F_crush[ib], self.depth, env)
             F[bot] = ab.F_frame
-            Fd[bot] = np.where(self.soft[r][p][bot], ab.F_contact, ab.F_one)
+            Fd[bot] = np.where(self.soft[ib], ab.F_contact, ab.F_one)
         Ff[p], F_deck[p], eta_f[p] = F, Fd, ep
         return Ff, F_deck, eta_f
 
