@@ -2600,7 +2600,7 @@ class TwoForceKernel:
         (:meth:`_on_pads`), so a search's boundary often lies on it; NaN off a layer,
         where F_c ≤ W or at no positive fall. A trial height for the searches only:
         their answers rest on the forward runs, not on it."""
-        with np.errstate(divide="ignore", invalid="ignore"):
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
             he = (self.s_c * (self.F_c - self.W) - self.W * self.F_c * self.f
                   + 0.5 * self.F_c**2 * self.f) / (self.eta * self.W)
         h = he - self.head
@@ -2616,11 +2616,12 @@ class TwoForceKernel:
         load is not lighter than F_c/g. A trial mass for the search only."""
         he = h + self.head if self.head > 0.0 else h
         g = impact_mod.G
-        A = g * (self.s_c + self.F_c * self.f)
-        B = self.s_c * self.F_c + 0.5 * self.F_c**2 * self.f
-        a2 = g * he + A
-        b1 = self.m_e * A - B
-        with np.errstate(divide="ignore", invalid="ignore"):
+        # (off a layer F_c may be infinite: those rows are NaN below)
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            A = g * (self.s_c + self.F_c * self.f)
+            B = self.s_c * self.F_c + 0.5 * self.F_c**2 * self.f
+            a2 = g * he + A
+            b1 = self.m_e * A - B
             M = (-b1 + np.sqrt(b1**2 + 4.0 * a2 * self.m_e * B)) / (2.0 * a2)
         return np.where(self.pad & np.isfinite(M) & (M > 0.0) & (M * g < self.F_c), M,
                         np.nan)
