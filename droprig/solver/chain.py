@@ -2640,9 +2640,9 @@ def two_force_utilisation_at(c: Chain, h: np.ndarray,
     return U
 
 
-BISECTIONS = 40
-"""Rounds at most of :func:`two_force_height` after the bracket (each halves the
-bracket in √h at least every second round)."""
+BISECTIONS = 52
+"""Rounds at most of :func:`two_force_height` after the bracket (the bracket halves
+in √h at least every fourth round; :func:`_close_bracket` for the count)."""
 H_TOL = 1e-3
 """Width of :func:`two_force_height`'s final bracket, as a share of the height (the
 answer lies within it below the exact boundary)."""
@@ -2683,6 +2683,40 @@ class TwoForceKernel:
         # the points on a crushable layer (after_bottoming where it bottoms out)
         self.pad = pad_two_mass(c)[idx]
         self.F_c, self.s_c = inp.F_c[idx], inp.s_c[idx]
+
+    def bottoming_fall(self) -> np.ndarray:
+        """Per kernel row, the free fall (m) at which a crushable layer's crush depth
+        reaches its stroke (:func:`droprig.solver.impact.crush_depth` = s_c solved
+        for h: η·W·h_e = s_c·(F_c − W) − W·F_c·f + F_c²·f/2, h = h_e less the hoist's
+        head): there the force jumps from F_c to the stage after bottoming
+        (:meth:`_on_pads`), so a search's boundary often lies on it; NaN off a layer,
+        where F_c ≤ W or at no positive fall. A trial height for the searches only:
+        their answers rest on the forward runs, not on it."""
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            he = (self.s_c * (self.F_c - self.W) - self.W * self.F_c * self.f
+                  + 0.5 * self.F_c**2 * self.f) / (self.eta * self.W)
+        h = he - self.head
+        return np.where(self.pad & (self.F_c > self.W) & np.isfinite(h) & (h > 0.0), h,
+                        np.nan)
+
+    def bottoming_mass(self, h: np.ndarray) -> np.ndarray:
+        """Per kernel row, the load mass (kg) that bottoms out a crushable layer from
+        the free falls ``h`` (m): :meth:`bottoming_fall`'s balance with W = M·g and
+        η = M/(M + m_e) (as :meth:`forces_at_mass`), a quadratic in M:
+        M²·(g·h_e + A) + M·(m_e·A − B) − m_e·B = 0 with A = g·(s_c + F_c·f),
+        B = s_c·F_c + F_c²·f/2; its positive root. NaN off a layer or where that
+        load is not lighter than F_c/g. A trial mass for the search only."""
+        he = h + self.head if self.head > 0.0 else h
+        g = impact_mod.G
+        # (off a layer F_c may be infinite: those rows are NaN below)
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            A = g * (self.s_c + self.F_c * self.f)
+            B = self.s_c * self.F_c + 0.5 * self.F_c**2 * self.f
+            a2 = g * he + A
+            b1 = self.m_e * A - B
+            M = (-b1 + np.sqrt(b1**2 + 4.0 * a2 * self.m_e * B)) / (2.0 * a2)
+        return np.where(self.pad & np.isfinite(M) & (M > 0.0) & (M * g < self.F_c), M,
+                        np.nan)
 
     def forces(self, h: np.ndarray, rows: np.ndarray | None = None,
                need_eta: bool = True) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
@@ -2756,28 +2790,30 @@ class TwoForceKernel:
         p = self.pad[r]
         if not p.any():
             return out
-        Ff, F_deck, eta_f = (a.copy() for a in out)
+        # (the callers' arrays are their own, made for this call: written in place)
+        Ff, F_deck, eta_f = out
+        # the kernel rows on a layer, each array gathered once
+        ip = np.flatnonzero(p) if isinstance(r, slice) else r[p]
         Wp, hp, ep = W[p], he[p], eta[p]
-        f, F_c, s_c = self.f[r][p], self.F_c[r][p], self.s_c[r][p]
+        f, F_c, s_c = self.f[ip], self.F_c[ip], self.s_c[ip]
         F, dep, bot = impact_mod.impact_crushable(Wp, hp, f, ep, F_c, s_c)
         Fd = F.copy()
         crushing = ~bot & (dep > 0.0)
         if crushing.any():
             # as two_forces: the framing under the crushing layer
+            ic = ip[crushing]
             F[crushing] = framing_while_crushing(
                 Wp[crushing], hp[crushing], F_c[crushing],
-                self.f_series[r][p][crushing], self.f_s[r][p][crushing],
-                self.m2[r][p][crushing])
+                self.f_series[ic], self.f_s[ic], self.m2[ic])
         if bot.any():
-            rows_all = np.arange(self.W.size)[r]
+            ib = ip[bot]
             env = (None if mass else
-                   lambda hr: self.env.at(hr, rows_all[p][bot]))
+                   lambda hr: self.env.at(hr, ib))
             ab = after_bottoming(Wp[bot], hp[bot], F_c[bot], s_c[bot], f[bot],
-                                 self.f_series[r][p][bot], self.f_s[r][p][bot],
-                                 self.m2[r][p][bot], self.F_crush[r][p][bot], self.depth,
-                                 env)
+                                 self.f_series[ib], self.f_s[ib], self.m2[ib],
+                                 self.F_crush[ib], self.depth, env)
             F[bot] = ab.F_frame
-            Fd[bot] = np.where(self.soft[r][p][bot], ab.F_contact, ab.F_one)
+            Fd[bot] = np.where(self.soft[ib], ab.F_contact, ab.F_one)
         Ff[p], F_deck[p], eta_f[p] = F, Fd, ep
         return Ff, F_deck, eta_f
 
@@ -2817,7 +2853,8 @@ def two_force_height(c: Chain, h0: np.ndarray,
                      excess_at: Callable[[TwoForceKernel, np.ndarray, np.ndarray],
                                          np.ndarray],
                      kern: TwoForceKernel | None = None,
-                     top: float = H_SEARCH_MAX) -> np.ndarray:
+                     top: float = H_SEARCH_MAX,
+                     hint: np.ndarray | None = None) -> np.ndarray:
     """The largest free fall (m) at which the forward two-force chain passes, per
     point with two forces (others keep ``h0``): ``excess_at(kern, rows, h)`` is the
     forward run's excess at the falls ``h`` of the kernel's points ``rows``
@@ -2830,15 +2867,19 @@ def two_force_height(c: Chain, h0: np.ndarray,
     Gere §9.10; across the boundary from h0 where it grows as h^p, ½ ≤ p ≤ 1); the
     passes come first, and the last pass and the first failure bracket the boundary
     (beyond these the bracket goes on out by ×4 or ÷4). Then
-    each round runs two heights per point: the bracket's false position in √h (the
-    forces go nearly as √h, Gere §9.10) with a step of :data:`H_TOL`/3 of it to
-    either side, so that a good estimate closes the bracket in one round; a round
-    that does not halve the bracket (in √h) is followed by a bisection. The
-    bracket always holds a passing and a failing height and ends within
-    :data:`H_TOL` of the height (at most :data:`BISECTIONS` rounds). The lower end —
-    a height the forward run passed — is returned. NaN where even a zero fall fails;
-    ``top`` (:data:`H_SEARCH_MAX`) where that passes. The same search serves any
-    variable the excess grows with as a power ½–1 (the allowable mass,
+    each round runs two heights per point about an estimate of the boundary — first
+    ``hint`` (per point, NaN none: a height where the excess jumps, a pad's
+    bottoming) where it lies in the bracket, then a Newton step on the local power
+    law of the last pair (the excess grows as h^p with p from 0.1 to 2.4 on the
+    demos, not as √h alone), else the power law through the bracket's ends — with a
+    step of :data:`STEP`·:data:`H_TOL` to either side, so that a good estimate closes
+    the bracket in one round; bisections keep the round count bounded
+    (:func:`_close_bracket`). The bracket always holds a passing and a failing height
+    and ends within :data:`H_TOL` of the height (at most :data:`BISECTIONS` rounds):
+    the estimates set how many rounds it takes, not where the answer may lie. The
+    lower end — a height the forward run passed — is returned. NaN where even a
+    zero fall fails; ``top`` (:data:`H_SEARCH_MAX`) where that passes. The same
+    search serves any variable the excess grows with as a power (the allowable mass,
     :func:`two_force_mass`, with its own ``top``)."""
     two = c[Impact].searched
     if two is None or not two.any():
@@ -2866,12 +2907,25 @@ def two_force_height(c: Chain, h0: np.ndarray,
             if rows.size > EXCESS_ROWS else np.asarray(excess_at(kern, rows, t), dtype=float)
         return np.where(np.isnan(r), np.inf, r).reshape(trial.shape)
 
-    br = _first_bracket(run, _clip(h0[idx], 1e-6 * min(top, 1.0), top), top)
-    unbounded, none = _widen_bracket(run, br, top)
-    _close_bracket(run, br, ~unbounded & ~none)
     h = h0.copy()
-    h[idx] = np.where(none, np.nan, br.lo)
+    h[idx] = search_boundary(run, h0[idx], top, None if hint is None else hint[idx])
     return h
+
+
+def search_boundary(run: Callable[[np.ndarray, np.ndarray], np.ndarray],
+                    start: np.ndarray, top: float,
+                    hint: np.ndarray | None = None) -> np.ndarray:
+    """:func:`two_force_height`'s search on its own: per point, the highest variable
+    (a height, m, or a mass, kg) at which ``run(w, trial)`` — the excess of the
+    points ``w`` at ``trial`` (one per point, or a row of several per point; +inf
+    for a failure), non-decreasing — is ≤ 0, within :data:`H_TOL` below the
+    boundary; from ``start`` (the closed form), up to ``top``; ``hint``: a trial
+    per point where the excess may jump (NaN none). NaN where even 0 fails."""
+    br = _first_bracket(run, _clip(start, 1e-6 * min(top, 1.0), top), top)
+    unbounded, none = _widen_bracket(run, br, top)
+    br.hint = hint
+    _close_bracket(run, br, ~unbounded & ~none)
+    return np.where(none, np.nan, br.lo)
 
 
 def _clip(a: np.ndarray, lo: np.ndarray | float, hi: np.ndarray | float) -> np.ndarray:
@@ -2895,6 +2949,11 @@ class _Bracket:
                  n_ok: np.ndarray, nf: int) -> None:
         self.lo, self.hi, self.r_lo, self.r_hi = lo, hi, r_lo, r_hi
         self.n_ok, self.nf = n_ok, nf
+        # the last pair of trials per point and their excesses (NaN: none)
+        self.pair = np.full((lo.size, 2), np.nan)
+        self.r_pair = np.full((lo.size, 2), np.nan)
+        # a height per point where the excess may jump, tried first (NaN: none)
+        self.hint: np.ndarray | None = None
 
     def take(self, w: np.ndarray, trial: np.ndarray, r: np.ndarray) -> np.ndarray:
         """One trial height per point ``w``: a pass raises ``lo``, a failure lowers
@@ -2928,10 +2987,12 @@ def _first_bracket(run: _Excess, start: np.ndarray, top: float) -> _Bracket:
     nf = fan.shape[1]
     ar = np.arange(m)
     i_lo, i_hi = np.maximum(n_ok - 1, 0), np.minimum(n_ok, nf - 1)
-    return _Bracket(lo=np.where(n_ok > 0, fan[ar, i_lo], 0.0),
-                    hi=np.where(n_ok < nf, fan[ar, i_hi], 0.0),
-                    r_lo=np.where(n_ok > 0, rf[ar, i_lo], np.nan),
-                    r_hi=np.where(n_ok < nf, rf[ar, i_hi], np.nan), n_ok=n_ok, nf=nf)
+    br = _Bracket(lo=np.where(n_ok > 0, fan[ar, i_lo], 0.0),
+                  hi=np.where(n_ok < nf, fan[ar, i_hi], 0.0),
+                  r_lo=np.where(n_ok > 0, rf[ar, i_lo], np.nan),
+                  r_hi=np.where(n_ok < nf, rf[ar, i_hi], np.nan), n_ok=n_ok, nf=nf)
+    br.pair[:], br.r_pair[:] = pair, rp
+    return br
 
 
 def _widen_bracket(run: _Excess, br: _Bracket, top: float) -> tuple[np.ndarray, np.ndarray]:
@@ -2944,6 +3005,7 @@ def _widen_bracket(run: _Excess, br: _Bracket, top: float) -> tuple[np.ndarray, 
             break
         w = np.flatnonzero(up)
         trial = np.minimum(br.lo[w] * 4.0, top)
+        br.pair[w] = np.nan
         okw = br.take(w, trial, run(w, trial))
         up[w] = okw & (trial < top)
     unbounded = br.hi == 0.0  # passes at top
@@ -2953,6 +3015,7 @@ def _widen_bracket(run: _Excess, br: _Bracket, top: float) -> tuple[np.ndarray, 
             break
         w = np.flatnonzero(down)
         trial = br.hi[w] / 4.0
+        br.pair[w] = np.nan
         okw = br.take(w, trial, run(w, trial))
         down[w] = ~okw
     none = np.zeros(br.lo.size, dtype=bool)
@@ -2966,45 +3029,135 @@ def _widen_bracket(run: _Excess, br: _Bracket, top: float) -> tuple[np.ndarray, 
 
 
 def _close_bracket(run: _Excess, br: _Bracket, work: np.ndarray) -> None:
-    """Rounds of two heights per point of ``work``: the bracket's false position in
-    √h with a step of :data:`H_TOL`/3 of it to either side; a round that does not
-    halve the bracket (in √h) is followed by a bisection; until the bracket is
-    within :data:`H_TOL` (at most :data:`BISECTIONS` rounds)."""
-    lo, hi, r_lo, r_hi = br.lo, br.hi, br.r_lo, br.r_hi
+    """Rounds of two heights per point of ``work``, ``x·(1 ± STEP·H_TOL)`` about an
+    estimate x of the boundary (:func:`_round_estimate`), so that an estimate within
+    STEP·H_TOL closes the bracket in one round; until the bracket is within
+    :data:`H_TOL` (at most :data:`BISECTIONS` rounds).
+
+    The bracket is proven at every round: its lower end is a height the forward run
+    passed and its upper end one it failed (each trial moves the end on its own
+    side, and only inside the bracket), so the answer ``lo`` passes and, the excess
+    being non-decreasing, the exact boundary lies in (lo, hi] with
+    hi − lo ≤ H_TOL·hi: lo ≥ (1 − H_TOL)·boundary, whatever the estimates were.
+    They only set how many rounds it takes. Termination: the third round in a row
+    that does not halve the bracket's width in √h is followed by a bisection (the
+    mid-point in √h, which halves it); the widths never grow, so the width halves at
+    least every :data:`SLOW_ROUNDS` + 1 rounds. From the fan's bracket (ends at most
+    ×16 apart, √hi − √lo ≤ 3·√lo) 13 halvings bring hi − lo ≤ 2·√hi·(√hi − √lo)
+    below H_TOL·hi: 13 × 4 = 52 = :data:`BISECTIONS` rounds."""
+    lo, hi = br.lo, br.hi
     bisect = np.zeros(lo.size, dtype=bool)
+    slow = np.zeros(lo.size, dtype=np.int64)
+    first = True
     for _ in range(BISECTIONS):
         work = work & (hi - lo > H_TOL * hi)
         if not work.any():
             break
         w = np.flatnonzero(work)
-        sl, sh = np.sqrt(lo[w]), np.sqrt(hi[w])
-        a, b = r_lo[w], r_hi[w]
-        with np.errstate(divide="ignore", invalid="ignore"):
-            t = np.where(np.isfinite(a) & np.isfinite(b) & (b > a), -a / (b - a), 0.5)
-        t = np.where(bisect[w], 0.5, _clip(t, 0.0, 1.0))
-        x = (sl + t * (sh - sl)) ** 2
-        d = H_TOL / 3.0 * x
         lw, hw = lo[w], hi[w]
+        sl, sh = np.sqrt(lw), np.sqrt(hw)
+        mid = (0.5 * (sl + sh)) ** 2
+        x = np.where(bisect[w], mid, _round_estimate(br, w, first))
+        hinted = (x == br.hint[w]) if first and br.hint is not None else None
+        first = False
+        d = STEP * H_TOL * x
         pair = np.stack([_clip(x - d, lw, hw), _clip(x + d, lw, hw)], axis=1)
         # strictly inside the bracket (a pair on an end would not move it)
         inside = (pair > lw[:, None]) & (pair < hw[:, None])
-        mid = (0.5 * (sl + sh)) ** 2
         pair = np.sort(np.where(inside, pair, mid[:, None]), axis=1)
         r = run(w, pair)
-        okp = r <= 0.0
+        br.pair[w], br.r_pair[w] = pair, r
+        if hinted is not None:  # a pair across a jump gives no slope
+            br.pair[w[hinted]] = np.nan
         width0 = sh - sl
-        # the highest passing and the lowest failing trial (the passes come first)
-        n_okp = okp.sum(axis=1)
-        got = n_okp > 0
-        j = np.maximum(n_okp - 1, 0)
-        lo[w[got]] = pair[got, j[got]]
-        r_lo[w[got]] = r[got, j[got]]
-        upper = n_okp < 2
-        jt = np.minimum(n_okp, 1)
-        hi[w[upper]] = pair[upper, jt[upper]]
-        r_hi[w[upper]] = r[upper, jt[upper]]
-        # a round that did not halve the bracket is followed by a bisection
-        bisect[w] = (np.sqrt(hi[w]) - np.sqrt(lo[w])) > 0.5 * width0
+        _take_pair(br, w, pair, r)
+        # the SLOW_ROUNDS-th round in a row that did not halve the bracket (in √h)
+        # is followed by a bisection
+        halved = (np.sqrt(hi[w]) - np.sqrt(lo[w])) <= 0.5 * width0
+        slow[w] = np.where(halved | bisect[w], 0, slow[w] + 1)
+        bisect[w] = slow[w] >= SLOW_ROUNDS
+
+
+def _take_pair(br: _Bracket, w: np.ndarray, pair: np.ndarray, r: np.ndarray) -> None:
+    """The highest passing and the lowest failing trial of each point's ``pair``
+    (sorted; the passes come first, the excess being non-decreasing) become the
+    bracket's ends."""
+    okp = r <= 0.0
+    n_okp = okp.sum(axis=1)
+    got = n_okp > 0
+    j = np.maximum(n_okp - 1, 0)
+    br.lo[w[got]] = pair[got, j[got]]
+    br.r_lo[w[got]] = r[got, j[got]]
+    upper = n_okp < 2
+    jt = np.minimum(n_okp, 1)
+    br.hi[w[upper]] = pair[upper, jt[upper]]
+    br.r_hi[w[upper]] = r[upper, jt[upper]]
+
+
+SLOW_ROUNDS = 3
+"""Rounds in a row without halving the bracket after which :func:`_close_bracket`
+bisects."""
+STEP = 0.45
+"""Half-spacing of :func:`_close_bracket`'s pair of trials, as a share of
+:data:`H_TOL` (below ½: a pair that straddles the boundary closes the bracket)."""
+
+
+def _round_estimate(br: _Bracket, w: np.ndarray, first: bool) -> np.ndarray:
+    """The estimate of the boundary (m) for a round at the points ``w``: in the first
+    round a jump height of the excess (``br.hint``, a pad's bottoming) where it lies
+    inside the bracket; else the Newton step on the last pair's local power law
+    (:func:`_local_power_root`) where it lands inside the bracket and the pair's
+    excesses differ; else the power law through the bracket's ends
+    (:func:`_power_law_root`); the mid-point in √h where the last pair's excesses were
+    equal (a step of the excess: a jump lies between the ends)."""
+    lw, hw = br.lo[w], br.hi[w]
+    x = _power_law_root(lw, hw, br.r_lo[w], br.r_hi[w])
+    xn = _local_power_root(br.pair[w], br.r_pair[w])
+    x = np.where((xn > lw) & (xn < hw), xn, x)
+    flat = br.r_pair[w, 0] == br.r_pair[w, 1]
+    x = np.where(flat, (0.5 * (np.sqrt(lw) + np.sqrt(hw))) ** 2, x)
+    if first and br.hint is not None:
+        hint = br.hint[w]
+        x = np.where((hint > lw) & (hint < hw), hint, x)
+    return x
+
+
+def _local_power_root(pair: np.ndarray, r_pair: np.ndarray) -> np.ndarray:
+    """The height (m) where the excess crosses zero, estimated from the last pair of
+    trials (two close heights per point, ``pair``, their excesses ``r_pair``): the
+    local exponent p = Δln(1 + r)/Δln h between them, and the power law
+    1 + r = (h/h*)^p through the pair's mid-point (in logs),
+    h* = h_m·(1 + r_m)^(−1/p) (a Newton step on ln(1 + r) in ln h; the measured
+    exponents of the demos' excesses run from 0.1 to 2.4). NaN where it cannot be
+    drawn (no pair, a pair of one height, an excess unknown or ≤ −1, p ≤ 0)."""
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        g = np.log1p(r_pair)
+        lh = np.log(pair)
+        p = (g[:, 1] - g[:, 0]) / (lh[:, 1] - lh[:, 0])
+        lm, gm = 0.5 * (lh[:, 0] + lh[:, 1]), 0.5 * (g[:, 0] + g[:, 1])
+        x = np.exp(lm - gm / p)
+    return np.where(np.isfinite(x) & (p > 0.0), x, np.nan)
+
+
+def _power_law_root(lo: np.ndarray, hi: np.ndarray, r_lo: np.ndarray,
+                    r_hi: np.ndarray) -> np.ndarray:
+    """The height (m) where the excess r (a utilisation less one) crosses zero,
+    estimated from the bracket's ends ``lo`` (r_lo ≤ 0) and ``hi`` (r_hi > 0): on the
+    power law 1 + r = (h/h*)^p through both ends, i.e. false position of ln(1 + r)
+    in ln h, h* = lo·(hi/lo)^t with t = −ln(1 + r_lo)/(ln(1 + r_hi) − ln(1 + r_lo))
+    (exact for any exponent p). Where that law cannot be drawn (lo = 0, an end's
+    excess unknown or ≤ −1), false position of r in √h (the forces grow nearly as
+    √h, Gere §9.10), and the mid-point in √h where r is unknown at an end."""
+    sl, sh = np.sqrt(lo), np.sqrt(hi)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        t = np.where(np.isfinite(r_lo) & np.isfinite(r_hi) & (r_hi > r_lo),
+                     -r_lo / (r_hi - r_lo), 0.5)
+        x = (sl + _clip(t, 0.0, 1.0) * (sh - sl)) ** 2
+        gl, gh = np.log1p(r_lo), np.log1p(r_hi)
+        tp = -gl / (gh - gl)
+        law = (lo > 0.0) & np.isfinite(gl) & np.isfinite(gh) & (gh > gl)
+        xp = lo * (hi / lo) ** _clip(tp, 0.0, 1.0)
+    return np.where(law, xp, x)
 
 
 MASS_SEARCH_MAX = 1.0e6
@@ -3042,8 +3195,10 @@ def two_force_mass(c: Chain, kern: TwoForceKernel, m0: np.ndarray,
 
     start = np.where(np.isfinite(m0) & (m0 > 0.0), m0, np.nan)
     keep = _pads_passing(c, kern, start, excess)
+    hint = np.full(n, np.nan)
+    hint[kern.idx] = kern.bottoming_mass(h_k)
     out = two_force_height(c, np.where(keep, np.nan, start), excess, kern,
-                           top=MASS_SEARCH_MAX)
+                           top=MASS_SEARCH_MAX, hint=hint)
     return np.where(np.isnan(start) | keep, m0, out)
 
 
@@ -3097,7 +3252,9 @@ def two_force_elastic_height(c: Chain, h_el: np.ndarray,
             return np.maximum(F / Fa_frame_k[rows], F_deck / Fa_deck_k[rows]) - 1.0
 
     keep = _pads_passing(c, kern, h_el, excess)
-    h = two_force_height(c, np.where(keep, np.nan, h_el), excess, kern)
+    hint = np.full(n, np.nan)
+    hint[kern.idx] = kern.bottoming_fall()
+    h = two_force_height(c, np.where(keep, np.nan, h_el), excess, kern, hint=hint)
     h = np.where(keep, h_el, h)
     for _ in range(3):
         live = two & np.isfinite(h) & (h > 0.0)
