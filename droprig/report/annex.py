@@ -820,11 +820,16 @@ class _Builder:
         words = VERDICT_WORDS[verdict].upper()
         if verdict == "acceptable_with_conditions":
             words += f" — {n_cond} CONDITION{'S' if n_cond != 1 else ''} BELOW"
-        elif verdict == "not_acceptable" and any(
+        elif verdict == "not_acceptable" and not any(
+                lv.bays and all(b.verdict == "not_acceptable" for b in lv.bays)
+                for lv in lvs) and any(
                 c.zone_id in {z.id for z in self.zones}
                 for c in getattr(self.permit, "clashes", ())):
-            # the plan's own pick-up or set-down point lies where a load must not
-            # be carried (droprig.permit.plan_clashes); the points are listed below
+            # every load has a bay it may be carried over, but the plan's own pick-up
+            # or set-down point lies where a load must not be (droprig.permit.
+            # plan_clashes; the points are listed below); a load kept off every bay
+            # it can reach reads as "no practical condition" (the rooftop demo since
+            # the crushing pad's framing force follows the crush's duration)
             words += (" AS PLANNED — THE LIFT PLAN CANNOT KEEP THE CONDITIONS "
                       "(SEE BELOW)")
         elif verdict == "not_acceptable":

@@ -217,8 +217,32 @@ def test_point_inside_an_exclusion_area_is_flagged(tmp_path: pathlib.Path) -> No
     assert (f"set-down point S1 (landing) of lift zone MC1 lies in bay {bay.id} of level "
             f"{p.levels[0].id}, which {excl[0].load_name} (C") in first
     assert "pick-up point P1" not in first  # off the framing: no clash
-    # the headline says why the verdict is what it is (droprig.permit.plan_clashes)
-    assert "NOT ACCEPTABLE AS PLANNED — THE LIFT PLAN CANNOT KEEP THE CONDITIONS" in first
+    # the headline says why the verdict is what it is: a load kept off every bay it
+    # can reach first, else the plan's clash (droprig.permit.plan_clashes)
+    pc = annex.permit_conditions(p, analysis.analyse(p))
+    assert pc.clashes
+    whole = any(lv.bays and all(b.verdict == "not_acceptable" for b in lv.bays)
+                for lv in pc.loads)
+    assert ("NO PRACTICAL CONDITION MAKES IT ACCEPTABLE" if whole
+            else "THE LIFT PLAN CANNOT KEEP THE CONDITIONS") in first
+    # a load with bays it may be carried over, set down in one it may not: the clash
+    # alone sets the headline
+    for ld in z.loads:
+        lv = next(v for v in pc.loads if v.load_name == ld.name)
+        off = [b.bay_id for b in lv.bays if b.verdict == "not_acceptable"]
+        if off and len(off) < len(lv.bays):
+            break
+    else:
+        raise AssertionError("no load of this file is kept off some bays but not all")
+    bay2 = next(b for b in bays(p.levels[0]) if b.id == off[0])
+    at = ((bay2.rect.x0 + bay2.rect.x1) / 2, (bay2.rect.y0 + bay2.rect.y1) / 2)
+    z2 = dataclasses.replace(z, loads=(ld,), lift_points=(LiftPoint("set_down", at, "deck"),))
+    p2 = dataclasses.replace(p, lift_zones=(z2,))
+    out2 = tmp_path / "clash2.pdf"
+    annex.write_annex(p2, analysis.analyse(p2), out2)
+    first2 = _norm(_texts(out2)[0])
+    assert "NOT ACCEPTABLE AS PLANNED — THE LIFT PLAN CANNOT KEEP THE CONDITIONS" in first2
+    assert f"set-down point S1 (deck) of lift zone MC1 lies in bay {bay2.id}" in first2
 
 
 @pytest.mark.parametrize("valid_to, now, ended", [
