@@ -619,6 +619,12 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
         lims = [v for v in (b.height_limit,
                             None if struct is None else LIMIT_MARGIN * struct)]
         cap = None if None in lims else min(lims)  # type: ignore[type-var]
+        el = b.allowable_drop_height
+        if cap is not None and el is not None and cap <= 1.01 * el:
+            # offered as elastic (no yield sign-off below): the margin on the elastic
+            # height, never up to 1 % above it (two-level demo, hook block: 0.151 m
+            # beside an elastic 0.1499 m; common practice, no source)
+            cap = min(cap, LIMIT_MARGIN * el)
         if cap is not None and cap >= MIN_USEFUL_HEIGHT and cap > thickest:
             conds.append(Condition("cap_hook", max_drop_height=cap,  # type: ignore
                                    max_hook_elevation=hook(cap),

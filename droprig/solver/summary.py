@@ -81,6 +81,14 @@ def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | 
             resp == EXCEEDS:
         h = LIMIT_MARGIN * float(h_allow)
         yields = h_elastic is None or h > 1.01 * h_elastic
+        if not yields and h_elastic is not None:
+            # offered as elastic (no yield sign-off): the margin on the elastic height,
+            # never up to 1 % above it (a limit 0.9 × the plastic height read 0.151 m
+            # beside an elastic 0.1499 m, with no margin left for the places between
+            # the drop points; common practice, no source)
+            h = min(h, LIMIT_MARGIN * float(h_elastic))
+            if h < MIN_USEFUL_HEIGHT:
+                h = None
     k: float | None = None
     travel: float | None = None
     if (k_mat is not None and math.isfinite(k_mat) and k_mat > 0
