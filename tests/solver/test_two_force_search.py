@@ -19,8 +19,7 @@ from pathlib import Path
 import numpy as np
 import pytest
 
-from droprig.io.project_file import load_project
-from droprig.solver import analysis, chain
+from droprig.solver import chain
 from droprig.solver.chain import (
     BISECTIONS,
     H_SEARCH_MAX,
@@ -30,7 +29,7 @@ from droprig.solver.chain import (
     search_boundary,
     two_force_utilisation_at,
 )
-from droprig.solver.evaluate import evaluate_chain
+from tests.solver.test_two_force_demos import _chains
 
 ROOT = Path(__file__).resolve().parents[2]
 DEMOS = sorted((ROOT / "demo_projects").glob("*.droprig"))
@@ -130,18 +129,9 @@ def test_no_passing_height_and_passing_at_the_top():
 
 @pytest.fixture(scope="module")
 def demo_chains():
-    out = []
-    for demo in DEMOS:
-        p = load_project(demo)
-        rng = np.random.default_rng(3)
-        for zone in p.lift_zones:
-            lv = p.level(zone.level_id)
-            fm = analysis.build_floor(lv, p.settings)
-            ext = lv.grid.extent
-            geo = analysis.point_geometry(fm, p, rng.uniform(ext.x0, ext.x1, 40),
-                                          rng.uniform(ext.y0, ext.y1, 40))
-            out += [evaluate_chain(fm, p, load, geo) for load in zone.loads]
-    return out
+    # 40 random points a zone of each demo, each load's chain (the demos' loads and
+    # hoist speeds: tests/solver/test_two_force_demos.py)
+    return [c for demo in DEMOS for _, c in _chains(demo, 3, 40)]
 
 
 def test_demo_elastic_heights_within_tolerance_of_the_forward_chain(demo_chains):
