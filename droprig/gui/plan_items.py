@@ -488,6 +488,7 @@ class LiftPointsItem(PixelSized, QGraphicsItem):
         QGraphicsItem.__init__(self)
         PixelSized.__init__(self)
         self._points: list[tuple[str, str, QPointF]] = []
+        self._zones: list[LiftZone] = []
         self._rect = QRectF()
         self.setZValue(8.8)
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
@@ -498,6 +499,7 @@ class LiftPointsItem(PixelSized, QGraphicsItem):
         self._points = [(p.kind, f"{z.id} {tag}" if several else tag, to_scene(*p.at))
                         for z in zones
                         for tag, p in zip(lift_point_tags(z), z.lift_points, strict=True)]
+        self._zones = list(zones)
         r = QRectF()
         for _, _, q in self._points:
             r = r.united(QRectF(q.x() - 1e-3, q.y() - 1e-3, 2e-3, 2e-3))
@@ -531,6 +533,10 @@ class LiftPointsItem(PixelSized, QGraphicsItem):
         # rooftop demo's S2 tag sat on P1, 2 m away)
         taken = [QRectF(c.x() - s - 2, c.y() - 1.1 * s - 2, 2 * s + 4, 1.9 * s + 4)
                  for c in centres]
+        # and each crane with its label (the two-level demo's S1 tag sat on it)
+        for z in self._zones:
+            cp = t.map(to_scene(*z.crane))
+            taken += [QRectF(cp.x() - 19, cp.y() - 19, 38, 38), crane_label_rect(cp, z)]
         for (kind, tag, _), c in zip(self._points, centres, strict=True):
             x, y = c.x(), c.y()
             paint_lift_point(painter, kind, x, y, s)
