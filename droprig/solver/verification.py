@@ -233,9 +233,7 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
         history = replace(history, contact_force=history.contact_force / w,
                           load_displacement=history.load_displacement * w)
     return Verification(
-        energy=energy,
-        time_history=th,
-        amplification=factor,
+        energy=energy, time_history=th, amplification=factor,
         verdict={k: factor[k] * energy[k] for k in QUANTITIES},
         crushing_force=cap, crush=float(t.crush[0]) if t.crush is not None else 0.0,
         stroke=stroke if math.isfinite(cap) else math.inf,
