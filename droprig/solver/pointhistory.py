@@ -112,9 +112,19 @@ QUANTITIES = ("force", "moment", "shear", "deflection")
 
 def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     """The modelled member at the points ``sel`` (indices): member index, end
-    condition name, L, a, EI (the chain's, composite where the floor takes it) and the
-    mass per length (see the module docstring), and the contact compliance, crushing
-    force and stroke of the chain there."""
+    condition name, L (m), a (m, kept 10⁻⁶·L off the ends), EI (N·m², the chain's:
+    E·I_tr of the transformed section where the floor takes the member as composite,
+    EN 1994-1-1 §5.4.2.2 / AISC 360-16 §I3, :func:`droprig.solver.composite.
+    transformed_inertia`; else E·Ix), the mass per length μ (kg/m, the frame's; 0 where
+    the project leaves member mass out, see the module docstring), its share w and
+    own compliance G(a, a) (m/N); and the chain's path compliance at the load f_all
+    (m/N, the structure's under a crushable layer), the contact compliance beyond the
+    member f_c (m/N, ≥ 0), the crushing force (N, ∞ none or not above the weight) and
+    its stroke (m, :func:`droprig.solver.chain.crush_depth_available`, or the
+    layer's). ``over_support`` is true where the path's own position of the member is
+    over one of its supports (G = 0 there: the member does not move). The one source of
+    the struck member for the chain's point histories and for
+    :func:`droprig.solver.verification.verify_point`."""
     from droprig.solver.chain import Compliance, Impact, LoadInputs, crush_depth_available
 
     d, inp, comp, imp = c.drop, c[LoadInputs], c[Compliance], c[Impact]
@@ -123,17 +133,19 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     k = np.where(share[:, 0] >= share[:, 1], 0, 1)
     rows = np.arange(sel.size)
     m = path.members[sel][rows, k].astype(int)
-    a = path.a[sel][rows, k]
+    a_path = path.a[sel][rows, k]
     L = fr.L[m]
-    a = np.clip(a, 1e-6 * L, L * (1.0 - 1e-6))
+    a = np.clip(a_path, 1e-6 * L, L * (1.0 - 1e-6))
     EI = fr.EI[m]
     mu = fr.mu[m]
     cond = np.array([COND_NAMES[int(x)] for x in fr.cond[m]], dtype=object)
     g_m = np.zeros(sel.size)
+    g_path = np.zeros(sel.size)
     for cn in dict.fromkeys(cond.tolist()):
         i = cond == cn
         cc = cast(EndCondition, cn)
         g_m[i] = beam.green(cc, L[i], EI[i], a[i], a[i])
+        g_path[i] = beam.green(cc, L[i], EI[i], a_path[i], a_path[i])
     crushable = inp.crushable[sel]
     f_all = np.where(crushable, comp.f_struct[sel], comp.f[sel])
     f_c = np.maximum(f_all - g_m, 0.0)
@@ -144,7 +156,8 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     F_y = np.where(np.isfinite(F_y) & (F_y > W), F_y, np.inf)
     w = np.clip(share[rows, k], 0.5, 1.0)  # the larger of two shares summing to 1
     return {"member": m, "cond": cond, "L": L, "a": a, "EI": EI, "mu": mu_th, "g_m": g_m,
-            "f_c": f_c, "F_yield": F_y, "stroke": stroke, "share": w, "f_all": f_all}
+            "f_c": f_c, "F_yield": F_y, "stroke": stroke, "share": w, "f_all": f_all,
+            "over_support": ~(g_path > 0.0)}
 
 
 def shared_load(w: ArrayLike, M: ArrayLike, h: ArrayLike, f_all: ArrayLike,

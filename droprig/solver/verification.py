@@ -3,7 +3,9 @@
 * :func:`verify_member` — one member struck by one load (``droprig verify`` with
   ``droprig check``'s options);
 * :func:`verify_point` — a drop point of a project: the struck member (the member of
-  the load path carrying the larger share w of the load) modelled alone, seeing the
+  the load path carrying the larger share w of the load, with the chain's EI, crushing
+  force and stroke: :func:`droprig.solver.pointhistory.struck_member`, the one source
+  the chain's own point histories read) modelled alone, seeing the
   load through its share (:func:`droprig.solver.pointhistory.shared_load`: mass w²·M,
   weight w·W, speed v/w), the rest of the path (other framing, deck indentation and
   strip, the load's underside, a spring mat) as a massless spring in series with the
@@ -30,7 +32,9 @@ from __future__ import annotations
 import functools
 import math
 from dataclasses import dataclass, replace
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, cast
+
+import numpy as np
 
 from droprig.model import Grade, Level, ModelError, Project, Section
 from droprig.solver import (
@@ -74,7 +78,8 @@ class Verification:
     history's peak (with the same elastic–perfectly plastic contact) and the factor
     the verdict applies (:func:`droprig.solver.amplification.amplified_forces`);
     ``verdict`` the demand the checks use (factor × energy), ``crushing_force`` (N,
-    ∞ none) and ``crush`` (m) the time history's crushed depth;
+    ∞ none), ``stroke`` (m, how deep the contact may crush at that force, ∞ none) and
+    ``crush`` (m) the time history's crushed depth;
     ``energy_deflection_at_point`` (m) is F·G(a, a) for the plot of the struck
     point; ``mass_ratio`` r = M/mₑ (w²·M/mₑ where the member takes a lever-rule share
     w of the load), ``compliance_ratio`` κ = f_c/f_s (the contact as the member sees it);
@@ -98,6 +103,7 @@ class Verification:
     verdict: dict[str, float] | None = None
     crushing_force: float = math.inf
     crush: float = 0.0
+    stroke: float = math.inf
 
     def ratio(self, key: str) -> float | None:
         """Energy method ÷ time history of ``key`` (None where the history is 0)."""
@@ -108,9 +114,11 @@ class Verification:
 @dataclass(frozen=True)
 class PointVerification:
     """:class:`Verification` of a project drop point: zone, load, point (m), bay,
-    the member modelled (id, end condition, span L and position a in m) and the
-    chain's own peak force on the framing there (N, the whole path: the two-mass
-    model's where two forces per point, else the energy method's)."""
+    the member modelled (id, end condition, span L and position a in m, stiffness EI
+    in N·m² — the chain's, composite where the member is studded) and the chain's own
+    peak force on the framing there (N, the whole path: the two-mass model's where two
+    forces per point, else the energy method's); the member, EI, crushing force and
+    stroke are the chain's own (:func:`droprig.solver.pointhistory.struck_member`)."""
 
     zone_id: str
     load_name: str
@@ -123,6 +131,7 @@ class PointVerification:
     a: float
     chain_peak_force: float
     verification: Verification
+    EI: float = math.nan
 
 
 SKIP_OVER_SUPPORT = "over a support"
@@ -224,11 +233,10 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
         history = replace(history, contact_force=history.contact_force / w,
                           load_displacement=history.load_displacement * w)
     return Verification(
-        energy=energy,
-        time_history=th,
-        amplification=factor,
+        energy=energy, time_history=th, amplification=factor,
         verdict={k: factor[k] * energy[k] for k in QUANTITIES},
         crushing_force=cap, crush=float(t.crush[0]) if t.crush is not None else 0.0,
+        stroke=stroke if math.isfinite(cap) else math.inf,
         energy_deflection_at_point=w * F * f_s,
         mass_ratio=float(amp.mass_ratio) * w**2, compliance_ratio=f_b / f_s,
         contact_compliance=f_th, contact_assumed=assumed, modes=int(t.modes[0]),
@@ -297,46 +305,45 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     """A drop point (x, y in m) of load ``load_name`` of lift zone ``zone_id`` (see the
     module docstring for the idealisation). Raises :class:`ModelError` naming the
     zone, load or point when they do not exist or the point is not over a deck panel,
-    over an opening. The contact is elastic–perfectly plastic as the chain caps it:
-    the deck concrete's crushing force over the cover, or a crushable layer's force
-    over its stroke."""
-    from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass, energy_fall
+    over an opening, or :class:`OverSupportError` over a support of the modelled
+    member. The member and the contact are the chain's own
+    (:func:`droprig.solver.pointhistory.struck_member`, as the chain's point
+    histories take them): the chain's EI (composite where studded), and a contact
+    elastic–perfectly plastic as the chain caps it — the deck's crushing force over
+    :func:`droprig.solver.chain.crush_depth_available` (a concrete deck's cover, a
+    steel deck's plate), or a crushable layer's force over its stroke."""
+    from droprig.solver.chain import Impact, LoadInputs, StruckMass, energy_fall
     from droprig.solver.evaluate import governing_landing_chain, point_case
-    from droprig.solver.loadpath import COND_NAMES
 
     case = point_case(project, zone_id, load_name, x, y, opening=True,
                       fields=("verify.lift", "verify.load", "verify.point"))
     zone, load, fm, geo = case.zone, case.load, case.fm, case.geo
     # the landing that governs the point, as the calculation trace follows it
     _, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
-    inp, comp, sm = chain[LoadInputs], chain[Compliance], chain[StruckMass]
-    crushable = bool(inp.crushable[0])
-    if crushable:  # rigid until it crushes: the elastic contact is the rest
-        F_y, s_y, f_all = float(inp.F_c[0]), float(inp.s_c[0]), float(comp.f_struct[0])
-    else:
-        F_y = float(chain[Impact].F_crush[0])
-        s_y, f_all = float(fm.level.deck.cover), float(comp.f[0])
-    path, fr = geo.path, fm.frame
-    k = 0 if path.share[0, 0] >= path.share[0, 1] else 1
-    m = int(path.members[0, k])
-    cond = COND_NAMES[int(fr.cond[m])]
-    member = fm.level.members[m]
-    L = float(fr.L[m])
-    a = float(path.a[0, k])
-    section, grade = member.section, member.grade
-    EI = grade.E * section.Ix
-    g_m = float(beam.green(cond, L, EI, a, a))
-    if g_m <= 0.0:
+    inp = chain[LoadInputs]
+    # the struck member, its contact and crushing cap as the chain's own point
+    # histories take them (one source: pointhistory.struck_member) — the chain's EI
+    # (composite where the member is studded), the chain's crushing stroke (the deck's
+    # crush_depth_available, or a crushable layer's)
+    s = {k: v[0] for k, v in pointhistory.struck_member(chain, np.zeros(1, dtype=np.int64)
+                                                        ).items()}
+    member = fm.level.members[int(s["member"])]
+    cond = cast(EndCondition, str(s["cond"]))
+    L, a, EI = float(s["L"]), float(s["a"]), float(s["EI"])
+    if bool(s["over_support"]):
         # over a column or a support of the member: the time history's struck
         # member does not move there
         raise OverSupportError("verify.point", (float(x), float(y)),
                          f"a point off the supports of member {member.id} (it is "
                          f"{a:.3f} m along it, over a support, where the modelled "
                          "member does not move)")
+    # the member's own mass: the frame's μ, the steel's where the project leaves
+    # member mass out of the struck mass (a time history needs the member's mass)
+    mu = float(s["mu"]) if float(s["mu"]) > 0.0 else member.section.mass_per_length
     # the rest of the path in series: everything but the member's own spring under its
     # share w (f_all − w²·g_m; _verify takes f_all − g_m and the share)
-    w = float(path.share[0, k])
-    f_c = f_all - g_m
+    w = float(s["share"])
+    f_c = float(s["f_all"]) - float(s["g_m"])
     # what the verdict used: the chain's own amplification step at this point (its
     # factors on the chain's energy-method force), not factors of the verification's
     # own — with amplification off the energy method's (below)
@@ -347,8 +354,9 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     # the strike speed the chain uses: the free fall plus the hoist's lowering-speed
     # head, h + v_h²/2g (chain.energy_fall) — the time history starts at the same speed
     h_e = float(energy_fall(chain, inp.h)[0])
-    ver = _verify(cond, L, EI, section.mass_per_length, a, float(inp.M[0]), h_e,
-                  f_c, bool(sm.m_e[0] > 0.0), scaled_mass=True, F_yield=F_y, stroke=s_y,
+    ver = _verify(cond, L, EI, mu, a, float(inp.M[0]), h_e, f_c,
+                  bool(chain[StruckMass].m_e[0] > 0.0), scaled_mass=True,
+                  F_yield=float(s["F_yield"]), stroke=float(s["stroke"]),
                   chain_factors=chain_factors, share=w,
                   contact_force=float(chain[Impact].contact[0]))
 
@@ -359,7 +367,7 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     return PointVerification(zone_id=zone_id, load_name=load_name, x=float(x), y=float(y),
                              bay_id=_bay_name(fm.level, geo), member_id=member.id, cond=cond,
                              L=L, a=a, chain_peak_force=float(chain[Impact].F[0]),
-                             verification=ver)
+                             verification=ver, EI=EI)
 
 
 def _bay_name(level: Level, geo: Geometry) -> str:
