@@ -154,10 +154,10 @@ LIMIT_NOTE = ("A hook or drop-height limit is 90 % of the least height the analy
               "condition says members may yield; or where local damage starts): a margin "
               "for the places between the drop points analysed, about 5 % of force. So "
               "an elastic limit reads below the allowable height beside it.")
-assert abs(LIMIT_MARGIN - 0.9) < 1e-12, "LIMIT_NOTE states the margin in words"
 """Why a printed limit is below the allowable height beside it (the inspector showed
 an allowable 0.117 m beside a condition of 0.105 m without saying why; common
-practice, no source: :data:`droprig.solver.results.LIMIT_MARGIN`)."""
+practice, no source: :data:`droprig.solver.results.LIMIT_MARGIN`, whose 0.9 it states
+in words: ``tests/test_permit.py`` holds the two together)."""
 
 HOOK_KEEP_OFF = "keep load off"
 """The hook-elevation cell of a bay the load must not be carried over: no elevation
@@ -438,12 +438,14 @@ class PlanClash:
     bay_id: str
     load_name: str
 
-    def sentence(self) -> str:
+    def point_words(self) -> str:
+        """``pick-up point P1 (old unit on the plinth)``."""
         what = "pick-up" if self.kind == "pick_up" else "set-down"
-        name = f"{self.tag} ({self.label})" if self.label else self.tag
-        return (f"{what} point {name} of lift zone {self.zone_id} lies in bay "
-                f"{self.bay_id} of level {self.level_id}, which {self.load_name} must "
-                "not be carried over")
+        return f"{what} point {self.tag}" + (f" ({self.label})" if self.label else "")
+
+    def sentence(self) -> str:
+        """This clash alone in words (one entry of the JSON's ``plan_clashes``)."""
+        return clash_sentences((self,))[0]
 
 
 def clash_sentences(clashes: Iterable[PlanClash],
@@ -455,8 +457,7 @@ def clash_sentences(clashes: Iterable[PlanClash],
     groups: dict[tuple[str, str, str], tuple[list[str], list[str]]] = {}
     for c in clashes:
         pts, lds = groups.setdefault((c.zone_id, c.level_id, c.bay_id), ([], []))
-        what = "pick-up" if c.kind == "pick_up" else "set-down"
-        pt = f"{what} point {c.tag}" + (f" ({c.label})" if c.label else "")
+        pt = c.point_words()
         n = (cond_no or {}).get((c.zone_id, c.load_name, c.bay_id))
         ld = c.load_name + (f" (C{n})" if n is not None else "")
         if pt not in pts:
