@@ -688,20 +688,22 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
         allowable_mass=b.allowable_mass)
 
 
-def _merge_key(c: Condition) -> tuple[object, ...]:
-    """Conditions that differ only in their bays are one condition over the bays."""
-    def r(v: float | None) -> float | None:
-        # limits equal but for floating-point noise are one limit (the least is kept)
-        return None if v is None else round(v, 9)
+def _merge_key(c: Condition, system: UnitSystem = "SI") -> tuple[object, ...]:
+    """Conditions that differ only in their bays are one condition over the bays.
 
-    return (c.kind, c.zone_id, c.load_name, c.level_id, c.protection_id,
-            r(c.max_drop_height), r(c.max_hook_elevation), r(c.mat_stiffness_max),
-            r(c.mat_travel), c.hang_length, c.below_level_id, c.protection, c.detail,
-            c.cause)
+    Limits are compared as printed (the condition's sentence without its bays, in
+    the project's units; the least limit is kept, so the merged sentence prints the
+    same figure): the two-level demo printed "no more than 0.118 m" three times, for
+    the spreader over three groups of bays whose limits differed in the tenth digit
+    (0.1183214799 against 0.1183214785 m). Common practice, no source: one rule, one
+    condition."""
+    return (c.kind, c.zone_id, c.load_name, c.level_id, c.protection_id, c.hang_length,
+            c.below_level_id, c.protection, c.detail, c.cause,
+            replace(c, bays=(), region=None).sentence(system))
 
 
 def _merge(conds: Iterable[Condition], rects: dict[tuple[str, str], Rect],
-           across_loads: bool = False) -> tuple[Condition, ...]:
+           across_loads: bool = False, system: UnitSystem = "SI") -> tuple[Condition, ...]:
     """Merge conditions over bays (and, for pads to lay, over loads), de-duplicate,
     and sort in reading order (kind, then first appearance)."""
     groups: dict[tuple[object, ...], list[Condition]] = {}
@@ -711,7 +713,7 @@ def _merge(conds: Iterable[Condition], rects: dict[tuple[str, str], Rect],
         if c.kind == "not_assessed":
             key: tuple[object, ...] = (c.kind, c.zone_id, c.load_name, c.detail)
         else:
-            key = _merge_key(c)
+            key = _merge_key(c, system)
         groups.setdefault(key, []).append(c)
     out: list[Condition] = []
     for group in groups.values():
@@ -756,6 +758,7 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
     verdict is the worst over the loads. Parts of a zone beyond the deck are not
     assessed and are a condition of their own.
     """
+    system = project.settings.unit_system  # conditions merge as printed (_merge_key)
     rects: dict[tuple[str, str], Rect] = {}
     for lv in project.levels:
         for bay in bays(lv):
@@ -776,7 +779,8 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
             # are left out)
             bvs = tuple(_bay_verdict(project, b, rects[(b.level_id, b.bay_id)])
                         for b in summaries if (b.level_id, b.bay_id) in rects)
-            conds = _merge([*(c for bv in bvs for c in bv.conditions), *conn], rects)
+            conds = _merge([*(c for bv in bvs for c in bv.conditions), *conn], rects,
+                           system=system)
             if bvs and all(bv.verdict == "not_acceptable" for bv in bvs):
                 verdict: Verdict = "not_acceptable"
             elif conds:
@@ -808,7 +812,7 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
     loads = [replace(lv, verdict="not_acceptable")
              if (lv.zone_id, lv.load_name) in clashing else lv for lv in loads]
     verdict = worst_verdict(lv.verdict for lv in loads)
-    merged = _merge(everything, rects, across_loads=True)
+    merged = _merge(everything, rects, across_loads=True, system=system)
     if verdict == "acceptable" and merged:
         verdict = "acceptable_with_conditions"
     return PermitConditions(verdict, tuple(loads), merged, tuple(not_checked),

@@ -698,3 +698,23 @@ def test_a_limit_without_a_yield_signoff_keeps_the_elastic_margin(name: str) -> 
             assert min(caps) <= LIMIT_MARGIN * bv.allowable_drop_height * (1 + 1e-12), \
                 (bv.bay_id, bv.load_name, min(caps), bv.allowable_drop_height)
     assert checked
+
+
+@pytest.mark.parametrize("name", ["rooftop_plant_swap", "steel_erection_floor",
+                                  "two_level_rigging"])
+def test_no_two_conditions_print_the_same_rule(name: str) -> None:
+    """Conditions that print the same words but for their bays are one condition (the
+    two-level demo printed "no more than 0.118 m" three times for the spreader, its
+    limits differing in the tenth digit; common practice, no source: one rule, one
+    condition). The merged limit is the least, so it prints the same figure."""
+    project = load_project(ROOT / "demo_projects" / f"{name}.droprig")
+    pc = derive_conditions(project, analyse(project))
+    system = project.settings.unit_system
+    seen: dict[tuple[object, ...], tuple[str, ...]] = {}
+    for c in pc.conditions:
+        if c.kind == "not_assessed":
+            continue
+        key = (c.kind, c.zone_id, c.load_name, c.level_id,
+               replace(c, bays=(), region=None).sentence(system))
+        assert key not in seen, (key[-1], seen[key], c.bays)
+        seen[key] = c.bays
