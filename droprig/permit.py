@@ -48,7 +48,14 @@ from droprig.model import (
     lift_point_tags,
 )
 from droprig.outcomes import fmt_utilisation_check
-from droprig.solver import LIMIT_MARGIN, BaySummary, Results, pad_crush_stress
+from droprig.solver import (
+    LIMIT_MARGIN,
+    MIN_USEFUL_HEIGHT,
+    BaySummary,
+    Results,
+    offered_limit,
+    pad_crush_stress,
+)
 from droprig.units import UnitSystem
 
 __all__ = [
@@ -126,10 +133,6 @@ SIG_HEIGHT = 3
 """Significant figures of a drop height (m or ft): 0.0700 m, 0.930 m, 10.8 m."""
 SIG_MASS = 3
 SIG_STIFFNESS = 3
-
-MIN_USEFUL_HEIGHT = 0.05
-"""A hook limit below this (m, above the finished surface) cannot be kept on site
-(common practice, no source; as droprig.solver's advice)."""
 
 YIELD_AT_LIMIT = ("a drop from the height limit lets members yield within the ductility "
                   "and rotation limits")
@@ -417,6 +420,12 @@ class LoadVerdict:
     conditions: tuple[Condition, ...]
     bays: tuple[BayVerdict, ...] = ()
 
+    @property
+    def kept_off(self) -> bool:
+        """Every bay the load can reach must be excluded: no practical condition makes
+        it acceptable (whatever the lift plan's points)."""
+        return bool(self.bays) and all(b.verdict == "not_acceptable" for b in self.bays)
+
 
 @dataclass(frozen=True)
 class PlanClash:
@@ -620,17 +629,14 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
         lims = [v for v in (b.height_limit,
                             None if struct is None else LIMIT_MARGIN * struct)]
         cap = None if None in lims else min(lims)  # type: ignore[type-var]
-        el = b.allowable_drop_height
-        if cap is not None and el is not None and cap <= 1.01 * el:
-            # offered as elastic (no yield sign-off below): the margin on the elastic
-            # height, never up to 1 % above it (two-level demo, hook block: 0.151 m
-            # beside an elastic 0.1499 m; common practice, no source)
-            cap = min(cap, LIMIT_MARGIN * el)
+        yields = True
+        if cap is not None:  # the margin on the elastic height unless it may yield
+            cap, yields = offered_limit(cap, b.allowable_drop_height)
         if cap is not None and cap >= MIN_USEFUL_HEIGHT and cap > thickest:
             conds.append(Condition("cap_hook", max_drop_height=cap,  # type: ignore
                                    max_hook_elevation=hook(cap),
                                    hang_length=load.hang_length, region=region, **base))
-            if b.allowable_drop_height is None or cap > 1.01 * b.allowable_drop_height:
+            if yields:
                 conds.append(Condition("separate_signoff", detail=YIELD_AT_LIMIT,  # type: ignore
                                        **base))
         else:
@@ -781,13 +787,10 @@ def derive_conditions(project: Project, results: Results) -> PermitConditions:
                         for b in summaries if (b.level_id, b.bay_id) in rects)
             conds = _merge([*(c for bv in bvs for c in bv.conditions), *conn], rects,
                            system=system)
-            if bvs and all(bv.verdict == "not_acceptable" for bv in bvs):
-                verdict: Verdict = "not_acceptable"
-            elif conds:
-                verdict = "acceptable_with_conditions"
-            else:
-                verdict = "acceptable"
-            loads.append(LoadVerdict(zone.id, ld.name, verdict, conds, bvs))
+            verdict: Verdict = "acceptable_with_conditions" if conds else "acceptable"
+            load_v = LoadVerdict(zone.id, ld.name, verdict, conds, bvs)
+            loads.append(replace(load_v, verdict="not_acceptable") if load_v.kept_off
+                         else load_v)
             everything.extend(conds)
     not_checked = list(NOT_CHECKED)
     if not project.settings.dynamic_amplification:

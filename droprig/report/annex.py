@@ -820,9 +820,7 @@ class _Builder:
         words = VERDICT_WORDS[verdict].upper()
         if verdict == "acceptable_with_conditions":
             words += f" — {n_cond} CONDITION{'S' if n_cond != 1 else ''} BELOW"
-        elif verdict == "not_acceptable" and not any(
-                lv.bays and all(b.verdict == "not_acceptable" for b in lv.bays)
-                for lv in lvs) and any(
+        elif verdict == "not_acceptable" and not any(lv.kept_off for lv in lvs) and any(
                 c.zone_id in {z.id for z in self.zones}
                 for c in getattr(self.permit, "clashes", ())):
             # every load has a bay it may be carried over, but the plan's own pick-up

@@ -53,6 +53,21 @@ class Advice:
     mat_travel: float | None = None
 
 
+def offered_limit(h: float, h_elastic: float | None) -> tuple[float, bool]:
+    """A height limit ``h`` (m) as the permit offers it, and whether it lets members
+    yield (then it needs the engineer's sign-off): it yields where it is more than 1 %
+    above the elastic allowable height ``h_elastic`` (m; ``None``: no elastic height).
+    Offered as elastic, it keeps the margin on the elastic height, at most
+    :data:`LIMIT_MARGIN` × ``h_elastic`` — never up to 1 % above it (a limit 0.9 × the
+    plastic height read 0.151 m beside an elastic 0.1499 m on the two-level demo,
+    with no margin left for the places between the drop points; common practice, no
+    source). The one rule of :func:`bay_advice` and of the permit's limit over a deck
+    the load may go through."""
+    if h_elastic is None or h > 1.01 * h_elastic:
+        return h, True
+    return min(h, LIMIT_MARGIN * float(h_elastic)), False
+
+
 def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
                mat_travel: float | None = None, h_elastic: float | None = None,
                h_local: float | None = None) -> Advice:
@@ -79,16 +94,9 @@ def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | 
     yields = False
     if h_allow is not None and LIMIT_MARGIN * h_allow >= MIN_USEFUL_HEIGHT and \
             resp == EXCEEDS:
-        h = LIMIT_MARGIN * float(h_allow)
-        yields = h_elastic is None or h > 1.01 * h_elastic
-        if not yields and h_elastic is not None:
-            # offered as elastic (no yield sign-off): the margin on the elastic height,
-            # never up to 1 % above it (a limit 0.9 × the plastic height read 0.151 m
-            # beside an elastic 0.1499 m, with no margin left for the places between
-            # the drop points; common practice, no source)
-            h = min(h, LIMIT_MARGIN * float(h_elastic))
-            if h < MIN_USEFUL_HEIGHT:
-                h = None
+        h, yields = offered_limit(LIMIT_MARGIN * float(h_allow), h_elastic)
+        if h < MIN_USEFUL_HEIGHT:
+            h = None
     k: float | None = None
     travel: float | None = None
     if (k_mat is not None and math.isfinite(k_mat) and k_mat > 0
