@@ -36,7 +36,7 @@ import unicodedata
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 
-from droprig import __version__
+from droprig import __version__, units
 from droprig.io.atomic import atomic_path
 from droprig.model import (
     Deck,
@@ -53,7 +53,9 @@ from droprig.permit import (
     CLASH_ADVICE,
     ENERGY_ONLY,
     LIMIT_NOTE,
+    SIG_HEIGHT,
     derive_conditions,
+    fmt_height,
     pad_words,
 )
 from droprig.permit import VERDICT_WORDS as _PERMIT_WORDS
@@ -783,6 +785,14 @@ class _Builder:
             return "0 " + fmt_value(1.0, quantity, self.sys).split(" ", 1)[-1]
         return fmt_value(value, quantity, self.sys)
 
+    def coord(self, value: float) -> str:
+        """A plan coordinate in m / ft whatever its size (the small-length switch of
+        :meth:`v` printed "x = 3.00 in, y = 29.70 ft" for one point); zero as
+        ``0 m``."""
+        if value == 0:
+            return self.v(0.0, "length")
+        return units.fmt(value, "length", self.sys)
+
     def ref(self, key: str) -> str:
         return str(self.refs.get(key, "?"))
 
@@ -851,11 +861,10 @@ class _Builder:
             "Drop heights are the load's underside above the finished surface of the "
             "level.", st.small))
         # per load
-        small = "in" if self.sys == "US" else "mm"
         big = "ft" if self.sys == "US" else "m"
         mass_u = "lb" if self.sys == "US" else "kg"
         hdr = ["Zone", "Load", f"Mass, {mass_u}", f"Planned drop height, {big}", "Verdict",
-               "Max U", f"Least allowable drop height, {small}", "Conditions"]
+               "Max U", f"Least allowable drop height, {big}", "Conditions"]
         rows: list[list[object]] = [hdr]
         extra = []
         verdicts = {(cv.zone_id, cv.load_name): cv
@@ -867,11 +876,10 @@ class _Builder:
             rows.append([
                 lv.zone_id, self.P(esc(lv.load_name)),
                 self.v(cv.mass, "mass").split(" ")[0] if cv else "",
-                fmt_value(cv.planned_drop_height, "length", self.sys).split(" ")[0]
-                if cv else "",
+                _h_planned(cv.planned_drop_height, self.sys) if cv else "",
                 self.P(f"<b>{esc(VERDICT_WORDS[lv.verdict])}</b>"),
                 fmt_util(cv.max_utilisation) if cv else "",
-                _h_small(cv.least_allowable_drop_height, self.sys) if cv else "",
+                _h_allow(cv.least_allowable_drop_height, self.sys) if cv else "",
                 self.P(", ".join(f"C{n}" for n in nums) or "none"),
             ])
             extra.append(_outcome_bg(_VERDICT_STYLE[lv.verdict], 4, i + 1))
@@ -1058,12 +1066,12 @@ class _Builder:
 
         st = self.st
         self.section("bays")
-        small = "in" if self.sys == "US" else "mm"
+        big = "ft" if self.sys == "US" else "m"
         self.story.append(self.P(
             "Per bay and load: outcome of a drop from the planned height with the pads "
             f"as laid out ({outcome_key_words()}), "
             "highest utilisation U and the check that sets it, the "
-            f"least allowable drop height in {small} (above the finished surface, rounded "
+            f"least allowable drop height in {big} (above the finished surface, rounded "
             "down; 'none': not even a load set down is within the limits; 'no limit': no "
             "height reaches a limit) and the permit conditions that apply. Bays whose "
             "rows would be the same share one row, numbered R1, R2, …; a bay range such "
@@ -1090,7 +1098,7 @@ class _Builder:
             for k, (z, ld) in enumerate(group):
                 hdr1 += [self.P(f"<b>{esc(z.id)}: {esc(ld.name)}</b>",  # type: ignore
                                 st.head), "", "", ""]
-                hdr2 += ["", "U · check", f"h allow, {small}", "Cond."]
+                hdr2 += ["", "U · check", f"h allow, {big}", "Cond."]
                 spans.append(("SPAN", (2 + 4 * k, 0), (5 + 4 * k, 0)))
             # one row per distinct set of cells, listing its bays
             distinct: dict[tuple, list[str]] = {}
@@ -1114,7 +1122,7 @@ class _Builder:
                     u_chk = b.utilisation_check or b.governing_check
                     cells = (o.tag, f"{fmt_util(b.max_utilisation)} "
                              f"{u_chk.replace('_', ' ')}",
-                             _h_small(b.allowable_drop_height, self.sys),
+                             _h_allow(b.allowable_drop_height, self.sys),
                              " ".join(f"C{n}" for n in nums))
                     key.append(cells)
                     look.append((b.response, cells))
@@ -1459,7 +1467,7 @@ class _Builder:
             self.story.append(self.P(
                 f"Worked at: lift zone <b>{esc(g.zone_id)}</b> · load "
                 f"<b>{esc(g.load_name)}</b> · level {esc(self.p.zone(g.zone_id).level_id)}"
-                f" · drop point x = {self.v(g.x, 'length')}, y = {self.v(g.y, 'length')} "
+                f" · drop point x = {self.coord(g.x)}, y = {self.coord(g.y)} "
                 f"(bay {esc(g.bay_id)}). <b>Covers</b>: in {esc(where)} — {esc(covers)}. "
                 "The same numbers hold at every place listed.", st.small))
             self.story.extend(self._sheet_inputs(doc))
@@ -1817,28 +1825,44 @@ def sheet_doc(project: Project, results: Results, group: content.SheetGroup) -> 
     return SheetDoc(group, tr, case, idx, tuple(lines), tuple(omitted))
 
 
-def _h_small(h: float | None, system: str) -> str:
-    """An allowable drop height in mm / in, 3 significant figures rounded down."""
+def _h_allow(h: float | None, system: str) -> str:
+    """An allowable drop height in the project's length unit (m / ft), without the
+    unit, to :data:`droprig.permit.SIG_HEIGHT` significant figures rounded down: the
+    digits and unit of the permit conditions and of the window's table
+    (:func:`droprig.permit.fmt_height`). Page 1 printed it in mm / in beside a
+    planned height in m / ft ("3.00" ft beside "1.25" in), which a signer must
+    convert to compare (common practice, no source: one quantity, one unit)."""
     if is_none(h):
         return "none"
     assert h is not None
     if math.isinf(h):
         return "no limit"
-    mag = h / (0.0254 if system == "US" else 1e-3)
-    if mag <= 0:
+    if h <= 0:
         return "0"
-    e = math.floor(math.log10(mag))
-    d = max(0, 2 - e)
-    q = 10.0 ** d
-    return f"{math.floor(mag * q + 1e-9) / q:.{d}f}"
+    return units.fmt_sig(h, "length", system, sig=SIG_HEIGHT,  # type: ignore[arg-type]
+                         unit=False, rounding="down")
+
+
+def _h_planned(h: float, system: str) -> str:
+    """A planned drop height as :func:`_h_allow` prints an allowable one, rounded to
+    the nearest shown digit (a planned value, not a limit)."""
+    return units.fmt_sig(h, "length", system, sig=SIG_HEIGHT,  # type: ignore[arg-type]
+                         unit=False, rounding="nearest")
 
 
 def _allow_sig(v: float, system: str, quantity: str = "length") -> str:
+    """An allowable height or mass of a point sheet, rounded down. A height reads as
+    the permit conditions print it (:func:`droprig.permit.fmt_height`: m / ft, three
+    significant figures); the sheet printed "1.566 in" where page 1 and the
+    conditions read feet (common practice, no source: one quantity, one unit)."""
     if is_none(v):
         return "none"
     if math.isinf(v):
         return "no limit"
-    return fmt_sig(v, quantity, system)  # type: ignore[arg-type]
+    if quantity == "length":
+        return fmt_height(v, system)  # type: ignore[arg-type]
+    return units.fmt_sig(v, quantity, system, sig=SIG_HEIGHT,  # type: ignore[arg-type]
+                         rounding="down")
 
 
 # ----------------------------------------------------------------------- members

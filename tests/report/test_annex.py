@@ -248,13 +248,14 @@ def test_no_internal_names_and_no_meaningless_numbers(built: Annex) -> None:
 
 
 def _h_expected(h: float | None, system: str) -> str:
-    """An allowable height in mm (SI) or in (US), 3 significant figures, rounded
-    down (a limit is never overstated; common practice, no source)."""
+    """An allowable height in m (SI) or ft (US), the unit of the permit conditions,
+    3 significant figures, rounded down (a limit is never overstated; common
+    practice, no source; 1 ft = 0.3048 m exactly, NIST SP 811 B.8)."""
     if h is None or math.isnan(h):
         return "none"
     if math.isinf(h):
         return "no limit"
-    mag = h / (0.0254 if system == "US" else 1e-3)
+    mag = h / (0.3048 if system == "US" else 1.0)
     d = max(0, 2 - math.floor(math.log10(mag)))
     return f"{math.floor(mag * 10**d + 1e-9) / 10**d:.{d}f}"
 

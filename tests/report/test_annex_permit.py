@@ -381,3 +381,34 @@ def test_pad_label_units_match_permit_condition(name: str, system: str) -> None:
             stroke = units.fmt_sig(pa.crush_stroke, "small_length", system)  # type: ignore[arg-type]
             assert f"stroke {stroke}" in words
             assert f"stroke {stroke}" in label, (label, words)
+
+
+def test_heights_on_page_one_read_in_one_unit(recorded: tuple[Project, list[str]]) -> None:
+    """Page 1's table printed the planned drop height in m / ft beside the least
+    allowable in mm / in (seen with pdftoppm on the steel demo: planned "3.00" ft
+    beside allowable "1.25" in, and conditions in ft), so a signer had to convert to
+    compare them. Both now read in the unit of the permit conditions, and the bay
+    table's allowable column too. Common practice, no source: one quantity, one unit
+    on one permit."""
+    p, texts = recorded
+    big = "ft" if p.settings.unit_system == "US" else "m"
+    small = "in" if big == "ft" else "mm"
+    page1 = _squash(texts[0])
+    assert _squash(f"Least allowable drop height, {big}") in page1
+    assert _squash(f"drop height, {small}") not in page1
+    bays = texts[_page_of(texts, annex.HEADINGS["bays"])]
+    assert f"h allow, {big}" in bays and f"h allow, {small}" not in bays
+
+
+@pytest.mark.parametrize("system", ["SI", "US"])
+@pytest.mark.parametrize("h", [0.00163, 0.0318, 0.1222, 0.5248, 1.2, 4.8, 13.05])
+def test_allowable_cell_prints_the_conditions_figure(system: str, h: float) -> None:
+    """An allowable height in the annex's tables carries the digits of
+    :func:`droprig.permit.fmt_height` (the conditions' and the window's: rounded down,
+    three significant figures), without the unit its column header names."""
+    from droprig import permit
+
+    cell = annex._h_allow(h, system)
+    assert f"{cell} {'ft' if system == 'US' else 'm'}" == permit.fmt_height(h, system)  # type: ignore[arg-type]
+    assert annex._h_allow(math.inf, system) == "no limit"
+    assert annex._h_allow(None, system) == "none"
