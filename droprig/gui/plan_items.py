@@ -531,12 +531,12 @@ class LiftPointsItem(PixelSized, QGraphicsItem):
         # every symbol's box is taken first; each tag then goes right, left, above or
         # below its symbol, the first place clear of symbols and earlier tags (the
         # rooftop demo's S2 tag sat on P1, 2 m away)
-        taken = [QRectF(c.x() - s - 2, c.y() - 1.1 * s - 2, 2 * s + 4, 1.9 * s + 4)
-                 for c in centres]
+        taken = [lift_point_box(c, s) for c in centres]
         # and each crane with its label (the two-level demo's S1 tag sat on it)
         for z in self._zones:
             cp = t.map(to_scene(*z.crane))
-            taken += [QRectF(cp.x() - 19, cp.y() - 19, 38, 38), crane_label_rect(cp, z)]
+            taken += [QRectF(cp.x() - 19, cp.y() - 19, 38, 38),
+                      crane_label_rect(cp, z, px_per_m(t))]
         for (kind, tag, _), c in zip(self._points, centres, strict=True):
             x, y = c.x(), c.y()
             paint_lift_point(painter, kind, x, y, s)
@@ -544,7 +544,7 @@ class LiftPointsItem(PixelSized, QGraphicsItem):
             options = [QRectF(x + s + 2, y - 7, w, 14), QRectF(x - s - 2 - w, y - 7, w, 14),
                        QRectF(x - w / 2, y - 1.1 * s - 17, w, 14),
                        QRectF(x - w / 2, y + 1.1 * s + 3, w, 14)]
-            own = QRectF(x - s - 2, y - 1.1 * s - 2, 2 * s + 4, 1.9 * s + 4)
+            own = lift_point_box(c, s)
             plate = next((o for o in options
                           if not any(o.intersects(r) for r in taken if r != own)),
                          options[0])
@@ -809,7 +809,7 @@ class ZonesItem(PixelSized, QGraphicsItem):
             for z in self.shown_zones():
                 self._paint_crane(painter, t.map(to_scene(*z.crane)),
                                   z.slew_start + z.slew_sweep / 2, z, z.id == self._selected,
-                                  bounds)
+                                  bounds, px_per_m(t))
             painter.restore()
             return
         teal = QColor(style.PLAN["zone_edge"])
@@ -857,7 +857,8 @@ class ZonesItem(PixelSized, QGraphicsItem):
         return f"CRANE {z.id}" + (f" · {name}" if name and z.name != z.id else "")
 
     def _paint_crane(self, painter: QPainter, p: QPointF, mid: float, z: LiftZone,
-                     selected: bool, bounds: QRectF | None = None) -> None:
+                     selected: bool, bounds: QRectF | None = None,
+                     scale: float = 0.0) -> None:
         teal = QColor(style.PLAN["crane"])
         painter.setPen(cosmetic_pen(teal, 2.0))
         painter.setBrush(QColor(255, 255, 255, 235))
@@ -872,7 +873,7 @@ class ZonesItem(PixelSized, QGraphicsItem):
         painter.setPen(cosmetic_pen(teal, 3.0))
         painter.drawLine(p, QPointF(p.x() + 24 * math.cos(mid), p.y() - 24 * math.sin(mid)))
         painter.setFont(pixel_font(11, True))
-        plate = keep_inside(crane_label_rect(p, z), bounds)
+        plate = keep_inside(crane_label_rect(p, z, scale), bounds)
         text = QFontMetricsF(pixel_font(11, True)).elidedText(
             self.crane_label(z), Qt.TextElideMode.ElideRight, plate.width() - 6)
         painter.setPen(cosmetic_pen(teal, 1.4 if selected else 1.0))
@@ -893,27 +894,68 @@ CRANE_LABEL_OVERHANG_PX = 18.0
 """How far such a label reaches past the crane centre, towards the jib (pixels)."""
 
 
-def crane_label_rect(p: QPointF, z: LiftZone) -> QRectF:
+def crane_label_rect(p: QPointF, z: LiftZone, scale: float = 0.0) -> QRectF:
     """Device rectangle of a crane's label for the crane drawn at pixel ``p``:
     under (or over) the crane, on the side away from the jib's vertical direction,
     so it never covers the arc; when the jib points mostly east or west the label
     runs from the crane away from the jib (so it stays off the floor the crane
-    swings over), otherwise it is centred."""
+    swings over), otherwise it is centred.
+
+    With the plan's ``scale`` (device pixels per metre, > 0) the label also keeps
+    clear of the zone's own pick-up and set-down symbols (:func:`lift_point_box`):
+    the first of its places that covers none of them (its own run under or over
+    the crane, one or two lines further out, then the other runs); the first place
+    if none is clear. On the
+    two-level demo the set-down point S1 sat on the label's text."""
     text = ZonesItem.crane_label(z)
     tw = QFontMetricsF(pixel_font(11, True)).horizontalAdvance(text) + 8
     full = z.slew_sweep >= 2 * math.pi - 1e-9
     mid = z.slew_start + z.slew_sweep / 2
     below = full or math.sin(mid) >= -0.2
-    # plan +y is screen up: a jib pointing north (sin > 0) puts the label below
-    top = p.y() + 22 if below else p.y() - 22 - 15
     east = 0.0 if full else math.cos(mid)
     if east > CRANE_LABEL_SIDE_COS:
-        left = p.x() + CRANE_LABEL_OVERHANG_PX - tw
+        run = "west"
     elif east < -CRANE_LABEL_SIDE_COS:
-        left = p.x() - CRANE_LABEL_OVERHANG_PX
+        run = "east"
     else:
-        left = p.x() - tw / 2
-    return QRectF(left, top, tw, 15)
+        run = "centre"
+
+    def place(below: bool, run: str, step: int = 0) -> QRectF:
+        # plan +y is screen up: a jib pointing north (sin > 0) puts the label below
+        top = p.y() + 22 + 16 * step if below else p.y() - 22 - 15 - 16 * step
+        left = {"west": p.x() + CRANE_LABEL_OVERHANG_PX - tw,
+                "east": p.x() - CRANE_LABEL_OVERHANG_PX,
+                "centre": p.x() - tw / 2}[run]
+        return QRectF(left, top, tw, 15)
+
+    first = place(below, run)
+    if scale <= 0.0 or not z.lift_points:
+        return first
+    cx, cy = z.crane
+    boxes = [lift_point_box(QPointF(p.x() + (x - cx) * scale, p.y() - (y - cy) * scale))
+             for x, y in (lp.at for lp in z.lift_points)]
+    # its own run first (it keeps the label off the floor the jib swings over), one
+    # or two lines further out, then the other runs
+    runs = [run] + [r for r in ("centre", "east", "west") if r != run]
+    for r in runs:
+        for b in (below, not below):
+            for step in (0, 1, 2):
+                rect = place(b, r, step)
+                if not any(rect.intersects(box) for box in boxes):
+                    return rect
+    return first
+
+
+def lift_point_box(c: QPointF, size: float = 7.0) -> QRectF:
+    """Device box of a pick-up or set-down symbol of half-size ``size`` (px) drawn at
+    ``c`` (:func:`paint_lift_point`), with a 2 px gap."""
+    return QRectF(c.x() - size - 2, c.y() - 1.1 * size - 2, 2 * size + 4, 1.9 * size + 4)
+
+
+def px_per_m(t: QTransform) -> float:
+    """Device pixels per metre of plan under the painter's world transform ``t``."""
+    a, b = t.map(to_scene(0.0, 0.0)), t.map(to_scene(1.0, 0.0))
+    return math.hypot(b.x() - a.x(), b.y() - a.y())
 
 
 LABEL_MARGIN_PX = 4.0

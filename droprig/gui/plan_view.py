@@ -94,6 +94,7 @@ from droprig.gui.plan_items import (
     paint_lift_point,
     paint_scabbing_mark,
     pixel_font,
+    px_per_m,
     raster_transform,
     rasterise,
     rect_to_scene,
@@ -723,7 +724,8 @@ class PlanView(QGraphicsView):
         # crane labels are fixed-size text: widen the margins so none is cut off
         for z in self._cranes_item.shown_zones():
             c = to_scene(*z.crane)
-            lab = crane_label_rect(QPointF((c.x() - r.left()) * s, (c.y() - r.top()) * s), z)
+            lab = crane_label_rect(QPointF((c.x() - r.left()) * s, (c.y() - r.top()) * s),
+                                   z, s)
             ml = max(ml, -lab.left() + 8)
             mt = max(mt, -lab.top() + 8)
             mr = max(mr, lab.right() - r.width() * s + 8)
@@ -1333,7 +1335,7 @@ class PlanView(QGraphicsView):
         for z in self._cranes_item.shown_zones():
             c = QPointF(self.mapFromScene(to_scene(*z.crane)))
             d = math.hypot(pos.x() - c.x(), pos.y() - c.y())
-            on_label = crane_label_rect(c, z).contains(QPointF(pos))
+            on_label = crane_label_rect(c, z, self._px_per_m()).contains(QPointF(pos))
             if (d <= CRANE_PICK_PX or on_label) and (best is None or d < best[0]):
                 best = (d, z.id)
         return best[1] if best is not None else None
@@ -1623,7 +1625,7 @@ class PlanView(QGraphicsView):
             c = QPointF(self.mapFromScene(to_scene(*z.crane)))
             k = CRANE_SYMBOL_RADIUS_PX
             out.append(QRectF(c.x() - k, c.y() - k, 2 * k, 2 * k))
-            out.append(keep_inside(crane_label_rect(c, z), bounds))
+            out.append(keep_inside(crane_label_rect(c, z, self._px_per_m()), bounds))
         return out
 
     def _paint_grid(self, p: QPainter) -> None:
@@ -1824,6 +1826,10 @@ class PlanView(QGraphicsView):
             return "Worst of every load and zone"
         return f"Zone {self._case[0]}, load {self._case[1]}"
 
+    def _px_per_m(self) -> float:
+        """Viewport pixels per metre of plan at the current zoom."""
+        return px_per_m(self.viewportTransform())
+
     def content_viewport_rect(self) -> QRectF:
         """Viewport rectangle of the plan's content: the grid with its bubbles
         and dimension lines, the swing zones and the protection areas."""
@@ -1841,7 +1847,7 @@ class PlanView(QGraphicsView):
         for z in self._cranes_item.shown_zones():
             c = QPointF(self.mapFromScene(to_scene(*z.crane)))
             out.append(QRectF(c.x() - 30, c.y() - 30, 60, 60))
-            out.append(crane_label_rect(c, z))
+            out.append(crane_label_rect(c, z, self._px_per_m()))
         return [r for r in out if not r.isEmpty()]
 
     def _legend_size(self) -> tuple[float, float]:

@@ -229,6 +229,32 @@ def test_crane_label_stays_off_the_floor_the_jib_swings_over(slew_deg, side) -> 
         assert r.center().x() == pytest.approx(p.x())
 
 
+@pytest.mark.parametrize("scale", [6.0, 10.0, 20.0])
+def test_crane_label_keeps_off_the_lift_points(qapp, scale: float) -> None:
+    """The two-level demo's set-down point S1 sat on its crane's label text (seen under
+    Xvfb at 1280 x 720, about 6 px per metre). With the plan's scale the label takes
+    the first of its places that covers none of the zone's pick-up / set-down
+    symbols; the symbols are drawn over labels, so a covered label loses its text.
+    (Below about 5 px per metre both points crowd the crane and no place is clear.)
+    Common practice, no source: a drawing's labels never hide its symbols."""
+    import pathlib
+
+    from droprig.gui.plan_items import lift_point_box
+    from droprig.io.project_file import load_project
+
+    root = pathlib.Path(__file__).resolve().parents[2]
+    zone = load_project(root / "demo_projects" / "two_level_rigging.droprig").lift_zones[0]
+    assert zone.lift_points, "the demo has a lift plan's points"
+    p = QPointF(300.0, 200.0)
+    cx, cy = zone.crane
+    boxes = [lift_point_box(QPointF(p.x() + (x - cx) * scale, p.y() - (y - cy) * scale))
+             for x, y in (lp.at for lp in zone.lift_points)]
+    label = crane_label_rect(p, zone, scale)
+    assert not any(label.intersects(b) for b in boxes), (scale, label, boxes)
+    if scale == 6.0:  # the place it had before, where S1 covered the text
+        assert any(crane_label_rect(p, zone).intersects(b) for b in boxes)
+
+
 def test_selecting_a_bay_picks_its_worst_row_then_highest_utilisation(
         qtbot, window: MainWindow) -> None:
     from droprig.gui.document import Selection
