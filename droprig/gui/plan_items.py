@@ -506,6 +506,14 @@ class LiftPointsItem(PixelSized, QGraphicsItem):
         self._rect = r
         self.update()
 
+    def obstacles(self, t: QTransform) -> list[QRectF]:
+        """Device rectangles a name on the plan keeps clear of where it can: each
+        point's symbol with room for its tag on any side (the rooftop demo's pad name
+        sat under P1's and S2's tags)."""
+        s = self.SIZE_PX
+        return [lift_point_box(t.map(q), s).adjusted(-26, -18, 26, 18)
+                for _, _, q in self._points]
+
     @property
     def tags(self) -> list[str]:
         return [t for _, t, _ in self._points]

@@ -370,7 +370,9 @@ class PlanView(QGraphicsView):
         # bay tags and mat names keep clear of the handles and the crane symbols and
         # labels (the crane label was drawn over a bay's tag, the crane over a mat's name)
         self._labels_item.avoid = lambda: self.handle_rects() + self._crane_obstacles()
-        self._protection_labels.avoid = self._crane_obstacles
+        self._protection_labels.avoid = lambda: (
+            self._crane_obstacles()
+            + self._lift_points_item.obstacles(self.viewportTransform()))
         self._dim_plate = QColor(style.PLAN["background"])
         self._doc: Document | None = None
         self._stale_timer = QTimer(self)

@@ -50,3 +50,25 @@ def test_points_drawn_with_tags_and_in_the_key(qtbot, tmp_path: Path) -> None:
                 for dx in range(-4, 5) for dy in range(-4, 5)
                 if 0 <= c.x() + dx < img.width() and 0 <= c.y() + dy < img.height()]
         assert dark and min(dark) < 60, (lp, min(dark, default=None))
+
+
+def test_pad_names_keep_clear_of_the_points(qtbot, tmp_path: Path) -> None:
+    """On the rooftop demo at 1280 x 720 under Xvfb the timber mat's name sat under the
+    tags of P1 and S2 ("Timbe S2 ▼ △ P1"). A pad's name now takes a corner of its pad
+    clear of every point's symbol and tag room where one is free (common practice, no
+    source: a drawing's labels never hide its symbols)."""
+    project = load_project(DEMO)
+    win = MainWindow(Document(project, DEMO), settings_dir=tmp_path, autosave=False,
+                     threaded=False, debounce_ms=30)
+    qtbot.addWidget(win, before_close_func=lambda w: setattr(w, "_closing", True))
+    win.resize(1280, 720)
+    win.show()
+    qtbot.waitUntil(lambda: not win.runner.busy and win.doc.results_confirmed,
+                    timeout=60_000)
+    t = win.plan.viewportTransform()
+    points = win.plan._lift_points_item.obstacles(t)
+    assert len(points) == len(project.lift_zones[0].lift_points)
+    plates = win.plan._protection_labels.label_plates(t)
+    assert plates, "the demo's pads are named on the plan"
+    for text, plate in plates:
+        assert not any(plate.intersects(b) for b in points), (text, plate)
