@@ -14,7 +14,7 @@ from PySide6.QtGui import QImage, QPainter
 from droprig.gui.document import Document
 from droprig.gui.main_window import MainWindow
 from droprig.io.project_file import load_project
-from droprig.model import lift_point_tags
+from droprig.model import Project, lift_point_tags
 
 pytestmark = pytest.mark.gui
 
@@ -22,7 +22,8 @@ ROOT = Path(__file__).resolve().parents[2]
 DEMO = ROOT / "demo_projects" / "rooftop_plant_swap.droprig"
 
 
-def test_points_drawn_with_tags_and_in_the_key(qtbot, tmp_path: Path) -> None:
+def _demo_window(qtbot, tmp_path: Path) -> tuple[Project, MainWindow]:
+    """The rooftop demo in a 1280 x 720 window, analysed and confirmed."""
     project = load_project(DEMO)
     win = MainWindow(Document(project, DEMO), settings_dir=tmp_path, autosave=False,
                      threaded=False, debounce_ms=30)
@@ -31,6 +32,11 @@ def test_points_drawn_with_tags_and_in_the_key(qtbot, tmp_path: Path) -> None:
     win.show()
     qtbot.waitUntil(lambda: not win.runner.busy and win.doc.results_confirmed,
                     timeout=60_000)
+    return project, win
+
+
+def test_points_drawn_with_tags_and_in_the_key(qtbot, tmp_path: Path) -> None:
+    project, win = _demo_window(qtbot, tmp_path)
     item = win.plan._lift_points_item
     zone = project.lift_zones[0]
     assert item.tags == lift_point_tags(zone) == ["P1", "S1", "P2", "S2"]
@@ -57,14 +63,7 @@ def test_pad_names_keep_clear_of_the_points(qtbot, tmp_path: Path) -> None:
     tags of P1 and S2 ("Timbe S2 ▼ △ P1"). A pad's name now takes a corner of its pad
     clear of every point's symbol and tag room where one is free (common practice, no
     source: a drawing's labels never hide its symbols)."""
-    project = load_project(DEMO)
-    win = MainWindow(Document(project, DEMO), settings_dir=tmp_path, autosave=False,
-                     threaded=False, debounce_ms=30)
-    qtbot.addWidget(win, before_close_func=lambda w: setattr(w, "_closing", True))
-    win.resize(1280, 720)
-    win.show()
-    qtbot.waitUntil(lambda: not win.runner.busy and win.doc.results_confirmed,
-                    timeout=60_000)
+    project, win = _demo_window(qtbot, tmp_path)
     t = win.plan.viewportTransform()
     points = win.plan._lift_points_item.obstacles(t)
     assert len(points) == len(project.lift_zones[0].lift_points)
