@@ -9,7 +9,7 @@ The reference is the solver's own bay summary (droprig.solver.results.BaySummary
 each surface's figures are checked against it, not only against each other.
 Annex rendering takes about two seconds a project on the shared test machine, so the
 annex is read back for every tenth project (20 of the 200); the other surfaces for
-all 200. The annex's bay × load table is compact (heights in mm or in, conditions by
+all 200. The annex's bay × load table is compact (heights in m or ft, conditions by
 number): there the test reads the verdict of every load, every condition sentence,
 each bay's allowable height at the annex's stated rounding and U with its check.
 """
@@ -117,20 +117,24 @@ def _check_annex(project, results, permit, path) -> None:
     for c in permit.conditions:
         sentence = c.sentence(system, project.level(c.level_id))
         assert _norm(sentence) in text, sentence
-    # the annex's bay table gives the allowable height in mm (in) to three
+    # the annex's bay table gives the allowable height in m (ft), the unit of the
+    # permit's conditions, to three
     # significant figures, rounded down, and U with its own check
     for b in results.bays:
-        assert _small(b.allowable_drop_height, system) in text, b.allowable_drop_height
+        assert _height(b.allowable_drop_height, system) in text, b.allowable_drop_height
         assert f"{fmt_utilisation(b.max_utilisation)} " \
             f"{b.utilisation_check.replace('_', ' ')}" in text
 
 
-def _small(h: float | None, system: str) -> str:
-    """A height in mm (in), three significant figures rounded down (the annex's
-    stated rounding; common practice, no source)."""
+def _height(h: float | None, system: str) -> str:
+    """A height in m (ft), three significant figures rounded down (the annex's
+    stated rounding; common practice, no source; 1 ft = 0.3048 m exactly, NIST SP 811
+    B.8)."""
     if h is None:
         return "none"
-    mag = h / (0.0254 if system == "US" else 1e-3)
+    if math.isinf(h):
+        return "no limit"
+    mag = h / (0.3048 if system == "US" else 1.0)
     d = max(0, 2 - math.floor(math.log10(mag))) if mag > 0 else 0
     return f"{math.floor(mag * 10**d + 1e-9) / 10**d:.{d}f}"
 
