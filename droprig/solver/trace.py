@@ -19,7 +19,7 @@ import math
 import numpy as np
 
 from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, Project
-from droprig.solver import amplification, droppoints, limits, local_damage, struck_mass
+from droprig.solver import amplification, droppoints, limits, local_damage, pads, struck_mass
 from droprig.solver.chain import (
     BRITTLE,
     CONTACT_CHECKS,
@@ -211,9 +211,20 @@ def _path_steps(sheet: _Sheet) -> None:
         "1/k_load", "1/k_load (0 for a rigid load)",
         {"k_load": (k_load, "stiffness")} if k_load is not None else {},
         inp.f_load[0], "compliance", _SRC_SERIES)
-    add("Compliance of the struck point", "f", "f = f_s + f_deck + 1/k_load + 1/k_mat",
+    if bool(inp.crushable[0]):
+        t_r = max(float(inp.t_mat[0] - inp.s_c[0]), 0.0)
+        add("Compliance of the crushable layer once its stroke is spent (its residual "
+            "thickness under the contact, spread 1:1)", "f_layer",
+            "f_layer = ∫₀^t_r dz/(E·(a + 2z)(b + 2z))",
+            {"t_r": (t_r, "length"), "E": (pads.SPENT_LAYER_MODULUS, "stress")},
+            inp.f_layer[0], "compliance",
+            "Gere, Mechanics of Materials 7th ed., §2.3; EN 338:2016 Table 1 E_90,mean of "
+            "C24 (from memory; droprig.solver.pads)")
+    add("Compliance of the struck point", "f",
+        "f = f_s + f_deck + 1/k_load + f_layer + 1/k_mat",
         {"f_s": (comp.f_s[0], "compliance"), "f_deck": (comp.f_deck[0], "compliance"),
          "1/k_load": (inp.f_load[0], "compliance"),
+         "f_layer": (inp.f_layer[0], "compliance"),
          "1/k_mat": (inp.f_mat[0], "compliance")},
         comp.f[0], "compliance", _SRC_SERIES + "; Engineering ToolBox, Impact Force")
     steel = ("m_e = ((f_s − f_col)/(f_s + f_deck + 1/k_load))²·Σ_m ∫ μ_m (w_m(x)/w_s(p))² "
