@@ -126,3 +126,37 @@ def test_after_bottoming_contact_against_the_beam_history(spreader_on_mat1):
     ratio = float(imp.contact[0]) / float(th.force[0])
     # measured 2.04: the chain at or above the history, within 2.5 × it
     assert 1.0 <= ratio <= 2.5
+
+
+@pytest.mark.parametrize("demo, load_name", [("rooftop_plant_swap", "Spreader beam 4 m"),
+                                             ("steel_erection_floor", "Spreader bar 12 ft")])
+def test_no_contact_above_its_bounds_on_the_padded_demos(demo, load_name):
+    # On a 1 m lattice over each demo's level (the spreader loads, the hardest on the
+    # pads): (i) no contact force above the crushing force of the surface under it
+    # unless the crushing passed the cover (EN 1992-1-1 §6.7 as droprig.solver.crushing
+    # bounds it); (ii) where a pad bottoms out, the contact through the spent pad is
+    # within the one-mass balance of the residual energy on a rigid support through
+    # the contact springs (Gere §9.10 Eq. 9-94, η = 1: the floor's mass only lowers
+    # it), h_r from the energy balance of chain.residual_height
+    p = load_project(ROOT / "demo_projects" / f"{demo}.droprig")
+    zone = p.lift_zones[0]
+    load = next(ld for ld in zone.loads if ld.name == load_name)
+    lv = p.level(zone.level_id)
+    ext = lv.grid.extent
+    xs, ys = np.meshgrid(np.arange(ext.x0 + 0.05, ext.x1, 1.0),
+                         np.arange(ext.y0 + 0.05, ext.y1, 1.0))
+    fm = analysis.build_floor(lv, p.settings)
+    geo = analysis.point_geometry(fm, p, xs.ravel(), ys.ravel())
+    c = evaluate_chain(fm, p, load, geo, v_hoist=zone.hoist_speed)
+    inp, comp, imp = c[LoadInputs], c[Compliance], c[Impact]
+    Fc = imp.contact
+    ok = np.isfinite(Fc)
+    assert np.all(~ok | imp.deck_through | (Fc <= imp.F_crush * (1 + 1e-9)))
+    bot = ok & inp.crushable & imp.bottomed
+    assert bot.sum() >= 3
+    W = inp.W[bot]
+    h_r = chain.residual_height(W, energy_fall(c, inp.h)[bot], inp.F_c[bot], inp.s_c[bot],
+                                comp.f[bot])
+    k_c = 1.0 / comp.f_series[bot]
+    F_rigid = W + np.sqrt(W * W + 2.0 * W * h_r * k_c)
+    assert np.all(Fc[bot] <= F_rigid * (1 + 1e-9))
