@@ -266,10 +266,7 @@ class LoadInputs:
     is spent, t_r = thickness − stroke (the area that bears on the deck after the
     layer bottoms out), and ``f_layer`` (m/N) is that spent layer's own compliance,
     in series with the contact (:func:`droprig.solver.pads.spent_layer_compliance`;
-    0 elsewhere). ``edge_margin`` (m): the clear distance from that bearing area to
-    the nearest free edge of the deck or an opening
-    (:func:`droprig.solver.footprint.free_edge_margin`; ∞ deck-less), which bounds
-    the concentric spread of the bearing pressure under it."""
+    0 elsewhere)."""
 
     W: np.ndarray
     M: np.ndarray
@@ -288,7 +285,6 @@ class LoadInputs:
     lb: np.ndarray
     protected: np.ndarray
     f_layer: np.ndarray
-    edge_margin: np.ndarray
 
 
 def load_inputs(c: Chain) -> LoadInputs:
@@ -323,15 +319,9 @@ def load_inputs(c: Chain) -> LoadInputs:
     t_spread, f_layer = _spent_layer(cl, cw, t_mat, s_c, crushable)
     foot_l, foot_w = _footprint_on_deck(d, cl, cw, t_spread)
     lb = np.minimum(foot_l, foot_w)
-    lv = d.fm.level
-    ext = lv.grid.extent
-    margin = footprint_mod.free_edge_margin(
-        geo.x, geo.y, foot_l, foot_w, (ext.x0, ext.y0, ext.x1, ext.y1),
-        tuple((o.x0, o.y0, o.x1, o.y1) for o in lv.deck.openings))
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
-                      foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer,
-                      edge_margin=margin)
+                      foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer)
 
 
 def _spent_layer(cl: np.ndarray, cw: np.ndarray, t_mat: np.ndarray, s_c: np.ndarray,
@@ -904,11 +894,9 @@ def impact_at(c: Chain, h: np.ndarray | None, sel: np.ndarray | None = None) -> 
                    * inp.foot_l * inp.foot_w)
         depth_available = lv.deck.thickness
     else:
-        # the bearing pressure spreads concentrically, so no further than the nearest
-        # free edge (deck edge, opening) lets it (LoadInputs.edge_margin)
         F_crush = crushing.concrete_bearing_pressure(
             lv.deck.concrete.fc, inp.foot_l, inp.foot_w, lv.deck.thickness,
-            d.fm.settings.design_basis, margin=inp.edge_margin) * inp.foot_l * inp.foot_w
+            d.fm.settings.design_basis) * inp.foot_l * inp.foot_w
         depth_available = lv.deck.cover
     if d.bare is not None:
         # deck-less: the hard load on the bare top flange — the contact force is
@@ -3475,8 +3463,7 @@ def _bare_load_inputs(b: BareMember, n: int) -> LoadInputs:
                       s_c=full(n, b.s_c), crushable=full(n, bool(np.isfinite(b.F_c))),
                       h=full(n, b.h), H=full(n, b.h), foot_l=full(n, b.bearing),
                       foot_w=full(n, b.bearing), lb=full(n, b.bearing),
-                      protected=full(n, b.cushioned), f_layer=np.zeros(n),
-                      edge_margin=full(n, np.inf))
+                      protected=full(n, b.cushioned), f_layer=np.zeros(n))
 
 
 def _bare_compliance(d: Drop, inp: LoadInputs) -> Compliance:

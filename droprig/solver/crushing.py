@@ -89,8 +89,7 @@ def steel_indentation_pressure(fy: ArrayLike) -> np.ndarray:
 
 
 def concrete_bearing_pressure(fc: float, c1: ArrayLike, c2: ArrayLike, depth: ArrayLike,
-                              basis: str, dif: float = CONCRETE_DIF,
-                              margin: ArrayLike = math.inf) -> np.ndarray:
+                              basis: str, dif: float = CONCRETE_DIF) -> np.ndarray:
     """Pressure at which the concrete under a rectangular loaded area c1 × c2 crushes,
     Pa, as an upper estimate of the contact pressure.
 
@@ -99,31 +98,19 @@ def concrete_bearing_pressure(fc: float, c1: ArrayLike, c2: ArrayLike, depth: Ar
     over a depth h ≥ (b2 − b1) (Fig. 6.29) — here b2 = min(3·b1, b1 + depth).
     ACI 318-19 §22.8.3.2: Bn = 0.85·f'c·A1·√(A2/A1), √(A2/A1) ≤ 2, A2 spread at 1:2
     (here over the same ``depth``).
-    Both codes keep the distribution area concentric with the loaded area and within
-    the member (EN 1992-1-1 §6.7(2): the centre of A_c1 on the line of action through
-    the centre of A_c0, Fig. 6.29; ACI 318-19 §22.8.3.2: A2 the base of the largest
-    frustum wholly within the support): with a free edge (the deck's edge, an
-    opening) ``margin`` m clear of the loaded area, each side of the distribution
-    area is at most b + 2·margin (margin 0: no enhancement, the pressure f_cm).
     Upper estimate: the mean strength f_cm = f_ck + 8 MPa (EN 1992-1-1 Table 3.1) or
     f'c + 8.3 MPa (ACI 318-19 §26.12.3.1, f'c ≤ 35 MPa — from memory), γc = 1, times
-    the strain-rate factor ``dif``. fc in Pa; c1, c2, depth, margin in m.
+    the strain-rate factor ``dif``. fc in Pa; c1, c2, depth in m.
     """
-    c1, c2, h, e = np.broadcast_arrays(*(np.asarray(v, float)
-                                         for v in (c1, c2, depth, margin)))
-    if np.any(np.isnan(e)) or np.any(e < 0.0):
-        raise ValueError("margin: the clear distance to a free edge must be ≥ 0 m")
+    c1, c2, h = np.broadcast_arrays(*(np.asarray(v, float) for v in (c1, c2, depth)))
     if basis == "en1993":
         fm = fc + 8e6
-        b1 = np.minimum(np.minimum(3.0 * c1, c1 + h), c1 + 2.0 * e)
-        b2 = np.minimum(np.minimum(3.0 * c2, c2 + h), c2 + 2.0 * e)
+        b1, b2 = np.minimum(3.0 * c1, c1 + h), np.minimum(3.0 * c2, c2 + h)
         ratio = np.minimum(np.sqrt(b1 * b2 / (c1 * c2)), 3.0)
         return dif * fm * ratio
     if basis == "aisc360":
         fm = fc + 8.3e6
-        # 1 vertical : 2 horizontal each side, within the support
-        b1 = np.minimum(c1 + 4.0 * h, c1 + 2.0 * e)
-        b2 = np.minimum(c2 + 4.0 * h, c2 + 2.0 * e)
+        b1, b2 = c1 + 4.0 * h, c2 + 4.0 * h  # 1 vertical : 2 horizontal each side
         ratio = np.minimum(np.sqrt(b1 * b2 / (c1 * c2)), 2.0)
         return dif * 0.85 * fm * ratio
     raise ValueError(f"design basis: {basis!r} is not allowed; allowed: aisc360, en1993")

@@ -25,7 +25,6 @@ __all__ = [
     "bridges_strip",
     "clip_footprint",
     "footprint_on_deck",
-    "free_edge_margin",
     "rigid_base_shares",
     "tilted_edges",
 ]
@@ -86,30 +85,6 @@ def footprint_on_deck(x: ArrayLike, y: ArrayLike, length: ArrayLike, width: Arra
     share = np.minimum(least / (ln * wd), 1.0)
     root = np.sqrt(share)
     return ln * root, wd * root, share
-
-
-def free_edge_margin(x: ArrayLike, y: ArrayLike, length: ArrayLike, width: ArrayLike,
-                     extent: tuple[float, float, float, float],
-                     openings: tuple[tuple[float, float, float, float], ...] = ()
-                     ) -> np.ndarray:
-    """Clear distance (m) from a bearing area length × width centred at (x, y) to the
-    nearest free edge of the deck — its ``extent`` or an opening (x0, y0, x1, y1) —
-    the room the concrete under it has to spread the bearing pressure concentrically
-    (:func:`droprig.solver.crushing.concrete_bearing_pressure`):
-    max(0, d − min(length, width)/2), d the distance from (x, y) to the nearest free
-    edge (0 on or past it, inside an opening). The bearing area's shorter half side
-    is taken off (the orientation whose side towards the edge is the shorter: the
-    larger margin, the higher crushing force — an upper estimate, as the crushing
-    bound is meant). Plane geometry; vectorised."""
-    x, y, ln, wd = np.broadcast_arrays(*(np.asarray(v, float) for v in (x, y, length, width)))
-    ex0, ey0, ex1, ey1 = extent
-    d = np.minimum(np.minimum(x - ex0, ex1 - x), np.minimum(y - ey0, ey1 - y))
-    d = np.maximum(d, 0.0)
-    for ox0, oy0, ox1, oy1 in openings:
-        dx = np.maximum(np.maximum(ox0 - x, x - ox1), 0.0)
-        dy = np.maximum(np.maximum(oy0 - y, y - oy1), 0.0)
-        d = np.minimum(d, np.hypot(dx, dy))
-    return np.maximum(d - 0.5 * np.minimum(ln, wd), 0.0)
 
 
 def bridges_strip(span: ArrayLike, pos: ArrayLike, extent: ArrayLike) -> np.ndarray:

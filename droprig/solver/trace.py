@@ -340,12 +340,9 @@ def _crushing_step(sheet: _Sheet) -> None:
     """The deck's crushing force under the footprint, the bound on the contact."""
     inp, imp = sheet.inp, sheet.imp
     sheet.add("Crushing force of the deck concrete under the footprint (bound on the "
-              "contact force; the pressure spreads concentrically, no further than the "
-              "nearest free edge)", "F_crush",
-              "F_crush = DIF·f_cm·√(A_c1/A_c0)·A_c0 ≤ 3·DIF·f_cm·A_c0, sides of A_c1 ≤ "
-              "b + 2·e",
+              "contact force)", "F_crush",
+              "F_crush = DIF·f_cm·√(A_c1/A_c0)·A_c0 ≤ 3·DIF·f_cm·A_c0",
               {"A_c0": (inp.foot_l[0] * inp.foot_w[0], "area"),
-               "e": (inp.edge_margin[0], "length"),
                "crushed depth": (imp.deck_crush[0], "length")},
               imp.F_crush[0], "force",
               "EN 1992-1-1 §6.7 / ACI 318-19 §22.8.3.2, upper estimate "

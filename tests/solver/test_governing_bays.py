@@ -113,10 +113,7 @@ def _two_forces_by_hand(c, M: float, h: float, f_c: float, f_col: float,
     assert F_1 * (1 - TOL) <= F_f <= B_f * (1 + TOL)
     Ff_ivp, Fc_ivp = _two_mass_history(M, 1 / f_c, m2, 1 / f_col, h)
     assert Ff_ivp * (1 - TOL) <= F_f <= ENVELOPE_OVER_HISTORY * Ff_ivp
-    # the history is elastic: where its contact passes the crushing bound the concrete
-    # crushes and the contact is the bound
-    F_cr = float(imp.F_crush[0])
-    assert min(Fc_ivp, F_cr) * (1 - TOL) <= float(imp.F_contact[0]) <= F_cr * (1 + TOL)
+    assert Fc_ivp * (1 - TOL) <= float(imp.F_contact[0]) <= float(imp.F_crush[0]) * (1 + TOL)
     # the momentum check, by hand: an elastic bounce passes at most 2Mv/(M + m2)
     v = math.sqrt(2 * G * h)
     assert Ff_ivp <= 2 * M * v / (M + m2) * math.sqrt(m2 / f_col) * 1.05
@@ -136,9 +133,7 @@ def test_rooftop_governing_bay_by_hand():
       (EN 1993-1-1 §3.2.6), and the deck's indentation 1/(2aE*), a = √(A/π),
       E* = E_cm/(1 − ν²), E_cm = 22·(38/10)^0.3 GPa; at the column the beams do not
       bend, so their mass is not struck (η = 1);
-    * F = W + √(W² + 2Wh/f) (Gere Eq. 9-94), below the crushing bound (§6.7; the
-      footprint reaches the deck's edge, so the distribution area, concentric and
-      within the deck, is the footprint itself: no enhancement, 1.25·f_cm·A);
+    * F = W + √(W² + 2Wh/f) (Gere Eq. 9-94), below the crushing bound (§6.7);
     * the web under the load (EN 1993-1-5 §6, patch loading, γ_M1 = 1 as the
       project's resistance factor): IPE 360 h = 360, b = 170, t_w = 8.0, t_f = 12.7 mm
       (EN 10365, from memory), h_w = h − 2t_f; type (c) at the end:
@@ -161,7 +156,6 @@ def test_rooftop_governing_bay_by_hand():
     l, w = 4.0 / math.sqrt(2), 0.3 / math.sqrt(2)
     inp = c[LoadInputs]
     assert float(inp.foot_l[0] * inp.foot_w[0]) == pytest.approx(A, rel=1e-9)
-    assert (float(inp.foot_l[0]), float(inp.foot_w[0])) == pytest.approx((l, w), rel=1e-9)
     f_col = 3.0 / (210e9 * 0.0171)
     E_cm = 22e9 * (38.0 / 10.0) ** 0.3
     f_deck = 1.0 / (2.0 * math.sqrt(A / math.pi) * E_cm / (1 - 0.2**2))
@@ -169,11 +163,9 @@ def test_rooftop_governing_bay_by_hand():
     F_one = W + math.sqrt(W**2 + 2 * W * h / f)
     assert float(c[StruckMass].eta[0]) == pytest.approx(1.0, abs=1e-6)
     F = _two_forces_by_hand(c, load.mass, h, f_deck, f_col, F_one)
-    # EN 1992-1-1 §6.7 (upper estimate, × 1.25 strain rate): on the deck's edge the
-    # distribution area has no room beyond the footprint (§6.7(2), Fig. 6.29:
-    # concentric, within the member): b_i = c_i, √(A_c1/A_c0) = 1 — above F_one
-    assert float(inp.edge_margin[0]) == 0.0
-    F_crush = 1.25 * 38e6 * A
+    # EN 1992-1-1 §6.7 (upper estimate, × 1.25 strain rate): far above F — no cap here
+    b1, b2 = min(3 * l, l + 0.13), min(3 * w, w + 0.13)
+    F_crush = 1.25 * 38e6 * min(math.sqrt(b1 * b2 / (l * w)), 3.0) * A
     assert float(c[Impact].F_crush[0]) == pytest.approx(F_crush, rel=1e-9)
     assert F_one < F_crush
     E, fy = 210e9, 355e6
