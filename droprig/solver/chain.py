@@ -261,7 +261,12 @@ class LoadInputs:
     ``foot_w`` (spread 1:1 through a mat, then cut at the deck's edges and openings:
     a rectangle of the footprint's proportions with the area that bears, m) and
     bearing length on a flange ``lb`` (its smaller side, m); ``protected``: a pad or
-    mat lies under the load (the framing's mass share is then not taken)."""
+    mat lies under the load (the framing's mass share is then not taken). Under a
+    crushable layer the footprint spreads through what is left of it once its stroke
+    is spent, t_r = thickness − stroke (the area that bears on the deck after the
+    layer bottoms out), and ``f_layer`` (m/N) is that spent layer's own compliance,
+    in series with the contact (:func:`droprig.solver.pads.spent_layer_compliance`;
+    0 elsewhere)."""
 
     W: np.ndarray
     M: np.ndarray
@@ -279,6 +284,7 @@ class LoadInputs:
     foot_w: np.ndarray
     lb: np.ndarray
     protected: np.ndarray
+    f_layer: np.ndarray
 
 
 def load_inputs(c: Chain) -> LoadInputs:
@@ -310,11 +316,33 @@ def load_inputs(c: Chain) -> LoadInputs:
         f_mat = np.where(trial, 1.0 / np.where(trial, d.mat_k, 1.0), f_mat)
         protected = protected | trial
     H, h = _drop_heights(d, t_mat)
-    foot_l, foot_w = _footprint_on_deck(d, cl, cw, t_mat)
+    t_spread, f_layer = _spent_layer(cl, cw, t_mat, s_c, crushable)
+    foot_l, foot_w = _footprint_on_deck(d, cl, cw, t_spread)
     lb = np.minimum(foot_l, foot_w)
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
-                      foot_w=foot_w, lb=lb, protected=protected)
+                      foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer)
+
+
+def _spent_layer(cl: np.ndarray, cw: np.ndarray, t_mat: np.ndarray, s_c: np.ndarray,
+                 crushable: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The thickness through which the contact ``cl`` × ``cw`` (m) spreads to the deck
+    (m) and the spent layer's compliance (m/N) per point. A spring mat spreads it
+    through its whole thickness ``t_mat``. A crushable layer bottoms out before the
+    deck feels more than its crush force: the deck then bears the contact spread
+    through the residual thickness t_r = max(t_mat − s_c, 0) (a smaller area than
+    the whole thickness gives: the higher contact pressure and the lower crushing and
+    punching resistance), and t_r is in series with the hard contact
+    (:func:`droprig.solver.pads.spent_layer_compliance`; before this the layer was
+    rigid once spent and the contact the deck's indentation under the whole pad-spread
+    footprint, a rigid punch of 10⁻¹¹ m/N: 38 MN for a 300 kg spreader beam)."""
+    t_spread = t_mat.copy()
+    f_layer = np.zeros(t_mat.shape)
+    if crushable.any():
+        t_r = np.maximum(t_mat[crushable] - s_c[crushable], 0.0)
+        t_spread[crushable] = t_r
+        f_layer[crushable] = pads.spent_layer_compliance(cl[crushable], cw[crushable], t_r)
+    return t_spread, f_layer
 
 
 def _contact_sides(d: Drop, fl: np.ndarray, fw: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -627,8 +655,9 @@ def compliance(c: Chain) -> Compliance:
     f_deck = f_local + f_strip
     f_col = columns.column_compliance(d.fm.frame, path, columns.level_column_compliance(lv))
     f_s = path.f + f_col
-    f_struct = f_s + f_deck + inp.f_load
-    f_series = f_deck + inp.f_load + inp.f_mat
+    # the load's underside and a spent crushable layer in series with the contact
+    f_struct = f_s + f_deck + inp.f_load + inp.f_layer
+    f_series = f_deck + inp.f_load + inp.f_layer + inp.f_mat
     return Compliance(f_s=f_s, f_deck=f_deck, f_struct=f_struct, f_series=f_series,
                       f=f_struct + inp.f_mat, strip_span=span, strip_pos=pos, f_col=f_col,
                       k_left=k_l, k_right=k_r, g_strip=g1, cont_ratio=ratio,
@@ -3434,7 +3463,7 @@ def _bare_load_inputs(b: BareMember, n: int) -> LoadInputs:
                       s_c=full(n, b.s_c), crushable=full(n, bool(np.isfinite(b.F_c))),
                       h=full(n, b.h), H=full(n, b.h), foot_l=full(n, b.bearing),
                       foot_w=full(n, b.bearing), lb=full(n, b.bearing),
-                      protected=full(n, b.cushioned))
+                      protected=full(n, b.cushioned), f_layer=np.zeros(n))
 
 
 def _bare_compliance(d: Drop, inp: LoadInputs) -> Compliance:

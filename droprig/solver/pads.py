@@ -19,12 +19,23 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 __all__ = [
+    "SPENT_LAYER_MODULUS",
     "crush_stress_from_force",
     "crushable_pad_force",
     "footprint_rect",
     "rect_overlap_area",
+    "spent_layer_compliance",
     "spring_mat_stiffness",
 ]
+
+SPENT_LAYER_MODULUS = 370e6
+"""Compression modulus of a crushable layer once its stroke is spent, Pa: softwood
+across the grain, E_90,mean of strength class C24 (EN 338:2016 Table 1 — from
+memory: E_0,mean/30 = 11 000/30 ≈ 370 MPa). The timber of a timber-and-foam pad is
+its stiffest common constituent before the cells collapse (a densified foam is
+softer); a stiffer spent layer gives the higher contact force. A hardwood bearer
+(D40, E_90,mean ≈ 860 MPa) would be stiffer: a layer of that kind needs its own value
+(README, limits)."""
 
 
 def footprint_rect(x: ArrayLike, y: ArrayLike, length: ArrayLike, width: ArrayLike,
@@ -75,3 +86,32 @@ def crush_stress_from_force(crush_force: float, footprint_area: float) -> float:
     if footprint_area <= 0.0:
         raise ValueError("footprint area: must be > 0 m² to turn a crush force into a stress")
     return crush_force / footprint_area
+
+
+def spent_layer_compliance(length: ArrayLike, width: ArrayLike, residual: ArrayLike,
+                           modulus: ArrayLike = SPENT_LAYER_MODULUS) -> np.ndarray:
+    """Compliance of what is left of a crushable layer once its stroke is spent, m/N:
+    the residual thickness t_r = thickness − stroke (m) under the contact
+    ``length`` × ``width`` (a, b in m), the pressure spreading at 1:1 through it (as
+    through every layer, common practice, no source), each slice dz in uniaxial
+    compression (Gere §2.3: dδ = F·dz/(E·A(z))), A(z) = (a + 2z)(b + 2z):
+
+        f = ∫₀^t_r dz / (E·(a + 2z)(b + 2z))
+          = ln[(a + 2t_r)·b / (a·(b + 2t_r))] / (2E·(b − a))      (a ≠ b)
+          = t_r / (E·a·(a + 2t_r))                               (a = b)
+
+    E = ``modulus`` (Pa, :data:`SPENT_LAYER_MODULUS`). The spread makes the layer
+    stiffer than a column of the contact's own area (t_r/(E·a·b)): the higher
+    contact force. t_r = 0 (a layer crushed through): 0. Vectorised."""
+    a, b, t, E = np.broadcast_arrays(*(np.asarray(v, float) for v in (length, width,
+                                                                     residual, modulus)))
+    if np.any(~(a > 0.0)) or np.any(~(b > 0.0)):
+        raise ValueError("contact sides: must be > 0 m for a spent layer's compliance")
+    if np.any(~(E > 0.0)):
+        raise ValueError("spent layer modulus: must be > 0 Pa")
+    t = np.maximum(t, 0.0)
+    near = np.abs(b - a) <= 1e-9 * np.maximum(a, b)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        diff = np.log((a + 2.0 * t) * b / (a * (b + 2.0 * t))) / (2.0 * E * (b - a))
+    same = t / (E * a * (a + 2.0 * t))
+    return np.where(t > 0.0, np.where(near, same, diff), 0.0)

@@ -19,7 +19,7 @@ import math
 import numpy as np
 
 from droprig.model import STRIKE_ORIENTATIONS, LiftLoad, Project
-from droprig.solver import amplification, droppoints, limits, local_damage, struck_mass
+from droprig.solver import amplification, droppoints, limits, local_damage, pads, struck_mass
 from droprig.solver.chain import (
     BRITTLE,
     CONTACT_CHECKS,
@@ -211,9 +211,13 @@ def _path_steps(sheet: _Sheet) -> None:
         "1/k_load", "1/k_load (0 for a rigid load)",
         {"k_load": (k_load, "stiffness")} if k_load is not None else {},
         inp.f_load[0], "compliance", _SRC_SERIES)
-    add("Compliance of the struck point", "f", "f = f_s + f_deck + 1/k_load + 1/k_mat",
+    if bool(inp.crushable[0]):
+        _spent_layer_step(sheet)
+    add("Compliance of the struck point", "f",
+        "f = f_s + f_deck + 1/k_load + f_layer + 1/k_mat",
         {"f_s": (comp.f_s[0], "compliance"), "f_deck": (comp.f_deck[0], "compliance"),
          "1/k_load": (inp.f_load[0], "compliance"),
+         "f_layer": (inp.f_layer[0], "compliance"),
          "1/k_mat": (inp.f_mat[0], "compliance")},
         comp.f[0], "compliance", _SRC_SERIES + "; Engineering ToolBox, Impact Force")
     steel = ("m_e = ((f_s − f_col)/(f_s + f_deck + 1/k_load))²·Σ_m ∫ μ_m (w_m(x)/w_s(p))² "
@@ -234,6 +238,19 @@ def _path_steps(sheet: _Sheet) -> None:
             _SRC_RAYLEIGH + "; Biggs 1964 ch. 5 (from memory)")
     else:
         add("Effective struck mass", "m_e", steel, {}, sm.m_e[0], "mass", _SRC_RAYLEIGH)
+
+
+def _spent_layer_step(sheet: _Sheet) -> None:
+    """The spent crushable layer's compliance in series (chain._spent_layer)."""
+    inp = sheet.inp
+    t_r = max(float(inp.t_mat[0] - inp.s_c[0]), 0.0)
+    sheet.add("Compliance of the crushable layer once its stroke is spent (its residual "
+              "thickness under the contact, spread 1:1)", "f_layer",
+              "f_layer = ∫₀^t_r dz/(E·(a + 2z)(b + 2z))",
+              {"t_r": (t_r, "length"), "E": (pads.SPENT_LAYER_MODULUS, "stress")},
+              inp.f_layer[0], "compliance",
+              "Gere, Mechanics of Materials 7th ed., §2.3; EN 338:2016 Table 1 E_90,mean "
+              "of C24 (from memory; droprig.solver.pads)")
 
 
 def _two(sheet: _Sheet) -> bool:
@@ -315,13 +332,21 @@ def _impact_steps(sheet: _Sheet) -> None:
         {"K": (imp.K[0], "dimensionless"), "W": (W, "force")},
         imp.F[0], "force", _SRC_CRUSH if crushing else
         _SRC_TWO_MASS if two or after else _SRC_GERE)
-    add("Crushing force of the deck concrete under the footprint (bound on the contact "
-        "force)", "F_crush", "F_crush = DIF·f_cm·√(A_c1/A_c0)·A_c0 ≤ 3·DIF·f_cm·A_c0",
-        {"A_c0": (inp.foot_l[0] * inp.foot_w[0], "area"),
-         "crushed depth": (imp.deck_crush[0], "length")},
-        imp.F_crush[0], "force",
-        "EN 1992-1-1 §6.7 / ACI 318-19 §22.8.3.2, upper estimate (droprig.solver.crushing)")
+    _crushing_step(sheet)
     _deflection_steps(sheet, W, two)
+
+
+def _crushing_step(sheet: _Sheet) -> None:
+    """The deck's crushing force under the footprint, the bound on the contact."""
+    inp, imp = sheet.inp, sheet.imp
+    sheet.add("Crushing force of the deck concrete under the footprint (bound on the "
+              "contact force)", "F_crush",
+              "F_crush = DIF·f_cm·√(A_c1/A_c0)·A_c0 ≤ 3·DIF·f_cm·A_c0",
+              {"A_c0": (inp.foot_l[0] * inp.foot_w[0], "area"),
+               "crushed depth": (imp.deck_crush[0], "length")},
+              imp.F_crush[0], "force",
+              "EN 1992-1-1 §6.7 / ACI 318-19 §22.8.3.2, upper estimate "
+              "(droprig.solver.crushing)")
 
 
 def _deflection_steps(sheet: _Sheet, W: float, two: bool) -> None:
