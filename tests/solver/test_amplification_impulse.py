@@ -97,7 +97,7 @@ def cases() -> dict[str, tuple[dict[str, np.ndarray], dict[str, np.ndarray],
 
 @pytest.mark.parametrize("cond", CONDS)
 def test_bound_never_below_the_history(cases, cond: str) -> None:
-    c, direct, tab, th = cases[cond]
+    _, direct, tab, th = cases[cond]
     for q in QUANTITIES:
         hist = np.asarray(getattr(th, q))
         assert np.all(direct[q] >= hist * (1 - 1e-9)), (q, (direct[q] / hist).min())
