@@ -238,9 +238,11 @@ def _member_units(c: Chain, sel: np.ndarray, s: dict[str, np.ndarray]
                   ) -> tuple[np.ndarray, np.ndarray]:
     """The struck member's Rayleigh mass factor β (:func:`droprig.solver.beam.
     rayleigh_mass_factor`) and largest unit-load deflection (m/N, as
-    :func:`member_energy_peaks` with 40 intervals) at the points ``sel``:
+    :func:`droprig.solver.amplification_impulse.unit_deflection`) at the points ``sel``:
     load-independent, so worked out once per point and kept with the points'
     geometry."""
+    from droprig.solver import amplification_impulse
+
     geo = c.drop.geo
     n = geo.x.shape[0]
     got = geo.cache.get("impulse_units")
@@ -255,10 +257,14 @@ def _member_units(c: Chain, sel: np.ndarray, s: dict[str, np.ndarray]
             i = t["cond"] == cn
             beta[i] = beam.rayleigh_mass_factor(cast(EndCondition, cn), t["L"][i], t["a"][i])
         got["beta"][sel[todo]] = beta
-        # sampled at 40 intervals, a subset of the history's 200: no larger, so the
-        # factor on it no smaller (the safe side), at a fifth of the cost
-        got["unit_d"][sel[todo]] = member_energy_peaks(t, np.ones(beta.size), samples=40,
-                                                       share=False)["deflection"]
+        # tabulated: no larger than the history's 200 intervals, so the factor on it
+        # no smaller (the safe side)
+        ud = np.zeros(beta.size)
+        for cn in dict.fromkeys(t["cond"].tolist()):
+            i = t["cond"] == cn
+            ud[i] = amplification_impulse.unit_deflection(
+                str(cn), t["L"][i], t["EI"][i], t["a"][i], int(TH_OPTIONS["n_modes"]))
+        got["unit_d"][sel[todo]] = ud
     return got["beta"][sel], got["unit_d"][sel]
 
 
