@@ -388,7 +388,8 @@ class AmplifiedForces:
 
 SET_BY: tuple[str, ...] = ("energy method", "time-history table", "rigid-base bound",
                            "crushing force", "contact-force bound", "point time history",
-                           "member energy bound", "short-pulse shear bound")
+                           "member energy bound", "short-pulse shear bound",
+                           "impulse bound")
 """What set an amplified force (:attr:`AmplifiedForces.set_by`): the energy method's
 own force, the table, the load against an immovable point, the crushing force,
 (member quantities) the member's response to the bounded contact force, the
@@ -396,7 +397,9 @@ point's own time history (the chain's choice of points,
 :func:`droprig.solver.chain.dynamic_amplification`), or (member moment and
 deflection) the most energy the drop can put into the member
 (:func:`member_energy_force`), or (member shear) the short elastic contact pulse's
-bound (:data:`B_SHEAR_SHORT`, :func:`short_pulse`)."""
+bound (:data:`B_SHEAR_SHORT`, :func:`short_pulse`), or the impulse and peak force of
+the contact on the struck member's modes (:mod:`droprig.solver.amplification_impulse`,
+:func:`droprig.solver.chain._with_impulse_bounds`)."""
 
 
 def _member_forces(amp: Amplification, F: np.ndarray, F_tab: np.ndarray,

@@ -1446,8 +1446,9 @@ def amplification_at(c: Chain, h: np.ndarray, imp: Impact,
     h = energy_fall(c, h)
     b = _amplified_bounds(c, h, imp)
     factor = _bound_factors(imp, b.forces)
-    th, hist = _point_histories(c, h, imp.F, factor, th_points)
     set_by = dict(b.forces.set_by)
+    factor, set_by = _with_impulse_bounds(c, h, imp, b.a, factor, set_by)
+    th, hist = _point_histories(c, h, imp.F, factor, th_points)
     A_D_bound = factor["deflection"]
     if hist is not None:
         factor, set_by = _with_histories(d.n, th, hist, factor, set_by)
@@ -1582,6 +1583,54 @@ def _bound_factors(imp: Impact, forces: amp_mod.AmplifiedForces) -> dict[str, np
     return {"flexure": A_M, "shear": A_V, "web_yielding": local,
             "web_crippling": local, "deck_flexure": A_deck, "deck_punching": A_deck,
             "deflection": A_D}
+
+
+IMPULSE_MASS_RATIO = 1.0
+"""Largest r = M/mₑ (the table's mass ratio) at which the impulse bound
+(:func:`_with_impulse_bounds`) is worked out: above it the load is not light against
+the member, its contact not short, and the other bounds are the tighter (a cost
+limit, not a validity one: the bound holds for any load)."""
+
+
+def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplification,
+                         factor: dict[str, np.ndarray], set_by: dict[str, np.ndarray]
+                         ) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray]]:
+    """The factors lowered to the impulse bound of the point's own time history
+    (:func:`droprig.solver.pointhistory.impulse_factors`; Duhamel's integral on the
+    struck member's kept modes, the contact's impulse and peak force — an upper bound
+    of that history as the other bounds are, so the least of them is one) where it is
+    less, at the light loads' points (r ≤ :data:`IMPULSE_MASS_RATIO`) on a path whose
+    factors lie above 1; the member's moment, shear and deflection (the connection
+    check, end shear, takes the shear's), the member's local checks at the contact
+    force (web yielding, crippling) and the deck's at its share of it."""
+    d = c.drop
+    ok = ((d.geo.path.pair >= 0) & ~d.geo.opening & np.isfinite(imp.F) & (imp.F > 0.0)
+          & np.isfinite(h) & (h > 0.0) & (a.mass_ratio <= IMPULSE_MASS_RATIO))
+    A_max = np.maximum(np.maximum(factor["web_yielding"], factor["flexure"]),
+                       np.maximum(factor["shear"], factor["deflection"]))
+    sel = np.flatnonzero(ok & (A_max > 1.0 + 1e-9))
+    if sel.size == 0:
+        return factor, set_by
+    got = pointhistory.impulse_factors(c, sel, h[sel], imp.F[sel])
+    factor = {k: v.copy() for k, v in factor.items()}
+    set_by = {k: v.copy() for k, v in set_by.items()}
+    ti = amp_mod.SET_BY.index("impulse bound")
+    for fam, q, key in (("flexure", "moment", "moment"), ("shear", "shear", "shear"),
+                        ("deflection", "deflection", "deflection"),
+                        ("web_yielding", "force", "local"), ("web_crippling", "force", None)):
+        A = np.where(np.isfinite(got[q]), np.maximum(got[q], 1.0), np.inf)
+        lower = A < factor[fam][sel]
+        factor[fam][sel] = np.where(lower, A, factor[fam][sel])
+        if key is not None:
+            set_by[key][sel] = np.where(lower, ti, set_by[key][sel])
+    # the deck's checks read the deck's force F_deck = deck_ratio·F, at most the contact
+    # force at the load, which the bound caps at got["force"]·F
+    with np.errstate(divide="ignore", invalid="ignore"):
+        A_deck = np.maximum(got["force"] / imp.deck_ratio[sel], 1.0)
+    A_deck = np.where(np.isfinite(A_deck), A_deck, np.inf)
+    for fam in ("deck_flexure", "deck_punching"):
+        factor[fam][sel] = np.minimum(factor[fam][sel], A_deck)
+    return factor, set_by
 
 
 def _with_histories(n: int, th: np.ndarray, hist: pointhistory.PointHistory,

@@ -64,6 +64,8 @@ __all__ = [
     "CONVERGENCE_SHORTFALL",
     "TH_MARGIN",
     "PointHistory",
+    "impulse_factors",
+    "member_energy_peaks",
     "merge",
     "point_history",
     "shared_load",
@@ -218,25 +220,7 @@ def point_history(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray,
                                         r["M"], r["h"], f_th, F_yield=r["F_yield"],
                                         stroke=r["stroke"], weight=r["weight"],
                                         **{**TH_OPTIONS, **th_options})
-    unit_m = np.zeros(sel.size)
-    unit_v = np.zeros(sel.size)
-    unit_d = np.zeros(sel.size)
-    cond = s["cond"]
-    xi = np.linspace(0.0, 1.0, 201)
-    for cn in dict.fromkeys(cond.tolist()):
-        i = cond == cn
-        cc = cast(EndCondition, cn)
-        L, a, EI = s["L"][i], s["a"][i], s["EI"][i]
-        unit_m[i] = beam.max_abs_moment(cc, L, 1.0, a)
-        unit_v[i] = beam.max_abs_shear(cc, L, 1.0, a)
-        x = L[:, None] * xi[None, :]
-        unit_d[i] = np.maximum(
-            np.max(beam.green(cc, L[:, None], EI[:, None], x, a[:, None]), axis=1),
-            s["g_m"][i])
-    # the chain's demand on this member: its share w of the force F (the contact
-    # force stays F); the history's contact force is the member's (w·F) over w
-    energy = {"force": F, "moment": w * F * unit_m, "shear": w * F * unit_v,
-              "deflection": w * F * unit_d}
+    energy = member_energy_peaks(s, F)
     th = {q: np.asarray(getattr(t, q), float) for q in QUANTITIES}
     th["force"] = th["force"] / w
     factor = {}
@@ -245,9 +229,117 @@ def point_history(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray,
             e = energy[q]
             factor[q] = np.where(e > 0.0, TH_MARGIN * th[q] / np.where(e > 0.0, e, 1.0),
                                  np.inf)
-    return PointHistory(member=s["member"], cond=cond, L=s["L"], a=s["a"], EI=s["EI"],
+    return PointHistory(member=s["member"], cond=s["cond"], L=s["L"], a=s["a"], EI=s["EI"],
                         mu=s["mu"], f_c=f_th, F_yield=s["F_yield"], stroke=s["stroke"],
                         th=th, energy=energy, factor=factor)
+
+
+def _member_units(c: Chain, sel: np.ndarray, s: dict[str, np.ndarray]
+                  ) -> tuple[np.ndarray, np.ndarray]:
+    """The struck member's Rayleigh mass factor β (:func:`droprig.solver.beam.
+    rayleigh_mass_factor`) and largest unit-load deflection (m/N, as
+    :func:`droprig.solver.amplification_impulse.unit_deflection`) at the points ``sel``:
+    load-independent, so worked out once per point and kept with the points'
+    geometry."""
+    from droprig.solver import amplification_impulse
+
+    geo = c.drop.geo
+    n = geo.x.shape[0]
+    got = geo.cache.get("impulse_units")
+    if got is None or got["beta"].shape[0] != n:
+        got = {"beta": np.full(n, np.nan), "unit_d": np.full(n, np.nan)}
+        geo.cache["impulse_units"] = got
+    todo = np.isnan(got["beta"][sel])
+    if todo.any():
+        t = {k: v[todo] for k, v in s.items()}
+        beta = np.zeros(int(todo.sum()))
+        for cn in dict.fromkeys(t["cond"].tolist()):
+            i = t["cond"] == cn
+            beta[i] = beam.rayleigh_mass_factor(cast(EndCondition, cn), t["L"][i], t["a"][i])
+        got["beta"][sel[todo]] = beta
+        # tabulated: no larger than the history's 200 intervals, so the factor on it
+        # no smaller (the safe side)
+        ud = np.zeros(beta.size)
+        for cn in dict.fromkeys(t["cond"].tolist()):
+            i = t["cond"] == cn
+            ud[i] = amplification_impulse.unit_deflection(
+                str(cn), t["L"][i], t["EI"][i], t["a"][i], int(TH_OPTIONS["n_modes"]))
+        got["unit_d"][sel[todo]] = ud
+    return got["beta"][sel], got["unit_d"][sel]
+
+
+def member_energy_peaks(s: dict[str, np.ndarray], F: np.ndarray, samples: int = 200,
+                        unit_d: np.ndarray | None = None, share: bool = True
+                        ) -> dict[str, np.ndarray]:
+    """The chain's energy-method peaks on the struck member ``s``
+    (:func:`struck_member`) for its contact force F (N, per point): the contact force
+    F, and its share w·F times the member's unit-load envelopes (AISC Manual Table
+    3-23: :func:`droprig.solver.beam.max_abs_moment`, ``max_abs_shear``, the largest
+    G(x, a), sampled at ``samples`` equal intervals and at a; ``unit_d`` where known)
+    — moment (N·m), shear (N), deflection (m). ``share`` false: w = 1."""
+    w = s["share"] if share else np.ones(np.asarray(F).shape)
+    n = w.size
+    unit_m = np.zeros(n)
+    unit_v = np.zeros(n)
+    unit_d_known = unit_d
+    unit_d = np.zeros(n) if unit_d is None else unit_d
+    cond = s["cond"]
+    xi = np.linspace(0.0, 1.0, samples + 1)
+    for cn in dict.fromkeys(cond.tolist()):
+        i = cond == cn
+        cc = cast(EndCondition, cn)
+        L, a, EI = s["L"][i], s["a"][i], s["EI"][i]
+        unit_m[i] = beam.max_abs_moment(cc, L, 1.0, a)
+        unit_v[i] = beam.max_abs_shear(cc, L, 1.0, a)
+        if unit_d_known is not None:
+            continue
+        x = L[:, None] * xi[None, :]
+        unit_d[i] = np.maximum(
+            np.max(beam.green(cc, L[:, None], EI[:, None], x, a[:, None]), axis=1),
+            s["g_m"][i])
+    # the chain's demand on this member: its share w of the force F (the contact
+    # force stays F); the history's contact force is the member's (w·F) over w
+    energy = {"force": F, "moment": w * F * unit_m, "shear": w * F * unit_v,
+              "deflection": w * F * unit_d}
+    return energy
+
+
+def impulse_factors(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray
+                    ) -> dict[str, np.ndarray]:
+    """Factors (dimensionless, per point of ``sel``; not floored at 1) on the chain's
+    energy-method peaks (:func:`member_energy_peaks` of its force F, N) that bound the
+    point's own time history from above without running it: the impulse and
+    peak-force bounds of :func:`droprig.solver.amplification_impulse.
+    tabulated_bounds` (the tabulated ``impulse_peak_bounds``, never below it) on the
+    same struck member, shared load, contact floor (:data:`droprig.solver.
+    amplification.KAPPA_MIN` × G(a, a)), modes and cut-off as :func:`point_history`
+    (free falls ``h``, m). No margin: a bound of the same model, not a sample of it.
+    ``force`` is the contact force's factor, inf where the history's contact is
+    softer than the chain's (the floor: the contact-force bound of the floored model
+    is not one of the chain's contact)."""
+    from droprig.solver import amplification_impulse
+    from droprig.solver.chain import LoadInputs
+
+    inp = c[LoadInputs]
+    s = struck_member(c, sel)
+    w = s["share"]
+    r = shared_load(w, inp.M[sel], h, s["f_all"], s["g_m"], s["F_yield"], s["stroke"])
+    floor = amplification.KAPPA_MIN * s["g_m"]
+    f_th = np.maximum(r["f_c"], floor)
+    beta, unit_d = _member_units(c, sel, s)
+    b = amplification_impulse.tabulated_bounds(
+        s["cond"], s["L"], s["EI"], s["mu"], s["a"], r["M"], r["h"], f_th,
+        F_yield=r["F_yield"], stroke=r["stroke"], weight=r["weight"],
+        n_modes=int(TH_OPTIONS["n_modes"]), cutoff=float(TH_OPTIONS["cutoff"]),
+        beta=beta)
+    energy = member_energy_peaks(s, F, unit_d=unit_d)
+    b["force"] = np.where(r["f_c"] >= floor, b["force"] / w, np.inf)
+    out = {}
+    with np.errstate(divide="ignore", invalid="ignore"):
+        for q in QUANTITIES:
+            e = energy[q]
+            out[q] = np.where(e > 0.0, b[q] / np.where(e > 0.0, e, 1.0), np.inf)
+    return out
 
 
 def merge(points: np.ndarray, runs: list[PointHistory]) -> PointHistory:

@@ -631,8 +631,7 @@ def _setup(cond: EndCondition, L: np.ndarray, EI: np.ndarray, mu: np.ndarray, a:
     omega = (lam[None, :] / L[:, None]) ** 2 * np.sqrt(EI / mu)[:, None]  # (P, N)
     m_n = mu[:, None] * L[:, None] * norm[None, :]
     xi_a = a / L
-    phi_a = np.stack([mode_shapes(cond, lam, [x])[0][:, 0] for x in xi_a]) if N else \
-        np.zeros((P, 0))
+    phi_a = mode_shapes(cond, lam, xi_a)[0].T if N else np.zeros((P, 0))
     # contact frequency: the load and the struck mass on either side of the contact
     # spring, √(k_c·(1/M + 1/mₑ)) (two masses on one spring)
     m_e = beam.rayleigh_mass_factor(cond, L, a) * mu * L
@@ -657,9 +656,8 @@ def _setup(cond: EndCondition, L: np.ndarray, EI: np.ndarray, mu: np.ndarray, a:
     xa_l = np.clip(a - eps * L, 0.0, L)
     xa_r = np.clip(a + eps * L, 0.0, L)
     xs = np.concatenate([x_grid, xa_l[:, None], xa_r[:, None]], axis=1)  # (P, S)
-    shp_a = [np.stack([mode_shapes(cond, lam, [xl / Ll, xr / Ll])[j]
-                       for xl, xr, Ll in zip(xa_l, xa_r, L, strict=True)])
-             for j in range(3)]  # each (P, N, 2)
+    at_l, at_r = mode_shapes(cond, lam, xa_l / L), mode_shapes(cond, lam, xa_r / L)
+    shp_a = [np.stack([at_l[j].T, at_r[j].T], axis=2) for j in range(3)]  # each (P, N, 2)
     Phi = np.concatenate([np.broadcast_to(shp[0], (P, N, xi.size)), shp_a[0]], axis=2)
     D2 = np.concatenate([np.broadcast_to(shp[1], (P, N, xi.size)), shp_a[1]], axis=2)
     D3 = np.concatenate([np.broadcast_to(shp[2], (P, N, xi.size)), shp_a[2]], axis=2)

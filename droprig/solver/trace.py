@@ -459,16 +459,25 @@ def _amplification_steps(sheet: _Sheet) -> None:
                "plastic contact, scripts/calibrate_contact_bound.py)")
     add(f"Amplification of the contact force (web and deck checks), set by the "
         f"{by['local']}", "A_F",
-        "A_F = max(1, min(table(r, κ)·F_el, F_rigid, F_crush)/F), "
+        "A_F = max(1, min(table(r, κ)·F_el, F_rigid, F_crush, F_imp)/F), "
         "F_rigid = 1.05·W(1 + √(1 + 2h/(W(f − f_s))))",
         {"F_bound": (amp.F_bound[0], "force"), "F": (imp.F[0], "force")},
         amp.factor["web_yielding"][0], "dimensionless",
         src_amp + "; Gere §9.10; crushing force as the impact step, held where the "
-        "crushed depth cannot pass the cover with all the energy in it")
+        "crushed depth cannot pass the cover with all the energy in it; where r ≤ 1 also "
+        "the impulse bound's contact force (droprig.solver.amplification_impulse: the "
+        "energy a spring of the contact and the member's residual flexibility can hold)")
     src_en = (src_cap + "; member energy bound B_E,M = "
               f"{amplification.B_ENERGY_MOMENT}, B_E,δ = "
               f"{amplification.B_ENERGY_DEFLECTION} (energy conservation, minimum "
               "potential energy; scripts/calibrate_energy_bound.py)")
+    # light loads (r ≤ chain.IMPULSE_MASS_RATIO): the impulse bound of the point's own
+    # time history where it is less (chain._with_impulse_bounds)
+    src_imp = ("; where r ≤ 1 also the impulse bound of the point's time history "
+               "(droprig.solver.amplification_impulse: Duhamel's integral on the struck "
+               "member's kept modes with the contact's impulse and peak force; Biggs 1964 "
+               "ch. 2, Chopra §4.2)")
+    src_cap, src_en = src_cap + src_imp, src_en + src_imp
     if amp.F_energy is not None:
         add("Member energy force: the most energy the drop can put into the framing, "
             "as a static force at the struck point", "F_E",
@@ -477,13 +486,13 @@ def _amplification_steps(sheet: _Sheet) -> None:
             {"f_s": (comp.f_s[0], "compliance"), "f": (comp.f[0], "compliance")},
             amp.F_energy[0], "force", src_en)
     add(f"Amplification of the member moment, set by the {by['moment']}", "A_M",
-        "A_M = max(1, min(table(r, κ)·F_el, B_M·A_F·F, B_E,M·F_E)/F)", {},
+        "A_M = max(1, min(table(r, κ)·F_el, B_M·A_F·F, B_E,M·F_E, M_imp)/F)", {},
         amp.A_moment[0], "dimensionless", src_en)
     add(f"Amplification of the member shear, set by the {by['shear']}", "A_V",
-        "A_V = max(1, min(table(r, κ)·F_el, B_V·A_F·F)/F)", {},
+        "A_V = max(1, min(table(r, κ)·F_el, B_V·A_F·F, V_imp)/F)", {},
         amp.A_shear[0], "dimensionless", src_cap)
     add("Amplification of the energy beyond yield", "A_δ²",
-        "A_δ = max(1, min(table(r, κ)·F_el, B_δ·A_F·F, B_E,δ·F_E)/F)", {},
+        "A_δ = max(1, min(table(r, κ)·F_el, B_δ·A_F·F, B_E,δ·F_E, δ_imp)/F)", {},
         amp.A_deflection[0] ** 2, "dimensionless", src_en)
 
 
