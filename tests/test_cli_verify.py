@@ -159,6 +159,21 @@ def test_member_options_or_file_required(capsys: pytest.CaptureFixture[str]) -> 
     assert rc == 2 and "--section" in err
     rc, _, err = _run(["verify", "--bay", "1-2/A-B"], capsys)
     assert rc == 2 and "--bay" in err
+    rc, _, err = _run([*EXAMPLE, "--slab-mass"], capsys)
+    assert rc == 2 and "--slab-mass" in err and "FILE" in err
+
+
+def test_slab_mass_is_stated(capsys: pytest.CaptureFixture[str]) -> None:
+    """``--slab-mass`` says in the header and the JSON which mass the struck member
+    carries (tests/solver/test_verify_struck_member.py checks the mass by hand)."""
+    one = ["verify", DEMO, "--bay", "1-2/B-C", "--load", "AHU-3 (old, drained)"]
+    rc, out, err = _run([*one, "--slab-mass"], capsys)
+    assert rc == 0, err
+    assert "carrying the mass of its steel, the deck and the superimposed dead load" in out
+    rc, out, err = _run([*one, "--slab-mass", "--json"], capsys)
+    assert rc == 0 and json.loads(out)["slab_mass"] is True, err
+    rc, out, err = _run([*one, "--json"], capsys)
+    assert rc == 0 and json.loads(out)["slab_mass"] is False, err
 
 
 @pytest.mark.parametrize("amplified", [False, True])

@@ -75,6 +75,8 @@ def _run(args: argparse.Namespace) -> int:
     for n in ("lift", "bay", "load"):
         if getattr(args, n) is not None:
             raise _BadInputError(f"--{n}: needs a project FILE")
+    if getattr(args, "slab_mass", False):
+        raise _BadInputError("--slab-mass: needs a project FILE (one member has no deck)")
     missing = [n for n in _MEMBER_REQUIRED if getattr(args, n) is None]
     if missing:
         raise _BadInputError(f"--{missing[0]}: missing; give a project FILE, or the member "
@@ -221,7 +223,8 @@ def _run_project(args: argparse.Namespace) -> int:
     selected = type(results)(cases=results.cases, bays=tuple(bays),
                              warnings=results.warnings)
     skipped_bays: list[tuple[object, str]] = []
-    rows = verification_table(project, selected, skipped=skipped_bays)
+    rows = verification_table(project, selected, skipped=skipped_bays,
+                              slab_mass=args.slab_mass)
     system: Any = project.settings.unit_system
     plots: list[str] = []
     if args.plots:
@@ -244,11 +247,15 @@ def _run_project(args: argparse.Namespace) -> int:
                 "chain_peak_force": r.chain_peak_force, **_as_json(r.verification, [])}
                for r in rows]
         print(json.dumps({"points": doc, "plots": plots, "skipped": len(bays) - len(rows),
-                          "caution": CAUTION}, indent=2))
+                          "slab_mass": bool(args.slab_mass), "caution": CAUTION},
+                         indent=2))
         return EXIT_OK
+    carried = ("its steel, the deck and the superimposed dead load over its tributary "
+               "width (--slab-mass)" if args.slab_mass else "its steel alone")
     lines = [f"droprig verify — {args.file}: governing point of each bay, impact alone; "
-             "the struck member modelled alone with the whole load, the rest of the path "
-             "(other framing, deck, load underside, mat) as a spring in series", ""]
+             "the struck member modelled alone under its share of the load, carrying "
+             f"the mass of {carried}, the rest of the path (other framing, deck, load underside, "
+             "mat) as a spring in series", ""]
     lines.append(f"  {'':<48}{'':>19}   energy method ÷ time history"
                  "     verdict ÷ time history")
     head = (f"  {'zone':<6}{'bay':<10}{'load':<22}{'member':<10}{'r = M/mₑ':>10}"

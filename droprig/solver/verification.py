@@ -301,7 +301,7 @@ def _factors(da: DynamicAmplification, i: int) -> dict[str, float]:
 
 
 def verify_point(project: Project, zone_id: str, load_name: str, x: float,
-                 y: float) -> PointVerification:
+                 y: float, *, slab_mass: bool = False) -> PointVerification:
     """A drop point (x, y in m) of load ``load_name`` of lift zone ``zone_id`` (see the
     module docstring for the idealisation). Raises :class:`ModelError` naming the
     zone, load or point when they do not exist or the point is not over a deck panel,
@@ -311,8 +311,17 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     histories take them): the chain's EI (composite where studded), and a contact
     elastic–perfectly plastic as the chain caps it — the deck's crushing force over
     :func:`droprig.solver.chain.crush_depth_available` (a concrete deck's cover, a
-    steel deck's plate), or a crushable layer's force over its stroke."""
-    from droprig.solver.chain import Impact, LoadInputs, StruckMass, energy_fall
+    steel deck's plate), or a crushable layer's force over its stroke.
+
+    ``slab_mass``: the member's mass per length also carries the deck's self-weight
+    and the level's superimposed dead load over its tributary width,
+    μ + (g_deck + q_sd)·b/g (kg/m; :func:`droprig.solver.chain.slab_frame`, the mass
+    the chain's two-mass step and struck mass take; lever rule, common practice, no
+    source) — the slab moves with the member it sits on. By default the history
+    carries the steel's mass alone, as the verdict's point histories and the
+    amplification's calibration do; the option shows how far that idealisation moves
+    the comparison (README, "Status")."""
+    from droprig.solver.chain import Impact, LoadInputs, StruckMass, energy_fall, slab_frame
     from droprig.solver.evaluate import governing_landing_chain, point_case
 
     case = point_case(project, zone_id, load_name, x, y, opening=True,
@@ -340,6 +349,8 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     # the member's own mass: the frame's μ, the steel's where the project leaves
     # member mass out of the struck mass (a time history needs the member's mass)
     mu = float(s["mu"]) if float(s["mu"]) > 0.0 else member.section.mass_per_length
+    if slab_mass:
+        mu += float(slab_frame(fm).mu[int(s["member"])] - fm.frame.mu[int(s["member"])])
     # the rest of the path in series: everything but the member's own spring under its
     # share w (f_all − w²·g_m; _verify takes f_all − g_m and the share)
     w = float(s["share"])
@@ -382,6 +393,7 @@ def _bay_name(level: Level, geo: Geometry) -> str:
 def verification_table(project: Project, results: object, *,
                        zone_id: str | None = None,
                        skipped: list[tuple[object, str]] | None = None,
+                       slab_mass: bool = False,
                        ) -> tuple[PointVerification, ...]:
     """One :class:`PointVerification` per bay summary of ``results`` (a
     :class:`~droprig.solver.results.Results`), at the bay's governing point; bays whose
@@ -389,13 +401,14 @@ def verification_table(project: Project, results: object, *,
     deck panel) are left out, and appended to ``skipped`` (when given) as (bay
     summary, :data:`SKIP_OVER_SUPPORT` or :data:`SKIP_OFF_PANEL`) so the reader can be
     told which were not verified and why. ``zone_id`` keeps
-    one lift zone."""
+    one lift zone; ``slab_mass`` as :func:`verify_point`."""
     rows: list[PointVerification] = []
     for b in getattr(results, "bays", ()):
         if zone_id is not None and b.zone_id != zone_id:
             continue
         try:
-            pv = verify_point(project, b.zone_id, b.load_name, b.governing_x, b.governing_y)
+            pv = verify_point(project, b.zone_id, b.load_name, b.governing_x, b.governing_y,
+                              slab_mass=slab_mass)
         except OverSupportError:
             if skipped is not None:
                 skipped.append((b, SKIP_OVER_SUPPORT))

@@ -142,3 +142,25 @@ def test_verification_stroke_is_the_chains_crush_depth(roof: Project,
         _same_history(pv, ph)
     # the plate deck's cover differs from its plate: the check can tell them apart
     assert plated.levels[0].deck.cover != pytest.approx(0.012)
+
+
+def test_slab_mass_option_adds_the_tributary_deck_and_dead_load(roof: Project) -> None:
+    """``verify_point(..., slab_mass=True)`` (``droprig verify --slab-mass``): the member's
+    mass per length carries the deck's self-weight and the superimposed dead load over
+    its tributary width, μ + (g_deck + q_sd)·b/g (lever rule: half the spacing to each
+    neighbour, b = 2.5 m here; common practice, no source; g = 9.80665 m/s², ISO 80000-3).
+    The time history's struck mass is its Rayleigh mass β·μ·L at the struck point, so at
+    the same member, point and load the mass ratio r = M/mₑ falls by exactly the ratio
+    of the two μ (Timoshenko, *Strength of Materials* Part I: the Rayleigh mass is
+    linear in μ for a given shape)."""
+    level = roof.levels[0]
+    member = next(m for m in level.members if m.id == MEMBER)
+    mu_steel = member.section.mass_per_length
+    mu_slab = mu_steel + (level.deck.self_weight_pressure + level.superimposed_dead) \
+        * SPACING / 9.80665
+    bare = verify_point(roof, ZONE, LOAD, *POINT)
+    slab = verify_point(roof, ZONE, LOAD, *POINT, slab_mass=True)
+    assert bare.member_id == slab.member_id == MEMBER
+    ratio = bare.verification.mass_ratio / slab.verification.mass_ratio
+    assert ratio == pytest.approx(mu_slab / mu_steel, rel=HAND)
+    assert mu_slab / mu_steel > 5.0, "a concrete roof slab outweighs the beam under it"
