@@ -86,8 +86,11 @@ def analyse_outcomes(project: Project, cache: ZoneCache | None = None) -> Result
     (``tests/solver/test_analyse_outcomes.py`` compares them with :func:`analyse`).
     What it does change is not: each bay's limits and advice (allowable heights,
     height limit, mat) and every point's plastic allowable height are the inverse
-    answers as found, untried, so they must never be shown or printed as final; and
-    the unconfirmed zones carry no warnings. The permit, the annex and ``droprig``
+    answers as found, untried, so they must never be shown or printed as final; every
+    point's plastic allowable height and allowable mass (and so each bay's) are not
+    worked out at all (NaN, None: ``Drop.outcomes_only`` — they are the costliest
+    inverse answers and only the confirmation reads them); and the unconfirmed zones
+    carry no warnings. The permit, the annex and ``droprig``
     take :func:`analyse` only. SI units.
     """
     from droprig.solver import analysis

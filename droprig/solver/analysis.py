@@ -108,7 +108,8 @@ def analyse_zone(project: Project, zone_id: str,
                  confirm: bool = True) -> Results:
     """Every load of one lift zone (see :func:`analyse`). ``confirm=False``: the
     forward analysis only, its limits untried (:func:`droprig.solver.analyse_outcomes`
-    — never to be printed as final)."""
+    — never to be printed as final), its points' plastic heights and allowable masses
+    not worked out (NaN: ``Drop.outcomes_only``)."""
     cancel.check()
     project = resolve_drift(project)
     floor = floor or floor_cache(project)
@@ -153,7 +154,8 @@ def analyse_zone(project: Project, zone_id: str,
         return out
 
     if zone.loads:
-        allres, geo = refine.zone_points_geometry(fm, project, zone, (x, y))
+        allres, geo = refine.zone_points_geometry(fm, project, zone, (x, y),
+                                                  outcomes_only=not confirm)
         # each point's plastic height, then every limit a bay offers, tried by the
         # forward chain before it is printed
         summaries = (confirm_zone(fm, project, zone, allres, geo, cases_and_bays)

@@ -131,13 +131,19 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
 
 
 def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
-                         base: Geometry | tuple[np.ndarray, np.ndarray]
+                         base: Geometry | tuple[np.ndarray, np.ndarray], *,
+                         outcomes_only: bool = False
                          ) -> tuple[dict[str, np.ndarray], Geometry | None]:
     """:func:`zone_points` and the geometry of its rows (row for row, with the
     load-independent member actions where they were kept), for the trials of
     :mod:`droprig.solver.confirm` to take their points from; ``None`` for a zone of
     more than :data:`~droprig.solver.evaluate.CACHE_MAX_POINTS` rows (loads × points;
-    some 40 doubles a row are kept), whose geometry is not kept."""
+    some 40 doubles a row are kept), whose geometry is not kept.
+
+    ``outcomes_only``: the outcome stage (:func:`droprig.solver.analyse_outcomes`):
+    the plastic heights and allowable masses are not worked out (NaN). The points are
+    the same as a full run's: :func:`_refine` reads the elastic allowable height, the
+    severity and the bays, which such a run works out as a full one does."""
     loads = list(zone.loads)
     vh = zone.hoist_speed  # the load strikes at √(v_h² + 2gh) (local damage)
     nl = len(loads)
@@ -151,10 +157,12 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         geo = tile(fm, geo, nl)
         # the height-free steps are kept with the geometry for the trials
         # (confirm.py) at these points
-        res = evaluate.evaluate_case(fm, project, loads, geo, li, v_hoist=vh, keep=True)
+        res = evaluate.evaluate_case(fm, project, loads, geo, li, v_hoist=vh, keep=True,
+                                     outcomes_only=outcomes_only)
         geos: list[Geometry] | None = [geo]
     else:  # block by block, each block's path shared by the loads
-        res = evaluate.evaluate_points(fm, project, loads, bx, by, v_hoist=vh)
+        res = evaluate.evaluate_points(fm, project, loads, bx, by, v_hoist=vh,
+                                       outcomes_only=outcomes_only)
         geos = None
     res["load_index"] = li
     step = fm.settings.grid_resolution
@@ -174,7 +182,8 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         # merged into the sorted known keys (k is sorted: no sort of the whole again)
         known = np.insert(known, np.searchsorted(known, keys[fresh]), keys[fresh])
         geo = evaluate.distinct_geometry(fm, project, x, y)  # a point refined for each load
-        r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True)
+        r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True,
+                                    outcomes_only=outcomes_only)
         r2["load_index"] = lj
         parts.append(r2)
         if geos is not None:
