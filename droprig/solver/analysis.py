@@ -68,6 +68,7 @@ from droprig.solver.confirm import confirm_zone
 from droprig.solver.drift import resolve_drift
 from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_model
 from droprig.solver.geometry import Geometry, point_geometry
+from droprig.solver.outcome_rows import OutcomeRows, pad_loads
 from droprig.solver.results import PERFORATES, BaySummary, Cascade, CaseResult, Results
 from droprig.solver.summary import Advice, bay_advice, summarise
 
@@ -105,11 +106,13 @@ def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
 
 def analyse_zone(project: Project, zone_id: str,
                  floor: Callable[[str], FloorModel] | None = None, *,
-                 confirm: bool = True) -> Results:
+                 confirm: bool = True, rows: OutcomeRows | None = None) -> Results:
     """Every load of one lift zone (see :func:`analyse`). ``confirm=False``: the
     forward analysis only, its limits untried (:func:`droprig.solver.analyse_outcomes`
     — never to be printed as final), its points' plastic heights and allowable masses
-    not worked out (NaN: ``Drop.outcomes_only``)."""
+    not worked out (NaN: ``Drop.outcomes_only``); ``rows`` (with ``confirm=False``
+    only): its points' rows remembered from earlier edits
+    (:class:`~droprig.solver.outcome_rows.OutcomeRows`, the same values)."""
     cancel.check()
     project = resolve_drift(project)
     floor = floor or floor_cache(project)
@@ -155,7 +158,8 @@ def analyse_zone(project: Project, zone_id: str,
 
     if zone.loads:
         allres, geo = refine.zone_points_geometry(fm, project, zone, (x, y),
-                                                  outcomes_only=not confirm)
+                                                  outcomes_only=not confirm,
+                                                  rows=None if confirm else rows)
         # each point's plastic height, then every limit a bay offers, tried by the
         # forward chain before it is printed
         summaries = (confirm_zone(fm, project, zone, allres, geo, cases_and_bays)
@@ -291,9 +295,12 @@ def zone_key(project: Project, zone: LiftZone) -> tuple:
     loads, corridor and drift margin as resolved), and every other input of the
     project — the levels (the zone's framing, and the levels below it that a
     perforating drop falls to), the protection areas (their order numbers the
-    results' ``protection``) and the settings. Equal keys, equal results."""
-    return (zone, *(getattr(project, f.name) for f in fields(project)
-                    if f.name not in _NOT_ANALYSED))
+    results' ``protection``) and the settings — and, where a crushable pad of the
+    zone's level is given by its crush force alone, the loads of the level's zones
+    (its crush stress is that force over their largest footprint:
+    :func:`droprig.solver.outcome_rows.rows_key`). Equal keys, equal results."""
+    return (zone, pad_loads(project, zone), *(getattr(project, f.name) for f in fields(project)
+                                              if f.name not in _NOT_ANALYSED))
 
 
 class ZoneCache:
@@ -313,6 +320,9 @@ class ZoneCache:
         self._lock = threading.Lock()
         self.hits = 0
         self.misses = 0
+        self.rows = OutcomeRows()
+        """The outcome stage's rows of the zones' points, from one edit to the next
+        (:func:`droprig.solver.analyse_outcomes`)."""
 
     def peek(self, project: Project, zone: LiftZone) -> Results | None:
         """The zone's results if the cache holds them, else None; a look only (no

@@ -7,6 +7,7 @@ SI units (m)."""
 from __future__ import annotations
 
 from collections.abc import Sequence
+from typing import TYPE_CHECKING
 
 import numpy as np
 
@@ -20,6 +21,9 @@ from droprig.solver.geometry import (
     point_geometry,
 )
 from droprig.solver.loadpath import locate
+
+if TYPE_CHECKING:
+    from droprig.solver.outcome_rows import OutcomeRows
 
 __all__ = ["REFINE_PASSES", "REFINE_TOP", "severity", "zone_points", "zone_points_geometry"]
 
@@ -132,7 +136,7 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
 
 def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
                          base: Geometry | tuple[np.ndarray, np.ndarray], *,
-                         outcomes_only: bool = False
+                         outcomes_only: bool = False, rows: OutcomeRows | None = None
                          ) -> tuple[dict[str, np.ndarray], Geometry | None]:
     """:func:`zone_points` and the geometry of its rows (row for row, with the
     load-independent member actions where they were kept), for the trials of
@@ -143,14 +147,24 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
     ``outcomes_only``: the outcome stage (:func:`droprig.solver.analyse_outcomes`):
     the plastic heights and allowable masses are not worked out (NaN). The points are
     the same as a full run's: :func:`_refine` reads the elastic allowable height, the
-    severity and the bays, which such a run works out as a full one does."""
+    severity and the bays, which such a run works out as a full one does. ``rows``
+    (with ``outcomes_only`` only): the rows a previous edit worked out are taken from
+    it (:class:`~droprig.solver.outcome_rows.OutcomeRows`, the same values); no
+    geometry is returned then."""
+    if rows is not None and not outcomes_only:
+        raise ValueError("remembered rows serve the outcome stage only")
     loads = list(zone.loads)
     vh = zone.hoist_speed  # the load strikes at √(v_h² + 2gh) (local damage)
     nl = len(loads)
     bx, by = (base.x, base.y) if isinstance(base, Geometry) else base
     nb = bx.size
     li = np.repeat(np.arange(nl), nb)
-    if nb <= evaluate.CACHE_MAX_POINTS:
+    if rows is not None and nb * nl > rows.max_rows // 2:
+        rows = None  # a large zone: not remembered (memory stays bounded)
+    if rows is not None:
+        res = rows.evaluate(fm, project, zone, loads, np.tile(bx, nl), np.tile(by, nl), li)
+        geos: list[Geometry] | None = None
+    elif nb <= evaluate.CACHE_MAX_POINTS:
         # all loads in one pass over the base points repeated once per load; the
         # load-independent actions are computed once and repeated with them
         geo = base if isinstance(base, Geometry) else point_geometry(fm, project, bx, by)
@@ -159,7 +173,7 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         # (confirm.py) at these points
         res = evaluate.evaluate_case(fm, project, loads, geo, li, v_hoist=vh, keep=True,
                                      outcomes_only=outcomes_only)
-        geos: list[Geometry] | None = [geo]
+        geos = [geo]
     else:  # block by block, each block's path shared by the loads
         res = evaluate.evaluate_points(fm, project, loads, bx, by, v_hoist=vh,
                                        outcomes_only=outcomes_only)
@@ -181,9 +195,12 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         x, y, lj = x[new], y[new], lj[new]
         # merged into the sorted known keys (k is sorted: no sort of the whole again)
         known = np.insert(known, np.searchsorted(known, keys[fresh]), keys[fresh])
-        geo = evaluate.distinct_geometry(fm, project, x, y)  # a point refined for each load
-        r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True,
-                                    outcomes_only=outcomes_only)
+        if rows is not None:
+            r2 = rows.evaluate(fm, project, zone, loads, x, y, lj)
+        else:
+            geo = evaluate.distinct_geometry(fm, project, x, y)  # a point refined per load
+            r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True,
+                                        outcomes_only=outcomes_only)
         r2["load_index"] = lj
         parts.append(r2)
         if geos is not None:

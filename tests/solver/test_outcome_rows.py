@@ -1,0 +1,116 @@
+"""The outcome stage's rows remembered from one edit to the next
+(droprig.solver.outcome_rows, used by ``analyse_outcomes`` with a ``ZoneCache``):
+after edits of a zone's region the outcomes equal those worked out afresh, bit for
+bit, while rows are taken from the memory; an edit to what a point's answer is made
+of (a load, a pad given by its crush force and the loads of the level) takes none.
+
+A property of the implementation, no engineering source: the reference is droprig's
+own outcome stage without the memory (:func:`droprig.solver.analyse_outcomes`, itself
+compared with the confirmed :func:`droprig.solver.analyse` in
+``test_analyse_outcomes.py``). Projects: the three invented demos and random small
+projects of ``tests/permit_projects.py`` (invented inputs, never expected values).
+"""
+
+from __future__ import annotations
+
+from dataclasses import fields, replace
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from droprig.io.project_file import load_project
+from droprig.model import Project, ProtectionArea, Rect
+from droprig.solver import Results, ZoneCache, analyse_outcomes
+from droprig.solver.analysis import zone_key
+from droprig.solver.outcome_rows import rows_key
+from tests.permit_projects import random_project
+
+ROOT = Path(__file__).resolve().parents[2]
+DEMOS = sorted((ROOT / "demo_projects").glob("*.droprig"))
+
+
+def _same(a: Results, b: Results) -> None:
+    """Every case array and bay summary equal, bit for bit (NaN equal NaN), and the
+    falls to the levels below."""
+    assert a.bays == b.bays
+    assert len(a.cases) == len(b.cases) and len(a.cascade) == len(b.cascade)
+    for ca, cb in zip(a.cases, b.cases, strict=True):
+        for f in fields(ca):
+            va, vb = getattr(ca, f.name), getattr(cb, f.name)
+            if isinstance(va, np.ndarray):
+                assert va.dtype == vb.dtype and va.shape == vb.shape, f.name
+                assert np.array_equal(va, vb, equal_nan=va.dtype.kind == "f"), f.name
+            else:
+                assert va == vb, f.name
+    for fa, fb in zip(a.cascade, b.cascade, strict=True):
+        assert fa.bays == fb.bays
+
+
+def _with_zone(p: Project, **change: object) -> Project:
+    return replace(p, lift_zones=(replace(p.lift_zones[0], **change), *p.lift_zones[1:]))
+
+
+@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
+def test_region_edits_take_rows_and_equal_a_fresh_outcome_stage(path: Path) -> None:
+    p = load_project(path)
+    z = p.lift_zones[0]
+    cache = ZoneCache()
+    assert analyse_outcomes(p, cache) is not None
+    assert cache.rows.hits == 0 and cache.rows.misses > 0  # nothing held at first
+    for change in ({"r_max": z.r_max * 0.93}, {"drift_margin": z.drift_margin + 0.07}):
+        edited = _with_zone(p, **change)
+        before = cache.rows.hits
+        got = analyse_outcomes(edited, cache)
+        assert got is not None
+        _same(got, analyse_outcomes(edited))  # afresh, no memory
+        assert cache.rows.hits > before  # most points stayed where they were
+
+
+@pytest.mark.parametrize("seed", (1, 2, 4))
+def test_random_corridor_edit_equals_a_fresh_outcome_stage(seed: int) -> None:
+    p = random_project(seed)
+    z = p.lift_zones[0]
+    cache = ZoneCache()
+    analyse_outcomes(p, cache)
+    (x0, y0), (x1, _), (_, y2), _ = z.corridor
+    edited = _with_zone(p, corridor=((x0 + 0.37, y0), (x1, y0), (x1, y2), (x0 + 0.37, y2)))
+    got = analyse_outcomes(edited, cache)
+    assert got is not None
+    _same(got, analyse_outcomes(edited))
+    assert cache.rows.hits > 0
+
+
+def test_load_edit_takes_no_rows() -> None:
+    p = load_project(DEMOS[0])
+    z = p.lift_zones[0]
+    cache = ZoneCache()
+    analyse_outcomes(p, cache)
+    heavier = replace(z.loads[0], mass=z.loads[0].mass * 1.1)
+    edited = _with_zone(p, loads=(heavier, *z.loads[1:]))
+    got = analyse_outcomes(edited, cache)
+    assert got is not None
+    assert cache.rows.hits == 0  # another load: every row worked out again
+    _same(got, analyse_outcomes(edited))
+
+
+def test_key_holds_the_level_loads_where_a_pad_is_given_by_its_force() -> None:
+    """A crushable pad given by its crush force alone reads the largest footprint of
+    the loads on its level (chain.pad_crush_stress): another zone's loads then feed
+    every point's answer, and the key must change with them; with a crush stress
+    given they do not."""
+    p = random_project(1, pads=False)
+    z = p.lift_zones[0]
+    other = replace(z, id="Z2", loads=(replace(z.loads[0], footprint_length=3.0),))
+    bigger = replace(other, loads=(replace(z.loads[0], footprint_length=4.0),))
+    rect = Rect(0.0, 0.0, 2.0, 2.0)
+    by_force = ProtectionArea("PAD", "pad", "L1", rect, "crushable", 0.1, None,
+                              crush_force=1e5, crush_stroke=0.1)
+    by_stress = replace(by_force, crush_force=None, crush_stress=2e5)
+    for pad, changes in ((by_force, True), (by_stress, False)):
+        a = replace(p, lift_zones=(z, other), protection_areas=(pad,))
+        b = replace(p, lift_zones=(z, bigger), protection_areas=(pad,))
+        assert (rows_key(a, z) != rows_key(b, z)) is changes
+        # the window's zone cache too (before, an edit of another zone's loads left
+        # this zone's results in the cache)
+        assert (zone_key(a, z) != zone_key(b, z)) is changes
