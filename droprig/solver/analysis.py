@@ -110,9 +110,9 @@ def analyse_zone(project: Project, zone_id: str,
     """Every load of one lift zone (see :func:`analyse`). ``confirm=False``: the
     forward analysis only, its limits untried (:func:`droprig.solver.analyse_outcomes`
     — never to be printed as final), its points' plastic heights and allowable masses
-    not worked out (NaN: ``Drop.outcomes_only``); ``rows`` (with ``confirm=False``
-    only): its points' rows remembered from earlier edits
-    (:class:`~droprig.solver.outcome_rows.OutcomeRows`, the same values)."""
+    not worked out (NaN: ``Drop.outcomes_only``). ``rows``: its points' rows
+    remembered from earlier edits (:class:`~droprig.solver.outcome_rows.OutcomeRows`
+    of the stage's kind, ``outcomes_only`` for ``confirm=False``; the same values)."""
     cancel.check()
     project = resolve_drift(project)
     floor = floor or floor_cache(project)
@@ -158,8 +158,7 @@ def analyse_zone(project: Project, zone_id: str,
 
     if zone.loads:
         allres, geo = refine.zone_points_geometry(fm, project, zone, (x, y),
-                                                  outcomes_only=not confirm,
-                                                  rows=None if confirm else rows)
+                                                  outcomes_only=not confirm, rows=rows)
         # each point's plastic height, then every limit a bay offers, tried by the
         # forward chain before it is printed
         summaries = (confirm_zone(fm, project, zone, allres, geo, cases_and_bays)
@@ -309,8 +308,12 @@ class ZoneCache:
     together — some 40 numbers each — beyond the newest), so that an edit
     re-analyses only the zones it changes: an edit to one zone or its loads re-runs
     that zone, an edit to framing, pads or settings every zone. Same results as
-    :func:`analyse`, bit for bit (``tests/solver/test_zone_cache.py``). Safe to share
-    between threads."""
+    :func:`analyse`, bit for bit (``tests/solver/test_zone_cache.py``). Within a
+    zone it re-runs, the drop points an earlier run worked out (the same inputs but
+    the zone's region: a radius, a corridor moved) are taken from :attr:`forward_rows`
+    for the confirmed analysis and :attr:`rows` for the outcome stage
+    (:class:`~droprig.solver.outcome_rows.OutcomeRows`, at most 100,000 rows each;
+    ``tests/solver/test_outcome_rows.py``). Safe to share between threads."""
 
     def __init__(self, size: int = 32, max_points: int = 400_000) -> None:
         self.size = size
@@ -323,6 +326,8 @@ class ZoneCache:
         self.rows = OutcomeRows()
         """The outcome stage's rows of the zones' points, from one edit to the next
         (:func:`droprig.solver.analyse_outcomes`)."""
+        self.forward_rows = OutcomeRows(outcomes_only=False)
+        """The confirmed analysis's forward rows (before the confirmation), likewise."""
 
     def peek(self, project: Project, zone: LiftZone) -> Results | None:
         """The zone's results if the cache holds them, else None; a look only (no
@@ -345,7 +350,7 @@ class ZoneCache:
                 self._zones.move_to_end(key)
                 self.hits += 1
                 return hit
-        r = analyse_zone(project, zone.id, floor)
+        r = analyse_zone(project, zone.id, floor, rows=self.forward_rows)
         with self._lock:
             self.misses += 1
             if key not in self._zones:

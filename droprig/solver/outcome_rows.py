@@ -106,14 +106,18 @@ class _Store:
 
 
 class OutcomeRows:
-    """The outcome stage's rows of the last ``size`` :func:`rows_key` values (at most
-    ``max_rows`` rows together; the oldest key's rows go first, and a store that grows
-    past it starts afresh). Safe to share between threads (a lock around the lookups;
-    the rows are worked out outside it)."""
+    """The rows of the last ``size`` :func:`rows_key` values (at most ``max_rows`` rows
+    together; the oldest key's rows go first). ``outcomes_only``: the outcome stage's
+    rows (``Drop.outcomes_only``: no plastic height or allowable mass), else the full
+    forward rows the confirmed analysis starts from (its confirmation then works the
+    trials' geometry out itself: the same values). Safe to share between threads (a
+    lock around the lookups; the rows are worked out outside it)."""
 
-    def __init__(self, size: int = 4, max_rows: int = 150_000) -> None:
+    def __init__(self, size: int = 4, max_rows: int = 100_000, *,
+                 outcomes_only: bool = True) -> None:
         self.size = size
         self.max_rows = max_rows
+        self.outcomes_only = outcomes_only
         self._stores: OrderedDict[int, tuple[tuple, _Store]] = OrderedDict()
         self._next = 0
         self._lock = threading.Lock()
@@ -141,8 +145,8 @@ class OutcomeRows:
     def evaluate(self, fm: FloorModel, project: Project, zone: LiftZone,
                  loads: Sequence[LiftLoad], x: np.ndarray, y: np.ndarray,
                  li: np.ndarray) -> dict[str, np.ndarray]:
-        """The outcome stage's outputs (:func:`~droprig.solver.evaluate.evaluate_case`
-        with ``outcomes_only``) of the rows (x, y in m; ``li`` the index of each row's
+        """The outputs (:func:`~droprig.solver.evaluate.evaluate_case`, with
+        :attr:`outcomes_only`) of the rows (x, y in m; ``li`` the index of each row's
         load in ``loads``, the zone's loads), the rows held taken, the others worked
         out and kept."""
         x = np.ascontiguousarray(x, dtype=float)
@@ -161,7 +165,8 @@ class OutcomeRows:
         if miss.size or not hit.size:
             geo = evaluate.distinct_geometry(fm, project, x[miss], y[miss])
             new = evaluate.evaluate_case(fm, project, list(loads), geo, li[miss],
-                                         v_hoist=zone.hoist_speed, outcomes_only=True)
+                                         v_hoist=zone.hoist_speed,
+                                         outcomes_only=self.outcomes_only)
         with self._lock:
             self.hits += hit.size
             self.misses += miss.size

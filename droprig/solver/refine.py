@@ -147,12 +147,13 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
     ``outcomes_only``: the outcome stage (:func:`droprig.solver.analyse_outcomes`):
     the plastic heights and allowable masses are not worked out (NaN). The points are
     the same as a full run's: :func:`_refine` reads the elastic allowable height, the
-    severity and the bays, which such a run works out as a full one does. ``rows``
-    (with ``outcomes_only`` only): the rows a previous edit worked out are taken from
-    it (:class:`~droprig.solver.outcome_rows.OutcomeRows`, the same values); no
-    geometry is returned then."""
-    if rows is not None and not outcomes_only:
-        raise ValueError("remembered rows serve the outcome stage only")
+    severity and the bays, which such a run works out as a full one does. ``rows``:
+    the rows a previous edit worked out are taken from it
+    (:class:`~droprig.solver.outcome_rows.OutcomeRows` of the same ``outcomes_only``;
+    the same values); no geometry is returned then (the confirmation's trials work
+    theirs out)."""
+    if rows is not None and rows.outcomes_only != outcomes_only:
+        raise ValueError("remembered rows of the other stage")
     loads = list(zone.loads)
     vh = zone.hoist_speed  # the load strikes at √(v_h² + 2gh) (local damage)
     nl = len(loads)

@@ -1,5 +1,6 @@
 """The outcome stage's rows remembered from one edit to the next
-(droprig.solver.outcome_rows, used by ``analyse_outcomes`` with a ``ZoneCache``):
+(droprig.solver.outcome_rows, used by ``analyse_outcomes`` with a ``ZoneCache``,
+and the forward rows of ``ZoneCache.analyse``):
 after edits of a zone's region the outcomes equal those worked out afresh, bit for
 bit, while rows are taken from the memory; an edit to what a point's answer is made
 of (a load, a pad given by its crush force and the loads of the level) takes none.
@@ -21,7 +22,7 @@ import pytest
 
 from droprig.io.project_file import load_project
 from droprig.model import Project, ProtectionArea, Rect
-from droprig.solver import Results, ZoneCache, analyse_outcomes
+from droprig.solver import Results, ZoneCache, analyse, analyse_outcomes
 from droprig.solver.analysis import zone_key
 from droprig.solver.outcome_rows import rows_key
 from tests.permit_projects import random_project
@@ -79,6 +80,24 @@ def test_random_corridor_edit_equals_a_fresh_outcome_stage(seed: int) -> None:
     assert got is not None
     _same(got, analyse_outcomes(edited))
     assert cache.rows.hits > 0
+
+
+@pytest.mark.parametrize("which", ("rooftop", "random"))
+def test_confirmed_analysis_after_a_region_edit_equals_a_full_analysis(which: str) -> None:
+    """The window's confirmed stage (``ZoneCache.analyse``) starts from the forward
+    rows it remembers (``ZoneCache.forward_rows``): after an edit of the region its
+    results — limits confirmed, warnings, falls — equal :func:`analyse`'s bit for bit."""
+    p = load_project(DEMOS[0]) if which == "rooftop" else random_project(2)
+    z = p.lift_zones[0]
+    cache = ZoneCache()
+    cache.analyse(p)
+    assert cache.forward_rows.hits == 0
+    edited = _with_zone(p, r_max=z.r_max * 0.91)
+    got = cache.analyse(edited)
+    want = analyse(edited)
+    _same(got, want)
+    assert got.warnings == want.warnings
+    assert cache.forward_rows.hits > 0
 
 
 def test_load_edit_takes_no_rows() -> None:
