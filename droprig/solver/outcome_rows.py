@@ -9,9 +9,12 @@ on the first column line and the points along the members on the framing
 all but the points along the zone's edge in place. The chain's answer at a point
 depends on the point, its load, the zone's hoist speed and the project around the
 zone (levels, protection areas, settings — and, for a pad given by its crush force,
-the loads of the level's zones), never on the region of the zone: a row worked out
-for one edit holds for the next, bit for bit (every step works row by row: the
-searches' rounds are per row too, ``chain._close_bracket``).
+the loads of the level's zones), never on the region of the zone nor on the zone's
+other loads: a row worked out for one edit holds for the next, bit for bit (every step
+works row by row: the searches' rounds are per row too, ``chain._close_bracket``). The
+one step that does not — a floor's points chosen for their own time history by their
+group of bay and load (``chain.FLOOR_POINT_HISTORY``, off) — turns the memory off
+(:meth:`OutcomeRows.serves`).
 
 :class:`OutcomeRows` keeps those rows, keyed by :func:`rows_key` and the point's exact
 coordinates and load, and works out only the rows it does not hold
@@ -58,21 +61,23 @@ def pad_loads(project: Project, zone: LiftZone) -> tuple:
 
 def rows_key(project: Project, zone: LiftZone) -> tuple:
     """What a drop point's answer in ``zone`` is made of besides the point and its
-    load, as frozen model objects: the zone's level, loads and hoist speed (the strike
-    speed √(v_h² + 2gh)), the loads of :func:`pad_loads`, and every field of the
-    project the chain reads (levels, protection areas, settings). Not the zone's
-    region (radii, slew, corridor, drift), which only places the points. Equal keys,
-    equal rows."""
-    return (zone.level_id, zone.loads, zone.hoist_speed, pad_loads(project, zone),
+    load (a row's own :class:`~droprig.model.LiftLoad`, kept with the row), as frozen
+    model objects: the zone's level and hoist speed (the strike speed
+    √(v_h² + 2gh)), the loads of :func:`pad_loads`, and every field of the project the
+    chain reads (levels, protection areas, settings). Not the zone's region (radii,
+    slew, corridor, drift), which only places the points, nor its other loads. Equal
+    keys and loads, equal rows."""
+    return (zone.level_id, zone.hoist_speed, pad_loads(project, zone),
             *(getattr(project, f.name) for f in fields(project) if f.name not in _NOT_READ))
 
 
 class _Store:
     """The rows of one :func:`rows_key`: their outputs in chunks (each a dict of arrays,
-    as :func:`~droprig.solver.evaluate.evaluate_case` returns them) and where each
-    (x, y, load) row lies."""
+    as :func:`~droprig.solver.evaluate.evaluate_case` returns them), where each
+    (x, y, load) row lies, and a number for each load met (``load_ids``)."""
 
     def __init__(self) -> None:
+        self.load_ids: dict[LiftLoad, int] = {}
         self.where: dict[tuple[int, int, int], int] = {}
         self.chunks: list[dict[str, np.ndarray]] = []
         self.starts: list[int] = []
@@ -124,6 +129,16 @@ class OutcomeRows:
         self.hits = 0
         self.misses = 0
 
+    @staticmethod
+    def serves(fm: FloorModel) -> bool:
+        """Whether rows of this floor may be remembered: not where the chain chooses
+        points for their own time history by their group
+        (``chain.FLOOR_POINT_HISTORY`` with ``dynamic_amplification``: a row's answer
+        would depend on the other rows worked out with it)."""
+        from droprig.solver import chain
+
+        return not (chain.FLOOR_POINT_HISTORY and fm.settings.dynamic_amplification)
+
     def _store(self, key: tuple) -> _Store:
         for sid, (k, st) in self._stores.items():
             if k == key:  # (the model objects an edit leaves are the same objects)
@@ -152,12 +167,15 @@ class OutcomeRows:
         x = np.ascontiguousarray(x, dtype=float)
         y = np.ascontiguousarray(y, dtype=float)
         li = np.ascontiguousarray(li, dtype=np.int64)
-        # exact coordinates (the bits of the doubles; -0.0 as 0.0) and load
-        keys = list(zip((x + 0.0).view(np.int64).tolist(), (y + 0.0).view(np.int64).tolist(),
-                        li.tolist(), strict=True))
         rk = rows_key(project, zone)
         with self._lock:
             st = self._store(rk)
+            ids = np.array([st.load_ids.setdefault(ld, len(st.load_ids)) for ld in loads],
+                           dtype=np.int64)
+            # exact coordinates (the bits of the doubles; -0.0 as 0.0) and the load
+            keys = list(zip((x + 0.0).view(np.int64).tolist(),
+                            (y + 0.0).view(np.int64).tolist(),
+                            ids[li].tolist() if li.size else [], strict=True))
             got = [st.where.get(k, -1) for k in keys]
         pos = np.asarray(got, dtype=np.int64)
         hit, miss = np.flatnonzero(pos >= 0), np.flatnonzero(pos < 0)

@@ -160,8 +160,8 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
     bx, by = (base.x, base.y) if isinstance(base, Geometry) else base
     nb = bx.size
     li = np.repeat(np.arange(nl), nb)
-    if rows is not None and nb * nl > rows.max_rows // 2:
-        rows = None  # a large zone: not remembered (memory stays bounded)
+    if rows is not None and (nb * nl > rows.max_rows // 2 or not rows.serves(fm)):
+        rows = None  # a large zone (memory stays bounded), or rows not row by row
     if rows is not None:
         res = rows.evaluate(fm, project, zone, loads, np.tile(bx, nl), np.tile(by, nl), li)
         geos: list[Geometry] | None = None

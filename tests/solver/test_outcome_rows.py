@@ -3,7 +3,7 @@
 and the forward rows of ``ZoneCache.analyse``):
 after edits of a zone's region the outcomes equal those worked out afresh, bit for
 bit, while rows are taken from the memory; an edit to what a point's answer is made
-of (a load, a pad given by its crush force and the loads of the level) takes none.
+of (its load, a pad given by its crush force and the loads of the level) takes none.
 
 A property of the implementation, no engineering source: the reference is droprig's
 own outcome stage without the memory (:func:`droprig.solver.analyse_outcomes`, itself
@@ -100,17 +100,25 @@ def test_confirmed_analysis_after_a_region_edit_equals_a_full_analysis(which: st
     assert cache.forward_rows.hits > 0
 
 
-def test_load_edit_takes_no_rows() -> None:
+def test_load_edit_takes_only_the_other_loads_rows() -> None:
+    """A row's answer is made of its own load, not the zone's others: after an edit of
+    one load every row of that load is worked out again, the other loads' rows are
+    taken (also when the loads change places)."""
     p = load_project(DEMOS[0])
     z = p.lift_zones[0]
+    assert len(z.loads) > 1
     cache = ZoneCache()
     analyse_outcomes(p, cache)
     heavier = replace(z.loads[0], mass=z.loads[0].mass * 1.1)
-    edited = _with_zone(p, loads=(heavier, *z.loads[1:]))
+    edited = _with_zone(p, loads=(*z.loads[1:], heavier))
+    h0, m0 = cache.rows.hits, cache.rows.misses
     got = analyse_outcomes(edited, cache)
     assert got is not None
-    assert cache.rows.hits == 0  # another load: every row worked out again
     _same(got, analyse_outcomes(edited))
+    n_edited = sum(c.x.size for c in got.cases if c.load_name == heavier.name)
+    n_all = sum(c.x.size for c in got.cases)
+    assert cache.rows.misses - m0 >= n_edited  # none of the edited load's rows taken
+    assert cache.rows.hits - h0 > 0.5 * (n_all - n_edited)  # the others' mostly taken
 
 
 def test_key_holds_the_level_loads_where_a_pad_is_given_by_its_force() -> None:
@@ -133,3 +141,26 @@ def test_key_holds_the_level_loads_where_a_pad_is_given_by_its_force() -> None:
         # the window's zone cache too (before, an edit of another zone's loads left
         # this zone's results in the cache)
         assert (zone_key(a, z) != zone_key(b, z)) is changes
+
+
+def test_no_rows_kept_where_a_row_depends_on_the_others(monkeypatch: pytest.MonkeyPatch
+                                                        ) -> None:
+    """Points chosen for their own time history by their group of bay and load
+    (``chain.FLOOR_POINT_HISTORY`` with dynamic amplification) make a row's answer
+    depend on the rows worked out with it: then nothing is remembered."""
+    from droprig.solver import chain
+    from droprig.solver.analysis import floor_model
+    from droprig.solver.outcome_rows import OutcomeRows
+
+    p = random_project(2, pads=False)
+    on = replace(p.settings, dynamic_amplification=True)
+    off = replace(p.settings, dynamic_amplification=False)
+    level = p.levels[-1]
+    assert OutcomeRows.serves(floor_model(level, on))  # as shipped: off for floors
+    monkeypatch.setattr(chain, "FLOOR_POINT_HISTORY", True)
+    assert not OutcomeRows.serves(floor_model(level, on))
+    assert OutcomeRows.serves(floor_model(level, off))
+    cache = ZoneCache()
+    q = replace(p, settings=on)
+    analyse_outcomes(q, cache)
+    assert (cache.rows.hits, cache.rows.misses) == (0, 0)
