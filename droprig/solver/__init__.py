@@ -115,7 +115,8 @@ def analyse_outcomes(project: Project, cache: ZoneCache | None = None) -> Result
             continue
         forward = True
         r = analysis.analyse_zone(project, zone.id, floor, confirm=False,
-                                  rows=cache.rows if cache is not None else None)
+                                  rows=cache.rows if cache is not None else None,
+                                  fall_rows=cache.forward_rows if cache is not None else None)
         cases.extend(r.cases)
         summaries.extend(r.bays)
         falls.extend(r.cascade)

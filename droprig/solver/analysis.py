@@ -106,13 +106,15 @@ def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
 
 def analyse_zone(project: Project, zone_id: str,
                  floor: Callable[[str], FloorModel] | None = None, *,
-                 confirm: bool = True, rows: OutcomeRows | None = None) -> Results:
+                 confirm: bool = True, rows: OutcomeRows | None = None,
+                 fall_rows: OutcomeRows | None = None) -> Results:
     """Every load of one lift zone (see :func:`analyse`). ``confirm=False``: the
     forward analysis only, its limits untried (:func:`droprig.solver.analyse_outcomes`
     — never to be printed as final), its points' plastic heights and allowable masses
     not worked out (NaN: ``Drop.outcomes_only``). ``rows``: its points' rows
     remembered from earlier edits (:class:`~droprig.solver.outcome_rows.OutcomeRows`
-    of the stage's kind, ``outcomes_only`` for ``confirm=False``; the same values)."""
+    of the stage's kind, ``outcomes_only`` for ``confirm=False``; the same values);
+    ``fall_rows``: likewise, full forward rows, for the falls to the levels below."""
     cancel.check()
     project = resolve_drift(project)
     floor = floor or floor_cache(project)
@@ -165,7 +167,10 @@ def analyse_zone(project: Project, zone_id: str,
                      if confirm else cases_and_bays(allres))
     cases = list(zone_cases)
     if below is not None and zone_cases:
-        falls.extend(cascade_down(project, zone, zone_cases, below, floor))
+        # (the falls are worked out in full in either stage: their rows are the
+        # forward rows of the levels below)
+        falls.extend(cascade_down(project, zone, zone_cases, below, floor,
+                                  rows=fall_rows))
     if not zone.loads:
         warnings.append(f"zone {zone.id}: no loads to assess")
     warnings.extend(useless_layers(project, zone))
@@ -173,7 +178,8 @@ def analyse_zone(project: Project, zone_id: str,
 
 
 def cascade_down(project: Project, zone: LiftZone, cases: Sequence[CaseResult],
-                 below: Level, floor: Callable[[str], FloorModel]) -> list[Cascade]:
+                 below: Level, floor: Callable[[str], FloorModel], *,
+                 rows: OutcomeRows | None = None) -> list[Cascade]:
     """The falls of every perforating drop of the zone's loads (``cases``: one per load
     of ``zone.loads``, on the zone's level) level by level: the level below is struck
     (:func:`_cascade`); where that level is perforated too and the project has a
@@ -183,7 +189,8 @@ def cascade_down(project: Project, zone: LiftZone, cases: Sequence[CaseResult],
     one fall per load and level. Each fall is one :class:`Cascade` (from the level it
     came through to the level it strikes); the list holds them load by load, each
     load's from the top down. The loads falling onto one level are worked out in one
-    run."""
+    run. ``rows``: full forward rows remembered from earlier edits
+    (:class:`~droprig.solver.outcome_rows.OutcomeRows`, the same values)."""
     per_load: list[list[Cascade]] = [[] for _ in cases]
     current = list(cases)
     active = list(range(len(cases)))
@@ -194,7 +201,7 @@ def cascade_down(project: Project, zone: LiftZone, cases: Sequence[CaseResult],
             and steps < len(project.levels):
         cancel.check()
         got = _cascade(project, zone, [zone.loads[j] for j in active],
-                       [current[j] for j in active], lower, floor)
+                       [current[j] for j in active], lower, floor, rows)
         still = []
         for j, fall in zip(active, got, strict=True):
             if fall is not None:
@@ -210,7 +217,8 @@ def cascade_down(project: Project, zone: LiftZone, cases: Sequence[CaseResult],
 
 def _cascade(project: Project, zone: LiftZone, loads: Sequence[LiftLoad],
              cases: Sequence[CaseResult], below: Level,
-             floor: Callable[[str], FloorModel]) -> list[Cascade | None]:
+             floor: Callable[[str], FloorModel],
+             rows: OutcomeRows | None = None) -> list[Cascade | None]:
     """The level below a perforated deck, struck at the perforating points of each
     load's case by the same load from the equivalent height h_eq = V_r²/(2g) + Δ (the
     largest over those points; :mod:`droprig.solver.cascade`), assessed in the same
@@ -241,8 +249,12 @@ def _cascade(project: Project, zone: LiftZone, loads: Sequence[LiftLoad],
         return out
     fm = floor(below.id)
     li = np.repeat(np.arange(len(falling)), [x.size for x in xs])
-    res_all = evaluate.evaluate_points(fm, project, falling, np.concatenate(xs),
-                                       np.concatenate(ys), load_index=li)
+    fx, fy = np.concatenate(xs), np.concatenate(ys)
+    if rows is not None and not rows.outcomes_only and rows.serves(fm) \
+            and fx.size <= rows.max_rows // 2:
+        res_all = rows.evaluate(fm, project, falling, fx, fy, li)
+    else:
+        res_all = evaluate.evaluate_points(fm, project, falling, fx, fy, load_index=li)
     lv = cascade.level_below(project, below.id)
     for j, k in enumerate(owner):
         case = cases[k]
@@ -298,8 +310,9 @@ def zone_key(project: Project, zone: LiftZone) -> tuple:
     zone's level is given by its crush force alone, the loads of the level's zones
     (its crush stress is that force over their largest footprint:
     :func:`droprig.solver.outcome_rows.rows_key`). Equal keys, equal results."""
-    return (zone, pad_loads(project, zone), *(getattr(project, f.name) for f in fields(project)
-                                              if f.name not in _NOT_ANALYSED))
+    return (zone, pad_loads(project, zone.level_id),
+            *(getattr(project, f.name) for f in fields(project)
+              if f.name not in _NOT_ANALYSED))
 
 
 class ZoneCache:
@@ -350,7 +363,8 @@ class ZoneCache:
                 self._zones.move_to_end(key)
                 self.hits += 1
                 return hit
-        r = analyse_zone(project, zone.id, floor, rows=self.forward_rows)
+        r = analyse_zone(project, zone.id, floor, rows=self.forward_rows,
+                         fall_rows=self.forward_rows)
         with self._lock:
             self.misses += 1
             if key not in self._zones:

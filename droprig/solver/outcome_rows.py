@@ -37,7 +37,7 @@ from dataclasses import fields
 
 import numpy as np
 
-from droprig.model import LiftLoad, LiftZone, Project
+from droprig.model import LiftLoad, Project
 from droprig.solver import evaluate
 from droprig.solver.floor import FloorModel
 
@@ -47,27 +47,28 @@ _NOT_READ = ("info", "lift_zones")
 """Fields of :class:`~droprig.model.Project` the chain at a point never reads."""
 
 
-def pad_loads(project: Project, zone: LiftZone) -> tuple:
-    """The loads of the zones on ``zone``'s level where a crushable pad of that level
+def pad_loads(project: Project, level_id: str) -> tuple:
+    """The loads of the zones on level ``level_id`` where a crushable pad of that level
     is given by its crush force alone: its crush stress is then that force over the
     largest footprint of those loads (:func:`droprig.solver.chain.pad_crush_stress`),
     so they feed every point's answer. Empty otherwise."""
-    legacy = any(pa.level_id == zone.level_id and pa.kind == "crushable"
+    legacy = any(pa.level_id == level_id and pa.kind == "crushable"
                  and pa.crush_stress is None for pa in project.protection_areas)
     if not legacy:
         return ()
-    return tuple(z.loads for z in project.lift_zones if z.level_id == zone.level_id)
+    return tuple(z.loads for z in project.lift_zones if z.level_id == level_id)
 
 
-def rows_key(project: Project, zone: LiftZone) -> tuple:
-    """What a drop point's answer in ``zone`` is made of besides the point and its
-    load (a row's own :class:`~droprig.model.LiftLoad`, kept with the row), as frozen
-    model objects: the zone's level and hoist speed (the strike speed
-    √(v_h² + 2gh)), the loads of :func:`pad_loads`, and every field of the project the
-    chain reads (levels, protection areas, settings). Not the zone's region (radii,
-    slew, corridor, drift), which only places the points, nor its other loads. Equal
-    keys and loads, equal rows."""
-    return (zone.level_id, zone.hoist_speed, pad_loads(project, zone),
+def rows_key(project: Project, level_id: str, v_hoist: float) -> tuple:
+    """What a drop point's answer on level ``level_id`` is made of besides the point
+    and its load (a row's own :class:`~droprig.model.LiftLoad`, kept with the row), as
+    frozen model objects: the level, the hoist's lowering speed ``v_hoist`` (m/s: the
+    strike speed √(v_h² + 2gh); a zone's ``hoist_speed``, 0 for a fall to a level
+    below), the loads of :func:`pad_loads`, and every field of the project the chain
+    reads (levels, protection areas, settings). Not a zone's region (radii, slew,
+    corridor, drift), which only places the points, nor its other loads. Equal keys
+    and loads, equal rows."""
+    return (level_id, v_hoist, pad_loads(project, level_id),
             *(getattr(project, f.name) for f in fields(project) if f.name not in _NOT_READ))
 
 
@@ -157,17 +158,17 @@ class OutcomeRows:
             _, (_, st) = self._stores.popitem(last=False)
             total -= st.n
 
-    def evaluate(self, fm: FloorModel, project: Project, zone: LiftZone,
-                 loads: Sequence[LiftLoad], x: np.ndarray, y: np.ndarray,
-                 li: np.ndarray) -> dict[str, np.ndarray]:
+    def evaluate(self, fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
+                 x: np.ndarray, y: np.ndarray, li: np.ndarray, *,
+                 v_hoist: float = 0.0) -> dict[str, np.ndarray]:
         """The outputs (:func:`~droprig.solver.evaluate.evaluate_case`, with
         :attr:`outcomes_only`) of the rows (x, y in m; ``li`` the index of each row's
-        load in ``loads``, the zone's loads), the rows held taken, the others worked
-        out and kept."""
+        load in ``loads``) on the floor ``fm``, struck with the hoist's lowering speed
+        ``v_hoist`` (m/s), the rows held taken, the others worked out and kept."""
         x = np.ascontiguousarray(x, dtype=float)
         y = np.ascontiguousarray(y, dtype=float)
         li = np.ascontiguousarray(li, dtype=np.int64)
-        rk = rows_key(project, zone)
+        rk = rows_key(project, fm.level.id, v_hoist)
         with self._lock:
             st = self._store(rk)
             ids = np.array([st.load_ids.setdefault(ld, len(st.load_ids)) for ld in loads],
@@ -183,7 +184,7 @@ class OutcomeRows:
         if miss.size or not hit.size:
             geo = evaluate.distinct_geometry(fm, project, x[miss], y[miss])
             new = evaluate.evaluate_case(fm, project, list(loads), geo, li[miss],
-                                         v_hoist=zone.hoist_speed,
+                                         v_hoist=v_hoist,
                                          outcomes_only=self.outcomes_only)
         with self._lock:
             self.hits += hit.size

@@ -163,7 +163,8 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
     if rows is not None and (nb * nl > rows.max_rows // 2 or not rows.serves(fm)):
         rows = None  # a large zone (memory stays bounded), or rows not row by row
     if rows is not None:
-        res = rows.evaluate(fm, project, zone, loads, np.tile(bx, nl), np.tile(by, nl), li)
+        res = rows.evaluate(fm, project, loads, np.tile(bx, nl), np.tile(by, nl), li,
+                            v_hoist=vh)
         geos: list[Geometry] | None = None
     elif nb <= evaluate.CACHE_MAX_POINTS:
         # all loads in one pass over the base points repeated once per load; the
@@ -197,7 +198,7 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         # merged into the sorted known keys (k is sorted: no sort of the whole again)
         known = np.insert(known, np.searchsorted(known, keys[fresh]), keys[fresh])
         if rows is not None:
-            r2 = rows.evaluate(fm, project, zone, loads, x, y, lj)
+            r2 = rows.evaluate(fm, project, loads, x, y, lj, v_hoist=vh)
         else:
             geo = evaluate.distinct_geometry(fm, project, x, y)  # a point refined per load
             r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True,
