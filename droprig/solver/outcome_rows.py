@@ -1,4 +1,4 @@
-"""The outcome stage's drop-point rows remembered from one edit to the next.
+"""Drop-point rows remembered from one edit to the next (the window's live analysis).
 
 The window re-analyses a lift zone after every edit, first its outcomes
 (:func:`droprig.solver.analyse_outcomes`, what it paints at once). An edit to the
@@ -18,12 +18,15 @@ group of bay and load (``chain.FLOOR_POINT_HISTORY``, off) — turns the memory 
 
 :class:`OutcomeRows` keeps those rows, keyed by :func:`rows_key` and the point's exact
 coordinates and load, and works out only the rows it does not hold
-(:func:`droprig.solver.evaluate.evaluate_case` at those points). Used by the outcome
-stage only (``Drop.outcomes_only``): its rows carry no plastic height or allowable
-mass, and the confirmed analysis (:func:`droprig.solver.analyse`) never reads them.
-``tests/solver/test_outcome_rows.py`` compares the outcomes with it and without it
-after edits of the demo projects and of random projects. Invented data only there;
-a property of the implementation (no engineering source).
+(:func:`droprig.solver.evaluate.evaluate_case` at those points). The window's
+:class:`~droprig.solver.analysis.ZoneCache` holds two: the outcome stage's rows
+(``Drop.outcomes_only``: no plastic height or allowable mass; read by the outcome
+stage only) and the full forward rows, from which the confirmed analysis starts (its
+confirmation tries every limit as before) and the falls to the levels below are
+assessed. The command line and the annex analyse afresh (:func:`droprig.solver.analyse`
+holds no memory). ``tests/solver/test_outcome_rows.py`` compares the results with it
+and without it after edits of the demo projects and of random projects. Invented data
+only there; a property of the implementation (no engineering source).
 
 A speed measure only: the answer is the same as working every row out again.
 """
