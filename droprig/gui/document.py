@@ -16,6 +16,7 @@ import time
 import uuid
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from PySide6.QtCore import QLockFile, QObject, QTimer, Signal
 from PySide6.QtGui import QUndoStack
@@ -23,6 +24,9 @@ from PySide6.QtGui import QUndoStack
 from droprig.gui.commands import ProjectEdit
 from droprig.model import Level, Project, bays
 from droprig.solver import Results
+
+if TYPE_CHECKING:
+    from droprig.permit import PermitConditions
 
 # ------------------------------------------------------------------ selection
 
@@ -129,6 +133,7 @@ class Document(QObject):
         self._results_project: Project | None = None
         self._confirmed = True
         self._analysis_error = ""
+        self._permit: tuple[Project, Results, PermitConditions] | None = None
         self.revision = 0
         """Incremented on every swap (autosave writes only when it moved)."""
         self.undo_stack = QUndoStack(self)
@@ -388,7 +393,21 @@ class Document(QObject):
         self._results_project = project if project is not None else self._project
         self._confirmed = confirmed
         self._analysis_error = error
+        self._permit = None
         self.results_changed.emit(results)
+
+    def permit(self, project: Project, results: Results) -> PermitConditions:
+        """:func:`droprig.permit.derive_conditions` of ``project`` and ``results``,
+        derived once for the results installed and shared by the panels that show it
+        (the results table, the inspector): the same object for the same two."""
+        got = self._permit
+        if got is not None and got[0] is project and got[1] is results:
+            return got[2]
+        from droprig.permit import derive_conditions
+
+        permit = derive_conditions(project, results)
+        self._permit = (project, results, permit)
+        return permit
 
 
 # ------------------------------------------------------------------ autosave

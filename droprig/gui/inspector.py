@@ -62,7 +62,7 @@ from droprig.model import (
     lift_point_tags,
 )
 from droprig.outcomes import fmt_utilisation_check, fmt_worst_point
-from droprig.permit import LIMIT_NOTE, derive_conditions
+from droprig.permit import LIMIT_NOTE
 
 # ------------------------------------------------------------------ messages
 
@@ -1168,7 +1168,7 @@ class Inspector(QWidget):
             # the permit's words and figures (droprig.permit), as in the results table;
             # none while the limits of an edit are still being confirmed
             confirmed = self._doc.results_confirmed
-            permit = derive_conditions(self._doc.project, res) \
+            permit = self._doc.permit(self._doc.project, res) \
                 if res is not None and confirmed else None
             verdicts = {(v.zone_id, v.load_name, v.bay_id): v
                         for v in (permit.bays if permit is not None else ())}

@@ -164,15 +164,16 @@ class BayResultsModel(QAbstractTableModel):
         cell on every repaint)."""
 
     def set_data(self, results: Results | None, project: Project, stale: bool = False,
-                 confirmed: bool = True) -> None:
+                 confirmed: bool = True, permit: PermitConditions | None = None) -> None:
         """Rows of ``results``. ``confirmed=False``: the outcomes of an edit whose
         limits are still being confirmed — the verdict, limit and condition cells read
         :data:`CONFIRMING` and :attr:`permit` is ``None`` (the permit's words for the
-        untried limits are never shown)."""
+        untried limits are never shown). ``permit``: the permit of ``results``, where
+        the caller has it (:meth:`droprig.gui.document.Document.permit`), else derived."""
         self.beginResetModel()
         self._rows = results.bays if results is not None else ()
         self.confirmed = confirmed
-        self.permit = derive_conditions(project, results) \
+        self.permit = (permit or derive_conditions(project, results)) \
             if results is not None and confirmed else None
         self._verdicts = {(v.zone_id, v.load_name, v.bay_id): v
                           for v in (self.permit.bays if self.permit is not None else ())}
@@ -521,8 +522,10 @@ class ResultsTable(QWidget):
 
     def _on_results_changed(self, results: Results | None) -> None:
         self._syncing = True
-        self.model.set_data(results, self._doc.project,
-                            confirmed=results is None or self._doc.results_confirmed)
+        confirmed = results is None or self._doc.results_confirmed
+        self.model.set_data(results, self._doc.project, confirmed=confirmed,
+                            permit=self._doc.permit(self._doc.project, results)
+                            if results is not None and confirmed else None)
         # one lift zone: its column says nothing the summary line does not
         self.view.setColumnHidden(COL["zone"], len(self._doc.project.lift_zones) <= 1)
         self._fit_columns()

@@ -86,9 +86,14 @@ def analyse_outcomes(project: Project, cache: ZoneCache | None = None) -> Result
     (``tests/solver/test_analyse_outcomes.py`` compares them with :func:`analyse`).
     What it does change is not: each bay's limits and advice (allowable heights,
     height limit, mat) and every point's plastic allowable height are the inverse
-    answers as found, untried, so they must never be shown or printed as final; and
-    the unconfirmed zones carry no warnings. The permit, the annex and ``droprig``
-    take :func:`analyse` only. SI units.
+    answers as found, untried, so they must never be shown or printed as final; every
+    point's plastic allowable height and allowable mass (and so each bay's) are not
+    worked out at all (NaN, None: ``Drop.outcomes_only`` — they are the costliest
+    inverse answers and only the confirmation reads them); and the unconfirmed zones
+    carry no warnings. With ``cache``, the points' rows an earlier call worked out
+    for the same zone inputs but the zone's region are taken from ``cache.rows``
+    (:class:`droprig.solver.outcome_rows.OutcomeRows`: the same values). The permit,
+    the annex and ``droprig`` take :func:`analyse` only. SI units.
     """
     from droprig.solver import analysis
     from droprig.solver.floor import floor_cache
@@ -109,7 +114,9 @@ def analyse_outcomes(project: Project, cache: ZoneCache | None = None) -> Result
             warnings.extend(w for w in held.warnings if w not in warnings)
             continue
         forward = True
-        r = analysis.analyse_zone(project, zone.id, floor, confirm=False)
+        r = analysis.analyse_zone(project, zone.id, floor, confirm=False,
+                                  rows=cache.rows if cache is not None else None,
+                                  fall_rows=cache.forward_rows if cache is not None else None)
         cases.extend(r.cases)
         summaries.extend(r.bays)
         falls.extend(r.cascade)

@@ -68,6 +68,7 @@ from droprig.solver.confirm import confirm_zone
 from droprig.solver.drift import resolve_drift
 from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_model
 from droprig.solver.geometry import Geometry, point_geometry
+from droprig.solver.outcome_rows import OutcomeRows, pad_loads
 from droprig.solver.results import PERFORATES, BaySummary, Cascade, CaseResult, Results
 from droprig.solver.summary import Advice, bay_advice, summarise
 
@@ -105,10 +106,15 @@ def _case_result(zone: LiftZone, load: LiftLoad, level: Level,
 
 def analyse_zone(project: Project, zone_id: str,
                  floor: Callable[[str], FloorModel] | None = None, *,
-                 confirm: bool = True) -> Results:
+                 confirm: bool = True, rows: OutcomeRows | None = None,
+                 fall_rows: OutcomeRows | None = None) -> Results:
     """Every load of one lift zone (see :func:`analyse`). ``confirm=False``: the
     forward analysis only, its limits untried (:func:`droprig.solver.analyse_outcomes`
-    — never to be printed as final)."""
+    — never to be printed as final), its points' plastic heights and allowable masses
+    not worked out (NaN: ``Drop.outcomes_only``). ``rows``: its points' rows
+    remembered from earlier edits (:class:`~droprig.solver.outcome_rows.OutcomeRows`
+    of the stage's kind, ``outcomes_only`` for ``confirm=False``; the same values);
+    ``fall_rows``: likewise, full forward rows, for the falls to the levels below."""
     cancel.check()
     project = resolve_drift(project)
     floor = floor or floor_cache(project)
@@ -153,14 +159,18 @@ def analyse_zone(project: Project, zone_id: str,
         return out
 
     if zone.loads:
-        allres, geo = refine.zone_points_geometry(fm, project, zone, (x, y))
+        allres, geo = refine.zone_points_geometry(fm, project, zone, (x, y),
+                                                  outcomes_only=not confirm, rows=rows)
         # each point's plastic height, then every limit a bay offers, tried by the
         # forward chain before it is printed
         summaries = (confirm_zone(fm, project, zone, allres, geo, cases_and_bays)
                      if confirm else cases_and_bays(allres))
     cases = list(zone_cases)
     if below is not None and zone_cases:
-        falls.extend(cascade_down(project, zone, zone_cases, below, floor))
+        # (the falls are worked out in full in either stage: their rows are the
+        # forward rows of the levels below)
+        falls.extend(cascade_down(project, zone, zone_cases, below, floor,
+                                  rows=fall_rows))
     if not zone.loads:
         warnings.append(f"zone {zone.id}: no loads to assess")
     warnings.extend(useless_layers(project, zone))
@@ -168,7 +178,8 @@ def analyse_zone(project: Project, zone_id: str,
 
 
 def cascade_down(project: Project, zone: LiftZone, cases: Sequence[CaseResult],
-                 below: Level, floor: Callable[[str], FloorModel]) -> list[Cascade]:
+                 below: Level, floor: Callable[[str], FloorModel], *,
+                 rows: OutcomeRows | None = None) -> list[Cascade]:
     """The falls of every perforating drop of the zone's loads (``cases``: one per load
     of ``zone.loads``, on the zone's level) level by level: the level below is struck
     (:func:`_cascade`); where that level is perforated too and the project has a
@@ -178,7 +189,8 @@ def cascade_down(project: Project, zone: LiftZone, cases: Sequence[CaseResult],
     one fall per load and level. Each fall is one :class:`Cascade` (from the level it
     came through to the level it strikes); the list holds them load by load, each
     load's from the top down. The loads falling onto one level are worked out in one
-    run."""
+    run. ``rows``: full forward rows remembered from earlier edits
+    (:class:`~droprig.solver.outcome_rows.OutcomeRows`, the same values)."""
     per_load: list[list[Cascade]] = [[] for _ in cases]
     current = list(cases)
     active = list(range(len(cases)))
@@ -189,7 +201,7 @@ def cascade_down(project: Project, zone: LiftZone, cases: Sequence[CaseResult],
             and steps < len(project.levels):
         cancel.check()
         got = _cascade(project, zone, [zone.loads[j] for j in active],
-                       [current[j] for j in active], lower, floor)
+                       [current[j] for j in active], lower, floor, rows)
         still = []
         for j, fall in zip(active, got, strict=True):
             if fall is not None:
@@ -205,7 +217,8 @@ def cascade_down(project: Project, zone: LiftZone, cases: Sequence[CaseResult],
 
 def _cascade(project: Project, zone: LiftZone, loads: Sequence[LiftLoad],
              cases: Sequence[CaseResult], below: Level,
-             floor: Callable[[str], FloorModel]) -> list[Cascade | None]:
+             floor: Callable[[str], FloorModel],
+             rows: OutcomeRows | None = None) -> list[Cascade | None]:
     """The level below a perforated deck, struck at the perforating points of each
     load's case by the same load from the equivalent height h_eq = V_r²/(2g) + Δ (the
     largest over those points; :mod:`droprig.solver.cascade`), assessed in the same
@@ -236,8 +249,12 @@ def _cascade(project: Project, zone: LiftZone, loads: Sequence[LiftLoad],
         return out
     fm = floor(below.id)
     li = np.repeat(np.arange(len(falling)), [x.size for x in xs])
-    res_all = evaluate.evaluate_points(fm, project, falling, np.concatenate(xs),
-                                       np.concatenate(ys), load_index=li)
+    fx, fy = np.concatenate(xs), np.concatenate(ys)
+    if rows is not None and not rows.outcomes_only and rows.serves(fm) \
+            and fx.size <= rows.max_rows // 2:
+        res_all = rows.evaluate(fm, project, falling, fx, fy, li)
+    else:
+        res_all = evaluate.evaluate_points(fm, project, falling, fx, fy, load_index=li)
     lv = cascade.level_below(project, below.id)
     for j, k in enumerate(owner):
         case = cases[k]
@@ -289,9 +306,13 @@ def zone_key(project: Project, zone: LiftZone) -> tuple:
     loads, corridor and drift margin as resolved), and every other input of the
     project — the levels (the zone's framing, and the levels below it that a
     perforating drop falls to), the protection areas (their order numbers the
-    results' ``protection``) and the settings. Equal keys, equal results."""
-    return (zone, *(getattr(project, f.name) for f in fields(project)
-                    if f.name not in _NOT_ANALYSED))
+    results' ``protection``) and the settings — and, where a crushable pad of the
+    zone's level is given by its crush force alone, the loads of the level's zones
+    (its crush stress is that force over their largest footprint:
+    :func:`droprig.solver.outcome_rows.rows_key`). Equal keys, equal results."""
+    return (zone, pad_loads(project, zone.level_id),
+            *(getattr(project, f.name) for f in fields(project)
+              if f.name not in _NOT_ANALYSED))
 
 
 class ZoneCache:
@@ -300,8 +321,12 @@ class ZoneCache:
     together — some 40 numbers each — beyond the newest), so that an edit
     re-analyses only the zones it changes: an edit to one zone or its loads re-runs
     that zone, an edit to framing, pads or settings every zone. Same results as
-    :func:`analyse`, bit for bit (``tests/solver/test_zone_cache.py``). Safe to share
-    between threads."""
+    :func:`analyse`, bit for bit (``tests/solver/test_zone_cache.py``). Within a
+    zone it re-runs, the drop points an earlier run worked out (the same inputs but
+    the zone's region: a radius, a corridor moved) are taken from :attr:`forward_rows`
+    for the confirmed analysis and :attr:`rows` for the outcome stage
+    (:class:`~droprig.solver.outcome_rows.OutcomeRows`, at most 100,000 rows each;
+    ``tests/solver/test_outcome_rows.py``). Safe to share between threads."""
 
     def __init__(self, size: int = 32, max_points: int = 400_000) -> None:
         self.size = size
@@ -311,6 +336,11 @@ class ZoneCache:
         self._lock = threading.Lock()
         self.hits = 0
         self.misses = 0
+        self.rows = OutcomeRows()
+        """The outcome stage's rows of the zones' points, from one edit to the next
+        (:func:`droprig.solver.analyse_outcomes`)."""
+        self.forward_rows = OutcomeRows(outcomes_only=False)
+        """The confirmed analysis's forward rows (before the confirmation), likewise."""
 
     def peek(self, project: Project, zone: LiftZone) -> Results | None:
         """The zone's results if the cache holds them, else None; a look only (no
@@ -333,7 +363,8 @@ class ZoneCache:
                 self._zones.move_to_end(key)
                 self.hits += 1
                 return hit
-        r = analyse_zone(project, zone.id, floor)
+        r = analyse_zone(project, zone.id, floor, rows=self.forward_rows,
+                         fall_rows=self.forward_rows)
         with self._lock:
             self.misses += 1
             if key not in self._zones:

@@ -200,7 +200,16 @@ class Drop:
     verdict is the forward steps'; its inverse answers only guide the next trial
     value, so they are the closed forms, not confirmed again by forward runs of
     their own (:func:`confirm_amplified_height`): each printed limit is confirmed
-    once, by the trial."""
+    once, by the trial.
+
+    ``outcomes_only``: the forward run of the outcome stage
+    (:func:`droprig.solver.analyse_outcomes`, what the window paints while the limits
+    are being confirmed). The inverse answers that only the confirmation and the
+    printed limits read — the plastic allowable height and the allowable mass, the
+    costliest of :func:`inverse_answers` — are not worked out: NaN (``hp_check`` −1),
+    never a number that could pass for a limit. Every forward step, the elastic
+    allowable height (the refinement places its points by it), the required mat and
+    the check that sets the height are as in a full run."""
 
     fm: FloorModel
     project: Project
@@ -214,6 +223,7 @@ class Drop:
     bare: BareMember | None = None
     landing: str = "flat"
     trial: bool = False
+    outcomes_only: bool = False
 
     @property
     def n(self) -> int:
@@ -2517,13 +2527,30 @@ def inverse_answers(c: Chain) -> InverseAnswers:
     kern = (TwoForceKernel(c, np.flatnonzero(imp.searched))
             if imp.searched is not None and imp.searched.any() and not d.trial else None)
     h_el = _elastic_height(c, eta, Fa_pos, kern)
-    h_pl, hp_check, Ub_Rp = _plastic_height(c, eta, h_el, kern)
-    m_allow = _allowable_mass_of(c, Fa_pos, kern)
+    if d.outcomes_only:  # not worked out: the confirmation's answers (Drop)
+        h_pl, hp_check, Ub_Rp = _untried_plastic(c)
+        m_allow = np.full(d.n, np.nan)
+    else:
+        h_pl, hp_check, Ub_Rp = _plastic_height(c, eta, h_el, kern)
+        m_allow = _allowable_mass_of(c, Fa_pos, kern)
     k_req, s_req = _mat_answers(c, Fa_pos)
     h_check, h_member = _height_check(c)
     return InverseAnswers(h_el=h_el, h_pl=h_pl, m_allow=m_allow, k_req=k_req, s_req=s_req,
                           Ub_Rp=Ub_Rp, h_check=h_check, h_member=h_member,
                           hp_check=hp_check)
+
+
+def _untried_plastic(c: Chain) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """:func:`_plastic_height`'s results in a run of the outcome stage
+    (``Drop.outcomes_only``): no plastic height (NaN), no check that sets it (−1), and
+    the largest brittle utilisation at R_p as :func:`_plastic_height` takes it (a
+    maximum over the brittle checks, no search)."""
+    ub = c[Checks].Ub_at_Rp
+    Ub_Rp = ub[0]
+    for u in ub[1:]:
+        Ub_Rp = np.maximum(Ub_Rp, u)
+    n = c.drop.n
+    return np.full(n, np.nan), np.full(n, -1, dtype=np.int64), Ub_Rp
 
 
 def _elastic_height(c: Chain, eta: np.ndarray, Fa_pos: np.ndarray,

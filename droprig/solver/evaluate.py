@@ -144,13 +144,15 @@ def governing_landing_chain(fm: FloorModel, project: Project, load: LiftLoad, ge
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
              geo: Geometry, load_index: np.ndarray | None, H: np.ndarray | None = None,
              mat_k: np.ndarray | None = None, v_hoist: float = 0.0,
-             trial: bool = False, keep: bool = False) -> dict[str, np.ndarray]:
+             trial: bool = False, keep: bool = False,
+             outcomes_only: bool = False) -> dict[str, np.ndarray]:
     """The outputs of the flat landing, or with the project setting
     ``tilted_landing`` of both landings merged, the worse governing
     (:func:`~droprig.solver.chain.merge_landings`). The height-free steps
     (:data:`~droprig.solver.chain.HEIGHT_FREE`) are taken from ``geo``'s kept ones
     where they were kept for this run's loads and rows (:class:`KeptSteps`), and with
-    ``keep`` kept with ``geo`` for later runs."""
+    ``keep`` kept with ``geo`` for later runs. ``outcomes_only``: a run of the outcome
+    stage (:class:`~droprig.solver.chain.Drop`)."""
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
     loads = _loads(load)
@@ -160,7 +162,8 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
     def run(landing: str) -> dict[str, np.ndarray]:
         given = kept.given(loads, li, landing, mat_k) if kept is not None else None
         c = run_chain(Drop(fm, project, geo, loads, li, False, H, mat_k, v_hoist=v_hoist,
-                           landing=landing, trial=trial), given)
+                           landing=landing, trial=trial, outcomes_only=outcomes_only),
+                      given)
         if keep:
             by_landing[landing] = {t: c[t] for t in HEIGHT_FREE.values() if t in c}
         return outputs(c)
@@ -177,7 +180,8 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
                   geo: Geometry, load_index: np.ndarray | None = None,
                   H: np.ndarray | None = None, mat_k: np.ndarray | None = None, *,
                   v_hoist: float = 0.0, trial: bool = False,
-                  keep: bool = False) -> dict[str, np.ndarray]:
+                  keep: bool = False, outcomes_only: bool = False
+                  ) -> dict[str, np.ndarray]:
     """The :class:`~droprig.solver.results.CaseResult` arrays of ``load`` at the points
     of ``geo`` under their field names, and ``F_allow`` (N, the elastic allowed force).
 
@@ -187,7 +191,8 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     ``trial``: a forward run of a condition tried (:class:`~droprig.solver.chain.Drop`);
     ``keep``: keep the height-free step results with ``geo`` for the trials at its
     points (:class:`~droprig.solver.geometry.KeptSteps`; one block only — a larger run
-    keeps none)."""
+    keeps none); ``outcomes_only``: the outcome stage's run, its plastic heights and
+    allowable masses not worked out (NaN; :class:`~droprig.solver.chain.Drop`)."""
     n = geo.x.size
     memory.keep_freed_memory()
     if n == 0:
@@ -197,7 +202,7 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     with np.errstate(all="ignore"):
         if n <= chunk:
             return _outputs(fm, project, load, geo, load_index, H, mat_k, v_hoist, trial,
-                            keep)
+                            keep, outcomes_only)
 
         def block(s: int, e: int) -> list[dict[str, np.ndarray]]:
             sl = slice(s, e)
@@ -210,12 +215,14 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
             with np.errstate(all="ignore"):
                 return [_outputs(fm, project, load, sub, li,
                                  None if H is None else H[sl],
-                                 None if mat_k is None else mat_k[sl], v_hoist, trial)]
+                                 None if mat_k is None else mat_k[sl], v_hoist, trial,
+                                 outcomes_only=outcomes_only)]
 
         li0 = None if load_index is None else load_index[:1]
         probe = _outputs(fm, project, load, slice_geo(geo, slice(0, 1)), li0,
                          None if H is None else H[:1],
-                         None if mat_k is None else mat_k[:1], v_hoist, trial)
+                         None if mat_k is None else mat_k[:1], v_hoist, trial,
+                         outcomes_only=outcomes_only)
         return _blockwise(n, 1, chunk, block, probe)
 
 
@@ -258,7 +265,8 @@ def large_job_block() -> int:
 
 def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
                     x: np.ndarray, y: np.ndarray, *, v_hoist: float = 0.0,
-                    load_index: np.ndarray | None = None) -> dict[str, np.ndarray]:
+                    load_index: np.ndarray | None = None,
+                    outcomes_only: bool = False) -> dict[str, np.ndarray]:
     """Every load at every point, load by load ((len(loads)·n) rows, load-major):
     :func:`point_geometry` and :func:`evaluate_case` block by block on all cores,
     each block's load path and load-independent member actions shared by the loads.
@@ -266,14 +274,15 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
     (n rows, one chain run for all the loads). The path for large sets of points:
     nothing of the size of all points is kept but the results. Same values as the two
     functions called on all points. ``v_hoist``: the hoist's lowering speed at
-    release, m/s."""
+    release, m/s; ``outcomes_only``: as :func:`evaluate_case`."""
     memory.keep_freed_memory()
     x = np.asarray(x, float)
     y = np.asarray(y, float)
     n, nl = x.size, len(loads)
     if n == 0 or nl == 0:
         return evaluate_case(fm, project, list(loads), point_geometry(fm, project, x, y),
-                             np.zeros(0, dtype=np.int64), v_hoist=v_hoist)
+                             np.zeros(0, dtype=np.int64), v_hoist=v_hoist,
+                             outcomes_only=outcomes_only)
     own = None if load_index is None else np.asarray(load_index, dtype=np.int64)
     sets = nl if own is None else 1
 
@@ -281,8 +290,10 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
         geo = point_geometry(fm, project, x[s:e], y[s:e])
         with np.errstate(all="ignore"):
             if own is not None:
-                return [_outputs(fm, project, loads, geo, own[s:e], v_hoist=v_hoist)]
-            return [_outputs(fm, project, ld, geo, None, v_hoist=v_hoist) for ld in loads]
+                return [_outputs(fm, project, loads, geo, own[s:e], v_hoist=v_hoist,
+                                 outcomes_only=outcomes_only)]
+            return [_outputs(fm, project, ld, geo, None, v_hoist=v_hoist,
+                             outcomes_only=outcomes_only) for ld in loads]
 
     size = loadpath_chunk() if n <= CACHE_MAX_POINTS else large_job_block()
     if n <= size:  # one block: no probe run for the output types
@@ -292,7 +303,8 @@ def evaluate_points(fm: FloorModel, project: Project, loads: Sequence[LiftLoad],
     with np.errstate(all="ignore"):
         probe = _outputs(fm, project, loads if own is not None else loads[0],
                          point_geometry(fm, project, x[:1], y[:1]),
-                         None if own is None else own[:1], v_hoist=v_hoist)
+                         None if own is None else own[:1], v_hoist=v_hoist,
+                         outcomes_only=outcomes_only)
     return _blockwise(n, sets, size, block, probe)
 
 

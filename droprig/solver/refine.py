@@ -7,6 +7,7 @@ SI units (m)."""
 from __future__ import annotations
 
 from collections.abc import Sequence
+from typing import TYPE_CHECKING
 
 import numpy as np
 
@@ -20,6 +21,9 @@ from droprig.solver.geometry import (
     point_geometry,
 )
 from droprig.solver.loadpath import locate
+
+if TYPE_CHECKING:
+    from droprig.solver.outcome_rows import OutcomeRows
 
 __all__ = ["REFINE_PASSES", "REFINE_TOP", "severity", "zone_points", "zone_points_geometry"]
 
@@ -131,30 +135,50 @@ def zone_points(fm: FloorModel, project: Project, zone: LiftZone,
 
 
 def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
-                         base: Geometry | tuple[np.ndarray, np.ndarray]
+                         base: Geometry | tuple[np.ndarray, np.ndarray], *,
+                         outcomes_only: bool = False, rows: OutcomeRows | None = None
                          ) -> tuple[dict[str, np.ndarray], Geometry | None]:
     """:func:`zone_points` and the geometry of its rows (row for row, with the
     load-independent member actions where they were kept), for the trials of
     :mod:`droprig.solver.confirm` to take their points from; ``None`` for a zone of
     more than :data:`~droprig.solver.evaluate.CACHE_MAX_POINTS` rows (loads × points;
-    some 40 doubles a row are kept), whose geometry is not kept."""
+    some 40 doubles a row are kept), whose geometry is not kept.
+
+    ``outcomes_only``: the outcome stage (:func:`droprig.solver.analyse_outcomes`):
+    the plastic heights and allowable masses are not worked out (NaN). The points are
+    the same as a full run's: :func:`_refine` reads the elastic allowable height, the
+    severity and the bays, which such a run works out as a full one does. ``rows``:
+    the rows a previous edit worked out are taken from it
+    (:class:`~droprig.solver.outcome_rows.OutcomeRows` of the same ``outcomes_only``;
+    the same values); no geometry is returned then (the confirmation's trials work
+    theirs out)."""
+    if rows is not None and rows.outcomes_only != outcomes_only:
+        raise ValueError("remembered rows of the other stage")
     loads = list(zone.loads)
     vh = zone.hoist_speed  # the load strikes at √(v_h² + 2gh) (local damage)
     nl = len(loads)
     bx, by = (base.x, base.y) if isinstance(base, Geometry) else base
     nb = bx.size
     li = np.repeat(np.arange(nl), nb)
-    if nb <= evaluate.CACHE_MAX_POINTS:
+    if rows is not None and (nb * nl > rows.max_rows // 2 or not rows.serves(fm)):
+        rows = None  # a large zone (memory stays bounded), or rows not row by row
+    if rows is not None:
+        res = rows.evaluate(fm, project, loads, np.tile(bx, nl), np.tile(by, nl), li,
+                            v_hoist=vh)
+        geos: list[Geometry] | None = None
+    elif nb <= evaluate.CACHE_MAX_POINTS:
         # all loads in one pass over the base points repeated once per load; the
         # load-independent actions are computed once and repeated with them
         geo = base if isinstance(base, Geometry) else point_geometry(fm, project, bx, by)
         geo = tile(fm, geo, nl)
         # the height-free steps are kept with the geometry for the trials
         # (confirm.py) at these points
-        res = evaluate.evaluate_case(fm, project, loads, geo, li, v_hoist=vh, keep=True)
-        geos: list[Geometry] | None = [geo]
+        res = evaluate.evaluate_case(fm, project, loads, geo, li, v_hoist=vh, keep=True,
+                                     outcomes_only=outcomes_only)
+        geos = [geo]
     else:  # block by block, each block's path shared by the loads
-        res = evaluate.evaluate_points(fm, project, loads, bx, by, v_hoist=vh)
+        res = evaluate.evaluate_points(fm, project, loads, bx, by, v_hoist=vh,
+                                       outcomes_only=outcomes_only)
         geos = None
     res["load_index"] = li
     step = fm.settings.grid_resolution
@@ -173,8 +197,12 @@ def zone_points_geometry(fm: FloorModel, project: Project, zone: LiftZone,
         x, y, lj = x[new], y[new], lj[new]
         # merged into the sorted known keys (k is sorted: no sort of the whole again)
         known = np.insert(known, np.searchsorted(known, keys[fresh]), keys[fresh])
-        geo = evaluate.distinct_geometry(fm, project, x, y)  # a point refined for each load
-        r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True)
+        if rows is not None:
+            r2 = rows.evaluate(fm, project, loads, x, y, lj, v_hoist=vh)
+        else:
+            geo = evaluate.distinct_geometry(fm, project, x, y)  # a point refined per load
+            r2 = evaluate.evaluate_case(fm, project, loads, geo, lj, v_hoist=vh, keep=True,
+                                        outcomes_only=outcomes_only)
         r2["load_index"] = lj
         parts.append(r2)
         if geos is not None:
