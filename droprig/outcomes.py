@@ -184,6 +184,10 @@ def outcome_check(check: str, response: str) -> str:
 def fmt_worst_point(member: str, check: str, response: str) -> str:
     """The worst point's member and the check that sets its outcome
     (:func:`outcome_check`): the one text of the results table's "worst point"
-    column, the inspector and the annex's point sheet."""
+    column, the inspector and the annex's point sheet. Where the deck itself is the
+    worst point's member its checks drop their own "deck" ("deck · perforation (local
+    damage)", not "deck · deck perforation …", seen under Xvfb on the steel demo)."""
     words = outcome_check(check, response)
+    if member == "deck" and words.startswith("deck "):
+        words = words[len("deck "):]
     return f"{member} · {words}" if words else member

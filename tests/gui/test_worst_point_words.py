@@ -32,6 +32,10 @@ def test_words_of_the_outcome_check() -> None:
     assert outcome_check("web_yielding", "perforates") == "deck perforation (local damage)"
     assert outcome_check("web_yielding", "exceeds") == "web yielding"
     assert fmt_worst_point("B3/B-C", "shear", "plastic") == "B3/B-C · shear"
+    # the deck as the worst point's member: its checks do not repeat "deck"
+    assert fmt_worst_point("deck", "deck_flexure", "perforates") == \
+        "deck · perforation (local damage)"
+    assert fmt_worst_point("deck", "deck_flexure", "exceeds") == "deck · flexure"
 
 
 def test_table_inspector_and_trace_name_perforation(qtbot, tmp_path: Path) -> None:
@@ -47,10 +51,11 @@ def test_table_inspector_and_trace_name_perforation(qtbot, tmp_path: Path) -> No
     for b in through:
         row = next(r for r in range(m.rowCount()) if m.row(r) is b)
         cell = str(m.data(m.index(row, COL["governing"])))
-        assert cell == f"{b.governing_member} · deck perforation (local damage)", cell
+        assert cell == fmt_worst_point(b.governing_member, "", "perforates"), cell
+        assert cell.endswith("perforation (local damage)"), cell
     b = through[0]
     win.doc.select(Selection("bay", (b.level_id, b.bay_id)))
-    assert f"worst point: {b.governing_member} · deck perforation" in \
+    assert "worst point: " + fmt_worst_point(b.governing_member, "", "perforates") in \
         win.inspector._extra.text()
     zone = next(z for z in win.doc.project.lift_zones if z.id == b.zone_id)
     tr = trace_point(win.doc.project, zone.id, b.load_name, b.governing_x, b.governing_y)
