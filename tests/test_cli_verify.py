@@ -120,6 +120,20 @@ def test_project_table_every_bay(capsys: pytest.CaptureFixture[str]) -> None:
     assert "energy method ÷ time history" in out
 
 
+def _amplified_demo(tmp_path: Path) -> str:
+    """The demo with the project setting dynamic_amplification on, saved in tmp_path."""
+    import dataclasses
+
+    from droprig.io.project_file import load_project, save_project
+
+    p = load_project(DEMO)
+    p = dataclasses.replace(p, settings=dataclasses.replace(
+        p.settings, dynamic_amplification=True))
+    f = tmp_path / "amplified.droprig"
+    save_project(p, f)
+    return str(f)
+
+
 def test_project_one_point_json_and_plots(tmp_path: Path,
                                           capsys: pytest.CaptureFixture[str]) -> None:
     rc, out, err = _run(["verify", DEMO, "--bay", "1-2/B-C", "--load", "AHU-3 (old, drained)",
@@ -135,11 +149,20 @@ def test_project_one_point_json_and_plots(tmp_path: Path,
     # independent method), and the chain's force on the framing is a part of it
     assert pt["energy_method"]["force"] >= pt["time_history"]["force"]
     assert 0.0 < pt["chain_peak_force"] <= pt["energy_method"]["force"] * (1 + 1e-9)
-    for key in ("force", "moment", "shear", "deflection"):
-        assert pt["amplified_demand"][key] >= pt["time_history"][key]
     assert len(data["plots"]) == 3
     for p in data["plots"]:
         assert Path(p).read_bytes()[:8] == PNG_SIGNATURE
+    # with amplification on the verdict's demands are the chain's amplified ones, which
+    # must cover the point's time history (the independent method); with it off they
+    # are the chain's energy method (amplified_demand then equals it)
+    for key in ("force", "moment", "shear", "deflection"):
+        assert pt["amplified_demand"][key] == pytest.approx(pt["energy_method"][key], rel=REL)
+    rc, out, err = _run(["verify", _amplified_demo(tmp_path), "--bay", "1-2/B-C", "--load",
+                         "AHU-3 (old, drained)", "--json"], capsys)
+    assert rc == 0, err
+    pt = json.loads(out)["points"][0]
+    for key in ("force", "moment", "shear", "deflection"):
+        assert pt["amplified_demand"][key] >= pt["time_history"][key]
 
 
 @pytest.mark.parametrize(("extra", "field"), [
@@ -174,6 +197,42 @@ def test_slab_mass_is_stated(capsys: pytest.CaptureFixture[str]) -> None:
     assert rc == 0 and json.loads(out)["slab_mass"] is True, err
     rc, out, err = _run([*one, "--json"], capsys)
     assert rc == 0 and json.loads(out)["slab_mass"] is False, err
+
+
+def test_verdict_column_is_the_chains_own_force_with_amplification_off() -> None:
+    """With amplification off the "verdict uses" column is the chain's own force on the
+    framing on the struck member's unit-load envelopes (what its checks take), not the
+    verification's single-member energy method. Seen in the verify dialog under Xvfb:
+    AHU-3 (new) crushing pad MAT1 on the rooftop demo read 191.8 kN·m "verdict uses",
+    the pad's 90 kN alone, where the chain's framing force over the crush's duration
+    is 180 kN (2 × the crush force: a rectangular pulse at least half the floor's
+    period long, Biggs 1964 ch. 2, from memory)."""
+    from droprig.io.project_file import load_project
+    from droprig.solver import verify_point
+    from droprig.solver.chain import Impact
+    from droprig.solver.evaluate import governing_landing_chain, point_case
+
+    p = load_project(DEMO)
+    x, y = 7.375, 4.25
+    case = point_case(p, "MC1", "AHU-3 (new)", x, y, fields=("lift", "load", "point"))
+    _, chain = governing_landing_chain(case.fm, p, case.load, case.geo,
+                                       case.zone.hoist_speed)
+    F = float(chain[Impact].F[0])
+    F_c = float(chain[Impact].contact[0])
+    assert F == pytest.approx(2.0 * F_c, rel=1e-6), "the crushing pad's framing force"
+    v = verify_point(p, "MC1", "AHU-3 (new)", x, y).verification
+    assert v.verdict["force"] == pytest.approx(F_c, rel=REL)
+    # the member's moment: its share w of F at the struck point of the simply supported
+    # member, w·F·a·(L − a)/L (AISC Manual 15th ed. Table 3-23 case 7), so twice what
+    # the pad's force alone gives
+    pv = verify_point(p, "MC1", "AHU-3 (new)", x, y)
+    assert pv.cond == "simple"
+    w = v.energy["moment"] / (F * pv.a * (pv.L - pv.a) / pv.L)
+    assert 0.5 <= w <= 1.0, "a lever-rule share of the larger member"
+    # (7.375 − 5.0)/2.5 by the lever rule, beams at x = 5.0 and 7.5 m
+    assert w == pytest.approx(0.95, abs=1e-9)
+    assert v.verdict["moment"] == pytest.approx(v.energy["moment"], rel=REL)
+    assert v.amplification == dict.fromkeys(v.amplification, 1.0)
 
 
 @pytest.mark.parametrize("amplified", [False, True])

@@ -355,13 +355,20 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     # share w (f_all − w²·g_m; _verify takes f_all − g_m and the share)
     w = float(s["share"])
     f_c = float(s["f_all"]) - float(s["g_m"])
-    # what the verdict used: the chain's own amplification step at this point (its
-    # factors on the chain's energy-method force), not factors of the verification's
-    # own — with amplification off the energy method's (below)
+    # what the verdict used: the chain's own force on the framing at this point (its
+    # energy method: the two-mass step, a crushing layer's framing force over the
+    # crush's duration, after bottoming) on this member's unit-load envelopes, times
+    # the chain's own amplification factors where the project has them on — never a
+    # force the verification works out itself. With amplification off the factors are
+    # 1: the verification's own single-member energy method read the framing force of
+    # a heavy unit crushing a pad as the pad's force alone (90 kN, where the chain's
+    # check takes 180 kN over the crush's duration: rooftop demo, AHU-3 (new) at
+    # (7.375, 4.25)), and printed it as what the verdict used.
     from droprig.solver.chain import DynamicAmplification
-    chain_factors = None
-    if project.settings.dynamic_amplification and DynamicAmplification in chain:
-        chain_factors = (float(chain[Impact].F[0]), _factors(chain[DynamicAmplification], 0))
+    amplified = project.settings.dynamic_amplification and DynamicAmplification in chain
+    chain_factors = (float(chain[Impact].F[0]),
+                     _factors(chain[DynamicAmplification], 0) if amplified else
+                     dict.fromkeys(QUANTITIES, 1.0))
     # the strike speed the chain uses: the free fall plus the hoist's lowering-speed
     # head, h + v_h²/2g (chain.energy_fall) — the time history starts at the same speed
     h_e = float(energy_fall(chain, inp.h)[0])
@@ -371,10 +378,12 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
                   chain_factors=chain_factors, share=w,
                   contact_force=float(chain[Impact].contact[0]))
 
-    if not project.settings.dynamic_amplification:
-        # the project's checks use the energy method alone (amplification off in its
-        # settings): that is the demand the verdict uses, whatever the bounds would be
-        ver = replace(ver, verdict=dict(ver.energy))
+    if not amplified:
+        # the project's checks use the chain's energy method alone (amplification off
+        # in its settings): that is the demand the verdict uses (the force row: the
+        # chain's contact force, which the local checks take)
+        ver = replace(ver, verdict=dict(ver.energy),
+                      amplification=dict.fromkeys(QUANTITIES, 1.0))
     return PointVerification(zone_id=zone_id, load_name=load_name, x=float(x), y=float(y),
                              bay_id=_bay_name(fm.level, geo), member_id=member.id, cond=cond,
                              L=L, a=a, chain_peak_force=float(chain[Impact].F[0]),
