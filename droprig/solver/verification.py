@@ -51,7 +51,7 @@ from droprig.solver.capacity import Basis
 from droprig.solver.geometry import Geometry
 
 if TYPE_CHECKING:
-    from droprig.solver.chain import DynamicAmplification
+    from droprig.solver.chain import Chain, DynamicAmplification
 
 __all__ = [
     "QUANTITIES",
@@ -355,20 +355,7 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     # share w (f_all − w²·g_m; _verify takes f_all − g_m and the share)
     w = float(s["share"])
     f_c = float(s["f_all"]) - float(s["g_m"])
-    # what the verdict used: the chain's own force on the framing at this point (its
-    # energy method: the two-mass step, a crushing layer's framing force over the
-    # crush's duration, after bottoming) on this member's unit-load envelopes, times
-    # the chain's own amplification factors where the project has them on — never a
-    # force the verification works out itself. With amplification off the factors are
-    # 1: the verification's own single-member energy method read the framing force of
-    # a heavy unit crushing a pad as the pad's force alone (90 kN, where the chain's
-    # check takes 180 kN over the crush's duration: rooftop demo, AHU-3 (new) at
-    # (7.375, 4.25)), and printed it as what the verdict used.
-    from droprig.solver.chain import DynamicAmplification
-    amplified = project.settings.dynamic_amplification and DynamicAmplification in chain
-    chain_factors = (float(chain[Impact].F[0]),
-                     _factors(chain[DynamicAmplification], 0) if amplified else
-                     dict.fromkeys(QUANTITIES, 1.0))
+    amplified, chain_factors = _verdict_factors(project, chain)
     # the strike speed the chain uses: the free fall plus the hoist's lowering-speed
     # head, h + v_h²/2g (chain.energy_fall) — the time history starts at the same speed
     h_e = float(energy_fall(chain, inp.h)[0])
@@ -388,6 +375,27 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
                              bay_id=_bay_name(fm.level, geo), member_id=member.id, cond=cond,
                              L=L, a=a, chain_peak_force=float(chain[Impact].F[0]),
                              verification=ver, EI=EI)
+
+
+def _verdict_factors(project: Project,
+                     chain: Chain) -> tuple[bool, tuple[float, dict[str, float]]]:
+    """Whether the verdict is amplified at the point, and what it used there: the
+    chain's own force on the framing (N; its energy method: the two-mass step, a
+    crushing layer's framing force over the crush's duration, after bottoming), to
+    go on the member's unit-load envelopes, and the chain's own amplification factors
+    where the project has them on — never a force the verification works out itself.
+    With amplification off the factors are 1: the verification's own single-member
+    energy method read the framing force of a heavy unit crushing a pad as the pad's
+    force alone (90 kN, where the chain's check takes 180 kN over the crush's
+    duration: rooftop demo, AHU-3 (new) at (7.375, 4.25)), and printed it as what the
+    verdict used."""
+    from droprig.solver.chain import DynamicAmplification, Impact
+
+    amplified = bool(project.settings.dynamic_amplification
+                     and DynamicAmplification in chain)
+    factors = (_factors(chain[DynamicAmplification], 0) if amplified
+               else dict.fromkeys(QUANTITIES, 1.0))
+    return amplified, (float(chain[Impact].F[0]), factors)
 
 
 def _bay_name(level: Level, geo: Geometry) -> str:
