@@ -16,6 +16,7 @@ Section properties of the catalogue shapes come from ``resources/sections`` (EN
 
 from __future__ import annotations
 
+import dataclasses
 import math
 
 import numpy as np
@@ -88,3 +89,33 @@ class AtPoints:
 
     def __getitem__(self, key: str) -> np.ndarray:
         return self.out[key]
+
+
+def _same_arrays(a: object, b: object) -> None:
+    """Every field of two case dataclasses equal, arrays bit for bit (NaN equal NaN)."""
+    for f in dataclasses.fields(a):  # type: ignore[arg-type]
+        va, vb = getattr(a, f.name), getattr(b, f.name)
+        if isinstance(va, np.ndarray):
+            assert va.dtype == vb.dtype and va.shape == vb.shape, f.name
+            assert np.array_equal(va, vb, equal_nan=va.dtype.kind == "f"), f.name
+        else:
+            assert va == vb, f.name
+
+
+def same_results(a: object, b: object, *, warnings: bool = True) -> None:
+    """Two analyses' results equal bit for bit: every case array and bay summary, the
+    warnings (unless ``warnings`` is false) and every fall to a level below with its
+    case (NaN equal NaN)."""
+    if warnings:
+        assert a.warnings == b.warnings  # type: ignore[attr-defined]
+    assert a.bays == b.bays  # type: ignore[attr-defined]
+    assert len(a.cases) == len(b.cases)  # type: ignore[attr-defined]
+    assert len(a.cascade) == len(b.cascade)  # type: ignore[attr-defined]
+    for ca, cb in zip(a.cases, b.cases, strict=True):  # type: ignore[attr-defined]
+        _same_arrays(ca, cb)
+    for fa, fb in zip(a.cascade, b.cascade, strict=True):  # type: ignore[attr-defined]
+        assert fa.bays == fb.bays
+        assert (fa.zone_id, fa.load_name, fa.from_level, fa.level_id,
+                fa.equivalent_height) == (fb.zone_id, fb.load_name, fb.from_level,
+                                          fb.level_id, fb.equivalent_height)
+        _same_arrays(fa.case, fb.case)

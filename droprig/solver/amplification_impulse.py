@@ -85,6 +85,28 @@ def window(T1: ArrayLike, M: ArrayLike, m_e: ArrayLike, mu_L: ArrayLike, f_s: Ar
     return duration * (np.maximum(T1, T_sys) + t_crush)
 
 
+def _energy_budget(W: np.ndarray, M: np.ndarray, v0: np.ndarray, f: np.ndarray,
+                   F_y: np.ndarray, s_y: np.ndarray
+                   ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """The most energy any spring or mode can hold (J), where the crushing holds
+    within its stroke (bool), where the contact crushes at all (bool) and the load's
+    lowest travel u_max (m). That travel is the elastic one (Gere 7th ed.
+    §9.10 Eq. 9-94, η = 1, on the series compliance f, m/N) plus what crushing at
+    F_y (N) can take, at most the stroke s_y (m; the energy balance of
+    :func:`droprig.solver.amplification.member_energy_force`); the energy is the
+    strike's ½·M·v0² plus the weight W (N) over that travel. The crushing holds even
+    with all the energy in it where :func:`droprig.solver.amplification.
+    crush_depth_bound` stays within the stroke: the contact force is then at most F_y.
+    M in kg, v0 in m/s."""
+    s = W * f * (1.0 + np.sqrt(1.0 + M * v0**2 / (W * W * f)))
+    crush = np.isfinite(F_y) & (F_y > W)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        c = np.where(crush, (0.5 * M * v0**2 + 0.5 * W**2 * f) / (F_y - W), 0.0)
+        c_all = 1.05 * W * (0.5 * M * v0**2 / W + F_y * f) / (F_y - W)
+    u_max = s + np.minimum(c, np.where(crush, s_y, 0.0))
+    return 0.5 * M * v0**2 + W * u_max, crush & (c_all <= s_y), crush, u_max
+
+
 def impulse_peak_bounds(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike,
                         mu: ArrayLike, a: ArrayLike, M: ArrayLike, h: ArrayLike,
                         f_c: ArrayLike, *, F_yield: ArrayLike = math.inf,
@@ -107,22 +129,8 @@ def impulse_peak_bounds(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayL
     P = L.size
     conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
     v0 = np.sqrt(2.0 * impact.G * h)
-    # the load's lowest travel: elastic (Gere 7th ed. §9.10 Eq. 9-94, η = 1, on the
-    # series compliance) plus what crushing can take (the energy balance of
-    # amplification.member_energy_force)
     f = f_s + f_c
-    s = W * f * (1.0 + np.sqrt(1.0 + 2.0 * M * v0**2 / (2.0 * W * W * f)))
-    crush = np.isfinite(F_y) & (F_y > W)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        c = np.where(crush, (0.5 * M * v0**2 + 0.5 * W**2 * f) / (F_y - W), 0.0)
-    c = np.minimum(c, np.where(crush, s_y, 0.0))
-    u_max = s + c
-    energy = 0.5 * M * v0**2 + W * u_max  # the most any spring or mode can hold, J
-    # the crushing holds within its stroke even with all the energy in it
-    # (amplification.crush_depth_bound): the contact force is then at most F_y
-    with np.errstate(divide="ignore", invalid="ignore"):
-        c_all = 1.05 * W * (0.5 * M * v0**2 / W + F_y * f) / (F_y - W)
-    holds = crush & (c_all <= s_y)
+    energy, holds, crush, u_max = _energy_budget(W, M, v0, f, F_y, s_y)
     out = {k: np.zeros(P) for k in ("force", "moment", "shear", "deflection",
                                     "impulse", "F_max")}
     for cnd in dict.fromkeys(conds.tolist()):
@@ -292,14 +300,7 @@ def tabulated_bounds(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike
     conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
     v0 = np.sqrt(2.0 * impact.G * h)
     f = f_s + f_c
-    s = W * f * (1.0 + np.sqrt(1.0 + M * v0**2 / (W * W * f)))
-    crush = np.isfinite(F_y) & (F_y > W)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        c_ = np.where(crush, (0.5 * M * v0**2 + 0.5 * W**2 * f) / (F_y - W), 0.0)
-        c_all = 1.05 * W * (0.5 * M * v0**2 / W + F_y * f) / (F_y - W)
-    u_max = s + np.minimum(c_, np.where(crush, s_y, 0.0))
-    energy = 0.5 * M * v0**2 + W * u_max
-    holds = crush & (c_all <= s_y)
+    energy, holds, crush, u_max = _energy_budget(W, M, v0, f, F_y, s_y)
     out = {k: np.zeros(P) for k in ("force", "moment", "shear", "deflection",
                                     "impulse", "F_max")}
     c = np.sqrt(EI / mu)

@@ -14,10 +14,9 @@ projects of ``tests/permit_projects.py`` (invented inputs, never expected values
 
 from __future__ import annotations
 
-from dataclasses import fields, replace
+from dataclasses import replace
 from pathlib import Path
 
-import numpy as np
 import pytest
 
 from droprig.io.project_file import load_project
@@ -25,6 +24,7 @@ from droprig.model import Project, ProtectionArea, Rect
 from droprig.solver import Results, ZoneCache, analyse, analyse_outcomes
 from droprig.solver.analysis import zone_key
 from droprig.solver.outcome_rows import rows_key
+from tests.builders import same_results
 from tests.permit_projects import random_project
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -33,28 +33,8 @@ DEMOS = sorted((ROOT / "demo_projects").glob("*.droprig"))
 
 def _same(a: Results, b: Results) -> None:
     """Every case array and bay summary equal, bit for bit (NaN equal NaN), and the
-    falls to the levels below."""
-    assert a.bays == b.bays
-    assert len(a.cases) == len(b.cases) and len(a.cascade) == len(b.cascade)
-    for ca, cb in zip(a.cases, b.cases, strict=True):
-        for f in fields(ca):
-            va, vb = getattr(ca, f.name), getattr(cb, f.name)
-            if isinstance(va, np.ndarray):
-                assert va.dtype == vb.dtype and va.shape == vb.shape, f.name
-                assert np.array_equal(va, vb, equal_nan=va.dtype.kind == "f"), f.name
-            else:
-                assert va == vb, f.name
-    for fa, fb in zip(a.cascade, b.cascade, strict=True):
-        assert fa.bays == fb.bays
-        assert (fa.zone_id, fa.load_name, fa.from_level, fa.level_id,
-                fa.equivalent_height) == (fb.zone_id, fb.load_name, fb.from_level,
-                                          fb.level_id, fb.equivalent_height)
-        for f in fields(fa.case):
-            va, vb = getattr(fa.case, f.name), getattr(fb.case, f.name)
-            if isinstance(va, np.ndarray):
-                assert np.array_equal(va, vb, equal_nan=va.dtype.kind == "f"), f.name
-            else:
-                assert va == vb, f.name
+    falls to the levels below (the warnings are not compared here)."""
+    same_results(a, b, warnings=False)
 
 
 def _with_zone(p: Project, **change: object) -> Project:

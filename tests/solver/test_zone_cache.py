@@ -7,14 +7,13 @@ invented demo with a second lift zone of our own.
 
 from __future__ import annotations
 
-from dataclasses import fields, replace
+from dataclasses import replace
 from pathlib import Path
-
-import numpy as np
 
 from droprig.io.project_file import load_project
 from droprig.model import Project
 from droprig.solver import Results, ZoneCache, analyse
+from tests.builders import same_results
 
 ROOT = Path(__file__).resolve().parents[2]
 
@@ -30,17 +29,7 @@ def _two_zones() -> Project:
 def _same(a: Results, b: Results) -> None:
     """Every case array, bay summary, warning and fall equal, bit for bit (NaN
     equal NaN)."""
-    assert a.warnings == b.warnings
-    assert a.bays == b.bays
-    assert len(a.cases) == len(b.cases) and len(a.cascade) == len(b.cascade)
-    for ca, cb in zip(a.cases, b.cases, strict=True):
-        for f in fields(ca):
-            va, vb = getattr(ca, f.name), getattr(cb, f.name)
-            if isinstance(va, np.ndarray):
-                assert va.dtype == vb.dtype and va.shape == vb.shape, f.name
-                assert np.array_equal(va, vb, equal_nan=va.dtype.kind == "f"), f.name
-            else:
-                assert va == vb, f.name
+    same_results(a, b)
 
 
 def test_zone_edit_equals_full_analysis_bit_for_bit() -> None:
