@@ -14,7 +14,7 @@ values).
 
 from __future__ import annotations
 
-from dataclasses import fields, replace
+from dataclasses import replace
 from pathlib import Path
 
 import numpy as np
@@ -23,6 +23,7 @@ import pytest
 from droprig.io.project_file import load_project
 from droprig.model import Project
 from droprig.solver import Results, ZoneCache, analyse, analyse_outcomes
+from tests.builders import same_arrays
 from tests.permit_projects import random_project
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -44,18 +45,6 @@ BAY_OUTCOME_FIELDS = ("level_id", "bay_id", "zone_id", "load_name", "n_points",
 the table's outcome and U)."""
 
 
-def _same_arrays(a: object, b: object, skip: frozenset[str] = frozenset()) -> None:
-    for f in fields(a):  # type: ignore[arg-type]
-        if f.name in skip:
-            continue
-        va, vb = getattr(a, f.name), getattr(b, f.name)
-        if isinstance(va, np.ndarray):
-            assert va.dtype == vb.dtype and va.shape == vb.shape, f.name
-            assert np.array_equal(va, vb, equal_nan=va.dtype.kind == "f"), f.name
-        else:
-            assert va == vb, f.name
-
-
 def _same_outcomes(o: Results, a: Results, fresh: frozenset[str] | None = None) -> None:
     """``o`` (the outcome stage) against ``a`` (the full analysis); ``fresh``: the zones
     the outcome stage analysed (all where None; the others came from a cache)."""
@@ -64,9 +53,9 @@ def _same_outcomes(o: Results, a: Results, fresh: frozenset[str] | None = None) 
     assert len(o.cases) == len(a.cases) and len(o.bays) == len(a.bays)
     for co, ca in zip(o.cases, a.cases, strict=True):
         if co.zone_id not in fresh:  # taken from the cache: confirmed, whole
-            _same_arrays(co, ca)
+            same_arrays(co, ca)
             continue
-        _same_arrays(co, ca, CHANGED_BY_CONFIRMATION | NOT_WORKED_OUT)
+        same_arrays(co, ca, CHANGED_BY_CONFIRMATION | NOT_WORKED_OUT)
         # never a number that could pass for a limit
         assert np.isnan(co.allowable_drop_height_plastic).all()
         assert np.isnan(co.allowable_mass).all()
@@ -81,7 +70,7 @@ def _same_outcomes(o: Results, a: Results, fresh: frozenset[str] | None = None) 
     for fo, fa in zip(o.cascade, a.cascade, strict=True):
         assert (fo.zone_id, fo.load_name, fo.from_level, fo.level_id, fo.equivalent_height) == \
             (fa.zone_id, fa.load_name, fa.from_level, fa.level_id, fa.equivalent_height)
-        _same_arrays(fo.case, fa.case)
+        same_arrays(fo.case, fa.case)
         assert fo.bays == fa.bays
 
 
