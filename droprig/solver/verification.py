@@ -40,7 +40,6 @@ from droprig.model import Grade, Level, ModelError, Project, Section
 from droprig.solver import (
     amplification,
     beam,
-    crushing,
     exacthistory,
     impact,
     pointhistory,
@@ -166,9 +165,12 @@ def _member_history(cond: EndCondition, L: float, EI: float, mu: float, a: float
 def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
             f_c: float, struck_mass: bool, scaled_mass: bool = False,
             F_yield: float = math.inf, stroke: float = math.inf,
-            chain_factors: tuple[float, dict[str, float]] | None = None,
+            *, chain_factors: tuple[float, dict[str, float]],
             share: float = 1.0, contact_force: float | None = None) -> Verification:
-    """``share``: the member's lever-rule share w of the load (0.5–1; ``f_c`` is then
+    """``chain_factors``: the chain's force on the framing at the point (N) and its
+    factors by :data:`QUANTITIES` (what the verdict uses: the verification never works
+    out a force of its own). ``share``: the member's lever-rule share w of the load
+    (0.5–1; ``f_c`` is then
     the rest of the path's compliance beyond w²·G(a, a), may be negative down to
     −(1 − w²)·G(a, a)): the time history sees the load through it
     (:func:`droprig.solver.pointhistory.shared_load`) and the member's energy-method
@@ -192,35 +194,15 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     t = _member_history(cond, L, EI, mu, a, float(r["M"][()]), float(r["h"][()]), f_th,
                         float(r["F_yield"][()]), float(r["stroke"][()]),
                         float(r["weight"][()]))
-    f_cp = max(f_c, 0.0)  # the contact alone, for the one-member bounds below
-    amp = amplification.amplification(M, float(e.effective_mass), f_cp, f_s,
+    # the table's mass ratio of the member struck alone (the verification's r)
+    amp = amplification.amplification(M, float(e.effective_mass), max(f_c, 0.0), f_s,
                                       struck_mass=struck_mass, cond=cond, xi=a / L)
-    F_el = float(e.force)
-    F = F_el
-    bottomed = False
-    if math.isfinite(cap) and F_el > cap:  # the chain's crushing-limited impact
-        m_eta = float(e.effective_mass) * (f_s / (f_s + f_c)) ** 2 if scaled_mass \
-            else float(e.effective_mass)
-        eta = float(impact.mass_efficiency(M, m_eta)) if struck_mass else 1.0
-        F_a, _, thr = crushing.crushing_limited_impact(W, h, f_s + f_c, eta, cap, stroke)
-        F, bottomed = float(F_a), bool(thr)
-    holds = bool(amplification.crush_depth_bound(W, h, f_s + f_c, cap) <= stroke)
-    fo = amplification.amplified_forces(amp, F, F_el,
-                                        amplification.contact_force_bound(W, h, f_cp),
-                                        cap, holds, bottomed,
-                                        F_energy=amplification.member_energy_force(
-                                            W, h, f_s, f_cp, cap, stroke))
-    # the member's demands: its share w of the force (the contact force is the load's)
+    # what the verdict uses: the chain's own force on the framing on this member's
+    # unit-load envelopes (its share w; the contact force is the load's), times the
+    # chain's factors (its amplification step; 1 with amplification off)
+    F, factor = chain_factors
     part = {"force": 1.0, "moment": w, "shear": w, "deflection": w}
-    energy = {k: float(getattr(e, k)) * F / F_el * part[k] for k in QUANTITIES}
-    factor = {"force": float(fo.local) / F, "moment": float(fo.moment) / F,
-              "shear": float(fo.shear) / F, "deflection": float(fo.deflection) / F}
-    if chain_factors is not None:
-        # what the verdict uses: the chain's own energy-method force on this member's
-        # unit-load envelopes, times the chain's factors (its amplification step)
-        F_chain, factor = chain_factors
-        energy = {k: float(getattr(e, k)) / F_el * F_chain * part[k] for k in QUANTITIES}
-        F = F_chain
+    energy = {k: float(getattr(e, k)) / float(e.force) * F * part[k] for k in QUANTITIES}
     if contact_force is not None and contact_force > 0.0:
         energy, factor = _contact_row(energy, factor, F, contact_force, chain_factors)
     assert t.history is not None
