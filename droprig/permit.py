@@ -146,10 +146,12 @@ ductility or rotation limits)."""
 
 
 def fmt_height(value: float | None, system: UnitSystem = "SI", *,
-               rounding: units.Rounding = "down") -> str:
+               rounding: units.Rounding = "down", unit: bool = True) -> str:
     """A drop height on the datum, to :data:`SIG_HEIGHT` significant figures,
-    rounded down by default (a limit)."""
-    return units.fmt_sig(value, "length", system, sig=SIG_HEIGHT, rounding=rounding)
+    rounded down by default (a limit); ``unit`` false: the digits alone (a table
+    whose header names the unit)."""
+    return units.fmt_sig(value, "length", system, sig=SIG_HEIGHT, rounding=rounding,
+                         unit=unit)
 
 
 LIMIT_NOTE = ("A hook or drop-height limit is 90 % of the least height the analysis "

@@ -1839,15 +1839,13 @@ def _h_allow(h: float | None, system: str) -> str:
         return "no limit"
     if h <= 0:
         return "0"
-    return units.fmt_sig(h, "length", system, sig=SIG_HEIGHT,  # type: ignore[arg-type]
-                         unit=False, rounding="down")
+    return fmt_height(h, system, unit=False)  # type: ignore[arg-type]
 
 
 def _h_planned(h: float, system: str) -> str:
     """A planned drop height as :func:`_h_allow` prints an allowable one, rounded to
     the nearest shown digit (a planned value, not a limit)."""
-    return units.fmt_sig(h, "length", system, sig=SIG_HEIGHT,  # type: ignore[arg-type]
-                         unit=False, rounding="nearest")
+    return fmt_height(h, system, rounding="nearest", unit=False)  # type: ignore[arg-type]
 
 
 def _allow_sig(v: float, system: str, quantity: str = "length") -> str:
