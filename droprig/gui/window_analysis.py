@@ -100,7 +100,7 @@ class AnalysisMixin(WindowParts):
             self.state_label.setText("Nothing to analyse")
         else:
             secs = self.runner.last_seconds
-            t = f" in {secs:.2f} s" if math.isfinite(secs) else ""
+            t = f" in {fmt_seconds(secs)}" if math.isfinite(secs) else ""
             text = f"Up to date · {res.n_points:,} drop points{t}"
             if res.warnings:
                 # what the analysis could not assess or found already over capacity:
@@ -142,3 +142,14 @@ class AnalysisMixin(WindowParts):
                 self.show_trace(worst.zone_id, worst.load_name, worst.governing_x,
                                 worst.governing_y)
         QTimer.singleShot(0, self.plan.fit)
+
+
+def fmt_seconds(secs: float) -> str:
+    """An analysis's wall time for the status bar: milliseconds below a second (rows
+    remembered from the last run come back in a few: "0.00 s" read as if nothing had
+    run), seconds with two decimals above."""
+    if secs < 0.0005:
+        return "under 1 ms"
+    if secs < 1.0:
+        return f"{round(secs * 1000)} ms"
+    return f"{secs:.2f} s"

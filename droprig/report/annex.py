@@ -742,6 +742,13 @@ def _deck_words(dk: Deck, v: Callable[[float | None, str], str]) -> str:
             f"{v(dk.cover, 'length')} cover")
 
 
+VERIFICATION_WIDTHS = (0.06, 0.08, 0.15, 0.09, 0.08, 0.08, 0.076, 0.076, 0.076, 0.076,
+                       0.076, 0.076)
+"""Columns of appendix B2's table as fractions of the frame's width (zone, bays, load,
+member, r, κ, then the six ratios). r and κ have 0.08: r's "0.00081" (7 characters)
+broke over two lines at 0.07 in the rooftop demo's annex."""
+
+
 class _Builder:
     def __init__(self, project: Project, results: Results, zones: tuple[LiftZone, ...],
                  fp: Fingerprint, permit: object, frame_w: float, frame_h: float,
@@ -1576,8 +1583,7 @@ class _Builder:
                  "M energy ÷ history", "δ energy ÷ history", "F verdict ÷ history",
                  "M verdict ÷ history", "V verdict ÷ history")
         assert len(VERIFICATION_HEADER) == 16
-        widths = (0.06, 0.08, 0.16, 0.1, 0.07, 0.07, 0.076, 0.076, 0.076, 0.076, 0.076,
-                  0.076)
+        widths = VERIFICATION_WIDTHS
         # rows with the same load, member and figures share one row listing their
         # zones and bays (a tall building repeats its floors: the table grows with
         # distinct cases, not with levels)

@@ -81,7 +81,10 @@ def verification_rows(project: Any, results: Any, *, zone_id: str | None = None,
 
 def _ratio_cell(r: float) -> str:
     """A ratio for the table's narrow r and κ columns: 3 significant figures, 2 below
-    0.01 ("0.000631" broke over two lines in the steel demo's annex; "0.00063" fits)."""
+    0.01 ("0.000631" broke over two lines in the steel demo's annex; "0.00063" fits),
+    whole numbers from 1,000 up ("1.23e+03" did not fit; "1234" does)."""
+    if abs(r) >= 1000:
+        return f"{r:.0f}"
     return f"{r:.3g}" if abs(r) >= 0.01 else f"{r:.2g}"
 
 
