@@ -67,17 +67,25 @@ def crushing_note(v: Verification, system: str) -> str:
     the table: "capped at F_c" only while the history's contact force stayed at the
     cap; when it rose past it (the layer used up, the load bearing on what is below),
     the note says so. Under Xvfb the note read "contact capped at 18.0 kN by
-    crushing" beside a time-history contact force of 1,647 kN."""
+    crushing" beside a time-history contact force of 1,647 kN; on the steel demo
+    (welder, bay 1-2/B-C) "contact capped at 12,555.95 kip by crushing (crushed 0.00
+    in in the time history)" beside a history that peaked at 44.30 kip: a cap the
+    history never reaches is named as not reached, to three significant figures."""
     if not v.crushing_force < float("inf"):
         return "elastic contact (no crushing cap)"
+    peak = v.time_history["force"]
+    if peak < 0.99 * v.crushing_force and not v.crush > 0.0:
+        mag = units.to_display(v.crushing_force, "force", system)
+        bound = units.fmt(v.crushing_force, "force", system,
+                          decimals=units.sig_decimals(mag, 3))
+        return f"elastic contact in the time history (crushing bound {bound} not reached)"
     cap = units.fmt(v.crushing_force, "force", system)
     crushed = units.fmt(v.crush, "small_length", system)
-    peak = v.time_history["force"]
     if peak > 1.01 * v.crushing_force:
         return (f"contact held at {cap} by crushing until the crushable layer was used "
-                f"up (crushed {crushed} in the time history); the force then rose to "
+                f"up (time history: crushed {crushed}); the force then rose to "
                 f"{units.fmt(peak, 'force', system)} on what lies below it")
-    return f"contact capped at {cap} by crushing (crushed {crushed} in the time history)"
+    return f"contact capped at {cap} by crushing (time history: crushed {crushed})"
 
 
 def _plain(text: str) -> QLabel:

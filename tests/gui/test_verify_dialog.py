@@ -184,3 +184,9 @@ def test_the_crushing_note_agrees_with_the_table() -> None:
     assert units.fmt(90 * cap, "force", "SI") in note
     assert crushing_note(replace(v, crushing_force=float("inf")), "SI") == \
         "elastic contact (no crushing cap)"
+    # steel demo, welder on bay 1-2/B-C under Xvfb: "contact capped at 12,555.95 kip by
+    # crushing (crushed 0.00 in in the time history)" beside a 44.30 kip history
+    never = replace(v, crushing_force=12_555.95 * 4448.2216, crush=0.0,
+                    time_history={**v.time_history, "force": 44.3 * 4448.2216})
+    assert crushing_note(never, "US") == ("elastic contact in the time history "
+                                          "(crushing bound 12,556 kip not reached)")
