@@ -1274,11 +1274,10 @@ def demands(c: Chain) -> Demands:
         cross_strip_moment(Ly, yb, inp.foot_l, inp.foot_w, thick, b_fl, h_p, g_main),
         cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, h_p, g_main))
     soft = presses_uniformly(c)
-    if soft.any():  # the rule before (presses_uniformly): no rigid-base statics
-        my1 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_l, inp.foot_w, thick)
-        my2 = deck.deck_unit_moment_per_width(Ly, yb, inp.foot_w, inp.foot_l, thick)
-        m_soft = np.maximum(np.where(ey > 0.5 * inp.foot_l, my1, 0.0),
-                            np.where(ey > 0.5 * inp.foot_w, my2, 0.0)) * (1.0 - share_x)
+    if soft.any():  # no rigid-base statics: the part of the pressure on the slab
+        m_soft = np.maximum(
+            uniform_cross_strip_moment(Ly, yb, inp.foot_l, inp.foot_w, thick, b_fl, g_main),
+            uniform_cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, g_main))
         m_y = np.where(soft, m_soft, m_y)
     # a rigid base over both beams of its strip (in both plan orientations) rests on
     # the beams: the strip between them carries none of the impact
@@ -1925,6 +1924,57 @@ def cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray,
     return np.where(np.isfinite(out), out, 0.0)
 
 
+def uniform_on_line(e: np.ndarray, ext: np.ndarray, b: float
+                    ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """A footprint of extent ``ext`` (m) pressing uniformly (a declared underside
+    stiffness, a mat or a crushable layer: :func:`presses_uniformly`) whose centre
+    lies ``e`` ≥ 0 (m) from a support line: the share of its force on the slab of
+    this side beyond the flange's edge (half-width ``b``), that part's centre from the
+    line and its length (m), per point.
+
+    The pressure q = F/ext acts on [s0, s1] = [e − ext/2, e + ext/2]. What lies over
+    the flange (|s| ≤ b) bears on the steel directly and what lies beyond it on the
+    slab across the line; this side's slab takes [p, s1], p = clip(b, s0, s1):
+    share (s1 − p)/ext, centre (p + s1)/2, length s1 − p (statics of a uniform
+    pressure; common practice, no source). Continuous in e: 1, e, ext clear of the
+    flange, falling to 0 as the footprint comes over it (before, the whole patch
+    stayed on the cross strip until the footprint's edge reached the line and was
+    dropped there: U stepped by more than 5 % for moves of 1 mm, a random floor's
+    soft underside). SI units."""
+    e, ext = np.broadcast_arrays(np.asarray(e, float), np.asarray(ext, float))
+    s0, s1 = e - 0.5 * ext, e + 0.5 * ext
+    p = np.clip(max(b, 0.0), s0, s1)
+    length = s1 - p
+    with np.errstate(divide="ignore", invalid="ignore"):
+        share = np.where(ext > 0.0, length / np.where(ext > 0.0, ext, 1.0), 0.0)
+    return share, 0.5 * (p + s1), length
+
+
+def uniform_cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray,
+                               along: np.ndarray, thick: float, b: float,
+                               g_main: np.ndarray) -> np.ndarray:
+    """Sagging moment per metre width of the cross strip between the girder lines
+    (span ``Ly``, footprint centred ``y`` from the first) under a footprint pressing
+    uniformly (extent ``across`` normal to the lines, ``along`` parallel), per newton
+    of the load, N·m/m per N: the part on this side's slab (:func:`uniform_on_line`
+    at the nearer line, share F_s, centre a, length c) as a patch on the simply
+    supported strip, F_s·m(a, c) (:func:`droprig.solver.deck.deck_unit_moment_per_width`;
+    AISC Manual Table 3-23 case 7 with the patch spread), of which the cross strip
+    takes 1 − g_y(a)/(g_main + g_y(a)) by the crossing strips at that part's centre
+    (as :func:`cross_strip_moment`; ``g_main`` m/N, inf where no main strip). Clear
+    of the flanges this is the whole footprint at its centre with the crossing
+    strips' share there, the rule before. SI units (m)."""
+    Ly, y, a_c, a_l = np.broadcast_arrays(*(np.asarray(v, float) for v in (Ly, y, across, along)))
+    e = np.clip(np.minimum(y, Ly - y), 0.0, None)
+    share, pos, length = uniform_on_line(e, a_c, b)
+    out = share * deck.deck_unit_moment_per_width(Ly, pos, length, a_l, thick)
+    gy = pos**2 * (Ly - pos) ** 2 / (3.0 * Ly)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        tot = g_main + gy
+        out = out * np.where(tot > 0.0, 1.0 - gy / np.where(tot > 0.0, tot, 1.0), 1.0)
+    return np.where(np.isfinite(out) & (share > 0.0), out, 0.0)
+
+
 def slab_bearing_share(span: np.ndarray, pos: np.ndarray, extent: np.ndarray, b: float,
                        h: float) -> np.ndarray:
     """Share of a rigid base's force that bears on the slab beside the nearer of
@@ -1942,9 +1992,9 @@ def presses_uniformly(c: Chain) -> np.ndarray:
     """Per point: the footprint presses the deck uniformly rather than as a rigid
     base — a declared underside stiffness (``LoadInputs.f_load`` > 0), or a mat or
     crushable layer under the load (``t_mat`` > 0). The rigid-base statics of
-    :func:`base_on_line` are not credited there: the cross strip and punching keep
-    the rule they had (the footprint reaching over a line bears on the steel),
-    still a step where the footprint's edge reaches the line."""
+    :func:`base_on_line` are not credited there: the cross strip and punching take
+    the part of the uniform pressure that lies on the slab beyond the flanges
+    (:func:`uniform_on_line`), continuous as the footprint comes over a line."""
     inp = c[LoadInputs]
     return (np.asarray(inp.f_load) > 0.0) | (np.asarray(inp.t_mat) > 0.0)
 
@@ -2001,8 +2051,19 @@ def punching_near_support(c: Chain, ey: np.ndarray) -> np.ndarray:
     beta = np.clip(a_v / (2.0 * dd), 0.25, 1.0)
     sigma = np.maximum(np.minimum(beam_share(c, inp.foot_l), girder_share(c, inp.foot_w)),
                        np.minimum(beam_share(c, inp.foot_w), girder_share(c, inp.foot_l)))
-    # a footprint pressing uniformly: the rule before (presses_uniformly)
-    sigma = np.where(presses_uniformly(c), np.where(a_v > 0.0, 1.0, 0.0), sigma)
+    # a footprint pressing uniformly: the part of its pressure on the slab beyond the
+    # flanges (uniform_on_line), the larger over the two plan orientations
+    soft = presses_uniformly(c)
+    if soft.any():
+        b_fl, _h = support_spread(d.fm)
+        ey_line = np.clip(ey, 0.0, None)
+
+        def on_slab(along: np.ndarray, across: np.ndarray) -> np.ndarray:
+            sb = np.where(span > 0.0, uniform_on_line(ex, along, b_fl)[0], 1.0)
+            return sb * uniform_on_line(ey_line, across, b_fl)[0]
+
+        sigma_u = np.maximum(on_slab(inp.foot_l, inp.foot_w), on_slab(inp.foot_w, inp.foot_l))
+        sigma = np.where(soft, sigma_u, sigma)
     return sigma * beta
 
 

@@ -108,10 +108,6 @@ def test_clear_of_the_girders_the_crossing_strips_share_is_at_the_centre() -> No
     assert float(m[0]) == pytest.approx(float(ref), rel=1e-12)
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "a footprint pressing uniformly (declared underside stiffness, mat, layer) keeps the "
-    "earlier rule, chain.presses_uniformly: the cross strip drops out as its edge reaches "
-    "the girder line (a uniform-pressure split made girder-line points sagging-governed)"))
 def test_a_soft_underside_is_continuous_too() -> None:
     """The same floor and load with a declared underside stiffness: U should change
     by less than 5 % for moves of 1–20 mm across the footprint's edge reaching the

@@ -81,13 +81,45 @@ def test_share_of_the_force_that_punches_by_hand(roof):
 
 
 def test_over_a_girder_line_no_punching(roof):
-    # on the girder at y = 9 m, 1.25 m from the beams on either side: the footprint
-    # bears on the girder
+    # on the girder at y = 9 m, 1.25 m from the beams on either side: a rigid base
+    # centred over the flange bears on the girder (share 0); without the demo's pads
+    # (a pad presses uniformly: the next test)
+    roof = replace(roof, protection_areas=())
     lv = roof.level(roof.lift_zones[0].level_id)
-    load = replace(roof.lift_zones[0].loads[0], footprint_length=0.3, footprint_width=0.3)
+    rigid = replace(roof.lift_zones[0].loads[0], footprint_length=0.3, footprint_width=0.3,
+                    contact_stiffness=None)
     fm = analysis.build_floor(lv, roof.settings)
     geo = analysis.point_geometry(fm, roof, np.array([3.75, 3.75]), np.array([9.0, 4.5]))
-    ch = evaluate.evaluate_chain(fm, roof, load, geo, landing="flat")
+    ch = evaluate.evaluate_chain(fm, roof, rigid, geo, landing="flat")
     U = ch[Demands].checks["deck_punching"].U
     assert U[0] == 0.0
     assert U[1] > 0.0
+
+
+def test_a_soft_footprint_over_a_girder_punches_with_what_lies_beyond_the_flange(roof):
+    # the same 0.3 m square footprint with the demo unit's declared underside
+    # stiffness presses uniformly: over the flange (half-width b, the level's least)
+    # it bears on the steel; the 0.15 − b beyond the flange's edge on this side lies
+    # on the slab: share (0.15 − b)/0.3 (statics of a uniform pressure, common
+    # practice, no source), 1.25 m clear of the beams (share 1 that way); the load
+    # applied over the support, a_v < 0.5d: β = 0.25 (EN 1992-1-1 §6.2.2(6), from
+    # memory). Before, any footprint reaching a line was taken whole on the steel.
+    # Without the demo's pads (their 1:1 spread would widen the footprint).
+    roof = replace(roof, protection_areas=())
+    lv = roof.level(roof.lift_zones[0].level_id)
+    soft = replace(roof.lift_zones[0].loads[0], footprint_length=0.3, footprint_width=0.3)
+    assert soft.contact_stiffness is not None and soft.contact_stiffness > 0
+    b = 0.5 * min(m.section.bf for m in lv.members)
+    assert 0.0 < b < 0.15
+    fm = analysis.build_floor(lv, roof.settings)
+    xs, ys = np.array([3.75, 3.75]), np.array([9.0, 4.5])
+    geo = analysis.point_geometry(fm, roof, xs, ys)
+    ch = evaluate.evaluate_chain(fm, roof, soft, geo, landing="flat")
+    U = ch[Demands].checks["deck_punching"].U
+    imp = ch[Impact]
+    F = imp.F if imp.F_deck is None else imp.F_deck
+    # mid-bay (4.5 m from the girders, 1.25 m from the beams): all of it punches
+    # (β = 1, 1.25 m > 2d), so U/F there is 1/V_R of the same footprint
+    per_newton = U[1] / F[1]
+    share = (0.15 - b) / 0.3
+    assert U[0] / F[0] == pytest.approx(share * 0.25 * per_newton, rel=1e-9)

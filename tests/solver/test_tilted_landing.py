@@ -70,13 +70,21 @@ def test_edge_strip_contact_by_hand(roof):
     phi = roof.settings.resistance_factor
     # the point (4.1, 11.3) lies between the beams at x = 2.5 and 5.0 (0.9 m from the
     # nearer) and 2.3 m from the girder at y = 9.0. Flat, the 3.0 × 2.0 m base reaches
-    # over the beam at x = 5.0 (0.9 < 2.0/2): it bears on the steel and cannot punch the
-    # slab (share 0; the unit's declared underside stiffness keeps this rule,
-    # chain.presses_uniformly); on its edge the 2.0 × 0.05 m strip is 0.9 − 0.025 = 0.875 m clear
-    # of the beam, beyond 2d, so all of the force punches (EN 1992-1-1 §6.2.2(6): β = 1
-    # for a_v ≥ 2d)
+    # over the beam at x = 5.0 (0.9 < 2.0/2). The unit's declared underside stiffness
+    # presses uniformly (chain.presses_uniformly): what lies over the flange
+    # (half-width b) bears on the steel, the rest on this side's slab. With the 2.0 m
+    # side across the beam, [0.9 − 1.0, 0.9 + 1.0] = [−0.1, 1.9]: (1.9 − b)/2.0 on the
+    # slab, the 3.0 m side 2.3 − 1.5 = 0.8 m clear of the girder (1); turned, the 3.0 m
+    # side across the beam, (2.4 − b)/3.0, the 2.0 m side clear: the larger of the two
+    # (statics of a uniform pressure, common practice, no source); applied over the
+    # support (a_v = 0.9 − 1.0 < 0.5d): β = 0.25 (EN 1992-1-1 §6.2.2(6), from memory).
+    # On its edge the 2.0 × 0.05 m strip is 0.9 − 0.025 = 0.875 m clear of the beam,
+    # beyond 2d, so all of the force punches (β = 1 for a_v ≥ 2d)
     assert 0.9 - 0.025 > 2 * d
-    for name, (l, w), share in (("flat", (3.0, 2.0), 0.0), ("tilted", (2.0, 0.05), 1.0)):
+    b = 0.5 * min(m.section.bf for m in lv.members)
+    flat_share = 0.25 * max((1.9 - b) / 2.0, (2.4 - b) / 3.0)
+    for name, (l, w), share in (("flat", (3.0, 2.0), flat_share),
+                                ("tilted", (2.0, 0.05), 1.0)):
         V = phi * min(v * (2 * (l + w) + 4 * math.pi * d) * d,
                       vmax * 2 * (l + w) * d) * 1e6
         got = ch[name][Demands].checks["deck_punching"]
