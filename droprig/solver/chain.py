@@ -1275,9 +1275,12 @@ def demands(c: Chain) -> Demands:
         cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, h_p, g_main))
     soft = presses_uniformly(c)
     if soft.any():  # no rigid-base statics: the part of the pressure on the slab
+        g_edge, _b_edge = edge_lines(c, ey)
         m_soft = np.maximum(
-            uniform_cross_strip_moment(Ly, yb, inp.foot_l, inp.foot_w, thick, b_fl, g_main),
-            uniform_cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, g_main))
+            uniform_cross_strip_moment(Ly, yb, inp.foot_l, inp.foot_w, thick, b_fl, g_main,
+                                       g_edge),
+            uniform_cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, g_main,
+                                       g_edge))
         m_y = np.where(soft, m_soft, m_y)
     # a rigid base over both beams of its strip (in both plan orientations) rests on
     # the beams: the strip between them carries none of the impact
@@ -1924,7 +1927,8 @@ def cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray,
     return np.where(np.isfinite(out), out, 0.0)
 
 
-def uniform_on_line(e: np.ndarray, ext: np.ndarray, b: float
+def uniform_on_line(e: np.ndarray, ext: np.ndarray, b: float,
+                    edge: np.ndarray | bool = False
                     ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """A footprint of extent ``ext`` (m) pressing uniformly (a declared underside
     stiffness, a mat or a crushable layer: :func:`presses_uniformly`) whose centre
@@ -1936,23 +1940,30 @@ def uniform_on_line(e: np.ndarray, ext: np.ndarray, b: float
     the flange (|s| ≤ b) bears on the steel directly and what lies beyond it on the
     slab across the line; this side's slab takes [p, s1], p = clip(b, s0, s1):
     share (s1 − p)/ext, centre (p + s1)/2, length s1 − p (statics of a uniform
-    pressure; common practice, no source). Continuous in e: 1, e, ext clear of the
-    flange, falling to 0 as the footprint comes over it (before, the whole patch
-    stayed on the cross strip until the footprint's edge reached the line and was
-    dropped there: U stepped by more than 5 % for moves of 1 mm, a random floor's
-    soft underside). SI units."""
-    e, ext = np.broadcast_arrays(np.asarray(e, float), np.asarray(ext, float))
+    pressure; common practice, no source). Where the line is the deck's ``edge``
+    nothing lies beyond the flange's outer edge: the load rests on [max(s0, −b), s1]
+    only, and the slab's share is (s1 − p)/(s1 − max(s0, −b)) (the footprint as the
+    deck sees it, already cut to the deck's area: ``_footprint_on_deck``). Continuous
+    in e: 1, e, ext clear of the flange, falling to 0 as the footprint comes over it
+    (before, the whole patch stayed on the cross strip until the footprint's edge
+    reached the line and was dropped there: U stepped by more than 5 % for moves of
+    1 mm, a random floor's soft underside). SI units."""
+    e, ext, edge = np.broadcast_arrays(np.asarray(e, float), np.asarray(ext, float),
+                                       np.asarray(edge, bool))
+    bb = max(b, 0.0)
     s0, s1 = e - 0.5 * ext, e + 0.5 * ext
-    p = np.clip(max(b, 0.0), s0, s1)
+    p = np.clip(bb, s0, s1)
     length = s1 - p
+    rests = np.where(edge, s1 - np.maximum(s0, -bb), ext)
     with np.errstate(divide="ignore", invalid="ignore"):
-        share = np.where(ext > 0.0, length / np.where(ext > 0.0, ext, 1.0), 0.0)
+        share = np.where(rests > 0.0, length / np.where(rests > 0.0, rests, 1.0), 0.0)
     return share, 0.5 * (p + s1), length
 
 
 def uniform_cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray,
                                along: np.ndarray, thick: float, b: float,
-                               g_main: np.ndarray) -> np.ndarray:
+                               g_main: np.ndarray, edge: np.ndarray | bool = False
+                               ) -> np.ndarray:
     """Sagging moment per metre width of the cross strip between the girder lines
     (span ``Ly``, footprint centred ``y`` from the first) under a footprint pressing
     uniformly (extent ``across`` normal to the lines, ``along`` parallel), per newton
@@ -1963,16 +1974,34 @@ def uniform_cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray
     takes 1 − g_y(a)/(g_main + g_y(a)) by the crossing strips at that part's centre
     (as :func:`cross_strip_moment`; ``g_main`` m/N, inf where no main strip). Clear
     of the flanges this is the whole footprint at its centre with the crossing
-    strips' share there, the rule before. SI units (m)."""
+    strips' share there, the rule before. ``edge``: the nearer girder line is the
+    deck's edge (:func:`uniform_on_line`). SI units (m)."""
     Ly, y, a_c, a_l = np.broadcast_arrays(*(np.asarray(v, float) for v in (Ly, y, across, along)))
     e = np.clip(np.minimum(y, Ly - y), 0.0, None)
-    share, pos, length = uniform_on_line(e, a_c, b)
+    share, pos, length = uniform_on_line(e, a_c, b, edge)
     out = share * deck.deck_unit_moment_per_width(Ly, pos, length, a_l, thick)
     gy = pos**2 * (Ly - pos) ** 2 / (3.0 * Ly)
     with np.errstate(divide="ignore", invalid="ignore"):
         tot = g_main + gy
         out = out * np.where(tot > 0.0, 1.0 - gy / np.where(tot > 0.0, tot, 1.0), 1.0)
     return np.where(np.isfinite(out) & (share > 0.0), out, 0.0)
+
+
+def edge_lines(c: Chain, ey: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Per point: whether the nearer girder line (``ey`` m from the point, along the
+    deck beams) is the deck's edge, and whether the nearer beam line of the deck
+    strip is (:func:`strip_restraint` gives no restraint there), from the level's
+    grid extent (tolerance 1 mm). Plan geometry."""
+    d, comp = c.drop, c[Compliance]
+    ext = d.fm.level.grid.extent
+    along = d.geo.x if d.fm.frame.deck_axis == "x" else d.geo.y
+    lo, hi = (ext.x0, ext.x1) if d.fm.frame.deck_axis == "x" else (ext.y0, ext.y1)
+    to_edge = np.minimum(along - lo, hi - along)
+    g_edge = np.abs(to_edge - np.asarray(ey, float)) < 1e-3
+    span, pos = comp.strip_span, comp.strip_pos
+    near_first = pos <= 0.5 * span
+    b_edge = (span > 0.0) & np.where(near_first, comp.k_left <= 0.0, comp.k_right <= 0.0)
+    return g_edge, b_edge
 
 
 def slab_bearing_share(span: np.ndarray, pos: np.ndarray, extent: np.ndarray, b: float,
@@ -2057,10 +2086,11 @@ def punching_near_support(c: Chain, ey: np.ndarray) -> np.ndarray:
     if soft.any():
         b_fl, _h = support_spread(d.fm)
         ey_line = np.clip(ey, 0.0, None)
+        g_edge, b_edge = edge_lines(c, ey)
 
         def on_slab(along: np.ndarray, across: np.ndarray) -> np.ndarray:
-            sb = np.where(span > 0.0, uniform_on_line(ex, along, b_fl)[0], 1.0)
-            return sb * uniform_on_line(ey_line, across, b_fl)[0]
+            sb = np.where(span > 0.0, uniform_on_line(ex, along, b_fl, b_edge)[0], 1.0)
+            return sb * uniform_on_line(ey_line, across, b_fl, g_edge)[0]
 
         sigma_u = np.maximum(on_slab(inp.foot_l, inp.foot_w), on_slab(inp.foot_w, inp.foot_l))
         sigma = np.where(soft, sigma_u, sigma)

@@ -34,6 +34,20 @@ def test_part_beyond_the_flange_by_hand(e: float, share: float, pos: float,
     assert ln[0] == pytest.approx(length, rel=1e-12)
 
 
+@pytest.mark.parametrize(("e", "share"), [
+    (0.00, 0.25 / 0.35),  # rests on [−0.05, 0.30]: the flange's outer half and beyond
+    (0.30, 0.55 / 0.60),  # [0.00, 0.60]: wholly over the deck, as an interior line
+    (1.00, 1.0),
+])
+def test_at_the_decks_edge_the_load_rests_on_what_is_there(e: float, share: float) -> None:
+    # the line is the deck's edge: nothing beyond the flange's outer edge, so the
+    # load's weight rests on the flange and the slab only (statics of a uniform
+    # pressure on what supports it; common practice, no source)
+    s, _p, _ln = chain.uniform_on_line(np.array([e]), np.array([0.60]), 0.05,
+                                       np.array([True]))
+    assert s[0] == pytest.approx(share, rel=1e-12)
+
+
 def test_within_the_flange_all_on_the_steel() -> None:
     s, _p, ln = chain.uniform_on_line(np.array([0.0, 0.01]), np.array([0.08, 0.06]), 0.05)
     np.testing.assert_array_equal(s, [0.0, 0.0])
