@@ -749,6 +749,42 @@ member, r, κ, then the six ratios). r and κ have 0.08: r's "0.00081" (7 charac
 broke over two lines at 0.07 in the rooftop demo's annex."""
 
 
+def verification_table(rows: Sequence[Sequence[str]], w: float, st: _Styles) -> object:
+    """Appendix B2's table of ratios (the peaks are in droprig verify and the window's
+    dialog) on a frame ``w`` pt wide: rows with the same load, member and figures
+    share one row listing their zones and bays (a tall building repeats its floors:
+    the table grows with distinct cases, not with levels). The header is plain text,
+    set in the tables' white-on-dark head style by :func:`_table` (as Paragraphs in
+    the body style it printed dark grey on the dark band, seen with pdftoppm)."""
+    from droprig.report.verification import VERIFICATION_HEADER
+
+    keep = (0, 1, 2, 3, 4, 5, 10, 11, 12, 13, 14, 15)
+    heads = ("Zone", "Bay", "Load", "Member", "r = M/mₑ", "κ", "F energy ÷ history",
+             "M energy ÷ history", "δ energy ÷ history", "F verdict ÷ history",
+             "M verdict ÷ history", "V verdict ÷ history")
+    assert len(VERIFICATION_HEADER) == 16
+    where: dict[tuple[str, ...], dict[str, list[str]]] = {}
+    for r in rows:
+        bays_of = where.setdefault(tuple(r[i] for i in keep[2:]), {})
+        ids = bays_of.setdefault(r[0], [])
+        if r[1] not in ids:
+            ids.append(r[1])
+    body: list[list[object]] = [list(heads)]
+    for cells, bays_of in where.items():
+        zones = ", ".join(bays_of)
+        bay_text = "; ".join(", ".join(ids) for ids in bays_of.values())
+        body.append([_para(zones, st.small), _para(bay_text, st.small),
+                     *(_para(c, st.small) for c in cells)])
+    return _table(body, [f * w for f in VERIFICATION_WIDTHS],
+                  extra=[("ALIGN", (4, 1), (-1, -1), "RIGHT")])
+
+
+def _para(text: str, style: object) -> object:
+    from reportlab.platypus import Paragraph
+
+    return Paragraph(esc(text), style)
+
+
 class _Builder:
     def __init__(self, project: Project, results: Results, zones: tuple[LiftZone, ...],
                  fp: Fingerprint, permit: object, frame_w: float, frame_h: float,
@@ -1560,7 +1596,6 @@ class _Builder:
         governing point (:mod:`droprig.report.verification`); the bays whose
         governing point could not be verified are named, with why."""
         from droprig.report.verification import (
-            VERIFICATION_HEADER,
             VERIFICATION_NOTE,
             VERIFICATION_OFF,
             skipped_words,
@@ -1576,32 +1611,7 @@ class _Builder:
             self.story.append(self.P("No governing point could be verified (points on a "
                                      "support or off the deck).", self.st.small))
             return
-        w = self.w
-        # the ratios only (the peaks are in droprig verify and the window's dialog)
-        keep = (0, 1, 2, 3, 4, 5, 10, 11, 12, 13, 14, 15)
-        heads = ("Zone", "Bay", "Load", "Member", "r = M/mₑ", "κ", "F energy ÷ history",
-                 "M energy ÷ history", "δ energy ÷ history", "F verdict ÷ history",
-                 "M verdict ÷ history", "V verdict ÷ history")
-        assert len(VERIFICATION_HEADER) == 16
-        widths = VERIFICATION_WIDTHS
-        # rows with the same load, member and figures share one row listing their
-        # zones and bays (a tall building repeats its floors: the table grows with
-        # distinct cases, not with levels)
-        where: dict[tuple[str, ...], dict[str, list[str]]] = {}
-        for r in rows:
-            bays_of = where.setdefault(tuple(r[i] for i in keep[2:]), {})
-            ids = bays_of.setdefault(r[0], [])
-            if r[1] not in ids:
-                ids.append(r[1])
-        body: list[list[object]] = [[self.P(esc(h), self.st.small) for h in heads]]
-        for cells, bays_of in where.items():
-            zones = ", ".join(bays_of)
-            bay_text = "; ".join(", ".join(ids) for ids in bays_of.values())
-            body.append([self.P(esc(zones), self.st.small),
-                         self.P(esc(bay_text), self.st.small),
-                         *(self.P(esc(c), self.st.small) for c in cells)])
-        self.story.append(_table(body, [f * w for f in widths],
-                                 extra=[("ALIGN", (4, 1), (-1, -1), "RIGHT")]))
+        self.story.append(verification_table(rows, self.w, self.st))
 
     # ------------------------------------------------------------ C, D
     def references_page(self) -> None:
