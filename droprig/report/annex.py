@@ -123,8 +123,9 @@ ASSUMPTIONS: tuple[str, ...] = (
     "Load path deck → beams → girders → columns by statics; columns as axial springs "
     "E·A/L.",
     "The deck strip is continuous over the beams and shares the load with the cross strip "
-    "to the girders; over a support the load bears on the steel (no sagging flexure or "
-    "punching; within 2d of it β = a_v/2d of the load punches). Composite members act "
+    "to the girders; a load over a support bears on the steel (a soft or padded "
+    "footprint: where over the flange), no sagging or punching there; within 2d, "
+    "β = a_v/2d of it punches. Composite members act "
     "with the slab. No membrane action; members laterally restrained and compact.",
     "Existing loads as given in the project are added to the impact actions.",
     "Beyond yield: elastic–perfectly plastic within the ductility and rotation limits "
