@@ -401,6 +401,10 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
             _ro("dif", "Dynamic increase factor", lambda o: f"{o.dynamic_increase_factor:.2f}"),
             _ro("res", "Drop-point spacing",
                 lambda o: units.fmt(o.grid_resolution, "length", system)),
+            _ro("amp", "Dynamic amplification",
+                lambda o: "on" if o.dynamic_amplification else "off (energy method)"),
+            _ro("tilt", "Tilted landing",
+                lambda o: "checked" if o.tilted_landing else "not checked"),
         ], None, buttons=["settings"])
 
     if k == "level":

@@ -107,8 +107,27 @@ class SettingsDialog(QDialog):
         self.existing = QCheckBox("Add the loads already on the floor (dead + live left)")
         self.existing.toggled.connect(
             lambda on: self._commit("include_existing_loads", bool(on), "Existing loads"))
+        # the two switches the verification and the annex name ("switch amplification
+        # on"): before, only the project file could set them
+        self.amplification = QCheckBox("Dynamic amplification (time-history bounds)")
+        self.amplification.setToolTip(
+            "The checks take the larger of the energy method and the time-history-calibrated "
+            "bounds. Off, the energy method reads low for loads light against the framing "
+            "they strike (see the time-history verification); on, its bounds can lie far "
+            "above the structure's own response for light items, and the analysis is slower.")
+        self.amplification.toggled.connect(
+            lambda on: self._commit("dynamic_amplification", bool(on),
+                                    "Dynamic amplification"))
+        self.tilted = QCheckBox("Also check a landing tilted on one edge")
+        self.tilted.setToolTip(
+            "Every drop point is also checked for the load landing on one edge with its "
+            "whole mass through a narrow edge strip; the worse of the two governs.")
+        self.tilted.toggled.connect(
+            lambda on: self._commit("tilted_landing", bool(on), "Tilted landing"))
         form.addRow(self.member_mass)
         form.addRow(self.existing)
+        form.addRow(self.amplification)
+        form.addRow(self.tilted)
 
         self.message = QLabel()
         self.message.setObjectName("settingsMessage")
@@ -153,7 +172,9 @@ class SettingsDialog(QDialog):
             if e.text() != text:
                 e.setText(text)
         for box, key in ((self.member_mass, "include_member_mass"),
-                         (self.existing, "include_existing_loads")):
+                         (self.existing, "include_existing_loads"),
+                         (self.amplification, "dynamic_amplification"),
+                         (self.tilted, "tilted_landing")):
             box.blockSignals(True)
             box.setChecked(getattr(s, key))
             box.blockSignals(False)

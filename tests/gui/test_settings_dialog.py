@@ -109,3 +109,20 @@ def test_design_basis_and_switches(dialog: SettingsDialog, doc: Document) -> Non
     assert doc.project.settings.include_member_mass is False
     doc.undo_stack.undo()
     assert dialog.member_mass.isChecked()
+
+
+@pytest.mark.parametrize(("box", "key"), [("amplification", "dynamic_amplification"),
+                                          ("tilted", "tilted_landing")])
+def test_amplification_and_tilted_landing_switch_and_undo(
+        dialog: SettingsDialog, doc: Document, box: str, key: str) -> None:
+    # the verification and the annex tell the engineer to "switch amplification on";
+    # before, only the project file could (common practice, no source: a setting a
+    # text names is one the window can change)
+    widget = getattr(dialog, box)
+    before = getattr(doc.project.settings, key)
+    assert widget.isChecked() is before
+    widget.setChecked(not before)
+    assert getattr(doc.project.settings, key) is (not before)
+    doc.undo_stack.undo()
+    assert getattr(doc.project.settings, key) is before
+    assert widget.isChecked() is before
