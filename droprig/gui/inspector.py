@@ -551,13 +551,6 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
             _q("footprint_length", "Footprint length", "length",
                "Plan size of the load's underside"),
             _q("footprint_width", "Footprint width", "length"),
-            FieldSpec("height", "Load height", "optional", lambda o: o.height,
-                      lambda o, v: replace(o, height=v), quantity="length",
-                      tip="Overall height of the load, its top above its underside. It "
-                          "bounds how much of the mass an edge takes when the load lands "
-                          "tilted on one edge. Leave empty to take the whole mass on the "
-                          "edge (the safe side).",
-                      empty="empty = whole mass on the edge"),
             FieldSpec("contact_stiffness", "Underside stiffness", "optional",
                       lambda o: o.contact_stiffness,
                       lambda o, v: replace(o, contact_stiffness=v), quantity="stiffness",

@@ -334,8 +334,6 @@ def _load_doc(ld: LiftLoad) -> dict[str, object]:
         out["edge_width_m"] = ld.edge_width
     if ld.hard is not None:
         out["hard"] = ld.hard
-    if ld.height is not None:
-        out["height_m"] = ld.height
     return out
 
 
@@ -930,7 +928,7 @@ _KEYS_LOAD = {"name": "name", "mass": "mass_kg", "footprint_length": "footprint_
               "kind": "kind", "contact_stiffness": "contact_stiffness_N_per_m",
               "mass_source": "mass_source",
               "strike_orientations": "strike_orientations", "strike_reason": "strike_reason",
-              "edge_width": "edge_width_m", "hard": "hard", "height": "height_m"}
+              "edge_width": "edge_width_m", "hard": "hard"}
 _KEYS_ZONE = {"id": "id", "name": "name", "level_id": "level_id", "crane": "crane_m",
               "r_min": "r_min_m", "r_max": "r_max_m", "slew_start": "slew_start_deg",
               "slew_end": "slew_end_deg", "drift_margin": "drift_margin_m",
@@ -1137,7 +1135,7 @@ class _Builder:
         kw = _kwargs(v, {k: k2 for k, k2 in _KEYS_LOAD.items()
                          if k in ("footprint_length", "footprint_width", "hang_length", "kind",
                                   "contact_stiffness", "mass_source", "strike_reason",
-                                  "edge_width", "hard", "height")})
+                                  "edge_width", "hard")})
         if "strike_orientations" in v:
             kw["strike_orientations"] = tuple(v["strike_orientations"])
         return self._make(path, _KEYS_LOAD, lambda: LiftLoad(

@@ -51,10 +51,6 @@ CONTACT_STIFFNESS_RANGE = (1e4, 1e12)
 """Allowed stiffness of a load's own underside, N/m: from a very soft timber-and-rubber
 bearer (10 kN/m) to practically rigid steel (1e12 N/m)."""
 
-LOAD_HEIGHT_RANGE = (0.01, 60.0)
-"""Allowed overall height of a load (its top above its underside), m: from a plate or
-a mat of bearers (10 mm) to a tall vessel or tower section (60 m)."""
-
 GEOMETRY_TOL = 1e-6
 """Two plan points closer than this (m) are the same point."""
 
@@ -510,12 +506,6 @@ class LiftLoad:
     mass_source: MassSource | None = None
     """Where ``mass`` comes from (:data:`~droprig.model.permit_data.MASS_SOURCES`);
     None: not recorded."""
-    height: float | None = None
-    """Overall height of the load, its top above its underside, m
-    (:data:`LOAD_HEIGHT_RANGE`). It bounds the load's moment of inertia for a landing
-    tilted on one edge (:func:`droprig.solver.footprint.edge_mass_ratio`). ``None``
-    (files written before the field, or not known): the edge takes the whole mass, as
-    a flat landing does (the safe side)."""
 
     def __post_init__(self) -> None:
         check_text("load.name", self.name, required=True, max_len=64)
@@ -555,9 +545,6 @@ class LiftLoad:
         check_range(f"load {self.name}.edge_width", self.edge_width, 0.002, 1.0, unit="m")
         if self.hard is not None and not isinstance(self.hard, bool):
             raise ModelError(f"load {self.name}.hard", self.hard, "true, false or none")
-        if self.height is not None:
-            check_range(f"load {self.name}.height", self.height, LOAD_HEIGHT_RANGE[0],
-                        LOAD_HEIGHT_RANGE[1], unit="m")
 
     @property
     def weight(self) -> float:

@@ -1211,7 +1211,7 @@ class _Builder:
         w = self.w
         self.section("inputs")
         self.story.append(self.P("Loads", st.h2))
-        hdr = ["Zone", "Load", "Kind", "Mass", "Mass source", "Footprint L × W; height",
+        hdr = ["Zone", "Load", "Kind", "Mass", "Mass source", "Footprint L × W",
                "Hook elevation", "Hang length", "Drop height", "Underside"]
         rows: list[list[object]] = [hdr]
         for z in self.zones:
@@ -1225,9 +1225,7 @@ class _Builder:
                     z.id, self.P(esc(ld.name)), ld.kind, self.v(ld.mass, "mass"),
                     self.P(_mass_source_cell(ld)),
                     f"{self.v(ld.footprint_length, 'length')} × "
-                    f"{self.v(ld.footprint_width, 'length')}"
-                    + ("; height not given" if ld.height is None
-                       else f"; {self.v(ld.height, 'length')} high"),
+                    f"{self.v(ld.footprint_width, 'length')}",
                     self.v(ld.hook_elevation, "length") if ld.hook_elevation is not None
                     else "not given (drop height given)",
                     self.v(ld.hang_length, "length"), h,

@@ -339,8 +339,7 @@ def _printed_inputs(project: Project, case: CaseResult, i: int) -> tuple:
     load_key = (load.name, _sig(load.mass), _sig(load.footprint_length),
                 _sig(load.footprint_width), load.kind,
                 None if load.contact_stiffness is None else _sig(load.contact_stiffness),
-                load.strike_orientations, load.edge_width,
-                None if load.height is None else _sig(load.height))
+                load.strike_orientations, load.edge_width)
     gm = int(case.governing_member[i])
     if 0 <= gm < len(level.members):
         m = level.members[gm]
