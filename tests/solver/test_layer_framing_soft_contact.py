@@ -1,0 +1,62 @@
+"""The framing under a crushable layer that crushes and does not bottom out
+(``chain.framing_while_crushing``) where the load's declared underside is soft:
+KNOWN SHORTFALL of the default (flat) landing, recorded for the next stop.
+
+The model takes the layer's force onto the floor at once and, after the crush, the
+load riding on the floor as one mass (``impact.framing_under_crush``: a rigid contact
+between them). With a soft underside (the steel demo's joist bundle, 5 MN/m, against
+a framing of 6 MN/m) the load and the floor move apart after the crush and the
+framing's peak passes the model's. The independent method is the scipy time history
+of load – layer (rigid–plastic at F_c) – contact spring – floor mass – framing of
+``tests/solver/test_after_bottoming.py`` (``_history``), on the chain's own numbers
+at a point of the steel demo wholly on its pad; sources as there (Biggs 1964 ch. 2,
+Clough & Penzien ch. 2 and 4 — from memory). The demo is an invented scenario: it
+supplies the geometry, never an expected value.
+"""
+
+from __future__ import annotations
+
+import math
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from droprig.io.project_file import load_project
+from droprig.solver import analysis, evaluate
+from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass
+from droprig.solver.impact import G
+from tests.solver.test_after_bottoming import _history
+
+ROOT = Path(__file__).resolve().parents[2]
+
+
+@pytest.fixture(scope="module")
+def steel():
+    return load_project(ROOT / "demo_projects" / "steel_erection_floor.droprig")
+
+
+@pytest.mark.xfail(strict=True, reason="known shortfall of the default landing, README "
+                   "limits: a soft underside on a crushing pad; the chain reads the "
+                   "framing 0.869 x (joist bundle) and 0.961 x (welder) the history")
+@pytest.mark.parametrize("name", ["Joist bundle J-7", "Engine-driven welder"])
+def test_framing_while_crushing_with_a_soft_underside(steel, name):
+    # (22.5, 13.7) lies on PAD1 (x 17.98-27.43, y 8.84-18.59 m) with the whole
+    # footprint in either orientation: the layer crushes (F_c = crush stress × the
+    # footprint) and does not bottom out
+    z = steel.lift_zones[0]
+    load = next(ld for ld in z.loads if ld.name == name)
+    assert load.contact_stiffness is not None  # a declared (soft) underside
+    lv = steel.level(z.level_id)
+    fm = analysis.build_floor(lv, steel.settings)
+    geo = analysis.point_geometry(fm, steel, np.array([22.5]), np.array([13.7]))
+    c = evaluate.evaluate_chain(fm, steel, load, geo, v_hoist=z.hoist_speed)
+    inp, comp, sm, imp = c[LoadInputs], c[Compliance], c[StruckMass], c[Impact]
+    assert bool(inp.crushable[0]) and not bool(imp.bottomed[0]) and sm.m2 is not None
+    assert float(inp.F_c[0]) == pytest.approx(
+        29925.161862709898 * load.footprint_length * load.footprint_width, rel=1e-9)
+    v0 = math.sqrt(2.0 * G * float(inp.h[0]) + z.hoist_speed**2)
+    _, F_frame, _ = _history(load.mass, v0, float(inp.F_c[0]), float(inp.s_c[0]),
+                             1.0 / float(comp.f_series[0]), float(sm.m2[0]),
+                             1.0 / float(comp.f_s[0]), math.inf, 0.0)
+    assert float(imp.F[0]) >= F_frame * (1 - 2e-3)  # TH_TOL of test_layer_framing.py
