@@ -3,9 +3,10 @@ fast integrator of the point histories in the verdict.
 
 The model is that of :mod:`droprig.solver.timehistory` (the Newmark integration kept
 beside it as the plain reference; same modes, residual flexibility, contact and
-output sections): the member's kept Euler–Bernoulli modes (mass-normalised
-coordinates q̃ₙ, circular frequencies ωₙ, Blevins 1979 Table 8-1), the load's mass M
-on a contact spring k = 1/(f_c + f_res), undamped. The struck system is piecewise
+output sections): the member's kept modes (mass-normalised coordinates q̃ₙ,
+circular frequencies ωₙ; Euler–Bernoulli, Blevins 1979 Table 8-1, or with ``kGA`` and
+``rhoI`` the Timoshenko member of :func:`droprig.solver.timehistory.timoshenko_modes`),
+the load's mass M on a contact spring k = 1/(f_c + f_res), undamped. The struck system is piecewise
 linear, and each phase has an exact solution (Chopra, *Dynamics of Structures* 4th
 ed., §10.2 and §12.1–12.4, modal superposition of an undamped linear system; Clough &
 Penzien 2nd ed. §11-1 and §12-2 — from memory):
@@ -89,7 +90,8 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                        samples_per_period: int = DEFAULT_SAMPLES_PER_PERIOD,
                        duration: float = 1.25, record: bool = False,
                        sections: int = DEFAULT_SECTIONS, group: int = 256,
-                       weight: ArrayLike | None = None) -> TimeHistoryPeaks:
+                       weight: ArrayLike | None = None, kGA: ArrayLike = math.inf,
+                       rhoI: ArrayLike = 0.0) -> TimeHistoryPeaks:
     """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
     condition ``cond``, one name or one per case; span L m, EI N·m², μ kg/m) at
     ``a`` (m) through a contact compliance f_c (m/N), with an elastic–perfectly
@@ -99,11 +101,14 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     form (module docstring). ``record`` keeps the sampled histories (one case).
     ``dt`` in the result is each case's sample spacing in its last phase (s) and
     ``steps`` the largest number of samples of a case. ``weight`` (N, default M·g):
-    as in :func:`droprig.solver.timehistory.time_history`."""
+    as in :func:`droprig.solver.timehistory.time_history`; ``kGA`` (N) and ``rhoI``
+    (kg·m): the Timoshenko member's shear stiffness and rotary inertia, as there
+    (defaults: Euler–Bernoulli)."""
     if samples_per_period < 4:
         raise ValueError("samples_per_period: at least 4 samples per period")
     (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = timehistory.checked_case(
         cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record, weight)
+    kGA_a, rhoI_a = timehistory.section_terms(kGA, rhoI, L.shape)
     P = L.size
     conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
     g = impact.G
@@ -119,7 +124,8 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     for cnd in dict.fromkeys(conds.tolist()):
         ic = np.flatnonzero(conds == cnd)
         su = timehistory._setup(cast(EndCondition, cnd), L[ic], EI[ic], mu[ic], a[ic],
-                                M[ic], f_c[ic], f_s[ic], n_modes, cutoff, sections)
+                                M[ic], f_c[ic], f_s[ic], n_modes, cutoff, sections,
+                                kGA=kGA_a[ic], rhoI=rhoI_a[ic])
         kept = su["kept"].sum(axis=1)
         # the window of the reference (timehistory.time_history)
         T_sys = 2.0 * math.pi * np.sqrt((M[ic] + np.minimum(su["m_e"], mu[ic] * L[ic]))
@@ -153,6 +159,7 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
         ref = timehistory.time_history_batched(conds[fb], L[fb], EI[fb], mu[fb], a[fb],
                                                M[fb], h[fb], f_c[fb], F_yield=F_y[fb],
                                                stroke=s_y[fb], weight=W[fb],
+                                               kGA=kGA_a[fb], rhoI=rhoI_a[fb],
                                                n_modes=n_modes, cutoff=cutoff)
         for key in out:
             out[key][fb] = getattr(ref, key)

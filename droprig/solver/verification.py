@@ -149,24 +149,26 @@ class OverSupportError(ModelError):
 
 @functools.lru_cache(maxsize=256)
 def _member_history(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float,
-                    h: float, f_c: float, F_yield: float, stroke: float, weight: float
-                    ) -> timehistory.TimeHistoryPeaks:
+                    h: float, f_c: float, F_yield: float, stroke: float, weight: float,
+                    kGA: float = math.inf, rhoI: float = 0.0) -> timehistory.TimeHistoryPeaks:
     """:func:`droprig.solver.exacthistory.exact_time_history` of one case with the
     verdict's settings (:data:`droprig.solver.pointhistory.TH_OPTIONS`), histories
-    recorded; arguments as there (SI). Remembered by its exact inputs: a project of
-    equal levels, or a regular grid, asks the annex's verification table for the same
-    member history many times (a stress project of three equal levels: 390 bays, 30
-    distinct histories). The result is shared: read it, never write to it."""
+    recorded; arguments as there (SI; ``kGA``, ``rhoI`` the Timoshenko member's).
+    Remembered by its exact inputs: a project of equal levels, or a regular grid, asks
+    the annex's verification table for the same member history many times (a stress
+    project of three equal levels: 390 bays, 30 distinct histories). The result is
+    shared: read it, never write to it."""
     return exacthistory.exact_time_history(cond, L, EI, mu, a, M, h, f_c, record=True,
                                            F_yield=F_yield, stroke=stroke, weight=weight,
-                                           **pointhistory.TH_OPTIONS)
+                                           kGA=kGA, rhoI=rhoI, **pointhistory.TH_OPTIONS)
 
 
 def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
             f_c: float, struck_mass: bool, scaled_mass: bool = False,
             F_yield: float = math.inf, stroke: float = math.inf,
             *, chain_factors: tuple[float, dict[str, float]],
-            share: float = 1.0, contact_force: float | None = None) -> Verification:
+            share: float = 1.0, contact_force: float | None = None,
+            kGA: float = math.inf, rhoI: float = 0.0) -> Verification:
     """``chain_factors``: the chain's force on the framing at the point (N) and its
     factors by :data:`QUANTITIES` (what the verdict uses: the verification never works
     out a force of its own). ``share``: the member's lever-rule share w of the load
@@ -175,7 +177,9 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     −(1 − w²)·G(a, a)): the time history sees the load through it
     (:func:`droprig.solver.pointhistory.shared_load`) and the member's energy-method
     and verdict demands are w × those of the whole force. ``contact_force`` (N): the
-    chain's contact force at the point, for the force row (:func:`_contact_row`)."""
+    chain's contact force at the point, for the force row (:func:`_contact_row`).
+    ``kGA`` (N), ``rhoI`` (kg·m): the member as a Timoshenko beam
+    (:func:`droprig.solver.pointhistory.timoshenko_terms`; defaults Euler–Bernoulli)."""
     f_s = float(beam.green(cond, L, EI, a, a))
     if f_s <= 0.0:
         raise OverSupportError("at", a, "a point off the supports (the member does not "
@@ -193,7 +197,7 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     # the integrator and settings of the verdict's own point histories
     t = _member_history(cond, L, EI, mu, a, float(r["M"][()]), float(r["h"][()]), f_th,
                         float(r["F_yield"][()]), float(r["stroke"][()]),
-                        float(r["weight"][()]))
+                        float(r["weight"][()]), kGA, rhoI)
     # the table's mass ratio of the member struck alone (the verification's r)
     amp = amplification.amplification(M, float(e.effective_mass), max(f_c, 0.0), f_s,
                                       struck_mass=struck_mass, cond=cond, xi=a / L)
@@ -270,10 +274,12 @@ def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, 
                                 dynamic_amplification=True))
     imp = c[Impact]
     F_y = float(imp.F_crush[0])
+    kGA, rhoI = pointhistory.timoshenko_terms(section, grade)
     return _verify(cond, L, grade.E * section.Ix, section.mass_per_length, a, mass, h, f_c,
                    beam_mass and cushion_stiffness is None, scaled_mass=True,
                    F_yield=F_y, stroke=float(section.tf),
-                   chain_factors=(float(imp.F[0]), _factors(c[DynamicAmplification], 0)))
+                   chain_factors=(float(imp.F[0]), _factors(c[DynamicAmplification], 0)),
+                   kGA=kGA, rhoI=rhoI)
 
 
 def _factors(da: DynamicAmplification, i: int) -> dict[str, float]:
@@ -302,7 +308,8 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     source) — the slab moves with the member it sits on. By default the history
     carries the steel's mass alone, as the verdict's point histories and the
     amplification's calibration do; the option shows how far that idealisation moves
-    the comparison (README, "Status")."""
+    the comparison (README, "Status"). The member is a Timoshenko beam
+    (:func:`droprig.solver.pointhistory.timoshenko_terms`)."""
     from droprig.solver.chain import Impact, LoadInputs, StruckMass, energy_fall, slab_frame
     from droprig.solver.evaluate import governing_landing_chain, point_case
 
@@ -345,7 +352,8 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
                   bool(chain[StruckMass].m_e[0] > 0.0), scaled_mass=True,
                   F_yield=float(s["F_yield"]), stroke=float(s["stroke"]),
                   chain_factors=chain_factors, share=w,
-                  contact_force=float(chain[Impact].contact[0]))
+                  contact_force=float(chain[Impact].contact[0]),
+                  kGA=float(s["kGA"]), rhoI=float(s["rhoI"]))
 
     if not amplified:
         # the project's checks use the chain's energy method alone (amplification off
