@@ -75,8 +75,9 @@ def _run(args: argparse.Namespace) -> int:
     for n in ("lift", "bay", "load"):
         if getattr(args, n) is not None:
             raise _BadInputError(f"--{n}: needs a project FILE")
-    if getattr(args, "slab_mass", False):
-        raise _BadInputError("--slab-mass: needs a project FILE (one member has no deck)")
+    if getattr(args, "slab_mass", None) is not None:
+        flag = "--slab-mass" if args.slab_mass else "--steel-mass"
+        raise _BadInputError(f"{flag}: needs a project FILE (one member has no deck)")
     missing = [n for n in _MEMBER_REQUIRED if getattr(args, n) is None]
     if missing:
         raise _BadInputError(f"--{missing[0]}: missing; give a project FILE, or the member "
@@ -223,8 +224,8 @@ def _run_project(args: argparse.Namespace) -> int:
     selected = type(results)(cases=results.cases, bays=tuple(bays),
                              warnings=results.warnings)
     skipped_bays: list[tuple[object, str]] = []
-    rows = verification_table(project, selected, skipped=skipped_bays,
-                              slab_mass=args.slab_mass)
+    slab = getattr(args, "slab_mass", None) is not False  # the default: with the slab
+    rows = verification_table(project, selected, skipped=skipped_bays, slab_mass=slab)
     system: Any = project.settings.unit_system
     plots: list[str] = []
     if args.plots:
@@ -247,11 +248,11 @@ def _run_project(args: argparse.Namespace) -> int:
                 "chain_peak_force": r.chain_peak_force, **_as_json(r.verification, [])}
                for r in rows]
         print(json.dumps({"points": doc, "plots": plots, "skipped": len(bays) - len(rows),
-                          "slab_mass": bool(args.slab_mass), "caution": CAUTION},
+                          "slab_mass": slab, "caution": CAUTION},
                          indent=2))
         return EXIT_OK
     carried = ("its steel, the deck and the superimposed dead load over its tributary "
-               "width (--slab-mass)" if args.slab_mass else "its steel alone")
+               "width" if slab else "its steel alone (--steel-mass)")
     lines = [f"droprig verify — {args.file}: governing point of each bay, impact alone; "
              "the struck member modelled alone under its share of the load, carrying "
              f"the mass of {carried}, the rest of the path (other framing, deck, load underside, "

@@ -12,11 +12,23 @@ through its share (:func:`shared_load`: mass w²·M, weight w·W, speed v/w, con
 (f − w²·g_own)/w², so that its own spring and the contact's give the chain's total
 compliance f at the load); with w = 1 (``droprig check``, a point on one member) the
 whole load, as before. The member's mass per
-length is the one the chain's load path and struck-mass step read
-(``FloorModel.frame.mu``, the steel's); the other framing's and the slab's mass are
-not in the time history (raising the member's mass to the path's Rayleigh mass at
-the struck point was tried and fails near a support, where the member's own Rayleigh
-mass goes to zero and the ratio without bound). The contact is elastic–perfectly
+length (*the mass*) is the structure's: the steel and, over a deck, the deck's
+self-weight and the superimposed dead load over the member's tributary width
+(:func:`droprig.solver.chain.slab_frame`, lever rule — common practice, no source —
+the mass the chain's two-mass step and slab struck mass take). The deck bears on the
+member and follows it in the modes that carry its moment, shear and deflection (a
+beam's modal mass is the beam's plus what it supports: AISC Design Guide 11, 2nd ed.,
+§3.3, the beam mode's weight w = beam + slab + superimposed dead load — from memory);
+the steel's mass alone, as before stop 27, left the history lighter than the member
+the verdict checks and than the chain's own energy method. The lever rule moves the
+whole tributary strip at the member's speed; where the neighbouring members stay
+still, less of it moves (a strip spanning to a still neighbour moves about a third
+to half of its mass — common practice, no source), so the steel alone
+(``droprig verify --steel-mass``) brackets it from below. Deck-less (``droprig
+check``) it is the steel's. The other framing's mass is not in the time history
+(raising the member's mass to the path's Rayleigh mass at the struck point was tried
+and fails near a support, where the member's own Rayleigh mass goes to zero and the
+ratio without bound). The contact is elastic–perfectly
 plastic as the chain caps it: the crushing force of the deck concrete (or a steel
 deck's indentation) over the cover (the plate), a bare flange's local yield force over
 its thickness, or a crushable layer's force over its stroke
@@ -141,9 +153,11 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     condition name, L (m), a (m, kept 10⁻⁶·L off the ends), EI (N·m², the chain's:
     E·I_tr of the transformed section where the floor takes the member as composite,
     EN 1994-1-1 §5.4.2.2 / AISC 360-16 §I3, :func:`droprig.solver.composite.
-    transformed_inertia`; else E·Ix), the mass per length μ (kg/m, the frame's; 0 where
-    the project leaves member mass out, see the module docstring; ``mu_steel`` the
-    same), the Timoshenko terms κGA_v (N) and ρI (kg·m,
+    transformed_inertia`; else E·Ix), the mass per length μ (kg/m: over a deck the
+    steel plus the deck's self-weight and superimposed dead load over the tributary
+    width, :func:`droprig.solver.chain.slab_frame`; deck-less, the frame's — see the
+    module docstring, "The mass"; ``mu_steel`` the frame's alone, 0 where the project
+    leaves member mass out), the Timoshenko terms κGA_v (N) and ρI (kg·m,
     :func:`timoshenko_terms`), its share w and own compliance G(a, a) (m/N); and the
     chain's path compliance at the load f_all (m/N, the structure's under a crushable
     layer), the contact compliance beyond the
@@ -153,7 +167,13 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     over one of its supports (G = 0 there: the member does not move). The one source of
     the struck member for the chain's point histories and for
     :func:`droprig.solver.verification.verify_point`."""
-    from droprig.solver.chain import Compliance, Impact, LoadInputs, crush_depth_available
+    from droprig.solver.chain import (
+        Compliance,
+        Impact,
+        LoadInputs,
+        crush_depth_available,
+        slab_frame,
+    )
 
     d, inp, comp, imp = c.drop, c[LoadInputs], c[Compliance], c[Impact]
     path, fr = d.geo.path, d.fm.frame
@@ -177,7 +197,10 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     crushable = inp.crushable[sel]
     f_all = np.where(crushable, comp.f_struct[sel], comp.f[sel])
     f_c = np.maximum(f_all - g_m, 0.0)
-    mu_th = mu
+    # the mass the member moves: its steel and, over a deck, the deck's self-weight and
+    # the superimposed dead load over its tributary width (chain.slab_frame, the mass
+    # the chain's two-mass step takes) — module docstring, "The mass"
+    mu_th = slab_frame(d.fm).mu[m] if d.bare is None else mu
     # the member as a Timoshenko beam: the web's shear stiffness and the section's
     # rotary inertia (timoshenko_terms), per distinct member
     kGA = np.zeros(sel.size)

@@ -289,7 +289,7 @@ def _factors(da: DynamicAmplification, i: int) -> dict[str, float]:
 
 
 def verify_point(project: Project, zone_id: str, load_name: str, x: float,
-                 y: float, *, slab_mass: bool = False) -> PointVerification:
+                 y: float, *, slab_mass: bool = True) -> PointVerification:
     """A drop point (x, y in m) of load ``load_name`` of lift zone ``zone_id`` (see the
     module docstring for the idealisation). Raises :class:`ModelError` naming the
     zone, load or point when they do not exist or the point is not over a deck panel,
@@ -301,16 +301,16 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     :func:`droprig.solver.chain.crush_depth_available` (a concrete deck's cover, a
     steel deck's plate), or a crushable layer's force over its stroke.
 
-    ``slab_mass``: the member's mass per length also carries the deck's self-weight
-    and the level's superimposed dead load over its tributary width,
+    ``slab_mass`` (default): the member's mass per length also carries the deck's
+    self-weight and the level's superimposed dead load over its tributary width,
     μ + (g_deck + q_sd)·b/g (kg/m; :func:`droprig.solver.chain.slab_frame`, the mass
     the chain's two-mass step and struck mass take; lever rule, common practice, no
-    source) — the slab moves with the member it sits on. By default the history
-    carries the steel's mass alone, as the verdict's point histories and the
-    amplification's calibration do; the option shows how far that idealisation moves
-    the comparison (README, "Status"). The member is a Timoshenko beam
+    source) — the slab moves with the member it sits on, as the verdict's point
+    histories take it (:func:`droprig.solver.pointhistory.struck_member`). Off: the
+    steel's mass alone (the idealisation before stop 27), to show how far the mass
+    moves the comparison. The member is a Timoshenko beam
     (:func:`droprig.solver.pointhistory.timoshenko_terms`)."""
-    from droprig.solver.chain import Impact, LoadInputs, StruckMass, energy_fall, slab_frame
+    from droprig.solver.chain import Impact, LoadInputs, StruckMass, energy_fall
     from droprig.solver.evaluate import governing_landing_chain, point_case
 
     case = point_case(project, zone_id, load_name, x, y, opening=True,
@@ -337,9 +337,11 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
                          "member does not move)")
     # the member's own mass: the frame's μ, the steel's where the project leaves
     # member mass out of the struck mass (a time history needs the member's mass)
-    mu = float(s["mu"]) if float(s["mu"]) > 0.0 else member.section.mass_per_length
-    if slab_mass:
-        mu += float(slab_frame(fm).mu[int(s["member"])] - fm.frame.mu[int(s["member"])])
+    # (struck_member's μ carries the slab; without it, the steel's)
+    mu = float(s["mu"])
+    if not slab_mass:
+        mu = (float(s["mu_steel"]) if float(s["mu_steel"]) > 0.0
+              else member.section.mass_per_length)
     # the rest of the path in series: everything but the member's own spring under its
     # share w (f_all − w²·g_m; _verify takes f_all − g_m and the share)
     w = float(s["share"])
@@ -400,7 +402,7 @@ def _bay_name(level: Level, geo: Geometry) -> str:
 def verification_table(project: Project, results: object, *,
                        zone_id: str | None = None,
                        skipped: list[tuple[object, str]] | None = None,
-                       slab_mass: bool = False,
+                       slab_mass: bool = True,
                        ) -> tuple[PointVerification, ...]:
     """One :class:`PointVerification` per bay summary of ``results`` (a
     :class:`~droprig.solver.results.Results`), at the bay's governing point; bays whose
