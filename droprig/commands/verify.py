@@ -171,8 +171,8 @@ def _table(args: argparse.Namespace, section: str, grade: str, system: str, span
     ]
     if v.contact_assumed:
         lines.append("rigid contact: the time history takes a contact compliance of 0.1 % "
-                     "of the member's (a rigid hit on an Euler–Bernoulli member has no "
-                     "converged contact force); moment and deflection do not depend on it")
+                     "of the member's (a rigid hit converges slowly in the modes kept); "
+                     "moment and deflection do not depend on it")
     lines.append("")
     head = f"  {'':<24}{'energy method':>16}{'time history':>16}{'energy ÷ TH':>13}" \
            f"{'factor':>8}{'amplified':>16}"
@@ -184,9 +184,10 @@ def _table(args: argparse.Namespace, section: str, grade: str, system: str, span
                      f"{ratio:>13}{f:>8.2f}{fmt(f * e, quantity, sysu):>16}")
     lines.append("")
     lines.append("Energy method: Gere §9.10 with the Rayleigh struck mass (as droprig check). "
-                 "Time history: Euler–Bernoulli modes (Blevins Table 8-1), compression-only "
+                 "Time history: the member as a Timoshenko beam (web shear stiffness and "
+                 "rotary inertia; Blevins Table 8-1 mode shapes), compression-only "
                  "contact (capped by the bare flange's local yield force, as droprig "
-                 "check caps it), Newmark average acceleration. The amplified demand is "
+                 "check caps it), each phase in closed form. The amplified demand is "
                  "droprig check --amplified's: the energy method times the factor of its "
                  "amplification step — the member's own time history × "
                  f"{TH_MARGIN:.2f} (convergence margin) where the check runs "
