@@ -127,13 +127,8 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                                 M[ic], f_c[ic], f_s[ic], n_modes, cutoff, sections,
                                 kGA=kGA_a[ic], rhoI=rhoI_a[ic])
         kept = su["kept"].sum(axis=1)
-        # the window of the reference (timehistory.time_history)
-        T_sys = 2.0 * math.pi * np.sqrt((M[ic] + np.minimum(su["m_e"], mu[ic] * L[ic]))
-                                        * (f_s[ic] + f_c[ic]))
-        with np.errstate(divide="ignore", invalid="ignore"):
-            t_crush = np.where(np.isfinite(F_y[ic]), M[ic] * v0[ic] / (F_y[ic] - W[ic]),
-                               0.0)
-        t_end = duration * (np.maximum(su["T1"], T_sys) + t_crush)
+        t_end = _window(su, M[ic], mu[ic], L[ic], f_s[ic] + f_c[ic], F_y[ic], W[ic],
+                        v0[ic], duration)
         for sel in _groups(kept, group):
             N = int(kept[sel].max())
             run = _run(M=M[ic][sel], W=W[ic][sel], k=su["k"][sel], v0=v0[ic][sel],
@@ -154,19 +149,31 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                 history = run["history"]
             if np.any(run["chatter"]):
                 fallback.append(idx[run["chatter"]])
-    if fallback:
+    if fallback:  # chattering contacts: the Newmark reference
         fb = np.concatenate(fallback)
-        ref = timehistory.time_history_batched(conds[fb], L[fb], EI[fb], mu[fb], a[fb],
-                                               M[fb], h[fb], f_c[fb], F_yield=F_y[fb],
-                                               stroke=s_y[fb], weight=W[fb],
-                                               kGA=kGA_a[fb], rhoI=rhoI_a[fb],
-                                               n_modes=n_modes, cutoff=cutoff)
+        ref = timehistory.time_history_batched(
+            conds[fb], L[fb], EI[fb], mu[fb], a[fb], M[fb], h[fb], f_c[fb], F_yield=F_y[fb],
+            stroke=s_y[fb], weight=W[fb], kGA=kGA_a[fb], rhoI=rhoI_a[fb], n_modes=n_modes,
+            cutoff=cutoff)
         for key in out:
             out[key][fb] = getattr(ref, key)
     return TimeHistoryPeaks(force=out["force"], moment=out["moment"], shear=out["shear"],
                             deflection=out["deflection"], t_separation=out["t_separation"],
                             modes=modes, dt=out["dt"], steps=steps, history=history,
                             crush=out["crush"])
+
+
+def _window(su: dict[str, np.ndarray], M: np.ndarray, mu: np.ndarray, L: np.ndarray,
+            f: np.ndarray, F_y: np.ndarray, W: np.ndarray, v0: np.ndarray,
+            duration: float) -> np.ndarray:
+    """The run's end (s), the reference's window (:func:`droprig.solver.timehistory.
+    time_history`): ``duration`` × (the longer of the fundamental period and the loaded
+    period 2π√((M + min(mₑ, μL))·f), f the member's and contact compliance, m/N) plus
+    the crushing time M·v₀/(F_yield − W)."""
+    T_sys = 2.0 * math.pi * np.sqrt((M + np.minimum(su["m_e"], mu * L)) * f)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        t_crush = np.where(np.isfinite(F_y), M * v0 / (F_y - W), 0.0)
+    return duration * (np.maximum(su["T1"], T_sys) + t_crush)
 
 
 def _groups(kept: np.ndarray, group: int) -> Iterator[np.ndarray]:

@@ -747,6 +747,28 @@ _SETUP_KEYS = ("omega", "m_e", "inv_m", "kept", "f_k", "k", "pt", "Wd", "Wm",
                "Wv", "Rd", "Rm", "Rv", "T1")
 
 
+def _section_shapes(cond: EndCondition, lam: np.ndarray, L: np.ndarray, a: np.ndarray,
+                    sections: int) -> tuple[np.ndarray, ...]:
+    """The member's sections x (m, cases first: ``sections`` equal intervals, then just
+    left and just right of the load at ``a``) and the modes' shape and its first,
+    second and third derivatives there, φ, L·φ', L²·φ'', L³·φ''' (:func:`mode_shapes`,
+    :func:`mode_slopes`; each (cases, modes, sections))."""
+    P, N = L.size, lam.size
+    xi = np.linspace(0.0, 1.0, sections + 1)
+    eps = 1e-9
+    shp = (*mode_shapes(cond, lam, xi), mode_slopes(cond, lam, xi))
+    xa_l = np.clip(a - eps * L, 0.0, L)
+    xa_r = np.clip(a + eps * L, 0.0, L)
+    xs = np.concatenate([L[:, None] * xi[None, :], xa_l[:, None], xa_r[:, None]], axis=1)
+    at_l = (*mode_shapes(cond, lam, xa_l / L), mode_slopes(cond, lam, xa_l / L))
+    at_r = (*mode_shapes(cond, lam, xa_r / L), mode_slopes(cond, lam, xa_r / L))
+    out = [xs]
+    for j in (0, 3, 1, 2):  # φ, L·φ', L²·φ'', L³·φ'''
+        at_a = np.stack([at_l[j].T, at_r[j].T], axis=2)  # (P, N, 2)
+        out.append(np.concatenate([np.broadcast_to(shp[j], (P, N, xi.size)), at_a], axis=2))
+    return tuple(out)
+
+
 def _setup(cond: EndCondition, L: np.ndarray, EI: np.ndarray, mu: np.ndarray, a: np.ndarray,
            M: np.ndarray, f_c: np.ndarray, f_s: np.ndarray, n_modes: int,
            cutoff: float, sections: int = _N_SECTIONS, kGA: np.ndarray | None = None,
@@ -787,21 +809,7 @@ def _setup(cond: EndCondition, L: np.ndarray, EI: np.ndarray, mu: np.ndarray, a:
     k = 1.0 / f_k
     pt = np.where(kept, phi_a / np.sqrt(m_n), 0.0)  # φ̃ₙ(a); omitted modes stay at 0
 
-    # sections along the member (ξ grid plus both sides of the load)
-    xi = np.linspace(0.0, 1.0, sections + 1)
-    eps = 1e-9
-    shp = (*mode_shapes(cond, lam, xi), mode_slopes(cond, lam, xi))
-    x_grid = L[:, None] * xi[None, :]
-    xa_l = np.clip(a - eps * L, 0.0, L)
-    xa_r = np.clip(a + eps * L, 0.0, L)
-    xs = np.concatenate([x_grid, xa_l[:, None], xa_r[:, None]], axis=1)  # (P, S)
-    at_l = (*mode_shapes(cond, lam, xa_l / L), mode_slopes(cond, lam, xa_l / L))
-    at_r = (*mode_shapes(cond, lam, xa_r / L), mode_slopes(cond, lam, xa_r / L))
-    shp_a = [np.stack([at_l[j].T, at_r[j].T], axis=2) for j in range(4)]  # each (P, N, 2)
-    Phi = np.concatenate([np.broadcast_to(shp[0], (P, N, xi.size)), shp_a[0]], axis=2)
-    D2 = np.concatenate([np.broadcast_to(shp[1], (P, N, xi.size)), shp_a[1]], axis=2)
-    D3 = np.concatenate([np.broadcast_to(shp[2], (P, N, xi.size)), shp_a[2]], axis=2)
-    D1 = np.concatenate([np.broadcast_to(shp[3], (P, N, xi.size)), shp_a[3]], axis=2)
+    xs, Phi, D1, D2, D3 = _section_shapes(cond, lam, L, a, sections)
     Lc = L[:, None, None]
     EIc = EI[:, None, None]
     sq = np.sqrt(m_n)[:, :, None]
