@@ -82,10 +82,13 @@ def build_parser() -> argparse.ArgumentParser:
     _member_options(s, required=False)
     s.add_argument("--plots", default=None, metavar="DIR",
                    help="write force-, deflection- and moment-time plots (PNG) here")
-    s.add_argument("--slab-mass", action="store_true",
-                   help="with FILE: the struck member carries the deck's and the "
-                   "superimposed dead load's mass over its tributary width (default: "
-                   "the steel's mass alone, as the verdict's calibration)")
+    s.add_argument("--slab-mass", dest="slab_mass", action="store_const", const=True,
+                   default=None,
+                   help="with FILE (the default): the struck member carries its steel and "
+                   "the deck's and superimposed dead load's mass over its tributary width")
+    s.add_argument("--steel-mass", dest="slab_mass", action="store_const", const=False,
+                   help="with FILE: the struck member carries its steel's mass alone (to "
+                   "see how far the slab's mass moves the comparison)")
 
     s = sub.add_parser("analyse", aliases=["analyze"], help="every drop point of every lift zone")
     s.add_argument("file")

@@ -187,15 +187,21 @@ def test_member_options_or_file_required(capsys: pytest.CaptureFixture[str]) -> 
 
 
 def test_slab_mass_is_stated(capsys: pytest.CaptureFixture[str]) -> None:
-    """``--slab-mass`` says in the header and the JSON which mass the struck member
-    carries (tests/solver/test_verify_struck_member.py checks the mass by hand)."""
+    """The header and the JSON say which mass the struck member carries: by default
+    (and with ``--slab-mass``) its steel, the deck and the superimposed dead load;
+    with ``--steel-mass`` its steel alone (tests/solver/test_verify_struck_member.py
+    checks the mass by hand)."""
     one = ["verify", DEMO, "--bay", "1-2/B-C", "--load", "AHU-3 (old, drained)"]
-    rc, out, err = _run([*one, "--slab-mass"], capsys)
+    rc, out, err = _run(one, capsys)
     assert rc == 0, err
     assert "carrying the mass of its steel, the deck and the superimposed dead load" in out
     rc, out, err = _run([*one, "--slab-mass", "--json"], capsys)
     assert rc == 0 and json.loads(out)["slab_mass"] is True, err
     rc, out, err = _run([*one, "--json"], capsys)
+    assert rc == 0 and json.loads(out)["slab_mass"] is True, err
+    rc, out, err = _run([*one, "--steel-mass"], capsys)
+    assert rc == 0 and "carrying the mass of its steel alone" in out, err
+    rc, out, err = _run([*one, "--steel-mass", "--json"], capsys)
     assert rc == 0 and json.loads(out)["slab_mass"] is False, err
 
 

@@ -75,8 +75,9 @@ def _run(args: argparse.Namespace) -> int:
     for n in ("lift", "bay", "load"):
         if getattr(args, n) is not None:
             raise _BadInputError(f"--{n}: needs a project FILE")
-    if getattr(args, "slab_mass", False):
-        raise _BadInputError("--slab-mass: needs a project FILE (one member has no deck)")
+    if getattr(args, "slab_mass", None) is not None:
+        flag = "--slab-mass" if args.slab_mass else "--steel-mass"
+        raise _BadInputError(f"{flag}: needs a project FILE (one member has no deck)")
     missing = [n for n in _MEMBER_REQUIRED if getattr(args, n) is None]
     if missing:
         raise _BadInputError(f"--{missing[0]}: missing; give a project FILE, or the member "
@@ -170,8 +171,8 @@ def _table(args: argparse.Namespace, section: str, grade: str, system: str, span
     ]
     if v.contact_assumed:
         lines.append("rigid contact: the time history takes a contact compliance of 0.1 % "
-                     "of the member's (a rigid hit on an Euler–Bernoulli member has no "
-                     "converged contact force); moment and deflection do not depend on it")
+                     "of the member's (a rigid hit converges slowly in the modes kept); "
+                     "moment and deflection do not depend on it")
     lines.append("")
     head = f"  {'':<24}{'energy method':>16}{'time history':>16}{'energy ÷ TH':>13}" \
            f"{'factor':>8}{'amplified':>16}"
@@ -183,9 +184,10 @@ def _table(args: argparse.Namespace, section: str, grade: str, system: str, span
                      f"{ratio:>13}{f:>8.2f}{fmt(f * e, quantity, sysu):>16}")
     lines.append("")
     lines.append("Energy method: Gere §9.10 with the Rayleigh struck mass (as droprig check). "
-                 "Time history: Euler–Bernoulli modes (Blevins Table 8-1), compression-only "
+                 "Time history: the member as a Timoshenko beam (web shear stiffness and "
+                 "rotary inertia; Blevins Table 8-1 mode shapes), compression-only "
                  "contact (capped by the bare flange's local yield force, as droprig "
-                 "check caps it), Newmark average acceleration. The amplified demand is "
+                 "check caps it), each phase in closed form. The amplified demand is "
                  "droprig check --amplified's: the energy method times the factor of its "
                  "amplification step — the member's own time history × "
                  f"{TH_MARGIN:.2f} (convergence margin) where the check runs "
@@ -223,8 +225,8 @@ def _run_project(args: argparse.Namespace) -> int:
     selected = type(results)(cases=results.cases, bays=tuple(bays),
                              warnings=results.warnings)
     skipped_bays: list[tuple[object, str]] = []
-    rows = verification_table(project, selected, skipped=skipped_bays,
-                              slab_mass=args.slab_mass)
+    slab = getattr(args, "slab_mass", None) is not False  # the default: with the slab
+    rows = verification_table(project, selected, skipped=skipped_bays, slab_mass=slab)
     system: Any = project.settings.unit_system
     plots: list[str] = []
     if args.plots:
@@ -247,11 +249,11 @@ def _run_project(args: argparse.Namespace) -> int:
                 "chain_peak_force": r.chain_peak_force, **_as_json(r.verification, [])}
                for r in rows]
         print(json.dumps({"points": doc, "plots": plots, "skipped": len(bays) - len(rows),
-                          "slab_mass": bool(args.slab_mass), "caution": CAUTION},
+                          "slab_mass": slab, "caution": CAUTION},
                          indent=2))
         return EXIT_OK
     carried = ("its steel, the deck and the superimposed dead load over its tributary "
-               "width (--slab-mass)" if args.slab_mass else "its steel alone")
+               "width" if slab else "its steel alone (--steel-mass)")
     lines = [f"droprig verify — {args.file}: governing point of each bay, impact alone; "
              "the struck member modelled alone under its share of the load, carrying "
              f"the mass of {carried}, the rest of the path (other framing, deck, load underside, "

@@ -2,9 +2,10 @@
 
 For the drop point on the trace panel it runs :func:`droprig.solver.verify_point`
 (through :func:`droprig.report.verify_plots.point_verification_figures`: the struck
-member modelled alone, Euler–Bernoulli modes — Blevins 1979 Table 8-1 — Newmark
-average acceleration, Chopra §5.4, the contact capped by crushing as the verdict caps
-it) and shows its force-, deflection- and moment-time plots beside a table of the
+member modelled alone as a Timoshenko beam — Blevins 1979 Table 8-1 mode shapes with
+Timoshenko's frequencies and shears — carrying its steel and the deck over its
+tributary width, each phase in closed form, the contact capped by crushing as the
+verdict caps it) and shows its force-, deflection- and moment-time plots beside a table of the
 energy method's peaks, the time history's peaks and the demands the verdict uses
 (dynamic amplification), with the caution. Nothing is computed here.
 """

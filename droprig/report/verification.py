@@ -2,8 +2,10 @@
 beside the time history (Qt-free, no reportlab: rows of text the annex lays out).
 
 Numbers from :func:`droprig.solver.verification_table` (the struck member alone with
-the whole load, the rest of the path as a spring in series; Euler–Bernoulli modes,
-Blevins 1979 Table 8-1; Newmark average acceleration, Chopra §5.4; the energy method
+the whole load, the rest of the path as a spring in series; a Timoshenko member —
+Blevins 1979 Table 8-1 mode shapes with Timoshenko's frequencies and shears,
+:func:`droprig.solver.timehistory.timoshenko_modes` — carrying its steel and the deck
+over its tributary width; each phase solved in closed form; the energy method
 of Gere 7th ed. §9.10 with the Rayleigh struck mass). Units: the project's system.
 """
 
@@ -26,7 +28,9 @@ amplification) ÷ time history (1 or more: the verdict covers the time history).
 
 VERIFICATION_NOTE = (
     "Time-history check of the energy method at each bay's governing point (impact alone): "
-    "the struck member's Euler–Bernoulli modes (Blevins Table 8-1), the load on a "
+    "the struck member as a Timoshenko beam (shear deformation and rotary inertia; the "
+    "mode shapes of Blevins Table 8-1) carrying its steel and the deck and superimposed "
+    "dead load over its tributary width, the load on a "
     "compression-only contact spring capped by crushing as the verdict caps it (deck "
     "concrete or crushable layer), each phase solved in closed form by modal "
     "superposition through the rebound. The energy method is the analysis's own: its "

@@ -3,9 +3,10 @@ fast integrator of the point histories in the verdict.
 
 The model is that of :mod:`droprig.solver.timehistory` (the Newmark integration kept
 beside it as the plain reference; same modes, residual flexibility, contact and
-output sections): the member's kept Euler–Bernoulli modes (mass-normalised
-coordinates q̃ₙ, circular frequencies ωₙ, Blevins 1979 Table 8-1), the load's mass M
-on a contact spring k = 1/(f_c + f_res), undamped. The struck system is piecewise
+output sections): the member's kept modes (mass-normalised coordinates q̃ₙ,
+circular frequencies ωₙ; Euler–Bernoulli, Blevins 1979 Table 8-1, or with ``kGA`` and
+``rhoI`` the Timoshenko member of :func:`droprig.solver.timehistory.timoshenko_modes`),
+the load's mass M on a contact spring k = 1/(f_c + f_res), undamped. The struck system is piecewise
 linear, and each phase has an exact solution (Chopra, *Dynamics of Structures* 4th
 ed., §10.2 and §12.1–12.4, modal superposition of an undamped linear system; Clough &
 Penzien 2nd ed. §11-1 and §12-2 — from memory):
@@ -89,7 +90,8 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                        samples_per_period: int = DEFAULT_SAMPLES_PER_PERIOD,
                        duration: float = 1.25, record: bool = False,
                        sections: int = DEFAULT_SECTIONS, group: int = 256,
-                       weight: ArrayLike | None = None) -> TimeHistoryPeaks:
+                       weight: ArrayLike | None = None, kGA: ArrayLike = math.inf,
+                       rhoI: ArrayLike = 0.0) -> TimeHistoryPeaks:
     """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
     condition ``cond``, one name or one per case; span L m, EI N·m², μ kg/m) at
     ``a`` (m) through a contact compliance f_c (m/N), with an elastic–perfectly
@@ -99,11 +101,14 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     form (module docstring). ``record`` keeps the sampled histories (one case).
     ``dt`` in the result is each case's sample spacing in its last phase (s) and
     ``steps`` the largest number of samples of a case. ``weight`` (N, default M·g):
-    as in :func:`droprig.solver.timehistory.time_history`."""
+    as in :func:`droprig.solver.timehistory.time_history`; ``kGA`` (N) and ``rhoI``
+    (kg·m): the Timoshenko member's shear stiffness and rotary inertia, as there
+    (defaults: Euler–Bernoulli)."""
     if samples_per_period < 4:
         raise ValueError("samples_per_period: at least 4 samples per period")
     (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = timehistory.checked_case(
         cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record, weight)
+    kGA_a, rhoI_a = timehistory.section_terms(kGA, rhoI, L.shape)
     P = L.size
     conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
     g = impact.G
@@ -119,15 +124,11 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     for cnd in dict.fromkeys(conds.tolist()):
         ic = np.flatnonzero(conds == cnd)
         su = timehistory._setup(cast(EndCondition, cnd), L[ic], EI[ic], mu[ic], a[ic],
-                                M[ic], f_c[ic], f_s[ic], n_modes, cutoff, sections)
+                                M[ic], f_c[ic], f_s[ic], n_modes, cutoff, sections,
+                                kGA=kGA_a[ic], rhoI=rhoI_a[ic])
         kept = su["kept"].sum(axis=1)
-        # the window of the reference (timehistory.time_history)
-        T_sys = 2.0 * math.pi * np.sqrt((M[ic] + np.minimum(su["m_e"], mu[ic] * L[ic]))
-                                        * (f_s[ic] + f_c[ic]))
-        with np.errstate(divide="ignore", invalid="ignore"):
-            t_crush = np.where(np.isfinite(F_y[ic]), M[ic] * v0[ic] / (F_y[ic] - W[ic]),
-                               0.0)
-        t_end = duration * (np.maximum(su["T1"], T_sys) + t_crush)
+        t_end = _window(su, M[ic], mu[ic], L[ic], f_s[ic] + f_c[ic], F_y[ic], W[ic],
+                        v0[ic], duration)
         for sel in _groups(kept, group):
             N = int(kept[sel].max())
             run = _run(M=M[ic][sel], W=W[ic][sel], k=su["k"][sel], v0=v0[ic][sel],
@@ -148,18 +149,31 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                 history = run["history"]
             if np.any(run["chatter"]):
                 fallback.append(idx[run["chatter"]])
-    if fallback:
+    if fallback:  # chattering contacts: the Newmark reference
         fb = np.concatenate(fallback)
-        ref = timehistory.time_history_batched(conds[fb], L[fb], EI[fb], mu[fb], a[fb],
-                                               M[fb], h[fb], f_c[fb], F_yield=F_y[fb],
-                                               stroke=s_y[fb], weight=W[fb],
-                                               n_modes=n_modes, cutoff=cutoff)
+        ref = timehistory.time_history_batched(
+            conds[fb], L[fb], EI[fb], mu[fb], a[fb], M[fb], h[fb], f_c[fb], F_yield=F_y[fb],
+            stroke=s_y[fb], weight=W[fb], kGA=kGA_a[fb], rhoI=rhoI_a[fb], n_modes=n_modes,
+            cutoff=cutoff)
         for key in out:
             out[key][fb] = getattr(ref, key)
     return TimeHistoryPeaks(force=out["force"], moment=out["moment"], shear=out["shear"],
                             deflection=out["deflection"], t_separation=out["t_separation"],
                             modes=modes, dt=out["dt"], steps=steps, history=history,
                             crush=out["crush"])
+
+
+def _window(su: dict[str, np.ndarray], M: np.ndarray, mu: np.ndarray, L: np.ndarray,
+            f: np.ndarray, F_y: np.ndarray, W: np.ndarray, v0: np.ndarray,
+            duration: float) -> np.ndarray:
+    """The run's end (s), the reference's window (:func:`droprig.solver.timehistory.
+    time_history`): ``duration`` × (the longer of the fundamental period and the loaded
+    period 2π√((M + min(mₑ, μL))·f), f the member's and contact compliance, m/N) plus
+    the crushing time M·v₀/(F_yield − W)."""
+    T_sys = 2.0 * math.pi * np.sqrt((M + np.minimum(su["m_e"], mu * L)) * f)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        t_crush = np.where(np.isfinite(F_y), M * v0 / (F_y - W), 0.0)
+    return duration * (np.maximum(su["T1"], T_sys) + t_crush)
 
 
 def _groups(kept: np.ndarray, group: int) -> Iterator[np.ndarray]:

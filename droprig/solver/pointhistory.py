@@ -2,24 +2,39 @@
 on the energy method's demands that it gives.
 
 Idealisation: the struck member — the deck member of the load path carrying the
-larger lever-rule share w — is an Euler–Bernoulli beam (its end condition, span, the
-chain's EI) struck at its own position ``a``; everything else of the path (the other
+larger lever-rule share w — is a Timoshenko beam (its end condition, span, the
+chain's EI, the web's shear stiffness κGA_v and the section's rotary inertia ρI,
+:func:`timoshenko_terms`; :func:`droprig.solver.timehistory.timoshenko_modes`)
+struck at its own position ``a``; everything else of the path (the other
 framing and the columns, the deck's indentation and strip, the load's underside, a
 spring mat) is a massless spring in series with the contact. The member sees the load
 through its share (:func:`shared_load`: mass w²·M, weight w·W, speed v/w, contact
 (f − w²·g_own)/w², so that its own spring and the contact's give the chain's total
 compliance f at the load); with w = 1 (``droprig check``, a point on one member) the
 whole load, as before. The member's mass per
-length is the one the chain's load path and struck-mass step read
-(``FloorModel.frame.mu``, the steel's); the other framing's and the slab's mass are
-not in the time history (raising the member's mass to the path's Rayleigh mass at
-the struck point was tried and fails near a support, where the member's own Rayleigh
-mass goes to zero and the ratio without bound). The contact is elastic–perfectly
+length (*the mass*) is the structure's: the steel and, over a deck, the deck's
+self-weight and the superimposed dead load over the member's tributary width
+(:func:`droprig.solver.chain.slab_frame`, lever rule — common practice, no source —
+the mass the chain's two-mass step and slab struck mass take). The deck bears on the
+member and follows it in the modes that carry its moment, shear and deflection (a
+beam's modal mass is the beam's plus what it supports: AISC Design Guide 11, 2nd ed.,
+§3.3, the beam mode's weight w = beam + slab + superimposed dead load — from memory);
+the steel's mass alone, as before stop 27, left the history lighter than the member
+the verdict checks and than the chain's own energy method. The lever rule moves the
+whole tributary strip at the member's speed; where the neighbouring members stay
+still, less of it moves (a strip spanning to a still neighbour moves about a third
+to half of its mass — common practice, no source), so the steel alone
+(``droprig verify --steel-mass``) brackets it from below. Deck-less (``droprig
+check``) it is the steel's. The other framing's mass is not in the time history
+(raising the member's mass to the path's Rayleigh mass at the struck point was tried
+and fails near a support, where the member's own Rayleigh mass goes to zero and the
+ratio without bound). The contact is elastic–perfectly
 plastic as the chain caps it: the crushing force of the deck concrete (or a steel
 deck's indentation) over the cover (the plate), a bare flange's local yield force over
 its thickness, or a crushable layer's force over its stroke
-(:func:`droprig.solver.exacthistory.exact_time_history` with ``F_yield``/``stroke``:
-Euler–Bernoulli modes, Blevins 1979 Table 8-1; each phase — contact, crushing, free —
+(:func:`droprig.solver.exacthistory.exact_time_history` with ``F_yield``/``stroke``,
+``kGA``/``rhoI``: the Euler–Bernoulli mode shapes of Blevins 1979 Table 8-1 with
+Timoshenko frequencies and shears; each phase — contact, crushing, free —
 solved in closed form by modal superposition, Chopra 4th ed. §10–12; the Newmark
 integration of :mod:`droprig.solver.timehistory` is its plain reference).
 
@@ -58,6 +73,7 @@ from droprig.solver.beam import EndCondition
 from droprig.solver.loadpath import COND_NAMES
 
 if TYPE_CHECKING:
+    from droprig.model import Grade, Section
     from droprig.solver.chain import Chain
 
 __all__ = [
@@ -70,6 +86,7 @@ __all__ = [
     "point_history",
     "shared_load",
     "struck_member",
+    "timoshenko_terms",
 ]
 
 CONVERGENCE_SHORTFALL = 0.661
@@ -81,6 +98,10 @@ over 240 random cases (``scripts/convergence_point_history.py 240 20261203``: re
 TH_MARGIN = 1.75
 """Margin on the time history's peaks in the verdict: :data:`CONVERGENCE_SHORTFALL`
 + 5 %, rounded up to the next 5 %."""
+POISSON_STEEL = 0.3
+"""Poisson's ratio of structural steel (EN 1993-1-1 §3.2.6(1): ν = 0.3,
+G = E/(2(1 + ν)) ≈ 81 000 N/mm² for E = 210 000 N/mm²)."""
+
 TH_OPTIONS: dict[str, Any] = {"n_modes": 40, "cutoff": 8.0, "samples_per_period": 8}
 """The time history's settings in the verdict (``exacthistory`` defaults)."""
 
@@ -112,22 +133,47 @@ class PointHistory:
 QUANTITIES = ("force", "moment", "shear", "deflection")
 
 
+def timoshenko_terms(section: Section, grade: Grade) -> tuple[float, float]:
+    """The shear stiffness κGA_v (N) and rotary inertia ρI (kg·m) of a steel I-section
+    as a Timoshenko member (:func:`droprig.solver.timehistory.timoshenko_modes`).
+
+    κA = A_v = d·t_w, the web area the shear checks take (AISC 360-16 G2.1, A_w = d·t_w;
+    an I-section's web carries its shear — Cowper, J. Appl. Mech. 33 (1966) gives κ·A
+    within about 10 % of it for rolled I-sections bent about the strong axis, test
+    beside it); G = E/(2(1 + ν)), ν = :data:`POISSON_STEEL`; ρI = (m/A)·I_x, the steel's
+    density (mass per length over area) times the second moment of area. SI units."""
+    G = grade.E / (2.0 * (1.0 + POISSON_STEEL))
+    kGA = G * section.d * section.tw
+    rhoI = section.mass_per_length / section.A * section.Ix
+    return kGA, rhoI
+
+
 def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     """The modelled member at the points ``sel`` (indices): member index, end
     condition name, L (m), a (m, kept 10⁻⁶·L off the ends), EI (N·m², the chain's:
     E·I_tr of the transformed section where the floor takes the member as composite,
     EN 1994-1-1 §5.4.2.2 / AISC 360-16 §I3, :func:`droprig.solver.composite.
-    transformed_inertia`; else E·Ix), the mass per length μ (kg/m, the frame's; 0 where
-    the project leaves member mass out, see the module docstring), its share w and
-    own compliance G(a, a) (m/N); and the chain's path compliance at the load f_all
-    (m/N, the structure's under a crushable layer), the contact compliance beyond the
+    transformed_inertia`; else E·Ix), the mass per length μ (kg/m: over a deck the
+    steel plus the deck's self-weight and superimposed dead load over the tributary
+    width, :func:`droprig.solver.chain.slab_frame`; deck-less, the frame's — see the
+    module docstring, "The mass"; ``mu_steel`` the frame's alone, 0 where the project
+    leaves member mass out), the Timoshenko terms κGA_v (N) and ρI (kg·m,
+    :func:`timoshenko_terms`), its share w and own compliance G(a, a) (m/N); and the
+    chain's path compliance at the load f_all (m/N, the structure's under a crushable
+    layer), the contact compliance beyond the
     member f_c (m/N, ≥ 0), the crushing force (N, ∞ none or not above the weight) and
     its stroke (m, :func:`droprig.solver.chain.crush_depth_available`, or the
     layer's). ``over_support`` is true where the path's own position of the member is
     over one of its supports (G = 0 there: the member does not move). The one source of
     the struck member for the chain's point histories and for
     :func:`droprig.solver.verification.verify_point`."""
-    from droprig.solver.chain import Compliance, Impact, LoadInputs, crush_depth_available
+    from droprig.solver.chain import (
+        Compliance,
+        Impact,
+        LoadInputs,
+        crush_depth_available,
+        slab_frame,
+    )
 
     d, inp, comp, imp = c.drop, c[LoadInputs], c[Compliance], c[Impact]
     path, fr = d.geo.path, d.fm.frame
@@ -151,13 +197,24 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     crushable = inp.crushable[sel]
     f_all = np.where(crushable, comp.f_struct[sel], comp.f[sel])
     f_c = np.maximum(f_all - g_m, 0.0)
-    mu_th = mu
+    # the mass the member moves: its steel and, over a deck, the deck's self-weight and
+    # the superimposed dead load over its tributary width (chain.slab_frame, the mass
+    # the chain's two-mass step takes) — module docstring, "The mass"
+    mu_th = slab_frame(d.fm).mu[m] if d.bare is None else mu
+    # the member as a Timoshenko beam: the web's shear stiffness and the section's
+    # rotary inertia (timoshenko_terms), per distinct member
+    kGA = np.zeros(sel.size)
+    rhoI = np.zeros(sel.size)
+    for mi in np.unique(m):
+        mem = d.fm.level.members[int(mi)]
+        kGA[m == mi], rhoI[m == mi] = timoshenko_terms(mem.section, mem.grade)
     W = inp.W[sel]
     F_y = np.where(crushable, inp.F_c[sel], imp.F_crush[sel])
     stroke = np.where(crushable, inp.s_c[sel], crush_depth_available(c))
     F_y = np.where(np.isfinite(F_y) & (F_y > W), F_y, np.inf)
     w = np.clip(share[rows, k], 0.5, 1.0)  # the larger of two shares summing to 1
-    return {"member": m, "cond": cond, "L": L, "a": a, "EI": EI, "mu": mu_th, "g_m": g_m,
+    return {"member": m, "cond": cond, "L": L, "a": a, "EI": EI, "mu": mu_th, "kGA": kGA,
+            "rhoI": rhoI, "mu_steel": mu, "g_m": g_m,
             "f_c": f_c, "F_yield": F_y, "stroke": stroke, "share": w, "f_all": f_all,
             "over_support": ~(g_path > 0.0)}
 
@@ -219,6 +276,7 @@ def point_history(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray,
     t = exacthistory.exact_time_history(s["cond"], s["L"], s["EI"], s["mu"], s["a"],
                                         r["M"], r["h"], f_th, F_yield=r["F_yield"],
                                         stroke=r["stroke"], weight=r["weight"],
+                                        kGA=s["kGA"], rhoI=s["rhoI"],
                                         **{**TH_OPTIONS, **th_options})
     energy = member_energy_peaks(s, F)
     th = {q: np.asarray(getattr(t, q), float) for q in QUANTITIES}

@@ -10,6 +10,18 @@ Model (SI units: m, N, kg, s; downward positive):
   Natural Frequency and Mode Shape* (1979), Table 8-1 (cases pinned–pinned,
   clamped–clamped, clamped–pinned, clamped–free); Clough & Penzien, *Dynamics of
   Structures* 2nd ed., Ch. 18.
+* With ``kGA`` (the web's shear stiffness κG·A_v, N) and ``rhoI`` (the section's
+  rotary inertia ρ·I, kg·m) the member is a Timoshenko beam (Timoshenko 1921): each
+  kept mode keeps its Euler–Bernoulli shape φₙ for the deflection, with the section
+  rotation ψ = (Θ/W)ₙ·φₙ', and takes the frequency of that pair
+  (:func:`timoshenko_modes`: exact for the simply supported member — Han, Benaroya &
+  Wei, J. Sound Vib. 225 (1999) — the Rayleigh quotient of the pair for the other end
+  conditions); moments read EI·ψ', shears κGA·(w' − ψ) (from the mode's moment
+  equation), the static fields add the shear deflection (:func:`shear_deflection`).
+  Shear then travels at c_s = √(κGA/μ) (a support feels a blow no sooner than its
+  distance over c_s) and the end shear under a short pulse converges in the modes kept
+  (tests/solver/test_timoshenko_history.py). The defaults (κGA = ∞, ρI = 0) are the
+  Euler–Bernoulli member.
 * The load (mass M, weight W = M·g) touches the member at ``a`` with velocity
   v₀ = √(2gh) through a contact spring of compliance f_c (m/N: mats, the load's
   underside, the deck's local compliance — the series springs of the energy method).
@@ -71,9 +83,13 @@ __all__ = [
     "eigenvalue_parameters",
     "energy_method_peaks",
     "mode_shapes",
+    "mode_slopes",
     "natural_frequencies",
+    "section_terms",
+    "shear_deflection",
     "time_history",
     "time_history_batched",
+    "timoshenko_modes",
 ]
 
 DEFAULT_MODES = 40
@@ -179,12 +195,30 @@ def mode_shapes(cond: str, lam: np.ndarray, xi: ArrayLike) -> tuple[np.ndarray, 
     return phi, d2, d3
 
 
+def mode_slopes(cond: str, lam: np.ndarray, xi: ArrayLike) -> np.ndarray:
+    """L·φ'(ξ) of :func:`mode_shapes`' modes, shape (n modes, len ξ), dimensionless:
+    pinned–pinned λ·cos λξ; the others λ·(sinh λξ + sin λξ − σ(cosh λξ − cos λξ))
+    (the derivative of Blevins 1979 Table 8-1's form), evaluated without cancellation
+    as in :func:`mode_shapes`."""
+    xi = np.atleast_1d(np.asarray(xi, float))
+    lam = np.asarray(lam, float)[:, None]
+    z = lam * xi[None, :]
+    if cond == "simple":
+        return lam * np.cos(z)
+    c = _sigma_complement(cond, lam)
+    sigma = 1.0 - c * np.exp(-lam)
+    # sinh z − σ cosh z = −e^(−z) + (1 − σ) cosh z
+    s_c = -np.exp(-z) + 0.5 * c * (np.exp(z - lam) + np.exp(-z - lam))
+    return lam * (s_c + np.sin(z) + sigma * np.cos(z))
+
+
 @dataclass(frozen=True)
 class _Modal:
     """Modal data of one end condition at unit length: λ, ∫φ²dξ and shapes."""
 
     lam: np.ndarray
     norm: np.ndarray  # ∫₀¹ φ² dξ
+    norm1: np.ndarray  # ∫₀¹ (dφ/dξ)² dξ
 
 
 _MODAL_CACHE: dict[tuple[str, int], _Modal] = {}
@@ -200,8 +234,75 @@ def _modal(cond: str, n: int) -> _Modal:
               + 0.5 * (edges[1:, None] - edges[:-1, None]) * t[None, :]).ravel()
         wt = (0.5 * (edges[1:, None] - edges[:-1, None]) * w[None, :]).ravel()
         phi = mode_shapes(cond, lam, xi)[0]
-        _MODAL_CACHE[key] = _Modal(lam=lam, norm=phi**2 @ wt)
+        slope = mode_slopes(cond, lam, xi)
+        _MODAL_CACHE[key] = _Modal(lam=lam, norm=phi**2 @ wt, norm1=slope**2 @ wt)
     return _MODAL_CACHE[key]
+
+
+def timoshenko_modes(lam: np.ndarray, norm: np.ndarray, norm1: np.ndarray,
+                     L: np.ndarray, EI: np.ndarray, mu: np.ndarray, kGA: np.ndarray,
+                     rhoI: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Frequencies of a Timoshenko member (shear deformation and rotary inertia) in
+    the Euler–Bernoulli mode shapes φₙ, per case (rows) and mode (columns).
+
+    Each mode is the Rayleigh–Ritz pair w = W·φₙ(x), ψ = Θ·φₙ'(x) (deflection and
+    section rotation; it meets the end conditions of a Timoshenko member: w = ψ = 0
+    at a clamp, w = 0 and M = EI·ψ' = 0 at a pin). With the energies
+    ½∫EI·ψ'² + ½∫κGA·(w' − ψ)² and ½∫μ·ẇ² + ½∫ρI·ψ̇² (Timoshenko 1921) the pair
+    has the 2 × 2 stiffness [[g, −g], [−g, e + g]] and mass diag(m, j), per
+    ∫φ² dx: m = μ, e = EI·λ⁴/L⁴ (∫φ''² = λ⁴/L⁴·∫φ² for these ends), g = κGA·q/L²,
+    j = ρI·q/L², q = ∫(dφ/dξ)²dξ / ∫φ²dξ. Its lower root
+    (m·j/g)·ω⁴ − (j + m·(1 + e/g))·ω² + e = 0 is the flexural frequency
+    ω² = 2e / (B + √(B² − 4·A·e)), A = m·j/g, B = j + m·(1 + e/g), and Θ/W = 1 − ω²·m/g.
+    For the simply supported member (φ = sin nπξ, q = (nπ)²) this is exactly the
+    lower branch of Timoshenko's frequency equation
+    (κGA·k² − μω²)(EI·k² + κGA − ρI·ω²) = (κGA·k)², k = nπ/L (Han, Benaroya & Wei,
+    J. Sound Vib. 225 (1999) §3; Blevins 1979 ch. 8 — from memory); for the other
+    end conditions it is the Rayleigh quotient of that pair (an upper bound of the
+    lowest), a stated approximation checked against a Timoshenko finite-element
+    model in the tests. κGA = ∞ and ρI = 0 give the Euler–Bernoulli ωₙ back; κGA = ∞
+    alone gives Rayleigh's rotary-inertia beam. The second (shear) spectrum is not
+    modelled (its modes are stiff in the transverse direction and go into the
+    residual flexibility).
+
+    Arguments: λₙ, ∫φ²dξ, ∫(dφ/dξ)²dξ (modes,), L (m), EI (N·m²), μ (kg/m), κGA (N,
+    may be ∞), ρI (kg·m) per case. Returns ωₙ (rad/s), Θ/W (dimensionless, 1 for
+    Euler–Bernoulli) and the modal mass mₙ = L·∫φ²dξ·(μ + j·(Θ/W)²) (kg, the mode's
+    generalised mass with W = 1)."""
+    Lc, EIc, muc = L[:, None], EI[:, None], mu[:, None]
+    q = (norm1 / norm)[None, :]
+    e = EIc * lam[None, :] ** 4 / Lc**4
+    with np.errstate(divide="ignore"):
+        gam = np.where(np.isfinite(kGA), 1.0 / kGA, 0.0)[:, None] * Lc**2 / q  # 1/g
+    j = rhoI[:, None] * q / Lc**2
+    A = muc * j * gam
+    B = j + muc * (1.0 + e * gam)
+    omega2 = 2.0 * e / (B + np.sqrt(np.maximum(B**2 - 4.0 * A * e, 0.0)))
+    ratio = 1.0 - omega2 * muc * gam
+    m_n = Lc * norm[None, :] * (muc + j * ratio**2)
+    return np.sqrt(omega2), ratio, m_n
+
+
+def shear_deflection(cond: EndCondition, L: np.ndarray, x: np.ndarray, a: np.ndarray,
+                     kGA: np.ndarray) -> np.ndarray:
+    """Shear part of a member's deflection at x (m) under a unit load at a (m/N):
+    w_s' = V/κGA with the Euler–Bernoulli shear V = dM/dx (:func:`beam.unit_moment`,
+    sagging +), w_s(0) = 0 and, for a member supported at both ends, w_s(L) = 0:
+    w_s(x) = [M(x) − M(0) − (x/L)·(M(L) − M(0))]/κGA (cantilever: [M(x) − M(0)]/κGA).
+    Exact for the simply supported member and the cantilever (statically
+    determinate); for the fixed and propped members it is the unit-load (virtual work)
+    value with the released member as the virtual system and the Euler–Bernoulli
+    shear as the real one, first-order exact in the shear flexibility
+    (Timoshenko & Gere, *Mechanics of Materials*, shear deflections; Roark 7th ed.
+    §8.10 — from memory). κGA = ∞ gives 0. Arrays broadcast; kGA in N."""
+    M0 = beam.unit_moment(cond, L, np.zeros_like(a), a)
+    Mx = beam.unit_moment(cond, L, x, a)
+    ws = Mx - M0
+    if cond != "cantilever":
+        ws = ws - x / L * (beam.unit_moment(cond, L, L, a) - M0)
+    with np.errstate(divide="ignore"):
+        inv = np.where(np.isfinite(kGA), 1.0 / kGA, 0.0)
+    return ws * inv
 
 
 # --------------------------------------------------------------------------- results
@@ -334,6 +435,22 @@ def checked_case(cond: str | ArrayLike, values: tuple[ArrayLike, ...], record: b
     return arrs, f_s, W
 
 
+def section_terms(kGA: ArrayLike, rhoI: ArrayLike, shape: tuple[int, ...]
+                  ) -> tuple[np.ndarray, np.ndarray]:
+    """κGA (N) and ρI (kg·m) of a Timoshenko member broadcast to the cases' shape
+    and checked: κGA > 0 (∞: no shear deformation), ρI ≥ 0 and finite. Raises
+    ValueError naming the field and its allowed range."""
+    kg = np.broadcast_to(np.asarray(kGA, float), shape).copy()
+    ri = np.broadcast_to(np.asarray(rhoI, float), shape).copy()
+    if np.any(np.isnan(kg)) or np.any(~(kg > 0.0)):
+        raise ValueError("kGA: the web's shear stiffness κG·A_v must be > 0 N "
+                         "(inf: no shear deformation)")
+    if np.any(~np.isfinite(ri)) or np.any(ri < 0.0):
+        raise ValueError("rhoI: the section's rotary inertia ρ·I must be a finite "
+                         "number ≥ 0 kg·m")
+    return kg, ri
+
+
 def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu: ArrayLike,
                  a: ArrayLike,
                  M: ArrayLike, h: ArrayLike, f_c: ArrayLike = 0.0, *,
@@ -341,7 +458,8 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
                  steps_per_period: int = DEFAULT_STEPS_PER_PERIOD,
                  duration: float = 1.25, record: bool = False,
                  F_yield: ArrayLike = math.inf, stroke: ArrayLike = math.inf,
-                 weight: ArrayLike | None = None, _plan: bool = False) -> TimeHistoryPeaks:
+                 weight: ArrayLike | None = None, kGA: ArrayLike = math.inf,
+                 rhoI: ArrayLike = 0.0, _plan: bool = False) -> TimeHistoryPeaks:
     """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
     condition ``cond``, span L m, EI N·m², μ kg/m) at ``a`` (m from the origin end)
     through a contact compliance f_c (m/N); model and sources in the module docstring.
@@ -363,11 +481,17 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
     ``weight`` (N, default M·g): the load's weight where it is not M·g — a load
     seen through a generalised coordinate (:func:`droprig.solver.pointhistory.
     shared_load`); the load then falls freely at W/M.
+
+    ``kGA`` (N, the web's shear stiffness κG·A_v; ∞ none) and ``rhoI`` (kg·m, the
+    section's rotary inertia ρ·I) make the member a Timoshenko beam
+    (:func:`timoshenko_modes`, :func:`section_terms`); the defaults are the
+    Euler–Bernoulli member.
     """
     (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = checked_case(
         cond, (L, EI, mu, a, M, h, f_c, F_yield, stroke), record, weight)
+    kGA_a, rhoI_a = section_terms(kGA, rhoI, L.shape)
     v0 = np.sqrt(2.0 * impact.G * h)
-    su = _merged_setup(cond, L, EI, mu, a, M, f_c, f_s, n_modes, cutoff)
+    su = _merged_setup(cond, L, EI, mu, a, M, f_c, f_s, n_modes, cutoff, kGA_a, rhoI_a)
     dt, t_end = _step_and_window(su, M, mu, L, f_s, f_c, F_y, W, v0, steps_per_period,
                                  duration)
     if _plan:  # steps each case needs (for time_history_batched); nothing integrated
@@ -381,18 +505,20 @@ def time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike, mu
 
 def _merged_setup(cond: EndCondition | ArrayLike, L: np.ndarray, EI: np.ndarray,
                   mu: np.ndarray, a: np.ndarray, M: np.ndarray, f_c: np.ndarray,
-                  f_s: np.ndarray, n_modes: int, cutoff: float) -> dict[str, np.ndarray]:
+                  f_s: np.ndarray, n_modes: int, cutoff: float, kGA: np.ndarray,
+                  rhoI: np.ndarray) -> dict[str, np.ndarray]:
     """:func:`_setup` of every case: for one end condition at once; for one per case,
     per condition, then merged (arrays over the cases in their order)."""
     P = L.size
     if isinstance(cond, str):
-        return _setup(cast(EndCondition, cond), L, EI, mu, a, M, f_c, f_s, n_modes, cutoff)
+        return _setup(cast(EndCondition, cond), L, EI, mu, a, M, f_c, f_s, n_modes, cutoff,
+                      kGA=kGA, rhoI=rhoI)
     conds = np.broadcast_to(np.asarray(cond, dtype=object), L.shape)
     su: dict[str, np.ndarray] = {}
     for cnd in dict.fromkeys(conds.tolist()):
         idx = np.flatnonzero(conds == cnd)
         part = _setup(cnd, L[idx], EI[idx], mu[idx], a[idx], M[idx], f_c[idx], f_s[idx],
-                      n_modes, cutoff)
+                      n_modes, cutoff, kGA=kGA[idx], rhoI=rhoI[idx])
         for key, val in part.items():
             if key not in su:
                 su[key] = np.zeros((P, *val.shape[1:]), dtype=val.dtype)
@@ -568,6 +694,7 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
                          a: ArrayLike, M: ArrayLike, h: ArrayLike, f_c: ArrayLike = 0.0, *,
                          F_yield: ArrayLike = math.inf, stroke: ArrayLike = math.inf,
                          weight: ArrayLike | None = None,
+                         kGA: ArrayLike = math.inf, rhoI: ArrayLike = 0.0,
                          group: int = 128, spread: float = 1.5,
                          n_modes: int = DEFAULT_MODES, cutoff: float = DEFAULT_CUTOFF,
                          steps_per_period: int = DEFAULT_STEPS_PER_PERIOD) -> TimeHistoryPeaks:
@@ -579,9 +706,11 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
     there); the peaks come back in the cases' order (``dt``/``steps``: per case the
     time step, and the largest group's steps)."""
     cond_a = np.atleast_1d(np.asarray(cond, dtype=object))
-    L, EI, mu, a, M, h, f_c, F_y, s_y, Wt = (np.atleast_1d(v) for v in np.broadcast_arrays(
-        *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke,
-                                         np.nan if weight is None else weight))))
+    L, EI, mu, a, M, h, f_c, F_y, s_y, Wt, kG, rI = (
+        np.atleast_1d(v) for v in np.broadcast_arrays(
+            *(np.asarray(v, float) for v in (L, EI, mu, a, M, h, f_c, F_yield, stroke,
+                                             np.nan if weight is None else weight,
+                                             kGA, rhoI))))
     Wt = np.where(np.isnan(Wt), M * impact.G, Wt)
     cond_a = np.broadcast_to(cond_a, L.shape)
     out = {k: np.zeros(L.size) for k in ("force", "moment", "shear", "deflection",
@@ -589,7 +718,8 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
     modes = np.zeros(L.size, int)
     steps = 0
     need = time_history(cond_a, L, EI, mu, a, M, h, f_c, F_yield=F_y, stroke=s_y,
-                        weight=Wt, _plan=True, n_modes=n_modes, cutoff=cutoff,
+                        weight=Wt, kGA=kG, rhoI=rI, _plan=True, n_modes=n_modes,
+                        cutoff=cutoff,
                         steps_per_period=steps_per_period).dt
     order = np.argsort(need, kind="stable")
     need = need[order]
@@ -601,7 +731,7 @@ def time_history_batched(cond: ArrayLike, L: ArrayLike, EI: ArrayLike, mu: Array
         g = e
         t = time_history(cond_a[sel], L[sel], EI[sel], mu[sel], a[sel], M[sel], h[sel],
                          f_c[sel], F_yield=F_y[sel], stroke=s_y[sel], weight=Wt[sel],
-                         n_modes=n_modes,
+                         kGA=kG[sel], rhoI=rI[sel], n_modes=n_modes,
                          cutoff=cutoff, steps_per_period=steps_per_period)
         for k in out:
             out[k][sel] = getattr(t, k)
@@ -617,19 +747,50 @@ _SETUP_KEYS = ("omega", "m_e", "inv_m", "kept", "f_k", "k", "pt", "Wd", "Wm",
                "Wv", "Rd", "Rm", "Rv", "T1")
 
 
+def _section_shapes(cond: EndCondition, lam: np.ndarray, L: np.ndarray, a: np.ndarray,
+                    sections: int) -> tuple[np.ndarray, ...]:
+    """The member's sections x (m, cases first: ``sections`` equal intervals, then just
+    left and just right of the load at ``a``) and the modes' shape and its first,
+    second and third derivatives there, φ, L·φ', L²·φ'', L³·φ''' (:func:`mode_shapes`,
+    :func:`mode_slopes`; each (cases, modes, sections))."""
+    P, N = L.size, lam.size
+    xi = np.linspace(0.0, 1.0, sections + 1)
+    eps = 1e-9
+    shp = (*mode_shapes(cond, lam, xi), mode_slopes(cond, lam, xi))
+    xa_l = np.clip(a - eps * L, 0.0, L)
+    xa_r = np.clip(a + eps * L, 0.0, L)
+    xs = np.concatenate([L[:, None] * xi[None, :], xa_l[:, None], xa_r[:, None]], axis=1)
+    at_l = (*mode_shapes(cond, lam, xa_l / L), mode_slopes(cond, lam, xa_l / L))
+    at_r = (*mode_shapes(cond, lam, xa_r / L), mode_slopes(cond, lam, xa_r / L))
+    out = [xs]
+    for j in (0, 3, 1, 2):  # φ, L·φ', L²·φ'', L³·φ'''
+        at_a = np.stack([at_l[j].T, at_r[j].T], axis=2)  # (P, N, 2)
+        out.append(np.concatenate([np.broadcast_to(shp[j], (P, N, xi.size)), at_a], axis=2))
+    return tuple(out)
+
+
 def _setup(cond: EndCondition, L: np.ndarray, EI: np.ndarray, mu: np.ndarray, a: np.ndarray,
            M: np.ndarray, f_c: np.ndarray, f_s: np.ndarray, n_modes: int,
-           cutoff: float, sections: int = _N_SECTIONS) -> dict[str, np.ndarray]:
+           cutoff: float, sections: int = _N_SECTIONS, kGA: np.ndarray | None = None,
+           rhoI: np.ndarray | None = None) -> dict[str, np.ndarray]:
     """Modal data of the cases of one end condition (see :func:`time_history`):
     frequencies, kept modes, contact stiffness, modal and static-correction fields
     at the member's sections (``sections`` equal intervals, and both sides of the
-    load), fundamental period; each array has the cases first."""
+    load), fundamental period; each array has the cases first. ``kGA`` (N, ∞ none)
+    and ``rhoI`` (kg·m) per case make the member a Timoshenko one
+    (:func:`timoshenko_modes`; the static fields take the shear deflection of
+    :func:`shear_deflection`); None: Euler–Bernoulli."""
     P = L.size
+    kGA = np.full(P, np.inf) if kGA is None else np.broadcast_to(kGA, L.shape)
+    rhoI = np.zeros(P) if rhoI is None else np.broadcast_to(rhoI, L.shape)
     md = _modal(cond, max(n_modes, 1))
-    lam, norm = md.lam[:n_modes], md.norm[:n_modes]
+    lam, norm, norm1 = md.lam[:n_modes], md.norm[:n_modes], md.norm1[:n_modes]
     N = lam.size
-    omega = (lam[None, :] / L[:, None]) ** 2 * np.sqrt(EI / mu)[:, None]  # (P, N)
-    m_n = mu[:, None] * L[:, None] * norm[None, :]
+    # (P, N): Timoshenko frequencies, rotation ratio Θ/W and modal masses (Euler–
+    # Bernoulli where κGA = ∞ and ρI = 0)
+    omega, rot, m_n = timoshenko_modes(lam, norm, norm1, L, EI, mu, kGA, rhoI)
+    # the member's static compliance at the load with its shear deflection
+    f_s = f_s + shear_deflection(cond, L, a, a, kGA)
     xi_a = a / L
     phi_a = mode_shapes(cond, lam, xi_a)[0].T if N else np.zeros((P, 0))
     # contact frequency: the load and the struck mass on either side of the contact
@@ -648,37 +809,37 @@ def _setup(cond: EndCondition, L: np.ndarray, EI: np.ndarray, mu: np.ndarray, a:
     k = 1.0 / f_k
     pt = np.where(kept, phi_a / np.sqrt(m_n), 0.0)  # φ̃ₙ(a); omitted modes stay at 0
 
-    # sections along the member (ξ grid plus both sides of the load)
-    xi = np.linspace(0.0, 1.0, sections + 1)
-    eps = 1e-9
-    shp = mode_shapes(cond, lam, xi)
-    x_grid = L[:, None] * xi[None, :]
-    xa_l = np.clip(a - eps * L, 0.0, L)
-    xa_r = np.clip(a + eps * L, 0.0, L)
-    xs = np.concatenate([x_grid, xa_l[:, None], xa_r[:, None]], axis=1)  # (P, S)
-    at_l, at_r = mode_shapes(cond, lam, xa_l / L), mode_shapes(cond, lam, xa_r / L)
-    shp_a = [np.stack([at_l[j].T, at_r[j].T], axis=2) for j in range(3)]  # each (P, N, 2)
-    Phi = np.concatenate([np.broadcast_to(shp[0], (P, N, xi.size)), shp_a[0]], axis=2)
-    D2 = np.concatenate([np.broadcast_to(shp[1], (P, N, xi.size)), shp_a[1]], axis=2)
-    D3 = np.concatenate([np.broadcast_to(shp[2], (P, N, xi.size)), shp_a[2]], axis=2)
+    xs, Phi, D1, D2, D3 = _section_shapes(cond, lam, L, a, sections)
     Lc = L[:, None, None]
     EIc = EI[:, None, None]
     sq = np.sqrt(m_n)[:, :, None]
     kept3 = kept[:, :, None]
-    # per unit generalised coordinate q̃ₙ: deflection, moment (−EIφ''), shear (−EIφ''')
+    rot3 = rot[:, :, None]
+    # per unit generalised coordinate q̃ₙ (w = φ, ψ = (Θ/W)·φ'): deflection φ, moment
+    # EI·ψ' (written −(Θ/W)·EIφ'', sagging +) and shear V = κGA·(w' − ψ), read from
+    # the mode's moment equation ρI·ψ̈ = EI·ψ'' + κGA·(w' − ψ) as
+    # V = −(Θ/W)·(EIφ''' + ρI·ωₙ²·φ') — identical to κGA·(1 − Θ/W)·φ' for the simply
+    # supported member's exact modes (tests), and it keeps the shear at a clamp, where
+    # the Euler–Bernoulli shape has φ' = 0 (Euler–Bernoulli: −EIφ''')
     Wd = np.where(kept3, Phi / sq, 0.0)
-    Wm = np.where(kept3, -EIc * D2 / Lc**2 / sq, 0.0)
-    Wv = np.where(kept3, -EIc * D3 / Lc**3 / sq, 0.0)
-    # static correction per unit contact force: exact unit-load field − kept modes
+    Wm = np.where(kept3, -rot3 * EIc * D2 / Lc**2 / sq, 0.0)
+    Wv = np.where(kept3, -rot3 * (EIc * D3 / Lc**3
+                                  + rhoI[:, None, None] * omega[:, :, None] ** 2 * D1 / Lc)
+                  / sq, 0.0)
+    # static correction per unit contact force: exact unit-load field (with the shear
+    # deflection) − kept modes
     stat = (pt / omega**2)[:, :, None] if N else np.zeros((P, 0, 1))
     a_c = a[:, None]
-    Rd = beam.green(cond, L[:, None], EI[:, None], xs, a_c) - np.sum(Wd * stat, axis=1)
+    Rd = (beam.green(cond, L[:, None], EI[:, None], xs, a_c)
+          + shear_deflection(cond, L[:, None], xs, a_c, kGA[:, None])
+          - np.sum(Wd * stat, axis=1))
     Rm = beam.unit_moment(cond, L[:, None], xs, a_c) - np.sum(Wm * stat, axis=1)
     Rv = beam.unit_shear(cond, L[:, None], xs, a_c)
     r0 = beam.unit_reactions(cond, L, a)[0]
     Rv[:, -2] = r0  # just left of the load
     Rv[:, -1] = r0 - 1.0  # just right of the load
     Rv = Rv - np.sum(Wv * stat, axis=1)
-    T1 = 2.0 * math.pi / ((md.lam[0] / L) ** 2 * np.sqrt(EI / mu))
+    T1 = 2.0 * math.pi / timoshenko_modes(md.lam[:1], md.norm[:1], md.norm1[:1], L, EI, mu,
+                                          kGA, rhoI)[0][:, 0]
     loc = locals()
     return {key: loc[key] for key in _SETUP_KEYS}

@@ -149,24 +149,26 @@ class OverSupportError(ModelError):
 
 @functools.lru_cache(maxsize=256)
 def _member_history(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float,
-                    h: float, f_c: float, F_yield: float, stroke: float, weight: float
-                    ) -> timehistory.TimeHistoryPeaks:
+                    h: float, f_c: float, F_yield: float, stroke: float, weight: float,
+                    kGA: float = math.inf, rhoI: float = 0.0) -> timehistory.TimeHistoryPeaks:
     """:func:`droprig.solver.exacthistory.exact_time_history` of one case with the
     verdict's settings (:data:`droprig.solver.pointhistory.TH_OPTIONS`), histories
-    recorded; arguments as there (SI). Remembered by its exact inputs: a project of
-    equal levels, or a regular grid, asks the annex's verification table for the same
-    member history many times (a stress project of three equal levels: 390 bays, 30
-    distinct histories). The result is shared: read it, never write to it."""
+    recorded; arguments as there (SI; ``kGA``, ``rhoI`` the Timoshenko member's).
+    Remembered by its exact inputs: a project of equal levels, or a regular grid, asks
+    the annex's verification table for the same member history many times (a stress
+    project of three equal levels: 390 bays, 30 distinct histories). The result is
+    shared: read it, never write to it."""
     return exacthistory.exact_time_history(cond, L, EI, mu, a, M, h, f_c, record=True,
                                            F_yield=F_yield, stroke=stroke, weight=weight,
-                                           **pointhistory.TH_OPTIONS)
+                                           kGA=kGA, rhoI=rhoI, **pointhistory.TH_OPTIONS)
 
 
 def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
             f_c: float, struck_mass: bool, scaled_mass: bool = False,
             F_yield: float = math.inf, stroke: float = math.inf,
             *, chain_factors: tuple[float, dict[str, float]],
-            share: float = 1.0, contact_force: float | None = None) -> Verification:
+            share: float = 1.0, contact_force: float | None = None,
+            kGA: float = math.inf, rhoI: float = 0.0) -> Verification:
     """``chain_factors``: the chain's force on the framing at the point (N) and its
     factors by :data:`QUANTITIES` (what the verdict uses: the verification never works
     out a force of its own). ``share``: the member's lever-rule share w of the load
@@ -175,7 +177,9 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     −(1 − w²)·G(a, a)): the time history sees the load through it
     (:func:`droprig.solver.pointhistory.shared_load`) and the member's energy-method
     and verdict demands are w × those of the whole force. ``contact_force`` (N): the
-    chain's contact force at the point, for the force row (:func:`_contact_row`)."""
+    chain's contact force at the point, for the force row (:func:`_contact_row`).
+    ``kGA`` (N), ``rhoI`` (kg·m): the member as a Timoshenko beam
+    (:func:`droprig.solver.pointhistory.timoshenko_terms`; defaults Euler–Bernoulli)."""
     f_s = float(beam.green(cond, L, EI, a, a))
     if f_s <= 0.0:
         raise OverSupportError("at", a, "a point off the supports (the member does not "
@@ -193,7 +197,7 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     # the integrator and settings of the verdict's own point histories
     t = _member_history(cond, L, EI, mu, a, float(r["M"][()]), float(r["h"][()]), f_th,
                         float(r["F_yield"][()]), float(r["stroke"][()]),
-                        float(r["weight"][()]))
+                        float(r["weight"][()]), kGA, rhoI)
     # the table's mass ratio of the member struck alone (the verification's r)
     amp = amplification.amplification(M, float(e.effective_mass), max(f_c, 0.0), f_s,
                                       struck_mass=struck_mass, cond=cond, xi=a / L)
@@ -270,10 +274,12 @@ def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, 
                                 dynamic_amplification=True))
     imp = c[Impact]
     F_y = float(imp.F_crush[0])
+    kGA, rhoI = pointhistory.timoshenko_terms(section, grade)
     return _verify(cond, L, grade.E * section.Ix, section.mass_per_length, a, mass, h, f_c,
                    beam_mass and cushion_stiffness is None, scaled_mass=True,
                    F_yield=F_y, stroke=float(section.tf),
-                   chain_factors=(float(imp.F[0]), _factors(c[DynamicAmplification], 0)))
+                   chain_factors=(float(imp.F[0]), _factors(c[DynamicAmplification], 0)),
+                   kGA=kGA, rhoI=rhoI)
 
 
 def _factors(da: DynamicAmplification, i: int) -> dict[str, float]:
@@ -283,7 +289,7 @@ def _factors(da: DynamicAmplification, i: int) -> dict[str, float]:
 
 
 def verify_point(project: Project, zone_id: str, load_name: str, x: float,
-                 y: float, *, slab_mass: bool = False) -> PointVerification:
+                 y: float, *, slab_mass: bool = True) -> PointVerification:
     """A drop point (x, y in m) of load ``load_name`` of lift zone ``zone_id`` (see the
     module docstring for the idealisation). Raises :class:`ModelError` naming the
     zone, load or point when they do not exist or the point is not over a deck panel,
@@ -295,15 +301,16 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     :func:`droprig.solver.chain.crush_depth_available` (a concrete deck's cover, a
     steel deck's plate), or a crushable layer's force over its stroke.
 
-    ``slab_mass``: the member's mass per length also carries the deck's self-weight
-    and the level's superimposed dead load over its tributary width,
+    ``slab_mass`` (default): the member's mass per length also carries the deck's
+    self-weight and the level's superimposed dead load over its tributary width,
     μ + (g_deck + q_sd)·b/g (kg/m; :func:`droprig.solver.chain.slab_frame`, the mass
     the chain's two-mass step and struck mass take; lever rule, common practice, no
-    source) — the slab moves with the member it sits on. By default the history
-    carries the steel's mass alone, as the verdict's point histories and the
-    amplification's calibration do; the option shows how far that idealisation moves
-    the comparison (README, "Status")."""
-    from droprig.solver.chain import Impact, LoadInputs, StruckMass, energy_fall, slab_frame
+    source) — the slab moves with the member it sits on, as the verdict's point
+    histories take it (:func:`droprig.solver.pointhistory.struck_member`). Off: the
+    steel's mass alone (the idealisation before stop 27), to show how far the mass
+    moves the comparison. The member is a Timoshenko beam
+    (:func:`droprig.solver.pointhistory.timoshenko_terms`)."""
+    from droprig.solver.chain import Impact, LoadInputs, StruckMass, energy_fall
     from droprig.solver.evaluate import governing_landing_chain, point_case
 
     case = point_case(project, zone_id, load_name, x, y, opening=True,
@@ -330,9 +337,11 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
                          "member does not move)")
     # the member's own mass: the frame's μ, the steel's where the project leaves
     # member mass out of the struck mass (a time history needs the member's mass)
-    mu = float(s["mu"]) if float(s["mu"]) > 0.0 else member.section.mass_per_length
-    if slab_mass:
-        mu += float(slab_frame(fm).mu[int(s["member"])] - fm.frame.mu[int(s["member"])])
+    # (struck_member's μ carries the slab; without it, the steel's)
+    mu = float(s["mu"])
+    if not slab_mass:
+        mu = (float(s["mu_steel"]) if float(s["mu_steel"]) > 0.0
+              else member.section.mass_per_length)
     # the rest of the path in series: everything but the member's own spring under its
     # share w (f_all − w²·g_m; _verify takes f_all − g_m and the share)
     w = float(s["share"])
@@ -345,7 +354,8 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
                   bool(chain[StruckMass].m_e[0] > 0.0), scaled_mass=True,
                   F_yield=float(s["F_yield"]), stroke=float(s["stroke"]),
                   chain_factors=chain_factors, share=w,
-                  contact_force=float(chain[Impact].contact[0]))
+                  contact_force=float(chain[Impact].contact[0]),
+                  kGA=float(s["kGA"]), rhoI=float(s["rhoI"]))
 
     if not amplified:
         # the project's checks use the chain's energy method alone (amplification off
@@ -392,7 +402,7 @@ def _bay_name(level: Level, geo: Geometry) -> str:
 def verification_table(project: Project, results: object, *,
                        zone_id: str | None = None,
                        skipped: list[tuple[object, str]] | None = None,
-                       slab_mass: bool = False,
+                       slab_mass: bool = True,
                        ) -> tuple[PointVerification, ...]:
     """One :class:`PointVerification` per bay summary of ``results`` (a
     :class:`~droprig.solver.results.Results`), at the bay's governing point; bays whose

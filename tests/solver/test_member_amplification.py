@@ -2,7 +2,8 @@
 amplification, against the time history of one member.
 
 Sources: the time history of droprig.solver.timehistory (Blevins 1979 Table 8-1
-modes, Newmark average acceleration — Chopra 4th ed. §5.4; checked in
+mode shapes with Timoshenko frequencies and shears, test_timoshenko_history.py; Newmark
+average acceleration — Chopra 4th ed. §5.4; checked in
 test_timehistory.py against Gere 7th ed. §9.10 and Clough & Penzien 2nd ed. §18-2),
 with an elastic–perfectly plastic contact for a crushable layer (Johnson, *Contact
 Mechanics* §6.2); unit-load moments and shears of AISC Manual Table 3-23 (via
@@ -18,7 +19,7 @@ import numpy as np
 import pytest
 
 from droprig.model import Grade, Section
-from droprig.solver import beam, impact, timehistory
+from droprig.solver import beam, impact, pointhistory, timehistory
 from droprig.solver.member import assess_member
 
 SECTIONS = (
@@ -64,7 +65,10 @@ def runs():
         [c["a"] for c in cs], [c["M"] for c in cs], [c["h"] for c in cs],
         [1.0 / c["k_load"] for c in cs],
         F_yield=[c["F_c"] if c["F_c"] is not None else math.inf for c in cs],
-        stroke=[c["s_c"] if c["s_c"] is not None else math.inf for c in cs])
+        stroke=[c["s_c"] if c["s_c"] is not None else math.inf for c in cs],
+        # the same Timoshenko member as the check's own point history
+        kGA=[pointhistory.timoshenko_terms(c["sec"], S355)[0] for c in cs],
+        rhoI=[pointhistory.timoshenko_terms(c["sec"], S355)[1] for c in cs])
     res = [assess_member(c["sec"], S355, c["cond"], c["L"], c["a"], c["M"], c["h"],
                          basis="en1993", load_stiffness=c["k_load"], crush_force=c["F_c"],
                          crush_stroke=c["s_c"], self_weight=False,

@@ -149,6 +149,11 @@ def test_margin_is_not_loose() -> None:
 SECTIONS = ("W16X26", "W10X33", "W21X44")
 
 
+def _timoshenko(sec, gr) -> dict[str, float]:
+    kGA, rhoI = pointhistory.timoshenko_terms(sec, gr)
+    return {"kGA": kGA, "rhoI": rhoI}
+
+
 def _member_cases(seed: int, n: int) -> list[dict]:
     rng = np.random.default_rng(seed)
     out = []
@@ -173,7 +178,8 @@ def test_check_at_its_own_history_never_below_the_converged_history() -> None:
     # droprig check with amplification: where the chain ran the point's own time
     # history, the verdict's contact force, moment and shear are never below the
     # refined (converged) time history of the same member and contact — with the
-    # same physical cap, the flange's local yield force
+    # same physical cap, the flange's local yield force, and the same Timoshenko
+    # member (its web's shear stiffness and rotary inertia)
     cs = _member_cases(20261204, 16)
     seen = 0
     for c in cs:
@@ -188,7 +194,8 @@ def test_check_at_its_own_history_never_below_the_converged_history() -> None:
                                               c["sec"].mass_per_length, c["a"], c["M"],
                                               c["h"], 1.0 / c["k_load"],
                                               F_yield=float(imp.F_crush[0]),
-                                              stroke=float(c["sec"].tf), **REFINED)
+                                              stroke=float(c["sec"].tf), **REFINED,
+                                              **_timoshenko(c["sec"], c["gr"]))
         F = float(imp.F[0])
         assert da.A_force[0] * F >= ref.force[0] * (1 - 1e-9)
         unit_m = float(beam.max_abs_moment(c["cond"], c["L"], 1.0, c["a"]))

@@ -145,7 +145,8 @@ def test_verification_stroke_is_the_chains_crush_depth(roof: Project,
 
 
 def test_slab_mass_option_adds_the_tributary_deck_and_dead_load(roof: Project) -> None:
-    """``verify_point(..., slab_mass=True)`` (``droprig verify --slab-mass``): the member's
+    """``verify_point`` (default ``slab_mass=True``; ``droprig verify``; ``slab_mass=False``
+    is ``--steel-mass``): the member's
     mass per length carries the deck's self-weight and the superimposed dead load over
     its tributary width, μ + (g_deck + q_sd)·b/g (lever rule: half the spacing to each
     neighbour, b = 2.5 m here; common practice, no source; g = 9.80665 m/s², ISO 80000-3).
@@ -158,8 +159,8 @@ def test_slab_mass_option_adds_the_tributary_deck_and_dead_load(roof: Project) -
     mu_steel = member.section.mass_per_length
     mu_slab = mu_steel + (level.deck.self_weight_pressure + level.superimposed_dead) \
         * SPACING / 9.80665
-    bare = verify_point(roof, ZONE, LOAD, *POINT)
-    slab = verify_point(roof, ZONE, LOAD, *POINT, slab_mass=True)
+    bare = verify_point(roof, ZONE, LOAD, *POINT, slab_mass=False)
+    slab = verify_point(roof, ZONE, LOAD, *POINT)
     assert bare.member_id == slab.member_id == MEMBER
     ratio = bare.verification.mass_ratio / slab.verification.mass_ratio
     assert ratio == pytest.approx(mu_slab / mu_steel, rel=HAND)
