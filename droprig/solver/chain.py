@@ -1275,13 +1275,7 @@ def demands(c: Chain) -> Demands:
         cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, h_p, g_main))
     soft = presses_uniformly(c)
     if soft.any():  # no rigid-base statics: the part of the pressure on the slab
-        g_edge, _b_edge = edge_lines(c, ey)
-        m_soft = np.maximum(
-            uniform_cross_strip_moment(Ly, yb, inp.foot_l, inp.foot_w, thick, b_fl, g_main,
-                                       g_edge),
-            uniform_cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, g_main,
-                                       g_edge))
-        m_y = np.where(soft, m_soft, m_y)
+        m_y = np.where(soft, _uniform_cross_strip(c, Ly, yb, ey, g_main), m_y)
     # a rigid base over both beams of its strip (in both plan orientations) rests on
     # the beams: the strip between them carries none of the impact
     # (footprint.bridges_strip)
@@ -1985,6 +1979,21 @@ def uniform_cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray
         tot = g_main + gy
         out = out * np.where(tot > 0.0, 1.0 - gy / np.where(tot > 0.0, tot, 1.0), 1.0)
     return np.where(np.isfinite(out) & (share > 0.0), out, 0.0)
+
+
+def _uniform_cross_strip(c: Chain, Ly: np.ndarray, yb: np.ndarray, ey: np.ndarray,
+                         g_main: np.ndarray) -> np.ndarray:
+    """:func:`uniform_cross_strip_moment` of a footprint pressing uniformly, the worse
+    plan orientation, the deck's edge named (:func:`edge_lines`), N·m/m per N."""
+    inp = c[LoadInputs]
+    b_fl, _h = support_spread(c.drop.fm)
+    thick = c.drop.fm.level.deck.thickness
+    g_edge, _b_edge = edge_lines(c, ey)
+    return np.maximum(
+        uniform_cross_strip_moment(Ly, yb, inp.foot_l, inp.foot_w, thick, b_fl, g_main,
+                                   g_edge),
+        uniform_cross_strip_moment(Ly, yb, inp.foot_w, inp.foot_l, thick, b_fl, g_main,
+                                   g_edge))
 
 
 def edge_lines(c: Chain, ey: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
