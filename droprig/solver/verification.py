@@ -330,10 +330,13 @@ def _chain_verification(chain: Chain, *, amplified: bool, where: tuple[str, obje
     if bool(s["over_support"]):
         member = chain.drop.fm.level.members[int(s["member"])]
         field, value = where
+        # droprig verify's member (field "at", m) is the one-member floor's only member
+        name = "the member" if field == "at" else f"member {member.id}"
         raise OverSupportError(field, value,
-                               f"a point off the supports of member {member.id} (it is "
+                               f"a point off the supports of {name} (it is "
                                f"{float(s['a']):.3f} m along it, over a support, where "
-                               "the modelled member does not move)")
+                               "the modelled member does not move)",
+                               "m" if field == "at" else "")
     inp, imp = chain[LoadInputs], chain[Impact]
     amplified = amplified and DynamicAmplification in chain
     factors = (_factors(chain[DynamicAmplification], 0) if amplified
