@@ -321,15 +321,7 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     for level in range(BISECT_LEVELS):
         step /= 4.0
         cur = _cat(parts)
-        n_top = CONFIRM_REFINE[level] if level < len(CONFIRM_REFINE) else 0
-        if n_top:
-            rx, ry, rown = _refine(fm, zone, trials, cur, step, n_top)
-        elif level == len(CONFIRM_REFINE):
-            # the last pass closes in on each trial's worst point alone
-            rx, ry, rown = _refine(fm, zone, trials, cur, step, CONFIRM_REFINE_LAST,
-                                   per_panel=False)
-        else:
-            rx, ry, rown = np.zeros(0), np.zeros(0), np.zeros(0, dtype=np.int64)
+        rx, ry, rown = _pass_points(fm, zone, trials, cur, step, level)
         st.stop_failing(trials, cur)
         sx, sy, sown = st.split(fm, zone, trials)
         if rx.size + sx.size == 0:
@@ -734,6 +726,20 @@ def _evaluate(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     out = {k: r[k] for k in keep}
     out["owner"] = own
     return out
+
+
+def _pass_points(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
+                 r: dict[str, np.ndarray], step: float, level: int
+                 ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The refinement pass ``level`` (0, 1, ...) of :func:`_run` at spacing ``step``
+    (m) on the trials' rows ``r`` so far: lattices around each panel's worst
+    (:data:`CONFIRM_REFINE`), then one pass around each trial's worst over its bay
+    (:data:`CONFIRM_REFINE_LAST`), then none."""
+    if level < len(CONFIRM_REFINE) and CONFIRM_REFINE[level]:
+        return _refine(fm, zone, trials, r, step, CONFIRM_REFINE[level])
+    if level == len(CONFIRM_REFINE):
+        return _refine(fm, zone, trials, r, step, CONFIRM_REFINE_LAST, per_panel=False)
+    return np.zeros(0), np.zeros(0), np.zeros(0, dtype=np.int64)
 
 
 def _refine(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
