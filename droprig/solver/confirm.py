@@ -8,7 +8,11 @@ forward model a closed form does not follow exactly. So each condition a bay off
 is *tried*: the forward chain is run with it applied — the load dropped from the
 offered height, or the offered mat laid under it — at every drop point of the bay,
 at points refined around the worst of them (as :mod:`droprig.solver.refine` does
-for the analysis) and at cuts of the stretches between neighbouring points whose
+for the analysis), at points a hair inside both ends of every member line of the bay
+with lattices around them (:func:`_line_ends`: beside a member's end the load path
+changes within centimetres, and the least answer can lie between the analysis points
+in a panel whose analysis points are far from failing) and at cuts of the stretches
+between neighbouring points whose
 answers change steeply (:class:`_Stretches`: a limit that falls between two sample
 points is looked for where it can hide). A condition that leaves the bay beyond its
 limits steps back to the least of :data:`CONFIRM_STEP` × itself and
@@ -76,10 +80,22 @@ from droprig.solver.results import (
 from droprig.solver.summary import bay_advice
 from droprig.solver.unit_actions import unit_actions
 
-__all__ = ["BISECT_LEVELS", "BISECT_RATIO", "BISECT_TOP", "CONFIRM_FACTORS", "CONFIRM_REFINE",
-           "CONFIRM_ROUNDS", "CONFIRM_SPAN",
-           "CONFIRM_STEP", "CONFIRM_U", "confirm_bay_limits", "confirm_point_heights",
-           "confirm_zone"]
+__all__ = [
+    "BISECT_LEVELS",
+    "BISECT_RATIO",
+    "BISECT_TOP",
+    "CONFIRM_FACTORS",
+    "CONFIRM_REFINE",
+    "CONFIRM_REFINE_LAST",
+    "CONFIRM_ROUNDS",
+    "CONFIRM_SPAN",
+    "CONFIRM_STEP",
+    "CONFIRM_U",
+    "LINE_END",
+    "confirm_bay_limits",
+    "confirm_point_heights",
+    "confirm_zone",
+]
 
 CONFIRM_STEP = 0.8
 """A condition that fails its trial steps back to at most this fraction of itself."""
@@ -88,6 +104,28 @@ CONFIRM_ROUNDS = 6
 CONFIRM_REFINE = (1, 1)
 """Points per deck panel of each trial around which each refinement pass lays a
 5 × 5 lattice (spacing the zone's grid resolution ÷ 4, ÷ 16)."""
+
+LINE_END = 1e-3
+"""A hair, as a multiple of the grid resolution (0.5 mm on a 0.5 m grid): the first
+trial run also drops the load this far inside both ends of every member line of the
+bay (:func:`_line_ends`), whatever the answers of the analysis points around them,
+and the panels' lattices (:func:`_refine`) centre on those points as on any other.
+Why: a trial starts from the analysis points whose own answer is within
+:data:`CONFIRM_SPAN` (:data:`MASS_SPAN`) of the condition, so a panel whose analysis
+points are all far from failing gets no lattice — yet beside a member's end (a
+column, the member it frames into) the load path changes within centimetres and the
+answer can fall sharply between the grid points: the two-level demo's hook block
+read U 1.14 at its printed allowable mass 9 cm along girder GA/2-3 from column 2/A
+and 5 cm beside it (17 kg allowed there against ≥ 50 kg at the panel's analysis
+points); and before the impulse bound a random floor with dynamic amplification read
+U 0.20 over a column and 1.017 0.1 mm along the girder beside it."""
+
+CONFIRM_REFINE_LAST = 1
+"""Points of each trial (its worst over the whole bay, not per panel) around which a
+third refinement pass lays a 5 × 5 lattice of spacing the grid resolution ÷ 64: a
+peak a few centimetres wide beside a member's end reads lower at a lattice step of
+÷ 16 (the two-level demo's hook block beside girder GA/2-3 near column 2/C: U 1.029
+on a 1 cm lattice at a mass whose ÷ 16 lattice read at most 0.98)."""
 
 CONFIRM_SPAN = 4.0
 """A trial starts from the bay's analysis points whose own inverse answer (allowable
@@ -263,6 +301,8 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     row, own = np.concatenate(rows), np.concatenate(owner)
     x, y = res["x"][row], res["y"][row]
     ex, ey, eown = _edge_kinks(fm, zone, loads, trials, x, y, own)
+    nx, ny, nown = _line_ends(fm, zone, trials)
+    ex, ey, eown = np.r_[ex, nx], np.r_[ey, ny], np.r_[eown, nown]
     # the first level of the steep stretches' splitting (_Stretches) rides with the
     # analysis points, each further level with a refinement pass
     st = _Stretches.first(fm, trials, res, bay, known)
@@ -281,9 +321,7 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     for level in range(BISECT_LEVELS):
         step /= 4.0
         cur = _cat(parts)
-        n_top = CONFIRM_REFINE[level] if level < len(CONFIRM_REFINE) else 0
-        rx, ry, rown = (_refine(fm, zone, trials, cur, step, n_top) if n_top
-                        else (np.zeros(0), np.zeros(0), np.zeros(0, dtype=np.int64)))
+        rx, ry, rown = _pass_points(fm, zone, trials, cur, step, level)
         st.stop_failing(trials, cur)
         sx, sy, sown = st.split(fm, zone, trials)
         if rx.size + sx.size == 0:
@@ -690,17 +728,32 @@ def _evaluate(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
     return out
 
 
+def _pass_points(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
+                 r: dict[str, np.ndarray], step: float, level: int
+                 ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The refinement pass ``level`` (0, 1, ...) of :func:`_run` at spacing ``step``
+    (m) on the trials' rows ``r`` so far: lattices around each panel's worst
+    (:data:`CONFIRM_REFINE`), then one pass around each trial's worst over its bay
+    (:data:`CONFIRM_REFINE_LAST`), then none."""
+    if level < len(CONFIRM_REFINE) and CONFIRM_REFINE[level]:
+        return _refine(fm, zone, trials, r, step, CONFIRM_REFINE[level])
+    if level == len(CONFIRM_REFINE):
+        return _refine(fm, zone, trials, r, step, CONFIRM_REFINE_LAST, per_panel=False)
+    return np.zeros(0), np.zeros(0), np.zeros(0, dtype=np.int64)
+
+
 def _refine(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
-            r: dict[str, np.ndarray], step: float, n_top: int
+            r: dict[str, np.ndarray], step: float, n_top: int, per_panel: bool = True
             ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """A 5 × 5 lattice of spacing ``step`` around the ``n_top`` worst points of each
     deck panel of each trial (each panel between its beams has its own worst point:
-    the deck strip's and the members' maxima lie in every panel), kept inside the
-    trial's bay, the zone and the deck."""
+    the deck strip's and the members' maxima lie in every panel), or of each trial
+    over its whole bay (``per_panel`` false), kept inside the trial's bay, the zone
+    and the deck."""
     sev = severity(r["utilisation"], r["response"])
     own = r["owner"]
     cell = locate(fm.frame, r["x"], r["y"])
-    group = own * (int(cell.max(initial=0)) + 2) + (cell + 1)
+    group = (own * (int(cell.max(initial=0)) + 2) + (cell + 1)) if per_panel else own
     order = np.lexsort((-sev, group))
     o = group[order]
     first = np.r_[True, o[1:] != o[:-1]]
@@ -719,6 +772,70 @@ def _refine(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
     ry1 = np.array([t.rect.y1 for t in trials])[ow]
     tol = droppoints.EDGE_TOL
     keep &= (x >= rx0 - tol) & (x <= rx1 + tol) & (y >= ry0 - tol) & (y <= ry1 + tol)
+    return x[keep], y[keep], ow[keep]
+
+
+def _member_lines(fm: FloorModel) -> tuple[np.ndarray, ...]:
+    """The level's members as straight lines: start x0, y0 (m), unit direction ux,
+    uy and length L (m), one entry per member."""
+    mem = fm.level.members
+    x0 = np.array([m.start[0] for m in mem], float)
+    y0 = np.array([m.start[1] for m in mem], float)
+    dx = np.array([m.end[0] for m in mem], float) - x0
+    dy = np.array([m.end[1] for m in mem], float) - y0
+    L = np.hypot(dx, dy)
+    ok = L > 0.0
+    Ls = np.where(ok, L, 1.0)
+    return x0[ok], y0[ok], (dx / Ls)[ok], (dy / Ls)[ok], L[ok]
+
+
+def _in_trial_bays(fm: FloorModel, zone: LiftZone, trials: list[_Trial], x: np.ndarray,
+                   y: np.ndarray, ow: np.ndarray) -> np.ndarray:
+    """Which points (x, y in m, of the trials ``ow``) lie inside their trial's bay, the
+    zone and over the deck."""
+    tol = droppoints.EDGE_TOL
+    keep = droppoints.in_zone(zone, x, y) & (locate(fm.frame, x, y) >= 0)
+    rx0 = np.array([t.rect.x0 for t in trials])[ow]
+    rx1 = np.array([t.rect.x1 for t in trials])[ow]
+    ry0 = np.array([t.rect.y0 for t in trials])[ow]
+    ry1 = np.array([t.rect.y1 for t in trials])[ow]
+    keep &= (x >= rx0 - tol) & (x <= rx1 + tol) & (y >= ry0 - tol) & (y <= ry1 + tol)
+    return np.asarray(keep, dtype=bool)
+
+
+def _lines_near(lines: tuple[np.ndarray, ...], rect: Rect, reach: float) -> np.ndarray:
+    """Indices of the member ``lines`` (:func:`_member_lines`) whose bounding box comes
+    within ``reach`` (m) of ``rect``."""
+    x0, y0, ux, uy, L = lines
+    x1, y1 = x0 + ux * L, y0 + uy * L
+    return np.flatnonzero((np.minimum(x0, x1) <= rect.x1 + reach)
+                          & (np.maximum(x0, x1) >= rect.x0 - reach)
+                          & (np.minimum(y0, y1) <= rect.y1 + reach)
+                          & (np.maximum(y0, y1) >= rect.y0 - reach))
+
+
+def _line_ends(fm: FloorModel, zone: LiftZone, trials: list[_Trial]
+               ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """For each trial, the points :data:`LINE_END` × the grid resolution inside both
+    ends of every member line that touches its bay, on the line; kept inside the bay,
+    the zone and the deck."""
+    lines = _member_lines(fm)
+    x0, y0, ux, uy, L = lines
+    e = LINE_END * fm.settings.grid_resolution
+    xs, ys, os_ = [], [], []
+    for t, tr in enumerate(trials):
+        m = _lines_near(lines, tr.rect, e)
+        m = m[L[m] > 2.0 * e]
+        if m.size == 0:
+            continue
+        a = np.c_[np.full(m.size, e), L[m] - e]            # along: both ends
+        xs.append((x0[m, None] + ux[m, None] * a).ravel())
+        ys.append((y0[m, None] + uy[m, None] * a).ravel())
+        os_.append(np.full(a.size, t, dtype=np.int64))
+    if not xs:
+        return np.zeros(0), np.zeros(0), np.zeros(0, dtype=np.int64)
+    x, y, ow = np.concatenate(xs), np.concatenate(ys), np.concatenate(os_)
+    keep = _in_trial_bays(fm, zone, trials, x, y, ow)
     return x[keep], y[keep], ow[keep]
 
 

@@ -67,6 +67,11 @@ __all__ = [
 QUANTITIES: tuple[str, ...] = ("force", "moment", "shear", "deflection")
 """Compared peaks: contact force (N), member moment (N·m), shear (N), deflection (m)."""
 
+ENVELOPE_SAMPLES = 400
+"""Equal intervals over the member at which the verification's energy column reads the
+largest unit-load deflection G(x, a) (and at a itself): the resolution the
+verification has always printed (the chain's point histories take 200)."""
+
 
 @dataclass(frozen=True)
 class Verification:
@@ -163,33 +168,42 @@ def _member_history(cond: EndCondition, L: float, EI: float, mu: float, a: float
                                            kGA=kGA, rhoI=rhoI, **pointhistory.TH_OPTIONS)
 
 
-def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: float, h: float,
-            f_c: float, struck_mass: bool, scaled_mass: bool = False,
-            F_yield: float = math.inf, stroke: float = math.inf,
-            *, chain_factors: tuple[float, dict[str, float]],
-            share: float = 1.0, contact_force: float | None = None,
-            kGA: float = math.inf, rhoI: float = 0.0) -> Verification:
-    """``chain_factors``: the chain's force on the framing at the point (N) and its
+def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
+            chain_factors: tuple[float, dict[str, float]],
+            contact_force: float | None = None) -> Verification:
+    """The verification of the struck member ``s`` (:func:`_struck`: one point's
+    :func:`droprig.solver.pointhistory.struck_member` record — end condition, L and a
+    (m), EI (N·m²), μ (kg/m), share w, own compliance G(a, a) and the path's f_all
+    (m/N), crushing force (N) and stroke (m), and its Timoshenko terms κGA (N) and ρI
+    (kg·m), :func:`droprig.solver.pointhistory.timoshenko_terms`) struck by the load of
+    mass ``M`` (kg)
+    falling ``h`` (m, with the hoist's head: :func:`droprig.solver.chain.energy_fall`);
+    ``struck_mass``: whether the chain's energy method took the struck-mass share.
+    ``chain_factors``: the chain's force on the framing at the point (N) and its
     factors by :data:`QUANTITIES` (what the verdict uses: the verification never works
-    out a force of its own). ``share``: the member's lever-rule share w of the load
-    (0.5–1; ``f_c`` is then
-    the rest of the path's compliance beyond w²·G(a, a), may be negative down to
-    −(1 − w²)·G(a, a)): the time history sees the load through it
+    out a force of its own). The member's lever-rule share w (0.5–1; the rest of the
+    path's compliance beyond w²·G(a, a) may be negative down to −(1 − w²)·G(a, a)):
+    the time history sees the load through it
     (:func:`droprig.solver.pointhistory.shared_load`) and the member's energy-method
-    and verdict demands are w × those of the whole force. ``contact_force`` (N): the
-    chain's contact force at the point, for the force row (:func:`_contact_row`).
-    ``kGA`` (N), ``rhoI`` (kg·m): the member as a Timoshenko beam
-    (:func:`droprig.solver.pointhistory.timoshenko_terms`; defaults Euler–Bernoulli)."""
-    f_s = float(beam.green(cond, L, EI, a, a))
-    if f_s <= 0.0:
+    and verdict demands are w × those of the whole force — the chain's own energy
+    peaks on the member (:func:`droprig.solver.pointhistory.member_energy_peaks`, the
+    one place the w·F × unit-load envelopes are worked out). ``contact_force`` (N):
+    the chain's contact force at the point, for the force row (:func:`_contact_row`)."""
+    cond = cast(EndCondition, str(s["cond"]))
+    L, EI, mu, a = float(s["L"]), float(s["EI"]), float(s["mu"]), float(s["a"])
+    f_s = float(s["g_m"])
+    if not f_s > 0.0:
         raise OverSupportError("at", a, "a point off the supports (the member does not "
                                "move there)", "m")
-    w = min(max(share, 0.5), 1.0)
-    e = timehistory.energy_method_peaks(cond, L, EI, mu, a, M, h, f_c,
-                                        struck_mass=struck_mass, scaled_mass=scaled_mass)
+    w = min(max(float(s["share"]), 0.5), 1.0)
     W = M * impact.G
+    F_yield = float(s["F_yield"])
     cap = F_yield if F_yield > W else math.inf
+    stroke = float(s["stroke"])
     # the load as the member sees it (w = 1: as it is)
+    # the rest of the path in series: everything but the member's own spring under its
+    # share w (f_all − G(a, a), then G(a, a) + that: shared_load takes the whole path)
+    f_c = float(s["f_all"]) - f_s
     r = pointhistory.shared_load(w, M, h, f_s + f_c, f_s, cap, stroke)
     f_b = float(r["f_c"][()])
     assumed = f_b <= amplification.KAPPA_MIN * f_s
@@ -197,16 +211,19 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
     # the integrator and settings of the verdict's own point histories
     t = _member_history(cond, L, EI, mu, a, float(r["M"][()]), float(r["h"][()]), f_th,
                         float(r["F_yield"][()]), float(r["stroke"][()]),
-                        float(r["weight"][()]), kGA, rhoI)
-    # the table's mass ratio of the member struck alone (the verification's r)
-    amp = amplification.amplification(M, float(e.effective_mass), max(f_c, 0.0), f_s,
-                                      struck_mass=struck_mass, cond=cond, xi=a / L)
+                        float(r["weight"][()]), float(s["kGA"]), float(s["rhoI"]))
+    # the table's mass ratio of the member struck alone (the verification's r):
+    # M over the Rayleigh mass mₑ = β·μ·L (amplification.amplification's r)
+    m_e = float(beam.rayleigh_mass_factor(cond, np.asarray(L), np.asarray(a))) * mu * L
+    r_mass = M / m_e if m_e > 0.0 else math.inf
     # what the verdict uses: the chain's own force on the framing on this member's
     # unit-load envelopes (its share w; the contact force is the load's), times the
     # chain's factors (its amplification step; 1 with amplification off)
     F, factor = chain_factors
-    part = {"force": 1.0, "moment": w, "shear": w, "deflection": w}
-    energy = {k: float(getattr(e, k)) / float(e.force) * F * part[k] for k in QUANTITIES}
+    rec = {k: np.atleast_1d(np.asarray(v)) for k, v in s.items()}
+    rec["share"] = np.array([w])
+    peaks = pointhistory.member_energy_peaks(rec, np.array([F]), samples=ENVELOPE_SAMPLES)
+    energy = {k: float(peaks[k][0]) for k in QUANTITIES}
     if contact_force is not None and contact_force > 0.0:
         energy, factor = _contact_row(energy, factor, F, contact_force, chain_factors)
     assert t.history is not None
@@ -224,7 +241,7 @@ def _verify(cond: EndCondition, L: float, EI: float, mu: float, a: float, M: flo
         crushing_force=cap, crush=float(t.crush[0]) if t.crush is not None else 0.0,
         stroke=stroke if math.isfinite(cap) else math.inf,
         energy_deflection_at_point=w * F * f_s,
-        mass_ratio=float(amp.mass_ratio) * w**2, compliance_ratio=f_b / f_s,
+        mass_ratio=r_mass * w**2, compliance_ratio=f_b / f_s,
         contact_compliance=f_th, contact_assumed=assumed, modes=int(t.modes[0]),
         time_step=float(t.dt[0]), separation_time=t_sep if math.isfinite(t_sep) else None,
         history=history)
@@ -246,46 +263,99 @@ def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, 
                   load_stiffness: float | None = None,
                   beam_mass: bool = True, basis: Basis = "aisc360", bearing: float = 0.0,
                   udl: float = 0.0, self_weight: bool = True) -> Verification:
-    """One member (SI inputs as :func:`droprig.solver.member.assess_member`): contact
-    compliance 1/k_cushion + 1/k_load in series; the energy method with the struck-mass
-    share mₑ·(f_s/f)² unless a mat is given or ``beam_mass`` is off (droprig check's
-    rule). The factors and the verdict's demands are those of ``droprig check
-    --amplified`` (the chain's amplification step, its own time history where it ran
-    one; ``basis``, ``bearing`` (m), ``udl`` (N/m) and ``self_weight`` as the check's),
-    and the time history caps the contact
-    force as the chain does (the bare flange's local yield force,
-    :func:`droprig.solver.capacity.flange_contact_force_bound`)."""
+    """One member (SI inputs as :func:`droprig.solver.member.assess_member`), verified
+    as a floor of one member: ``droprig check --amplified``'s chain
+    (:func:`droprig.solver.member.member_chain`, the chain's amplification step, its
+    own time history where it ran one; ``basis``, ``bearing`` (m), ``udl`` (N/m) and
+    ``self_weight`` as the check's) and its struck-member record, read as the floor's
+    verification reads it (:func:`verify_point`): the contact compliance
+    1/k_cushion + 1/k_load in series, the struck-mass share mₑ·(f_s/f)² unless a mat is
+    given or ``beam_mass`` is off (droprig check's rule), the contact capped as the
+    chain caps it (the bare flange's local yield force over the flange's thickness,
+    :func:`droprig.solver.capacity.flange_contact_force_bound`). Raises
+    :class:`OverSupportError` (field ``at``) on a support, where the member does not
+    move."""
     if cond not in beam.END_CONDITIONS:
         raise ModelError("support", cond, "one of " + ", ".join(beam.END_CONDITIONS))
-    from droprig.solver.chain import DynamicAmplification, Impact
     from droprig.solver.member import MemberDrop, member_chain
 
-    f_c = 0.0
-    if cushion_stiffness is not None:
-        f_c += 1.0 / cushion_stiffness
-    if load_stiffness is not None:
-        f_c += 1.0 / load_stiffness
-    # the chain droprig check --amplified runs: its contact cap (the bare flange's
-    # local yield force over the flange's thickness) and its factors
     c = member_chain(MemberDrop(section, grade, cond, L, a, mass, h, basis=basis,
                                 bearing=bearing, cushion_stiffness=cushion_stiffness,
                                 load_stiffness=load_stiffness, udl=udl,
                                 self_weight=self_weight, beam_mass=beam_mass,
                                 dynamic_amplification=True))
-    imp = c[Impact]
-    F_y = float(imp.F_crush[0])
-    kGA, rhoI = pointhistory.timoshenko_terms(section, grade)
-    return _verify(cond, L, grade.E * section.Ix, section.mass_per_length, a, mass, h, f_c,
-                   beam_mass and cushion_stiffness is None, scaled_mass=True,
-                   F_yield=F_y, stroke=float(section.tf),
-                   chain_factors=(float(imp.F[0]), _factors(c[DynamicAmplification], 0)),
-                   kGA=kGA, rhoI=rhoI)
+    ver, _ = _chain_verification(c, amplified=True, where=("at", float(a)))
+    return ver
 
 
 def _factors(da: DynamicAmplification, i: int) -> dict[str, float]:
     """The chain's amplification factors at point ``i`` by :data:`QUANTITIES`."""
     return {"force": float(da.A_force[i]), "moment": float(da.A_moment[i]),
             "shear": float(da.A_shear[i]), "deflection": float(da.A_deflection[i])}
+
+
+def _struck(chain: Chain, steel_only: bool = False) -> dict[str, float]:
+    """The chain's struck member at its first point
+    (:func:`droprig.solver.pointhistory.struck_member`, the one source the chain's own
+    point histories read), as scalars; its mass per length μ (kg/m) the record's — the
+    steel with the deck and superimposed dead load over its tributary width — or, with
+    ``steel_only``, the frame's alone (:func:`verify_point`'s ``slab_mass`` off); the
+    steel section's where the project leaves member mass out of the struck mass (a
+    time history needs the member's mass)."""
+    s = {k: v[0] for k, v in pointhistory.struck_member(chain, np.zeros(1, dtype=np.int64)
+                                                        ).items()}
+    member = chain.drop.fm.level.members[int(s["member"])]
+    mu = float(s["mu_steel"]) if steel_only else float(s["mu"])
+    s["mu"] = mu if mu > 0.0 else member.section.mass_per_length
+    return s
+
+
+def _chain_verification(chain: Chain, *, amplified: bool, where: tuple[str, object],
+                        steel_only: bool = False) -> tuple[Verification, dict[str, float]]:
+    """The verification of a chain's first point — a floor's drop point or a member's
+    one-member floor, read the same way: the struck member's record (:func:`_struck`),
+    the chain's load, strike speed (the free fall plus the hoist's lowering-speed
+    head, h + v_h²/2g, :func:`droprig.solver.chain.energy_fall`: the time history
+    starts at the same speed), force on the framing and contact force (N), and, where
+    the verdict is ``amplified``, its factors — else the verdict is the energy method
+    (factors 1); the force row compares the chain's contact force (what the local
+    checks take). Raises :class:`OverSupportError` naming ``where`` (the field and
+    its value: the point, or the member's struck position in m) over a support of the
+    struck member. Returns the verification and the record."""
+    from droprig.solver.chain import (
+        DynamicAmplification,
+        Impact,
+        LoadInputs,
+        StruckMass,
+        energy_fall,
+    )
+
+    s = _struck(chain, steel_only)
+    if bool(s["over_support"]):
+        member = chain.drop.fm.level.members[int(s["member"])]
+        field, value = where
+        # droprig verify's member (field "at", m) is the one-member floor's only member
+        name = "the member" if field == "at" else f"member {member.id}"
+        raise OverSupportError(field, value,
+                               f"a point off the supports of {name} (it is "
+                               f"{float(s['a']):.3f} m along it, over a support, where "
+                               "the modelled member does not move)",
+                               "m" if field == "at" else "")
+    inp, imp = chain[LoadInputs], chain[Impact]
+    amplified = amplified and DynamicAmplification in chain
+    factors = (_factors(chain[DynamicAmplification], 0) if amplified
+               else dict.fromkeys(QUANTITIES, 1.0))
+    h_e = float(energy_fall(chain, inp.h)[0])
+    ver = _verify(s, float(inp.M[0]), h_e, bool(chain[StruckMass].m_e[0] > 0.0),
+                  chain_factors=(float(imp.F[0]), factors),
+                  contact_force=float(imp.contact[0]))
+    if not amplified:
+        # the checks use the chain's energy method alone (amplification off in the
+        # project's settings): that is the demand the verdict uses (the force row: the
+        # chain's contact force, which the local checks take)
+        ver = replace(ver, verdict=dict(ver.energy),
+                      amplification=dict.fromkeys(QUANTITIES, 1.0))
+    return ver, s
 
 
 def verify_point(project: Project, zone_id: str, load_name: str, x: float,
@@ -310,84 +380,23 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     steel's mass alone (the idealisation before stop 27), to show how far the mass
     moves the comparison. The member is a Timoshenko beam
     (:func:`droprig.solver.pointhistory.timoshenko_terms`)."""
-    from droprig.solver.chain import Impact, LoadInputs, StruckMass, energy_fall
+    from droprig.solver.chain import DynamicAmplification, Impact
     from droprig.solver.evaluate import governing_landing_chain, point_case
 
     case = point_case(project, zone_id, load_name, x, y, opening=True,
                       fields=("verify.lift", "verify.load", "verify.point"))
-    zone, load, fm, geo = case.zone, case.load, case.fm, case.geo
+    fm, geo = case.fm, case.geo
     # the landing that governs the point, as the calculation trace follows it
-    _, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
-    inp = chain[LoadInputs]
-    # the struck member, its contact and crushing cap as the chain's own point
-    # histories take them (one source: pointhistory.struck_member) — the chain's EI
-    # (composite where the member is studded), the chain's crushing stroke (the deck's
-    # crush_depth_available, or a crushable layer's)
-    s = {k: v[0] for k, v in pointhistory.struck_member(chain, np.zeros(1, dtype=np.int64)
-                                                        ).items()}
+    _, chain = governing_landing_chain(fm, project, case.load, geo, case.zone.hoist_speed)
+    amplified = bool(project.settings.dynamic_amplification and DynamicAmplification in chain)
+    ver, s = _chain_verification(chain, amplified=amplified, steel_only=not slab_mass,
+                                 where=("verify.point", (float(x), float(y))))
     member = fm.level.members[int(s["member"])]
-    cond = cast(EndCondition, str(s["cond"]))
-    L, a, EI = float(s["L"]), float(s["a"]), float(s["EI"])
-    if bool(s["over_support"]):
-        # over a column or a support of the member: the time history's struck
-        # member does not move there
-        raise OverSupportError("verify.point", (float(x), float(y)),
-                         f"a point off the supports of member {member.id} (it is "
-                         f"{a:.3f} m along it, over a support, where the modelled "
-                         "member does not move)")
-    # the member's own mass: the frame's μ, the steel's where the project leaves
-    # member mass out of the struck mass (a time history needs the member's mass)
-    # (struck_member's μ carries the slab; without it, the steel's)
-    mu = float(s["mu"])
-    if not slab_mass:
-        mu = (float(s["mu_steel"]) if float(s["mu_steel"]) > 0.0
-              else member.section.mass_per_length)
-    # the rest of the path in series: everything but the member's own spring under its
-    # share w (f_all − w²·g_m; _verify takes f_all − g_m and the share)
-    w = float(s["share"])
-    f_c = float(s["f_all"]) - float(s["g_m"])
-    amplified, chain_factors = _verdict_factors(project, chain)
-    # the strike speed the chain uses: the free fall plus the hoist's lowering-speed
-    # head, h + v_h²/2g (chain.energy_fall) — the time history starts at the same speed
-    h_e = float(energy_fall(chain, inp.h)[0])
-    ver = _verify(cond, L, EI, mu, a, float(inp.M[0]), h_e, f_c,
-                  bool(chain[StruckMass].m_e[0] > 0.0), scaled_mass=True,
-                  F_yield=float(s["F_yield"]), stroke=float(s["stroke"]),
-                  chain_factors=chain_factors, share=w,
-                  contact_force=float(chain[Impact].contact[0]),
-                  kGA=float(s["kGA"]), rhoI=float(s["rhoI"]))
-
-    if not amplified:
-        # the project's checks use the chain's energy method alone (amplification off
-        # in its settings): that is the demand the verdict uses (the force row: the
-        # chain's contact force, which the local checks take)
-        ver = replace(ver, verdict=dict(ver.energy),
-                      amplification=dict.fromkeys(QUANTITIES, 1.0))
     return PointVerification(zone_id=zone_id, load_name=load_name, x=float(x), y=float(y),
-                             bay_id=_bay_name(fm.level, geo), member_id=member.id, cond=cond,
-                             L=L, a=a, chain_peak_force=float(chain[Impact].F[0]),
-                             verification=ver, EI=EI)
-
-
-def _verdict_factors(project: Project,
-                     chain: Chain) -> tuple[bool, tuple[float, dict[str, float]]]:
-    """Whether the verdict is amplified at the point, and what it used there: the
-    chain's own force on the framing (N; its energy method: the two-mass step, a
-    crushing layer's framing force over the crush's duration, after bottoming), to
-    go on the member's unit-load envelopes, and the chain's own amplification factors
-    where the project has them on — never a force the verification works out itself.
-    With amplification off the factors are 1: the verification's own single-member
-    energy method read the framing force of a heavy unit crushing a pad as the pad's
-    force alone (90 kN, where the chain's check takes 180 kN over the crush's
-    duration: rooftop demo, AHU-3 (new) at (7.375, 4.25)), and printed it as what the
-    verdict used."""
-    from droprig.solver.chain import DynamicAmplification, Impact
-
-    amplified = bool(project.settings.dynamic_amplification
-                     and DynamicAmplification in chain)
-    factors = (_factors(chain[DynamicAmplification], 0) if amplified
-               else dict.fromkeys(QUANTITIES, 1.0))
-    return amplified, (float(chain[Impact].F[0]), factors)
+                             bay_id=_bay_name(fm.level, geo), member_id=member.id,
+                             cond=str(s["cond"]), L=float(s["L"]), a=float(s["a"]),
+                             chain_peak_force=float(chain[Impact].F[0]),
+                             verification=ver, EI=float(s["EI"]))
 
 
 def _bay_name(level: Level, geo: Geometry) -> str:
