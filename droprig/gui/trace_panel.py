@@ -279,7 +279,6 @@ class TracePanel(QWidget):
             return None
         from droprig.gui.verify_dialog import VerifyDialog
         from droprig.report.verify_plots import point_verification_figures
-        from droprig.texts import describe_error
 
         QApplication.setOverrideCursor(Qt.CursorShape.WaitCursor)
         try:
@@ -288,7 +287,8 @@ class TracePanel(QWidget):
         except Exception as exc:  # a message, never a crash
             QApplication.restoreOverrideCursor()
             QMessageBox.warning(self, "Time-history verification",
-                                f"This point cannot be verified: {describe_error(exc)}")
+                                refusal_text(exc, trace.x, trace.y,
+                                             project.settings.unit_system))
             return None
         QApplication.restoreOverrideCursor()
         dlg = VerifyDialog(pv, figs, project.settings.unit_system, self,
@@ -319,3 +319,23 @@ class TracePanel(QWidget):
         cb = QGuiApplication.clipboard()
         if cb is not None and self._trace is not None:
             cb.setText(self.plain_text())
+
+
+def refusal_text(exc: BaseException, x: float, y: float, system: str) -> str:
+    """Why the traced point (x, y in m) cannot be verified, in the project's units.
+    Over a support of the modelled member the verification's own field and raw point
+    ("verify.point: (27.432000000000002, 22.86) … 9.144 m along it" in a US project,
+    seen under Xvfb on the steel demo's welder) become words a signer reads: the
+    point and the member, and what to do instead (common practice, no source)."""
+    from droprig import units
+    from droprig.solver import OverSupportError
+    from droprig.texts import describe_error
+
+    where = f"({units.fmt(x, 'length', system)}, {units.fmt(y, 'length', system)})"
+    if isinstance(exc, OverSupportError) and exc.member_id:
+        return (f"The point {where} lies over a support of member {exc.member_id} "
+                f"({units.fmt(exc.along, 'length', system)} along it), where the "
+                "modelled member does not move: its time history is no check of this "
+                "point. The calculation trace and the bay's other points are for the "
+                "engineer to judge.")
+    return f"The point {where} cannot be verified: {describe_error(exc)}"

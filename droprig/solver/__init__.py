@@ -62,6 +62,7 @@ from droprig.solver.trace import trace_point
 from droprig.solver.verification import (
     SKIP_OFF_PANEL,
     SKIP_OVER_SUPPORT,
+    OverSupportError,
     PointVerification,
     Verification,
     verification_table,
@@ -148,6 +149,7 @@ __all__ = [
     "Cascade",
     "CaseResult",
     "History",
+    "OverSupportError",
     "PointVerification",
     "Resistances",
     "Results",

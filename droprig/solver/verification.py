@@ -149,7 +149,12 @@ an opening)."""
 
 class OverSupportError(ModelError):
     """A point over a support of the modelled member: the member does not move there,
-    so its time history is no check of the point (:data:`SKIP_OVER_SUPPORT`)."""
+    so its time history is no check of the point (:data:`SKIP_OVER_SUPPORT`).
+    ``member_id`` names the member where known, ``along`` (m) where the point lies
+    along it (the window says both in the project's units)."""
+
+    member_id: str = ""
+    along: float = math.nan
 
 
 @functools.lru_cache(maxsize=256)
@@ -336,11 +341,13 @@ def _chain_verification(chain: Chain, *, amplified: bool, where: tuple[str, obje
         field, value = where
         # droprig verify's member (field "at", m) is the one-member floor's only member
         name = "the member" if field == "at" else f"member {member.id}"
-        raise OverSupportError(field, value,
+        err = OverSupportError(field, value,
                                f"a point off the supports of {name} (it is "
                                f"{float(s['a']):.3f} m along it, over a support, where "
                                "the modelled member does not move)",
                                "m" if field == "at" else "")
+        err.member_id, err.along = str(member.id), float(s["a"])
+        raise err
     inp, imp = chain[LoadInputs], chain[Impact]
     amplified = amplified and DynamicAmplification in chain
     factors = (_factors(chain[DynamicAmplification], 0) if amplified
