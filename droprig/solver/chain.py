@@ -1500,6 +1500,29 @@ class _Bounds:
     forces: amp_mod.AmplifiedForces
 
 
+OWN_TABLE_SHARE = (0.5, 0.6)
+"""Shares of the framing's compliance that is the struck member's own bending between
+which the table fades from the envelope over every condition and position band to
+the member's own (:func:`own_table_weight`)."""
+
+
+def own_table_weight(own: np.ndarray, f_s: np.ndarray, f_col: np.ndarray) -> np.ndarray:
+    """Weight (0–1, dimensionless) of the struck member's own table against the
+    envelope over every condition and band (:func:`droprig.solver.amplification.
+    amplification`'s ``own_weight``): 0 where the member's own bending (``own``, share
+    of the members' bending compliance, times f_s − f_col over f_s; compliances m/N)
+    is at most half the framing's compliance — over a girder line or a column the
+    member struck is not the one that moves — rising linearly to 1 at
+    :data:`OWN_TABLE_SHARE` [1]. Before it the table switched at one half and the
+    factors stepped there (a shear factor 21.4 → 8.1 across 5 mm,
+    tests/solver/test_amplification_continuous.py); the envelope is the larger, so
+    the fade reads at or above the switch's value."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        q = np.where(f_s > 0.0, own * (f_s - f_col) / np.where(f_s > 0.0, f_s, 1.0), 0.0)
+    lo, hi = OWN_TABLE_SHARE
+    return np.clip((q - lo) / (hi - lo), 0.0, 1.0)
+
+
 def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
     """The table, the bounds and the amplified forces of the energy heads ``h`` (m)."""
     d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
@@ -1516,10 +1539,11 @@ def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
     m_path = table_mass(d.geo.path.m_e, d.geo.path.w_ref, d.geo.path.f)
     f_contact = f_beyond - comp.f_s
     key = struck_member_table(c)
-    own = key["own"] * (comp.f_s - comp.f_col) >= 0.5 * comp.f_s  # members' bending
-    cond = np.where(own, key["cond"], -1)
+    w_own = own_table_weight(key["own"], comp.f_s, comp.f_col)
+    cond = np.where(w_own > 0.0, key["cond"], -1)
     a = amp_mod.amplification(inp.M, m_path, f_contact, comp.f_s,
-                              struck_mass=sm.m_e > 0.0, cond=cond, xi=key["xi"])
+                              struck_mass=sm.m_e > 0.0, cond=cond, xi=key["xi"],
+                              own_weight=w_own)
     rigid = amp_mod.contact_force_bound(inp.W, h, f_contact)
     # the tables multiply the energy method's elastic (uncapped) force, as calibrated
     # (the chain's struck-mass share: its mass, normalised by w_ref, is at most the
@@ -1593,9 +1617,31 @@ def _bound_factors(imp: Impact, forces: amp_mod.AmplifiedForces) -> dict[str, np
 
 IMPULSE_MASS_RATIO = 1.0
 """Largest r = M/mₑ (the table's mass ratio) at which the impulse bound
-(:func:`_with_impulse_bounds`) is worked out: above it the load is not light against
-the member, its contact not short, and the other bounds are the tighter (a cost
-limit, not a validity one: the bound holds for any load)."""
+(:func:`_with_impulse_bounds`) is taken at full strength: above it the load is not
+light against the member, its contact not short, and the other bounds are the tighter
+(a cost limit, not a validity one: the bound holds for any load)."""
+IMPULSE_FADE_MASS_RATIO = 2.0
+"""r at which the impulse bound has faded out (:func:`impulse_fade`): between
+:data:`IMPULSE_MASS_RATIO` and this it is relaxed continuously, so the factors do not
+step where it stops being worked out."""
+
+
+def impulse_fade(r: np.ndarray) -> np.ndarray:
+    """Factor (≥ 1, dimensionless) on the impulse bound's factors at mass ratio r
+    (dimensionless): 1 up to :data:`IMPULSE_MASS_RATIO`, 1/(1 − s) with s =
+    ln(r/r₁)/ln(r₂/r₁) between it (r₁) and :data:`IMPULSE_FADE_MASS_RATIO` (r₂), ∞
+    from r₂. Any value above an upper bound of the time history is one too, so
+    min(other bounds, fade × impulse bound) still bounds it, and it runs continuously
+    from the impulse bound (r ≤ r₁) to the other bounds (r ≥ r₂): before it the
+    factors stepped where the bound stopped being worked out (a moment factor 2.5 →
+    3.3 at r = 1, tests/solver/test_amplification_continuous.py)."""
+    r = np.asarray(r, float)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        s = np.log(r / IMPULSE_MASS_RATIO) / np.log(IMPULSE_FADE_MASS_RATIO
+                                                    / IMPULSE_MASS_RATIO)
+        g = 1.0 / (1.0 - s)
+    return np.where(r <= IMPULSE_MASS_RATIO, 1.0,
+                    np.where(r < IMPULSE_FADE_MASS_RATIO, g, np.inf))
 
 
 def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplification,
@@ -1605,19 +1651,22 @@ def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplif
     (:func:`droprig.solver.pointhistory.impulse_factors`; Duhamel's integral on the
     struck member's kept modes, the contact's impulse and peak force — an upper bound
     of that history as the other bounds are, so the least of them is one) where it is
-    less, at the light loads' points (r ≤ :data:`IMPULSE_MASS_RATIO`) on a path whose
+    less, at the light loads' points (r ≤ :data:`IMPULSE_MASS_RATIO`, relaxed by
+    :func:`impulse_fade` up to :data:`IMPULSE_FADE_MASS_RATIO`) on a path whose
     factors lie above 1; the member's moment, shear and deflection (the connection
     check, end shear, takes the shear's), the member's local checks at the contact
     force (web yielding, crippling) and the deck's at its share of it."""
     d = c.drop
     ok = ((d.geo.path.pair >= 0) & ~d.geo.opening & np.isfinite(imp.F) & (imp.F > 0.0)
-          & np.isfinite(h) & (h > 0.0) & (a.mass_ratio <= IMPULSE_MASS_RATIO))
+          & np.isfinite(h) & (h > 0.0) & (a.mass_ratio < IMPULSE_FADE_MASS_RATIO))
     A_max = np.maximum(np.maximum(factor["web_yielding"], factor["flexure"]),
                        np.maximum(factor["shear"], factor["deflection"]))
     sel = np.flatnonzero(ok & (A_max > 1.0 + 1e-9))
     if sel.size == 0:
         return factor, set_by
     got = pointhistory.impulse_factors(c, sel, h[sel], imp.F[sel])
+    fade = impulse_fade(a.mass_ratio[sel])  # 1 up to IMPULSE_MASS_RATIO
+    got = {k: v * fade for k, v in got.items()}
     factor = {k: v.copy() for k, v in factor.items()}
     set_by = {k: v.copy() for k, v in set_by.items()}
     ti = amp_mod.SET_BY.index("impulse bound")
