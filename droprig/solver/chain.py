@@ -1622,26 +1622,26 @@ light against the member, its contact not short, and the other bounds are the ti
 (a cost limit, not a validity one: the bound holds for any load)."""
 IMPULSE_FADE_MASS_RATIO = 2.0
 """r at which the impulse bound has faded out (:func:`impulse_fade`): between
-:data:`IMPULSE_MASS_RATIO` and this it is relaxed continuously, so the factors do not
-step where it stops being worked out."""
+:data:`IMPULSE_MASS_RATIO` and this the factor runs from it to the other bounds'
+continuously, so the factors do not step where it stops being worked out."""
 
 
 def impulse_fade(r: np.ndarray) -> np.ndarray:
-    """Factor (≥ 1, dimensionless) on the impulse bound's factors at mass ratio r
-    (dimensionless): 1 up to :data:`IMPULSE_MASS_RATIO`, 1/(1 − s) with s =
-    ln(r/r₁)/ln(r₂/r₁) between it (r₁) and :data:`IMPULSE_FADE_MASS_RATIO` (r₂), ∞
-    from r₂. Any value above an upper bound of the time history is one too, so
-    min(other bounds, fade × impulse bound) still bounds it, and it runs continuously
-    from the impulse bound (r ≤ r₁) to the other bounds (r ≥ r₂): before it the
-    factors stepped where the bound stopped being worked out (a moment factor 2.5 →
-    3.3 at r = 1, tests/solver/test_amplification_continuous.py)."""
+    """Weight t (0–1, dimensionless) of the other bounds against the impulse bound at
+    mass ratio r (dimensionless): 0 up to :data:`IMPULSE_MASS_RATIO` (r₁), ln(r/r₁)/
+    ln(r₂/r₁) up to :data:`IMPULSE_FADE_MASS_RATIO` (r₂), 1 beyond. Where the
+    impulse bound A_I is below the other bounds' factor A, the factor taken is
+    A_I + t·(A − A_I): between two upper bounds of the time history, so at least
+    the lesser of them and itself one, running continuously from the impulse bound
+    (r ≤ r₁) to the other bounds (r ≥ r₂). Before it the factors stepped where the
+    bound stopped being worked out (a moment factor 2.5 → 3.3 at r = 1,
+    tests/solver/test_amplification_continuous.py)."""
     r = np.asarray(r, float)
     with np.errstate(divide="ignore", invalid="ignore"):
-        s = np.log(r / IMPULSE_MASS_RATIO) / np.log(IMPULSE_FADE_MASS_RATIO
+        t = np.log(r / IMPULSE_MASS_RATIO) / np.log(IMPULSE_FADE_MASS_RATIO
                                                     / IMPULSE_MASS_RATIO)
-        g = 1.0 / (1.0 - s)
-    return np.where(r <= IMPULSE_MASS_RATIO, 1.0,
-                    np.where(r < IMPULSE_FADE_MASS_RATIO, g, np.inf))
+    return np.clip(np.where(np.isfinite(t), t, np.where(r > IMPULSE_MASS_RATIO, 1.0, 0.0)),
+                   0.0, 1.0)
 
 
 def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplification,
@@ -1651,8 +1651,8 @@ def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplif
     (:func:`droprig.solver.pointhistory.impulse_factors`; Duhamel's integral on the
     struck member's kept modes, the contact's impulse and peak force — an upper bound
     of that history as the other bounds are, so the least of them is one) where it is
-    less, at the light loads' points (r ≤ :data:`IMPULSE_MASS_RATIO`, relaxed by
-    :func:`impulse_fade` up to :data:`IMPULSE_FADE_MASS_RATIO`) on a path whose
+    less, at the light loads' points (r ≤ :data:`IMPULSE_MASS_RATIO`, faded into the
+    other bounds up to :data:`IMPULSE_FADE_MASS_RATIO`, :func:`impulse_fade`) on a path whose
     factors lie above 1; the member's moment, shear and deflection (the connection
     check, end shear, takes the shear's), the member's local checks at the contact
     force (web yielding, crippling) and the deck's at its share of it."""
@@ -1665,8 +1665,12 @@ def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplif
     if sel.size == 0:
         return factor, set_by
     got = pointhistory.impulse_factors(c, sel, h[sel], imp.F[sel])
-    fade = impulse_fade(a.mass_ratio[sel])  # 1 up to IMPULSE_MASS_RATIO
-    got = {k: v * fade for k, v in got.items()}
+    t = impulse_fade(a.mass_ratio[sel])  # 0 up to IMPULSE_MASS_RATIO
+
+    def faded(A: np.ndarray, other: np.ndarray) -> np.ndarray:
+        # A + t·(other − A) where the impulse bound A is the lesser (impulse_fade)
+        with np.errstate(invalid="ignore"):
+            return np.where(A < other, A + t * (other - A), other)
     factor = {k: v.copy() for k, v in factor.items()}
     set_by = {k: v.copy() for k, v in set_by.items()}
     ti = amp_mod.SET_BY.index("impulse bound")
@@ -1675,7 +1679,7 @@ def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplif
                         ("web_yielding", "force", "local"), ("web_crippling", "force", None)):
         A = np.where(np.isfinite(got[q]), np.maximum(got[q], 1.0), np.inf)
         lower = A < factor[fam][sel]
-        factor[fam][sel] = np.where(lower, A, factor[fam][sel])
+        factor[fam][sel] = faded(A, factor[fam][sel])
         if key is not None:
             set_by[key][sel] = np.where(lower, ti, set_by[key][sel])
     # the deck's checks read the deck's force F_deck = deck_ratio·F, at most the contact
@@ -1684,7 +1688,7 @@ def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplif
         A_deck = np.maximum(got["force"] / imp.deck_ratio[sel], 1.0)
     A_deck = np.where(np.isfinite(A_deck), A_deck, np.inf)
     for fam in ("deck_flexure", "deck_punching"):
-        factor[fam][sel] = np.minimum(factor[fam][sel], A_deck)
+        factor[fam][sel] = faded(A_deck, factor[fam][sel])
     return factor, set_by
 
 

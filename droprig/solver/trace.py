@@ -475,7 +475,7 @@ def _amplification_steps(sheet: _Sheet) -> None:
     # the impulse bound of the point's own time history where it is less
     # (chain._with_impulse_bounds)
     src_imp = ("; where r ≤ 1 also the impulse bound of the point's time history "
-               "(relaxed by 1/(1 − ln r/ln 2) for 1 < r < 2, chain.impulse_fade) "
+               "(faded into the other bounds by ln r/ln 2 for 1 < r < 2, chain.impulse_fade) "
                "(droprig.solver.amplification_impulse: Duhamel's integral on the struck "
                "member's kept modes with the contact's impulse and peak force; Biggs 1964 "
                "ch. 2, Chopra §4.2)")
