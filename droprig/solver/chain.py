@@ -1617,31 +1617,32 @@ def _bound_factors(imp: Impact, forces: amp_mod.AmplifiedForces) -> dict[str, np
 
 IMPULSE_MASS_RATIO = 1.0
 """Largest r = M/mₑ (the table's mass ratio) at which the impulse bound
-(:func:`_with_impulse_bounds`) is taken at full strength: above it the load is not
-light against the member, its contact not short, and the other bounds are the tighter
-(a cost limit, not a validity one: the bound holds for any load)."""
-IMPULSE_FADE_MASS_RATIO = 2.0
-"""r at which the impulse bound has faded out (:func:`impulse_fade`): between
-:data:`IMPULSE_MASS_RATIO` and this the factor runs from it to the other bounds'
+(:func:`_with_impulse_bounds`) is worked out: above it the load is not light against
+the member, its contact not short, and the other bounds are the tighter (a cost
+limit, not a validity one: the bound holds for any load)."""
+IMPULSE_FADE_MASS_RATIO = 0.5
+"""r from which the impulse bound fades out (:func:`impulse_fade`): between this and
+:data:`IMPULSE_MASS_RATIO` the factor runs from it to the other bounds'
 continuously, so the factors do not step where it stops being worked out."""
 
 
 def impulse_fade(r: np.ndarray) -> np.ndarray:
     """Weight t (0–1, dimensionless) of the other bounds against the impulse bound at
-    mass ratio r (dimensionless): 0 up to :data:`IMPULSE_MASS_RATIO` (r₁), ln(r/r₁)/
-    ln(r₂/r₁) up to :data:`IMPULSE_FADE_MASS_RATIO` (r₂), 1 beyond. Where the
+    mass ratio r (dimensionless): 0 up to :data:`IMPULSE_FADE_MASS_RATIO` (r₀),
+    ln(r/r₀)/ln(r₁/r₀) up to :data:`IMPULSE_MASS_RATIO` (r₁), 1 from it. Where the
     impulse bound A_I is below the other bounds' factor A, the factor taken is
-    A_I + t·(A − A_I): between two upper bounds of the time history, so at least
-    the lesser of them and itself one, running continuously from the impulse bound
-    (r ≤ r₁) to the other bounds (r ≥ r₂). Before it the factors stepped where the
+    A_I + t·(A − A_I): between two upper bounds of the time history, so at least the
+    lesser of them (itself one) and never below the factor taken before the fade
+    (min(A, A_I) for r ≤ r₁, A above), running continuously from the impulse bound
+    (r ≤ r₀) to the other bounds (r ≥ r₁). Before it the factors stepped where the
     bound stopped being worked out (a moment factor 2.5 → 3.3 at r = 1,
     tests/solver/test_amplification_continuous.py)."""
     r = np.asarray(r, float)
     with np.errstate(divide="ignore", invalid="ignore"):
-        t = np.log(r / IMPULSE_MASS_RATIO) / np.log(IMPULSE_FADE_MASS_RATIO
-                                                    / IMPULSE_MASS_RATIO)
-    return np.clip(np.where(np.isfinite(t), t, np.where(r > IMPULSE_MASS_RATIO, 1.0, 0.0)),
-                   0.0, 1.0)
+        t = np.log(r / IMPULSE_FADE_MASS_RATIO) / np.log(IMPULSE_MASS_RATIO
+                                                         / IMPULSE_FADE_MASS_RATIO)
+    return np.clip(np.where(np.isfinite(t), t,
+                            np.where(r > IMPULSE_FADE_MASS_RATIO, 1.0, 0.0)), 0.0, 1.0)
 
 
 def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplification,
@@ -1651,21 +1652,21 @@ def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplif
     (:func:`droprig.solver.pointhistory.impulse_factors`; Duhamel's integral on the
     struck member's kept modes, the contact's impulse and peak force — an upper bound
     of that history as the other bounds are, so the least of them is one) where it is
-    less, at the light loads' points (r ≤ :data:`IMPULSE_MASS_RATIO`, faded into the
-    other bounds up to :data:`IMPULSE_FADE_MASS_RATIO`, :func:`impulse_fade`) on a path whose
+    less, at the light loads' points (r < :data:`IMPULSE_MASS_RATIO`, fading into the
+    other bounds from :data:`IMPULSE_FADE_MASS_RATIO`, :func:`impulse_fade`) on a path whose
     factors lie above 1; the member's moment, shear and deflection (the connection
     check, end shear, takes the shear's), the member's local checks at the contact
     force (web yielding, crippling) and the deck's at its share of it."""
     d = c.drop
     ok = ((d.geo.path.pair >= 0) & ~d.geo.opening & np.isfinite(imp.F) & (imp.F > 0.0)
-          & np.isfinite(h) & (h > 0.0) & (a.mass_ratio < IMPULSE_FADE_MASS_RATIO))
+          & np.isfinite(h) & (h > 0.0) & (a.mass_ratio < IMPULSE_MASS_RATIO))
     A_max = np.maximum(np.maximum(factor["web_yielding"], factor["flexure"]),
                        np.maximum(factor["shear"], factor["deflection"]))
     sel = np.flatnonzero(ok & (A_max > 1.0 + 1e-9))
     if sel.size == 0:
         return factor, set_by
     got = pointhistory.impulse_factors(c, sel, h[sel], imp.F[sel])
-    t = impulse_fade(a.mass_ratio[sel])  # 0 up to IMPULSE_MASS_RATIO
+    t = impulse_fade(a.mass_ratio[sel])  # 0 up to IMPULSE_FADE_MASS_RATIO
 
     def faded(A: np.ndarray, other: np.ndarray) -> np.ndarray:
         # A + t·(other − A) where the impulse bound A is the lesser (impulse_fade)
