@@ -191,23 +191,19 @@ def _bracket(log_nodes: np.ndarray, u: np.ndarray) -> tuple[np.ndarray, np.ndarr
     return i, np.clip(t, 0.0, 1.0)
 
 
-def interpolate_nodes(nodes: np.ndarray, r: np.ndarray, kappa: np.ndarray) -> np.ndarray:
+def interpolate_nodes(nodes: np.ndarray, lead: tuple[ArrayLike, ...], r: np.ndarray,
+                      kappa: np.ndarray) -> np.ndarray:
     """Bilinear interpolation in (log r, log κ) of a node table ``nodes[..., p, q]``
-    (:func:`node_envelope`, leading axes already indexed per case, i.e. ``nodes`` of
-    shape r.shape + (10, 9)) at r = M/mₑ and κ = f_c/f_s (finite, > 0; dimensionless),
-    held at the end nodes beyond the first and last edges."""
+    (:func:`node_envelope`) at r = M/mₑ and κ = f_c/f_s (finite, > 0;
+    dimensionless), per case: ``lead`` the indices of the leading axes (arrays
+    broadcasting with r), held at the outermost nodes beyond them."""
     lr = np.log(np.maximum(r, 1e-300))
     lk = np.log(np.maximum(kappa, 1e-300))
     i, s = _bracket(_LOG_R_NODES, lr)
     j, t = _bracket(_LOG_K_NODES, lk)
-
-    def at(p: np.ndarray, q: np.ndarray) -> np.ndarray:
-        return np.take_along_axis(
-            np.take_along_axis(nodes, p[..., None, None], axis=-2)[..., 0, :],
-            q[..., None], axis=-1)[..., 0]
-
-    return ((1.0 - s) * (1.0 - t) * at(i, j) + s * (1.0 - t) * at(i + 1, j)
-            + (1.0 - s) * t * at(i, j + 1) + s * t * at(i + 1, j + 1))
+    return ((1.0 - s) * (1.0 - t) * nodes[(*lead, i, j)]
+            + s * (1.0 - t) * nodes[(*lead, i + 1, j)]
+            + (1.0 - s) * t * nodes[(*lead, i, j + 1)] + s * t * nodes[(*lead, i + 1, j + 1)])
 
 
 _NODES = node_envelope(_TABLE)  # [variant, quantity, condition, band, r node, κ node]
@@ -297,7 +293,7 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, 
     if cond is None or xi is None:
         # every condition and position band: the largest factor of the cell
         def look(q: int) -> np.ndarray:
-            t = interpolate_nodes(_ENV_NODES[variant, q], r_in, k_in)
+            t = interpolate_nodes(_ENV_NODES, (variant, np.int64(q)), r_in, k_in)
             return np.where(exact, 1.0, t)
     else:
         cv = np.asarray(cond)
@@ -317,10 +313,11 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, 
         w_own = np.where(known, w_own, 0.0)
 
         def look(q: int) -> np.ndarray:
-            env = interpolate_nodes(_ENV_NODES[variant, q], r_in, k_in)
+            env = interpolate_nodes(_ENV_NODES, (variant, np.int64(q)), r_in, k_in)
             own = np.ones(M.shape)
             for b in range(len(POSITION_EDGES) + 1):
-                v = interpolate_nodes(_NODES[variant, q, cs, b], r_in, k_in)
+                v = interpolate_nodes(_NODES, (variant, np.int64(q), cs, np.int64(b)),
+                                      r_in, k_in)
                 own = np.maximum(own, 1.0 + wb[..., b] * (v - 1.0))
             return np.where(exact, 1.0, env + w_own * (own - env))
 
