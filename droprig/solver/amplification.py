@@ -201,9 +201,13 @@ def interpolate_nodes(nodes: np.ndarray, lead: tuple[ArrayLike, ...], r: np.ndar
     lk = np.log(np.maximum(kappa, 1e-300))
     i, s = _bracket(_LOG_R_NODES, lr)
     j, t = _bracket(_LOG_K_NODES, lk)
-    return ((1.0 - s) * (1.0 - t) * nodes[(*lead, i, j)]
-            + s * (1.0 - t) * nodes[(*lead, i + 1, j)]
-            + (1.0 - s) * t * nodes[(*lead, i, j + 1)] + s * t * nodes[(*lead, i + 1, j + 1)])
+    ix: tuple[np.ndarray, ...] = tuple(np.asarray(v, np.int64) for v in lead)
+    v00: np.ndarray = nodes[(*ix, i, j)]
+    v10: np.ndarray = nodes[(*ix, i + 1, j)]
+    v01: np.ndarray = nodes[(*ix, i, j + 1)]
+    v11: np.ndarray = nodes[(*ix, i + 1, j + 1)]
+    return (1.0 - s) * (1.0 - t) * v00 + s * (1.0 - t) * v10 + (1.0 - s) * t * v01 \
+        + s * t * v11
 
 
 _NODES = node_envelope(_TABLE)  # [variant, quantity, condition, band, r node, κ node]
