@@ -191,16 +191,19 @@ def _bracket(log_nodes: np.ndarray, u: np.ndarray) -> tuple[np.ndarray, np.ndarr
     return i, np.clip(t, 0.0, 1.0)
 
 
-def interpolate_nodes(nodes: np.ndarray, lead: tuple[ArrayLike, ...], r: np.ndarray,
-                      kappa: np.ndarray) -> np.ndarray:
-    """Bilinear interpolation in (log r, log κ) of a node table ``nodes[..., p, q]``
-    (:func:`node_envelope`) at r = M/mₑ and κ = f_c/f_s (finite, > 0;
-    dimensionless), per case: ``lead`` the indices of the leading axes (arrays
-    broadcasting with r), held at the outermost nodes beyond them."""
-    lr = np.log(np.maximum(r, 1e-300))
-    lk = np.log(np.maximum(kappa, 1e-300))
-    i, s = _bracket(_LOG_R_NODES, lr)
-    j, t = _bracket(_LOG_K_NODES, lk)
+_Bracket = tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]
+
+
+def _brackets(r: np.ndarray, kappa: np.ndarray) -> _Bracket:
+    """Lower node indices and upper-node weights (i, s) in r and (j, t) in κ."""
+    i, s = _bracket(_LOG_R_NODES, np.log(np.maximum(r, 1e-300)))
+    j, t = _bracket(_LOG_K_NODES, np.log(np.maximum(kappa, 1e-300)))
+    return i, s, j, t
+
+
+def _at(nodes: np.ndarray, lead: tuple[ArrayLike, ...], br: _Bracket) -> np.ndarray:
+    """:func:`interpolate_nodes` with the brackets worked out (:func:`_brackets`)."""
+    i, s, j, t = br
     ix: tuple[np.ndarray, ...] = tuple(np.asarray(v, np.int64) for v in lead)
     v00: np.ndarray = nodes[(*ix, i, j)]
     v10: np.ndarray = nodes[(*ix, i + 1, j)]
@@ -208,6 +211,15 @@ def interpolate_nodes(nodes: np.ndarray, lead: tuple[ArrayLike, ...], r: np.ndar
     v11: np.ndarray = nodes[(*ix, i + 1, j + 1)]
     return (1.0 - s) * (1.0 - t) * v00 + s * (1.0 - t) * v10 + (1.0 - s) * t * v01 \
         + s * t * v11
+
+
+def interpolate_nodes(nodes: np.ndarray, lead: tuple[ArrayLike, ...], r: np.ndarray,
+                      kappa: np.ndarray) -> np.ndarray:
+    """Bilinear interpolation in (log r, log κ) of a node table ``nodes[..., p, q]``
+    (:func:`node_envelope`) at r = M/mₑ and κ = f_c/f_s (finite, > 0;
+    dimensionless), per case: ``lead`` the indices of the leading axes (arrays
+    broadcasting with r), held at the outermost nodes beyond them."""
+    return _at(nodes, lead, _brackets(np.asarray(r, float), np.asarray(kappa, float)))
 
 
 _NODES = node_envelope(_TABLE)  # [variant, quantity, condition, band, r node, κ node]
@@ -294,10 +306,11 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, 
     r_in = np.where(exact, 1.0, r)
     k_in = np.where(exact, 1.0, kappa)
     variant = np.where(sm, 0, 1)
+    br = _brackets(r_in, k_in)
     if cond is None or xi is None:
         # every condition and position band: the largest factor of the cell
         def look(q: int) -> np.ndarray:
-            t = interpolate_nodes(_ENV_NODES, (variant, np.int64(q)), r_in, k_in)
+            t = _at(_ENV_NODES, (variant, q), br)
             return np.where(exact, 1.0, t)
     else:
         cv = np.asarray(cond)
@@ -317,11 +330,10 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, 
         w_own = np.where(known, w_own, 0.0)
 
         def look(q: int) -> np.ndarray:
-            env = interpolate_nodes(_ENV_NODES, (variant, np.int64(q)), r_in, k_in)
+            env = _at(_ENV_NODES, (variant, q), br)
             own = np.ones(M.shape)
             for b in range(len(POSITION_EDGES) + 1):
-                v = interpolate_nodes(_NODES, (variant, np.int64(q), cs, np.int64(b)),
-                                      r_in, k_in)
+                v = _at(_NODES, (variant, q, cs, b), br)
                 own = np.maximum(own, 1.0 + wb[..., b] * (v - 1.0))
             return np.where(exact, 1.0, env + w_own * (own - env))
 
