@@ -134,8 +134,15 @@ def test_governing_point_amplified_by_hand(demo: str, load: str, bay: str) -> No
         # (chain._with_impulse_bounds; worked by hand in test_amplification_impulse.py)
         # where it is below the table's and the contact-force bound's force
         got = pointhistory.impulse_factors(c, np.array([0]), np.array([h]), imp.F)
-        V_force = min(V_force, max(float(got["shear"][0]), 1.0) * F)
-        F_local = min(F_local, max(float(got["force"][0]), 1.0) * F)
+        # fading into the other bounds between r = 0.5 and 1, linearly in ln r
+        # (chain.impulse_fade): A_I + t·(A − A_I) where A_I is the lesser
+        t = min(max(math.log(float(amp.mass_ratio[0]) / 0.5) / math.log(2.0), 0.0), 1.0)
+
+        def fade(A_I: float, A: float) -> float:
+            return A_I + t * (A - A_I) if A_I < A else A
+
+        V_force = F * fade(max(float(got["shear"][0]), 1.0), V_force / F)
+        F_local = F * fade(max(float(got["force"][0]), 1.0), F_local / F)
     assert float(amp.A_shear[0]) * F == pytest.approx(V_force, rel=1e-9)
     assert float(amp.A_force[0]) * F == pytest.approx(F_local, rel=1e-9)
     # what sets it: the two-mass framing force where that is larger, else the lesser
