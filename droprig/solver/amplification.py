@@ -213,6 +213,19 @@ def _at(nodes: np.ndarray, lead: tuple[ArrayLike, ...], br: _Bracket) -> np.ndar
         + s * t * v11
 
 
+def _at_q(nodes: np.ndarray, lead: tuple[np.ndarray, ...], br: _Bracket) -> np.ndarray:
+    """As :func:`_at` on a node table with the quantity as its last axis
+    ``nodes[..., p, q, quantity]``: every quantity at once, [case, quantity]."""
+    i, s, j, t = br
+    v00: np.ndarray = nodes[(*lead, i, j)]
+    v10: np.ndarray = nodes[(*lead, i + 1, j)]
+    v01: np.ndarray = nodes[(*lead, i, j + 1)]
+    v11: np.ndarray = nodes[(*lead, i + 1, j + 1)]
+    s, t = s[:, None], t[:, None]
+    return (1.0 - s) * (1.0 - t) * v00 + s * (1.0 - t) * v10 + (1.0 - s) * t * v01 \
+        + s * t * v11
+
+
 def interpolate_nodes(nodes: np.ndarray, lead: tuple[ArrayLike, ...], r: np.ndarray,
                       kappa: np.ndarray) -> np.ndarray:
     """Bilinear interpolation in (log r, log κ) of a node table ``nodes[..., p, q]``
@@ -224,6 +237,9 @@ def interpolate_nodes(nodes: np.ndarray, lead: tuple[ArrayLike, ...], r: np.ndar
 
 _NODES = node_envelope(_TABLE)  # [variant, quantity, condition, band, r node, κ node]
 _ENV_NODES = node_envelope(_TABLE.max(axis=(2, 3)))  # [variant, quantity, r node, κ node]
+# the same with the quantity last, for reading every quantity in one index
+_NODES_Q = np.ascontiguousarray(np.moveaxis(_NODES, 1, -1))
+_ENV_NODES_Q = np.ascontiguousarray(np.moveaxis(_ENV_NODES, 1, -1))
 
 
 def _band_weights(cond_index: np.ndarray, xi: np.ndarray) -> np.ndarray:
@@ -305,14 +321,13 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, 
     exact = ~np.isfinite(r) | ~np.isfinite(kappa)
     r_in = np.where(exact, 1.0, r)
     k_in = np.where(exact, 1.0, kappa)
-    variant = np.where(sm, 0, 1)
-    br = _brackets(r_in, k_in)
-    if cond is None or xi is None:
-        # every condition and position band: the largest factor of the cell
-        def look(q: int) -> np.ndarray:
-            t = _at(_ENV_NODES, (variant, q), br)
-            return np.where(exact, 1.0, t)
-    else:
+    variant = np.where(sm, 0, 1).ravel()
+    shape = M.shape
+    br = _brackets(r_in.ravel(), k_in.ravel())
+    n = variant.size
+    # [case, quantity]: the envelope over every condition and band
+    out = _at_q(_ENV_NODES_Q, (variant,), br)
+    if cond is not None and xi is not None:
         cv = np.asarray(cond)
         if cv.dtype.kind in "iu":
             ci = cv.astype(int)
@@ -320,22 +335,27 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, 
             names = {n: i for i, n in enumerate(CONDITIONS)}
             ci = np.vectorize(lambda n: names[str(n)], otypes=[int])(cv) if cv.size else \
                 np.zeros(cv.shape, int)
-        ci = np.broadcast_to(ci, M.shape)
+        ci = np.broadcast_to(ci, shape).ravel()
         known = ci >= 0  # a negative condition: not known here, the envelope
         cs = np.where(known, ci, 0)
-        xs = np.broadcast_to(np.clip(np.asarray(xi, float), 0.0, 1.0), M.shape)
-        wb = _band_weights(cs, xs)  # [..., band]
+        xs = np.broadcast_to(np.clip(np.asarray(xi, float), 0.0, 1.0), shape).ravel()
+        wb = _band_weights(cs, xs)  # [case, band]
         w_own = np.broadcast_to(np.clip(np.asarray(
-            1.0 if own_weight is None else own_weight, float), 0.0, 1.0), M.shape)
+            1.0 if own_weight is None else own_weight, float), 0.0, 1.0), shape).ravel()
         w_own = np.where(known, w_own, 0.0)
+        own = np.ones((n, len(QUANTITY_INDEX)))
+        for band in range(len(POSITION_EDGES) + 1):
+            sel = np.flatnonzero((wb[:, band] > 0.0) & (w_own > 0.0))
+            if sel.size == 0:
+                continue
+            v = _at_q(_NODES_Q, (variant[sel], cs[sel], np.full(sel.size, band)),
+                      (br[0][sel], br[1][sel], br[2][sel], br[3][sel]))
+            own[sel] = np.maximum(own[sel], 1.0 + wb[sel, band, None] * (v - 1.0))
+        out = out + w_own[:, None] * (own - out)
+    out = np.where(exact.ravel()[:, None], 1.0, out)
 
-        def look(q: int) -> np.ndarray:
-            env = _at(_ENV_NODES, (variant, q), br)
-            own = np.ones(M.shape)
-            for b in range(len(POSITION_EDGES) + 1):
-                v = _at(_NODES, (variant, q, cs, b), br)
-                own = np.maximum(own, 1.0 + wb[..., b] * (v - 1.0))
-            return np.where(exact, 1.0, env + w_own * (own - env))
+    def look(q: int) -> np.ndarray:
+        return out[:, q].reshape(shape)
 
     return Amplification(force=look(0), moment=look(1), shear=look(2), deflection=look(3),
                          mass_ratio=r, compliance_ratio=kappa,
