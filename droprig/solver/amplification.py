@@ -43,6 +43,19 @@ A contact stiffer than the table's least κ (0.001; a rigid load on a bare membe
 κ = 0) takes the first column: an Euler–Bernoulli member hit rigidly has no
 converged contact force, so there the force and shear factors are an assumption
 (stated in the README), while moment and deflection converge.
+
+Continuity (:func:`amplification`). The cells are read between their corners, not
+cell by cell (which stepped at every edge while the time history is smooth). Why the
+interpolated factor still bounds the time history: at a point inside cell C the
+bilinear weights are ≥ 0 and sum to 1 over C's four corners, so the factor is at
+least the least of them; each corner takes the largest cell touching it, C among
+them, so each corner value is ≥ C's own value, the calibrated bound over C — hence
+the factor ≥ the cell value everywhere (on an edge ≥ both cells'), and it bounds the
+time history wherever the cell value did. It is at most the largest value of C and
+its neighbouring cells (the price of continuity). The outermost nodes lie inside the
+outer cells and take the values of the outer cells touching them, so the same holds
+there and beyond them. :func:`cell_amplification` keeps the cell-by-cell read as the
+reference; ``tests/solver/test_amplification_continuous.py`` checks both.
 """
 
 from __future__ import annotations
@@ -257,6 +270,34 @@ def _band_weights(cond_index: np.ndarray, xi: np.ndarray) -> np.ndarray:
     return np.clip(1.0 - dist / POSITION_BLEND, 0.0, 1.0)
 
 
+def _condition_index(cond: ArrayLike) -> np.ndarray:
+    """Index into :data:`CONDITIONS` of each case's end condition (name or index;
+    negative: not known)."""
+    cv = np.asarray(cond)
+    if cv.dtype.kind in "iu":
+        return cv.astype(int)
+    names = {n: i for i, n in enumerate(CONDITIONS)}
+    return np.vectorize(lambda n: names[str(n)], otypes=[int])(cv) if cv.size else \
+        np.zeros(cv.shape, int)
+
+
+def _own_factors(variant: np.ndarray, cs: np.ndarray, xs: np.ndarray, use: np.ndarray,
+                 br: _Bracket) -> np.ndarray:
+    """The struck member's own factors [case, quantity] (flat cases; condition index
+    ``cs``, position ξ ``xs``): the largest over the position bands of
+    1 + w_b·(v_b − 1) (:func:`_band_weights`), worked out where ``use`` (1 elsewhere)."""
+    wb = _band_weights(cs, xs)  # [case, band]
+    own = np.ones((variant.size, len(QUANTITY_INDEX)))
+    for band in range(len(POSITION_EDGES) + 1):
+        sel = np.flatnonzero((wb[:, band] > 0.0) & use)
+        if sel.size == 0:
+            continue
+        v = _at_q(_NODES_Q, (variant[sel], cs[sel], np.full(sel.size, band)),
+                  (br[0][sel], br[1][sel], br[2][sel], br[3][sel]))
+        own[sel] = np.maximum(own[sel], 1.0 + wb[sel, band, None] * (v - 1.0))
+    return own
+
+
 def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, *,
                   struck_mass: ArrayLike = True, cond: ArrayLike | None = None,
                   xi: ArrayLike | None = None,
@@ -281,16 +322,7 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, 
     into each (:data:`MASS_RATIO_NODES`, :data:`COMPLIANCE_RATIO_NODES`) carries the
     outer cells' own values, held beyond it.
 
-    Why it still bounds the time history: at a point inside cell C the bilinear
-    weights are ≥ 0 and sum to 1 over C's four corners, so the factor is at least the
-    least of them; each corner touches C, so each corner value is ≥ C's own value,
-    the calibrated bound of the time history over C (module docstring) — hence the
-    interpolated factor ≥ the old cell value everywhere (on a cell edge ≥ both
-    cells'), and it bounds the time history wherever the cell value did. It is at
-    most the largest value of C and its neighbouring cells (the price of
-    continuity). The outermost nodes lie inside the outer cells and take the values
-    of the outer cells touching them, so the same holds there and beyond them.
-    ``tests/solver/test_amplification_continuous.py`` checks both.
+    Why it still bounds the time history: module docstring, "Continuity".
 
     Across the struck position too: the struck member's own factor is the largest
     over the three position bands of 1 + w_b·(v_b − 1), v_b band b's interpolated
@@ -324,33 +356,17 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, 
     variant = np.where(sm, 0, 1).ravel()
     shape = M.shape
     br = _brackets(r_in.ravel(), k_in.ravel())
-    n = variant.size
     # [case, quantity]: the envelope over every condition and band
     out = _at_q(_ENV_NODES_Q, (variant,), br)
     if cond is not None and xi is not None:
-        cv = np.asarray(cond)
-        if cv.dtype.kind in "iu":
-            ci = cv.astype(int)
-        else:
-            names = {n: i for i, n in enumerate(CONDITIONS)}
-            ci = np.vectorize(lambda n: names[str(n)], otypes=[int])(cv) if cv.size else \
-                np.zeros(cv.shape, int)
-        ci = np.broadcast_to(ci, shape).ravel()
+        ci = np.broadcast_to(_condition_index(cond), shape).ravel()
         known = ci >= 0  # a negative condition: not known here, the envelope
         cs = np.where(known, ci, 0)
         xs = np.broadcast_to(np.clip(np.asarray(xi, float), 0.0, 1.0), shape).ravel()
-        wb = _band_weights(cs, xs)  # [case, band]
         w_own = np.broadcast_to(np.clip(np.asarray(
             1.0 if own_weight is None else own_weight, float), 0.0, 1.0), shape).ravel()
         w_own = np.where(known, w_own, 0.0)
-        own = np.ones((n, len(QUANTITY_INDEX)))
-        for band in range(len(POSITION_EDGES) + 1):
-            sel = np.flatnonzero((wb[:, band] > 0.0) & (w_own > 0.0))
-            if sel.size == 0:
-                continue
-            v = _at_q(_NODES_Q, (variant[sel], cs[sel], np.full(sel.size, band)),
-                      (br[0][sel], br[1][sel], br[2][sel], br[3][sel]))
-            own[sel] = np.maximum(own[sel], 1.0 + wb[sel, band, None] * (v - 1.0))
+        own = _own_factors(variant, cs, xs, w_own > 0.0, br)
         out = out + w_own[:, None] * (own - out)
     out = np.where(exact.ravel()[:, None], 1.0, out)
 
@@ -384,14 +400,7 @@ def cell_amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayL
         known = np.zeros(M.shape, bool)
         cs = ix = np.zeros(M.shape, int)
     else:
-        cv = np.asarray(cond)
-        if cv.dtype.kind in "iu":
-            ci = cv.astype(int)
-        else:
-            names = {n: i for i, n in enumerate(CONDITIONS)}
-            ci = np.vectorize(lambda n: names[str(n)], otypes=[int])(cv) if cv.size else \
-                np.zeros(cv.shape, int)
-        ci = np.broadcast_to(ci, M.shape)
+        ci = np.broadcast_to(_condition_index(cond), M.shape)
         known = ci >= 0
         cs = np.where(known, ci, 0)
         ix = np.broadcast_to(position_band(cs, np.clip(np.asarray(xi, float), 0.0, 1.0)),
