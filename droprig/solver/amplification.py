@@ -43,6 +43,19 @@ A contact stiffer than the table's least κ (0.001; a rigid load on a bare membe
 κ = 0) takes the first column: an Euler–Bernoulli member hit rigidly has no
 converged contact force, so there the force and shear factors are an assumption
 (stated in the README), while moment and deflection converge.
+
+Continuity (:func:`amplification`). The cells are read between their corners, not
+cell by cell (which stepped at every edge while the time history is smooth). Why the
+interpolated factor still bounds the time history: at a point inside cell C the
+bilinear weights are ≥ 0 and sum to 1 over C's four corners, so the factor is at
+least the least of them; each corner takes the largest cell touching it, C among
+them, so each corner value is ≥ C's own value, the calibrated bound over C — hence
+the factor ≥ the cell value everywhere (on an edge ≥ both cells'), and it bounds the
+time history wherever the cell value did. It is at most the largest value of C and
+its neighbouring cells (the price of continuity). The outermost nodes lie inside the
+outer cells and take the values of the outer cells touching them, so the same holds
+there and beyond them. :func:`cell_amplification` keeps the cell-by-cell read as the
+reference; ``tests/solver/test_amplification_continuous.py`` checks both.
 """
 
 from __future__ import annotations
@@ -63,10 +76,13 @@ __all__ = [
     "B_SHEAR_SHORT",
     "CANTILEVER_POSITION_EDGES",
     "COMPLIANCE_RATIO_EDGES",
+    "COMPLIANCE_RATIO_NODES",
     "CONDITIONS",
     "KAPPA_MIN",
     "MASS_RATIO_EDGES",
     "MASS_RATIO_MIN",
+    "MASS_RATIO_NODES",
+    "POSITION_BLEND",
     "POSITION_EDGES",
     "RIGID_BASE_MARGIN",
     "SET_BY",
@@ -76,9 +92,12 @@ __all__ = [
     "AmplifiedForces",
     "amplification",
     "amplified_forces",
+    "cell_amplification",
     "contact_force_bound",
     "crush_depth_bound",
+    "interpolate_nodes",
     "member_energy_force",
+    "node_envelope",
     "position_band",
     "short_pulse",
 ]
@@ -104,6 +123,9 @@ POSITION_EDGES: tuple[float, ...] = (0.08, 0.25)
 between, mid-span)."""
 CANTILEVER_POSITION_EDGES: tuple[float, ...] = (0.3, 0.6)
 """Inner edges of a cantilever's position bands ξ = a/L from its fixed end."""
+POSITION_BLEND = 0.02
+"""Width (in ξ, dimensionless) over which a position band's factor fades beyond its
+band (:func:`amplification`): the factor runs continuously across a band edge."""
 
 
 def _table() -> np.ndarray:
@@ -146,9 +168,140 @@ class Amplification:
     beyond_table: np.ndarray
 
 
+MASS_RATIO_NODES: tuple[float, ...] = (0.01, *MASS_RATIO_EDGES, 300.0)
+"""r of the nodes the factors are interpolated between (:func:`amplification`): the
+cell edges and one more node half a decade beyond each end (0.01, the least r the
+calibration sampled; 300), beyond which the outer cell's own value is held."""
+COMPLIANCE_RATIO_NODES: tuple[float, ...] = (KAPPA_MIN, *COMPLIANCE_RATIO_EDGES, 10.0)
+"""κ of the interpolation nodes, as :data:`MASS_RATIO_NODES` (0.001, the least κ the
+calibration sampled; the edges; 10)."""
+
+
+def node_envelope(cells: np.ndarray) -> np.ndarray:
+    """The upper envelope of cell values at the nodes of the (log r, log κ) grid
+    (:data:`MASS_RATIO_NODES` × :data:`COMPLIANCE_RATIO_NODES`): ``cells[..., i, j]``
+    holds cell (r cell i, κ cell j) of the 9 × 8 table; the result ``[..., p, q]``
+    (10 × 9) holds at each node the largest of the cells touching it — four at an
+    inner node (r cells p − 1, p and κ cells q − 1, q), the outer cells alone at the
+    outermost nodes (which lie inside them). Dimensionless factors."""
+    pad = [(0, 0)] * (cells.ndim - 2) + [(1, 1), (1, 1)]
+    c = np.pad(cells, pad, mode="edge")
+    c = np.maximum(c[..., :-1, :], c[..., 1:, :])
+    return np.maximum(c[..., :-1], c[..., 1:])
+
+
+_LOG_R_NODES = np.log(np.asarray(MASS_RATIO_NODES, float))
+_LOG_K_NODES = np.log(np.asarray(COMPLIANCE_RATIO_NODES, float))
+
+
+def _bracket(log_nodes: np.ndarray, u: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Lower node index and weight of the upper node (0–1) of the log-linear
+    interpolation at u = log(x), clamped to the end nodes outside them."""
+    n = log_nodes.size
+    uc = np.clip(u, log_nodes[0], log_nodes[-1])
+    i = np.clip(np.searchsorted(log_nodes, uc, side="right") - 1, 0, n - 2)
+    t = (uc - log_nodes[i]) / (log_nodes[i + 1] - log_nodes[i])
+    return i, np.clip(t, 0.0, 1.0)
+
+
+_Bracket = tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]
+
+
+def _brackets(r: np.ndarray, kappa: np.ndarray) -> _Bracket:
+    """Lower node indices and upper-node weights (i, s) in r and (j, t) in κ."""
+    i, s = _bracket(_LOG_R_NODES, np.log(np.maximum(r, 1e-300)))
+    j, t = _bracket(_LOG_K_NODES, np.log(np.maximum(kappa, 1e-300)))
+    return i, s, j, t
+
+
+def _at(nodes: np.ndarray, lead: tuple[ArrayLike, ...], br: _Bracket) -> np.ndarray:
+    """:func:`interpolate_nodes` with the brackets worked out (:func:`_brackets`)."""
+    i, s, j, t = br
+    ix: tuple[np.ndarray, ...] = tuple(np.asarray(v, np.int64) for v in lead)
+    v00: np.ndarray = nodes[(*ix, i, j)]
+    v10: np.ndarray = nodes[(*ix, i + 1, j)]
+    v01: np.ndarray = nodes[(*ix, i, j + 1)]
+    v11: np.ndarray = nodes[(*ix, i + 1, j + 1)]
+    return (1.0 - s) * (1.0 - t) * v00 + s * (1.0 - t) * v10 + (1.0 - s) * t * v01 \
+        + s * t * v11
+
+
+def _at_q(nodes: np.ndarray, lead: tuple[np.ndarray, ...], br: _Bracket) -> np.ndarray:
+    """As :func:`_at` on a node table with the quantity as its last axis
+    ``nodes[..., p, q, quantity]``: every quantity at once, [case, quantity]."""
+    i, s, j, t = br
+    v00: np.ndarray = nodes[(*lead, i, j)]
+    v10: np.ndarray = nodes[(*lead, i + 1, j)]
+    v01: np.ndarray = nodes[(*lead, i, j + 1)]
+    v11: np.ndarray = nodes[(*lead, i + 1, j + 1)]
+    s, t = s[:, None], t[:, None]
+    return (1.0 - s) * (1.0 - t) * v00 + s * (1.0 - t) * v10 + (1.0 - s) * t * v01 \
+        + s * t * v11
+
+
+def interpolate_nodes(nodes: np.ndarray, lead: tuple[ArrayLike, ...], r: np.ndarray,
+                      kappa: np.ndarray) -> np.ndarray:
+    """Bilinear interpolation in (log r, log κ) of a node table ``nodes[..., p, q]``
+    (:func:`node_envelope`) at r = M/mₑ and κ = f_c/f_s (finite, > 0;
+    dimensionless), per case: ``lead`` the indices of the leading axes (arrays
+    broadcasting with r), held at the outermost nodes beyond them."""
+    return _at(nodes, lead, _brackets(np.asarray(r, float), np.asarray(kappa, float)))
+
+
+_NODES = node_envelope(_TABLE)  # [variant, quantity, condition, band, r node, κ node]
+_ENV_NODES = node_envelope(_TABLE.max(axis=(2, 3)))  # [variant, quantity, r node, κ node]
+# the same with the quantity last, for reading every quantity in one index
+_NODES_Q = np.ascontiguousarray(np.moveaxis(_NODES, 1, -1))
+_ENV_NODES_Q = np.ascontiguousarray(np.moveaxis(_ENV_NODES, 1, -1))
+
+
+def _band_weights(cond_index: np.ndarray, xi: np.ndarray) -> np.ndarray:
+    """Weights (0–1, dimensionless) of the three position bands at ξ, shape
+    ξ.shape + (3,): 1 inside a band, falling linearly to 0 over
+    :data:`POSITION_BLEND` beyond its edges (band coordinate as
+    :func:`position_band`)."""
+    cant = cond_index == CONDITIONS.index("cantilever")
+    d = np.where(cant, xi, np.minimum(xi, 1.0 - xi))[..., None]
+    lo = np.where(cant[..., None], np.array([0.0, *CANTILEVER_POSITION_EDGES]),
+                  np.array([0.0, *POSITION_EDGES]))
+    hi = np.where(cant[..., None], np.array([*CANTILEVER_POSITION_EDGES, 1.0]),
+                  np.array([*POSITION_EDGES, 0.5]))
+    dist = np.maximum(np.maximum(lo - d, d - hi), 0.0)
+    return np.clip(1.0 - dist / POSITION_BLEND, 0.0, 1.0)
+
+
+def _condition_index(cond: ArrayLike) -> np.ndarray:
+    """Index into :data:`CONDITIONS` of each case's end condition (name or index;
+    negative: not known)."""
+    cv = np.asarray(cond)
+    if cv.dtype.kind in "iu":
+        return cv.astype(int)
+    names = {n: i for i, n in enumerate(CONDITIONS)}
+    return np.vectorize(lambda n: names[str(n)], otypes=[int])(cv) if cv.size else \
+        np.zeros(cv.shape, int)
+
+
+def _own_factors(variant: np.ndarray, cs: np.ndarray, xs: np.ndarray, use: np.ndarray,
+                 br: _Bracket) -> np.ndarray:
+    """The struck member's own factors [case, quantity] (flat cases; condition index
+    ``cs``, position ξ ``xs``): the largest over the position bands of
+    1 + w_b·(v_b − 1) (:func:`_band_weights`), worked out where ``use`` (1 elsewhere)."""
+    wb = _band_weights(cs, xs)  # [case, band]
+    own = np.ones((variant.size, len(QUANTITY_INDEX)))
+    for band in range(len(POSITION_EDGES) + 1):
+        sel = np.flatnonzero((wb[:, band] > 0.0) & use)
+        if sel.size == 0:
+            continue
+        v = _at_q(_NODES_Q, (variant[sel], cs[sel], np.full(sel.size, band)),
+                  (br[0][sel], br[1][sel], br[2][sel], br[3][sel]))
+        own[sel] = np.maximum(own[sel], 1.0 + wb[sel, band, None] * (v - 1.0))
+    return own
+
+
 def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, *,
                   struck_mass: ArrayLike = True, cond: ArrayLike | None = None,
-                  xi: ArrayLike | None = None) -> Amplification:
+                  xi: ArrayLike | None = None,
+                  own_weight: ArrayLike | None = None) -> Amplification:
     """Amplification factors for a load of mass M (kg) on a member of Rayleigh
     effective mass mₑ = β·μ·L at the struck point (kg, unscaled) and compliance f_s
     = G(a, a) there (m/N) through a contact compliance f_c (m/N); the member's end
@@ -157,12 +310,36 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, 
     energy) with the energy method of the calibration (Gere 7th ed. §9.10 Eq. 9-94 on
     f_s + f_c with η = M/(M + mₑ·(f_s/(f_s + f_c))²), the chain's struck-mass rule).
 
-    Table lookup by cell (no interpolation): condition, position band
-    (:func:`position_band`), r = M/mₑ (mₑ = 0: no moving mass, the energy method is
-    exact and every factor is 1) and κ = f_c/f_s (f_s = 0: κ = ∞, the load rests on
-    a rigid point and the contact spring alone is loaded — exact). Without ``cond``
-    and ``xi`` (or where ``cond`` is negative) the largest factor over every
-    condition and position band is taken.
+    The factor is continuous in r = M/mₑ and κ = f_c/f_s: the table holds one bound
+    per cell (condition, position band (:func:`position_band`), r cell, κ cell), and
+    a cell-by-cell read jumped at every cell edge (e.g. a moment factor 2.06 → 3.58
+    as r crossed 1) while the time history it bounds is smooth. Each node of the
+    (log r, log κ) grid — the cells' corners, at :data:`MASS_RATIO_EDGES` ×
+    :data:`COMPLIANCE_RATIO_EDGES` — takes the largest of the (up to four) cells
+    touching it (:func:`node_envelope`), and the factor is the bilinear interpolation
+    of the node values in (log r, log κ) (:func:`interpolate_nodes`). The outer cells
+    (r < 0.03 or > 100, κ < 0.003 or > 3) are unbounded: one more node half a decade
+    into each (:data:`MASS_RATIO_NODES`, :data:`COMPLIANCE_RATIO_NODES`) carries the
+    outer cells' own values, held beyond it.
+
+    Why it still bounds the time history: module docstring, "Continuity".
+
+    Across the struck position too: the struck member's own factor is the largest
+    over the three position bands of 1 + w_b·(v_b − 1), v_b band b's interpolated
+    factor and w_b 1 inside band b, falling linearly to 0 over
+    :data:`POSITION_BLEND` beyond it — inside a band at least that band's factor,
+    continuous across its edges. ``own_weight`` (0–1, per case; default 1) blends
+    the member's own factor with the envelope over every condition and band,
+    env + w·(own − env): the chain fades from the envelope to the member's own
+    table as the member's bending becomes most of the framing's compliance
+    (:func:`droprig.solver.chain.own_table_weight`); the envelope is at least the
+    member's own factor, so any weight stays at or above it.
+
+    Special cases: mₑ = 0 (no moving mass, r = ∞: the energy method is exact and
+    every factor is 1) and f_s = 0 (κ = ∞, the load rests on a rigid point and the
+    contact spring alone is loaded — exact). Without ``cond`` and ``xi`` (or where
+    ``cond`` is negative) the largest factor over every condition and position band
+    is taken (the envelope is taken cell by cell before the nodes').
     ``struck_mass``: whether the energy method took the struck-mass share (per case);
     where it took η = 1 (droprig's rule under mats and crushable layers) the η = 1
     table applies, with the member's mass still giving r. Calibration and sources in
@@ -173,34 +350,65 @@ def amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, 
     with np.errstate(divide="ignore", invalid="ignore"):
         r = np.where(m_e > 0.0, M / np.where(m_e > 0.0, m_e, 1.0), np.inf)
         kappa = np.where(f_s > 0.0, f_c / np.where(f_s > 0.0, f_s, 1.0), np.inf)
+    exact = ~np.isfinite(r) | ~np.isfinite(kappa)
+    r_in = np.where(exact, 1.0, r)
+    k_in = np.where(exact, 1.0, kappa)
+    variant = np.where(sm, 0, 1).ravel()
+    shape = M.shape
+    br = _brackets(r_in.ravel(), k_in.ravel())
+    # [case, quantity]: the envelope over every condition and band
+    out = _at_q(_ENV_NODES_Q, (variant,), br)
+    if cond is not None and xi is not None:
+        ci = np.broadcast_to(_condition_index(cond), shape).ravel()
+        known = ci >= 0  # a negative condition: not known here, the envelope
+        cs = np.where(known, ci, 0)
+        xs = np.broadcast_to(np.clip(np.asarray(xi, float), 0.0, 1.0), shape).ravel()
+        w_own = np.broadcast_to(np.clip(np.asarray(
+            1.0 if own_weight is None else own_weight, float), 0.0, 1.0), shape).ravel()
+        w_own = np.where(known, w_own, 0.0)
+        own = _own_factors(variant, cs, xs, w_own > 0.0, br)
+        out = out + w_own[:, None] * (own - out)
+    out = np.where(exact.ravel()[:, None], 1.0, out)
+
+    def look(q: int) -> np.ndarray:
+        return out[:, q].reshape(shape)
+
+    return Amplification(force=look(0), moment=look(1), shear=look(2), deflection=look(3),
+                         mass_ratio=r, compliance_ratio=kappa,
+                         beyond_table=(kappa < KAPPA_MIN) & ~exact)
+
+
+def cell_amplification(M: ArrayLike, m_e: ArrayLike, f_c: ArrayLike, f_s: ArrayLike, *,
+                       struck_mass: ArrayLike = True, cond: ArrayLike | None = None,
+                       xi: ArrayLike | None = None) -> Amplification:
+    """The calibrated table read cell by cell (no interpolation): each factor the
+    bound of its cell as ``scripts/calibrate_amplification.py`` made it, arguments
+    and units as :func:`amplification`. Not used by the verdict (it steps at every
+    cell edge); kept as the reference :func:`amplification` never reads below
+    (``tests/solver/test_amplification_continuous.py``)."""
+    M, m_e, f_c, f_s, sm = np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (M, m_e, f_c, f_s)), np.asarray(struck_mass, bool))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        r = np.where(m_e > 0.0, M / np.where(m_e > 0.0, m_e, 1.0), np.inf)
+        kappa = np.where(f_s > 0.0, f_c / np.where(f_s > 0.0, f_s, 1.0), np.inf)
     ir = np.searchsorted(MASS_RATIO_EDGES, r, side="right")
     ik = np.searchsorted(COMPLIANCE_RATIO_EDGES, kappa, side="right")
     exact = ~np.isfinite(r) | ~np.isfinite(kappa)
     variant = np.where(sm, 0, 1)
+    env = _TABLE.max(axis=(2, 3))
     if cond is None or xi is None:
-        # every condition and position band: the largest factor of the cell
-        env = _TABLE.max(axis=(2, 3))  # [variant, quantity, r, κ]
-
-        def look(q: int) -> np.ndarray:
-            return np.where(exact, 1.0, env[variant, q, ir, ik])
+        known = np.zeros(M.shape, bool)
+        cs = ix = np.zeros(M.shape, int)
     else:
-        cv = np.asarray(cond)
-        if cv.dtype.kind in "iu":
-            ci = cv.astype(int)
-        else:
-            names = {n: i for i, n in enumerate(CONDITIONS)}
-            ci = np.vectorize(lambda n: names[str(n)], otypes=[int])(cv) if cv.size else \
-                np.zeros(cv.shape, int)
-        ci = np.broadcast_to(ci, M.shape)
-        known = ci >= 0  # a negative condition: not known here, the envelope
+        ci = np.broadcast_to(_condition_index(cond), M.shape)
+        known = ci >= 0
         cs = np.where(known, ci, 0)
         ix = np.broadcast_to(position_band(cs, np.clip(np.asarray(xi, float), 0.0, 1.0)),
                              M.shape)
-        env = _TABLE.max(axis=(2, 3))
 
-        def look(q: int) -> np.ndarray:
-            t = np.where(known, _TABLE[variant, q, cs, ix, ir, ik], env[variant, q, ir, ik])
-            return np.where(exact, 1.0, t)
+    def look(q: int) -> np.ndarray:
+        t = np.where(known, _TABLE[variant, q, cs, ix, ir, ik], env[variant, q, ir, ik])
+        return np.where(exact, 1.0, t)
 
     return Amplification(force=look(0), moment=look(1), shear=look(2), deflection=look(3),
                          mass_ratio=r, compliance_ratio=kappa,

@@ -1500,6 +1500,29 @@ class _Bounds:
     forces: amp_mod.AmplifiedForces
 
 
+OWN_TABLE_SHARE = (0.5, 0.6)
+"""Shares of the framing's compliance that is the struck member's own bending between
+which the table fades from the envelope over every condition and position band to
+the member's own (:func:`own_table_weight`)."""
+
+
+def own_table_weight(own: np.ndarray, f_s: np.ndarray, f_col: np.ndarray) -> np.ndarray:
+    """Weight (0–1, dimensionless) of the struck member's own table against the
+    envelope over every condition and band (:func:`droprig.solver.amplification.
+    amplification`'s ``own_weight``): 0 where the member's own bending (``own``, share
+    of the members' bending compliance, times f_s − f_col over f_s; compliances m/N)
+    is at most half the framing's compliance — over a girder line or a column the
+    member struck is not the one that moves — rising linearly to 1 at
+    :data:`OWN_TABLE_SHARE` [1]. Before it the table switched at one half and the
+    factors stepped there (a shear factor 21.4 → 8.1 across 5 mm,
+    tests/solver/test_amplification_continuous.py); the envelope is the larger, so
+    the fade reads at or above the switch's value."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        q = np.where(f_s > 0.0, own * (f_s - f_col) / np.where(f_s > 0.0, f_s, 1.0), 0.0)
+    lo, hi = OWN_TABLE_SHARE
+    return np.clip((q - lo) / (hi - lo), 0.0, 1.0)
+
+
 def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
     """The table, the bounds and the amplified forces of the energy heads ``h`` (m)."""
     d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
@@ -1516,10 +1539,11 @@ def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
     m_path = table_mass(d.geo.path.m_e, d.geo.path.w_ref, d.geo.path.f)
     f_contact = f_beyond - comp.f_s
     key = struck_member_table(c)
-    own = key["own"] * (comp.f_s - comp.f_col) >= 0.5 * comp.f_s  # members' bending
-    cond = np.where(own, key["cond"], -1)
+    w_own = own_table_weight(key["own"], comp.f_s, comp.f_col)
+    cond = np.where(w_own > 0.0, key["cond"], -1)
     a = amp_mod.amplification(inp.M, m_path, f_contact, comp.f_s,
-                              struck_mass=sm.m_e > 0.0, cond=cond, xi=key["xi"])
+                              struck_mass=sm.m_e > 0.0, cond=cond, xi=key["xi"],
+                              own_weight=w_own)
     rigid = amp_mod.contact_force_bound(inp.W, h, f_contact)
     # the tables multiply the energy method's elastic (uncapped) force, as calibrated
     # (the chain's struck-mass share: its mass, normalised by w_ref, is at most the
@@ -1596,6 +1620,29 @@ IMPULSE_MASS_RATIO = 1.0
 (:func:`_with_impulse_bounds`) is worked out: above it the load is not light against
 the member, its contact not short, and the other bounds are the tighter (a cost
 limit, not a validity one: the bound holds for any load)."""
+IMPULSE_FADE_MASS_RATIO = 0.5
+"""r from which the impulse bound fades out (:func:`impulse_fade`): between this and
+:data:`IMPULSE_MASS_RATIO` the factor runs from it to the other bounds'
+continuously, so the factors do not step where it stops being worked out."""
+
+
+def impulse_fade(r: np.ndarray) -> np.ndarray:
+    """Weight t (0–1, dimensionless) of the other bounds against the impulse bound at
+    mass ratio r (dimensionless): 0 up to :data:`IMPULSE_FADE_MASS_RATIO` (r₀),
+    ln(r/r₀)/ln(r₁/r₀) up to :data:`IMPULSE_MASS_RATIO` (r₁), 1 from it. Where the
+    impulse bound A_I is below the other bounds' factor A, the factor taken is
+    A_I + t·(A − A_I): between two upper bounds of the time history, so at least the
+    lesser of them (itself one) and never below the factor taken before the fade
+    (min(A, A_I) for r ≤ r₁, A above), running continuously from the impulse bound
+    (r ≤ r₀) to the other bounds (r ≥ r₁). Before it the factors stepped where the
+    bound stopped being worked out (a moment factor 2.5 → 3.3 at r = 1,
+    tests/solver/test_amplification_continuous.py)."""
+    r = np.asarray(r, float)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        t = np.log(r / IMPULSE_FADE_MASS_RATIO) / np.log(IMPULSE_MASS_RATIO
+                                                         / IMPULSE_FADE_MASS_RATIO)
+    return np.clip(np.where(np.isfinite(t), t,
+                            np.where(r > IMPULSE_FADE_MASS_RATIO, 1.0, 0.0)), 0.0, 1.0)
 
 
 def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplification,
@@ -1605,19 +1652,26 @@ def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplif
     (:func:`droprig.solver.pointhistory.impulse_factors`; Duhamel's integral on the
     struck member's kept modes, the contact's impulse and peak force — an upper bound
     of that history as the other bounds are, so the least of them is one) where it is
-    less, at the light loads' points (r ≤ :data:`IMPULSE_MASS_RATIO`) on a path whose
+    less, at the light loads' points (r < :data:`IMPULSE_MASS_RATIO`, fading into the
+    other bounds from :data:`IMPULSE_FADE_MASS_RATIO`, :func:`impulse_fade`) on a path whose
     factors lie above 1; the member's moment, shear and deflection (the connection
     check, end shear, takes the shear's), the member's local checks at the contact
     force (web yielding, crippling) and the deck's at its share of it."""
     d = c.drop
     ok = ((d.geo.path.pair >= 0) & ~d.geo.opening & np.isfinite(imp.F) & (imp.F > 0.0)
-          & np.isfinite(h) & (h > 0.0) & (a.mass_ratio <= IMPULSE_MASS_RATIO))
+          & np.isfinite(h) & (h > 0.0) & (a.mass_ratio < IMPULSE_MASS_RATIO))
     A_max = np.maximum(np.maximum(factor["web_yielding"], factor["flexure"]),
                        np.maximum(factor["shear"], factor["deflection"]))
     sel = np.flatnonzero(ok & (A_max > 1.0 + 1e-9))
     if sel.size == 0:
         return factor, set_by
     got = pointhistory.impulse_factors(c, sel, h[sel], imp.F[sel])
+    t = impulse_fade(a.mass_ratio[sel])  # 0 up to IMPULSE_FADE_MASS_RATIO
+
+    def faded(A: np.ndarray, other: np.ndarray) -> np.ndarray:
+        # A + t·(other − A) where the impulse bound A is the lesser (impulse_fade)
+        with np.errstate(invalid="ignore"):
+            return np.where(A < other, A + t * (other - A), other)
     factor = {k: v.copy() for k, v in factor.items()}
     set_by = {k: v.copy() for k, v in set_by.items()}
     ti = amp_mod.SET_BY.index("impulse bound")
@@ -1626,7 +1680,7 @@ def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplif
                         ("web_yielding", "force", "local"), ("web_crippling", "force", None)):
         A = np.where(np.isfinite(got[q]), np.maximum(got[q], 1.0), np.inf)
         lower = A < factor[fam][sel]
-        factor[fam][sel] = np.where(lower, A, factor[fam][sel])
+        factor[fam][sel] = faded(A, factor[fam][sel])
         if key is not None:
             set_by[key][sel] = np.where(lower, ti, set_by[key][sel])
     # the deck's checks read the deck's force F_deck = deck_ratio·F, at most the contact
@@ -1635,7 +1689,7 @@ def _with_impulse_bounds(c: Chain, h: np.ndarray, imp: Impact, a: amp_mod.Amplif
         A_deck = np.maximum(got["force"] / imp.deck_ratio[sel], 1.0)
     A_deck = np.where(np.isfinite(A_deck), A_deck, np.inf)
     for fam in ("deck_flexure", "deck_punching"):
-        factor[fam][sel] = np.minimum(factor[fam][sel], A_deck)
+        factor[fam][sel] = faded(A_deck, factor[fam][sel])
     return factor, set_by
 
 

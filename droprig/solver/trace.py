@@ -471,9 +471,11 @@ def _amplification_steps(sheet: _Sheet) -> None:
               f"{amplification.B_ENERGY_MOMENT}, B_E,δ = "
               f"{amplification.B_ENERGY_DEFLECTION} (energy conservation, minimum "
               "potential energy; scripts/calibrate_energy_bound.py)")
-    # light loads (r ≤ chain.IMPULSE_MASS_RATIO): the impulse bound of the point's own
-    # time history where it is less (chain._with_impulse_bounds)
-    src_imp = ("; where r ≤ 1 also the impulse bound of the point's time history "
+    # light loads (r < chain.IMPULSE_MASS_RATIO, fading out from IMPULSE_FADE_MASS_RATIO):
+    # the impulse bound of the point's own time history where it is less
+    # (chain._with_impulse_bounds)
+    src_imp = ("; where r < 1 also the impulse bound of the point's time history "
+               "(fading into the other bounds by ln(2r)/ln 2 for 0.5 < r < 1, chain.impulse_fade) "
                "(droprig.solver.amplification_impulse: Duhamel's integral on the struck "
                "member's kept modes with the contact's impulse and peak force; Biggs 1964 "
                "ch. 2, Chopra §4.2)")

@@ -3,8 +3,10 @@
 Sources: Gere, *Mechanics of Materials* 7th ed. §9.10 Eq. 9-94 (K = 1 + √(1 + 2ηh/δst),
 δst = W·f) with Timoshenko's struck-mass share η (*Strength of Materials* Part I, from
 memory); the amplification table's cells and values as published in
-droprig/solver/amplification_table.py (calibrated on the time history and re-checked
-on 200 random members in test_amplification.py / test_amplification_eta_one.py);
+droprig/solver/amplification_table.py, interpolated by hand between the cells' upper
+envelope at their corners (amplification.amplification's docstring; calibrated on the
+time history and re-checked on 200 random members in test_amplification.py /
+test_amplification_eta_one.py);
 each check is linear in the force, U = |F·u + E|/R (droprig.solver.linear_checks).
 The path's compliance f, f_s and Rayleigh mass at these points are the chain's (worked
 by hand for the governing bays in test_governing_bays.py). The demo projects are
@@ -39,6 +41,36 @@ G = 9.80665
 R_EDGES = (0.03, 0.1, 0.3, 1.0, 3.0, 10.0, 30.0, 100.0)  # as printed in the table's module
 K_EDGES = (0.003, 0.01, 0.03, 0.1, 0.3, 1.0, 3.0)
 B_SHEAR = 6.1  # amplification.B_SHEAR
+# the interpolation nodes: the cell edges and one node half a decade into each outer
+# cell (amplification.MASS_RATIO_NODES / COMPLIANCE_RATIO_NODES, as documented there)
+R_NODES = (0.01, *R_EDGES, 300.0)
+K_NODES = (0.001, *K_EDGES, 10.0)
+
+
+def _cell(q: int, i: int, j: int) -> float:
+    """The envelope over every end condition and position band of cell (i, j)."""
+    return max(TABLE[0][q][ci][band][i][j] for ci in range(4) for band in range(3))
+
+
+def _node(q: int, p: int, k: int) -> float:
+    """Node (p, k) of R_NODES × K_NODES: the largest cell touching it (cells p − 1, p
+    in r and k − 1, k in κ, clamped to the table: the outermost nodes lie inside
+    the outer cells)."""
+    return max(_cell(q, i, j) for i in {max(p - 1, 0), min(p, 8)}
+               for j in {max(k - 1, 0), min(k, 7)})
+
+
+def _by_hand(q: int, r: float, kappa: float) -> float:
+    """The factor at (r, κ), interpolated by hand: bilinear in (ln r, ln κ) between the
+    four nodes around the point (amplification.amplification's docstring)."""
+    def bracket(nodes: tuple[float, ...], x: float) -> tuple[int, float]:
+        x = min(max(x, nodes[0]), nodes[-1])
+        p = max(i for i in range(len(nodes) - 1) if nodes[i] <= x)
+        return p, math.log(x / nodes[p]) / math.log(nodes[p + 1] / nodes[p])
+    p, s = bracket(R_NODES, r)
+    k, t = bracket(K_NODES, kappa)
+    return ((1 - s) * (1 - t) * _node(q, p, k) + s * (1 - t) * _node(q, p + 1, k)
+            + (1 - s) * t * _node(q, p, k + 1) + s * t * _node(q, p + 1, k + 1))
 
 
 @pytest.mark.parametrize(("demo", "load", "bay"), [
@@ -75,8 +107,9 @@ def test_governing_point_amplified_by_hand(demo: str, load: str, bay: str) -> No
     r, kappa = M / m_path, (f - f_s) / f_s
     row = sum(r >= e for e in R_EDGES)
     col = sum(kappa >= e for e in K_EDGES)
-    A_V = max(TABLE[0][2][ci][band][row][col] for ci in range(4) for band in range(3))
-    A_F = max(TABLE[0][0][ci][band][row][col] for ci in range(4) for band in range(3))
+    A_V, A_F = _by_hand(2, r, kappa), _by_hand(0, r, kappa)
+    # interpolated between the nodes' upper envelope: never below the cell's own bound
+    assert A_V >= _cell(2, row, col) and A_F >= _cell(0, row, col)
     # Gere Eq. 9-94: the energy method's elastic force with the struck-mass share
     F_ref = W * (1.0 + math.sqrt(1.0 + 2.0 * eta * h / (W * f)))
     # rigid-base bound on the contact force: η = 1 on the contact spring alone, + 5 %
@@ -101,8 +134,15 @@ def test_governing_point_amplified_by_hand(demo: str, load: str, bay: str) -> No
         # (chain._with_impulse_bounds; worked by hand in test_amplification_impulse.py)
         # where it is below the table's and the contact-force bound's force
         got = pointhistory.impulse_factors(c, np.array([0]), np.array([h]), imp.F)
-        V_force = min(V_force, max(float(got["shear"][0]), 1.0) * F)
-        F_local = min(F_local, max(float(got["force"][0]), 1.0) * F)
+        # fading into the other bounds between r = 0.5 and 1, linearly in ln r
+        # (chain.impulse_fade): A_I + t·(A − A_I) where A_I is the lesser
+        t = min(max(math.log(float(amp.mass_ratio[0]) / 0.5) / math.log(2.0), 0.0), 1.0)
+
+        def fade(A_I: float, A: float) -> float:
+            return A_I + t * (A - A_I) if A_I < A else A
+
+        V_force = F * fade(max(float(got["shear"][0]), 1.0), V_force / F)
+        F_local = F * fade(max(float(got["force"][0]), 1.0), F_local / F)
     assert float(amp.A_shear[0]) * F == pytest.approx(V_force, rel=1e-9)
     assert float(amp.A_force[0]) * F == pytest.approx(F_local, rel=1e-9)
     # what sets it: the two-mass framing force where that is larger, else the lesser

@@ -51,7 +51,8 @@ def test_table_mass_bounds_the_time_history_where_the_path_mass_did_not() -> Non
     struck-mass share of the w_ref-normalised mass, as the chain takes it (the larger
     force) — is never below the time history when the table is read at
     chain.table_mass; read at the w_ref-normalised mass itself (the rule before) the
-    contact force fell below it on this draw (1.18 × on force)."""
+    cell-by-cell table (the verdict's before it was interpolated,
+    amplification.cell_amplification) fell below it on force on this draw."""
     rng = np.random.default_rng(11)
     n = 40
     worst = {k: dict.fromkeys(QUANT, 0.0) for k in ("table", "path")}
@@ -87,7 +88,9 @@ def test_table_mass_bounds_the_time_history_where_the_path_mass_did_not() -> Non
         bound = amplification.contact_force_bound(W, h, f_c)
         for key, m_key in (("table", chain.table_mass(m_path, w_ref, f_s)),
                            ("path", m_path)):
-            amp = amplification.amplification(M, m_key, f_c, f_s, cond=cond, xi=a / L)
+            read = (amplification.amplification if key == "table"
+                    else amplification.cell_amplification)
+            amp = read(M, m_key, f_c, f_s, cond=cond, xi=a / L)
             for q in QUANT:
                 demand = getattr(amp, q) * F_ref * unit[q]
                 if q == "force":

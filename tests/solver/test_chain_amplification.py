@@ -87,10 +87,13 @@ def test_on_checks_use_the_amplified_force() -> None:
         rows = np.arange(c1.drop.n)
         own = path.share[rows, k] * path.g_own[rows, k] / path.f
         key = own * (comp.f_s - comp.f_col) >= 0.5 * comp.f_s
+        # fading from the envelope (share ≤ 0.5) to the member's own table (≥ 0.6)
+        # linearly (chain.own_table_weight, so the factor does not step at one half)
+        w_own = np.clip((own * (comp.f_s - comp.f_col) / comp.f_s - 0.5) / 0.1, 0.0, 1.0)
         cond = np.where(key, [amplification.CONDITIONS.index(x) for x in s["cond"]], -1)
         ref = amplification.amplification(inp.M, m_path, f_b - comp.f_s, comp.f_s,
                                           struck_mass=sm.m_e > 0.0, cond=cond,
-                                          xi=path.a[rows, k] / s["L"])
+                                          xi=path.a[rows, k] / s["L"], own_weight=w_own)
         assert key.any() and not key.all()  # both kinds of point are exercised
         from droprig.solver import impact as impact_mod
         _, F_ref, _ = impact_mod.impact_elastic(inp.W, inp.h, f_b, sm.eta)
@@ -119,7 +122,11 @@ def test_on_checks_use_the_amplified_force() -> None:
             if sel.size:
                 got = pointhistory.impulse_factors(c1, sel, inp.h[sel], imp.F[sel])
                 q = "moment" if by == "moment" else "force"
-                np.testing.assert_allclose(A[sel], np.maximum(got[q], 1.0), rtol=REL)
+                # fading into the other bounds from r = 0.5 to 1, linearly in ln r
+                # (chain.impulse_fade): A_I + t·(bound − A_I)
+                t = np.clip(np.log(amp.mass_ratio[sel] / 0.5) / np.log(2.0), 0.0, 1.0)
+                A_I = np.maximum(got[q], 1.0)
+                np.testing.assert_allclose(A[sel], A_I + t * (bound[sel] - A_I), rtol=REL)
         # the contact force never above the crushing force where the crushing holds
         # within its stroke (elastic–perfectly plastic contact)
         assert np.all(fo.local[ok & holds] <= np.maximum(F_cap, imp.F)[ok & holds] * (1 + REL))
