@@ -1,7 +1,8 @@
 # droprig: two commands do all the set-up — `make demo` and `make test`.
 PYTHON ?= python3
 VENV := .venv
-PY := $(VENV)/bin/python
+VPY := $(VENV)/bin/python
+PY := PYTHONPATH="$(CURDIR)" $(VPY)
 STAMP := $(VENV)/.installed
 QT_DEBS := libglib2.0-0 libgl1 libegl1 libfontconfig1 libxkbcommon0 libdbus-1-3 poppler-utils
 # the X server and the xcb libraries for the scripted run of the real window (make test)
@@ -10,11 +11,17 @@ X_DEBS := xvfb xdotool libxkbcommon-x11-0 libxcb-cursor0 libxcb-icccm4 libxcb-ke
 
 .PHONY: demo test lint bench sysdeps sysdeps-test clean
 
+# A .venv that is a link to another tree's (a second working tree of the repository)
+# is that tree's: installing this tree into it would re-point its `import droprig`.
+# Then nothing is installed and every command below imports this tree by PYTHONPATH.
 $(STAMP): pyproject.toml
-	@test -x $(PY) || $(PYTHON) -m venv $(VENV)
-	$(PY) -m pip install --quiet --upgrade pip
-	$(PY) -m pip install --quiet -e '.[test]'
-	@touch $(STAMP)
+	@if [ -L $(VENV) ]; then \
+		echo "$(VENV) is linked from another tree: not installing this one into it"; \
+	else \
+		test -x $(VPY) || $(PYTHON) -m venv $(VENV); \
+		$(VPY) -m pip install --quiet --upgrade pip && \
+		$(VPY) -m pip install --quiet -e '.[test]' && touch $(STAMP); \
+	fi
 
 sysdeps:
 	@sh scripts/sysdeps.sh $(PYTHON) $(QT_DEBS)
