@@ -1966,13 +1966,28 @@ def cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray,
     Ly, y, a_c, a_l = np.broadcast_arrays(*(np.asarray(v, float) for v in (Ly, y, across, along)))
     e = np.clip(np.minimum(y, Ly - y), 0.0, None)
     share, pos, length = base_on_line(e, a_c, b, h)
-    out = share * deck.deck_unit_moment_per_width(Ly, pos, length, a_l, thick)
-    if g_main is not None:
-        gy = pos**2 * (Ly - pos) ** 2 / (3.0 * Ly)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            tot = g_main + gy
-            out = out * np.where(tot > 0.0, 1.0 - gy / np.where(tot > 0.0, tot, 1.0), 1.0)
+    out = _slab_part_moment(Ly, share, pos, length, a_l, thick, g_main)
     return np.where(np.isfinite(out), out, 0.0)
+
+
+def _slab_part_moment(Ly: np.ndarray, share: np.ndarray, pos: np.ndarray,
+                      length: np.ndarray, along: np.ndarray, thick: float,
+                      g_main: np.ndarray | None) -> np.ndarray:
+    """The cross strip's sagging moment per metre width of the part of the load on the
+    slab (share F_s, centre ``pos`` m from the nearer girder line, length m, extent
+    ``along`` m parallel to the lines): a patch on the simply supported strip of span
+    ``Ly``, F_s·m(pos, length) (:func:`droprig.solver.deck.deck_unit_moment_per_width`),
+    of which the cross strip takes 1 − g_y/(g_main + g_y), g_y = pos²(Ly − pos)²/(3·Ly),
+    where the main strip's deflection ``g_main`` (m/N) is given (Rankine–Grashof
+    crossing strips at that part's centre). N·m/m per N; may be non-finite where the
+    part is empty (the callers mask it)."""
+    out = share * deck.deck_unit_moment_per_width(Ly, pos, length, along, thick)
+    if g_main is None:
+        return out
+    gy = pos**2 * (Ly - pos) ** 2 / (3.0 * Ly)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        tot = g_main + gy
+        return out * np.where(tot > 0.0, 1.0 - gy / np.where(tot > 0.0, tot, 1.0), 1.0)
 
 
 def uniform_on_line(e: np.ndarray, ext: np.ndarray, b: float,
@@ -2027,11 +2042,7 @@ def uniform_cross_strip_moment(Ly: np.ndarray, y: np.ndarray, across: np.ndarray
     Ly, y, a_c, a_l = np.broadcast_arrays(*(np.asarray(v, float) for v in (Ly, y, across, along)))
     e = np.clip(np.minimum(y, Ly - y), 0.0, None)
     share, pos, length = uniform_on_line(e, a_c, b, edge)
-    out = share * deck.deck_unit_moment_per_width(Ly, pos, length, a_l, thick)
-    gy = pos**2 * (Ly - pos) ** 2 / (3.0 * Ly)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        tot = g_main + gy
-        out = out * np.where(tot > 0.0, 1.0 - gy / np.where(tot > 0.0, tot, 1.0), 1.0)
+    out = _slab_part_moment(Ly, share, pos, length, a_l, thick, g_main)
     return np.where(np.isfinite(out) & (share > 0.0), out, 0.0)
 
 
