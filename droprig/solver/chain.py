@@ -276,7 +276,10 @@ class LoadInputs:
     is spent, t_r = thickness − stroke (the area that bears on the deck after the
     layer bottoms out), and ``f_layer`` (m/N) is that spent layer's own compliance,
     in series with the contact (:func:`droprig.solver.pads.spent_layer_compliance`;
-    0 elsewhere)."""
+    0 elsewhere). ``base_l`` × ``base_w`` (m): the contact spread through the layer
+    as ``foot_l`` × ``foot_w`` but not cut at the deck's edges — the extent of the
+    load's base over the framing, which rests on an edge member it overhangs
+    (:func:`compliance`; ``None`` where the drop has no deck)."""
 
     W: np.ndarray
     M: np.ndarray
@@ -295,6 +298,8 @@ class LoadInputs:
     lb: np.ndarray
     protected: np.ndarray
     f_layer: np.ndarray
+    base_l: np.ndarray | None = None
+    base_w: np.ndarray | None = None
 
 
 def load_inputs(c: Chain) -> LoadInputs:
@@ -331,7 +336,8 @@ def load_inputs(c: Chain) -> LoadInputs:
     lb = np.minimum(foot_l, foot_w)
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
-                      foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer)
+                      foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer,
+                      base_l=cl + 2.0 * t_spread, base_w=cw + 2.0 * t_spread)
 
 
 def _spent_layer(cl: np.ndarray, cw: np.ndarray, t_mat: np.ndarray, s_c: np.ndarray,
@@ -652,15 +658,23 @@ def compliance(c: Chain) -> Compliance:
                          np.maximum(M_ss - (MA * b + MB * x) / L, 0.0)
                          / np.where(M_ss > 0.0, M_ss, 1.0), 0.0)
     f_strip = g1 / EI
-    # a flat rigid base over both beams of its strip rests on them: no strip bending
-    # in series (in either plan orientation of the base: the stiffer, higher force);
-    # the deck checks are left out only where it bridges in both orientations
+    # a flat landing's base is a rigid body on the strip: it bears at its ends or on
+    # the support lines it reaches (slab.rigid_base_strip_compliance; continuous, 0
+    # where it rests on both beams), in the stiffer plan orientation (the higher
+    # force). Its extent is the base's own, not cut at a deck edge: a base
+    # overhanging the edge rests on the edge member. The deck checks are left out
+    # only where the footprint bridges the strip in both orientations.
     if d.landing == "flat":
-        bridged = footprint_mod.bridges_strip(span, pos, np.maximum(inp.foot_l, inp.foot_w))
+        base_l = inp.foot_l if inp.base_l is None else inp.base_l
+        base_w = inp.foot_w if inp.base_w is None else inp.base_w
+        bridged = footprint_mod.bridges_strip(span, pos, np.maximum(base_l, base_w))
         both = footprint_mod.bridges_strip(span, pos, np.minimum(inp.foot_l, inp.foot_w))
+        kl_n, kr_n = np.where(k_l > 0.0, Kn, 0.0), np.where(k_r > 0.0, Kn, 0.0)
+        g_base = np.minimum(slab.rigid_base_strip_compliance(L, x, base_l, kl_n, kr_n),
+                            slab.rigid_base_strip_compliance(L, x, base_w, kl_n, kr_n))
+        f_strip = np.where(ok, np.minimum(g_base, g1) / EI, 0.0)
     else:  # a tilted landing bears on one edge strip: no bridging credited
         bridged = both = np.zeros(d.n, dtype=bool)
-    f_strip = np.where(bridged, 0.0, f_strip)
     f_local = contact.deck_local_compliance(lv.deck, inp.foot_l, inp.foot_w, basis)
     f_deck = f_local + f_strip
     f_col = columns.column_compliance(d.fm.frame, path, columns.level_column_compliance(lv))

@@ -53,8 +53,10 @@ __all__ = [
     "one_way_strip_collapse_load",
     "opening_ineffective_length",
     "panel_pattern_collapse_load",
+    "rigid_base_strip_compliance",
     "series_resistance",
     "slab_support_rotation",
+    "strip_green",
     "topping_depth",
     "yield_line_resistance",
 ]
@@ -188,6 +190,68 @@ def continuous_strip_compliance(L: ArrayLike, a: ArrayLike, EI: ArrayLike,
     d0 = x**2 * b**2 / (3.0 * EI * L)
     return np.maximum(d0 - MA * x * b * (L + b) / (6.0 * EI * L)
                       - MB * x * b * (L + x) / (6.0 * EI * L), 0.0)
+
+
+
+def strip_green(L: ArrayLike, x: ArrayLike, xi: ArrayLike, K_left: ArrayLike,
+                K_right: ArrayLike) -> np.ndarray:
+    """Deflection at ``x`` under a unit load at ``xi`` of a span L with rotational end
+    springs, at EI = 1 (m³; divide by EI in N·m² for m/N); ``K_left``, ``K_right``
+    are the springs over EI (1/m, 0 = pinned).
+
+    G(x, ξ) = x₁·b·(L² − b² − x₁²)/(6L) − MA(ξ)·x(L − x)(2L − x)/(6L)
+    − MB(ξ)·x(L² − x²)/(6L), with x₁ = min(x, ξ), b = L − max(x, ξ): the simple
+    span's deflection (AISC Manual Table 3-23 case 8) less that of the end moments
+    of :func:`continuous_strip_end_moments` (Table 3-23 cases 11–12 for a moment at
+    one end). At x = ξ it is :func:`continuous_strip_compliance`; symmetric in x and
+    ξ (Maxwell–Betti)."""
+    L, x, xi = np.broadcast_arrays(*(np.asarray(v, float) for v in (L, x, xi)))
+    xc, xic = np.clip(x, 0.0, L), np.clip(xi, 0.0, L)
+    lo = np.minimum(xc, xic)
+    b = L - np.maximum(xc, xic)
+    MA, MB = continuous_strip_end_moments(L, xic, 1.0, K_left, K_right)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        g = (lo * b * (L**2 - b**2 - lo**2)
+             - MA * xc * (L - xc) * (2.0 * L - xc) - MB * xc * (L**2 - xc**2)) / (6.0 * L)
+    return np.where(L > 0.0, np.maximum(g, 0.0), 0.0)
+
+
+def rigid_base_strip_compliance(L: ArrayLike, pos: ArrayLike, extent: ArrayLike,
+                                K_left: ArrayLike, K_right: ArrayLike) -> np.ndarray:
+    """Deflection of a rigid base under a unit load at ``pos`` (its centre; the
+    load's centre of mass over it), extent ``extent`` along a span L with rotational
+    end springs (over EI, 1/m), at EI = 1: m³ (divide by EI for m/N).
+
+    A straight rigid base on a sagging strip bears at its two ends, x₁ and x₂ (the
+    strip's deflection under point loads lies below the chord between them: the
+    simple span's curve is concave between a support and the load, AISC Manual
+    Table 3-23 case 8), or on a support line where it reaches one (a support is
+    rigid): x₁ = clip(pos − c/2, 0, L), x₂ = clip(pos + c/2, 0, L). The lever rule
+    gives the end reactions t₁ = (x₂ − pos)/(x₂ − x₁), t₂ = 1 − t₁ and the base's
+    deflection at the load (energy, Maxwell–Betti):
+
+    g = t₁²·G(x₁, x₁) + 2·t₁·t₂·G(x₁, x₂) + t₂²·G(x₂, x₂)    (:func:`strip_green`).
+
+    Continuous: c → 0 gives the point load G(pos, pos); a base over both support
+    lines gives 0 (it rests on the members). Where end restraint makes the strip
+    bear against the base between its ends as well, the base is stiffer than this
+    (more contact): the two-point value is the upper estimate of the compliance
+    (tests/solver/test_rigid_base_strip.py measures it against a many-point,
+    compression-only contact solution: within 0.7 % for the interior restraint
+    K = 2√3·EI/L)."""
+    L, pos, c = np.broadcast_arrays(*(np.asarray(v, float) for v in (L, pos, extent)))
+    p = np.clip(pos, 0.0, L)
+    x1 = np.clip(p - 0.5 * c, 0.0, L)
+    x2 = np.clip(p + 0.5 * c, 0.0, L)
+    w = x2 - x1
+    tiny = 1e-9 * np.maximum(L, 1.0)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        t1 = np.where(w > tiny, (x2 - p) / np.where(w > tiny, w, 1.0), 0.5)
+    t2 = 1.0 - t1
+    g = (t1**2 * strip_green(L, x1, x1, K_left, K_right)
+         + 2.0 * t1 * t2 * strip_green(L, x1, x2, K_left, K_right)
+         + t2**2 * strip_green(L, x2, x2, K_left, K_right))
+    return np.where(w > tiny, np.maximum(g, 0.0), strip_green(L, p, p, K_left, K_right))
 
 
 # ------------------------------------------------------------------ yield lines

@@ -196,14 +196,18 @@ def _path_steps(sheet: _Sheet) -> None:
             "two supports (droprig.solver.footprint)")
     else:
         add("Deck compliance: indentation under the footprint + the strip between the "
-            "beams, continuous over them", "f_deck",
-            "f_deck = 1/(2a·E/(1 − ν²)) + g(s)/(E·I), g the strip restrained by "
-            "K = 2√3·EI/S where the deck goes on beyond a support",
+            "beams, continuous over them, under the base as a rigid body bearing at "
+            "its ends or on a beam it reaches (a flat landing)", "f_deck",
+            "f_deck = 1/(2a·E/(1 − ν²)) + g/(E·I), g = t₁²G(x₁,x₁) + 2t₁t₂G(x₁,x₂) + "
+            "t₂²G(x₂,x₂), x₁,₂ = s ∓ c/2 within the strip, t₁ = (x₂ − s)/(x₂ − x₁), "
+            "G the strip restrained by K = 2√3·EI/S where the deck goes on beyond a "
+            "support (the point load G(s, s) for a tilted landing)",
             {"s": (path.strip_pos[0], "length"), "S": (path.strip_span[0], "length"),
              "f_strip": (comp.f_deck[0] - comp.f_deck_local[0], "compliance")},
             comp.f_deck[0], "compliance",
             "Sneddon 1965 / Johnson, Contact Mechanics §3.8; AISC Manual Table 3-23 case "
-            "8 with the end moments of the restrained span (droprig.solver.slab)")
+            "8 with the end moments of the restrained span; rigid base on two supports, "
+            "Maxwell–Betti (droprig.solver.slab.rigid_base_strip_compliance)")
     k_load = load.contact_stiffness
     add("Compliance of the load's underside (skid, base frame, dunnage)"
         + ("" if k_load is not None
