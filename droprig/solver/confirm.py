@@ -816,7 +816,7 @@ def _refine(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
     x = (r["x"][top][:, None] + OX.ravel()[None, :]).ravel()
     y = (r["y"][top][:, None] + OY.ravel()[None, :]).ravel()
     ow = np.repeat(own[top], OX.size)
-    x, y, keep = _into_zone_over_deck(fm, zone, x, y)
+    x, y, keep = droppoints.into_zone_over_deck(fm.frame, zone, x, y)
     rx0 = np.array([t.rect.x0 for t in trials])[ow]
     rx1 = np.array([t.rect.x1 for t in trials])[ow]
     ry0 = np.array([t.rect.y0 for t in trials])[ow]
@@ -824,19 +824,6 @@ def _refine(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
     tol = droppoints.EDGE_TOL
     keep &= (x >= rx0 - tol) & (x <= rx1 + tol) & (y >= ry0 - tol) & (y <= ry1 + tol)
     return x[keep], y[keep], ow[keep]
-
-
-def _into_zone_over_deck(fm: FloorModel, zone: LiftZone, x: np.ndarray, y: np.ndarray
-                         ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """:func:`droppoints.into_zone` of the points (m) and whether each moved point
-    lies in the zone and over the deck (:func:`locate`), worked out once per distinct
-    point (the trials of one bay refine around the same worst points) and taken for
-    its repeats: both are point by point, so the same values row for row."""
-    _, first, inv = np.unique(x + 1j * y, return_index=True, return_inverse=True)
-    inv = inv.ravel()
-    px, py, inside = droppoints.into_zone(zone, x[first], y[first])
-    keep = inside & (locate(fm.frame, px, py) >= 0)
-    return px[inv], py[inv], keep[inv]
 
 
 def _member_lines(fm: FloorModel) -> tuple[np.ndarray, ...]:

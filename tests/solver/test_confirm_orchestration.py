@@ -137,7 +137,7 @@ def test_points_moved_into_the_zone_once_per_distinct_point(steel) -> None:
     x = rng.uniform(e.x0 - 2.0, e.x1 + 2.0, 1500)
     y = rng.uniform(e.y0 - 2.0, e.y1 + 2.0, 1500)
     x, y = np.r_[x, x[:500]], np.r_[y, y[:500]]  # the trials of one bay: repeats
-    px, py, keep = confirm._into_zone_over_deck(fm, zone, x, y)
+    px, py, keep = droppoints.into_zone_over_deck(fm.frame, zone, x, y)
     wx, wy, inside = droppoints.into_zone(zone, x, y)
     assert np.array_equal(px, wx) and np.array_equal(py, wy)
     assert np.array_equal(keep, inside & (locate(fm.frame, wx, wy) >= 0))
