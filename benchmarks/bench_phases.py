@@ -80,8 +80,12 @@ def _row_keys(d: chain.Drop) -> list[tuple]:
     load_ids = [(ld.name, ld.mass, ld.hard, ld.drop_height) for ld in d.loads]
     H = np.full(d.n, np.nan) if d.H is None else np.asarray(d.H, float)
     mk = np.full(d.n, np.nan) if d.mat_k is None else np.asarray(d.mat_k, float)
-    return [(float(g.x[i]), float(g.y[i]), load_ids[int(li[i])], float(H[i]),
-             float(mk[i]), d.landing, d.trial, d.outcomes_only, d.v_hoist)
+    # (NaN read as None: NaN is not equal to itself, so a key holding one would
+    # never be found again)
+    Hk = [None if h != h else h for h in H.tolist()]
+    mkk = [None if m != m else m for m in mk.tolist()]
+    return [(float(g.x[i]), float(g.y[i]), load_ids[int(li[i])], Hk[i], mkk[i],
+             d.landing, d.trial, d.outcomes_only, d.v_hoist)
             for i in range(d.n)]
 
 
