@@ -11,6 +11,8 @@ this guards that a refactoring of the solver changes no number.
 
 With ``DROPRIG_EQ_AMPLIFIED=1`` in the environment every project is analysed with the
 setting ``dynamic_amplification`` on (``=0``: off), whatever its file or the default.
+``DROPRIG_EQ_N`` sets the number of random projects (200), ``DROPRIG_EQ_REL`` the
+relative tolerance (1e-9; a speed change that reorders no arithmetic keeps 1e-12).
 
 Compared within 1e-9 relative (NaN equal NaN; integers and strings exactly). Invented
 data only (random inputs): nothing here is an expected value of the physics.
@@ -45,8 +47,8 @@ sys.path.insert(0, str(ROOT))
 
 from tests.builders import BEAM, GIRDER, S355  # noqa: E402
 
-REL = 1e-9
-N_RANDOM = 200
+REL = float(os.environ.get("DROPRIG_EQ_REL", "1e-9"))
+N_RANDOM = int(os.environ.get("DROPRIG_EQ_N", "200"))
 
 GRADE = S355
 SLENDER = Section("S400", "custom", d=0.4, bf=0.25, tw=0.007, tf=0.012, r=0.01,

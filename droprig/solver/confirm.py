@@ -279,7 +279,7 @@ def _with_mass(load: LiftLoad, mass: float) -> LiftLoad:
 
 def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
          trials: list[_Trial], res: dict[str, np.ndarray], geo: Geometry | None,
-         known: dict[int, tuple[np.ndarray, np.ndarray]]) -> None:
+         known: dict[object, tuple[np.ndarray, np.ndarray]]) -> None:
     """One round: every trial of ``trials`` at the analysis points of its bay and at
     points refined around its worst ones; sets ``ok`` and, where it fails, the next
     value to try (``value``) or ``failed``. ``geo``: the geometry of ``res``'s rows
@@ -331,15 +331,22 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
         parts.append(st.take(fm, project, trials, ev, sx.size))
     r = _cat(parts)
     own = r["owner"]
+    # per trial at once: whether it has rows, holds (_holds_all) and its peak force
+    # (np.nanmax over its rows: NaN left out, NaN where all are)
+    has = np.zeros(len(trials), dtype=bool)
+    has[own] = True
+    holds = _holds_all(trials, r)
+    peak = np.full(len(trials), np.nan)
+    np.fmax.at(peak, own, r["peak_force"])
     for t, tr in enumerate(trials):
+        if not has[t]:
+            tr.ok = True
+            continue
+        tr.peak = float(peak[t])
+        if holds[t]:
+            tr.ok = True
+            continue
         sel = own == t
-        if not sel.any():
-            tr.ok = True
-            continue
-        tr.peak = float(np.nanmax(r["peak_force"][sel]))
-        if _holds(tr, r, sel):
-            tr.ok = True
-            continue
         v = r[_FIELD[tr.kind]][sel]
         v = v[np.isfinite(v)]
         nxt = CONFIRM_STEP * tr.value
@@ -397,10 +404,34 @@ def _span(tr: _Trial, amplified: bool = False) -> float:
 def _holds(tr: _Trial, r: dict[str, np.ndarray], sel: np.ndarray) -> bool:
     """Whether the trial's rows ``sel`` of ``r`` keep the bay within the condition's
     limits: responses among ``tr.allowed`` and, for an elastic condition, every
-    U ≤ :data:`CONFIRM_U`."""
+    U ≤ :data:`CONFIRM_U`. The plain form of :func:`_holds_all` (one trial)."""
     worst = set(np.unique(r["response"][sel]).tolist())
     u_max = float(np.nanmax(r["utilisation"][sel], initial=0.0))
     return worst <= tr.allowed and (tr.allowed != _ELASTIC or u_max <= CONFIRM_U)
+
+
+def _holds_all(trials: list[_Trial], r: dict[str, np.ndarray]) -> np.ndarray:
+    """:func:`_holds` of every trial on its rows of ``r`` (``r["owner"]``), bool per
+    trial (a trial with no rows holds), in one pass over the rows: per trial the set
+    of responses met (a bit per response) and the largest U (NaN left out, at least
+    0, as ``np.nanmax(..., initial=0)``). The same answers as :func:`_holds` trial by
+    trial (``tests/solver/test_confirm_orchestration.py``)."""
+    nt = len(trials)
+    own = r["owner"]
+    resp = np.asarray(r["response"], dtype=np.int64)
+    if resp.size and not (0 <= resp.min() and resp.max() < len(RESPONSES)):
+        raise ValueError(f"a trial's response outside 0…{len(RESPONSES) - 1}")
+    met = np.zeros((nt, len(RESPONSES)), dtype=bool)
+    met[own, resp] = True
+    u = np.asarray(r["utilisation"], float)
+    u_max = np.zeros(nt)
+    np.maximum.at(u_max, own, np.where(np.isnan(u), 0.0, u))
+    allowed = np.zeros((nt, len(RESPONSES)), dtype=bool)
+    elastic = np.zeros(nt, dtype=bool)
+    for t, tr in enumerate(trials):
+        allowed[t, list(tr.allowed)] = True
+        elastic[t] = tr.allowed == _ELASTIC
+    return ~(met & ~allowed).any(axis=1) & (~elastic | (u_max <= CONFIRM_U))
 
 
 def _pad_top(fm: FloorModel, project: Project, prot: np.ndarray) -> np.ndarray:
@@ -447,11 +478,12 @@ def _neighbours(x: np.ndarray, y: np.ndarray, reach: float
     return np.concatenate(ii), np.concatenate(jj)
 
 
-def _danger(tr: _Trial, va: np.ndarray, vb: np.ndarray) -> np.ndarray:
+def _danger(value: float | np.ndarray, va: np.ndarray, vb: np.ndarray) -> np.ndarray:
     """How low the answer to the condition (allowable height, stiffest mat, allowable
     mass; nan read as nothing allowed, as the chain's inverse answers give it where
     even a zero fall fails) may reach between two neighbouring points with answers
-    ``va``, ``vb``, as a fraction of the trial value: lo/ρ, the lower answer divided
+    ``va``, ``vb``, as a fraction of the trial value ``value`` (one, or one per
+    stretch): lo/ρ, the lower answer divided
     by the change across the stretch ρ = hi/lo (at most :data:`BISECT_RHO_MAX`) — the
     change carried on past the lower end within the stretch, as at a kink between
     the points. Where ρ ≤ :data:`BISECT_RATIO` (a smooth stretch) inf. A stretch with
@@ -461,8 +493,8 @@ def _danger(tr: _Trial, va: np.ndarray, vb: np.ndarray) -> np.ndarray:
     lo, hi = np.minimum(a, b), np.maximum(a, b)
     with np.errstate(divide="ignore", invalid="ignore"):
         rho = np.where(lo > 0.0, hi / lo, np.inf)
-        d = np.where((rho > BISECT_RATIO) & (lo < BISECT_NEAR * tr.value),
-                     lo / np.minimum(rho, BISECT_RHO_MAX) / tr.value, np.inf)
+        d = np.where((rho > BISECT_RATIO) & (lo < BISECT_NEAR * value),
+                     lo / np.minimum(rho, BISECT_RHO_MAX) / value, np.inf)
     return np.where(np.isnan(d), np.inf, d)
 
 
@@ -477,6 +509,18 @@ def _most_dangerous(d: np.ndarray, own: np.ndarray, k: int) -> np.ndarray:
     first = np.r_[True, o[1:] != o[:-1]]
     start = np.maximum.accumulate(np.where(first, np.arange(o.size), 0))
     return order[(np.arange(o.size) - start) < k]
+
+
+def _cell_keys(cx: np.ndarray, cy: np.ndarray) -> np.ndarray:
+    """One int64 per cell (``cx``, ``cy``: whole-numbered cell indices as floats):
+    equal for equal pairs, distinct for distinct ones, in the order of the pairs
+    (x first, then y), as ``np.unique(np.c_[cx, cy], axis=0)`` orders its rows.
+    The cells of a floor plan span at most some 10⁶ indices a side."""
+    if cx.size == 0:
+        return np.zeros(0, dtype=np.int64)
+    ix = (cx - cx.min()).astype(np.int64)
+    iy = (cy - cy.min()).astype(np.int64)
+    return ix * (int(iy.max()) + 1) + iy
 
 
 @dataclass
@@ -535,12 +579,13 @@ class _Stretches:
 
     @classmethod
     def first(cls, fm: FloorModel, trials: list[_Trial], res: dict[str, np.ndarray],
-              bay: list[np.ndarray], known: dict[int, tuple[np.ndarray, np.ndarray]]
+              bay: list[np.ndarray], known: dict[object, tuple[np.ndarray, np.ndarray]]
               ) -> _Stretches:
         """The stretches between neighbouring analysis points of each trial's bay
         (``bay``: their rows of ``res``), with the analysis' answers; ``known``: the
         neighbours found so far among each load's analysis points (rows of ``res``; the
-        same for every trial and round of a zone)."""
+        same for every trial and round of a zone), by load, and those within a bay, by
+        (load, bay rectangle)."""
         reach = BISECT_REACH * fm.settings.grid_resolution
         cols: list[list[np.ndarray]] = [[] for _ in range(7)]
         in_bay = np.zeros(res["x"].size, dtype=bool)
@@ -552,9 +597,9 @@ class _Stretches:
                 # one point per square of BISECT_THIN (a stretch shorter than that
                 # lies within a refinement lattice, which the trial runs whole)
                 cell = BISECT_THIN * fm.settings.grid_resolution
-                _, one = np.unique(np.c_[np.round(res["x"][rows] / cell),
-                                         np.round(res["y"][rows] / cell)],
-                                   axis=0, return_index=True)
+                _, one = np.unique(_cell_keys(np.round(res["x"][rows] / cell),
+                                              np.round(res["y"][rows] / cell)),
+                                   return_index=True)
                 rows = rows[np.sort(one)]
                 a, b = _neighbours(res["x"][rows], res["y"][rows], reach)
                 # stretches within a refinement lattice are sampled densely already
@@ -563,11 +608,17 @@ class _Stretches:
                         > BISECT_SHORT * fm.settings.grid_resolution)
                 a, b = a[long], b[long]
                 known[tr.load] = (rows[a], rows[b])
-            a, b = known[tr.load]
-            in_bay[bay[t]] = True
-            w = in_bay[a] & in_bay[b]
-            in_bay[bay[t]] = False
-            i, j = a[w], b[w]
+            # the stretches of the load within the bay: the same for every trial of
+            # the bay and round of the zone (``bay[t]``: the load's analysis points
+            # in the bay), kept in ``known`` under (load, bay)
+            got = known.get((tr.load, tr.rect))
+            if got is None:
+                a, b = known[tr.load]
+                in_bay[bay[t]] = True
+                w = in_bay[a] & in_bay[b]
+                in_bay[bay[t]] = False
+                got = known[(tr.load, tr.rect)] = (a[w], b[w])
+            i, j = got
             x, y, v = res["x"], res["y"], res[f]
             for c, a in zip(cols, (x[i], y[i], v[i], x[j], y[j], v[j],
                                    np.full(i.size, t, dtype=np.int64)), strict=True):
@@ -580,8 +631,9 @@ class _Stretches:
 
     def stop_failing(self, trials: list[_Trial], r: dict[str, np.ndarray]) -> None:
         """No more cuts for the trials that fail on the rows ``r`` so far."""
+        holds = _holds_all(trials, r)
         for t in np.unique(r["owner"]).tolist():
-            if t not in self.stopped and not _holds(trials[t], r, r["owner"] == t):
+            if t not in self.stopped and not holds[t]:
                 self.stopped.add(t)
 
     def split(self, fm: FloorModel, zone: LiftZone, trials: list[_Trial]
@@ -589,12 +641,12 @@ class _Stretches:
         """The cut points (x, y, trial) of this level's most dangerous stretches that
         lie in the zone and over the deck."""
         own = self.own
-        d = np.full(own.size, np.inf)
-        for t in np.unique(own).tolist():
-            if t in self.stopped:
-                continue
-            h = own == t
-            d[h] = _danger(trials[t], self.v0[h], self.v1[h])
+        # every stretch's danger at once, each with its trial's value (_danger is
+        # elementwise); the stopped trials' stretches none (inf)
+        value = np.array([tr.value for tr in trials], float)
+        live = np.ones(len(trials), dtype=bool)
+        live[list(self.stopped)] = False
+        d = np.where(live[own], _danger(value[own], self.v0, self.v1), np.inf)
         # the first level halves every dangerous stretch, each further one cuts the
         # most dangerous of each trial into BISECT_PIECES
         first = self.level == 0
@@ -764,8 +816,7 @@ def _refine(fm: FloorModel, zone: LiftZone, trials: list[_Trial],
     x = (r["x"][top][:, None] + OX.ravel()[None, :]).ravel()
     y = (r["y"][top][:, None] + OY.ravel()[None, :]).ravel()
     ow = np.repeat(own[top], OX.size)
-    x, y, inside = droppoints.into_zone(zone, x, y)
-    keep = inside & (locate(fm.frame, x, y) >= 0)
+    x, y, keep = droppoints.into_zone_over_deck(fm.frame, zone, x, y)
     rx0 = np.array([t.rect.x0 for t in trials])[ow]
     rx1 = np.array([t.rect.x1 for t in trials])[ow]
     ry0 = np.array([t.rect.y0 for t in trials])[ow]
@@ -914,7 +965,7 @@ def confirm_bay_limits(fm: FloorModel, project: Project, zone: LiftZone,
     # mass keeps the bay elastic: no perforation either)
     base = tuple(replace(ld, hard=False) for ld in zone.loads)
     pending = [t for t in trials if not t.failed]
-    known: dict[int, tuple[np.ndarray, np.ndarray]] = {}
+    known: dict[object, tuple[np.ndarray, np.ndarray]] = {}
     for _ in range(CONFIRM_ROUNDS):
         if not pending:
             break

@@ -328,6 +328,22 @@ def into_zone(zone: LiftZone, x: np.ndarray, y: np.ndarray,
     return x, y, inside
 
 
+def into_zone_over_deck(frame: Frame, zone: LiftZone, x: np.ndarray, y: np.ndarray
+                        ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """:func:`into_zone` of the points (m) and whether each moved point lies in the
+    zone and over a deck panel (:func:`~droprig.solver.loadpath.locate` ≥ 0), worked
+    out once per distinct point and taken for its repeats (the refinement lattices of
+    several loads, or of several trials of one bay, around one worst point): both are
+    point by point, so the same values row for row as working out every point."""
+    x = np.asarray(x, float)
+    y = np.asarray(y, float)
+    _, first, inv = np.unique(x + 1j * y, return_index=True, return_inverse=True)
+    inv = inv.ravel()
+    px, py, inside = into_zone(zone, x[first], y[first])
+    keep = inside & (locate(frame, px, py) >= 0)
+    return px[inv], py[inv], keep[inv]
+
+
 def in_zone(zone: LiftZone, x: np.ndarray, y: np.ndarray) -> np.ndarray:
     """True where the point lies in the zone widened by its drift margin.
 

@@ -20,7 +20,6 @@ from droprig.solver.geometry import (
     concat_geo,
     point_geometry,
 )
-from droprig.solver.loadpath import locate
 
 if TYPE_CHECKING:
     from droprig.solver.outcome_rows import OutcomeRows
@@ -70,8 +69,7 @@ def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],
     lj = np.repeat(li[top], OX.size)
     # lattice points beyond the zone edge move onto it: the worst point often lies
     # on the edge nearest a stiff support
-    x, y, inside = droppoints.into_zone(zone, x, y)
-    keep = inside & (locate(fm.frame, x, y) >= 0)
+    x, y, keep = droppoints.into_zone_over_deck(fm.frame, zone, x, y)
     return x[keep], y[keep], lj[keep]
 
 
