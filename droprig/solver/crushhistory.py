@@ -41,28 +41,32 @@ form place it (to 2⁻⁴⁰ of a sample spacing); the framing's largest deflect
 phase is its largest sample refined by Newton's method on x2' = 0 (exact for the
 one-harmonic phases).
 
-**Stopping rule** (every case runs until one of these holds; each gives an upper
-bound of the framing's force over all later time, so the answer is safe):
+**Window and stopping rules.** The history is followed to the end of a window, two
+periods of the elastic system's lower mode after the last crushing phase ends
+(:data:`WINDOW`, the scipy reference's; as :mod:`droprig.solver.exacthistory` takes
+its reference's window), or to one of the rules below; ``F_frame`` is the largest
+framing force inside it. Undamped, a later beat of the two modes, or a load bouncing
+on a soft contact, could still raise the peak; real floors damp that, and ``F_all``
+states what it could reach at most over all later time:
 
 1. an elastic phase that can never end: with the modal amplitudes R (m), the contact
    force stays within W ± k_c·Σ|1 − r|·R, and where that lies in [0, F_c] (or in
    [0, ∞) once bottomed) the case stays in this phase for ever; its framing peak is
    then at most x2s + Σ|r|·R, the supremum over all time of an undamped two-mode
-   vibration (reached arbitrarily closely for incommensurate frequencies), which is
-   taken;
+   vibration (reached arbitrarily closely for incommensurate frequencies);
 2. the energy bound: with E' = ½M·v1² + ½m2·v2² + ½k2·x2² + ½k_c·e² − W·(x2 + e)
    (e = x1 − x2 − p the contact's compression, its term 0 apart), dE'/dt =
    −(F_c − W)·p' ≤ 0, and ½k_c·e² − W·e ≥ −W²/(2k_c), so ½k2·x2² − W·x2 ≤
    E' + W²/(2k_c) at every later time: the framing's force k2·x2 can no longer pass
-   W + √(W² + 2k2·E' + k2·W²/k_c). Once that is at most the peak found, stop;
+   W + √(W² + 2k2·E' + k2·W²/k_c). Once that is at most the peak found, the case
+   stops (its peak can no longer grow); where the window ends otherwise, ``F_all``
+   is this bound (or rule 1's supremum, where the last phase never ends);
 3. a case with more than :data:`MAX_PHASES` phases, or an elastic phase with no end
    inside :data:`HORIZON` periods of its lower mode that rule 1 does not close, is
-   given that energy bound (``bounded`` in the result): safe, not tight.
+   given that energy bound as ``F_frame`` too (``bounded``): safe, not tight.
 
 The model, its springs and masses are those of the scipy time history the tests
-check it against (tests/solver/test_after_bottoming.py ``_history``). Undamped: real
-floors damp the later peaks, so rule 1's supremum reads above a history of a few
-periods where the two modes beat. SI units: N, m, kg, s.
+check it against (tests/solver/test_after_bottoming.py ``_history``). SI units: N, m, kg, s.
 
 Cost: about 0.6–0.7 ms a case where the contact is softer than ~10 × the framing and
 3–4 ms where it is stiffer (a fast mode sampled over the slow one's window, and many
@@ -118,7 +122,9 @@ class CrushHistory:
     largest deflection), ``F_contact`` (N, the connector's largest force),
     ``crush`` (m, the permanent set at the end), ``bottomed`` (the stroke was spent),
     ``bounded`` (stopping rule 3: ``F_frame`` is the energy bound), ``phases``
-    (the number of phases followed) and ``t_end`` (s, the window's end)."""
+    (the number of phases followed), ``t_end`` (s, the window's end) and ``F_all``
+    (N, an upper bound of the framing's force over all later time of the undamped
+    model: stopping rules 1 and 2)."""
 
     F_frame: np.ndarray
     F_contact: np.ndarray
@@ -127,6 +133,7 @@ class CrushHistory:
     bounded: np.ndarray
     phases: np.ndarray
     t_end: np.ndarray
+    F_all: np.ndarray
 
 
 def _checked(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, s_c: ArrayLike,
@@ -329,24 +336,21 @@ def _elastic_phase(s: dict[str, np.ndarray], i: np.ndarray) -> None:
     R = np.hypot(el.a, el.b)
     S = el.kc * np.sum(np.abs(1.0 - el.r) * R, axis=1)
     bot, F_c = s["bottomed"][i], s["F_c"][i]
+    # rule 1: a phase that never ends; its supremum bounds all later time, and it is
+    # followed (no event searched) to the window's end
     eternal = (el.W - S >= 0.0) & (bot | (el.W + S <= F_c))
     e = i[eternal]
-    s["x2_peak"][e] = np.maximum(s["x2_peak"][e], (el.x2s + np.sum(np.abs(el.r) * R, 1))
-                                 [eternal])
-    s["F_peak"][e] = np.maximum(s["F_peak"][e], (el.W + S)[eternal])
-    s["kind"][e] = _DONE
-    go = ~eternal
-    if not go.any():
-        return
-    el = cast(_Elastic, _take(el, go))
-    i, bot, F_c = i[go], bot[go], F_c[go]
+    s["x2_sup"][e] = (el.x2s + np.sum(np.abs(el.r) * R, 1))[eternal]
+    s["open"][i] = ~eternal
     dt = 2.0 * np.pi / el.w[:, 1] / SAMPLES
     left = s["t_end"][i] - s["t"][i]  # to the window's end
-    limit = np.ceil(np.minimum(HORIZON * 2.0 * np.pi / el.w[:, 0], left) / dt) + 1.0
+    limit = np.ceil(np.where(eternal, left, np.minimum(HORIZON * 2.0 * np.pi
+                                                       / el.w[:, 0], left)) / dt) + 1.0
 
     def ev(k: np.ndarray, t: np.ndarray) -> np.ndarray:
         F = cast(_Elastic, _take(el, k)).force(t)
-        return np.maximum(np.where(bot[k, None], -np.inf, F - F_c[k, None]), -F)
+        F = np.maximum(np.where(bot[k, None], -np.inf, F - F_c[k, None]), -F)
+        return np.where(eternal[k, None], -np.inf, F)
 
     def track(k: np.ndarray, t: np.ndarray) -> list[np.ndarray]:
         ek = cast(_Elastic, _take(el, k))
@@ -362,7 +366,7 @@ def _elastic_phase(s: dict[str, np.ndarray], i: np.ndarray) -> None:
     s["x2_peak"][i] = np.maximum(s["x2_peak"][i], x2)
     s["F_peak"][i] = np.maximum(s["F_peak"][i], Fm)
     # no end inside the window: done; none inside HORIZON periods before it: rule 3
-    s["bounded"][i[~found & (limit * dt < left)]] = True
+    s["bounded"][i[~found & (limit * dt < left) & ~eternal]] = True
     s["kind"][i[~found]] = _DONE
     f = np.flatnonzero(found)
     ef = _take(el, f)
@@ -411,6 +415,7 @@ def _capped_phase(s: dict[str, np.ndarray], i: np.ndarray, crushing: bool) -> No
     s["x2_peak"][i] = np.maximum(s["x2_peak"][i], cf.x2_max(
         np.where(over, s["t_end"][i] - s["t"][i], tau)))
     s["kind"][i[over]] = _DONE
+    s["open"][i[over]] = True
     _set_state(s, i, cf, tau)
     s["t"][i] += tau
     s["kind"][i] = np.where(s["kind"][i] == _DONE, _DONE, _ELASTIC)
@@ -449,6 +454,7 @@ def crush_history(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, s_c: ArrayLike,
          "x1": z.copy(), "v1": v0_.copy(), "x2": z.copy(), "v2": z.copy(), "p": z.copy(),
          "x2_peak": z.copy(), "F_peak": z.copy(), "bottomed": s_c_ <= 0.0,
          "bounded": np.zeros(n, bool), "kind": np.full(n, _ELASTIC), "t": z.copy(),
+         "x2_sup": np.full(n, -np.inf), "open": np.zeros(n, bool),
          "t_end": WINDOW * 2.0 * np.pi / _modes(M_, m2_, kc, k2_)[0][:, 0]}
     phases = np.zeros(n, int)
     for _ in range(MAX_PHASES):
@@ -468,10 +474,16 @@ def crush_history(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, s_c: ArrayLike,
         i = np.flatnonzero(s["kind"] != _DONE)
         spent = _energy_bound(s, i) <= s["k2"][i] * s["x2_peak"][i]
         s["kind"][i[spent]] = _DONE
+        s["open"][i[spent]] = False
     i = np.flatnonzero((s["kind"] != _DONE) | s["bounded"])
     s["bounded"][i] = True
     F_frame = s["k2"] * s["x2_peak"]
     F_frame[i] = np.maximum(F_frame[i], _energy_bound(s, i))
+    # over all later time: the supremum of a phase that never ends (rule 1), else the
+    # energy bound (rule 2) where the window cut the history
+    F_all = np.maximum(F_frame, s["k2"] * s["x2_sup"])
+    o = np.flatnonzero(s["open"])
+    F_all[o] = np.maximum(F_all[o], _energy_bound(s, o))
     return CrushHistory(F_frame=F_frame, F_contact=s["F_peak"], crush=s["p"].copy(),
                         bottomed=s["bottomed"].copy(), bounded=s["bounded"].copy(),
-                        phases=phases, t_end=s["t_end"].copy())
+                        phases=phases, t_end=s["t_end"].copy(), F_all=F_all)

@@ -32,11 +32,9 @@ TH_TOL = 2e-3
 """The closed form may read this much below the history: the integrator's tolerance
 (rtol 1e-7, 12 steps a period of the fast mode) at the phase changes; measured
 0.9998 at the lowest."""
-TH_OVER = 1.06
-"""... and this much above it: where the history ends in an elastic phase that
-never ends, the closed form takes the supremum over all time of the two modes'
-vibration, which the window's last periods need not reach where the modes beat
-(measured up to 1.046); elsewhere 1.000–1.001."""
+TH_OVER = 1.01
+"""... and this much above it (the same model over the same window; the peaks'
+sampling refined by Newton's method; measured 1.0000–1.0012)."""
 N_CASES = 12
 
 
@@ -63,7 +61,7 @@ def sweep() -> dict[str, np.ndarray]:
     r = crush_history(*a)
     hist = np.array([_history(*a[:, j], math.inf, 0.0, t_end=float(r.t_end[j]))[:2]
                      for j in range(a.shape[1])])
-    return {"a": a, "F_frame": r.F_frame, "F_contact": r.F_contact,
+    return {"a": a, "F_frame": r.F_frame, "F_contact": r.F_contact, "F_all": r.F_all,
             "bottomed": r.bottomed, "bounded": r.bounded, "phases": r.phases,
             "h_contact": hist[:, 0], "h_frame": hist[:, 1]}
 
@@ -94,18 +92,18 @@ def test_the_sweep_covers_soft_and_stiff_contacts_and_bottoming(sweep):
 
 
 def test_stiff_contact_limit_is_the_rigid_contact_crush():
-    # k_c → ∞ (10⁴ × the framing): a crush lasting half the floor's period or more
+    # k_c → ∞ (10³ × the framing): a crush lasting half the floor's period or more
     # gives the framing 2·F_c (Biggs 1964 ch. 2: a suddenly applied force), the value
     # impact.framing_under_crush is exact at; a heavy load on a stiff light floor
     M, m2, k2, F_c, v0 = 2000.0, 800.0, 1e8, 50e3, 4.0
-    r = crush_history(M, v0, F_c, math.inf, 1e4 * k2, m2, k2)
+    r = crush_history(M, v0, F_c, math.inf, 1e3 * k2, m2, k2)
     assert float(framing_under_crush(M, v0, F_c, m2, k2)) == pytest.approx(2 * F_c)
     assert float(r.F_frame[0]) == pytest.approx(2.0 * F_c, rel=2e-3)
     # a light load's short crush on a heavy floor, the load riding after it: the
     # one-mass ride of framing_under_crush is exact when the load neither leaves the
     # floor nor crushes the layer again (Clough & Penzien ch. 2 free vibration)
     M, m2, k2, F_c, v0 = 300.0, 15000.0, 3e6, 9e3, 0.5
-    r = crush_history(M, v0, F_c, math.inf, 1e4 * k2, m2, k2)
+    r = crush_history(M, v0, F_c, math.inf, 1e3 * k2, m2, k2)
     F_ride = float(framing_under_crush(M, v0, F_c, m2, k2))
     assert F_ride < 1.5 * F_c
     assert float(r.F_frame[0]) == pytest.approx(F_ride, rel=1e-2)
@@ -145,6 +143,9 @@ def test_never_above_the_energy_bound(sweep):
     _, Bf = struck_mass.energy_bounds(W, h, 1.0 / a[4], 1.0 / a[6])
     nb = ~sweep["bottomed"]
     assert np.all(sweep["F_frame"][nb] <= Bf[nb] * (1 + 1e-9))
+    # the bound over all later time (stopping rules 1 and 2) lies between the two
+    assert np.all(sweep["F_all"] >= sweep["F_frame"])
+    assert np.all(sweep["F_all"][nb] <= Bf[nb] * (1 + 1e-9))
 
 
 @pytest.mark.parametrize("field, kwargs, words", [
