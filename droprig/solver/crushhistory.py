@@ -275,10 +275,11 @@ def _first_event(ev: Event, track: Track, dt: np.ndarray, limit: np.ndarray
     while live.any():
         idx = np.flatnonzero(live)
         t = dt[idx, None] * (k0 + j)[None, :]
-        hit_k = ev(idx, t) > 0.0
+        inside = (k0 + j)[None, :] <= limit[idx, None]  # the search's last sample
+        hit_k = (ev(idx, t) > 0.0) & inside
         hit = hit_k.any(axis=1)
         first = np.where(hit, np.argmax(hit_k, axis=1), CHUNK)
-        before = j[None, :] - 1 < first[:, None]  # samples before the event's
+        before = (j[None, :] - 1 < first[:, None]) & inside  # samples before the event's
         outs = track(idx, t)
         if best.shape[0] == 0:
             best = np.full((len(outs), n), -np.inf)
@@ -345,7 +346,7 @@ def _elastic_phase(s: dict[str, np.ndarray], i: np.ndarray) -> None:
     dt = 2.0 * np.pi / el.w[:, 1] / SAMPLES
     left = s["t_end"][i] - s["t"][i]  # to the window's end
     limit = np.ceil(np.where(eternal, left, np.minimum(HORIZON * 2.0 * np.pi
-                                                       / el.w[:, 0], left)) / dt) + 1.0
+                                                       / el.w[:, 0], left)) / dt)
 
     def ev(k: np.ndarray, t: np.ndarray) -> np.ndarray:
         F = cast(_Elastic, _take(el, k)).force(t)
