@@ -345,8 +345,8 @@ def _elastic_phase(s: dict[str, np.ndarray], i: np.ndarray) -> None:
     s["open"][i] = ~eternal
     dt = 2.0 * np.pi / el.w[:, 1] / SAMPLES
     left = s["t_end"][i] - s["t"][i]  # to the window's end
-    limit = np.ceil(np.where(eternal, left, np.minimum(HORIZON * 2.0 * np.pi
-                                                       / el.w[:, 0], left)) / dt)
+    limit = np.floor(np.where(eternal, left, np.minimum(HORIZON * 2.0 * np.pi
+                                                        / el.w[:, 0], left)) / dt)
 
     def ev(k: np.ndarray, t: np.ndarray) -> np.ndarray:
         F = cast(_Elastic, _take(el, k)).force(t)
@@ -358,7 +358,8 @@ def _elastic_phase(s: dict[str, np.ndarray], i: np.ndarray) -> None:
         return [ek.x2(t), ek.force(t)]
 
     tau, found, best, t_best = _first_event(ev, track, dt, limit)
-    end = np.where(found, tau, t_best.max(axis=0))
+    end = np.where(found, tau, left)  # no end found: the window's (the samples' last
+    # is at most a spacing before it; the value there is taken with them)
     k = np.arange(i.size)
     x2 = _refined_max(lambda k, t, d: cast(_Elastic, _take(el, k)).x2(t, d), k,
                       best[0], t_best[0], dt, end)
@@ -367,7 +368,7 @@ def _elastic_phase(s: dict[str, np.ndarray], i: np.ndarray) -> None:
     s["x2_peak"][i] = np.maximum(s["x2_peak"][i], x2)
     s["F_peak"][i] = np.maximum(s["F_peak"][i], Fm)
     # no end inside the window: done; none inside HORIZON periods before it: rule 3
-    s["bounded"][i[~found & (limit * dt < left) & ~eternal]] = True
+    s["bounded"][i[~found & (HORIZON * 2.0 * np.pi / el.w[:, 0] < left) & ~eternal]] = True
     s["kind"][i[~found]] = _DONE
     f = np.flatnonzero(found)
     ef = _take(el, f)
