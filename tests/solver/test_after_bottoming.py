@@ -72,12 +72,14 @@ def joist_on_pad():
 
 
 def _history(M: float, v0: float, F_pad: float, stroke: float, kc: float, m2: float,
-             k2: float, F_crush: float, depth: float) -> tuple[float, float, float]:
+             k2: float, F_crush: float, depth: float, t_end: float | None = None
+             ) -> tuple[float, float, float]:
     """Peaks of the contact force and of the framing force k2·x2 (N), and the load's
     speed when the pad is spent (m/s), by scipy ``solve_ivp`` (LSODA): M·x1'' = M·g −
     F, m2·x2'' = F − k2·x2, F = min(kc·⟨x1 − x2 − p⟩, F_y(p)); the plastic set p
     grows at the closing speed while F is at F_y: the pad's F_pad up to its stroke,
-    then the deck's crushing F_crush over ``depth``, then no limit."""
+    then the deck's crushing F_crush over ``depth``, then no limit. Integrated to
+    ``t_end`` (s; default the pad's time plus two periods of √(k2/(M + m2)))."""
     from scipy.integrate import solve_ivp
 
     def F_y(p: float) -> float:
@@ -97,7 +99,8 @@ def _history(M: float, v0: float, F_pad: float, stroke: float, kc: float, m2: fl
     t_pad = (v0 - math.sqrt(max(v0 * v0 - 2.0 * a * stroke, 0.0))) / a
     w_lo = math.sqrt(k2 / (M + m2))
     w_hi = math.sqrt(kc * (1.0 / M + 1.0 / m2) + k2 / m2)
-    t_end = t_pad + 4.0 * math.pi / w_lo
+    if t_end is None:
+        t_end = t_pad + 4.0 * math.pi / w_lo
     sol = solve_ivp(rhs, (0.0, t_end), [0.0, v0, 0.0, 0.0, 0.0], method="RK45",
                     max_step=2.0 * math.pi / w_hi / 12.0, rtol=1e-7, atol=1e-12)
     x1, v1, x2, _, p = sol.y

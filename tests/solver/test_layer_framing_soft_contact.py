@@ -25,6 +25,7 @@ import pytest
 from droprig.io.project_file import load_project
 from droprig.solver import analysis, evaluate
 from droprig.solver.chain import Compliance, Impact, LoadInputs, StruckMass
+from droprig.solver.crushhistory import crush_history
 from droprig.solver.impact import G
 from tests.solver.test_after_bottoming import _history
 
@@ -34,6 +35,41 @@ ROOT = Path(__file__).resolve().parents[2]
 @pytest.fixture(scope="module")
 def steel():
     return load_project(ROOT / "demo_projects" / "steel_erection_floor.droprig")
+
+
+def _pad1(steel, name):
+    """The chain at (22.5, 13.7) on PAD1 and the history's inputs there: (M, v0, F_c,
+    s_c, k_c, m2, k2) in SI units."""
+    z = steel.lift_zones[0]
+    load = next(ld for ld in z.loads if ld.name == name)
+    fm = analysis.build_floor(steel.level(z.level_id), steel.settings)
+    geo = analysis.point_geometry(fm, steel, np.array([22.5]), np.array([13.7]))
+    c = evaluate.evaluate_chain(fm, steel, load, geo, v_hoist=z.hoist_speed)
+    inp, comp, sm = c[LoadInputs], c[Compliance], c[StruckMass]
+    assert sm.m2 is not None
+    v0 = math.sqrt(2.0 * G * float(inp.h[0]) + z.hoist_speed**2)
+    return c, (load.mass, v0, float(inp.F_c[0]), float(inp.s_c[0]),
+               1.0 / float(comp.f_series[0]), float(sm.m2[0]), 1.0 / float(comp.f_s[0]))
+
+
+@pytest.mark.parametrize("name, ratio_chain", [("Joist bundle J-7", 0.869),
+                                               ("Engine-driven welder", 0.961)])
+def test_exact_crush_history_at_the_pad_point(steel, name, ratio_chain):
+    # the phase-by-phase closed form of the same system (crushhistory.crush_history)
+    # reproduces the scipy history on the chain's own numbers (the history run to
+    # the closed form's window, two periods of the slow mode after the last crush):
+    # 162.3 kN = 1.46·F_c for the joist bundle, 39.0 kN = 1.12·F_c for the welder,
+    # where the chain reads 0.869 × and 0.961 × that (the strict xfails below: the
+    # closed form costs ~0.7 ms a case, too much for the chain's ~40 000 cases a
+    # demo; README limits)
+    c, args = _pad1(steel, name)
+    r = crush_history(*args)
+    _, F_frame, _ = _history(*args, math.inf, 0.0, t_end=float(r.t_end[0]))
+    assert not bool(r.bottomed[0]) and not bool(r.bounded[0])
+    assert F_frame * (1 - 2e-3) <= float(r.F_frame[0]) <= 1.01 * F_frame
+    assert float(r.F_frame[0]) > 1.1 * args[2]  # well past the crush force
+    assert float(c[Impact].F[0]) / float(r.F_frame[0]) == pytest.approx(ratio_chain,
+                                                                       abs=2e-3)
 
 
 @pytest.mark.xfail(strict=True, reason="known shortfall of the default landing, README "
