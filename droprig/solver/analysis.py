@@ -70,7 +70,7 @@ from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_mod
 from droprig.solver.geometry import Geometry, point_geometry
 from droprig.solver.outcome_rows import OutcomeRows, pad_loads
 from droprig.solver.results import PERFORATES, BaySummary, Cascade, CaseResult, Results
-from droprig.solver.summary import Advice, bay_advice, summarise
+from droprig.solver.summary import Advice, bay_advice, summarise, without_limit_under_pads
 
 __all__ = [
     "Advice",
@@ -165,6 +165,8 @@ def analyse_zone(project: Project, zone_id: str,
         # forward chain before it is printed
         summaries = (confirm_zone(fm, project, zone, allres, geo, cases_and_bays)
                      if confirm else cases_and_bays(allres))
+        thick = {pa.id: pa.thickness for pa in project.protection_areas}
+        summaries = [without_limit_under_pads(s, thick) for s in summaries]
     cases = list(zone_cases)
     if below is not None and zone_cases:
         # (the falls are worked out in full in either stage: their rows are the

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
@@ -30,7 +30,8 @@ from droprig.solver.results import (
     CaseResult,
 )
 
-__all__ = ["MAX_MAT_TRAVEL", "MIN_USEFUL_HEIGHT", "Advice", "bay_advice", "summarise"]
+__all__ = ["MAX_MAT_TRAVEL", "MIN_USEFUL_HEIGHT", "Advice", "bay_advice", "summarise",
+           "without_limit_under_pads"]
 
 MIN_USEFUL_HEIGHT = 0.05
 """A drop height below this (m) is not offered as advice: it cannot be controlled on
@@ -66,6 +67,26 @@ def offered_limit(h: float, h_elastic: float | None) -> tuple[float, bool]:
     if h_elastic is None or h > 1.01 * h_elastic:
         return h, True
     return min(h, LIMIT_MARGIN * float(h_elastic)), False
+
+
+def without_limit_under_pads(s: BaySummary, thickness: dict[str, float]) -> BaySummary:
+    """The bay summary ``s`` with a drop-height limit at or below the top of a pad or
+    mat the bay's drop points lie on dropped (``thickness``: the protection areas'
+    thicknesses by id, m): the load would have to pass the bay with its underside
+    below the pad's top, so no hook limit is practical and the permit keeps the load
+    off the bay (:func:`droprig.permit.derive_conditions`, the same rule). Such a
+    limit was not confirmed by the forward chain either (the rooftop demo's drained
+    unit, bay 1-2/B-C: 0.115 m kept in the results against 0.113 m on a fine line):
+    no result carries it. ``limit_or_mat`` becomes ``mat``, ``limit_height``
+    ``keep_clear``; a deck the load may go through keeps its advice without a limit
+    (the permit then excludes the bay). Common practice, no source."""
+    top = max((thickness.get(p, 0.0) for p in s.protections), default=0.0)
+    if s.height_limit is None or s.height_limit > top or top <= 0.0:
+        return s
+    kind: AdviceKind = ("mat" if s.advice_kind == "limit_or_mat" else "keep_clear"
+                        if s.advice_kind == "limit_height" else s.advice_kind)
+    return replace(s, advice_kind=kind, height_limit=None, height_limit_yields=False,
+                   height_limit_x=None, height_limit_y=None, height_limit_check="")
 
 
 def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
