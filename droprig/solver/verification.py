@@ -242,11 +242,9 @@ def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
     assert t.history is not None
     t_sep = float(t.t_separation[0])
     th = {k: float(getattr(t, k)[0]) for k in QUANTITIES}
-    # the shear row compares end shears (the support reactions) on both sides: the
-    # energy column's is F × the largest static end reaction per unit force
-    section_shear = th["shear"]
-    if t.reaction is not None:
-        th["shear"] = float(t.reaction[0])
+    # end shears on both sides (the energy column's: F × the largest static end reaction)
+    ends = t.shear if t.reaction is None else t.reaction
+    section_shear, th["shear"] = th["shear"], float(ends[0])
     history = t.history
     if w < 1.0:
         # back from the member's coordinate: the load's contact force P/w, its travel w·Q
