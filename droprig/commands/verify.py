@@ -37,7 +37,7 @@ if TYPE_CHECKING:
 QUANTITIES: tuple[tuple[str, str, str], ...] = (
     ("force", "peak contact force", "force"),
     ("moment", "peak member moment", "moment"),
-    ("shear", "peak member shear", "force"),
+    ("shear", "peak member end shear", "force"),
     ("deflection", "peak member deflection", "small_length"),
 )
 """(key, label, unit quantity) of the compared peaks, in print and JSON order."""

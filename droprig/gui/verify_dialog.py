@@ -41,7 +41,7 @@ if TYPE_CHECKING:
 ROWS: tuple[tuple[str, str, str], ...] = (
     ("force", "Contact force", "force"),
     ("moment", "Member moment", "moment"),
-    ("shear", "Member shear", "force"),
+    ("shear", "Member end shear", "force"),
     ("deflection", "Member deflection", "small_length"),
 )
 """(key, row label, unit quantity) of the comparison table."""

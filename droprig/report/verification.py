@@ -40,7 +40,8 @@ VERIFICATION_NOTE = (
     "energy method and the calibrated time-history bounds) with the time history — 1 or "
     "more means the verdict covers it. F is the contact force between the load and the "
     "struck surface: the analysis's contact force (what the local checks take) beside the "
-    "time history's. Check aid only: "
+    "time history's; V is the member's end shear (its support reactions) on both sides. "
+    "Check aid only: "
     "review against local codes with the appointed lifting person and a licensed "
     "structural engineer.")
 

@@ -115,7 +115,7 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     if np.any(~np.isfinite(h)) or np.any(h < 0.0):
         raise ValueError("h: the drop height must be a finite number ≥ 0 m")
     v0 = np.sqrt(2.0 * g * h)
-    out = {k: np.zeros(P) for k in ("force", "moment", "shear", "deflection",
+    out = {k: np.zeros(P) for k in ("force", "moment", "shear", "deflection", "reaction",
                                     "t_separation", "dt", "crush")}
     modes = np.zeros(P, int)
     steps = 0
@@ -160,7 +160,7 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     return TimeHistoryPeaks(force=out["force"], moment=out["moment"], shear=out["shear"],
                             deflection=out["deflection"], t_separation=out["t_separation"],
                             modes=modes, dt=out["dt"], steps=steps, history=history,
-                            crush=out["crush"])
+                            crush=out["crush"], reaction=out["reaction"])
 
 
 def _window(su: dict[str, np.ndarray], M: np.ndarray, mu: np.ndarray, L: np.ndarray,
@@ -297,7 +297,7 @@ class _Integrator:
         expect = np.full((P, 3), 64.0)  # samples a phase of each kind took last (search)
         samples = np.zeros(P, int)
         chatter = np.zeros(P, bool)
-        pk = np.zeros((P, 4))  # force, deflection, moment, shear
+        pk = np.zeros((P, 5))  # force, deflection, moment, shear, end shear
         ph = _Phase(P, n1, Q)
         rec: dict[str, list[np.ndarray]] = {key: [] for key in ("t", "F", "D", "M", "V", "U")}
         S = n_sec
@@ -450,6 +450,11 @@ class _Integrator:
         pk[idx, 0] = np.maximum(pk[idx, 0], Y[:, 0])
         for j, key in enumerate(("D", "M", "V"), start=1):
             pk[idx, j] = np.maximum(pk[idx, j], np.abs(Y[:, sl[key]]).max(axis=1))
+        # the end sections x = 0 and x = L (the first and the last of the equal
+        # intervals, before the two beside the load): the support reactions
+        V = Y[:, sl["V"]]
+        ends = np.maximum(np.abs(V[:, 0]), np.abs(V[:, self.S - 3]))
+        pk[idx, 4] = np.maximum(pk[idx, 4], ends)
 
     def round(self) -> None:
         """One round over the active cases: samples of each phase, its end (an event or
@@ -664,5 +669,6 @@ class _Integrator:
                               load_displacement=np.concatenate(rec["U"]) if rec["U"]
                               else np.zeros_like(t))
         return {"force": pk[:, 0], "deflection": pk[:, 1], "moment": pk[:, 2], "shear": pk[:, 3],
-                "t_separation": t_sep, "dt": ph.dt.copy(), "crush": np.maximum(crush, 0.0),
+                "reaction": pk[:, 4], "t_separation": t_sep, "dt": ph.dt.copy(),
+                "crush": np.maximum(crush, 0.0),
                 "samples": samples, "chatter": chatter, "history": history, "events": events}

@@ -113,8 +113,10 @@ class PointHistory:
     (m), EI (N·m²), mass per length μ (kg/m), the contact compliance f_c (m/N), the
     crushing force (N, ∞ none) and stroke (m); the time history's peaks ``th`` and the
     chain's energy-method peaks ``energy`` of the same member (N, N·m, N, m; by
-    :data:`droprig.solver.verification.QUANTITIES`), and the factors ``factor``
-    (TH_MARGIN × th / energy, not yet floored at 1)."""
+    :data:`droprig.solver.verification.QUANTITIES`; ``th`` also ``end_shear``, N: the
+    largest |shear| at the member's ends, the support reactions, beside ``shear``, the
+    largest of any section), and the factors ``factor`` (TH_MARGIN × th / energy, not
+    yet floored at 1; the shear's from the section's, the larger)."""
 
     member: np.ndarray
     cond: np.ndarray
@@ -281,6 +283,11 @@ def point_history(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray,
     energy = member_energy_peaks(s, F)
     th = {q: np.asarray(getattr(t, q), float) for q in QUANTITIES}
     th["force"] = th["force"] / w
+    # the end shear (the support reactions, N) beside the largest section shear: what
+    # the verification compares with the energy method's end shear (the factors keep
+    # the section's, the larger)
+    th["end_shear"] = (np.asarray(t.reaction, float) if t.reaction is not None
+                       else th["shear"].copy())
     factor = {}
     with np.errstate(divide="ignore", invalid="ignore"):
         for q in QUANTITIES:

@@ -65,7 +65,10 @@ __all__ = [
 ]
 
 QUANTITIES: tuple[str, ...] = ("force", "moment", "shear", "deflection")
-"""Compared peaks: contact force (N), member moment (N·m), shear (N), deflection (m)."""
+"""Compared peaks: contact force (N), member moment (N·m), end shear (N: the support
+reactions, what the member's shear check and its end connections take on both sides —
+the energy method's F times the largest static end reaction per unit force, the time
+history's largest |shear| at the member's ends), deflection (m)."""
 
 ENVELOPE_SAMPLES = 400
 """Equal intervals over the member at which the verification's energy column reads the
@@ -90,7 +93,11 @@ class Verification:
     ``contact_compliance`` (m/N) the contact spring the time history used
     (``contact_assumed`` when a rigid contact was given KAPPA_MIN × f_s); ``modes``
     integrated in time, ``time_step`` (s), ``separation_time`` (s, None if the load
-    stays in contact); ``history``: the recorded histories."""
+    stays in contact); ``history``: the recorded histories (their shear: the largest
+    along the member); ``section_shear`` (N): the time history's largest |shear| of
+    any section — beside the load it carries the contact pulse into the web, which
+    the web's local checks take at the contact force (the ``shear`` row compares end
+    shears, the same quantity on both sides)."""
 
     energy: dict[str, float]
     time_history: dict[str, float]
@@ -108,6 +115,7 @@ class Verification:
     crushing_force: float = math.inf
     crush: float = 0.0
     stroke: float = math.inf
+    section_shear: float = math.nan
 
     def ratio(self, key: str) -> float | None:
         """Energy method ÷ time history of ``key`` (None where the history is 0)."""
@@ -234,6 +242,9 @@ def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
     assert t.history is not None
     t_sep = float(t.t_separation[0])
     th = {k: float(getattr(t, k)[0]) for k in QUANTITIES}
+    # end shears on both sides (the energy column's: F × the largest static end reaction)
+    ends = t.shear if t.reaction is None else t.reaction
+    section_shear, th["shear"] = th["shear"], float(ends[0])
     history = t.history
     if w < 1.0:
         # back from the member's coordinate: the load's contact force P/w, its travel w·Q
@@ -249,7 +260,7 @@ def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
         mass_ratio=r_mass * w**2, compliance_ratio=f_b / f_s,
         contact_compliance=f_th, contact_assumed=assumed, modes=int(t.modes[0]),
         time_step=float(t.dt[0]), separation_time=t_sep if math.isfinite(t_sep) else None,
-        history=history)
+        history=history, section_shear=section_shear)
 
 
 def _contact_row(energy: dict[str, float], factor: dict[str, float], F: float,
