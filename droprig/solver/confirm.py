@@ -329,7 +329,13 @@ def _run(fm: FloorModel, project: Project, zone: LiftZone, loads: tuple,
         ev = _evaluate(fm, project, zone, loads, trials, np.r_[rx, sx], np.r_[ry, sy],
                        np.r_[rown, sown])
         parts.append(st.take(fm, project, trials, ev, sx.size))
-    r = _cat(parts)
+    _settle(trials, _cat(parts))
+
+
+def _settle(trials: list[_Trial], r: dict[str, np.ndarray]) -> None:
+    """After a round's passes (rows ``r`` with their ``owner`` trial): per trial,
+    ``ok``, its peak force, or the next value to try (``value``; ``failed`` where
+    none is left) — :func:`_run`'s last step."""
     own = r["owner"]
     # per trial at once: whether it has rows, holds (_holds_all) and its peak force
     # (np.nanmax over its rows: NaN left out, NaN where all are)

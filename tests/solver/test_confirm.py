@@ -312,7 +312,7 @@ def test_neighbour_pairs_of_the_cell_hash_equal_every_pair_within_reach() -> Non
     assert got == set(zip(a.tolist(), b.tolist(), strict=True))
 
 
-def test_a_plastic_limit_holds_across_a_steep_change_between_samples() -> None:
+def test_a_plastic_limit_holds_across_a_steep_change_between_samples(monkeypatch) -> None:
     """Random project 41, bay 1-2/B-C, load 0 (an invented floor, grid 1.0 m): along
     the bay's edge y = 7.48 m the point's plastic allowable height (the chain's own
     inverse answer) falls from about 0.45 m at x = 0.53 m to 0.18 m at x = 0.60 m and
@@ -325,7 +325,15 @@ def test_a_plastic_limit_holds_across_a_steep_change_between_samples() -> None:
     of points along the whole bay's edge, keeps every point within the response it
     is offered for (plastic, with the engineer's sign-off). The limit now lies below
     the top of the 164 mm pad on the bay, so the permit offers no hook limit there
-    and excludes the bay (a limit it prints would have to hold the same way)."""
+    and excludes the bay (a limit it prints would have to hold the same way), and the
+    results drop it too (summary.without_limit_under_pads): the confirmation's own
+    limit is read with that last step left out, and the results are checked to carry
+    none."""
+    from droprig.solver import analysis as analysis_mod
+    kept = analyse(random_project(41))
+    k = next(b for b in kept.bays if (b.bay_id, b.load_name) == ("1-2/B-C", "load 0"))
+    assert k.height_limit is None and k.advice_kind == "keep_clear"
+    monkeypatch.setattr(analysis_mod, "without_limit_under_pads", lambda s, _t: s)
     from droprig.model import bays
     from droprig.permit import derive_conditions
     from droprig.solver import evaluate, floor, geometry
