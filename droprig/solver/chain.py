@@ -648,10 +648,9 @@ def compliance(c: Chain) -> Compliance:
     x = np.clip(pos, 0.0, L)
     b = L - x
     Kn = slab.K_INTERIOR / L
-    MA, MB = slab.continuous_strip_end_moments(L, x, 1.0, np.where(k_l > 0.0, Kn, 0.0),
-                                               np.where(k_r > 0.0, Kn, 0.0))
-    g1 = np.where(ok, np.maximum(x**2 * b**2 / (3.0 * L) - MA * x * b * (L + b) / (6.0 * L)
-                                 - MB * x * b * (L + x) / (6.0 * L), 0.0), 0.0)
+    kl_n, kr_n = np.where(k_l > 0.0, Kn, 0.0), np.where(k_r > 0.0, Kn, 0.0)
+    MA, MB = slab.continuous_strip_end_moments(L, x, 1.0, kl_n, kr_n)
+    g1 = np.where(ok, slab.strip_green(L, x, x, kl_n, kr_n), 0.0)
     M_ss = x * b / L
     with np.errstate(divide="ignore", invalid="ignore"):
         ratio = np.where(ok & (M_ss > 0.0),
@@ -669,7 +668,6 @@ def compliance(c: Chain) -> Compliance:
         base_w = inp.foot_w if inp.base_w is None else inp.base_w
         bridged = footprint_mod.bridges_strip(span, pos, np.maximum(base_l, base_w))
         both = footprint_mod.bridges_strip(span, pos, np.minimum(inp.foot_l, inp.foot_w))
-        kl_n, kr_n = np.where(k_l > 0.0, Kn, 0.0), np.where(k_r > 0.0, Kn, 0.0)
         g_base = np.minimum(slab.rigid_base_strip_compliance(L, x, base_l, kl_n, kr_n),
                             slab.rigid_base_strip_compliance(L, x, base_w, kl_n, kr_n))
         f_strip = np.where(ok, np.minimum(g_base, g1) / EI, 0.0)

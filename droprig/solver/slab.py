@@ -181,16 +181,12 @@ def continuous_strip_compliance(L: ArrayLike, a: ArrayLike, EI: ArrayLike,
     δ = a²b²/(3EIL) − MA·a·b(L + b)/(6EIL) − MB·a·b(L + a)/(6EIL): the simple-span
     value (AISC Manual Table 3-23 case 8) less the deflections of the end moments
     at x = a (Maxwell–Betti: deflection at a from an end moment equals the end
-    rotation from a unit load at a). EI per strip width in N·m².
+    rotation from a unit load at a): :func:`strip_green` at x = a, the springs over
+    EI. EI per strip width in N·m².
     """
-    L, a, EI = np.broadcast_arrays(*(np.asarray(v, float) for v in (L, a, EI)))
-    x = np.clip(a, 0.0, L)
-    b = L - x
-    MA, MB = continuous_strip_end_moments(L, x, EI, K_left, K_right)
-    d0 = x**2 * b**2 / (3.0 * EI * L)
-    return np.maximum(d0 - MA * x * b * (L + b) / (6.0 * EI * L)
-                      - MB * x * b * (L + x) / (6.0 * EI * L), 0.0)
-
+    EI = np.asarray(EI, float)
+    return strip_green(L, a, a, np.asarray(K_left, float) / EI,
+                       np.asarray(K_right, float) / EI) / EI
 
 
 def strip_green(L: ArrayLike, x: ArrayLike, xi: ArrayLike, K_left: ArrayLike,
@@ -203,8 +199,8 @@ def strip_green(L: ArrayLike, x: ArrayLike, xi: ArrayLike, K_left: ArrayLike,
     − MB(ξ)·x(L² − x²)/(6L), with x₁ = min(x, ξ), b = L − max(x, ξ): the simple
     span's deflection (AISC Manual Table 3-23 case 8) less that of the end moments
     of :func:`continuous_strip_end_moments` (Table 3-23 cases 11–12 for a moment at
-    one end). At x = ξ it is :func:`continuous_strip_compliance`; symmetric in x and
-    ξ (Maxwell–Betti)."""
+    one end); at x = ξ the point compliance (:func:`continuous_strip_compliance`);
+    symmetric in x and ξ (Maxwell–Betti)."""
     L, x, xi = np.broadcast_arrays(*(np.asarray(v, float) for v in (L, x, xi)))
     xc, xic = np.clip(x, 0.0, L), np.clip(xi, 0.0, L)
     lo = np.minimum(xc, xic)
