@@ -459,6 +459,9 @@ class ResultsTable(QWidget):
         self.view.setSortingEnabled(True)
         self.view.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
         self.view.setSelectionMode(QAbstractItemView.SelectionMode.SingleSelection)
+        # Tab leaves the table for the next panel (arrow keys move between rows): with
+        # Qt's default, Tab walked the cells of the first row and selected its bay
+        self.view.setTabKeyNavigation(False)
         self.view.setAlternatingRowColors(True)
         self.view.verticalHeader().setVisible(False)
         self.view.verticalHeader().setDefaultSectionSize(22)
@@ -673,8 +676,10 @@ class ResultsTable(QWidget):
             sm.clearSelection()
             return
         pidx = self.proxy.mapFromSource(self.model.index(best, 0))
-        sm.select(pidx, QItemSelectionModel.SelectionFlag.ClearAndSelect
-                  | QItemSelectionModel.SelectionFlag.Rows)
+        # the current index follows the selection: keyboard moves in the table then
+        # start from the selected bay's row, not from the table's first row
+        sm.setCurrentIndex(pidx, QItemSelectionModel.SelectionFlag.ClearAndSelect
+                           | QItemSelectionModel.SelectionFlag.Rows)
         self.view.scrollTo(pidx)
 
     def _show_detail(self, b: BaySummary | None) -> None:
@@ -720,6 +725,6 @@ class ResultsTable(QWidget):
     def select_row(self, row: int) -> None:
         """Select the view row ``row`` (as a click would)."""
         pidx = self.proxy.index(row, 0)
-        self.view.selectionModel().select(
+        self.view.selectionModel().setCurrentIndex(
             pidx, QItemSelectionModel.SelectionFlag.ClearAndSelect
             | QItemSelectionModel.SelectionFlag.Rows)

@@ -365,3 +365,44 @@ def test_inspector_boxes_stay_inside_a_narrow_panel(qtbot, window) -> None:
                if w.isVisible() and w.geometry().right() > width]
         assert not out, out
     assert tried > 10
+
+
+def test_tab_through_the_results_table_keeps_the_selected_bay(qtbot, window) -> None:
+    """Seen under Xvfb (two-level demo, keyboard): a bay clicked in the plan, then Tab
+    through the window; on reaching the results table Tab walked the cells of the
+    table's FIRST row, selected that row's bay and re-pointed the inspector and the
+    trace to a bay the user never chose. Tab now leaves the table (arrow keys move
+    between its rows), and its current row follows the selected bay."""
+    from PySide6.QtCore import Qt
+    from PySide6.QtTest import QTest
+
+    from droprig.gui.document import Selection
+
+    _open_demo(qtbot, window)
+    table = window.results_table
+    view = table.view
+    # a bay that is not the table's first row, selected as a plan click selects it
+    first = table.model.row(table.proxy.mapToSource(table.proxy.index(0, 0)).row())
+    other = next(table.model.row(r) for r in range(table.model.rowCount())
+                 if table.model.row(r).bay_id != first.bay_id)
+    chosen = Selection("bay", (other.level_id, other.bay_id))
+    window.doc.select(chosen)
+    qtbot.wait(20)
+    assert view.currentIndex().isValid()
+    current = table.model.row(table.proxy.mapToSource(view.currentIndex()).row())
+    assert current.bay_id == other.bay_id  # the current row follows the selection
+    view.setFocus(Qt.FocusReason.TabFocusReason)
+    qtbot.waitUntil(view.hasFocus, timeout=2_000)
+    for _ in range(3):
+        QTest.keyClick(view, Qt.Key.Key_Tab)
+        qtbot.wait(20)
+    assert window.doc.selection == chosen
+    assert not view.hasFocus()  # Tab moved on to the next panel
+    # arrow keys still walk the rows, starting from the selected bay's row
+    view.setFocus(Qt.FocusReason.MouseFocusReason)
+    row = view.currentIndex().row()
+    QTest.keyClick(view, Qt.Key.Key_Down if row + 1 < table.proxy.rowCount() else Qt.Key.Key_Up)
+    qtbot.wait(20)
+    moved = table.selected_row()
+    assert moved is not None and view.currentIndex().row() != row
+    assert window.doc.selection == Selection("bay", (moved.level_id, moved.bay_id))
