@@ -57,6 +57,14 @@ def two_bay_floor():
 def _pynite_compliance(level, loads):
     """Build the grillage and return Σ P·δ for unit point loads ``loads`` =
     [(member index, position along member, magnitude)]."""
+    m, loaded_nodes, _ = _pynite_grillage(level, loads)
+    return sum(-P * m.nodes[nm].DY["Combo 1"] for nm, P in loaded_nodes)
+
+
+def _pynite_grillage(level, loads):
+    """The analysed grillage under ``loads`` (see :func:`_pynite_compliance`), its
+    loaded nodes [(name, P)] and, per droprig member, its FE elements
+    [(name, start along the member, length)]."""
     from Pynite import FEModel3D
 
     m = FEModel3D()
@@ -87,6 +95,7 @@ def _pynite_compliance(level, loads):
         splits[k].add(s)
     columns = {(round(x, 6), round(y, 6)) for x, y in level.grid.columns}
     loaded_nodes = []
+    elements: dict[int, list[tuple[str, float, float]]] = {}
     for k, mb in enumerate(level.members):
         sec = f"S{k}"
         m.add_section(sec, mb.section.A, mb.section.Iy, mb.section.Ix, 1e-6)
@@ -98,6 +107,7 @@ def _pynite_compliance(level, loads):
             nj = node(x0 + (x1 - x0) * b, y0 + (y1 - y0) * b)
             nm = f"M{k}_{i}"
             m.add_member(nm, ni, nj, "steel", sec)
+            elements.setdefault(k, []).append((nm, ss[i], ss[i + 1] - ss[i]))
             first, last = i == 0, i == len(ss) - 2
             # simple ends: release the bending rotation at both member ends;
             # one torsion release per member (no torque passes between members)
@@ -112,7 +122,7 @@ def _pynite_compliance(level, loads):
     for nm, P in loaded_nodes:
         m.add_node_load(nm, "FY", -P)
     m.analyze_linear(check_statics=False)
-    return sum(-P * m.nodes[nm].DY["Combo 1"] for nm, P in loaded_nodes)
+    return m, loaded_nodes, elements
 
 
 DROP_POINTS = [
@@ -150,3 +160,60 @@ def test_girder_cross_terms_matter(two_bay_floor):
     f_fe = _pynite_compliance(two_bay_floor, loads)  # PyNiteFEA grillage
     assert res.f[0] == pytest.approx(f_fe, rel=REL_TOL)
     assert abs(diag_only - f_fe) / f_fe > 0.05
+
+
+@pytest.fixture(scope="module")
+def two_by_two_floor():
+    """Two 8 m bays each way, girders along x on y = 0, 6, 13 m: the middle girder
+    carries beams from both sides, so a load on one side moves the other side's
+    beams as rigid bodies (they carry none of it)."""
+    return generate_level(level_id="L", name="grillage", elevation=0.0,
+                          x_spacings=(8.0, 8.0), y_spacings=(6.0, 7.0), girder_direction="x",
+                          beam_spacing=2.7, girder_section=GIRDER, beam_section=BEAM,
+                          girder_grade=GRADE, beam_grade=GRADE)
+
+
+MASS_TOL = 1e-4
+"""Gauss–Legendre quadrature (20 points an element) of the FE deflected shapes, which
+are exact cubics between nodes for nodal loads: agreement to rounding and quadrature."""
+
+
+@pytest.mark.parametrize("p", [(2.0, 6.0), (4.0, 6.0), (6.5, 6.0), (2.0, 3.0), (12.0, 9.5),
+                               (9.0, 6.0)])
+def test_rayleigh_mass_of_the_path_matches_pynite(two_by_two_floor, p):
+    """Rayleigh's struck mass by its definition, Σ over the members carrying the load
+    of ∫ μ w² dx with the static deflected shape w of a unit load at p (Timoshenko,
+    *Strength of Materials* Part I), the shape taken from the PyNiteFEA grillage's
+    element deflections (independent of droprig's Green's functions and node
+    matrices). The members that only ride along on a deflecting support (the other
+    side's beams on the middle girder, y = 6) are left out by design: counted as
+    rigid bodies they would double the mass at a girder point and read the framing
+    force below a grillage time history
+    (tests/solver/test_struck_mass_grillage.py); here they are shown to move."""
+    level = two_by_two_floor
+    frame = loadpath.build_frame(level)
+    res = loadpath.evaluate(frame, [p[0]], [p[1]])
+    loads = [(int(res.members[0, k]), float(res.a[0, k]), float(res.share[0, k]))
+             for k in range(2) if res.share[0, k] > 0]
+    m, _, elements = _pynite_grillage(level, loads)
+    xg, wg = np.polynomial.legendre.leggauss(20)
+    kin, riders = 0.0, 0.0
+    on_path = set(loadpath.path_members(frame, int(res.pair[0]))) | {k for k, _, _ in loads}
+    for k, mb in enumerate(level.members):
+        part = 0.0
+        for nm, _s0, length in elements[k]:
+            if length < 1e-6:  # a split repeated within rounding: no element there
+                continue
+            xs = 0.5 * length * (xg + 1.0)
+            w = np.array([m.members[nm].deflection("dy", float(x), "Combo 1") for x in xs])
+            part += mb.section.mass_per_length * 0.5 * length * float(np.sum(wg * w * w))
+        if k in on_path:
+            kin += part
+        else:
+            riders += part
+    # droprig: m_e = Σ∫μw² / w_ref² (its normalising deflection w_ref); abs=0: the
+    # integrals are ~1e-12 m²·kg/N², pytest.approx's default absolute 1e-12 would
+    # pass anything
+    assert res.m_e[0] * res.w_ref[0] ** 2 == pytest.approx(kin, rel=MASS_TOL, abs=0.0)
+    if abs(p[1] - 6.0) < 1e-9:
+        assert riders > 0.2 * kin  # the riding beams move, and are left out

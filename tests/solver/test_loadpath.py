@@ -122,7 +122,7 @@ built from tabulated maxima (interpolated) — allowed to fall short by 0.1 %.""
 
 def _check_mass(res, i, w_p, kin, w_max):
     # m_e = ∫μw² / w_ref², w_ref = max(w(p), bound of the path's largest deflection)
-    assert res.m_e[i] * res.w_ref[i] ** 2 == pytest.approx(kin, rel=QUAD_REL)
+    assert res.m_e[i] * res.w_ref[i] ** 2 == pytest.approx(kin, rel=QUAD_REL, abs=0.0)
     assert res.w_ref[i] >= w_p * (1 - REL)
     assert res.w_ref[i] >= w_max * (1 - BOUND_REL)
     assert res.w_ref[i] <= 2.0 * w_max
