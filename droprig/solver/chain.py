@@ -1290,9 +1290,13 @@ def demands(c: Chain) -> Demands:
         m_y = np.where(soft, _uniform_cross_strip(c, Ly, yb, ey, g_main), m_y)
     # a rigid base over both beams of its strip (in both plan orientations) rests on
     # the beams: the strip between them carries none of the impact
-    # (footprint.bridges_strip)
-    m_x = np.where(comp.bridged_both, 0.0, m_x)
-    m_y = np.where(comp.bridged_both, 0.0, m_y)
+    # (footprint.bridges_strip). A footprint that presses uniformly (a declared
+    # underside, a mat or layer under it) still loads the slab between the beams with
+    # the pressure there: its strip keeps the patch moment (the whole force on the
+    # strip, conservative; statics of a uniform pressure, common practice, no source)
+    rigid_both = comp.bridged_both & ~soft
+    m_x = np.where(rigid_both, 0.0, m_x)
+    m_y = np.where(rigid_both, 0.0, m_y)
     M0_deck = deck.deck_existing_moment_per_width(span, fm.q0)
     out["deck_flexure"] = small_check(
         "deck_flexure", F, np.stack([m_x, m_y]),

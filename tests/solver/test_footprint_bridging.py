@@ -76,11 +76,12 @@ def test_three_by_two_base_over_beams_2_5_m_apart(roof):
 
 
 def test_base_bridging_both_ways_loads_no_deck_strip(roof):
-    """A 3 × 2.6 m base at the strip's middle (x = 11.25): 1.25 − 1.3 ≤ 0 and
-    1.25 + 1.3 ≥ 2.5 in both orientations — it rests on both beams whichever way it
-    lands: no deck flexure demand and no slab mechanism (the slab between the beams
-    is not loaded), the lever rule ½ / ½ to the beams."""
-    c = _chain(roof, _base(roof, 3.0, 2.6), [11.25], [13.5])
+    """A rigid 3 × 2.6 m base (no declared underside) at the strip's middle
+    (x = 11.25): 1.25 − 1.3 ≤ 0 and 1.25 + 1.3 ≥ 2.5 in both orientations — it rests
+    on both beams whichever way it lands: no deck flexure demand and no slab
+    mechanism (the slab between the beams is not loaded), the lever rule ½ / ½ to
+    the beams."""
+    c = _chain(roof, replace(_base(roof, 3.0, 2.6), contact_stiffness=None), [11.25], [13.5])
     comp = c[Compliance]
     assert bool(comp.bridged_both[0])
     chk = c[Demands].checks["deck_flexure"]
@@ -93,6 +94,28 @@ def test_base_bridging_both_ways_loads_no_deck_strip(roof):
     # the members still take the whole force: flexure is checked as before
     assert c[Demands].checks["flexure"].U[0] > 0.0
     assert "deck_flexure" in CHECKS
+
+
+def test_soft_base_bridging_both_ways_still_loads_the_strip(roof):
+    """The same 3 × 2.6 m base on its declared 25 kN/mm skid presses the deck
+    uniformly (chain.presses_uniformly): the pressure between the beams loads the
+    strip whichever way the base lands (found at stop 28, the strip's moment was
+    zeroed as for a rigid base). Statics, a lower bound whatever the strip's end
+    restraint: the part of the force over the 2.5 m strip, F·2.5/3.0 in the 3 m
+    orientation, spread over the 2.6 m width, sags the strip at least w·L²/24 (both
+    ends fixed; AISC Manual Table 3-23 case 15, from memory); the check takes the
+    whole force on the strip's patch (conservative)."""
+    load = _base(roof, 3.0, 2.6)
+    assert load.contact_stiffness
+    c = _chain(roof, load, [11.25], [13.5])
+    assert bool(c[Compliance].bridged_both[0])
+    chk = c[Demands].checks["deck_flexure"]
+    F = 1.0e5  # N, any force: the demand is linear in it
+    L, fl, fw = 2.5, 3.0, 2.6
+    m_lower = F * L / fl / fw * L**2 / 24.0  # N·m per m of width
+    added = float(chk.U_at(np.array([F]))[0] - chk.U_at(np.zeros(1))[0])
+    assert added * c.drop.fm.deck_Mr >= m_lower
+    assert np.isfinite(chk.F_allow[0])
 
 
 def test_tilted_landing_never_bridges(roof):
