@@ -29,21 +29,13 @@ import numpy as np
 import pytest
 from scipy.linalg import eigh, expm
 
-from droprig.model import Grade, Section, generate_level
+from droprig.model import generate_level
 from droprig.solver import loadpath, struck_mass
+from tests.solver.test_loadpath import GRADE, _section
 
-E = 200e9
+E = GRADE.E
 SLAB = 350.0  # kg/m², slab and superimposed dead load (invented, a typical composite floor)
 G = 9.81
-
-
-def _section(name: str, Ix: float, d: float, mass: float) -> Section:
-    return Section(name, "custom", d=d, bf=0.18, tw=0.008, tf=0.012, r=0.01, A=8e-3,
-                   Ix=Ix, Sx=Ix / (d / 2), Zx=1.12 * Ix / (d / 2), Iy=1e-5,
-                   mass_per_length=mass)
-
-
-GRADE = Grade("S355", "EN", ((0.016, 355e6), (0.04, 345e6)), 470e6, E=E)
 
 
 @pytest.fixture(scope="module")
@@ -51,8 +43,8 @@ def floor():
     """Two 8 m bays each way; girders along x on y = 0, 6, 13 m; beams at 2.67 m."""
     return generate_level(level_id="L", name="grillage", elevation=0.0, x_spacings=(8.0, 8.0),
                           y_spacings=(6.0, 7.0), girder_direction="x", beam_spacing=2.7,
-                          girder_section=_section("G", 3.5e-4, 0.45, 80.0),
-                          beam_section=_section("B", 1.2e-4, 0.35, 45.0),
+                          girder_section=_section("G", 3.5e-4, 80.0, 0.45),
+                          beam_section=_section("B", 1.2e-4, 45.0, 0.35),
                           girder_grade=GRADE, beam_grade=GRADE)
 
 
