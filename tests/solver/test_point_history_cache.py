@@ -106,12 +106,37 @@ def test_cached_histories_equal_a_fresh_run(setup, first,
                                                             rel=1e-3)
 
 
-def test_refined_verdict_never_below_the_newmark_history(first) -> None:
-    # every point run through its own history: the demand the verdict checks (the
-    # factor × the energy method's peak) is at least the independent Newmark
-    # integration of the same member and load (timehistory.time_history_batched,
-    # refined: 16 sections → the reference's 64, 160 steps a period)
-    c = first
+@pytest.fixture(scope="module")
+def random_floor():
+    """A random floor of tests/permit_projects.py (seed 2, no pads; invented) with
+    amplification on: its zone's loads at 30 random points of the level, on a floor of
+    its own, the floors' point histories on."""
+    from tests.permit_projects import random_project
+
+    p = random_project(2, pads=False)
+    p = replace(p, settings=replace(p.settings, dynamic_amplification=True))
+    zone = p.lift_zones[0]
+    level = p.level(zone.level_id)
+    fm = build_floor(level, p.settings)
+    rng = np.random.default_rng(12)
+    e = level.grid.extent
+    x, y = rng.uniform(e.x0, e.x1, 30), rng.uniform(e.y0, e.y1, 30)
+    li = rng.integers(0, len(zone.loads), 30)
+    with pytest.MonkeyPatch.context() as mp, np.errstate(all="ignore"):
+        mp.setattr(chain, "FLOOR_POINT_HISTORY", True)
+        return run_chain(Drop(fm, p, point_geometry(fm, p, x, y), tuple(zone.loads), li,
+                              True, v_hoist=zone.hoist_speed))
+
+
+@pytest.mark.parametrize("which", ["first", "random_floor"])
+def test_refined_verdict_never_below_the_newmark_history(which: str,
+                                                         request: pytest.FixtureRequest
+                                                         ) -> None:
+    # every point run through its own history (the rooftop demo's light items; a
+    # random floor's loads): the demand the verdict checks (the factor × the energy
+    # method's peak) is at least the independent Newmark integration of the same
+    # member and load (timehistory.time_history_batched, 160 steps a period)
+    c = request.getfixturevalue(which)
     da = c[DynamicAmplification]
     ph = da.history
     assert ph is not None
