@@ -40,6 +40,9 @@ class Stats:
         self.modes: list[int] = []
         self.steps: list[int] = []
         self.per_call: list[tuple[int, float]] = []
+        self.samples = np.zeros(3)  # by phase: contact, crushing, free
+        self.rounds = 0
+        self.fallback = 0
 
 
 S = Stats()
@@ -76,6 +79,21 @@ def install() -> None:
         finally:
             S.t_exact += time.perf_counter() - t
 
+    fold = exacthistory._Integrator._fold_samples
+
+    def counted_fold(self, idx, ts, cs, sn, nvalid, G):
+        np.add.at(S.samples, self.kind[idx], nvalid)
+        S.rounds += 1
+        return fold(self, idx, ts, cs, sn, nvalid, G)
+
+    ref = exacthistory.timehistory.time_history_batched
+
+    def counted_ref(cond, *a, **k):
+        S.fallback += len(cond)
+        return ref(cond, *a, **k)
+
+    exacthistory._Integrator._fold_samples = counted_fold  # type: ignore[method-assign]
+    exacthistory.timehistory.time_history_batched = counted_ref  # type: ignore
     pointhistory.point_history = counted  # type: ignore[assignment]
     chain.pointhistory.point_history = counted  # type: ignore[attr-defined]
     exacthistory.exact_time_history = timed_exact  # type: ignore[assignment]
@@ -130,6 +148,7 @@ def _histories(p_on, off: float, trials: bool) -> None:
         hist = time.perf_counter() - t
         calls, points, pts, pt_h = S.calls, S.points, len(S.pts), len(S.pt_h)
         integrated, t_in, t_ex = len(S.modes), S.t, S.t_exact
+        samples, rounds, fallback = S.samples.copy(), S.rounds, S.fallback
         t = time.perf_counter()
         analysis.analyse(p_on)  # again on the same floor: its histories kept
         again = time.perf_counter() - t
@@ -149,6 +168,11 @@ def _histories(p_on, off: float, trials: bool) -> None:
             print(f"  modes kept: median {np.median(m):.0f}, max {m.max()}; samples of "
                   f"the longest case per call: median {np.median(S.steps):.0f}, max "
                   f"{max(S.steps)}")
+            share = samples / max(samples.sum(), 1.0)
+            print(f"  samples {samples.sum():.3g} in {rounds} rounds: contact "
+                  f"{share[0]:.0%}, crushing {share[1]:.0%}, free (load apart) "
+                  f"{share[2]:.0%}; chattering cases handed to the Newmark reference "
+                  f"{fallback}")
             pc = np.asarray(S.per_call)
             print(f"  points per call: median {np.median(pc[:, 0]):.0f}, max "
                   f"{pc[:, 0].max():.0f}; ms per call median {np.median(pc[:, 1]) * 1e3:.1f}")
