@@ -1405,9 +1405,12 @@ FLOOR_POINT_HISTORY = False
 their own time history (:func:`_point_histories`). Off: even with the phase-exact
 integrator (:mod:`droprig.solver.exacthistory`) a point costs 1–40 ms (many kept
 modes over a long window, and a light load chattering on a stiff member — each
-contact change is a round of its own), and the steel demo took 19.9 s instead of
-0.42 s (1,193 point runs over its 36 chain runs of refinement and confirmation,
-measured under load); floors keep the bounds (upper bounds of the time history)."""
+contact change is a round of its own); with it on the demos' analyses took 11–42 s
+against 0.3–0.7 s even with the histories cached (:func:`droprig.solver.pointhistory.
+point_history`) and the confirmation trials at the bounds (:data:`TRIAL_POINT_HISTORY`),
+and lowered the worst U by 1–20 % and no limit (``benchmarks/bench_point_history.py``,
+docs/amplification_record.md); floors keep the bounds (upper bounds of the time
+history)."""
 TRIAL_POINT_HISTORY = False
 """Whether a floor's confirmation trials (``Drop.trial``: :mod:`droprig.solver.
 confirm`, a condition tried at every point of a bay) run points' own time history too.
