@@ -5,7 +5,9 @@ of the physics moves; invented demos, no expected values.
 
 Run (from the tree to record):
 ``PYTHONPATH=. .venv/bin/python scripts/bay_changes.py record before.json``, then
-``... compare before.json after.json``.
+``... compare before.json after.json``. ``record OUT --amplified`` records with the
+project setting ``dynamic_amplification`` on, ``--floor-histories`` also with the
+floors' point histories (``chain.FLOOR_POINT_HISTORY``, issue 12).
 """
 
 from __future__ import annotations
@@ -19,13 +21,19 @@ FIELDS = ("response", "max_utilisation", "allowable_drop_height",
           "allowable_drop_height_plastic", "height_limit", "allowable_mass", "advice_kind")
 
 
-def record(out: Path) -> None:
+def record(out: Path, amplified: bool = False, floor_histories: bool = False) -> None:
+    from dataclasses import replace
+
     from droprig.io.project_file import load_project
-    from droprig.solver import analysis
+    from droprig.solver import analysis, chain
 
     rows = {}
+    chain.FLOOR_POINT_HISTORY = floor_histories
     for path in sorted((ROOT / "demo_projects").glob("*.droprig")):
-        for b in analysis.analyse(load_project(path)).bays:
+        p = load_project(path)
+        if amplified:
+            p = replace(p, settings=replace(p.settings, dynamic_amplification=True))
+        for b in analysis.analyse(p).bays:
             rows[f"{path.stem}|{b.zone_id}|{b.bay_id}|{b.load_name}"] = {
                 k: getattr(b, k) for k in FIELDS}
     out.write_text(json.dumps(rows, indent=0))
@@ -57,6 +65,7 @@ def compare(a_path: Path, b_path: Path) -> None:
 
 if __name__ == "__main__":
     if sys.argv[1:2] == ["record"]:
-        record(Path(sys.argv[2]))
+        record(Path(sys.argv[2]), amplified="--amplified" in sys.argv[3:],
+               floor_histories="--floor-histories" in sys.argv[3:])
     else:
         compare(Path(sys.argv[2]), Path(sys.argv[3]))

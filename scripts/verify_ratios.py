@@ -6,7 +6,9 @@ demand (the chain's force on the member's unit-load envelopes, times its factors
 where amplification is on) to the point's time history (Timoshenko member,
 :mod:`droprig.solver.exacthistory`). A ratio below 1 is a verdict below the
 reference. Prints a Markdown table.
-Run: ``PYTHONPATH=. .venv/bin/python scripts/verify_ratios.py [--steel-mass]``.
+Run: ``PYTHONPATH=. .venv/bin/python scripts/verify_ratios.py [--steel-mass]
+[--floor-histories]``; ``--floor-histories``: amplification on also with the floors'
+point histories (``chain.FLOOR_POINT_HISTORY``, issue 12), a third row per demo.
 """
 
 from __future__ import annotations
@@ -37,16 +39,26 @@ def ratios(name: str, amplified: bool, slab_mass: bool) -> dict[str, list[float]
 
 
 def main(argv: list[str]) -> None:
+    from droprig.solver import chain
+
     slab = "--steel-mass" not in argv
+    modes = [(False, False), (True, False)]
+    if "--floor-histories" in argv:
+        modes.append((True, True))
     print(f"mass: {'steel + slab + SDL (tributary)' if slab else 'steel alone'}\n")
     print("| demo | amplification | points | force | moment | shear | deflection |")
     print("|---|---|---|---|---|---|---|")
     for name in DEMOS:
-        for amp in (False, True):
-            r = ratios(name, amp, slab)
+        for amp, hist in modes:
+            chain.FLOOR_POINT_HISTORY = hist
+            try:
+                r = ratios(name, amp, slab)
+            finally:
+                chain.FLOOR_POINT_HISTORY = False
             cells = [f"{min(v):.2f}–{max(v):.2f}" if v else "–" for v in r.values()]
-            print(f"| {name} | {'on' if amp else 'off'} | {len(r['force'])} | "
-                  + " | ".join(cells) + " |")
+            label = "on + floor histories" if hist else "on" if amp else "off"
+            print(f"| {name} | {label} | {len(r['force'])} | " + " | ".join(cells) + " |",
+                  flush=True)
 
 
 if __name__ == "__main__":

@@ -1409,9 +1409,23 @@ FLOOR_POINT_HISTORY = False
 their own time history (:func:`_point_histories`). Off: even with the phase-exact
 integrator (:mod:`droprig.solver.exacthistory`) a point costs 1–40 ms (many kept
 modes over a long window, and a light load chattering on a stiff member — each
-contact change is a round of its own), and the steel demo took 19.9 s instead of
-0.42 s (1,193 point runs over its 36 chain runs of refinement and confirmation,
-measured under load); floors keep the bounds (upper bounds of the time history)."""
+contact change is a round of its own); with it on the demos' analyses took 11–42 s
+against 0.3–0.7 s even with the histories cached (:func:`droprig.solver.pointhistory.
+point_history`) and the confirmation trials at the bounds (:data:`TRIAL_POINT_HISTORY`),
+and lowered the worst U by 1–20 % and no limit (``benchmarks/bench_point_history.py``,
+docs/amplification_record.md); floors keep the bounds (upper bounds of the time
+history)."""
+TRIAL_POINT_HISTORY = False
+"""Whether a floor's confirmation trials (``Drop.trial``: :mod:`droprig.solver.
+confirm`, a condition tried at every point of a bay) run points' own time history too.
+Off: a trial is judged at the bounds (upper bounds of the time history, above the
+factor a point's own history would give), so a condition that holds in its trial
+holds in any forward run whichever points that run chooses, as the inverse answers
+the trials start from are worked out at the bounds too
+(:func:`amplified_utilisation_at`); a trial the history alone would have passed steps
+back (the offered limit can only be lower, never above the bounds'). The trials were
+most of the cost: the rooftop demo ran 1,525 of its 2,058 point histories (48 of
+its 59 s) in them (``benchmarks/bench_point_history.py``)."""
 TH_NEAR_WORST = 0.9
 """Points whose bounded U is within 10 % of their group's worst (bay × load) could set
 the group's limit."""
@@ -1769,7 +1783,8 @@ def _point_histories(c: Chain, h: np.ndarray, F: np.ndarray, factor: dict[str, n
     d = c.drop
     n = d.n
     th = np.zeros(n, dtype=bool)
-    if d.bare is None and not FLOOR_POINT_HISTORY:
+    floor_off = not FLOOR_POINT_HISTORY or (d.trial and not TRIAL_POINT_HISTORY)
+    if d.bare is None and floor_off:
         return th, None
     ok = ((d.geo.path.pair >= 0) & ~d.geo.opening & np.isfinite(F) & (F > 0.0)
           & np.isfinite(h) & (h > 0.0))

@@ -62,6 +62,7 @@ SI units throughout.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any, cast
 
@@ -275,19 +276,14 @@ def point_history(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray,
     # the load as the member sees it through its lever-rule share (shared_load)
     r = shared_load(w, inp.M[sel], h, s["f_all"], s["g_m"], s["F_yield"], s["stroke"])
     f_th = np.maximum(r["f_c"], amplification.KAPPA_MIN * s["g_m"])
-    t = exacthistory.exact_time_history(s["cond"], s["L"], s["EI"], s["mu"], s["a"],
-                                        r["M"], r["h"], f_th, F_yield=r["F_yield"],
-                                        stroke=r["stroke"], weight=r["weight"],
-                                        kGA=s["kGA"], rhoI=s["rhoI"],
-                                        **{**TH_OPTIONS, **th_options})
+    peaks = _member_peaks(c.drop.fm._memo, s, r, f_th, {**TH_OPTIONS, **th_options})
     energy = member_energy_peaks(s, F)
-    th = {q: np.asarray(getattr(t, q), float) for q in QUANTITIES}
+    th = {q: peaks[q].copy() for q in QUANTITIES}
     th["force"] = th["force"] / w
     # the end shear (the support reactions, N) beside the largest section shear: what
     # the verification compares with the energy method's end shear (the factors keep
     # the section's, the larger)
-    th["end_shear"] = (np.asarray(t.reaction, float) if t.reaction is not None
-                       else th["shear"].copy())
+    th["end_shear"] = peaks["end_shear"].copy()
     factor = {}
     with np.errstate(divide="ignore", invalid="ignore"):
         for q in QUANTITIES:
@@ -297,6 +293,76 @@ def point_history(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray,
     return PointHistory(member=s["member"], cond=s["cond"], L=s["L"], a=s["a"], EI=s["EI"],
                         mu=s["mu"], f_c=f_th, F_yield=s["F_yield"], stroke=s["stroke"],
                         th=th, energy=energy, factor=factor)
+
+
+HISTORY_CACHE_SIZE = 200_000
+"""Most member histories kept per prepared floor (:func:`_member_peaks`): five floats
+and a key of fourteen each, a few tens of MB at most; past it the cache is emptied."""
+_PEAK_KEYS = ("force", "moment", "shear", "deflection", "end_shear")
+
+
+def _member_peaks(memo: dict, s: dict[str, np.ndarray], r: dict[str, np.ndarray],
+                  f_th: np.ndarray, options: dict[str, Any]) -> dict[str, np.ndarray]:
+    """The struck member's own peaks (:func:`droprig.solver.exacthistory.
+    exact_time_history` on ``s`` and the shared load ``r``, contact compliance f_th):
+    contact force (N, the member's w·F), moment (N·m), shear (N, the largest section's),
+    deflection (m) and end shear (N, the support reactions; the section's where the
+    run gives none), per point.
+
+    A member history is set by its inputs alone — end condition, L, EI, μ, a, the
+    Timoshenko terms, the shared load's mass, fall, weight, contact compliance,
+    crushing force and stroke, and the run's settings — and the refinement and the
+    confirmation run the same point at the same fall in several chain runs (issue 12:
+    the steel demo ran 6,913 points, 3,908 of them distinct). Each history is kept in
+    ``memo`` (the prepared floor's, so it lives as long as the floor does and a
+    change to the floor starts afresh) under its exact inputs (floats compared
+    exactly: a changed input is a new history), and only the points not yet run are
+    run, together. The peaks are those of the same model and settings: the
+    refinement's meaning is unchanged (tests/solver/test_point_history_cache.py)."""
+    cache: dict[tuple, tuple[float, ...]] = memo.setdefault("point_histories", {})
+    opts = tuple(sorted((k, repr(v)) for k, v in options.items()))
+    cols = [s["L"], s["EI"], s["mu"], s["a"], s["kGA"], s["rhoI"], r["M"], r["h"],
+            r["weight"], f_th, r["F_yield"], r["stroke"]]
+    vals = np.stack([np.asarray(v, float) for v in cols], axis=1).tolist()
+    keys = [(str(cn), *row, opts) for cn, row in zip(s["cond"].tolist(), vals, strict=True)]
+    n = len(keys)
+    out = {q: np.zeros(n) for q in _PEAK_KEYS}
+    todo: list[int] = []
+    first: dict[tuple, int] = {}
+    repeats: list[tuple[int, int]] = []
+    for i, key in enumerate(keys):
+        got = cache.get(key)
+        if got is None:
+            if key in first:  # a point repeated within the run: run it once
+                repeats.append((i, first[key]))
+            else:
+                first[key] = i
+                todo.append(i)
+            continue
+        for q, v in zip(_PEAK_KEYS, got, strict=True):
+            out[q][i] = v
+    if todo:
+        j = np.asarray(todo)
+        t = exacthistory.exact_time_history(s["cond"][j], s["L"][j], s["EI"][j],
+                                            s["mu"][j], s["a"][j], r["M"][j], r["h"][j],
+                                            f_th[j], F_yield=r["F_yield"][j],
+                                            stroke=r["stroke"][j], weight=r["weight"][j],
+                                            kGA=s["kGA"][j], rhoI=s["rhoI"][j], **options)
+        got_q = {q: np.asarray(getattr(t, q), float) for q in QUANTITIES}
+        got_q["end_shear"] = (np.asarray(t.reaction, float) if t.reaction is not None
+                              else got_q["shear"].copy())
+        if len(cache) + j.size > HISTORY_CACHE_SIZE:
+            cache.clear()
+        for m, i in enumerate(todo):
+            row = tuple(float(got_q[q][m]) for q in _PEAK_KEYS)
+            for q, v in zip(_PEAK_KEYS, row, strict=True):
+                out[q][i] = v
+            if all(math.isfinite(x) or x == math.inf for x in keys[i][1:-1]):
+                cache[keys[i]] = row
+        for i, i0 in repeats:
+            for q in _PEAK_KEYS:
+                out[q][i] = out[q][i0]
+    return out
 
 
 def _member_units(c: Chain, sel: np.ndarray, s: dict[str, np.ndarray]
