@@ -209,7 +209,12 @@ class Drop:
     costliest of :func:`inverse_answers` — are not worked out: NaN (``hp_check`` −1),
     never a number that could pass for a limit. Every forward step, the elastic
     allowable height (the refinement places its points by it), the required mat and
-    the check that sets the height are as in a full run."""
+    the check that sets the height are as in a full run.
+
+    ``tip_off``: the second case of a footprint partly on a crushable pad — the load
+    tips over the pad's edge and strikes the bare deck beside it with at most the
+    energy of a fall H − Δ (:func:`tip_offsets`); the points must be ones where
+    H > Δ (:func:`droprig.solver.evaluate` runs it there and keeps the worse case)."""
 
     fm: FloorModel
     project: Project
@@ -224,6 +229,7 @@ class Drop:
     landing: str = "flat"
     trial: bool = False
     outcomes_only: bool = False
+    tip_off: bool = False
 
     @property
     def n(self) -> int:
@@ -279,7 +285,11 @@ class LoadInputs:
     0 elsewhere). ``base_l`` × ``base_w`` (m): the contact spread through the layer
     as ``foot_l`` × ``foot_w`` but not cut at the deck's edges — the extent of the
     load's base over the framing, which rests on an edge member it overhangs
-    (:func:`compliance`; ``None`` where the drop has no deck)."""
+    (:func:`compliance`; ``None`` where the drop has no deck).
+    ``pad``: the protection area the load lands on (index into the
+    project's, −1 none; a crushable pad under any part of the footprint,
+    :func:`landing_pads`); ``fall_offset``: in the tip-off run (``Drop.tip_off``) the
+    Δ of :func:`tip_offsets` (then h = H − Δ onto the bare deck), else ``None``."""
 
     W: np.ndarray
     M: np.ndarray
@@ -300,6 +310,14 @@ class LoadInputs:
     f_layer: np.ndarray
     base_l: np.ndarray | None = None
     base_w: np.ndarray | None = None
+    pad: np.ndarray | None = None
+    fall_offset: np.ndarray | None = None
+
+    @property
+    def datum_offset(self) -> np.ndarray:
+        """H − h before any clamping, m: the pad's or mat's thickness (the allowable
+        falls plus this are heights on the datum), the tip-off's Δ in its run."""
+        return self.t_mat if self.fall_offset is None else self.fall_offset
 
 
 def load_inputs(c: Chain) -> LoadInputs:
@@ -320,11 +338,14 @@ def load_inputs(c: Chain) -> LoadInputs:
     f_load = d.per_point([0.0 if ld.contact_stiffness is None else 1.0 / ld.contact_stiffness
                           for ld in loads])
     cl, cw = _contact_sides(d, fl, fw)
-    t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw)
+    if d.tip_off:
+        return _tip_off_inputs(d, W, M, fl, fw, f_load, cl, cw, landing_pads(d, fl, fw))
+    on = np.asarray(geo.protection)
+    t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw, on)
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
     # is that less its thickness
-    protected = geo.protection >= 0
+    protected = on >= 0
     if d.mat_k is not None:
         # a trial mat on the finished surface under the whole footprint (confirm.py)
         trial = np.isfinite(d.mat_k) & (d.mat_k > 0.0)
@@ -338,6 +359,142 @@ def load_inputs(c: Chain) -> LoadInputs:
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
                       foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer,
                       base_l=cl + 2.0 * t_spread, base_w=cw + 2.0 * t_spread)
+
+
+def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
+                    fw: np.ndarray, f_load: np.ndarray, cl: np.ndarray, cw: np.ndarray,
+                    on: np.ndarray) -> LoadInputs:
+    """:class:`LoadInputs` of the tip-off case (``Drop.tip_off``): the bare deck beside
+    the pad's edge, struck with at most the energy of a fall h = H − Δ
+    (:func:`tip_offsets`; m), the contact ``cl`` × ``cw`` with no layer under it
+    (spread by a trial mat as any mat); no pad credit, no spent layer; the base over the
+    framing ``cl`` × ``cw`` (nothing to spread it, as :func:`load_inputs` off a pad)."""
+    n = d.n
+    zero = np.zeros(n)
+    delta = tip_offsets(d, fl, fw, on, W)
+    H, _ = _drop_heights(d, zero)
+    h = np.maximum(H - np.where(np.isfinite(delta), delta, H), 0.0)
+    f_mat = zero.copy()
+    protected = np.zeros(n, dtype=bool)
+    if d.mat_k is not None:
+        trial = np.isfinite(d.mat_k) & (d.mat_k > 0.0)
+        f_mat = np.where(trial, 1.0 / np.where(trial, d.mat_k, 1.0), f_mat)
+        protected = trial
+    foot_l, foot_w = _footprint_on_deck(d, cl, cw, zero)
+    return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=zero, f_mat=f_mat,
+                      F_c=np.full(n, np.inf), s_c=zero.copy(),
+                      crushable=np.zeros(n, dtype=bool), h=h, H=H, foot_l=foot_l,
+                      foot_w=foot_w, lb=np.minimum(foot_l, foot_w), protected=protected,
+                      f_layer=zero.copy(), base_l=cl, base_w=cw, pad=on,
+                      fall_offset=np.where(np.isfinite(delta), delta, H))
+
+
+def tip_off_rows(d: Drop) -> np.ndarray:
+    """The rows of ``d``'s points where a load lands partly on a crushable pad and can
+    tip over its edge onto the deck: Δ finite and the drop height H above it
+    (:func:`tip_offsets`); the tip-off case (``Drop.tip_off``) is run there."""
+    if d.bare is not None or d.n == 0 or not any(
+            pa.kind == "crushable" and pa.level_id == d.fm.level.id
+            for pa in d.project.protection_areas):
+        return np.zeros(0, dtype=np.int64)
+    W = d.per_point([ld.weight for ld in d.loads])
+    fl = d.per_point([ld.footprint_length for ld in d.loads])
+    fw = d.per_point([ld.footprint_width for ld in d.loads])
+    delta = tip_offsets(d, fl, fw, landing_pads(d, fl, fw), W)
+    if not np.isfinite(delta).any():
+        return np.zeros(0, dtype=np.int64)
+    H, _ = _drop_heights(d, np.zeros(d.n))
+    return np.flatnonzero(np.isfinite(delta) & (H > delta))
+
+
+_TIP_LOWER = ("scabbing_height", "perforation_height", "dent_height")
+_TIP_HIGHER = ("penetration", "dent_depth", "residual_velocity")
+
+
+def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray]
+                  ) -> dict[str, np.ndarray]:
+    """The outputs of points whose load lands partly on a crushable pad
+    (:func:`tip_off_rows`). Drop point on the pad: the worse of landing on it
+    (``on_pad``, its crush credit by area) and tipping over its edge onto the deck
+    (``tip``, :func:`tip_offsets`) governs, as between the two landings
+    (:func:`merge_landings`); the deck's local damage the worse of the two (start
+    heights the lower, NaN — not assessed — giving way to a number; depths and speeds
+    the larger; scabbing either). Drop point off the pad (``on_pad`` is then the bare
+    deck from H): the load cannot land flat on the bare deck, part of its footprint
+    meets the pad first, and the tip-off is its case — from H − Δ, continuous with
+    the bare deck as the footprint leaves the pad (Δ → 0); its ``protection`` is that
+    pad, so that the permit lays it."""
+    centre = on_pad["protection"] >= 0
+    out = merge_landings(on_pad, tip)
+    for k in _TIP_LOWER:
+        a, b = on_pad[k], tip[k]
+        out[k] = np.where(np.isnan(a) | (b < a), b, a)
+    for k in _TIP_HIGHER:
+        out[k] = np.fmax(on_pad[k], tip[k])
+    out["scabbing"] = on_pad["scabbing"] | tip["scabbing"]
+    return {k: np.where(centre, v, tip[k]) if k in tip else v for k, v in out.items()}
+
+
+def landing_pads(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
+    """Per point, the crushable pad the load's footprint ``fl`` × ``fw`` (m; either plan
+    orientation) lies on (index into the project's protection areas, −1 none): the
+    one under the drop point (``Geometry.protection``), else the crushable pad of the
+    level under the largest part of the footprint — a load whose centre is just off a
+    pad still meets the part of it that is under its footprint and may tip over its
+    edge (:func:`tip_offsets`). The pad's crush credit (:func:`_protection_inputs`)
+    is taken where the drop point is on the pad only: off it, the load lands on the
+    pad's edge and tips onto the deck, which the tip-off case bounds. A spring mat
+    counts under the drop point only (its edge's tip-off is not modelled: README,
+    limits)."""
+    on = np.asarray(d.geo.protection).copy()
+    free = np.flatnonzero(on < 0)
+    lv = d.fm.level
+    if d.bare is not None or free.size == 0:
+        return on
+    best = np.zeros(free.size)
+    x, y = d.geo.x[free], d.geo.y[free]
+    for i, pa in enumerate(d.project.protection_areas):
+        if pa.level_id != lv.id or pa.kind != "crushable":
+            continue
+        r = pa.area
+        for along_x in (True, False):
+            rect = pads.footprint_rect(x, y, fl[free], fw[free], along_x)
+            A = pads.rect_overlap_area(rect, (r.x0, r.y0, r.x1, r.y1))
+            take = A > best
+            best = np.where(take, A, best)
+            on[free[take]] = i
+    return on
+
+
+def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
+                W: np.ndarray) -> np.ndarray:
+    """Per point, the Δ (m) of a load tipping over the edge of the crushable pad it
+    lands on (``on``, :func:`landing_pads`) onto the deck: it strikes the deck with
+    at most the energy of a fall H − Δ
+    (:func:`droprig.solver.pads.footprint_tip_offset` over that pad and every layer
+    of the same kind and thickness, the less of the footprint's two plan
+    orientations); ∞ where it cannot (the footprint wholly on the layers, a spring
+    mat, no pad). W in N, footprint ``fl`` × ``fw`` in m."""
+    prot, lv = d.project.protection_areas, d.fm.level
+    out = np.full(d.n, np.inf)
+    if d.bare is not None:
+        return out
+    for i, pa in enumerate(prot):
+        if pa.level_id != lv.id or pa.kind != "crushable":
+            continue
+        sel = np.flatnonzero(on == i)
+        if sel.size == 0:
+            continue
+        layers = [((o.area.x0, o.area.y0, o.area.x1, o.area.y1), pad_crush_stress(d.project, o),
+                   float(o.crush_stroke))  # type: ignore[arg-type]
+                  for o in prot if o.level_id == lv.id and o.kind == "crushable"
+                  and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+        x, y = d.geo.x[sel], d.geo.y[sel]
+        for along_x in (True, False):
+            rect = pads.footprint_rect(x, y, fl[sel], fw[sel], along_x)
+            dl = pads.footprint_tip_offset(rect, W[sel], float(pa.thickness), layers)
+            out[sel] = np.minimum(out[sel], dl)
+    return out
 
 
 def _spent_layer(cl: np.ndarray, cw: np.ndarray, t_mat: np.ndarray, s_c: np.ndarray,
@@ -376,24 +533,25 @@ def _contact_sides(d: Drop, fl: np.ndarray, fw: np.ndarray) -> tuple[np.ndarray,
 
 
 def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
-                       cw: np.ndarray) -> tuple[np.ndarray, ...]:
+                       cw: np.ndarray, on: np.ndarray) -> tuple[np.ndarray, ...]:
     """Per point, what the protection area under it gives (:class:`LoadInputs`): mat
     thickness ``t_mat`` (m), spring mat compliance ``f_mat`` (m/N), crush force
     ``F_c`` (N, ∞ none), stroke ``s_c`` (m) and ``crushable`` — pads by area
     (:func:`_layer_credit`) for the contact ``cl`` × ``cw`` of the footprint
-    ``fl`` × ``fw`` (m)."""
-    n, geo, lv = d.n, d.geo, d.fm.level
+    ``fl`` × ``fw`` (m), on the protection area ``on`` of each point
+    (:func:`landing_pads`)."""
+    n, lv = d.n, d.fm.level
     t_mat = np.zeros(n)
     f_mat = np.zeros(n)
     F_c = np.full(n, np.inf)
     s_c = np.zeros(n)
     crushable = np.zeros(n, dtype=bool)
-    any_mat = bool(np.any(geo.protection >= 0))
+    any_mat = bool(np.any(on >= 0))
     prot = d.project.protection_areas
     for i, pa in enumerate(prot):
         if not any_mat or pa.level_id != lv.id:
             continue
-        sel = geo.protection == i
+        sel = on == i
         if not sel.any():
             continue
         t_mat[sel] = pa.thickness
@@ -3783,7 +3941,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
     geo = d.geo
     comp = c[Compliance]
     out = {
-        "x": geo.x, "y": geo.y, "bay": geo.bay, "protection": geo.protection,
+        "x": geo.x, "y": geo.y, "bay": geo.bay,
+        "protection": geo.protection if inp.pad is None else inp.pad,
         "drop_height": inp.H, "fall_height": inp.h, "structure_compliance": comp.f_struct,
         "static_deflection": imp.d_st,
         # the struck mass the impact used: with the slab where two forces
@@ -3799,8 +3958,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "utilisation_member": (ck.gov_member if ck.util_member is None
                                else ck.util_member).astype(np.int64),
         # allowable heights on the datum: the fall they allow plus the pad's thickness
-        "allowable_drop_height": inv.h_el + inp.t_mat,
-        "allowable_drop_height_plastic": inv.h_pl + inp.t_mat,
+        "allowable_drop_height": inv.h_el + inp.datum_offset,
+        "allowable_drop_height_plastic": inv.h_pl + inp.datum_offset,
         "allowable_height_check": inv.h_check.astype(np.int64),
         "allowable_height_member": inv.h_member.astype(np.int64),
         "allowable_height_plastic_check": inv.hp_check.astype(np.int64),
@@ -3809,11 +3968,12 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "required_mat_stiffness": inv.k_req, "required_crush_stroke": inv.s_req,
         "penetration": ld.penetration, "scabbing": ld.scabbing,
         # on the datum too: the fall at which each starts plus the pad's thickness
-        "scabbing_height": ld.h_scab + inp.t_mat, "perforation_height": ld.h_perf + inp.t_mat,
+        "scabbing_height": ld.h_scab + inp.datum_offset,
+        "perforation_height": ld.h_perf + inp.datum_offset,
         "residual_velocity": ld.v_res, "local_extrapolated": ld.extrapolated,
         "strike_orientation": ld.orientation,
         # steel plate decks: the dent and the height (on the datum) of the dent limit
-        "dent_depth": ld.dent, "dent_height": ld.h_dent + inp.t_mat,
+        "dent_depth": ld.dent, "dent_height": ld.h_dent + inp.datum_offset,
     }
     if ld.perforation.any():
         out["response"] = np.where(ld.perforation, PERFORATES, out["response"])

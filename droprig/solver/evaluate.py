@@ -37,6 +37,7 @@ from droprig.solver.geometry import (
     distinct_point_geometry,
     point_geometry,
     slice_geo,
+    take_geo,
 )
 from droprig.solver.loadpath import PathResult
 from droprig.solver.parallel import for_blocks
@@ -173,6 +174,28 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
         out = merge_landings(out, run("tilted"))
     if keep and mat_k is None:
         geo.cache["steps"] = KeptSteps.of(loads, li, by_landing)
+    rows = chain_mod.tip_off_rows(Drop(fm, project, geo, loads, li, False, H, mat_k))
+    if rows.size:
+        # a footprint partly on a crushable pad: the worse of landing on it and
+        # tipping over its edge onto the deck (chain.tip_offsets)
+        sub = take_geo(geo, rows, steps=False)
+
+        def pick(a: np.ndarray | None) -> np.ndarray | None:
+            return None if a is None else np.asarray(a)[rows]
+
+        def run_tip(landing: str) -> dict[str, np.ndarray]:
+            return outputs(run_chain(Drop(fm, project, sub, loads, li[rows], False, pick(H),
+                                          pick(mat_k), v_hoist=v_hoist, landing=landing,
+                                          trial=trial, outcomes_only=outcomes_only,
+                                          tip_off=True)))
+
+        tip = run_tip("flat")
+        if fm.settings.tilted_landing:
+            tip = merge_landings(tip, run_tip("tilted"))
+        merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip)
+        for k, v in merged.items():
+            out[k] = out[k].copy()
+            out[k][rows] = v
     return out
 
 

@@ -15,17 +15,23 @@ SI units: m, m², Pa, N, N/m.
 
 from __future__ import annotations
 
+import itertools
+from typing import NamedTuple
+
 import numpy as np
 from numpy.typing import ArrayLike
 
 __all__ = [
     "SPENT_LAYER_MODULUS",
+    "SPENT_LAYER_STRENGTH",
     "crush_stress_from_force",
     "crushable_pad_force",
     "footprint_rect",
+    "footprint_tip_offset",
     "rect_overlap_area",
     "spent_layer_compliance",
     "spring_mat_stiffness",
+    "tip_offset",
 ]
 
 SPENT_LAYER_MODULUS = 370e6
@@ -115,3 +121,221 @@ def spent_layer_compliance(length: ArrayLike, width: ArrayLike, residual: ArrayL
         diff = np.log((a + 2.0 * t) * b / (a * (b + 2.0 * t))) / (2.0 * E * (b - a))
     same = t / (E * a * (a + 2.0 * t))
     return np.where(t > 0.0, np.where(near, same, diff), 0.0)
+
+
+SPENT_LAYER_STRENGTH = 2.5e6
+"""Crushing stress of what is left of a crushable layer once its stroke is spent, Pa:
+softwood across the grain, f_c,90,k of strength class C24 (EN 338:2016 Table 1 — from
+memory: 2.5 MPa), the same spent layer as :data:`SPENT_LAYER_MODULUS`. It enters only
+the tip-off bound (:func:`tip_offset`) as the least stress at which the spent layer
+yields under a load's edge, and only away from the layer's free edges
+(:func:`footprint_tip_offset`); a weaker residual (a layer with no timber in it)
+needs its own value (README, limits)."""
+
+Segment = tuple[ArrayLike, ArrayLike, ArrayLike, float, float, ArrayLike, ArrayLike, float]
+"""(s0, s1, b, σ_c, s_c, r0, r1, σ_2) of :func:`tip_offset`."""
+
+
+def _plateau_work(u: np.ndarray, sigma: float, stroke: float) -> np.ndarray:
+    """Ω(u) = ∫₀ᵘ σ_c·min(v, s_c) dv, J/m (Pa·m²): the antiderivative in u of the
+    plateau's least work per unit area σ_c·min(u, s_c) of a layer crushed by u (m;
+    0 for u ≤ 0), so that ∫ σ_c·min(t − θs, s_c) ds = [Ω(t − θs0) − Ω(t − θs1)]/θ.
+    The spent part is :func:`_spent_integral`'s."""
+    u = np.maximum(u, 0.0)
+    a = np.minimum(u, stroke)
+    return sigma * (0.5 * a * a + stroke * (u - a))
+
+
+def _spent_integral(th: np.ndarray, t: float, stroke: float, lo: np.ndarray,
+                    hi: np.ndarray, r0: np.ndarray, r1: np.ndarray) -> np.ndarray:
+    """∫ from lo to hi of ρ(s)·clip(t − θs − s_c, 0, t − s_c) ds, m² (times σ_2: the
+    spent part's work, J/m): ρ(s) = clip((s − r0)/(r1 − r0), 0, 1) the share of its
+    strength the spent layer has at s (r1 ≤ r0: all of it). Both factors are linear
+    between the breakpoints r0, r1 and s = (t − s_c)/θ, so Simpson's rule on each
+    piece between them is exact (the product of two linear functions)."""
+    t_r = max(t - stroke, 0.0)
+    kink = np.where(th > 0.0, t_r / np.where(th > 0.0, th, 1.0), np.inf)
+    ramp = r1 > r0
+    span = np.where(ramp, r1 - r0, 1.0)
+
+    def f(s: np.ndarray) -> np.ndarray:
+        rho = np.where(ramp, np.clip((s - r0) / span, 0.0, 1.0), 1.0)
+        return rho * np.clip(t - th * s - stroke, 0.0, t_r)
+
+    cuts = np.sort(np.stack([lo, hi, np.clip(r0, lo, hi), np.clip(r1, lo, hi),
+                             np.clip(kink, lo, hi)]), axis=0)
+    total = np.zeros(lo.shape)
+    for a, b in itertools.pairwise(cuts):
+        total = total + (b - a) / 6.0 * (f(a) + 4.0 * f(0.5 * (a + b)) + f(b))
+    return total
+
+
+class _Seg(NamedTuple):
+    s0: np.ndarray
+    s1: np.ndarray
+    b: np.ndarray
+    sig: float
+    sc: float
+    r0: np.ndarray
+    r1: np.ndarray
+    spent: float
+
+
+def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: list[Segment],
+               iterations: int = 90) -> np.ndarray:
+    """The height Δ (m) by which a load whose footprint lies partly on a crushable
+    layer of thickness ``t`` (m) and tips over the layer's edge onto the deck falls
+    less than its drop height H: the kinetic energy it can bring onto the deck with
+    its lowest edge is at most W·(H − Δ). Vectorised over points.
+
+    The footprint is ``L`` (m) long in the direction it tips, the edge it tips onto
+    at s = 0; the layer lies under it in ``segments`` (s0, s1, b, σ_c, s_c, r0, r1,
+    σ_2): from s0 to s1 (m from that edge), ``b`` (m) wide, crushing at its plateau
+    σ_c (Pa) over its stroke s_c (m), then — what is left of it — at σ_2 (Pa) times
+    ρ(s), the share of that strength it has at s (0 up to r0, rising linearly to 1 at
+    r1: near the layer's free edge the spent layer is not relied on,
+    :func:`footprint_tip_offset`). The load (weight W, N; its centre of mass over the
+    footprint's centre) meets the layer's top, turns by θ and sinks until its edge
+    reaches the deck (the edge has then fallen t below the layer's top): the layer
+    under it is crushed by u(s) = t − θ·s, and the centre of mass has fallen
+    H − θ·L/2 in all. Energy at the edge's contact — the work of gravity less the
+    least work of the crushed layer (it gives none back):
+
+        E_kin ≤ W·(H − θ·L/2) − P(θ) = W·(H − φ(θ)),   φ(θ) = θ·L/2 + P(θ)/W,
+        P(θ) = Σ b·∫ [σ_c·min(u, s_c) + σ_2·ρ(s)·clip(u − s_c, 0, t − s_c)] ds,
+
+    whatever turn θ ≥ 0 the motion takes, so Δ = min over θ of φ(θ) (derived; φ is
+    convex — the integrand is convex in u, u linear in θ — and found by golden
+    section; the least work of a plateau layer: Gibson & Ashby, *Cellular Solids* 2nd
+    ed. 1997, ch. 5 — from memory — the stress never falls below the plateau). The
+    bound needs no rotational inertia (a body of any mass distribution): the whole
+    E_kin then meets the deck as the chain's whole mass does — for the edge's point
+    m*·v_E² ≤ M·v² + I_G·ω² (Cauchy–Schwarz, m* = M/(1 + M·r²/I_G) of Goldsmith,
+    *Impact* 1960 ch. 2 — from memory). No layer under the footprint: Δ = 0 (the bare
+    deck from H). SI units.
+    """
+    L, W = np.broadcast_arrays(np.asarray(L, float), np.asarray(weight, float))
+    if np.any(~(L > 0.0)) or np.any(~(W > 0.0)):
+        raise ValueError("tip-off: the footprint's length and the weight must be > 0")
+    if not t > 0.0:
+        raise ValueError(f"protection thickness: {t!r} m is not allowed; allowed: > 0 m")
+    def arr(v: ArrayLike) -> np.ndarray:
+        return np.broadcast_to(np.asarray(v, float), L.shape)
+
+    segs = [_Seg(arr(sg[0]), arr(sg[1]), arr(sg[2]), float(sg[3]), float(sg[4]), arr(sg[5]),
+                 arr(sg[6]), float(sg[7])) for sg in segments]
+    for sg in segs:
+        if not (sg.sig >= 0.0 and sg.sc >= 0.0 and sg.spent >= 0.0):
+            raise ValueError("tip-off: crush stress, stroke and spent strength must be ≥ 0")
+
+    def phi(th: np.ndarray) -> np.ndarray:
+        P = np.zeros(L.shape)
+        small = th <= 1e-12
+        ths = np.where(small, 1.0, th)
+        for s0, s1, b, sig, sc, r0, r1, sp in segs:
+            sc_ = min(sc, t)
+            # ∫ σ_c·min(u, s_c) ds over the segment, u = t − θ·s (ds = −du/θ); θ → 0:
+            # the whole segment crushed through its stroke
+            plat = np.where(small, sig * sc_ * (s1 - s0),
+                            (_plateau_work(t - ths * s0, sig, sc_)
+                             - _plateau_work(t - ths * s1, sig, sc_)) / ths)
+            spent = sp * _spent_integral(np.where(small, 0.0, th), t, sc_, s0, s1, r0, r1) \
+                if sp > 0.0 else 0.0
+            P = P + b * (plat + spent)
+        return th * L / 2.0 + P / W
+
+    # the least φ lies below θ_hi: beyond t/s0 of the nearest segment nothing is
+    # crushed (φ' = L/2 > 0); beyond t·√(σ_max·B/(W·L)) a crushed wedge's work falls
+    # off faster than the centre of mass rises
+    s_near = np.full(L.shape, np.inf)
+    b_sum = np.zeros(L.shape)
+    sig_max = 1.0
+    for s0, _s1, b, sig, _sc, _r0, _r1, sp in segs:
+        s_near = np.where(b > 0.0, np.minimum(s_near, s0), s_near)
+        b_sum = b_sum + b
+        sig_max = max(sig_max, sig + sp)
+    wedge = t * np.sqrt(sig_max * np.maximum(b_sum, 1e-12) / (W * L)) + t / L
+    hi = np.minimum(np.where(s_near > 0.0, t / np.where(s_near > 0.0, s_near, 1.0), np.inf),
+                    wedge) * 1.01 + 1e-9
+    a, b_ = np.zeros(L.shape), hi
+    r = (np.sqrt(5.0) - 1.0) / 2.0
+    for _ in range(iterations):  # golden section on a convex φ
+        c1, c2 = b_ - r * (b_ - a), a + r * (b_ - a)
+        left = phi(c1) <= phi(c2)
+        a, b_ = np.where(left, a, c1), np.where(left, c2, b_)
+    return np.minimum(np.minimum(phi(a), phi(b_)), phi(np.zeros(L.shape)))
+
+
+_EDGE_COVERED = 1e-6
+"""A footprint's edge counts as wholly on the layer where the deck under it is less
+than this wide, m (rounding of the plan's coordinates)."""
+
+_ABUTS = 1e-3
+"""A layer's edge is not free where another layer of the group begins within this of
+it, m (two pads laid edge to edge: the shared edge is no edge)."""
+
+
+def footprint_tip_offset(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike],
+                         weight: ArrayLike, t: float,
+                         layers: list[tuple[tuple[float, float, float, float], float, float]],
+                         spent: float = SPENT_LAYER_STRENGTH) -> np.ndarray:
+    """:func:`tip_offset` of an axis-aligned footprint ``rect`` (x0, y0, x1, y1; m)
+    over crushable ``layers`` of one thickness ``t`` (m), each ((x0, y0, x1, y1),
+    crush stress Pa, stroke m), for a load of ``weight`` (N): the least Δ (m) over
+    the four directions the load can tip in; ∞ where it can reach the deck in none
+    (the footprint on the layers with a margin of at least 2·t beyond each of its
+    edges); 0 where no layer lies under the footprint. Vectorised over points.
+
+    What is left of a layer once its stroke is spent (stress ``spent``) is not relied
+    on within t of its free edge, and gains its strength linearly over the next t
+    (the 1:1 spread through a layer cut off at its edge; common practice, no source):
+    a load's edge near a pad's edge may crush through it to the deck. A direction
+    counts where the footprint's edge lies over the deck or within 2·t of the layer's
+    free edge beyond it. Continuous as the footprint crosses the edge; the bound
+    steepens where the spent part under the far end of the footprint takes hold."""
+    x0, y0, x1, y1 = np.broadcast_arrays(*(np.asarray(v, float) for v in rect))
+    W = np.broadcast_to(np.asarray(weight, float), x0.shape)
+    best = np.full(x0.shape, np.inf)
+    for axis in ("x", "y"):
+        for sign in (1.0, -1.0):
+            L, B = (y1 - y0, x1 - x0) if axis == "y" else (x1 - x0, y1 - y0)
+            edge = (y1 if sign > 0 else y0) if axis == "y" else (x1 if sign > 0 else x0)
+            segs: list[Segment] = []
+            covered = np.zeros(x0.shape)
+            reach = np.zeros(x0.shape, dtype=bool)
+            for k, ((a0, b0, a1, b1), sig, sc) in enumerate(layers):
+                ox0, oy0 = np.maximum(x0, a0), np.maximum(y0, b0)
+                ox1, oy1 = np.minimum(x1, a1), np.minimum(y1, b1)
+                on = (ox1 > ox0) & (oy1 > oy0)
+                lo, hi = (oy0, oy1) if axis == "y" else (ox0, ox1)
+                wid = np.where(on, (ox1 - ox0) if axis == "y" else (oy1 - oy0), 0.0)
+                s0 = np.clip(np.where(on, (edge - hi) if sign > 0 else (lo - edge), 0.0), 0.0, L)
+                s1 = np.clip(np.where(on, (edge - lo) if sign > 0 else (hi - edge), 0.0), 0.0, L)
+                # the layer's own edge on the tipping side, as s (< 0: beyond the footprint)
+                own = (b1 if sign > 0 else b0) if axis == "y" else (a1 if sign > 0 else a0)
+                free = not any(j != k and _abuts(lay[0], own, axis, sign)
+                               for j, lay in enumerate(layers))
+                s_edge = (edge - own) if sign > 0 else (own - edge)
+                if free:
+                    r0, r1 = s_edge + t, s_edge + 2.0 * t
+                    reach = reach | (on & (r1 > _EDGE_COVERED))
+                else:
+                    r0 = r1 = np.full(x0.shape, -1e30)  # all of its strength everywhere
+                segs.append((s0, s1, wid, float(sig), float(sc), r0, r1, spent))
+                covered = covered + np.where(s0 <= _EDGE_COVERED, wid, 0.0)
+            open_edge = (covered < B - _EDGE_COVERED) | reach
+            if not open_edge.any():
+                continue
+            d = tip_offset(np.where(open_edge, L, 1.0), W, t, segs)
+            best = np.where(open_edge, np.minimum(best, d), best)
+    return best
+
+
+def _abuts(r: tuple[float, float, float, float], own: float, axis: str, sign: float) -> bool:
+    """Whether layer ``r`` (x0, y0, x1, y1) begins at the coordinate ``own`` on the
+    ``axis`` going in direction ``sign`` (within :data:`_ABUTS`): another layer laid
+    against an edge, so that edge is not free."""
+    a0, b0, a1, b1 = r
+    lo, hi = (b0, b1) if axis == "y" else (a0, a1)
+    start = lo if sign > 0 else hi
+    return abs(start - own) <= _ABUTS
