@@ -57,8 +57,9 @@ replace it for the steps after it (e.g. a refined :class:`Compliance`).
 
 from __future__ import annotations
 
+from collections import OrderedDict
 from collections.abc import Callable, Mapping
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import TypeVar, cast
 
 import numpy as np
@@ -84,7 +85,7 @@ from droprig.solver import impact as impact_mod
 from droprig.solver import local_damage as local_damage_mod
 from droprig.solver import struck_mass as struck_mass_mod
 from droprig.solver.floor import FloorModel
-from droprig.solver.geometry import Geometry
+from droprig.solver.geometry import Geometry, take_geo
 from droprig.solver.linear_checks import Check, Family, small_check
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PERFORATES, PLASTIC
@@ -211,10 +212,11 @@ class Drop:
     allowable height (the refinement places its points by it), the required mat and
     the check that sets the height are as in a full run.
 
-    ``tip_off``: the second case of a footprint partly on a crushable pad — the load
-    tips over the pad's edge and strikes the bare deck beside it with at most the
-    energy of a fall H − Δ (:func:`tip_offsets`); the points must be ones where
-    H > Δ (:func:`droprig.solver.evaluate` runs it there and keeps the worse case)."""
+    ``tip_off``: the Δ per point (m) of the second case of a footprint partly on a
+    crushable pad — the load tips over the pad's edge and strikes the bare deck beside
+    it with at most the energy of a fall H − Δ (:func:`tip_offsets`); the points must
+    be ones where H > Δ (:func:`tip_off_rows`; :func:`droprig.solver.evaluate` runs it
+    there and keeps the worse case). ``None``: the ordinary run."""
 
     fm: FloorModel
     project: Project
@@ -229,7 +231,7 @@ class Drop:
     landing: str = "flat"
     trial: bool = False
     outcomes_only: bool = False
-    tip_off: bool = False
+    tip_off: np.ndarray | None = None
 
     @property
     def n(self) -> int:
@@ -338,8 +340,9 @@ def load_inputs(c: Chain) -> LoadInputs:
     f_load = d.per_point([0.0 if ld.contact_stiffness is None else 1.0 / ld.contact_stiffness
                           for ld in loads])
     cl, cw = _contact_sides(d, fl, fw)
-    if d.tip_off:
-        return _tip_off_inputs(d, W, M, fl, fw, f_load, cl, cw, landing_pads(d, fl, fw))
+    if d.tip_off is not None:
+        return _tip_off_inputs(d, W, M, fl, fw, f_load, cl, cw, landing_pads(d, fl, fw),
+                               np.asarray(d.tip_off, float))
     on = np.asarray(geo.protection)
     t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw, on)
     # one datum: the load's underside above the finished surface of the level (given,
@@ -363,15 +366,15 @@ def load_inputs(c: Chain) -> LoadInputs:
 
 def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
                     fw: np.ndarray, f_load: np.ndarray, cl: np.ndarray, cw: np.ndarray,
-                    on: np.ndarray) -> LoadInputs:
+                    on: np.ndarray, delta: np.ndarray) -> LoadInputs:
     """:class:`LoadInputs` of the tip-off case (``Drop.tip_off``): the bare deck beside
     the pad's edge, struck with at most the energy of a fall h = H − Δ
-    (:func:`tip_offsets`; m), the contact ``cl`` × ``cw`` with no layer under it
-    (spread by a trial mat as any mat); no pad credit, no spent layer; the base over the
-    framing ``cl`` × ``cw`` (nothing to spread it, as :func:`load_inputs` off a pad)."""
+    (``delta``, :func:`tip_offsets`; m), the contact ``cl`` × ``cw`` with no layer
+    under it (spread by a trial mat as any mat); no pad credit, no spent layer; the
+    base over the framing ``cl`` × ``cw`` (nothing to spread it, as :func:`load_inputs`
+    off a pad)."""
     n = d.n
     zero = np.zeros(n)
-    delta = tip_offsets(d, fl, fw, on, W)
     H, _ = _drop_heights(d, zero)
     h = np.maximum(H - np.where(np.isfinite(delta), delta, H), 0.0)
     f_mat = zero.copy()
@@ -389,22 +392,58 @@ def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
                       fall_offset=np.where(np.isfinite(delta), delta, H))
 
 
-def tip_off_rows(d: Drop) -> np.ndarray:
+def tip_off_rows(d: Drop) -> tuple[np.ndarray, np.ndarray]:
     """The rows of ``d``'s points where a load lands partly on a crushable pad and can
-    tip over its edge onto the deck: Δ finite and the drop height H above it
-    (:func:`tip_offsets`); the tip-off case (``Drop.tip_off``) is run there."""
+    tip over its edge onto the deck — Δ finite and the drop height H above it
+    (:func:`tip_offsets`) — and their Δ (m); the tip-off case (``Drop.tip_off``) is
+    run there. Δ depends on the plan only: kept with the points (``geo.cache``) for
+    the trials at other heights."""
+    none = np.zeros(0, dtype=np.int64), np.zeros(0)
     if d.bare is not None or d.n == 0 or not any(
             pa.kind == "crushable" and pa.level_id == d.fm.level.id
             for pa in d.project.protection_areas):
-        return np.zeros(0, dtype=np.int64)
+        return none
     W = d.per_point([ld.weight for ld in d.loads])
     fl = d.per_point([ld.footprint_length for ld in d.loads])
     fw = d.per_point([ld.footprint_width for ld in d.loads])
-    delta = tip_offsets(d, fl, fw, landing_pads(d, fl, fw), W)
+    delta = _remembered_tip_offsets(d, W, fl, fw)
     if not np.isfinite(delta).any():
-        return np.zeros(0, dtype=np.int64)
+        return none
     H, _ = _drop_heights(d, np.zeros(d.n))
-    return np.flatnonzero(np.isfinite(delta) & (H > delta))
+    rows = np.flatnonzero(np.isfinite(delta) & (H > delta))
+    return rows, delta[rows]
+
+
+_TIP_MEMO: OrderedDict[tuple, dict[tuple[float, ...], float]] = OrderedDict()
+_TIP_MEMO_POINTS = 400_000
+"""Δ of :func:`tip_offsets` remembered per point (x, y, W, footprint) for the pads of a
+level, up to this many points: the confirmation tries the same points at other
+heights, and Δ depends on the plan only."""
+
+
+def _remembered_tip_offsets(d: Drop, W: np.ndarray, fl: np.ndarray,
+                            fw: np.ndarray) -> np.ndarray:
+    """:func:`tip_offsets` of ``d``'s points, each point worked out once
+    (:data:`_TIP_MEMO`)."""
+    key = (d.project.protection_areas, d.fm.level.id)
+    memo = _TIP_MEMO.setdefault(key, {})
+    _TIP_MEMO.move_to_end(key)
+    pts = list(zip(d.geo.x.tolist(), d.geo.y.tolist(), W.tolist(), fl.tolist(), fw.tolist(),
+                   strict=True))
+    out = np.array([memo.get(p, np.nan) for p in pts], dtype=float)
+    new = np.flatnonzero(np.isnan(out))
+    if new.size:
+        sub = replace(d, geo=take_geo(d.geo, new, steps=False),
+                      li=np.asarray(d.li)[new])
+        got = tip_offsets(sub, fl[new], fw[new], landing_pads(sub, fl[new], fw[new]), W[new])
+        out[new] = got
+        for i, v in zip(new.tolist(), got.tolist(), strict=True):
+            memo[pts[i]] = v
+        while sum(len(m) for m in _TIP_MEMO.values()) > _TIP_MEMO_POINTS and len(_TIP_MEMO) > 1:
+            _TIP_MEMO.popitem(last=False)
+        if len(memo) > _TIP_MEMO_POINTS:
+            memo.clear()
+    return out
 
 
 _TIP_LOWER = ("scabbing_height", "perforation_height", "dent_height")
@@ -490,10 +529,13 @@ def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
                   for o in prot if o.level_id == lv.id and o.kind == "crushable"
                   and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
         x, y = d.geo.x[sel], d.geo.y[sel]
-        for along_x in (True, False):
-            rect = pads.footprint_rect(x, y, fl[sel], fw[sel], along_x)
-            dl = pads.footprint_tip_offset(rect, W[sel], float(pa.thickness), layers)
-            out[sel] = np.minimum(out[sel], dl)
+        # both plan orientations in one call
+        a = pads.footprint_rect(x, y, fl[sel], fw[sel], True)
+        b = pads.footprint_rect(x, y, fl[sel], fw[sel], False)
+        rect = tuple(np.concatenate([u, v]) for u, v in zip(a, b, strict=True))
+        dl = pads.footprint_tip_offset(rect, np.concatenate([W[sel], W[sel]]),  # type: ignore[arg-type]
+                                       float(pa.thickness), layers)
+        out[sel] = np.minimum(out[sel], np.minimum(dl[:sel.size], dl[sel.size:]))
     return out
 
 

@@ -174,7 +174,7 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
         out = merge_landings(out, run("tilted"))
     if keep and mat_k is None:
         geo.cache["steps"] = KeptSteps.of(loads, li, by_landing)
-    rows = chain_mod.tip_off_rows(Drop(fm, project, geo, loads, li, False, H, mat_k))
+    rows, delta = chain_mod.tip_off_rows(Drop(fm, project, geo, loads, li, False, H, mat_k))
     if rows.size:
         # a footprint partly on a crushable pad: the worse of landing on it and
         # tipping over its edge onto the deck (chain.tip_offsets)
@@ -187,7 +187,7 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
             return outputs(run_chain(Drop(fm, project, sub, loads, li[rows], False, pick(H),
                                           pick(mat_k), v_hoist=v_hoist, landing=landing,
                                           trial=trial, outcomes_only=outcomes_only,
-                                          tip_off=True)))
+                                          tip_off=delta)))
 
         tip = run_tip("flat")
         if fm.settings.tilted_landing:

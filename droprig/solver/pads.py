@@ -16,6 +16,7 @@ SI units: m, m², Pa, N, N/m.
 from __future__ import annotations
 
 import itertools
+from collections.abc import Sequence
 from typing import NamedTuple
 
 import numpy as np
@@ -159,8 +160,8 @@ def _spent_integral(th: np.ndarray, t: float, stroke: float, lo: np.ndarray,
     span = np.where(ramp, r1 - r0, 1.0)
 
     def f(s: np.ndarray) -> np.ndarray:
-        rho = np.where(ramp, np.clip((s - r0) / span, 0.0, 1.0), 1.0)
-        return rho * np.clip(t - th * s - stroke, 0.0, t_r)
+        rho = np.where(ramp, np.minimum(np.maximum((s - r0) / span, 0.0), 1.0), 1.0)
+        return rho * np.minimum(np.maximum(t - th * s - stroke, 0.0), t_r)
 
     cuts = np.sort(np.stack([lo, hi, np.clip(r0, lo, hi), np.clip(r1, lo, hi),
                              np.clip(kink, lo, hi)]), axis=0)
@@ -181,8 +182,8 @@ class _Seg(NamedTuple):
     spent: float
 
 
-def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: list[Segment],
-               iterations: int = 90) -> np.ndarray:
+def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: Sequence[Segment],
+               iterations: int = 40) -> np.ndarray:
     """The height Δ (m) by which a load whose footprint lies partly on a crushable
     layer of thickness ``t`` (m) and tips over the layer's edge onto the deck falls
     less than its drop height H: the kinetic energy it can bring onto the deck with
@@ -257,13 +258,19 @@ def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: list[Segment
     wedge = t * np.sqrt(sig_max * np.maximum(b_sum, 1e-12) / (W * L)) + t / L
     hi = np.minimum(np.where(s_near > 0.0, t / np.where(s_near > 0.0, s_near, 1.0), np.inf),
                     wedge) * 1.01 + 1e-9
-    a, b_ = np.zeros(L.shape), hi
+    # golden section on a convex φ, one new φ per step
     r = (np.sqrt(5.0) - 1.0) / 2.0
-    for _ in range(iterations):  # golden section on a convex φ
-        c1, c2 = b_ - r * (b_ - a), a + r * (b_ - a)
-        left = phi(c1) <= phi(c2)
-        a, b_ = np.where(left, a, c1), np.where(left, c2, b_)
-    return np.minimum(np.minimum(phi(a), phi(b_)), phi(np.zeros(L.shape)))
+    a, b_ = np.zeros(L.shape), hi
+    c, e = b_ - r * (b_ - a), a + r * (b_ - a)
+    fc, fe = phi(c), phi(e)
+    for _ in range(iterations):
+        left = fc <= fe
+        a, b_ = np.where(left, a, c), np.where(left, e, b_)
+        x = np.where(left, b_ - r * (b_ - a), a + r * (b_ - a))
+        fx = phi(x)
+        c, e = np.where(left, x, e), np.where(left, c, x)
+        fc, fe = np.where(left, fx, fe), np.where(left, fc, fx)
+    return np.minimum(np.minimum(fc, fe), phi(np.zeros(L.shape)))
 
 
 _EDGE_COVERED = 1e-6
@@ -293,17 +300,22 @@ def footprint_tip_offset(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike]
     counts where the footprint's edge lies over the deck or within 2·t of the layer's
     free edge beyond it. Continuous as the footprint crosses the edge; the bound
     steepens where the spent part under the far end of the footprint takes hold."""
-    x0, y0, x1, y1 = np.broadcast_arrays(*(np.asarray(v, float) for v in rect))
-    W = np.broadcast_to(np.asarray(weight, float), x0.shape)
+    xs = np.broadcast_arrays(*(np.asarray(v, float) for v in rect), np.asarray(weight, float))
+    shape = xs[0].shape
+    x0, y0, x1, y1, W = (np.ravel(v) for v in xs)
     best = np.full(x0.shape, np.inf)
+    # every direction's points in one vectorised call (the per-call cost dominates)
+    rows: list[np.ndarray] = []
+    lengths: list[np.ndarray] = []
+    parts: list[list[tuple[np.ndarray, ...]]] = []
     for axis in ("x", "y"):
         for sign in (1.0, -1.0):
             L, B = (y1 - y0, x1 - x0) if axis == "y" else (x1 - x0, y1 - y0)
             edge = (y1 if sign > 0 else y0) if axis == "y" else (x1 if sign > 0 else x0)
-            segs: list[Segment] = []
+            segs: list[tuple[np.ndarray, ...]] = []
             covered = np.zeros(x0.shape)
             reach = np.zeros(x0.shape, dtype=bool)
-            for k, ((a0, b0, a1, b1), sig, sc) in enumerate(layers):
+            for k, ((a0, b0, a1, b1), _sig, _sc) in enumerate(layers):
                 ox0, oy0 = np.maximum(x0, a0), np.maximum(y0, b0)
                 ox1, oy1 = np.minimum(x1, a1), np.minimum(y1, b1)
                 on = (ox1 > ox0) & (oy1 > oy0)
@@ -317,18 +329,30 @@ def footprint_tip_offset(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike]
                                for j, lay in enumerate(layers))
                 s_edge = (edge - own) if sign > 0 else (own - edge)
                 if free:
-                    r0, r1 = s_edge + t, s_edge + 2.0 * t
+                    r0 = np.broadcast_to(s_edge + t, x0.shape)
+                    r1 = np.broadcast_to(s_edge + 2.0 * t, x0.shape)
                     reach = reach | (on & (r1 > _EDGE_COVERED))
                 else:
                     r0 = r1 = np.full(x0.shape, -1e30)  # all of its strength everywhere
-                segs.append((s0, s1, wid, float(sig), float(sc), r0, r1, spent))
+                segs.append((s0, s1, wid, r0, r1))
                 covered = covered + np.where(s0 <= _EDGE_COVERED, wid, 0.0)
-            open_edge = (covered < B - _EDGE_COVERED) | reach
-            if not open_edge.any():
-                continue
-            d = tip_offset(np.where(open_edge, L, 1.0), W, t, segs)
-            best = np.where(open_edge, np.minimum(best, d), best)
-    return best
+            idx = np.flatnonzero((covered < B - _EDGE_COVERED) | reach)
+            if idx.size:
+                rows.append(idx)
+                lengths.append(L[idx])
+                parts.append([tuple(a[idx] for a in sg) for sg in segs])
+    if not rows:
+        return best.reshape(shape)
+    cat = np.concatenate
+    segments: list[Segment] = [
+        (cat([p[k][0] for p in parts]), cat([p[k][1] for p in parts]),
+         cat([p[k][2] for p in parts]), float(layers[k][1]), float(layers[k][2]),
+         cat([p[k][3] for p in parts]), cat([p[k][4] for p in parts]), spent)
+        for k in range(len(layers))]
+    at = cat(rows)
+    d = tip_offset(cat(lengths), W[at], t, segments)
+    np.minimum.at(best, at, d)
+    return best.reshape(shape)
 
 
 def _abuts(r: tuple[float, float, float, float], own: float, axis: str, sign: float) -> bool:
