@@ -16,7 +16,7 @@ SI units: m, m², Pa, N, N/m.
 from __future__ import annotations
 
 import itertools
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from typing import NamedTuple
 
 import numpy as np
@@ -258,9 +258,15 @@ def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: Sequence[Seg
     wedge = t * np.sqrt(sig_max * np.maximum(b_sum, 1e-12) / (W * L)) + t / L
     hi = np.minimum(np.where(s_near > 0.0, t / np.where(s_near > 0.0, s_near, 1.0), np.inf),
                     wedge) * 1.01 + 1e-9
-    # golden section on a convex φ, one new φ per step
+    return _least(phi, hi, iterations)
+
+
+def _least(phi: Callable[[np.ndarray], np.ndarray], hi: np.ndarray,
+           iterations: int) -> np.ndarray:
+    """The least value of a convex ``phi`` over [0, ``hi``] per point: golden section
+    (one new value per step), and φ(0)."""
     r = (np.sqrt(5.0) - 1.0) / 2.0
-    a, b_ = np.zeros(L.shape), hi
+    a, b_ = np.zeros(hi.shape), hi
     c, e = b_ - r * (b_ - a), a + r * (b_ - a)
     fc, fe = phi(c), phi(e)
     for _ in range(iterations):
@@ -270,7 +276,7 @@ def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: Sequence[Seg
         fx = phi(x)
         c, e = np.where(left, x, e), np.where(left, c, x)
         fc, fe = np.where(left, fx, fe), np.where(left, fc, fx)
-    return np.minimum(np.minimum(fc, fe), phi(np.zeros(L.shape)))
+    return np.minimum(np.minimum(fc, fe), phi(np.zeros(hi.shape)))
 
 
 _EDGE_COVERED = 1e-6
