@@ -392,13 +392,13 @@ def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
                       fall_offset=np.where(np.isfinite(delta), delta, H))
 
 
-def tip_off_rows(d: Drop) -> tuple[np.ndarray, np.ndarray]:
+def tip_off_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The rows of ``d``'s points where a load lands partly on a crushable pad and can
     tip over its edge onto the deck — Δ finite and the drop height H above it
-    (:func:`tip_offsets`) — and their Δ (m); the tip-off case (``Drop.tip_off``) is
-    run there. Δ depends on the plan only: kept with the points (``geo.cache``) for
+    (:func:`tip_offsets`) — their Δ and the pad's thickness (m); the tip-off case
+    (``Drop.tip_off``) is run there. Δ depends on the plan only: kept with the points (``geo.cache``) for
     the trials at other heights."""
-    none = np.zeros(0, dtype=np.int64), np.zeros(0)
+    none = np.zeros(0, dtype=np.int64), np.zeros(0), np.zeros(0)
     if d.bare is not None or d.n == 0 or not any(
             pa.kind == "crushable" and pa.level_id == d.fm.level.id
             for pa in d.project.protection_areas):
@@ -411,7 +411,11 @@ def tip_off_rows(d: Drop) -> tuple[np.ndarray, np.ndarray]:
         return none
     H, _ = _drop_heights(d, np.zeros(d.n))
     rows = np.flatnonzero(np.isfinite(delta) & (H > delta))
-    return rows, delta[rows]
+    sub = replace(d, geo=take_geo(d.geo, rows, steps=False), li=np.asarray(d.li)[rows])
+    on = landing_pads(sub, fl[rows], fw[rows])
+    top = np.array([float(d.project.protection_areas[i].thickness) if i >= 0 else 0.0
+                    for i in on.tolist()])
+    return rows, delta[rows], top
 
 
 _TIP_MEMO: OrderedDict[tuple, dict[tuple[float, ...], float]] = OrderedDict()
@@ -450,8 +454,8 @@ _TIP_LOWER = ("scabbing_height", "perforation_height", "dent_height")
 _TIP_HIGHER = ("penetration", "dent_depth", "residual_velocity")
 
 
-def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray]
-                  ) -> dict[str, np.ndarray]:
+def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray],
+                  top: np.ndarray) -> dict[str, np.ndarray]:
     """The outputs of points whose load lands partly on a crushable pad
     (:func:`tip_off_rows`). Drop point on the pad: the worse of landing on it
     (``on_pad``, its crush credit by area) and tipping over its edge onto the deck
@@ -462,9 +466,15 @@ def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray]
     deck from H): the load cannot land flat on the bare deck, part of its footprint
     meets the pad first, and the tip-off is its case — from H − Δ, continuous with
     the bare deck as the footprint leaves the pad (Δ → 0); its ``protection`` is that
-    pad, so that the permit lays it."""
+    pad, so that the permit lays it. A drop point on the pad needs H ≥ the pad's top
+    ``top`` (m): an allowable height below it (the tip-off's) allows none (NaN)."""
     centre = on_pad["protection"] >= 0
     out = merge_landings(on_pad, tip)
+    for k in ("allowable_drop_height", "allowable_drop_height_plastic"):
+        out[k] = np.where(centre & (out[k] < top), np.nan, out[k])
+    # the larger fall of the two: the datum offset H − h a margin may be taken from is
+    # the smaller one (t on the pad, Δ tipping off)
+    out["fall_height"] = np.fmax(on_pad["fall_height"], tip["fall_height"])
     for k in _TIP_LOWER:
         a, b = on_pad[k], tip[k]
         out[k] = np.where(np.isnan(a) | (b < a), b, a)

@@ -174,7 +174,7 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
         out = merge_landings(out, run("tilted"))
     if keep and mat_k is None:
         geo.cache["steps"] = KeptSteps.of(loads, li, by_landing)
-    rows, delta = chain_mod.tip_off_rows(Drop(fm, project, geo, loads, li, False, H, mat_k))
+    rows, delta, top = chain_mod.tip_off_rows(Drop(fm, project, geo, loads, li, False, H, mat_k))
     if rows.size:
         # a footprint partly on a crushable pad: the worse of landing on it and
         # tipping over its edge onto the deck (chain.tip_offsets)
@@ -192,7 +192,7 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
         tip = run_tip("flat")
         if fm.settings.tilted_landing:
             tip = merge_landings(tip, run_tip("tilted"))
-        merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip)
+        merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip, top)
         for k, v in merged.items():
             out[k] = out[k].copy()
             out[k][rows] = v
