@@ -396,8 +396,8 @@ def tip_off_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The rows of ``d``'s points where a load lands partly on a crushable pad and can
     tip over its edge onto the deck — Δ finite and the drop height H above it
     (:func:`tip_offsets`) — their Δ and the pad's thickness (m); the tip-off case
-    (``Drop.tip_off``) is run there. Δ depends on the plan only: kept with the points (``geo.cache``) for
-    the trials at other heights."""
+    (``Drop.tip_off``) is run there. Δ depends on the plan only: remembered per point
+    (:func:`_remembered_tip_offsets`) for the trials at other heights."""
     none = np.zeros(0, dtype=np.int64), np.zeros(0), np.zeros(0)
     if d.bare is not None or d.n == 0 or not any(
             pa.kind == "crushable" and pa.level_id == d.fm.level.id
