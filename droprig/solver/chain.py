@@ -64,7 +64,7 @@ from typing import TypeVar, cast
 
 import numpy as np
 
-from droprig.model import Level, LiftLoad, ModelError, Project
+from droprig.model import Level, LiftLoad, ModelError, Project, ProtectionArea
 from droprig.solver import amplification as amp_mod
 from droprig.solver import (
     capacity,
@@ -534,10 +534,7 @@ def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
         sel = np.flatnonzero(on == i)
         if sel.size == 0:
             continue
-        layers = [((o.area.x0, o.area.y0, o.area.x1, o.area.y1), pad_crush_stress(d.project, o),
-                   float(o.crush_stroke))  # type: ignore[arg-type]
-                  for o in prot if o.level_id == lv.id and o.kind == "crushable"
-                  and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+        layers = _tip_layers(d, pa)
         x, y = d.geo.x[sel], d.geo.y[sel]
         # both plan orientations in one call
         a = pads.footprint_rect(x, y, fl[sel], fw[sel], True)
@@ -547,6 +544,63 @@ def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
                                        float(pa.thickness), layers)
         out[sel] = np.minimum(out[sel], np.minimum(dl[:sel.size], dl[sel.size:]))
     return out
+
+
+def _tip_layers(d: Drop, pa: ProtectionArea
+                ) -> list[tuple[tuple[float, float, float, float], float, float]]:
+    """The crushable layers a load on pad ``pa`` may tip over (its level's, of its
+    thickness): ((x0, y0, x1, y1) m, crush stress Pa, stroke m) for
+    :func:`droprig.solver.pads.footprint_tip_offset`."""
+    return [((o.area.x0, o.area.y0, o.area.x1, o.area.y1), pad_crush_stress(d.project, o),
+             float(o.crush_stroke))  # type: ignore[arg-type]
+            for o in d.project.protection_areas
+            if o.level_id == d.fm.level.id and o.kind == "crushable"
+            and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+
+
+@dataclass(frozen=True)
+class TipOffTurn:
+    """The tip-off over a pad's edge at one drop point, as the calculation trace shows
+    it: the pad (index into the project's protection areas) and its thickness ``t``
+    (m), the least Δ (m) of :func:`tip_offsets`, the turn θ (rad) at which it is
+    found, the footprint's length ``length`` (m) in the direction it tips
+    (``direction``, :data:`droprig.solver.pads.TIP_DIRECTIONS`) and whether the
+    footprint's length lies along x (``along_x``)."""
+
+    pad: int
+    t: float
+    delta: float
+    theta: float
+    length: float
+    direction: str
+    along_x: bool
+
+
+def tip_off_turn(d: Drop) -> TipOffTurn | None:
+    """:class:`TipOffTurn` of the first point of ``d`` (the trace's one point): the same
+    pad, layers and Δ as :func:`tip_offsets` (the less of the two plan orientations),
+    with the turn and direction it is found at; ``None`` where the load cannot tip
+    over a pad's edge there."""
+    if d.bare is not None or d.n == 0:
+        return None
+    W = d.per_point([ld.weight for ld in d.loads])[:1]
+    fl = d.per_point([ld.footprint_length for ld in d.loads])[:1]
+    fw = d.per_point([ld.footprint_width for ld in d.loads])[:1]
+    sub = replace(d, geo=take_geo(d.geo, np.array([0]), steps=False),
+                  li=np.asarray(d.li)[:1])
+    i = int(landing_pads(sub, fl, fw)[0])
+    if i < 0 or d.project.protection_areas[i].kind != "crushable":
+        return None
+    pa = d.project.protection_areas[i]
+    best: TipOffTurn | None = None
+    for along_x in (True, False):
+        rect = pads.footprint_rect(sub.geo.x, sub.geo.y, fl, fw, along_x)
+        tt = pads.footprint_tip_turn(rect, W, float(pa.thickness), _tip_layers(d, pa))
+        if np.isfinite(tt.delta[0]) and (best is None or tt.delta[0] < best.delta):
+            best = TipOffTurn(i, float(pa.thickness), float(tt.delta[0]),
+                              float(tt.theta[0]), float(tt.length[0]),
+                              pads.TIP_DIRECTIONS[int(tt.direction[0])], along_x)
+    return best
 
 
 def _spent_layer(cl: np.ndarray, cw: np.ndarray, t_mat: np.ndarray, s_c: np.ndarray,

@@ -183,7 +183,7 @@ class _Seg(NamedTuple):
 
 
 def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: Sequence[Segment],
-               iterations: int = 40) -> np.ndarray:
+               iterations: int = 40, turn: bool = False) -> np.ndarray:
     """The height Δ (m) by which a load whose footprint lies partly on a crushable
     layer of thickness ``t`` (m) and tips over the layer's edge onto the deck falls
     less than its drop height H: the kinetic energy it can bring onto the deck with
@@ -213,7 +213,8 @@ def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: Sequence[Seg
     E_kin then meets the deck as the chain's whole mass does — for the edge's point
     m*·v_E² ≤ M·v² + I_G·ω² (Cauchy–Schwarz, m* = M/(1 + M·r²/I_G) of Goldsmith,
     *Impact* 1960 ch. 2 — from memory). No layer under the footprint: Δ = 0 (the bare
-    deck from H). SI units.
+    deck from H). SI units. ``turn``: the turn θ (rad) at which φ is least, in
+    place of Δ (the calculation trace shows it).
     """
     L, W = np.broadcast_arrays(np.asarray(L, float), np.asarray(weight, float))
     if np.any(~(L > 0.0)) or np.any(~(W > 0.0)):
@@ -258,13 +259,14 @@ def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: Sequence[Seg
     wedge = t * np.sqrt(sig_max * np.maximum(b_sum, 1e-12) / (W * L)) + t / L
     hi = np.minimum(np.where(s_near > 0.0, t / np.where(s_near > 0.0, s_near, 1.0), np.inf),
                     wedge) * 1.01 + 1e-9
-    return _least(phi, hi, iterations)
+    delta, theta = _least(phi, hi, iterations)
+    return theta if turn else delta
 
 
 def _least(phi: Callable[[np.ndarray], np.ndarray], hi: np.ndarray,
-           iterations: int) -> np.ndarray:
-    """The least value of a convex ``phi`` over [0, ``hi``] per point: golden section
-    (one new value per step), and φ(0)."""
+           iterations: int) -> tuple[np.ndarray, np.ndarray]:
+    """The least value of a convex ``phi`` over [0, ``hi``] per point and where it
+    lies: golden section (one new value per step), and φ(0)."""
     r = (np.sqrt(5.0) - 1.0) / 2.0
     a, b_ = np.zeros(hi.shape), hi
     c, e = b_ - r * (b_ - a), a + r * (b_ - a)
@@ -276,7 +278,10 @@ def _least(phi: Callable[[np.ndarray], np.ndarray], hi: np.ndarray,
         fx = phi(x)
         c, e = np.where(left, x, e), np.where(left, c, x)
         fc, fe = np.where(left, fx, fe), np.where(left, fc, fx)
-    return np.minimum(np.minimum(fc, fe), phi(np.zeros(hi.shape)))
+    f0 = phi(np.zeros(hi.shape))
+    at = np.where(fc <= fe, c, e)
+    least = np.minimum(fc, fe)
+    return np.minimum(least, f0), np.where(f0 < least, 0.0, at)
 
 
 _EDGE_COVERED = 1e-6
@@ -306,14 +311,70 @@ def footprint_tip_offset(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike]
     counts where the footprint's edge lies over the deck or within 2·t of the layer's
     free edge beyond it. Continuous as the footprint crosses the edge; the bound
     steepens where the spent part under the far end of the footprint takes hold."""
+    shape = np.broadcast_shapes(*(np.shape(v) for v in rect), np.shape(weight))
+    cases = _tip_cases(rect, weight, t, layers, spent)
+    best = np.full(int(np.prod(shape)), np.inf)
+    if cases is not None:
+        at, L, W, segments, _dirs = cases
+        np.minimum.at(best, at, tip_offset(L, W, t, segments))
+    return best.reshape(shape)
+
+
+TIP_DIRECTIONS = ("+x", "−x", "+y", "−y")
+"""The directions a footprint tips in (:func:`footprint_tip_turn`): its edge at the
+larger x, the smaller x, the larger y, the smaller y."""
+
+
+class TipTurn(NamedTuple):
+    """:func:`footprint_tip_turn`'s answer per point: Δ (m), the turn θ (rad) at which
+    φ(θ) is least, the footprint's length L in that direction (m) and the direction
+    (index into :data:`TIP_DIRECTIONS`, −1 none)."""
+
+    delta: np.ndarray
+    theta: np.ndarray
+    length: np.ndarray
+    direction: np.ndarray
+
+
+def footprint_tip_turn(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike],
+                       weight: ArrayLike, t: float,
+                       layers: list[tuple[tuple[float, float, float, float], float, float]],
+                       spent: float = SPENT_LAYER_STRENGTH) -> TipTurn:
+    """:func:`footprint_tip_offset` with the direction the least Δ is found in, the
+    turn θ there and the length tipped over (:class:`TipTurn`): the numbers the
+    calculation trace shows. Same arguments and units; flat arrays."""
+    n = int(np.prod(np.broadcast_shapes(*(np.shape(v) for v in rect), np.shape(weight))))
+    out = TipTurn(np.full(n, np.inf), np.full(n, np.nan), np.full(n, np.nan),
+                  np.full(n, -1, dtype=np.int64))
+    cases = _tip_cases(rect, weight, t, layers, spent)
+    if cases is None:
+        return out
+    at, L, W, segments, dirs = cases
+    d = tip_offset(L, W, t, segments)
+    th = tip_offset(L, W, t, segments, turn=True)
+    for j in np.argsort(-d, kind="stable"):  # the least last: it stays
+        i = at[j]
+        if d[j] <= out.delta[i]:
+            out.delta[i], out.theta[i] = d[j], th[j]
+            out.length[i], out.direction[i] = L[j], dirs[j]
+    return out
+
+
+def _tip_cases(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike], weight: ArrayLike,
+               t: float, layers: list[tuple[tuple[float, float, float, float], float, float]],
+               spent: float) -> tuple[np.ndarray, np.ndarray, np.ndarray, list[Segment],
+                                      np.ndarray] | None:
+    """The tip-off cases of :func:`footprint_tip_offset` in one set of arrays: the
+    point each belongs to, the length L (m) tipped over, the weight (N), the
+    :func:`tip_offset` segments and the direction (index into
+    :data:`TIP_DIRECTIONS`); ``None`` where no direction counts."""
     xs = np.broadcast_arrays(*(np.asarray(v, float) for v in rect), np.asarray(weight, float))
-    shape = xs[0].shape
     x0, y0, x1, y1, W = (np.ravel(v) for v in xs)
-    best = np.full(x0.shape, np.inf)
     # every direction's points in one vectorised call (the per-call cost dominates)
     rows: list[np.ndarray] = []
     lengths: list[np.ndarray] = []
     parts: list[list[tuple[np.ndarray, ...]]] = []
+    dirs: list[np.ndarray] = []
     for axis in ("x", "y"):
         for sign in (1.0, -1.0):
             L, B = (y1 - y0, x1 - x0) if axis == "y" else (x1 - x0, y1 - y0)
@@ -347,8 +408,9 @@ def footprint_tip_offset(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike]
                 rows.append(idx)
                 lengths.append(L[idx])
                 parts.append([tuple(a[idx] for a in sg) for sg in segs])
+                dirs.append(np.full(idx.size, (0 if axis == "x" else 2) + (sign < 0)))
     if not rows:
-        return best.reshape(shape)
+        return None
     cat = np.concatenate
     segments: list[Segment] = [
         (cat([p[k][0] for p in parts]), cat([p[k][1] for p in parts]),
@@ -356,9 +418,7 @@ def footprint_tip_offset(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike]
          cat([p[k][3] for p in parts]), cat([p[k][4] for p in parts]), spent)
         for k in range(len(layers))]
     at = cat(rows)
-    d = tip_offset(cat(lengths), W[at], t, segments)
-    np.minimum.at(best, at, d)
-    return best.reshape(shape)
+    return at, cat(lengths), W[at], segments, cat(dirs)
 
 
 def _abuts(r: tuple[float, float, float, float], own: float, axis: str, sign: float) -> bool:
