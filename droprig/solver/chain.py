@@ -541,9 +541,16 @@ def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
         b = pads.footprint_rect(x, y, fl[sel], fw[sel], False)
         rect = tuple(np.concatenate([u, v]) for u, v in zip(a, b, strict=True))
         dl = pads.footprint_tip_offset(rect, np.concatenate([W[sel], W[sel]]),  # type: ignore[arg-type]
-                                       float(pa.thickness), layers)
+                                       float(pa.thickness), layers, deck=_deck_extent(d))
         out[sel] = np.minimum(out[sel], np.minimum(dl[:sel.size], dl[sel.size:]))
     return out
+
+
+def _deck_extent(d: Drop) -> tuple[float, float, float, float]:
+    """The deck's plan extent (x0, y0, x1, y1; m) of ``d``'s level: a pad's edge on it
+    is no edge a load tips over onto the deck (:func:`pads.footprint_tip_offset`)."""
+    e = d.fm.level.grid.extent
+    return float(e.x0), float(e.y0), float(e.x1), float(e.y1)
 
 
 def _tip_layers(d: Drop, pa: ProtectionArea
@@ -595,7 +602,8 @@ def tip_off_turn(d: Drop) -> TipOffTurn | None:
     best: TipOffTurn | None = None
     for along_x in (True, False):
         rect = pads.footprint_rect(sub.geo.x, sub.geo.y, fl, fw, along_x)
-        tt = pads.footprint_tip_turn(rect, W, float(pa.thickness), _tip_layers(d, pa))
+        tt = pads.footprint_tip_turn(rect, W, float(pa.thickness), _tip_layers(d, pa),
+                                     deck=_deck_extent(d))
         if np.isfinite(tt.delta[0]) and (best is None or tt.delta[0] < best.delta):
             best = TipOffTurn(i, float(pa.thickness), float(tt.delta[0]),
                               float(tt.theta[0]), float(tt.length[0]),

@@ -296,7 +296,8 @@ it, m (two pads laid edge to edge: the shared edge is no edge)."""
 def footprint_tip_offset(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike],
                          weight: ArrayLike, t: float,
                          layers: list[tuple[tuple[float, float, float, float], float, float]],
-                         spent: float = SPENT_LAYER_STRENGTH) -> np.ndarray:
+                         spent: float = SPENT_LAYER_STRENGTH,
+                         deck: tuple[float, float, float, float] | None = None) -> np.ndarray:
     """:func:`tip_offset` of an axis-aligned footprint ``rect`` (x0, y0, x1, y1; m)
     over crushable ``layers`` of one thickness ``t`` (m), each ((x0, y0, x1, y1),
     crush stress Pa, stroke m), for a load of ``weight`` (N): the least Δ (m) over
@@ -310,9 +311,14 @@ def footprint_tip_offset(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike]
     a load's edge near a pad's edge may crush through it to the deck. A direction
     counts where the footprint's edge lies over the deck or within 2·t of the layer's
     free edge beyond it. Continuous as the footprint crosses the edge; the bound
-    steepens where the spent part under the far end of the footprint takes hold."""
+    steepens where the spent part under the far end of the footprint takes hold.
+
+    ``deck`` (x0, y0, x1, y1; m): the deck's plan extent. A layer's edge on the deck's
+    edge is no free edge and the footprint beyond it counts as on the layer: a load
+    tipping over it leaves the floor rather than striking the deck beside the pad (a
+    fall off the floor's edge is not a drop onto its framing; README, limits)."""
     shape = np.broadcast_shapes(*(np.shape(v) for v in rect), np.shape(weight))
-    cases = _tip_cases(rect, weight, t, layers, spent)
+    cases = _tip_cases(rect, weight, t, layers, spent, deck)
     best = np.full(int(np.prod(shape)), np.inf)
     if cases is not None:
         at, L, W, segments, _dirs = cases
@@ -339,14 +345,15 @@ class TipTurn(NamedTuple):
 def footprint_tip_turn(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike],
                        weight: ArrayLike, t: float,
                        layers: list[tuple[tuple[float, float, float, float], float, float]],
-                       spent: float = SPENT_LAYER_STRENGTH) -> TipTurn:
+                       spent: float = SPENT_LAYER_STRENGTH,
+                       deck: tuple[float, float, float, float] | None = None) -> TipTurn:
     """:func:`footprint_tip_offset` with the direction the least Δ is found in, the
     turn θ there and the length tipped over (:class:`TipTurn`): the numbers the
     calculation trace shows. Same arguments and units; flat arrays."""
     n = int(np.prod(np.broadcast_shapes(*(np.shape(v) for v in rect), np.shape(weight))))
     out = TipTurn(np.full(n, np.inf), np.full(n, np.nan), np.full(n, np.nan),
                   np.full(n, -1, dtype=np.int64))
-    cases = _tip_cases(rect, weight, t, layers, spent)
+    cases = _tip_cases(rect, weight, t, layers, spent, deck)
     if cases is None:
         return out
     at, L, W, segments, dirs = cases
@@ -362,12 +369,14 @@ def footprint_tip_turn(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike],
 
 def _tip_cases(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike], weight: ArrayLike,
                t: float, layers: list[tuple[tuple[float, float, float, float], float, float]],
-               spent: float) -> tuple[np.ndarray, np.ndarray, np.ndarray, list[Segment],
-                                      np.ndarray] | None:
+               spent: float, deck: tuple[float, float, float, float] | None = None
+               ) -> tuple[np.ndarray, np.ndarray, np.ndarray, list[Segment],
+                          np.ndarray] | None:
     """The tip-off cases of :func:`footprint_tip_offset` in one set of arrays: the
     point each belongs to, the length L (m) tipped over, the weight (N), the
     :func:`tip_offset` segments and the direction (index into
-    :data:`TIP_DIRECTIONS`); ``None`` where no direction counts."""
+    :data:`TIP_DIRECTIONS`); ``None`` where no direction counts. ``deck``: as
+    :func:`footprint_tip_offset`."""
     xs = np.broadcast_arrays(*(np.asarray(v, float) for v in rect), np.asarray(weight, float))
     x0, y0, x1, y1, W = (np.ravel(v) for v in xs)
     # every direction's points in one vectorised call (the per-call cost dominates)
@@ -392,8 +401,10 @@ def _tip_cases(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike], weight: 
                 s1 = np.clip(np.where(on, (edge - lo) if sign > 0 else (hi - edge), 0.0), 0.0, L)
                 # the layer's own edge on the tipping side, as s (< 0: beyond the footprint)
                 own = (b1 if sign > 0 else b0) if axis == "y" else (a1 if sign > 0 else a0)
-                free = not any(j != k and _abuts(lay[0], own, axis, sign)
-                               for j, lay in enumerate(layers))
+                # a layer's edge on the deck's edge: beyond it is no deck to strike
+                at_deck = deck is not None and _on_deck_edge(deck, own, axis, sign)
+                free = not at_deck and not any(j != k and _abuts(lay[0], own, axis, sign)
+                                               for j, lay in enumerate(layers))
                 s_edge = (edge - own) if sign > 0 else (own - edge)
                 if free:
                     r0 = np.broadcast_to(s_edge + t, x0.shape)
@@ -402,7 +413,13 @@ def _tip_cases(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike], weight: 
                 else:
                     r0 = r1 = np.full(x0.shape, -1e30)  # all of its strength everywhere
                 segs.append((s0, s1, wid, r0, r1))
-                covered = covered + np.where(s0 <= _EDGE_COVERED, wid, 0.0)
+                # the footprint's edge over the layer, or past the deck's edge beyond it
+                covered = covered + np.where((s0 <= _EDGE_COVERED) | (at_deck & on), wid, 0.0)
+            if deck is not None:
+                # the footprint's edge over the deck only: beside the deck nothing is struck
+                p0, p1 = (x0, x1) if axis == "y" else (y0, y1)
+                d0, d1 = (deck[0], deck[2]) if axis == "y" else (deck[1], deck[3])
+                B = np.clip(np.minimum(p1, d1) - np.maximum(p0, d0), 0.0, B)
             idx = np.flatnonzero((covered < B - _EDGE_COVERED) | reach)
             if idx.size:
                 rows.append(idx)
@@ -419,6 +436,14 @@ def _tip_cases(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike], weight: 
         for k in range(len(layers))]
     at = cat(rows)
     return at, cat(lengths), W[at], segments, cat(dirs)
+
+
+def _on_deck_edge(deck: tuple[float, float, float, float], own: float, axis: str,
+                  sign: float) -> bool:
+    """Whether a layer's edge at ``own`` on the ``axis`` in direction ``sign`` lies on
+    (within :data:`_ABUTS`) or past the deck's edge ``deck`` (x0, y0, x1, y1) there."""
+    d0, d1 = (deck[1], deck[3]) if axis == "y" else (deck[0], deck[2])
+    return own >= d1 - _ABUTS if sign > 0 else own <= d0 + _ABUTS
 
 
 def _abuts(r: tuple[float, float, float, float], own: float, axis: str, sign: float) -> bool:

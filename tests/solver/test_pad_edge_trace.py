@@ -51,6 +51,24 @@ def test_turn_at_the_least_bound_hand_check():
     assert math.isinf(float(none.delta[0])) and int(none.direction[0]) == -1
 
 
+def test_a_pad_on_the_deck_edge_is_no_edge_to_tip_onto_the_deck():
+    # plane geometry (common practice, no source): a pad laid to the deck's edge at
+    # y = 0 and a footprint overhanging both — tipping over that edge leaves the floor,
+    # no deck beside the pad is struck there, so no direction counts; with the deck
+    # running on past the pad the same footprint tips onto it; a pad ending 1 m short
+    # of the deck's edge leaves bare deck to strike
+    W, t = 35.8e3, 0.5
+    layer = [((0.0, 0.0, 10.0, 10.0), 15e3, 0.35)]
+    foot = (4.0, -0.1, 6.0, 1.9)
+    assert math.isinf(float(pads.footprint_tip_offset(foot, W, t, layer,
+                                                      deck=(0.0, 0.0, 20.0, 20.0))))
+    assert 0.0 < float(pads.footprint_tip_offset(foot, W, t, layer,
+                                                 deck=(0.0, -5.0, 20.0, 20.0))) < math.inf
+    short = [((0.0, 1.0, 10.0, 10.0), 15e3, 0.35)]
+    assert float(pads.footprint_tip_offset((4.0, 0.9, 6.0, 2.9), W, t, short,
+                                           deck=(0.0, 0.0, 20.0, 20.0))) < math.inf
+
+
 @pytest.fixture(scope="module")
 def rooftop():
     p = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
@@ -122,18 +140,19 @@ def test_verify_point_names_the_tip_off_it_verifies(rooftop):
     assert "H − Δ" in words and "not in the time history" in words
 
 
-def test_trace_is_the_floor_where_landing_on_the_pad_governs(rooftop):
-    # consistency (common practice, no source): the new unit at (1.6833, 1.8250) m lies
-    # on MAT2 within reach of its free edge at y = 0; landing on the pad is the worse
-    # case there (U 0.71 against 0.64 tipping off, found by a scan of the pads)
-    p, _r = rooftop
+def test_trace_is_the_floor_where_landing_on_the_pad_governs():
+    # consistency (common practice, no source): the steel demo's 12 ft spreader bar at
+    # (20.3224, 11.2673) m lies on PAD1 within reach of its free edge at y = 8.8392 m;
+    # landing on the pad is the worse case there (U 0.74 against 0.69 tipping off,
+    # found by a scan of the pads)
+    p = load_project(ROOT / "demo_projects" / "steel_erection_floor.droprig")
     z = p.lift_zones[0]
     from droprig.solver import analysis, evaluate
 
-    x, y = 1.6833333333333331, 1.8250000000000002
+    x, y = 20.322433333333333, 11.267333333333333
     fm = analysis.build_floor(p.level(z.level_id), p.settings)
     geo = analysis.point_geometry(fm, p, np.array([x]), np.array([y]))
-    load = next(ld for ld in z.loads if ld.name == "AHU-3 (new)")
+    load = next(ld for ld in z.loads if ld.name == "Spreader bar 12 ft")
     floor = evaluate.evaluate_case(fm, p, load, geo)
     tr = trace_point(p, z.id, load.name, x, y)
     assert tr.pad_edge == "on_pad"
