@@ -334,14 +334,10 @@ def _two(sheet: _Sheet) -> bool:
     return two is not None and bool(two[0])
 
 
-def _impact_steps(sheet: _Sheet) -> None:
-    """Energy balance of the impact: η, h, K, F, deflections."""
-    add, inp, comp, sm = sheet.add, sheet.inp, sheet.comp, sheet.sm
-    imp, load = sheet.imp, sheet.load
-    M = load.mass
-    add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",
-        {"M": (M, "mass"), "m_e": (sm.m_e[0], "mass")}, sm.eta[0],
-        "dimensionless", _SRC_ETA)
+def _fall_step(sheet: _Sheet) -> None:
+    """The free fall onto the struck surface: H less the pad or mat, or in the tip-off
+    case H − Δ onto the bare deck (``LoadInputs.fall_offset``)."""
+    add, inp = sheet.add, sheet.inp
     if inp.fall_offset is not None:
         add("Fall onto the bare deck beside the pad's edge: the energy the tip-off can "
             "bring onto the deck, as a fall", "h", "h = H − Δ",
@@ -352,6 +348,17 @@ def _impact_steps(sheet: _Sheet) -> None:
             "less the pad or mat thickness)", "h", "h = H − t_mat",
             {"H": (inp.H[0], "length"), "t_mat": (inp.t_mat[0], "length")}, inp.h[0],
             "length", "load data (droprig.solver.chain.planned_height)")
+
+
+def _impact_steps(sheet: _Sheet) -> None:
+    """Energy balance of the impact: η, h, K, F, deflections."""
+    add, inp, comp, sm = sheet.add, sheet.inp, sheet.comp, sheet.sm
+    imp, load = sheet.imp, sheet.load
+    M = load.mass
+    add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",
+        {"M": (M, "mass"), "m_e": (sm.m_e[0], "mass")}, sm.eta[0],
+        "dimensionless", _SRC_ETA)
+    _fall_step(sheet)
     W = load.weight
     v_h = sheet.chain.drop.v_hoist
     h_e = float(energy_fall(sheet.chain, inp.h[:1])[0])
