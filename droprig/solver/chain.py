@@ -425,6 +425,36 @@ level, up to this many points: the confirmation tries the same points at other
 heights, and Δ depends on the plan only."""
 
 
+def _may_tip(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
+    """Per point, whether :func:`tip_offsets` may be finite there — the points it need
+    not be worked out at are left out, the answer unchanged: a footprint (either plan
+    orientation: a square of half-side max(fl, fw)/2, m) that meets no crushable pad
+    of the level has no pad to tip over (∞); one that lies with a margin of twice the
+    thickest pad's thickness inside one pad and meets no other has every edge on the
+    pad and no free edge within reach (∞, :func:`pads.footprint_tip_offset`)."""
+    lv = d.fm.level
+    pads_ = [pa for pa in d.project.protection_areas
+             if pa.level_id == lv.id and pa.kind == "crushable"]
+    x, y = d.geo.x, d.geo.y
+    r = 0.5 * np.maximum(fl, fw)
+    m = r + 2.0 * max(float(pa.thickness) for pa in pads_) + _ABUTS_TIP
+    meets = np.zeros(d.n, dtype=np.int64)
+    inside = np.zeros(d.n, dtype=bool)
+    for pa in pads_:
+        a = pa.area
+        meets += ((x + m > a.x0) & (x - m < a.x1) & (y + m > a.y0) & (y - m < a.y1))
+        inside |= (x - m >= a.x0) & (x + m <= a.x1) & (y - m >= a.y0) & (y + m <= a.y1)
+    on_a_pad = np.zeros(d.n, dtype=bool)
+    for pa in pads_:
+        a = pa.area
+        on_a_pad |= (x + r > a.x0) & (x - r < a.x1) & (y + r > a.y0) & (y - r < a.y1)
+    return on_a_pad & ~(inside & (meets == 1))
+
+
+_ABUTS_TIP = 1e-3
+"""Slack on :func:`_may_tip`'s margins, m (the rounding of plan coordinates)."""
+
+
 def _remembered_tip_offsets(d: Drop, W: np.ndarray, fl: np.ndarray,
                             fw: np.ndarray) -> np.ndarray:
     """:func:`tip_offsets` of ``d``'s points, each point worked out once
@@ -432,17 +462,20 @@ def _remembered_tip_offsets(d: Drop, W: np.ndarray, fl: np.ndarray,
     key = (d.project.protection_areas, d.fm.level.id)
     memo = _TIP_MEMO.setdefault(key, {})
     _TIP_MEMO.move_to_end(key)
-    pts = list(zip(d.geo.x.tolist(), d.geo.y.tolist(), W.tolist(), fl.tolist(), fw.tolist(),
-                   strict=True))
-    out = np.array([memo.get(p, np.nan) for p in pts], dtype=float)
-    new = np.flatnonzero(np.isnan(out))
+    out = np.full(d.n, np.inf)
+    at = np.flatnonzero(_may_tip(d, fl, fw))
+    pts = list(zip(d.geo.x[at].tolist(), d.geo.y[at].tolist(), W[at].tolist(),
+                   fl[at].tolist(), fw[at].tolist(), strict=True))
+    out[at] = np.array([memo.get(p, np.nan) for p in pts], dtype=float)
+    new = at[np.isnan(out[at])]
+    keys = dict(zip(at.tolist(), pts, strict=True))
     if new.size:
         sub = replace(d, geo=take_geo(d.geo, new, steps=False),
                       li=np.asarray(d.li)[new])
         got = tip_offsets(sub, fl[new], fw[new], landing_pads(sub, fl[new], fw[new]), W[new])
         out[new] = got
         for i, v in zip(new.tolist(), got.tolist(), strict=True):
-            memo[pts[i]] = v
+            memo[keys[i]] = v
         while sum(len(m) for m in _TIP_MEMO.values()) > _TIP_MEMO_POINTS and len(_TIP_MEMO) > 1:
             _TIP_MEMO.popitem(last=False)
         if len(memo) > _TIP_MEMO_POINTS:
