@@ -76,9 +76,15 @@ def _check_project(project: Project) -> int:
             # 0.99 × the allowable fall; heights are stated above the finished surface,
             # so a pad's thickness t is added back: t + 0.99·(h_allow − t) (issue 13)
             t = case.drop_height - case.fall_height
-            loads = [replace(load, drop_height=min(
-                float(t[i]) + SLACK * (float(h_a[i]) - float(t[i])), 200.0)) for i in idx]
             geo = analysis.point_geometry(fm, project, case.x[idx], case.y[idx])
+            # a drop point on a pad is planned no lower than the pad's top (the model
+            # refuses less): where the tip-off over its edge sets the datum offset
+            # (Δ < the pad's thickness) the slack may not take the height below it
+            top = np.array([project.protection_areas[j].thickness if j >= 0 else 0.0
+                            for j in np.asarray(geo.protection).tolist()])
+            loads = [replace(load, drop_height=min(max(
+                float(t[i]) + SLACK * (float(h_a[i]) - float(t[i])), float(top[k])), 200.0))
+                for k, i in enumerate(idx)]
             r = evaluate.evaluate_case(fm, project, loads, geo, np.arange(idx.size))
             good = ok(r)
             bad = idx[~good]
