@@ -66,7 +66,10 @@ def pad_edge_words(pv: Any, system: str) -> str:
     return (f"{pv.zone_id}, {pv.load_name}, bay {pv.bay_id or '—'}: the tip-off over a "
             "pad's edge governs this point; verified is its deck contact as a landing on "
             "the bare deck from the energy bound's height h = H − Δ = "
-            f"{fmt(pv.fall, 'length', system)} (Δ = {fmt(pv.tip_delta, 'length', system)}). "
+            f"{fmt(pv.fall, 'length', system)} ("
+            + (f"Δ = {fmt(pv.tip_delta, 'length', system)}" if pv.tip_delta >= 1e-3 else
+               "Δ under 1 mm: the footprint barely reaches the pad, a fall onto the bare deck")
+            + "). "
             "The tipping motion itself (the turn about the pad's edge, the pad crushing "
             "under it) is not in the time history: the bound stands for it.")
 
