@@ -317,7 +317,12 @@ def test_drop_height_is_above_the_finished_surface_on_a_pad():
     on_pad = case.protection >= 0
     assert on_pad.any() and (~on_pad).any()
     assert np.allclose(case.drop_height, 0.8, rtol=1e-12)  # 24.9 − 5.5 − 18.6
-    assert np.allclose(case.fall_height[on_pad], 0.3, rtol=1e-12)
+    # on the pad the fall is 0.3 m, or where the load may tip over the pad's edge onto
+    # the deck the larger fall H − Δ of that case (Δ < t: above 0.3 m, at most 0.8 m
+    # where a point just off the pad takes the pad with Δ → 0)
+    fall = case.fall_height[on_pad]
+    plain = np.isclose(fall, 0.3, rtol=1e-12)
+    assert plain.any() and np.all(plain | ((fall > 0.3) & (fall <= 0.8 + 1e-12)))
     assert np.allclose(case.fall_height[~on_pad], 0.8, rtol=1e-12)
     ok = on_pad & np.isfinite(case.allowable_drop_height)
     assert np.all(case.allowable_drop_height[ok] >= 0.5)
@@ -521,9 +526,13 @@ def test_rooftop_demo_keeps_the_units_off_the_roof():
     # rest of the fall meets the framing by the two-mass stage (chain.after_bottoming:
     # 0.73 MN at a 50 mm fall against 0.67 MN allowed, tests/solver/
     # test_after_bottoming.py): no height at all
+    # Since the tip-off at a pad's edge (issue 10): at (15.0, 4.5) the unit's footprint
+    # lies across MAT1's free edge x = 15.3 and tipping over it onto the bare deck
+    # takes the framing beyond its ductility (U 2.26): debris may reach the level
+    # below, so it is kept clear too (droprig.permit._THROUGH)
     bv = pc.bay("MC1", "AHU-3 (new)", "2-3/A-B")
     assert bv.allowable_drop_height is None
-    assert [c.kind for c in bv.conditions] == ["exclude_area"]
+    assert [c.kind for c in bv.conditions] == ["exclude_area", "exclude_level_below"]
 
 
 def test_sentences_print_limits_rounded_down():
