@@ -214,9 +214,10 @@ class Drop:
 
     ``tip_off``: the Δ per point (m) of the second case of a footprint partly on a
     crushable pad — the load tips over the pad's edge and strikes the bare deck beside
-    it with at most the energy of a fall H − Δ (:func:`tip_offsets`); the points must
-    be ones where H > Δ (:func:`tip_off_rows`; :func:`droprig.solver.evaluate` runs it
-    there and keeps the worse case). ``None``: the ordinary run."""
+    it with at most the energy of a fall H − Δ (:func:`tip_offsets`); where H ≤ Δ
+    the fall onto the deck is 0 and the run gives the case's inverse answers only
+    (:func:`tip_off_case_rows`; :func:`droprig.solver.evaluate` runs it there and
+    keeps the worse case, :func:`merge_tip_off`). ``None``: the ordinary run."""
 
     fm: FloorModel
     project: Project
@@ -394,11 +395,25 @@ def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
 
 def tip_off_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The rows of ``d``'s points where a load lands partly on a crushable pad and can
-    tip over its edge onto the deck — Δ finite and the drop height H above it
-    (:func:`tip_offsets`) — their Δ and the pad's thickness (m); the tip-off case
-    (``Drop.tip_off``) is run there. Δ depends on the plan only: remembered per point
+    tip over its edge onto the deck at its drop height — Δ finite and the drop height
+    H above it (:func:`tip_offsets`) — their Δ and the pad's thickness (m)
+    (:func:`tip_off_case_rows` where H > Δ)."""
+    rows, delta, top, reach = tip_off_case_rows(d)
+    return rows[reach], delta[reach], top[reach]
+
+
+def tip_off_case_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """The rows of ``d``'s points where a load lands partly on a crushable pad and may
+    tip over its edge onto the deck at some height — Δ finite (:func:`tip_offsets`) —
+    their Δ and the pad's thickness (m), and ``reach``: whether the drop height H is
+    above Δ (the load then reaches the deck by tipping at H). The tip-off case
+    (``Drop.tip_off``) is run at every one of them: where H ≤ Δ its response does not
+    arise at H, but its allowable heights (≥ Δ) do at the heights they offer, so the
+    heights the point offers are the lower of the two cases' whatever the planned
+    height (:func:`merge_tip_off`). Δ depends on the plan only: remembered per point
     (:func:`_remembered_tip_offsets`) for the trials at other heights."""
-    none = np.zeros(0, dtype=np.int64), np.zeros(0), np.zeros(0)
+    none = (np.zeros(0, dtype=np.int64), np.zeros(0), np.zeros(0),
+            np.zeros(0, dtype=bool))
     if d.bare is not None or d.n == 0 or not any(
             pa.kind == "crushable" and pa.level_id == d.fm.level.id
             for pa in d.project.protection_areas):
@@ -410,12 +425,12 @@ def tip_off_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     if not np.isfinite(delta).any():
         return none
     H, _ = _drop_heights(d, np.zeros(d.n))
-    rows = np.flatnonzero(np.isfinite(delta) & (H > delta))
+    rows = np.flatnonzero(np.isfinite(delta))
     sub = replace(d, geo=take_geo(d.geo, rows, steps=False), li=np.asarray(d.li)[rows])
     on = landing_pads(sub, fl[rows], fw[rows])
     top = np.array([float(d.project.protection_areas[i].thickness) if i >= 0 else 0.0
                     for i in on.tolist()])
-    return rows, delta[rows], top
+    return rows, delta[rows], top, H[rows] > delta[rows]
 
 
 _TIP_MEMO: OrderedDict[tuple, dict[tuple[float, ...], float]] = OrderedDict()
@@ -488,7 +503,8 @@ _TIP_HIGHER = ("penetration", "dent_depth", "residual_velocity")
 
 
 def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray],
-                  top: np.ndarray) -> dict[str, np.ndarray]:
+                  top: np.ndarray, reach: np.ndarray | None = None
+                  ) -> dict[str, np.ndarray]:
     """The outputs of points whose load lands partly on a crushable pad
     (:func:`tip_off_rows`). Drop point on the pad: the worse of landing on it
     (``on_pad``, its crush credit by area) and tipping over its edge onto the deck
@@ -500,11 +516,20 @@ def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray],
     meets the pad first, and the tip-off is its case — from H − Δ, continuous with
     the bare deck as the footprint leaves the pad (Δ → 0); its ``protection`` is that
     pad, so that the permit lays it. A drop point on the pad needs H ≥ the pad's top
-    ``top`` (m): an allowable height below it (the tip-off's) allows none (NaN)."""
+    ``top`` (m): an allowable height below it (the tip-off's) allows none (NaN).
+    ``reach`` (bool per point, :func:`tip_off_case_rows`; ``None``: everywhere):
+    where False the drop height H is at most Δ, the load does not reach the deck by
+    tipping at H and the point keeps ``on_pad``'s outputs but for its allowable
+    heights, the lower of the two cases' (the tip-off's hold at and above Δ; an
+    allowable height taken from the planned height's case alone was not the one the
+    point has at that height: rooftop spreader beam on 90 kN pads at (6.0, 7.5) m,
+    3.961 m offered at a planned 1.0 m < Δ 1.073 m, the tip-off's U 1.0125 there)."""
     centre = on_pad["protection"] >= 0
     out = merge_landings(on_pad, tip)
     for k in ("allowable_drop_height", "allowable_drop_height_plastic"):
         out[k] = np.where(centre & (out[k] < top), np.nan, out[k])
+    # the allowable heights every row keeps
+    heights = {k: out[k] for k in (*_BY_HEIGHT, *_BY_PLASTIC_HEIGHT) if k in out}
     # the larger fall of the two: the datum offset H − h a margin may be taken from is
     # the smaller one (t on the pad, Δ tipping off)
     out["fall_height"] = np.fmax(on_pad["fall_height"], tip["fall_height"])
@@ -514,7 +539,11 @@ def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray],
     for k in _TIP_HIGHER:
         out[k] = np.fmax(on_pad[k], tip[k])
     out["scabbing"] = on_pad["scabbing"] | tip["scabbing"]
-    return {k: np.where(centre, v, tip[k]) if k in tip else v for k, v in out.items()}
+    out = {k: np.where(centre, v, tip[k]) if k in tip else v for k, v in out.items()}
+    if reach is None or bool(np.all(reach)):
+        return out
+    return {k: np.where(reach, v, heights[k] if k in heights else on_pad[k])
+            for k, v in out.items()}
 
 
 def landing_pads(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:

@@ -188,16 +188,22 @@ def governing_point(fm: FloorModel, project: Project, load: LiftLoad, geo: Geome
     crushable pad (:func:`~droprig.solver.chain.tip_off_rows`) the worse of landing on
     it and tipping over its edge onto the deck (the response, then the utilisation,
     :func:`~droprig.solver.chain.tilted_governs`), the tip-off alone with the drop
-    point off the pad. The calculation trace and the time-history verification read
-    the same one."""
+    point off the pad; where the drop height is at most the tip-off's Δ
+    (:func:`~droprig.solver.chain.tip_off_case_rows`) the ordinary case, with the
+    allowable heights of both in ``merged``. The calculation trace and the
+    time-history verification read the same one."""
     landing, chain, out = _landing_cases(fm, project, load, geo, v_hoist, None)
-    rows, delta, top = chain_mod.tip_off_rows(
+    rows, delta, top, reach = chain_mod.tip_off_case_rows(
         Drop(fm, project, geo, (load,), np.zeros(1, dtype=np.int64), False,
              v_hoist=v_hoist))
     if rows.size == 0:
         return GoverningPoint(landing, chain, None, False, False, {}, out)
     t_landing, t_chain, tip = _landing_cases(fm, project, load, geo, v_hoist, delta)
-    merged = chain_mod.merge_tip_off(out, tip, top)
+    merged = chain_mod.merge_tip_off(out, tip, top, reach)
+    if not bool(reach[0]):
+        # the drop height at most Δ: the load does not reach the deck by tipping; the
+        # point's case is the ordinary one, its allowable heights the lower of the two
+        return GoverningPoint(landing, chain, None, False, False, {}, merged)
     on_pad = bool(out["protection"][0] >= 0)
     governs = not on_pad or bool(tilted_governs(out, tip)[0])
     turn = chain_mod.tip_off_turn(t_chain.drop)
@@ -239,10 +245,12 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
         out = merge_landings(out, run("tilted"))
     if keep and mat_k is None:
         geo.cache["steps"] = KeptSteps.of(loads, li, by_landing)
-    rows, delta, top = chain_mod.tip_off_rows(Drop(fm, project, geo, loads, li, False, H, mat_k))
+    rows, delta, top, reach = chain_mod.tip_off_case_rows(
+        Drop(fm, project, geo, loads, li, False, H, mat_k))
     if rows.size:
         # a footprint partly on a crushable pad: the worse of landing on it and
-        # tipping over its edge onto the deck (chain.tip_offsets)
+        # tipping over its edge onto the deck (chain.tip_offsets); where the drop
+        # height is at most Δ the tip-off's allowable heights only
         sub = take_geo(geo, rows, steps=False)
 
         def pick(a: np.ndarray | None) -> np.ndarray | None:
@@ -257,7 +265,8 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
         tip = run_tip("flat")
         if fm.settings.tilted_landing:
             tip = merge_landings(tip, run_tip("tilted"))
-        merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip, top)
+        merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip, top,
+                                         reach)
         for k, v in merged.items():
             out[k] = out[k].copy()
             out[k][rows] = v
