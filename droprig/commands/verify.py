@@ -246,7 +246,9 @@ def _run_project(args: argparse.Namespace) -> int:
     if args.json:
         doc = [{"zone": r.zone_id, "load": r.load_name, "bay": r.bay_id, "x": r.x, "y": r.y,
                 "member": r.member_id, "support": r.cond, "span": r.L, "at": r.a,
-                "chain_peak_force": r.chain_peak_force, **_as_json(r.verification, [])}
+                "chain_peak_force": r.chain_peak_force, "pad_edge": r.pad_edge or None,
+                "fall": r.fall, "tip_delta": r.tip_delta if r.pad_edge == "tip_off" else None,
+                **_as_json(r.verification, [])}
                for r in rows]
         print(json.dumps({"points": doc, "plots": plots, "skipped": len(bays) - len(rows),
                           "slab_mass": slab, "caution": CAUTION},
@@ -277,9 +279,10 @@ def _run_project(args: argparse.Namespace) -> int:
         lines.append(f"  {r.zone_id:<6}{r.bay_id:<10}{r.load_name[:21]:<22}"
                      f"{r.member_id:<10}{v.mass_ratio:>10.3g}{v.compliance_ratio:>9.3g}"
                      f"   {txt}   {txt2}")
-    from droprig.report.verification import skipped_words
+    from droprig.report.verification import pad_edge_words, skipped_words
 
     lines += [f"  {line}" for line in skipped_words(skipped_bays)]
+    lines += [f"  {w}" for w in (pad_edge_words(r, system) for r in rows) if w]
     lines.append("")
     if project.settings.dynamic_amplification:
         used = ("The verdict uses the amplified demands (dynamic amplification is on in "

@@ -105,6 +105,8 @@ class VerifyDialog(QDialog):
         super().__init__(parent)
         from matplotlib.backends.backend_qtagg import FigureCanvasQTAgg
 
+        from droprig.report.verification import pad_edge_words
+
         self.setWindowTitle("Time-history verification")
         self.verification = pv
         v = pv.verification
@@ -144,7 +146,8 @@ class VerifyDialog(QDialog):
                ". Dynamic amplification is off in this project's settings: the verdict "
                "uses the energy method, and a ratio 'verdict ÷ history' below 1 means the "
                "time history reads higher than the verdict here — for the engineer to "
-               "review, or switch amplification on."))
+               "review, or switch amplification on.")
+            + (" " + pad_edge_words(pv, system) if pv.pad_edge == "tip_off" else ""))
         notes.setWordWrap(True)
         self.caution = _plain(CAUTION)
         self.caution.setWordWrap(True)

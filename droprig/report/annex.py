@@ -1531,9 +1531,18 @@ class _Builder:
                  f"{self.v(load.footprint_width, 'length')}"]
         if c is not None and i is not None:
             prot = int(c.protection[i])
-            parts.append("struck surface: bare deck" if prot < 0 else
-                         f"struck surface: pad {self.p.protection_areas[prot].id} "
-                         f"({pad_spec(self.p.protection_areas[prot], self.sys, self.p)})")
+            if prot >= 0 and doc.trace.pad_edge == "tip_off":
+                # the tip-off governs: the deck beside the pad is struck (trace_point)
+                pa = self.p.protection_areas[prot]
+                parts.append(f"struck surface: bare deck beside the edge of pad {pa.id} "
+                             f"({pad_spec(pa, self.sys, self.p)}), the load tipping over "
+                             "that edge (the tip-off governs; steps below)")
+            else:
+                parts.append("struck surface: bare deck" if prot < 0 else
+                             f"struck surface: pad {self.p.protection_areas[prot].id} "
+                             f"({pad_spec(self.p.protection_areas[prot], self.sys, self.p)})"
+                             + ("; the tip-off over its edge checked too, landing on the "
+                                "pad governs" if doc.trace.pad_edge == "on_pad" else ""))
             gm = int(c.governing_member[i])
             if gm != DECK and 0 <= gm < len(level.members):
                 m = level.members[gm]
@@ -1592,10 +1601,13 @@ class _Builder:
 
     # ------------------------------------------------------------ B2 verification
     def verification(self, rows: Sequence[Sequence[str]],
-                     skipped: list[tuple[object, str]] | None = None) -> None:
+                     skipped: list[tuple[object, str]] | None = None,
+                     notes: Sequence[str] = ()) -> None:
         """The time history beside the energy method and the verdict at each bay's
         governing point (:mod:`droprig.report.verification`); the bays whose
-        governing point could not be verified are named, with why."""
+        governing point could not be verified are named, with why, and ``notes`` say
+        what is verified where the tip-off over a pad's edge governs
+        (:func:`droprig.report.verification.pad_edge_words`)."""
         from droprig.report.verification import (
             VERIFICATION_NOTE,
             VERIFICATION_OFF,
@@ -1606,7 +1618,7 @@ class _Builder:
         self.story.append(self.P(esc(VERIFICATION_NOTE), self.st.small))
         if not self.p.settings.dynamic_amplification:
             self.story.append(self.P(f"<b>{esc(VERIFICATION_OFF)}</b>", self.st.small))
-        for line in skipped_words(list(skipped or [])):
+        for line in [*skipped_words(list(skipped or [])), *notes]:
             self.story.append(self.P(esc(line), self.st.small))
         if not rows:
             self.story.append(self.P("No governing point could be verified (points on a "
@@ -1988,9 +2000,11 @@ def write_annex(project: Project, results: Results, path: str | os.PathLike[str]
 
     vrows: list[tuple[str, ...]] = []
     vskipped: list[tuple[object, str]] = []
+    vnotes: list[str] = []
     for z in zones:
-        vrows += verification_rows(project, results, zone_id=z.id, skipped=vskipped)
-    b.verification(vrows, vskipped)
+        vrows += verification_rows(project, results, zone_id=z.id, skipped=vskipped,
+                                   notes=vnotes)
+    b.verification(vrows, vskipped, vnotes)
     b.references_page()
     b.revisions()
 

@@ -15,7 +15,8 @@ from typing import Any
 
 from droprig.units import fmt
 
-__all__ = ["VERIFICATION_HEADER", "VERIFICATION_NOTE", "VERIFICATION_OFF", "verification_rows"]
+__all__ = ["VERIFICATION_HEADER", "VERIFICATION_NOTE", "VERIFICATION_OFF", "pad_edge_words",
+           "verification_rows"]
 
 VERIFICATION_HEADER: tuple[str, ...] = (
     "zone", "bay", "load", "member", "r = M/mₑ", "κ = f_c/f_s",
@@ -54,19 +55,42 @@ VERIFICATION_OFF = (
 """Said beside the table when the project's checks use the energy method alone."""
 
 
+def pad_edge_words(pv: Any, system: str) -> str:
+    """What the verification of a point at a crushable pad's edge verifies, in words
+    ("" elsewhere): where the tip-off over the pad's edge governs
+    (``PointVerification.pad_edge``), the deck contact as a landing on the bare deck
+    from the energy bound's height H − Δ; the tipping motion itself is not in the
+    time history."""
+    if pv.pad_edge != "tip_off":
+        return ""
+    return (f"{pv.zone_id}, {pv.load_name}, bay {pv.bay_id or '—'}: the tip-off over a "
+            "pad's edge governs this point; verified is its deck contact as a landing on "
+            "the bare deck from the energy bound's height h = H − Δ = "
+            f"{fmt(pv.fall, 'length', system)} ("
+            + (f"Δ = {fmt(pv.tip_delta, 'length', system)}" if pv.tip_delta >= 1e-3 else
+               "Δ under 1 mm: the footprint barely reaches the pad, a fall onto the bare deck")
+            + "). "
+            "The tipping motion itself (the turn about the pad's edge, the pad crushing "
+            "under it) is not in the time history: the bound stands for it.")
+
+
 def verification_rows(project: Any, results: Any, *, zone_id: str | None = None,
                       skipped: list[tuple[Any, str]] | None = None,
-                      ) -> list[tuple[str, ...]]:
+                      notes: list[str] | None = None) -> list[tuple[str, ...]]:
     """One row of text per verified bay summary, in :data:`VERIFICATION_HEADER` order;
     bays whose governing point cannot be verified (over a support of the modelled
     member, off a deck panel) are left out and appended to ``skipped`` (bay summary,
-    why; :func:`droprig.solver.verification_table`). ``zone_id`` keeps one lift zone."""
+    why; :func:`droprig.solver.verification_table`). ``zone_id`` keeps one lift zone;
+    ``notes`` (when given) gets :func:`pad_edge_words` of each row that has them."""
     from droprig.solver import verification_table
 
     system = project.settings.unit_system
     rows: list[tuple[str, ...]] = []
     for pv in verification_table(project, results, zone_id=zone_id, skipped=skipped):
         v = pv.verification
+        words = pad_edge_words(pv, system)
+        if words and notes is not None:
+            notes.append(words)
 
         def ratio(key: str, v: Any = v) -> str:
             r = v.ratio(key)

@@ -57,13 +57,14 @@ replace it for the steps after it (e.g. a refined :class:`Compliance`).
 
 from __future__ import annotations
 
+from collections import OrderedDict
 from collections.abc import Callable, Mapping
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import TypeVar, cast
 
 import numpy as np
 
-from droprig.model import Level, LiftLoad, ModelError, Project
+from droprig.model import Level, LiftLoad, ModelError, Project, ProtectionArea
 from droprig.solver import amplification as amp_mod
 from droprig.solver import (
     capacity,
@@ -84,7 +85,7 @@ from droprig.solver import impact as impact_mod
 from droprig.solver import local_damage as local_damage_mod
 from droprig.solver import struck_mass as struck_mass_mod
 from droprig.solver.floor import FloorModel
-from droprig.solver.geometry import Geometry
+from droprig.solver.geometry import Geometry, take_geo
 from droprig.solver.linear_checks import Check, Family, small_check
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PERFORATES, PLASTIC
@@ -209,7 +210,14 @@ class Drop:
     costliest of :func:`inverse_answers` — are not worked out: NaN (``hp_check`` −1),
     never a number that could pass for a limit. Every forward step, the elastic
     allowable height (the refinement places its points by it), the required mat and
-    the check that sets the height are as in a full run."""
+    the check that sets the height are as in a full run.
+
+    ``tip_off``: the Δ per point (m) of the second case of a footprint partly on a
+    crushable pad — the load tips over the pad's edge and strikes the bare deck beside
+    it with at most the energy of a fall H − Δ (:func:`tip_offsets`); where H ≤ Δ
+    the fall onto the deck is 0 and the run gives the case's inverse answers only
+    (:func:`tip_off_case_rows`; :func:`droprig.solver.evaluate` runs it there and
+    keeps the worse case, :func:`merge_tip_off`). ``None``: the ordinary run."""
 
     fm: FloorModel
     project: Project
@@ -224,6 +232,7 @@ class Drop:
     landing: str = "flat"
     trial: bool = False
     outcomes_only: bool = False
+    tip_off: np.ndarray | None = None
 
     @property
     def n(self) -> int:
@@ -279,7 +288,11 @@ class LoadInputs:
     0 elsewhere). ``base_l`` × ``base_w`` (m): the contact spread through the layer
     as ``foot_l`` × ``foot_w`` but not cut at the deck's edges — the extent of the
     load's base over the framing, which rests on an edge member it overhangs
-    (:func:`compliance`; ``None`` where the drop has no deck)."""
+    (:func:`compliance`; ``None`` where the drop has no deck).
+    ``pad``: the protection area the load lands on (index into the
+    project's, −1 none; a crushable pad under any part of the footprint,
+    :func:`landing_pads`); ``fall_offset``: in the tip-off run (``Drop.tip_off``) the
+    Δ of :func:`tip_offsets` (then h = H − Δ onto the bare deck), else ``None``."""
 
     W: np.ndarray
     M: np.ndarray
@@ -300,6 +313,14 @@ class LoadInputs:
     f_layer: np.ndarray
     base_l: np.ndarray | None = None
     base_w: np.ndarray | None = None
+    pad: np.ndarray | None = None
+    fall_offset: np.ndarray | None = None
+
+    @property
+    def datum_offset(self) -> np.ndarray:
+        """H − h before any clamping, m: the pad's or mat's thickness (the allowable
+        falls plus this are heights on the datum), the tip-off's Δ in its run."""
+        return self.t_mat if self.fall_offset is None else self.fall_offset
 
 
 def load_inputs(c: Chain) -> LoadInputs:
@@ -320,11 +341,15 @@ def load_inputs(c: Chain) -> LoadInputs:
     f_load = d.per_point([0.0 if ld.contact_stiffness is None else 1.0 / ld.contact_stiffness
                           for ld in loads])
     cl, cw = _contact_sides(d, fl, fw)
-    t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw)
+    if d.tip_off is not None:
+        return _tip_off_inputs(d, W, M, fl, fw, f_load, cl, cw, landing_pads(d, fl, fw),
+                               np.asarray(d.tip_off, float))
+    on = np.asarray(geo.protection)
+    t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw, on)
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
     # is that less its thickness
-    protected = geo.protection >= 0
+    protected = on >= 0
     if d.mat_k is not None:
         # a trial mat on the finished surface under the whole footprint (confirm.py)
         trial = np.isfinite(d.mat_k) & (d.mat_k > 0.0)
@@ -338,6 +363,314 @@ def load_inputs(c: Chain) -> LoadInputs:
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
                       foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer,
                       base_l=cl + 2.0 * t_spread, base_w=cw + 2.0 * t_spread)
+
+
+def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
+                    fw: np.ndarray, f_load: np.ndarray, cl: np.ndarray, cw: np.ndarray,
+                    on: np.ndarray, delta: np.ndarray) -> LoadInputs:
+    """:class:`LoadInputs` of the tip-off case (``Drop.tip_off``): the bare deck beside
+    the pad's edge, struck with at most the energy of a fall h = H − Δ
+    (``delta``, :func:`tip_offsets`; m), the contact ``cl`` × ``cw`` with no layer
+    under it (spread by a trial mat as any mat); no pad credit, no spent layer; the
+    base over the framing ``cl`` × ``cw`` (nothing to spread it, as :func:`load_inputs`
+    off a pad)."""
+    n = d.n
+    zero = np.zeros(n)
+    H, _ = _drop_heights(d, zero)
+    h = np.maximum(H - np.where(np.isfinite(delta), delta, H), 0.0)
+    f_mat = zero.copy()
+    protected = np.zeros(n, dtype=bool)
+    if d.mat_k is not None:
+        trial = np.isfinite(d.mat_k) & (d.mat_k > 0.0)
+        f_mat = np.where(trial, 1.0 / np.where(trial, d.mat_k, 1.0), f_mat)
+        protected = trial
+    foot_l, foot_w = _footprint_on_deck(d, cl, cw, zero)
+    return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=zero, f_mat=f_mat,
+                      F_c=np.full(n, np.inf), s_c=zero.copy(),
+                      crushable=np.zeros(n, dtype=bool), h=h, H=H, foot_l=foot_l,
+                      foot_w=foot_w, lb=np.minimum(foot_l, foot_w), protected=protected,
+                      f_layer=zero.copy(), base_l=cl, base_w=cw, pad=on,
+                      fall_offset=np.where(np.isfinite(delta), delta, H))
+
+
+def tip_off_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The rows of ``d``'s points where a load lands partly on a crushable pad and can
+    tip over its edge onto the deck at its drop height — Δ finite and the drop height
+    H above it (:func:`tip_offsets`) — their Δ and the pad's thickness (m)
+    (:func:`tip_off_case_rows` where H > Δ)."""
+    rows, delta, top, reach = tip_off_case_rows(d)
+    return rows[reach], delta[reach], top[reach]
+
+
+def tip_off_case_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """The rows of ``d``'s points where a load lands partly on a crushable pad and may
+    tip over its edge onto the deck at some height — Δ finite (:func:`tip_offsets`) —
+    their Δ and the pad's thickness (m), and ``reach``: whether the drop height H is
+    above Δ (the load then reaches the deck by tipping at H). The tip-off case
+    (``Drop.tip_off``) is run at every one of them: where H ≤ Δ its response does not
+    arise at H, but its allowable heights (≥ Δ) do at the heights they offer, so the
+    heights the point offers are the lower of the two cases' whatever the planned
+    height (:func:`merge_tip_off`). Δ depends on the plan only: remembered per point
+    (:func:`_remembered_tip_offsets`) for the trials at other heights."""
+    none = (np.zeros(0, dtype=np.int64), np.zeros(0), np.zeros(0),
+            np.zeros(0, dtype=bool))
+    if d.bare is not None or d.n == 0 or not any(
+            pa.kind == "crushable" and pa.level_id == d.fm.level.id
+            for pa in d.project.protection_areas):
+        return none
+    W = d.per_point([ld.weight for ld in d.loads])
+    fl = d.per_point([ld.footprint_length for ld in d.loads])
+    fw = d.per_point([ld.footprint_width for ld in d.loads])
+    delta = _remembered_tip_offsets(d, W, fl, fw)
+    if not np.isfinite(delta).any():
+        return none
+    H, _ = _drop_heights(d, np.zeros(d.n))
+    rows = np.flatnonzero(np.isfinite(delta))
+    sub = replace(d, geo=take_geo(d.geo, rows, steps=False), li=np.asarray(d.li)[rows])
+    on = landing_pads(sub, fl[rows], fw[rows])
+    top = np.array([float(d.project.protection_areas[i].thickness) if i >= 0 else 0.0
+                    for i in on.tolist()])
+    return rows, delta[rows], top, H[rows] > delta[rows]
+
+
+_TIP_MEMO: OrderedDict[tuple, dict[tuple[float, ...], float]] = OrderedDict()
+_TIP_MEMO_POINTS = 400_000
+"""Δ of :func:`tip_offsets` remembered per point (x, y, W, footprint) for the pads of a
+level, up to this many points: the confirmation tries the same points at other
+heights, and Δ depends on the plan only."""
+
+
+def _may_tip(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
+    """Per point, whether :func:`tip_offsets` may be finite there — the points it need
+    not be worked out at are left out, the answer unchanged: a footprint (either plan
+    orientation: a square of half-side max(fl, fw)/2, m) that meets no crushable pad
+    of the level has no pad to tip over (∞); one that lies with a margin of twice the
+    thickest pad's thickness inside one pad and meets no other has every edge on the
+    pad and no free edge within reach (∞, :func:`pads.footprint_tip_offset`)."""
+    lv = d.fm.level
+    pads_ = [pa for pa in d.project.protection_areas
+             if pa.level_id == lv.id and pa.kind == "crushable"]
+    x, y = d.geo.x, d.geo.y
+    r = 0.5 * np.maximum(fl, fw)
+    m = r + 2.0 * max(float(pa.thickness) for pa in pads_) + _ABUTS_TIP
+    meets = np.zeros(d.n, dtype=np.int64)
+    inside = np.zeros(d.n, dtype=bool)
+    for pa in pads_:
+        a = pa.area
+        meets += ((x + m > a.x0) & (x - m < a.x1) & (y + m > a.y0) & (y - m < a.y1))
+        inside |= (x - m >= a.x0) & (x + m <= a.x1) & (y - m >= a.y0) & (y + m <= a.y1)
+    on_a_pad = np.zeros(d.n, dtype=bool)
+    for pa in pads_:
+        a = pa.area
+        on_a_pad |= (x + r > a.x0) & (x - r < a.x1) & (y + r > a.y0) & (y - r < a.y1)
+    return on_a_pad & ~(inside & (meets == 1))
+
+
+_ABUTS_TIP = 1e-3
+"""Slack on :func:`_may_tip`'s margins, m (the rounding of plan coordinates)."""
+
+
+def _remembered_tip_offsets(d: Drop, W: np.ndarray, fl: np.ndarray,
+                            fw: np.ndarray) -> np.ndarray:
+    """:func:`tip_offsets` of ``d``'s points, each point worked out once
+    (:data:`_TIP_MEMO`)."""
+    key = (d.project.protection_areas, d.fm.level.id)
+    memo = _TIP_MEMO.setdefault(key, {})
+    _TIP_MEMO.move_to_end(key)
+    out = np.full(d.n, np.inf)
+    at = np.flatnonzero(_may_tip(d, fl, fw))
+    pts = list(zip(d.geo.x[at].tolist(), d.geo.y[at].tolist(), W[at].tolist(),
+                   fl[at].tolist(), fw[at].tolist(), strict=True))
+    out[at] = np.array([memo.get(p, np.nan) for p in pts], dtype=float)
+    new = at[np.isnan(out[at])]
+    keys = dict(zip(at.tolist(), pts, strict=True))
+    if new.size:
+        sub = replace(d, geo=take_geo(d.geo, new, steps=False),
+                      li=np.asarray(d.li)[new])
+        got = tip_offsets(sub, fl[new], fw[new], landing_pads(sub, fl[new], fw[new]), W[new])
+        out[new] = got
+        for i, v in zip(new.tolist(), got.tolist(), strict=True):
+            memo[keys[i]] = v
+        while sum(len(m) for m in _TIP_MEMO.values()) > _TIP_MEMO_POINTS and len(_TIP_MEMO) > 1:
+            _TIP_MEMO.popitem(last=False)
+        if len(memo) > _TIP_MEMO_POINTS:
+            memo.clear()
+    return out
+
+
+_TIP_LOWER = ("scabbing_height", "perforation_height", "dent_height")
+_TIP_HIGHER = ("penetration", "dent_depth", "residual_velocity")
+
+
+def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray],
+                  top: np.ndarray, reach: np.ndarray | None = None
+                  ) -> dict[str, np.ndarray]:
+    """The outputs of points whose load lands partly on a crushable pad
+    (:func:`tip_off_rows`). Drop point on the pad: the worse of landing on it
+    (``on_pad``, its crush credit by area) and tipping over its edge onto the deck
+    (``tip``, :func:`tip_offsets`) governs, as between the two landings
+    (:func:`merge_landings`); the deck's local damage the worse of the two (start
+    heights the lower, NaN — not assessed — giving way to a number; depths and speeds
+    the larger; scabbing either). Drop point off the pad (``on_pad`` is then the bare
+    deck from H): the load cannot land flat on the bare deck, part of its footprint
+    meets the pad first, and the tip-off is its case — from H − Δ, continuous with
+    the bare deck as the footprint leaves the pad (Δ → 0); its ``protection`` is that
+    pad, so that the permit lays it. A drop point on the pad needs H ≥ the pad's top
+    ``top`` (m): an allowable height below it (the tip-off's) allows none (NaN).
+    ``reach`` (bool per point, :func:`tip_off_case_rows`; ``None``: everywhere):
+    where False the drop height H is at most Δ, the load does not reach the deck by
+    tipping at H and the point keeps ``on_pad``'s outputs but for its allowable
+    heights, the lower of the two cases' (the tip-off's hold at and above Δ; an
+    allowable height taken from the planned height's case alone was not the one the
+    point has at that height: rooftop spreader beam on 90 kN pads at (6.0, 7.5) m,
+    3.961 m offered at a planned 1.0 m < Δ 1.073 m, the tip-off's U 1.0125 there)."""
+    centre = on_pad["protection"] >= 0
+    out = merge_landings(on_pad, tip)
+    for k in ("allowable_drop_height", "allowable_drop_height_plastic"):
+        out[k] = np.where(centre & (out[k] < top), np.nan, out[k])
+    # the allowable heights every row keeps
+    heights = {k: out[k] for k in (*_BY_HEIGHT, *_BY_PLASTIC_HEIGHT) if k in out}
+    # the larger fall of the two: the datum offset H − h a margin may be taken from is
+    # the smaller one (t on the pad, Δ tipping off)
+    out["fall_height"] = np.fmax(on_pad["fall_height"], tip["fall_height"])
+    for k in _TIP_LOWER:
+        a, b = on_pad[k], tip[k]
+        out[k] = np.where(np.isnan(a) | (b < a), b, a)
+    for k in _TIP_HIGHER:
+        out[k] = np.fmax(on_pad[k], tip[k])
+    out["scabbing"] = on_pad["scabbing"] | tip["scabbing"]
+    out = {k: np.where(centre, v, tip[k]) if k in tip else v for k, v in out.items()}
+    if reach is None or bool(np.all(reach)):
+        return out
+    return {k: np.where(reach, v, heights[k] if k in heights else on_pad[k])
+            for k, v in out.items()}
+
+
+def landing_pads(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
+    """Per point, the crushable pad the load's footprint ``fl`` × ``fw`` (m; either plan
+    orientation) lies on (index into the project's protection areas, −1 none): the
+    one under the drop point (``Geometry.protection``), else the crushable pad of the
+    level under the largest part of the footprint — a load whose centre is just off a
+    pad still meets the part of it that is under its footprint and may tip over its
+    edge (:func:`tip_offsets`). The pad's crush credit (:func:`_protection_inputs`)
+    is taken where the drop point is on the pad only: off it, the load lands on the
+    pad's edge and tips onto the deck, which the tip-off case bounds. A spring mat
+    counts under the drop point only (its edge's tip-off is not modelled: README,
+    limits)."""
+    on = np.asarray(d.geo.protection).copy()
+    free = np.flatnonzero(on < 0)
+    lv = d.fm.level
+    if d.bare is not None or free.size == 0:
+        return on
+    best = np.zeros(free.size)
+    x, y = d.geo.x[free], d.geo.y[free]
+    for i, pa in enumerate(d.project.protection_areas):
+        if pa.level_id != lv.id or pa.kind != "crushable":
+            continue
+        r = pa.area
+        for along_x in (True, False):
+            rect = pads.footprint_rect(x, y, fl[free], fw[free], along_x)
+            A = pads.rect_overlap_area(rect, (r.x0, r.y0, r.x1, r.y1))
+            take = A > best
+            best = np.where(take, A, best)
+            on[free[take]] = i
+    return on
+
+
+def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
+                W: np.ndarray) -> np.ndarray:
+    """Per point, the Δ (m) of a load tipping over the edge of the crushable pad it
+    lands on (``on``, :func:`landing_pads`) onto the deck: it strikes the deck with
+    at most the energy of a fall H − Δ
+    (:func:`droprig.solver.pads.footprint_tip_offset` over that pad and every layer
+    of the same kind and thickness, the less of the footprint's two plan
+    orientations); ∞ where it cannot (the footprint wholly on the layers, a spring
+    mat, no pad). W in N, footprint ``fl`` × ``fw`` in m."""
+    prot, lv = d.project.protection_areas, d.fm.level
+    out = np.full(d.n, np.inf)
+    if d.bare is not None:
+        return out
+    for i, pa in enumerate(prot):
+        if pa.level_id != lv.id or pa.kind != "crushable":
+            continue
+        sel = np.flatnonzero(on == i)
+        if sel.size == 0:
+            continue
+        layers = _tip_layers(d, pa)
+        x, y = d.geo.x[sel], d.geo.y[sel]
+        # both plan orientations in one call
+        a = pads.footprint_rect(x, y, fl[sel], fw[sel], True)
+        b = pads.footprint_rect(x, y, fl[sel], fw[sel], False)
+        rect = tuple(np.concatenate([u, v]) for u, v in zip(a, b, strict=True))
+        dl = pads.footprint_tip_offset(rect, np.concatenate([W[sel], W[sel]]),  # type: ignore[arg-type]
+                                       float(pa.thickness), layers, deck=_deck_extent(d))
+        out[sel] = np.minimum(out[sel], np.minimum(dl[:sel.size], dl[sel.size:]))
+    return out
+
+
+def _deck_extent(d: Drop) -> tuple[float, float, float, float]:
+    """The deck's plan extent (x0, y0, x1, y1; m) of ``d``'s level: a pad's edge on it
+    is no edge a load tips over onto the deck (:func:`pads.footprint_tip_offset`)."""
+    e = d.fm.level.grid.extent
+    return float(e.x0), float(e.y0), float(e.x1), float(e.y1)
+
+
+def _tip_layers(d: Drop, pa: ProtectionArea
+                ) -> list[tuple[tuple[float, float, float, float], float, float]]:
+    """The crushable layers a load on pad ``pa`` may tip over (its level's, of its
+    thickness): ((x0, y0, x1, y1) m, crush stress Pa, stroke m) for
+    :func:`droprig.solver.pads.footprint_tip_offset`."""
+    return [((o.area.x0, o.area.y0, o.area.x1, o.area.y1), pad_crush_stress(d.project, o),
+             float(o.crush_stroke))  # type: ignore[arg-type]
+            for o in d.project.protection_areas
+            if o.level_id == d.fm.level.id and o.kind == "crushable"
+            and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+
+
+@dataclass(frozen=True)
+class TipOffTurn:
+    """The tip-off over a pad's edge at one drop point, as the calculation trace shows
+    it: the pad (index into the project's protection areas) and its thickness ``t``
+    (m), the least Δ (m) of :func:`tip_offsets`, the turn θ (rad) at which it is
+    found, the footprint's length ``length`` (m) in the direction it tips
+    (``direction``, :data:`droprig.solver.pads.TIP_DIRECTIONS`) and whether the
+    footprint's length lies along x (``along_x``)."""
+
+    pad: int
+    t: float
+    delta: float
+    theta: float
+    length: float
+    direction: str
+    along_x: bool
+
+
+def tip_off_turn(d: Drop) -> TipOffTurn | None:
+    """:class:`TipOffTurn` of the first point of ``d`` (the trace's one point): the same
+    pad, layers and Δ as :func:`tip_offsets` (the less of the two plan orientations),
+    with the turn and direction it is found at; ``None`` where the load cannot tip
+    over a pad's edge there."""
+    if d.bare is not None or d.n == 0:
+        return None
+    W = d.per_point([ld.weight for ld in d.loads])[:1]
+    fl = d.per_point([ld.footprint_length for ld in d.loads])[:1]
+    fw = d.per_point([ld.footprint_width for ld in d.loads])[:1]
+    sub = replace(d, geo=take_geo(d.geo, np.array([0]), steps=False),
+                  li=np.asarray(d.li)[:1])
+    i = int(landing_pads(sub, fl, fw)[0])
+    if i < 0 or d.project.protection_areas[i].kind != "crushable":
+        return None
+    pa = d.project.protection_areas[i]
+    best: TipOffTurn | None = None
+    for along_x in (True, False):
+        rect = pads.footprint_rect(sub.geo.x, sub.geo.y, fl, fw, along_x)
+        tt = pads.footprint_tip_turn(rect, W, float(pa.thickness), _tip_layers(d, pa),
+                                     deck=_deck_extent(d))
+        if np.isfinite(tt.delta[0]) and (best is None or tt.delta[0] < best.delta):
+            best = TipOffTurn(i, float(pa.thickness), float(tt.delta[0]),
+                              float(tt.theta[0]), float(tt.length[0]),
+                              pads.TIP_DIRECTIONS[int(tt.direction[0])], along_x)
+    return best
 
 
 def _spent_layer(cl: np.ndarray, cw: np.ndarray, t_mat: np.ndarray, s_c: np.ndarray,
@@ -376,24 +709,25 @@ def _contact_sides(d: Drop, fl: np.ndarray, fw: np.ndarray) -> tuple[np.ndarray,
 
 
 def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
-                       cw: np.ndarray) -> tuple[np.ndarray, ...]:
+                       cw: np.ndarray, on: np.ndarray) -> tuple[np.ndarray, ...]:
     """Per point, what the protection area under it gives (:class:`LoadInputs`): mat
     thickness ``t_mat`` (m), spring mat compliance ``f_mat`` (m/N), crush force
     ``F_c`` (N, ∞ none), stroke ``s_c`` (m) and ``crushable`` — pads by area
     (:func:`_layer_credit`) for the contact ``cl`` × ``cw`` of the footprint
-    ``fl`` × ``fw`` (m)."""
-    n, geo, lv = d.n, d.geo, d.fm.level
+    ``fl`` × ``fw`` (m), on the protection area ``on`` of each point
+    (:func:`landing_pads`)."""
+    n, lv = d.n, d.fm.level
     t_mat = np.zeros(n)
     f_mat = np.zeros(n)
     F_c = np.full(n, np.inf)
     s_c = np.zeros(n)
     crushable = np.zeros(n, dtype=bool)
-    any_mat = bool(np.any(geo.protection >= 0))
+    any_mat = bool(np.any(on >= 0))
     prot = d.project.protection_areas
     for i, pa in enumerate(prot):
         if not any_mat or pa.level_id != lv.id:
             continue
-        sel = geo.protection == i
+        sel = on == i
         if not sel.any():
             continue
         t_mat[sel] = pa.thickness
@@ -3802,7 +4136,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
     geo = d.geo
     comp = c[Compliance]
     out = {
-        "x": geo.x, "y": geo.y, "bay": geo.bay, "protection": geo.protection,
+        "x": geo.x, "y": geo.y, "bay": geo.bay,
+        "protection": geo.protection if inp.pad is None else inp.pad,
         "drop_height": inp.H, "fall_height": inp.h, "structure_compliance": comp.f_struct,
         "static_deflection": imp.d_st,
         # the struck mass the impact used: with the slab where two forces
@@ -3818,8 +4153,8 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "utilisation_member": (ck.gov_member if ck.util_member is None
                                else ck.util_member).astype(np.int64),
         # allowable heights on the datum: the fall they allow plus the pad's thickness
-        "allowable_drop_height": inv.h_el + inp.t_mat,
-        "allowable_drop_height_plastic": inv.h_pl + inp.t_mat,
+        "allowable_drop_height": inv.h_el + inp.datum_offset,
+        "allowable_drop_height_plastic": inv.h_pl + inp.datum_offset,
         "allowable_height_check": inv.h_check.astype(np.int64),
         "allowable_height_member": inv.h_member.astype(np.int64),
         "allowable_height_plastic_check": inv.hp_check.astype(np.int64),
@@ -3828,11 +4163,12 @@ def outputs(c: Chain) -> dict[str, np.ndarray]:
         "required_mat_stiffness": inv.k_req, "required_crush_stroke": inv.s_req,
         "penetration": ld.penetration, "scabbing": ld.scabbing,
         # on the datum too: the fall at which each starts plus the pad's thickness
-        "scabbing_height": ld.h_scab + inp.t_mat, "perforation_height": ld.h_perf + inp.t_mat,
+        "scabbing_height": ld.h_scab + inp.datum_offset,
+        "perforation_height": ld.h_perf + inp.datum_offset,
         "residual_velocity": ld.v_res, "local_extrapolated": ld.extrapolated,
         "strike_orientation": ld.orientation,
         # steel plate decks: the dent and the height (on the datum) of the dent limit
-        "dent_depth": ld.dent, "dent_height": ld.h_dent + inp.t_mat,
+        "dent_depth": ld.dent, "dent_height": ld.h_dent + inp.datum_offset,
     }
     if ld.perforation.any():
         out["response"] = np.where(ld.perforation, PERFORATES, out["response"])

@@ -37,13 +37,15 @@ from droprig.solver.geometry import (
     distinct_point_geometry,
     point_geometry,
     slice_geo,
+    take_geo,
 )
 from droprig.solver.loadpath import PathResult
 from droprig.solver.parallel import for_blocks
 from droprig.solver.unit_actions import unit_actions
 
-__all__ = ["CACHE_MAX_POINTS", "LARGE_JOB_SHARE", "OUTPUTS", "PointCase", "distinct_geometry",
-           "evaluate_case", "evaluate_chain", "evaluate_points", "large_job_block",
+__all__ = ["CACHE_MAX_POINTS", "LARGE_JOB_SHARE", "OUTPUTS", "GoverningPoint", "PointCase",
+           "distinct_geometry", "evaluate_case", "evaluate_chain", "evaluate_points",
+           "governing_point", "large_job_block",
            "point_case", "point_masses", "tile"]
 
 CACHE_MAX_POINTS = 200_000
@@ -65,18 +67,20 @@ def _loads(load: LiftLoad | Sequence[LiftLoad]) -> tuple[LiftLoad, ...]:
 
 def evaluate_chain(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
                    geo: Geometry, load_index: np.ndarray | None = None, *,
-                   detail: bool = True, v_hoist: float = 0.0, landing: str = "flat") -> Chain:
+                   detail: bool = True, v_hoist: float = 0.0, landing: str = "flat",
+                   tip_off: np.ndarray | None = None) -> Chain:
     """Every step of the chain for ``load`` at the points of ``geo`` (one block, all
     points; the calculation trace and the tests read the step results) for one
     ``landing`` (:data:`~droprig.solver.chain.LANDINGS`). ``load`` may be a sequence
     of loads with ``load_index`` naming the load of each point; ``v_hoist`` is the
-    hoist's lowering speed at release (m/s, :class:`Drop`)."""
+    hoist's lowering speed at release (m/s, :class:`Drop`); ``tip_off``: the
+    tip-off case's Δ per point (m, ``Drop.tip_off``; only where H > Δ)."""
     memory.keep_freed_memory()
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
     with np.errstate(all="ignore"):
         return run_chain(Drop(fm, project, geo, _loads(load), li, detail,
-                              v_hoist=v_hoist, landing=landing))
+                              v_hoist=v_hoist, landing=landing, tip_off=tip_off))
 
 
 def deck_range_words(level: Level, opening: bool = False) -> str:
@@ -126,19 +130,87 @@ def point_case(project: Project, zone_id: str, load_name: str, x: float, y: floa
 
 
 def governing_landing_chain(fm: FloorModel, project: Project, load: LiftLoad, geo: Geometry,
-                            v_hoist: float = 0.0) -> tuple[str, Chain]:
+                            v_hoist: float = 0.0, tip_off: np.ndarray | None = None
+                            ) -> tuple[str, Chain]:
     """The landing that governs a single point (``geo`` of one point) and its chain
     with every step: both landings where the project checks the tilted one
     (``settings.tilted_landing``), the worse governing as the analysis merges them
-    (:func:`~droprig.solver.chain.tilted_governs`); else the flat landing. The
-    calculation trace and the time-history verification read the same one."""
+    (:func:`~droprig.solver.chain.tilted_governs`); else the flat landing. One case:
+    the ordinary run, or with ``tip_off`` (Δ, m) the tip-off over a pad's edge — the
+    case that governs the point is :func:`governing_point`'s."""
+    landing, chain, _ = _landing_cases(fm, project, load, geo, v_hoist, tip_off)
+    return landing, chain
+
+
+def _landing_cases(fm: FloorModel, project: Project, load: LiftLoad, geo: Geometry,
+                   v_hoist: float, tip_off: np.ndarray | None
+                   ) -> tuple[str, Chain, dict[str, np.ndarray]]:
+    """:func:`governing_landing_chain` and the outputs of its landings merged as the
+    analysis merges them (:func:`_outputs`)."""
     landings = LANDINGS if project.settings.tilted_landing else ("flat",)
     chains = {k: evaluate_chain(fm, project, load, geo, detail=True, landing=k,
-                                v_hoist=v_hoist) for k in landings}
+                                v_hoist=v_hoist, tip_off=tip_off) for k in landings}
+    flat = outputs(chains["flat"])
     if "tilted" not in chains:
-        return "flat", chains["flat"]
-    tilted = bool(tilted_governs(outputs(chains["flat"]), outputs(chains["tilted"]))[0])
-    return ("tilted", chains["tilted"]) if tilted else ("flat", chains["flat"])
+        return "flat", chains["flat"], flat
+    tilted = outputs(chains["tilted"])
+    merged = merge_landings(flat, tilted)
+    if bool(tilted_governs(flat, tilted)[0]):
+        return "tilted", chains["tilted"], merged
+    return "flat", chains["flat"], merged
+
+
+@dataclass(frozen=True)
+class GoverningPoint:
+    """The case that governs one asked-for point (:func:`governing_point`): its
+    ``landing`` and ``chain`` with every step; ``tip`` the tip-off over a pad's edge
+    where the load's footprint lies partly on a crushable pad (None elsewhere),
+    ``tip_governs`` whether the chain is that case's, ``on_pad`` whether the drop point
+    lies on the pad (then both cases are compared; off it the tip-off is the point's
+    only case, :func:`~droprig.solver.chain.merge_tip_off`); ``cases`` the outputs of
+    the two cases (``"on_pad"``, ``"tip_off"``; empty without a tip-off) and ``merged``
+    the point's outputs as the floor analysis keeps them."""
+
+    landing: str
+    chain: Chain
+    tip: chain_mod.TipOffTurn | None
+    tip_governs: bool
+    on_pad: bool
+    cases: dict[str, dict[str, np.ndarray]]
+    merged: dict[str, np.ndarray]
+
+
+def governing_point(fm: FloorModel, project: Project, load: LiftLoad, geo: Geometry,
+                    v_hoist: float = 0.0) -> GoverningPoint:
+    """The case and landing that govern a single point (``geo`` of one point), chosen as
+    the floor analysis chooses them (:func:`_outputs`): the landings
+    (:func:`governing_landing_chain`), then where the footprint lies partly on a
+    crushable pad (:func:`~droprig.solver.chain.tip_off_rows`) the worse of landing on
+    it and tipping over its edge onto the deck (the response, then the utilisation,
+    :func:`~droprig.solver.chain.tilted_governs`), the tip-off alone with the drop
+    point off the pad; where the drop height is at most the tip-off's Δ
+    (:func:`~droprig.solver.chain.tip_off_case_rows`) the ordinary case, with the
+    allowable heights of both in ``merged``. The calculation trace and the
+    time-history verification read the same one."""
+    landing, chain, out = _landing_cases(fm, project, load, geo, v_hoist, None)
+    rows, delta, top, reach = chain_mod.tip_off_case_rows(
+        Drop(fm, project, geo, (load,), np.zeros(1, dtype=np.int64), False,
+             v_hoist=v_hoist))
+    if rows.size == 0:
+        return GoverningPoint(landing, chain, None, False, False, {}, out)
+    t_landing, t_chain, tip = _landing_cases(fm, project, load, geo, v_hoist, delta)
+    merged = chain_mod.merge_tip_off(out, tip, top, reach)
+    if not bool(reach[0]):
+        # the drop height at most Δ: the load does not reach the deck by tipping; the
+        # point's case is the ordinary one, its allowable heights the lower of the two
+        return GoverningPoint(landing, chain, None, False, False, {}, merged)
+    on_pad = bool(out["protection"][0] >= 0)
+    governs = not on_pad or bool(tilted_governs(out, tip)[0])
+    turn = chain_mod.tip_off_turn(t_chain.drop)
+    cases = {"on_pad": out, "tip_off": tip}
+    if governs:
+        return GoverningPoint(t_landing, t_chain, turn, True, on_pad, cases, merged)
+    return GoverningPoint(landing, chain, turn, False, on_pad, cases, merged)
 
 
 def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],
@@ -173,6 +245,31 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
         out = merge_landings(out, run("tilted"))
     if keep and mat_k is None:
         geo.cache["steps"] = KeptSteps.of(loads, li, by_landing)
+    rows, delta, top, reach = chain_mod.tip_off_case_rows(
+        Drop(fm, project, geo, loads, li, False, H, mat_k))
+    if rows.size:
+        # a footprint partly on a crushable pad: the worse of landing on it and
+        # tipping over its edge onto the deck (chain.tip_offsets); where the drop
+        # height is at most Δ the tip-off's allowable heights only
+        sub = take_geo(geo, rows, steps=False)
+
+        def pick(a: np.ndarray | None) -> np.ndarray | None:
+            return None if a is None else np.asarray(a)[rows]
+
+        def run_tip(landing: str) -> dict[str, np.ndarray]:
+            return outputs(run_chain(Drop(fm, project, sub, loads, li[rows], False, pick(H),
+                                          pick(mat_k), v_hoist=v_hoist, landing=landing,
+                                          trial=trial, outcomes_only=outcomes_only,
+                                          tip_off=delta)))
+
+        tip = run_tip("flat")
+        if fm.settings.tilted_landing:
+            tip = merge_landings(tip, run_tip("tilted"))
+        merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip, top,
+                                         reach)
+        for k, v in merged.items():
+            out[k] = out[k].copy()
+            out[k][rows] = v
     return out
 
 

@@ -293,6 +293,11 @@ class Trace:
     utilisation_check: str = ""
     """The check whose U is the point's U (the verdict's ``governing_check`` can be
     another: a brittle check at the yield force, ductility, rotation)."""
+    pad_edge: str = ""
+    """Where the load's footprint lies partly on a crushable pad: ``"tip_off"`` when the
+    tip-off over the pad's edge onto the bare deck governs the point (the steps are
+    that case's), ``"on_pad"`` when landing on the pad does (the tip-off checked too);
+    ``""`` elsewhere (:func:`droprig.solver.evaluate.governing_point`)."""
 
 
 @dataclass(frozen=True, eq=False)

@@ -41,7 +41,7 @@ from droprig.solver.chain import (
     slab_rotation_limit,
 )
 from droprig.solver.drift import resolve_drift
-from droprig.solver.evaluate import governing_landing_chain, point_case
+from droprig.solver.evaluate import GoverningPoint, governing_point, point_case
 from droprig.solver.floor import FloorModel
 from droprig.solver.footprint import EDGE_CONTACT_WIDTH
 from droprig.solver.geometry import Geometry
@@ -80,6 +80,72 @@ _SRC_HINGE = ("AISC 360-16 Appendix 1 §1.3.2b / EN 1993-1-1 §5.6 Class 1 "
 _SRC_PLASTIC = "Biggs, Introduction to Structural Dynamics (1964); UFC 3-340-02 ch. 3"
 
 
+_SRC_TIP = ("energy bound W·(H − Δ), Δ = min over θ of θ·L/2 + P(θ)/W, inertia-free "
+            "(derived from the energy balance; the plateau's least crush work: Gibson & "
+            "Ashby, Cellular Solids 2nd ed. ch. 5, from memory; droprig.solver.pads."
+            "tip_offset)")
+_SRC_WORSE = "the worse of the two cases governs (common practice, no source)"
+
+
+def _tip_off_steps(sheet: _Sheet, gp: GoverningPoint) -> None:
+    """Where the load's footprint lies partly on a crushable pad: the two cases and
+    the one that governs (:func:`droprig.solver.evaluate.governing_point`), and the
+    tip-off's Δ with the turn and length it is found at — the same Δ the floor
+    analysis uses (``LoadInputs.fall_offset`` of the tip-off run)."""
+    if not gp.cases:
+        return
+    on, tip = gp.cases["on_pad"], gp.cases["tip_off"]
+    U_on, U_tip = float(on["utilisation"][0]), float(tip["utilisation"][0])
+    if gp.on_pad:
+        sheet.add("Load partly on a crushable pad: checked landing on the pad and tipping "
+                  "over its edge onto the bare deck; "
+                  + ("the tip-off governs" if gp.tip_governs else "landing on the pad governs"),
+                  "U", "the worse response, then the larger U",
+                  {"U_pad": (U_on, "dimensionless"), "U_tip": (U_tip, "dimensionless")},
+                  U_tip if gp.tip_governs else U_on, "dimensionless", _SRC_WORSE)
+    else:
+        sheet.add("Drop point beside a crushable pad: part of the footprint meets the pad "
+                  "first and the load tips over its edge onto the bare deck (the point's "
+                  "case; continuous with the bare deck as the footprint leaves the pad)",
+                  "U", "U of the tip-off", {"U_tip": (U_tip, "dimensionless")}, U_tip,
+                  "dimensionless", _SRC_WORSE)
+    tt = gp.tip
+    if tt is None:  # pragma: no cover - tip_off_rows found the case, so its turn exists
+        return
+    W = sheet.load.weight
+    sheet.add(f"Height the tip-off takes off the fall: least over the turn θ of the load "
+              f"about the pad's edge (tipping {tt.direction}, the load's length "
+              f"{'along x' if tt.along_x else 'along y'})", "Δ",
+              "Δ = min over θ of θ·L/2 + P(θ)/W (P: the pad's least crush work)",
+              {"t": (tt.t, "length"), "L": (tt.length, "length"),
+               "θ": (tt.theta, "angle"), "W": (W, "force")},
+              tt.delta, "length", _SRC_TIP)
+
+
+def _kept_height_steps(sheet: _Sheet, gp: GoverningPoint) -> None:
+    """At a pad's edge, the allowable heights the floor analysis keeps for the point
+    (:func:`droprig.solver.chain.merge_tip_off`): the lower of the two cases, none on
+    the pad below the pad's top."""
+    if not gp.cases:
+        return
+    on, tip, m = gp.cases["on_pad"], gp.cases["tip_off"], gp.merged
+    for key, sym, what in (("allowable_drop_height", "h_allow", "elastic"),
+                           ("allowable_drop_height_plastic", "h_allow,pl", "beyond yield")):
+        ins = {"h_tip": (float(tip[key][0]), "length")}
+        if gp.on_pad:
+            ins["h_pad"] = (float(on[key][0]), "length")
+        if gp.tip is not None:
+            ins["Δ"] = (gp.tip.delta, "length")
+        sheet.add(f"Allowable drop height on the datum kept for the point ({what}): the "
+                  "lower of the two cases; on the pad none below the pad's top (NaN)"
+                  if gp.on_pad else
+                  f"Allowable drop height on the datum kept for the point ({what}): the "
+                  "tip-off's", sym,
+                  "h_tip = the tip-off's allowable fall + Δ; "
+                  + ("h = min(h_pad, h_tip), none if below the pad's top" if gp.on_pad
+                     else "h = h_tip"), ins, float(m[key][0]), "length", _SRC_WORSE)
+
+
 def _v(x: object) -> float:
     return float(np.asarray(x).reshape(-1)[0])
 
@@ -100,12 +166,15 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
                       fields=("trace.zone", "trace.load", "trace.point"))
     zone, load, fm, geo = case.zone, case.load, case.fm, case.geo
     xa, ya = geo.x, geo.y
-    # both landings (droprig.solver.chain.LANDINGS); the trace follows the one that
-    # governs the point's response (as droprig.solver.chain.merge_landings)
-    landing, chain = governing_landing_chain(fm, project, load, geo, zone.hoist_speed)
+    # both landings (droprig.solver.chain.LANDINGS) and, at a pad's edge, both cases
+    # (landing on the pad, tipping over its edge); the trace follows the one that
+    # governs the point's response, as the floor analysis merges them
+    gp = governing_point(fm, project, load, geo, zone.hoist_speed)
+    landing, chain = gp.landing, gp.chain
     sheet = _Sheet(project, fm, geo, load, chain)
     add = sheet.add
     inp = chain[LoadInputs]
+    _tip_off_steps(sheet, gp)
     if project.settings.tilted_landing:
         add("Landing that governs: " + ("tilted, on the shorter edge of the footprint"
                                         if landing == "tilted" else "flat, on the footprint"),
@@ -128,12 +197,14 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     _amplification_steps(sheet)
     _check_steps(sheet)
     _local_damage_steps(sheet)
+    _kept_height_steps(sheet, gp)
     by = sheet.by
     gm = int(by.gov_member[0])
     return Trace(zone.id, load.name, float(x), float(y), tuple(sheet.steps),
                  RESPONSES[int(sheet.out["response"][0])], sheet.mname(gm),
                  CHECKS[int(by.gov_check[0])],
-                 CHECKS[int(sheet.out["utilisation_check"][0])])
+                 CHECKS[int(sheet.out["utilisation_check"][0])],
+                 "" if not gp.cases else "tip_off" if gp.tip_governs else "on_pad")
 
 
 class _Sheet:
@@ -263,6 +334,22 @@ def _two(sheet: _Sheet) -> bool:
     return two is not None and bool(two[0])
 
 
+def _fall_step(sheet: _Sheet) -> None:
+    """The free fall onto the struck surface: H less the pad or mat, or in the tip-off
+    case H − Δ onto the bare deck (``LoadInputs.fall_offset``)."""
+    add, inp = sheet.add, sheet.inp
+    if inp.fall_offset is not None:
+        add("Fall onto the bare deck beside the pad's edge: the energy the tip-off can "
+            "bring onto the deck, as a fall", "h", "h = H − Δ",
+            {"H": (inp.H[0], "length"), "Δ": (inp.fall_offset[0], "length")}, inp.h[0],
+            "length", _SRC_TIP)
+    else:
+        add("Free fall onto the struck surface (drop height above the finished surface "
+            "less the pad or mat thickness)", "h", "h = H − t_mat",
+            {"H": (inp.H[0], "length"), "t_mat": (inp.t_mat[0], "length")}, inp.h[0],
+            "length", "load data (droprig.solver.chain.planned_height)")
+
+
 def _impact_steps(sheet: _Sheet) -> None:
     """Energy balance of the impact: η, h, K, F, deflections."""
     add, inp, comp, sm = sheet.add, sheet.inp, sheet.comp, sheet.sm
@@ -271,10 +358,7 @@ def _impact_steps(sheet: _Sheet) -> None:
     add("Share of kinetic energy left after contact", "η", "η = M / (M + m_e)",
         {"M": (M, "mass"), "m_e": (sm.m_e[0], "mass")}, sm.eta[0],
         "dimensionless", _SRC_ETA)
-    add("Free fall onto the struck surface (drop height above the finished surface less "
-        "the pad or mat thickness)", "h", "h = H − t_mat",
-        {"H": (inp.H[0], "length"), "t_mat": (inp.t_mat[0], "length")}, inp.h[0],
-        "length", "load data (droprig.solver.chain.planned_height)")
+    _fall_step(sheet)
     W = load.weight
     v_h = sheet.chain.drop.v_hoist
     h_e = float(energy_fall(sheet.chain, inp.h[:1])[0])

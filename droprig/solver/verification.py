@@ -130,7 +130,16 @@ class PointVerification:
     in N·m² — the chain's, composite where the member is studded) and the chain's own
     peak force on the framing there (N, the whole path: the two-mass model's where two
     forces per point, else the energy method's); the member, EI, crushing force and
-    stroke are the chain's own (:func:`droprig.solver.pointhistory.struck_member`)."""
+    stroke are the chain's own (:func:`droprig.solver.pointhistory.struck_member`).
+
+    ``pad_edge``: ``"tip_off"`` where the tip-off over a crushable pad's edge governs
+    the point (:func:`droprig.solver.evaluate.governing_point`): what is verified is the
+    deck contact as a landing on the bare deck from the bound's height, the fall
+    ``fall`` = H − Δ (m; Δ = ``tip_delta``, m) — the tipping motion itself (the turn
+    about the pad's edge, the layer crushing under it) is not in the time history, the
+    energy bound W·(H − Δ) stands for it (tests/solver/test_pad_edge.py holds it
+    against a rigid-block history); ``"on_pad"`` where landing on the pad governs (the
+    tip-off checked too); ``""`` elsewhere."""
 
     zone_id: str
     load_name: str
@@ -144,6 +153,9 @@ class PointVerification:
     chain_peak_force: float
     verification: Verification
     EI: float = math.nan
+    pad_edge: str = ""
+    fall: float = math.nan
+    tip_delta: float = math.nan
 
 
 SKIP_OVER_SUPPORT = "over a support"
@@ -398,14 +410,19 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     steel's mass alone (the idealisation before stop 27), to show how far the mass
     moves the comparison. The member is a Timoshenko beam
     (:func:`droprig.solver.pointhistory.timoshenko_terms`)."""
-    from droprig.solver.chain import DynamicAmplification, Impact
-    from droprig.solver.evaluate import governing_landing_chain, point_case
+    from droprig.solver.chain import DynamicAmplification, Impact, LoadInputs
+    from droprig.solver.evaluate import governing_point, point_case
 
     case = point_case(project, zone_id, load_name, x, y, opening=True,
                       fields=("verify.lift", "verify.load", "verify.point"))
     fm, geo = case.fm, case.geo
-    # the landing that governs the point, as the calculation trace follows it
-    _, chain = governing_landing_chain(fm, project, case.load, geo, case.zone.hoist_speed)
+    # the case and landing that govern the point, as the calculation trace follows them
+    # (at a pad's edge the tip-off's chain: its fall H − Δ onto the bare deck)
+    gp = governing_point(fm, project, case.load, geo, case.zone.hoist_speed)
+    chain = gp.chain
+    inp = chain[LoadInputs]
+    tip = gp.tip_governs and inp.fall_offset is not None
+    edge = "" if not gp.cases else "tip_off" if tip else "on_pad"
     amplified = bool(project.settings.dynamic_amplification and DynamicAmplification in chain)
     ver, s = _chain_verification(chain, amplified=amplified, steel_only=not slab_mass,
                                  where=("verify.point", (float(x), float(y))))
@@ -414,7 +431,10 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
                              bay_id=_bay_name(fm.level, geo), member_id=member.id,
                              cond=str(s["cond"]), L=float(s["L"]), a=float(s["a"]),
                              chain_peak_force=float(chain[Impact].F[0]),
-                             verification=ver, EI=float(s["EI"]))
+                             verification=ver, EI=float(s["EI"]), pad_edge=edge,
+                             fall=float(inp.h[0]),
+                             tip_delta=float(inp.fall_offset[0])  # type: ignore[index]
+                             if tip else math.nan)
 
 
 def _bay_name(level: Level, geo: Geometry) -> str:

@@ -76,9 +76,15 @@ def _check_project(project: Project) -> int:
             # 0.99 × the allowable fall; heights are stated above the finished surface,
             # so a pad's thickness t is added back: t + 0.99·(h_allow − t) (issue 13)
             t = case.drop_height - case.fall_height
-            loads = [replace(load, drop_height=min(
-                float(t[i]) + SLACK * (float(h_a[i]) - float(t[i])), 200.0)) for i in idx]
             geo = analysis.point_geometry(fm, project, case.x[idx], case.y[idx])
+            # a drop point on a pad is planned no lower than the pad's top (the model
+            # refuses less): where the tip-off over its edge sets the datum offset
+            # (Δ < the pad's thickness) the slack may not take the height below it
+            top = np.array([project.protection_areas[j].thickness if j >= 0 else 0.0
+                            for j in np.asarray(geo.protection).tolist()])
+            loads = [replace(load, drop_height=min(max(
+                float(t[i]) + SLACK * (float(h_a[i]) - float(t[i])), float(top[k])), 200.0))
+                for k, i in enumerate(idx)]
             r = evaluate.evaluate_case(fm, project, loads, geo, np.arange(idx.size))
             good = ok(r)
             bad = idx[~good]
@@ -230,3 +236,31 @@ def test_loads_given_by_hook_height_are_not_used_here() -> None:
     p = _by_drop_height(load_project(DEMOS[0]), 0.7)
     assert all(isinstance(ld, LiftLoad) and ld.drop_height == pytest.approx(0.7 + 0.5)
                for z in p.lift_zones for ld in z.loads)  # 0.7 m above the 0.5 m pads
+
+
+def test_tip_off_heights_hold_whatever_the_planned_height() -> None:
+    """At a pad's edge the allowable height the point offers holds forward whether the
+    load is planned below or above the tip-off's Δ (the height at and above which it
+    may tip over the pad's edge onto the deck). Before: the rooftop's spreader beam on
+    90 kN pads at (6.0, 7.5) m, planned 1.0 m (< Δ 1.073 m: the tip-off case not run),
+    offered the on-pad landing's 3.961 m, where the forward tip-off reads U 1.0125.
+    Forward model: Gere, *Mechanics of Materials* 7th ed., §9.10 Eq. 9-94 with the
+    fall H − Δ onto the bare deck (droprig.solver.pads.tip_offset's energy bound)."""
+    p = _weak_layer_project(90e3)
+    zone = next(z for z in p.lift_zones if any(ld.name == "Spreader beam 4 m" for ld in z.loads))
+    load = next(ld for ld in zone.loads if ld.name == "Spreader beam 4 m")
+    fm = analysis.floor_model(p.level(zone.level_id), p.settings)
+    geo = analysis.point_geometry(fm, p, np.array([6.0]), np.array([7.5]))
+    one = np.zeros(1, dtype=np.int64)
+    heights = {}
+    for H in (1.0, 2.0):  # below and above Δ
+        r = evaluate.evaluate_case(fm, p, [replace(load, drop_height=H)], geo, one)
+        heights[H] = float(r["allowable_drop_height"][0])
+    # below Δ the tip-off's height is kept: the lower, not the on-pad landing's 3.961 m
+    assert heights[1.0] < 3.9
+    for H, h in heights.items():
+        fwd = evaluate.evaluate_case(fm, p, [replace(load, drop_height=h)], geo, one)
+        assert fwd["utilisation"][0] <= 1.0 + 1e-9, (H, h, fwd["utilisation"][0])
+    # the same answer from either plan (the tip-off's inverse reads the height through
+    # the forward impact; the two-force search's tolerance apart)
+    assert heights[1.0] == pytest.approx(heights[2.0], rel=2e-3)

@@ -21,7 +21,7 @@ from droprig.commands.demo import demo_dir
 from droprig.io.project_file import load_project
 from droprig.solver import analysis, chain
 from droprig.solver.chain import Demands
-from droprig.solver.evaluate import evaluate_chain
+from droprig.solver.evaluate import governing_point
 from droprig.solver.results import CHECKS
 
 DEMOS = ("rooftop_plant_swap", "steel_erection_floor", "two_level_rigging")
@@ -52,7 +52,8 @@ def test_every_bays_utilisation_label_names_its_own_check(monkeypatch, on: bool,
             fm = analysis.build_floor(p.level(b.level_id), p.settings)
             geo = analysis.point_geometry(fm, p, np.array([b.utilisation_x]),
                                           np.array([b.utilisation_y]))
-            ch = evaluate_chain(fm, p, load, geo, v_hoist=zone.hoist_speed)
+            # the case that governs the point (at a pad's edge, possibly the tip-off's)
+            ch = governing_point(fm, p, load, geo, zone.hoist_speed).chain
             dem = ch[Demands]
             U = {k: float(v.U[0]) for k, v in dem.checks.items()}
             # the bay's U is this point's U, and the label is its family
