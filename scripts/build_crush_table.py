@@ -8,8 +8,8 @@ draws for the table; the margin is calibrated on CAL_N random systems off the gr
 exact ÷ unit-margin read, rounded up to 0.01 (at least 1).
 
 Along θ each node holds the running maximum of ψ over every θ sampled at or below it
-(SUB samples per cell, and the decade below the first node), so the read at a
-cell's upper θ node covers the cell.
+(SUB samples per cell, and the decade below the first node), so the read in a
+cell, from its upper θ node's value to the next one's, covers the cell.
 
 Run: ``PYTHONPATH=. .venv/bin/python scripts/build_crush_table.py [--workers N |
 --psi FILE]`` (about 15 min on one core for the grid, 3 min for the calibration;
@@ -108,7 +108,7 @@ def calibrate(ax: list[np.ndarray], psi: np.ndarray
     g[2] = 1.0 + g[2]
     ex = psi_exact(*g)
     data.AXES = tuple(tuple(float(v) for v in a) for a in ax)  # type: ignore[assignment]
-    crush_table._PSI, crush_table._AX = psi, [np.asarray(a) for a in ax]
+    crush_table._use(psi, ax)
     crush_table.MARGIN = (1.0, 1.0)  # type: ignore[attr-defined]
     read, _ = crush_table.table_psi(*g)
     ratio = ex / np.maximum(read, 1.0)

@@ -44,9 +44,12 @@ and log θ (:mod:`droprig.solver.crush_table_data`, made by
 scripts/build_crush_table.py, its grid and seed stated there). Along θ the stored
 value is the running maximum over every sampled θ up to the node (a load lowered
 onto the layer may fall from any lower height: as
-:func:`droprig.solver.struck_mass.envelope_two_forces`), and the read takes the
-cell's upper θ node, so the force is non-decreasing in the fall (the inverse searches
-bisect on it). Across μ, κ, ρ it takes the largest of the cell's eight corners, times
+:func:`droprig.solver.struck_mass.envelope_two_forces`), and the read in a θ cell
+(θ_{j−1}, θ_j] runs linearly in log θ from the upper node's value R_j to the next
+one's, R_{j+1}: never below R_j, so never below the running maximum inside the cell,
+and continuous and non-decreasing in the fall (the inverse searches bisect on it; a
+staircase made them take a third more rounds). Across μ, κ, ρ it takes the largest of
+the cell's eight corners, times
 :data:`MARGIN`: one for soft contacts (κ < 1: the load bouncing on its contact pumps
 the floor, ψ up to ~4 and varying sharply between the nodes) and one for stiff ones,
 each the largest exact ÷ read of the generator's random calibration systems off the
@@ -75,8 +78,38 @@ from droprig.solver.impact import G
 
 __all__ = ["MARGIN", "crush_factor", "crush_groups", "table_psi"]
 
-_PSI = np.asarray(PSI, float)
-_AX = [np.asarray(a, float) for a in AXES]  # log10 μ, log10 κ, log10(ρ − 1), log10 θ
+_PSI = np.zeros((2, 2, 2, 2))
+_AX: list[np.ndarray] = []  # log10 μ, log10 κ, log10(ρ − 1), log10 θ
+_CORNERS = _PSI.ravel()
+"""The largest of each cell's eight corners in μ, κ, ρ at each θ node, flat."""
+_LO = np.zeros((4, 1))
+_STEP = np.ones((4, 1))
+_CELLS = np.ones((3, 1))  # the last cell's lower node per axis
+_STRIDES = np.zeros(3, np.intp)
+_NT = 1
+
+
+def _use(psi: ArrayLike, axes: tuple[tuple[float, ...], ...] | list[np.ndarray]) -> None:
+    """Read the table ``psi`` on ``axes`` from now on (the stored one at import; the
+    generator's calibration passes a fresh one): each cell's corner maximum is
+    taken once here."""
+    global _PSI, _AX, _CORNERS, _LO, _STEP, _CELLS, _STRIDES, _NT
+    _PSI = np.asarray(psi, float)
+    _AX = [np.asarray(a, float) for a in axes]
+    c = _PSI[:-1, :-1, :-1]
+    for a in (0, 1):
+        for b in (0, 1):
+            for d in (0, 1):
+                c = np.maximum(c, _PSI[a:a + c.shape[0], b:b + c.shape[1], d:d + c.shape[2]])
+    _CORNERS = np.ascontiguousarray(c).ravel()
+    _LO = np.array([[ax[0]] for ax in _AX])
+    _STEP = np.array([[ax[1] - ax[0]] for ax in _AX])
+    _CELLS = np.array([[ax.size - 2] for ax in _AX[:3]], float)
+    _NT = _AX[3].size
+    _STRIDES = np.array([c.shape[1] * c.shape[2] * _NT, c.shape[2] * _NT, _NT], np.intp)
+
+
+_use(PSI, AXES)
 
 
 def crush_groups(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, k_c: ArrayLike,
@@ -89,35 +122,33 @@ def crush_groups(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, k_c: ArrayLike,
     return m2 / M, k_c / k2, F_c / (M * G), M * v0 * np.sqrt(k2 / m2) / F_c
 
 
-def _cell(ax: np.ndarray, x: np.ndarray) -> np.ndarray:
-    """Lower node of the cell holding x (log10 values) on the uniform axis ``ax``."""
-    step = ax[1] - ax[0]
-    return np.clip(np.floor((x - ax[0]) / step).astype(int), 0, ax.size - 2)
-
-
 def table_psi(mu: ArrayLike, kappa: ArrayLike, rho: ArrayLike,
               theta: ArrayLike) -> tuple[np.ndarray, np.ndarray]:
     """The table's read (module docstring) of ψ = F_frame/F_c at the groups, and
     whether the point lies inside the grid in μ, κ and ρ (bool; ψ is ``inf`` where
-    not). Dimensionless; the largest of the cell's corners in μ, κ, ρ at the cell's
-    upper θ node, times :data:`MARGIN` (soft contacts κ < ``KAPPA_SPLIT``, stiff)."""
+    not). Dimensionless; the largest of the cell's corners in μ, κ, ρ, from the
+    cell's upper θ node to the next (module docstring), times :data:`MARGIN` (soft
+    contacts κ < ``KAPPA_SPLIT``, stiff)."""
     mu, kappa, rho, theta = np.broadcast_arrays(*(np.asarray(v, float)
                                                   for v in (mu, kappa, rho, theta)))
-    with np.errstate(divide="ignore", invalid="ignore"):
-        x = [np.log10(mu), np.log10(kappa), np.log10(rho - 1.0)]
-        lt = np.log10(np.maximum(theta, 1e-300))
-    inside = np.ones(mu.shape, bool)
-    for ax, v in zip(_AX[:3], x, strict=True):
-        inside &= (v >= ax[0]) & (v <= ax[-1])
-    idx = [_cell(ax, np.where(inside, v, ax[0])) for ax, v in zip(_AX[:3], x, strict=True)]
-    at = _AX[3]
-    j = np.clip(np.ceil((lt - at[0]) / (at[1] - at[0]) - 1e-12).astype(int), 0,
-                at.size - 1)
-    psi = np.full(mu.shape, -np.inf)
-    for a in (0, 1):
-        for b in (0, 1):
-            for c in (0, 1):
-                psi = np.maximum(psi, _PSI[idx[0] + a, idx[1] + b, idx[2] + c, j])
+    # the logs of the groups, (4, n); ρ ≤ 1 and θ = 0 fall below the grid
+    x = np.log10(np.maximum(np.stack([mu.ravel(), kappa.ravel(), rho.ravel() - 1.0,
+                                      theta.ravel()]), 1e-300))
+    u = (x - _LO) / _STEP
+    inside = np.all((u[:3] >= 0.0) & (u[:3] <= _CELLS + 1.0), axis=0)
+    # the cell in μ, κ, ρ (its corner maximum, _CORNERS)
+    cell = np.clip(np.floor(np.where(inside, u[:3], 0.0)), 0.0, _CELLS).astype(np.intp)
+    base = _STRIDES @ cell
+    # θ in the cell (θ_{j−1}, θ_j]: from the node above, R_j, at its foot to the next,
+    # R_{j+1}, at its top, f = 0 … 1 (continuous, non-decreasing, never below R_j)
+    t = np.nan_to_num(u[3], nan=0.0)
+    j = np.clip(np.ceil(t), 0.0, _NT - 1.0)
+    f = np.clip(t - (j - 1.0), 0.0, 1.0)
+    ji = j.astype(np.intp)
+    lo = _CORNERS.take(base + ji)
+    hi = _CORNERS.take(base + np.minimum(ji + 1, _NT - 1))
+    psi = (lo + f * (hi - lo)).reshape(mu.shape)
+    inside = inside.reshape(mu.shape)
     margin = np.where(kappa < KAPPA_SPLIT, MARGIN[0], MARGIN[1])
     return np.where(inside, margin * psi, np.inf), inside
 
@@ -135,8 +166,7 @@ def crush_factor(W: ArrayLike, h: ArrayLike, F_c: ArrayLike, k_c: ArrayLike,
         *(np.asarray(v, float) for v in (W, h, F_c, k_c, k2, m2, F_chain, B_f)))
     M = W / G
     v0 = np.sqrt(2.0 * G * np.maximum(h, 0.0))
-    psi, _ = table_psi(*crush_groups(M, v0, F_c, k_c, m2, k2))
-    with np.errstate(invalid="ignore", over="ignore"):
-        F = np.minimum(F_c * psi, B_f)
-        phi = np.where(F_chain > 0.0, F / F_chain, 1.0)
+    psi, _ = table_psi(m2 / M, k_c / k2, F_c / W, M * v0 * np.sqrt(k2 / m2) / F_c)
+    with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
+        phi = np.minimum(F_c * psi, B_f) / F_chain
     return np.maximum(np.where(np.isfinite(phi), phi, 1.0), 1.0)

@@ -5,7 +5,7 @@ PSI[μ][κ][ρ][θ] on the AXES (log10 μ, log10 κ, log10(ρ − 1), log10 θ),
 running maximum along θ (1 sample(s) a cell). MARGIN (soft contacts,
 κ < 1; stiff): the largest exact ÷ max(1, read) of 4500 random
 systems off the grid (seed 20261205) in the band, rounded up; there soft:
-median 0.877, 99th percentile 1.009, largest 1.189;
+median 0.869, 99th percentile 1.007, largest 1.187;
 stiff: 0.999, 1.000, 1.000.
 """
 

@@ -56,7 +56,7 @@ gives the history 0.78 F_c (measured 1.29 at most)."""
 
 PATH_SPAN = 1.6
 """The default path's force (with the table) at most this factor above the history
-on these systems (measured 1.01–1.42: the table's cell read at its largest
+on these systems (measured 1.01–1.44: the table's cell read at its largest
 corner, where the short crushes of a light load vary fast between the nodes)."""
 
 
@@ -123,7 +123,7 @@ def test_framing_under_a_crushing_layer_follows_the_time_history(histories):
     # the default path's force (the pulse model times the exact history's table
     # factor φ ≥ 1, crush_table) is never below the history either, and on these
     # stiff contacts (k_c 10–4000 × k2) the table reads up to its cell's largest corner above the
-    # pulse model where that governs (measured 1.01–1.42: the cell's largest corner)
+    # pulse model where that governs (measured 1.01–1.44: the cell's largest corner)
     path = np.array([r["path"] / r["frame"] for r in histories])
     assert path.min() >= 1.0 - TH_TOL, path
     assert np.all(path >= ratios)
