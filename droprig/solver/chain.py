@@ -1007,7 +1007,10 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
         ab = after_bottoming(W[bot], h[bot], inp.F_c[bot], inp.s_c[bot], comp.f[bot],
                              comp.f_series[bot], comp.f_s[bot], sm.m2[bot],
                              one.F_crush[bot], crush_depth_available(c))
-        Fc[bot], Ff[bot] = ab.F_contact, ab.F_frame
+        Fc[bot] = ab.F_contact
+        Ff[bot] = np.maximum(ab.F_frame, bottoming_floor(
+            W[bot], inp.F_c[bot], inp.s_c[bot], comp.f_struct[bot], sm.eta[bot],
+            comp.f_series[bot], comp.f_s[bot], sm.m2[bot]))
         F_deck[bot] = np.where(soft[bot], ab.F_contact, ab.F_one)
     # a layer that crushes and does not bottom out: the framing's response to the
     # layer's force for the crush's duration (framing_while_crushing)
@@ -1078,6 +1081,25 @@ def crushing_parts(W: np.ndarray, h: np.ndarray, F_c: np.ndarray,
     F_chain = np.maximum(F_c, np.minimum(F_p, Bf))
     phi = crush_table.crush_factor(W, h, F_c, 1.0 / f_series, 1.0 / f_s, m2, F_chain, Bf)
     return F_chain, phi
+
+
+def bottoming_floor(W: np.ndarray, F_c: np.ndarray, s_c: np.ndarray, f: np.ndarray,
+                    eta: np.ndarray, f_series: np.ndarray, f_s: np.ndarray,
+                    m2: np.ndarray) -> np.ndarray:
+    """The framing force (N) of a layer that just bottoms out, by the crushing branch:
+    :func:`framing_while_crushing` at the energy height h_b where the one-mass
+    balance spends the stroke, η·W·h_b = (F_c − W)·s_c − W·F_c·f + F_c²·f/2
+    (:func:`droprig.solver.impact.crush_depth` with c = s_c; f the compliance, m/N,
+    and η the mass efficiency the bottoming is decided with). A drop that bottoms the
+    layer out takes at least this (a load may fall from any lower height, the
+    envelope of :func:`two_forces`): without it the exact history's table could give
+    the crushing branch just below h_b more than the after-bottoming model just
+    above it, and the force would fall with the fall (the searches bisect on it).
+    W, F_c in N; s_c in m; f_series, f_s in m/N; m2 in kg."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        h_b = ((F_c - W) * s_c - W * F_c * f + 0.5 * F_c ** 2 * f) / (eta * W)
+    h_b = np.where(np.isfinite(h_b), np.maximum(h_b, 0.0), 0.0)
+    return framing_while_crushing(W, h_b, F_c, f_series, f_s, m2)
 
 
 def crushing_peak(c: Chain) -> np.ndarray:
@@ -3116,7 +3138,9 @@ class TwoForceKernel:
             ab = after_bottoming(Wp[bot], hp[bot], F_c[bot], s_c[bot], f[bot],
                                  self.f_series[ib], self.f_s[ib], self.m2[ib],
                                  self.F_crush[ib], self.depth, env)
-            F[bot] = ab.F_frame
+            F[bot] = np.maximum(ab.F_frame, bottoming_floor(
+                Wp[bot], F_c[bot], s_c[bot], f[bot], ep[bot], self.f_series[ib],
+                self.f_s[ib], self.m2[ib]))
             Fd[bot] = np.where(self.soft[ib], ab.F_contact, ab.F_one)
         Ff[p], F_deck[p], eta_f[p] = F, Fd, ep
         return Ff, F_deck, eta_f
