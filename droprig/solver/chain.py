@@ -71,6 +71,7 @@ from droprig.solver import (
     columns,
     composite,
     contact,
+    crush_table,
     crushing,
     deck,
     limits,
@@ -1340,7 +1341,10 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
         ab = after_bottoming(W[bot], h[bot], inp.F_c[bot], inp.s_c[bot], comp.f[bot],
                              comp.f_series[bot], comp.f_s[bot], sm.m2[bot],
                              one.F_crush[bot], crush_depth_available(c))
-        Fc[bot], Ff[bot] = ab.F_contact, ab.F_frame
+        Fc[bot] = ab.F_contact
+        Ff[bot] = np.maximum(ab.F_frame, bottoming_floor(
+            W[bot], inp.F_c[bot], inp.s_c[bot], comp.f_struct[bot], sm.eta[bot],
+            comp.f_series[bot], comp.f_s[bot], sm.m2[bot]))
         F_deck[bot] = np.where(soft[bot], ab.F_contact, ab.F_one)
     # a layer that crushes and does not bottom out: the framing's response to the
     # layer's force for the crush's duration (framing_while_crushing)
@@ -1364,7 +1368,18 @@ def framing_while_crushing(W: np.ndarray, h: np.ndarray, F_c: np.ndarray,
                            m2: np.ndarray) -> np.ndarray:
     """The force on the framing (N) under a crushable layer that crushes and does not
     bottom out (crush force F_c, N), the struck floor's mass m2 (kg) on the framing's
-    compliance f_s (m/N): F_f = max(F_c, min(F_pulse, B_f)).
+    compliance f_s (m/N): F_f = φ·F_chain, with F_chain = max(F_c, min(F_pulse, B_f))
+    and φ ≥ 1 the exact history's correction (:func:`crushing_parts`)."""
+    F_chain, phi = crushing_parts(W, h, F_c, f_series, f_s, m2)
+    return F_chain * phi
+
+
+def crushing_parts(W: np.ndarray, h: np.ndarray, F_c: np.ndarray,
+                   f_series: np.ndarray, f_s: np.ndarray,
+                   m2: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The two parts of :func:`framing_while_crushing`: the chain's model
+    F_chain = max(F_c, min(F_pulse, B_f)) (N) and the factor φ ≥ 1 on it (the
+    trace shows both).
 
     * F_pulse: the layer's force F_c on the floor for as long as the crush lasts
       (t_c, from the load's deceleration (F_c − W)/M against the floor's motion
@@ -1375,21 +1390,50 @@ def framing_while_crushing(W: np.ndarray, h: np.ndarray, F_c: np.ndarray,
       v0 = √(2·g·h) from the energy height h (m).
     * B_f: the energy bound of the whole fall on the framing with the layer rigid
       (:func:`droprig.solver.struck_mass.energy_bounds` with the contact's f_series,
-      m/N): the layer's work only takes energy away.
+      m/N): the layer's work only takes energy away; it bounds every history.
     * At least F_c: below the layer's crushing threshold the one-mass balance gives
       the framing up to F_c, and a load lowered onto the layer may strike from any
       lower height (the envelope over lower drops, as :func:`two_forces`), so the
       force stays one non-decreasing function of the fall (the searches need it).
-      A short crush against a long framing period gives the history 0.78–1.0 × F_c
-      (tests/solver/test_layer_framing.py): the floor costs at most ~30 % there.
+    * φ = max(1, min(F_c·ψ, B_f)/F_chain)
+      (:func:`droprig.solver.crush_table.crush_factor`):
+      ψ the exact two-mass history's framing peak over F_c
+      (:func:`droprig.solver.crushhistory.crush_history`, the contact spring
+      1/f_series between the load and the layer, the load free to bounce and
+      re-crush), read from a dimensionless table in m2/M, k_c/k2, F_c/W and the
+      height's group, conservatively (the cell's largest corner, non-decreasing in
+      the fall). The pulse model takes the contact rigid and the load riding on the
+      floor after the crush; with a soft underside the load bounces and the history
+      reads up to ~1.5 × it (the steel demo's joist bundle at PAD1: 1.15 ×).
+      φ·F_chain is non-decreasing in h (both parts are).
 
-    Before this the framing was given F_c alone, which time histories exceed by up
-    to 2× where the crush lasts half the floor's period or more. W in N."""
+    W in N."""
     M = W / impact_mod.G
     v0 = np.sqrt(2.0 * impact_mod.G * np.maximum(h, 0.0))
     F_p = impact_mod.framing_under_crush(M, v0, F_c, m2, 1.0 / f_s)
     _, Bf = struck_mass_mod.energy_bounds(W, h, f_series, f_s)
-    return np.maximum(F_c, np.minimum(F_p, Bf))
+    F_chain = np.maximum(F_c, np.minimum(F_p, Bf))
+    phi = crush_table.crush_factor(W, h, F_c, 1.0 / f_series, 1.0 / f_s, m2, F_chain, Bf)
+    return F_chain, phi
+
+
+def bottoming_floor(W: np.ndarray, F_c: np.ndarray, s_c: np.ndarray, f: np.ndarray,
+                    eta: np.ndarray, f_series: np.ndarray, f_s: np.ndarray,
+                    m2: np.ndarray) -> np.ndarray:
+    """The framing force (N) of a layer that just bottoms out, by the crushing branch:
+    :func:`framing_while_crushing` at the energy height h_b where the one-mass
+    balance spends the stroke, η·W·h_b = (F_c − W)·s_c − W·F_c·f + F_c²·f/2
+    (:func:`droprig.solver.impact.crush_depth` with c = s_c; f the compliance, m/N,
+    and η the mass efficiency the bottoming is decided with). A drop that bottoms the
+    layer out takes at least this (a load may fall from any lower height, the
+    envelope of :func:`two_forces`): without it the exact history's table could give
+    the crushing branch just below h_b more than the after-bottoming model just
+    above it, and the force would fall with the fall (the searches bisect on it).
+    W, F_c in N; s_c in m; f_series, f_s in m/N; m2 in kg."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        h_b = ((F_c - W) * s_c - W * F_c * f + 0.5 * F_c ** 2 * f) / (eta * W)
+    h_b = np.where(np.isfinite(h_b), np.maximum(h_b, 0.0), 0.0)
+    return framing_while_crushing(W, h_b, F_c, f_series, f_s, m2)
 
 
 def crushing_peak(c: Chain) -> np.ndarray:
@@ -3447,7 +3491,9 @@ class TwoForceKernel:
             ab = after_bottoming(Wp[bot], hp[bot], F_c[bot], s_c[bot], f[bot],
                                  self.f_series[ib], self.f_s[ib], self.m2[ib],
                                  self.F_crush[ib], self.depth, env)
-            F[bot] = ab.F_frame
+            F[bot] = np.maximum(ab.F_frame, bottoming_floor(
+                Wp[bot], F_c[bot], s_c[bot], f[bot], ep[bot], self.f_series[ib],
+                self.f_s[ib], self.m2[ib]))
             Fd[bot] = np.where(self.soft[ib], ab.F_contact, ab.F_one)
         Ff[p], F_deck[p], eta_f[p] = F, Fd, ep
         return Ff, F_deck, eta_f

@@ -182,20 +182,27 @@ def crush_duration(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, m2: ArrayLike,
         A = F_c / (m2 * w)
         t_half = np.pi / w
         t = np.zeros(M.shape)
-        live = (a > 0.0) & (v0 > 0.0) & np.isfinite(w) & (w > 0.0)
+        # the steps on the cases still converging only (each case's arithmetic is
+        # that of the whole-array iteration)
+        i = np.flatnonzero((a > 0.0) & (v0 > 0.0) & np.isfinite(w) & (w > 0.0))
+        ai, v0i, Ai, wi, bi, thi = (x.ravel()[i] for x in (a, v0, A, w, F_c / m2, t_half))
+        ti = np.zeros(i.size)
         for _ in range(CRUSH_NEWTON):
-            if not live.any():
+            if i.size == 0:
                 break
-            wt = w * t
-            g = v0 - a * t - A * np.sin(wt)
-            gp = -a - (F_c / m2) * np.cos(wt)
-            step = np.where(live & (gp < 0.0), -g / np.where(gp < 0.0, gp, -1.0), 0.0)
+            wt = wi * ti
+            g = v0i - ai * ti - Ai * np.sin(wt)
+            gp = -ai - bi * np.cos(wt)
+            step = np.where(gp < 0.0, -g / np.where(gp < 0.0, gp, -1.0), 0.0)
             # g' ≥ 0 before the root: the crush outlasts half the period
-            past = live & (gp >= 0.0)
-            t = np.where(past, t_half, t + step)
-            past = past | (live & (t >= t_half))
-            t = np.where(past, t_half, t)
-            live = live & ~past & (np.abs(step) > 1e-13 * np.maximum(t, 1e-300))
+            past = gp >= 0.0
+            ti = np.where(past, thi, ti + step)
+            past = past | (ti >= thi)
+            ti = np.where(past, thi, ti)
+            t.ravel()[i] = ti
+            keep = ~past & (np.abs(step) > 1e-13 * np.maximum(ti, 1e-300))
+            i, ai, v0i, Ai, wi, bi, thi, ti = (x[keep] for x in
+                                               (i, ai, v0i, Ai, wi, bi, thi, ti))
     t = np.where(a > 0.0, t, np.inf)
     return np.where(v0 > 0.0, t, 0.0)
 

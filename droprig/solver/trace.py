@@ -35,11 +35,13 @@ from droprig.solver.chain import (
     LocalDamage,
     SlabResistance,
     StruckMass,
+    crushing_parts,
     energy_fall,
     outputs,
     residual_height,
     slab_rotation_limit,
 )
+from droprig.solver.crush_table import crush_groups, table_psi
 from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import GoverningPoint, governing_point, point_case
 from droprig.solver.floor import FloorModel
@@ -413,8 +415,8 @@ def _impact_steps(sheet: _Sheet) -> None:
         ("F = min(two-mass envelope at h_r (≤ 2·max(F_crush, F_1)) + 2·F_c, energy "
          "bound of h − (F_c/W − 1)·s_c), at least min(2·F_c, energy bound of h) "
          "(droprig.solver.chain.after_bottoming)" if after else
-         "F = max(F_c, min(F_pulse(t_c, T), energy bound of h)) "
-         "(droprig.solver.chain.framing_while_crushing)" if crushing else
+         "F = φ_crush·F_chain (droprig.solver.chain.framing_while_crushing)"
+         if crushing else
          "F = crush force, or elastic after bottoming "
          "(droprig.solver.impact.impact_crushable)"),
         {"K": (imp.K[0], "dimensionless"), "W": (W, "force")},
@@ -465,6 +467,10 @@ def _deflection_steps(sheet: _Sheet, W: float, two: bool) -> None:
 
 _SRC_CRUSH = ("Biggs 1964 ch. 2, rectangular pulse (from memory); Clough & Penzien ch. 2 "
               "(free vibration); droprig.solver.impact.framing_under_crush")
+_SRC_CRUSH_TABLE = ("exact piecewise-linear two-mass history, Biggs 1964 ch. 2 and 5, "
+                    "Clough & Penzien ch. 2-4 and 9-12 (from memory; "
+                    "droprig.solver.crushhistory), tabulated by "
+                    "droprig.solver.crush_table (scripts/build_crush_table.py)")
 
 
 def _crushing_steps(sheet: _Sheet, W: float, h_e: float) -> None:
@@ -483,6 +489,28 @@ def _crushing_steps(sheet: _Sheet, W: float, h_e: float) -> None:
         {"v0": (v0, "speed"), "F_c": (F_c, "force"), "W": (W, "force"),
          "m2": (m2, "mass"), "k2": (k2, "stiffness")},
         float(crush_duration(M, v0, F_c, m2, k2)) / T, "dimensionless", _SRC_CRUSH)
+    f_series = float(comp.f_series[0])
+    F_chain, phi = crushing_parts(np.array([W]), np.array([h_e]), np.array([F_c]),
+                                  comp.f_series[:1], comp.f_s[:1], sm.m2[:1])
+    add("Force on the framing by the pulse model (the layer's force for the crush, "
+        "then the load riding on the floor; at least F_c, at most the energy bound)",
+        "F_chain", "F_chain = max(F_c, min(F_pulse(t_c, T), W(1 + √(1 + 2h_e/(W·f₂) "
+        "+ f_c/f₂))))",
+        {"F_c": (F_c, "force"), "W": (W, "force"), "h_e": (h_e, "length"),
+         "f₂": (float(comp.f_s[0]), "compliance"), "f_c": (f_series, "compliance")},
+        float(F_chain[0]), "force", _SRC_CRUSH)
+    mu, kappa, rho, theta = crush_groups(M, v0, F_c, 1.0 / f_series, m2, k2)
+    psi, _ = table_psi(mu, kappa, rho, theta)
+    _, B_f = struck_mass.energy_bounds(W, h_e, f_series, float(comp.f_s[0]))
+    add("Correction for the exact history of the load bouncing and re-crushing on "
+        "its contact: the table of the exact two-mass history's framing peak over F_c "
+        "at the groups (θ = M·v0·√(k2/m2)/F_c), never below 1", "φ_crush",
+        "φ_crush = max(1, min(F_c·ψ, B_f)/F_chain), ψ = table(m2/M, k_c/k2, F_c/W, θ)",
+        {"F_c": (F_c, "force"), "ψ": (float(psi), "dimensionless"),
+         "m2/M": (float(mu), "dimensionless"), "k_c/k2": (float(kappa), "dimensionless"),
+         "F_c/W": (float(rho), "dimensionless"), "θ": (float(theta), "dimensionless"),
+         "B_f": (float(B_f), "force"), "F_chain": (float(F_chain[0]), "force")},
+        float(phi[0]), "dimensionless", _SRC_CRUSH_TABLE)
 
 
 _SRC_TWO_MASS = ("CEB Bulletin 187 (1988) two-mass model (from memory); Clough & "
