@@ -225,7 +225,9 @@ def test_verdict_column_is_the_chains_own_force_with_amplification_off() -> None
                                        case.zone.hoist_speed)
     F = float(chain[Impact].F[0])
     F_c = float(chain[Impact].contact[0])
-    assert F == pytest.approx(2.0 * F_c, rel=1e-6), "the crushing pad's framing force"
+    # 2 × F_c by hand (the exact crush history agrees within 3e-5); the default path
+    # reads the crush table's envelope of that history, at most 2 % above it
+    assert 2.0 * F_c <= F <= 1.02 * 2.0 * F_c, "the crushing pad's framing force"
     v = verify_point(p, "MC1", "AHU-3 (new)", x, y).verification
     assert v.verdict["force"] == pytest.approx(F_c, rel=REL)
     # the member's moment: its share w of F at the struck point of the simply supported

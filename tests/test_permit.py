@@ -452,10 +452,14 @@ def test_demo_pad_credit_follows_the_footprint_on_it():
     m2, k2 = float(ch[StruckMass].m2[0]), 1.0 / float(ch[Compliance].f_s[0])
     v0, a = math.sqrt(2.0 * 9.80665 * 0.3), (90e3 - W) / 4200.0
     assert (v0 - 90e3 / math.sqrt(k2 * m2)) / a > math.pi * math.sqrt(m2 / k2)
-    assert imp.F[0] == pytest.approx(180e3, rel=1e-9)
+    # the default path reads the crush table's envelope of the exact two-mass crush
+    # history (chain.framing_while_crushing, crush_table): never below it, here 1.4 %
+    # above (182.5 kN); the exact history itself (crushhistory.crush_history) gives
+    # 179.995 kN, the hand value 2·F_c within 3e-5
+    assert 180e3 <= imp.F[0] <= 1.02 * 180e3
     assert imp.bottomed[1] and imp.F[1] > 90e3
     assert not imp.bottomed[2] and imp.contact[2] == pytest.approx(90e3, rel=1e-9)
-    assert imp.F[2] <= 180e3 * (1.0 + 1e-9)
+    assert imp.F[2] <= 1.02 * 180e3  # the table's envelope, as at the bay interior
 
 
 def test_demo_allowable_mass_counts_the_pad():
@@ -472,8 +476,11 @@ def test_demo_allowable_mass_counts_the_pad():
     pts = [(x, y) for x in (1.5, 3.75, 6.0, 9.0, 11.25, 13.5) for y in (1.5, 4.5, 7.5)]
     ch = _rooftop_chain(pts)
     out = outputs(ch)
-    np.testing.assert_allclose(ch[Impact].F, 180e3, rtol=1e-9)
-    holds = ch[Checks].F_allow >= 180e3
+    # 2·F_c by hand and by the exact crush history; the default path's crush table
+    # reads its envelope, 1.4-1.6 % above (182.5-182.9 kN; never below)
+    F = ch[Impact].F
+    assert np.all((F >= 180e3) & (F <= 1.02 * 180e3))
+    holds = ch[Checks].F_allow >= F
     assert holds.sum() == 16 and not holds[1] and not holds[7]
     assert np.all((out["response"] == 0) == holds)  # elastic where it allows 180 kN
     assert np.all(out["allowable_mass"][holds] >= 4200.0)
@@ -535,8 +542,12 @@ def test_rooftop_demo_keeps_the_units_off_the_roof():
             if bv.load_name == unit:
                 assert bv.verdict == "not_acceptable", (unit, bv.bay_id)
                 assert "exclude_area" in [c.kind for c in bv.conditions]
+    # the hand value 0.524 m (a 24 mm fall) is the pulse model's; the default path reads
+    # the crush table's envelope of the exact history, above it at this soft-contact
+    # point (crush29: 99.6 kN against the exact 66.3 kN for a lighter trial load at
+    # 0.3 m): 0.513 m, a 13 mm fall; the verdict is the same either way
     bv = pc.bay("MC1", "AHU-3 (new)", "1-2/A-B")
-    assert bv.allowable_drop_height == pytest.approx(0.524, abs=2e-3)
+    assert 0.500 < bv.allowable_drop_height <= 0.524 + 2e-3
     assert LIMIT_MARGIN * bv.allowable_drop_height < 0.5  # below the pad's top
     for bay_id in ("1-2/A-B", "2-3/A-B"):
         bv = pc.bay("MC1", "Spreader beam 4 m", bay_id)
