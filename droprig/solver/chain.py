@@ -1338,14 +1338,7 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
     eta_frame = np.where(two, struck_mass_mod.equivalent_eta(W, h, comp.f, Ff, sm.eta),
                          sm.eta)
     if bot.any():
-        ab = after_bottoming(W[bot], h[bot], inp.F_c[bot], inp.s_c[bot], comp.f[bot],
-                             comp.f_series[bot], comp.f_s[bot], sm.m2[bot],
-                             one.F_crush[bot], crush_depth_available(c))
-        Fc[bot] = ab.F_contact
-        Ff[bot] = np.maximum(ab.F_frame, bottoming_floor(
-            W[bot], inp.F_c[bot], inp.s_c[bot], comp.f_struct[bot], sm.eta[bot],
-            comp.f_series[bot], comp.f_s[bot], sm.m2[bot]))
-        F_deck[bot] = np.where(soft[bot], ab.F_contact, ab.F_one)
+        Fc[bot], Ff[bot], F_deck[bot] = _bottomed_forces(c, h, one, bot)
     # a layer that crushes and does not bottom out: the framing's response to the
     # layer's force for the crush's duration (framing_while_crushing)
     crushing = pad & ~one.bottomed & (one.crush > 0.0)
@@ -1361,6 +1354,26 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
                   bottomed=one.bottomed, F_crush=one.F_crush, deck_crush=one.deck_crush,
                   deck_through=one.deck_through, F_contact=Fc, eta_frame=eta_frame,
                   two_mass=two, F_deck=F_deck, searched=two | pad)
+
+
+def _bottomed_forces(c: Chain, h: np.ndarray, one: Impact, bot: np.ndarray
+                     ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """:func:`two_forces`' contact, framing and deck forces (N) at the rows ``bot``
+    where a crushable layer bottoms out: the after-bottoming stage
+    (:func:`after_bottoming`), the framing at least the crushing branch's force at the
+    bottoming height (:func:`bottoming_floor`), the deck the contact force under a
+    declared underside and the one-mass force otherwise."""
+    inp, comp, sm = c[LoadInputs], c[Compliance], c[StruckMass]
+    assert sm.m2 is not None
+    W = inp.W
+    ab = after_bottoming(W[bot], h[bot], inp.F_c[bot], inp.s_c[bot], comp.f[bot],
+                         comp.f_series[bot], comp.f_s[bot], sm.m2[bot],
+                         one.F_crush[bot], crush_depth_available(c))
+    Ff = np.maximum(ab.F_frame, bottoming_floor(
+        W[bot], inp.F_c[bot], inp.s_c[bot], comp.f_struct[bot], sm.eta[bot],
+        comp.f_series[bot], comp.f_s[bot], sm.m2[bot]))
+    F_deck = np.where(inp.f_load[bot] > 0.0, ab.F_contact, ab.F_one)
+    return ab.F_contact, Ff, F_deck
 
 
 def framing_while_crushing(W: np.ndarray, h: np.ndarray, F_c: np.ndarray,
