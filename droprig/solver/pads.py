@@ -33,6 +33,7 @@ __all__ = [
     "spent_layer_compliance",
     "spring_mat_stiffness",
     "tip_offset",
+    "tip_offset_turn",
 ]
 
 SPENT_LAYER_MODULUS = 370e6
@@ -184,6 +185,13 @@ class _Seg(NamedTuple):
 
 def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: Sequence[Segment],
                iterations: int = 40, turn: bool = False) -> np.ndarray:
+    """:func:`tip_offset_turn`'s Δ (m), or with ``turn`` its θ (rad)."""
+    delta, theta = tip_offset_turn(L, weight, t, segments, iterations)
+    return theta if turn else delta
+
+
+def tip_offset_turn(L: ArrayLike, weight: ArrayLike, t: float, segments: Sequence[Segment],
+                    iterations: int = 40) -> tuple[np.ndarray, np.ndarray]:
     """The height Δ (m) by which a load whose footprint lies partly on a crushable
     layer of thickness ``t`` (m) and tips over the layer's edge onto the deck falls
     less than its drop height H: the kinetic energy it can bring onto the deck with
@@ -213,8 +221,8 @@ def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: Sequence[Seg
     E_kin then meets the deck as the chain's whole mass does — for the edge's point
     m*·v_E² ≤ M·v² + I_G·ω² (Cauchy–Schwarz, m* = M/(1 + M·r²/I_G) of Goldsmith,
     *Impact* 1960 ch. 2 — from memory). No layer under the footprint: Δ = 0 (the bare
-    deck from H). SI units. ``turn``: the turn θ (rad) at which φ is least, in
-    place of Δ (the calculation trace shows it).
+    deck from H). SI units. Returns Δ and the turn θ (rad) at which φ is least (the
+    calculation trace shows it), from one search.
     """
     L, W = np.broadcast_arrays(np.asarray(L, float), np.asarray(weight, float))
     if np.any(~(L > 0.0)) or np.any(~(W > 0.0)):
@@ -259,8 +267,7 @@ def tip_offset(L: ArrayLike, weight: ArrayLike, t: float, segments: Sequence[Seg
     wedge = t * np.sqrt(sig_max * np.maximum(b_sum, 1e-12) / (W * L)) + t / L
     hi = np.minimum(np.where(s_near > 0.0, t / np.where(s_near > 0.0, s_near, 1.0), np.inf),
                     wedge) * 1.01 + 1e-9
-    delta, theta = _least(phi, hi, iterations)
-    return theta if turn else delta
+    return _least(phi, hi, iterations)
 
 
 def _least(phi: Callable[[np.ndarray], np.ndarray], hi: np.ndarray,
@@ -357,8 +364,7 @@ def footprint_tip_turn(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike],
     if cases is None:
         return out
     at, L, W, segments, dirs = cases
-    d = tip_offset(L, W, t, segments)
-    th = tip_offset(L, W, t, segments, turn=True)
+    d, th = tip_offset_turn(L, W, t, segments)
     for j in np.argsort(-d, kind="stable"):  # the least last: it stays
         i = at[j]
         if d[j] <= out.delta[i]:
