@@ -394,15 +394,6 @@ def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
                       fall_offset=np.where(np.isfinite(delta), delta, H))
 
 
-def tip_off_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """The rows of ``d``'s points where a load lands partly on a crushable pad and can
-    tip over its edge onto the deck at its drop height — Δ finite and the drop height
-    H above it (:func:`tip_offsets`) — their Δ and the pad's thickness (m)
-    (:func:`tip_off_case_rows` where H > Δ)."""
-    rows, delta, top, reach = tip_off_case_rows(d)
-    return rows[reach], delta[reach], top[reach]
-
-
 def tip_off_case_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """The rows of ``d``'s points where a load lands partly on a crushable pad and may
     tip over its edge onto the deck at some height — Δ finite (:func:`tip_offsets`) —
@@ -507,7 +498,7 @@ def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray],
                   top: np.ndarray, reach: np.ndarray | None = None
                   ) -> dict[str, np.ndarray]:
     """The outputs of points whose load lands partly on a crushable pad
-    (:func:`tip_off_rows`). Drop point on the pad: the worse of landing on it
+    (:func:`tip_off_case_rows`). Drop point on the pad: the worse of landing on it
     (``on_pad``, its crush credit by area) and tipping over its edge onto the deck
     (``tip``, :func:`tip_offsets`) governs, as between the two landings
     (:func:`merge_landings`); the deck's local damage the worse of the two (start

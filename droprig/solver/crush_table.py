@@ -166,7 +166,7 @@ def crush_factor(W: ArrayLike, h: ArrayLike, F_c: ArrayLike, k_c: ArrayLike,
         *(np.asarray(v, float) for v in (W, h, F_c, k_c, k2, m2, F_chain, B_f)))
     M = W / G
     v0 = np.sqrt(2.0 * G * np.maximum(h, 0.0))
-    psi, _ = table_psi(m2 / M, k_c / k2, F_c / W, M * v0 * np.sqrt(k2 / m2) / F_c)
+    psi, _ = table_psi(*crush_groups(M, v0, F_c, k_c, m2, k2))
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
         phi = np.minimum(F_c * psi, B_f) / F_chain
     return np.maximum(np.where(np.isfinite(phi), phi, 1.0), 1.0)

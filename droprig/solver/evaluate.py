@@ -185,7 +185,7 @@ def governing_point(fm: FloorModel, project: Project, load: LiftLoad, geo: Geome
     """The case and landing that govern a single point (``geo`` of one point), chosen as
     the floor analysis chooses them (:func:`_outputs`): the landings
     (:func:`governing_landing_chain`), then where the footprint lies partly on a
-    crushable pad (:func:`~droprig.solver.chain.tip_off_rows`) the worse of landing on
+    crushable pad (:func:`~droprig.solver.chain.tip_off_case_rows`) the worse of landing on
     it and tipping over its edge onto the deck (the response, then the utilisation,
     :func:`~droprig.solver.chain.tilted_governs`), the tip-off alone with the drop
     point off the pad; where the drop height is at most the tip-off's Δ

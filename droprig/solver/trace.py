@@ -112,7 +112,7 @@ def _tip_off_steps(sheet: _Sheet, gp: GoverningPoint) -> None:
                   "U", "U of the tip-off", {"U_tip": (U_tip, "dimensionless")}, U_tip,
                   "dimensionless", _SRC_WORSE)
     tt = gp.tip
-    if tt is None:  # pragma: no cover - tip_off_rows found the case, so its turn exists
+    if tt is None:  # pragma: no cover - tip_off_case_rows found the case, so its turn exists
         return
     W = sheet.load.weight
     sheet.add(f"Height the tip-off takes off the fall: least over the turn θ of the load "
