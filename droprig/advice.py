@@ -103,8 +103,10 @@ def advice_text(b: BaySummary, system: UnitSystem = "SI") -> str:
 def _framing_text(b: BaySummary, system: UnitSystem) -> str:
     kind = b.advice_kind
     if kind == "level_below":
-        limit = (f" Below a drop of {fmt_down(b.height_limit, 'length', system)} neither "
-                 "perforation nor scabbing is expected."
+        limit = (f" A drop of no more than {fmt_down(b.height_limit, 'length', system)} "
+                 "neither perforates nor scabs the deck and keeps the framing within its "
+                 + ("ductility and rotation limits." if b.height_limit_yields
+                    else "elastic limits.")
                  if b.height_limit is not None else "")
         return "Keep clear: exclusion zone below. " + local_damage_text(b, system) + limit
     if kind == "opening":

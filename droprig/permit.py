@@ -50,10 +50,8 @@ from droprig.model import (
 from droprig.outcomes import fmt_utilisation_check
 from droprig.solver import (
     LIMIT_MARGIN,
-    MIN_USEFUL_HEIGHT,
     BaySummary,
     Results,
-    offered_limit,
     pad_crush_stress,
 )
 from droprig.units import UnitSystem
@@ -622,19 +620,12 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
         conds.append(Condition("note_level_below", region=region,  # type: ignore
                                below_level_id=below_id, cause="scabbing", **base))
     if kind == "level_below":
-        # a hard load perforates the deck as planned: a hook limit must keep it under
+        # a hard load perforates the deck as planned: the hook limit keeps it under
         # the height where scabbing or perforation starts *and* within the framing's
-        # limits (90 % of the least plastic, else elastic, height); below 50 mm or
-        # under a pad's top no limit is practical and the bay is excluded
-        struct = b.allowable_drop_height_plastic if b.allowable_drop_height_plastic \
-            is not None else b.allowable_drop_height
-        lims = [v for v in (b.height_limit,
-                            None if struct is None else LIMIT_MARGIN * struct)]
-        cap = None if None in lims else min(lims)  # type: ignore[type-var]
-        yields = True
-        if cap is not None:  # the margin on the elastic height unless it may yield
-            cap, yields = offered_limit(cap, b.allowable_drop_height)
-        if cap is not None and cap >= MIN_USEFUL_HEIGHT and cap > thickest:
+        # limits (the solver's perforation_limit); with none, or under a pad's top,
+        # no limit is practical and the bay is excluded
+        cap, yields = b.height_limit, b.height_limit_yields
+        if cap is not None and cap > thickest:
             conds.append(Condition("cap_hook", max_drop_height=cap,  # type: ignore
                                    max_hook_elevation=hook(cap),
                                    hang_length=load.hang_length, region=region, **base))

@@ -56,7 +56,7 @@ from droprig.solver.results import (
     Trace,
     TraceStep,
 )
-from droprig.solver.summary import MIN_USEFUL_HEIGHT, offered_limit
+from droprig.solver.summary import MIN_USEFUL_HEIGHT
 from droprig.solver.timehistory import History
 from droprig.solver.trace import trace_point
 from droprig.solver.verification import (
@@ -167,7 +167,6 @@ __all__ = [
     "is_hard",
     "level_below",
     "member_resistances",
-    "offered_limit",
     "on_rigid_support",
     "pad_crush_stress",
     "planned_height",

@@ -1023,7 +1023,7 @@ def _rewrite(s: BaySummary, trials: list[_Trial]) -> BaySummary:
     wst = RESPONSES.index(s.response)
     h_local = min((v for v in (s.scabbing_height, s.perforation_height) if v is not None),
                   default=None)
-    adv = bay_advice(wst, 0, hp if wst == EXCEEDS else he, k_mat, travel, he, h_local)
+    adv = bay_advice(wst, 0, hp if wst == EXCEEDS else he, k_mat, travel, he, h_local, hp)
     limit = adv.height_limit is not None
     return replace(s, allowable_drop_height=he, allowable_drop_height_plastic=hp,
                    allowable_mass=m_al, allowable_mass_x=m_x, allowable_mass_y=m_y,

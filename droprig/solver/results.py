@@ -58,7 +58,9 @@ edges (:mod:`droprig.advice`).
 * ``opening``: the load can fall through a deck opening: exclusion zone.
 * ``level_below``: a hard load may perforate the deck: the level below is an
   exclusion zone; ``height_limit`` (when offered) is the drop height under which
-  neither perforation nor scabbing starts.
+  neither perforation nor scabbing starts *and* the framing stays within its limits
+  (``droprig.solver.summary.perforation_limit``): on every advice ``height_limit``
+  is the hook limit the permit prints.
 """
 
 LIMIT_MARGIN = 0.9

@@ -30,8 +30,8 @@ from droprig.solver.results import (
     CaseResult,
 )
 
-__all__ = ["MAX_MAT_TRAVEL", "MIN_USEFUL_HEIGHT", "Advice", "bay_advice", "summarise",
-           "without_limit_under_pads"]
+__all__ = ["MAX_MAT_TRAVEL", "MIN_USEFUL_HEIGHT", "Advice", "bay_advice",
+           "perforation_limit", "summarise", "without_limit_under_pads"]
 
 MIN_USEFUL_HEIGHT = 0.05
 """A drop height below this (m) is not offered as advice: it cannot be controlled on
@@ -89,9 +89,34 @@ def without_limit_under_pads(s: BaySummary, thickness: dict[str, float]) -> BayS
                    height_limit_x=None, height_limit_y=None, height_limit_check="")
 
 
+def perforation_limit(h_local: float | None, h_plastic: float | None,
+                      h_elastic: float | None) -> tuple[float | None, bool]:
+    """The hook limit offered over a bay where a hard load, dropped as planned, may
+    go through the deck (m on the datum; ``None``: no practical limit, the bay is kept
+    clear), and whether members may yield under it.
+
+    h_lim = :func:`offered_limit`\\ (:data:`LIMIT_MARGIN` · min(h_local, h_struct),
+    h_elastic), offered from :data:`MIN_USEFUL_HEIGHT` up, where ``h_local`` is the
+    least drop height at which scabbing or perforation starts in the bay and
+    ``h_struct`` the framing's allowable height beyond yield (``h_plastic``), else its
+    elastic one (``h_elastic``); either missing: no limit. Below it the deck stays
+    whole and the framing within its limits. One meaning for ``height_limit`` on
+    every advice: the limit the permit prints (:func:`droprig.permit.
+    derive_conditions`); until stop 30 this bay's field held 0.9 · h_local alone and
+    the permit took the framing's part on top (the steel demo's spreader bar in
+    3-4/B-C: 1.552 m in the results against the 0.547 m printed). The 90 % margin:
+    :data:`LIMIT_MARGIN` (common practice, no source)."""
+    h_struct = h_plastic if h_plastic is not None else h_elastic
+    if h_local is None or h_struct is None:
+        return None, False
+    h, yields = offered_limit(LIMIT_MARGIN * min(float(h_local), float(h_struct)),
+                              h_elastic)
+    return (h, yields) if h >= MIN_USEFUL_HEIGHT else (None, False)
+
+
 def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | None,
                mat_travel: float | None = None, h_elastic: float | None = None,
-               h_local: float | None = None) -> Advice:
+               h_local: float | None = None, h_plastic: float | None = None) -> Advice:
     """What one bay needs: no protection, a drop-height limit of :data:`LIMIT_MARGIN`
     × ``h_allow`` (offered from :data:`MIN_USEFUL_HEIGHT` up, and only when the bay
     exceeds its limits), a spring mat no stiffer than :data:`LIMIT_MARGIN` × ``k_mat``
@@ -100,15 +125,14 @@ def bay_advice(resp: int, n_opening: int, h_allow: float | None, k_mat: float | 
     approval, or an exclusion zone (deck opening, or no option found).
     ``height_limit_yields``: the height limit lets members yield (it exceeds the
     elastic height ``h_elastic`` by more than 1 %). A hard load that perforates the
-    deck makes the level below an exclusion zone (``level_below``), with the drop
-    height ``h_local`` under which neither scabbing nor perforation starts offered as
-    a limit. SI units (m, N/m)."""
+    deck makes the level below an exclusion zone (``level_below``); its hook limit is
+    :func:`perforation_limit` (the deck stays whole *and* the framing within its
+    limits). SI units (m, N/m)."""
     if n_opening:
         return Advice("opening")
     if resp == PERFORATES:
-        hl = LIMIT_MARGIN * float(h_local) if h_local is not None and \
-            LIMIT_MARGIN * h_local >= MIN_USEFUL_HEIGHT else None
-        return Advice("level_below", height_limit=hl)
+        hl, yields = perforation_limit(h_local, h_plastic, h_elastic)
+        return Advice("level_below", height_limit=hl, height_limit_yields=yields)
     if resp == ELASTIC:
         return Advice("none")
     h: float | None = None
@@ -264,6 +288,16 @@ def _mat_travel(M: np.ndarray, case: CaseResult, k_ok: np.ndarray,
     return travel_all
 
 
+def _local_damage_start(m: np.ndarray, case: CaseResult) -> tuple[str, int]:
+    """Which local damage starts at the least drop height among the points ``m`` of a
+    bay (``"perforation"`` or ``"scabbing"``; the perforation where both start at the
+    same height, the worse of the two) and the point where it does."""
+    hs = np.where(m & ~np.isnan(case.scabbing_height), case.scabbing_height, np.inf)
+    hp = np.where(m & ~np.isnan(case.perforation_height), case.perforation_height, np.inf)
+    i_s, i_p = int(np.argmin(hs)), int(np.argmin(hp))
+    return ("perforation", i_p) if hp[i_p] <= hs[i_s] else ("scabbing", i_s)
+
+
 def _bay_summary(level: Level, bay_id: str, zone: LiftZone, load: LiftLoad,
                  case: CaseResult, M: np.ndarray, st: _BayStats, b: int,
                  level_below: str | None, protection_ids: Sequence[str]) -> BaySummary:
@@ -294,13 +328,25 @@ def _bay_summary(level: Level, bay_id: str, zone: LiftZone, load: LiftLoad,
     gm = int(case.governing_member[i])
     hs = float(st.h_scab[b]) if np.isfinite(st.h_scab[b]) else None
     hpf = float(st.h_perf[b]) if np.isfinite(st.h_perf[b]) else None
+    h_local = min((v for v in (hs, hpf) if v is not None), default=None)
     adv = bay_advice(wst, int(st.n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he,
-                     min((v for v in (hs, hpf) if v is not None), default=None))
+                     h_local, hp)
     so = int(case.strike_orientation[i])
-    lim_at = ihp if wst == EXCEEDS else ih
+    # the point and check that set the limit offered: for a perforating load the
+    # deck's local damage, the framing's height beyond yield, or (the margin kept on
+    # it, offered_limit) its elastic height — whichever the limit came from
+    by_plastic = wst == EXCEEDS or (wst == PERFORATES and hp is not None)
+    if wst == PERFORATES and adv.height_limit is not None and he is not None and \
+            adv.height_limit < LIMIT_MARGIN * min(h_local or math.inf, hp or math.inf):
+        by_plastic = False  # the margin on the elastic height set it
+    lim_at = ihp if by_plastic else ih
     if adv.height_limit is None:
         lim_chk = ""
-    elif wst == EXCEEDS and hp_chk is not None and int(hp_chk[ihp]) >= 0:
+    elif wst == PERFORATES and h_local is not None and \
+            adv.height_limit == LIMIT_MARGIN * h_local:
+        # the deck's local damage sets the limit: where it starts lowest
+        lim_chk, lim_at = _local_damage_start(M[b], case)
+    elif by_plastic and hp_chk is not None and int(hp_chk[ihp]) >= 0:
         lim_chk = CHECKS[int(hp_chk[ihp])]
     else:
         lim_chk = CHECKS[int(h_chk[lim_at])] if h_chk is not None else ""

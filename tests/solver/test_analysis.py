@@ -397,14 +397,25 @@ def test_bay_advice_kind(resp, n_open, h, k, travel, h_el, want):
     assert want.kind in ADVICE_KINDS
 
 
-@pytest.mark.parametrize("h_local, want", [
-    (0.8, analysis.Advice("level_below", M * 0.8)), (0.01, analysis.Advice("level_below")),
-    (None, analysis.Advice("level_below"))])
-def test_perforating_bay_names_the_level_below(h_local, want):
+@pytest.mark.parametrize("h_local, h_plastic, want", [
+    # the framing's elastic height (0.4 m) is the lower: 90 % of it
+    (0.8, None, analysis.Advice("level_below", M * 0.4)),
+    # the deck's local damage starts lower: 90 % of its start height
+    (0.3, None, analysis.Advice("level_below", M * 0.3)),
+    # beyond yield up to 0.6 m: the limit lets members yield (above 1.01 × 0.4 m)
+    (0.8, 0.6, analysis.Advice("level_below", M * 0.6, True)),
+    # the plastic height barely above the elastic one: the margin stays on the elastic
+    (0.8, 0.403, analysis.Advice("level_below", M * 0.4)),
+    (0.01, None, analysis.Advice("level_below")), (None, None, analysis.Advice("level_below"))])
+def test_perforating_bay_names_the_level_below(h_local, h_plastic, want):
     # a perforating hard load: the level below is an exclusion zone whatever the
-    # framing needs; the start height is offered as a limit when controllable
-    # (0.05 m, common practice, no source); an opening still comes first
-    assert analysis.bay_advice(PERFORATES, 0, 0.4, 3e6, 0.05, 0.4, h_local) == want
+    # framing needs; the hook limit keeps the deck whole and the framing within its
+    # limits, offered when controllable (0.05 m, common practice, no source); an
+    # opening still comes first
+    got = analysis.bay_advice(PERFORATES, 0, 0.4, 3e6, 0.05, 0.4, h_local, h_plastic)
+    assert got.kind == want.kind and got.height_limit_yields == want.height_limit_yields
+    assert got.height_limit == pytest.approx(want.height_limit, rel=1e-12, abs=0) \
+        if want.height_limit is not None else got.height_limit is None
     assert analysis.bay_advice(PERFORATES, 1, 0.4, 3e6, 0.05, 0.4, 0.8).kind == "opening"
 
 
@@ -418,10 +429,16 @@ def test_bay_summaries_carry_advice_numbers(busy_project):
             assert b.height_limit is not None
             assert b.height_limit >= summary.MIN_USEFUL_HEIGHT
         elif b.advice_kind == "level_below":
-            # the drop under which neither perforation nor scabbing starts
+            # the drop under which neither perforation nor scabbing starts and the
+            # framing stays within its limits (summary.perforation_limit)
             assert b.response == "perforates" and b.perforation_height is not None
             assert b.height_limit is None or b.height_limit >= summary.MIN_USEFUL_HEIGHT
             assert b.height_limit is None or b.height_limit <= b.perforation_height
+            struct = (b.allowable_drop_height_plastic
+                      if b.allowable_drop_height_plastic is not None
+                      else b.allowable_drop_height)
+            assert b.height_limit is None or (
+                struct is not None and b.height_limit <= LIMIT_MARGIN * struct)
         else:
             assert b.height_limit is None
         if b.advice_kind in ("mat", "limit_or_mat", "plastic_mat"):
