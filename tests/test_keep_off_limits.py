@@ -86,3 +86,26 @@ def test_limit_above_the_pads_top_is_kept():
     assert only.height_limit is None and only.advice_kind == "keep_clear"
     bare = replace(base, protections=())
     assert without_limit_under_pads(bare, {"P1": 0.75}) is bare
+
+
+def test_height_limit_is_the_hook_limit_the_permit_prints(rooftop):
+    # one meaning for a bay's height_limit on every advice: the drop-height limit of the
+    # permit's hook condition for the bay (the rooftop spreader beam perforates the
+    # deck in 1-2/A-B and 2-3/A-B: its field read 0.679 m, 90 % of the height where
+    # perforation starts, while the permit printed 0.549 m, the framing's part taken on
+    # top; the expected values are the permit's own rule, droprig.permit)
+    _p, r, permit = rooftop
+    seen = 0
+    for b in r.bays:
+        if b.advice_kind not in ("limit_height", "limit_or_mat", "level_below"):
+            continue
+        v = next(v for v in permit.bays if (v.zone_id, v.load_name, v.bay_id)
+                 == (b.zone_id, b.load_name, b.bay_id))
+        caps = [c.max_drop_height for c in v.conditions if c.kind == "cap_hook"]
+        if b.height_limit is None:
+            assert not caps, (b.bay_id, b.load_name)
+            continue
+        assert caps == [b.height_limit], (b.bay_id, b.load_name, caps, b.height_limit)
+        assert b.height_limit_check and b.height_limit_x is not None
+        seen += b.advice_kind == "level_below"
+    assert seen >= 2  # the spreader beam's two perforated bays
