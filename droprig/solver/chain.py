@@ -3879,29 +3879,10 @@ def two_force_mass(c: Chain, kern: TwoForceKernel, m0: np.ndarray,
             return np.maximum(F / Fa_frame_k[rows], F_deck / Fa_deck_k[rows]) - 1.0
 
     start = np.where(np.isfinite(m0) & (m0 > 0.0), m0, np.nan)
-    keep = _pads_passing(c, kern, start, excess)
     hint = np.full(n, np.nan)
     hint[kern.idx] = kern.bottoming_mass(h_k)
-    out = two_force_height(c, np.where(keep, np.nan, start), excess, kern,
-                           top=MASS_SEARCH_MAX, hint=hint)
-    return np.where(np.isnan(start) | keep, m0, out)
-
-
-def _pads_passing(c: Chain, kern: TwoForceKernel, x0: np.ndarray,
-                  excess: Callable[[TwoForceKernel, np.ndarray, np.ndarray], np.ndarray]
-                  ) -> np.ndarray:
-    """The points on a crushable pad (kernel pad rows) whose closed-form answer
-    ``x0`` (the one-mass balance with the layer's work) already passes on the forward
-    impact (``excess`` ≤ 0 there), bool per point: they keep it (conservative: the
-    forward chain allows at least that), and the search runs only where it fails
-    (the two-mass stage after bottoming above the one-mass force)."""
-    out = np.zeros(c.drop.n, dtype=bool)
-    rows = np.flatnonzero(kern.pad & np.isfinite(x0[kern.idx]) & (x0[kern.idx] > 0.0))
-    if rows.size:
-        with np.errstate(divide="ignore", invalid="ignore"):
-            r = excess(kern, rows, x0[kern.idx[rows]])
-        out[kern.idx[rows[r <= 0.0]]] = True
-    return out
+    out = two_force_height(c, start, excess, kern, top=MASS_SEARCH_MAX, hint=hint)
+    return np.where(np.isnan(start), m0, out)
 
 
 def two_force_elastic_height(c: Chain, h_el: np.ndarray,
@@ -3936,11 +3917,13 @@ def two_force_elastic_height(c: Chain, h_el: np.ndarray,
         with np.errstate(divide="ignore", invalid="ignore"):
             return np.maximum(F / Fa_frame_k[rows], F_deck / Fa_deck_k[rows]) - 1.0
 
-    keep = _pads_passing(c, kern, h_el, excess)
+    # every point is searched from its closed form to the forward run's own
+    # boundary: a closed form that already passes is not kept (it would make the
+    # answer depend on the planned height through the energy share it starts from:
+    # 2.647 against 3.882 m, tests/solver/test_pad_height_independent.py)
     hint = np.full(n, np.nan)
     hint[kern.idx] = kern.bottoming_fall()
-    h = two_force_height(c, np.where(keep, np.nan, h_el), excess, kern, hint=hint)
-    h = np.where(keep, h_el, h)
+    h = two_force_height(c, h_el, excess, kern, hint=hint)
     for _ in range(3):
         live = two & np.isfinite(h) & (h > 0.0)
         if not live.any():

@@ -9,7 +9,7 @@ on all points at once (``tests/solver/test_parallel.py``). SI units.
 from __future__ import annotations
 
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 import numpy as np
 
@@ -169,7 +169,9 @@ class GoverningPoint:
     lies on the pad (then both cases are compared; off it the tip-off is the point's
     only case, :func:`~droprig.solver.chain.merge_tip_off`); ``cases`` the outputs of
     the two cases (``"on_pad"``, ``"tip_off"``; empty without a tip-off) and ``merged``
-    the point's outputs as the floor analysis keeps them."""
+    the point's outputs as the floor analysis keeps them; ``unreached`` the two
+    cases' outputs where the drop height is at most the tip-off's Δ (the ordinary case
+    governs, the allowable heights are still the lower of the two; empty elsewhere)."""
 
     landing: str
     chain: Chain
@@ -178,6 +180,7 @@ class GoverningPoint:
     on_pad: bool
     cases: dict[str, dict[str, np.ndarray]]
     merged: dict[str, np.ndarray]
+    unreached: dict[str, dict[str, np.ndarray]] = field(default_factory=dict)
 
 
 def governing_point(fm: FloorModel, project: Project, load: LiftLoad, geo: Geometry,
@@ -203,7 +206,8 @@ def governing_point(fm: FloorModel, project: Project, load: LiftLoad, geo: Geome
     if not bool(reach[0]):
         # the drop height at most Δ: the load does not reach the deck by tipping; the
         # point's case is the ordinary one, its allowable heights the lower of the two
-        return GoverningPoint(landing, chain, None, False, False, {}, merged)
+        return GoverningPoint(landing, chain, None, False, False, {}, merged,
+                              {"on_pad": out, "tip_off": tip})
     on_pad = bool(out["protection"][0] >= 0)
     governs = not on_pad or bool(tilted_governs(out, tip)[0])
     turn = chain_mod.tip_off_turn(t_chain.drop)

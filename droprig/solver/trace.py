@@ -127,8 +127,11 @@ def _tip_off_steps(sheet: _Sheet, gp: GoverningPoint) -> None:
 def _kept_height_steps(sheet: _Sheet, gp: GoverningPoint) -> None:
     """At a pad's edge, the allowable heights the floor analysis keeps for the point
     (:func:`droprig.solver.chain.merge_tip_off`): the lower of the two cases, none on
-    the pad below the pad's top."""
+    the pad below the pad's top; where the drop height is at most the tip-off's Δ the
+    ordinary case governs the point as planned and the heights are still the lower of
+    the two (:func:`_unreached_height_steps`)."""
     if not gp.cases:
+        _unreached_height_steps(sheet, gp)
         return
     on, tip, m = gp.cases["on_pad"], gp.cases["tip_off"], gp.merged
     for key, sym, what in (("allowable_drop_height", "h_allow", "elastic"),
@@ -146,6 +149,26 @@ def _kept_height_steps(sheet: _Sheet, gp: GoverningPoint) -> None:
                   "h_tip = the tip-off's allowable fall + Δ; "
                   + ("h = min(h_pad, h_tip), none if below the pad's top" if gp.on_pad
                      else "h = h_tip"), ins, float(m[key][0]), "length", _SRC_WORSE)
+
+
+def _unreached_height_steps(sheet: _Sheet, gp: GoverningPoint) -> None:
+    """:func:`_kept_height_steps` where the planned drop does not reach the deck by
+    tipping over the pad's edge (the drop height at most Δ): the point's response is
+    the ordinary case's, and the allowable heights the floor analysis keeps are the
+    lower of that case's and the tip-off's (:func:`droprig.solver.chain.
+    merge_tip_off`), since a drop from above Δ would tip off onto the deck."""
+    if not gp.unreached:
+        return
+    on, tip, m = gp.unreached["on_pad"], gp.unreached["tip_off"], gp.merged
+    for key, sym, what in (("allowable_drop_height", "h_allow", "elastic"),
+                           ("allowable_drop_height_plastic", "h_allow,pl", "beyond yield")):
+        sheet.add(f"Allowable drop height on the datum kept for the point ({what}): the "
+                  "lower of landing as planned and tipping over the pad's edge (the "
+                  "planned drop is within the tip-off's Δ; a drop from higher would tip "
+                  "off onto the deck)", sym, "h = min(h_case, h_tip)",
+                  {"h_case": (float(on[key][0]), "length"),
+                   "h_tip": (float(tip[key][0]), "length")},
+                  float(m[key][0]), "length", _SRC_WORSE)
 
 
 def _v(x: object) -> float:
