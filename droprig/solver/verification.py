@@ -86,7 +86,8 @@ class Verification:
     the verdict applies (:func:`droprig.solver.amplification.amplified_forces`);
     ``verdict`` the demand the checks use (factor × energy), ``crushing_force`` (N,
     ∞ none), ``stroke`` (m, how deep the contact may crush at that force, ∞ none) and
-    ``crush`` (m) the time history's crushed depth;
+    ``crush`` (m) the time history's crushed depth (of the contact itself, in the
+    load's travel: at most ``stroke``);
     ``energy_deflection_at_point`` (m) is F·G(a, a) for the plot of the struck
     point; ``mass_ratio`` r = M/mₑ (w²·M/mₑ where the member takes a lever-rule share
     w of the load), ``compliance_ratio`` κ = f_c/f_s (the contact as the member sees it);
@@ -266,7 +267,9 @@ def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
     return Verification(
         energy=energy, time_history=th, amplification=factor,
         verdict={k: factor[k] * energy[k] for k in QUANTITIES},
-        crushing_force=cap, crush=float(t.crush[0]) if t.crush is not None else 0.0,
+        # the crushed depth back from the member's coordinate too (the layer's stroke
+        # s is s/w there, shared_load): w·Q, the depth the layer itself loses
+        crushing_force=cap, crush=w * float(t.crush[0]) if t.crush is not None else 0.0,
         stroke=stroke if math.isfinite(cap) else math.inf,
         energy_deflection_at_point=w * F * f_s,
         mass_ratio=r_mass * w**2, compliance_ratio=f_b / f_s,
