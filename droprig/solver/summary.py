@@ -298,6 +298,32 @@ def _local_damage_start(m: np.ndarray, case: CaseResult) -> tuple[str, int]:
     return ("perforation", i_p) if hp[i_p] <= hs[i_s] else ("scabbing", i_s)
 
 
+def _limit_source(adv: Advice, wst: int, h_local: float | None, he: float | None,
+                  hp: float | None, ih: int, ihp: int, m: np.ndarray,
+                  case: CaseResult) -> tuple[str, int]:
+    """The check and point (index into ``case``) that set the limit ``adv`` offers
+    over a bay (``""`` where none): for a perforating load the deck's local damage
+    (where it starts lowest, :func:`_local_damage_start`), the framing's height
+    beyond yield (``hp`` at ``ihp``), or — the margin kept on it,
+    :func:`offered_limit` — its elastic height (``he`` at ``ih``), whichever the
+    limit came from; ``m`` the bay's points."""
+    h_chk = case.allowable_height_check
+    hp_chk = case.allowable_height_plastic_check
+    by_plastic = wst == EXCEEDS or (wst == PERFORATES and hp is not None)
+    if wst == PERFORATES and adv.height_limit is not None and he is not None and \
+            adv.height_limit < LIMIT_MARGIN * min(h_local or math.inf, hp or math.inf):
+        by_plastic = False  # the margin on the elastic height set it
+    lim_at = ihp if by_plastic else ih
+    if adv.height_limit is None:
+        return "", lim_at
+    if wst == PERFORATES and h_local is not None and \
+            adv.height_limit == LIMIT_MARGIN * h_local:
+        return _local_damage_start(m, case)
+    if by_plastic and hp_chk is not None and int(hp_chk[ihp]) >= 0:
+        return CHECKS[int(hp_chk[ihp])], lim_at
+    return (CHECKS[int(h_chk[lim_at])] if h_chk is not None else ""), lim_at
+
+
 def _bay_summary(level: Level, bay_id: str, zone: LiftZone, load: LiftLoad,
                  case: CaseResult, M: np.ndarray, st: _BayStats, b: int,
                  level_below: str | None, protection_ids: Sequence[str]) -> BaySummary:
@@ -312,7 +338,6 @@ def _bay_summary(level: Level, bay_id: str, zone: LiftZone, load: LiftLoad,
     m_al, m_al_at, m_al_none = st.m_al
     h_chk = case.allowable_height_check
     h_mem = case.allowable_height_member
-    hp_chk = case.allowable_height_plastic_check
     prot = case.protection
     i = int(st.gov[b])
     wst = int(st.worst[b])
@@ -332,24 +357,7 @@ def _bay_summary(level: Level, bay_id: str, zone: LiftZone, load: LiftLoad,
     adv = bay_advice(wst, int(st.n_open[b]), hp if wst == EXCEEDS else he, k_mat, travel, he,
                      h_local, hp)
     so = int(case.strike_orientation[i])
-    # the point and check that set the limit offered: for a perforating load the
-    # deck's local damage, the framing's height beyond yield, or (the margin kept on
-    # it, offered_limit) its elastic height — whichever the limit came from
-    by_plastic = wst == EXCEEDS or (wst == PERFORATES and hp is not None)
-    if wst == PERFORATES and adv.height_limit is not None and he is not None and \
-            adv.height_limit < LIMIT_MARGIN * min(h_local or math.inf, hp or math.inf):
-        by_plastic = False  # the margin on the elastic height set it
-    lim_at = ihp if by_plastic else ih
-    if adv.height_limit is None:
-        lim_chk = ""
-    elif wst == PERFORATES and h_local is not None and \
-            adv.height_limit == LIMIT_MARGIN * h_local:
-        # the deck's local damage sets the limit: where it starts lowest
-        lim_chk, lim_at = _local_damage_start(M[b], case)
-    elif by_plastic and hp_chk is not None and int(hp_chk[ihp]) >= 0:
-        lim_chk = CHECKS[int(hp_chk[ihp])]
-    else:
-        lim_chk = CHECKS[int(h_chk[lim_at])] if h_chk is not None else ""
+    lim_chk, lim_at = _limit_source(adv, wst, h_local, he, hp, ih, ihp, M[b], case)
     pads = [int(p) for p in np.unique(prot[M[b] & (prot >= 0)])]  # sorted
     return BaySummary(
         level_id=level.id, bay_id=bay_id, zone_id=zone.id,

@@ -260,15 +260,13 @@ def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
     section_shear, th["shear"] = th["shear"], float(ends[0])
     history = t.history
     if w < 1.0:
-        # back from the member's coordinate: the load's contact force P/w, its travel w·Q
+        # back from the member's coordinate: force P/w, travel and crushed depth w·Q
         th["force"] /= w
         history = replace(history, contact_force=history.contact_force / w,
                           load_displacement=history.load_displacement * w)
     return Verification(
         energy=energy, time_history=th, amplification=factor,
         verdict={k: factor[k] * energy[k] for k in QUANTITIES},
-        # the crushed depth back from the member's coordinate too (the layer's stroke
-        # s is s/w there, shared_load): w·Q, the depth the layer itself loses
         crushing_force=cap, crush=w * float(t.crush[0]) if t.crush is not None else 0.0,
         stroke=stroke if math.isfinite(cap) else math.inf,
         energy_deflection_at_point=w * F * f_s,
