@@ -60,7 +60,7 @@ from __future__ import annotations
 from collections import OrderedDict
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass, replace
-from typing import TypeVar, cast
+from typing import NamedTuple, TypeVar, cast
 
 import numpy as np
 
@@ -431,6 +431,11 @@ _TIP_MEMO_POINTS = 400_000
 level, up to this many points: the confirmation tries the same points at other
 heights, and Δ depends on the plan only."""
 
+_TURN_MEMO: OrderedDict[tuple, dict[tuple[float, ...], TipOffTurn]] = OrderedDict()
+"""The :class:`TipOffTurn` of every point of :data:`_TIP_MEMO` with a finite Δ, under
+the same keys: what the calculation trace shows of a point the floor analysis worked
+out (:func:`tip_off_turn`), found by the same search (:func:`_tip_turns`)."""
+
 
 def _may_tip(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
     """Per point, whether :func:`tip_offsets` may be finite there — the points it need
@@ -468,7 +473,9 @@ def _remembered_tip_offsets(d: Drop, W: np.ndarray, fl: np.ndarray,
     (:data:`_TIP_MEMO`)."""
     key = (d.project.protection_areas, d.fm.level.id)
     memo = _TIP_MEMO.setdefault(key, {})
+    turns = _TURN_MEMO.setdefault(key, {})
     _TIP_MEMO.move_to_end(key)
+    _TURN_MEMO.move_to_end(key)
     out = np.full(d.n, np.inf)
     at = np.flatnonzero(_may_tip(d, fl, fw))
     pts = list(zip(d.geo.x[at].tolist(), d.geo.y[at].tolist(), W[at].tolist(),
@@ -479,14 +486,19 @@ def _remembered_tip_offsets(d: Drop, W: np.ndarray, fl: np.ndarray,
     if new.size:
         sub = replace(d, geo=take_geo(d.geo, new, steps=False),
                       li=np.asarray(d.li)[new])
-        got = tip_offsets(sub, fl[new], fw[new], landing_pads(sub, fl[new], fw[new]), W[new])
-        out[new] = got
-        for i, v in zip(new.tolist(), got.tolist(), strict=True):
+        on = landing_pads(sub, fl[new], fw[new])
+        tt = _tip_turns(sub, fl[new], fw[new], on, W[new])
+        out[new] = tt.delta
+        for i, v in zip(new.tolist(), tt.delta.tolist(), strict=True):
             memo[keys[i]] = v
+        for j in np.flatnonzero(np.isfinite(tt.delta)).tolist():
+            turns[keys[int(new[j])]] = _turn_of(d, tt, int(on[j]), j)
         while sum(len(m) for m in _TIP_MEMO.values()) > _TIP_MEMO_POINTS and len(_TIP_MEMO) > 1:
+            _TURN_MEMO.pop(next(iter(_TIP_MEMO)), None)
             _TIP_MEMO.popitem(last=False)
         if len(memo) > _TIP_MEMO_POINTS:
             memo.clear()
+            turns.clear()
     return out
 
 
@@ -578,8 +590,32 @@ def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
     of the same kind and thickness, the less of the footprint's two plan
     orientations); ∞ where it cannot (the footprint wholly on the layers, a spring
     mat, no pad). W in N, footprint ``fl`` × ``fw`` in m."""
+    return _tip_turns(d, fl, fw, on, W).delta
+
+
+class _TipTurns(NamedTuple):
+    """:func:`_tip_turns`' answer per point: Δ (m, ∞ none), the turn θ (rad), the
+    length tipped over (m), the direction (index into
+    :data:`droprig.solver.pads.TIP_DIRECTIONS`) and whether the footprint's length lies
+    along x."""
+
+    delta: np.ndarray
+    theta: np.ndarray
+    length: np.ndarray
+    direction: np.ndarray
+    along_x: np.ndarray
+
+
+def _tip_turns(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
+               W: np.ndarray) -> _TipTurns:
+    """:func:`tip_offsets` with the turn, length and direction its Δ is found at, per
+    point (:class:`_TipTurns`): :func:`droprig.solver.pads.footprint_tip_turn` of both
+    plan orientations in one call, the footprint's length along y kept only where its Δ
+    is the less (as :func:`tip_off_turn` picks it)."""
     prot, lv = d.project.protection_areas, d.fm.level
-    out = np.full(d.n, np.inf)
+    n = d.n
+    out = _TipTurns(np.full(n, np.inf), np.full(n, np.nan), np.full(n, np.nan),
+                    np.full(n, -1, dtype=np.int64), np.ones(n, dtype=bool))
     if d.bare is not None:
         return out
     for i, pa in enumerate(prot):
@@ -594,10 +630,26 @@ def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
         a = pads.footprint_rect(x, y, fl[sel], fw[sel], True)
         b = pads.footprint_rect(x, y, fl[sel], fw[sel], False)
         rect = tuple(np.concatenate([u, v]) for u, v in zip(a, b, strict=True))
-        dl = pads.footprint_tip_offset(rect, np.concatenate([W[sel], W[sel]]),  # type: ignore[arg-type]
-                                       float(pa.thickness), layers, deck=_deck_extent(d))
-        out[sel] = np.minimum(out[sel], np.minimum(dl[:sel.size], dl[sel.size:]))
+        tt = pads.footprint_tip_turn(rect, np.concatenate([W[sel], W[sel]]),  # type: ignore[arg-type]
+                                     float(pa.thickness), layers, deck=_deck_extent(d))
+        m = sel.size
+        # along y where its Δ is a number less than along x's
+        ay = np.isfinite(tt.delta[m:]) & (tt.delta[m:] < tt.delta[:m])
+        pick = np.where(ay, np.arange(m) + m, np.arange(m))
+        out.delta[sel] = np.minimum(tt.delta[:m], tt.delta[m:])
+        out.theta[sel] = tt.theta[pick]
+        out.length[sel] = tt.length[pick]
+        out.direction[sel] = tt.direction[pick]
+        out.along_x[sel] = ~ay
     return out
+
+
+def _turn_of(d: Drop, tt: _TipTurns, pad: int, j: int) -> TipOffTurn:
+    """:class:`TipOffTurn` of point ``j`` of :func:`_tip_turns`' answer ``tt`` (Δ
+    finite), on pad ``pad``."""
+    return TipOffTurn(pad, float(d.project.protection_areas[pad].thickness),
+                      float(tt.delta[j]), float(tt.theta[j]), float(tt.length[j]),
+                      pads.TIP_DIRECTIONS[int(tt.direction[j])], bool(tt.along_x[j]))
 
 
 def _deck_extent(d: Drop) -> tuple[float, float, float, float]:
@@ -647,6 +699,20 @@ def tip_off_turn(d: Drop) -> TipOffTurn | None:
     W = d.per_point([ld.weight for ld in d.loads])[:1]
     fl = d.per_point([ld.footprint_length for ld in d.loads])[:1]
     fw = d.per_point([ld.footprint_width for ld in d.loads])[:1]
+    # the floor analysis found this point's turn by the same search (_tip_turns)
+    known = _TURN_MEMO.get((d.project.protection_areas, d.fm.level.id), {}).get(
+        (float(d.geo.x[0]), float(d.geo.y[0]), float(W[0]), float(fl[0]), float(fw[0])))
+    if known is not None:
+        return known
+    return tip_off_turn_reference(d, W, fl, fw)
+
+
+def tip_off_turn_reference(d: Drop, W: np.ndarray, fl: np.ndarray,
+                           fw: np.ndarray) -> TipOffTurn | None:
+    """:func:`tip_off_turn` worked out afresh (the plain reference the remembered
+    turns of :func:`_tip_turns` equal): each plan orientation on its own, the footprint
+    along y taken where its Δ is the less. ``W`` (N), ``fl``, ``fw`` (m) of the first
+    point, as arrays of one."""
     sub = replace(d, geo=take_geo(d.geo, np.array([0]), steps=False),
                   li=np.asarray(d.li)[:1])
     i = int(landing_pads(sub, fl, fw)[0])
