@@ -59,7 +59,7 @@ from __future__ import annotations
 
 from collections import OrderedDict
 from collections.abc import Callable, Mapping
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, fields, replace
 from typing import NamedTuple, TypeVar, cast
 
 import numpy as np
@@ -218,7 +218,9 @@ class Drop:
     it with at most the energy of a fall H − Δ (:func:`tip_offsets`); where H ≤ Δ
     the fall onto the deck is 0 and the run gives the case's inverse answers only
     (:func:`tip_off_case_rows`; :func:`droprig.solver.evaluate` runs it there and
-    keeps the worse case, :func:`merge_tip_off`). ``None``: the ordinary run."""
+    keeps the worse case, :func:`merge_tip_off`). NaN at a row: that row is the
+    ordinary case (the floor analysis folds the rows whose only case is the tip-off
+    into its ordinary run, :func:`_folded_inputs`). ``None``: the ordinary run."""
 
     fm: FloorModel
     project: Project
@@ -343,9 +345,23 @@ def load_inputs(c: Chain) -> LoadInputs:
                           for ld in loads])
     cl, cw = _contact_sides(d, fl, fw)
     if d.tip_off is not None:
-        return _tip_off_inputs(d, W, M, fl, fw, f_load, cl, cw, landing_pads(d, fl, fw),
-                               np.asarray(d.tip_off, float))
-    on = np.asarray(geo.protection)
+        delta = np.asarray(d.tip_off, float)
+        tip = _tip_off_inputs(d, W, M, fl, fw, f_load, cl, cw, landing_pads(d, fl, fw),
+                              delta)
+        folded = ~np.isnan(delta)
+        if folded.all():
+            return tip
+        return _folded_inputs(_ordinary_inputs(d, W, M, fl, fw, f_load, cl, cw), tip,
+                              folded, np.asarray(geo.protection))
+    return _ordinary_inputs(d, W, M, fl, fw, f_load, cl, cw)
+
+
+def _ordinary_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
+                     fw: np.ndarray, f_load: np.ndarray, cl: np.ndarray,
+                     cw: np.ndarray) -> LoadInputs:
+    """:func:`load_inputs` of the ordinary run (no tip-off): the layer under the drop
+    point, a trial mat, the drop heights and the contact on the deck."""
+    on = np.asarray(d.geo.protection)
     t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw, on)
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
@@ -364,6 +380,26 @@ def load_inputs(c: Chain) -> LoadInputs:
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
                       foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer,
                       base_l=cl + 2.0 * t_spread, base_w=cw + 2.0 * t_spread)
+
+
+def _folded_inputs(ordinary: LoadInputs, tip: LoadInputs, folded: np.ndarray,
+                   protection: np.ndarray) -> LoadInputs:
+    """:class:`LoadInputs` of a run whose ``folded`` rows are the tip-off case (``tip``,
+    :func:`_tip_off_inputs`) and whose other rows are the ordinary case (``ordinary``;
+    its pad the drop point's ``protection``, its datum offset its layer's thickness):
+    row by row the one or the other, so that each row's steps are those of a run of its
+    case alone (every step works point by point). The floor analysis folds the rows
+    where the tip-off is the point's only case into its ordinary run
+    (:func:`droprig.solver.evaluate._outputs`)."""
+    vals: dict[str, np.ndarray] = {}
+    for f in fields(LoadInputs):
+        a, b = getattr(ordinary, f.name), getattr(tip, f.name)
+        if f.name == "pad":
+            a = protection
+        elif f.name == "fall_offset":
+            a = ordinary.t_mat
+        vals[f.name] = np.where(folded, b, a)
+    return LoadInputs(**vals)
 
 
 def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
@@ -418,10 +454,9 @@ def tip_off_case_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.n
         return none
     H, _ = _drop_heights(d, np.zeros(d.n))
     rows = np.flatnonzero(np.isfinite(delta))
-    sub = replace(d, geo=take_geo(d.geo, rows, steps=False), li=np.asarray(d.li)[rows])
-    on = landing_pads(sub, fl[rows], fw[rows])
-    top = np.array([float(d.project.protection_areas[i].thickness) if i >= 0 else 0.0
-                    for i in on.tolist()])
+    on = landing_pads(d, fl[rows], fw[rows], rows)
+    thick = np.array([float(pa.thickness) for pa in d.project.protection_areas] + [0.0])
+    top = thick[on]  # on = −1 (none): the appended 0
     return rows, delta[rows], top, H[rows] > delta[rows]
 
 
@@ -484,10 +519,8 @@ def _remembered_tip_offsets(d: Drop, W: np.ndarray, fl: np.ndarray,
     new = at[np.isnan(out[at])]
     keys = dict(zip(at.tolist(), pts, strict=True))
     if new.size:
-        sub = replace(d, geo=take_geo(d.geo, new, steps=False),
-                      li=np.asarray(d.li)[new])
-        on = landing_pads(sub, fl[new], fw[new])
-        tt = _tip_turns(sub, fl[new], fw[new], on, W[new])
+        on = landing_pads(d, fl[new], fw[new], new)
+        tt = _tip_turns(d, d.geo.x[new], d.geo.y[new], fl[new], fw[new], on, W[new])
         out[new] = tt.delta
         for i, v in zip(new.tolist(), tt.delta.tolist(), strict=True):
             memo[keys[i]] = v
@@ -550,7 +583,8 @@ def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray],
             for k, v in out.items()}
 
 
-def landing_pads(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
+def landing_pads(d: Drop, fl: np.ndarray, fw: np.ndarray,
+                 rows: np.ndarray | None = None) -> np.ndarray:
     """Per point, the crushable pad the load's footprint ``fl`` × ``fw`` (m; either plan
     orientation) lies on (index into the project's protection areas, −1 none): the
     one under the drop point (``Geometry.protection``), else the crushable pad of the
@@ -560,14 +594,17 @@ def landing_pads(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
     is taken where the drop point is on the pad only: off it, the load lands on the
     pad's edge and tips onto the deck, which the tip-off case bounds. A spring mat
     counts under the drop point only (its edge's tip-off is not modelled: README,
-    limits)."""
-    on = np.asarray(d.geo.protection).copy()
+    limits). ``rows``: of the points ``rows`` of ``d`` only (``fl``, ``fw`` theirs)."""
+    prot, xs, ys = d.geo.protection, d.geo.x, d.geo.y
+    if rows is not None:
+        prot, xs, ys = np.asarray(prot)[rows], xs[rows], ys[rows]
+    on = np.asarray(prot).copy()
     free = np.flatnonzero(on < 0)
     lv = d.fm.level
     if d.bare is not None or free.size == 0:
         return on
     best = np.zeros(free.size)
-    x, y = d.geo.x[free], d.geo.y[free]
+    x, y = xs[free], ys[free]
     for i, pa in enumerate(d.project.protection_areas):
         if pa.level_id != lv.id or pa.kind != "crushable":
             continue
@@ -590,7 +627,7 @@ def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
     of the same kind and thickness, the less of the footprint's two plan
     orientations); ∞ where it cannot (the footprint wholly on the layers, a spring
     mat, no pad). W in N, footprint ``fl`` × ``fw`` in m."""
-    return _tip_turns(d, fl, fw, on, W).delta
+    return _tip_turns(d, d.geo.x, d.geo.y, fl, fw, on, W).delta
 
 
 class _TipTurns(NamedTuple):
@@ -606,14 +643,15 @@ class _TipTurns(NamedTuple):
     along_x: np.ndarray
 
 
-def _tip_turns(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
-               W: np.ndarray) -> _TipTurns:
-    """:func:`tip_offsets` with the turn, length and direction its Δ is found at, per
-    point (:class:`_TipTurns`): :func:`droprig.solver.pads.footprint_tip_turn` of both
-    plan orientations in one call, the footprint's length along y kept only where its Δ
-    is the less (as :func:`tip_off_turn` picks it)."""
+def _tip_turns(d: Drop, xs: np.ndarray, ys: np.ndarray, fl: np.ndarray, fw: np.ndarray,
+               on: np.ndarray, W: np.ndarray) -> _TipTurns:
+    """:func:`tip_offsets` at the points (``xs``, ``ys``; m) of ``d``'s plan with the
+    turn, length and direction each Δ is found at (:class:`_TipTurns`):
+    :func:`droprig.solver.pads.footprint_tip_turn` of both plan orientations in one
+    call, the footprint's length along y kept only where its Δ is the less (as
+    :func:`tip_off_turn_reference` picks it)."""
     prot, lv = d.project.protection_areas, d.fm.level
-    n = d.n
+    n = xs.size
     out = _TipTurns(np.full(n, np.inf), np.full(n, np.nan), np.full(n, np.nan),
                     np.full(n, -1, dtype=np.int64), np.ones(n, dtype=bool))
     if d.bare is not None:
@@ -625,7 +663,7 @@ def _tip_turns(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
         if sel.size == 0:
             continue
         layers = _tip_layers(d, pa)
-        x, y = d.geo.x[sel], d.geo.y[sel]
+        x, y = xs[sel], ys[sel]
         # both plan orientations in one call
         a = pads.footprint_rect(x, y, fl[sel], fw[sel], True)
         b = pads.footprint_rect(x, y, fl[sel], fw[sel], False)

@@ -72,7 +72,7 @@ def test_remembered_turns_are_the_fresh_search(rooftop):
         # the reference keeps the first (along x), and so must the kernel
         sq = np.array([fl])
         on = chain.landing_pads(d, sq, sq)
-        tt = chain._tip_turns(d, sq, sq, on, np.array([W]))
+        tt = chain._tip_turns(d, d.geo.x, d.geo.y, sq, sq, on, np.array([W]))
         ref = chain.tip_off_turn_reference(d, np.array([W]), sq, sq)
         if ref is None:
             assert math.isinf(float(tt.delta[0]))
