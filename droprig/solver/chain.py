@@ -57,6 +57,7 @@ replace it for the steps after it (e.g. a refined :class:`Compliance`).
 
 from __future__ import annotations
 
+import itertools
 from collections import OrderedDict
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass, fields, replace
@@ -460,16 +461,27 @@ def tip_off_case_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.n
     return rows, delta[rows], top, H[rows] > delta[rows]
 
 
-_TIP_MEMO: OrderedDict[tuple, dict[tuple[float, ...], float]] = OrderedDict()
+_TIP_MEMO: OrderedDict[tuple, dict[bytes, float]] = OrderedDict()
 _TIP_MEMO_POINTS = 400_000
-"""Δ of :func:`tip_offsets` remembered per point (x, y, W, footprint) for the pads of a
-level, up to this many points: the confirmation tries the same points at other
-heights, and Δ depends on the plan only."""
+"""Δ of :func:`tip_offsets` remembered per point (x, y, W, footprint:
+:func:`_point_keys`) for the pads of a level, up to this many points: the confirmation
+tries the same points at other heights, and Δ depends on the plan only."""
 
-_TURN_MEMO: OrderedDict[tuple, dict[tuple[float, ...], TipOffTurn]] = OrderedDict()
+
+def _point_keys(*columns: np.ndarray) -> list[bytes]:
+    """One key per point of the float ``columns`` (x, y, W, fl, fw): the bytes of its
+    row of float64 values — equal values, equal keys (a −0.0 for a 0.0 only misses the
+    memo and is worked out again)."""
+    a = np.ascontiguousarray(np.stack([np.asarray(c, float) for c in columns], axis=1))
+    return cast(list[bytes], a.view(np.dtype((np.void, 8 * a.shape[1]))).ravel().tolist())
+
+
+_TURN_MEMO: OrderedDict[tuple, dict[bytes, tuple]] = OrderedDict()
 """The :class:`TipOffTurn` of every point of :data:`_TIP_MEMO` with a finite Δ, under
-the same keys: what the calculation trace shows of a point the floor analysis worked
-out (:func:`tip_off_turn`), found by the same search (:func:`_tip_turns`)."""
+the same keys, as the plain tuple of its fields (a tuple of numbers and a string is
+no work for the garbage collector, tens of thousands of objects would be): what the
+calculation trace shows of a point the floor analysis worked out
+(:func:`tip_off_turn`), found by the same search (:func:`_tip_turns`)."""
 
 
 def _may_tip(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
@@ -513,19 +525,19 @@ def _remembered_tip_offsets(d: Drop, W: np.ndarray, fl: np.ndarray,
     _TURN_MEMO.move_to_end(key)
     out = np.full(d.n, np.inf)
     at = np.flatnonzero(_may_tip(d, fl, fw))
-    pts = list(zip(d.geo.x[at].tolist(), d.geo.y[at].tolist(), W[at].tolist(),
-                   fl[at].tolist(), fw[at].tolist(), strict=True))
-    out[at] = np.array([memo.get(p, np.nan) for p in pts], dtype=float)
-    new = at[np.isnan(out[at])]
-    keys = dict(zip(at.tolist(), pts, strict=True))
+    pts = _point_keys(d.geo.x[at], d.geo.y[at], W[at], fl[at], fw[at])
+    got = np.fromiter(map(memo.get, pts, itertools.repeat(np.nan)), float, count=len(pts))
+    out[at] = got
+    miss = np.flatnonzero(np.isnan(got))
+    new = at[miss]
     if new.size:
         on = landing_pads(d, fl[new], fw[new], new)
         tt = _tip_turns(d, d.geo.x[new], d.geo.y[new], fl[new], fw[new], on, W[new])
         out[new] = tt.delta
-        for i, v in zip(new.tolist(), tt.delta.tolist(), strict=True):
-            memo[keys[i]] = v
+        new_pts = [pts[j] for j in miss.tolist()]
+        memo.update(zip(new_pts, tt.delta.tolist(), strict=True))
         for j in np.flatnonzero(np.isfinite(tt.delta)).tolist():
-            turns[keys[int(new[j])]] = _turn_of(d, tt, int(on[j]), j)
+            turns[new_pts[j]] = _turn_of(d, tt, int(on[j]), j)
         while sum(len(m) for m in _TIP_MEMO.values()) > _TIP_MEMO_POINTS and len(_TIP_MEMO) > 1:
             _TURN_MEMO.pop(next(iter(_TIP_MEMO)), None)
             _TIP_MEMO.popitem(last=False)
@@ -682,12 +694,12 @@ def _tip_turns(d: Drop, xs: np.ndarray, ys: np.ndarray, fl: np.ndarray, fw: np.n
     return out
 
 
-def _turn_of(d: Drop, tt: _TipTurns, pad: int, j: int) -> TipOffTurn:
-    """:class:`TipOffTurn` of point ``j`` of :func:`_tip_turns`' answer ``tt`` (Δ
-    finite), on pad ``pad``."""
-    return TipOffTurn(pad, float(d.project.protection_areas[pad].thickness),
-                      float(tt.delta[j]), float(tt.theta[j]), float(tt.length[j]),
-                      pads.TIP_DIRECTIONS[int(tt.direction[j])], bool(tt.along_x[j]))
+def _turn_of(d: Drop, tt: _TipTurns, pad: int, j: int) -> tuple:
+    """The fields of the :class:`TipOffTurn` of point ``j`` of :func:`_tip_turns`'
+    answer ``tt`` (Δ finite), on pad ``pad``, as a plain tuple (:data:`_TURN_MEMO`)."""
+    return (pad, float(d.project.protection_areas[pad].thickness),
+            float(tt.delta[j]), float(tt.theta[j]), float(tt.length[j]),
+            pads.TIP_DIRECTIONS[int(tt.direction[j])], bool(tt.along_x[j]))
 
 
 def _deck_extent(d: Drop) -> tuple[float, float, float, float]:
@@ -739,9 +751,9 @@ def tip_off_turn(d: Drop) -> TipOffTurn | None:
     fw = d.per_point([ld.footprint_width for ld in d.loads])[:1]
     # the floor analysis found this point's turn by the same search (_tip_turns)
     known = _TURN_MEMO.get((d.project.protection_areas, d.fm.level.id), {}).get(
-        (float(d.geo.x[0]), float(d.geo.y[0]), float(W[0]), float(fl[0]), float(fw[0])))
+        _point_keys(d.geo.x[:1], d.geo.y[:1], W, fl, fw)[0])
     if known is not None:
-        return known
+        return TipOffTurn(*known)
     return tip_off_turn_reference(d, W, fl, fw)
 
 

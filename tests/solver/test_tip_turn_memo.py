@@ -52,7 +52,8 @@ def test_remembered_turns_are_the_fresh_search(rooftop):
     planned = {(z.level_id, ld.weight, ld.footprint_length, ld.footprint_width): (z, ld)
                for z in p.lift_zones for ld in z.loads}
     remembered = [(planned[(key[1], *pt[2:])], pt, turn) for key, m in chain._TURN_MEMO.items()
-                  for pt, turn in m.items()
+                  for pt, turn in ((tuple(np.frombuffer(k).tolist()), chain.TipOffTurn(*t))
+                                   for k, t in m.items())
                   if key[0] == p.protection_areas and (key[1], *pt[2:]) in planned]
     assert len(remembered) > 100  # the demo's pads: thousands of points at their edges
     # a spread of them: every direction and both plan orientations where the demo has them
@@ -77,4 +78,5 @@ def test_remembered_turns_are_the_fresh_search(rooftop):
         if ref is None:
             assert math.isinf(float(tt.delta[0]))
         else:
-            assert chain._turn_of(d, tt, int(on[0]), 0) == ref and ref.along_x
+            assert chain.TipOffTurn(*chain._turn_of(d, tt, int(on[0]), 0)) == ref
+            assert ref.along_x
