@@ -464,8 +464,20 @@ def tip_off_case_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.n
 _TIP_MEMO: OrderedDict[tuple, dict[bytes, float]] = OrderedDict()
 _TIP_MEMO_POINTS = 400_000
 """Δ of :func:`tip_offsets` remembered per point (x, y, W, footprint:
-:func:`_point_keys`) for the pads of a level, up to this many points: the confirmation
-tries the same points at other heights, and Δ depends on the plan only."""
+:func:`_point_keys`) for one plan (:func:`_tip_memo_key`), up to this many points: the
+confirmation tries the same points at other heights, and Δ depends on the plan only."""
+
+
+def _tip_memo_key(d: Drop) -> tuple:
+    """What Δ depends on besides the point and the load (:data:`_TIP_MEMO`): the
+    protection areas, the level, the deck's plan extent (a pad's edge on it is no free
+    edge, :func:`_deck_extent`) and the crush stresses of the level's crushable pads
+    (a pad given by a crush force takes its stress from the loads' footprints,
+    :func:`pad_crush_stress`): an edit of any of them is a new plan."""
+    lv = d.fm.level
+    stresses = tuple(pad_crush_stress(d.project, pa) for pa in d.project.protection_areas
+                     if pa.level_id == lv.id and pa.kind == "crushable")
+    return d.project.protection_areas, lv.id, _deck_extent(d), stresses
 
 
 def _point_keys(*columns: np.ndarray) -> list[bytes]:
@@ -518,7 +530,7 @@ def _remembered_tip_offsets(d: Drop, W: np.ndarray, fl: np.ndarray,
                             fw: np.ndarray) -> np.ndarray:
     """:func:`tip_offsets` of ``d``'s points, each point worked out once
     (:data:`_TIP_MEMO`)."""
-    key = (d.project.protection_areas, d.fm.level.id)
+    key = _tip_memo_key(d)
     memo = _TIP_MEMO.setdefault(key, {})
     turns = _TURN_MEMO.setdefault(key, {})
     _TIP_MEMO.move_to_end(key)
@@ -750,7 +762,7 @@ def tip_off_turn(d: Drop) -> TipOffTurn | None:
     fl = d.per_point([ld.footprint_length for ld in d.loads])[:1]
     fw = d.per_point([ld.footprint_width for ld in d.loads])[:1]
     # the floor analysis found this point's turn by the same search (_tip_turns)
-    known = _TURN_MEMO.get((d.project.protection_areas, d.fm.level.id), {}).get(
+    known = _TURN_MEMO.get(_tip_memo_key(d), {}).get(
         _point_keys(d.geo.x[:1], d.geo.y[:1], W, fl, fw)[0])
     if known is not None:
         return TipOffTurn(*known)

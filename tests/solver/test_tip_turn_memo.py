@@ -14,6 +14,7 @@ project is an invented scenario; the random cases are invented data.
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 from pathlib import Path
 
 import numpy as np
@@ -22,6 +23,8 @@ import pytest
 from droprig.io.project_file import load_project
 from droprig.solver import analyse, chain, pads
 from droprig.solver.evaluate import point_case
+from droprig.solver.floor import floor_model
+from droprig.solver.geometry import point_geometry
 
 ROOT = Path(__file__).resolve().parents[2]
 
@@ -80,3 +83,29 @@ def test_remembered_turns_are_the_fresh_search(rooftop):
         else:
             assert chain.TipOffTurn(*chain._turn_of(d, tt, int(on[0]), 0)) == ref
             assert ref.along_x
+
+
+def test_a_moved_deck_edge_is_a_new_plan_for_the_memo(rooftop):
+    # plane geometry (common practice, no source; the rule of test_pad_edge_trace.py's
+    # deck-edge test): the rooftop's pads are laid to the deck's edge at y = 0, so a
+    # unit at (5.0, 0.5) m whose footprint overhangs that edge cannot tip onto the deck
+    # there (Δ = ∞). With the deck running on 3 m past y = 0 the same edge is free and
+    # Δ is finite. The memo of the first plan must not answer for the second.
+    p = rooftop
+    zone = p.lift_zones[0]
+    load = zone.loads[0]
+    lv = p.level(zone.level_id)
+    fm = floor_model(lv, p.settings)
+    geo = point_geometry(fm, p, np.array([5.0]), np.array([0.5]))
+    d = chain.Drop(fm, p, geo, (load,), np.zeros(1, dtype=np.int64))
+    W, fl, fw = (np.array([v]) for v in (load.weight, load.footprint_length,
+                                         load.footprint_width))
+    assert lv.grid.y_lines[0] == 0.0
+    before = chain._remembered_tip_offsets(d, W, fl, fw)
+    wider = replace(lv, grid=replace(lv.grid, y_lines=(-3.0, *lv.grid.y_lines),
+                                     y_labels=("Z", *lv.grid.y_labels)))
+    d2 = replace(d, fm=replace(fm, level=wider))
+    after = chain._remembered_tip_offsets(d2, W, fl, fw)
+    fresh = chain.tip_offsets(d2, fl, fw, chain.landing_pads(d2, fl, fw), W)
+    assert math.isinf(float(before[0])) and math.isfinite(float(fresh[0]))
+    assert float(after[0]) == float(fresh[0])
