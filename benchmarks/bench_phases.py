@@ -17,7 +17,10 @@ For each phase: chain runs, rows (points × loads × landings: one row is one ch
 evaluation of one point, one load, one landing), and rows that repeat a row the
 analysis ran before (the same point, load, trial height, trial mat, landing, trial
 flag): repeated work a cache could skip. Wall times are means per analysis; the
-wrappers add about 1 µs a call.
+wrappers add about 1 µs a call. The tip-off over a pad's edge: the rows of its own
+runs of the chain (``Drop.tip_off`` a Δ at every row) and their time, and the rows
+folded into the ordinary runs (``Drop.tip_off`` NaN at the other rows; the rows
+whose only case is the tip-off, :func:`droprig.solver.evaluate._outputs`).
 """
 
 from __future__ import annotations
@@ -51,6 +54,9 @@ class Probe:
         self.inverse: dict[str, float] = defaultdict(float)
         self.seen: set[tuple] = set()
         self.refine_calls = 0
+        self.tip_rows = 0  # rows of the tip-off's own runs (Drop.tip_off all Δ)
+        self.fold_rows = 0  # tip-off rows folded into an ordinary run (Δ, NaN elsewhere)
+        self.tip_T = 0.0  # wall time of the tip-off's own runs, s
 
     def reset(self) -> None:
         self.__init__()  # type: ignore[misc]
@@ -101,7 +107,18 @@ def install() -> None:
                 P.repeats[ph] += 1
             else:
                 P.seen.add(key)
-        return run(d, given)
+        if d.tip_off is None:
+            return run(d, given)
+        folded = int(np.count_nonzero(~np.isnan(np.asarray(d.tip_off, float))))
+        if folded < d.n:
+            P.fold_rows += folded
+            return run(d, given)
+        P.tip_rows += d.n
+        t = time.perf_counter()
+        try:
+            return run(d, given)
+        finally:
+            P.tip_T += time.perf_counter() - t
 
     evaluate.run_chain = counted  # type: ignore[assignment]
     chain.run_chain = counted  # type: ignore[assignment]
@@ -150,18 +167,23 @@ def main(argv: list[str] | None = None) -> None:
         analysis.analyse(proj)
         tot: dict[str, float] = defaultdict(float)
         inv: dict[str, float] = defaultdict(float)
-        wall = 0.0
+        wall = cpu = tip_T = 0.0
         for _ in range(a.runs):
             P.reset()
-            t = time.perf_counter()
+            t, c = time.perf_counter(), time.process_time()
             analysis.analyse(proj)
             wall += time.perf_counter() - t
+            cpu += time.process_time() - c
+            tip_T += P.tip_T
             for k, v in P.T.items():
                 tot[k] += v
             for k, v in P.inverse.items():
                 inv[k] += v
         n = a.runs
-        print(f"\n{path.stem}: {wall / n * 1e3:.1f} ms per analysis")
+        print(f"\n{path.stem}: {wall / n * 1e3:.1f} ms per analysis "
+              f"({cpu / n * 1e3:.1f} ms of this process's CPU time: a shared machine)")
+        print(f"  tip-off over a pad's edge: its own runs {P.tip_rows} rows, "
+              f"{tip_T / n * 1e3:.1f} ms; folded into the ordinary runs {P.fold_rows} rows")
         print(f"  {'phase':18s} {'ms':>7s} {'inverse ms':>10s} {'runs':>5s} "
               f"{'rows':>7s} {'repeated':>8s}")
         other = wall - sum(tot[p] for p in PHASES)

@@ -57,10 +57,11 @@ replace it for the steps after it (e.g. a refined :class:`Compliance`).
 
 from __future__ import annotations
 
+import itertools
 from collections import OrderedDict
 from collections.abc import Callable, Mapping
-from dataclasses import dataclass, replace
-from typing import TypeVar, cast
+from dataclasses import dataclass, fields, replace
+from typing import NamedTuple, TypeVar, cast
 
 import numpy as np
 
@@ -218,7 +219,9 @@ class Drop:
     it with at most the energy of a fall H − Δ (:func:`tip_offsets`); where H ≤ Δ
     the fall onto the deck is 0 and the run gives the case's inverse answers only
     (:func:`tip_off_case_rows`; :func:`droprig.solver.evaluate` runs it there and
-    keeps the worse case, :func:`merge_tip_off`). ``None``: the ordinary run."""
+    keeps the worse case, :func:`merge_tip_off`). NaN at a row: that row is the
+    ordinary case (the floor analysis folds the rows whose only case is the tip-off
+    into its ordinary run, :func:`_folded_inputs`). ``None``: the ordinary run."""
 
     fm: FloorModel
     project: Project
@@ -343,9 +346,23 @@ def load_inputs(c: Chain) -> LoadInputs:
                           for ld in loads])
     cl, cw = _contact_sides(d, fl, fw)
     if d.tip_off is not None:
-        return _tip_off_inputs(d, W, M, fl, fw, f_load, cl, cw, landing_pads(d, fl, fw),
-                               np.asarray(d.tip_off, float))
-    on = np.asarray(geo.protection)
+        delta = np.asarray(d.tip_off, float)
+        tip = _tip_off_inputs(d, W, M, fl, fw, f_load, cl, cw, landing_pads(d, fl, fw),
+                              delta)
+        folded = ~np.isnan(delta)
+        if folded.all():
+            return tip
+        return _folded_inputs(_ordinary_inputs(d, W, M, fl, fw, f_load, cl, cw), tip,
+                              folded, np.asarray(geo.protection))
+    return _ordinary_inputs(d, W, M, fl, fw, f_load, cl, cw)
+
+
+def _ordinary_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
+                     fw: np.ndarray, f_load: np.ndarray, cl: np.ndarray,
+                     cw: np.ndarray) -> LoadInputs:
+    """:func:`load_inputs` of the ordinary run (no tip-off): the layer under the drop
+    point, a trial mat, the drop heights and the contact on the deck."""
+    on = np.asarray(d.geo.protection)
     t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw, on)
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
@@ -364,6 +381,26 @@ def load_inputs(c: Chain) -> LoadInputs:
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
                       foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer,
                       base_l=cl + 2.0 * t_spread, base_w=cw + 2.0 * t_spread)
+
+
+def _folded_inputs(ordinary: LoadInputs, tip: LoadInputs, folded: np.ndarray,
+                   protection: np.ndarray) -> LoadInputs:
+    """:class:`LoadInputs` of a run whose ``folded`` rows are the tip-off case (``tip``,
+    :func:`_tip_off_inputs`) and whose other rows are the ordinary case (``ordinary``;
+    its pad the drop point's ``protection``, its datum offset its layer's thickness):
+    row by row the one or the other, so that each row's steps are those of a run of its
+    case alone (every step works point by point). The floor analysis folds the rows
+    where the tip-off is the point's only case into its ordinary run
+    (:func:`droprig.solver.evaluate._outputs`)."""
+    vals: dict[str, np.ndarray] = {}
+    for f in fields(LoadInputs):
+        a, b = getattr(ordinary, f.name), getattr(tip, f.name)
+        if f.name == "pad":
+            a = protection
+        elif f.name == "fall_offset":
+            a = ordinary.t_mat
+        vals[f.name] = np.where(folded, b, a)
+    return LoadInputs(**vals)
 
 
 def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
@@ -418,18 +455,45 @@ def tip_off_case_rows(d: Drop) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.n
         return none
     H, _ = _drop_heights(d, np.zeros(d.n))
     rows = np.flatnonzero(np.isfinite(delta))
-    sub = replace(d, geo=take_geo(d.geo, rows, steps=False), li=np.asarray(d.li)[rows])
-    on = landing_pads(sub, fl[rows], fw[rows])
-    top = np.array([float(d.project.protection_areas[i].thickness) if i >= 0 else 0.0
-                    for i in on.tolist()])
+    on = landing_pads(d, fl[rows], fw[rows], rows)
+    thick = np.array([float(pa.thickness) for pa in d.project.protection_areas] + [0.0])
+    top = thick[on]  # on = −1 (none): the appended 0
     return rows, delta[rows], top, H[rows] > delta[rows]
 
 
-_TIP_MEMO: OrderedDict[tuple, dict[tuple[float, ...], float]] = OrderedDict()
+_TIP_MEMO: OrderedDict[tuple, dict[bytes, float]] = OrderedDict()
 _TIP_MEMO_POINTS = 400_000
-"""Δ of :func:`tip_offsets` remembered per point (x, y, W, footprint) for the pads of a
-level, up to this many points: the confirmation tries the same points at other
-heights, and Δ depends on the plan only."""
+"""Δ of :func:`tip_offsets` remembered per point (x, y, W, footprint:
+:func:`_point_keys`) for one plan (:func:`_tip_memo_key`), up to this many points: the
+confirmation tries the same points at other heights, and Δ depends on the plan only."""
+
+
+def _tip_memo_key(d: Drop) -> tuple:
+    """What Δ depends on besides the point and the load (:data:`_TIP_MEMO`): the
+    protection areas, the level, the deck's plan extent (a pad's edge on it is no free
+    edge, :func:`_deck_extent`) and the crush stresses of the level's crushable pads
+    (a pad given by a crush force takes its stress from the loads' footprints,
+    :func:`pad_crush_stress`): an edit of any of them is a new plan."""
+    lv = d.fm.level
+    stresses = tuple(pad_crush_stress(d.project, pa) for pa in d.project.protection_areas
+                     if pa.level_id == lv.id and pa.kind == "crushable")
+    return d.project.protection_areas, lv.id, _deck_extent(d), stresses
+
+
+def _point_keys(*columns: np.ndarray) -> list[bytes]:
+    """One key per point of the float ``columns`` (x, y, W, fl, fw): the bytes of its
+    row of float64 values — equal values, equal keys (a −0.0 for a 0.0 only misses the
+    memo and is worked out again)."""
+    a = np.ascontiguousarray(np.stack([np.asarray(c, float) for c in columns], axis=1))
+    return cast(list[bytes], a.view(np.dtype((np.void, 8 * a.shape[1]))).ravel().tolist())
+
+
+_TURN_MEMO: OrderedDict[tuple, dict[bytes, tuple]] = OrderedDict()
+"""The :class:`TipOffTurn` of every point of :data:`_TIP_MEMO` with a finite Δ, under
+the same keys, as the plain tuple of its fields (a tuple of numbers and a string is
+no work for the garbage collector, tens of thousands of objects would be): what the
+calculation trace shows of a point the floor analysis worked out
+(:func:`tip_off_turn`), found by the same search (:func:`_tip_turns`)."""
 
 
 def _may_tip(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
@@ -466,27 +530,32 @@ def _remembered_tip_offsets(d: Drop, W: np.ndarray, fl: np.ndarray,
                             fw: np.ndarray) -> np.ndarray:
     """:func:`tip_offsets` of ``d``'s points, each point worked out once
     (:data:`_TIP_MEMO`)."""
-    key = (d.project.protection_areas, d.fm.level.id)
+    key = _tip_memo_key(d)
     memo = _TIP_MEMO.setdefault(key, {})
+    turns = _TURN_MEMO.setdefault(key, {})
     _TIP_MEMO.move_to_end(key)
+    _TURN_MEMO.move_to_end(key)
     out = np.full(d.n, np.inf)
     at = np.flatnonzero(_may_tip(d, fl, fw))
-    pts = list(zip(d.geo.x[at].tolist(), d.geo.y[at].tolist(), W[at].tolist(),
-                   fl[at].tolist(), fw[at].tolist(), strict=True))
-    out[at] = np.array([memo.get(p, np.nan) for p in pts], dtype=float)
-    new = at[np.isnan(out[at])]
-    keys = dict(zip(at.tolist(), pts, strict=True))
+    pts = _point_keys(d.geo.x[at], d.geo.y[at], W[at], fl[at], fw[at])
+    got = np.fromiter(map(memo.get, pts, itertools.repeat(np.nan)), float, count=len(pts))
+    out[at] = got
+    miss = np.flatnonzero(np.isnan(got))
+    new = at[miss]
     if new.size:
-        sub = replace(d, geo=take_geo(d.geo, new, steps=False),
-                      li=np.asarray(d.li)[new])
-        got = tip_offsets(sub, fl[new], fw[new], landing_pads(sub, fl[new], fw[new]), W[new])
-        out[new] = got
-        for i, v in zip(new.tolist(), got.tolist(), strict=True):
-            memo[keys[i]] = v
+        on = landing_pads(d, fl[new], fw[new], new)
+        tt = _tip_turns(d, d.geo.x[new], d.geo.y[new], fl[new], fw[new], on, W[new])
+        out[new] = tt.delta
+        new_pts = [pts[j] for j in miss.tolist()]
+        memo.update(zip(new_pts, tt.delta.tolist(), strict=True))
+        for j in np.flatnonzero(np.isfinite(tt.delta)).tolist():
+            turns[new_pts[j]] = _turn_of(d, tt, int(on[j]), j)
         while sum(len(m) for m in _TIP_MEMO.values()) > _TIP_MEMO_POINTS and len(_TIP_MEMO) > 1:
+            _TURN_MEMO.pop(next(iter(_TIP_MEMO)), None)
             _TIP_MEMO.popitem(last=False)
         if len(memo) > _TIP_MEMO_POINTS:
             memo.clear()
+            turns.clear()
     return out
 
 
@@ -538,7 +607,8 @@ def merge_tip_off(on_pad: dict[str, np.ndarray], tip: dict[str, np.ndarray],
             for k, v in out.items()}
 
 
-def landing_pads(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
+def landing_pads(d: Drop, fl: np.ndarray, fw: np.ndarray,
+                 rows: np.ndarray | None = None) -> np.ndarray:
     """Per point, the crushable pad the load's footprint ``fl`` × ``fw`` (m; either plan
     orientation) lies on (index into the project's protection areas, −1 none): the
     one under the drop point (``Geometry.protection``), else the crushable pad of the
@@ -548,14 +618,17 @@ def landing_pads(d: Drop, fl: np.ndarray, fw: np.ndarray) -> np.ndarray:
     is taken where the drop point is on the pad only: off it, the load lands on the
     pad's edge and tips onto the deck, which the tip-off case bounds. A spring mat
     counts under the drop point only (its edge's tip-off is not modelled: README,
-    limits)."""
-    on = np.asarray(d.geo.protection).copy()
+    limits). ``rows``: of the points ``rows`` of ``d`` only (``fl``, ``fw`` theirs)."""
+    prot, xs, ys = d.geo.protection, d.geo.x, d.geo.y
+    if rows is not None:
+        prot, xs, ys = np.asarray(prot)[rows], xs[rows], ys[rows]
+    on = np.asarray(prot).copy()
     free = np.flatnonzero(on < 0)
     lv = d.fm.level
     if d.bare is not None or free.size == 0:
         return on
     best = np.zeros(free.size)
-    x, y = d.geo.x[free], d.geo.y[free]
+    x, y = xs[free], ys[free]
     for i, pa in enumerate(d.project.protection_areas):
         if pa.level_id != lv.id or pa.kind != "crushable":
             continue
@@ -578,8 +651,33 @@ def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
     of the same kind and thickness, the less of the footprint's two plan
     orientations); ∞ where it cannot (the footprint wholly on the layers, a spring
     mat, no pad). W in N, footprint ``fl`` × ``fw`` in m."""
+    return _tip_turns(d, d.geo.x, d.geo.y, fl, fw, on, W).delta
+
+
+class _TipTurns(NamedTuple):
+    """:func:`_tip_turns`' answer per point: Δ (m, ∞ none), the turn θ (rad), the
+    length tipped over (m), the direction (index into
+    :data:`droprig.solver.pads.TIP_DIRECTIONS`) and whether the footprint's length lies
+    along x."""
+
+    delta: np.ndarray
+    theta: np.ndarray
+    length: np.ndarray
+    direction: np.ndarray
+    along_x: np.ndarray
+
+
+def _tip_turns(d: Drop, xs: np.ndarray, ys: np.ndarray, fl: np.ndarray, fw: np.ndarray,
+               on: np.ndarray, W: np.ndarray) -> _TipTurns:
+    """:func:`tip_offsets` at the points (``xs``, ``ys``; m) of ``d``'s plan with the
+    turn, length and direction each Δ is found at (:class:`_TipTurns`):
+    :func:`droprig.solver.pads.footprint_tip_turn` of both plan orientations in one
+    call, the footprint's length along y kept only where its Δ is the less (as
+    :func:`tip_off_turn_reference` picks it)."""
     prot, lv = d.project.protection_areas, d.fm.level
-    out = np.full(d.n, np.inf)
+    n = xs.size
+    out = _TipTurns(np.full(n, np.inf), np.full(n, np.nan), np.full(n, np.nan),
+                    np.full(n, -1, dtype=np.int64), np.ones(n, dtype=bool))
     if d.bare is not None:
         return out
     for i, pa in enumerate(prot):
@@ -589,15 +687,31 @@ def tip_offsets(d: Drop, fl: np.ndarray, fw: np.ndarray, on: np.ndarray,
         if sel.size == 0:
             continue
         layers = _tip_layers(d, pa)
-        x, y = d.geo.x[sel], d.geo.y[sel]
+        x, y = xs[sel], ys[sel]
         # both plan orientations in one call
         a = pads.footprint_rect(x, y, fl[sel], fw[sel], True)
         b = pads.footprint_rect(x, y, fl[sel], fw[sel], False)
         rect = tuple(np.concatenate([u, v]) for u, v in zip(a, b, strict=True))
-        dl = pads.footprint_tip_offset(rect, np.concatenate([W[sel], W[sel]]),  # type: ignore[arg-type]
-                                       float(pa.thickness), layers, deck=_deck_extent(d))
-        out[sel] = np.minimum(out[sel], np.minimum(dl[:sel.size], dl[sel.size:]))
+        tt = pads.footprint_tip_turn(rect, np.concatenate([W[sel], W[sel]]),  # type: ignore[arg-type]
+                                     float(pa.thickness), layers, deck=_deck_extent(d))
+        m = sel.size
+        # along y where its Δ is a number less than along x's
+        ay = np.isfinite(tt.delta[m:]) & (tt.delta[m:] < tt.delta[:m])
+        pick = np.where(ay, np.arange(m) + m, np.arange(m))
+        out.delta[sel] = np.minimum(tt.delta[:m], tt.delta[m:])
+        out.theta[sel] = tt.theta[pick]
+        out.length[sel] = tt.length[pick]
+        out.direction[sel] = tt.direction[pick]
+        out.along_x[sel] = ~ay
     return out
+
+
+def _turn_of(d: Drop, tt: _TipTurns, pad: int, j: int) -> tuple:
+    """The fields of the :class:`TipOffTurn` of point ``j`` of :func:`_tip_turns`'
+    answer ``tt`` (Δ finite), on pad ``pad``, as a plain tuple (:data:`_TURN_MEMO`)."""
+    return (pad, float(d.project.protection_areas[pad].thickness),
+            float(tt.delta[j]), float(tt.theta[j]), float(tt.length[j]),
+            pads.TIP_DIRECTIONS[int(tt.direction[j])], bool(tt.along_x[j]))
 
 
 def _deck_extent(d: Drop) -> tuple[float, float, float, float]:
@@ -647,6 +761,20 @@ def tip_off_turn(d: Drop) -> TipOffTurn | None:
     W = d.per_point([ld.weight for ld in d.loads])[:1]
     fl = d.per_point([ld.footprint_length for ld in d.loads])[:1]
     fw = d.per_point([ld.footprint_width for ld in d.loads])[:1]
+    # the floor analysis found this point's turn by the same search (_tip_turns)
+    known = _TURN_MEMO.get(_tip_memo_key(d), {}).get(
+        _point_keys(d.geo.x[:1], d.geo.y[:1], W, fl, fw)[0])
+    if known is not None:
+        return TipOffTurn(*known)
+    return tip_off_turn_reference(d, W, fl, fw)
+
+
+def tip_off_turn_reference(d: Drop, W: np.ndarray, fl: np.ndarray,
+                           fw: np.ndarray) -> TipOffTurn | None:
+    """:func:`tip_off_turn` worked out afresh (the plain reference the remembered
+    turns of :func:`_tip_turns` equal): each plan orientation on its own, the footprint
+    along y taken where its Δ is the less. ``W`` (N), ``fl``, ``fw`` (m) of the first
+    point, as arrays of one."""
     sub = replace(d, geo=take_geo(d.geo, np.array([0]), steps=False),
                   li=np.asarray(d.li)[:1])
     i = int(landing_pads(sub, fl, fw)[0])

@@ -228,18 +228,36 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
     (:data:`~droprig.solver.chain.HEIGHT_FREE`) are taken from ``geo``'s kept ones
     where they were kept for this run's loads and rows (:class:`KeptSteps`), and with
     ``keep`` kept with ``geo`` for later runs. ``outcomes_only``: a run of the outcome
-    stage (:class:`~droprig.solver.chain.Drop`)."""
+    stage (:class:`~droprig.solver.chain.Drop`).
+
+    A footprint partly on a crushable pad (:func:`~droprig.solver.chain.tip_off_case_rows`):
+    the worse of landing on it and tipping over its edge onto the deck
+    (:func:`~droprig.solver.chain.merge_tip_off`), a second run on those rows. Where
+    the drop point is off the pad and the drop height above Δ the tip-off is the
+    point's only case (``merge_tip_off`` keeps none of the ordinary run there): those
+    rows are run as the tip-off within the ordinary run (``Drop.tip_off`` NaN on the
+    other rows, :func:`~droprig.solver.chain._folded_inputs`), each row's numbers those
+    of a run of its case alone."""
     n = geo.x.size
     li = np.zeros(n, dtype=np.int64) if load_index is None else np.asarray(load_index)
     loads = _loads(load)
     kept = geo.cache.get("steps")
     by_landing: dict[str, dict[type, object]] = {}
+    rows, delta, top, reach = chain_mod.tip_off_case_rows(
+        Drop(fm, project, geo, loads, li, False, H, mat_k))
+    fold: np.ndarray | None = None
+    if rows.size:
+        only = reach & (np.asarray(geo.protection)[rows] < 0)
+        if only.any():
+            fold = np.full(n, np.nan)
+            fold[rows[only]] = delta[only]
+            rows, delta, top, reach = rows[~only], delta[~only], top[~only], reach[~only]
 
     def run(landing: str) -> dict[str, np.ndarray]:
         given = kept.given(loads, li, landing, mat_k) if kept is not None else None
         c = run_chain(Drop(fm, project, geo, loads, li, False, H, mat_k, v_hoist=v_hoist,
-                           landing=landing, trial=trial, outcomes_only=outcomes_only),
-                      given)
+                           landing=landing, trial=trial, outcomes_only=outcomes_only,
+                           tip_off=fold), given)
         if keep:
             by_landing[landing] = {t: c[t] for t in HEIGHT_FREE.values() if t in c}
         return outputs(c)
@@ -249,32 +267,38 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
         out = merge_landings(out, run("tilted"))
     if keep and mat_k is None:
         geo.cache["steps"] = KeptSteps.of(loads, li, by_landing)
-    rows, delta, top, reach = chain_mod.tip_off_case_rows(
-        Drop(fm, project, geo, loads, li, False, H, mat_k))
     if rows.size:
-        # a footprint partly on a crushable pad: the worse of landing on it and
-        # tipping over its edge onto the deck (chain.tip_offsets); where the drop
-        # height is at most Δ the tip-off's allowable heights only
-        sub = take_geo(geo, rows, steps=False)
-
-        def pick(a: np.ndarray | None) -> np.ndarray | None:
-            return None if a is None else np.asarray(a)[rows]
-
-        def run_tip(landing: str) -> dict[str, np.ndarray]:
-            return outputs(run_chain(Drop(fm, project, sub, loads, li[rows], False, pick(H),
-                                          pick(mat_k), v_hoist=v_hoist, landing=landing,
-                                          trial=trial, outcomes_only=outcomes_only,
-                                          tip_off=delta)))
-
-        tip = run_tip("flat")
-        if fm.settings.tilted_landing:
-            tip = merge_landings(tip, run_tip("tilted"))
+        tip = _tip_off_run(fm, project, loads, geo, li, rows, delta, H, mat_k, v_hoist,
+                           trial, outcomes_only)
         merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip, top,
                                          reach)
         for k, v in merged.items():
             out[k] = out[k].copy()
             out[k][rows] = v
     return out
+
+
+def _tip_off_run(fm: FloorModel, project: Project, loads: tuple[LiftLoad, ...],
+                 geo: Geometry, li: np.ndarray, rows: np.ndarray, delta: np.ndarray,
+                 H: np.ndarray | None, mat_k: np.ndarray | None, v_hoist: float,
+                 trial: bool, outcomes_only: bool) -> dict[str, np.ndarray]:
+    """The outputs of the tip-off case (``Drop.tip_off`` = ``delta``, m) at the points
+    ``rows`` of ``geo`` (:func:`_outputs`): the flat landing, or both merged."""
+    sub = take_geo(geo, rows, steps=False)
+
+    def pick(a: np.ndarray | None) -> np.ndarray | None:
+        return None if a is None else np.asarray(a)[rows]
+
+    def run_tip(landing: str) -> dict[str, np.ndarray]:
+        return outputs(run_chain(Drop(fm, project, sub, loads, li[rows], False, pick(H),
+                                      pick(mat_k), v_hoist=v_hoist, landing=landing,
+                                      trial=trial, outcomes_only=outcomes_only,
+                                      tip_off=delta)))
+
+    tip = run_tip("flat")
+    if fm.settings.tilted_landing:
+        tip = merge_landings(tip, run_tip("tilted"))
+    return tip
 
 
 def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoad],

@@ -365,12 +365,40 @@ def footprint_tip_turn(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike],
         return out
     at, L, W, segments, dirs = cases
     d, th = tip_offset_turn(L, W, t, segments)
-    for j in np.argsort(-d, kind="stable"):  # the least last: it stays
-        i = at[j]
-        if d[j] <= out.delta[i]:
-            out.delta[i], out.theta[i] = d[j], th[j]
-            out.length[i], out.direction[i] = L[j], dirs[j]
+    j = least_case(at, d)
+    i = at[j]
+    out.delta[i], out.theta[i] = d[j], th[j]
+    out.length[i], out.direction[i] = L[j], dirs[j]
     return out
+
+
+def least_case(at: np.ndarray, d: np.ndarray) -> np.ndarray:
+    """The case each point keeps of the cases ``at`` (the point of each case) with
+    values ``d``: the least d of the point, of equal ones the last in the cases' order
+    (a NaN never). Indices into the cases, one per point that has a case with a
+    number. Sorting, vectorised; :func:`_least_case_reference` is the plain loop it
+    equals (the descending walk that keeps every value at most the kept one)."""
+    j = np.flatnonzero(~np.isnan(d))
+    if j.size == 0:
+        return j
+    # by point, then d ascending, then the later case first
+    order = j[np.lexsort((-j, d[j], at[j]))]
+    first = np.ones(order.size, dtype=bool)
+    first[1:] = at[order[1:]] != at[order[:-1]]
+    return order[first]
+
+
+def _least_case_reference(at: np.ndarray, d: np.ndarray) -> dict[int, int]:
+    """:func:`least_case` as the plain loop (point -> case): the cases walked by
+    descending d, each that is at most the point's kept value kept — the least stays,
+    of equal ones the last."""
+    kept: dict[int, int] = {}
+    best: dict[int, float] = {}
+    for j in np.argsort(-d, kind="stable"):
+        i = int(at[j])
+        if d[j] <= best.get(i, np.inf):
+            kept[i], best[i] = int(j), float(d[j])
+    return kept
 
 
 def _tip_cases(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike], weight: ArrayLike,
