@@ -38,6 +38,32 @@ reference's: 1.25 × the longer of the member's fundamental period and the loade
 period (plus the crushing time), every case to its own end — a load that bounces off
 and lands again inside it is followed through the second landing.
 
+**Bounded search** (the default; ``stepping=True`` keeps the plain run above as its
+reference, and ``record`` always steps). The same samples, fewer of them worked out:
+
+* *outputs*: in a phase every output is a constant plus harmonics, so it never exceeds
+  |y_c| + Σⱼ|CV_qj|·√(Aⱼ² + Bⱼ²) (+ the tail added to its peak; the triangle
+  inequality — common practice, no source); an output whose bound cannot beat the
+  peak it folds into (the force's, its family's, an end section's also the
+  reaction's) is not evaluated for the rest of the phase;
+* *free flight*: once the load has bounced clear the gap is c·x − p ≤ g₀ − p + l·τ +
+  w·τ² + Σⱼ√(gaⱼ² + gbⱼ²) (w = W/(2M)), so no landing can fall between the roots of
+  that parabola; the samples up to the last one before its second root (or the
+  window's end) are not scanned for a landing nor bisected, and the live outputs'
+  peaks over them come from one product (outputs × harmonics)·(harmonics × samples)
+  per case; the samples after the leap are the stepping run's (the same grid);
+* the harmonics at the samples by rotation, e^{iΩ(τ + 64b·dt)}·e^{iΩs·dt}, not cos
+  and sin of every sample (the same angles to a few ulps of Ω·t).
+
+The peaks agree with the stepping run's to 1e-13 relative where the same largest
+samples are refined, and otherwise differ by the parabola's refinement alone (the
+stepping run refines a round's largest sample if it is inside its round, the leap
+each piece's largest if it is a top of the samples: both within the sampling error;
+≤ 1e-5 relative on the demos' members, :data:`FAST_TOLERANCE` on random members,
+``tests/solver/test_exact_history_fast.py``); a dead output's parabola that would
+have overshot its own bound is the one other difference. Measured:
+``benchmarks/bench_point_history.py``.
+
 Cost: the samples grow with the modes kept (a stiff contact keeps up to 40, sampled 8
 times a period of the highest over the whole window) and every contact change is a
 round of its own, so a point costs about 1–40 ms (``benchmarks/bench_verify.py``:
@@ -62,13 +88,16 @@ from droprig.solver import impact, timehistory
 from droprig.solver.beam import EndCondition
 from droprig.solver.timehistory import History, TimeHistoryPeaks
 
-__all__ = ["DEFAULT_SAMPLES_PER_PERIOD", "MAX_EVENTS", "exact_time_history"]
+__all__ = ["DEFAULT_SAMPLES_PER_PERIOD", "FAST_TOLERANCE", "MAX_EVENTS", "exact_time_history"]
 
 DEFAULT_SAMPLES_PER_PERIOD = 8
 """Samples per period of a phase's highest frequency (peaks refined by a parabola)."""
 DEFAULT_SECTIONS = 16
 """Equal intervals of the member at whose ends (and both sides of the load) the
 deflection, moment and shear are followed (the reference follows 64)."""
+FAST_TOLERANCE = 1e-4
+"""Largest relative difference of the bounded search's peaks from the stepping run's
+(module docstring, "Bounded search": the parabola's refinement of the sampled peaks)."""
 MAX_EVENTS = 400
 """Phase changes per case before the case is handed to the Newmark reference."""
 TAIL = 0.01
@@ -91,7 +120,7 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                        duration: float = 1.25, record: bool = False,
                        sections: int = DEFAULT_SECTIONS, group: int = 256,
                        weight: ArrayLike | None = None, kGA: ArrayLike = math.inf,
-                       rhoI: ArrayLike = 0.0) -> TimeHistoryPeaks:
+                       rhoI: ArrayLike = 0.0, stepping: bool = False) -> TimeHistoryPeaks:
     """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
     condition ``cond``, one name or one per case; span L m, EI N·m², μ kg/m) at
     ``a`` (m) through a contact compliance f_c (m/N), with an elastic–perfectly
@@ -103,7 +132,9 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     ``steps`` the largest number of samples of a case. ``weight`` (N, default M·g):
     as in :func:`droprig.solver.timehistory.time_history`; ``kGA`` (N) and ``rhoI``
     (kg·m): the Timoshenko member's shear stiffness and rotary inertia, as there
-    (defaults: Euler–Bernoulli)."""
+    (defaults: Euler–Bernoulli). ``stepping``: sample every phase to its end, every
+    output at every sample (the plain reference of the bounded search, module
+    docstring, "Bounded search"; ``record`` always steps)."""
     if samples_per_period < 4:
         raise ValueError("samples_per_period: at least 4 samples per period")
     (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = timehistory.checked_case(
@@ -139,7 +170,7 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                                            axis=1),
                        n_sec=su["Rd"].shape[1], F_y=F_y[ic][sel], s_y=s_y[ic][sel],
                        t_end=t_end[sel], T1=su["T1"][sel], sp=samples_per_period,
-                       record=record)
+                       record=record, fast=not (stepping or record))
             idx = ic[sel]
             for key in out:
                 out[key][idx] = run[key]
@@ -220,14 +251,15 @@ class _Phase:
 def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: np.ndarray,
          pt: np.ndarray, Wsec: np.ndarray, Rsec: np.ndarray, n_sec: int, F_y: np.ndarray,
          s_y: np.ndarray, t_end: np.ndarray, T1: np.ndarray, sp: int,
-         record: bool) -> dict:
+         record: bool, fast: bool = False) -> dict:
     """Cases of one end condition with N kept modes (a prefix of ``omega``; modes not
     kept have φ̃ = 0 and stay at rest): peaks by phases (see :func:`exact_time_history`).
     ``Wsec`` (P, N, 3S) the sections' deflection, moment and shear per unit q̃ₙ,
     ``Rsec`` (P, 3S) their static correction per unit contact force. Rounds of
     :class:`_Integrator` until every case has ended."""
     it = _Integrator(M=M, W=W, k=k, v0=v0, omega=omega, pt=pt, Wsec=Wsec, Rsec=Rsec,
-                     n_sec=n_sec, F_y=F_y, s_y=s_y, t_end=t_end, T1=T1, sp=sp, record=record)
+                     n_sec=n_sec, F_y=F_y, s_y=s_y, t_end=t_end, T1=T1, sp=sp, record=record,
+                     fast=fast)
     it.set_phase(np.arange(it.P))
     while it.active.any():
         it.round()
@@ -275,7 +307,8 @@ class _Integrator:
     def __init__(self, *, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray,
                  omega: np.ndarray, pt: np.ndarray, Wsec: np.ndarray, Rsec: np.ndarray,
                  n_sec: int, F_y: np.ndarray, s_y: np.ndarray, t_end: np.ndarray,
-                 T1: np.ndarray, sp: int, record: bool) -> None:
+                 T1: np.ndarray, sp: int, record: bool, fast: bool = False) -> None:
+        self.fast = fast
         self.M, self.W, self.k, self.v0, self.omega, self.pt = M, W, k, v0, omega, pt
         self.F_y, self.s_y, self.t_end, self.T1, self.sp = F_y, s_y, t_end, T1, sp
         self.record = record
@@ -306,6 +339,9 @@ class _Integrator:
         self.tau, self.t_sep, self.active, self.events = tau, t_sep, active, events
         self.expect, self.samples, self.chatter, self.pk = expect, samples, chatter, pk
         self.ph, self.rec, self.S, self.sl = ph, rec, S, sl
+        self.bnd = np.zeros((P, Q))  # bound on each output's folded value, this phase
+        self.gbnd = np.zeros(P)  # bound on the gap's harmonic part, this phase
+        self.leaps = np.zeros(P, int)  # samples skipped by the gap's bound (bench)
 
     def set_phase(self, idx: np.ndarray) -> None:
         """The closed form of each case's phase from its state at the phase's start
@@ -319,6 +355,8 @@ class _Integrator:
         f = idx[kd != _CONTACT]
         if f.size:
             self._set_free(f)
+        if self.fast:
+            self._set_bounds(idx)
 
     def _set_contact(self, e: np.ndarray) -> None:
         """The contact phase of the cases ``e``: the modes of the contact system about
@@ -458,13 +496,139 @@ class _Integrator:
 
     def round(self) -> None:
         """One round over the active cases: samples of each phase, its end (an event or
-        the window's end) found exactly, the peaks folded, the phases advanced."""
+        the window's end) found exactly, the peaks folded, the phases advanced. Fast
+        (bounded search): a free phase first leaps the samples where neither a peak
+        nor a landing can fall (:meth:`_leap`), and only the outputs whose bound can
+        still beat their peak are evaluated (:meth:`_fold_live`)."""
         idx = np.flatnonzero(self.active)
+        if self.fast:
+            self._leap(idx)
         dt, ts, cs, sn, which, i_ev, G = self._scan(idx)
         t_cut, ev_which, stop, nvalid = self._cut(idx, ts, which, i_ev, G)
-        self._fold_samples(idx, ts, cs, sn, nvalid, G)
+        if self.fast:
+            self._fold_live(idx, cs, sn, nvalid, G)
+        else:
+            self._fold_samples(idx, ts, cs, sn, nvalid, G)
         self._fold_cut(idx, t_cut)
         self._advance(idx, dt, ts, t_cut, ev_which, stop, nvalid)
+
+    def _set_bounds(self, idx: np.ndarray) -> None:
+        """The bounds of the phase just set (cases idx): for each output
+        |y_c| + Σⱼ|CV_qj|·√(Aⱼ² + Bⱼ²) over the sampled harmonics, plus the tail
+        added to its peak — no sample of the phase, nor its parabola's top, folds
+        more, barring the parabola's overshoot (module docstring); and for the gap
+        Σⱼ√(gaⱼ² + gbⱼ²) over every harmonic (the landing's test takes them all)."""
+        ph = self.ph
+        r = np.hypot(ph.As[idx], ph.Bs[idx])  # (n, J)
+        self.bnd[idx] = (np.abs(ph.yc[idx]) + np.einsum("pqj,pj->pq", np.abs(ph.CV[idx]), r)
+                         + ph.tail[idx])
+        self.gbnd[idx] = np.hypot(ph.ga[idx], ph.gb[idx]).sum(axis=1)
+
+    def live(self, idx: np.ndarray) -> np.ndarray:
+        """(n, Q): the outputs whose bound this phase can still beat the peak they
+        fold into (:meth:`_peaks`)."""
+        return self.bnd[idx] > self._peaks(idx)
+
+    def _leap(self, idx: np.ndarray) -> None:
+        """Free phases leap whole sample spacings to the first time the load could land:
+        the gap c·x − p ≤ g₀ − p + l·τ + w·τ² + Σⱼ√(gaⱼ² + gbⱼ²) (w = W/(2M) > 0),
+        so no landing falls between the roots τ₁ < τ₂ of the right-hand side; a case
+        at τ in [τ₁, τ₂] goes on from the last sample before τ₂ (on its own grid: the
+        samples after it are the stepping run's), or the window's end, and the peaks
+        of the samples leapt are found by :meth:`_fold_span`."""
+        ph, tau = self.ph, self.tau
+        f = idx[self.kind[idx] == _FREE]
+        if f.size == 0:
+            return
+        w, lu = ph.w_u[f], ph.l_u[f]
+        c0 = ph.g0[f] - self.p[f] + self.gbnd[f]
+        disc = lu * lu - 4.0 * w * c0
+        with np.errstate(invalid="ignore", divide="ignore"):
+            sq = np.sqrt(np.maximum(disc, 0.0))
+            # the roots, stably (Numerical Recipes 3rd ed. §5.6)
+            q_ = -0.5 * (lu - sq)
+            r2 = np.where(q_ > 0.0, q_ / w, 0.0)
+            r1 = np.where(q_ > 0.0, c0 / q_, 0.0)
+        t_stop = np.maximum(self.t_end[f] - self.t0[f], tau[f])
+        ok = (disc > 0.0) & (r1 <= tau[f]) & (tau[f] < r2) & (w > 0.0)
+        dt = ph.dt[f]
+        target = np.minimum(r2, t_stop)
+        n = np.where(ok, np.floor((target - tau[f]) / dt), 0.0)
+        n = np.maximum(n - 1.0, 0.0)  # short of the bound's root and the window's end
+        go = n >= _BLOCK
+        if not go.any():
+            return
+        g, ng = f[go], n[go].astype(int)
+        self._fold_span(g, ng)
+        self.leaps[g] += ng
+        self.samples[g] += ng
+        tau[g] = tau[g] + ng * dt[go]
+        self.expect[g, _FREE] = 16.0
+
+    def _fold_span(self, f: np.ndarray, n: np.ndarray) -> None:
+        """The peaks of the live outputs (:meth:`live`) over the next n[i] samples of
+        the free phases f (phase times τ + g·dt, g = 0…n−1), case by case as one
+        product (outputs × harmonics) · (harmonics × samples), in pieces of
+        :data:`_SPAN` samples overlapping by one; each output's largest sample of a
+        piece, refined by the parabola through it and its neighbours where it is a top
+        of the samples, plus the tail (as :meth:`_fold_samples` folds a round)."""
+        ph = self.ph
+        live = self.live(f)
+        for k, i in enumerate(f.tolist()):
+            q = np.flatnonzero(live[k])
+            N = int(n[k])
+            if q.size == 0 or N == 0:
+                continue
+            # the harmonics sampled that reach a live output
+            jj = np.flatnonzero(np.any(ph.CV[i][q] != 0.0, axis=0)
+                                & ((ph.As[i] != 0.0) | (ph.Bs[i] != 0.0)))
+            J = jj.size
+            CV = ph.CV[i][np.ix_(q, jj)]
+            yc, tail = ph.yc[i][q], ph.tail[i][q]
+            force = q == 0
+            dt = ph.dt[i]
+            for g0 in range(0, N, _SPAN):
+                lo = max(g0 - 1, 0)
+                hi = min(g0 + _SPAN + 1, N)
+                if J:
+                    cs, sn = _rotations(ph.Om[i][None, jj], self.tau[i:i + 1] + lo * dt,
+                                        ph.dt[i:i + 1], hi - lo)
+                    z = ph.As[i][jj] * cs[0] + ph.Bs[i][jj] * sn[0]  # (G, J)
+                    Y = CV @ z.T + yc[:, None]
+                else:
+                    Y = np.repeat(yc[:, None], hi - lo, axis=1)
+                Ya = np.where(force[:, None], Y, np.abs(Y))
+                a0 = g0 - lo  # the piece's own samples: [a0, a1)
+                a1 = min(g0 + _SPAN, N) - lo
+                im = a0 + np.argmax(Ya[:, a0:a1], axis=1)
+                r = np.arange(q.size)
+                best = Ya[r, im]
+                ym1 = Ya[r, np.maximum(im - 1, 0)]
+                yp1 = Ya[r, np.minimum(im + 1, hi - lo - 1)]
+                gim = lo + im
+                inner = (gim >= 1) & (gim <= N - 2) & (best >= ym1) & (best >= yp1)
+                with np.errstate(invalid="ignore"):
+                    den = 2.0 * best - ym1 - yp1
+                    bump = np.where(inner & (den > 0.0),
+                                    (yp1 - ym1) ** 2 / (8.0 * np.where(den > 0.0, den, 1.0)),
+                                    0.0)
+                    bump = np.where(inner, np.minimum(bump, np.abs(yp1 - ym1)), 0.0)
+                full = np.full((1, self.Q), -np.inf)
+                full[0, q] = best + bump + tail
+                self._fold_values(np.array([i]), full)
+
+    def _peaks(self, idx: np.ndarray) -> np.ndarray:
+        """(n, Q): the peak each output folds into (the force's, its family's; for the
+        end sections the smaller of the shear's and the reaction's)."""
+        pk, sl, S = self.pk[idx], self.sl, self.S
+        peak = np.empty((idx.size, self.Q))
+        peak[:, 0] = pk[:, 0]
+        for j, key in enumerate(("D", "M", "V"), start=1):
+            peak[:, sl[key]] = pk[:, j, None]
+        v0 = sl["V"].start
+        for q in (v0, v0 + S - 3):
+            peak[:, q] = np.minimum(pk[:, 3], pk[:, 4])
+        return peak
 
     def _scan(self, idx: np.ndarray) -> tuple:
         """G samples of each active case's phase (its own spacing ``dt``): the phase
@@ -478,8 +642,11 @@ class _Integrator:
         gg = np.arange(G, dtype=float)
         dt = ph.dt[idx]
         ts = tau[idx][:, None] + dt[:, None] * gg[None, :]  # (n, G) phase times
-        arg = ph.Om[idx][:, None, :] * ts[:, :, None]
-        cs, sn = np.cos(arg), np.sin(arg)
+        if self.fast:
+            cs, sn = _rotations(ph.Om[idx], tau[idx], dt, G)
+        else:
+            arg = ph.Om[idx][:, None, :] * ts[:, :, None]
+            cs, sn = np.cos(arg), np.sin(arg)
         Om, ga, gb = ph.Om[idx][:, None, :], ph.ga[idx][:, None, :], ph.gb[idx][:, None, :]
         l_u, w_u = ph.l_u[idx][:, None], ph.w_u[idx][:, None]
         gv = ph.g0[idx][:, None] + l_u * ts + w_u * ts**2 + np.sum(ga * cs + gb * sn, axis=2)
@@ -590,6 +757,69 @@ class _Integrator:
                     rec["V"].append(np.abs(Yr[sl["V"], :m]).max(axis=0))
                     rec["U"].append(state(np.repeat(ii[:1], m), ts[r[0], :m])[0][:, 0])
 
+    def _fold_live(self, idx: np.ndarray, cs: np.ndarray, sn: np.ndarray,
+                   nvalid: np.ndarray, G: int) -> None:
+        """:meth:`_fold_samples` on the live outputs only (:meth:`live`; a case's
+        list padded with its other outputs, whose folding changes nothing): the
+        same samples, the same parabola and tail, the same peaks, barring a dead
+        output whose parabola would have overshot its own bound."""
+        Q, ph = self.Q, self.ph
+        live = self.live(idx)
+        use = np.flatnonzero(live.any(axis=1) & (nvalid > 0))
+        if use.size == 0:
+            return
+        bucket = np.ceil(np.log2(np.maximum(nvalid[use], 1))).astype(int)
+        for bk in np.unique(bucket):
+            rb = use[bucket == bk]
+            Gb = min(1 << int(bk), G)
+            nl = int(live[rb].sum(axis=1).max())
+            step = max(1, _CHUNK // (nl * Gb))
+            for c0 in range(0, rb.size, step):
+                r = rb[c0:c0 + step]
+                ii = idx[r]
+                nv = nvalid[r]
+                order = np.argsort(~live[r], axis=1, kind="stable")[:, :nl]  # (m, nl)
+                gi = np.minimum(np.arange(Gb)[None, :], np.maximum(nv - 1, 0)[:, None])
+                z = (ph.As[ii][:, None, :] * np.take_along_axis(cs[r], gi[:, :, None], axis=1)
+                     + ph.Bs[ii][:, None, :] * np.take_along_axis(sn[r], gi[:, :, None],
+                                                                  axis=1))
+                CVb = np.concatenate([np.take_along_axis(ph.CV[ii], order[:, :, None], axis=1),
+                                      np.take_along_axis(ph.yc[ii], order, axis=1)[:, :, None]],
+                                     axis=2)
+                Y = np.einsum("mqj,mgj->mqg", CVb[:, :, :-1], z, optimize=True)
+                Y += CVb[:, :, -1:]
+                Ya = np.where((order == 0)[:, :, None], Y, np.abs(Y))
+                im = np.argmax(Ya, axis=2)
+                best = np.take_along_axis(Ya, im[:, :, None], axis=2)[:, :, 0]
+                inner = (im >= 1) & (im <= nv[:, None] - 2)
+                ym1 = np.take_along_axis(Ya, np.maximum(im - 1, 0)[:, :, None],
+                                         axis=2)[:, :, 0]
+                yp1 = np.take_along_axis(Ya, np.minimum(im + 1, Gb - 1)[:, :, None],
+                                         axis=2)[:, :, 0]
+                with np.errstate(invalid="ignore"):
+                    den = 2.0 * best - ym1 - yp1
+                    bump = np.where(inner & (den > 0.0),
+                                    (yp1 - ym1) ** 2 / (8.0 * np.where(den > 0.0, den, 1.0)),
+                                    0.0)
+                    bump = np.where(inner, np.minimum(bump, np.abs(yp1 - ym1)), 0.0)
+                val = best + bump + np.take_along_axis(ph.tail[ii], order, axis=1)
+                full = np.full((r.size, Q), -np.inf)
+                np.put_along_axis(full, order, val, axis=1)
+                self._fold_values(ii, full)
+
+    def _fold_values(self, idx: np.ndarray, v: np.ndarray, repeated: bool = False) -> None:
+        """Fold folded values (n, Q; the force signed, the rest ≥ 0, −∞ none) into the
+        peaks, as :meth:`fold` folds outputs (``repeated``: idx may repeat a case)."""
+        pk, sl, S = self.pk, self.sl, self.S
+        V = v[:, sl["V"]]
+        cols = [v[:, 0]] + [v[:, sl[key]].max(axis=1) for key in ("D", "M", "V")]
+        cols.append(np.maximum(V[:, 0], V[:, S - 3]))
+        for j, col in enumerate(cols):
+            if repeated:
+                np.maximum.at(pk[:, j], idx, col)
+            else:
+                pk[idx, j] = np.maximum(pk[idx, j], col)
+
     def _fold_cut(self, idx: np.ndarray, t_cut: np.ndarray) -> None:
         """The outputs at the cut folded into the peaks."""
         record, t0, rec, S, sl = self.record, self.t0, self.rec, self.S, self.sl
@@ -672,3 +902,26 @@ class _Integrator:
                 "reaction": pk[:, 4], "t_separation": t_sep, "dt": ph.dt.copy(),
                 "crush": np.maximum(crush, 0.0),
                 "samples": samples, "chatter": chatter, "history": history, "events": events}
+
+
+_ROT = 64  # samples per block of the rotations (:func:`_rotations`)
+_BLOCK = 16  # fewest samples a leap takes (:meth:`_Integrator._leap`)
+_SPAN = 4096  # samples per piece of a leap's span (:meth:`_Integrator._fold_span`)
+
+
+def _rotations(Om: np.ndarray, tau: np.ndarray, dt: np.ndarray,
+               G: int) -> tuple[np.ndarray, np.ndarray]:
+    """cos and sin of Ωⱼ·(τ + g·dt), g = 0…G−1, per case (Ω (n, J), τ and dt (n,))
+    → two (n, G, J) arrays, as e^{iΩ(τ + 64·b·dt)}·e^{iΩ·s·dt} with g = 64·b + s:
+    (64 + G/64)·J complex exponentials instead of 2·G·J cos and sin; the same
+    angles to a few ulps of Ω·t (the sums of angles)."""
+    n, J = Om.shape
+    B = min(_ROT, G)
+    nb = -(-G // B)
+    s = np.arange(B, dtype=float)
+    b = np.arange(nb, dtype=float)
+    inner = np.exp(1j * (Om[:, None, :] * (dt[:, None, None] * s[None, :, None])))
+    outer = np.exp(1j * (Om[:, None, :] * (tau[:, None, None]
+                                           + (B * dt)[:, None, None] * b[None, :, None])))
+    e = (outer[:, :, None, :] * inner[:, None, :, :]).reshape(n, nb * B, J)[:, :G]
+    return e.real, e.imag
