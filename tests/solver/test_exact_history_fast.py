@@ -98,5 +98,5 @@ def test_mass_on_massless_spring_gere_both_runs(h_over_dst: float, stepping: boo
     # 8 samples a period, refined by a parabola: at most 0.85 % low on a cosine (hand
     # calculation, tests/solver/test_exact_history.py REL_CLOSED)
     assert float(res.force[0]) == pytest.approx(K * M * G, rel=0.0085)
-    if not stepping and h_over_dst > 0.0:
+    if not stepping and h_over_dst >= 10.0:  # it flies past the window's end
         assert res.leapt is not None and float(res.leapt[0]) > 0.0
