@@ -576,11 +576,11 @@ class _Integrator:
     def _fold_span(self, f: np.ndarray, n: np.ndarray) -> None:
         """The peaks of the live outputs (:meth:`live`) over the next n[i] samples of
         the free phases f (phase times τ + g·dt, g = 0…n−1), case by case as one
-        product (outputs × harmonics) · (harmonics × samples), in pieces of
-        :data:`_GEMM_ONE_THREAD` multiply-adds overlapping by one sample; each
-        output's largest sample of a piece, refined by the parabola through it and its
-        neighbours where it is a top of the samples, plus the tail (as
-        :meth:`_fold_samples` folds a round)."""
+        product (outputs × harmonics) · (harmonics × samples) (worked out in products
+        of :data:`_GEMM_ONE_THREAD` multiply-adds), in pieces of :data:`_SPAN` samples
+        overlapping by one; each output's largest sample of a piece, refined by the
+        parabola through it and its neighbours where it is a top of the samples, plus
+        the tail (as :meth:`_fold_samples` folds a round)."""
         ph = self.ph
         live = self.live(f)
         for k, i in enumerate(f.tolist()):
@@ -601,7 +601,9 @@ class _Integrator:
             # (after the phase's first sample) and N + 1 (still before the landing's
             # bound and the window's end: the leap stops two samples short) taken too
             first = 0 if self.tau[i] > 0.0 else 1
-            span = max(64, _GEMM_ONE_THREAD // max(q.size * J, 1))
+            span = _SPAN
+            piece = max(64, _GEMM_ONE_THREAD // max(q.size * J, 1))
+            CVt = np.ascontiguousarray(CV.T)
             for g0 in range(0, N + 1, span):
                 lo = max(g0 - 1, -1 + first)
                 hi = min(g0 + span + 1, N + 2)
@@ -609,7 +611,10 @@ class _Integrator:
                     cs, sn = _rotations(ph.Om[i][None, jj], self.tau[i:i + 1] + lo * dt,
                                         ph.dt[i:i + 1], hi - lo)
                     z = ph.As[i][jj] * cs[0] + ph.Bs[i][jj] * sn[0]  # (G, J)
-                    Y = CV @ z.T + yc[:, None]
+                    Yt = np.empty((hi - lo, q.size))
+                    for c in range(0, hi - lo, piece):  # products of one thread's size
+                        np.matmul(z[c:c + piece], CVt, out=Yt[c:c + piece])
+                    Y = Yt.T + yc[:, None]
                 else:
                     Y = np.repeat(yc[:, None], hi - lo, axis=1)
                 Ya = np.where(force[:, None], Y, np.abs(Y))
@@ -965,6 +970,7 @@ class _Integrator:
 
 _ROT = 64  # samples per block of the rotations (:func:`_rotations`)
 _BLOCK = 16  # fewest samples a leap takes (:meth:`_Integrator._leap`)
+_SPAN = 8192  # samples per piece of a leap's span (:meth:`_Integrator._fold_span`)
 _GEMM_ONE_THREAD = 1 << 18
 """Multiply-adds of one product of :meth:`_Integrator._fold_span` (outputs × harmonics ×
 samples): a leap's span is taken in pieces this small, below the size at which the
