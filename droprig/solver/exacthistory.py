@@ -68,6 +68,10 @@ Cost: the samples grow with the modes kept (a stiff contact keeps up to 40, samp
 times a period of the highest over the whole window) and every contact change is a
 round of its own, so a point costs about 1–40 ms (``benchmarks/bench_verify.py``:
 on 100 random members about the Newmark reference's cost, not the ≤ 1 ms aimed at).
+The bounded search takes the demos' member histories at 3.8–6.0 ms a point against
+the stepping run's 8.7–12.9 ms (one BLAS thread, ``benchmarks/bench_point_history.py
+[--stepping]``; docs/amplification_record.md, stop 30): the contact phases and the
+landings are still stepped.
 
 Cases are vectorised: points of one end condition and a similar number of kept modes
 run together, each in its own phase, in rounds of a chunk of samples per point. A case
