@@ -36,12 +36,12 @@ L, EI, MU = 6.0, 2e11 * 1e-4, 50.0
 
 @pytest.fixture(scope="module")
 def both_runs():
-    """60 random members and contacts (tests/solver/test_exact_history.py's ranges, a
+    """40 random members and contacts (tests/solver/test_exact_history.py's ranges, a
     third crushing), half of them Timoshenko members (shear flexibility EI/(κGA·L²)
     0.002–0.05, rotary inertia μ·r² with r 0.05–0.2 m: invented, compared run to run),
     by the bounded search and by the stepping run."""
     rng = np.random.default_rng(20261205)
-    c = _random_cases(rng, 60)
+    c = _random_cases(rng, 40)
     n = c["L"].size
     timo = rng.uniform(size=n) < 0.5
     kGA = np.where(timo, c["EI"] / (c["L"] ** 2 * rng.uniform(0.002, 0.05, n)), math.inf)
@@ -73,13 +73,13 @@ def test_separations_are_the_stepping_runs(both_runs) -> None:
 
 def test_the_bounded_search_leaps_free_flight(both_runs) -> None:
     # the leap is what makes it cheaper: a load that bounces clear and flies is not
-    # scanned for a landing until it could land (on these members 23 of the 53 that
-    # bounce clear leap; the rest stay near the member or crush, and step)
+    # scanned for a landing until it could land (on these members 18 of the 39 that
+    # bounce clear leap; the rest stay near the member, and step)
     fast, step = both_runs
     assert step.leapt is None and fast.leapt is not None
     bounced = ~np.isnan(fast.t_separation)
-    assert bounced.sum() >= 40
-    assert int(np.count_nonzero(fast.leapt[bounced] > 0)) >= 20
+    assert bounced.sum() >= 30
+    assert int(np.count_nonzero(fast.leapt[bounced] > 0)) >= 15
     assert not np.any(fast.leapt[~bounced] > 0)
 
 
@@ -100,3 +100,21 @@ def test_mass_on_massless_spring_gere_both_runs(h_over_dst: float, stepping: boo
     assert float(res.force[0]) == pytest.approx(K * M * G, rel=0.0085)
     if not stepping and h_over_dst >= 10.0:  # it flies past the window's end
         assert res.leapt is not None and float(res.leapt[0]) > 0.0
+
+
+@pytest.mark.parametrize("a", [3.125, 4.5])
+def test_free_flight_peak_of_a_light_hard_load(a: float) -> None:
+    # a 220 kg hard item dropped 6 m on a 9 m floor beam carrying its slab (an invented
+    # case shaped like the demos' light items: EI 34.2 MN·m², 1,219 kg/m, Timoshenko
+    # terms, a crushing deck): the load bounces clear within a millisecond and the
+    # member's largest moment comes in its free vibration afterwards, over the samples
+    # the bounded search leaps — they must read as the stepping run reads them
+    args = ("simple", 9.0, 3.4157e7, 1219.48, a, 220.0, 6.0, 5.27e-10)
+    kw = {"F_yield": 8.7158e6, "stroke": 0.025, "weight": 2157.463, "kGA": 2.326e8,
+          "rhoI": 1.2768, "n_modes": 40, "cutoff": 8.0}
+    fast = exacthistory.exact_time_history(*args, **kw)
+    step = exacthistory.exact_time_history(*args, **kw, stepping=True)
+    assert fast.leapt is not None and float(fast.leapt[0]) > 1000.0
+    for q in ("force", "moment", "shear", "deflection", "reaction"):
+        assert float(getattr(fast, q)[0]) == pytest.approx(float(getattr(step, q)[0]),
+                                                           rel=exacthistory.FAST_TOLERANCE)
