@@ -130,20 +130,18 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                        sections: int = DEFAULT_SECTIONS, group: int = 256,
                        weight: ArrayLike | None = None, kGA: ArrayLike = math.inf,
                        rhoI: ArrayLike = 0.0, stepping: bool = False) -> TimeHistoryPeaks:
-    """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end
-    condition ``cond``, one name or one per case; span L m, EI N·m², μ kg/m) at
-    ``a`` (m) through a contact compliance f_c (m/N), with an elastic–perfectly
-    plastic contact (``F_yield`` N > M·g, ∞ elastic; ``stroke`` m); the model, modes
-    kept (``n_modes``, ``cutoff``) and outputs of
-    :func:`droprig.solver.timehistory.time_history`, solved phase by phase in closed
-    form (module docstring). ``record`` keeps the sampled histories (one case).
-    ``dt`` in the result is each case's sample spacing in its last phase (s) and
-    ``steps`` the largest number of samples of a case. ``weight`` (N, default M·g):
-    as in :func:`droprig.solver.timehistory.time_history`; ``kGA`` (N) and ``rhoI``
-    (kg·m): the Timoshenko member's shear stiffness and rotary inertia, as there
-    (defaults: Euler–Bernoulli). ``stepping``: sample every phase to its end, every
-    output at every sample (the plain reference of the bounded search, module
-    docstring, "Bounded search"; ``record`` always steps)."""
+    """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end condition
+    ``cond``, one name or one per case; span L m, EI N·m², μ kg/m) at ``a`` (m) through
+    a contact compliance f_c (m/N), with an elastic–perfectly plastic contact
+    (``F_yield`` N > M·g, ∞ elastic; ``stroke`` m); the model, modes kept (``n_modes``,
+    ``cutoff``) and outputs of :func:`droprig.solver.timehistory.time_history`, solved
+    phase by phase in closed form (module docstring). ``record`` keeps the sampled
+    histories (one case). ``dt`` in the result is each case's sample spacing in its
+    last phase (s) and ``steps`` the largest number of samples of a case. ``weight``
+    (N, default M·g), ``kGA`` (N) and ``rhoI`` (kg·m, the Timoshenko member's shear
+    stiffness and rotary inertia; defaults Euler–Bernoulli): as there. ``stepping``:
+    every phase sampled to its end, every output (the bounded search's plain
+    reference; ``record`` always steps)."""
     if samples_per_period < 4:
         raise ValueError("samples_per_period: at least 4 samples per period")
     (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = timehistory.checked_case(
@@ -185,8 +183,7 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                 out[key][idx] = run[key]
             modes[idx] = kept[sel]
             steps = max(steps, int(run["samples"].max()))
-            if run["history"] is not None:
-                history = run["history"]
+            history = run["history"] if run["history"] is not None else history
             if np.any(run["chatter"]):
                 fallback.append(idx[run["chatter"]])
     if fallback:  # chattering contacts: the Newmark reference
@@ -196,14 +193,12 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
             stroke=s_y[fb], weight=W[fb], kGA=kGA_a[fb], rhoI=rhoI_a[fb], n_modes=n_modes,
             cutoff=cutoff)
         for key in out:
-            if key != "leapt":
-                out[key][fb] = getattr(ref, key)
-        out["leapt"][fb] = 0.0
+            out[key][fb] = 0.0 if key == "leapt" else getattr(ref, key)
     return TimeHistoryPeaks(force=out["force"], moment=out["moment"], shear=out["shear"],
                             deflection=out["deflection"], t_separation=out["t_separation"],
                             modes=modes, dt=out["dt"], steps=steps, history=history,
                             crush=out["crush"], reaction=out["reaction"],
-                            leapt=None if stepping or record else out["leapt"])
+                            leapt=None if (stepping or record) else out["leapt"])
 
 
 def _window(su: dict[str, np.ndarray], M: np.ndarray, mu: np.ndarray, L: np.ndarray,
