@@ -1,7 +1,7 @@
 """What the floors' point histories cost and where it goes (issue 12; not part of
 ``make test``).
 
-    PYTHONPATH=. python benchmarks/bench_point_history.py [--runs 1]
+    PYTHONPATH=. python benchmarks/bench_point_history.py [--runs 1] [--stepping]
 
 For each demo, a warm ``analyse()`` with the project setting ``dynamic_amplification``
 on: with the floors' point histories off (``chain.FLOOR_POINT_HISTORY`` False: the
@@ -43,9 +43,12 @@ class Stats:
         self.samples = np.zeros(3)  # by phase: contact, crushing, free
         self.rounds = 0
         self.fallback = 0
+        self.leapt = 0.0
 
 
 S = Stats()
+STEPPING = False
+"""``--stepping``: the member histories by the plain stepping run (the reference)."""
 
 
 def install() -> None:
@@ -72,19 +75,22 @@ def install() -> None:
     def timed_exact(*a, **k):
         t = time.perf_counter()
         try:
-            r = ex(*a, **k)
+            r = ex(*a, **k, stepping=STEPPING)
             S.modes.extend(np.asarray(r.modes).tolist())
             S.steps.append(int(r.steps))
+            if r.leapt is not None:
+                S.leapt += float(np.sum(r.leapt))
             return r
         finally:
             S.t_exact += time.perf_counter() - t
 
-    fold = exacthistory._Integrator._fold_samples
+    cut = exacthistory._Integrator._cut
 
-    def counted_fold(self, idx, ts, cs, sn, nvalid, G):
-        np.add.at(S.samples, self.kind[idx], nvalid)
+    def counted_cut(self, idx, ts, which, i_ev, G):
+        res = cut(self, idx, ts, which, i_ev, G)
+        np.add.at(S.samples, self.kind[idx], res[3])  # the samples scanned, by phase
         S.rounds += 1
-        return fold(self, idx, ts, cs, sn, nvalid, G)
+        return res
 
     ref = exacthistory.timehistory.time_history_batched
 
@@ -92,7 +98,7 @@ def install() -> None:
         S.fallback += len(cond)
         return ref(cond, *a, **k)
 
-    exacthistory._Integrator._fold_samples = counted_fold  # type: ignore[method-assign]
+    exacthistory._Integrator._cut = counted_cut  # type: ignore[method-assign]
     exacthistory.timehistory.time_history_batched = counted_ref  # type: ignore
     pointhistory.point_history = counted  # type: ignore[assignment]
     chain.pointhistory.point_history = counted  # type: ignore[attr-defined]
@@ -114,12 +120,18 @@ def main(argv: list[str] | None = None) -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--runs", type=int, default=1)
     ap.add_argument("--demo", action="append", help="demo stem (default: all)")
+    ap.add_argument("--stepping", action="store_true",
+                    help="the member histories by the stepping run (before the bounded "
+                         "search), for the before/after figures")
     ap.add_argument("--trials", type=lambda v: v == "on", action="append",
                     help="point histories in the confirmation trials: on/off "
                          "(repeatable; default off)")
     a = ap.parse_args(argv)
     a.trials = a.trials or [False]
+    global STEPPING
+    STEPPING = a.stepping
     install()
+    print("member histories by the " + ("stepping run" if a.stepping else "bounded search"))
     for path in DEMOS:
         if a.demo and path.stem not in a.demo:
             continue
@@ -169,10 +181,10 @@ def _histories(p_on, off: float, trials: bool) -> None:
                   f"the longest case per call: median {np.median(S.steps):.0f}, max "
                   f"{max(S.steps)}")
             share = samples / max(samples.sum(), 1.0)
-            print(f"  samples {samples.sum():.3g} in {rounds} rounds: contact "
+            print(f"  samples scanned {samples.sum():.3g} in {rounds} rounds: contact "
                   f"{share[0]:.0%}, crushing {share[1]:.0%}, free (load apart) "
-                  f"{share[2]:.0%}; chattering cases handed to the Newmark reference "
-                  f"{fallback}")
+                  f"{share[2]:.0%}; leapt in free flight {S.leapt:.3g}; chattering cases "
+                  f"handed to the Newmark reference {fallback}")
             pc = np.asarray(S.per_call)
             print(f"  points per call: median {np.median(pc[:, 0]):.0f}, max "
                   f"{pc[:, 0].max():.0f}; ms per call median {np.median(pc[:, 1]) * 1e3:.1f}")

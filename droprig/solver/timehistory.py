@@ -342,7 +342,10 @@ class TimeHistoryPeaks:
     elastic–perfectly plastic contact (m, 0 for an elastic one); ``reaction`` the
     largest |shear| at the member's ends (N: the dynamic support reactions, what the
     verdict's end-shear checks read — the section shear beside the load also carries
-    the contact spike, which the web's local checks take; None where not computed)."""
+    the contact spike, which the web's local checks take; None where not computed);
+    ``leapt`` the samples of each case the bounded search of
+    :func:`droprig.solver.exacthistory.exact_time_history` leapt in free flight
+    (None where it did not run)."""
 
     force: np.ndarray
     moment: np.ndarray
@@ -355,6 +358,7 @@ class TimeHistoryPeaks:
     history: History | None = None
     crush: np.ndarray | None = None
     reaction: np.ndarray | None = None
+    leapt: np.ndarray | None = None
 
 
 # --------------------------------------------------------------------------- energy
