@@ -7,8 +7,8 @@ where the load bounces on its contact and ψ varies sharply: steps of 0.25, 0.17
 0.25 decades in μ, κ, ρ − 1) and one for stiff ones (0.5, 0.35, 0.25). Reproducible:
 the grids below, no random draws for the tables; the margins are calibrated on CAL_N
 random systems off the grids (seed CAL_SEED, uniform in the logs of the groups over
-the box) as the largest exact ÷ unit-margin read in each band of κ (KAPPA_BANDS), plus HEADROOM, rounded up
-to 0.01 (at least 1).
+the box) as the largest exact ÷ unit-margin read in each band of κ (KAPPA_BANDS),
+plus HEADROOM, rounded up to 0.01 (at least 1).
 
 Along θ each node holds the running maximum of ψ over every θ sampled at or below it
 (SUB samples per cell, and the decade below the first node), so the read in a
@@ -132,8 +132,8 @@ def calibrate(soft: tuple[list[np.ndarray], np.ndarray],
     g[2] = 1.0 + g[2]
     ex = psi_exact(*g)
     crush_table._use((soft[1], soft[0]), (stiff[1], stiff[0]))
-    crush_table.KAPPA_BANDS = KAPPA_BANDS  # type: ignore[misc]
-    crush_table.MARGIN = (1.0,) * (len(KAPPA_BANDS) + 1)  # type: ignore[misc]
+    crush_table.KAPPA_BANDS = KAPPA_BANDS
+    crush_table.MARGIN = (1.0,) * (len(KAPPA_BANDS) + 1)  # type: ignore[assignment]
     read, inside = crush_table.table_psi(*g)
     assert inside.all()
     ratio = ex / np.maximum(read, 1.0)

@@ -103,8 +103,11 @@ def test_read_never_below_the_exact_history_off_the_grid(off_grid):
     read = off_grid["read"][above] / ex[above]
     assert read.min() >= 1.0 - READ_TOL, read.min()
     # and not far above it where the history passes F_c: the cell's largest corner
-    # times the margin (measured on these systems: median 1.07, 90th percentile 1.51, largest 2.27)
-    assert np.median(path[above]) <= 1.3, np.percentile(path[above], [50, 90, 100])
+    # times its κ band's margin (measured on these 52 systems: median 1.012, 90th
+    # percentile 1.185, largest 1.94; crush29's coarser grid and margin 1.19 read
+    # median 1.07, 90th percentile 1.51, largest 2.27 on the same systems)
+    q = np.percentile(path[above], [50, 90])
+    assert q[0] <= 1.05 and q[1] <= 1.3, q
 
 
 def test_factor_never_lowers_the_chain_and_is_non_decreasing_in_the_fall():
@@ -142,12 +145,13 @@ def test_outside_the_grid_the_energy_bound():
 
 
 def test_margin_is_stated_and_at_least_one():
-    # the generator's calibration margin (scripts/build_crush_table.py) is ≥ 1 and
-    # modest: a large margin would mean the grid is too coarse
-    # (4500 systems: soft contacts 1.187 at the largest, their 99th percentile 1.007;
-    # stiff ones 1.000)
-    assert all(1.0 <= m <= 1.25 for m in MARGIN), MARGIN
-    assert MARGIN[1] <= 1.02  # stiff contacts: the grid follows the history closely
+    # the generator's calibration margins (scripts/build_crush_table.py, one per κ
+    # band of crush_table.KAPPA_BANDS) are ≥ 1 and modest: a large margin would mean
+    # the grid is too coarse (4,500 systems, largest exact ÷ read: κ < 0.1 1.102,
+    # 0.1–1 1.000, stiff 1.001; crush29's single soft margin was 1.19)
+    assert len(MARGIN) == len(crush_table.KAPPA_BANDS) + 1
+    assert all(1.0 <= m <= 1.15 for m in MARGIN), MARGIN
+    assert MARGIN[-1] <= 1.02 and MARGIN[-2] <= 1.02  # the grids follow the history
 
 
 def test_near_bottoming_the_crushing_branch_covers_the_finite_stroke():
@@ -170,5 +174,5 @@ def test_near_bottoming_the_crushing_branch_covers_the_finite_stroke():
     F = chain.framing_while_crushing(W[ok], h[ok], s["F_c"], 1.0 / s["k_c"],
                                      1.0 / s["k2"], s["m2"])
     assert ok.sum() >= 100 and r.bottomed.sum() >= 3  # some do bottom in the history
-    ratio = F / r.F_frame
+    ratio = F / r.F_frame  # measured: least 1.0001 (140 systems, 3 bottomed)
     assert ratio.min() >= 1.0 - READ_TOL, ratio.min()
