@@ -43,8 +43,10 @@ closed inside its phase budget (``bounded``) it reads the energy bound: safe.
 log(ρ − 1) and log θ (:mod:`droprig.solver.crush_table_data`, made by
 scripts/build_crush_table.py, its grids and seed stated there): one for soft
 contacts (κ < :data:`KAPPA_SPLIT`: the load bouncing on its contact pumps the floor,
-ψ up to ~4.8 and varying sharply between nodes; steps 0.25, 0.175, 0.25 decades in
-μ, κ, ρ − 1) and one for stiff ones (steps 0.5, 0.35, 0.25: ψ is smooth there and
+ψ up to ~4 and varying sharply between nodes; steps 0.25, 0.175, 0.25 decades in
+μ, κ, ρ − 1; below κ ≈ 0.01 some nodes' histories run past crushhistory's phase
+budget and hold its energy bound, ψ up to 9.2 where 2,000 phases give 2.0: safe, and
+the largest over-reads) and one for stiff ones (steps 0.5, 0.35, 0.25: ψ is smooth there and
 varies most with ρ). Along θ (12 nodes a decade on both) the stored value is the
 running maximum over every sampled θ up to the node (a load lowered onto the layer
 may fall from any lower height: as
