@@ -190,16 +190,18 @@ def table_psi(mu: ArrayLike, kappa: ArrayLike, rho: ArrayLike,
     # the logs of the groups, (4, n); ρ ≤ 1 and θ = 0 fall below the grid
     x = np.log10(np.maximum(np.stack([mu.ravel(), kappa.ravel(), rho.ravel() - 1.0,
                                       theta.ravel()]), 1e-300))
-    soft = kappa.ravel() < KAPPA_SPLIT
-    psi = np.empty(soft.size)
-    inside = np.empty(soft.size, bool)
-    for grid, m in ((_SOFT, soft), (_STIFF, ~soft)):
-        if m.all():
-            psi[:], inside[:] = grid.read(x)
-        elif m.any():
+    k = kappa.ravel()
+    soft = k < KAPPA_SPLIT
+    n_soft = int(np.count_nonzero(soft))
+    if n_soft in (0, k.size):  # one table (the common case: a search's points)
+        psi, inside = (_SOFT if n_soft else _STIFF).read(x)
+    else:
+        psi, inside = np.empty(k.size), np.empty(k.size, bool)
+        for grid, m in ((_SOFT, soft), (_STIFF, ~soft)):
             psi[m], inside[m] = grid.read(x[:, m])
-    margin = np.asarray(MARGIN).take(np.searchsorted(KAPPA_BANDS, kappa.ravel(),
-                                                      side="right"))
+    margin: np.ndarray | float = MARGIN[-1]  # the band's margin (KAPPA_BANDS)
+    for edge, m_band in zip(KAPPA_BANDS[::-1], MARGIN[-2::-1], strict=True):
+        margin = np.where(k < edge, m_band, margin)
     psi = np.where(inside, margin * psi, np.inf)
     return psi.reshape(mu.shape), inside.reshape(mu.shape)
 
