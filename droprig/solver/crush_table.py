@@ -101,48 +101,64 @@ __all__ = ["BOX", "KAPPA_BANDS", "KAPPA_SPLIT", "MARGIN", "crush_factor", "crush
 
 
 @dataclass(frozen=True)
-class _Grid:
-    """One table ready to read: its axes (log10 μ, log10 κ, log10(ρ − 1),
-    log10 θ; uniform steps), each cell's corner maximum in μ, κ, ρ at every θ node
-    (flat), and the index arithmetic."""
+class _Tables:
+    """The two tables (soft contacts, stiff ones) ready to read as one: each cell's
+    corner maximum in μ, κ, ρ at every θ node, both tables flat one after the other,
+    and per table (the last axis, 0 soft, 1 stiff) its axes' least values and steps
+    (log10 μ, log10 κ, log10(ρ − 1), log10 θ; uniform), its last cell's lower node
+    per axis, its strides and where its corners start."""
 
     corners: np.ndarray
-    lo: np.ndarray  # (4, 1)
-    step: np.ndarray  # (4, 1)
-    cells: np.ndarray  # (3, 1): the last cell's lower node per axis
-    strides: np.ndarray
+    lo: np.ndarray  # (4, 2)
+    step: np.ndarray  # (4, 2)
+    cells: np.ndarray  # (3, 2)
+    strides: np.ndarray  # (3, 2)
+    start: np.ndarray  # (2,)
     nt: int
 
     @staticmethod
-    def of(psi: ArrayLike, axes: tuple[tuple[float, ...], ...] | list[np.ndarray]
-           ) -> _Grid:
-        """The grid of ``psi`` (ψ at the nodes, the running maximum along θ) on
-        ``axes``; each cell's corner maximum is taken once here."""
-        p = np.asarray(psi, float)
-        ax = [np.asarray(a, float) for a in axes]
-        c = p[:-1, :-1, :-1]
-        for a in (0, 1):
-            for b in (0, 1):
-                for d in (0, 1):
-                    c = np.maximum(c, p[a:a + c.shape[0], b:b + c.shape[1],
-                                        d:d + c.shape[2]])
-        nt = ax[3].size
-        return _Grid(np.ascontiguousarray(c).ravel(),
-                     np.array([[a[0]] for a in ax]),
-                     np.array([[a[1] - a[0]] for a in ax]),
-                     np.array([[a.size - 2] for a in ax[:3]], float),
-                     np.array([c.shape[1] * c.shape[2] * nt, c.shape[2] * nt, nt],
-                              np.intp), nt)
+    def of(*grids: tuple[ArrayLike, tuple[tuple[float, ...], ...] | list[np.ndarray]]
+           ) -> _Tables:
+        """The tables of ``grids`` ((ψ at the nodes, the running maximum along θ;
+        axes), soft then stiff, on the same θ nodes); each cell's corner maximum is
+        taken once here."""
+        corners, lo, step, cells, strides = [], [], [], [], []
+        nts = set()
+        for psi, axes in grids:
+            p = np.asarray(psi, float)
+            ax = [np.asarray(a, float) for a in axes]
+            c = p[:-1, :-1, :-1]
+            for a in (0, 1):
+                for b in (0, 1):
+                    for d in (0, 1):
+                        c = np.maximum(c, p[a:a + c.shape[0], b:b + c.shape[1],
+                                            d:d + c.shape[2]])
+            nt = ax[3].size
+            nts.add(nt)
+            corners.append(np.ascontiguousarray(c).ravel())
+            lo.append([a[0] for a in ax])
+            step.append([a[1] - a[0] for a in ax])
+            cells.append([a.size - 2 for a in ax[:3]])
+            strides.append([c.shape[1] * c.shape[2] * nt, c.shape[2] * nt, nt])
+        if len(nts) != 1:
+            raise ValueError("crush tables: the grids must share their θ nodes")
+        start = np.cumsum([0] + [c.size for c in corners[:-1]])
+        return _Tables(np.concatenate(corners), np.array(lo, float).T,
+                       np.array(step, float).T, np.array(cells, float).T,
+                       np.array(strides, np.intp).T, start.astype(np.intp), nts.pop())
 
-    def read(self, x: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-        """The unmargined read (module docstring) at the groups' logs ``x`` (4, n),
-        and whether each point lies inside the grid in μ, κ, ρ."""
-        u = (x - self.lo) / self.step
-        inside = np.all((u[:3] >= 0.0) & (u[:3] <= self.cells + 1.0), axis=0)
+    def read(self, x: np.ndarray, g: np.ndarray | slice
+             ) -> tuple[np.ndarray, np.ndarray]:
+        """The unmargined read (module docstring) at the groups' logs ``x`` (4, n)
+        from table ``g`` (per point, 0 soft and 1 stiff; or ``slice(i, i + 1)``
+        for all points from table i), and whether each point lies inside its grid in
+        μ, κ, ρ."""
+        u = (x - self.lo[:, g]) / self.step[:, g]
+        cells = self.cells[:, g]
+        inside = np.all((u[:3] >= 0.0) & (u[:3] <= cells + 1.0), axis=0)
         # the cell in μ, κ, ρ (its corner maximum)
-        cell = np.clip(np.floor(np.where(inside, u[:3], 0.0)), 0.0,
-                       self.cells).astype(np.intp)
-        base = self.strides @ cell
+        cell = np.clip(np.floor(np.where(inside, u[:3], 0.0)), 0.0, cells).astype(np.intp)
+        base = np.sum(self.strides[:, g] * cell, axis=0) + self.start[g]
         # θ in the cell (θ_{j−1}, θ_j]: from the node above, R_j, at its foot to the
         # next, R_{j+1}, at its top, f = 0 … 1 (continuous, non-decreasing, never
         # below R_j)
@@ -155,16 +171,15 @@ class _Grid:
         return lo + f * (hi - lo), inside
 
 
-_SOFT = _Grid.of(_data.SOFT_PSI, _data.SOFT_AXES)
-_STIFF = _Grid.of(_data.STIFF_PSI, _data.STIFF_AXES)
+_TABLES = _Tables.of((_data.SOFT_PSI, _data.SOFT_AXES), (_data.STIFF_PSI, _data.STIFF_AXES))
 
 
 def _use(soft: tuple[ArrayLike, list[np.ndarray]],
          stiff: tuple[ArrayLike, list[np.ndarray]]) -> None:
     """Read the tables ``soft`` and ``stiff`` (ψ, axes) from now on (the stored ones
     at import; the generator's calibration passes fresh ones)."""
-    global _SOFT, _STIFF
-    _SOFT, _STIFF = _Grid.of(*soft), _Grid.of(*stiff)
+    global _TABLES
+    _TABLES = _Tables.of(soft, stiff)
 
 
 def crush_groups(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, k_c: ArrayLike,
@@ -191,14 +206,12 @@ def table_psi(mu: ArrayLike, kappa: ArrayLike, rho: ArrayLike,
     x = np.log10(np.maximum(np.stack([mu.ravel(), kappa.ravel(), rho.ravel() - 1.0,
                                       theta.ravel()]), 1e-300))
     k = kappa.ravel()
-    soft = k < KAPPA_SPLIT
-    n_soft = int(np.count_nonzero(soft))
-    if n_soft in (0, k.size):  # one table (the common case: a search's points)
-        psi, inside = (_SOFT if n_soft else _STIFF).read(x)
-    else:
-        psi, inside = np.empty(k.size), np.empty(k.size, bool)
-        for grid, m in ((_SOFT, soft), (_STIFF, ~soft)):
-            psi[m], inside[m] = grid.read(x[:, m])
+    stiff = k >= KAPPA_SPLIT
+    n_stiff = int(np.count_nonzero(stiff))
+    # one table for all points where they share it, else each point's own
+    g = (slice(1, 2) if n_stiff == k.size else slice(0, 1) if n_stiff == 0
+         else stiff.astype(np.intp))
+    psi, inside = _TABLES.read(x, g)
     margin: np.ndarray | float = MARGIN[-1]  # the band's margin (KAPPA_BANDS)
     for edge, m_band in zip(KAPPA_BANDS[::-1], MARGIN[-2::-1], strict=True):
         margin = np.where(k < edge, m_band, margin)
