@@ -1,26 +1,33 @@
 """Build droprig/solver/crush_table_data.py: the framing's peak under a crushable layer
 that crushes (stroke not spent), ψ = F_frame/F_c of the exact two-mass history
-(droprig.solver.crushhistory.crush_history, the window's peak), on a grid of the
+(droprig.solver.crushhistory.crush_history, the window's peak), on grids of the
 groups μ = m2/M, κ = k_c/k2, ρ = F_c/W, θ = M·v0·√(k2/m2)/F_c
-(droprig.solver.crush_table's docstring). Reproducible: the grid below, no random
-draws for the table; the margin is calibrated on CAL_N random systems off the grid
-(seed CAL_SEED, uniform in the logs of the groups over the grid's box) as the largest
-exact ÷ unit-margin read, rounded up to 0.01 (at least 1).
+(droprig.solver.crush_table's docstring): one for soft contacts (κ < KAPPA_SPLIT,
+where the load bounces on its contact and ψ varies sharply: steps of 0.25, 0.175,
+0.25 decades in μ, κ, ρ − 1) and one for stiff ones (0.5, 0.35, 0.25). Reproducible:
+the grids below, no random draws for the tables; the margins are calibrated on CAL_N
+random systems off the grids (seed CAL_SEED, uniform in the logs of the groups over
+the box) as the largest exact ÷ unit-margin read in each band of κ (KAPPA_BANDS),
+plus HEADROOM, rounded up to 0.01 (at least 1).
 
 Along θ each node holds the running maximum of ψ over every θ sampled at or below it
 (SUB samples per cell, and the decade below the first node), so the read in a
 cell, from its upper θ node's value to the next one's, covers the cell.
 
-Run: ``PYTHONPATH=. .venv/bin/python scripts/build_crush_table.py [--workers N |
---psi FILE]`` (about 15 min on one core for the grid, 3 min for the calibration;
-``--psi`` reuses a grid saved by an earlier run, /tmp/crush_table_psi.npy).
+Run: ``PYTHONPATH=. nice .venv/bin/python scripts/build_crush_table.py [--workers N]
+[--soft FILE --stiff FILE]`` (about 11 min on one quiet core for the soft grid,
+24 min for the stiff one, 1 min for the calibration; the grids are saved to
+/tmp/crush_table_soft.npy and /tmp/crush_table_stiff.npy, and ``--soft``/``--stiff``
+reuse them).
 """
 
 from __future__ import annotations
 
+import base64
 import math
 import sys
 import time
+import zlib
 from pathlib import Path
 
 import numpy as np
@@ -28,19 +35,33 @@ import numpy as np
 from droprig.solver.crushhistory import crush_history
 from droprig.solver.impact import G
 
-LOG_MU = (-0.5, 3.0, 0.5)  # μ 0.32 – 1000
-LOG_KAPPA = (-3.0, 4.0, 0.35)  # κ 0.001 – 10 000
-LOG_RHO1 = (-2.0, 2.0, 0.5)  # ρ − 1: 0.01 – 100
-LOG_THETA = (-2.0, 2.5, 1.0 / 12.0)  # θ 0.01 – 316, 12 nodes a decade
+LOG_THETA = (-2.0, 2.5, 1.0 / 12.0)  # θ 0.01 – 316, 12 nodes a decade (both grids)
+STIFF_LOG_MU = (-0.5, 3.0, 0.5)  # μ 0.32 – 1000
+STIFF_LOG_KAPPA = (-0.2, 4.0, 0.35)  # κ 0.63 – 10 000 (read for κ ≥ KAPPA_SPLIT)
+STIFF_LOG_RHO1 = (-2.0, 2.0, 0.25)  # ρ − 1: 0.01 – 100
 SUB = 1
 """θ samples per cell (the upper node and SUB − 1 between; 1: the nodes alone, a
 twelfth of a decade apart)."""
 BELOW = (-3.0, -2.5, -2.25)
 """log10 θ sampled below the first node (folded into its running maximum)."""
+SOFT_LOG_MU = (-0.5, 3.0, 0.25)  # μ 0.32 – 1000
+SOFT_LOG_KAPPA = (-3.0, 0.15, 0.175)  # κ 0.001 – 1.41 (read for κ < KAPPA_SPLIT)
+SOFT_LOG_RHO1 = (-2.0, 2.0, 0.25)  # ρ − 1: 0.01 – 100
+SOFT = (SOFT_LOG_MU, SOFT_LOG_KAPPA, SOFT_LOG_RHO1, LOG_THETA)
+STIFF = (STIFF_LOG_MU, STIFF_LOG_KAPPA, STIFF_LOG_RHO1, LOG_THETA)
+BOX = ((-0.5, 3.0), (-3.0, 4.0), (-2.0, 2.0), (-2.0, 2.5))
+"""The calibration's box (log10 μ, κ, ρ − 1, θ): both grids' union."""
 CAL_N, CAL_SEED = 4500, 20261205
 KAPPA_SPLIT = 1.0
-"""κ below which a contact counts as soft (its own margin: the load bouncing on it
+"""κ below which a contact counts as soft (its own grid: the load bouncing on it
 pumps the floor, and ψ varies sharply between the nodes)."""
+HEADROOM = 0.005
+"""Added to a band's largest calibration ratio before rounding up to 0.01: another
+sample's largest lies a little above (crush30: 0.999 of the history on 1,500 other
+systems with the bare rounding, in the band whose largest ratio was 1.000)."""
+KAPPA_BANDS = (0.1, KAPPA_SPLIT)
+"""κ at the edges of the margins' bands: very soft contacts (the load chattering on
+them, ψ roughest), soft ones, stiff ones."""
 
 
 def axis(spec: tuple[float, float, float]) -> np.ndarray:
@@ -68,8 +89,11 @@ def _row(args: tuple[float, float, float, np.ndarray, np.ndarray]) -> np.ndarray
     return np.maximum.accumulate(p)[node_at]
 
 
-def build(workers: int = 1) -> tuple[list[np.ndarray], np.ndarray]:
-    ax = [axis(s) for s in (LOG_MU, LOG_KAPPA, LOG_RHO1, LOG_THETA)]
+def build(specs: tuple[tuple[float, float, float], ...], workers: int = 1
+          ) -> tuple[list[np.ndarray], np.ndarray]:
+    """ψ's running maximum along θ at the nodes of the grid ``specs`` (log10 μ, κ,
+    ρ − 1, θ: lowest, highest, step)."""
+    ax = [axis(s) for s in specs]
     lt = ax[3]
     step = lt[1] - lt[0]
     fine = np.concatenate([np.array(BELOW), lt[0] + step / SUB * np.arange(
@@ -96,26 +120,27 @@ def build(workers: int = 1) -> tuple[list[np.ndarray], np.ndarray]:
     return ax, np.array(rows).reshape((*mu.shape, lt.size))
 
 
-def calibrate(ax: list[np.ndarray], psi: np.ndarray
-              ) -> tuple[tuple[float, float], np.ndarray, np.ndarray]:
-    """The margins (soft, stiff; module docstring), the calibration's exact ÷
-    max(1, read) ratios and its κ."""
-    import droprig.solver.crush_table_data as data
+def calibrate(soft: tuple[list[np.ndarray], np.ndarray],
+              stiff: tuple[list[np.ndarray], np.ndarray]
+              ) -> tuple[tuple[float, ...], np.ndarray, np.ndarray, np.ndarray]:
+    """The margins (one per band of KAPPA_BANDS), the calibration's exact ÷
+    max(1, read) ratios, its κ and its exact ψ."""
     from droprig.solver import crush_table
 
     rng = np.random.default_rng(CAL_SEED)
-    g = [10.0 ** rng.uniform(a[0], a[-1], CAL_N) for a in ax]
+    g = [10.0 ** rng.uniform(lo, hi, CAL_N) for lo, hi in BOX]
     g[2] = 1.0 + g[2]
     ex = psi_exact(*g)
-    data.AXES = tuple(tuple(float(v) for v in a) for a in ax)  # type: ignore[assignment]
-    crush_table._use(psi, ax)
-    crush_table.MARGIN = (1.0, 1.0)  # type: ignore[attr-defined]
-    read, _ = crush_table.table_psi(*g)
+    crush_table._use((soft[1], soft[0]), (stiff[1], stiff[0]))
+    crush_table.KAPPA_BANDS = KAPPA_BANDS
+    crush_table.MARGIN = (1.0,) * (len(KAPPA_BANDS) + 1)  # type: ignore[assignment]
+    read, inside = crush_table.table_psi(*g)
+    assert inside.all()
     ratio = ex / np.maximum(read, 1.0)
-    soft = g[1] < KAPPA_SPLIT
-    m = tuple(max(1.0, math.ceil(100.0 * float(ratio[b].max())) / 100.0)
-              for b in (soft, ~soft))
-    return (m[0], m[1]), ratio, g[1]
+    band = np.searchsorted(KAPPA_BANDS, g[1], side="right")
+    m = tuple(max(1.0, math.ceil(100.0 * (float(ratio[band == b].max()) + HEADROOM))
+                  / 100.0) for b in range(len(KAPPA_BANDS) + 1))
+    return m, ratio, g[1], ex
 
 
 def _wrapped(items: list[str], indent: str, per_line: int = 10) -> list[str]:
@@ -124,55 +149,80 @@ def _wrapped(items: list[str], indent: str, per_line: int = 10) -> list[str]:
     return ([indent + "("] + [indent + " " + r + "," for r in rows] + [indent + "),"])
 
 
-def write(ax: list[np.ndarray], psi: np.ndarray, margin: tuple[float, float],
+def _blob(psi: np.ndarray) -> list[str]:
+    """ψ rounded up to 1e-4, as unsigned 32-bit counts of 1e-4 (little-endian, C
+    order), zlib-compressed (level 9), base64: lines of a string literal."""
+    counts = np.ceil(np.round(psi * 1e4, 6)).astype("<u4")
+    assert np.all(counts / 1e4 >= psi - 1e-12)
+    text = base64.b64encode(zlib.compress(counts.tobytes(), 9)).decode("ascii")
+    return [f'    "{text[i:i + 76]}"' for i in range(0, len(text), 76)]
+
+
+def write(soft: tuple[list[np.ndarray], np.ndarray],
+          stiff: tuple[list[np.ndarray], np.ndarray], margin: tuple[float, ...],
           ratio: np.ndarray, kappa: np.ndarray) -> None:
     out = Path(__file__).resolve().parents[1] / "droprig" / "solver" / "crush_table_data.py"
-    q = [np.percentile(ratio[b], [50, 99, 100]) for b in (kappa < KAPPA_SPLIT,
-                                                          kappa >= KAPPA_SPLIT)]
+    band = np.searchsorted(KAPPA_BANDS, kappa, side="right")
+    q = [np.percentile(ratio[band == b], [50, 99, 100])
+         for b in range(len(KAPPA_BANDS) + 1)]
+    stats = "; ".join(f"{q[b][0]:.3f}, {q[b][1]:.3f}, {q[b][2]:.3f}" for b in range(len(q)))
     lines = [
         '"""The exact framing peak under a crushing layer, ψ = F_frame/F_c (generated by',
         'scripts/build_crush_table.py; do not edit; read by droprig.solver.crush_table).',
         "",
-        "PSI[μ][κ][ρ][θ] on the AXES (log10 μ, log10 κ, log10(ρ − 1), log10 θ), the",
-        f"running maximum along θ ({SUB} sample(s) a cell). MARGIN (soft contacts,",
-        f"κ < {KAPPA_SPLIT:g}; stiff): the largest exact ÷ max(1, read) of {CAL_N} random",
-        f"systems off the grid (seed {CAL_SEED}) in the band, rounded up; there soft:",
-        f"median {q[0][0]:.3f}, 99th percentile {q[0][1]:.3f}, largest {q[0][2]:.3f};",
-        f"stiff: {q[1][0]:.3f}, {q[1][1]:.3f}, {q[1][2]:.3f}.",
+        "SOFT_PSI (contacts κ < KAPPA_SPLIT) and STIFF_PSI [μ][κ][ρ][θ] on their AXES",
+        "(log10 μ, log10 κ, log10(ρ − 1), log10 θ), the running maximum along θ",
+        f"({SUB} sample(s) a cell), rounded up to 1e-4 and stored as counts of 1e-4",
+        "(unsigned 32-bit little-endian, zlib, base64). MARGIN (one per band of κ",
+        "split at KAPPA_BANDS): the largest exact ÷ max(1, read) of the band's share",
+        f"of {CAL_N} random systems off the grids (seed {CAL_SEED}), plus {HEADROOM},",
+        "rounded up to 0.01; there (median, 99th percentile, largest) per band:",
+        f"{stats}.",
         '"""',
         "",
+        "import base64",
+        "import zlib",
+        "",
+        "import numpy as np",
+        "",
         f"KAPPA_SPLIT = {KAPPA_SPLIT!r}",
-        f"MARGIN = ({margin[0]:.2f}, {margin[1]:.2f})",
-        "AXES = (",
+        f"KAPPA_BANDS = {KAPPA_BANDS!r}",
+        "MARGIN = (" + ", ".join(f"{m:.2f}" for m in margin) + ")",
+        "",
+        "",
+        "def _grid(shape: tuple[int, ...], text: str) -> np.ndarray:",
+        '    """ψ at the nodes from its stored counts of 1e-4."""',
+        '    counts = np.frombuffer(zlib.decompress(base64.b64decode(text)), "<u4")',
+        "    return (counts.astype(float) / 1e4).reshape(shape)",
+        "",
+        "",
     ]
-    for a in ax:
-        lines.extend(_wrapped([f"{v:.6f}" for v in a], " ", 8))
-    lines.append(")")
-    lines.append("PSI = (")
-    for i in range(psi.shape[0]):
-        lines.append(" (")
-        for j in range(psi.shape[1]):
-            lines.append("  (")
-            for k in range(psi.shape[2]):
-                lines.extend(_wrapped([f"{v:.4f}" for v in
-                                       np.ceil(psi[i, j, k] * 1e4) / 1e4], "   "))
-            lines.append("  ),")
-        lines.append(" ),")
-    lines.append(")")
+    for name, (ax, psi) in (("SOFT", soft), ("STIFF", stiff)):
+        lines.append(f"{name}_AXES = (")
+        for a in ax:
+            lines.extend(_wrapped([f"{v:.6f}" for v in a], " ", 8))
+        lines.append(")")
+        lines.append(f"{name}_PSI = _grid({tuple(int(n) for n in psi.shape)!r}, (")
+        lines.extend(_blob(psi))
+        lines.append("))")
     out.write_text("\n".join(lines) + "\n")
     print(f"wrote {out}; margins {margin}; exact ÷ read {q}")
 
 
 def main(argv: list[str]) -> None:
-    if argv[:1] == ["--psi"]:
-        ax = [axis(s) for s in (LOG_MU, LOG_KAPPA, LOG_RHO1, LOG_THETA)]
-        psi = np.load(argv[1])
-    else:
-        workers = int(argv[1]) if argv[:1] == ["--workers"] else 1
-        ax, psi = build(workers)
-        np.save("/tmp/crush_table_psi.npy", psi)
-    margin, ratio, kappa = calibrate(ax, psi)
-    write(ax, psi, margin, ratio, kappa)
+    opts = dict(zip(argv[::2], argv[1::2], strict=True))
+    workers = int(opts.get("--workers", "1"))
+    grids = []
+    for name, specs in (("soft", SOFT), ("stiff", STIFF)):
+        if f"--{name}" in opts:
+            grid = ([axis(s) for s in specs], np.load(opts[f"--{name}"]))
+        else:
+            grid = build(specs, workers)
+            np.save(f"/tmp/crush_table_{name}.npy", grid[1])
+        assert grid[1].shape == tuple(a.size for a in grid[0]), name
+        grids.append(grid)
+    margin, ratio, kappa, _ = calibrate(grids[0], grids[1])
+    write(grids[0], grids[1], margin, ratio, kappa)
 
 
 if __name__ == "__main__":

@@ -39,25 +39,33 @@ the table keeps every bounce and re-crush the exact history finds (the 0.869 × 
 the steel demo's joist bundle is such a bounce). Where the history could not be
 closed inside its phase budget (``bounded``) it reads the energy bound: safe.
 
-**The read.** ψ = F_frame/F_c is tabulated on a grid in log μ, log κ, log(ρ − 1)
-and log θ (:mod:`droprig.solver.crush_table_data`, made by
-scripts/build_crush_table.py, its grid and seed stated there). Along θ the stored
-value is the running maximum over every sampled θ up to the node (a load lowered
-onto the layer may fall from any lower height: as
+**The read.** ψ = F_frame/F_c is tabulated on two grids in log μ, log κ,
+log(ρ − 1) and log θ (:mod:`droprig.solver.crush_table_data`, made by
+scripts/build_crush_table.py, its grids and seed stated there): one for soft
+contacts (κ < :data:`KAPPA_SPLIT`: the load bouncing on its contact pumps the floor,
+ψ up to ~4 and varying sharply between nodes; steps 0.25, 0.175, 0.25 decades in
+μ, κ, ρ − 1; below κ ≈ 0.01 some nodes' histories run past crushhistory's phase
+budget and hold its energy bound, ψ up to 9.2 where 2,000 phases give 2.0: safe, and
+the largest over-reads) and one for stiff ones (steps 0.5, 0.35, 0.25: ψ is smooth there and
+varies most with ρ). Along θ (12 nodes a decade on both) the stored value is the
+running maximum over every sampled θ up to the node (a load lowered onto the layer
+may fall from any lower height: as
 :func:`droprig.solver.struck_mass.envelope_two_forces`), and the read in a θ cell
 (θ_{j−1}, θ_j] runs linearly in log θ from the upper node's value R_j to the next
 one's, R_{j+1}: never below R_j, so never below the running maximum inside the cell,
 and continuous and non-decreasing in the fall (the inverse searches bisect on it; a
 staircase made them take a third more rounds). Across μ, κ, ρ it takes the largest of
-the cell's eight corners, times
-:data:`MARGIN`: one for soft contacts (κ < 1: the load bouncing on its contact pumps
-the floor, ψ up to ~4 and varying sharply between the nodes) and one for stiff ones,
-each the largest exact ÷ read of the generator's random calibration systems off the
-grid, counted only above F_c (the chain never reads below F_c). Below the grid's
-least θ the first node is read; above its largest, the last (the running maximum
+the cell's eight corners, times :data:`MARGIN` (soft; stiff), each the largest exact
+÷ read of the generator's random calibration systems off the grids in its band,
+counted only above F_c (the chain never reads below F_c). Halving the soft grid's
+steps and the stiff grid's ρ step took the soft margin from 1.19 to the figure in
+:mod:`~droprig.solver.crush_table_data` and the read's over-read where the history
+passes F_c from median 1.07 / 90th percentile 1.54 to the figures in
+DEVELOPERS.md (crush30). Below the grid's least θ the first node is read; above its
+largest, the last (the running maximum
 has then seen the crush end in every phase of the floor's vibration: the crush lasts
 over 50 periods there; checked off the grid to 10 × beyond). Outside the
-grid in μ, κ or ρ no table value is read: the factor is the all-time energy bound
+grids in μ, κ or ρ no table value is read: the factor is the all-time energy bound
 B_f (:func:`droprig.solver.struck_mass.energy_bounds`, rigorous for every history),
 over the chain's force.
 
@@ -70,46 +78,108 @@ excess. SI units: N, m, kg, s.
 
 from __future__ import annotations
 
+from dataclasses import dataclass
+
 import numpy as np
 from numpy.typing import ArrayLike
 
-from droprig.solver.crush_table_data import AXES, KAPPA_SPLIT, MARGIN, PSI
+from droprig.solver import crush_table_data as _data
 from droprig.solver.impact import G
 
-__all__ = ["MARGIN", "crush_factor", "crush_groups", "table_psi"]
+KAPPA_SPLIT = _data.KAPPA_SPLIT
+KAPPA_BANDS = _data.KAPPA_BANDS
+"""κ at the margins' band edges (the last is KAPPA_SPLIT, the tables' split)."""
+MARGIN = _data.MARGIN
+"""The margin of each κ band (below the first edge, …, above the last)."""
+BOX: tuple[tuple[float, float], ...] = tuple(
+    (min(s[0], t[0]), max(s[-1], t[-1]))
+    for s, t in zip(_data.SOFT_AXES, _data.STIFF_AXES, strict=True))
+"""The tables' box (log10 μ, κ, ρ − 1, θ: least, largest), both grids' union."""
 
-_PSI = np.zeros((2, 2, 2, 2))
-_AX: list[np.ndarray] = []  # log10 μ, log10 κ, log10(ρ − 1), log10 θ
-_CORNERS = _PSI.ravel()
-"""The largest of each cell's eight corners in μ, κ, ρ at each θ node, flat."""
-_LO = np.zeros((4, 1))
-_STEP = np.ones((4, 1))
-_CELLS = np.ones((3, 1))  # the last cell's lower node per axis
-_STRIDES = np.zeros(3, np.intp)
-_NT = 1
-
-
-def _use(psi: ArrayLike, axes: tuple[tuple[float, ...], ...] | list[np.ndarray]) -> None:
-    """Read the table ``psi`` on ``axes`` from now on (the stored one at import; the
-    generator's calibration passes a fresh one): each cell's corner maximum is
-    taken once here."""
-    global _PSI, _AX, _CORNERS, _LO, _STEP, _CELLS, _STRIDES, _NT
-    _PSI = np.asarray(psi, float)
-    _AX = [np.asarray(a, float) for a in axes]
-    c = _PSI[:-1, :-1, :-1]
-    for a in (0, 1):
-        for b in (0, 1):
-            for d in (0, 1):
-                c = np.maximum(c, _PSI[a:a + c.shape[0], b:b + c.shape[1], d:d + c.shape[2]])
-    _CORNERS = np.ascontiguousarray(c).ravel()
-    _LO = np.array([[ax[0]] for ax in _AX])
-    _STEP = np.array([[ax[1] - ax[0]] for ax in _AX])
-    _CELLS = np.array([[ax.size - 2] for ax in _AX[:3]], float)
-    _NT = _AX[3].size
-    _STRIDES = np.array([c.shape[1] * c.shape[2] * _NT, c.shape[2] * _NT, _NT], np.intp)
+__all__ = ["BOX", "KAPPA_BANDS", "KAPPA_SPLIT", "MARGIN", "crush_factor", "crush_groups",
+           "table_psi"]
 
 
-_use(PSI, AXES)
+@dataclass(frozen=True)
+class _Tables:
+    """The two tables (soft contacts, stiff ones) ready to read as one: each cell's
+    corner maximum in μ, κ, ρ at every θ node, both tables flat one after the other,
+    and per table (the last axis, 0 soft, 1 stiff) its axes' least values and steps
+    (log10 μ, log10 κ, log10(ρ − 1), log10 θ; uniform), its last cell's lower node
+    per axis, its strides and where its corners start."""
+
+    corners: np.ndarray
+    lo: np.ndarray  # (4, 2)
+    step: np.ndarray  # (4, 2)
+    cells: np.ndarray  # (3, 2)
+    strides: np.ndarray  # (3, 2)
+    start: np.ndarray  # (2,)
+    nt: int
+
+    @staticmethod
+    def of(*grids: tuple[ArrayLike, tuple[tuple[float, ...], ...] | list[np.ndarray]]
+           ) -> _Tables:
+        """The tables of ``grids`` ((ψ at the nodes, the running maximum along θ;
+        axes), soft then stiff, on the same θ nodes); each cell's corner maximum is
+        taken once here."""
+        corners, lo, step, cells, strides = [], [], [], [], []
+        nts = set()
+        for psi, axes in grids:
+            p = np.asarray(psi, float)
+            ax = [np.asarray(a, float) for a in axes]
+            c = p[:-1, :-1, :-1]
+            for a in (0, 1):
+                for b in (0, 1):
+                    for d in (0, 1):
+                        c = np.maximum(c, p[a:a + c.shape[0], b:b + c.shape[1],
+                                            d:d + c.shape[2]])
+            nt = ax[3].size
+            nts.add(nt)
+            corners.append(np.ascontiguousarray(c).ravel())
+            lo.append([a[0] for a in ax])
+            step.append([a[1] - a[0] for a in ax])
+            cells.append([a.size - 2 for a in ax[:3]])
+            strides.append([c.shape[1] * c.shape[2] * nt, c.shape[2] * nt, nt])
+        if len(nts) != 1:
+            raise ValueError("crush tables: the grids must share their θ nodes")
+        start = np.cumsum([0] + [c.size for c in corners[:-1]])
+        return _Tables(np.concatenate(corners), np.array(lo, float).T,
+                       np.array(step, float).T, np.array(cells, float).T,
+                       np.array(strides, np.intp).T, start.astype(np.intp), nts.pop())
+
+    def read(self, x: np.ndarray, g: np.ndarray | slice
+             ) -> tuple[np.ndarray, np.ndarray]:
+        """The unmargined read (module docstring) at the groups' logs ``x`` (4, n)
+        from table ``g`` (per point, 0 soft and 1 stiff; or ``slice(i, i + 1)``
+        for all points from table i), and whether each point lies inside its grid in
+        μ, κ, ρ."""
+        u = (x - self.lo[:, g]) / self.step[:, g]
+        cells = self.cells[:, g]
+        inside = np.all((u[:3] >= 0.0) & (u[:3] <= cells + 1.0), axis=0)
+        # the cell in μ, κ, ρ (its corner maximum)
+        cell = np.clip(np.floor(np.where(inside, u[:3], 0.0)), 0.0, cells).astype(np.intp)
+        base = np.sum(self.strides[:, g] * cell, axis=0) + self.start[g]
+        # θ in the cell (θ_{j−1}, θ_j]: from the node above, R_j, at its foot to the
+        # next, R_{j+1}, at its top, f = 0 … 1 (continuous, non-decreasing, never
+        # below R_j)
+        t = np.nan_to_num(u[3], nan=0.0)
+        j = np.clip(np.ceil(t), 0.0, self.nt - 1.0)
+        f = np.clip(t - (j - 1.0), 0.0, 1.0)
+        ji = j.astype(np.intp)
+        lo = self.corners.take(base + ji)
+        hi = self.corners.take(base + np.minimum(ji + 1, self.nt - 1))
+        return lo + f * (hi - lo), inside
+
+
+_TABLES = _Tables.of((_data.SOFT_PSI, _data.SOFT_AXES), (_data.STIFF_PSI, _data.STIFF_AXES))
+
+
+def _use(soft: tuple[ArrayLike, list[np.ndarray]],
+         stiff: tuple[ArrayLike, list[np.ndarray]]) -> None:
+    """Read the tables ``soft`` and ``stiff`` (ψ, axes) from now on (the stored ones
+    at import; the generator's calibration passes fresh ones)."""
+    global _TABLES
+    _TABLES = _Tables.of(soft, stiff)
 
 
 def crush_groups(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, k_c: ArrayLike,
@@ -126,31 +196,27 @@ def table_psi(mu: ArrayLike, kappa: ArrayLike, rho: ArrayLike,
               theta: ArrayLike) -> tuple[np.ndarray, np.ndarray]:
     """The table's read (module docstring) of ψ = F_frame/F_c at the groups, and
     whether the point lies inside the grid in μ, κ and ρ (bool; ψ is ``inf`` where
-    not). Dimensionless; the largest of the cell's corners in μ, κ, ρ, from the
-    cell's upper θ node to the next (module docstring), times :data:`MARGIN` (soft
-    contacts κ < ``KAPPA_SPLIT``, stiff)."""
+    not). Dimensionless; the soft contacts' table for κ < :data:`KAPPA_SPLIT`, the
+    stiff ones' above, each the largest of the cell's corners in μ, κ, ρ, from the
+    cell's upper θ node to the next (module docstring), times the :data:`MARGIN` of
+    κ's band (:data:`KAPPA_BANDS`)."""
     mu, kappa, rho, theta = np.broadcast_arrays(*(np.asarray(v, float)
                                                   for v in (mu, kappa, rho, theta)))
     # the logs of the groups, (4, n); ρ ≤ 1 and θ = 0 fall below the grid
     x = np.log10(np.maximum(np.stack([mu.ravel(), kappa.ravel(), rho.ravel() - 1.0,
                                       theta.ravel()]), 1e-300))
-    u = (x - _LO) / _STEP
-    inside = np.all((u[:3] >= 0.0) & (u[:3] <= _CELLS + 1.0), axis=0)
-    # the cell in μ, κ, ρ (its corner maximum, _CORNERS)
-    cell = np.clip(np.floor(np.where(inside, u[:3], 0.0)), 0.0, _CELLS).astype(np.intp)
-    base = _STRIDES @ cell
-    # θ in the cell (θ_{j−1}, θ_j]: from the node above, R_j, at its foot to the next,
-    # R_{j+1}, at its top, f = 0 … 1 (continuous, non-decreasing, never below R_j)
-    t = np.nan_to_num(u[3], nan=0.0)
-    j = np.clip(np.ceil(t), 0.0, _NT - 1.0)
-    f = np.clip(t - (j - 1.0), 0.0, 1.0)
-    ji = j.astype(np.intp)
-    lo = _CORNERS.take(base + ji)
-    hi = _CORNERS.take(base + np.minimum(ji + 1, _NT - 1))
-    psi = (lo + f * (hi - lo)).reshape(mu.shape)
-    inside = inside.reshape(mu.shape)
-    margin = np.where(kappa < KAPPA_SPLIT, MARGIN[0], MARGIN[1])
-    return np.where(inside, margin * psi, np.inf), inside
+    k = kappa.ravel()
+    stiff = k >= KAPPA_SPLIT
+    n_stiff = int(np.count_nonzero(stiff))
+    # one table for all points where they share it, else each point's own
+    g = (slice(1, 2) if n_stiff == k.size else slice(0, 1) if n_stiff == 0
+         else stiff.astype(np.intp))
+    psi, inside = _TABLES.read(x, g)
+    margin: np.ndarray | float = MARGIN[-1]  # the band's margin (KAPPA_BANDS)
+    for edge, m_band in zip(KAPPA_BANDS[::-1], MARGIN[-2::-1], strict=True):
+        margin = np.where(k < edge, m_band, margin)
+    psi = np.where(inside, margin * psi, np.inf)
+    return psi.reshape(mu.shape), inside.reshape(mu.shape)
 
 
 def crush_factor(W: ArrayLike, h: ArrayLike, F_c: ArrayLike, k_c: ArrayLike,
