@@ -796,20 +796,7 @@ class _Integrator:
                     Yr = Y[0].copy()
                 Ya = np.abs(Y, out=Y)
                 Ya[:, 0, :] = Fr
-                im = np.argmax(Ya, axis=2)  # (m, Q)
-                best = np.take_along_axis(Ya, im[:, :, None], axis=2)[:, :, 0]
-                inner = (im >= 1) & (im <= nv[:, None] - 2)
-                ym1 = np.take_along_axis(Ya, np.maximum(im - 1, 0)[:, :, None],
-                                         axis=2)[:, :, 0]
-                yp1 = np.take_along_axis(Ya, np.minimum(im + 1, Gb - 1)[:, :, None],
-                                         axis=2)[:, :, 0]
-                with np.errstate(invalid="ignore"):
-                    den = 2.0 * best - ym1 - yp1
-                    bump = np.where(inner & (den > 0.0),
-                                    (yp1 - ym1) ** 2 / (8.0 * np.where(den > 0.0, den, 1.0)),
-                                    0.0)
-                    bump = np.where(inner, np.minimum(bump, np.abs(yp1 - ym1)), 0.0)
-                fold(ii, best + bump + ph.tail[ii])
+                fold(ii, _parabola_peaks(Ya, nv, Gb) + ph.tail[ii])
                 if record:
                     m = nv[0]
                     rec["t"].append(t0[ii[0]] + ts[r[0], :m])
@@ -851,20 +838,8 @@ class _Integrator:
                 Y = np.einsum("mqj,mgj->mqg", CVb[:, :, :-1], z, optimize=True)
                 Y += CVb[:, :, -1:]
                 Ya = np.where((order == 0)[:, :, None], Y, np.abs(Y))
-                im = np.argmax(Ya, axis=2)
-                best = np.take_along_axis(Ya, im[:, :, None], axis=2)[:, :, 0]
-                inner = (im >= 1) & (im <= nv[:, None] - 2)
-                ym1 = np.take_along_axis(Ya, np.maximum(im - 1, 0)[:, :, None],
-                                         axis=2)[:, :, 0]
-                yp1 = np.take_along_axis(Ya, np.minimum(im + 1, Gb - 1)[:, :, None],
-                                         axis=2)[:, :, 0]
-                with np.errstate(invalid="ignore"):
-                    den = 2.0 * best - ym1 - yp1
-                    bump = np.where(inner & (den > 0.0),
-                                    (yp1 - ym1) ** 2 / (8.0 * np.where(den > 0.0, den, 1.0)),
-                                    0.0)
-                    bump = np.where(inner, np.minimum(bump, np.abs(yp1 - ym1)), 0.0)
-                val = best + bump + np.take_along_axis(ph.tail[ii], order, axis=1)
+                val = _parabola_peaks(Ya, nv, Gb) + np.take_along_axis(ph.tail[ii], order,
+                                                                        axis=1)
                 full = np.full((r.size, Q), -np.inf)
                 np.put_along_axis(full, order, val, axis=1)
                 self._fold_values(ii, full)
@@ -977,6 +952,25 @@ BLAS library splits a product over threads (OpenBLAS's m·n·k threshold, 2¹⁸
 from memory); on a busy shared 2-core machine the split product of 24 × 40 × 4096
 took 16 ms against 0.26 ms on one thread (measured, this module's stop-30 study,
 ``docs/amplification_record.md``)."""
+
+
+def _parabola_peaks(Ya: np.ndarray, nv: np.ndarray, G: int) -> np.ndarray:
+    """The peak of each row of samples ``Ya`` (cases × outputs × G, on a uniform grid;
+    a case's first ``nv`` valid): the largest sample, raised by the parabola through it
+    and its two neighbours where it lies inside the valid run — (y₊ − y₋)²/(8·(2y₀ −
+    y₋ − y₊)), at most |y₊ − y₋| (three-point vertex, common practice, no source) — as
+    the stepping run refines a sampled peak."""
+    im = np.argmax(Ya, axis=2)  # (m, Q)
+    best = np.take_along_axis(Ya, im[:, :, None], axis=2)[:, :, 0]
+    inner = (im >= 1) & (im <= nv[:, None] - 2)
+    ym1 = np.take_along_axis(Ya, np.maximum(im - 1, 0)[:, :, None], axis=2)[:, :, 0]
+    yp1 = np.take_along_axis(Ya, np.minimum(im + 1, G - 1)[:, :, None], axis=2)[:, :, 0]
+    with np.errstate(invalid="ignore"):
+        den = 2.0 * best - ym1 - yp1
+        bump = np.where(inner & (den > 0.0),
+                        (yp1 - ym1) ** 2 / (8.0 * np.where(den > 0.0, den, 1.0)), 0.0)
+        bump = np.where(inner, np.minimum(bump, np.abs(yp1 - ym1)), 0.0)
+    return best + bump
 
 
 def _rotations(Om: np.ndarray, tau: np.ndarray, dt: np.ndarray,
