@@ -70,7 +70,13 @@ from droprig.solver.floor import FloorModel, build_floor, floor_cache, floor_mod
 from droprig.solver.geometry import Geometry, point_geometry
 from droprig.solver.outcome_rows import OutcomeRows, pad_loads
 from droprig.solver.results import PERFORATES, BaySummary, Cascade, CaseResult, Results
-from droprig.solver.summary import Advice, bay_advice, summarise, without_limit_under_pads
+from droprig.solver.summary import (
+    Advice,
+    bay_advice,
+    summarise,
+    without_hook_limit,
+    without_limit_under_pads,
+)
 
 __all__ = [
     "Advice",
@@ -265,8 +271,10 @@ def _cascade(project: Project, zone: LiftZone, loads: Sequence[LiftLoad],
         lower = _case_result(zone, falling[j], below, res)
         bays_below = summarise(below, zone, falling[j], lower, res["F_allow"],
                                lv.id if lv is not None else None)
+        # no hook limit controls a fall through the deck above (without_hook_limit)
         out[k] = Cascade(zone.id, loads[k].name, case.level_id, below.id,
-                         float(falling[j].drop_height or 0.0), lower, tuple(bays_below))
+                         float(falling[j].drop_height or 0.0), lower,
+                         tuple(without_hook_limit(b) for b in bays_below))
     return out
 
 

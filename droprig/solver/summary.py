@@ -31,7 +31,8 @@ from droprig.solver.results import (
 )
 
 __all__ = ["MAX_MAT_TRAVEL", "MIN_USEFUL_HEIGHT", "Advice", "bay_advice",
-           "perforation_limit", "summarise", "without_limit_under_pads"]
+           "perforation_limit", "summarise", "without_hook_limit",
+           "without_limit_under_pads"]
 
 MIN_USEFUL_HEIGHT = 0.05
 """A drop height below this (m) is not offered as advice: it cannot be controlled on
@@ -82,6 +83,24 @@ def without_limit_under_pads(s: BaySummary, thickness: dict[str, float]) -> BayS
     (the permit then excludes the bay). Common practice, no source."""
     top = max((thickness.get(p, 0.0) for p in s.protections), default=0.0)
     if s.height_limit is None or s.height_limit > top or top <= 0.0:
+        return s
+    kind: AdviceKind = ("mat" if s.advice_kind == "limit_or_mat" else "keep_clear"
+                        if s.advice_kind == "limit_height" else s.advice_kind)
+    return replace(s, advice_kind=kind, height_limit=None, height_limit_yields=False,
+                   height_limit_x=None, height_limit_y=None, height_limit_check="")
+
+
+def without_hook_limit(s: BaySummary) -> BaySummary:
+    """The summary ``s`` of a bay of the level below a perforated deck (the load comes
+    through the deck above, :func:`droprig.solver.analysis.cascade_down`) without a
+    drop-height limit: the object strikes this level at the speed the perforation above
+    leaves it (its equivalent height is that fall's, not a planned one), so no hook
+    limit controls it — "limit the drop height to 0.104 m" there read as a condition
+    nobody can keep (the two-level demo's level L3). ``limit_or_mat`` becomes ``mat`` (a
+    mat or catch deck laid on this level still works), ``limit_height`` ``keep_clear``;
+    a deck the object may go through keeps its advice without a limit. Common
+    practice, no source."""
+    if s.height_limit is None:
         return s
     kind: AdviceKind = ("mat" if s.advice_kind == "limit_or_mat" else "keep_clear"
                         if s.advice_kind == "limit_height" else s.advice_kind)
