@@ -325,12 +325,7 @@ def footprint_tip_offset(rect: tuple[ArrayLike, ArrayLike, ArrayLike, ArrayLike]
     tipping over it leaves the floor rather than striking the deck beside the pad (a
     fall off the floor's edge is not a drop onto its framing; README, limits)."""
     shape = np.broadcast_shapes(*(np.shape(v) for v in rect), np.shape(weight))
-    cases = _tip_cases(rect, weight, t, layers, spent, deck)
-    best = np.full(int(np.prod(shape)), np.inf)
-    if cases is not None:
-        at, L, W, segments, _dirs = cases
-        np.minimum.at(best, at, tip_offset(L, W, t, segments))
-    return best.reshape(shape)
+    return footprint_tip_turn(rect, weight, t, layers, spent, deck).delta.reshape(shape)
 
 
 TIP_DIRECTIONS = ("+x", "−x", "+y", "−y")

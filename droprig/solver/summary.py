@@ -84,10 +84,7 @@ def without_limit_under_pads(s: BaySummary, thickness: dict[str, float]) -> BayS
     top = max((thickness.get(p, 0.0) for p in s.protections), default=0.0)
     if s.height_limit is None or s.height_limit > top or top <= 0.0:
         return s
-    kind: AdviceKind = ("mat" if s.advice_kind == "limit_or_mat" else "keep_clear"
-                        if s.advice_kind == "limit_height" else s.advice_kind)
-    return replace(s, advice_kind=kind, height_limit=None, height_limit_yields=False,
-                   height_limit_x=None, height_limit_y=None, height_limit_check="")
+    return _without_limit(s)
 
 
 def without_hook_limit(s: BaySummary) -> BaySummary:
@@ -100,8 +97,12 @@ def without_hook_limit(s: BaySummary) -> BaySummary:
     mat or catch deck laid on this level still works), ``limit_height`` ``keep_clear``;
     a deck the object may go through keeps its advice without a limit. Common
     practice, no source."""
-    if s.height_limit is None:
-        return s
+    return s if s.height_limit is None else _without_limit(s)
+
+
+def _without_limit(s: BaySummary) -> BaySummary:
+    """``s`` with its drop-height limit taken away: ``limit_or_mat`` becomes ``mat``,
+    ``limit_height`` ``keep_clear``, any other advice stays (without a limit)."""
     kind: AdviceKind = ("mat" if s.advice_kind == "limit_or_mat" else "keep_clear"
                         if s.advice_kind == "limit_height" else s.advice_kind)
     return replace(s, advice_kind=kind, height_limit=None, height_limit_yields=False,
