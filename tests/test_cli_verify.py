@@ -142,11 +142,12 @@ def test_project_one_point_json_and_plots(tmp_path: Path,
     data = json.loads(out)
     assert len(data["points"]) == 1 and data["caution"] == CAUTION
     pt = data["points"][0]
-    # the force row compares contact forces: the chain's contact force F_c (what the
-    # local checks take) beside the time history's. For this heavy unit on a soft
-    # underside (r ≈ 10, κ ≈ 0.18) the chain's two-mass contact force (CEB Bulletin 187
-    # two-mass, from memory) must not read below the member's own time history (the
-    # independent method), and the chain's force on the framing is a part of it
+    # the force row compares the force the deck's checks take (under this declared
+    # soft underside the chain's contact force F_c) beside the time history's. For
+    # this heavy unit on a soft underside (r ≈ 10, κ ≈ 0.18) the chain's two-mass
+    # contact force (CEB Bulletin 187 two-mass, from memory) must not read below the
+    # member's own time history (the independent method), and the chain's force on the
+    # framing is a part of it
     assert pt["energy_method"]["force"] >= pt["time_history"]["force"]
     assert 0.0 < pt["chain_peak_force"] <= pt["energy_method"]["force"] * (1 + 1e-9)
     assert len(data["plots"]) == 3

@@ -279,7 +279,7 @@ def _run_project(args: argparse.Namespace) -> int:
         lines.append(f"  {r.zone_id:<6}{r.bay_id:<10}{r.load_name[:21]:<22}"
                      f"{r.member_id:<10}{v.mass_ratio:>10.3g}{v.compliance_ratio:>9.3g}"
                      f"   {txt}   {txt2}")
-    from droprig.report.verification import pad_edge_words, skipped_words
+    from droprig.report.verification import FORCE_ROW_WORDS, pad_edge_words, skipped_words
 
     lines += [f"  {line}" for line in skipped_words(skipped_bays)]
     lines += [f"  {w}" for w in (pad_edge_words(r, system) for r in rows) if w]
@@ -294,7 +294,7 @@ def _run_project(args: argparse.Namespace) -> int:
                 "low wherever those are below 1.")
     lines.append("Energy method below 1: it reads lower than the time history there. "
                  + used + " Both runs cap the contact force by crushing (deck concrete or "
-                 "crushable layer).")
+                 "crushable layer). " + FORCE_ROW_WORDS)
     for p in plots:
         lines.append(f"plot written: {p}")
     lines.append(CAUTION)

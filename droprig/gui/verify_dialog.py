@@ -105,7 +105,7 @@ class VerifyDialog(QDialog):
         super().__init__(parent)
         from matplotlib.backends.backend_qtagg import FigureCanvasQTAgg
 
-        from droprig.report.verification import pad_edge_words
+        from droprig.report.verification import FORCE_ROW_WORDS, pad_edge_words
 
         self.setWindowTitle("Time-history verification")
         self.verification = pv
@@ -140,6 +140,7 @@ class VerifyDialog(QDialog):
             f"{v.modes} modes in time, time step {v.time_step * 1e3:.3g} ms"
             + ("; a rigid contact was given a small compliance (stated assumption)"
                if v.contact_assumed else "")
+            + ". " + FORCE_ROW_WORDS[:-1]
             + (". The verdict uses the larger of the energy method and the time-history "
                "bounds (dynamic amplification); a ratio 'verdict ÷ history' of 1 or more "
                "means the verdict covers this time history." if amplified else

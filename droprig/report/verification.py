@@ -15,8 +15,8 @@ from typing import Any
 
 from droprig.units import fmt
 
-__all__ = ["VERIFICATION_HEADER", "VERIFICATION_NOTE", "VERIFICATION_OFF", "pad_edge_words",
-           "verification_rows"]
+__all__ = ["FORCE_ROW_WORDS", "VERIFICATION_HEADER", "VERIFICATION_NOTE", "VERIFICATION_OFF",
+           "pad_edge_words", "verification_rows"]
 
 VERIFICATION_HEADER: tuple[str, ...] = (
     "zone", "bay", "load", "member", "r = M/mₑ", "κ = f_c/f_s",
@@ -39,12 +39,21 @@ VERIFICATION_NOTE = (
     "below 1 means the energy method reads lower than the time history; the verdict "
     "ratios compare the demands the checks use (dynamic amplification: the larger of the "
     "energy method and the calibrated time-history bounds) with the time history — 1 or "
-    "more means the verdict covers it. F is the contact force between the load and the "
-    "struck surface: the analysis's contact force (what the local checks take) beside the "
-    "time history's; V is the member's end shear (its support reactions) on both sides. "
+    "more means the verdict covers it. F is the force at the contact: the force the "
+    "analysis's checks take there (the deck's flexure and punching; the webs' where there "
+    "is no deck) beside the time history's contact force. Under a hard load on a bare deck "
+    "the analysis's two-mass contact spike is taken by no strength check (the local-damage "
+    "checks judge that strike by its speed) and is not compared; V is the member's end "
+    "shear (its support reactions) on both sides. "
     "Check aid only: "
     "review against local codes with the appointed lifting person and a licensed "
     "structural engineer.")
+
+
+FORCE_ROW_WORDS = (
+    "The force compared is the force the checks take at the contact (the deck's flexure "
+    "and punching; the webs' under the load where there is no deck).")
+"""Said beside every verification table: what its force row compares."""
 
 
 VERIFICATION_OFF = (

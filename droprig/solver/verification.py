@@ -196,7 +196,7 @@ def _member_history(cond: EndCondition, L: float, EI: float, mu: float, a: float
 
 def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
             chain_factors: tuple[float, dict[str, float]],
-            contact_force: float | None = None) -> Verification:
+            contact_force: tuple[float, float] | None = None) -> Verification:
     """The verification of the struck member ``s`` (:func:`_struck`: one point's
     :func:`droprig.solver.pointhistory.struck_member` record — end condition, L and a
     (m), EI (N·m²), μ (kg/m), share w, own compliance G(a, a) and the path's f_all
@@ -213,8 +213,8 @@ def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
     (:func:`droprig.solver.pointhistory.shared_load`) and the member's energy-method
     and verdict demands are w × those of the whole force — the chain's own energy
     peaks on the member (:func:`droprig.solver.pointhistory.member_energy_peaks`, the
-    one place the w·F × unit-load envelopes are worked out). ``contact_force`` (N):
-    the chain's contact force at the point, for the force row (:func:`_contact_row`)."""
+    one place the w·F × unit-load envelopes are worked out). ``contact_force``: the
+    force row's (N) and factor (:func:`_contact_row`)."""
     cond = cast(EndCondition, str(s["cond"]))
     L, EI, mu, a = float(s["L"]), float(s["EI"]), float(s["mu"]), float(s["a"])
     f_s = float(s["g_m"])
@@ -250,8 +250,8 @@ def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
     rec["share"] = np.array([w])
     peaks = pointhistory.member_energy_peaks(rec, np.array([F]), samples=ENVELOPE_SAMPLES)
     energy = {k: float(peaks[k][0]) for k in QUANTITIES}
-    if contact_force is not None and contact_force > 0.0:
-        energy, factor = _contact_row(energy, factor, F, contact_force, chain_factors)
+    if contact_force is not None and contact_force[0] > 0.0:
+        energy, factor = _contact_row(energy, factor, *contact_force)
     assert t.history is not None
     t_sep = float(t.t_separation[0])
     th = {k: float(getattr(t, k)[0]) for k in QUANTITIES}
@@ -276,15 +276,38 @@ def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
         history=history, section_shear=section_shear)
 
 
-def _contact_row(energy: dict[str, float], factor: dict[str, float], F: float,
-                 F_c: float, amplified: object) -> tuple[dict[str, float], dict[str, float]]:
-    """The force row compares contact forces: the chain's contact force F_c (N, what
-    the local checks take), not its force on the framing F (N; the two differ where
-    the chain gives two forces per point); with the chain's factors (``amplified``
-    not None) the verdict's contact force is the larger of F_c and the amplified A_F·F."""
-    if amplified is not None:
-        factor = {**factor, "force": max(F_c, factor["force"] * F) / F_c}
-    return {**energy, "force": F_c}, factor
+def _contact_row(energy: dict[str, float], factor: dict[str, float], F_local: float,
+                 A_local: float) -> tuple[dict[str, float], dict[str, float]]:
+    """The force row compares the force at the contact that the point's checks take,
+    F_local (N: the deck's flexure and punching take the chain's deck force F_deck;
+    where there is no deck the webs under the load take the force on the framing F),
+    times the factor ``A_local`` those checks take (the chain's amplification of that
+    family, 1 with amplification off), beside the time history's contact force. Not
+    the chain's two-mass contact spike under a hard load on a bare deck
+    (``Impact.contact``): no strength check takes it — the local-damage checks judge
+    that strike by its speed (DOE-STD-3014 App. C) — so it is not the verdict's."""
+    return {**energy, "force": F_local}, {**factor, "force": A_local}
+
+
+def _local_force(chain: Chain, amplified: bool) -> tuple[float, float]:
+    """The force at the contact that the chain's checks take at its first point (N)
+    and the factor they take it with: the deck's force F_deck where the point has deck
+    checks (flexure, punching: the contact force under a declared soft underside, the
+    one-mass force of the load on deck and framing in series under a hard load,
+    :func:`droprig.solver.chain.two_forces`), else the force on the framing F (the
+    webs' local checks under the load); the factor the chain's amplification gives
+    that family where the verdict is ``amplified``, else 1."""
+    from droprig.solver.chain import Demands, DynamicAmplification, Impact
+
+    imp = chain[Impact]
+    deck = "deck_punching" in chain[Demands].checks
+    F = float((imp.F_deck if deck and imp.F_deck is not None else imp.F)[0])
+    if not amplified:
+        return F, 1.0
+    da = chain[DynamicAmplification]
+    family = "deck_punching" if deck else "web_yielding"
+    A = da.factor.get(family, da.A_force)
+    return F, float(A[0])
 
 
 def verify_member(section: Section, grade: Grade, cond: EndCondition, L: float, a: float,
@@ -379,11 +402,11 @@ def _chain_verification(chain: Chain, *, amplified: bool, where: tuple[str, obje
     h_e = float(energy_fall(chain, inp.h)[0])
     ver = _verify(s, float(inp.M[0]), h_e, bool(chain[StruckMass].m_e[0] > 0.0),
                   chain_factors=(float(imp.F[0]), factors),
-                  contact_force=float(imp.contact[0]))
+                  contact_force=_local_force(chain, amplified))
     if not amplified:
         # the checks use the chain's energy method alone (amplification off in the
         # project's settings): that is the demand the verdict uses (the force row: the
-        # chain's contact force, which the local checks take)
+        # force at the contact the point's checks take)
         ver = replace(ver, verdict=dict(ver.energy),
                       amplification=dict.fromkeys(QUANTITIES, 1.0))
     return ver, s

@@ -34,7 +34,7 @@ def test_verify_point_uses_the_chain_factors() -> None:
     fm = floor_model(p.level(zone.level_id), p.settings)
     c = evaluate_chain(fm, p, load, point_geometry(fm, p, np.array([x]), np.array([y])),
                        detail=True)
-    da, F = c[DynamicAmplification], float(c[Impact].F[0])
+    da = c[DynamicAmplification]
     F_c = float(c[Impact].contact[0])
     v = pv.verification
     want = {"moment": da.A_moment[0], "shear": da.A_shear[0],
@@ -43,18 +43,22 @@ def test_verify_point_uses_the_chain_factors() -> None:
     for q, A in want.items():
         assert v.amplification[q] == pytest.approx(float(A), rel=1e-12)
         assert v.verdict[q] == pytest.approx(float(A) * v.energy[q], rel=1e-12)
-    # the force row compares contact forces: the chain's contact force F_c (what the
-    # local checks take), and the verdict's the larger of it and the amplified A_F·F
-    assert v.energy["force"] == pytest.approx(F_c, rel=1e-9)
-    assert v.verdict["force"] == pytest.approx(max(F_c, float(da.A_force[0]) * F), rel=1e-12)
-    assert v.verdict["force"] == pytest.approx(v.amplification["force"] * F_c, rel=1e-12)
+    # the force row compares the force the deck's checks take, F_deck (here, a declared
+    # soft underside, the contact force F_c), times the factor they take it with
+    F_deck = float(c[Impact].F_deck[0])  # type: ignore[index]
+    assert F_deck == F_c
+    assert v.energy["force"] == pytest.approx(F_deck, rel=1e-9)
+    A_deck = float(da.factor["deck_punching"][0])
+    assert v.verdict["force"] == pytest.approx(A_deck * F_deck, rel=1e-12)
+    assert v.verdict["force"] == pytest.approx(v.amplification["force"] * F_deck, rel=1e-12)
 
 
 def test_verify_point_force_row_is_the_contact_force() -> None:
     # two forces per point (the two-mass model): the contact force between load and
     # deck differs from the force on the framing; the verification's force row sets
-    # the chain's contact force beside the time history's contact force (it showed
-    # the framing force). Amplification off: the verdict's force is that contact force.
+    # the deck's force (under this declared soft underside, the contact force) beside
+    # the time history's contact force (it showed the framing force). Amplification
+    # off: the verdict's force is that force (test_verify_force_row.py: a hard load).
     p = load_project(DEMO)
     zone = p.zone("MC1")
     load = next(ld for ld in zone.loads if ld.name == "AHU-3 (old, drained)")
