@@ -649,9 +649,42 @@ class ProtectionItem(PixelSized, QGraphicsItem):
                        QRectF(dr.left() + 3, dr.top() + 3, w, 14),
                        QRectF(dr.right() - 3 - w, dr.top() + 3, w, 14)]
             plate = next((c for c in corners if not any(c.intersects(o) for o in avoid)),
-                         corners[0])
+                         None)
+            if plate is None:
+                # no corner is clear: the name shortened beside what it would cover, in
+                # the corner that leaves it longest (the rooftop demo's mat names ran
+                # under the scabbing marks, "Timber" and an "s" on top of each other)
+                short, plate = max((self._trimmed(a, c, i % 2 == 0, avoid, fm)
+                                    for i, c in enumerate(corners)),
+                                   key=lambda tp: tp[1].width())
+                if plate.width() > 0.0:
+                    text = short
+                else:
+                    plate = corners[0]
             out.append((text, plate))
         return out
+
+    @staticmethod
+    def _trimmed(a: ProtectionArea, plate: QRectF, from_left: bool, avoid: list[QRectF],
+                 fm: QFontMetricsF) -> tuple[str, QRectF]:
+        """``plate`` (anchored at its left edge when ``from_left``, else its right)
+        cut short of every rectangle of ``avoid`` on its row, with the name elided to
+        fit; an empty plate where less than :data:`MIN_NAME_PX` would be left."""
+        row = [o for o in avoid if o.intersects(plate)]
+        r = QRectF(plate)
+        if from_left:
+            r.setRight(min([r.right()] + [o.left() for o in row]))
+        else:
+            r.setLeft(max([r.left()] + [o.right() for o in row]))
+        if r.width() < MIN_NAME_PX or any(r.intersects(o) for o in avoid):
+            return "", QRectF()
+        text = fm.elidedText(a.name or a.id, Qt.TextElideMode.ElideRight, r.width() - 6)
+        return text, r
+
+
+MIN_NAME_PX = 30.0
+"""Narrowest plate (px) a shortened pad name is drawn in where no corner of its pad
+is clear (below it the name is drawn in its first corner whatever it covers)."""
 
 
 # -------------------------------------------------------------- lift zones

@@ -372,7 +372,8 @@ class PlanView(QGraphicsView):
         self._labels_item.avoid = lambda: self.handle_rects() + self._crane_obstacles()
         self._protection_labels.avoid = lambda: (
             self._crane_obstacles()
-            + self._lift_points_item.obstacles(self.viewportTransform()))
+            + self._lift_points_item.obstacles(self.viewportTransform())
+            + self._labels_item.scabbing_marks(self.viewportTransform()))
         self._dim_plate = QColor(style.PLAN["background"])
         self._doc: Document | None = None
         self._stale_timer = QTimer(self)

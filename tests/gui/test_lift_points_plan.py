@@ -71,3 +71,22 @@ def test_pad_names_keep_clear_of_the_points(qtbot, tmp_path: Path) -> None:
     assert plates, "the demo's pads are named on the plan"
     for text, plate in plates:
         assert not any(plate.intersects(b) for b in points), (text, plate)
+
+
+def test_pad_names_keep_clear_of_the_scabbing_marks(qtbot, tmp_path: Path) -> None:
+    """Seen under Xvfb at 1280 x 720 on the rooftop demo: with both bottom corners of
+    each timber mat taken by P1 and S2, its name went to a top corner and ran under the
+    bay's scabbing mark ("Timber" with an "s" drawn over it). A pad's name keeps clear
+    of the scabbing marks too, shortened beside them where no corner of its pad is
+    free (common practice, no source: a drawing's labels never hide its symbols)."""
+    _, win = _demo_window(qtbot, tmp_path)
+    t = win.plan.viewportTransform()
+    marks = win.plan._labels_item.scabbing_marks(t)
+    assert marks, "the demo's bays may scab: the marks are drawn"
+    plates = win.plan._protection_labels.label_plates(t)
+    assert len(plates) == 2
+    points = win.plan._lift_points_item.obstacles(t)
+    for text, plate in plates:
+        assert text and plate.width() > 0.0
+        assert not any(plate.intersects(m) for m in marks), (text, plate)
+        assert not any(plate.intersects(b) for b in points), (text, plate)
