@@ -1720,9 +1720,12 @@ def after_bottoming(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarr
     Fc2 = (struck_mass_mod.envelope_two_forces(W, h_cl, f_series, f_s, m2)[0]
            if envelope is None else envelope(h_cl)[0]) + F_c
     through = np.maximum(F_crush, F1)
-    Fc = np.where(Fc2 > F_crush,
-                  np.maximum(F_crush, _one_mass_capped(W, h_cl, f, F_crush, depth_available)),
-                  Fc2)
+    Fc = Fc2
+    over = Fc2 > F_crush
+    if over.any():
+        Fc = Fc2.copy()
+        Fc[over] = np.maximum(F_crush[over], _one_mass_capped(
+            W[over], h_cl[over], f[over], F_crush[over], depth_available))
     # the framing is linear: its free vibration from the layer's stage (amplitude at
     # most 2·F_c·f_s, a suddenly applied force) adds to its response to the pulse
     Ff = np.minimum(Ff2, 2.0 * through) + 2.0 * F_c
