@@ -14,11 +14,19 @@ Along θ each node holds the running maximum of ψ over every θ sampled at or b
 (SUB samples per cell, and the decade below the first node), so the read in a
 cell, from its upper θ node's value to the next one's, covers the cell.
 
+Very soft contacts (κ < LONG_KAPPA, the load chattering on its contact for hundreds of
+phases) are followed with a phase budget of LONG_PHASES (crushhistory's stopping rule
+3), both in the grid and in the calibration: with the default budget some of their
+histories ran out of phases and held the energy bound (ψ up to 9.2 where the history
+closed with a larger budget gives 2.0).
+
 Run: ``PYTHONPATH=. nice .venv/bin/python scripts/build_crush_table.py [--workers N]
-[--soft FILE --stiff FILE]`` (about 11 min on one quiet core for the soft grid,
-24 min for the stiff one, 1 min for the calibration; the grids are saved to
-/tmp/crush_table_soft.npy and /tmp/crush_table_stiff.npy, and ``--soft``/``--stiff``
-reuse them).
+[--soft FILE --stiff FILE | --stored yes]`` (about 11 min on one quiet core for the
+soft grid, 24 min for the stiff one, plus the long rows, 1 min for the calibration; the
+grids are saved to /tmp/crush_table_soft.npy and /tmp/crush_table_stiff.npy, and
+``--soft``/``--stiff`` reuse them; ``--stored yes`` takes both grids from the stored
+crush_table_data and works out again only the soft grid's rows with κ < LONG_KAPPA,
+the same numbers a full build gives there).
 """
 
 from __future__ import annotations
@@ -32,7 +40,8 @@ from pathlib import Path
 
 import numpy as np
 
-from droprig.solver.crushhistory import crush_history
+from droprig.solver import crush_table
+from droprig.solver.crushhistory import MAX_PHASES, crush_history
 from droprig.solver.impact import G
 
 LOG_THETA = (-2.0, 2.5, 1.0 / 12.0)  # θ 0.01 – 316, 12 nodes a decade (both grids)
@@ -69,15 +78,33 @@ def axis(spec: tuple[float, float, float]) -> np.ndarray:
     return np.round(lo + step * np.arange(round((hi - lo) / step) + 1), 6)
 
 
+LONG_KAPPA, LONG_PHASES = crush_table.LONG_KAPPA, crush_table.LONG_PHASES
+"""κ below which the histories get the larger phase budget LONG_PHASES (crush_table's)."""
+
+
+def phases_for(kappa: float) -> int:
+    """The phase budget of the histories at contact stiffness ratio κ."""
+    return LONG_PHASES if kappa < LONG_KAPPA else MAX_PHASES
+
+
 def psi_exact(mu: np.ndarray, kappa: np.ndarray, rho: np.ndarray,
               theta: np.ndarray) -> np.ndarray:
-    """ψ = F_frame/F_c of the exact history at the groups (M = 1 kg, k2 = 1 N/m)."""
+    """ψ = F_frame/F_c of the exact history at the groups (M = 1 kg, k2 = 1 N/m),
+    each with the phase budget of its κ (:func:`phases_for`)."""
     M, k2 = 1.0, 1.0
+    mu, kappa, rho, theta = np.broadcast_arrays(*(np.asarray(v, float)
+                                                  for v in (mu, kappa, rho, theta)))
     F_c = rho * M * G
     m2 = mu * M
     v0 = theta * F_c / (M * np.sqrt(k2 / m2))
-    r = crush_history(M, v0, F_c, np.inf, kappa * k2, m2, k2)
-    return r.F_frame / F_c
+    out = np.empty(mu.shape)
+    long = kappa < LONG_KAPPA
+    for sel, phases in ((long, LONG_PHASES), (~long, MAX_PHASES)):
+        if sel.any():
+            r = crush_history(M, v0[sel], F_c[sel], np.inf, kappa[sel] * k2, m2[sel], k2,
+                              max_phases=phases)
+            out[sel] = r.F_frame / F_c[sel]
+    return out
 
 
 def _row(args: tuple[float, float, float, np.ndarray, np.ndarray]) -> np.ndarray:
@@ -89,10 +116,12 @@ def _row(args: tuple[float, float, float, np.ndarray, np.ndarray]) -> np.ndarray
     return np.maximum.accumulate(p)[node_at]
 
 
-def build(specs: tuple[tuple[float, float, float], ...], workers: int = 1
+def build(specs: tuple[tuple[float, float, float], ...], workers: int = 1,
+          only: np.ndarray | None = None, base: np.ndarray | None = None
           ) -> tuple[list[np.ndarray], np.ndarray]:
     """ψ's running maximum along θ at the nodes of the grid ``specs`` (log10 μ, κ,
-    ρ − 1, θ: lowest, highest, step)."""
+    ρ − 1, θ: lowest, highest, step); ``only`` (bool over the κ axis): work out only
+    those rows, the others taken from ``base``."""
     ax = [axis(s) for s in specs]
     lt = ax[3]
     step = lt[1] - lt[0]
@@ -100,8 +129,10 @@ def build(specs: tuple[tuple[float, float, float], ...], workers: int = 1
         (lt.size - 1) * SUB + 1)])
     node_at = len(BELOW) + SUB * np.arange(lt.size)  # the nodes among the samples
     mu, ka, r1 = np.meshgrid(*(10.0 ** a for a in ax[:3]), indexing="ij")
+    todo = (np.ones(mu.size, bool) if only is None
+            else np.broadcast_to(only[None, :, None], mu.shape).ravel())
     jobs = [(float(mu.flat[i]), float(ka.flat[i]), float(r1.flat[i]), fine, node_at)
-            for i in range(mu.size)]
+            for i in range(mu.size) if todo[i]]
     t0 = time.time()
     rows = []
     if workers > 1:
@@ -117,7 +148,12 @@ def build(specs: tuple[tuple[float, float, float], ...], workers: int = 1
             rows.append(_row(job))
             if i % 100 == 0:
                 print(f"{i}/{len(jobs)} {time.time() - t0:.0f} s", file=sys.stderr)
-    return ax, np.array(rows).reshape((*mu.shape, lt.size))
+    if only is None:
+        return ax, np.array(rows).reshape((*mu.shape, lt.size))
+    assert base is not None
+    out = np.array(base, float).reshape(mu.size, lt.size)
+    out[todo] = np.array(rows)
+    return ax, out.reshape((*mu.shape, lt.size))
 
 
 def calibrate(soft: tuple[list[np.ndarray], np.ndarray],
@@ -125,8 +161,6 @@ def calibrate(soft: tuple[list[np.ndarray], np.ndarray],
               ) -> tuple[tuple[float, ...], np.ndarray, np.ndarray, np.ndarray]:
     """The margins (one per band of KAPPA_BANDS), the calibration's exact ÷
     max(1, read) ratios, its κ and its exact ψ."""
-    from droprig.solver import crush_table
-
     rng = np.random.default_rng(CAL_SEED)
     g = [10.0 ** rng.uniform(lo, hi, CAL_N) for lo, hi in BOX]
     g[2] = 1.0 + g[2]
@@ -214,7 +248,18 @@ def main(argv: list[str]) -> None:
     workers = int(opts.get("--workers", "1"))
     grids = []
     for name, specs in (("soft", SOFT), ("stiff", STIFF)):
-        if f"--{name}" in opts:
+        if opts.get("--stored") == "yes":
+            from droprig.solver import crush_table_data as stored
+
+            psi = np.asarray(getattr(stored, f"{name.upper()}_PSI"), float)
+            ax = [axis(s) for s in specs]
+            if name == "soft":
+                long = 10.0 ** ax[1] < LONG_KAPPA
+                grid = build(specs, workers, only=long, base=psi)
+                np.save(f"/tmp/crush_table_{name}.npy", grid[1])
+            else:
+                grid = (ax, psi)
+        elif f"--{name}" in opts:
             grid = ([axis(s) for s in specs], np.load(opts[f"--{name}"]))
         else:
             grid = build(specs, workers)

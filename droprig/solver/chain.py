@@ -1634,6 +1634,42 @@ def residual_height(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarr
     return np.maximum(h - (F_c / W - 1.0) * s_c + 2.0 * F_c * f, 0.0)
 
 
+def closing_height(h_r: np.ndarray, F_c: np.ndarray, f_s: np.ndarray,
+                   m2: np.ndarray) -> np.ndarray:
+    """Energy height (m) of the closing speed at which the spent layer meets the deck:
+    the load's speed from the residual height h_r (m, :func:`residual_height`),
+    √(2·g·h_r), plus the largest speed of the floor (mass m2, kg, on the framing's
+    compliance f_s, m/N) under the layer's force F_c (N) applied suddenly from rest,
+    F_c·ω₂/k2 = F_c·√(f_s/m2) (x2 = F_c/k2·(1 − cos ω₂t), ω₂ = √(k2/m2): Biggs 1964
+    ch. 2 — from memory): h_cl = (√(2·g·h_r) + F_c·√(f_s/m2))²/(2·g). The floor
+    may be moving up when the stroke is spent; the contact's spike is set by the
+    closing speed, not the load's alone (the load's speed alone read the contact at
+    0.79–1.0 × the exact history, :func:`droprig.solver.crushhistory.crush_history`,
+    on random bottoming systems and 0.92–1.0 × on the rooftop demo's rows; with the
+    floor's speed and the layer's force F_c added, :func:`after_bottoming`, never below
+    it on 14,000 systems and demo rows: scripts/bottoming_ratios.py,
+    tests/solver/test_after_bottoming_exact.py)."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        v2 = np.where(m2 > 0.0, F_c * np.sqrt(f_s / m2), 0.0)
+    v = np.sqrt(2.0 * impact_mod.G * np.maximum(h_r, 0.0)) + v2
+    return v * v / (2.0 * impact_mod.G)
+
+
+def _one_mass_capped(W: np.ndarray, h: np.ndarray, f: np.ndarray, F_crush: np.ndarray,
+                     depth_available: float) -> np.ndarray:
+    """The one-mass force (N) of the energy heights ``h`` (m) on the compliance f
+    (m/N, η = 1, Gere 7th ed. §9.10 Eq. 9-94), crushing-limited above F_crush
+    (:func:`droprig.solver.crushing.crushing_limited_impact`)."""
+    one = np.ones(W.shape)
+    _, F_el, _ = impact_mod.impact_elastic(W, h, f, one)
+    F1 = F_el.copy()
+    cap = F_el > F_crush
+    if cap.any():
+        F1[cap], _, _ = crushing.crushing_limited_impact(W[cap], h[cap], f[cap], one[cap],
+                                                         F_crush[cap], depth_available)
+    return F1
+
+
 def after_bottoming(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarray,
                     f: np.ndarray, f_series: np.ndarray, f_s: np.ndarray, m2: np.ndarray,
                     F_crush: np.ndarray, depth_available: float,
@@ -1649,7 +1685,10 @@ def after_bottoming(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarr
     the envelope over lower drops (:func:`droprig.solver.struck_mass.
     envelope_two_forces`; CEB Bulletin 187 (1988) two-mass model, Biggs 1964 ch. 5 —
     from memory), the contact bounded by the crushing of the deck under the footprint
-    F_crush (N; crushed no deeper than ``depth_available``, m) and the framing force
+    F_crush (N; crushed no deeper than ``depth_available``, m), read at the
+    closing speed's height (:func:`closing_height`: the floor's speed under the
+    layer's force added to the load's) with the layer's F_c added (on the contact
+    when the stroke is spent), and the framing force
     by twice the contact force that passes, as :func:`two_forces` does for a bare
     deck. The framing's free vibration from the layer's stage adds at most 2·F_c
     (the layer's force applied suddenly, dynamic load factor 2, a linear framing:
@@ -1668,19 +1707,25 @@ def after_bottoming(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarr
     envelope's (contact, framing) forces at these points (the kernel's
     :class:`droprig.solver.struck_mass.EnvelopeLookup`; the same numbers)."""
     h_r = residual_height(W, h, F_c, s_c, f)
-    one = np.ones(W.shape)
-    _, F_el, _ = impact_mod.impact_elastic(W, h_r, f, one)
-    F1 = F_el.copy()
-    cap = F_el > F_crush
-    if cap.any():
-        F1[cap], _, _ = crushing.crushing_limited_impact(W[cap], h_r[cap], f[cap], one[cap],
-                                                         F_crush[cap], depth_available)
+    F1 = _one_mass_capped(W, h_r, f, F_crush, depth_available)
     if envelope is None:
-        Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W, h_r, f_series, f_s, m2)
+        _, Ff2 = struck_mass_mod.envelope_two_forces(W, h_r, f_series, f_s, m2)
     else:
-        Fc2, Ff2 = envelope(h_r)
+        _, Ff2 = envelope(h_r)
+    # the contact: the spent layer closes at the load's speed plus the floor's, which
+    # the layer's force has set moving (closing_height), and the layer's force F_c,
+    # on the contact when the stroke is spent, adds to the closing impact's (linear
+    # once the layer is spent: superposition)
+    h_cl = closing_height(h_r, F_c, f_s, m2)
+    Fc2 = (struck_mass_mod.envelope_two_forces(W, h_cl, f_series, f_s, m2)[0]
+           if envelope is None else envelope(h_cl)[0]) + F_c
     through = np.maximum(F_crush, F1)
-    Fc = np.where(Fc2 > F_crush, through, Fc2)
+    Fc = Fc2
+    over = Fc2 > F_crush
+    if over.any():
+        Fc = Fc2.copy()
+        Fc[over] = np.maximum(F_crush[over], _one_mass_capped(
+            W[over], h_cl[over], f[over], F_crush[over], depth_available))
     # the framing is linear: its free vibration from the layer's stage (amplitude at
     # most 2·F_c·f_s, a suddenly applied force) adds to its response to the pulse
     Ff = np.minimum(Ff2, 2.0 * through) + 2.0 * F_c

@@ -44,9 +44,9 @@ log(ρ − 1) and log θ (:mod:`droprig.solver.crush_table_data`, made by
 scripts/build_crush_table.py, its grids and seed stated there): one for soft
 contacts (κ < :data:`KAPPA_SPLIT`: the load bouncing on its contact pumps the floor,
 ψ up to ~4 and varying sharply between nodes; steps 0.25, 0.175, 0.25 decades in
-μ, κ, ρ − 1; below κ ≈ 0.01 some nodes' histories run past crushhistory's phase
-budget and hold its energy bound, ψ up to 9.2 where 2,000 phases give 2.0: safe, and
-the largest over-reads) and one for stiff ones (steps 0.5, 0.35, 0.25: ψ is smooth there and
+μ, κ, ρ − 1; below κ = :data:`LONG_KAPPA` the histories are followed with a larger
+phase budget, :data:`LONG_PHASES`, so that they close rather than hold the energy
+bound) and one for stiff ones (steps 0.5, 0.35, 0.25: ψ is smooth there and
 varies most with ρ). Along θ (12 nodes a decade on both) the stored value is the
 running maximum over every sampled θ up to the node (a load lowered onto the layer
 may fall from any lower height: as
@@ -86,6 +86,14 @@ from numpy.typing import ArrayLike
 from droprig.solver import crush_table_data as _data
 from droprig.solver.impact import G
 
+LONG_KAPPA = 0.01
+"""κ below which the table's reference histories were followed with the phase budget
+:data:`LONG_PHASES` (the load chattering on a very soft contact for hundreds of
+phases; with crushhistory's default budget some held the energy bound, ψ up to 9.2
+where the closed history gives 2.0). scripts/build_crush_table.py builds and
+calibrates with it; the tests' reference takes the same budget."""
+LONG_PHASES = 4000
+"""crushhistory's phase budget (stopping rule 3) for κ < :data:`LONG_KAPPA`."""
 KAPPA_SPLIT = _data.KAPPA_SPLIT
 KAPPA_BANDS = _data.KAPPA_BANDS
 """κ at the margins' band edges (the last is KAPPA_SPLIT, the tables' split)."""
@@ -96,8 +104,8 @@ BOX: tuple[tuple[float, float], ...] = tuple(
     for s, t in zip(_data.SOFT_AXES, _data.STIFF_AXES, strict=True))
 """The tables' box (log10 μ, κ, ρ − 1, θ: least, largest), both grids' union."""
 
-__all__ = ["BOX", "KAPPA_BANDS", "KAPPA_SPLIT", "MARGIN", "crush_factor", "crush_groups",
-           "table_psi"]
+__all__ = ["BOX", "KAPPA_BANDS", "KAPPA_SPLIT", "LONG_KAPPA", "LONG_PHASES", "MARGIN",
+           "crush_factor", "crush_groups", "table_psi"]
 
 
 @dataclass(frozen=True)

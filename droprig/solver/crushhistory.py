@@ -444,13 +444,16 @@ def _energy_bound(s: dict[str, np.ndarray], i: np.ndarray) -> np.ndarray:
 
 
 def crush_history(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, s_c: ArrayLike,
-                  k_c: ArrayLike, m2: ArrayLike, k2: ArrayLike) -> CrushHistory:
+                  k_c: ArrayLike, m2: ArrayLike, k2: ArrayLike,
+                  max_phases: int = MAX_PHASES) -> CrushHistory:
     """Peaks of a load of mass M (kg) striking at v0 (m/s) a crushable layer (crush
     force F_c, N; stroke s_c, m, ``inf`` never spent) through a contact spring k_c
     (N/m) on a floor of mass m2 (kg) on the framing's stiffness k2 (N/m), from
     first contact on, phase by phase in closed form to the stopping rule (module
-    docstring); vectorised over the broadcast inputs (results flat). ValueError
-    naming the field where an input is out of range."""
+    docstring); vectorised over the broadcast inputs (results flat). ``max_phases``:
+    the phase budget of stopping rule 3 (:data:`MAX_PHASES`; the crush table's second
+    pass gives very soft contacts a larger one, scripts/build_crush_table.py).
+    ValueError naming the field where an input is out of range."""
     M_, v0_, F_c_, s_c_, kc, m2_, k2_ = _checked(M, v0, F_c, s_c, k_c, m2, k2)
     n = M_.size
     z = np.zeros(n)
@@ -460,8 +463,10 @@ def crush_history(M: ArrayLike, v0: ArrayLike, F_c: ArrayLike, s_c: ArrayLike,
          "bounded": np.zeros(n, bool), "kind": np.full(n, _ELASTIC), "t": z.copy(),
          "x2_sup": np.full(n, -np.inf), "open": np.zeros(n, bool),
          "t_end": WINDOW * 2.0 * np.pi / _modes(M_, m2_, kc, k2_)[0][:, 0]}
+    if not (isinstance(max_phases, int) and max_phases >= 1):
+        raise ValueError("max_phases: the phase budget must be a whole number ≥ 1")
     phases = np.zeros(n, int)
-    for _ in range(MAX_PHASES):
+    for _ in range(max_phases):
         live = s["kind"] != _DONE
         if not live.any():
             break
