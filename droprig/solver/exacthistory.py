@@ -56,8 +56,9 @@ reference, and ``record`` always steps). The same samples, fewer of them worked 
   and sin of every sample (the same angles to a few ulps of Ω·t);
 * an event's bracket narrowed by Newton's method kept inside it (*rtsafe*, Press et
   al., *Numerical Recipes* 3rd ed., §9.4; the gap's rate and acceleration in closed
-  form), 4–7 evaluations of the closed form where the stepping run takes 24 (stop 31;
-  the Illinois method before it took about 11).
+  form): about 7 evaluations of the closed form an event, the bracket's ends and the
+  two probes included (measured on the demos' 1,505 member cases, stop 31), where the
+  stepping run takes 24.
 
 The peaks agree with the stepping run's to 1e-13 relative where the same largest
 samples are refined, and otherwise differ by the parabola's refinement alone (the
@@ -617,9 +618,8 @@ class _Integrator:
                 lo = max(g0 - 1, -1 + first)
                 hi = min(g0 + span + 1, N + 2)
                 if J:
-                    cs, sn = _rotations(ph.Om[i][None, jj], self.tau[i:i + 1] + lo * dt,
-                                        ph.dt[i:i + 1], hi - lo)
-                    z = ph.As[i][jj] * cs[0] + ph.Bs[i][jj] * sn[0]  # (G, J)
+                    z = _harmonics(ph.Om[i][jj], float(self.tau[i]) + lo * dt, float(dt),
+                                   hi - lo, ph.As[i][jj], ph.Bs[i][jj])  # (G, J)
                     Yt = np.empty((hi - lo, q.size))
                     for c in range(0, hi - lo, piece):  # products of one thread's size
                         np.matmul(z[c:c + piece], CVt, out=Yt[c:c + piece])
@@ -777,7 +777,7 @@ class _Integrator:
         to a bisection where a step would leave it or not halve it (*rtsafe*:
         Press et al., *Numerical Recipes* 3rd ed., §9.4); the root is then bracketed
         by two probes ½·2⁻²² of the width either side. The function's rate is exact
-        (the gap's derivatives in closed form), so about 3–4 steps and one pair of
+        (the gap's derivatives in closed form), so about 3 steps and one pair of
         probes instead of 22 bisections. Returns lo, hi, f(lo), f(hi)."""
         terms = self._event_terms(ii, wh)
         allr = np.arange(ii.size)
@@ -1033,6 +1033,25 @@ def _parabola_peaks(Ya: np.ndarray, nv: np.ndarray, G: int) -> np.ndarray:
                         (yp1 - ym1) ** 2 / (8.0 * np.where(den > 0.0, den, 1.0)), 0.0)
         bump = np.where(inner, np.minimum(bump, np.abs(yp1 - ym1)), 0.0)
     return best + bump
+
+
+def _harmonics(Om: np.ndarray, tau: float, dt: float, G: int, A: np.ndarray,
+               B: np.ndarray) -> np.ndarray:
+    """A·cos Ω(τ + g·dt) + B·sin Ω(τ + g·dt), g = 0…G−1, of one case's harmonics (Ω, A,
+    B (J,)) → (G, J): Re((A − iB)·e^{iΩ(τ + 64b·dt)}·e^{iΩs·dt}) with g = 64·b + s, the
+    rotations of :func:`_rotations` with the amplitudes folded into the 64-sample
+    blocks' factor (two real products a sample and harmonic instead of a complex
+    product and two more)."""
+    J = Om.size
+    Bk = min(_ROT, G)
+    nb = -(-G // Bk)
+    s = np.arange(Bk, dtype=float)
+    b = np.arange(nb, dtype=float)
+    inner = np.exp(1j * (Om[None, :] * (dt * s[:, None])))  # (Bk, J)
+    outer = (A - 1j * B)[None, :] * np.exp(1j * (Om[None, :] * (tau + Bk * dt * b[:, None])))
+    z = (outer.real[:, None, :] * inner.real[None, :, :]
+         - outer.imag[:, None, :] * inner.imag[None, :, :])
+    return z.reshape(nb * Bk, J)[:G]
 
 
 def _rotations(Om: np.ndarray, tau: np.ndarray, dt: np.ndarray,
