@@ -60,13 +60,13 @@ reference, and ``record`` always steps). The same samples, fewer of them worked 
   two probes included (measured on the demos' 1,505 member cases, stop 31), where the
   stepping run takes 24.
 
-The peaks agree with the stepping run's to 1e-13 relative where the same largest
-samples are refined, and otherwise differ by the parabola's refinement alone (the
-stepping run refines a round's largest sample if it is inside its round, the leap
-each piece's largest if it is a top of the samples; rounds are cut at other samples
-after a leap: :data:`FAST_TOLERANCE`, ``tests/solver/test_exact_history_fast.py``);
-a dead output's parabola that would have overshot its own bound is the one other
-difference. Measured:
+The peaks agree with the stepping run's to rounding where the same samples are
+worked out: both refine every sampled crest by its parabola (:func:`_crest_peaks`),
+so neither the rounds' nor the leap's pieces' edges matter (before stop 31 only a
+round's largest sample was refined, and the two runs differed by up to 1e-3 where
+their rounds were cut at other samples). What is left: a dead output's crest whose
+parabola would have risen above its own bound is refined by the stepping run alone
+(:data:`FAST_TOLERANCE`, ``tests/solver/test_exact_history_fast.py``). Measured:
 ``benchmarks/bench_point_history.py``.
 
 Cost: the samples grow with the modes kept (a stiff contact keeps up to 40, sampled 8
@@ -104,14 +104,14 @@ DEFAULT_SAMPLES_PER_PERIOD = 8
 DEFAULT_SECTIONS = 16
 """Equal intervals of the member at whose ends (and both sides of the load) the
 deflection, moment and shear are followed (the reference follows 64)."""
-FAST_TOLERANCE = 1e-3
+FAST_TOLERANCE = 1e-5
 """Largest relative difference of the bounded search's peaks from the stepping run's
-(module docstring, "Bounded search"): the parabola's refinement of a sampled peak,
-which the stepping run leaves out where a round's largest sample falls on the round's
-edge and the leap's rounds are cut elsewhere (measured: ≤ 7e-6 on 260 random members,
-≤ 2.3e-4 on the demos' 1,612 member cases, one deflection; 1e-13 where the same samples
-are refined; a parabola refines a sampled crest by up to 7 % of a harmonic's amplitude
-— cos(π/8) = 0.924 to 0.992, tests/solver/test_exact_history.py)."""
+(module docstring, "Bounded search"): a dead output's crest whose parabola would have
+risen above the output's bound (measured at stop 31: ≤ 5e-13 on 40 random members,
+≤ 2.1e-7 on the demos' 1,505 member cases, a moment; the rest rounding — before every
+crest was refined the two differed by up to 1e-3, the parabola's refinement, which
+raises a sampled crest by up to 7 % of a harmonic's amplitude, cos(π/8) = 0.924 to
+0.992, tests/solver/test_exact_history.py)."""
 MAX_EVENTS = 400
 """Phase changes per case before the case is handed to the Newmark reference."""
 TAIL = 0.01
@@ -227,14 +227,18 @@ def _window(su: dict[str, np.ndarray], M: np.ndarray, mu: np.ndarray, L: np.ndar
 
 def _groups(kept: np.ndarray, group: int) -> Iterator[np.ndarray]:
     """The cases (indices) in groups of at most ``group`` with similar numbers of kept
-    modes (at most 1.5 × or 2 more than the group's fewest), fewest first."""
+    modes (at most 3 × or 8 more than the group's fewest), fewest first. A matter of
+    speed alone: a case's peaks do not depend on its group (its left-out modes at
+    rest, every sampled crest refined; tests/solver/test_exact_history_batch.py).
+    Wider groups run fewer rounds; on the demos' 1,505 member cases 3 × took about
+    15 % less than 1.5 × (stop 31), one group per end condition more."""
     order = np.argsort(kept, kind="stable")
     g0 = 0
     while g0 < order.size:
         n0 = int(kept[order[g0]])
         e = g0 + 1
         while (e < order.size and e - g0 < group
-               and kept[order[e]] <= max(int(1.5 * n0), n0 + 2)):
+               and kept[order[e]] <= max(3 * n0, n0 + 8)):
             e += 1
         yield order[g0:e]
         g0 = e
@@ -606,10 +610,10 @@ class _Integrator:
             yc, tail = ph.yc[i][q], ph.tail[i][q]
             force = q == 0
             dt = ph.dt[i]
-            # the samples 0…N are folded here (N, where the next round starts, sits on
-            # that round's edge, where no parabola refines it), their neighbours −1
-            # (after the phase's first sample) and N + 1 (still before the landing's
-            # bound and the window's end: the leap stops two samples short) taken too
+            # the samples 0…N are folded here (N is where the next round starts), their
+            # neighbours −1 (after the phase's first sample) and N + 1 (still before
+            # the landing's bound and the window's end: the leap stops two samples
+            # short) taken too, so that a crest at 0 or N is refined here
             first = 0 if self.tau[i] > 0.0 else 1
             span = _SPAN
             piece = max(64, _GEMM_ONE_THREAD // max(q.size * J, 1))
@@ -629,20 +633,9 @@ class _Integrator:
                 Ya = np.where(force[:, None], Y, np.abs(Y))
                 a0 = g0 - lo  # the piece's own samples: [a0, a1)
                 a1 = min(g0 + span, N + 1) - lo
-                im = a0 + np.argmax(Ya[:, a0:a1], axis=1)
-                r = np.arange(q.size)
-                best = Ya[r, im]
-                ym1 = Ya[r, np.maximum(im - 1, 0)]
-                yp1 = Ya[r, np.minimum(im + 1, hi - lo - 1)]
-                inner = (im >= 1) & (im <= hi - lo - 2) & (best >= ym1) & (best >= yp1)
-                with np.errstate(invalid="ignore"):
-                    den = 2.0 * best - ym1 - yp1
-                    bump = np.where(inner & (den > 0.0),
-                                    (yp1 - ym1) ** 2 / (8.0 * np.where(den > 0.0, den, 1.0)),
-                                    0.0)
-                    bump = np.where(inner, np.minimum(bump, np.abs(yp1 - ym1)), 0.0)
+                best = _crest_peaks(Ya, a0, a1)
                 full = np.full((1, self.Q), -np.inf)
-                full[0, q] = best + bump + tail
+                full[0, q] = best + tail
                 self._fold_values(np.array([i]), full)
 
     def _peaks(self, idx: np.ndarray) -> np.ndarray:
@@ -948,7 +941,9 @@ class _Integrator:
         ki = kind[idx]
         expect[idx, ki] = np.where(go_on, 2.0 * expect[idx, ki],
                                    np.maximum(nvalid + (tau[idx] - 0.0) / dt, 8.0))
-        tau[idx[go_on]] = ts[go_on, -1]
+        # the next round starts on this round's last but one sample, so that its last
+        # sample, a crest perhaps, has both neighbours in the next (_crest_peaks)
+        tau[idx[go_on]] = ts[go_on, -2]
         active[idx[stop]] = False
         ch = ev_which >= 0
         if ch.any():
@@ -992,11 +987,16 @@ class _Integrator:
         history = None
         if record:
             t = np.concatenate(rec["t"])
-            history = History(t=t, contact_force=np.concatenate(rec["F"]),
-                              deflection=np.concatenate(rec["D"]),
-                              moment=np.concatenate(rec["M"]), shear=np.concatenate(rec["V"]),
-                              load_displacement=np.concatenate(rec["U"]) if rec["U"]
-                              else np.zeros_like(t))
+            # rounds overlap (a round starts on the last but one sample of the one
+            # before): each time once, in order
+            keep = np.ones(t.size, bool)
+            keep[1:] = t[1:] > np.maximum.accumulate(t)[:-1]
+            col = {key: np.concatenate(rec[key])[keep] for key in ("F", "D", "M", "V", "U")
+                   if rec[key]}
+            t = t[keep]
+            history = History(t=t, contact_force=col["F"], deflection=col["D"],
+                              moment=col["M"], shear=col["V"],
+                              load_displacement=col.get("U", np.zeros_like(t)))
         return {"force": pk[:, 0], "deflection": pk[:, 1], "moment": pk[:, 2], "shear": pk[:, 3],
                 "reaction": pk[:, 4], "t_separation": t_sep, "dt": ph.dt.copy(),
                 "crush": np.maximum(crush, 0.0),
@@ -1016,23 +1016,48 @@ took 16 ms against 0.26 ms on one thread (measured, this module's stop-30 study,
 ``docs/amplification_record.md``)."""
 
 
+def _crest_peaks(Ya: np.ndarray, i0: int, i1: int) -> np.ndarray:
+    """The peak of each row of samples ``Ya`` (…, n; a uniform grid, −∞ where a sample
+    is not valid) over the samples i0 ≤ i < i1: the largest sample, and every crest
+    among them with a finite neighbour on either side (y₋ ≤ y₀ ≥ y₊, 1 ≤ i ≤ n − 2)
+    raised to the vertex of the parabola through it and its neighbours,
+    y₀ + (y₊ − y₋)²/(8·(2y₀ − y₋ − y₊)), the rise at most |y₊ − y₋| (three-point vertex,
+    common practice, no source). Every crest is refined, not only the largest
+    sample's, so the peak of a run of samples does not depend on where the run is cut
+    into rounds or pieces (stop 31; before it a crest on a round's edge, or below the
+    round's largest sample, went unrefined, and a point's peaks moved by up to 6.5e-4
+    with the points it ran with). A crest can beat the largest sample only where
+    y₀ + |y₊ − y₋| does, so the parabola is worked out at those samples alone."""
+    n = Ya.shape[-1]
+    best = Ya[..., i0:i1].max(axis=-1)
+    a, b = max(i0, 1), min(i1, n - 1)
+    if b <= a:
+        return best
+    y0, ym, yp = Ya[..., a:b], Ya[..., a - 1:b - 1], Ya[..., a + 1:b + 1]
+    with np.errstate(invalid="ignore", over="ignore"):
+        d = np.subtract(yp, ym)
+        np.abs(d, out=d)
+        e = d + y0
+        cand = np.nonzero(e > best[..., None])
+        if cand[0].size == 0:
+            return best
+        c0, cm, cp, cd = y0[cand], ym[cand], yp[cand], d[cand]
+        crest = (c0 >= cm) & (c0 >= cp) & np.isfinite(cm) & np.isfinite(cp)
+        den = 2.0 * c0 - cm - cp
+        rise = np.where(crest & (den > 0.0),
+                        (cp - cm) ** 2 / (8.0 * np.where(den > 0.0, den, 1.0)), 0.0)
+        top = np.where(crest, c0 + np.minimum(rise, cd), -np.inf)
+    out = best.copy()
+    np.maximum.at(out, cand[:-1], top)
+    return out
+
+
 def _parabola_peaks(Ya: np.ndarray, nv: np.ndarray, G: int) -> np.ndarray:
     """The peak of each row of samples ``Ya`` (cases × outputs × G, on a uniform grid;
-    a case's first ``nv`` valid): the largest sample, raised by the parabola through it
-    and its two neighbours where it lies inside the valid run — (y₊ − y₋)²/(8·(2y₀ −
-    y₋ − y₊)), at most |y₊ − y₋| (three-point vertex, common practice, no source) — as
-    the stepping run refines a sampled peak."""
-    im = np.argmax(Ya, axis=2)  # (m, Q)
-    best = np.take_along_axis(Ya, im[:, :, None], axis=2)[:, :, 0]
-    inner = (im >= 1) & (im <= nv[:, None] - 2)
-    ym1 = np.take_along_axis(Ya, np.maximum(im - 1, 0)[:, :, None], axis=2)[:, :, 0]
-    yp1 = np.take_along_axis(Ya, np.minimum(im + 1, G - 1)[:, :, None], axis=2)[:, :, 0]
-    with np.errstate(invalid="ignore"):
-        den = 2.0 * best - ym1 - yp1
-        bump = np.where(inner & (den > 0.0),
-                        (yp1 - ym1) ** 2 / (8.0 * np.where(den > 0.0, den, 1.0)), 0.0)
-        bump = np.where(inner, np.minimum(bump, np.abs(yp1 - ym1)), 0.0)
-    return best + bump
+    a case's first ``nv`` valid, the rest past its cut): :func:`_crest_peaks` over the
+    valid samples, a crest refined where both its neighbours are valid."""
+    valid = np.arange(G)[None, None, :] < np.asarray(nv)[:, None, None]
+    return _crest_peaks(np.where(valid, Ya[..., :G], -np.inf), 0, G)
 
 
 def _harmonics(Om: np.ndarray, tau: float, dt: float, G: int, A: np.ndarray,
