@@ -164,8 +164,7 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     v0 = np.sqrt(2.0 * g * h)
     out = {k: np.zeros(P) for k in ("force", "moment", "shear", "deflection", "reaction",
                                     "t_separation", "dt", "crush", "leapt")}
-    modes = np.zeros(P, int)
-    steps = 0
+    modes, steps = np.zeros(P, int), 0
     history: History | None = None
     fallback: list[np.ndarray] = []
     for cnd in dict.fromkeys(conds.tolist()):
@@ -174,18 +173,13 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                                 M[ic], f_c[ic], f_s[ic], n_modes, cutoff, sections,
                                 kGA=kGA_a[ic], rhoI=rhoI_a[ic])
         kept = su["kept"].sum(axis=1)
+        om = np.where(su["kept"], su["omega"], 0.0)  # left-out modes at rest (_run)
         t_end = _window(su, M[ic], mu[ic], L[ic], f_s[ic] + f_c[ic], F_y[ic], W[ic],
                         v0[ic], duration)
         for sel in _groups(kept, group):
             N = int(kept[sel].max())
-            # a case's modes left out (above its cut-off) are at rest with φ̃ = 0: their
-            # ω is set to 0 (a mode at rest, :func:`_contact_modes`), so that the group's
-            # longer prefix does not set this case's sampling (before stop 31 the
-            # contact phase's spacing took the group's highest ω, left-out modes
-            # included, and a point's peaks moved by up to 0.6 % with its company)
             run = _run(M=M[ic][sel], W=W[ic][sel], k=su["k"][sel], v0=v0[ic][sel],
-                       omega=np.where(su["kept"][sel], su["omega"][sel], 0.0)[:, :N],
-                       pt=su["pt"][sel][:, :N],
+                       omega=om[sel][:, :N], pt=su["pt"][sel][:, :N],
                        Wsec=np.concatenate([su["Wd"][sel][:, :N], su["Wm"][sel][:, :N],
                                             su["Wv"][sel][:, :N]], axis=2),
                        Rsec=np.concatenate([su["Rd"][sel], su["Rm"][sel], su["Rv"][sel]],
@@ -279,7 +273,10 @@ def _run(*, M: np.ndarray, W: np.ndarray, k: np.ndarray, v0: np.ndarray, omega: 
          s_y: np.ndarray, t_end: np.ndarray, T1: np.ndarray, sp: int,
          record: bool, fast: bool = False) -> dict:
     """Cases of one end condition with N kept modes (a prefix of ``omega``; modes not
-    kept have φ̃ = 0 and stay at rest): peaks by phases (see :func:`exact_time_history`).
+    kept have φ̃ = 0 and ω = 0 and stay at rest — with ω = 0 a case's left-out modes do
+    not set its sampling, where before stop 31 the contact phase's spacing took the
+    group's highest ω and a point's peaks moved by up to 0.6 % with its company): peaks
+    by phases (see :func:`exact_time_history`).
     ``Wsec`` (P, N, 3S) the sections' deflection, moment and shear per unit q̃ₙ,
     ``Rsec`` (P, 3S) their static correction per unit contact force. Rounds of
     :class:`_Integrator` until every case has ended."""
