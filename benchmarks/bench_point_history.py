@@ -44,6 +44,9 @@ class Stats:
         self.rounds = 0
         self.fallback = 0
         self.leapt = 0.0
+        self.t_choose = 0.0  # chain._point_histories (choosing + point_history)
+        self.t_amp = 0.0  # chain.amplification_at (the bounds + the histories)
+        self.t_tip = 0.0  # chain._tip_turns (the tip-off search of points not yet met)
 
 
 S = Stats()
@@ -98,6 +101,20 @@ def install() -> None:
         S.fallback += len(cond)
         return ref(cond, *a, **k)
 
+    def timed(name: str, attr: str):
+        fn = getattr(chain, name)
+
+        def wrapped(*a, **k):
+            t = time.perf_counter()
+            try:
+                return fn(*a, **k)
+            finally:
+                setattr(S, attr, getattr(S, attr) + time.perf_counter() - t)
+        setattr(chain, name, wrapped)
+
+    timed("_point_histories", "t_choose")
+    timed("amplification_at", "t_amp")
+    timed("_tip_turns", "t_tip")
     exacthistory._Integrator._cut = counted_cut  # type: ignore[method-assign]
     exacthistory.timehistory.time_history_batched = counted_ref  # type: ignore
     pointhistory.point_history = counted  # type: ignore[assignment]
@@ -161,6 +178,7 @@ def _histories(p_on, off: float, trials: bool) -> None:
         calls, points, pts, pt_h = S.calls, S.points, len(S.pts), len(S.pt_h)
         integrated, t_in, t_ex = len(S.modes), S.t, S.t_exact
         samples, rounds, fallback = S.samples.copy(), S.rounds, S.fallback
+        t_choose, t_amp, t_tip = S.t_choose, S.t_amp, S.t_tip
         t = time.perf_counter()
         analysis.analyse(p_on)  # again on the same floor: its histories kept
         again = time.perf_counter() - t
@@ -171,6 +189,14 @@ def _histories(p_on, off: float, trials: bool) -> None:
     print(f"  on with point histories ({where}): {hist:.2f} s ({hist / off:.1f} x off); "
           f"again on the same floor {again:.2f} s")
     if calls:
+        # the split of the run (amplification_at nests in the refinement's and the
+        # confirmation's chain runs; the tip-off search runs for points the run
+        # chooses that the runs before it had not met)
+        print(f"  split: integrator {t_ex:.2f} s, preparing the points (point_history "
+              f"less the integrator) {t_in - t_ex:.2f} s, choosing them (_point_histories "
+              f"less point_history) {t_choose - t_in:.2f} s, the bounds (amplification_at "
+              f"less _point_histories) {t_amp - t_choose:.2f} s, tip-off search of new "
+              f"points {t_tip:.2f} s, the rest {hist - t_amp - t_tip:.2f} s")
         print(f"  point_history calls {calls}, points run {points}, distinct points "
               f"{pts}, distinct (point, fall) {pt_h}, integrated {integrated} (the rest "
               f"from the cache); time in them {t_in:.2f} s (integrator {t_ex:.2f} s), "

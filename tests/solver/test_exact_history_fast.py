@@ -11,11 +11,11 @@ Sources:
 * Gere, *Mechanics of Materials* 7th ed., §9.10, Eq. 9-94: a mass dropped on a
   massless linear spring, K = 1 + √(1 + 2h/δst); h = 0 (suddenly applied) K = 2 — the
   load bounces clear and flies, so these cases run the leap.
-* Where the two runs may differ (exacthistory module docstring, "Bounded search"): the
-  parabola through the largest sample and its neighbours is applied to a round's
-  largest sample by the stepping run and to a piece's largest by the leap, so a peak
-  may differ by that refinement (within the sampling error); the tolerance is
-  ``exacthistory.FAST_TOLERANCE`` (1e-4 relative).
+* Where the two runs may differ (exacthistory module docstring, "Bounded search"): both
+  refine every sampled crest by its parabola, so the rounds' and pieces' edges do not
+  matter; a dead output's crest whose parabola would rise above its bound is refined
+  by the stepping run alone. The tolerance is ``exacthistory.FAST_TOLERANCE`` (1e-5
+  relative; measured 5e-13 here, 2.1e-7 on the demos' member cases).
 """
 
 from __future__ import annotations
