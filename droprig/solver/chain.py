@@ -3494,6 +3494,10 @@ class TwoForceKernel:
         # the points on a crushable layer (after_bottoming where it bottoms out)
         self.pad = pad_two_mass(c)[idx]
         self.F_c, self.s_c = inp.F_c[idx], inp.s_c[idx]
+        # per kernel row, bottoming_floor at the row's own load, where worked out
+        # (_have): it reads no height, so a height search works it out once a row
+        self._floor = np.zeros(idx.size)
+        self._have = np.zeros(idx.size, dtype=bool)
 
     def bottoming_fall(self) -> np.ndarray:
         """Per kernel row, the free fall (m) at which a crushable layer's crush depth
@@ -3623,12 +3627,28 @@ class TwoForceKernel:
             ab = after_bottoming(Wp[bot], hp[bot], F_c[bot], s_c[bot], f[bot],
                                  self.f_series[ib], self.f_s[ib], self.m2[ib],
                                  self.F_crush[ib], self.depth, env)
-            F[bot] = np.maximum(ab.F_frame, bottoming_floor(
-                Wp[bot], F_c[bot], s_c[bot], f[bot], ep[bot], self.f_series[ib],
-                self.f_s[ib], self.m2[ib]))
+            if mass:
+                floor = bottoming_floor(Wp[bot], F_c[bot], s_c[bot], f[bot], ep[bot],
+                                        self.f_series[ib], self.f_s[ib], self.m2[ib])
+            else:
+                floor = self._own_bottoming_floor(ib)
+            F[bot] = np.maximum(ab.F_frame, floor)
             Fd[bot] = np.where(self.soft[ib], ab.F_contact, ab.F_one)
         Ff[p], F_deck[p], eta_f[p] = F, Fd, ep
         return Ff, F_deck, eta_f
+
+    def _own_bottoming_floor(self, rows: np.ndarray) -> np.ndarray:
+        """:func:`bottoming_floor` (N) at the kernel ``rows`` with their own loads (W,
+        η of :meth:`forces`): the same function of the same per-row inputs, worked out
+        once a row and remembered (a height search asks for it at every round)."""
+        fresh = ~self._have[rows]
+        if fresh.any():
+            u = np.unique(rows[fresh])
+            self._floor[u] = bottoming_floor(self.W[u], self.F_c[u], self.s_c[u], self.f[u],
+                                             self.eta[u], self.f_series[u], self.f_s[u],
+                                             self.m2[u])
+            self._have[u] = True
+        return self._floor[rows]
 
     def _crush_capped(self, W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
                       F_crush: np.ndarray, F_el: np.ndarray) -> np.ndarray:
