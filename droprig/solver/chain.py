@@ -3833,24 +3833,22 @@ def _widen_bracket(run: _Excess, br: _Bracket, top: float) -> tuple[np.ndarray, 
     an all-failing one (to ~10⁻²⁰ m, then a zero fall). Returns the points that pass
     at ``top`` and those where even a zero fall fails."""
     up = (br.n_ok == br.nf) & (br.lo < top)
-    for _ in range(12):
-        if not up.any():
-            break
-        w = np.flatnonzero(up)
-        trial = np.minimum(br.lo[w] * 4.0, top)
-        br.pair[w] = np.nan
-        okw = br.take(w, trial, run(w, trial))
-        up[w] = okw & (trial < top)
-    unbounded = br.hi == 0.0  # passes at top
     down = br.n_ok == 0
-    for _ in range(32):
-        if not down.any():
+    # the points going up (at most 12 steps) and those going down (at most 32) are
+    # others (nf ≥ 1): both step in one run a round (each row's excess is its own)
+    for k in range(32):
+        if k == 12:
+            up[:] = False
+        if not (up.any() or down.any()):
             break
-        w = np.flatnonzero(down)
-        trial = br.hi[w] / 4.0
+        wu, wd = np.flatnonzero(up), np.flatnonzero(down)
+        w = np.concatenate([wu, wd])
+        trial = np.concatenate([np.minimum(br.lo[wu] * 4.0, top), br.hi[wd] / 4.0])
         br.pair[w] = np.nan
         okw = br.take(w, trial, run(w, trial))
-        down[w] = ~okw
+        up[wu] = okw[:wu.size] & (trial[:wu.size] < top)
+        down[wd] = ~okw[wu.size:]
+    unbounded = br.hi == 0.0  # passes at top
     none = np.zeros(br.lo.size, dtype=bool)
     if down.any():  # failing down to ~10⁻²⁰ m: does a zero fall pass?
         w = np.flatnonzero(down)
