@@ -260,6 +260,7 @@ class Chain:
         self.drop = drop
         self._by_type: dict[type, object] = {}
         self.history: list[object] = []
+        self._once: dict[Callable[[Chain], object], object] = {}
 
     def __getitem__(self, kind: type[S]) -> S:
         return cast(S, self._by_type[kind])
@@ -268,8 +269,18 @@ class Chain:
         return kind in self._by_type
 
     def add(self, result: object) -> None:
+        if type(result) in self._by_type:
+            self._once.clear()  # a result replaced: what was read from it is stale
         self._by_type[type(result)] = result
         self.history.append(result)
+
+    def once(self, fn: Callable[[Chain], S]) -> S:
+        """``fn(self)`` — a quantity read from the step results so far that more than
+        one step needs — worked out once per chain (again after a step replaces a
+        result). Callers must not write into what it returns."""
+        if fn not in self._once:
+            self._once[fn] = fn(self)
+        return cast(S, self._once[fn])
 
 
 # --------------------------------------------------------------------------- 1. inputs
@@ -3064,7 +3075,7 @@ def _structure_head(c: Chain, eta: np.ndarray) -> np.ndarray:
     R_p = c[SlabResistance].R
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
     h_struct = h.copy()
-    crush_ok = inp.crushable & (crushing_peak(c) < R_p) & imp.bottomed
+    crush_ok = inp.crushable & (c.once(crushing_peak) < R_p) & imp.bottomed
     with np.errstate(divide="ignore", invalid="ignore"):
         h_struct = np.where(crush_ok, np.maximum(h - (F_c - W) * s_c / (eta * W), 0.0),
                             h_struct)
@@ -3316,7 +3327,7 @@ def _plastic_height(c: Chain, eta: np.ndarray, h_el: np.ndarray,
         mu_tot = np.where(sr.slab_first, (R_p * f + d_slab) / (R_p * f), mu_tot)
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     # (the layer's work where the framing stays below R_p while it crushes)
-    h_pl = with_crush_energy(h_pl, crushable & (crushing_peak(c) < R_p), F_c, s_c, W, eta)
+    h_pl = with_crush_energy(h_pl, crushable & (c.once(crushing_peak) < R_p), F_c, s_c, W, eta)
     # the drop height that gives the structure that energy after amplification (A_δ²)
     # (the bounds' factor: a forward run at that height may not run the point's own
     # time history, and the bounds lie above it)
