@@ -253,8 +253,10 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
             fold[rows[only]] = delta[only]
             rows, delta, top, reach = rows[~only], delta[~only], top[~only], reach[~only]
 
-    if rows.size and kept is None:
-        # no kept steps to take: the tip-off rows ride in the ordinary run
+    if rows.size and kept is None and n + rows.size <= large_job_block():
+        # no kept steps to take: the tip-off rows ride in the ordinary run (a run no
+        # longer than a large job's block: the memory of a block in flight stays
+        # what LARGE_JOB_SHARE allows)
         out, tip, steps = _with_tip_rows(fm, project, loads, geo, li, rows, delta, fold, H,
                                          mat_k, v_hoist, trial, outcomes_only)
         if keep and mat_k is None:
