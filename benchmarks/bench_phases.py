@@ -16,11 +16,16 @@ bays' limits (:func:`droprig.solver.confirm._run`), the bay summaries
 For each phase: chain runs, rows (points × loads × landings: one row is one chain
 evaluation of one point, one load, one landing), and rows that repeat a row the
 analysis ran before (the same point, load, trial height, trial mat, landing, trial
-flag): repeated work a cache could skip. Wall times are means per analysis; the
+flag and case — the ordinary one or the tip-off with its Δ): repeated work a cache
+could skip (a trial's repeats within one run are run once already,
+:func:`droprig.solver.evaluate._distinct_rows`; before speed31 the key left out the
+case, and a point's two cases read as a repeat). Wall times are means per analysis; the
 wrappers add about 1 µs a call. The tip-off over a pad's edge: the rows of its own
-runs of the chain (``Drop.tip_off`` a Δ at every row) and their time, and the rows
-folded into the ordinary runs (``Drop.tip_off`` NaN at the other rows; the rows
-whose only case is the tip-off, :func:`droprig.solver.evaluate._outputs`).
+runs of the chain (``Drop.tip_off`` a Δ at every row: runs that take kept
+height-free steps) and their time, and the rows riding in the ordinary runs
+(``Drop.tip_off`` NaN at the other rows: the rows whose only case is the tip-off,
+and the second case of the others where no steps are kept,
+:func:`droprig.solver.evaluate._outputs`).
 """
 
 from __future__ import annotations
@@ -90,8 +95,12 @@ def _row_keys(d: chain.Drop) -> list[tuple]:
     # never be found again)
     Hk = [None if h != h else h for h in H.tolist()]
     mkk = [None if m != m else m for m in mk.tolist()]
+    # the case of the row: the tip-off's Δ, None the ordinary case (a point's two
+    # cases are two rows, not a repeat)
+    tip = [None] * d.n if d.tip_off is None else [
+        None if t != t else t for t in np.asarray(d.tip_off, float).tolist()]
     return [(float(g.x[i]), float(g.y[i]), load_ids[int(li[i])], Hk[i], mkk[i],
-             d.landing, d.trial, d.outcomes_only, d.v_hoist)
+             d.landing, d.trial, d.outcomes_only, d.v_hoist, tip[i])
             for i in range(d.n)]
 
 
@@ -183,7 +192,7 @@ def main(argv: list[str] | None = None) -> None:
         print(f"\n{path.stem}: {wall / n * 1e3:.1f} ms per analysis "
               f"({cpu / n * 1e3:.1f} ms of this process's CPU time: a shared machine)")
         print(f"  tip-off over a pad's edge: its own runs {P.tip_rows} rows, "
-              f"{tip_T / n * 1e3:.1f} ms; folded into the ordinary runs {P.fold_rows} rows")
+              f"{tip_T / n * 1e3:.1f} ms; in the ordinary runs {P.fold_rows} rows")
         print(f"  {'phase':18s} {'ms':>7s} {'inverse ms':>10s} {'runs':>5s} "
               f"{'rows':>7s} {'repeated':>8s}")
         other = wall - sum(tot[p] for p in PHASES)

@@ -260,6 +260,7 @@ class Chain:
         self.drop = drop
         self._by_type: dict[type, object] = {}
         self.history: list[object] = []
+        self._once: dict[Callable[[Chain], object], object] = {}
 
     def __getitem__(self, kind: type[S]) -> S:
         return cast(S, self._by_type[kind])
@@ -268,8 +269,18 @@ class Chain:
         return kind in self._by_type
 
     def add(self, result: object) -> None:
+        if type(result) in self._by_type:
+            self._once.clear()  # a result replaced: what was read from it is stale
         self._by_type[type(result)] = result
         self.history.append(result)
+
+    def once(self, fn: Callable[[Chain], S]) -> S:
+        """``fn(self)`` — a quantity read from the step results so far that more than
+        one step needs — worked out once per chain (again after a step replaces a
+        result). Callers must not write into what it returns."""
+        if fn not in self._once:
+            self._once[fn] = fn(self)
+        return cast(S, self._once[fn])
 
 
 # --------------------------------------------------------------------------- 1. inputs
@@ -3109,7 +3120,7 @@ def _structure_head(c: Chain, eta: np.ndarray) -> np.ndarray:
     R_p = c[SlabResistance].R
     # energy beyond yield: structure alone (mat compliance and crushed stroke removed)
     h_struct = h.copy()
-    crush_ok = inp.crushable & (crushing_peak(c) < R_p) & imp.bottomed
+    crush_ok = inp.crushable & (c.once(crushing_peak) < R_p) & imp.bottomed
     with np.errstate(divide="ignore", invalid="ignore"):
         h_struct = np.where(crush_ok, np.maximum(h - (F_c - W) * s_c / (eta * W), 0.0),
                             h_struct)
@@ -3361,7 +3372,7 @@ def _plastic_height(c: Chain, eta: np.ndarray, h_el: np.ndarray,
         mu_tot = np.where(sr.slab_first, (R_p * f + d_slab) / (R_p * f), mu_tot)
     h_pl = plastic.allowable_height_plastic(W, eta, R_p, R_p * f, mu_tot)
     # (the layer's work where the framing stays below R_p while it crushes)
-    h_pl = with_crush_energy(h_pl, crushable & (crushing_peak(c) < R_p), F_c, s_c, W, eta)
+    h_pl = with_crush_energy(h_pl, crushable & (c.once(crushing_peak) < R_p), F_c, s_c, W, eta)
     # the drop height that gives the structure that energy after amplification (A_δ²)
     # (the bounds' factor: a forward run at that height may not run the point's own
     # time history, and the bounds lie above it)
@@ -3539,6 +3550,10 @@ class TwoForceKernel:
         # the points on a crushable layer (after_bottoming where it bottoms out)
         self.pad = pad_two_mass(c)[idx]
         self.F_c, self.s_c = inp.F_c[idx], inp.s_c[idx]
+        # per kernel row, bottoming_floor at the row's own load, where worked out
+        # (_have): it reads no height, so a height search works it out once a row
+        self._floor = np.zeros(idx.size)
+        self._have = np.zeros(idx.size, dtype=bool)
 
     def bottoming_fall(self) -> np.ndarray:
         """Per kernel row, the free fall (m) at which a crushable layer's crush depth
@@ -3668,12 +3683,28 @@ class TwoForceKernel:
             ab = after_bottoming(Wp[bot], hp[bot], F_c[bot], s_c[bot], f[bot],
                                  self.f_series[ib], self.f_s[ib], self.m2[ib],
                                  self.F_crush[ib], self.depth, env)
-            F[bot] = np.maximum(ab.F_frame, bottoming_floor(
-                Wp[bot], F_c[bot], s_c[bot], f[bot], ep[bot], self.f_series[ib],
-                self.f_s[ib], self.m2[ib]))
+            if mass:
+                floor = bottoming_floor(Wp[bot], F_c[bot], s_c[bot], f[bot], ep[bot],
+                                        self.f_series[ib], self.f_s[ib], self.m2[ib])
+            else:
+                floor = self._own_bottoming_floor(ib)
+            F[bot] = np.maximum(ab.F_frame, floor)
             Fd[bot] = np.where(self.soft[ib], ab.F_contact, ab.F_one)
         Ff[p], F_deck[p], eta_f[p] = F, Fd, ep
         return Ff, F_deck, eta_f
+
+    def _own_bottoming_floor(self, rows: np.ndarray) -> np.ndarray:
+        """:func:`bottoming_floor` (N) at the kernel ``rows`` with their own loads (W,
+        η of :meth:`forces`): the same function of the same per-row inputs, worked out
+        once a row and remembered (a height search asks for it at every round)."""
+        fresh = ~self._have[rows]
+        if fresh.any():
+            u = np.unique(rows[fresh])
+            self._floor[u] = bottoming_floor(self.W[u], self.F_c[u], self.s_c[u], self.f[u],
+                                             self.eta[u], self.f_series[u], self.f_s[u],
+                                             self.m2[u])
+            self._have[u] = True
+        return self._floor[rows]
 
     def _crush_capped(self, W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
                       F_crush: np.ndarray, F_el: np.ndarray) -> np.ndarray:
@@ -3858,24 +3889,22 @@ def _widen_bracket(run: _Excess, br: _Bracket, top: float) -> tuple[np.ndarray, 
     an all-failing one (to ~10⁻²⁰ m, then a zero fall). Returns the points that pass
     at ``top`` and those where even a zero fall fails."""
     up = (br.n_ok == br.nf) & (br.lo < top)
-    for _ in range(12):
-        if not up.any():
-            break
-        w = np.flatnonzero(up)
-        trial = np.minimum(br.lo[w] * 4.0, top)
-        br.pair[w] = np.nan
-        okw = br.take(w, trial, run(w, trial))
-        up[w] = okw & (trial < top)
-    unbounded = br.hi == 0.0  # passes at top
     down = br.n_ok == 0
-    for _ in range(32):
-        if not down.any():
+    # the points going up (at most 12 steps) and those going down (at most 32) are
+    # others (nf ≥ 1): both step in one run a round (each row's excess is its own)
+    for k in range(32):
+        if k == 12:
+            up[:] = False
+        if not (up.any() or down.any()):
             break
-        w = np.flatnonzero(down)
-        trial = br.hi[w] / 4.0
+        wu, wd = np.flatnonzero(up), np.flatnonzero(down)
+        w = np.concatenate([wu, wd])
+        trial = np.concatenate([np.minimum(br.lo[wu] * 4.0, top), br.hi[wd] / 4.0])
         br.pair[w] = np.nan
         okw = br.take(w, trial, run(w, trial))
-        down[w] = ~okw
+        up[wu] = okw[:wu.size] & (trial[:wu.size] < top)
+        down[wd] = ~okw[wu.size:]
+    unbounded = br.hi == 0.0  # passes at top
     none = np.zeros(br.lo.size, dtype=bool)
     if down.any():  # failing down to ~10⁻²⁰ m: does a zero fall pass?
         w = np.flatnonzero(down)

@@ -253,6 +253,23 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
             fold[rows[only]] = delta[only]
             rows, delta, top, reach = rows[~only], delta[~only], top[~only], reach[~only]
 
+    if rows.size and kept is None and n + rows.size <= large_job_block():
+        # no kept steps to take: the tip-off rows ride in the ordinary run (a run no
+        # longer than a large job's block: the memory of a block in flight stays
+        # what LARGE_JOB_SHARE allows)
+        out, tip, steps = _with_tip_rows(fm, project, loads, geo, li, rows, delta, fold, H,
+                                         mat_k, v_hoist, trial, outcomes_only)
+        if keep and mat_k is None:
+            # the ordinary rows' (the first n of the run's)
+            geo.cache["steps"] = KeptSteps.of(loads, li[np.r_[np.arange(n), rows]],
+                                              steps).per_point(lambda a: a[:n])
+        merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip, top,
+                                         reach)
+        for k, v in merged.items():
+            out[k] = out[k].copy()
+            out[k][rows] = v
+        return out
+
     def run(landing: str) -> dict[str, np.ndarray]:
         given = kept.given(loads, li, landing, mat_k) if kept is not None else None
         c = run_chain(Drop(fm, project, geo, loads, li, False, H, mat_k, v_hoist=v_hoist,
@@ -276,6 +293,52 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
             out[k] = out[k].copy()
             out[k][rows] = v
     return out
+
+
+def _with_tip_rows(fm: FloorModel, project: Project, loads: tuple[LiftLoad, ...],
+                   geo: Geometry, li: np.ndarray, rows: np.ndarray, delta: np.ndarray,
+                   fold: np.ndarray | None, H: np.ndarray | None, mat_k: np.ndarray | None,
+                   v_hoist: float, trial: bool, outcomes_only: bool
+                   ) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray],
+                              dict[str, dict[type, object]]]:
+    """The ordinary run at every point of ``geo`` and the tip-off case at its points
+    ``rows`` (Δ ``delta``, m) in one run of the chain: the ``rows`` repeated after the
+    ``n`` points, ``Drop.tip_off`` Δ there and ``fold`` (NaN: the ordinary case) at
+    the points (:func:`~droprig.solver.chain._folded_inputs`). Every step works row
+    by row, so each row's numbers are those of a run of its case alone
+    (:func:`_outputs`, :func:`_tip_off_run`: the plain form, two runs); one run
+    instead of two halves the searches' rounds (each round's cost is mostly fixed).
+    Returns the ordinary outputs (n rows) and the tip-off's (``rows``), each the flat
+    landing or both merged, and the run's height-free steps by landing (the n points,
+    then ``rows``)."""
+    n = geo.x.size
+    # the load-independent actions and masses worked out on geo itself (kept with it
+    # for later runs at its points) and taken along to the longer run
+    unit_actions(fm, geo)
+    point_masses(fm, geo)
+    both = np.r_[np.arange(n), rows]
+    g2 = take_geo(geo, both, steps=False)
+    tip_all = np.full(n, np.nan) if fold is None else np.asarray(fold, float)
+    tip_all = np.r_[tip_all, delta]
+
+    def pick(a: np.ndarray | None) -> np.ndarray | None:
+        return None if a is None else np.asarray(a)[both]
+
+    by_landing: dict[str, dict[type, object]] = {}
+
+    def run(landing: str) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray]]:
+        c = run_chain(Drop(fm, project, g2, loads, li[both], False, pick(H), pick(mat_k),
+                           v_hoist=v_hoist, landing=landing, trial=trial,
+                           outcomes_only=outcomes_only, tip_off=tip_all))
+        by_landing[landing] = {t: c[t] for t in HEIGHT_FREE.values() if t in c}
+        o = outputs(c)
+        return {k: v[:n] for k, v in o.items()}, {k: v[n:] for k, v in o.items()}
+
+    out, tip = run("flat")
+    if fm.settings.tilted_landing:
+        out_t, tip_t = run("tilted")
+        out, tip = merge_landings(out, out_t), merge_landings(tip, tip_t)
+    return out, tip, by_landing
 
 
 def _tip_off_run(fm: FloorModel, project: Project, loads: tuple[LiftLoad, ...],
@@ -326,6 +389,18 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
     chunk = loadpath_chunk()
     with np.errstate(all="ignore"):
         if n <= chunk:
+            if trial and not keep:
+                once = _distinct_rows(geo, load_index, H, mat_k)
+                if once is not None:
+                    # a trial's repeated rows (the same point, load, height and mat)
+                    # run once: every step works row by row
+                    u, back = once
+                    r = _outputs(fm, project, load, take_geo(geo, u),
+                                 None if load_index is None else np.asarray(load_index)[u],
+                                 None if H is None else np.asarray(H)[u],
+                                 None if mat_k is None else np.asarray(mat_k)[u], v_hoist,
+                                 trial, False, outcomes_only)
+                    return {k: v[back] for k, v in r.items()}
             return _outputs(fm, project, load, geo, load_index, H, mat_k, v_hoist, trial,
                             keep, outcomes_only)
 
@@ -349,6 +424,37 @@ def evaluate_case(fm: FloorModel, project: Project, load: LiftLoad | Sequence[Li
                          None if mat_k is None else mat_k[:1], v_hoist, trial,
                          outcomes_only=outcomes_only)
         return _blockwise(n, 1, chunk, block, probe)
+
+
+DISTINCT_SHARE = 0.97
+"""A trial run's rows are run once each (:func:`_distinct_rows`) where at most this
+share of them is distinct: below 3 % repeats the taking of the rows costs about what
+it saves."""
+
+
+def _distinct_rows(geo: Geometry, load_index: np.ndarray | None, H: np.ndarray | None,
+                   mat_k: np.ndarray | None) -> tuple[np.ndarray, np.ndarray] | None:
+    """The rows of a run that differ in what the chain reads of a row — the point (x,
+    y, its bay, protection and opening), the load index, the trial height ``H`` and
+    mat ``mat_k`` — as ``(u, back)``: ``u`` the first row of each kind, in order, and
+    ``back`` per row its position in ``u`` (row i's outputs are those of row
+    ``u[back[i]]``); ``None`` where more than :data:`DISTINCT_SHARE` of the rows are
+    distinct. Equal rows are equal bit for bit (the same geometry of the same point)."""
+    n = geo.x.size
+    cols = [geo.x, geo.y, np.asarray(geo.bay, float), np.asarray(geo.protection, float),
+            np.asarray(geo.opening, float)]
+    for a in (load_index, H, mat_k):
+        if a is not None:
+            cols.append(np.asarray(a, float))
+    rows = np.ascontiguousarray(np.stack(cols, axis=1))
+    keys = rows.view(np.dtype((np.void, rows.dtype.itemsize * rows.shape[1]))).ravel()
+    _, first, inv = np.unique(keys, return_index=True, return_inverse=True)
+    if first.size > DISTINCT_SHARE * n:
+        return None
+    order = np.argsort(first)
+    rank = np.empty_like(order)
+    rank[order] = np.arange(order.size)
+    return first[order], rank[inv.ravel()]
 
 
 def _blockwise(n: int, n_sets: int, chunk: int,
