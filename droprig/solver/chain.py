@@ -1659,7 +1659,7 @@ def closing_height(h_r: np.ndarray, F_c: np.ndarray, f_s: np.ndarray,
     on random bottoming systems and 0.92–1.0 × on the rooftop demo's rows; with the
     floor's speed and the layer's force F_c added, :func:`after_bottoming`, never below
     it on 14,000 systems and demo rows: scripts/bottoming_ratios.py,
-    tests/solver/test_after_bottoming_exact.py)."""
+    tests/solver/test_after_bottoming.py)."""
     with np.errstate(divide="ignore", invalid="ignore"):
         v2 = np.where(m2 > 0.0, F_c * np.sqrt(f_s / m2), 0.0)
     v = np.sqrt(2.0 * impact_mod.G * np.maximum(h_r, 0.0)) + v2
