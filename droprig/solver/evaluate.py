@@ -263,12 +263,7 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
             # the ordinary rows' (the first n of the run's)
             geo.cache["steps"] = KeptSteps.of(loads, li[np.r_[np.arange(n), rows]],
                                               steps).per_point(lambda a: a[:n])
-        merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip, top,
-                                         reach)
-        for k, v in merged.items():
-            out[k] = out[k].copy()
-            out[k][rows] = v
-        return out
+        return _merged_tip_rows(out, rows, tip, top, reach)
 
     def run(landing: str) -> dict[str, np.ndarray]:
         given = kept.given(loads, li, landing, mat_k) if kept is not None else None
@@ -287,11 +282,20 @@ def _outputs(fm: FloorModel, project: Project, load: LiftLoad | Sequence[LiftLoa
     if rows.size:
         tip = _tip_off_run(fm, project, loads, geo, li, rows, delta, H, mat_k, v_hoist,
                            trial, outcomes_only)
-        merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip, top,
-                                         reach)
-        for k, v in merged.items():
-            out[k] = out[k].copy()
-            out[k][rows] = v
+        out = _merged_tip_rows(out, rows, tip, top, reach)
+    return out
+
+
+def _merged_tip_rows(out: dict[str, np.ndarray], rows: np.ndarray,
+                     tip: dict[str, np.ndarray], top: np.ndarray, reach: np.ndarray
+                     ) -> dict[str, np.ndarray]:
+    """``out`` with its ``rows`` replaced by their merge with the tip-off case ``tip``
+    (:func:`droprig.solver.chain.merge_tip_off`; ``top``, ``reach`` as there); the
+    arrays changed are copies, ``out``'s own are not written into."""
+    merged = chain_mod.merge_tip_off({k: v[rows] for k, v in out.items()}, tip, top, reach)
+    for k, v in merged.items():
+        out[k] = out[k].copy()
+        out[k][rows] = v
     return out
 
 
