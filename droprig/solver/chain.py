@@ -1666,19 +1666,30 @@ def closing_height(h_r: np.ndarray, F_c: np.ndarray, f_s: np.ndarray,
     return v * v / (2.0 * impact_mod.G)
 
 
+def crush_capped(W: np.ndarray, h: np.ndarray, f: np.ndarray, eta: np.ndarray,
+                 F_crush: np.ndarray, F_el: np.ndarray, depth_available: float) -> np.ndarray:
+    """The one-mass force (N): the elastic ``F_el`` (Gere 7th ed. §9.10 Eq. 9-94 at the
+    energy heights ``h``, m, compliance f, m/N, energy share η) where it stays below the
+    surface's crushing force F_crush (N), else the crushing-limited impact
+    (:func:`droprig.solver.crushing.crushing_limited_impact`, crushed no deeper than
+    ``depth_available``, m), as :func:`impact_at` caps it. ``F_el`` itself where
+    nothing is capped: callers must not write into the result."""
+    cap = F_el > F_crush
+    if not cap.any():
+        return F_el
+    F1 = F_el.copy()
+    F1[cap], _, _ = crushing.crushing_limited_impact(W[cap], h[cap], f[cap], eta[cap],
+                                                     F_crush[cap], depth_available)
+    return F1
+
+
 def _one_mass_capped(W: np.ndarray, h: np.ndarray, f: np.ndarray, F_crush: np.ndarray,
                      depth_available: float) -> np.ndarray:
     """The one-mass force (N) of the energy heights ``h`` (m) on the compliance f
-    (m/N, η = 1, Gere 7th ed. §9.10 Eq. 9-94), crushing-limited above F_crush
-    (:func:`droprig.solver.crushing.crushing_limited_impact`)."""
+    (m/N, η = 1), crushing-limited above F_crush (:func:`crush_capped`)."""
     one = np.ones(W.shape)
     _, F_el, _ = impact_mod.impact_elastic(W, h, f, one)
-    F1 = F_el.copy()
-    cap = F_el > F_crush
-    if cap.any():
-        F1[cap], _, _ = crushing.crushing_limited_impact(W[cap], h[cap], f[cap], one[cap],
-                                                         F_crush[cap], depth_available)
-    return F1
+    return crush_capped(W, h, f, one, F_crush, F_el, depth_available)
 
 
 def after_bottoming(W: np.ndarray, h: np.ndarray, F_c: np.ndarray, s_c: np.ndarray,
@@ -3623,7 +3634,7 @@ class TwoForceKernel:
         e = eta * he
         ratio = np.where(e <= 0.0, 0.0, 2.0 * e / (W * f))
         F_el = (1.0 + np.sqrt(1.0 + ratio)) * W
-        F1 = self._crush_capped(W, he, f, eta, F_crush, F_el)
+        F1 = crush_capped(W, he, f, eta, F_crush, F_el, self.depth)
         Fc2, Ff2 = self.env.at(he, rows)
         return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta)
 
@@ -3644,7 +3655,7 @@ class TwoForceKernel:
             Wq, eq, hq = W[q], eta[q], he[q]
             f, F_crush = self.f[sub], self.F_crush[sub]
             _, F_el, _ = impact_mod.impact_elastic(Wq, hq, f, eq)
-            F1 = self._crush_capped(Wq, hq, f, eq, F_crush, F_el)
+            F1 = crush_capped(Wq, hq, f, eq, F_crush, F_el, self.depth)
             Fc2, Ff2 = struck_mass_mod.envelope_two_forces(Wq, hq, self.f_series[sub],
                                                            self.f_s[sub], self.m2[sub])
             Ff[q], F_deck[q], eta_f[q] = self._caps(Wq, hq, f, eq, F_crush, F1, Fc2, Ff2,
@@ -3705,20 +3716,6 @@ class TwoForceKernel:
                                              self.m2[u])
             self._have[u] = True
         return self._floor[rows]
-
-    def _crush_capped(self, W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
-                      F_crush: np.ndarray, F_el: np.ndarray) -> np.ndarray:
-        """The one-mass force (N): the elastic ``F_el`` where it stays below the
-        surface's crushing force, else the crushing-limited impact
-        (:func:`droprig.solver.crushing.crushing_limited_impact`), as :func:`impact_at`."""
-        cap = F_el > F_crush
-        if not cap.any():
-            return F_el
-        Fb, _, _ = crushing.crushing_limited_impact(W[cap], he[cap], f[cap], eta[cap],
-                                                    F_crush[cap], self.depth)
-        F1 = F_el.copy()
-        F1[cap] = Fb
-        return F1
 
     @staticmethod
     def _caps(W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
