@@ -1322,6 +1322,12 @@ class Impact:
         return self.F if self.F_contact is None else self.F_contact
 
     @property
+    def deck(self) -> np.ndarray:
+        """The deck's force (N, what its flexure and punching take): ``F_deck``, or
+        ``F`` where one force."""
+        return self.F if self.F_deck is None else self.F_deck
+
+    @property
     def contact_ratio(self) -> np.ndarray:
         """F_contact / F (1 where one force or F is 0 or not finite)."""
         return self._ratio(self.F_contact)
@@ -3509,7 +3515,7 @@ def two_force_utilisation_at(c: Chain, h: np.ndarray,
     imp0 = c[Impact]
     imp = impact_at(c, h, sel)
     A0 = imp0.deck_ratio
-    F_deck = imp.F if imp.F_deck is None else imp.F_deck
+    F_deck = imp.deck
     U = np.zeros(c.drop.n)
     for name, chk in c[Demands].checks.items():
         Fx = F_deck / A0 if name in CONTACT_CHECKS else imp.F

@@ -301,7 +301,7 @@ def _local_force(chain: Chain, amplified: bool) -> tuple[float, float]:
 
     imp = chain[Impact]
     deck = "deck_punching" in chain[Demands].checks
-    F = float((imp.F_deck if deck and imp.F_deck is not None else imp.F)[0])
+    F = float((imp.deck if deck else imp.F)[0])
     if not amplified:
         return F, 1.0
     da = chain[DynamicAmplification]
