@@ -2269,8 +2269,14 @@ def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
     # tables' mass, so this force is at least the calibration's energy method's)
     _, F_ref, _ = impact_mod.impact_elastic(inp.W, h, f_beyond, sm.eta)
     # the crushing cap — the layer's, or the deck concrete's — and its stroke
-    F_cap = np.where(crushable, inp.F_c, imp.F_cap)
-    stroke = np.where(crushable, inp.s_c, imp.cap_depth)
+    # (the deck's crushing, not the web's cap, Impact.F_cap: the tables were
+    # calibrated on a linear contact and are used only where their contact stays
+    # below this force, amp_mod.amplified_forces; against the web's lower cap they
+    # dropped out at hard points and the fallback bounds read higher — a rooftop
+    # demo bay's U 16.4 → 30.1 — so the bounds keep the higher, deck's force:
+    # each is still an upper bound of the history, which itself takes F_cap)
+    F_cap = np.where(crushable, inp.F_c, imp.F_crush)
+    stroke = np.where(crushable, inp.s_c, crush_depth_available(c))
     holds = amp_mod.crush_depth_bound(inp.W, h, f_beyond, F_cap) <= stroke
     # the most energy the drop can put into the framing, as a static force at the
     # struck point (bounds member moment and deflection however stiff the contact);

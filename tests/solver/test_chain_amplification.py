@@ -97,11 +97,8 @@ def test_on_checks_use_the_amplified_force() -> None:
         assert key.any() and not key.all()  # both kinds of point are exercised
         from droprig.solver import impact as impact_mod
         _, F_ref, _ = impact_mod.impact_elastic(inp.W, inp.h, f_b, sm.eta)
-        # the cap on the force into the framing: the deck's crushing over its cover,
-        # or the web's local yielding under the contact over the flange's thickness
-        # (chain.web_contact_bound), whichever is less
-        F_cap = np.where(inp.crushable, inp.F_c, imp.F_cap)
-        stroke = np.where(inp.crushable, inp.s_c, imp.cap_depth)
+        F_cap = np.where(inp.crushable, inp.F_c, imp.F_crush)
+        stroke = np.where(inp.crushable, inp.s_c, c1.drop.fm.level.deck.cover)
         holds = amplification.crush_depth_bound(inp.W, inp.h, f_b, F_cap) <= stroke
         # the member energy bound (energy conservation; minimum potential energy)
         F_low = np.where(inp.crushable, np.fmin(inp.F_c, imp.F_crush), F_cap)
