@@ -1865,21 +1865,33 @@ def web_contact_bound(c: Chain) -> tuple[np.ndarray, np.ndarray]:
     takes (:func:`bare_flange_bound`: a dent deeper than the flange folds it and
     the web cripples, AISC 360-16 J10.3's mechanism); past that the rest of the
     energy is taken elastically (conservative). Deck-less (one member: its
-    :func:`bare_flange_bound` is already this mechanism) and steel decks (no
-    flange share worked out): ∞."""
+    :func:`bare_flange_bound` is already this mechanism), steel decks (no
+    flange share worked out) and soft contacts (a declared underside, a mat or a
+    crushable layer under the load: the deck's bound, conservative): ∞."""
     d, inp = c.drop, c[LoadInputs]
     fm, n = d.fm, d.n
     lv = fm.level
     none = (np.full(n, np.inf), np.zeros(n))
-    if d.bare is not None or lv.deck.is_steel or n == 0:
+    # a hard contact only (no declared underside, no mat or layer under the load):
+    # there the idealised contact spring drives the contact force to MN; a soft
+    # contact keeps the deck's bound (∞ here: conservative, and no cost)
+    hard = ~inp.protected & ~(np.asarray(inp.f_load) > 0.0)
+    if d.bare is not None or lv.deck.is_steel or n == 0 or not hard.any():
+        return none
+    # the share that bears on the flanges directly; only where it is not nil is the
+    # web's resistance worked out (the rest of the points: ∞)
+    direct = 1.0 - c.once(slab_share_at)
+    pts = np.flatnonzero(hard & (direct > 0.0))
+    if pts.size == 0:
         return none
     path = d.geo.path
-    memT = np.ascontiguousarray(path.members.T)
-    shareT = np.abs(np.ascontiguousarray(path.share.T))
-    aT = np.ascontiguousarray(path.a.T)
+    memT = np.ascontiguousarray(path.members[pts].T)
+    shareT = np.abs(np.ascontiguousarray(path.share[pts].T))
+    aT = np.ascontiguousarray(path.a[pts].T)
     LT = fm.frame.L[memT]
-    dist = np.maximum(np.minimum(aT, LT - aT) - 0.5 * inp.lb, 0.0)
-    lb_pts = np.broadcast_to(inp.lb, memT.shape)
+    lb = inp.lb[pts]
+    dist = np.maximum(np.minimum(aT, LT - aT) - 0.5 * lb, 0.0)
+    lb_pts = np.broadcast_to(lb, memT.shape)
     (R,) = web_resistances(fm, (capacity.web_contact_resistance,), memT, lb_pts, dist)
     # within a section depth of a member's end the load increasingly bears on the
     # support itself (the column's or girder's): the web mechanism between load and
@@ -1894,15 +1906,14 @@ def web_contact_bound(c: Chain) -> tuple[np.ndarray, np.ndarray]:
     with np.errstate(divide="ignore", invalid="ignore"):
         fa = np.where(on, R / np.where(on, shareT * t_end, 1.0), np.inf)
     j = np.argmin(fa, axis=0)
-    cols = np.arange(n)
+    cols = np.arange(pts.size)
     F_allow = fa[j, cols]
-    _share, Ly, yb = two_way_share(c)
-    direct = 1.0 - slab_share(c, np.minimum(yb, Ly - yb))
-    ok = (direct > 0.0) & np.isfinite(F_allow)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        F_web = np.where(ok, F_allow / np.where(ok, direct, 1.0), np.inf)
+    ok = np.isfinite(F_allow)
+    F_web, depth_out = none
+    F_web[pts] = np.where(ok, F_allow / direct[pts], np.inf)
     tf = np.array([sec.tf for sec, _ in fm.groups])  # type: ignore[attr-defined]
-    return F_web, np.where(ok, tf[grpT[j, cols]], 0.0)
+    depth_out[pts] = np.where(ok, tf[grpT[j, cols]], 0.0)
+    return F_web, depth_out
 
 
 # --------------------------------------------------------------------------- 5. demands
@@ -2878,7 +2889,16 @@ def punching_near_support(c: Chain, ey: np.ndarray) -> np.ndarray:
     half = 0.5 * np.minimum(inp.foot_l, inp.foot_w)
     a_v = np.minimum(ex, ey) - half
     beta = np.clip(a_v / (2.0 * dd), 0.25, 1.0)
-    return slab_share(c, ey) * beta
+    # σ at the girder distance of two_way_share — the ey demands passes — worked out
+    # once per chain (web_contact_bound reads it too)
+    return c.once(slab_share_at) * beta
+
+
+def slab_share_at(c: Chain) -> np.ndarray:
+    """:func:`slab_share` at each point's distance to the nearer girder line
+    (:func:`two_way_share`'s y and Ly, as :func:`demands` takes it)."""
+    _share, Ly, yb = two_way_share(c)
+    return slab_share(c, np.minimum(yb, Ly - yb))
 
 
 def slab_share(c: Chain, ey: np.ndarray) -> np.ndarray:
