@@ -1850,9 +1850,9 @@ def web_contact_bound(c: Chain) -> tuple[np.ndarray, np.ndarray]:
     checks' demand, ``path.share``), and the part 1 − σ of the force bears on the
     flanges directly (σ: :func:`slab_share`, the rest reaches the members through
     the slab, spread along them); the web under the contact therefore yields once
-    F·(1 − σ)·share_m = R_m:
+    F·(1 − σ)·share_m = R_m, first at the member m taking the most of it:
 
-        F_web = min_m R_m / |share_m| / (1 − σ)        (∞ where 1 − σ = 0)
+        F_web = R_m / |share_m| / (1 − σ)        (∞ where 1 − σ = 0)
 
     at or above the web yielding check's allowed force (1 − σ ≤ 1, R_m at or above
     the check's resistance), so that wherever the force reaches F_web the web check
@@ -1891,8 +1891,6 @@ def web_contact_bound(c: Chain) -> tuple[np.ndarray, np.ndarray]:
     LT = fm.frame.L[memT]
     lb = inp.lb[pts]
     dist = np.maximum(np.minimum(aT, LT - aT) - 0.5 * lb, 0.0)
-    lb_pts = np.broadcast_to(lb, memT.shape)
-    (R,) = web_resistances(fm, (capacity.web_contact_resistance,), memT, lb_pts, dist)
     # within a section depth of a member's end the load increasingly bears on the
     # support itself (the column's or girder's): the web mechanism between load and
     # support shortens to nothing at the end, so the cap is faded out there,
@@ -1902,13 +1900,19 @@ def web_contact_bound(c: Chain) -> tuple[np.ndarray, np.ndarray]:
     grpT = fm.group[np.where(memT >= 0, memT, 0)] if ng > 1 else np.zeros(memT.shape, int)
     depth = np.array([sec.d for sec, _ in fm.groups])  # type: ignore[attr-defined]
     t_end = np.clip(dist / depth[grpT], 0.0, 1.0)
-    on = (memT >= 0) & (shareT > 0.0) & (t_end > 0.0)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        fa = np.where(on, R / np.where(on, shareT * t_end, 1.0), np.inf)
-    j = np.argmin(fa, axis=0)
+    weight = np.where(memT >= 0, shareT * t_end, 0.0)
+    # the member that takes the most of the force at its web (largest share·t): its
+    # web yields first but for a difference of resistance between members; the
+    # others' (higher caps as their share is less) are not worked out — a cap no
+    # lower than the least over the members, so conservative
+    j = np.argmax(weight, axis=0)
     cols = np.arange(pts.size)
-    F_allow = fa[j, cols]
-    ok = np.isfinite(F_allow)
+    mem, w = memT[j, cols], weight[j, cols]
+    (R,) = web_resistances(fm, (capacity.web_contact_resistance,), mem[None, :],
+                           lb[None, :], dist[j, cols][None, :])
+    ok = w > 0.0
+    with np.errstate(divide="ignore", invalid="ignore"):
+        F_allow = np.where(ok, R[0] / np.where(ok, w, 1.0), np.inf)
     F_web, depth_out = none
     F_web[pts] = np.where(ok, F_allow / direct[pts], np.inf)
     tf = np.array([sec.tf for sec, _ in fm.groups])  # type: ignore[attr-defined]
