@@ -292,6 +292,31 @@ def flange_contact_force_bound(section: Section, grade: Grade, bearing: ArrayLik
     return grade.fu * section.tw * (np.where(interior, 5.0 * k, 2.5 * k) + np.maximum(lb, 0.0))
 
 
+def web_contact_resistance(section: Section, grade: Grade, basis: Basis, bearing: ArrayLike,
+                           dist_to_end: ArrayLike, phi: float = 1.0,
+                           dif: float = 1.0) -> np.ndarray:
+    """Upper estimate of the force a member's web passes under a concentrated load on
+    its top flange before it yields locally, N: the larger of
+    :func:`flange_contact_force_bound` (AISC 360-16 J10.2's mechanism, Eq. J10-2/J10-3,
+    at the tensile strength Fu: Fu·tw·(5k + lb), or 2.5k + lb within d of the end)
+    and the web local yielding check's own resistance (:func:`web_local_yielding`
+    with the project's φ and DIF on Fy; EN 1993-1-5 §6 on that basis), so that the
+    bound is never below what the check allows: wherever a force reaches it, the
+    web local yielding check reads U ≥ 1 (the web is locally damaged there, never
+    "elastic"). Why Fu and no further DIF: Fu is the strain-hardened flow stress the
+    yielded web reaches (Fu/Fy = 1.32 for S355, 1.3 for A992), at or above the
+    dynamic yield strength the blast design guides give for mild steel at their
+    strain rates (DIF on Fy about 1.1-1.3, UFC 3-340-02 ch. 5 — from memory); the
+    rate effect on Fu itself (about 1.05-1.10 there, from memory) and the higher
+    strain rates of a hard strike are not counted (README limits). A force above
+    this bound is never allowed by any check (the web check's own allowed force
+    is at most this bound), so the bound moves no allowable answer. ``bearing``
+    and ``dist_to_end`` (m) as :func:`web_local_yielding`. Vectorised."""
+    up = flange_contact_force_bound(section, grade, bearing, dist_to_end)
+    return np.maximum(up, web_local_yielding(section, grade, basis, bearing, dist_to_end,
+                                             phi, dif))
+
+
 def web_crippling(section: Section, grade: Grade, basis: Basis, bearing: ArrayLike,
                   dist_to_end: ArrayLike, phi: float = 1.0, dif: float = 1.0) -> np.ndarray:
     """Resistance to a concentrated compressive force on the top flange, web

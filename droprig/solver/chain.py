@@ -1283,7 +1283,15 @@ class Impact:
     layer its crushed depth ``crush`` (m) and whether it bottomed out ``bottomed``;
     ``F_crush`` (N): the force at which the deck concrete under the footprint crushes
     (the bound on the contact force), ``deck_crush`` (m) how deep it crushed and
-    ``deck_through`` whether the crushing passed the cover.
+    ``deck_through`` whether the crushing passed the cover. ``F_web`` (N): the force
+    at which a deck member's web under the contact yields locally
+    (:func:`web_contact_bound`; ∞ where the contact bears on no flange) and
+    ``F_cap`` = min(F_crush, F_web) (N): the bound on the force that enters the
+    framing through the contact, with ``cap_depth`` (m) the plastic depth over which
+    it holds (the cover where the concrete's crushing caps, the flange's thickness
+    where the web caps); the one-mass force and the framing force are capped by
+    F_cap, the two-mass contact force by the deck's crushing F_crush alone (the
+    slab's own inertia over the flange can pass more than the web for a spike).
 
     Two forces per point: ``F`` is the force on the framing (member flexure, shear,
     connections, webs under the load, columns, the slab's yield lines, beyond yield
@@ -1310,6 +1318,9 @@ class Impact:
     F_crush: np.ndarray
     deck_crush: np.ndarray
     deck_through: np.ndarray
+    F_web: np.ndarray
+    F_cap: np.ndarray
+    cap_depth: np.ndarray
     F_contact: np.ndarray | None = None
     eta_frame: np.ndarray | None = None
     two_mass: np.ndarray | None = None
@@ -1397,20 +1408,37 @@ def impact_at(c: Chain, h: np.ndarray | None, sel: np.ndarray | None = None) -> 
         # at Fu, capacity.flange_contact_force_bound), until the dent passes the
         # flange's thickness
         F_crush, depth_available = bare_flange_bound(c)
+    # ... and by the web of the member under the contact, which yields locally at
+    # F_web (web_contact_bound): the force entering the framing is the lesser, over
+    # the depth of the one that caps (the flange's thickness for the web)
+    F_web, web_depth = c.once(web_contact_bound)
+    web = F_web < F_crush
+    F_cap = np.where(web, F_web, F_crush)
+    cap_depth = np.where(web, web_depth, depth_available)
     deck_crush = np.zeros(n)
     deck_through = np.zeros(n, dtype=bool)
-    cap = ~crushable & (F > F_crush)
+    cap = ~crushable & (F > F_cap)
+    # the deck's own checks (flexure, punching) keep the force the deck's crushing
+    # alone lets through: past the web's yield the slab's part of the force and its
+    # own inertia still load the deck (conservative for the deck)
+    wc = cap & web
+    F_deck = None
+    if wc.any():
+        F_deck = F.copy()
+        F_deck[wc] = crush_capped(W[wc], h[wc], comp.f[wc], sm.eta[wc], F_crush[wc], F[wc],
+                                  depth_available)
     if cap.any():
         Fb, dep, thr = crushing.crushing_limited_impact(W[cap], h[cap], comp.f[cap],
-                                                        sm.eta[cap], F_crush[cap],
-                                                        depth_available)
+                                                        sm.eta[cap], F_cap[cap],
+                                                        cap_depth[cap])
         F[cap] = Fb
         deck_crush[cap] = dep
         deck_through[cap] = thr
         K = np.where(cap, F / W, K)
         d_max = np.where(cap, F * comp.f + deck_crush, d_max)
     one = Impact(K=K, F=F, d_max=d_max, d_st=W * comp.f, crush=crush, bottomed=bottomed,
-                 F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through)
+                 F_crush=F_crush, deck_crush=deck_crush, deck_through=deck_through,
+                 F_web=F_web, F_cap=F_cap, cap_depth=cap_depth, F_deck=F_deck)
     return two_forces(c, h, one, sel)
 
 
@@ -1435,9 +1463,10 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
       one-force step's bound; above it the one-force crushing result, which exceeds
       F_crush only where the crushing passed the cover).
     * Force on the framing F (N): the envelope's framing force; at most twice the
-      largest contact force the surface lets through, 2·max(F_crush, one-force F)
-      (a force bounded by P on an elastic system at rest gives at most 2P, dynamic
-      load factor 2: Biggs 1964 ch. 2 — from memory).
+      largest force the contact lets into the framing, 2·max(F_cap, one-force F)
+      (F_cap: the deck's crushing or the web's local yielding under the contact,
+      :func:`web_contact_bound`; a force bounded by P on an elastic system at rest
+      gives at most 2P, dynamic load factor 2: Biggs 1964 ch. 2 — from memory).
     * Force on the deck ``F_deck`` (N, deck flexure and punching): the contact force
       where the load's underside is declared (a soft contact, CEB Bulletin 187's soft
       impact — from memory); for a hard load on a bare deck the contact spike (a
@@ -1462,15 +1491,15 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
     W = inp.W
     Fc = one.F.copy()
     Ff = one.F.copy()
-    F_deck = one.F.copy()
+    F_deck = one.deck.copy()
     soft = inp.f_load > 0.0
     if two.any():
         Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W[two], h[two], comp.f_series[two],
                                                        comp.f_s[two], sm.m2[two])
         through = np.maximum(one.F_crush[two], one.F[two])
         Fc[two] = np.where(Fc2 > one.F_crush[two], through, Fc2)
-        Ff[two] = np.minimum(Ff2, 2.0 * through)
-        F_deck[two] = np.where(soft[two], Fc[two], one.F[two])
+        Ff[two] = np.minimum(Ff2, 2.0 * np.maximum(one.F_cap[two], one.F[two]))
+        F_deck[two] = np.where(soft[two], Fc[two], one.deck[two])
     eta_frame = np.where(two, struck_mass_mod.equivalent_eta(W, h, comp.f, Ff, sm.eta),
                          sm.eta)
     if bot.any():
@@ -1488,7 +1517,8 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
     d_max = np.where(bot | crushing, Ff * comp.f + one.crush, d_max)
     return Impact(K=K, F=Ff, d_max=d_max, d_st=one.d_st, crush=one.crush,
                   bottomed=one.bottomed, F_crush=one.F_crush, deck_crush=one.deck_crush,
-                  deck_through=one.deck_through, F_contact=Fc, eta_frame=eta_frame,
+                  deck_through=one.deck_through, F_web=one.F_web, F_cap=one.F_cap,
+                  cap_depth=one.cap_depth, F_contact=Fc, eta_frame=eta_frame,
                   two_mass=two, F_deck=F_deck, searched=two | pad)
 
 
@@ -1673,19 +1703,23 @@ def closing_height(h_r: np.ndarray, F_c: np.ndarray, f_s: np.ndarray,
 
 
 def crush_capped(W: np.ndarray, h: np.ndarray, f: np.ndarray, eta: np.ndarray,
-                 F_crush: np.ndarray, F_el: np.ndarray, depth_available: float) -> np.ndarray:
+                 F_crush: np.ndarray, F_el: np.ndarray,
+                 depth_available: float | np.ndarray) -> np.ndarray:
     """The one-mass force (N): the elastic ``F_el`` (Gere 7th ed. §9.10 Eq. 9-94 at the
     energy heights ``h``, m, compliance f, m/N, energy share η) where it stays below the
     surface's crushing force F_crush (N), else the crushing-limited impact
     (:func:`droprig.solver.crushing.crushing_limited_impact`, crushed no deeper than
-    ``depth_available``, m), as :func:`impact_at` caps it. ``F_el`` itself where
+    ``depth_available``, m, one or per point), as :func:`impact_at` caps it (there
+    with ``F_crush`` its F_cap). ``F_el`` itself where
     nothing is capped: callers must not write into the result."""
     cap = F_el > F_crush
     if not cap.any():
         return F_el
     F1 = F_el.copy()
+    dep = (depth_available[cap] if isinstance(depth_available, np.ndarray)
+           else depth_available)
     F1[cap], _, _ = crushing.crushing_limited_impact(W[cap], h[cap], f[cap], eta[cap],
-                                                     F_crush[cap], depth_available)
+                                                     F_crush[cap], dep)
     return F1
 
 
@@ -1797,6 +1831,93 @@ def bare_flange_bound(c: Chain) -> tuple[np.ndarray, float]:
     L = d.fm.frame.L[0]
     dist = np.maximum(np.minimum(a, L - a) - 0.5 * inp.lb, 0.0)
     return capacity.flange_contact_force_bound(sec, grade, inp.lb, dist), float(sec.tf)
+
+
+def web_contact_bound(c: Chain) -> tuple[np.ndarray, np.ndarray]:
+    """The force the contact can pass into the framing before the web of a deck
+    member under it yields locally, and the plastic depth over which that holds:
+    ``(F_web, depth)`` per point (N, m; ∞ and 0 where it does not apply).
+
+    Physics (issues 10 and 12): where the load's footprint bears on a beam's or
+    girder's flange, that part of the strike's force enters the member through its
+    web over the bearing — the footprint's smaller side spread through the slab as
+    the web checks take it (``LoadInputs.lb``). The web yields locally at
+    R = Fu·tw·(5k + lb) (AISC 360-16 J10.2, Eq. J10-2, or 2.5k + lb within d of the
+    end, Eq. J10-3; EN 1993-1-5 §6 states the same mechanism; at Fu, the strain-
+    hardened flow stress, an upper estimate: :func:`droprig.solver.capacity.
+    web_contact_resistance`, never below the web check's own resistance). In the
+    chain's model the member m carries share_m of the force at the point (the web
+    checks' demand, ``path.share``), and the part 1 − σ of the force bears on the
+    flanges directly (σ: :func:`slab_share`, the rest reaches the members through
+    the slab, spread along them); the web under the contact therefore yields once
+    F·(1 − σ)·share_m = R_m, first at the member m taking the most of it:
+
+        F_web = R_m / |share_m| / (1 − σ)        (∞ where 1 − σ = 0)
+
+    at or above the web yielding check's allowed force (1 − σ ≤ 1, R_m at or above
+    the check's resistance), so that wherever the force reaches F_web the web check
+    reads U ≥ 1: the verdict names the web locally damaged there, and no allowable
+    answer (found below every check's allowed force) moves. Beyond F_web the
+    contact is plastic: the web and flange yield under the load and absorb F_web
+    per metre of indentation (a rigid–plastic contact as the concrete's crushing,
+    :func:`droprig.solver.crushing.crushing_limited_impact`), over at most the
+    governing member's flange thickness tf — the depth the deck-less bound already
+    takes (:func:`bare_flange_bound`: a dent deeper than the flange folds it and
+    the web cripples, AISC 360-16 J10.3's mechanism); past that the rest of the
+    energy is taken elastically (conservative). Deck-less (one member: its
+    :func:`bare_flange_bound` is already this mechanism), steel decks (no
+    flange share worked out) and soft contacts (a declared underside, a mat or a
+    crushable layer under the load: the deck's bound, conservative): ∞."""
+    d, inp = c.drop, c[LoadInputs]
+    fm, n = d.fm, d.n
+    lv = fm.level
+    none = (np.full(n, np.inf), np.zeros(n))
+    # a hard contact only (no declared underside, no mat or layer under the load):
+    # there the idealised contact spring drives the contact force to MN; a soft
+    # contact keeps the deck's bound (∞ here: conservative, and no cost)
+    hard = ~inp.protected & ~(np.asarray(inp.f_load) > 0.0)
+    if d.bare is not None or lv.deck.is_steel or n == 0 or not hard.any():
+        return none
+    # the share that bears on the flanges directly; only where it is not nil is the
+    # web's resistance worked out (the rest of the points: ∞)
+    direct = 1.0 - c.once(slab_share_at)
+    pts = np.flatnonzero(hard & (direct > 0.0))
+    if pts.size == 0:
+        return none
+    path = d.geo.path
+    memT = np.ascontiguousarray(path.members[pts].T)
+    shareT = np.abs(np.ascontiguousarray(path.share[pts].T))
+    aT = np.ascontiguousarray(path.a[pts].T)
+    LT = fm.frame.L[memT]
+    lb = inp.lb[pts]
+    dist = np.maximum(np.minimum(aT, LT - aT) - 0.5 * lb, 0.0)
+    # within a section depth of a member's end the load increasingly bears on the
+    # support itself (the column's or girder's): the web mechanism between load and
+    # support shortens to nothing at the end, so the cap is faded out there,
+    # R/share/t with t = clip(dist/d, 0, 1) (∞ once the bearing reaches the end;
+    # continuous, only ever raising the cap — common practice, no source)
+    ng = len(fm.groups)
+    grpT = fm.group[np.where(memT >= 0, memT, 0)] if ng > 1 else np.zeros(memT.shape, int)
+    depth = np.array([sec.d for sec, _ in fm.groups])  # type: ignore[attr-defined]
+    t_end = np.clip(dist / depth[grpT], 0.0, 1.0)
+    weight = np.where(memT >= 0, shareT * t_end, 0.0)
+    # the member that takes the most of the force at its web (largest share·t): its
+    # web yields first but for a difference of resistance between members; the
+    # others' (higher caps as their share is less) are not worked out — a cap no
+    # lower than the least over the members, so conservative
+    j = np.argmax(weight, axis=0)
+    cols = np.arange(pts.size)
+    mem, w = memT[j, cols], weight[j, cols]
+    (R,) = web_resistances(fm, (capacity.web_contact_resistance,), mem[None, :],
+                           lb[None, :], dist[j, cols][None, :])
+    ok = w > 0.0
+    with np.errstate(divide="ignore", invalid="ignore"):
+        F_allow = np.where(ok, R[0] / np.where(ok, w, 1.0), np.inf)
+    F_web, depth_out = none
+    F_web[pts] = np.where(ok, F_allow / direct[pts], np.inf)
+    tf = np.array([sec.tf for sec, _ in fm.groups])  # type: ignore[attr-defined]
+    depth_out[pts] = np.where(ok, tf[grpT[j, cols]], 0.0)
+    return F_web, depth_out
 
 
 # --------------------------------------------------------------------------- 5. demands
@@ -2173,6 +2294,12 @@ def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
     # tables' mass, so this force is at least the calibration's energy method's)
     _, F_ref, _ = impact_mod.impact_elastic(inp.W, h, f_beyond, sm.eta)
     # the crushing cap — the layer's, or the deck concrete's — and its stroke
+    # (the deck's crushing, not the web's cap, Impact.F_cap: the tables were
+    # calibrated on a linear contact and are used only where their contact stays
+    # below this force, amp_mod.amplified_forces; against the web's lower cap they
+    # dropped out at hard points and the fallback bounds read higher — a rooftop
+    # demo bay's U 16.4 → 30.1 — so the bounds keep the higher, deck's force:
+    # each is still an upper bound of the history, which itself takes F_cap)
     F_cap = np.where(crushable, inp.F_c, imp.F_crush)
     stroke = np.where(crushable, inp.s_c, crush_depth_available(c))
     holds = amp_mod.crush_depth_bound(inp.W, h, f_beyond, F_cap) <= stroke
@@ -2788,6 +2915,31 @@ def punching_near_support(c: Chain, ey: np.ndarray) -> np.ndarray:
     half = 0.5 * np.minimum(inp.foot_l, inp.foot_w)
     a_v = np.minimum(ex, ey) - half
     beta = np.clip(a_v / (2.0 * dd), 0.25, 1.0)
+    # σ at the girder distance of two_way_share — the ey demands passes — worked out
+    # once per chain (web_contact_bound reads it too)
+    return c.once(slab_share_at) * beta
+
+
+def slab_share_at(c: Chain) -> np.ndarray:
+    """:func:`slab_share` at each point's distance to the nearer girder line
+    (:func:`two_way_share`'s y and Ly, as :func:`demands` takes it)."""
+    _share, Ly, yb = two_way_share(c)
+    return slab_share(c, np.minimum(yb, Ly - yb))
+
+
+def slab_share(c: Chain, ey: np.ndarray) -> np.ndarray:
+    """σ, the share of the contact force that bears on the slab rather than directly
+    on a beam's or girder's flange, per point (dimensionless, 0-1): a rigid base on
+    the slab's springs and the flanges it covers (:func:`beam_share`,
+    :func:`girder_share`, :func:`base_on_line`; the lesser over the two line
+    families, the larger over the two plan orientations of the footprint), and for a
+    footprint that presses uniformly the part of its pressure on the slab beyond the
+    flanges (:func:`uniform_on_line`). ``ey`` the distance to the nearer girder line
+    (m). 1 − σ is the share that bears on the steel: :func:`punching_near_support`
+    and :func:`web_contact_bound`."""
+    d, inp, comp = c.drop, c[LoadInputs], c[Compliance]
+    span, pos = comp.strip_span, comp.strip_pos
+    ex = np.where(span > 0.0, np.minimum(pos, span - pos), 0.0)
     sigma = np.maximum(np.minimum(beam_share(c, inp.foot_l), girder_share(c, inp.foot_w)),
                        np.minimum(beam_share(c, inp.foot_w), girder_share(c, inp.foot_l)))
     # a footprint pressing uniformly: the part of its pressure on the slab beyond the
@@ -2804,7 +2956,7 @@ def punching_near_support(c: Chain, ey: np.ndarray) -> np.ndarray:
 
         sigma_u = np.maximum(on_slab(inp.foot_l, inp.foot_w), on_slab(inp.foot_w, inp.foot_l))
         sigma = np.where(soft, sigma_u, sigma)
-    return sigma * beta
+    return sigma
 
 
 def punching_resistance_at(c: Chain) -> np.ndarray:
@@ -3581,7 +3733,10 @@ class TwoForceKernel:
         self.f = comp.f[idx]
         self.eta = sm.eta[idx]
         self.F_crush = imp.F_crush[idx]
-        self.depth = crush_depth_available(c)  # as the impact step's
+        self.depth = crush_depth_available(c)  # as the impact step's (the deck's)
+        # the one-mass force's cap and its depth (the deck's crushing or the web's
+        # local yielding, as the impact step's)
+        self.F_cap, self.cap_depth = imp.F_cap[idx], imp.cap_depth[idx]
         self.soft = inp.f_load[idx] > 0.0
         self.m_e = sm.m_e[idx]
         self.f_series, self.f_s, self.m2 = comp.f_series[idx], comp.f_s[idx], sm.m2[idx]
@@ -3658,13 +3813,16 @@ class TwoForceKernel:
         same as indices, or None for all), at the energy heights ``he`` (m): the
         one-mass force capped by crushing and the two-mass envelope's caps."""
         W, f, eta, F_crush = self.W[r], self.f[r], self.eta[r], self.F_crush[r]
+        F_cap = self.F_cap[r]
         # Gere Eq. 9-94 as impact_mod.dynamic_factor (W·f > 0 at every point here)
         e = eta * he
         ratio = np.where(e <= 0.0, 0.0, 2.0 * e / (W * f))
         F_el = (1.0 + np.sqrt(1.0 + ratio)) * W
-        F1 = crush_capped(W, he, f, eta, F_crush, F_el, self.depth)
+        F1 = crush_capped(W, he, f, eta, F_cap, F_el, self.cap_depth[r])
+        F1d = self._deck_force(W, he, f, eta, F_crush, F_cap, F_el, F1)
         Fc2, Ff2 = self.env.at(he, rows)
-        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta)
+        return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta,
+                          F_cap, F1d)
 
     def forces_at_mass(self, h: np.ndarray, M: np.ndarray, rows: np.ndarray,
                        need_eta: bool = True) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
@@ -3681,13 +3839,14 @@ class TwoForceKernel:
         if q.any():
             sub = rows[q]
             Wq, eq, hq = W[q], eta[q], he[q]
-            f, F_crush = self.f[sub], self.F_crush[sub]
+            f, F_crush, F_cap = self.f[sub], self.F_crush[sub], self.F_cap[sub]
             _, F_el, _ = impact_mod.impact_elastic(Wq, hq, f, eq)
-            F1 = crush_capped(Wq, hq, f, eq, F_crush, F_el, self.depth)
+            F1 = crush_capped(Wq, hq, f, eq, F_cap, F_el, self.cap_depth[sub])
+            F1d = self._deck_force(Wq, hq, f, eq, F_crush, F_cap, F_el, F1)
             Fc2, Ff2 = struck_mass_mod.envelope_two_forces(Wq, hq, self.f_series[sub],
                                                            self.f_s[sub], self.m2[sub])
             Ff[q], F_deck[q], eta_f[q] = self._caps(Wq, hq, f, eq, F_crush, F1, Fc2, Ff2,
-                                                    self.soft[sub], need_eta)
+                                                    self.soft[sub], need_eta, F_cap, F1d)
         return self._on_pads((Ff, F_deck, eta_f), rows, W, he, eta, mass=True)
 
     def _on_pads(self, out: tuple[np.ndarray, np.ndarray, np.ndarray],
@@ -3745,18 +3904,32 @@ class TwoForceKernel:
             self._have[u] = True
         return self._floor[rows]
 
+    def _deck_force(self, W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
+                    F_crush: np.ndarray, F_cap: np.ndarray, F_el: np.ndarray,
+                    F1: np.ndarray) -> np.ndarray:
+        """The one-mass force the deck's checks take (N): capped by the deck's
+        crushing alone, as the impact step's ``F_deck`` (``F1`` where the web's cap
+        does not lie below the crushing)."""
+        web = F_cap < F_crush
+        if not web.any():
+            return F1
+        return np.where(web, crush_capped(W, he, f, eta, F_crush, F_el, self.depth), F1)
+
     @staticmethod
     def _caps(W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
               F_crush: np.ndarray, F1: np.ndarray, Fc2: np.ndarray, Ff2: np.ndarray,
-              soft: np.ndarray, need_eta: bool = True
+              soft: np.ndarray, need_eta: bool = True, F_cap: np.ndarray | None = None,
+              F1_deck: np.ndarray | None = None
               ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-        """The caps of :func:`two_forces` on the envelope's forces (N)."""
+        """The caps of :func:`two_forces` on the envelope's forces (N); ``F_cap`` the
+        impact's bound on the force into the framing (``F_crush`` where None),
+        ``F1_deck`` the one-mass force of the deck's checks (``F1`` where None)."""
         through = np.maximum(F_crush, F1)
         Fc = np.where(Fc2 > F_crush, through, Fc2)
-        Ff = np.minimum(Ff2, 2.0 * through)
+        Ff = np.minimum(Ff2, 2.0 * (through if F_cap is None else np.maximum(F_cap, F1)))
         ok = np.isfinite(F1)
         Ff = np.where(ok, Ff, F1)
-        F_deck = np.where(ok & soft, Fc, F1)
+        F_deck = np.where(ok & soft, Fc, F1 if F1_deck is None else F1_deck)
         if not need_eta:  # the caller reads the forces alone
             return Ff, F_deck, eta
         eta_f = np.where(ok, struck_mass_mod.equivalent_eta(W, he, f, Ff, eta), eta)

@@ -174,7 +174,6 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
         Compliance,
         Impact,
         LoadInputs,
-        crush_depth_available,
         slab_frame,
     )
 
@@ -212,8 +211,8 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
         mem = d.fm.level.members[int(mi)]
         kGA[m == mi], rhoI[m == mi] = timoshenko_terms(mem.section, mem.grade)
     W = inp.W[sel]
-    F_y = np.where(crushable, inp.F_c[sel], imp.F_crush[sel])
-    stroke = np.where(crushable, inp.s_c[sel], crush_depth_available(c))
+    F_y = np.where(crushable, inp.F_c[sel], imp.F_cap[sel])
+    stroke = np.where(crushable, inp.s_c[sel], imp.cap_depth[sel])
     F_y = np.where(np.isfinite(F_y) & (F_y > W), F_y, np.inf)
     w = np.clip(share[rows, k], 0.5, 1.0)  # the larger of two shares summing to 1
     return {"member": m, "cond": cond, "L": L, "a": a, "EI": EI, "mu": mu_th, "kGA": kGA,

@@ -421,9 +421,11 @@ def verify_point(project: Project, zone_id: str, load_name: str, x: float,
     member. The member and the contact are the chain's own
     (:func:`droprig.solver.pointhistory.struck_member`, as the chain's point
     histories take them): the chain's EI (composite where studded), and a contact
-    elastic–perfectly plastic as the chain caps it — the deck's crushing force over
-    :func:`droprig.solver.chain.crush_depth_available` (a concrete deck's cover, a
-    steel deck's plate), or a crushable layer's force over its stroke.
+    elastic–perfectly plastic as the chain caps it — ``Impact.F_cap`` over
+    ``Impact.cap_depth`` (the lesser of the deck's crushing, over a concrete deck's
+    cover or a steel deck's plate, and the web's local yielding under the contact,
+    over the flange's thickness: :func:`droprig.solver.chain.web_contact_bound`), or
+    a crushable layer's force over its stroke.
 
     ``slab_mass`` (default): the member's mass per length also carries the deck's
     self-weight and the level's superimposed dead load over its tributary width,
