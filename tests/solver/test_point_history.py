@@ -307,3 +307,29 @@ def test_history_near_a_support_keeps_to_the_rigid_base_force(frac: float, run) 
     t = run("simple", L, EI, mu, a, M, h, f_c)
     assert float(t.force[0]) <= F_rigid * 1.011  # RIGID_BASE_MARGIN's measured 1.011
     assert float(t.force[0]) >= 0.9 * F_rigid
+
+
+def test_deck_checks_take_the_history_over_the_deck_force() -> None:
+    # the deck's flexure and punching take the factor on the deck's force F_deck
+    # (chain._utilisation: A·F·F_deck/F), so from the point's own history their factor
+    # is TH_MARGIN × the history's contact force over F_deck (hand calculation; the
+    # history's contact force is the force through the contact on the deck). Invented
+    # numbers of the steel demo's joist-bundle point (stop 32): framing force F 640 kN,
+    # deck force 378.7 kN, history 379.6 kN — before, the deck took
+    # max(1, 1.35·379.6/640) = 1 and read 378.7 kN, below the history.
+    from droprig.solver import chain
+
+    F, F_deck, th = 640e3, 378.7e3, 379.6e3
+    one = np.ones(1)
+    ph = pointhistory.PointHistory(
+        member=np.zeros(1, int), cond=np.array(["simple"], dtype=object), L=one, a=one,
+        EI=one, mu=one, f_c=one, F_yield=one, stroke=one,
+        th={q: np.array([th]) for q in pointhistory.QUANTITIES},
+        energy={q: np.array([F]) for q in pointhistory.QUANTITIES},
+        factor={q: np.array([pointhistory.TH_MARGIN * th / F])
+                for q in pointhistory.QUANTITIES})
+    got = chain._th_factors(ph, np.array([F_deck / F]))
+    for name in ("deck_flexure", "deck_punching"):
+        assert float(got[name][0]) * F_deck == pytest.approx(pointhistory.TH_MARGIN * th)
+    assert float(got["web_yielding"][0]) == 1.0  # the webs take F itself: 1.35·th/F < 1
+    assert float(chain._th_factors(ph)["deck_punching"][0]) == 1.0  # no ratio: as before
