@@ -55,7 +55,7 @@ def main(argv: list[str]) -> None:
                 r = ratios(name, amp, slab)
             finally:
                 chain.FLOOR_POINT_HISTORY = False
-            cells = [f"{min(v):.2f}–{max(v):.2f}" if v else "–" for v in r.values()]
+            cells = [f"{min(v):.3f}–{max(v):.3f}" if v else "–" for v in r.values()]
             label = "on + floor histories" if hist else "on" if amp else "off"
             print(f"| {name} | {label} | {len(r['force'])} | " + " | ".join(cells) + " |",
                   flush=True)

@@ -14,7 +14,9 @@ Penzien, *Dynamics of Structures* 2nd ed. §5-3 — from memory). A 1 kg item dr
 Model: that of the point time history (:mod:`droprig.solver.pointhistory`,
 :mod:`droprig.solver.exacthistory`): the struck member's Euler–Bernoulli modes
 (mass-normalised q̃ₙ, ωₙ, Blevins 1979 Table 8-1) kept up to ``cutoff`` × the contact
-frequency ω_c = √(k_c·(1/M + 1/mₑ)) and at most ``n_modes``, the rest of the member as
+frequency ω_c = √(k_c·(1/M + 1/mₑ)) — or × the contact force's rise to its crushing
+force where faster (:func:`droprig.solver.timehistory.rise_frequency`, stop 32) — and
+at most ``n_modes``, the rest of the member as
 its residual (static) flexibility f_res in series with the contact f_c; every output X
 at a section x (deflection, moment, shear) is
 
@@ -136,7 +138,8 @@ def impulse_peak_bounds(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayL
     for cnd in dict.fromkeys(conds.tolist()):
         ic = np.flatnonzero(conds == cnd)
         su = timehistory._setup(cast(EndCondition, cnd), L[ic], EI[ic], mu[ic], a[ic],
-                                M[ic], f_c[ic], f_s[ic], n_modes, cutoff, sections)
+                                M[ic], f_c[ic], f_s[ic], n_modes, cutoff, sections,
+                                v0=v0[ic], F_yield=F_y[ic])
         F_max = np.sqrt(2.0 * energy[ic] / su["f_k"])
         F_max = np.where(holds[ic], np.minimum(F_max, F_y[ic]), F_max)
         t_w = window(su["T1"], M[ic], su["m_e"], mu[ic] * L[ic], f_s[ic], f_c[ic],
@@ -321,7 +324,9 @@ def tabulated_bounds(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLike
                                            0.0)
             w_c = np.where(f_c[ic] > 0.0, np.sqrt(inv_m / np.where(f_c[ic] > 0.0, f_c[ic],
                                                                     1.0)), np.inf)
-        # kept modes: ωₙ ≤ cut-off × ω_c (timehistory._setup), a prefix of the modes
+        # kept modes: ωₙ ≤ cut-off × ω_c, or × the contact force's rise to its crushing
+        # force where faster (timehistory._setup, rise_frequency), a prefix of the modes
+        w_c = timehistory.rise_frequency(w_c, f_c[ic], v0[ic], F_y[ic])
         K = np.searchsorted(tb["lam2"], cutoff * w_c / om_unit, side="right")
         K = np.minimum(K, n_modes)
         D = np.maximum(tb["D"][i0, K], tb["D"][i1, K])

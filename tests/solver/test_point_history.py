@@ -130,20 +130,106 @@ def test_margin_covers_the_converged_history(histories, q: str) -> None:
         float(np.max(conv / got))
 
 
-def test_margin_is_not_loose() -> None:
-    # the margin is the study's largest shortfall + 5 %: the case that set it
-    # (scripts/convergence_point_history.py 240 20261203, case 214: a 1.7 kg load on
-    # a soft, crushing contact of a propped member — the study's random inputs,
-    # compared method to method) needs it within 10 %, and gets it
-    case = ("propped", 8.406425067083124, 2708699.054211443, 15.65907740482114,
+# the case that set the margin before stop 32 (scripts/convergence_point_history.py
+# 240 20261203, case 214: a 1.7 kg load on a soft contact of a propped member that
+# crushes at 1.2 × its weight — the study's random inputs, compared method to method)
+CASE_214 = ("propped", 8.406425067083124, 2708699.054211443, 15.65907740482114,
             5.941669872831323, 1.7233727372480083, 0.4588112429335479,
             2.6392068142580973e-06)
-    kw = {"F_yield": 20.280615904479816, "stroke": 0.0028777081910122265}
-    run = exacthistory.exact_time_history(*case, **kw, **pointhistory.TH_OPTIONS)
-    ref = exacthistory.exact_time_history(*case, **kw, **REFINED)
-    need = max(float(getattr(ref, q)[0] / getattr(run, q)[0])
+CASE_214_KW = {"F_yield": 20.280615904479816, "stroke": 0.0028777081910122265}
+# the case that sets it now (... 240 11, case 137: a 75 kg load on a very stiff
+# contact near the end of a 14.9 m fixed-ended member, elastic; the verdict's run keeps
+# the 40-mode cap, the refined run 80: its shear)
+CASE_137 = ("fixed", 14.94561605351173, 1853422.1230706107, 24.017699903784447,
+            2.15519563799051, 75.29981804725445, 0.06988495568187361,
+            1.4328846624247379e-09)
+
+
+def _need(case: tuple, kw: dict, rise: bool = True) -> float:
+    """Refined ÷ verdict-setting run, the largest over the peaks."""
+    run = exacthistory.exact_time_history(*case, **kw, **pointhistory.TH_OPTIONS, rise=rise)
+    ref = exacthistory.exact_time_history(*case, **kw, **REFINED, rise=rise)
+    return max(float(getattr(ref, q)[0] / getattr(run, q)[0])
                for q in ("force", "moment", "shear", "deflection"))
+
+
+def test_margin_is_not_loose() -> None:
+    # the margin is the study's largest shortfall + 5 % rounded up to 5 % (three seeds
+    # of scripts/convergence_point_history.py, 720 cases): the case that sets it needs
+    # it within 10 %, and gets it
+    need = _need(CASE_137, {})
+    assert need == pytest.approx(1.0 + pointhistory.CONVERGENCE_SHORTFALL, abs=2e-3)
     assert need <= pointhistory.TH_MARGIN <= 1.1 * need
+    assert pointhistory.TH_MARGIN == math.ceil(
+        (1.0 + pointhistory.CONVERGENCE_SHORTFALL + 0.05) * 20.0 - 1e-9) / 20.0
+
+
+def test_the_rise_to_the_crushing_force_sets_the_cut_off() -> None:
+    # the cause of the old 1.75, removed: with the cut-off set by the contact frequency
+    # alone the verdict's run read this case's moment, shear and deflection 61-66 %
+    # below the refined run (modes between 8 and 32 × the contact frequency respond
+    # dynamically to the force's near-step rise to 1.2 W — ramp load, Chopra 4th ed.
+    # §4.5); with the rise's own frequency (timehistory.rise_frequency) it reads
+    # within 3 % (the refined runs of each model agree to 1 %: the same structure)
+    before, now = _need(CASE_214, CASE_214_KW, rise=False), _need(CASE_214, CASE_214_KW)
+    assert before > 1.6
+    assert now < 1.03
+    old = exacthistory.exact_time_history(*CASE_214, **CASE_214_KW, **REFINED, rise=False)
+    new = exacthistory.exact_time_history(*CASE_214, **CASE_214_KW, **REFINED)
+    for q in ("force", "moment", "shear", "deflection"):
+        assert float(getattr(new, q)[0]) == pytest.approx(float(getattr(old, q)[0]), rel=0.01)
+
+
+def test_rise_frequency_by_hand() -> None:
+    # timehistory.rise_frequency: w_r = w_c·(π/2)/arcsin(min(1, F_y/F_el)),
+    # F_el = v0/(f_c·w_c) (hand calculation): no crushing (F_y ≥ F_el) → w_c; F_y = F_el/2
+    # → arcsin(1/2) = π/6, 3·w_c; F_y ≪ F_el → π·v0/(2·F_y·f_c); no cap, no speed or a
+    # rigid contact → w_c
+    w_c, f_c, v0 = 200.0, 1e-6, 2.0
+    F_el = v0 / (f_c * w_c)  # 10 kN
+    got = timehistory.rise_frequency(np.full(6, w_c), np.array([f_c, f_c, f_c, f_c, 0.0, f_c]),
+                                     np.array([v0, v0, v0, v0, v0, 0.0]),
+                                     np.array([2 * F_el, F_el / 2, 1e-4 * F_el, np.inf,
+                                               100.0, 100.0]))
+    assert got[0] == pytest.approx(w_c)
+    assert got[1] == pytest.approx(3.0 * w_c)
+    assert got[2] == pytest.approx(math.pi * v0 / (2.0 * 1e-4 * F_el * f_c), rel=1e-6)
+    assert np.all(got[3:] == w_c)
+
+
+def test_ramp_load_factor_behind_the_cut_off() -> None:
+    # the premise of rise_frequency: an undamped one-degree system under a force ramped
+    # to a constant over t_r peaks at 1 + |sin(ω·t_r/2)|/(ω·t_r/2) × static (Chopra,
+    # Dynamics of Structures 4th ed. §4.5 — from memory), at most 1 + 2/(ω·t_r), so a
+    # mode ω ≥ cut-off 8 × the rise's frequency π/(2·t_r) left to the static
+    # correction is off by at most 2/(4π) = 16 % of its own (small) part; checked with
+    # scipy's solve_ivp (an independent integration)
+    from scipy.integrate import solve_ivp
+
+    w = 2.0 * math.pi
+    for wt in (0.5, 3.0, 8.0, 4.0 * math.pi, 40.0):
+        t_r = wt / w
+
+        def f(t: float, y: np.ndarray, t_r: float = t_r) -> list[float]:
+            return [y[1], min(t / t_r, 1.0) - w**2 * y[0]]
+
+        sol = solve_ivp(f, (0.0, t_r + 2.0), [0.0, 0.0], max_step=min(t_r, 1.0) / 200.0,
+                        rtol=1e-10, atol=1e-12)
+        dlf = float(np.max(sol.y[0])) * w**2
+        assert dlf == pytest.approx(1.0 + abs(math.sin(wt / 2.0)) / (wt / 2.0), rel=2e-4)
+        assert dlf <= 1.0 + 2.0 / wt + 1e-6
+    assert 2.0 / (pointhistory.TH_OPTIONS["cutoff"] * math.pi / 2.0) < 0.16
+
+
+def test_reference_keeps_the_same_modes() -> None:
+    # the Newmark reference (timehistory.time_history) and the phase-exact run keep the
+    # same modes (one model, two integrations; Chopra 4th ed. §5.4 / §10-12); the
+    # reference's plan (its modes and steps, nothing integrated: a full Newmark run of
+    # this case takes seconds)
+    ex = exacthistory.exact_time_history(*CASE_214, **CASE_214_KW)
+    nm = timehistory.time_history(*CASE_214, **CASE_214_KW, _plan=True)
+    old = exacthistory.exact_time_history(*CASE_214, **CASE_214_KW, rise=False)
+    assert int(ex.modes[0]) == int(nm.modes[0]) > int(old.modes[0])
 
 
 SECTIONS = ("W16X26", "W10X33", "W21X44")
@@ -221,3 +307,29 @@ def test_history_near_a_support_keeps_to_the_rigid_base_force(frac: float, run) 
     t = run("simple", L, EI, mu, a, M, h, f_c)
     assert float(t.force[0]) <= F_rigid * 1.011  # RIGID_BASE_MARGIN's measured 1.011
     assert float(t.force[0]) >= 0.9 * F_rigid
+
+
+def test_deck_checks_take_the_history_over_the_deck_force() -> None:
+    # the deck's flexure and punching take the factor on the deck's force F_deck
+    # (chain._utilisation: A·F·F_deck/F), so from the point's own history their factor
+    # is TH_MARGIN × the history's contact force over F_deck (hand calculation; the
+    # history's contact force is the force through the contact on the deck). Invented
+    # numbers of the steel demo's joist-bundle point (stop 32): framing force F 640 kN,
+    # deck force 378.7 kN, history 379.6 kN — before, the deck took
+    # max(1, 1.35·379.6/640) = 1 and read 378.7 kN, below the history.
+    from droprig.solver import chain
+
+    F, F_deck, th = 640e3, 378.7e3, 379.6e3
+    one = np.ones(1)
+    ph = pointhistory.PointHistory(
+        member=np.zeros(1, int), cond=np.array(["simple"], dtype=object), L=one, a=one,
+        EI=one, mu=one, f_c=one, F_yield=one, stroke=one,
+        th={q: np.array([th]) for q in pointhistory.QUANTITIES},
+        energy={q: np.array([F]) for q in pointhistory.QUANTITIES},
+        factor={q: np.array([pointhistory.TH_MARGIN * th / F])
+                for q in pointhistory.QUANTITIES})
+    got = chain._th_factors(ph, np.array([F_deck / F]))
+    for name in ("deck_flexure", "deck_punching"):
+        assert float(got[name][0]) * F_deck == pytest.approx(pointhistory.TH_MARGIN * th)
+    assert float(got["web_yielding"][0]) == 1.0  # the webs take F itself: 1.35·th/F < 1
+    assert float(chain._th_factors(ph)["deck_punching"][0]) == 1.0  # no ratio: as before
