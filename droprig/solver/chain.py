@@ -387,7 +387,7 @@ def _ordinary_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
     H, h = _drop_heights(d, t_mat)
     t_spread, f_layer = _spent_layer(cl, cw, t_mat, s_c, crushable)
     foot_l, foot_w = _footprint_on_deck(d, cl, cw, t_spread)
-    lb = np.minimum(foot_l, foot_w)
+    lb = _web_bearing(d, foot_l, foot_w)
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
                       foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer,
@@ -437,7 +437,7 @@ def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=zero, f_mat=f_mat,
                       F_c=np.full(n, np.inf), s_c=zero.copy(),
                       crushable=np.zeros(n, dtype=bool), h=h, H=H, foot_l=foot_l,
-                      foot_w=foot_w, lb=np.minimum(foot_l, foot_w), protected=protected,
+                      foot_w=foot_w, lb=_web_bearing(d, foot_l, foot_w), protected=protected,
                       f_layer=zero.copy(), base_l=cl, base_w=cw, pad=on,
                       fall_offset=np.where(np.isfinite(delta), delta, H))
 
@@ -837,6 +837,26 @@ def _contact_sides(d: Drop, fl: np.ndarray, fw: np.ndarray) -> tuple[np.ndarray,
     if d.landing != "flat":
         raise ValueError(f"landing: {d.landing!r} is not allowed; allowed: {LANDINGS}")
     return fl, fw
+
+
+def slab_spread_depth(fm: FloorModel) -> float:
+    """The depth of deck a load on the deck's top spreads through to a member's top
+    flange (m): the concrete over the ribs of a concrete deck (the solid slab's
+    whole depth; :meth:`droprig.model.Deck.over_ribs`, the least depth the load
+    crosses at a member), 0 for a steel deck (plate or grating: no spread credited)."""
+    dk = fm.level.deck
+    return 0.0 if dk.is_steel else float(dk.over_ribs().thickness)
+
+
+def _web_bearing(d: Drop, foot_l: np.ndarray, foot_w: np.ndarray) -> np.ndarray:
+    """Bearing length ``lb`` on a member's top flange (m) of the contact ``foot_l`` ×
+    ``foot_w`` on the deck (m) (:func:`droprig.solver.footprint.web_bearing_length`):
+    for a load landing tilted on one edge, its edge strip spread at 45° through the
+    slab (:func:`slab_spread_depth`) — the strip's own 50 mm would take the web's
+    bearing as if the edge stood on the bare flange; for a flat landing the
+    footprint's smaller side, as before (no slab spread credited: conservative)."""
+    h_s = slab_spread_depth(d.fm) if d.landing == "tilted" else 0.0
+    return footprint_mod.web_bearing_length(foot_l, foot_w, h_s)
 
 
 def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,

@@ -9,6 +9,8 @@
 * **Tilted landing on one edge.** A load landing out of level meets the deck with
   one edge first; the whole force goes through that edge (common practice, no
   source). Every drop point is checked for both cases.
+* **Web bearing under the load.** The force on the deck's top reaches a member's top
+  flange spread through the slab: :func:`web_bearing_length`.
 * **Clipping at deck edges.** A footprint overhanging the edge of the deck is cut
   to the part over the deck; its force acts at the centroid of that part.
 
@@ -27,6 +29,7 @@ __all__ = [
     "footprint_on_deck",
     "rigid_base_shares",
     "tilted_edges",
+    "web_bearing_length",
 ]
 
 EDGE_CONTACT_WIDTH = 0.05
@@ -153,3 +156,32 @@ def tilted_edges(x0: ArrayLike, y0: ArrayLike, x1: ArrayLike, y1: ArrayLike,
     length = np.stack([y1 - y0, y1 - y0, x1 - x0, x1 - x0], axis=-1)
     width = np.minimum(w, np.stack([x1 - x0, x1 - x0, y1 - y0, y1 - y0], axis=-1))
     return cx, cy, length, width, length * width
+
+
+def web_bearing_length(foot_l: ArrayLike, foot_w: ArrayLike,
+                       spread_depth: ArrayLike = 0.0) -> np.ndarray:
+    """Bearing length lb on a member's top flange (m) of a contact ``foot_l`` ×
+    ``foot_w`` (m) on the deck's top, spread through the depth ``spread_depth`` (m)
+    of slab between the contact and the flange:
+
+        lb = min(foot_l, foot_w) + 2·h_s
+
+    The load spreads at 45° through the concrete to the flange, as a concentrated load
+    on a composite slab spreads to b_m = b_p + 2(h_c + h_f) (EN 1994-1-1 §9.4.3(2),
+    Eq. 9.12 — from memory), h_c the concrete over the ribs (the least depth the load
+    crosses at a member: conservative). The smaller side of the contact is taken along
+    the member (its orientation on the member is not known: the shorter bearing, the
+    lower web resistance of AISC 360-16 J10.2/J10.3 and EN 1993-1-5 §6). h_s = 0 gives
+    the contact's own side: the flat landing's bearing (no slab spread credited there;
+    conservative). Against the elastic solution, under a line load on an elastic
+    half-plane (Flamant; Timoshenko & Goodier, *Theory of Elasticity*, §33 — from
+    memory) 82 % of the force passes within ±h_s at depth h_s, and under a strip of
+    width a within its 45° width a + 2h_s more (87 % at a/h_s = 0.4, 97 % at 5;
+    ``tests/solver/test_tilted_edge_bearing.py`` integrates it): the 45° width is where
+    the force goes, not a bound on its peak. Vectorised; SI units (m)."""
+    fl, fw, hs = np.broadcast_arrays(*(np.asarray(v, float) for v in (foot_l, foot_w,
+                                                                      spread_depth)))
+    if np.any(hs < 0.0) or not np.all(np.isfinite(hs)):
+        raise ValueError("spread_depth: the slab depth the load spreads through must be "
+                         "finite and at least 0 m")
+    return np.minimum(fl, fw) + 2.0 * hs
