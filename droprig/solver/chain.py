@@ -374,7 +374,7 @@ def _ordinary_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
     """:func:`load_inputs` of the ordinary run (no tip-off): the layer under the drop
     point, a trial mat, the drop heights and the contact on the deck."""
     on = np.asarray(d.geo.protection)
-    t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw, on)
+    t_mat, f_mat, F_c, s_c, crushable, stroke = _protection_inputs(d, fl, fw, cl, cw, on, W)
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
     # is that less its thickness
@@ -385,7 +385,7 @@ def _ordinary_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
         f_mat = np.where(trial, 1.0 / np.where(trial, d.mat_k, 1.0), f_mat)
         protected = protected | trial
     H, h = _drop_heights(d, t_mat)
-    t_spread, f_layer = _spent_layer(cl, cw, t_mat, s_c, crushable)
+    t_spread, f_layer = _spent_layer(cl, cw, t_mat, stroke, crushable)
     foot_l, foot_w = _footprint_on_deck(d, cl, cw, t_spread)
     lb = _web_bearing(d, foot_l, foot_w)
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
@@ -860,19 +860,25 @@ def _web_bearing(d: Drop, foot_l: np.ndarray, foot_w: np.ndarray) -> np.ndarray:
 
 
 def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
-                       cw: np.ndarray, on: np.ndarray) -> tuple[np.ndarray, ...]:
+                       cw: np.ndarray, on: np.ndarray, W: np.ndarray
+                       ) -> tuple[np.ndarray, ...]:
     """Per point, what the protection area under it gives (:class:`LoadInputs`): mat
     thickness ``t_mat`` (m), spring mat compliance ``f_mat`` (m/N), crush force
     ``F_c`` (N, ∞ none), stroke ``s_c`` (m) and ``crushable`` — pads by area
     (:func:`_layer_credit`) for the contact ``cl`` × ``cw`` of the footprint
     ``fl`` × ``fw`` (m), on the protection area ``on`` of each point
-    (:func:`landing_pads`)."""
+    (:func:`landing_pads`) — and the layer's own stroke (m; what is left of the layer
+    once spent is its thickness less this, :func:`_spent_layer`). A load landing
+    tilted on a crushable layer gets the wedge's credit (:func:`_tilted_crush_credit`,
+    ``W`` the load's weight, N): then ``s_c`` is the stroke of that credit, not the
+    layer's."""
     n, lv = d.n, d.fm.level
     t_mat = np.zeros(n)
     f_mat = np.zeros(n)
     F_c = np.full(n, np.inf)
     s_c = np.zeros(n)
     crushable = np.zeros(n, dtype=bool)
+    s_layer = np.zeros(n)
     any_mat = bool(np.any(on >= 0))
     prot = d.project.protection_areas
     for i, pa in enumerate(prot):
@@ -888,10 +894,82 @@ def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
                                   0.0)
         else:
             crushable[sel] = True
+            s_full = np.where(np.isfinite(stroke), stroke,
+                              float(pa.crush_stroke))  # type: ignore[arg-type]
+            s_layer[sel] = s_full
+            if d.landing == "tilted":
+                credit, s_full = _tilted_crush_credit(d, i, sel, fl, fw, cl, cw, W[sel],
+                                                      credit, s_full)
             F_c[sel] = credit
-            s_c[sel] = np.where(np.isfinite(stroke), stroke,
-                                float(pa.crush_stroke))  # type: ignore[arg-type]
-    return t_mat, f_mat, F_c, s_c, crushable
+            s_c[sel] = s_full
+    return t_mat, f_mat, F_c, s_c, crushable, s_layer
+
+
+def _tilted_crush_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
+                         fw: np.ndarray, cl: np.ndarray, cw: np.ndarray, W: np.ndarray,
+                         F_strip: np.ndarray, s_strip: np.ndarray
+                         ) -> tuple[np.ndarray, np.ndarray]:
+    """The crush force F_c (N) and stroke s_c (m) credited at the points ``sel`` of a
+    load of weight ``W`` (N) landing tilted on crushable layer ``i`` (and the layers
+    pressed with it, as :func:`_layer_credit`): the edge strip ``cl`` × ``cw`` (m)
+    sinks into the layer and the crushed band widens to the whole base as it goes
+    (:func:`droprig.solver.footprint.wedge_crush_work` at the tilt
+    :data:`~droprig.solver.footprint.PAD_TILT`; the base of width b = max(``fl``,
+    ``fw``) across the edge lies on either side of it, in either plan orientation: the
+    least work of the four, conservative). Over the layer's stroke s (the least of the
+    layers the band reaches) the layer does the work E = Σσ_c·ℓ·∫o dδ and ends at the
+    force F_e = Σσ_c·ℓ·o(s) (ℓ the strip's overlap with each layer along the edge).
+    The chain takes a layer as a constant force over a stroke, the work net of the
+    load's weight (F_c − W)·s_c: credited as F_c = F_e (the highest force the
+    crushing puts through, the floor's plateau) and s_c = (E − W·s)/(F_e − W), so
+    that the net work, the fall left when the layer bottoms and whether it bottoms are
+    the wedge's (energy balance of the crushing, Gere 7th ed. §2.8 — from memory).
+    Where the wedge cannot beat the weight (E ≤ W·s or F_e ≤ W) the strip's own
+    credit ``F_strip`` over ``s_strip`` stays (before this the only credit: the
+    strip's area, its net work no more than the wedge's)."""
+    prot, lv, geo = d.project.protection_areas, d.fm.level, d.geo
+    pa = prot[i]
+    together = [j for j, o in enumerate(prot)
+                if o.level_id == lv.id and o.kind == "crushable"
+                and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+    xs, ys, ln, wd = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
+    b = np.maximum(fl[sel], fw[sel])
+    tilt = footprint_mod.PAD_TILT
+    best_E = np.full(xs.shape, np.inf)
+    best_F = np.zeros(xs.shape)
+    best_s = np.full(xs.shape, np.inf)
+    for along_x in (True, False):
+        # along the edge: the strip's extent; across it: the band from the strip's side
+        a, c = (xs, ys) if along_x else (ys, xs)
+        for sign in (1.0, -1.0):
+            E = np.zeros(xs.shape)
+            F_e = np.zeros(xs.shape)
+            stroke = np.full(xs.shape, np.inf)
+            for j in together:
+                o = prot[j]
+                r = o.area
+                (e0, e1), (q0, q1) = ((r.x0, r.x1), (r.y0, r.y1)) if along_x else \
+                    ((r.y0, r.y1), (r.x0, r.x1))
+                ell = np.maximum(np.minimum(a + 0.5 * ln, e1) - np.maximum(a - 0.5 * ln, e0),
+                                 0.0)
+                lead = sign * c - 0.5 * wd
+                p0, p1 = (q0, q1) if sign > 0 else (-q1, -q0)
+                s_j = float(o.crush_stroke)  # type: ignore[arg-type]
+                sigma = pad_crush_stress(d.project, o)
+                work, o_end = footprint_mod.wedge_crush_work(lead, wd, b, s_j, tilt, p0, p1)
+                E += sigma * ell * work
+                F_e += sigma * ell * o_end
+                stroke = np.where(ell * o_end > 0.0, np.minimum(stroke, s_j), stroke)
+            take = (E < best_E) | ((E == best_E) & (F_e < best_F))
+            best_E = np.where(take, E, best_E)
+            best_F = np.where(take, F_e, best_F)
+            best_s = np.where(take, stroke, best_s)
+    s = np.where(np.isfinite(best_s), best_s, s_strip)
+    net = best_E - W * s
+    ok = (net > 0.0) & (best_F > W)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        s_eq = np.where(ok, net / np.where(ok, best_F - W, 1.0), s_strip)
+    return np.where(ok, best_F, F_strip), s_eq
 
 
 def _layer_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray, fw: np.ndarray,

@@ -9,6 +9,8 @@
 * **Tilted landing on one edge.** A load landing out of level meets the deck with
   one edge first; the whole force goes through that edge (common practice, no
   source). Every drop point is checked for both cases.
+* **Tilted base on a crushable pad.** The crushed band under the edge widens as the
+  edge sinks: :func:`wedge_crush_work`.
 * **Web bearing under the load.** The force on the deck's top reaches a member's top
   flange spread through the slab: :func:`web_bearing_length`.
 * **Clipping at deck edges.** A footprint overhanging the edge of the deck is cut
@@ -19,11 +21,14 @@ Vectorised over drop points. SI units: m, m², N, N/m.
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 from numpy.typing import ArrayLike
 
 __all__ = [
     "EDGE_CONTACT_WIDTH",
+    "PAD_TILT",
     "bridges_strip",
     "clip_footprint",
     "footprint_on_deck",
@@ -36,6 +41,13 @@ EDGE_CONTACT_WIDTH = 0.05
 """Width of the strip along a tilted load's leading edge that bears at first
 contact, m (a base rail or skid flange; common practice, no source). Small: the
 contact pressure and the crushing bound are then high."""
+
+
+PAD_TILT = math.radians(5.0)
+"""Tilt of a load landing on one edge on a crushable pad, rad (5°: a load hung for a
+lift is levelled within a few degrees; common practice, no source). The pad's credit
+falls as the tilt grows (:func:`wedge_crush_work`): a load rigged or hanging further
+out of level needs the engineer's own look."""
 
 
 def clip_footprint(x0: ArrayLike, y0: ArrayLike, x1: ArrayLike, y1: ArrayLike,
@@ -185,3 +197,54 @@ def web_bearing_length(foot_l: ArrayLike, foot_w: ArrayLike,
         raise ValueError("spread_depth: the slab depth the load spreads through must be "
                          "finite and at least 0 m")
     return np.minimum(fl, fw) + 2.0 * hs
+
+
+def wedge_crush_work(lead: ArrayLike, w0: ArrayLike, b: ArrayLike, s: ArrayLike,
+                     tilt: float, p0: ArrayLike, p1: ArrayLike
+                     ) -> tuple[np.ndarray, np.ndarray]:
+    """A rigid base tilted by ``tilt`` (rad) sinking edge first into a crushable layer:
+    across the edge, the crushed band runs from the edge at ``lead`` (m) to
+    x(δ) = min(w0 + δ/tan θ, b) beyond it, δ the crush under the edge (m), w0 the edge
+    strip's width and b the base's width across the edge (m); the layer lies over
+    [``p0``, ``p1``] (m) across the edge. Returns, up to a crush ``s`` (m) under the
+    edge, the work per unit crush stress and unit length along the edge
+    ∫₀ˢ o(δ) dδ (m²) and the band's overlap with the layer at the end o(s) (m), where
+    o(δ) = |[lead, lead + x(δ)] ∩ [p0, p1]|.
+
+    The base keeps its tilt (a wedge pressed in): the layer under it crushes at its
+    plateau stress σ_c wherever the base has reached it, so the force is
+    σ_c·(length along the edge)·o(δ) (Gibson & Ashby, *Cellular Solids* 2nd ed.
+    1997, ch. 5, plateau stress — from memory; geometry of a plane pressed in at θ).
+    The base lies flat after δ_f = (b − w0)·tan θ; beyond that the band is the whole
+    base. Exact in closed form: with u = lead + x, o = clip(u − q0, 0, c),
+    q0 = max(lead, p0), c = max(p1 − q0, 0), its antiderivative
+    G(u) = r²/2 + c·max(u − q0 − c, 0), r = clip(u − q0, 0, c), and dδ = tan θ·du
+    while the band widens. Hand check: a layer under the whole base gives
+    w0·δ_f + δ_f²/(2 tan θ) + b·(s − δ_f) for s ≥ δ_f. A body that turns flat under
+    the eccentric crush force widens the band faster (more work at a given edge crush):
+    the wedge at fixed tilt is the lower bound on the work, checked against a 2-DOF
+    history in ``tests/solver/test_tilted_pad.py``. Vectorised; SI units."""
+    if not (0.0 < tilt < 0.5 * math.pi):
+        raise ValueError(f"tilt: {tilt!r} rad is not allowed; allowed: more than 0 and "
+                         f"less than pi/2 rad")
+    ld, w, bb, ss, a0, a1 = np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (lead, w0, b, s, p0, p1)))
+    t = math.tan(tilt)
+    q0 = np.maximum(ld, a0)
+    c = np.maximum(a1 - q0, 0.0)
+
+    def G(u: np.ndarray) -> np.ndarray:
+        r = np.clip(u - q0, 0.0, c)
+        return 0.5 * r * r + c * np.maximum(u - q0 - c, 0.0)
+
+    def o(u: np.ndarray) -> np.ndarray:
+        return np.clip(u - q0, 0.0, c)
+
+    w = np.minimum(w, bb)
+    ss = np.maximum(ss, 0.0)
+    d_flat = (bb - w) * t
+    d1 = np.minimum(ss, d_flat)
+    u0 = ld + w
+    work = t * (G(u0 + d1 / t) - G(u0)) + o(ld + bb) * np.maximum(ss - d_flat, 0.0)
+    x_end = np.minimum(w + ss / t, bb)
+    return work, o(ld + x_end)
