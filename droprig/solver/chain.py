@@ -1565,6 +1565,8 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
     if two.any():
         Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W[two], h[two], comp.f_series[two],
                                                        comp.f_s[two], sm.m2[two])
+        if c.drop.landing == "tilted":
+            Fc2 = np.maximum(Fc2, tilted_far_edge(c, h, two))
         through = np.maximum(one.F_crush[two], one.F[two])
         Fc[two] = np.where(Fc2 > one.F_crush[two], through, Fc2)
         Ff[two] = np.minimum(Ff2, 2.0 * through)
@@ -1588,6 +1590,20 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
                   bottomed=one.bottomed, F_crush=one.F_crush, deck_crush=one.deck_crush,
                   deck_through=one.deck_through, F_contact=Fc, eta_frame=eta_frame,
                   two_mass=two, F_deck=F_deck, searched=two | pad)
+
+
+def tilted_far_edge(c: Chain, h: np.ndarray, rows: np.ndarray) -> np.ndarray:
+    """The contact force (N) at the points ``rows`` of a load landing tilted on one edge
+    on a bare deck, at the energy heights ``h`` (m): the energy bound of either edge's
+    strike, :func:`droprig.solver.footprint.tilted_contact_bound`, the edges the base's
+    width across the edge strip apart (max of the footprint's sides, m), each on the
+    contact springs ``f_series``, over the framing ``f_s`` (m/N), at the tilt
+    :data:`~droprig.solver.footprint.PAD_TILT`. Non-decreasing in h (the inverse
+    answers' bisection stays exact)."""
+    inp, comp = c[LoadInputs], c[Compliance]
+    b = np.maximum(inp.fl[rows], inp.fw[rows])
+    return footprint_mod.tilted_contact_bound(inp.W[rows], h[rows], comp.f_series[rows],
+                                              comp.f_s[rows], b)
 
 
 def _bottomed_forces(c: Chain, h: np.ndarray, one: Impact, bot: np.ndarray

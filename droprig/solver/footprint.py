@@ -9,6 +9,8 @@
 * **Tilted landing on one edge.** A load landing out of level meets the deck with
   one edge first; the whole force goes through that edge (common practice, no
   source). Every drop point is checked for both cases.
+* **Tilted landing, both edges' strikes.** The far edge falls further and may meet a
+  floor on its rebound: :func:`tilted_contact_bound`.
 * **Tilted base on a crushable pad.** The crushed band under the edge widens as the
   edge sinks: :func:`wedge_crush_work`.
 * **Web bearing under the load.** The force on the deck's top reaches a member's top
@@ -33,6 +35,7 @@ __all__ = [
     "clip_footprint",
     "footprint_on_deck",
     "rigid_base_shares",
+    "tilted_contact_bound",
     "tilted_edges",
     "web_bearing_length",
 ]
@@ -44,10 +47,12 @@ contact pressure and the crushing bound are then high."""
 
 
 PAD_TILT = math.radians(5.0)
-"""Tilt of a load landing on one edge on a crushable pad, rad (5°: a load hung for a
-lift is levelled within a few degrees; common practice, no source). The pad's credit
-falls as the tilt grows (:func:`wedge_crush_work`): a load rigged or hanging further
-out of level needs the engineer's own look."""
+"""Tilt of a load landing on one edge, rad (5°: a load hung for a lift is levelled
+within a few degrees; common practice, no source): the tilted landing is checked for
+every tilt up to this. A pad's credit falls as the tilt grows
+(:func:`wedge_crush_work`) and the far edge's strike grows with it
+(:func:`tilted_contact_bound`): a load rigged or hanging further out of level needs
+the engineer's own look."""
 
 
 def clip_footprint(x0: ArrayLike, y0: ArrayLike, x1: ArrayLike, y1: ArrayLike,
@@ -248,3 +253,34 @@ def wedge_crush_work(lead: ArrayLike, w0: ArrayLike, b: ArrayLike, s: ArrayLike,
     work = t * (G(u0 + d1 / t) - G(u0)) + o(ld + bb) * np.maximum(ss - d_flat, 0.0)
     x_end = np.minimum(w + ss / t, bb)
     return work, o(ld + x_end)
+
+
+def tilted_contact_bound(W: ArrayLike, h: ArrayLike, f_c: ArrayLike, f_s: ArrayLike,
+                         b: ArrayLike, tilt: float = PAD_TILT) -> np.ndarray:
+    """Upper bound on the force at either edge of a load of weight ``W`` (N) landing
+    tilted by up to ``tilt`` (rad) with its lowest edge falling ``h`` (m, the energy
+    height), its edges ``b`` (m) apart, each on a contact spring of compliance ``f_c``
+    (m/N) over a floor of static compliance ``f_s`` (m/N) at the point, N:
+
+        F ≤ W/2 + √(W²/4 + 2·W·H'/f_c),  H' = h + b·tan θ/2 + W·f_c/8 + W·f_s/2
+
+    Energy balance of the undamped body and floor (Gere 7th ed. §9.10, the energy
+    method of impact — from memory): released at rest, the body's centre of mass has
+    fallen z = h + b·tan θ/2 + (δ_A + δ_B)/2 + w when the contacts are compressed δ_A,
+    δ_B and the floor deflected w under them (small rotation; the centre over the
+    middle of the edges), and W·z holds every spring's energy and the kinetic energy.
+    So δ_B²/(2f_c) ≤ W·z − δ_A²/(2f_c) − (the floor's strain energy ≥ w²/(2f_s), its
+    least for a given w under a point load) and W·δ_A/2 − δ_A²/(2f_c) ≤ W·f_c/8,
+    W·w − w²/(2f_s) ≤ W·f_s/2 — whatever the floor's mass, its rebound or the body's
+    inertia. The far edge's strike (falling b·tan θ further, meeting a floor that may
+    be moving up) is what the whole-mass two-mass envelope at the lowest edge's fall
+    misses (down to 0.76 × a 2-DOF history, ``tests/solver/test_tilted_edge_history.py``,
+    ``scripts/tilted_edge_sweep.py``); this bound is never below the history there.
+    Vectorised; SI units."""
+    W, h, f_c, f_s, b = np.broadcast_arrays(*(np.asarray(v, float) for v in (W, h, f_c,
+                                                                              f_s, b)))
+    Hp = h + 0.5 * b * math.tan(tilt) + W * f_c / 8.0 + W * f_s / 2.0
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return np.where(f_c > 0.0, 0.5 * W + np.sqrt(0.25 * W * W + 2.0 * W * Hp
+                                                     / np.where(f_c > 0.0, f_c, 1.0)),
+                        np.inf)
