@@ -3678,6 +3678,10 @@ class TwoForceKernel:
         self.m_e = sm.m_e[idx]
         self.f_series, self.f_s, self.m2 = comp.f_series[idx], comp.f_s[idx], sm.m2[idx]
         self.env = struck_mass_mod.EnvelopeLookup(self.W, self.f_series, self.f_s, self.m2)
+        # a tilted landing: the contact force at least the edges' energy bound
+        # (tilted_far_edge), the edges the base's width across the strip apart
+        self.b_edges = (np.maximum(inp.fl, inp.fw)[idx] if c.drop.landing == "tilted"
+                        else None)
         # the points on a crushable layer (after_bottoming where it bottoms out)
         self.pad = pad_two_mass(c)[idx]
         self.F_c, self.s_c = inp.F_c[idx], inp.s_c[idx]
@@ -3756,6 +3760,9 @@ class TwoForceKernel:
         F_el = (1.0 + np.sqrt(1.0 + ratio)) * W
         F1 = crush_capped(W, he, f, eta, F_crush, F_el, self.depth)
         Fc2, Ff2 = self.env.at(he, rows)
+        if self.b_edges is not None:
+            Fc2 = np.maximum(Fc2, footprint_mod.tilted_contact_bound(
+                W, he, self.f_series[r], self.f_s[r], self.b_edges[r]))
         return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta)
 
     def forces_at_mass(self, h: np.ndarray, M: np.ndarray, rows: np.ndarray,
@@ -3778,6 +3785,9 @@ class TwoForceKernel:
             F1 = crush_capped(Wq, hq, f, eq, F_crush, F_el, self.depth)
             Fc2, Ff2 = struck_mass_mod.envelope_two_forces(Wq, hq, self.f_series[sub],
                                                            self.f_s[sub], self.m2[sub])
+            if self.b_edges is not None:
+                Fc2 = np.maximum(Fc2, footprint_mod.tilted_contact_bound(
+                    Wq, hq, self.f_series[sub], self.f_s[sub], self.b_edges[sub]))
             Ff[q], F_deck[q], eta_f[q] = self._caps(Wq, hq, f, eq, F_crush, F1, Fc2, Ff2,
                                                     self.soft[sub], need_eta)
         return self._on_pads((Ff, F_deck, eta_f), rows, W, he, eta, mass=True)

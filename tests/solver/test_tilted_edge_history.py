@@ -191,3 +191,36 @@ def test_edge_bound_on_a_rigid_deck(tilt):
     hand = W / 2 + math.sqrt(W**2 / 4 + 2 * k * W * (h + b * math.tan(tilt) / 2 + W / k / 8))
     assert Fb == pytest.approx(hand, rel=1e-12)
     assert FB <= Fb <= 1.1 * FB
+
+
+def test_search_kernel_takes_the_edge_bound(roof_edge):
+    # the allowable-height and -mass searches run chain.TwoForceKernel, the fast copy of
+    # the impact step: for the tilted landing it takes the edges' energy bound as the
+    # step does (its plain reference chain.impact_at, at 1e-12 as
+    # tests/solver/test_two_force_kernel.py; common practice, no source), at heights
+    # from a hair above 0 to 3 m and at another mass; the bound is what sets the
+    # contact force at this point (so the check cannot pass without it)
+    load, c = roof_edge
+    from dataclasses import replace
+
+    from droprig.solver.chain import TwoForceKernel, impact_at
+
+    idx = np.flatnonzero(c[Impact].searched)
+    assert idx.size == 1
+    kern = TwoForceKernel(c, idx)
+    for h in (1e-4, 0.05, 0.3, 3.0):
+        ref = impact_at(c, np.array([h]))
+        F, F_deck, _ = kern.forces(np.array([h]))
+        assert float(F[0]) == pytest.approx(float(ref.F[0]), rel=1e-12)
+        assert float(F_deck[0]) == pytest.approx(float(ref.deck[0]), rel=1e-12)
+    inp, comp = c[LoadInputs], c[Compliance]
+    b_edges = max(load.footprint_length, load.footprint_width)
+    Fb = tilted_contact_bound(inp.W, inp.h, comp.f_series, comp.f_s, b_edges, PAD_TILT)
+    assert float(c[Impact].contact[0]) == pytest.approx(float(Fb[0]), rel=1e-9)
+    # at 1.6 x the mass: the chain run with that load
+    p = load_project(ROOT / "demo_projects" / "rooftop_plant_swap.droprig")
+    heavier = replace(load, mass=1.6 * load.mass)
+    c2 = evaluate.evaluate_chain(c.drop.fm, p, heavier, c.drop.geo, landing="tilted")
+    F, F_deck, _ = kern.forces_at_mass(inp.h, np.array([heavier.mass]), np.array([0]))
+    assert float(F[0]) == pytest.approx(float(c2[Impact].F[0]), rel=1e-12)
+    assert float(F_deck[0]) == pytest.approx(float(c2[Impact].deck[0]), rel=1e-12)
