@@ -7,7 +7,8 @@ Run (from the tree to record):
 ``PYTHONPATH=. .venv/bin/python scripts/bay_changes.py record before.json``, then
 ``... compare before.json after.json``. ``record OUT --amplified`` records with the
 project setting ``dynamic_amplification`` on, ``--floor-histories`` also with the
-floors' point histories (``chain.FLOOR_POINT_HISTORY``, issue 12).
+floors' point histories (``chain.FLOOR_POINT_HISTORY``, issue 12), ``--tilted`` with
+the project setting ``tilted_landing`` on.
 """
 
 from __future__ import annotations
@@ -21,7 +22,8 @@ FIELDS = ("response", "max_utilisation", "allowable_drop_height",
           "allowable_drop_height_plastic", "height_limit", "allowable_mass", "advice_kind")
 
 
-def record(out: Path, amplified: bool = False, floor_histories: bool = False) -> None:
+def record(out: Path, amplified: bool = False, floor_histories: bool = False,
+           tilted: bool = False) -> None:
     from dataclasses import replace
 
     from droprig.io.project_file import load_project
@@ -33,6 +35,8 @@ def record(out: Path, amplified: bool = False, floor_histories: bool = False) ->
         p = load_project(path)
         if amplified:
             p = replace(p, settings=replace(p.settings, dynamic_amplification=True))
+        if tilted:
+            p = replace(p, settings=replace(p.settings, tilted_landing=True))
         for b in analysis.analyse(p).bays:
             rows[f"{path.stem}|{b.zone_id}|{b.bay_id}|{b.load_name}"] = {
                 k: getattr(b, k) for k in FIELDS}
@@ -66,6 +70,7 @@ def compare(a_path: Path, b_path: Path) -> None:
 if __name__ == "__main__":
     if sys.argv[1:2] == ["record"]:
         record(Path(sys.argv[2]), amplified="--amplified" in sys.argv[3:],
-               floor_histories="--floor-histories" in sys.argv[3:])
+               floor_histories="--floor-histories" in sys.argv[3:],
+               tilted="--tilted" in sys.argv[3:])
     else:
         compare(Path(sys.argv[2]), Path(sys.argv[3]))

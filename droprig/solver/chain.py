@@ -374,7 +374,7 @@ def _ordinary_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
     """:func:`load_inputs` of the ordinary run (no tip-off): the layer under the drop
     point, a trial mat, the drop heights and the contact on the deck."""
     on = np.asarray(d.geo.protection)
-    t_mat, f_mat, F_c, s_c, crushable = _protection_inputs(d, fl, fw, cl, cw, on)
+    t_mat, f_mat, F_c, s_c, crushable, stroke = _protection_inputs(d, fl, fw, cl, cw, on, W)
     # one datum: the load's underside above the finished surface of the level (given,
     # or hook elevation − hang length − level elevation); the fall onto a pad or mat
     # is that less its thickness
@@ -385,9 +385,9 @@ def _ordinary_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
         f_mat = np.where(trial, 1.0 / np.where(trial, d.mat_k, 1.0), f_mat)
         protected = protected | trial
     H, h = _drop_heights(d, t_mat)
-    t_spread, f_layer = _spent_layer(cl, cw, t_mat, s_c, crushable)
+    t_spread, f_layer = _spent_layer(cl, cw, t_mat, stroke, crushable)
     foot_l, foot_w = _footprint_on_deck(d, cl, cw, t_spread)
-    lb = np.minimum(foot_l, foot_w)
+    lb = _web_bearing(d, foot_l, foot_w)
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=t_mat, f_mat=f_mat,
                       F_c=F_c, s_c=s_c, crushable=crushable, h=h, H=H, foot_l=foot_l,
                       foot_w=foot_w, lb=lb, protected=protected, f_layer=f_layer,
@@ -437,7 +437,7 @@ def _tip_off_inputs(d: Drop, W: np.ndarray, M: np.ndarray, fl: np.ndarray,
     return LoadInputs(W=W, M=M, fl=fl, fw=fw, f_load=f_load, t_mat=zero, f_mat=f_mat,
                       F_c=np.full(n, np.inf), s_c=zero.copy(),
                       crushable=np.zeros(n, dtype=bool), h=h, H=H, foot_l=foot_l,
-                      foot_w=foot_w, lb=np.minimum(foot_l, foot_w), protected=protected,
+                      foot_w=foot_w, lb=_web_bearing(d, foot_l, foot_w), protected=protected,
                       f_layer=zero.copy(), base_l=cl, base_w=cw, pad=on,
                       fall_offset=np.where(np.isfinite(delta), delta, H))
 
@@ -839,20 +839,46 @@ def _contact_sides(d: Drop, fl: np.ndarray, fw: np.ndarray) -> tuple[np.ndarray,
     return fl, fw
 
 
+def slab_spread_depth(fm: FloorModel) -> float:
+    """The depth of deck a load on the deck's top spreads through to a member's top
+    flange (m): the concrete over the ribs of a concrete deck (the solid slab's
+    whole depth; :meth:`droprig.model.Deck.over_ribs`, the least depth the load
+    crosses at a member), 0 for a steel deck (plate or grating: no spread credited)."""
+    dk = fm.level.deck
+    return 0.0 if dk.is_steel else float(dk.over_ribs().thickness)
+
+
+def _web_bearing(d: Drop, foot_l: np.ndarray, foot_w: np.ndarray) -> np.ndarray:
+    """Bearing length ``lb`` on a member's top flange (m) of the contact ``foot_l`` ×
+    ``foot_w`` on the deck (m) (:func:`droprig.solver.footprint.web_bearing_length`):
+    for a load landing tilted on one edge, its edge strip spread at 45° through the
+    slab (:func:`slab_spread_depth`) — the strip's own 50 mm would take the web's
+    bearing as if the edge stood on the bare flange; for a flat landing the
+    footprint's smaller side, as before (no slab spread credited: conservative)."""
+    h_s = slab_spread_depth(d.fm) if d.landing == "tilted" else 0.0
+    return footprint_mod.web_bearing_length(foot_l, foot_w, h_s)
+
+
 def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
-                       cw: np.ndarray, on: np.ndarray) -> tuple[np.ndarray, ...]:
+                       cw: np.ndarray, on: np.ndarray, W: np.ndarray
+                       ) -> tuple[np.ndarray, ...]:
     """Per point, what the protection area under it gives (:class:`LoadInputs`): mat
     thickness ``t_mat`` (m), spring mat compliance ``f_mat`` (m/N), crush force
     ``F_c`` (N, ∞ none), stroke ``s_c`` (m) and ``crushable`` — pads by area
     (:func:`_layer_credit`) for the contact ``cl`` × ``cw`` of the footprint
     ``fl`` × ``fw`` (m), on the protection area ``on`` of each point
-    (:func:`landing_pads`)."""
+    (:func:`landing_pads`) — and the layer's own stroke (m; what is left of the layer
+    once spent is its thickness less this, :func:`_spent_layer`). A load landing
+    tilted on a crushable layer gets the wedge's credit (:func:`_tilted_crush_credit`,
+    ``W`` the load's weight, N): then ``s_c`` is the stroke of that credit, not the
+    layer's."""
     n, lv = d.n, d.fm.level
     t_mat = np.zeros(n)
     f_mat = np.zeros(n)
     F_c = np.full(n, np.inf)
     s_c = np.zeros(n)
     crushable = np.zeros(n, dtype=bool)
+    s_layer = np.zeros(n)
     any_mat = bool(np.any(on >= 0))
     prot = d.project.protection_areas
     for i, pa in enumerate(prot):
@@ -868,10 +894,82 @@ def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
                                   0.0)
         else:
             crushable[sel] = True
+            s_full = np.where(np.isfinite(stroke), stroke,
+                              float(pa.crush_stroke))  # type: ignore[arg-type]
+            s_layer[sel] = s_full
+            if d.landing == "tilted":
+                credit, s_full = _tilted_crush_credit(d, i, sel, fl, fw, cl, cw, W[sel],
+                                                      credit, s_full)
             F_c[sel] = credit
-            s_c[sel] = np.where(np.isfinite(stroke), stroke,
-                                float(pa.crush_stroke))  # type: ignore[arg-type]
-    return t_mat, f_mat, F_c, s_c, crushable
+            s_c[sel] = s_full
+    return t_mat, f_mat, F_c, s_c, crushable, s_layer
+
+
+def _tilted_crush_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
+                         fw: np.ndarray, cl: np.ndarray, cw: np.ndarray, W: np.ndarray,
+                         F_strip: np.ndarray, s_strip: np.ndarray
+                         ) -> tuple[np.ndarray, np.ndarray]:
+    """The crush force F_c (N) and stroke s_c (m) credited at the points ``sel`` of a
+    load of weight ``W`` (N) landing tilted on crushable layer ``i`` (and the layers
+    pressed with it, as :func:`_layer_credit`): the edge strip ``cl`` × ``cw`` (m)
+    sinks into the layer and the crushed band widens to the whole base as it goes
+    (:func:`droprig.solver.footprint.wedge_crush_work` at the tilt
+    :data:`~droprig.solver.footprint.PAD_TILT`; the base of width b = max(``fl``,
+    ``fw``) across the edge lies on either side of it, in either plan orientation: the
+    least work of the four, conservative). Over the layer's stroke s (the least of the
+    layers the band reaches) the layer does the work E = Σσ_c·ℓ·∫o dδ and ends at the
+    force F_e = Σσ_c·ℓ·o(s) (ℓ the strip's overlap with each layer along the edge).
+    The chain takes a layer as a constant force over a stroke, the work net of the
+    load's weight (F_c − W)·s_c: credited as F_c = F_e (the highest force the
+    crushing puts through, the floor's plateau) and s_c = (E − W·s)/(F_e − W), so
+    that the net work, the fall left when the layer bottoms and whether it bottoms are
+    the wedge's (energy balance of the crushing, Gere 7th ed. §2.8 — from memory).
+    Where the wedge cannot beat the weight (E ≤ W·s or F_e ≤ W) the strip's own
+    credit ``F_strip`` over ``s_strip`` stays (before this the only credit: the
+    strip's area, its net work no more than the wedge's)."""
+    prot, lv, geo = d.project.protection_areas, d.fm.level, d.geo
+    pa = prot[i]
+    together = [j for j, o in enumerate(prot)
+                if o.level_id == lv.id and o.kind == "crushable"
+                and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+    xs, ys, ln, wd = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
+    b = np.maximum(fl[sel], fw[sel])
+    tilt = footprint_mod.PAD_TILT
+    best_E = np.full(xs.shape, np.inf)
+    best_F = np.zeros(xs.shape)
+    best_s = np.full(xs.shape, np.inf)
+    for along_x in (True, False):
+        # along the edge: the strip's extent; across it: the band from the strip's side
+        a, c = (xs, ys) if along_x else (ys, xs)
+        for sign in (1.0, -1.0):
+            E = np.zeros(xs.shape)
+            F_e = np.zeros(xs.shape)
+            stroke = np.full(xs.shape, np.inf)
+            for j in together:
+                o = prot[j]
+                r = o.area
+                (e0, e1), (q0, q1) = ((r.x0, r.x1), (r.y0, r.y1)) if along_x else \
+                    ((r.y0, r.y1), (r.x0, r.x1))
+                ell = np.maximum(np.minimum(a + 0.5 * ln, e1) - np.maximum(a - 0.5 * ln, e0),
+                                 0.0)
+                lead = sign * c - 0.5 * wd
+                p0, p1 = (q0, q1) if sign > 0 else (-q1, -q0)
+                s_j = float(o.crush_stroke)  # type: ignore[arg-type]
+                sigma = pad_crush_stress(d.project, o)
+                work, o_end = footprint_mod.wedge_crush_work(lead, wd, b, s_j, tilt, p0, p1)
+                E += sigma * ell * work
+                F_e += sigma * ell * o_end
+                stroke = np.where(ell * o_end > 0.0, np.minimum(stroke, s_j), stroke)
+            take = (E < best_E) | ((E == best_E) & (F_e < best_F))
+            best_E = np.where(take, E, best_E)
+            best_F = np.where(take, F_e, best_F)
+            best_s = np.where(take, stroke, best_s)
+    s = np.where(np.isfinite(best_s), best_s, s_strip)
+    net = best_E - W * s
+    ok = (net > 0.0) & (best_F > W)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        s_eq = np.where(ok, net / np.where(ok, best_F - W, 1.0), s_strip)
+    return np.where(ok, best_F, F_strip), s_eq
 
 
 def _layer_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray, fw: np.ndarray,
@@ -1496,6 +1594,8 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
     if two.any():
         Fc2, Ff2 = struck_mass_mod.envelope_two_forces(W[two], h[two], comp.f_series[two],
                                                        comp.f_s[two], sm.m2[two])
+        if c.drop.landing == "tilted":
+            Fc2 = np.maximum(Fc2, tilted_far_edge(c, h, two))
         through = np.maximum(one.F_crush[two], one.F[two])
         Fc[two] = np.where(Fc2 > one.F_crush[two], through, Fc2)
         Ff[two] = np.minimum(Ff2, 2.0 * np.maximum(one.F_cap[two], one.F[two]))
@@ -1520,6 +1620,20 @@ def two_forces(c: Chain, h: np.ndarray, one: Impact,
                   deck_through=one.deck_through, F_web=one.F_web, F_cap=one.F_cap,
                   cap_depth=one.cap_depth, F_contact=Fc, eta_frame=eta_frame,
                   two_mass=two, F_deck=F_deck, searched=two | pad)
+
+
+def tilted_far_edge(c: Chain, h: np.ndarray, rows: np.ndarray) -> np.ndarray:
+    """The contact force (N) at the points ``rows`` of a load landing tilted on one edge
+    on a bare deck, at the energy heights ``h`` (m): the energy bound of either edge's
+    strike, :func:`droprig.solver.footprint.tilted_contact_bound`, the edges the base's
+    width across the edge strip apart (max of the footprint's sides, m), each on the
+    contact springs ``f_series``, over the framing ``f_s`` (m/N), at the tilt
+    :data:`~droprig.solver.footprint.PAD_TILT`. Non-decreasing in h (the inverse
+    answers' bisection stays exact)."""
+    inp, comp = c[LoadInputs], c[Compliance]
+    b = np.maximum(inp.fl[rows], inp.fw[rows])
+    return footprint_mod.tilted_contact_bound(inp.W[rows], h[rows], comp.f_series[rows],
+                                              comp.f_s[rows], b)
 
 
 def _bottomed_forces(c: Chain, h: np.ndarray, one: Impact, bot: np.ndarray
@@ -3759,6 +3873,10 @@ class TwoForceKernel:
         self.m_e = sm.m_e[idx]
         self.f_series, self.f_s, self.m2 = comp.f_series[idx], comp.f_s[idx], sm.m2[idx]
         self.env = struck_mass_mod.EnvelopeLookup(self.W, self.f_series, self.f_s, self.m2)
+        # a tilted landing: the contact force at least the edges' energy bound
+        # (tilted_far_edge), the edges the base's width across the strip apart
+        self.b_edges = (np.maximum(inp.fl, inp.fw)[idx] if c.drop.landing == "tilted"
+                        else None)
         # the points on a crushable layer (after_bottoming where it bottoms out)
         self.pad = pad_two_mass(c)[idx]
         self.F_c, self.s_c = inp.F_c[idx], inp.s_c[idx]
@@ -3839,6 +3957,9 @@ class TwoForceKernel:
         F1 = crush_capped(W, he, f, eta, F_cap, F_el, self.cap_depth[r])
         F1d = self._deck_force(W, he, f, eta, F_crush, F_cap, F_el, F1)
         Fc2, Ff2 = self.env.at(he, rows)
+        if self.b_edges is not None:
+            Fc2 = np.maximum(Fc2, footprint_mod.tilted_contact_bound(
+                W, he, self.f_series[r], self.f_s[r], self.b_edges[r]))
         return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta,
                           F_cap, F1d)
 
@@ -3863,6 +3984,9 @@ class TwoForceKernel:
             F1d = self._deck_force(Wq, hq, f, eq, F_crush, F_cap, F_el, F1)
             Fc2, Ff2 = struck_mass_mod.envelope_two_forces(Wq, hq, self.f_series[sub],
                                                            self.f_s[sub], self.m2[sub])
+            if self.b_edges is not None:
+                Fc2 = np.maximum(Fc2, footprint_mod.tilted_contact_bound(
+                    Wq, hq, self.f_series[sub], self.f_s[sub], self.b_edges[sub]))
             Ff[q], F_deck[q], eta_f[q] = self._caps(Wq, hq, f, eq, F_crush, F1, Fc2, Ff2,
                                                     self.soft[sub], need_eta, F_cap, F1d)
         return self._on_pads((Ff, F_deck, eta_f), rows, W, he, eta, mass=True)

@@ -9,6 +9,12 @@
 * **Tilted landing on one edge.** A load landing out of level meets the deck with
   one edge first; the whole force goes through that edge (common practice, no
   source). Every drop point is checked for both cases.
+* **Tilted landing, both edges' strikes.** The far edge falls further and may meet a
+  floor on its rebound: :func:`tilted_contact_bound`.
+* **Tilted base on a crushable pad.** The crushed band under the edge widens as the
+  edge sinks: :func:`wedge_crush_work`.
+* **Web bearing under the load.** The force on the deck's top reaches a member's top
+  flange spread through the slab: :func:`web_bearing_length`.
 * **Clipping at deck edges.** A footprint overhanging the edge of the deck is cut
   to the part over the deck; its force acts at the centroid of that part.
 
@@ -17,22 +23,36 @@ Vectorised over drop points. SI units: m, m², N, N/m.
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 from numpy.typing import ArrayLike
 
 __all__ = [
     "EDGE_CONTACT_WIDTH",
+    "PAD_TILT",
     "bridges_strip",
     "clip_footprint",
     "footprint_on_deck",
     "rigid_base_shares",
+    "tilted_contact_bound",
     "tilted_edges",
+    "web_bearing_length",
 ]
 
 EDGE_CONTACT_WIDTH = 0.05
 """Width of the strip along a tilted load's leading edge that bears at first
 contact, m (a base rail or skid flange; common practice, no source). Small: the
 contact pressure and the crushing bound are then high."""
+
+
+PAD_TILT = math.radians(5.0)
+"""Tilt of a load landing on one edge, rad (5°: a load hung for a lift is levelled
+within a few degrees; common practice, no source): the tilted landing is checked for
+every tilt up to this. A pad's credit falls as the tilt grows
+(:func:`wedge_crush_work`) and the far edge's strike grows with it
+(:func:`tilted_contact_bound`): a load rigged or hanging further out of level needs
+the engineer's own look."""
 
 
 def clip_footprint(x0: ArrayLike, y0: ArrayLike, x1: ArrayLike, y1: ArrayLike,
@@ -153,3 +173,114 @@ def tilted_edges(x0: ArrayLike, y0: ArrayLike, x1: ArrayLike, y1: ArrayLike,
     length = np.stack([y1 - y0, y1 - y0, x1 - x0, x1 - x0], axis=-1)
     width = np.minimum(w, np.stack([x1 - x0, x1 - x0, y1 - y0, y1 - y0], axis=-1))
     return cx, cy, length, width, length * width
+
+
+def web_bearing_length(foot_l: ArrayLike, foot_w: ArrayLike,
+                       spread_depth: ArrayLike = 0.0) -> np.ndarray:
+    """Bearing length lb on a member's top flange (m) of a contact ``foot_l`` ×
+    ``foot_w`` (m) on the deck's top, spread through the depth ``spread_depth`` (m)
+    of slab between the contact and the flange:
+
+        lb = min(foot_l, foot_w) + 2·h_s
+
+    The load spreads at 45° through the concrete to the flange, as a concentrated load
+    on a composite slab spreads to b_m = b_p + 2(h_c + h_f) (EN 1994-1-1 §9.4.3(2),
+    Eq. 9.12 — from memory), h_c the concrete over the ribs (the least depth the load
+    crosses at a member: conservative). The smaller side of the contact is taken along
+    the member (its orientation on the member is not known: the shorter bearing, the
+    lower web resistance of AISC 360-16 J10.2/J10.3 and EN 1993-1-5 §6). h_s = 0 gives
+    the contact's own side: the flat landing's bearing (no slab spread credited there;
+    conservative). Against the elastic solution, under a line load on an elastic
+    half-plane (Flamant; Timoshenko & Goodier, *Theory of Elasticity*, §33 — from
+    memory) 82 % of the force passes within ±h_s at depth h_s, and under a strip of
+    width a within its 45° width a + 2h_s more (87 % at a/h_s = 0.4, 97 % at 5;
+    ``tests/solver/test_tilted_edge_bearing.py`` integrates it): the 45° width is where
+    the force goes, not a bound on its peak. Vectorised; SI units (m)."""
+    fl, fw, hs = np.broadcast_arrays(*(np.asarray(v, float) for v in (foot_l, foot_w,
+                                                                      spread_depth)))
+    if np.any(hs < 0.0) or not np.all(np.isfinite(hs)):
+        raise ValueError("spread_depth: the slab depth the load spreads through must be "
+                         "finite and at least 0 m")
+    return np.minimum(fl, fw) + 2.0 * hs
+
+
+def wedge_crush_work(lead: ArrayLike, w0: ArrayLike, b: ArrayLike, s: ArrayLike,
+                     tilt: float, p0: ArrayLike, p1: ArrayLike
+                     ) -> tuple[np.ndarray, np.ndarray]:
+    """A rigid base tilted by ``tilt`` (rad) sinking edge first into a crushable layer:
+    across the edge, the crushed band runs from the edge at ``lead`` (m) to
+    x(δ) = min(w0 + δ/tan θ, b) beyond it, δ the crush under the edge (m), w0 the edge
+    strip's width and b the base's width across the edge (m); the layer lies over
+    [``p0``, ``p1``] (m) across the edge. Returns, up to a crush ``s`` (m) under the
+    edge, the work per unit crush stress and unit length along the edge
+    ∫₀ˢ o(δ) dδ (m²) and the band's overlap with the layer at the end o(s) (m), where
+    o(δ) = |[lead, lead + x(δ)] ∩ [p0, p1]|.
+
+    The base keeps its tilt (a wedge pressed in): the layer under it crushes at its
+    plateau stress σ_c wherever the base has reached it, so the force is
+    σ_c·(length along the edge)·o(δ) (Gibson & Ashby, *Cellular Solids* 2nd ed.
+    1997, ch. 5, plateau stress — from memory; geometry of a plane pressed in at θ).
+    The base lies flat after δ_f = (b − w0)·tan θ; beyond that the band is the whole
+    base. Exact in closed form: with u = lead + x, o = clip(u − q0, 0, c),
+    q0 = max(lead, p0), c = max(p1 − q0, 0), its antiderivative
+    G(u) = r²/2 + c·max(u − q0 − c, 0), r = clip(u − q0, 0, c), and dδ = tan θ·du
+    while the band widens. Hand check: a layer under the whole base gives
+    w0·δ_f + δ_f²/(2 tan θ) + b·(s − δ_f) for s ≥ δ_f. A body that turns flat under
+    the eccentric crush force widens the band faster (more work at a given edge crush):
+    the wedge at fixed tilt is the lower bound on the work, checked against a 2-DOF
+    history in ``tests/solver/test_tilted_pad.py``. Vectorised; SI units."""
+    if not (0.0 < tilt < 0.5 * math.pi):
+        raise ValueError(f"tilt: {tilt!r} rad is not allowed; allowed: more than 0 and "
+                         f"less than pi/2 rad")
+    ld, w, bb, ss, a0, a1 = np.broadcast_arrays(
+        *(np.asarray(v, float) for v in (lead, w0, b, s, p0, p1)))
+    t = math.tan(tilt)
+    q0 = np.maximum(ld, a0)
+    c = np.maximum(a1 - q0, 0.0)
+
+    def G(u: np.ndarray) -> np.ndarray:
+        r = np.clip(u - q0, 0.0, c)
+        return 0.5 * r * r + c * np.maximum(u - q0 - c, 0.0)
+
+    def o(u: np.ndarray) -> np.ndarray:
+        return np.clip(u - q0, 0.0, c)
+
+    w = np.minimum(w, bb)
+    ss = np.maximum(ss, 0.0)
+    d_flat = (bb - w) * t
+    d1 = np.minimum(ss, d_flat)
+    u0 = ld + w
+    work = t * (G(u0 + d1 / t) - G(u0)) + o(ld + bb) * np.maximum(ss - d_flat, 0.0)
+    x_end = np.minimum(w + ss / t, bb)
+    return work, o(ld + x_end)
+
+
+def tilted_contact_bound(W: ArrayLike, h: ArrayLike, f_c: ArrayLike, f_s: ArrayLike,
+                         b: ArrayLike, tilt: float = PAD_TILT) -> np.ndarray:
+    """Upper bound on the force at either edge of a load of weight ``W`` (N) landing
+    tilted by up to ``tilt`` (rad) with its lowest edge falling ``h`` (m, the energy
+    height), its edges ``b`` (m) apart, each on a contact spring of compliance ``f_c``
+    (m/N) over a floor of static compliance ``f_s`` (m/N) at the point, N:
+
+        F ≤ W/2 + √(W²/4 + 2·W·H'/f_c),  H' = h + b·tan θ/2 + W·f_c/8 + W·f_s/2
+
+    Energy balance of the undamped body and floor (Gere 7th ed. §9.10, the energy
+    method of impact — from memory): released at rest, the body's centre of mass has
+    fallen z = h + b·tan θ/2 + (δ_A + δ_B)/2 + w when the contacts are compressed δ_A,
+    δ_B and the floor deflected w under them (small rotation; the centre over the
+    middle of the edges), and W·z holds every spring's energy and the kinetic energy.
+    So δ_B²/(2f_c) ≤ W·z − δ_A²/(2f_c) − (the floor's strain energy ≥ w²/(2f_s), its
+    least for a given w under a point load) and W·δ_A/2 − δ_A²/(2f_c) ≤ W·f_c/8,
+    W·w − w²/(2f_s) ≤ W·f_s/2 — whatever the floor's mass, its rebound or the body's
+    inertia. The far edge's strike (falling b·tan θ further, meeting a floor that may
+    be moving up) is what the whole-mass two-mass envelope at the lowest edge's fall
+    misses (down to 0.76 × a 2-DOF history, ``tests/solver/test_tilted_edge_history.py``,
+    ``scripts/tilted_edge_sweep.py``); this bound is never below the history there.
+    Vectorised; SI units."""
+    W, h, f_c, f_s, b = np.broadcast_arrays(*(np.asarray(v, float) for v in (W, h, f_c,
+                                                                              f_s, b)))
+    Hp = h + 0.5 * b * math.tan(tilt) + W * f_c / 8.0 + W * f_s / 2.0
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return np.where(f_c > 0.0, 0.5 * W + np.sqrt(0.25 * W * W + 2.0 * W * Hp
+                                                     / np.where(f_c > 0.0, f_c, 1.0)),
+                        np.inf)
