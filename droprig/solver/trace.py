@@ -45,7 +45,7 @@ from droprig.solver.crush_table import crush_groups, table_psi
 from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import GoverningPoint, governing_point, point_case
 from droprig.solver.floor import FloorModel
-from droprig.solver.footprint import EDGE_CONTACT_WIDTH
+from droprig.solver.footprint import EDGE_CONTACT_WIDTH, PAD_TILT, tilted_contact_bound
 from droprig.solver.geometry import Geometry
 from droprig.solver.impact import G, crush_duration
 from droprig.solver.loadpath import COND_NAMES
@@ -548,10 +548,23 @@ def _two_force_steps(sheet: _Sheet, W: float, h_e: float) -> None:
     assert sm.m2 is not None and imp.F_contact is not None and imp.eta_frame is not None
     M = float(inp.M[0])
     m2 = float(sm.m2[0])  # the struck mass m_e of the path steps
+    if sheet.chain.drop.landing == "tilted":
+        b_e = max(float(inp.fl[0]), float(inp.fw[0]))
+        add("Tilted landing: the least contact force, the energy bound of either edge's "
+            f"strike for a tilt up to {math.degrees(PAD_TILT):g}° (the far edge falls "
+            "b·tan θ further and may meet the floor on its rebound)", "F_edge",
+            "F_edge = W/2 + √(W²/4 + 2W·H'/f_c), H' = h_e + b·tan θ/2 + W·f_c/8 + W·f₂/2",
+            {"W": (W, "force"), "h_e": (h_e, "length"), "b": (b_e, "length"),
+             "θ": (PAD_TILT, "angle"), "f_c": (comp.f_series[0], "compliance"),
+             "f₂": (comp.f_s[0], "compliance")},
+            float(tilted_contact_bound(W, h_e, comp.f_series[0], comp.f_s[0], b_e)[()]),
+            "force", "energy method of impact, Gere 7th ed. §9.10 (from memory); "
+            "droprig.solver.footprint.tilted_contact_bound")
     add("Contact force between load and struck surface (largest for any fall up to "
         "h_e; bounded by the crushing of the surface)", "F_c",
         "max over h' ≤ h_e of the two-mass peak k_c·max⟨x₁ − x₂⟩, "
-        "M·x₁'' = M·g − k_c⟨x₁ − x₂⟩, m₂·x₂'' = k_c⟨x₁ − x₂⟩ − k₂·x₂",
+        "M·x₁'' = M·g − k_c⟨x₁ − x₂⟩, m₂·x₂'' = k_c⟨x₁ − x₂⟩ − k₂·x₂"
+        + (", and at least F_edge" if sheet.chain.drop.landing == "tilted" else ""),
         {"M": (M, "mass"), "m₂": (m2, "mass"), "k_c": (1.0 / comp.f_series[0], "stiffness"),
          "k₂": (1.0 / comp.f_s[0], "stiffness"), "h_e": (h_e, "length")},
         imp.F_contact[0], "force", _SRC_TWO_MASS)

@@ -224,3 +224,27 @@ def test_search_kernel_takes_the_edge_bound(roof_edge):
     F, F_deck, _ = kern.forces_at_mass(inp.h, np.array([heavier.mass]), np.array([0]))
     assert float(F[0]) == pytest.approx(float(c2[Impact].F[0]), rel=1e-12)
     assert float(F_deck[0]) == pytest.approx(float(c2[Impact].deck[0]), rel=1e-12)
+
+
+def test_trace_prints_the_edge_bound():
+    # the calculation trace of a point where the tilted landing governs prints the
+    # edges' energy bound with its inputs, and the contact force the chain takes from
+    # it: re-worked by hand from the printed numbers (energy method, Gere §9.10)
+    from dataclasses import replace
+
+    from droprig.solver import trace_point
+
+    p = load_project(ROOT / "demo_projects" / "steel_erection_floor.droprig")
+    p = replace(p, settings=replace(p.settings, tilted_landing=True))
+    t = trace_point(p, "CC1", "Engine-driven welder", 9.58215, 7.62)
+    steps = {s.symbol: s for s in t.steps}
+    edge = steps["F_edge"]
+    W, h_e, b, th = (edge.inputs[k][0] for k in ("W", "h_e", "b", "θ"))
+    f_c, f_2 = edge.inputs["f_c"][0], edge.inputs["f₂"][0]
+    H = h_e + b * math.tan(th) / 2 + W * f_c / 8 + W * f_2 / 2
+    assert edge.value == pytest.approx(W / 2 + math.sqrt(W**2 / 4 + 2 * W * H / f_c),
+                                       rel=1e-9)
+    assert b == pytest.approx(1.524, rel=1e-9)
+    contact = next(s for s in t.steps if s.title.startswith("Contact force between"))
+    assert "at least F_edge" in contact.formula
+    assert contact.value == pytest.approx(edge.value, rel=1e-9)
