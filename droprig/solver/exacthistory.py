@@ -135,11 +135,10 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
                        n_modes: int = timehistory.DEFAULT_MODES,
                        cutoff: float = timehistory.DEFAULT_CUTOFF,
                        samples_per_period: int = DEFAULT_SAMPLES_PER_PERIOD,
-                       duration: float = 1.25, record: bool = False,
+                       duration: float = 1.25, record: bool = False, rise: bool = True,
                        sections: int = DEFAULT_SECTIONS, group: int = 256,
                        weight: ArrayLike | None = None, kGA: ArrayLike = math.inf,
-                       rhoI: ArrayLike = 0.0, stepping: bool = False,
-                       rise: bool = True) -> TimeHistoryPeaks:
+                       rhoI: ArrayLike = 0.0, stepping: bool = False) -> TimeHistoryPeaks:
     """Peaks of the impact of a mass M (kg) falling h (m) onto a member (end condition
     ``cond``, one name or one per case; span L m, EI N·m², μ kg/m) at ``a`` (m) through
     a contact compliance f_c (m/N), with an elastic–perfectly plastic contact
@@ -151,10 +150,7 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
     (N, default M·g), ``kGA`` (N) and ``rhoI`` (kg·m, the Timoshenko member's shear
     stiffness and rotary inertia; defaults Euler–Bernoulli): as there. ``stepping``:
     every phase sampled to its end, every output (the bounded search's plain
-    reference; ``record`` always steps). ``rise`` (default): the modes kept up to the
-    cut-off × the faster of the contact frequency and the contact force's rise to
-    ``F_yield`` (:func:`droprig.solver.timehistory.rise_frequency`); false: the
-    contact frequency alone (before stop 32)."""
+    reference; ``record`` always steps). ``rise``: as in :func:`timehistory.time_history`."""
     if samples_per_period < 4:
         raise ValueError("samples_per_period: at least 4 samples per period")
     (L, EI, mu, a, M, h, f_c, F_y, s_y), f_s, W = timehistory.checked_case(
@@ -175,9 +171,7 @@ def exact_time_history(cond: EndCondition | ArrayLike, L: ArrayLike, EI: ArrayLi
         ic = np.flatnonzero(conds == cnd)
         su = timehistory._setup(cast(EndCondition, cnd), L[ic], EI[ic], mu[ic], a[ic],
                                 M[ic], f_c[ic], f_s[ic], n_modes, cutoff, sections,
-                                kGA=kGA_a[ic], rhoI=rhoI_a[ic],
-                                v0=v0[ic] if rise else None,
-                                F_yield=F_y[ic] if rise else None)
+                                kGA=kGA_a[ic], rhoI=rhoI_a[ic], v0=v0[ic] * rise, F_yield=F_y[ic])
         kept = su["kept"].sum(axis=1)
         om = np.where(su["kept"], su["omega"], 0.0)  # left-out modes at rest (_run)
         t_end = _window(su, M[ic], mu[ic], L[ic], f_s[ic] + f_c[ic], F_y[ic], W[ic],
