@@ -1998,6 +1998,20 @@ def web_contact_bound(c: Chain) -> tuple[np.ndarray, np.ndarray]:
     pts = np.flatnonzero(hard & (direct > 0.0))
     if pts.size == 0:
         return none
+    F_allow, tf = _web_member_bound(c, pts)
+    F_web, depth_out = none
+    ok = np.isfinite(F_allow)
+    F_web[pts] = np.where(ok, F_allow / direct[pts], np.inf)
+    depth_out[pts] = np.where(ok, tf, 0.0)
+    return F_web, depth_out
+
+
+def _web_member_bound(c: Chain, pts: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """:func:`web_contact_bound` at the points ``pts`` (indices) before the flange
+    share: R/(share·t) of the path's member taking the most of the force, N (∞ where
+    none), and that member's flange thickness tf, m."""
+    d, inp = c.drop, c[LoadInputs]
+    fm = d.fm
     path = d.geo.path
     memT = np.ascontiguousarray(path.members[pts].T)
     shareT = np.abs(np.ascontiguousarray(path.share[pts].T))
@@ -2027,11 +2041,8 @@ def web_contact_bound(c: Chain) -> tuple[np.ndarray, np.ndarray]:
     ok = w > 0.0
     with np.errstate(divide="ignore", invalid="ignore"):
         F_allow = np.where(ok, R[0] / np.where(ok, w, 1.0), np.inf)
-    F_web, depth_out = none
-    F_web[pts] = np.where(ok, F_allow / direct[pts], np.inf)
     tf = np.array([sec.tf for sec, _ in fm.groups])  # type: ignore[attr-defined]
-    depth_out[pts] = np.where(ok, tf[grpT[j, cols]], 0.0)
-    return F_web, depth_out
+    return F_allow, tf[grpT[j, cols]]
 
 
 # --------------------------------------------------------------------------- 5. demands
