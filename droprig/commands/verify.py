@@ -293,8 +293,9 @@ def _run_project(args: argparse.Namespace) -> int:
                 "energy method's demands, so its ratios equal the energy method's and read "
                 "low wherever those are below 1.")
     lines.append("Energy method below 1: it reads lower than the time history there. "
-                 + used + " Both runs cap the contact force by crushing (deck concrete or "
-                 "crushable layer). " + FORCE_ROW_WORDS)
+                 + used + " Both runs cap the contact force alike: by crushing (deck concrete "
+                 "or crushable layer) or by the struck beam's web yielding locally under "
+                 "the load. " + FORCE_ROW_WORDS)
     for p in plots:
         lines.append(f"plot written: {p}")
     lines.append(CAUTION)

@@ -79,13 +79,17 @@ def crushing_note(v: Verification, system: str) -> str:
         mag = units.to_display(v.crushing_force, "force", system)
         bound = units.fmt(v.crushing_force, "force", system,
                           decimals=units.sig_decimals(mag, 3))
-        return f"elastic contact in the time history (crushing bound {bound} not reached)"
+        what = "web yielding" if v.cap_by == "web" else "crushing"
+        return f"elastic contact in the time history ({what} bound {bound} not reached)"
     cap = units.fmt(v.crushing_force, "force", system)
     crushed = units.fmt(v.crush, "small_length", system)
     if peak > 1.01 * v.crushing_force:
         return (f"contact held at {cap} by crushing until the crushable layer was used "
                 f"up (time history: crushed {crushed}); the force then rose to "
                 f"{units.fmt(peak, 'force', system)} on what lies below it")
+    if v.cap_by == "web":
+        return (f"contact capped at {cap} by the web's local yielding under the load "
+                f"(AISC 360-16 J10.2; time history: indented {crushed})")
     return f"contact capped at {cap} by crushing (time history: crushed {crushed})"
 
 

@@ -118,9 +118,10 @@ ASSUMPTIONS: tuple[str, ...] = (
     "less its thickness), landing flat (and on an edge where tilted landing is on); the "
     "framing takes the force at the footprint's centre, the deck's checks use the "
     "footprint cut at edges and openings.",
-    "The contact force is bounded by crushing under the footprint (concrete bearing, or a "
-    "steel deck plate yielding), the energy it absorbs counted; a crushable pad acts by "
-    "its crush stress over the part of the footprint on it ([{johnson}]).",
+    "The contact force is bounded by crushing under the footprint (concrete bearing, a "
+    "steel deck plate or a beam's web yielding), the energy it absorbs counted; a "
+    "crushable pad acts by its crush stress over the part of the footprint on it "
+    "([{johnson}]).",
     "Load path deck → beams → girders → columns by statics; columns as axial springs "
     "E·A/L.",
     "The deck strip is continuous over the beams and shares the load with the cross strip "

@@ -88,6 +88,7 @@ if TYPE_CHECKING:
     from droprig.solver.chain import Chain
 
 __all__ = [
+    "CAP_BY",
     "CONVERGENCE_SHORTFALL",
     "TH_MARGIN",
     "PointHistory",
@@ -100,6 +101,10 @@ __all__ = [
     "timoshenko_terms",
 ]
 
+CAP_BY = ("crushing", "web", "layer")
+"""What caps a point's contact force (``struck_member``'s ``cap_by`` indexes it): the
+crushing of the deck under the footprint, the web's local yielding under the load, or
+the crushable layer."""
 CONVERGENCE_SHORTFALL = 0.263
 """Largest shortfall of the verdict's time history below the refined one (fraction),
 over 720 random cases (``scripts/convergence_point_history.py 240 SEED``, seeds
@@ -228,11 +233,16 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     F_y = np.where(crushable, inp.F_c[sel], imp.F_cap[sel])
     stroke = np.where(crushable, inp.s_c[sel], imp.cap_depth[sel])
     F_y = np.where(np.isfinite(F_y) & (F_y > W), F_y, np.inf)
+    # what caps the contact (CAP_BY): the deck's crushing, the web's local yielding
+    # under the load (chain.web_contact_bound; deck-less, the bare flange's bound,
+    # chain.bare_flange_bound, the same mechanism) or the crushable layer
+    web = (imp.F_web[sel] < imp.F_crush[sel]) | (d.bare is not None)
+    cap_by = np.where(crushable, 2, np.where(web, 1, 0))
     w = np.clip(share[rows, k], 0.5, 1.0)  # the larger of two shares summing to 1
     return {"member": m, "cond": cond, "L": L, "a": a, "EI": EI, "mu": mu_th, "kGA": kGA,
             "rhoI": rhoI, "mu_steel": mu, "g_m": g_m,
             "f_c": f_c, "F_yield": F_y, "stroke": stroke, "share": w, "f_all": f_all,
-            "over_support": ~(g_path > 0.0)}
+            "over_support": ~(g_path > 0.0), "cap_by": cap_by}
 
 
 def shared_load(w: ArrayLike, M: ArrayLike, h: ArrayLike, f_all: ArrayLike,

@@ -85,7 +85,9 @@ class Verification:
     history's peak (with the same elastic–perfectly plastic contact) and the factor
     the verdict applies (:func:`droprig.solver.amplification.amplified_forces`);
     ``verdict`` the demand the checks use (factor × energy), ``crushing_force`` (N,
-    ∞ none), ``stroke`` (m, how deep the contact may crush at that force, ∞ none) and
+    ∞ none) and what sets it, ``cap_by`` (:data:`droprig.solver.pointhistory.CAP_BY`:
+    the deck's crushing, the web's local yielding under the load, the crushable
+    layer), ``stroke`` (m, how deep the contact may crush at that force, ∞ none) and
     ``crush`` (m) the time history's crushed depth (of the contact itself, in the
     load's travel: at most ``stroke``);
     ``energy_deflection_at_point`` (m) is F·G(a, a) for the plot of the struck
@@ -114,6 +116,7 @@ class Verification:
     history: timehistory.History
     verdict: dict[str, float] | None = None
     crushing_force: float = math.inf
+    cap_by: str = "crushing"
     crush: float = 0.0
     stroke: float = math.inf
     section_shear: float = math.nan
@@ -267,7 +270,8 @@ def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
     return Verification(
         energy=energy, time_history=th, amplification=factor,
         verdict={k: factor[k] * energy[k] for k in QUANTITIES},
-        crushing_force=cap, crush=w * float(t.crush[0]) if t.crush is not None else 0.0,
+        crushing_force=cap, cap_by=pointhistory.CAP_BY[int(s.get("cap_by", 0))],
+        crush=w * float(t.crush[0]) if t.crush is not None else 0.0,
         stroke=stroke if math.isfinite(cap) else math.inf,
         energy_deflection_at_point=w * F * f_s,
         mass_ratio=r_mass * w**2, compliance_ratio=f_b / f_s,

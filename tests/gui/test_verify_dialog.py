@@ -211,3 +211,24 @@ def test_the_crushing_note_agrees_with_the_table() -> None:
                     time_history={**v.time_history, "force": 44.3 * 4448.2216})
     assert crushing_note(never, "US") == ("elastic contact in the time history "
                                           "(crushing bound 12,556 kip not reached)")
+
+
+def test_the_note_names_the_web_where_the_web_caps_the_contact() -> None:
+    # seen under Xvfb on the two-level demo (spreader beam 4 m on the line of B2/B-C at
+    # (7.5, 11.5) m): with the web's local yielding capping the contact (AISC 360-16
+    # J10.2 at Fu, 1,705 kN: chain.web_contact_bound) the note read "capped at
+    # 1,705.2 kN by crushing" — the deck's crushing bound there is 69 MN. The note
+    # names what caps it (common practice, no source: a note must not misname its
+    # mechanism)
+    from droprig.gui.verify_dialog import crushing_note
+    from droprig.io.project_file import load_project
+    from droprig.solver import verify_point
+
+    p = load_project(demo_dir() / "two_level_rigging.droprig")
+    v = verify_point(p, "MC1", "Spreader beam 4 m", 7.5, 11.5).verification
+    assert v.cap_by == "web"
+    note = crushing_note(v, "SI")
+    assert "web's local yielding" in note and "by crushing" not in note
+    # off the beam line the deck's crushing bounds the contact
+    v = verify_point(p, "MC1", "Spreader beam 4 m", 3.75, 13.5).verification
+    assert v.cap_by == "crushing" and "crushing bound" in crushing_note(v, "SI")
