@@ -203,21 +203,20 @@ def _verify(s: dict[str, float], M: float, h: float, struck_mass: bool, *,
     """The verification of the struck member ``s`` (:func:`_struck`: one point's
     :func:`droprig.solver.pointhistory.struck_member` record — end condition, L and a
     (m), EI (N·m²), μ (kg/m), share w, own compliance G(a, a) and the path's f_all
-    (m/N), crushing force (N) and stroke (m), and its Timoshenko terms κGA (N) and ρI
-    (kg·m), :func:`droprig.solver.pointhistory.timoshenko_terms`, what caps the contact)
+    (m/N), crushing force (N), stroke (m) and what caps the contact, the Timoshenko
+    terms κGA (N) and ρI (kg·m), :func:`droprig.solver.pointhistory.timoshenko_terms`)
     struck by the load of mass ``M`` (kg) falling ``h`` (m, with the hoist's head:
-    :func:`droprig.solver.chain.energy_fall`);
-    ``struck_mass``: whether the chain's energy method took the struck-mass share.
-    ``chain_factors``: the chain's force on the framing at the point (N) and its
-    factors by :data:`QUANTITIES` (what the verdict uses: the verification never works
-    out a force of its own). The member's lever-rule share w (0.5–1; the rest of the
+    :func:`droprig.solver.chain.energy_fall`); ``struck_mass``: whether the chain's
+    energy method took the struck-mass share. ``chain_factors``: the chain's force on
+    the framing at the point (N) and its factors by :data:`QUANTITIES` (the verdict's:
+    no force of its own). The member's lever-rule share w (0.5–1; the rest of the
     path's compliance beyond w²·G(a, a) may be negative down to −(1 − w²)·G(a, a)):
     the time history sees the load through it (:func:`droprig.solver.pointhistory.
-    shared_load`) and the member's energy-method
-    and verdict demands are w × those of the whole force — the chain's own energy
-    peaks on the member (:func:`droprig.solver.pointhistory.member_energy_peaks`, the
-    one place the w·F × unit-load envelopes are worked out). ``contact_force``: the
-    force row's (N) and factor (:func:`_contact_row`)."""
+    shared_load`) and the member's energy-method and verdict demands are w × those of
+    the whole force — the chain's own energy peaks on the member
+    (:func:`droprig.solver.pointhistory.member_energy_peaks`, the one place the w·F ×
+    unit-load envelopes are worked out). ``contact_force``: the force row's (N) and
+    factor (:func:`_contact_row`)."""
     cond = cast(EndCondition, str(s["cond"]))
     L, EI, mu, a = float(s["L"]), float(s["EI"]), float(s["mu"]), float(s["a"])
     f_s = float(s["g_m"])
