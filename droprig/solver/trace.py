@@ -793,8 +793,12 @@ def _plastic_steps(sheet: _Sheet) -> None:
         add("Plastic deflection", "δ_m", "R_p(δ_m − δ_y/2) = ηWh + Wδ_m",
             {"R_p": (by.R_p[0], "force"), "δ_y": (by.R_p[0] * comp.f[0], "length"),
              "h": (by.h_struct[0], "length")}, by.d_m[0], "length", _SRC_PLASTIC)
-        add("Ductility", "μ", "μ = δ_m / δ_y", {"μ_lim": (project.settings.ductility_limit,
-                                                        "dimensionless")},
+        # below 1 the framing stays below its plastic resistance: what yields is the
+        # deck's flexure or the slab's mechanism (a bare "μ = 0" read as a contradiction)
+        elastic = " of the framing: below 1, it stays elastic; what yields is the deck or " \
+            "the slab" if by.ductility[0] < 1.0 else ""
+        add("Ductility" + elastic, "μ", "μ = δ_m / δ_y",
+            {"μ_lim": (project.settings.ductility_limit, "dimensionless")},
             by.ductility[0], "dimensionless", _SRC_PLASTIC)
         if sr.slab_first[0]:
             add("Support rotation of the slab", "θ", "θ = atan((δ_m − δ_y) / ℓ)",
