@@ -90,7 +90,15 @@ from droprig.solver.floor import FloorModel
 from droprig.solver.geometry import Geometry, take_geo
 from droprig.solver.linear_checks import Check, Family, small_check
 from droprig.solver.loadpath import COND_NAMES
-from droprig.solver.results import CHECKS, DECK, ELASTIC, EXCEEDS, PERFORATES, PLASTIC
+from droprig.solver.results import (
+    CHECKS,
+    DECK,
+    ELASTIC,
+    EXCEEDS,
+    PERFORATES,
+    PLASTIC,
+    severity,
+)
 from droprig.solver.unit_actions import (
     UnitActions,
     argmax_nan_low,
@@ -1519,12 +1527,9 @@ def impact_at(c: Chain, h: np.ndarray | None, sel: np.ndarray | None = None) -> 
     # the deck's own checks (flexure, punching) keep the force the deck's crushing
     # alone lets through: past the web's yield the slab's part of the force and its
     # own inertia still load the deck (conservative for the deck)
-    wc = cap & web
     F_deck = None
-    if wc.any():
-        F_deck = F.copy()
-        F_deck[wc] = crush_capped(W[wc], h[wc], comp.f[wc], sm.eta[wc], F_crush[wc], F[wc],
-                                  depth_available)
+    if (cap & web).any():  # (a new array then: F is capped in place below)
+        F_deck = deck_one_mass(W, h, comp.f, sm.eta, F_crush, F_cap, F, F, depth_available)
     if cap.any():
         Fb, dep, thr = crushing.crushing_limited_impact(W[cap], h[cap], comp.f[cap],
                                                         sm.eta[cap], F_cap[cap],
@@ -1835,6 +1840,22 @@ def crush_capped(W: np.ndarray, h: np.ndarray, f: np.ndarray, eta: np.ndarray,
     F1[cap], _, _ = crushing.crushing_limited_impact(W[cap], h[cap], f[cap], eta[cap],
                                                      F_crush[cap], dep)
     return F1
+
+
+def deck_one_mass(W: np.ndarray, h: np.ndarray, f: np.ndarray, eta: np.ndarray,
+                  F_crush: np.ndarray, F_cap: np.ndarray, F_el: np.ndarray, F1: np.ndarray,
+                  depth_available: float) -> np.ndarray:
+    """The one-mass force the deck's checks take (N): where the web's local yielding
+    caps the contact below the deck's crushing (``F_cap`` < ``F_crush``, N) the
+    elastic ``F_el`` capped by the deck's crushing alone (:func:`crush_capped` over the
+    deck's ``depth_available``, m): past the web's yield the slab's part of the force
+    and its own inertia still load the deck (conservative for the deck); elsewhere the
+    one-mass force ``F1`` (N). W in N, h in m, f in m/N. Callers must not write into
+    the result."""
+    web = F_cap < F_crush
+    if not web.any():
+        return F1
+    return np.where(web, crush_capped(W, h, f, eta, F_crush, F_el, depth_available), F1)
 
 
 def _one_mass_capped(W: np.ndarray, h: np.ndarray, f: np.ndarray, F_crush: np.ndarray,
@@ -2644,6 +2665,14 @@ def _groups(d: Drop) -> np.ndarray:
     return np.unique(group, return_inverse=True)[1]
 
 
+def _history_ok(d: Drop, F: np.ndarray, h: np.ndarray) -> np.ndarray:
+    """The points that can be run through their own time history (bool): on a member
+    of the path (not over a deck opening) with a finite positive force F (N) and fall
+    h (m)."""
+    return ((d.geo.path.pair >= 0) & ~d.geo.opening & np.isfinite(F) & (F > 0.0)
+            & np.isfinite(h) & (h > 0.0))
+
+
 def _top_per_group(key: np.ndarray, gi: np.ndarray, cand: np.ndarray, k: int) -> np.ndarray:
     """The points ``cand`` with the ``k`` largest ``key`` in each group ``gi``,
     ascending."""
@@ -2666,8 +2695,7 @@ def _point_histories(c: Chain, h: np.ndarray, F: np.ndarray, factor: dict[str, n
     floor_off = not FLOOR_POINT_HISTORY or (d.trial and not TRIAL_POINT_HISTORY)
     if d.bare is None and floor_off:
         return th, None
-    ok = ((d.geo.path.pair >= 0) & ~d.geo.opening & np.isfinite(F) & (F > 0.0)
-          & np.isfinite(h) & (h > 0.0))
+    ok = _history_ok(d, F, h)
     if th_points is not None:
         th = np.asarray(th_points, bool) & ok
         if not th.any():
@@ -3968,9 +3996,7 @@ class TwoForceKernel:
         F1 = crush_capped(W, he, f, eta, F_cap, F_el, self.cap_depth[r])
         F1d = self._deck_force(W, he, f, eta, F_crush, F_cap, F_el, F1)
         Fc2, Ff2 = self.env.at(he, rows)
-        if self.b_edges is not None:
-            Fc2 = np.maximum(Fc2, footprint_mod.tilted_contact_bound(
-                W, he, self.f_series[r], self.f_s[r], self.b_edges[r]))
+        Fc2 = self._with_edges(Fc2, W, he, r)
         return self._caps(W, he, f, eta, F_crush, F1, Fc2, Ff2, self.soft[r], need_eta,
                           F_cap, F1d)
 
@@ -3995,9 +4021,7 @@ class TwoForceKernel:
             F1d = self._deck_force(Wq, hq, f, eq, F_crush, F_cap, F_el, F1)
             Fc2, Ff2 = struck_mass_mod.envelope_two_forces(Wq, hq, self.f_series[sub],
                                                            self.f_s[sub], self.m2[sub])
-            if self.b_edges is not None:
-                Fc2 = np.maximum(Fc2, footprint_mod.tilted_contact_bound(
-                    Wq, hq, self.f_series[sub], self.f_s[sub], self.b_edges[sub]))
+            Fc2 = self._with_edges(Fc2, Wq, hq, sub)
             Ff[q], F_deck[q], eta_f[q] = self._caps(Wq, hq, f, eq, F_crush, F1, Fc2, Ff2,
                                                     self.soft[sub], need_eta, F_cap, F1d)
         return self._on_pads((Ff, F_deck, eta_f), rows, W, he, eta, mass=True)
@@ -4057,16 +4081,22 @@ class TwoForceKernel:
             self._have[u] = True
         return self._floor[rows]
 
+    def _with_edges(self, Fc2: np.ndarray, W: np.ndarray, he: np.ndarray,
+                    r: slice | np.ndarray) -> np.ndarray:
+        """The contact force ``Fc2`` (N) of the kernel rows ``r`` at least the edges'
+        energy bound where the load lands tilted (:func:`tilted_far_edge`'s, on the
+        kernel's own copies; ``Fc2`` itself for a flat landing)."""
+        if self.b_edges is None:
+            return Fc2
+        return np.maximum(Fc2, footprint_mod.tilted_contact_bound(
+            W, he, self.f_series[r], self.f_s[r], self.b_edges[r]))
+
     def _deck_force(self, W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
                     F_crush: np.ndarray, F_cap: np.ndarray, F_el: np.ndarray,
                     F1: np.ndarray) -> np.ndarray:
-        """The one-mass force the deck's checks take (N): capped by the deck's
-        crushing alone, as the impact step's ``F_deck`` (``F1`` where the web's cap
-        does not lie below the crushing)."""
-        web = F_cap < F_crush
-        if not web.any():
-            return F1
-        return np.where(web, crush_capped(W, he, f, eta, F_crush, F_el, self.depth), F1)
+        """The one-mass force the deck's checks take (N), as the impact step's
+        (:func:`deck_one_mass`, over the deck's crushing depth)."""
+        return deck_one_mass(W, he, f, eta, F_crush, F_cap, F_el, F1, self.depth)
 
     @staticmethod
     def _caps(W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
@@ -4763,7 +4793,7 @@ def _history_candidates(c: Chain, per_group: int) -> np.ndarray | None:
     """The points to run through their own time history (bool per point): those
     already run and, in each group (bay × load), the :data:`TH_PER_ROUND` whose
     verdict at the bounds — response, then U (the order the bay summary takes, as
-    :func:`droprig.solver.refine.severity`) — is worst among those worse than the
+    :func:`droprig.solver.results.severity`) — is worst among those worse than the
     worst of the group's run points. ``None``: nothing to add (the setting or the
     floors' histories off, a trial, or every group's worst already a history's)."""
     d = c.drop
@@ -4773,11 +4803,8 @@ def _history_candidates(c: Chain, per_group: int) -> np.ndarray | None:
         return None
     A_max = np.maximum(np.maximum(da.A_force, da.A_moment),
                        np.maximum(da.A_shear, da.A_deflection))
-    imp, h = c[Impact], c[LoadInputs].h
-    ok = ((d.geo.path.pair >= 0) & ~d.geo.opening & np.isfinite(imp.F) & (imp.F > 0.0)
-          & np.isfinite(h) & (h > 0.0) & (A_max > 1.0 + 1e-9))
-    U = c[Checks].U
-    sev = c[BeyondYield].response * 1e6 + np.minimum(np.where(np.isnan(U), 0.0, U), 1e5)
+    ok = _history_ok(d, c[Impact].F, c[LoadInputs].h) & (A_max > 1.0 + 1e-9)
+    sev = severity(c[Checks].U, c[BeyondYield].response)
     gi = _groups(d)
     worst_run = np.full(gi.max(initial=-1) + 1, -np.inf)
     np.maximum.at(worst_run, gi, np.where(da.th, sev, -np.inf))

@@ -68,7 +68,6 @@ from droprig.solver.geometry import (
 )
 from droprig.solver.loadpath import locate
 from droprig.solver.local_damage import impact_speed, is_hard, perforation_mass
-from droprig.solver.refine import severity
 from droprig.solver.results import (
     ELASTIC,
     EXCEEDS,
@@ -76,6 +75,7 @@ from droprig.solver.results import (
     PLASTIC,
     RESPONSES,
     BaySummary,
+    severity,
 )
 from droprig.solver.summary import bay_advice
 from droprig.solver.unit_actions import unit_actions

@@ -236,7 +236,7 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     # what caps the contact (CAP_BY): the deck's crushing, the web's local yielding
     # under the load (chain.web_contact_bound; deck-less, the bare flange's bound,
     # chain.bare_flange_bound, the same mechanism) or the crushable layer
-    web = (imp.F_web[sel] < imp.F_crush[sel]) | (d.bare is not None)
+    web = (imp.F_cap[sel] < imp.F_crush[sel]) | (d.bare is not None)
     cap_by = np.where(crushable, 2, np.where(web, 1, 0))
     w = np.clip(share[rows, k], 0.5, 1.0)  # the larger of two shares summing to 1
     return {"member": m, "cond": cond, "L": L, "a": a, "EI": EI, "mu": mu_th, "kGA": kGA,

@@ -20,6 +20,7 @@ from droprig.solver.geometry import (
     concat_geo,
     point_geometry,
 )
+from droprig.solver.results import severity
 
 if TYPE_CHECKING:
     from droprig.solver.outcome_rows import OutcomeRows
@@ -30,12 +31,6 @@ REFINE_PASSES = 3
 """Local refinement passes around the worst points of each bay (spacing ÷4 each)."""
 REFINE_TOP = (2, 1, 1)
 """Points per bay and load around which each pass refines."""
-
-
-def severity(utilisation: np.ndarray, response: np.ndarray) -> np.ndarray:
-    """Sort key, larger = worse: response state, then utilisation."""
-    U = np.where(np.isnan(utilisation), 0.0, utilisation)
-    return response * 1e6 + np.minimum(U, 1e5)
 
 
 def _refine(fm: FloorModel, zone: LiftZone, res: dict[str, np.ndarray],

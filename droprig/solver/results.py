@@ -331,3 +331,11 @@ class Results:
     @property
     def n_points(self) -> int:
         return sum(c.n for c in self.cases)
+
+
+def severity(utilisation: np.ndarray, response: np.ndarray) -> np.ndarray:
+    """Sort key, larger = worse: response state, then utilisation (the order of a
+    bay's verdict: :mod:`droprig.solver.summary`, the refinement, the confirmation
+    and the choice of points run through their own history)."""
+    U = np.where(np.isnan(utilisation), 0.0, utilisation)
+    return response * 1e6 + np.minimum(U, 1e5)

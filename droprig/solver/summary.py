@@ -15,7 +15,6 @@ import numpy as np
 from droprig.model import STRIKE_ORIENTATIONS, Level, LiftLoad, LiftZone, bays
 from droprig.solver import droppoints, impact
 from droprig.solver.floor import remember
-from droprig.solver.refine import severity
 from droprig.solver.results import (
     CHECKS,
     DECK,
@@ -28,6 +27,7 @@ from droprig.solver.results import (
     AdviceKind,
     BaySummary,
     CaseResult,
+    severity,
 )
 
 __all__ = ["MAX_MAT_TRAVEL", "MIN_USEFUL_HEIGHT", "Advice", "bay_advice",
