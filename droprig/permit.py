@@ -46,6 +46,8 @@ from droprig.model import (
     bay_ranges,
     bays,
     lift_point_tags,
+    limit_is_practical,
+    pads_above,
 )
 from droprig.outcomes import fmt_utilisation_check
 from droprig.solver import (
@@ -238,6 +240,9 @@ class Condition:
     ``detail``: words without numbers for ``not_assessed`` / ``separate_signoff``.
     ``protection``: the pad or mat itself, for its specification in the sentence.
     ``cause``: why the level below is kept clear (:data:`BELOW_CAUSES`).
+    ``off_pads``: for ``cap_hook``, the pads or mats on those bays whose top stands
+    at or above the limit (:func:`droprig.model.pads_above`): the load is kept off
+    them there, the limit holds over the rest of the bays.
     """
 
     kind: ConditionKind
@@ -257,6 +262,7 @@ class Condition:
     protection: ProtectionArea | None = None
     cause: str = ""
     pad_stress: float | None = None
+    off_pads: tuple[ProtectionArea, ...] = ()
 
     def where(self, level: Level | None = None) -> str:
         """The bays (or the whole zone) the condition covers, in words. With the
@@ -282,6 +288,18 @@ class Condition:
             return ""
         body = pad_words(pa, system, self.pad_stress)
         return f"{pa.name + ': ' if pa.name else ''}{body}; {_rect_text(pa.area, system)}"
+
+    def _off_pads(self, system: UnitSystem) -> str:
+        """The ``cap_hook`` sentence's words for :attr:`off_pads` ("" without)."""
+        if not self.off_pads:
+            return ""
+        top = min(pa.thickness for pa in self.off_pads)
+        ids = _join([pa.id for pa in self.off_pads])
+        word = "pad" if len(self.off_pads) == 1 else "pads"
+        its = "its top stands" if len(self.off_pads) == 1 else "their tops stand at least"
+        return (f" Keep it off {word} {ids} there: {its} "
+                f"{units.fmt(top, 'small_length', system)} above the finished surface, "
+                "above that limit.")
 
     def sentence(self, system: UnitSystem = "SI", level: Level | None = None) -> str:
         """The one wording of this condition, with its numbers in ``system``; with
@@ -312,7 +330,7 @@ class Condition:
                             "length for the hook)")
             return (f"Over {where}{self._for()}: keep the load's underside no more "
                     f"than {fmt_height(self.max_drop_height, system)} above the finished "
-                    f"surface{hook}.")
+                    f"surface{hook}.{self._off_pads(system)}")
         if self.kind == "exclude_area":
             return (f"Do not carry {self.load_name or 'any load'} over {where}; "
                     "keep that area clear of people while the load is lifted.")
@@ -588,7 +606,7 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
             h = max(LIMIT_MARGIN * h, b.planned_drop_height or 0.0)
             conds.append(Condition("cap_hook", max_drop_height=h,  # type: ignore[arg-type]
                                    max_hook_elevation=hook(h), hang_length=load.hang_length,
-                                   region=region, **base))
+                                   region=region, off_pads=off(h), **base))
 
     conds: list[Condition] = []
     pads = {pa.id: pa for pa in project.protection_areas
@@ -599,10 +617,17 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
                                protection=pa, pad_stress=stress, **base))
     kind = b.advice_kind
     verdict: Verdict = "acceptable_with_conditions"
-    thickest = max((pa.thickness for pa in pads.values()), default=0.0)
+
+    def practical(h: float) -> bool:
+        # the solver's rule (summary.without_limit_under_pads): pads standing above
+        # the limit covering the whole bay leave no practical hook limit
+        return limit_is_practical(pads.values(), rect, h)
+
+    def off(h: float | None) -> tuple[ProtectionArea, ...]:
+        return () if h is None else pads_above(pads.values(), rect, h)
+
     if kind in ("limit_height", "limit_or_mat") and b.height_limit is not None and \
-            b.height_limit <= thickest:
-        # the limit lies below the top of a pad in the bay: no practical hook limit
+            not practical(b.height_limit):
         kind = "mat" if kind == "limit_or_mat" else "keep_clear"
     below_id = b.level_below or _level_below(project, b.level_id)
     if b.response == "perforates":
@@ -625,10 +650,11 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
         # limits (the solver's perforation_limit); with none, or under a pad's top,
         # no limit is practical and the bay is excluded
         cap, yields = b.height_limit, b.height_limit_yields
-        if cap is not None and cap > thickest:
+        if cap is not None and practical(cap):
             conds.append(Condition("cap_hook", max_drop_height=cap,  # type: ignore
                                    max_hook_elevation=hook(cap),
-                                   hang_length=load.hang_length, region=region, **base))
+                                   hang_length=load.hang_length, region=region,
+                                   off_pads=off(cap), **base))
             if yields:
                 conds.append(Condition("separate_signoff", detail=YIELD_AT_LIMIT,  # type: ignore
                                        **base))
@@ -637,7 +663,8 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
     if kind == "limit_height" or (kind == "limit_or_mat" and b.height_limit is not None):
         conds.append(Condition("cap_hook", max_drop_height=b.height_limit,  # type: ignore
                                max_hook_elevation=hook(b.height_limit),
-                               hang_length=load.hang_length, region=region, **base))
+                               hang_length=load.hang_length, region=region,
+                               off_pads=off(b.height_limit), **base))
         if b.height_limit_yields:
             conds.append(Condition("separate_signoff", detail=YIELD_AT_LIMIT,  # type: ignore
                                    **base))
@@ -661,6 +688,11 @@ def _bay_verdict(project: Project, b: BaySummary, rect: Rect) -> BayVerdict:
             conds.append(Condition("exclude_level_below", region=region,  # type: ignore
                                    below_level_id=_level_below(project, b.level_id),
                                    **base))
+    kept_off = {pa.id for c in conds if c.kind == "cap_hook" for pa in c.off_pads}
+    if kept_off:
+        # the load is kept off those pads here: the bay does not rely on them
+        conds = [c for c in conds
+                 if not (c.kind == "lay_protection" and c.protection_id in kept_off)]
     if not conds:
         verdict = "acceptable"
     caps = [c.max_hook_elevation for c in conds

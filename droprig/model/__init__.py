@@ -38,6 +38,9 @@ from droprig.model.project import (
     ProtectionArea,
     Rect,
     Settings,
+    limit_is_practical,
+    pads_above,
+    uncovered_area,
 )
 from droprig.model.sections import E_STEEL, Concrete, Grade, Section
 
@@ -79,6 +82,9 @@ __all__ = [
     "generate_level",
     "id_ranges",
     "lift_point_tags",
+    "limit_is_practical",
+    "pads_above",
     "resting_on",
+    "uncovered_area",
     "without_members",
 ]

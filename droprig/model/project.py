@@ -8,6 +8,7 @@ Edit with :func:`dataclasses.replace`.
 from __future__ import annotations
 
 import copy
+import itertools
 import math
 from collections.abc import Iterable
 from dataclasses import dataclass, field
@@ -712,6 +713,55 @@ class ProtectionArea:
                             unit="N")
             check_range(f"protection {self.id}.crush_stroke", self.crush_stroke, 1e-3, 3.0,
                         unit="m")
+
+
+def uncovered_area(whole: Rect, parts: Iterable[Rect]) -> float:
+    """Plan area (m²) of ``whole`` that no rectangle of ``parts`` covers.
+
+    A = Σ over the cells of ``whole`` cut at every x and y edge of the parts
+    (coordinate compression) of the cells that lie in no part: exact for axis-aligned
+    rectangles (plane geometry; common practice, no source). O(n³) in the number of
+    parts — a bay meets a handful of pads."""
+    clip = [(max(r.x0, whole.x0), max(r.y0, whole.y0), min(r.x1, whole.x1),
+             min(r.y1, whole.y1)) for r in parts]
+    clip = [c for c in clip if c[2] > c[0] and c[3] > c[1]]
+    xs = sorted({whole.x0, whole.x1, *(c[0] for c in clip), *(c[2] for c in clip)})
+    ys = sorted({whole.y0, whole.y1, *(c[1] for c in clip), *(c[3] for c in clip)})
+    left = 0.0
+    for xa, xb in itertools.pairwise(xs):
+        for ya, yb in itertools.pairwise(ys):
+            xm, ym = 0.5 * (xa + xb), 0.5 * (ya + yb)
+            if not any(c[0] <= xm <= c[2] and c[1] <= ym <= c[3] for c in clip):
+                left += (xb - xa) * (yb - ya)
+    return left
+
+
+def pads_above(pads: Iterable[ProtectionArea], rect: Rect,
+               height: float) -> tuple[ProtectionArea, ...]:
+    """The pads and mats of ``pads`` that lie on ``rect`` (overlap it with an area)
+    and whose top — their ``thickness``, m above the finished surface — stands at or
+    above ``height`` (m on the same datum): a load whose underside is kept to that
+    height cannot pass over them there (common practice, no source)."""
+    return tuple(pa for pa in pads
+                 if pa.thickness >= height
+                 and min(pa.area.x1, rect.x1) - max(pa.area.x0, rect.x0) > GEOMETRY_TOL
+                 and min(pa.area.y1, rect.y1) - max(pa.area.y0, rect.y0) > GEOMETRY_TOL)
+
+
+def limit_is_practical(pads: Iterable[ProtectionArea], rect: Rect,
+                       height: float) -> bool:
+    """Whether a drop-height limit ``height`` (m above the finished surface) can be
+    kept over the bay ``rect``: yes unless the pads whose top stands at or above it
+    (:func:`pads_above`) cover the whole bay. Where they cover part of it, the load
+    is kept off them there and the limit holds over the rest (a pad reaching a
+    0.3 m lip into a neighbouring bay took away that bay's limit: the steel demo's
+    plywood pad over 3-4/B-C kept the joist bundle off five bays around it).
+    One rule for the solver's bay summary and the permit. Common practice, no
+    source: a pad standing above the limit is an obstacle to carry the load round,
+    not a reason to keep it off the bay."""
+    above = pads_above(pads, rect, height)
+    return not above or uncovered_area(rect, (pa.area for pa in above)) > \
+        GEOMETRY_TOL * max(rect.width * rect.height, 1.0)
 
 
 @dataclass(frozen=True)

@@ -945,8 +945,24 @@ class _Builder:
         self.story.append(Spacer(1, 3))
         self.story.append(_table(rows, [0.07 * w, 0.2 * w, 0.09 * w, 0.11 * w, 0.16 * w,
                                         0.07 * w, 0.13 * w, 0.17 * w], extra=extra))
-        # conditions
+        # what stops a signature first, whatever the length of the conditions below:
+        # with 16 conditions the lift plan's clash and the caution went to page 2 (the
+        # format-1 roof once a pad's lip no longer kept the drained unit off two bays)
+        flags = self.title_flags()
+        if flags:
+            self.story.append(self.P("Title block incomplete: " + esc("; ".join(flags))
+                                     + ". Complete it by hand before signing.", st.caution))
+        self.story.extend(self.permit_flags())
+        self.story.append(Spacer(1, 3))
+        self.story.append(self.P(esc(_caution()), st.caution))
+        # conditions (how a bay range reads, before the first one: on page 1)
         self.story.append(self.P("Permit conditions", st.h2))
+        example = self._range_example()
+        if example:
+            self.story.append(self.P(
+                f"A bay range such as {esc(example)} stands for every bay within those "
+                "grid lines, not for one bay; section 3 lists the bays one by one.",
+                st.cell))
         if not self.conditions:
             self.story.append(self.P("None: every assessed bay stays elastic on the bare "
                                      "deck for every load.", st.body))
@@ -954,21 +970,7 @@ class _Builder:
             self.story.append(self.P(f"<b>C{k + 1}</b>&nbsp;&nbsp;"
                                      + esc(c.sentence(self.sys, self._level(c))),
                                      st.cond))
-        flags = self.title_flags()
-        if flags:
-            self.story.append(self.P("Title block incomplete: " + esc("; ".join(flags))
-                                     + ". Complete it by hand before signing.", st.caution))
-        self.story.extend(self.permit_flags())
-        example = self._range_example()
-        if example:  # after the flags: they must stay on page 1
-            self.story.append(self.P(
-                f"A bay range such as {esc(example)} stands for every bay within those "
-                "grid lines, not for one bay; section 3 lists the bays one by one.",
-                st.cell))
-        self.story.append(Spacer(1, 3))
-        self.story.append(self.P(esc(_caution()), st.caution))
         if any(getattr(c, "kind", "") == "cap_hook" for c in self.conditions):
-            # after the caution: that must stay on page 1
             self.story.append(self.P(esc(LIMIT_NOTE), st.cell))
         self.story.append(KeepTogether(self.signoff()))
 

@@ -53,7 +53,7 @@ from dataclasses import fields, replace
 
 import numpy as np
 
-from droprig.model import Level, LiftLoad, LiftZone, Project, corridor_problem
+from droprig.model import Level, LiftLoad, LiftZone, Project, bays, corridor_problem
 from droprig.solver import (
     cancel,
     cascade,
@@ -171,8 +171,9 @@ def analyse_zone(project: Project, zone_id: str,
         # forward chain before it is printed
         summaries = (confirm_zone(fm, project, zone, allres, geo, cases_and_bays)
                      if confirm else cases_and_bays(allres))
-        thick = {pa.id: pa.thickness for pa in project.protection_areas}
-        summaries = [without_limit_under_pads(s, thick) for s in summaries]
+        pads = [pa for pa in project.protection_areas if pa.level_id == level.id]
+        rects = {b.id: b.rect for b in bays(level)}
+        summaries = [without_limit_under_pads(s, pads, rects[s.bay_id]) for s in summaries]
     cases = list(zone_cases)
     if below is not None and zone_cases:
         # (the falls are worked out in full in either stage: their rows are the

@@ -12,7 +12,16 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
-from droprig.model import STRIKE_ORIENTATIONS, Level, LiftLoad, LiftZone, bays
+from droprig.model import (
+    STRIKE_ORIENTATIONS,
+    Level,
+    LiftLoad,
+    LiftZone,
+    ProtectionArea,
+    Rect,
+    bays,
+    limit_is_practical,
+)
 from droprig.solver import droppoints, impact
 from droprig.solver.floor import remember
 from droprig.solver.results import (
@@ -70,19 +79,25 @@ def offered_limit(h: float, h_elastic: float | None) -> tuple[float, bool]:
     return min(h, LIMIT_MARGIN * float(h_elastic)), False
 
 
-def without_limit_under_pads(s: BaySummary, thickness: dict[str, float]) -> BaySummary:
-    """The bay summary ``s`` with a drop-height limit at or below the top of a pad or
-    mat the bay's drop points lie on dropped (``thickness``: the protection areas'
-    thicknesses by id, m): the load would have to pass the bay with its underside
-    below the pad's top, so no hook limit is practical and the permit keeps the load
-    off the bay (:func:`droprig.permit.derive_conditions`, the same rule). Such a
-    limit was not confirmed by the forward chain either (the rooftop demo's drained
-    unit, bay 1-2/B-C: 0.115 m kept in the results against 0.113 m on a fine line):
-    no result carries it. ``limit_or_mat`` becomes ``mat``, ``limit_height``
-    ``keep_clear``; a deck the load may go through keeps its advice without a limit
-    (the permit then excludes the bay). Common practice, no source."""
-    top = max((thickness.get(p, 0.0) for p in s.protections), default=0.0)
-    if s.height_limit is None or s.height_limit > top or top <= 0.0:
+def without_limit_under_pads(s: BaySummary, pads: Sequence[ProtectionArea],
+                             rect: Rect) -> BaySummary:
+    """The bay summary ``s`` (of the bay ``rect``) with a drop-height limit dropped
+    where no hook limit is practical: the pads and mats of ``pads`` the bay's drop
+    points lie on (``s.protections``) whose top stands at or above the limit cover
+    the whole bay (:func:`droprig.model.limit_is_practical`), so the load would have
+    to pass every part of it with its underside below a pad's top. Where they cover
+    part of it, the limit stays: the load is kept off those pads there (the permit
+    says so, :func:`droprig.permit.derive_conditions`; the confirmation's trials
+    already leave out the places on such a pad, :mod:`droprig.solver.confirm`).
+    ``limit_or_mat`` becomes ``mat``, ``limit_height`` ``keep_clear``; a deck the load
+    may go through keeps its advice without a limit (the permit then excludes the
+    bay). Common practice, no source. Until stop 33 any such pad on the bay took the
+    limit away: the steel demo's plywood pad over 3-4/B-C, reaching 0.3 m into the
+    five bays around it, kept the joist bundle and the spreader bar off them."""
+    if s.height_limit is None:
+        return s
+    mine = [pa for pa in pads if pa.id in s.protections]
+    if limit_is_practical(mine, rect, s.height_limit):
         return s
     return _without_limit(s)
 
