@@ -921,8 +921,8 @@ def _tilted_crush_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
     load of weight ``W`` (N) landing tilted on crushable layer ``i`` (and the layers
     pressed with it, as :func:`_layer_credit`): the edge strip ``cl`` × ``cw`` (m)
     sinks into the layer and the crushed band widens to the whole base as it goes
-    (:func:`droprig.solver.footprint.wedge_crush_work` at the tilt
-    :data:`~droprig.solver.footprint.PAD_TILT`; the base of width b = max(``fl``,
+    (:func:`droprig.solver.footprint.wedge_crush_work` at the project's design tilt,
+    :func:`landing_tilt`; the base of width b = max(``fl``,
     ``fw``) across the edge lies on either side of it, in either plan orientation: the
     least work of the four, conservative). Over the layer's stroke s (the least of the
     layers the band reaches) the layer does the work E = Σσ_c·ℓ·∫o dδ and ends at the
@@ -942,7 +942,7 @@ def _tilted_crush_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
                 and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
     xs, ys, ln, wd = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
     b = np.maximum(fl[sel], fw[sel])
-    tilt = footprint_mod.PAD_TILT
+    tilt = landing_tilt(d)
     best_E = np.full(xs.shape, np.inf)
     best_F = np.zeros(xs.shape)
     best_s = np.full(xs.shape, np.inf)
@@ -1632,13 +1632,21 @@ def tilted_far_edge(c: Chain, h: np.ndarray, rows: np.ndarray) -> np.ndarray:
     on a bare deck, at the energy heights ``h`` (m): the energy bound of either edge's
     strike, :func:`droprig.solver.footprint.tilted_contact_bound`, the edges the base's
     width across the edge strip apart (max of the footprint's sides, m), each on the
-    contact springs ``f_series``, over the framing ``f_s`` (m/N), at the tilt
-    :data:`~droprig.solver.footprint.PAD_TILT`. Non-decreasing in h (the inverse
-    answers' bisection stays exact)."""
+    contact springs ``f_series``, over the framing ``f_s`` (m/N), at the project's
+    design tilt (:func:`landing_tilt`). Non-decreasing in h (the inverse answers'
+    bisection stays exact)."""
     inp, comp = c[LoadInputs], c[Compliance]
     b = np.maximum(inp.fl[rows], inp.fw[rows])
     return footprint_mod.tilted_contact_bound(inp.W[rows], h[rows], comp.f_series[rows],
-                                              comp.f_s[rows], b)
+                                              comp.f_s[rows], b, landing_tilt(c.drop))
+
+
+def landing_tilt(d: Drop) -> float:
+    """The design tilt of a tilted landing, rad: the project's ``Settings.design_tilt``
+    (the tilt the lift plan allows, 0–15°; default
+    :data:`~droprig.solver.footprint.PAD_TILT`, 5°). Every use of the tilt in the chain,
+    its kernels and the calculation trace reads it here."""
+    return float(d.project.settings.design_tilt)
 
 
 def _bottomed_forces(c: Chain, h: np.ndarray, one: Impact, bot: np.ndarray
@@ -3916,6 +3924,7 @@ class TwoForceKernel:
         # (tilted_far_edge), the edges the base's width across the strip apart
         self.b_edges = (np.maximum(inp.fl, inp.fw)[idx] if c.drop.landing == "tilted"
                         else None)
+        self.tilt = landing_tilt(c.drop)
         # the points on a crushable layer (after_bottoming where it bottoms out)
         self.pad = pad_two_mass(c)[idx]
         self.F_c, self.s_c = inp.F_c[idx], inp.s_c[idx]
@@ -4089,7 +4098,7 @@ class TwoForceKernel:
         if self.b_edges is None:
             return Fc2
         return np.maximum(Fc2, footprint_mod.tilted_contact_bound(
-            W, he, self.f_series[r], self.f_s[r], self.b_edges[r]))
+            W, he, self.f_series[r], self.f_s[r], self.b_edges[r], self.tilt))
 
     def _deck_force(self, W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
                     F_crush: np.ndarray, F_cap: np.ndarray, F_el: np.ndarray,

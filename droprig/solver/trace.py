@@ -37,6 +37,7 @@ from droprig.solver.chain import (
     StruckMass,
     crushing_parts,
     energy_fall,
+    landing_tilt,
     outputs,
     residual_height,
     slab_rotation_limit,
@@ -45,7 +46,7 @@ from droprig.solver.crush_table import crush_groups, table_psi
 from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import GoverningPoint, governing_point, point_case
 from droprig.solver.floor import FloorModel
-from droprig.solver.footprint import EDGE_CONTACT_WIDTH, PAD_TILT, tilted_contact_bound
+from droprig.solver.footprint import EDGE_CONTACT_WIDTH, tilted_contact_bound
 from droprig.solver.geometry import Geometry
 from droprig.solver.impact import G, crush_duration
 from droprig.solver.loadpath import COND_NAMES
@@ -202,9 +203,12 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     _tip_off_steps(sheet, gp)
     if project.settings.tilted_landing:
         add("Landing that governs: " + ("tilted, on the shorter edge of the footprint"
-                                        if landing == "tilted" else "flat, on the footprint"),
+                                        if landing == "tilted" else "flat, on the footprint")
+            + " (the tilted landing checked for any tilt up to the design tilt θ_d)",
             "A_c", "A_c = contact on the deck (footprint, or edge strip of width w_e)",
-            {"w_e": (EDGE_CONTACT_WIDTH, "length")}, inp.foot_l[0] * inp.foot_w[0], "area",
+            {"w_e": (EDGE_CONTACT_WIDTH, "length"),
+             "θ_d": (project.settings.design_tilt, "angle")},
+            inp.foot_l[0] * inp.foot_w[0], "area",
             "both landings checked, the worse governs (common practice, no source)")
     in_zone = bool(droppoints.in_zone(zone, xa, ya)[0])
     if not in_zone:
@@ -550,14 +554,17 @@ def _two_force_steps(sheet: _Sheet, W: float, h_e: float) -> None:
     m2 = float(sm.m2[0])  # the struck mass m_e of the path steps
     if sheet.chain.drop.landing == "tilted":
         b_e = max(float(inp.fl[0]), float(inp.fw[0]))
+        tilt = landing_tilt(sheet.chain.drop)
         add("Tilted landing: the least contact force, the energy bound of either edge's "
-            f"strike for a tilt up to {math.degrees(PAD_TILT):g}° (the far edge falls "
-            "b·tan θ further and may meet the floor on its rebound)", "F_edge",
+            f"strike for a tilt up to {math.degrees(tilt):g}° (the project's design tilt; "
+            "the far edge falls b·tan θ further and may meet the floor on its rebound)",
+            "F_edge",
             "F_edge = W/2 + √(W²/4 + 2W·H'/f_c), H' = h_e + b·tan θ/2 + W·f_c/8 + W·f₂/2",
             {"W": (W, "force"), "h_e": (h_e, "length"), "b": (b_e, "length"),
-             "θ": (PAD_TILT, "angle"), "f_c": (comp.f_series[0], "compliance"),
+             "θ": (tilt, "angle"), "f_c": (comp.f_series[0], "compliance"),
              "f₂": (comp.f_s[0], "compliance")},
-            float(tilted_contact_bound(W, h_e, comp.f_series[0], comp.f_s[0], b_e)[()]),
+            float(tilted_contact_bound(W, h_e, comp.f_series[0], comp.f_s[0], b_e,
+                                       tilt)[()]),
             "force", "energy method of impact, Gere 7th ed. §9.10 (from memory); "
             "droprig.solver.footprint.tilted_contact_bound")
     add("Contact force between load and struck surface (largest for any fall up to "
