@@ -879,7 +879,8 @@ def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
     once spent is its thickness less this, :func:`_spent_layer`). A load landing
     tilted on a crushable layer gets the wedge's credit (:func:`_tilted_crush_credit`,
     ``W`` the load's weight, N): then ``s_c`` is the stroke of that credit, not the
-    layer's."""
+    layer's; on a spring mat, the whole base's stiffness where the whole base lies on
+    the mat (:func:`_tilted_mat_credit`)."""
     n, lv = d.n, d.fm.level
     t_mat = np.zeros(n)
     f_mat = np.zeros(n)
@@ -898,6 +899,8 @@ def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
         t_mat[sel] = pa.thickness
         credit, stroke = _layer_credit(d, i, sel, fl, fw, cl, cw)
         if pa.kind == "spring":
+            if d.landing == "tilted":
+                credit = _tilted_mat_credit(d, i, sel, fl, fw)
             f_mat[sel] = np.where(credit > 0.0, 1.0 / np.where(credit > 0.0, credit, 1.0),
                                   0.0)
         else:
@@ -911,6 +914,48 @@ def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
             F_c[sel] = credit
             s_c[sel] = s_full
     return t_mat, f_mat, F_c, s_c, crushable, s_layer
+
+
+def _tilted_mat_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
+                       fw: np.ndarray) -> np.ndarray:
+    """The stiffness (N/m; 0 none) credited at the points ``sel`` to spring mat ``i``
+    (and the mats of its thickness it abuts, as :func:`_layer_credit`) under a load
+    landing tilted on one edge: the whole base ``fl`` × ``fw`` (m) on the mat, spread
+    1:1 through it (:func:`droprig.solver.pads.tilted_mat_stiffness`: the band under
+    the sinking edge widens to the whole base, whose stiffness bounds its slope; the
+    edge strip alone read the force low), at the stiffest modulus of the mats pressed
+    (an older mat given by its stiffness for the load's footprint: that stiffness).
+    Only where the whole base lies on those mats in both plan orientations: a base
+    partly off them turns down onto the bare deck beside them, in parallel with the
+    mat and far stiffer, so no mat is credited there (f_mat = 0, conservative)."""
+    prot, lv, geo = d.project.protection_areas, d.fm.level, d.geo
+    pa = prot[i]
+    together = [j for j, o in enumerate(prot)
+                if o.level_id == lv.id and o.kind == "spring"
+                and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+    xs, ys, a, b = geo.x[sel], geo.y[sel], fl[sel], fw[sel]
+    boxes = [(prot[j].area.x0, prot[j].area.y0, prot[j].area.x1, prot[j].area.y1)
+             for j in together]
+    # mats that overlap each other would count their common part twice: then one
+    # mat must hold the whole base
+    apart = not any(float(pads.rect_overlap_area(p, q)) > 0.0
+                    for u, p in enumerate(boxes) for q in boxes[u + 1:])
+    whole = np.ones(xs.shape, dtype=bool)
+    k = np.zeros(xs.shape)
+    for along_x in (True, False):
+        rect = pads.footprint_rect(xs, ys, a, b, along_x)
+        on = np.zeros(xs.shape)
+        for j, box in zip(together, boxes, strict=True):
+            o = prot[j]
+            A_ov = pads.rect_overlap_area(rect, box)
+            on = on + A_ov if apart else np.maximum(on, A_ov)
+            if o.modulus is not None:
+                k_j = pads.tilted_mat_stiffness(o.modulus, o.thickness, a, b)
+            else:  # older files: the stiffness for the load's own footprint
+                k_j = np.full(xs.shape, float(o.stiffness))  # type: ignore[arg-type]
+            k = np.where(A_ov > 0.0, np.maximum(k, k_j), k)
+        whole &= on >= a * b * (1.0 - 1e-9)
+    return np.where(whole, k, 0.0)
 
 
 def _tilted_crush_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,

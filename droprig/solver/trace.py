@@ -315,8 +315,8 @@ def _path_steps(sheet: _Sheet) -> None:
         "1/k_load", "1/k_load (0 for a rigid load)",
         {"k_load": (k_load, "stiffness")} if k_load is not None else {},
         inp.f_load[0], "compliance", _SRC_SERIES)
-    if bool(inp.crushable[0]):
-        _spent_layer_step(sheet)
+    _spent_layer_step(sheet)
+    _tilted_mat_step(sheet)
     add("Compliance of the struck point", "f",
         "f = f_s + f_deck + 1/k_load + f_layer + 1/k_mat",
         {"f_s": (comp.f_s[0], "compliance"), "f_deck": (comp.f_deck[0], "compliance"),
@@ -345,8 +345,11 @@ def _path_steps(sheet: _Sheet) -> None:
 
 
 def _spent_layer_step(sheet: _Sheet) -> None:
-    """The spent crushable layer's compliance in series (chain._spent_layer)."""
+    """The spent crushable layer's compliance in series (chain._spent_layer), where
+    the point is on a crushable layer."""
     inp = sheet.inp
+    if not bool(inp.crushable[0]):
+        return
     t_r = max(float(inp.t_mat[0] - inp.s_c[0]), 0.0)
     sheet.add("Compliance of the crushable layer once its stroke is spent (its residual "
               "thickness under the contact, spread 1:1)", "f_layer",
@@ -355,6 +358,30 @@ def _spent_layer_step(sheet: _Sheet) -> None:
               inp.f_layer[0], "compliance",
               "Gere, Mechanics of Materials 7th ed., §2.3; EN 338:2016 Table 1 E_90,mean "
               "of C24 (from memory; droprig.solver.pads)")
+
+
+def _tilted_mat_step(sheet: _Sheet) -> None:
+    """A project's spring mat under a tilted landing: the whole base's stiffness
+    (chain._tilted_mat_credit), or none where the base is not wholly on the mat."""
+    d, inp = sheet.chain.drop, sheet.inp
+    i = int(np.asarray(sheet.geo.protection)[0])
+    if d.landing != "tilted" or d.mat_k is not None or i < 0:
+        return
+    pa = sheet.project.protection_areas[i]
+    if pa.kind != "spring":
+        return
+    k = 1.0 / float(inp.f_mat[0]) if float(inp.f_mat[0]) > 0.0 else 0.0
+    ins = {"a": (float(inp.fl[0]), "length"), "b": (float(inp.fw[0]), "length"),
+           "t": (pa.thickness, "length")}
+    if pa.modulus is not None:
+        ins["E"] = (pa.modulus, "stress")
+    sheet.add("Spring mat under the tilted landing: the whole base's stiffness, spread "
+              "1:1 through the mat (the band under the sinking edge widens to the whole "
+              "base, whose stiffness bounds its slope); none where the base is not "
+              "wholly on the mat (it turns down onto the bare deck beside it)", "k_mat",
+              "k_mat = 1/∫₀ᵗ dz/(E·(a + 2z)(b + 2z)) (0 off the mat)", ins, k, "stiffness",
+              "Gere, Mechanics of Materials 7th ed., §2.3; EN 1994-1-1 §9.4.3(2) spread "
+              "(from memory); droprig.solver.pads.tilted_mat_stiffness")
 
 
 def _two(sheet: _Sheet) -> bool:
