@@ -8,7 +8,8 @@ Run (from the tree to record):
 ``... compare before.json after.json``. ``record OUT --amplified`` records with the
 project setting ``dynamic_amplification`` on, ``--floor-histories`` also with the
 floors' point histories (``chain.FLOOR_POINT_HISTORY``, issue 12), ``--tilted`` with
-the project setting ``tilted_landing`` on.
+the project setting ``tilted_landing`` on, ``--tilt-deg X`` with its design tilt
+``design_tilt`` X degrees (``--tilted`` implied; the files' own, 5° by default, without).
 """
 
 from __future__ import annotations
@@ -23,7 +24,8 @@ FIELDS = ("response", "max_utilisation", "allowable_drop_height",
 
 
 def record(out: Path, amplified: bool = False, floor_histories: bool = False,
-           tilted: bool = False) -> None:
+           tilted: bool = False, tilt_deg: float | None = None) -> None:
+    import math
     from dataclasses import replace
 
     from droprig.io.project_file import load_project
@@ -35,8 +37,10 @@ def record(out: Path, amplified: bool = False, floor_histories: bool = False,
         p = load_project(path)
         if amplified:
             p = replace(p, settings=replace(p.settings, dynamic_amplification=True))
-        if tilted:
+        if tilted or tilt_deg is not None:
             p = replace(p, settings=replace(p.settings, tilted_landing=True))
+        if tilt_deg is not None:
+            p = replace(p, settings=replace(p.settings, design_tilt=math.radians(tilt_deg)))
         for b in analysis.analyse(p).bays:
             rows[f"{path.stem}|{b.zone_id}|{b.bay_id}|{b.load_name}"] = {
                 k: getattr(b, k) for k in FIELDS}
@@ -71,6 +75,8 @@ if __name__ == "__main__":
     if sys.argv[1:2] == ["record"]:
         record(Path(sys.argv[2]), amplified="--amplified" in sys.argv[3:],
                floor_histories="--floor-histories" in sys.argv[3:],
-               tilted="--tilted" in sys.argv[3:])
+               tilted="--tilted" in sys.argv[3:],
+               tilt_deg=(float(sys.argv[sys.argv.index("--tilt-deg") + 1])
+                         if "--tilt-deg" in sys.argv[3:] else None))
     else:
         compare(Path(sys.argv[2]), Path(sys.argv[3]))

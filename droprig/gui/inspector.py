@@ -404,7 +404,8 @@ def build_form(project: Project, sel: Selection | None) -> Form | None:
             _ro("amp", "Dynamic amplification",
                 lambda o: "on" if o.dynamic_amplification else "off (energy method)"),
             _ro("tilt", "Tilted landing",
-                lambda o: "checked" if o.tilted_landing else "not checked"),
+                lambda o: (f"checked, any tilt up to {math.degrees(o.design_tilt):g}°"
+                           if o.tilted_landing else "not checked")),
         ], None, buttons=["settings"])
 
     if k == "level":

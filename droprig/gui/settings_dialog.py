@@ -48,6 +48,12 @@ _NUMBERS: tuple[tuple[str, str, str, str], ...] = (
      "the governing points on every member are added whatever the spacing."),
 )
 
+_TILT: tuple[str, str, str, str] = (
+    "design_tilt", "Design tilt of the tilted landing", "angle",
+    "The tilted landing is checked for any tilt up to this: the tilt the lift plan allows "
+    "the load to hang out of level (0 to 15 deg; default 5 deg). Read only with the tilted "
+    "landing checked.")
+
 _BASES = (("en1993", "EN 1993-1-1 (Eurocode 3)"), ("aisc360", "AISC 360-16"))
 _SYSTEMS = (("SI", "SI — m, kN, kg, MPa"), ("US", "US customary — ft, kip, lb, ksi"))
 
@@ -128,6 +134,15 @@ class SettingsDialog(QDialog):
         form.addRow(self.existing)
         form.addRow(self.amplification)
         form.addRow(self.tilted)
+        key, label, quantity, tip = _TILT
+        e = QLineEdit()
+        e.setToolTip(tip)
+        e.editingFinished.connect(self._make_commit(key, label, quantity))
+        self.tilt_label = QLabel(label)
+        self.tilt_label.setToolTip(tip)
+        self.tilt_label.setBuddy(e)
+        form.addRow(self.tilt_label, e)
+        self.edits[key] = e
 
         self.message = QLabel()
         self.message.setObjectName("settingsMessage")
@@ -166,7 +181,7 @@ class SettingsDialog(QDialog):
             self.basis_note.setText(note)
             self.layout().activate()
             self.resize(self.width(), self.sizeHint().height())  # room for the note
-        for key, _label, quantity, _tip in _NUMBERS:
+        for key, _label, quantity, _tip in (*_NUMBERS, _TILT):
             e = self.edits[key]
             text = self._text(getattr(s, key), quantity, sys_)
             if e.text() != text:
@@ -178,6 +193,9 @@ class SettingsDialog(QDialog):
             box.blockSignals(True)
             box.setChecked(getattr(s, key))
             box.blockSignals(False)
+        # the design tilt is read only with the tilted landing checked
+        self.edits[_TILT[0]].setEnabled(s.tilted_landing)
+        self.tilt_label.setEnabled(s.tilted_landing)
 
     @staticmethod
     def _text(value: float, quantity: str, system: units.UnitSystem) -> str:

@@ -31,6 +31,7 @@ from typing import Any
 
 from droprig.io.atomic import atomic_write_bytes
 from droprig.model import (
+    DESIGN_TILT_DEFAULT,
     ColumnGrid,
     Concrete,
     Deck,
@@ -436,6 +437,8 @@ def project_to_document(project: Project) -> dict[str, object]:
             # written only when on, so files of projects without it stay byte-equal
             **({"dynamic_amplification": True} if s.dynamic_amplification else {}),
             **({"tilted_landing": True} if s.tilted_landing else {}),
+            **({"design_tilt_deg": _rad_to_deg_text(float(s.design_tilt))}
+               if s.design_tilt != DESIGN_TILT_DEFAULT else {}),
         },
         "levels": [_level_doc(lv, memo) for lv in project.levels],
         "lift_zones": [_zone_doc(z) for z in project.lift_zones],
@@ -952,7 +955,7 @@ _KEYS_SETTINGS = {"unit_system": "unit_system", "design_basis": "design_basis",
                   "include_member_mass": "include_member_mass",
                   "include_existing_loads": "include_existing_loads",
                   "dynamic_amplification": "dynamic_amplification",
-                  "tilted_landing": "tilted_landing"}
+                  "tilted_landing": "tilted_landing", "design_tilt": "design_tilt_deg"}
 _KEYS_INFO = {k: k for k in ("name", "site", "lift_reference", "revision", "date",
                              "prepared_by", "checked_by", "approved_by", "description",
                              *_PERMIT_INFO_KEYS)}
@@ -1209,8 +1212,9 @@ class _Builder:
         attempt("info", lambda: self._make("$.info", _KEYS_INFO, lambda: ProjectInfo(
             **_kwargs(doc.get("info", {}), _KEYS_INFO))))
         st = dict(doc.get("settings", {}))
-        if "rotation_limit_deg" in st:
-            st["rotation_limit_deg"] = _deg_to_rad(st["rotation_limit_deg"])
+        for key in ("rotation_limit_deg", "design_tilt_deg"):
+            if key in st:
+                st[key] = _deg_to_rad(st[key])
         attempt("settings", lambda: self._make("$.settings", _KEYS_SETTINGS, lambda: Settings(
             **_kwargs(st, _KEYS_SETTINGS))))
         levels = doc["levels"]

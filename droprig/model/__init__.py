@@ -22,6 +22,8 @@ from droprig.model.polygon import CORRIDOR_ALLOWED, check_corridor, corridor_pro
 from droprig.model.project import (
     CONTACT_STIFFNESS_RANGE,
     DECK_KINDS,
+    DESIGN_TILT_DEFAULT,
+    DESIGN_TILT_MAX,
     END_CONDITIONS,
     STEEL_DECK_KINDS,
     STEEL_DENSITY,
@@ -48,6 +50,8 @@ __all__ = [
     "CONTACT_STIFFNESS_RANGE",
     "CORRIDOR_ALLOWED",
     "DECK_KINDS",
+    "DESIGN_TILT_DEFAULT",
+    "DESIGN_TILT_MAX",
     "END_CONDITIONS",
     "E_STEEL",
     "LIFT_POINT_KINDS",

@@ -137,6 +137,19 @@ class ProjectInfo:
         check_text("info.description", self.description, max_len=4000)
 
 
+DESIGN_TILT_DEFAULT = math.radians(5.0)
+"""Default design tilt of a load landing on one edge, rad (5°: a load hung for a lift is
+levelled within a few degrees; common practice, no source). The same value as
+``droprig.solver.footprint.PAD_TILT``, the solver's default where no project is at hand."""
+
+DESIGN_TILT_MAX = math.radians(15.0)
+"""Largest design tilt the tilted landing is checked for, rad (15°). Common practice, no
+source: a load hanging further out of level is not under control in its rigging (it
+may slip in its slings), and the edge model's small-rotation energy balance (the
+centre of mass over the middle of the edges, tan θ for θ) drifts beyond it — past 15°
+the engineer's own look, not this check."""
+
+
 @dataclass(frozen=True)
 class Settings:
     """Analysis settings.
@@ -158,6 +171,10 @@ class Settings:
     level on its shorter edge (the whole mass through an edge strip,
     droprig.solver.chain.LANDINGS), the worse governing; off by default until the
     edge contact is reviewed (README, limits).
+    design_tilt: the tilt up to which the tilted landing is checked, rad (the tilt the
+    lift plan allows the load to hang out of level; default
+    :data:`DESIGN_TILT_DEFAULT`, 5°), 0 to :data:`DESIGN_TILT_MAX` (15°). Read only
+    with ``tilted_landing`` on.
     """
 
     unit_system: UnitSystem = "SI"
@@ -172,6 +189,7 @@ class Settings:
     include_existing_loads: bool = True
     dynamic_amplification: bool = False
     tilted_landing: bool = False
+    design_tilt: float = DESIGN_TILT_DEFAULT
 
     def __post_init__(self) -> None:
         check_choice("settings.unit_system", self.unit_system, ("SI", "US"))
@@ -183,6 +201,7 @@ class Settings:
         check_range("settings.rotation_limit", self.rotation_limit, math.radians(0.1),
                     math.radians(15.0), unit="rad")
         check_range("settings.grid_resolution", self.grid_resolution, 0.05, 5.0, unit="m")
+        check_range("settings.design_tilt", self.design_tilt, 0.0, DESIGN_TILT_MAX, unit="rad")
         for n in ("include_member_mass", "include_existing_loads", "dynamic_amplification",
                   "tilted_landing"):
             if not isinstance(getattr(self, n), bool):

@@ -1351,7 +1351,8 @@ class _Builder:
              + ("included" if s.include_existing_loads else "ignored")),
             ("Dynamic amplification; tilted landing",
              ("on" if s.dynamic_amplification else "off") + "; "
-             + ("checked" if s.tilted_landing else "not checked")),
+             + (f"checked, any tilt up to {_deg(s.design_tilt)}" if s.tilted_landing
+                else "not checked")),
         ]
         half = (len(crit) + 1) // 2
         rows2 = []

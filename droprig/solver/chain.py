@@ -879,7 +879,8 @@ def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
     once spent is its thickness less this, :func:`_spent_layer`). A load landing
     tilted on a crushable layer gets the wedge's credit (:func:`_tilted_crush_credit`,
     ``W`` the load's weight, N): then ``s_c`` is the stroke of that credit, not the
-    layer's."""
+    layer's; on a spring mat, the whole base's stiffness where the whole base lies on
+    the mat (:func:`_tilted_mat_credit`)."""
     n, lv = d.n, d.fm.level
     t_mat = np.zeros(n)
     f_mat = np.zeros(n)
@@ -898,6 +899,8 @@ def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
         t_mat[sel] = pa.thickness
         credit, stroke = _layer_credit(d, i, sel, fl, fw, cl, cw)
         if pa.kind == "spring":
+            if d.landing == "tilted":
+                credit = _tilted_mat_credit(d, i, sel, fl, fw)
             f_mat[sel] = np.where(credit > 0.0, 1.0 / np.where(credit > 0.0, credit, 1.0),
                                   0.0)
         else:
@@ -913,6 +916,48 @@ def _protection_inputs(d: Drop, fl: np.ndarray, fw: np.ndarray, cl: np.ndarray,
     return t_mat, f_mat, F_c, s_c, crushable, s_layer
 
 
+def _tilted_mat_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
+                       fw: np.ndarray) -> np.ndarray:
+    """The stiffness (N/m; 0 none) credited at the points ``sel`` to spring mat ``i``
+    (and the mats of its thickness it abuts, as :func:`_layer_credit`) under a load
+    landing tilted on one edge: the whole base ``fl`` × ``fw`` (m) on the mat, spread
+    1:1 through it (:func:`droprig.solver.pads.tilted_mat_stiffness`: the band under
+    the sinking edge widens to the whole base, whose stiffness bounds its slope; the
+    edge strip alone read the force low), at the stiffest modulus of the mats pressed
+    (an older mat given by its stiffness for the load's footprint: that stiffness).
+    Only where the whole base lies on those mats in both plan orientations: a base
+    partly off them turns down onto the bare deck beside them, in parallel with the
+    mat and far stiffer, so no mat is credited there (f_mat = 0, conservative)."""
+    prot, lv, geo = d.project.protection_areas, d.fm.level, d.geo
+    pa = prot[i]
+    together = [j for j, o in enumerate(prot)
+                if o.level_id == lv.id and o.kind == "spring"
+                and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+    xs, ys, a, b = geo.x[sel], geo.y[sel], fl[sel], fw[sel]
+    boxes = [(prot[j].area.x0, prot[j].area.y0, prot[j].area.x1, prot[j].area.y1)
+             for j in together]
+    # mats that overlap each other would count their common part twice: then one
+    # mat must hold the whole base
+    apart = not any(float(pads.rect_overlap_area(p, q)) > 0.0
+                    for u, p in enumerate(boxes) for q in boxes[u + 1:])
+    whole = np.ones(xs.shape, dtype=bool)
+    k = np.zeros(xs.shape)
+    for along_x in (True, False):
+        rect = pads.footprint_rect(xs, ys, a, b, along_x)
+        on = np.zeros(xs.shape)
+        for j, box in zip(together, boxes, strict=True):
+            o = prot[j]
+            A_ov = pads.rect_overlap_area(rect, box)
+            on = on + A_ov if apart else np.maximum(on, A_ov)
+            if o.modulus is not None:
+                k_j = pads.tilted_mat_stiffness(o.modulus, o.thickness, a, b)
+            else:  # older files: the stiffness for the load's own footprint
+                k_j = np.full(xs.shape, float(o.stiffness))  # type: ignore[arg-type]
+            k = np.where(A_ov > 0.0, np.maximum(k, k_j), k)
+        whole &= on >= a * b * (1.0 - 1e-9)
+    return np.where(whole, k, 0.0)
+
+
 def _tilted_crush_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
                          fw: np.ndarray, cl: np.ndarray, cw: np.ndarray, W: np.ndarray,
                          F_strip: np.ndarray, s_strip: np.ndarray
@@ -921,8 +966,8 @@ def _tilted_crush_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
     load of weight ``W`` (N) landing tilted on crushable layer ``i`` (and the layers
     pressed with it, as :func:`_layer_credit`): the edge strip ``cl`` × ``cw`` (m)
     sinks into the layer and the crushed band widens to the whole base as it goes
-    (:func:`droprig.solver.footprint.wedge_crush_work` at the tilt
-    :data:`~droprig.solver.footprint.PAD_TILT`; the base of width b = max(``fl``,
+    (:func:`droprig.solver.footprint.wedge_crush_work` at the project's design tilt,
+    :func:`landing_tilt`; the base of width b = max(``fl``,
     ``fw``) across the edge lies on either side of it, in either plan orientation: the
     least work of the four, conservative). Over the layer's stroke s (the least of the
     layers the band reaches) the layer does the work E = Σσ_c·ℓ·∫o dδ and ends at the
@@ -942,7 +987,7 @@ def _tilted_crush_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
                 and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
     xs, ys, ln, wd = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
     b = np.maximum(fl[sel], fw[sel])
-    tilt = footprint_mod.PAD_TILT
+    tilt = landing_tilt(d)
     best_E = np.full(xs.shape, np.inf)
     best_F = np.zeros(xs.shape)
     best_s = np.full(xs.shape, np.inf)
@@ -1632,13 +1677,21 @@ def tilted_far_edge(c: Chain, h: np.ndarray, rows: np.ndarray) -> np.ndarray:
     on a bare deck, at the energy heights ``h`` (m): the energy bound of either edge's
     strike, :func:`droprig.solver.footprint.tilted_contact_bound`, the edges the base's
     width across the edge strip apart (max of the footprint's sides, m), each on the
-    contact springs ``f_series``, over the framing ``f_s`` (m/N), at the tilt
-    :data:`~droprig.solver.footprint.PAD_TILT`. Non-decreasing in h (the inverse
-    answers' bisection stays exact)."""
+    contact springs ``f_series``, over the framing ``f_s`` (m/N), at the project's
+    design tilt (:func:`landing_tilt`). Non-decreasing in h (the inverse answers'
+    bisection stays exact)."""
     inp, comp = c[LoadInputs], c[Compliance]
     b = np.maximum(inp.fl[rows], inp.fw[rows])
     return footprint_mod.tilted_contact_bound(inp.W[rows], h[rows], comp.f_series[rows],
-                                              comp.f_s[rows], b)
+                                              comp.f_s[rows], b, landing_tilt(c.drop))
+
+
+def landing_tilt(d: Drop) -> float:
+    """The design tilt of a tilted landing, rad: the project's ``Settings.design_tilt``
+    (the tilt the lift plan allows, 0–15°; default
+    :data:`~droprig.solver.footprint.PAD_TILT`, 5°). Every use of the tilt in the chain,
+    its kernels and the calculation trace reads it here."""
+    return float(d.project.settings.design_tilt)
 
 
 def _bottomed_forces(c: Chain, h: np.ndarray, one: Impact, bot: np.ndarray
@@ -3916,6 +3969,7 @@ class TwoForceKernel:
         # (tilted_far_edge), the edges the base's width across the strip apart
         self.b_edges = (np.maximum(inp.fl, inp.fw)[idx] if c.drop.landing == "tilted"
                         else None)
+        self.tilt = landing_tilt(c.drop)
         # the points on a crushable layer (after_bottoming where it bottoms out)
         self.pad = pad_two_mass(c)[idx]
         self.F_c, self.s_c = inp.F_c[idx], inp.s_c[idx]
@@ -4089,7 +4143,7 @@ class TwoForceKernel:
         if self.b_edges is None:
             return Fc2
         return np.maximum(Fc2, footprint_mod.tilted_contact_bound(
-            W, he, self.f_series[r], self.f_s[r], self.b_edges[r]))
+            W, he, self.f_series[r], self.f_s[r], self.b_edges[r], self.tilt))
 
     def _deck_force(self, W: np.ndarray, he: np.ndarray, f: np.ndarray, eta: np.ndarray,
                     F_crush: np.ndarray, F_cap: np.ndarray, F_el: np.ndarray,

@@ -47,9 +47,11 @@ contact pressure and the crushing bound are then high."""
 
 
 PAD_TILT = math.radians(5.0)
-"""Tilt of a load landing on one edge, rad (5°: a load hung for a lift is levelled
-within a few degrees; common practice, no source): the tilted landing is checked for
-every tilt up to this. A pad's credit falls as the tilt grows
+"""Default tilt of a load landing on one edge, rad (5°: a load hung for a lift is levelled
+within a few degrees; common practice, no source), the default of the project's
+``Settings.design_tilt`` (the tilt the lift plan states; the chain reads the project's,
+``chain.landing_tilt``): the tilted landing is checked for every tilt up to it. A pad's
+credit falls as the tilt grows
 (:func:`wedge_crush_work`) and the far edge's strike grows with it
 (:func:`tilted_contact_bound`): a load rigged or hanging further out of level needs
 the engineer's own look."""
@@ -228,9 +230,11 @@ def wedge_crush_work(lead: ArrayLike, w0: ArrayLike, b: ArrayLike, s: ArrayLike,
     w0·δ_f + δ_f²/(2 tan θ) + b·(s − δ_f) for s ≥ δ_f. A body that turns flat under
     the eccentric crush force widens the band faster (more work at a given edge crush):
     the wedge at fixed tilt is the lower bound on the work, checked against a 2-DOF
-    history in ``tests/solver/test_tilted_pad.py``. Vectorised; SI units."""
-    if not (0.0 < tilt < 0.5 * math.pi):
-        raise ValueError(f"tilt: {tilt!r} rad is not allowed; allowed: more than 0 and "
+    history in ``tests/solver/test_tilted_pad.py``. At no tilt (θ = 0, the limit) the
+    base lands flat: the band is the whole base from the first crush, ∫o dδ = o(b)·s.
+    Vectorised; SI units."""
+    if not (0.0 <= tilt < 0.5 * math.pi):
+        raise ValueError(f"tilt: {tilt!r} rad is not allowed; allowed: at least 0 and "
                          f"less than pi/2 rad")
     ld, w, bb, ss, a0, a1 = np.broadcast_arrays(
         *(np.asarray(v, float) for v in (lead, w0, b, s, p0, p1)))
@@ -247,6 +251,8 @@ def wedge_crush_work(lead: ArrayLike, w0: ArrayLike, b: ArrayLike, s: ArrayLike,
 
     w = np.minimum(w, bb)
     ss = np.maximum(ss, 0.0)
+    if t == 0.0:  # lands flat: the whole base from the first crush
+        return o(ld + bb) * ss, o(ld + bb)
     d_flat = (bb - w) * t
     d1 = np.minimum(ss, d_flat)
     u0 = ld + w
@@ -256,7 +262,7 @@ def wedge_crush_work(lead: ArrayLike, w0: ArrayLike, b: ArrayLike, s: ArrayLike,
 
 
 def tilted_contact_bound(W: ArrayLike, h: ArrayLike, f_c: ArrayLike, f_s: ArrayLike,
-                         b: ArrayLike, tilt: float = PAD_TILT) -> np.ndarray:
+                         b: ArrayLike, tilt: float) -> np.ndarray:
     """Upper bound on the force at either edge of a load of weight ``W`` (N) landing
     tilted by up to ``tilt`` (rad) with its lowest edge falling ``h`` (m, the energy
     height), its edges ``b`` (m) apart, each on a contact spring of compliance ``f_c``

@@ -32,6 +32,7 @@ __all__ = [
     "rect_overlap_area",
     "spent_layer_compliance",
     "spring_mat_stiffness",
+    "tilted_mat_stiffness",
     "tip_offset",
     "tip_offset_turn",
 ]
@@ -85,6 +86,34 @@ def spring_mat_stiffness(modulus: ArrayLike, thickness: ArrayLike,
     if np.any(t <= 0.0):
         raise ValueError("protection thickness: must be > 0 m for a spring mat")
     return E * A / t
+
+
+def tilted_mat_stiffness(modulus: ArrayLike, thickness: ArrayLike, length: ArrayLike,
+                         width: ArrayLike) -> np.ndarray:
+    """Stiffness credited to a spring mat of compression modulus ``modulus`` (Pa) and
+    ``thickness`` t (m) under a base ``length`` × ``width`` (m) that lands tilted on
+    one edge, N/m: the whole base's, the pressure spread 1:1 through the mat,
+
+        k = 1 / ∫₀ᵗ dz / (E·(a + 2z)(b + 2z))        (:func:`spent_layer_compliance`)
+
+    Why the whole base and not the edge strip: the band of mat under a tilted base
+    widens as its edge sinks (x = w₀ + δ/tan θ, a plane pressed in at θ), so the mat's
+    force grows faster than linearly, dF/dδ = k(x) (each slice in uniaxial compression,
+    Gere §2.3; on a column bed k(x) = E·ℓ·x/t). Its slope never exceeds the whole
+    base's k, so at any force F the mat holds the energy ∫F dδ ≥ F²/(2k): a linear
+    spring of the whole base's stiffness reads the force of a given energy at least as
+    high, whatever the tilt, the fall or the floor (an upper bound on the tangent
+    stiffness; the strip's own E·w₀·ℓ/t is the least slope and read the force of a
+    2-DOF body on a column bed at 0.27–0.56 ×, the whole base at 1.6–3.0 ×,
+    ``tests/solver/test_tilted_mat.py``). The 1:1
+    spread through the mat's thickness, as the footprint spreads to the deck
+    (EN 1994-1-1 §9.4.3(2) — from memory), makes it stiffer than E·a·b/t (the higher
+    force). Vectorised; SI units."""
+    E, t, a, b = np.broadcast_arrays(*(np.asarray(v, float) for v in (modulus, thickness,
+                                                                     length, width)))
+    if np.any(~(t > 0.0)):
+        raise ValueError("protection thickness: must be > 0 m for a spring mat")
+    return 1.0 / spent_layer_compliance(a, b, t, E)
 
 
 def crush_stress_from_force(crush_force: float, footprint_area: float) -> float:

@@ -37,6 +37,7 @@ from droprig.solver.chain import (
     StruckMass,
     crushing_parts,
     energy_fall,
+    landing_tilt,
     outputs,
     residual_height,
     slab_rotation_limit,
@@ -45,7 +46,7 @@ from droprig.solver.crush_table import crush_groups, table_psi
 from droprig.solver.drift import resolve_drift
 from droprig.solver.evaluate import GoverningPoint, governing_point, point_case
 from droprig.solver.floor import FloorModel
-from droprig.solver.footprint import EDGE_CONTACT_WIDTH, PAD_TILT, tilted_contact_bound
+from droprig.solver.footprint import EDGE_CONTACT_WIDTH, tilted_contact_bound
 from droprig.solver.geometry import Geometry
 from droprig.solver.impact import G, crush_duration
 from droprig.solver.loadpath import COND_NAMES
@@ -202,9 +203,12 @@ def trace_point(project: Project, zone_id: str, load_name: str, x: float,
     _tip_off_steps(sheet, gp)
     if project.settings.tilted_landing:
         add("Landing that governs: " + ("tilted, on the shorter edge of the footprint"
-                                        if landing == "tilted" else "flat, on the footprint"),
+                                        if landing == "tilted" else "flat, on the footprint")
+            + " (the tilted landing checked for any tilt up to the design tilt θ_d)",
             "A_c", "A_c = contact on the deck (footprint, or edge strip of width w_e)",
-            {"w_e": (EDGE_CONTACT_WIDTH, "length")}, inp.foot_l[0] * inp.foot_w[0], "area",
+            {"w_e": (EDGE_CONTACT_WIDTH, "length"),
+             "θ_d": (project.settings.design_tilt, "angle")},
+            inp.foot_l[0] * inp.foot_w[0], "area",
             "both landings checked, the worse governs (common practice, no source)")
     in_zone = bool(droppoints.in_zone(zone, xa, ya)[0])
     if not in_zone:
@@ -311,8 +315,8 @@ def _path_steps(sheet: _Sheet) -> None:
         "1/k_load", "1/k_load (0 for a rigid load)",
         {"k_load": (k_load, "stiffness")} if k_load is not None else {},
         inp.f_load[0], "compliance", _SRC_SERIES)
-    if bool(inp.crushable[0]):
-        _spent_layer_step(sheet)
+    _spent_layer_step(sheet)
+    _tilted_mat_step(sheet)
     add("Compliance of the struck point", "f",
         "f = f_s + f_deck + 1/k_load + f_layer + 1/k_mat",
         {"f_s": (comp.f_s[0], "compliance"), "f_deck": (comp.f_deck[0], "compliance"),
@@ -341,8 +345,11 @@ def _path_steps(sheet: _Sheet) -> None:
 
 
 def _spent_layer_step(sheet: _Sheet) -> None:
-    """The spent crushable layer's compliance in series (chain._spent_layer)."""
+    """The spent crushable layer's compliance in series (chain._spent_layer), where
+    the point is on a crushable layer."""
     inp = sheet.inp
+    if not bool(inp.crushable[0]):
+        return
     t_r = max(float(inp.t_mat[0] - inp.s_c[0]), 0.0)
     sheet.add("Compliance of the crushable layer once its stroke is spent (its residual "
               "thickness under the contact, spread 1:1)", "f_layer",
@@ -351,6 +358,30 @@ def _spent_layer_step(sheet: _Sheet) -> None:
               inp.f_layer[0], "compliance",
               "Gere, Mechanics of Materials 7th ed., §2.3; EN 338:2016 Table 1 E_90,mean "
               "of C24 (from memory; droprig.solver.pads)")
+
+
+def _tilted_mat_step(sheet: _Sheet) -> None:
+    """A project's spring mat under a tilted landing: the whole base's stiffness
+    (chain._tilted_mat_credit), or none where the base is not wholly on the mat."""
+    d, inp = sheet.chain.drop, sheet.inp
+    i = int(np.asarray(sheet.geo.protection)[0])
+    if d.landing != "tilted" or d.mat_k is not None or i < 0:
+        return
+    pa = sheet.project.protection_areas[i]
+    if pa.kind != "spring":
+        return
+    k = 1.0 / float(inp.f_mat[0]) if float(inp.f_mat[0]) > 0.0 else 0.0
+    ins = {"a": (float(inp.fl[0]), "length"), "b": (float(inp.fw[0]), "length"),
+           "t": (pa.thickness, "length")}
+    if pa.modulus is not None:
+        ins["E"] = (pa.modulus, "stress")
+    sheet.add("Spring mat under the tilted landing: the whole base's stiffness, spread "
+              "1:1 through the mat (the band under the sinking edge widens to the whole "
+              "base, whose stiffness bounds its slope); none where the base is not "
+              "wholly on the mat (it turns down onto the bare deck beside it)", "k_mat",
+              "k_mat = 1/∫₀ᵗ dz/(E·(a + 2z)(b + 2z)) (0 off the mat)", ins, k, "stiffness",
+              "Gere, Mechanics of Materials 7th ed., §2.3; EN 1994-1-1 §9.4.3(2) spread "
+              "(from memory); droprig.solver.pads.tilted_mat_stiffness")
 
 
 def _two(sheet: _Sheet) -> bool:
@@ -550,14 +581,17 @@ def _two_force_steps(sheet: _Sheet, W: float, h_e: float) -> None:
     m2 = float(sm.m2[0])  # the struck mass m_e of the path steps
     if sheet.chain.drop.landing == "tilted":
         b_e = max(float(inp.fl[0]), float(inp.fw[0]))
+        tilt = landing_tilt(sheet.chain.drop)
         add("Tilted landing: the least contact force, the energy bound of either edge's "
-            f"strike for a tilt up to {math.degrees(PAD_TILT):g}° (the far edge falls "
-            "b·tan θ further and may meet the floor on its rebound)", "F_edge",
+            f"strike for a tilt up to {math.degrees(tilt):g}° (the project's design tilt; "
+            "the far edge falls b·tan θ further and may meet the floor on its rebound)",
+            "F_edge",
             "F_edge = W/2 + √(W²/4 + 2W·H'/f_c), H' = h_e + b·tan θ/2 + W·f_c/8 + W·f₂/2",
             {"W": (W, "force"), "h_e": (h_e, "length"), "b": (b_e, "length"),
-             "θ": (PAD_TILT, "angle"), "f_c": (comp.f_series[0], "compliance"),
+             "θ": (tilt, "angle"), "f_c": (comp.f_series[0], "compliance"),
              "f₂": (comp.f_s[0], "compliance")},
-            float(tilted_contact_bound(W, h_e, comp.f_series[0], comp.f_s[0], b_e)[()]),
+            float(tilted_contact_bound(W, h_e, comp.f_series[0], comp.f_s[0], b_e,
+                                       tilt)[()]),
             "force", "energy method of impact, Gere 7th ed. §9.10 (from memory); "
             "droprig.solver.footprint.tilted_contact_bound")
     add("Contact force between load and struck surface (largest for any fall up to "

@@ -11,6 +11,7 @@ from __future__ import annotations
 import math
 
 import pytest
+from PySide6.QtCore import Qt
 
 from droprig.gui.document import Document
 from droprig.gui.settings_dialog import SettingsDialog
@@ -126,3 +127,41 @@ def test_amplification_and_tilted_landing_switch_and_undo(
     doc.undo_stack.undo()
     assert getattr(doc.project.settings, key) is before
     assert widget.isChecked() is before
+
+
+def test_design_tilt_follows_the_tilted_landing_and_undoes(dialog: SettingsDialog,
+                                                           doc: Document) -> None:
+    # the design tilt (default 5°: a load hung for a lift is levelled within a few
+    # degrees; common practice, no source) is read only with the tilted landing
+    # checked, so it is editable only then; an edit is one undo step like the others,
+    # and a tilt past 15° is refused with the range in degrees (the model's range)
+    e = dialog.edits["design_tilt"]
+    assert e.text() == "5 deg"
+    assert not e.isEnabled()
+    dialog.tilted.setChecked(True)
+    assert e.isEnabled()
+    # keyboard reachable: in the dialog's focus chain, after the tilted-landing box
+    assert e.focusPolicy() & Qt.FocusPolicy.TabFocus
+    assert dialog.tilt_label.buddy() is e
+    chain, w = [], dialog.tilted.nextInFocusChain()
+    while w is not dialog.tilted and len(chain) < 50:
+        chain.append(w)
+        w = w.nextInFocusChain()
+    assert e in chain
+    with_tilted = doc.project
+    _enter(dialog, "design_tilt", "2 deg")
+    assert math.isclose(doc.project.settings.design_tilt, math.radians(2.0), rel_tol=REL)
+    assert doc.undo_stack.count() == 2
+    _enter(dialog, "design_tilt", "0")  # no tilt: the edge strike without the far edge's
+    assert doc.project.settings.design_tilt == 0.0
+    _enter(dialog, "design_tilt", "20 deg")
+    assert "≤ 15.00 deg" in dialog.message.text()
+    assert "Nothing was changed" in dialog.message.text()
+    assert doc.project.settings.design_tilt == 0.0
+    assert e.text() == "0 deg"
+    doc.undo_stack.undo()
+    doc.undo_stack.undo()
+    assert doc.project is with_tilted
+    assert e.text() == "5 deg"
+    doc.undo_stack.undo()  # the tilted landing off again: the tilt greyed out
+    assert not e.isEnabled()

@@ -71,8 +71,24 @@ def test_wedge_work_hand_checks():
 
 
 def test_wedge_refuses_a_bad_tilt():
-    with pytest.raises(ValueError, match="tilt"):
-        wedge_crush_work(0.0, 0.05, 1.0, 0.1, 0.0, 0.0, 1.0)
+    for bad in (-0.01, 0.5 * math.pi, float("nan")):
+        with pytest.raises(ValueError, match="tilt"):
+            wedge_crush_work(0.0, 0.05, 1.0, 0.1, bad, 0.0, 1.0)
+
+
+def test_wedge_at_no_tilt_is_the_flat_base():
+    # θ → 0 (a design tilt of 0°): δ_f = (b − w0)·tanθ → 0, so the hand check above,
+    # w0·δ_f + δ_f²/(2 tanθ) + b·(s − δ_f), tends to b·s (geometry of a plane pressed in)
+    work, o_end = wedge_crush_work(0.0, EDGE_CONTACT_WIDTH, B, STROKE, 0.0, -1.0, 5.0)
+    assert float(work) == pytest.approx(B * STROKE, rel=1e-12)
+    assert float(o_end) == pytest.approx(B, rel=1e-12)
+    # and the wedge's work at a small tilt approaches it from below (continuous at 0)
+    near, _ = wedge_crush_work(0.0, EDGE_CONTACT_WIDTH, B, STROKE, 1e-6, -1.0, 5.0)
+    assert float(near) < float(work)
+    assert float(near) == pytest.approx(B * STROKE, rel=1e-5)
+    # a layer over [0.5, 0.8] m across the edge: its whole width at once
+    work, o_end = wedge_crush_work(0.0, EDGE_CONTACT_WIDTH, B, STROKE, 0.0, 0.5, 0.8)
+    assert float(work) == pytest.approx(0.3 * STROKE, rel=1e-12)
 
 
 def _history(h: float, I_G: float, tilt: float, n: int = 24) -> tuple[float, float, float]:
