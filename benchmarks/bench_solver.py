@@ -44,6 +44,34 @@ def _median_time(fn, runs: int) -> float:
     return statistics.median(ts)
 
 
+def _median_times(fn, runs: int) -> tuple[float, float]:
+    """Median wall-clock and median CPU time (``time.process_time``: less disturbed
+    by other work on a shared machine) of ``runs`` calls, s."""
+    wall, cpu = [], []
+    for _ in range(runs):
+        t, c = time.perf_counter(), time.process_time()
+        fn()
+        wall.append(time.perf_counter() - t)
+        cpu.append(time.process_time() - c)
+    return statistics.median(wall), statistics.median(cpu)
+
+
+def bench_amplification(projects: list, runs: int) -> dict[str, dict[str, float]]:
+    """Warm ``analyse()`` of each demo with the project setting
+    ``dynamic_amplification`` off and on: median wall and CPU time, s."""
+    out: dict[str, dict[str, float]] = {}
+    for name, proj in projects:
+        r: dict[str, float] = {}
+        for flag in (False, True):
+            p_f = replace(proj, settings=replace(proj.settings, dynamic_amplification=flag))
+            analysis.analyse(p_f)
+            key = "on" if flag else "off"
+            r[key], r[key + "_cpu"] = _median_times(lambda p_f=p_f: analysis.analyse(p_f),
+                                                    runs)
+        out[name] = r
+    return out
+
+
 def _random_points(level, n: int, seed: int = 0) -> tuple[np.ndarray, np.ndarray]:
     ext = level.grid.extent
     rng = np.random.default_rng(seed)
@@ -363,15 +391,31 @@ def bench_two_forces(projects: list, runs: int) -> dict[str, dict[str, float]]:
     return out
 
 
+def _print_amplification(name: str, amp: dict[str, float]) -> None:
+    print(f"   {name}: amplification off {amp['off'] * 1e3:.1f} ms, on "
+          f"{amp['on'] * 1e3:.1f} ms — ratio {amp['on'] / amp['off']:.2f}; CPU time "
+          f"{amp['off_cpu'] * 1e3:.1f} / {amp['on_cpu'] * 1e3:.1f} ms — ratio "
+          f"{amp['on_cpu'] / amp['off_cpu']:.2f} (target ≤ 2)")
+
+
 def main(argv: list[str] | None = None) -> dict[str, object]:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--quick", action="store_true", help="small sizes (smoke run)")
+    ap.add_argument("--amplification", action="store_true",
+                    help="only the demos' analyse() with amplification off / on")
     args = ap.parse_args(argv)
     q = args.quick
     out: dict[str, object] = {}
     projects = [(p.name, load_project(p)) for p in DEMOS]
     if not projects:
         print("no demo projects found in demo_projects/")
+        return out
+    if args.amplification:
+        print("demo projects, warm analyse() with dynamic amplification off / on (median)")
+        for name, proj in projects:
+            amp = bench_amplification([(name, proj)], 5 if q else 11)[name]
+            out[f"amplification:{name}"] = amp
+            _print_amplification(name, amp)
         return out
     name0, proj0 = projects[0]
     print(f"droprig solver benchmarks — {'quick' if q else 'full'} run")
@@ -397,16 +441,13 @@ def main(argv: list[str] | None = None) -> dict[str, object]:
         print(f"   {name}: {warm * 1e3:.1f} ms warm, {t_cold * 1e3:.1f} ms cold "
               f"({npts} drop points × loads)  target ≤ 35 ms")
         # dynamic amplification off / on (the project setting; warm, median)
-        amp = {}
-        for flag in (False, True):
-            p_f = replace(proj, settings=replace(proj.settings, dynamic_amplification=flag))
-            analysis.analyse(p_f)
-            amp[flag] = _median_time(lambda p_f=p_f: analysis.analyse(p_f), 5 if q else 11)
+        amp = bench_amplification([(name, proj)], 5 if q else 11)[name]
         out[f"demo:{name}"] = {"warm_s": warm, "cold_s": t_cold, "points": npts,
-                               "amplification_off_s": amp[False],
-                               "amplification_on_s": amp[True]}
-        print(f"   {name}: amplification off {amp[False] * 1e3:.1f} ms, on "
-              f"{amp[True] * 1e3:.1f} ms — ratio {amp[True] / amp[False]:.2f} (target ≤ 2)")
+                               "amplification_off_s": amp["off"],
+                               "amplification_on_s": amp["on"],
+                               "amplification_off_cpu_s": amp["off_cpu"],
+                               "amplification_on_cpu_s": amp["on_cpu"]}
+        _print_amplification(name, amp)
     two = bench_two_forces(projects, 5 if q else 15)
     out["two_forces"] = two
     print("\n2a. two forces per point (chain.TWO_FORCES) off / on (warm analyse(), median, "

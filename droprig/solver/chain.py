@@ -87,7 +87,7 @@ from droprig.solver import impact as impact_mod
 from droprig.solver import local_damage as local_damage_mod
 from droprig.solver import struck_mass as struck_mass_mod
 from droprig.solver.floor import FloorModel
-from droprig.solver.geometry import Geometry, take_geo
+from droprig.solver.geometry import Geometry, _rows, take_geo
 from droprig.solver.linear_checks import Check, Family, small_check
 from droprig.solver.loadpath import COND_NAMES
 from droprig.solver.results import (
@@ -289,6 +289,10 @@ class Chain:
         if fn not in self._once:
             self._once[fn] = fn(self)
         return cast(S, self._once[fn])
+
+    def kept(self, fn: Callable[[Chain], S]) -> S | None:
+        """What :meth:`once` holds of ``fn`` (``None`` where not worked out)."""
+        return cast("S | None", self._once.get(fn))
 
 
 # --------------------------------------------------------------------------- 1. inputs
@@ -1707,9 +1711,10 @@ def _bottomed_forces(c: Chain, h: np.ndarray, one: Impact, bot: np.ndarray
     ab = after_bottoming(W[bot], h[bot], inp.F_c[bot], inp.s_c[bot], comp.f[bot],
                          comp.f_series[bot], comp.f_s[bot], sm.m2[bot],
                          one.F_crush[bot], crush_depth_available(c))
+    kept = c.kept(bottoming_floors)
     Ff = np.maximum(ab.F_frame, bottoming_floor(
         W[bot], inp.F_c[bot], inp.s_c[bot], comp.f_struct[bot], sm.eta[bot],
-        comp.f_series[bot], comp.f_s[bot], sm.m2[bot]))
+        comp.f_series[bot], comp.f_s[bot], sm.m2[bot]) if kept is None else kept[bot])
     F_deck = np.where(inp.f_load[bot] > 0.0, ab.F_contact, ab.F_one)
     return ab.F_contact, Ff, F_deck
 
@@ -1785,6 +1790,21 @@ def bottoming_floor(W: np.ndarray, F_c: np.ndarray, s_c: np.ndarray, f: np.ndarr
         h_b = ((F_c - W) * s_c - W * F_c * f + 0.5 * F_c ** 2 * f) / (eta * W)
     h_b = np.where(np.isfinite(h_b), np.maximum(h_b, 0.0), 0.0)
     return framing_while_crushing(W, h_b, F_c, f_series, f_s, m2)
+
+
+def bottoming_floors(c: Chain) -> np.ndarray:
+    """:func:`bottoming_floor` at every point on a crushable layer where the two-mass
+    stage after bottoming applies (:func:`pad_two_mass`; N per point, NaN elsewhere):
+    height-free, so kept with a chain that re-runs the impact at other heights
+    (:func:`rows_chain`) for :func:`_bottomed_forces`, whose rows it reads."""
+    inp, comp, sm = c[LoadInputs], c[Compliance], c[StruckMass]
+    out = np.full(c.drop.n, np.nan)
+    p = pad_two_mass(c)
+    if p.any():
+        assert sm.m2 is not None
+        out[p] = bottoming_floor(inp.W[p], inp.F_c[p], inp.s_c[p], comp.f_struct[p],
+                                 sm.eta[p], comp.f_series[p], comp.f_s[p], sm.m2[p])
+    return out
 
 
 def crushing_peak(c: Chain) -> np.ndarray:
@@ -2484,25 +2504,13 @@ def own_table_weight(own: np.ndarray, f_s: np.ndarray, f_col: np.ndarray) -> np.
 
 def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
     """The table, the bounds and the amplified forces of the energy heads ``h`` (m)."""
-    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
+    inp, comp, sm = c[LoadInputs], c[Compliance], c[StruckMass]
     crushable = inp.crushable
     # the elastic contact: through a crushable layer (rigid until it crushes) the
     # load's underside alone, else the deck, mats and the load's underside
     f_beyond = np.where(crushable, comp.f_struct, comp.f)
-    # the table keyed on the struck path as one member (as calibrated on one
-    # member): r = M/mₑ with the path's Rayleigh mass at the struck point, κ = the
-    # contact ÷ the framing's compliance; and the struck member's end condition and
-    # position band where its own bending is most of the framing's compliance (the
-    # envelope over every condition and band elsewhere: over a girder or a column
-    # the member struck is not the one that moves)
-    m_path = table_mass(d.geo.path.m_e, d.geo.path.w_ref, d.geo.path.f)
     f_contact = f_beyond - comp.f_s
-    key = struck_member_table(c)
-    w_own = own_table_weight(key["own"], comp.f_s, comp.f_col)
-    cond = np.where(w_own > 0.0, key["cond"], -1)
-    a = amp_mod.amplification(inp.M, m_path, f_contact, comp.f_s,
-                              struck_mass=sm.m_e > 0.0, cond=cond, xi=key["xi"],
-                              own_weight=w_own)
+    a = c.once(table_amplification)  # the table (no height: once per chain)
     rigid = amp_mod.contact_force_bound(inp.W, h, f_contact)
     # the tables multiply the energy method's elastic (uncapped) force, as calibrated
     # (the chain's struck-mass share: its mass, normalised by w_ref, is at most the
@@ -2531,6 +2539,28 @@ def _amplified_bounds(c: Chain, h: np.ndarray, imp: Impact) -> _Bounds:
                                       F_energy=F_energy)
     return _Bounds(a=a, rigid=rigid, F_cap=F_cap, holds=holds, F_energy=F_energy,
                    forces=forces)
+
+
+def table_amplification(c: Chain) -> amp_mod.Amplification:
+    """The table's factors at the points (:func:`droprig.solver.amplification.
+    amplification`), read at the drop's mass and the path's compliances — no height —
+    so worked out once per chain (:meth:`Chain.once`): keyed on the struck path as
+    one member (as calibrated on one member): r = M/mₑ with the path's Rayleigh mass
+    at the struck point (:func:`table_mass`), κ = the contact ÷ the framing's
+    compliance (through a crushable layer, rigid until it crushes, the load's
+    underside alone, else the deck, mats and the load's underside); and the struck
+    member's end condition and position band where its own bending is most of the
+    framing's compliance (the envelope over every condition and band elsewhere: over
+    a girder or a column the member struck is not the one that moves)."""
+    d, inp, comp, sm = c.drop, c[LoadInputs], c[Compliance], c[StruckMass]
+    f_beyond = np.where(inp.crushable, comp.f_struct, comp.f)
+    m_path = table_mass(d.geo.path.m_e, d.geo.path.w_ref, d.geo.path.f)
+    key = struck_member_table(c)
+    w_own = own_table_weight(key["own"], comp.f_s, comp.f_col)
+    cond = np.where(w_own > 0.0, key["cond"], -1)
+    return amp_mod.amplification(inp.M, m_path, f_beyond - comp.f_s, comp.f_s,
+                                 struck_mass=sm.m_e > 0.0, cond=cond, xi=key["xi"],
+                                 own_weight=w_own)
 
 
 def table_mass(m_e: np.ndarray, w_ref: np.ndarray, f: np.ndarray) -> np.ndarray:
@@ -4573,21 +4603,85 @@ def two_force_elastic_height(c: Chain, h_el: np.ndarray,
     return h
 
 
-def amplified_utilisation_at(c: Chain, h: np.ndarray) -> np.ndarray:
+def amplified_utilisation_at(c: Chain, h: np.ndarray,
+                             rows: np.ndarray | None = None) -> np.ndarray:
     """Largest elastic U of every check family at the free falls ``h`` (m): the
     impact at h (:func:`impact_at`) and the bounds of the amplification at h
     (:func:`amplification_at` with no point time history) on step 5's energy-method
     checks (linear in F). The bounds lie at or above what a forward run at h takes
     (a point's own time history only lowers a factor), so a height they allow holds
-    in the forward run whichever points it runs."""
-    imp = impact_at(c, h)
-    amp = amplification_at(c, h, imp, th_points=np.zeros(c.drop.n, dtype=bool))
+    in the forward run whichever points it runs. ``rows`` (indices, ascending): work
+    out only these points (every step read is per point, :func:`rows_chain`); U is
+    then NaN at the others."""
+    if rows is None:
+        imp = impact_at(c, h)
+        amp = amplification_at(c, h, imp, th_points=np.zeros(c.drop.n, dtype=bool))
+        factor, F, ratio = amp.factor, imp.F, imp.deck_ratio
+    else:
+        sub = rows_chain(c, rows)
+        imp = impact_at(sub, h[rows])
+        amp = amplification_at(sub, h[rows], imp,
+                               th_points=np.zeros(rows.size, dtype=bool))
+        n = c.drop.n
+        factor = {k: _spread(v, rows, n, 1.0) for k, v in amp.factor.items()}
+        F, ratio = _spread(imp.F, rows, n, 0.0), _spread(imp.deck_ratio, rows, n, 1.0)
     # step 5 scaled the deck's families to the planned height's F_deck/F (on_contact);
     # at h the ratio is the impact's at h (as two_force_utilisation_at undoes it):
     # with the planned ratio a random floor's deck flexure read U 1.001 at a fall
     # whose forward run reads 0.770, so no height was found there
-    scale = imp.deck_ratio / c[Impact].deck_ratio
-    return _utilisation(_energy_demands(c), amp.factor, imp.F, scale)
+    scale = ratio / c[Impact].deck_ratio
+    U = _utilisation(_energy_demands(c), factor, F, scale)
+    if rows is not None:
+        U = _spread(U[rows], rows, c.drop.n, np.nan)
+    return U
+
+
+def _spread(v: np.ndarray, rows: np.ndarray, n: int, fill: float) -> np.ndarray:
+    """``v`` (one value per row of ``rows``) at those rows of an array of ``n``, the
+    others ``fill``."""
+    out = np.full(n, fill)
+    out[rows] = v
+    return out
+
+
+def rows_chain(c: Chain, rows: np.ndarray) -> Chain:
+    """A chain of the points ``rows`` (indices) of ``c`` alone: its drop at those rows
+    and the results of steps 1–4 (:class:`LoadInputs`, :class:`Compliance`,
+    :class:`StruckMass`, :class:`Impact`) taken row for row, with the points'
+    load-independent quantities kept with the geometry and the height-free quantities
+    the impact and the bounds read (:func:`web_contact_bound`,
+    :func:`table_amplification`, :func:`bottoming_floors`, :func:`droprig.solver.
+    pointhistory.struck_members`). Every quantity these hold is per point, so a
+    step worked out on it reads, at each row, what it reads on ``c`` at that point
+    (tests/solver/test_rows_chain.py compares them at tolerance 0 on random floors):
+    the confirmation of the amplified heights (:func:`confirm_amplified_height`)
+    re-runs only the points still over."""
+    d = c.drop
+    n = d.n
+
+    def pick(a: np.ndarray) -> np.ndarray:
+        return np.take(a, rows, axis=0)
+
+    def per_point(v: np.ndarray | None) -> np.ndarray | None:
+        return pick(v) if isinstance(v, np.ndarray) and v.ndim > 0 and v.shape[0] == n \
+            else v
+
+    geo = take_geo(d.geo, rows, steps=False, actions=False)
+    for key in ("struck_member_table", "impulse_units"):
+        got = d.geo.cache.get(key)
+        if got is not None and all(v.shape[0] == n for v in got.values()):
+            geo.cache[key] = {k: pick(v) for k, v in got.items()}
+    sub = Chain(replace(d, geo=geo, li=pick(np.asarray(d.li)), H=per_point(d.H),
+                        mat_k=per_point(d.mat_k), tip_off=per_point(d.tip_off)))
+    for kind in (LoadInputs, Compliance, StruckMass, Impact):
+        sub.add(_rows(c[kind], pick, n))
+    F_web, depth = c.once(web_contact_bound)
+    sub._once[web_contact_bound] = (pick(F_web), pick(depth))
+    sub._once[table_amplification] = _rows(c.once(table_amplification), pick, n)
+    sub._once[bottoming_floors] = pick(c.once(bottoming_floors))
+    struck = c.once(pointhistory.struck_members)
+    sub._once[pointhistory.struck_members] = {k: pick(v) for k, v in struck.items()}
+    return sub
 
 
 def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
@@ -4598,7 +4692,30 @@ def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
     (:func:`amplified_utilisation_at`) and lowered by (0.98/U)² where U > 1 (F ∝ √h
     for a drop large against the static deflection, Gere 7th ed. Eq. 9-94), until
     every point holds (at most :data:`_CONFIRM_ROUNDS` rounds; a point still over then
-    gets no height, NaN)."""
+    gets no height, NaN). Each round re-runs only the points the last one lowered
+    (the others' heights, and so their U ≤ 1, are unchanged: every step is per point);
+    :func:`confirm_amplified_height_reference` re-runs every point each round."""
+    h = h_el.copy()
+    todo = np.isfinite(h) & (h > 0.0)  # the points whose U at h is not yet known ≤ 1
+    for _ in range(_CONFIRM_ROUNDS):
+        if not todo.any():
+            return h
+        U = amplified_utilisation_at(c, h, np.flatnonzero(todo))
+        over = todo & (U > 1.0)
+        if not over.any():
+            return h
+        h = np.where(over, h * np.minimum(0.98, (0.98 / U) ** 2), h)
+        todo = over & np.isfinite(h) & (h > 0.0)
+    if not todo.any():
+        return h
+    U = amplified_utilisation_at(c, h, np.flatnonzero(todo))
+    return np.where(todo & (U > 1.0), np.nan, h)
+
+
+def confirm_amplified_height_reference(c: Chain, h_el: np.ndarray) -> np.ndarray:
+    """:func:`confirm_amplified_height` as first written, every live point re-run each
+    round (the plain reference it is compared with at tolerance 0,
+    tests/solver/test_rows_chain.py)."""
     h = h_el.copy()
     for _ in range(_CONFIRM_ROUNDS):
         live = np.isfinite(h) & (h > 0.0)

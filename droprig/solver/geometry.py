@@ -262,12 +262,13 @@ def slice_geo(geo: Geometry, sl: slice) -> Geometry:
 
 
 
-def take_geo(geo: Geometry, idx: np.ndarray, *, steps: bool = True) -> Geometry:
+def take_geo(geo: Geometry, idx: np.ndarray, *, steps: bool = True,
+             actions: bool = True) -> Geometry:
     """The points ``idx`` of ``geo`` (rows in that order), with the load-independent
-    member actions taken along where ``geo`` has them: the same values as
-    :func:`point_geometry` and :func:`~droprig.solver.unit_actions.unit_actions` at
-    those points, without working them out again (every quantity is per point); with
-    ``steps``, the chain's height-free step results kept with ``geo``
+    member actions taken along where ``geo`` has them (``actions``): the same values
+    as :func:`point_geometry` and :func:`~droprig.solver.unit_actions.unit_actions`
+    at those points, without working them out again (every quantity is per point);
+    with ``steps``, the chain's height-free step results kept with ``geo``
     (:class:`KeptSteps`) too."""
     idx = np.asarray(idx)
     if idx.dtype == bool:
@@ -281,7 +282,7 @@ def take_geo(geo: Geometry, idx: np.ndarray, *, steps: bool = True) -> Geometry:
     out = Geometry(rows(geo.x), rows(geo.y), path, rows(geo.bay), rows(geo.protection),
                    rows(geo.opening))
     ua = geo.cache.get("ua")
-    if ua is not None:
+    if ua is not None and actions:
         out.cache["ua"] = ua.take(idx)
     for key in PER_POINT_MASSES:
         v = geo.cache.get(key)

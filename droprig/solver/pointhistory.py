@@ -207,7 +207,7 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     a = np.clip(a_path, 1e-6 * L, L * (1.0 - 1e-6))
     EI = fr.EI[m]
     mu = fr.mu[m]
-    cond = np.array([COND_NAMES[int(x)] for x in fr.cond[m]], dtype=object)
+    cond = np.asarray(COND_NAMES, dtype=object)[np.asarray(fr.cond, int)[m]]
     g_m = np.zeros(sel.size)
     g_path = np.zeros(sel.size)
     for cn in dict.fromkeys(cond.tolist()):
@@ -224,11 +224,11 @@ def struck_member(c: Chain, sel: np.ndarray) -> dict[str, np.ndarray]:
     mu_th = slab_frame(d.fm).mu[m] if d.bare is None else mu
     # the member as a Timoshenko beam: the web's shear stiffness and the section's
     # rotary inertia (timoshenko_terms), per distinct member
-    kGA = np.zeros(sel.size)
-    rhoI = np.zeros(sel.size)
-    for mi in np.unique(m):
-        mem = d.fm.level.members[int(mi)]
-        kGA[m == mi], rhoI[m == mi] = timoshenko_terms(mem.section, mem.grade)
+    distinct, back = np.unique(m, return_inverse=True)
+    terms = np.array([timoshenko_terms(d.fm.level.members[int(mi)].section,
+                                       d.fm.level.members[int(mi)].grade)
+                      for mi in distinct], dtype=float).reshape(-1, 2)
+    kGA, rhoI = terms[back.ravel(), 0], terms[back.ravel(), 1]
     W = inp.W[sel]
     F_y = np.where(crushable, inp.F_c[sel], imp.F_cap[sel])
     stroke = np.where(crushable, inp.s_c[sel], imp.cap_depth[sel])
@@ -458,6 +458,37 @@ def member_energy_peaks(s: dict[str, np.ndarray], F: np.ndarray, samples: int = 
     return energy
 
 
+def struck_members(c: Chain) -> dict[str, np.ndarray]:
+    """:func:`struck_member` at every point of the chain (one row per point) with the
+    member's unit-load envelopes of :func:`member_energy_peaks` (``unit_m``, m;
+    ``unit_v``, dimensionless: per N of the member's share), NaN at the points on no
+    member of the path or over a deck opening (the points no bound is worked out
+    at). Height-free: kept with a chain that re-runs the bounds at other heights
+    (:func:`droprig.solver.chain.rows_chain`) for :func:`impulse_factors`, whose rows
+    are those of :func:`struck_member` and :func:`member_energy_peaks` at its points
+    (every quantity is per point)."""
+    d = c.drop
+    n = d.n
+    on = np.flatnonzero((d.geo.path.pair >= 0) & ~d.geo.opening)
+    s = struck_member(c, on)
+    cond = s["cond"]
+    unit_m = np.zeros(on.size)
+    unit_v = np.zeros(on.size)
+    for cn in dict.fromkeys(cond.tolist()):
+        i = cond == cn
+        cc = cast(EndCondition, cn)
+        unit_m[i] = beam.max_abs_moment(cc, s["L"][i], 1.0, s["a"][i])
+        unit_v[i] = beam.max_abs_shear(cc, s["L"][i], 1.0, s["a"][i])
+    s["unit_m"], s["unit_v"] = unit_m, unit_v
+    out: dict[str, np.ndarray] = {}
+    for k, v in s.items():
+        full = np.full(n, None, dtype=object) if v.dtype == object else (
+            np.full(n, -1, dtype=v.dtype) if v.dtype.kind in "iub" else np.full(n, np.nan))
+        full[on] = v
+        out[k] = full
+    return out
+
+
 def impulse_factors(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray
                     ) -> dict[str, np.ndarray]:
     """Factors (dimensionless, per point of ``sel``; not floored at 1) on the chain's
@@ -475,7 +506,8 @@ def impulse_factors(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray
     from droprig.solver.chain import LoadInputs
 
     inp = c[LoadInputs]
-    s = struck_member(c, sel)
+    kept = c.kept(struck_members)  # struck_member's rows, where kept with the chain
+    s = struck_member(c, sel) if kept is None else {k: v[sel] for k, v in kept.items()}
     w = s["share"]
     r = shared_load(w, inp.M[sel], h, s["f_all"], s["g_m"], s["F_yield"], s["stroke"])
     floor = amplification.KAPPA_MIN * s["g_m"]
@@ -486,7 +518,12 @@ def impulse_factors(c: Chain, sel: np.ndarray, h: np.ndarray, F: np.ndarray
         F_yield=r["F_yield"], stroke=r["stroke"], weight=r["weight"],
         n_modes=int(TH_OPTIONS["n_modes"]), cutoff=float(TH_OPTIONS["cutoff"]),
         beta=beta)
-    energy = member_energy_peaks(s, F, unit_d=unit_d)
+    if kept is None:
+        energy = member_energy_peaks(s, F, unit_d=unit_d)
+    else:  # member_energy_peaks(s, F, unit_d=unit_d) with the unit envelopes kept
+        wF = w * F
+        energy = {"force": F, "moment": wF * s["unit_m"], "shear": wF * s["unit_v"],
+                  "deflection": wF * unit_d}
     b["force"] = np.where(r["f_c"] >= floor, b["force"] / w, np.inf)
     out = {}
     with np.errstate(divide="ignore", invalid="ignore"):
