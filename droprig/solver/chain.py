@@ -2265,19 +2265,21 @@ contact change is a round of its own); with it on the demos' analyses took 11–
 against 0.3–0.7 s even with the histories cached (:func:`droprig.solver.pointhistory.
 point_history`) and the confirmation trials at the bounds (:data:`TRIAL_POINT_HISTORY`),
 and lowered the worst U by 1–20 % and no limit (``benchmarks/bench_point_history.py``,
-docs/amplification_record.md); floors keep the bounds (upper bounds of the time
-history)."""
+docs/amplification_record.md); since stop 33 the run points' inverse answers are
+their histories' too, at a cost measured in docs/amplification_record.md (stop 33);
+floors keep the bounds (upper bounds of the time history)."""
 TRIAL_POINT_HISTORY = False
 """Whether a floor's confirmation trials (``Drop.trial``: :mod:`droprig.solver.
-confirm`, a condition tried at every point of a bay) run points' own time history too.
-Off: a trial is judged at the bounds (upper bounds of the time history, above the
-factor a point's own history would give), so a condition that holds in its trial
-holds in any forward run whichever points that run chooses, as the inverse answers
-the trials start from are worked out at the bounds too
-(:func:`amplified_utilisation_at`); a trial the history alone would have passed steps
-back (the offered limit can only be lower, never above the bounds'). The trials were
-most of the cost: the rooftop demo ran 1,525 of its 2,058 point histories (48 of
-its 59 s) in them (``benchmarks/bench_point_history.py``)."""
+confirm`, a condition tried at every point of a bay) choose points for their own time
+history as a forward run does. Off: a trial is judged at the bounds (upper bounds of
+the time history, above the factor a point's own history would give) but for the
+points whose verdict at the bounds would fail it, which run through their own
+history (:func:`_with_trial_histories`, since stop 33: the limits offered are the
+histories' where points ran, :func:`_history_height`, and at the bounds their trials
+stepped back to the bounds'); a condition that holds in its trial holds at every
+tried point's own history. The trials were most of the cost: the rooftop demo ran
+1,525 of its 2,058 point histories (48 of its 59 s) in them
+(``benchmarks/bench_point_history.py``)."""
 TH_LIMIT_CHOICE_ROUNDS = 12
 """Most rounds of the choice by the limits (:func:`_with_limit_histories`), as
 :data:`TH_VERDICT_ROUNDS`: a group whose least limit is still a bound's after it
