@@ -2280,6 +2280,18 @@ stepped back to the bounds'); a condition that holds in its trial holds at every
 tried point's own history. The trials were most of the cost: the rooftop demo ran
 1,525 of its 2,058 point histories (48 of its 59 s) in them
 (``benchmarks/bench_point_history.py``)."""
+LIMIT_POINT_HISTORY = False
+"""With :data:`FLOOR_POINT_HISTORY` on, whether the run points' inverse answers are
+their own histories' too (:func:`_history_height`, the history's A_δ in
+:func:`_plastic_height`), the choice goes on by the limits
+(:func:`_with_limit_histories`) and a confirmation trial runs the points failing at
+their bounds through their history (:func:`_with_trial_histories`). Off: the
+allowable heights and masses are the bounds' (above the history's, so conservative),
+as up to stop 32. Off because of its cost: the two-level demo's switch-on analysis
+took 515.7 CPU s with it against 6.7 s without (the history height search 385 s, the
+choice by limits 232 s, the trials 93 s; docs/amplification_record.md, stop 33),
+while on the steel demo's welder it lifted a run point's elastic allowable height
+from 0.368 m (bounds) to 1.828 m against its history's 1.829 m."""
 TH_LIMIT_CHOICE_ROUNDS = 12
 """Most rounds of the choice by the limits (:func:`_with_limit_histories`), as
 :data:`TH_VERDICT_ROUNDS`: a group whose least limit is still a bound's after it
@@ -3762,7 +3774,7 @@ def _plastic_height(c: Chain, eta: np.ndarray, h_el: np.ndarray,
     # put through their own time history, the history's, as beyond_yield takes it)
     da = c[DynamicAmplification]
     A_D = da.A_deflection if da.A_deflection_bound is None else da.A_deflection_bound
-    if da.th is not None:
+    if LIMIT_POINT_HISTORY and da.th is not None:
         A_D = np.where(da.th, da.A_deflection, A_D)
     h_pl = fall_from_energy(c, h_pl / A_D ** 2)
     # beyond yield only where the mechanism forms before a member without hinge
@@ -4574,7 +4586,7 @@ def _history_height(c: Chain, h_el: np.ndarray, h_b: np.ndarray) -> np.ndarray:
     (:func:`_raise_height`); at least the bounds' answer (the bounds lie above the
     history, so their height holds too)."""
     th = c[DynamicAmplification].th
-    if th is None or not th.any():
+    if not LIMIT_POINT_HISTORY or th is None or not th.any():
         return h_b
     h = _raise_height(c, th, confirm_amplified_height(c, h_el, th))
     return np.where(th & np.isfinite(h) & ~(h <= h_b), h, h_b)
@@ -4911,8 +4923,8 @@ def _with_trial_histories(c: Chain) -> Chain:
     history allows); one whose failing points pass the cap fails, as before."""
     d = c.drop
     da = c[DynamicAmplification]
-    if not FLOOR_POINT_HISTORY or TRIAL_POINT_HISTORY or d.bare is not None or \
-            not d.fm.settings.dynamic_amplification:
+    if not (FLOOR_POINT_HISTORY and LIMIT_POINT_HISTORY) or TRIAL_POINT_HISTORY or \
+            d.bare is not None or not d.fm.settings.dynamic_amplification:
         return c
     A_max = np.maximum(np.maximum(da.A_force, da.A_moment),
                        np.maximum(da.A_shear, da.A_deflection))
@@ -4976,7 +4988,7 @@ def _limit_candidates(c: Chain, per_group: int) -> np.ndarray | None:
     d = c.drop
     da = c[DynamicAmplification]
     if da.th is None or not da.th.any() or d.bare is not None or \
-            not FLOOR_POINT_HISTORY or d.trial:
+            not (FLOOR_POINT_HISTORY and LIMIT_POINT_HISTORY) or d.trial:
         return None
     inv = c[InverseAnswers]
     A_max = np.maximum(np.maximum(da.A_force, da.A_moment),

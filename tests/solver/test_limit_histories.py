@@ -79,6 +79,7 @@ def _drop(w, xs, ys, H=None, trial=False) -> Drop:
 def _run(drop: Drop, floor: bool, every: bool = False):
     with pytest.MonkeyPatch.context() as mp, np.errstate(all="ignore"):
         mp.setattr(chain, "FLOOR_POINT_HISTORY", floor)
+        mp.setattr(chain, "LIMIT_POINT_HISTORY", floor)
         if every:  # no choice: every point through its own history
             mp.setattr(chain, "TH_NEAR_WORST", 0.0)
             mp.setattr(chain, "TH_PER_ROUND", 10 ** 9)

@@ -14,7 +14,8 @@ Sources:
 * the cache and the trial switch are properties of the implementation (the same
   model run once instead of again; no engineering source): a cached history must
   equal a fresh run of the same inputs, and a trial's factors must be the bounds'
-  but at the points that fail at their bounds (stop 33).
+  (with ``chain.LIMIT_POINT_HISTORY`` on, stop 33: but at the points that fail at
+  their bounds).
 
 The demo project is an invented scenario, used as input only.
 """
@@ -164,6 +165,25 @@ def test_refined_verdict_never_below_the_newmark_history(which: str,
                              / ph.energy["moment"], rtol=1e-9) & low)
 
 
+def test_a_trial_is_judged_at_the_bounds(setup, first,
+                                         monkeypatch: pytest.MonkeyPatch) -> None:
+    # a confirmation trial (Drop.trial) runs no point history with
+    # TRIAL_POINT_HISTORY and LIMIT_POINT_HISTORY off, and its factors are the bounds,
+    # at or above the forward run's (a history only lowers a factor)
+    def no_run(*a, **k):
+        raise AssertionError("a trial ran a point history")
+
+    monkeypatch.setattr(pointhistory, "point_history", no_run)
+    da_t = _run(setup, monkeypatch, trial=True)[DynamicAmplification]
+    da = first[DynamicAmplification]
+    assert da_t.history is None and not da_t.th.any()
+    assert da.th is not None
+    for name in da.factor:
+        assert np.all(da_t.factor[name] >= da.factor[name] * (1.0 - 1e-12))
+        # where a history ran and lowered it, strictly above
+    assert np.any(da_t.factor["flexure"][da.th] > da.factor["flexure"][da.th] * 1.01)
+
+
 def test_a_trial_runs_only_the_points_that_fail_at_their_bounds(
         setup, first, monkeypatch: pytest.MonkeyPatch) -> None:
     # a confirmation trial (Drop.trial) with TRIAL_POINT_HISTORY off is judged at the
@@ -183,6 +203,7 @@ def test_a_trial_runs_only_the_points_that_fail_at_their_bounds(
         return real(c, sel, *a, **k)
 
     monkeypatch.setattr(pointhistory, "point_history", spy)
+    monkeypatch.setattr(chain, "LIMIT_POINT_HISTORY", True)
     c_t = _run(setup, monkeypatch, trial=True)
     da_t = c_t[DynamicAmplification]
     da_b = bounds[DynamicAmplification]
