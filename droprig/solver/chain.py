@@ -2338,19 +2338,52 @@ contact change is a round of its own); with it on the demos' analyses took 11–
 against 0.3–0.7 s even with the histories cached (:func:`droprig.solver.pointhistory.
 point_history`) and the confirmation trials at the bounds (:data:`TRIAL_POINT_HISTORY`),
 and lowered the worst U by 1–20 % and no limit (``benchmarks/bench_point_history.py``,
-docs/amplification_record.md); floors keep the bounds (upper bounds of the time
-history)."""
+docs/amplification_record.md); since stop 33 the run points' inverse answers are
+their histories' too, at a cost measured in docs/amplification_record.md (stop 33);
+floors keep the bounds (upper bounds of the time history)."""
 TRIAL_POINT_HISTORY = False
 """Whether a floor's confirmation trials (``Drop.trial``: :mod:`droprig.solver.
-confirm`, a condition tried at every point of a bay) run points' own time history too.
-Off: a trial is judged at the bounds (upper bounds of the time history, above the
-factor a point's own history would give), so a condition that holds in its trial
-holds in any forward run whichever points that run chooses, as the inverse answers
-the trials start from are worked out at the bounds too
-(:func:`amplified_utilisation_at`); a trial the history alone would have passed steps
-back (the offered limit can only be lower, never above the bounds'). The trials were
-most of the cost: the rooftop demo ran 1,525 of its 2,058 point histories (48 of
-its 59 s) in them (``benchmarks/bench_point_history.py``)."""
+confirm`, a condition tried at every point of a bay) choose points for their own time
+history as a forward run does. Off: a trial is judged at the bounds (upper bounds of
+the time history, above the factor a point's own history would give) but for the
+points whose verdict at the bounds would fail it, which run through their own
+history (:func:`_with_trial_histories`, since stop 33: the limits offered are the
+histories' where points ran, :func:`_history_height`, and at the bounds their trials
+stepped back to the bounds'); a condition that holds in its trial holds at every
+tried point's own history. The trials were most of the cost: the rooftop demo ran
+1,525 of its 2,058 point histories (48 of its 59 s) in them
+(``benchmarks/bench_point_history.py``)."""
+LIMIT_POINT_HISTORY = False
+"""With :data:`FLOOR_POINT_HISTORY` on, whether the run points' inverse answers are
+their own histories' too (:func:`_history_height`, the history's A_δ in
+:func:`_plastic_height`), the choice goes on by the limits
+(:func:`_with_limit_histories`) and a confirmation trial runs the points failing at
+their bounds through their history (:func:`_with_trial_histories`). Off: the
+allowable heights and masses are the bounds' (above the history's, so conservative),
+as up to stop 32. Off because of its cost: the two-level demo's switch-on analysis
+took 515.7 CPU s with it against 6.7 s without (the history height search 385 s, the
+choice by limits 232 s, the trials 93 s; docs/amplification_record.md, stop 33),
+while on the steel demo's welder it lifted a run point's elastic allowable height
+from 0.368 m (bounds) to 1.828 m against its history's 1.829 m."""
+TH_LIMIT_CHOICE_ROUNDS = 12
+"""Most rounds of the choice by the limits (:func:`_with_limit_histories`), as
+:data:`TH_VERDICT_ROUNDS`: a group whose least limit is still a bound's after it
+keeps that bound (conservative)."""
+TH_TRIAL_U = 0.98
+"""U above which a trial's point at its bounds would fail an elastic condition's
+trial (droprig.solver.confirm.CONFIRM_U) and is run through its own history
+(:func:`_with_trial_histories`)."""
+TH_TRIAL_PER_GROUP = 64
+"""Most points per group (bay × load) of a trial run through their own history
+(:func:`_with_trial_histories`): a cost cap; a trial with more failing points at
+their bounds fails and steps back."""
+TH_LIMIT_UP_ROUNDS = 4
+"""Rounds in which a point's history-confirmed allowable height is raised towards
+the height where its own history reaches U = 1 (:func:`_history_height`): the
+confirmation only lowers a closed form worked out with the factors at the planned
+height."""
+TH_LIMIT_UP_U = 0.995
+"""A history-confirmed allowable height is raised only where its U is below this."""
 TH_NEAR_WORST = 0.9
 """Points whose bounded U is within 10 % of their group's worst (bay × load) could set
 the group's limit."""
@@ -2776,15 +2809,15 @@ def _point_histories(c: Chain, h: np.ndarray, F: np.ndarray, factor: dict[str, n
     n = d.n
     th = np.zeros(n, dtype=bool)
     floor_off = not FLOOR_POINT_HISTORY or (d.trial and not TRIAL_POINT_HISTORY)
-    if d.bare is None and floor_off:
-        return th, None
-    ok = _history_ok(d, F, h)
-    if th_points is not None:
-        th = np.asarray(th_points, bool) & ok
+    if th_points is not None:  # given (a later choice's, or the inverse answers')
+        th = np.asarray(th_points, bool) & _history_ok(d, F, h)
         if not th.any():
             return th, None
         idx = np.flatnonzero(th)
         return th, pointhistory.point_history(c, idx, h[idx], F[idx])
+    if d.bare is None and floor_off:
+        return th, None
+    ok = _history_ok(d, F, h)
     dem = _energy_demands(c)
     U_now = _utilisation(dem, factor, F)
     U_e = _utilisation(dem, {k: np.ones(n) for k in factor}, F)  # energy method
@@ -3783,7 +3816,8 @@ def _elastic_height(c: Chain, eta: np.ndarray, Fa_pos: np.ndarray,
     # the energy heights above as free falls: less the hoist's lowering speed head
     h_el = fall_from_energy(c, h_el)
     if d.fm.settings.dynamic_amplification and not d.trial:
-        h_el = confirm_amplified_height(c, h_el)
+        h_b = confirm_amplified_height(c, h_el)
+        h_el = _history_height(c, h_el, h_b)
     elif kern is not None:
         h_el = two_force_elastic_height(c, h_el, kern)
     return h_el
@@ -3819,10 +3853,12 @@ def _plastic_height(c: Chain, eta: np.ndarray, h_el: np.ndarray,
     # (the layer's work where the framing stays below R_p while it crushes)
     h_pl = with_crush_energy(h_pl, crushable & (c.once(crushing_peak) < R_p), F_c, s_c, W, eta)
     # the drop height that gives the structure that energy after amplification (A_δ²)
-    # (the bounds' factor: a forward run at that height may not run the point's own
-    # time history, and the bounds lie above it)
+    # (the bounds' factor, which lie above the history; at the points the forward run
+    # put through their own time history, the history's, as beyond_yield takes it)
     da = c[DynamicAmplification]
     A_D = da.A_deflection if da.A_deflection_bound is None else da.A_deflection_bound
+    if LIMIT_POINT_HISTORY and da.th is not None:
+        A_D = np.where(da.th, da.A_deflection, A_D)
     h_pl = fall_from_energy(c, h_pl / A_D ** 2)
     # beyond yield only where the mechanism forms before a member without hinge
     # capacity reaches its flexural resistance
@@ -4604,16 +4640,25 @@ def two_force_elastic_height(c: Chain, h_el: np.ndarray,
 
 
 def amplified_utilisation_at(c: Chain, h: np.ndarray,
+                             th: np.ndarray | None = None,
                              rows: np.ndarray | None = None) -> np.ndarray:
     """Largest elastic U of every check family at the free falls ``h`` (m): the
     impact at h (:func:`impact_at`) and the bounds of the amplification at h
-    (:func:`amplification_at` with no point time history) on step 5's energy-method
-    checks (linear in F). The bounds lie at or above what a forward run at h takes
-    (a point's own time history only lowers a factor), so a height they allow holds
-    in the forward run whichever points it runs. ``rows`` (indices, ascending): work
-    out only these points (every step read is per point, :func:`rows_chain`); U is
-    then NaN at the others."""
-    if rows is None:
+    (:func:`amplification_at`) on step 5's energy-method checks (linear in F); ``th``
+    (bool per point, None none): these points take their own time history at h
+    (:func:`droprig.solver.pointhistory.point_history`, the factor the lesser of it
+    and the bounds, as a forward run that runs them; with
+    :data:`LIMIT_POINT_HISTORY`). The bounds lie at or above what a forward run at h
+    takes (a point's own time history only lowers a factor), so a height they allow
+    holds in the forward run whichever points it runs. ``rows`` (indices, ascending;
+    without ``th``): work out only these points (every step read is per point,
+    :func:`rows_chain`); U is then NaN at the others."""
+    if th is not None:
+        imp = impact_at(c, h)
+        amp = amplification_at(c, h, imp, th_points=np.asarray(th, bool))
+        factor, F, ratio = amp.factor, imp.F, imp.deck_ratio
+        rows = None
+    elif rows is None:
         imp = impact_at(c, h)
         amp = amplification_at(c, h, imp, th_points=np.zeros(c.drop.n, dtype=bool))
         factor, F, ratio = amp.factor, imp.F, imp.deck_ratio
@@ -4684,7 +4729,57 @@ def rows_chain(c: Chain, rows: np.ndarray) -> Chain:
     return sub
 
 
-def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
+def _history_height(c: Chain, h_el: np.ndarray, h_b: np.ndarray) -> np.ndarray:
+    """The elastic allowable free falls (m) with the bounds' answers ``h_b``, and at
+    the points the forward run put through their own time history
+    (:attr:`DynamicAmplification.th`) their history's: the closed form ``h_el`` (at
+    those points already on the history's factors at the planned height) confirmed
+    by :func:`confirm_amplified_height` with each point's own history at each trial
+    fall, then raised towards the fall where the history reaches U = 1
+    (:func:`_raise_height`); at least the bounds' answer (the bounds lie above the
+    history, so their height holds too)."""
+    th = c[DynamicAmplification].th
+    if not LIMIT_POINT_HISTORY or th is None or not th.any():
+        return h_b
+    h = _raise_height(c, th, confirm_amplified_height(c, h_el, th))
+    return np.where(th & np.isfinite(h) & ~(h <= h_b), h, h_b)
+
+
+def _raise_height(c: Chain, th: np.ndarray, h: np.ndarray) -> np.ndarray:
+    """The falls ``h`` (m) at the points ``th``, each one its own history passes,
+    raised for at most :data:`TH_LIMIT_UP_ROUNDS` rounds while its U there is below
+    :data:`TH_LIMIT_UP_U`: to h·(0.99/U)² (F ∝ √h, Gere 7th ed. Eq. 9-94; at most
+    × 4) until a fall fails, then within the bracket [pass, fail] by the power law
+    U ∝ hᵖ through its ends (p at least 0.1); a trial that passes becomes the answer.
+    Stops where the bracket is within 4 %. Only passing falls are ever returned."""
+    h = h.copy()
+    hi = np.full(h.shape, np.inf)
+    U_hi = np.full(h.shape, np.nan)
+    for _ in range(TH_LIMIT_UP_ROUNDS):
+        live = th & np.isfinite(h) & (h > 0.0) & (hi > 1.04 * h)
+        if not live.any():
+            break
+        U = amplified_utilisation_at(c, np.where(live, h, 0.0), live)
+        low = live & np.isfinite(U) & (U > 0.0) & (U < TH_LIMIT_UP_U)
+        if not low.any():
+            break
+        Ul = np.where(low, U, 1.0)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            p = np.log(U_hi / Ul) / np.log(hi / h)
+            p = np.where(np.isfinite(hi) & np.isfinite(p), np.maximum(p, 0.1), 0.5)
+            up = h * np.minimum((0.99 / Ul) ** (1.0 / p), 4.0)
+        up = np.where(np.isfinite(hi), np.clip(up, 1.01 * h, 0.99 * hi), up)
+        up = np.where(low, up, 0.0)
+        U_up = amplified_utilisation_at(c, up, low)
+        ok = low & (U_up <= 1.0)
+        fail = low & ~ok
+        h = np.where(ok, up, h)
+        hi, U_hi = np.where(fail, up, hi), np.where(fail, U_up, U_hi)
+    return h
+
+
+def confirm_amplified_height(c: Chain, h_el: np.ndarray,
+                             th: np.ndarray | None = None) -> np.ndarray:
     """The elastic allowable free fall with dynamic amplification, m: the factors
     depend on the height (the rigid-base and crushing bounds, the energy method's own
     force), so the closed form's height — with the factors at the planned height — is
@@ -4694,13 +4789,17 @@ def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
     every point holds (at most :data:`_CONFIRM_ROUNDS` rounds; a point still over then
     gets no height, NaN). Each round re-runs only the points the last one lowered
     (the others' heights, and so their U ≤ 1, are unchanged: every step is per point);
-    :func:`confirm_amplified_height_reference` re-runs every point each round."""
+    :func:`confirm_amplified_height_reference` re-runs every point each round. With
+    ``th`` (:data:`LIMIT_POINT_HISTORY`) only those points are searched, each on its
+    own time history (:func:`_confirm_on_histories`; the others: NaN)."""
+    if th is not None:
+        return _confirm_on_histories(c, h_el, th)
     h = h_el.copy()
     todo = np.isfinite(h) & (h > 0.0)  # the points whose U at h is not yet known ≤ 1
     for _ in range(_CONFIRM_ROUNDS):
         if not todo.any():
             return h
-        U = amplified_utilisation_at(c, h, np.flatnonzero(todo))
+        U = amplified_utilisation_at(c, h, rows=np.flatnonzero(todo))
         over = todo & (U > 1.0)
         if not over.any():
             return h
@@ -4708,7 +4807,7 @@ def confirm_amplified_height(c: Chain, h_el: np.ndarray) -> np.ndarray:
         todo = over & np.isfinite(h) & (h > 0.0)
     if not todo.any():
         return h
-    U = amplified_utilisation_at(c, h, np.flatnonzero(todo))
+    U = amplified_utilisation_at(c, h, rows=np.flatnonzero(todo))
     return np.where(todo & (U > 1.0), np.nan, h)
 
 
@@ -4716,19 +4815,28 @@ def confirm_amplified_height_reference(c: Chain, h_el: np.ndarray) -> np.ndarray
     """:func:`confirm_amplified_height` as first written, every live point re-run each
     round (the plain reference it is compared with at tolerance 0,
     tests/solver/test_rows_chain.py)."""
-    h = h_el.copy()
+    return _confirm_on_histories(c, h_el, None)
+
+
+def _confirm_on_histories(c: Chain, h_el: np.ndarray,
+                          th: np.ndarray | None) -> np.ndarray:
+    """:func:`confirm_amplified_height`'s rounds with every live point re-run each
+    round, the points ``th`` on their own time history at each trial fall and only
+    they searched (the others NaN); ``None``: every point at the bounds (the plain
+    reference)."""
+    h = h_el.copy() if th is None else np.where(th, h_el, np.nan)
     for _ in range(_CONFIRM_ROUNDS):
         live = np.isfinite(h) & (h > 0.0)
         if not live.any():
             break
         U = np.ones(c.drop.n)
-        U[live] = amplified_utilisation_at(c, np.where(live, h, 0.0))[live]
+        U[live] = amplified_utilisation_at(c, np.where(live, h, 0.0), th)[live]
         over = live & (U > 1.0)
         if not over.any():
             return h
         h = np.where(over, h * np.minimum(0.98, (0.98 / U) ** 2), h)
     live = np.isfinite(h) & (h > 0.0)
-    U = amplified_utilisation_at(c, np.where(live, h, 0.0))
+    U = amplified_utilisation_at(c, np.where(live, h, 0.0), th)
     return np.where(live & (U > 1.0), np.nan, h)
 
 
@@ -4914,7 +5022,10 @@ def run_chain(drop: Drop, given: Mapping[type, object] | None = None) -> Chain:
         else:
             chain.add(step(chain))
         if step is beyond_yield:
-            chain = _with_verdict_histories(chain)
+            chain = (_with_trial_histories(chain) if drop.trial and not TRIAL_POINT_HISTORY
+                     else _with_verdict_histories(chain))
+        elif step is inverse_answers:
+            chain = _with_limit_histories(chain)
     return chain
 
 
@@ -4984,6 +5095,108 @@ def _history_candidates(c: Chain, per_group: int) -> np.ndarray | None:
         return None
     th = da.th.copy()
     th[_top_per_group(sev, gi, cand, per_group)] = True
+    return th
+
+
+def _with_trial_histories(c: Chain) -> Chain:
+    """A confirmation trial (``Drop.trial``) with the floors' point histories on and
+    :data:`TRIAL_POINT_HISTORY` off: the points whose verdict at the bounds would fail
+    a trial — a response beyond *plastic*, or U above :data:`TH_TRIAL_U` — are run
+    through their own time history at their trial fall (at most
+    :data:`TH_TRIAL_PER_GROUP` per group, the worst first), and the steps from the
+    amplification to the verdict run again. A limit offered from the points'
+    histories (:func:`_history_height`) would otherwise step back to the bounds' in
+    its trial. Every point left at its bounds lies above its own history, so a trial
+    that holds holds at every tried point's own history (never above what the
+    history allows); one whose failing points pass the cap fails, as before."""
+    d = c.drop
+    da = c[DynamicAmplification]
+    if not (FLOOR_POINT_HISTORY and LIMIT_POINT_HISTORY) or TRIAL_POINT_HISTORY or \
+            d.bare is not None or not d.fm.settings.dynamic_amplification:
+        return c
+    A_max = np.maximum(np.maximum(da.A_force, da.A_moment),
+                       np.maximum(da.A_shear, da.A_deflection))
+    ok = _history_ok(d, c[Impact].F, c[LoadInputs].h) & (A_max > 1.0 + 1e-9)
+    U, resp = c[Checks].U, c[BeyondYield].response
+    cand = np.flatnonzero(ok & ((resp > PLASTIC) | (U > TH_TRIAL_U)))
+    if cand.size == 0:
+        return c
+    th = np.zeros(d.n, dtype=bool)
+    th[_top_per_group(severity(U, resp), _groups(d), cand, TH_TRIAL_PER_GROUP)] = True
+    new = Chain(d)
+    for r in c.history:
+        if isinstance(r, DynamicAmplification):
+            break
+        new.add(r)
+    new.add(amplification_at(new, new[LoadInputs].h, new[Impact], th_points=th))
+    for step in VERDICT_STEPS:
+        new.add(step(new))
+    return new
+
+
+def _with_limit_histories(c: Chain) -> Chain:
+    """``c`` with more points run through their own time history where a limit at
+    the bounds could set its group's (bay × load) least limit: the mirror of
+    :func:`_with_verdict_histories` for the inverse answers. A bay offers the least
+    allowable height (elastic, beyond yield) and mass over its points; a point run
+    through its history takes its answers from that history (:func:`_history_height`),
+    one left at its bounds the bounds' (lower: the bounds lie above the history). So
+    a point at its bounds whose answer is below the least of its group's run points
+    would set the bay's limit by a bound: round by round (at most
+    :data:`TH_LIMIT_CHOICE_ROUNDS`) the lowest :data:`TH_PER_ROUND` · 2^k of them per
+    group (:func:`_limit_candidates`) are run, and the steps from the amplification
+    to the inverse answers run again. What is left at its bounds after the cap keeps
+    the bounds' answer (conservative)."""
+    for k in range(TH_LIMIT_CHOICE_ROUNDS):
+        th = _limit_candidates(c, TH_PER_ROUND << k)
+        if th is None:
+            return c
+        new = Chain(c.drop)
+        for r in c.history:
+            if isinstance(r, DynamicAmplification):
+                break
+            new.add(r)
+        new.add(amplification_at(new, new[LoadInputs].h, new[Impact], th_points=th))
+        for step in (*VERDICT_STEPS, inverse_answers):
+            new.add(step(new))
+        c = new
+    return c
+
+
+def _limit_candidates(c: Chain, per_group: int) -> np.ndarray | None:
+    """The points to run through their own time history for the limits (bool per
+    point): those already run and, in each group (bay × load), the ``per_group``
+    furthest below the least of the group's run points in an inverse answer — the
+    elastic or plastic allowable height or the allowable mass (no answer, NaN, as
+    0) — among the points left at their bounds where the amplification acts (a
+    group with no run point keeps its bounds: its first choice found no point whose
+    bounds lie above the energy method's U).
+    ``None``: nothing to add (the setting or the floors' histories off, a trial, no
+    run point, or no bounded answer below the run points' least)."""
+    d = c.drop
+    da = c[DynamicAmplification]
+    if da.th is None or not da.th.any() or d.bare is not None or \
+            not (FLOOR_POINT_HISTORY and LIMIT_POINT_HISTORY) or d.trial:
+        return None
+    inv = c[InverseAnswers]
+    A_max = np.maximum(np.maximum(da.A_force, da.A_moment),
+                       np.maximum(da.A_shear, da.A_deflection))
+    ok = _history_ok(d, c[Impact].F, c[LoadInputs].h) & (A_max > 1.0 + 1e-9) & ~da.th
+    gi = _groups(d)
+    below = np.zeros(d.n)
+    for v in (inv.h_el, inv.h_pl, inv.m_allow):
+        v = np.where(np.isnan(v), 0.0, v)
+        least = np.full(gi.max(initial=-1) + 1, np.inf)
+        np.minimum.at(least, gi, np.where(da.th, v, np.inf))
+        with np.errstate(divide="ignore", invalid="ignore"):
+            r = np.where(np.isfinite(least[gi]) & (v < least[gi] * (1.0 - 1e-9)),
+                         least[gi] / v, 0.0)
+        below = np.maximum(below, np.where(np.isnan(r), np.inf, r))
+    cand = np.flatnonzero(ok & (below > 0.0))
+    if cand.size == 0:
+        return None
+    th = da.th.copy()
+    th[_top_per_group(below, gi, cand, per_group)] = True
     return th
 
 

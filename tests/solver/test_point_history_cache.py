@@ -13,7 +13,9 @@ Sources:
   tolerance below is 2 % on a single point;
 * the cache and the trial switch are properties of the implementation (the same
   model run once instead of again; no engineering source): a cached history must
-  equal a fresh run of the same inputs, and a trial's factors must be the bounds'.
+  equal a fresh run of the same inputs, and a trial's factors must be the bounds'
+  (with ``chain.LIMIT_POINT_HISTORY`` on, stop 33: but at the points that fail at
+  their bounds).
 
 The demo project is an invented scenario, used as input only.
 """
@@ -166,8 +168,8 @@ def test_refined_verdict_never_below_the_newmark_history(which: str,
 def test_a_trial_is_judged_at_the_bounds(setup, first,
                                          monkeypatch: pytest.MonkeyPatch) -> None:
     # a confirmation trial (Drop.trial) runs no point history with
-    # TRIAL_POINT_HISTORY off, and its factors are the bounds, at or above the forward
-    # run's (a history only lowers a factor)
+    # TRIAL_POINT_HISTORY and LIMIT_POINT_HISTORY off, and its factors are the bounds,
+    # at or above the forward run's (a history only lowers a factor)
     def no_run(*a, **k):
         raise AssertionError("a trial ran a point history")
 
@@ -180,3 +182,42 @@ def test_a_trial_is_judged_at_the_bounds(setup, first,
         assert np.all(da_t.factor[name] >= da.factor[name] * (1.0 - 1e-12))
         # where a history ran and lowered it, strictly above
     assert np.any(da_t.factor["flexure"][da.th] > da.factor["flexure"][da.th] * 1.01)
+
+
+def test_a_trial_runs_only_the_points_that_fail_at_their_bounds(
+        setup, first, monkeypatch: pytest.MonkeyPatch) -> None:
+    # a confirmation trial (Drop.trial) with TRIAL_POINT_HISTORY off is judged at the
+    # bounds, at or above the forward run's factors (a history only lowers a
+    # factor), but for the points whose verdict at the bounds would fail a trial
+    # (U above chain.TH_TRIAL_U, or a response beyond plastic): since stop 33 those
+    # run through their own history (chain._with_trial_histories), lest a limit
+    # offered from the histories step back to the bounds'
+    p, fm, loads, geo, li = setup
+    with np.errstate(all="ignore"):
+        bounds = run_chain(Drop(fm, p, geo, loads, li, True, trial=True))  # switch off
+    ran: list[np.ndarray] = []
+    real = pointhistory.point_history
+
+    def spy(c, sel, *a, **k):
+        ran.append(np.asarray(sel).copy())
+        return real(c, sel, *a, **k)
+
+    monkeypatch.setattr(pointhistory, "point_history", spy)
+    monkeypatch.setattr(chain, "LIMIT_POINT_HISTORY", True)
+    c_t = _run(setup, monkeypatch, trial=True)
+    da_t = c_t[DynamicAmplification]
+    da_b = bounds[DynamicAmplification]
+    da = first[DynamicAmplification]
+    U_b, resp_b = bounds[chain.Checks].U, bounds[chain.BeyondYield].response
+    failing = (U_b > chain.TH_TRIAL_U) | (resp_b > chain.PLASTIC)
+    assert ran and da_t.th.any()
+    idx = np.unique(np.concatenate(ran))
+    assert np.all(failing[idx])  # only points failing at their bounds were run
+    assert np.array_equal(np.flatnonzero(da_t.th), idx)
+    for name in da.factor:
+        # elsewhere the bounds, at or above the forward run's factors
+        off = ~da_t.th
+        assert np.array_equal(da_t.factor[name][off], da_b.factor[name][off])
+        assert np.all(da_b.factor[name] >= da.factor[name] * (1.0 - 1e-12))
+    # where a history ran and lowered it, strictly below the bounds
+    assert np.any(da_t.factor["flexure"][da_t.th] < da_b.factor["flexure"][da_t.th] / 1.01)

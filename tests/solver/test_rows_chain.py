@@ -76,7 +76,7 @@ def test_rows_give_the_full_runs_utilisation(name, p) -> None:
         for h in (10 ** rng.uniform(-3, 1, n), c[LoadInputs].h * rng.uniform(0.1, 2, n)):
             full = chain.amplified_utilisation_at(c, h)
             rows = np.flatnonzero(rng.random(n) < 0.4)
-            got = chain.amplified_utilisation_at(c, h, rows)
+            got = chain.amplified_utilisation_at(c, h, rows=rows)
             np.testing.assert_array_equal(got[rows], full[rows])
             assert np.isnan(np.delete(got, rows)).all()
             # the rows' chain: the impact and every factor of the bounds
