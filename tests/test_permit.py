@@ -278,8 +278,12 @@ def _permit(seed: int) -> tuple[Project, PermitConditions]:
     return project, _PERMITS[seed]
 
 
-@pytest.mark.parametrize("chunk", range(0, N_LOOP, 10))
-def test_every_condition_works_when_followed(chunk):
+def every_condition_works_when_followed(chunk: int) -> None:
+    """The closed loop over the random projects ``chunk`` … ``chunk`` + 9: every
+    printed condition applied and re-analysed (:func:`_check_followed`), every
+    exclusion needed (:func:`_check_exclusion_needed`). Run by
+    tests/test_permit_loop_a.py and tests/test_permit_loop_b.py, two files so that the
+    suite's workers (one file each, ``--dist loadfile``) share the loop."""
     applied = excluded = 0
     for seed in range(chunk, chunk + 10):
         project, pc = _permit(seed)
