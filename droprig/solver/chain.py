@@ -59,7 +59,7 @@ from __future__ import annotations
 
 import itertools
 from collections import OrderedDict
-from collections.abc import Callable, Mapping
+from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass, fields, replace
 from typing import NamedTuple, TypeVar, cast
 
@@ -932,11 +932,8 @@ def _tilted_mat_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
     Only where the whole base lies on those mats in both plan orientations: a base
     partly off them turns down onto the bare deck beside them, in parallel with the
     mat and far stiffer, so no mat is credited there (f_mat = 0, conservative)."""
-    prot, lv, geo = d.project.protection_areas, d.fm.level, d.geo
-    pa = prot[i]
-    together = [j for j, o in enumerate(prot)
-                if o.level_id == lv.id and o.kind == "spring"
-                and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+    prot, geo = d.project.protection_areas, d.geo
+    together = _pads_like(d, i, "spring")
     xs, ys, a, b = geo.x[sel], geo.y[sel], fl[sel], fw[sel]
     boxes = [(prot[j].area.x0, prot[j].area.y0, prot[j].area.x1, prot[j].area.y1)
              for j in together]
@@ -984,11 +981,8 @@ def _tilted_crush_credit(d: Drop, i: int, sel: np.ndarray, fl: np.ndarray,
     Where the wedge cannot beat the weight (E ≤ W·s or F_e ≤ W) the strip's own
     credit ``F_strip`` over ``s_strip`` stays (before this the only credit: the
     strip's area, its net work no more than the wedge's)."""
-    prot, lv, geo = d.project.protection_areas, d.fm.level, d.geo
-    pa = prot[i]
-    together = [j for j, o in enumerate(prot)
-                if o.level_id == lv.id and o.kind == "crushable"
-                and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
+    prot, geo = d.project.protection_areas, d.geo
+    together = _pads_like(d, i, "crushable")
     xs, ys, ln, wd = geo.x[sel], geo.y[sel], cl[sel], cw[sel]
     b = np.maximum(fl[sel], fw[sel])
     tilt = landing_tilt(d)
@@ -1115,6 +1109,16 @@ governing (:func:`merge_landings`)."""
 MIN_CONTACT_SIDE = 1e-3
 """Least side of the contact rectangle on the deck, m (a footprint all but wholly over
 an opening or off the deck still bears on a sliver; keeps the contact checks finite)."""
+
+
+def _pads_like(d: Drop, i: int, kind: str) -> list[int]:
+    """Indices of the protection areas laid together with area ``i`` on the drop's
+    level: of ``kind`` and of its thickness (within :data:`_SAME_THICKNESS`), so that a
+    base bearing across their joint bears on one layer."""
+    prot, pa = d.project.protection_areas, d.project.protection_areas[i]
+    return [j for j, o in enumerate(prot)
+            if o.level_id == d.fm.level.id and o.kind == kind
+            and abs(o.thickness - pa.thickness) <= _SAME_THICKNESS]
 
 
 def hoist_head(v_hoist: float) -> float:
@@ -5059,16 +5063,26 @@ def _with_verdict_histories(c: Chain) -> Chain:
         th = _history_candidates(c, TH_PER_ROUND << k)
         if th is None:
             return c
-        new = Chain(c.drop)
-        for r in c.history:
-            if isinstance(r, DynamicAmplification):
-                break
-            new.add(r)
-        new.add(amplification_at(new, new[LoadInputs].h, new[Impact], th_points=th))
-        for step in VERDICT_STEPS:
-            new.add(step(new))
-        c = new
+        c = _rerun_from_amplification(c, th, VERDICT_STEPS)
     return c
+
+
+def _rerun_from_amplification(c: Chain, th: np.ndarray, steps: Sequence[Callable[[Chain], object]]
+                              ) -> Chain:
+    """A new chain with ``c``'s steps before the amplification, the amplification with
+    the points ``th`` (bool per point) run through their own time history, then
+    ``steps`` (the verdict steps, and the inverse answers where the limits are
+    chosen): the one rerun of :func:`_with_verdict_histories`,
+    :func:`_with_trial_histories` and :func:`_with_limit_histories`."""
+    new = Chain(c.drop)
+    for r in c.history:
+        if isinstance(r, DynamicAmplification):
+            break
+        new.add(r)
+    new.add(amplification_at(new, new[LoadInputs].h, new[Impact], th_points=th))
+    for step in steps:
+        new.add(step(new))
+    return new
 
 
 def _history_candidates(c: Chain, per_group: int) -> np.ndarray | None:
@@ -5123,15 +5137,7 @@ def _with_trial_histories(c: Chain) -> Chain:
         return c
     th = np.zeros(d.n, dtype=bool)
     th[_top_per_group(severity(U, resp), _groups(d), cand, TH_TRIAL_PER_GROUP)] = True
-    new = Chain(d)
-    for r in c.history:
-        if isinstance(r, DynamicAmplification):
-            break
-        new.add(r)
-    new.add(amplification_at(new, new[LoadInputs].h, new[Impact], th_points=th))
-    for step in VERDICT_STEPS:
-        new.add(step(new))
-    return new
+    return _rerun_from_amplification(c, th, VERDICT_STEPS)
 
 
 def _with_limit_histories(c: Chain) -> Chain:
@@ -5151,15 +5157,7 @@ def _with_limit_histories(c: Chain) -> Chain:
         th = _limit_candidates(c, TH_PER_ROUND << k)
         if th is None:
             return c
-        new = Chain(c.drop)
-        for r in c.history:
-            if isinstance(r, DynamicAmplification):
-                break
-            new.add(r)
-        new.add(amplification_at(new, new[LoadInputs].h, new[Impact], th_points=th))
-        for step in (*VERDICT_STEPS, inverse_answers):
-            new.add(step(new))
-        c = new
+        c = _rerun_from_amplification(c, th, (*VERDICT_STEPS, inverse_answers))
     return c
 
 
